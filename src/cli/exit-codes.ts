@@ -1,0 +1,9 @@
+/** The one place exit codes are chosen. */
+export const EXIT = {
+  /** Success. */
+  ok: 0,
+  /** `diff --exit-code` found differences (the POSIX convention of comparison utilities). */
+  differences: 1,
+  /** A usage or input error; nothing was written to standard output. */
+  error: 2,
+} as const;

@@ -1,0 +1,44 @@
+import { z } from "zod";
+import { importances } from "../interest/importance.js";
+import { inputFormats } from "../load/types.js";
+
+/** Output formats of a summary. */
+export const outputFormats = ["text", "json"] as const;
+
+const positiveInt = (what: string) =>
+  z.coerce
+    .number({ error: `${what} must be a whole number` })
+    .int(`${what} must be a whole number`)
+    .positive(`${what} must be at least 1`);
+
+/**
+ * Every option of a summary, declared once: type, default and meaning. The CLI parses argv with
+ * commander, then validates here; the core only ever sees the parsed result.
+ */
+export const summaryOptionsSchema = z.object({
+  focus: z.array(z.string()).default([]).describe("Focus path, id or glob; repeatable."),
+  focusFrom: z.string().optional().describe("Read more foci from a file, one per line ('-' = stdin)."),
+  budget: positiveInt("--budget").optional().describe("Line budget (default: terminal height, else 40)."),
+  format: z.enum(outputFormats).default("text").describe("Output format."),
+  inputFormat: z.enum(inputFormats).optional().describe("Input format (default: detected)."),
+  nameField: z.string().min(1).default("name").describe("Field holding a node's name."),
+  childrenField: z.string().min(1).default("children").describe("Field holding a node's children."),
+  sizeField: z.string().min(1).default("size").describe("Field holding a node's own size."),
+  idField: z.string().min(1).default("id").describe("Column holding a row's id."),
+  parentField: z.string().min(1).default("parent").describe("Column holding the parent's id."),
+  pathField: z.string().min(1).default("path").describe("Column holding a row's path."),
+  importance: z.enum(importances).default("depth").describe("A-priori importance: depth or size."),
+  units: z.enum(["auto", "bytes", "plain"]).default("auto").describe("How sizes print."),
+  label: z.string().optional().describe("Label template, e.g. '{title}, {team}'."),
+  pseudonymize: z.boolean().default(false).describe("Print keyed pseudonyms instead of names."),
+  color: z.enum(["auto", "always", "never"]).default("auto").describe("Colour in text output."),
+  maxNodes: positiveInt("--max-nodes").optional().describe("Refuse inputs with more nodes than this."),
+});
+
+export type SummaryCliOptions = z.infer<typeof summaryOptionsSchema>;
+
+/** Environment variable holding the secret for --pseudonymize. */
+export const PSEUDONYM_KEY_ENV = "ESPALIER_PSEUDONYM_KEY";
+
+/** Budget when printing to something that is not a terminal. */
+export const DEFAULT_BUDGET = 40;

@@ -1,0 +1,65 @@
+import { Command, Option } from "commander";
+import { EspalierError } from "../errors.js";
+import { importances } from "../interest/importance.js";
+import { inputFormats } from "../load/types.js";
+import { SUMMARY_EXAMPLES } from "./help.js";
+import type { CliIO } from "./io.js";
+import { outputFormats, summaryOptionsSchema } from "./options.js";
+import { summaryCommand } from "./summary-command.js";
+
+export const VERSION = "0.1.0";
+
+const collect = (value: string, previous: string[]) => [...previous, value];
+
+/**
+ * The command-line interface. Actions return their output as text; `onOutput` receives it so that
+ * nothing is written before the whole result exists (no partial output on error).
+ */
+export function buildProgram(io: CliIO, onOutput: (text: string) => void): Command {
+  const program = new Command("espalier")
+    .description(
+      "Show the part of a large hierarchy that matters, plus enough context, within a line budget.\n" +
+        "Reads nested JSON or YAML, CSV/TSV tables linked by id and parent (or a path column), JSON rows,\n" +
+        "and path lists; scores every node by its degree of interest (Furnas) against the foci.",
+    )
+    .version(VERSION, "-V, --version")
+    .argument("<input>", "file to read, or - for standard input")
+    .option("-f, --focus <path>", "focus path, row id or glob; repeatable", collect, [])
+    .option("--focus-from <file>", "read more foci from a file, one per line (- for standard input)")
+    .option("-b, --budget <lines>", "line budget (default: terminal height, else 40)")
+    .addOption(new Option("--format <format>", "output format").choices(outputFormats).default("text"))
+    .addOption(new Option("--input-format <format>", "input format (default: detected)").choices(inputFormats))
+    .option("--name-field <field>", "field holding a node's name", "name")
+    .option("--children-field <field>", "field holding a node's children", "children")
+    .option("--size-field <field>", "field holding a node's own size", "size")
+    .option("--id-field <column>", "column holding a row's id", "id")
+    .option("--parent-field <column>", "column holding the parent's id", "parent")
+    .option("--path-field <column>", "column holding a row's path", "path")
+    .addOption(
+      new Option("--importance <kind>", "a-priori importance: depth, or size (bigger subtrees matter more)")
+        .choices(importances)
+        .default("depth"),
+    )
+    .addOption(
+      new Option("--units <units>", "sizes as bytes (KiB, MiB) or plain numbers; auto: bytes when the size field is size")
+        .choices(["auto", "bytes", "plain"])
+        .default("auto"),
+    )
+    .option("--label <template>", "label template from record fields, e.g. '{title}, {team}'")
+    .option("--pseudonymize", "print keyed pseudonyms instead of names (secret in ESPALIER_PSEUDONYM_KEY)")
+    .addOption(new Option("--color <when>", "colour in text output").choices(["auto", "always", "never"]).default("auto"))
+    .option("--max-nodes <count>", "refuse inputs with more nodes than this")
+    .addHelpText("after", SUMMARY_EXAMPLES)
+    .showHelpAfterError("(run espalier --help for usage and examples)")
+    .exitOverride()
+    .configureOutput({ writeOut: (s) => io.stdout.write(s), writeErr: (s) => io.stderr.write(s) })
+    .action(async (input: string, raw: Record<string, unknown>) => {
+      const parsed = summaryOptionsSchema.safeParse({ ...raw, pseudonymize: raw.pseudonymize === true });
+      if (!parsed.success) {
+        const issue = parsed.error.issues[0];
+        throw new EspalierError("USAGE", issue.message);
+      }
+      onOutput(await summaryCommand(input, parsed.data, io));
+    });
+  return program;
+}

@@ -1,0 +1,114 @@
+import { EspalierError } from "../errors.js";
+import { loadTree } from "../load/index.js";
+import { defaultLoadOptions, type LoadOptions } from "../load/types.js";
+import { renderJson } from "../render/json.js";
+import { palette } from "../render/palette.js";
+import { renderText } from "../render/text.js";
+import type { Units } from "../render/units.js";
+import { prepare, summarize } from "../summarize.js";
+import { templateFields } from "../view/label.js";
+import type { CliIO } from "./io.js";
+import { DEFAULT_BUDGET, PSEUDONYM_KEY_ENV, type SummaryCliOptions } from "./options.js";
+import { readInput } from "./read-input.js";
+
+/** Reads, summarises and renders one input; returns the text to print (nothing is printed here). */
+export async function summaryCommand(input: string, opts: SummaryCliOptions, io: CliIO): Promise<string> {
+  const foci = [...opts.focus];
+  if (opts.focusFrom !== undefined) foci.push(...(await readFociFile(io, opts.focusFrom, input)));
+  const key = pseudonymKey(opts, io);
+  const text = await readInput(io, input);
+  const loadOptions = toLoadOptions(input, opts);
+  let tree: ReturnType<typeof loadTree>;
+  try {
+    tree = loadTree(text, loadOptions);
+  } catch (err) {
+    throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
+  }
+  const budget = opts.budget ?? defaultBudget(io);
+  const result = summarize(prepare(tree), {
+    foci,
+    budget,
+    importance: opts.importance,
+    label: opts.label,
+    pseudonymKey: key,
+  });
+  if (opts.format === "json") {
+    return renderJson(result.view, {
+      budget,
+      lines: result.selection.lines,
+      foci: result.fociPaths,
+      labels: opts.label !== undefined,
+    });
+  }
+  return renderText(result.view, {
+    units: unitsFor(opts),
+    sizes: tree.hasSizes,
+    palette: palette(useColour(opts, io)),
+  });
+}
+
+export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptions {
+  return {
+    ...defaultLoadOptions,
+    format: opts.inputFormat,
+    file: input === "-" ? undefined : input,
+    nameField: opts.nameField,
+    childrenField: opts.childrenField,
+    sizeField: opts.sizeField,
+    idField: opts.idField,
+    parentField: opts.parentField,
+    pathField: opts.pathField,
+    keepFields: opts.label ? templateFields(opts.label) : [],
+    rootName: input === "-" ? "(stdin)" : baseName(input),
+    maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
+  };
+}
+
+export function displayName(input: string): string {
+  return input === "-" ? "<stdin>" : input;
+}
+
+function baseName(path: string): string {
+  const parts = path.split(/[\\/]/);
+  return parts[parts.length - 1] || path;
+}
+
+/** Sizes print as bytes when the size field is called size or bytes, as plain numbers otherwise. */
+export function unitsFor(opts: SummaryCliOptions): Units {
+  if (opts.units !== "auto") return opts.units;
+  return ["size", "bytes"].includes(opts.sizeField.toLowerCase()) ? "bytes" : "plain";
+}
+
+/** Colour only on a terminal, never with NO_COLOR set (no-color.org) or TERM=dumb, unless forced. */
+export function useColour(opts: SummaryCliOptions, io: CliIO): boolean {
+  if (opts.color !== "auto") return opts.color === "always";
+  if (io.env.NO_COLOR !== undefined && io.env.NO_COLOR !== "") return false;
+  if (io.env.TERM === "dumb") return false;
+  return io.stdout.isTTY === true;
+}
+
+/** The terminal's height less one line for the prompt; 40 when not printing to a terminal. */
+export function defaultBudget(io: CliIO): number {
+  if (io.stdout.isTTY && io.stdout.rows && io.stdout.rows > 2) return io.stdout.rows - 1;
+  return DEFAULT_BUDGET;
+}
+
+function pseudonymKey(opts: SummaryCliOptions, io: CliIO): string | undefined {
+  if (!opts.pseudonymize) return undefined;
+  const key = io.env[PSEUDONYM_KEY_ENV];
+  if (!key) {
+    throw new EspalierError(
+      "USAGE",
+      `--pseudonymize needs a secret in the environment variable ${PSEUDONYM_KEY_ENV} (keep it out of the log)`,
+    );
+  }
+  return key;
+}
+
+async function readFociFile(io: CliIO, name: string, input: string): Promise<string[]> {
+  if (name === "-" && input === "-")
+    throw new EspalierError("USAGE", "standard input cannot hold both the tree and the foci");
+  const text = await readInput(io, name);
+  // One spec per line, taken verbatim (a name may begin or end with spaces); blank lines are skipped.
+  return text.split(/\r?\n/).filter((line) => line !== "");
+}

@@ -1,0 +1,83 @@
+import { EspalierError } from "../errors.js";
+import type { PathIndex } from "../model/paths.js";
+import { parseSegment, splitPath } from "../model/segment.js";
+import { pseudonym } from "../model/pseudonym.js";
+import { isGlob, matchGlob } from "./glob.js";
+import { suggestPath } from "./suggest.js";
+
+/** The node an exact path names, or -1. Glob characters are taken literally here. */
+export function resolvePath(index: PathIndex, spec: string): number {
+  let node = 0;
+  for (const raw of splitPath(spec)) {
+    node = index.child(node, parseSegment(raw));
+    if (node < 0) return -1;
+  }
+  return node;
+}
+
+/** The node a path of pseudonyms names (as printed with a pseudonym key), or -1. */
+export function resolvePseudonymPath(index: PathIndex, spec: string, key: string): number {
+  let node = 0;
+  for (const raw of splitPath(spec)) {
+    const seg = parseSegment(raw);
+    let next = -1;
+    for (const [name, list] of index.childrenByName(node)) {
+      if (pseudonym(key, name) === seg.name) {
+        next = seg.rank <= list.length ? list[seg.rank - 1] : -1;
+        break;
+      }
+    }
+    if (next < 0) return -1;
+    node = next;
+  }
+  return node;
+}
+
+/**
+ * Focus specs -> node indices (sorted, without repeats). Each spec is tried as an exact path, then as a
+ * row id (where rows have ids), then as a glob. A spec that matches nothing is an error that suggests
+ * the closest existing path.
+ */
+export function resolveFoci(index: PathIndex, specs: readonly string[], pseudonymKey?: string): Int32Array {
+  const { tree, measures } = index;
+  const found = new Set<number>();
+  let idMap: Map<string, number> | undefined;
+  for (const spec of specs) {
+    const exact = resolvePath(index, spec);
+    if (exact >= 0) {
+      found.add(exact);
+      continue;
+    }
+    if (pseudonymKey !== undefined) {
+      const viaPseudonyms = resolvePseudonymPath(index, spec, pseudonymKey);
+      if (viaPseudonyms >= 0) {
+        found.add(viaPseudonyms);
+        continue;
+      }
+    }
+    if (tree.ids) {
+      if (!idMap) {
+        idMap = new Map();
+        for (let i = 0; i < tree.length; i++) if (tree.ids[i] !== "") idMap.set(tree.ids[i], i);
+      }
+      const byId = idMap.get(spec);
+      if (byId !== undefined) {
+        found.add(byId);
+        continue;
+      }
+    }
+    if (isGlob(spec)) {
+      const matches = matchGlob(tree, measures, spec);
+      if (matches.length > 0) {
+        for (const m of matches) found.add(m);
+        continue;
+      }
+    }
+    const near = suggestPath(index, spec);
+    throw new EspalierError(
+      "FOCUS_NO_MATCH",
+      `focus ${JSON.stringify(spec)} matches no node${near !== undefined ? `; did you mean ${JSON.stringify(near)}?` : ""}`,
+    );
+  }
+  return Int32Array.from([...found].sort((a, b) => a - b));
+}

@@ -1,0 +1,52 @@
+import { distance } from "fastest-levenshtein";
+import type { PathIndex } from "../model/paths.js";
+import { parseSegment, splitPath } from "../model/segment.js";
+
+/**
+ * The existing path closest to a spec that matched nothing: follow the spec as far as it matches, then
+ * take the child whose name is nearest by edit distance; a node anywhere whose name equals the spec's
+ * last segment wins when there is one (the usual mistake is a wrong or missing ancestor).
+ */
+export function suggestPath(index: PathIndex, spec: string): string | undefined {
+  let raw: string[];
+  try {
+    raw = splitPath(spec);
+  } catch {
+    return undefined;
+  }
+  if (raw.length === 0) return undefined;
+  let last: string;
+  try {
+    last = parseSegment(raw[raw.length - 1]).name;
+  } catch {
+    last = raw[raw.length - 1];
+  }
+  const { tree } = index;
+  for (let i = 1; i < tree.length; i++) if (tree.name[i] === last) return index.path(i);
+
+  let node = 0;
+  for (const text of raw) {
+    let seg: ReturnType<typeof parseSegment>;
+    try {
+      seg = parseSegment(text);
+    } catch {
+      seg = { name: text, rank: 1 };
+    }
+    const next = index.child(node, seg);
+    if (next >= 0) {
+      node = next;
+      continue;
+    }
+    let best = -1;
+    let bestScore = Number.POSITIVE_INFINITY;
+    for (const [name, list] of index.childrenByName(node)) {
+      const score = distance(name.toLowerCase(), seg.name.toLowerCase());
+      if (score < bestScore) {
+        bestScore = score;
+        best = list[0];
+      }
+    }
+    return best >= 0 ? index.path(best) : node > 0 ? index.path(node) : undefined;
+  }
+  return undefined;
+}

@@ -1,0 +1,27 @@
+import type { Measures } from "../model/measure.js";
+import type { Tree } from "../model/tree.js";
+
+/** Choices of a-priori importance (API). Each drops by at least 1 per level, as {@link interest} needs. */
+export const importances = ["depth", "size"] as const;
+export type Importance = (typeof importances)[number];
+
+/**
+ * A-priori importance of every node (Furnas 1986, "Generalized fisheye views", the API term).
+ * - depth: API(x) = -depth(x), Furnas's choice for trees.
+ * - size:  API(x) = -depth(x) + log2((size(x) + 1) / (size(root) + 1)): a node holding a small share of
+ *   the total drops further. Subtree sizes never grow from parent to child (sizes are >= 0), so API
+ *   still drops by at least 1 per level.
+ */
+export function importance(tree: Tree, measures: Measures, kind: Importance): Float64Array {
+  const n = tree.length;
+  const api = new Float64Array(n);
+  const { depth } = tree;
+  if (kind === "depth") {
+    for (let i = 0; i < n; i++) api[i] = 0 - depth[i];
+    return api;
+  }
+  const { size } = measures;
+  const rootLog = Math.log2(Math.max(0, size[0]) + 1);
+  for (let i = 0; i < n; i++) api[i] = -depth[i] + Math.log2(Math.max(0, size[i]) + 1) - rootLog;
+  return api;
+}

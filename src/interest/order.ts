@@ -1,0 +1,32 @@
+import type { Measures } from "../model/measure.js";
+import type { Tree } from "../model/tree.js";
+import type { Interest } from "./doi.js";
+
+/**
+ * The one total order of the nodes that the fitter takes a prefix of. Forced nodes (root, foci and
+ * their ancestors) come first, in pre-order. Then, for the rest:
+ *   1. higher interest first;
+ *   2. nearer to a focus first (a focus's children, then its siblings, then its ancestors' siblings);
+ *   3. shallower first;
+ *   4. more nodes in the subtree first (the bigger team or package before the smaller one);
+ *   5. input order.
+ * No tie-break reads sizes, so a size change alone never reorders nodes under the default importance.
+ * A parent always precedes its children: from a non-forced parent to its child interest drops strictly
+ * (by at least 2 with foci, at least 1 without), because API drops by at least 1 per level.
+ */
+export type NodeOrder = (a: number, b: number) => number;
+
+export function nodeOrder(tree: Tree, measures: Measures, scores: Interest): NodeOrder {
+  const { value, distance, forced } = scores;
+  const { depth } = tree;
+  const { count } = measures;
+  return (a, b) => {
+    if (forced[a] !== forced[b]) return forced[b] - forced[a];
+    if (forced[a]) return a - b;
+    if (value[a] !== value[b]) return value[b] - value[a];
+    if (distance[a] !== distance[b]) return distance[a] - distance[b];
+    if (depth[a] !== depth[b]) return depth[a] - depth[b];
+    if (count[a] !== count[b]) return count[b] - count[a];
+    return a - b;
+  };
+}

@@ -1,0 +1,41 @@
+/** Input formats espalier reads. `rows` is a JSON array of flat records (id + parent, or a path column). */
+export const inputFormats = ["json", "yaml", "csv", "tsv", "rows", "paths"] as const;
+export type InputFormat = (typeof inputFormats)[number];
+
+/** Field names and choices for loading; every field has the documented default. */
+export interface LoadOptions {
+  /** Forced format; detected from the file name and content when undefined. */
+  format?: InputFormat;
+  /** Name shown in error positions and used to detect the format by extension ("-" or undefined for stdin). */
+  file?: string;
+  /** Field holding a node's name (nested formats and tables). Default "name". */
+  nameField: string;
+  /** Field holding a node's children, an array or an object keyed by child name. Default "children". */
+  childrenField: string;
+  /** Field holding a node's own size. Default "size". */
+  sizeField: string;
+  /** Column holding a row's id (tables). Default "id". */
+  idField: string;
+  /** Column holding the parent's id (tables). Default "parent". */
+  parentField: string;
+  /** Column holding a row's full path (tables linked by path). Default "path". */
+  pathField: string;
+  /** Extra record fields to keep per node, e.g. for a label template. */
+  keepFields: readonly string[];
+  /** Name of the root espalier adds when the input has several top-level nodes. */
+  rootName: string;
+  /** Refuse inputs with more nodes than this (LIMIT_EXCEEDED). */
+  maxNodes: number;
+}
+
+export const defaultLoadOptions: LoadOptions = {
+  nameField: "name",
+  childrenField: "children",
+  sizeField: "size",
+  idField: "id",
+  parentField: "parent",
+  pathField: "path",
+  keepFields: [],
+  rootName: "(root)",
+  maxNodes: Number.POSITIVE_INFINITY,
+};

@@ -1,0 +1,131 @@
+import { EspalierError } from "../errors.js";
+import type { Tree } from "./tree.js";
+
+/** Nodes as a loader found them: any order, each linked to its parent by index. */
+export interface LinkedNodes {
+  /** Parent index among these nodes, or -1 for a top-level node. */
+  parentOf: Int32Array;
+  name: string[];
+  ownSize: Float64Array;
+  hasSizes: boolean;
+  ids: string[] | null;
+  /** 1-based line or row of each node. */
+  origin: Int32Array;
+  originIsRow: boolean;
+  fields: Map<string, string[]>;
+  /** Name of the root espalier adds when there are several top-level nodes (or none). */
+  rootName: string;
+}
+
+/**
+ * Orders linked nodes into a pre-order {@link Tree}. Children keep input order. Several top-level nodes
+ * get one synthetic root named `rootName`. Nodes unreachable from a top-level node lie on a cycle, which
+ * is reported with the rows or lines on it. Iterative: no recursion a deep tree could overflow.
+ */
+export function buildTree(input: LinkedNodes, file?: string): Tree {
+  const n = input.parentOf.length;
+  let tops = 0;
+  for (let i = 0; i < n; i++) if (input.parentOf[i] === -1) tops++;
+  const synthetic = tops !== 1;
+  const total = n + (synthetic ? 1 : 0);
+  const rootOld = synthetic ? n : input.parentOf.indexOf(-1);
+  // par: old index -> old parent index, with the synthetic root (if any) at index n.
+  const par = new Int32Array(total);
+  for (let i = 0; i < n; i++) par[i] = input.parentOf[i] === -1 && synthetic ? n : input.parentOf[i];
+  par[rootOld] = -1;
+
+  const firstChild = new Int32Array(total).fill(-1);
+  const lastChild = new Int32Array(total).fill(-1);
+  const nextSib = new Int32Array(total).fill(-1);
+  for (let i = 0; i < n; i++) {
+    const p = par[i];
+    if (p < 0) continue;
+    if (lastChild[p] === -1) firstChild[p] = i;
+    else nextSib[lastChild[p]] = i;
+    lastChild[p] = i;
+  }
+
+  // Pre-order walk without a stack: down to the first child, else across, else up until a sibling.
+  const newIndex = new Int32Array(total).fill(-1);
+  const oldOf = new Int32Array(total);
+  let next = 0;
+  let cur = rootOld;
+  while (cur !== -1) {
+    newIndex[cur] = next;
+    oldOf[next] = cur;
+    next++;
+    if (firstChild[cur] !== -1) {
+      cur = firstChild[cur];
+      continue;
+    }
+    while (cur !== -1 && cur !== rootOld && nextSib[cur] === -1) cur = par[cur];
+    cur = cur === -1 || cur === rootOld ? -1 : nextSib[cur];
+  }
+  if (next < total) throw cycleError(input, par, newIndex, file);
+
+  const parent = new Int32Array(total);
+  const depth = new Int32Array(total);
+  const name: string[] = new Array(total);
+  const ownSize = new Float64Array(total);
+  const origin = new Int32Array(total);
+  const ids: string[] | null = input.ids ? new Array(total) : null;
+  const fields = new Map<string, string[]>();
+  const fieldSources = [...input.fields];
+  for (const [key] of fieldSources) fields.set(key, new Array(total));
+  for (let k = 0; k < total; k++) {
+    const o = oldOf[k];
+    const p = par[o];
+    parent[k] = p === -1 ? -1 : newIndex[p];
+    depth[k] = p === -1 ? 0 : depth[parent[k]] + 1;
+    if (o === n) {
+      name[k] = input.rootName;
+      if (ids) ids[k] = "";
+      for (const [key] of fieldSources) fields.get(key)![k] = "";
+      continue;
+    }
+    name[k] = input.name[o];
+    ownSize[k] = input.ownSize[o];
+    origin[k] = input.origin[o];
+    if (ids) ids[k] = input.ids![o];
+    for (const [key, values] of fieldSources) fields.get(key)![k] = values[o] ?? "";
+  }
+  return {
+    length: total,
+    parent,
+    depth,
+    name,
+    ownSize,
+    hasSizes: input.hasSizes,
+    ids,
+    origin,
+    originIsRow: input.originIsRow,
+    fields,
+    syntheticRoot: synthetic,
+  };
+}
+
+function cycleError(input: LinkedNodes, par: Int32Array, visited: Int32Array, file?: string): EspalierError {
+  const n = input.parentOf.length;
+  let start = 0;
+  while (start < n && visited[start] !== -1) start++;
+  // Walk up from an unreached node until a node repeats: that node is on the cycle.
+  const seen = new Set<number>();
+  let cur = start;
+  while (!seen.has(cur)) {
+    seen.add(cur);
+    cur = par[cur];
+  }
+  const cycle: number[] = [cur];
+  for (let c = par[cur]; c !== cur; c = par[c]) cycle.push(c);
+  const unit = input.originIsRow ? "row" : "line";
+  const where = (i: number) => `${unit} ${input.origin[i]}${input.ids ? ` (id ${JSON.stringify(input.ids[i])})` : ""}`;
+  const first = cycle.reduce((a, b) => (input.origin[a] <= input.origin[b] ? a : b));
+  const pos = input.originIsRow ? { file, row: input.origin[first] } : { file, line: input.origin[first] };
+  if (cycle.length === 1) return new EspalierError("CYCLE", `${where(cur)} is its own parent`, pos);
+  const shown = cycle.slice(0, 6).map(where).join(" -> ");
+  return new EspalierError(
+    "CYCLE",
+    `the parent links form a cycle of ${cycle.length} nodes: ${shown}${cycle.length > 6 ? " -> …" : ""}`,
+    pos,
+  );
+}

@@ -1,0 +1,39 @@
+import type { Tree } from "./tree.js";
+
+/** Subtree aggregates of every node, including the node itself. */
+export interface Measures {
+  /** Nodes in the subtree (>= 1). In pre-order the subtree of i is [i, i + count[i]). */
+  readonly count: Int32Array;
+  /** Sum of own sizes over the subtree. */
+  readonly size: Float64Array;
+  /** Leaves in the subtree. */
+  readonly leaves: Int32Array;
+  /** Edges on the longest downward path (a leaf has height 0). */
+  readonly height: Int32Array;
+}
+
+/** One reverse pass over the pre-order arrays: every child is folded into its parent. */
+export function measure(tree: Tree): Measures {
+  const n = tree.length;
+  const { parent, ownSize } = tree;
+  const count = new Int32Array(n).fill(1);
+  const size = new Float64Array(ownSize);
+  const leaves = new Int32Array(n);
+  const height = new Int32Array(n);
+  for (let i = n - 1; i >= 0; i--) {
+    if (count[i] === 1) leaves[i] = 1;
+    const p = parent[i];
+    if (p < 0) continue;
+    count[p] += count[i];
+    size[p] += size[i];
+    leaves[p] += leaves[i];
+    if (height[i] + 1 > height[p]) height[p] = height[i] + 1;
+  }
+  return { count, size, leaves, height };
+}
+
+/** Children of `i` in input order, using the pre-order layout. */
+export function* childrenOf(count: Int32Array, i: number): Generator<number> {
+  const end = i + count[i];
+  for (let c = i + 1; c < end; c += count[c]) yield c;
+}

@@ -1,0 +1,62 @@
+import type { Measures } from "./measure.js";
+import { escapeSegment, type Segment } from "./segment.js";
+import type { Tree } from "./tree.js";
+
+/**
+ * Printable, re-readable paths of nodes, and the reverse lookup. Per-parent name indexes are built
+ * lazily, only for parents whose children are looked up, so the whole tree never pays for them.
+ */
+export class PathIndex {
+  private readonly byParent = new Map<number, Map<string, number[]>>();
+
+  constructor(
+    readonly tree: Tree,
+    readonly measures: Measures,
+  ) {}
+
+  /** Children of `p` grouped by name, in input order. */
+  childrenByName(p: number): Map<string, number[]> {
+    let map = this.byParent.get(p);
+    if (map) return map;
+    map = new Map();
+    const { count } = this.measures;
+    const end = p + count[p];
+    for (let c = p + 1; c < end; c += count[c]) {
+      const key = this.tree.name[c];
+      const list = map.get(key);
+      if (list) list.push(c);
+      else map.set(key, [c]);
+    }
+    this.byParent.set(p, map);
+    return map;
+  }
+
+  /** The child of `p` that a parsed segment names, or -1. */
+  child(p: number, seg: Segment): number {
+    const list = this.childrenByName(p).get(seg.name);
+    return list && seg.rank <= list.length ? list[seg.rank - 1] : -1;
+  }
+
+  /** The escaped segment of node `i` (with `~~N` when it is the N-th sibling of its name). */
+  segment(i: number, base = escapeSegment(this.tree.name[i])): string {
+    const p = this.tree.parent[i];
+    if (p < 0) return base;
+    const list = this.childrenByName(p).get(this.tree.name[i])!;
+    if (list.length === 1 || list[0] === i) return base;
+    return `${base}~~${list.indexOf(i) + 1}`;
+  }
+
+  /**
+   * The path of node `i`: segments below the root joined by "/"; "" for the root. `base` may replace
+   * each node's escaped name (pseudonyms); the sibling rank still comes from the real names.
+   */
+  path(i: number, base?: (j: number) => string): string {
+    const parts: string[] = [];
+    for (let c = i; this.tree.parent[c] >= 0; c = this.tree.parent[c])
+      parts.push(base ? this.segment(c, base(c)) : this.segment(c));
+    parts.reverse();
+    const joined = parts.join("/");
+    // A first segment that is empty needs the RFC 6901 form with a leading "/" to be read back.
+    return parts.length > 0 && parts[0] === "" ? `/${joined}` : joined;
+  }
+}

@@ -1,0 +1,28 @@
+/**
+ * The whole input as flat arrays, nodes numbered in pre-order (a parent precedes its descendants and a
+ * subtree occupies a contiguous index range), children in input order. Node 0 is the root.
+ */
+export interface Tree {
+  /** Number of nodes. */
+  readonly length: number;
+  /** Parent index; -1 for the root. Always parent[i] < i. */
+  readonly parent: Int32Array;
+  /** Edges from the root; the root has depth 0. */
+  readonly depth: Int32Array;
+  /** The node's own name (not escaped). */
+  readonly name: readonly string[];
+  /** The node's own size (not including descendants); 0 where the input gives none. */
+  readonly ownSize: Float64Array;
+  /** Whether the input carried sizes at all. */
+  readonly hasSizes: boolean;
+  /** The row id of each node, when the input links rows by id; "" for a synthetic root. */
+  readonly ids: readonly string[] | null;
+  /** 1-based line (text formats) or data row (tables) each node came from; 0 for a synthetic root. */
+  readonly origin: Int32Array;
+  /** Whether `origin` counts table rows (true) or text lines (false). */
+  readonly originIsRow: boolean;
+  /** Extra record fields kept for labels, by field name; one string per node ("" when absent). */
+  readonly fields: ReadonlyMap<string, readonly string[]>;
+  /** Whether node 0 was added by espalier to join several top-level nodes. */
+  readonly syntheticRoot: boolean;
+}

@@ -1,0 +1,23 @@
+// C0 and C1 controls, DEL, line and paragraph separators, and the Unicode bidirectional controls
+// (Unicode UAX #9; the "Trojan Source" attack is CVE-2021-42574).
+const UNSAFE = /[\u0000-\u001f\u007f-\u009f\u061c\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2069]/gu;
+
+/** Longest label shown, in code points; longer ones keep both ends around a marker. */
+export const MAX_LABEL = 240;
+
+/**
+ * Makes input text safe to print: every control, separator or bidi control becomes a visible `\u{..}`
+ * escape, so a name can never start a new line or emit a terminal control sequence; very long names
+ * are cut in the middle.
+ */
+export function safeText(text: string, max = MAX_LABEL): string {
+  let out = text.replace(UNSAFE, (ch) => `\\u{${ch.codePointAt(0)!.toString(16)}}`);
+  if (out.length > max) {
+    const points = Array.from(out);
+    if (points.length > max) {
+      const keep = Math.floor((max - 5) / 2);
+      out = `${points.slice(0, keep).join("")}[...]${points.slice(points.length - keep).join("")}`;
+    }
+  }
+  return out;
+}

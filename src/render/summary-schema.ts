@@ -1,0 +1,56 @@
+import { z } from "zod";
+
+/** Name and version of the summary JSON; bump the number when a field changes meaning. */
+export const SUMMARY_FORMAT = "espalier-summary/1";
+
+export const foldedSchema = z
+  .object({
+    children: z.number().int().nonnegative().describe("Hidden children of this node."),
+    nodes: z.number().int().nonnegative().describe("Nodes in the hidden children's subtrees."),
+    size: z.number().describe("Size in the hidden children's subtrees."),
+  })
+  .describe("What is folded under a shown node.");
+
+export interface SummaryNode {
+  name: string;
+  path: string;
+  id?: string;
+  label?: string;
+  interest: number;
+  nodes: number;
+  size: number;
+  focus: boolean;
+  children: SummaryNode[];
+  hidden: z.infer<typeof foldedSchema> | null;
+}
+
+export const summaryNodeSchema: z.ZodType<SummaryNode> = z.lazy(() =>
+  z
+    .object({
+      name: z.string().describe("The node's own name, as in the input."),
+      path: z.string().describe("Path from below the root, RFC 6901 escaping; accepted back as a focus."),
+      id: z.string().optional().describe("Row id, when the input links rows by id."),
+      label: z.string().optional().describe("Display text, when a label template is in use."),
+      interest: z.number().describe("Degree of interest (0 on focus paths, lower is less interesting)."),
+      nodes: z.number().int().positive().describe("Nodes in the subtree, this node included."),
+      size: z.number().describe("Size of the subtree, this node included (0 without sizes)."),
+      focus: z.boolean().describe("Whether the node is a focus."),
+      children: z.array(summaryNodeSchema).describe("Shown children, in input order."),
+      hidden: foldedSchema.nullable().describe("Hidden children folded into counts, or null."),
+    })
+    .strict(),
+);
+
+export const summarySchema = z
+  .object({
+    format: z.literal(SUMMARY_FORMAT),
+    budget: z.number().int().positive().describe("Line budget asked for."),
+    lines: z.number().int().nonnegative().describe("Lines the text rendering of this selection takes."),
+    totals: z.object({ nodes: z.number().int().positive(), size: z.number() }).strict(),
+    foci: z.array(z.string()).describe("Paths of the focus nodes."),
+    root: summaryNodeSchema,
+  })
+  .strict()
+  .describe("espalier summary: the shown part of a hierarchy, with everything hidden counted.");
+
+export type Summary = z.infer<typeof summarySchema>;

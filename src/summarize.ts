@@ -1,0 +1,64 @@
+import { resolveFoci } from "./focus/resolve.js";
+import { select, type Selection } from "./fit/select.js";
+import { type Interest, interest } from "./interest/doi.js";
+import { type Importance, importance } from "./interest/importance.js";
+import { nodeOrder } from "./interest/order.js";
+import { type Measures, measure } from "./model/measure.js";
+import { PathIndex } from "./model/paths.js";
+import { escapeSegment } from "./model/segment.js";
+import type { Tree } from "./model/tree.js";
+import { buildView } from "./view/build-view.js";
+import { compileLabel } from "./view/label.js";
+import { pseudonym } from "./model/pseudonym.js";
+import type { HierarchyNode } from "d3-hierarchy";
+import type { ViewNode } from "./view/view-node.js";
+
+/** A loaded tree with its aggregates: load once, then summarise for many foci and budgets. */
+export interface Prepared {
+  readonly tree: Tree;
+  readonly measures: Measures;
+  readonly index: PathIndex;
+}
+
+export function prepare(tree: Tree): Prepared {
+  const measures = measure(tree);
+  return { tree, measures, index: new PathIndex(tree, measures) };
+}
+
+export interface SummarizeOptions {
+  /** Focus specs: paths, ids or globs. */
+  foci: readonly string[];
+  /** Line budget for the text rendering. */
+  budget: number;
+  importance: Importance;
+  /** Label template, e.g. "{title}, {team}"; default "{name}". */
+  label?: string;
+  /** Replace every printed name by a keyed pseudonym (see view/pseudonym.ts). */
+  pseudonymKey?: string;
+  /** Lines the output spends before the tree (0 for plain summaries). */
+  headerLines?: number;
+}
+
+export interface SummaryResult {
+  view: HierarchyNode<ViewNode>;
+  selection: Selection;
+  scores: Interest;
+  foci: Int32Array;
+  /** Printed paths of the foci, in pre-order. */
+  fociPaths: string[];
+}
+
+/** focus -> interest -> fit -> view, on a prepared tree. Pure: same inputs, same result. */
+export function summarize(prepared: Prepared, options: SummarizeOptions): SummaryResult {
+  const { tree, measures, index } = prepared;
+  const key = options.pseudonymKey;
+  const foci = resolveFoci(index, options.foci, key);
+  const api = importance(tree, measures, options.importance);
+  const scores = interest(tree, api, foci);
+  const selection = select(tree, measures, scores, nodeOrder(tree, measures, scores), options.budget, options.headerLines ?? 0);
+  const nameOf = key === undefined ? (i: number) => tree.name[i] : (i: number) => (i === 0 && tree.syntheticRoot ? tree.name[i] : pseudonym(key, tree.name[i]));
+  const pathOf = key === undefined ? (i: number) => index.path(i) : (i: number) => index.path(i, (j) => escapeSegment(nameOf(j)));
+  const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf);
+  const view = buildView(index, scores, foci, selection, label, nameOf, pathOf);
+  return { view, selection, scores, foci, fociPaths: [...foci].map(pathOf) };
+}

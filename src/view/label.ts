@@ -1,0 +1,46 @@
+import { EspalierError } from "../errors.js";
+import type { Tree } from "../model/tree.js";
+
+const FIELD = /\{([^{}]+)\}/g;
+
+/** Fields a label template reads, other than the built-in name, id and path. */
+export function templateFields(template: string): string[] {
+  const out = new Set<string>();
+  for (const m of template.matchAll(FIELD)) if (!["name", "id", "path"].includes(m[1])) out.add(m[1]);
+  return [...out];
+}
+
+/**
+ * Compiles a label template such as "{title}, {team}": `{field}` is replaced by the node's value of
+ * that record field; `{name}`, `{id}` and `{path}` are built in. A field the input lacks is an error.
+ */
+export function compileLabel(
+  template: string,
+  tree: Tree,
+  nameOf: (i: number) => string,
+  pathOf: (i: number) => string,
+): (i: number) => string {
+  const parts = template.split(FIELD); // even: literal text, odd: field names
+  const getters = parts.map((part, k): ((i: number) => string) => {
+    if (k % 2 === 0) return () => part;
+    if (part === "name") return nameOf;
+    if (part === "path") return pathOf;
+    if (part === "id") {
+      if (!tree.ids) throw new EspalierError("FIELD_MISSING", `the label uses {id} but the input has no id column`);
+      const ids = tree.ids;
+      return (i) => ids[i];
+    }
+    const values = tree.fields.get(part);
+    if (!values) {
+      const have = ["name", "path", ...(tree.ids ? ["id"] : []), ...tree.fields.keys()];
+      throw new EspalierError("FIELD_MISSING", `the label uses {${part}}; fields available: ${have.join(", ")}`);
+    }
+    return (i) => values[i] ?? "";
+  });
+  return (i) => {
+    let s = "";
+    for (const g of getters) s += g(i);
+    // A synthetic root has no record: fall back to its name rather than an empty label.
+    return s.trim() === "" && tree.parent[i] < 0 ? nameOf(i) : s;
+  };
+}

@@ -1,0 +1,33 @@
+/** What is folded under a shown node: its hidden children and everything below them. */
+export interface Folded {
+  /** Hidden children of this node. */
+  children: number;
+  /** Nodes in those children's subtrees. */
+  nodes: number;
+  /** Size in those children's subtrees. */
+  size: number;
+}
+
+/** A shown node, budget-sized and friendly: the input to every renderer. */
+export interface ViewNode {
+  /** Pre-order index in the loaded tree. */
+  index: number;
+  name: string;
+  /** Re-readable path (see model/segment.ts). */
+  path: string;
+  /** Row id, when rows have ids. */
+  id: string | null;
+  /** Text shown for the node (the name, or the label template filled in). */
+  label: string;
+  interest: number;
+  /** Nodes in the subtree, this node included. */
+  nodes: number;
+  /** Size of the subtree, this node included. */
+  size: number;
+  focus: boolean;
+  /** A focus or an ancestor of one. */
+  onPath: boolean;
+  depth: number;
+  children: ViewNode[];
+  hidden: Folded | null;
+}

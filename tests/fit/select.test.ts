@@ -1,0 +1,119 @@
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { EspalierError } from "../../src/errors.js";
+import { select } from "../../src/fit/select.js";
+import { interest } from "../../src/interest/doi.js";
+import { importance } from "../../src/interest/importance.js";
+import { nodeOrder } from "../../src/interest/order.js";
+import { measure } from "../../src/model/measure.js";
+import { PathIndex } from "../../src/model/paths.js";
+import type { Tree } from "../../src/model/tree.js";
+import { renderText } from "../../src/render/text.js";
+import { buildView } from "../../src/view/build-view.js";
+import type { ViewNode } from "../../src/view/view-node.js";
+import { arbTreeWithFoci } from "../helpers/random-tree.js";
+
+function setup(tree: Tree, focusList: number[], kind: "depth" | "size" = "depth") {
+  const m = measure(tree);
+  const foci = Int32Array.from([...focusList].sort((a, b) => a - b));
+  const scores = interest(tree, importance(tree, m, kind), foci);
+  const order = nodeOrder(tree, m, scores);
+  const forcedCount = scores.forced.reduce((a, b) => a + b, 0);
+  const run = (budget: number) => select(tree, m, scores, order, budget);
+  return { m, foci, scores, order, forcedCount, run };
+}
+
+const budgets = fc.integer({ min: 1, max: 80 });
+const kinds = fc.constantFrom<"depth" | "size">("depth", "size");
+
+describe("select(tree, measures, scores, order, budget)", () => {
+  it("never renders more lines than the budget, and refuses budgets below the forced nodes", () => {
+    fc.assert(
+      fc.property(arbTreeWithFoci(), budgets, kinds, ([tree, f], budget, kind) => {
+        const { m, foci, scores, forcedCount, run } = setup(tree, f, kind);
+        if (forcedCount > budget) {
+          const err = (() => {
+            try {
+              run(budget);
+            } catch (e) {
+              return e;
+            }
+          })();
+          expect(err).toBeInstanceOf(EspalierError);
+          expect((err as EspalierError).code).toBe("BUDGET_TOO_SMALL");
+          expect((err as EspalierError).message).toContain(String(forcedCount));
+          return;
+        }
+        const sel = run(budget);
+        const view = buildView(new PathIndex(tree, m), scores, foci, sel, (i) => tree.name[i]);
+        const text = renderText(view, { units: "bytes", sizes: true });
+        const lines = text.split("\n").length - 1;
+        expect(lines).toBe(sel.lines);
+        expect(lines).toBeLessThanOrEqual(budget);
+      }),
+    );
+  });
+
+  it("nests selections: raising the budget never hides a shown node", () => {
+    fc.assert(
+      fc.property(arbTreeWithFoci(), budgets, fc.integer({ min: 0, max: 40 }), ([tree, f], b, extra) => {
+        const { forcedCount, run } = setup(tree, f);
+        const budget = Math.max(b, forcedCount);
+        const small = run(budget).shown;
+        const large = run(budget + extra).shown;
+        for (let i = 0; i < tree.length; i++) if (small[i]) expect(large[i]).toBe(1);
+      }),
+    );
+  });
+
+  it("shows exactly a prefix of the total order (no hidden node precedes a shown one)", () => {
+    fc.assert(
+      fc.property(arbTreeWithFoci(), budgets, kinds, ([tree, f], b, kind) => {
+        const { forcedCount, order, run } = setup(tree, f, kind);
+        const sel = run(Math.max(b, forcedCount));
+        const all = [...Array(tree.length).keys()].sort(order);
+        const k = sel.admitted.length;
+        expect(all.slice(0, k).every((i) => sel.shown[i] === 1)).toBe(true);
+        expect(all.slice(k).every((i) => sel.shown[i] === 0)).toBe(true);
+        // Connected: every shown node's parent is shown.
+        for (let i = 1; i < tree.length; i++) if (sel.shown[i]) expect(sel.shown[tree.parent[i]]).toBe(1);
+      }),
+    );
+  });
+
+  it("uses the whole budget whenever anything is hidden (one line per admission)", () => {
+    fc.assert(
+      fc.property(arbTreeWithFoci(), budgets, ([tree, f], b) => {
+        const { forcedCount, run } = setup(tree, f);
+        const budget = Math.max(b, forcedCount);
+        const sel = run(budget);
+        if (sel.admitted.length < tree.length) expect(sel.lines).toBe(budget);
+        else expect(sel.lines).toBe(tree.length);
+      }),
+    );
+  });
+
+  it("counts every hidden node in exactly one folded remainder, so totals add up at every shown node", () => {
+    fc.assert(
+      fc.property(arbTreeWithFoci(), budgets, ([tree, f], b) => {
+        const { m, foci, scores, forcedCount, run } = setup(tree, f);
+        const sel = run(Math.max(b, forcedCount));
+        const view = buildView(new PathIndex(tree, m), scores, foci, sel, (i) => tree.name[i]);
+        let hiddenNodes = 0;
+        let shownNodes = 0;
+        view.each((h) => {
+          const v: ViewNode = h.data;
+          shownNodes++;
+          const childNodes = v.children.reduce((a, c) => a + c.nodes, 0);
+          const childSize = v.children.reduce((a, c) => a + c.size, 0);
+          expect(v.nodes).toBe(1 + childNodes + (v.hidden?.nodes ?? 0));
+          expect(v.size).toBe(tree.ownSize[v.index] + childSize + (v.hidden?.size ?? 0));
+          hiddenNodes += v.hidden?.nodes ?? 0;
+        });
+        expect(shownNodes + hiddenNodes).toBe(tree.length);
+        expect(view.data.nodes).toBe(tree.length);
+        expect(view.data.size).toBe(tree.ownSize.reduce((a, b) => a + b, 0));
+      }),
+    );
+  });
+});
