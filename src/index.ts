@@ -1,10 +1,14 @@
 // espalier's public API: load once, then summarise for any foci and budget.
-export { EspalierError, type ErrorCode, errorCodes, formatPos, type SourcePos } from "./errors.js";
-export { select, type Selection } from "./fit/select.js";
+
+export { type ChangeCounts, type ChangeKind, changeKinds } from "./diff/changes.js";
+export { type DiffOptions, type DiffResult, type DiffTotals, diffTrees } from "./diff/diff-trees.js";
+export type { DiffFolded, DiffViewNode } from "./diff/diff-view.js";
+export { type ErrorCode, EspalierError, errorCodes, formatPos, type SourcePos } from "./errors.js";
+export { type Selection, select } from "./fit/select.js";
 export { resolveFoci } from "./focus/resolve.js";
 export { type Interest, interest } from "./interest/doi.js";
 export { type Importance, importance, importances } from "./interest/importance.js";
-export { nodeOrder, type NodeOrder } from "./interest/order.js";
+export { type NodeOrder, nodeOrder } from "./interest/order.js";
 export { detectFormat, loadTree } from "./load/index.js";
 export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } from "./load/types.js";
 export { buildTree, type LinkedNodes } from "./model/build.js";
@@ -12,9 +16,12 @@ export { type Measures, measure } from "./model/measure.js";
 export { PathIndex } from "./model/paths.js";
 export { escapeSegment, parseSegment, splitPath } from "./model/segment.js";
 export type { Tree } from "./model/tree.js";
+export { renderDiffJson, toDiffSummary } from "./render/diff-json.js";
+export { DIFF_FORMAT, type DiffSummary, diffSchema } from "./render/diff-schema.js";
+export { renderDiffText } from "./render/diff-text.js";
 export { renderJson, toSummary } from "./render/json.js";
+export { SUMMARY_FORMAT, type Summary, summarySchema } from "./render/summary-schema.js";
 export { renderText } from "./render/text.js";
-export { type Summary, SUMMARY_FORMAT, summarySchema } from "./render/summary-schema.js";
 export { formatSize, type Units } from "./render/units.js";
 export { type Prepared, prepare, type SummarizeOptions, type SummaryResult, summarize } from "./summarize.js";
 export type { Folded, ViewNode } from "./view/view-node.js";

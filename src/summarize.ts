@@ -1,16 +1,16 @@
+import type { HierarchyNode } from "d3-hierarchy";
+import { type Selection, select } from "./fit/select.js";
 import { resolveFoci } from "./focus/resolve.js";
-import { select, type Selection } from "./fit/select.js";
 import { type Interest, interest } from "./interest/doi.js";
 import { type Importance, importance } from "./interest/importance.js";
 import { nodeOrder } from "./interest/order.js";
 import { type Measures, measure } from "./model/measure.js";
 import { PathIndex } from "./model/paths.js";
+import { pseudonym } from "./model/pseudonym.js";
 import { escapeSegment } from "./model/segment.js";
 import type { Tree } from "./model/tree.js";
 import { buildView } from "./view/build-view.js";
 import { compileLabel } from "./view/label.js";
-import { pseudonym } from "./model/pseudonym.js";
-import type { HierarchyNode } from "d3-hierarchy";
 import type { ViewNode } from "./view/view-node.js";
 
 /** A loaded tree with its aggregates: load once, then summarise for many foci and budgets. */
@@ -55,9 +55,22 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
   const foci = resolveFoci(index, options.foci, key);
   const api = importance(tree, measures, options.importance);
   const scores = interest(tree, api, foci);
-  const selection = select(tree, measures, scores, nodeOrder(tree, measures, scores), options.budget, options.headerLines ?? 0);
-  const nameOf = key === undefined ? (i: number) => tree.name[i] : (i: number) => (i === 0 && tree.syntheticRoot ? tree.name[i] : pseudonym(key, tree.name[i]));
-  const pathOf = key === undefined ? (i: number) => index.path(i) : (i: number) => index.path(i, (j) => escapeSegment(nameOf(j)));
+  const selection = select(
+    tree,
+    measures,
+    scores,
+    nodeOrder(tree, measures, scores),
+    options.budget,
+    options.headerLines ?? 0,
+  );
+  const nameOf =
+    key === undefined
+      ? (i: number) => tree.name[i]
+      : (i: number) => (i === 0 && tree.syntheticRoot ? tree.name[i] : pseudonym(key, tree.name[i]));
+  const pathOf =
+    key === undefined
+      ? (i: number) => index.path(i)
+      : (i: number) => index.path(i, (j) => escapeSegment(nameOf(j)));
   const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf);
   const view = buildView(index, scores, foci, selection, label, nameOf, pathOf);
   return { view, selection, scores, foci, fociPaths: [...foci].map(pathOf) };

@@ -2,12 +2,12 @@
 export const SUMMARY_EXAMPLES = `
 Examples:
   # The people around one engineer in a 3,000-person org chart, in 30 lines
-  espalier fixtures/quillfeather-org.csv --parent manager --size cost \\
+  espalier fixtures/quillfeather-org.csv --parent-field manager --size-field cost \\
       --focus Q2417 --label '{name}, {title}' --budget 30
 
   # Two teams at once, names replaced by the team and title of each person
-  espalier fixtures/quillfeather-org.csv --parent manager --label '{title} ({team})' \\
-      --focus Q2417 --focus Q0412
+  espalier fixtures/quillfeather-org.csv --parent-field manager --label '{title} ({team})' \\
+      --focus Q2417 --focus Q0627
 
   # Where the bytes are in a monorepo listing (find DIR -printf '%s\\t%p\\n' > files.paths)
   find . -printf '%s\\t%p\\n' | espalier - --importance size --budget 25

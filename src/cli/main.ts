@@ -8,8 +8,10 @@ import { formatError } from "./report-error.js";
 /** Runs the CLI on user arguments (without node and script); returns the exit code. */
 export async function run(argv: readonly string[], io: CliIO): Promise<number> {
   let output = "";
-  const program = buildProgram(io, (text) => {
+  let code: number = EXIT.ok;
+  const program = buildProgram(io, (text, exitCode = EXIT.ok) => {
     output = text;
+    code = exitCode;
   });
   try {
     await program.parseAsync([...argv], { from: "user" });
@@ -22,5 +24,5 @@ export async function run(argv: readonly string[], io: CliIO): Promise<number> {
     return err instanceof EspalierError ? EXIT.error : EXIT.error;
   }
   io.stdout.write(output);
-  return EXIT.ok;
+  return code;
 }

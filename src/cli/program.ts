@@ -2,6 +2,7 @@ import { Command, Option } from "commander";
 import { EspalierError } from "../errors.js";
 import { importances } from "../interest/importance.js";
 import { inputFormats } from "../load/types.js";
+import { addDiffCommand } from "./diff-command.js";
 import { SUMMARY_EXAMPLES } from "./help.js";
 import type { CliIO } from "./io.js";
 import { outputFormats, summaryOptionsSchema } from "./options.js";
@@ -15,7 +16,7 @@ const collect = (value: string, previous: string[]) => [...previous, value];
  * The command-line interface. Actions return their output as text; `onOutput` receives it so that
  * nothing is written before the whole result exists (no partial output on error).
  */
-export function buildProgram(io: CliIO, onOutput: (text: string) => void): Command {
+export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: number) => void): Command {
   const program = new Command("espalier")
     .description(
       "Show the part of a large hierarchy that matters, plus enough context, within a line budget.\n" +
@@ -28,7 +29,9 @@ export function buildProgram(io: CliIO, onOutput: (text: string) => void): Comma
     .option("--focus-from <file>", "read more foci from a file, one per line (- for standard input)")
     .option("-b, --budget <lines>", "line budget (default: terminal height, else 40)")
     .addOption(new Option("--format <format>", "output format").choices(outputFormats).default("text"))
-    .addOption(new Option("--input-format <format>", "input format (default: detected)").choices(inputFormats))
+    .addOption(
+      new Option("--input-format <format>", "input format (default: detected)").choices(inputFormats),
+    )
     .option("--name-field <field>", "field holding a node's name", "name")
     .option("--children-field <field>", "field holding a node's children", "children")
     .option("--size-field <field>", "field holding a node's own size", "size")
@@ -41,13 +44,20 @@ export function buildProgram(io: CliIO, onOutput: (text: string) => void): Comma
         .default("depth"),
     )
     .addOption(
-      new Option("--units <units>", "sizes as bytes (KiB, MiB) or plain numbers; auto: bytes when the size field is size")
+      new Option(
+        "--units <units>",
+        "sizes as bytes (KiB, MiB) or plain numbers; auto: bytes when the size field is size",
+      )
         .choices(["auto", "bytes", "plain"])
         .default("auto"),
     )
     .option("--label <template>", "label template from record fields, e.g. '{title}, {team}'")
     .option("--pseudonymize", "print keyed pseudonyms instead of names (secret in ESPALIER_PSEUDONYM_KEY)")
-    .addOption(new Option("--color <when>", "colour in text output").choices(["auto", "always", "never"]).default("auto"))
+    .addOption(
+      new Option("--color <when>", "colour in text output")
+        .choices(["auto", "always", "never"])
+        .default("auto"),
+    )
     .option("--max-nodes <count>", "refuse inputs with more nodes than this")
     .addHelpText("after", SUMMARY_EXAMPLES)
     .showHelpAfterError("(run espalier --help for usage and examples)")
@@ -61,5 +71,6 @@ export function buildProgram(io: CliIO, onOutput: (text: string) => void): Comma
       }
       onOutput(await summaryCommand(input, parsed.data, io));
     });
+  addDiffCommand(program, io, onOutput);
   return program;
 }

@@ -66,5 +66,10 @@ export function select(
     admitted[k++] = next;
     if (k < admitted.length) pushChildren(next);
   }
-  return { shown, admitted: admitted.subarray(0, k), forcedCount: forcedNodes.length, lines: k + headerLines };
+  return {
+    shown,
+    admitted: admitted.subarray(0, k),
+    forcedCount: forcedNodes.length,
+    lines: k + headerLines,
+  };
 }

@@ -1,7 +1,7 @@
 import { EspalierError } from "../errors.js";
 import type { PathIndex } from "../model/paths.js";
-import { parseSegment, splitPath } from "../model/segment.js";
 import { pseudonym } from "../model/pseudonym.js";
+import { parseSegment, splitPath } from "../model/segment.js";
 import { isGlob, matchGlob } from "./glob.js";
 import { suggestPath } from "./suggest.js";
 

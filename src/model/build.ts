@@ -118,7 +118,8 @@ function cycleError(input: LinkedNodes, par: Int32Array, visited: Int32Array, fi
   const cycle: number[] = [cur];
   for (let c = par[cur]; c !== cur; c = par[c]) cycle.push(c);
   const unit = input.originIsRow ? "row" : "line";
-  const where = (i: number) => `${unit} ${input.origin[i]}${input.ids ? ` (id ${JSON.stringify(input.ids[i])})` : ""}`;
+  const where = (i: number) =>
+    `${unit} ${input.origin[i]}${input.ids ? ` (id ${JSON.stringify(input.ids[i])})` : ""}`;
   const first = cycle.reduce((a, b) => (input.origin[a] <= input.origin[b] ? a : b));
   const pos = input.originIsRow ? { file, row: input.origin[first] } : { file, line: input.origin[first] };
   if (cycle.length === 1) return new EspalierError("CYCLE", `${where(cur)} is its own parent`, pos);

@@ -50,7 +50,7 @@ export function buildView(
       nodes: count[i],
       size: size[i],
       focus: isFocus.has(i),
-      onPath: scores.forced[i] === 1,
+      onPath: foci.length > 0 && scores.forced[i] === 1,
       depth: tree.depth[i],
       children: [],
       hidden: folded,

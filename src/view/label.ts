@@ -26,14 +26,18 @@ export function compileLabel(
     if (part === "name") return nameOf;
     if (part === "path") return pathOf;
     if (part === "id") {
-      if (!tree.ids) throw new EspalierError("FIELD_MISSING", `the label uses {id} but the input has no id column`);
+      if (!tree.ids)
+        throw new EspalierError("FIELD_MISSING", `the label uses {id} but the input has no id column`);
       const ids = tree.ids;
       return (i) => ids[i];
     }
     const values = tree.fields.get(part);
     if (!values) {
       const have = ["name", "path", ...(tree.ids ? ["id"] : []), ...tree.fields.keys()];
-      throw new EspalierError("FIELD_MISSING", `the label uses {${part}}; fields available: ${have.join(", ")}`);
+      throw new EspalierError(
+        "FIELD_MISSING",
+        `the label uses {${part}}; fields available: ${have.join(", ")}`,
+      );
     }
     return (i) => values[i] ?? "";
   });

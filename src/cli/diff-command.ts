@@ -1,0 +1,135 @@
+import type { Command } from "commander";
+import { totalChanges } from "../diff/changes.js";
+import { diffTrees } from "../diff/diff-trees.js";
+import { EspalierError } from "../errors.js";
+import { loadTree } from "../load/index.js";
+import type { LoadOptions } from "../load/types.js";
+import type { Tree } from "../model/tree.js";
+import { renderDiffJson } from "../render/diff-json.js";
+import { renderDiffText } from "../render/diff-text.js";
+import { palette } from "../render/palette.js";
+import { DIFF_EXAMPLES } from "./diff-help.js";
+import { type DiffCliOptions, diffOptionsSchema } from "./diff-options.js";
+import { EXIT } from "./exit-codes.js";
+import type { CliIO } from "./io.js";
+import { PSEUDONYM_KEY_ENV } from "./options.js";
+import { readInput } from "./read-input.js";
+import { defaultBudget, displayName, toLoadOptions, unitsFor, useColour } from "./summary-command.js";
+
+/** What a command hands back: the text for standard output and the exit code. */
+export interface CommandOutput {
+  text: string;
+  exitCode: number;
+}
+
+/**
+ * Registers `espalier diff OLD NEW` on the program. It takes every option of the summary (the same
+ * option objects, so they are declared once) plus `--exit-code`. Program options are read only before
+ * the subcommand name, so `espalier diff a b --budget 9` gives the budget to the diff.
+ */
+export function addDiffCommand(
+  program: Command,
+  io: CliIO,
+  onOutput: (text: string, exitCode: number) => void,
+): Command {
+  program.enablePositionalOptions();
+  const diff = program
+    .command("diff")
+    .summary("compare two versions and show what changed, within the line budget")
+    .description(
+      "Compare two versions of a hierarchy and show the changes, with just enough context, within a " +
+        "line budget. Nodes are matched by row id when both versions have ids, otherwise by path.",
+    )
+    .argument("<old>", "the earlier version (a file, or - for standard input)")
+    .argument("<new>", "the later version (a file, or - for standard input)");
+  for (const option of program.options) if (option.long !== "--version") diff.addOption(option);
+  diff
+    .option("--exit-code", "exit 1 when the versions differ, 0 when they do not")
+    .addHelpText("after", DIFF_EXAMPLES)
+    .showHelpAfterError("(run espalier diff --help for usage and examples)")
+    .exitOverride()
+    .configureOutput({ writeOut: (s) => io.stdout.write(s), writeErr: (s) => io.stderr.write(s) })
+    .action(async (oldInput: string, newInput: string, raw: Record<string, unknown>) => {
+      const parsed = diffOptionsSchema.safeParse({
+        ...raw,
+        pseudonymize: raw.pseudonymize === true,
+        exitCode: raw.exitCode === true,
+      });
+      if (!parsed.success) throw new EspalierError("USAGE", parsed.error.issues[0].message);
+      const out = await diffCommand(oldInput, newInput, parsed.data, io);
+      onOutput(out.text, out.exitCode);
+    });
+  return diff;
+}
+
+/** Reads, compares and renders two versions; returns the text to print and the exit code. */
+export async function diffCommand(
+  oldInput: string,
+  newInput: string,
+  opts: DiffCliOptions,
+  io: CliIO,
+): Promise<CommandOutput> {
+  if (oldInput === "-" && newInput === "-")
+    throw new EspalierError("USAGE", "only one of the two versions can come from standard input");
+  const foci = [...opts.focus];
+  if (opts.focusFrom !== undefined) {
+    if (opts.focusFrom === "-" && (oldInput === "-" || newInput === "-"))
+      throw new EspalierError("USAGE", "standard input cannot hold both a version and the foci");
+    const text = await readInput(io, opts.focusFrom);
+    foci.push(...text.split(/\r?\n/).filter((line) => line !== ""));
+  }
+  const key = pseudonymKey(opts, io);
+  const newOptions = toLoadOptions(newInput, opts);
+  // Both versions get the same synthetic root name, so that it never shows as a change.
+  const oldOptions = { ...toLoadOptions(oldInput, opts), rootName: newOptions.rootName };
+  const oldText = await readInput(io, oldInput);
+  const newText = await readInput(io, newInput);
+  const oldTree = load(oldText, oldInput, oldOptions);
+  const newTree = load(newText, newInput, newOptions);
+  const budget = opts.budget ?? defaultBudget(io);
+  const result = diffTrees(oldTree, newTree, {
+    foci,
+    budget,
+    importance: opts.importance,
+    label: opts.label,
+    pseudonymKey: key,
+  });
+  const by = result.combined.by;
+  const text =
+    opts.format === "json"
+      ? renderDiffJson(result.view, result.totals, {
+          budget,
+          lines: result.selection.lines,
+          foci: result.fociPaths,
+          by,
+          labels: opts.label !== undefined,
+        })
+      : renderDiffText(result.view, result.totals, {
+          units: unitsFor(opts),
+          sizes: result.combined.tree.hasSizes,
+          by,
+          palette: palette(useColour(opts, io)),
+        });
+  const differ = totalChanges(result.totals.changes) > 0;
+  return { text, exitCode: opts.exitCode && differ ? EXIT.differences : EXIT.ok };
+}
+
+function load(text: string, input: string, options: LoadOptions): Tree {
+  try {
+    return loadTree(text, options);
+  } catch (err) {
+    throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
+  }
+}
+
+function pseudonymKey(opts: DiffCliOptions, io: CliIO): string | undefined {
+  if (!opts.pseudonymize) return undefined;
+  const key = io.env[PSEUDONYM_KEY_ENV];
+  if (!key) {
+    throw new EspalierError(
+      "USAGE",
+      `--pseudonymize needs a secret in the environment variable ${PSEUDONYM_KEY_ENV} (keep it out of the log)`,
+    );
+  }
+  return key;
+}

@@ -1,0 +1,44 @@
+import type { Tree } from "../model/tree.js";
+
+/**
+ * Puts both versions under the same kind of root: when one version has several top-level nodes (so
+ * espalier joined them under a synthetic root) and the other has one, the other is put under a
+ * synthetic root too, so that the top-level nodes of both versions match each other.
+ */
+export function alignRoots(oldTree: Tree, newTree: Tree): [Tree, Tree] {
+  if (oldTree.syntheticRoot === newTree.syntheticRoot) return [oldTree, newTree];
+  return oldTree.syntheticRoot
+    ? [oldTree, underRoot(newTree, oldTree.name[0])]
+    : [underRoot(oldTree, newTree.name[0]), newTree];
+}
+
+/** The same tree one level down, under a new synthetic root named `rootName`. */
+export function underRoot(tree: Tree, rootName: string): Tree {
+  const n = tree.length + 1;
+  const parent = new Int32Array(n);
+  const depth = new Int32Array(n);
+  parent[0] = -1;
+  for (let i = 1; i < n; i++) {
+    parent[i] = tree.parent[i - 1] + 1;
+    depth[i] = tree.depth[i - 1] + 1;
+  }
+  const ownSize = new Float64Array(n);
+  ownSize.set(tree.ownSize, 1);
+  const origin = new Int32Array(n);
+  origin.set(tree.origin, 1);
+  const fields = new Map<string, string[]>();
+  for (const [key, values] of tree.fields) fields.set(key, ["", ...values]);
+  return {
+    length: n,
+    parent,
+    depth,
+    name: [rootName, ...tree.name],
+    ownSize,
+    hasSizes: tree.hasSizes,
+    ids: tree.ids ? ["", ...tree.ids] : null,
+    origin,
+    originIsRow: tree.originIsRow,
+    fields,
+    syntheticRoot: true,
+  };
+}

@@ -1,0 +1,35 @@
+/** The kinds of change a node can have, in precedence order: a node has exactly one kind, or none. */
+export const changeKinds = ["added", "removed", "moved", "renamed", "resized"] as const;
+export type ChangeKind = (typeof changeKinds)[number];
+
+/**
+ * Kind codes stored per node in a `Uint8Array`: 0 for an unchanged node, else 1 + the kind's position
+ * in {@link changeKinds}. A node that is both moved and renamed (or renamed and resized, …) counts
+ * under the first of its kinds in that list; its own size change is still reported beside it.
+ */
+export const KIND = { none: 0, added: 1, removed: 2, moved: 3, renamed: 4, resized: 5 } as const;
+
+/** Numbers of changed nodes per kind. */
+export type ChangeCounts = Record<ChangeKind, number>;
+
+/** The kind word of a code, or null for an unchanged node. */
+export function kindName(code: number): ChangeKind | null {
+  return code === KIND.none ? null : changeKinds[code - 1];
+}
+
+/** Counts from a flat array laid out as five counts per node (see `measureChanges`). */
+export function countsAt(flat: Int32Array, node: number): ChangeCounts {
+  const b = node * 5;
+  return {
+    added: flat[b],
+    removed: flat[b + 1],
+    moved: flat[b + 2],
+    renamed: flat[b + 3],
+    resized: flat[b + 4],
+  };
+}
+
+/** Sum of all five counts. */
+export function totalChanges(c: ChangeCounts): number {
+  return c.added + c.removed + c.moved + c.renamed + c.resized;
+}

@@ -1,0 +1,202 @@
+import type { Measures } from "../model/measure.js";
+import type { Tree } from "../model/tree.js";
+import { KIND } from "./changes.js";
+import type { Matching } from "./match.js";
+
+/** Both versions in one tree: the new version plus every removed node at its old place. */
+export interface Combined {
+  /** A normal pre-order tree. Removed nodes have own size 0 here (they hold nothing now). */
+  readonly tree: Tree;
+  /** The node in the new version, or -1 for a removed node. */
+  readonly newIndex: Int32Array;
+  /** The node in the old version, or -1 for an added node. */
+  readonly oldIndex: Int32Array;
+  /** Kind code of each node (see `KIND`). */
+  readonly kind: Uint8Array;
+  /** Own size in the new version minus own size in the old (a removed node: minus its old size). */
+  readonly delta: Float64Array;
+  readonly oldTree: Tree;
+  readonly newTree: Tree;
+  readonly by: Matching["by"];
+}
+
+/**
+ * Builds the combined tree. Children keep the new version's order; a removed node goes right after
+ * the nearest earlier old sibling that is still a child of the same parent (first when there is none).
+ * A node has one kind, by precedence: added or removed, then moved (its parent's counterpart changed;
+ * a moved subtree counts once, at its root, because the nodes below keep their parent), then renamed,
+ * then resized (own size changed). The roots always match; a synthetic root is never renamed.
+ */
+export function combine(
+  oldTree: Tree,
+  oldMeasures: Measures,
+  newTree: Tree,
+  newMeasures: Measures,
+  matching: Matching,
+): Combined {
+  const { oldToNew, newToOld } = matching;
+  const oldCount = oldMeasures.count;
+  const newCount = newMeasures.count;
+  const oldParent = oldTree.parent;
+  const newParent = newTree.parent;
+
+  // Old nodes with a removed child, and new subtrees that hold none of them (copied as one block).
+  const hasRemovedChild = new Uint8Array(oldTree.length);
+  let removedCount = 0;
+  for (let o = 1; o < oldTree.length; o++) {
+    if (oldToNew[o] >= 0) continue;
+    removedCount++;
+    hasRemovedChild[oldParent[o]] = 1;
+  }
+  const total = newTree.length + removedCount;
+  const newIndex = new Int32Array(total);
+  const oldIndex = new Int32Array(total);
+  const parent = new Int32Array(total);
+
+  let plain: Uint8Array | null = null;
+  if (removedCount > 0) {
+    plain = new Uint8Array(newTree.length).fill(1);
+    for (let n = newTree.length - 1; n >= 0; n--) {
+      const o = newToOld[n];
+      if (o >= 0 && hasRemovedChild[o]) plain[n] = 0;
+      if (!plain[n] && n > 0) plain[newParent[n]] = 0;
+    }
+  }
+
+  // Depth-first in pre-order. Stack entries: n >= 0 a new node, -(o + 1) a removed old node.
+  const stack: number[] = [0];
+  const stackParent: number[] = [-1];
+  const scratch: number[] = [];
+  let k = 0;
+  while (stack.length > 0) {
+    const entry = stack.pop()!;
+    const pc = stackParent.pop()!;
+    if (entry >= 0 && (plain === null || plain[entry])) {
+      const n = entry;
+      const base = k - n;
+      const end = n + newCount[n];
+      for (let j = n; j < end; j++, k++) {
+        newIndex[k] = j;
+        oldIndex[k] = newToOld[j];
+        parent[k] = j === n ? pc : newParent[j] + base;
+      }
+      continue;
+    }
+    const self = k++;
+    parent[self] = pc;
+    scratch.length = 0;
+    if (entry >= 0) {
+      newIndex[self] = entry;
+      oldIndex[self] = newToOld[entry];
+      mergedChildren(entry, scratch);
+    } else {
+      const o = -entry - 1;
+      newIndex[self] = -1;
+      oldIndex[self] = o;
+      const end = o + oldCount[o];
+      for (let c = o + 1; c < end; c += oldCount[c]) if (oldToNew[c] < 0) scratch.push(-c - 1);
+    }
+    for (let i = scratch.length - 1; i >= 0; i--) {
+      stack.push(scratch[i]);
+      stackParent.push(self);
+    }
+  }
+
+  /** Children of new node n in the combined tree: its new children with removed old ones spliced in. */
+  function mergedChildren(n: number, out: number[]) {
+    const nEnd = n + newCount[n];
+    const o = newToOld[n];
+    if (o < 0 || !hasRemovedChild[o]) {
+      for (let c = n + 1; c < nEnd; c += newCount[c]) out.push(c);
+      return;
+    }
+    const after = new Map<number, number[]>(); // new child -> removed old siblings placed after it
+    let anchor = -1;
+    const oEnd = o + oldCount[o];
+    for (let s = o + 1; s < oEnd; s += oldCount[s]) {
+      const m = oldToNew[s];
+      if (m >= 0) {
+        if (newParent[m] === n) anchor = m;
+        continue;
+      }
+      const list = after.get(anchor);
+      if (list) list.push(-s - 1);
+      else after.set(anchor, [-s - 1]);
+    }
+    const first = after.get(-1);
+    if (first) for (const r of first) out.push(r);
+    for (let c = n + 1; c < nEnd; c += newCount[c]) {
+      out.push(c);
+      const list = after.get(c);
+      if (list) for (const r of list) out.push(r);
+    }
+  }
+
+  return { ...fill(oldTree, newTree, matching, newIndex, oldIndex, parent), newIndex, oldIndex };
+}
+
+/** The combined tree's arrays, each node's kind and own size change. */
+function fill(
+  oldTree: Tree,
+  newTree: Tree,
+  matching: Matching,
+  newIndex: Int32Array,
+  oldIndex: Int32Array,
+  parent: Int32Array,
+) {
+  const total = parent.length;
+  const depth = new Int32Array(total);
+  const name: string[] = new Array(total);
+  const ownSize = new Float64Array(total);
+  const origin = new Int32Array(total);
+  const kind = new Uint8Array(total);
+  const delta = new Float64Array(total);
+  const useIds = matching.by === "id";
+  const ids: string[] | null = useIds ? new Array(total) : null;
+  const keys = [...new Set([...newTree.fields.keys(), ...oldTree.fields.keys()])];
+  const fieldValues = keys.map(() => new Array<string>(total));
+  const renameRoot = !oldTree.syntheticRoot && !newTree.syntheticRoot;
+  const { newToOld } = matching;
+  for (let k = 0; k < total; k++) {
+    const n = newIndex[k];
+    const o = oldIndex[k];
+    depth[k] = k === 0 ? 0 : depth[parent[k]] + 1;
+    const from = n >= 0 ? newTree : oldTree;
+    const at = n >= 0 ? n : o;
+    name[k] = from.name[at];
+    origin[k] = from.origin[at];
+    if (ids) ids[k] = from.ids![at];
+    for (let f = 0; f < keys.length; f++) fieldValues[f][k] = from.fields.get(keys[f])?.[at] ?? "";
+    if (n < 0) {
+      kind[k] = KIND.removed;
+      delta[k] = 0 - oldTree.ownSize[o];
+      continue;
+    }
+    ownSize[k] = newTree.ownSize[n];
+    if (o < 0) {
+      kind[k] = KIND.added;
+      delta[k] = ownSize[k];
+      continue;
+    }
+    delta[k] = ownSize[k] - oldTree.ownSize[o];
+    if (n > 0 && newToOld[newTree.parent[n]] !== oldTree.parent[o]) kind[k] = KIND.moved;
+    else if ((n > 0 || renameRoot) && newTree.name[n] !== oldTree.name[o]) kind[k] = KIND.renamed;
+    else if (delta[k] !== 0) kind[k] = KIND.resized;
+  }
+  const fields = new Map<string, string[]>();
+  keys.forEach((key, f) => fields.set(key, fieldValues[f]));
+  const tree: Tree = {
+    length: total,
+    parent,
+    depth,
+    name,
+    ownSize,
+    hasSizes: oldTree.hasSizes || newTree.hasSizes,
+    ids,
+    origin,
+    originIsRow: newTree.originIsRow,
+    fields,
+    syntheticRoot: newTree.syntheticRoot,
+  };
+  return { tree, kind, delta, oldTree, newTree, by: matching.by };
+}

@@ -1,0 +1,48 @@
+import type { NodeOrder } from "../interest/order.js";
+import type { Measures } from "../model/measure.js";
+import type { Tree } from "../model/tree.js";
+import type { DiffInterest } from "./diff-interest.js";
+import type { ChangeMeasures } from "./measure-changes.js";
+
+/**
+ * The total order the fitter takes a prefix of, for a diff. Forced nodes (root, the user's foci and
+ * their ancestors) first, in pre-order. Then:
+ *   1. higher interest first;
+ *   2. nodes on a change path (a changed node or an ancestor of one) before the others;
+ *   3. on change paths: shallower first, then more changes in the subtree, then input order. A changed
+ *      node scores like its ancestors (both as a focus path), so ordering by depth keeps every parent
+ *      before its children, and a small budget shows where changes lie before showing them one by one;
+ *   4. elsewhere, the summary's tie-breaks: nearer to a focus or change, shallower, bigger subtree,
+ *      input order.
+ * Off change paths interest drops strictly from parent to child, so a parent always comes first.
+ */
+export function diffOrder(
+  tree: Tree,
+  measures: Measures,
+  scores: DiffInterest,
+  changes: ChangeMeasures,
+): NodeOrder {
+  const { value, distance, forced, onChangePath } = scores;
+  const { depth } = tree;
+  const { count } = measures;
+  const c = changes.counts;
+  const inside = (i: number) => {
+    const b = i * 5;
+    return c[b] + c[b + 1] + c[b + 2] + c[b + 3] + c[b + 4];
+  };
+  return (a, b) => {
+    if (forced[a] !== forced[b]) return forced[b] - forced[a];
+    if (forced[a]) return a - b;
+    if (value[a] !== value[b]) return value[b] - value[a];
+    if (onChangePath[a] !== onChangePath[b]) return onChangePath[b] - onChangePath[a];
+    if (onChangePath[a]) {
+      if (depth[a] !== depth[b]) return depth[a] - depth[b];
+      const d = inside(b) - inside(a);
+      return d !== 0 ? d : a - b;
+    }
+    if (distance[a] !== distance[b]) return distance[a] - distance[b];
+    if (depth[a] !== depth[b]) return depth[a] - depth[b];
+    if (count[a] !== count[b]) return count[b] - count[a];
+    return a - b;
+  };
+}

@@ -1,0 +1,123 @@
+import type { HierarchyNode } from "d3-hierarchy";
+import { type Selection, select } from "../fit/select.js";
+import { resolveFoci } from "../focus/resolve.js";
+import { type Importance, importance } from "../interest/importance.js";
+import { type Measures, measure } from "../model/measure.js";
+import { PathIndex } from "../model/paths.js";
+import { pseudonym } from "../model/pseudonym.js";
+import { escapeSegment } from "../model/segment.js";
+import type { Tree } from "../model/tree.js";
+import { compileLabel } from "../view/label.js";
+import { alignRoots } from "./align-roots.js";
+import { type ChangeCounts, countsAt } from "./changes.js";
+import { type Combined, combine } from "./combine.js";
+import { type DiffInterest, diffInterest } from "./diff-interest.js";
+import { diffOrder } from "./diff-order.js";
+import { buildDiffView, type DiffViewNode } from "./diff-view.js";
+import { matchTrees } from "./match.js";
+import { type ChangeMeasures, measureChanges } from "./measure-changes.js";
+
+export interface DiffOptions {
+  /** Focus specs (paths, ids or globs), resolved in the combined tree. */
+  foci: readonly string[];
+  /** Line budget for the text rendering, the totals line included. */
+  budget: number;
+  importance: Importance;
+  /** Label template, e.g. "{title}, {team}"; default "{name}". */
+  label?: string;
+  /** Replace every printed name by a keyed pseudonym. */
+  pseudonymKey?: string;
+}
+
+/** Whole-diff numbers: the root's counts, and both versions' sizes. */
+export interface DiffTotals {
+  changes: ChangeCounts;
+  old: { nodes: number; size: number };
+  new: { nodes: number; size: number };
+  /** Net size change: new size minus old size. */
+  delta: number;
+}
+
+export interface DiffResult {
+  combined: Combined;
+  measures: Measures;
+  changeMeasures: ChangeMeasures;
+  scores: DiffInterest;
+  selection: Selection;
+  view: HierarchyNode<DiffViewNode>;
+  foci: Int32Array;
+  fociPaths: string[];
+  totals: DiffTotals;
+}
+
+/** Lines the diff's text rendering spends before the tree (the totals line). */
+export const DIFF_HEADER_LINES = 1;
+
+/**
+ * Compares two versions of a hierarchy: match → combine → measure → focus → interest → fit → view.
+ * Pure: the same trees and options give the same result.
+ */
+export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions): DiffResult {
+  const [oldTree, newTree] = alignRoots(oldInput, newInput);
+  const oldMeasures = measure(oldTree);
+  const newMeasures = measure(newTree);
+  const matching = matchTrees(oldTree, oldMeasures, newTree, newMeasures);
+  const combined = combine(oldTree, oldMeasures, newTree, newMeasures, matching);
+  const { tree } = combined;
+  const measures = measure(tree);
+  const changeMeasures = measureChanges(tree, combined.kind, combined.delta);
+  const index = new PathIndex(tree, measures);
+  const key = options.pseudonymKey;
+  const foci = resolveFoci(index, options.foci, key);
+  const api = importance(tree, measures, options.importance);
+  const scores = diffInterest(tree, api, foci, combined.kind);
+  const order = diffOrder(tree, measures, scores, changeMeasures);
+  const selection = select(tree, measures, scores, order, options.budget, DIFF_HEADER_LINES);
+
+  const hide = (t: Tree) => (i: number) =>
+    key === undefined || (i === 0 && t.syntheticRoot) ? t.name[i] : pseudonym(key, t.name[i]);
+  const nameOf = hide(tree);
+  const pathOf =
+    key === undefined
+      ? (i: number) => index.path(i)
+      : (i: number) => index.path(i, (j) => escapeSegment(nameOf(j)));
+  const oldIndex = new PathIndex(oldTree, oldMeasures);
+  const oldNameOf = hide(oldTree);
+  const oldPathOf =
+    key === undefined
+      ? (o: number) => oldIndex.path(o)
+      : (o: number) => oldIndex.path(o, (j) => escapeSegment(oldNameOf(j)));
+  const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf);
+  const view = buildDiffView(
+    index,
+    combined,
+    changeMeasures,
+    scores,
+    foci,
+    selection,
+    label,
+    nameOf,
+    pathOf,
+    {
+      nameOf: oldNameOf,
+      pathOf: oldPathOf,
+    },
+  );
+  const totals: DiffTotals = {
+    changes: countsAt(changeMeasures.counts, 0),
+    old: { nodes: oldTree.length, size: oldMeasures.size[0] },
+    new: { nodes: newTree.length, size: newMeasures.size[0] },
+    delta: changeMeasures.net[0],
+  };
+  return {
+    combined,
+    measures,
+    changeMeasures,
+    scores,
+    selection,
+    view,
+    foci,
+    fociPaths: [...foci].map(pathOf),
+    totals,
+  };
+}

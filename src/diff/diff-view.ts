@@ -1,0 +1,98 @@
+import { type HierarchyNode, hierarchy } from "d3-hierarchy";
+import type { Selection } from "../fit/select.js";
+import type { PathIndex } from "../model/paths.js";
+import { buildView, type Labeller } from "../view/build-view.js";
+import type { Folded, ViewNode } from "../view/view-node.js";
+import { type ChangeCounts, type ChangeKind, countsAt, KIND, kindName } from "./changes.js";
+import type { Combined } from "./combine.js";
+import type { DiffInterest } from "./diff-interest.js";
+import type { ChangeMeasures } from "./measure-changes.js";
+
+/** What is folded under a shown node of a diff: the summary's counts plus the changes inside. */
+export interface DiffFolded extends Folded {
+  /** Changed nodes inside the hidden children's subtrees, per kind. */
+  changes: ChangeCounts;
+  /** Net size change inside them (sum of own size changes). */
+  delta: number;
+}
+
+/** A shown node of a diff. `nodes` counts the combined tree (removed nodes included); `size` is new. */
+export interface DiffViewNode extends Omit<ViewNode, "children" | "hidden"> {
+  change: ChangeKind | null;
+  /** Own size change: new minus old (a removed node: minus its old size). */
+  delta: number;
+  /** Sum of own size changes over the subtree. */
+  net: number;
+  /** Changed nodes in the subtree, this node included, per kind. */
+  changes: ChangeCounts;
+  /** A moved node's old parent, as a path in the old version. */
+  movedFrom: string | null;
+  /** A renamed node's old name. */
+  renamedFrom: string | null;
+  children: DiffViewNode[];
+  hidden: DiffFolded | null;
+}
+
+/** Names and paths in the old version, for the "moved from" and "renamed from" notes. */
+export interface OldNames {
+  nameOf: (o: number) => string;
+  pathOf: (o: number) => string;
+}
+
+/**
+ * The shown nodes of a combined tree as a d3-hierarchy tree (see `buildView`), each carrying its
+ * change and the changes folded under it, so that at every shown node each count and the net size
+ * change equal the node's own plus its shown children's plus its folded remainder's.
+ */
+export function buildDiffView(
+  index: PathIndex,
+  combined: Combined,
+  changes: ChangeMeasures,
+  scores: DiffInterest,
+  foci: Int32Array,
+  selection: Selection,
+  label: Labeller,
+  nameOf: (i: number) => string,
+  pathOf: (i: number) => string,
+  old: OldNames,
+): HierarchyNode<DiffViewNode> {
+  const base = buildView(index, scores, foci, selection, label, nameOf, pathOf);
+  const { count } = index.measures;
+  const { shown } = selection;
+  const { kind, delta, oldIndex, oldTree } = combined;
+  const byIndex = new Map<number, DiffViewNode>();
+  let root: DiffViewNode | undefined;
+  base.eachBefore(({ data }) => {
+    const i = data.index;
+    const o = oldIndex[i];
+    const k = kind[i];
+    let hidden: DiffFolded | null = null;
+    if (data.hidden) {
+      const flat = new Int32Array(5);
+      let net = 0;
+      const end = i + count[i];
+      for (let c = i + 1; c < end; c += count[c]) {
+        if (shown[c]) continue;
+        for (let j = 0; j < 5; j++) flat[j] += changes.counts[c * 5 + j];
+        net += changes.net[c];
+      }
+      hidden = { ...data.hidden, changes: countsAt(flat, 0), delta: net };
+    }
+    const node: DiffViewNode = {
+      ...data,
+      onPath: data.onPath || scores.onChangePath[i] === 1,
+      change: kindName(k),
+      delta: delta[i],
+      net: changes.net[i],
+      changes: countsAt(changes.counts, i),
+      movedFrom: k === KIND.moved ? old.pathOf(oldTree.parent[o]) : null,
+      renamedFrom: k === KIND.renamed ? old.nameOf(o) : null,
+      children: [],
+      hidden,
+    };
+    byIndex.set(i, node);
+    if (i === 0) root = node;
+    else byIndex.get(index.tree.parent[i])!.children.push(node);
+  });
+  return hierarchy(root!);
+}

@@ -1,0 +1,102 @@
+import type { Measures } from "../model/measure.js";
+import type { Tree } from "../model/tree.js";
+
+/** How the nodes of two versions correspond. Roots always correspond to each other. */
+export interface Matching {
+  /** "id" when both versions link rows by id, else "path". */
+  readonly by: "id" | "path";
+  /** The new node matching each old node, or -1 (the old node was removed). */
+  readonly oldToNew: Int32Array;
+  /** The old node matching each new node, or -1 (the new node was added). */
+  readonly newToOld: Int32Array;
+}
+
+/**
+ * Pairs the nodes of two versions: by row id when both versions have ids, otherwise by path. Matching
+ * by path pairs the k-th child named X of matched parents on both sides (the `~~k` of printed paths),
+ * so a node whose path changed (moved or renamed) is one node removed and another added.
+ */
+export function matchTrees(
+  oldTree: Tree,
+  oldMeasures: Measures,
+  newTree: Tree,
+  newMeasures: Measures,
+): Matching {
+  const oldToNew = new Int32Array(oldTree.length).fill(-1);
+  const newToOld = new Int32Array(newTree.length).fill(-1);
+  oldToNew[0] = 0;
+  newToOld[0] = 0;
+  if (oldTree.ids && newTree.ids) {
+    matchById(oldTree.ids, newTree.ids, oldToNew, newToOld);
+    return { by: "id", oldToNew, newToOld };
+  }
+  matchByPath(oldTree, oldMeasures.count, newTree, newMeasures.count, oldToNew, newToOld);
+  return { by: "path", oldToNew, newToOld };
+}
+
+function matchById(
+  oldIds: readonly string[],
+  newIds: readonly string[],
+  oldToNew: Int32Array,
+  newToOld: Int32Array,
+) {
+  const byId = new Map<string, number>();
+  for (let o = 1; o < oldIds.length; o++) {
+    const id = oldIds[o];
+    if (id !== "" && !byId.has(id)) byId.set(id, o);
+  }
+  for (let n = 1; n < newIds.length; n++) {
+    const id = newIds[n];
+    if (id === "") continue;
+    const o = byId.get(id);
+    if (o === undefined || oldToNew[o] !== -1) continue;
+    oldToNew[o] = n;
+    newToOld[n] = o;
+  }
+}
+
+/** Top-down in the new tree's pre-order: a node's parent is matched (or not) before the node. */
+function matchByPath(
+  oldTree: Tree,
+  oldCount: Int32Array,
+  newTree: Tree,
+  newCount: Int32Array,
+  oldToNew: Int32Array,
+  newToOld: Int32Array,
+) {
+  const oldName = oldTree.name;
+  const newName = newTree.name;
+  for (let n = 0; n < newTree.length; n++) {
+    const o = newToOld[n];
+    if (o < 0) {
+      n += newCount[n] - 1; // nothing under an unmatched node can match by path
+      continue;
+    }
+    const oEnd = o + oldCount[o];
+    const nEnd = n + newCount[n];
+    // Usual case: the same names in the same order, paired position by position.
+    let oc = o + 1;
+    let nc = n + 1;
+    while (oc < oEnd && nc < nEnd && oldName[oc] === newName[nc]) {
+      oldToNew[oc] = nc;
+      newToOld[nc] = oc;
+      oc += oldCount[oc];
+      nc += newCount[nc];
+    }
+    if (oc >= oEnd || nc >= nEnd) continue;
+    // Otherwise the k-th remaining old child of a name pairs with the k-th remaining new child of it.
+    const waiting = new Map<string, { next: number; list: number[] }>();
+    for (let c = oc; c < oEnd; c += oldCount[c]) {
+      const queue = waiting.get(oldName[c]);
+      if (queue) queue.list.push(c);
+      else waiting.set(oldName[c], { next: 0, list: [c] });
+    }
+    for (let c = nc; c < nEnd; c += newCount[c]) {
+      const queue = waiting.get(newName[c]);
+      if (!queue || queue.next === queue.list.length) continue;
+      const m = queue.list[queue.next++];
+      oldToNew[m] = c;
+      newToOld[c] = m;
+    }
+  }
+}

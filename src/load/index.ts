@@ -1,0 +1,48 @@
+import { EspalierError } from "../errors.js";
+import { buildTree } from "../model/build.js";
+import type { Tree } from "../model/tree.js";
+import { detectFormat } from "./detect.js";
+import { loadJson } from "./json.js";
+import { linkTable } from "./link.js";
+import { loadPaths } from "./paths.js";
+import { csvTable } from "./table.js";
+import type { LoadOptions } from "./types.js";
+import { loadYaml } from "./yaml.js";
+
+export { detectFormat } from "./detect.js";
+export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } from "./types.js";
+
+/**
+ * Reads already-decoded text into a {@link Tree}: strips a leading byte order mark, detects the format
+ * unless `options.format` forces one, links the nodes and orders them. Every failure is an
+ * {@link EspalierError} whose position names `options.file`.
+ */
+export function loadTree(text: string, options: LoadOptions): Tree {
+  const file = options.file === undefined || options.file === "-" ? undefined : options.file;
+  try {
+    const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+    if (!/\S/.test(body)) throw new EspalierError("INPUT_EMPTY", "the input is empty");
+    const format = options.format ?? detectFormat(body, file, options);
+    return buildTree(linkedNodes(body, format, options), file);
+  } catch (error) {
+    if (error instanceof EspalierError && file !== undefined) throw error.inFile(file);
+    throw error;
+  }
+}
+
+function linkedNodes(body: string, format: LoadOptions["format"] & string, options: LoadOptions) {
+  switch (format) {
+    case "json":
+    case "rows":
+      // A detected format is a guess from the first record; the parsed value decides.
+      return loadJson(body, options, options.format === undefined ? undefined : format);
+    case "yaml":
+      return loadYaml(body, options);
+    case "csv":
+      return linkTable(csvTable(body, ",", options.maxNodes), options);
+    case "tsv":
+      return linkTable(csvTable(body, "\t", options.maxNodes), options);
+    case "paths":
+      return loadPaths(body, options);
+  }
+}

@@ -1,0 +1,156 @@
+import { EspalierError } from "../errors.js";
+import type { LinkedNodes } from "../model/build.js";
+import { limitExceeded, NodeSink } from "./nodeSink.js";
+import { PathIndex } from "./pathIndex.js";
+import { parseSize } from "./size.js";
+import type { Cell, Table } from "./table.js";
+import type { LoadOptions } from "./types.js";
+
+/**
+ * Links table rows into nodes: by id and parent columns when the table has both (an empty parent makes a
+ * top-level row), else by a path column (ancestors created implicitly), else FIELD_MISSING.
+ * Origins are data rows (1-based).
+ */
+export function linkTable(table: Table, options: LoadOptions): LinkedNodes {
+  if (table.length === 0) throw new EspalierError("INPUT_EMPTY", "the table has no data rows");
+  const ids = table.column(options.idField);
+  const parents = ids && table.column(options.parentField);
+  if (ids && parents) return linkById(table, ids, parents, options);
+  const paths = table.column(options.pathField);
+  if (paths) return linkByPath(table, paths, options);
+  throw new EspalierError(
+    "FIELD_MISSING",
+    `rows need "${options.idField}" and "${options.parentField}" columns, or a "${options.pathField}" column; ` +
+      `the columns are ${listNames(table.columnNames())}`,
+  );
+}
+
+function linkById(
+  table: Table,
+  idCells: readonly Cell[],
+  parentCells: readonly Cell[],
+  options: LoadOptions,
+) {
+  const n = table.length;
+  if (n > options.maxNodes) throw limitExceeded(options.maxNodes, true, options.maxNodes + 1);
+  const keep = keptColumns(table, options);
+  const names = table.column(options.nameField);
+  const sizes = table.column(options.sizeField);
+  const ids: string[] = new Array(n);
+  const rowOf = new Map<string, number>();
+  for (let r = 0; r < n; r++) {
+    const id = cellText(idCells[r]);
+    if (id === "")
+      throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${options.idField}"`, { row: r + 1 });
+    const earlier = rowOf.get(id);
+    if (earlier !== undefined) {
+      throw new EspalierError(
+        "DUPLICATE_ID",
+        `row ${r + 1} repeats the ${options.idField} ${JSON.stringify(id)} of row ${earlier + 1}`,
+        { row: r + 1 },
+      );
+    }
+    rowOf.set(id, r);
+    ids[r] = id;
+  }
+  const parentOf = new Int32Array(n);
+  const origin = new Int32Array(n);
+  const ownSize = new Float64Array(n);
+  const name: string[] = new Array(n);
+  for (let r = 0; r < n; r++) {
+    const parentId = cellText(parentCells[r]);
+    if (parentId === "") {
+      parentOf[r] = -1;
+    } else {
+      const p = rowOf.get(parentId);
+      if (p === undefined) {
+        throw new EspalierError(
+          "MISSING_PARENT",
+          `row ${r + 1} names the ${options.parentField} ${JSON.stringify(parentId)}, which no row has as its ${options.idField}`,
+          { row: r + 1 },
+        );
+      }
+      parentOf[r] = p;
+    }
+    origin[r] = r + 1;
+    name[r] = names ? cellText(names[r]) : ids[r];
+    if (sizes) ownSize[r] = sizeOf(sizes[r], table.textCells, r + 1, options.sizeField);
+  }
+  return {
+    parentOf,
+    name,
+    ownSize,
+    hasSizes: sizes !== undefined,
+    ids,
+    origin,
+    originIsRow: true,
+    fields: keep.values,
+    rootName: options.rootName,
+  } satisfies LinkedNodes;
+}
+
+function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptions): LinkedNodes {
+  const n = table.length;
+  const keep = keptColumns(table, options);
+  const names = table.column(options.nameField);
+  const sizes = table.column(options.sizeField);
+  const sink = new NodeSink(options.maxNodes, true);
+  const index = new PathIndex(sink);
+  // Kept values by row, spread over nodes at the end (implicit ancestors keep "").
+  const nodeOfRow = new Int32Array(n);
+  for (let r = 0; r < n; r++) {
+    const path = cellText(pathCells[r]);
+    const i = index.place(path, 0, path.length, r + 1);
+    if (i === -1) {
+      throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${options.pathField}"`, { row: r + 1 });
+    }
+    nodeOfRow[r] = i;
+    if (names) sink.name[i] = cellText(names[r]);
+    if (sizes) sink.ownSize[i] = sizeOf(sizes[r], table.textCells, r + 1, options.sizeField);
+  }
+  sink.hasSizes = sizes !== undefined;
+  const fields = new Map<string, string[]>();
+  for (const [key, byRow] of keep.values) {
+    const byNode: string[] = new Array(sink.length).fill("");
+    for (let r = 0; r < n; r++) byNode[nodeOfRow[r]] = byRow[r];
+    fields.set(key, byNode);
+  }
+  return sink.finish(options.rootName, fields);
+}
+
+/** The kept columns as text, by row; FIELD_MISSING names the columns there are. */
+function keptColumns(table: Table, options: LoadOptions): { values: Map<string, string[]> } {
+  const values = new Map<string, string[]>();
+  for (const key of options.keepFields) {
+    const cells = table.column(key);
+    if (!cells) {
+      throw new EspalierError(
+        "FIELD_MISSING",
+        `no column "${key}" to keep; the columns are ${listNames(table.columnNames())}`,
+      );
+    }
+    values.set(key, cells.map(cellText));
+  }
+  return { values };
+}
+
+function sizeOf(cell: Cell, textCells: boolean, row: number, field: string): number {
+  if (cell === undefined || cell === null) return 0;
+  const value =
+    typeof cell === "number" ? cell : textCells && typeof cell === "string" ? parseSize(cell) : Number.NaN;
+  if (Number.isFinite(value) && value >= 0) return value;
+  throw new EspalierError(
+    "BAD_SIZE",
+    `the "${field}" of row ${row} must be a number >= 0, got ${JSON.stringify(cell)}`,
+    { row },
+  );
+}
+
+function cellText(cell: Cell): string {
+  if (cell === undefined || cell === null) return "";
+  return typeof cell === "string" ? cell : String(cell);
+}
+
+function listNames(names: readonly string[]): string {
+  return names.length === 0 ? "(none)" : names.map((name) => JSON.stringify(name)).join(", ");
+}

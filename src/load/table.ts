@@ -1,0 +1,140 @@
+import { parse } from "csv-parse/sync";
+import { EspalierError } from "../errors.js";
+
+/** One cell: text from CSV/TSV, any JSON scalar from rows. */
+export type Cell = string | number | boolean | null | undefined;
+
+/** Records with named columns, read column by column. Data rows are numbered from 1. */
+export interface Table {
+  /** Number of data rows. */
+  readonly length: number;
+  /** Whether cells are text that still needs parsing (CSV/TSV), so "12" is a size. */
+  readonly textCells: boolean;
+  /** The column's cells, one per row, or undefined when no row has that column. */
+  column(name: string): readonly Cell[] | undefined;
+  /** The columns that exist, for messages. */
+  columnNames(): string[];
+}
+
+/**
+ * A table from CSV (RFC 4180, delimiter ",") or TSV (delimiter "\t"). The first record is the header.
+ * TSV has no quoting (IANA text/tab-separated-values: a field cannot hold a tab or line break), so a
+ * double quote in TSV is an ordinary character. Blank lines are skipped and are not rows.
+ * `maxRows` stops parsing once the table is known to be too long.
+ */
+export function csvTable(text: string, delimiter: "," | "\t", maxRows: number): Table {
+  const limit = Number.isFinite(maxRows) ? { to: maxRows + 2 } : {};
+  const options = { delimiter, quote: delimiter === "\t" ? false : '"', skip_empty_lines: true, ...limit };
+  let records: string[][];
+  try {
+    records = parse(text, options);
+  } catch (error) {
+    throw csvError(error, text, options);
+  }
+  if (records.length === 0) throw new EspalierError("INPUT_EMPTY", "the table has no header row");
+  const header = records[0].map((name) => name.trim());
+  const at = new Map<string, number>();
+  header.forEach((name, c) => {
+    if (!at.has(name)) at.set(name, c);
+  });
+  const length = records.length - 1;
+  return {
+    length,
+    textCells: true,
+    column(name) {
+      const c = at.get(name);
+      if (c === undefined) return undefined;
+      if (header.indexOf(name, c + 1) !== -1) {
+        throw new EspalierError("PARSE_CSV", `the header names the column "${name}" more than once`, {
+          line: 1,
+        });
+      }
+      const cells: string[] = new Array(length);
+      for (let r = 0; r < length; r++) cells[r] = records[r + 1][c];
+      return cells;
+    },
+    columnNames: () => header,
+  };
+}
+
+/** A table from a parsed JSON array of flat objects (rows); each element must be an object. */
+export function rowsTable(rows: readonly unknown[]): Table {
+  for (let r = 0; r < rows.length; r++) {
+    const row = rows[r];
+    if (typeof row !== "object" || row === null || Array.isArray(row)) {
+      throw new EspalierError("SHAPE", `row ${r + 1} must be an object`, { row: r + 1 });
+    }
+  }
+  const records = rows as readonly Record<string, unknown>[];
+  return {
+    length: records.length,
+    textCells: false,
+    column(name) {
+      const cells: Cell[] = new Array(records.length);
+      let found = false;
+      for (let r = 0; r < records.length; r++) {
+        const record = records[r];
+        if (!Object.hasOwn(record, name)) {
+          cells[r] = undefined;
+          continue;
+        }
+        found = true;
+        const value = record[name];
+        if (typeof value === "object" && value !== null) {
+          throw new EspalierError("SHAPE", `the "${name}" of row ${r + 1} must be a plain value`, {
+            row: r + 1,
+          });
+        }
+        cells[r] = value as Cell;
+      }
+      return found ? cells : undefined;
+    },
+    columnNames() {
+      const names = new Set<string>();
+      for (const record of records) for (const key of Object.keys(record)) names.add(key);
+      return [...names];
+    },
+  };
+}
+
+/**
+ * PARSE_CSV at the line where the faulty record starts: csv-parse reports the line where it noticed the
+ * fault (for an unclosed quote, the end of the input), so the record's start is found by re-reading the
+ * good records before it.
+ */
+function csvError(error: unknown, text: string, options: object): EspalierError {
+  if (!(error instanceof Error) || !("code" in error) || !String(error.code).match(/^(CSV_|INVALID_)/)) {
+    return error as EspalierError;
+  }
+  const good = Number((error as { records?: number }).records ?? 0);
+  let lastEnd = 0;
+  if (good > 0) {
+    const before = parse(text, { ...options, to: good, info: true }) as unknown as {
+      info: { lines: number };
+    }[];
+    lastEnd = before[before.length - 1].info.lines;
+  }
+  const line = firstNonBlankLineAfter(text, lastEnd);
+  const reason = error.message.replace(/\s+(at|on) line \d+.*$/s, "");
+  const pos = good > 0 ? { line, row: good } : { line };
+  return new EspalierError("PARSE_CSV", `invalid CSV: ${reason}`, pos);
+}
+
+/** The first line after line `after` (1-based) that holds more than whitespace; or the line after. */
+function firstNonBlankLineAfter(text: string, after: number): number {
+  let line = 1;
+  let start = 0;
+  while (line <= after) {
+    const nl = text.indexOf("\n", start);
+    if (nl === -1) return line + 1;
+    start = nl + 1;
+    line++;
+  }
+  for (;;) {
+    const nl = text.indexOf("\n", start);
+    const end = nl === -1 ? text.length : nl;
+    if (text.slice(start, end).trim() !== "" || nl === -1) return line;
+    start = nl + 1;
+    line++;
+  }
+}

@@ -1,0 +1,63 @@
+import type { HierarchyNode } from "d3-hierarchy";
+import type { DiffTotals } from "../diff/diff-trees.js";
+import type { DiffViewNode } from "../diff/diff-view.js";
+import { DIFF_FORMAT, type DiffSummary, type DiffSummaryNode } from "./diff-schema.js";
+
+export interface DiffJsonOptions {
+  budget: number;
+  lines: number;
+  foci: string[];
+  by: "id" | "path";
+  /** Include each node's label (when a label template is in use). */
+  labels: boolean;
+}
+
+/** The diff JSON object (see docs/diff.md and `diffSchema`). */
+export function toDiffSummary(
+  view: HierarchyNode<DiffViewNode>,
+  totals: DiffTotals,
+  options: DiffJsonOptions,
+): DiffSummary {
+  const convert = (node: DiffViewNode): DiffSummaryNode => ({
+    name: node.name,
+    path: node.path,
+    ...(node.id !== null ? { id: node.id } : {}),
+    ...(options.labels ? { label: node.label } : {}),
+    interest: node.interest,
+    nodes: node.nodes,
+    size: node.size,
+    focus: node.focus,
+    change: node.change,
+    delta: node.delta,
+    net: node.net,
+    ...(node.movedFrom !== null ? { movedFrom: node.movedFrom } : {}),
+    ...(node.renamedFrom !== null ? { renamedFrom: node.renamedFrom } : {}),
+    children: node.children.map(convert),
+    hidden: node.hidden ? { ...node.hidden, changes: { ...node.hidden.changes } } : null,
+  });
+  return {
+    format: DIFF_FORMAT,
+    match: options.by,
+    budget: options.budget,
+    lines: options.lines,
+    changes: { ...totals.changes },
+    totals: {
+      nodes: view.data.nodes,
+      size: view.data.size,
+      delta: totals.delta,
+      old: { ...totals.old },
+      new: { ...totals.new },
+    },
+    foci: options.foci,
+    root: convert(view.data),
+  };
+}
+
+/** The diff as JSON text (RFC 8259), two-space indented, ending in a newline. */
+export function renderDiffJson(
+  view: HierarchyNode<DiffViewNode>,
+  totals: DiffTotals,
+  options: DiffJsonOptions,
+): string {
+  return `${JSON.stringify(toDiffSummary(view, totals, options), null, 2)}\n`;
+}

@@ -1,0 +1,100 @@
+import { z } from "zod";
+import { changeKinds } from "../diff/changes.js";
+import { foldedSchema } from "./summary-schema.js";
+
+/** Name and version of the diff JSON; bump the number when a field changes meaning. */
+export const DIFF_FORMAT = "espalier-diff/1";
+
+const count = z.number().int().nonnegative();
+
+export const changeCountsSchema = z
+  .object({ added: count, removed: count, moved: count, renamed: count, resized: count })
+  .strict()
+  .describe("Changed nodes per kind; each changed node counts under exactly one kind.");
+
+export const diffFoldedSchema = foldedSchema
+  .extend({
+    changes: changeCountsSchema.describe("Changed nodes inside the hidden children's subtrees."),
+    delta: z.number().describe("Net size change inside them (new minus old)."),
+  })
+  .strict()
+  .describe("What is folded under a shown node, with the changes inside it.");
+
+export interface DiffSummaryNode {
+  name: string;
+  path: string;
+  id?: string;
+  label?: string;
+  interest: number;
+  nodes: number;
+  size: number;
+  focus: boolean;
+  change: (typeof changeKinds)[number] | null;
+  delta: number;
+  net: number;
+  movedFrom?: string;
+  renamedFrom?: string;
+  children: DiffSummaryNode[];
+  hidden: z.infer<typeof diffFoldedSchema> | null;
+}
+
+export const diffNodeSchema: z.ZodType<DiffSummaryNode> = z.lazy(() =>
+  z
+    .object({
+      name: z.string().describe("The node's own name (the old name for a removed node)."),
+      path: z.string().describe("Path in the combined tree, RFC 6901 escaping; accepted back as a focus."),
+      id: z.string().optional().describe("Row id, when nodes were matched by id."),
+      label: z.string().optional().describe("Display text, when a label template is in use."),
+      interest: z.number().describe("Degree of interest (changes score as foci do)."),
+      nodes: z.number().int().positive().describe("Nodes in the combined subtree (removed ones included)."),
+      size: z.number().describe("Size of the subtree in the new version (removed nodes hold 0)."),
+      focus: z.boolean().describe("Whether the node is one of the user's foci."),
+      change: z.enum(changeKinds).nullable().describe("The node's kind of change, or null."),
+      delta: z.number().describe("Own size change, new minus old."),
+      net: z.number().describe("Net size change of the subtree: the sum of own size changes."),
+      movedFrom: z
+        .string()
+        .optional()
+        .describe("For a moved node, the old parent's path in the old version."),
+      renamedFrom: z.string().optional().describe("For a renamed node, its old name."),
+      children: z.array(diffNodeSchema).describe("Shown children, in the combined tree's order."),
+      hidden: diffFoldedSchema.nullable().describe("Hidden children folded into counts, or null."),
+    })
+    .strict(),
+);
+
+const versionTotals = z.object({ nodes: z.number().int().positive(), size: z.number() }).strict();
+
+export const diffSchema = z
+  .object({
+    format: z.literal(DIFF_FORMAT),
+    match: z.enum(["id", "path"]).describe("How nodes of the two versions were paired."),
+    budget: z.number().int().positive().describe("Line budget asked for."),
+    lines: z
+      .number()
+      .int()
+      .nonnegative()
+      .describe("Lines the text rendering takes, the totals line included."),
+    changes: changeCountsSchema.describe("Changed nodes of the whole diff, per kind."),
+    totals: z
+      .object({
+        nodes: z
+          .number()
+          .int()
+          .positive()
+          .describe("Nodes of the combined tree: new nodes plus removed ones."),
+        size: z.number().describe("Size of the new version."),
+        delta: z.number().describe("Net size change: new size minus old size."),
+        old: versionTotals,
+        new: versionTotals,
+      })
+      .strict(),
+    foci: z.array(z.string()).describe("Paths of the user's foci in the combined tree."),
+    root: diffNodeSchema,
+  })
+  .strict()
+  .describe(
+    "espalier diff: the changes between two versions of a hierarchy, with everything hidden counted.",
+  );
+
+export type DiffSummary = z.infer<typeof diffSchema>;

@@ -1,0 +1,132 @@
+import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { beforeAll, describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+
+const ORG = "fixtures/quillfeather-org.csv";
+let dir = "";
+const at = (name: string) => join(dir, name);
+
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), "espalier-diff-"));
+  writeFileSync(at("old.paths"), "10\ttidewater/a/x\n20\ttidewater/a/y\n5\ttidewater/b/z\n");
+  writeFileSync(at("new.paths"), "10\ttidewater/a/x\n26\ttidewater/a/y\n5\ttidewater/b/z\n7\ttidewater/c\n");
+  // The org chart with one person moved to another manager (ids keep their rows).
+  const rows = readFileSync(ORG, "utf8").split("\n");
+  const moved = rows.map((row) =>
+    row.startsWith("Q2417,") ? row.replace(/^Q2417,[^,]*,/, "Q2417,Q0412,") : row,
+  );
+  writeFileSync(at("org-next.csv"), moved.join("\n"));
+  writeFileSync(at("broken.json"), '{"name": "tidewater", "children": [');
+});
+
+describe("espalier diff OLD NEW", () => {
+  it("exits 1 with --exit-code when the versions differ, and prints the diff", async () => {
+    const r = await cli(["diff", at("old.paths"), at("new.paths"), "--exit-code"]);
+    expect(r.code).toBe(1);
+    expect(r.stderr).toBe("");
+    expect(r.stdout.split("\n")[0]).toMatch(
+      /^matched by path: 1 added, 0 removed, 0 moved, 0 renamed, 1 resized;/,
+    );
+    expect(r.stdout).toContain("[resized +6 B] y");
+    expect(r.stdout).toContain("[added +7 B] c");
+  });
+
+  it("exits 0 with --exit-code when the versions are the same (diff(T, T) reports nothing)", async () => {
+    const r = await cli(["diff", at("old.paths"), at("old.paths"), "--exit-code"]);
+    expect(r.code).toBe(0);
+    expect(r.stdout.split("\n")[0]).toMatch(
+      /^matched by path: 0 added, 0 removed, 0 moved, 0 renamed, 0 resized;/,
+    );
+    expect(r.stdout).not.toContain("[");
+  });
+
+  it("exits 0 without --exit-code even when the versions differ", async () => {
+    const r = await cli(["diff", at("old.paths"), at("new.paths")]);
+    expect(r.code).toBe(0);
+  });
+
+  it("exits 2 on an input error either way, with one line on stderr and nothing on stdout", async () => {
+    for (const extra of [[], ["--exit-code"]]) {
+      const missing = await cli(["diff", at("old.paths"), at("nope.paths"), ...extra]);
+      expect(missing.code).toBe(2);
+      expect(missing.stdout).toBe("");
+      expect(missing.stderr).toContain("[IO]");
+      const broken = await cli(["diff", at("broken.json"), at("old.paths"), ...extra]);
+      expect(broken.code).toBe(2);
+      expect(broken.stdout).toBe("");
+      expect(broken.stderr).toContain("[PARSE_JSON]");
+      expect(broken.stderr).toContain("broken.json");
+    }
+  });
+
+  it("exits 2 on usage errors: both versions on standard input, a missing operand, a bad budget", async () => {
+    const both = await cli(["diff", "-", "-", "--exit-code"], { stdin: "a\n" });
+    expect(both.code).toBe(2);
+    expect(both.stderr).toContain("[USAGE]");
+    expect((await cli(["diff", at("old.paths")])).code).toBe(2);
+    const budget = await cli(["diff", at("old.paths"), at("new.paths"), "--budget", "0"]);
+    expect(budget.code).toBe(2);
+    expect(budget.stderr).toContain("[USAGE]");
+  });
+
+  it("reads either version from standard input", async () => {
+    const stdin = readFileSync(at("new.paths"), "utf8");
+    const asNew = await cli(["diff", at("old.paths"), "-", "--exit-code"], { stdin });
+    const asOld = await cli(["diff", "-", at("old.paths"), "--exit-code"], { stdin });
+    expect(asNew.code).toBe(1);
+    expect(asNew.stdout).toContain("1 added, 0 removed");
+    expect(asOld.stdout).toContain("0 added, 1 removed");
+  });
+
+  it("takes the summary's options after the subcommand: budget, format, field names", async () => {
+    const r = await cli(["diff", at("old.paths"), at("new.paths"), "--budget", "3"]);
+    expect(r.stdout.trimEnd().split("\n")).toHaveLength(3);
+    const json = JSON.parse(
+      (await cli(["diff", at("old.paths"), at("new.paths"), "--format", "json"])).stdout,
+    );
+    expect(json.changes).toEqual({ added: 1, removed: 0, moved: 0, renamed: 0, resized: 1 });
+    const tight = await cli(["diff", at("old.paths"), at("new.paths"), "--budget", "1"]);
+    expect(tight.code).toBe(2);
+    expect(tight.stderr).toContain("[BUDGET_TOO_SMALL]");
+  });
+
+  it("matches an org chart's rows by id and reports a change of manager as one move", async () => {
+    const r = await cli(
+      [
+        "diff",
+        ORG,
+        at("org-next.csv"),
+        "--parent-field",
+        "manager",
+        "--size-field",
+        "cost",
+        "--budget",
+        "20",
+      ],
+      {},
+    );
+    expect(r.code).toBe(0);
+    expect(r.stdout.split("\n")[0]).toMatch(
+      /^matched by id: 0 added, 0 removed, 1 moved, 0 renamed, 0 resized;/,
+    );
+    expect(r.stdout).toMatch(/> \[moved from [^\]]+\] Marit Okonkwo-Lund/);
+    expect(r.stdout.trimEnd().split("\n").length).toBeLessThanOrEqual(20);
+  });
+
+  it("prints keyed pseudonyms instead of names with --pseudonymize", async () => {
+    const args = ["diff", ORG, at("org-next.csv"), "--parent-field", "manager", "--pseudonymize"];
+    const r = await cli(args, { env: { ESPALIER_PSEUDONYM_KEY: "test-secret" } });
+    expect(r.code).toBe(0);
+    expect(r.stdout).not.toContain("Marit");
+    expect(r.stdout).toMatch(/\[moved from [^\]]*anon-[0-9a-f]{12}\] anon-[0-9a-f]{12}/);
+  });
+
+  it("leaves the summary as the default command", async () => {
+    const r = await cli([at("old.paths"), "--budget", "3"]);
+    expect(r.code).toBe(0);
+    expect(r.stdout.trimEnd().split("\n")).toHaveLength(3);
+    expect(r.stdout).not.toContain("matched by");
+  });
+});

@@ -1,0 +1,118 @@
+import { describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+
+const ORG = "fixtures/quillfeather-org.csv";
+const FILES = "fixtures/tidewater-files.paths";
+
+describe("espalier <input> (summary)", () => {
+  it("summarises a path list from standard input within the budget", async () => {
+    const stdin = "10\ta/x\n20\ta/y\n5\tb/z\n";
+    const r = await cli(["-", "--focus", "a/x", "--budget", "4"], { stdin });
+    expect(r.code).toBe(0);
+    expect(r.stderr).toBe("");
+    expect(r.stdout.trimEnd().split("\n")).toHaveLength(4);
+    expect(r.stdout).toContain("* x");
+  });
+
+  it("exits 2 with one line naming the code when a focus matches nothing, and prints nothing on stdout", async () => {
+    const r = await cli(["-", "--focus", "a/q"], { stdin: "a/x\na/y\n" });
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr.trimEnd().split("\n")).toHaveLength(1);
+    expect(r.stderr).toContain("[FOCUS_NO_MATCH]");
+  });
+
+  it("exits 2 with BUDGET_TOO_SMALL naming the smallest budget that works", async () => {
+    const r = await cli(["-", "--focus", "x/b/c/d", "--budget", "3"], { stdin: "x/b/c/d\ny\n" });
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain("[BUDGET_TOO_SMALL]");
+    expect(r.stderr).toContain("is 5");
+  });
+
+  it("exits 2 for a bad option value, with a usage error and no output", async () => {
+    const r = await cli(["-", "--budget", "zero"], { stdin: "a\n" });
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr).toContain("[USAGE]");
+  });
+
+  it("reads foci from a file given with --focus-from", async () => {
+    const r = await cli([FILES, "--focus-from", "-", "--budget", "30"], {
+      stdin: "services/ledger\n",
+    });
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/\* ledger/);
+  });
+
+  it("prints the summary JSON with --format json", async () => {
+    const r = await cli(["-", "--format", "json", "--budget", "10"], { stdin: "1\ta\n2\tb\n" });
+    const doc = JSON.parse(r.stdout);
+    expect(doc.totals).toEqual({ nodes: 3, size: 3 });
+    expect(doc.root.children.map((c: { name: string }) => c.name)).toEqual(["a", "b"]);
+  });
+
+  it("accepts every printed path back as a focus", async () => {
+    const first = await cli([FILES, "--format", "json", "--budget", "60"]);
+    const doc = JSON.parse(first.stdout);
+    const paths: string[] = [];
+    const walk = (n: { path: string; children: unknown[] }) => {
+      paths.push(n.path);
+      for (const c of n.children) walk(c as typeof n);
+    };
+    walk(doc.root);
+    for (const p of paths.slice(1, 20)) {
+      const again = await cli([FILES, "--focus", p, "--budget", "60", "--format", "json"]);
+      expect(again.code, again.stderr).toBe(0);
+      expect(JSON.parse(again.stdout).foci).toEqual([p]);
+    }
+  });
+
+  it("labels people by record fields and can replace names by keyed pseudonyms", async () => {
+    const byTitle = await cli([
+      ORG,
+      "--parent-field",
+      "manager",
+      "--label",
+      "{title} ({team})",
+      "--budget",
+      "8",
+    ]);
+    expect(byTitle.code, byTitle.stderr).toBe(0);
+    const anon = await cli(
+      [ORG, "--parent-field", "manager", "--pseudonymize", "--budget", "8", "--format", "json"],
+      {
+        env: { ESPALIER_PSEUDONYM_KEY: "test-secret" },
+      },
+    );
+    expect(anon.code, anon.stderr).toBe(0);
+    const doc = JSON.parse(anon.stdout);
+    expect(doc.root.name).toMatch(/^anon-[0-9a-f]{12}$/);
+    const noKey = await cli([ORG, "--parent-field", "manager", "--pseudonymize"]);
+    expect(noKey.code).toBe(2);
+  });
+
+  it("colours only when asked or on a terminal, and never with NO_COLOR", async () => {
+    const stdin = "a/x\n";
+    expect((await cli(["-"], { stdin })).stdout).not.toContain("\u001b[");
+    expect((await cli(["-", "--color", "always"], { stdin })).stdout).toContain("\u001b[");
+    expect((await cli(["-"], { stdin, tty: { rows: 30 } })).stdout).toContain("\u001b[");
+    expect((await cli(["-"], { stdin, tty: { rows: 30 }, env: { NO_COLOR: "1" } })).stdout).not.toContain(
+      "\u001b[",
+    );
+  });
+
+  it("defaults the budget to the terminal height less one, else 40", async () => {
+    const stdin = Array.from({ length: 100 }, (_, i) => `d/f${i}`).join("\n");
+    expect((await cli(["-"], { stdin })).stdout.trimEnd().split("\n")).toHaveLength(40);
+    expect(
+      (await cli(["-", "--color", "never"], { stdin, tty: { rows: 12 } })).stdout.trimEnd().split("\n"),
+    ).toHaveLength(11);
+  });
+
+  it("prints help with worked examples", async () => {
+    const r = await cli(["--help"]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain("Examples:");
+    expect(r.stdout).toContain("--focus");
+  });
+});

@@ -1,0 +1,254 @@
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { kindName } from "../../src/diff/changes.js";
+import { diffOrder } from "../../src/diff/diff-order.js";
+import { DIFF_HEADER_LINES, type DiffResult, diffTrees } from "../../src/diff/diff-trees.js";
+import type { DiffViewNode } from "../../src/diff/diff-view.js";
+import { EspalierError } from "../../src/errors.js";
+import { measure } from "../../src/model/measure.js";
+import type { Tree } from "../../src/model/tree.js";
+import { renderDiffText } from "../../src/render/diff-text.js";
+import { makeTree } from "../helpers/make-tree.js";
+import { arbTree } from "../helpers/random-tree.js";
+import { arbEdited, withoutIds } from "./edit-script.js";
+import { makeIdTree } from "./id-tree.js";
+
+const run = (oldTree: Tree, newTree: Tree, budget = 100, foci: string[] = []) =>
+  diffTrees(oldTree, newTree, { foci, budget, importance: "depth" });
+
+/** Every change as "<name> <kind>[ from <old parent> to <new parent>]", in the combined tree's order. */
+function changeList(result: DiffResult): string[] {
+  const { tree, kind, oldIndex, oldTree } = result.combined;
+  const out: string[] = [];
+  for (let k = 0; k < tree.length; k++) {
+    const word = kindName(kind[k]);
+    if (word === null) continue;
+    const moved = word === "moved" ? ` from ${oldTree.name[oldTree.parent[oldIndex[k]]]} to ${tree.name[tree.parent[k]]}` : "";
+    out.push(`${tree.name[k]} ${word}${moved}`);
+  }
+  return out;
+}
+
+const render = (r: DiffResult) => renderDiffText(r.view, r.totals, { units: "plain", sizes: true, by: r.combined.by });
+
+describe("diffTrees(old, new, options)", () => {
+  it("finds exactly one move and one insertion in the change-detection example", () => {
+    // Example in the style of Chawathe, Rajaraman, Garcia-Molina and Widom, "Change detection in
+    // hierarchically structured information", SIGMOD 1996: the trees are the issue's; the expected
+    // edit script (move x from A to B, insert C) is derived by hand.
+    const result = run(makeIdTree("R{A{x,y},B{z}}"), makeIdTree("R{A{y},B{z,x},C}"));
+    expect(changeList(result)).toEqual(["x moved from A to B", "C added"]);
+    expect(result.totals.changes).toEqual({ added: 1, removed: 0, moved: 1, renamed: 0, resized: 0 });
+  });
+
+  it("reports a move as one removal and one addition when matching by path", () => {
+    const result = run(makeTree("R{A{x,y},B{z}}"), makeTree("R{A{y},B{z,x},C}"));
+    expect(result.combined.by).toBe("path");
+    expect(changeList(result)).toEqual(["x removed", "x added", "C added"]);
+  });
+
+  it("reports nothing for diff(T, T)", () => {
+    fc.assert(
+      fc.property(arbTree(40), fc.boolean(), (tree, ids) => {
+        const t = ids ? { ...tree, ids: Array.from({ length: tree.length }, (_, i) => `n${i}`) } : tree;
+        const result = run(t, t, 10);
+        expect(result.totals.changes).toEqual({ added: 0, removed: 0, moved: 0, renamed: 0, resized: 0 });
+        expect(result.totals.delta).toBe(0);
+        expect(result.combined.tree.length).toBe(t.length);
+      }),
+    );
+  });
+
+  it("counts a moved subtree once, at its root", () => {
+    const result = run(makeIdTree("R{A{m{m1,m2{m3}}},B}"), makeIdTree("R{A,B{m{m1,m2{m3}}}}"));
+    expect(changeList(result)).toEqual(["m moved from A to B"]);
+  });
+
+  it("puts removed nodes at their old place among the new siblings", () => {
+    const names = (r: DiffResult) => [...r.combined.tree.name];
+    expect(names(run(makeTree("R{A{x,y,z}}"), makeTree("R{A{x,z}}")))).toEqual(["R", "A", "x", "y", "z"]);
+    expect(names(run(makeTree("R{A{y,x,w}}"), makeTree("R{A{x,v}}")))).toEqual(["R", "A", "y", "x", "w", "v"]);
+    // By id, a removed node goes after its nearest earlier old sibling that stayed, skipping moved ones.
+    const byId = run(makeIdTree("R{A{p,q,r},B}"), makeIdTree("R{A{p},B{q}}"));
+    expect(names(byId)).toEqual(["R", "A", "p", "r", "B", "q"]);
+    expect(changeList(byId)).toEqual(["r removed", "q moved from A to B"]);
+  });
+
+  it("gives each node one kind: moved before renamed before resized, own size change kept", () => {
+    const oldTree = makeIdTree("R{A{m:1,n:1,s:1},B}");
+    const newTree = { ...makeIdTree("R{A{n:2,s:3},B{m:5}}"), ids: ["R", "A", "n", "s", "B", "m"] };
+    const renamed: Tree = { ...newTree, name: ["R", "A", "n2", "s", "B", "m2"] };
+    const result = run(oldTree, renamed);
+    expect(changeList(result)).toEqual(["n2 renamed", "s resized", "m2 moved from A to B"]);
+    const { tree, delta } = result.combined;
+    expect([...delta]).toEqual(tree.name.map((nm) => ({ n2: 1, s: 2, m2: 4 })[nm as "n2"] ?? 0));
+  });
+
+  it("puts both versions under one root when only one of them has several top-level nodes", () => {
+    const one = makeTree("A{x}");
+    const several = makeTree("A{x},B");
+    expect(several.syntheticRoot).toBe(true);
+    const result = run(one, several);
+    expect(changeList(result)).toEqual(["B added"]);
+  });
+
+  it("recovers a random edit script exactly when nodes have ids", () => {
+    fc.assert(
+      fc.property(arbEdited(), ({ oldTree, newTree, expected }) => {
+        const result = run(oldTree, newTree, 5);
+        const { tree, kind, oldIndex } = result.combined;
+        const ids = tree.ids!;
+        const found = new Map<string, string>();
+        for (let k = 0; k < tree.length; k++) {
+          const word = kindName(kind[k]);
+          if (word === null) continue;
+          let text: string = word;
+          if (word === "moved") {
+            const from = result.combined.oldTree.ids![result.combined.oldTree.parent[oldIndex[k]]];
+            text += ` ${from} ${ids[tree.parent[k]]}`;
+          }
+          found.set(ids[k], text);
+        }
+        const want = new Map([...expected].map(([id, e]) => [id, e.kind === "moved" ? `moved ${e.from} ${e.to}` : e.kind]));
+        expect(found).toEqual(want);
+      }),
+    );
+  });
+
+  it("conserves nodes and sizes: old + added - removed = new, old size + net change = new size", () => {
+    fc.assert(
+      fc.property(arbEdited(), fc.boolean(), (edited, byId) => {
+        const [oldTree, newTree] = byId ? [edited.oldTree, edited.newTree] : withoutIds(edited);
+        const { totals, combined } = run(oldTree, newTree, 5);
+        const sum = (t: Tree) => t.ownSize.reduce((a, b) => a + b, 0);
+        expect(totals.old.nodes + totals.changes.added - totals.changes.removed).toBe(totals.new.nodes);
+        expect(totals.new.nodes).toBe(newTree.length);
+        expect(sum(oldTree) + totals.delta).toBe(sum(newTree));
+        expect(combined.tree.length).toBe(newTree.length + totals.changes.removed);
+      }),
+    );
+  });
+
+  it("builds the combined tree as the new tree in pre-order plus each removed node under its old parent", () => {
+    fc.assert(
+      fc.property(arbEdited(), fc.boolean(), (edited, byId) => {
+        const [oldTree, newTree] = byId ? [edited.oldTree, edited.newTree] : withoutIds(edited);
+        const { combined } = run(oldTree, newTree, 5);
+        const { tree, newIndex, oldIndex } = combined;
+        const count = measure(tree).count;
+        const present = [...newIndex].filter((n) => n >= 0);
+        expect(present).toEqual([...Array(newTree.length).keys()]);
+        const whereNew = new Map(present.map((n) => [n, newIndex.indexOf(n)]));
+        const whereOld = new Map([...oldIndex].map((o, k) => [o, k]));
+        for (let k = 1; k < tree.length; k++) {
+          const p = tree.parent[k];
+          expect(p).toBeLessThan(k);
+          expect(k + count[k]).toBeLessThanOrEqual(p + count[p]); // a subtree is a contiguous range
+          expect(tree.depth[k]).toBe(tree.depth[p] + 1);
+          if (newIndex[k] >= 0) expect(p).toBe(whereNew.get(newTree.parent[newIndex[k]]));
+          else {
+            const op = oldTree.parent[oldIndex[k]];
+            expect(oldIndex[p] === op || whereOld.get(op) === p).toBe(true);
+            expect(p).toBe(whereOld.get(op));
+          }
+        }
+      }),
+    );
+  });
+
+  it("keeps the selection contract: fits, nested, a prefix of the order, root and foci forced", () => {
+    fc.assert(
+      fc.property(arbEdited(), fc.integer({ min: 2, max: 40 }), fc.integer({ min: 0, max: 20 }), (edited, b, extra) => {
+        const small = run(edited.oldTree, edited.newTree, b);
+        const large = run(edited.oldTree, edited.newTree, b + extra);
+        const lines = render(small).split("\n").length - 1;
+        expect(lines).toBe(small.selection.lines);
+        expect(lines).toBeLessThanOrEqual(b);
+        const n = small.combined.tree.length;
+        if (small.selection.admitted.length < n) expect(lines).toBe(b);
+        for (let i = 0; i < n; i++) if (small.selection.shown[i]) expect(large.selection.shown[i]).toBe(1);
+        for (let i = 1; i < n; i++)
+          if (small.selection.shown[i]) expect(small.selection.shown[small.combined.tree.parent[i]]).toBe(1);
+      }),
+    );
+  });
+
+  it("shows a prefix of one budget-independent order in which every parent precedes its children", () => {
+    fc.assert(
+      fc.property(arbEdited(), fc.boolean(), fc.integer({ min: 2, max: 30 }), (edited, byId, b) => {
+        const [oldTree, newTree] = byId ? [edited.oldTree, edited.newTree] : withoutIds(edited);
+        const result = run(oldTree, newTree, b);
+        const { tree } = result.combined;
+        const order = diffOrder(tree, result.measures, result.scores, result.changeMeasures);
+        const all = [...Array(tree.length).keys()].sort(order);
+        const rank = new Int32Array(tree.length);
+        all.forEach((node, r) => {
+          rank[node] = r;
+        });
+        for (let i = 1; i < tree.length; i++) expect(rank[tree.parent[i]]).toBeLessThan(rank[i]);
+        const k = result.selection.admitted.length;
+        expect(all.slice(0, k).every((i) => result.selection.shown[i] === 1)).toBe(true);
+        expect(all.slice(k).every((i) => result.selection.shown[i] === 0)).toBe(true);
+      }),
+    );
+  });
+
+  it("counts every change in exactly one place: adds up at every shown node, totals at the root", () => {
+    fc.assert(
+      fc.property(arbEdited(), fc.boolean(), fc.integer({ min: 2, max: 30 }), (edited, byId, b) => {
+        const [oldTree, newTree] = byId ? [edited.oldTree, edited.newTree] : withoutIds(edited);
+        const result = run(oldTree, newTree, b);
+        const { kind, delta } = result.combined;
+        const kinds = ["added", "removed", "moved", "renamed", "resized"] as const;
+        const seen = { added: 0, removed: 0, moved: 0, renamed: 0, resized: 0 };
+        let seenDelta = 0;
+        result.view.each(({ data }) => {
+          const v: DiffViewNode = data;
+          if (v.change) seen[v.change]++;
+          seenDelta += v.delta;
+          for (const k of kinds) {
+            const own = v.change === k ? 1 : 0;
+            const fromChildren = v.children.reduce((a, c) => a + c.changes[k], 0);
+            expect(v.changes[k]).toBe(own + fromChildren + (v.hidden?.changes[k] ?? 0));
+            seen[k] += v.hidden?.changes[k] ?? 0;
+          }
+          expect(v.net).toBe(v.delta + v.children.reduce((a, c) => a + c.net, 0) + (v.hidden?.delta ?? 0));
+          seenDelta += v.hidden?.delta ?? 0;
+          expect(v.nodes).toBe(1 + v.children.reduce((a, c) => a + c.nodes, 0) + (v.hidden?.nodes ?? 0));
+          expect(kindName(kind[v.index])).toBe(v.change);
+          expect(delta[v.index]).toBe(v.delta);
+        });
+        expect(seen).toEqual(result.totals.changes);
+        expect(result.view.data.changes).toEqual(result.totals.changes);
+        expect(seenDelta).toBe(result.totals.delta);
+      }),
+    );
+  });
+
+  it("forces only the root and the user's foci, so more changes than the budget still fit", () => {
+    const oldTree = makeIdTree("R{A{a1,a2,a3},B{b1,b2},C{c1}}");
+    const newTree = makeIdTree("R{A{a1},B{b1},C{c1,c2}}");
+    const result = run(oldTree, newTree, 4, ["c1"]);
+    const shown = result.combined.tree.name.filter((_, i) => result.selection.shown[i]);
+    expect(shown).toEqual(["R", "C", "c1"]);
+    expect(result.selection.lines).toBe(DIFF_HEADER_LINES + 3);
+    expect(result.view.data.hidden?.changes).toEqual({ added: 0, removed: 3, moved: 0, renamed: 0, resized: 0 });
+    const err = (() => {
+      try {
+        run(oldTree, newTree, 3, ["c1"]);
+      } catch (e) {
+        return e as EspalierError;
+      }
+    })();
+    expect(err).toBeInstanceOf(EspalierError);
+    expect(err?.code).toBe("BUDGET_TOO_SMALL");
+  });
+
+  it("is deterministic: the same inputs render byte-identical text", () => {
+    fc.assert(
+      fc.property(arbEdited(), fc.integer({ min: 2, max: 30 }), (edited, b) => {
+        expect(render(run(edited.oldTree, edited.newTree, b))).toBe(render(run(edited.oldTree, edited.newTree, b)));
+      }),
+    );
+  });
+});

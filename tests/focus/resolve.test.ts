@@ -1,0 +1,98 @@
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { EspalierError } from "../../src/errors.js";
+import { resolveFoci, resolvePath } from "../../src/focus/resolve.js";
+import { buildTree } from "../../src/model/build.js";
+import { measure } from "../../src/model/measure.js";
+import { PathIndex } from "../../src/model/paths.js";
+import type { Tree } from "../../src/model/tree.js";
+import { makeTree, nodeNamed } from "../helpers/make-tree.js";
+import { arbTree } from "../helpers/random-tree.js";
+
+const indexOf = (tree: Tree) => new PathIndex(tree, measure(tree));
+const names = (tree: Tree, nodes: Int32Array) => [...nodes].map((i) => tree.name[i]);
+
+function caught(fn: () => unknown): EspalierError {
+  try {
+    fn();
+  } catch (e) {
+    if (e instanceof EspalierError) return e;
+    throw e;
+  }
+  throw new Error("expected an EspalierError");
+}
+
+describe("resolveFoci(index, specs)", () => {
+  const tree = makeTree("R{src{lib{a.ts,b.ts},test{a.test.ts}},docs{lib{guide.md}},README.md}");
+  const index = indexOf(tree);
+
+  it("resolves exact paths, with or without a leading slash", () => {
+    expect(names(tree, resolveFoci(index, ["src/lib/a.ts"]))).toEqual(["a.ts"]);
+    expect(names(tree, resolveFoci(index, ["/src/lib/a.ts"]))).toEqual(["a.ts"]);
+  });
+
+  it("matches * within one segment and ** across any number of segments", () => {
+    expect(names(tree, resolveFoci(index, ["src/lib/*.ts"]))).toEqual(["a.ts", "b.ts"]);
+    expect(names(tree, resolveFoci(index, ["**/lib"]))).toEqual(["lib", "lib"]);
+    expect(names(tree, resolveFoci(index, ["src/**"]))).toEqual([
+      "src",
+      "lib",
+      "a.ts",
+      "b.ts",
+      "test",
+      "a.test.ts",
+    ]);
+    expect(names(tree, resolveFoci(index, ["**/a*.ts"]))).toEqual(["a.ts", "a.test.ts"]);
+    expect(names(tree, resolveFoci(index, ["*/lib/*"]))).toEqual(["a.ts", "b.ts", "guide.md"]);
+  });
+
+  it("returns sorted, distinct nodes for overlapping specs", () => {
+    const got = resolveFoci(index, ["src/lib/a.ts", "src/lib/*", "src/lib/a.ts"]);
+    expect([...got]).toEqual([nodeNamed(tree, "a.ts"), nodeNamed(tree, "b.ts")]);
+  });
+
+  it("throws FOCUS_NO_MATCH and suggests the closest existing path", () => {
+    const err = caught(() => resolveFoci(index, ["src/lbi/a.ts"]));
+    expect(err.code).toBe("FOCUS_NO_MATCH");
+    expect(err.message).toContain('"src/lib/a.ts"');
+    const near = caught(() => resolveFoci(index, ["src/tset"]));
+    expect(near.message).toContain('"src/test"');
+  });
+
+  it("throws FOCUS_SYNTAX for a ~ not followed by 0 or 1 (RFC 6901 section 3)", () => {
+    expect(caught(() => resolveFoci(index, ["src/a~2b"])).code).toBe("FOCUS_SYNTAX");
+  });
+
+  it("names a row by id where rows have ids", () => {
+    const t = buildTree({
+      parentOf: Int32Array.from([-1, 0, 1]),
+      name: ["Ada", "Bo", "Cy"],
+      ownSize: new Float64Array(3),
+      hasSizes: false,
+      ids: ["E1", "E2", "E3"],
+      origin: Int32Array.from([1, 2, 3]),
+      originIsRow: true,
+      fields: new Map(),
+      rootName: "(root)",
+    });
+    expect(names(t, resolveFoci(indexOf(t), ["E3"]))).toEqual(["Cy"]);
+    expect(names(t, resolveFoci(indexOf(t), ["Bo/Cy"]))).toEqual(["Cy"]);
+  });
+
+  it("keeps equal sibling names addressable with a ~~N suffix", () => {
+    const t = makeTree("R{x{a},x{b},x{c}}");
+    const idx = indexOf(t);
+    expect(idx.path(nodeNamed(t, "b"))).toBe("x~~2/b");
+    expect(t.name[resolvePath(idx, "x~~3/c")]).toBe("c");
+    expect(t.name[resolvePath(idx, "x/a")]).toBe("a");
+  });
+
+  it("reads back every printed path, whatever the names (property)", () => {
+    fc.assert(
+      fc.property(arbTree(80), (t) => {
+        const idx = indexOf(t);
+        for (let i = 0; i < t.length; i++) expect(resolvePath(idx, idx.path(i))).toBe(i);
+      }),
+    );
+  });
+});

@@ -1,0 +1,147 @@
+import { describe, expect, it } from "vitest";
+import { loadTree } from "../../src/load/index.js";
+import { caught, opts, outline } from "./helpers.js";
+
+const json = (text: string, overrides = {}) => loadTree(text, opts({ format: "json", ...overrides }));
+
+describe("loadTree(json)", () => {
+  it("loadTree(json) reads children given as an array, in input order", () => {
+    const tree = json(
+      JSON.stringify({
+        name: "tidewater",
+        children: [
+          {
+            name: "services",
+            children: [
+              { name: "ledger", size: 40 },
+              { name: "gauge", size: 2 },
+            ],
+          },
+          { name: "README.md", size: 7 },
+        ],
+      }),
+    );
+    expect(outline(tree)).toEqual([
+      "tidewater 0",
+      "  services 0",
+      "    ledger 40",
+      "    gauge 2",
+      "  README.md 7",
+    ]);
+    expect(tree.syntheticRoot).toBe(false);
+    expect(tree.hasSizes).toBe(true);
+    expect(tree.originIsRow).toBe(false);
+    expect(tree.ids).toBeNull();
+  });
+
+  it("loadTree(json) reads children keyed by name: objects, numbers and null, the key naming the child", () => {
+    const tree = json(
+      '{"name":"tidewater","children":{"docs":{"name":"ignored","children":{"guide.md":12,"todo.md":null}},"LICENSE":3}}',
+    );
+    expect(outline(tree)).toEqual([
+      "tidewater 0",
+      "  docs 0",
+      "    guide.md 12",
+      "    todo.md 0",
+      "  LICENSE 3",
+    ]);
+  });
+
+  it("loadTree(json) joins a top-level array of nodes under a synthetic root named rootName", () => {
+    const tree = json('[{"name":"optics"},{"name":"firmware","children":[{"name":"boot"}]}]', {
+      rootName: "all",
+    });
+    expect(outline(tree)).toEqual(["all", "  optics", "  firmware", "    boot"]);
+    expect(tree.syntheticRoot).toBe(true);
+    expect(tree.hasSizes).toBe(false);
+  });
+
+  it("loadTree(json) names a node without a name field with the empty string", () => {
+    const tree = json('{"children":[{"size":1},{"name":"b"}]}');
+    expect(tree.name).toEqual(["", "", "b"]);
+  });
+
+  it("loadTree(json) uses the field names from the options and keeps extra fields", () => {
+    const tree = json(
+      '{"title":"Quillfeather Instruments","kids":[{"title":"Optics","bytes":5,"floor":2}]}',
+      {
+        nameField: "title",
+        childrenField: "kids",
+        sizeField: "bytes",
+        keepFields: ["floor"],
+      },
+    );
+    expect(outline(tree)).toEqual(["Quillfeather Instruments 0", "  Optics 5"]);
+    expect(tree.fields.get("floor")).toEqual(["", "2"]);
+  });
+
+  it("loadTree(json) loads a chain 1,000,000 nodes deep", () => {
+    const depth = 1_000_000;
+    const text =
+      '{"name":"n","children":['.repeat(depth - 1) + '{"name":"leaf","size":1}' + "]}".repeat(depth - 1);
+    const tree = json(text);
+    expect(tree.length).toBe(depth);
+    expect(tree.depth[depth - 1]).toBe(depth - 1);
+    expect(tree.name[depth - 1]).toBe("leaf");
+    expect(tree.parent[depth - 1]).toBe(depth - 2);
+  });
+
+  it("loadTree(json) reports a syntax error as PARSE_JSON at its line and column", () => {
+    // V8 gives a position: the "}" where a property name was expected.
+    const error = caught(() => json('{\n  "name": "a",\n}', { file: "org.json" }));
+    expect(error.code).toBe("PARSE_JSON");
+    expect(error.pos).toEqual({ file: "org.json", line: 3, column: 1 });
+  });
+
+  it("loadTree(json) locates a syntax error V8 reports without a position", () => {
+    // V8 says 'Unexpected token' with an excerpt only; the offset comes from our own scan.
+    const error = caught(() => json('{\n  "name": "a",\n  "size": tru}'));
+    expect(error.code).toBe("PARSE_JSON");
+    expect(error.pos).toEqual({ line: 3, column: 14 });
+  });
+
+  it("loadTree(json) reports input ending early at the end of the last line", () => {
+    const error = caught(() => json('{"name": "a",\n "children": [\n'));
+    expect(error.code).toBe("PARSE_JSON");
+    expect(error.pos).toEqual({ line: 2, column: 15 });
+  });
+
+  it("loadTree(json) rejects a text or negative size with BAD_SIZE naming the node's path", () => {
+    const text = caught(() => json('{"name":"r","children":[{"name":"a/b","size":"12"}]}'));
+    expect(text.code).toBe("BAD_SIZE");
+    expect(text.message).toContain("r/a~1b");
+    expect(text.pos).toBeUndefined();
+    expect(caught(() => json('{"name":"r","children":{"x":-1}}')).code).toBe("BAD_SIZE");
+  });
+
+  it("loadTree(json) rejects children that are neither an array nor an object with SHAPE", () => {
+    expect(caught(() => json('{"name":"r","children":"a"}')).code).toBe("SHAPE");
+    expect(caught(() => json('{"name":"r","children":[1]}')).code).toBe("SHAPE");
+    expect(caught(() => json('{"name":"r","children":{"a":"b"}}')).code).toBe("SHAPE");
+    expect(caught(() => json("42")).code).toBe("SHAPE");
+    expect(caught(() => json('{"name":{"first":"x"}}')).code).toBe("SHAPE");
+  });
+
+  it("loadTree(json) rejects an empty top-level array with INPUT_EMPTY", () => {
+    expect(caught(() => json("[]")).code).toBe("INPUT_EMPTY");
+  });
+
+  it("loadTree(json) stops with LIMIT_EXCEEDED once there are more than maxNodes nodes", () => {
+    const error = caught(() => json('{"name":"r","children":[{},{},{}]}', { maxNodes: 3 }));
+    expect(error.code).toBe("LIMIT_EXCEEDED");
+    expect(json('{"name":"r","children":[{},{}]}', { maxNodes: 3 }).length).toBe(3);
+  });
+
+  it("loadTree(json) reports a kept field no node has as FIELD_MISSING", () => {
+    expect(caught(() => json('{"name":"r"}', { keepFields: ["owner"] })).code).toBe("FIELD_MISSING");
+  });
+
+  it("loadTree(json) does not mistake Object.prototype members for fields", () => {
+    const tree = json('{"name":"r","children":[{"name":"a"}]}', {
+      sizeField: "constructor",
+      childrenField: "children",
+    });
+    expect(tree.hasSizes).toBe(false);
+    expect(caught(() => json('{"name":"r"}', { keepFields: ["toString"] })).code).toBe("FIELD_MISSING");
+  });
+});

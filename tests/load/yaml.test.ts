@@ -1,0 +1,84 @@
+import { describe, expect, it } from "vitest";
+import { loadTree } from "../../src/load/index.js";
+import { caught, opts, outline } from "./helpers.js";
+
+const yaml = (text: string, overrides = {}) => loadTree(text, opts({ format: "yaml", ...overrides }));
+
+describe("loadTree(yaml)", () => {
+  it("loadTree(yaml) reads the shapes JSON allows, with line numbers as origins", () => {
+    const tree = yaml(
+      [
+        "name: tidewater",
+        "children:",
+        "  - name: services",
+        "    children:",
+        "      ledger: 40",
+        "      gauge:",
+        "  - name: docs",
+        "    size: 3",
+      ].join("\n"),
+    );
+    expect(outline(tree)).toEqual([
+      "tidewater 0",
+      "  services 0",
+      "    ledger 40",
+      "    gauge 0",
+      "  docs 3",
+    ]);
+    expect([...tree.origin]).toEqual([1, 3, 5, 6, 7]);
+  });
+
+  it("loadTree(yaml) joins a top-level sequence under a synthetic root", () => {
+    expect(outline(yaml("- name: a\n- name: b\n"))).toEqual(["(root)", "  a", "  b"]);
+  });
+
+  it("loadTree(yaml) follows an alias used once, e.g. from a templates section", () => {
+    const text = "templates:\n  probe: &probe {name: probe, size: 2}\nname: lab\nchildren: [*probe]\n";
+    expect(outline(yaml(text))).toEqual(["lab 0", "  probe 2"]);
+  });
+
+  it("loadTree(yaml) rejects an alias that puts one node under two parents as TWO_PARENTS", () => {
+    const text = "name: r\nchildren:\n  - &a {name: a}\n  - name: b\n    children: [*a]\n";
+    const error = caught(() => yaml(text));
+    expect(error.code).toBe("TWO_PARENTS");
+    expect(error.pos?.line).toBe(3);
+  });
+
+  it("loadTree(yaml) rejects a node that aliases its own ancestor as TWO_PARENTS", () => {
+    expect(caught(() => yaml("&r\nname: r\nchildren: [*r]\n")).code).toBe("TWO_PARENTS");
+  });
+
+  it("loadTree(yaml) reports a syntax error as PARSE_YAML at its line and column", () => {
+    const error = caught(() => yaml("name: r\nchildren: [a,\nsize: 2\n", { file: "lab.yaml" }));
+    expect(error.code).toBe("PARSE_YAML");
+    expect(error.pos).toMatchObject({ file: "lab.yaml", line: 3 });
+  });
+
+  it("loadTree(yaml) reports a repeated key as PARSE_YAML at the repeat", () => {
+    const error = caught(() => yaml("name: r\nname: s\n"));
+    expect(error.code).toBe("PARSE_YAML");
+    expect(error.pos).toEqual({ line: 2, column: 1 });
+  });
+
+  it("loadTree(yaml) rejects a quoted size as BAD_SIZE at its line and column", () => {
+    const error = caught(() => yaml('name: r\nchildren:\n  - name: a\n    size: "12"\n'));
+    expect(error.code).toBe("BAD_SIZE");
+    expect(error.pos).toEqual({ line: 4, column: 11 });
+  });
+
+  it("loadTree(yaml) rejects a scalar child in a sequence as SHAPE at its line", () => {
+    const error = caught(() => yaml("name: r\nchildren:\n  - a\n"));
+    expect(error.code).toBe("SHAPE");
+    expect(error.pos).toEqual({ line: 3, column: 5 });
+  });
+
+  it("loadTree(yaml) keeps fields, collections as written", () => {
+    const tree = yaml("name: r\nowner: optics\ntags: [a, b]\n", { keepFields: ["owner", "tags"] });
+    expect(tree.fields.get("owner")).toEqual(["optics"]);
+    expect(tree.fields.get("tags")).toEqual(["[a, b]"]);
+  });
+
+  it("loadTree(yaml) rejects a document holding only comments as INPUT_EMPTY", () => {
+    expect(caught(() => yaml("# nothing here\n")).code).toBe("INPUT_EMPTY");
+  });
+});

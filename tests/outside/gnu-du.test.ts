@@ -1,0 +1,122 @@
+import { execFileSync } from "node:child_process";
+import { mkdirSync, mkdtempSync, rmSync, symlinkSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { loadTree } from "../../src/load/index.js";
+import { defaultLoadOptions } from "../../src/load/types.js";
+import { type Measures, measure } from "../../src/model/measure.js";
+import type { Tree } from "../../src/model/tree.js";
+
+// Source: GNU coreutils du -b (apparent size in bytes, including directory entries) vs our subtree sums.
+// `du -b` is `--apparent-size --block-size=1`: for each directory, the sum of the sizes that
+// `find -printf '%s'` prints for the directory itself and everything below it (files, directories, symlinks).
+// The listing comes from GNU find's -printf, the path-list format espalier documents.
+
+const isGnu = (cmd: string) => {
+  try {
+    return /GNU/.test(execFileSync(cmd, ["--version"], { encoding: "utf8" }));
+  } catch {
+    return false;
+  }
+};
+const gnuTools = isGnu("du") && isGnu("find");
+
+/** Files of known sizes (bytes) below the tree root; directories are implied, plus those in `emptyDirs`. */
+const files: Record<string, number> = {
+  "README.md": 1234,
+  "a/one.bin": 4097,
+  "a/b/zero": 0,
+  "a/b/c/deep.txt": 1000,
+  "a/b/c/d/e/f/g/h/leaf.dat": 65537,
+  "with space.txt": 123,
+  "naïve-ø-潮汐.txt": 77,
+  "dir with space/ünïcødé dir/x.json": 512,
+  "wide/big.bin": 300000,
+};
+const emptyDirs = ["empty", "a/b/empty-too"];
+
+let base = "";
+
+beforeAll(() => {
+  if (!gnuTools) return;
+  base = mkdtempSync(join(tmpdir(), "espalier-du-"));
+  const top = join(base, "tree-root");
+  mkdirSync(top);
+  for (const [path, size] of Object.entries(files)) {
+    const full = join(top, path);
+    mkdirSync(join(full, ".."), { recursive: true });
+    writeFileSync(full, Buffer.alloc(size, 0x61));
+  }
+  // Enough entries that the directory may outgrow one block on some file systems.
+  for (let k = 0; k < 300; k++)
+    writeFileSync(join(top, "wide", `entry-${String(k).padStart(3, "0")}.txt`), "x");
+  for (const d of emptyDirs) mkdirSync(join(top, d), { recursive: true });
+  symlinkSync("../README.md", join(top, "a", "link-to-readme"));
+});
+
+afterAll(() => {
+  if (base) rmSync(base, { recursive: true, force: true });
+});
+
+/** Node at `segments` below node 0, walking children in the pre-order layout. */
+function findByPath(tree: Tree, m: Measures, segments: readonly string[]): number {
+  let i = 0;
+  for (const s of segments) {
+    let found = -1;
+    for (let c = i + 1; c < i + m.count[i]; c += m.count[c]) {
+      if (tree.name[c] === s) {
+        found = c;
+        break;
+      }
+    }
+    if (found < 0) return -1;
+    i = found;
+  }
+  return i;
+}
+
+/** `du -b` lines: "<bytes>\t<path>", one per directory. */
+function duSizes(cwd: string, start: string): Map<string, number> {
+  const out = execFileSync("du", ["-b", start], { cwd, encoding: "utf8" });
+  const sizes = new Map<string, number>();
+  for (const line of out.split("\n")) {
+    if (line === "") continue;
+    const tab = line.indexOf("\t");
+    sizes.set(line.slice(tab + 1), Number(line.slice(0, tab)));
+  }
+  return sizes;
+}
+
+describe.skipIf(!gnuTools)("loadTree(find -printf '%s\\t%p\\n' output, paths) against du -b", () => {
+  // Started as "." from inside the tree, and by name from its parent directory.
+  const cases = [
+    { label: "find .", cwd: () => join(base, "tree-root"), start: "." },
+    { label: "find tree-root", cwd: () => base, start: "tree-root" },
+  ];
+  const dirCount = () => {
+    const dirs = new Set(["", ...emptyDirs]);
+    for (const p of Object.keys(files)) {
+      const parts = p.split("/");
+      for (let k = 1; k < parts.length; k++) dirs.add(parts.slice(0, k).join("/"));
+    }
+    return dirs.size;
+  };
+
+  it.each(cases)("gives every directory the subtree size du -b reports ($label)", ({ cwd, start }) => {
+    const listing = execFileSync("find", [start, "-printf", "%s\\t%p\\n"], { cwd: cwd(), encoding: "utf8" });
+    const tree = loadTree(listing, { ...defaultLoadOptions, format: "paths" });
+    const m = measure(tree);
+    expect(tree.length).toBe(listing.split("\n").length - 1);
+
+    const du = duSizes(cwd(), start);
+    expect(du.size).toBe(dirCount());
+    for (const [path, bytes] of du) {
+      // du prints the start point first in every path; the tree's node 0 stands for it.
+      const segments = path === start ? [] : path.slice(start.length + 1).split("/");
+      const i = findByPath(tree, m, segments);
+      expect(i, path).toBeGreaterThanOrEqual(0);
+      expect(m.size[i], path).toBe(bytes);
+    }
+  });
+});

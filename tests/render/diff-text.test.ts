@@ -1,0 +1,69 @@
+import { describe, expect, it } from "vitest";
+import { diffTrees } from "../../src/diff/diff-trees.js";
+import type { Tree } from "../../src/model/tree.js";
+import { renderDiffText } from "../../src/render/diff-text.js";
+import { makeIdTree } from "../diff/id-tree.js";
+import { makeTree } from "../helpers/make-tree.js";
+
+function text(oldTree: Tree, newTree: Tree, budget = 40, sizes = oldTree.hasSizes || newTree.hasSizes) {
+  const r = diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth" });
+  return renderDiffText(r.view, r.totals, { units: "bytes", sizes, by: r.combined.by });
+}
+
+describe("renderDiffText(view, totals, options)", () => {
+  it("opens with the totals per kind and tags each change in words", () => {
+    expect(text(makeIdTree("R{A{x,y},B{z}}"), makeIdTree("R{A{y},B{z,x},C}"))).toBe(
+      [
+        "matched by id: 1 added, 0 removed, 1 moved, 0 renamed, 0 resized; 6 -> 7 nodes",
+        "> R  7 nodes",
+        "  - A  2 nodes",
+        "    - y",
+        "  > B  3 nodes",
+        "    - z",
+        "    > [moved from A] x",
+        "  > [added] C",
+        "",
+      ].join("\n"),
+    );
+  });
+
+  it("signs size changes and says what changed inside each folded remainder", () => {
+    const oldTree = makeTree("R{A{x:10,y:20},B{z:5},D{d:1}}");
+    const newTree = makeTree("R{A{y:26},B{z:5,w:3},D{d:1}}");
+    expect(text(oldTree, newTree)).toBe(
+      [
+        "matched by path: 1 added, 1 removed, 0 moved, 0 renamed, 1 resized; 8 -> 8 nodes; size 36 B -> 35 B (-1 B)",
+        "> R  9 nodes, 35 B, net -1 B",
+        "  > A  3 nodes, 26 B, net -4 B",
+        "    > [removed -10 B] x",
+        "    > [resized +6 B] y  26 B",
+        "  > B  3 nodes, 8 B, net +3 B",
+        "    - z  5 B",
+        "    > [added +3 B] w  3 B",
+        "  - D  2 nodes, 1 B",
+        "    - d  1 B",
+        "",
+      ].join("\n"),
+    );
+    expect(text(oldTree, newTree, 4).split("\n").slice(1, 4)).toEqual([
+      "> R  9 nodes, 35 B, net -1 B  +1 more: 2 nodes, 1 B; unchanged",
+      "  > A  3 nodes, 26 B, net -4 B  +2 more: 2 nodes, 26 B; 1 removed, 1 resized, net -4 B",
+      "  > B  3 nodes, 8 B, net +3 B  +2 more: 2 nodes, 8 B; 1 added, net +3 B",
+    ]);
+  });
+
+  it("names a renamed node's old name and a move from the root, escaping control characters", () => {
+    const oldTree = makeIdTree("R{A{b},k}");
+    const newTree: Tree = {
+      ...makeIdTree("R{A{k},b}"),
+      ids: ["R", "A", "k", "b"],
+      name: ["R", "A", "k", "b\u001b[31m"],
+    };
+    const out = text(oldTree, newTree);
+    expect(out).toContain("> [moved from the root] k");
+    expect(out).toContain("> [moved from A] b\\u{1b}[31m");
+    const renamed: Tree = { ...makeIdTree("R{A{b},k}"), name: ["R", "A", "b", "k2"] };
+    const oldWithEscape: Tree = { ...oldTree, name: ["R", "A", "b", "k\u2028"] };
+    expect(text(oldWithEscape, renamed)).toContain("> [renamed from k\\u{2028}] k2");
+  });
+});

@@ -1,0 +1,81 @@
+import { describe, expect, it } from "vitest";
+import { buildTree } from "../../src/model/build.js";
+import { measure } from "../../src/model/measure.js";
+import { MARK } from "../../src/render/text.js";
+import { makeTree } from "../helpers/make-tree.js";
+import { generatedTree, summaryOf } from "../helpers/summary.js";
+
+describe("renderText(view, options)", () => {
+  const tree = makeTree("R{A:10{A1:5{A1a:1,A1b:2},A2:3{A2a:4}},B:100{B1:6{B1a:7},B2:8}}");
+
+  it("prints one line per shown node, marks the focus and its ancestors, and folds the rest onto the parent's line", () => {
+    const { text } = summaryOf(tree, ["A/A1"], 5);
+    expect(text).toBe(
+      [
+        "> R  11 nodes, 146 B  +1 more: 4 nodes, 121 B",
+        "  > A  6 nodes, 25 B  +1 more: 2 nodes, 7 B",
+        "    * A1  3 nodes, 8 B",
+        "      - A1a  1 B",
+        "      - A1b  2 B",
+        "",
+      ].join("\n"),
+    );
+  });
+
+  it("gives every node a line when the budget holds the whole tree", () => {
+    const { text } = summaryOf(tree, ["A/A1"], 100);
+    expect(text.split("\n").length - 1).toBe(tree.length);
+    expect(text).not.toContain("more:");
+  });
+
+  it("never starts a line with a name, so a name cannot pose as a CI command (lines start with indent and a mark)", () => {
+    const t = makeTree("::warning{##vso[task.setvariable]}");
+    const { text } = summaryOf(t, [], 10);
+    for (const line of text.trimEnd().split("\n")) expect(line).toMatch(/^ *[*>-] /);
+    expect(Object.values(MARK)).toEqual(["*", ">", "-"]);
+  });
+
+  it("spends no line on chrome: a 20,000-node tree with two deep foci shows as many nodes as it has lines", () => {
+    // The budget must buy nodes: with two foci about ten levels deep and 40 lines, every line names a node.
+    const { parentOf, name, size } = generatedTree(20000);
+    const t = buildTree({
+      parentOf,
+      name,
+      ownSize: size,
+      hasSizes: true,
+      ids: null,
+      origin: new Int32Array(parentOf.length),
+      originIsRow: false,
+      fields: new Map(),
+      rootName: "(root)",
+    });
+    const { count } = measure(t);
+    const deep = [...t.depth.keys()].filter((i) => t.depth[i] >= 9 && t.depth[i] <= 11);
+    expect(deep.length).toBeGreaterThan(2);
+    // Two foci in different top-level subtrees where possible.
+    const a = deep[0];
+    const b = deep.find((i) => i >= a + count[a]) ?? deep[deep.length - 1];
+    const { result, text } = summaryOf(t, [pathOf(t, a), pathOf(t, b)], 40);
+    const lines = text.trimEnd().split("\n");
+    let shownNodes = 0;
+    result.view.each(() => shownNodes++);
+    expect(lines.length).toBe(40);
+    expect(shownNodes).toBeGreaterThanOrEqual(lines.length);
+    expect(lines.every((l) => /^ *[*>-] \S/.test(l))).toBe(true);
+  });
+
+  it("is byte-identical across runs", () => {
+    const first = summaryOf(tree, ["B/*"], 6);
+    for (let k = 0; k < 3; k++) {
+      const again = summaryOf(tree, ["B/*"], 6);
+      expect(again.text).toBe(first.text);
+      expect(again.json).toBe(first.json);
+    }
+  });
+});
+
+function pathOf(t: ReturnType<typeof makeTree>, i: number): string {
+  const parts: string[] = [];
+  for (let c = i; t.parent[c] >= 0; c = t.parent[c]) parts.push(t.name[c]);
+  return parts.reverse().join("/");
+}
