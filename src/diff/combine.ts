@@ -63,14 +63,17 @@ export function combine(
     }
   }
 
-  // Depth-first in pre-order. Stack entries: n >= 0 a new node, -(o + 1) a removed old node.
-  const stack: number[] = [0];
-  const stackParent: number[] = [-1];
-  const scratch: number[] = [];
+  // Depth-first in pre-order. Stack entries: n >= 0 a new node, -(o + 1) a removed old node. Each
+  // node is pushed once, so the stacks never outgrow the combined tree.
+  const stack = new Int32Array(total);
+  const stackParent = new Int32Array(total);
+  let sp = 0;
+  stack[sp] = 0;
+  stackParent[sp++] = -1;
   let k = 0;
-  while (stack.length > 0) {
-    const entry = stack.pop()!;
-    const pc = stackParent.pop()!;
+  while (sp > 0) {
+    const entry = stack[--sp];
+    const pc = stackParent[sp];
     if (entry >= 0 && (plain === null || plain[entry])) {
       const n = entry;
       const base = k - n;
@@ -84,30 +87,31 @@ export function combine(
     }
     const self = k++;
     parent[self] = pc;
-    scratch.length = 0;
+    const first = sp;
+    const push = (child: number) => {
+      stack[sp] = child;
+      stackParent[sp++] = self;
+    };
     if (entry >= 0) {
       newIndex[self] = entry;
       oldIndex[self] = newToOld[entry];
-      mergedChildren(entry, scratch);
+      mergedChildren(entry, push);
     } else {
       const o = -entry - 1;
       newIndex[self] = -1;
       oldIndex[self] = o;
       const end = o + oldCount[o];
-      for (let c = o + 1; c < end; c += oldCount[c]) if (oldToNew[c] < 0) scratch.push(-c - 1);
+      for (let c = o + 1; c < end; c += oldCount[c]) if (oldToNew[c] < 0) push(-c - 1);
     }
-    for (let i = scratch.length - 1; i >= 0; i--) {
-      stack.push(scratch[i]);
-      stackParent.push(self);
-    }
+    stack.subarray(first, sp).reverse(); // the first child is popped first
   }
 
   /** Children of new node n in the combined tree: its new children with removed old ones spliced in. */
-  function mergedChildren(n: number, out: number[]) {
+  function mergedChildren(n: number, push: (child: number) => void) {
     const nEnd = n + newCount[n];
     const o = newToOld[n];
     if (o < 0 || !hasRemovedChild[o]) {
-      for (let c = n + 1; c < nEnd; c += newCount[c]) out.push(c);
+      for (let c = n + 1; c < nEnd; c += newCount[c]) push(c);
       return;
     }
     const after = new Map<number, number[]>(); // new child -> removed old siblings placed after it
@@ -124,11 +128,11 @@ export function combine(
       else after.set(anchor, [-s - 1]);
     }
     const first = after.get(-1);
-    if (first) for (const r of first) out.push(r);
+    if (first) for (const r of first) push(r);
     for (let c = n + 1; c < nEnd; c += newCount[c]) {
-      out.push(c);
+      push(c);
       const list = after.get(c);
-      if (list) for (const r of list) out.push(r);
+      if (list) for (const r of list) push(r);
     }
   }
 
@@ -145,47 +149,92 @@ function fill(
   parent: Int32Array,
 ) {
   const total = parent.length;
+  const kind = new Uint8Array(total);
+  const delta = new Float64Array(total);
+  const renameRoot = !oldTree.syntheticRoot && !newTree.syntheticRoot;
+  const { newToOld } = matching;
+  const oldSize = oldTree.ownSize;
+  const newSize = newTree.ownSize;
+  const oldParent = oldTree.parent;
+  const newParent = newTree.parent;
+  const oldName = oldTree.name;
+  const newName = newTree.name;
+  for (let k = 0; k < total; k++) {
+    const n = newIndex[k];
+    const o = oldIndex[k];
+    if (n < 0) {
+      kind[k] = KIND.removed;
+      delta[k] = 0 - oldSize[o];
+    } else if (o < 0) {
+      kind[k] = KIND.added;
+      delta[k] = newSize[n];
+    } else {
+      delta[k] = newSize[n] - oldSize[o];
+      if (n > 0 && newToOld[newParent[n]] !== oldParent[o]) kind[k] = KIND.moved;
+      else if ((n > 0 || renameRoot) && newName[n] !== oldName[o]) kind[k] = KIND.renamed;
+      else if (delta[k] !== 0) kind[k] = KIND.resized;
+    }
+  }
+  const keys = [...new Set([...newTree.fields.keys(), ...oldTree.fields.keys()])];
+  const ids = matching.by === "id";
+  const tree: Tree =
+    total === newTree.length && keys.length === newTree.fields.size && (!ids || newTree.ids)
+      ? { ...newTree, ids: ids ? newTree.ids : null, hasSizes: oldTree.hasSizes || newTree.hasSizes }
+      : copyTree(oldTree, newTree, keys, ids, newIndex, oldIndex, parent);
+  return { tree, kind, delta, oldTree, newTree, by: matching.by };
+}
+
+/** The combined tree's arrays when removed nodes are mixed in: each node from the version it lives in. */
+function copyTree(
+  oldTree: Tree,
+  newTree: Tree,
+  keys: string[],
+  useIds: boolean,
+  newIndex: Int32Array,
+  oldIndex: Int32Array,
+  parent: Int32Array,
+): Tree {
+  const total = parent.length;
   const depth = new Int32Array(total);
   const name: string[] = new Array(total);
   const ownSize = new Float64Array(total);
   const origin = new Int32Array(total);
-  const kind = new Uint8Array(total);
-  const delta = new Float64Array(total);
-  const useIds = matching.by === "id";
   const ids: string[] | null = useIds ? new Array(total) : null;
-  const keys = [...new Set([...newTree.fields.keys(), ...oldTree.fields.keys()])];
-  const fieldValues = keys.map(() => new Array<string>(total));
-  const renameRoot = !oldTree.syntheticRoot && !newTree.syntheticRoot;
-  const { newToOld } = matching;
+  const newName = newTree.name;
+  const oldName = oldTree.name;
+  const newOrigin = newTree.origin;
+  const oldOrigin = oldTree.origin;
+  const newSize = newTree.ownSize;
+  const newIds = newTree.ids ?? [];
+  const oldIds = oldTree.ids ?? [];
   for (let k = 0; k < total; k++) {
     const n = newIndex[k];
-    const o = oldIndex[k];
     depth[k] = k === 0 ? 0 : depth[parent[k]] + 1;
-    const from = n >= 0 ? newTree : oldTree;
-    const at = n >= 0 ? n : o;
-    name[k] = from.name[at];
-    origin[k] = from.origin[at];
-    if (ids) ids[k] = from.ids![at];
-    for (let f = 0; f < keys.length; f++) fieldValues[f][k] = from.fields.get(keys[f])?.[at] ?? "";
-    if (n < 0) {
-      kind[k] = KIND.removed;
-      delta[k] = 0 - oldTree.ownSize[o];
-      continue;
+    if (n >= 0) {
+      name[k] = newName[n];
+      origin[k] = newOrigin[n];
+      ownSize[k] = newSize[n];
+      if (ids) ids[k] = newIds[n];
+    } else {
+      const o = oldIndex[k];
+      name[k] = oldName[o];
+      origin[k] = oldOrigin[o];
+      if (ids) ids[k] = oldIds[o];
     }
-    ownSize[k] = newTree.ownSize[n];
-    if (o < 0) {
-      kind[k] = KIND.added;
-      delta[k] = ownSize[k];
-      continue;
-    }
-    delta[k] = ownSize[k] - oldTree.ownSize[o];
-    if (n > 0 && newToOld[newTree.parent[n]] !== oldTree.parent[o]) kind[k] = KIND.moved;
-    else if ((n > 0 || renameRoot) && newTree.name[n] !== oldTree.name[o]) kind[k] = KIND.renamed;
-    else if (delta[k] !== 0) kind[k] = KIND.resized;
   }
+  const fieldValues = keys.map((key) => {
+    const values = new Array<string>(total);
+    const fromNew = newTree.fields.get(key);
+    const fromOld = oldTree.fields.get(key);
+    for (let k = 0; k < total; k++) {
+      const n = newIndex[k];
+      values[k] = (n >= 0 ? fromNew?.[n] : fromOld?.[oldIndex[k]]) ?? "";
+    }
+    return values;
+  });
   const fields = new Map<string, string[]>();
   keys.forEach((key, f) => fields.set(key, fieldValues[f]));
-  const tree: Tree = {
+  return {
     length: total,
     parent,
     depth,
@@ -198,5 +247,4 @@ function fill(
     fields,
     syntheticRoot: newTree.syntheticRoot,
   };
-  return { tree, kind, delta, oldTree, newTree, by: matching.by };
 }

@@ -64,7 +64,7 @@ export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions):
   const matching = matchTrees(oldTree, oldMeasures, newTree, newMeasures);
   const combined = combine(oldTree, oldMeasures, newTree, newMeasures, matching);
   const { tree } = combined;
-  const measures = measure(tree);
+  const measures = tree.length === newTree.length ? newMeasures : measure(tree); // nothing removed: the new tree
   const changeMeasures = measureChanges(tree, combined.kind, combined.delta);
   const index = new PathIndex(tree, measures);
   const key = options.pseudonymKey;

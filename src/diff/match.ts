@@ -27,32 +27,77 @@ export function matchTrees(
   oldToNew[0] = 0;
   newToOld[0] = 0;
   if (oldTree.ids && newTree.ids) {
-    matchById(oldTree.ids, newTree.ids, oldToNew, newToOld);
+    matchById(oldTree.ids, oldMeasures.count, newTree.ids, newMeasures.count, oldToNew, newToOld);
     return { by: "id", oldToNew, newToOld };
   }
   matchByPath(oldTree, oldMeasures.count, newTree, newMeasures.count, oldToNew, newToOld);
   return { by: "path", oldToNew, newToOld };
 }
 
+/**
+ * Pairs equal ids. Most rows keep their place between versions, so a first pass walks both pre-orders
+ * side by side and pairs equal ids in place, stepping over whole subtrees that were removed, added or
+ * moved; only the rows it leaves over go through a hash map. Every pair has equal ids either way.
+ */
 function matchById(
   oldIds: readonly string[],
+  oldCount: Int32Array,
   newIds: readonly string[],
+  newCount: Int32Array,
   oldToNew: Int32Array,
   newToOld: Int32Array,
 ) {
-  const byId = new Map<string, number>();
-  for (let o = 1; o < oldIds.length; o++) {
-    const id = oldIds[o];
-    if (id !== "" && !byId.has(id)) byId.set(id, o);
-  }
-  for (let n = 1; n < newIds.length; n++) {
+  const nOld = oldIds.length;
+  const nNew = newIds.length;
+  let o = 1;
+  let n = 1;
+  while (o < nOld && n < nNew) {
     const id = newIds[n];
-    if (id === "") continue;
-    const o = byId.get(id);
-    if (o === undefined || oldToNew[o] !== -1) continue;
-    oldToNew[o] = n;
-    newToOld[n] = o;
+    if (oldIds[o] === id && id !== "") {
+      oldToNew[o] = n;
+      newToOld[n] = o;
+      o++;
+      n++;
+      continue;
+    }
+    const skipOld = ahead(oldIds, oldCount, o, id);
+    if (skipOld > 0) {
+      o = skipOld;
+      continue;
+    }
+    const skipNew = ahead(newIds, newCount, n, oldIds[o]);
+    if (skipNew > 0) n = skipNew;
+    else {
+      o++;
+      n++;
+    }
   }
+  const byId = new Map<string, number>();
+  for (let k = 1; k < nOld; k++) {
+    const key = oldIds[k];
+    if (oldToNew[k] === -1 && key !== "" && !byId.has(key)) byId.set(key, k);
+  }
+  if (byId.size === 0) return;
+  for (let k = 1; k < nNew; k++) {
+    if (newToOld[k] !== -1 || newIds[k] === "") continue;
+    const m = byId.get(newIds[k]);
+    if (m === undefined || oldToNew[m] !== -1) continue;
+    oldToNew[m] = k;
+    newToOld[k] = m;
+  }
+}
+
+/** A position just past a few whole subtrees, or one node, from `at` whose id is `id`; else 0. */
+function ahead(ids: readonly string[], count: Int32Array, at: number, id: string): number {
+  if (id === "") return 0;
+  if (at + 1 < ids.length && ids[at + 1] === id) return at + 1;
+  let p = at;
+  for (let k = 0; k < 4; k++) {
+    p += count[p];
+    if (p >= ids.length) return 0;
+    if (ids[p] === id) return p;
+  }
+  return 0;
 }
 
 /** Top-down in the new tree's pre-order: a node's parent is matched (or not) before the node. */

@@ -14,11 +14,17 @@ export function measureChanges(tree: Tree, kind: Uint8Array, delta: Float64Array
   const counts = new Int32Array(n * 5);
   const net = new Float64Array(delta);
   const { parent } = tree;
+  const any = new Uint8Array(n); // a change somewhere in the subtree
   for (let i = n - 1; i >= 0; i--) {
-    if (kind[i] !== 0) counts[i * 5 + kind[i] - 1]++;
+    if (kind[i] !== 0) {
+      counts[i * 5 + kind[i] - 1]++;
+      any[i] = 1;
+    }
     const p = parent[i];
     if (p < 0) continue;
-    net[p] += net[i];
+    if (net[i] !== 0) net[p] += net[i];
+    if (!any[i]) continue;
+    any[p] = 1;
     const a = i * 5;
     const b = p * 5;
     for (let k = 0; k < 5; k++) counts[b + k] += counts[a + k];

@@ -22,6 +22,9 @@ export function suggestPath(index: PathIndex, spec: string): string | undefined 
     last = raw[raw.length - 1];
   }
   const { tree } = index;
+  // A name that itself contains "/" typed unescaped ("@scope/pkg" for "@scope~1pkg").
+  const joined = lenientResolve(index, 0, raw, 0, 0);
+  if (joined >= 0) return index.path(joined);
   for (let i = 1; i < tree.length; i++) if (tree.name[i] === last) return index.path(i);
 
   let node = 0;
@@ -49,4 +52,26 @@ export function suggestPath(index: PathIndex, spec: string): string | undefined 
     return best >= 0 ? index.path(best) : node > 0 ? index.path(node) : undefined;
   }
   return undefined;
+}
+
+/** Resolves segments where a run of them may form one name containing "/"; -1 when none does. */
+function lenientResolve(index: PathIndex, node: number, raw: string[], k: number, steps: number): number {
+  if (k === raw.length) return node;
+  if (steps > 64) return -1;
+  for (let j = k; j < raw.length; j++) {
+    let name: string;
+    try {
+      name = raw
+        .slice(k, j + 1)
+        .map((r) => parseSegment(r).name)
+        .join("/");
+    } catch {
+      return -1;
+    }
+    const list = index.childrenByName(node).get(name);
+    if (!list) continue;
+    const found = lenientResolve(index, list[0], raw, j + 1, steps + 1);
+    if (found >= 0) return found;
+  }
+  return -1;
 }

@@ -9,6 +9,7 @@ import type { LoadOptions } from "./types.js";
 /**
  * Links table rows into nodes: by id and parent columns when the table has both (an empty parent makes a
  * top-level row), else by a path column (ancestors created implicitly), else FIELD_MISSING.
+ * A node's name is its name cell when that is not empty, else its id or last path segment.
  * Origins are data rows (1-based).
  */
 export function linkTable(table: Table, options: LoadOptions): LinkedNodes {
@@ -42,15 +43,16 @@ function linkById(
     const id = cellText(idCells[r]);
     if (id === "")
       throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${options.idField}"`, { row: r + 1 });
-    const earlier = rowOf.get(id);
-    if (earlier !== undefined) {
+    // One map operation per row: a repeated id leaves the size unchanged.
+    const before = rowOf.size;
+    rowOf.set(id, r);
+    if (rowOf.size === before) {
       throw new EspalierError(
         "DUPLICATE_ID",
-        `row ${r + 1} repeats the ${options.idField} ${JSON.stringify(id)} of row ${earlier + 1}`,
+        `row ${r + 1} repeats the ${options.idField} ${JSON.stringify(id)} of row ${ids.indexOf(id) + 1}`,
         { row: r + 1 },
       );
     }
-    rowOf.set(id, r);
     ids[r] = id;
   }
   const parentOf = new Int32Array(n);
@@ -73,7 +75,7 @@ function linkById(
       parentOf[r] = p;
     }
     origin[r] = r + 1;
-    name[r] = names ? cellText(names[r]) : ids[r];
+    name[r] = (names && cellText(names[r])) || ids[r];
     if (sizes) ownSize[r] = sizeOf(sizes[r], table.textCells, r + 1, options.sizeField);
   }
   return {
@@ -84,7 +86,7 @@ function linkById(
     ids,
     origin,
     originIsRow: true,
-    fields: keep.values,
+    fields: keep,
     rootName: options.rootName,
   } satisfies LinkedNodes;
 }
@@ -105,12 +107,13 @@ function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptio
       throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${options.pathField}"`, { row: r + 1 });
     }
     nodeOfRow[r] = i;
-    if (names) sink.name[i] = cellText(names[r]);
+    const label = names ? cellText(names[r]) : "";
+    if (label !== "") sink.name[i] = label;
     if (sizes) sink.ownSize[i] = sizeOf(sizes[r], table.textCells, r + 1, options.sizeField);
   }
   sink.hasSizes = sizes !== undefined;
   const fields = new Map<string, string[]>();
-  for (const [key, byRow] of keep.values) {
+  for (const [key, byRow] of keep) {
     const byNode: string[] = new Array(sink.length).fill("");
     for (let r = 0; r < n; r++) byNode[nodeOfRow[r]] = byRow[r];
     fields.set(key, byNode);
@@ -119,7 +122,7 @@ function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptio
 }
 
 /** The kept columns as text, by row; FIELD_MISSING names the columns there are. */
-function keptColumns(table: Table, options: LoadOptions): { values: Map<string, string[]> } {
+function keptColumns(table: Table, options: LoadOptions): Map<string, string[]> {
   const values = new Map<string, string[]>();
   for (const key of options.keepFields) {
     const cells = table.column(key);
@@ -131,7 +134,7 @@ function keptColumns(table: Table, options: LoadOptions): { values: Map<string, 
     }
     values.set(key, cells.map(cellText));
   }
-  return { values };
+  return values;
 }
 
 function sizeOf(cell: Cell, textCells: boolean, row: number, field: string): number {

@@ -80,7 +80,7 @@ export function walkNested<V>(root: V, access: NestedAccess<V>, options: LoadOpt
         const expected = keyed[i] === 1 ? "a node object, a number or null" : "a node object";
         throw new EspalierError("SHAPE", `${where(i)} must be ${expected}`, access.pos(v));
       }
-      for (const values of kept) values.push("");
+      for (const column of kept) column.push("");
       continue;
     }
     if (!access.claim(v)) throw twoParents(where(i), access.pos(v));

@@ -1,4 +1,4 @@
-// A plain decimal number: digits with an optional fraction and exponent, no sign, no hex, no "Infinity".
+// A plain decimal number: digits with an optional fraction and exponent; "+" allowed, no "-", hex or "Infinity".
 const decimal = /^\+?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 
 /**
@@ -6,6 +6,18 @@ const decimal = /^\+?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
  * (negative, hex, "12 KB", "NaN") is NaN so the caller can report BAD_SIZE where it knows the position.
  */
 export function parseSize(text: string): number {
+  // Fast path: up to 15 plain digits, exact in a double.
+  const n = text.length;
+  if (n > 0 && n <= 15) {
+    let value = 0;
+    let k = 0;
+    for (; k < n; k++) {
+      const d = text.charCodeAt(k) - 48;
+      if (d < 0 || d > 9) break;
+      value = value * 10 + d;
+    }
+    if (k === n) return value;
+  }
   const s = text.trim();
   if (s === "") return 0;
   if (!decimal.test(s)) return Number.NaN;

@@ -29,7 +29,10 @@ export function csvTable(text: string, delimiter: "," | "\t", maxRows: number): 
   try {
     records = parse(text, options);
   } catch (error) {
-    throw csvError(error, text, options);
+    const code = (error as { code?: unknown }).code;
+    if (typeof code === "string" && /^(CSV_|INVALID_)/.test(code))
+      throw csvError(error as Error, text, options);
+    throw error;
   }
   if (records.length === 0) throw new EspalierError("INPUT_EMPTY", "the table has no header row");
   const header = records[0].map((name) => name.trim());
@@ -45,8 +48,9 @@ export function csvTable(text: string, delimiter: "," | "\t", maxRows: number): 
       const c = at.get(name);
       if (c === undefined) return undefined;
       if (header.indexOf(name, c + 1) !== -1) {
+        const line = firstNonBlankLineAfter(text, 0);
         throw new EspalierError("PARSE_CSV", `the header names the column "${name}" more than once`, {
-          line: 1,
+          line,
         });
       }
       const cells: string[] = new Array(length);
@@ -102,10 +106,7 @@ export function rowsTable(rows: readonly unknown[]): Table {
  * fault (for an unclosed quote, the end of the input), so the record's start is found by re-reading the
  * good records before it.
  */
-function csvError(error: unknown, text: string, options: object): EspalierError {
-  if (!(error instanceof Error) || !("code" in error) || !String(error.code).match(/^(CSV_|INVALID_)/)) {
-    return error as EspalierError;
-  }
+function csvError(error: Error, text: string, options: object): EspalierError {
   const good = Number((error as { records?: number }).records ?? 0);
   let lastEnd = 0;
   if (good > 0) {

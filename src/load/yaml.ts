@@ -27,7 +27,6 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
   try {
     doc = parseDocument(text, { lineCounter, uniqueKeys: true });
   } catch (error) {
-    // The YAML parser recurses per nesting level.
     if (error instanceof RangeError) {
       throw new EspalierError("LIMIT_EXCEEDED", "the YAML is nested too deeply to parse; convert it to JSON");
     }
@@ -36,8 +35,17 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
   if (doc.errors.length > 0) {
     const error = doc.errors[0];
     const at = error.linePos?.[0] ?? lineCounter.linePos(error.pos[0]);
+    const pos = { line: at.line, column: at.col };
+    if (error.code === "RESOURCE_EXHAUSTION") {
+      // The YAML parser recurses per nesting level and gives up a few hundred levels down.
+      throw new EspalierError(
+        "LIMIT_EXCEEDED",
+        "the YAML is nested too deeply to parse; convert it to JSON",
+        pos,
+      );
+    }
     const reason = error.message.replace(/ at line \d+, column \d+:.*$/s, "");
-    throw new EspalierError("PARSE_YAML", `invalid YAML: ${reason}`, { line: at.line, column: at.col });
+    throw new EspalierError("PARSE_YAML", `invalid YAML: ${reason}`, pos);
   }
   const root = doc.contents as YamlValue;
   if (root === null || (isScalar(root) && root.value === null)) {
@@ -59,19 +67,14 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
       },
     });
   }
-  const deref = (v: YamlValue | undefined): YamlValue | undefined =>
-    isAlias(v) ? (target.get(v) ?? null) : v;
+  // Values stay as written (an alias is kept, so positions point at it); each use looks through it.
+  const deref = (v: YamlValue | undefined): YamlValue => (isAlias(v) ? (target.get(v) ?? null) : (v ?? null));
   const placed = new Set<Node>();
-  const where = (v: YamlValue | undefined) => {
-    const range = v?.range;
-    if (!range) return undefined;
-    const at = lineCounter.linePos(range[0]);
-    return { line: at.line, column: at.col };
-  };
 
   const access: NestedAccess<YamlValue> = {
-    kind(v) {
-      if (v === null || v === undefined) return Kind.Null;
+    kind(value) {
+      const v = deref(value);
+      if (v === null) return Kind.Null;
       if (isMap(v)) return Kind.Map;
       if (isSeq(v)) return Kind.Seq;
       if (!isScalar(v)) return Kind.Other;
@@ -87,27 +90,45 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
           return v.value === null || v.value === undefined ? Kind.Null : Kind.Other;
       }
     },
-    field(map, key) {
+    field(value, key) {
+      const map = deref(value);
       if (!isMap(map)) return undefined;
-      for (const pair of map.items) if (keyText(pair.key) === key) return deref(pair.value as YamlValue);
+      for (const pair of map.items) if (keyText(pair.key) === key) return pair.value as YamlValue;
       return undefined;
     },
-    items(seq) {
-      return isSeq(seq) ? (seq.items as YamlValue[]).map((item) => deref(item) ?? null) : [];
+    items(value) {
+      const seq = deref(value);
+      return isSeq(seq) ? (seq.items as YamlValue[]) : [];
     },
-    entries(map, keys, values) {
+    entries(value, keys, values) {
+      const map = deref(value);
       if (!isMap(map)) return;
       for (const pair of map.items) {
         keys.push(keyText(pair.key));
-        values.push(deref(pair.value as YamlValue) ?? null);
+        values.push(pair.value as YamlValue);
       }
     },
-    number: (v) => (isScalar(v) ? Number(v.value) : Number.NaN),
-    text: (v) => (isScalar(v) ? String(v.value) : ""),
-    source: (v) => (v?.range ? text.slice(v.range[0], v.range[1]) : ""),
+    number(value) {
+      const v = deref(value);
+      return isScalar(v) ? Number(v.value) : Number.NaN;
+    },
+    text(value) {
+      const v = deref(value);
+      return isScalar(v) ? String(v.value) : "";
+    },
+    source(value) {
+      const range = deref(value)?.range;
+      return range ? text.slice(range[0], range[1]) : "";
+    },
     line: (v) => (v?.range ? lineCounter.linePos(v.range[0]).line : 0),
-    pos: where,
-    claim(v) {
+    pos(v) {
+      if (!v?.range) return undefined;
+      const at = lineCounter.linePos(v.range[0]);
+      return { line: at.line, column: at.col };
+    },
+    claim(value) {
+      // Only an anchored node can be reached twice.
+      const v = deref(value);
       if (v === null || !("anchor" in v) || !v.anchor) return true;
       if (placed.has(v)) return false;
       placed.add(v);

@@ -34,6 +34,10 @@ describe("linkTable by id and parent", () => {
     ]);
   });
 
+  it("loadTree(csv) names a row by its id when its name cell is empty", () => {
+    expect(csv("id,parent,name\na,,Alpha\nb,a,\n").name).toEqual(["Alpha", "b"]);
+  });
+
   it("loadTree(csv) names rows by id when there is no name column, children before their parents too", () => {
     const tree = csv("id,parent\nb,a\na,\nc,a\n");
     expect(outline(tree)).toEqual(["a", "  b", "  c"]);
@@ -112,8 +116,8 @@ describe("linkTable by path", () => {
     expect([...tree.origin]).toEqual([1, 2, 1, 3]);
   });
 
-  it("loadTree(csv) takes a name column over the last path segment", () => {
-    expect(csv("path,name\na,Alpha\na/b,Beta\n").name).toEqual(["Alpha", "Beta"]);
+  it("loadTree(csv) takes a name column over the last path segment, unless the cell is empty", () => {
+    expect(csv("path,name\na,Alpha\na/b,Beta\na/c,\n").name).toEqual(["Alpha", "Beta", "c"]);
   });
 
   it("loadTree(csv) rejects a path repeated by a later row as DUPLICATE_PATH naming both rows", () => {

@@ -1,3 +1,4 @@
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { parseSize } from "../../src/load/size.js";
 
@@ -15,5 +16,16 @@ describe("parseSize(text)", () => {
     for (const text of ["-1", "0x10", "4.0K", "NaN", "Infinity", "1e999", "1,000", "."]) {
       expect(parseSize(text)).toBeNaN();
     }
+  });
+});
+
+describe("parseSize(text) property", () => {
+  it("parseSize(text) reads back any non-negative number JavaScript prints", () => {
+    fc.assert(
+      fc.property(
+        fc.oneof(fc.nat(), fc.maxSafeNat(), fc.double({ min: 0, noNaN: true, noDefaultInfinity: true })),
+        (n) => parseSize(String(n)) === n,
+      ),
+    );
   });
 });

@@ -65,6 +65,8 @@ describe("loadTree(csv) errors", () => {
   });
 
   it("loadTree(csv) reports a stray quote inside an unquoted field as PARSE_CSV with its line", () => {
+    // RFC 4180 section 2, rule 5: if fields are not enclosed with double quotes, then double quotes may
+    // not appear inside the fields.
     const error = caught(() => csv('id,parent\n1,\n\n2,1"x"\n'));
     expect(error.code).toBe("PARSE_CSV");
     expect(error.pos).toEqual({ line: 4, row: 2 });

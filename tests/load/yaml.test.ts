@@ -41,7 +41,15 @@ describe("loadTree(yaml)", () => {
     const text = "name: r\nchildren:\n  - &a {name: a}\n  - name: b\n    children: [*a]\n";
     const error = caught(() => yaml(text));
     expect(error.code).toBe("TWO_PARENTS");
-    expect(error.pos?.line).toBe(3);
+    expect(error.pos).toEqual({ line: 5, column: 16 });
+  });
+
+  it("loadTree(yaml) rejects one children list used by two nodes as TWO_PARENTS", () => {
+    const text =
+      "name: r\nchildren:\n  - name: a\n    children: &kids [{name: x}]\n  - name: b\n    children: *kids\n";
+    const error = caught(() => yaml(text));
+    expect(error.code).toBe("TWO_PARENTS");
+    expect(error.pos).toEqual({ line: 6, column: 15 });
   });
 
   it("loadTree(yaml) rejects a node that aliases its own ancestor as TWO_PARENTS", () => {
@@ -80,5 +88,13 @@ describe("loadTree(yaml)", () => {
 
   it("loadTree(yaml) rejects a document holding only comments as INPUT_EMPTY", () => {
     expect(caught(() => yaml("# nothing here\n")).code).toBe("INPUT_EMPTY");
+  });
+
+  it("loadTree(yaml) reports nesting too deep for the YAML parser as LIMIT_EXCEEDED with a line", () => {
+    const depth = 5000;
+    const text = "{name: n, children: [".repeat(depth) + "{name: leaf}" + "]}".repeat(depth);
+    const error = caught(() => yaml(text));
+    expect(error.code).toBe("LIMIT_EXCEEDED");
+    expect(error.pos?.line).toBe(1);
   });
 });
