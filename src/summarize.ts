@@ -37,6 +37,8 @@ export interface SummarizeOptions {
   pseudonymKey?: string;
   /** Lines the output spends before the tree (0 for plain summaries). */
   headerLines?: number;
+  /** Print a run of only children as one line (see fit/select.ts lineCost); default false. */
+  chains?: boolean;
 }
 
 export interface SummaryResult {
@@ -62,6 +64,7 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
     nodeOrder(tree, measures, scores),
     options.budget,
     options.headerLines ?? 0,
+    options.chains ?? false,
   );
   const nameOf =
     key === undefined

@@ -31,6 +31,8 @@ export const summaryOptionsSchema = z.object({
   units: z.enum(["auto", "bytes", "plain"]).default("auto").describe("How sizes print."),
   label: z.string().optional().describe("Label template, e.g. '{title}, {team}'."),
   pseudonymize: z.boolean().default(false).describe("Print keyed pseudonyms instead of names."),
+  chains: z.boolean().default(true).describe("Print a run of only children as one line."),
+  width: positiveInt("--width").optional().describe("Widest line in columns (default: terminal width)."),
   color: z.enum(["auto", "always", "never"]).default("auto").describe("Colour in text output."),
   maxNodes: positiveInt("--max-nodes").optional().describe("Refuse inputs with more nodes than this."),
 });

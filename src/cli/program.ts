@@ -59,12 +59,18 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
         .default("auto"),
     )
     .option("--max-nodes <count>", "refuse inputs with more nodes than this")
+    .option("--width <columns>", "widest text line, in terminal columns (default: terminal width)")
+    .option("--no-chains", "give every node its own line (by default a run of only children shares one)")
     .addHelpText("after", SUMMARY_EXAMPLES)
     .showHelpAfterError("(run espalier --help for usage and examples)")
     .exitOverride()
     .configureOutput({ writeOut: (s) => io.stdout.write(s), writeErr: (s) => io.stderr.write(s) })
     .action(async (input: string, raw: Record<string, unknown>) => {
-      const parsed = summaryOptionsSchema.safeParse({ ...raw, pseudonymize: raw.pseudonymize === true });
+      const parsed = summaryOptionsSchema.safeParse({
+        ...raw,
+        pseudonymize: raw.pseudonymize === true,
+        chains: raw.chains !== false,
+      });
       if (!parsed.success) {
         const issue = parsed.error.issues[0];
         throw new EspalierError("USAGE", issue.message);

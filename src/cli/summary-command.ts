@@ -31,6 +31,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     importance: opts.importance,
     label: opts.label,
     pseudonymKey: key,
+    chains: opts.chains,
   });
   if (opts.format === "json") {
     return renderJson(result.view, {
@@ -44,6 +45,8 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     units: unitsFor(opts),
     sizes: tree.hasSizes,
     palette: palette(useColour(opts, io)),
+    chains: opts.chains,
+    width: opts.width ?? defaultWidth(io),
   });
 }
 
@@ -85,6 +88,11 @@ export function useColour(opts: SummaryCliOptions, io: CliIO): boolean {
   if (io.env.NO_COLOR !== undefined && io.env.NO_COLOR !== "") return false;
   if (io.env.TERM === "dumb") return false;
   return io.stdout.isTTY === true;
+}
+
+/** The terminal's width when printing to one; no limit otherwise. */
+export function defaultWidth(io: CliIO): number | undefined {
+  return io.stdout.isTTY && io.stdout.columns && io.stdout.columns > 0 ? io.stdout.columns : undefined;
 }
 
 /** The terminal's height less one line for the prompt; 40 when not printing to a terminal. */

@@ -14,6 +14,11 @@ export class NodeHeap {
     return this.length;
   }
 
+  /** The first node in the order, without removing it. */
+  peek(): number {
+    return this.items[0];
+  }
+
   push(node: number): void {
     if (this.length === this.items.length) {
       const grown = new Int32Array(this.items.length * 2);

@@ -18,11 +18,29 @@ export interface Selection {
 }
 
 /**
+ * Lines that showing node `x` adds. One, except with `chains`: a node that is the only child of a
+ * parent which is not a focus continues its parent's line (`a / b / c`), so it costs nothing. The
+ * rule depends only on the tree, never on what else is shown, so costs stay fixed as the budget grows.
+ */
+export function lineCost(
+  tree: Tree,
+  measures: Measures,
+  scores: Interest,
+  chains: boolean,
+  x: number,
+): number {
+  if (!chains) return 1;
+  const p = tree.parent[x];
+  return p >= 0 && measures.count[p] === measures.count[x] + 1 && scores.distance[p] !== 0 ? 0 : 1;
+}
+
+/**
  * Chooses the shown set under a line budget: the forced nodes, then the longest prefix of the node
- * order whose rendering fits. Each shown node takes exactly one line (folded remainders ride on their
- * parent's line), plus `headerLines` for the whole output, so the prefix is found by best-first
- * expansion: the next node in the order is always a child of a node already shown, because a parent
- * precedes its children. Cost: O(k log k + children of shown nodes), never a sort of the whole tree.
+ * order whose rendering fits. A shown node takes one line (folded remainders ride on their parent's
+ * line), or none when `chains` joins it to its parent's line (see {@link lineCost}), plus
+ * `headerLines` for the whole output. The prefix is found by best-first expansion: the next node in
+ * the order is always a child of a node already shown, because a parent precedes its children.
+ * Cost: O(k log k + children of shown nodes), never a sort of the whole tree.
  */
 export function select(
   tree: Tree,
@@ -31,6 +49,7 @@ export function select(
   order: NodeOrder,
   budget: number,
   headerLines = 0,
+  chains = false,
 ): Selection {
   const n = tree.length;
   const shown = new Uint8Array(n);
@@ -41,35 +60,42 @@ export function select(
     if (forced[i]) forcedNodes.push(i);
     else i += count[i] - 1; // a non-forced node has no forced descendant
   }
-  const needed = forcedNodes.length + headerLines;
+  const cost = (x: number) => lineCost(tree, measures, scores, chains, x);
+  let needed = headerLines;
+  for (const f of forcedNodes) needed += cost(f);
   if (needed > budget) {
     throw new EspalierError(
       "BUDGET_TOO_SMALL",
       `a budget of ${budget} lines cannot hold the root and the focus paths; the smallest budget that works is ${needed}`,
     );
   }
-  const admitted = new Int32Array(Math.min(n, budget - headerLines));
-  let k = 0;
+  const admitted: number[] = [];
   for (const f of forcedNodes) {
     shown[f] = 1;
-    admitted[k++] = f;
+    admitted.push(f);
   }
+  let lines = needed;
   const heap = new NodeHeap(order);
   const pushChildren = (p: number) => {
+    if (count[p] === 1) return;
+    // With the budget used up only a child that costs no line could still enter.
+    if (lines >= budget && cost(p + 1) !== 0) return;
     const end = p + count[p];
     for (let c = p + 1; c < end; c += count[c]) if (!shown[c]) heap.push(c);
   };
-  if (k < admitted.length) for (const f of forcedNodes) pushChildren(f);
-  while (k < admitted.length && heap.size > 0) {
+  for (const f of forcedNodes) pushChildren(f);
+  // Stop at the first node that does not fit: the shown set stays a prefix of the order.
+  while (heap.size > 0 && lines + cost(heap.peek()) <= budget) {
     const next = heap.pop();
+    lines += cost(next);
     shown[next] = 1;
-    admitted[k++] = next;
-    if (k < admitted.length) pushChildren(next);
+    admitted.push(next);
+    pushChildren(next);
   }
   return {
     shown,
-    admitted: admitted.subarray(0, k),
+    admitted: Int32Array.from(admitted),
     forcedCount: forcedNodes.length,
-    lines: k + headerLines,
+    lines,
   };
 }

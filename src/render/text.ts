@@ -1,6 +1,7 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import type { ViewNode } from "../view/view-node.js";
 import { safeText } from "./escape.js";
+import { displayWidth, shortenEnd, shortenMiddle } from "./fit-width.js";
 import { noColour, type Palette } from "./palette.js";
 import { formatSize, type Units } from "./units.js";
 
@@ -9,37 +10,115 @@ export interface TextOptions {
   /** Whether sizes are printed (the input had sizes). */
   sizes: boolean;
   palette?: Palette;
+  /** Join an only child that is not below a focus onto its parent's line (must match the fit's choice). */
+  chains?: boolean;
+  /** Widest line allowed, in terminal columns (UAX #11 widths); unlimited when undefined. */
+  width?: number;
 }
 
 /** Line marks; they carry the meaning without colour. */
 export const MARK = { focus: "*", path: ">", other: "-" } as const;
 
+/** Between the labels of a chain of only children printed on one line. */
+export const CHAIN_JOIN = " / ";
+
+/** Shortest label kept before other parts of a line give way to the width. */
+const MIN_LABEL = 8;
+
 /**
  * One line per shown node, indented two spaces a level:
  *   `<mark> <label>  <N nodes>, <size>  +<k> more: <N nodes>, <size>`
  * The folded remainder rides on its parent's line, so every line names a node and the budget buys
- * nodes. Marks: `*` a focus, `>` an ancestor of a focus, `-` any other node.
+ * nodes. Marks: `*` a focus, `>` an ancestor of a focus, `-` any other node. With `chains`, a run of
+ * only children prints as one line `a / b / c` with the numbers of its top node.
  */
 export function renderText(view: HierarchyNode<ViewNode>, options: TextOptions): string {
+  return textLines(view, options).join("\n") + "\n";
+}
+
+/** Whether `child` continues its parent's line (the fit's lineCost of 0, read off the view). */
+export function continuesLine(parent: ViewNode, child: ViewNode, chains: boolean): boolean {
+  return chains && !parent.focus && parent.children.length === 1 && parent.nodes === child.nodes + 1;
+}
+
+/** The rendered lines, without their line ends. */
+export function textLines(view: HierarchyNode<ViewNode>, options: TextOptions): string[] {
   const pal = options.palette ?? noColour;
+  const chains = options.chains ?? false;
   const lines: string[] = [];
-  const top = view.data.depth;
+  const level = new Map<ViewNode, number>();
   view.eachBefore((h) => {
-    const node = h.data;
-    const indent = "  ".repeat(node.depth - top);
-    const mark = node.focus ? MARK.focus : node.onPath ? MARK.path : MARK.other;
-    const style = node.focus ? pal.focus : node.onPath ? pal.path : (s: string) => s;
-    let line = `${indent}${style(`${mark} ${safeText(node.label)}`)}`;
-    const stats = amount(node.nodes, node.size, options);
-    if (stats) line += `  ${pal.quiet(stats)}`;
-    if (node.hidden) {
-      const { children, nodes, size } = node.hidden;
-      const inside = amount(nodes, size, { ...options, always: true });
-      line += `  ${pal.quiet(`+${children} more: ${inside}`)}`;
+    const top = h.data;
+    const parent = h.parent?.data;
+    if (parent && continuesLine(parent, top, chains)) return; // printed with its parent's line
+    const depth = parent ? level.get(parent)! + 1 : 0;
+    const labels = [safeText(top.label)];
+    let last = top;
+    level.set(top, depth);
+    while (last.children.length === 1 && continuesLine(last, last.children[0], chains)) {
+      last = last.children[0];
+      level.set(last, depth);
+      labels.push(safeText(last.label));
     }
-    lines.push(line);
+    lines.push(
+      composeLine(
+        {
+          indent: "  ".repeat(depth),
+          mark: last.focus ? MARK.focus : last.onPath ? MARK.path : MARK.other,
+          label: labels.join(CHAIN_JOIN),
+          stats: amount(top.nodes, top.size, options),
+          folded: last.hidden
+            ? `+${last.hidden.children} more: ${amount(last.hidden.nodes, last.hidden.size, { ...options, always: true })}`
+            : "",
+          foldedShort: last.hidden ? `+${last.hidden.children} more` : "",
+          style: last.focus ? pal.focus : last.onPath ? pal.path : (s: string) => s,
+          quiet: pal.quiet,
+        },
+        options.width,
+      ),
+    );
   });
-  return `${lines.join("\n")}\n`;
+  return lines;
+}
+
+interface LineParts {
+  indent: string;
+  mark: string;
+  label: string;
+  stats: string;
+  folded: string;
+  foldedShort: string;
+  style: (s: string) => string;
+  quiet: (s: string) => string;
+}
+
+/**
+ * Puts a line together within `width` columns. What gives way, in turn: the folded part's numbers
+ * (`+3 more` stays), the label (cut in the middle, down to a few columns), the subtree's numbers,
+ * and last the end of the line itself.
+ */
+function composeLine(p: LineParts, width: number | undefined): string {
+  const plain = (label: string, stats: string, folded: string) =>
+    `${p.indent}${p.mark} ${label}${stats ? `  ${stats}` : ""}${folded ? `  ${folded}` : ""}`;
+  const styled = (label: string, stats: string, folded: string) =>
+    `${p.indent}${p.style(`${p.mark} ${label}`)}${stats ? `  ${p.quiet(stats)}` : ""}${folded ? `  ${p.quiet(folded)}` : ""}`;
+  if (width === undefined || displayWidth(plain(p.label, p.stats, p.folded)) <= width)
+    return styled(p.label, p.stats, p.folded);
+  // Keep the numbers of the fold before the whole label; keep a few columns of label before the
+  // subtree's numbers.
+  if (displayWidth(plain(p.label, p.stats, p.foldedShort)) <= width)
+    return styled(p.label, p.stats, p.foldedShort);
+  const attempts: [string, string][] = [
+    [p.stats, p.foldedShort],
+    ["", p.foldedShort],
+    ["", ""],
+  ];
+  for (const [stats, folded] of attempts) {
+    const room = width - displayWidth(plain("", stats, folded));
+    if (room >= Math.min(MIN_LABEL, displayWidth(p.label)))
+      return styled(shortenMiddle(p.label, room), stats, folded);
+  }
+  return p.style(shortenEnd(plain(p.label, "", ""), width));
 }
 
 function amount(nodes: number, size: number, options: TextOptions & { always?: boolean }): string {

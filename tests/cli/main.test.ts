@@ -23,7 +23,9 @@ describe("espalier <input> (summary)", () => {
   });
 
   it("exits 2 with BUDGET_TOO_SMALL naming the smallest budget that works", async () => {
-    const r = await cli(["-", "--focus", "x/b/c/d", "--budget", "3"], { stdin: "x/b/c/d\ny\n" });
+    const r = await cli(["-", "--focus", "x/b/c/d", "--budget", "3", "--no-chains"], {
+      stdin: "x/b/c/d\ny\n",
+    });
     expect(r.code).toBe(2);
     expect(r.stderr).toContain("[BUDGET_TOO_SMALL]");
     expect(r.stderr).toContain("is 5");

@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { EspalierError } from "../../src/errors.js";
-import { select } from "../../src/fit/select.js";
+import { lineCost, select } from "../../src/fit/select.js";
 import { interest } from "../../src/interest/doi.js";
 import { importance } from "../../src/interest/importance.js";
 import { nodeOrder } from "../../src/interest/order.js";
@@ -13,13 +13,16 @@ import { buildView } from "../../src/view/build-view.js";
 import type { ViewNode } from "../../src/view/view-node.js";
 import { arbTreeWithFoci } from "../helpers/random-tree.js";
 
-function setup(tree: Tree, focusList: number[], kind: "depth" | "size" = "depth") {
+function setup(tree: Tree, focusList: number[], kind: "depth" | "size" = "depth", chains = false) {
   const m = measure(tree);
   const foci = Int32Array.from([...focusList].sort((a, b) => a - b));
   const scores = interest(tree, importance(tree, m, kind), foci);
   const order = nodeOrder(tree, m, scores);
-  const forcedCount = scores.forced.reduce((a, b) => a + b, 0);
-  const run = (budget: number) => select(tree, m, scores, order, budget);
+  // Lines the forced nodes need (a chain link costs none).
+  const forcedCount = [...scores.forced.keys()]
+    .filter((i) => scores.forced[i])
+    .reduce((a, i) => a + lineCost(tree, m, scores, chains, i), 0);
+  const run = (budget: number) => select(tree, m, scores, order, budget, 0, chains);
   return { m, foci, scores, order, forcedCount, run };
 }
 
@@ -29,8 +32,8 @@ const kinds = fc.constantFrom<"depth" | "size">("depth", "size");
 describe("select(tree, measures, scores, order, budget)", () => {
   it("never renders more lines than the budget, and refuses budgets below the forced nodes", () => {
     fc.assert(
-      fc.property(arbTreeWithFoci(), budgets, kinds, ([tree, f], budget, kind) => {
-        const { m, foci, scores, forcedCount, run } = setup(tree, f, kind);
+      fc.property(arbTreeWithFoci(), budgets, kinds, fc.boolean(), ([tree, f], budget, kind, chains) => {
+        const { m, foci, scores, forcedCount, run } = setup(tree, f, kind, chains);
         if (forcedCount > budget) {
           const err = (() => {
             try {
@@ -46,7 +49,7 @@ describe("select(tree, measures, scores, order, budget)", () => {
         }
         const sel = run(budget);
         const view = buildView(new PathIndex(tree, m), scores, foci, sel, (i) => tree.name[i]);
-        const text = renderText(view, { units: "bytes", sizes: true });
+        const text = renderText(view, { units: "bytes", sizes: true, chains });
         const lines = text.split("\n").length - 1;
         expect(lines).toBe(sel.lines);
         expect(lines).toBeLessThanOrEqual(budget);
@@ -56,20 +59,26 @@ describe("select(tree, measures, scores, order, budget)", () => {
 
   it("nests selections: raising the budget never hides a shown node", () => {
     fc.assert(
-      fc.property(arbTreeWithFoci(), budgets, fc.integer({ min: 0, max: 40 }), ([tree, f], b, extra) => {
-        const { forcedCount, run } = setup(tree, f);
-        const budget = Math.max(b, forcedCount);
-        const small = run(budget).shown;
-        const large = run(budget + extra).shown;
-        for (let i = 0; i < tree.length; i++) if (small[i]) expect(large[i]).toBe(1);
-      }),
+      fc.property(
+        arbTreeWithFoci(),
+        budgets,
+        fc.integer({ min: 0, max: 40 }),
+        fc.boolean(),
+        ([tree, f], b, extra, chains) => {
+          const { forcedCount, run } = setup(tree, f, "depth", chains);
+          const budget = Math.max(b, forcedCount);
+          const small = run(budget).shown;
+          const large = run(budget + extra).shown;
+          for (let i = 0; i < tree.length; i++) if (small[i]) expect(large[i]).toBe(1);
+        },
+      ),
     );
   });
 
   it("shows exactly a prefix of the total order (no hidden node precedes a shown one)", () => {
     fc.assert(
-      fc.property(arbTreeWithFoci(), budgets, kinds, ([tree, f], b, kind) => {
-        const { forcedCount, order, run } = setup(tree, f, kind);
+      fc.property(arbTreeWithFoci(), budgets, kinds, fc.boolean(), ([tree, f], b, kind, chains) => {
+        const { forcedCount, order, run } = setup(tree, f, kind, chains);
         const sel = run(Math.max(b, forcedCount));
         const all = [...Array(tree.length).keys()].sort(order);
         const k = sel.admitted.length;
@@ -83,12 +92,13 @@ describe("select(tree, measures, scores, order, budget)", () => {
 
   it("uses the whole budget whenever anything is hidden (one line per admission)", () => {
     fc.assert(
-      fc.property(arbTreeWithFoci(), budgets, ([tree, f], b) => {
-        const { forcedCount, run } = setup(tree, f);
+      fc.property(arbTreeWithFoci(), budgets, fc.boolean(), ([tree, f], b, chains) => {
+        const { forcedCount, run } = setup(tree, f, "depth", chains);
         const budget = Math.max(b, forcedCount);
         const sel = run(budget);
         if (sel.admitted.length < tree.length) expect(sel.lines).toBe(budget);
-        else expect(sel.lines).toBe(tree.length);
+        else expect(sel.lines).toBeLessThanOrEqual(budget);
+        if (!chains && sel.admitted.length === tree.length) expect(sel.lines).toBe(tree.length);
       }),
     );
   });
