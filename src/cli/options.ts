@@ -3,7 +3,7 @@ import { importances } from "../interest/importance.js";
 import { inputFormats } from "../load/types.js";
 
 /** Output formats of a summary. */
-export const outputFormats = ["text", "json"] as const;
+export const outputFormats = ["text", "json", "markdown"] as const;
 
 const positiveInt = (what: string) =>
   z.coerce

@@ -2,6 +2,7 @@ import { EspalierError } from "../errors.js";
 import { loadTree } from "../load/index.js";
 import { defaultLoadOptions, type LoadOptions } from "../load/types.js";
 import { renderJson } from "../render/json.js";
+import { renderMarkdown } from "../render/markdown.js";
 import { palette } from "../render/palette.js";
 import { renderText } from "../render/text.js";
 import type { Units } from "../render/units.js";
@@ -40,6 +41,9 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
       foci: result.fociPaths,
       labels: opts.label !== undefined,
     });
+  }
+  if (opts.format === "markdown") {
+    return renderMarkdown(result.view, { units: unitsFor(opts), sizes: tree.hasSizes, chains: opts.chains });
   }
   return renderText(result.view, {
     units: unitsFor(opts),

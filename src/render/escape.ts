@@ -21,3 +21,8 @@ export function safeText(text: string, max = MAX_LABEL): string {
   }
   return out;
 }
+
+/** A label as printed: made safe, and `""` for an empty name so the line still shows something. */
+export function shownLabel(label: string): string {
+  return label === "" ? '""' : safeText(label);
+}

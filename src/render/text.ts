@@ -1,7 +1,8 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import type { ViewNode } from "../view/view-node.js";
-import { safeText } from "./escape.js";
+import { shownLabel } from "./escape.js";
 import { displayWidth, shortenEnd, shortenMiddle } from "./fit-width.js";
+import { lineGroups } from "./line-groups.js";
 import { noColour, type Palette } from "./palette.js";
 import { formatSize, type Units } from "./units.js";
 
@@ -36,49 +37,28 @@ export function renderText(view: HierarchyNode<ViewNode>, options: TextOptions):
   return textLines(view, options).join("\n") + "\n";
 }
 
-/** Whether `child` continues its parent's line (the fit's lineCost of 0, read off the view). */
-export function continuesLine(parent: ViewNode, child: ViewNode, chains: boolean): boolean {
-  return chains && !parent.focus && parent.children.length === 1 && parent.nodes === child.nodes + 1;
-}
-
 /** The rendered lines, without their line ends. */
 export function textLines(view: HierarchyNode<ViewNode>, options: TextOptions): string[] {
   const pal = options.palette ?? noColour;
-  const chains = options.chains ?? false;
-  const lines: string[] = [];
-  const level = new Map<ViewNode, number>();
-  view.eachBefore((h) => {
-    const top = h.data;
-    const parent = h.parent?.data;
-    if (parent && continuesLine(parent, top, chains)) return; // printed with its parent's line
-    const depth = parent ? level.get(parent)! + 1 : 0;
-    const labels = [safeText(top.label)];
-    let last = top;
-    level.set(top, depth);
-    while (last.children.length === 1 && continuesLine(last, last.children[0], chains)) {
-      last = last.children[0];
-      level.set(last, depth);
-      labels.push(safeText(last.label));
-    }
-    lines.push(
-      composeLine(
-        {
-          indent: "  ".repeat(depth),
-          mark: last.focus ? MARK.focus : last.onPath ? MARK.path : MARK.other,
-          label: labels.join(CHAIN_JOIN),
-          stats: amount(top.nodes, top.size, options),
-          folded: last.hidden
-            ? `+${last.hidden.children} more: ${amount(last.hidden.nodes, last.hidden.size, { ...options, always: true })}`
-            : "",
-          foldedShort: last.hidden ? `+${last.hidden.children} more` : "",
-          style: last.focus ? pal.focus : last.onPath ? pal.path : (s: string) => s,
-          quiet: pal.quiet,
-        },
-        options.width,
-      ),
+  return lineGroups(view, options.chains ?? false).map(({ level, nodes }) => {
+    const top = nodes[0];
+    const last = nodes[nodes.length - 1];
+    return composeLine(
+      {
+        indent: "  ".repeat(level),
+        mark: last.focus ? MARK.focus : last.onPath ? MARK.path : MARK.other,
+        label: nodes.map((n) => shownLabel(n.label)).join(CHAIN_JOIN),
+        stats: amount(top.nodes, top.size, options),
+        folded: last.hidden
+          ? `+${last.hidden.children} more: ${amount(last.hidden.nodes, last.hidden.size, { ...options, always: true })}`
+          : "",
+        foldedShort: last.hidden ? `+${last.hidden.children} more` : "",
+        style: last.focus ? pal.focus : last.onPath ? pal.path : (s: string) => s,
+        quiet: pal.quiet,
+      },
+      options.width,
     );
   });
-  return lines;
 }
 
 interface LineParts {
@@ -121,7 +101,8 @@ function composeLine(p: LineParts, width: number | undefined): string {
   return p.style(shortenEnd(plain(p.label, "", ""), width));
 }
 
-function amount(nodes: number, size: number, options: TextOptions & { always?: boolean }): string {
+/** "12 nodes, 3.0 MiB": the count (when above one, or `always`) and the size (when the input has sizes). */
+export function amount(nodes: number, size: number, options: TextOptions & { always?: boolean }): string {
   const parts: string[] = [];
   if (nodes > 1 || options.always) parts.push(`${nodes} ${nodes === 1 ? "node" : "nodes"}`);
   if (options.sizes) parts.push(formatSize(size, options.units));
