@@ -14,7 +14,14 @@ import { EXIT } from "./exit-codes.js";
 import type { CliIO } from "./io.js";
 import { PSEUDONYM_KEY_ENV } from "./options.js";
 import { readInput } from "./read-input.js";
-import { defaultBudget, displayName, toLoadOptions, unitsFor, useColour } from "./summary-command.js";
+import {
+  defaultBudget,
+  defaultWidth,
+  displayName,
+  toLoadOptions,
+  unitsFor,
+  useColour,
+} from "./summary-command.js";
 
 /** What a command hands back: the text for standard output and the exit code. */
 export interface CommandOutput {
@@ -109,6 +116,7 @@ export async function diffCommand(
           sizes: result.combined.tree.hasSizes,
           by,
           palette: palette(useColour(opts, io)),
+          width: opts.width ?? defaultWidth(io),
         });
   const differ = totalChanges(result.totals.changes) > 0;
   return { text, exitCode: opts.exitCode && differ ? EXIT.differences : EXIT.ok };

@@ -17,18 +17,6 @@ export function kindName(code: number): ChangeKind | null {
   return code === KIND.none ? null : changeKinds[code - 1];
 }
 
-/** Counts from a flat array laid out as five counts per node (see `measureChanges`). */
-export function countsAt(flat: Int32Array, node: number): ChangeCounts {
-  const b = node * 5;
-  return {
-    added: flat[b],
-    removed: flat[b + 1],
-    moved: flat[b + 2],
-    renamed: flat[b + 3],
-    resized: flat[b + 4],
-  };
-}
-
 /** Sum of all five counts. */
 export function totalChanges(c: ChangeCounts): number {
   return c.added + c.removed + c.moved + c.renamed + c.resized;

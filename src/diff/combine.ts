@@ -1,4 +1,3 @@
-import type { Measures } from "../model/measure.js";
 import type { Tree } from "../model/tree.js";
 import { KIND } from "./changes.js";
 import type { Matching } from "./match.js";
@@ -29,14 +28,12 @@ export interface Combined {
  */
 export function combine(
   oldTree: Tree,
-  oldMeasures: Measures,
+  oldCount: Int32Array,
   newTree: Tree,
-  newMeasures: Measures,
+  newCount: Int32Array,
   matching: Matching,
 ): Combined {
   const { oldToNew, newToOld } = matching;
-  const oldCount = oldMeasures.count;
-  const newCount = newMeasures.count;
   const oldParent = oldTree.parent;
   const newParent = newTree.parent;
 
@@ -49,24 +46,40 @@ export function combine(
     hasRemovedChild[oldParent[o]] = 1;
   }
   const total = newTree.length + removedCount;
+  if (removedCount === 0) {
+    // Nothing to splice in: the combined tree is the new tree.
+    const identity = new Int32Array(total);
+    for (let k = 0; k < total; k++) identity[k] = k;
+    return {
+      ...fill(oldTree, newTree, matching, identity, newToOld, newParent),
+      newIndex: identity,
+      oldIndex: newToOld,
+    };
+  }
   const newIndex = new Int32Array(total);
   const oldIndex = new Int32Array(total);
   const parent = new Int32Array(total);
 
-  let plain: Uint8Array | null = null;
-  if (removedCount > 0) {
-    plain = new Uint8Array(newTree.length).fill(1);
-    for (let n = newTree.length - 1; n >= 0; n--) {
-      const o = newToOld[n];
-      if (o >= 0 && hasRemovedChild[o]) plain[n] = 0;
-      if (!plain[n] && n > 0) plain[newParent[n]] = 0;
-    }
+  const plain = new Uint8Array(newTree.length).fill(1);
+  for (let n = newTree.length - 1; n >= 0; n--) {
+    const o = newToOld[n];
+    if (o >= 0 && hasRemovedChild[o]) plain[n] = 0;
+    if (!plain[n] && n > 0) plain[newParent[n]] = 0;
   }
 
   // Depth-first in pre-order. Stack entries: n >= 0 a new node, -(o + 1) a removed old node. Each
-  // node is pushed once, so the stacks never outgrow the combined tree.
-  const stack = new Int32Array(total);
-  const stackParent = new Int32Array(total);
+  // node is pushed once, so the stacks never outgrow the combined tree; they start small and grow.
+  let stack = new Int32Array(Math.min(total, 1024));
+  let stackParent = new Int32Array(stack.length);
+  const grow = () => {
+    const size = Math.min(total, stack.length * 2);
+    const grown = new Int32Array(size);
+    grown.set(stack);
+    stack = grown;
+    const grownParent = new Int32Array(size);
+    grownParent.set(stackParent);
+    stackParent = grownParent;
+  };
   let sp = 0;
   stack[sp] = 0;
   stackParent[sp++] = -1;
@@ -74,7 +87,7 @@ export function combine(
   while (sp > 0) {
     const entry = stack[--sp];
     const pc = stackParent[sp];
-    if (entry >= 0 && (plain === null || plain[entry])) {
+    if (entry >= 0 && plain[entry]) {
       const n = entry;
       const base = k - n;
       const end = n + newCount[n];
@@ -88,31 +101,44 @@ export function combine(
     const self = k++;
     parent[self] = pc;
     const first = sp;
-    const push = (child: number) => {
-      stack[sp] = child;
-      stackParent[sp++] = self;
-    };
     if (entry >= 0) {
       newIndex[self] = entry;
       oldIndex[self] = newToOld[entry];
-      mergedChildren(entry, push);
+      sp = mergedChildren(entry, sp);
     } else {
       const o = -entry - 1;
       newIndex[self] = -1;
       oldIndex[self] = o;
       const end = o + oldCount[o];
-      for (let c = o + 1; c < end; c += oldCount[c]) if (oldToNew[c] < 0) push(-c - 1);
+      for (let c = o + 1; c < end; c += oldCount[c]) {
+        if (oldToNew[c] >= 0) continue;
+        if (sp === stack.length) grow();
+        stack[sp++] = -c - 1;
+      }
     }
-    stack.subarray(first, sp).reverse(); // the first child is popped first
+    // Reverse the children just pushed, so that the first child is popped first.
+    for (let a = first, b = sp - 1; a < b; a++, b--) {
+      const t = stack[a];
+      stack[a] = stack[b];
+      stack[b] = t;
+    }
+    for (let a = first; a < sp; a++) stackParent[a] = self;
   }
 
-  /** Children of new node n in the combined tree: its new children with removed old ones spliced in. */
-  function mergedChildren(n: number, push: (child: number) => void) {
+  /**
+   * Pushes the children of new node n in the combined tree from stack position `sp`: its new children
+   * with the removed old ones spliced in. Returns the new stack position.
+   */
+  function mergedChildren(n: number, at: number): number {
+    let sp = at;
     const nEnd = n + newCount[n];
     const o = newToOld[n];
     if (o < 0 || !hasRemovedChild[o]) {
-      for (let c = n + 1; c < nEnd; c += newCount[c]) push(c);
-      return;
+      for (let c = n + 1; c < nEnd; c += newCount[c]) {
+        if (sp === stack.length) grow();
+        stack[sp++] = c;
+      }
+      return sp;
     }
     const after = new Map<number, number[]>(); // new child -> removed old siblings placed after it
     let anchor = -1;
@@ -127,13 +153,17 @@ export function combine(
       if (list) list.push(-s - 1);
       else after.set(anchor, [-s - 1]);
     }
-    const first = after.get(-1);
-    if (first) for (const r of first) push(r);
+    const order: number[] = [...(after.get(-1) ?? [])];
     for (let c = n + 1; c < nEnd; c += newCount[c]) {
-      push(c);
+      order.push(c);
       const list = after.get(c);
-      if (list) for (const r of list) push(r);
+      if (list) for (const r of list) order.push(r);
     }
+    for (const c of order) {
+      if (sp === stack.length) grow();
+      stack[sp++] = c;
+    }
+    return sp;
   }
 
   return { ...fill(oldTree, newTree, matching, newIndex, oldIndex, parent), newIndex, oldIndex };
@@ -152,6 +182,8 @@ function fill(
   const kind = new Uint8Array(total);
   const delta = new Float64Array(total);
   const renameRoot = !oldTree.syntheticRoot && !newTree.syntheticRoot;
+  // Matched by path, every pair below the root has equal names.
+  const byId = matching.by === "id";
   const { newToOld } = matching;
   const oldSize = oldTree.ownSize;
   const newSize = newTree.ownSize;
@@ -171,7 +203,7 @@ function fill(
     } else {
       delta[k] = newSize[n] - oldSize[o];
       if (n > 0 && newToOld[newParent[n]] !== oldParent[o]) kind[k] = KIND.moved;
-      else if ((n > 0 || renameRoot) && newName[n] !== oldName[o]) kind[k] = KIND.renamed;
+      else if ((n > 0 ? byId : renameRoot) && newName[n] !== oldName[o]) kind[k] = KIND.renamed;
       else if (delta[k] !== 0) kind[k] = KIND.resized;
     }
   }
@@ -232,8 +264,7 @@ function copyTree(
     }
     return values;
   });
-  const fields = new Map<string, string[]>();
-  keys.forEach((key, f) => fields.set(key, fieldValues[f]));
+  const fields = new Map<string, string[]>(keys.map((key, f) => [key, fieldValues[f]]));
   return {
     length: total,
     parent,

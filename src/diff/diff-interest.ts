@@ -11,30 +11,22 @@ export interface DiffInterest extends Interest {
  * Furnas degree of interest (see `interest`) with every changed node added to the user's foci as a
  * soft focus: same formula, so a change and its ancestors score as a focus path does. `forced` holds
  * only the root and the user's focus paths, so a diff with more changes than the budget still fits.
+ * `onChangePath` comes from `measureChanges`.
  */
 export function diffInterest(
   tree: Tree,
   api: Float64Array,
   foci: Int32Array,
   kind: Uint8Array,
+  onChangePath: Uint8Array,
 ): DiffInterest {
-  const n = tree.length;
   const { parent } = tree;
-  const isFocus = new Uint8Array(n);
-  for (const f of foci) isFocus[f] = 1;
-  const all: number[] = [];
-  for (let i = 0; i < n; i++) if (isFocus[i] || kind[i] !== 0) all.push(i);
-  const scores = interest(tree, api, Int32Array.from(all));
-  const forced = new Uint8Array(n);
-  const onChangePath = new Uint8Array(n);
+  const all = new Set<number>(foci);
+  for (let i = 0; i < tree.length; i++) if (kind[i] !== 0) all.add(i);
+  const scores = interest(tree, api, Int32Array.from([...all].sort((a, b) => a - b)));
+  // The summary's forced set for the user's foci alone: the root and every focus path.
+  const forced = scores.forced.fill(0);
   forced[0] = 1;
-  for (let i = n - 1; i > 0; i--) {
-    if (isFocus[i]) forced[i] = 1;
-    if (kind[i] !== 0) onChangePath[i] = 1;
-    const p = parent[i];
-    if (forced[i]) forced[p] = 1;
-    if (onChangePath[i]) onChangePath[p] = 1;
-  }
-  if (kind[0] !== 0) onChangePath[0] = 1;
+  for (const f of foci) for (let a = f; a > 0 && !forced[a]; a = parent[a]) forced[a] = 1;
   return { value: scores.value, distance: scores.distance, forced, onChangePath };
 }

@@ -2,7 +2,7 @@ import type { NodeOrder } from "../interest/order.js";
 import type { Measures } from "../model/measure.js";
 import type { Tree } from "../model/tree.js";
 import type { DiffInterest } from "./diff-interest.js";
-import type { ChangeMeasures } from "./measure-changes.js";
+import { type ChangeMeasures, changeTotalIn } from "./measure-changes.js";
 
 /**
  * The total order the fitter takes a prefix of, for a diff. Forced nodes (root, the user's foci and
@@ -25,11 +25,6 @@ export function diffOrder(
   const { value, distance, forced, onChangePath } = scores;
   const { depth } = tree;
   const { count } = measures;
-  const c = changes.counts;
-  const inside = (i: number) => {
-    const b = i * 5;
-    return c[b] + c[b + 1] + c[b + 2] + c[b + 3] + c[b + 4];
-  };
   return (a, b) => {
     if (forced[a] !== forced[b]) return forced[b] - forced[a];
     if (forced[a]) return a - b;
@@ -37,7 +32,7 @@ export function diffOrder(
     if (onChangePath[a] !== onChangePath[b]) return onChangePath[b] - onChangePath[a];
     if (onChangePath[a]) {
       if (depth[a] !== depth[b]) return depth[a] - depth[b];
-      const d = inside(b) - inside(a);
+      const d = changeTotalIn(changes, b) - changeTotalIn(changes, a);
       return d !== 0 ? d : a - b;
     }
     if (distance[a] !== distance[b]) return distance[a] - distance[b];

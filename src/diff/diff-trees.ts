@@ -9,13 +9,14 @@ import { escapeSegment } from "../model/segment.js";
 import type { Tree } from "../model/tree.js";
 import { compileLabel } from "../view/label.js";
 import { alignRoots } from "./align-roots.js";
-import { type ChangeCounts, countsAt } from "./changes.js";
+import type { ChangeCounts } from "./changes.js";
 import { type Combined, combine } from "./combine.js";
 import { type DiffInterest, diffInterest } from "./diff-interest.js";
 import { diffOrder } from "./diff-order.js";
 import { buildDiffView, type DiffViewNode } from "./diff-view.js";
 import { matchTrees } from "./match.js";
-import { type ChangeMeasures, measureChanges } from "./measure-changes.js";
+import { type ChangeMeasures, changesIn, measureChanges, netIn } from "./measure-changes.js";
+import { subtreeCounts } from "./subtree-counts.js";
 
 export interface DiffOptions {
   /** Focus specs (paths, ids or globs), resolved in the combined tree. */
@@ -59,18 +60,20 @@ export const DIFF_HEADER_LINES = 1;
  */
 export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions): DiffResult {
   const [oldTree, newTree] = alignRoots(oldInput, newInput);
-  const oldMeasures = measure(oldTree);
-  const newMeasures = measure(newTree);
-  const matching = matchTrees(oldTree, oldMeasures, newTree, newMeasures);
-  const combined = combine(oldTree, oldMeasures, newTree, newMeasures, matching);
+  // Only subtree counts of the two versions are needed; the whole-tree arrays are kept few, because
+  // every large allocation brings the next full garbage collection of both loaded versions nearer.
+  const oldCount = subtreeCounts(oldTree);
+  const newCount = subtreeCounts(newTree);
+  const matching = matchTrees(oldTree, oldCount, newTree, newCount);
+  const combined = combine(oldTree, oldCount, newTree, newCount, matching);
   const { tree } = combined;
-  const measures = tree.length === newTree.length ? newMeasures : measure(tree); // nothing removed: the new tree
+  const measures = measure(tree);
   const changeMeasures = measureChanges(tree, combined.kind, combined.delta);
   const index = new PathIndex(tree, measures);
   const key = options.pseudonymKey;
   const foci = resolveFoci(index, options.foci, key);
   const api = importance(tree, measures, options.importance);
-  const scores = diffInterest(tree, api, foci, combined.kind);
+  const scores = diffInterest(tree, api, foci, combined.kind, changeMeasures.onChangePath);
   const order = diffOrder(tree, measures, scores, changeMeasures);
   const selection = select(tree, measures, scores, order, options.budget, DIFF_HEADER_LINES);
 
@@ -81,12 +84,13 @@ export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions):
     key === undefined
       ? (i: number) => index.path(i)
       : (i: number) => index.path(i, (j) => escapeSegment(nameOf(j)));
-  const oldIndex = new PathIndex(oldTree, oldMeasures);
+  let oldIndex: PathIndex | undefined; // built only when a shown node moved
   const oldNameOf = hide(oldTree);
-  const oldPathOf =
-    key === undefined
-      ? (o: number) => oldIndex.path(o)
-      : (o: number) => oldIndex.path(o, (j) => escapeSegment(oldNameOf(j)));
+  const oldPathOf = (o: number) => {
+    oldIndex ??= new PathIndex(oldTree, measure(oldTree));
+    const old = oldIndex;
+    return key === undefined ? old.path(o) : old.path(o, (j) => escapeSegment(oldNameOf(j)));
+  };
   const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf);
   const view = buildDiffView(
     index,
@@ -103,11 +107,13 @@ export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions):
       pathOf: oldPathOf,
     },
   );
+  let oldSize = 0;
+  for (let o = 0; o < oldTree.length; o++) oldSize += oldTree.ownSize[o];
   const totals: DiffTotals = {
-    changes: countsAt(changeMeasures.counts, 0),
-    old: { nodes: oldTree.length, size: oldMeasures.size[0] },
-    new: { nodes: newTree.length, size: newMeasures.size[0] },
-    delta: changeMeasures.net[0],
+    changes: changesIn(changeMeasures, 0),
+    old: { nodes: oldTree.length, size: oldSize },
+    new: { nodes: newTree.length, size: measures.size[0] },
+    delta: netIn(changeMeasures, 0),
   };
   return {
     combined,

@@ -3,10 +3,10 @@ import type { Selection } from "../fit/select.js";
 import type { PathIndex } from "../model/paths.js";
 import { buildView, type Labeller } from "../view/build-view.js";
 import type { Folded, ViewNode } from "../view/view-node.js";
-import { type ChangeCounts, type ChangeKind, countsAt, KIND, kindName } from "./changes.js";
+import { type ChangeCounts, type ChangeKind, changeKinds, KIND, kindName } from "./changes.js";
 import type { Combined } from "./combine.js";
 import type { DiffInterest } from "./diff-interest.js";
-import type { ChangeMeasures } from "./measure-changes.js";
+import { type ChangeMeasures, changesIn, netIn } from "./measure-changes.js";
 
 /** What is folded under a shown node of a diff: the summary's counts plus the changes inside. */
 export interface DiffFolded extends Folded {
@@ -68,23 +68,24 @@ export function buildDiffView(
     const k = kind[i];
     let hidden: DiffFolded | null = null;
     if (data.hidden) {
-      const flat = new Int32Array(5);
+      const inside: ChangeCounts = { added: 0, removed: 0, moved: 0, renamed: 0, resized: 0 };
       let net = 0;
       const end = i + count[i];
       for (let c = i + 1; c < end; c += count[c]) {
-        if (shown[c]) continue;
-        for (let j = 0; j < 5; j++) flat[j] += changes.counts[c * 5 + j];
-        net += changes.net[c];
+        if (shown[c] || changes.slot[c] < 0) continue;
+        const counts = changesIn(changes, c);
+        for (const k of changeKinds) inside[k] += counts[k];
+        net += netIn(changes, c);
       }
-      hidden = { ...data.hidden, changes: countsAt(flat, 0), delta: net };
+      hidden = { ...data.hidden, changes: inside, delta: net };
     }
     const node: DiffViewNode = {
       ...data,
       onPath: data.onPath || scores.onChangePath[i] === 1,
       change: kindName(k),
       delta: delta[i],
-      net: changes.net[i],
-      changes: countsAt(changes.counts, i),
+      net: netIn(changes, i),
+      changes: changesIn(changes, i),
       movedFrom: k === KIND.moved ? old.pathOf(oldTree.parent[o]) : null,
       renamedFrom: k === KIND.renamed ? old.nameOf(o) : null,
       children: [],

@@ -1,4 +1,3 @@
-import type { Measures } from "../model/measure.js";
 import type { Tree } from "../model/tree.js";
 
 /** How the nodes of two versions correspond. Roots always correspond to each other. */
@@ -18,19 +17,19 @@ export interface Matching {
  */
 export function matchTrees(
   oldTree: Tree,
-  oldMeasures: Measures,
+  oldCount: Int32Array,
   newTree: Tree,
-  newMeasures: Measures,
+  newCount: Int32Array,
 ): Matching {
   const oldToNew = new Int32Array(oldTree.length).fill(-1);
   const newToOld = new Int32Array(newTree.length).fill(-1);
   oldToNew[0] = 0;
   newToOld[0] = 0;
   if (oldTree.ids && newTree.ids) {
-    matchById(oldTree.ids, oldMeasures.count, newTree.ids, newMeasures.count, oldToNew, newToOld);
+    matchById(oldTree.ids, oldCount, newTree.ids, newCount, oldToNew, newToOld);
     return { by: "id", oldToNew, newToOld };
   }
-  matchByPath(oldTree, oldMeasures.count, newTree, newMeasures.count, oldToNew, newToOld);
+  matchByPath(oldTree, oldCount, newTree, newCount, oldToNew, newToOld);
   return { by: "path", oldToNew, newToOld };
 }
 

@@ -1,33 +1,71 @@
 import type { Tree } from "../model/tree.js";
+import type { ChangeCounts } from "./changes.js";
 
-/** Changes in every subtree of the combined tree, the node itself included. */
+/**
+ * Changes in every subtree of the combined tree, the node itself included. Only nodes on a change path
+ * (a changed node or an ancestor of one) have any, so they alone get a slot: a diff of a few changes
+ * in a large tree stays small.
+ */
 export interface ChangeMeasures {
-  /** Five counts per node (added, removed, moved, renamed, resized) at `5 * node`; see `countsAt`. */
+  /** 1 for every changed node and every ancestor of one. */
+  readonly onChangePath: Uint8Array;
+  /** Each node's slot in `counts` and `net`, or -1 off change paths. */
+  readonly slot: Int32Array;
+  /** Five counts per slot (added, removed, moved, renamed, resized), at `5 * slot`. */
   readonly counts: Int32Array;
-  /** Sum of own size changes over the subtree (new minus old). */
+  /** Sum of own size changes (new minus old) over the subtree, per slot. */
   readonly net: Float64Array;
 }
 
-/** One reverse pass over the pre-order arrays, like `measure`: every child is folded into its parent. */
+/** Three linear passes: mark change paths, number them, then fold every child into its parent. */
 export function measureChanges(tree: Tree, kind: Uint8Array, delta: Float64Array): ChangeMeasures {
   const n = tree.length;
-  const counts = new Int32Array(n * 5);
-  const net = new Float64Array(delta);
   const { parent } = tree;
-  const any = new Uint8Array(n); // a change somewhere in the subtree
+  const onChangePath = new Uint8Array(n);
   for (let i = n - 1; i >= 0; i--) {
-    if (kind[i] !== 0) {
-      counts[i * 5 + kind[i] - 1]++;
-      any[i] = 1;
-    }
-    const p = parent[i];
-    if (p < 0) continue;
-    if (net[i] !== 0) net[p] += net[i];
-    if (!any[i]) continue;
-    any[p] = 1;
-    const a = i * 5;
-    const b = p * 5;
-    for (let k = 0; k < 5; k++) counts[b + k] += counts[a + k];
+    if (kind[i] !== 0) onChangePath[i] = 1;
+    if (onChangePath[i] && i > 0) onChangePath[parent[i]] = 1;
   }
-  return { counts, net };
+  const slot = new Int32Array(n).fill(-1);
+  let m = 0;
+  for (let i = 0; i < n; i++) if (onChangePath[i]) slot[i] = m++;
+  const counts = new Int32Array(m * 5);
+  const net = new Float64Array(m);
+  for (let i = n - 1; i >= 0; i--) {
+    const s = slot[i];
+    if (s < 0) continue;
+    if (kind[i] !== 0) counts[s * 5 + kind[i] - 1]++;
+    net[s] += delta[i];
+    if (i === 0) continue;
+    const t = slot[parent[i]];
+    net[t] += net[s];
+    for (let k = 0; k < 5; k++) counts[t * 5 + k] += counts[s * 5 + k];
+  }
+  return { onChangePath, slot, counts, net };
+}
+
+const NONE: ChangeCounts = { added: 0, removed: 0, moved: 0, renamed: 0, resized: 0 };
+
+/** The changes in node i's subtree, per kind. */
+export function changesIn(cm: ChangeMeasures, i: number): ChangeCounts {
+  const s = cm.slot[i];
+  if (s < 0) return { ...NONE };
+  const b = s * 5;
+  const c = cm.counts;
+  return { added: c[b], removed: c[b + 1], moved: c[b + 2], renamed: c[b + 3], resized: c[b + 4] };
+}
+
+/** Number of changed nodes in node i's subtree. */
+export function changeTotalIn(cm: ChangeMeasures, i: number): number {
+  const s = cm.slot[i];
+  if (s < 0) return 0;
+  const b = s * 5;
+  const c = cm.counts;
+  return c[b] + c[b + 1] + c[b + 2] + c[b + 3] + c[b + 4];
+}
+
+/** Net size change over node i's subtree. */
+export function netIn(cm: ChangeMeasures, i: number): number {
+  const s = cm.slot[i];
+  return s < 0 ? 0 : cm.net[s];
 }

@@ -123,6 +123,13 @@ describe("espalier diff OLD NEW", () => {
     expect(r.stdout).toMatch(/\[moved from [^\]]*anon-[0-9a-f]{12}\] anon-[0-9a-f]{12}/);
   });
 
+  it("keeps lines within --width and accepts a removed node's path as a focus", async () => {
+    const r = await cli(["diff", at("new.paths"), at("old.paths"), "--width", "40", "--focus", "c"]);
+    expect(r.code).toBe(0);
+    for (const line of r.stdout.trimEnd().split("\n")) expect(line.length).toBeLessThanOrEqual(40);
+    expect(r.stdout).toContain("* [removed -7 B] c");
+  });
+
   it("leaves the summary as the default command", async () => {
     const r = await cli([at("old.paths"), "--budget", "3"]);
     expect(r.code).toBe(0);

@@ -23,13 +23,17 @@ function changeList(result: DiffResult): string[] {
   for (let k = 0; k < tree.length; k++) {
     const word = kindName(kind[k]);
     if (word === null) continue;
-    const moved = word === "moved" ? ` from ${oldTree.name[oldTree.parent[oldIndex[k]]]} to ${tree.name[tree.parent[k]]}` : "";
+    const moved =
+      word === "moved"
+        ? ` from ${oldTree.name[oldTree.parent[oldIndex[k]]]} to ${tree.name[tree.parent[k]]}`
+        : "";
     out.push(`${tree.name[k]} ${word}${moved}`);
   }
   return out;
 }
 
-const render = (r: DiffResult) => renderDiffText(r.view, r.totals, { units: "plain", sizes: true, by: r.combined.by });
+const render = (r: DiffResult) =>
+  renderDiffText(r.view, r.totals, { units: "plain", sizes: true, by: r.combined.by });
 
 describe("diffTrees(old, new, options)", () => {
   it("finds exactly one move and one insertion in the change-detection example", () => {
@@ -67,7 +71,14 @@ describe("diffTrees(old, new, options)", () => {
   it("puts removed nodes at their old place among the new siblings", () => {
     const names = (r: DiffResult) => [...r.combined.tree.name];
     expect(names(run(makeTree("R{A{x,y,z}}"), makeTree("R{A{x,z}}")))).toEqual(["R", "A", "x", "y", "z"]);
-    expect(names(run(makeTree("R{A{y,x,w}}"), makeTree("R{A{x,v}}")))).toEqual(["R", "A", "y", "x", "w", "v"]);
+    expect(names(run(makeTree("R{A{y,x,w}}"), makeTree("R{A{x,v}}")))).toEqual([
+      "R",
+      "A",
+      "y",
+      "x",
+      "w",
+      "v",
+    ]);
     // By id, a removed node goes after its nearest earlier old sibling that stayed, skipping moved ones.
     const byId = run(makeIdTree("R{A{p,q,r},B}"), makeIdTree("R{A{p},B{q}}"));
     expect(names(byId)).toEqual(["R", "A", "p", "r", "B", "q"]);
@@ -109,7 +120,9 @@ describe("diffTrees(old, new, options)", () => {
           }
           found.set(ids[k], text);
         }
-        const want = new Map([...expected].map(([id, e]) => [id, e.kind === "moved" ? `moved ${e.from} ${e.to}` : e.kind]));
+        const want = new Map(
+          [...expected].map(([id, e]) => [id, e.kind === "moved" ? `moved ${e.from} ${e.to}` : e.kind]),
+        );
         expect(found).toEqual(want);
       }),
     );
@@ -158,18 +171,24 @@ describe("diffTrees(old, new, options)", () => {
 
   it("keeps the selection contract: fits, nested, a prefix of the order, root and foci forced", () => {
     fc.assert(
-      fc.property(arbEdited(), fc.integer({ min: 2, max: 40 }), fc.integer({ min: 0, max: 20 }), (edited, b, extra) => {
-        const small = run(edited.oldTree, edited.newTree, b);
-        const large = run(edited.oldTree, edited.newTree, b + extra);
-        const lines = render(small).split("\n").length - 1;
-        expect(lines).toBe(small.selection.lines);
-        expect(lines).toBeLessThanOrEqual(b);
-        const n = small.combined.tree.length;
-        if (small.selection.admitted.length < n) expect(lines).toBe(b);
-        for (let i = 0; i < n; i++) if (small.selection.shown[i]) expect(large.selection.shown[i]).toBe(1);
-        for (let i = 1; i < n; i++)
-          if (small.selection.shown[i]) expect(small.selection.shown[small.combined.tree.parent[i]]).toBe(1);
-      }),
+      fc.property(
+        arbEdited(),
+        fc.integer({ min: 2, max: 40 }),
+        fc.integer({ min: 0, max: 20 }),
+        (edited, b, extra) => {
+          const small = run(edited.oldTree, edited.newTree, b);
+          const large = run(edited.oldTree, edited.newTree, b + extra);
+          const lines = render(small).split("\n").length - 1;
+          expect(lines).toBe(small.selection.lines);
+          expect(lines).toBeLessThanOrEqual(b);
+          const n = small.combined.tree.length;
+          if (small.selection.admitted.length < n) expect(lines).toBe(b);
+          for (let i = 0; i < n; i++) if (small.selection.shown[i]) expect(large.selection.shown[i]).toBe(1);
+          for (let i = 1; i < n; i++)
+            if (small.selection.shown[i])
+              expect(small.selection.shown[small.combined.tree.parent[i]]).toBe(1);
+        },
+      ),
     );
   });
 
@@ -232,7 +251,13 @@ describe("diffTrees(old, new, options)", () => {
     const shown = result.combined.tree.name.filter((_, i) => result.selection.shown[i]);
     expect(shown).toEqual(["R", "C", "c1"]);
     expect(result.selection.lines).toBe(DIFF_HEADER_LINES + 3);
-    expect(result.view.data.hidden?.changes).toEqual({ added: 0, removed: 3, moved: 0, renamed: 0, resized: 0 });
+    expect(result.view.data.hidden?.changes).toEqual({
+      added: 0,
+      removed: 3,
+      moved: 0,
+      renamed: 0,
+      resized: 0,
+    });
     const err = (() => {
       try {
         run(oldTree, newTree, 3, ["c1"]);
@@ -247,7 +272,9 @@ describe("diffTrees(old, new, options)", () => {
   it("is deterministic: the same inputs render byte-identical text", () => {
     fc.assert(
       fc.property(arbEdited(), fc.integer({ min: 2, max: 30 }), (edited, b) => {
-        expect(render(run(edited.oldTree, edited.newTree, b))).toBe(render(run(edited.oldTree, edited.newTree, b)));
+        expect(render(run(edited.oldTree, edited.newTree, b))).toBe(
+          render(run(edited.oldTree, edited.newTree, b)),
+        );
       }),
     );
   });

@@ -33,7 +33,9 @@ export const arbEdited = (maxNodes = 40, maxEdits = 8): fc.Arbitrary<Edited> =>
     const ids = Array.from({ length: n }, (_, i) => `n${i}`);
     const oldTree: Tree = { ...tree, ids };
     const order = [...ids];
-    const parent = new Map<string, string | null>(ids.map((id, i) => [id, i === 0 ? null : ids[tree.parent[i]]]));
+    const parent = new Map<string, string | null>(
+      ids.map((id, i) => [id, i === 0 ? null : ids[tree.parent[i]]]),
+    );
     const name = new Map(ids.map((id, i) => [id, tree.name[i]]));
     const size = new Map(ids.map((id, i) => [id, tree.ownSize[i]]));
     const alive = new Set(ids);

@@ -1,7 +1,10 @@
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { diffTrees } from "../../src/diff/diff-trees.js";
 import type { Tree } from "../../src/model/tree.js";
 import { renderDiffText } from "../../src/render/diff-text.js";
+import { displayWidth } from "../../src/render/fit-width.js";
+import { arbEdited } from "../diff/edit-script.js";
 import { makeIdTree } from "../diff/id-tree.js";
 import { makeTree } from "../helpers/make-tree.js";
 
@@ -65,5 +68,34 @@ describe("renderDiffText(view, totals, options)", () => {
     const renamed: Tree = { ...makeIdTree("R{A{b},k}"), name: ["R", "A", "b", "k2"] };
     const oldWithEscape: Tree = { ...oldTree, name: ["R", "A", "b", "k\u2028"] };
     expect(text(oldWithEscape, renamed)).toContain("> [renamed from k\\u{2028}] k2");
+  });
+
+  it("keeps every line within the width, the change tags and the changes folded inside first", () => {
+    fc.assert(
+      fc.property(
+        arbEdited(),
+        fc.integer({ min: 2, max: 30 }),
+        fc.integer({ min: 1, max: 90 }),
+        (edited, b, width) => {
+          const r = diffTrees(edited.oldTree, edited.newTree, { foci: [], budget: b, importance: "depth" });
+          const wide = renderDiffText(r.view, r.totals, { units: "bytes", sizes: true, by: r.combined.by });
+          const out = renderDiffText(r.view, r.totals, {
+            units: "bytes",
+            sizes: true,
+            by: r.combined.by,
+            width,
+          });
+          const lines = out.trimEnd().split("\n");
+          expect(lines).toHaveLength(wide.trimEnd().split("\n").length);
+          for (const line of lines) expect(displayWidth(line)).toBeLessThanOrEqual(width);
+          // With room for the indent and a tag, every tag survives (the old parent's path is cut first).
+          const deepest = Math.max(...r.combined.tree.depth);
+          if (width >= 60 && 2 * deepest + 30 <= width) {
+            const tags = (text: string) => text.match(/\[(added|removed|moved|renamed|resized)/g);
+            expect(tags(out)).toEqual(tags(wide));
+          }
+        },
+      ),
+    );
   });
 });
