@@ -6,8 +6,10 @@ import { loadTree } from "../load/index.js";
 import type { LoadOptions } from "../load/types.js";
 import type { Tree } from "../model/tree.js";
 import { renderDiffJson } from "../render/diff-json.js";
+import { renderDiffMarkdown } from "../render/diff-markdown.js";
 import { renderDiffText } from "../render/diff-text.js";
 import { palette } from "../render/palette.js";
+import { renderSvg } from "../render/svg.js";
 import { DIFF_EXAMPLES } from "./diff-help.js";
 import { type DiffCliOptions, diffOptionsSchema } from "./diff-options.js";
 import { EXIT } from "./exit-codes.js";
@@ -102,22 +104,35 @@ export async function diffCommand(
     pseudonymKey: key,
   });
   const by = result.combined.by;
+  const textOptions = {
+    units: unitsFor(opts),
+    sizes: result.combined.tree.hasSizes,
+    by,
+    palette: palette(useColour(opts, io)),
+    width: opts.width ?? defaultWidth(io),
+  };
   const text =
-    opts.format === "json"
-      ? renderDiffJson(result.view, result.totals, {
-          budget,
-          lines: result.selection.lines,
-          foci: result.fociPaths,
-          by,
-          labels: opts.label !== undefined,
+    opts.format === "svg"
+      ? renderSvg(result.view, {
+          units: textOptions.units,
+          sizes: textOptions.sizes,
+          changeOf: (n) => n.change,
         })
-      : renderDiffText(result.view, result.totals, {
-          units: unitsFor(opts),
-          sizes: result.combined.tree.hasSizes,
-          by,
-          palette: palette(useColour(opts, io)),
-          width: opts.width ?? defaultWidth(io),
-        });
+      : opts.format === "markdown"
+        ? renderDiffMarkdown(result.view, result.totals, {
+            ...textOptions,
+            palette: undefined,
+            width: undefined,
+          })
+        : opts.format === "json"
+          ? renderDiffJson(result.view, result.totals, {
+              budget,
+              lines: result.selection.lines,
+              foci: result.fociPaths,
+              by,
+              labels: opts.label !== undefined,
+            })
+          : renderDiffText(result.view, result.totals, textOptions);
   const differ = totalChanges(result.totals.changes) > 0;
   return { text, exitCode: opts.exitCode && differ ? EXIT.differences : EXIT.ok };
 }

@@ -3,7 +3,7 @@ import { importances } from "../interest/importance.js";
 import { inputFormats } from "../load/types.js";
 
 /** Output formats of a summary. */
-export const outputFormats = ["text", "json", "markdown"] as const;
+export const outputFormats = ["text", "json", "markdown", "svg"] as const;
 
 const positiveInt = (what: string) =>
   z.coerce
@@ -35,6 +35,7 @@ export const summaryOptionsSchema = z.object({
   width: positiveInt("--width").optional().describe("Widest line in columns (default: terminal width)."),
   color: z.enum(["auto", "always", "never"]).default("auto").describe("Colour in text output."),
   maxNodes: positiveInt("--max-nodes").optional().describe("Refuse inputs with more nodes than this."),
+  output: z.string().min(1).optional().describe("Write to this file (whole or not at all), not stdout."),
 });
 
 export type SummaryCliOptions = z.infer<typeof summaryOptionsSchema>;

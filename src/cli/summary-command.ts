@@ -1,27 +1,33 @@
 import { EspalierError } from "../errors.js";
-import { loadTree } from "../load/index.js";
+import { loadTreeFromStream } from "../load/stream/index.js";
 import { defaultLoadOptions, type LoadOptions } from "../load/types.js";
+import type { Tree } from "../model/tree.js";
 import { renderJson } from "../render/json.js";
 import { renderMarkdown } from "../render/markdown.js";
 import { palette } from "../render/palette.js";
+import { renderSvg } from "../render/svg.js";
 import { renderText } from "../render/text.js";
 import type { Units } from "../render/units.js";
 import { prepare, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
 import type { CliIO } from "./io.js";
 import { DEFAULT_BUDGET, PSEUDONYM_KEY_ENV, type SummaryCliOptions } from "./options.js";
+import { withProgress } from "./progress.js";
 import { readInput } from "./read-input.js";
+import { readInputStream } from "./read-input-stream.js";
 
 /** Reads, summarises and renders one input; returns the text to print (nothing is printed here). */
 export async function summaryCommand(input: string, opts: SummaryCliOptions, io: CliIO): Promise<string> {
   const foci = [...opts.focus];
   if (opts.focusFrom !== undefined) foci.push(...(await readFociFile(io, opts.focusFrom, input)));
   const key = pseudonymKey(opts, io);
-  const text = await readInput(io, input);
   const loadOptions = toLoadOptions(input, opts);
-  let tree: ReturnType<typeof loadTree>;
+  const source = await readInputStream(io, input);
+  let tree: Tree;
   try {
-    tree = loadTree(text, loadOptions);
+    // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
+    const chunks = withProgress(source.chunks, io, displayName(input), source.size);
+    tree = await loadTreeFromStream(chunks, loadOptions);
   } catch (err) {
     throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
   }
@@ -42,6 +48,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
       labels: opts.label !== undefined,
     });
   }
+  if (opts.format === "svg") return renderSvg(result.view, { units: unitsFor(opts), sizes: tree.hasSizes });
   if (opts.format === "markdown") {
     return renderMarkdown(result.view, { units: unitsFor(opts), sizes: tree.hasSizes, chains: opts.chains });
   }

@@ -116,7 +116,7 @@ function composeLine(p: LineParts, width: number | undefined): string {
 }
 
 /** `matched by id: 1 added, 0 removed, 1 moved, 0 renamed, 0 resized; 6 -> 7 nodes; size …`. */
-function totalsLine(totals: DiffTotals, options: DiffTextOptions): string {
+export function totalsLine(totals: DiffTotals, options: DiffTextOptions): string {
   const kinds = changeKinds.map((k) => `${totals.changes[k]} ${k}`).join(", ");
   let line = `matched by ${options.by}: ${kinds}; ${totals.old.nodes} -> ${totals.new.nodes} nodes`;
   if (options.sizes) {
@@ -127,7 +127,7 @@ function totalsLine(totals: DiffTotals, options: DiffTextOptions): string {
   return line;
 }
 
-function changeTag(node: DiffViewNode, options: DiffTextOptions, fromWidth?: number): string {
+export function changeTag(node: DiffViewNode, options: DiffTextOptions, fromWidth?: number): string {
   if (node.change === null) return "";
   const parts: string[] = [node.change];
   if (node.movedFrom !== null) {
@@ -143,7 +143,7 @@ function changeTag(node: DiffViewNode, options: DiffTextOptions, fromWidth?: num
 }
 
 /** `2 added, 1 resized, net +1.0 KiB`, or `unchanged`. */
-function changeSummary(changes: ChangeCounts, delta: number, options: DiffTextOptions): string {
+export function changeSummary(changes: ChangeCounts, delta: number, options: DiffTextOptions): string {
   const parts = changeKinds.filter((k) => changes[k] > 0).map((k) => `${changes[k]} ${k}`);
   if (options.sizes && delta !== 0) parts.push(`net ${signed(delta, options)}`);
   return parts.length > 0 ? parts.join(", ") : "unchanged";

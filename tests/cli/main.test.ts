@@ -118,3 +118,17 @@ describe("espalier <input> (summary)", () => {
     expect(r.stdout).toContain("--focus");
   });
 });
+
+describe("espalier <input> --format markdown|svg", () => {
+  it("prints a Markdown list and an SVG picture of the same selection", async () => {
+    const stdin = "10\ta/x\n20\ta/y\n5\tb/z\n";
+    const md = await cli(["-", "--format", "markdown", "--budget", "4"], { stdin });
+    expect(md.code).toBe(0);
+    expect(md.stdout.trimEnd().split("\n")).toHaveLength(4);
+    expect(md.stdout.startsWith("- ")).toBe(true);
+    const svg = await cli(["-", "--format", "svg", "--budget", "4"], { stdin });
+    expect(svg.code).toBe(0);
+    expect(svg.stdout.startsWith("<svg")).toBe(true);
+    expect(svg.stdout.trimEnd().endsWith("</svg>")).toBe(true);
+  });
+});

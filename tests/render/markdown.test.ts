@@ -97,7 +97,8 @@ describe("renderMarkdown(view, options)", () => {
   });
 
   it("backslash-escapes markup characters and block starts (CommonMark 0.31 section 2.4)", () => {
-    expect(markdownText("*a* <b> [c](d) #1.")).toBe("\\*a\\* \\<b\\> \\[c\\](d) \\#1.");
+    expect(markdownText("*a* <b> [c](d) #1.")).toBe("\\*a\\* \\<b> \\[c\\](d) \\#1.");
+    expect(markdownText("> quote")).toBe("\\> quote");
     expect(markdownText("1. x")).toBe("1\\. x");
     expect(markdownText("- x")).toBe("\\- x");
     expect(markdownText("  x ")).toBe("&#32;&#32;x&#32;");

@@ -1,0 +1,337 @@
+import type { HierarchyNode } from "d3-hierarchy";
+import { type ChangeKind, changeKinds } from "../diff/changes.js";
+import type { ViewNode } from "../view/view-node.js";
+import { shownLabel } from "./escape.js";
+import { displayWidth, shortenMiddle } from "./fit-width.js";
+import { type IcicleBlock, icicle } from "./icicle.js";
+import { xmlEscape } from "./svg-escape.js";
+import { amount } from "./text.js";
+import { formatSize, type Units } from "./units.js";
+
+export interface SvgOptions<T extends ViewNode = ViewNode> {
+  units: Units;
+  /** Whether the input has sizes: block widths follow size when it does, node counts when not. */
+  sizes: boolean;
+  /** Width of the picture in pixels; default 1200, at least 200. */
+  width?: number;
+  /** A diff's change of each node, marked by shape and colour; omit for a plain summary. */
+  changeOf?: (node: T) => ChangeKind | null;
+}
+
+/** The look: calm greens and a warm focus; every meaning also has a shape, so colour is never alone. */
+const LOOK = {
+  background: "#fbfaf6",
+  ink: "#26302b",
+  quiet: "#56635b",
+  other: "#e3e8e2",
+  path: "#c4d5c9",
+  pathBar: "#3f5f4b",
+  focus: "#f2d9a6",
+  focusEdge: "#7b4f17",
+  foldGround: "#f2efe7",
+  foldLine: "#cbc3b1",
+  change: {
+    added: { fill: "#d4e9d3", mark: "#3c7443" },
+    removed: { fill: "#f1dad4", mark: "#984636" },
+    moved: { fill: "#d9ddef", mark: "#44508b" },
+    renamed: { fill: "#eadcee", mark: "#744a82" },
+    resized: { fill: "#eee6c9", mark: "#76642a" },
+  },
+} as const;
+
+const FONT = `ui-monospace, "DejaVu Sans Mono", Menlo, Consolas, monospace`;
+const LABEL_PX = 12;
+const NUMBER_PX = 10.5;
+// Assumed advance of one terminal column (UAX #11 width 1) in the monospace font: 0.6 em is common
+// practice for monospace faces (no source); a little more keeps a label inside its block.
+const COLUMN = 0.62;
+const ROW = 38;
+const PAD = 5;
+const MARGIN = 10;
+const MIN_BLOCK = 4;
+const MIN_WIDTH = 200;
+/** Columns of label a block is widened to hold: on a focus path, below a focus. */
+const PATH_COLUMNS = 40;
+const BELOW_FOCUS_COLUMNS = 9;
+const MARK = 8;
+const PATTERN = "espalier-folded";
+
+/**
+ * The summary as an SVG icicle: a row per depth, each shown node a block as wide as its size (or
+ * node count) and each folded remainder a hatched block `+3 more` after its parent's children, so
+ * the row beneath a block fills it exactly. A focus has a thick outline and a warm fill; a node on
+ * the path to one a darker fill and a bar along its bottom edge. In a diff, each change kind has a
+ * tint and a shape (see docs/svg.md). Every block carries a tooltip with its full label and numbers.
+ * No script and no outside reference; every name is escaped.
+ */
+export function renderSvg<T extends ViewNode>(view: HierarchyNode<T>, options: SvgOptions<T>): string {
+  const width = Math.max(MIN_WIDTH, options.width ?? 1200);
+  const inner = width - 2 * MARGIN;
+  const blocks = icicle(view, {
+    weight: options.sizes ? "size" : "nodes",
+    width: inner,
+    rowHeight: ROW,
+    floor: (node, folded, belowFocus) => floorOf(node, folded, belowFocus),
+    floorShare: 2 / 3,
+  });
+  const rowsHeight = blocks.reduce((h, b) => Math.max(h, b.y1), 0);
+  const legend = legendItems(options, new Set(blocks.map(kindOf)));
+  const legendTop = MARGIN + rowsHeight + 14;
+  const legendRows = layoutLegend(legend, inner);
+  const height = legendTop + legendRows * LEGEND_ROW + MARGIN;
+
+  // Foci last, so that their outlines lie over their neighbours' edges.
+  const ordered = [
+    ...blocks.filter((b) => b.folded || !b.node.focus),
+    ...blocks.filter((b) => !b.folded && b.node.focus),
+  ];
+  const out: string[] = [
+    `<svg xmlns="http://www.w3.org/2000/svg" width="${num(width)}" height="${num(height)}" ` +
+      `viewBox="0 0 ${num(width)} ${num(height)}" role="img" font-family="${xmlEscape(FONT)}">`,
+    `<title>${xmlEscape(`Summary of ${shownLabel(view.data.label)}`)}</title>`,
+    defs(),
+    `<rect width="100%" height="100%" fill="${LOOK.background}"/>`,
+    `<g class="icicle" transform="translate(${MARGIN} ${MARGIN})">`,
+    ...ordered.map((b) => block(b, options)),
+    "</g>",
+    `<g class="legend" transform="translate(${MARGIN} ${num(legendTop)})" font-size="${LABEL_PX}" fill="${LOOK.ink}">`,
+    ...legend.map(legendItem),
+    "</g>",
+    "</svg>",
+  ];
+  return `${out.join("\n")}\n`;
+}
+
+/**
+ * The narrowest a block may be: a focus and its ancestors room for their label (up to 40 columns),
+ * what lies below a focus room for a short label, anything else a sliver that still shows.
+ */
+function floorOf(node: ViewNode, folded: boolean, belowFocus: boolean): number {
+  const label = folded ? `+${node.hidden!.children} more` : shownLabel(node.label);
+  const columns =
+    !folded && (node.focus || node.onPath) ? PATH_COLUMNS : belowFocus ? BELOW_FOCUS_COLUMNS : 0;
+  if (columns === 0) return MIN_BLOCK;
+  return Math.max(MIN_BLOCK, Math.min(displayWidth(label), columns) * LABEL_PX * COLUMN + 2 * PAD);
+}
+
+function defs(): string {
+  return (
+    `<defs><pattern id="${PATTERN}" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)">` +
+    `<rect width="6" height="6" fill="${LOOK.foldGround}"/><path d="M0 0V6" stroke="${LOOK.foldLine}" stroke-width="2"/>` +
+    "</pattern></defs>"
+  );
+}
+
+type BlockKind = "focus" | "path" | "other" | "folded";
+
+function kindOf<T extends ViewNode>({ node, folded }: IcicleBlock<T>): BlockKind {
+  return folded ? "folded" : node.focus ? "focus" : node.onPath ? "path" : "other";
+}
+
+/** One block: a group with its tooltip, its rectangle, its marks and the labels that fit. */
+function block<T extends ViewNode>(b: IcicleBlock<T>, options: SvgOptions<T>): string {
+  const { node, folded } = b;
+  const w = b.x1 - b.x0;
+  const h = b.y1 - b.y0;
+  const change = folded ? null : (options.changeOf?.(node) ?? null);
+  const kind = kindOf(b);
+  const parts: string[] = [
+    `<g class="${kind}${change ? ` ${change}` : ""}">`,
+    `<title>${xmlEscape(tooltip(b, options, change))}</title>`,
+  ];
+  // Width from the rounded ends, so that neighbours share an edge exactly.
+  const box = `x="${num(b.x0)}" y="${num(b.y0)}" width="${num(round2(b.x1) - round2(b.x0))}" height="${num(h)}"`;
+  const dash = change === "removed" ? ` stroke-dasharray="5 3"` : "";
+  if (folded)
+    parts.push(`<rect ${box} fill="url(#${PATTERN})" stroke="${LOOK.background}" stroke-width="1"/>`);
+  else if (node.focus)
+    parts.push(`<rect ${box} fill="${LOOK.focus}" stroke="${LOOK.focusEdge}" stroke-width="3"${dash}/>`);
+  else {
+    const fill = change ? LOOK.change[change].fill : node.onPath ? LOOK.path : LOOK.other;
+    const edge =
+      change === "removed"
+        ? `stroke="${LOOK.change.removed.mark}" stroke-width="1.5"`
+        : `stroke="${LOOK.background}" stroke-width="1"`;
+    parts.push(`<rect ${box} fill="${fill}" ${edge}${dash}/>`);
+    if (node.onPath && !change && h > 6)
+      parts.push(`<path d="M${num(b.x0)} ${num(b.y1 - 3)}h${num(w)}v3h${num(-w)}z" fill="${LOOK.pathBar}"/>`);
+  }
+  if (change && w >= MARK + 6 && h >= MARK + 6)
+    parts.push(changeMark(change, b.x1 - MARK - 3, b.y0 + 3, MARK));
+  parts.push(...labels(b, options, change));
+  parts.push("</g>");
+  return parts.join("");
+}
+
+/** The label and, beneath it, the numbers, each only when it fits the block. */
+function labels<T extends ViewNode>(
+  b: IcicleBlock<T>,
+  options: SvgOptions<T>,
+  change: ChangeKind | null,
+): string[] {
+  const marked = change !== null && change !== "removed";
+  const { node, folded } = b;
+  const room = b.x1 - b.x0 - 2 * PAD - (marked ? MARK + 3 : 0);
+  const out: string[] = [];
+  const x = num(b.x0 + PAD);
+  const first = folded
+    ? fitted([`+${node.hidden!.children} more`, `+${node.hidden!.children}`], room, LABEL_PX)
+    : fitted([shownLabel(node.label)], room, LABEL_PX, true);
+  if (first === null) return out;
+  const weight = !folded && node.focus ? ` font-weight="700"` : "";
+  const style = folded ? ` font-style="italic"` : "";
+  out.push(
+    `<text x="${x}" y="${num(b.y0 + 15)}" font-size="${LABEL_PX}" fill="${LOOK.ink}"${weight}${style}>${xmlEscape(first)}</text>`,
+  );
+  const second = fitted(numbers(b, options, change), b.x1 - b.x0 - 2 * PAD, NUMBER_PX);
+  if (second !== null)
+    out.push(
+      `<text x="${x}" y="${num(b.y0 + 29)}" font-size="${NUMBER_PX}" fill="${LOOK.quiet}">${xmlEscape(second)}</text>`,
+    );
+  return out;
+}
+
+/**
+ * The block's numbers, longest first: count and size, then the size alone, then the count alone.
+ * A removed node holds nothing now, so only its count is shown.
+ */
+function numbers<T extends ViewNode>(
+  { node, folded }: IcicleBlock<T>,
+  options: SvgOptions<T>,
+  change: ChangeKind | null,
+): string[] {
+  const { nodes, size } = folded ? node.hidden! : node;
+  const sizes = options.sizes && change !== "removed";
+  const always = folded;
+  const texts = [
+    amount(nodes, size, { ...options, sizes, always }),
+    sizes ? formatSize(size, options.units) : "",
+    amount(nodes, size, { ...options, sizes: false, always }),
+  ];
+  return texts.filter((t, k) => t !== "" && texts.indexOf(t) === k);
+}
+
+/** The first text that fits `room` pixels; with `shorten`, the last cut in the middle; else null. */
+function fitted(texts: string[], room: number, px: number, shorten = false): string | null {
+  const columns = Math.floor(room / (px * COLUMN));
+  for (const t of texts) if (displayWidth(t) <= columns) return t;
+  return shorten && columns >= 5 ? shortenMiddle(texts[texts.length - 1], columns) : null;
+}
+
+/** Full label, path, numbers and marks, one per line. */
+function tooltip<T extends ViewNode>(
+  b: IcicleBlock<T>,
+  options: SvgOptions<T>,
+  change: ChangeKind | null,
+): string {
+  const { node } = b;
+  const label = shownLabel(node.label);
+  const always = { ...options, always: true };
+  if (b.folded) {
+    const { children, nodes, size } = node.hidden!;
+    return `+${children} more under ${label}: ${amount(nodes, size, always)}`;
+  }
+  const lines = [label];
+  const path = shownLabel(node.path);
+  if (node.path !== "" && path !== label) lines.push(path);
+  lines.push(amount(node.nodes, node.size, always));
+  if (node.focus) lines.push("focus");
+  else if (node.onPath)
+    lines.push(options.changeOf ? "on the path to a focus or change" : "on the path to a focus");
+  if (change) lines.push(change);
+  return lines.join("\n");
+}
+
+/** A shape per change kind, `s` pixels square at (x, y); removed has its dashed outline instead. */
+function changeMark(kind: ChangeKind, x: number, y: number, s: number): string {
+  const fill = LOOK.change[kind].mark;
+  const h = s / 2;
+  switch (kind) {
+    case "added": // a triangle in the corner
+      return `<path d="M${num(x)} ${num(y)}h${num(s)}v${num(s)}z" fill="${fill}"/>`;
+    case "moved": // a diamond
+      return `<path d="M${num(x + h)} ${num(y)}l${num(h)} ${num(h)}l${num(-h)} ${num(h)}l${num(-h)} ${num(-h)}z" fill="${fill}"/>`;
+    case "renamed": // a circle
+      return `<circle cx="${num(x + h)}" cy="${num(y + h)}" r="${num(h)}" fill="${fill}"/>`;
+    case "resized": // a bar, like a ruler mark
+      return `<path d="M${num(x)} ${num(y + h - 1.5)}h${num(s)}v3h${num(-s)}z" fill="${fill}"/>`;
+    case "removed":
+      return "";
+  }
+}
+
+interface LegendItem {
+  swatch: string;
+  text: string;
+  x: number;
+  y: number;
+}
+
+const SWATCH = 16;
+const LEGEND_ROW = 24;
+
+/** What the marks mean: the kinds of block drawn, every change kind of a diff, and what widths show. */
+function legendItems<T extends ViewNode>(options: SvgOptions<T>, drawn: Set<BlockKind>): LegendItem[] {
+  const s = SWATCH;
+  const box = `width="${s}" height="${s}"`;
+  const near = options.changeOf ? "a focus or change" : "a focus";
+  const kinds: [BlockKind, string, string][] = [
+    ["focus", `<rect ${box} fill="${LOOK.focus}" stroke="${LOOK.focusEdge}" stroke-width="3"/>`, "focus"],
+    [
+      "path",
+      `<rect ${box} fill="${LOOK.path}"/><path d="M0 ${s - 3}h${s}v3h${-s}z" fill="${LOOK.pathBar}"/>`,
+      `on the path to ${near}`,
+    ],
+    ["other", `<rect ${box} fill="${LOOK.other}"/>`, "other shown node"],
+    ["folded", `<rect ${box} fill="url(#${PATTERN})"/>`, "+N more: folded nodes"],
+  ];
+  const items = kinds.filter(([kind]) => drawn.has(kind)).map(([, swatch, text]) => ({ swatch, text }));
+  if (options.changeOf) {
+    for (const kind of changeKinds) {
+      const { fill, mark } = LOOK.change[kind];
+      const edge = kind === "removed" ? ` stroke="${mark}" stroke-width="1.5" stroke-dasharray="5 3"` : "";
+      items.push({
+        swatch: `<rect ${box} fill="${fill}"${edge}/>${changeMark(kind, s - 9, 1, 8)}`,
+        text: kind,
+      });
+    }
+  }
+  const stretched = drawn.has("focus") || drawn.has("path") ? `, stretched near ${near} to fit labels` : "";
+  items.push({ swatch: "", text: `width: ${options.sizes ? "size" : "node count"}${stretched}` });
+  return items.map((item) => ({ ...item, x: 0, y: 0 }));
+}
+
+/** Places the legend's items left to right, wrapping at `width`; returns the number of rows. */
+function layoutLegend(items: LegendItem[], width: number): number {
+  let x = 0;
+  let row = 0;
+  for (const item of items) {
+    const w = (item.swatch ? SWATCH + 6 : 0) + displayWidth(item.text) * LABEL_PX * COLUMN + 22;
+    if (x > 0 && x + w > width) {
+      x = 0;
+      row++;
+    }
+    item.x = x;
+    item.y = row * LEGEND_ROW;
+    x += w;
+  }
+  return row + 1;
+}
+
+function legendItem(item: LegendItem): string {
+  const textX = item.swatch ? SWATCH + 6 : 0;
+  return (
+    `<g transform="translate(${num(item.x)} ${num(item.y)})">${item.swatch}` +
+    `<text x="${textX}" y="${SWATCH - 4}">${xmlEscape(item.text)}</text></g>`
+  );
+}
+
+/** A coordinate with at most two decimals, so the output is the same on every run and machine. */
+function num(x: number): string {
+  const r = round2(x);
+  return Object.is(r, -0) ? "0" : String(r);
+}
+
+function round2(x: number): number {
+  return Math.round(x * 100) / 100;
+}

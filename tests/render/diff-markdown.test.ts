@@ -1,0 +1,35 @@
+import { Parser } from "commonmark";
+import { describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+
+const OLD = "id,parent,name,size\n1,,R,0\n2,1,A,5\n3,2,x,1\n4,2,y,2\n5,1,B,0\n6,5,z,3\n";
+const NEW = "id,parent,name,size\n1,,R,0\n2,1,A,5\n4,2,y,2\n5,1,B,0\n6,5,z,3\n3,5,x`s,1\n7,1,C,4\n";
+
+describe("renderDiffMarkdown(view, totals, options) through espalier diff --format markdown", () => {
+  it("writes valid CommonMark: a totals paragraph, then one list item per text line, tags as code spans", async () => {
+    const { writeFileSync, mkdtempSync } = await import("node:fs");
+    const { join } = await import("node:path");
+    const { tmpdir } = await import("node:os");
+    const dir = mkdtempSync(join(tmpdir(), "espalier-md-"));
+    writeFileSync(join(dir, "old.csv"), OLD);
+    writeFileSync(join(dir, "new.csv"), NEW);
+    const md = await cli(["diff", join(dir, "old.csv"), join(dir, "new.csv"), "--format", "markdown"]);
+    const text = await cli(["diff", join(dir, "old.csv"), join(dir, "new.csv")]);
+    expect(md.code, md.stderr).toBe(0);
+    // Parsed with commonmark.js, the CommonMark reference implementation in JavaScript.
+    const doc = new Parser().parse(md.stdout);
+    const kinds: string[] = [];
+    const codes: string[] = [];
+    const walker = doc.walker();
+    for (let ev = walker.next(); ev; ev = walker.next()) {
+      if (!ev.entering) continue;
+      kinds.push(ev.node.type);
+      if (ev.node.type === "code") codes.push(ev.node.literal ?? "");
+    }
+    expect(doc.firstChild?.type).toBe("paragraph");
+    expect(kinds.filter((k) => k === "item")).toHaveLength(text.stdout.trimEnd().split("\n").length - 1);
+    // One kind per node (moved outranks renamed), each tag a literal code span despite the backtick in x`s.
+    expect(codes).toEqual(["[moved from A]", "[added +4 B]"]);
+    expect(kinds).not.toContain("html_inline");
+  });
+});

@@ -1,0 +1,291 @@
+import { DOMParser, type Element } from "@xmldom/xmldom";
+import type { HierarchyNode } from "d3-hierarchy";
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { diffTrees } from "../../src/diff/diff-trees.js";
+import { buildTree } from "../../src/model/build.js";
+import type { Tree } from "../../src/model/tree.js";
+import { displayWidth } from "../../src/render/fit-width.js";
+import { renderSvg, type SvgOptions } from "../../src/render/svg.js";
+import { xmlEscape } from "../../src/render/svg-escape.js";
+import { prepare, summarize } from "../../src/summarize.js";
+import type { ViewNode } from "../../src/view/view-node.js";
+import { makeIdTree } from "../diff/id-tree.js";
+import { makeTree } from "../helpers/make-tree.js";
+import { arbTreeWithFoci } from "../helpers/random-tree.js";
+
+interface Block {
+  kind: string;
+  title: string;
+  x0: number;
+  x1: number;
+  y: number;
+  group: Element;
+  rect: Element;
+}
+
+/** Parses an SVG as XML 1.0, failing on any warning or error (parser: @xmldom/xmldom). */
+function parse(svg: string) {
+  const doc = new DOMParser({
+    onError: (level, message) => {
+      throw new Error(`${level}: ${message}`);
+    },
+  }).parseFromString(svg, "image/svg+xml");
+  expect(doc.documentElement?.tagName).toBe("svg");
+  return doc;
+}
+
+/** The icicle's blocks: each a group with a title and one rect. */
+function blocksOf(svg: string): Block[] {
+  const doc = parse(svg);
+  const icicle = [...doc.getElementsByTagName("g")].find((g) => g.getAttribute("class") === "icicle")!;
+  const blocks: Block[] = [];
+  for (const group of [...icicle.childNodes].filter((n): n is Element => n.nodeType === 1)) {
+    const rects = group.getElementsByTagName("rect");
+    expect(rects.length).toBe(1);
+    const rect = rects[0];
+    const x0 = Number(rect.getAttribute("x"));
+    blocks.push({
+      kind: group.getAttribute("class")!,
+      title: group.getElementsByTagName("title")[0].textContent!,
+      x0,
+      x1: x0 + Number(rect.getAttribute("width")),
+      y: Number(rect.getAttribute("y")),
+      group,
+      rect,
+    });
+  }
+  expect(icicle.getElementsByTagName("rect").length).toBe(blocks.length);
+  return blocks;
+}
+
+/** Blocks of the next row lying within `parent`. */
+function beneath(blocks: Block[], parent: Block): Block[] {
+  const rows = [...new Set(blocks.map((b) => b.y))].sort((a, b) => a - b);
+  const next = rows[rows.indexOf(parent.y) + 1];
+  return blocks
+    .filter((b) => b.y === next && b.x0 >= parent.x0 - 0.015 && b.x1 <= parent.x1 + 0.015)
+    .sort((a, b) => a.x0 - b.x0);
+}
+
+const width = (b: Block) => b.x1 - b.x0;
+const sum = (bs: Block[]) => bs.reduce((s, b) => s + width(b), 0);
+
+function shownCount(view: HierarchyNode<ViewNode>): { shown: number; folded: number } {
+  let folded = 0;
+  view.each((h) => {
+    if (h.data.hidden) folded++;
+  });
+  return { shown: view.descendants().length, folded };
+}
+
+const tree = makeTree("R{A:10{A1:5{A1a:1,A1b:2},A2:3{A2a:4}},B:100{B1:6{B1a:7},B2:8}}");
+const opts: SvgOptions = { units: "bytes", sizes: true };
+const view = (t: Tree, foci: string[], budget: number, label?: string) =>
+  summarize(prepare(t), { foci, budget, importance: "depth", label }).view;
+
+describe("renderSvg(view, options)", () => {
+  it("draws one block per shown node and one per folded remainder, as well-formed XML", () => {
+    const v = view(tree, ["A/A1"], 6);
+    const blocks = blocksOf(renderSvg(v, opts));
+    const { shown, folded } = shownCount(v);
+    expect(folded).toBeGreaterThan(0);
+    expect(blocks.filter((b) => b.kind !== "folded")).toHaveLength(shown);
+    expect(blocks.filter((b) => b.kind === "folded")).toHaveLength(folded);
+  });
+
+  it("fills each block exactly with its shown children and then its folded block", () => {
+    const v = view(tree, ["A/A1"], 6);
+    const blocks = blocksOf(renderSvg(v, opts));
+    const byLabel = new Map(
+      blocks.filter((b) => b.kind !== "folded").map((b) => [b.title.split("\n")[0], b]),
+    );
+    v.each(({ data }) => {
+      const block = byLabel.get(data.label)!;
+      const below = beneath(blocks, block);
+      expect(below.map((b) => (b.kind === "folded" ? "+" : b.title.split("\n")[0]))).toEqual([
+        ...data.children.map((c) => c.label),
+        ...(data.hidden ? ["+"] : []),
+      ]);
+      if (below.length > 0) expect(sum(below)).toBeCloseTo(width(block), 1);
+    });
+  });
+
+  it("sizes a leaf or folded block by its size, or by its node count when the input has no sizes", () => {
+    // Shown: R, A and C, with C's three children folded and R's child B folded.
+    const v = view(makeTree("R{A:2,B:6,C{C1:1,C2:1,C3:1}}"), [], 3);
+    const row = (sizes: boolean) => {
+      const blocks = blocksOf(renderSvg(v, { ...opts, sizes }));
+      const below = beneath(blocks, blocks[0]);
+      expect(below.map((b) => b.title.split("\n")[0].split(":")[0])).toEqual(["A", "C", "+1 more under R"]);
+      return below.map((b) => width(b) / width(below[0]));
+    };
+    const [, c, folded] = row(true);
+    expect(c).toBeCloseTo(3 / 2, 3);
+    expect(folded).toBeCloseTo(6 / 2, 3);
+    const [, c2, folded2] = row(false);
+    expect(c2).toBeCloseTo(3, 3);
+    expect(folded2).toBeCloseTo(1, 3);
+  });
+
+  it("keeps a tiny focus visible: no block is narrower than 4 pixels", () => {
+    const t = makeTree("R{big:1000000000,tiny:1}");
+    const blocks = blocksOf(renderSvg(view(t, ["tiny"], 10), opts));
+    const tiny = blocks.find((b) => b.kind === "focus")!;
+    expect(width(tiny)).toBeGreaterThanOrEqual(3.99);
+    expect(sum(beneath(blocks, blocks[0]))).toBeCloseTo(width(blocks[0]), 1);
+  });
+
+  it("widens a focus and its ancestors so that their labels fit, and says so in the legend", () => {
+    const t = makeTree("R{huge:1000000{h1:500000,h2:500000},small:10{focus-with-a-long-name:1,other:9}}");
+    const svg = renderSvg(view(t, ["small/focus-with-a-long-name"], 10), opts);
+    const blocks = blocksOf(svg);
+    for (const name of ["small", "focus-with-a-long-name"]) {
+      const block = blocks.find((b) => b.title.startsWith(`${name}\n`))!;
+      expect(block.group.getElementsByTagName("text")[0].textContent).toBe(name);
+    }
+    expect(svg).toContain("width: size, stretched near a focus to fit labels");
+    const plain = renderSvg(view(t, [], 10), opts);
+    expect(plain).toContain("width: size<");
+  });
+
+  it("gives a focus a thick outline and a fill of its own, and its ancestors a bar", () => {
+    const blocks = blocksOf(renderSvg(view(tree, ["A/A1"], 6), opts));
+    const focus = blocks.filter((b) => b.kind === "focus");
+    expect(focus.map((b) => b.title.split("\n")[0])).toEqual(["A1"]);
+    const other = blocks.find((b) => b.kind === "other")!;
+    expect(focus[0].rect.getAttribute("stroke-width")).toBe("3");
+    expect(focus[0].rect.getAttribute("fill")).not.toBe(other.rect.getAttribute("fill"));
+    expect(focus[0].rect.getAttribute("stroke")).not.toBe(other.rect.getAttribute("stroke"));
+    expect(focus[0].title).toContain("focus");
+    const path = blocks.filter((b) => b.kind === "path");
+    expect(path.map((b) => b.title.split("\n")[0])).toEqual(["R", "A"]);
+    for (const b of path) expect(b.group.getElementsByTagName("path").length).toBe(1);
+    expect(other.group.getElementsByTagName("path").length).toBe(0);
+  });
+
+  it("labels only what fits, cut in the middle, and keeps the full label in the tooltip", () => {
+    const long = "a-rather-long-name-that-will-never-fit-in-a-narrow-block";
+    const t = makeTree(`R{${long}:1,wide:500}`);
+    const blocks = blocksOf(renderSvg(view(t, [], 10), { ...opts, width: 300 }));
+    const narrow = blocks.find((b) => b.title.startsWith(long))!;
+    expect(narrow.title.split("\n")[0]).toBe(long);
+    const texts = [...narrow.group.getElementsByTagName("text")].map((e) => e.textContent!);
+    expect(texts.every((s) => s !== long)).toBe(true);
+    for (const b of blocks)
+      for (const e of [...b.group.getElementsByTagName("text")]) {
+        const px = Number(e.getAttribute("font-size"));
+        expect(displayWidth(e.textContent!) * px * 0.6).toBeLessThanOrEqual(width(b));
+      }
+    const wide = blocks.find((b) => b.title.startsWith("wide"))!;
+    expect(wide.group.getElementsByTagName("text")[0].textContent).toBe("wide");
+  });
+
+  it("escapes every name: markup in a name stays text and no script element exists", () => {
+    const evil = `</text><script>alert(1)</script>&"'`;
+    const t = buildTree({
+      parentOf: Int32Array.from([-1, 0, 0]),
+      name: ["root", evil, "x]]>"],
+      ownSize: Float64Array.from([0, 5, 5]),
+      hasSizes: true,
+      ids: null,
+      origin: new Int32Array(3),
+      originIsRow: false,
+      fields: new Map(),
+      rootName: "(root)",
+    });
+    const svg = renderSvg(view(t, [], 10), opts);
+    const doc = parse(svg);
+    expect(doc.getElementsByTagName("script").length).toBe(0);
+    expect(svg).not.toContain("<script");
+    const blocks = blocksOf(svg);
+    expect(blocks.map((b) => b.title.split("\n")[0])).toContain(evil);
+    const texts = [...doc.getElementsByTagName("text")].map((e) => e.textContent);
+    expect(texts).toContain(evil);
+  });
+
+  it("xmlEscape(text) escapes the five XML specials and drops what XML 1.0 forbids", () => {
+    // XML 1.0 (Fifth Edition), section 2.2 (Char) and 4.6 (predefined entities).
+    expect(xmlEscape(`<a href="x">&'</a>`)).toBe("&lt;a href=&quot;x&quot;&gt;&amp;&apos;&lt;/a&gt;");
+    expect(xmlEscape("a\u0001b\ud800c\uffff")).toBe("a\ufffdb\ufffdc\ufffd");
+    expect(xmlEscape("tab\tline\n\u{1f333}")).toBe("tab\tline\n\u{1f333}");
+  });
+
+  it("is deterministic: the same view gives byte-identical output", () => {
+    const a = renderSvg(view(tree, ["A/A1"], 6), opts);
+    const b = renderSvg(view(tree, ["A/A1"], 6), opts);
+    expect(a).toBe(b);
+    expect(a).not.toMatch(/\d\.\d{3,}/);
+  });
+
+  it("fills every block and counts every node for any tree, focus and budget (property)", () => {
+    fc.assert(
+      fc.property(
+        arbTreeWithFoci(40),
+        fc.integer({ min: 1, max: 25 }),
+        fc.boolean(),
+        ([t, foci], budget, sizes) => {
+          const prepared = prepare(t);
+          const paths = foci.map((i) => prepared.index.path(i));
+          // Enough lines for the root and every focus path.
+          const needed = foci.reduce((n, i) => n + t.depth[i], 1);
+          const r = summarize(prepared, { foci: paths, budget: budget + needed, importance: "depth" });
+          const svg = renderSvg(r.view, { units: "plain", sizes });
+          const blocks = blocksOf(svg);
+          const { shown, folded } = shownCount(r.view);
+          expect(blocks).toHaveLength(shown + folded);
+          const rows = [...new Set(blocks.map((b) => b.y))].sort((a, b) => a - b);
+          for (const b of blocks) {
+            const below = beneath(blocks, b);
+            if (below.length > 0)
+              expect(Math.abs(sum(below) - width(b))).toBeLessThan(0.01 * (below.length + 1));
+          }
+          // Every block below the first row lies within one block of the row above.
+          for (const b of blocks.filter((b) => b.y !== rows[0])) {
+            const above = rows[rows.indexOf(b.y) - 1];
+            expect(blocks.filter((p) => p.y === above && beneath(blocks, p).includes(b))).toHaveLength(1);
+          }
+        },
+      ),
+      { numRuns: 60 },
+    );
+  });
+
+  it("marks each change kind of a diff by a shape or outline besides its tint, with a legend", () => {
+    const r = diffTrees(
+      makeIdTree("R{A{x:1,y:1},B{z:1},C:2,D:3}"),
+      makeIdTree("R{A{y:1},B{z:1,x:1},E:1,D:9}"),
+      {
+        foci: [],
+        budget: 40,
+        importance: "depth",
+      },
+    );
+    const svg = renderSvg(r.view, { units: "plain", sizes: true, changeOf: (n) => n.change });
+    const blocks = blocksOf(svg);
+    const kindOf = (name: string) => blocks.find((b) => b.title.startsWith(`${name}\n`))!;
+    expect(kindOf("x").kind).toContain("moved");
+    expect(kindOf("E").kind).toContain("added");
+    expect(kindOf("C").kind).toContain("removed");
+    expect(kindOf("D").kind).toContain("resized");
+    expect(kindOf("C").rect.getAttribute("stroke-dasharray")).not.toBeNull();
+    expect(kindOf("y").rect.getAttribute("stroke-dasharray")).toBeNull();
+    // One shape each: a corner triangle (added), a diamond (moved), a bar (resized); none for removed.
+    const marks = (name: string) =>
+      [...kindOf(name).group.getElementsByTagName("path")].map((e) => e.getAttribute("d"));
+    expect(marks("E")).toHaveLength(1);
+    expect(marks("x")).toHaveLength(1);
+    expect(marks("D")).toHaveLength(1);
+    expect(
+      new Set([...marks("E"), ...marks("x"), ...marks("D")].map((d) => d!.replace(/[\d.\s-]+/g, ""))),
+    ).toHaveProperty("size", 3);
+    expect(marks("C")).toHaveLength(0);
+    expect(marks("y")).toHaveLength(0);
+    const legend = [...parse(svg).getElementsByTagName("g")].find(
+      (g) => g.getAttribute("class") === "legend",
+    )!;
+    const words = [...legend.getElementsByTagName("text")].map((e) => e.textContent);
+    expect(words).toEqual(expect.arrayContaining(["added", "removed", "moved", "renamed", "resized"]));
+    expect(words).not.toContain("focus");
+  });
+});
