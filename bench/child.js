@@ -7,6 +7,7 @@
 //   floor     the least any in-memory loader must do: read the text and parse it, with no tree built
 //   full      what `espalier FILE --focus A --focus B --budget N` does, through the dist/ API
 //   refocus   load once, then time summarize() for many different random foci
+//   diff      what `espalier diff OLD NEW --budget N` does, through the dist/ API (cli/diff-command.ts)
 
 import { writeFileSync } from "node:fs";
 import { readFile } from "node:fs/promises";
@@ -45,6 +46,8 @@ async function run(job) {
       return full(job);
     case "refocus":
       return refocus(job);
+    case "diff":
+      return diff(job);
     default:
       throw new Error(`unknown job kind ${job.kind}`);
   }
@@ -163,6 +166,51 @@ async function refocus({ file, budget, calls, seed, profile }) {
   }
   if (session) await stopProfile(session, profile);
   return { ms: loadMs, summarizeMs, renderMs, check: { nodes: tree.length, foci: specs } };
+}
+
+// ---------------------------------------------------------------------------------------------------------
+
+/**
+ * `espalier diff OLD NEW --budget N` with no other option, as cli/diff-command.ts runs it: read both
+ * versions, then load both (OLD under NEW's root name, so a synthetic root never shows as renamed),
+ * diffTrees with no foci, and the text rendering with NEW's sizes and the matching's name.
+ */
+async function diff({ oldFile, newFile, budget, profile }) {
+  const api = await import(DIST);
+  const session = profile ? await startProfile() : undefined;
+  const t0 = now();
+  const oldText = await readAsCli(oldFile);
+  const newText = await readAsCli(newFile);
+  const t1 = now();
+  const newOptions = cliLoadOptions(api, newFile);
+  const oldTree = api.loadTree(oldText, { ...cliLoadOptions(api, oldFile), rootName: newOptions.rootName });
+  const tOld = now();
+  const newTree = api.loadTree(newText, newOptions);
+  const t2 = now();
+  const result = api.diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth" });
+  const t3 = now();
+  const output = api.renderDiffText(result.view, result.totals, {
+    units: "bytes",
+    sizes: result.combined.tree.hasSizes,
+    by: result.combined.by,
+  });
+  const t4 = now();
+  if (session) await stopProfile(session, profile);
+  return {
+    ms: t4 - t0,
+    phases: { read: t1 - t0, loadOld: tOld - t1, loadNew: t2 - tOld, diff: t3 - t2, render: t4 - t3 },
+    check: {
+      by: result.combined.by,
+      oldNodes: oldTree.length,
+      newNodes: newTree.length,
+      combinedNodes: result.combined.tree.length,
+      changes: result.totals.changes,
+      delta: result.totals.delta,
+      lines: output.split("\n").length - 1,
+      selectionLines: result.selection.lines,
+      head: output.slice(0, output.indexOf("\n")),
+    },
+  };
 }
 
 // ---------------------------------------------------------------------------------------------------------

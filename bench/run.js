@@ -1,7 +1,7 @@
 // espalier's benchmark: full summary time and peak memory against the floor of an in-memory loader, per
 // input format, on a generated tree. Informs; never gates (exit 0 whatever the ratios).
-// Usage: npm run bench -- [--nodes N] [--only json,csv,paths] [--repeat N] [--budget N] [--calls N]
-//                         [--heap MiB] [--cpu-prof] [--no-cli] [--force-data]
+// Usage: npm run bench -- [--nodes N] [--only json,csv,paths,diff] [--repeat N] [--budget N] [--calls N]
+//                         [--heap MiB] [--cpu-prof] [--no-cli] [--no-diff] [--force-data]
 // See docs/performance.md for what every number means.
 
 import { spawnSync } from "node:child_process";
@@ -9,6 +9,7 @@ import { closeSync, existsSync, mkdirSync, openSync, readSync, writeFileSync } f
 import { cpus, loadavg } from "node:os";
 import { dirname, join, relative } from "node:path";
 import { fileURLToPath } from "node:url";
+import { DIFF_FORMATS, ensureDiffData } from "./diff-data.js";
 import { ensureData, FORMATS } from "./generate.js";
 import { topFunctions } from "./prof-top.js";
 
@@ -25,10 +26,12 @@ const TARGETS = {
   issue4Time: { json: 1.3, csv: 1.5, paths: 1.5 },
   issue4Memory: { json: 1.5, csv: 1.5, paths: 1.5 },
   refocusMs: 50,
+  /** Issue 3: diff of two versions with 1% of the nodes changed / summary of one version. */
+  diffTime: 2.5,
 };
 
-const options = parseArgs(process.argv.slice(2));
 const log = (s) => process.stderr.write(`${s}\n`);
+const options = parseArgs(process.argv.slice(2));
 
 if (!existsSync(distIndex)) {
   log(`bench: ${relative(repoRoot, distIndex)} is missing; build first: npx tsc -p tsconfig.json`);
@@ -38,7 +41,7 @@ if (!existsSync(distIndex)) {
 const manifest = ensureData({ nodes: options.nodes, formats: options.only, force: options.forceData, log });
 const foci = manifest.foci;
 log(`foci: ${foci.join("  |  ")}`);
-for (const f of options.only) warmCache(manifest.files[f]);
+if (!options.diffOnly) for (const f of options.only) warmCache(manifest.files[f]);
 
 const results = {
   when: new Date().toISOString(),
@@ -60,7 +63,7 @@ const results = {
 };
 log(`baseline: an empty Node process peaks at ${results.baseline.maxRssMiB} MiB`);
 
-for (const format of options.only) {
+for (const format of options.diffOnly ? [] : options.only) {
   const file = manifest.files[format];
   const runs = { floor: [], full: [] };
   for (let r = 0; r < options.repeat; r++) {
@@ -80,7 +83,7 @@ for (const format of options.only) {
   results.formats[format] = entry;
 }
 
-results.refocus = benchRefocus(options.only[0]);
+results.refocus = options.diffOnly ? null : benchRefocus(options.only[0]);
 results.diff = benchDiff();
 results.loadAfter = loadavg()[0];
 
@@ -200,33 +203,100 @@ function benchRefocus(format) {
 }
 
 /**
- * TODO(issue 3, owned by the diff work): the diff benchmark. dist/ now exports
- * `diffTrees(oldTree, newTree, { foci, budget, importance })` (src/diff/diff-trees.ts) and
- * `renderDiffText`; the other names are kept so the hook still finds a renamed export. To write it:
- * make a second tree from the generated one with a few thousand nodes renamed, moved, resized, added
- * and removed (never on the foci's paths, so the foci still resolve), then time, in a child process like
- * the others: read + loadTree both + diffTrees + renderDiffText, against the floor of parsing both files.
- * Until then this reports "skipped".
+ * Issue 3: `espalier diff` of two 1M-node versions with 1% of the nodes changed takes at most 2.5x the
+ * time of summarising one version. Per format (CSV with ids: matched by id; nested JSON: matched by
+ * path), alternating children time the summary of OLD (no foci) and the diff OLD -> NEW (no foci), both
+ * as the CLI runs them; the ratio is of this run's medians. Then the real CLI once, and a profile.
  */
 function benchDiff() {
-  const candidates = ["diffTrees", "diff", "compareTrees", "matchTrees"];
-  const probe = spawnSync(
-    process.execPath,
-    [
-      "--input-type=module",
-      "-e",
-      `import(${JSON.stringify(distIndex)}).then((m) => console.log(Object.keys(m).join(",")))`,
-    ],
-    { encoding: "utf8" },
-  );
-  const exports = new Set(probe.stdout.trim().split(","));
-  const found = candidates.find((name) => exports.has(name));
-  if (!found) {
-    log("diff: skipped (dist/ exports no diff function yet)");
-    return { skipped: true, reason: `no export named ${candidates.join(" / ")}` };
+  if (!options.diff) return { skipped: true, reason: "--no-diff" };
+  const formats = options.only.filter((f) => DIFF_FORMATS.includes(f));
+  if (formats.length === 0)
+    return { skipped: true, reason: `--only names none of the diff's formats (${DIFF_FORMATS.join(", ")})` };
+  const base = ensureData({ nodes: options.nodes, formats: DIFF_FORMATS, log });
+  const v2 = ensureDiffData({ base, force: options.forceData, log });
+  const out = {
+    target: TARGETS.diffTime,
+    fraction: v2.params.fraction,
+    seed: v2.params.seed,
+    nodes: v2.nodes,
+    edits: v2.edits,
+    files: Object.fromEntries(DIFF_FORMATS.map((f) => [f, relative(repoRoot, v2.files[f])])),
+    formats: {},
+  };
+  for (const format of formats) {
+    const oldFile = base.files[format];
+    const newFile = v2.files[format];
+    warmCache(oldFile);
+    warmCache(newFile);
+    const runs = { summary: [], diff: [] };
+    const loadBefore = loadavg()[0];
+    for (let r = 0; r < options.repeat; r++) {
+      const order = r % 2 === 0 ? ["summary", "diff"] : ["diff", "summary"];
+      for (const kind of order) {
+        const res =
+          kind === "summary"
+            ? child({ kind: "full", format, file: oldFile, foci: [], budget: options.budget })
+            : child({ kind: "diff", format, oldFile, newFile, budget: options.budget });
+        runs[kind].push(res);
+        log(
+          `diff ${format} ${kind} #${r + 1}: ${res.error ? `ERROR ${res.error}` : `${fmtS(res.ms)} s, ${res.maxRssMiB} MiB`}`,
+        );
+      }
+    }
+    const entry = summarizeDiffRuns(runs);
+    entry.load = [loadBefore, loadavg()[0]];
+    entry.expected = v2.changes[format === "csv" ? "id" : "path"];
+    if (options.cli) entry.cli = runDiffCli(format, oldFile, newFile, options.budget);
+    if (options.cpuProf) entry.profile = profileDiff(format, oldFile, newFile, options.budget);
+    out.formats[format] = entry;
   }
-  log(`diff: dist/ exports ${found}, but the diff benchmark is not written yet (TODO issue 3)`);
-  return { skipped: true, export: found, reason: "benchDiff() not written yet" };
+  return out;
+}
+
+function summarizeDiffRuns(runs) {
+  const ok = (list) => list.filter((r) => !r.error);
+  const summary = ok(runs.summary);
+  const diff = ok(runs.diff);
+  const entry = { runs, errors: [...runs.summary, ...runs.diff].filter((r) => r.error).map((r) => r.error) };
+  if (summary.length === 0 || diff.length === 0) return entry;
+  entry.summaryMs = median(summary.map((r) => r.ms));
+  entry.diffMs = median(diff.map((r) => r.ms));
+  entry.summaryMiB = median(summary.map((r) => r.maxRssMiB));
+  entry.diffMiB = median(diff.map((r) => r.maxRssMiB));
+  entry.timeRatio = entry.diffMs / entry.summaryMs;
+  entry.memoryRatio = entry.diffMiB / entry.summaryMiB;
+  entry.summaryPhases = medianPhases(summary);
+  entry.diffPhases = medianPhases(diff);
+  entry.check = diff[0].check;
+  entry.pass = entry.timeRatio <= TARGETS.diffTime;
+  return entry;
+}
+
+/** `espalier diff OLD NEW --budget N`, once, timed from outside (start-up included). */
+function runDiffCli(format, oldFile, newFile, budget) {
+  const t0 = performance.now();
+  const proc = spawnSync(
+    process.execPath,
+    [...nodeFlags(), cliScript, "diff", oldFile, newFile, "--budget", String(budget)],
+    { encoding: "utf8", maxBuffer: 64 << 20 },
+  );
+  const ms = performance.now() - t0;
+  const lines = proc.stdout ? proc.stdout.split("\n").length - 1 : 0;
+  const res = { ms, exit: proc.status, lines };
+  if (proc.status !== 0) res.error = proc.stderr.trim().split("\n").slice(0, 3).join(" / ");
+  log(`diff ${format} cli: ${fmtS(ms)} s, exit ${proc.status}, ${lines} lines`);
+  return res;
+}
+
+function profileDiff(format, oldFile, newFile, budget) {
+  const dir = join(outDir, "prof");
+  mkdirSync(dir, { recursive: true });
+  const path = join(dir, `diff-${format}.cpuprofile`);
+  const res = child({ kind: "diff", format, oldFile, newFile, budget, profile: path });
+  if (res.error) return { error: res.error };
+  log(`diff ${format} profile: ${relative(repoRoot, path)}`);
+  return { file: relative(repoRoot, path), top: topFunctions(path, 15) };
 }
 
 // ---------------------------------------------------------------------------------------------------------
@@ -279,10 +349,12 @@ function report(r) {
     lines.push(
       `warning: the machine was busy (1-min load ${busy.toFixed(1)} on ${r.cpus} CPUs); times are noisy`,
     );
-  lines.push("");
-  lines.push(...table(rows));
-  lines.push("");
-  lines.push("where the full time goes (median ms):");
+  if (rows.length > 1) {
+    lines.push("");
+    lines.push(...table(rows));
+    lines.push("");
+    lines.push("where the full time goes (median ms):");
+  }
   for (const format of Object.keys(r.formats)) {
     const e = r.formats[format];
     if (e.fullPhases) {
@@ -309,7 +381,8 @@ function report(r) {
           `max ${rf.maxMs.toFixed(1)} ms (first ${rf.firstMs.toFixed(1)} ms)   ${passMiss(rf.pass)} <=${TARGETS.refocusMs} ms each`,
       );
   }
-  lines.push(`diff: ${r.diff.skipped ? `skipped (${r.diff.reason})` : "done"}`);
+  lines.push("");
+  lines.push(...diffReport(r.diff));
   for (const format of Object.keys(r.formats)) {
     const p = r.formats[format].profile;
     if (!p) continue;
@@ -324,8 +397,90 @@ function report(r) {
         `  ${t.selfMs.toFixed(0).padStart(6)} ms ${t.percent.toFixed(1).padStart(5)}%  ${t.name}  ${t.where}`,
       );
   }
+  for (const [format, e] of Object.entries(r.diff.formats ?? {})) {
+    const p = e.profile;
+    if (!p) continue;
+    lines.push("");
+    if (p.error) {
+      lines.push(`profile diff ${format}: ERROR ${p.error}`);
+      continue;
+    }
+    lines.push(`profile diff ${format} (${p.file}), top self time:`);
+    for (const t of p.top)
+      lines.push(
+        `  ${t.selfMs.toFixed(0).padStart(6)} ms ${t.percent.toFixed(1).padStart(5)}%  ${t.name}  ${t.where}`,
+      );
+  }
   lines.push("");
   return lines.join("\n");
+}
+
+function diffReport(d) {
+  if (d.skipped) return [`diff: skipped (${d.reason})`];
+  const lines = [];
+  const n = d.nodes.old.toLocaleString("en-US");
+  lines.push(
+    `diff (issue 3): ${n} -> ${d.nodes.new.toLocaleString("en-US")} nodes, ${(d.fraction * 100).toFixed(0)}% changed; ` +
+      "summary = OLD alone, no foci; diff = OLD -> NEW, no foci; ratio diff / summary",
+  );
+  const rows = [
+    [
+      "format",
+      "matched",
+      "summary s",
+      "diff s",
+      "diff x",
+      "issue 3",
+      "summary MiB",
+      "diff MiB",
+      "mem x",
+      "CLI s",
+      "load 1m",
+    ],
+  ];
+  for (const [format, e] of Object.entries(d.formats)) {
+    if (e.timeRatio === undefined) {
+      rows.push([format, "error", "", "", "", "", "", "", "", "", ""]);
+      continue;
+    }
+    rows.push([
+      format,
+      `by ${e.check.by}`,
+      fmtS(e.summaryMs),
+      fmtS(e.diffMs),
+      e.timeRatio.toFixed(2),
+      `${passMiss(e.pass)} <=${d.target.toFixed(1)}`,
+      e.summaryMiB.toFixed(0),
+      e.diffMiB.toFixed(0),
+      e.memoryRatio.toFixed(2),
+      e.cli ? (e.cli.error ? "error" : fmtS(e.cli.ms)) : "-",
+      e.load.map((l) => l.toFixed(1)).join("-"),
+    ]);
+  }
+  lines.push(...table(rows));
+  const phases = (p) =>
+    Object.entries(p)
+      .map(([k, v]) => `${k} ${v.toFixed(0)}`)
+      .join(", ");
+  for (const [format, e] of Object.entries(d.formats)) {
+    if (e.diffPhases) {
+      lines.push(
+        `  ${format.padEnd(6)} diff: ${phases(e.diffPhases)}   | summary: ${phases(e.summaryPhases)} (ms)`,
+      );
+      const got = e.check.changes;
+      const same = Object.keys(e.expected).every((k) => got[k] === e.expected[k]);
+      const counts = (c) =>
+        Object.entries(c)
+          .map(([k, v]) => `${v} ${k}`)
+          .join(", ");
+      lines.push(
+        `  ${format.padEnd(6)} changes: ${counts(got)}${same ? " (as made)" : `; MADE ${counts(e.expected)}`}`,
+      );
+    }
+    for (const err of e.errors ?? []) lines.push(`  ${format.padEnd(6)} ERROR ${err}`);
+    if (e.cli?.error) lines.push(`  ${format.padEnd(6)} CLI ERROR ${e.cli.error}`);
+  }
+  return lines;
 }
 
 function table(rows) {
@@ -367,6 +522,8 @@ function parseArgs(argv) {
     heap: undefined,
     cpuProf: false,
     cli: true,
+    diff: true,
+    diffOnly: false,
     forceData: false,
   };
   for (let i = 0; i < argv.length; i++) {
@@ -383,15 +540,23 @@ function parseArgs(argv) {
     };
     if (a === "--nodes") o.nodes = count();
     else if (a === "--only") {
-      o.only = value().split(",");
-      for (const f of o.only)
-        if (!FORMATS.includes(f)) usage(`--only: unknown format ${f} (${FORMATS.join(",")})`);
+      const list = value().split(",");
+      for (const f of list)
+        if (!FORMATS.includes(f) && f !== "diff")
+          usage(`--only: unknown format ${f} (${FORMATS.join(",")},diff)`);
+      // "diff" in the list: only the diff benchmark, for the listed formats it covers (all when none).
+      o.diffOnly = list.includes("diff");
+      o.only = list.filter((f) => f !== "diff");
+      if (o.diffOnly && o.only.length === 0) o.only = [...DIFF_FORMATS];
+      if (o.diffOnly && !o.only.some((f) => DIFF_FORMATS.includes(f)))
+        usage(`--only diff: the diff covers ${DIFF_FORMATS.join(", ")}`);
     } else if (a === "--repeat") o.repeat = count();
     else if (a === "--budget") o.budget = count();
     else if (a === "--calls") o.calls = count();
     else if (a === "--heap") o.heap = count();
     else if (a === "--cpu-prof") o.cpuProf = true;
     else if (a === "--no-cli") o.cli = false;
+    else if (a === "--no-diff") o.diff = false;
     else if (a === "--force-data") o.forceData = true;
     else usage(`unknown option ${a}`);
   }
@@ -401,7 +566,7 @@ function parseArgs(argv) {
 function usage(message) {
   log(`bench: ${message}`);
   log(
-    "usage: npm run bench -- [--nodes N] [--only json,csv,paths] [--repeat N] [--budget N] [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--force-data]",
+    "usage: npm run bench -- [--nodes N] [--only json,csv,paths,diff] [--repeat N] [--budget N] [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--no-diff] [--force-data]",
   );
   process.exit(2);
 }
