@@ -1,12 +1,90 @@
 #!/usr/bin/env node
-import { readFile } from "node:fs/promises";
-import { run } from "../dist/cli/main.js";
+import { spawn } from "node:child_process";
+import { fstatSync, statSync } from "node:fs";
+import { open, readFile } from "node:fs/promises";
+import { totalmem } from "node:os";
+import { fileURLToPath } from "node:url";
+import { getHeapStatistics } from "node:v8";
+import { heapToRestartWith } from "../dist/cli/heap.js";
 
-// The edge: real streams, files and environment. A reader closing the pipe early ends us quietly.
-process.stdout.on("error", (err) => {
-  if (err.code === "EPIPE") process.exit(0);
-  throw err;
-});
+// The edge: real streams, files, environment and engine. Decided before the CLI's modules load: an input
+// too big for the engine's default heap restarts the command with a larger one.
+const args = process.argv.slice(2);
+const RESTARTED = "ESPALIER_HEAP_RESTARTED";
+const heap =
+  process.env[RESTARTED] === undefined
+    ? heapToRestartWith({
+        heapLimit: getHeapStatistics().heap_size_limit,
+        totalMemory: totalmem(),
+        inputBytes: inputSizes(args),
+      })
+    : 0;
+if (heap > 0) restart(heap);
+else await main();
+
+/** Sizes of the arguments that name regular files; "-" is standard input (undefined when a pipe). */
+function inputSizes(argv) {
+  const sizes = [];
+  for (const arg of argv) {
+    try {
+      if (arg === "-") {
+        const stat = fstatSync(0);
+        if (stat.isFile()) sizes.push(stat.size);
+        else if (stat.isFIFO() || stat.isSocket()) sizes.push(undefined);
+      } else if (!arg.startsWith("-")) {
+        const stat = statSync(arg);
+        if (stat.isFile()) sizes.push(stat.size);
+      }
+    } catch {
+      // Not a file: an option's value, a command name, or a file the CLI will report.
+    }
+  }
+  return sizes;
+}
+
+/** Runs this script again with a larger heap, on the same streams; its exit (code or signal) is ours. */
+function restart(mib) {
+  const script = fileURLToPath(import.meta.url);
+  const child = spawn(
+    process.execPath,
+    [...process.execArgv, `--max-old-space-size=${mib}`, script, ...args],
+    {
+      stdio: "inherit",
+      env: { ...process.env, [RESTARTED]: String(mib) },
+    },
+  );
+  const signals = ["SIGINT", "SIGTERM", "SIGHUP", "SIGQUIT"];
+  const forward = (signal) => child.kill(signal);
+  for (const signal of signals) process.on(signal, forward);
+  child.on("error", async () => {
+    // Could not start a second engine: run here with the default heap.
+    for (const signal of signals) process.off(signal, forward);
+    await main();
+  });
+  child.on("exit", (code, signal) => {
+    for (const s of signals) process.off(s, forward);
+    if (signal) process.kill(process.pid, signal);
+    else process.exitCode = code ?? 2;
+  });
+}
+
+async function main() {
+  const { run } = await import("../dist/cli/main.js");
+  // A reader closing the pipe early ends us quietly.
+  process.stdout.on("error", (err) => {
+    if (err.code === "EPIPE") process.exit(0);
+    throw err;
+  });
+  process.exitCode = await run(args, {
+    stdout: process.stdout,
+    stderr: process.stderr,
+    readStdin,
+    readFile: (path) => readFile(path),
+    openInput,
+    now: () => performance.now(),
+    env: process.env,
+  });
+}
 
 async function readStdin() {
   const chunks = [];
@@ -14,11 +92,26 @@ async function readStdin() {
   return Buffer.concat(chunks);
 }
 
-const code = await run(process.argv.slice(2), {
-  stdout: process.stdout,
-  stderr: process.stderr,
-  readStdin,
-  readFile: (path) => readFile(path),
-  env: process.env,
-});
-process.exitCode = code;
+/** A file ("-": standard input) read in 1 MiB chunks, with its size when it is a regular file. */
+async function openInput(name) {
+  if (name === "-") {
+    let size;
+    try {
+      const stat = fstatSync(0);
+      if (stat.isFile()) size = stat.size;
+    } catch {
+      // Unknown size.
+    }
+    return { size, chunks: process.stdin };
+  }
+  const handle = await open(name, "r");
+  const stat = await handle.stat();
+  if (stat.isDirectory()) {
+    await handle.close();
+    throw Object.assign(new Error(`${name} is a directory`), { code: "EISDIR" });
+  }
+  return {
+    size: stat.isFile() ? stat.size : undefined,
+    chunks: handle.createReadStream({ highWaterMark: 1 << 20 }),
+  };
+}

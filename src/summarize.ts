@@ -55,8 +55,8 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
   const { tree, measures, index } = prepared;
   const key = options.pseudonymKey;
   const foci = resolveFoci(index, options.foci, key);
-  const api = importance(tree, measures, options.importance);
-  const scores = interest(tree, api, foci);
+  const api = cachedImportance(prepared, options.importance);
+  const scores = interest(tree, api, foci, scratchOf(prepared));
   const selection = select(
     tree,
     measures,
@@ -77,4 +77,32 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
   const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf);
   const view = buildView(index, scores, foci, selection, label, nameOf, pathOf);
   return { view, selection, scores, foci, fociPaths: [...foci].map(pathOf) };
+}
+
+// Per loaded tree, what does not depend on the foci: the a-priori importance of each kind, and room for
+// interest's intermediate array. A new focus then allocates only the arrays its result holds.
+const importanceCache = new WeakMap<Prepared, Map<Importance, Float64Array>>();
+const scratchCache = new WeakMap<Prepared, Float64Array>();
+
+function cachedImportance(prepared: Prepared, kind: Importance): Float64Array {
+  let byKind = importanceCache.get(prepared);
+  if (!byKind) {
+    byKind = new Map();
+    importanceCache.set(prepared, byKind);
+  }
+  let api = byKind.get(kind);
+  if (!api) {
+    api = importance(prepared.tree, prepared.measures, kind);
+    byKind.set(kind, api);
+  }
+  return api;
+}
+
+function scratchOf(prepared: Prepared): Float64Array {
+  let scratch = scratchCache.get(prepared);
+  if (!scratch) {
+    scratch = new Float64Array(prepared.tree.length);
+    scratchCache.set(prepared, scratch);
+  }
+  return scratch;
 }

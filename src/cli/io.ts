@@ -1,3 +1,5 @@
+import type { OutputFiles } from "./write-output.js";
+
 /** Everything the CLI touches outside itself, passed in so tests drive it directly. */
 export interface CliIO {
   stdout: { write(text: string): unknown; isTTY?: boolean; rows?: number; columns?: number };
@@ -5,5 +7,21 @@ export interface CliIO {
   /** Reads standard input whole. */
   readStdin(): Promise<Buffer>;
   readFile(path: string): Promise<Buffer>;
+  /**
+   * Opens a file ("-" for standard input) to be read in chunks, with its size when known. Without it,
+   * inputs are read whole with `readFile` / `readStdin` and handed over as one chunk.
+   */
+  openInput?(name: string): Promise<StreamedInput>;
+  /** Milliseconds from some fixed point, for progress; without it, no progress is shown. */
+  now?(): number;
   env: Record<string, string | undefined>;
+  /** File-system calls for --output; Node's own when absent (tests inject faults here). */
+  outputFiles?: OutputFiles;
+}
+
+/** An input read in chunks. */
+export interface StreamedInput {
+  /** Size in bytes when known (a regular file), else undefined (a pipe). */
+  size: number | undefined;
+  chunks: AsyncIterable<Uint8Array>;
 }

@@ -59,6 +59,7 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
         .default("auto"),
     )
     .option("--max-nodes <count>", "refuse inputs with more nodes than this")
+    .option("-o, --output <file>", "write to this file, whole or not at all, instead of standard output")
     .option("--width <columns>", "widest text line, in terminal columns (default: terminal width)")
     .option("--no-chains", "give every node its own line (by default a run of only children shares one)")
     .addHelpText("after", SUMMARY_EXAMPLES)

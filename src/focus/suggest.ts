@@ -2,6 +2,13 @@ import { distance } from "fastest-levenshtein";
 import type { PathIndex } from "../model/paths.js";
 import { parseSegment, splitPath } from "../model/segment.js";
 
+/** Characters of a name compared by edit distance. */
+const MAX_COMPARED = 256;
+/** Segments that may join into one name containing "/". */
+const MAX_JOINED = 16;
+/** Child lookups spent on such joins for one spec (also bounds the recursion depth). */
+const MAX_LOOKUPS = 2_000;
+
 /**
  * The existing path closest to a spec that matched nothing: follow the spec as far as it matches, then
  * take the child whose name is nearest by edit distance; a node anywhere whose name equals the spec's
@@ -23,7 +30,7 @@ export function suggestPath(index: PathIndex, spec: string): string | undefined 
   }
   const { tree } = index;
   // A name that itself contains "/" typed unescaped ("@scope/pkg" for "@scope~1pkg").
-  const joined = lenientResolve(index, 0, raw, 0, 0);
+  const joined = lenientResolve(index, 0, raw, 0, { left: MAX_LOOKUPS });
   if (joined >= 0) return index.path(joined);
   for (let i = 1; i < tree.length; i++) if (tree.name[i] === last) return index.path(i);
 
@@ -42,8 +49,10 @@ export function suggestPath(index: PathIndex, spec: string): string | undefined 
     }
     let best = -1;
     let bestScore = Number.POSITIVE_INFINITY;
+    const wanted = seg.name.slice(0, MAX_COMPARED).toLowerCase();
     for (const [name, list] of index.childrenByName(node)) {
-      const score = distance(name.toLowerCase(), seg.name.toLowerCase());
+      // Edit distance costs the product of the lengths: a 10 MB name must not stall the error message.
+      const score = distance(name.slice(0, MAX_COMPARED).toLowerCase(), wanted);
       if (score < bestScore) {
         bestScore = score;
         best = list[0];
@@ -54,11 +63,20 @@ export function suggestPath(index: PathIndex, spec: string): string | undefined 
   return undefined;
 }
 
-/** Resolves segments where a run of them may form one name containing "/"; -1 when none does. */
-function lenientResolve(index: PathIndex, node: number, raw: string[], k: number, steps: number): number {
+/**
+ * Resolves segments where a run of them (up to {@link MAX_JOINED}) may form one name containing "/";
+ * -1 when none does. `work.left` bounds the lookups, so a crafted spec or tree cannot make it slow.
+ */
+function lenientResolve(
+  index: PathIndex,
+  node: number,
+  raw: string[],
+  k: number,
+  work: { left: number },
+): number {
   if (k === raw.length) return node;
-  if (steps > 64) return -1;
-  for (let j = k; j < raw.length; j++) {
+  for (let j = k; j < raw.length && j < k + MAX_JOINED; j++) {
+    if (--work.left < 0) return -1;
     let name: string;
     try {
       name = raw
@@ -70,7 +88,7 @@ function lenientResolve(index: PathIndex, node: number, raw: string[], k: number
     }
     const list = index.childrenByName(node).get(name);
     if (!list) continue;
-    const found = lenientResolve(index, list[0], raw, j + 1, steps + 1);
+    const found = lenientResolve(index, list[0], raw, j + 1, work);
     if (found >= 0) return found;
   }
   return -1;

@@ -21,7 +21,7 @@ const FAR = 0x7fffffff;
  * M(a) = max over foci y below a of (-depth(y) - API(y)); the max is reached at a = lca(x, y).
  * Without foci, interest(x) = API(x) - API(root).
  */
-export function interest(tree: Tree, api: Float64Array, foci: Int32Array): Interest {
+export function interest(tree: Tree, api: Float64Array, foci: Int32Array, scratch?: Float64Array): Interest {
   const n = tree.length;
   const { parent, depth } = tree;
   const value = new Float64Array(n);
@@ -32,22 +32,27 @@ export function interest(tree: Tree, api: Float64Array, foci: Int32Array): Inter
     for (let i = 0; i < n; i++) value[i] = api[i] - api[0];
     return { value, distance, forced };
   }
-  const M = new Float64Array(n).fill(Number.NEGATIVE_INFINITY);
+  // `scratch` (n long, any content) saves allocating M on every call; it is overwritten.
+  const M =
+    scratch && scratch.length >= n
+      ? scratch.fill(Number.NEGATIVE_INFINITY, 0, n)
+      : new Float64Array(n).fill(Number.NEGATIVE_INFINITY);
+  // Upward: only the foci and their ancestors get a focus term M or a distance down to a focus, so each
+  // focus's path to the root is walked, not the whole tree (the same values as a reverse pre-order pass).
+  // A walk stops at an ancestor an earlier walk left with a term and a distance at least as good: from
+  // there up, that walk already wrote values this one cannot improve.
   for (const y of foci) {
-    M[y] = -depth[y] - api[y];
-    distance[y] = 0;
-    forced[y] = 1;
+    const term = -depth[y] - api[y];
+    for (let a = y, d = 0; a !== -1; a = parent[a], d++) {
+      if (term <= M[a] && d >= distance[a]) break;
+      if (term > M[a]) M[a] = term;
+      if (d < distance[a]) distance[a] = d;
+      forced[a] = 1;
+    }
   }
-  // Upward pass (reverse pre-order): best focus term below each node, distance down to a focus.
-  for (let i = n - 1; i > 0; i--) {
-    const p = parent[i];
-    if (M[i] > M[p]) M[p] = M[i];
-    if (distance[i] !== FAR && distance[i] + 1 < distance[p]) distance[p] = distance[i] + 1;
-    if (forced[i]) forced[p] = 1;
-  }
-  // Downward pass: best ancestor term, distance to a focus through the parent.
-  const best = new Float64Array(n);
-  best[0] = M[0];
+  // Downward pass: best ancestor term, distance to a focus through the parent. The best term replaces M
+  // in place: M[i] is read once, before its own best is written, and parents come before children.
+  const best = M;
   value[0] = api[0] + best[0];
   for (let i = 1; i < n; i++) {
     const p = parent[i];

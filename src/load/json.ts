@@ -75,7 +75,14 @@ const jsonAccess: NestedAccess<Json> = {
   },
   number: (v) => v as number,
   text: (v) => String(v),
-  source: (v) => JSON.stringify(v),
+  source(v) {
+    try {
+      return JSON.stringify(v);
+    } catch (error) {
+      if (!(error instanceof RangeError)) throw error;
+      throw new EspalierError("LIMIT_EXCEEDED", "a kept field is nested too deeply to print as a label");
+    }
+  },
   line: () => 0,
   pos: () => undefined,
   claim: () => true,

@@ -1,8 +1,9 @@
 import { EspalierError } from "../errors.js";
 import type { LinkedNodes } from "../model/build.js";
+import { IdIndex } from "./idIndex.js";
 import { limitExceeded, NodeSink } from "./nodeSink.js";
 import { PathIndex } from "./pathIndex.js";
-import { parseSize } from "./size.js";
+import { isSize, parseSize } from "./size.js";
 import type { Cell, Table } from "./table.js";
 import type { LoadOptions } from "./types.js";
 
@@ -38,22 +39,19 @@ function linkById(
   const names = table.column(options.nameField);
   const sizes = table.column(options.sizeField);
   const ids: string[] = new Array(n);
-  const rowOf = new Map<string, number>();
+  const rowOf = new IdIndex(ids);
   for (let r = 0; r < n; r++) {
     const id = cellText(idCells[r]);
     if (id === "")
       throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${options.idField}"`, { row: r + 1 });
-    // One map operation per row: a repeated id leaves the size unchanged.
-    const before = rowOf.size;
-    rowOf.set(id, r);
-    if (rowOf.size === before) {
+    const earlier = rowOf.add(id, r);
+    if (earlier !== -1) {
       throw new EspalierError(
         "DUPLICATE_ID",
-        `row ${r + 1} repeats the ${options.idField} ${JSON.stringify(id)} of row ${ids.indexOf(id) + 1}`,
+        `row ${r + 1} repeats the ${options.idField} ${JSON.stringify(id)} of row ${earlier + 1}`,
         { row: r + 1 },
       );
     }
-    ids[r] = id;
   }
   const parentOf = new Int32Array(n);
   const origin = new Int32Array(n);
@@ -65,7 +63,7 @@ function linkById(
       parentOf[r] = -1;
     } else {
       const p = rowOf.get(parentId);
-      if (p === undefined) {
+      if (p === -1) {
         throw new EspalierError(
           "MISSING_PARENT",
           `row ${r + 1} names the ${options.parentField} ${JSON.stringify(parentId)}, which no row has as its ${options.idField}`,
@@ -141,10 +139,10 @@ function sizeOf(cell: Cell, textCells: boolean, row: number, field: string): num
   if (cell === undefined || cell === null) return 0;
   const value =
     typeof cell === "number" ? cell : textCells && typeof cell === "string" ? parseSize(cell) : Number.NaN;
-  if (Number.isFinite(value) && value >= 0) return value;
+  if (isSize(value)) return value;
   throw new EspalierError(
     "BAD_SIZE",
-    `the "${field}" of row ${row} must be a number >= 0, got ${JSON.stringify(cell)}`,
+    `the "${field}" of row ${row} must be a number from 0 to 2^53 - 1, got ${JSON.stringify(cell)}`,
     { row },
   );
 }

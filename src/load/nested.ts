@@ -1,7 +1,8 @@
 import { EspalierError, type SourcePos } from "../errors.js";
 import type { LinkedNodes } from "../model/build.js";
-import { nodePath } from "./nodePath.js";
+import { describeNode } from "./describeNode.js";
 import { NodeSink } from "./nodeSink.js";
+import { isSize } from "./size.js";
 import type { LoadOptions } from "./types.js";
 
 /** What a value in a parsed document is, as far as the walker cares. */
@@ -62,7 +63,7 @@ export function walkNested<V>(root: V, access: NestedAccess<V>, options: LoadOpt
     );
   }
 
-  const where = (i: number) => describe(sink, i);
+  const where = (i: number) => describeNode(sink.parentOf, sink.name, i);
   const keys: string[] = [];
   const values: V[] = [];
   for (let i = 0; i < sink.length; i++) {
@@ -72,8 +73,7 @@ export function walkNested<V>(root: V, access: NestedAccess<V>, options: LoadOpt
     if (kind !== Kind.Map) {
       if (keyed[i] === 1 && kind === Kind.Number) {
         const size = access.number(v);
-        if (!(size >= 0 && size < Number.POSITIVE_INFINITY))
-          throw badSize(access.text(v), where(i), access.pos(v));
+        if (!isSize(size)) throw badSize(access.text(v), where(i), access.pos(v));
         sink.ownSize[i] = size;
         sink.hasSizes = true;
       } else if (keyed[i] !== 1 || kind !== Kind.Null) {
@@ -103,7 +103,7 @@ export function walkNested<V>(root: V, access: NestedAccess<V>, options: LoadOpt
     const sizeKind = access.kind(sizeValue);
     if (sizeKind === Kind.Number) {
       const size = access.number(sizeValue as V);
-      if (!(size >= 0 && size < Number.POSITIVE_INFINITY)) {
+      if (!isSize(size)) {
         throw badSize(access.text(sizeValue as V), where(i), access.pos(sizeValue));
       }
       sink.ownSize[i] = size;
@@ -112,7 +112,7 @@ export function walkNested<V>(root: V, access: NestedAccess<V>, options: LoadOpt
       const shown = sizeKind === Kind.String ? JSON.stringify(access.text(sizeValue as V)) : "a non-number";
       throw new EspalierError(
         "BAD_SIZE",
-        `the "${sizeField}" of ${where(i)} must be a number >= 0, got ${shown}`,
+        `the "${sizeField}" of ${where(i)} must be a number from 0 to 2^53 - 1, got ${shown}`,
         access.pos(sizeValue),
       );
     }
@@ -175,7 +175,11 @@ export function walkNested<V>(root: V, access: NestedAccess<V>, options: LoadOpt
 }
 
 function badSize(shown: string, where: string, pos: SourcePos | undefined): EspalierError {
-  return new EspalierError("BAD_SIZE", `the size of ${where} must be a number >= 0, got ${shown}`, pos);
+  return new EspalierError(
+    "BAD_SIZE",
+    `the size of ${where} must be a number from 0 to 2^53 - 1, got ${shown}`,
+    pos,
+  );
 }
 
 function twoParents(what: string, pos: SourcePos | undefined): EspalierError {
@@ -184,14 +188,4 @@ function twoParents(what: string, pos: SourcePos | undefined): EspalierError {
     `${what} is an alias of something already placed in the tree, so a node would have two parents`,
     pos,
   );
-}
-
-/** `node "a/b"`, or for a nameless node its place among its siblings. */
-function describe(sink: NodeSink, i: number): string {
-  if (sink.name[i] !== "") return `node "${nodePath(sink.parentOf, sink.name, i)}"`;
-  const p = sink.parentOf[i];
-  let ordinal = 1;
-  for (let k = 0; k < i; k++) if (sink.parentOf[k] === p) ordinal++;
-  if (p === -1) return `top-level node #${ordinal}`;
-  return `child #${ordinal} of node "${nodePath(sink.parentOf, sink.name, p)}"`;
 }

@@ -32,6 +32,14 @@ export class NodeSink {
     return i;
   }
 
+  /** Drops the nodes from index `length` on (a streaming loader undoing a value a later key replaced). */
+  truncate(length: number): void {
+    // Nodes added later start from own size 0, as in fresh arrays.
+    this.ownSize.fill(0, length, this.length);
+    this.length = length;
+    this.name.length = length;
+  }
+
   /** The nodes so far, ready for `buildTree`. */
   finish(rootName: string, fields: Map<string, string[]>, ids: string[] | null = null): LinkedNodes {
     const n = this.length;

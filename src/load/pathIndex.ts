@@ -8,21 +8,29 @@ const slash = 47;
  * top node named "/"; trailing and doubled slashes are ignored; other segments (".", "..") are names.
  * A path may name a node that was created implicitly before; naming the same path twice is DUPLICATE_PATH.
  *
- * Each node maps its children by name. Listings put related paths next to each other, so the walk starts
- * from the deepest ancestor shared with the previous path, usually leaving one lookup per path.
+ * Children are found by (parent, name) in one open-addressing hash table of node numbers, hashed while
+ * the segment is scanned, so no string is cut for a lookup and no object is made per directory.
+ * Listings put related paths next to each other, so the walk starts from the deepest ancestor shared
+ * with the previous path, usually leaving one lookup per path.
  */
 export class PathIndex {
-  private readonly tops = new Map<string, number>();
-  private readonly childrenOf: (Map<string, number> | undefined)[] = [];
+  // slots[h] = node + 1, or 0 when empty; at most half full.
+  private slots = new Int32Array(2048);
+  // Each node's own segment, the name it is found by (a table may relabel the node in the sink), and
+  // its hash: rehashing reads only this array, not a string per node spread over the heap.
+  private readonly keys: string[] = [];
+  private hashes = new Int32Array(1024);
   private explicit = new Uint8Array(1024);
   private readonly sink: NodeSink;
   private readonly unit: "line" | "row";
-  // The previous path, text.slice(prevStart, prevEnd), and its nodes: stackNode[d] ends stackEnd[d] in.
+  // The previous path, text.slice(prevStart, prevStart + prevLength), and its nodes: stackNode[d]
+  // ends stackEnd[d] characters in.
   private prevText = "";
   private prevStart = 0;
   private prevLength = 0;
-  private readonly stackNode: number[] = [];
-  private readonly stackEnd: number[] = [];
+  private stackNode = new Int32Array(64);
+  private stackEnd = new Int32Array(64);
+  private stackDepth = 0;
   private created = false;
 
   constructor(sink: NodeSink) {
@@ -36,7 +44,8 @@ export class PathIndex {
    */
   place(text: string, start: number, end: number, origin: number): number {
     const length = end - start;
-    const { sink, stackNode, stackEnd } = this;
+    const sink = this.sink;
+    let { stackNode, stackEnd } = this;
 
     // The deepest node of the previous path whose whole path is a prefix of this one.
     const prev = this.prevText;
@@ -45,7 +54,7 @@ export class PathIndex {
     let common = 0;
     while (common < limit && text.charCodeAt(start + common) === prev.charCodeAt(prevStart + common))
       common++;
-    let depth = stackNode.length;
+    let depth = this.stackDepth;
     while (depth > 0) {
       const e = stackEnd[depth - 1];
       const boundary =
@@ -58,7 +67,7 @@ export class PathIndex {
     let at = depth > 0 ? stackEnd[depth - 1] : 0;
     let created = false;
     if (at === 0 && length > 0 && text.charCodeAt(start) === slash) {
-      node = this.child(node, "/", origin);
+      node = this.child(node, text, start, start + 1, hashStep(seed(node), slash), origin);
       created = this.created;
       stackNode[depth] = node;
       stackEnd[depth] = 1;
@@ -68,17 +77,25 @@ export class PathIndex {
     for (;;) {
       while (at < length && text.charCodeAt(start + at) === slash) at++;
       if (at >= length) break;
-      let stop = at + 1;
-      while (stop < length && text.charCodeAt(start + stop) !== slash) stop++;
-      node = this.child(node, text.slice(start + at, start + stop), origin);
+      let hash = seed(node);
+      let stop = at;
+      for (; stop < length; stop++) {
+        const c = text.charCodeAt(start + stop);
+        if (c === slash) break;
+        hash = hashStep(hash, c);
+      }
+      node = this.child(node, text, start + at, start + stop, hash, origin);
       created = this.created;
+      if (depth === stackNode.length) {
+        this.growStack();
+        ({ stackNode, stackEnd } = this);
+      }
       stackNode[depth] = node;
       stackEnd[depth] = stop;
       depth++;
       at = stop;
     }
-    stackNode.length = depth;
-    stackEnd.length = depth;
+    this.stackDepth = depth;
     this.prevText = text;
     this.prevStart = start;
     this.prevLength = length;
@@ -104,18 +121,87 @@ export class PathIndex {
     return node;
   }
 
-  /** The child of `parent` named `name`, added when missing; `this.created` says which. */
-  private child(parent: number, name: string, origin: number): number {
-    let siblings = parent === -1 ? this.tops : this.childrenOf[parent];
-    if (siblings === undefined) {
-      siblings = new Map();
-      this.childrenOf[parent] = siblings;
+  /**
+   * The child of `parent` named `text.slice(s, e)`, whose hash is `hash`, added when missing;
+   * `this.created` says which.
+   */
+  private child(parent: number, text: string, s: number, e: number, hash: number, origin: number): number {
+    const { sink, slots } = this;
+    const mask = slots.length - 1;
+    const length = e - s;
+    let h = mix(hash) & mask;
+    const hashes = this.hashes;
+    for (let slot = slots[h]; slot !== 0; slot = slots[h]) {
+      const node = slot - 1;
+      if (hashes[node] === hash && sink.parentOf[node] === parent) {
+        const name = this.keys[node];
+        if (name.length === length) {
+          let k = 0;
+          while (k < length && name.charCodeAt(k) === text.charCodeAt(s + k)) k++;
+          if (k === length) {
+            this.created = false;
+            return node;
+          }
+        }
+      }
+      h = (h + 1) & mask;
     }
-    const found = siblings.get(name);
-    this.created = found === undefined;
-    if (found !== undefined) return found;
-    const node = this.sink.add(parent, name, origin);
-    siblings.set(name, node);
+    this.created = true;
+    const name = detach(text.slice(s, e));
+    const node = sink.add(parent, name, origin);
+    this.keys[node] = name;
+    if (node === hashes.length) {
+      const grown = new Int32Array(hashes.length * 2);
+      grown.set(hashes);
+      this.hashes = grown;
+    }
+    this.hashes[node] = hash;
+    slots[h] = node + 1;
+    if (this.keys.length * 2 > slots.length) this.rehash();
     return node;
   }
+
+  private rehash(): void {
+    const { keys, hashes } = this;
+    const slots = new Int32Array(this.slots.length * 2);
+    const mask = slots.length - 1;
+    for (let node = 0; node < keys.length; node++) {
+      let h = mix(hashes[node]) & mask;
+      while (slots[h] !== 0) h = (h + 1) & mask;
+      slots[h] = node + 1;
+    }
+    this.slots = slots;
+  }
+
+  private growStack(): void {
+    const node = new Int32Array(this.stackNode.length * 2);
+    node.set(this.stackNode);
+    this.stackNode = node;
+    const end = new Int32Array(this.stackEnd.length * 2);
+    end.set(this.stackEnd);
+    this.stackEnd = end;
+  }
+}
+
+// FNV-1a over UTF-16 code units, seeded with the parent's number.
+function seed(parent: number): number {
+  return Math.imul(parent + 1, 0x9e3779b1) ^ 0x811c9dc5;
+}
+
+function hashStep(hash: number, c: number): number {
+  return Math.imul(hash ^ c, 0x01000193);
+}
+
+/** Spreads the high bits into the low ones, which pick the slot. */
+function mix(hash: number): number {
+  return hash ^ (hash >>> 15);
+}
+
+/**
+ * A copy of a name that no longer refers to the text it was cut from. V8 makes a slice of 13 or more
+ * characters a view into its parent string, so keeping such names would keep the whole listing (or every
+ * chunk of a stream) alive; joining and slicing again copies just the name.
+ */
+function detach(name: string): string {
+  return name.length < 13 ? name : ` ${name}`.slice(1);
 }

@@ -3,7 +3,7 @@ const decimal = /^\+?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 
 /**
  * The size written in a text cell or column: "" is 0, a decimal number is its value, anything else
- * (negative, hex, "12 KB", "NaN") is NaN so the caller can report BAD_SIZE where it knows the position.
+ * (negative, hex, "12 KB", "NaN", past 2^53 - 1) is NaN so the caller can report BAD_SIZE where it knows the position.
  */
 export function parseSize(text: string): number {
   // Fast path: up to 15 plain digits, exact in a double.
@@ -22,5 +22,14 @@ export function parseSize(text: string): number {
   if (s === "") return 0;
   if (!decimal.test(s)) return Number.NaN;
   const value = Number(s);
-  return value < Number.POSITIVE_INFINITY ? value : Number.NaN;
+  return isSize(value) ? value : Number.NaN;
+}
+
+/**
+ * Whether a number is a size: from 0 to 2^53 - 1 (ECMA-262 Number.MAX_SAFE_INTEGER). Beyond that a
+ * double no longer holds every whole number, so totals could be silently rounded; NaN and infinities
+ * are no sizes. Every loader rejects anything else with BAD_SIZE at the size's position.
+ */
+export function isSize(value: number): boolean {
+  return value >= 0 && value <= Number.MAX_SAFE_INTEGER;
 }

@@ -1,4 +1,5 @@
 import { EspalierError } from "../errors.js";
+import { checkSizes } from "./checkSizes.js";
 import type { Tree } from "./tree.js";
 
 /** Nodes as a loader found them: any order, each linked to its parent by index. */
@@ -23,6 +24,9 @@ export interface LinkedNodes {
  * is reported with the rows or lines on it. Iterative: no recursion a deep tree could overflow.
  */
 export function buildTree(input: LinkedNodes, file?: string): Tree {
+  checkSizes(input, file);
+  const ordered = inPreOrder(input);
+  if (ordered) return ordered;
   const n = input.parentOf.length;
   let tops = 0;
   for (let i = 0; i < n; i++) if (input.parentOf[i] === -1) tops++;
@@ -102,6 +106,71 @@ export function buildTree(input: LinkedNodes, file?: string): Tree {
     fields,
     syntheticRoot: synthetic,
   };
+}
+
+/**
+ * The tree without reordering when the nodes already come in pre-order (each node's parent is on the
+ * path from the latest top-level node down to the node before it), as document-order loaders give them;
+ * null otherwise. Saves the linking arrays of the general case.
+ */
+function inPreOrder(input: LinkedNodes): Tree | null {
+  const { parentOf } = input;
+  const n = parentOf.length;
+  let tops = 0;
+  for (let i = 0; i < n; i++) if (parentOf[i] === -1) tops++;
+  const shift = tops !== 1 ? 1 : 0;
+  if (shift === 0 && parentOf[0] !== -1) return null;
+  const total = n + shift;
+  const parent = new Int32Array(total);
+  const depth = new Int32Array(total);
+  let path = new Int32Array(64); // path[d] = the node at depth d (without the synthetic root) above i
+  let top = -1;
+  for (let i = 0; i < n; i++) {
+    const p = parentOf[i];
+    if (p === -1) {
+      top = 0;
+    } else {
+      while (top >= 0 && path[top] !== p) top--;
+      if (top < 0) return null;
+      top++;
+    }
+    if (top === path.length) {
+      const grown = new Int32Array(path.length * 2);
+      grown.set(path);
+      path = grown;
+    }
+    path[top] = i;
+    parent[i + shift] = p === -1 ? (shift === 1 ? 0 : -1) : p + shift;
+    depth[i + shift] = top + shift;
+  }
+  if (shift === 1) parent[0] = -1;
+  const ownSize = new Float64Array(total);
+  ownSize.set(input.ownSize.subarray(0, n), shift);
+  const origin = new Int32Array(total);
+  origin.set(input.origin.subarray(0, n), shift);
+  const fields = new Map<string, string[]>();
+  for (const [key, values] of input.fields) fields.set(key, withFirst(values, n, shift, ""));
+  return {
+    length: total,
+    parent,
+    depth,
+    name: withFirst(input.name, n, shift, input.rootName),
+    ownSize,
+    hasSizes: input.hasSizes,
+    ids: input.ids ? withFirst(input.ids, n, shift, "") : null,
+    origin,
+    originIsRow: input.originIsRow,
+    fields,
+    syntheticRoot: shift === 1,
+  };
+}
+
+/** `values[0, n)` as a new array, after `first` when `shift` is 1; a missing value is "". */
+function withFirst(values: readonly string[], n: number, shift: number, first: string): string[] {
+  const out: string[] = new Array(n + shift);
+  if (shift === 1) out[0] = first;
+  for (let i = 0; i < n; i++) out[i + shift] = values[i] ?? "";
+  return out;
 }
 
 function cycleError(input: LinkedNodes, par: Int32Array, visited: Int32Array, file?: string): EspalierError {

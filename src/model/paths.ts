@@ -2,12 +2,22 @@ import type { Measures } from "./measure.js";
 import { escapeSegment, type Segment } from "./segment.js";
 import type { Tree } from "./tree.js";
 
+/** How many recently built paths {@link PathIndex.path} remembers. */
+const RECENT_PATHS = 1 << 16;
+
 /**
  * Printable, re-readable paths of nodes, and the reverse lookup. Per-parent name indexes are built
  * lazily, only for parents whose children are looked up, so the whole tree never pays for them.
  */
 export class PathIndex {
   private readonly byParent = new Map<number, Map<string, number[]>>();
+  // Paths built lately, by node: a path is its parent's plus one segment, so the paths of a shown
+  // subtree built in pre-order cost one segment each, not a walk to the root each (a chain a million
+  // deep would otherwise take a million squared steps). Two generations: when `recent` is full it
+  // becomes `older`, so the path just built is always kept. Both are dropped when `base` changes.
+  private recent = new Map<number, string>();
+  private older = new Map<number, string>();
+  private recentBase: ((j: number) => string) | undefined;
 
   constructor(
     readonly tree: Tree,
@@ -33,6 +43,10 @@ export class PathIndex {
 
   /** The child of `p` that a parsed segment names, or -1. */
   child(p: number, seg: Segment): number {
+    const { count } = this.measures;
+    if (count[p] === 1) return -1;
+    if (count[p] === count[p + 1] + 1)
+      return this.tree.name[p + 1] === seg.name && seg.rank === 1 ? p + 1 : -1;
     const list = this.childrenByName(p).get(seg.name);
     return list && seg.rank <= list.length ? list[seg.rank - 1] : -1;
   }
@@ -41,6 +55,8 @@ export class PathIndex {
   segment(i: number, base = escapeSegment(this.tree.name[i])): string {
     const p = this.tree.parent[i];
     if (p < 0) return base;
+    // An only child has no sibling to share its name with: no name index needed (saves one per level).
+    if (this.measures.count[p] === this.measures.count[i] + 1) return base;
     const list = this.childrenByName(p).get(this.tree.name[i])!;
     if (list.length === 1 || list[0] === i) return base;
     return `${base}~~${list.indexOf(i) + 1}`;
@@ -51,12 +67,31 @@ export class PathIndex {
    * each node's escaped name (pseudonyms); the sibling rank still comes from the real names.
    */
   path(i: number, base?: (j: number) => string): string {
+    if (base !== this.recentBase) {
+      this.recent.clear();
+      this.older.clear();
+      this.recentBase = base;
+    } else if (this.recent.size >= RECENT_PATHS) {
+      this.older = this.recent;
+      this.recent = new Map();
+    }
     const parts: string[] = [];
-    for (let c = i; this.tree.parent[c] >= 0; c = this.tree.parent[c])
+    let known: string | undefined;
+    for (let c = i; this.tree.parent[c] >= 0; c = this.tree.parent[c]) {
+      known = this.recent.get(c) ?? this.older.get(c);
+      if (known !== undefined) break;
       parts.push(base ? this.segment(c, base(c)) : this.segment(c));
+    }
     parts.reverse();
-    const joined = parts.join("/");
-    // A first segment that is empty needs the RFC 6901 form with a leading "/" to be read back.
-    return parts.length > 0 && parts[0] === "" ? `/${joined}` : joined;
+    let path: string;
+    if (known !== undefined) {
+      path = parts.length === 0 ? known : `${known}/${parts.join("/")}`;
+    } else {
+      const joined = parts.join("/");
+      // A first segment that is empty needs the RFC 6901 form with a leading "/" to be read back.
+      path = parts.length > 0 && parts[0] === "" ? `/${joined}` : joined;
+    }
+    this.recent.set(i, path);
+    return path;
   }
 }

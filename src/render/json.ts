@@ -1,5 +1,6 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import type { ViewNode } from "../view/view-node.js";
+import { jsonText } from "./json-text.js";
 import { SUMMARY_FORMAT, type Summary, type SummaryNode } from "./summary-schema.js";
 
 export interface JsonOptions {
@@ -10,7 +11,7 @@ export interface JsonOptions {
   labels: boolean;
 }
 
-/** The summary JSON object (see docs/summary.schema.json). */
+/** The summary JSON object (see docs/summary.schema.json). Iterative: any depth of view is fine. */
 export function toSummary(view: HierarchyNode<ViewNode>, options: JsonOptions): Summary {
   const convert = (node: ViewNode): SummaryNode => ({
     name: node.name,
@@ -21,20 +22,30 @@ export function toSummary(view: HierarchyNode<ViewNode>, options: JsonOptions): 
     nodes: node.nodes,
     size: node.size,
     focus: node.focus,
-    children: node.children.map(convert),
+    children: [],
     hidden: node.hidden ? { ...node.hidden } : null,
   });
+  const root = convert(view.data);
+  const stack: [ViewNode, SummaryNode][] = [[view.data, root]];
+  for (let top = stack.pop(); top !== undefined; top = stack.pop()) {
+    const [node, out] = top;
+    for (const child of node.children) {
+      const converted = convert(child);
+      out.children.push(converted);
+      stack.push([child, converted]);
+    }
+  }
   return {
     format: SUMMARY_FORMAT,
     budget: options.budget,
     lines: options.lines,
     totals: { nodes: view.data.nodes, size: view.data.size },
     foci: options.foci,
-    root: convert(view.data),
+    root,
   };
 }
 
-/** The summary as JSON text (RFC 8259), two-space indented, ending in a newline. */
+/** The summary as JSON text (RFC 8259), two-space indented, ending in a newline (see {@link jsonText}). */
 export function renderJson(view: HierarchyNode<ViewNode>, options: JsonOptions): string {
-  return `${JSON.stringify(toSummary(view, options), null, 2)}\n`;
+  return jsonText(toSummary(view, options), "summary");
 }

@@ -1,7 +1,8 @@
-import { type HierarchyNode, hierarchy } from "d3-hierarchy";
+import type { HierarchyNode } from "d3-hierarchy";
 import type { Selection } from "../fit/select.js";
 import type { Interest } from "../interest/doi.js";
 import type { PathIndex } from "../model/paths.js";
+import { hierarchyOf } from "./hierarchy-of.js";
 import type { Folded, ViewNode } from "./view-node.js";
 
 /** Turns a node's fields into its display text. */
@@ -60,7 +61,7 @@ export function buildView(
     if (p < 0) root = node;
     else byIndex.get(p)!.children.push(node);
   }
-  return hierarchy(root!);
+  return hierarchyOf(root!);
 }
 
 function round(x: number): number {

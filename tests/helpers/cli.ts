@@ -1,5 +1,6 @@
 import { readFile } from "node:fs/promises";
 import { run } from "../../src/cli/main.js";
+import type { OutputFiles } from "../../src/cli/write-output.js";
 
 export interface CliResult {
   code: number;
@@ -7,10 +8,18 @@ export interface CliResult {
   stderr: string;
 }
 
-/** Runs the CLI in-process with captured streams; `stdin` is standard input's content. */
+/**
+ * Runs the CLI in-process with captured streams; `stdin` is standard input's content (text is UTF-8);
+ * `outputFiles` replaces the file-system calls of --output.
+ */
 export async function cli(
   args: string[],
-  options: { stdin?: string; env?: Record<string, string>; tty?: { rows: number } } = {},
+  options: {
+    stdin?: string | Uint8Array;
+    env?: Record<string, string>;
+    tty?: { rows: number };
+    outputFiles?: OutputFiles;
+  } = {},
 ): Promise<CliResult> {
   let stdout = "";
   let stderr = "";
@@ -29,9 +38,13 @@ export async function cli(
         return true;
       },
     },
-    readStdin: async () => Buffer.from(options.stdin ?? "", "utf8"),
+    readStdin: async () =>
+      typeof options.stdin === "string" || options.stdin === undefined
+        ? Buffer.from(options.stdin ?? "", "utf8")
+        : Buffer.from(options.stdin),
     readFile: (p: string) => readFile(p),
     env: options.env ?? {},
+    outputFiles: options.outputFiles,
   });
   return { code, stdout, stderr };
 }

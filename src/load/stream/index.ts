@@ -1,0 +1,82 @@
+import { Buffer, constants } from "node:buffer";
+import { EspalierError } from "../../errors.js";
+import { buildTree, type LinkedNodes } from "../../model/build.js";
+import type { Tree } from "../../model/tree.js";
+import { detectFormat } from "../detect.js";
+import { linkTable } from "../link.js";
+import type { InputFormat, LoadOptions } from "../types.js";
+import { loadYaml } from "../yaml.js";
+import { csvStreamTable } from "./csvStreamTable.js";
+import { JsonStreamLoader } from "./jsonStreamLoader.js";
+import { pathListStream } from "./pathListStream.js";
+import { readStart } from "./prefix.js";
+
+/**
+ * Reads a byte stream into a {@link Tree}, never holding the input as one string: the streaming
+ * counterpart of `loadTree`, giving the same tree for the same bytes. The format is detected from the
+ * file name and the first bytes unless `options.format` forces one. JSON, JSON rows, CSV, TSV and path
+ * lists stream; YAML is read whole (it cannot be longer than the engine's longest string).
+ */
+export async function loadTreeFromStream(
+  chunks: AsyncIterable<Uint8Array>,
+  options: LoadOptions,
+): Promise<Tree> {
+  const file = options.file === undefined || options.file === "-" ? undefined : options.file;
+  try {
+    const start = await readStart(chunks);
+    let linked: LinkedNodes;
+    try {
+      if (start.complete && !/\S/.test(start.text))
+        throw new EspalierError("INPUT_EMPTY", "the input is empty");
+      const format = options.format ?? detectFormat(start.text, file, options);
+      linked = await linkedNodes(start.chunks, format, options);
+    } catch (error) {
+      await start.close();
+      throw error;
+    }
+    return buildTree(linked, file);
+  } catch (error) {
+    if (error instanceof EspalierError && file !== undefined) throw error.inFile(file);
+    throw error;
+  }
+}
+
+async function linkedNodes(
+  chunks: AsyncIterable<Uint8Array>,
+  format: InputFormat,
+  options: LoadOptions,
+): Promise<LinkedNodes> {
+  switch (format) {
+    case "json":
+    case "rows": {
+      // A detected format is a guess from the first bytes; the first element decides, as in memory.
+      const loader = new JsonStreamLoader(options, options.format === undefined ? undefined : format);
+      for await (const chunk of chunks) loader.write(chunk);
+      return loader.end();
+    }
+    case "csv":
+    case "tsv":
+      return linkTable(await csvStreamTable(chunks, format === "csv" ? "," : "\t", options), options);
+    case "paths":
+      return pathListStream(chunks, options);
+    case "yaml":
+      return loadYaml(await wholeText(chunks), options);
+  }
+}
+
+/** The whole input as one string, for YAML; LIMIT_EXCEEDED when no string can hold it. */
+async function wholeText(chunks: AsyncIterable<Uint8Array>): Promise<string> {
+  const parts: Uint8Array[] = [];
+  let length = 0;
+  for await (const chunk of chunks) {
+    parts.push(chunk);
+    length += chunk.length;
+    if (length > constants.MAX_STRING_LENGTH) {
+      throw new EspalierError(
+        "LIMIT_EXCEEDED",
+        `YAML input longer than ${constants.MAX_STRING_LENGTH} bytes cannot be read; convert it to JSON, which streams`,
+      );
+    }
+  }
+  return new TextDecoder("utf-8", { ignoreBOM: true }).decode(Buffer.concat(parts, length));
+}

@@ -1,0 +1,32 @@
+import { describe, expect, it } from "vitest";
+import { heapToRestartWith } from "../../src/cli/heap.js";
+
+const GiB = 2 ** 30;
+const MiB = 2 ** 20;
+
+describe("heapToRestartWith", () => {
+  it("heapToRestartWith(small inputs) keeps the engine's default heap", () => {
+    expect(heapToRestartWith({ heapLimit: 2 * GiB, totalMemory: 8 * GiB, inputBytes: [40 * MiB] })).toBe(0);
+    expect(heapToRestartWith({ heapLimit: 2 * GiB, totalMemory: 8 * GiB, inputBytes: [] })).toBe(0);
+  });
+
+  it("heapToRestartWith(an input too big for the heap) asks for more, up to three quarters of memory", () => {
+    expect(heapToRestartWith({ heapLimit: 2 * GiB, totalMemory: 64 * GiB, inputBytes: [400 * MiB] })).toBe(
+      6656,
+    );
+    expect(heapToRestartWith({ heapLimit: 2 * GiB, totalMemory: 8 * GiB, inputBytes: [1024 * MiB] })).toBe(
+      6144,
+    );
+    // No room to grow: run as is.
+    expect(heapToRestartWith({ heapLimit: 4 * GiB, totalMemory: 4 * GiB, inputBytes: [1024 * MiB] })).toBe(0);
+  });
+
+  it("heapToRestartWith(a pipe) assumes ten million nodes may come", () => {
+    expect(heapToRestartWith({ heapLimit: 1 * GiB, totalMemory: 16 * GiB, inputBytes: [undefined] })).toBe(
+      4352,
+    );
+    expect(heapToRestartWith({ heapLimit: 4.5 * GiB, totalMemory: 16 * GiB, inputBytes: [undefined] })).toBe(
+      0,
+    );
+  });
+});

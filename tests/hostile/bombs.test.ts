@@ -1,0 +1,138 @@
+import { describe, expect, it } from "vitest";
+import type { InputFormat } from "../../src/load/types.js";
+import { cli } from "../helpers/cli.js";
+import { oneErrorLine } from "./error-line.js";
+
+/** A YAML document whose aliases would expand to 9^levels values (the "billion laughs" shape). */
+function laughs(levels: number): string {
+  const lines = [`l0: &l0 [${Array(9).fill('"lol"').join(", ")}]`];
+  for (let k = 1; k < levels; k++)
+    lines.push(
+      `l${k}: &l${k} [${Array(9)
+        .fill(`*l${k - 1}`)
+        .join(", ")}]`,
+    );
+  return lines.join("\n");
+}
+
+/** The same with node objects: each level a node whose nine children are aliases of the level below. */
+function nodeLaughs(levels: number): string {
+  const lines = ["l0: &l0 {name: lol}"];
+  for (let k = 1; k < levels; k++)
+    lines.push(
+      `l${k}: &l${k} {name: n${k}, children: [${Array(9)
+        .fill(`*l${k - 1}`)
+        .join(", ")}]}`,
+    );
+  return lines.join("\n");
+}
+
+async function timed<T>(run: () => Promise<T>): Promise<{ value: T; ms: number }> {
+  const start = performance.now();
+  const value = await run();
+  return { value, ms: performance.now() - start };
+}
+
+describe("espalier - (resource bombs)", () => {
+  it("a billion-laughs YAML document is never expanded: an error or a small tree, at once", async () => {
+    // Nine levels of nine aliases each: 387,420,489 leaves if aliases were expanded.
+    const scalars = `${laughs(9)}\nname: root\nchildren: *l8\n`;
+    const a = await timed(() => cli(["-", "--input-format", "yaml"], { stdin: scalars }));
+    expect(oneErrorLine(a.value).code).toBe("SHAPE");
+    expect(a.ms).toBeLessThan(3000);
+
+    // The same with node objects: an alias placed a second time would give a node two parents.
+    const nodes = `${nodeLaughs(9)}\nname: root\nchildren: [*l8]\n`;
+    const b = await timed(() => cli(["-", "--input-format", "yaml"], { stdin: nodes }));
+    expect(oneErrorLine(b.value).code).toBe("TWO_PARENTS");
+    expect(b.ms).toBeLessThan(3000);
+
+    // Aliases inside a kept field: the label shows the field as written, not expanded.
+    const field = `${laughs(9)}\nname: root\nchildren:\n  - name: k\n    team: *l8\n`;
+    const c = await timed(() => cli(["-", "--input-format", "yaml", "--label", "{team}"], { stdin: field }));
+    expect(c.value.code, c.value.stderr).toBe(0);
+    expect(c.value.stdout.length).toBeLessThan(1000);
+    expect(c.ms).toBeLessThan(3000);
+  });
+
+  it("a 10 MB name does not flood the terminal: text lines stay short, JSON keeps the data whole", async () => {
+    const name = "q".repeat(10 * 1024 * 1024);
+    const stdin = JSON.stringify({ name: "root", children: [{ name }, { name: "b" }] });
+    const text = await cli(["-", "--budget", "5"], { stdin });
+    expect(text.code, text.stderr).toBe(0);
+    for (const line of text.stdout.split("\n")) expect(line.length).toBeLessThan(600);
+    const json = await cli(["-", "--budget", "5", "--format", "json"], { stdin });
+    expect(JSON.parse(json.stdout).root.children[0].name).toBe(name);
+  });
+
+  it("a 10 MB focus that matches nothing fails at once with FOCUS_NO_MATCH and a short line", async () => {
+    const stdin = JSON.stringify({ name: "root", children: [{ name: "q".repeat(1_000_000) }] });
+    const spec = `${"q".repeat(10 * 1024 * 1024)}x`;
+    const r = await timed(() => cli(["-", "--focus", spec], { stdin }));
+    expect(oneErrorLine(r.value).code).toBe("FOCUS_NO_MATCH");
+    expect(r.value.stderr.length).toBeLessThan(5000);
+    expect(r.ms).toBeLessThan(3000);
+  });
+
+  it("a focus of 100,000 segments that matches nothing fails at once", async () => {
+    const spec = Array(100_000).fill("a").join("/");
+    const r = await timed(() => cli(["-", "--focus", spec], { stdin: "a/a\na/b\n" }));
+    expect(oneErrorLine(r.value).code).toBe("FOCUS_NO_MATCH");
+    expect(r.ms).toBeLessThan(3000);
+  });
+
+  it("ten thousand foci (paths, row ids, globs) are resolved and all shown", async () => {
+    const paths: string[] = [];
+    for (let d = 0; d < 100; d++) for (let f = 0; f < 200; f++) paths.push(`quill/d${d}/f${f}`);
+    const stdin = `${paths.join("\n")}\n`;
+    const foci = paths.filter((_, k) => k % 2 === 0).map((p) => p.slice("quill/".length));
+    expect(foci).toHaveLength(10_000);
+    const focusArgs = foci.flatMap((f) => ["--focus", f]);
+    const r = await timed(() => cli(["-", ...focusArgs, "--budget", "20101", "--format", "json"], { stdin }));
+    expect(r.value.code, r.value.stderr).toBe(0);
+    expect(JSON.parse(r.value.stdout).foci).toHaveLength(10_000);
+    expect(r.ms).toBeLessThan(10_000);
+
+    const rows = ["id,parent", "q,", ...Array.from({ length: 10_000 }, (_, k) => `p${k},q`)].join("\n");
+    const ids = Array.from({ length: 10_000 }, (_, k) => ["--focus", `p${k}`]).flat();
+    const byId = await timed(() =>
+      cli(["-", "--input-format", "csv", ...ids, "--budget", "10001"], { stdin: rows }),
+    );
+    expect(byId.value.code, byId.value.stderr).toBe(0);
+    expect(byId.value.stdout.split("\n").filter((l) => l.includes("* p"))).toHaveLength(10_000);
+    expect(byId.ms).toBeLessThan(10_000);
+
+    const globs = Array.from({ length: 10_000 }, (_, k) => ["--focus", `d${k % 100}/f${k % 200}*`]).flat();
+    const byGlob = await timed(() =>
+      cli(["-", ...globs, "--budget", "20101", "--format", "json"], { stdin }),
+    );
+    expect(byGlob.value.code, byGlob.value.stderr).toBe(0);
+    expect(byGlob.ms).toBeLessThan(10_000);
+  });
+
+  it("--max-nodes N refuses bigger inputs in every format with LIMIT_EXCEEDED at the node past the limit", async () => {
+    const inputs: [InputFormat, string, { line?: number; row?: number }][] = [
+      ["paths", "q/a\nq/b\nq/c\n", { line: 3 }],
+      ["csv", "id,parent\n1,\n2,1\n3,1\n4,1\n", { row: 4 }],
+      ["tsv", "id\tparent\n1\t\n2\t1\n3\t1\n4\t1\n", { row: 4 }],
+      [
+        "rows",
+        '[{"id":"1","parent":""},{"id":"2","parent":"1"},{"id":"3","parent":"1"},{"id":"4","parent":"1"}]',
+        {},
+      ],
+      // JSON nodes carry no line yet (docs/reliability.md): only the code is checked.
+      ["json", '{"name": "q", "children": [\n{"name": "a"},\n{"name": "b"},\n{"name": "c"}]}', {}],
+      ["yaml", "name: q\nchildren:\n  - name: a\n  - name: b\n  - name: c\n", { line: 5 }],
+    ];
+    for (const [format, stdin, at] of inputs) {
+      const over = await cli(["-", "--input-format", format, "--max-nodes", "3"], { stdin });
+      const e = oneErrorLine(over);
+      expect(e.code, format).toBe("LIMIT_EXCEEDED");
+      if (at.line !== undefined) expect(e.line, format).toBe(at.line);
+      if (at.row !== undefined) expect(e.row, format).toBe(at.row);
+      const fits = await cli(["-", "--input-format", format, "--max-nodes", "4"], { stdin });
+      expect(fits.code, `${format}: ${fits.stderr}`).toBe(0);
+    }
+    expect(oneErrorLine(await cli(["-", "--max-nodes", "0"], { stdin: "a\n" })).code).toBe("USAGE");
+  });
+});

@@ -1,0 +1,132 @@
+import { describe, expect, it } from "vitest";
+import { loadTree } from "../../src/load/index.js";
+import { renderJson } from "../../src/render/json.js";
+import { renderText } from "../../src/render/text.js";
+import { prepare, summarize } from "../../src/summarize.js";
+import { cli } from "../helpers/cli.js";
+import { caught, opts } from "../load/helpers.js";
+import { oneErrorLine } from "./error-line.js";
+
+const N = 1_000_000;
+
+describe("espalier - (faults of structure): each named by its row or line", () => {
+  it("a row that is its own parent: CYCLE at its row", async () => {
+    const r = await cli(["-", "--input-format", "csv"], { stdin: "id,parent\n1,\n2,2\n" });
+    expect(oneErrorLine(r)).toMatchObject({ code: "CYCLE", row: 2 });
+  });
+
+  it("a longer cycle: CYCLE at its first row, also in JSON rows", async () => {
+    const csv = await cli(["-", "--input-format", "csv"], { stdin: "id,parent\n1,\n2,4\n3,2\n4,3\n" });
+    expect(oneErrorLine(csv)).toMatchObject({ code: "CYCLE", row: 2 });
+    const rows = '[{"id":"r","parent":""},{"id":"a","parent":"b"},{"id":"b","parent":"a"}]';
+    expect(oneErrorLine(await cli(["-", "--input-format", "rows"], { stdin: rows }))).toMatchObject({
+      code: "CYCLE",
+      row: 2,
+    });
+  });
+
+  it("a cycle with no top-level row at all: CYCLE, not an empty tree", async () => {
+    const r = await cli(["-", "--input-format", "csv"], { stdin: "id,parent\n1,2\n2,1\n" });
+    expect(oneErrorLine(r)).toMatchObject({ code: "CYCLE", row: 1 });
+  });
+
+  it("a duplicate id: DUPLICATE_ID at the second row", async () => {
+    const r = await cli(["-", "--input-format", "csv"], { stdin: "id,parent\n1,\n2,1\n2,1\n" });
+    expect(oneErrorLine(r)).toMatchObject({ code: "DUPLICATE_ID", row: 3 });
+  });
+
+  it("a missing parent: MISSING_PARENT at the row that names it", async () => {
+    const r = await cli(["-", "--input-format", "tsv"], { stdin: "id\tparent\n1\t\n2\t9\n" });
+    expect(oneErrorLine(r)).toMatchObject({ code: "MISSING_PARENT", row: 2 });
+  });
+
+  it("a node with two parents (a YAML alias placed twice): TWO_PARENTS at the alias", async () => {
+    const yaml = "name: quill\nchildren:\n  - &a {name: ledger}\n  - *a\n";
+    expect(oneErrorLine(await cli(["-", "--input-format", "yaml"], { stdin: yaml }))).toMatchObject({
+      code: "TWO_PARENTS",
+      line: 4,
+      column: 5,
+    });
+    const keyed = "name: quill\nchildren:\n  a: &x {children: {q: 1}}\n  b: *x\n";
+    expect(oneErrorLine(await cli(["-", "--input-format", "yaml"], { stdin: keyed }))).toMatchObject({
+      code: "TWO_PARENTS",
+      line: 4,
+    });
+  });
+
+  it("a repeated path: DUPLICATE_PATH at the second line or row", async () => {
+    expect(
+      oneErrorLine(await cli(["-", "--input-format", "paths"], { stdin: "a/b\na/c\na/b\n" })),
+    ).toMatchObject({
+      code: "DUPLICATE_PATH",
+      line: 3,
+    });
+    expect(
+      oneErrorLine(await cli(["-", "--input-format", "csv"], { stdin: "path\na/b\na/b\n" })),
+    ).toMatchObject({
+      code: "DUPLICATE_PATH",
+      row: 2,
+    });
+  });
+
+  it("duplicate sibling names stay addressable: the N-th gets the path suffix ~~N, accepted back as a focus", async () => {
+    const stdin = JSON.stringify({
+      name: "r",
+      children: [
+        { name: "x", size: 1 },
+        { name: "x", size: 2 },
+      ],
+    });
+    const all = await cli(["-", "--format", "json"], { stdin });
+    expect(JSON.parse(all.stdout).root.children.map((c: { path: string }) => c.path)).toEqual(["x", "x~~2"]);
+    const second = await cli(["-", "--format", "json", "--focus", "x~~2"], { stdin });
+    expect(second.code, second.stderr).toBe(0);
+    const focused = JSON.parse(second.stdout).root.children.filter((c: { focus: boolean }) => c.focus);
+    expect(focused.map((c: { size: number }) => c.size)).toEqual([2]);
+  });
+});
+
+/** `{"name":"n0","children":[{"name":"n1","children":[…]}]}`, `depth` nodes deep. */
+function chainJson(depth: number): string {
+  const open: string[] = new Array(depth);
+  for (let i = 0; i < depth; i++) open[i] = `{"name":"n${i}","size":1,"children":[`;
+  return `${open.join("")}${"]}".repeat(depth)}`;
+}
+
+describe("a million nodes deep or wide (no recursion on the input's shape)", () => {
+  it("loadTree(json) -> summarize -> text and JSON of a chain 1,000,000 deep: budget 40, and a focus at the bottom", () => {
+    const prepared = prepare(loadTree(chainJson(N), opts({ format: "json" })));
+    const result = summarize(prepared, { foci: [], budget: 40, importance: "depth" });
+    const text = renderText(result.view, { units: "plain", sizes: true });
+    expect(text.split("\n").length - 1).toBeLessThanOrEqual(40);
+    const doc = JSON.parse(
+      renderJson(result.view, { budget: 40, lines: result.selection.lines, foci: [], labels: false }),
+    );
+    expect(doc.totals).toEqual({ nodes: N, size: N });
+
+    // The focus and its N - 1 ancestors are all forced: N lines, one each.
+    const bottom = Array.from({ length: N - 1 }, (_, i) => `n${i + 1}`).join("/");
+    const tight = () => summarize(prepared, { foci: [bottom], budget: N - 1, importance: "depth" });
+    expect(caught(tight).code).toBe("BUDGET_TOO_SMALL");
+    const deep = summarize(prepared, { foci: [bottom], budget: N, importance: "depth", chains: true });
+    expect(deep.selection.admitted.length).toBe(N);
+    // Chained only children share one line; without chains the text would hold a million squared
+    // spaces of indentation, past the longest string the engine allows (see docs/reliability.md).
+    const line = renderText(deep.view, { units: "plain", sizes: true, chains: true });
+    expect(line.split("\n")).toHaveLength(2);
+    expect(line).toContain(` / n${N - 1}  ${N} nodes`);
+  });
+
+  it("espalier - of a path list with a node of 1,000,000 children, within budget 40", async () => {
+    const lines = new Array<string>(N);
+    for (let i = 0; i < N; i++) lines[i] = `${i % 7}\tquill/c${i}`;
+    const r = await cli(["-", "--input-format", "paths", "--budget", "40", "--format", "json"], {
+      stdin: lines.join("\n"),
+    });
+    expect(r.code, r.stderr).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.lines).toBeLessThanOrEqual(40);
+    expect(doc.totals.nodes).toBe(N + 1);
+    expect(doc.root.children.length + doc.root.hidden.children).toBe(N);
+  });
+});

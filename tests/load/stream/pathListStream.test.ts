@@ -1,0 +1,109 @@
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { opts } from "../helpers.js";
+import {
+  cutsFor,
+  everyByte,
+  expectSameTree,
+  loadInMemory,
+  loadStreamed,
+  outcomeOf,
+  outcomeOfAsync,
+  type Rng,
+  rng,
+  summaries,
+  utf8,
+} from "./helpers.js";
+
+const SEGMENTS = [
+  "tidewater",
+  "services",
+  "ledger",
+  "é",
+  "日本",
+  "😀.png",
+  "a b",
+  ".",
+  "..",
+  "x".repeat(20),
+  "~1",
+];
+
+/** A path list: sized or not, LF or CRLF, blank lines, absolute or relative, directories after contents. */
+function pathList(r: Rng, lines: number): string {
+  const sized = r.chance(0.5);
+  const eol = r.chance(0.5) ? "\n" : "\r\n";
+  const seen = new Set<string>();
+  const out: string[] = [];
+  const lead = r.pick(["", "/", "./"]);
+  for (let k = 0; k < lines; k++) {
+    const depth = r.int(1, 4);
+    const parts = Array.from({ length: depth }, () => r.pick(SEGMENTS));
+    let path = lead + parts.join("/");
+    if (r.chance(0.1)) path += "/";
+    if (seen.has(path.replace(/\/+$/, ""))) continue;
+    seen.add(path.replace(/\/+$/, ""));
+    if (r.chance(0.1)) out.push(r.pick(["", "  ", "\t"]));
+    out.push(sized ? `${r.pick(["0", "12", "4096", "1.5", "1e3"])}\t${path}` : path);
+  }
+  const text = out.join(eol);
+  return r.chance(0.5) ? text + eol : text;
+}
+
+function awkward(bytes: Uint8Array): number[] {
+  const at: number[] = [];
+  bytes.forEach((b, k) => {
+    if (b === 0x0d || b === 0x0a || b >= 0x80 || b === 0x09) at.push(k);
+  });
+  return at;
+}
+
+describe("loadTreeFromStream(paths)", () => {
+  it("loadTreeFromStream(paths) builds the tree loadTree builds and the same summaries, however the bytes are cut", async () => {
+    await fc.assert(
+      fc.asyncProperty(fc.integer(), fc.integer({ min: 1, max: 40 }), async (seed, lines) => {
+        const r = rng(seed);
+        const bytes = utf8(pathList(r, lines));
+        const options = opts({ format: r.chance(0.5) ? "paths" : undefined, file: "tidewater.paths" });
+        const cuts = cutsFor(r, bytes.length, r.int(0, 16), awkward(bytes));
+        const expected = outcomeOf(() => loadInMemory(bytes, options));
+        const actual = await outcomeOfAsync(() => loadStreamed(bytes, options, cuts));
+        if (!("tree" in expected) || !("tree" in actual)) {
+          expect(actual).toEqual(expected);
+          return;
+        }
+        expectSameTree(actual.tree, expected.tree);
+        const focus = r.int(0, expected.tree.length - 1);
+        const budget = expected.tree.depth[focus] + r.int(1, 25);
+        expect(summaries(actual.tree, focus, budget)).toEqual(summaries(expected.tree, focus, budget));
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  it("loadTreeFromStream(paths) reads single-byte chunks: a CRLF and a multi-byte character cut in two", async () => {
+    const bytes = utf8("4096\t./services\r\n12\t./services/ledger é.ts\r\n\r\n7\t./日本/😀.png");
+    const tree = await loadStreamed(bytes, opts({ format: "paths" }), everyByte(bytes.length));
+    expectSameTree(tree, loadInMemory(bytes, opts({ format: "paths" })));
+    expect(tree.name).toEqual([".", "services", "ledger é.ts", "日本", "😀.png"]);
+    expect([...tree.origin]).toEqual([1, 1, 2, 4, 4]);
+  });
+
+  it("loadTreeFromStream(paths) reports errors at the lines loadTree reports", async () => {
+    const cases = ["a\na/b\n\na/b\n", "1\ta\n4.0K\ta/b\n", "1\ta\na/b\n", "1\ta\n2\t\n", " \n\t\n", ""];
+    for (const text of cases) {
+      const bytes = utf8(text);
+      const options = opts({ format: "paths", file: "t.paths" });
+      const expected = outcomeOf(() => loadInMemory(bytes, options));
+      expect(expected).toHaveProperty("code");
+      for (const cuts of [[], everyByte(bytes.length)]) {
+        expect(await outcomeOfAsync(() => loadStreamed(bytes, options, cuts))).toEqual(expected);
+      }
+    }
+    const limit = opts({ format: "paths", maxNodes: 3 });
+    expect(await outcomeOfAsync(() => loadStreamed(utf8("a\nb\nc/d/e\n"), limit, [3]))).toEqual({
+      code: "LIMIT_EXCEEDED",
+      pos: { line: 3 },
+    });
+  });
+});
