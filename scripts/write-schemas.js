@@ -1,5 +1,6 @@
 // Writes docs/*.schema.json from the zod schemas in the built package (run after `npm run build`).
 import { writeFileSync } from "node:fs";
+import { configJsonSchema } from "../dist/cli/config.js";
 import { diffJsonSchema } from "../dist/render/diff-json-schema.js";
 import { summaryJsonSchema } from "../dist/render/summary-json-schema.js";
 
@@ -9,3 +10,4 @@ const write = (name, schema) => {
 };
 write("summary.schema.json", summaryJsonSchema());
 write("diff.schema.json", diffJsonSchema());
+write("config.schema.json", configJsonSchema());

@@ -40,9 +40,13 @@ export async function loadConfig(io: CliIO, explicit: string | undefined): Promi
       bytes = await io.readFile(file);
     } catch (err) {
       if (explicit === undefined && (err as NodeJS.ErrnoException).code === "ENOENT") continue;
-      throw new EspalierError("IO", `cannot read the config ${file}: ${(err as NodeJS.ErrnoException).code ?? err}`, {
-        file,
-      });
+      throw new EspalierError(
+        "IO",
+        `cannot read the config ${file}: ${(err as NodeJS.ErrnoException).code ?? err}`,
+        {
+          file,
+        },
+      );
     }
     return { file, values: parseConfig(new TextDecoder().decode(bytes), file) };
   }
@@ -51,7 +55,7 @@ export async function loadConfig(io: CliIO, explicit: string | undefined): Promi
 
 /** Validates config text; returns only the keys it sets. */
 export function parseConfig(text: string, file: string): ConfigValues {
-  const doc = parseDocument(text, { prettyErrors: false });
+  const doc = parseDocument(text);
   if (doc.errors.length > 0) {
     const e = doc.errors[0];
     throw new EspalierError("USAGE", `the config is not valid YAML: ${e.message.split("\n")[0]}`, {
@@ -86,8 +90,18 @@ export function mergeConfig(
 ): ConfigValues {
   const out: ConfigValues = { ...cli };
   for (const [key, value] of Object.entries(config)) {
-    const given = sourceOf(key) === "cli" || (key === "focus" && Array.isArray(cli.focus) && cli.focus.length > 0);
+    const given =
+      sourceOf(key) === "cli" || (key === "focus" && Array.isArray(cli.focus) && cli.focus.length > 0);
     if (!given) out[key] = value;
   }
   return out;
+}
+
+/** The JSON Schema (draft 2020-12) of the config file, published as docs/config.schema.json. */
+export function configJsonSchema(): Record<string, unknown> {
+  return {
+    $id: "https://espalier.invalid/schema/config-1.json",
+    title: "espalier configuration",
+    ...z.toJSONSchema(configSchema, { target: "draft-2020-12", io: "input" }),
+  };
 }

@@ -12,6 +12,7 @@ import { palette } from "../render/palette.js";
 import { renderSvg } from "../render/svg.js";
 import { DIFF_EXAMPLES } from "./diff-help.js";
 import { type DiffCliOptions, diffOptionsSchema } from "./diff-options.js";
+import { effectiveOptions, printConfig } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
 import type { CliIO } from "./io.js";
 import { PSEUDONYM_KEY_ENV } from "./options.js";
@@ -58,13 +59,16 @@ export function addDiffCommand(
     .showHelpAfterError("(run espalier diff --help for usage and examples)")
     .exitOverride()
     .configureOutput({ writeOut: (s) => io.stdout.write(s), writeErr: (s) => io.stderr.write(s) })
-    .action(async (oldInput: string, newInput: string, raw: Record<string, unknown>) => {
+    .action(async (oldInput: string, newInput: string, raw: Record<string, unknown>, command: Command) => {
+      const { values, configFile } = await effectiveOptions(command, raw, io);
       const parsed = diffOptionsSchema.safeParse({
-        ...raw,
-        pseudonymize: raw.pseudonymize === true,
-        exitCode: raw.exitCode === true,
+        ...values,
+        pseudonymize: values.pseudonymize === true,
+        exitCode: values.exitCode === true,
+        chains: values.chains !== false,
       });
       if (!parsed.success) throw new EspalierError("USAGE", parsed.error.issues[0].message);
+      if (raw.printConfig === true) return onOutput(printConfig(parsed.data, configFile), EXIT.ok);
       const out = await diffCommand(oldInput, newInput, parsed.data, io);
       onOutput(out.text, out.exitCode);
     });

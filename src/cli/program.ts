@@ -3,6 +3,7 @@ import { EspalierError } from "../errors.js";
 import { importances } from "../interest/importance.js";
 import { inputFormats } from "../load/types.js";
 import { addDiffCommand } from "./diff-command.js";
+import { effectiveOptions, printConfig, requireInput } from "./effective-options.js";
 import { SUMMARY_EXAMPLES } from "./help.js";
 import type { CliIO } from "./io.js";
 import { outputFormats, summaryOptionsSchema } from "./options.js";
@@ -24,7 +25,7 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
         "and path lists; scores every node by its degree of interest (Furnas) against the foci.",
     )
     .version(VERSION, "-V, --version")
-    .argument("<input>", "file to read, or - for standard input")
+    .argument("[input]", "file to read, or - for standard input")
     .option("-f, --focus <path>", "focus path, row id or glob; repeatable", collect, [])
     .option("--focus-from <file>", "read more foci from a file, one per line (- for standard input)")
     .option("-b, --budget <lines>", "line budget (default: terminal height, else 40)")
@@ -62,21 +63,29 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
     .option("-o, --output <file>", "write to this file, whole or not at all, instead of standard output")
     .option("--width <columns>", "widest text line, in terminal columns (default: terminal width)")
     .option("--no-chains", "give every node its own line (by default a run of only children shares one)")
+    .option("--config <file>", "read options from this YAML file (default: .espalier.yaml if present)")
+    .option("--no-config", "ignore any config file")
+    .option(
+      "--print-config",
+      "print the effective configuration (flags over config file over defaults) and stop",
+    )
     .addHelpText("after", SUMMARY_EXAMPLES)
     .showHelpAfterError("(run espalier --help for usage and examples)")
     .exitOverride()
     .configureOutput({ writeOut: (s) => io.stdout.write(s), writeErr: (s) => io.stderr.write(s) })
-    .action(async (input: string, raw: Record<string, unknown>) => {
+    .action(async (input: string | undefined, raw: Record<string, unknown>, command: Command) => {
+      const { values, configFile } = await effectiveOptions(command, raw, io);
       const parsed = summaryOptionsSchema.safeParse({
-        ...raw,
-        pseudonymize: raw.pseudonymize === true,
-        chains: raw.chains !== false,
+        ...values,
+        pseudonymize: values.pseudonymize === true,
+        chains: values.chains !== false,
       });
       if (!parsed.success) {
         const issue = parsed.error.issues[0];
         throw new EspalierError("USAGE", issue.message);
       }
-      onOutput(await summaryCommand(input, parsed.data, io));
+      if (raw.printConfig === true) return onOutput(printConfig(parsed.data, configFile));
+      onOutput(await summaryCommand(requireInput(input), parsed.data, io));
     });
   addDiffCommand(program, io, onOutput);
   return program;

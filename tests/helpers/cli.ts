@@ -19,6 +19,8 @@ export async function cli(
     env?: Record<string, string>;
     tty?: { rows: number };
     outputFiles?: OutputFiles;
+    /** Files served before the real file system (e.g. a config file in the current directory). */
+    files?: Record<string, string>;
   } = {},
 ): Promise<CliResult> {
   let stdout = "";
@@ -42,7 +44,10 @@ export async function cli(
       typeof options.stdin === "string" || options.stdin === undefined
         ? Buffer.from(options.stdin ?? "", "utf8")
         : Buffer.from(options.stdin),
-    readFile: (p: string) => readFile(p),
+    readFile: (p: string) =>
+      options.files && p in options.files
+        ? Promise.resolve(Buffer.from(options.files[p], "utf8"))
+        : readFile(p),
     env: options.env ?? {},
     outputFiles: options.outputFiles,
   });

@@ -1,0 +1,83 @@
+import { describe, expect, it } from "vitest";
+import { parse } from "yaml";
+import { configSchema } from "../../src/cli/config.js";
+import { cli } from "../helpers/cli.js";
+
+const STDIN = "10\ta/x\n20\ta/y\n5\tb/z\n7\tb/w\n";
+
+describe("the project config file (.espalier.yaml, --config)", () => {
+  it("is read from .espalier.yaml in the current directory when present", async () => {
+    const r = await cli(["-"], { stdin: STDIN, files: { ".espalier.yaml": "budget: 3\nfocus: [a/x]\n" } });
+    expect(r.code, r.stderr).toBe(0);
+    expect(r.stdout.trimEnd().split("\n")).toHaveLength(3);
+    expect(r.stdout).toContain("* x");
+  });
+
+  it("gives way to flags on the command line", async () => {
+    const r = await cli(["-", "--budget", "5", "--focus", "b/w"], {
+      stdin: STDIN,
+      files: { ".espalier.yaml": "budget: 3\nfocus: [a/x]\n" },
+    });
+    expect(r.stdout.trimEnd().split("\n")).toHaveLength(5);
+    expect(r.stdout).toContain("* w");
+    expect(r.stdout).not.toContain("* x");
+  });
+
+  it("is read from --config FILE, and ignored with --no-config", async () => {
+    const files = { "ci/espalier.yaml": "format: json\nbudget: 2\n", ".espalier.yaml": "budget: 3\n" };
+    const viaFlag = await cli(["-", "--config", "ci/espalier.yaml"], { stdin: STDIN, files });
+    expect(JSON.parse(viaFlag.stdout).budget).toBe(2);
+    const none = await cli(["-", "--no-config"], { stdin: STDIN, files });
+    expect(none.stdout.trimEnd().split("\n")).toHaveLength(7);
+  });
+
+  it("rejects an unknown key or a bad value with USAGE naming the file", async () => {
+    const bad = await cli(["-"], { stdin: STDIN, files: { ".espalier.yaml": "budgett: 3\n" } });
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toContain(".espalier.yaml");
+    expect(bad.stderr).toContain("[USAGE]");
+    const value = await cli(["-"], { stdin: STDIN, files: { ".espalier.yaml": "budget: -4\n" } });
+    expect(value.code).toBe(2);
+    const yaml = await cli(["-"], { stdin: STDIN, files: { ".espalier.yaml": "budget: [3\n" } });
+    expect(yaml.code).toBe(2);
+    expect(yaml.stderr).toMatch(/\.espalier\.yaml:\d+:\d+/);
+  });
+
+  it("--print-config prints the effective configuration as a valid config file, without an input", async () => {
+    const r = await cli(["--print-config", "--budget", "9"], {
+      files: { ".espalier.yaml": "parentField: manager\nlabel: '{title}'\n" },
+    });
+    expect(r.code, r.stderr).toBe(0);
+    const printed = parse(r.stdout);
+    expect(printed).toMatchObject({ budget: 9, parentField: "manager", label: "{title}", format: "text" });
+    expect(configSchema.safeParse(printed).success).toBe(true);
+  });
+
+  it("also configures espalier diff", async () => {
+    const files = { ".espalier.yaml": "exitCode: true\n" };
+    const same = await cli(["diff", "-", "fixtures/quillfeather-costs.yaml"], {
+      stdin: "name: x\n",
+      files,
+    });
+    expect(same.code).toBe(1);
+  });
+});
+
+describe("docs/config.schema.json", () => {
+  it("is exactly the JSON Schema generated from the zod config schema, and accepts a typical CI config", async () => {
+    const { readFileSync } = await import("node:fs");
+    const { configJsonSchema } = await import("../../src/cli/config.js");
+    const Ajv2020 = (await import("ajv/dist/2020.js")).default;
+    const published = JSON.parse(
+      readFileSync(new URL("../../docs/config.schema.json", import.meta.url), "utf8"),
+    );
+    expect(published).toEqual(JSON.parse(JSON.stringify(configJsonSchema())));
+    // Validated with Ajv, a general-purpose JSON Schema (draft 2020-12) validator from the registry.
+    const validate = new Ajv2020.default().compile(published);
+    const typical = parse(
+      "focus: [Q2417, 'services/**/test']\nbudget: 30\nparentField: manager\nsizeField: cost\nlabel: '{title} ({team})'\nformat: markdown\n",
+    );
+    expect(validate(typical), JSON.stringify(validate.errors)).toBe(true);
+    expect(validate({ budgett: 3 })).toBe(false);
+  });
+});
