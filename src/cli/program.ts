@@ -20,9 +20,9 @@ const collect = (value: string, previous: string[]) => [...previous, value];
 export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: number) => void): Command {
   const program = new Command("espalier")
     .description(
-      "Show the part of a large hierarchy that matters, plus enough context, within a line budget.\n" +
-        "Reads nested JSON or YAML, CSV/TSV tables linked by id and parent (or a path column), JSON rows,\n" +
-        "and path lists; scores every node by its degree of interest (Furnas) against the foci.",
+      "Show the part of a large hierarchy that matters, plus enough context, within a line budget. " +
+        "Reads nested JSON or YAML, CSV/TSV tables linked by id and parent (or a path column), JSON rows " +
+        "and path lists, and scores every node by its degree of interest (Furnas) against the foci.",
     )
     .version(VERSION, "-V, --version")
     .argument("[input]", "file to read, or - for standard input")
