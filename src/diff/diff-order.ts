@@ -1,4 +1,4 @@
-import type { NodeOrder } from "../interest/order.js";
+import { contextTieBreaks, type NodeOrder } from "../interest/order.js";
 import type { Measures } from "../model/measure.js";
 import type { Tree } from "../model/tree.js";
 import type { DiffInterest } from "./diff-interest.js";
@@ -22,9 +22,9 @@ export function diffOrder(
   scores: DiffInterest,
   changes: ChangeMeasures,
 ): NodeOrder {
-  const { value, distance, forced, onChangePath } = scores;
+  const { value, forced, onChangePath } = scores;
   const { depth } = tree;
-  const { count } = measures;
+  const rest = contextTieBreaks(tree, measures, scores);
   return (a, b) => {
     if (forced[a] !== forced[b]) return forced[b] - forced[a];
     if (forced[a]) return a - b;
@@ -35,9 +35,6 @@ export function diffOrder(
       const d = changeTotalIn(changes, b) - changeTotalIn(changes, a);
       return d !== 0 ? d : a - b;
     }
-    if (distance[a] !== distance[b]) return distance[a] - distance[b];
-    if (depth[a] !== depth[b]) return depth[a] - depth[b];
-    if (count[a] !== count[b]) return count[b] - count[a];
-    return a - b;
+    return rest(a, b);
   };
 }

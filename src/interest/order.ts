@@ -17,13 +17,26 @@ import type { Interest } from "./doi.js";
 export type NodeOrder = (a: number, b: number) => number;
 
 export function nodeOrder(tree: Tree, measures: Measures, scores: Interest): NodeOrder {
-  const { value, distance, forced } = scores;
-  const { depth } = tree;
-  const { count } = measures;
+  const { value, forced } = scores;
+  const rest = contextTieBreaks(tree, measures, scores);
   return (a, b) => {
     if (forced[a] !== forced[b]) return forced[b] - forced[a];
     if (forced[a]) return a - b;
     if (value[a] !== value[b]) return value[b] - value[a];
+    return rest(a, b);
+  };
+}
+
+/** Tie-breaks 2 to 5 above (nearer a focus, shallower, bigger subtree, input order), shared with diffs. */
+export function contextTieBreaks(
+  tree: Tree,
+  measures: Measures,
+  scores: Pick<Interest, "distance">,
+): NodeOrder {
+  const { distance } = scores;
+  const { depth } = tree;
+  const { count } = measures;
+  return (a, b) => {
     if (distance[a] !== distance[b]) return distance[a] - distance[b];
     if (depth[a] !== depth[b]) return depth[a] - depth[b];
     if (count[a] !== count[b]) return count[b] - count[a];
