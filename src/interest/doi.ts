@@ -57,7 +57,7 @@ export function interest(tree: Tree, api: Float64Array, foci: Int32Array, scratc
   for (let i = 1; i < n; i++) {
     const p = parent[i];
     const own = 2 * depth[i] + M[i];
-    best[i] = own > best[p] ? own : best[p];
+    best[i] = Math.max(own, best[p]);
     value[i] = api[i] - depth[i] + best[i];
     if (distance[p] + 1 < distance[i]) distance[i] = distance[p] + 1;
   }
