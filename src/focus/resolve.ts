@@ -1,7 +1,7 @@
 import { EspalierError } from "../errors.js";
 import type { PathIndex } from "../model/paths.js";
 import { pseudonym } from "../model/pseudonym.js";
-import { parseSegment, splitPath } from "../model/segment.js";
+import { escapeSegment, parseSegment, splitPath } from "../model/segment.js";
 import { isGlob, matchGlob } from "./glob.js";
 import { suggestPath } from "./suggest.js";
 
@@ -73,7 +73,14 @@ export function resolveFoci(index: PathIndex, specs: readonly string[], pseudony
         continue;
       }
     }
-    const near = suggestPath(index, spec);
+    // With pseudonyms on, a suggestion must not print a real name either.
+    const near = suggestPath(
+      index,
+      spec,
+      pseudonymKey === undefined
+        ? undefined
+        : (i) => index.path(i, (j) => escapeSegment(pseudonym(pseudonymKey, tree.name[j]))),
+    );
     throw new EspalierError(
       "FOCUS_NO_MATCH",
       `focus ${JSON.stringify(spec)} matches no node${near !== undefined ? `; did you mean ${JSON.stringify(near)}?` : ""}`,

@@ -14,7 +14,11 @@ const MAX_LOOKUPS = 2_000;
  * take the child whose name is nearest by edit distance; a node anywhere whose name equals the spec's
  * last segment wins when there is one (the usual mistake is a wrong or missing ancestor).
  */
-export function suggestPath(index: PathIndex, spec: string): string | undefined {
+export function suggestPath(
+  index: PathIndex,
+  spec: string,
+  pathOf: (i: number) => string = (i) => index.path(i),
+): string | undefined {
   let raw: string[];
   try {
     raw = splitPath(spec);
@@ -31,8 +35,8 @@ export function suggestPath(index: PathIndex, spec: string): string | undefined 
   const { tree } = index;
   // A name that itself contains "/" typed unescaped ("@scope/pkg" for "@scope~1pkg").
   const joined = lenientResolve(index, 0, raw, 0, { left: MAX_LOOKUPS });
-  if (joined >= 0) return index.path(joined);
-  for (let i = 1; i < tree.length; i++) if (tree.name[i] === last) return index.path(i);
+  if (joined >= 0) return pathOf(joined);
+  for (let i = 1; i < tree.length; i++) if (tree.name[i] === last) return pathOf(i);
 
   let node = 0;
   for (const text of raw) {
@@ -58,7 +62,7 @@ export function suggestPath(index: PathIndex, spec: string): string | undefined 
         best = list[0];
       }
     }
-    return best >= 0 ? index.path(best) : node > 0 ? index.path(node) : undefined;
+    return best >= 0 ? pathOf(best) : node > 0 ? pathOf(node) : undefined;
   }
   return undefined;
 }

@@ -59,6 +59,13 @@ describe("resolveFoci(index, specs)", () => {
     expect(near.message).toContain('"src/test"');
   });
 
+  it("suggests a pseudonymous path, never a real name, when pseudonyms are on", () => {
+    const err = caught(() => resolveFoci(index, ["src/lbi/a.ts"], "secret"));
+    expect(err.code).toBe("FOCUS_NO_MATCH");
+    expect(err.message).toMatch(/anon-[0-9a-f]{12}\/anon-/);
+    expect(err.message).not.toContain("src/lib");
+  });
+
   it("throws FOCUS_SYNTAX for a ~ not followed by 0 or 1 (RFC 6901 section 3)", () => {
     expect(caught(() => resolveFoci(index, ["src/a~2b"])).code).toBe("FOCUS_SYNTAX");
   });
