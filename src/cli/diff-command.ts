@@ -2,7 +2,7 @@ import type { Command } from "commander";
 import { totalChanges } from "../diff/changes.js";
 import { diffTrees } from "../diff/diff-trees.js";
 import { EspalierError } from "../errors.js";
-import { loadTree } from "../load/index.js";
+import { loadTreeFromStream } from "../load/stream/index.js";
 import type { LoadOptions } from "../load/types.js";
 import type { Tree } from "../model/tree.js";
 import { renderDiffJson } from "../render/diff-json.js";
@@ -16,7 +16,9 @@ import { effectiveOptions, printConfig } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
 import type { CliIO } from "./io.js";
 import { PSEUDONYM_KEY_ENV } from "./options.js";
+import { withProgress } from "./progress.js";
 import { readInput } from "./read-input.js";
+import { readInputStream } from "./read-input-stream.js";
 import {
   defaultBudget,
   defaultWidth,
@@ -95,10 +97,8 @@ export async function diffCommand(
   const newOptions = toLoadOptions(newInput, opts);
   // Both versions get the same synthetic root name, so that it never shows as a change.
   const oldOptions = { ...toLoadOptions(oldInput, opts), rootName: newOptions.rootName };
-  const oldText = await readInput(io, oldInput);
-  const newText = await readInput(io, newInput);
-  const oldTree = load(oldText, oldInput, oldOptions);
-  const newTree = load(newText, newInput, newOptions);
+  const oldTree = await load(io, oldInput, oldOptions);
+  const newTree = await load(io, newInput, newOptions);
   const budget = opts.budget ?? defaultBudget(io);
   const result = diffTrees(oldTree, newTree, {
     foci,
@@ -141,9 +141,12 @@ export async function diffCommand(
   return { text, exitCode: opts.exitCode && differ ? EXIT.differences : EXIT.ok };
 }
 
-function load(text: string, input: string, options: LoadOptions): Tree {
+/** Loads one version as the summary loads its input: streamed, with progress, errors naming the file. */
+async function load(io: CliIO, input: string, options: LoadOptions): Promise<Tree> {
+  const source = await readInputStream(io, input);
   try {
-    return loadTree(text, options);
+    const chunks = withProgress(source.chunks, io, displayName(input), source.size);
+    return await loadTreeFromStream(chunks, options);
   } catch (err) {
     throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
   }

@@ -1,6 +1,7 @@
 import { type Command, CommanderError } from "commander";
 import { EspalierError } from "../errors.js";
 import { safeText } from "../render/escape.js";
+import { CONFIG_FILES } from "./config.js";
 import { EXIT } from "./exit-codes.js";
 import type { CliIO } from "./io.js";
 import { buildProgram } from "./program.js";
@@ -41,15 +42,21 @@ export async function run(argv: readonly string[], io: CliIO): Promise<number> {
 
 interface OutputTarget {
   file: string;
-  /** Files the command reads ("-" is standard input). */
+  /** Files the command reads ("-" is standard input), the config file included. */
   inputs: string[];
 }
 
-/** The --output file of the command about to run (given before or after a subcommand), with its inputs. */
+/**
+ * The --output file of the command about to run (given before or after a subcommand), with its inputs:
+ * the arguments, the --focus-from file and the config file it may read: --config FILE, else the
+ * default names (a name with no file behind it is skipped; when both exist, both are kept safe).
+ */
 function outputTarget(program: Command, action: Command): OutputTarget | undefined {
-  const file: unknown = action.opts().output ?? program.opts().output;
+  const opts = action.opts();
+  const file: unknown = opts.output ?? program.opts().output;
   if (typeof file !== "string" || file === "") return undefined;
-  const inputs = [...action.processedArgs, action.opts().focusFrom].filter(
+  const configs = opts.config === false ? [] : typeof opts.config === "string" ? [opts.config] : CONFIG_FILES;
+  const inputs = [...action.processedArgs, opts.focusFrom, ...configs].filter(
     (name): name is string => typeof name === "string",
   );
   return { file, inputs };

@@ -1,9 +1,15 @@
 import { EspalierError } from "../errors.js";
 import type { CliIO, StreamedInput } from "./io.js";
+import { type UnicodeEncoding, unicodeEncoding } from "./unicode-encoding.js";
+
+/** Largest piece of UTF-16 decoded at once, so that no string grows with the chunk. */
+const PIECE = 1 << 20;
 
 /**
  * Opens a named input ("-" is standard input) to be read in chunks; a failure to open or to read is IO.
- * Without `io.openInput`, reads it whole and hands it over as one chunk.
+ * Without `io.openInput`, reads it whole and hands it over as one chunk. The loaders read UTF-8: input
+ * that starts with a UTF-16 byte-order mark is decoded and handed over as UTF-8 (mark dropped), and
+ * then its size is unknown, as its UTF-8 bytes are not the file's.
  */
 export async function readInputStream(io: CliIO, name: string): Promise<StreamedInput> {
   let input: StreamedInput;
@@ -17,7 +23,10 @@ export async function readInputStream(io: CliIO, name: string): Promise<Streamed
   } catch (err) {
     throw ioError(name, err);
   }
-  return { size: input.size, chunks: guarded(input.chunks, name) };
+  const { start, chunks } = await peek(guarded(input.chunks, name), 2);
+  const encoding = unicodeEncoding(start);
+  if (encoding === "utf-8") return { size: input.size, chunks };
+  return { size: undefined, chunks: toUtf8(chunks, encoding) };
 }
 
 async function* once(bytes: Uint8Array): AsyncGenerator<Uint8Array> {
@@ -37,6 +46,52 @@ async function* guarded(chunks: AsyncIterable<Uint8Array>, name: string): AsyncG
     if (next.done) return;
     yield next.value;
   }
+}
+
+/** The first `want` bytes (fewer when the input is shorter), and every chunk again from the start. */
+async function peek(
+  source: AsyncGenerator<Uint8Array>,
+  want: number,
+): Promise<{ start: Uint8Array; chunks: AsyncGenerator<Uint8Array> }> {
+  const head: Uint8Array[] = [];
+  const start: number[] = [];
+  let done = false;
+  while (start.length < want) {
+    const next = await source.next();
+    if (next.done) {
+      done = true;
+      break;
+    }
+    head.push(next.value);
+    for (let k = 0; k < next.value.length && start.length < want; k++) start.push(next.value[k]);
+  }
+  async function* chunks(): AsyncGenerator<Uint8Array> {
+    try {
+      yield* head;
+      if (!done) yield* source;
+    } finally {
+      await source.return(undefined);
+    }
+  }
+  return { start: Uint8Array.from(start), chunks: chunks() };
+}
+
+/** UTF-16 chunks as UTF-8 chunks; a code unit or surrogate pair cut between chunks is joined up. */
+async function* toUtf8(
+  chunks: AsyncIterable<Uint8Array>,
+  encoding: UnicodeEncoding,
+): AsyncGenerator<Uint8Array> {
+  // ignoreBOM false: the decoder drops the byte-order mark; what does not decode becomes U+FFFD.
+  const decoder = new TextDecoder(encoding, { ignoreBOM: false });
+  const encoder = new TextEncoder();
+  for await (const chunk of chunks) {
+    for (let at = 0; at < chunk.length; at += PIECE) {
+      const text = decoder.decode(chunk.subarray(at, at + PIECE), { stream: true });
+      if (text !== "") yield encoder.encode(text);
+    }
+  }
+  const rest = decoder.decode();
+  if (rest !== "") yield encoder.encode(rest);
 }
 
 function ioError(name: string, err: unknown): EspalierError {

@@ -1,9 +1,11 @@
 import { EspalierError } from "../errors.js";
 import type { CliIO } from "./io.js";
+import { unicodeEncoding } from "./unicode-encoding.js";
 
 /**
- * Reads a named input ("-" is standard input) and decodes it as UTF-8. A byte-order mark is dropped;
- * bytes that are not valid UTF-8 become U+FFFD (the WHATWG decoder's replacement behaviour).
+ * Reads a named input ("-" is standard input) and decodes it: UTF-16 when it starts with a UTF-16
+ * byte-order mark, UTF-8 otherwise (see {@link unicodeEncoding}). The byte-order mark is dropped; bytes
+ * that do not decode become U+FFFD (the WHATWG decoder's replacement behaviour).
  */
 export async function readInput(io: CliIO, name: string): Promise<string> {
   let bytes: Buffer;
@@ -15,5 +17,5 @@ export async function readInput(io: CliIO, name: string): Promise<string> {
       file: name,
     });
   }
-  return new TextDecoder("utf-8", { ignoreBOM: false }).decode(bytes);
+  return new TextDecoder(unicodeEncoding(bytes), { ignoreBOM: false }).decode(bytes);
 }

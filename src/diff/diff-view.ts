@@ -1,7 +1,8 @@
-import { type HierarchyNode, hierarchy } from "d3-hierarchy";
+import type { HierarchyNode } from "d3-hierarchy";
 import type { Selection } from "../fit/select.js";
 import type { PathIndex } from "../model/paths.js";
 import { buildView, type Labeller } from "../view/build-view.js";
+import { hierarchyOf } from "../view/hierarchy-of.js";
 import type { Folded, ViewNode } from "../view/view-node.js";
 import { type ChangeCounts, type ChangeKind, changeKinds, KIND, kindName } from "./changes.js";
 import type { Combined } from "./combine.js";
@@ -40,9 +41,10 @@ export interface OldNames {
 }
 
 /**
- * The shown nodes of a combined tree as a d3-hierarchy tree (see `buildView`), each carrying its
- * change and the changes folded under it, so that at every shown node each count and the net size
- * change equal the node's own plus its shown children's plus its folded remainder's.
+ * The shown nodes of a combined tree as a d3-hierarchy tree (see `buildView`; built by `hierarchyOf`,
+ * in linear time however deep), each carrying its change and the changes folded under it, so that at
+ * every shown node each count and the net size change equal the node's own plus its shown children's
+ * plus its folded remainder's.
  */
 export function buildDiffView(
   index: PathIndex,
@@ -95,5 +97,5 @@ export function buildDiffView(
     if (i === 0) root = node;
     else byIndex.get(index.tree.parent[i])!.children.push(node);
   });
-  return hierarchy(root!);
+  return hierarchyOf(root!);
 }

@@ -2,6 +2,7 @@ import type { HierarchyNode } from "d3-hierarchy";
 import type { DiffTotals } from "../diff/diff-trees.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
 import { DIFF_FORMAT, type DiffSummary, type DiffSummaryNode } from "./diff-schema.js";
+import { jsonText } from "./json-text.js";
 
 export interface DiffJsonOptions {
   budget: number;
@@ -12,7 +13,7 @@ export interface DiffJsonOptions {
   labels: boolean;
 }
 
-/** The diff JSON object (see docs/diff.md and `diffSchema`). */
+/** The diff JSON object (see docs/diff.md and `diffSchema`). Iterative: any depth of view is fine. */
 export function toDiffSummary(
   view: HierarchyNode<DiffViewNode>,
   totals: DiffTotals,
@@ -32,9 +33,19 @@ export function toDiffSummary(
     net: node.net,
     ...(node.movedFrom !== null ? { movedFrom: node.movedFrom } : {}),
     ...(node.renamedFrom !== null ? { renamedFrom: node.renamedFrom } : {}),
-    children: node.children.map(convert),
+    children: [],
     hidden: node.hidden ? { ...node.hidden, changes: { ...node.hidden.changes } } : null,
   });
+  const root = convert(view.data);
+  const stack: [DiffViewNode, DiffSummaryNode][] = [[view.data, root]];
+  for (let top = stack.pop(); top !== undefined; top = stack.pop()) {
+    const [node, out] = top;
+    for (const child of node.children) {
+      const converted = convert(child);
+      out.children.push(converted);
+      stack.push([child, converted]);
+    }
+  }
   return {
     format: DIFF_FORMAT,
     match: options.by,
@@ -49,15 +60,15 @@ export function toDiffSummary(
       new: { ...totals.new },
     },
     foci: options.foci,
-    root: convert(view.data),
+    root,
   };
 }
 
-/** The diff as JSON text (RFC 8259), two-space indented, ending in a newline. */
+/** The diff as JSON text (RFC 8259), two-space indented, ending in a newline (see {@link jsonText}). */
 export function renderDiffJson(
   view: HierarchyNode<DiffViewNode>,
   totals: DiffTotals,
   options: DiffJsonOptions,
 ): string {
-  return `${JSON.stringify(toDiffSummary(view, totals, options), null, 2)}\n`;
+  return jsonText(toDiffSummary(view, totals, options), "diff");
 }

@@ -102,6 +102,38 @@ describe("espalier <input> --output FILE", () => {
     expect(await readFile(foci, "utf8")).toBe("a\n");
   });
 
+  it("refuses to overwrite the config file in use: --config FILE, or .espalier.yaml in the current folder", async () => {
+    const input = join(dir, "tree.paths");
+    await writeFile(input, LIST);
+    const config = join(dir, "espalier.yaml");
+    await writeFile(config, "budget: 9\n");
+    for (const args of [
+      [input, "--config", config, "--output", config],
+      ["diff", input, input, "--config", config, "-o", config],
+    ]) {
+      const r = await cli(args);
+      expect(r.code, args.join(" ")).toBe(2);
+      expect(errorCode(r.stderr)).toBe("USAGE");
+      expect(await readFile(config, "utf8")).toBe("budget: 9\n");
+    }
+    // The default name is looked up in the current folder, here faked to be the temporary one.
+    const files: OutputFiles = {
+      ...nodeOutputFiles,
+      realpath: (path) => nodeOutputFiles.realpath(path === ".espalier.yaml" ? config : path),
+    };
+    const r = await cli([input, "--output", config], {
+      files: { ".espalier.yaml": "budget: 9\n" },
+      outputFiles: files,
+    });
+    expect(r.code).toBe(2);
+    expect(errorCode(r.stderr)).toBe("USAGE");
+    expect(await readFile(config, "utf8")).toBe("budget: 9\n");
+    // With --no-config no config file is read, so the file is an ordinary target.
+    const free = await cli([input, "--no-config", "--output", config]);
+    expect(free.code, free.stderr).toBe(0);
+    expect(await readFile(config, "utf8")).toContain("quill");
+  });
+
   it("refuses to overwrite the file standard input was redirected from", async () => {
     const out = join(dir, "summary.txt");
     await writeFile(out, LIST);

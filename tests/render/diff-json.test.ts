@@ -3,6 +3,8 @@ import Ajv2020 from "ajv/dist/2020.js";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { diffTrees } from "../../src/diff/diff-trees.js";
+import { EspalierError } from "../../src/errors.js";
+import { buildTree } from "../../src/model/build.js";
 import type { Tree } from "../../src/model/tree.js";
 import { renderDiffJson, toDiffSummary } from "../../src/render/diff-json.js";
 import { diffJsonSchema } from "../../src/render/diff-json-schema.js";
@@ -67,6 +69,38 @@ describe("toDiffSummary(view, totals, options)", () => {
   });
 });
 
+/** A chain `depth` nodes deep, ids `c0`…, the bottom node named `bottom`. */
+function chain(depth: number, bottom: string): Tree {
+  const parentOf = new Int32Array(depth);
+  const name: string[] = [];
+  for (let i = 0; i < depth; i++) {
+    parentOf[i] = i - 1;
+    name.push(i === depth - 1 ? bottom : `n${i}`);
+  }
+  return buildTree({
+    parentOf,
+    name,
+    ownSize: new Float64Array(depth),
+    hasSizes: false,
+    ids: name.map((_, i) => `c${i}`),
+    origin: new Int32Array(depth),
+    originIsRow: true,
+    fields: new Map(),
+    rootName: "",
+  });
+}
+
+function render(oldTree: Tree, newTree: Tree, budget: number): string {
+  const r = diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth" });
+  return renderDiffJson(r.view, r.totals, {
+    budget,
+    lines: r.selection.lines,
+    foci: r.fociPaths,
+    by: r.combined.by,
+    labels: false,
+  });
+}
+
 describe("renderDiffJson(view, totals, options)", () => {
   it("writes RFC 8259 JSON ending in a newline", () => {
     const r = diffTrees(makeIdTree("R{A}"), makeIdTree("R{B}"), {
@@ -77,5 +111,34 @@ describe("renderDiffJson(view, totals, options)", () => {
     const out = renderDiffJson(r.view, r.totals, { budget: 10, lines: 3, foci: [], by: "id", labels: false });
     expect(out.endsWith("}\n")).toBe(true);
     expect(JSON.parse(out).changes).toEqual({ added: 1, removed: 1, moved: 0, renamed: 0, resized: 0 });
+  });
+
+  it("writes ESC and U+202E in a name as \\u escapes that parse back to the name", () => {
+    // JSON text may escape any character inside a string as \uXXXX (RFC 8259, section 7).
+    const name = "quill\u202egnp.exe\u001b[31m";
+    const out = render(makeIdTree("R{A}"), makeIdTree(`R{A,${name}}`), 10);
+    expect(out).toContain("quill\\u202egnp.exe\\u001b[31m");
+    expect(out).not.toMatch(/[\u001b\u202e]/);
+    const added = JSON.parse(out).root.children.find((n: DiffSummaryNode) => n.change === "added");
+    expect(added.name).toBe(name);
+  });
+
+  it("renders the diff of a chain 5,000 deep without a stack overflow; a view too deep to write is LIMIT_EXCEEDED", () => {
+    const depth = 5000;
+    const oldTree = chain(depth, "sounding-line");
+    const newTree = chain(depth, "sounding-line-v2");
+    const doc = JSON.parse(render(oldTree, newTree, 40));
+    expect(doc.lines).toBeLessThanOrEqual(40);
+    expect(doc.totals.nodes).toBe(depth);
+    expect(doc.changes.renamed).toBe(1);
+    // Every level shown: JSON.stringify recurses per level, past the engine's stack (docs/reliability.md).
+    let error: unknown;
+    try {
+      render(oldTree, newTree, depth);
+    } catch (e) {
+      error = e;
+    }
+    expect(error).toBeInstanceOf(EspalierError);
+    expect((error as EspalierError).code).toBe("LIMIT_EXCEEDED");
   });
 });
