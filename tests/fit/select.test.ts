@@ -126,4 +126,23 @@ describe("select(tree, measures, scores, order, budget)", () => {
       }),
     );
   });
+
+  it("solves the tree knapsack: beyond the forced nodes, the shown ones carry the highest interests", () => {
+    // With one line per node, no set of k nodes that contains the forced ones (connected or not) has a
+    // larger total interest: the admitted non-forced nodes are the top ones among all non-forced nodes.
+    fc.assert(
+      fc.property(arbTreeWithFoci(), budgets, kinds, ([tree, f], b, kind) => {
+        const { scores, forcedCount, run } = setup(tree, f, kind);
+        const sel = run(Math.max(b, forcedCount));
+        const free = [...sel.admitted].filter((i) => !scores.forced[i]);
+        const best = [...scores.value.keys()]
+          .filter((i) => !scores.forced[i])
+          .map((i) => scores.value[i])
+          .sort((x, y) => y - x)
+          .slice(0, free.length);
+        const sum = (xs: number[]) => xs.reduce((a, x) => a + x, 0);
+        expect(sum(free.map((i) => scores.value[i]))).toBeCloseTo(sum(best), 9);
+      }),
+    );
+  });
 });
