@@ -38,7 +38,8 @@ function linkById(
   const keep = keptColumns(table, options);
   const names = table.column(options.nameField);
   const sizes = table.column(options.sizeField);
-  const ids: string[] = new Array(n);
+  // A column of text is its own list of ids (the index writes back the same strings); else a copy.
+  const ids: string[] = allText(idCells, n) ? (idCells as string[]) : new Array(n);
   const rowOf = new IdIndex(ids);
   for (let r = 0; r < n; r++) {
     const id = cellText(idCells[r]);
@@ -56,9 +57,13 @@ function linkById(
   const parentOf = new Int32Array(n);
   const origin = new Int32Array(n);
   const ownSize = new Float64Array(n);
-  const name: string[] = new Array(n);
+  // A name column with no empty cell is the list of names itself; else names fall back to ids.
+  const named = names !== undefined && allText(names, n, true);
+  const name: string[] = named ? (names as string[]) : new Array(n);
   for (let r = 0; r < n; r++) {
-    const parentId = cellText(parentCells[r]);
+    const parentCell = parentCells[r];
+    // A cell kept as a number is looked up as the number (it stands for its digits).
+    const parentId = typeof parentCell === "number" ? parentCell : cellText(parentCell);
     if (parentId === "") {
       parentOf[r] = -1;
     } else {
@@ -66,14 +71,14 @@ function linkById(
       if (p === -1) {
         throw new EspalierError(
           "MISSING_PARENT",
-          `row ${r + 1} names the ${options.parentField} ${JSON.stringify(parentId)}, which no row has as its ${options.idField}`,
+          `row ${r + 1} names the ${options.parentField} ${JSON.stringify(cellText(parentId))}, which no row has as its ${options.idField}`,
           { row: r + 1 },
         );
       }
       parentOf[r] = p;
     }
     origin[r] = r + 1;
-    name[r] = (names && cellText(names[r])) || ids[r];
+    if (!named) name[r] = (names && cellText(names[r])) || ids[r];
     if (sizes) ownSize[r] = sizeOf(sizes[r], table.textCells, r + 1, options.sizeField);
   }
   return {
@@ -145,6 +150,16 @@ function sizeOf(cell: Cell, textCells: boolean, row: number, field: string): num
     `the "${field}" of row ${row} must be a number from 0 to 2^53 - 1, got ${JSON.stringify(cell)}`,
     { row },
   );
+}
+
+/** Whether the first `n` cells are all strings (and, with `nonEmpty`, none is ""), in an array of `n`. */
+function allText(cells: readonly Cell[], n: number, nonEmpty = false): boolean {
+  if (cells.length !== n) return false;
+  for (let r = 0; r < n; r++) {
+    const cell = cells[r];
+    if (typeof cell !== "string" || (nonEmpty && cell === "")) return false;
+  }
+  return true;
 }
 
 function cellText(cell: Cell): string {

@@ -8,8 +8,9 @@ import type { LoadOptions } from "./types.js";
 /**
  * Reads a path list a line at a time: one "/"-separated path per line, blank lines ignored. When the first
  * non-blank line holds a tab, every line is "size<TAB>path" (as `find -printf '%s\t%p\n'` prints);
- * otherwise a whole line is one path. Origins are line numbers. The in-memory and the streaming loader
- * both feed it, so they build the same nodes.
+ * otherwise a whole line is one path. Origins are line numbers. The in-memory loader feeds it text; the
+ * streaming loader reads the same format on bytes with `PathListByteReader`, which builds the same
+ * nodes (property tests in tests/load/stream hold the two together).
  */
 export class PathListReader {
   private readonly sink: NodeSink;

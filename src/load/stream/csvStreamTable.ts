@@ -12,7 +12,8 @@ type Fields = Pick<
  * A CSV (RFC 4180, delimiter ",") or TSV (delimiter "\t", no quoting) table read from a byte stream with
  * csv-parse's stream parser, the same options as {@link csvTable}: the first record is the header, blank
  * lines are skipped. Only the columns a loader reads (id, parent, path, name, size and kept fields) are
- * kept, cell by cell, so the records themselves are never all held. Stops reading once the table is
+ * kept, cell by cell, so the records themselves are never all held; sizes and parent ids written as
+ * plain digits are kept as numbers (see `IdIndex.get`). Stops reading once the table is
  * known to have more than `maxNodes` rows. Errors as csvTable gives them: PARSE_CSV at the line where
  * the faulty record starts (after the last good record, past the blank lines csv-parse skipped).
  */
@@ -34,7 +35,7 @@ export async function csvStreamTable(
   let header: string[] | undefined;
   let headerLine = 0;
   const at = new Map<string, number>();
-  const kept: { name: string; index: number; cells: (string | number)[]; sizes: boolean }[] = [];
+  const kept: { name: string; index: number; cells: (string | number)[]; numbers: boolean }[] = [];
   let rows = 0;
   // Where the last good record ended, to place an error at the start of the record after it.
   let lastLines = 0;
@@ -49,15 +50,19 @@ export async function csvStreamTable(
         if (!at.has(name)) at.set(name, c);
       });
       for (const [name, index] of at) {
-        if (wanted.has(name)) kept.push({ name, index, cells: [], sizes: name === fields.sizeField });
+        if (wanted.has(name)) {
+          // Sizes and parent ids keep plain digits as numbers (they read back as the same text).
+          const numbers = name === fields.sizeField || name === fields.parentField;
+          kept.push({ name, index, cells: [], numbers });
+        }
       }
       return;
     }
     for (const column of kept) {
       const cell = record[column.index];
-      // A size written as plain digits is kept as its number (it reads back as the same text): a
-      // small number costs no string.
-      column.cells.push(column.sizes ? plainNumber(cell) : cell);
+      // A size or a parent id written as plain digits is kept as its number (it reads back as the same
+      // text): a small number costs no string.
+      column.cells.push(column.numbers ? plainNumber(cell) : cell);
     }
     rows++;
   });

@@ -1,40 +1,49 @@
 import { Buffer } from "node:buffer";
 import type { LinkedNodes } from "../../model/build.js";
-import { PathListReader } from "../pathListReader.js";
+import { PathListByteReader } from "../pathListByteReader.js";
 import type { LoadOptions } from "../types.js";
 
 /**
- * A path list read from a byte stream: each chunk's whole lines are decoded as one piece of text and fed
- * to {@link PathListReader}; the bytes after a chunk's last "\n" wait for the next chunk. A "\n" byte is
- * never inside a multi-byte UTF-8 character, so a character (or a "\r\n") cut between chunks is whole
- * again when decoded.
+ * A path list read from a byte stream: each chunk's whole lines go to {@link PathListByteReader} as they
+ * are, undecoded and uncopied. A line cut between chunks is joined (its bytes only) before it is read. A
+ * "\n" byte is never inside a multi-byte UTF-8 character, so a character (or a "\r\n") cut between
+ * chunks is whole again in the joined line.
  */
 export async function pathListStream(
   chunks: AsyncIterable<Uint8Array>,
   options: LoadOptions,
 ): Promise<LinkedNodes> {
-  const reader = new PathListReader(options);
-  let waiting: Uint8Array[] = [];
-  for await (const chunk of chunks) {
+  const reader = new PathListByteReader(options);
+  // The start of a line cut by the end of a chunk, in pieces.
+  let waiting: Buffer[] = [];
+  for await (const piece of chunks) {
+    const chunk = asBuffer(piece);
+    let from = 0;
+    if (waiting.length > 0) {
+      const first = chunk.indexOf(0x0a);
+      if (first === -1) {
+        waiting.push(chunk);
+        continue;
+      }
+      waiting.push(chunk.subarray(0, first + 1));
+      const line = Buffer.concat(waiting);
+      reader.lines(line, 0, line.length);
+      waiting = [];
+      from = first + 1;
+    }
     const last = chunk.lastIndexOf(0x0a);
-    if (last === -1) {
-      waiting.push(chunk);
+    if (last < from) {
+      if (from < chunk.length) waiting.push(chunk.subarray(from));
       continue;
     }
-    const bytes = waiting.length > 0 ? Buffer.concat([...waiting, chunk]) : chunk;
-    const end = bytes.length - (chunk.length - last - 1);
-    const text = decode(bytes, end);
-    reader.lines(text, 0, text.length);
-    waiting = last + 1 < chunk.length ? [chunk.subarray(last + 1)] : [];
+    reader.lines(chunk, from, last + 1);
+    if (last + 1 < chunk.length) waiting.push(chunk.subarray(last + 1));
   }
-  const bytes = Buffer.concat(waiting);
-  const rest = decode(bytes, bytes.length);
+  const rest = Buffer.concat(waiting);
   reader.lines(rest, 0, rest.length);
   return reader.finish(options.rootName);
 }
 
-/** Invalid UTF-8 becomes U+FFFD, as the WHATWG decoder the in-memory path uses does it. */
-function decode(bytes: Uint8Array, end: number): string {
-  const buf = bytes instanceof Buffer ? bytes : Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  return buf.toString("utf8", 0, end);
+function asBuffer(bytes: Uint8Array): Buffer {
+  return bytes instanceof Buffer ? bytes : Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 }

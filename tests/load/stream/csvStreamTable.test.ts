@@ -35,13 +35,22 @@ function table(r: Rng, rows: number, delimiter: string): string {
   const eol = r.chance(0.5) ? "\n" : "\r\n";
   const lines = [columns.map((c) => cell(r, c, delimiter)).join(delimiter)];
   const paths: string[] = [];
+  // Ids as text, as plain whole numbers (kept as numbers while streaming), with a leading zero (another
+  // id than the number), past 2^31, or long.
+  const ids: string[] = [];
+  const numeric = r.chance(0.5);
+  for (let k = 1; k <= rows; k++) {
+    const forms = [`${k}`, `${k}`, `0${k}`, `${k + 3_000_000_000}`, `${k}000000000000`];
+    ids.push(!numeric ? `q${k}` : k === 1 && r.chance(0.3) ? "0" : r.pick(forms));
+  }
   for (let k = 1; k <= rows; k++) {
     const parent = k === 1 || r.chance(0.1) ? 0 : r.int(1, k - 1);
     const segment = `n${k}${r.pick(["", "é", "日"])}`;
     paths.push(parent === 0 ? segment : `${paths[parent - 1]}/${segment}`);
     const values: Record<string, string> = {
-      id: `q${k}`,
-      parent: parent === 0 ? "" : `q${parent}`,
+      id: ids[k - 1],
+      // Now and then a parent no row has (MISSING_PARENT), by number or text.
+      parent: parent === 0 ? "" : r.chance(0.02) ? r.pick(["99999", "q0", "7"]) : ids[parent - 1],
       path: paths[k - 1],
       name: r.pick(NAMES),
       size: r.pick(["", "0", "12", "3.5", "1e3"]),
