@@ -1,21 +1,30 @@
 // One measurement in a fresh process, so the peak resident set size belongs to this run alone.
 // Usage (from bench/run.js): node bench/child.js '<job JSON>'
-// Prints one JSON line on stdout: { ms, maxRssMiB, phases, check } or { error }.
+// Prints one JSON line on stdout: { ms, maxRssMiB, phases, check } or { error }. check.output is the SHA-1
+// of the rendered text, which run.js compares with what the real command line prints.
 //
 // Jobs:
-//   baseline  start Node, import nothing, report the peak RSS (what every run pays before any work)
-//   floor     the least any in-memory loader must do: read the text and parse it, with no tree built
-//   full      what `espalier FILE --focus A --focus B --budget N` does, through the dist/ API
-//   refocus   load once, then time summarize() for many different random foci
-//   diff      what `espalier diff OLD NEW --budget N` does, through the dist/ API (cli/diff-command.ts)
+//   baseline  start Node, import nothing, report the peak RSS (what every run pays before any work) and
+//             the engine's default heap limit (what the launcher compares its estimate with)
+//   floor     the least any loader must do: read the text and parse it, with no tree built
+//   full      what `espalier FILE --focus A --focus B --budget N` does, step by step as
+//             src/cli/summary-command.ts does it (chunks from a file stream, loadTreeFromStream, prepare,
+//             summarize, renderText), through the modules in dist/
+//   memory    the same summary through the in-memory loader: read the whole text, then loadTree
+//   refocus   load once (as the CLI loads), then time summarize() for many different random foci
+//   diff      what `espalier diff OLD NEW --budget N` does, step by step as src/cli/diff-command.ts does it
 
-import { writeFileSync } from "node:fs";
-import { readFile } from "node:fs/promises";
+import { constants } from "node:buffer";
+import { createHash } from "node:crypto";
+import { createReadStream, statSync, writeFileSync } from "node:fs";
+import { open, readFile } from "node:fs/promises";
 import { Session } from "node:inspector/promises";
-import { basename } from "node:path";
+import { totalmem } from "node:os";
+import { getHeapStatistics } from "node:v8";
 import { makeRng } from "./generate.js";
 
 const DIST = new URL("../dist/index.js", import.meta.url);
+const CLI = (name) => new URL(`../dist/cli/${name}.js`, import.meta.url);
 
 /** The options csvTable (src/load/table.ts) hands to csv-parse for a CSV file with no node limit. */
 export const LOADER_CSV_OPTIONS = { delimiter: ",", quote: '"', skip_empty_lines: true };
@@ -39,11 +48,13 @@ try {
 async function run(job) {
   switch (job.kind) {
     case "baseline":
-      return { ms: 0 };
+      return { ms: 0, heapLimit: getHeapStatistics().heap_size_limit, totalMemory: totalmem() };
     case "floor":
       return floor(job);
     case "full":
       return full(job);
+    case "memory":
+      return inMemory(job);
     case "refocus":
       return refocus(job);
     case "diff":
@@ -58,6 +69,8 @@ async function run(job) {
 async function floor({ format, file }) {
   // Imports happen before the clock starts, as in `full`.
   const parse = format === "csv" ? (await import("csv-parse/sync")).parse : undefined;
+  // A path list longer than the engine's longest string cannot be one string: read it in chunks.
+  if (format === "paths" && statSync(file).size > constants.MAX_STRING_LENGTH) return chunkedPathsFloor(file);
   const t0 = now();
   const text = await readFile(file, "utf8");
   const t1 = now();
@@ -97,12 +110,37 @@ async function floor({ format, file }) {
   throw new Error(`no floor for format ${format}`);
 }
 
-// ---------------------------------------------------------------------------------------------------------
-
-/** The load options the CLI builds for `espalier FILE` with no field options (cli/summary-command.ts). */
-function cliLoadOptions(api, file) {
-  return { ...api.defaultLoadOptions, file, rootName: basename(file) };
+/** The path-list floor in 1 MiB chunks: each chunk's whole lines decoded at once, split as above. */
+async function chunkedPathsFloor(file) {
+  const t0 = now();
+  let count = 0;
+  let cells = 0;
+  let rest = Buffer.alloc(0);
+  const split = (text) => {
+    const lines = text.split("\n");
+    for (let i = 0; i < lines.length; i++) {
+      const line = lines[i];
+      if (line === "") continue;
+      cells += line.split("\t").length;
+      count++;
+    }
+  };
+  for await (const chunk of createReadStream(file, { highWaterMark: 1 << 20 })) {
+    const last = chunk.lastIndexOf(0x0a);
+    if (last === -1) {
+      rest = Buffer.concat([rest, chunk]);
+      continue;
+    }
+    const bytes = rest.length > 0 ? Buffer.concat([rest, chunk.subarray(0, last)]) : chunk.subarray(0, last);
+    split(bytes.toString("utf8"));
+    rest = Buffer.from(chunk.subarray(last + 1));
+  }
+  split(rest.toString("utf8"));
+  const t1 = now();
+  return { ms: t1 - t0, phases: { "read+split": t1 - t0 }, check: { nodes: count, cells, chunked: true } };
 }
+
+// ---------------------------------------------------------------------------------------------------------
 
 /** Read as the CLI reads: bytes, then the WHATWG UTF-8 decoder (cli/read-input.ts). */
 async function readAsCli(file) {
@@ -110,31 +148,117 @@ async function readAsCli(file) {
   return new TextDecoder("utf-8", { ignoreBOM: false }).decode(bytes);
 }
 
+/** The CLI's modules (dist/cli), imported before the clock starts. */
+async function cliModules() {
+  const [command, stream, progress, options, palette] = await Promise.all([
+    import(CLI("summary-command")),
+    import(CLI("read-input-stream")),
+    import(CLI("progress")),
+    import(CLI("options")),
+    import(new URL("../dist/render/palette.js", import.meta.url)),
+  ]);
+  return { ...command, ...stream, ...progress, ...options, ...palette };
+}
+
+/**
+ * What bin/espalier.js hands the CLI for a file: a 1 MiB-chunk read stream (openInput), no terminal (so
+ * no progress line and no colour), an empty environment (no NO_COLOR decisions to make).
+ */
+function benchIO() {
+  return {
+    stdout: { write() {}, isTTY: false },
+    stderr: { write() {}, isTTY: false },
+    readStdin: () => Promise.reject(new Error("no stdin in the bench")),
+    readFile: (path) => readFile(path),
+    async openInput(name) {
+      const handle = await open(name, "r");
+      const stat = await handle.stat();
+      return {
+        size: stat.isFile() ? stat.size : undefined,
+        chunks: handle.createReadStream({ highWaterMark: 1 << 20 }),
+      };
+    },
+    now: () => performance.now(),
+    env: {},
+  };
+}
+
+/** Reads, loads and summarises as src/cli/summary-command.ts does for `espalier FILE --focus A --focus B --budget N`. */
 async function full({ file, foci, budget, profile }) {
   const api = await import(DIST);
+  const cli = await cliModules();
+  const io = benchIO();
+  // The options commander and zod give for those flags (every other option at its default).
+  const opts = cli.summaryOptionsSchema.parse({ focus: foci, budget });
   const session = profile ? await startProfile() : undefined;
   const t0 = now();
-  const text = await readAsCli(file);
+  const source = await cli.readInputStream(io, file);
+  const chunks = cli.withProgress(source.chunks, io, cli.displayName(file), source.size);
+  const tree = await api.loadTreeFromStream(chunks, cli.toLoadOptions(file, opts));
   const t1 = now();
-  const tree = api.loadTree(text, cliLoadOptions(api, file));
-  const t2 = now();
-  const prepared = api.prepare(tree);
-  const t3 = now();
-  const result = api.summarize(prepared, { foci, budget, importance: "depth" });
-  const t4 = now();
-  const output = api.renderText(result.view, { units: "bytes", sizes: tree.hasSizes });
-  const t5 = now();
+  const done = summaryText(api, cli, io, opts, tree);
   if (session) await stopProfile(session, profile);
+  return { ms: done.end - t0, phases: { "read+load": t1 - t0, ...done.phases }, check: done.check };
+}
+
+/** prepare, summarize and renderText with the options summary-command.ts passes; times each. */
+function summaryText(api, cli, io, opts, tree) {
+  const t1 = now();
+  const prepared = api.prepare(tree);
+  const t2 = now();
+  const result = api.summarize(prepared, {
+    foci: [...opts.focus],
+    budget: opts.budget ?? cli.defaultBudget(io),
+    importance: opts.importance,
+    label: opts.label,
+    pseudonymKey: undefined,
+    chains: opts.chains,
+  });
+  const t3 = now();
+  const output = api.renderText(result.view, {
+    units: cli.unitsFor(opts),
+    sizes: tree.hasSizes,
+    palette: cli.palette(cli.useColour(opts, io)),
+    chains: opts.chains,
+    width: cli.defaultWidth(io),
+  });
+  const t4 = now();
   return {
-    ms: t5 - t0,
-    phases: { read: t1 - t0, load: t2 - t1, prepare: t3 - t2, summarize: t4 - t3, render: t5 - t4 },
+    end: t4,
+    phases: { prepare: t2 - t1, summarize: t3 - t2, render: t4 - t3 },
     check: {
       nodes: tree.length,
       size: prepared.measures.size[0],
       lines: output.split("\n").length - 1,
       selectionLines: result.selection.lines,
       foci: result.fociPaths,
+      output: sha1(output),
     },
+  };
+}
+
+function sha1(text) {
+  return createHash("sha1").update(text).digest("hex");
+}
+
+/** The in-memory path a library caller takes: the whole text, then loadTree (the CLI no longer does). */
+async function inMemory({ file, foci, budget, profile }) {
+  const api = await import(DIST);
+  const cli = await cliModules();
+  const io = benchIO();
+  const opts = cli.summaryOptionsSchema.parse({ focus: foci, budget });
+  const session = profile ? await startProfile() : undefined;
+  const t0 = now();
+  const text = await readAsCli(file);
+  const t1 = now();
+  const tree = api.loadTree(text, cli.toLoadOptions(file, opts));
+  const t2 = now();
+  const done = summaryText(api, cli, io, opts, tree);
+  if (session) await stopProfile(session, profile);
+  return {
+    ms: done.end - t0,
+    phases: { read: t1 - t0, load: t2 - t1, ...done.phases },
+    check: done.check,
   };
 }
 
@@ -142,9 +266,12 @@ async function full({ file, foci, budget, profile }) {
 
 async function refocus({ file, budget, calls, seed, profile }) {
   const api = await import(DIST);
+  const cli = await cliModules();
+  const io = benchIO();
   const t0 = now();
-  const text = await readAsCli(file);
-  const tree = api.loadTree(text, cliLoadOptions(api, file));
+  const source = await cli.readInputStream(io, file);
+  const opts = cli.summaryOptionsSchema.parse({ budget });
+  const tree = await api.loadTreeFromStream(source.chunks, cli.toLoadOptions(file, opts));
   const prepared = api.prepare(tree);
   const loadMs = now() - t0;
   const rng = makeRng(seed);
@@ -171,34 +298,48 @@ async function refocus({ file, budget, calls, seed, profile }) {
 // ---------------------------------------------------------------------------------------------------------
 
 /**
- * `espalier diff OLD NEW --budget N` with no other option, as cli/diff-command.ts runs it: read both
- * versions, then load both (OLD under NEW's root name, so a synthetic root never shows as renamed),
- * diffTrees with no foci, and the text rendering with NEW's sizes and the matching's name.
+ * `espalier diff OLD NEW --budget N` with no other option, as cli/diff-command.ts runs it: load both
+ * versions streamed, as the summary loads its input (OLD under NEW's root name, so a synthetic root
+ * never shows as renamed), diffTrees with no foci, and the text rendering with NEW's sizes, the
+ * matching's name and the CLI's text options.
  */
 async function diff({ oldFile, newFile, budget, profile }) {
   const api = await import(DIST);
+  const cli = await cliModules();
+  const io = benchIO();
+  const opts = cli.summaryOptionsSchema.parse({ budget });
+  const load = async (file, options) => {
+    const source = await cli.readInputStream(io, file);
+    const chunks = cli.withProgress(source.chunks, io, cli.displayName(file), source.size);
+    return api.loadTreeFromStream(chunks, options);
+  };
   const session = profile ? await startProfile() : undefined;
   const t0 = now();
-  const oldText = await readAsCli(oldFile);
-  const newText = await readAsCli(newFile);
+  const newOptions = cli.toLoadOptions(newFile, opts);
+  const oldTree = await load(oldFile, { ...cli.toLoadOptions(oldFile, opts), rootName: newOptions.rootName });
   const t1 = now();
-  const newOptions = cliLoadOptions(api, newFile);
-  const oldTree = api.loadTree(oldText, { ...cliLoadOptions(api, oldFile), rootName: newOptions.rootName });
-  const tOld = now();
-  const newTree = api.loadTree(newText, newOptions);
+  const newTree = await load(newFile, newOptions);
   const t2 = now();
-  const result = api.diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth" });
+  const result = api.diffTrees(oldTree, newTree, {
+    foci: [],
+    budget: opts.budget ?? cli.defaultBudget(io),
+    importance: opts.importance,
+    label: opts.label,
+    pseudonymKey: undefined,
+  });
   const t3 = now();
   const output = api.renderDiffText(result.view, result.totals, {
-    units: "bytes",
+    units: cli.unitsFor(opts),
     sizes: result.combined.tree.hasSizes,
     by: result.combined.by,
+    palette: cli.palette(cli.useColour(opts, io)),
+    width: cli.defaultWidth(io),
   });
   const t4 = now();
   if (session) await stopProfile(session, profile);
   return {
     ms: t4 - t0,
-    phases: { read: t1 - t0, loadOld: tOld - t1, loadNew: t2 - tOld, diff: t3 - t2, render: t4 - t3 },
+    phases: { "read+loadOld": t1 - t0, "read+loadNew": t2 - t1, diff: t3 - t2, render: t4 - t3 },
     check: {
       by: result.combined.by,
       oldNodes: oldTree.length,
@@ -209,6 +350,7 @@ async function diff({ oldFile, newFile, budget, profile }) {
       lines: output.split("\n").length - 1,
       selectionLines: result.selection.lines,
       head: output.slice(0, output.indexOf("\n")),
+      output: sha1(output),
     },
   };
 }

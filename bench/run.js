@@ -1,11 +1,14 @@
-// espalier's benchmark: full summary time and peak memory against the floor of an in-memory loader, per
-// input format, on a generated tree. Informs; never gates (exit 0 whatever the ratios).
-// Usage: npm run bench -- [--nodes N] [--only json,csv,paths,diff] [--repeat N] [--budget N] [--calls N]
-//                         [--heap MiB] [--cpu-prof] [--no-cli] [--no-diff] [--force-data]
+// espalier's benchmark: full summary time and peak memory against the floor (the least any loader must
+// spend: read and parse, no tree), per input format, on a generated tree; the real command line beside
+// it, its peak memory taken from outside. Informs; never gates (exit 0 whatever the ratios).
+// Usage: npm run bench -- [--nodes N[,N...]] [--only json,csv,paths,diff] [--repeat N] [--budget N]
+//                         [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--no-memory] [--no-diff]
+//                         [--rss-from auto|time|proc] [--force-data]
 // See docs/performance.md for what every number means.
 
 import { spawnSync } from "node:child_process";
-import { closeSync, existsSync, mkdirSync, openSync, readSync, writeFileSync } from "node:fs";
+import { createHash } from "node:crypto";
+import { closeSync, existsSync, mkdirSync, openSync, readSync, statSync, writeFileSync } from "node:fs";
 import { cpus, loadavg } from "node:os";
 import { dirname, join, relative } from "node:path";
 import { fileURLToPath } from "node:url";
@@ -19,16 +22,25 @@ const outDir = join(benchDir, "out");
 const childScript = join(benchDir, "child.js");
 const cliScript = join(repoRoot, "bin", "espalier.js");
 const distIndex = join(repoRoot, "dist", "index.js");
+const distHeap = join(repoRoot, "dist", "cli", "heap.js");
+const TIME = "/usr/bin/time";
+const MiB = 2 ** 20;
 
-/** Targets from the issues: full/floor time and peak memory ratios. */
+/** Targets from the issues: full/floor time and peak memory ratios, and how time and memory scale. */
 const TARGETS = {
   issue2Time: { json: 2.0, csv: 2.0, paths: 2.0 },
   issue4Time: { json: 1.3, csv: 1.5, paths: 1.5 },
   issue4Memory: { json: 1.5, csv: 1.5, paths: 1.5 },
   refocusMs: 50,
+  /** Issue 4: 10x the nodes in at most 12x the time (so: time per node grows by at most 1.2). */
+  scalePerNode: 1.2,
+  /** Issue 4: peak memory of a 10M-node summary, MiB (below 3 GiB). */
+  peakAt10M: 3072,
   /** Issue 3: diff of two versions with 1% of the nodes changed / summary of one version. */
   diffTime: 2.5,
 };
+/** Above this many nodes the in-memory row is skipped (a path list soon outgrows the longest string). */
+const MEMORY_ROW_MAX_NODES = 2_000_000;
 
 const log = (s) => process.stderr.write(`${s}\n`);
 const options = parseArgs(process.argv.slice(2));
@@ -37,54 +49,54 @@ if (!existsSync(distIndex)) {
   log(`bench: ${relative(repoRoot, distIndex)} is missing; build first: npx tsc -p tsconfig.json`);
   process.exit(1);
 }
-
-const manifest = ensureData({ nodes: options.nodes, formats: options.only, force: options.forceData, log });
-const foci = manifest.foci;
-log(`foci: ${foci.join("  |  ")}`);
-if (!options.diffOnly) for (const f of options.only) warmCache(manifest.files[f]);
+const { heapToRestartWith } = await import(distHeap);
 
 const results = {
   when: new Date().toISOString(),
   node: process.version,
   platform: `${process.platform}-${process.arch}`,
   cpus: cpus().length,
+  cpuModel: cpus()[0]?.model,
   loadBefore: loadavg()[0],
   loadAfter: null,
   options,
-  data: {
-    ...manifest,
-    files: Object.fromEntries(options.only.map((f) => [f, relative(repoRoot, manifest.files[f])])),
-  },
   targets: TARGETS,
-  baseline: child({ kind: "baseline" }),
-  formats: {},
+  baseline: child({ kind: "baseline" }, 0),
+  peakFrom: peakSource(options.rssFrom),
+  sizes: {},
+  scale: null,
   refocus: null,
   diff: null,
 };
-log(`baseline: an empty Node process peaks at ${results.baseline.maxRssMiB} MiB`);
+log(
+  `baseline: an empty Node process peaks at ${results.baseline.maxRssMiB} MiB; default heap limit ` +
+    `${Math.round(results.baseline.heapLimit / MiB)} MiB; CLI peak memory from ${results.peakFrom}`,
+);
 
-for (const format of options.diffOnly ? [] : options.only) {
-  const file = manifest.files[format];
-  const runs = { floor: [], full: [] };
-  for (let r = 0; r < options.repeat; r++) {
-    // Alternate which goes first, so slow drift of the machine does not favour one side.
-    const order = r % 2 === 0 ? ["floor", "full"] : ["full", "floor"];
-    for (const kind of order) {
-      const res = child({ kind, format, file, foci, budget: options.budget });
-      runs[kind].push(res);
-      log(
-        `${format} ${kind} #${r + 1}: ${res.error ? `ERROR ${res.error}` : `${fmtS(res.ms)} s, ${res.maxRssMiB} MiB`}`,
-      );
-    }
-  }
-  const entry = summarizeRuns(format, runs);
-  if (options.cli) entry.cli = runCli(format, file, foci, options.budget);
-  if (options.cpuProf) entry.profile = profile(format, file, foci, options.budget);
-  results.formats[format] = entry;
+let firstManifest;
+for (const nodes of options.diffOnly ? [] : options.sizes) {
+  const manifest = ensureData({ nodes, formats: options.only, force: options.forceData, log });
+  firstManifest ??= manifest;
+  const foci = manifest.foci;
+  log(`${nodes.toLocaleString("en-US")} nodes; foci: ${foci.join("  |  ")}`);
+  const entry = {
+    data: {
+      ...manifest,
+      files: Object.fromEntries(options.only.map((f) => [f, relative(repoRoot, manifest.files[f])])),
+    },
+    formats: {},
+  };
+  for (const format of options.only)
+    entry.formats[format] = benchFormat(nodes, format, manifest.files[format], foci);
+  results.sizes[nodes] = entry;
 }
+results.scale = scaleFigures(results.sizes);
 
-results.refocus = options.diffOnly ? null : benchRefocus(options.only[0]);
-results.diff = benchDiff();
+if (!options.diffOnly) {
+  const m = firstManifest;
+  results.refocus = benchRefocus(options.only[0], m);
+}
+results.diff = await benchDiff();
 results.loadAfter = loadavg()[0];
 
 mkdirSync(outDir, { recursive: true });
@@ -93,15 +105,56 @@ process.stdout.write(report(results));
 log(`\nwrote ${relative(repoRoot, join(outDir, "results.json"))}`);
 
 // ---------------------------------------------------------------------------------------------------------
-// Children
+// One format at one size
 
-function nodeFlags() {
-  return options.heap ? [`--max-old-space-size=${options.heap}`] : [];
+/**
+ * Floor, full (streamed, as the CLI) and in memory in child processes, and the real command line, each
+ * `--repeat` times; the order rotates every round so slow drift of the machine favours none of them.
+ */
+function benchFormat(nodes, format, file, foci) {
+  warmCache(file);
+  const heap = heapFor([file]);
+  const kinds = ["floor", "full"];
+  if (options.memory && nodes <= MEMORY_ROW_MAX_NODES) kinds.push("memory");
+  if (options.cli) kinds.push("cli");
+  const runs = Object.fromEntries(kinds.map((k) => [k, []]));
+  const cliArgs = [file, ...foci.flatMap((f) => ["--focus", f]), "--budget", String(options.budget)];
+  for (let r = 0; r < options.repeat; r++) {
+    const order = kinds.map((_, k) => kinds[(k + r) % kinds.length]);
+    for (const kind of order) {
+      const load = loadavg()[0];
+      const res =
+        kind === "cli"
+          ? runCommand(cliArgs)
+          : child({ kind, format, file, foci, budget: options.budget }, heap);
+      res.load = load;
+      runs[kind].push(res);
+      const rss = res.maxRssMiB === null ? "peak ?" : `${res.maxRssMiB} MiB`;
+      log(
+        `${nodes} ${format} ${kind} #${r + 1}: ${res.error ? `ERROR ${res.error}` : `${fmtS(res.ms)} s, ${rss}`} (load ${load.toFixed(2)})`,
+      );
+    }
+  }
+  const entry = summarizeRuns(format, runs);
+  entry.heapMiB = heap;
+  if (options.cpuProf) entry.profile = profile(nodes, format, file, foci, heap);
+  return entry;
 }
 
-/** Runs one job in a fresh Node process and returns its JSON answer (or { error }). */
-function child(job) {
-  const proc = spawnSync(process.execPath, [...nodeFlags(), childScript, JSON.stringify(job)], {
+/** Heap limit (MiB) the launcher would restart with for these inputs (0: the default), or --heap. */
+function heapFor(files) {
+  if (options.heap) return options.heap;
+  const { heapLimit, totalMemory } = results.baseline;
+  return heapToRestartWith({ heapLimit, totalMemory, inputBytes: files.map((f) => statSync(f).size) });
+}
+
+// ---------------------------------------------------------------------------------------------------------
+// Children
+
+/** Runs one job in a fresh Node process (heap limit `heap` MiB, 0: Node's default); its JSON answer or { error }. */
+function child(job, heap) {
+  const flags = heap > 0 ? [`--max-old-space-size=${heap}`] : [];
+  const proc = spawnSync(process.execPath, [...flags, childScript, JSON.stringify(job)], {
     encoding: "utf8",
     maxBuffer: 64 << 20,
   });
@@ -117,25 +170,52 @@ function child(job) {
 
 /** Medians of the repeats, and ratios from this run's medians (never mixed with another run). */
 function summarizeRuns(format, runs) {
-  const ok = (list) => list.filter((r) => !r.error);
+  const ok = (list) => (list ?? []).filter((r) => !r.error);
+  const all = Object.values(runs).flat();
+  const entry = { runs, errors: all.filter((r) => r.error).map((r) => r.error) };
+  const loads = all.map((r) => r.load);
+  entry.load = { min: Math.min(...loads), median: median(loads), max: Math.max(...loads) };
   const floor = ok(runs.floor);
   const full = ok(runs.full);
-  const entry = { runs, errors: [...runs.floor, ...runs.full].filter((r) => r.error).map((r) => r.error) };
-  if (floor.length === 0 || full.length === 0) return entry;
-  entry.floorMs = median(floor.map((r) => r.ms));
-  entry.fullMs = median(full.map((r) => r.ms));
-  entry.floorMiB = median(floor.map((r) => r.maxRssMiB));
-  entry.fullMiB = median(full.map((r) => r.maxRssMiB));
-  entry.timeRatio = entry.fullMs / entry.floorMs;
-  entry.memoryRatio = entry.fullMiB / entry.floorMiB;
-  entry.floorPhases = medianPhases(floor);
-  entry.fullPhases = medianPhases(full);
-  entry.check = full[0].check;
-  entry.pass = {
-    issue2Time: entry.timeRatio <= TARGETS.issue2Time[format],
-    issue4Time: entry.timeRatio <= TARGETS.issue4Time[format],
-    issue4Memory: entry.memoryRatio <= TARGETS.issue4Memory[format],
-  };
+  const memory = ok(runs.memory);
+  const cli = ok(runs.cli);
+  if (floor.length > 0) {
+    entry.floorMs = median(floor.map((r) => r.ms));
+    entry.floorMiB = median(floor.map((r) => r.maxRssMiB));
+    entry.floorPhases = medianPhases(floor);
+    entry.floorChunked = floor[0].check?.chunked === true;
+  }
+  if (full.length > 0) {
+    entry.fullMs = median(full.map((r) => r.ms));
+    entry.fullMiB = median(full.map((r) => r.maxRssMiB));
+    entry.fullPhases = medianPhases(full);
+    entry.check = full[0].check;
+  }
+  if (memory.length > 0) {
+    entry.memoryMs = median(memory.map((r) => r.ms));
+    entry.memoryMiB = median(memory.map((r) => r.maxRssMiB));
+    entry.memoryPhases = medianPhases(memory);
+  }
+  if (cli.length > 0) {
+    entry.cliMs = median(cli.map((r) => r.ms));
+    const peaks = cli.map((r) => r.maxRssMiB).filter((v) => v !== null);
+    entry.cliMiB = peaks.length > 0 ? median(peaks) : null;
+    entry.cliLines = cli[0].lines;
+    // The command line must print exactly what the in-process run rendered.
+    if (entry.check) entry.cliSameOutput = cli.every((r) => r.output === entry.check.output);
+  }
+  if (entry.floorMs !== undefined && entry.fullMs !== undefined) {
+    entry.timeRatio = entry.fullMs / entry.floorMs;
+    entry.memoryRatio = entry.fullMiB / entry.floorMiB;
+    // A floor read in chunks keeps no lines: not the floor the targets are set against.
+    if (!entry.floorChunked) {
+      entry.pass = {
+        issue2Time: entry.timeRatio <= TARGETS.issue2Time[format],
+        issue4Time: entry.timeRatio <= TARGETS.issue4Time[format],
+        issue4Memory: entry.memoryRatio <= TARGETS.issue4Memory[format],
+      };
+    }
+  }
   return entry;
 }
 
@@ -145,50 +225,196 @@ function medianPhases(list) {
   return out;
 }
 
-/** The real CLI, once per format: wall time of the whole process, as a user would see it. */
-function runCli(format, file, foci, budget) {
-  const args = [cliScript, file, ...foci.flatMap((f) => ["--focus", f]), "--budget", String(budget)];
-  const t0 = performance.now();
-  const proc = spawnSync(process.execPath, [...nodeFlags(), ...args], {
-    encoding: "utf8",
-    maxBuffer: 64 << 20,
-  });
-  const ms = performance.now() - t0;
-  const lines = proc.stdout ? proc.stdout.split("\n").length - 1 : 0;
-  const res = { ms, exit: proc.status, lines };
-  if (proc.status !== 0) res.error = proc.stderr.trim().split("\n").slice(0, 3).join(" / ");
-  log(`${format} cli: ${fmtS(ms)} s, exit ${proc.status}, ${lines} lines`);
+// ---------------------------------------------------------------------------------------------------------
+// The real command line, timed and its peak memory taken from outside the process
+
+/**
+ * Where the command line's peak memory comes from. spawnSync reports no resource usage of its child, and
+ * the launcher may restart itself with a larger heap (bin/espalier.js), so the peak is read from outside:
+ * GNU time's "Maximum resident set size" (wait4's rusage: the largest of the launcher and the process it
+ * restarted as) or, without it, the VmHWM of the process and its descendants polled from /proc.
+ */
+function peakSource(wanted) {
+  const timeWorks = () => {
+    if (!existsSync(TIME)) return false;
+    const probe = spawnSync(TIME, ["-v", process.execPath, "-e", ""], { encoding: "utf8" });
+    return probe.status === 0 && /Maximum resident set size/.test(probe.stderr ?? "");
+  };
+  const procWorks = () => existsSync(`/proc/${process.pid}/status`);
+  if (wanted === "time") return timeWorks() ? "time" : "none";
+  if (wanted === "proc") return procWorks() ? "proc" : "none";
+  if (timeWorks()) return "time";
+  return procWorks() ? "proc" : "none";
+}
+
+/** `node bin/espalier.js ARGS` once: { ms, exit, lines, output (SHA-1 of stdout), maxRssMiB or null }. */
+function runCommand(args) {
+  const argv = [...(options.heap ? [`--max-old-space-size=${options.heap}`] : []), cliScript, ...args];
+  // A restart marker inherited from a caller would stop the launcher from choosing its heap.
+  const env = { ...process.env };
+  delete env.ESPALIER_HEAP_RESTARTED;
+  const got = results.peakFrom === "time" ? timedWithTime(argv, env) : timedPolled(argv, env);
+  const res = {
+    ms: got.ms,
+    exit: got.exit,
+    lines: got.stdout.split("\n").length - 1,
+    output: sha1(got.stdout),
+    maxRssMiB: got.peakKiB === null ? null : Math.round((got.peakKiB / 1024) * 10) / 10,
+  };
+  if (got.exit !== 0)
+    res.error = `exit ${got.exit}: ${got.stderr.trim().split("\n").slice(0, 3).join(" / ")}`;
   return res;
 }
 
+function timedWithTime(argv, env) {
+  const t0 = performance.now();
+  const proc = spawnSync(TIME, ["-v", process.execPath, ...argv], {
+    encoding: "utf8",
+    maxBuffer: 256 << 20,
+    env,
+  });
+  const ms = performance.now() - t0;
+  // GNU time appends its report to the command's standard error.
+  const err = proc.stderr ?? "";
+  const at = err.lastIndexOf("\tCommand being timed:");
+  const own = (at === -1 ? err : err.slice(0, at)).replace(
+    /Command (exited with non-zero status|terminated by signal) \d+\n$/,
+    "",
+  );
+  const peak = /Maximum resident set size \(kbytes\): (\d+)/.exec(at === -1 ? "" : err.slice(at));
+  return {
+    ms,
+    exit: proc.status,
+    stdout: proc.stdout ?? "",
+    stderr: own,
+    peakKiB: peak ? Number(peak[1]) : null,
+  };
+}
+
+/** Spawns without blocking and polls VmHWM of the process and its descendants every 10 ms. */
+function timedPolled(argv, env) {
+  // A synchronous run would leave nobody to poll: run a tiny poller in a child that spawns the command.
+  const poller = `
+    const { spawn } = require("node:child_process");
+    const { readFileSync } = require("node:fs");
+    const [exe, ...argv] = JSON.parse(process.argv[1]);
+    const watch = ${String(results.peakFrom === "proc")};
+    const t0 = performance.now();
+    const child = spawn(exe, argv, { stdio: ["ignore", "pipe", "pipe"] });
+    const out = []; const err = [];
+    child.stdout.on("data", (d) => out.push(d));
+    child.stderr.on("data", (d) => err.push(d));
+    let peak = watch ? 0 : null;
+    const family = (pid) => {
+      const pids = [pid];
+      for (let i = 0; i < pids.length; i++) {
+        try {
+          for (const task of require("node:fs").readdirSync("/proc/" + pids[i] + "/task"))
+            for (const c of readFileSync("/proc/" + pids[i] + "/task/" + task + "/children", "utf8").split(" "))
+              if (c.trim() !== "") pids.push(Number(c));
+        } catch {}
+      }
+      return pids;
+    };
+    const poll = () => {
+      for (const pid of family(child.pid)) {
+        try {
+          const m = /VmHWM:\\s+(\\d+) kB/.exec(readFileSync("/proc/" + pid + "/status", "utf8"));
+          if (m && Number(m[1]) > peak) peak = Number(m[1]);
+        } catch {}
+      }
+    };
+    const timer = watch ? setInterval(poll, 10) : undefined;
+    child.on("close", (code, signal) => {
+      const ms = performance.now() - t0;
+      clearInterval(timer);
+      process.stdout.write(JSON.stringify({ ms, exit: code ?? signal, stdout: Buffer.concat(out).toString("utf8"),
+        stderr: Buffer.concat(err).toString("utf8"), peakKiB: peak }));
+    });`;
+  const proc = spawnSync(process.execPath, ["-e", poller, JSON.stringify([process.execPath, ...argv])], {
+    encoding: "utf8",
+    maxBuffer: 256 << 20,
+    env,
+  });
+  try {
+    return JSON.parse(proc.stdout);
+  } catch {
+    return { ms: 0, exit: proc.status ?? proc.signal, stdout: "", stderr: proc.stderr ?? "", peakKiB: null };
+  }
+}
+
+function sha1(text) {
+  return createHash("sha1").update(text).digest("hex");
+}
+
 /** One extra full run with the CPU profiler on (not timed: profiling slows it); the hottest functions. */
-function profile(format, file, foci, budget) {
+function profile(nodes, format, file, foci, heap) {
   const dir = join(outDir, "prof");
   mkdirSync(dir, { recursive: true });
-  const path = join(dir, `full-${format}.cpuprofile`);
-  const res = child({ kind: "full", format, file, foci, budget, profile: path });
+  const path = join(dir, `full-${format}-${nodes}.cpuprofile`);
+  const res = child({ kind: "full", format, file, foci, budget: options.budget, profile: path }, heap);
   if (res.error) return { error: res.error };
   log(`${format} profile: ${relative(repoRoot, path)}`);
   return { file: relative(repoRoot, path), top: topFunctions(path, 15) };
 }
 
+/**
+ * Issue 4's scaling targets, when more than one size ran: for each larger size against the smallest,
+ * the ratio of the median times (in process and command line) against `scalePerNode` times the ratio
+ * of the node counts, and the peak memory (in process and command line) against 3 GiB at 10M nodes.
+ */
+function scaleFigures(sizes) {
+  const counts = Object.keys(sizes)
+    .map(Number)
+    .sort((a, b) => a - b);
+  if (counts.length < 2) return null;
+  const small = counts[0];
+  const out = [];
+  for (const big of counts.slice(1)) {
+    for (const format of Object.keys(sizes[big].formats)) {
+      const a = sizes[small].formats[format];
+      const b = sizes[big].formats[format];
+      if (!a || !b) continue;
+      const target = TARGETS.scalePerNode * (big / small);
+      const ratio = (x, y) => (x !== undefined && y !== undefined ? y / x : undefined);
+      const row = {
+        format,
+        small,
+        big,
+        target,
+        fullRatio: ratio(a.fullMs, b.fullMs),
+        cliRatio: ratio(a.cliMs, b.cliMs),
+        fullMiB: b.fullMiB,
+        cliMiB: b.cliMiB,
+        load: [a.load.median, b.load.median],
+      };
+      if (row.fullRatio !== undefined) row.fullPass = row.fullRatio <= target;
+      if (row.cliRatio !== undefined) row.cliPass = row.cliRatio <= target;
+      if (big === 10_000_000)
+        row.memoryPass = [row.fullMiB, row.cliMiB]
+          .filter((v) => v != null)
+          .every((v) => v < TARGETS.peakAt10M);
+      out.push(row);
+    }
+  }
+  return out;
+}
+
 /** Load once, then time summarize() for many random foci (issue 4: each re-focus <= 50 ms). */
-function benchRefocus(format) {
-  if (!format) return null;
-  const res = child({
-    kind: "refocus",
-    format,
-    file: manifest.files[format],
-    budget: options.budget,
-    calls: options.calls,
-    seed: 7,
-  });
+function benchRefocus(format, manifest) {
+  if (!format || !manifest) return null;
+  const file = manifest.files[format];
+  const res = child(
+    { kind: "refocus", format, file, budget: options.budget, calls: options.calls, seed: 7 },
+    heapFor([file]),
+  );
   if (res.error) {
     log(`refocus: ERROR ${res.error}`);
     return { format, error: res.error };
   }
   const out = {
     format,
+    nodes: manifest.nodes,
     calls: res.summarizeMs.length,
     medianMs: median(res.summarizeMs),
     maxMs: Math.max(...res.summarizeMs),
@@ -206,14 +432,16 @@ function benchRefocus(format) {
  * Issue 3: `espalier diff` of two 1M-node versions with 1% of the nodes changed takes at most 2.5x the
  * time of summarising one version. Per format (CSV with ids: matched by id; nested JSON: matched by
  * path), alternating children time the summary of OLD (no foci) and the diff OLD -> NEW (no foci), both
- * as the CLI runs them; the ratio is of this run's medians. Then the real CLI once, and a profile.
+ * as the CLI runs them (both versions streamed, as summary-command.ts and diff-command.ts load); the
+ * ratio is of this run's medians. Then the real CLI (its output checked against the diff run's), and a
+ * profile. At the first size given to --nodes only.
  */
 function benchDiff() {
   if (!options.diff) return { skipped: true, reason: "--no-diff" };
   const formats = options.only.filter((f) => DIFF_FORMATS.includes(f));
   if (formats.length === 0)
     return { skipped: true, reason: `--only names none of the diff's formats (${DIFF_FORMATS.join(", ")})` };
-  const base = ensureData({ nodes: options.nodes, formats: DIFF_FORMATS, log });
+  const base = ensureData({ nodes: options.sizes[0], formats: DIFF_FORMATS, log });
   const v2 = ensureDiffData({ base, force: options.forceData, log });
   const out = {
     target: TARGETS.diffTime,
@@ -231,13 +459,15 @@ function benchDiff() {
     warmCache(newFile);
     const runs = { summary: [], diff: [] };
     const loadBefore = loadavg()[0];
+    const summaryHeap = heapFor([oldFile]);
+    const diffHeap = heapFor([oldFile, newFile]);
     for (let r = 0; r < options.repeat; r++) {
       const order = r % 2 === 0 ? ["summary", "diff"] : ["diff", "summary"];
       for (const kind of order) {
         const res =
           kind === "summary"
-            ? child({ kind: "full", format, file: oldFile, foci: [], budget: options.budget })
-            : child({ kind: "diff", format, oldFile, newFile, budget: options.budget });
+            ? child({ kind: "full", format, file: oldFile, foci: [], budget: options.budget }, summaryHeap)
+            : child({ kind: "diff", format, oldFile, newFile, budget: options.budget }, diffHeap);
         runs[kind].push(res);
         log(
           `diff ${format} ${kind} #${r + 1}: ${res.error ? `ERROR ${res.error}` : `${fmtS(res.ms)} s, ${res.maxRssMiB} MiB`}`,
@@ -247,8 +477,11 @@ function benchDiff() {
     const entry = summarizeDiffRuns(runs);
     entry.load = [loadBefore, loadavg()[0]];
     entry.expected = v2.changes[format === "csv" ? "id" : "path"];
-    if (options.cli) entry.cli = runDiffCli(format, oldFile, newFile, options.budget);
-    if (options.cpuProf) entry.profile = profileDiff(format, oldFile, newFile, options.budget);
+    if (options.cli) {
+      entry.cli = runDiffCli(format, oldFile, newFile, options.budget);
+      if (entry.check) entry.cliSameOutput = entry.cli.output === entry.check.output;
+    }
+    if (options.cpuProf) entry.profile = profileDiff(format, oldFile, newFile, options.budget, diffHeap);
     out.formats[format] = entry;
   }
   return out;
@@ -273,27 +506,20 @@ function summarizeDiffRuns(runs) {
   return entry;
 }
 
-/** `espalier diff OLD NEW --budget N`, once, timed from outside (start-up included). */
+/** `espalier diff OLD NEW --budget N`, once, timed from outside (start-up included), with its peak. */
 function runDiffCli(format, oldFile, newFile, budget) {
-  const t0 = performance.now();
-  const proc = spawnSync(
-    process.execPath,
-    [...nodeFlags(), cliScript, "diff", oldFile, newFile, "--budget", String(budget)],
-    { encoding: "utf8", maxBuffer: 64 << 20 },
-  );
-  const ms = performance.now() - t0;
-  const lines = proc.stdout ? proc.stdout.split("\n").length - 1 : 0;
-  const res = { ms, exit: proc.status, lines };
-  if (proc.status !== 0) res.error = proc.stderr.trim().split("\n").slice(0, 3).join(" / ");
-  log(`diff ${format} cli: ${fmtS(ms)} s, exit ${proc.status}, ${lines} lines`);
+  const res = runCommand(["diff", oldFile, newFile, "--budget", String(budget)]);
+  // diff exits 0 (no --exit-code); anything else is a failure.
+  const rss = res.maxRssMiB === null ? "peak ?" : `${res.maxRssMiB} MiB`;
+  log(`diff ${format} cli: ${fmtS(res.ms)} s, ${rss}, exit ${res.exit}, ${res.lines} lines`);
   return res;
 }
 
-function profileDiff(format, oldFile, newFile, budget) {
+function profileDiff(format, oldFile, newFile, budget, heap) {
   const dir = join(outDir, "prof");
   mkdirSync(dir, { recursive: true });
   const path = join(dir, `diff-${format}.cpuprofile`);
-  const res = child({ kind: "diff", format, oldFile, newFile, budget, profile: path });
+  const res = child({ kind: "diff", format, oldFile, newFile, budget, profile: path }, heap);
   if (res.error) return { error: res.error };
   log(`diff ${format} profile: ${relative(repoRoot, path)}`);
   return { file: relative(repoRoot, path), top: topFunctions(path, 15) };
@@ -303,73 +529,49 @@ function profileDiff(format, oldFile, newFile, budget) {
 // Report
 
 function report(r) {
-  const rows = [];
-  rows.push([
-    "format",
-    "floor s",
-    "full s",
-    "time x",
-    "issue 2",
-    "issue 4",
-    "floor MiB",
-    "full MiB",
-    "mem x",
-    "issue 4 mem",
-    "CLI s",
-  ]);
-  for (const format of Object.keys(r.formats)) {
-    const e = r.formats[format];
-    if (e.timeRatio === undefined) {
-      rows.push([format, "error", "", "", "", "", "", "", "", "", ""]);
-      continue;
-    }
-    rows.push([
-      format,
-      fmtS(e.floorMs),
-      fmtS(e.fullMs),
-      e.timeRatio.toFixed(2),
-      `${passMiss(e.pass.issue2Time)} <=${TARGETS.issue2Time[format].toFixed(1)}`,
-      `${passMiss(e.pass.issue4Time)} <=${TARGETS.issue4Time[format].toFixed(1)}`,
-      e.floorMiB.toFixed(0),
-      e.fullMiB.toFixed(0),
-      e.memoryRatio.toFixed(2),
-      `${passMiss(e.pass.issue4Memory)} <=${TARGETS.issue4Memory[format].toFixed(1)}`,
-      e.cli ? (e.cli.error ? "error" : fmtS(e.cli.ms)) : "-",
-    ]);
-  }
   const lines = [];
-  const n = r.data.nodes.toLocaleString("en-US");
   lines.push("");
   lines.push(
-    `espalier bench: ${n} nodes, budget ${r.options.budget}, median of ${r.options.repeat}, ${r.node} ${r.platform}`,
+    `espalier bench: budget ${r.options.budget}, median of ${r.options.repeat}, ${r.node} ${r.platform}, ${r.cpus} CPUs`,
   );
-  lines.push(`(peak RSS includes Node's own ${r.baseline.maxRssMiB} MiB; ratios are full / floor)`);
+  lines.push(
+    `(peak RSS includes Node's own ${r.baseline.maxRssMiB} MiB; ratios are full / floor; full = as the CLI ` +
+      "runs it, streamed; CLI = the real command line, timed and its peak taken from outside " +
+      `(${r.peakFrom === "time" ? "GNU time -v" : r.peakFrom === "proc" ? "VmHWM polled from /proc" : "peak unknown"}))`,
+  );
   const busy = Math.max(r.loadBefore, r.loadAfter);
   if (busy > r.cpus / 2)
     lines.push(
-      `warning: the machine was busy (1-min load ${busy.toFixed(1)} on ${r.cpus} CPUs); times are noisy`,
+      `warning: the machine was busy (1-min load up to ${busy.toFixed(1)} on ${r.cpus} CPUs); times are noisy`,
     );
-  if (rows.length > 1) {
+  for (const [nodes, size] of Object.entries(r.sizes)) {
     lines.push("");
-    lines.push(...table(rows));
-    lines.push("");
-    lines.push("where the full time goes (median ms):");
+    lines.push(`${Number(nodes).toLocaleString("en-US")} nodes:`);
+    lines.push(...sizeTable(size));
+    lines.push(...phaseLines(size, Number(nodes)));
   }
-  for (const format of Object.keys(r.formats)) {
-    const e = r.formats[format];
-    if (e.fullPhases) {
-      const fl = Object.entries(e.floorPhases)
-        .map(([k, v]) => `${k} ${v.toFixed(0)}`)
-        .join(", ");
-      const fu = Object.entries(e.fullPhases)
-        .map(([k, v]) => `${k} ${v.toFixed(0)}`)
-        .join(", ");
-      lines.push(`  ${format.padEnd(6)} full: ${fu}   | floor: ${fl}`);
+  if (r.scale) {
+    lines.push("");
+    lines.push(
+      `scale (issue 4: ${TARGETS.scalePerNode * 10}x the time for 10x the nodes, peak < ${TARGETS.peakAt10M / 1024} GiB at 10M):`,
+    );
+    const rows = [
+      ["format", "sizes", "full x", "CLI x", "target", "full MiB", "CLI MiB", "memory", "load 1m"],
+    ];
+    for (const row of r.scale) {
+      rows.push([
+        row.format,
+        `${short(row.big)} / ${short(row.small)}`,
+        row.fullPass === undefined ? "-" : `${fmtX(row.fullRatio)} ${passMiss(row.fullPass)}`,
+        row.cliPass === undefined ? "-" : `${fmtX(row.cliRatio)} ${passMiss(row.cliPass)}`,
+        `<=${row.target.toFixed(1)}`,
+        fmtMiB(row.fullMiB),
+        fmtMiB(row.cliMiB),
+        row.memoryPass === undefined ? "-" : `${passMiss(row.memoryPass)} <${TARGETS.peakAt10M}`,
+        row.load.map((l) => l.toFixed(1)).join(" / "),
+      ]);
     }
-    for (const err of e.errors ?? []) lines.push(`  ${format.padEnd(6)} ERROR ${err}`);
-    if (e.cli?.error) lines.push(`  ${format.padEnd(6)} CLI ERROR ${e.cli.error}`);
-    if (e.check && e.check.nodes !== r.data.nodes)
-      lines.push(`  ${format.padEnd(6)} note: loaded ${e.check.nodes} nodes, generated ${r.data.nodes}`);
+    lines.push(...table(rows));
   }
   const rf = r.refocus;
   if (rf) {
@@ -377,25 +579,27 @@ function report(r) {
     if (rf.error) lines.push(`re-focus (${rf.format}): ERROR ${rf.error}`);
     else
       lines.push(
-        `re-focus (${rf.format}, ${rf.calls} calls of summarize() on one loaded tree): median ${rf.medianMs.toFixed(1)} ms, ` +
+        `re-focus (${rf.format}, ${short(rf.nodes)} nodes, ${rf.calls} calls of summarize() on one loaded tree): median ${rf.medianMs.toFixed(1)} ms, ` +
           `max ${rf.maxMs.toFixed(1)} ms (first ${rf.firstMs.toFixed(1)} ms)   ${passMiss(rf.pass)} <=${TARGETS.refocusMs} ms each`,
       );
   }
   lines.push("");
   lines.push(...diffReport(r.diff));
-  for (const format of Object.keys(r.formats)) {
-    const p = r.formats[format].profile;
-    if (!p) continue;
-    lines.push("");
-    if (p.error) {
-      lines.push(`profile ${format}: ERROR ${p.error}`);
-      continue;
+  for (const [nodes, size] of Object.entries(r.sizes)) {
+    for (const format of Object.keys(size.formats)) {
+      const p = size.formats[format].profile;
+      if (!p) continue;
+      lines.push("");
+      if (p.error) {
+        lines.push(`profile ${format} ${short(Number(nodes))}: ERROR ${p.error}`);
+        continue;
+      }
+      lines.push(`profile ${format} ${short(Number(nodes))} (${p.file}), top self time:`);
+      for (const t of p.top)
+        lines.push(
+          `  ${t.selfMs.toFixed(0).padStart(6)} ms ${t.percent.toFixed(1).padStart(5)}%  ${t.name}  ${t.where}`,
+        );
     }
-    lines.push(`profile ${format} (${p.file}), top self time:`);
-    for (const t of p.top)
-      lines.push(
-        `  ${t.selfMs.toFixed(0).padStart(6)} ms ${t.percent.toFixed(1).padStart(5)}%  ${t.name}  ${t.where}`,
-      );
   }
   for (const [format, e] of Object.entries(r.diff.formats ?? {})) {
     const p = e.profile;
@@ -413,6 +617,88 @@ function report(r) {
   }
   lines.push("");
   return lines.join("\n");
+}
+
+/** The main table of one size: a row per format, and a secondary row for the in-memory loader. */
+function sizeTable(size) {
+  const rows = [
+    [
+      "format",
+      "floor s",
+      "full s",
+      "time x",
+      "issue 2",
+      "issue 4",
+      "floor MiB",
+      "full MiB",
+      "mem x",
+      "issue 4 mem",
+      "CLI s",
+      "CLI MiB",
+      "load 1m",
+    ],
+  ];
+  for (const [format, e] of Object.entries(size.formats)) {
+    const load = `${e.load.min.toFixed(1)}-${e.load.max.toFixed(1)}`;
+    rows.push([
+      format + (e.floorChunked ? " *" : ""),
+      e.floorMs === undefined ? "error" : fmtS(e.floorMs),
+      e.fullMs === undefined ? "error" : fmtS(e.fullMs),
+      fmtX(e.timeRatio),
+      e.pass ? `${passMiss(e.pass.issue2Time)} <=${TARGETS.issue2Time[format].toFixed(1)}` : "-",
+      e.pass ? `${passMiss(e.pass.issue4Time)} <=${TARGETS.issue4Time[format].toFixed(1)}` : "-",
+      fmtMiB(e.floorMiB),
+      fmtMiB(e.fullMiB),
+      fmtX(e.memoryRatio),
+      e.pass ? `${passMiss(e.pass.issue4Memory)} <=${TARGETS.issue4Memory[format].toFixed(1)}` : "-",
+      e.cliMs === undefined ? (e.runs.cli ? "error" : "-") : fmtS(e.cliMs),
+      fmtMiB(e.cliMiB),
+      load,
+    ]);
+    if (e.memoryMs !== undefined) {
+      rows.push([
+        `  in memory`,
+        "",
+        fmtS(e.memoryMs),
+        e.floorMs === undefined ? "-" : fmtX(e.memoryMs / e.floorMs),
+        "",
+        "",
+        "",
+        fmtMiB(e.memoryMiB),
+        e.floorMiB === undefined ? "-" : fmtX(e.memoryMiB / e.floorMiB),
+        "",
+        "",
+        "",
+        "",
+      ]);
+    }
+  }
+  return table(rows);
+}
+
+function phaseLines(size, nodes) {
+  const lines = ["where the time goes (median ms):"];
+  const phases = (p) =>
+    Object.entries(p)
+      .map(([k, v]) => `${k} ${v.toFixed(0)}`)
+      .join(", ");
+  for (const [format, e] of Object.entries(size.formats)) {
+    const pad = format.padEnd(6);
+    if (e.fullPhases) lines.push(`  ${pad} full: ${phases(e.fullPhases)}`);
+    if (e.memoryPhases) lines.push(`  ${pad} in memory: ${phases(e.memoryPhases)}`);
+    if (e.floorPhases)
+      lines.push(
+        `  ${pad} floor${e.floorChunked ? " (* in 1 MiB chunks: longer than one string)" : ""}: ${phases(e.floorPhases)}`,
+      );
+    for (const err of e.errors ?? []) lines.push(`  ${pad} ERROR ${err}`);
+    if (e.cliSameOutput === false)
+      lines.push(`  ${pad} WARNING: the command line printed other text than the full run`);
+    if (e.check && e.check.nodes !== nodes)
+      lines.push(`  ${pad} note: loaded ${e.check.nodes} nodes, generated ${nodes}`);
+    if (e.heapMiB > 0)
+      lines.push(`  ${pad} heap limit ${e.heapMiB} MiB (as the launcher would restart with)`);
+  }
+  return lines;
 }
 
 function diffReport(d) {
@@ -435,12 +721,13 @@ function diffReport(d) {
       "diff MiB",
       "mem x",
       "CLI s",
+      "CLI MiB",
       "load 1m",
     ],
   ];
   for (const [format, e] of Object.entries(d.formats)) {
     if (e.timeRatio === undefined) {
-      rows.push([format, "error", "", "", "", "", "", "", "", "", ""]);
+      rows.push([format, "error", "", "", "", "", "", "", "", "", "", ""]);
       continue;
     }
     rows.push([
@@ -454,6 +741,7 @@ function diffReport(d) {
       e.diffMiB.toFixed(0),
       e.memoryRatio.toFixed(2),
       e.cli ? (e.cli.error ? "error" : fmtS(e.cli.ms)) : "-",
+      e.cli ? fmtMiB(e.cli.maxRssMiB) : "-",
       e.load.map((l) => l.toFixed(1)).join("-"),
     ]);
   }
@@ -479,6 +767,8 @@ function diffReport(d) {
     }
     for (const err of e.errors ?? []) lines.push(`  ${format.padEnd(6)} ERROR ${err}`);
     if (e.cli?.error) lines.push(`  ${format.padEnd(6)} CLI ERROR ${e.cli.error}`);
+    if (e.cliSameOutput === false)
+      lines.push(`  ${format.padEnd(6)} WARNING: the command line printed other text than the diff run`);
   }
   return lines;
 }
@@ -498,6 +788,21 @@ function fmtS(ms) {
   return (ms / 1000).toFixed(2);
 }
 
+function fmtX(x) {
+  return x === undefined ? "-" : x.toFixed(2);
+}
+
+function fmtMiB(v) {
+  return v === undefined || v === null ? "-" : v.toFixed(0);
+}
+
+/** 1000000 -> "1M", 20000 -> "20k". */
+function short(n) {
+  if (n % 1_000_000 === 0) return `${n / 1_000_000}M`;
+  if (n % 1000 === 0) return `${n / 1000}k`;
+  return String(n);
+}
+
 function median(values) {
   const s = [...values].sort((a, b) => a - b);
   const mid = s.length >> 1;
@@ -514,7 +819,7 @@ function warmCache(file) {
 
 function parseArgs(argv) {
   const o = {
-    nodes: 1_000_000,
+    sizes: [1_000_000],
     only: FORMATS,
     repeat: 3,
     budget: 40,
@@ -522,6 +827,8 @@ function parseArgs(argv) {
     heap: undefined,
     cpuProf: false,
     cli: true,
+    memory: true,
+    rssFrom: "auto",
     diff: true,
     diffOnly: false,
     forceData: false,
@@ -538,8 +845,14 @@ function parseArgs(argv) {
       if (!Number.isInteger(v) || v < 1) usage(`${a} needs a whole number >= 1`);
       return v;
     };
-    if (a === "--nodes") o.nodes = count();
-    else if (a === "--only") {
+    if (a === "--nodes") {
+      // One size or several, comma-separated ("1000000,10000000" or "1_000_000,10_000_000").
+      o.sizes = value()
+        .split(",")
+        .map((v) => Number(v.replace(/_/g, "")));
+      if (o.sizes.some((v) => !Number.isInteger(v) || v < 1)) usage("--nodes needs whole numbers >= 1");
+      o.sizes = [...new Set(o.sizes)].sort((x, y) => x - y);
+    } else if (a === "--only") {
       const list = value().split(",");
       for (const f of list)
         if (!FORMATS.includes(f) && f !== "diff")
@@ -556,7 +869,11 @@ function parseArgs(argv) {
     else if (a === "--heap") o.heap = count();
     else if (a === "--cpu-prof") o.cpuProf = true;
     else if (a === "--no-cli") o.cli = false;
-    else if (a === "--no-diff") o.diff = false;
+    else if (a === "--no-memory") o.memory = false;
+    else if (a === "--rss-from") {
+      o.rssFrom = value();
+      if (!["auto", "time", "proc"].includes(o.rssFrom)) usage("--rss-from: auto, time or proc");
+    } else if (a === "--no-diff") o.diff = false;
     else if (a === "--force-data") o.forceData = true;
     else usage(`unknown option ${a}`);
   }
@@ -566,7 +883,7 @@ function parseArgs(argv) {
 function usage(message) {
   log(`bench: ${message}`);
   log(
-    "usage: npm run bench -- [--nodes N] [--only json,csv,paths,diff] [--repeat N] [--budget N] [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--no-diff] [--force-data]",
+    "usage: npm run bench -- [--nodes N[,N...]] [--only json,csv,paths,diff] [--repeat N] [--budget N] [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--no-memory] [--no-diff] [--rss-from auto|time|proc] [--force-data]",
   );
   process.exit(2);
 }
