@@ -78,9 +78,18 @@ export function select(
   const heap = new NodeHeap(order);
   const pushChildren = (p: number) => {
     if (count[p] === 1) return;
-    // With the budget used up only a child that costs no line could still enter.
-    if (lines >= budget && cost(p + 1) !== 0) return;
     const end = p + count[p];
+    if (lines >= budget && cost(p + 1) !== 0) {
+      // The budget is used up and these children each cost a line: none can enter, but the first of
+      // them in the order must still stop a later node that costs nothing (the shown set stays a
+      // prefix). Pushing only that one spares the heap a node with a million children.
+      if (!chains) return;
+      let first = -1;
+      for (let c = p + 1; c < end; c += count[c])
+        if (!shown[c] && (first < 0 || order(c, first) < 0)) first = c;
+      if (first >= 0) heap.push(first);
+      return;
+    }
     for (let c = p + 1; c < end; c += count[c]) if (!shown[c]) heap.push(c);
   };
   for (const f of forcedNodes) pushChildren(f);

@@ -5,6 +5,7 @@ import { lineCost, select } from "../../src/fit/select.js";
 import { interest } from "../../src/interest/doi.js";
 import { importance } from "../../src/interest/importance.js";
 import { nodeOrder } from "../../src/interest/order.js";
+import { buildTree } from "../../src/model/build.js";
 import { measure } from "../../src/model/measure.js";
 import { PathIndex } from "../../src/model/paths.js";
 import type { Tree } from "../../src/model/tree.js";
@@ -87,6 +88,7 @@ describe("select(tree, measures, scores, order, budget)", () => {
         // Connected: every shown node's parent is shown.
         for (let i = 1; i < tree.length; i++) if (sel.shown[i]) expect(sel.shown[tree.parent[i]]).toBe(1);
       }),
+      { numRuns: 500 },
     );
   });
 
@@ -144,5 +146,31 @@ describe("select(tree, measures, scores, order, budget)", () => {
         expect(sum(free.map((i) => scores.value[i]))).toBeCloseTo(sum(best), 9);
       }),
     );
+  });
+
+  it("stops at the first node that does not fit even when a later one would cost no line (regression)", () => {
+    // Found by the prefix property: with chains and the budget used up, a parent's children that each
+    // cost a line must still stop an only child further down the order.
+    const parentOf = Int32Array.from([-1, 0, 1, 2, 3, 4, 3, 2, 2, 0, 9, 0, 11, 12, 0, 14]);
+    const tree = buildTree({
+      parentOf,
+      name: [...parentOf].map((_, i) => `n${i}`),
+      ownSize: new Float64Array(parentOf.length),
+      hasSizes: false,
+      ids: null,
+      origin: new Int32Array(parentOf.length),
+      originIsRow: false,
+      fields: new Map(),
+      rootName: "(root)",
+    });
+    for (let budget = 1; budget <= 16; budget++) {
+      const { order, run, forcedCount } = setup(tree, [], "depth", true);
+      if (budget < forcedCount) continue;
+      const sel = run(budget);
+      const all = [...Array(tree.length).keys()].sort(order);
+      const k = sel.admitted.length;
+      expect(all.slice(0, k).every((i) => sel.shown[i] === 1)).toBe(true);
+      expect(all.slice(k).every((i) => sel.shown[i] === 0)).toBe(true);
+    }
   });
 });
