@@ -22,7 +22,12 @@ export interface Prepared {
 
 export function prepare(tree: Tree): Prepared {
   const measures = measure(tree);
-  return { tree, measures, index: new PathIndex(tree, measures) };
+  const prepared = { tree, measures, index: new PathIndex(tree, measures) };
+  // Warm the per-tree caches here, at load time, so that even the first focus costs only
+  // interest + fit + view (a single summary computes them anyway).
+  cachedImportance(prepared, "depth");
+  scratchOf(prepared);
+  return prepared;
 }
 
 export interface SummarizeOptions {
