@@ -1,4 +1,5 @@
 import { EspalierError } from "../errors.js";
+import { doubled, hashStep, mix, rehashed, seed } from "./child-hash.js";
 import type { NodeSink } from "./nodeSink.js";
 
 const slash = 47;
@@ -162,39 +163,13 @@ export class PathIndex {
   }
 
   private rehash(): void {
-    const { keys, hashes } = this;
-    const slots = new Int32Array(this.slots.length * 2);
-    const mask = slots.length - 1;
-    for (let node = 0; node < keys.length; node++) {
-      let h = mix(hashes[node]) & mask;
-      while (slots[h] !== 0) h = (h + 1) & mask;
-      slots[h] = node + 1;
-    }
-    this.slots = slots;
+    this.slots = rehashed(this.slots, this.hashes, this.keys.length);
   }
 
   private growStack(): void {
-    const node = new Int32Array(this.stackNode.length * 2);
-    node.set(this.stackNode);
-    this.stackNode = node;
-    const end = new Int32Array(this.stackEnd.length * 2);
-    end.set(this.stackEnd);
-    this.stackEnd = end;
+    this.stackNode = doubled(this.stackNode);
+    this.stackEnd = doubled(this.stackEnd);
   }
-}
-
-// FNV-1a over UTF-16 code units, seeded with the parent's number.
-function seed(parent: number): number {
-  return Math.imul(parent + 1, 0x9e3779b1) ^ 0x811c9dc5;
-}
-
-function hashStep(hash: number, c: number): number {
-  return Math.imul(hash ^ c, 0x01000193);
-}
-
-/** Spreads the high bits into the low ones, which pick the slot. */
-function mix(hash: number): number {
-  return hash ^ (hash >>> 15);
 }
 
 /**

@@ -1,6 +1,7 @@
 import { Buffer, isUtf8 } from "node:buffer";
 import { EspalierError } from "../errors.js";
 import type { LinkedNodes } from "../model/build.js";
+import { doubled, hashStep, mix, rehashed, seed } from "./child-hash.js";
 import { NodeSink } from "./nodeSink.js";
 import { parseSize } from "./size.js";
 import type { LoadOptions } from "./types.js";
@@ -301,25 +302,12 @@ export class PathListByteReader {
   }
 
   private rehash(): void {
-    const { hashes } = this;
-    const n = this.sink.length;
-    const slots = new Int32Array(this.slots.length * 2);
-    const mask = slots.length - 1;
-    for (let node = 0; node < n; node++) {
-      let h = mix(hashes[node]) & mask;
-      while (slots[h] !== 0) h = (h + 1) & mask;
-      slots[h] = node + 1;
-    }
-    this.slots = slots;
+    this.slots = rehashed(this.slots, this.hashes, this.sink.length);
   }
 
   private growStack(): void {
-    const node = new Int32Array(this.stackNode.length * 2);
-    node.set(this.stackNode);
-    this.stackNode = node;
-    const end = new Int32Array(this.stackEnd.length * 2);
-    end.set(this.stackEnd);
-    this.stackEnd = end;
+    this.stackNode = doubled(this.stackNode);
+    this.stackEnd = doubled(this.stackEnd);
   }
 }
 
@@ -342,18 +330,4 @@ function sameName(name: string, bytes: Buffer, s: number, e: number, ascii: bool
   if (name.length !== e - s) return false;
   for (let k = 0; k < name.length; k++) if (name.charCodeAt(k) !== bytes[s + k]) return false;
   return true;
-}
-
-// FNV-1a over bytes, seeded with the parent's number.
-function seed(parent: number): number {
-  return Math.imul(parent + 1, 0x9e3779b1) ^ 0x811c9dc5;
-}
-
-function hashStep(hash: number, c: number): number {
-  return Math.imul(hash ^ c, 0x01000193);
-}
-
-/** Spreads the high bits into the low ones, which pick the slot. */
-function mix(hash: number): number {
-  return hash ^ (hash >>> 15);
 }
