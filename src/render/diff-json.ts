@@ -3,6 +3,7 @@ import type { DiffTotals } from "../diff/diff-trees.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
 import { DIFF_FORMAT, type DiffSummary, type DiffSummaryNode } from "./diff-schema.js";
 import { jsonText } from "./json-text.js";
+import { mapTree } from "./map-tree.js";
 
 export interface DiffJsonOptions {
   budget: number;
@@ -36,16 +37,7 @@ export function toDiffSummary(
     children: [],
     hidden: node.hidden ? { ...node.hidden, changes: { ...node.hidden.changes } } : null,
   });
-  const root = convert(view.data);
-  const stack: [DiffViewNode, DiffSummaryNode][] = [[view.data, root]];
-  for (let top = stack.pop(); top !== undefined; top = stack.pop()) {
-    const [node, out] = top;
-    for (const child of node.children) {
-      const converted = convert(child);
-      out.children.push(converted);
-      stack.push([child, converted]);
-    }
-  }
+  const root = mapTree(view.data, convert);
   return {
     format: DIFF_FORMAT,
     match: options.by,

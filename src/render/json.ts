@@ -1,6 +1,7 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import type { ViewNode } from "../view/view-node.js";
 import { jsonText } from "./json-text.js";
+import { mapTree } from "./map-tree.js";
 import { SUMMARY_FORMAT, type Summary, type SummaryNode } from "./summary-schema.js";
 
 export interface JsonOptions {
@@ -25,16 +26,7 @@ export function toSummary(view: HierarchyNode<ViewNode>, options: JsonOptions): 
     children: [],
     hidden: node.hidden ? { ...node.hidden } : null,
   });
-  const root = convert(view.data);
-  const stack: [ViewNode, SummaryNode][] = [[view.data, root]];
-  for (let top = stack.pop(); top !== undefined; top = stack.pop()) {
-    const [node, out] = top;
-    for (const child of node.children) {
-      const converted = convert(child);
-      out.children.push(converted);
-      stack.push([child, converted]);
-    }
-  }
+  const root = mapTree(view.data, convert);
   return {
     format: SUMMARY_FORMAT,
     budget: options.budget,
