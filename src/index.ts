@@ -14,6 +14,7 @@ export { loadTreeFromStream } from "./load/stream/index.js";
 export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } from "./load/types.js";
 export { buildTree, type LinkedNodes } from "./model/build.js";
 export { type Measures, measure } from "./model/measure.js";
+export { NamePool, type Names, namesToArray, StringNames } from "./model/names.js";
 export { PathIndex } from "./model/paths.js";
 export { escapeSegment, parseSegment, splitPath } from "./model/segment.js";
 export type { Tree } from "./model/tree.js";

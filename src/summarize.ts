@@ -73,8 +73,8 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
   );
   const nameOf =
     key === undefined
-      ? (i: number) => tree.name[i]
-      : (i: number) => (i === 0 && tree.syntheticRoot ? tree.name[i] : pseudonym(key, tree.name[i]));
+      ? (i: number) => tree.name.get(i)
+      : (i: number) => (i === 0 && tree.syntheticRoot ? tree.name.get(i) : pseudonym(key, tree.name.get(i)));
   const pathOf =
     key === undefined
       ? (i: number) => index.path(i)

@@ -1,3 +1,4 @@
+import { PrefixedNames } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 
 /**
@@ -8,8 +9,8 @@ import type { Tree } from "../model/tree.js";
 export function alignRoots(oldTree: Tree, newTree: Tree): [Tree, Tree] {
   if (oldTree.syntheticRoot === newTree.syntheticRoot) return [oldTree, newTree];
   return oldTree.syntheticRoot
-    ? [oldTree, underRoot(newTree, oldTree.name[0])]
-    : [underRoot(oldTree, newTree.name[0]), newTree];
+    ? [oldTree, underRoot(newTree, oldTree.name.get(0))]
+    : [underRoot(oldTree, newTree.name.get(0)), newTree];
 }
 
 /** The same tree one level down, under a new synthetic root named `rootName`. */
@@ -32,7 +33,7 @@ export function underRoot(tree: Tree, rootName: string): Tree {
     length: n,
     parent,
     depth,
-    name: [rootName, ...tree.name],
+    name: new PrefixedNames(rootName, tree.name),
     ownSize,
     hasSizes: tree.hasSizes,
     ids: tree.ids ? ["", ...tree.ids] : null,

@@ -1,3 +1,4 @@
+import { StringNames } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 import { KIND } from "./changes.js";
 import type { Matching } from "./match.js";
@@ -203,7 +204,7 @@ function fill(
     } else {
       delta[k] = newSize[n] - oldSize[o];
       if (n > 0 && newToOld[newParent[n]] !== oldParent[o]) kind[k] = KIND.moved;
-      else if ((n > 0 ? byId : renameRoot) && newName[n] !== oldName[o]) kind[k] = KIND.renamed;
+      else if ((n > 0 ? byId : renameRoot) && newName.get(n) !== oldName.get(o)) kind[k] = KIND.renamed;
       else if (delta[k] !== 0) kind[k] = KIND.resized;
     }
   }
@@ -243,13 +244,13 @@ function copyTree(
     const n = newIndex[k];
     depth[k] = k === 0 ? 0 : depth[parent[k]] + 1;
     if (n >= 0) {
-      name[k] = newName[n];
+      name[k] = newName.get(n);
       origin[k] = newOrigin[n];
       ownSize[k] = newSize[n];
       if (ids) ids[k] = newIds[n];
     } else {
       const o = oldIndex[k];
-      name[k] = oldName[o];
+      name[k] = oldName.get(o);
       origin[k] = oldOrigin[o];
       if (ids) ids[k] = oldIds[o];
     }
@@ -269,7 +270,7 @@ function copyTree(
     length: total,
     parent,
     depth,
-    name,
+    name: new StringNames(name),
     ownSize,
     hasSizes: oldTree.hasSizes || newTree.hasSizes,
     ids,

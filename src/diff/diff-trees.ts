@@ -78,7 +78,7 @@ export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions):
   const selection = select(tree, measures, scores, order, options.budget, DIFF_HEADER_LINES);
 
   const hide = (t: Tree) => (i: number) =>
-    key === undefined || (i === 0 && t.syntheticRoot) ? t.name[i] : pseudonym(key, t.name[i]);
+    key === undefined || (i === 0 && t.syntheticRoot) ? t.name.get(i) : pseudonym(key, t.name.get(i));
   const nameOf = hide(tree);
   const pathOf =
     key === undefined

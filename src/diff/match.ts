@@ -1,3 +1,4 @@
+import { sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 
 /** How the nodes of two versions correspond. Roots always correspond to each other. */
@@ -121,7 +122,7 @@ function matchByPath(
     // Usual case: the same names in the same order, paired position by position.
     let oc = o + 1;
     let nc = n + 1;
-    while (oc < oEnd && nc < nEnd && oldName[oc] === newName[nc]) {
+    while (oc < oEnd && nc < nEnd && sameName(oldName, oc, newName, nc)) {
       oldToNew[oc] = nc;
       newToOld[nc] = oc;
       oc += oldCount[oc];
@@ -131,12 +132,13 @@ function matchByPath(
     // Otherwise the k-th remaining old child of a name pairs with the k-th remaining new child of it.
     const waiting = new Map<string, { next: number; list: number[] }>();
     for (let c = oc; c < oEnd; c += oldCount[c]) {
-      const queue = waiting.get(oldName[c]);
+      const name = oldName.get(c);
+      const queue = waiting.get(name);
       if (queue) queue.list.push(c);
-      else waiting.set(oldName[c], { next: 0, list: [c] });
+      else waiting.set(name, { next: 0, list: [c] });
     }
     for (let c = nc; c < nEnd; c += newCount[c]) {
-      const queue = waiting.get(newName[c]);
+      const queue = waiting.get(newName.get(c));
       if (!queue || queue.next === queue.list.length) continue;
       const m = queue.list[queue.next++];
       oldToNew[m] = c;

@@ -51,7 +51,7 @@ export function matchGlob(tree: Tree, measures: Measures, spec: string): number[
       continue;
     }
     let to = 0;
-    const name = tree.name[i];
+    const name = tree.name.get(i);
     for (let s = 0; s < steps.length; s++) {
       if (!(from & (1 << s))) continue;
       const step = steps[s];

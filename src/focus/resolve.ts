@@ -79,7 +79,7 @@ export function resolveFoci(index: PathIndex, specs: readonly string[], pseudony
       spec,
       pseudonymKey === undefined
         ? undefined
-        : (i) => index.path(i, (j) => escapeSegment(pseudonym(pseudonymKey, tree.name[j]))),
+        : (i) => index.path(i, (j) => escapeSegment(pseudonym(pseudonymKey, tree.name.get(j)))),
     );
     throw new EspalierError(
       "FOCUS_NO_MATCH",

@@ -36,7 +36,7 @@ export function suggestPath(
   // A name that itself contains "/" typed unescaped ("@scope/pkg" for "@scope~1pkg").
   const joined = lenientResolve(index, 0, raw, 0, { left: MAX_LOOKUPS });
   if (joined >= 0) return pathOf(joined);
-  for (let i = 1; i < tree.length; i++) if (tree.name[i] === last) return pathOf(i);
+  for (let i = 1; i < tree.length; i++) if (tree.name.get(i) === last) return pathOf(i);
 
   let node = 0;
   for (const text of raw) {

@@ -1,5 +1,6 @@
 import { EspalierError } from "../errors.js";
 import type { LinkedNodes } from "../model/build.js";
+import { NamePool } from "../model/names.js";
 import { IdIndex } from "./idIndex.js";
 import { limitExceeded, NodeSink } from "./nodeSink.js";
 import { PathIndex } from "./pathIndex.js";
@@ -81,9 +82,11 @@ function linkById(
     if (!named) name[r] = (names && cellText(names[r])) || ids[r];
     if (sizes) ownSize[r] = sizeOf(sizes[r], table.textCells, r + 1, options.sizeField);
   }
+  const pool = new NamePool(n, n * 8);
+  for (let r = 0; r < n; r++) pool.setString(r, name[r]);
   return {
     parentOf,
-    name,
+    name: pool,
     ownSize,
     hasSizes: sizes !== undefined,
     ids,
@@ -111,7 +114,7 @@ function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptio
     }
     nodeOfRow[r] = i;
     const label = names ? cellText(names[r]) : "";
-    if (label !== "") sink.name[i] = label;
+    if (label !== "") sink.name.setString(i, label);
     if (sizes) sink.ownSize[i] = sizeOf(sizes[r], table.textCells, r + 1, options.sizeField);
   }
   sink.hasSizes = sizes !== undefined;

@@ -89,7 +89,7 @@ export function walkNested<V>(root: V, access: NestedAccess<V>, options: LoadOpt
       const nameValue = access.field(v, nameField);
       const nameKind = access.kind(nameValue);
       if (nameKind === Kind.String || nameKind === Kind.Number || nameKind === Kind.Boolean) {
-        sink.name[i] = access.text(nameValue as V);
+        sink.name.setString(i, access.text(nameValue as V));
       } else if (nameKind !== Kind.Null) {
         throw new EspalierError(
           "SHAPE",

@@ -1,5 +1,6 @@
 import { EspalierError } from "../errors.js";
 import type { LinkedNodes } from "../model/build.js";
+import { NamePool } from "../model/names.js";
 
 /**
  * Growable flat arrays that a loader appends nodes to, in any order, each linked to its parent by index.
@@ -10,24 +11,37 @@ export class NodeSink {
   parentOf = new Int32Array(1024);
   ownSize = new Float64Array(1024);
   origin = new Int32Array(1024);
-  readonly name: string[] = [];
+  readonly name: NamePool;
   hasSizes = false;
   readonly maxNodes: number;
   readonly originIsRow: boolean;
 
-  constructor(maxNodes: number, originIsRow: boolean) {
+  constructor(maxNodes: number, originIsRow: boolean, poolBytes = 1 << 16) {
     this.maxNodes = maxNodes;
     this.originIsRow = originIsRow;
+    this.name = new NamePool(1024, poolBytes);
   }
 
-  /** Appends a node (own size 0) and returns its index. */
+  /** Appends a node (own size 0) named `name` and returns its index. */
   add(parent: number, name: string, origin: number): number {
     const i = this.length;
     if (i >= this.maxNodes) throw limitExceeded(this.maxNodes, this.originIsRow, origin);
     if (i === this.parentOf.length) this.grow();
     this.parentOf[i] = parent;
     this.origin[i] = origin;
-    this.name.push(name);
+    this.name.setString(i, name);
+    this.length = i + 1;
+    return i;
+  }
+
+  /** Appends a node (own size 0) named by the UTF-8 bytes `src[s, e)` and returns its index. */
+  addBytes(parent: number, src: Uint8Array, s: number, e: number, origin: number): number {
+    const i = this.length;
+    if (i >= this.maxNodes) throw limitExceeded(this.maxNodes, this.originIsRow, origin);
+    if (i === this.parentOf.length) this.grow();
+    this.parentOf[i] = parent;
+    this.origin[i] = origin;
+    this.name.setBytes(i, src, s, e);
     this.length = i + 1;
     return i;
   }
@@ -37,7 +51,7 @@ export class NodeSink {
     // Nodes added later start from own size 0, as in fresh arrays.
     this.ownSize.fill(0, length, this.length);
     this.length = length;
-    this.name.length = length;
+    this.name.setLength(length);
   }
 
   /** The nodes so far, ready for `buildTree`. */

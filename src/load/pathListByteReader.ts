@@ -13,7 +13,6 @@ const space = 32;
 const slash = 47;
 const EMPTY = Buffer.alloc(0);
 /** Most bytes, and most names, decoded together. */
-const NAME_BATCH = 1 << 16;
 
 /**
  * `PathListReader` over UTF-8 bytes, for a path list read in chunks: the same lines give the same
@@ -45,13 +44,6 @@ export class PathListByteReader {
   private stackNode = new Int32Array(64);
   private stackEnd = new Int32Array(64);
   private stackDepth = 0;
-  // Names of new nodes not decoded yet, all ASCII: their bytes one after another in `spelled`, the node
-  // of each in `unnamed`; decoded together as one string and cut (cheaper than a call per name).
-  private spelled = new Uint8Array(NAME_BATCH);
-  private spelledLength = 0;
-  private unnamed = new Int32Array(NAME_BATCH);
-  private nameEnds = new Int32Array(NAME_BATCH);
-  private unnamedCount = 0;
 
   constructor(options: LoadOptions) {
     this.sink = new NodeSink(options.maxNodes, false);
@@ -81,7 +73,6 @@ export class PathListByteReader {
   finish(rootName: string): LinkedNodes {
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the path list names no paths");
-    this.nameAll();
     sink.hasSizes = this.sized === true;
     return sink.finish(rootName, new Map());
   }
@@ -170,7 +161,7 @@ export class PathListByteReader {
     let at = depth > 0 ? stackEnd[depth - 1] : 0;
     let created = false;
     if (at === 0 && length > 0 && bytes[start] === slash) {
-      node = this.child(node, bytes, start, start + 1, hashStep(seed(node), slash), true, origin);
+      node = this.child(node, bytes, start, start + 1, hashStep(seed(node), slash), origin);
       created = this.created;
       stackNode[depth] = node;
       stackEnd[depth] = 1;
@@ -181,15 +172,13 @@ export class PathListByteReader {
       while (at < length && bytes[start + at] === slash) at++;
       if (at >= length) break;
       let hash = seed(node);
-      let high = 0;
       let stop = at;
       for (; stop < length; stop++) {
         const c = bytes[start + stop];
         if (c === slash) break;
-        high |= c;
         hash = hashStep(hash, c);
       }
-      node = this.child(node, bytes, start + at, start + stop, hash, high < 0x80, origin);
+      node = this.child(node, bytes, start + at, start + stop, hash, origin);
       created = this.created;
       if (depth === stackNode.length) {
         this.growStack();
@@ -228,26 +217,18 @@ export class PathListByteReader {
   }
 
   /**
-   * The child of `parent` named by `bytes[s, e)` (all below 0x80 when `ascii`), whose hash is `hash`,
+   * The child of `parent` named by `bytes[s, e)`, whose hash is `hash`,
    * added when missing; `this.created` says which.
    */
-  private child(
-    parent: number,
-    bytes: Buffer,
-    s: number,
-    e: number,
-    hash: number,
-    ascii: boolean,
-    origin: number,
-  ): number {
+  private child(parent: number, bytes: Buffer, s: number, e: number, hash: number, origin: number): number {
     const { sink, slots, hashes } = this;
     const mask = slots.length - 1;
     let h = mix(hash) & mask;
     for (let slot = slots[h]; slot !== 0; slot = slots[h]) {
       const node = slot - 1;
       if (hashes[node] === hash && sink.parentOf[node] === parent) {
-        if (this.unnamedCount > 0) this.nameAll();
-        if (sameName(sink.name[node], bytes, s, e, ascii)) {
+        // The bytes are valid UTF-8 (see `lines`), so equal names are equal bytes.
+        if (sink.name.equalsBytes(node, bytes, s, e)) {
           this.created = false;
           return node;
         }
@@ -255,21 +236,7 @@ export class PathListByteReader {
       h = (h + 1) & mask;
     }
     this.created = true;
-    let node: number;
-    if (ascii && e - s <= NAME_BATCH) {
-      if (this.spelledLength + (e - s) > NAME_BATCH || this.unnamedCount === NAME_BATCH) this.nameAll();
-      node = sink.add(parent, "", origin);
-      const spelled = this.spelled;
-      let at = this.spelledLength;
-      for (let k = s; k < e; k++) spelled[at++] = bytes[k];
-      this.spelledLength = at;
-      this.unnamed[this.unnamedCount] = node;
-      this.nameEnds[this.unnamedCount] = at;
-      this.unnamedCount++;
-    } else {
-      // A fresh string: nothing of the chunk stays reachable through it.
-      node = sink.add(parent, bytes.toString("utf8", s, e), origin);
-    }
+    const node = sink.addBytes(parent, bytes, s, e, origin);
     if (node === hashes.length) {
       const grown = new Int32Array(hashes.length * 2);
       grown.set(hashes);
@@ -279,26 +246,6 @@ export class PathListByteReader {
     slots[h] = node + 1;
     if (sink.length * 2 > slots.length) this.rehash();
     return node;
-  }
-
-  /**
-   * Names the nodes waiting for a name: one string of all their bytes (ASCII, so one character per
-   * byte), cut at each name's end. Only names are in that string, so what it keeps alive is theirs.
-   */
-  private nameAll(): void {
-    const count = this.unnamedCount;
-    if (count === 0) return;
-    const all = Buffer.from(this.spelled.buffer, 0, this.spelledLength).toString("latin1");
-    const { unnamed, nameEnds } = this;
-    const names = this.sink.name;
-    let from = 0;
-    for (let k = 0; k < count; k++) {
-      const to = nameEnds[k];
-      names[unnamed[k]] = all.substring(from, to);
-      from = to;
-    }
-    this.unnamedCount = 0;
-    this.spelledLength = 0;
   }
 
   private rehash(): void {
@@ -321,13 +268,5 @@ function isBlank(bytes: Buffer, start: number, end: number): boolean {
     const c = bytes[k];
     if (c !== space && c !== tab) return false;
   }
-  return true;
-}
-
-/** Whether `name` is spelled by the UTF-8 bytes `bytes[s, e)`. */
-function sameName(name: string, bytes: Buffer, s: number, e: number, ascii: boolean): boolean {
-  if (!ascii) return name === bytes.toString("utf8", s, e);
-  if (name.length !== e - s) return false;
-  for (let k = 0; k < name.length; k++) if (name.charCodeAt(k) !== bytes[s + k]) return false;
   return true;
 }

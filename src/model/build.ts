@@ -1,12 +1,14 @@
 import { EspalierError } from "../errors.js";
 import { checkSizes } from "./checkSizes.js";
+import { NamePool } from "./names.js";
 import type { Tree } from "./tree.js";
 
 /** Nodes as a loader found them: any order, each linked to its parent by index. */
 export interface LinkedNodes {
   /** Parent index among these nodes, or -1 for a top-level node. */
   parentOf: Int32Array;
-  name: string[];
+  /** Names, one per node: a pool (as loaders fill it) or plain strings. */
+  name: NamePool | readonly string[];
   ownSize: Float64Array;
   hasSizes: boolean;
   ids: string[] | null;
@@ -23,7 +25,8 @@ export interface LinkedNodes {
  * get one synthetic root named `rootName`. Nodes unreachable from a top-level node lie on a cycle, which
  * is reported with the rows or lines on it. Iterative: no recursion a deep tree could overflow.
  */
-export function buildTree(input: LinkedNodes, file?: string): Tree {
+export function buildTree(linked: LinkedNodes, file?: string): Tree {
+  const input = { ...linked, name: poolOf(linked.name) };
   checkSizes(input, file);
   const ordered = inPreOrder(input);
   if (ordered) return ordered;
@@ -69,7 +72,7 @@ export function buildTree(input: LinkedNodes, file?: string): Tree {
 
   const parent = new Int32Array(total);
   const depth = new Int32Array(total);
-  const name: string[] = new Array(total);
+  const from = new Int32Array(total);
   const ownSize = new Float64Array(total);
   const origin = new Int32Array(total);
   const ids: string[] | null = input.ids ? new Array(total) : null;
@@ -82,12 +85,12 @@ export function buildTree(input: LinkedNodes, file?: string): Tree {
     parent[k] = p === -1 ? -1 : newIndex[p];
     depth[k] = p === -1 ? 0 : depth[parent[k]] + 1;
     if (o === n) {
-      name[k] = input.rootName;
+      from[k] = -1;
       if (ids) ids[k] = "";
       for (const [key] of fieldSources) fields.get(key)![k] = "";
       continue;
     }
-    name[k] = input.name[o];
+    from[k] = o;
     ownSize[k] = input.ownSize[o];
     origin[k] = input.origin[o];
     if (ids) ids[k] = input.ids![o];
@@ -97,7 +100,7 @@ export function buildTree(input: LinkedNodes, file?: string): Tree {
     length: total,
     parent,
     depth,
-    name,
+    name: input.name.reordered(from, input.rootName),
     ownSize,
     hasSizes: input.hasSizes,
     ids,
@@ -113,7 +116,7 @@ export function buildTree(input: LinkedNodes, file?: string): Tree {
  * path from the latest top-level node down to the node before it), as document-order loaders give them;
  * null otherwise. Saves the linking arrays of the general case.
  */
-function inPreOrder(input: LinkedNodes): Tree | null {
+function inPreOrder(input: LinkedNodes & { name: NamePool }): Tree | null {
   const { parentOf } = input;
   const n = parentOf.length;
   let tops = 0;
@@ -154,7 +157,10 @@ function inPreOrder(input: LinkedNodes): Tree | null {
     length: total,
     parent,
     depth,
-    name: withFirst(input.name, n, shift, input.rootName),
+    name:
+      shift === 0 && input.name.length === n
+        ? input.name
+        : input.name.reordered(firstThen(n, shift), input.rootName),
     ownSize,
     hasSizes: input.hasSizes,
     ids: input.ids ? withFirst(input.ids, n, shift, "") : null,
@@ -163,6 +169,21 @@ function inPreOrder(input: LinkedNodes): Tree | null {
     fields,
     syntheticRoot: shift === 1,
   };
+}
+
+function poolOf(names: NamePool | readonly string[]): NamePool {
+  if (names instanceof NamePool) return names;
+  const pool = new NamePool(names.length);
+  for (let i = 0; i < names.length; i++) pool.setString(i, names[i] ?? "");
+  return pool;
+}
+
+/** -1 (the synthetic root) when `shift` is 1, then 0 .. n-1: where each node's name comes from. */
+function firstThen(n: number, shift: number): Int32Array {
+  const from = new Int32Array(n + shift);
+  for (let i = 0; i < n; i++) from[i + shift] = i;
+  if (shift === 1) from[0] = -1;
+  return from;
 }
 
 /** `values[0, n)` as a new array, after `first` when `shift` is 1; a missing value is "". */

@@ -1,5 +1,6 @@
 import { EspalierError, type SourcePos } from "../errors.js";
 import type { LinkedNodes } from "./build.js";
+import type { Names } from "./names.js";
 
 /** The largest size, and the largest total, espalier accepts: 2^53 − 1 (ECMA-262 Number.MAX_SAFE_INTEGER). */
 export const MAX_SIZE = Number.MAX_SAFE_INTEGER;
@@ -11,7 +12,7 @@ export const MAX_SIZE = Number.MAX_SAFE_INTEGER;
  * bad sizes themselves, with the field's position; this is the guard every loader passes. A size of -0
  * becomes 0.
  */
-export function checkSizes(input: LinkedNodes, file?: string): void {
+export function checkSizes(input: LinkedNodes & { name: Names }, file?: string): void {
   const { ownSize } = input;
   let total = 0;
   for (let i = 0; i < ownSize.length; i++) {
@@ -39,10 +40,10 @@ export function checkSizes(input: LinkedNodes, file?: string): void {
   }
 }
 
-function where(input: LinkedNodes, i: number): string {
+function where(input: LinkedNodes & { name: Names }, i: number): string {
   const at = input.origin[i];
   if (at > 0) return `${input.originIsRow ? "row" : "line"} ${at}`;
-  return `node ${JSON.stringify(input.name[i])}`;
+  return `node ${JSON.stringify(input.name.get(i))}`;
 }
 
 function position(input: LinkedNodes, i: number, file: string | undefined): SourcePos | undefined {

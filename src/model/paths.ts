@@ -32,7 +32,7 @@ export class PathIndex {
     const { count } = this.measures;
     const end = p + count[p];
     for (let c = p + 1; c < end; c += count[c]) {
-      const key = this.tree.name[c];
+      const key = this.tree.name.get(c);
       const list = map.get(key);
       if (list) list.push(c);
       else map.set(key, [c]);
@@ -46,18 +46,18 @@ export class PathIndex {
     const { count } = this.measures;
     if (count[p] === 1) return -1;
     if (count[p] === count[p + 1] + 1)
-      return this.tree.name[p + 1] === seg.name && seg.rank === 1 ? p + 1 : -1;
+      return this.tree.name.get(p + 1) === seg.name && seg.rank === 1 ? p + 1 : -1;
     const list = this.childrenByName(p).get(seg.name);
     return list && seg.rank <= list.length ? list[seg.rank - 1] : -1;
   }
 
   /** The escaped segment of node `i` (with `~~N` when it is the N-th sibling of its name). */
-  segment(i: number, base = escapeSegment(this.tree.name[i])): string {
+  segment(i: number, base = escapeSegment(this.tree.name.get(i))): string {
     const p = this.tree.parent[i];
     if (p < 0) return base;
     // An only child has no sibling to share its name with: no name index needed (saves one per level).
     if (this.measures.count[p] === this.measures.count[i] + 1) return base;
-    const list = this.childrenByName(p).get(this.tree.name[i])!;
+    const list = this.childrenByName(p).get(this.tree.name.get(i))!;
     if (list.length === 1 || list[0] === i) return base;
     return `${base}~~${list.indexOf(i) + 1}`;
   }

@@ -1,3 +1,5 @@
+import type { Names } from "./names.js";
+
 /**
  * The whole input as flat arrays, nodes numbered in pre-order (a parent precedes its descendants and a
  * subtree occupies a contiguous index range), children in input order. Node 0 is the root.
@@ -9,8 +11,8 @@ export interface Tree {
   readonly parent: Int32Array;
   /** Edges from the root; the root has depth 0. */
   readonly depth: Int32Array;
-  /** The node's own name (not escaped). */
-  readonly name: readonly string[];
+  /** The node's own name (not escaped): `name.get(i)`. */
+  readonly name: Names;
   /** The node's own size (not including descendants); 0 where the input gives none. */
   readonly ownSize: Float64Array;
   /** Whether the input carried sizes at all. */

@@ -18,7 +18,7 @@ export function buildView(
   foci: Int32Array,
   selection: Selection,
   label: Labeller,
-  nameOf: (i: number) => string = (i) => index.tree.name[i],
+  nameOf: (i: number) => string = (i) => index.tree.name.get(i),
   pathOf: (i: number) => string = (i) => index.path(i),
 ): HierarchyNode<ViewNode> {
   const { tree, measures } = index;

@@ -6,6 +6,7 @@ import { DIFF_HEADER_LINES, type DiffResult, diffTrees } from "../../src/diff/di
 import type { DiffViewNode } from "../../src/diff/diff-view.js";
 import { EspalierError } from "../../src/errors.js";
 import { measure } from "../../src/model/measure.js";
+import { namesToArray, StringNames } from "../../src/model/names.js";
 import type { Tree } from "../../src/model/tree.js";
 import { renderDiffText } from "../../src/render/diff-text.js";
 import { makeTree } from "../helpers/make-tree.js";
@@ -25,9 +26,9 @@ function changeList(result: DiffResult): string[] {
     if (word === null) continue;
     const moved =
       word === "moved"
-        ? ` from ${oldTree.name[oldTree.parent[oldIndex[k]]]} to ${tree.name[tree.parent[k]]}`
+        ? ` from ${oldTree.name.get(oldTree.parent[oldIndex[k]])} to ${tree.name.get(tree.parent[k])}`
         : "";
-    out.push(`${tree.name[k]} ${word}${moved}`);
+    out.push(`${tree.name.get(k)} ${word}${moved}`);
   }
   return out;
 }
@@ -69,7 +70,7 @@ describe("diffTrees(old, new, options)", () => {
   });
 
   it("puts removed nodes at their old place among the new siblings", () => {
-    const names = (r: DiffResult) => [...r.combined.tree.name];
+    const names = (r: DiffResult) => namesToArray(r.combined.tree.name);
     expect(names(run(makeTree("R{A{x,y,z}}"), makeTree("R{A{x,z}}")))).toEqual(["R", "A", "x", "y", "z"]);
     expect(names(run(makeTree("R{A{y,x,w}}"), makeTree("R{A{x,v}}")))).toEqual([
       "R",
@@ -88,11 +89,13 @@ describe("diffTrees(old, new, options)", () => {
   it("gives each node one kind: moved before renamed before resized, own size change kept", () => {
     const oldTree = makeIdTree("R{A{m:1,n:1,s:1},B}");
     const newTree = { ...makeIdTree("R{A{n:2,s:3},B{m:5}}"), ids: ["R", "A", "n", "s", "B", "m"] };
-    const renamed: Tree = { ...newTree, name: ["R", "A", "n2", "s", "B", "m2"] };
+    const renamed: Tree = { ...newTree, name: new StringNames(["R", "A", "n2", "s", "B", "m2"]) };
     const result = run(oldTree, renamed);
     expect(changeList(result)).toEqual(["n2 renamed", "s resized", "m2 moved from A to B"]);
     const { tree, delta } = result.combined;
-    expect([...delta]).toEqual(tree.name.map((nm) => ({ n2: 1, s: 2, m2: 4 })[nm as "n2"] ?? 0));
+    expect([...delta]).toEqual(
+      namesToArray(tree.name).map((nm) => ({ n2: 1, s: 2, m2: 4 })[nm as "n2"] ?? 0),
+    );
   });
 
   it("puts both versions under one root when only one of them has several top-level nodes", () => {
@@ -248,7 +251,7 @@ describe("diffTrees(old, new, options)", () => {
     const oldTree = makeIdTree("R{A{a1,a2,a3},B{b1,b2},C{c1}}");
     const newTree = makeIdTree("R{A{a1},B{b1},C{c1,c2}}");
     const result = run(oldTree, newTree, 4, ["c1"]);
-    const shown = result.combined.tree.name.filter((_, i) => result.selection.shown[i]);
+    const shown = namesToArray(result.combined.tree.name).filter((_, i) => result.selection.shown[i]);
     expect(shown).toEqual(["R", "C", "c1"]);
     expect(result.selection.lines).toBe(DIFF_HEADER_LINES + 3);
     expect(result.view.data.hidden?.changes).toEqual({

@@ -36,7 +36,7 @@ export const arbEdited = (maxNodes = 40, maxEdits = 8): fc.Arbitrary<Edited> =>
     const parent = new Map<string, string | null>(
       ids.map((id, i) => [id, i === 0 ? null : ids[tree.parent[i]]]),
     );
-    const name = new Map(ids.map((id, i) => [id, tree.name[i]]));
+    const name = new Map(ids.map((id, i) => [id, tree.name.get(i)]));
     const size = new Map(ids.map((id, i) => [id, tree.ownSize[i]]));
     const alive = new Set(ids);
     const touched = new Set<string>();

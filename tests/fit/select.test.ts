@@ -49,7 +49,7 @@ describe("select(tree, measures, scores, order, budget)", () => {
           return;
         }
         const sel = run(budget);
-        const view = buildView(new PathIndex(tree, m), scores, foci, sel, (i) => tree.name[i]);
+        const view = buildView(new PathIndex(tree, m), scores, foci, sel, (i) => tree.name.get(i));
         const text = renderText(view, { units: "bytes", sizes: true, chains });
         const lines = text.split("\n").length - 1;
         expect(lines).toBe(sel.lines);
@@ -110,7 +110,7 @@ describe("select(tree, measures, scores, order, budget)", () => {
       fc.property(arbTreeWithFoci(), budgets, ([tree, f], b) => {
         const { m, foci, scores, forcedCount, run } = setup(tree, f);
         const sel = run(Math.max(b, forcedCount));
-        const view = buildView(new PathIndex(tree, m), scores, foci, sel, (i) => tree.name[i]);
+        const view = buildView(new PathIndex(tree, m), scores, foci, sel, (i) => tree.name.get(i));
         let hiddenNodes = 0;
         let shownNodes = 0;
         view.each((h) => {

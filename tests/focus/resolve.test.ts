@@ -10,7 +10,7 @@ import { makeTree, nodeNamed } from "../helpers/make-tree.js";
 import { arbTree } from "../helpers/random-tree.js";
 
 const indexOf = (tree: Tree) => new PathIndex(tree, measure(tree));
-const names = (tree: Tree, nodes: Int32Array) => [...nodes].map((i) => tree.name[i]);
+const names = (tree: Tree, nodes: Int32Array) => [...nodes].map((i) => tree.name.get(i));
 
 function caught(fn: () => unknown): EspalierError {
   try {
@@ -90,8 +90,8 @@ describe("resolveFoci(index, specs)", () => {
     const t = makeTree("R{x{a},x{b},x{c}}");
     const idx = indexOf(t);
     expect(idx.path(nodeNamed(t, "b"))).toBe("x~~2/b");
-    expect(t.name[resolvePath(idx, "x~~3/c")]).toBe("c");
-    expect(t.name[resolvePath(idx, "x/a")]).toBe("a");
+    expect(t.name.get(resolvePath(idx, "x~~3/c"))).toBe("c");
+    expect(t.name.get(resolvePath(idx, "x/a"))).toBe("a");
   });
 
   it("reads back every printed path, whatever the names (property)", () => {

@@ -47,9 +47,9 @@ describe("focus paths follow RFC 6901 section 5", () => {
   });
 
   it('"/foo" names the array and "/foo/0" its first element', () => {
-    expect(tree.name[resolvePath(index, "/foo")]).toBe("foo");
+    expect(tree.name.get(resolvePath(index, "/foo"))).toBe("foo");
     const first = resolvePath(index, "/foo/0");
-    expect(tree.name[first]).toBe("0");
+    expect(tree.name.get(first)).toBe("0");
     expect(tree.parent[first]).toBe(resolvePath(index, "/foo"));
   });
 

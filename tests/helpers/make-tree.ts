@@ -1,4 +1,5 @@
 import { buildTree } from "../../src/model/build.js";
+import { namesToArray } from "../../src/model/names.js";
 import type { Tree } from "../../src/model/tree.js";
 
 /**
@@ -50,7 +51,7 @@ export function makeTree(spec: string): Tree {
 
 /** The node whose name is `label` (names unique in the test tree). */
 export function nodeNamed(tree: Tree, label: string): number {
-  const i = tree.name.indexOf(label);
+  const i = namesToArray(tree.name).indexOf(label);
   if (i < 0) throw new Error(`no node ${label}`);
   return i;
 }

@@ -53,7 +53,7 @@ describe("interest(tree, api, foci)", () => {
 
   it("marks the root, the foci and their ancestors as forced, and counts edges to the nearest focus", () => {
     const { tree, s } = scoresFor(SPEC, ["A1"]);
-    const forced = [...s.forced.keys()].filter((i) => s.forced[i]).map((i) => tree.name[i]);
+    const forced = [...s.forced.keys()].filter((i) => s.forced[i]).map((i) => tree.name.get(i));
     expect(forced).toEqual(["R", "A", "A1"]);
     expect(s.distance[nodeNamed(tree, "A1a")]).toBe(1);
     expect(s.distance[nodeNamed(tree, "A2")]).toBe(2);

@@ -12,7 +12,7 @@ export function outline(tree: Tree): string[] {
   const lines: string[] = [];
   for (let i = 0; i < tree.length; i++) {
     const size = tree.hasSizes ? ` ${tree.ownSize[i]}` : "";
-    lines.push(`${"  ".repeat(tree.depth[i])}${tree.name[i]}${size}`);
+    lines.push(`${"  ".repeat(tree.depth[i])}${tree.name.get(i)}${size}`);
   }
   return lines;
 }

@@ -82,7 +82,7 @@ describe("loadTree(json)", () => {
     const tree = json(text);
     expect(tree.length).toBe(depth);
     expect(tree.depth[depth - 1]).toBe(depth - 1);
-    expect(tree.name[depth - 1]).toBe("leaf");
+    expect(tree.name.get(depth - 1)).toBe("leaf");
     expect(tree.parent[depth - 1]).toBe(depth - 2);
   });
 

@@ -81,7 +81,7 @@ function parseEmojiTest(text: string): Parsed {
 
 /** Children of node i in the pre-order layout: i + 1, then each next sibling at c + count[c]. */
 function childNamed(tree: Tree, m: Measures, i: number, name: string): number {
-  for (let c = i + 1; c < i + m.count[i]; c += m.count[c]) if (tree.name[c] === name) return c;
+  for (let c = i + 1; c < i + m.count[i]; c += m.count[c]) if (tree.name.get(c) === name) return c;
   return -1;
 }
 
@@ -141,7 +141,8 @@ describe("loadTree(emoji-test.txt as group/subgroup/status/code points, paths)",
     for (const s of parsed.subtotals) {
       const i = findByPath(tree, m, s.segments);
       let without = 0;
-      for (let k = i; k < i + m.count[i]; k++) if (m.count[k] === 1 && !hasModifier(tree.name[k])) without++;
+      for (let k = i; k < i + m.count[i]; k++)
+        if (m.count[k] === 1 && !hasModifier(tree.name.get(k))) without++;
       expect(without, `${s.segments.join("/")} w/o modifiers`).toBe(s.withoutModifiers);
     }
   });
@@ -151,7 +152,7 @@ describe("loadTree(emoji-test.txt as group/subgroup/status/code points, paths)",
     for (const g of childIndices(m, 0)) {
       for (const sg of childIndices(m, g)) {
         for (const st of childIndices(m, sg)) {
-          leavesByStatus.set(tree.name[st], (leavesByStatus.get(tree.name[st]) ?? 0) + m.leaves[st]);
+          leavesByStatus.set(tree.name.get(st), (leavesByStatus.get(tree.name.get(st)) ?? 0) + m.leaves[st]);
         }
       }
     }

@@ -65,7 +65,7 @@ function findByPath(tree: Tree, m: Measures, segments: readonly string[]): numbe
   for (const s of segments) {
     let found = -1;
     for (let c = i + 1; c < i + m.count[i]; c += m.count[c]) {
-      if (tree.name[c] === s) {
+      if (tree.name.get(c) === s) {
         found = c;
         break;
       }

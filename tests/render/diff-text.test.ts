@@ -1,6 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { diffTrees } from "../../src/diff/diff-trees.js";
+import { StringNames } from "../../src/model/names.js";
 import type { Tree } from "../../src/model/tree.js";
 import { renderDiffText } from "../../src/render/diff-text.js";
 import { displayWidth } from "../../src/render/fit-width.js";
@@ -60,13 +61,13 @@ describe("renderDiffText(view, totals, options)", () => {
     const newTree: Tree = {
       ...makeIdTree("R{A{k},b}"),
       ids: ["R", "A", "k", "b"],
-      name: ["R", "A", "k", "b\u001b[31m"],
+      name: new StringNames(["R", "A", "k", "b\u001b[31m"]),
     };
     const out = text(oldTree, newTree);
     expect(out).toContain("> [moved from the root] k");
     expect(out).toContain("> [moved from A] b\\u{1b}[31m");
-    const renamed: Tree = { ...makeIdTree("R{A{b},k}"), name: ["R", "A", "b", "k2"] };
-    const oldWithEscape: Tree = { ...oldTree, name: ["R", "A", "b", "k\u2028"] };
+    const renamed: Tree = { ...makeIdTree("R{A{b},k}"), name: new StringNames(["R", "A", "b", "k2"]) };
+    const oldWithEscape: Tree = { ...oldTree, name: new StringNames(["R", "A", "b", "k\u2028"]) };
     expect(text(oldWithEscape, renamed)).toContain("> [renamed from k\\u{2028}] k2");
   });
 

@@ -76,6 +76,6 @@ describe("renderText(view, options)", () => {
 
 function pathOf(t: ReturnType<typeof makeTree>, i: number): string {
   const parts: string[] = [];
-  for (let c = i; t.parent[c] >= 0; c = t.parent[c]) parts.push(t.name[c]);
+  for (let c = i; t.parent[c] >= 0; c = t.parent[c]) parts.push(t.name.get(c));
   return parts.reverse().join("/");
 }

@@ -556,6 +556,18 @@ export class JsonStreamLoader {
       else this.advance(bytes, q, e);
       return;
     }
+    if (slot === S_FIELD && !this.strEscape && this.fields[this.slotField].mask === F_NAME) {
+      // Only a name, and spelled without escapes: its bytes go to the name pool as they are (invalid
+      // UTF-8 reads back as U+FFFD, as decoding the whole text would give it), with no string made.
+      const field = this.fields[this.slotField];
+      const frame = this.frames[this.depth - 1];
+      if (field.keeps.length === 0 && !frame.keyed) {
+        frame.nameKind = STRING;
+        this.sink.name.setBytes(frame.node, bytes, q + 1, e);
+        this.advance(bytes, q, e);
+        return;
+      }
+    }
     const text = this.text(bytes, q, e, absQ, slot === S_FIELD)!;
     this.scalar(STRING, text, 0, this.columnAt(absQ));
   }
@@ -658,7 +670,7 @@ export class JsonStreamLoader {
     const i = frame.node;
     if ((field.mask & F_NAME) !== 0 && !frame.keyed) {
       frame.nameKind = kind;
-      this.sink.name[i] = kind === NUMBER ? String(value) : text;
+      this.sink.name.setString(i, kind === NUMBER ? String(value) : text);
     }
     if ((field.mask & F_SIZE) !== 0) {
       frame.sizeKind = kind;
@@ -762,7 +774,7 @@ export class JsonStreamLoader {
           parentFrame.nameKind = COLLECTION;
           parentFrame.nameLine = this.line;
           parentFrame.nameColumn = column;
-          this.sink.name[node] = "";
+          this.sink.name.setString(node, "");
         }
         if ((field.mask & F_SIZE) !== 0) {
           parentFrame.sizeKind = COLLECTION;

@@ -21,17 +21,17 @@ export function reorderKeyedChildren(
   const end = sink.length;
   const count = children.length;
   const lastOf = new Map<string, number>();
-  for (let k = 0; k < count; k++) lastOf.set(sink.name[children[k]], k);
+  for (let k = 0; k < count; k++) lastOf.set(sink.name.get(children[k]), k);
   const indices: number[] = [];
   const others: number[] = [];
   const placed = new Set<string>();
   for (let k = 0; k < count; k++) {
-    const key = sink.name[children[k]];
+    const key = sink.name.get(children[k]);
     if (placed.has(key)) continue;
     placed.add(key);
     (isArrayIndexKey(key) ? indices : others).push(lastOf.get(key)!);
   }
-  indices.sort((a, b) => Number(sink.name[children[a]]) - Number(sink.name[children[b]]));
+  indices.sort((a, b) => Number(sink.name.get(children[a])) - Number(sink.name.get(children[b])));
   const order = indices.concat(others);
 
   const blockEnd = (k: number) => (k + 1 < count ? children[k + 1] : end);
@@ -53,7 +53,7 @@ export function reorderKeyedChildren(
       ownSize[at] = sink.ownSize[x];
       origin[at] = sink.origin[x];
       flags[at] = sized[x];
-      name[at] = sink.name[x];
+      name[at] = sink.name.get(x);
       for (let f = 0; f < kept.length; f++) columns[f][at] = kept[f][x];
     }
   }
@@ -62,7 +62,7 @@ export function reorderKeyedChildren(
   sink.ownSize.set(ownSize, mark);
   sink.origin.set(origin, mark);
   sized.set(flags, mark);
-  for (let x = 0; x < total; x++) sink.name.push(name[x]);
+  for (let x = 0; x < total; x++) sink.name.setString(mark + x, name[x]);
   sink.length = mark + total;
   for (let f = 0; f < kept.length; f++) {
     kept[f].length = mark;

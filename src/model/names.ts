@@ -1,0 +1,233 @@
+import { EspalierError } from "../errors.js";
+
+/**
+ * The names of a tree's nodes, read one at a time. A whole tree's names are kept as UTF-8 bytes in one
+ * pool ({@link NamePool}) rather than as millions of strings: the engine's collector then has almost
+ * nothing to trace or copy while a big input loads, and a name costs its bytes plus eight. Only the
+ * names a view or a lookup asks for become strings, and those die young.
+ */
+export interface Names {
+  readonly length: number;
+  /** The name of node `i`, decoded (invalid UTF-8 as U+FFFD, as the WHATWG decoder does it). */
+  get(i: number): string;
+}
+
+/** Names kept as strings: small hand-made trees and derived trees. */
+export class StringNames implements Names {
+  constructor(private readonly list: readonly string[]) {}
+
+  get length(): number {
+    return this.list.length;
+  }
+
+  get(i: number): string {
+    return this.list[i];
+  }
+}
+
+/** `first`, then the names of `rest`: a tree put under a new root. */
+export class PrefixedNames implements Names {
+  constructor(
+    private readonly first: string,
+    private readonly rest: Names,
+  ) {}
+
+  get length(): number {
+    return this.rest.length + 1;
+  }
+
+  get(i: number): string {
+    return i === 0 ? this.first : this.rest.get(i - 1);
+  }
+}
+
+/** Whether name `i` of `a` equals name `j` of `b`; compares pooled bytes without decoding when it can. */
+export function sameName(a: Names, i: number, b: Names, j: number): boolean {
+  if (a instanceof NamePool && b instanceof NamePool) {
+    const verdict = a.sameBytes(i, b, j);
+    if (verdict !== undefined) return verdict;
+  }
+  return a.get(i) === b.get(j);
+}
+
+/** Every name, in node order. */
+export function namesToArray(names: Names): string[] {
+  const out: string[] = new Array(names.length);
+  for (let i = 0; i < names.length; i++) out[i] = names.get(i);
+  return out;
+}
+
+// Buffer's own codecs, without toString's argument checks and encoding lookup (a name costs one call).
+interface Codecs {
+  utf8Slice(start: number, end: number): string;
+  utf8Write(text: string, offset: number, length: number): number;
+}
+
+const LONGEST_POOL = 2 ** 32 - 1;
+
+/**
+ * Names as UTF-8 bytes appended to one growing pool, with each node's start and byte length. Names may
+ * be set in any order and set again (the later bytes win; the earlier ones stay unused in the pool).
+ * A string that UTF-8 cannot carry exactly (a lone surrogate, which JSON's `\ud800` can spell) is kept
+ * as the string itself, so a name always reads back as it was set.
+ */
+export class NamePool implements Names {
+  length = 0;
+  private bytes: Buffer & Codecs;
+  private used = 0;
+  private start: Uint32Array;
+  private size: Uint32Array;
+  private exact: Map<number, string> | null = null;
+
+  constructor(capacity = 1024, poolBytes = 1 << 16) {
+    this.start = new Uint32Array(Math.max(1, capacity));
+    this.size = new Uint32Array(Math.max(1, capacity));
+    this.bytes = Buffer.allocUnsafe(Math.max(16, poolBytes)) as Buffer & Codecs;
+  }
+
+  get(i: number): string {
+    if (this.exact !== null) {
+      const text = this.exact.get(i);
+      if (text !== undefined) return text;
+    }
+    const s = this.start[i];
+    return this.bytes.utf8Slice(s, s + this.size[i]);
+  }
+
+  /** Makes room for nodes up to index `length - 1`; new nodes have the empty name. */
+  setLength(length: number): void {
+    if (length > this.start.length) this.growNodes(length);
+    if (length < this.length) {
+      this.start.fill(0, length, this.length);
+      this.size.fill(0, length, this.length);
+      if (this.exact !== null) for (const k of this.exact.keys()) if (k >= length) this.exact.delete(k);
+    }
+    this.length = length;
+  }
+
+  /** Sets node `i`'s name to the UTF-8 bytes `src[s, e)` (copied; they need not be valid UTF-8). */
+  setBytes(i: number, src: Uint8Array, s: number, e: number): void {
+    const n = e - s;
+    const at = this.reserve(n);
+    this.bytes.set(src.subarray(s, e), at);
+    this.used = at + n;
+    this.place(i, at, n);
+  }
+
+  /** Sets node `i`'s name to `text`. */
+  setString(i: number, text: string): void {
+    if (text.length === 0) {
+      this.place(i, 0, 0);
+      return;
+    }
+    const at = this.reserve(text.length * 3);
+    const n = this.bytes.utf8Write(text, at, text.length * 3);
+    this.used = at + n;
+    this.place(i, at, n);
+    if (!text.isWellFormed()) {
+      this.exact ??= new Map();
+      this.exact.set(i, text);
+    }
+  }
+
+  /** Whether node `i`'s name is spelled by the bytes `src[s, e)`. */
+  equalsBytes(i: number, src: Uint8Array, s: number, e: number): boolean {
+    const n = this.size[i];
+    if (n !== e - s || this.exact?.has(i)) return false;
+    const bytes = this.bytes;
+    for (let k = 0, at = this.start[i]; k < n; k++, at++) if (bytes[at] !== src[s + k]) return false;
+    return true;
+  }
+
+  /**
+   * Whether name `i` here and name `j` of `other` are the same text, judged from the bytes: true when the
+   * bytes are equal, false when they differ and are all ASCII; undefined when only decoding can tell
+   * (different bytes beyond ASCII may decode alike when invalid, or a name is kept as a string).
+   */
+  sameBytes(i: number, other: NamePool, j: number): boolean | undefined {
+    if (this.exact?.has(i) || other.exact?.has(j)) return undefined;
+    const n = this.size[i];
+    const a = this.bytes;
+    const b = other.bytes;
+    let at = this.start[i];
+    let bt = other.start[j];
+    if (n === other.size[j]) {
+      let k = 0;
+      while (k < n && a[at + k] === b[bt + k]) k++;
+      if (k === n) return true;
+    }
+    for (const end = at + n; at < end; at++) if (a[at] >= 0x80) return undefined;
+    for (const end = bt + other.size[j]; bt < end; bt++) if (b[bt] >= 0x80) return undefined;
+    return false;
+  }
+
+  /**
+   * A new pool sharing these bytes whose node k has the name of node `from[k]` here, or `extra` where
+   * `from[k]` is -1 (a root espalier adds).
+   */
+  reordered(from: Int32Array, extra: string): NamePool {
+    const total = from.length;
+    const out = new NamePool(total, 16);
+    out.bytes = this.bytes;
+    out.used = this.used;
+    out.length = total;
+    for (let k = 0; k < total; k++) {
+      const o = from[k];
+      if (o === -1) out.setString(k, extra);
+      else {
+        out.start[k] = this.start[o];
+        out.size[k] = this.size[o];
+      }
+    }
+    if (this.exact !== null)
+      for (let k = 0; k < total; k++) {
+        const text = from[k] === -1 ? undefined : this.exact.get(from[k]);
+        if (text !== undefined) {
+          out.exact ??= new Map();
+          out.exact.set(k, text);
+        }
+      }
+    return out;
+  }
+
+  /** Bytes held for names, pool and index (for memory reports). */
+  get byteLength(): number {
+    return this.bytes.length + this.start.byteLength + this.size.byteLength;
+  }
+
+  private place(i: number, at: number, n: number): void {
+    if (i >= this.start.length) this.growNodes(i + 1);
+    if (i >= this.length) this.length = i + 1;
+    this.start[i] = at;
+    this.size[i] = n;
+    if (this.exact !== null) this.exact.delete(i);
+  }
+
+  /** Where `n` more bytes can go; grows the pool when they would not fit. */
+  private reserve(n: number): number {
+    const need = this.used + n;
+    if (need <= this.bytes.length) return this.used;
+    if (need > LONGEST_POOL) {
+      throw new EspalierError(
+        "LIMIT_EXCEEDED",
+        "the names of the input take more than 4 GiB; load a smaller part of it",
+      );
+    }
+    const grown = Buffer.allocUnsafe(
+      Math.min(LONGEST_POOL, Math.max(need, this.bytes.length * 2)),
+    ) as Buffer & Codecs;
+    this.bytes.copy(grown, 0, 0, this.used);
+    this.bytes = grown;
+    return this.used;
+  }
+
+  private growNodes(atLeast: number): void {
+    const capacity = Math.max(atLeast, this.start.length * 2);
+    const start = new Uint32Array(capacity);
+    start.set(this.start);
+    this.start = start;
+    const size = new Uint32Array(capacity);
+    size.set(this.size);
+    this.size = size;
+  }
+}

@@ -1,0 +1,84 @@
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { NamePool, namesToArray, PrefixedNames, StringNames, sameName } from "../../src/model/names.js";
+
+const utf8 = (text: string) => new TextEncoder().encode(text);
+
+describe("NamePool", () => {
+  it("reads back every string it was given, set in any order and set again", () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.tuple(fc.nat(40), fc.string({ unit: "grapheme" })), { maxLength: 200 }),
+        (sets) => {
+          const pool = new NamePool(1, 16);
+          const expected: string[] = [];
+          for (const [i, text] of sets) {
+            pool.setString(i, text);
+            for (let k = expected.length; k < i; k++) expected[k] = "";
+            expected[i] = text;
+          }
+          expect(pool.length).toBe(expected.length);
+          for (let i = 0; i < expected.length; i++) expect(pool.get(i)).toBe(expected[i]);
+        },
+      ),
+    );
+  });
+
+  it("keeps a lone surrogate as it was set (UTF-8 cannot carry it)", () => {
+    // ECMA-262 String.prototype.isWellFormed: "\ud800" alone is not well formed; JSON's "\ud800" spells it.
+    const pool = new NamePool();
+    pool.setString(0, "a\ud800b");
+    pool.setString(1, "\udfff");
+    expect(pool.get(0)).toBe("a\ud800b");
+    expect(pool.get(1)).toBe("\udfff");
+    pool.setString(0, "plain");
+    expect(pool.get(0)).toBe("plain");
+  });
+
+  it("decodes raw bytes as the WHATWG UTF-8 decoder does, invalid sequences included", () => {
+    // Reference: TextDecoder (WHATWG Encoding Standard, "utf-8" decode with replacement).
+    fc.assert(
+      fc.property(fc.array(fc.uint8Array({ maxLength: 12 }), { maxLength: 30 }), (list) => {
+        const pool = new NamePool(2, 16);
+        list.forEach((bytes, i) => {
+          pool.setBytes(i, bytes, 0, bytes.length);
+        });
+        list.forEach((bytes, i) => {
+          expect(pool.get(i)).toBe(new TextDecoder().decode(bytes));
+        });
+      }),
+    );
+  });
+
+  it("compares names by their text, across pools and kinds of storage", () => {
+    const a = new NamePool();
+    const b = new NamePool();
+    a.setBytes(0, Uint8Array.of(0x61, 0xff), 0, 2); // "a\ufffd"
+    b.setBytes(0, Uint8Array.of(0x61, 0xfe), 0, 2); // also "a\ufffd"
+    a.setString(1, "Ærø");
+    b.setBytes(1, utf8("Ærø"), 0, utf8("Ærø").length);
+    a.setString(2, "x");
+    b.setString(2, "y");
+    for (let i = 0; i < 3; i++) expect(sameName(a, i, b, i)).toBe(a.get(i) === b.get(i));
+    expect(sameName(a, 0, b, 0)).toBe(true);
+    expect(sameName(new StringNames(["q"]), 0, b, 2)).toBe(false);
+    expect(a.equalsBytes(1, utf8("Ærø"), 0, utf8("Ærø").length)).toBe(true);
+    expect(a.equalsBytes(2, utf8("xx"), 0, 2)).toBe(false);
+  });
+
+  it("drops the names of truncated nodes and reorders without copying bytes", () => {
+    const pool = new NamePool(1, 16);
+    ["r", "a", "b", "c"].forEach((name, i) => {
+      pool.setString(i, name);
+    });
+    pool.setLength(2);
+    expect(namesToArray(pool)).toEqual(["r", "a"]);
+    pool.setLength(3);
+    expect(pool.get(2)).toBe("");
+    pool.setString(2, "\ud800");
+    pool.setString(3, "d");
+    const moved = pool.reordered(Int32Array.of(-1, 3, 2, 0), "(root)");
+    expect(namesToArray(moved)).toEqual(["(root)", "d", "\ud800", "r"]);
+    expect(namesToArray(new PrefixedNames("top", moved))).toEqual(["top", "(root)", "d", "\ud800", "r"]);
+  });
+});
