@@ -36,7 +36,7 @@ export function underRoot(tree: Tree, rootName: string): Tree {
     name: new PrefixedNames(rootName, tree.name),
     ownSize,
     hasSizes: tree.hasSizes,
-    ids: tree.ids ? ["", ...tree.ids] : null,
+    ids: tree.ids ? new PrefixedNames("", tree.ids) : null,
     origin,
     originIsRow: tree.originIsRow,
     fields,

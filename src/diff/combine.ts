@@ -238,8 +238,8 @@ function copyTree(
   const newOrigin = newTree.origin;
   const oldOrigin = oldTree.origin;
   const newSize = newTree.ownSize;
-  const newIds = newTree.ids ?? [];
-  const oldIds = oldTree.ids ?? [];
+  const newIds = newTree.ids;
+  const oldIds = oldTree.ids;
   for (let k = 0; k < total; k++) {
     const n = newIndex[k];
     depth[k] = k === 0 ? 0 : depth[parent[k]] + 1;
@@ -247,12 +247,12 @@ function copyTree(
       name[k] = newName.get(n);
       origin[k] = newOrigin[n];
       ownSize[k] = newSize[n];
-      if (ids) ids[k] = newIds[n];
+      if (ids) ids[k] = newIds?.get(n) ?? "";
     } else {
       const o = oldIndex[k];
       name[k] = oldName.get(o);
       origin[k] = oldOrigin[o];
-      if (ids) ids[k] = oldIds[o];
+      if (ids) ids[k] = oldIds?.get(o) ?? "";
     }
   }
   const fieldValues = keys.map((key) => {
@@ -273,7 +273,7 @@ function copyTree(
     name: new StringNames(name),
     ownSize,
     hasSizes: oldTree.hasSizes || newTree.hasSizes,
-    ids,
+    ids: ids ? new StringNames(ids) : null,
     origin,
     originIsRow: newTree.originIsRow,
     fields,

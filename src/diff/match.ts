@@ -1,4 +1,4 @@
-import { sameName } from "../model/names.js";
+import { isEmptyName, type Names, sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 
 /** How the nodes of two versions correspond. Roots always correspond to each other. */
@@ -40,9 +40,9 @@ export function matchTrees(
  * moved; only the rows it leaves over go through a hash map. Every pair has equal ids either way.
  */
 function matchById(
-  oldIds: readonly string[],
+  oldIds: Names,
   oldCount: Int32Array,
-  newIds: readonly string[],
+  newIds: Names,
   newCount: Int32Array,
   oldToNew: Int32Array,
   newToOld: Int32Array,
@@ -52,20 +52,19 @@ function matchById(
   let o = 1;
   let n = 1;
   while (o < nOld && n < nNew) {
-    const id = newIds[n];
-    if (oldIds[o] === id && id !== "") {
+    if (!isEmptyName(newIds, n) && sameName(oldIds, o, newIds, n)) {
       oldToNew[o] = n;
       newToOld[n] = o;
       o++;
       n++;
       continue;
     }
-    const skipOld = ahead(oldIds, oldCount, o, id);
+    const skipOld = ahead(oldIds, oldCount, o, newIds, n);
     if (skipOld > 0) {
       o = skipOld;
       continue;
     }
-    const skipNew = ahead(newIds, newCount, n, oldIds[o]);
+    const skipNew = ahead(newIds, newCount, n, oldIds, o);
     if (skipNew > 0) n = skipNew;
     else {
       o++;
@@ -74,28 +73,32 @@ function matchById(
   }
   const byId = new Map<string, number>();
   for (let k = 1; k < nOld; k++) {
-    const key = oldIds[k];
-    if (oldToNew[k] === -1 && key !== "" && !byId.has(key)) byId.set(key, k);
+    if (oldToNew[k] !== -1 || isEmptyName(oldIds, k)) continue;
+    const key = oldIds.get(k);
+    if (!byId.has(key)) byId.set(key, k);
   }
   if (byId.size === 0) return;
   for (let k = 1; k < nNew; k++) {
-    if (newToOld[k] !== -1 || newIds[k] === "") continue;
-    const m = byId.get(newIds[k]);
+    if (newToOld[k] !== -1 || isEmptyName(newIds, k)) continue;
+    const m = byId.get(newIds.get(k));
     if (m === undefined || oldToNew[m] !== -1) continue;
     oldToNew[m] = k;
     newToOld[k] = m;
   }
 }
 
-/** A position just past a few whole subtrees, or one node, from `at` whose id is `id`; else 0. */
-function ahead(ids: readonly string[], count: Int32Array, at: number, id: string): number {
-  if (id === "") return 0;
-  if (at + 1 < ids.length && ids[at + 1] === id) return at + 1;
+/**
+ * A position just past a few whole subtrees, or one node, from `at` whose id is id `j` of `other`;
+ * else 0.
+ */
+function ahead(ids: Names, count: Int32Array, at: number, other: Names, j: number): number {
+  if (isEmptyName(other, j)) return 0;
+  if (at + 1 < ids.length && sameName(ids, at + 1, other, j)) return at + 1;
   let p = at;
   for (let k = 0; k < 4; k++) {
     p += count[p];
     if (p >= ids.length) return 0;
-    if (ids[p] === id) return p;
+    if (sameName(ids, p, other, j)) return p;
   }
   return 0;
 }

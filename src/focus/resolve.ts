@@ -1,4 +1,5 @@
 import { EspalierError } from "../errors.js";
+import { indexOfName } from "../model/names.js";
 import type { PathIndex } from "../model/paths.js";
 import { pseudonym } from "../model/pseudonym.js";
 import { escapeSegment, parseSegment, splitPath } from "../model/segment.js";
@@ -41,7 +42,6 @@ export function resolvePseudonymPath(index: PathIndex, spec: string, key: string
 export function resolveFoci(index: PathIndex, specs: readonly string[], pseudonymKey?: string): Int32Array {
   const { tree, measures } = index;
   const found = new Set<number>();
-  let idMap: Map<string, number> | undefined;
   for (const spec of specs) {
     const exact = resolvePath(index, spec);
     if (exact >= 0) {
@@ -56,12 +56,8 @@ export function resolveFoci(index: PathIndex, specs: readonly string[], pseudony
       }
     }
     if (tree.ids) {
-      if (!idMap) {
-        idMap = new Map();
-        for (let i = 0; i < tree.length; i++) if (tree.ids[i] !== "") idMap.set(tree.ids[i], i);
-      }
-      const byId = idMap.get(spec);
-      if (byId !== undefined) {
+      const byId = indexOfName(tree.ids, spec);
+      if (byId >= 0) {
         found.add(byId);
         continue;
       }

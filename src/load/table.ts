@@ -14,6 +14,11 @@ export interface Table {
   column(name: string): readonly Cell[] | undefined;
   /** The columns that exist, for messages. */
   columnNames(): string[];
+  /**
+   * Lets go of the cells (columns read before stay valid; the table answers no more). The engine may
+   * keep a parser's closure alive in compiled code long after the load, and with it every cell.
+   */
+  release?(): void;
 }
 
 /**

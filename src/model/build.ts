@@ -11,7 +11,8 @@ export interface LinkedNodes {
   name: NamePool | readonly string[];
   ownSize: Float64Array;
   hasSizes: boolean;
-  ids: string[] | null;
+  /** Row ids, one per node, pooled or plain; null when rows are not linked by id. */
+  ids: NamePool | readonly string[] | null;
   /** 1-based line or row of each node. */
   origin: Int32Array;
   originIsRow: boolean;
@@ -20,13 +21,20 @@ export interface LinkedNodes {
   rootName: string;
 }
 
+/** Linked nodes with their names and ids pooled. */
+type PooledNodes = LinkedNodes & { name: NamePool; ids: NamePool | null };
+
 /**
  * Orders linked nodes into a pre-order {@link Tree}. Children keep input order. Several top-level nodes
  * get one synthetic root named `rootName`. Nodes unreachable from a top-level node lie on a cycle, which
  * is reported with the rows or lines on it. Iterative: no recursion a deep tree could overflow.
  */
 export function buildTree(linked: LinkedNodes, file?: string): Tree {
-  const input = { ...linked, name: poolOf(linked.name) };
+  const input = {
+    ...linked,
+    name: poolOf(linked.name),
+    ids: linked.ids === null ? null : poolOf(linked.ids),
+  };
   checkSizes(input, file);
   const ordered = inPreOrder(input);
   if (ordered) return ordered;
@@ -75,7 +83,6 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
   const from = new Int32Array(total);
   const ownSize = new Float64Array(total);
   const origin = new Int32Array(total);
-  const ids: string[] | null = input.ids ? new Array(total) : null;
   const fields = new Map<string, string[]>();
   const fieldSources = [...input.fields];
   for (const [key] of fieldSources) fields.set(key, new Array(total));
@@ -86,14 +93,12 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
     depth[k] = p === -1 ? 0 : depth[parent[k]] + 1;
     if (o === n) {
       from[k] = -1;
-      if (ids) ids[k] = "";
       for (const [key] of fieldSources) fields.get(key)![k] = "";
       continue;
     }
     from[k] = o;
     ownSize[k] = input.ownSize[o];
     origin[k] = input.origin[o];
-    if (ids) ids[k] = input.ids![o];
     for (const [key, values] of fieldSources) fields.get(key)![k] = values[o] ?? "";
   }
   return {
@@ -103,7 +108,7 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
     name: input.name.reordered(from, input.rootName),
     ownSize,
     hasSizes: input.hasSizes,
-    ids,
+    ids: input.ids === null ? null : input.ids.reordered(from, ""),
     origin,
     originIsRow: input.originIsRow,
     fields,
@@ -116,7 +121,7 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
  * path from the latest top-level node down to the node before it), as document-order loaders give them;
  * null otherwise. Saves the linking arrays of the general case.
  */
-function inPreOrder(input: LinkedNodes & { name: NamePool }): Tree | null {
+function inPreOrder(input: PooledNodes): Tree | null {
   const { parentOf } = input;
   const n = parentOf.length;
   let tops = 0;
@@ -163,7 +168,12 @@ function inPreOrder(input: LinkedNodes & { name: NamePool }): Tree | null {
         : input.name.reordered(firstThen(n, shift), input.rootName),
     ownSize,
     hasSizes: input.hasSizes,
-    ids: input.ids ? withFirst(input.ids, n, shift, "") : null,
+    ids:
+      input.ids === null
+        ? null
+        : shift === 0 && input.ids.length === n
+          ? input.ids
+          : input.ids.reordered(firstThen(n, shift), ""),
     origin,
     originIsRow: input.originIsRow,
     fields,
@@ -194,7 +204,7 @@ function withFirst(values: readonly string[], n: number, shift: number, first: s
   return out;
 }
 
-function cycleError(input: LinkedNodes, par: Int32Array, visited: Int32Array, file?: string): EspalierError {
+function cycleError(input: PooledNodes, par: Int32Array, visited: Int32Array, file?: string): EspalierError {
   const n = input.parentOf.length;
   let start = 0;
   while (start < n && visited[start] !== -1) start++;
@@ -209,7 +219,7 @@ function cycleError(input: LinkedNodes, par: Int32Array, visited: Int32Array, fi
   for (let c = par[cur]; c !== cur; c = par[c]) cycle.push(c);
   const unit = input.originIsRow ? "row" : "line";
   const where = (i: number) =>
-    `${unit} ${input.origin[i]}${input.ids ? ` (id ${JSON.stringify(input.ids[i])})` : ""}`;
+    `${unit} ${input.origin[i]}${input.ids ? ` (id ${JSON.stringify(input.ids.get(i))})` : ""}`;
   const first = cycle.reduce((a, b) => (input.origin[a] <= input.origin[b] ? a : b));
   const pos = input.originIsRow ? { file, row: input.origin[first] } : { file, line: input.origin[first] };
   if (cycle.length === 1) return new EspalierError("CYCLE", `${where(cur)} is its own parent`, pos);

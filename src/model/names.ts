@@ -50,6 +50,23 @@ export function sameName(a: Names, i: number, b: Names, j: number): boolean {
   return a.get(i) === b.get(j);
 }
 
+/** Whether name `i` is the empty string. */
+export function isEmptyName(names: Names, i: number): boolean {
+  return names instanceof NamePool ? names.byteLengthOf(i) === 0 : names.get(i) === "";
+}
+
+/** The first node whose name is `text` (not empty), or -1. Compares bytes in a pool: nothing decoded. */
+export function indexOfName(names: Names, text: string): number {
+  if (text === "") return -1;
+  if (names instanceof NamePool && text.isWellFormed()) {
+    const bytes = Buffer.from(text, "utf8");
+    for (let i = 0; i < names.length; i++) if (names.equalsBytes(i, bytes, 0, bytes.length)) return i;
+    return -1;
+  }
+  for (let i = 0; i < names.length; i++) if (names.get(i) === text) return i;
+  return -1;
+}
+
 /** Every name, in node order. */
 export function namesToArray(names: Names): string[] {
   const out: string[] = new Array(names.length);
@@ -128,6 +145,11 @@ export class NamePool implements Names {
       this.exact ??= new Map();
       this.exact.set(i, text);
     }
+  }
+
+  /** Bytes of name `i` in UTF-8 (0 exactly for the empty name). */
+  byteLengthOf(i: number): number {
+    return this.size[i];
   }
 
   /** Whether node `i`'s name is spelled by the bytes `src[s, e)`. */

@@ -18,7 +18,7 @@ export interface Tree {
   /** Whether the input carried sizes at all. */
   readonly hasSizes: boolean;
   /** The row id of each node, when the input links rows by id; "" for a synthetic root. */
-  readonly ids: readonly string[] | null;
+  readonly ids: Names | null;
   /** 1-based line (text formats) or data row (tables) each node came from; 0 for a synthetic root. */
   readonly origin: Int32Array;
   /** Whether `origin` counts table rows (true) or text lines (false). */

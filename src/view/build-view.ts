@@ -45,7 +45,7 @@ export function buildView(
       index: i,
       name: nameOf(i),
       path: pathOf(i),
-      id: tree.ids ? tree.ids[i] : null,
+      id: tree.ids ? tree.ids.get(i) : null,
       label: label(i),
       interest: round(scores.value[i]),
       nodes: count[i],

@@ -29,7 +29,7 @@ export function compileLabel(
       if (!tree.ids)
         throw new EspalierError("FIELD_MISSING", `the label uses {id} but the input has no id column`);
       const ids = tree.ids;
-      return (i) => ids[i];
+      return (i) => ids.get(i);
     }
     const values = tree.fields.get(part);
     if (!values) {

@@ -55,7 +55,9 @@ describe("diffTrees(old, new, options)", () => {
   it("reports nothing for diff(T, T)", () => {
     fc.assert(
       fc.property(arbTree(40), fc.boolean(), (tree, ids) => {
-        const t = ids ? { ...tree, ids: Array.from({ length: tree.length }, (_, i) => `n${i}`) } : tree;
+        const t = ids
+          ? { ...tree, ids: new StringNames(Array.from({ length: tree.length }, (_, i) => `n${i}`)) }
+          : tree;
         const result = run(t, t, 10);
         expect(result.totals.changes).toEqual({ added: 0, removed: 0, moved: 0, renamed: 0, resized: 0 });
         expect(result.totals.delta).toBe(0);
@@ -88,7 +90,10 @@ describe("diffTrees(old, new, options)", () => {
 
   it("gives each node one kind: moved before renamed before resized, own size change kept", () => {
     const oldTree = makeIdTree("R{A{m:1,n:1,s:1},B}");
-    const newTree = { ...makeIdTree("R{A{n:2,s:3},B{m:5}}"), ids: ["R", "A", "n", "s", "B", "m"] };
+    const newTree = {
+      ...makeIdTree("R{A{n:2,s:3},B{m:5}}"),
+      ids: new StringNames(["R", "A", "n", "s", "B", "m"]),
+    };
     const renamed: Tree = { ...newTree, name: new StringNames(["R", "A", "n2", "s", "B", "m2"]) };
     const result = run(oldTree, renamed);
     expect(changeList(result)).toEqual(["n2 renamed", "s resized", "m2 moved from A to B"]);
@@ -111,14 +116,14 @@ describe("diffTrees(old, new, options)", () => {
       fc.property(arbEdited(), ({ oldTree, newTree, expected }) => {
         const result = run(oldTree, newTree, 5);
         const { tree, kind, oldIndex } = result.combined;
-        const ids = tree.ids!;
+        const ids = namesToArray(tree.ids!);
         const found = new Map<string, string>();
         for (let k = 0; k < tree.length; k++) {
           const word = kindName(kind[k]);
           if (word === null) continue;
           let text: string = word;
           if (word === "moved") {
-            const from = result.combined.oldTree.ids![result.combined.oldTree.parent[oldIndex[k]]];
+            const from = result.combined.oldTree.ids!.get(result.combined.oldTree.parent[oldIndex[k]]);
             text += ` ${from} ${ids[tree.parent[k]]}`;
           }
           found.set(ids[k], text);

@@ -1,5 +1,6 @@
 import fc from "fast-check";
 import { buildTree } from "../../src/model/build.js";
+import { StringNames } from "../../src/model/names.js";
 import type { Tree } from "../../src/model/tree.js";
 import { arbTree } from "../helpers/random-tree.js";
 
@@ -31,7 +32,7 @@ export const arbEdited = (maxNodes = 40, maxEdits = 8): fc.Arbitrary<Edited> =>
   fc.tuple(arbTree(maxNodes), fc.array(arbOp, { maxLength: maxEdits })).map(([tree, script]) => {
     const n = tree.length;
     const ids = Array.from({ length: n }, (_, i) => `n${i}`);
-    const oldTree: Tree = { ...tree, ids };
+    const oldTree: Tree = { ...tree, ids: new StringNames(ids) };
     const order = [...ids];
     const parent = new Map<string, string | null>(
       ids.map((id, i) => [id, i === 0 ? null : ids[tree.parent[i]]]),

@@ -1,6 +1,14 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { NamePool, namesToArray, PrefixedNames, StringNames, sameName } from "../../src/model/names.js";
+import {
+  indexOfName,
+  isEmptyName,
+  NamePool,
+  namesToArray,
+  PrefixedNames,
+  StringNames,
+  sameName,
+} from "../../src/model/names.js";
 
 const utf8 = (text: string) => new TextEncoder().encode(text);
 
@@ -80,5 +88,21 @@ describe("NamePool", () => {
     const moved = pool.reordered(Int32Array.of(-1, 3, 2, 0), "(root)");
     expect(namesToArray(moved)).toEqual(["(root)", "d", "\ud800", "r"]);
     expect(namesToArray(new PrefixedNames("top", moved))).toEqual(["top", "(root)", "d", "\ud800", "r"]);
+  });
+
+  it("finds a name by its text and tells the empty name, pooled or not", () => {
+    const texts = ["", "emp-0042", "Ærø", "emp-0042", "a\ud800"];
+    const pool = new NamePool(1, 16);
+    texts.forEach((t, i) => {
+      pool.setString(i, t);
+    });
+    for (const names of [pool, new StringNames(texts)]) {
+      expect(indexOfName(names, "emp-0042")).toBe(1);
+      expect(indexOfName(names, "Ærø")).toBe(2);
+      expect(indexOfName(names, "a\ud800")).toBe(4);
+      expect(indexOfName(names, "")).toBe(-1);
+      expect(indexOfName(names, "emp-004")).toBe(-1);
+      expect(texts.map((_, i) => isEmptyName(names, i))).toEqual([true, false, false, false, false]);
+    }
   });
 });

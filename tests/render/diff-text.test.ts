@@ -60,7 +60,7 @@ describe("renderDiffText(view, totals, options)", () => {
     const oldTree = makeIdTree("R{A{b},k}");
     const newTree: Tree = {
       ...makeIdTree("R{A{k},b}"),
-      ids: ["R", "A", "k", "b"],
+      ids: new StringNames(["R", "A", "k", "b"]),
       name: new StringNames(["R", "A", "k", "b\u001b[31m"]),
     };
     const out = text(oldTree, newTree);

@@ -111,6 +111,11 @@ export async function csvStreamTable(
       return column.cells.length > length ? column.cells.slice(0, length) : column.cells;
     },
     columnNames: () => names,
+    release() {
+      for (const column of kept) column.cells = [];
+      kept.length = 0;
+      at.clear();
+    },
   };
 }
 

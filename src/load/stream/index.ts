@@ -55,8 +55,14 @@ async function linkedNodes(
       return loader.end();
     }
     case "csv":
-    case "tsv":
-      return linkTable(await csvStreamTable(chunks, format === "csv" ? "," : "\t", options), options);
+    case "tsv": {
+      const table = await csvStreamTable(chunks, format === "csv" ? "," : "\t", options);
+      try {
+        return linkTable(table, options);
+      } finally {
+        table.release?.();
+      }
+    }
     case "paths":
       return pathListStream(chunks, options);
     case "yaml":

@@ -1,5 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
+import { csvStreamTable } from "../../../src/load/stream/csvStreamTable.js";
 import { opts } from "../helpers.js";
 import {
   cutsFor,
@@ -137,5 +138,16 @@ describe("loadTreeFromStream(csv)", () => {
       loadStreamed(utf8("id,parent\n1,\n2,1\n3,1\n4,1\n"), options, [12]),
     );
     expect(outcome).toEqual({ code: "LIMIT_EXCEEDED", pos: { row: 3 } });
+  });
+
+  it("lets go of its cells once linked; columns read before stay whole", async () => {
+    async function* chunks() {
+      yield utf8("id,parent,name\n1,,Quillfeather\n2,1,Optics\n");
+    }
+    const table = await csvStreamTable(chunks(), ",", opts({}));
+    const names = table.column("name");
+    table.release?.();
+    expect(names).toEqual(["Quillfeather", "Optics"]);
+    expect(table.column("name")).toBeUndefined();
   });
 });
