@@ -3,11 +3,12 @@
 // it, its peak memory taken from outside. Informs; never gates (exit 0 whatever the ratios).
 // Usage: npm run bench -- [--nodes N[,N...]] [--only json,csv,paths,diff] [--repeat N] [--budget N]
 //                         [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--no-memory] [--no-diff]
-//                         [--rss-from auto|time|proc] [--force-data]
+//                         [--rss-from auto|time|proc] [--force-data] [--big [--big-nodes N]]
 // See docs/performance.md for what every number means.
 
 import { spawnSync } from "node:child_process";
 import { createHash } from "node:crypto";
+import { constants } from "node:buffer";
 import { closeSync, existsSync, mkdirSync, openSync, readSync, statSync, writeFileSync } from "node:fs";
 import { cpus, loadavg } from "node:os";
 import { dirname, join, relative } from "node:path";
@@ -67,6 +68,7 @@ const results = {
   scale: null,
   refocus: null,
   diff: null,
+  big: null,
 };
 log(
   `baseline: an empty Node process peaks at ${results.baseline.maxRssMiB} MiB; default heap limit ` +
@@ -74,7 +76,7 @@ log(
 );
 
 let firstManifest;
-for (const nodes of options.diffOnly ? [] : options.sizes) {
+for (const nodes of options.diffOnly || options.big ? [] : options.sizes) {
   const manifest = ensureData({ nodes, formats: options.only, force: options.forceData, log });
   firstManifest ??= manifest;
   const foci = manifest.foci;
@@ -92,11 +94,12 @@ for (const nodes of options.diffOnly ? [] : options.sizes) {
 }
 results.scale = scaleFigures(results.sizes);
 
-if (!options.diffOnly) {
+if (!options.diffOnly && !options.big) {
   const m = firstManifest;
   results.refocus = benchRefocus(options.only[0], m);
 }
-results.diff = await benchDiff();
+if (options.big) results.big = benchBig();
+else results.diff = await benchDiff();
 results.loadAfter = loadavg()[0];
 
 mkdirSync(outDir, { recursive: true });
@@ -139,6 +142,38 @@ function benchFormat(nodes, format, file, foci) {
   entry.heapMiB = heap;
   if (options.cpuProf) entry.profile = profile(nodes, format, file, foci, heap);
   return entry;
+}
+
+/**
+ * Issue 4, inputs bigger than one string: a generated tree of `--big-nodes` nodes (30M by default: about
+ * 1 GiB as JSON and as CSV), each file checked to be longer than the engine's longest string, the
+ * floor's whole-file read tried once (it must fail), then the real command line once, timed, its peak
+ * taken from outside.
+ */
+function benchBig() {
+  const nodes = options.bigNodes;
+  const manifest = ensureData({ nodes, formats: options.only, force: options.forceData, log });
+  const out = { nodes, maxStringLength: constants.MAX_STRING_LENGTH, formats: {} };
+  for (const format of options.only) {
+    const file = manifest.files[format];
+    warmCache(file);
+    const bytes = statSync(file).size;
+    const floor = child({ kind: "floor", format, file }, heapFor([file]));
+    log(`${nodes} ${format} whole-file floor: ${floor.error ? `fails (${floor.error})` : `${fmtS(floor.ms)} s`}`);
+    const load = loadavg()[0];
+    const cli = runCommand([file, ...manifest.foci.flatMap((f) => ["--focus", f]), "--budget", String(options.budget)]);
+    cli.load = load;
+    const rss = cli.maxRssMiB === null ? "peak ?" : `${cli.maxRssMiB} MiB`;
+    log(`${nodes} ${format} cli: ${cli.error ? `ERROR ${cli.error}` : `${fmtS(cli.ms)} s, ${rss}`} (load ${load.toFixed(2)})`);
+    out.formats[format] = {
+      file: relative(repoRoot, file),
+      bytes,
+      longerThanOneString: bytes > constants.MAX_STRING_LENGTH,
+      floorError: floor.error ?? null,
+      cli,
+    };
+  }
+  return out;
 }
 
 /** Heap limit (MiB) the launcher would restart with for these inputs (0: the default), or --heap. */
@@ -528,6 +563,27 @@ function profileDiff(format, oldFile, newFile, budget, heap) {
 // ---------------------------------------------------------------------------------------------------------
 // Report
 
+/** The table of the bigger-than-one-string run. */
+function bigLines(big) {
+  const rows = [["format", "file MiB", "> longest string", "whole-file read", "CLI s", "CLI MiB", "load 1m"]];
+  for (const [format, f] of Object.entries(big.formats)) {
+    rows.push([
+      format,
+      (f.bytes / MiB).toFixed(0),
+      f.longerThanOneString ? "yes" : "NO",
+      f.floorError ? f.floorError.split(":")[0] : "worked",
+      f.cli.error ? "ERROR" : fmtS(f.cli.ms),
+      f.cli.maxRssMiB === null ? "?" : String(Math.round(f.cli.maxRssMiB)),
+      f.cli.load.toFixed(1),
+    ]);
+  }
+  return [
+    "",
+    `bigger than one string (issue 4): ${big.nodes.toLocaleString("en-US")} nodes, longest string ${big.maxStringLength.toLocaleString("en-US")} characters`,
+    ...table(rows),
+  ];
+}
+
 function report(r) {
   const lines = [];
   lines.push("");
@@ -544,6 +600,7 @@ function report(r) {
     lines.push(
       `warning: the machine was busy (1-min load up to ${busy.toFixed(1)} on ${r.cpus} CPUs); times are noisy`,
     );
+  if (r.big) lines.push(...bigLines(r.big));
   for (const [nodes, size] of Object.entries(r.sizes)) {
     lines.push("");
     lines.push(`${Number(nodes).toLocaleString("en-US")} nodes:`);
@@ -832,6 +889,8 @@ function parseArgs(argv) {
     diff: true,
     diffOnly: false,
     forceData: false,
+    big: false,
+    bigNodes: 30_000_000,
   };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
@@ -875,15 +934,19 @@ function parseArgs(argv) {
       if (!["auto", "time", "proc"].includes(o.rssFrom)) usage("--rss-from: auto, time or proc");
     } else if (a === "--no-diff") o.diff = false;
     else if (a === "--force-data") o.forceData = true;
+    else if (a === "--big") o.big = true;
+    else if (a === "--big-nodes") o.bigNodes = count();
     else usage(`unknown option ${a}`);
   }
+  // A path list of 30M nodes is 2.6 GB; the big run covers the two formats that reach 1 GiB first.
+  if (o.big && !argv.includes("--only")) o.only = ["json", "csv"];
   return o;
 }
 
 function usage(message) {
   log(`bench: ${message}`);
   log(
-    "usage: npm run bench -- [--nodes N[,N...]] [--only json,csv,paths,diff] [--repeat N] [--budget N] [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--no-memory] [--no-diff] [--rss-from auto|time|proc] [--force-data]",
+    "usage: npm run bench -- [--nodes N[,N...]] [--only json,csv,paths,diff] [--repeat N] [--budget N] [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--no-memory] [--no-diff] [--rss-from auto|time|proc] [--force-data] [--big [--big-nodes N]]",
   );
   process.exit(2);
 }
