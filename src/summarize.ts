@@ -6,7 +6,7 @@ import { type Importance, importance } from "./interest/importance.js";
 import { nodeOrder } from "./interest/order.js";
 import { type Measures, measure } from "./model/measure.js";
 import { PathIndex } from "./model/paths.js";
-import { pseudonym } from "./model/pseudonym.js";
+import { hiddenIds, pseudonym } from "./model/pseudonym.js";
 import { escapeSegment } from "./model/segment.js";
 import type { Tree } from "./model/tree.js";
 import { buildView } from "./view/build-view.js";
@@ -79,8 +79,9 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
     key === undefined
       ? (i: number) => index.path(i)
       : (i: number) => index.path(i, (j) => escapeSegment(nameOf(j)));
-  const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf);
-  const view = buildView(index, scores, foci, selection, label, nameOf, pathOf);
+  const idOf = hiddenIds(tree, key);
+  const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf, (i) => idOf(i) ?? "");
+  const view = buildView(index, scores, foci, selection, label, nameOf, pathOf, idOf);
   return { view, selection, scores, foci, fociPaths: [...foci].map(pathOf) };
 }
 

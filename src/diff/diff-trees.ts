@@ -4,7 +4,7 @@ import { resolveFoci } from "../focus/resolve.js";
 import { type Importance, importance } from "../interest/importance.js";
 import { type Measures, measure } from "../model/measure.js";
 import { PathIndex } from "../model/paths.js";
-import { pseudonym } from "../model/pseudonym.js";
+import { hiddenIds, pseudonym } from "../model/pseudonym.js";
 import { escapeSegment } from "../model/segment.js";
 import type { Tree } from "../model/tree.js";
 import { compileLabel } from "../view/label.js";
@@ -91,7 +91,8 @@ export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions):
     const old = oldIndex;
     return key === undefined ? old.path(o) : old.path(o, (j) => escapeSegment(oldNameOf(j)));
   };
-  const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf);
+  const idOf = hiddenIds(tree, key);
+  const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf, (i) => idOf(i) ?? "");
   const view = buildDiffView(
     index,
     combined,
@@ -102,6 +103,7 @@ export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions):
     label,
     nameOf,
     pathOf,
+    idOf,
     {
       nameOf: oldNameOf,
       pathOf: oldPathOf,

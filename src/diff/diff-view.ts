@@ -56,9 +56,10 @@ export function buildDiffView(
   label: Labeller,
   nameOf: (i: number) => string,
   pathOf: (i: number) => string,
+  idOf: (i: number) => string | null,
   old: OldNames,
 ): HierarchyNode<DiffViewNode> {
-  const base = buildView(index, scores, foci, selection, label, nameOf, pathOf);
+  const base = buildView(index, scores, foci, selection, label, nameOf, pathOf, idOf);
   const { count } = index.measures;
   const { shown } = selection;
   const { kind, delta, oldIndex, oldTree } = combined;

@@ -34,11 +34,15 @@ export function resolvePseudonymPath(index: PathIndex, spec: string, key: string
   return node;
 }
 
+/** The shape of a printed pseudonym. */
+const PSEUDONYM = /^anon-[0-9a-f]{12}$/;
+
 /**
  * Focus specs -> node indices (sorted, without repeats). Each spec is tried as an exact path, then as a
- * row id (where rows have ids), then as a glob. A spec that matches nothing is an error that suggests
- * the closest existing path.
+ * row id (where rows have ids; with a pseudonym key also as a printed pseudonymous id), then as a glob.
+ * A spec that matches nothing is an error that suggests the closest existing path.
  */
+
 export function resolveFoci(index: PathIndex, specs: readonly string[], pseudonymKey?: string): Int32Array {
   const { tree, measures } = index;
   const found = new Set<number>();
@@ -60,6 +64,18 @@ export function resolveFoci(index: PathIndex, specs: readonly string[], pseudony
       if (byId >= 0) {
         found.add(byId);
         continue;
+      }
+      // A printed pseudonymous id reads back with the same secret (one keyed hash per row).
+      if (pseudonymKey !== undefined && PSEUDONYM.test(spec)) {
+        let hit = -1;
+        for (let i = 0; i < tree.length && hit < 0; i++) {
+          const id = tree.ids.get(i);
+          if (id !== "" && pseudonym(pseudonymKey, id) === spec) hit = i;
+        }
+        if (hit >= 0) {
+          found.add(hit);
+          continue;
+        }
       }
     }
     if (isGlob(spec)) {

@@ -20,6 +20,7 @@ export function buildView(
   label: Labeller,
   nameOf: (i: number) => string = (i) => index.tree.name.get(i),
   pathOf: (i: number) => string = (i) => index.path(i),
+  idOf: (i: number) => string | null = (i) => index.tree.ids?.get(i) ?? null,
 ): HierarchyNode<ViewNode> {
   const { tree, measures } = index;
   const { count, size } = measures;
@@ -45,7 +46,7 @@ export function buildView(
       index: i,
       name: nameOf(i),
       path: pathOf(i),
-      id: tree.ids ? tree.ids.get(i) : null,
+      id: idOf(i),
       label: label(i),
       interest: round(scores.value[i]),
       nodes: count[i],

@@ -19,6 +19,7 @@ export function compileLabel(
   tree: Tree,
   nameOf: (i: number) => string,
   pathOf: (i: number) => string,
+  idOf: (i: number) => string = (i) => tree.ids?.get(i) ?? "",
 ): (i: number) => string {
   const parts = template.split(FIELD); // even: literal text, odd: field names
   const getters = parts.map((part, k): ((i: number) => string) => {
@@ -28,8 +29,7 @@ export function compileLabel(
     if (part === "id") {
       if (!tree.ids)
         throw new EspalierError("FIELD_MISSING", `the label uses {id} but the input has no id column`);
-      const ids = tree.ids;
-      return (i) => ids.get(i);
+      return idOf;
     }
     const values = tree.fields.get(part);
     if (!values) {

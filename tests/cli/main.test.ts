@@ -89,6 +89,47 @@ describe("espalier <input> (summary)", () => {
     expect(anon.code, anon.stderr).toBe(0);
     const doc = JSON.parse(anon.stdout);
     expect(doc.root.name).toMatch(/^anon-[0-9a-f]{12}$/);
+    // Row ids point at people as names do: pseudonymised too, in the JSON and in a label's {id}.
+    const printed = JSON.stringify(doc);
+    expect(doc.root.id).toMatch(/^anon-[0-9a-f]{12}$/);
+    for (const id of ["Q0001", "Q0002", "Q1036"]) expect(printed).not.toContain(id);
+    const byIdLabel = await cli(
+      [
+        ORG,
+        "--parent-field",
+        "manager",
+        "--pseudonymize",
+        "--label",
+        "{id}",
+        "--focus",
+        "Q0002",
+        "--budget",
+        "9",
+      ],
+      { env: { ESPALIER_PSEUDONYM_KEY: "test-secret" } },
+    );
+    expect(byIdLabel.code, byIdLabel.stderr).toBe(0);
+    expect(byIdLabel.stdout).not.toMatch(/Q\d{4}/);
+    const focusLine = byIdLabel.stdout.split("\n").find((line) => line.trimStart().startsWith("* "))!;
+    const printedId = focusLine.match(/anon-[0-9a-f]{12}/)![0];
+    // The printed pseudonymous id reads back as a focus with the same secret.
+    const again = await cli(
+      [
+        ORG,
+        "--parent-field",
+        "manager",
+        "--pseudonymize",
+        "--label",
+        "{id}",
+        "--focus",
+        printedId,
+        "--budget",
+        "9",
+      ],
+      { env: { ESPALIER_PSEUDONYM_KEY: "test-secret" } },
+    );
+    expect(again.code, again.stderr).toBe(0);
+    expect(again.stdout).toBe(byIdLabel.stdout);
     const noKey = await cli([ORG, "--parent-field", "manager", "--pseudonymize"]);
     expect(noKey.code).toBe(2);
   });
