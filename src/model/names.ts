@@ -126,7 +126,10 @@ export class NamePool implements Names {
   setBytes(i: number, src: Uint8Array, s: number, e: number): void {
     const n = e - s;
     const at = this.reserve(n);
-    this.bytes.set(src.subarray(s, e), at);
+    const bytes = this.bytes;
+    // A loop, not set(src.subarray(...)): a name is short, and a view object per name costs more.
+    if (n <= 64) for (let k = 0; k < n; k++) bytes[at + k] = src[s + k];
+    else bytes.set(src.subarray(s, e), at);
     this.used = at + n;
     this.place(i, at, n);
   }
