@@ -640,8 +640,10 @@ function report(r) {
           `max ${rf.maxMs.toFixed(1)} ms (first ${rf.firstMs.toFixed(1)} ms)   ${passMiss(rf.pass)} <=${TARGETS.refocusMs} ms each`,
       );
   }
-  lines.push("");
-  lines.push(...diffReport(r.diff));
+  if (r.diff) {
+    lines.push("");
+    lines.push(...diffReport(r.diff));
+  }
   for (const [nodes, size] of Object.entries(r.sizes)) {
     for (const format of Object.keys(size.formats)) {
       const p = size.formats[format].profile;
@@ -658,7 +660,7 @@ function report(r) {
         );
     }
   }
-  for (const [format, e] of Object.entries(r.diff.formats ?? {})) {
+  for (const [format, e] of Object.entries(r.diff?.formats ?? {})) {
     const p = e.profile;
     if (!p) continue;
     lines.push("");
