@@ -76,21 +76,31 @@ export function select(
   }
   let lines = needed;
   const heap = new NodeHeap(order);
+  // The last-in-order of the children kept so far, on top: a bounded choice of the best few.
+  const best = new NodeHeap((a, b) => order(b, a));
   const pushChildren = (p: number) => {
     if (count[p] === 1) return;
     const end = p + count[p];
-    if (lines >= budget && cost(p + 1) !== 0) {
-      // The budget is used up and these children each cost a line: none can enter, but the first of
-      // them in the order must still stop a later node that costs nothing (the shown set stays a
-      // prefix). Pushing only that one spares the heap a node with a million children.
-      if (!chains) return;
-      let first = -1;
-      for (let c = p + 1; c < end; c += count[c])
-        if (!shown[c] && (first < 0 || order(c, first) < 0)) first = c;
-      if (first >= 0) heap.push(first);
+    if (count[p + 1] + 1 === count[p]) {
+      // An only child (it may cost no line, see lineCost).
+      if (!shown[p + 1]) heap.push(p + 1);
       return;
     }
-    for (let c = p + 1; c < end; c += count[c]) if (!shown[c]) heap.push(c);
+    // Two or more children each cost a line, so at most `budget - lines` of them can still enter;
+    // one more, the first in the order of the rest, must stop any later node that costs nothing (the
+    // shown set stays a prefix). Only those go to the heap: a node with a million children costs one
+    // scan of them, not a million pushes.
+    if (lines >= budget && !chains) return;
+    const keep = Math.max(0, budget - lines) + 1;
+    for (let c = p + 1; c < end; c += count[c]) {
+      if (shown[c]) continue;
+      if (best.size < keep) best.push(c);
+      else if (order(c, best.peek()) < 0) {
+        best.pop();
+        best.push(c);
+      }
+    }
+    while (best.size > 0) heap.push(best.pop());
   };
   for (const f of forcedNodes) pushChildren(f);
   // Stop at the first node that does not fit: the shown set stays a prefix of the order.

@@ -10,6 +10,8 @@ export interface Measures {
   readonly leaves: Int32Array;
   /** Edges on the longest downward path (a leaf has height 0). */
   readonly height: Int32Array;
+  /** Children of the node (not all descendants). */
+  readonly children: Int32Array;
 }
 
 /** One reverse pass over the pre-order arrays: every child is folded into its parent. */
@@ -20,16 +22,18 @@ export function measure(tree: Tree): Measures {
   const size = new Float64Array(ownSize);
   const leaves = new Int32Array(n);
   const height = new Int32Array(n);
+  const children = new Int32Array(n);
   for (let i = n - 1; i >= 0; i--) {
     if (count[i] === 1) leaves[i] = 1;
     const p = parent[i];
     if (p < 0) continue;
     count[p] += count[i];
+    children[p]++;
     size[p] += size[i];
     leaves[p] += leaves[i];
     if (height[i] + 1 > height[p]) height[p] = height[i] + 1;
   }
-  return { count, size, leaves, height };
+  return { count, size, leaves, height, children };
 }
 
 /** Children of `i` in input order, using the pre-order layout. */

@@ -3,7 +3,7 @@ import type { Selection } from "../fit/select.js";
 import type { Interest } from "../interest/doi.js";
 import type { PathIndex } from "../model/paths.js";
 import { hierarchyOf } from "./hierarchy-of.js";
-import type { Folded, ViewNode } from "./view-node.js";
+import type { ViewNode } from "./view-node.js";
 
 /** Turns a node's fields into its display text. */
 export type Labeller = (index: number) => string;
@@ -23,25 +23,17 @@ export function buildView(
   idOf: (i: number) => string | null = (i) => index.tree.ids?.get(i) ?? null,
 ): HierarchyNode<ViewNode> {
   const { tree, measures } = index;
-  const { count, size } = measures;
+  const { count, size, children } = measures;
   const { shown } = selection;
   const isFocus = new Set(foci);
   const byIndex = new Map<number, ViewNode>();
+  // The shown nodes in pre-order (parents first); a sort of the shown set, never a walk of the tree.
+  const order = Int32Array.from(selection.admitted).sort();
+  // What the shown children of each shown node hold, to take from the node's own totals: the folded
+  // rest then costs nothing per hidden child, however many children a node has.
+  const shownKids = new Map<number, { children: number; nodes: number; size: number; exact: boolean }>();
   let root: ViewNode | undefined;
-  for (let i = 0; i < tree.length; i++) {
-    if (!shown[i]) {
-      i += count[i] - 1;
-      continue;
-    }
-    let folded: Folded | null = null;
-    const end = i + count[i];
-    for (let c = i + 1; c < end; c += count[c]) {
-      if (shown[c]) continue;
-      folded ??= { children: 0, nodes: 0, size: 0 };
-      folded.children++;
-      folded.nodes += count[c];
-      folded.size += size[c];
-    }
+  for (const i of order) {
     const node: ViewNode = {
       index: i,
       name: nameOf(i),
@@ -55,13 +47,45 @@ export function buildView(
       onPath: foci.length > 0 && scores.forced[i] === 1,
       depth: tree.depth[i],
       children: [],
-      hidden: folded,
+      hidden: null,
     };
     byIndex.set(i, node);
     const p = tree.parent[i];
-    if (p < 0) root = node;
-    else byIndex.get(p)!.children.push(node);
+    if (p < 0) {
+      root = node;
+      continue;
+    }
+    byIndex.get(p)!.children.push(node);
+    let sums = shownKids.get(p);
+    if (!sums) {
+      sums = { children: 0, nodes: 0, size: 0, exact: true };
+      shownKids.set(p, sums);
+    }
+    sums.children++;
+    sums.nodes += count[i];
+    sums.size += size[i];
+    if (!Number.isInteger(size[i])) sums.exact = false;
   }
+  for (const i of order) {
+    const sums = shownKids.get(i) ?? { children: 0, nodes: 0, size: 0, exact: true };
+    const hiddenChildren = children[i] - sums.children;
+    if (hiddenChildren === 0) continue;
+    const own = tree.ownSize[i];
+    // Whole sizes below 2^53 add and subtract exactly; a fractional size is summed child by child, in
+    // input order, so the total is the same double either way.
+    const exact = sums.exact && Number.isInteger(size[i]) && Number.isInteger(own);
+    byIndex.get(i)!.hidden = {
+      children: hiddenChildren,
+      nodes: count[i] - 1 - sums.nodes,
+      size: exact ? size[i] - own - sums.size : hiddenSize(i),
+    };
+  }
+  function hiddenSize(i: number): number {
+    let total = 0;
+    for (let c = i + 1, end = i + count[i]; c < end; c += count[c]) if (!shown[c]) total += size[c];
+    return total;
+  }
+
   return hierarchyOf(root!);
 }
 
