@@ -3,7 +3,7 @@ import { type Selection, select } from "./fit/select.js";
 import { resolveFoci } from "./focus/resolve.js";
 import { type Interest, interest } from "./interest/doi.js";
 import { type Importance, importance } from "./interest/importance.js";
-import { nodeOrder } from "./interest/order.js";
+import { childrenByDepthOrder, nodeOrder } from "./interest/order.js";
 import { type Measures, measure } from "./model/measure.js";
 import { PathIndex } from "./model/paths.js";
 import { hiddenIds, pseudonym } from "./model/pseudonym.js";
@@ -27,6 +27,8 @@ export function prepare(tree: Tree): Prepared {
   // interest + fit + view (a single summary computes them anyway).
   cachedImportance(prepared, "depth");
   scratchOf(prepared);
+  wideChildren(prepared);
+  prepared.index.warm();
   return prepared;
 }
 
@@ -70,6 +72,7 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
     options.budget,
     options.headerLines ?? 0,
     options.chains ?? false,
+    options.importance === "depth" ? wideChildren(prepared) : undefined,
   );
   const nameOf =
     key === undefined
@@ -102,6 +105,29 @@ function cachedImportance(prepared: Prepared, kind: Importance): Float64Array {
     byKind.set(kind, api);
   }
   return api;
+}
+
+/** Children of a node with at least this many are kept in order (see childrenByDepthOrder). */
+const WIDE = 1024;
+const wideCache = new WeakMap<Prepared, (p: number) => Int32Array | null>();
+
+/**
+ * Per tree, the children of every node with at least {@link WIDE} of them in the order the fit takes
+ * them under the importance by depth, so a new focus costs no scan of a node's million children. Built
+ * all at once (at prepare time) in one pass over the child counts.
+ */
+function wideChildren(prepared: Prepared): (p: number) => Int32Array | null {
+  let lookup = wideCache.get(prepared);
+  if (!lookup) {
+    const { measures } = prepared;
+    const lists = new Map<number, Int32Array>();
+    const { children } = measures;
+    for (let p = 0; p < children.length; p++)
+      if (children[p] >= WIDE) lists.set(p, childrenByDepthOrder(measures, p));
+    lookup = (p) => lists.get(p) ?? null;
+    wideCache.set(prepared, lookup);
+  }
+  return lookup;
 }
 
 function scratchOf(prepared: Prepared): Float64Array {

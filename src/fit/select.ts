@@ -18,6 +18,12 @@ export interface Selection {
 }
 
 /**
+ * The children of `p` in the order's own order for nodes that are not forced, or null to have them
+ * scanned. A hint for nodes with very many children; it must agree with the order it comes with.
+ */
+export type ChildrenInOrder = (p: number) => Int32Array | null;
+
+/**
  * Lines that showing node `x` adds. One, except with `chains`: a node that is the only child of a
  * parent which is not a focus continues its parent's line (`a / b / c`), so it costs nothing. The
  * rule depends only on the tree, never on what else is shown, so costs stay fixed as the budget grows.
@@ -50,15 +56,21 @@ export function select(
   budget: number,
   headerLines = 0,
   chains = false,
+  childrenInOrder?: ChildrenInOrder,
 ): Selection {
   const n = tree.length;
   const shown = new Uint8Array(n);
   const { forced } = scores;
   const { count } = measures;
-  const forcedNodes: number[] = [];
-  for (let i = 0; i < n; i++) {
-    if (forced[i]) forcedNodes.push(i);
-    else i += count[i] - 1; // a non-forced node has no forced descendant
+  let forcedNodes: Int32Array | number[];
+  if (scores.forcedNodes) forcedNodes = scores.forcedNodes;
+  else {
+    const found: number[] = [];
+    for (let i = 0; i < n; i++) {
+      if (forced[i]) found.push(i);
+      else i += count[i] - 1; // a non-forced node has no forced descendant
+    }
+    forcedNodes = found;
   }
   const cost = (x: number) => lineCost(tree, measures, scores, chains, x);
   let needed = headerLines;
@@ -92,6 +104,15 @@ export function select(
     // scan of them, not a million pushes.
     if (lines >= budget && !chains) return;
     const keep = Math.max(0, budget - lines) + 1;
+    const sorted = childrenInOrder?.(p);
+    if (sorted) {
+      for (let k = 0, taken = 0; k < sorted.length && taken < keep; k++) {
+        if (shown[sorted[k]]) continue;
+        heap.push(sorted[k]);
+        taken++;
+      }
+      return;
+    }
     for (let c = p + 1; c < end; c += count[c]) {
       if (shown[c]) continue;
       if (best.size < keep) best.push(c);

@@ -7,6 +7,8 @@ export interface Interest {
   readonly distance: Int32Array;
   /** 1 for the root, every focus and every ancestor of a focus: the nodes always shown. */
   readonly forced: Uint8Array;
+  /** The forced nodes in pre-order, when known (saves the fit a walk of the tree to find them). */
+  readonly forcedNodes?: Int32Array;
 }
 
 const FAR = 0x7fffffff;
@@ -30,7 +32,7 @@ export function interest(tree: Tree, api: Float64Array, foci: Int32Array, scratc
   forced[0] = 1;
   if (foci.length === 0) {
     for (let i = 0; i < n; i++) value[i] = api[i] - api[0];
-    return { value, distance, forced };
+    return { value, distance, forced, forcedNodes: Int32Array.of(0) };
   }
   // `scratch` (n long, any content) saves allocating M on every call; it is overwritten.
   const M =
@@ -41,12 +43,14 @@ export function interest(tree: Tree, api: Float64Array, foci: Int32Array, scratc
   // focus's path to the root is walked, not the whole tree (the same values as a reverse pre-order pass).
   // A walk stops at an ancestor an earlier walk left with a term and a distance at least as good: from
   // there up, that walk already wrote values this one cannot improve.
+  const forcedNodes: number[] = [0];
   for (const y of foci) {
     const term = -depth[y] - api[y];
     for (let a = y, d = 0; a !== -1; a = parent[a], d++) {
       if (term <= M[a] && d >= distance[a]) break;
       if (term > M[a]) M[a] = term;
       if (d < distance[a]) distance[a] = d;
+      if (forced[a] === 0) forcedNodes.push(a);
       forced[a] = 1;
     }
   }
@@ -61,5 +65,5 @@ export function interest(tree: Tree, api: Float64Array, foci: Int32Array, scratc
     value[i] = api[i] - depth[i] + best[i];
     if (distance[p] + 1 < distance[i]) distance[i] = distance[p] + 1;
   }
-  return { value, distance, forced };
+  return { value, distance, forced, forcedNodes: Int32Array.from(forcedNodes).sort() };
 }

@@ -43,3 +43,22 @@ export function contextTieBreaks(
     return a - b;
   };
 }
+
+/**
+ * The children of `p` in the order {@link nodeOrder} puts those of them that are not forced, under the
+ * a-priori importance by depth: such siblings have the same interest (API and depth are equal, and
+ * their best ancestor term is their parent's), the same distance to a focus and the same depth, so
+ * tie-break 4 and 5 decide: bigger subtree first, then input order. No focus enters, so a tree can keep
+ * it per parent and a new focus need not look at every child of a node with very many.
+ */
+export function childrenByDepthOrder(measures: Measures, p: number): Int32Array {
+  const { count, children } = measures;
+  const list = new Int32Array(children[p]);
+  let uniform = true;
+  for (let c = p + 1, k = 0, end = p + count[p]; c < end; c += count[c], k++) {
+    list[k] = c;
+    if (count[c] !== count[p + 1]) uniform = false;
+  }
+  // Children come in input order; with equal subtree counts that is the order already.
+  return uniform ? list : list.sort((a, b) => count[b] - count[a] || a - b);
+}

@@ -1,5 +1,5 @@
 import { EspalierError } from "../errors.js";
-import { doubled, hashStep, mix, rehashed, seed } from "./child-hash.js";
+import { doubled, hashStep, mix, rehashed, seed } from "../model/child-hash.js";
 import type { NodeSink } from "./nodeSink.js";
 
 const slash = 47;

@@ -1,7 +1,7 @@
 import { Buffer, isUtf8 } from "node:buffer";
 import { EspalierError } from "../errors.js";
 import type { LinkedNodes } from "../model/build.js";
-import { doubled, hashStep, mix, rehashed, seed } from "./child-hash.js";
+import { doubled, hashStep, mix, rehashed, seed } from "../model/child-hash.js";
 import { NodeSink } from "./nodeSink.js";
 import { parseSize } from "./size.js";
 import type { LoadOptions } from "./types.js";

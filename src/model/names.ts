@@ -1,4 +1,5 @@
 import { EspalierError } from "../errors.js";
+import { hashStep } from "./child-hash.js";
 
 /**
  * The names of a tree's nodes, read one at a time. A whole tree's names are kept as UTF-8 bytes in one
@@ -148,6 +149,24 @@ export class NamePool implements Names {
       this.exact ??= new Map();
       this.exact.set(i, text);
     }
+  }
+
+  /** Whether some name is kept as a string that UTF-8 cannot carry (see the class comment). */
+  get hasExact(): boolean {
+    return this.exact !== null && this.exact.size > 0;
+  }
+
+  /** `hash` stepped over name `i`'s bytes with {@link hashStep} (FNV-1a), as the loaders hash names. */
+  hashFrom(i: number, hash: number): number {
+    const bytes = this.bytes;
+    for (let at = this.start[i], end = at + this.size[i]; at < end; at++) hash = hashStep(hash, bytes[at]);
+    return hash;
+  }
+
+  /** Name `i`'s UTF-8 bytes (a view into the pool, valid until the pool next grows). */
+  bytesOf(i: number): Uint8Array {
+    const s = this.start[i];
+    return this.bytes.subarray(s, s + this.size[i]);
   }
 
   /** Bytes of name `i` in UTF-8 (0 exactly for the empty name). */

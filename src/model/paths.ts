@@ -1,6 +1,11 @@
+import { hashStep, mix, seed } from "./child-hash.js";
 import type { Measures } from "./measure.js";
+import { NamePool } from "./names.js";
 import { escapeSegment, type Segment } from "./segment.js";
 import type { Tree } from "./tree.js";
+
+/** A parent with at least this many children finds them by a table of name hashes, not a Map of names. */
+const WIDE = 256;
 
 /** How many recently built paths {@link PathIndex.path} remembers. */
 const RECENT_PATHS = 1 << 16;
@@ -11,6 +16,9 @@ const RECENT_PATHS = 1 << 16;
  */
 export class PathIndex {
   private readonly byParent = new Map<number, Map<string, number[]>>();
+  // Wide parents' children by the hash of their pooled name bytes (open addressing, child + 1 per slot):
+  // no string per child, so a parent with a million children costs the collector nothing.
+  private readonly tables = new Map<number, Int32Array>();
   // Paths built lately, by node: a path is its parent's plus one segment, so the paths of a shown
   // subtree built in pre-order cost one segment each, not a walk to the root each (a chain a million
   // deep would otherwise take a million squared steps). Two generations: when `recent` is full it
@@ -47,8 +55,54 @@ export class PathIndex {
     if (count[p] === 1) return -1;
     if (count[p] === count[p + 1] + 1)
       return this.tree.name.get(p + 1) === seg.name && seg.rank === 1 ? p + 1 : -1;
+    const table = this.wideTable(p);
+    if (table) {
+      // The pool holds only well-formed text (no exact strings), so an ill-formed name matches nothing.
+      if (!seg.name.isWellFormed()) return -1;
+      const bytes = Buffer.from(seg.name, "utf8");
+      const list = this.sameNamed(p, table, bytes);
+      return seg.rank <= list.length ? list[seg.rank - 1] : -1;
+    }
     const list = this.childrenByName(p).get(seg.name);
     return list && seg.rank <= list.length ? list[seg.rank - 1] : -1;
+  }
+
+  /** Builds the name tables of every wide parent now (load time), so no focus pays for one. */
+  warm(): void {
+    const { children } = this.measures;
+    for (let p = 0; p < children.length; p++) if (children[p] >= WIDE) this.wideTable(p);
+  }
+
+  /** The hash table of a wide parent's children, built on first use; null for other parents. */
+  private wideTable(p: number): Int32Array | null {
+    const names = this.tree.name;
+    if (!(names instanceof NamePool) || names.hasExact || this.measures.children[p] < WIDE) return null;
+    let table = this.tables.get(p);
+    if (table) return table;
+    let size = 1;
+    while (size < this.measures.children[p] * 2) size *= 2;
+    table = new Int32Array(size);
+    const mask = size - 1;
+    const { count } = this.measures;
+    for (let c = p + 1, end = p + count[p]; c < end; c += count[c]) {
+      let h = mix(names.hashFrom(c, seed(p))) & mask;
+      while (table[h] !== 0) h = (h + 1) & mask;
+      table[h] = c + 1;
+    }
+    this.tables.set(p, table);
+    return table;
+  }
+
+  /** The children of wide parent `p` whose name is spelled by `bytes`, in input order. */
+  private sameNamed(p: number, table: Int32Array, bytes: Uint8Array): number[] {
+    const names = this.tree.name as NamePool;
+    const mask = table.length - 1;
+    const found: number[] = [];
+    for (let h = mix(hashOf(p, bytes)) & mask; table[h] !== 0; h = (h + 1) & mask) {
+      const c = table[h] - 1;
+      if (names.equalsBytes(c, bytes, 0, bytes.length)) found.push(c);
+    }
+    return found.length > 1 ? found.sort((a, b) => a - b) : found;
   }
 
   /** The escaped segment of node `i` (with `~~N` when it is the N-th sibling of its name). */
@@ -57,7 +111,10 @@ export class PathIndex {
     if (p < 0) return base;
     // An only child has no sibling to share its name with: no name index needed (saves one per level).
     if (this.measures.count[p] === this.measures.count[i] + 1) return base;
-    const list = this.childrenByName(p).get(this.tree.name.get(i))!;
+    const table = this.wideTable(p);
+    const list = table
+      ? this.sameNamed(p, table, (this.tree.name as NamePool).bytesOf(i))
+      : this.childrenByName(p).get(this.tree.name.get(i))!;
     if (list.length === 1 || list[0] === i) return base;
     return `${base}~~${list.indexOf(i) + 1}`;
   }
@@ -94,4 +151,11 @@ export class PathIndex {
     this.recent.set(i, path);
     return path;
   }
+}
+
+/** The hash of a child's name bytes under parent `p` (FNV-1a seeded by the parent, as the loaders use). */
+function hashOf(p: number, bytes: Uint8Array): number {
+  let hash = seed(p);
+  for (let k = 0; k < bytes.length; k++) hash = hashStep(hash, bytes[k]);
+  return hash;
 }
