@@ -96,6 +96,8 @@ export class NamePool implements Names {
   private start: Uint32Array;
   private size: Uint32Array;
   private exact: Map<number, string> | null = null;
+  // Set when another pool reads these bytes too (see reordered): the next append copies them first.
+  private shared = false;
 
   constructor(capacity = 1024, poolBytes = 1 << 16) {
     this.start = new Uint32Array(Math.max(1, capacity));
@@ -211,21 +213,28 @@ export class NamePool implements Names {
    */
   reordered(from: Int32Array, extra: string): NamePool {
     const total = from.length;
+    // The extra name goes into this pool first; after that both pools copy the bytes before writing.
+    const extraAt = this.used;
+    const extraSize = extra === "" ? 0 : Buffer.byteLength(extra, "utf8");
+    if (extraSize > 0) {
+      this.reserve(extraSize);
+      this.used = extraAt + this.bytes.utf8Write(extra, extraAt, extraSize);
+    }
     const out = new NamePool(total, 16);
     out.bytes = this.bytes;
     out.used = this.used;
+    out.shared = true;
+    this.shared = true;
     out.length = total;
     for (let k = 0; k < total; k++) {
       const o = from[k];
-      if (o === -1) out.setString(k, extra);
-      else {
-        out.start[k] = this.start[o];
-        out.size[k] = this.size[o];
-      }
+      out.start[k] = o === -1 ? extraAt : this.start[o];
+      out.size[k] = o === -1 ? extraSize : this.size[o];
     }
-    if (this.exact !== null)
+    const exactExtra = !extra.isWellFormed();
+    if (this.exact !== null || exactExtra)
       for (let k = 0; k < total; k++) {
-        const text = from[k] === -1 ? undefined : this.exact.get(from[k]);
+        const text = from[k] === -1 ? (exactExtra ? extra : undefined) : this.exact?.get(from[k]);
         if (text !== undefined) {
           out.exact ??= new Map();
           out.exact.set(k, text);
@@ -250,7 +259,7 @@ export class NamePool implements Names {
   /** Where `n` more bytes can go; grows the pool when they would not fit. */
   private reserve(n: number): number {
     const need = this.used + n;
-    if (need <= this.bytes.length) return this.used;
+    if (need <= this.bytes.length && !this.shared) return this.used;
     if (need > LONGEST_POOL) {
       throw new EspalierError(
         "LIMIT_EXCEEDED",
@@ -262,6 +271,7 @@ export class NamePool implements Names {
     ) as Buffer & Codecs;
     this.bytes.copy(grown, 0, 0, this.used);
     this.bytes = grown;
+    this.shared = false;
     return this.used;
   }
 

@@ -75,7 +75,7 @@ describe("NamePool", () => {
   });
 
   it("drops the names of truncated nodes and reorders without copying bytes", () => {
-    const pool = new NamePool(1, 16);
+    const pool = new NamePool(1, 1024); // room to spare: appends after reordering must not need a bigger pool
     ["r", "a", "b", "c"].forEach((name, i) => {
       pool.setString(i, name);
     });
@@ -88,6 +88,13 @@ describe("NamePool", () => {
     const moved = pool.reordered(Int32Array.of(-1, 3, 2, 0), "(root)");
     expect(namesToArray(moved)).toEqual(["(root)", "d", "\ud800", "r"]);
     expect(namesToArray(new PrefixedNames("top", moved))).toEqual(["top", "(root)", "d", "\ud800", "r"]);
+    // The two pools share bytes: names set later in either never change the other's.
+    pool.setString(0, "x");
+    moved.setString(3, "later");
+    expect(namesToArray(moved)).toEqual(["(root)", "d", "\ud800", "later"]);
+    expect(pool.get(0)).toBe("x");
+    expect(pool.get(3)).toBe("d");
+    expect(namesToArray(pool.reordered(Int32Array.of(-1, 3), "x\udc00"))).toEqual(["x\udc00", "d"]);
   });
 
   it("finds a name by its text and tells the empty name, pooled or not", () => {
