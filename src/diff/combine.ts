@@ -1,4 +1,4 @@
-import { StringNames } from "../model/names.js";
+import { copyName, NamePool } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 import { KIND } from "./changes.js";
 import type { Matching } from "./match.js";
@@ -229,10 +229,10 @@ function copyTree(
 ): Tree {
   const total = parent.length;
   const depth = new Int32Array(total);
-  const name: string[] = new Array(total);
+  const name = new NamePool(total, total * 12);
   const ownSize = new Float64Array(total);
   const origin = new Int32Array(total);
-  const ids: string[] | null = useIds ? new Array(total) : null;
+  const ids = useIds ? new NamePool(total, total * 8) : null;
   const newName = newTree.name;
   const oldName = oldTree.name;
   const newOrigin = newTree.origin;
@@ -244,15 +244,15 @@ function copyTree(
     const n = newIndex[k];
     depth[k] = k === 0 ? 0 : depth[parent[k]] + 1;
     if (n >= 0) {
-      name[k] = newName.get(n);
+      copyName(name, k, newName, n);
       origin[k] = newOrigin[n];
       ownSize[k] = newSize[n];
-      if (ids) ids[k] = newIds?.get(n) ?? "";
+      if (ids) copyName(ids, k, newIds!, n);
     } else {
       const o = oldIndex[k];
-      name[k] = oldName.get(o);
+      copyName(name, k, oldName, o);
       origin[k] = oldOrigin[o];
-      if (ids) ids[k] = oldIds?.get(o) ?? "";
+      if (ids) copyName(ids, k, oldIds!, o);
     }
   }
   const fieldValues = keys.map((key) => {
@@ -270,10 +270,10 @@ function copyTree(
     length: total,
     parent,
     depth,
-    name: new StringNames(name),
+    name,
     ownSize,
     hasSizes: oldTree.hasSizes || newTree.hasSizes,
-    ids: ids ? new StringNames(ids) : null,
+    ids,
     origin,
     originIsRow: newTree.originIsRow,
     fields,

@@ -29,8 +29,8 @@ export class StringNames implements Names {
 /** `first`, then the names of `rest`: a tree put under a new root. */
 export class PrefixedNames implements Names {
   constructor(
-    private readonly first: string,
-    private readonly rest: Names,
+    readonly first: string,
+    readonly rest: Names,
   ) {}
 
   get length(): number {
@@ -66,6 +66,16 @@ export function indexOfName(names: Names, text: string): number {
   }
   for (let i = 0; i < names.length; i++) if (names.get(i) === text) return i;
   return -1;
+}
+
+/**
+ * Sets name `k` of `out` to name `i` of `names`: the bytes are copied from a pool (nothing decoded),
+ * through a tree put under a new root too; other names go through their text.
+ */
+export function copyName(out: NamePool, k: number, names: Names, i: number): void {
+  if (names instanceof NamePool) out.copyFrom(k, names, i);
+  else if (names instanceof PrefixedNames && i > 0) copyName(out, k, names.rest, i - 1);
+  else out.setString(k, names.get(i));
 }
 
 /** Every name, in node order. */
@@ -156,6 +166,23 @@ export class NamePool implements Names {
   /** Whether some name is kept as a string that UTF-8 cannot carry (see the class comment). */
   get hasExact(): boolean {
     return this.exact !== null && this.exact.size > 0;
+  }
+
+  /** Sets node `k`'s name to name `i` of `src`, copying its bytes. */
+  copyFrom(k: number, src: NamePool, i: number): void {
+    const text = src.exact?.get(i);
+    if (text !== undefined) {
+      this.setString(k, text);
+      return;
+    }
+    const n = src.size[i];
+    const at = this.reserve(n);
+    const from = src.start[i];
+    const a = this.bytes;
+    const b = src.bytes;
+    for (let d = 0; d < n; d++) a[at + d] = b[from + d];
+    this.used = at + n;
+    this.place(k, at, n);
   }
 
   /** `hash` stepped over name `i`'s bytes with {@link hashStep} (FNV-1a), as the loaders hash names. */

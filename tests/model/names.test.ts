@@ -1,6 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import {
+  copyName,
   indexOfName,
   isEmptyName,
   NamePool,
@@ -111,5 +112,17 @@ describe("NamePool", () => {
       expect(indexOfName(names, "emp-004")).toBe(-1);
       expect(texts.map((_, i) => isEmptyName(names, i))).toEqual([true, false, false, false, false]);
     }
+  });
+
+  it("copies names between pools, through a new root, without changing their text", () => {
+    const src = new NamePool(1, 64);
+    ["root", "Ærø", "b\ud800", ""].forEach((t, i) => {
+      src.setString(i, t);
+    });
+    const wrapped = new PrefixedNames("top", src);
+    const out = new NamePool(1, 8);
+    for (let i = 0; i < wrapped.length; i++) copyName(out, i, wrapped, i);
+    copyName(out, 5, new StringNames(["x", "plain"]), 1);
+    expect(namesToArray(out)).toEqual(["top", "root", "Ærø", "b\ud800", "", "plain"]);
   });
 });
