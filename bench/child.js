@@ -157,7 +157,8 @@ async function cliModules() {
     import(CLI("options")),
     import(new URL("../dist/render/palette.js", import.meta.url)),
   ]);
-  return { ...command, ...stream, ...progress, ...options, ...palette };
+  const { loadInWorker } = await import(CLI("load-in-worker"));
+  return { ...command, ...stream, ...progress, ...options, ...palette, loadInWorker };
 }
 
 /**
@@ -298,10 +299,11 @@ async function refocus({ file, budget, calls, seed, profile }) {
 // ---------------------------------------------------------------------------------------------------------
 
 /**
- * `espalier diff OLD NEW --budget N` with no other option, as cli/diff-command.ts runs it: load both
- * versions streamed, as the summary loads its input (OLD under NEW's root name, so a synthetic root
- * never shows as renamed), diffTrees with no foci, and the text rendering with NEW's sizes, the
- * matching's name and the CLI's text options.
+ * `espalier diff OLD NEW --budget N` with no other option, as cli/diff-command.ts runs it: both
+ * versions streamed at once, OLD on a worker thread (loadInWorker, as bin/espalier.js provides it) and
+ * NEW here as the summary loads its input (OLD under NEW's root name, so a synthetic root never shows
+ * as renamed), diffTrees with no foci, and the text rendering with NEW's sizes, the matching's name
+ * and the CLI's text options.
  */
 async function diff({ oldFile, newFile, budget, profile }) {
   const api = await import(DIST);
@@ -316,9 +318,13 @@ async function diff({ oldFile, newFile, budget, profile }) {
   const session = profile ? await startProfile() : undefined;
   const t0 = now();
   const newOptions = cli.toLoadOptions(newFile, opts);
-  const oldTree = await load(oldFile, { ...cli.toLoadOptions(oldFile, opts), rootName: newOptions.rootName });
-  const t1 = now();
-  const newTree = await load(newFile, newOptions);
+  const oldOptions = { ...cli.toLoadOptions(oldFile, opts), rootName: newOptions.rootName };
+  let oldDone = 0;
+  let newDone = 0;
+  const [oldTree, newTree] = await Promise.all([
+    cli.loadInWorker(oldFile, oldOptions).then((tree) => ((oldDone = now()), tree)),
+    load(newFile, newOptions).then((tree) => ((newDone = now()), tree)),
+  ]);
   const t2 = now();
   const result = api.diffTrees(oldTree, newTree, {
     foci: [],
@@ -339,7 +345,7 @@ async function diff({ oldFile, newFile, budget, profile }) {
   if (session) await stopProfile(session, profile);
   return {
     ms: t4 - t0,
-    phases: { "read+loadOld": t1 - t0, "read+loadNew": t2 - t1, diff: t3 - t2, render: t4 - t3 },
+    phases: { "read+loadOld": oldDone - t0, "read+loadNew": newDone - t0, diff: t3 - t2, render: t4 - t3 },
     check: {
       by: result.combined.by,
       oldNodes: oldTree.length,

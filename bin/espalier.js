@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 import { spawn } from "node:child_process";
 import { fstatSync, statSync } from "node:fs";
-import { open, readFile } from "node:fs/promises";
+import { readFile } from "node:fs/promises";
 import { totalmem } from "node:os";
 import { fileURLToPath } from "node:url";
 import { getHeapStatistics } from "node:v8";
@@ -70,6 +70,8 @@ function restart(mib) {
 
 async function main() {
   const { run } = await import("../dist/cli/main.js");
+  const { openFile } = await import("../dist/cli/open-file.js");
+  const { loadInWorker } = await import("../dist/cli/load-in-worker.js");
   // A reader closing the pipe early ends us quietly.
   process.stdout.on("error", (err) => {
     if (err.code === "EPIPE") process.exit(0);
@@ -80,7 +82,8 @@ async function main() {
     stderr: process.stderr,
     readStdin,
     readFile: (path) => readFile(path),
-    openInput,
+    openInput: (name) => (name === "-" ? openStdin() : openFile(name)),
+    loadInWorker,
     now: () => performance.now(),
     env: process.env,
   });
@@ -92,26 +95,14 @@ async function readStdin() {
   return Buffer.concat(chunks);
 }
 
-/** A file ("-": standard input) read in 1 MiB chunks, with its size when it is a regular file. */
-async function openInput(name) {
-  if (name === "-") {
-    let size;
-    try {
-      const stat = fstatSync(0);
-      if (stat.isFile()) size = stat.size;
-    } catch {
-      // Unknown size.
-    }
-    return { size, chunks: process.stdin };
+/** Standard input in the chunks it comes in, with its size when it is a regular file. */
+function openStdin() {
+  let size;
+  try {
+    const stat = fstatSync(0);
+    if (stat.isFile()) size = stat.size;
+  } catch {
+    // Unknown size.
   }
-  const handle = await open(name, "r");
-  const stat = await handle.stat();
-  if (stat.isDirectory()) {
-    await handle.close();
-    throw Object.assign(new Error(`${name} is a directory`), { code: "EISDIR" });
-  }
-  return {
-    size: stat.isFile() ? stat.size : undefined,
-    chunks: handle.createReadStream({ highWaterMark: 1 << 20 }),
-  };
+  return { size, chunks: process.stdin };
 }

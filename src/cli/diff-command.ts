@@ -97,8 +97,7 @@ export async function diffCommand(
   const newOptions = toLoadOptions(newInput, opts);
   // Both versions get the same synthetic root name, so that it never shows as a change.
   const oldOptions = { ...toLoadOptions(oldInput, opts), rootName: newOptions.rootName };
-  const oldTree = await load(io, oldInput, oldOptions);
-  const newTree = await load(io, newInput, newOptions);
+  const [oldTree, newTree] = await loadBoth(io, oldInput, oldOptions, newInput, newOptions);
   const budget = opts.budget ?? defaultBudget(io);
   const result = diffTrees(oldTree, newTree, {
     foci,
@@ -139,6 +138,29 @@ export async function diffCommand(
           : renderDiffText(result.view, result.totals, textOptions);
   const differ = totalChanges(result.totals.changes) > 0;
   return { text, exitCode: opts.exitCode && differ ? EXIT.differences : EXIT.ok };
+}
+
+/**
+ * Both versions: OLD on another thread while NEW loads here, when the IO can (a file, not standard
+ * input); else one after the other. An error in OLD is reported before one in NEW either way.
+ */
+async function loadBoth(
+  io: CliIO,
+  oldInput: string,
+  oldOptions: LoadOptions,
+  newInput: string,
+  newOptions: LoadOptions,
+): Promise<[Tree, Tree]> {
+  if (!io.loadInWorker || oldInput === "-")
+    return [await load(io, oldInput, oldOptions), await load(io, newInput, newOptions)];
+  const named = (err: unknown) => (err instanceof EspalierError ? err.inFile(displayName(oldInput)) : err);
+  const [oldTree, newTree] = await Promise.allSettled([
+    io.loadInWorker(oldInput, oldOptions).catch((err) => Promise.reject(named(err))),
+    load(io, newInput, newOptions),
+  ]);
+  if (oldTree.status === "rejected") throw oldTree.reason;
+  if (newTree.status === "rejected") throw newTree.reason;
+  return [oldTree.value, newTree.value];
 }
 
 /** Loads one version as the summary loads its input: streamed, with progress, errors naming the file. */

@@ -1,3 +1,5 @@
+import type { LoadOptions } from "../load/types.js";
+import type { Tree } from "../model/tree.js";
 import type { OutputFiles } from "./write-output.js";
 
 /** Everything the CLI touches outside itself, passed in so tests drive it directly. */
@@ -12,6 +14,11 @@ export interface CliIO {
    * inputs are read whole with `readFile` / `readStdin` and handed over as one chunk.
    */
   openInput?(name: string): Promise<StreamedInput>;
+  /**
+   * Loads a named file (never "-") on another thread, so a diff's two versions load at once; without
+   * it they load here, one after the other.
+   */
+  loadInWorker?(name: string, options: LoadOptions): Promise<Tree>;
   /** Milliseconds from some fixed point, for progress; without it, no progress is shown. */
   now?(): number;
   env: Record<string, string | undefined>;

@@ -26,6 +26,15 @@ export class StringNames implements Names {
   }
 }
 
+/** A {@link NamePool} as plain data. */
+export interface NamePoolParts {
+  length: number;
+  bytes: Uint8Array;
+  start: Uint32Array;
+  size: Uint32Array;
+  exact: [number, string][];
+}
+
 /** `first`, then the names of `rest`: a tree put under a new root. */
 export class PrefixedNames implements Names {
   constructor(
@@ -268,6 +277,31 @@ export class NamePool implements Names {
         }
       }
     return out;
+  }
+
+  /** The pool as plain data (copied), for sending to another thread. */
+  toParts(): NamePoolParts {
+    return {
+      length: this.length,
+      bytes: this.bytes.subarray(0, this.used),
+      start: this.start.subarray(0, this.length),
+      size: this.size.subarray(0, this.length),
+      exact: this.exact === null ? [] : [...this.exact],
+    };
+  }
+
+  /** A pool from {@link toParts}'s data (as another thread received it). */
+  static fromParts(parts: NamePoolParts): NamePool {
+    const pool = new NamePool(Math.max(1, parts.length), 16);
+    pool.bytes = Buffer.from(parts.bytes.buffer, parts.bytes.byteOffset, parts.bytes.byteLength) as Buffer &
+      Codecs;
+    pool.used = parts.bytes.byteLength;
+    pool.shared = true; // the received bytes are exactly full: the next append copies them
+    pool.start.set(parts.start);
+    pool.size.set(parts.size);
+    pool.length = parts.length;
+    if (parts.exact.length > 0) pool.exact = new Map(parts.exact);
+    return pool;
   }
 
   /** Bytes held for names, pool and index (for memory reports). */

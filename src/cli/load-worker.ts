@@ -1,0 +1,32 @@
+// A worker thread's entry: loads one named file as the command line loads its input (streamed, the
+// same encoding checks) and posts the tree back as plain data, or the error's code, message and place.
+import { readFile } from "node:fs/promises";
+import { parentPort, workerData } from "node:worker_threads";
+import { EspalierError } from "../errors.js";
+import { loadTreeFromStream } from "../load/stream/index.js";
+import type { LoadOptions } from "../load/types.js";
+import { treeToMessage } from "../model/tree-message.js";
+import type { CliIO } from "./io.js";
+import { openFile } from "./open-file.js";
+import { readInputStream } from "./read-input-stream.js";
+
+const { name, options } = workerData as { name: string; options: LoadOptions };
+const quiet = { write: () => true };
+const io: CliIO = {
+  stdout: quiet,
+  stderr: quiet,
+  readStdin: () => Promise.reject(new Error("a worker reads no standard input")),
+  readFile: (path) => readFile(path),
+  openInput: openFile,
+  env: {},
+};
+
+try {
+  const source = await readInputStream(io, name);
+  const tree = await loadTreeFromStream(source.chunks, options);
+  parentPort!.postMessage({ tree: treeToMessage(tree) });
+} catch (err) {
+  if (err instanceof EspalierError)
+    parentPort!.postMessage({ error: { code: err.code, message: err.message, pos: err.pos } });
+  else parentPort!.postMessage({ failure: err instanceof Error ? (err.stack ?? err.message) : String(err) });
+}
