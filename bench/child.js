@@ -322,8 +322,14 @@ async function diff({ oldFile, newFile, budget, profile }) {
   let oldDone = 0;
   let newDone = 0;
   const [oldTree, newTree] = await Promise.all([
-    cli.loadInWorker(oldFile, oldOptions).then((tree) => ((oldDone = now()), tree)),
-    load(newFile, newOptions).then((tree) => ((newDone = now()), tree)),
+    cli.loadInWorker(oldFile, oldOptions).then((tree) => {
+      oldDone = now();
+      return tree;
+    }),
+    load(newFile, newOptions).then((tree) => {
+      newDone = now();
+      return tree;
+    }),
   ]);
   const t2 = now();
   const result = api.diffTrees(oldTree, newTree, {

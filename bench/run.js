@@ -6,9 +6,9 @@
 //                         [--rss-from auto|time|proc] [--force-data] [--big [--big-nodes N]]
 // See docs/performance.md for what every number means.
 
+import { constants } from "node:buffer";
 import { spawnSync } from "node:child_process";
 import { createHash } from "node:crypto";
-import { constants } from "node:buffer";
 import { closeSync, existsSync, mkdirSync, openSync, readSync, statSync, writeFileSync } from "node:fs";
 import { cpus, loadavg } from "node:os";
 import { dirname, join, relative } from "node:path";
@@ -159,12 +159,21 @@ function benchBig() {
     warmCache(file);
     const bytes = statSync(file).size;
     const floor = child({ kind: "floor", format, file }, heapFor([file]));
-    log(`${nodes} ${format} whole-file floor: ${floor.error ? `fails (${floor.error})` : `${fmtS(floor.ms)} s`}`);
+    log(
+      `${nodes} ${format} whole-file floor: ${floor.error ? `fails (${floor.error})` : `${fmtS(floor.ms)} s`}`,
+    );
     const load = loadavg()[0];
-    const cli = runCommand([file, ...manifest.foci.flatMap((f) => ["--focus", f]), "--budget", String(options.budget)]);
+    const cli = runCommand([
+      file,
+      ...manifest.foci.flatMap((f) => ["--focus", f]),
+      "--budget",
+      String(options.budget),
+    ]);
     cli.load = load;
     const rss = cli.maxRssMiB === null ? "peak ?" : `${cli.maxRssMiB} MiB`;
-    log(`${nodes} ${format} cli: ${cli.error ? `ERROR ${cli.error}` : `${fmtS(cli.ms)} s, ${rss}`} (load ${load.toFixed(2)})`);
+    log(
+      `${nodes} ${format} cli: ${cli.error ? `ERROR ${cli.error}` : `${fmtS(cli.ms)} s, ${rss}`} (load ${load.toFixed(2)})`,
+    );
     out.formats[format] = {
       file: relative(repoRoot, file),
       bytes,
