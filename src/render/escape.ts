@@ -1,6 +1,9 @@
-// C0 and C1 controls, DEL, line and paragraph separators, and the Unicode bidirectional controls
-// (Unicode UAX #9; the "Trojan Source" attack is CVE-2021-42574).
-const UNSAFE = /[\u0000-\u001f\u007f-\u009f\u061c\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2069]/gu;
+// C0 and C1 controls, DEL, line and paragraph separators, the Unicode bidirectional controls (Unicode
+// UAX #9; the "Trojan Source" attack is CVE-2021-42574), and lone surrogates (with the u flag a range
+// of surrogates matches only unpaired ones; UTF-8 output cannot carry them, so they would print as
+// U+FFFD and two different names would look the same).
+const UNSAFE =
+  /[\u0000-\u001f\u007f-\u009f\u061c\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2069\ud800-\udfff]/gu;
 
 /** Longest label shown, in code points; longer ones keep both ends around a marker. */
 export const MAX_LABEL = 240;

@@ -14,6 +14,13 @@ describe("safeText(text)", () => {
     expect(safeText("\u2028")).toBe("\\u{2028}");
   });
 
+  it("escapes lone surrogates, which UTF-8 cannot carry, and keeps paired ones (ECMA-262 isWellFormed)", () => {
+    expect(safeText("dock\ud800")).toBe("dock\\u{d800}");
+    expect(safeText("\udc00x")).toBe("\\u{dc00}x");
+    expect(safeText("ok \u{1f600}")).toBe("ok \u{1f600}");
+    expect(safeText("a\ud800b").isWellFormed()).toBe(true);
+  });
+
   it("leaves ordinary text, accents and CJK untouched", () => {
     expect(safeText("Łukasz Ørsted 山田")).toBe("Łukasz Ørsted 山田");
   });
