@@ -28,8 +28,13 @@ export function loadInWorker(name: string, options: LoadOptions): Promise<Tree> 
       else reject(new Error(reply.failure));
       void worker.terminate();
     });
-    worker.once("error", (err) => {
-      if (!settled) reject(err);
+    worker.once("error", (err: Error & { code?: string }) => {
+      if (!settled)
+        reject(
+          err.code === "ERR_WORKER_OUT_OF_MEMORY"
+            ? new EspalierError("LIMIT_EXCEEDED", `${name} is too big to load in the memory available`)
+            : err,
+        );
       settled = true;
     });
     worker.once("exit", (code) => {
