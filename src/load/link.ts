@@ -1,6 +1,6 @@
 import { EspalierError } from "../errors.js";
 import type { LinkedNodes } from "../model/build.js";
-import { NamePool } from "../model/names.js";
+import { copyName, isEmptyName, NamePool } from "../model/names.js";
 import { IdIndex } from "./idIndex.js";
 import { limitExceeded, NodeSink } from "./nodeSink.js";
 import { PathIndex } from "./pathIndex.js";
@@ -37,7 +37,8 @@ function linkById(
   const n = table.length;
   if (n > options.maxNodes) throw limitExceeded(options.maxNodes, true, options.maxNodes + 1);
   const keep = keptColumns(table, options);
-  const names = table.column(options.nameField);
+  const pooled = table.pooledColumn?.(options.nameField);
+  const names = pooled ? undefined : table.column(options.nameField);
   const sizes = table.column(options.sizeField);
   // A column of text is its own list of ids (the index writes back the same strings); else a copy.
   const ids: string[] = allText(idCells, n) ? (idCells as string[]) : new Array(n);
@@ -60,7 +61,7 @@ function linkById(
   const ownSize = new Float64Array(n);
   // A name column with no empty cell is the list of names itself; else names fall back to ids.
   const named = names !== undefined && allText(names, n, true);
-  const name: string[] = named ? (names as string[]) : new Array(n);
+  const name: string[] | null = pooled ? null : named ? (names as string[]) : new Array(n);
   for (let r = 0; r < n; r++) {
     const parentCell = parentCells[r];
     // A cell kept as a number is looked up as the number (it stands for its digits).
@@ -79,14 +80,12 @@ function linkById(
       parentOf[r] = p;
     }
     origin[r] = r + 1;
-    if (!named) name[r] = (names && cellText(names[r])) || ids[r];
+    if (name !== null && !named) name[r] = (names && cellText(names[r])) || ids[r];
     if (sizes) ownSize[r] = sizeOf(sizes[r], table.textCells, r + 1, options.sizeField);
   }
-  const pool = new NamePool(n, n * 8);
-  for (let r = 0; r < n; r++) pool.setString(r, name[r]);
   return {
     parentOf,
-    name: pool,
+    name: name === null ? namesOrIds(pooled!, ids, n) : poolOf(name),
     ownSize,
     hasSizes: sizes !== undefined,
     ids,
@@ -95,6 +94,26 @@ function linkById(
     fields: keep,
     rootName: options.rootName,
   } satisfies LinkedNodes;
+}
+
+/** Strings into a name pool. */
+function poolOf(name: readonly string[]): NamePool {
+  const pool = new NamePool(name.length, name.length * 8);
+  for (let r = 0; r < name.length; r++) pool.setString(r, name[r]);
+  return pool;
+}
+
+/** The pooled name column as the nodes' names, each empty name replaced by the row's id. */
+function namesOrIds(pooled: NamePool, ids: readonly string[], n: number): NamePool {
+  let empty = false;
+  for (let r = 0; r < n && !empty; r++) empty = isEmptyName(pooled, r);
+  if (!empty && pooled.length === n) return pooled;
+  const out = new NamePool(n, n * 8);
+  for (let r = 0; r < n; r++) {
+    if (isEmptyName(pooled, r)) out.setString(r, ids[r]);
+    else copyName(out, r, pooled, r);
+  }
+  return out;
 }
 
 function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptions): LinkedNodes {

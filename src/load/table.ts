@@ -1,5 +1,6 @@
 import { parse } from "csv-parse/sync";
 import { EspalierError } from "../errors.js";
+import type { NamePool } from "../model/names.js";
 
 /** One cell: text from CSV/TSV, any JSON scalar from rows. */
 export type Cell = string | number | boolean | null | undefined;
@@ -19,6 +20,8 @@ export interface Table {
    * keep a parser's closure alive in compiled code long after the load, and with it every cell.
    */
   release?(): void;
+  /** The column's cells as a name pool, one name per row, when the table kept it so; else undefined. */
+  pooledColumn?(name: string): NamePool | undefined;
 }
 
 /**

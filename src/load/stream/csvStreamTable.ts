@@ -1,5 +1,6 @@
 import { parse } from "csv-parse";
 import { EspalierError } from "../../errors.js";
+import { NamePool, namesToArray } from "../../model/names.js";
 import type { Table } from "../table.js";
 import type { LoadOptions } from "../types.js";
 
@@ -35,7 +36,23 @@ export async function csvStreamTable(
   let header: string[] | undefined;
   let headerLine = 0;
   const at = new Map<string, number>();
-  const kept: { name: string; index: number; cells: (string | number)[]; numbers: boolean }[] = [];
+  const kept: {
+    name: string;
+    index: number;
+    cells: (string | number)[];
+    numbers: boolean;
+    pool: NamePool | null;
+  }[] = [];
+  // The name column, when no other role reads it, goes straight into a name pool: a name per row then
+  // costs its bytes, not a string kept until the table is linked.
+  const others = new Set([
+    fields.idField,
+    fields.parentField,
+    fields.pathField,
+    fields.sizeField,
+    ...fields.keepFields,
+  ]);
+  const poolNames = !others.has(fields.nameField);
   let rows = 0;
   // Where the last good record ended, to place an error at the start of the record after it.
   let lastLines = 0;
@@ -53,7 +70,8 @@ export async function csvStreamTable(
         if (wanted.has(name)) {
           // Sizes and parent ids keep plain digits as numbers (they read back as the same text).
           const numbers = name === fields.sizeField || name === fields.parentField;
-          kept.push({ name, index, cells: [], numbers });
+          const pool = poolNames && name === fields.nameField ? new NamePool() : null;
+          kept.push({ name, index, cells: [], numbers, pool });
         }
       }
       return;
@@ -62,7 +80,8 @@ export async function csvStreamTable(
       const cell = record[column.index];
       // A size or a parent id written as plain digits is kept as its number (it reads back as the same
       // text): a small number costs no string.
-      column.cells.push(column.numbers ? plainNumber(cell) : cell);
+      if (column.pool) column.pool.setString(rows, cell ?? "");
+      else column.cells.push(column.numbers ? plainNumber(cell) : cell);
     }
     rows++;
   });
@@ -108,9 +127,14 @@ export async function csvStreamTable(
       }
       const column = kept.find((k) => k.name === name);
       if (!column) throw new Error(`column "${name}" was not kept while streaming`);
+      if (column.pool) return namesToArray(column.pool).slice(0, length);
       return column.cells.length > length ? column.cells.slice(0, length) : column.cells;
     },
     columnNames: () => names,
+    pooledColumn(name) {
+      if (at.get(name) === undefined || names.indexOf(name, at.get(name)! + 1) !== -1) return undefined;
+      return kept.find((k) => k.name === name)?.pool ?? undefined;
+    },
     release() {
       for (const column of kept) column.cells = [];
       kept.length = 0;
