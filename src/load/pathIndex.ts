@@ -1,5 +1,5 @@
 import { EspalierError } from "../errors.js";
-import { doubled, hashStep, mix, rehashed, seed } from "../model/child-hash.js";
+import { ChildTable, doubled, hashStep, mix, seed } from "../model/child-hash.js";
 import type { NodeSink } from "./nodeSink.js";
 
 const slash = 47;
@@ -15,12 +15,9 @@ const slash = 47;
  * with the previous path, usually leaving one lookup per path.
  */
 export class PathIndex {
-  // slots[h] = node + 1, or 0 when empty; at most half full.
-  private slots = new Int32Array(2048);
-  // Each node's own segment, the name it is found by (a table may relabel the node in the sink), and
-  // its hash: rehashing reads only this array, not a string per node spread over the heap.
+  private readonly table = new ChildTable();
+  // Each node's own segment, the name it is found by (a table may relabel the node in the sink).
   private readonly keys: string[] = [];
-  private hashes = new Int32Array(1024);
   private explicit = new Uint8Array(1024);
   private readonly sink: NodeSink;
   private readonly unit: "line" | "row";
@@ -127,11 +124,11 @@ export class PathIndex {
    * `this.created` says which.
    */
   private child(parent: number, text: string, s: number, e: number, hash: number, origin: number): number {
-    const { sink, slots } = this;
+    const { sink } = this;
+    const { slots, hashes } = this.table;
     const mask = slots.length - 1;
     const length = e - s;
     let h = mix(hash) & mask;
-    const hashes = this.hashes;
     for (let slot = slots[h]; slot !== 0; slot = slots[h]) {
       const node = slot - 1;
       if (hashes[node] === hash && sink.parentOf[node] === parent) {
@@ -151,19 +148,8 @@ export class PathIndex {
     const name = detach(text.slice(s, e));
     const node = sink.add(parent, name, origin);
     this.keys[node] = name;
-    if (node === hashes.length) {
-      const grown = new Int32Array(hashes.length * 2);
-      grown.set(hashes);
-      this.hashes = grown;
-    }
-    this.hashes[node] = hash;
-    slots[h] = node + 1;
-    if (this.keys.length * 2 > slots.length) this.rehash();
+    this.table.add(node, hash, h, this.keys.length);
     return node;
-  }
-
-  private rehash(): void {
-    this.slots = rehashed(this.slots, this.hashes, this.keys.length);
   }
 
   private growStack(): void {

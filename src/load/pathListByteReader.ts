@@ -1,7 +1,7 @@
 import { Buffer, isUtf8 } from "node:buffer";
 import { EspalierError } from "../errors.js";
 import type { LinkedNodes } from "../model/build.js";
-import { doubled, hashStep, mix, rehashed, seed } from "../model/child-hash.js";
+import { ChildTable, doubled, hashStep, mix, seed } from "../model/child-hash.js";
 import { NodeSink } from "./nodeSink.js";
 import { parseSize } from "./size.js";
 import type { LoadOptions } from "./types.js";
@@ -29,10 +29,8 @@ export class PathListByteReader {
   private sized: boolean | undefined;
   private firstLine = 0;
   private line = 0;
-  // Children by (parent, name): slots[h] = node + 1, or 0 when empty; at most half full. hashes[node] is
-  // the hash of the node's name bytes, seeded with its parent.
-  private slots = new Int32Array(2048);
-  private hashes = new Int32Array(1024);
+  // Children by (parent, name), hashed on the name's bytes seeded with the parent.
+  private readonly table = new ChildTable();
   private explicit = new Uint8Array(1024);
   private created = false;
   // The previous path, prevBytes[prevStart, prevStart + prevLength) (prevView reads the same bytes four
@@ -221,7 +219,8 @@ export class PathListByteReader {
    * added when missing; `this.created` says which.
    */
   private child(parent: number, bytes: Buffer, s: number, e: number, hash: number, origin: number): number {
-    const { sink, slots, hashes } = this;
+    const { sink } = this;
+    const { slots, hashes } = this.table;
     const mask = slots.length - 1;
     let h = mix(hash) & mask;
     for (let slot = slots[h]; slot !== 0; slot = slots[h]) {
@@ -237,19 +236,8 @@ export class PathListByteReader {
     }
     this.created = true;
     const node = sink.addBytes(parent, bytes, s, e, origin);
-    if (node === hashes.length) {
-      const grown = new Int32Array(hashes.length * 2);
-      grown.set(hashes);
-      this.hashes = grown;
-    }
-    this.hashes[node] = hash;
-    slots[h] = node + 1;
-    if (sink.length * 2 > slots.length) this.rehash();
+    this.table.add(node, hash, h, sink.length);
     return node;
-  }
-
-  private rehash(): void {
-    this.slots = rehashed(this.slots, this.hashes, this.sink.length);
   }
 
   private growStack(): void {

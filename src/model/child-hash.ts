@@ -35,3 +35,21 @@ export function doubled(a: Int32Array): Int32Array<ArrayBuffer> {
   grown.set(a);
   return grown;
 }
+
+/**
+ * The table itself: `slots[h]` = node + 1 (0 when empty), at most half full, and each node's hash so a
+ * rehash reads one array. Readers probe `slots` and `hashes` directly in their own loops (on text or on
+ * bytes) and call {@link ChildTable.add} at the empty slot a probe ended on.
+ */
+export class ChildTable {
+  slots = new Int32Array(2048);
+  hashes = new Int32Array(1024);
+
+  /** Records node `node` (the `count`-th node, numbered from 0) with `hash` in empty slot `h`. */
+  add(node: number, hash: number, h: number, count: number): void {
+    while (node >= this.hashes.length) this.hashes = doubled(this.hashes);
+    this.hashes[node] = hash;
+    this.slots[h] = node + 1;
+    if (count * 2 > this.slots.length) this.slots = rehashed(this.slots, this.hashes, count);
+  }
+}
