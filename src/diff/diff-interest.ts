@@ -27,6 +27,17 @@ export function diffInterest(
   // The summary's forced set for the user's foci alone: the root and every focus path.
   const forced = scores.forced.fill(0);
   forced[0] = 1;
-  for (const f of foci) for (let a = f; a > 0 && !forced[a]; a = parent[a]) forced[a] = 1;
-  return { value: scores.value, distance: scores.distance, forced, onChangePath };
+  const forcedNodes = [0];
+  for (const f of foci)
+    for (let a = f; a > 0 && !forced[a]; a = parent[a]) {
+      forced[a] = 1;
+      forcedNodes.push(a);
+    }
+  return {
+    value: scores.value,
+    distance: scores.distance,
+    forced,
+    forcedNodes: Int32Array.from(forcedNodes).sort(),
+    onChangePath,
+  };
 }

@@ -60,18 +60,8 @@ export function select(
 ): Selection {
   const n = tree.length;
   const shown = new Uint8Array(n);
-  const { forced } = scores;
   const { count } = measures;
-  let forcedNodes: Int32Array | number[];
-  if (scores.forcedNodes) forcedNodes = scores.forcedNodes;
-  else {
-    const found: number[] = [];
-    for (let i = 0; i < n; i++) {
-      if (forced[i]) found.push(i);
-      else i += count[i] - 1; // a non-forced node has no forced descendant
-    }
-    forcedNodes = found;
-  }
+  const { forcedNodes } = scores;
   const cost = (x: number) => lineCost(tree, measures, scores, chains, x);
   let needed = headerLines;
   for (const f of forcedNodes) needed += cost(f);

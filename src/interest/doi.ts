@@ -7,8 +7,8 @@ export interface Interest {
   readonly distance: Int32Array;
   /** 1 for the root, every focus and every ancestor of a focus: the nodes always shown. */
   readonly forced: Uint8Array;
-  /** The forced nodes in pre-order, when known (saves the fit a walk of the tree to find them). */
-  readonly forcedNodes?: Int32Array;
+  /** The forced nodes in pre-order (the fit starts from them; no walk of the tree finds them again). */
+  readonly forcedNodes: Int32Array;
 }
 
 const FAR = 0x7fffffff;
