@@ -5,7 +5,7 @@ import { type Interest, interest } from "./interest/doi.js";
 import { type Importance, importance } from "./interest/importance.js";
 import { childrenByDepthOrder, nodeOrder } from "./interest/order.js";
 import { type Measures, measure } from "./model/measure.js";
-import { PathIndex } from "./model/paths.js";
+import { NAME_TABLE_MIN, PathIndex } from "./model/paths.js";
 import { hiddenIds, pseudonym } from "./model/pseudonym.js";
 import { escapeSegment } from "./model/segment.js";
 import type { Tree } from "./model/tree.js";
@@ -28,7 +28,6 @@ export function prepare(tree: Tree): Prepared {
   cachedImportance(prepared, "depth");
   scratchOf(prepared);
   wideChildren(prepared);
-  prepared.index.warm();
   return prepared;
 }
 
@@ -114,7 +113,8 @@ const wideCache = new WeakMap<Prepared, (p: number) => Int32Array | null>();
 /**
  * Per tree, the children of every node with at least {@link WIDE} of them in the order the fit takes
  * them under the importance by depth, so a new focus costs no scan of a node's million children. Built
- * all at once (at prepare time) in one pass over the child counts.
+ * all at once (at prepare time) in one pass over the child counts, which also builds the path index's
+ * name tables of wide nodes.
  */
 function wideChildren(prepared: Prepared): (p: number) => Int32Array | null {
   let lookup = wideCache.get(prepared);
@@ -122,8 +122,10 @@ function wideChildren(prepared: Prepared): (p: number) => Int32Array | null {
     const { measures } = prepared;
     const lists = new Map<number, Int32Array>();
     const { children } = measures;
-    for (let p = 0; p < children.length; p++)
+    for (let p = 0; p < children.length; p++) {
+      if (children[p] >= NAME_TABLE_MIN) prepared.index.warm(p);
       if (children[p] >= WIDE) lists.set(p, childrenByDepthOrder(measures, p));
+    }
     lookup = (p) => lists.get(p) ?? null;
     wideCache.set(prepared, lookup);
   }

@@ -5,7 +5,7 @@ import { escapeSegment, type Segment } from "./segment.js";
 import type { Tree } from "./tree.js";
 
 /** A parent with at least this many children finds them by a table of name hashes, not a Map of names. */
-const WIDE = 256;
+export const NAME_TABLE_MIN = 256;
 
 /** How many recently built paths {@link PathIndex.path} remembers. */
 const RECENT_PATHS = 1 << 16;
@@ -67,16 +67,16 @@ export class PathIndex {
     return list && seg.rank <= list.length ? list[seg.rank - 1] : -1;
   }
 
-  /** Builds the name tables of every wide parent now (load time), so no focus pays for one. */
-  warm(): void {
-    const { children } = this.measures;
-    for (let p = 0; p < children.length; p++) if (children[p] >= WIDE) this.wideTable(p);
+  /** Builds `p`'s name table now (at load time) if it is wide, so no focus pays for it. */
+  warm(p: number): void {
+    this.wideTable(p);
   }
 
   /** The hash table of a wide parent's children, built on first use; null for other parents. */
   private wideTable(p: number): Int32Array | null {
     const names = this.tree.name;
-    if (!(names instanceof NamePool) || names.hasExact || this.measures.children[p] < WIDE) return null;
+    if (!(names instanceof NamePool) || names.hasExact || this.measures.children[p] < NAME_TABLE_MIN)
+      return null;
     let table = this.tables.get(p);
     if (table) return table;
     let size = 1;
