@@ -112,3 +112,20 @@ export function cutsFor(r: Rng, length: number, count: number, awkward: readonly
   }
   return cuts;
 }
+
+/** Offsets where a cut between chunks is awkward: every byte listed in `marks`, and every byte >= 0x80. */
+export function awkwardAt(bytes: Uint8Array, marks: readonly number[]): number[] {
+  const at: number[] = [];
+  bytes.forEach((b, k) => {
+    if (b >= 0x80 || marks.includes(b)) at.push(k);
+  });
+  return at;
+}
+
+/** Two loads of the same bytes: the same arrays, and the same summaries for a random focus and budget. */
+export function expectSameTreeAndSummaries(r: Rng, actual: Tree, expected: Tree): void {
+  expectSameTree(actual, expected);
+  const focus = r.int(0, expected.length - 1);
+  const budget = expected.depth[focus] + r.int(1, 25);
+  expect(summaries(actual, focus, budget)).toEqual(summaries(expected, focus, budget));
+}

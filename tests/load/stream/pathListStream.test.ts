@@ -2,16 +2,17 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { opts } from "../helpers.js";
 import {
+  awkwardAt,
   cutsFor,
   everyByte,
   expectSameTree,
+  expectSameTreeAndSummaries,
   loadInMemory,
   loadStreamed,
   outcomeOf,
   outcomeOfAsync,
   type Rng,
   rng,
-  summaries,
   utf8,
 } from "./helpers.js";
 
@@ -50,13 +51,7 @@ function pathList(r: Rng, lines: number): string {
   return r.chance(0.5) ? text + eol : text;
 }
 
-function awkward(bytes: Uint8Array): number[] {
-  const at: number[] = [];
-  bytes.forEach((b, k) => {
-    if (b === 0x0d || b === 0x0a || b >= 0x80 || b === 0x09) at.push(k);
-  });
-  return at;
-}
+const awkward = (bytes: Uint8Array) => awkwardAt(bytes, [0x0d, 0x0a, 0x09]);
 
 describe("loadTreeFromStream(paths)", () => {
   it("loadTreeFromStream(paths) builds the tree loadTree builds and the same summaries, however the bytes are cut", async () => {
@@ -72,10 +67,7 @@ describe("loadTreeFromStream(paths)", () => {
           expect(actual).toEqual(expected);
           return;
         }
-        expectSameTree(actual.tree, expected.tree);
-        const focus = r.int(0, expected.tree.length - 1);
-        const budget = expected.tree.depth[focus] + r.int(1, 25);
-        expect(summaries(actual.tree, focus, budget)).toEqual(summaries(expected.tree, focus, budget));
+        expectSameTreeAndSummaries(r, actual.tree, expected.tree);
       }),
       { numRuns: 300 },
     );
