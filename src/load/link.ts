@@ -85,7 +85,7 @@ function linkById(
   }
   return {
     parentOf,
-    name: name === null ? namesOrIds(pooled!, ids, n) : poolOf(name),
+    name: name === null ? namesOrIds(pooled!, ids, n) : name,
     ownSize,
     hasSizes: sizes !== undefined,
     ids,
@@ -94,13 +94,6 @@ function linkById(
     fields: keep,
     rootName: options.rootName,
   } satisfies LinkedNodes;
-}
-
-/** Strings into a name pool. */
-function poolOf(name: readonly string[]): NamePool {
-  const pool = new NamePool(name.length, name.length * 8);
-  for (let r = 0; r < name.length; r++) pool.setString(r, name[r]);
-  return pool;
 }
 
 /** The pooled name column as the nodes' names, each empty name replaced by the row's id. */

@@ -16,10 +16,10 @@ export class NodeSink {
   readonly maxNodes: number;
   readonly originIsRow: boolean;
 
-  constructor(maxNodes: number, originIsRow: boolean, poolBytes = 1 << 16) {
+  constructor(maxNodes: number, originIsRow: boolean) {
     this.maxNodes = maxNodes;
     this.originIsRow = originIsRow;
-    this.name = new NamePool(1024, poolBytes);
+    this.name = new NamePool();
   }
 
   /** Appends a node (own size 0) named `name` and returns its index. */

@@ -182,10 +182,7 @@ function inPreOrder(input: PooledNodes): Tree | null {
 }
 
 function poolOf(names: NamePool | readonly string[]): NamePool {
-  if (names instanceof NamePool) return names;
-  const pool = new NamePool(names.length);
-  for (let i = 0; i < names.length; i++) pool.setString(i, names[i] ?? "");
-  return pool;
+  return names instanceof NamePool ? names : NamePool.from(names);
 }
 
 /** -1 (the synthetic root) when `shift` is 1, then 0 .. n-1: where each node's name comes from. */

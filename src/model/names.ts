@@ -279,6 +279,13 @@ export class NamePool implements Names {
     return out;
   }
 
+  /** A pool of these strings, in order (a missing one is ""). */
+  static from(list: readonly string[]): NamePool {
+    const pool = new NamePool(list.length, list.length * 8);
+    for (let i = 0; i < list.length; i++) pool.setString(i, list[i] ?? "");
+    return pool;
+  }
+
   /** The pool as plain data (copied), for sending to another thread. */
   toParts(): NamePoolParts {
     return {
@@ -302,11 +309,6 @@ export class NamePool implements Names {
     pool.length = parts.length;
     if (parts.exact.length > 0) pool.exact = new Map(parts.exact);
     return pool;
-  }
-
-  /** Bytes held for names, pool and index (for memory reports). */
-  get byteLength(): number {
-    return this.bytes.length + this.start.byteLength + this.size.byteLength;
   }
 
   private place(i: number, at: number, n: number): void {
