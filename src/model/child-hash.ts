@@ -53,3 +53,9 @@ export class ChildTable {
     if (count * 2 > this.slots.length) this.slots = rehashed(this.slots, this.hashes, count);
   }
 }
+
+/** `hash` stepped over `bytes[s, e)`. */
+export function hashBytes(hash: number, bytes: Uint8Array, s: number, e: number): number {
+  for (let k = s; k < e; k++) hash = hashStep(hash, bytes[k]);
+  return hash;
+}

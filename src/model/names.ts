@@ -1,5 +1,5 @@
 import { EspalierError } from "../errors.js";
-import { hashStep } from "./child-hash.js";
+import { hashBytes } from "./child-hash.js";
 
 /**
  * The names of a tree's nodes, read one at a time. A whole tree's names are kept as UTF-8 bytes in one
@@ -194,11 +194,10 @@ export class NamePool implements Names {
     this.place(k, at, n);
   }
 
-  /** `hash` stepped over name `i`'s bytes with {@link hashStep} (FNV-1a), as the loaders hash names. */
+  /** `hash` stepped over name `i`'s bytes (FNV-1a, child-hash.ts), as the loaders hash names. */
   hashFrom(i: number, hash: number): number {
-    const bytes = this.bytes;
-    for (let at = this.start[i], end = at + this.size[i]; at < end; at++) hash = hashStep(hash, bytes[at]);
-    return hash;
+    const at = this.start[i];
+    return hashBytes(hash, this.bytes, at, at + this.size[i]);
   }
 
   /** Name `i`'s UTF-8 bytes (a view into the pool, valid until the pool next grows). */

@@ -1,4 +1,4 @@
-import { hashStep, mix, seed } from "./child-hash.js";
+import { hashBytes, mix, seed } from "./child-hash.js";
 import type { Measures } from "./measure.js";
 import { NamePool } from "./names.js";
 import { escapeSegment, type Segment } from "./segment.js";
@@ -98,7 +98,7 @@ export class PathIndex {
     const names = this.tree.name as NamePool;
     const mask = table.length - 1;
     const found: number[] = [];
-    for (let h = mix(hashOf(p, bytes)) & mask; table[h] !== 0; h = (h + 1) & mask) {
+    for (let h = mix(hashBytes(seed(p), bytes, 0, bytes.length)) & mask; table[h] !== 0; h = (h + 1) & mask) {
       const c = table[h] - 1;
       if (names.equalsBytes(c, bytes, 0, bytes.length)) found.push(c);
     }
@@ -151,11 +151,4 @@ export class PathIndex {
     this.recent.set(i, path);
     return path;
   }
-}
-
-/** The hash of a child's name bytes under parent `p` (FNV-1a seeded by the parent, as the loaders use). */
-function hashOf(p: number, bytes: Uint8Array): number {
-  let hash = seed(p);
-  for (let k = 0; k < bytes.length; k++) hash = hashStep(hash, bytes[k]);
-  return hash;
 }
