@@ -227,19 +227,11 @@ export class NamePool implements Names {
    */
   sameBytes(i: number, other: NamePool, j: number): boolean | undefined {
     if (this.exact?.has(i) || other.exact?.has(j)) return undefined;
-    const n = this.size[i];
-    const a = this.bytes;
-    const b = other.bytes;
-    let at = this.start[i];
-    let bt = other.start[j];
-    if (n === other.size[j]) {
-      let k = 0;
-      while (k < n && a[at + k] === b[bt + k]) k++;
-      if (k === n) return true;
-    }
-    for (const end = at + n; at < end; at++) if (a[at] >= 0x80) return undefined;
-    for (const end = bt + other.size[j]; bt < end; bt++) if (b[bt] >= 0x80) return undefined;
-    return false;
+    const bt = other.start[j];
+    const bEnd = bt + other.size[j];
+    if (this.equalsBytes(i, other.bytes, bt, bEnd)) return true;
+    const at = this.start[i];
+    return isAscii(this.bytes, at, at + this.size[i]) && isAscii(other.bytes, bt, bEnd) ? false : undefined;
   }
 
   /**
@@ -346,4 +338,9 @@ export class NamePool implements Names {
     size.set(this.size);
     this.size = size;
   }
+}
+
+function isAscii(bytes: Uint8Array, s: number, e: number): boolean {
+  for (let k = s; k < e; k++) if (bytes[k] >= 0x80) return false;
+  return true;
 }
