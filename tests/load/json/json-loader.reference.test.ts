@@ -15,7 +15,7 @@ import {
   type Rng,
   rng,
   utf8,
-} from "./helpers.js";
+} from "../stream/helpers.js";
 
 // Names that stress the tokenizer: escapes, multi-byte characters (2, 3 and 4 bytes), a lone surrogate
 // (JSON allows it escaped), names like array indices (JSON.parse puts those keys first), path characters.

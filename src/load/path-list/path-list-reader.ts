@@ -1,10 +1,10 @@
 import { Buffer, isUtf8 } from "node:buffer";
-import { EspalierError } from "../errors.js";
-import { ChildTable, doubled, hashStep, mix, seed } from "../model/child-hash.js";
-import type { LinkedNodes } from "../model/linked-nodes.js";
-import type { LoadOptions } from "./load-options.js";
-import { NodeSink } from "./node-sink.js";
-import { parseSize } from "./parse-size.js";
+import { EspalierError } from "../../errors.js";
+import { ChildTable, doubled, hashStep, mix, seed } from "../../model/child-hash.js";
+import type { LinkedNodes } from "../../model/linked-nodes.js";
+import type { LoadOptions } from "../load-options.js";
+import { NodeSink } from "../node-sink.js";
+import { parseSize } from "../parse-size.js";
 
 const newline = 10;
 const cr = 13;

@@ -1,6 +1,6 @@
-import { EspalierError } from "../errors.js";
-import { ChildTable, doubled, hashStep, mix, seed } from "../model/child-hash.js";
-import type { NodeSink } from "./node-sink.js";
+import { EspalierError } from "../../errors.js";
+import { ChildTable, doubled, hashStep, mix, seed } from "../../model/child-hash.js";
+import type { NodeSink } from "../node-sink.js";
 
 const slash = 47;
 

@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { csvStreamTable } from "../../../src/load/stream/csv-stream-table.js";
+import { csvStreamTable } from "../../../src/load/table/csv-table.js";
 import { opts } from "../helpers.js";
 import {
   awkwardAt,
@@ -15,7 +15,7 @@ import {
   type Rng,
   rng,
   utf8,
-} from "./helpers.js";
+} from "../stream/helpers.js";
 
 const NAMES = ["Optics", "Mira Quell", "é", "日本", "😀", "a, b", 'say "hi"', "two\nlines", "", " padded "];
 

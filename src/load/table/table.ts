@@ -1,6 +1,6 @@
 import { parse } from "csv-parse/sync";
-import { EspalierError } from "../errors.js";
-import type { NamePool } from "../model/names.js";
+import { EspalierError } from "../../errors.js";
+import type { NamePool } from "../../model/names.js";
 
 /** One cell: text from CSV/TSV, any JSON scalar from rows. */
 export type Cell = string | number | boolean | null | undefined;

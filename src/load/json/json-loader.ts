@@ -3,11 +3,11 @@ import { EspalierError, type SourcePos } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { isSize } from "../../model/size-rule.js";
 import { describeNode } from "../describe-node.js";
-import { linkTable } from "../link-table.js";
+import { linkTable } from "../table/link-table.js";
 import type { LoadOptions } from "../load-options.js";
 import { NodeSink } from "../node-sink.js";
 import { isRowsValue } from "../rows-shape.js";
-import { rowsTable } from "../table.js";
+import { rowsTable } from "../table/table.js";
 import { ByteBuffer } from "./byte-buffer.js";
 import { isArrayIndexKey, reorderKeyedChildren } from "./keyed-order.js";
 

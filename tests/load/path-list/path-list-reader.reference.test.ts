@@ -14,7 +14,7 @@ import {
   type Rng,
   rng,
   utf8,
-} from "./helpers.js";
+} from "../stream/helpers.js";
 
 const SEGMENTS = [
   "tidewater",

@@ -1,9 +1,9 @@
-import { EspalierError } from "../errors.js";
-import type { LinkedNodes } from "../model/linked-nodes.js";
-import type { LoadOptions } from "./load-options.js";
-import { NodeSink } from "./node-sink.js";
-import { parseSize } from "./parse-size.js";
-import { PathPlacer } from "./path-placer.js";
+import { EspalierError } from "../../../src/errors.js";
+import type { LinkedNodes } from "../../../src/model/linked-nodes.js";
+import type { LoadOptions } from "../../../src/load/load-options.js";
+import { NodeSink } from "../../../src/load/node-sink.js";
+import { parseSize } from "../../../src/load/parse-size.js";
+import { PathPlacer } from "../../../src/load/table/path-placer.js";
 
 /**
  * Reads a path list a line at a time: one "/"-separated path per line, blank lines ignored. When the first
