@@ -1,5 +1,6 @@
 import { Buffer, isUtf8 } from "node:buffer";
 import { EspalierError } from "../../errors.js";
+import { asBuffer } from "../../model/buffer-codecs.js";
 import { ChildTable, doubled, hashStep, mix, seed } from "../../model/child-hash.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { LoadOptions } from "../load-options.js";
@@ -12,20 +13,24 @@ const tab = 9;
 const space = 32;
 const slash = 47;
 const EMPTY = Buffer.alloc(0);
-/** Most bytes, and most names, decoded together. */
 
 /**
- * `PathListReader` over UTF-8 bytes, for a path list read in chunks: the same lines give the same
- * nodes, origins and errors, but no line is decoded. Lines are cut, sizes parsed, each path compared with
- * the previous one and its segments hashed on the bytes themselves; only the name of a new node is
- * decoded, so a listing that repeats each directory on every line below it costs one string per node.
+ * A path list read from UTF-8 bytes, whole or in chunks: one "/"-separated path per line, blank lines
+ * ignored. When the first non-blank line holds a tab, every line is "size<TAB>path" (as
+ * `find -printf '%s\t%p\n'` prints); otherwise a whole line is one path. Origins are line numbers.
+ *
+ * No line is decoded: lines are cut, sizes parsed, each path compared with the previous one and its
+ * segments hashed on the bytes themselves, and a new node's name is copied into the name pool as bytes.
  *
  * Equal names must be equal bytes for the hash table to find them: valid UTF-8 has one spelling per
  * string, and a block with invalid bytes is first decoded (each bad sequence becomes U+FFFD, as the
- * in-memory path decodes it) and encoded again.
+ * WHATWG decoder does) and encoded again.
  */
-export class PathListByteReader {
+export class PathListReader {
   private readonly sink: NodeSink;
+  private readonly rootName: string;
+  // The start of a line cut by the end of a chunk, in pieces.
+  private waiting: Buffer[] = [];
   private sized: boolean | undefined;
   private firstLine = 0;
   private line = 0;
@@ -45,14 +50,54 @@ export class PathListByteReader {
 
   constructor(options: LoadOptions) {
     this.sink = new NodeSink(options.maxNodes, false);
+    this.rootName = options.rootName;
+  }
+
+  /**
+   * Reads the next chunk of the input: its whole lines as they are, undecoded and uncopied; a line cut
+   * between chunks is joined (its bytes only) first. A "\n" byte is never inside a multi-byte UTF-8
+   * character, so a character (or a "\r\n") cut between chunks is whole again in the joined line.
+   */
+  write(piece: Uint8Array): void {
+    const chunk = asBuffer(piece);
+    let from = 0;
+    if (this.waiting.length > 0) {
+      const first = chunk.indexOf(newline);
+      if (first === -1) {
+        this.waiting.push(chunk);
+        return;
+      }
+      this.waiting.push(chunk.subarray(0, first + 1));
+      const line = Buffer.concat(this.waiting);
+      this.lines(line, 0, line.length);
+      this.waiting = [];
+      from = first + 1;
+    }
+    const last = chunk.lastIndexOf(newline);
+    if (last < from) {
+      if (from < chunk.length) this.waiting.push(chunk.subarray(from));
+      return;
+    }
+    this.lines(chunk, from, last + 1);
+    if (last + 1 < chunk.length) this.waiting.push(chunk.subarray(last + 1));
+  }
+
+  /** Ends the input; the nodes, ready for `buildTree`. */
+  end(): LinkedNodes {
+    const rest = Buffer.concat(this.waiting);
+    this.waiting = [];
+    this.lines(rest, 0, rest.length);
+    const sink = this.sink;
+    if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the path list names no paths");
+    sink.hasSizes = this.sized === true;
+    return sink.finish(this.rootName, new Map());
   }
 
   /**
    * Reads the lines of `bytes[start, end)`, each ended by "\n" (a "\r" before it is dropped); the last
-   * line needs no "\n". A caller feeding pieces must cut them after a "\n", which is never inside a
-   * multi-byte character. The bytes are not kept past the next call, except the last path's.
+   * line needs no "\n". The bytes are not kept past the next call, except the last path's.
    */
-  lines(bytes: Buffer, start: number, end: number): void {
+  private lines(bytes: Buffer, start: number, end: number): void {
     if (!isUtf8(bytes.subarray(start, end))) {
       bytes = Buffer.from(bytes.toString("utf8", start, end), "utf8");
       start = 0;
@@ -65,14 +110,6 @@ export class PathListByteReader {
       this.one(bytes, view, start, stop);
       start = stop + 1;
     }
-  }
-
-  /** The nodes, ready for `buildTree`. */
-  finish(rootName: string): LinkedNodes {
-    const sink = this.sink;
-    if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the path list names no paths");
-    sink.hasSizes = this.sized === true;
-    return sink.finish(rootName, new Map());
   }
 
   /** One line, `bytes[start, end)` without its "\n". */
@@ -122,7 +159,7 @@ export class PathListByteReader {
     }
     const i = this.place(bytes, view, pathStart, end, line);
     if (i === -1) {
-      // The column counts UTF-16 code units, as in the in-memory reader.
+      // The column counts UTF-16 code units, as in every other error position.
       const column = bytes.toString("utf8", start, pathStart).length + 1;
       throw new EspalierError("PARSE_PATHS", `line ${line} has a size but no path`, { line, column });
     }
@@ -130,7 +167,7 @@ export class PathListByteReader {
   }
 
   /**
-   * The node named by the path `bytes[start, end)`, as PathPlacer.place finds it in text: the walk starts
+   * The node named by the path `bytes[start, end)`, (as PathPlacer.place does for a table's path column): the walk starts
    * from the deepest node of the previous path whose whole path is a prefix of this one.
    */
   private place(bytes: Buffer, view: DataView, start: number, end: number, origin: number): number {

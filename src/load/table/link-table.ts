@@ -2,10 +2,10 @@ import { EspalierError } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { copyName, isEmptyName, NamePool } from "../../model/names.js";
 import { isSize } from "../../model/size-rule.js";
-import { IdIndex } from "./id-index.js";
 import type { LoadOptions } from "../load-options.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
 import { parseSize } from "../parse-size.js";
+import { IdIndex } from "./id-index.js";
 import { PathPlacer } from "./path-placer.js";
 import type { Cell, Table } from "./table.js";
 
