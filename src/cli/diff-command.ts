@@ -143,7 +143,12 @@ export async function diffCommand(
   return { text, exitCode: opts.exitCode && differ ? EXIT.differences : EXIT.ok };
 }
 
-function loadTables(io: CliIO, oldInput: string, newInput: string, opts: DiffCliOptions): Promise<[Tree, Tree]> {
+function loadTables(
+  io: CliIO,
+  oldInput: string,
+  newInput: string,
+  opts: DiffCliOptions,
+): Promise<[Tree, Tree]> {
   const newOptions = toLoadOptions(newInput, opts);
   // Both versions get the same synthetic root name, so that it never shows as a change.
   const oldOptions = { ...toLoadOptions(oldInput, opts), rootName: newOptions.rootName };

@@ -67,13 +67,17 @@ export async function loadFactInput(input: string, opts: SummaryCliOptions, root
  */
 export async function printSqlCommand(input: string | undefined, opts: SummaryCliOptions): Promise<string> {
   const facts = factOptionsOf(opts);
-  if (opts.rolledUp) throw new EspalierError("USAGE", "--print-sql prints the query whose result --rolled-up reads");
+  if (opts.rolledUp)
+    throw new EspalierError("USAGE", "--print-sql prints the query whose result --rolled-up reads");
   const { rollupSql } = await import("../load/facts/rollup-sql.js");
   const hasSize = true;
   if (facts.levels.length > 0) return `${rollupSql(facts, facts.levels.length, hasSize)};\n`;
   if (facts.keyDepth !== undefined) return `${rollupSql(facts, facts.keyDepth, hasSize)};\n`;
   if (input === undefined || input === "-") {
-    throw new EspalierError("USAGE", "--print-sql with --key-field needs --key-depth N, or the table as input");
+    throw new EspalierError(
+      "USAGE",
+      "--print-sql with --key-field needs --key-depth N, or the table as input",
+    );
   }
   const { deepestKey } = await import("../load/facts/load-facts.js");
   const depth = await deepestKey(input, factFormat(input, opts), facts);

@@ -44,7 +44,9 @@ export const summaryOptionsSchema = z.object({
     .describe("Fact table: level columns, outermost first, comma-separated (account,service,region)."),
   keyField: z.string().min(1).optional().describe("Fact table: a key column split into levels."),
   keySeparator: z.string().min(1).default("/").describe("What --key-field values are split on."),
-  keyDepth: positiveInt("--key-depth").optional().describe("Deepest key level to roll up (default: the deepest)."),
+  keyDepth: positiveInt("--key-depth")
+    .optional()
+    .describe("Deepest key level to roll up (default: the deepest)."),
   rolledUp: z.boolean().default(false).describe("The input is the result table of the --print-sql query."),
   printSql: z.boolean().default(false).describe("Print the rollup query in standard SQL and stop."),
   sqlTable: z.string().min(1).default("facts").describe("Table name in the --print-sql query."),

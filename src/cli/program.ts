@@ -3,10 +3,10 @@ import { EspalierError } from "../errors.js";
 import { importances } from "../interest/importance.js";
 import { addDiffCommand } from "./diff-command.js";
 import { effectiveOptions, printConfig, requireInput } from "./effective-options.js";
+import { printSqlCommand } from "./fact-input.js";
 import { SUMMARY_EXAMPLES } from "./help.js";
 import type { CliIO } from "./io.js";
 import { cliInputFormats, outputFormats, summaryOptionsSchema } from "./options.js";
-import { printSqlCommand } from "./fact-input.js";
 import { summaryCommand } from "./summary-command.js";
 
 export const VERSION = "0.1.0";

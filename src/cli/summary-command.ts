@@ -68,7 +68,10 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
 export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptions {
   const format = opts.inputFormat;
   if (format === "parquet" || format === "jsonl")
-    throw new EspalierError("USAGE", `--input-format ${format} is read as a fact table: give --levels or --key-field`);
+    throw new EspalierError(
+      "USAGE",
+      `--input-format ${format} is read as a fact table: give --levels or --key-field`,
+    );
   return {
     ...defaultLoadOptions,
     format,

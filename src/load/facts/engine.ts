@@ -29,17 +29,18 @@ const PACKAGE = "@duckdb/node-api";
  * Opens an in-memory instance of the embedded engine (DuckDB through `@duckdb/node-api`). The package
  * is an optional dependency with a native binary per platform: where it did not install, or its binary
  * does not load, this is ENGINE_MISSING with what to do, and nothing else in espalier is affected.
+ * `from` names the package (tests name one that is not there).
  */
-export async function openEngine(settings: EngineSettings = {}): Promise<Engine> {
+export async function openEngine(settings: EngineSettings = {}, from: string = PACKAGE): Promise<Engine> {
   let api: typeof import("@duckdb/node-api");
   try {
-    api = await import(PACKAGE);
+    api = await import(from);
   } catch (err) {
     throw new EspalierError(
       "ENGINE_MISSING",
-      `fact tables need the SQL engine package ${PACKAGE}, which is not installed or has no binary for ` +
+      `fact tables need the SQL engine package ${from}, which is not installed or has no binary for ` +
         `this platform (${process.platform}-${process.arch}): ${firstLine(err)}. ` +
-        `Install it with 'npm install ${PACKAGE}', or run the query printed by --print-sql elsewhere ` +
+        `Install it with 'npm install ${from}', or run the query printed by --print-sql elsewhere ` +
         "and read its result here",
     );
   }

@@ -77,7 +77,8 @@ async function keyDepth(engine: Engine, load: FactLoad): Promise<number> {
 }
 
 function requireColumns(columns: readonly string[], facts: FactOptions): void {
-  const wanted = facts.levels.length > 0 ? facts.levels : facts.keyField === undefined ? [] : [facts.keyField];
+  const wanted =
+    facts.levels.length > 0 ? facts.levels : facts.keyField === undefined ? [] : [facts.keyField];
   const missing = wanted.filter((name) => !columns.includes(name));
   if (missing.length > 0) {
     throw new EspalierError(
@@ -116,7 +117,9 @@ async function run(engine: Engine, sql: string, load: FactLoad, hasSize = false)
 async function readHeader(load: FactLoad): Promise<string[]> {
   let text: string;
   const handle = await open(load.file).catch((err: NodeJS.ErrnoException) => {
-    throw new EspalierError("IO", `cannot read ${load.file}: ${err.code ?? err.message}`, { file: load.file });
+    throw new EspalierError("IO", `cannot read ${load.file}: ${err.code ?? err.message}`, {
+      file: load.file,
+    });
   });
   try {
     const buffer = Buffer.alloc(1 << 20);

@@ -1,5 +1,5 @@
 import { EspalierError } from "../../errors.js";
-import { type FactOptions, ROLLUP_COLUMNS as C } from "./fact-options.js";
+import { ROLLUP_COLUMNS as C, type FactOptions } from "./fact-options.js";
 
 /**
  * The rollup query in standard SQL (ISO/IEC 9075:1999, GROUP BY ROLLUP with GROUPING, feature T431),

@@ -156,7 +156,11 @@ function build(
   }
   const fields = new Map<string, string[]>();
   for (const field of options.keepFields) {
-    if (field === "rows") fields.set(field, Array.from(rowsOf, (v) => String(v)));
+    if (field === "rows")
+      fields.set(
+        field,
+        Array.from(rowsOf, (v) => String(v)),
+      );
     if (field === "level" && options.levelNames.length > 0)
       fields.set(
         field,
@@ -267,11 +271,7 @@ function sizeValue(value: unknown): number {
 }
 
 function shape(message: string, r: number, options: RollupTreeOptions): EspalierError {
-  return new EspalierError(
-    "SHAPE",
-    message,
-    options.rowsAreInput && r >= 0 ? { row: r + 1 } : undefined,
-  );
+  return new EspalierError("SHAPE", message, options.rowsAreInput && r >= 0 ? { row: r + 1 } : undefined);
 }
 
 function duplicate(levels: readonly string[], first: number, r: number, options: RollupTreeOptions) {
