@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { importances } from "../interest/importance.js";
-import { inputFormats } from "../load/types.js";
+import { inputFormats } from "../load/load-options.js";
 
 /** Input formats on the command line: the tree formats, and the formats only fact tables come in. */
 export const cliInputFormats = [...inputFormats, "jsonl", "parquet"] as const;

@@ -1,5 +1,5 @@
 import { EspalierError } from "../../errors.js";
-import { checkSizes } from "../../model/checkSizes.js";
+import { checkSizes } from "../../model/check-sizes.js";
 import { NamePool } from "../../model/names.js";
 import type { Tree } from "../../model/tree.js";
 import type { Columns } from "./engine.js";
