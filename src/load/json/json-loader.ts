@@ -69,9 +69,20 @@ class Frame {
   childrenColumn = 0;
   /** Sink length when the current children value began; -1 when there is none. */
   childrenMark = -1;
-  /** Children by name: the keys seen, the children in input order, whether they need reordering. */
-  readonly keys = new Set<string>();
-  readonly children: number[] = [];
+  /**
+   * Children by name: the keys seen, the children in input order, whether they need reordering. Made
+   * when a level first holds children by name, so a chain a million levels deep costs no Set per level.
+   */
+  private keySet: Set<string> | null = null;
+  private childList: number[] | null = null;
+  get keys(): Set<string> {
+    this.keySet ??= new Set();
+    return this.keySet;
+  }
+  get children(): number[] {
+    this.childList ??= [];
+    return this.childList;
+  }
   reorder = false;
 }
 

@@ -2,8 +2,8 @@ import { EspalierError } from "../../../src/errors.js";
 import type { LoadOptions } from "../../../src/load/load-options.js";
 import { NodeSink } from "../../../src/load/node-sink.js";
 import { parseSize } from "../../../src/load/parse-size.js";
-import { PathPlacer } from "../../../src/load/table/path-placer.js";
 import type { LinkedNodes } from "../../../src/model/linked-nodes.js";
+import { PathPlacer } from "./path-placer-text.js";
 
 /**
  * Reads a path list a line at a time: one "/"-separated path per line, blank lines ignored. When the first

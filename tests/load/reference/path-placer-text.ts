@@ -1,6 +1,9 @@
-import { EspalierError } from "../../errors.js";
-import { ChildTable, doubled, hashStep, mix, seed } from "../../model/child-hash.js";
-import type { NodeSink } from "../node-sink.js";
+import { EspalierError } from "../../../src/errors.js";
+import type { NodeSink } from "../../../src/load/node-sink.js";
+import { ChildTable, doubled, hashStep, mix, seed } from "../../../src/model/child-hash.js";
+
+// The path placer on text (UTF-16 code units) espalier had before paths were placed as UTF-8 bytes
+// (src/load/path-placer.ts), kept for the reference path-list reader.
 
 const slash = 47;
 
