@@ -1,7 +1,7 @@
 import { Parser } from "commonmark";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { buildTree } from "../../src/model/build.js";
+import { buildTree } from "../../src/model/build-tree.js";
 import { markdownText } from "../../src/render/markdown-escape.js";
 import { shownLabel } from "../../src/render/safe-text.js";
 import { renderMarkdown } from "../../src/render/summary-markdown.js";
