@@ -41,9 +41,10 @@ export interface LayoutOptions {
 const MIN_LABEL = 8;
 
 /**
- * One line of text: `<indent><mark> [<tag> ]<label>  <numbers>  <fold>`, within `width` columns.
- * What gives way, in turn: the fold's numbers (`+3 more` stays), the tag's old path, the label (cut in
- * the middle, down to a few columns), the numbers, the fold, and last the end of the line itself.
+ * One line of text: `<indent><mark> <chain> / [<tag> ]<label>  <numbers>  <fold>`, within `width`
+ * columns; a diff's tag stands right before the name it belongs to (a chain's last). What gives way,
+ * in turn: the fold's numbers (`+3 more` stays), the tag's old path, the labels (cut in the middle,
+ * down to a few columns), the numbers, the fold, and last the end of the line itself.
  */
 export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
   const { width } = options;
@@ -51,12 +52,19 @@ export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
   const indent = "  ".repeat(p.level);
   const label = p.labels.join(CHAIN_JOIN);
   const style = p.role === "focus" ? pal.focus : p.role === "path" ? pal.path : (s: string) => s;
-  const plain = (label: string, tag: string, numbers: string, fold: string) =>
-    `${indent}${p.mark} ${tag ? `${tag} ` : ""}${label}${numbers ? `  ${numbers}` : ""}${fold ? `  ${fold}` : ""}`;
-  const styled = (label: string, tag: string, numbers: string, fold: string) =>
-    indent +
-    (tag ? `${style(p.mark)} ${pal.focus(tag)} ${style(label)}` : style(`${p.mark} ${label}`)) +
+  const tail = (numbers: string, fold: string) =>
     `${numbers ? `  ${pal.quiet(numbers)}` : ""}${fold ? `  ${pal.quiet(fold)}` : ""}`;
+  // The tag goes before the last name: split a (possibly shortened) chain text there.
+  const head = (text: string, tag: string, styled: boolean) => {
+    const s = styled ? style : (x: string) => x;
+    if (!tag) return s(`${p.mark} ${text}`);
+    const [before, last] = splitLast(text, p.labels);
+    return `${s(p.mark)} ${before ? s(before) : ""}${styled ? pal.focus(tag) : tag} ${s(last)}`;
+  };
+  const plain = (text: string, tag: string, numbers: string, fold: string) =>
+    `${indent}${head(text, tag, false)}${numbers ? `  ${numbers}` : ""}${fold ? `  ${fold}` : ""}`;
+  const styled = (text: string, tag: string, numbers: string, fold: string) =>
+    `${indent}${head(text, tag, true)}${tail(numbers, fold)}`;
   if (width === undefined || displayWidth(plain(label, p.tag, p.numbers, p.fold)) <= width)
     return styled(label, p.tag, p.numbers, p.fold);
   if (displayWidth(plain(label, p.tag, p.numbers, p.foldShort)) <= width)
@@ -73,4 +81,15 @@ export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
       return styled(shortenMiddle(label, room), tag, numbers, fold);
   }
   return style(shortenEnd(plain(label, p.shortTag, "", ""), width));
+}
+
+/**
+ * A chain's text split before its last name: the part up to and including the last join, and the
+ * rest. A text cut in the middle keeps its end, so the split still finds the last join when one
+ * survived; otherwise all of it counts as the last name.
+ */
+function splitLast(text: string, labels: string[]): [string, string] {
+  if (labels.length < 2) return ["", text];
+  const at = text.lastIndexOf(CHAIN_JOIN);
+  return at < 0 ? ["", text] : [text.slice(0, at + CHAIN_JOIN.length), text.slice(at + CHAIN_JOIN.length)];
 }

@@ -72,7 +72,7 @@ describe("renderDiffText(view, totals, options)", () => {
         "  > A / B / C  5 nodes, 5 B, net +4 B",
         "    - x  1 B",
         "    > [added +4 B] y  4 B",
-        "  > [resized +1 B] D / E / F  3 nodes, 3 B, net +1 B",
+        "  > D / E / [resized +1 B] F  3 nodes, 3 B, net +1 B",
         "",
       ].join("\n"),
     );
