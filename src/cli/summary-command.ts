@@ -50,14 +50,20 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
       lines: result.selection.lines,
       foci: result.fociPaths,
       labels: opts.label !== undefined,
+      ...(tree.reading ? { input: tree.reading } : {}),
     });
   }
-  if (opts.format === "svg") return renderSvg(result.view, { units: unitsFor(opts), sizes: tree.hasSizes });
+  if (opts.format === "svg")
+    return renderSvg(result.view, { units: unitsFor(opts, tree), sizes: tree.hasSizes });
   if (opts.format === "markdown") {
-    return renderMarkdown(result.view, { units: unitsFor(opts), sizes: tree.hasSizes, chains: opts.chains });
+    return renderMarkdown(result.view, {
+      units: unitsFor(opts, tree),
+      sizes: tree.hasSizes,
+      chains: opts.chains,
+    });
   }
   return renderText(result.view, {
-    units: unitsFor(opts),
+    units: unitsFor(opts, tree),
     sizes: tree.hasSizes,
     palette: palette(useColour(opts, io)),
     chains: opts.chains,
@@ -102,10 +108,10 @@ function baseName(path: string): string {
   return parts[parts.length - 1] || path;
 }
 
-/** Sizes print as bytes when the size field is called size or bytes, as plain numbers otherwise. */
-export function unitsFor(opts: SummaryCliOptions): Units {
+/** Sizes print as bytes when the loader says they count bytes (see src/load/size-unit.ts), else plain. */
+export function unitsFor(opts: SummaryCliOptions, tree: Tree): Units {
   if (opts.units !== "auto") return opts.units;
-  return ["size", "bytes"].includes(opts.sizeField.toLowerCase()) ? "bytes" : "plain";
+  return tree.reading?.sizeUnit === "bytes" ? "bytes" : "plain";
 }
 
 /** Colour only on a terminal, never with NO_COLOR set (no-color.org) or TERM=dumb, unless forced. */

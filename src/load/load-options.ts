@@ -26,6 +26,8 @@ export interface LoadOptions {
   rootName: string;
   /** Refuse inputs with more nodes than this (LIMIT_EXCEEDED). */
   maxNodes: number;
+  /** Path lists: entries end with a NUL byte, not a line break (`find -print0`, `git ls-files -z`). */
+  nulSeparated?: boolean;
 }
 
 export const defaultLoadOptions: LoadOptions = {

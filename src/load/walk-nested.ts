@@ -4,6 +4,7 @@ import { isSize } from "../model/size-rule.js";
 import { describeNode } from "./describe-node.js";
 import type { LoadOptions } from "./load-options.js";
 import { NodeSink } from "./node-sink.js";
+import { fieldSizeUnit } from "./size-unit.js";
 
 /** What a value in a parsed document is, as far as the walker cares. */
 export const Kind = { Null: 0, Number: 1, String: 2, Boolean: 3, Seq: 4, Map: 5, Other: 6 } as const;
@@ -171,7 +172,11 @@ export function walkNested<V>(root: V, access: NestedAccess<V>, options: LoadOpt
     }
     fields.set(keepFields[f], kept[f]);
   }
-  return sink.finish(options.rootName, fields);
+  return sink.finish(options.rootName, fields, null, {
+    shape: "nodes",
+    sizeUnit: fieldSizeUnit(options.sizeField),
+    childrenField,
+  });
 }
 
 function badSize(shown: string, where: string, pos: SourcePos | undefined): EspalierError {

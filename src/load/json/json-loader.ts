@@ -5,6 +5,7 @@ import { isSize } from "../../model/size-rule.js";
 import { describeNode } from "../describe-node.js";
 import type { LoadOptions } from "../load-options.js";
 import { NodeSink } from "../node-sink.js";
+import { fieldSizeUnit } from "../size-unit.js";
 import { linkTable } from "../table/link-table.js";
 import { rowsTable } from "../table/rows-table.js";
 import { JsonTokenizer, NUL, numberValue, TRUE } from "./json-tokenizer.js";
@@ -141,7 +142,7 @@ export class JsonLoader extends JsonTokenizer {
   /** Ends the input; the nodes, ready for `buildTree`. */
   end(): LinkedNodes {
     this.endTokens();
-    if (this.probe.rows) return linkTable(rowsTable(this.rows), this.options);
+    if (this.probe.rows) return linkTable(rowsTable(this.rows), this.options, "rows");
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the top-level array holds no nodes");
     for (let i = 0; i < sink.length && !sink.hasSizes; i++) if (this.sized[i] === 1) sink.hasSizes = true;
@@ -160,7 +161,11 @@ export class JsonLoader extends JsonTokenizer {
       }
       fields.set(keepFields[f], column as string[]);
     }
-    return sink.finish(this.options.rootName, fields);
+    return sink.finish(this.options.rootName, fields, null, {
+      shape: "nodes",
+      sizeUnit: fieldSizeUnit(this.options.sizeField),
+      childrenField: this.options.childrenField,
+    });
   }
 
   // ---------------------------------------------------------------------------------------------------

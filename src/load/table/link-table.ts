@@ -6,6 +6,7 @@ import type { LoadOptions } from "../load-options.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer } from "../path-placer.js";
+import { fieldSizeUnit } from "../size-unit.js";
 import { IdIndex } from "./id-index.js";
 import type { Cell, Table } from "./table.js";
 
@@ -15,7 +16,17 @@ import type { Cell, Table } from "./table.js";
  * A node's name is its name cell when that is not empty, else its id or last path segment.
  * Origins are data rows (1-based).
  */
-export function linkTable(table: Table, options: LoadOptions): LinkedNodes {
+export function linkTable(
+  table: Table,
+  options: LoadOptions,
+  shape: "table" | "rows" = "table",
+): LinkedNodes {
+  const linked = linkRows(table, options, shape);
+  linked.reading = { shape, sizeUnit: fieldSizeUnit(options.sizeField) };
+  return linked;
+}
+
+function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): LinkedNodes {
   if (table.length === 0) throw new EspalierError("INPUT_EMPTY", "the table has no data rows");
   const ids = table.column(options.idField);
   const parents = ids && table.column(options.parentField);
@@ -25,7 +36,10 @@ export function linkTable(table: Table, options: LoadOptions): LinkedNodes {
   throw new EspalierError(
     "FIELD_MISSING",
     `rows need "${options.idField}" and "${options.parentField}" columns, or a "${options.pathField}" column; ` +
-      `the columns are ${listNames(table.columnNames())}`,
+      `the columns are ${listNames(table.columnNames())}` +
+      (shape === "table"
+        ? "; a listing of sizes and paths (size, a tab, the path) reads with --input-format paths"
+        : ""),
   );
 }
 
