@@ -193,6 +193,11 @@ export class JsonLoader extends JsonTokenizer {
       }
       this.slot = found < 0 ? S_SKIP : S_FIELD;
       this.slotField = found;
+      if (found >= 0 && top === 1 && this.probe.undecided && (fields[found].mask & F_CHILDREN) !== 0) {
+        // The first element has children: the input is nodes, and that element need not be kept whole.
+        this.captures.open.shift();
+        this.probe.nodes();
+      }
     } else if (role === CHILD_MAP) {
       this.slotKey = this.text(bytes, q, e, absQ);
       this.slot = S_KEYED;
@@ -342,12 +347,6 @@ export class JsonLoader extends JsonTokenizer {
   protected open(i: number, object: boolean): void {
     const top = this.depth; // index of the new container
     if (top === this.role.length) this.growStack();
-    const captures = this.captures.open;
-    if (captures.length > 0 && captures[0].kind === C_PROBE && top >= 2) {
-      // A nested value in the first element: it is not a flat record, so the input is nodes.
-      captures.shift();
-      this.probe.nodes();
-    }
     let frame = this.frames[top];
     if (!frame) {
       frame = new Frame();
