@@ -14,7 +14,12 @@ import {
 import { EspalierError } from "../errors.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { LoadOptions } from "./load-options.js";
+import { chooseReading } from "./shape/choose-reading.js";
+import { sampleNested } from "./shape/sample-nested.js";
+import { linkPathMap, linkTable } from "./table/link-table.js";
+import { rowsTable } from "./table/rows-table.js";
 import { Kind, type NestedAccess, walkNested } from "./walk-nested.js";
+import { yamlValues } from "./yaml-values.js";
 
 type YamlValue = Node | null;
 
@@ -88,14 +93,21 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
   };
   const fieldOf = (map: YamlValue, key: string, depth: number): YamlValue | undefined => {
     if (!isMap(map) || depth > MAX_MERGE_DEPTH) return undefined;
-    for (const pair of map.items) if (!isMergeKey(pair.key) && keyText(pair.key) === key) return pair.value as YamlValue;
+    for (const pair of map.items)
+      if (!isMergeKey(pair.key) && keyText(pair.key) === key) return pair.value as YamlValue;
     for (const source of mergedOf(map)) {
       const found = fieldOf(source, key, depth + 1);
       if (found !== undefined) return found;
     }
     return undefined;
   };
-  const entriesOf = (map: YamlValue, keys: string[], values: YamlValue[], seen: Set<string>, depth: number) => {
+  const entriesOf = (
+    map: YamlValue,
+    keys: string[],
+    values: YamlValue[],
+    seen: Set<string>,
+    depth: number,
+  ) => {
     if (!isMap(map) || depth > MAX_MERGE_DEPTH) return;
     for (const pair of map.items) {
       if (isMergeKey(pair.key)) continue;
@@ -166,7 +178,59 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
       return true;
     },
   };
-  return walkNested<YamlValue>(root, access, options);
+  const reading = chooseReading(sampleNested<YamlValue>(root, access), options);
+  switch (reading.kind) {
+    case "values":
+      return yamlValues(root as Node, text, lineCounter, options);
+    case "rows": {
+      const items = access.items(root);
+      return linkTable(rowsTable(items.map((item) => recordOf(item, access))), options, "rows");
+    }
+    case "path-map": {
+      const map = reading.field === "" ? root : (access.field(root, reading.field) ?? null);
+      const keys: string[] = [];
+      const values: YamlValue[] = [];
+      access.entries(map, keys, values);
+      return linkPathMap(
+        keys,
+        values.map((value) => recordOf(value, access)),
+        options,
+        reading.field,
+      );
+    }
+    case "nodes":
+      return walkNested<YamlValue>(
+        root,
+        access,
+        { ...options, childrenField: reading.childrenField },
+        reading.found,
+      );
+  }
+}
+
+/**
+ * A mapping as a plain record for a table: scalars as their values, nested values as empty objects
+ * (a table reads only plain values; reading such a field is an error there, not a silent blank).
+ */
+function recordOf(value: YamlValue, access: NestedAccess<YamlValue>): Record<string, unknown> {
+  const record: Record<string, unknown> = {};
+  if (access.kind(value) !== Kind.Map) return record;
+  const keys: string[] = [];
+  const values: YamlValue[] = [];
+  access.entries(value, keys, values);
+  keys.forEach((key, k) => {
+    const v = values[k];
+    const kind = access.kind(v);
+    record[key] =
+      kind === Kind.Number
+        ? access.number(v)
+        : kind === Kind.String || kind === Kind.Boolean
+          ? access.text(v)
+          : kind === Kind.Null
+            ? null
+            : {};
+  });
+  return record;
 }
 
 /** How deep merges may nest (a merge of a mapping that merges one, …); deeper ones are not followed. */

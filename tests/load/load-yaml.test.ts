@@ -139,7 +139,15 @@ describe("loadTree(yaml) merge keys", () => {
   });
 
   it("loadTree(yaml) takes children keyed by name from a merged mapping too", () => {
-    const text = ["common: &common", "  lint: 4", "name: ci", "children:", "  <<: *common", "  test: 7", ""].join("\n");
+    const text = [
+      "common: &common",
+      "  lint: 4",
+      "name: ci",
+      "children:",
+      "  <<: *common",
+      "  test: 7",
+      "",
+    ].join("\n");
     expect(outline(yaml(text))).toEqual(["ci 0", "  test 7", "  lint 4"]);
   });
 });

@@ -39,8 +39,6 @@ export class PathListReader {
   private readonly placer: PathPlacer;
   /** The byte that ends an entry: "\n", or NUL. */
   private readonly separator: number;
-  /** The node an empty path named, -1 before one did. */
-  private root = -1;
 
   constructor(options: LoadOptions) {
     this.sink = new NodeSink(options.maxNodes, false);
@@ -86,12 +84,8 @@ export class PathListReader {
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the path list names no paths");
     sink.hasSizes = this.sized === true;
-    const root = this.root;
-    if (root !== -1) {
-      const { parentOf } = sink;
-      for (let i = 0; i < sink.length; i++) if (parentOf[i] === -1 && i !== root) parentOf[i] = root;
-      sink.name.setString(root, this.rootName);
-    }
+    const root = this.placer.adoptTopLevel();
+    if (root !== -1) sink.name.setString(root, this.rootName);
     return sink.finish(this.rootName, new Map(), null, { shape: "paths", sizeUnit: "bytes" });
   }
 
@@ -165,25 +159,8 @@ export class PathListReader {
       pathStart = at + 1;
     }
     let i = this.placer.place(bytes, view, pathStart, end, line);
-    if (i === -1) i = this.rootAt(line);
+    if (i === -1) i = this.placer.placeRoot(line);
     this.sink.ownSize[i] = size;
-  }
-
-  /** The root, named by a size with an empty path on `line`. */
-  private rootAt(line: number): number {
-    if (this.root !== -1) {
-      const first = this.sink.origin[this.root];
-      throw new EspalierError(
-        "DUPLICATE_PATH",
-        `line ${line} repeats the empty path (the root) of line ${first}`,
-        {
-          line,
-        },
-      );
-    }
-    // Named at the end: an empty name is never found as a top-level segment meanwhile.
-    this.root = this.sink.add(-1, "", line);
-    return this.root;
   }
 }
 

@@ -8,6 +8,7 @@ import { parseSize } from "../parse-size.js";
 import { PathPlacer } from "../path-placer.js";
 import { fieldSizeUnit } from "../size-unit.js";
 import { IdIndex } from "./id-index.js";
+import { rowsTable } from "./rows-table.js";
 import type { Cell, Table } from "./table.js";
 
 /**
@@ -136,16 +137,17 @@ function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptio
   const nodeOfRow = new Int32Array(n);
   for (let r = 0; r < n; r++) {
     const path = cellText(pathCells[r]);
-    const i = index.placeText(path, r + 1);
-    if (i === -1) {
-      throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${options.pathField}"`, { row: r + 1 });
-    }
+    // The empty path is the root, as a lock file's "" key (and a listing's start) name it.
+    let i = index.placeText(path, r + 1);
+    if (i === -1) i = index.placeRoot(r + 1);
     nodeOfRow[r] = i;
     const label = names ? cellText(names[r]) : "";
     if (label !== "") sink.name.setString(i, label);
     if (sizes) sink.ownSize[i] = sizeOf(sizes[r], table.textCells, r + 1, options.sizeField);
   }
   sink.hasSizes = sizes !== undefined;
+  const root = index.adoptTopLevel();
+  if (root !== -1 && isEmptyName(sink.name, root)) sink.name.setString(root, options.rootName);
   const fields = new Map<string, string[]>();
   for (const [key, byRow] of keep) {
     const byNode: string[] = new Array(sink.length).fill("");
@@ -200,4 +202,30 @@ function cellText(cell: Cell): string {
 
 function listNames(names: readonly string[]): string {
   return names.length === 0 ? "(none)" : names.map((name) => JSON.stringify(name)).join(", ");
+}
+
+/** The column a path map's keys are read from; no record field can be named so. */
+const PATH_KEY = "\u0000path";
+
+/**
+ * Records keyed by path (see JsonPathMapLoader) linked as rows by path: the key is the path, the
+ * record's fields are the row's other columns. `field` is where the map was (for the reading).
+ */
+export function linkPathMap(
+  keys: readonly string[],
+  records: readonly unknown[],
+  options: LoadOptions,
+  field: string,
+): LinkedNodes {
+  const rows = rowsTable(records);
+  const table: Table = {
+    length: rows.length,
+    textCells: false,
+    column: (name) => (name === PATH_KEY ? keys : rows.column(name)),
+    columnNames: () => rows.columnNames(),
+  };
+  if (table.length === 0) throw new EspalierError("INPUT_EMPTY", `the object keyed by path is empty`);
+  const linked = linkByPath(table, keys, { ...options, pathField: PATH_KEY });
+  linked.reading = { shape: "path-map", sizeUnit: fieldSizeUnit(options.sizeField), pathMapField: field };
+  return linked;
 }

@@ -2,7 +2,9 @@ import { describe, expect, it } from "vitest";
 import { loadTree } from "../../../src/load/index.js";
 import { caught, opts, outline } from "../helpers.js";
 
-const json = (text: string, overrides = {}) => loadTree(text, opts({ format: "json", ...overrides }));
+// Node objects, as the tests in this file read them (reading by the document: tests/load/shape).
+const json = (text: string, overrides = {}) =>
+  loadTree(text, opts({ format: "json", readAs: "nodes", ...overrides }));
 
 describe("loadTree(json)", () => {
   it("loadTree(json) reads children given as an array, in input order", () => {
