@@ -26,6 +26,14 @@ export const summaryOptionsSchema = z.object({
   inputFormat: z.enum(cliInputFormats).optional().describe("Input format (default: detected)."),
   nameField: z.string().min(1).default("name").describe("Field holding a node's name."),
   childrenField: z.string().min(1).default("children").describe("Field holding a node's children."),
+  readAs: z
+    .enum(["auto", "nodes", "values"])
+    .default("auto")
+    .describe("JSON/YAML: node objects, or every value a node (auto: as the document is shaped)."),
+  nulSeparated: z
+    .boolean()
+    .default(false)
+    .describe("Path lists: entries end with a NUL byte, not a line break."),
   sizeField: z.string().min(1).default("size").describe("Field holding a node's own size."),
   idField: z.string().min(1).default("id").describe("Column holding a row's id."),
   parentField: z.string().min(1).default("parent").describe("Column holding the parent's id."),

@@ -42,6 +42,15 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
     .option("--sql-table <name>", "table name in the --print-sql query", "facts")
     .option("--name-field <field>", "field holding a node's name", "name")
     .option("--children-field <field>", "field holding a node's children", "children")
+    .addOption(
+      new Option(
+        "--read-as <reading>",
+        "JSON/YAML: nodes (node objects), values (every value a node, sized in bytes); auto: by the document",
+      )
+        .choices(["auto", "nodes", "values"])
+        .default("auto"),
+    )
+    .option("--nul-separated", "path lists: entries end with a NUL byte (find -print0, git ls-files -z)")
     .option("--size-field <field>", "field holding a node's own size", "size")
     .option("--id-field <column>", "column holding a row's id", "id")
     .option("--parent-field <column>", "column holding the parent's id", "parent")
@@ -54,7 +63,7 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
     .addOption(
       new Option(
         "--units <units>",
-        "sizes as bytes (KiB, MiB) or plain numbers; auto: bytes when the size field is size",
+        "sizes as bytes (KiB, MiB) or plain numbers; auto: bytes for file sizes and document bytes",
       )
         .choices(["auto", "bytes", "plain"])
         .default("auto"),

@@ -91,6 +91,8 @@ export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptio
     keepFields: opts.label ? templateFields(opts.label) : [],
     rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
+    ...(opts.readAs === "auto" ? {} : { readAs: opts.readAs }),
+    ...(opts.nulSeparated ? { nulSeparated: true } : {}),
   };
 }
 

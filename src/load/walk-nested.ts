@@ -183,7 +183,8 @@ export function walkNested<V>(
     values.length = 0;
     access.entries(root, keys, values);
     const nested = keys.filter((key, k) => {
-      if (key === childrenField || key === nameField || key === sizeField || keepFields.includes(key)) return false;
+      if (key === childrenField || key === nameField || key === sizeField || keepFields.includes(key))
+        return false;
       const kind = access.kind(values[k]);
       return kind === Kind.Map || kind === Kind.Seq;
     });

@@ -14,7 +14,14 @@ export type Reading =
 
 type Fields = Pick<
   LoadOptions,
-  "nameField" | "sizeField" | "childrenField" | "idField" | "parentField" | "pathField" | "keepFields" | "readAs"
+  | "nameField"
+  | "sizeField"
+  | "childrenField"
+  | "idField"
+  | "parentField"
+  | "pathField"
+  | "keepFields"
+  | "readAs"
 >;
 
 /**
