@@ -19,11 +19,11 @@ export class JsonValueLoader extends JsonTokenizer {
   private readonly sink: NodeSink;
   // Open containers: the node, where its text starts, how many bytes its children's values take, the
   // index of its next element.
-  private node = new Int32Array(64);
+  private node = new Float64Array(64);
   private start = new Float64Array(64);
   private inner = new Float64Array(64);
   private nextIndex = new Float64Array(64);
-  private objectAt = new Uint8Array(64);
+  private objectAt = new Float64Array(64);
   // The key of the member whose value comes next: its bytes, or its text when it has escapes.
   private readonly keyBytes = new ByteBuffer();
   private keyText: string | null = null;
@@ -126,21 +126,16 @@ export class JsonValueLoader extends JsonTokenizer {
   }
 
   private grow(): void {
-    const n = this.node.length * 2;
-    const node = new Int32Array(n);
-    node.set(this.node);
-    this.node = node;
-    const start = new Float64Array(n);
-    start.set(this.start);
-    this.start = start;
-    const inner = new Float64Array(n);
-    inner.set(this.inner);
-    this.inner = inner;
-    const nextIndex = new Float64Array(n);
-    nextIndex.set(this.nextIndex);
-    this.nextIndex = nextIndex;
-    const objectAt = new Uint8Array(n);
-    objectAt.set(this.objectAt);
-    this.objectAt = objectAt;
+    this.node = twice(this.node);
+    this.start = twice(this.start);
+    this.inner = twice(this.inner);
+    this.nextIndex = twice(this.nextIndex);
+    this.objectAt = twice(this.objectAt);
   }
+}
+
+function twice(a: Float64Array): Float64Array {
+  const grown = new Float64Array(a.length * 2);
+  grown.set(a);
+  return grown;
 }

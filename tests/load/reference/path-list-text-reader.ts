@@ -20,7 +20,6 @@ export class PathListTextReader {
   private firstLine = 0;
   private line = 0;
   private root = -1;
-  private rootName = "";
 
   constructor(options: LoadOptions) {
     this.sink = new NodeSink(options.maxNodes, false);
