@@ -134,7 +134,7 @@ export class JsonValueLoader extends JsonTokenizer {
   }
 }
 
-function twice(a: Float64Array): Float64Array {
+function twice(a: Float64Array): Float64Array<ArrayBuffer> {
   const grown = new Float64Array(a.length * 2);
   grown.set(a);
   return grown;
