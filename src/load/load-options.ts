@@ -32,6 +32,11 @@ export interface LoadOptions {
    * (src/load/shape/choose-reading.ts).
    */
   readAs?: "nodes" | "values";
+  /**
+   * The children field was named on purpose: never look for another one (nor for a map keyed by path)
+   * when it is absent. A children field other than the default counts as named.
+   */
+  childrenFieldNamed?: boolean;
   /** Path lists: entries end with a NUL byte, not a line break (`find -print0`, `git ls-files -z`). */
   nulSeparated?: boolean;
 }

@@ -22,6 +22,7 @@ type Fields = Pick<
   | "pathField"
   | "keepFields"
   | "readAs"
+  | "childrenFieldNamed"
 >;
 
 /**
@@ -50,7 +51,8 @@ export function chooseReading(sample: Sample | undefined, fields: Fields): Readi
     (has(first, fields.idField) || has(first, fields.parentField) || has(first, fields.pathField))
   )
     return { kind: "rows" };
-  const discover = fields.childrenField === defaultLoadOptions.childrenField;
+  const discover =
+    fields.childrenField === defaultLoadOptions.childrenField && fields.childrenFieldNamed !== true;
   if (discover && sample !== undefined) {
     if (sample.kind === "object" && isPathMap(sample)) return { kind: "path-map", field: "" };
     if (first !== undefined) {

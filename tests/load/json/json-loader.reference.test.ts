@@ -18,9 +18,11 @@ import {
   utf8,
 } from "../stream/helpers.js";
 
-// The reference reads node objects (or rows): so do the byte loaders here. Reading by the document
-// (values, a found children field, a path map) has its own tests in tests/load/shape.
-const opts = (overrides: Partial<LoadOptions> = {}) => allOptions({ readAs: "nodes", ...overrides });
+// The reference reads node objects under the children field (or rows): so do the byte loaders here.
+// Reading by the document (values, a found children field, a path map) has its own tests in
+// tests/load/shape.
+const opts = (overrides: Partial<LoadOptions> = {}) =>
+  allOptions({ readAs: "nodes", childrenFieldNamed: true, ...overrides });
 
 // Names that stress the tokenizer: escapes, multi-byte characters (2, 3 and 4 bytes), a lone surrogate
 // (JSON allows it escaped), names like array indices (JSON.parse puts those keys first), path characters.

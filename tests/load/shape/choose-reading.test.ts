@@ -78,6 +78,13 @@ describe("chooseReading(sample, fields)", () => {
       childrenField: "children",
       found: false,
     });
+    // The default field named on purpose: no search either.
+    expect(
+      choose('{"name":"r","dependencies":{"a":{"dependencies":{}}}}', {
+        childrenFieldNamed: true,
+        readAs: "nodes",
+      }),
+    ).toEqual({ kind: "nodes", childrenField: "children", found: false });
     // Another children field named: no search, so a lone root becomes the loader's error, not a guess.
     expect(
       choose('{"name":"r","dependencies":{"a":{"dependencies":{}}}}', { childrenField: "kids" }),
