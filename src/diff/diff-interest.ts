@@ -1,4 +1,4 @@
-import { type Interest, interest } from "../interest/doi.js";
+import { fromArrays, type Interest, interest } from "../interest/doi.js";
 import type { Tree } from "../model/tree.js";
 
 /** Interest for a diff: changed nodes score as foci do, but only the user's foci are forced. */
@@ -34,10 +34,7 @@ export function diffInterest(
       forcedNodes.push(a);
     }
   return {
-    value: scores.value,
-    distance: scores.distance,
-    forced,
-    forcedNodes: Int32Array.from(forcedNodes).sort(),
+    ...fromArrays(scores.value, scores.distance, forced, Int32Array.from(forcedNodes).sort()),
     onChangePath,
   };
 }
