@@ -1,4 +1,5 @@
 import type { Tree } from "../model/tree.js";
+import { NodeTable } from "./node-table.js";
 import { FAR, type Scores } from "./scores.js";
 
 /**
@@ -24,20 +25,26 @@ export function interestNear(tree: Tree, api: Float64Array, foci: Int32Array): S
   }
   // Upward from each focus, as in doi.ts: the focus term M and the distance down to a focus of every
   // forced node, kept by slot (slot.get(node)); a walk stops where an earlier one left better values.
-  const slot = new Map<number, number>();
-  const nodes: number[] = [];
-  const term: number[] = [];
-  const dist: number[] = [];
+  const slot = new NodeTable(64);
+  let nodes = new Int32Array(64);
+  let term = new Float64Array(64);
+  let dist = new Int32Array(64);
+  let used = 0;
   for (const y of foci) {
     const t = -depth[y] - api[y];
     for (let a = y, d = 0; a !== -1; a = parent[a], d++) {
       let k = slot.get(a);
-      if (k === undefined) {
-        k = nodes.length;
+      if (k === -1) {
+        if (used === nodes.length) {
+          nodes = grown(nodes, new Int32Array(used * 2));
+          term = grown(term, new Float64Array(used * 2));
+          dist = grown(dist, new Int32Array(used * 2));
+        }
+        k = used++;
         slot.set(a, k);
-        nodes.push(a);
-        term.push(Number.NEGATIVE_INFINITY);
-        dist.push(FAR);
+        nodes[k] = a;
+        term[k] = Number.NEGATIVE_INFINITY;
+        dist[k] = FAR;
       } else if (t <= term[k] && d >= dist[k]) break;
       if (t > term[k]) term[k] = t;
       if (d < dist[k]) dist[k] = d;
@@ -45,29 +52,30 @@ export function interestNear(tree: Tree, api: Float64Array, foci: Int32Array): S
   }
   // Downward over the forced nodes in pre-order (parents first): best ancestor term, distance through
   // the parent, and the interest itself.
-  const forcedNodes = Int32Array.from(nodes).sort();
-  const best = new Float64Array(nodes.length);
-  const value = new Float64Array(nodes.length);
+  const forcedNodes = nodes.slice(0, used).sort();
+  const best = new Float64Array(used);
+  const value = new Float64Array(used);
   for (const x of forcedNodes) {
-    const k = slot.get(x)!;
+    const k = slot.get(x);
     if (x === 0) {
       best[k] = term[k];
       value[k] = api[0] + best[k];
       continue;
     }
-    const pk = slot.get(parent[x])!;
+    const pk = slot.get(parent[x]);
     best[k] = Math.max(2 * depth[x] + term[k], best[pk]);
     value[k] = api[x] - depth[x] + best[k];
     if (dist[pk] + 1 < dist[k]) dist[k] = dist[pk] + 1;
   }
   // Each other node asked about: the slot of its nearest forced ancestor, found once.
-  const near = new Map<number, number>();
+  const near = new NodeTable();
   const anchor = (x: number): number => {
     let k = near.get(x);
-    if (k !== undefined) return k;
+    if (k !== -1) return k;
     for (let a = parent[x]; ; a = parent[a]) {
-      k = slot.get(a) ?? near.get(a);
-      if (k !== undefined) break;
+      k = slot.get(a);
+      if (k === -1) k = near.get(a);
+      if (k !== -1) break;
     }
     near.set(x, k);
     return k;
@@ -76,14 +84,19 @@ export function interestNear(tree: Tree, api: Float64Array, foci: Int32Array): S
     forcedNodes,
     interestOf(x) {
       const k = slot.get(x);
-      return k !== undefined ? value[k] : api[x] - depth[x] + best[anchor(x)];
+      return k !== -1 ? value[k] : api[x] - depth[x] + best[anchor(x)];
     },
     distanceOf(x) {
       const k = slot.get(x);
-      if (k !== undefined) return dist[k];
+      if (k !== -1) return dist[k];
       const f = anchor(x);
       return dist[f] + depth[x] - depth[nodes[f]];
     },
-    isForced: (x) => slot.has(x),
+    isForced: (x) => slot.get(x) !== -1,
   };
+}
+
+function grown<T extends Int32Array | Float64Array>(from: T, to: T): T {
+  to.set(from);
+  return to;
 }
