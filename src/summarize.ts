@@ -6,7 +6,7 @@ import { interestNear } from "./interest/near.js";
 import { childrenByDepthOrder, nodeOrder } from "./interest/order.js";
 import type { Scores } from "./interest/scores.js";
 import { type Measures, measure } from "./model/measure.js";
-import { NAME_TABLE_MIN, PathIndex } from "./model/paths.js";
+import { NAME_TABLE_MIN, PathIndex } from "./model/path-index.js";
 import { hiddenIds, pseudonym } from "./model/pseudonym.js";
 import { escapeSegment } from "./model/segment.js";
 import type { Tree } from "./model/tree.js";
