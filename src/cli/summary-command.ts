@@ -2,10 +2,7 @@ import { EspalierError } from "../errors.js";
 import { defaultLoadOptions, type LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
 import type { Tree } from "../model/tree.js";
-import { renderJson } from "../render/json.js";
-import { renderMarkdown } from "../render/markdown.js";
 import { palette } from "../render/palette.js";
-import { renderSvg } from "../render/svg.js";
 import { renderText } from "../render/text.js";
 import type { Units } from "../render/units.js";
 import { prepare, summarize } from "../summarize.js";
@@ -41,6 +38,8 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     chains: opts.chains,
   });
   if (opts.format === "json") {
+    // Each other output format is loaded when asked for: a start loads only what the run needs.
+    const { renderJson } = await import("../render/json.js");
     return renderJson(result.view, {
       budget,
       lines: result.selection.lines,
@@ -48,8 +47,12 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
       labels: opts.label !== undefined,
     });
   }
-  if (opts.format === "svg") return renderSvg(result.view, { units: unitsFor(opts), sizes: tree.hasSizes });
+  if (opts.format === "svg") {
+    const { renderSvg } = await import("../render/svg.js");
+    return renderSvg(result.view, { units: unitsFor(opts), sizes: tree.hasSizes });
+  }
   if (opts.format === "markdown") {
+    const { renderMarkdown } = await import("../render/markdown.js");
     return renderMarkdown(result.view, { units: unitsFor(opts), sizes: tree.hasSizes, chains: opts.chains });
   }
   return renderText(result.view, {

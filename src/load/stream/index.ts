@@ -6,7 +6,6 @@ import type { Tree } from "../../model/tree.js";
 import { detectFormat } from "../detect-format.js";
 import { linkTable } from "../link-table.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
-import { loadYaml } from "../load-yaml.js";
 import { csvStreamTable } from "./csv-stream-table.js";
 import { JsonStreamLoader } from "./json-stream-loader.js";
 import { pathListStream } from "./path-list-stream.js";
@@ -66,8 +65,11 @@ async function linkedNodes(
     }
     case "paths":
       return pathListStream(chunks, options);
-    case "yaml":
+    case "yaml": {
+      // The YAML parser is loaded only for YAML input (a start reads no code it does not run).
+      const { loadYaml } = await import("../load-yaml.js");
       return loadYaml(await wholeText(chunks), options);
+    }
   }
 }
 
