@@ -39,9 +39,9 @@ function linkedNodes(body: string, format: LoadOptions["format"] & string, optio
     case "yaml":
       return loadYaml(body, options);
     case "csv":
-      return linkTable(csvTable(body, ",", options.maxNodes), options);
+      return linkTable(csvTable(body, ",", options), options);
     case "tsv":
-      return linkTable(csvTable(body, "\t", options.maxNodes), options);
+      return linkTable(csvTable(body, "\t", options), options);
     case "paths":
       return loadPathList(body, options);
   }
