@@ -117,8 +117,7 @@ export class CsvTableReader implements CsvSink {
 
   field(column: number, bytes: Uint8Array, start: number, end: number): void {
     if (this.header === undefined) {
-      this.route[column] = undefined;
-      (this.headerCells ??= [])[column] = this.text(bytes, start, end);
+      this.headerCells[column] = this.text(bytes, start, end);
       return;
     }
     const keep = this.route[column];
@@ -130,15 +129,15 @@ export class CsvTableReader implements CsvSink {
 
   record(fields: number, line: number): boolean {
     if (this.header === undefined) {
-      this.startTable(this.headerCells ?? [], fields, line);
-      this.headerCells = undefined;
+      this.startTable(this.headerCells, fields, line);
+      this.headerCells = [];
       return false;
     }
     this.rows++;
     return this.rows > this.maxRows;
   }
 
-  private headerCells: string[] | undefined;
+  private headerCells: string[] = [];
 
   private startTable(cells: string[], fields: number, line: number): void {
     const header = cells.slice(0, fields).map((name) => name.trim());
