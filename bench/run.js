@@ -86,14 +86,15 @@ log(
 
 let firstManifest;
 for (const nodes of options.diffOnly || options.big ? [] : options.sizes) {
-  const manifest = ensureData({ nodes, formats: options.only, force: options.forceData, log });
+  const treeFormats = options.only.filter((f) => FORMATS.includes(f));
+  const manifest = ensureData({ nodes, formats: treeFormats, force: options.forceData, log });
   firstManifest ??= manifest;
   const foci = manifest.foci;
   log(`${nodes.toLocaleString("en-US")} nodes; foci: ${foci.join("  |  ")}`);
   const entry = {
     data: {
       ...manifest,
-      files: Object.fromEntries(options.only.map((f) => [f, relative(repoRoot, manifest.files[f])])),
+      files: Object.fromEntries(treeFormats.map((f) => [f, relative(repoRoot, manifest.files[f])])),
     },
     formats: {},
   };
