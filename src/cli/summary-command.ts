@@ -2,9 +2,9 @@ import { EspalierError } from "../errors.js";
 import { defaultLoadOptions, type LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
 import type { Tree } from "../model/tree.js";
+import type { Units } from "../render/format-size.js";
 import { palette } from "../render/palette.js";
-import { renderText } from "../render/text.js";
-import type { Units } from "../render/units.js";
+import { renderText } from "../render/summary-text.js";
 import { prepare, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
 import { isFactInput, loadFactInput } from "./fact-input.js";
@@ -43,7 +43,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   });
   if (opts.format === "json") {
     // Each other output format is loaded when asked for: a start loads only what the run needs.
-    const { renderJson } = await import("../render/json.js");
+    const { renderJson } = await import("../render/summary-json.js");
     return renderJson(result.view, {
       budget,
       lines: result.selection.lines,
@@ -52,11 +52,11 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     });
   }
   if (opts.format === "svg") {
-    const { renderSvg } = await import("../render/svg.js");
+    const { renderSvg } = await import("../render/icicle-svg.js");
     return renderSvg(result.view, { units: unitsFor(opts), sizes: tree.hasSizes });
   }
   if (opts.format === "markdown") {
-    const { renderMarkdown } = await import("../render/markdown.js");
+    const { renderMarkdown } = await import("../render/summary-markdown.js");
     return renderMarkdown(result.view, { units: unitsFor(opts), sizes: tree.hasSizes, chains: opts.chains });
   }
   return renderText(result.view, {
