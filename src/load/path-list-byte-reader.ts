@@ -220,12 +220,12 @@ export class PathListByteReader {
    */
   private child(parent: number, bytes: Buffer, s: number, e: number, hash: number, origin: number): number {
     const { sink } = this;
-    const { slots, slotHashes } = this.table;
+    const { slots, hashes } = this.table;
     const mask = slots.length - 1;
     let h = mix(hash) & mask;
     for (let slot = slots[h]; slot !== 0; slot = slots[h]) {
       const node = slot - 1;
-      if (slotHashes[h] === hash && sink.parentOf[node] === parent) {
+      if (hashes[node] === hash && sink.parentOf[node] === parent) {
         // The bytes are valid UTF-8 (see `lines`), so equal names are equal bytes.
         if (sink.name.equalsBytes(node, bytes, s, e)) {
           this.created = false;

@@ -125,13 +125,13 @@ export class PathPlacer {
    */
   private child(parent: number, text: string, s: number, e: number, hash: number, origin: number): number {
     const { sink } = this;
-    const { slots, slotHashes } = this.table;
+    const { slots, hashes } = this.table;
     const mask = slots.length - 1;
     const length = e - s;
     let h = mix(hash) & mask;
     for (let slot = slots[h]; slot !== 0; slot = slots[h]) {
       const node = slot - 1;
-      if (slotHashes[h] === hash && sink.parentOf[node] === parent) {
+      if (hashes[node] === hash && sink.parentOf[node] === parent) {
         const name = this.keys[node];
         if (name.length === length) {
           let k = 0;

@@ -17,6 +17,18 @@ export function mix(hash: number): number {
   return hash ^ (hash >>> 15);
 }
 
+/** A table twice the size of `slots` holding nodes 0..n-1 by their stored hashes. */
+export function rehashed(slots: Int32Array, hashes: Int32Array, n: number): Int32Array<ArrayBuffer> {
+  const grown = new Int32Array(slots.length * 2);
+  const mask = grown.length - 1;
+  for (let node = 0; node < n; node++) {
+    let h = mix(hashes[node]) & mask;
+    while (grown[h] !== 0) h = (h + 1) & mask;
+    grown[h] = node + 1;
+  }
+  return grown;
+}
+
 /** An Int32Array twice as long with the same prefix. */
 export function doubled(a: Int32Array): Int32Array<ArrayBuffer> {
   const grown = new Int32Array(a.length * 2);
@@ -25,40 +37,20 @@ export function doubled(a: Int32Array): Int32Array<ArrayBuffer> {
 }
 
 /**
- * The table itself: `slots[h]` = node + 1 (0 when empty), at most half full, and beside it
- * `slotHashes[h]`, the hash of that slot's node. Readers probe both directly in their own loops (on text
- * or on bytes) and call {@link ChildTable.add} at the empty slot a probe ended on. A probe compares the
- * hash kept in the slot before it reads anything of the node: in a table of millions, a per-node hash
- * array read at random cost a cache miss per slot probed (the 10M path list's slowest part).
+ * The table itself: `slots[h]` = node + 1 (0 when empty), at most half full, and each node's hash so a
+ * rehash reads one array. Readers probe `slots` and `hashes` directly in their own loops (on text or on
+ * bytes) and call {@link ChildTable.add} at the empty slot a probe ended on.
  */
 export class ChildTable {
   slots = new Int32Array(2048);
-  slotHashes = new Int32Array(2048);
+  hashes = new Int32Array(1024);
 
   /** Records node `node` (the `count`-th node, numbered from 0) with `hash` in empty slot `h`. */
   add(node: number, hash: number, h: number, count: number): void {
+    while (node >= this.hashes.length) this.hashes = doubled(this.hashes);
+    this.hashes[node] = hash;
     this.slots[h] = node + 1;
-    this.slotHashes[h] = hash;
-    if (count * 2 > this.slots.length) this.grow();
-  }
-
-  /** Twice the slots, every node placed again by its kept hash (the old slots read in order). */
-  private grow(): void {
-    const { slots, slotHashes } = this;
-    const grown = new Int32Array(slots.length * 2);
-    const grownHashes = new Int32Array(slots.length * 2);
-    const mask = grown.length - 1;
-    for (let k = 0; k < slots.length; k++) {
-      const slot = slots[k];
-      if (slot === 0) continue;
-      const hash = slotHashes[k];
-      let h = mix(hash) & mask;
-      while (grown[h] !== 0) h = (h + 1) & mask;
-      grown[h] = slot;
-      grownHashes[h] = hash;
-    }
-    this.slots = grown;
-    this.slotHashes = grownHashes;
+    if (count * 2 > this.slots.length) this.slots = rehashed(this.slots, this.hashes, count);
   }
 }
 
