@@ -1,4 +1,4 @@
-import { EspalierError } from "../errors.js";
+import { EspalierError } from "../../errors.js";
 
 /** Receives the records a {@link CsvScanner} finds, field by field, as byte ranges. */
 export interface CsvSink {

@@ -1,8 +1,8 @@
 import { Buffer } from "node:buffer";
-import { EspalierError } from "../errors.js";
-import { NamePool, namesToArray } from "../model/names.js";
+import { EspalierError } from "../../errors.js";
+import { NamePool, namesToArray } from "../../model/names.js";
+import type { LoadOptions } from "../load-options.js";
 import { CsvScanner, type CsvSink } from "./csv-scanner.js";
-import type { LoadOptions } from "./load-options.js";
 import type { Table } from "./table.js";
 
 /** The columns a table loader reads. */

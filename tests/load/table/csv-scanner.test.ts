@@ -4,8 +4,8 @@ import { dirname, join } from "node:path";
 import { csvParseRows, tsvParseRows } from "d3-dsv";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { EspalierError } from "../../src/errors.js";
-import { CsvScanner } from "../../src/load/csv-scanner.js";
+import { EspalierError } from "../../../src/errors.js";
+import { CsvScanner } from "../../../src/load/table/csv-scanner.js";
 
 /** Every record as decoded strings, the chunks cut at `cuts`. */
 function scan(bytes: Uint8Array, delimiter = ",", cuts: readonly number[] = []): string[][] {
