@@ -16,7 +16,7 @@
 
 import { constants } from "node:buffer";
 import { createHash } from "node:crypto";
-import { createReadStream, statSync, writeFileSync } from "node:fs";
+import { createReadStream, existsSync, statSync, writeFileSync } from "node:fs";
 import { open, readFile } from "node:fs/promises";
 import { Session } from "node:inspector/promises";
 import { totalmem } from "node:os";
@@ -165,7 +165,12 @@ async function cliModules() {
     import(CLI("options")),
     import(new URL("../dist/render/palette.js", import.meta.url)),
   ]);
-  const { loadInWorker } = await import(CLI("load-in-worker"));
+  // loadInWorker as bin/espalier.js hands it over: from the bundle (its worker starts from the
+  // bundle's load-worker.js), unless the compiled modules are newer (then, as bin does, from them).
+  const bundle = new URL("../dist/bundle/espalier.js", import.meta.url);
+  const modules = new URL("../dist/cli/launch.js", import.meta.url);
+  const fresh = existsSync(bundle) && statSync(bundle).mtimeMs >= statSync(modules).mtimeMs;
+  const { loadInWorker } = await import(fresh ? bundle : CLI("load-in-worker"));
   return { ...command, ...stream, ...progress, ...options, ...palette, loadInWorker };
 }
 
