@@ -152,7 +152,7 @@ export class CsvScanner {
           const c = bytes[q];
           if (c !== delimiter && c !== LF && c !== CR)
             throw this.error(
-              `a closing quote is followed by ${JSON.stringify(String.fromCharCode(c))} instead of a delimiter or a line break`,
+              "a closing quote is followed by other text instead of a delimiter or a line break",
             );
         }
       } else {
