@@ -4,6 +4,7 @@ import { importances } from "../interest/importance.js";
 import { inputFormats } from "../load/types.js";
 import { addDiffCommand } from "./diff-command.js";
 import { effectiveOptions, printConfig, requireInput } from "./effective-options.js";
+import { addExploreCommand } from "./explore-command.js";
 import { SUMMARY_EXAMPLES } from "./help.js";
 import type { CliIO } from "./io.js";
 import { outputFormats, summaryOptionsSchema } from "./options.js";
@@ -88,5 +89,6 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
       onOutput(await summaryCommand(requireInput(input), parsed.data, io));
     });
   addDiffCommand(program, io, onOutput);
+  addExploreCommand(program, io, onOutput);
   return program;
 }

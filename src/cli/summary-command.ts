@@ -112,7 +112,7 @@ export function defaultBudget(io: CliIO): number {
   return DEFAULT_BUDGET;
 }
 
-function pseudonymKey(opts: SummaryCliOptions, io: CliIO): string | undefined {
+export function pseudonymKey(opts: SummaryCliOptions, io: CliIO): string | undefined {
   if (!opts.pseudonymize) return undefined;
   const key = io.env[PSEUDONYM_KEY_ENV];
   if (!key) {
