@@ -111,7 +111,7 @@ function helpRows(scroll: number, rows: number, cols: number, colour: boolean): 
   }
   const height = rows - 1;
   const top = Math.max(0, Math.min(scroll, body.length - height));
-  const shown = body.slice(top, top + height);
+  const shown = body.slice(top, top + height).map((row) => shortenEnd(row, cols));
   while (shown.length < height) shown.push("");
   const more = top + height < body.length ? "Down: more" : "";
   const status = joinEnds("any other key closes the help", more, cols);
