@@ -244,6 +244,8 @@ export function runView(
   return new Promise<Ending>((resolve, reject) => {
     let state = start;
     let done = false;
+    // A file being written when the view is left is finished first.
+    let pending: Promise<unknown> = Promise.resolve();
     const signals = ["SIGINT", "SIGTERM", "SIGHUP"] as const;
     const onSignal = (signal: NodeJS.Signals) => {
       leave();
@@ -271,11 +273,12 @@ export function runView(
         const request = state.request;
         if (request !== null && request.kind !== "write") {
           leave();
-          resolve({ kind: request.kind, state });
+          const ending: Ending = { kind: request.kind, state };
+          void pending.then(() => resolve(ending));
           return;
         }
         paint();
-        if (request?.kind === "write") void effects.write(request.file, state).then(dispatch, onCrash);
+        if (request?.kind === "write") pending = effects.write(request.file, state).then(dispatch, onCrash);
       } catch (err) {
         onCrash(err);
       }
