@@ -137,10 +137,14 @@ describe("espalier explore", () => {
     const terminal = new FakeTerminal(["\u001b[D", "w", erase, file, "\r", "q"]);
     await exploreCommand(ORG, undefined, options({ focus: ["Q2417"] }), io(), { terminal });
     const written = readFileSync(file, "utf8");
-    expect(written.split("\n").filter((l) => l !== "").length).toBe(2);
+    // The parent of Q2417 (the cursor, after Left) and Q2417 itself (pinned, as given on the command line).
+    expect(written).toBe(
+      "Arjun Yarford/Sofia Emberrian/Thea Corrquist/Dov Larton/Esme Orby\n" +
+        "Arjun Yarford/Sofia Emberrian/Thea Corrquist/Dov Larton/Esme Orby/Marit Okonkwo-Lund\n",
+    );
     const again = await cli([ORG, "--parent-field", "manager", "--focus-from", file, "--budget", "23"]);
     expect(again.code).toBe(0);
-
+    expect(again.stdout).toContain("* Esme Orby");
   });
 
   it("restores the terminal and rethrows when the view fails (a crash mid-session)", async () => {
