@@ -14,7 +14,13 @@ export interface Found {
   readonly invalid: boolean;
 }
 
-type Step = { any: true } | { any: false; parts: Uint8Array[] };
+/** A name pattern's literal parts (split at `*`), with the KMP failure table of each. */
+interface Parts {
+  readonly bytes: Uint8Array[];
+  readonly fail: Int32Array[];
+}
+
+type Step = { any: true } | { any: false; parts: Parts };
 
 const MAX_STEPS = 30;
 const encoder = new TextEncoder();
@@ -158,7 +164,8 @@ function compile(query: string): Step[] {
   return raw.map((segment): Step => {
     if (segment === "**") return { any: true };
     const { name } = parseSegment(segment.replace(/\*/g, "\u0000"));
-    return { any: false, parts: name.split("\u0000").map((part) => encoder.encode(lowerAscii(part))) };
+    const bytes = name.split("\u0000").map((part) => encoder.encode(lowerAscii(part)));
+    return { any: false, parts: { bytes, fail: bytes.map(failureTable) } };
   });
 }
 
@@ -166,19 +173,25 @@ function lowerAscii(text: string): string {
   return text.replace(/[A-Z]/g, (c) => c.toLowerCase());
 }
 
-/** Whether bytes [s, e) match the parts of a `*` pattern: first at the start, last at the end. */
-function matches(b: Uint8Array, s: number, e: number, parts: Uint8Array[]): boolean {
-  const first = parts[0];
-  if (parts.length === 1) return e - s === first.length && equalAt(b, s, first);
+/**
+ * Whether bytes [s, e) match a `*` pattern: the first part at the start, the last at the end, the others
+ * leftmost-first in between, each found by Knuth-Morris-Pratt ("Fast pattern matching in strings",
+ * SIAM J. Comput. 6(2), 1977), so a test is linear in the name whatever the pattern. UTF-8 synchronises
+ * itself: the bytes of a whole character sequence only match on character boundaries.
+ */
+function matches(b: Uint8Array, s: number, e: number, parts: Parts): boolean {
+  const { bytes, fail } = parts;
+  const first = bytes[0];
+  if (bytes.length === 1) return e - s === first.length && equalAt(b, s, first);
   if (e - s < first.length || !equalAt(b, s, first)) return false;
-  const last = parts[parts.length - 1];
+  const last = bytes[bytes.length - 1];
   const tail = e - last.length;
   let pos = s + first.length;
   if (tail < pos || !equalAt(b, tail, last)) return false;
-  for (let k = 1; k < parts.length - 1; k++) {
-    const at = indexIn(b, pos, tail, parts[k]);
+  for (let k = 1; k < bytes.length - 1; k++) {
+    const at = search(b, pos, tail, bytes[k], fail[k]);
     if (at < 0) return false;
-    pos = at + parts[k].length;
+    pos = at + bytes[k].length;
   }
   return true;
 }
@@ -188,11 +201,25 @@ function equalAt(b: Uint8Array, at: number, part: Uint8Array): boolean {
   return true;
 }
 
-/** First position in [from, to) where `part` starts and ends by `to`, or -1. */
-function indexIn(b: Uint8Array, from: number, to: number, part: Uint8Array): number {
-  const last = to - part.length;
-  if (part.length === 0) return from <= to ? from : -1;
-  const c0 = part[0];
-  for (let at = from; at <= last; at++) if (b[at] === c0 && equalAt(b, at, part)) return at;
+/** KMP failure table: fail[k] is the longest proper border of part[0..k]. */
+function failureTable(part: Uint8Array): Int32Array {
+  const fail = new Int32Array(part.length);
+  for (let i = 1, k = 0; i < part.length; i++) {
+    while (k > 0 && part[i] !== part[k]) k = fail[k - 1];
+    if (part[i] === part[k]) k++;
+    fail[i] = k;
+  }
+  return fail;
+}
+
+/** Leftmost start in [from, to) where `part` lies wholly before `to`, or -1. */
+function search(b: Uint8Array, from: number, to: number, part: Uint8Array, fail: Int32Array): number {
+  const m = part.length;
+  if (m === 0) return from;
+  for (let i = from, k = 0; i < to; i++) {
+    while (k > 0 && b[i] !== part[k]) k = fail[k - 1];
+    if (b[i] === part[k]) k++;
+    if (k === m) return i - m + 1;
+  }
   return -1;
 }
