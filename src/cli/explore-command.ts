@@ -10,7 +10,7 @@ import { draw } from "../explore/screen.js";
 import { diffSession, type Session, summarySession } from "../explore/session.js";
 import type { ExploreState } from "../explore/state.js";
 import { ENTER, frame, LEAVE } from "../explore/terminal.js";
-import { type ExploreEvent, fociOf, STATUS_ROWS, startState, update } from "../explore/update.js";
+import { type ExploreEvent, fociOf, needsWork, STATUS_ROWS, startState, update } from "../explore/update.js";
 import { resolveFoci } from "../focus/resolve.js";
 import { palette } from "../render/palette.js";
 import { prepare } from "../summarize.js";
@@ -266,6 +266,7 @@ export function runView(
       process.off("exit", onExit);
     }
     const paint = () => terminal.write(frame(draw(session, state, colour).rows));
+    let schedule = () => {};
     const dispatch = (event: ExploreEvent) => {
       if (done) return;
       try {
@@ -278,6 +279,7 @@ export function runView(
           return;
         }
         paint();
+        schedule();
         if (request?.kind === "write") pending = effects.write(request.file, state).then(dispatch, onCrash);
       } catch (err) {
         onCrash(err);
@@ -299,19 +301,24 @@ export function runView(
       onCrash(err);
       return;
     }
-    // Pseudonyms are hashed in slices between keys, so a search can cover every name.
-    let lastNews = 0;
-    const index = () => {
+    // Between keys: pseudonyms are hashed in slices (so a search can cover every name), and a search's
+    // matches are counted in slices; a key always comes before the next slice.
+    let queued = false;
+    const quiet = () => {
+      queued = false;
       if (done) return;
-      const complete = session.search.advance(400);
-      const now = performance.now();
-      if (complete || now - lastNews > 250) {
-        lastNews = now;
-        dispatch({ kind: "indexed" });
-      }
-      if (!complete) setImmediate(index);
+      if (session.search.searchable < session.tree.length) session.search.advance(400);
+      if (needsWork(session, state)) dispatch({ kind: "work" });
+      schedule();
     };
-    if (session.search.progress < 1) setImmediate(index);
+    schedule = () => {
+      if (done || queued) return;
+      if (session.search.searchable < session.tree.length || needsWork(session, state)) {
+        queued = true;
+        setImmediate(quiet);
+      }
+    };
+    schedule();
   });
 }
 

@@ -59,17 +59,22 @@ function statusRow(session: Session, state: ExploreState, cols: number, colour: 
   let left: string;
   let right: string;
   if (mode.kind === "search") {
-    const { found } = mode;
     left = `/${safeText(mode.query)}`;
-    const at = found.matches.indexOf(state.spec.cursor);
-    right = found.invalid
+    const n = session.tree.length;
+    const hashing = session.search.searchable < n;
+    const counted = mode.countedTo >= n && !hashing;
+    right = mode.invalid
       ? "~ must be followed by 0 or 1"
-      : mode.query === ""
+      : mode.pattern === null
         ? "type a name or pattern"
-        : found.matches.length === 0
-          ? "no match"
-          : `${at + 1} of ${found.matches.length}`;
-    if (!found.complete) right += ` (names hashed: ${Math.floor(session.search.progress * 100)}%)`;
+        : counted
+          ? mode.count === 0
+            ? "no match"
+            : `${mode.count.toLocaleString("en")} ${mode.count === 1 ? "match" : "matches"}`
+          : mode.matched
+            ? `${mode.count.toLocaleString("en")}+ matches, counting`
+            : "searching";
+    if (hashing) right += ` (names hashed: ${Math.floor(session.search.progress * 100)}%)`;
   } else if (mode.kind === "write") {
     left = `write foci to: ${safeText(mode.file)}`;
     right = "Enter writes, Esc cancels";

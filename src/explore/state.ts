@@ -1,5 +1,5 @@
 import type { Importance } from "../interest/importance.js";
-import type { Found } from "./search.js";
+import type { Pattern } from "./search.js";
 
 /** A focus added beside the moving one: pinned by hand, or a child that entered when a fold opened. */
 export interface ExtraFocus {
@@ -25,11 +25,23 @@ export type Mode =
       readonly kind: "search";
       readonly query: string;
       readonly before: ViewSpec;
-      /** What the query matches so far (see NameSearch.find). */
-      readonly found: Found;
+      /** The compiled query; null while empty or invalid. */
+      readonly pattern: Pattern | null;
+      /** The query is not a valid pattern (yet): a `~` waits for its 0 or 1. */
+      readonly invalid: boolean;
+      /** Whether the view follows a match (else it stays where the search began). */
+      readonly matched: boolean;
+      /** Matches counted among the nodes below `countedTo` (counting goes on in slices, see Work). */
+      readonly count: number;
+      readonly countedTo: number;
     }
   /** Typing the name of the file to write the foci to. */
   | { readonly kind: "write"; readonly file: string };
+
+/** What n and N visit. */
+export type Found =
+  | { readonly kind: "list"; readonly label: string; readonly matches: Int32Array }
+  | { readonly kind: "query"; readonly pattern: Pattern };
 
 /** What the terminal edge must do after this state: nothing, write a file, or leave. */
 export type Request =
@@ -48,8 +60,8 @@ export interface ExploreState {
   /** Earlier specs, the most recent last. */
   readonly undo: readonly ViewSpec[];
   readonly mode: Mode;
-  /** The last search's matches (n and N visit them), or a diff's changes before any search. */
-  readonly found: { readonly query: string; readonly matches: Int32Array; readonly complete: boolean } | null;
+  /** What n and N visit: the last search, or a diff's changes before any search. */
+  readonly found: Found | null;
   /** A line for the status bar about the last key, until the next one. */
   readonly message: string | null;
   readonly request: Request;

@@ -2,24 +2,28 @@ import { EspalierError } from "../errors.js";
 import type { Importance } from "../interest/importance.js";
 import { actionOf } from "./key-map.js";
 import type { Key } from "./keys.js";
-import type { Found } from "./search.js";
+import { compilePattern, type Pattern } from "./search.js";
 import type { Fitted, Session } from "./session.js";
 import { type ExploreState, type ExtraFocus, type Mode, UNDO_DEPTH, type ViewSpec } from "./state.js";
 
-const NOTHING: Found = { matches: new Int32Array(0), complete: true, invalid: false };
+/** Nodes a counting slice looks at: one `work` event's share (see needsWork). */
+export const COUNT_SLICE = 65536;
 
 /** Columns left of every tree line for the cursor mark. */
 export const GUTTER = 2;
 /** Rows under the tree: the status bar. */
 export const STATUS_ROWS = 1;
 
-/** Something that happened at the terminal: a key, a new size, a finished write, more names indexed. */
+/**
+ * Something that happened at the terminal: a key, a new size, a finished write, or a moment of quiet
+ * to go on counting a search's matches (and look again where pseudonyms were hashed meanwhile).
+ */
 export type ExploreEvent =
   | Key
   | { readonly kind: "resize"; readonly rows: number; readonly cols: number }
   | { readonly kind: "written"; readonly file: string; readonly foci: number }
   | { readonly kind: "write-failed"; readonly file: string; readonly reason: string }
-  | { readonly kind: "indexed" };
+  | { readonly kind: "work" };
 
 export interface StartOptions {
   rows: number;
@@ -45,7 +49,8 @@ export function startState(session: Session, start: StartOptions): ExploreState 
     spec,
     undo: [],
     mode: { kind: "browse" },
-    found: session.landmarks.length > 0 ? { query: "", matches: session.landmarks, complete: true } : null,
+    found:
+      session.landmarks.length > 0 ? { kind: "list", label: "changes", matches: session.landmarks } : null,
     message: null,
     request: null,
     fociFile: start.fociFile,
@@ -84,7 +89,7 @@ export function update(session: Session, state: ExploreState, event: ExploreEven
       return { ...s, message: `wrote ${event.foci} ${event.foci === 1 ? "focus" : "foci"} to ${event.file}` };
     if (event.kind === "write-failed")
       return { ...s, message: `could not write ${event.file}: ${event.reason}` };
-    return refreshSearch(session, s);
+    return work(session, s);
   }
   const mode = s.mode;
   if (mode.kind === "help") return helpKey(s, mode.scroll, event);
@@ -163,16 +168,30 @@ function browseKey(session: Session, s: ExploreState, key: Key): ExploreState {
       return go(around(nodes, here, action === "next-extra" ? 1 : -1));
     }
     case "search":
-      return { ...s, mode: { kind: "search", query: "", before: spec, found: NOTHING } };
+      return {
+        ...s,
+        mode: {
+          kind: "search",
+          query: "",
+          before: spec,
+          pattern: null,
+          invalid: false,
+          matched: false,
+          count: 0,
+          countedTo: 0,
+        },
+      };
     case "next-match":
     case "previous-match": {
       const found = s.found;
-      if (found === null || found.matches.length === 0)
-        return {
-          ...s,
-          message: found === null ? "no search yet: / searches" : `no match for ${found.query}`,
-        };
-      return go(around(found.matches, here, action === "next-match" ? 1 : -1));
+      if (found === null) return { ...s, message: "no search yet: / searches" };
+      const dir = action === "next-match" ? 1 : -1;
+      if (found.kind === "list") {
+        if (found.matches.length === 0) return { ...s, message: `no ${found.label}` };
+        return go(around(found.matches, here, dir));
+      }
+      const to = nextMatch(session, found.pattern, here, dir);
+      return to < 0 ? { ...s, message: `no match for ${found.pattern.query}` } : go(to);
     }
     case "importance":
       return move(session, s, { ...spec, importance: spec.importance === "depth" ? "size" : "depth" });
@@ -272,14 +291,10 @@ function searchKey(
     case "ctrl-c":
       return { ...s, mode: { kind: "browse" }, spec: mode.before };
     case "enter": {
-      const { found } = mode;
       const kept: ExploreState = {
         ...s,
         mode: { kind: "browse" },
-        found:
-          mode.query === ""
-            ? s.found
-            : { query: mode.query, matches: found.matches, complete: found.complete },
+        found: mode.pattern === null ? s.found : { kind: "query", pattern: mode.pattern },
       };
       if (s.spec === mode.before) return kept;
       const undo = [...s.undo, mode.before];
@@ -290,28 +305,80 @@ function searchKey(
   }
 }
 
-/** The search's state for `query`: the cursor on the first match at or after where the search began. */
+/**
+ * The search's state for `query`: the view follows the first match at or after the node where the
+ * search began (wrapping), and the first slice of matches is counted.
+ */
 function follow(session: Session, s: ExploreState, query: string, before: ViewSpec): ExploreState {
-  const found = session.search.find(query);
-  const typed: ExploreState = { ...s, mode: { kind: "search", query, before, found } };
-  const { matches } = found;
-  if (matches.length === 0) return { ...typed, spec: before };
-  const target = atOrAfter(matches, before.cursor);
-  if (target === s.spec.cursor && s.spec !== before) return typed;
-  const next: ViewSpec = { ...before, cursor: target };
-  const fitted = fitOf(session, next, s.rows, s.cols);
-  if (fitted instanceof EspalierError) return { ...typed, spec: before, message: tooSmall(fitted) };
-  return { ...typed, spec: next };
+  let pattern: Pattern | null = null;
+  let invalid = false;
+  try {
+    pattern = compilePattern(query);
+  } catch (err) {
+    if (!(err instanceof EspalierError)) throw err;
+    invalid = true;
+  }
+  const mode = {
+    kind: "search",
+    query,
+    before,
+    pattern,
+    invalid,
+    matched: false,
+    count: 0,
+    countedTo: 1,
+  } as const;
+  return countSlice(session, look(session, { ...s, spec: before, mode }));
 }
 
-/** More names became searchable (pseudonyms are hashed in slices): the search looks again. */
-function refreshSearch(session: Session, s: ExploreState): ExploreState {
-  if (s.mode.kind === "search") return follow(session, s, s.mode.query, s.mode.before);
-  if (s.found && !s.found.complete && s.found.query !== "") {
-    const found = session.search.find(s.found.query);
-    return { ...s, found: { query: s.found.query, matches: found.matches, complete: found.complete } };
-  }
-  return s;
+/** Moves the view to the first match at or after where the search began, when there is one. */
+function look(session: Session, s: ExploreState): ExploreState {
+  const mode = s.mode;
+  if (mode.kind !== "search" || mode.pattern === null) return s;
+  const { before } = mode;
+  let target = session.search.next(mode.pattern, before.cursor - 1, 1);
+  if (target < 0) target = session.search.next(mode.pattern, 0, 1, before.cursor);
+  if (target < 0) return s;
+  const next: ViewSpec = { ...before, cursor: target };
+  const fitted = fitOf(session, next, s.rows, s.cols);
+  if (fitted instanceof EspalierError)
+    return { ...s, mode: { ...mode, matched: true }, message: tooSmall(fitted) };
+  return { ...s, spec: next, mode: { ...mode, matched: true } };
+}
+
+/** Counts the matches of the next slice of nodes. */
+function countSlice(session: Session, s: ExploreState): ExploreState {
+  const mode = s.mode;
+  if (mode.kind !== "search" || mode.pattern === null) return s;
+  const to = Math.min(mode.countedTo + COUNT_SLICE, session.search.searchable);
+  if (to <= mode.countedTo) return s;
+  const count = mode.count + session.search.countIn(mode.pattern, mode.countedTo, to);
+  return { ...s, mode: { ...mode, count, countedTo: to } };
+}
+
+/** Whether a search still has matches to count or names to wait for: the edge then sends `work`. */
+export function needsWork(session: Session, s: ExploreState): boolean {
+  const mode = s.mode;
+  return (
+    mode.kind === "search" &&
+    mode.pattern !== null &&
+    (mode.countedTo < session.tree.length || session.search.searchable < session.tree.length)
+  );
+}
+
+/** A quiet moment: count on, and look for a first match among names hashed since. */
+function work(session: Session, s: ExploreState): ExploreState {
+  const mode = s.mode;
+  if (mode.kind !== "search") return s;
+  return countSlice(session, mode.matched ? s : look(session, s));
+}
+
+/** The next match after (dir 1) or before (dir -1) node `x`, wrapping; -1 when nothing matches. */
+function nextMatch(session: Session, pattern: Pattern, x: number, dir: 1 | -1): number {
+  const { search } = session;
+  const found = search.next(pattern, x, dir);
+  if (found >= 0) return found;
+  return dir === 1 ? search.next(pattern, 0, 1, x + 1) : search.next(pattern, search.searchable, -1, x - 1);
 }
 
 function writeKey(s: ExploreState, file: string, key: Key): ExploreState {
