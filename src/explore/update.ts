@@ -7,7 +7,7 @@ import type { Fitted, Session } from "./session.js";
 import { type ExploreState, type ExtraFocus, type Mode, UNDO_DEPTH, type ViewSpec } from "./state.js";
 
 /** Nodes a counting slice looks at: one `work` event's share (see needsWork). */
-export const COUNT_SLICE = 65536;
+export const COUNT_SLICE = 8192;
 
 /** Columns left of every tree line for the cursor mark. */
 export const GUTTER = 2;
