@@ -191,13 +191,13 @@ type FitFn = Session["fit"];
  * The last few fits, by their arguments: a screen is drawn after every key, and a move is first tried
  * (does the new focus path fit?) before it is taken, so the same fit is asked for several times.
  */
-function remember(fit: FitFn): FitFn {
+function remember(compute: FitFn): FitFn {
   const recent: { key: string; value: Fitted }[] = [];
   return (foci, budget, importance, width) => {
     const key = `${foci.join(",")}|${budget}|${importance}|${width}`;
     const hit = recent.find((r) => r.key === key);
     if (hit) return hit.value;
-    const value = fit(foci, budget, importance, width);
+    const value = compute(foci, budget, importance, width);
     recent.unshift({ key, value });
     if (recent.length > 4) recent.pop();
     return value;

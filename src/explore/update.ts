@@ -429,12 +429,6 @@ function indexIn(list: Int32Array, x: number): number {
   return lo;
 }
 
-/** The first of the sorted `list` at or after `x`, wrapping to the first. */
-function atOrAfter(list: Int32Array, x: number): number {
-  const at = indexIn(list, x);
-  return list[at] >= x ? list[at] : list[0];
-}
-
 /** The next (dir 1) or previous (dir -1) element of the sorted `list` around `x`, wrapping. */
 function around(list: Int32Array, x: number, dir: 1 | -1): number {
   const at = indexIn(list, x);
