@@ -11,7 +11,7 @@ import { ensureData } from "./generate.js";
 
 const root = join(dirname(fileURLToPath(import.meta.url)), "..");
 const dist = (p) => import(join(root, "dist", p));
-const { defaultLoadOptions } = await dist("load/types.js");
+const { defaultLoadOptions } = await dist("load/load-options.js");
 const { loadTree } = await dist("load/index.js");
 const { prepare } = await dist("summarize.js");
 const { summarySession } = await dist("explore/session.js");

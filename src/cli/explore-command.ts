@@ -14,17 +14,25 @@ import { type ExploreEvent, fociOf, needsWork, STATUS_ROWS, startState, update }
 import { resolveFoci } from "../focus/resolve.js";
 import { palette } from "../render/palette.js";
 import { prepare } from "../summarize.js";
-import { load, loadBoth } from "./diff-command.js";
+import { loadBoth } from "./diff-command.js";
 import { effectiveOptions } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
 import type { CliIO } from "./io.js";
 import { type SummaryCliOptions, summaryOptionsSchema } from "./options.js";
 import { readInput } from "./read-input.js";
-import { pseudonymKey, toLoadOptions, unitsFor, useColour } from "./summary-command.js";
+import { loadInput, pseudonymKey, toLoadOptions, unitsFor, useColour } from "./summary-command.js";
 import { writeOutput } from "./write-output.js";
 
 /** Options that make no sense for a screen: it has its own budget, format and output. */
-const NOT_HERE = new Set(["--budget", "--format", "--output", "--print-config", "--version"]);
+const NOT_HERE = new Set([
+  "--budget",
+  "--format",
+  "--output",
+  "--print-config",
+  "--print-sql",
+  "--sql-table",
+  "--version",
+]);
 
 /**
  * Registers `espalier explore INPUT` (and `espalier explore OLD NEW`, which explores their diff) on the
@@ -116,7 +124,7 @@ export async function exploreCommand(
   };
   let session: Session;
   if (newInput === undefined) {
-    session = summarySession(prepare(await load(io, input, toLoadOptions(input, opts))), look);
+    session = summarySession(prepare(await loadInput(io, input, opts)), look);
   } else {
     if (input === "-" && newInput === "-")
       throw new EspalierError("USAGE", "only one of the two versions can come from standard input");
@@ -153,29 +161,34 @@ export async function exploreCommand(
   return { text: `${commandLine(head, paths, end.state.rows - STATUS_ROWS, tail)}\n`, exitCode: EXIT.ok };
 }
 
-/** The options that shape the tree, its labels and its numbers, as arguments, when not the defaults. */
+/** Options the printed command line sets itself, or that do not change what it prints. */
+const NOT_PRINTED = new Set([
+  "focus",
+  "focusFrom",
+  "budget",
+  "importance",
+  "format",
+  "output",
+  "width",
+  "color",
+  "printSql",
+  "sqlTable",
+]);
+
+/**
+ * The options that shape the tree, its labels and its numbers, as arguments, where they differ from
+ * the defaults (whether they came from flags or a config file, so the line stands on its own).
+ */
 function shapeArgs(opts: SummaryCliOptions): string[] {
-  const defaults = summaryOptionsSchema.parse({});
+  const defaults: Record<string, unknown> = summaryOptionsSchema.parse({});
   const args: string[] = [];
-  const keys = [
-    "inputFormat",
-    "nameField",
-    "childrenField",
-    "sizeField",
-    "idField",
-    "parentField",
-    "pathField",
-    "units",
-    "label",
-    "maxNodes",
-  ] as const;
-  for (const k of keys) {
-    const value = opts[k];
-    if (value === undefined || value === defaults[k]) continue;
-    args.push(`--${k.replace(/[A-Z]/g, (c) => `-${c.toLowerCase()}`)}`, String(value));
+  for (const [key, value] of Object.entries(opts)) {
+    if (NOT_PRINTED.has(key) || value === undefined || value === defaults[key]) continue;
+    const flag = key.replace(/[A-Z]/g, (c) => `-${c.toLowerCase()}`);
+    if (value === true) args.push(`--${flag}`);
+    else if (value === false) args.push(`--no-${flag}`);
+    else args.push(`--${flag}`, String(value));
   }
-  if (opts.pseudonymize) args.push("--pseudonymize");
-  if (!opts.chains) args.push("--no-chains");
   return args;
 }
 

@@ -1,6 +1,6 @@
 import { EspalierError } from "../errors.js";
+import { defaultLoadOptions, type LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
-import { defaultLoadOptions, type LoadOptions } from "../load/types.js";
 import type { Tree } from "../model/tree.js";
 import { renderJson } from "../render/json.js";
 import { renderMarkdown } from "../render/markdown.js";
@@ -10,6 +10,7 @@ import { renderText } from "../render/text.js";
 import type { Units } from "../render/units.js";
 import { prepare, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
+import { isFactInput, loadFactInput } from "./fact-input.js";
 import type { CliIO } from "./io.js";
 import { DEFAULT_BUDGET, PSEUDONYM_KEY_ENV, type SummaryCliOptions } from "./options.js";
 import { withProgress } from "./progress.js";
@@ -21,16 +22,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   const foci = [...opts.focus];
   if (opts.focusFrom !== undefined) foci.push(...(await readFociFile(io, opts.focusFrom, input)));
   const key = pseudonymKey(opts, io);
-  const loadOptions = toLoadOptions(input, opts);
-  const source = await readInputStream(io, input);
-  let tree: Tree;
-  try {
-    // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
-    const chunks = withProgress(source.chunks, io, displayName(input), source.size);
-    tree = await loadTreeFromStream(chunks, loadOptions);
-  } catch (err) {
-    throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
-  }
+  const tree = await loadInput(io, input, opts);
   const budget = opts.budget ?? defaultBudget(io);
   const result = summarize(prepare(tree), {
     foci,
@@ -61,10 +53,29 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   });
 }
 
+/** Loads one input as every command does: a fact table rolled up, else any tree format, streamed. */
+export async function loadInput(io: CliIO, input: string, opts: SummaryCliOptions): Promise<Tree> {
+  try {
+    if (isFactInput(opts)) return await loadFactInput(input, opts, rootNameOf(input));
+    const source = await readInputStream(io, input);
+    // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
+    const chunks = withProgress(source.chunks, io, displayName(input), source.size);
+    return await loadTreeFromStream(chunks, toLoadOptions(input, opts));
+  } catch (err) {
+    throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
+  }
+}
+
 export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptions {
+  const format = opts.inputFormat;
+  if (format === "parquet" || format === "jsonl")
+    throw new EspalierError(
+      "USAGE",
+      `--input-format ${format} is read as a fact table: give --levels or --key-field`,
+    );
   return {
     ...defaultLoadOptions,
-    format: opts.inputFormat,
+    format,
     file: input === "-" ? undefined : input,
     nameField: opts.nameField,
     childrenField: opts.childrenField,
@@ -73,9 +84,14 @@ export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptio
     parentField: opts.parentField,
     pathField: opts.pathField,
     keepFields: opts.label ? templateFields(opts.label) : [],
-    rootName: input === "-" ? "(stdin)" : baseName(input),
+    rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
   };
+}
+
+/** The name of a root espalier adds: the input file's base name, `(stdin)` for standard input. */
+export function rootNameOf(input: string): string {
+  return input === "-" ? "(stdin)" : baseName(input);
 }
 
 export function displayName(input: string): string {

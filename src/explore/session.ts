@@ -6,7 +6,7 @@ import type { Selection } from "../fit/select.js";
 import type { Importance } from "../interest/importance.js";
 import { type NodeOrder, nodeOrder } from "../interest/order.js";
 import type { Measures } from "../model/measure.js";
-import type { PathIndex } from "../model/paths.js";
+import type { PathIndex } from "../model/path-index.js";
 import { pseudonym } from "../model/pseudonym.js";
 import { escapeSegment } from "../model/segment.js";
 import type { Tree } from "../model/tree.js";

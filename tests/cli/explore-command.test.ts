@@ -11,7 +11,7 @@ import { summarySession } from "../../src/explore/session.js";
 import { ENTER, ERASE_LINE, HOME, LEAVE } from "../../src/explore/terminal.js";
 import { startState } from "../../src/explore/update.js";
 import { loadTree } from "../../src/load/index.js";
-import { defaultLoadOptions } from "../../src/load/types.js";
+import { defaultLoadOptions } from "../../src/load/load-options.js";
 import { namesToArray } from "../../src/model/names.js";
 import { prepare } from "../../src/summarize.js";
 import { cli } from "../helpers/cli.js";
@@ -169,7 +169,7 @@ describe("espalier explore", () => {
     await expect(
       runView(failing, start, terminal, false, {
         size: () => ({ rows: 24, cols: 80 }),
-        write: async () => ({ kind: "indexed" }),
+        write: async () => ({ kind: "work" }),
       }),
     ).rejects.toThrow("boom");
     expect(terminal.written.endsWith(LEAVE)).toBe(true);

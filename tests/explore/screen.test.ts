@@ -7,7 +7,7 @@ import { summarySession } from "../../src/explore/session.js";
 import { type ExploreEvent, startState, update } from "../../src/explore/update.js";
 import { resolveFoci } from "../../src/focus/resolve.js";
 import { loadTree } from "../../src/load/index.js";
-import { defaultLoadOptions } from "../../src/load/types.js";
+import { defaultLoadOptions } from "../../src/load/load-options.js";
 import { namesToArray } from "../../src/model/names.js";
 import { displayWidth } from "../../src/render/fit-width.js";
 import { palette } from "../../src/render/palette.js";

@@ -1,0 +1,74 @@
+import { EspalierError } from "../errors.js";
+import { defaultLoadOptions, type InputFormat, type LoadOptions } from "./load-options.js";
+import { isRowsValue } from "./rows-shape.js";
+
+type FieldNames = Pick<LoadOptions, "childrenField" | "idField" | "parentField" | "pathField">;
+
+const byExtension: ReadonlyArray<[string, InputFormat]> = [
+  [".yaml", "yaml"],
+  [".yml", "yaml"],
+  [".csv", "csv"],
+  [".tsv", "tsv"],
+  [".tab", "tsv"],
+  [".paths", "paths"],
+  [".txt", "paths"],
+  [".lst", "paths"],
+];
+
+/**
+ * The format of `text`: by the file's extension first (".json" is JSON or rows by content), then by
+ * content: "{" or "[" starts JSON; a first line whose tab- or comma-separated cells name the id, parent
+ * or path field is a TSV or CSV header; a first line like "key:" (or "---") is YAML; anything else is a
+ * path list. Whitespace-only text is INPUT_EMPTY.
+ */
+export function detectFormat(
+  text: string,
+  file: string | undefined,
+  fields: FieldNames = defaultLoadOptions,
+): InputFormat {
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  const first = body.search(/\S/);
+  if (first === -1) throw new EspalierError("INPUT_EMPTY", "the input is empty", file ? { file } : undefined);
+  const name = file && file !== "-" ? file.toLowerCase() : "";
+  if (name.endsWith(".json")) return jsonKind(body, first, fields);
+  for (const [extension, format] of byExtension) if (name.endsWith(extension)) return format;
+
+  if (body[first] === "{" || body[first] === "[") return jsonKind(body, first, fields);
+  const lineEnd = body.indexOf("\n");
+  const firstLine = body.slice(0, lineEnd === -1 ? body.length : lineEnd).replace(/\r$/, "");
+  const names = [fields.idField, fields.parentField, fields.pathField];
+  const header = (delimiter: string) =>
+    firstLine.split(delimiter).some((cell) => names.includes(cell.trim().replace(/^"(.*)"$/, "$1")));
+  if (firstLine.includes("\t") && header("\t")) return "tsv";
+  if (firstLine.includes(",") && header(",")) return "csv";
+  if (looksLikeYaml(body)) return "yaml";
+  return "paths";
+}
+
+/** "rows" when the first element of a top-level array is a flat record with the id, parent or path field. */
+function jsonKind(body: string, first: number, fields: FieldNames): "json" | "rows" {
+  if (body[first] !== "[") return "json";
+  const open = body.indexOf("{", first);
+  if (open === -1 || body.slice(first + 1, open).trim() !== "") return "json";
+  const close = body.indexOf("}", open);
+  if (close === -1) return "json";
+  try {
+    // Only a flat first record parses on its own; a nested node object is cut at its first "}".
+    return isRowsValue([JSON.parse(body.slice(open, close + 1))], fields) ? "rows" : "json";
+  } catch {
+    return "json";
+  }
+}
+
+/** The first line that is not blank or a comment is "---", a directive, "key:" or "- key:". */
+function looksLikeYaml(body: string): boolean {
+  for (let start = 0; start < body.length; ) {
+    const end = body.indexOf("\n", start);
+    const line = body.slice(start, end === -1 ? body.length : end).replace(/\r$/, "");
+    start = end === -1 ? body.length : end + 1;
+    if (line.trim() === "" || line.trimStart().startsWith("#")) continue;
+    if (line === "---" || line.startsWith("--- ") || line.startsWith("%YAML")) return true;
+    return /^(?:-\s+)?(?:"[^"]*"|'[^']*'|[^\s#'"-][^:#]*?|-[^\s:#][^:#]*?)\s*:(?:\s|$)/.test(line);
+  }
+  return false;
+}

@@ -1,0 +1,188 @@
+import { EspalierError } from "../errors.js";
+import type { LinkedNodes } from "../model/linked-nodes.js";
+import { copyName, isEmptyName, NamePool } from "../model/names.js";
+import { isSize } from "../model/size-rule.js";
+import { IdIndex } from "./id-index.js";
+import type { LoadOptions } from "./load-options.js";
+import { limitExceeded, NodeSink } from "./node-sink.js";
+import { parseSize } from "./parse-size.js";
+import { PathPlacer } from "./path-placer.js";
+import type { Cell, Table } from "./table.js";
+
+/**
+ * Links table rows into nodes: by id and parent columns when the table has both (an empty parent makes a
+ * top-level row), else by a path column (ancestors created implicitly), else FIELD_MISSING.
+ * A node's name is its name cell when that is not empty, else its id or last path segment.
+ * Origins are data rows (1-based).
+ */
+export function linkTable(table: Table, options: LoadOptions): LinkedNodes {
+  if (table.length === 0) throw new EspalierError("INPUT_EMPTY", "the table has no data rows");
+  const ids = table.column(options.idField);
+  const parents = ids && table.column(options.parentField);
+  if (ids && parents) return linkById(table, ids, parents, options);
+  const paths = table.column(options.pathField);
+  if (paths) return linkByPath(table, paths, options);
+  throw new EspalierError(
+    "FIELD_MISSING",
+    `rows need "${options.idField}" and "${options.parentField}" columns, or a "${options.pathField}" column; ` +
+      `the columns are ${listNames(table.columnNames())}`,
+  );
+}
+
+function linkById(
+  table: Table,
+  idCells: readonly Cell[],
+  parentCells: readonly Cell[],
+  options: LoadOptions,
+) {
+  const n = table.length;
+  if (n > options.maxNodes) throw limitExceeded(options.maxNodes, true, options.maxNodes + 1);
+  const keep = keptColumns(table, options);
+  const pooled = table.pooledColumn?.(options.nameField);
+  const names = pooled ? undefined : table.column(options.nameField);
+  const sizes = table.column(options.sizeField);
+  // A column of text is its own list of ids (the index writes back the same strings); else a copy.
+  const ids: string[] = allText(idCells, n) ? (idCells as string[]) : new Array(n);
+  const rowOf = new IdIndex(ids);
+  for (let r = 0; r < n; r++) {
+    const id = cellText(idCells[r]);
+    if (id === "")
+      throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${options.idField}"`, { row: r + 1 });
+    const earlier = rowOf.add(id, r);
+    if (earlier !== -1) {
+      throw new EspalierError(
+        "DUPLICATE_ID",
+        `row ${r + 1} repeats the ${options.idField} ${JSON.stringify(id)} of row ${earlier + 1}`,
+        { row: r + 1 },
+      );
+    }
+  }
+  const parentOf = new Int32Array(n);
+  const origin = new Int32Array(n);
+  const ownSize = new Float64Array(n);
+  // A name column with no empty cell is the list of names itself; else names fall back to ids.
+  const named = names !== undefined && allText(names, n, true);
+  const name: string[] | null = pooled ? null : named ? (names as string[]) : new Array(n);
+  for (let r = 0; r < n; r++) {
+    const parentCell = parentCells[r];
+    // A cell kept as a number is looked up as the number (it stands for its digits).
+    const parentId = typeof parentCell === "number" ? parentCell : cellText(parentCell);
+    if (parentId === "") {
+      parentOf[r] = -1;
+    } else {
+      const p = rowOf.get(parentId);
+      if (p === -1) {
+        throw new EspalierError(
+          "MISSING_PARENT",
+          `row ${r + 1} names the ${options.parentField} ${JSON.stringify(cellText(parentId))}, which no row has as its ${options.idField}`,
+          { row: r + 1 },
+        );
+      }
+      parentOf[r] = p;
+    }
+    origin[r] = r + 1;
+    if (name !== null && !named) name[r] = (names && cellText(names[r])) || ids[r];
+    if (sizes) ownSize[r] = sizeOf(sizes[r], table.textCells, r + 1, options.sizeField);
+  }
+  return {
+    parentOf,
+    name: name === null ? namesOrIds(pooled!, ids, n) : name,
+    ownSize,
+    hasSizes: sizes !== undefined,
+    ids,
+    origin,
+    originIsRow: true,
+    fields: keep,
+    rootName: options.rootName,
+  } satisfies LinkedNodes;
+}
+
+/** The pooled name column as the nodes' names, each empty name replaced by the row's id. */
+function namesOrIds(pooled: NamePool, ids: readonly string[], n: number): NamePool {
+  let empty = false;
+  for (let r = 0; r < n && !empty; r++) empty = isEmptyName(pooled, r);
+  if (!empty && pooled.length === n) return pooled;
+  const out = new NamePool(n, n * 8);
+  for (let r = 0; r < n; r++) {
+    if (isEmptyName(pooled, r)) out.setString(r, ids[r]);
+    else copyName(out, r, pooled, r);
+  }
+  return out;
+}
+
+function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptions): LinkedNodes {
+  const n = table.length;
+  const keep = keptColumns(table, options);
+  const names = table.column(options.nameField);
+  const sizes = table.column(options.sizeField);
+  const sink = new NodeSink(options.maxNodes, true);
+  const index = new PathPlacer(sink);
+  // Kept values by row, spread over nodes at the end (implicit ancestors keep "").
+  const nodeOfRow = new Int32Array(n);
+  for (let r = 0; r < n; r++) {
+    const path = cellText(pathCells[r]);
+    const i = index.place(path, 0, path.length, r + 1);
+    if (i === -1) {
+      throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${options.pathField}"`, { row: r + 1 });
+    }
+    nodeOfRow[r] = i;
+    const label = names ? cellText(names[r]) : "";
+    if (label !== "") sink.name.setString(i, label);
+    if (sizes) sink.ownSize[i] = sizeOf(sizes[r], table.textCells, r + 1, options.sizeField);
+  }
+  sink.hasSizes = sizes !== undefined;
+  const fields = new Map<string, string[]>();
+  for (const [key, byRow] of keep) {
+    const byNode: string[] = new Array(sink.length).fill("");
+    for (let r = 0; r < n; r++) byNode[nodeOfRow[r]] = byRow[r];
+    fields.set(key, byNode);
+  }
+  return sink.finish(options.rootName, fields);
+}
+
+/** The kept columns as text, by row; FIELD_MISSING names the columns there are. */
+function keptColumns(table: Table, options: LoadOptions): Map<string, string[]> {
+  const values = new Map<string, string[]>();
+  for (const key of options.keepFields) {
+    const cells = table.column(key);
+    if (!cells) {
+      throw new EspalierError(
+        "FIELD_MISSING",
+        `no column "${key}" to keep; the columns are ${listNames(table.columnNames())}`,
+      );
+    }
+    values.set(key, cells.map(cellText));
+  }
+  return values;
+}
+
+function sizeOf(cell: Cell, textCells: boolean, row: number, field: string): number {
+  if (cell === undefined || cell === null) return 0;
+  const value =
+    typeof cell === "number" ? cell : textCells && typeof cell === "string" ? parseSize(cell) : Number.NaN;
+  if (isSize(value)) return value;
+  throw new EspalierError(
+    "BAD_SIZE",
+    `the "${field}" of row ${row} must be a number from 0 to 2^53 - 1, got ${JSON.stringify(cell)}`,
+    { row },
+  );
+}
+
+/** Whether the first `n` cells are all strings (and, with `nonEmpty`, none is ""), in an array of `n`. */
+function allText(cells: readonly Cell[], n: number, nonEmpty = false): boolean {
+  if (cells.length !== n) return false;
+  for (let r = 0; r < n; r++) {
+    const cell = cells[r];
+    if (typeof cell !== "string" || (nonEmpty && cell === "")) return false;
+  }
+  return true;
+}
+
+function cellText(cell: Cell): string {
+  if (cell === undefined || cell === null) return "";
+  return typeof cell === "string" ? cell : String(cell);
+}
+
+function listNames(names: readonly string[]): string {
+  return names.length === 0 ? "(none)" : names.map((name) => JSON.stringify(name)).join(", ");
+}

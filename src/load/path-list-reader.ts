@@ -1,0 +1,108 @@
+import { EspalierError } from "../errors.js";
+import type { LinkedNodes } from "../model/linked-nodes.js";
+import type { LoadOptions } from "./load-options.js";
+import { NodeSink } from "./node-sink.js";
+import { parseSize } from "./parse-size.js";
+import { PathPlacer } from "./path-placer.js";
+
+/**
+ * Reads a path list a line at a time: one "/"-separated path per line, blank lines ignored. When the first
+ * non-blank line holds a tab, every line is "size<TAB>path" (as `find -printf '%s\t%p\n'` prints);
+ * otherwise a whole line is one path. Origins are line numbers. The in-memory loader feeds it text; the
+ * streaming loader reads the same format on bytes with `PathListByteReader`, which builds the same
+ * nodes (property tests in tests/load/stream hold the two together).
+ */
+export class PathListReader {
+  private readonly sink: NodeSink;
+  private readonly index: PathPlacer;
+  private sized: boolean | undefined;
+  private firstLine = 0;
+  private line = 0;
+
+  constructor(options: LoadOptions) {
+    this.sink = new NodeSink(options.maxNodes, false);
+    this.index = new PathPlacer(this.sink);
+  }
+
+  /**
+   * Reads the lines of `text[start, end)`, each ended by "\n" (a "\r" before it is dropped); the last
+   * line needs no "\n". A caller feeding pieces must cut them after a "\n".
+   */
+  lines(text: string, start: number, end: number): void {
+    while (start < end) {
+      let stop = text.indexOf("\n", start);
+      if (stop === -1 || stop >= end) stop = end;
+      this.one(text, start, stop);
+      start = stop + 1;
+    }
+  }
+
+  /** The nodes, ready for `buildTree`. */
+  finish(rootName: string): LinkedNodes {
+    const sink = this.sink;
+    if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the path list names no paths");
+    sink.hasSizes = this.sized === true;
+    return sink.finish(rootName, new Map());
+  }
+
+  /** One line, `text[start, end)` without its "\n". */
+  private one(text: string, start: number, end: number): void {
+    const line = ++this.line;
+    if (end > start && text.charCodeAt(end - 1) === 13) end--;
+    if (isBlank(text, start, end)) return;
+    let pathStart = start;
+    let size = 0;
+    if (this.sized === undefined) {
+      this.sized = text.slice(start, end).includes("\t");
+      this.firstLine = line;
+    }
+    if (this.sized) {
+      const tab = text.indexOf("\t", start);
+      if (tab === -1 || tab >= end) {
+        throw new EspalierError(
+          "PARSE_PATHS",
+          `line ${line} has no size column before a tab, unlike line ${this.firstLine}`,
+          { line },
+        );
+      }
+      size = plainDigits(text, start, tab);
+      if (size < 0) size = parseSize(text.slice(start, tab));
+      if (!(size >= 0)) {
+        throw new EspalierError(
+          "BAD_SIZE",
+          `the size on line ${line} must be a number from 0 to 2^53 - 1, got ${JSON.stringify(text.slice(start, tab))}`,
+          { line, column: 1 },
+        );
+      }
+      pathStart = tab + 1;
+    }
+    const i = this.index.place(text, pathStart, end, line);
+    if (i === -1) {
+      throw new EspalierError("PARSE_PATHS", `line ${line} has a size but no path`, {
+        line,
+        column: pathStart - start + 1,
+      });
+    }
+    this.sink.ownSize[i] = size;
+  }
+}
+
+function isBlank(text: string, start: number, end: number): boolean {
+  for (let k = start; k < end; k++) {
+    const c = text.charCodeAt(k);
+    if (c !== 32 && c !== 9) return false;
+  }
+  return true;
+}
+
+/** The value of 1 to 15 decimal digits (exact in a double), without cutting a string; -1 otherwise. */
+function plainDigits(text: string, start: number, end: number): number {
+  if (end <= start || end - start > 15) return -1;
+  let value = 0;
+  for (let k = start; k < end; k++) {
+    const d = text.charCodeAt(k) - 48;
+    if (d < 0 || d > 9) return -1;
+    value = value * 10 + d;
+  }
+  return value;
+}

@@ -1,0 +1,212 @@
+import { EspalierError } from "../errors.js";
+import { checkSizes } from "./check-sizes.js";
+import type { LinkedNodes } from "./linked-nodes.js";
+import { NamePool } from "./names.js";
+import type { Tree } from "./tree.js";
+
+/** Linked nodes with their names and ids pooled. */
+type PooledNodes = LinkedNodes & { name: NamePool; ids: NamePool | null };
+
+/**
+ * Orders linked nodes into a pre-order {@link Tree}. Children keep input order. Several top-level nodes
+ * get one synthetic root named `rootName`. Nodes unreachable from a top-level node lie on a cycle, which
+ * is reported with the rows or lines on it. Iterative: no recursion a deep tree could overflow.
+ */
+export function buildTree(linked: LinkedNodes, file?: string): Tree {
+  const input = {
+    ...linked,
+    name: poolOf(linked.name),
+    ids: linked.ids === null ? null : poolOf(linked.ids),
+  };
+  checkSizes(input, file);
+  const ordered = inPreOrder(input);
+  if (ordered) return ordered;
+  const n = input.parentOf.length;
+  let tops = 0;
+  for (let i = 0; i < n; i++) if (input.parentOf[i] === -1) tops++;
+  const synthetic = tops !== 1;
+  const total = n + (synthetic ? 1 : 0);
+  const rootOld = synthetic ? n : input.parentOf.indexOf(-1);
+  // par: old index -> old parent index, with the synthetic root (if any) at index n.
+  const par = new Int32Array(total);
+  for (let i = 0; i < n; i++) par[i] = input.parentOf[i] === -1 && synthetic ? n : input.parentOf[i];
+  par[rootOld] = -1;
+
+  const firstChild = new Int32Array(total).fill(-1);
+  const lastChild = new Int32Array(total).fill(-1);
+  const nextSib = new Int32Array(total).fill(-1);
+  for (let i = 0; i < n; i++) {
+    const p = par[i];
+    if (p < 0) continue;
+    if (lastChild[p] === -1) firstChild[p] = i;
+    else nextSib[lastChild[p]] = i;
+    lastChild[p] = i;
+  }
+
+  // Pre-order walk without a stack: down to the first child, else across, else up until a sibling.
+  const newIndex = new Int32Array(total).fill(-1);
+  const oldOf = new Int32Array(total);
+  let next = 0;
+  let cur = rootOld;
+  while (cur !== -1) {
+    newIndex[cur] = next;
+    oldOf[next] = cur;
+    next++;
+    if (firstChild[cur] !== -1) {
+      cur = firstChild[cur];
+      continue;
+    }
+    while (cur !== -1 && cur !== rootOld && nextSib[cur] === -1) cur = par[cur];
+    cur = cur === -1 || cur === rootOld ? -1 : nextSib[cur];
+  }
+  if (next < total) throw cycleError(input, par, newIndex, file);
+
+  const parent = new Int32Array(total);
+  const depth = new Int32Array(total);
+  const from = new Int32Array(total);
+  const ownSize = new Float64Array(total);
+  const origin = new Int32Array(total);
+  const fields = new Map<string, string[]>();
+  const fieldSources = [...input.fields];
+  for (const [key] of fieldSources) fields.set(key, new Array(total));
+  for (let k = 0; k < total; k++) {
+    const o = oldOf[k];
+    const p = par[o];
+    parent[k] = p === -1 ? -1 : newIndex[p];
+    depth[k] = p === -1 ? 0 : depth[parent[k]] + 1;
+    if (o === n) {
+      from[k] = -1;
+      for (const [key] of fieldSources) fields.get(key)![k] = "";
+      continue;
+    }
+    from[k] = o;
+    ownSize[k] = input.ownSize[o];
+    origin[k] = input.origin[o];
+    for (const [key, values] of fieldSources) fields.get(key)![k] = values[o] ?? "";
+  }
+  return {
+    length: total,
+    parent,
+    depth,
+    name: input.name.reordered(from, input.rootName),
+    ownSize,
+    hasSizes: input.hasSizes,
+    ids: input.ids === null ? null : input.ids.reordered(from, ""),
+    origin,
+    originIsRow: input.originIsRow,
+    fields,
+    syntheticRoot: synthetic,
+  };
+}
+
+/**
+ * The tree without reordering when the nodes already come in pre-order (each node's parent is on the
+ * path from the latest top-level node down to the node before it), as document-order loaders give them;
+ * null otherwise. Saves the linking arrays of the general case.
+ */
+function inPreOrder(input: PooledNodes): Tree | null {
+  const { parentOf } = input;
+  const n = parentOf.length;
+  let tops = 0;
+  for (let i = 0; i < n; i++) if (parentOf[i] === -1) tops++;
+  const shift = tops !== 1 ? 1 : 0;
+  if (shift === 0 && parentOf[0] !== -1) return null;
+  const total = n + shift;
+  const parent = new Int32Array(total);
+  const depth = new Int32Array(total);
+  let path = new Int32Array(64); // path[d] = the node at depth d (without the synthetic root) above i
+  let top = -1;
+  for (let i = 0; i < n; i++) {
+    const p = parentOf[i];
+    if (p === -1) {
+      top = 0;
+    } else {
+      while (top >= 0 && path[top] !== p) top--;
+      if (top < 0) return null;
+      top++;
+    }
+    if (top === path.length) {
+      const grown = new Int32Array(path.length * 2);
+      grown.set(path);
+      path = grown;
+    }
+    path[top] = i;
+    parent[i + shift] = p === -1 ? (shift === 1 ? 0 : -1) : p + shift;
+    depth[i + shift] = top + shift;
+  }
+  if (shift === 1) parent[0] = -1;
+  const ownSize = new Float64Array(total);
+  ownSize.set(input.ownSize.subarray(0, n), shift);
+  const origin = new Int32Array(total);
+  origin.set(input.origin.subarray(0, n), shift);
+  const fields = new Map<string, string[]>();
+  for (const [key, values] of input.fields) fields.set(key, withFirst(values, n, shift, ""));
+  return {
+    length: total,
+    parent,
+    depth,
+    name:
+      shift === 0 && input.name.length === n
+        ? input.name
+        : input.name.reordered(firstThen(n, shift), input.rootName),
+    ownSize,
+    hasSizes: input.hasSizes,
+    ids:
+      input.ids === null
+        ? null
+        : shift === 0 && input.ids.length === n
+          ? input.ids
+          : input.ids.reordered(firstThen(n, shift), ""),
+    origin,
+    originIsRow: input.originIsRow,
+    fields,
+    syntheticRoot: shift === 1,
+  };
+}
+
+function poolOf(names: NamePool | readonly string[]): NamePool {
+  return names instanceof NamePool ? names : NamePool.from(names);
+}
+
+/** -1 (the synthetic root) when `shift` is 1, then 0 .. n-1: where each node's name comes from. */
+function firstThen(n: number, shift: number): Int32Array {
+  const from = new Int32Array(n + shift);
+  for (let i = 0; i < n; i++) from[i + shift] = i;
+  if (shift === 1) from[0] = -1;
+  return from;
+}
+
+/** `values[0, n)` as a new array, after `first` when `shift` is 1; a missing value is "". */
+function withFirst(values: readonly string[], n: number, shift: number, first: string): string[] {
+  const out: string[] = new Array(n + shift);
+  if (shift === 1) out[0] = first;
+  for (let i = 0; i < n; i++) out[i + shift] = values[i] ?? "";
+  return out;
+}
+
+function cycleError(input: PooledNodes, par: Int32Array, visited: Int32Array, file?: string): EspalierError {
+  const n = input.parentOf.length;
+  let start = 0;
+  while (start < n && visited[start] !== -1) start++;
+  // Walk up from an unreached node until a node repeats: that node is on the cycle.
+  const seen = new Set<number>();
+  let cur = start;
+  while (!seen.has(cur)) {
+    seen.add(cur);
+    cur = par[cur];
+  }
+  const cycle: number[] = [cur];
+  for (let c = par[cur]; c !== cur; c = par[c]) cycle.push(c);
+  const unit = input.originIsRow ? "row" : "line";
+  const where = (i: number) =>
+    `${unit} ${input.origin[i]}${input.ids ? ` (id ${JSON.stringify(input.ids.get(i))})` : ""}`;
+  const first = cycle.reduce((a, b) => (input.origin[a] <= input.origin[b] ? a : b));
+  const pos = input.originIsRow ? { file, row: input.origin[first] } : { file, line: input.origin[first] };
+  if (cycle.length === 1) return new EspalierError("CYCLE", `${where(cur)} is its own parent`, pos);
+  const shown = cycle.slice(0, 6).map(where).join(" -> ");
+  return new EspalierError(
+    "CYCLE",
+    `the parent links form a cycle of ${cycle.length} nodes: ${shown}${cycle.length > 6 ? " -> …" : ""}`,
+    pos,
+  );
+}
