@@ -10,11 +10,14 @@ import type { PathIndex } from "../model/path-index.js";
 import { pseudonym } from "../model/pseudonym.js";
 import { escapeSegment } from "../model/segment.js";
 import type { Tree } from "../model/tree.js";
-import { renderDiffText } from "../render/diff-text.js";
+import { diffLineParts } from "../render/diff-line-parts.js";
+import { totalsLine } from "../render/diff-text.js";
+import { shortenEnd } from "../render/display-width.js";
+import type { Units } from "../render/format-size.js";
 import { lineGroups } from "../render/line-groups.js";
-import { noColour, type Palette } from "../render/palette.js";
-import { textLines } from "../render/text.js";
-import type { Units } from "../render/units.js";
+import { layoutLine } from "../render/line-layout.js";
+import { lineParts } from "../render/line-parts.js";
+import type { Palette } from "../render/palette.js";
 import { type Prepared, summarize } from "../summarize.js";
 import type { ViewNode } from "../view/view-node.js";
 import { NameSearch } from "./search.js";
@@ -23,7 +26,7 @@ import { NameSearch } from "./search.js";
 export interface LookOptions {
   units: Units;
   label?: string;
-  /** Print a run of only children as one line (summaries only; a diff gives every node a line). */
+  /** Print a run of only children as one line (the fit counts lines so too). */
   chains: boolean;
   pseudonymKey?: string;
   /** Styles of marks and numbers (colour decided at the edge); none by default. */
@@ -95,14 +98,11 @@ export function summarySession(prepared: Prepared, look: LookOptions): Session {
         pseudonymKey: look.pseudonymKey,
         chains: look.chains,
       });
-      const groups = lineGroups(result.view, look.chains).map((g) => g.nodes.map((n) => n.index));
-      const lines = textLines(result.view, {
-        units: look.units,
-        sizes: tree.hasSizes,
-        palette: look.palette ?? noColour,
-        chains: look.chains,
-        width,
-      });
+      // The lines `espalier` prints, through the shared line layout (render/line-layout.ts).
+      const numbers = { units: look.units, sizes: tree.hasSizes };
+      const lineOf = lineGroups(result.view, look.chains);
+      const groups = lineOf.map((g) => g.nodes.map((n) => n.index));
+      const lines = lineOf.map((g) => layoutLine(lineParts(g, numbers), { width, palette: look.palette }));
       return fitted(
         tree,
         lines,
@@ -139,19 +139,16 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
         importance,
         label: look.label,
         pseudonymKey: look.pseudonymKey,
+        chains: look.chains,
       });
-      const text = renderDiffText(result.view, result.totals, {
-        units: look.units,
-        sizes: tree.hasSizes,
-        by: combined.by,
-        palette: look.palette ?? noColour,
-        width,
-      });
-      const lines = text.slice(0, -1).split("\n");
-      const groups: number[][] = [[]];
-      result.view.eachBefore((h) => {
-        groups.push([h.data.index]);
-      });
+      // The totals line, then the diff's lines through the shared line layout, as `espalier diff` prints.
+      const numbers = { units: look.units, sizes: tree.hasSizes };
+      const lineOf = lineGroups(result.view, look.chains);
+      const lines = [
+        shortenEnd(totalsLine(result.totals, { ...numbers, by: combined.by }), width),
+        ...lineOf.map((g) => layoutLine(diffLineParts(g, numbers), { width, palette: look.palette })),
+      ];
+      const groups = [[], ...lineOf.map((g) => g.nodes.map((n) => n.index))];
       const order = diffOrder(tree, measures, result.scores, changeMeasures);
       return fitted(tree, lines, groups, result.selection, order, DIFF_HEADER_LINES, result.view);
     }),

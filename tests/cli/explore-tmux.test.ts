@@ -3,7 +3,7 @@ import { existsSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
-import { displayWidth } from "../../src/render/fit-width.js";
+import { displayWidth } from "../../src/render/display-width.js";
 import { BIN } from "../helpers/bin.js";
 
 // End to end: the real program in a real pseudo-terminal, driven by tmux (send-keys, capture-pane,

@@ -9,7 +9,7 @@ import { resolveFoci } from "../../src/focus/resolve.js";
 import { loadTree } from "../../src/load/index.js";
 import { defaultLoadOptions } from "../../src/load/load-options.js";
 import { namesToArray } from "../../src/model/names.js";
-import { displayWidth } from "../../src/render/fit-width.js";
+import { displayWidth } from "../../src/render/display-width.js";
 import { palette } from "../../src/render/palette.js";
 import { prepare } from "../../src/summarize.js";
 

@@ -17,7 +17,7 @@ import {
   update,
 } from "../../src/explore/update.js";
 import type { Tree } from "../../src/model/tree.js";
-import { displayWidth } from "../../src/render/fit-width.js";
+import { displayWidth } from "../../src/render/display-width.js";
 import { prepare } from "../../src/summarize.js";
 import type { ViewNode } from "../../src/view/view-node.js";
 import { arbEdited } from "../diff/edit-script.js";
