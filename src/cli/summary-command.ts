@@ -3,10 +3,7 @@ import { defaultLoadOptions, type LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
-import { renderSvg } from "../render/icicle-svg.js";
 import { palette } from "../render/palette.js";
-import { renderJson } from "../render/summary-json.js";
-import { renderMarkdown } from "../render/summary-markdown.js";
 import { renderText } from "../render/summary-text.js";
 import { prepare, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
@@ -22,19 +19,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   const foci = [...opts.focus];
   if (opts.focusFrom !== undefined) foci.push(...(await readFociFile(io, opts.focusFrom, input)));
   const key = pseudonymKey(opts, io);
-  let tree: Tree;
-  try {
-    if (isFactInput(opts)) {
-      tree = await loadFactInput(input, opts, rootNameOf(input));
-    } else {
-      const source = await readInputStream(io, input);
-      // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
-      const chunks = withProgress(source.chunks, io, displayName(input), source.size);
-      tree = await loadTreeFromStream(chunks, toLoadOptions(input, opts));
-    }
-  } catch (err) {
-    throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
-  }
+  const tree = await loadInput(io, input, opts);
   const budget = opts.budget ?? defaultBudget(io);
   const result = summarize(prepare(tree), {
     foci,
@@ -45,6 +30,8 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     chains: opts.chains,
   });
   if (opts.format === "json") {
+    // Each other output format is loaded when asked for: a start loads only what the run needs.
+    const { renderJson } = await import("../render/summary-json.js");
     return renderJson(result.view, {
       budget,
       lines: result.selection.lines,
@@ -53,9 +40,12 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
       ...(tree.reading ? { input: tree.reading } : {}),
     });
   }
-  if (opts.format === "svg")
+  if (opts.format === "svg") {
+    const { renderSvg } = await import("../render/icicle-svg.js");
     return renderSvg(result.view, { units: unitsFor(opts, tree), sizes: tree.hasSizes });
+  }
   if (opts.format === "markdown") {
+    const { renderMarkdown } = await import("../render/summary-markdown.js");
     return renderMarkdown(result.view, {
       units: unitsFor(opts, tree),
       sizes: tree.hasSizes,
@@ -69,6 +59,19 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     chains: opts.chains,
     width: opts.width ?? defaultWidth(io),
   });
+}
+
+/** Loads one input as every command does: a fact table rolled up, else any tree format, streamed. */
+export async function loadInput(io: CliIO, input: string, opts: SummaryCliOptions): Promise<Tree> {
+  try {
+    if (isFactInput(opts)) return await loadFactInput(input, opts, rootNameOf(input));
+    const source = await readInputStream(io, input);
+    // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
+    const chunks = withProgress(source.chunks, io, displayName(input), source.size);
+    return await loadTreeFromStream(chunks, toLoadOptions(input, opts));
+  } catch (err) {
+    throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
+  }
 }
 
 export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptions {
@@ -110,9 +113,13 @@ function baseName(path: string): string {
   return parts[parts.length - 1] || path;
 }
 
-/** Sizes print as bytes when the loader says they count bytes (see src/load/size-unit.ts), else plain. */
-export function unitsFor(opts: SummaryCliOptions, tree: Tree): Units {
+/**
+ * Sizes print as bytes when the loader says they count bytes (see src/load/size-unit.ts), else plain.
+ * Without a loaded tree (a caller that decides before loading) the size field's name decides.
+ */
+export function unitsFor(opts: SummaryCliOptions, tree?: Tree): Units {
   if (opts.units !== "auto") return opts.units;
+  if (tree === undefined) return ["size", "bytes"].includes(opts.sizeField.toLowerCase()) ? "bytes" : "plain";
   return tree.reading?.sizeUnit === "bytes" ? "bytes" : "plain";
 }
 
@@ -135,7 +142,7 @@ export function defaultBudget(io: CliIO): number {
   return DEFAULT_BUDGET;
 }
 
-function pseudonymKey(opts: SummaryCliOptions, io: CliIO): string | undefined {
+export function pseudonymKey(opts: SummaryCliOptions, io: CliIO): string | undefined {
   if (!opts.pseudonymize) return undefined;
   const key = io.env[PSEUDONYM_KEY_ENV];
   if (!key) {
