@@ -1,8 +1,8 @@
 import { totalChanges } from "../diff/changes.js";
 import { diffTrees } from "../diff/diff-trees.js";
 import { EspalierError } from "../errors.js";
+import type { LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
-import type { LoadOptions } from "../load/types.js";
 import type { Tree } from "../model/tree.js";
 import { renderDiffJson } from "../render/diff-json.js";
 import { renderDiffMarkdown } from "../render/diff-markdown.js";
