@@ -4,6 +4,7 @@ import { CONFIG_FILES } from "./config.js";
 import { diffCommand } from "./diff-command.js";
 import { effectiveOptions, printConfig } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
+import { printSqlCommand } from "./fact-input.js";
 import type { CliIO } from "./io.js";
 import { type CommandName, commandOptions, diffOptionsSchema, summaryOptionsSchema } from "./options.js";
 import type { CommandLine } from "./parse-command-line.js";
@@ -49,6 +50,8 @@ export interface CommandSpec {
 interface CommandDef<S extends z.ZodObject> extends Omit<CommandSpec, "invoke"> {
   name: CommandName;
   schema: S;
+  /** Work that stops the command before its arguments are checked (e.g. printing a query); else undefined. */
+  early?(args: readonly string[], options: z.infer<S>): Promise<CommandOutput | undefined>;
   run(args: readonly string[], options: z.infer<S>, io: CliIO): Promise<CommandOutput>;
 }
 
@@ -61,6 +64,8 @@ function defineCommand<S extends z.ZodObject>(def: CommandDef<S>): CommandSpec {
       const { options, configFile } = await effectiveOptions(line, schema, commandOptions[name], io);
       if (line.given.printConfig === true)
         return { text: printConfig(options, configFile), exitCode: EXIT.ok, target: undefined };
+      const early = await def.early?.(line.args, options);
+      if (early) return { ...early, target: undefined };
       checkArguments(def, line.args);
       const target = outputTarget(options as { output?: string; focusFrom?: string }, line);
       if (target) await checkOutputTarget(target.file, target.inputs, io.outputFiles);
@@ -142,6 +147,10 @@ Paths: names from below the root joined by "/", with "~" written "~0" and "/" wr
 is accepted back as a focus.`,
     exitStatus: `Exit status: 0 success; 2 usage or input error (one line on standard error, nothing on
 standard output).`,
+    early: async (args, options) =>
+      options.printSql && args.length <= 1
+        ? { text: await printSqlCommand(args[0], options), exitCode: EXIT.ok }
+        : undefined,
     run: async (args, options, io) => ({
       text: await summaryCommand(args[0], options, io),
       exitCode: EXIT.ok,

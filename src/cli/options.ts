@@ -2,6 +2,9 @@ import { z } from "zod";
 import { importances } from "../interest/importance.js";
 import { inputFormats } from "../load/load-options.js";
 
+/** Input formats on the command line: the tree formats, and the formats only fact tables come in. */
+export const cliInputFormats = [...inputFormats, "jsonl", "parquet"] as const;
+
 /** Output formats of a summary and of a diff. */
 export const outputFormats = ["text", "json", "markdown", "svg"] as const;
 /** When text output is coloured. */
@@ -22,6 +25,7 @@ export const optionGroups = [
   "Budget and layout",
   "Output",
   "Input",
+  "Fact tables",
   "Diff only",
   "Config file",
   "Help",
@@ -70,8 +74,8 @@ function quote(value: unknown): string {
 
 /**
  * Options of every command (summary and diff). To add an option: add one entry here (or in
- * {@link diffOnlyOptions}) and one row in docs/cli.md's section for its group; the parser, `--help`,
- * the config schema and the validated options follow.
+ * {@link summaryOnlyOptions} / {@link diffOnlyOptions}) and one row in docs/cli.md's section for its
+ * group; the parser, `--help`, the config schema and the validated options follow.
  */
 export const sharedOptions = {
   focus: {
@@ -163,7 +167,7 @@ export const sharedOptions = {
   inputFormat: {
     flags: "--input-format <format>",
     group: "Input",
-    schema: z.enum(inputFormats).optional().describe("input format (default: detected)"),
+    schema: z.enum(cliInputFormats).optional().describe("input format (default: detected)"),
   },
   nameField: {
     flags: "--name-field <field>",
@@ -199,6 +203,58 @@ export const sharedOptions = {
     flags: "--max-nodes <count>",
     group: "Input",
     schema: wholeNumber().optional().describe("refuse inputs with more nodes than this"),
+  },
+  levels: {
+    flags: "--levels <columns>",
+    group: "Fact tables",
+    schema: z
+      .string()
+      .min(1)
+      .optional()
+      .describe("level columns, outermost first, comma-separated (account,service,region)"),
+  },
+  keyField: {
+    flags: "--key-field <column>",
+    group: "Fact tables",
+    schema: z.string().min(1).optional().describe("a key column split into levels"),
+  },
+  keySeparator: {
+    flags: "--key-separator <text>",
+    group: "Fact tables",
+    schema: z.string().min(1).default("/").describe("what --key-field values are split on"),
+  },
+  keyDepth: {
+    flags: "--key-depth <levels>",
+    group: "Fact tables",
+    schema: wholeNumber()
+      .optional()
+      .describe("deepest key level to roll up (default: the deepest in the table)"),
+  },
+  sqlTable: {
+    flags: "--sql-table <name>",
+    group: "Fact tables",
+    schema: z.string().min(1).default("facts").describe("table name in the --print-sql query"),
+  },
+  rolledUp: {
+    flags: "--rolled-up",
+    group: "Fact tables",
+    schema: z
+      .boolean()
+      .default(false)
+      .describe("the input is the result table of the --print-sql query, run elsewhere"),
+  },
+} satisfies Record<string, OptionSpec>;
+
+/** Options of a summary only. */
+export const summaryOnlyOptions = {
+  printSql: {
+    flags: "--print-sql",
+    group: "Fact tables",
+    config: false,
+    schema: z
+      .boolean()
+      .default(false)
+      .describe("print the rollup query in standard SQL (GROUP BY ROLLUP) and stop"),
   },
 } satisfies Record<string, OptionSpec>;
 
@@ -254,13 +310,14 @@ export const controlOptions = {
 
 /** The options each command takes, by key. */
 export const commandOptions: Record<CommandName, Record<string, OptionSpec>> = {
-  summary: { ...sharedOptions, ...controlOptions },
+  summary: { ...sharedOptions, ...summaryOnlyOptions, ...controlOptions },
   diff: { ...sharedOptions, ...diffOnlyOptions, ...controlOptions },
 };
 
 /** Every option, by key. */
 export const allOptions: Record<string, OptionSpec> = {
   ...sharedOptions,
+  ...summaryOnlyOptions,
   ...diffOnlyOptions,
   ...controlOptions,
 };
@@ -273,8 +330,12 @@ function shapeOf<T extends Record<string, OptionSpec>>(table: T): Shape<T> {
   return shape as Shape<T>;
 }
 
+/** The validated options every command takes. */
+export const sharedOptionsSchema = z.object(shapeOf(sharedOptions));
+export type SharedCliOptions = z.infer<typeof sharedOptionsSchema>;
+
 /** The validated options of a summary, as the core receives them. */
-export const summaryOptionsSchema = z.object(shapeOf(sharedOptions));
+export const summaryOptionsSchema = z.object({ ...shapeOf(sharedOptions), ...shapeOf(summaryOnlyOptions) });
 export type SummaryCliOptions = z.infer<typeof summaryOptionsSchema>;
 
 /** The validated options of `espalier diff`: every option of a summary, plus the diff's own. */
@@ -286,7 +347,7 @@ export const configSchema = z
   .object(
     shapeOf(
       Object.fromEntries(
-        Object.entries<OptionSpec>({ ...sharedOptions, ...diffOnlyOptions }).filter(
+        Object.entries<OptionSpec>({ ...sharedOptions, ...summaryOnlyOptions, ...diffOnlyOptions }).filter(
           ([, spec]) => spec.config !== false,
         ),
       ),

@@ -10,8 +10,14 @@ import { renderText } from "../render/text.js";
 import type { Units } from "../render/units.js";
 import { prepare, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
+import { isFactInput, loadFactInput } from "./fact-input.js";
 import type { CliIO } from "./io.js";
-import { DEFAULT_BUDGET, PSEUDONYM_KEY_ENV, type SummaryCliOptions } from "./options.js";
+import {
+  DEFAULT_BUDGET,
+  PSEUDONYM_KEY_ENV,
+  type SharedCliOptions,
+  type SummaryCliOptions,
+} from "./options.js";
 import { withProgress } from "./progress.js";
 import { readInput } from "./read-input.js";
 import { readInputStream } from "./read-input-stream.js";
@@ -21,13 +27,16 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   const foci = [...opts.focus];
   if (opts.focusFrom !== undefined) foci.push(...(await readFociFile(io, opts.focusFrom, input)));
   const key = pseudonymKey(opts, io);
-  const loadOptions = toLoadOptions(input, opts);
-  const source = await readInputStream(io, input);
   let tree: Tree;
   try {
-    // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
-    const chunks = withProgress(source.chunks, io, displayName(input), source.size);
-    tree = await loadTreeFromStream(chunks, loadOptions);
+    if (isFactInput(opts)) {
+      tree = await loadFactInput(input, opts, rootNameOf(input));
+    } else {
+      const source = await readInputStream(io, input);
+      // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
+      const chunks = withProgress(source.chunks, io, displayName(input), source.size);
+      tree = await loadTreeFromStream(chunks, toLoadOptions(input, opts));
+    }
   } catch (err) {
     throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
   }
@@ -61,10 +70,16 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   });
 }
 
-export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptions {
+export function toLoadOptions(input: string, opts: SharedCliOptions): LoadOptions {
+  const format = opts.inputFormat;
+  if (format === "parquet" || format === "jsonl")
+    throw new EspalierError(
+      "USAGE",
+      `--input-format ${format} is read as a fact table: give --levels or --key-field`,
+    );
   return {
     ...defaultLoadOptions,
-    format: opts.inputFormat,
+    format,
     file: input === "-" ? undefined : input,
     nameField: opts.nameField,
     childrenField: opts.childrenField,
@@ -73,9 +88,14 @@ export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptio
     parentField: opts.parentField,
     pathField: opts.pathField,
     keepFields: opts.label ? templateFields(opts.label) : [],
-    rootName: input === "-" ? "(stdin)" : baseName(input),
+    rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
   };
+}
+
+/** The name of a root espalier adds: the input file's base name, `(stdin)` for standard input. */
+export function rootNameOf(input: string): string {
+  return input === "-" ? "(stdin)" : baseName(input);
 }
 
 export function displayName(input: string): string {
@@ -88,13 +108,13 @@ function baseName(path: string): string {
 }
 
 /** Sizes print as bytes when the size field is called size or bytes, as plain numbers otherwise. */
-export function unitsFor(opts: SummaryCliOptions): Units {
+export function unitsFor(opts: SharedCliOptions): Units {
   if (opts.units !== "auto") return opts.units;
   return ["size", "bytes"].includes(opts.sizeField.toLowerCase()) ? "bytes" : "plain";
 }
 
 /** Colour only on a terminal, never with NO_COLOR set (no-color.org) or TERM=dumb, unless forced. */
-export function useColour(opts: SummaryCliOptions, io: CliIO): boolean {
+export function useColour(opts: SharedCliOptions, io: CliIO): boolean {
   if (opts.color !== "auto") return opts.color === "always";
   if (io.env.NO_COLOR !== undefined && io.env.NO_COLOR !== "") return false;
   if (io.env.TERM === "dumb") return false;
@@ -112,7 +132,7 @@ export function defaultBudget(io: CliIO): number {
   return DEFAULT_BUDGET;
 }
 
-function pseudonymKey(opts: SummaryCliOptions, io: CliIO): string | undefined {
+function pseudonymKey(opts: SharedCliOptions, io: CliIO): string | undefined {
   if (!opts.pseudonymize) return undefined;
   const key = io.env[PSEUDONYM_KEY_ENV];
   if (!key) {
