@@ -1,7 +1,15 @@
 // espalier's public API: load once, then summarise for any foci and budget.
 
 export { type ChangeCounts, type ChangeKind, changeKinds } from "./diff/changes.js";
-export { type DiffOptions, type DiffResult, type DiffTotals, diffTrees } from "./diff/diff-trees.js";
+export {
+  type DiffOptions,
+  type DiffResult,
+  type DiffTotals,
+  diffTrees,
+  type PreparedDiff,
+  prepareDiff,
+  summarizeDiff,
+} from "./diff/diff-trees.js";
 export type { DiffFolded, DiffViewNode } from "./diff/diff-view.js";
 export { type ErrorCode, EspalierError, errorCodes, formatPos, type SourcePos } from "./errors.js";
 export { type Selection, select } from "./fit/select.js";

@@ -4,6 +4,7 @@ import { CONFIG_FILES } from "./config.js";
 import { diffCommand } from "./diff-command.js";
 import { effectiveOptions, printConfig } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
+import { exploreCommand } from "./explore-command.js";
 import { printSqlCommand } from "./fact-input.js";
 import type { CliIO } from "./io.js";
 import { type CommandName, commandOptions, diffOptionsSchema, summaryOptionsSchema } from "./options.js";
@@ -37,7 +38,7 @@ export interface CommandSpec {
   usage: string;
   /** What the command does, beside its usage line. */
   summary: string;
-  /** Names of its arguments, in order. */
+  /** Names of its arguments, in order; `[new]` is optional (optional ones come last). */
   args: readonly string[];
   /** Worked examples on the demo data, printed by `--help` (a test runs them). */
   examples: string;
@@ -47,12 +48,25 @@ export interface CommandSpec {
   invoke(line: CommandLine, io: CliIO): Promise<Invocation>;
 }
 
+/** Where a command's options came from, beyond their values. */
+export interface OptionSources {
+  /** The config file read, if any. */
+  configFile: string | undefined;
+  /** Keys whose value came from the config file. */
+  fromConfig: ReadonlySet<string>;
+}
+
 interface CommandDef<S extends z.ZodObject> extends Omit<CommandSpec, "invoke"> {
   name: CommandName;
   schema: S;
   /** Work that stops the command before its arguments are checked (e.g. printing a query); else undefined. */
   early?(args: readonly string[], options: z.infer<S>): Promise<CommandOutput | undefined>;
-  run(args: readonly string[], options: z.infer<S>, io: CliIO): Promise<CommandOutput>;
+  run(
+    args: readonly string[],
+    options: z.infer<S>,
+    io: CliIO,
+    sources: OptionSources,
+  ): Promise<CommandOutput>;
 }
 
 /** The one path every command takes: options, arguments, the --output check before any work, the run. */
@@ -61,7 +75,12 @@ function defineCommand<S extends z.ZodObject>(def: CommandDef<S>): CommandSpec {
   return {
     ...texts,
     async invoke(line, io) {
-      const { options, configFile } = await effectiveOptions(line, schema, commandOptions[name], io);
+      const { options, configFile, fromConfig } = await effectiveOptions(
+        line,
+        schema,
+        commandOptions[name],
+        io,
+      );
       if (line.given.printConfig === true)
         return { text: printConfig(options, configFile), exitCode: EXIT.ok, target: undefined };
       const early = await def.early?.(line.args, options);
@@ -69,28 +88,29 @@ function defineCommand<S extends z.ZodObject>(def: CommandDef<S>): CommandSpec {
       checkArguments(def, line.args);
       const target = outputTarget(options as { output?: string; focusFrom?: string }, line);
       if (target) await checkOutputTarget(target.file, target.inputs, io.outputFiles);
-      return { ...(await run(line.args, options, io)), target };
+      return { ...(await run(line.args, options, io, { configFile, fromConfig })), target };
     },
   };
 }
 
 function checkArguments(def: CommandDef<z.ZodObject>, args: readonly string[]): void {
+  const required = def.args.filter((a) => !a.startsWith("["));
   const want = def.args.length;
-  if (args.length === want) return;
-  const names = def.args.map((a) => `<${a}>`).join(" and ");
-  if (args.length < want) {
+  if (args.length >= required.length && args.length <= want) return;
+  const names = required.map((a) => `<${a}>`).join(" and ");
+  if (args.length < required.length) {
     throw new EspalierError(
       "USAGE",
-      `missing ${names.length > 0 && want > 1 ? `${names} (got ${args.length})` : names}: a file, or - for standard input`,
+      `missing ${required.length > 1 ? `${names} (got ${args.length})` : names}: a file, or - for standard input`,
       undefined,
-      { expected: want, got: args.length },
+      { expected: required.length, got: args.length },
     );
   }
   const extra = args[want];
   const hint = def.name === "summary" ? "; to compare two versions: espalier diff <old> <new>" : "";
   throw new EspalierError(
     "USAGE",
-    `unexpected argument ${JSON.stringify(extra)}: ${def.usage} takes ${want === 1 ? "one input" : `${want} inputs`}${hint}`,
+    `unexpected argument ${JSON.stringify(extra)}: ${def.usage} takes at most ${want === 1 ? "one input" : `${want} inputs`}${hint}`,
     undefined,
     { expected: want, got: args.length },
   );
@@ -179,5 +199,28 @@ moved or renamed node shows as one removed and one added.`,
     exitStatus: `Exit status: 0 success (with --exit-code: 0 the versions are the same, 1 they differ); 2 usage
 or input error.`,
     run: (args, options, io) => diffCommand(args[0], args[1], options, io),
+  }),
+  explore: defineCommand({
+    name: "explore",
+    schema: summaryOptionsSchema,
+    about: ABOUT,
+    usage: "espalier explore [options] <input> [<new>]",
+    summary: "look around interactively: the view re-fits the terminal on every key",
+    args: ["input", "[new]"],
+    examples: `
+Examples
+  # Look around the org chart; h lists the keys, p quits printing the command line of the view
+  espalier explore fixtures/quillfeather-org.csv --parent-field manager --label '{name}, {title}'
+
+  # Explore what changed between two versions (the changes are the foci; n and N step through them)
+  espalier explore deps-main.json deps-branch.json
+
+It needs a terminal; --budget, --format and --output belong to printed summaries and are not taken.`,
+    exitStatus: `Exit status: 0 left with q or p; 2 usage or input error (nothing drawn); 130 left with Ctrl-C.`,
+    run: (args, options, io, sources) =>
+      exploreCommand(args[0], args[1], options, io, {
+        configFile: sources.configFile,
+        configSetsImportance: sources.fromConfig.has("importance"),
+      }),
   }),
 };

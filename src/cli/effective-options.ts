@@ -11,6 +11,8 @@ import { validateOptions } from "./validate-options.js";
 export interface EffectiveOptions<T> {
   options: T;
   configFile: string | undefined;
+  /** Keys whose value came from the config file. */
+  fromConfig: ReadonlySet<string>;
 }
 
 /**
@@ -49,7 +51,7 @@ export async function effectiveOptions<S extends z.ZodObject>(
       ? { name: `config key ${key}`, pos: config?.keyPos.get(key) ?? { file: config?.file } }
       : { name: flagsByKey.get(key)?.long ?? key },
   );
-  return { options, configFile: config?.file };
+  return { options, configFile: config?.file, fromConfig };
 }
 
 /** The effective configuration as YAML, as `--print-config` shows it (a valid config file itself). */

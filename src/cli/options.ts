@@ -13,7 +13,7 @@ export const colorModes = ["auto", "always", "never"] as const;
 export const unitChoices = ["auto", "bytes", "plain"] as const;
 
 /** The commands of the command line. */
-export const commandNames = ["summary", "diff"] as const;
+export const commandNames = ["summary", "diff", "explore"] as const;
 export type CommandName = (typeof commandNames)[number];
 
 /**
@@ -308,10 +308,17 @@ export const controlOptions = {
   },
 } satisfies Record<string, OptionSpec>;
 
+/** Options of printed output, which the interactive view (it has its own screen) does not take. */
+const printedOnly = new Set(["budget", "format", "output", "sqlTable"]);
+
 /** The options each command takes, by key. */
 export const commandOptions: Record<CommandName, Record<string, OptionSpec>> = {
   summary: { ...sharedOptions, ...summaryOnlyOptions, ...controlOptions },
   diff: { ...sharedOptions, ...diffOnlyOptions, ...controlOptions },
+  explore: {
+    ...Object.fromEntries(Object.entries(sharedOptions).filter(([key]) => !printedOnly.has(key))),
+    ...controlOptions,
+  },
 };
 
 /** Every option, by key. */

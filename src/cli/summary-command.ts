@@ -27,19 +27,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   const foci = [...opts.focus];
   if (opts.focusFrom !== undefined) foci.push(...(await readFociFile(io, opts.focusFrom, input)));
   const key = pseudonymKey(opts, io);
-  let tree: Tree;
-  try {
-    if (isFactInput(opts)) {
-      tree = await loadFactInput(input, opts, rootNameOf(input));
-    } else {
-      const source = await readInputStream(io, input);
-      // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
-      const chunks = withProgress(source.chunks, io, displayName(input), source.size);
-      tree = await loadTreeFromStream(chunks, toLoadOptions(input, opts));
-    }
-  } catch (err) {
-    throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
-  }
+  const tree = await loadInput(io, input, opts);
   const budget = opts.budget ?? defaultBudget(io);
   const result = summarize(prepare(tree), {
     foci,
@@ -68,6 +56,19 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     chains: opts.chains,
     width: opts.width ?? defaultWidth(io),
   });
+}
+
+/** Loads one input as every command does: a fact table rolled up, else any tree format, streamed. */
+export async function loadInput(io: CliIO, input: string, opts: SharedCliOptions): Promise<Tree> {
+  try {
+    if (isFactInput(opts)) return await loadFactInput(input, opts, rootNameOf(input));
+    const source = await readInputStream(io, input);
+    // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
+    const chunks = withProgress(source.chunks, io, displayName(input), source.size);
+    return await loadTreeFromStream(chunks, toLoadOptions(input, opts));
+  } catch (err) {
+    throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
+  }
 }
 
 export function toLoadOptions(input: string, opts: SharedCliOptions): LoadOptions {
@@ -132,7 +133,7 @@ export function defaultBudget(io: CliIO): number {
   return DEFAULT_BUDGET;
 }
 
-function pseudonymKey(opts: SharedCliOptions, io: CliIO): string | undefined {
+export function pseudonymKey(opts: SharedCliOptions, io: CliIO): string | undefined {
   if (!opts.pseudonymize) return undefined;
   const key = io.env[PSEUDONYM_KEY_ENV];
   if (!key) {

@@ -159,12 +159,13 @@ describe("espalier <input> (summary)", () => {
       const r = await cli(argv);
       expect(r.code).toBe(0);
       expect(r.stderr).toBe("");
-      // The examples' command lines that read only the demo data (not standard input, not a user's files).
+      // The examples' command lines that read only the demo data (not standard input, not a user's files);
+      // explore's need a terminal (tests/cli/explore-command.test.ts drives one).
       const examples = r.stdout
         .slice(r.stdout.indexOf("\nExamples\n"))
         .split("\n")
         .map((line) => line.trim())
-        .filter((line) => line.startsWith("espalier "))
+        .filter((line) => line.startsWith("espalier ") && !line.startsWith("espalier explore "))
         .map(shellWords)
         .filter((words) =>
           words.every((w) => w !== "-" && (!FILE_LIKE.test(w) || w.startsWith("fixtures/"))),
