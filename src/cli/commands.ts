@@ -1,10 +1,8 @@
 import type { z } from "zod";
 import { EspalierError } from "../errors.js";
 import { CONFIG_FILES } from "./config.js";
-import { diffCommand } from "./diff-command.js";
 import { effectiveOptions, printConfig } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
-import { exploreCommand } from "./explore-command.js";
 import { printSqlCommand } from "./fact-input.js";
 import type { CliIO } from "./io.js";
 import { type CommandName, commandOptions, diffOptionsSchema, summaryOptionsSchema } from "./options.js";
@@ -198,7 +196,9 @@ Nodes are matched by row id when both versions have ids, otherwise by path; matc
 moved or renamed node shows as one removed and one added.`,
     exitStatus: `Exit status: 0 success (with --exit-code: 0 the versions are the same, 1 they differ); 2 usage
 or input error.`,
-    run: (args, options, io) => diffCommand(args[0], args[1], options, io),
+    // Each command's own code loads when it runs: a start reads only what the run needs.
+    run: async (args, options, io) =>
+      (await import("./diff-command.js")).diffCommand(args[0], args[1], options, io),
   }),
   explore: defineCommand({
     name: "explore",
@@ -217,8 +217,8 @@ Examples
 
 It needs a terminal; --budget, --format and --output belong to printed summaries and are not taken.`,
     exitStatus: `Exit status: 0 left with q or p; 2 usage or input error (nothing drawn); 130 left with Ctrl-C.`,
-    run: (args, options, io, sources) =>
-      exploreCommand(args[0], args[1], options, io, {
+    run: async (args, options, io, sources) =>
+      (await import("./explore-command.js")).exploreCommand(args[0], args[1], options, io, {
         configFile: sources.configFile,
         configSetsImportance: sources.fromConfig.has("importance"),
       }),

@@ -1,5 +1,5 @@
 import { isMap, isScalar, LineCounter, parseDocument } from "yaml";
-import { z } from "zod";
+import * as z from "zod";
 import { EspalierError, type SourcePos } from "../errors.js";
 import { didYouMeanText } from "./did-you-mean.js";
 import type { CliIO } from "./io.js";
