@@ -302,12 +302,14 @@ function closure(pattern: Pattern, mask: number): number {
 
 /**
  * A query as path steps (a plain word is `**` then `*word*`, a name pattern `**` then itself), or null
- * for the empty query. A `~` not followed by 0 or 1 is FOCUS_SYNTAX, as in a focus path.
+ * for the empty query. A trailing `/` is dropped: it starts the level the user is about to type. A `~` not followed by 0 or 1 is FOCUS_SYNTAX, as in a focus path.
  */
 export function compilePattern(query: string): Pattern | null {
-  if (query === "") return null;
-  const path = query.includes("/");
-  const raw = path ? splitPath(query) : ["**", query.includes("*") ? query : `*${query}*`];
+  // A trailing "/" is the next level about to be typed: until it is, the query is what comes before.
+  const text = query.length > 1 && query.endsWith("/") ? query.slice(0, -1) : query;
+  if (text === "" || text === "/") return null;
+  const path = text.includes("/");
+  const raw = path ? splitPath(text) : ["**", text.includes("*") ? text : `*${text}*`];
   if (raw.length > MAX_STEPS)
     throw new EspalierError("FOCUS_SYNTAX", `a pattern may have at most ${MAX_STEPS} levels`);
   const steps = raw.map((segment): Step => {
@@ -335,7 +337,7 @@ export function compilePattern(query: string): Pattern | null {
     }
   }
   // "*" and "**" (every node) need no test; "*" under a path (a/*) does.
-  return { query, all: all && !path, literal, anchor, steps };
+  return { query: text, all: all && !path, literal, anchor, steps };
 }
 
 function lowerAscii(text: string): string {
