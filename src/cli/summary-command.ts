@@ -3,10 +3,7 @@ import { defaultLoadOptions, type LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
-import { renderSvg } from "../render/icicle-svg.js";
 import { palette } from "../render/palette.js";
-import { renderJson } from "../render/summary-json.js";
-import { renderMarkdown } from "../render/summary-markdown.js";
 import { renderText } from "../render/summary-text.js";
 import { prepare, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
@@ -33,6 +30,8 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     chains: opts.chains,
   });
   if (opts.format === "json") {
+    // Each other output format is loaded when asked for: a start loads only what the run needs.
+    const { renderJson } = await import("../render/summary-json.js");
     return renderJson(result.view, {
       budget,
       lines: result.selection.lines,
@@ -40,8 +39,12 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
       labels: opts.label !== undefined,
     });
   }
-  if (opts.format === "svg") return renderSvg(result.view, { units: unitsFor(opts), sizes: tree.hasSizes });
+  if (opts.format === "svg") {
+    const { renderSvg } = await import("../render/icicle-svg.js");
+    return renderSvg(result.view, { units: unitsFor(opts), sizes: tree.hasSizes });
+  }
   if (opts.format === "markdown") {
+    const { renderMarkdown } = await import("../render/summary-markdown.js");
     return renderMarkdown(result.view, { units: unitsFor(opts), sizes: tree.hasSizes, chains: opts.chains });
   }
   return renderText(result.view, {
