@@ -5,6 +5,7 @@ import type { LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
 import type { Tree } from "../model/tree.js";
 import { renderDiffJson } from "../render/diff-json.js";
+import { changeTag } from "../render/diff-line-parts.js";
 import { renderDiffMarkdown } from "../render/diff-markdown.js";
 import { renderDiffText } from "../render/diff-text.js";
 import { renderSvg } from "../render/icicle-svg.js";
@@ -55,6 +56,7 @@ export async function diffCommand(
     label: opts.label,
     pseudonymKey: key,
     chains: opts.chains,
+    compareFields: opts.compareField,
   });
   const by = result.combined.by;
   const textOptions = {
@@ -71,6 +73,7 @@ export async function diffCommand(
           units: textOptions.units,
           sizes: textOptions.sizes,
           changeOf: (n) => n.change,
+          changeNote: (n) => changeTag(n, textOptions),
         })
       : opts.format === "markdown"
         ? renderDiffMarkdown(result.view, result.totals, textOptions)
@@ -93,9 +96,14 @@ function loadTables(
   newInput: string,
   opts: DiffCliOptions,
 ): Promise<[Tree, Tree]> {
-  const newOptions = toLoadOptions(newInput, opts);
+  // Compared fields are kept beside the label's.
+  const keep = (options: LoadOptions): LoadOptions => ({
+    ...options,
+    keepFields: [...new Set([...options.keepFields, ...opts.compareField])],
+  });
+  const newOptions = keep(toLoadOptions(newInput, opts));
   // Both versions get the same synthetic root name, so that it never shows as a change.
-  const oldOptions = { ...toLoadOptions(oldInput, opts), rootName: newOptions.rootName };
+  const oldOptions = { ...keep(toLoadOptions(oldInput, opts)), rootName: newOptions.rootName };
   return loadBoth(io, oldInput, oldOptions, newInput, newOptions);
 }
 
