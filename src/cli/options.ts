@@ -50,6 +50,13 @@ export const summaryOptionsSchema = z.object({
   rolledUp: z.boolean().default(false).describe("The input is the result table of the --print-sql query."),
   printSql: z.boolean().default(false).describe("Print the rollup query in standard SQL and stop."),
   sqlTable: z.string().min(1).default("facts").describe("Table name in the --print-sql query."),
+  sqlReach: positiveInt("--sql-reach")
+    .optional()
+    .describe("With --print-sql: only nodes this many levels from the focus paths (a pushdown query)."),
+  pushdown: z
+    .enum(["auto", "always", "never"])
+    .default("auto")
+    .describe("Fetch a big rollup only as deep as the summary reaches (auto: past 1,000,000 rows)."),
   maxNodes: positiveInt("--max-nodes").optional().describe("Refuse inputs with more nodes than this."),
   output: z.string().min(1).optional().describe("Write to this file (whole or not at all), not stdout."),
 });

@@ -40,6 +40,15 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
     .option("--rolled-up", "the input is the result table of the --print-sql query, run elsewhere")
     .option("--print-sql", "print the rollup query in standard SQL (GROUP BY ROLLUP) and stop")
     .option("--sql-table <name>", "table name in the --print-sql query", "facts")
+    .option(
+      "--sql-reach <levels>",
+      "with --print-sql and foci: a pushdown query, nodes this near the focus paths",
+    )
+    .addOption(
+      new Option("--pushdown <when>", "fetch a big rollup only as deep as the summary reaches")
+        .choices(["auto", "always", "never"])
+        .default("auto"),
+    )
     .option("--name-field <field>", "field holding a node's name", "name")
     .option("--children-field <field>", "field holding a node's children", "children")
     .option("--size-field <field>", "field holding a node's own size", "size")

@@ -8,9 +8,9 @@ import { palette } from "../render/palette.js";
 import { renderSvg } from "../render/svg.js";
 import { renderText } from "../render/text.js";
 import type { Units } from "../render/units.js";
-import { prepare, summarize } from "../summarize.js";
+import { prepare, type SummaryResult, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
-import { isFactInput, loadFactInput } from "./fact-input.js";
+import { isFactInput, summarizeFactInput } from "./fact-input.js";
 import type { CliIO } from "./io.js";
 import { DEFAULT_BUDGET, PSEUDONYM_KEY_ENV, type SummaryCliOptions } from "./options.js";
 import { withProgress } from "./progress.js";
@@ -22,10 +22,20 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   const foci = [...opts.focus];
   if (opts.focusFrom !== undefined) foci.push(...(await readFociFile(io, opts.focusFrom, input)));
   const key = pseudonymKey(opts, io);
+  const budget = opts.budget ?? defaultBudget(io);
+  const options = {
+    foci,
+    budget,
+    importance: opts.importance,
+    label: opts.label,
+    pseudonymKey: key,
+    chains: opts.chains,
+  };
   let tree: Tree;
+  let result: SummaryResult;
   try {
     if (isFactInput(opts)) {
-      tree = await loadFactInput(input, opts, rootNameOf(input));
+      ({ tree, result } = await summarizeFactInput(input, opts, options, rootNameOf(input)));
     } else {
       const source = await readInputStream(io, input);
       // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
@@ -35,15 +45,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   } catch (err) {
     throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
   }
-  const budget = opts.budget ?? defaultBudget(io);
-  const result = summarize(prepare(tree), {
-    foci,
-    budget,
-    importance: opts.importance,
-    label: opts.label,
-    pseudonymKey: key,
-    chains: opts.chains,
-  });
+  result ??= summarize(prepare(tree), options);
   if (opts.format === "json") {
     return renderJson(result.view, {
       budget,

@@ -37,7 +37,7 @@ export function lineCost(
 ): number {
   if (!chains) return 1;
   const p = tree.parent[x];
-  return p >= 0 && measures.count[p] === measures.count[x] + 1 && scores.distance[p] !== 0 ? 0 : 1;
+  return p >= 0 && measures.nodes[p] === measures.nodes[x] + 1 && scores.distance[p] !== 0 ? 0 : 1;
 }
 
 /**
