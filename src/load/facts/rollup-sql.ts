@@ -40,7 +40,7 @@ export function rollupSql(options: FactOptions, depth: number, hasSize: boolean)
   const outer = [
     `  ${grouped} AS ${C.depth}`,
     ...ks.map((k) => `  ${l(k)} AS ${C.level}${k}`),
-    `  SUM(n) AS ${C.rows}`,
+    `  COALESCE(SUM(n), 0) AS ${C.rows}`,
     ...(hasSize ? [`  SUM(t) AS ${C.size}`, `  MIN(m) AS ${C.sizeMin}`] : []),
   ];
   return (
