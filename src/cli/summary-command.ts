@@ -3,14 +3,11 @@ import { defaultLoadOptions, type LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
-import { renderSvg } from "../render/icicle-svg.js";
 import { palette } from "../render/palette.js";
-import { renderJson } from "../render/summary-json.js";
-import { renderMarkdown } from "../render/summary-markdown.js";
 import { renderText } from "../render/summary-text.js";
 import { prepare, type SummaryResult, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
-import { isFactInput, summarizeFactInput } from "./fact-input.js";
+import { isFactInput, loadFactInput, summarizeFactInput } from "./fact-input.js";
 import type { CliIO } from "./io.js";
 import { DEFAULT_BUDGET, PSEUDONYM_KEY_ENV, type SummaryCliOptions } from "./options.js";
 import { withProgress } from "./progress.js";
@@ -33,20 +30,20 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   };
   let tree: Tree;
   let result: SummaryResult;
-  try {
-    if (isFactInput(opts)) {
+  if (isFactInput(opts)) {
+    // A fact table is summarised as it is fetched: only as deep as the summary reaches (see fact-input).
+    try {
       ({ tree, result } = await summarizeFactInput(input, opts, options, rootNameOf(input)));
-    } else {
-      const source = await readInputStream(io, input);
-      // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
-      const chunks = withProgress(source.chunks, io, displayName(input), source.size);
-      tree = await loadTreeFromStream(chunks, toLoadOptions(input, opts));
+    } catch (err) {
+      throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
     }
-  } catch (err) {
-    throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
+  } else {
+    tree = await loadInput(io, input, opts);
+    result = summarize(prepare(tree), options);
   }
-  result ??= summarize(prepare(tree), options);
   if (opts.format === "json") {
+    // Each other output format is loaded when asked for: a start loads only what the run needs.
+    const { renderJson } = await import("../render/summary-json.js");
     return renderJson(result.view, {
       budget,
       lines: result.selection.lines,
@@ -54,8 +51,12 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
       labels: opts.label !== undefined,
     });
   }
-  if (opts.format === "svg") return renderSvg(result.view, { units: unitsFor(opts), sizes: tree.hasSizes });
+  if (opts.format === "svg") {
+    const { renderSvg } = await import("../render/icicle-svg.js");
+    return renderSvg(result.view, { units: unitsFor(opts), sizes: tree.hasSizes });
+  }
   if (opts.format === "markdown") {
+    const { renderMarkdown } = await import("../render/summary-markdown.js");
     return renderMarkdown(result.view, { units: unitsFor(opts), sizes: tree.hasSizes, chains: opts.chains });
   }
   return renderText(result.view, {
@@ -65,6 +66,19 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     chains: opts.chains,
     width: opts.width ?? defaultWidth(io),
   });
+}
+
+/** Loads one input as every command does: a fact table rolled up, else any tree format, streamed. */
+export async function loadInput(io: CliIO, input: string, opts: SummaryCliOptions): Promise<Tree> {
+  try {
+    if (isFactInput(opts)) return await loadFactInput(input, opts, rootNameOf(input));
+    const source = await readInputStream(io, input);
+    // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
+    const chunks = withProgress(source.chunks, io, displayName(input), source.size);
+    return await loadTreeFromStream(chunks, toLoadOptions(input, opts));
+  } catch (err) {
+    throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
+  }
 }
 
 export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptions {
@@ -129,7 +143,7 @@ export function defaultBudget(io: CliIO): number {
   return DEFAULT_BUDGET;
 }
 
-function pseudonymKey(opts: SummaryCliOptions, io: CliIO): string | undefined {
+export function pseudonymKey(opts: SummaryCliOptions, io: CliIO): string | undefined {
   if (!opts.pseudonymize) return undefined;
   const key = io.env[PSEUDONYM_KEY_ENV];
   if (!key) {
