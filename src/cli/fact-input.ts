@@ -5,10 +5,10 @@ import { parseSegment, splitPath } from "../model/segment.js";
 import type { Tree } from "../model/tree.js";
 import { prepare, type SummarizeOptions, type SummaryResult, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
-import type { SummaryCliOptions } from "./options.js";
+import type { SharedCliOptions, SummaryCliOptions } from "./options.js";
 
 /** Whether the options make the input a fact table (rolled up by the SQL engine). */
-export function isFactInput(opts: SummaryCliOptions): boolean {
+export function isFactInput(opts: SharedCliOptions): boolean {
   return (
     opts.levels !== undefined ||
     opts.keyField !== undefined ||
@@ -19,7 +19,7 @@ export function isFactInput(opts: SummaryCliOptions): boolean {
 }
 
 /** How the options say a fact table forms a hierarchy. */
-export function factOptionsOf(opts: SummaryCliOptions): FactOptions {
+export function factOptionsOf(opts: SharedCliOptions): FactOptions {
   const levels = opts.levels === undefined ? [] : opts.levels.split(",").map((c) => c.trim());
   if (levels.some((c) => c === "")) throw new EspalierError("USAGE", "--levels has an empty column name");
   if (levels.length > 0 && opts.keyField !== undefined)
@@ -44,12 +44,12 @@ export function factOptionsOf(opts: SummaryCliOptions): FactOptions {
  * Loads a fact table through the embedded engine. The loader (and through it the engine) is imported
  * here, when a fact table is read, never at start-up.
  */
-export async function loadFactInput(input: string, opts: SummaryCliOptions, rootName: string): Promise<Tree> {
+export async function loadFactInput(input: string, opts: SharedCliOptions, rootName: string): Promise<Tree> {
   const { loadFactTable } = await import("../load/facts/load-facts.js");
   return loadFactTable(factLoadOf(input, opts, rootName));
 }
 
-function factLoadOf(input: string, opts: SummaryCliOptions, rootName: string): FactLoad {
+function factLoadOf(input: string, opts: SharedCliOptions, rootName: string): FactLoad {
   if (input === "-") {
     throw new EspalierError(
       "USAGE",
@@ -80,7 +80,7 @@ export const PUSHDOWN_FROM = 1_000_000;
  */
 export async function summarizeFactInput(
   input: string,
-  opts: SummaryCliOptions,
+  opts: SharedCliOptions,
   options: SummarizeOptions,
   rootName: string,
 ): Promise<{ tree: Tree; result: SummaryResult }> {
@@ -176,7 +176,7 @@ export async function printSqlCommand(input: string | undefined, opts: SummaryCl
   return printedSql(facts, await deepestKey(input, factFormat(input, opts), facts), reach);
 }
 
-function factFormat(input: string, opts: SummaryCliOptions): FactFormat {
+function factFormat(input: string, opts: SharedCliOptions): FactFormat {
   const forced = opts.inputFormat;
   if (forced === "csv" || forced === "tsv" || forced === "parquet" || forced === "jsonl") return forced;
   if (forced !== undefined)
