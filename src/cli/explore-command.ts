@@ -13,13 +13,12 @@ import { type ExploreEvent, fociOf, needsWork, STATUS_ROWS, startState, update }
 import { resolveFoci } from "../focus/resolve.js";
 import { palette } from "../render/palette.js";
 import { prepare } from "../summarize.js";
-import { loadBoth } from "./diff-command.js";
 import { EXIT } from "./exit-codes.js";
+import { loadInput, loadVersions, pseudonymKey, readFoci } from "./input.js";
 import type { CliIO } from "./io.js";
 import { type SummaryCliOptions, summaryOptionsSchema } from "./options.js";
+import { unitsFor, useColour } from "./output-settings.js";
 import { flagsByKey } from "./parse-command-line.js";
-import { readInput } from "./read-input.js";
-import { loadInput, pseudonymKey, toLoadOptions, unitsFor, useColour } from "./summary-command.js";
 import { writeOutput } from "./write-output.js";
 
 /** How the command was set up, beyond its options. */
@@ -47,12 +46,7 @@ export async function exploreCommand(
     );
   const terminal = setup.terminal ?? nodeTerminal(input === "-" || newInput === "-");
   const inputs = newInput === undefined ? [input] : [input, newInput];
-  const foci = [...opts.focus];
-  if (opts.focusFrom !== undefined) {
-    if (opts.focusFrom === "-" && inputs.includes("-"))
-      throw new EspalierError("USAGE", "standard input cannot hold both the tree and the foci");
-    foci.push(...(await readInput(io, opts.focusFrom)).split(/\r?\n/).filter((line) => line !== ""));
-  }
+  const foci = await readFoci(io, opts, inputs);
   const key = pseudonymKey(opts, io);
   const look = {
     units: unitsFor(opts),
@@ -65,11 +59,7 @@ export async function exploreCommand(
   if (newInput === undefined) {
     session = summarySession(prepare(await loadInput(io, input, opts)), look);
   } else {
-    if (input === "-" && newInput === "-")
-      throw new EspalierError("USAGE", "only one of the two versions can come from standard input");
-    const newOptions = toLoadOptions(newInput, opts);
-    const oldOptions = { ...toLoadOptions(input, opts), rootName: newOptions.rootName };
-    const [oldTree, newTree] = await loadBoth(io, input, oldOptions, newInput, newOptions);
+    const [oldTree, newTree] = await loadVersions(io, input, newInput, opts);
     session = diffSession(prepareDiff(oldTree, newTree), look);
   }
   const given = resolveFoci(session.index, foci, key);
