@@ -5,7 +5,7 @@ import { EXIT } from "./exit-codes.js";
 import { loadVersions, pseudonymKey, readFoci } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { DiffCliOptions } from "./options.js";
-import { outputSettings } from "./output-settings.js";
+import { defaultBudget, outputSettings } from "./output-settings.js";
 import { diffRenderers } from "./renderers.js";
 
 /** Reads, compares and renders two versions; returns the text to print and the exit code. */
@@ -18,16 +18,16 @@ export async function diffCommand(
   const foci = await readFoci(io, opts, [oldInput, newInput]);
   const key = pseudonymKey(opts, io);
   const [oldTree, newTree] = await loadVersions(io, oldInput, newInput, opts);
-  const settings = outputSettings(opts, io);
   const result = diffTrees(oldTree, newTree, {
     foci,
-    budget: settings.budget,
+    budget: opts.budget ?? defaultBudget(io),
     importance: opts.importance,
     label: opts.label,
     pseudonymKey: key,
     chains: opts.chains,
   });
-  const text = await diffRenderers[opts.format](result, settings, result.combined.tree.hasSizes);
+  const { tree } = result.combined;
+  const text = await diffRenderers[opts.format](result, outputSettings(opts, io, tree), tree);
   const differ = totalChanges(result.totals.changes) > 0;
   return { text, exitCode: opts.exitCode && differ ? EXIT.differences : EXIT.ok };
 }

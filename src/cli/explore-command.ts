@@ -11,6 +11,7 @@ import type { ExploreState } from "../explore/state.js";
 import { ENTER, frame, LEAVE } from "../explore/terminal.js";
 import { type ExploreEvent, fociOf, needsWork, STATUS_ROWS, startState, update } from "../explore/update.js";
 import { resolveFoci } from "../focus/resolve.js";
+import type { Tree } from "../model/tree.js";
 import { palette } from "../render/palette.js";
 import { prepare } from "../summarize.js";
 import { EXIT } from "./exit-codes.js";
@@ -48,19 +49,22 @@ export async function exploreCommand(
   const inputs = newInput === undefined ? [input] : [input, newInput];
   const foci = await readFoci(io, opts, inputs);
   const key = pseudonymKey(opts, io);
-  const look = {
-    units: unitsFor(opts),
+  // The unit of size follows the loaded tree (file sizes and a document's bytes print as bytes).
+  const look = (tree: Tree) => ({
+    units: unitsFor(opts, tree),
     label: opts.label,
     chains: opts.chains,
     pseudonymKey: key,
     palette: palette(useColour(opts, io)),
-  };
+  });
   let session: Session;
   if (newInput === undefined) {
-    session = summarySession(prepare(await loadInput(io, input, opts)), look);
+    const tree = await loadInput(io, input, opts);
+    session = summarySession(prepare(tree), look(tree));
   } else {
     const [oldTree, newTree] = await loadVersions(io, input, newInput, opts);
-    session = diffSession(prepareDiff(oldTree, newTree), look);
+    const prepared = prepareDiff(oldTree, newTree);
+    session = diffSession(prepared, look(prepared.combined.tree));
   }
   const given = resolveFoci(session.index, foci, key);
   const size = () => ({

@@ -119,6 +119,8 @@ export function toLoadOptions(input: string, opts: SharedCliOptions): LoadOption
     keepFields: opts.label ? templateFields(opts.label) : [],
     rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
+    ...(opts.readAs === "auto" ? {} : { readAs: opts.readAs }),
+    ...(opts.nulSeparated ? { nulSeparated: true } : {}),
   };
 }
 

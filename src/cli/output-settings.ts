@@ -1,3 +1,4 @@
+import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
 import { type Palette, palette } from "../render/palette.js";
 import type { CliIO } from "./io.js";
@@ -15,22 +16,29 @@ export interface OutputSettings {
   labels: boolean;
 }
 
-/** The settings of one run: options first, then the terminal (when printing to one), then defaults. */
-export function outputSettings(opts: SharedCliOptions, io: CliIO): OutputSettings {
+/**
+ * The settings of one run: options first, then the terminal (when printing to one), then defaults; the
+ * unit of size also from the loaded tree.
+ */
+export function outputSettings(opts: SharedCliOptions, io: CliIO, tree: Tree): OutputSettings {
   return {
     budget: opts.budget ?? defaultBudget(io),
     width: opts.width ?? defaultWidth(io),
-    units: unitsFor(opts),
+    units: unitsFor(opts, tree),
     palette: palette(useColour(opts, io)),
     chains: opts.chains,
     labels: opts.label !== undefined,
   };
 }
 
-/** Sizes print as bytes when the size field is called size or bytes, as plain numbers otherwise. */
-export function unitsFor(opts: SharedCliOptions): Units {
+/**
+ * Sizes print as bytes when the loader says they count bytes (see src/load/size-unit.ts), else plain.
+ * Without a loaded tree (a caller that decides before loading) the size field's name decides.
+ */
+export function unitsFor(opts: SharedCliOptions, tree?: Tree): Units {
   if (opts.units !== "auto") return opts.units;
-  return ["size", "bytes"].includes(opts.sizeField.toLowerCase()) ? "bytes" : "plain";
+  if (tree === undefined) return ["size", "bytes"].includes(opts.sizeField.toLowerCase()) ? "bytes" : "plain";
+  return tree.reading?.sizeUnit === "bytes" ? "bytes" : "plain";
 }
 
 /** Colour only on a terminal, never with NO_COLOR set (no-color.org) or TERM=dumb, unless forced. */

@@ -10,7 +10,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   const foci = await readFoci(io, opts, [input]);
   const key = pseudonymKey(opts, io);
   const tree = await loadInput(io, input, opts);
-  const settings = outputSettings(opts, io);
+  const settings = outputSettings(opts, io, tree);
   const result = summarize(prepare(tree), {
     foci,
     budget: settings.budget,
@@ -19,5 +19,5 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     pseudonymKey: key,
     chains: opts.chains,
   });
-  return summaryRenderers[opts.format](result, settings, tree.hasSizes);
+  return summaryRenderers[opts.format](result, settings, tree);
 }
