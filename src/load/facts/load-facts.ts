@@ -3,6 +3,7 @@ import { tmpdir } from "node:os";
 import { parse } from "csv-parse/sync";
 import { EspalierError } from "../../errors.js";
 import type { Tree } from "../../model/tree.js";
+import { missingField, sizeFieldNamed } from "../missing-field.js";
 import { type Columns, type Engine, type EngineSettings, openEngine } from "./engine.js";
 import type { FactFormat, FactOptions } from "./fact-options.js";
 import { ROLLUP_TABLE, STATS_TABLE } from "./printed-sql.js";
@@ -78,6 +79,7 @@ export async function openFactTable(load: FactLoad): Promise<FactSession> {
     }
     requireColumns(columns, load.facts);
     const hasSize = columns.includes(load.facts.sizeField);
+    if (!hasSize && sizeFieldNamed(load.facts)) throw missingField("size", load.facts.sizeField, columns);
     const depth = load.facts.levels.length > 0 ? load.facts.levels.length : await keyDepth(engine, load);
     await run(
       engine,

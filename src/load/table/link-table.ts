@@ -3,6 +3,7 @@ import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { copyName, isEmptyName, NamePool } from "../../model/names.js";
 import { isSize } from "../../model/size-rule.js";
 import type { LoadOptions } from "../load-options.js";
+import { missingField, sizeFieldNamed } from "../missing-field.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer } from "../path-placer.js";
@@ -55,7 +56,7 @@ function linkById(
   const keep = keptColumns(table, options);
   const pooled = table.pooledColumn?.(options.nameField);
   const names = pooled ? undefined : table.column(options.nameField);
-  const sizes = table.column(options.sizeField);
+  const sizes = sizeColumn(table, options);
   // A column of text is its own list of ids (the index writes back the same strings); else a copy.
   const ids: string[] = allText(idCells, n) ? (idCells as string[]) : new Array(n);
   const rowOf = new IdIndex(ids);
@@ -129,7 +130,7 @@ function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptio
   const n = table.length;
   const keep = keptColumns(table, options);
   const names = table.column(options.nameField);
-  const sizes = table.column(options.sizeField);
+  const sizes = sizeColumn(table, options);
   const sink = new NodeSink(options.maxNodes, true);
   // A name cell relabels the node in the sink, so the placer keeps the names it finds nodes by.
   const index = new PathPlacer(sink, names !== undefined);
@@ -157,17 +158,24 @@ function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptio
   return sink.finish(options.rootName, fields);
 }
 
+/** The size column; a named size field that is no column is FIELD_MISSING naming the columns. */
+function sizeColumn(table: Table, options: LoadOptions): readonly Cell[] | undefined {
+  const sizes = table.column(options.sizeField);
+  if (!sizes && sizeFieldNamed(options)) throw missingField("size", options.sizeField, visibleColumns(table));
+  return sizes;
+}
+
+/** The columns a user can name (a path map's key column is no field of the records). */
+function visibleColumns(table: Table): string[] {
+  return table.columnNames().filter((name) => name !== PATH_KEY);
+}
+
 /** The kept columns as text, by row; FIELD_MISSING names the columns there are. */
 function keptColumns(table: Table, options: LoadOptions): Map<string, string[]> {
   const values = new Map<string, string[]>();
   for (const key of options.keepFields) {
     const cells = table.column(key);
-    if (!cells) {
-      throw new EspalierError(
-        "FIELD_MISSING",
-        `no column "${key}" to keep; the columns are ${listNames(table.columnNames())}`,
-      );
-    }
+    if (!cells) throw missingField("kept", key, visibleColumns(table));
     values.set(key, cells.map(cellText));
   }
   return values;
