@@ -11,6 +11,7 @@ import type { ExploreState } from "../explore/state.js";
 import { ENTER, frame, LEAVE } from "../explore/terminal.js";
 import { type ExploreEvent, fociOf, needsWork, STATUS_ROWS, startState, update } from "../explore/update.js";
 import { resolveFoci } from "../focus/resolve.js";
+import type { Tree } from "../model/tree.js";
 import { palette } from "../render/palette.js";
 import { prepare } from "../summarize.js";
 import { loadBoth } from "./diff-command.js";
@@ -54,23 +55,27 @@ export async function exploreCommand(
     foci.push(...(await readInput(io, opts.focusFrom)).split(/\r?\n/).filter((line) => line !== ""));
   }
   const key = pseudonymKey(opts, io);
-  const look = {
-    units: unitsFor(opts),
+  // The units follow the tree as read (as the summary and diff decide them), so the screen and the
+  // printed command line show the same numbers.
+  const look = (tree: Tree) => ({
+    units: unitsFor(opts, tree),
     label: opts.label,
     chains: opts.chains,
     pseudonymKey: key,
     palette: palette(useColour(opts, io)),
-  };
+  });
   let session: Session;
   if (newInput === undefined) {
-    session = summarySession(prepare(await loadInput(io, input, opts)), look);
+    const tree = await loadInput(io, input, opts);
+    session = summarySession(prepare(tree), look(tree));
   } else {
     if (input === "-" && newInput === "-")
       throw new EspalierError("USAGE", "only one of the two versions can come from standard input");
     const newOptions = toLoadOptions(newInput, opts);
     const oldOptions = { ...toLoadOptions(input, opts), rootName: newOptions.rootName };
     const [oldTree, newTree] = await loadBoth(io, input, oldOptions, newInput, newOptions);
-    session = diffSession(prepareDiff(oldTree, newTree), look);
+    const prepared = prepareDiff(oldTree, newTree);
+    session = diffSession(prepared, look(prepared.combined.tree));
   }
   const given = resolveFoci(session.index, foci, key);
   const size = () => ({
