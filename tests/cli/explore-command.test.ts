@@ -273,6 +273,15 @@ describe("espalier explore", () => {
     expect(first.join("\n")).toContain("[added] b2");
     // n went to the first change (a2, removed), then the next (b2, added): the view ends focused on b2.
     expect(out.text).toBe(`espalier diff ${oldFile} ${newFile} --focus b/b2 --budget 11\n`);
+    // Run without the view, the printed line prints the last screen's rows, the totals line included.
+    const screen = terminal
+      .lastFrame()
+      .slice(0, -1)
+      .filter((row) => row !== "")
+      .map((row) => row.slice(2));
+    const printed = await cli([...argsOf(out.text.trim()).slice(1), "--width", "58", "--color", "never"]);
+    expect(printed.code).toBe(0);
+    expect(printed.stdout).toBe(`${screen.join("\n")}\n`);
   });
 
   it("with --pseudonymize, a failed write of a config file says only its error code", async () => {
