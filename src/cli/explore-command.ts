@@ -15,13 +15,12 @@ import { resolveFoci } from "../focus/resolve.js";
 import type { Tree } from "../model/tree.js";
 import { palette } from "../render/palette.js";
 import { prepare } from "../summarize.js";
-import { loadBoth } from "./diff-command.js";
 import { EXIT } from "./exit-codes.js";
+import { loadInput, loadVersions, pseudonymKey, readFoci } from "./input.js";
 import type { CliIO } from "./io.js";
 import { type SummaryCliOptions, summaryOptionsSchema } from "./options.js";
+import { unitsFor, useColour } from "./output-settings.js";
 import { flagsByKey } from "./parse-command-line.js";
-import { readInput } from "./read-input.js";
-import { loadInput, pseudonymKey, toLoadOptions, unitsFor, useColour } from "./summary-command.js";
 import { writeOutput } from "./write-output.js";
 
 /** How the command was set up, beyond its options. */
@@ -49,15 +48,9 @@ export async function exploreCommand(
     );
   const terminal = setup.terminal ?? nodeTerminal(input === "-" || newInput === "-");
   const inputs = newInput === undefined ? [input] : [input, newInput];
-  const foci = [...opts.focus];
-  if (opts.focusFrom !== undefined) {
-    if (opts.focusFrom === "-" && inputs.includes("-"))
-      throw new EspalierError("USAGE", "standard input cannot hold both the tree and the foci");
-    foci.push(...(await readInput(io, opts.focusFrom)).split(/\r?\n/).filter((line) => line !== ""));
-  }
+  const foci = await readFoci(io, opts, inputs);
   const key = pseudonymKey(opts, io);
-  // The units follow the tree as read (as the summary and diff decide them), so the screen and the
-  // printed command line show the same numbers.
+  // The unit of size follows the loaded tree (file sizes and a document's bytes print as bytes).
   const look = (tree: Tree) => ({
     units: unitsFor(opts, tree),
     label: opts.label,
@@ -70,11 +63,7 @@ export async function exploreCommand(
     const tree = await loadInput(io, input, opts);
     session = summarySession(prepare(tree), look(tree));
   } else {
-    if (input === "-" && newInput === "-")
-      throw new EspalierError("USAGE", "only one of the two versions can come from standard input");
-    const newOptions = toLoadOptions(newInput, opts);
-    const oldOptions = { ...toLoadOptions(input, opts), rootName: newOptions.rootName };
-    const [oldTree, newTree] = await loadBoth(io, input, oldOptions, newInput, newOptions);
+    const [oldTree, newTree] = await loadVersions(io, input, newInput, opts);
     const prepared = prepareDiff(oldTree, newTree);
     session = diffSession(prepared, look(prepared.combined.tree));
   }
