@@ -1,6 +1,7 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { type Selection, select } from "./fit/select.js";
-import { resolveFoci } from "./focus/resolve.js";
+import type { FocusSpec, UnmatchedFoci } from "./focus/focus-spec.js";
+import { resolveSpecs } from "./focus/resolve-specs.js";
 import { type Importance, importance } from "./interest/importance.js";
 import { interestNear } from "./interest/near.js";
 import { childrenByDepthOrder, nodeOrder } from "./interest/order.js";
@@ -32,8 +33,10 @@ export function prepare(tree: Tree): Prepared {
 }
 
 export interface SummarizeOptions {
-  /** Focus specs: paths, ids or globs. */
-  foci: readonly string[];
+  /** Focus specs: paths, ids or globs, and literal lines of a focus list (see focus/focus-spec.ts). */
+  foci: readonly FocusSpec[];
+  /** A focus that matches no node: an error (default), or left out and listed in `unmatchedFoci`. */
+  unmatchedFoci?: UnmatchedFoci;
   /** Line budget for the text rendering. */
   budget: number;
   importance: Importance;
@@ -55,13 +58,15 @@ export interface SummaryResult {
   foci: Int32Array;
   /** Printed paths of the foci, in pre-order. */
   fociPaths: string[];
+  /** Foci that matched no node and were left out (see `SummarizeOptions.unmatchedFoci`). */
+  unmatchedFoci: string[];
 }
 
 /** focus -> interest -> fit -> view, on a prepared tree. Pure: same inputs, same result. */
 export function summarize(prepared: Prepared, options: SummarizeOptions): SummaryResult {
   const { tree, measures, index } = prepared;
   const key = options.pseudonymKey;
-  const foci = resolveFoci(index, options.foci, key);
+  const { foci, unmatched } = resolveSpecs(index, options.foci, key, options.unmatchedFoci);
   const api = cachedImportance(prepared, options.importance);
   const scores = interestNear(tree, api, foci);
   const selection = select(
@@ -85,7 +90,7 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
   const idOf = hiddenIds(tree, key);
   const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf, (i) => idOf(i) ?? "");
   const view = buildView(index, scores, foci, selection, label, nameOf, pathOf, idOf);
-  return { view, selection, scores, foci, fociPaths: [...foci].map(pathOf) };
+  return { view, selection, scores, foci, fociPaths: [...foci].map(pathOf), unmatchedFoci: unmatched };
 }
 
 // Per loaded tree, what does not depend on the foci: the a-priori importance of each kind. A new focus
