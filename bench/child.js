@@ -8,7 +8,7 @@
 //             the engine's default heap limit (what the launcher compares its estimate with)
 //   floor     the least any loader must do: read the text and parse it, with no tree built
 //   full      what `espalier FILE --focus A --focus B --budget N` does, step by step as
-//             src/cli/summary-command.ts does it (chunks from a file stream, loadTreeFromStream, prepare,
+//             src/cli/summary-command.ts and input.ts do it (chunks from a file stream, loadTreeFromStream, prepare,
 //             summarize, renderText), through the modules in dist/
 //   memory    the same summary through the in-memory loader: read the whole text, then loadTree
 //   refocus   load once (as the CLI loads), then time summarize() for many different random foci
@@ -16,11 +16,12 @@
 
 import { constants } from "node:buffer";
 import { createHash } from "node:crypto";
-import { createReadStream, existsSync, statSync, writeFileSync } from "node:fs";
+import { createReadStream, statSync, writeFileSync } from "node:fs";
 import { open, readFile } from "node:fs/promises";
 import { Session } from "node:inspector/promises";
 import { totalmem } from "node:os";
 import { getHeapStatistics } from "node:v8";
+import launcher from "../bin/load-bundle.js";
 import { makeRng } from "./generate.js";
 
 const DIST = new URL("../dist/index.js", import.meta.url);
@@ -158,8 +159,9 @@ async function readAsCli(file) {
 
 /** The CLI's modules (dist/cli), imported before the clock starts. */
 async function cliModules() {
-  const [command, stream, progress, options, palette] = await Promise.all([
-    import(CLI("summary-command")),
+  const [input, settings, stream, progress, options, palette] = await Promise.all([
+    import(CLI("input")),
+    import(CLI("output-settings")),
     import(CLI("read-input-stream")),
     import(CLI("progress")),
     import(CLI("options")),
@@ -167,11 +169,8 @@ async function cliModules() {
   ]);
   // loadInWorker as bin/espalier.js hands it over: from the bundle (its worker starts from the
   // bundle's load-worker.js), unless the compiled modules are newer (then, as bin does, from them).
-  const bundle = new URL("../dist/bundle/espalier.js", import.meta.url);
-  const modules = new URL("../dist/cli/launch.js", import.meta.url);
-  const fresh = existsSync(bundle) && statSync(bundle).mtimeMs >= statSync(modules).mtimeMs;
-  const { loadInWorker } = await import(fresh ? bundle : CLI("load-in-worker"));
-  return { ...command, ...stream, ...progress, ...options, ...palette, loadInWorker };
+  const { loadInWorker } = await launcher.loadCli();
+  return { ...input, ...settings, ...stream, ...progress, ...options, ...palette, loadInWorker };
 }
 
 /**

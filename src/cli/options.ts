@@ -2,11 +2,16 @@ import * as z from "zod";
 import { importances } from "../interest/importance.js";
 import { inputFormats } from "../load/load-options.js";
 
+// Options are validated once a run: zod's compiled fast path (generated code, made on first use) costs
+// more than it saves there (start-up, issue 14). Set before any schema below is made.
+z.config({ jitless: true });
+
 /** Input formats on the command line: the tree formats, and the formats only fact tables come in. */
 export const cliInputFormats = [...inputFormats, "jsonl", "parquet"] as const;
 
 /** Output formats of a summary and of a diff. */
 export const outputFormats = ["text", "json", "markdown", "svg"] as const;
+export type OutputFormat = (typeof outputFormats)[number];
 /** When text output is coloured. */
 export const colorModes = ["auto", "always", "never"] as const;
 /** How sizes print. */
