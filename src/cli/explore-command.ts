@@ -46,7 +46,6 @@ export async function exploreCommand(
       "USAGE",
       "espalier explore draws on a terminal, and standard output is not one; run espalier without explore to print a summary",
     );
-  const terminal = setup.terminal ?? nodeTerminal(input === "-" || newInput === "-");
   const inputs = newInput === undefined ? [input] : [input, newInput];
   const foci = await readFoci(io, opts, inputs);
   const key = pseudonymKey(opts, io);
@@ -71,6 +70,9 @@ export async function exploreCommand(
   // Before the view takes the screen: the warning stays on the terminal after it.
   if (resolved.unmatched.length > 0) io.stderr.write(unmatchedWarning(resolved.unmatched));
   const given = resolved.foci;
+  // The terminal is taken only once the input has loaded and its foci resolved: an error in either is
+  // reported on the untouched terminal, like any command's.
+  const terminal = setup.terminal ?? nodeTerminal(input === "-" || newInput === "-");
   const size = () => ({
     rows: terminal.rows(),
     cols: Math.min(opts.width ?? Number.POSITIVE_INFINITY, terminal.cols()),
