@@ -1,7 +1,7 @@
 import { isMap, isScalar, LineCounter, parseDocument } from "yaml";
 import * as z from "zod";
+import { didYouMeanText } from "../did-you-mean.js";
 import { EspalierError, type SourcePos } from "../errors.js";
-import { didYouMeanText } from "./did-you-mean.js";
 import type { CliIO } from "./io.js";
 import { configSchema } from "./options.js";
 import { issueMessage } from "./validate-options.js";
