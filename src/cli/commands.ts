@@ -87,7 +87,7 @@ function defineCommand<S extends z.ZodObject>(def: CommandDef<S>): CommandSpec {
         io,
       );
       if (line.given.optionsInEffect === true)
-        return { text: optionsInEffectYaml(options, configFile), exitCode: EXIT.ok, target: undefined };
+        return { text: await optionsInEffectYaml(options, configFile), exitCode: EXIT.ok, target: undefined };
       const early = await def.early?.(line.args, options);
       if (early) return { ...early, target: undefined };
       checkArguments(def, line.args);

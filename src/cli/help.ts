@@ -1,4 +1,4 @@
-import stringWidth from "string-width";
+import { displayWidth } from "../render/display-width.js";
 import { MARK } from "../render/line-parts.js";
 import type { CommandSpec } from "./commands.js";
 import type { OptionFlags } from "./option-flags.js";
@@ -42,7 +42,7 @@ export function renderHelp(command: CommandName, commands: Record<CommandName, C
   const out: string[] = [...wrap(`espalier ${packageVersion()} ${ABOUT}`, WIDTH), ""];
 
   out.push("Commands");
-  const usageWidth = Math.max(...commandNames.map((c) => stringWidth(commands[c].usage)));
+  const usageWidth = Math.max(...commandNames.map((c) => displayWidth(commands[c].usage)));
   for (const c of commandNames) out.push(...entry(commands[c].usage, commands[c].summary, usageWidth + 4));
   out.push(
     ...wrap(
@@ -116,7 +116,7 @@ function readingLines(command: CommandName): string[] {
   ];
   if (command === "diff")
     lines.push(
-      "[added] [removed] [moved from PARENT] [renamed from NAME] [resized ±SIZE] say how a node " +
+      "[added] [removed] [moved from PARENT] [renamed from NAME] [edited FIELD OLD -> NEW] [resized ±SIZE] say how a node " +
         "changed; net ±SIZE is its subtree's change in size; a fold also counts the changes it hides.",
     );
   return lines;
@@ -127,7 +127,7 @@ function entry(name: string, text: string, at: number): string[] {
   const hang = " ".repeat(INDENT.length + at);
   const lines = wrap(text, WIDTH - hang.length).map((line) => hang + line);
   const head = INDENT + name;
-  if (stringWidth(head) + 2 <= hang.length) lines[0] = head + lines[0].slice(stringWidth(head));
+  if (displayWidth(head) + 2 <= hang.length) lines[0] = head + lines[0].slice(displayWidth(head));
   else lines.unshift(head);
   return lines;
 }
@@ -137,7 +137,7 @@ function wrap(text: string, width: number): string[] {
   const lines: string[] = [];
   let line = "";
   for (const word of text.split(" ")) {
-    if (line !== "" && stringWidth(line) + 1 + stringWidth(word) > width) {
+    if (line !== "" && displayWidth(line) + 1 + displayWidth(word) > width) {
       lines.push(line);
       line = word;
     } else line = line === "" ? word : `${line} ${word}`;

@@ -2,6 +2,10 @@ import * as z from "zod";
 import { importances } from "../interest/importance.js";
 import { inputFormats } from "../load/load-options.js";
 
+// Options are validated once a run: zod's compiled fast path (generated code, made on first use) costs
+// more than it saves there (start-up, issue 14). Set before any schema below is made.
+z.config({ jitless: true });
+
 /** Input formats on the command line: the tree formats, and the formats only fact tables come in. */
 export const cliInputFormats = [...inputFormats, "jsonl", "parquet"] as const;
 
@@ -302,6 +306,16 @@ export const diffOnlyOptions = {
       .boolean()
       .default(false)
       .describe("exit with status 1 when the versions differ (0 when they are the same, 2 on an error)"),
+  },
+  compareField: {
+    flags: "--compare-field <field>",
+    group: "Diff only",
+    schema: z
+      .array(z.string().min(1))
+      .default([])
+      .describe(
+        "a record field compared between matched nodes; a new value is a change (edited); repeatable",
+      ),
   },
 } satisfies Record<string, OptionSpec>;
 
