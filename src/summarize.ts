@@ -60,7 +60,7 @@ export interface SummaryResult {
 export function summarize(prepared: Prepared, options: SummarizeOptions): SummaryResult {
   const { tree, measures, index } = prepared;
   const key = options.pseudonymKey;
-  const foci = resolveFoci(index, options.foci, key);
+  const foci = fullEntries(tree, resolveFoci(index, options.foci, key));
   const api = cachedImportance(prepared, options.importance);
   const scores = interest(tree, api, foci, scratchOf(prepared));
   const selection = select(
@@ -85,6 +85,15 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
   const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf, (i) => idOf(i) ?? "");
   const view = buildView(index, scores, foci, selection, label, nameOf, pathOf, idOf);
   return { view, selection, scores, foci, fociPaths: [...foci].map(pathOf) };
+}
+
+/** Foci with each reference (graphs) replaced by its node's full entry, sorted, without repeats. */
+function fullEntries(tree: Tree, foci: Int32Array): Int32Array {
+  const ref = tree.referenceTo;
+  if (ref === undefined) return foci;
+  const set = new Set<number>();
+  for (const f of foci) set.add(ref[f] === -1 ? f : ref[f]);
+  return Int32Array.from([...set].sort((a, b) => a - b));
 }
 
 // Per loaded tree, what does not depend on the foci: the a-priori importance of each kind, and room for

@@ -66,6 +66,7 @@ export function addDiffCommand(
       const parsed = diffOptionsSchema.safeParse({
         ...values,
         pseudonymize: values.pseudonymize === true,
+        graph: values.graph === true,
         exitCode: values.exitCode === true,
         chains: values.chains !== false,
       });
@@ -94,6 +95,11 @@ export async function diffCommand(
     foci.push(...text.split(/\r?\n/).filter((line) => line !== ""));
   }
   const key = pseudonymKey(opts, io);
+  if (opts.nodes !== undefined)
+    throw new EspalierError(
+      "USAGE",
+      "espalier diff does not read --nodes yet: compare graphs without node records",
+    );
   const newOptions = toLoadOptions(newInput, opts);
   // Both versions get the same synthetic root name, so that it never shows as a change.
   const oldOptions = { ...toLoadOptions(oldInput, opts), rootName: newOptions.rootName };

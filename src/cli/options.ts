@@ -27,6 +27,16 @@ export const summaryOptionsSchema = z.object({
   idField: z.string().min(1).default("id").describe("Column holding a row's id."),
   parentField: z.string().min(1).default("parent").describe("Column holding the parent's id."),
   pathField: z.string().min(1).default("path").describe("Column holding a row's path."),
+  childField: z.string().min(1).default("child").describe("Column holding an edge's child id (edge tables)."),
+  graph: z
+    .boolean()
+    .default(false)
+    .describe("Read an id/parent table as a graph: an id may repeat with other parents."),
+  nodes: z
+    .string()
+    .min(1)
+    .optional()
+    .describe("Node records of a graph (names, sizes, fields) from this table."),
   importance: z.enum(importances).default("depth").describe("A-priori importance: depth or size."),
   units: z.enum(["auto", "bytes", "plain"]).default("auto").describe("How sizes print."),
   label: z.string().optional().describe("Label template, e.g. '{title}, {team}'."),

@@ -39,6 +39,9 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
     .option("--id-field <column>", "column holding a row's id", "id")
     .option("--parent-field <column>", "column holding the parent's id", "parent")
     .option("--path-field <column>", "column holding a row's path", "path")
+    .option("--child-field <column>", "column holding an edge's child id (edge tables)", "child")
+    .option("--graph", "read an id/parent table as a graph: an id may repeat with other parents")
+    .option("--nodes <file>", "node records of a graph (names, sizes, fields) from this CSV/TSV/JSON table")
     .addOption(
       new Option("--importance <kind>", "a-priori importance: depth, or size (bigger subtrees matter more)")
         .choices(importances)
@@ -78,6 +81,7 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
       const parsed = summaryOptionsSchema.safeParse({
         ...values,
         pseudonymize: values.pseudonymize === true,
+        graph: values.graph === true,
         chains: values.chains !== false,
       });
       if (!parsed.success) {

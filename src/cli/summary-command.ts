@@ -11,6 +11,7 @@ import type { Units } from "../render/units.js";
 import { prepare, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
 import type { CliIO } from "./io.js";
+import { readNodeRecords } from "./node-records.js";
 import { DEFAULT_BUDGET, PSEUDONYM_KEY_ENV, type SummaryCliOptions } from "./options.js";
 import { withProgress } from "./progress.js";
 import { readInput } from "./read-input.js";
@@ -22,6 +23,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   if (opts.focusFrom !== undefined) foci.push(...(await readFociFile(io, opts.focusFrom, input)));
   const key = pseudonymKey(opts, io);
   const loadOptions = toLoadOptions(input, opts);
+  if (opts.nodes !== undefined) loadOptions.nodeRecords = await readNodeRecords(io, opts.nodes);
   const source = await readInputStream(io, input);
   let tree: Tree;
   try {
@@ -72,6 +74,8 @@ export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptio
     idField: opts.idField,
     parentField: opts.parentField,
     pathField: opts.pathField,
+    childField: opts.childField,
+    graph: opts.graph,
     keepFields: opts.label ? templateFields(opts.label) : [],
     rootName: input === "-" ? "(stdin)" : baseName(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,

@@ -37,6 +37,8 @@ export function lineCost(
 ): number {
   if (!chains) return 1;
   const p = tree.parent[x];
+  // A reference (graphs) always has a line of its own.
+  if (tree.referenceTo !== undefined && tree.referenceTo[x] !== -1) return 1;
   return p >= 0 && measures.count[p] === measures.count[x] + 1 && scores.distance[p] !== 0 ? 0 : 1;
 }
 

@@ -1,7 +1,11 @@
 import { EspalierError } from "../errors.js";
-import { buildTree } from "../model/build.js";
+import { buildTree, type LinkedNodes } from "../model/build.js";
+import { buildGraphTree } from "../model/build-graph.js";
+import type { GraphNodes } from "../model/graph-nodes.js";
 import type { Tree } from "../model/tree.js";
 import { detectFormat } from "./detect.js";
+import { isGraph, loadEdges, withNodeRecords } from "./graph-input.js";
+import { linkGraphTable } from "./graph-table.js";
 import { loadJson } from "./json.js";
 import { linkTable } from "./link.js";
 import { loadPaths } from "./paths.js";
@@ -23,14 +27,19 @@ export function loadTree(text: string, options: LoadOptions): Tree {
     const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
     if (!/\S/.test(body)) throw new EspalierError("INPUT_EMPTY", "the input is empty");
     const format = options.format ?? detectFormat(body, file, options);
-    return buildTree(linkedNodes(body, format, options), file);
+    const nodes = linkedNodes(body, format, options);
+    return isGraph(nodes) ? buildGraphTree(withNodeRecords(nodes, options), file) : buildTree(nodes, file);
   } catch (error) {
     if (error instanceof EspalierError && file !== undefined) throw error.inFile(file);
     throw error;
   }
 }
 
-function linkedNodes(body: string, format: LoadOptions["format"] & string, options: LoadOptions) {
+function linkedNodes(
+  body: string,
+  format: LoadOptions["format"] & string,
+  options: LoadOptions,
+): LinkedNodes | GraphNodes {
   switch (format) {
     case "json":
     case "rows":
@@ -39,10 +48,13 @@ function linkedNodes(body: string, format: LoadOptions["format"] & string, optio
     case "yaml":
       return loadYaml(body, options);
     case "csv":
-      return linkTable(csvTable(body, ",", options.maxNodes), options);
-    case "tsv":
-      return linkTable(csvTable(body, "\t", options.maxNodes), options);
+    case "tsv": {
+      const table = csvTable(body, format === "csv" ? "," : "\t", options.maxNodes);
+      return options.graph ? linkGraphTable(table, options) : linkTable(table, options);
+    }
     case "paths":
       return loadPaths(body, options);
+    case "edges":
+      return loadEdges(body, options);
   }
 }

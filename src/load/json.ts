@@ -1,5 +1,8 @@
 import { EspalierError } from "../errors.js";
 import type { LinkedNodes } from "../model/build.js";
+import type { GraphNodes } from "../model/graph-nodes.js";
+import { adjacencyNodes, isAdjacencyValue } from "./adjacency.js";
+import { linkGraphTable } from "./graph-table.js";
 import { jsonErrorOffset } from "./jsonErrorOffset.js";
 import { lineColumnAt } from "./lineColumn.js";
 import { linkTable } from "./link.js";
@@ -10,14 +13,16 @@ import type { LoadOptions } from "./types.js";
 
 /**
  * Loads JSON text: nested nodes, or rows (a top-level array of flat records) when `as` says so or, with
- * `as` undefined, when the value looks like rows (see {@link isRowsValue}).
+ * `as` undefined, when the value looks like rows (see {@link isRowsValue}), or an adjacency map (a graph,
+ * see {@link isAdjacencyValue}).
  */
-export function loadJson(text: string, options: LoadOptions, as?: "json" | "rows"): LinkedNodes {
+export function loadJson(text: string, options: LoadOptions, as?: "json" | "rows"): LinkedNodes | GraphNodes {
   const value = parseJson(text);
   if (as === "rows" || (as === undefined && isRowsValue(value, options))) {
     if (!Array.isArray(value)) throw new EspalierError("SHAPE", "rows must be a top-level array of objects");
-    return linkTable(rowsTable(value), options);
+    return options.graph ? linkGraphTable(rowsTable(value), options) : linkTable(rowsTable(value), options);
   }
+  if (isAdjacencyValue(value, options)) return adjacencyNodes(value as Record<string, unknown>, options);
   return walkNested<unknown>(value, jsonAccess, options);
 }
 

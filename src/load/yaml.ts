@@ -11,6 +11,8 @@ import {
 } from "yaml";
 import { EspalierError } from "../errors.js";
 import type { LinkedNodes } from "../model/build.js";
+import type { GraphNodes } from "../model/graph-nodes.js";
+import { adjacencyNodes, isAdjacencyValue } from "./adjacency.js";
 import { Kind, type NestedAccess, walkNested } from "./nested.js";
 import type { LoadOptions } from "./types.js";
 
@@ -21,7 +23,7 @@ type YamlValue = Node | null;
  * origins are line numbers. Aliases are followed, never expanded: a node or children list reached twice
  * is TWO_PARENTS, so an alias bomb cannot blow up.
  */
-export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
+export function loadYaml(text: string, options: LoadOptions): LinkedNodes | GraphNodes {
   const lineCounter = new LineCounter();
   let doc: ReturnType<typeof parseDocument>;
   try {
@@ -50,6 +52,16 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
   const root = doc.contents as YamlValue;
   if (root === null || (isScalar(root) && root.value === null)) {
     throw new EspalierError("INPUT_EMPTY", "the YAML document holds no value");
+  }
+
+  // A mapping that names no name, children or size field may be an adjacency map (a graph). Its plain
+  // value is made only then; aliases expand there, up to the yaml package's alias count limit.
+  if (isMap(root)) {
+    const own = new Set(root.items.map((pair) => keyText(pair.key)));
+    if (!own.has(options.nameField) && !own.has(options.childrenField) && !own.has(options.sizeField)) {
+      const plain: unknown = doc.toJS();
+      if (isAdjacencyValue(plain, options)) return adjacencyNodes(plain as Record<string, unknown>, options);
+    }
   }
 
   // An alias stands for the last node with its anchor before it, in document order.

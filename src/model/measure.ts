@@ -2,8 +2,13 @@ import type { Tree } from "./tree.js";
 
 /** Subtree aggregates of every node, including the node itself. */
 export interface Measures {
-  /** Nodes in the subtree (>= 1). In pre-order the subtree of i is [i, i + count[i]). */
+  /** Slots in the subtree (>= 1). In pre-order the subtree of i is [i, i + count[i]). */
   readonly count: Int32Array;
+  /**
+   * Distinct nodes in the subtree: slots that are full entries, references left out (0 for a reference).
+   * The same array as `count` on a tree.
+   */
+  readonly nodes: Int32Array;
   /** Sum of own sizes over the subtree. */
   readonly size: Float64Array;
   /** Leaves in the subtree. */
@@ -33,7 +38,21 @@ export function measure(tree: Tree): Measures {
     leaves[p] += leaves[i];
     if (height[i] + 1 > height[p]) height[p] = height[i] + 1;
   }
-  return { count, size, leaves, height, children };
+  return { count, nodes: distinctNodes(tree, count), size, leaves, height, children };
+}
+
+/** Full entries per subtree: a reference slot counts 0, every other slot 1. */
+function distinctNodes(tree: Tree, count: Int32Array): Int32Array {
+  const ref = tree.referenceTo;
+  if (ref === undefined) return count;
+  const n = tree.length;
+  const nodes = new Int32Array(n);
+  for (let i = n - 1; i >= 0; i--) {
+    if (ref[i] === -1) nodes[i]++;
+    const p = tree.parent[i];
+    if (p >= 0) nodes[p] += nodes[i];
+  }
+  return nodes;
 }
 
 /** Children of `i` in input order, using the pre-order layout. */

@@ -14,6 +14,7 @@ export interface TreeMessage {
   originIsRow: boolean;
   fields: [string, readonly string[]][];
   syntheticRoot: boolean;
+  referenceTo?: Int32Array;
 }
 
 type NamesMessage = { pool: NamePoolParts } | { strings: string[] };

@@ -27,4 +27,10 @@ export interface Tree {
   readonly fields: ReadonlyMap<string, readonly string[]>;
   /** Whether node 0 was added by espalier to join several top-level nodes. */
   readonly syntheticRoot: boolean;
+  /**
+   * Graphs only (absent on a tree): for each slot, -1 when it is a node's full entry, else the slot of
+   * the full entry of the node this one-line reference stands for (see model/build-graph.ts). A
+   * reference is a leaf with no size; it counts in no node count.
+   */
+  readonly referenceTo?: Int32Array;
 }

@@ -23,6 +23,8 @@ export function toSummary(view: HierarchyNode<ViewNode>, options: JsonOptions): 
     nodes: node.nodes,
     size: node.size,
     focus: node.focus,
+    ...(node.reference ? { reference: { ...node.reference } } : {}),
+    ...(node.parents ? { parents: { ...node.parents } } : {}),
     children: [],
     hidden: node.hidden ? { ...node.hidden } : null,
   });

@@ -11,7 +11,15 @@ export interface LineGroup {
 
 /** Whether `child` continues its parent's line (the fit's lineCost of 0, read off the view). */
 export function continuesLine(parent: ViewNode, child: ViewNode, chains: boolean): boolean {
-  return chains && !parent.focus && parent.children.length === 1 && parent.nodes === child.nodes + 1;
+  // An only child: the one shown child, nothing folded beside it. A reference line never joins one.
+  return (
+    chains &&
+    !parent.focus &&
+    parent.children.length === 1 &&
+    parent.hidden === null &&
+    parent.nodes === child.nodes + 1 &&
+    child.reference === undefined
+  );
 }
 
 /** The lines of a view in order: every renderer that prints lines shares this grouping. */

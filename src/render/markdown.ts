@@ -2,7 +2,15 @@ import type { HierarchyNode } from "d3-hierarchy";
 import type { ViewNode } from "../view/view-node.js";
 import { safeText, shownLabel } from "./escape.js";
 import { lineGroups } from "./line-groups.js";
-import { amount, CHAIN_JOIN, type TextOptions } from "./text.js";
+import {
+  amount,
+  CHAIN_JOIN,
+  MARK,
+  parentsText,
+  referencesText,
+  referenceText,
+  type TextOptions,
+} from "./text.js";
 
 // Any ASCII punctuation may be backslash-escaped (CommonMark 0.31, section 2.4). Escaped here: what
 // can open inline markup, HTML, entities or links anywhere (CommonMark and GitHub's extensions:
@@ -27,14 +35,19 @@ export function renderMarkdown(view: HierarchyNode<ViewNode>, options: TextOptio
   const lines = lineGroups(view, options.chains ?? false).map(({ level, nodes }) => {
     const top = nodes[0];
     const last = nodes[nodes.length - 1];
+    if (top.reference) {
+      const text = `${MARK.reference} ${markdownText(shownLabel(top.label), false)}`;
+      return `${"  ".repeat(level)}- ${text} · *${markdownText(referenceText(top.reference))}*`;
+    }
     let label = nodes.map((n) => markdownText(shownLabel(n.label), false)).join(markdownText(CHAIN_JOIN));
     if (last.focus) label = `**${label}** (focus)`;
     else if (last.onPath) label = `**${label}**`;
     const stats = amount(top.nodes, top.size, options);
     const folded = last.hidden
-      ? `+${last.hidden.children} more: ${amount(last.hidden.nodes, last.hidden.size, { ...options, always: true })}`
+      ? `+${last.hidden.children} more: ${amount(last.hidden.nodes, last.hidden.size, { ...options, always: true })}${referencesText(last.hidden.references)}`
       : "";
-    return `${"  ".repeat(level)}- ${label}${stats ? ` · ${markdownText(stats)}` : ""}${folded ? ` · *${markdownText(folded)}*` : ""}`;
+    const parents = parentsText(last.parents);
+    return `${"  ".repeat(level)}- ${label}${stats ? ` · ${markdownText(stats)}` : ""}${folded ? ` · *${markdownText(folded)}*` : ""}${parents ? ` · ${markdownText(parents)}` : ""}`;
   });
   return `${lines.join("\n")}\n`;
 }

@@ -8,6 +8,12 @@ export const foldedSchema = z
     children: z.number().int().nonnegative().describe("Hidden children of this node."),
     nodes: z.number().int().nonnegative().describe("Nodes in the hidden children's subtrees."),
     size: z.number().describe("Size in the hidden children's subtrees."),
+    references: z
+      .number()
+      .int()
+      .nonnegative()
+      .optional()
+      .describe("Graphs only: reference lines among what is folded (they count no node)."),
   })
   .describe("What is folded under a shown node.");
 
@@ -20,6 +26,8 @@ export interface SummaryNode {
   nodes: number;
   size: number;
   focus: boolean;
+  reference?: { path: string; cycle: boolean };
+  parents?: { count: number; hidden: number };
   children: SummaryNode[];
   hidden: z.infer<typeof foldedSchema> | null;
 }
@@ -32,9 +40,29 @@ export const summaryNodeSchema: z.ZodType<SummaryNode> = z.lazy(() =>
       id: z.string().optional().describe("Row id, when the input links rows by id."),
       label: z.string().optional().describe("Display text, when a label template is in use."),
       interest: z.number().describe("Degree of interest (0 on focus paths, lower is less interesting)."),
-      nodes: z.number().int().positive().describe("Nodes in the subtree, this node included."),
+      nodes: z
+        .number()
+        .int()
+        .nonnegative()
+        .describe("Nodes in the subtree, this node included (distinct nodes; 0 on a reference)."),
       size: z.number().describe("Size of the subtree, this node included (0 without sizes)."),
       focus: z.boolean().describe("Whether the node is a focus."),
+      reference: z
+        .object({
+          path: z.string().describe("Path of the node's full entry; accepted back as a focus."),
+          cycle: z.boolean().describe("Whether the full entry is an ancestor of this line (a cycle)."),
+        })
+        .strict()
+        .optional()
+        .describe("Graphs only: this line stands for a node whose full entry is elsewhere."),
+      parents: z
+        .object({
+          count: z.number().int().positive().describe("Parents of the focus in the graph."),
+          hidden: z.number().int().nonnegative().describe("Those not shown."),
+        })
+        .strict()
+        .optional()
+        .describe("Graphs only, on a focus with several parents."),
       children: z.array(summaryNodeSchema).describe("Shown children, in input order."),
       hidden: foldedSchema.nullable().describe("Hidden children folded into counts, or null."),
     })

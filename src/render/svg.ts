@@ -5,7 +5,7 @@ import { shownLabel } from "./escape.js";
 import { displayWidth, shortenMiddle } from "./fit-width.js";
 import { type IcicleBlock, icicle } from "./icicle.js";
 import { xmlEscape } from "./svg-escape.js";
-import { amount } from "./text.js";
+import { amount, MARK as LINE_MARK, parentsText, referenceText } from "./text.js";
 import { formatSize, type Units } from "./units.js";
 
 export interface SvgOptions<T extends ViewNode = ViewNode> {
@@ -30,6 +30,7 @@ const LOOK = {
   focusEdge: "#7b4f17",
   foldGround: "#f2efe7",
   foldLine: "#cbc3b1",
+  referenceEdge: "#6b7a70",
   change: {
     added: { fill: "#d4e9d3", mark: "#3c7443" },
     removed: { fill: "#f1dad4", mark: "#984636" },
@@ -122,10 +123,18 @@ function defs(): string {
   );
 }
 
-type BlockKind = "focus" | "path" | "other" | "folded";
+type BlockKind = "focus" | "path" | "other" | "folded" | "reference";
 
 function kindOf<T extends ViewNode>({ node, folded }: IcicleBlock<T>): BlockKind {
-  return folded ? "folded" : node.focus ? "focus" : node.onPath ? "path" : "other";
+  return folded
+    ? "folded"
+    : node.reference
+      ? "reference"
+      : node.focus
+        ? "focus"
+        : node.onPath
+          ? "path"
+          : "other";
 }
 
 /** One block: a group with its tooltip, its rectangle, its marks and the labels that fit. */
@@ -144,6 +153,10 @@ function block<T extends ViewNode>(b: IcicleBlock<T>, options: SvgOptions<T>): s
   const dash = change === "removed" ? ` stroke-dasharray="5 3"` : "";
   if (folded)
     parts.push(`<rect ${box} fill="url(#${PATTERN})" stroke="${LOOK.background}" stroke-width="1"/>`);
+  else if (node.reference)
+    parts.push(
+      `<rect ${box} fill="${LOOK.background}" stroke="${LOOK.referenceEdge}" stroke-width="1.5" stroke-dasharray="2 2"/>`,
+    );
   else if (node.focus)
     parts.push(`<rect ${box} fill="${LOOK.focus}" stroke="${LOOK.focusEdge}" stroke-width="3"${dash}/>`);
   else {
@@ -176,7 +189,12 @@ function labels<T extends ViewNode>(
   const x = num(b.x0 + PAD);
   const first = folded
     ? fitted([`+${node.hidden!.children} more`, `+${node.hidden!.children}`], room, LABEL_PX)
-    : fitted([shownLabel(node.label)], room, LABEL_PX, true);
+    : fitted(
+        [`${node.reference ? `${LINE_MARK.reference} ` : ""}${shownLabel(node.label)}`],
+        room,
+        LABEL_PX,
+        true,
+      );
   if (first === null) return out;
   const weight = !folded && node.focus ? ` font-weight="700"` : "";
   const style = folded ? ` font-style="italic"` : "";
@@ -200,6 +218,7 @@ function numbers<T extends ViewNode>(
   options: SvgOptions<T>,
   change: ChangeKind | null,
 ): string[] {
+  if (!folded && node.reference) return [referenceText(node.reference)];
   const { nodes, size } = folded ? node.hidden! : node;
   const sizes = options.sizes && change !== "removed";
   const always = folded;
@@ -234,7 +253,13 @@ function tooltip<T extends ViewNode>(
   const lines = [label];
   const path = shownLabel(node.path);
   if (node.path !== "" && path !== label) lines.push(path);
+  if (node.reference) {
+    lines.push(`reference, counted at its ${referenceText(node.reference)}`);
+    return lines.join("\n");
+  }
   lines.push(amount(node.nodes, node.size, always));
+  const parents = parentsText(node.parents);
+  if (parents) lines.push(parents);
   if (node.focus) lines.push("focus");
   else if (node.onPath)
     lines.push(options.changeOf ? "on the path to a focus or change" : "on the path to a focus");
@@ -284,6 +309,11 @@ function legendItems<T extends ViewNode>(options: SvgOptions<T>, drawn: Set<Bloc
     ],
     ["other", `<rect ${box} fill="${LOOK.other}"/>`, "other shown node"],
     ["folded", `<rect ${box} fill="url(#${PATTERN})"/>`, "+N more: folded nodes"],
+    [
+      "reference",
+      `<rect ${box} fill="${LOOK.background}" stroke="${LOOK.referenceEdge}" stroke-width="1.5" stroke-dasharray="2 2"/>`,
+      "reference: a node whose full entry (and count) is elsewhere",
+    ],
   ];
   const items = kinds.filter(([kind]) => drawn.has(kind)).map(([, swatch, text]) => ({ swatch, text }));
   if (options.changeOf) {

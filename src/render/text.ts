@@ -18,7 +18,7 @@ export interface TextOptions {
 }
 
 /** Line marks; they carry the meaning without colour. */
-export const MARK = { focus: "*", path: ">", other: "-" } as const;
+export const MARK = { focus: "*", path: ">", other: "-", reference: "&" } as const;
 
 /** Between the labels of a chain of only children printed on one line. */
 export const CHAIN_JOIN = " / ";
@@ -43,15 +43,35 @@ export function textLines(view: HierarchyNode<ViewNode>, options: TextOptions): 
   return lineGroups(view, options.chains ?? false).map(({ level, nodes }) => {
     const top = nodes[0];
     const last = nodes[nodes.length - 1];
+    if (top.reference) {
+      return composeLine(
+        {
+          indent: "  ".repeat(level),
+          mark: MARK.reference,
+          label: shownLabel(top.label),
+          stats: referenceText(top.reference),
+          folded: "",
+          foldedShort: "",
+          style: top.onPath ? pal.path : (s: string) => s,
+          quiet: pal.quiet,
+        },
+        options.width,
+      );
+    }
     return composeLine(
       {
         indent: "  ".repeat(level),
         mark: last.focus ? MARK.focus : last.onPath ? MARK.path : MARK.other,
         label: nodes.map((n) => shownLabel(n.label)).join(CHAIN_JOIN),
         stats: amount(top.nodes, top.size, options),
-        folded: last.hidden
-          ? `+${last.hidden.children} more: ${amount(last.hidden.nodes, last.hidden.size, { ...options, always: true })}`
-          : "",
+        folded: [
+          last.hidden
+            ? `+${last.hidden.children} more: ${amount(last.hidden.nodes, last.hidden.size, { ...options, always: true })}${referencesText(last.hidden.references)}`
+            : "",
+          parentsText(last.parents),
+        ]
+          .filter((part) => part !== "")
+          .join("  "),
         foldedShort: last.hidden ? `+${last.hidden.children} more` : "",
         style: last.focus ? pal.focus : last.onPath ? pal.path : (s: string) => s,
         quiet: pal.quiet,
@@ -99,6 +119,23 @@ function composeLine(p: LineParts, width: number | undefined): string {
       return styled(shortenMiddle(p.label, room), stats, folded);
   }
   return p.style(shortenEnd(plain(p.label, "", ""), width));
+}
+
+/** What a reference line says after its label: where the node's full entry is (graphs). */
+export function referenceText(to: { path: string; cycle: boolean }): string {
+  const where = to.path === "" ? "the root" : shownLabel(to.path);
+  return to.cycle ? `cycle, full entry above at ${where}` : `full entry at ${where}`;
+}
+
+/** ", 2 references" after a fold's numbers, when references are folded there (graphs). */
+export function referencesText(references: number | undefined): string {
+  return references ? `, ${references} ${references === 1 ? "reference" : "references"}` : "";
+}
+
+/** "3 parents, 1 not shown" on a focus with several parents (graphs); "" otherwise. */
+export function parentsText(parents: { count: number; hidden: number } | undefined): string {
+  if (!parents || parents.count < 2) return "";
+  return `${parents.count} parents${parents.hidden > 0 ? `, ${parents.hidden} not shown` : ""}`;
 }
 
 /** "12 nodes, 3.0 MiB": the count (when above one, or `always`) and the size (when the input has sizes). */

@@ -23,7 +23,8 @@ export function buildView(
   idOf: (i: number) => string | null = (i) => index.tree.ids?.get(i) ?? null,
 ): HierarchyNode<ViewNode> {
   const { tree, measures } = index;
-  const { count, size, children } = measures;
+  const { count, nodes, size, children } = measures;
+  const ref = tree.referenceTo;
   const { shown } = selection;
   const isFocus = new Set(foci);
   const byIndex = new Map<number, ViewNode>();
@@ -31,7 +32,10 @@ export function buildView(
   const order = Int32Array.from(selection.admitted).sort();
   // What the shown children of each shown node hold, to take from the node's own totals: the folded
   // rest then costs nothing per hidden child, however many children a node has.
-  const shownKids = new Map<number, { children: number; nodes: number; size: number; exact: boolean }>();
+  const shownKids = new Map<
+    number,
+    { children: number; nodes: number; slots: number; size: number; exact: boolean }
+  >();
   let root: ViewNode | undefined;
   for (const i of order) {
     const node: ViewNode = {
@@ -41,7 +45,7 @@ export function buildView(
       id: idOf(i),
       label: label(i),
       interest: round(scores.value[i]),
-      nodes: count[i],
+      nodes: nodes[i],
       size: size[i],
       focus: isFocus.has(i),
       onPath: foci.length > 0 && scores.forced[i] === 1,
@@ -49,6 +53,10 @@ export function buildView(
       children: [],
       hidden: null,
     };
+    if (ref !== undefined && ref[i] !== -1) {
+      const at = ref[i];
+      node.reference = { path: pathOf(at), cycle: at <= i && i < at + count[at] };
+    }
     byIndex.set(i, node);
     const p = tree.parent[i];
     if (p < 0) {
@@ -58,26 +66,30 @@ export function buildView(
     byIndex.get(p)!.children.push(node);
     let sums = shownKids.get(p);
     if (!sums) {
-      sums = { children: 0, nodes: 0, size: 0, exact: true };
+      sums = { children: 0, nodes: 0, slots: 0, size: 0, exact: true };
       shownKids.set(p, sums);
     }
     sums.children++;
-    sums.nodes += count[i];
+    sums.nodes += nodes[i];
+    sums.slots += count[i];
     sums.size += size[i];
     if (!Number.isInteger(size[i])) sums.exact = false;
   }
   for (const i of order) {
-    const sums = shownKids.get(i) ?? { children: 0, nodes: 0, size: 0, exact: true };
+    const sums = shownKids.get(i) ?? { children: 0, nodes: 0, slots: 0, size: 0, exact: true };
     const hiddenChildren = children[i] - sums.children;
     if (hiddenChildren === 0) continue;
     const own = tree.ownSize[i];
     // Whole sizes below 2^53 add and subtract exactly; a fractional size is summed child by child, in
     // input order, so the total is the same double either way.
     const exact = sums.exact && Number.isInteger(size[i]) && Number.isInteger(own);
+    const hiddenNodes = nodes[i] - 1 - sums.nodes;
     byIndex.get(i)!.hidden = {
       children: hiddenChildren,
-      nodes: count[i] - 1 - sums.nodes,
+      nodes: hiddenNodes,
       size: exact ? size[i] - own - sums.size : hiddenSize(i),
+      // Hidden slots that are no node's full entry are references.
+      ...(ref !== undefined ? { references: count[i] - 1 - sums.slots - hiddenNodes } : {}),
     };
   }
   function hiddenSize(i: number): number {

@@ -32,7 +32,8 @@ describe("renderText(view, options)", () => {
     const t = makeTree("::warning{##vso[task.setvariable]}");
     const { text } = summaryOf(t, [], 10);
     for (const line of text.trimEnd().split("\n")) expect(line).toMatch(/^ *[*>-] /);
-    expect(Object.values(MARK)).toEqual(["*", ">", "-"]);
+    // A reference line of a graph starts with "&" (tests/graph/render.test.ts).
+    expect(Object.values(MARK)).toEqual(["*", ">", "-", "&"]);
   });
 
   it("spends no line on chrome: a 20,000-node tree with two deep foci shows as many nodes as it has lines", () => {

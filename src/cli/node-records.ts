@@ -1,0 +1,35 @@
+import { EspalierError } from "../errors.js";
+import { csvTable, rowsTable, type Table } from "../load/table.js";
+import type { CliIO } from "./io.js";
+import { readInput } from "./read-input.js";
+
+/**
+ * The node records of a graph (`--nodes FILE`): a CSV or TSV table with a header, or a JSON array of
+ * flat records, one per node id. JSON by the `.json` extension or a first `[`; TSV by `.tsv`/`.tab` or a
+ * tab in the first line; CSV otherwise. Errors name the records file.
+ */
+export async function readNodeRecords(io: CliIO, file: string): Promise<Table> {
+  const shown = file === "-" ? "<stdin>" : file;
+  try {
+    const text = await readInput(io, file);
+    const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+    const lower = file.toLowerCase();
+    if (lower.endsWith(".json") || body.trimStart().startsWith("[")) {
+      let value: unknown;
+      try {
+        value = JSON.parse(body);
+      } catch (error) {
+        if (!(error instanceof SyntaxError)) throw error;
+        throw new EspalierError("PARSE_JSON", `invalid JSON in the node records: ${error.message}`);
+      }
+      if (!Array.isArray(value))
+        throw new EspalierError("SHAPE", "node records in JSON must be an array of objects");
+      return rowsTable(value);
+    }
+    const firstLine = body.slice(0, body.indexOf("\n") === -1 ? body.length : body.indexOf("\n"));
+    const tsv = lower.endsWith(".tsv") || lower.endsWith(".tab") || firstLine.includes("\t");
+    return csvTable(body, tsv ? "\t" : ",", Number.POSITIVE_INFINITY);
+  } catch (error) {
+    throw error instanceof EspalierError ? error.inFile(shown) : error;
+  }
+}
