@@ -9,6 +9,11 @@ export interface Interest {
   readonly forced: Uint8Array;
   /** The forced nodes in pre-order (the fit starts from them; no walk of the tree finds them again). */
   readonly forcedNodes: Int32Array;
+  /**
+   * Graphs only: the rank of the parent of a focus (a reference to it, nearest a root first) whose path
+   * this node is on; 0x7fffffff elsewhere. Among equal interest, a lower rank comes first.
+   */
+  readonly rank?: Int32Array;
 }
 
 const FAR = 0x7fffffff;

@@ -17,12 +17,14 @@ import type { Interest } from "./doi.js";
 export type NodeOrder = (a: number, b: number) => number;
 
 export function nodeOrder(tree: Tree, measures: Measures, scores: Interest): NodeOrder {
-  const { value, forced } = scores;
+  const { value, forced, rank } = scores;
   const rest = contextTieBreaks(tree, measures, scores);
   return (a, b) => {
     if (forced[a] !== forced[b]) return forced[b] - forced[a];
     if (forced[a]) return a - b;
     if (value[a] !== value[b]) return value[b] - value[a];
+    // Graphs: the paths to a focus's parents, nearest a root first (interest/graph-doi.ts).
+    if (rank !== undefined && rank[a] !== rank[b]) return rank[a] - rank[b];
     return rest(a, b);
   };
 }
@@ -35,7 +37,8 @@ export function contextTieBreaks(
 ): NodeOrder {
   const { distance } = scores;
   const { depth } = tree;
-  const { count } = measures;
+  // Distinct nodes (the same array as the slot count on a tree).
+  const count = measures.nodes;
   return (a, b) => {
     if (distance[a] !== distance[b]) return distance[a] - distance[b];
     if (depth[a] !== depth[b]) return depth[a] - depth[b];

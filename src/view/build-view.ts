@@ -21,6 +21,7 @@ export function buildView(
   nameOf: (i: number) => string = (i) => index.tree.name.get(i),
   pathOf: (i: number) => string = (i) => index.path(i),
   idOf: (i: number) => string | null = (i) => index.tree.ids?.get(i) ?? null,
+  parentsOf?: (i: number) => { count: number; hidden: number } | undefined,
 ): HierarchyNode<ViewNode> {
   const { tree, measures } = index;
   const { count, nodes, size, children } = measures;
@@ -48,11 +49,17 @@ export function buildView(
       nodes: nodes[i],
       size: size[i],
       focus: isFocus.has(i),
-      onPath: foci.length > 0 && scores.forced[i] === 1,
+      // On a graph, the paths to a focus's other parents lead to it too.
+      onPath:
+        foci.length > 0 && (scores.forced[i] === 1 || (scores.rank !== undefined && scores.rank[i] !== FAR)),
       depth: tree.depth[i],
       children: [],
       hidden: null,
     };
+    if (node.focus && parentsOf) {
+      const parents = parentsOf(i);
+      if (parents) node.parents = parents;
+    }
     if (ref !== undefined && ref[i] !== -1) {
       const at = ref[i];
       node.reference = { path: pathOf(at), cycle: at <= i && i < at + count[at] };
@@ -100,6 +107,8 @@ export function buildView(
 
   return hierarchyOf(root!);
 }
+
+const FAR = 0x7fffffff;
 
 function round(x: number): number {
   const r = Math.round(x * 1000) / 1000;
