@@ -1,5 +1,5 @@
 import { distance } from "fastest-levenshtein";
-import type { PathIndex } from "../model/paths.js";
+import type { PathIndex } from "../model/path-index.js";
 import { parseSegment, splitPath } from "../model/segment.js";
 
 /** Characters of a name compared by edit distance. */

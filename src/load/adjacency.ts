@@ -1,8 +1,8 @@
 import { EspalierError } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
-import { limitExceeded } from "./nodeSink.js";
-import { isSize } from "./size.js";
-import type { LoadOptions } from "./types.js";
+import { isSize } from "../model/size-rule.js";
+import type { LoadOptions } from "./load-options.js";
+import { limitExceeded } from "./node-sink.js";
 
 type Fields = Pick<
   LoadOptions,

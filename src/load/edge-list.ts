@@ -3,8 +3,8 @@ import { EspalierError } from "../errors.js";
 import { doubled, hashBytes, mix, rehashed } from "../model/child-hash.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import { NamePool } from "../model/names.js";
-import { limitExceeded } from "./nodeSink.js";
-import type { LoadOptions } from "./types.js";
+import type { LoadOptions } from "./load-options.js";
+import { limitExceeded } from "./node-sink.js";
 
 const TAB = 0x09;
 const SPACE = 0x20;

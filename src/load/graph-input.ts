@@ -1,8 +1,8 @@
 import type { GraphNodes } from "../model/graph-nodes.js";
 import { loadEdgeList } from "./edge-list.js";
 import { linkGraphTable, withRecords } from "./graph-table.js";
+import type { LoadOptions } from "./load-options.js";
 import { csvTable } from "./table.js";
-import type { LoadOptions } from "./types.js";
 
 /**
  * The delimiter of an edge table's header ("," or a tab), or null for a plain edge list: the first

@@ -1,9 +1,10 @@
 import { EspalierError } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
-import { limitExceeded } from "./nodeSink.js";
-import { isSize, parseSize } from "./size.js";
+import { isSize } from "../model/size-rule.js";
+import type { LoadOptions } from "./load-options.js";
+import { limitExceeded } from "./node-sink.js";
+import { parseSize } from "./parse-size.js";
 import type { Cell, Table } from "./table.js";
-import type { LoadOptions } from "./types.js";
 
 type Fields = Pick<
   LoadOptions,

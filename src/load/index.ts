@@ -1,20 +1,21 @@
 import { EspalierError } from "../errors.js";
-import { buildTree, type LinkedNodes } from "../model/build.js";
 import { buildGraphTree } from "../model/build-graph.js";
+import { buildTree } from "../model/build-tree.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
+import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { Tree } from "../model/tree.js";
-import { detectFormat } from "./detect.js";
+import { detectFormat } from "./detect-format.js";
 import { isGraph, loadEdges, withNodeRecords } from "./graph-input.js";
 import { linkGraphTable } from "./graph-table.js";
-import { loadJson } from "./json.js";
-import { linkTable } from "./link.js";
-import { loadPaths } from "./paths.js";
+import { linkTable } from "./link-table.js";
+import { loadJson } from "./load-json.js";
+import type { LoadOptions } from "./load-options.js";
+import { loadPathList } from "./load-path-list.js";
+import { loadYaml } from "./load-yaml.js";
 import { csvTable } from "./table.js";
-import type { LoadOptions } from "./types.js";
-import { loadYaml } from "./yaml.js";
 
-export { detectFormat } from "./detect.js";
-export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } from "./types.js";
+export { detectFormat } from "./detect-format.js";
+export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } from "./load-options.js";
 
 /**
  * Reads already-decoded text into a {@link Tree}: strips a leading byte order mark, detects the format
@@ -53,7 +54,7 @@ function linkedNodes(
       return options.graph ? linkGraphTable(table, options) : linkTable(table, options);
     }
     case "paths":
-      return loadPaths(body, options);
+      return loadPathList(body, options);
     case "edges":
       return loadEdges(body, options);
   }

@@ -1,7 +1,7 @@
 import { EspalierError } from "../errors.js";
-import type { LinkedNodes } from "./build.js";
-import { checkSizes } from "./checkSizes.js";
+import { checkSizes } from "./check-sizes.js";
 import type { GraphNodes } from "./graph-nodes.js";
+import type { LinkedNodes } from "./linked-nodes.js";
 import { NamePool, type Names } from "./names.js";
 import type { Tree } from "./tree.js";
 

@@ -1,7 +1,7 @@
 import { Buffer } from "node:buffer";
 import type { GraphNodes } from "../../model/graph-nodes.js";
 import { EdgeListReader } from "../edge-list.js";
-import type { LoadOptions } from "../types.js";
+import type { LoadOptions } from "../load-options.js";
 
 /**
  * An edge list read from a byte stream: each chunk's whole lines go to {@link EdgeListReader} as they

@@ -10,11 +10,11 @@ import {
   visit,
 } from "yaml";
 import { EspalierError } from "../errors.js";
-import type { LinkedNodes } from "../model/build.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
+import type { LinkedNodes } from "../model/linked-nodes.js";
 import { adjacencyNodes, isAdjacencyValue } from "./adjacency.js";
-import { Kind, type NestedAccess, walkNested } from "./nested.js";
-import type { LoadOptions } from "./types.js";
+import type { LoadOptions } from "./load-options.js";
+import { Kind, type NestedAccess, walkNested } from "./walk-nested.js";
 
 type YamlValue = Node | null;
 
