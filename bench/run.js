@@ -4,6 +4,7 @@
 // Usage: npm run bench -- [--nodes N[,N...]] [--only json,csv,paths,diff] [--repeat N] [--budget N]
 //                         [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--no-memory] [--no-diff]
 //                         [--rss-from auto|time|proc] [--force-data] [--big [--big-nodes N]]
+//                         [--no-graph] [--graph-nodes N] [--only graph]
 // See docs/performance.md for what every number means.
 
 import { constants } from "node:buffer";
@@ -15,6 +16,7 @@ import { dirname, join, relative } from "node:path";
 import { fileURLToPath } from "node:url";
 import { DIFF_FORMATS, ensureDiffData } from "./diff-data.js";
 import { ensureData, FORMATS } from "./generate.js";
+import { benchGraph, graphLines } from "./graph-bench.js";
 import { topFunctions } from "./prof-top.js";
 
 const benchDir = dirname(fileURLToPath(import.meta.url));
@@ -69,6 +71,7 @@ const results = {
   refocus: null,
   diff: null,
   big: null,
+  graph: null,
 };
 log(
   `baseline: an empty Node process peaks at ${results.baseline.maxRssMiB} MiB; default heap limit ` +
@@ -76,7 +79,7 @@ log(
 );
 
 let firstManifest;
-for (const nodes of options.diffOnly || options.big ? [] : options.sizes) {
+for (const nodes of options.diffOnly || options.big || options.graphOnly ? [] : options.sizes) {
   const manifest = ensureData({ nodes, formats: options.only, force: options.forceData, log });
   firstManifest ??= manifest;
   const foci = manifest.foci;
@@ -94,12 +97,22 @@ for (const nodes of options.diffOnly || options.big ? [] : options.sizes) {
 }
 results.scale = scaleFigures(results.sizes);
 
-if (!options.diffOnly && !options.big) {
+if (!options.diffOnly && !options.big && !options.graphOnly) {
   const m = firstManifest;
   results.refocus = benchRefocus(options.only[0], m);
 }
 if (options.big) results.big = benchBig();
-else results.diff = await benchDiff();
+else if (!options.graphOnly) results.diff = await benchDiff();
+if (!options.big && !options.diffOnly)
+  results.graph = options.graph
+    ? benchGraph({
+        nodes: options.graphNodes,
+        repeat: options.repeat,
+        budget: options.budget,
+        runCommand,
+        log,
+      })
+    : { skipped: true, reason: "--no-graph" };
 results.loadAfter = loadavg()[0];
 
 mkdirSync(outDir, { recursive: true });
@@ -610,6 +623,7 @@ function report(r) {
       `warning: the machine was busy (1-min load up to ${busy.toFixed(1)} on ${r.cpus} CPUs); times are noisy`,
     );
   if (r.big) lines.push(...bigLines(r.big));
+  lines.push(...graphLines(r.graph));
   for (const [nodes, size] of Object.entries(r.sizes)) {
     lines.push("");
     lines.push(`${Number(nodes).toLocaleString("en-US")} nodes:`);
@@ -902,6 +916,9 @@ function parseArgs(argv) {
     forceData: false,
     big: false,
     bigNodes: 30_000_000,
+    graph: true,
+    graphOnly: false,
+    graphNodes: 1_000_000,
   };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
@@ -925,10 +942,12 @@ function parseArgs(argv) {
     } else if (a === "--only") {
       const list = value().split(",");
       for (const f of list)
-        if (!FORMATS.includes(f) && f !== "diff")
+        if (!FORMATS.includes(f) && f !== "diff" && f !== "graph")
           usage(`--only: unknown format ${f} (${FORMATS.join(",")},diff)`);
       // "diff" in the list: only the diff benchmark, for the listed formats it covers (all when none).
       o.diffOnly = list.includes("diff");
+      o.graphOnly = list.length === 1 && list[0] === "graph";
+      if (o.graphOnly) continue;
       o.only = list.filter((f) => f !== "diff");
       if (o.diffOnly && o.only.length === 0) o.only = [...DIFF_FORMATS];
       if (o.diffOnly && !o.only.some((f) => DIFF_FORMATS.includes(f)))
@@ -939,6 +958,8 @@ function parseArgs(argv) {
     else if (a === "--heap") o.heap = count();
     else if (a === "--cpu-prof") o.cpuProf = true;
     else if (a === "--no-cli") o.cli = false;
+    else if (a === "--no-graph") o.graph = false;
+    else if (a === "--graph-nodes") o.graphNodes = count();
     else if (a === "--no-memory") o.memory = false;
     else if (a === "--rss-from") {
       o.rssFrom = value();
@@ -957,7 +978,7 @@ function parseArgs(argv) {
 function usage(message) {
   log(`bench: ${message}`);
   log(
-    "usage: npm run bench -- [--nodes N[,N...]] [--only json,csv,paths,diff] [--repeat N] [--budget N] [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--no-memory] [--no-diff] [--rss-from auto|time|proc] [--force-data] [--big [--big-nodes N]]",
+    "usage: npm run bench -- [--nodes N[,N...]] [--only json,csv,paths,diff] [--repeat N] [--budget N] [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--no-memory] [--no-diff] [--rss-from auto|time|proc] [--force-data] [--big [--big-nodes N]] [--no-graph] [--graph-nodes N] [--only graph]",
   );
   process.exit(2);
 }
