@@ -14,6 +14,7 @@ import { type Combined, combine } from "./combine.js";
 import { type DiffInterest, diffInterest } from "./diff-interest.js";
 import { diffOrder } from "./diff-order.js";
 import { buildDiffView, type DiffViewNode } from "./diff-view.js";
+import { alignGraphRoots, distinctNodes, graphCombined, isGraphDiff, matchGraphs } from "./graph-changes.js";
 import { matchTrees } from "./match.js";
 import { type ChangeMeasures, changesIn, measureChanges, netIn } from "./measure-changes.js";
 import { subtreeCounts } from "./subtree-counts.js";
@@ -37,6 +38,8 @@ export interface DiffTotals {
   new: { nodes: number; size: number };
   /** Net size change: new size minus old size. */
   delta: number;
+  /** Whether the versions were compared as graphs (edges linked and unlinked are kinds of change). */
+  graph: boolean;
 }
 
 export interface DiffResult {
@@ -59,13 +62,33 @@ export const DIFF_HEADER_LINES = 1;
  * Pure: the same trees and options give the same result.
  */
 export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions): DiffResult {
-  const [oldTree, newTree] = alignRoots(oldInput, newInput);
+  const [oldTree, newTree] = isGraphDiff(oldInput, newInput)
+    ? alignGraphRoots(oldInput, newInput)
+    : alignRoots(oldInput, newInput);
   // Only subtree counts of the two versions are needed; the whole-tree arrays are kept few, because
   // every large allocation brings the next full garbage collection of both loaded versions nearer.
   const oldCount = subtreeCounts(oldTree);
   const newCount = subtreeCounts(newTree);
-  const matching = matchTrees(oldTree, oldCount, newTree, newCount);
-  const combined = combine(oldTree, oldCount, newTree, newCount, matching);
+  const graph = isGraphDiff(oldTree, newTree);
+  let combined: Combined;
+  if (graph) {
+    // Graphs: full entries matched by id, references by their edges; kinds of change by edges.
+    const { matching, oldEdges, newEdges } = matchGraphs(oldTree, oldCount, newTree, newCount);
+    combined = graphCombined(
+      combine(oldTree, oldCount, newTree, newCount, matching),
+      matching,
+      oldEdges,
+      newEdges,
+    );
+  } else {
+    combined = combine(
+      oldTree,
+      oldCount,
+      newTree,
+      newCount,
+      matchTrees(oldTree, oldCount, newTree, newCount),
+    );
+  }
   const { tree } = combined;
   const measures = measure(tree);
   const changeMeasures = measureChanges(tree, combined.kind, combined.delta);
@@ -113,9 +136,10 @@ export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions):
   for (let o = 0; o < oldTree.length; o++) oldSize += oldTree.ownSize[o];
   const totals: DiffTotals = {
     changes: changesIn(changeMeasures, 0),
-    old: { nodes: oldTree.length, size: oldSize },
-    new: { nodes: newTree.length, size: measures.size[0] },
+    old: { nodes: distinctNodes(oldTree), size: oldSize },
+    new: { nodes: distinctNodes(newTree), size: measures.size[0] },
     delta: netIn(changeMeasures, 0),
+    graph,
   };
   return {
     combined,

@@ -4,7 +4,7 @@ import type { PathIndex } from "../model/path-index.js";
 import { buildView, type Labeller } from "../view/build-view.js";
 import { hierarchyOf } from "../view/hierarchy-of.js";
 import type { Folded, ViewNode } from "../view/view-node.js";
-import { type ChangeCounts, type ChangeKind, changeKinds, KIND, kindName } from "./changes.js";
+import { type ChangeCounts, type ChangeKind, changeKinds, KIND, kindName, noChanges } from "./changes.js";
 import type { Combined } from "./combine.js";
 import type { DiffInterest } from "./diff-interest.js";
 import { type ChangeMeasures, changesIn, netIn } from "./measure-changes.js";
@@ -26,7 +26,7 @@ export interface DiffViewNode extends Omit<ViewNode, "children" | "hidden"> {
   net: number;
   /** Changed nodes in the subtree, this node included, per kind. */
   changes: ChangeCounts;
-  /** A moved node's old parent, as a path in the old version. */
+  /** A moved node's old parent (graphs: the parent an unlinked full entry lost), a path in the old version. */
   movedFrom: string | null;
   /** A renamed node's old name. */
   renamedFrom: string | null;
@@ -71,7 +71,7 @@ export function buildDiffView(
     const k = kind[i];
     let hidden: DiffFolded | null = null;
     if (data.hidden) {
-      const inside: ChangeCounts = { added: 0, removed: 0, moved: 0, renamed: 0, resized: 0 };
+      const inside: ChangeCounts = noChanges();
       let net = 0;
       const end = i + count[i];
       for (let c = i + 1; c < end; c += count[c]) {
@@ -89,7 +89,10 @@ export function buildDiffView(
       delta: delta[i],
       net: netIn(changes, i),
       changes: changesIn(changes, i),
-      movedFrom: k === KIND.moved ? old.pathOf(oldTree.parent[o]) : null,
+      movedFrom:
+        k === KIND.moved || (k === KIND.unlinked && combined.newIndex[i] >= 0 && data.reference === undefined)
+          ? old.pathOf(oldTree.parent[o])
+          : null,
       renamedFrom: k === KIND.renamed ? old.nameOf(o) : null,
       children: [],
       hidden,

@@ -4,7 +4,7 @@ import type { DiffViewNode } from "../diff/diff-view.js";
 import { changeSummary, changeTag, type DiffTextOptions, totalsLine } from "./diff-text.js";
 import { shownLabel } from "./escape.js";
 import { markdownText } from "./markdown.js";
-import { amount } from "./text.js";
+import { amount, MARK, referenceText } from "./text.js";
 
 /**
  * A diff as CommonMark: the totals line as a paragraph, then one list item per line of the text
@@ -21,6 +21,13 @@ export function renderDiffMarkdown(
   view.eachBefore(({ data: node }) => {
     const tag = changeTag(node, options);
     let label = markdownText(shownLabel(node.label), false);
+    if (node.reference) {
+      const where = markdownText(referenceText(node.reference));
+      lines.push(
+        `${"  ".repeat(node.depth - top)}- ${MARK.reference} ${tag ? `${codeSpan(tag)} ` : ""}${label} · *${where}*`,
+      );
+      return;
+    }
     if (node.focus) label = `**${label}** (focus)`;
     else if (node.onPath) label = `**${label}**`;
     const stats = amount(node.nodes, node.change === "removed" ? 0 : node.size, {

@@ -8,9 +8,24 @@ export const DIFF_FORMAT = "espalier-diff/1";
 const count = z.number().int().nonnegative();
 
 export const changeCountsSchema = z
-  .object({ added: count, removed: count, moved: count, renamed: count, resized: count })
+  .object({
+    added: count,
+    removed: count,
+    moved: count,
+    renamed: count,
+    resized: count,
+    linked: count
+      .optional()
+      .describe("Graphs only: edges added to a node that was there (it gained a parent)."),
+    unlinked: count
+      .optional()
+      .describe("Graphs only: edges removed from a node that stays (it lost a parent)."),
+  })
   .strict()
   .describe("Changed nodes per kind; each changed node counts under exactly one kind.");
+
+/** The counts of a diff of trees: the five kinds a tree has. */
+export type TreeChangeCounts = Omit<z.infer<typeof changeCountsSchema>, "linked" | "unlinked">;
 
 export const diffFoldedSchema = foldedSchema
   .extend({
@@ -34,6 +49,7 @@ export interface DiffSummaryNode {
   net: number;
   movedFrom?: string;
   renamedFrom?: string;
+  reference?: { path: string; cycle: boolean };
   children: DiffSummaryNode[];
   hidden: z.infer<typeof diffFoldedSchema> | null;
 }
@@ -46,7 +62,11 @@ export const diffNodeSchema: z.ZodType<DiffSummaryNode> = z.lazy(() =>
       id: z.string().optional().describe("Row id, when nodes were matched by id."),
       label: z.string().optional().describe("Display text, when a label template is in use."),
       interest: z.number().describe("Degree of interest (changes score as foci do)."),
-      nodes: z.number().int().positive().describe("Nodes in the combined subtree (removed ones included)."),
+      nodes: z
+        .number()
+        .int()
+        .nonnegative()
+        .describe("Nodes in the combined subtree (removed ones included; 0 on a reference of a graph)."),
       size: z.number().describe("Size of the subtree in the new version (removed nodes hold 0)."),
       focus: z.boolean().describe("Whether the node is one of the user's foci."),
       change: z.enum(changeKinds).nullable().describe("The node's kind of change, or null."),
@@ -55,8 +75,15 @@ export const diffNodeSchema: z.ZodType<DiffSummaryNode> = z.lazy(() =>
       movedFrom: z
         .string()
         .optional()
-        .describe("For a moved node, the old parent's path in the old version."),
+        .describe(
+          "For a moved node, the old parent's path in the old version; for an unlinked full entry of a graph, the parent it lost.",
+        ),
       renamedFrom: z.string().optional().describe("For a renamed node, its old name."),
+      reference: z
+        .object({ path: z.string(), cycle: z.boolean() })
+        .strict()
+        .optional()
+        .describe("Graphs only: this line stands for a node whose full entry is at `path`."),
       children: z.array(diffNodeSchema).describe("Shown children, in the combined tree's order."),
       hidden: diffFoldedSchema.nullable().describe("Hidden children folded into counts, or null."),
     })

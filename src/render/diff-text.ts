@@ -1,11 +1,11 @@
 import type { HierarchyNode } from "d3-hierarchy";
-import { type ChangeCounts, changeKinds } from "../diff/changes.js";
+import { type ChangeCounts, changeKinds, treeChangeKinds } from "../diff/changes.js";
 import type { DiffTotals } from "../diff/diff-trees.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
 import { safeText, shownLabel } from "./escape.js";
 import { displayWidth, shortenEnd, shortenMiddle } from "./fit-width.js";
 import { noColour, type Palette } from "./palette.js";
-import { amount, MARK } from "./text.js";
+import { amount, MARK, referenceText } from "./text.js";
 import { formatSize, type Units } from "./units.js";
 
 export interface DiffTextOptions {
@@ -41,12 +41,14 @@ export function renderDiffText(
   const lines = [width === undefined ? head : shortenEnd(head, width)];
   const top = view.data.depth;
   view.eachBefore(({ data: node }) => {
-    const stats = [
-      amount(node.nodes, node.change === "removed" ? 0 : node.size, {
-        ...options,
-        sizes: options.sizes && node.change !== "removed",
-      }),
-    ];
+    const stats = node.reference
+      ? [referenceText(node.reference)]
+      : [
+          amount(node.nodes, node.change === "removed" ? 0 : node.size, {
+            ...options,
+            sizes: options.sizes && node.change !== "removed",
+          }),
+        ];
     if (options.sizes && node.nodes > 1 && node.net !== 0) stats.push(`net ${signed(node.net, options)}`);
     const inside = node.hidden ? changeSummary(node.hidden.changes, node.hidden.delta, options) : "";
     const hidden = node.hidden;
@@ -54,7 +56,13 @@ export function renderDiffText(
       composeLine(
         {
           indent: "  ".repeat(node.depth - top),
-          mark: node.focus ? MARK.focus : node.onPath ? MARK.path : MARK.other,
+          mark: node.reference
+            ? MARK.reference
+            : node.focus
+              ? MARK.focus
+              : node.onPath
+                ? MARK.path
+                : MARK.other,
           tag: (from) => changeTag(node, options, from),
           label: shownLabel(node.label),
           stats: stats.filter((s) => s !== "").join(", "),
@@ -117,7 +125,10 @@ function composeLine(p: LineParts, width: number | undefined): string {
 
 /** `matched by id: 1 added, 0 removed, 1 moved, 0 renamed, 0 resized; 6 -> 7 nodes; size …`. */
 export function totalsLine(totals: DiffTotals, options: DiffTextOptions): string {
-  const kinds = changeKinds.map((k) => `${totals.changes[k]} ${k}`).join(", ");
+  // A diff of graphs counts edges linked and unlinked too; a diff of trees has none to count.
+  const kinds = (totals.graph ? changeKinds : treeChangeKinds)
+    .map((k) => `${totals.changes[k]} ${k}`)
+    .join(", ");
   let line = `matched by ${options.by}: ${kinds}; ${totals.old.nodes} -> ${totals.new.nodes} nodes`;
   if (options.sizes) {
     const { units } = options;

@@ -1,5 +1,5 @@
 import type { HierarchyNode } from "d3-hierarchy";
-import { type ChangeKind, changeKinds } from "../diff/changes.js";
+import { type ChangeKind, changeKinds, treeChangeKinds } from "../diff/changes.js";
 import type { ViewNode } from "../view/view-node.js";
 import { shownLabel } from "./escape.js";
 import { displayWidth, shortenMiddle } from "./fit-width.js";
@@ -37,6 +37,8 @@ const LOOK = {
     moved: { fill: "#d9ddef", mark: "#44508b" },
     renamed: { fill: "#eadcee", mark: "#744a82" },
     resized: { fill: "#eee6c9", mark: "#76642a" },
+    linked: { fill: "#d3e8e6", mark: "#2f6e69" },
+    unlinked: { fill: "#e6e1dc", mark: "#6b5a4c" },
   },
 } as const;
 
@@ -76,7 +78,10 @@ export function renderSvg<T extends ViewNode>(view: HierarchyNode<T>, options: S
     floorShare: 2 / 3,
   });
   const rowsHeight = blocks.reduce((h, b) => Math.max(h, b.y1), 0);
-  const legend = legendItems(options, new Set(blocks.map(kindOf)));
+  const changed = new Set(
+    blocks.map((b) => (b.folded ? null : (options.changeOf?.(b.node) ?? null))).filter((k) => k !== null),
+  );
+  const legend = legendItems(options, new Set(blocks.map(kindOf)), changed);
   const legendTop = MARGIN + rowsHeight + 14;
   const legendRows = layoutLegend(legend, inner);
   const height = legendTop + legendRows * LEGEND_ROW + MARGIN;
@@ -280,6 +285,10 @@ function changeMark(kind: ChangeKind, x: number, y: number, s: number): string {
       return `<circle cx="${num(x + h)}" cy="${num(y + h)}" r="${num(h)}" fill="${fill}"/>`;
     case "resized": // a bar, like a ruler mark
       return `<path d="M${num(x)} ${num(y + h - 1.5)}h${num(s)}v3h${num(-s)}z" fill="${fill}"/>`;
+    case "linked": // a ring: a new link
+      return `<circle cx="${num(x + h)}" cy="${num(y + h)}" r="${num(h - 1)}" fill="none" stroke="${fill}" stroke-width="2"/>`;
+    case "unlinked": // a slash: a link cut
+      return `<path d="M${num(x)} ${num(y + s)}L${num(x + s)} ${num(y)}" stroke="${fill}" stroke-width="2.5"/>`;
     case "removed":
       return "";
   }
@@ -296,7 +305,11 @@ const SWATCH = 16;
 const LEGEND_ROW = 24;
 
 /** What the marks mean: the kinds of block drawn, every change kind of a diff, and what widths show. */
-function legendItems<T extends ViewNode>(options: SvgOptions<T>, drawn: Set<BlockKind>): LegendItem[] {
+function legendItems<T extends ViewNode>(
+  options: SvgOptions<T>,
+  drawn: Set<BlockKind>,
+  changed: Set<ChangeKind>,
+): LegendItem[] {
   const s = SWATCH;
   const box = `width="${s}" height="${s}"`;
   const near = options.changeOf ? "a focus or change" : "a focus";
@@ -317,7 +330,8 @@ function legendItems<T extends ViewNode>(options: SvgOptions<T>, drawn: Set<Bloc
   ];
   const items = kinds.filter(([kind]) => drawn.has(kind)).map(([, swatch, text]) => ({ swatch, text }));
   if (options.changeOf) {
-    for (const kind of changeKinds) {
+    // Every kind of a tree's diff; the edge kinds of a graph's diff when some block has one.
+    for (const kind of changeKinds.filter((k) => treeChangeKinds.includes(k) || changed.has(k))) {
       const { fill, mark } = LOOK.change[kind];
       const edge = kind === "removed" ? ` stroke="${mark}" stroke-width="1.5" stroke-dasharray="5 3"` : "";
       items.push({
