@@ -14,6 +14,7 @@ import { DIFF_EXAMPLES } from "./diff-help.js";
 import { type DiffCliOptions, diffOptionsSchema } from "./diff-options.js";
 import { effectiveOptions, printConfig } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
+import { isFactInput, loadFactInput } from "./fact-input.js";
 import type { CliIO } from "./io.js";
 import { PSEUDONYM_KEY_ENV } from "./options.js";
 import { withProgress } from "./progress.js";
@@ -23,6 +24,7 @@ import {
   defaultBudget,
   defaultWidth,
   displayName,
+  rootNameOf,
   toLoadOptions,
   unitsFor,
   useColour,
@@ -67,6 +69,8 @@ export function addDiffCommand(
         ...values,
         pseudonymize: values.pseudonymize === true,
         graph: values.graph === true,
+        rolledUp: values.rolledUp === true,
+        printSql: values.printSql === true,
         exitCode: values.exitCode === true,
         chains: values.chains !== false,
       });
@@ -100,10 +104,9 @@ export async function diffCommand(
       "USAGE",
       "espalier diff does not read --nodes yet: compare graphs without node records",
     );
-  const newOptions = toLoadOptions(newInput, opts);
-  // Both versions get the same synthetic root name, so that it never shows as a change.
-  const oldOptions = { ...toLoadOptions(oldInput, opts), rootName: newOptions.rootName };
-  const [oldTree, newTree] = await loadBoth(io, oldInput, oldOptions, newInput, newOptions);
+  const [oldTree, newTree] = isFactInput(opts)
+    ? await loadFacts(oldInput, newInput, opts)
+    : await loadTables(io, oldInput, newInput, opts);
   const budget = opts.budget ?? defaultBudget(io);
   const result = diffTrees(oldTree, newTree, {
     foci,
@@ -144,6 +147,32 @@ export async function diffCommand(
           : renderDiffText(result.view, result.totals, textOptions);
   const differ = totalChanges(result.totals.changes) > 0;
   return { text, exitCode: opts.exitCode && differ ? EXIT.differences : EXIT.ok };
+}
+
+function loadTables(
+  io: CliIO,
+  oldInput: string,
+  newInput: string,
+  opts: DiffCliOptions,
+): Promise<[Tree, Tree]> {
+  const newOptions = toLoadOptions(newInput, opts);
+  // Both versions get the same synthetic root name, so that it never shows as a change.
+  const oldOptions = { ...toLoadOptions(oldInput, opts), rootName: newOptions.rootName };
+  return loadBoth(io, oldInput, oldOptions, newInput, newOptions);
+}
+
+/** Two fact tables, one after the other (the engine uses every core for each); one root name for both. */
+async function loadFacts(oldInput: string, newInput: string, opts: DiffCliOptions): Promise<[Tree, Tree]> {
+  const rootName = rootNameOf(newInput);
+  const one = async (input: string) => {
+    try {
+      return await loadFactInput(input, opts, rootName);
+    } catch (err) {
+      throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
+    }
+  };
+  const oldTree = await one(oldInput);
+  return [oldTree, await one(newInput)];
 }
 
 /**

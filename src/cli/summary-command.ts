@@ -10,6 +10,7 @@ import { renderText } from "../render/text.js";
 import type { Units } from "../render/units.js";
 import { prepare, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
+import { isFactInput, loadFactInput } from "./fact-input.js";
 import type { CliIO } from "./io.js";
 import { readNodeRecords } from "./node-records.js";
 import { DEFAULT_BUDGET, PSEUDONYM_KEY_ENV, type SummaryCliOptions } from "./options.js";
@@ -22,14 +23,18 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   const foci = [...opts.focus];
   if (opts.focusFrom !== undefined) foci.push(...(await readFociFile(io, opts.focusFrom, input)));
   const key = pseudonymKey(opts, io);
-  const loadOptions = toLoadOptions(input, opts);
-  if (opts.nodes !== undefined) loadOptions.nodeRecords = await readNodeRecords(io, opts.nodes);
-  const source = await readInputStream(io, input);
   let tree: Tree;
   try {
-    // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
-    const chunks = withProgress(source.chunks, io, displayName(input), source.size);
-    tree = await loadTreeFromStream(chunks, loadOptions);
+    if (isFactInput(opts)) {
+      tree = await loadFactInput(input, opts, rootNameOf(input));
+    } else {
+      const source = await readInputStream(io, input);
+      // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
+      const chunks = withProgress(source.chunks, io, displayName(input), source.size);
+      const loadOptions = toLoadOptions(input, opts);
+      if (opts.nodes !== undefined) loadOptions.nodeRecords = await readNodeRecords(io, opts.nodes);
+      tree = await loadTreeFromStream(chunks, loadOptions);
+    }
   } catch (err) {
     throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
   }
@@ -64,9 +69,15 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
 }
 
 export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptions {
+  const format = opts.inputFormat;
+  if (format === "parquet" || format === "jsonl")
+    throw new EspalierError(
+      "USAGE",
+      `--input-format ${format} is read as a fact table: give --levels or --key-field`,
+    );
   return {
     ...defaultLoadOptions,
-    format: opts.inputFormat,
+    format,
     file: input === "-" ? undefined : input,
     nameField: opts.nameField,
     childrenField: opts.childrenField,
@@ -77,9 +88,14 @@ export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptio
     childField: opts.childField,
     graph: opts.graph,
     keepFields: opts.label ? templateFields(opts.label) : [],
-    rootName: input === "-" ? "(stdin)" : baseName(input),
+    rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
   };
+}
+
+/** The name of a root espalier adds: the input file's base name, `(stdin)` for standard input. */
+export function rootNameOf(input: string): string {
+  return input === "-" ? "(stdin)" : baseName(input);
 }
 
 export function displayName(input: string): string {

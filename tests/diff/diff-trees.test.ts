@@ -43,7 +43,16 @@ describe("diffTrees(old, new, options)", () => {
     // edit script (move x from A to B, insert C) is derived by hand.
     const result = run(makeIdTree("R{A{x,y},B{z}}"), makeIdTree("R{A{y},B{z,x},C}"));
     expect(changeList(result)).toEqual(["x moved from A to B", "C added"]);
-    expect(result.totals.changes).toEqual({ added: 1, removed: 0, moved: 1, renamed: 0, resized: 0 });
+    // Trees have no edge kinds: linked and unlinked (graphs, tests/graph/diff-graph.test.ts) stay 0.
+    expect(result.totals.changes).toEqual({
+      added: 1,
+      removed: 0,
+      moved: 1,
+      renamed: 0,
+      resized: 0,
+      linked: 0,
+      unlinked: 0,
+    });
   });
 
   it("reports a move as one removal and one addition when matching by path", () => {
@@ -59,7 +68,15 @@ describe("diffTrees(old, new, options)", () => {
           ? { ...tree, ids: new StringNames(Array.from({ length: tree.length }, (_, i) => `n${i}`)) }
           : tree;
         const result = run(t, t, 10);
-        expect(result.totals.changes).toEqual({ added: 0, removed: 0, moved: 0, renamed: 0, resized: 0 });
+        expect(result.totals.changes).toEqual({
+          added: 0,
+          removed: 0,
+          moved: 0,
+          renamed: 0,
+          resized: 0,
+          linked: 0,
+          unlinked: 0,
+        });
         expect(result.totals.delta).toBe(0);
         expect(result.combined.tree.length).toBe(t.length);
       }),
@@ -226,8 +243,8 @@ describe("diffTrees(old, new, options)", () => {
         const [oldTree, newTree] = byId ? [edited.oldTree, edited.newTree] : withoutIds(edited);
         const result = run(oldTree, newTree, b);
         const { kind, delta } = result.combined;
-        const kinds = ["added", "removed", "moved", "renamed", "resized"] as const;
-        const seen = { added: 0, removed: 0, moved: 0, renamed: 0, resized: 0 };
+        const kinds = ["added", "removed", "moved", "renamed", "resized", "linked", "unlinked"] as const;
+        const seen = { added: 0, removed: 0, moved: 0, renamed: 0, resized: 0, linked: 0, unlinked: 0 };
         let seenDelta = 0;
         result.view.each(({ data }) => {
           const v: DiffViewNode = data;
@@ -265,6 +282,8 @@ describe("diffTrees(old, new, options)", () => {
       moved: 0,
       renamed: 0,
       resized: 0,
+      linked: 0,
+      unlinked: 0,
     });
     const err = (() => {
       try {
