@@ -3,6 +3,7 @@ import { type ChangeCounts, treeChangeKinds } from "../diff/changes.js";
 import type { DiffTotals } from "../diff/diff-trees.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
 import { DIFF_FORMAT, type DiffSummary, type DiffSummaryNode, type TreeChangeCounts } from "./diff-schema.js";
+import { jsonNodeFields } from "./json-node.js";
 import { jsonText } from "./json-text.js";
 import { mapTree } from "./map-tree.js";
 
@@ -22,20 +23,12 @@ export function toDiffSummary(
   options: DiffJsonOptions,
 ): DiffSummary {
   const convert = (node: DiffViewNode): DiffSummaryNode => ({
-    name: node.name,
-    path: node.path,
-    ...(node.id !== null ? { id: node.id } : {}),
-    ...(options.labels ? { label: node.label } : {}),
-    interest: node.interest,
-    nodes: node.nodes,
-    size: node.size,
-    focus: node.focus,
+    ...jsonNodeFields(node, options.labels),
     change: node.change,
     delta: node.delta,
     net: node.net,
     ...(node.movedFrom !== null ? { movedFrom: node.movedFrom } : {}),
     ...(node.renamedFrom !== null ? { renamedFrom: node.renamedFrom } : {}),
-    ...(node.reference ? { reference: { ...node.reference } } : {}),
     children: [],
     hidden: node.hidden ? { ...node.hidden, changes: counts(node.hidden.changes) } : null,
   });

@@ -17,7 +17,8 @@ export const foldedSchema = z
   })
   .describe("What is folded under a shown node.");
 
-export interface SummaryNode {
+/** The fields every node of the summary and the diff JSON has, besides its children and fold. */
+export interface NodeFields {
   name: string;
   path: string;
   id?: string;
@@ -28,6 +29,41 @@ export interface SummaryNode {
   focus: boolean;
   reference?: { path: string; cycle: boolean };
   parents?: { count: number; hidden: number };
+}
+
+/** The schemas of {@link NodeFields}, with their meaning in a summary (a diff re-describes some). */
+export const nodeFieldsShape = {
+  name: z.string().describe("The node's own name, as in the input."),
+  path: z.string().describe("Path from below the root, RFC 6901 escaping; accepted back as a focus."),
+  id: z.string().optional().describe("Row id, when the input links rows by id."),
+  label: z.string().optional().describe("Display text, when a label template is in use."),
+  interest: z.number().describe("Degree of interest (0 on focus paths, lower is less interesting)."),
+  nodes: z
+    .number()
+    .int()
+    .nonnegative()
+    .describe("Nodes in the subtree, this node included (distinct nodes; 0 on a reference)."),
+  size: z.number().describe("Size of the subtree, this node included (0 without sizes)."),
+  focus: z.boolean().describe("Whether the node is a focus."),
+  reference: z
+    .object({
+      path: z.string().describe("Path of the node's full entry; accepted back as a focus."),
+      cycle: z.boolean().describe("Whether the full entry is an ancestor of this line (a cycle)."),
+    })
+    .strict()
+    .optional()
+    .describe("Graphs only: this line stands for a node whose full entry is elsewhere."),
+  parents: z
+    .object({
+      count: z.number().int().positive().describe("Parents of the focus in the graph."),
+      hidden: z.number().int().nonnegative().describe("Those not shown."),
+    })
+    .strict()
+    .optional()
+    .describe("Graphs only, on a focus with several parents."),
+};
+
+export interface SummaryNode extends NodeFields {
   children: SummaryNode[];
   hidden: z.infer<typeof foldedSchema> | null;
 }
@@ -35,34 +71,7 @@ export interface SummaryNode {
 export const summaryNodeSchema: z.ZodType<SummaryNode> = z.lazy(() =>
   z
     .object({
-      name: z.string().describe("The node's own name, as in the input."),
-      path: z.string().describe("Path from below the root, RFC 6901 escaping; accepted back as a focus."),
-      id: z.string().optional().describe("Row id, when the input links rows by id."),
-      label: z.string().optional().describe("Display text, when a label template is in use."),
-      interest: z.number().describe("Degree of interest (0 on focus paths, lower is less interesting)."),
-      nodes: z
-        .number()
-        .int()
-        .nonnegative()
-        .describe("Nodes in the subtree, this node included (distinct nodes; 0 on a reference)."),
-      size: z.number().describe("Size of the subtree, this node included (0 without sizes)."),
-      focus: z.boolean().describe("Whether the node is a focus."),
-      reference: z
-        .object({
-          path: z.string().describe("Path of the node's full entry; accepted back as a focus."),
-          cycle: z.boolean().describe("Whether the full entry is an ancestor of this line (a cycle)."),
-        })
-        .strict()
-        .optional()
-        .describe("Graphs only: this line stands for a node whose full entry is elsewhere."),
-      parents: z
-        .object({
-          count: z.number().int().positive().describe("Parents of the focus in the graph."),
-          hidden: z.number().int().nonnegative().describe("Those not shown."),
-        })
-        .strict()
-        .optional()
-        .describe("Graphs only, on a focus with several parents."),
+      ...nodeFieldsShape,
       children: z.array(summaryNodeSchema).describe("Shown children, in input order."),
       hidden: foldedSchema.nullable().describe("Hidden children folded into counts, or null."),
     })

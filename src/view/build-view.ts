@@ -52,6 +52,7 @@ export function buildView(
       // On a graph, the paths to a focus's other parents lead to it too.
       onPath:
         foci.length > 0 && (scores.forced[i] === 1 || (scores.rank !== undefined && scores.rank[i] !== FAR)),
+      anchor: scores.distance[i] === 0,
       depth: tree.depth[i],
       children: [],
       hidden: null,

@@ -8,9 +8,9 @@ import { csvTable } from "../../src/load/table.js";
 import { measure } from "../../src/model/measure.js";
 import { referenceIndex } from "../../src/model/reference-index.js";
 import type { Tree } from "../../src/model/tree.js";
-import { renderJson } from "../../src/render/json.js";
+import { renderJson } from "../../src/render/summary-json.js";
 import type { SummaryNode } from "../../src/render/summary-schema.js";
-import { renderText } from "../../src/render/text.js";
+import { renderText } from "../../src/render/summary-text.js";
 import { prepare, summarize } from "../../src/summarize.js";
 import { opts } from "../load/helpers.js";
 

@@ -3,9 +3,9 @@ import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 import { resolveFoci } from "../../src/focus/resolve.js";
 import { loadTree } from "../../src/load/index.js";
-import { renderJson } from "../../src/render/json.js";
+import { renderJson } from "../../src/render/summary-json.js";
 import type { SummaryNode } from "../../src/render/summary-schema.js";
-import { renderText } from "../../src/render/text.js";
+import { renderText } from "../../src/render/summary-text.js";
 import { prepare, summarize } from "../../src/summarize.js";
 import { opts } from "../load/helpers.js";
 

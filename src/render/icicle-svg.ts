@@ -1,12 +1,14 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { type ChangeKind, changeKinds, treeChangeKinds } from "../diff/changes.js";
 import type { ViewNode } from "../view/view-node.js";
-import { shownLabel } from "./escape.js";
-import { displayWidth, shortenMiddle } from "./fit-width.js";
-import { type IcicleBlock, icicle } from "./icicle.js";
-import { xmlEscape } from "./svg-escape.js";
-import { amount, MARK as LINE_MARK, parentsText, referenceText } from "./text.js";
-import { formatSize, type Units } from "./units.js";
+import { amount } from "./amount.js";
+import { displayWidth, shortenMiddle } from "./display-width.js";
+import { formatSize, type Units } from "./format-size.js";
+import { type IcicleBlock, icicle } from "./icicle-layout.js";
+import { MARK as LINE_MARK } from "./line-parts.js";
+import { parentsText, referenceText } from "./reference-text.js";
+import { shownLabel } from "./safe-text.js";
+import { xmlEscape } from "./xml-escape.js";
 
 export interface SvgOptions<T extends ViewNode = ViewNode> {
   units: Units;
@@ -160,7 +162,7 @@ function block<T extends ViewNode>(b: IcicleBlock<T>, options: SvgOptions<T>): s
     parts.push(`<rect ${box} fill="url(#${PATTERN})" stroke="${LOOK.background}" stroke-width="1"/>`);
   else if (node.reference)
     parts.push(
-      `<rect ${box} fill="${LOOK.background}" stroke="${LOOK.referenceEdge}" stroke-width="1.5" stroke-dasharray="2 2"/>`,
+      `<rect ${box} fill="${change ? LOOK.change[change].fill : LOOK.background}" stroke="${LOOK.referenceEdge}" stroke-width="1.5" stroke-dasharray="2 2"/>`,
     );
   else if (node.focus)
     parts.push(`<rect ${box} fill="${LOOK.focus}" stroke="${LOOK.focusEdge}" stroke-width="3"${dash}/>`);
@@ -260,6 +262,7 @@ function tooltip<T extends ViewNode>(
   if (node.path !== "" && path !== label) lines.push(path);
   if (node.reference) {
     lines.push(`reference, counted at its ${referenceText(node.reference)}`);
+    if (change) lines.push(change);
     return lines.join("\n");
   }
   lines.push(amount(node.nodes, node.size, always));
