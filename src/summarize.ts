@@ -26,7 +26,12 @@ export interface Prepared {
 
 export function prepare(tree: Tree): Prepared {
   const measures = measure(tree);
-  const prepared = { tree, measures, index: new PathIndex(tree, measures), references: referenceIndex(tree) };
+  const prepared = {
+    tree,
+    measures,
+    index: new PathIndex(tree, measures),
+    references: referenceIndex(tree, measures),
+  };
   // Warm the per-tree caches here, at load time, so that even the first focus costs only
   // interest + fit + view (a single summary computes them anyway).
   cachedImportance(prepared, "depth");
@@ -68,9 +73,7 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
   const api = cachedImportance(prepared, options.importance);
   const refs = prepared.references;
   // A graph scores by graph distance; a tree (no reference) by the tree formula, exactly as before.
-  const scores = refs
-    ? graphInterest(tree, measures, api, foci, refs)
-    : interest(tree, api, foci, scratchOf(prepared));
+  const scores = refs ? graphInterest(tree, api, foci, refs) : interest(tree, api, foci, scratchOf(prepared));
   const selection = select(
     tree,
     measures,

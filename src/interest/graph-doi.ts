@@ -1,4 +1,3 @@
-import type { Measures } from "../model/measure.js";
 import type { ReferenceIndex } from "../model/reference-index.js";
 import type { Tree } from "../model/tree.js";
 import type { Interest } from "./doi.js";
@@ -23,7 +22,6 @@ const FAR = 0x7fffffff;
  */
 export function graphInterest(
   tree: Tree,
-  measures: Measures,
   api: Float64Array,
   foci: Int32Array,
   refs: ReferenceIndex,
@@ -31,7 +29,6 @@ export function graphInterest(
   const n = tree.length;
   const { parent, depth } = tree;
   const to = tree.referenceTo!;
-  const { count } = measures;
   const value = new Float64Array(n);
   const distance = new Int32Array(n).fill(FAR);
   const forced = new Uint8Array(n);
@@ -42,15 +39,10 @@ export function graphInterest(
     return { value, distance, forced, forcedNodes: Int32Array.of(0), rank };
   }
 
-  // The neighbours of full entry x: its parent, its entry children, the nodes its reference children
-  // stand for, and the parents of the references that stand for x.
-  const eachNeighbour = (x: number, visit: (w: number) => void) => {
-    if (parent[x] >= 0) visit(parent[x]);
-    for (let c = x + 1, end = x + count[x]; c < end; c += count[c]) visit(to[c] === -1 ? c : to[c]);
-    for (let k = refs.start[x]; k < refs.start[x + 1]; k++) visit(parent[refs.refs[k]]);
-  };
-
-  // Key K(x) = min over foci of D(x, y) + API(y), settled in increasing order.
+  // Breadth-first over the neighbour lists (model/reference-index.ts): plain loops, no call per edge.
+  const { around, neighbours } = refs;
+  // Key K(x) = min over foci of D(x, y) + API(y), settled in increasing order: the foci, sorted by their
+  // offset, and the queue of nodes reached (keys never decrease in it) are merged.
   const sources = Int32Array.from(foci).sort((a, b) => api[a] - api[b] || a - b);
   const key = new Float64Array(n).fill(Number.POSITIVE_INFINITY);
   const settled = new Uint8Array(n);
@@ -59,15 +51,9 @@ export function graphInterest(
   let head = 0;
   let tail = 0;
   let next = 0;
-  let k = 0;
-  const relax = (w: number) => {
-    if (settled[w] === 0 && k + 1 < queued[w]) {
-      queued[w] = k + 1;
-      queue[tail++] = w;
-    }
-  };
   while (next < sources.length || head < tail) {
     let x: number;
+    let k: number;
     if (head < tail && (next === sources.length || queued[queue[head]] <= api[sources[next]])) {
       x = queue[head++];
       k = queued[x];
@@ -78,7 +64,14 @@ export function graphInterest(
     if (settled[x] === 1) continue;
     settled[x] = 1;
     key[x] = k;
-    eachNeighbour(x, relax);
+    const reach = k + 1;
+    for (let j = around[x], end = around[x + 1]; j < end; j++) {
+      const w = neighbours[j];
+      if (settled[w] === 0 && reach < queued[w]) {
+        queued[w] = reach;
+        queue[tail++] = w;
+      }
+    }
   }
 
   // Edges to the nearest focus.
@@ -93,12 +86,13 @@ export function graphInterest(
   while (head < tail) {
     const x = queue[head++];
     const d = raw[x] + 1;
-    eachNeighbour(x, (w) => {
+    for (let j = around[x], end = around[x + 1]; j < end; j++) {
+      const w = neighbours[j];
       if (raw[w] === FAR) {
         raw[w] = d;
         queue[tail++] = w;
       }
-    });
+    }
   }
 
   // Forced: the root, the foci and the ancestors of their full entries.

@@ -1,6 +1,6 @@
 import { Buffer } from "node:buffer";
 import { EspalierError } from "../errors.js";
-import { doubled, hashBytes, mix, rehashed } from "../model/child-hash.js";
+import { doubled, hashBytes, mix } from "../model/child-hash.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import { NamePool } from "../model/names.js";
 import type { LoadOptions } from "./load-options.js";
@@ -23,7 +23,7 @@ const ID_SEED = 0x811c9dc5;
 export class EdgeListReader {
   private readonly ids = new NamePool(1 << 12, 1 << 16);
   private count = 0;
-  private slots = new Int32Array(1 << 12);
+  private slots: Int32Array = new Int32Array(1 << 13); // pairs (node + 1, hash), at most half the places used
   private hashes = new Int32Array(1 << 11);
   private origin = new Int32Array(1 << 11);
   private from = new Int32Array(1 << 12);
@@ -113,13 +113,17 @@ export class EdgeListReader {
     this.edges = k + 1;
   }
 
-  /** The node with the id `buf[s, e)`, added on first sight. */
+  /**
+   * The node with the id `buf[s, e)`, added on first sight. The table holds pairs (node + 1, hash) side
+   * by side, so a probe reads one place, not the table and then a hash array.
+   */
   private idOf(buf: Uint8Array, s: number, e: number): number {
     const hash = hashBytes(ID_SEED, buf, s, e);
-    const mask = this.slots.length - 1;
+    const table = this.slots;
+    const mask = (table.length >> 1) - 1;
     let h = mix(hash) & mask;
-    for (let slot = this.slots[h]; slot !== 0; slot = this.slots[h]) {
-      if (this.hashes[slot - 1] === hash && this.ids.equalsBytes(slot - 1, buf, s, e)) return slot - 1;
+    for (let slot = table[2 * h]; slot !== 0; slot = table[2 * h]) {
+      if (table[2 * h + 1] === hash && this.ids.equalsBytes(slot - 1, buf, s, e)) return slot - 1;
       h = (h + 1) & mask;
     }
     const node = this.count;
@@ -131,10 +135,25 @@ export class EdgeListReader {
     }
     this.hashes[node] = hash;
     this.origin[node] = this.line;
-    this.slots[h] = node + 1;
+    table[2 * h] = node + 1;
+    table[2 * h + 1] = hash;
     this.count = node + 1;
-    if (this.count * 2 > this.slots.length) this.slots = rehashed(this.slots, this.hashes, this.count);
+    if (this.count * 4 > table.length) this.slots = this.grown();
     return node;
+  }
+
+  /** The table with twice the places, every node entered again by its hash. */
+  private grown(): Int32Array {
+    const table = new Int32Array(this.slots.length * 2);
+    const mask = (table.length >> 1) - 1;
+    for (let node = 0; node < this.count; node++) {
+      const hash = this.hashes[node];
+      let h = mix(hash) & mask;
+      while (table[2 * h] !== 0) h = (h + 1) & mask;
+      table[2 * h] = node + 1;
+      table[2 * h + 1] = hash;
+    }
+    return table;
   }
 
   private tooMany(lineStart: number, at: number): EspalierError {

@@ -188,14 +188,17 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     fields.set(key, column);
   }
   const hasReferences = slots > n + base;
+  const names = name.reordered(from, graph.rootName);
   return {
     length: slots,
     parent,
     depth,
-    name: name.reordered(from, graph.rootName),
+    name: names,
     ownSize,
     hasSizes: graph.hasSizes,
-    ids: ids.reordered(from, ""),
+    // An edge list's names are its ids (one pool): one reordered pool serves both, unless a synthetic
+    // root needs a name ("" is its id).
+    ids: graph.ids === graph.name && !synthetic ? names : ids.reordered(from, ""),
     origin,
     originIsRow: graph.originIsRow,
     fields,
