@@ -105,13 +105,7 @@ if (options.big) results.big = benchBig();
 else if (!options.graphOnly) results.diff = await benchDiff();
 if (!options.big && !options.diffOnly)
   results.graph = options.graph
-    ? benchGraph({
-        nodes: options.graphNodes,
-        repeat: options.repeat,
-        budget: options.budget,
-        runCommand,
-        log,
-      })
+    ? benchGraph({ nodes: options.graphNodes, repeat: options.repeat, log })
     : { skipped: true, reason: "--no-graph" };
 results.loadAfter = loadavg()[0];
 
