@@ -29,7 +29,7 @@ export function loadEdges(text: string, options: LoadOptions): GraphNodes {
   const graph =
     delimiter === null
       ? loadEdgeList(text, options)
-      : linkGraphTable(csvTable(text, delimiter, Number.POSITIVE_INFINITY), options);
+      : linkGraphTable(csvTable(text, delimiter, Number.POSITIVE_INFINITY), options, true);
   return withNodeRecords(graph, options);
 }
 

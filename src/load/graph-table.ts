@@ -27,10 +27,10 @@ type Fields = Pick<
  * column instead (an edge table), each row is one edge and nodes come from the ids the rows name; the
  * name, size and kept columns then describe nothing and are not read (give node records separately).
  */
-export function linkGraphTable(table: Table, options: Fields): GraphNodes {
+export function linkGraphTable(table: Table, options: Fields, edgesOnly = false): GraphNodes {
   if (table.length === 0) throw new EspalierError("INPUT_EMPTY", "the table has no data rows");
-  const ids = table.column(options.idField);
   const parents = table.column(options.parentField);
+  const ids = edgesOnly ? undefined : table.column(options.idField);
   if (ids && parents) return linkRows(table, ids, parents, options);
   const children = table.column(options.childField);
   if (parents && children) return linkEdges(table, parents, children, options);

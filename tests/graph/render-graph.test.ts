@@ -110,6 +110,16 @@ describe("renderText / renderJson / renderMarkdown / renderSvg on a graph", () =
 });
 
 describe("espalier --input-format edges (command line)", () => {
+  it("reads a TSV edge table from standard input by its parent and child columns (streamed)", async () => {
+    const tsv = "parent\tchild\tid\nhq\tlab\tx\nhq\tops\tx\nlab\trig\tx\nops\trig\tx\n";
+    const out = await cli(["-", "--input-format", "edges", "--format", "json"], { stdin: tsv });
+    expect(out.code, out.stderr).toBe(0);
+    const doc = JSON.parse(out.stdout);
+    expect(doc.totals.nodes).toBe(4);
+    expect(doc.root.children.map((c: { name: string }) => c.name)).toEqual(["lab", "ops"]);
+    expect(doc.root.children[1].children[0]).toMatchObject({ name: "rig", reference: { path: "lab/rig" } });
+  });
+
   it("reads node records from a second table and counts each package once", async () => {
     const out = await cli([
       EDGES,

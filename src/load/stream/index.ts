@@ -83,12 +83,14 @@ async function linkedNodes(
     case "edges": {
       const delimiter = edgeTableDelimiter(head, options);
       if (delimiter === null) return edgeListStream(chunks, options);
+      // The child column is read too (a table streamed keeps only the columns it is told of).
       const table = await csvStreamTable(chunks, delimiter, {
         ...options,
+        keepFields: [...options.keepFields, options.childField],
         maxNodes: Number.POSITIVE_INFINITY,
       });
       try {
-        return linkGraphTable(table, options);
+        return linkGraphTable(table, options, true);
       } finally {
         table.release?.();
       }
