@@ -1,5 +1,9 @@
+import { Buffer } from "node:buffer";
 import { EspalierError } from "../errors.js";
-import { csvTable, rowsTable, type Table } from "../load/table.js";
+import type { LoadOptions } from "../load/load-options.js";
+import { csvTableFromBytes } from "../load/table/csv-table.js";
+import { rowsTable } from "../load/table/rows-table.js";
+import type { Table } from "../load/table/table.js";
 import type { CliIO } from "./io.js";
 import { readInput } from "./read-input.js";
 
@@ -8,7 +12,7 @@ import { readInput } from "./read-input.js";
  * flat records, one per node id. JSON by the `.json` extension or a first `[`; TSV by `.tsv`/`.tab` or a
  * tab in the first line; CSV otherwise. Errors name the records file.
  */
-export async function readNodeRecords(io: CliIO, file: string): Promise<Table> {
+export async function readNodeRecords(io: CliIO, file: string, fields: LoadOptions): Promise<Table> {
   const shown = file === "-" ? "<stdin>" : file;
   try {
     const text = await readInput(io, file);
@@ -28,7 +32,11 @@ export async function readNodeRecords(io: CliIO, file: string): Promise<Table> {
     }
     const firstLine = body.slice(0, body.indexOf("\n") === -1 ? body.length : body.indexOf("\n"));
     const tsv = lower.endsWith(".tsv") || lower.endsWith(".tab") || firstLine.includes("\t");
-    return csvTable(body, tsv ? "\t" : ",", Number.POSITIVE_INFINITY);
+    // The records are read by the id, name, size and kept columns (no row limit: one record per node).
+    return csvTableFromBytes(Buffer.from(body, "utf8"), tsv ? "\t" : ",", {
+      ...fields,
+      maxNodes: Number.POSITIVE_INFINITY,
+    });
   } catch (error) {
     throw error instanceof EspalierError ? error.inFile(shown) : error;
   }

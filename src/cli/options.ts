@@ -34,7 +34,9 @@ export const summaryOptionsSchema = z.object({
   graph: z
     .boolean()
     .default(false)
-    .describe("Read an id/parent table as a graph: an id may repeat with other parents."),
+    .describe(
+      "Read the input as a graph: table ids may repeat with other parents; a JSON/YAML object is a map of ids.",
+    ),
   nodes: z
     .string()
     .min(1)

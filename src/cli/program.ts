@@ -47,7 +47,10 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
     .option("--parent-field <column>", "column holding the parent's id", "parent")
     .option("--path-field <column>", "column holding a row's path", "path")
     .option("--child-field <column>", "column holding an edge's child id (edge tables)", "child")
-    .option("--graph", "read an id/parent table as a graph: an id may repeat with other parents")
+    .option(
+      "--graph",
+      "read the input as a graph: table ids may repeat with other parents; a JSON/YAML object is a map of ids",
+    )
     .option("--nodes <file>", "node records of a graph (names, sizes, fields) from this CSV/TSV/JSON table")
     .addOption(
       new Option("--importance <kind>", "a-priori importance: depth, or size (bigger subtrees matter more)")

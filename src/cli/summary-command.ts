@@ -32,7 +32,8 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
       // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
       const chunks = withProgress(source.chunks, io, displayName(input), source.size);
       const loadOptions = toLoadOptions(input, opts);
-      if (opts.nodes !== undefined) loadOptions.nodeRecords = await readNodeRecords(io, opts.nodes);
+      if (opts.nodes !== undefined)
+        loadOptions.nodeRecords = await readNodeRecords(io, opts.nodes, loadOptions);
       tree = await loadTreeFromStream(chunks, loadOptions);
     }
   } catch (err) {

@@ -10,30 +10,16 @@ type Fields = Pick<
 >;
 
 /**
- * Whether a parsed JSON or YAML value is an adjacency map rather than a nested root node: a top-level
- * object (mapping) with none of the name, children or size fields among its keys, and at least one value
- * that is a list or an object. A nested tree's root names itself or its children, so it has one of them.
- */
-export function isAdjacencyValue(
-  value: unknown,
-  fields: Pick<Fields, "nameField" | "childrenField" | "sizeField">,
-): boolean {
-  if (typeof value !== "object" || value === null || Array.isArray(value)) return false;
-  const keys = Object.keys(value);
-  if (keys.length === 0) return false;
-  for (const key of [fields.nameField, fields.childrenField, fields.sizeField])
-    if (Object.hasOwn(value, key)) return false;
-  return Object.values(value).some((v) => typeof v === "object" && v !== null);
-}
-
-/**
  * An adjacency map as a graph: each key is a node id, and its value names its children by id: a list of
  * ids, or the node's own record (an object whose children field holds that list, with an optional name,
  * size and kept fields), or null for a node with no children. Ids are strings or numbers (a number
  * stands for its digits). An id that is no key is a node with no children and no record. Nodes are the
  * keys in map order, then the other ids in order of first mention; edges in map order.
  */
-export function adjacencyNodes(map: Record<string, unknown>, options: Fields): GraphNodes {
+export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
+  if (typeof value !== "object" || value === null || Array.isArray(value))
+    throw new EspalierError("SHAPE", "a graph read as an adjacency map must be an object (a mapping) of ids");
+  const map = value as Record<string, unknown>;
   const keys = Object.keys(map);
   const nodeOf = new Map<string, number>();
   const ids: string[] = [];

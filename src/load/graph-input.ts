@@ -1,8 +1,11 @@
+import { Buffer } from "node:buffer";
 import type { GraphNodes } from "../model/graph-nodes.js";
+import { adjacencyNodes } from "./adjacency.js";
 import { loadEdgeList } from "./edge-list.js";
 import { linkGraphTable, withRecords } from "./graph-table.js";
 import type { LoadOptions } from "./load-options.js";
-import { csvTable } from "./table.js";
+import { csvTableFromBytes } from "./table/csv-table.js";
+import { rowsTable } from "./table/rows-table.js";
 
 /**
  * The delimiter of an edge table's header ("," or a tab), or null for a plain edge list: the first
@@ -23,14 +26,40 @@ export function edgeTableDelimiter(
   return null;
 }
 
-/** An edge list or edge table held as text, with its node records laid over it. */
+/** Load options for reading an edge table: its child column is read too, and nothing limits rows here. */
+export function edgeTableFields(options: LoadOptions): LoadOptions {
+  return {
+    ...options,
+    keepFields: [...options.keepFields, options.childField],
+    maxNodes: Number.POSITIVE_INFINITY,
+  };
+}
+
+/** An edge list or edge table held as text. */
 export function loadEdges(text: string, options: LoadOptions): GraphNodes {
   const delimiter = edgeTableDelimiter(text, options);
-  const graph =
-    delimiter === null
-      ? loadEdgeList(text, options)
-      : linkGraphTable(csvTable(text, delimiter, Number.POSITIVE_INFINITY), options, true);
-  return withNodeRecords(graph, options);
+  if (delimiter === null) return loadEdgeList(text, options);
+  const table = csvTableFromBytes(Buffer.from(text, "utf8"), delimiter, edgeTableFields(options));
+  try {
+    return linkGraphTable(table, options, true);
+  } finally {
+    table.release?.();
+  }
+}
+
+/**
+ * A JSON text read as a graph (`options.graph`): an array is rows whose ids may repeat with other
+ * parents, an object an adjacency map (see {@link adjacencyNodes}). Null when the text is no JSON, so
+ * that the JSON loader reads it and places the error.
+ */
+export function jsonGraph(text: string, options: LoadOptions): GraphNodes | null {
+  let value: unknown;
+  try {
+    value = JSON.parse(text);
+  } catch {
+    return null;
+  }
+  return Array.isArray(value) ? linkGraphTable(rowsTable(value), options) : adjacencyNodes(value, options);
 }
 
 /** The graph with `options.nodeRecords` laid over its nodes, when there are records. */

@@ -4,7 +4,7 @@ import { isSize } from "../model/size-rule.js";
 import type { LoadOptions } from "./load-options.js";
 import { limitExceeded } from "./node-sink.js";
 import { parseSize } from "./parse-size.js";
-import type { Cell, Table } from "./table.js";
+import type { Cell, Table } from "./table/table.js";
 
 type Fields = Pick<
   LoadOptions,

@@ -1,25 +1,27 @@
+import { Buffer } from "node:buffer";
 import { EspalierError } from "../errors.js";
 import { buildGraphTree } from "../model/build-graph.js";
 import { buildTree } from "../model/build-tree.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { Tree } from "../model/tree.js";
+import { byteLoader } from "./byte-loader.js";
 import { detectFormat } from "./detect-format.js";
-import { isGraph, loadEdges, withNodeRecords } from "./graph-input.js";
+import { isGraph, jsonGraph, loadEdges, withNodeRecords } from "./graph-input.js";
 import { linkGraphTable } from "./graph-table.js";
-import { linkTable } from "./link-table.js";
-import { loadJson } from "./load-json.js";
-import type { LoadOptions } from "./load-options.js";
-import { loadPathList } from "./load-path-list.js";
+import type { InputFormat, LoadOptions } from "./load-options.js";
 import { loadYaml } from "./load-yaml.js";
-import { csvTable } from "./table.js";
+import { csvTableFromBytes } from "./table/csv-table.js";
+import { linkTable } from "./table/link-table.js";
 
 export { detectFormat } from "./detect-format.js";
 export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } from "./load-options.js";
 
 /**
  * Reads already-decoded text into a {@link Tree}: strips a leading byte order mark, detects the format
- * unless `options.format` forces one, links the nodes and orders them. Every failure is an
+ * unless `options.format` forces one, and reads the text's UTF-8 bytes with the same loaders the
+ * streaming `loadTreeFromStream` uses (YAML as text), so both give the same tree and the same errors.
+ * A lone surrogate in the text reads as U+FFFD, as it would from a file. Every failure is an
  * {@link EspalierError} whose position names `options.file`.
  */
 export function loadTree(text: string, options: LoadOptions): Tree {
@@ -36,26 +38,25 @@ export function loadTree(text: string, options: LoadOptions): Tree {
   }
 }
 
-function linkedNodes(
-  body: string,
-  format: LoadOptions["format"] & string,
-  options: LoadOptions,
-): LinkedNodes | GraphNodes {
-  switch (format) {
-    case "json":
-    case "rows":
-      // A detected format is a guess from the first record; the parsed value decides.
-      return loadJson(body, options, options.format === undefined ? undefined : format);
-    case "yaml":
-      return loadYaml(body, options);
-    case "csv":
-    case "tsv": {
-      const table = csvTable(body, format === "csv" ? "," : "\t", options.maxNodes);
-      return options.graph ? linkGraphTable(table, options) : linkTable(table, options);
-    }
-    case "paths":
-      return loadPathList(body, options);
-    case "edges":
-      return loadEdges(body, options);
+function linkedNodes(body: string, format: InputFormat, options: LoadOptions): LinkedNodes | GraphNodes {
+  if (format === "yaml") return loadYaml(body, options);
+  if (format === "edges") return loadEdges(body, options);
+  // A JSON graph (rows or an adjacency map) is parsed whole; a text that is no JSON goes to the JSON
+  // loader, which places the error.
+  if ((format === "json" || format === "rows") && options.graph) {
+    const graph = jsonGraph(body, options);
+    if (graph) return graph;
+  }
+  const bytes = Buffer.from(body, "utf8");
+  const loader = byteLoader(format, options);
+  if (loader) {
+    loader.write(bytes);
+    return loader.end();
+  }
+  const table = csvTableFromBytes(bytes, format === "csv" ? "," : "\t", options);
+  try {
+    return options.graph ? linkGraphTable(table, options) : linkTable(table, options);
+  } finally {
+    table.release?.();
   }
 }

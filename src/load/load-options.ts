@@ -1,4 +1,4 @@
-import type { Table } from "./table.js";
+import type { Table } from "./table/table.js";
 
 /**
  * Input formats espalier reads. `rows` is a JSON array of flat records (id + parent, or a path column);
@@ -27,7 +27,10 @@ export interface LoadOptions {
   pathField: string;
   /** Column holding an edge's child id (edge tables). Default "child". */
   childField: string;
-  /** Read a table linked by id and parent as a graph: an id may repeat with other parents. Default false. */
+  /**
+   * Read the input as a graph: a table (or JSON rows) linked by id and parent whose ids may repeat with
+   * other parents, or a JSON/YAML object as an adjacency map of ids. Default false.
+   */
   graph: boolean;
   /** Node records for a graph (names, sizes, kept fields) by id, from a second table. */
   nodeRecords?: Table;

@@ -12,7 +12,7 @@ import {
 import { EspalierError } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
-import { adjacencyNodes, isAdjacencyValue } from "./adjacency.js";
+import { adjacencyNodes } from "./adjacency.js";
 import type { LoadOptions } from "./load-options.js";
 import { Kind, type NestedAccess, walkNested } from "./walk-nested.js";
 
@@ -54,15 +54,9 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
     throw new EspalierError("INPUT_EMPTY", "the YAML document holds no value");
   }
 
-  // A mapping that names no name, children or size field may be an adjacency map (a graph). Its plain
-  // value is made only then; aliases expand there, up to the yaml package's alias count limit.
-  if (isMap(root)) {
-    const own = new Set(root.items.map((pair) => keyText(pair.key)));
-    if (!own.has(options.nameField) && !own.has(options.childrenField) && !own.has(options.sizeField)) {
-      const plain: unknown = doc.toJS();
-      if (isAdjacencyValue(plain, options)) return adjacencyNodes(plain as Record<string, unknown>, options);
-    }
-  }
+  // With `options.graph` the document is an adjacency map; aliases expand in its plain value, up to
+  // the yaml package's alias count limit.
+  if (options.graph) return adjacencyNodes(doc.toJS(), options);
 
   // An alias stands for the last node with its anchor before it, in document order.
   const target = new Map<Alias, Node>();

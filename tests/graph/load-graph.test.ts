@@ -126,24 +126,26 @@ describe("loadTree(json adjacency map)", () => {
       ops: { children: ["rig"], size: 2 },
       rig: { size: 5 },
     });
-    const tree = loadTree(json, opts({ format: "json" }));
+    const tree = loadTree(json, opts({ format: "json", graph: true }));
     expect(slots(tree)).toEqual(["Head office", "  lab", "    rig", "  ops", "    &rig"]);
     expect(measure(tree).size[0]).toBe(8);
     expect(tree.ids?.get(0)).toBe("hq");
   });
 
   it("reads the same map from YAML", () => {
-    const tree = loadTree("hq: [lab, ops]\nlab: [rig]\nops: [rig]\n", opts({ format: "yaml" }));
+    const tree = loadTree("hq: [lab, ops]\nlab: [rig]\nops: [rig]\n", opts({ format: "yaml", graph: true }));
     expect(slots(tree)).toEqual(["hq", "  lab", "    rig", "  ops", "    &rig"]);
   });
 
-  it("still reads a nested root (it has a name or children field) as a tree", () => {
-    const tree = loadTree('{"name":"r","children":[{"name":"a"}]}', opts({ format: "json" }));
+  it("reads an object as nested nodes without graph: true (only --graph reads it as a map of ids)", () => {
+    const tree = loadTree('{"hq":["lab","ops"],"lab":["rig"],"ops":["rig"]}', opts({ format: "json" }));
     expect(tree.referenceTo).toBeUndefined();
-    expect(slots(tree)).toEqual(["r", "  a"]);
+    expect(tree.length).toBe(1);
   });
 
-  it("rejects an entry that is neither a list, a record nor null with SHAPE", () => {
-    expect(caught(() => loadTree('{"a":["b"],"b":7}', opts({ format: "json" }))).code).toBe("SHAPE");
+  it("rejects an entry that is neither a list of ids, a record nor null, and an empty id, with SHAPE", () => {
+    for (const doc of ['{"a":["b"],"b":7}', '{"a":{"children":[{"name":"x"}]}}', '{"a":["b", ""],"b":null}'])
+      expect(caught(() => loadTree(doc, opts({ format: "json", graph: true }))).code).toBe("SHAPE");
+    expect(caught(() => loadTree("[1, 2]\n", opts({ format: "yaml", graph: true }))).code).toBe("SHAPE");
   });
 });

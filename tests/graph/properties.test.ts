@@ -4,7 +4,7 @@ import { interest } from "../../src/interest/doi.js";
 import { graphInterest } from "../../src/interest/graph-doi.js";
 import { type Importance, importance } from "../../src/interest/importance.js";
 import { loadTree } from "../../src/load/index.js";
-import { csvTable } from "../../src/load/table.js";
+import { csvTableFromBytes } from "../../src/load/table/csv-table.js";
 import { measure } from "../../src/model/measure.js";
 import { referenceIndex } from "../../src/model/reference-index.js";
 import type { Tree } from "../../src/model/tree.js";
@@ -47,7 +47,13 @@ const load = (text: string, sizes?: number[]) =>
     opts({
       format: "edges",
       rootName: "g",
-      nodeRecords: sizes && csvTable(`id,size\n${sizes.map((z, k) => `n${k},${z}`).join("\n")}\n`, ",", 1e9),
+      nodeRecords:
+        sizes &&
+        csvTableFromBytes(
+          Buffer.from(`id,size\n${sizes.map((z, k) => `n${k},${z}`).join("\n")}\n`),
+          ",",
+          opts({ maxNodes: 1e9 }),
+        ),
     }),
   );
 

@@ -32,7 +32,7 @@ const containment = Object.fromEntries(
 );
 const tree = loadTree(
   JSON.stringify(containment),
-  opts({ format: "json", childrenField: "_contains", rootName: "m49" }),
+  opts({ format: "json", graph: true, childrenField: "_contains", rootName: "m49" }),
 );
 const prepared = prepare(tree);
 

@@ -5,24 +5,23 @@ import { buildTree } from "../../model/build-tree.js";
 import type { GraphNodes } from "../../model/graph-nodes.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { Tree } from "../../model/tree.js";
+import { byteLoader } from "../byte-loader.js";
 import { detectFormat } from "../detect-format.js";
-import { edgeTableDelimiter, isGraph, withNodeRecords } from "../graph-input.js";
+import { edgeTableDelimiter, edgeTableFields, isGraph, jsonGraph, withNodeRecords } from "../graph-input.js";
 import { linkGraphTable } from "../graph-table.js";
-import { linkTable } from "../link-table.js";
-import { loadJson } from "../load-json.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
 import { loadYaml } from "../load-yaml.js";
-import { csvStreamTable } from "./csv-stream-table.js";
+import { csvTableFromStream } from "../table/csv-table.js";
+import { linkTable } from "../table/link-table.js";
 import { edgeListStream } from "./edge-list-stream.js";
-import { JsonStreamLoader } from "./json-stream-loader.js";
-import { pathListStream } from "./path-list-stream.js";
 import { readStart } from "./read-start.js";
 
 /**
  * Reads a byte stream into a {@link Tree}, never holding the input as one string: the streaming
- * counterpart of `loadTree`, giving the same tree for the same bytes. The format is detected from the
- * file name and the first bytes unless `options.format` forces one. JSON, JSON rows, CSV, TSV and path
- * lists stream; YAML is read whole (it cannot be longer than the engine's longest string).
+ * counterpart of `loadTree`, with the same loaders, so both give the same tree for the same bytes. The
+ * format is detected from the file name and the first bytes unless `options.format` forces one. JSON,
+ * JSON rows, CSV, TSV and path lists stream; YAML is read whole (it cannot be longer than the engine's
+ * longest string).
  */
 export async function loadTreeFromStream(
   chunks: AsyncIterable<Uint8Array>,
@@ -54,71 +53,46 @@ async function linkedNodes(
   options: LoadOptions,
   head: string,
 ): Promise<LinkedNodes | GraphNodes> {
-  switch (format) {
-    case "json":
-    case "rows": {
-      // Graph rows and adjacency maps are read whole (see mayBeAdjacency).
-      if (options.graph || (format === "json" && mayBeAdjacency(head, options)))
-        return loadJson(
-          await wholeText(chunks, "JSON"),
-          options,
-          options.format === undefined ? undefined : format,
-        );
-      // A detected format is a guess from the first bytes; the first element decides, as in memory.
-      const loader = new JsonStreamLoader(options, options.format === undefined ? undefined : format);
-      for await (const chunk of chunks) loader.write(chunk);
-      return loader.end();
+  if (format === "yaml") return loadYaml(await wholeText(chunks, "YAML"), options);
+  if (format === "edges") {
+    const delimiter = edgeTableDelimiter(head, options);
+    if (delimiter === null) return edgeListStream(chunks, options);
+    const table = await csvTableFromStream(chunks, delimiter, edgeTableFields(options));
+    try {
+      return linkGraphTable(table, options, true);
+    } finally {
+      table.release?.();
     }
-    case "csv":
-    case "tsv": {
-      const table = await csvStreamTable(chunks, format === "csv" ? "," : "\t", options);
-      try {
-        return options.graph ? linkGraphTable(table, options) : linkTable(table, options);
-      } finally {
-        table.release?.();
-      }
-    }
-    case "paths":
-      return pathListStream(chunks, options);
-    case "edges": {
-      const delimiter = edgeTableDelimiter(head, options);
-      if (delimiter === null) return edgeListStream(chunks, options);
-      // The child column is read too (a table streamed keeps only the columns it is told of).
-      const table = await csvStreamTable(chunks, delimiter, {
-        ...options,
-        keepFields: [...options.keepFields, options.childField],
-        maxNodes: Number.POSITIVE_INFINITY,
-      });
-      try {
-        return linkGraphTable(table, options, true);
-      } finally {
-        table.release?.();
-      }
-    }
-    case "yaml":
-      return loadYaml(await wholeText(chunks, "YAML"), options);
   }
-}
-
-/**
- * Whether a JSON input may be an adjacency map, judged from its first bytes: a top-level object whose
- * first key is not the name, children or size field (a nested root almost always starts with one). Such
- * an input is read whole and the parsed value decides (a nested tree still loads as one).
- */
-function mayBeAdjacency(head: string, options: LoadOptions): boolean {
-  const m = /^\s*\{\s*("(?:[^"\\]|\\.)*")\s*:/.exec(head.charCodeAt(0) === 0xfeff ? head.slice(1) : head);
-  if (!m) return false;
-  let key: string;
+  const loader = byteLoader(format, options);
+  // A JSON graph (rows or an adjacency map) is read whole and parsed.
+  if ((format === "json" || format === "rows") && options.graph) {
+    const bytes = await wholeBytes(chunks, "JSON");
+    const graph = jsonGraph(new TextDecoder("utf-8", { ignoreBOM: true }).decode(bytes), options);
+    if (graph) return graph;
+    // No JSON: the JSON loader reads the same bytes and places the error.
+    loader!.write(bytes);
+    return loader!.end();
+  }
+  if (loader) {
+    for await (const chunk of chunks) loader.write(chunk);
+    return loader.end();
+  }
+  const table = await csvTableFromStream(chunks, format === "csv" ? "," : "\t", options);
   try {
-    key = JSON.parse(m[1]) as string;
-  } catch {
-    return false;
+    return options.graph ? linkGraphTable(table, options) : linkTable(table, options);
+  } finally {
+    table.release?.();
   }
-  return key !== options.nameField && key !== options.childrenField && key !== options.sizeField;
 }
 
-/** The whole input as one string (YAML, adjacency maps); LIMIT_EXCEEDED when no string can hold it. */
+/** The whole input as one string (YAML); LIMIT_EXCEEDED when no string can hold it. */
 async function wholeText(chunks: AsyncIterable<Uint8Array>, what: "YAML" | "JSON"): Promise<string> {
+  return new TextDecoder("utf-8", { ignoreBOM: true }).decode(await wholeBytes(chunks, what));
+}
+
+/** The whole input as bytes no longer than the longest string (YAML, JSON graphs); else LIMIT_EXCEEDED. */
+async function wholeBytes(chunks: AsyncIterable<Uint8Array>, what: "YAML" | "JSON"): Promise<Buffer> {
   const parts: Uint8Array[] = [];
   let length = 0;
   for await (const chunk of chunks) {
@@ -133,5 +107,5 @@ async function wholeText(chunks: AsyncIterable<Uint8Array>, what: "YAML" | "JSON
       );
     }
   }
-  return new TextDecoder("utf-8", { ignoreBOM: true }).decode(Buffer.concat(parts, length));
+  return Buffer.concat(parts, length);
 }

@@ -1,28 +1,27 @@
-import { EspalierError } from "../errors.js";
-import type { GraphNodes } from "../model/graph-nodes.js";
-import type { LinkedNodes } from "../model/linked-nodes.js";
-import { adjacencyNodes, isAdjacencyValue } from "./adjacency.js";
-import { linkGraphTable } from "./graph-table.js";
+import { EspalierError } from "../../../src/errors.js";
+import type { LoadOptions } from "../../../src/load/load-options.js";
+import { isRowsValue } from "../../../src/load/rows-shape.js";
+import { linkTable } from "../../../src/load/table/link-table.js";
+import { rowsTable } from "../../../src/load/table/rows-table.js";
+import { Kind, type NestedAccess, walkNested } from "../../../src/load/walk-nested.js";
+import type { LinkedNodes } from "../../../src/model/linked-nodes.js";
 import { jsonErrorOffset } from "./json-error-offset.js";
 import { lineColumnAt } from "./line-column.js";
-import { linkTable } from "./link-table.js";
-import type { LoadOptions } from "./load-options.js";
-import { isRowsValue } from "./rows-shape.js";
-import { rowsTable } from "./table.js";
-import { Kind, type NestedAccess, walkNested } from "./walk-nested.js";
+
+// The whole-text JSON reader espalier had before every load went through the byte loaders, kept as a
+// reference answer: JSON.parse (ECMA-262), with the parse error's offset taken from the engine's message
+// or from an RFC 8259 scanner (json-error-offset.ts), and a walk over the parsed value.
 
 /**
  * Loads JSON text: nested nodes, or rows (a top-level array of flat records) when `as` says so or, with
- * `as` undefined, when the value looks like rows (see {@link isRowsValue}), or an adjacency map (a graph,
- * see {@link isAdjacencyValue}).
+ * `as` undefined, when the value looks like rows (see {@link isRowsValue}).
  */
-export function loadJson(text: string, options: LoadOptions, as?: "json" | "rows"): LinkedNodes | GraphNodes {
+export function loadJson(text: string, options: LoadOptions, as?: "json" | "rows"): LinkedNodes {
   const value = parseJson(text);
   if (as === "rows" || (as === undefined && isRowsValue(value, options))) {
     if (!Array.isArray(value)) throw new EspalierError("SHAPE", "rows must be a top-level array of objects");
-    return options.graph ? linkGraphTable(rowsTable(value), options) : linkTable(rowsTable(value), options);
+    return linkTable(rowsTable(value), options);
   }
-  if (isAdjacencyValue(value, options)) return adjacencyNodes(value as Record<string, unknown>, options);
   return walkNested<unknown>(value, jsonAccess, options);
 }
 
