@@ -3,10 +3,7 @@ import { defaultLoadOptions, type LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
-import { renderSvg } from "../render/icicle-svg.js";
 import { palette } from "../render/palette.js";
-import { renderJson } from "../render/summary-json.js";
-import { renderMarkdown } from "../render/summary-markdown.js";
 import { renderText } from "../render/summary-text.js";
 import { prepare, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
@@ -23,22 +20,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   const foci = [...opts.focus];
   if (opts.focusFrom !== undefined) foci.push(...(await readFociFile(io, opts.focusFrom, input)));
   const key = pseudonymKey(opts, io);
-  let tree: Tree;
-  try {
-    if (isFactInput(opts)) {
-      tree = await loadFactInput(input, opts, rootNameOf(input));
-    } else {
-      const source = await readInputStream(io, input);
-      // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
-      const chunks = withProgress(source.chunks, io, displayName(input), source.size);
-      const loadOptions = toLoadOptions(input, opts);
-      if (opts.nodes !== undefined)
-        loadOptions.nodeRecords = await readNodeRecords(io, opts.nodes, loadOptions);
-      tree = await loadTreeFromStream(chunks, loadOptions);
-    }
-  } catch (err) {
-    throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
-  }
+  const tree = await loadInput(io, input, opts);
   const budget = opts.budget ?? defaultBudget(io);
   const result = summarize(prepare(tree), {
     foci,
@@ -49,6 +31,8 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     chains: opts.chains,
   });
   if (opts.format === "json") {
+    // Each other output format is loaded when asked for: a start loads only what the run needs.
+    const { renderJson } = await import("../render/summary-json.js");
     return renderJson(result.view, {
       budget,
       lines: result.selection.lines,
@@ -56,8 +40,12 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
       labels: opts.label !== undefined,
     });
   }
-  if (opts.format === "svg") return renderSvg(result.view, { units: unitsFor(opts), sizes: tree.hasSizes });
+  if (opts.format === "svg") {
+    const { renderSvg } = await import("../render/icicle-svg.js");
+    return renderSvg(result.view, { units: unitsFor(opts), sizes: tree.hasSizes });
+  }
   if (opts.format === "markdown") {
+    const { renderMarkdown } = await import("../render/summary-markdown.js");
     return renderMarkdown(result.view, { units: unitsFor(opts), sizes: tree.hasSizes, chains: opts.chains });
   }
   return renderText(result.view, {
@@ -67,6 +55,22 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     chains: opts.chains,
     width: opts.width ?? defaultWidth(io),
   });
+}
+
+/** Loads one input as every command does: a fact table rolled up, else any tree format, streamed. */
+export async function loadInput(io: CliIO, input: string, opts: SummaryCliOptions): Promise<Tree> {
+  try {
+    if (isFactInput(opts)) return await loadFactInput(input, opts, rootNameOf(input));
+    const source = await readInputStream(io, input);
+    // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
+    const chunks = withProgress(source.chunks, io, displayName(input), source.size);
+    const loadOptions = toLoadOptions(input, opts);
+    if (opts.nodes !== undefined)
+      loadOptions.nodeRecords = await readNodeRecords(io, opts.nodes, loadOptions);
+    return await loadTreeFromStream(chunks, loadOptions);
+  } catch (err) {
+    throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
+  }
 }
 
 export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptions {
@@ -133,7 +137,7 @@ export function defaultBudget(io: CliIO): number {
   return DEFAULT_BUDGET;
 }
 
-function pseudonymKey(opts: SummaryCliOptions, io: CliIO): string | undefined {
+export function pseudonymKey(opts: SummaryCliOptions, io: CliIO): string | undefined {
   if (!opts.pseudonymize) return undefined;
   const key = io.env[PSEUDONYM_KEY_ENV];
   if (!key) {

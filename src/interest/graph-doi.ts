@@ -1,6 +1,6 @@
 import type { ReferenceIndex } from "../model/reference-index.js";
 import type { Tree } from "../model/tree.js";
-import type { Interest } from "./doi.js";
+import { fromArrays, type Interest } from "./doi.js";
 
 const FAR = 0x7fffffff;
 
@@ -36,7 +36,7 @@ export function graphInterest(
   forced[0] = 1;
   if (foci.length === 0) {
     for (let i = 0; i < n; i++) value[i] = api[i] - api[0];
-    return { value, distance, forced, forcedNodes: Int32Array.of(0), rank };
+    return { ...fromArrays(value, distance, forced, Int32Array.of(0)), rank };
   }
 
   // Breadth-first over the neighbour lists (model/reference-index.ts): plain loops, no call per edge.
@@ -124,5 +124,5 @@ export function graphInterest(
     if (forced[i] === 0 && p >= 0 && d <= distance[p]) d = distance[p] + 1;
     distance[i] = d;
   }
-  return { value, distance, forced, forcedNodes: Int32Array.from(forcedNodes).sort(), rank };
+  return { ...fromArrays(value, distance, forced, Int32Array.from(forcedNodes).sort()), rank };
 }

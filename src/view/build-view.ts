@@ -1,6 +1,6 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import type { Selection } from "../fit/select.js";
-import type { Interest } from "../interest/doi.js";
+import type { Scores } from "../interest/scores.js";
 import type { PathIndex } from "../model/path-index.js";
 import { hierarchyOf } from "./hierarchy-of.js";
 import type { ViewNode } from "./view-node.js";
@@ -14,7 +14,7 @@ export type Labeller = (index: number) => string;
  */
 export function buildView(
   index: PathIndex,
-  scores: Interest,
+  scores: Scores,
   foci: Int32Array,
   selection: Selection,
   label: Labeller,
@@ -45,14 +45,14 @@ export function buildView(
       path: pathOf(i),
       id: idOf(i),
       label: label(i),
-      interest: round(scores.value[i]),
+      interest: round(scores.interestOf(i)),
       nodes: nodes[i],
       size: size[i],
       focus: isFocus.has(i),
       // On a graph, the paths to a focus's other parents lead to it too.
       onPath:
-        foci.length > 0 && (scores.forced[i] === 1 || (scores.rank !== undefined && scores.rank[i] !== FAR)),
-      anchor: scores.distance[i] === 0,
+        foci.length > 0 && (scores.isForced(i) || (scores.rank !== undefined && scores.rank[i] !== FAR)),
+      anchor: scores.distanceOf(i) === 0,
       depth: tree.depth[i],
       children: [],
       hidden: null,

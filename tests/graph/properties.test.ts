@@ -201,7 +201,7 @@ describe("graphs: property tests on random graphs (cycles, shared nodes, self-lo
           // Each reference to the focus and the path above it scores at least 0, like the focus's own path.
           for (const r of toFocus)
             for (let a = r; a !== -1; a = tree.parent[a])
-              expect(out.result.scores.value[a]).toBeGreaterThanOrEqual(0);
+              expect(out.result.scores.interestOf(a)).toBeGreaterThanOrEqual(0);
           // Nearest first: a shown reference to the focus is never nearer a root than a hidden one.
           const depth = (s: number) => prepared.tree.depth[s];
           for (const a of toFocus)

@@ -10,7 +10,6 @@ import { detectFormat } from "../detect-format.js";
 import { edgeTableDelimiter, edgeTableFields, isGraph, jsonGraph, withNodeRecords } from "../graph-input.js";
 import { linkGraphTable } from "../graph-table.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
-import { loadYaml } from "../load-yaml.js";
 import { csvTableFromStream } from "../table/csv-table.js";
 import { linkTable } from "../table/link-table.js";
 import { edgeListStream } from "./edge-list-stream.js";
@@ -53,7 +52,11 @@ async function linkedNodes(
   options: LoadOptions,
   head: string,
 ): Promise<LinkedNodes | GraphNodes> {
-  if (format === "yaml") return loadYaml(await wholeText(chunks, "YAML"), options);
+  if (format === "yaml") {
+    // The YAML parser is loaded only for YAML input (a start reads no code it does not run).
+    const { loadYaml } = await import("../load-yaml.js");
+    return loadYaml(await wholeText(chunks, "YAML"), options);
+  }
   if (format === "edges") {
     const delimiter = edgeTableDelimiter(head, options);
     if (delimiter === null) return edgeListStream(chunks, options);
