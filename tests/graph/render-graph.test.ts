@@ -140,6 +140,17 @@ describe("espalier --input-format edges (command line)", () => {
     expect(doc.totals.size).toBe(rows.reduce((s, r) => s + Number(r.split(",")[2]), 0));
   });
 
+  it("refuses --nodes in a diff and in a config file (usage errors), never ignoring it", async () => {
+    const diff = await cli(["diff", EDGES, EDGES, "--input-format", "edges", "--nodes", PACKAGES]);
+    expect(diff.code).toBe(2);
+    expect(diff.stderr).toContain("[USAGE]");
+    const config = await cli([EDGES, "--input-format", "edges"], {
+      files: { ".espalier.yaml": `nodes: ${PACKAGES}\n` },
+    });
+    expect(config.code).toBe(2);
+    expect(config.stderr).toContain("[USAGE]");
+  });
+
   it("keeps --pseudonymize: no name or id, also in reference paths, reaches the output", async () => {
     const env = { env: { ESPALIER_PSEUDONYM_KEY: "graph-secret" } };
     const args = [
