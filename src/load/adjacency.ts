@@ -3,6 +3,7 @@ import type { GraphNodes } from "../model/graph-nodes.js";
 import { isSize } from "../model/size-rule.js";
 import type { LoadOptions } from "./load-options.js";
 import { limitExceeded } from "./node-sink.js";
+import { fieldSizeUnit } from "./size-unit.js";
 
 type Fields = Pick<
   LoadOptions,
@@ -99,6 +100,7 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
     ids,
     ownSize: Float64Array.from(sizes),
     hasSizes,
+    sizeUnit: fieldSizeUnit(options.sizeField),
     origin: new Int32Array(ids.length),
     originIsRow: false,
     fields: kept,

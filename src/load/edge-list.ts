@@ -179,6 +179,7 @@ export class EdgeListReader {
       ids: this.ids,
       ownSize: new Float64Array(n),
       hasSizes: false,
+      sizeUnit: "number",
       origin: this.origin.slice(0, n),
       originIsRow: false,
       fields: new Map(),

@@ -4,6 +4,7 @@ import { isSize } from "../model/size-rule.js";
 import type { LoadOptions } from "./load-options.js";
 import { limitExceeded } from "./node-sink.js";
 import { parseSize } from "./parse-size.js";
+import { fieldSizeUnit } from "./size-unit.js";
 import type { Cell, Table } from "./table/table.js";
 
 type Fields = Pick<
@@ -116,6 +117,7 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
     ids,
     ownSize: Float64Array.from(ownSize),
     hasSizes: sizes !== undefined,
+    sizeUnit: fieldSizeUnit(options.sizeField),
     origin: Int32Array.from(origin),
     originIsRow: true,
     fields,
@@ -159,6 +161,7 @@ function linkEdges(table: Table, parentCells: readonly Cell[], childCells: reado
     ids,
     ownSize: new Float64Array(ids.length),
     hasSizes: false,
+    sizeUnit: "number",
     origin: Int32Array.from(origin),
     originIsRow: true,
     fields: new Map(),
@@ -240,6 +243,7 @@ export function withRecords(graph: GraphNodes, records: Table, options: Fields):
     ids: idList,
     ownSize: Float64Array.from(ownSize),
     hasSizes: graph.hasSizes || sizes !== undefined,
+    sizeUnit: sizes !== undefined ? fieldSizeUnit(options.sizeField) : graph.sizeUnit,
     origin: Int32Array.from(origin),
     fields,
   };

@@ -48,7 +48,7 @@ function linkedNodes(body: string, format: InputFormat, options: LoadOptions): L
     if (graph) return graph;
   }
   const bytes = Buffer.from(body, "utf8");
-  const loader = byteLoader(format, options);
+  const loader = byteLoader(format, options, bytes);
   if (loader) {
     loader.write(bytes);
     return loader.end();

@@ -203,6 +203,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     originIsRow: graph.originIsRow,
     fields,
     syntheticRoot: synthetic,
+    reading: { shape: "graph", sizeUnit: graph.sizeUnit },
     ...(hasReferences ? { referenceTo } : {}),
   };
 }

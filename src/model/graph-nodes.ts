@@ -1,4 +1,5 @@
 import type { NamePool } from "./names.js";
+import type { TreeReading } from "./tree.js";
 
 /**
  * A graph as a loader found it: nodes (records) and edges parent -> child in input order. A node may be
@@ -12,6 +13,8 @@ export interface GraphNodes {
   ids: NamePool | readonly string[];
   ownSize: Float64Array;
   hasSizes: boolean;
+  /** What the sizes count (plain numbers when there are none). */
+  sizeUnit: TreeReading["sizeUnit"];
   /** 1-based line or row where each node first appears. */
   origin: Int32Array;
   originIsRow: boolean;

@@ -1,5 +1,5 @@
 import { NamePool, type NamePoolParts, type Names, StringNames } from "./names.js";
-import type { Tree } from "./tree.js";
+import type { Tree, TreeReading } from "./tree.js";
 
 /**
  * A {@link Tree} as plain data that a worker thread can post. Structured clone copies the arrays
@@ -18,6 +18,7 @@ export interface TreeMessage {
   fields: [string, readonly string[]][];
   syntheticRoot: boolean;
   referenceTo?: Int32Array;
+  reading?: TreeReading;
 }
 
 type NamesMessage = { pool: NamePoolParts } | { strings: string[] };
@@ -38,6 +39,7 @@ export function treeToMessage(tree: Tree): TreeMessage {
  */
 export function treeTransferList(message: TreeMessage): ArrayBuffer[] {
   const arrays: ArrayBufferView[] = [message.parent, message.depth, message.ownSize, message.origin];
+  if (message.referenceTo) arrays.push(message.referenceTo);
   for (const names of [message.name, message.ids])
     if (names !== null && "pool" in names) arrays.push(names.pool.bytes, names.pool.start, names.pool.size);
   const buffers = new Set<ArrayBuffer>();

@@ -33,4 +33,24 @@ export interface Tree {
    * reference is a leaf with no size; it counts in no node count.
    */
   readonly referenceTo?: Int32Array;
+  /** How the loader read the input, when a loader says (trees built otherwise may leave it out). */
+  readonly reading?: TreeReading;
+}
+
+/** How an input was read: what a reader of the output needs to know to trust the numbers. */
+export interface TreeReading {
+  /**
+   * `nodes`: node objects (nested JSON/YAML); `values`: every value of a JSON/YAML document a node;
+   * `path-map`: an object keyed by path; `rows`: JSON rows; `table`: CSV/TSV; `paths`: a path list;
+   * `graph`: nodes and edges (an edge list or table, an adjacency map, a table read with `graph`).
+   */
+  readonly shape: "nodes" | "values" | "path-map" | "rows" | "table" | "paths" | "graph";
+  /** What sizes count: bytes (file sizes, a document's bytes, a field marked as bytes) or plain numbers. */
+  readonly sizeUnit: "bytes" | "number";
+  /** Nested JSON/YAML: the field children were read from. */
+  readonly childrenField?: string;
+  /** Whether espalier chose `childrenField` because the configured one was absent. */
+  readonly childrenFieldFound?: boolean;
+  /** A map keyed by path: the field of the top-level object that holds it ("" for the top level). */
+  readonly pathMapField?: string;
 }

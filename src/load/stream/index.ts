@@ -34,7 +34,7 @@ export async function loadTreeFromStream(
       if (start.complete && !/\S/.test(start.text))
         throw new EspalierError("INPUT_EMPTY", "the input is empty");
       const format = options.format ?? detectFormat(start.text, file, options);
-      linked = await linkedNodes(start.chunks, format, options, start.text);
+      linked = await linkedNodes(start.chunks, format, options, Buffer.from(start.text, "utf8"));
     } catch (error) {
       await start.close();
       throw error;
@@ -50,7 +50,7 @@ async function linkedNodes(
   chunks: AsyncIterable<Uint8Array>,
   format: InputFormat,
   options: LoadOptions,
-  head: string,
+  head: Uint8Array,
 ): Promise<LinkedNodes | GraphNodes> {
   if (format === "yaml") {
     // The YAML parser is loaded only for YAML input (a start reads no code it does not run).
@@ -58,7 +58,7 @@ async function linkedNodes(
     return loadYaml(await wholeText(chunks, "YAML"), options);
   }
   if (format === "edges") {
-    const delimiter = edgeTableDelimiter(head, options);
+    const delimiter = edgeTableDelimiter(new TextDecoder("utf-8", { ignoreBOM: true }).decode(head), options);
     if (delimiter === null) return edgeListStream(chunks, options);
     const table = await csvTableFromStream(chunks, delimiter, edgeTableFields(options));
     try {
@@ -67,7 +67,7 @@ async function linkedNodes(
       table.release?.();
     }
   }
-  const loader = byteLoader(format, options);
+  const loader = byteLoader(format, options, head);
   // A JSON graph (rows or an adjacency map) is read whole and parsed.
   if ((format === "json" || format === "rows") && options.graph) {
     const bytes = await wholeBytes(chunks, "JSON");
