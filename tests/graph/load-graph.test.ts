@@ -137,10 +137,13 @@ describe("loadTree(json adjacency map)", () => {
     expect(slots(tree)).toEqual(["hq", "  lab", "    rig", "  ops", "    &rig"]);
   });
 
-  it("reads an object as nested nodes without graph: true (only --graph reads it as a map of ids)", () => {
+  it("reads the map as the tree of its values without graph: true (only --graph reads it as a map of ids)", () => {
     const tree = loadTree('{"hq":["lab","ops"],"lab":["rig"],"ops":["rig"]}', opts({ format: "json" }));
     expect(tree.referenceTo).toBeUndefined();
-    expect(tree.length).toBe(1);
+    expect(tree.reading?.shape).toBe("values");
+    // RFC 8259 §4-5: the document, its 3 member values and the 4 array elements are 8 values; each value
+    // is one node (RFC 6901 pointers), so "rig" is counted twice here, as two strings.
+    expect(tree.length).toBe(8);
   });
 
   it("rejects an entry that is neither a list of ids, a record nor null, and an empty id, with SHAPE", () => {
