@@ -33,7 +33,7 @@ export function lineCost(tree: Tree, measures: Measures, scores: Scores, chains:
   const p = tree.parent[x];
   // A reference (graphs) always has a line of its own.
   if (tree.referenceTo !== undefined && tree.referenceTo[x] !== -1) return 1;
-  return p >= 0 && measures.count[p] === measures.count[x] + 1 && scores.distanceOf(p) !== 0 ? 0 : 1;
+  return p >= 0 && measures.nodes[p] === measures.nodes[x] + 1 && scores.distanceOf(p) !== 0 ? 0 : 1;
 }
 
 /**

@@ -2,13 +2,14 @@ import type { Tree } from "./tree.js";
 
 /** Subtree aggregates of every node, including the node itself. */
 export interface Measures {
-  /** Slots in the subtree (>= 1). In pre-order the subtree of i is [i, i + count[i]). */
+  /** Slots in the subtree (>= 1): in pre-order the subtree of i is [i, i + count[i]). */
   readonly count: Int32Array;
   /**
-   * Distinct nodes in the subtree: slots that are full entries, references left out (0 for a reference).
-   * The same array as `count` on a tree.
+   * Nodes in the subtree as the input has them, each counted once: the full entries among its slots (a
+   * graph's reference slot counts 0) plus the elided descendants (Tree.elided). The very array `count`
+   * on a tree with nothing elided. What a reader is shown, and what orders nodes.
    */
-  readonly nodes: Int32Array;
+  readonly nodes: Int32Array | Float64Array;
   /** Sum of own sizes over the subtree. */
   readonly size: Float64Array;
   /** Leaves in the subtree. */
@@ -38,19 +39,21 @@ export function measure(tree: Tree): Measures {
     leaves[p] += leaves[i];
     if (height[i] + 1 > height[p]) height[p] = height[i] + 1;
   }
-  return { count, nodes: distinctNodes(tree, count), size, leaves, height, children };
+  return { count, nodes: subtreeNodes(tree, count), size, leaves, height, children };
 }
 
-/** Full entries per subtree: a reference slot counts 0, every other slot 1. */
-function distinctNodes(tree: Tree, count: Int32Array): Int32Array {
-  const ref = tree.referenceTo;
-  if (ref === undefined) return count;
+/**
+ * Nodes per subtree as the input has them (a reverse pass, as above): each slot that is a node's full
+ * entry counts 1 (a graph's reference 0), and a node's elided descendants count too.
+ */
+function subtreeNodes(tree: Tree, count: Int32Array): Int32Array | Float64Array {
+  const { elided, referenceTo: ref, parent } = tree;
+  if (elided === undefined && ref === undefined) return count;
   const n = tree.length;
-  const nodes = new Int32Array(n);
+  const nodes = elided === undefined ? new Int32Array(n) : new Float64Array(n);
   for (let i = n - 1; i >= 0; i--) {
-    if (ref[i] === -1) nodes[i]++;
-    const p = tree.parent[i];
-    if (p >= 0) nodes[p] += nodes[i];
+    nodes[i] += (ref === undefined || ref[i] === -1 ? 1 : 0) + (elided === undefined ? 0 : elided[i]);
+    if (parent[i] >= 0) nodes[parent[i]] += nodes[i];
   }
   return nodes;
 }

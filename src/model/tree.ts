@@ -33,6 +33,12 @@ export interface Tree {
    * reference is a leaf with no size; it counts in no node count.
    */
   readonly referenceTo?: Int32Array;
+  /**
+   * Descendants of each node that exist in the input but are not in these arrays (a fact table's
+   * rollup fetched only as deep as the summary can reach; see docs/scale.md). Absent: none.
+   * A node with elided descendants has no children here, and its own size is its whole subtree's.
+   */
+  readonly elided?: Float64Array;
   /** How the loader read the input, when a loader says (trees built otherwise may leave it out). */
   readonly reading?: TreeReading;
 }
