@@ -109,8 +109,14 @@ export function pseudonymKey(opts: SharedCliOptions, io: CliIO): string | undefi
   return key;
 }
 
-/** The loader's options for one input of a tree format. */
-export function toLoadOptions(input: string, opts: SharedCliOptions): LoadOptions {
+/**
+ * The loader's options for one input of a tree format. Kept record fields: the label's, and a diff's
+ * compared fields (`--compare-field`).
+ */
+export function toLoadOptions(
+  input: string,
+  opts: SharedCliOptions & { compareField?: readonly string[] },
+): LoadOptions {
   const format = opts.inputFormat;
   if (format === "parquet" || format === "jsonl")
     throw new EspalierError(
@@ -129,7 +135,9 @@ export function toLoadOptions(input: string, opts: SharedCliOptions): LoadOption
     pathField: opts.pathField,
     childField: opts.childField,
     graph: opts.graph,
-    keepFields: opts.label ? templateFields(opts.label) : [],
+    keepFields: [
+      ...new Set([...(opts.label ? templateFields(opts.label) : []), ...(opts.compareField ?? [])]),
+    ],
     rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
     ...(opts.readAs === "auto" ? {} : { readAs: opts.readAs }),

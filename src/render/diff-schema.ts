@@ -13,6 +13,7 @@ export const changeCountsSchema = z
     removed: count,
     moved: count,
     renamed: count,
+    edited: count,
     resized: count,
     linked: count
       .optional()
@@ -35,12 +36,22 @@ export const diffFoldedSchema = foldedSchema
   .strict()
   .describe("What is folded under a shown node, with the changes inside it.");
 
+export const fieldEditSchema = z
+  .object({
+    field: z.string().describe("The compared field (--compare-field)."),
+    old: z.string().describe('Its value in OLD as text ("" when the node has none).'),
+    new: z.string().describe("Its value in NEW as text."),
+  })
+  .strict()
+  .describe("A compared field whose value differs between the two versions of a matched node.");
+
 export interface DiffSummaryNode extends NodeFields {
   change: (typeof changeKinds)[number] | null;
   delta: number;
   net: number;
   movedFrom?: string;
   renamedFrom?: string;
+  edits?: z.infer<typeof fieldEditSchema>[];
   children: DiffSummaryNode[];
   hidden: z.infer<typeof diffFoldedSchema> | null;
 }
@@ -70,6 +81,13 @@ export const diffNodeSchema: z.ZodType<DiffSummaryNode> = z.lazy(() =>
           "For a moved node, the old parent's path in the old version; for an unlinked full entry of a graph, the parent it lost.",
         ),
       renamedFrom: z.string().optional().describe("For a renamed node, its old name."),
+      edits: z
+        .array(fieldEditSchema)
+        .min(1)
+        .optional()
+        .describe(
+          "Compared fields whose value differs, in the order asked for (any kind of matched node); absent when none does.",
+        ),
       children: z.array(diffNodeSchema).describe("Shown children, in the combined tree's order."),
       hidden: diffFoldedSchema.nullable().describe("Hidden children folded into counts, or null."),
     })

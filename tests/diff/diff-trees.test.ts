@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { kindName } from "../../src/diff/changes.js";
+import { changeKinds, kindName } from "../../src/diff/changes.js";
 import { diffOrder } from "../../src/diff/diff-order.js";
 import {
   DIFF_HEADER_LINES,
@@ -17,11 +17,18 @@ import type { Tree } from "../../src/model/tree.js";
 import { renderDiffText } from "../../src/render/diff-text.js";
 import { makeTree } from "../helpers/make-tree.js";
 import { arbTree } from "../helpers/random-tree.js";
-import { arbEdited, withoutIds } from "./edit-script.js";
+import { arbEdited, EDIT_FIELD, withoutIds } from "./edit-script.js";
 import { makeIdTree } from "./id-tree.js";
 
+/** Compares EDIT_FIELD whenever both versions have it (the edit scripts' trees do). */
 const run = (oldTree: Tree, newTree: Tree, budget = 100, foci: string[] = [], chains = false) =>
-  diffTrees(oldTree, newTree, { foci, budget, importance: "depth", chains });
+  diffTrees(oldTree, newTree, {
+    foci,
+    budget,
+    importance: "depth",
+    chains,
+    compareFields: oldTree.fields.has(EDIT_FIELD) && newTree.fields.has(EDIT_FIELD) ? [EDIT_FIELD] : [],
+  });
 
 /** Every change as "<name> <kind>[ from <old parent> to <new parent>]", in the combined tree's order. */
 function changeList(result: DiffResult): string[] {
@@ -55,6 +62,7 @@ describe("diffTrees(old, new, options)", () => {
       removed: 0,
       moved: 1,
       renamed: 0,
+      edited: 0,
       resized: 0,
       linked: 0,
       unlinked: 0,
@@ -79,6 +87,7 @@ describe("diffTrees(old, new, options)", () => {
           removed: 0,
           moved: 0,
           renamed: 0,
+          edited: 0,
           resized: 0,
           linked: 0,
           unlinked: 0,
@@ -250,8 +259,8 @@ describe("diffTrees(old, new, options)", () => {
         const [oldTree, newTree] = byId ? [edited.oldTree, edited.newTree] : withoutIds(edited);
         const result = run(oldTree, newTree, b);
         const { kind, delta } = result.combined;
-        const kinds = ["added", "removed", "moved", "renamed", "resized", "linked", "unlinked"] as const;
-        const seen = { added: 0, removed: 0, moved: 0, renamed: 0, resized: 0, linked: 0, unlinked: 0 };
+        const kinds = changeKinds;
+        const seen = { added: 0, removed: 0, moved: 0, renamed: 0, edited: 0, resized: 0, linked: 0, unlinked: 0 };
         let seenDelta = 0;
         result.view.each(({ data }) => {
           const v: DiffViewNode = data;
@@ -288,6 +297,7 @@ describe("diffTrees(old, new, options)", () => {
       removed: 3,
       moved: 0,
       renamed: 0,
+      edited: 0,
       resized: 0,
       linked: 0,
       unlinked: 0,
