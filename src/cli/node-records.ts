@@ -24,7 +24,13 @@ export async function readNodeRecords(io: CliIO, file: string, fields: LoadOptio
         value = JSON.parse(body);
       } catch (error) {
         if (!(error instanceof SyntaxError)) throw error;
-        throw new EspalierError("PARSE_JSON", `invalid JSON in the node records: ${error.message}`);
+        // The engine's message quotes the text around the fault (input: --pseudonymize must not print
+        // it); only its offset is kept.
+        const at = /position (\d+)/.exec(error.message);
+        throw new EspalierError(
+          "PARSE_JSON",
+          `invalid JSON in the node records${at ? ` at character ${Number(at[1]) + 1}` : ""}`,
+        );
       }
       if (!Array.isArray(value))
         throw new EspalierError("SHAPE", "node records in JSON must be an array of objects");
