@@ -16,7 +16,8 @@ export interface GraphScores extends Scores {
  * interest(x) = API(x) - min over foci y of [D(x, y) + API(y)], the tree formula of doi.ts; a reference
  * scores at its own place (its API) and its node's distance. Found by one breadth-first search from
  * all foci at once, each starting at its offset API(y) (two merged queues whose keys never decrease),
- * and one plain breadth-first search for the distance to the nearest focus. Both walk the graph where
+ * and, unless every focus has the same API, one plain breadth-first search for the distance to the
+ * nearest focus. Both walk the graph where
  * the tree already holds it: a full entry's neighbours are its parent, the nodes of its child slots
  * (entries and references) and the parents of the references to it. The interest of a slot is then
  * read when the fit asks for it; nothing else of the tree's length is written.
@@ -93,38 +94,13 @@ export function graphInterest(
     }
   }
 
-  // Edges to the nearest focus: the same neighbours, a plain breadth-first search.
-  const raw = new Int32Array(n).fill(FAR);
-  head = 0;
-  tail = 0;
-  for (const y of foci) {
-    if (raw[y] === 0) continue;
-    raw[y] = 0;
-    queue[tail++] = y;
-  }
-  while (head < tail) {
-    const x = queue[head++];
-    const d = raw[x] + 1;
-    let w = parent[x];
-    if (w >= 0 && raw[w] === FAR) {
-      raw[w] = d;
-      queue[tail++] = w;
-    }
-    for (let c = x + 1, end = x + count[x]; c < end; c += count[c]) {
-      w = to[c] === -1 ? c : to[c];
-      if (raw[w] === FAR) {
-        raw[w] = d;
-        queue[tail++] = w;
-      }
-    }
-    for (let j = start[x], end = start[x + 1]; j < end; j++) {
-      w = parent[refSlots[j]];
-      if (raw[w] === FAR) {
-        raw[w] = d;
-        queue[tail++] = w;
-      }
-    }
-  }
+  // Edges to the nearest focus. When every focus has the same API c, K(x) = D(x, nearest focus) + c, so
+  // the distance is K(x) - c (rounded: K was summed in doubles, and the true value is a whole number).
+  // Otherwise a plain breadth-first search over the same neighbours.
+  const offset = api[sources[0]];
+  const raw =
+    api[sources[sources.length - 1]] === offset ? null : plainDistances(tree, count, foci, refs, queue);
+  const edges = (node: number): number => (raw === null ? Math.round(key[node] - offset) : raw[node]);
 
   // Forced: the root, the foci and the ancestors of their full entries.
   const forced = new Uint8Array(n);
@@ -158,11 +134,11 @@ export function graphInterest(
       path.push(a);
       a = parent[a];
     }
-    let d = known[a] !== 0 ? known[a] - 1 : raw[to[a] === -1 ? a : to[a]];
+    let d = known[a] !== 0 ? known[a] - 1 : edges(to[a] === -1 ? a : to[a]);
     known[a] = d + 1;
     while (path.length > 0) {
       const s = path.pop()!;
-      const own = raw[to[s] === -1 ? s : to[s]];
+      const own = edges(to[s] === -1 ? s : to[s]);
       d = own <= d ? d + 1 : own;
       known[s] = d + 1;
     }
@@ -178,4 +154,49 @@ export function graphInterest(
     isForced: (x) => forced[x] === 1,
     rank,
   };
+}
+
+/** Edges from every full entry to the nearest focus: a breadth-first search (`queue`: n long, scratch). */
+function plainDistances(
+  tree: Tree,
+  count: Int32Array,
+  foci: Int32Array,
+  refs: ReferenceIndex,
+  queue: Int32Array,
+): Int32Array {
+  const { parent } = tree;
+  const to = tree.referenceTo!;
+  const { start, refs: refSlots } = refs;
+  const raw = new Int32Array(tree.length).fill(FAR);
+  let head = 0;
+  let tail = 0;
+  for (const y of foci) {
+    if (raw[y] === 0) continue;
+    raw[y] = 0;
+    queue[tail++] = y;
+  }
+  while (head < tail) {
+    const x = queue[head++];
+    const d = raw[x] + 1;
+    let w = parent[x];
+    if (w >= 0 && raw[w] === FAR) {
+      raw[w] = d;
+      queue[tail++] = w;
+    }
+    for (let c = x + 1, end = x + count[x]; c < end; c += count[c]) {
+      w = to[c] === -1 ? c : to[c];
+      if (raw[w] === FAR) {
+        raw[w] = d;
+        queue[tail++] = w;
+      }
+    }
+    for (let j = start[x], end = start[x + 1]; j < end; j++) {
+      w = parent[refSlots[j]];
+      if (raw[w] === FAR) {
+        raw[w] = d;
+        queue[tail++] = w;
+      }
+    }
+  }
+  return raw;
 }
