@@ -31,7 +31,7 @@ export function prepare(tree: Tree): Prepared {
     tree,
     measures,
     index: new PathIndex(tree, measures),
-    references: referenceIndex(tree, measures),
+    references: referenceIndex(tree),
   };
   // Warm the per-tree caches here, at load time, so that even the first focus costs only
   // interest + fit + view (a single summary computes them anyway).
@@ -74,7 +74,7 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
   const api = cachedImportance(prepared, options.importance);
   const refs = prepared.references;
   // A graph scores by graph distance over the whole graph; a tree (no reference) near its foci, as before.
-  const scores: Scores = refs ? graphInterest(tree, api, foci, refs) : interestNear(tree, api, foci);
+  const scores: Scores = refs ? graphInterest(tree, measures, api, foci, refs) : interestNear(tree, api, foci);
   const selection = select(
     tree,
     measures,

@@ -112,13 +112,18 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   const synthetic = tops !== 1;
   const slots = n + (synthetic ? 1 : 0) + (liveCount(live) - (n - tops));
 
-  // Pre-order layout: entries and references of each node in input order of their edges.
+  // Pre-order layout: entries and references of each node in input order of their edges. A reference's
+  // referenceTo holds its node until every entry has its slot, then the slot of that node's entry.
   const parent = new Int32Array(slots);
   const depth = new Int32Array(slots);
   const from = new Int32Array(slots); // node whose name (and id, fields) a slot shows; -1 synthetic root
-  const refNode = new Int32Array(slots).fill(-1); // the node a reference slot stands for
-  const edgeOfSlot = new Int32Array(slots).fill(-1);
+  const referenceTo = new Int32Array(slots).fill(-1);
+  const ownSize = new Float64Array(slots);
+  const origin = new Int32Array(slots);
   const slotOf = new Int32Array(n).fill(-1);
+  const nodeSize = graph.ownSize;
+  const nodeOrigin = graph.origin;
+  const { edgeOrigin } = graph;
   let next = 0;
   const base = synthetic ? 1 : 0;
   if (synthetic) {
@@ -126,18 +131,20 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     from[0] = -1;
     next = 1;
   }
+  const place = (node: number, p: number): number => {
+    const s = next++;
+    parent[s] = p;
+    depth[s] = p === -1 ? 0 : depth[p] + 1;
+    from[s] = node;
+    ownSize[s] = nodeSize[node];
+    origin[s] = nodeOrigin[node];
+    slotOf[node] = s;
+    cursor[node] = outStart[node];
+    return s;
+  };
   const slotStack = new Int32Array(n);
   for (let r = 0; r < n; r++) {
     if (homeEdge[r] !== -1) continue;
-    const place = (node: number, p: number) => {
-      const s = next++;
-      parent[s] = p;
-      depth[s] = p === -1 ? 0 : depth[p] + 1;
-      from[s] = node;
-      slotOf[node] = s;
-      cursor[node] = outStart[node];
-      return s;
-    };
     let top = 0;
     slotStack[0] = place(r, synthetic ? 0 : -1);
     stack[0] = r;
@@ -159,28 +166,13 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
         parent[s] = pu;
         depth[s] = depth[pu] + 1;
         from[s] = v;
-        refNode[s] = v;
-        edgeOfSlot[s] = e;
+        referenceTo[s] = v;
+        origin[s] = edgeOrigin[e];
       }
     }
   }
   if (next !== slots) throw new Error(`graph layout placed ${next} of ${slots} slots`);
-
-  const referenceTo = new Int32Array(slots);
-  const ownSize = new Float64Array(slots);
-  const origin = new Int32Array(slots);
-  for (let s = base; s < slots; s++) {
-    const v = from[s];
-    if (refNode[s] === -1) {
-      referenceTo[s] = -1;
-      ownSize[s] = graph.ownSize[v];
-      origin[s] = graph.origin[v];
-    } else {
-      referenceTo[s] = slotOf[v];
-      origin[s] = graph.edgeOrigin[edgeOfSlot[s]];
-    }
-  }
-  if (synthetic) referenceTo[0] = -1;
+  for (let s = base; s < slots; s++) if (referenceTo[s] !== -1) referenceTo[s] = slotOf[referenceTo[s]];
   const fields = new Map<string, string[]>();
   for (const [key, values] of graph.fields) {
     const column: string[] = new Array(slots);

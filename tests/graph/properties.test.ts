@@ -183,7 +183,7 @@ describe("graphs: property tests on random graphs (cycles, shared nodes, self-lo
           } catch {
             return;
           }
-          const refs = referenceIndex(tree, measure(tree));
+          const refs = referenceIndex(tree);
           const prepared = prepare(tree);
           const y = out.result.foci[0];
           const toFocus = refs ? [...refs.refs.subarray(refs.start[y], refs.start[y + 1])] : [];
@@ -278,9 +278,11 @@ describe("graphs: on an input that is a tree", () => {
           new Set(picks.map((k) => (k % n) + (tree.syntheticRoot ? 1 : 0))),
         ).sort();
         const plain = interest(tree, api, foci);
-        const graph = graphInterest(asGraph, api, foci, referenceIndex(asGraph, m)!);
-        expect([...graph.value]).toEqual([...plain.value]);
-        expect([...graph.distance]).toEqual([...plain.distance]);
+        const graph = graphInterest(asGraph, m, api, foci, referenceIndex(asGraph)!);
+        const all = [...tree.parent.keys()];
+        expect(all.map((i) => graph.interestOf(i))).toEqual([...plain.value]);
+        expect(all.map((i) => graph.distanceOf(i))).toEqual([...plain.distance]);
+        expect(all.map((i) => graph.isForced(i))).toEqual([...plain.forced].map((f) => f === 1));
         expect([...graph.forcedNodes]).toEqual([...plain.forcedNodes]);
       }),
     );
