@@ -33,7 +33,7 @@ export function toDiffSummary(
     children: [],
     hidden: node.hidden ? { ...node.hidden, changes: counts(node.hidden.changes) } : null,
   });
-  // A diff of trees has no edge kinds: its counts keep the five kinds of change a tree has.
+  // A diff of trees has no edge kinds: its counts keep the six kinds of change a tree has.
   const counts = (c: ChangeCounts): ChangeCounts | TreeChangeCounts =>
     totals.graph ? { ...c } : (Object.fromEntries(treeChangeKinds.map((k) => [k, c[k]])) as TreeChangeCounts);
   const root = mapTree(view.data, convert);

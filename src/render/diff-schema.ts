@@ -25,7 +25,7 @@ export const changeCountsSchema = z
   .strict()
   .describe("Changed nodes per kind; each changed node counts under exactly one kind.");
 
-/** The counts of a diff of trees: the five kinds a tree has. */
+/** The counts of a diff of trees: the six kinds a tree has. */
 export type TreeChangeCounts = Omit<z.infer<typeof changeCountsSchema>, "linked" | "unlinked">;
 
 export const diffFoldedSchema = foldedSchema

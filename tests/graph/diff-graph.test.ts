@@ -44,7 +44,7 @@ describe("diffTrees(old graph, new graph)", () => {
     const { text } = diff(before, after);
     expect(text).toBe(
       [
-        "matched by id: 1 added, 1 removed, 1 moved, 0 renamed, 0 resized, 1 linked, 0 unlinked; 5 -> 5 nodes",
+        "matched by id: 1 added, 1 removed, 1 moved, 0 renamed, 0 edited, 0 resized, 1 linked, 0 unlinked; 5 -> 5 nodes",
         "> ledger  6 nodes",
         "  > kelp-log  3 nodes",
         "    - brine",
@@ -88,12 +88,12 @@ describe("diffTrees(old graph, new graph)", () => {
     expect(json.changes).toMatchObject({ linked: 1, unlinked: 0 });
   });
 
-  it("keeps the counts of a diff of trees to the five kinds a tree has", () => {
+  it("keeps the counts of a diff of trees to the six kinds a tree has", () => {
     const { text, json } = diff(edges("a b\na c\n"), edges("a b\nb c\n"));
     expect(text.split("\n")[0]).toBe(
-      "matched by id: 0 added, 0 removed, 1 moved, 0 renamed, 0 resized; 3 -> 3 nodes",
+      "matched by id: 0 added, 0 removed, 1 moved, 0 renamed, 0 edited, 0 resized; 3 -> 3 nodes",
     );
-    expect(Object.keys(json.changes)).toEqual(["added", "removed", "moved", "renamed", "resized"]);
+    expect(Object.keys(json.changes)).toEqual(["added", "removed", "moved", "renamed", "edited", "resized"]);
   });
 });
 
