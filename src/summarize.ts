@@ -74,7 +74,9 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
   const api = cachedImportance(prepared, options.importance);
   const refs = prepared.references;
   // A graph scores by graph distance over the whole graph; a tree (no reference) near its foci, as before.
-  const scores: Scores = refs ? graphInterest(tree, measures, api, foci, refs) : interestNear(tree, api, foci);
+  const scores: Scores = refs
+    ? graphInterest(tree, measures, api, foci, refs)
+    : interestNear(tree, api, foci);
   const selection = select(
     tree,
     measures,

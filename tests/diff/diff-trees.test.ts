@@ -260,7 +260,16 @@ describe("diffTrees(old, new, options)", () => {
         const result = run(oldTree, newTree, b);
         const { kind, delta } = result.combined;
         const kinds = changeKinds;
-        const seen = { added: 0, removed: 0, moved: 0, renamed: 0, edited: 0, resized: 0, linked: 0, unlinked: 0 };
+        const seen = {
+          added: 0,
+          removed: 0,
+          moved: 0,
+          renamed: 0,
+          edited: 0,
+          resized: 0,
+          linked: 0,
+          unlinked: 0,
+        };
         let seenDelta = 0;
         result.view.each(({ data }) => {
           const v: DiffViewNode = data;

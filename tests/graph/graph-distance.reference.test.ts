@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { UndirectedGraph } from "graphology";
-import { singleSourceLength } from "graphology-shortest-path/unweighted";
+import { singleSourceLength } from "graphology-shortest-path/unweighted.js";
 import { describe, expect, it } from "vitest";
 import { graphInterest } from "../../src/interest/graph-doi.js";
 import { type Importance, importance } from "../../src/interest/importance.js";
