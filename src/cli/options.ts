@@ -304,6 +304,16 @@ export const diffOnlyOptions = {
     group: "Diff only",
     schema: z.boolean().default(false).describe("exit 1 when the versions differ, 0 when they do not"),
   },
+  compareField: {
+    flags: "--compare-field <field>",
+    group: "Diff only",
+    schema: z
+      .array(z.string().min(1))
+      .default([])
+      .describe(
+        "a record field compared between matched nodes; a new value is a change (edited); repeatable",
+      ),
+  },
 } satisfies Record<string, OptionSpec>;
 
 /** Options that steer the run itself (config file, help): never in a config file, never passed on. */
