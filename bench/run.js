@@ -649,7 +649,7 @@ function summarizeDiffRuns(runs) {
 /** `espalier diff OLD NEW --budget N`, once, timed from outside (start-up included), with its peak. */
 function runDiffCli(format, oldFile, newFile, budget) {
   const res = runCommand(["diff", oldFile, newFile, "--budget", String(budget)]);
-  // diff exits 0 (no --exit-code); anything else is a failure.
+  // diff exits 0 (no --fail-on-change); anything else is a failure.
   const rss = res.maxRssMiB === null ? "peak ?" : `${res.maxRssMiB} MiB`;
   log(`diff ${format} cli: ${fmtS(res.ms)} s, ${rss}, exit ${res.exit}, ${res.lines} lines`);
   return res;
