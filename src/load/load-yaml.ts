@@ -12,7 +12,9 @@ import {
   type YAMLMap,
 } from "yaml";
 import { EspalierError } from "../errors.js";
+import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
+import { adjacencyNodes } from "./adjacency.js";
 import type { LoadOptions } from "./load-options.js";
 import { chooseReading } from "./shape/choose-reading.js";
 import { sampleNested } from "./shape/sample-nested.js";
@@ -28,7 +30,7 @@ type YamlValue = Node | null;
  * origins are line numbers. Aliases are followed, never expanded: a node or children list reached twice
  * is TWO_PARENTS, so an alias bomb cannot blow up.
  */
-export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
+export function loadYaml(text: string, options: LoadOptions): LinkedNodes | GraphNodes {
   const lineCounter = new LineCounter();
   let doc: ReturnType<typeof parseDocument>;
   try {
@@ -65,6 +67,10 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
   if (root === null || (isScalar(root) && root.value === null)) {
     throw new EspalierError("INPUT_EMPTY", "the YAML document holds no value");
   }
+
+  // With `options.graph` the document is an adjacency map; aliases expand in its plain value, up to
+  // the yaml package's alias count limit.
+  if (options.graph) return adjacencyNodes(doc.toJS(), options);
 
   // An alias stands for the last node with its anchor before it, in document order.
   const target = new Map<Alias, Node>();
