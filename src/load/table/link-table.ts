@@ -1,3 +1,4 @@
+import { didYouMean } from "../../did-you-mean.js";
 import { EspalierError } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { copyName, isEmptyName, NamePool } from "../../model/names.js";
@@ -175,7 +176,17 @@ function keptColumns(table: Table, options: LoadOptions): Map<string, string[]> 
   const values = new Map<string, string[]>();
   for (const key of options.keepFields) {
     const cells = table.column(key);
-    if (!cells) throw missingField("kept", key, visibleColumns(table));
+    if (!cells) {
+      const near = didYouMean(key, visibleColumns(table));
+      throw new EspalierError(
+        "FIELD_MISSING",
+        `no column "${key}" to keep${near === undefined ? "" : `; did you mean "${near}"?`} The columns are ${listNames(visibleColumns(table))}`,
+        undefined,
+        near === undefined
+          ? { field: key, fieldsSeen: visibleColumns(table) }
+          : { field: key, suggestion: near, fieldsSeen: visibleColumns(table) },
+      );
+    }
     values.set(key, cells.map(cellText));
   }
   return values;
