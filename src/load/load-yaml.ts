@@ -53,6 +53,13 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
         pos,
       );
     }
+    if (error.code === "MULTIPLE_DOCS") {
+      throw new EspalierError(
+        "PARSE_YAML",
+        "a second YAML document starts here (after ---); espalier reads one document per input: split the file",
+        pos,
+      );
+    }
     const reason = error.message.replace(/ at line \d+, column \d+:.*$/s, "");
     throw new EspalierError("PARSE_YAML", `invalid YAML: ${reason}`, pos);
   }
@@ -134,6 +141,7 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
       if (isMap(v)) return Kind.Map;
       if (isSeq(v)) return Kind.Seq;
       if (!isScalar(v)) return Kind.Other;
+      if (isTaggedFloat(v)) return Kind.Number;
       switch (typeof v.value) {
         case "number":
         case "bigint":
@@ -253,4 +261,15 @@ function isMergeKey(key: unknown): boolean {
 function keyText(key: unknown): string {
   if (isScalar(key)) return key.value === null || key.value === undefined ? "" : String(key.value);
   return String(key);
+}
+
+/** YAML 1.2.2, 10.3.2 (core schema): the plain text a !!float may have; "3" is one, the float 3.0. */
+const CORE_FLOAT = /^[-+]?(?:\.[0-9]+|[0-9]+(?:\.[0-9]*)?)(?:[eE][-+]?[0-9]+)?$/;
+
+/**
+ * A scalar tagged !!float whose text is a float by the core schema though the YAML library left it as
+ * text (it reads `!!float 3` as the string "3"): read as the number it is.
+ */
+function isTaggedFloat(v: Scalar): boolean {
+  return typeof v.value === "string" && v.tag === "tag:yaml.org,2002:float" && CORE_FLOAT.test(v.value);
 }
