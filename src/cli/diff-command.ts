@@ -24,7 +24,10 @@ import {
   defaultBudget,
   defaultWidth,
   displayName,
+  headerFor,
+  headerLinesFor,
   rootNameOf,
+  shareFor,
   toLoadOptions,
   unitsFor,
   useColour,
@@ -72,6 +75,8 @@ export function addDiffCommand(
         printSql: values.printSql === true,
         exitCode: values.exitCode === true,
         chains: values.chains !== false,
+        bare: values.bare === true,
+        legend: values.legend === true,
       });
       if (!parsed.success) throw new EspalierError("USAGE", parsed.error.issues[0].message);
       if (raw.printConfig === true) return onOutput(printConfig(parsed.data, configFile), EXIT.ok);
@@ -109,6 +114,8 @@ export async function diffCommand(
     label: opts.label,
     pseudonymKey: key,
     chains: opts.chains,
+    headerLines: headerLinesFor(opts, "diff"),
+    siblingOrder: opts.siblingOrder,
   });
   const by = result.combined.by;
   const textOptions = {
@@ -118,6 +125,9 @@ export async function diffCommand(
     palette: palette(useColour(opts, io)),
     chains: opts.chains,
     width: opts.width ?? defaultWidth(io),
+    share: shareFor(opts),
+    header: opts.bare ? undefined : headerFor(result.view, budget, result.selection.lines, opts),
+    legend: opts.legend,
   };
   const text =
     opts.format === "svg"

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { importances } from "../interest/importance.js";
 import { inputFormats } from "../load/load-options.js";
+import { siblingOrders } from "../view/sibling-order.js";
 
 /** Input formats on the command line: the tree formats, and the formats only fact tables come in. */
 export const cliInputFormats = [...inputFormats, "jsonl", "parquet"] as const;
@@ -35,6 +36,16 @@ export const summaryOptionsSchema = z.object({
   label: z.string().optional().describe("Label template, e.g. '{title}, {team}'."),
   pseudonymize: z.boolean().default(false).describe("Print keyed pseudonyms instead of names."),
   chains: z.boolean().default(true).describe("Print a run of only children as one line."),
+  bare: z.boolean().default(false).describe("Print no header line: only the tree's lines."),
+  legend: z.boolean().default(false).describe("Print what the marks and numbers mean under the header."),
+  share: z
+    .enum(["none", "total", "parent"])
+    .default("none")
+    .describe("Add each node's share of the total, or of the line above, in percent."),
+  siblingOrder: z
+    .enum(siblingOrders)
+    .default("input")
+    .describe("Order of shown siblings: input, size (biggest first) or name."),
   width: positiveInt("--width").optional().describe("Widest line in columns (default: terminal width)."),
   color: z.enum(["auto", "always", "never"]).default("auto").describe("Colour in text output."),
   levels: z

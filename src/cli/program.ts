@@ -70,6 +70,18 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
     .option("-o, --output <file>", "write to this file, whole or not at all, instead of standard output")
     .option("--width <columns>", "widest text line, in terminal columns (default: terminal width)")
     .option("--no-chains", "give every node its own line (by default a run of only children shares one)")
+    .option("--bare", "print no header line, only the tree's lines (for scripts)")
+    .option("--legend", "print what the marks and numbers mean under the header (the budget counts it)")
+    .addOption(
+      new Option("--share <of>", "add each node's share in percent: of the total, or of the line above")
+        .choices(["none", "total", "parent"])
+        .default("none"),
+    )
+    .addOption(
+      new Option("--sibling-order <order>", "order of shown siblings: input, size (biggest first) or name")
+        .choices(["input", "size", "name"])
+        .default("input"),
+    )
     .option("--config <file>", "read options from this YAML file (default: .espalier.yaml if present)")
     .option("--no-config", "ignore any config file")
     .option(
@@ -88,6 +100,8 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
         rolledUp: values.rolledUp === true,
         printSql: values.printSql === true,
         chains: values.chains !== false,
+        bare: values.bare === true,
+        legend: values.legend === true,
       });
       if (!parsed.success) {
         const issue = parsed.error.issues[0];

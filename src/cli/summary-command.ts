@@ -1,15 +1,20 @@
+import type { HierarchyNode } from "d3-hierarchy";
 import { EspalierError } from "../errors.js";
 import { defaultLoadOptions, type LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
+import { fociOf, type HeaderOptions } from "../render/header.js";
 import { renderSvg } from "../render/icicle-svg.js";
+import { MIN_WIDTH } from "../render/line-layout.js";
+import { LEGEND_LINES } from "../render/marks.js";
 import { palette } from "../render/palette.js";
 import { renderJson } from "../render/summary-json.js";
 import { renderMarkdown } from "../render/summary-markdown.js";
 import { renderText } from "../render/summary-text.js";
 import { prepare, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
+import type { ViewNode } from "../view/view-node.js";
 import { isFactInput, loadFactInput } from "./fact-input.js";
 import type { CliIO } from "./io.js";
 import { DEFAULT_BUDGET, PSEUDONYM_KEY_ENV, type SummaryCliOptions } from "./options.js";
@@ -36,6 +41,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
   }
   const budget = opts.budget ?? defaultBudget(io);
+  const headerLines = headerLinesFor(opts, "summary");
   const result = summarize(prepare(tree), {
     foci,
     budget,
@@ -43,7 +49,11 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     label: opts.label,
     pseudonymKey: key,
     chains: opts.chains,
+    headerLines,
+    siblingOrder: opts.siblingOrder,
   });
+  const numbers = { units: unitsFor(opts), sizes: tree.hasSizes, share: shareFor(opts) };
+  const header = opts.bare ? undefined : headerFor(result.view, budget, result.selection.lines, opts);
   if (opts.format === "json") {
     return renderJson(result.view, {
       budget,
@@ -53,16 +63,35 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     });
   }
   if (opts.format === "svg") return renderSvg(result.view, { units: unitsFor(opts), sizes: tree.hasSizes });
-  if (opts.format === "markdown") {
-    return renderMarkdown(result.view, { units: unitsFor(opts), sizes: tree.hasSizes, chains: opts.chains });
-  }
+  if (opts.format === "markdown")
+    return renderMarkdown(result.view, { ...numbers, chains: opts.chains, header, legend: opts.legend });
   return renderText(result.view, {
-    units: unitsFor(opts),
-    sizes: tree.hasSizes,
+    ...numbers,
     palette: palette(useColour(opts, io)),
     chains: opts.chains,
     width: opts.width ?? defaultWidth(io),
+    header,
+    legend: opts.legend,
   });
+}
+
+/** Lines before the tree: the header unless --bare, and the legend with --legend. */
+export function headerLinesFor(opts: SummaryCliOptions, kind: "summary" | "diff"): number {
+  return (opts.bare ? 0 : 1) + (opts.legend ? LEGEND_LINES[kind] : 0);
+}
+
+/** The header's facts: the budget, the lines used, the foci as printed, what the size measures. */
+export function headerFor<T extends ViewNode>(
+  view: HierarchyNode<T>,
+  budget: number,
+  lines: number,
+  opts: SummaryCliOptions,
+): HeaderOptions {
+  return { budget, lines, foci: fociOf(view), sizeName: opts.sizeField };
+}
+
+export function shareFor(opts: SummaryCliOptions): "total" | "parent" | undefined {
+  return opts.share === "none" ? undefined : opts.share;
 }
 
 export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptions {
@@ -116,9 +145,11 @@ export function useColour(opts: SummaryCliOptions, io: CliIO): boolean {
   return io.stdout.isTTY === true;
 }
 
-/** The terminal's width when printing to one; no limit otherwise. */
+/** The terminal's width when printing to one (at least MIN_WIDTH); no limit otherwise. */
 export function defaultWidth(io: CliIO): number | undefined {
-  return io.stdout.isTTY && io.stdout.columns && io.stdout.columns > 0 ? io.stdout.columns : undefined;
+  return io.stdout.isTTY && io.stdout.columns && io.stdout.columns > 0
+    ? Math.max(MIN_WIDTH, io.stdout.columns)
+    : undefined;
 }
 
 /** The terminal's height less one line for the prompt; 40 when not printing to a terminal. */

@@ -7,7 +7,9 @@ import { PathIndex } from "../model/path-index.js";
 import { hiddenIds, pseudonym } from "../model/pseudonym.js";
 import { escapeSegment } from "../model/segment.js";
 import type { Tree } from "../model/tree.js";
+import { hierarchyOf } from "../view/hierarchy-of.js";
 import { compileLabel } from "../view/label.js";
+import { orderSiblings, type SiblingOrder } from "../view/sibling-order.js";
 import { alignRoots } from "./align-roots.js";
 import type { ChangeCounts } from "./changes.js";
 import { type Combined, combine } from "./combine.js";
@@ -33,6 +35,10 @@ export interface DiffOptions {
    * keeps its only child on a line of its own); default false.
    */
   chains?: boolean;
+  /** Lines the text rendering spends before the tree; default {@link DIFF_HEADER_LINES}. */
+  headerLines?: number;
+  /** Order of shown siblings in the view; default the combined tree's order. */
+  siblingOrder?: SiblingOrder;
 }
 
 /** Whole-diff numbers: the root's counts, and both versions' sizes. */
@@ -56,7 +62,7 @@ export interface DiffResult {
   totals: DiffTotals;
 }
 
-/** Lines the diff's text rendering spends before the tree (the totals line). */
+/** Lines the diff's text rendering spends before the tree by default (the header line). */
 export const DIFF_HEADER_LINES = 1;
 
 /**
@@ -106,7 +112,7 @@ export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions):
   };
   const idOf = hiddenIds(tree, key);
   const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf, (i) => idOf(i) ?? "");
-  const view = buildDiffView(
+  let view = buildDiffView(
     index,
     combined,
     changeMeasures,
@@ -122,6 +128,10 @@ export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions):
       pathOf: oldPathOf,
     },
   );
+  if (options.siblingOrder && options.siblingOrder !== "input") {
+    orderSiblings(view.data, options.siblingOrder, tree.hasSizes);
+    view = hierarchyOf(view.data);
+  }
   let oldSize = 0;
   for (let o = 0; o < oldTree.length; o++) oldSize += oldTree.ownSize[o];
   const totals: DiffTotals = {

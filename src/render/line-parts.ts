@@ -1,37 +1,65 @@
 import type { ViewNode } from "../view/view-node.js";
-import { amount, type NumberOptions } from "./amount.js";
+import { amount, formatCount, type NumberOptions, percent } from "./amount.js";
 import type { LineGroup } from "./line-groups.js";
 import type { LineParts } from "./line-layout.js";
+import { MARK } from "./marks.js";
 import { shownLabel } from "./safe-text.js";
-
-/** Line marks; they carry the meaning without colour. */
-export const MARK = { focus: "*", path: ">", other: "-" } as const;
 
 /**
  * The node converter of every line-based format: what the line of `group` says. The chain's labels,
- * the numbers of its top node, and the fold of its last. A diff adds its fields on top (see
- * `diffLineParts`).
+ * then the mark, numbers and fold of its last node, so that every number stands beside the node it
+ * belongs to and `nodes = 1 + the nodes on the lines below + hidden` holds on every line. A diff adds
+ * its fields on top (see `diffLineParts`).
  */
 export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: NumberOptions): LineParts {
   const { level, nodes } = group;
-  const top = nodes[0];
   const last = nodes[nodes.length - 1];
   const role = last.focus ? "focus" : last.onPath ? "path" : "other";
+  const compact = { ...options, compact: true };
+  const say = (o: NumberOptions) => {
+    const numbers = amount(last.nodes, last.size, o);
+    const share = shareOf(group, last, o);
+    return share ? (numbers ? `${numbers}, ${share}` : share) : numbers;
+  };
+  const fold = (o: NumberOptions) =>
+    last.hidden ? `(${foldWords(last)}, ${foldAmount(group, last, o)})` : "";
   return {
     level,
     mark: MARK[role],
     role,
     tag: "",
     shortTag: "",
+    tagKind: null,
     labels: nodes.map((n) => shownLabel(n.label)),
-    numbers: amount(top.nodes, top.size, options),
-    fold: last.hidden ? `+${last.hidden.children} more: ${foldAmount(last, options)}` : "",
-    foldShort: last.hidden ? `+${last.hidden.children} more` : "",
+    numbers: say(options),
+    compactNumbers: say(compact),
+    fold: fold(options),
+    compactFold: fold(compact),
+    foldShort: last.hidden ? `(${foldWords(last)})` : "",
+    foldTiny: last.hidden ? `(${formatCount(last.hidden.children)} hidden)` : "",
   };
 }
 
-/** The numbers of what is folded under `node`: always with its count. */
-export function foldAmount(node: ViewNode, options: NumberOptions): string {
+/** `hidden: 3 children` (or `1 child`): how many of the node's children the fold holds. */
+export function foldWords(node: ViewNode): string {
+  const k = node.hidden!.children;
+  return `hidden: ${formatCount(k)} ${k === 1 ? "child" : "children"}`;
+}
+
+/** The numbers of what is folded under `node`: always with its count, and its share when asked. */
+export function foldAmount<T extends ViewNode>(group: LineGroup<T>, node: T, options: NumberOptions): string {
   const { nodes, size } = node.hidden!;
-  return amount(nodes, size, { ...options, always: true });
+  const text = amount(nodes, size, { ...options, always: true });
+  if (!options.share) return text;
+  const whole = options.share === "total" ? group.root : node;
+  const value = options.sizes ? size : nodes;
+  const p = percent(value, options.sizes ? whole.size : whole.nodes);
+  return p ? `${text}, ${p}` : text;
+}
+
+/** The node's share of the whole tree, or of the node on the line above, by size (or by count). */
+function shareOf<T extends ViewNode>(group: LineGroup<T>, node: T, options: NumberOptions): string {
+  if (!options.share) return "";
+  const whole = options.share === "total" ? group.root : (group.above ?? group.root);
+  return options.sizes ? percent(node.size, whole.size) : percent(node.nodes, whole.nodes);
 }
