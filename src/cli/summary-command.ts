@@ -87,7 +87,12 @@ export function headerFor<T extends ViewNode>(
   lines: number,
   opts: SummaryCliOptions,
 ): HeaderOptions {
-  return { budget, lines, foci: fociOf(view), sizeName: opts.sizeField };
+  return {
+    budget,
+    lines,
+    foci: fociOf(view),
+    sizeName: opts.sizeField === "size" ? undefined : opts.sizeField,
+  };
 }
 
 export function shareFor(opts: SummaryCliOptions): "total" | "parent" | undefined {

@@ -42,10 +42,12 @@ export function markdownHead(
 
 /**
  * A code span that shows `text` exactly (CommonMark 0.31, section 6.1): a fence longer than any
- * backtick run inside, and one space inside each fence, which the parser strips again.
+ * backtick run inside, and one space inside each fence, which the parser strips again (not around
+ * text of spaces only, which the parser keeps whole).
  */
 export function codeSpan(text: string): string {
   const longest = Math.max(0, ...Array.from(text.matchAll(/`+/g), (m) => m[0].length));
   const fence = "`".repeat(longest + 1);
-  return `${fence} ${text} ${fence}`;
+  // Content made only of spaces is kept as it is, so it needs no padding (and must not get any).
+  return /^ *$/.test(text) ? `${fence}${text}${fence}` : `${fence} ${text} ${fence}`;
 }

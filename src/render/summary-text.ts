@@ -39,14 +39,15 @@ export function renderText(view: HierarchyNode<ViewNode>, options: TextOptions):
 
 /** The header and legend lines a text rendering starts with, cut to the width. */
 export function headLines(
-  options: { header?: HeaderOptions; legend?: boolean; width?: number },
+  options: { header?: HeaderOptions; legend?: boolean; width?: number; palette?: Palette },
   header: (width?: number) => string,
   kind: "summary" | "diff",
 ): string[] {
-  const lines = options.header ? [header(options.width)] : [];
+  const quiet = options.palette?.quiet ?? ((s: string) => s);
+  const lines = options.header ? [quiet(header(options.width))] : [];
   if (options.legend)
     for (const line of legendLines(kind))
-      lines.push(options.width === undefined ? line : shortenEnd(line, options.width));
+      lines.push(quiet(options.width === undefined ? line : shortenEnd(line, options.width)));
   return lines;
 }
 

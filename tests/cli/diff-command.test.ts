@@ -27,7 +27,7 @@ describe("espalier diff OLD NEW", () => {
     expect(r.code).toBe(1);
     expect(r.stderr).toBe("");
     expect(r.stdout.split("\n")[0]).toMatch(
-      /^matched by path: 1 added, 0 removed, 0 moved, 0 renamed, 1 resized;/,
+      /^diff by path: 1 added, 0 removed, 0 moved, 0 renamed, 1 resized;/,
     );
     expect(r.stdout).toContain("[resized +6 B] y");
     expect(r.stdout).toContain("[added +7 B] c");
@@ -37,7 +37,7 @@ describe("espalier diff OLD NEW", () => {
     const r = await cli(["diff", at("old.paths"), at("old.paths"), "--exit-code"]);
     expect(r.code).toBe(0);
     expect(r.stdout.split("\n")[0]).toMatch(
-      /^matched by path: 0 added, 0 removed, 0 moved, 0 renamed, 0 resized;/,
+      /^diff by path: 0 added, 0 removed, 0 moved, 0 renamed, 0 resized;/,
     );
     expect(r.stdout).not.toContain("[");
   });
@@ -109,9 +109,9 @@ describe("espalier diff OLD NEW", () => {
     );
     expect(r.code).toBe(0);
     expect(r.stdout.split("\n")[0]).toMatch(
-      /^matched by id: 0 added, 0 removed, 1 moved, 0 renamed, 0 resized;/,
+      /^diff by id: 0 added, 0 removed, 1 moved, 0 renamed, 0 resized;/,
     );
-    expect(r.stdout).toMatch(/> (.* \/ )?\[moved from [^\]]+\] Marit Okonkwo-Lund/);
+    expect(r.stdout).toMatch(/: (.* \/ )?\[moved from [^\]]+\] Marit Okonkwo-Lund/);
     expect(r.stdout.trimEnd().split("\n").length).toBeLessThanOrEqual(20);
   });
 

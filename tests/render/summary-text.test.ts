@@ -11,11 +11,11 @@ describe("renderText(view, options)", () => {
     const { text } = summaryOf(tree, ["A/A1"], 5);
     expect(text).toBe(
       [
-        "> R  11 nodes, 146 B  +1 more: 4 nodes, 121 B",
-        "  > A  6 nodes, 25 B  +1 more: 2 nodes, 7 B",
+        ": R  11 nodes, 146 B  (hidden: 1 child, 4 nodes, 121 B)",
+        "  : A  6 nodes, 25 B  (hidden: 1 child, 2 nodes, 7 B)",
         "    * A1  3 nodes, 8 B",
-        "      - A1a  1 B",
-        "      - A1b  2 B",
+        "      . A1a  1 B",
+        "      . A1b  2 B",
         "",
       ].join("\n"),
     );
@@ -24,13 +24,13 @@ describe("renderText(view, options)", () => {
   it("gives every node a line when the budget holds the whole tree", () => {
     const { text } = summaryOf(tree, ["A/A1"], 100);
     expect(text.split("\n").length - 1).toBe(tree.length);
-    expect(text).not.toContain("more:");
+    expect(text).not.toContain("hidden");
   });
 
   it("never starts a line with a name, so a name cannot pose as a CI command (lines start with indent and a mark)", () => {
     const t = makeTree("::warning{##vso[task.setvariable]}");
     const { text } = summaryOf(t, [], 10);
-    for (const line of text.trimEnd().split("\n")) expect(line).toMatch(/^ *[*>-] /);
+    for (const line of text.trimEnd().split("\n")) expect(line).toMatch(/^ *[*:.] /);
   });
 
   it("spends no line on chrome: a 20,000-node tree with two deep foci shows as many nodes as it has lines", () => {
@@ -59,7 +59,7 @@ describe("renderText(view, options)", () => {
     result.view.each(() => shownNodes++);
     expect(lines.length).toBe(40);
     expect(shownNodes).toBeGreaterThanOrEqual(lines.length);
-    expect(lines.every((l) => /^ *[*>-] \S/.test(l))).toBe(true);
+    expect(lines.every((l) => /^ *[*:.] \S/.test(l))).toBe(true);
   });
 
   it("is byte-identical across runs", () => {
