@@ -8,7 +8,8 @@ import type { Tree } from "../model/tree.js";
 import { renderDiffJson } from "../render/diff-json.js";
 import { renderDiffMarkdown } from "../render/diff-markdown.js";
 import { renderDiffText } from "../render/diff-text.js";
-import { renderSvg } from "../render/icicle-svg.js";
+import { diffHeader } from "../render/header.js";
+import { renderSvg, SVG_PX_PER_COLUMN } from "../render/icicle-svg.js";
 import { palette } from "../render/palette.js";
 import { DIFF_EXAMPLES } from "./diff-help.js";
 import { type DiffCliOptions, diffOptionsSchema } from "./diff-options.js";
@@ -135,6 +136,8 @@ export async function diffCommand(
           units: textOptions.units,
           sizes: textOptions.sizes,
           changeOf: (n) => n.change,
+          width: opts.width === undefined ? undefined : opts.width * SVG_PX_PER_COLUMN,
+          heading: textOptions.header && diffHeader(result.totals, by, textOptions.header, textOptions),
         })
       : opts.format === "markdown"
         ? renderDiffMarkdown(result.view, result.totals, textOptions)

@@ -4,8 +4,8 @@ import { defaultLoadOptions, type LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
-import { fociOf, type HeaderOptions } from "../render/header.js";
-import { renderSvg } from "../render/icicle-svg.js";
+import { fociOf, type HeaderOptions, summaryHeader } from "../render/header.js";
+import { renderSvg, SVG_PX_PER_COLUMN } from "../render/icicle-svg.js";
 import { MIN_WIDTH } from "../render/line-layout.js";
 import { LEGEND_LINES } from "../render/marks.js";
 import { palette } from "../render/palette.js";
@@ -62,7 +62,13 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
       labels: opts.label !== undefined,
     });
   }
-  if (opts.format === "svg") return renderSvg(result.view, { units: unitsFor(opts), sizes: tree.hasSizes });
+  if (opts.format === "svg")
+    return renderSvg(result.view, {
+      units: unitsFor(opts),
+      sizes: tree.hasSizes,
+      width: opts.width === undefined ? undefined : opts.width * SVG_PX_PER_COLUMN,
+      heading: header && summaryHeader(result.view.data, header, numbers),
+    });
   if (opts.format === "markdown")
     return renderMarkdown(result.view, { ...numbers, chains: opts.chains, header, legend: opts.legend });
   return renderText(result.view, {
