@@ -5,7 +5,11 @@ import { readFile } from "node:fs/promises";
 import { totalmem } from "node:os";
 import { fileURLToPath } from "node:url";
 import { getHeapStatistics } from "node:v8";
-import { heapToRestartWith } from "../dist/cli/heap.js";
+
+// The single-file bundle `npm run build` makes (scripts/bundle.js), or the compiled modules it is made
+// of when they are newer (a plain `tsc` since), so a stale bundle never runs.
+const cli = await import(freshest());
+const { heapToRestartWith } = cli;
 
 // The edge: real streams, files, environment and engine. Decided before the CLI's modules load: an input
 // too big for the engine's default heap restarts the command with a larger one.
@@ -21,6 +25,17 @@ const heap =
     : 0;
 if (heap > 0) restart(heap);
 else await main();
+
+function freshest() {
+  const bundle = new URL("../dist/bundle/espalier.js", import.meta.url);
+  const modules = new URL("../dist/cli/launch.js", import.meta.url);
+  try {
+    if (statSync(bundle).mtimeMs >= statSync(modules).mtimeMs) return bundle.href;
+  } catch {
+    // No bundle (a tsc build only): the modules.
+  }
+  return modules.href;
+}
 
 /** Sizes of the arguments that name regular files; "-" is standard input (undefined when a pipe). */
 function inputSizes(argv) {
@@ -69,9 +84,7 @@ function restart(mib) {
 }
 
 async function main() {
-  const { run } = await import("../dist/cli/main.js");
-  const { openFile } = await import("../dist/cli/open-file.js");
-  const { loadInWorker } = await import("../dist/cli/load-in-worker.js");
+  const { run, openFile, loadInWorker } = cli;
   // A reader closing the pipe early ends us quietly.
   process.stdout.on("error", (err) => {
     if (err.code === "EPIPE") process.exit(0);

@@ -5,12 +5,9 @@ import { loadTreeFromStream } from "../load/stream/index.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
 import { fociOf, type HeaderOptions, summaryHeader } from "../render/header.js";
-import { renderSvg, SVG_PX_PER_COLUMN } from "../render/icicle-svg.js";
 import { MIN_WIDTH } from "../render/line-layout.js";
 import { LEGEND_LINES } from "../render/marks.js";
 import { palette } from "../render/palette.js";
-import { renderJson } from "../render/summary-json.js";
-import { renderMarkdown } from "../render/summary-markdown.js";
 import { renderText } from "../render/summary-text.js";
 import { prepare, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
@@ -27,19 +24,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   const foci = [...opts.focus];
   if (opts.focusFrom !== undefined) foci.push(...(await readFociFile(io, opts.focusFrom, input)));
   const key = pseudonymKey(opts, io);
-  let tree: Tree;
-  try {
-    if (isFactInput(opts)) {
-      tree = await loadFactInput(input, opts, rootNameOf(input));
-    } else {
-      const source = await readInputStream(io, input);
-      // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
-      const chunks = withProgress(source.chunks, io, displayName(input), source.size);
-      tree = await loadTreeFromStream(chunks, toLoadOptions(input, opts));
-    }
-  } catch (err) {
-    throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
-  }
+  const tree = await loadInput(io, input, opts);
   const budget = opts.budget ?? defaultBudget(io);
   const headerLines = headerLinesFor(opts, "summary");
   const result = summarize(prepare(tree), {
@@ -55,6 +40,8 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   const numbers = { units: unitsFor(opts), sizes: tree.hasSizes, share: shareFor(opts) };
   const header = opts.bare ? undefined : headerFor(result.view, budget, result.selection.lines, opts);
   if (opts.format === "json") {
+    // Each other output format is loaded when asked for: a start loads only what the run needs.
+    const { renderJson } = await import("../render/summary-json.js");
     return renderJson(result.view, {
       budget,
       lines: result.selection.lines,
@@ -62,15 +49,19 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
       labels: opts.label !== undefined,
     });
   }
-  if (opts.format === "svg")
+  if (opts.format === "svg") {
+    const { renderSvg, SVG_PX_PER_COLUMN } = await import("../render/icicle-svg.js");
     return renderSvg(result.view, {
       units: unitsFor(opts),
       sizes: tree.hasSizes,
       width: opts.width === undefined ? undefined : opts.width * SVG_PX_PER_COLUMN,
       heading: header && summaryHeader(result.view.data, header, numbers),
     });
-  if (opts.format === "markdown")
+  }
+  if (opts.format === "markdown") {
+    const { renderMarkdown } = await import("../render/summary-markdown.js");
     return renderMarkdown(result.view, { ...numbers, chains: opts.chains, header, legend: opts.legend });
+  }
   return renderText(result.view, {
     ...numbers,
     palette: palette(useColour(opts, io)),
@@ -103,6 +94,19 @@ export function headerFor<T extends ViewNode>(
 
 export function shareFor(opts: SummaryCliOptions): "total" | "parent" | undefined {
   return opts.share === "none" ? undefined : opts.share;
+}
+
+/** Loads one input as every command does: a fact table rolled up, else any tree format, streamed. */
+export async function loadInput(io: CliIO, input: string, opts: SummaryCliOptions): Promise<Tree> {
+  try {
+    if (isFactInput(opts)) return await loadFactInput(input, opts, rootNameOf(input));
+    const source = await readInputStream(io, input);
+    // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
+    const chunks = withProgress(source.chunks, io, displayName(input), source.size);
+    return await loadTreeFromStream(chunks, toLoadOptions(input, opts));
+  } catch (err) {
+    throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
+  }
 }
 
 export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptions {
@@ -169,7 +173,7 @@ export function defaultBudget(io: CliIO): number {
   return DEFAULT_BUDGET;
 }
 
-function pseudonymKey(opts: SummaryCliOptions, io: CliIO): string | undefined {
+export function pseudonymKey(opts: SummaryCliOptions, io: CliIO): string | undefined {
   if (!opts.pseudonymize) return undefined;
   const key = io.env[PSEUDONYM_KEY_ENV];
   if (!key) {
