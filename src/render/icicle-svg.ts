@@ -1,7 +1,7 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { type ChangeKind, changeKinds } from "../diff/changes.js";
 import type { ViewNode } from "../view/view-node.js";
-import { amount } from "./amount.js";
+import { amount, formatCount } from "./amount.js";
 import { displayWidth, shortenEnd } from "./display-width.js";
 import { formatSize, type Units } from "./format-size.js";
 import { type IcicleBlock, icicle } from "./icicle-layout.js";
@@ -60,6 +60,8 @@ const PATH_COLUMNS = 40;
 /** Most of the picture's width that widening the focus path may take from the shares by size. */
 export const WIDENING_CAP = 1 / 4;
 const HEADING_PX = 13;
+/** Longest path, in UTF-16 code units, a tooltip shows whole. */
+const TOOLTIP_PATH = 960;
 const HEADING_ROW = 24;
 const MARK = 8;
 const PATTERN = "espalier-folded";
@@ -249,7 +251,12 @@ function tooltip<T extends ViewNode>(
     return `+${children} more under ${label}: ${amount(nodes, size, always)}`;
   }
   const lines = [label];
-  const path = shownLabel(node.path);
+  // A deep node's path is long (a chain's grow with the square of its depth): past a few lines, the
+  // tooltip names the depth and the node instead of reading the whole path.
+  const path =
+    node.path.length > TOOLTIP_PATH
+      ? `… (depth ${formatCount(node.depth)}) / ${shownLabel(node.name)}`
+      : shownLabel(node.path);
   if (node.path !== "" && path !== label) lines.push(path);
   lines.push(amount(node.nodes, node.size, always));
   if (node.focus) lines.push("focus");
