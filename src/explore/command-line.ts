@@ -25,7 +25,7 @@ export function shellQuote(arg: string): string {
 
 /**
  * The command line that prints the view: `head` (the program, the inputs and the options that shape the
- * tree and its labels, as arguments), then one `--focus` per focus path and the budget.
+ * tree and its labels, as arguments), then one `--focus` per focus path, the budget and `--bare`.
  */
 export function commandLine(
   head: readonly string[],
@@ -35,6 +35,7 @@ export function commandLine(
 ): string {
   const args = [...head];
   for (const path of fociPaths) args.push("--focus", path);
-  args.push("--budget", String(budget), ...tail);
+  // The view has no header line: --bare makes the printed command spend its budget on the same tree.
+  args.push("--budget", String(budget), "--bare", ...tail);
   return args.map(shellQuote).join(" ");
 }
