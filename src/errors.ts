@@ -35,22 +35,30 @@ export const errorCodes = [
 
 export type ErrorCode = (typeof errorCodes)[number];
 
+/**
+ * Facts of an error that a program (or a test) can act on without reading the message, e.g.
+ * `{ smallestBudget: 5 }` or `{ option: "--budgt", suggestion: "--budget" }`.
+ */
+export type ErrorDetails = Readonly<Record<string, string | number | boolean | readonly string[]>>;
+
 /** A typed, user-facing error: a code, an actionable message and where the input is at fault. */
 export class EspalierError extends Error {
   readonly code: ErrorCode;
   readonly pos: SourcePos | undefined;
+  readonly details: ErrorDetails;
   override readonly name = "EspalierError";
 
-  constructor(code: ErrorCode, message: string, pos?: SourcePos) {
+  constructor(code: ErrorCode, message: string, pos?: SourcePos, details: ErrorDetails = {}) {
     super(message);
     this.code = code;
     this.pos = pos;
+    this.details = details;
   }
 
   /** A copy that names the file, for errors raised below the layer that knows it. */
   inFile(file: string): EspalierError {
     if (this.pos?.file !== undefined) return this;
-    return new EspalierError(this.code, this.message, { ...this.pos, file });
+    return new EspalierError(this.code, this.message, { ...this.pos, file }, this.details);
   }
 }
 

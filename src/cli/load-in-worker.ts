@@ -1,12 +1,12 @@
 import { Worker } from "node:worker_threads";
-import { type ErrorCode, EspalierError, type SourcePos } from "../errors.js";
+import { type ErrorCode, type ErrorDetails, EspalierError, type SourcePos } from "../errors.js";
 import type { LoadOptions } from "../load/load-options.js";
 import type { Tree } from "../model/tree.js";
 import { type TreeMessage, treeFromMessage } from "../model/tree-message.js";
 
 type Reply =
   | { tree: TreeMessage }
-  | { error: { code: ErrorCode; message: string; pos: SourcePos | undefined } }
+  | { error: { code: ErrorCode; message: string; pos: SourcePos | undefined; details: ErrorDetails } }
   | { failure: string };
 
 /**
@@ -24,7 +24,9 @@ export function loadInWorker(name: string, options: LoadOptions): Promise<Tree> 
       settled = true;
       if ("tree" in reply) resolve(treeFromMessage(reply.tree));
       else if ("error" in reply)
-        reject(new EspalierError(reply.error.code, reply.error.message, reply.error.pos));
+        reject(
+          new EspalierError(reply.error.code, reply.error.message, reply.error.pos, reply.error.details),
+        );
       else reject(new Error(reply.failure));
       void worker.terminate();
     });

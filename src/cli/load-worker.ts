@@ -29,6 +29,8 @@ try {
   parentPort!.postMessage({ tree: message }, treeTransferList(message));
 } catch (err) {
   if (err instanceof EspalierError)
-    parentPort!.postMessage({ error: { code: err.code, message: err.message, pos: err.pos } });
+    parentPort!.postMessage({
+      error: { code: err.code, message: err.message, pos: err.pos, details: err.details },
+    });
   else parentPort!.postMessage({ failure: err instanceof Error ? (err.stack ?? err.message) : String(err) });
 }

@@ -14,7 +14,12 @@ import { templateFields } from "../view/label.js";
 import type { ViewNode } from "../view/view-node.js";
 import { isFactInput, loadFactInput } from "./fact-input.js";
 import type { CliIO } from "./io.js";
-import { DEFAULT_BUDGET, PSEUDONYM_KEY_ENV, type SummaryCliOptions } from "./options.js";
+import {
+  DEFAULT_BUDGET,
+  PSEUDONYM_KEY_ENV,
+  type SharedCliOptions,
+  type SummaryCliOptions,
+} from "./options.js";
 import { withProgress } from "./progress.js";
 import { readInput } from "./read-input.js";
 import { readInputStream } from "./read-input-stream.js";
@@ -73,7 +78,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
 }
 
 /** Lines before the tree: the header unless --bare, and the legend with --legend. */
-export function headerLinesFor(opts: SummaryCliOptions, kind: "summary" | "diff"): number {
+export function headerLinesFor(opts: SharedCliOptions, kind: "summary" | "diff"): number {
   return (opts.bare ? 0 : 1) + (opts.legend ? LEGEND_LINES[kind] : 0);
 }
 
@@ -82,7 +87,7 @@ export function headerFor<T extends ViewNode>(
   view: HierarchyNode<T>,
   budget: number,
   lines: number,
-  opts: SummaryCliOptions,
+  opts: SharedCliOptions,
 ): HeaderOptions {
   return {
     budget,
@@ -92,12 +97,12 @@ export function headerFor<T extends ViewNode>(
   };
 }
 
-export function shareFor(opts: SummaryCliOptions): "total" | "parent" | undefined {
+export function shareFor(opts: SharedCliOptions): "total" | "parent" | undefined {
   return opts.share === "none" ? undefined : opts.share;
 }
 
 /** Loads one input as every command does: a fact table rolled up, else any tree format, streamed. */
-export async function loadInput(io: CliIO, input: string, opts: SummaryCliOptions): Promise<Tree> {
+export async function loadInput(io: CliIO, input: string, opts: SharedCliOptions): Promise<Tree> {
   try {
     if (isFactInput(opts)) return await loadFactInput(input, opts, rootNameOf(input));
     const source = await readInputStream(io, input);
@@ -109,7 +114,7 @@ export async function loadInput(io: CliIO, input: string, opts: SummaryCliOption
   }
 }
 
-export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptions {
+export function toLoadOptions(input: string, opts: SharedCliOptions): LoadOptions {
   const format = opts.inputFormat;
   if (format === "parquet" || format === "jsonl")
     throw new EspalierError(
@@ -147,13 +152,13 @@ function baseName(path: string): string {
 }
 
 /** Sizes print as bytes when the size field is called size or bytes, as plain numbers otherwise. */
-export function unitsFor(opts: SummaryCliOptions): Units {
+export function unitsFor(opts: SharedCliOptions): Units {
   if (opts.units !== "auto") return opts.units;
   return ["size", "bytes"].includes(opts.sizeField.toLowerCase()) ? "bytes" : "plain";
 }
 
 /** Colour only on a terminal, never with NO_COLOR set (no-color.org) or TERM=dumb, unless forced. */
-export function useColour(opts: SummaryCliOptions, io: CliIO): boolean {
+export function useColour(opts: SharedCliOptions, io: CliIO): boolean {
   if (opts.color !== "auto") return opts.color === "always";
   if (io.env.NO_COLOR !== undefined && io.env.NO_COLOR !== "") return false;
   if (io.env.TERM === "dumb") return false;
@@ -173,7 +178,7 @@ export function defaultBudget(io: CliIO): number {
   return DEFAULT_BUDGET;
 }
 
-export function pseudonymKey(opts: SummaryCliOptions, io: CliIO): string | undefined {
+export function pseudonymKey(opts: SharedCliOptions, io: CliIO): string | undefined {
   if (!opts.pseudonymize) return undefined;
   const key = io.env[PSEUDONYM_KEY_ENV];
   if (!key) {
