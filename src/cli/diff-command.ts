@@ -64,7 +64,7 @@ export async function diffCommand(
   });
   const by = result.combined.by;
   const textOptions = {
-    units: unitsFor(opts),
+    units: unitsFor(opts, result.combined.tree),
     sizes: result.combined.tree.hasSizes,
     by,
     palette: palette(useColour(opts, io)),

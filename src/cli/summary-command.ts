@@ -42,7 +42,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     headerLines,
     siblingOrder: opts.siblingOrder,
   });
-  const numbers = { units: unitsFor(opts), sizes: tree.hasSizes, share: shareFor(opts) };
+  const numbers = { units: unitsFor(opts, tree), sizes: tree.hasSizes, share: shareFor(opts) };
   const header = opts.bare ? undefined : headerFor(result.view, budget, result.selection.lines, opts);
   if (opts.format === "json") {
     // Each other output format is loaded when asked for: a start loads only what the run needs.
@@ -52,12 +52,13 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
       lines: result.selection.lines,
       foci: result.fociPaths,
       labels: opts.label !== undefined,
+      ...(tree.reading ? { input: tree.reading } : {}),
     });
   }
   if (opts.format === "svg") {
     const { renderSvg, SVG_PX_PER_COLUMN } = await import("../render/icicle-svg.js");
     return renderSvg(result.view, {
-      units: unitsFor(opts),
+      units: unitsFor(opts, tree),
       sizes: tree.hasSizes,
       width: opts.width === undefined ? undefined : opts.width * SVG_PX_PER_COLUMN,
       heading: header && summaryHeader(result.view.data, header, numbers),
@@ -134,6 +135,8 @@ export function toLoadOptions(input: string, opts: SharedCliOptions): LoadOption
     keepFields: opts.label ? templateFields(opts.label) : [],
     rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
+    ...(opts.readAs === "auto" ? {} : { readAs: opts.readAs }),
+    ...(opts.nulSeparated ? { nulSeparated: true } : {}),
   };
 }
 
@@ -151,10 +154,14 @@ function baseName(path: string): string {
   return parts[parts.length - 1] || path;
 }
 
-/** Sizes print as bytes when the size field is called size or bytes, as plain numbers otherwise. */
-export function unitsFor(opts: SharedCliOptions): Units {
+/**
+ * Sizes print as bytes when the loader says they count bytes (see src/load/size-unit.ts), else plain.
+ * Without a loaded tree (a caller that decides before loading) the size field's name decides.
+ */
+export function unitsFor(opts: SharedCliOptions, tree?: Tree): Units {
   if (opts.units !== "auto") return opts.units;
-  return ["size", "bytes"].includes(opts.sizeField.toLowerCase()) ? "bytes" : "plain";
+  if (tree === undefined) return ["size", "bytes"].includes(opts.sizeField.toLowerCase()) ? "bytes" : "plain";
+  return tree.reading?.sizeUnit === "bytes" ? "bytes" : "plain";
 }
 
 /** Colour only on a terminal, never with NO_COLOR set (no-color.org) or TERM=dumb, unless forced. */
