@@ -165,10 +165,7 @@ export const sharedOptions = {
   bare: {
     flags: "--bare",
     group: "Budget and layout",
-    schema: z
-      .boolean()
-      .default(false)
-      .describe("print no header line, only the tree's lines (for scripts)"),
+    schema: z.boolean().default(false).describe("print no header line, only the tree's lines (for scripts)"),
   },
   legend: {
     flags: "--legend",
@@ -363,7 +360,16 @@ export const controlOptions = {
  * Options of printed output, which the interactive view (it has its own screen, with no header and its
  * own order and numbers) does not take.
  */
-const printedOnly = new Set(["budget", "format", "output", "sqlTable", "bare", "legend", "share", "siblingOrder"]);
+const printedOnly = new Set([
+  "budget",
+  "format",
+  "output",
+  "sqlTable",
+  "bare",
+  "legend",
+  "share",
+  "siblingOrder",
+]);
 
 /** The options each command takes, by key. */
 export const commandOptions: Record<CommandName, Record<string, OptionSpec>> = {

@@ -18,11 +18,11 @@ export function safeText(text: string, max = MAX_LABEL): string {
   // deep paths of a long chain cost their ends each (the cut points lie far outside what is kept).
   if (text.length > 4 * max) {
     const keep = Math.floor((max - 5) / 2);
-    const head = Array.from(escape(text.slice(0, 2 * max))).slice(0, keep);
-    const tail = Array.from(escape(text.slice(-2 * max))).slice(-keep);
+    const head = Array.from(escapeUnsafe(text.slice(0, 2 * max))).slice(0, keep);
+    const tail = Array.from(escapeUnsafe(text.slice(-2 * max))).slice(-keep);
     return `${head.join("")}[...]${tail.join("")}`;
   }
-  let out = escape(text);
+  let out = escapeUnsafe(text);
   if (out.length > max) {
     const points = Array.from(out);
     if (points.length > max) {
@@ -33,7 +33,7 @@ export function safeText(text: string, max = MAX_LABEL): string {
   return out;
 }
 
-function escape(text: string): string {
+function escapeUnsafe(text: string): string {
   return text.replace(UNSAFE, (ch) => `\\u{${ch.codePointAt(0)!.toString(16)}}`);
 }
 
