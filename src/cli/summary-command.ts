@@ -9,10 +9,10 @@ import { MIN_WIDTH } from "../render/line-layout.js";
 import { LEGEND_LINES } from "../render/marks.js";
 import { palette } from "../render/palette.js";
 import { renderText } from "../render/summary-text.js";
-import { prepare, summarize } from "../summarize.js";
+import { prepare, type SummaryResult, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
 import type { ViewNode } from "../view/view-node.js";
-import { isFactInput, loadFactInput } from "./fact-input.js";
+import { isFactInput, loadFactInput, summarizeFactInput } from "./fact-input.js";
 import type { CliIO } from "./io.js";
 import {
   DEFAULT_BUDGET,
@@ -29,19 +29,30 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
   const foci = [...opts.focus];
   if (opts.focusFrom !== undefined) foci.push(...(await readFociFile(io, opts.focusFrom, input)));
   const key = pseudonymKey(opts, io);
-  const tree = await loadInput(io, input, opts);
   const budget = opts.budget ?? defaultBudget(io);
-  const headerLines = headerLinesFor(opts, "summary");
-  const result = summarize(prepare(tree), {
+  const options = {
     foci,
     budget,
     importance: opts.importance,
     label: opts.label,
     pseudonymKey: key,
     chains: opts.chains,
-    headerLines,
+    headerLines: headerLinesFor(opts, "summary"),
     siblingOrder: opts.siblingOrder,
-  });
+  };
+  let tree: Tree;
+  let result: SummaryResult;
+  if (isFactInput(opts)) {
+    // A fact table is summarised as it is fetched: only as deep as the summary reaches (see fact-input).
+    try {
+      ({ tree, result } = await summarizeFactInput(input, opts, options, rootNameOf(input)));
+    } catch (err) {
+      throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
+    }
+  } else {
+    tree = await loadInput(io, input, opts);
+    result = summarize(prepare(tree), options);
+  }
   const numbers = { units: unitsFor(opts, tree), sizes: tree.hasSizes, share: shareFor(opts) };
   const header = opts.bare ? undefined : headerFor(result.view, budget, result.selection.lines, opts);
   if (opts.format === "json") {
