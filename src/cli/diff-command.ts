@@ -27,6 +27,7 @@ export async function diffCommand(
     chains: opts.chains,
     headerLines: headerLinesFor(opts, "diff"),
     siblingOrder: opts.siblingOrder,
+    compareFields: opts.compareField,
   });
   const { tree } = result.combined;
   const text = await diffRenderers[opts.format](result, outputSettings(opts, io, tree), tree);

@@ -81,7 +81,10 @@ export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
       diffLines(result, s, tree.hasSizes),
     ),
   svg: async (result, s, tree) => {
-    const { renderSvg, SVG_PX_PER_COLUMN } = await import("../render/icicle-svg.js");
+    const [{ renderSvg, SVG_PX_PER_COLUMN }, { changeTag }] = await Promise.all([
+      import("../render/icicle-svg.js"),
+      import("../render/diff-line-parts.js"),
+    ]);
     const lines = diffLines(result, s, tree.hasSizes);
     return renderSvg(result.view, {
       units: s.units,
@@ -89,6 +92,7 @@ export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
       changeOf: (n) => n.change,
       width: s.widthOption === undefined ? undefined : s.widthOption * SVG_PX_PER_COLUMN,
       heading: lines.header && diffHeader(result.totals, result.combined.by, lines.header, lines),
+      changeNote: (n) => changeTag(n, { units: s.units, sizes: tree.hasSizes }),
     });
   },
 };

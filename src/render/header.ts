@@ -55,7 +55,7 @@ export function summaryHeader(
 }
 
 /**
- * `diff by id: 1 added, 0 removed, 1 moved, 0 renamed, 0 resized; 6 -> 7 nodes, size 3 KiB -> 4 KiB
+ * `diff by id: 1 added, 0 removed, 1 moved, 0 renamed, 0 edited, 0 resized; 6 -> 7 nodes, size 3 KiB -> 4 KiB
  * (net +1 KiB); no focus; 9 of 40 lines`: how nodes were matched, the count of each kind, both
  * versions' totals, the foci and the budget used.
  */

@@ -18,6 +18,11 @@ export interface SvgOptions<T extends ViewNode = ViewNode> {
   changeOf?: (node: T) => ChangeKind | null;
   /** The heading above the picture: the text rendering's header (totals, foci, lines); none if undefined. */
   heading?: string;
+  /**
+   * A diff's words for a node's change in its tooltip (e.g. the text format's change tag, which names
+   * moved-from parents and field edits); default: the kind alone.
+   */
+  changeNote?: (node: T) => string;
 }
 
 /** Pixels per terminal column of `--width` when it sizes a picture. */
@@ -40,6 +45,7 @@ const LOOK = {
     removed: { fill: "#f1dad4", mark: "#984636" },
     moved: { fill: "#d9ddef", mark: "#44508b" },
     renamed: { fill: "#eadcee", mark: "#744a82" },
+    edited: { fill: "#d5e8ea", mark: "#2f6a70" },
     resized: { fill: "#eee6c9", mark: "#76642a" },
   },
 } as const;
@@ -262,7 +268,7 @@ function tooltip<T extends ViewNode>(
   if (node.focus) lines.push("focus");
   else if (node.onPath)
     lines.push(options.changeOf ? "on the path to a focus or change" : "on the path to a focus");
-  if (change) lines.push(change);
+  if (change) lines.push(options.changeNote ? options.changeNote(node) : change);
   return lines.join("\n");
 }
 
@@ -277,6 +283,8 @@ function changeMark(kind: ChangeKind, x: number, y: number, s: number): string {
       return `<path d="M${num(x + h)} ${num(y)}l${num(h)} ${num(h)}l${num(-h)} ${num(h)}l${num(-h)} ${num(-h)}z" fill="${fill}"/>`;
     case "renamed": // a circle
       return `<circle cx="${num(x + h)}" cy="${num(y + h)}" r="${num(h)}" fill="${fill}"/>`;
+    case "edited": // a small square
+      return `<path d="M${num(x + 1)} ${num(y + 1)}h${num(s - 2)}v${num(s - 2)}h${num(2 - s)}z" fill="${fill}"/>`;
     case "resized": // a bar, like a ruler mark
       return `<path d="M${num(x)} ${num(y + h - 1.5)}h${num(s)}v3h${num(-s)}z" fill="${fill}"/>`;
     case "removed":

@@ -27,7 +27,7 @@ export function legendLines(kind: "summary" | "diff"): string[] {
   ];
   if (kind === "diff")
     lines.push(
-      "changes: [added] [removed] [moved from PARENT] [renamed from NAME] [resized ±SIZE] stand before the name; net ±SIZE: the subtree's size change",
+      "changes: [added] [removed] [moved from PARENT] [renamed from NAME] [edited FIELD OLD -> NEW] [resized ±SIZE] stand before the name; net ±SIZE: the subtree's size change",
     );
   return lines;
 }

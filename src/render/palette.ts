@@ -15,7 +15,7 @@ export const noColour: Palette = {
   focus: plain,
   path: plain,
   quiet: plain,
-  change: { added: plain, removed: plain, moved: plain, renamed: plain, resized: plain },
+  change: { added: plain, removed: plain, moved: plain, renamed: plain, edited: plain, resized: plain },
 };
 
 /**
@@ -34,6 +34,7 @@ export function palette(colour: boolean): Palette {
       removed: (s) => c.magenta(s),
       moved: (s) => c.blue(s),
       renamed: (s) => c.cyan(s),
+      edited: (s) => c.blueBright.underline(s),
       resized: (s) => c.yellow(s),
     },
   };

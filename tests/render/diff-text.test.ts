@@ -26,7 +26,7 @@ describe("renderDiffText(view, totals, options)", () => {
   it("opens with the totals per kind and tags each change in words", () => {
     expect(text(makeIdTree("R{A{x,y},B{z}}"), makeIdTree("R{A{y},B{z,x},C}"))).toBe(
       [
-        "diff by id: 1 added, 0 removed, 1 moved, 0 renamed, 0 resized; 6 -> 7 nodes; no focus; 8 of 40 lines",
+        "diff by id: 1 added, 0 removed, 1 moved, 0 renamed, 0 edited, 0 resized; 6 -> 7 nodes; no focus; 8 of 40 lines",
         ": R  7 nodes",
         "  . A  2 nodes",
         "    . y",
@@ -44,7 +44,7 @@ describe("renderDiffText(view, totals, options)", () => {
     const newTree = makeTree("R{A{y:26},B{z:5,w:3},D{d:1}}");
     expect(text(oldTree, newTree)).toBe(
       [
-        "diff by path: 1 added, 1 removed, 0 moved, 0 renamed, 1 resized; 8 -> 8 nodes, size 36 B -> 35 B (net -1 B); no focus; 10 of 40 lines",
+        "diff by path: 1 added, 1 removed, 0 moved, 0 renamed, 0 edited, 1 resized; 8 -> 8 nodes, size 36 B -> 35 B (net -1 B); no focus; 10 of 40 lines",
         ": R  9 nodes, 35 B, net -1 B",
         "  : A  3 nodes, 26 B, net -4 B",
         "    : [removed -10 B] x",
@@ -69,7 +69,7 @@ describe("renderDiffText(view, totals, options)", () => {
     const newTree = makeTree("R{A{B{C{x:1,y:4}}},D{E{F:3}}}");
     expect(text(oldTree, newTree, 40, true, true)).toBe(
       [
-        "diff by path: 1 added, 0 removed, 0 moved, 0 renamed, 1 resized; 8 -> 9 nodes, size 3 B -> 8 B (net +5 B); no focus; 6 of 40 lines",
+        "diff by path: 1 added, 0 removed, 0 moved, 0 renamed, 0 edited, 1 resized; 8 -> 9 nodes, size 3 B -> 8 B (net +5 B); no focus; 6 of 40 lines",
         ": R  9 nodes, 8 B, net +5 B",
         // The numbers are the chain's last node's: A / B add one node each to R's count.
         "  : A / B / C  3 nodes, 5 B, net +4 B",
