@@ -49,6 +49,9 @@ export interface LayoutOptions {
 /** Narrowest width a line can be laid out in: a deep line's indentation gives way to keep this much. */
 export const MIN_WIDTH = 30;
 
+/** A fold at its barest, when not even its count fits: a reader still sees that something is hidden. */
+export const FOLD_SIGN = "(hidden)";
+
 /** Shortest label kept before the line's own numbers give way. */
 const MIN_LABEL = 8;
 
@@ -64,8 +67,10 @@ const MIN_LABEL = 8;
  *      and last names stay readable);
  *   5. the line's own numbers go;
  *   6. the labels are cut further, down to one column and `…`;
- *   7. a deep line's indentation shrinks to a third of the width, then to its level in digits.
- * A fold never goes: a reader always sees that something is hidden.
+ *   7. a deep line's indentation shrinks to a third of the width, then to its level in digits;
+ *   8. the tag keeps only its kind (`[moved]`), then the fold only its sign (`(hidden)`).
+ * A fold never goes: a reader always sees that something is hidden. At MIN_WIDTH and wider the line
+ * always fits this way; narrower (which the renderers refuse), the line's start is cut instead.
  */
 export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
   const { width } = options;
@@ -116,8 +121,23 @@ export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
         return line(ind, cutLabels(p.labels, room), p.shortTag, numbers, fold, true);
     }
   }
-  // Narrower than MIN_WIDTH (the renderers refuse such a width): cut the end, the fold sign first kept.
-  return style(shortenEnd(line(shortIndent(p.level, width), label, "", "", p.foldTiny, false), width));
+  // Still too wide (a diff's long tag and fold on a deep line): at the shortest indentation the tag
+  // keeps only its kind (`[moved]`), then the fold only its sign (`(hidden)`).
+  const least = indent.length <= `${p.level} `.length ? indent : `${p.level} `;
+  const kindTag = p.tagKind ? `[${p.tagKind}]` : "";
+  for (const fewest of [MIN_LABEL, 1])
+    for (const fold of [p.foldTiny, p.fold ? FOLD_SIGN : ""]) {
+      const room = width - displayWidth(line(least, "", kindTag, "", fold, false));
+      if (room >= Math.min(fewest, displayWidth(label)))
+        return line(least, cutLabels(p.labels, room), kindTag, "", fold, true);
+    }
+  // Narrower than MIN_WIDTH (the renderers refuse such a width; a small screen may still ask for it):
+  // the start of the line is cut, and the fold's sign stays at its end while the width holds it.
+  const sign = p.fold ? `  ${FOLD_SIGN}` : "";
+  const head = line(least, label, kindTag, "", "", false);
+  const room = width - displayWidth(sign);
+  if (!sign || room < 3) return style(shortenEnd(`${head}${sign}`, width));
+  return `${style(shortenEnd(head, room))}${pal.quiet(sign)}`;
 }
 
 /**

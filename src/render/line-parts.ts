@@ -30,7 +30,7 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
     tag: "",
     shortTag: "",
     tagKind: null,
-    labels: nodes.map((n) => shownLabel(n.label)),
+    labels: chainLabels(group),
     numbers: say(options),
     compactNumbers: say(compact),
     fold: fold(options),
@@ -38,6 +38,17 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
     foldShort: last.hidden ? `(${foldWords(last)})` : "",
     foldTiny: last.hidden ? `(${formatCount(last.hidden.children)} hidden)` : "",
   };
+}
+
+/**
+ * The labels a line names, top first. A root named "/" (an absolute path listing) is glued to its
+ * only child's name as a path writes it, `/usr / bin`, not `/ / usr / bin`; the chain reads back as a
+ * focus either way (see focus/printed-chain.ts).
+ */
+export function chainLabels<T extends ViewNode>({ nodes, above }: LineGroup<T>): string[] {
+  const labels = nodes.map((n) => shownLabel(n.label));
+  if (above === null && labels.length > 1 && labels[0] === "/") labels.splice(0, 2, `/${labels[1]}`);
+  return labels;
 }
 
 /** `hidden: 3 children` (or `1 child`): how many of the node's children the fold holds. */
