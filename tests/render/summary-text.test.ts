@@ -1,6 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { buildTree } from "../../src/model/build-tree.js";
 import { measure } from "../../src/model/measure.js";
+import { renderText } from "../../src/render/summary-text.js";
+import { prepare, summarize } from "../../src/summarize.js";
 import { makeTree } from "../helpers/make-tree.js";
 import { generatedTree, summaryOf } from "../helpers/summary.js";
 
@@ -18,6 +20,28 @@ describe("renderText(view, options)", () => {
         "      . A1b  2 B",
         "",
       ].join("\n"),
+    );
+  });
+
+  it("glues a root named / to its only child's name, as an absolute path writes it (/usr / bin)", () => {
+    // An absolute path listing has one root named "/" (docs/input.md); "/ / usr" would read as two roots.
+    const result = summarize(prepare(makeTree("/{usr{bin{a,b}}}")), {
+      foci: [],
+      budget: 10,
+      importance: "depth",
+      chains: true,
+    });
+    const text = renderText(result.view, { units: "plain", sizes: false, chains: true });
+    expect(text).toBe([". /usr / bin  3 nodes", "  . a", "  . b", ""].join("\n"));
+    // A node named "/" below the root is an ordinary name: only the root's "/" is glued.
+    const below = summarize(prepare(makeTree("R{x,/{usr{y,z}}}")), {
+      foci: [],
+      budget: 10,
+      importance: "depth",
+      chains: true,
+    });
+    expect(renderText(below.view, { units: "plain", sizes: false, chains: true })).toContain(
+      "  . / / usr  3 nodes",
     );
   });
 
