@@ -4,6 +4,7 @@ import type { PathIndex } from "../model/path-index.js";
 import { pseudonym } from "../model/pseudonym.js";
 import { escapeSegment, parseSegment, splitPath } from "../model/segment.js";
 import { isGlob, matchGlob } from "./glob.js";
+import { isPrintedChain, pseudonymNames, resolvePrintedChain } from "./printed-chain.js";
 import { suggestPath } from "./suggest.js";
 
 /** The node an exact path names, or -1. Glob characters are taken literally here. */
@@ -39,7 +40,8 @@ const PSEUDONYM = /^anon-[0-9a-f]{12}$/;
 
 /**
  * Focus specs -> node indices (sorted, without repeats). Each spec is tried as an exact path, then as a
- * row id (where rows have ids; with a pseudonym key also as a printed pseudonymous id), then as a glob.
+ * row id (where rows have ids; with a pseudonym key also as a printed pseudonymous id), then as a glob,
+ * then as a chain copied from a printed line (see printed-chain.ts).
  * A spec that matches nothing is an error that suggests the closest existing path.
  */
 
@@ -80,6 +82,15 @@ export function resolveFoci(index: PathIndex, specs: readonly string[], pseudony
     }
     if (isGlob(spec)) {
       const matches = matchGlob(tree, measures, spec);
+      if (matches.length > 0) {
+        for (const m of matches) found.add(m);
+        continue;
+      }
+    }
+    // A chain copied from a printed line (`services / ledger / src`).
+    if (isPrintedChain(spec)) {
+      const nameOf = pseudonymKey === undefined ? undefined : pseudonymNames(index, pseudonymKey);
+      const matches = resolvePrintedChain(index, spec, nameOf);
       if (matches.length > 0) {
         for (const m of matches) found.add(m);
         continue;
