@@ -255,6 +255,29 @@ export const sharedOptions = {
     group: "Input",
     schema: z.string().min(1).default("path").describe("column holding a row's full path"),
   },
+  childField: {
+    flags: "--child-field <column>",
+    group: "Input",
+    schema: z.string().min(1).default("child").describe("column holding an edge's child id (edge tables)"),
+  },
+  graph: {
+    flags: "--graph",
+    group: "Input",
+    schema: z
+      .boolean()
+      .default(false)
+      .describe("read the input as a graph: ids may repeat with other parents; a JSON/YAML object maps ids"),
+  },
+  nodes: {
+    flags: "--nodes <file>",
+    group: "Input",
+    config: false,
+    schema: z
+      .string()
+      .min(1)
+      .optional()
+      .describe("node records of a graph by id (names, sizes, fields) from this CSV/TSV/JSON table"),
+  },
   maxNodes: {
     flags: "--max-nodes <count>",
     group: "Input",
@@ -331,10 +354,13 @@ export const summaryOnlyOptions = {
 
 /** Options of `espalier diff` only. */
 export const diffOnlyOptions = {
-  exitCode: {
-    flags: "--exit-code",
+  failOnChange: {
+    flags: "--fail-on-change",
     group: "Diff only",
-    schema: z.boolean().default(false).describe("exit 1 when the versions differ, 0 when they do not"),
+    schema: z
+      .boolean()
+      .default(false)
+      .describe("exit with status 1 when the versions differ (0 when they are the same, 2 on an error)"),
   },
   compareField: {
     flags: "--compare-field <field>",
@@ -360,20 +386,20 @@ export const controlOptions = {
       .optional()
       .describe("read options from this YAML file (default: .espalier.yaml if present)"),
   },
-  noConfig: {
-    flags: "--no-config",
+  withoutConfig: {
+    flags: "--without-config",
     group: "Config file",
     config: false,
-    schema: z.boolean().default(false).describe("read no config file"),
+    schema: z.boolean().default(false).describe("read no config file, not even .espalier.yaml"),
   },
-  printConfig: {
-    flags: "--print-config",
+  optionsInEffect: {
+    flags: "--options-in-effect",
     group: "Config file",
     config: false,
     schema: z
       .boolean()
       .default(false)
-      .describe("print the options in effect (flags over config file over defaults) and stop"),
+      .describe("print the options this run would use (flags over config file over defaults) and stop"),
   },
   help: {
     flags: "-h, --help",
@@ -382,7 +408,7 @@ export const controlOptions = {
     schema: z.boolean().default(false).describe("print this help and stop"),
   },
   version: {
-    flags: "-V, --version",
+    flags: "--version",
     group: "Help",
     config: false,
     schema: z.boolean().default(false).describe("print espalier's version and stop"),

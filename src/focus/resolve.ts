@@ -39,67 +39,43 @@ export function resolvePseudonymPath(index: PathIndex, spec: string, key: string
 const PSEUDONYM = /^anon-[0-9a-f]{12}$/;
 
 /**
- * Focus specs -> node indices (sorted, without repeats). Each spec is tried as an exact path, then as a
- * row id (where rows have ids; with a pseudonym key also as a printed pseudonymous id), then as a glob,
- * then as a chain copied from a printed line (see printed-chain.ts).
- * A spec that matches nothing is an error that suggests the closest existing path.
+ * A focus written as a listing writes its paths, read as espalier's own path: `find DIR` prints every
+ * path with DIR in front (`./services/ledger`, `fixtures/external`), and DIR is the tree's root, whose
+ * path is "". A leading `./` (POSIX: the same place), or the root's own name and "/", is dropped; the
+ * root's name alone (or ".") is the root. Undefined when neither applies. Callers try `spec` as it
+ * stands first: a node that is really called "." or like the root wins.
  */
+export function pathAsListed(index: PathIndex, spec: string): string | undefined {
+  const root = escapeSegment(index.tree.name.get(0));
+  if (spec === "." || (root !== "" && spec === root)) return "";
+  for (const lead of ["./", ...(root !== "" && root !== "." ? [`${root}/`] : [])]) {
+    if (spec.startsWith(lead) && spec.length > lead.length) return spec.slice(lead.length);
+  }
+  return undefined;
+}
 
+/**
+ * Focus specs -> node indices (sorted, without repeats). Each spec is tried as an exact path, then as a
+ * row id (where rows have ids; with a pseudonym key also as a printed pseudonymous id), then as a glob;
+ * then, written as a listing writes paths (see {@link pathAsListed}), as a path or glob again. A spec
+ * that matches nothing is an error that suggests the closest existing path.
+ */
 export function resolveFoci(index: PathIndex, specs: readonly string[], pseudonymKey?: string): Int32Array {
-  const { tree, measures } = index;
+  const { tree } = index;
   const found = new Set<number>();
   for (const spec of specs) {
-    const exact = resolvePath(index, spec);
-    if (exact >= 0) {
-      found.add(exact);
+    const listed = pathAsListed(index, spec);
+    const matches =
+      matchSpec(index, spec, pseudonymKey, true) ??
+      (listed === undefined ? undefined : matchSpec(index, listed, pseudonymKey, false));
+    if (matches !== undefined) {
+      for (const m of matches) found.add(m);
       continue;
-    }
-    if (pseudonymKey !== undefined) {
-      const viaPseudonyms = resolvePseudonymPath(index, spec, pseudonymKey);
-      if (viaPseudonyms >= 0) {
-        found.add(viaPseudonyms);
-        continue;
-      }
-    }
-    if (tree.ids) {
-      const byId = indexOfName(tree.ids, spec);
-      if (byId >= 0) {
-        found.add(byId);
-        continue;
-      }
-      // A printed pseudonymous id reads back with the same secret (one keyed hash per row).
-      if (pseudonymKey !== undefined && PSEUDONYM.test(spec)) {
-        let hit = -1;
-        for (let i = 0; i < tree.length && hit < 0; i++) {
-          const id = tree.ids.get(i);
-          if (id !== "" && pseudonym(pseudonymKey, id) === spec) hit = i;
-        }
-        if (hit >= 0) {
-          found.add(hit);
-          continue;
-        }
-      }
-    }
-    if (isGlob(spec)) {
-      const matches = matchGlob(tree, measures, spec);
-      if (matches.length > 0) {
-        for (const m of matches) found.add(m);
-        continue;
-      }
-    }
-    // A chain copied from a printed line (`services / ledger / src`).
-    if (isPrintedChain(spec)) {
-      const nameOf = pseudonymKey === undefined ? undefined : pseudonymNames(index, pseudonymKey);
-      const matches = resolvePrintedChain(index, spec, nameOf);
-      if (matches.length > 0) {
-        for (const m of matches) found.add(m);
-        continue;
-      }
     }
     // With pseudonyms on, a suggestion must not print a real name either.
     const near = suggestPath(
       index,
-      spec,
+      listed ?? spec,
       pseudonymKey === undefined
         ? undefined
         : (i) => index.path(i, (j) => escapeSegment(pseudonym(pseudonymKey, tree.name.get(j)))),
@@ -110,4 +86,45 @@ export function resolveFoci(index: PathIndex, specs: readonly string[], pseudony
     );
   }
   return Int32Array.from([...found].sort((a, b) => a - b));
+}
+
+/**
+ * The nodes `spec` names as a path, (when `ids`) a row id, a glob, or (when `ids`) a chain copied from a
+ * printed line (see printed-chain.ts); undefined when none.
+ */
+function matchSpec(
+  index: PathIndex,
+  spec: string,
+  pseudonymKey: string | undefined,
+  ids: boolean,
+): readonly number[] | undefined {
+  const { tree, measures } = index;
+  const exact = resolvePath(index, spec);
+  if (exact >= 0) return [exact];
+  if (pseudonymKey !== undefined) {
+    const viaPseudonyms = resolvePseudonymPath(index, spec, pseudonymKey);
+    if (viaPseudonyms >= 0) return [viaPseudonyms];
+  }
+  if (ids && tree.ids) {
+    const byId = indexOfName(tree.ids, spec);
+    if (byId >= 0) return [byId];
+    // A printed pseudonymous id reads back with the same secret (one keyed hash per row).
+    if (pseudonymKey !== undefined && PSEUDONYM.test(spec)) {
+      for (let i = 0; i < tree.length; i++) {
+        const id = tree.ids.get(i);
+        if (id !== "" && pseudonym(pseudonymKey, id) === spec) return [i];
+      }
+    }
+  }
+  if (isGlob(spec)) {
+    const matches = matchGlob(tree, measures, spec);
+    if (matches.length > 0) return matches;
+  }
+  // A chain copied from a printed line (`services / ledger / src`), as the spec stands.
+  if (ids && isPrintedChain(spec)) {
+    const nameOf = pseudonymKey === undefined ? undefined : pseudonymNames(index, pseudonymKey);
+    const matches = resolvePrintedChain(index, spec, nameOf);
+    if (matches.length > 0) return matches;
+  }
+  return undefined;
 }

@@ -1,5 +1,5 @@
 import type { HierarchyNode } from "d3-hierarchy";
-import { changeKinds } from "../diff/changes.js";
+import { changeKinds, treeChangeKinds } from "../diff/changes.js";
 import type { DiffTotals } from "../diff/diff-trees.js";
 import type { ViewNode } from "../view/view-node.js";
 import { formatCount, type NumberOptions } from "./amount.js";
@@ -68,7 +68,10 @@ export function diffHeader(
   style: HeaderStyle = plainStyle,
 ): string {
   const w = style.words;
-  const kinds = changeKinds.map((k) => `${formatCount(totals.changes[k])} ${k}`).join(", ");
+  // A diff of graphs counts edges linked and unlinked too; a diff of trees has none to count.
+  const kinds = (totals.graph ? changeKinds : treeChangeKinds)
+    .map((k) => `${formatCount(totals.changes[k])} ${k}`)
+    .join(", ");
   let head = w(
     `diff by ${by}: ${kinds}; ${formatCount(totals.old.nodes)} -> ${formatCount(totals.new.nodes)} nodes`,
   );

@@ -3,7 +3,10 @@ import { amount, formatCount, type NumberOptions, percent } from "./amount.js";
 import type { LineGroup } from "./line-groups.js";
 import type { LineParts } from "./line-layout.js";
 import { MARK } from "./marks.js";
+import { parentsText, referencesText, referenceText } from "./reference-text.js";
 import { shownLabel } from "./safe-text.js";
+
+export { MARK };
 
 /**
  * The node converter of every line-based format: what the line of `group` says. The chain's labels,
@@ -15,6 +18,28 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
   const { level, nodes } = group;
   const last = nodes[nodes.length - 1];
   const role = last.focus ? "focus" : last.onPath ? "path" : "other";
+  // A reference (graphs) is a line of its own that says where its node's full entry is.
+  const top = nodes[0];
+  if (top.reference) {
+    const where = referenceText(top.reference);
+    return {
+      level,
+      mark: MARK.reference,
+      role: role === "focus" ? "path" : role,
+      tag: "",
+      shortTag: "",
+      tagKind: null,
+      labels: [shownLabel(top.label)],
+      numbers: where,
+      compactNumbers: where,
+      fold: "",
+      compactFold: "",
+      foldShort: "",
+      foldTiny: "",
+    };
+  }
+  // A focus with several parents (graphs) says so after its fold.
+  const parents = parentsText(last.parents);
   const compact = { ...options, compact: true };
   const say = (o: NumberOptions) => {
     const numbers = amount(last.nodes, last.size, o);
@@ -22,7 +47,7 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
     return share ? (numbers ? `${numbers}, ${share}` : share) : numbers;
   };
   const fold = (o: NumberOptions) =>
-    last.hidden ? `(${foldWords(last)}, ${foldAmount(group, last, o)})` : "";
+    joined(last.hidden ? `(${foldWords(last)}, ${foldAmount(group, last, o)})` : "", parents);
   return {
     level,
     mark: MARK[role],
@@ -35,9 +60,14 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
     compactNumbers: say(compact),
     fold: fold(options),
     compactFold: fold(compact),
-    foldShort: last.hidden ? `(${foldWords(last)})` : "",
+    foldShort: joined(last.hidden ? `(${foldWords(last)})` : "", parents),
     foldTiny: last.hidden ? `(${formatCount(last.hidden.children)} hidden)` : "",
   };
+}
+
+/** Two parts of a line's end, two spaces apart, either may be empty. */
+function joined(a: string, b: string): string {
+  return a && b ? `${a}  ${b}` : a || b;
 }
 
 /**
@@ -59,8 +89,8 @@ export function foldWords(node: ViewNode): string {
 
 /** The numbers of what is folded under `node`: always with its count, and its share when asked. */
 export function foldAmount<T extends ViewNode>(group: LineGroup<T>, node: T, options: NumberOptions): string {
-  const { nodes, size } = node.hidden!;
-  const text = amount(nodes, size, { ...options, always: true });
+  const { nodes, size, references } = node.hidden!;
+  const text = amount(nodes, size, { ...options, always: true }) + referencesText(references);
   if (!options.share) return text;
   const whole = options.share === "total" ? group.root : node;
   const value = options.sizes ? size : nodes;

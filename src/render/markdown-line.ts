@@ -1,6 +1,6 @@
 import { CHAIN_JOIN, type LineParts } from "./line-layout.js";
 import { markdownText } from "./markdown-escape.js";
-import { legendLines } from "./marks.js";
+import { legendLines, MARK } from "./marks.js";
 
 /**
  * One line as a CommonMark list item, at the same nesting as the text line. Every label is a code
@@ -14,6 +14,9 @@ export function markdownLine(p: LineParts): string {
   const names = p.labels.map(codeSpan);
   if (p.tag) names[names.length - 1] = `${codeSpan(p.tag)} ${names[names.length - 1]}`;
   let label = names.join(CHAIN_JOIN);
+  // A reference line of a graph: its mark, its label, where the full entry is in italics.
+  if (p.mark === MARK.reference)
+    return `${"  ".repeat(p.level)}- ${MARK.reference} ${label} · *${markdownText(p.numbers, true, true)}*`;
   if (p.role === "focus") label = `**${label}** (focus)`;
   else if (p.role === "path") label = `**${label}**`;
   return (

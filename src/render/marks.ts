@@ -10,6 +10,8 @@ export const MARK = {
   path: ":",
   /** Any other shown node. */
   other: ".",
+  /** A reference line of a graph: the node's full entry is elsewhere (its path follows). */
+  reference: "&",
 } as const;
 
 /** How many lines {@link legendLines} gives for a summary and for a diff. */

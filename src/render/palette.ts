@@ -15,7 +15,16 @@ export const noColour: Palette = {
   focus: plain,
   path: plain,
   quiet: plain,
-  change: { added: plain, removed: plain, moved: plain, renamed: plain, edited: plain, resized: plain },
+  change: {
+    added: plain,
+    removed: plain,
+    moved: plain,
+    renamed: plain,
+    edited: plain,
+    resized: plain,
+    linked: plain,
+    unlinked: plain,
+  },
 };
 
 /**
@@ -35,6 +44,8 @@ export function palette(colour: boolean): Palette {
       moved: (s) => c.blue(s),
       renamed: (s) => c.cyan(s),
       edited: (s) => c.blueBright.underline(s),
+      linked: (s) => c.greenBright.underline(s),
+      unlinked: (s) => c.magentaBright.underline(s),
       resized: (s) => c.yellow(s),
     },
   };
