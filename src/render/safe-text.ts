@@ -14,7 +14,15 @@ export const MAX_LABEL = 240;
  * are cut in the middle.
  */
 export function safeText(text: string, max = MAX_LABEL): string {
-  let out = text.replace(UNSAFE, (ch) => `\\u{${ch.codePointAt(0)!.toString(16)}}`);
+  // Only the two ends of a very long text can show: escape those, not the whole of it, so that the
+  // deep paths of a long chain cost their ends each (the cut points lie far outside what is kept).
+  if (text.length > 4 * max) {
+    const keep = Math.floor((max - 5) / 2);
+    const head = Array.from(escapeUnsafe(text.slice(0, 2 * max))).slice(0, keep);
+    const tail = Array.from(escapeUnsafe(text.slice(-2 * max))).slice(-keep);
+    return `${head.join("")}[...]${tail.join("")}`;
+  }
+  let out = escapeUnsafe(text);
   if (out.length > max) {
     const points = Array.from(out);
     if (points.length > max) {
@@ -23,6 +31,10 @@ export function safeText(text: string, max = MAX_LABEL): string {
     }
   }
   return out;
+}
+
+function escapeUnsafe(text: string): string {
+  return text.replace(UNSAFE, (ch) => `\\u{${ch.codePointAt(0)!.toString(16)}}`);
 }
 
 /** A label as printed: made safe, and `""` for an empty name so the line still shows something. */
