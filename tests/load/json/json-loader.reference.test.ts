@@ -351,6 +351,39 @@ const BROKEN = [
 
 type Fault = { code: string; pos: unknown };
 
+/** Whether a valid JSON text (RFC 8259) has an object with the same member name twice. */
+function hasRepeatedKey(text: string): boolean {
+  const stack: (Set<string> | null)[] = [];
+  const expectKey: boolean[] = [];
+  for (let i = 0; i < text.length; i++) {
+    const c = text[i];
+    if (c === "{") {
+      stack.push(new Set());
+      expectKey.push(true);
+    } else if (c === "[") {
+      stack.push(null);
+      expectKey.push(false);
+    } else if (c === "}" || c === "]") {
+      stack.pop();
+      expectKey.pop();
+    } else if (c === ",") {
+      if (stack.length > 0 && stack[stack.length - 1] !== null) expectKey[expectKey.length - 1] = true;
+    } else if (c === '"') {
+      let j = i + 1;
+      while (text[j] !== '"') j += text[j] === "\\" ? 2 : 1;
+      const keys = stack[stack.length - 1];
+      if (keys && expectKey[expectKey.length - 1]) {
+        const key = JSON.parse(text.slice(i, j + 1)) as string;
+        if (keys.has(key)) return true;
+        keys.add(key);
+        expectKey[expectKey.length - 1] = false;
+      }
+      i = j;
+    }
+  }
+  return false;
+}
+
 /**
  * The same fault, or one the byte loader met first: it stops at the first fault in document order, while
  * the reference (JSON.parse, then a walk) parses everything first and then checks nodes breadth-first.
@@ -398,7 +431,13 @@ describe("loadTreeFromStream(json) errors", () => {
         const expected = outcomeOf(() => loadByReference(bytes, options));
         const actual = await outcomeOfAsync(() => loadStreamed(bytes, options, cutsFor(r, bytes.length, 6)));
         if ("tree" in expected) {
-          if (!("tree" in actual)) throw new Error(`streaming failed: ${JSON.stringify(actual)}\n${text}`);
+          // A repeated key keeps its last value (RFC 8259 §4 leaves repeated names to the reader; we
+          // follow JSON.parse), but the byte loader checks every value as it reads it: an invalid first
+          // value is reported even when a later one replaces it (docs/input.md). Only then may it fail.
+          const checkedEarly = "code" in actual && actual.code !== "PARSE_JSON" && hasRepeatedKey(text);
+          if (!("tree" in actual) && !checkedEarly)
+            throw new Error(`streaming failed: ${JSON.stringify(actual)}\n${text}`);
+          if (!("tree" in actual)) return;
           expectSameTree(actual.tree, expected.tree);
         } else if (!("code" in actual) || !sameFault(actual, expected)) {
           throw new Error(
