@@ -4,7 +4,7 @@ import type { PathIndex } from "../model/paths.js";
 import { pseudonym } from "../model/pseudonym.js";
 import { escapeSegment, parseSegment, splitPath } from "../model/segment.js";
 import { isGlob, matchGlob } from "./glob.js";
-import { suggestPath } from "./suggest.js";
+import { realView, type SuggestView, suggestFoci } from "./suggest.js";
 
 /** The node an exact path names, or -1. Glob characters are taken literally here. */
 export function resolvePath(index: PathIndex, spec: string): number {
@@ -39,64 +39,89 @@ const PSEUDONYM = /^anon-[0-9a-f]{12}$/;
 
 /**
  * Focus specs -> node indices (sorted, without repeats). Each spec is tried as an exact path, then as a
- * row id (where rows have ids; with a pseudonym key also as a printed pseudonymous id), then as a glob.
- * A spec that matches nothing is an error that suggests the closest existing path.
+ * row id (where rows have ids; with a pseudonym key also as a printed pseudonymous id), then as a glob;
+ * a leading `./` (as `find .` prints paths) is dropped when the spec as written matches nothing.
+ * A spec that matches nothing is FOCUS_NO_MATCH with the nearest foci that exist ({@link suggestFoci}).
+ * With a pseudonym key the message neither repeats the spec nor compares it with real names: it says
+ * which focus failed, and suggests only printed pseudonyms near a typed pseudonym.
  */
-
 export function resolveFoci(index: PathIndex, specs: readonly string[], pseudonymKey?: string): Int32Array {
-  const { tree, measures } = index;
   const found = new Set<number>();
-  for (const spec of specs) {
-    const exact = resolvePath(index, spec);
-    if (exact >= 0) {
-      found.add(exact);
-      continue;
-    }
-    if (pseudonymKey !== undefined) {
-      const viaPseudonyms = resolvePseudonymPath(index, spec, pseudonymKey);
-      if (viaPseudonyms >= 0) {
-        found.add(viaPseudonyms);
-        continue;
+  specs.forEach((spec, k) => {
+    const nodes = resolveOne(index, spec, pseudonymKey);
+    const bare =
+      nodes.length === 0 && spec.startsWith("./") ? resolveOne(index, spec.slice(2), pseudonymKey) : nodes;
+    if (bare.length === 0) throw noMatch(index, spec, k, specs.length, pseudonymKey);
+    for (const node of bare) found.add(node);
+  });
+  return Int32Array.from([...found].sort((a, b) => a - b));
+}
+
+/** The nodes one spec names (see {@link resolveFoci}); empty when none. */
+function resolveOne(index: PathIndex, spec: string, pseudonymKey: string | undefined): number[] {
+  const { tree, measures } = index;
+  const exact = resolvePath(index, spec);
+  if (exact >= 0) return [exact];
+  if (pseudonymKey !== undefined) {
+    const viaPseudonyms = resolvePseudonymPath(index, spec, pseudonymKey);
+    if (viaPseudonyms >= 0) return [viaPseudonyms];
+  }
+  if (tree.ids) {
+    const byId = indexOfName(tree.ids, spec);
+    if (byId >= 0) return [byId];
+    // A printed pseudonymous id reads back with the same secret (one keyed hash per row).
+    if (pseudonymKey !== undefined && PSEUDONYM.test(spec)) {
+      for (let i = 0; i < tree.length; i++) {
+        const id = tree.ids.get(i);
+        if (id !== "" && pseudonym(pseudonymKey, id) === spec) return [i];
       }
     }
-    if (tree.ids) {
-      const byId = indexOfName(tree.ids, spec);
-      if (byId >= 0) {
-        found.add(byId);
-        continue;
-      }
-      // A printed pseudonymous id reads back with the same secret (one keyed hash per row).
-      if (pseudonymKey !== undefined && PSEUDONYM.test(spec)) {
-        let hit = -1;
-        for (let i = 0; i < tree.length && hit < 0; i++) {
-          const id = tree.ids.get(i);
-          if (id !== "" && pseudonym(pseudonymKey, id) === spec) hit = i;
-        }
-        if (hit >= 0) {
-          found.add(hit);
-          continue;
-        }
-      }
-    }
-    if (isGlob(spec)) {
-      const matches = matchGlob(tree, measures, spec);
-      if (matches.length > 0) {
-        for (const m of matches) found.add(m);
-        continue;
-      }
-    }
-    // With pseudonyms on, a suggestion must not print a real name either.
-    const near = suggestPath(
-      index,
-      spec,
-      pseudonymKey === undefined
-        ? undefined
-        : (i) => index.path(i, (j) => escapeSegment(pseudonym(pseudonymKey, tree.name.get(j)))),
-    );
-    throw new EspalierError(
+  }
+  return isGlob(spec) ? matchGlob(tree, measures, spec) : [];
+}
+
+/** FOCUS_NO_MATCH for the k-th of n specs, with suggestions when some are near. */
+function noMatch(
+  index: PathIndex,
+  spec: string,
+  k: number,
+  n: number,
+  key: string | undefined,
+): EspalierError {
+  if (key === undefined) {
+    const near = suggestFoci(index, spec, realView(index));
+    return new EspalierError(
       "FOCUS_NO_MATCH",
-      `focus ${JSON.stringify(spec)} matches no node${near !== undefined ? `; did you mean ${JSON.stringify(near)}?` : ""}`,
+      `focus ${JSON.stringify(spec)} matches no node${didYouMean(near)}`,
     );
   }
-  return Int32Array.from([...found].sort((a, b) => a - b));
+  // Only a typed pseudonym is compared, with pseudonyms only: guessing real names learns nothing.
+  const near = spec.includes("anon-") ? suggestFoci(index, spec, pseudonymView(index, key)) : [];
+  return new EspalierError(
+    "FOCUS_NO_MATCH",
+    `focus ${k + 1} of ${n} matches no node (not repeated here: --pseudonymize is on)${didYouMean(near)}`,
+  );
+}
+
+function didYouMean(near: readonly string[]): string {
+  if (near.length === 0) return "";
+  const quoted = near.map((s) => JSON.stringify(s));
+  const list =
+    quoted.length === 1 ? quoted[0] : `${quoted.slice(0, -1).join(", ")} or ${quoted[quoted.length - 1]}`;
+  return `; did you mean ${list}?`;
+}
+
+/** The tree as printed with pseudonyms: what a user of --pseudonymize has seen. */
+function pseudonymView(index: PathIndex, key: string): SuggestView {
+  const { tree } = index;
+  const base = (j: number) => escapeSegment(pseudonym(key, tree.name.get(j)));
+  return {
+    segment: base,
+    id: (i) => {
+      const id = tree.ids?.get(i);
+      return id ? pseudonym(key, id) : null;
+    },
+    path: (i) => index.path(i, base),
+    realNames: false,
+  };
 }
