@@ -14,6 +14,7 @@ import { DIFF_EXAMPLES } from "./diff-help.js";
 import { type DiffCliOptions, diffOptionsSchema } from "./diff-options.js";
 import { effectiveOptions, printConfig } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
+import { hidingInput } from "./hide-input.js";
 import type { CliIO } from "./io.js";
 import { PSEUDONYM_KEY_ENV } from "./options.js";
 import { withProgress } from "./progress.js";
@@ -86,6 +87,17 @@ export async function diffCommand(
 ): Promise<CommandOutput> {
   if (oldInput === "-" && newInput === "-")
     throw new EspalierError("USAGE", "only one of the two versions can come from standard input");
+  const key = pseudonymKey(opts, io);
+  return hidingInput(key, () => diffOf(oldInput, newInput, opts, io, key));
+}
+
+async function diffOf(
+  oldInput: string,
+  newInput: string,
+  opts: DiffCliOptions,
+  io: CliIO,
+  key: string | undefined,
+): Promise<CommandOutput> {
   const foci = [...opts.focus];
   if (opts.focusFrom !== undefined) {
     if (opts.focusFrom === "-" && (oldInput === "-" || newInput === "-"))
@@ -93,7 +105,6 @@ export async function diffCommand(
     const text = await readInput(io, opts.focusFrom);
     foci.push(...text.split(/\r?\n/).filter((line) => line !== ""));
   }
-  const key = pseudonymKey(opts, io);
   const newOptions = toLoadOptions(newInput, opts);
   // Both versions get the same synthetic root name, so that it never shows as a change.
   const oldOptions = { ...toLoadOptions(oldInput, opts), rootName: newOptions.rootName };

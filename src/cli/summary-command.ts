@@ -10,6 +10,7 @@ import { renderText } from "../render/text.js";
 import type { Units } from "../render/units.js";
 import { prepare, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
+import { hidingInput } from "./hide-input.js";
 import type { CliIO } from "./io.js";
 import { DEFAULT_BUDGET, PSEUDONYM_KEY_ENV, type SummaryCliOptions } from "./options.js";
 import { withProgress } from "./progress.js";
@@ -18,9 +19,18 @@ import { readInputStream } from "./read-input-stream.js";
 
 /** Reads, summarises and renders one input; returns the text to print (nothing is printed here). */
 export async function summaryCommand(input: string, opts: SummaryCliOptions, io: CliIO): Promise<string> {
+  const key = pseudonymKey(opts, io);
+  return hidingInput(key, () => summaryOf(input, opts, io, key));
+}
+
+async function summaryOf(
+  input: string,
+  opts: SummaryCliOptions,
+  io: CliIO,
+  key: string | undefined,
+): Promise<string> {
   const foci = [...opts.focus];
   if (opts.focusFrom !== undefined) foci.push(...(await readFociFile(io, opts.focusFrom, input)));
-  const key = pseudonymKey(opts, io);
   const loadOptions = toLoadOptions(input, opts);
   const source = await readInputStream(io, input);
   let tree: Tree;

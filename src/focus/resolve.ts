@@ -1,4 +1,4 @@
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 import { indexOfName } from "../model/names.js";
 import type { PathIndex } from "../model/paths.js";
 import { pseudonym } from "../model/pseudonym.js";
@@ -92,7 +92,7 @@ function noMatch(
     const near = suggestFoci(index, spec, realView(index));
     return new EspalierError(
       "FOCUS_NO_MATCH",
-      `focus ${JSON.stringify(spec)} matches no node${didYouMean(near)}`,
+      say`focus ${quoted.value(spec)} matches no node${didYouMean(near)}`,
     );
   }
   // Only a typed pseudonym is compared, with pseudonyms only: guessing real names learns nothing.

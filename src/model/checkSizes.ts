@@ -1,4 +1,4 @@
-import { EspalierError, type SourcePos } from "../errors.js";
+import { EspalierError, type MessagePart, quoted, type SourcePos } from "../errors.js";
 import type { LinkedNodes } from "./build.js";
 import type { Names } from "./names.js";
 
@@ -20,7 +20,7 @@ export function checkSizes(input: LinkedNodes & { name: Names }, file?: string):
     if (!(size >= 0 && size <= MAX_SIZE)) {
       throw new EspalierError(
         "BAD_SIZE",
-        `the size of ${where(input, i)} must be a number from 0 to 2^53 - 1, got ${size}`,
+        ["the size of ", where(input, i), ` must be a number from 0 to 2^53 - 1, got ${size}`],
         position(input, i, file),
       );
     }
@@ -32,18 +32,21 @@ export function checkSizes(input: LinkedNodes & { name: Names }, file?: string):
     if (total > MAX_SIZE) {
       throw new EspalierError(
         "BAD_SIZE",
-        `the sizes add up to more than 2^53 - 1 (${MAX_SIZE}) by ${where(input, i)}; ` +
-          "totals beyond that cannot be exact",
+        [
+          `the sizes add up to more than 2^53 - 1 (${MAX_SIZE}) by `,
+          where(input, i),
+          "; totals beyond that cannot be exact",
+        ],
         position(input, i, file),
       );
     }
   }
 }
 
-function where(input: LinkedNodes & { name: Names }, i: number): string {
+function where(input: LinkedNodes & { name: Names }, i: number): MessagePart {
   const at = input.origin[i];
   if (at > 0) return `${input.originIsRow ? "row" : "line"} ${at}`;
-  return `node ${JSON.stringify(input.name.get(i))}`;
+  return quoted.name(input.name.get(i));
 }
 
 function position(input: LinkedNodes, i: number, file: string | undefined): SourcePos | undefined {
