@@ -5,7 +5,7 @@ import { type Interest, interest } from "./interest/doi.js";
 import { type Importance, importance } from "./interest/importance.js";
 import { childrenByDepthOrder, nodeOrder } from "./interest/order.js";
 import { type Measures, measure } from "./model/measure.js";
-import { NAME_TABLE_MIN, PathIndex } from "./model/paths.js";
+import { NAME_TABLE_MIN, PathIndex } from "./model/path-index.js";
 import { hiddenIds, pseudonym } from "./model/pseudonym.js";
 import { escapeSegment } from "./model/segment.js";
 import type { Tree } from "./model/tree.js";

@@ -1,4 +1,4 @@
-import type { LoadOptions } from "../load/types.js";
+import type { LoadOptions } from "../load/load-options.js";
 import type { Tree } from "../model/tree.js";
 import type { OutputFiles } from "./write-output.js";
 

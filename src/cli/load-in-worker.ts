@@ -1,6 +1,6 @@
 import { Worker } from "node:worker_threads";
 import { EspalierError, type EspalierErrorData } from "../errors.js";
-import type { LoadOptions } from "../load/types.js";
+import type { LoadOptions } from "../load/load-options.js";
 import type { Tree } from "../model/tree.js";
 import { type TreeMessage, treeFromMessage } from "../model/tree-message.js";
 

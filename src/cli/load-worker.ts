@@ -3,8 +3,8 @@
 import { readFile } from "node:fs/promises";
 import { parentPort, workerData } from "node:worker_threads";
 import { EspalierError } from "../errors.js";
+import type { LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
-import type { LoadOptions } from "../load/types.js";
 import { treeToMessage } from "../model/tree-message.js";
 import type { CliIO } from "./io.js";
 import { openFile } from "./open-file.js";

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { importances } from "../interest/importance.js";
-import { inputFormats } from "../load/types.js";
+import { inputFormats } from "../load/load-options.js";
 
 /** Output formats of a summary. */
 export const outputFormats = ["text", "json", "markdown", "svg"] as const;

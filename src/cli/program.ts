@@ -1,7 +1,7 @@
 import { Command, Option } from "commander";
 import { EspalierError } from "../errors.js";
 import { importances } from "../interest/importance.js";
-import { inputFormats } from "../load/types.js";
+import { inputFormats } from "../load/load-options.js";
 import { addDiffCommand } from "./diff-command.js";
 import { effectiveOptions, printConfig, requireInput } from "./effective-options.js";
 import { SUMMARY_EXAMPLES } from "./help.js";

@@ -1,6 +1,6 @@
 import { EspalierError } from "../errors.js";
+import { defaultLoadOptions, type LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
-import { defaultLoadOptions, type LoadOptions } from "../load/types.js";
 import type { Tree } from "../model/tree.js";
 import { renderJson } from "../render/json.js";
 import { renderMarkdown } from "../render/markdown.js";

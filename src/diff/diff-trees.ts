@@ -3,7 +3,7 @@ import { type Selection, select } from "../fit/select.js";
 import { resolveFoci } from "../focus/resolve.js";
 import { type Importance, importance } from "../interest/importance.js";
 import { type Measures, measure } from "../model/measure.js";
-import { PathIndex } from "../model/paths.js";
+import { PathIndex } from "../model/path-index.js";
 import { hiddenIds, pseudonym } from "../model/pseudonym.js";
 import { escapeSegment } from "../model/segment.js";
 import type { Tree } from "../model/tree.js";

@@ -1,6 +1,6 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import type { Selection } from "../fit/select.js";
-import type { PathIndex } from "../model/paths.js";
+import type { PathIndex } from "../model/path-index.js";
 import { buildView, type Labeller } from "../view/build-view.js";
 import { hierarchyOf } from "../view/hierarchy-of.js";
 import type { Folded, ViewNode } from "../view/view-node.js";

@@ -1,6 +1,6 @@
 import { EspalierError, quoted, say } from "../errors.js";
 import { indexOfName } from "../model/names.js";
-import type { PathIndex } from "../model/paths.js";
+import type { PathIndex } from "../model/path-index.js";
 import { pseudonym } from "../model/pseudonym.js";
 import { escapeSegment, parseSegment, splitPath } from "../model/segment.js";
 import { isGlob, matchGlob } from "./glob.js";

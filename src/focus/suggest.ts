@@ -1,4 +1,4 @@
-import type { PathIndex } from "../model/paths.js";
+import type { PathIndex } from "../model/path-index.js";
 import { escapeSegment, parseSegment, splitPath } from "../model/segment.js";
 import { boundedDistance, distanceWork, MAX_DISTANCE_TEXT } from "./bounded-distance.js";
 

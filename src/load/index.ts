@@ -1,16 +1,16 @@
 import { EspalierError } from "../errors.js";
-import { buildTree } from "../model/build.js";
+import { buildTree } from "../model/build-tree.js";
 import type { Tree } from "../model/tree.js";
-import { detectFormat } from "./detect.js";
-import { loadJson } from "./json.js";
-import { linkTable } from "./link.js";
-import { loadPaths } from "./paths.js";
+import { detectFormat } from "./detect-format.js";
+import { linkTable } from "./link-table.js";
+import { loadJson } from "./load-json.js";
+import type { LoadOptions } from "./load-options.js";
+import { loadPathList } from "./load-path-list.js";
+import { loadYaml } from "./load-yaml.js";
 import { csvTable } from "./table.js";
-import type { LoadOptions } from "./types.js";
-import { loadYaml } from "./yaml.js";
 
-export { detectFormat } from "./detect.js";
-export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } from "./types.js";
+export { detectFormat } from "./detect-format.js";
+export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } from "./load-options.js";
 
 /**
  * Reads already-decoded text into a {@link Tree}: strips a leading byte order mark, detects the format
@@ -43,6 +43,6 @@ function linkedNodes(body: string, format: LoadOptions["format"] & string, optio
     case "tsv":
       return linkTable(csvTable(body, "\t", options.maxNodes), options);
     case "paths":
-      return loadPaths(body, options);
+      return loadPathList(body, options);
   }
 }

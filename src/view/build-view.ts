@@ -1,7 +1,7 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import type { Selection } from "../fit/select.js";
 import type { Interest } from "../interest/doi.js";
-import type { PathIndex } from "../model/paths.js";
+import type { PathIndex } from "../model/path-index.js";
 import { hierarchyOf } from "./hierarchy-of.js";
 import type { ViewNode } from "./view-node.js";
 

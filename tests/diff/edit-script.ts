@@ -1,5 +1,5 @@
 import fc from "fast-check";
-import { buildTree } from "../../src/model/build.js";
+import { buildTree } from "../../src/model/build-tree.js";
 import { StringNames } from "../../src/model/names.js";
 import type { Tree } from "../../src/model/tree.js";
 import { arbTree } from "../helpers/random-tree.js";

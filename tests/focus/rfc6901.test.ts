@@ -1,8 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { resolveFoci, resolvePath } from "../../src/focus/resolve.js";
-import { buildTree } from "../../src/model/build.js";
+import { buildTree } from "../../src/model/build-tree.js";
 import { measure } from "../../src/model/measure.js";
-import { PathIndex } from "../../src/model/paths.js";
+import { PathIndex } from "../../src/model/path-index.js";
 
 // Source: RFC 6901 (JSON Pointer), section 5. The example document's members become nodes; each
 // member's value (0..8) is kept as the node's size so the test can check the node the RFC names.

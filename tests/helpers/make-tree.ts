@@ -1,4 +1,4 @@
-import { buildTree } from "../../src/model/build.js";
+import { buildTree } from "../../src/model/build-tree.js";
 import { namesToArray } from "../../src/model/names.js";
 import type { Tree } from "../../src/model/tree.js";
 

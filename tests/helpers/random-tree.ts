@@ -1,5 +1,5 @@
 import fc from "fast-check";
-import { buildTree } from "../../src/model/build.js";
+import { buildTree } from "../../src/model/build-tree.js";
 import type { Tree } from "../../src/model/tree.js";
 
 /** Random trees: each node after the first picks an earlier node as parent; names repeat on purpose. */

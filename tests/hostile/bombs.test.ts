@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import type { InputFormat } from "../../src/load/types.js";
+import type { InputFormat } from "../../src/load/load-options.js";
 import { cli } from "../helpers/cli.js";
 import { oneErrorLine } from "./error-line.js";
 

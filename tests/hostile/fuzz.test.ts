@@ -3,13 +3,13 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { EspalierError } from "../../src/errors.js";
 import { loadTree } from "../../src/load/index.js";
-import { loadTreeFromStream } from "../../src/load/stream/index.js";
 import {
   defaultLoadOptions,
   type InputFormat,
   inputFormats,
   type LoadOptions,
-} from "../../src/load/types.js";
+} from "../../src/load/load-options.js";
+import { loadTreeFromStream } from "../../src/load/stream/index.js";
 import type { Tree } from "../../src/model/tree.js";
 import { renderJson } from "../../src/render/json.js";
 import { renderMarkdown } from "../../src/render/markdown.js";

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { loadTree } from "../../src/load/index.js";
-import type { InputFormat } from "../../src/load/types.js";
+import type { InputFormat } from "../../src/load/load-options.js";
 import { measure } from "../../src/model/measure.js";
 import { cli } from "../helpers/cli.js";
 import { caught, opts } from "../load/helpers.js";

@@ -1,5 +1,5 @@
 import { EspalierError } from "../../src/errors.js";
-import { defaultLoadOptions, type LoadOptions } from "../../src/load/types.js";
+import { defaultLoadOptions, type LoadOptions } from "../../src/load/load-options.js";
 import type { Tree } from "../../src/model/tree.js";
 
 /** Default load options with some replaced. */

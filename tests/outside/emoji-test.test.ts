@@ -2,7 +2,7 @@ import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 import { loadTree } from "../../src/load/index.js";
-import { defaultLoadOptions } from "../../src/load/types.js";
+import { defaultLoadOptions } from "../../src/load/load-options.js";
 import { type Measures, measure } from "../../src/model/measure.js";
 import type { Tree } from "../../src/model/tree.js";
 

@@ -4,7 +4,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { loadTree } from "../../src/load/index.js";
-import { defaultLoadOptions } from "../../src/load/types.js";
+import { defaultLoadOptions } from "../../src/load/load-options.js";
 import { type Measures, measure } from "../../src/model/measure.js";
 import type { Tree } from "../../src/model/tree.js";
 

@@ -4,7 +4,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { diffTrees } from "../../src/diff/diff-trees.js";
 import { EspalierError } from "../../src/errors.js";
-import { buildTree } from "../../src/model/build.js";
+import { buildTree } from "../../src/model/build-tree.js";
 import type { Tree } from "../../src/model/tree.js";
 import { renderDiffJson, toDiffSummary } from "../../src/render/diff-json.js";
 import { diffJsonSchema } from "../../src/render/diff-json-schema.js";

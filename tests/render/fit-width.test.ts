@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { measure } from "../../src/model/measure.js";
-import { PathIndex } from "../../src/model/paths.js";
+import { PathIndex } from "../../src/model/path-index.js";
 import { displayWidth, ELLIPSIS, shortenEnd, shortenMiddle } from "../../src/render/fit-width.js";
 import { renderText } from "../../src/render/text.js";
 import { prepare, summarize } from "../../src/summarize.js";

@@ -3,7 +3,7 @@ import Ajv2020 from "ajv/dist/2020.js";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { measure } from "../../src/model/measure.js";
-import { PathIndex } from "../../src/model/paths.js";
+import { PathIndex } from "../../src/model/path-index.js";
 import { summaryJsonSchema } from "../../src/render/summary-json-schema.js";
 import { SUMMARY_FORMAT, summarySchema } from "../../src/render/summary-schema.js";
 import { makeTree } from "../helpers/make-tree.js";

@@ -1,7 +1,7 @@
 import { Parser } from "commonmark";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { buildTree } from "../../src/model/build.js";
+import { buildTree } from "../../src/model/build-tree.js";
 import { shownLabel } from "../../src/render/escape.js";
 import { markdownText, renderMarkdown } from "../../src/render/markdown.js";
 import { renderText } from "../../src/render/text.js";

@@ -3,7 +3,7 @@ import type { HierarchyNode } from "d3-hierarchy";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { diffTrees } from "../../src/diff/diff-trees.js";
-import { buildTree } from "../../src/model/build.js";
+import { buildTree } from "../../src/model/build-tree.js";
 import type { Tree } from "../../src/model/tree.js";
 import { displayWidth } from "../../src/render/fit-width.js";
 import { renderSvg, type SvgOptions } from "../../src/render/svg.js";

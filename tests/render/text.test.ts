@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { buildTree } from "../../src/model/build.js";
+import { buildTree } from "../../src/model/build-tree.js";
 import { measure } from "../../src/model/measure.js";
 import { MARK } from "../../src/render/text.js";
 import { makeTree } from "../helpers/make-tree.js";

@@ -1,15 +1,16 @@
 import { Buffer, constants } from "node:buffer";
 import { EspalierError } from "../../errors.js";
-import { buildTree, type LinkedNodes } from "../../model/build.js";
+import { buildTree } from "../../model/build-tree.js";
+import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { Tree } from "../../model/tree.js";
-import { detectFormat } from "../detect.js";
-import { linkTable } from "../link.js";
-import type { InputFormat, LoadOptions } from "../types.js";
-import { loadYaml } from "../yaml.js";
-import { csvStreamTable } from "./csvStreamTable.js";
-import { JsonStreamLoader } from "./jsonStreamLoader.js";
-import { pathListStream } from "./pathListStream.js";
-import { readStart } from "./prefix.js";
+import { detectFormat } from "../detect-format.js";
+import { linkTable } from "../link-table.js";
+import type { InputFormat, LoadOptions } from "../load-options.js";
+import { loadYaml } from "../load-yaml.js";
+import { csvStreamTable } from "./csv-stream-table.js";
+import { JsonStreamLoader } from "./json-stream-loader.js";
+import { pathListStream } from "./path-list-stream.js";
+import { readStart } from "./read-start.js";
 
 /**
  * Reads a byte stream into a {@link Tree}, never holding the input as one string: the streaming

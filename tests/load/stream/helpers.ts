@@ -1,8 +1,8 @@
 import { expect } from "vitest";
 import { EspalierError } from "../../../src/errors.js";
 import { loadTree } from "../../../src/load/index.js";
+import type { LoadOptions } from "../../../src/load/load-options.js";
 import { loadTreeFromStream } from "../../../src/load/stream/index.js";
-import type { LoadOptions } from "../../../src/load/types.js";
 import type { Tree } from "../../../src/model/tree.js";
 import { prepare } from "../../../src/summarize.js";
 import { summaryOf } from "../../helpers/summary.js";

@@ -1,10 +1,10 @@
 import { Buffer, isUtf8 } from "node:buffer";
 import { EspalierError } from "../errors.js";
-import type { LinkedNodes } from "../model/build.js";
 import { ChildTable, doubled, hashStep, mix, seed } from "../model/child-hash.js";
-import { NodeSink } from "./nodeSink.js";
-import { parseSize } from "./size.js";
-import type { LoadOptions } from "./types.js";
+import type { LinkedNodes } from "../model/linked-nodes.js";
+import type { LoadOptions } from "./load-options.js";
+import { NodeSink } from "./node-sink.js";
+import { parseSize } from "./parse-size.js";
 
 const newline = 10;
 const cr = 13;
@@ -130,7 +130,7 @@ export class PathListByteReader {
   }
 
   /**
-   * The node named by the path `bytes[start, end)`, as PathIndex.place finds it in text: the walk starts
+   * The node named by the path `bytes[start, end)`, as PathPlacer.place finds it in text: the walk starts
    * from the deepest node of the previous path whose whole path is a prefix of this one.
    */
   private place(bytes: Buffer, view: DataView, start: number, end: number, origin: number): number {

@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { csvStreamTable } from "../../../src/load/stream/csvStreamTable.js";
+import { csvStreamTable } from "../../../src/load/stream/csv-stream-table.js";
 import { opts } from "../helpers.js";
 import {
   awkwardAt,

@@ -1,9 +1,9 @@
 import { EspalierError, type SourcePos } from "../errors.js";
-import type { LinkedNodes } from "../model/build.js";
-import { describeNode } from "./describeNode.js";
-import { NodeSink } from "./nodeSink.js";
-import { isSize } from "./size.js";
-import type { LoadOptions } from "./types.js";
+import type { LinkedNodes } from "../model/linked-nodes.js";
+import { isSize } from "../model/size-rule.js";
+import { describeNode } from "./describe-node.js";
+import type { LoadOptions } from "./load-options.js";
+import { NodeSink } from "./node-sink.js";
 
 /** What a value in a parsed document is, as far as the walker cares. */
 export const Kind = { Null: 0, Number: 1, String: 2, Boolean: 3, Seq: 4, Map: 5, Other: 6 } as const;

@@ -1,7 +1,7 @@
 import { Buffer } from "node:buffer";
-import type { LinkedNodes } from "../../model/build.js";
-import { PathListByteReader } from "../pathListByteReader.js";
-import type { LoadOptions } from "../types.js";
+import type { LinkedNodes } from "../../model/linked-nodes.js";
+import type { LoadOptions } from "../load-options.js";
+import { PathListByteReader } from "../path-list-byte-reader.js";
 
 /**
  * A path list read from a byte stream: each chunk's whole lines go to {@link PathListByteReader} as they

@@ -1,6 +1,6 @@
 import { EspalierError } from "../errors.js";
 import { ChildTable, doubled, hashStep, mix, seed } from "../model/child-hash.js";
-import type { NodeSink } from "./nodeSink.js";
+import type { NodeSink } from "./node-sink.js";
 
 const slash = 47;
 
@@ -14,7 +14,7 @@ const slash = 47;
  * Listings put related paths next to each other, so the walk starts from the deepest ancestor shared
  * with the previous path, usually leaving one lookup per path.
  */
-export class PathIndex {
+export class PathPlacer {
   private readonly table = new ChildTable();
   // Each node's own segment, the name it is found by (a table may relabel the node in the sink).
   private readonly keys: string[] = [];

@@ -1,6 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { buildTree, type LinkedNodes } from "../../src/model/build.js";
+import { buildTree } from "../../src/model/build-tree.js";
+import type { LinkedNodes } from "../../src/model/linked-nodes.js";
 
 /** Nodes of a random tree listed in pre-order, and the same nodes breadth-first. */
 const arbOrders = fc

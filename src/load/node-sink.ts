@@ -1,5 +1,5 @@
 import { EspalierError } from "../errors.js";
-import type { LinkedNodes } from "../model/build.js";
+import type { LinkedNodes } from "../model/linked-nodes.js";
 import { NamePool } from "../model/names.js";
 
 /**

@@ -1,12 +1,12 @@
 import { EspalierError } from "../errors.js";
-import type { LinkedNodes } from "../model/build.js";
-import { jsonErrorOffset } from "./jsonErrorOffset.js";
-import { lineColumnAt } from "./lineColumn.js";
-import { linkTable } from "./link.js";
-import { Kind, type NestedAccess, walkNested } from "./nested.js";
-import { isRowsValue } from "./rowsShape.js";
+import type { LinkedNodes } from "../model/linked-nodes.js";
+import { jsonErrorOffset } from "./json-error-offset.js";
+import { lineColumnAt } from "./line-column.js";
+import { linkTable } from "./link-table.js";
+import type { LoadOptions } from "./load-options.js";
+import { isRowsValue } from "./rows-shape.js";
 import { rowsTable } from "./table.js";
-import type { LoadOptions } from "./types.js";
+import { Kind, type NestedAccess, walkNested } from "./walk-nested.js";
 
 /**
  * Loads JSON text: nested nodes, or rows (a top-level array of flat records) when `as` says so or, with

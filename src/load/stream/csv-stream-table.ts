@@ -1,8 +1,8 @@
 import { parse } from "csv-parse";
 import { EspalierError } from "../../errors.js";
 import { NamePool, namesToArray } from "../../model/names.js";
+import type { LoadOptions } from "../load-options.js";
 import type { Table } from "../table.js";
-import type { LoadOptions } from "../types.js";
 
 type Fields = Pick<
   LoadOptions,

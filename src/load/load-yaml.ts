@@ -10,9 +10,9 @@ import {
   visit,
 } from "yaml";
 import { EspalierError } from "../errors.js";
-import type { LinkedNodes } from "../model/build.js";
-import { Kind, type NestedAccess, walkNested } from "./nested.js";
-import type { LoadOptions } from "./types.js";
+import type { LinkedNodes } from "../model/linked-nodes.js";
+import type { LoadOptions } from "./load-options.js";
+import { Kind, type NestedAccess, walkNested } from "./walk-nested.js";
 
 type YamlValue = Node | null;
 

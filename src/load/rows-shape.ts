@@ -1,4 +1,4 @@
-import type { LoadOptions } from "./types.js";
+import type { LoadOptions } from "./load-options.js";
 
 type FieldNames = Pick<LoadOptions, "childrenField" | "idField" | "parentField" | "pathField">;
 

@@ -1,3 +1,5 @@
+import { isSize } from "../model/size-rule.js";
+
 // A plain decimal number: digits with an optional fraction and exponent; "+" allowed, no "-", hex or "Infinity".
 const decimal = /^\+?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 
@@ -23,13 +25,4 @@ export function parseSize(text: string): number {
   if (!decimal.test(s)) return Number.NaN;
   const value = Number(s);
   return isSize(value) ? value : Number.NaN;
-}
-
-/**
- * Whether a number is a size: from 0 to 2^53 - 1 (ECMA-262 Number.MAX_SAFE_INTEGER). Beyond that a
- * double no longer holds every whole number, so totals could be silently rounded; NaN and infinities
- * are no sizes. Every loader rejects anything else with BAD_SIZE at the size's position.
- */
-export function isSize(value: number): boolean {
-  return value >= 0 && value <= Number.MAX_SAFE_INTEGER;
 }

@@ -1,5 +1,5 @@
 import type { Names } from "../model/names.js";
-import { nodePath } from "./nodePath.js";
+import { nodePath } from "./node-path.js";
 
 /** `node "a/b"`, or for a nameless node its place among its siblings: for messages about node `i`. */
 export function describeNode(parentOf: ArrayLike<number>, name: Names, i: number): string {

@@ -1,15 +1,15 @@
 import { Buffer } from "node:buffer";
 import { EspalierError, type SourcePos } from "../../errors.js";
-import type { LinkedNodes } from "../../model/build.js";
-import { describeNode } from "../describeNode.js";
-import { linkTable } from "../link.js";
-import { NodeSink } from "../nodeSink.js";
-import { isRowsValue } from "../rowsShape.js";
-import { isSize } from "../size.js";
+import type { LinkedNodes } from "../../model/linked-nodes.js";
+import { isSize } from "../../model/size-rule.js";
+import { describeNode } from "../describe-node.js";
+import { linkTable } from "../link-table.js";
+import type { LoadOptions } from "../load-options.js";
+import { NodeSink } from "../node-sink.js";
+import { isRowsValue } from "../rows-shape.js";
 import { rowsTable } from "../table.js";
-import type { LoadOptions } from "../types.js";
-import { ByteBuffer } from "./byteBuffer.js";
-import { isArrayIndexKey, reorderKeyedChildren } from "./keyedOrder.js";
+import { ByteBuffer } from "./byte-buffer.js";
+import { isArrayIndexKey, reorderKeyedChildren } from "./keyed-order.js";
 
 // What may come next.
 const VALUE = 0;

@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { parseSize } from "../../src/load/size.js";
+import { parseSize } from "../../src/load/parse-size.js";
 
 describe("parseSize(text)", () => {
   it("parseSize(text) reads plain decimal numbers and treats an empty cell as 0", () => {

@@ -1,12 +1,13 @@
 import { EspalierError } from "../errors.js";
-import type { LinkedNodes } from "../model/build.js";
+import type { LinkedNodes } from "../model/linked-nodes.js";
 import { copyName, isEmptyName, NamePool } from "../model/names.js";
-import { IdIndex } from "./idIndex.js";
-import { limitExceeded, NodeSink } from "./nodeSink.js";
-import { PathIndex } from "./pathIndex.js";
-import { isSize, parseSize } from "./size.js";
+import { isSize } from "../model/size-rule.js";
+import { IdIndex } from "./id-index.js";
+import type { LoadOptions } from "./load-options.js";
+import { limitExceeded, NodeSink } from "./node-sink.js";
+import { parseSize } from "./parse-size.js";
+import { PathPlacer } from "./path-placer.js";
 import type { Cell, Table } from "./table.js";
-import type { LoadOptions } from "./types.js";
 
 /**
  * Links table rows into nodes: by id and parent columns when the table has both (an empty parent makes a
@@ -115,7 +116,7 @@ function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptio
   const names = table.column(options.nameField);
   const sizes = table.column(options.sizeField);
   const sink = new NodeSink(options.maxNodes, true);
-  const index = new PathIndex(sink);
+  const index = new PathPlacer(sink);
   // Kept values by row, spread over nodes at the end (implicit ancestors keep "").
   const nodeOfRow = new Int32Array(n);
   for (let r = 0; r < n; r++) {

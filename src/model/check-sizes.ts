@@ -1,9 +1,7 @@
 import { EspalierError, type MessagePart, quoted, type SourcePos } from "../errors.js";
-import type { LinkedNodes } from "./build.js";
+import type { LinkedNodes } from "./linked-nodes.js";
 import type { Names } from "./names.js";
-
-/** The largest size, and the largest total, espalier accepts: 2^53 − 1 (ECMA-262 Number.MAX_SAFE_INTEGER). */
-export const MAX_SIZE = Number.MAX_SAFE_INTEGER;
+import { isSize, MAX_SIZE } from "./size-rule.js";
 
 /**
  * Checks the own sizes of linked nodes in input order: each must be a number from 0 to 2^53 − 1, and so
@@ -17,7 +15,7 @@ export function checkSizes(input: LinkedNodes & { name: Names }, file?: string):
   let total = 0;
   for (let i = 0; i < ownSize.length; i++) {
     const size = ownSize[i];
-    if (!(size >= 0 && size <= MAX_SIZE)) {
+    if (!isSize(size)) {
       throw new EspalierError(
         "BAD_SIZE",
         ["the size of ", where(input, i), ` must be a number from 0 to 2^53 - 1, got ${size}`],

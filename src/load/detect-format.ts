@@ -1,6 +1,6 @@
 import { EspalierError } from "../errors.js";
-import { isRowsValue } from "./rowsShape.js";
-import { defaultLoadOptions, type InputFormat, type LoadOptions } from "./types.js";
+import { defaultLoadOptions, type InputFormat, type LoadOptions } from "./load-options.js";
+import { isRowsValue } from "./rows-shape.js";
 
 type FieldNames = Pick<LoadOptions, "childrenField" | "idField" | "parentField" | "pathField">;
 

@@ -1,4 +1,4 @@
-import type { NodeSink } from "../nodeSink.js";
+import type { NodeSink } from "../node-sink.js";
 
 /**
  * Puts the children of a children-by-name object in the order JSON.parse gives its keys, so a streaming

@@ -1,9 +1,9 @@
 import { EspalierError } from "../errors.js";
-import type { LinkedNodes } from "../model/build.js";
-import { NodeSink } from "./nodeSink.js";
-import { PathIndex } from "./pathIndex.js";
-import { parseSize } from "./size.js";
-import type { LoadOptions } from "./types.js";
+import type { LinkedNodes } from "../model/linked-nodes.js";
+import type { LoadOptions } from "./load-options.js";
+import { NodeSink } from "./node-sink.js";
+import { parseSize } from "./parse-size.js";
+import { PathPlacer } from "./path-placer.js";
 
 /**
  * Reads a path list a line at a time: one "/"-separated path per line, blank lines ignored. When the first
@@ -14,14 +14,14 @@ import type { LoadOptions } from "./types.js";
  */
 export class PathListReader {
   private readonly sink: NodeSink;
-  private readonly index: PathIndex;
+  private readonly index: PathPlacer;
   private sized: boolean | undefined;
   private firstLine = 0;
   private line = 0;
 
   constructor(options: LoadOptions) {
     this.sink = new NodeSink(options.maxNodes, false);
-    this.index = new PathIndex(this.sink);
+    this.index = new PathPlacer(this.sink);
   }
 
   /**

@@ -1,0 +1,19 @@
+import type { NamePool } from "./names.js";
+
+/** Nodes as a loader found them: any order, each linked to its parent by index. */
+export interface LinkedNodes {
+  /** Parent index among these nodes, or -1 for a top-level node. */
+  parentOf: Int32Array;
+  /** Names, one per node: a pool (as loaders fill it) or plain strings. */
+  name: NamePool | readonly string[];
+  ownSize: Float64Array;
+  hasSizes: boolean;
+  /** Row ids, one per node, pooled or plain; null when rows are not linked by id. */
+  ids: NamePool | readonly string[] | null;
+  /** 1-based line or row of each node. */
+  origin: Int32Array;
+  originIsRow: boolean;
+  fields: Map<string, string[]>;
+  /** Name of the root espalier adds when there are several top-level nodes (or none). */
+  rootName: string;
+}
