@@ -60,11 +60,16 @@ export const quoted = {
   excerpt: (text: string): InputText => ({ kind: "excerpt", text }),
 };
 
-/** A message from a template: `` say`row ${3} repeats the id ${quoted.id(x)}` ``; other values print as text. */
+/**
+ * A message from a template: `` say`row ${3} repeats the id ${quoted.id(x)}` ``. A value may be input
+ * text, an array of message parts (a message built elsewhere), or anything else, printed as text.
+ */
 export function say(strings: TemplateStringsArray, ...values: unknown[]): MessagePart[] {
   const parts: MessagePart[] = [strings[0]];
   values.forEach((value, k) => {
-    parts.push(isInputText(value) ? value : String(value), strings[k + 1]);
+    if (Array.isArray(value)) for (const v of value) parts.push(isInputText(v) ? v : String(v));
+    else parts.push(isInputText(value) ? value : String(value));
+    parts.push(strings[k + 1]);
   });
   return parts;
 }

@@ -1,4 +1,4 @@
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import { copyName, isEmptyName, NamePool } from "../model/names.js";
 import { isSize } from "../model/size-rule.js";
@@ -52,7 +52,7 @@ function linkById(
     if (earlier !== -1) {
       throw new EspalierError(
         "DUPLICATE_ID",
-        `row ${r + 1} repeats the ${options.idField} ${JSON.stringify(id)} of row ${earlier + 1}`,
+        say`row ${r + 1} repeats the ${options.idField} ${quoted.id(id)} of row ${earlier + 1}`,
         { row: r + 1 },
       );
     }
@@ -74,7 +74,7 @@ function linkById(
       if (p === -1) {
         throw new EspalierError(
           "MISSING_PARENT",
-          `row ${r + 1} names the ${options.parentField} ${JSON.stringify(cellText(parentId))}, which no row has as its ${options.idField}`,
+          say`row ${r + 1} names the ${options.parentField} ${quoted.id(cellText(parentId))}, which no row has as its ${options.idField}`,
           { row: r + 1 },
         );
       }
@@ -163,7 +163,7 @@ function sizeOf(cell: Cell, textCells: boolean, row: number, field: string): num
   if (isSize(value)) return value;
   throw new EspalierError(
     "BAD_SIZE",
-    `the "${field}" of row ${row} must be a number from 0 to 2^53 - 1, got ${JSON.stringify(cell)}`,
+    say`the "${field}" of row ${row} must be a number from 0 to 2^53 - 1, got ${quoted.value(typeof cell === "string" ? cell : JSON.stringify(cell))}`,
     { row },
   );
 }

@@ -1,4 +1,4 @@
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import { jsonErrorOffset } from "./json-error-offset.js";
 import { lineColumnAt } from "./line-column.js";
@@ -37,7 +37,11 @@ function parseJson(text: string): unknown {
     const reason = error.message
       .replace(/ in JSON at position \d+.*$/s, "")
       .replace(/, ".*" is not valid JSON$/s, "");
-    throw new EspalierError("PARSE_JSON", `invalid JSON: ${reason}`, lineColumnAt(text, offset));
+    throw new EspalierError(
+      "PARSE_JSON",
+      say`invalid JSON: ${quoted.excerpt(reason)}`,
+      lineColumnAt(text, offset),
+    );
   }
 }
 

@@ -9,7 +9,7 @@ import {
   parseDocument,
   visit,
 } from "yaml";
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { LoadOptions } from "./load-options.js";
 import { Kind, type NestedAccess, walkNested } from "./walk-nested.js";
@@ -45,7 +45,7 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
       );
     }
     const reason = error.message.replace(/ at line \d+, column \d+:.*$/s, "");
-    throw new EspalierError("PARSE_YAML", `invalid YAML: ${reason}`, pos);
+    throw new EspalierError("PARSE_YAML", say`invalid YAML (${error.code}): ${quoted.excerpt(reason)}`, pos);
   }
   const root = doc.contents as YamlValue;
   if (root === null || (isScalar(root) && root.value === null)) {

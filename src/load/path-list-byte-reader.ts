@@ -1,5 +1,5 @@
 import { Buffer, isUtf8 } from "node:buffer";
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 import { ChildTable, doubled, hashStep, mix, seed } from "../model/child-hash.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { LoadOptions } from "./load-options.js";
@@ -113,7 +113,7 @@ export class PathListByteReader {
         if (!(size >= 0)) {
           throw new EspalierError(
             "BAD_SIZE",
-            `the size on line ${line} must be a number from 0 to 2^53 - 1, got ${JSON.stringify(text)}`,
+            say`the size on line ${line} must be a number from 0 to 2^53 - 1, got ${quoted.value(text)}`,
             { line, column: 1 },
           );
         }
@@ -201,10 +201,10 @@ export class PathListByteReader {
     }
     if (!created) {
       if (this.explicit[node] === 1) {
-        const shown = JSON.stringify(bytes.toString("utf8", start, end));
+        const shown = quoted.path(bytes.toString("utf8", start, end));
         throw new EspalierError(
           "DUPLICATE_PATH",
-          `line ${origin} repeats the path ${shown} of line ${sink.origin[node]}`,
+          say`line ${origin} repeats the path ${shown} of line ${sink.origin[node]}`,
           { line: origin },
         );
       }

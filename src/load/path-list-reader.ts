@@ -1,4 +1,4 @@
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { LoadOptions } from "./load-options.js";
 import { NodeSink } from "./node-sink.js";
@@ -70,7 +70,7 @@ export class PathListReader {
       if (!(size >= 0)) {
         throw new EspalierError(
           "BAD_SIZE",
-          `the size on line ${line} must be a number from 0 to 2^53 - 1, got ${JSON.stringify(text.slice(start, tab))}`,
+          say`the size on line ${line} must be a number from 0 to 2^53 - 1, got ${quoted.value(text.slice(start, tab))}`,
           { line, column: 1 },
         );
       }

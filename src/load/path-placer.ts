@@ -1,4 +1,4 @@
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 import { ChildTable, doubled, hashStep, mix, seed } from "../model/child-hash.js";
 import type { NodeSink } from "./node-sink.js";
 
@@ -106,10 +106,10 @@ export class PathPlacer {
     }
     if (!created) {
       if (this.explicit[node] === 1) {
-        const shown = JSON.stringify(text.slice(start, end));
+        const shown = quoted.path(text.slice(start, end));
         throw new EspalierError(
           "DUPLICATE_PATH",
-          `${this.unit} ${origin} repeats the path ${shown} of ${this.unit} ${sink.origin[node]}`,
+          say`${this.unit} ${origin} repeats the path ${shown} of ${this.unit} ${sink.origin[node]}`,
           this.unit === "row" ? { row: origin } : { line: origin },
         );
       }

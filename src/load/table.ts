@@ -1,5 +1,5 @@
 import { parse } from "csv-parse/sync";
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 import type { NamePool } from "../model/names.js";
 
 /** One cell: text from CSV/TSV, any JSON scalar from rows. */
@@ -126,7 +126,11 @@ function csvError(error: Error, text: string, options: object): EspalierError {
   const line = firstNonBlankLineAfter(text, lastEnd);
   const reason = error.message.replace(/\s+(at|on) line \d+.*$/s, "");
   const pos = good > 0 ? { line, row: good } : { line };
-  return new EspalierError("PARSE_CSV", `invalid CSV: ${reason}`, pos);
+  return new EspalierError(
+    "PARSE_CSV",
+    say`invalid CSV (${(error as { code?: string }).code ?? "CSV_ERROR"}): ${quoted.excerpt(reason)}`,
+    pos,
+  );
 }
 
 /** The first line after line `after` (1-based) that holds more than whitespace; or the line after. */

@@ -18,6 +18,8 @@ const UNSAFE =
 // the start of a line, which every layout begins with indentation and a mark instead.
 const CI_MARKER = /##(?:vso)?\[/giu;
 
+const PLAIN = /^[\x20-\x22\x24-\x7e]*$/;
+
 /** Longest label shown, in code points; longer ones keep both ends around a marker. */
 export const MAX_LABEL = 240;
 
@@ -28,6 +30,8 @@ export const MAX_LABEL = 240;
  * the middle.
  */
 export function safeText(text: string, max = MAX_LABEL): string {
+  // Most names are printable ASCII without "#": nothing to escape (one test, no allocation).
+  if (text.length <= max && PLAIN.test(text)) return text;
   let out = text.replace(UNSAFE, escapeUnlessKept).replace(CI_MARKER, (m) => `${m.slice(0, -1)}\\u{5b}`);
   if (out.length > max) {
     const points = Array.from(out);

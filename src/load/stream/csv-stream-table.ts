@@ -1,5 +1,5 @@
 import { parse } from "csv-parse";
-import { EspalierError } from "../../errors.js";
+import { EspalierError, quoted, say } from "../../errors.js";
 import { NamePool, namesToArray } from "../../model/names.js";
 import type { LoadOptions } from "../load-options.js";
 import type { Table } from "../table.js";
@@ -151,7 +151,11 @@ function csvError(error: Error, lastLines: number, lastEmpty: number): EspalierE
   const line = lastLines + 1 + skipped;
   const reason = error.message.replace(/\s+(at|on) line \d+.*$/s, "");
   const pos = good > 0 ? { line, row: good } : { line };
-  return new EspalierError("PARSE_CSV", `invalid CSV: ${reason}`, pos);
+  return new EspalierError(
+    "PARSE_CSV",
+    say`invalid CSV (${(error as { code?: string }).code ?? "CSV_ERROR"}): ${quoted.excerpt(reason)}`,
+    pos,
+  );
 }
 
 function newlines(record: readonly string[]): number {

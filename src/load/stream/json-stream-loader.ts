@@ -1,5 +1,5 @@
 import { Buffer } from "node:buffer";
-import { EspalierError, type SourcePos } from "../../errors.js";
+import { EspalierError, type MessagePart, quoted, type SourcePos, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { isSize } from "../../model/size-rule.js";
 import { describeNode } from "../describe-node.js";
@@ -346,7 +346,7 @@ export class JsonStreamLoader {
             this.word(word, base + i);
             i += k;
           } else {
-            throw this.syntax(base + i, `unexpected ${shown(c)} where a value was expected`);
+            throw this.syntax(base + i, say`unexpected ${shown(c)} where a value was expected`);
           }
           state = this.depth === 0 ? DONE : AFTER;
           continue;
@@ -370,11 +370,11 @@ export class JsonStreamLoader {
             state = this.depth === 0 ? DONE : AFTER;
             continue;
           }
-          throw this.syntax(base + i, `expected a double-quoted property name, found ${shown(c)}`);
+          throw this.syntax(base + i, say`expected a double-quoted property name, found ${shown(c)}`);
         }
         case COLON: {
           if (c !== 0x3a /* : */)
-            throw this.syntax(base + i, `expected ":" after a property name, found ${shown(c)}`);
+            throw this.syntax(base + i, say`expected ":" after a property name, found ${shown(c)}`);
           i++;
           state = VALUE;
           continue;
@@ -399,10 +399,10 @@ export class JsonStreamLoader {
           }
           const what =
             this.isObject[top] === 1 ? '"," or "}" after a property value' : '"," or "]" after an element';
-          throw this.syntax(base + i, `expected ${what}, found ${shown(c)}`);
+          throw this.syntax(base + i, say`expected ${what}, found ${shown(c)}`);
         }
         default:
-          throw this.syntax(base + i, `unexpected ${shown(c)} after the JSON value`);
+          throw this.syntax(base + i, say`unexpected ${shown(c)} after the JSON value`);
       }
     }
     this.state = state;
@@ -593,7 +593,7 @@ export class JsonStreamLoader {
       while (k < e && isDigit(bytes[k])) k++;
       if (k === from) throw this.badNumber(absS + (k - s), k === e);
     }
-    if (k < e) throw this.syntax(absS + (k - s), `unexpected ${shown(bytes[k])} after a number`);
+    if (k < e) throw this.syntax(absS + (k - s), say`unexpected ${shown(bytes[k])} after a number`);
     if (this.slot === S_SKIP) return;
     let value = 0;
     if (integerEnd === e && bytes[s] !== 0x2d && e - s <= 15) {
@@ -642,7 +642,7 @@ export class JsonStreamLoader {
           this.sink.ownSize[j] = value;
           this.sized[j] = 1;
         } else if (kind !== NULL) {
-          throw new EspalierError("SHAPE", `${this.where(j)} must be a node object, a number or null`, {
+          throw new EspalierError("SHAPE", say`${this.where(j)} must be a node object, a number or null`, {
             line: this.line,
             column,
           });
@@ -653,7 +653,7 @@ export class JsonStreamLoader {
       case S_TOP_ITEM: {
         if (this.mode === M_UNDECIDED) this.mode = M_NESTED;
         const j = this.addNode(this.slot === S_CHILD ? this.frames[top].node : -1, "");
-        throw new EspalierError("SHAPE", `${this.where(j)} must be a node object`, {
+        throw new EspalierError("SHAPE", say`${this.where(j)} must be a node object`, {
           line: this.line,
           column,
         });
@@ -761,7 +761,11 @@ export class JsonStreamLoader {
       case S_KEYED: {
         const j = this.keyedChild(top - 1);
         if (!object) {
-          throw new EspalierError("SHAPE", `${this.where(j)} must be a node object, a number or null`, pos);
+          throw new EspalierError(
+            "SHAPE",
+            say`${this.where(j)} must be a node object, a number or null`,
+            pos,
+          );
         }
         role = NODE;
         this.nodeFrame(frame, j, true);
@@ -866,7 +870,7 @@ export class JsonStreamLoader {
     const i = frame.node;
     const { nameField, sizeField, childrenField } = this.options;
     if (!frame.keyed && frame.nameKind === COLLECTION) {
-      throw new EspalierError("SHAPE", `the "${nameField}" of ${this.where(i)} must be text`, {
+      throw new EspalierError("SHAPE", say`the "${nameField}" of ${this.where(i)} must be text`, {
         line: frame.nameLine,
         column: frame.nameColumn,
       });
@@ -880,10 +884,10 @@ export class JsonStreamLoader {
       this.sink.ownSize[i] = size;
       this.sized[i] = 1;
     } else if (sizeKind !== ABSENT && sizeKind !== NULL) {
-      const shownSize = sizeKind === STRING ? JSON.stringify(frame.sizeText) : "a non-number";
+      const shownSize = sizeKind === STRING ? quoted.value(frame.sizeText) : "a non-number";
       throw new EspalierError(
         "BAD_SIZE",
-        `the "${sizeField}" of ${this.where(i)} must be a number from 0 to 2^53 - 1, got ${shownSize}`,
+        say`the "${sizeField}" of ${this.where(i)} must be a number from 0 to 2^53 - 1, got ${shownSize}`,
         { line: frame.sizeLine, column: frame.sizeColumn },
       );
     }
@@ -891,7 +895,7 @@ export class JsonStreamLoader {
     if (childrenKind === STRING || childrenKind === NUMBER || childrenKind === BOOLEAN) {
       throw new EspalierError(
         "SHAPE",
-        `the "${childrenField}" of ${this.where(i)} must be an array or an object keyed by child name`,
+        say`the "${childrenField}" of ${this.where(i)} must be an array or an object keyed by child name`,
         { line: frame.childrenLine, column: frame.childrenColumn },
       );
     }
@@ -1010,8 +1014,8 @@ export class JsonStreamLoader {
     return { line: this.line, column: this.columnAt(abs) };
   }
 
-  private syntax(abs: number, message: string): EspalierError {
-    return new EspalierError("PARSE_JSON", `invalid JSON: ${message}`, this.posAt(abs));
+  private syntax(abs: number, message: string | MessagePart[]): EspalierError {
+    return new EspalierError("PARSE_JSON", say`invalid JSON: ${message}`, this.posAt(abs));
   }
 
   private badNumber(abs: number, atEnd: boolean): EspalierError {
@@ -1037,14 +1041,14 @@ export class JsonStreamLoader {
     return new EspalierError("PARSE_JSON", message, this.posAt(this.base));
   }
 
-  private where(i: number): string {
+  private where(i: number): MessagePart[] {
     return describeNode(this.sink.parentOf, this.sink.name, i);
   }
 
   private badSize(shownSize: string, i: number, pos: SourcePos | undefined): EspalierError {
     return new EspalierError(
       "BAD_SIZE",
-      `the size of ${this.where(i)} must be a number from 0 to 2^53 - 1, got ${shownSize}`,
+      say`the size of ${this.where(i)} must be a number from 0 to 2^53 - 1, got ${shownSize}`,
       pos,
     );
   }
@@ -1138,7 +1142,7 @@ function latin1(bytes: Uint8Array, s: number, e: number): string {
   return asBuffer(bytes).latin1Slice(s, e);
 }
 
-function shown(c: number): string {
-  if (c >= 0x21 && c < 0x7f) return JSON.stringify(String.fromCharCode(c));
+function shown(c: number): MessagePart {
+  if (c >= 0x21 && c < 0x7f) return quoted.value(String.fromCharCode(c));
   return `byte 0x${c.toString(16).padStart(2, "0")}`;
 }
