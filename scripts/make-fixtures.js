@@ -1269,12 +1269,51 @@ function makeCosts() {
 }
 
 // ---------------------------------------------------------------------------------------------------------
+// e. fixtures/quillfeather-cost-export.csv: one month of a cloud cost export, one row per account, service,
+// region, usage type and day (a fact table: read with --levels, rolled up by the SQL engine).
+
+const EXPORT_ACCOUNTS = [
+  ["qf-telemetry-prod", ["stream-ingest", "object-vault", "series-store", "compute-pool", "egress"]],
+  ["qf-telemetry-staging", ["stream-ingest", "compute-pool"]],
+  ["qf-pipeline-prod", ["batch-runner", "object-vault", "queue-relay", "warehouse"]],
+  ["qf-registry-prod", ["managed-sql", "compute-pool", "key-keeper"]],
+  ["qf-build", ["build-runners", "artifact-shelf"]],
+  ["qf-support", ["ticket-archive", "remote-desk"]],
+];
+const EXPORT_REGIONS = ["harrow-north", "lowmere-east", "saltmarsh-west"];
+const EXPORT_USAGE = ["hours", "storage", "requests", "transfer"];
+
+function makeCostExport() {
+  const r = makeRng(0xe4907);
+  let text = "account,service,region,usage,day,cost\n";
+  let rows = 0;
+  for (const [account, services] of EXPORT_ACCOUNTS) {
+    for (const service of services) {
+      const regions = EXPORT_REGIONS.slice(0, r.int(1, 2));
+      const usages = EXPORT_USAGE.filter((_, k) => k === 0 || r.chance(0.4));
+      for (const region of regions) {
+        for (const usage of usages) {
+          const daily = r.skewed(2, 400);
+          for (let day = 1; day <= 30; day++) {
+            const cost = Math.max(0, daily + r.int(-Math.floor(daily / 5), Math.floor(daily / 5)));
+            text += `${account},${service},${region},${usage},2031-04-${String(day).padStart(2, "0")},${cost}\n`;
+            rows++;
+          }
+        }
+      }
+    }
+  }
+  return { text, summary: [`${rows} rows`] };
+}
+
+// ---------------------------------------------------------------------------------------------------------
 
 const jobs = [
   ["quillfeather-org.csv", makeOrg],
   ["tidewater-files.paths", makeFiles],
   ["tidewater-deps.json", makeDeps],
   ["quillfeather-costs.yaml", makeCosts],
+  ["quillfeather-cost-export.csv", makeCostExport],
 ];
 for (const [name, makeOne] of jobs) {
   const { text, summary } = makeOne();

@@ -29,6 +29,8 @@ export const errorCodes = [
   "FOCUS_NO_MATCH",
   "BUDGET_TOO_SMALL",
   "LIMIT_EXCEEDED",
+  "ENGINE_MISSING",
+  "ENGINE_FAILED",
 ] as const;
 
 export type ErrorCode = (typeof errorCodes)[number];

@@ -13,7 +13,7 @@ export const CONFIG_FILES = [".espalier.yaml", ".espalier.yml"] as const;
  * given on the command line wins over the file.
  */
 export const configSchema = summaryOptionsSchema
-  .omit({ output: true, focusFrom: true })
+  .omit({ output: true, focusFrom: true, printSql: true })
   .extend({ exitCode: z.boolean().describe("diff only: exit 1 when the versions differ.") })
   .partial()
   .strict()

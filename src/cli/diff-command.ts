@@ -14,6 +14,7 @@ import { DIFF_EXAMPLES } from "./diff-help.js";
 import { type DiffCliOptions, diffOptionsSchema } from "./diff-options.js";
 import { effectiveOptions, printConfig } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
+import { isFactInput, loadFactInput } from "./fact-input.js";
 import { hidingInput } from "./hide-input.js";
 import type { CliIO } from "./io.js";
 import { PSEUDONYM_KEY_ENV } from "./options.js";
@@ -24,6 +25,7 @@ import {
   defaultBudget,
   defaultWidth,
   displayName,
+  rootNameOf,
   toLoadOptions,
   unitsFor,
   useColour,
@@ -67,6 +69,8 @@ export function addDiffCommand(
       const parsed = diffOptionsSchema.safeParse({
         ...values,
         pseudonymize: values.pseudonymize === true,
+        rolledUp: values.rolledUp === true,
+        printSql: values.printSql === true,
         exitCode: values.exitCode === true,
         chains: values.chains !== false,
       });
@@ -105,10 +109,9 @@ async function diffOf(
     const text = await readInput(io, opts.focusFrom);
     foci.push(...text.split(/\r?\n/).filter((line) => line !== ""));
   }
-  const newOptions = toLoadOptions(newInput, opts);
-  // Both versions get the same synthetic root name, so that it never shows as a change.
-  const oldOptions = { ...toLoadOptions(oldInput, opts), rootName: newOptions.rootName };
-  const [oldTree, newTree] = await loadBoth(io, oldInput, oldOptions, newInput, newOptions);
+  const [oldTree, newTree] = isFactInput(opts)
+    ? await loadFacts(oldInput, newInput, opts)
+    : await loadTables(io, oldInput, newInput, opts);
   const budget = opts.budget ?? defaultBudget(io);
   const result = diffTrees(oldTree, newTree, {
     foci,
@@ -149,6 +152,32 @@ async function diffOf(
           : renderDiffText(result.view, result.totals, textOptions);
   const differ = totalChanges(result.totals.changes) > 0;
   return { text, exitCode: opts.exitCode && differ ? EXIT.differences : EXIT.ok };
+}
+
+function loadTables(
+  io: CliIO,
+  oldInput: string,
+  newInput: string,
+  opts: DiffCliOptions,
+): Promise<[Tree, Tree]> {
+  const newOptions = toLoadOptions(newInput, opts);
+  // Both versions get the same synthetic root name, so that it never shows as a change.
+  const oldOptions = { ...toLoadOptions(oldInput, opts), rootName: newOptions.rootName };
+  return loadBoth(io, oldInput, oldOptions, newInput, newOptions);
+}
+
+/** Two fact tables, one after the other (the engine uses every core for each); one root name for both. */
+async function loadFacts(oldInput: string, newInput: string, opts: DiffCliOptions): Promise<[Tree, Tree]> {
+  const rootName = rootNameOf(newInput);
+  const one = async (input: string) => {
+    try {
+      return await loadFactInput(input, opts, rootName);
+    } catch (err) {
+      throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
+    }
+  };
+  const oldTree = await one(oldInput);
+  return [oldTree, await one(newInput)];
 }
 
 /**

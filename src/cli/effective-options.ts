@@ -5,7 +5,7 @@ import { loadConfig, mergeConfig } from "./config.js";
 import type { CliIO } from "./io.js";
 
 /** Options that steer the config itself, never stored in it. */
-const CONFIG_SWITCHES = new Set(["config", "printConfig", "output", "focusFrom"]);
+const CONFIG_SWITCHES = new Set(["config", "printConfig", "output", "focusFrom", "printSql"]);
 
 /**
  * The options a command runs with: its flags over the project config file over the defaults. The

@@ -1,12 +1,12 @@
 import { Command, Option } from "commander";
 import { EspalierError } from "../errors.js";
 import { importances } from "../interest/importance.js";
-import { inputFormats } from "../load/load-options.js";
 import { addDiffCommand } from "./diff-command.js";
 import { effectiveOptions, printConfig, requireInput } from "./effective-options.js";
+import { printSqlCommand } from "./fact-input.js";
 import { SUMMARY_EXAMPLES } from "./help.js";
 import type { CliIO } from "./io.js";
-import { outputFormats, summaryOptionsSchema } from "./options.js";
+import { cliInputFormats, outputFormats, summaryOptionsSchema } from "./options.js";
 import { summaryCommand } from "./summary-command.js";
 
 export const VERSION = "0.1.0";
@@ -31,8 +31,15 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
     .option("-b, --budget <lines>", "line budget (default: terminal height, else 40)")
     .addOption(new Option("--format <format>", "output format").choices(outputFormats).default("text"))
     .addOption(
-      new Option("--input-format <format>", "input format (default: detected)").choices(inputFormats),
+      new Option("--input-format <format>", "input format (default: detected)").choices(cliInputFormats),
     )
+    .option("--levels <columns>", "fact table: level columns, outermost first (account,service,region)")
+    .option("--key-field <column>", "fact table: a key column split into levels")
+    .option("--key-separator <text>", "what --key-field values are split on", "/")
+    .option("--key-depth <levels>", "deepest key level to roll up (default: the deepest in the table)")
+    .option("--rolled-up", "the input is the result table of the --print-sql query, run elsewhere")
+    .option("--print-sql", "print the rollup query in standard SQL (GROUP BY ROLLUP) and stop")
+    .option("--sql-table <name>", "table name in the --print-sql query", "facts")
     .option("--name-field <field>", "field holding a node's name", "name")
     .option("--children-field <field>", "field holding a node's children", "children")
     .option("--size-field <field>", "field holding a node's own size", "size")
@@ -78,6 +85,8 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
       const parsed = summaryOptionsSchema.safeParse({
         ...values,
         pseudonymize: values.pseudonymize === true,
+        rolledUp: values.rolledUp === true,
+        printSql: values.printSql === true,
         chains: values.chains !== false,
       });
       if (!parsed.success) {
@@ -85,6 +94,7 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
         throw new EspalierError("USAGE", issue.message);
       }
       if (raw.printConfig === true) return onOutput(printConfig(parsed.data, configFile));
+      if (parsed.data.printSql) return onOutput(await printSqlCommand(input, parsed.data));
       onOutput(await summaryCommand(requireInput(input), parsed.data, io));
     });
   addDiffCommand(program, io, onOutput);

@@ -10,6 +10,7 @@ import { renderText } from "../render/text.js";
 import type { Units } from "../render/units.js";
 import { prepare, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
+import { isFactInput, loadFactInput } from "./fact-input.js";
 import { hidingInput } from "./hide-input.js";
 import type { CliIO } from "./io.js";
 import { DEFAULT_BUDGET, PSEUDONYM_KEY_ENV, type SummaryCliOptions } from "./options.js";
@@ -31,13 +32,16 @@ async function summaryOf(
 ): Promise<string> {
   const foci = [...opts.focus];
   if (opts.focusFrom !== undefined) foci.push(...(await readFociFile(io, opts.focusFrom, input)));
-  const loadOptions = toLoadOptions(input, opts);
-  const source = await readInputStream(io, input);
   let tree: Tree;
   try {
-    // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
-    const chunks = withProgress(source.chunks, io, displayName(input), source.size);
-    tree = await loadTreeFromStream(chunks, loadOptions);
+    if (isFactInput(opts)) {
+      tree = await loadFactInput(input, opts, rootNameOf(input));
+    } else {
+      const source = await readInputStream(io, input);
+      // Streamed: no string ever holds the whole input, so inputs past the engine's longest string load too.
+      const chunks = withProgress(source.chunks, io, displayName(input), source.size);
+      tree = await loadTreeFromStream(chunks, toLoadOptions(input, opts));
+    }
   } catch (err) {
     throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
   }
@@ -72,9 +76,15 @@ async function summaryOf(
 }
 
 export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptions {
+  const format = opts.inputFormat;
+  if (format === "parquet" || format === "jsonl")
+    throw new EspalierError(
+      "USAGE",
+      `--input-format ${format} is read as a fact table: give --levels or --key-field`,
+    );
   return {
     ...defaultLoadOptions,
-    format: opts.inputFormat,
+    format,
     file: input === "-" ? undefined : input,
     nameField: opts.nameField,
     childrenField: opts.childrenField,
@@ -83,9 +93,14 @@ export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptio
     parentField: opts.parentField,
     pathField: opts.pathField,
     keepFields: opts.label ? templateFields(opts.label) : [],
-    rootName: input === "-" ? "(stdin)" : baseName(input),
+    rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
   };
+}
+
+/** The name of a root espalier adds: the input file's base name, `(stdin)` for standard input. */
+export function rootNameOf(input: string): string {
+  return input === "-" ? "(stdin)" : baseName(input);
 }
 
 export function displayName(input: string): string {

@@ -1,0 +1,78 @@
+import { EspalierError, quoted, say } from "../../errors.js";
+
+/** A query's result, column by column: values as the engine hands them to JavaScript. */
+export interface Columns {
+  readonly names: readonly string[];
+  /** `values[c][r]`: column c, row r; null for SQL NULL; big integers arrive as bigint. */
+  readonly values: readonly (readonly unknown[])[];
+  readonly rowCount: number;
+}
+
+/** The embedded SQL engine, as espalier uses it: run statements, read results, close. */
+export interface Engine {
+  run(sql: string): Promise<Columns>;
+  close(): void;
+}
+
+/** Engine settings; memory is capped so the engine spills to disk rather than growing without bound. */
+export interface EngineSettings {
+  /** The engine's own memory cap, e.g. "1GB". */
+  memoryLimit?: string;
+  /** Worker threads; the engine's default (every core) when undefined. */
+  threads?: number;
+}
+
+/** The package that ships the engine; imported here and nowhere else, and only when a fact table is read. */
+const PACKAGE = "@duckdb/node-api";
+
+/**
+ * Opens an in-memory instance of the embedded engine (DuckDB through `@duckdb/node-api`). The package
+ * is an optional dependency with a native binary per platform: where it did not install, or its binary
+ * does not load, this is ENGINE_MISSING with what to do, and nothing else in espalier is affected.
+ * `from` names the package (tests name one that is not there).
+ */
+export async function openEngine(settings: EngineSettings = {}, from: string = PACKAGE): Promise<Engine> {
+  let api: typeof import("@duckdb/node-api");
+  try {
+    api = await import(from);
+  } catch (err) {
+    throw new EspalierError(
+      "ENGINE_MISSING",
+      `fact tables need the SQL engine package ${from}, which is not installed or has no binary for ` +
+        `this platform (${process.platform}-${process.arch}): ${firstLine(err)}. ` +
+        `Install it with 'npm install ${from}', or run the query printed by --print-sql elsewhere ` +
+        "and read its result here",
+    );
+  }
+  const options: Record<string, string> = {};
+  if (settings.memoryLimit !== undefined) options.memory_limit = settings.memoryLimit;
+  if (settings.threads !== undefined) options.threads = String(settings.threads);
+  const instance = await api.DuckDBInstance.create(":memory:", options);
+  const connection = await instance.connect();
+  return {
+    async run(sql: string): Promise<Columns> {
+      let reader: Awaited<ReturnType<typeof connection.runAndReadAll>>;
+      try {
+        reader = await connection.runAndReadAll(sql);
+      } catch (err) {
+        throw engineFailed(err);
+      }
+      return { names: reader.columnNames(), values: reader.getColumnsJS(), rowCount: reader.currentRowCount };
+    },
+    close(): void {
+      connection.closeSync();
+      instance.closeSync();
+    },
+  };
+}
+
+/** An error the engine raised (a file it cannot read, a value it cannot convert), as ENGINE_FAILED. */
+export function engineFailed(err: unknown): EspalierError {
+  // The engine's words may quote the data (a value it cannot convert): an excerpt, hidden by --pseudonymize.
+  return new EspalierError("ENGINE_FAILED", say`the SQL engine reported: ${quoted.excerpt(firstLine(err))}`);
+}
+
+function firstLine(err: unknown): string {
+  const text = err instanceof Error ? err.message : String(err);
+  return text.split("\n")[0];
+}

@@ -1,0 +1,144 @@
+import { open } from "node:fs/promises";
+import { parse } from "csv-parse/sync";
+import { EspalierError, quoted as input, say } from "../../errors.js";
+import type { Tree } from "../../model/tree.js";
+import { type Columns, type Engine, type EngineSettings, openEngine } from "./engine.js";
+import type { FactFormat, FactOptions } from "./fact-options.js";
+import { keyDepthSql, rollupSql } from "./rollup-sql.js";
+import { rollupTree } from "./rollup-tree.js";
+import { sourceViewSql } from "./source-sql.js";
+
+/** A fact table to read: where, in what format, how it forms a hierarchy, and how to name the tree. */
+export interface FactLoad {
+  file: string;
+  format: FactFormat;
+  facts: FactOptions;
+  /** The file is the result table of the rollup query (see --print-sql), not the facts themselves. */
+  rolledUp: boolean;
+  rootName: string;
+  keepFields: readonly string[];
+  maxNodes: number;
+  engine?: EngineSettings;
+}
+
+/**
+ * Reads a fact table into a {@link Tree}: the embedded engine streams the file, runs the rollup query
+ * (rollupSql, exactly as --print-sql prints it) and hands back one row per node, from which the tree is
+ * built (rollupTree). With `rolledUp`, the file already is such a result, made by another engine.
+ */
+export async function loadFactTable(load: FactLoad): Promise<Tree> {
+  const header = load.format === "csv" || load.format === "tsv" ? await readHeader(load) : [];
+  const engine = await openEngine(load.engine);
+  try {
+    await run(engine, sourceViewSql(load.facts.table, load.file, load.format, header), load);
+    const columns = (await run(engine, `SELECT * FROM ${quoted(load.facts.table)} LIMIT 0`, load)).names;
+    const treeOptions = {
+      rootName: load.rootName,
+      keepFields: load.keepFields,
+      levelNames: load.facts.levels,
+      maxNodes: load.maxNodes,
+      rowsAreInput: load.rolledUp,
+    };
+    if (load.rolledUp) {
+      return rollupTree(await run(engine, `SELECT * FROM ${quoted(load.facts.table)}`, load), treeOptions);
+    }
+    requireColumns(columns, load.facts);
+    const hasSize = columns.includes(load.facts.sizeField);
+    const depth = load.facts.levels.length > 0 ? load.facts.levels.length : await keyDepth(engine, load);
+    const result = await run(engine, rollupSql(load.facts, depth, hasSize), load, hasSize);
+    const tree = rollupTree(result, treeOptions);
+    if (!hasSize) return { ...tree, hasSizes: false };
+    return tree;
+  } finally {
+    engine.close();
+  }
+}
+
+/** The deepest key of a key hierarchy in `file`, as the engine finds it (for the printed query). */
+export async function deepestKey(file: string, format: FactFormat, facts: FactOptions): Promise<number> {
+  const load: FactLoad = { file, format, facts, rolledUp: false, rootName: "", keepFields: [], maxNodes: 0 };
+  const header = format === "csv" || format === "tsv" ? await readHeader(load) : [];
+  const engine = await openEngine();
+  try {
+    await run(engine, sourceViewSql(facts.table, file, format, header), load);
+    requireColumns((await run(engine, `SELECT * FROM ${quoted(facts.table)} LIMIT 0`, load)).names, facts);
+    return await keyDepth(engine, { ...load, facts: { ...facts, keyDepth: undefined } });
+  } finally {
+    engine.close();
+  }
+}
+
+/** The deepest key level: given, or asked of the engine (0 for a table without keys). */
+async function keyDepth(engine: Engine, load: FactLoad): Promise<number> {
+  if (load.facts.keyDepth !== undefined) return load.facts.keyDepth;
+  const result = await run(engine, keyDepthSql(load.facts), load);
+  const value = result.values[0]?.[0];
+  return value === null || value === undefined ? 0 : Number(value);
+}
+
+function requireColumns(columns: readonly string[], facts: FactOptions): void {
+  const wanted =
+    facts.levels.length > 0 ? facts.levels : facts.keyField === undefined ? [] : [facts.keyField];
+  const missing = wanted.filter((name) => !columns.includes(name));
+  if (missing.length > 0) {
+    throw new EspalierError(
+      "FIELD_MISSING",
+      `the table has no column ${missing.map((m) => JSON.stringify(m)).join(", ")}; columns: ${columns.join(", ")}`,
+    );
+  }
+}
+
+/**
+ * Runs one statement; the engine's complaints become typed errors: a malformed CSV row is PARSE_CSV at
+ * its line, a size that is not a number is BAD_SIZE, anything else ENGINE_FAILED.
+ */
+async function run(engine: Engine, sql: string, load: FactLoad, hasSize = false): Promise<Columns> {
+  try {
+    return await engine.run(sql);
+  } catch (err) {
+    if (!(err instanceof EspalierError)) throw err;
+    const csvLine = /CSV Error on Line: (\d+)/.exec(err.message);
+    if (csvLine) {
+      throw new EspalierError(
+        "PARSE_CSV",
+        say`${input.excerpt(err.message.replace(/^the SQL engine reported: /, ""))}`,
+        {
+          line: Number(csvLine[1]),
+        },
+      );
+    }
+    if (hasSize && /Conversion Error/i.test(err.message)) {
+      throw new EspalierError(
+        "BAD_SIZE",
+        say`a value of the size column ${JSON.stringify(load.facts.sizeField)} is not a number (${input.excerpt(err.message)})`,
+      );
+    }
+    throw err;
+  }
+}
+
+/** The header row's names of a CSV or TSV file (RFC 4180 for CSV, through csv-parse; TSV split on tabs). */
+async function readHeader(load: FactLoad): Promise<string[]> {
+  let text: string;
+  const handle = await open(load.file).catch((err: NodeJS.ErrnoException) => {
+    throw new EspalierError("IO", `cannot read ${load.file}: ${err.code ?? err.message}`, {
+      file: load.file,
+    });
+  });
+  try {
+    const buffer = Buffer.alloc(1 << 20);
+    const { bytesRead } = await handle.read(buffer, 0, buffer.length, 0);
+    text = new TextDecoder("utf-8", { ignoreBOM: false }).decode(buffer.subarray(0, bytesRead));
+  } finally {
+    await handle.close();
+  }
+  if (!/\S/.test(text)) throw new EspalierError("INPUT_EMPTY", "the input is empty");
+  if (load.format === "tsv") return text.split(/\r?\n/, 1)[0].split("\t");
+  const records: string[][] = parse(text, { to_line: 1, relax_column_count: true, bom: true });
+  if (records.length === 0) throw new EspalierError("INPUT_EMPTY", "the input is empty");
+  return records[0];
+}
+
+function quoted(table: string): string {
+  return `"${table.replaceAll('"', '""')}"`;
+}

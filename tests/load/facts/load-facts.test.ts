@@ -1,0 +1,197 @@
+import { readFileSync, writeFileSync } from "node:fs";
+import { join, resolve } from "node:path";
+import { parse } from "csv-parse/sync";
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { EspalierError } from "../../../src/errors.js";
+import { openEngine } from "../../../src/load/facts/engine.js";
+import { measure } from "../../../src/model/measure.js";
+import { keyOptions, levelsOptions, lit, loadFacts, nodeTable, scratchDir, withEngine } from "./helpers.js";
+
+const fixture = resolve(import.meta.dirname, "../../../fixtures/quillfeather-cost-export.csv");
+const LEVELS = ["account", "service", "region", "usage"];
+const dir = scratchDir();
+
+/** An independent pass: every prefix of the level values with its row count and cost sum, in plain JS. */
+function prefixTotals(records: Record<string, string>[], levels: string[], size: string) {
+  const out = new Map<string, [number, number]>();
+  for (const record of records) {
+    let path = "";
+    const add = (p: string) => {
+      const had = out.get(p) ?? [0, 0];
+      out.set(p, [had[0] + 1, had[1] + Number(record[size] || 0)]);
+    };
+    add(path);
+    for (const level of levels) {
+      path += `/${record[level]}`;
+      add(path);
+    }
+  }
+  return out;
+}
+
+describe("loadFactTable(CSV, --levels)", () => {
+  // RFC 4180 parse by the reference library csv-parse, then grouping in the test: an independent pass.
+  const records: Record<string, string>[] = parse(readFileSync(fixture), { columns: true });
+
+  it("gives every distinct prefix of the level values as a node, with its rows and summed cost", async () => {
+    const tree = await loadFacts(fixture, "csv", levelsOptions(LEVELS, "cost"));
+    const expected = prefixTotals(records, LEVELS, "cost");
+    // Source: the independent pass above over the csv-parse records (RFC 4180).
+    expect(nodeTable(tree)).toEqual(expected);
+    expect(tree.syntheticRoot).toBe(true);
+    expect(measure(tree).count[0]).toBe(expected.size);
+  });
+
+  it("totals equal the engine's own count(*) and sum(cost) over the file", async () => {
+    const tree = await loadFacts(fixture, "csv", levelsOptions(LEVELS, "cost"));
+    const [count, sum] = await withEngine(async (engine) => {
+      const r = await engine.run(`SELECT count(*), sum(cost) FROM read_csv(${lit(fixture)})`);
+      return [Number(r.values[0][0]), Number(r.values[1][0])];
+    });
+    // Source: the engine's own aggregates over the file (its CSV reader, its types), not espalier's query.
+    expect(Number(tree.fields.get("rows")![0])).toBe(count);
+    expect(measure(tree).size[0]).toBe(sum);
+    expect(count).toBe(records.length);
+  });
+
+  it("reads Parquet and JSON lines written by the engine back as the same tree as the CSV", async () => {
+    const parquet = join(dir, "export.parquet");
+    const jsonl = join(dir, "export.jsonl");
+    await withEngine(async (engine) => {
+      await engine.run(`COPY (SELECT * FROM read_csv(${lit(fixture)})) TO ${lit(parquet)} (FORMAT parquet)`);
+      await engine.run(`COPY (SELECT * FROM read_csv(${lit(fixture)})) TO ${lit(jsonl)} (FORMAT json)`);
+    });
+    const fromCsv = await loadFacts(fixture, "csv", levelsOptions(LEVELS, "cost"));
+    // Source: the engine's own Parquet and JSON writers; the same table must give the same tree.
+    expect(await loadFacts(parquet, "parquet", levelsOptions(LEVELS, "cost"))).toEqual(fromCsv);
+    expect(await loadFacts(jsonl, "jsonl", levelsOptions(LEVELS, "cost"))).toEqual(fromCsv);
+  });
+
+  it('makes a missing level value a node named "", so no row is dropped', async () => {
+    const file = join(dir, "gaps.csv");
+    writeFileSync(file, "a,b,c,size\nx,,z,1\nx,y,,2\n,,,4\n");
+    const table = nodeTable(await loadFacts(file, "csv", levelsOptions(["a", "b", "c"], "size")));
+    expect(table.get("")).toEqual([3, 7]);
+    expect(table.get("/x//z")).toEqual([1, 1]);
+    expect(table.get("/x/y/")).toEqual([1, 2]);
+    expect(table.get("///")).toEqual([1, 4]);
+  });
+
+  it("keeps a level value's zeros and quoted commas (cells are text, RFC 4180 quoting)", async () => {
+    const file = join(dir, "quoted.csv");
+    writeFileSync(file, 'team,item,size\n007,"a,b",1\n007,"say ""hi""",2\n');
+    const table = nodeTable(await loadFacts(file, "csv", levelsOptions(["team", "item"], "size")));
+    // Source: RFC 4180 section 2 rules 6 and 7 (fields with commas are quoted; quotes doubled).
+    expect([...table.keys()]).toEqual(["", "/007", "/007/a,b", '/007/say "hi"']);
+  });
+
+  it("has no sizes when the table has no size column", async () => {
+    const file = join(dir, "nosize.csv");
+    writeFileSync(file, "a,b\nx,y\nx,z\n");
+    const tree = await loadFacts(file, "csv", levelsOptions(["a", "b"], "size"));
+    expect(tree.hasSizes).toBe(false);
+    expect(nodeTable(tree).get("/x")).toEqual([2, 0]);
+  });
+});
+
+describe("loadFactTable(CSV, --key-field)", () => {
+  /** Independent pass: the trie of the keys split on "/", with rows and sizes, and own sizes. */
+  function trie(rows: [string, number][]) {
+    const out = new Map<string, [number, number]>();
+    for (const [key, size] of rows) {
+      const segments = key.split("/");
+      let path = "";
+      const add = (p: string) => {
+        const had = out.get(p) ?? [0, 0];
+        out.set(p, [had[0] + 1, had[1] + size]);
+      };
+      add(path);
+      for (const s of segments) {
+        path += `/${s}`;
+        add(path);
+      }
+    }
+    return out;
+  }
+
+  const segment = fc.constantFrom("a", "b", "c", "", "d e", "ä", "x,y", 'q"');
+  const key = fc.array(segment, { minLength: 1, maxLength: 6 }).map((s) => s.join("/"));
+  const table = fc.array(fc.tuple(key, fc.nat(1000)), { minLength: 1, maxLength: 40 });
+
+  it("gives the trie of the keys, rows and sizes summed over each subtree (property)", async () => {
+    let run = 0;
+    await fc.assert(
+      fc.asyncProperty(table, async (rows) => {
+        const file = join(dir, `keys-${run++}.csv`);
+        const quote = (s: string) => `"${s.replaceAll('"', '""')}"`;
+        writeFileSync(file, `key,size\n${rows.map(([k, s]) => `${quote(k)},${s}`).join("\n")}\n`);
+        const tree = await loadFacts(file, "csv", keyOptions("key", "size"));
+        // Source: the independent trie above (String.prototype.split semantics for the separator).
+        expect(nodeTable(tree)).toEqual(trie(rows));
+        // Children in code-point order of their names (common practice, no source: a documented choice).
+        for (let i = 1; i < tree.length; i++) {
+          const prev = i - 1;
+          if (tree.parent[prev] === tree.parent[i]) {
+            expect(Buffer.compare(Buffer.from(tree.name.get(prev)), Buffer.from(tree.name.get(i)))).toBe(-1);
+          }
+        }
+      }),
+      { numRuns: 25 },
+    );
+  });
+
+  it("splits on a separator of several characters", async () => {
+    const file = join(dir, "sep.csv");
+    writeFileSync(file, "key,size\na::b::c,1\na::d,2\n");
+    const table = nodeTable(await loadFacts(file, "csv", keyOptions("key", "size", "::")));
+    expect([...table.keys()]).toEqual(["", "/a", "/a/b", "/a/b/c", "/a/d"]);
+  });
+});
+
+describe("loadFactTable errors", () => {
+  const code = async (promise: Promise<unknown>): Promise<unknown[]> => {
+    try {
+      await promise;
+    } catch (err) {
+      return err instanceof EspalierError ? [err.code, err.pos] : [err];
+    }
+    return ["no error"];
+  };
+
+  it("is FIELD_MISSING for a level column the table lacks", async () => {
+    const file = join(dir, "few.csv");
+    writeFileSync(file, "a,size\nx,1\n");
+    expect((await code(loadFacts(file, "csv", levelsOptions(["a", "b"], "size"))))[0]).toBe("FIELD_MISSING");
+  });
+
+  it("is PARSE_CSV at the line of a row with too many fields", async () => {
+    const file = join(dir, "ragged.csv");
+    writeFileSync(file, "a,size\nx,1\ny,2,3\n");
+    expect(await code(loadFacts(file, "csv", levelsOptions(["a"], "size")))).toEqual([
+      "PARSE_CSV",
+      { line: 3 },
+    ]);
+  });
+
+  it("is BAD_SIZE for a negative or non-numeric size", async () => {
+    const negative = join(dir, "neg.csv");
+    writeFileSync(negative, "a,size\nx,5\nx,-1\n");
+    expect((await code(loadFacts(negative, "csv", levelsOptions(["a"], "size"))))[0]).toBe("BAD_SIZE");
+    const text = join(dir, "text.csv");
+    writeFileSync(text, "a,size\nx,many\n");
+    expect((await code(loadFacts(text, "csv", levelsOptions(["a"], "size"))))[0]).toBe("BAD_SIZE");
+  });
+
+  it("is INPUT_EMPTY for a table without rows", async () => {
+    const file = join(dir, "header-only.csv");
+    writeFileSync(file, "a,size\n");
+    expect((await code(loadFacts(file, "csv", levelsOptions(["a"], "size"))))[0]).toBe("INPUT_EMPTY");
+  });
+
+  it("is ENGINE_MISSING, with what to do, where the engine package does not load", async () => {
+    const err = await openEngine({}, "@duckdb/no-such-engine-package").catch((e) => e);
+    expect(err).toBeInstanceOf(EspalierError);
+    expect(err.code).toBe("ENGINE_MISSING");
+  });
+});
