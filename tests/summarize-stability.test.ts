@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import type { Tree } from "../src/model/tree.js";
-import { renderText } from "../src/render/text.js";
+import { renderText } from "../src/render/summary-text.js";
 import { prepare, summarize } from "../src/summarize.js";
 import { arbTreeWithFoci } from "./helpers/random-tree.js";
 

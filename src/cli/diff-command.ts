@@ -8,8 +8,8 @@ import type { Tree } from "../model/tree.js";
 import { renderDiffJson } from "../render/diff-json.js";
 import { renderDiffMarkdown } from "../render/diff-markdown.js";
 import { renderDiffText } from "../render/diff-text.js";
+import { renderSvg } from "../render/icicle-svg.js";
 import { palette } from "../render/palette.js";
-import { renderSvg } from "../render/svg.js";
 import { DIFF_EXAMPLES } from "./diff-help.js";
 import { type DiffCliOptions, diffOptionsSchema } from "./diff-options.js";
 import { effectiveOptions, printConfig } from "./effective-options.js";
@@ -119,6 +119,7 @@ async function diffOf(
     importance: opts.importance,
     label: opts.label,
     pseudonymKey: key,
+    chains: opts.chains,
   });
   const by = result.combined.by;
   const textOptions = {
@@ -126,6 +127,7 @@ async function diffOf(
     sizes: result.combined.tree.hasSizes,
     by,
     palette: palette(useColour(opts, io)),
+    chains: opts.chains,
     width: opts.width ?? defaultWidth(io),
   };
   const text =
@@ -136,11 +138,7 @@ async function diffOf(
           changeOf: (n) => n.change,
         })
       : opts.format === "markdown"
-        ? renderDiffMarkdown(result.view, result.totals, {
-            ...textOptions,
-            palette: undefined,
-            width: undefined,
-          })
+        ? renderDiffMarkdown(result.view, result.totals, textOptions)
         : opts.format === "json"
           ? renderDiffJson(result.view, result.totals, {
               budget,

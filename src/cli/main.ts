@@ -1,6 +1,6 @@
 import { type Command, CommanderError } from "commander";
 import { EspalierError } from "../errors.js";
-import { safeText } from "../render/escape.js";
+import { safeText } from "../render/safe-text.js";
 import { CONFIG_FILES } from "./config.js";
 import { EXIT } from "./exit-codes.js";
 import type { CliIO } from "./io.js";

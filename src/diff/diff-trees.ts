@@ -28,6 +28,11 @@ export interface DiffOptions {
   label?: string;
   /** Replace every printed name by a keyed pseudonym. */
   pseudonymKey?: string;
+  /**
+   * Print a run of only children as one line (see fit/select.ts lineCost; a change, like a focus,
+   * keeps its only child on a line of its own); default false.
+   */
+  chains?: boolean;
 }
 
 /** Whole-diff numbers: the root's counts, and both versions' sizes. */
@@ -75,7 +80,15 @@ export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions):
   const api = importance(tree, measures, options.importance);
   const scores = diffInterest(tree, api, foci, combined.kind, changeMeasures.onChangePath);
   const order = diffOrder(tree, measures, scores, changeMeasures);
-  const selection = select(tree, measures, scores, order, options.budget, DIFF_HEADER_LINES);
+  const selection = select(
+    tree,
+    measures,
+    scores,
+    order,
+    options.budget,
+    DIFF_HEADER_LINES,
+    options.chains ?? false,
+  );
 
   const hide = (t: Tree) => (i: number) =>
     key === undefined || (i === 0 && t.syntheticRoot) ? t.name.get(i) : pseudonym(key, t.name.get(i));

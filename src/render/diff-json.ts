@@ -2,6 +2,7 @@ import type { HierarchyNode } from "d3-hierarchy";
 import type { DiffTotals } from "../diff/diff-trees.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
 import { DIFF_FORMAT, type DiffSummary, type DiffSummaryNode } from "./diff-schema.js";
+import { jsonNodeFields } from "./json-node.js";
 import { jsonText } from "./json-text.js";
 import { mapTree } from "./map-tree.js";
 
@@ -21,14 +22,7 @@ export function toDiffSummary(
   options: DiffJsonOptions,
 ): DiffSummary {
   const convert = (node: DiffViewNode): DiffSummaryNode => ({
-    name: node.name,
-    path: node.path,
-    ...(node.id !== null ? { id: node.id } : {}),
-    ...(options.labels ? { label: node.label } : {}),
-    interest: node.interest,
-    nodes: node.nodes,
-    size: node.size,
-    focus: node.focus,
+    ...jsonNodeFields(node, options.labels),
     change: node.change,
     delta: node.delta,
     net: node.net,

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { changeKinds } from "../diff/changes.js";
-import { foldedSchema } from "./summary-schema.js";
+import { foldedSchema, type NodeFields, nodeFieldsShape } from "./summary-schema.js";
 
 /** Name and version of the diff JSON; bump the number when a field changes meaning. */
 export const DIFF_FORMAT = "espalier-diff/1";
@@ -20,15 +20,7 @@ export const diffFoldedSchema = foldedSchema
   .strict()
   .describe("What is folded under a shown node, with the changes inside it.");
 
-export interface DiffSummaryNode {
-  name: string;
-  path: string;
-  id?: string;
-  label?: string;
-  interest: number;
-  nodes: number;
-  size: number;
-  focus: boolean;
+export interface DiffSummaryNode extends NodeFields {
   change: (typeof changeKinds)[number] | null;
   delta: number;
   net: number;
@@ -41,14 +33,16 @@ export interface DiffSummaryNode {
 export const diffNodeSchema: z.ZodType<DiffSummaryNode> = z.lazy(() =>
   z
     .object({
-      name: z.string().describe("The node's own name (the old name for a removed node)."),
-      path: z.string().describe("Path in the combined tree, RFC 6901 escaping; accepted back as a focus."),
-      id: z.string().optional().describe("Row id, when nodes were matched by id."),
-      label: z.string().optional().describe("Display text, when a label template is in use."),
-      interest: z.number().describe("Degree of interest (changes score as foci do)."),
-      nodes: z.number().int().positive().describe("Nodes in the combined subtree (removed ones included)."),
-      size: z.number().describe("Size of the subtree in the new version (removed nodes hold 0)."),
-      focus: z.boolean().describe("Whether the node is one of the user's foci."),
+      ...nodeFieldsShape,
+      name: nodeFieldsShape.name.describe("The node's own name (the old name for a removed node)."),
+      path: nodeFieldsShape.path.describe(
+        "Path in the combined tree, RFC 6901 escaping; accepted back as a focus.",
+      ),
+      id: nodeFieldsShape.id.describe("Row id, when nodes were matched by id."),
+      interest: nodeFieldsShape.interest.describe("Degree of interest (changes score as foci do)."),
+      nodes: nodeFieldsShape.nodes.describe("Nodes in the combined subtree (removed ones included)."),
+      size: nodeFieldsShape.size.describe("Size of the subtree in the new version (removed nodes hold 0)."),
+      focus: nodeFieldsShape.focus.describe("Whether the node is one of the user's foci."),
       change: z.enum(changeKinds).nullable().describe("The node's kind of change, or null."),
       delta: z.number().describe("Own size change, new minus old."),
       net: z.number().describe("Net size change of the subtree: the sum of own size changes."),

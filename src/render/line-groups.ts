@@ -2,22 +2,25 @@ import type { HierarchyNode } from "d3-hierarchy";
 import type { ViewNode } from "../view/view-node.js";
 
 /** The shown nodes that one output line stands for: one node, or a chain of only children. */
-export interface LineGroup {
+export interface LineGroup<T extends ViewNode = ViewNode> {
   /** Nesting level of the line (0 for the root's line). */
   level: number;
   /** The chain, top first; its numbers are those of `nodes[0]`, its fold that of the last. */
-  nodes: ViewNode[];
+  nodes: T[];
 }
 
-/** Whether `child` continues its parent's line (the fit's lineCost of 0, read off the view). */
+/**
+ * Whether `child` continues its parent's line: the fit's lineCost of 0 read off the view (an only
+ * child whose parent is not an anchor, that is neither a focus nor, in a diff, a change).
+ */
 export function continuesLine(parent: ViewNode, child: ViewNode, chains: boolean): boolean {
-  return chains && !parent.focus && parent.children.length === 1 && parent.nodes === child.nodes + 1;
+  return chains && !parent.anchor && parent.children.length === 1 && parent.nodes === child.nodes + 1;
 }
 
 /** The lines of a view in order: every renderer that prints lines shares this grouping. */
-export function lineGroups(view: HierarchyNode<ViewNode>, chains: boolean): LineGroup[] {
-  const groups: LineGroup[] = [];
-  const level = new Map<ViewNode, number>();
+export function lineGroups<T extends ViewNode>(view: HierarchyNode<T>, chains: boolean): LineGroup<T>[] {
+  const groups: LineGroup<T>[] = [];
+  const level = new Map<T, number>();
   view.eachBefore((h) => {
     const top = h.data;
     const parent = h.parent?.data;
@@ -27,7 +30,7 @@ export function lineGroups(view: HierarchyNode<ViewNode>, chains: boolean): Line
     let last = top;
     level.set(top, depth);
     while (last.children.length === 1 && continuesLine(last, last.children[0], chains)) {
-      last = last.children[0];
+      last = last.children[0] as T;
       level.set(last, depth);
       nodes.push(last);
     }

@@ -11,7 +11,8 @@ export const foldedSchema = z
   })
   .describe("What is folded under a shown node.");
 
-export interface SummaryNode {
+/** The fields every node of the summary and the diff JSON has, besides its children and fold. */
+export interface NodeFields {
   name: string;
   path: string;
   id?: string;
@@ -20,6 +21,21 @@ export interface SummaryNode {
   nodes: number;
   size: number;
   focus: boolean;
+}
+
+/** The schemas of {@link NodeFields}, with their meaning in a summary (a diff re-describes some). */
+export const nodeFieldsShape = {
+  name: z.string().describe("The node's own name, as in the input."),
+  path: z.string().describe("Path from below the root, RFC 6901 escaping; accepted back as a focus."),
+  id: z.string().optional().describe("Row id, when the input links rows by id."),
+  label: z.string().optional().describe("Display text, when a label template is in use."),
+  interest: z.number().describe("Degree of interest (0 on focus paths, lower is less interesting)."),
+  nodes: z.number().int().positive().describe("Nodes in the subtree, this node included."),
+  size: z.number().describe("Size of the subtree, this node included (0 without sizes)."),
+  focus: z.boolean().describe("Whether the node is a focus."),
+};
+
+export interface SummaryNode extends NodeFields {
   children: SummaryNode[];
   hidden: z.infer<typeof foldedSchema> | null;
 }
@@ -27,14 +43,7 @@ export interface SummaryNode {
 export const summaryNodeSchema: z.ZodType<SummaryNode> = z.lazy(() =>
   z
     .object({
-      name: z.string().describe("The node's own name, as in the input."),
-      path: z.string().describe("Path from below the root, RFC 6901 escaping; accepted back as a focus."),
-      id: z.string().optional().describe("Row id, when the input links rows by id."),
-      label: z.string().optional().describe("Display text, when a label template is in use."),
-      interest: z.number().describe("Degree of interest (0 on focus paths, lower is less interesting)."),
-      nodes: z.number().int().positive().describe("Nodes in the subtree, this node included."),
-      size: z.number().describe("Size of the subtree, this node included (0 without sizes)."),
-      focus: z.boolean().describe("Whether the node is a focus."),
+      ...nodeFieldsShape,
       children: z.array(summaryNodeSchema).describe("Shown children, in input order."),
       hidden: foldedSchema.nullable().describe("Hidden children folded into counts, or null."),
     })

@@ -45,6 +45,7 @@ export function buildView(
       size: size[i],
       focus: isFocus.has(i),
       onPath: foci.length > 0 && scores.forced[i] === 1,
+      anchor: scores.distance[i] === 0,
       depth: tree.depth[i],
       children: [],
       hidden: null,

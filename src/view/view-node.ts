@@ -27,6 +27,11 @@ export interface ViewNode {
   focus: boolean;
   /** A focus or an ancestor of one. */
   onPath: boolean;
+  /**
+   * Distance 0 to a focus (in a diff, to a focus or a change): the node itself is one. Its only child
+   * never continues its line (see `lineCost` in fit/select.ts and `lineGroups` in render/).
+   */
+  anchor: boolean;
   depth: number;
   children: ViewNode[];
   hidden: Folded | null;

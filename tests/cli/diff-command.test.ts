@@ -111,7 +111,7 @@ describe("espalier diff OLD NEW", () => {
     expect(r.stdout.split("\n")[0]).toMatch(
       /^matched by id: 0 added, 0 removed, 1 moved, 0 renamed, 0 resized;/,
     );
-    expect(r.stdout).toMatch(/> \[moved from [^\]]+\] Marit Okonkwo-Lund/);
+    expect(r.stdout).toMatch(/> (.* \/ )?\[moved from [^\]]+\] Marit Okonkwo-Lund/);
     expect(r.stdout.trimEnd().split("\n").length).toBeLessThanOrEqual(20);
   });
 

@@ -14,8 +14,8 @@ import { arbTree } from "../helpers/random-tree.js";
 import { arbEdited, withoutIds } from "./edit-script.js";
 import { makeIdTree } from "./id-tree.js";
 
-const run = (oldTree: Tree, newTree: Tree, budget = 100, foci: string[] = []) =>
-  diffTrees(oldTree, newTree, { foci, budget, importance: "depth" });
+const run = (oldTree: Tree, newTree: Tree, budget = 100, foci: string[] = [], chains = false) =>
+  diffTrees(oldTree, newTree, { foci, budget, importance: "depth", chains });
 
 /** Every change as "<name> <kind>[ from <old parent> to <new parent>]", in the combined tree's order. */
 function changeList(result: DiffResult): string[] {
@@ -33,8 +33,8 @@ function changeList(result: DiffResult): string[] {
   return out;
 }
 
-const render = (r: DiffResult) =>
-  renderDiffText(r.view, r.totals, { units: "plain", sizes: true, by: r.combined.by });
+const render = (r: DiffResult, chains = false) =>
+  renderDiffText(r.view, r.totals, { units: "plain", sizes: true, by: r.combined.by, chains });
 
 describe("diffTrees(old, new, options)", () => {
   it("finds exactly one move and one insertion in the change-detection example", () => {
@@ -177,16 +177,17 @@ describe("diffTrees(old, new, options)", () => {
     );
   });
 
-  it("keeps the selection contract: fits, nested, a prefix of the order, root and foci forced", () => {
+  it("keeps the selection contract, with and without chains: fits, nested, a prefix of the order, root and foci forced", () => {
     fc.assert(
       fc.property(
         arbEdited(),
         fc.integer({ min: 2, max: 40 }),
         fc.integer({ min: 0, max: 20 }),
-        (edited, b, extra) => {
-          const small = run(edited.oldTree, edited.newTree, b);
-          const large = run(edited.oldTree, edited.newTree, b + extra);
-          const lines = render(small).split("\n").length - 1;
+        fc.boolean(),
+        (edited, b, extra, chains) => {
+          const small = run(edited.oldTree, edited.newTree, b, [], chains);
+          const large = run(edited.oldTree, edited.newTree, b + extra, [], chains);
+          const lines = render(small, chains).split("\n").length - 1;
           expect(lines).toBe(small.selection.lines);
           expect(lines).toBeLessThanOrEqual(b);
           const n = small.combined.tree.length;

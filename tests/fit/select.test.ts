@@ -9,7 +9,7 @@ import { buildTree } from "../../src/model/build-tree.js";
 import { measure } from "../../src/model/measure.js";
 import { PathIndex } from "../../src/model/path-index.js";
 import type { Tree } from "../../src/model/tree.js";
-import { renderText } from "../../src/render/text.js";
+import { renderText } from "../../src/render/summary-text.js";
 import { buildView } from "../../src/view/build-view.js";
 import type { ViewNode } from "../../src/view/view-node.js";
 import { arbTreeWithFoci } from "../helpers/random-tree.js";

@@ -1,6 +1,6 @@
 import type { Tree } from "../../src/model/tree.js";
-import { renderJson } from "../../src/render/json.js";
-import { renderText } from "../../src/render/text.js";
+import { renderJson } from "../../src/render/summary-json.js";
+import { renderText } from "../../src/render/summary-text.js";
 import { prepare, summarize } from "../../src/summarize.js";
 
 /** Summarise a tree and render it both ways, as the CLI does. */

@@ -11,9 +11,9 @@ import {
 } from "../../src/load/load-options.js";
 import { loadTreeFromStream } from "../../src/load/stream/index.js";
 import type { Tree } from "../../src/model/tree.js";
-import { renderJson } from "../../src/render/json.js";
-import { renderMarkdown } from "../../src/render/markdown.js";
-import { renderText } from "../../src/render/text.js";
+import { renderJson } from "../../src/render/summary-json.js";
+import { renderMarkdown } from "../../src/render/summary-markdown.js";
+import { renderText } from "../../src/render/summary-text.js";
 import { prepare, summarize } from "../../src/summarize.js";
 import { cli } from "../helpers/cli.js";
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { loadTree } from "../../src/load/index.js";
-import { renderJson } from "../../src/render/json.js";
-import { renderText } from "../../src/render/text.js";
+import { renderJson } from "../../src/render/summary-json.js";
+import { renderText } from "../../src/render/summary-text.js";
 import { prepare, summarize } from "../../src/summarize.js";
 import { cli } from "../helpers/cli.js";
 import { caught, opts } from "../load/helpers.js";

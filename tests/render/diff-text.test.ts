@@ -4,14 +4,20 @@ import { diffTrees } from "../../src/diff/diff-trees.js";
 import { StringNames } from "../../src/model/names.js";
 import type { Tree } from "../../src/model/tree.js";
 import { renderDiffText } from "../../src/render/diff-text.js";
-import { displayWidth } from "../../src/render/fit-width.js";
+import { displayWidth } from "../../src/render/display-width.js";
 import { arbEdited } from "../diff/edit-script.js";
 import { makeIdTree } from "../diff/id-tree.js";
 import { makeTree } from "../helpers/make-tree.js";
 
-function text(oldTree: Tree, newTree: Tree, budget = 40, sizes = oldTree.hasSizes || newTree.hasSizes) {
-  const r = diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth" });
-  return renderDiffText(r.view, r.totals, { units: "bytes", sizes, by: r.combined.by });
+function text(
+  oldTree: Tree,
+  newTree: Tree,
+  budget = 40,
+  sizes = oldTree.hasSizes || newTree.hasSizes,
+  chains = false,
+) {
+  const r = diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth", chains });
+  return renderDiffText(r.view, r.totals, { units: "bytes", sizes, by: r.combined.by, chains });
 }
 
 describe("renderDiffText(view, totals, options)", () => {
@@ -54,6 +60,22 @@ describe("renderDiffText(view, totals, options)", () => {
       "  > A  3 nodes, 26 B, net -4 B  +2 more: 2 nodes, 26 B; 1 removed, 1 resized, net -4 B",
       "  > B  3 nodes, 8 B, net +3 B  +2 more: 2 nodes, 8 B; 1 added, net +3 B",
     ]);
+  });
+
+  it("joins a run of only children onto one line, as a summary does, but never below a change", () => {
+    const oldTree = makeTree("R{A{B{C{x:1}}},D{E{F:2}}}");
+    const newTree = makeTree("R{A{B{C{x:1,y:4}}},D{E{F:3}}}");
+    expect(text(oldTree, newTree, 40, true, true)).toBe(
+      [
+        "matched by path: 1 added, 0 removed, 0 moved, 0 renamed, 1 resized; 8 -> 9 nodes; size 3 B -> 8 B (+5 B)",
+        "> R  9 nodes, 8 B, net +5 B",
+        "  > A / B / C  5 nodes, 5 B, net +4 B",
+        "    - x  1 B",
+        "    > [added +4 B] y  4 B",
+        "  > D / E / [resized +1 B] F  3 nodes, 3 B, net +1 B",
+        "",
+      ].join("\n"),
+    );
   });
 
   it("names a renamed node's old name and a move from the root, escaping control characters", () => {

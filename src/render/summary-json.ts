@@ -1,5 +1,6 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import type { ViewNode } from "../view/view-node.js";
+import { jsonNodeFields } from "./json-node.js";
 import { jsonText } from "./json-text.js";
 import { mapTree } from "./map-tree.js";
 import { SUMMARY_FORMAT, type Summary, type SummaryNode } from "./summary-schema.js";
@@ -15,14 +16,7 @@ export interface JsonOptions {
 /** The summary JSON object (see docs/summary.schema.json). Iterative: any depth of view is fine. */
 export function toSummary(view: HierarchyNode<ViewNode>, options: JsonOptions): Summary {
   const convert = (node: ViewNode): SummaryNode => ({
-    name: node.name,
-    path: node.path,
-    ...(node.id !== null ? { id: node.id } : {}),
-    ...(options.labels ? { label: node.label } : {}),
-    interest: node.interest,
-    nodes: node.nodes,
-    size: node.size,
-    focus: node.focus,
+    ...jsonNodeFields(node, options.labels),
     children: [],
     hidden: node.hidden ? { ...node.hidden } : null,
   });

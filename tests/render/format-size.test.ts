@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { formatPlain, formatSize } from "../../src/render/units.js";
+import { formatPlain, formatSize } from "../../src/render/format-size.js";
 
 describe("formatSize(value, units)", () => {
   // Source: IEC 80000-13:2008, binary prefixes: kibi (Ki) = 2^10, mebi (Mi) = 2^20, gibi (Gi) = 2^30,

@@ -2,9 +2,10 @@ import { Parser } from "commonmark";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { buildTree } from "../../src/model/build-tree.js";
-import { shownLabel } from "../../src/render/escape.js";
-import { markdownText, renderMarkdown } from "../../src/render/markdown.js";
-import { renderText } from "../../src/render/text.js";
+import { markdownText } from "../../src/render/markdown-escape.js";
+import { shownLabel } from "../../src/render/safe-text.js";
+import { renderMarkdown } from "../../src/render/summary-markdown.js";
+import { renderText } from "../../src/render/summary-text.js";
 import { prepare, summarize } from "../../src/summarize.js";
 import { makeTree } from "../helpers/make-tree.js";
 

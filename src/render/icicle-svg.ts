@@ -1,12 +1,12 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { type ChangeKind, changeKinds } from "../diff/changes.js";
 import type { ViewNode } from "../view/view-node.js";
-import { shownLabel } from "./escape.js";
-import { displayWidth, shortenMiddle } from "./fit-width.js";
-import { type IcicleBlock, icicle } from "./icicle.js";
-import { xmlEscape } from "./svg-escape.js";
-import { amount } from "./text.js";
-import { formatSize, type Units } from "./units.js";
+import { amount } from "./amount.js";
+import { displayWidth, shortenMiddle } from "./display-width.js";
+import { formatSize, type Units } from "./format-size.js";
+import { type IcicleBlock, icicle } from "./icicle-layout.js";
+import { shownLabel } from "./safe-text.js";
+import { xmlEscape } from "./xml-escape.js";
 
 export interface SvgOptions<T extends ViewNode = ViewNode> {
   units: Units;

@@ -1,7 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { buildTree } from "../../src/model/build-tree.js";
 import { measure } from "../../src/model/measure.js";
-import { MARK } from "../../src/render/text.js";
 import { makeTree } from "../helpers/make-tree.js";
 import { generatedTree, summaryOf } from "../helpers/summary.js";
 
@@ -32,7 +31,6 @@ describe("renderText(view, options)", () => {
     const t = makeTree("::warning{##vso[task.setvariable]}");
     const { text } = summaryOf(t, [], 10);
     for (const line of text.trimEnd().split("\n")) expect(line).toMatch(/^ *[*>-] /);
-    expect(Object.values(MARK)).toEqual(["*", ">", "-"]);
   });
 
   it("spends no line on chrome: a 20,000-node tree with two deep foci shows as many nodes as it has lines", () => {

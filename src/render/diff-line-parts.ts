@@ -1,0 +1,69 @@
+import { type ChangeCounts, changeKinds } from "../diff/changes.js";
+import type { DiffViewNode } from "../diff/diff-view.js";
+import { amount, type NumberOptions } from "./amount.js";
+import { shortenMiddle } from "./display-width.js";
+import { formatSize } from "./format-size.js";
+import type { LineGroup } from "./line-groups.js";
+import type { LineParts } from "./line-layout.js";
+import { foldAmount, lineParts } from "./line-parts.js";
+import { safeText, shownLabel } from "./safe-text.js";
+
+/** Columns an old parent's path or old name keeps in a tag on a narrow line. */
+const SHORT_FROM = 8;
+
+/**
+ * What the line of `group` says in a diff: the summary's parts (see `lineParts`) plus the change tag
+ * of the chain's last node, the net size change after the numbers, and the changes inside the fold.
+ * A removed node holds no size now, so its numbers show only its count.
+ */
+export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOptions): LineParts {
+  const parts = lineParts(group, options);
+  const top = group.nodes[0];
+  const last = group.nodes[group.nodes.length - 1];
+  const removed = top.change === "removed";
+  const numbers = [
+    amount(top.nodes, removed ? 0 : top.size, { ...options, sizes: options.sizes && !removed }),
+  ];
+  if (options.sizes && top.nodes > 1 && top.net !== 0) numbers.push(`net ${signed(top.net, options)}`);
+  const hidden = last.hidden;
+  const inside = hidden ? changeSummary(hidden.changes, hidden.delta, options) : "";
+  return {
+    ...parts,
+    tag: changeTag(last, options),
+    shortTag: changeTag(last, options, SHORT_FROM),
+    numbers: numbers.filter((s) => s !== "").join(", "),
+    fold: hidden ? `+${hidden.children} more: ${foldAmount(last, options)}; ${inside}` : "",
+    foldShort: hidden ? `+${hidden.children} more; ${inside}` : "",
+  };
+}
+
+/**
+ * `[added]`, `[removed]`, `[moved from OLD/PARENT]`, `[renamed from OLD]`, `[resized]`, with the
+ * node's own size change signed (`[resized +12 B]`); the old path or name cut to `fromWidth` columns.
+ */
+export function changeTag(node: DiffViewNode, options: NumberOptions, fromWidth?: number): string {
+  if (node.change === null) return "";
+  const parts: string[] = [node.change];
+  if (node.movedFrom !== null) {
+    const from = node.movedFrom === "" ? "the root" : safeText(node.movedFrom);
+    parts[0] += ` from ${fromWidth === undefined ? from : shortenMiddle(from, fromWidth)}`;
+  }
+  if (node.renamedFrom !== null) {
+    const from = shownLabel(node.renamedFrom);
+    parts[0] += ` from ${fromWidth === undefined ? from : shortenMiddle(from, fromWidth)}`;
+  }
+  if (options.sizes && node.delta !== 0) parts.push(signed(node.delta, options));
+  return `[${parts.join(node.movedFrom !== null || node.renamedFrom !== null ? ", " : " ")}]`;
+}
+
+/** `2 added, 1 resized, net +1.0 KiB`, or `unchanged`. */
+export function changeSummary(changes: ChangeCounts, delta: number, options: NumberOptions): string {
+  const parts = changeKinds.filter((k) => changes[k] > 0).map((k) => `${changes[k]} ${k}`);
+  if (options.sizes && delta !== 0) parts.push(`net ${signed(delta, options)}`);
+  return parts.length > 0 ? parts.join(", ") : "unchanged";
+}
+
+/** A size change with its sign: `+12 B`, `-3.0 KiB`. */
+export function signed(value: number, options: NumberOptions): string {
+  return value < 0 ? formatSize(value, options.units) : `+${formatSize(Math.abs(value), options.units)}`;
+}
