@@ -1,20 +1,23 @@
+import { Buffer } from "node:buffer";
 import { EspalierError } from "../errors.js";
 import { buildTree } from "../model/build-tree.js";
+import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { Tree } from "../model/tree.js";
+import { byteLoader } from "./byte-loader.js";
 import { detectFormat } from "./detect-format.js";
-import { linkTable } from "./link-table.js";
-import { loadJson } from "./load-json.js";
-import type { LoadOptions } from "./load-options.js";
-import { loadPathList } from "./load-path-list.js";
+import type { InputFormat, LoadOptions } from "./load-options.js";
 import { loadYaml } from "./load-yaml.js";
-import { csvTable } from "./table.js";
+import { csvTableFromBytes } from "./table/csv-table.js";
+import { linkTable } from "./table/link-table.js";
 
 export { detectFormat } from "./detect-format.js";
 export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } from "./load-options.js";
 
 /**
  * Reads already-decoded text into a {@link Tree}: strips a leading byte order mark, detects the format
- * unless `options.format` forces one, links the nodes and orders them. Every failure is an
+ * unless `options.format` forces one, and reads the text's UTF-8 bytes with the same loaders the
+ * streaming `loadTreeFromStream` uses (YAML as text), so both give the same tree and the same errors.
+ * A lone surrogate in the text reads as U+FFFD, as it would from a file. Every failure is an
  * {@link EspalierError} whose position names `options.file`.
  */
 export function loadTree(text: string, options: LoadOptions): Tree {
@@ -30,19 +33,18 @@ export function loadTree(text: string, options: LoadOptions): Tree {
   }
 }
 
-function linkedNodes(body: string, format: LoadOptions["format"] & string, options: LoadOptions) {
-  switch (format) {
-    case "json":
-    case "rows":
-      // A detected format is a guess from the first record; the parsed value decides.
-      return loadJson(body, options, options.format === undefined ? undefined : format);
-    case "yaml":
-      return loadYaml(body, options);
-    case "csv":
-      return linkTable(csvTable(body, ",", options.maxNodes), options);
-    case "tsv":
-      return linkTable(csvTable(body, "\t", options.maxNodes), options);
-    case "paths":
-      return loadPathList(body, options);
+function linkedNodes(body: string, format: InputFormat, options: LoadOptions): LinkedNodes {
+  if (format === "yaml") return loadYaml(body, options);
+  const bytes = Buffer.from(body, "utf8");
+  const loader = byteLoader(format, options);
+  if (loader) {
+    loader.write(bytes);
+    return loader.end();
+  }
+  const table = csvTableFromBytes(bytes, format === "csv" ? "," : "\t", options);
+  try {
+    return linkTable(table, options);
+  } finally {
+    table.release?.();
   }
 }

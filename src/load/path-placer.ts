@@ -1,62 +1,91 @@
+import { Buffer } from "node:buffer";
 import { EspalierError, quoted, say } from "../errors.js";
+import { codecs } from "../model/buffer-codecs.js";
 import { ChildTable, doubled, hashStep, mix, seed } from "../model/child-hash.js";
+import { NamePool } from "../model/names.js";
 import type { NodeSink } from "./node-sink.js";
 
 const slash = 47;
+const EMPTY = Buffer.alloc(0);
 
 /**
- * Nodes by "/"-separated path, creating missing ancestors (own size 0) on the way. A leading "/" is a
- * top node named "/"; trailing and doubled slashes are ignored; other segments (".", "..") are names.
- * A path may name a node that was created implicitly before; naming the same path twice is DUPLICATE_PATH.
+ * Nodes by "/"-separated path, given as UTF-8 bytes, creating missing ancestors (own size 0) on the way.
+ * A leading "/" is a top node named "/"; trailing and doubled slashes are ignored; other segments (".",
+ * "..") are names. A path may name a node that was created implicitly before; naming the same path
+ * twice is DUPLICATE_PATH.
  *
- * Children are found by (parent, name) in one open-addressing hash table of node numbers, hashed while
- * the segment is scanned, so no string is cut for a lookup and no object is made per directory.
- * Listings put related paths next to each other, so the walk starts from the deepest ancestor shared
- * with the previous path, usually leaving one lookup per path.
+ * Children are found by (parent, name) in one open-addressing hash table of node numbers, hashed on the
+ * segment's bytes as it is scanned, so no string is cut for a lookup and no object is made per
+ * directory. Listings put related paths next to each other, so the walk starts from the deepest
+ * ancestor shared with the previous path (compared four bytes at a time), usually leaving one lookup
+ * per path. The bytes must be valid UTF-8, so that equal names are equal bytes.
  */
 export class PathPlacer {
-  private readonly table = new ChildTable();
-  // Each node's own segment, the name it is found by (a table may relabel the node in the sink).
-  private readonly keys: string[] = [];
-  private explicit = new Uint8Array(1024);
   private readonly sink: NodeSink;
-  private readonly unit: "line" | "row";
-  // The previous path, text.slice(prevStart, prevStart + prevLength), and its nodes: stackNode[d]
-  // ends stackEnd[d] characters in.
-  private prevText = "";
+  // Each node's own segment, the name it is found by: the sink's names, unless a table may relabel the
+  // node there (a name column), in which case a pool of its own.
+  private readonly keys: NamePool;
+  // Children by (parent, name), hashed on the name's bytes seeded with the parent.
+  private readonly table = new ChildTable();
+  private explicit = new Uint8Array(1024);
+  private created = false;
+  // The previous path, prevBytes[prevStart, prevStart + prevLength) (prevView reads the same bytes four
+  // at a time), and its nodes: stackNode[d] ends stackEnd[d] bytes in. The caller must not overwrite
+  // the previous path's bytes before the next call.
+  private prevBytes: Buffer = EMPTY;
+  private prevView = viewOf(EMPTY);
   private prevStart = 0;
   private prevLength = 0;
   private stackNode = new Int32Array(64);
   private stackEnd = new Int32Array(64);
   private stackDepth = 0;
-  private created = false;
 
-  constructor(sink: NodeSink) {
+  // For paths given as text: two buffers taking turns, so the previous path's bytes stay as they are.
+  private scratch = [Buffer.allocUnsafe(256), Buffer.allocUnsafe(256)];
+  private scratchView = this.scratch.map(viewOf);
+  private turn = 0;
+
+  /** `ownKeys`: keep the names found by apart from the sink's, which the caller may change. */
+  constructor(sink: NodeSink, ownKeys = false) {
     this.sink = sink;
-    this.unit = sink.originIsRow ? "row" : "line";
+    this.keys = ownKeys ? new NamePool() : sink.name;
+  }
+
+  /** As {@link place}, for the path `text` (as UTF-8: a lone surrogate becomes U+FFFD). */
+  placeText(text: string, origin: number): number {
+    const turn = this.turn;
+    const most = text.length * 3;
+    if (this.scratch[turn].length < most) {
+      this.scratch[turn] = Buffer.allocUnsafe(Math.max(most, this.scratch[turn].length * 2));
+      this.scratchView[turn] = viewOf(this.scratch[turn]);
+    }
+    const length = codecs.utf8Write(this.scratch[turn], text, 0, most);
+    this.turn = 1 - turn;
+    return this.place(this.scratch[turn], this.scratchView[turn], 0, length, origin);
   }
 
   /**
-   * The node named by the path `text.slice(start, end)`, its origin set to `origin`; -1 for a path with
-   * no segments. Offsets, not a sliced string, so a whole listing is read in place.
+   * The node named by the path `bytes[start, end)`, (as PathPlacer.place does for a table's path column): the walk starts
+   * from the deepest node of the previous path whose whole path is a prefix of this one.
    */
-  place(text: string, start: number, end: number, origin: number): number {
+  place(bytes: Buffer, view: DataView, start: number, end: number, origin: number): number {
     const length = end - start;
     const sink = this.sink;
     let { stackNode, stackEnd } = this;
 
-    // The deepest node of the previous path whose whole path is a prefix of this one.
-    const prev = this.prevText;
+    // The length of the prefix shared with the previous path: four bytes at a time, then one.
+    const prev = this.prevBytes;
+    const prevView = this.prevView;
     const prevStart = this.prevStart;
     const limit = Math.min(length, this.prevLength);
     let common = 0;
-    while (common < limit && text.charCodeAt(start + common) === prev.charCodeAt(prevStart + common))
-      common++;
+    while (common + 4 <= limit && view.getInt32(start + common) === prevView.getInt32(prevStart + common))
+      common += 4;
+    while (common < limit && bytes[start + common] === prev[prevStart + common]) common++;
     let depth = this.stackDepth;
     while (depth > 0) {
       const e = stackEnd[depth - 1];
-      const boundary =
-        e === length || text.charCodeAt(start + e) === slash || (e === 1 && text.charCodeAt(start) === slash);
+      const boundary = e === length || bytes[start + e] === slash || (e === 1 && bytes[start] === slash);
       if (e <= common && boundary) break;
       depth--;
     }
@@ -64,8 +93,8 @@ export class PathPlacer {
     let node = depth > 0 ? stackNode[depth - 1] : -1;
     let at = depth > 0 ? stackEnd[depth - 1] : 0;
     let created = false;
-    if (at === 0 && length > 0 && text.charCodeAt(start) === slash) {
-      node = this.child(node, text, start, start + 1, hashStep(seed(node), slash), origin);
+    if (at === 0 && length > 0 && bytes[start] === slash) {
+      node = this.child(node, bytes, start, start + 1, hashStep(seed(node), slash), origin);
       created = this.created;
       stackNode[depth] = node;
       stackEnd[depth] = 1;
@@ -73,16 +102,16 @@ export class PathPlacer {
       at = 1;
     }
     for (;;) {
-      while (at < length && text.charCodeAt(start + at) === slash) at++;
+      while (at < length && bytes[start + at] === slash) at++;
       if (at >= length) break;
       let hash = seed(node);
       let stop = at;
       for (; stop < length; stop++) {
-        const c = text.charCodeAt(start + stop);
+        const c = bytes[start + stop];
         if (c === slash) break;
         hash = hashStep(hash, c);
       }
-      node = this.child(node, text, start + at, start + stop, hash, origin);
+      node = this.child(node, bytes, start + at, start + stop, hash, origin);
       created = this.created;
       if (depth === stackNode.length) {
         this.growStack();
@@ -94,7 +123,8 @@ export class PathPlacer {
       at = stop;
     }
     this.stackDepth = depth;
-    this.prevText = text;
+    this.prevBytes = bytes;
+    this.prevView = view;
     this.prevStart = start;
     this.prevLength = length;
     if (node === -1) return -1;
@@ -106,11 +136,12 @@ export class PathPlacer {
     }
     if (!created) {
       if (this.explicit[node] === 1) {
-        const shown = quoted.path(text.slice(start, end));
+        const shown = quoted.path(bytes.toString("utf8", start, end));
+        const unit = sink.originIsRow ? "row" : "line";
         throw new EspalierError(
           "DUPLICATE_PATH",
-          say`${this.unit} ${origin} repeats the path ${shown} of ${this.unit} ${sink.origin[node]}`,
-          this.unit === "row" ? { row: origin } : { line: origin },
+          say`${unit} ${origin} repeats the path ${shown} of ${unit} ${sink.origin[node]}`,
+          sink.originIsRow ? { row: origin } : { line: origin },
         );
       }
       sink.origin[node] = origin;
@@ -120,35 +151,29 @@ export class PathPlacer {
   }
 
   /**
-   * The child of `parent` named `text.slice(s, e)`, whose hash is `hash`, added when missing;
-   * `this.created` says which.
+   * The child of `parent` named by `bytes[s, e)`, whose hash is `hash`,
+   * added when missing; `this.created` says which.
    */
-  private child(parent: number, text: string, s: number, e: number, hash: number, origin: number): number {
+  private child(parent: number, bytes: Buffer, s: number, e: number, hash: number, origin: number): number {
     const { sink } = this;
     const { slots, hashes } = this.table;
     const mask = slots.length - 1;
-    const length = e - s;
     let h = mix(hash) & mask;
     for (let slot = slots[h]; slot !== 0; slot = slots[h]) {
       const node = slot - 1;
       if (hashes[node] === hash && sink.parentOf[node] === parent) {
-        const name = this.keys[node];
-        if (name.length === length) {
-          let k = 0;
-          while (k < length && name.charCodeAt(k) === text.charCodeAt(s + k)) k++;
-          if (k === length) {
-            this.created = false;
-            return node;
-          }
+        // Valid UTF-8 (see the class comment) has one spelling per name, so equal names are equal bytes.
+        if (this.keys.equalsBytes(node, bytes, s, e)) {
+          this.created = false;
+          return node;
         }
       }
       h = (h + 1) & mask;
     }
     this.created = true;
-    const name = detach(text.slice(s, e));
-    const node = sink.add(parent, name, origin);
-    this.keys[node] = name;
-    this.table.add(node, hash, h, this.keys.length);
+    const node = sink.addBytes(parent, bytes, s, e, origin);
+    if (this.keys !== sink.name) this.keys.setBytes(node, bytes, s, e);
+    this.table.add(node, hash, h, sink.length);
     return node;
   }
 
@@ -158,11 +183,7 @@ export class PathPlacer {
   }
 }
 
-/**
- * A copy of a name that no longer refers to the text it was cut from. V8 makes a slice of 13 or more
- * characters a view into its parent string, so keeping such names would keep the whole listing (or every
- * chunk of a stream) alive; joining and slicing again copies just the name.
- */
-function detach(name: string): string {
-  return name.length < 13 ? name : ` ${name}`.slice(1);
+/** A view reading the bytes four at a time (at any offset). */
+export function viewOf(bytes: Buffer): DataView {
+  return new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 }

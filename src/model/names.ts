@@ -1,4 +1,5 @@
 import { EspalierError } from "../errors.js";
+import { codecs } from "./buffer-codecs.js";
 import { hashBytes } from "./child-hash.js";
 
 /**
@@ -94,12 +95,6 @@ export function namesToArray(names: Names): string[] {
   return out;
 }
 
-// Buffer's own codecs, without toString's argument checks and encoding lookup (a name costs one call).
-interface Codecs {
-  utf8Slice(start: number, end: number): string;
-  utf8Write(text: string, offset: number, length: number): number;
-}
-
 const LONGEST_POOL = 2 ** 32 - 1;
 
 /**
@@ -110,7 +105,7 @@ const LONGEST_POOL = 2 ** 32 - 1;
  */
 export class NamePool implements Names {
   length = 0;
-  private bytes: Buffer & Codecs;
+  private bytes: Buffer;
   private used = 0;
   private start: Uint32Array;
   private size: Uint32Array;
@@ -121,7 +116,7 @@ export class NamePool implements Names {
   constructor(capacity = 1024, poolBytes = 1 << 16) {
     this.start = new Uint32Array(Math.max(1, capacity));
     this.size = new Uint32Array(Math.max(1, capacity));
-    this.bytes = Buffer.allocUnsafe(Math.max(16, poolBytes)) as Buffer & Codecs;
+    this.bytes = Buffer.allocUnsafe(Math.max(16, poolBytes));
   }
 
   get(i: number): string {
@@ -130,7 +125,7 @@ export class NamePool implements Names {
       if (text !== undefined) return text;
     }
     const s = this.start[i];
-    return this.bytes.utf8Slice(s, s + this.size[i]);
+    return codecs.utf8Slice(this.bytes, s, s + this.size[i]);
   }
 
   /** Makes room for nodes up to index `length - 1`; new nodes have the empty name. */
@@ -163,7 +158,7 @@ export class NamePool implements Names {
       return;
     }
     const at = this.reserve(text.length * 3);
-    const n = this.bytes.utf8Write(text, at, text.length * 3);
+    const n = codecs.utf8Write(this.bytes, text, at, text.length * 3);
     this.used = at + n;
     this.place(i, at, n);
     if (!text.isWellFormed()) {
@@ -245,7 +240,7 @@ export class NamePool implements Names {
     const extraSize = extra === "" ? 0 : Buffer.byteLength(extra, "utf8");
     if (extraSize > 0) {
       this.reserve(extraSize);
-      this.used = extraAt + this.bytes.utf8Write(extra, extraAt, extraSize);
+      this.used = extraAt + codecs.utf8Write(this.bytes, extra, extraAt, extraSize);
     }
     const out = new NamePool(total, 16);
     out.bytes = this.bytes;
@@ -291,8 +286,7 @@ export class NamePool implements Names {
   /** A pool from {@link toParts}'s data (as another thread received it). */
   static fromParts(parts: NamePoolParts): NamePool {
     const pool = new NamePool(Math.max(1, parts.length), 16);
-    pool.bytes = Buffer.from(parts.bytes.buffer, parts.bytes.byteOffset, parts.bytes.byteLength) as Buffer &
-      Codecs;
+    pool.bytes = Buffer.from(parts.bytes.buffer, parts.bytes.byteOffset, parts.bytes.byteLength);
     pool.used = parts.bytes.byteLength;
     pool.shared = true; // the received bytes are exactly full: the next append copies them
     pool.start.set(parts.start);
@@ -320,9 +314,7 @@ export class NamePool implements Names {
         "the names of the input take more than 4 GiB; load a smaller part of it",
       );
     }
-    const grown = Buffer.allocUnsafe(
-      Math.min(LONGEST_POOL, Math.max(need, this.bytes.length * 2)),
-    ) as Buffer & Codecs;
+    const grown = Buffer.allocUnsafe(Math.min(LONGEST_POOL, Math.max(need, this.bytes.length * 2)));
     this.bytes.copy(grown, 0, 0, this.used);
     this.bytes = grown;
     this.shared = false;

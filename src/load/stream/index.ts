@@ -3,20 +3,20 @@ import { EspalierError } from "../../errors.js";
 import { buildTree } from "../../model/build-tree.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { Tree } from "../../model/tree.js";
+import { byteLoader } from "../byte-loader.js";
 import { detectFormat } from "../detect-format.js";
-import { linkTable } from "../link-table.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
 import { loadYaml } from "../load-yaml.js";
-import { csvStreamTable } from "./csv-stream-table.js";
-import { JsonStreamLoader } from "./json-stream-loader.js";
-import { pathListStream } from "./path-list-stream.js";
+import { csvTableFromStream } from "../table/csv-table.js";
+import { linkTable } from "../table/link-table.js";
 import { readStart } from "./read-start.js";
 
 /**
  * Reads a byte stream into a {@link Tree}, never holding the input as one string: the streaming
- * counterpart of `loadTree`, giving the same tree for the same bytes. The format is detected from the
- * file name and the first bytes unless `options.format` forces one. JSON, JSON rows, CSV, TSV and path
- * lists stream; YAML is read whole (it cannot be longer than the engine's longest string).
+ * counterpart of `loadTree`, with the same loaders, so both give the same tree for the same bytes. The
+ * format is detected from the file name and the first bytes unless `options.format` forces one. JSON,
+ * JSON rows, CSV, TSV and path lists stream; YAML is read whole (it cannot be longer than the engine's
+ * longest string).
  */
 export async function loadTreeFromStream(
   chunks: AsyncIterable<Uint8Array>,
@@ -47,27 +47,17 @@ async function linkedNodes(
   format: InputFormat,
   options: LoadOptions,
 ): Promise<LinkedNodes> {
-  switch (format) {
-    case "json":
-    case "rows": {
-      // A detected format is a guess from the first bytes; the first element decides, as in memory.
-      const loader = new JsonStreamLoader(options, options.format === undefined ? undefined : format);
-      for await (const chunk of chunks) loader.write(chunk);
-      return loader.end();
-    }
-    case "csv":
-    case "tsv": {
-      const table = await csvStreamTable(chunks, format === "csv" ? "," : "\t", options);
-      try {
-        return linkTable(table, options);
-      } finally {
-        table.release?.();
-      }
-    }
-    case "paths":
-      return pathListStream(chunks, options);
-    case "yaml":
-      return loadYaml(await wholeText(chunks), options);
+  if (format === "yaml") return loadYaml(await wholeText(chunks), options);
+  const loader = byteLoader(format, options);
+  if (loader) {
+    for await (const chunk of chunks) loader.write(chunk);
+    return loader.end();
+  }
+  const table = await csvTableFromStream(chunks, format === "csv" ? "," : "\t", options);
+  try {
+    return linkTable(table, options);
+  } finally {
+    table.release?.();
   }
 }
 

@@ -18,8 +18,8 @@ const MOST = 1 << 24;
 /**
  * Reads the first chunks of a stream, enough to tell its format: 64 KiB or more, and past the first
  * non-blank byte and the end of the first line unless the input starts like JSON (at most 16 MiB).
- * Up to two UTF-8 byte-order marks are dropped, as the in-memory path drops one in decoding and one
- * more before detecting.
+ * Up to two UTF-8 byte-order marks are dropped, as decoding the whole text drops one and `loadTree`
+ * one more.
  */
 export async function readStart(chunks: AsyncIterable<Uint8Array>): Promise<StreamStart> {
   const iterator = chunks[Symbol.asyncIterator]();

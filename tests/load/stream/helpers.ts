@@ -1,11 +1,11 @@
 import { expect } from "vitest";
 import { EspalierError } from "../../../src/errors.js";
-import { loadTree } from "../../../src/load/index.js";
 import type { LoadOptions } from "../../../src/load/load-options.js";
 import { loadTreeFromStream } from "../../../src/load/stream/index.js";
 import type { Tree } from "../../../src/model/tree.js";
 import { prepare } from "../../../src/summarize.js";
 import { summaryOf } from "../../helpers/summary.js";
+import { loadReference } from "../reference/load-reference.js";
 
 /** The bytes as a stream cut at the given offsets (sorted, inside the input). */
 export async function* chunked(bytes: Uint8Array, cuts: readonly number[]): AsyncGenerator<Uint8Array> {
@@ -27,9 +27,13 @@ export function utf8(text: string): Uint8Array {
   return new TextEncoder().encode(text);
 }
 
-/** What the in-memory path does with the bytes: decode as the CLI does, then loadTree. */
-export function loadInMemory(bytes: Uint8Array, options: LoadOptions): Tree {
-  return loadTree(new TextDecoder("utf-8", { ignoreBOM: false }).decode(bytes), options);
+/**
+ * The reference answer for the bytes: decoded as a whole (WHATWG UTF-8, BOM dropped), then read by the
+ * whole-text readers in tests/load/reference (JSON.parse and a walk, csv-parse's synchronous parser, a
+ * path-list reader on text).
+ */
+export function loadByReference(bytes: Uint8Array, options: LoadOptions): Tree {
+  return loadReference(new TextDecoder("utf-8", { ignoreBOM: false }).decode(bytes), options);
 }
 
 export function loadStreamed(

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { loadTreeFromStream } from "../../../src/load/stream/index.js";
 import { opts } from "../helpers.js";
-import { expectSameTree, loadInMemory, loadStreamed, outcomeOfAsync, utf8 } from "./helpers.js";
+import { expectSameTree, loadByReference, loadStreamed, outcomeOfAsync, utf8 } from "./helpers.js";
 
 describe("loadTreeFromStream", () => {
   it("loadTreeFromStream(bytes) detects each format from the name and the first bytes as loadTree does", async () => {
@@ -20,7 +20,7 @@ describe("loadTreeFromStream", () => {
       const options = opts({ file: file === "stdin" ? undefined : file });
       const bytes = utf8(text);
       const tree = await loadStreamed(bytes, options, [1, 5, 9]);
-      expectSameTree(tree, loadInMemory(bytes, options));
+      expectSameTree(tree, loadByReference(bytes, options));
     }
   });
 
@@ -30,9 +30,9 @@ describe("loadTreeFromStream", () => {
     expect(bytes.length).toBeGreaterThan(1 << 17);
     const cuts = Array.from({ length: 200 }, (_, k) => 997 * (k + 1));
     const tree = await loadStreamed(bytes, opts(), cuts);
-    expectSameTree(tree, loadInMemory(bytes, opts()));
+    expectSameTree(tree, loadByReference(bytes, opts()));
     const lines = utf8(Array.from({ length: 9000 }, (_, k) => `${k}\tdocs/d${k % 7}/f${k}`).join("\n"));
-    expectSameTree(await loadStreamed(lines, opts(), cuts), loadInMemory(lines, opts()));
+    expectSameTree(await loadStreamed(lines, opts(), cuts), loadByReference(lines, opts()));
   });
 
   it("loadTreeFromStream(bytes) reports input holding only white space or byte-order marks as INPUT_EMPTY", async () => {

@@ -1,8 +1,8 @@
 import type { NodeSink } from "../node-sink.js";
 
 /**
- * Puts the children of a children-by-name object in the order JSON.parse gives its keys, so a streaming
- * loader builds the same tree as the in-memory one: keys that are array indices first, ascending, then
+ * Puts the children of a children-by-name object in the order JSON.parse gives its keys, so the byte
+ * loader builds the tree a program holding the parsed value would see: keys that are array indices first, ascending, then
  * the other keys in input order (ECMA-262 OrdinaryOwnPropertyKeys); a repeated key keeps the place of
  * its first occurrence and the value of its last (the earlier values are dropped).
  *

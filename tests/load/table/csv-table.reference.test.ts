@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { csvStreamTable } from "../../../src/load/stream/csv-stream-table.js";
+import { csvTableFromStream } from "../../../src/load/table/csv-table.js";
 import { opts } from "../helpers.js";
 import {
   awkwardAt,
@@ -8,14 +8,14 @@ import {
   everyByte,
   expectSameTree,
   expectSameTreeAndSummaries,
-  loadInMemory,
+  loadByReference,
   loadStreamed,
   outcomeOf,
   outcomeOfAsync,
   type Rng,
   rng,
   utf8,
-} from "./helpers.js";
+} from "../stream/helpers.js";
 
 const NAMES = ["Optics", "Mira Quell", "é", "日本", "😀", "a, b", 'say "hi"', "two\nlines", "", " padded "];
 
@@ -68,7 +68,7 @@ function table(r: Rng, rows: number, delimiter: string): string {
 const awkward = (bytes: Uint8Array) => awkwardAt(bytes, [0x0d, 0x0a, 0x22, 0x2c]);
 
 describe("loadTreeFromStream(csv)", () => {
-  it("loadTreeFromStream(csv, tsv) builds the tree loadTree builds and the same summaries, however the bytes are cut", async () => {
+  it("loadTreeFromStream(csv, tsv) builds the tree the reference builds and the same summaries, however the bytes are cut", async () => {
     await fc.assert(
       fc.asyncProperty(fc.integer(), fc.integer({ min: 1, max: 30 }), async (seed, rows) => {
         const r = rng(seed);
@@ -80,7 +80,7 @@ describe("loadTreeFromStream(csv)", () => {
           keepFields: r.chance(0.5) ? ["team"] : [],
         });
         const cuts = cutsFor(r, bytes.length, r.int(0, 16), awkward(bytes));
-        const expected = outcomeOf(() => loadInMemory(bytes, options));
+        const expected = outcomeOf(() => loadByReference(bytes, options));
         const actual = await outcomeOfAsync(() => loadStreamed(bytes, options, cuts));
         if (!("tree" in expected) || !("tree" in actual)) {
           expect(actual).toEqual(expected);
@@ -95,11 +95,11 @@ describe("loadTreeFromStream(csv)", () => {
   it("loadTreeFromStream(csv) reads single-byte chunks: a quoted line break, a CRLF, a cut character", async () => {
     const bytes = utf8('\ufeffid,parent,name\r\n1,,"Quill\r\nfeather, ""é"""\r\n2,1,日本\r\n');
     const tree = await loadStreamed(bytes, opts({ format: "csv" }), everyByte(bytes.length));
-    expectSameTree(tree, loadInMemory(bytes, opts({ format: "csv" })));
+    expectSameTree(tree, loadByReference(bytes, opts({ format: "csv" })));
     expect(tree.name).toEqual(['Quill\r\nfeather, "é"', "日本"]);
   });
 
-  it("loadTreeFromStream(csv) reports errors at the lines and rows loadTree reports", async () => {
+  it("loadTreeFromStream(csv) reports errors at the lines and rows the reference reports", async () => {
     const cases: [string, string][] = [
       ['id,parent\n1,\n2,"1\n3,1\n', "csv"],
       ['id,parent\n1,\n\n2,1"x"\n', "csv"],
@@ -116,7 +116,7 @@ describe("loadTreeFromStream(csv)", () => {
     for (const [text, format] of cases) {
       const bytes = utf8(text);
       const options = opts({ format: format as "csv" | "tsv", file: "org.csv" });
-      const expected = outcomeOf(() => loadInMemory(bytes, options));
+      const expected = outcomeOf(() => loadByReference(bytes, options));
       expect(expected, text).toHaveProperty("code");
       for (const cuts of [[], everyByte(bytes.length)]) {
         expect(await outcomeOfAsync(() => loadStreamed(bytes, options, cuts)), text).toEqual(expected);
@@ -136,7 +136,7 @@ describe("loadTreeFromStream(csv)", () => {
     async function* chunks() {
       yield utf8("id,parent,name\n1,,Quillfeather\n2,1,Optics\n");
     }
-    const table = await csvStreamTable(chunks(), ",", opts({}));
+    const table = await csvTableFromStream(chunks(), ",", opts({}));
     const names = table.column("name");
     table.release?.();
     expect(names).toEqual(["Quillfeather", "Optics"]);

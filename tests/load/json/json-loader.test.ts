@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { loadTree } from "../../src/load/index.js";
-import { caught, opts, outline } from "./helpers.js";
+import { loadTree } from "../../../src/load/index.js";
+import { caught, opts, outline } from "../helpers.js";
 
 const json = (text: string, overrides = {}) => loadTree(text, opts({ format: "json", ...overrides }));
 
@@ -110,8 +110,19 @@ describe("loadTree(json)", () => {
     const text = caught(() => json('{"name":"r","children":[{"name":"a/b","size":"12"}]}'));
     expect(text.code).toBe("BAD_SIZE");
     expect(text.message).toContain("r/a~1b");
-    expect(text.pos).toBeUndefined();
+    // The column of the offending value: its index in the text (UTF-16 units) + 1.
+    expect(text.pos).toEqual({ line: 1, column: 46 });
     expect(caught(() => json('{"name":"r","children":{"x":-1}}')).code).toBe("BAD_SIZE");
+  });
+
+  it("loadTree(json) places a structure error at a string holding multi-byte characters by its first character", () => {
+    // Columns count UTF-16 units of the text, so the column is the string's index in the JS string + 1
+    // (common practice, no source): the bytes of "é" itself must not pull its own column back.
+    for (const text of ['{"name":"r","children":["é"]}', '{"name":"日本","children":[ "😀x"]}']) {
+      const error = caught(() => json(text));
+      expect(error.code).toBe("SHAPE");
+      expect(error.pos).toEqual({ line: 1, column: text.lastIndexOf('"', text.lastIndexOf('"') - 1) + 1 });
+    }
   });
 
   it("loadTree(json) rejects children that are neither an array nor an object with SHAPE", () => {

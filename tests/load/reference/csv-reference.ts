@@ -1,28 +1,9 @@
 import { parse } from "csv-parse/sync";
-import { EspalierError, quoted, say } from "../errors.js";
-import type { NamePool } from "../model/names.js";
+import { EspalierError } from "../../../src/errors.js";
+import type { Table } from "../../../src/load/table/table.js";
 
-/** One cell: text from CSV/TSV, any JSON scalar from rows. */
-export type Cell = string | number | boolean | null | undefined;
-
-/** Records with named columns, read column by column. Data rows are numbered from 1. */
-export interface Table {
-  /** Number of data rows. */
-  readonly length: number;
-  /** Whether cells are text that still needs parsing (CSV/TSV), so "12" is a size. */
-  readonly textCells: boolean;
-  /** The column's cells, one per row, or undefined when no row has that column. */
-  column(name: string): readonly Cell[] | undefined;
-  /** The columns that exist, for messages. */
-  columnNames(): string[];
-  /**
-   * Lets go of the cells (columns read before stay valid; the table answers no more). The engine may
-   * keep a parser's closure alive in compiled code long after the load, and with it every cell.
-   */
-  release?(): void;
-  /** The column's cells as a name pool, one name per row, when the table kept it so; else undefined. */
-  pooledColumn?(name: string): NamePool | undefined;
-}
+// The whole-text CSV/TSV reader espalier had before every load went through the byte loaders, kept as a
+// reference answer: csv-parse's synchronous parser over the whole text, error lines found by re-reading.
 
 /**
  * A table from CSV (RFC 4180, delimiter ",") or TSV (delimiter "\t"). The first record is the header.
@@ -69,46 +50,6 @@ export function csvTable(text: string, delimiter: "," | "\t", maxRows: number): 
   };
 }
 
-/** A table from a parsed JSON array of flat objects (rows); each element must be an object. */
-export function rowsTable(rows: readonly unknown[]): Table {
-  for (let r = 0; r < rows.length; r++) {
-    const row = rows[r];
-    if (typeof row !== "object" || row === null || Array.isArray(row)) {
-      throw new EspalierError("SHAPE", `row ${r + 1} must be an object`, { row: r + 1 });
-    }
-  }
-  const records = rows as readonly Record<string, unknown>[];
-  return {
-    length: records.length,
-    textCells: false,
-    column(name) {
-      const cells: Cell[] = new Array(records.length);
-      let found = false;
-      for (let r = 0; r < records.length; r++) {
-        const record = records[r];
-        if (!Object.hasOwn(record, name)) {
-          cells[r] = undefined;
-          continue;
-        }
-        found = true;
-        const value = record[name];
-        if (typeof value === "object" && value !== null) {
-          throw new EspalierError("SHAPE", `the "${name}" of row ${r + 1} must be a plain value`, {
-            row: r + 1,
-          });
-        }
-        cells[r] = value as Cell;
-      }
-      return found ? cells : undefined;
-    },
-    columnNames() {
-      const names = new Set<string>();
-      for (const record of records) for (const key of Object.keys(record)) names.add(key);
-      return [...names];
-    },
-  };
-}
-
 /**
  * PARSE_CSV at the line where the faulty record starts: csv-parse reports the line where it noticed the
  * fault (for an unclosed quote, the end of the input), so the record's start is found by re-reading the
@@ -126,11 +67,7 @@ function csvError(error: Error, text: string, options: object): EspalierError {
   const line = firstNonBlankLineAfter(text, lastEnd);
   const reason = error.message.replace(/\s+(at|on) line \d+.*$/s, "");
   const pos = good > 0 ? { line, row: good } : { line };
-  return new EspalierError(
-    "PARSE_CSV",
-    say`invalid CSV (${(error as { code?: string }).code ?? "CSV_ERROR"}): ${quoted.excerpt(reason)}`,
-    pos,
-  );
+  return new EspalierError("PARSE_CSV", `invalid CSV: ${reason}`, pos);
 }
 
 /** The first line after line `after` (1-based) that holds more than whitespace; or the line after. */

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { loadTree } from "../../src/load/index.js";
-import { caught, opts, outline } from "./helpers.js";
+import { loadTree } from "../../../src/load/index.js";
+import { caught, opts, outline } from "../helpers.js";
 
 const paths = (text: string, overrides = {}) => loadTree(text, opts({ format: "paths", ...overrides }));
 

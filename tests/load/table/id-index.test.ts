@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { IdIndex } from "../../src/load/id-index.js";
+import { IdIndex } from "../../../src/load/table/id-index.js";
 
 describe("IdIndex", () => {
   it("IdIndex.add(id, row) returns -1 for a new id and the earlier row for a repeated one, by text", () => {

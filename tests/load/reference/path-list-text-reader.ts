@@ -1,18 +1,19 @@
-import { EspalierError, quoted, say } from "../errors.js";
-import type { LinkedNodes } from "../model/linked-nodes.js";
-import type { LoadOptions } from "./load-options.js";
-import { NodeSink } from "./node-sink.js";
-import { parseSize } from "./parse-size.js";
-import { PathPlacer } from "./path-placer.js";
+import { EspalierError } from "../../../src/errors.js";
+import type { LoadOptions } from "../../../src/load/load-options.js";
+import { NodeSink } from "../../../src/load/node-sink.js";
+import { parseSize } from "../../../src/load/parse-size.js";
+import type { LinkedNodes } from "../../../src/model/linked-nodes.js";
+import { PathPlacer } from "./path-placer-text.js";
 
 /**
  * Reads a path list a line at a time: one "/"-separated path per line, blank lines ignored. When the first
  * non-blank line holds a tab, every line is "size<TAB>path" (as `find -printf '%s\t%p\n'` prints);
- * otherwise a whole line is one path. Origins are line numbers. The in-memory loader feeds it text; the
- * streaming loader reads the same format on bytes with `PathListByteReader`, which builds the same
- * nodes (property tests in tests/load/stream hold the two together).
+ * otherwise a whole line is one path. Origins are line numbers.
+ *
+ * The reader on text espalier had before every path list was read as bytes, kept as a reference answer
+ * for `PathListReader` (tests/load/path-list/path-list-reader.reference.test.ts).
  */
-export class PathListReader {
+export class PathListTextReader {
   private readonly sink: NodeSink;
   private readonly index: PathPlacer;
   private sized: boolean | undefined;
@@ -70,7 +71,7 @@ export class PathListReader {
       if (!(size >= 0)) {
         throw new EspalierError(
           "BAD_SIZE",
-          say`the size on line ${line} must be a number from 0 to 2^53 - 1, got ${quoted.value(text.slice(start, tab))}`,
+          `the size on line ${line} must be a number from 0 to 2^53 - 1, got ${JSON.stringify(text.slice(start, tab))}`,
           { line, column: 1 },
         );
       }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { isArrayIndexKey } from "../../../src/load/stream/keyed-order.js";
+import { isArrayIndexKey } from "../../../src/load/json/keyed-order.js";
 
 describe("isArrayIndexKey", () => {
   it("isArrayIndexKey(key) is true exactly for the keys JSON.parse orders first", () => {

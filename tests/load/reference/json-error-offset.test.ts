@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { jsonErrorOffset } from "../../src/load/json-error-offset.js";
+import { jsonErrorOffset } from "./json-error-offset.js";
 
 /** V8's own offset, when its message gives one. */
 function v8Offset(text: string): number | undefined {

@@ -4,7 +4,7 @@ const MAX_NUMBER = 0x7fffffff;
 /**
  * Rows by id, for linking a table. An id is its text, but an id written as a plain whole number (digits
  * with no leading zero, below 2^31) is found by its value in a table indexed by that value, sized once
- * for the rows: no hashing, no string compared, and a parent cell kept as that number (csvStreamTable)
+ * for the rows: no hashing, no string compared, and a parent cell kept as that number (csv-table.ts)
  * is looked up without being written out again. "12" and 12 are one id; "012" is another. Other ids
  * (and numbers too large for that table) go to an open-addressing hash table of row numbers over the
  * ids themselves, made on first use. Ten million ids take about 80 MB by number and 170 MB by hash,

@@ -1,12 +1,12 @@
-import { EspalierError, quoted, say } from "../errors.js";
-import type { LinkedNodes } from "../model/linked-nodes.js";
-import { copyName, isEmptyName, NamePool } from "../model/names.js";
-import { isSize } from "../model/size-rule.js";
+import { EspalierError, quoted, say } from "../../errors.js";
+import type { LinkedNodes } from "../../model/linked-nodes.js";
+import { copyName, isEmptyName, NamePool } from "../../model/names.js";
+import { isSize } from "../../model/size-rule.js";
+import type { LoadOptions } from "../load-options.js";
+import { limitExceeded, NodeSink } from "../node-sink.js";
+import { parseSize } from "../parse-size.js";
+import { PathPlacer } from "../path-placer.js";
 import { IdIndex } from "./id-index.js";
-import type { LoadOptions } from "./load-options.js";
-import { limitExceeded, NodeSink } from "./node-sink.js";
-import { parseSize } from "./parse-size.js";
-import { PathPlacer } from "./path-placer.js";
 import type { Cell, Table } from "./table.js";
 
 /**
@@ -116,12 +116,13 @@ function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptio
   const names = table.column(options.nameField);
   const sizes = table.column(options.sizeField);
   const sink = new NodeSink(options.maxNodes, true);
-  const index = new PathPlacer(sink);
+  // A name cell relabels the node in the sink, so the placer keeps the names it finds nodes by.
+  const index = new PathPlacer(sink, names !== undefined);
   // Kept values by row, spread over nodes at the end (implicit ancestors keep "").
   const nodeOfRow = new Int32Array(n);
   for (let r = 0; r < n; r++) {
     const path = cellText(pathCells[r]);
-    const i = index.place(path, 0, path.length, r + 1);
+    const i = index.placeText(path, r + 1);
     if (i === -1) {
       throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${options.pathField}"`, { row: r + 1 });
     }

@@ -7,14 +7,14 @@ import {
   everyByte,
   expectSameTree,
   expectSameTreeAndSummaries,
-  loadInMemory,
+  loadByReference,
   loadStreamed,
   outcomeOf,
   outcomeOfAsync,
   type Rng,
   rng,
   utf8,
-} from "./helpers.js";
+} from "../stream/helpers.js";
 
 const SEGMENTS = [
   "tidewater",
@@ -54,14 +54,14 @@ function pathList(r: Rng, lines: number): string {
 const awkward = (bytes: Uint8Array) => awkwardAt(bytes, [0x0d, 0x0a, 0x09]);
 
 describe("loadTreeFromStream(paths)", () => {
-  it("loadTreeFromStream(paths) builds the tree loadTree builds and the same summaries, however the bytes are cut", async () => {
+  it("loadTreeFromStream(paths) builds the tree the reference builds and the same summaries, however the bytes are cut", async () => {
     await fc.assert(
       fc.asyncProperty(fc.integer(), fc.integer({ min: 1, max: 40 }), async (seed, lines) => {
         const r = rng(seed);
         const bytes = utf8(pathList(r, lines));
         const options = opts({ format: r.chance(0.5) ? "paths" : undefined, file: "tidewater.paths" });
         const cuts = cutsFor(r, bytes.length, r.int(0, 16), awkward(bytes));
-        const expected = outcomeOf(() => loadInMemory(bytes, options));
+        const expected = outcomeOf(() => loadByReference(bytes, options));
         const actual = await outcomeOfAsync(() => loadStreamed(bytes, options, cuts));
         if (!("tree" in expected) || !("tree" in actual)) {
           expect(actual).toEqual(expected);
@@ -76,12 +76,12 @@ describe("loadTreeFromStream(paths)", () => {
   it("loadTreeFromStream(paths) reads single-byte chunks: a CRLF and a multi-byte character cut in two", async () => {
     const bytes = utf8("4096\t./services\r\n12\t./services/ledger é.ts\r\n\r\n7\t./日本/😀.png");
     const tree = await loadStreamed(bytes, opts({ format: "paths" }), everyByte(bytes.length));
-    expectSameTree(tree, loadInMemory(bytes, opts({ format: "paths" })));
+    expectSameTree(tree, loadByReference(bytes, opts({ format: "paths" })));
     expect(tree.name).toEqual([".", "services", "ledger é.ts", "日本", "😀.png"]);
     expect([...tree.origin]).toEqual([1, 1, 2, 4, 4]);
   });
 
-  it("loadTreeFromStream(paths) agrees with loadTree on invalid UTF-8, stray bytes and odd sizes, however cut", async () => {
+  it("loadTreeFromStream(paths) agrees with the reference on invalid UTF-8, stray bytes and odd sizes, however cut", async () => {
     // Invalid sequences (a lone 0xff, a cut 3-byte lead) become U+FFFD on both sides; the reader keys
     // names on bytes, so two spellings of one name must not make two nodes.
     const pieces = [
@@ -110,7 +110,7 @@ describe("loadTreeFromStream(paths)", () => {
           const r = rng(seed);
           const bytes = Uint8Array.from(picks.flatMap((k) => pieces[k]));
           const options = opts({ format: "paths", file: "t.paths" });
-          const expected = outcomeOf(() => loadInMemory(bytes, options));
+          const expected = outcomeOf(() => loadByReference(bytes, options));
           for (const cuts of [[], cutsFor(r, bytes.length, r.int(0, 8)), everyByte(bytes.length)]) {
             const actual = await outcomeOfAsync(() => loadStreamed(bytes, options, cuts));
             if ("tree" in expected && "tree" in actual) expectSameTree(actual.tree, expected.tree);
@@ -122,7 +122,7 @@ describe("loadTreeFromStream(paths)", () => {
     );
   });
 
-  it("loadTreeFromStream(paths) builds the tree loadTree builds for a long listing that revisits directories", async () => {
+  it("loadTreeFromStream(paths) builds the tree the reference builds for a long listing that revisits directories", async () => {
     // More names than the reader decodes in one batch, long and short, some directories named again
     // after their contents (as du lists them) and revisited later.
     const r = rng(4242);
@@ -137,14 +137,14 @@ describe("loadTreeFromStream(paths)", () => {
       lines.filter((line) => !seen.has(line.split("\t")[1]) && seen.add(line.split("\t")[1])).join("\n"),
     );
     const options = opts({ format: "paths" });
-    const expected = outcomeOf(() => loadInMemory(bytes, options));
+    const expected = outcomeOf(() => loadByReference(bytes, options));
     const actual = await outcomeOfAsync(() => loadStreamed(bytes, options, cutsFor(r, bytes.length, 40)));
     expect("tree" in expected).toBe(true);
     if ("tree" in expected && "tree" in actual) expectSameTree(actual.tree, expected.tree);
     else expect(actual).toEqual(expected);
   });
 
-  it("loadTreeFromStream(paths) reports errors at the lines loadTree reports", async () => {
+  it("loadTreeFromStream(paths) reports errors at the lines the reference reports", async () => {
     const cases = [
       "a\na/b\n\na/b\n",
       "1\ta\n4.0K\ta/b\n",
@@ -160,7 +160,7 @@ describe("loadTreeFromStream(paths)", () => {
     for (const text of cases) {
       const bytes = utf8(text);
       const options = opts({ format: "paths", file: "t.paths" });
-      const expected = outcomeOf(() => loadInMemory(bytes, options));
+      const expected = outcomeOf(() => loadByReference(bytes, options));
       expect(expected).toHaveProperty("code");
       for (const cuts of [[], everyByte(bytes.length)]) {
         expect(await outcomeOfAsync(() => loadStreamed(bytes, options, cuts))).toEqual(expected);

@@ -1,12 +1,16 @@
-import { EspalierError, quoted, say } from "../errors.js";
-import type { LinkedNodes } from "../model/linked-nodes.js";
+import { EspalierError } from "../../../src/errors.js";
+import type { LoadOptions } from "../../../src/load/load-options.js";
+import { isRowsValue } from "../../../src/load/rows-shape.js";
+import { linkTable } from "../../../src/load/table/link-table.js";
+import { rowsTable } from "../../../src/load/table/rows-table.js";
+import { Kind, type NestedAccess, walkNested } from "../../../src/load/walk-nested.js";
+import type { LinkedNodes } from "../../../src/model/linked-nodes.js";
 import { jsonErrorOffset } from "./json-error-offset.js";
 import { lineColumnAt } from "./line-column.js";
-import { linkTable } from "./link-table.js";
-import type { LoadOptions } from "./load-options.js";
-import { isRowsValue } from "./rows-shape.js";
-import { rowsTable } from "./table.js";
-import { Kind, type NestedAccess, walkNested } from "./walk-nested.js";
+
+// The whole-text JSON reader espalier had before every load went through the byte loaders, kept as a
+// reference answer: JSON.parse (ECMA-262), with the parse error's offset taken from the engine's message
+// or from an RFC 8259 scanner (json-error-offset.ts), and a walk over the parsed value.
 
 /**
  * Loads JSON text: nested nodes, or rows (a top-level array of flat records) when `as` says so or, with
@@ -37,11 +41,7 @@ function parseJson(text: string): unknown {
     const reason = error.message
       .replace(/ in JSON at position \d+.*$/s, "")
       .replace(/, ".*" is not valid JSON$/s, "");
-    throw new EspalierError(
-      "PARSE_JSON",
-      say`invalid JSON: ${quoted.excerpt(reason)}`,
-      lineColumnAt(text, offset),
-    );
+    throw new EspalierError("PARSE_JSON", `invalid JSON: ${reason}`, lineColumnAt(text, offset));
   }
 }
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { loadTree } from "../../src/load/index.js";
-import { caught, opts, outline } from "./helpers.js";
+import { loadTree } from "../../../src/load/index.js";
+import { caught, opts, outline } from "../helpers.js";
 
 const csv = (text: string, overrides = {}) => loadTree(text, opts({ format: "csv", ...overrides }));
 const tsv = (text: string, overrides = {}) => loadTree(text, opts({ format: "tsv", ...overrides }));

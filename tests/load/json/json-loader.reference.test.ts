@@ -8,14 +8,14 @@ import {
   everyByte,
   expectSameTree,
   expectSameTreeAndSummaries,
-  loadInMemory,
+  loadByReference,
   loadStreamed,
   outcomeOf,
   outcomeOfAsync,
   type Rng,
   rng,
   utf8,
-} from "./helpers.js";
+} from "../stream/helpers.js";
 
 // Names that stress the tokenizer: escapes, multi-byte characters (2, 3 and 4 bytes), a lone surrogate
 // (JSON allows it escaped), names like array indices (JSON.parse puts those keys first), path characters.
@@ -197,7 +197,7 @@ function nestedJson(r: Rng, nodes: number): { text: string; owners: number } {
 const awkward = (bytes: Uint8Array) => awkwardAt(bytes, [0x5c, 0x22, 0x0d]);
 
 describe("loadTreeFromStream(json)", () => {
-  it("loadTreeFromStream(json) builds the tree loadTree builds and the same summaries, however the bytes are cut", async () => {
+  it("loadTreeFromStream(json) builds the tree the reference builds and the same summaries, however the bytes are cut", async () => {
     await fc.assert(
       fc.asyncProperty(fc.integer(), fc.integer({ min: 1, max: 50 }), async (seed, nodes) => {
         const r = rng(seed);
@@ -210,7 +210,7 @@ describe("loadTreeFromStream(json)", () => {
           rootName: "tidewater",
         });
         const cuts = cutsFor(r, bytes.length, r.int(0, 16), awkward(bytes));
-        const expected = outcomeOf(() => loadInMemory(bytes, options));
+        const expected = outcomeOf(() => loadByReference(bytes, options));
         const actual = await outcomeOfAsync(() => loadStreamed(bytes, options, cuts));
         if (!("tree" in expected)) {
           // Several faults may be reported in another order; the kind of fault is the same.
@@ -229,7 +229,7 @@ describe("loadTreeFromStream(json)", () => {
       '{\r\n "name": "caf\\u00e9 \\"Quill\\" é 😀",\r\n "size": 1.5e2,\r\n' +
       ' "children": {"10": 1, "2": null, "b\\\\": {"name": "x", "size": 3}, "ø": {}}\r\n}\r\n';
     const bytes = utf8(text);
-    const expected = loadInMemory(bytes, opts());
+    const expected = loadByReference(bytes, opts());
     const actual = await loadStreamed(bytes, opts(), everyByte(bytes.length));
     expectSameTree(actual, expected);
     // A child keyed by name takes the key as its name; its own name field is ignored.
@@ -240,7 +240,7 @@ describe("loadTreeFromStream(json)", () => {
     const text = '{"children":{"b":1,"10":2,"a":{"children":{"3":1,"1":2}},"2":3,"4294967295":4,"01":5}}';
     const tree = await loadStreamed(utf8(text), opts({ format: "json" }), [7, 20, 33]);
     expect(tree.name).toEqual(["", "2", "10", "b", "a", "1", "3", "4294967295", "01"]);
-    expectSameTree(tree, loadInMemory(utf8(text), opts({ format: "json" })));
+    expectSameTree(tree, loadByReference(utf8(text), opts({ format: "json" })));
   });
 
   it("loadTreeFromStream(json) keeps a repeated key's first place and last value", async () => {
@@ -250,7 +250,7 @@ describe("loadTreeFromStream(json)", () => {
     const tree = await loadStreamed(utf8(text), opts({ format: "json" }), everyByte(text.length));
     expect(tree.name).toEqual(["root", "x", "y", "z"]);
     expect([...tree.ownSize]).toEqual([0, 4, 0, 0]);
-    expectSameTree(tree, loadInMemory(utf8(text), opts({ format: "json" })));
+    expectSameTree(tree, loadByReference(utf8(text), opts({ format: "json" })));
   });
 
   it("loadTreeFromStream(json) reads a top-level array of flat records with an id field as rows", async () => {
@@ -260,7 +260,7 @@ describe("loadTreeFromStream(json)", () => {
       const options = opts({ format, file: "org.json" });
       const tree = await loadStreamed(bytes, options, [3, 15, 40]);
       expect(tree.ids).toEqual(["q1", "q2"]);
-      expectSameTree(tree, loadInMemory(bytes, options));
+      expectSameTree(tree, loadByReference(bytes, options));
     }
     // Forced to nested JSON, the same records are nodes.
     const nested = await loadStreamed(bytes, opts({ format: "json" }), []);
@@ -277,7 +277,7 @@ describe("loadTreeFromStream(json)", () => {
     const options = opts({ keepFields: ["owner"] });
     const tree = await loadStreamed(utf8(text), options, everyByte(text.length));
     expect(tree.fields.get("owner")).toEqual(['{"2":null,"b":[1,2.5,"é"]}', "Mira", "7"]);
-    expectSameTree(tree, loadInMemory(utf8(text), options));
+    expectSameTree(tree, loadByReference(utf8(text), options));
   });
 
   it("loadTreeFromStream(json) keeps a field that is also the children or the name field", async () => {
@@ -285,14 +285,14 @@ describe("loadTreeFromStream(json)", () => {
     for (const keepFields of [["children"], ["name", "size"], ["children", "name"]]) {
       const options = opts({ keepFields });
       const tree = await loadStreamed(utf8(text), options, everyByte(text.length));
-      expectSameTree(tree, loadInMemory(utf8(text), options));
+      expectSameTree(tree, loadByReference(utf8(text), options));
     }
   });
 
-  it("loadTreeFromStream(json) drops byte-order marks as the in-memory path does", async () => {
+  it("loadTreeFromStream(json) drops byte-order marks as a whole-text decoder does", async () => {
     const bytes = new Uint8Array([0xef, 0xbb, 0xbf, ...utf8('{"name":"a","children":[{"name":"b"}]}')]);
     const tree = await loadStreamed(bytes, opts(), [1, 2, 4]);
-    expectSameTree(tree, loadInMemory(bytes, opts()));
+    expectSameTree(tree, loadByReference(bytes, opts()));
   });
 
   it("loadTreeFromStream(json) loads a chain 200,000 nodes deep without recursion", async () => {
@@ -345,25 +345,25 @@ const BROKEN = [
 type Fault = { code: string; pos: unknown };
 
 /**
- * The same fault, or one the streaming loader met first: it stops at the first fault in document order,
- * while the in-memory loader parses everything first and then checks nodes breadth-first.
+ * The same fault, or one the byte loader met first: it stops at the first fault in document order, while
+ * the reference (JSON.parse, then a walk) parses everything first and then checks nodes breadth-first.
  */
-function sameFault(streamed: Fault, inMemory: Fault): boolean {
-  if (streamed.code === inMemory.code && JSON.stringify(streamed.pos) === JSON.stringify(inMemory.pos))
+function sameFault(streamed: Fault, reference: Fault): boolean {
+  if (streamed.code === reference.code && JSON.stringify(streamed.pos) === JSON.stringify(reference.pos))
     return true;
   if (streamed.code === "PARSE_JSON") return false;
-  if (inMemory.code !== "PARSE_JSON") return inMemory.pos === undefined;
+  if (reference.code !== "PARSE_JSON") return reference.pos === undefined;
   const a = streamed.pos as { line: number; column: number } | undefined;
   if (a === undefined) return false;
-  const b = inMemory.pos as { line: number; column: number };
+  const b = reference.pos as { line: number; column: number };
   return a.line < b.line || (a.line === b.line && a.column <= b.column);
 }
 
 describe("loadTreeFromStream(json) errors", () => {
-  it("loadTreeFromStream(json) reports PARSE_JSON at the line and column loadTree reports, cut anywhere", async () => {
+  it("loadTreeFromStream(json) reports PARSE_JSON at the line and column the reference reports, cut anywhere", async () => {
     for (const text of BROKEN) {
       const bytes = utf8(text);
-      const expected = outcomeOf(() => loadInMemory(bytes, opts({ format: "json" })));
+      const expected = outcomeOf(() => loadByReference(bytes, opts({ format: "json" })));
       expect(expected, text).toMatchObject({ code: "PARSE_JSON" });
       for (const cuts of [[], everyByte(bytes.length), [Math.floor(bytes.length / 2)]]) {
         const actual = await outcomeOfAsync(() => loadStreamed(bytes, opts({ format: "json" }), cuts));
@@ -372,7 +372,7 @@ describe("loadTreeFromStream(json) errors", () => {
     }
   });
 
-  it("loadTreeFromStream(json) agrees with loadTree on JSON broken at random", async () => {
+  it("loadTreeFromStream(json) agrees with the reference on JSON broken at random", async () => {
     await fc.assert(
       fc.asyncProperty(fc.integer(), async (seed) => {
         const r = rng(seed);
@@ -388,14 +388,14 @@ describe("loadTreeFromStream(json) errors", () => {
         }
         const bytes = utf8(text);
         const options = opts({ format: "json" });
-        const expected = outcomeOf(() => loadInMemory(bytes, options));
+        const expected = outcomeOf(() => loadByReference(bytes, options));
         const actual = await outcomeOfAsync(() => loadStreamed(bytes, options, cutsFor(r, bytes.length, 6)));
         if ("tree" in expected) {
           if (!("tree" in actual)) throw new Error(`streaming failed: ${JSON.stringify(actual)}\n${text}`);
           expectSameTree(actual.tree, expected.tree);
         } else if (!("code" in actual) || !sameFault(actual, expected)) {
           throw new Error(
-            `${JSON.stringify(text)}\nin memory: ${JSON.stringify(expected)}, streamed: ${JSON.stringify(actual)}`,
+            `${JSON.stringify(text)}\nreference: ${JSON.stringify(expected)}, streamed: ${JSON.stringify(actual)}`,
           );
         }
       }),
@@ -403,7 +403,7 @@ describe("loadTreeFromStream(json) errors", () => {
     );
   });
 
-  it("loadTreeFromStream(json) gives structure errors the code loadTree gives, with the value's position", async () => {
+  it("loadTreeFromStream(json) gives structure errors the code the reference gives, with the value's position", async () => {
     const cases: [string, string][] = [
       ['{"name":"r","children":[{"name":"a/b","size":"12"}]}', "BAD_SIZE"],
       ['{"name":"r","children":{"x":-1}}', "BAD_SIZE"],
@@ -417,7 +417,7 @@ describe("loadTreeFromStream(json) errors", () => {
     ];
     for (const [text, code] of cases) {
       const options = opts({ format: "json" });
-      expect(outcomeOf(() => loadInMemory(utf8(text), options))).toMatchObject({ code });
+      expect(outcomeOf(() => loadByReference(utf8(text), options))).toMatchObject({ code });
       expect(await outcomeOfAsync(() => loadStreamed(utf8(text), options, [5]))).toMatchObject({ code });
     }
     const bad = await outcomeOfAsync(() =>

@@ -1,0 +1,551 @@
+import type { Buffer } from "node:buffer";
+import { EspalierError, type MessagePart, quoted, type SourcePos, say } from "../../errors.js";
+import type { LinkedNodes } from "../../model/linked-nodes.js";
+import { isSize } from "../../model/size-rule.js";
+import { describeNode } from "../describe-node.js";
+import type { LoadOptions } from "../load-options.js";
+import { NodeSink } from "../node-sink.js";
+import { linkTable } from "../table/link-table.js";
+import { rowsTable } from "../table/rows-table.js";
+import { JsonTokenizer, NUL, numberValue, TRUE } from "./json-tokenizer.js";
+import { isArrayIndexKey, reorderKeyedChildren } from "./keyed-order.js";
+import { RowsProbe } from "./rows-probe.js";
+import { C_KEEP, C_PROBE, C_ROW, Captures } from "./value-capture.js";
+
+// What an open container is.
+const SKIP = 0; // a value nobody reads (still checked to be JSON)
+const NODE = 1;
+const CHILD_LIST = 2;
+const CHILD_MAP = 3;
+const TOP_LIST = 4;
+const ROWS = 5;
+
+// What the next value is.
+const S_SKIP = 0;
+const S_TOP = 1;
+const S_TOP_ITEM = 2;
+const S_CHILD = 3;
+const S_KEYED = 4;
+const S_FIELD = 5;
+const S_ROW = 6;
+const itemSlot = [S_SKIP, S_SKIP, S_CHILD, S_SKIP, S_TOP_ITEM, S_ROW];
+
+// The kind of the last value seen for a node's field.
+const ABSENT = 0;
+const NULL = 1;
+const NUMBER = 2;
+const STRING = 3;
+const BOOLEAN = 4;
+const COLLECTION = 5;
+
+// What a field of a node object is for (bits).
+const F_NAME = 1;
+const F_SIZE = 2;
+const F_CHILDREN = 4;
+
+interface Field {
+  bytes: Uint8Array;
+  text: string;
+  mask: number;
+  /** Indices into keepFields. */
+  keeps: number[];
+}
+
+/** What is known about an open container; one per nesting level, reused. */
+class Frame {
+  node = -1;
+  keyed = false;
+  // The kind of the last value of each field, and where it is (line, column), for errors at the end.
+  nameKind = ABSENT;
+  nameLine = 0;
+  nameColumn = 0;
+  sizeKind = ABSENT;
+  size = 0;
+  sizeText = "";
+  sizeLine = 0;
+  sizeColumn = 0;
+  childrenKind = ABSENT;
+  childrenLine = 0;
+  childrenColumn = 0;
+  /** Sink length when the current children value began; -1 when there is none. */
+  childrenMark = -1;
+  /**
+   * Children by name: the keys seen, the children in input order, whether they need reordering. Made
+   * when a level first holds children by name, so a chain a million levels deep costs no Set per level.
+   */
+  private keySet: Set<string> | null = null;
+  private childList: number[] | null = null;
+  get keys(): Set<string> {
+    this.keySet ??= new Set();
+    return this.keySet;
+  }
+  get children(): number[] {
+    this.childList ??= [];
+    return this.childList;
+  }
+  reorder = false;
+}
+
+/**
+ * Nested JSON (and JSON rows) read from UTF-8 bytes, whole or in chunks, never as one string: the
+ * tokenizer's hooks build the nodes directly into flat arrays as they come.
+ * - Node shapes as in {@link walkNested}: children as an array or an object keyed by name (numbers and
+ *   null as leaves), a top-level array as several roots, nodes numbered in document order.
+ * - JSON.parse's object semantics: a repeated key keeps its first place and its last value; in children
+ *   keyed by name, array-index keys come first, ascending (ECMA-262 OrdinaryOwnPropertyKeys).
+ * - Rows when {@link RowsProbe} says so (each row is parsed on its own: rows cost what they do in
+ *   memory, but no string holds the whole file).
+ * Structure errors carry the line and column of the value at fault; with several faults, the first in
+ * document order is reported.
+ */
+export class JsonLoader extends JsonTokenizer {
+  private readonly options: LoadOptions;
+  private readonly sink: NodeSink;
+  private readonly fields: Field[] = [];
+  /** 1 where a node has an own size: hasSizes counts only nodes a repeated key did not replace. */
+  private sized = new Uint8Array(1024);
+  /** Kept field values by node; undefined where a node has no such field (it becomes ""). */
+  private readonly kept: (string | undefined)[][];
+  private readonly probe: RowsProbe;
+  private readonly rows: unknown[] = [];
+  private readonly captures = new Captures();
+
+  // What the next value is for, and what each open container is.
+  private slot = S_TOP;
+  private slotField = 0;
+  private slotKey = "";
+  private role = new Uint8Array(64);
+  private readonly frames: Frame[] = [];
+
+  constructor(options: LoadOptions, as?: "json" | "rows") {
+    super();
+    this.options = options;
+    this.probe = new RowsProbe(as);
+    this.sink = new NodeSink(options.maxNodes, false);
+    this.kept = options.keepFields.map(() => []);
+    const add = (text: string, mask: number, keep: number) => {
+      let field = this.fields.find((f) => f.text === text);
+      if (!field) {
+        field = { bytes: new TextEncoder().encode(text), text, mask: 0, keeps: [] };
+        this.fields.push(field);
+      }
+      field.mask |= mask;
+      if (keep >= 0) field.keeps.push(keep);
+    };
+    add(options.nameField, F_NAME, -1);
+    add(options.sizeField, F_SIZE, -1);
+    add(options.childrenField, F_CHILDREN, -1);
+    for (let f = 0; f < options.keepFields.length; f++) add(options.keepFields[f], 0, f);
+  }
+
+  /** Ends the input; the nodes, ready for `buildTree`. */
+  end(): LinkedNodes {
+    this.endTokens();
+    if (this.probe.rows) return linkTable(rowsTable(this.rows), this.options);
+    const sink = this.sink;
+    if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the top-level array holds no nodes");
+    for (let i = 0; i < sink.length && !sink.hasSizes; i++) if (this.sized[i] === 1) sink.hasSizes = true;
+    const { keepFields } = this.options;
+    const fields = new Map<string, string[]>();
+    for (let f = 0; f < keepFields.length; f++) {
+      // Seen only on nodes of the tree: a value a repeated key replaced does not count.
+      const column = this.kept[f];
+      let seen = false;
+      for (let i = 0; i < column.length; i++) {
+        if (column[i] === undefined) column[i] = "";
+        else seen = true;
+      }
+      if (!seen) {
+        throw new EspalierError("FIELD_MISSING", `no node has the field "${keepFields[f]}" asked to be kept`);
+      }
+      fields.set(keepFields[f], column as string[]);
+    }
+    return sink.finish(this.options.rootName, fields);
+  }
+
+  // ---------------------------------------------------------------------------------------------------
+  // Tokens.
+
+  /** A key: picks what the value after it is for. */
+  protected key(bytes: Uint8Array, q: number, e: number, absQ: number): void {
+    const top = this.depth - 1;
+    const role = this.role[top];
+    if (role === NODE) {
+      const fields = this.fields;
+      let found = -1;
+      if (this.escaped) {
+        const text = this.text(bytes, q, e, absQ);
+        for (let f = 0; f < fields.length; f++) if (fields[f].text === text) found = f;
+      } else {
+        const length = e - q - 1;
+        for (let f = 0; f < fields.length && found < 0; f++) {
+          const want = fields[f].bytes;
+          if (want.length !== length) continue;
+          let k = 0;
+          while (k < length && bytes[q + 1 + k] === want[k]) k++;
+          if (k === length) found = f;
+        }
+      }
+      this.slot = found < 0 ? S_SKIP : S_FIELD;
+      this.slotField = found;
+    } else if (role === CHILD_MAP) {
+      this.slotKey = this.text(bytes, q, e, absQ);
+      this.slot = S_KEYED;
+    } else {
+      this.slot = S_SKIP;
+    }
+  }
+
+  protected stringValue(bytes: Uint8Array, q: number, e: number, absQ: number): void {
+    const slot = this.slot;
+    if (slot === S_SKIP) return;
+    if (slot === S_FIELD && !this.escaped && this.fields[this.slotField].mask === F_NAME) {
+      // Only a name, and spelled without escapes: its bytes go to the name pool as they are (invalid
+      // UTF-8 reads back as U+FFFD, as decoding the whole text would give it), with no string made.
+      const field = this.fields[this.slotField];
+      const frame = this.frames[this.depth - 1];
+      if (field.keeps.length === 0 && !frame.keyed) {
+        frame.nameKind = STRING;
+        this.sink.name.setBytes(frame.node, bytes, q + 1, e);
+        return;
+      }
+    }
+    // In any other slot the string is an error; its escapes are checked first all the same.
+    const text = this.text(bytes, q, e, absQ);
+    this.scalar(STRING, text, 0, this.pos.columnAt(absQ));
+  }
+
+  protected number(bytes: Uint8Array, s: number, e: number, absS: number, integerEnd: number): void {
+    if (this.slot === S_SKIP) return;
+    this.scalar(NUMBER, "", numberValue(bytes, s, e, integerEnd), this.pos.columnAt(absS));
+  }
+
+  protected word(word: Uint8Array, absS: number): void {
+    if (this.slot === S_SKIP) return;
+    const column = this.pos.columnAt(absS);
+    if (word === NUL) this.scalar(NULL, "", 0, column);
+    else this.scalar(BOOLEAN, word === TRUE ? "true" : "false", 0, column);
+  }
+
+  protected nextItem(top: number): void {
+    this.slot = itemSlot[this.role[top]];
+  }
+
+  protected chunkEnd(buf: Buffer): void {
+    this.captures.chunkEnd(buf);
+  }
+
+  // ---------------------------------------------------------------------------------------------------
+  // Building nodes.
+
+  private addNode(parent: number, name: string): number {
+    const j = this.sink.add(parent, name, 0);
+    if (j === this.sized.length) {
+      const grown = new Uint8Array(this.sized.length * 2);
+      grown.set(this.sized);
+      this.sized = grown;
+    }
+    this.sized[j] = 0;
+    for (const column of this.kept) column.push(undefined);
+    return j;
+  }
+
+  /** A scalar value in the current slot, starting at `column` of the current line. */
+  private scalar(kind: number, text: string, value: number, column: number): void {
+    const top = this.depth - 1;
+    switch (this.slot) {
+      case S_FIELD:
+        this.fieldScalar(this.frames[top], kind, text, value, column);
+        return;
+      case S_KEYED: {
+        const j = this.keyedChild(top);
+        if (kind === NUMBER) {
+          if (!isSize(value)) {
+            throw this.badSize(String(value), j, { line: this.pos.line, column });
+          }
+          this.sink.ownSize[j] = value;
+          this.sized[j] = 1;
+        } else if (kind !== NULL) {
+          throw new EspalierError("SHAPE", say`${this.where(j)} must be a node object, a number or null`, {
+            line: this.pos.line,
+            column,
+          });
+        }
+        return;
+      }
+      case S_CHILD:
+      case S_TOP_ITEM: {
+        this.probe.nodes();
+        const j = this.addNode(this.slot === S_CHILD ? this.frames[top].node : -1, "");
+        throw new EspalierError("SHAPE", say`${this.where(j)} must be a node object`, {
+          line: this.pos.line,
+          column,
+        });
+      }
+      case S_ROW:
+        throw this.badRow();
+      default:
+        throw this.badTop({ line: this.pos.line, column });
+    }
+  }
+
+  private fieldScalar(frame: Frame, kind: number, text: string, value: number, column: number): void {
+    const field = this.fields[this.slotField];
+    const i = frame.node;
+    if ((field.mask & F_NAME) !== 0 && !frame.keyed) {
+      frame.nameKind = kind;
+      this.sink.name.setString(i, kind === NUMBER ? String(value) : text);
+    }
+    if ((field.mask & F_SIZE) !== 0) {
+      frame.sizeKind = kind;
+      frame.size = value;
+      frame.sizeText = text;
+      frame.sizeLine = this.pos.line;
+      frame.sizeColumn = column;
+    }
+    if ((field.mask & F_CHILDREN) !== 0) {
+      this.dropChildren(frame);
+      frame.childrenKind = kind;
+      frame.childrenLine = this.pos.line;
+      frame.childrenColumn = column;
+    }
+    for (const f of field.keeps) {
+      this.kept[f][i] = kind === NUMBER ? String(value) : text;
+    }
+  }
+
+  /** A later children field replaces an earlier one (JSON.parse keeps the last value of a key). */
+  private dropChildren(frame: Frame): void {
+    if (frame.childrenMark < 0) return;
+    this.sink.truncate(frame.childrenMark);
+    for (const column of this.kept) column.length = frame.childrenMark;
+    frame.childrenMark = -1;
+  }
+
+  /** Adds the child named by the current key of the children-by-name object at `top`. */
+  private keyedChild(top: number): number {
+    const map = this.frames[top];
+    const key = this.slotKey;
+    const j = this.addNode(map.node, key);
+    if (map.keys.has(key) || isArrayIndexKey(key)) map.reorder = true;
+    map.keys.add(key);
+    map.children.push(j);
+    return j;
+  }
+
+  /** Opens an object or array at offset `i` of the chunk, as what the current slot says. */
+  protected open(i: number, object: boolean): void {
+    const top = this.depth; // index of the new container
+    if (top === this.role.length) this.growStack();
+    const captures = this.captures.open;
+    if (captures.length > 0 && captures[0].kind === C_PROBE && top >= 2) {
+      // A nested value in the first element: it is not a flat record, so the input is nodes.
+      captures.shift();
+      this.probe.nodes();
+    }
+    let frame = this.frames[top];
+    if (!frame) {
+      frame = new Frame();
+      this.frames[top] = frame;
+    }
+    const parentFrame = top > 0 ? this.frames[top - 1] : frame;
+    let role = SKIP;
+    let slot = S_SKIP;
+    const column = this.pos.columnAt(this.base + i);
+    const pos = { line: this.pos.line, column };
+    switch (this.slot) {
+      case S_TOP:
+        if (this.probe.rows && object) throw this.badTop(pos);
+        if (object) {
+          this.probe.nodes();
+          role = NODE;
+          this.nodeFrame(frame, this.addNode(-1, ""), false);
+        } else {
+          role = this.probe.rows ? ROWS : TOP_LIST;
+          slot = itemSlot[role];
+        }
+        break;
+      case S_TOP_ITEM:
+        if (!object) {
+          this.scalar(COLLECTION, "", 0, column);
+          break;
+        }
+        if (this.probe.undecided) {
+          if (this.sink.length === 0) this.captures.start(C_PROBE, top + 1, i, -1, []);
+          else this.probe.nodes();
+        }
+        role = NODE;
+        this.nodeFrame(frame, this.addNode(-1, ""), false);
+        break;
+      case S_CHILD:
+        if (!object) this.scalar(COLLECTION, "", 0, column);
+        role = NODE;
+        this.nodeFrame(frame, this.addNode(parentFrame.node, ""), false);
+        break;
+      case S_KEYED: {
+        const j = this.keyedChild(top - 1);
+        if (!object) {
+          throw new EspalierError(
+            "SHAPE",
+            say`${this.where(j)} must be a node object, a number or null`,
+            pos,
+          );
+        }
+        role = NODE;
+        this.nodeFrame(frame, j, true);
+        break;
+      }
+      case S_FIELD: {
+        const field = this.fields[this.slotField];
+        const node = parentFrame.node;
+        if ((field.mask & F_NAME) !== 0 && !parentFrame.keyed) {
+          parentFrame.nameKind = COLLECTION;
+          parentFrame.nameLine = this.pos.line;
+          parentFrame.nameColumn = column;
+          this.sink.name.setString(node, "");
+        }
+        if ((field.mask & F_SIZE) !== 0) {
+          parentFrame.sizeKind = COLLECTION;
+          parentFrame.sizeLine = this.pos.line;
+          parentFrame.sizeColumn = column;
+        }
+        if ((field.mask & F_CHILDREN) !== 0) {
+          this.dropChildren(parentFrame);
+          parentFrame.childrenKind = COLLECTION;
+          parentFrame.childrenMark = this.sink.length;
+          role = object ? CHILD_MAP : CHILD_LIST;
+          slot = object ? S_SKIP : S_CHILD;
+          frame.node = node;
+          if (object) {
+            frame.keys.clear();
+            frame.children.length = 0;
+            frame.reorder = false;
+          }
+        }
+        if (field.keeps.length > 0) {
+          this.captures.start(C_KEEP, top + 1, i, node, field.keeps);
+        }
+        break;
+      }
+      case S_ROW:
+        if (!object) throw this.badRow();
+        this.captures.start(C_ROW, top + 1, i, -1, []);
+        break;
+    }
+    this.role[top] = role;
+    this.slot = slot;
+  }
+
+  private nodeFrame(frame: Frame, node: number, keyed: boolean): void {
+    frame.node = node;
+    frame.keyed = keyed;
+    frame.nameKind = ABSENT;
+    frame.sizeKind = ABSENT;
+    frame.childrenKind = ABSENT;
+    frame.childrenMark = -1;
+  }
+
+  /** Closes the innermost container, whose last byte is at offset `i` of `buf`. */
+  protected close(buf: Buffer, i: number): void {
+    const top = this.depth - 1;
+    const frame = this.frames[top];
+    const capture = this.captures.closing(top + 1);
+    if (capture) {
+      const value = this.captures.value(capture, buf, i + 1);
+      if (capture.kind === C_PROBE) {
+        if (this.probe.decide(value, this.options)) {
+          this.sink.truncate(0);
+          for (const column of this.kept) column.length = 0;
+          this.rows.push(value);
+          this.role[top - 1] = ROWS;
+          return;
+        }
+      } else if (capture.kind === C_ROW) {
+        this.rows.push(value);
+      } else {
+        const text = JSON.stringify(value);
+        for (const f of capture.keeps) {
+          this.kept[f][capture.node] = text;
+        }
+      }
+    }
+    const role = this.role[top];
+    if (role === NODE) {
+      this.closeNode(frame);
+    } else if (role === CHILD_MAP) {
+      if (frame.reorder) {
+        const mark = this.frames[top - 1].childrenMark;
+        reorderKeyedChildren(this.sink, this.sized, this.kept, frame.node, mark, frame.children);
+      }
+      frame.keys.clear();
+      frame.children.length = 0;
+    }
+  }
+
+  /** Checks a node's fields once all are known (a later repeat of a key replaces an earlier value). */
+  private closeNode(frame: Frame): void {
+    const i = frame.node;
+    const { nameField, sizeField, childrenField } = this.options;
+    if (!frame.keyed && frame.nameKind === COLLECTION) {
+      throw new EspalierError("SHAPE", say`the "${nameField}" of ${this.where(i)} must be text`, {
+        line: frame.nameLine,
+        column: frame.nameColumn,
+      });
+    }
+    const sizeKind = frame.sizeKind;
+    if (sizeKind === NUMBER) {
+      const size = frame.size;
+      if (!isSize(size)) {
+        throw this.badSize(String(size), i, { line: frame.sizeLine, column: frame.sizeColumn });
+      }
+      this.sink.ownSize[i] = size;
+      this.sized[i] = 1;
+    } else if (sizeKind !== ABSENT && sizeKind !== NULL) {
+      const shownSize = sizeKind === STRING ? quoted.value(frame.sizeText) : "a non-number";
+      throw new EspalierError(
+        "BAD_SIZE",
+        say`the "${sizeField}" of ${this.where(i)} must be a number from 0 to 2^53 - 1, got ${shownSize}`,
+        { line: frame.sizeLine, column: frame.sizeColumn },
+      );
+    }
+    const childrenKind = frame.childrenKind;
+    if (childrenKind === STRING || childrenKind === NUMBER || childrenKind === BOOLEAN) {
+      throw new EspalierError(
+        "SHAPE",
+        say`the "${childrenField}" of ${this.where(i)} must be an array or an object keyed by child name`,
+        { line: frame.childrenLine, column: frame.childrenColumn },
+      );
+    }
+  }
+
+  private growStack(): void {
+    const role = new Uint8Array(this.role.length * 2);
+    role.set(this.role);
+    this.role = role;
+  }
+
+  // ---------------------------------------------------------------------------------------------------
+  // Messages.
+
+  private where(i: number): MessagePart[] {
+    return describeNode(this.sink.parentOf, this.sink.name, i);
+  }
+
+  private badSize(shownSize: string, i: number, pos: SourcePos | undefined): EspalierError {
+    return new EspalierError(
+      "BAD_SIZE",
+      say`the size of ${this.where(i)} must be a number from 0 to 2^53 - 1, got ${shownSize}`,
+      pos,
+    );
+  }
+
+  private badTop(pos: SourcePos): EspalierError {
+    if (this.probe.rows) return new EspalierError("SHAPE", "rows must be a top-level array of objects", pos);
+    return new EspalierError("SHAPE", "the top level must be a node object or an array of them", pos);
+  }
+
+  private badRow(): EspalierError {
+    const row = this.rows.length + 1;
+    return new EspalierError("SHAPE", `row ${row} must be an object`, { row });
+  }
+}

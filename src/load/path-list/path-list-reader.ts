@@ -1,0 +1,163 @@
+import { Buffer, isUtf8 } from "node:buffer";
+import { EspalierError, quoted, say } from "../../errors.js";
+import { asBuffer } from "../../model/buffer-codecs.js";
+import type { LinkedNodes } from "../../model/linked-nodes.js";
+import type { LoadOptions } from "../load-options.js";
+import { NodeSink } from "../node-sink.js";
+import { parseSize } from "../parse-size.js";
+import { PathPlacer, viewOf } from "../path-placer.js";
+
+const newline = 10;
+const cr = 13;
+const tab = 9;
+const space = 32;
+
+/**
+ * A path list read from UTF-8 bytes, whole or in chunks: one "/"-separated path per line, blank lines
+ * ignored. When the first non-blank line holds a tab, every line is "size<TAB>path" (as
+ * `find -printf '%s\t%p\n'` prints); otherwise a whole line is one path. Origins are line numbers.
+ *
+ * No line is decoded: lines are cut, sizes parsed, each path compared with the previous one and its
+ * segments hashed on the bytes themselves, and a new node's name is copied into the name pool as bytes.
+ *
+ * Equal names must be equal bytes for the hash table to find them: valid UTF-8 has one spelling per
+ * string, and a block with invalid bytes is first decoded (each bad sequence becomes U+FFFD, as the
+ * WHATWG decoder does) and encoded again.
+ */
+export class PathListReader {
+  private readonly sink: NodeSink;
+  private readonly rootName: string;
+  // The start of a line cut by the end of a chunk, in pieces.
+  private waiting: Buffer[] = [];
+  private sized: boolean | undefined;
+  private firstLine = 0;
+  private line = 0;
+  private readonly placer: PathPlacer;
+
+  constructor(options: LoadOptions) {
+    this.sink = new NodeSink(options.maxNodes, false);
+    this.placer = new PathPlacer(this.sink);
+    this.rootName = options.rootName;
+  }
+
+  /**
+   * Reads the next chunk of the input: its whole lines as they are, undecoded and uncopied; a line cut
+   * between chunks is joined (its bytes only) first. A "\n" byte is never inside a multi-byte UTF-8
+   * character, so a character (or a "\r\n") cut between chunks is whole again in the joined line.
+   */
+  write(piece: Uint8Array): void {
+    const chunk = asBuffer(piece);
+    let from = 0;
+    if (this.waiting.length > 0) {
+      const first = chunk.indexOf(newline);
+      if (first === -1) {
+        this.waiting.push(chunk);
+        return;
+      }
+      this.waiting.push(chunk.subarray(0, first + 1));
+      const line = Buffer.concat(this.waiting);
+      this.lines(line, 0, line.length);
+      this.waiting = [];
+      from = first + 1;
+    }
+    const last = chunk.lastIndexOf(newline);
+    if (last < from) {
+      if (from < chunk.length) this.waiting.push(chunk.subarray(from));
+      return;
+    }
+    this.lines(chunk, from, last + 1);
+    if (last + 1 < chunk.length) this.waiting.push(chunk.subarray(last + 1));
+  }
+
+  /** Ends the input; the nodes, ready for `buildTree`. */
+  end(): LinkedNodes {
+    const rest = Buffer.concat(this.waiting);
+    this.waiting = [];
+    this.lines(rest, 0, rest.length);
+    const sink = this.sink;
+    if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the path list names no paths");
+    sink.hasSizes = this.sized === true;
+    return sink.finish(this.rootName, new Map());
+  }
+
+  /**
+   * Reads the lines of `bytes[start, end)`, each ended by "\n" (a "\r" before it is dropped); the last
+   * line needs no "\n". The bytes are not kept past the next call, except the last path's.
+   */
+  private lines(bytes: Buffer, start: number, end: number): void {
+    if (!isUtf8(bytes.subarray(start, end))) {
+      bytes = Buffer.from(bytes.toString("utf8", start, end), "utf8");
+      start = 0;
+      end = bytes.length;
+    }
+    const view = viewOf(bytes);
+    while (start < end) {
+      let stop = bytes.indexOf(newline, start);
+      if (stop === -1 || stop >= end) stop = end;
+      this.one(bytes, view, start, stop);
+      start = stop + 1;
+    }
+  }
+
+  /** One line, `bytes[start, end)` without its "\n". */
+  private one(bytes: Buffer, view: DataView, start: number, end: number): void {
+    const line = ++this.line;
+    if (end > start && bytes[end - 1] === cr) end--;
+    if (isBlank(bytes, start, end)) return;
+    let pathStart = start;
+    let size = 0;
+    if (this.sized === undefined) {
+      const t = bytes.indexOf(tab, start);
+      this.sized = t !== -1 && t < end;
+      this.firstLine = line;
+    }
+    if (this.sized) {
+      // Fast path: 1 to 15 digits, then the tab (exact in a double).
+      let k = start;
+      let value = 0;
+      for (; k < end && k - start < 16; k++) {
+        const d = bytes[k] - 48;
+        if (d < 0 || d > 9) break;
+        value = value * 10 + d;
+      }
+      let at = k;
+      if (k > start && k - start <= 15 && k < end && bytes[k] === tab) {
+        size = value;
+      } else {
+        at = bytes.indexOf(tab, start);
+        if (at === -1 || at >= end) {
+          throw new EspalierError(
+            "PARSE_PATHS",
+            `line ${line} has no size column before a tab, unlike line ${this.firstLine}`,
+            { line },
+          );
+        }
+        const text = bytes.toString("utf8", start, at);
+        size = parseSize(text);
+        if (!(size >= 0)) {
+          throw new EspalierError(
+            "BAD_SIZE",
+            say`the size on line ${line} must be a number from 0 to 2^53 - 1, got ${quoted.value(text)}`,
+            { line, column: 1 },
+          );
+        }
+      }
+      pathStart = at + 1;
+    }
+    const i = this.placer.place(bytes, view, pathStart, end, line);
+    if (i === -1) {
+      // The column counts UTF-16 code units, as in every other error position.
+      const column = bytes.toString("utf8", start, pathStart).length + 1;
+      throw new EspalierError("PARSE_PATHS", `line ${line} has a size but no path`, { line, column });
+    }
+    this.sink.ownSize[i] = size;
+  }
+}
+
+function isBlank(bytes: Buffer, start: number, end: number): boolean {
+  for (let k = start; k < end; k++) {
+    const c = bytes[k];
+    if (c !== space && c !== tab) return false;
+  }
+  return true;
+}

@@ -1,0 +1,42 @@
+import { EspalierError } from "../../errors.js";
+import type { Cell, Table } from "./table.js";
+
+/** A table from a parsed JSON array of flat objects (rows); each element must be an object. */
+export function rowsTable(rows: readonly unknown[]): Table {
+  for (let r = 0; r < rows.length; r++) {
+    const row = rows[r];
+    if (typeof row !== "object" || row === null || Array.isArray(row)) {
+      throw new EspalierError("SHAPE", `row ${r + 1} must be an object`, { row: r + 1 });
+    }
+  }
+  const records = rows as readonly Record<string, unknown>[];
+  return {
+    length: records.length,
+    textCells: false,
+    column(name) {
+      const cells: Cell[] = new Array(records.length);
+      let found = false;
+      for (let r = 0; r < records.length; r++) {
+        const record = records[r];
+        if (!Object.hasOwn(record, name)) {
+          cells[r] = undefined;
+          continue;
+        }
+        found = true;
+        const value = record[name];
+        if (typeof value === "object" && value !== null) {
+          throw new EspalierError("SHAPE", `the "${name}" of row ${r + 1} must be a plain value`, {
+            row: r + 1,
+          });
+        }
+        cells[r] = value as Cell;
+      }
+      return found ? cells : undefined;
+    },
+    columnNames() {
+      const names = new Set<string>();
+      for (const record of records) for (const key of Object.keys(record)) names.add(key);
+      return [...names];
+    },
+  };
+}
