@@ -72,14 +72,13 @@ async function main() {
   const { run } = await import("../dist/cli/main.js");
   const { openFile } = await import("../dist/cli/open-file.js");
   const { loadInWorker } = await import("../dist/cli/load-in-worker.js");
-  // A reader closing the pipe early ends us quietly.
-  process.stdout.on("error", (err) => {
-    if (err.code === "EPIPE") process.exit(0);
-    throw err;
-  });
-  process.exitCode = await run(args, {
-    stdout: process.stdout,
-    stderr: process.stderr,
+  const { standardStreams } = await import("../dist/cli/std-streams.js");
+  // Output that cannot be written ends us with status 2 and one line; a reader closing the pipe early
+  // (| head) ends us quietly.
+  const std = standardStreams(process);
+  const code = await run(args, {
+    stdout: std.stdout,
+    stderr: std.stderr,
     readStdin,
     readFile: (path) => readFile(path),
     openInput: (name) => (name === "-" ? openStdin() : openFile(name)),
@@ -87,16 +86,26 @@ async function main() {
     now: () => performance.now(),
     env: process.env,
   });
+  process.exitCode = std.finish(code);
 }
 
 async function readStdin() {
+  await terminalHint();
   const chunks = [];
   for await (const chunk of process.stdin) chunks.push(chunk);
   return Buffer.concat(chunks);
 }
 
+/** When "-" is a terminal, says on standard error how to end the input, rather than wait silently. */
+async function terminalHint() {
+  if (!process.stdin.isTTY) return;
+  const { TERMINAL_INPUT_HINT } = await import("../dist/cli/std-streams.js");
+  process.stderr.write(TERMINAL_INPUT_HINT);
+}
+
 /** Standard input in the chunks it comes in, with its size when it is a regular file. */
-function openStdin() {
+async function openStdin() {
+  await terminalHint();
   let size;
   try {
     const stat = fstatSync(0);
