@@ -10,6 +10,9 @@ import { heapToRestartWith } from "../dist/cli/heap.js";
 // The edge: real streams, files, environment and engine. Decided before the CLI's modules load: an input
 // too big for the engine's default heap restarts the command with a larger one.
 const args = process.argv.slice(2);
+// Bounded readers of the config and foci files, loaded with the CLI (main).
+let readBounded;
+let readStreamBounded;
 const RESTARTED = "ESPALIER_HEAP_RESTARTED";
 const heap =
   process.env[RESTARTED] === undefined
@@ -73,6 +76,7 @@ async function main() {
   const { openFile } = await import("../dist/cli/open-file.js");
   const { loadInWorker } = await import("../dist/cli/load-in-worker.js");
   const { standardStreams } = await import("../dist/cli/std-streams.js");
+  ({ readBounded, readStreamBounded } = await import("../dist/cli/read-bounded.js"));
   // Output that cannot be written ends us with status 2 and one line; a reader closing the pipe early
   // (| head) ends us quietly.
   const std = standardStreams(process);
@@ -80,7 +84,7 @@ async function main() {
     stdout: std.stdout,
     stderr: std.stderr,
     readStdin,
-    readFile: (path) => readFile(path),
+    readFile: (path, bound) => (bound ? readBounded(path, bound) : readFile(path)),
     openInput: (name) => (name === "-" ? openStdin() : openFile(name)),
     loadInWorker,
     now: () => performance.now(),
@@ -89,8 +93,9 @@ async function main() {
   process.exitCode = std.finish(code);
 }
 
-async function readStdin() {
+async function readStdin(bound) {
   await terminalHint();
+  if (bound) return readStreamBounded(process.stdin, "-", bound);
   const chunks = [];
   for await (const chunk of process.stdin) chunks.push(chunk);
   return Buffer.concat(chunks);

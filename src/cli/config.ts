@@ -1,6 +1,7 @@
 import { parseDocument } from "yaml";
 import { z } from "zod";
 import { EspalierError } from "../errors.js";
+import { readLimits } from "../load/read-limits.js";
 import type { CliIO } from "./io.js";
 import { summaryOptionsSchema } from "./options.js";
 
@@ -37,8 +38,13 @@ export async function loadConfig(io: CliIO, explicit: string | undefined): Promi
   for (const file of candidates) {
     let bytes: Buffer;
     try {
-      bytes = await io.readFile(file);
+      bytes = await io.readFile(file, {
+        maxBytes: readLimits.maxConfigBytes,
+        what: "the config",
+        pipes: false,
+      });
     } catch (err) {
+      if (err instanceof EspalierError) throw err;
       if (explicit === undefined && (err as NodeJS.ErrnoException).code === "ENOENT") continue;
       throw new EspalierError(
         "IO",

@@ -19,7 +19,7 @@ import { hidingInput } from "./hide-input.js";
 import type { CliIO } from "./io.js";
 import { PSEUDONYM_KEY_ENV } from "./options.js";
 import { withProgress } from "./progress.js";
-import { readInput } from "./read-input.js";
+import { FOCI_BOUND, readInput } from "./read-input.js";
 import { readInputStream } from "./read-input-stream.js";
 import {
   defaultBudget,
@@ -106,7 +106,7 @@ async function diffOf(
   if (opts.focusFrom !== undefined) {
     if (opts.focusFrom === "-" && (oldInput === "-" || newInput === "-"))
       throw new EspalierError("USAGE", "standard input cannot hold both a version and the foci");
-    const text = await readInput(io, opts.focusFrom);
+    const text = await readInput(io, opts.focusFrom, FOCI_BOUND);
     foci.push(...text.split(/\r?\n/).filter((line) => line !== ""));
   }
   const [oldTree, newTree] = isFactInput(opts)

@@ -15,7 +15,7 @@ import { hidingInput } from "./hide-input.js";
 import type { CliIO } from "./io.js";
 import { DEFAULT_BUDGET, PSEUDONYM_KEY_ENV, type SummaryCliOptions } from "./options.js";
 import { withProgress } from "./progress.js";
-import { readInput } from "./read-input.js";
+import { FOCI_BOUND, readInput } from "./read-input.js";
 import { readInputStream } from "./read-input-stream.js";
 
 /** Reads, summarises and renders one input; returns the text to print (nothing is printed here). */
@@ -152,7 +152,7 @@ function pseudonymKey(opts: SummaryCliOptions, io: CliIO): string | undefined {
 async function readFociFile(io: CliIO, name: string, input: string): Promise<string[]> {
   if (name === "-" && input === "-")
     throw new EspalierError("USAGE", "standard input cannot hold both the tree and the foci");
-  const text = await readInput(io, name);
+  const text = await readInput(io, name, FOCI_BOUND);
   // One spec per line, taken verbatim (a name may begin or end with spaces); blank lines are skipped.
   return text.split(/\r?\n/).filter((line) => line !== "");
 }

@@ -1,3 +1,5 @@
+import type { ReadLimits } from "./read-limits.js";
+
 /** Input formats espalier reads. `rows` is a JSON array of flat records (id + parent, or a path column). */
 export const inputFormats = ["json", "yaml", "csv", "tsv", "rows", "paths"] as const;
 export type InputFormat = (typeof inputFormats)[number];
@@ -26,6 +28,8 @@ export interface LoadOptions {
   rootName: string;
   /** Refuse inputs with more nodes than this (LIMIT_EXCEEDED). */
   maxNodes: number;
+  /** Lower limits of reading than `readLimits` (see read-limits.ts); tests and the fuzzer use tiny ones. */
+  limits?: Partial<ReadLimits>;
 }
 
 export const defaultLoadOptions: LoadOptions = {

@@ -1,5 +1,6 @@
 import { readFile } from "node:fs/promises";
 import { run } from "../../src/cli/main.js";
+import { type ReadBound, readBounded, readStreamBounded } from "../../src/cli/read-bounded.js";
 import type { OutputFiles } from "../../src/cli/write-output.js";
 
 export interface CliResult {
@@ -40,14 +41,19 @@ export async function cli(
         return true;
       },
     },
-    readStdin: async () =>
-      typeof options.stdin === "string" || options.stdin === undefined
-        ? Buffer.from(options.stdin ?? "", "utf8")
-        : Buffer.from(options.stdin),
-    readFile: (p: string) =>
+    readStdin: async (bound?: ReadBound) => {
+      const bytes =
+        typeof options.stdin === "string" || options.stdin === undefined
+          ? Buffer.from(options.stdin ?? "", "utf8")
+          : Buffer.from(options.stdin);
+      return bound ? readStreamBounded([bytes], "-", bound) : bytes;
+    },
+    readFile: (p: string, bound?: ReadBound) =>
       options.files && p in options.files
         ? Promise.resolve(Buffer.from(options.files[p], "utf8"))
-        : readFile(p),
+        : bound
+          ? readBounded(p, bound)
+          : readFile(p),
     env: options.env ?? {},
     outputFiles: options.outputFiles,
   });

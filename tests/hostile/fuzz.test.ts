@@ -282,6 +282,35 @@ describe("fuzz: random and mutated inputs", () => {
   );
 
   it(
+    "loadTreeFromStream(chunks) with tiny read limits stops at a limit with LIMIT_EXCEEDED, never holds more",
+    async () => {
+      const limits = fc.record({
+        maxLineBytes: fc.integer({ min: 1, max: 64 }),
+        maxTokenBytes: fc.integer({ min: 1, max: 32 }),
+        maxYamlBytes: fc.integer({ min: 1, max: 512 }),
+      });
+      await fc.assert(
+        fc.asyncProperty(input, fc.array(where, { maxLength: 8 }), limits, async (c, cuts, lim) => {
+          const options = { ...defaultLoadOptions, ...c.options, format: c.format, limits: lim };
+          const tree = await typedOnly(() => loadTreeFromStream(chunks(c.bytes, cuts), options));
+          if (!tree) return;
+          // A tree came back: no piece held whole past its limit can have been in the input.
+          if (c.format === "yaml") expect(c.bytes.length).toBeLessThanOrEqual(lim.maxYamlBytes + 3);
+          if (c.format === "paths" || c.format === "csv" || c.format === "tsv") {
+            let run = 0;
+            for (const b of c.bytes) {
+              run = b === 0x0a ? 0 : run + 1;
+              if (c.format === "paths") expect(run).toBeLessThanOrEqual(lim.maxLineBytes + 1);
+            }
+          }
+        }),
+        params,
+      );
+    },
+    TIMEOUT,
+  );
+
+  it(
     "run(argv) on any input exits 0 with output and no error, or 2 with one error line and no output",
     async () => {
       const outputs = fc.constantFrom("text", "json", "markdown", "svg");

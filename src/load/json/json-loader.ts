@@ -5,6 +5,7 @@ import { isSize } from "../../model/size-rule.js";
 import { describeNode } from "../describe-node.js";
 import type { LoadOptions } from "../load-options.js";
 import { NodeSink } from "../node-sink.js";
+import { limitsOf } from "../read-limits.js";
 import { linkTable } from "../table/link-table.js";
 import { rowsTable } from "../table/rows-table.js";
 import { JsonTokenizer, NUL, numberValue, TRUE } from "./json-tokenizer.js";
@@ -108,7 +109,7 @@ export class JsonLoader extends JsonTokenizer {
   private readonly kept: (string | undefined)[][];
   private readonly probe: RowsProbe;
   private readonly rows: unknown[] = [];
-  private readonly captures = new Captures();
+  private readonly captures: Captures;
 
   // What the next value is for, and what each open container is.
   private slot = S_TOP;
@@ -120,6 +121,9 @@ export class JsonLoader extends JsonTokenizer {
   constructor(options: LoadOptions, as?: "json" | "rows") {
     super();
     this.options = options;
+    const limits = limitsOf(options.limits);
+    this.maxTokenBytes = limits.maxTokenBytes;
+    this.captures = new Captures(limits.maxTokenBytes);
     this.probe = new RowsProbe(as);
     this.sink = new NodeSink(options.maxNodes, false);
     this.kept = options.keepFields.map(() => []);
@@ -232,7 +236,7 @@ export class JsonLoader extends JsonTokenizer {
   }
 
   protected chunkEnd(buf: Buffer): void {
-    this.captures.chunkEnd(buf);
+    this.captures.chunkEnd(buf, this.pos.line);
   }
 
   // ---------------------------------------------------------------------------------------------------

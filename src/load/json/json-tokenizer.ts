@@ -1,6 +1,7 @@
 import type { Buffer } from "node:buffer";
 import { EspalierError, type MessagePart, quoted, say } from "../../errors.js";
 import { asBuffer, codecs } from "../../model/buffer-codecs.js";
+import { readLimits, tooLong } from "../read-limits.js";
 import { ByteBuffer } from "./byte-buffer.js";
 import { JsonPositions } from "./json-positions.js";
 
@@ -49,6 +50,8 @@ export abstract class JsonTokenizer {
   private pend = P_NONE;
   private readonly pendBytes = new ByteBuffer();
   private pendStart = 0;
+  /** Longest string or number, in bytes (read-limits.ts); a subclass may lower it. */
+  protected maxTokenBytes = readLimits.maxTokenBytes;
   private pendIsKey = false;
   private pendEscape = false;
   private pendWord = TRUE;
@@ -284,7 +287,7 @@ export abstract class JsonTokenizer {
       let j = 0;
       while (j < n && numberByte[buf[j]] === 1) j++;
       this.pendBytes.append(buf, 0, j);
-      if (j === n) return -1;
+      if (j === n) return this.stillPending("a JSON number");
       this.pend = P_NONE;
       this.numberToken(this.pendBytes.bytes, 0, this.pendBytes.length, this.pendStart);
       this.state = this.depth === 0 ? DONE : AFTER;
@@ -317,7 +320,7 @@ export abstract class JsonTokenizer {
     }
     if (j >= n) {
       this.pendBytes.append(buf, 0, n);
-      return -1;
+      return this.stillPending("a JSON string");
     }
     this.pendBytes.append(buf, 0, j + 1);
     this.pend = P_NONE;
@@ -481,6 +484,13 @@ export abstract class JsonTokenizer {
 
   private stringError(bytes: Uint8Array, q: number, k: number, absQ: number, message: string): EspalierError {
     return new EspalierError("PARSE_JSON", `invalid JSON: ${message}`, this.pos.inString(bytes, q, k, absQ));
+  }
+
+  /** -1 (the token goes on in the next chunk), or LIMIT_EXCEEDED when it is already too long. */
+  private stillPending(what: string): -1 {
+    if (this.pendBytes.length > this.maxTokenBytes)
+      throw tooLong(what, this.maxTokenBytes, this.pos.at(this.pendStart));
+    return -1;
   }
 
   private syntax(abs: number, message: string | MessagePart[]): EspalierError {

@@ -7,6 +7,7 @@ import { byteLoader } from "../byte-loader.js";
 import { detectFormat } from "../detect-format.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
 import { loadYaml } from "../load-yaml.js";
+import { limitsOf } from "../read-limits.js";
 import { csvTableFromStream } from "../table/csv-table.js";
 import { linkTable } from "../table/link-table.js";
 import { readStart } from "./read-start.js";
@@ -47,7 +48,8 @@ async function linkedNodes(
   format: InputFormat,
   options: LoadOptions,
 ): Promise<LinkedNodes> {
-  if (format === "yaml") return loadYaml(await wholeText(chunks), options);
+  if (format === "yaml")
+    return loadYaml(await wholeText(chunks, limitsOf(options.limits).maxYamlBytes), options);
   const loader = byteLoader(format, options);
   if (loader) {
     for await (const chunk of chunks) loader.write(chunk);
@@ -61,17 +63,21 @@ async function linkedNodes(
   }
 }
 
-/** The whole input as one string, for YAML; LIMIT_EXCEEDED when no string can hold it. */
-async function wholeText(chunks: AsyncIterable<Uint8Array>): Promise<string> {
+/**
+ * The whole input as one string, for YAML; LIMIT_EXCEEDED past `maxBytes` (read-limits.ts: the YAML
+ * parser holds the whole document and several times its size in nodes) or what a string can hold.
+ */
+async function wholeText(chunks: AsyncIterable<Uint8Array>, maxBytes: number): Promise<string> {
+  const most = Math.min(maxBytes, constants.MAX_STRING_LENGTH);
   const parts: Uint8Array[] = [];
   let length = 0;
   for await (const chunk of chunks) {
     parts.push(chunk);
     length += chunk.length;
-    if (length > constants.MAX_STRING_LENGTH) {
+    if (length > most) {
       throw new EspalierError(
         "LIMIT_EXCEEDED",
-        `YAML input longer than ${constants.MAX_STRING_LENGTH} bytes cannot be read; convert it to JSON, which streams`,
+        `YAML input longer than ${most} bytes is not read (its parser holds the whole document); convert it to JSON, which streams`,
       );
     }
   }

@@ -2,6 +2,7 @@ import { parse } from "csv-parse";
 import { parse as parseWhole } from "csv-parse/sync";
 import { EspalierError, quoted, say } from "../../errors.js";
 import { asBuffer } from "../../model/buffer-codecs.js";
+import { readLimits, tooLong } from "../read-limits.js";
 
 const STOP = new Error("enough records");
 
@@ -19,12 +20,24 @@ export interface CsvRecordSink {
  * text/tab-separated-values: a field cannot hold a tab or a line break), so a double quote in TSV is an
  * ordinary character. Blank lines are skipped and are not records.
  */
-function csvOptions(delimiter: "," | "\t") {
-  return { delimiter, quote: delimiter === "\t" ? false : '"', skip_empty_lines: true } as const;
+function csvOptions(delimiter: "," | "\t", maxRecordBytes: number) {
+  // max_record_size: a record that never ends (an endless input without line breaks) stops at the
+  // limit (read-limits.ts); csv-parse counts its characters, never more than its UTF-8 bytes.
+  return {
+    delimiter,
+    quote: delimiter === "\t" ? false : '"',
+    skip_empty_lines: true,
+    max_record_size: maxRecordBytes,
+  } as const;
 }
 
 /** Reads the records of CSV/TSV bytes held whole, synchronously. */
-export function readCsvBytes(bytes: Uint8Array, delimiter: "," | "\t", sink: CsvRecordSink): void {
+export function readCsvBytes(
+  bytes: Uint8Array,
+  delimiter: "," | "\t",
+  sink: CsvRecordSink,
+  maxRecordBytes = readLimits.maxLineBytes,
+): void {
   let lastLines = 0;
   let lastEmpty = 0;
   // Each record goes to the sink as it is parsed, none is kept; a thrown STOP ends the parse.
@@ -35,10 +48,10 @@ export function readCsvBytes(bytes: Uint8Array, delimiter: "," | "\t", sink: Csv
     return null;
   };
   try {
-    parseWhole(asBuffer(bytes), { ...csvOptions(delimiter), on_record: onRecord });
+    parseWhole(asBuffer(bytes), { ...csvOptions(delimiter, maxRecordBytes), on_record: onRecord });
   } catch (error) {
     if (error === STOP) return;
-    throw asParseError(error, lastLines, lastEmpty);
+    throw asParseError(error, lastLines, lastEmpty, maxRecordBytes);
   }
 }
 
@@ -47,8 +60,9 @@ export async function readCsvStream(
   chunks: AsyncIterable<Uint8Array>,
   delimiter: "," | "\t",
   sink: CsvRecordSink,
+  maxRecordBytes = readLimits.maxLineBytes,
 ): Promise<void> {
-  const parser = parse(csvOptions(delimiter));
+  const parser = parse(csvOptions(delimiter, maxRecordBytes));
   let lastLines = 0;
   let lastEmpty = 0;
   let wanted = true;
@@ -63,7 +77,7 @@ export async function readCsvStream(
   });
   const check = () => {
     const error = parser.errored;
-    if (error) throw asParseError(error, lastLines, lastEmpty);
+    if (error) throw asParseError(error, lastLines, lastEmpty, maxRecordBytes);
   };
   const done = new Promise<void>((resolve) => parser.once("close", resolve));
   for await (const chunk of chunks) {
@@ -81,8 +95,12 @@ export async function readCsvStream(
 }
 
 /** A csv-parse error as PARSE_CSV (see csvError); anything else as it is. */
-function asParseError(error: unknown, lastLines: number, lastEmpty: number): unknown {
+function asParseError(error: unknown, lastLines: number, lastEmpty: number, maxRecordBytes: number): unknown {
   const code = (error as { code?: unknown }).code;
+  if (code === "CSV_MAX_RECORD_SIZE") {
+    const line = lastLines + 1;
+    return tooLong(`the record at line ${line}`, maxRecordBytes, { line });
+  }
   if (typeof code === "string" && /^(CSV_|INVALID_)/.test(code))
     return csvError(error as Error, lastLines, lastEmpty);
   return error;

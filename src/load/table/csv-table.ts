@@ -1,18 +1,19 @@
 import { EspalierError } from "../../errors.js";
 import { NamePool, namesToArray } from "../../model/names.js";
 import type { LoadOptions } from "../load-options.js";
+import { limitsOf } from "../read-limits.js";
 import { type CsvRecordSink, readCsvBytes, readCsvStream } from "./csv-records.js";
 import type { Table } from "./table.js";
 
 type Fields = Pick<
   LoadOptions,
-  "nameField" | "sizeField" | "idField" | "parentField" | "pathField" | "keepFields" | "maxNodes"
+  "nameField" | "sizeField" | "idField" | "parentField" | "pathField" | "keepFields" | "maxNodes" | "limits"
 >;
 
 /** A CSV (RFC 4180, delimiter ",") or TSV (delimiter "\t", no quoting) table from bytes held whole. */
 export function csvTableFromBytes(bytes: Uint8Array, delimiter: "," | "\t", fields: Fields): Table {
   const builder = new CsvTableBuilder(fields);
-  readCsvBytes(bytes, delimiter, builder);
+  readCsvBytes(bytes, delimiter, builder, limitsOf(fields.limits).maxLineBytes);
   return builder.table();
 }
 
@@ -23,7 +24,7 @@ export async function csvTableFromStream(
   fields: Fields,
 ): Promise<Table> {
   const builder = new CsvTableBuilder(fields);
-  await readCsvStream(chunks, delimiter, builder);
+  await readCsvStream(chunks, delimiter, builder, limitsOf(fields.limits).maxLineBytes);
   return builder.table();
 }
 
