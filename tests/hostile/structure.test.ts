@@ -115,7 +115,7 @@ describe("a million nodes deep or wide (no recursion on the input's shape)", () 
     const line = renderText(deep.view, { units: "plain", sizes: true, chains: true });
     expect(line.split("\n")).toHaveLength(2);
     expect(line).toContain(` / n${N - 1}  ${N} nodes`);
-  });
+  }, 240_000); // a million-node chain takes ~20 s alone and over a minute on a busy shared machine
 
   it("espalier - of a path list with a node of 1,000,000 children, within budget 40", async () => {
     const lines = new Array<string>(N);
@@ -128,5 +128,5 @@ describe("a million nodes deep or wide (no recursion on the input's shape)", () 
     expect(doc.lines).toBeLessThanOrEqual(40);
     expect(doc.totals.nodes).toBe(N + 1);
     expect(doc.root.children.length + doc.root.hidden.children).toBe(N);
-  });
+  }, 240_000);
 });
