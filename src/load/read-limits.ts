@@ -10,6 +10,8 @@ export interface ReadLimits {
   maxLineBytes: number;
   /** Bytes of one JSON string or number, and of one value kept whole (a label field, a row). */
   maxTokenBytes: number;
+  /** Levels of JSON nesting (a node is two: its object and its children's array or object). */
+  maxJsonDepth: number;
   /** Bytes of a YAML input: its parser reads the whole document before espalier sees a node. */
   maxYamlBytes: number;
   /** Bytes of a config file (`.espalier.yaml`, `--config`). */
@@ -24,6 +26,7 @@ const MiB = 1 << 20;
 export const readLimits: Readonly<ReadLimits> = {
   maxLineBytes: 4 * MiB,
   maxTokenBytes: 16 * MiB,
+  maxJsonDepth: 4 * MiB,
   maxYamlBytes: 64 * MiB,
   maxConfigBytes: 1 * MiB,
   maxFociBytes: 64 * MiB,

@@ -96,6 +96,21 @@ describe("every reader has a stated limit (src/load/read-limits.ts), LIMIT_EXCEE
     expect(err2.code).toBe("LIMIT_EXCEEDED");
   });
 
+  it("JSON nested past maxJsonDepth, at the bracket's place", async () => {
+    const text = `{"name": "quill", "x": ${"[".repeat(40)}`;
+    const err = await caught(() => load("json", inChunks(text, 5), { limits: { maxJsonDepth: 20 } }));
+    expect(err.code).toBe("LIMIT_EXCEEDED");
+    expect(err.pos?.line).toBe(1);
+    const fits = await load(
+      "json",
+      inChunks(`{"name": "quill", "x": ${"[".repeat(10)}${"]".repeat(10)}}`, 5),
+      {
+        limits: { maxJsonDepth: 20 },
+      },
+    );
+    expect(fits.length).toBe(1);
+  });
+
   it("a YAML input past maxYamlBytes", async () => {
     const yaml = `name: quill\nchildren:\n${"  - name: a\n".repeat(10)}`;
     const err = await caught(() => load("yaml", inChunks(yaml, 16), { limits: tiny }));
@@ -123,6 +138,15 @@ describe("every reader has a stated limit (src/load/read-limits.ts), LIMIT_EXCEE
       expect(read.bytes).toBeLessThanOrEqual(limit + 2 * (1 << 20));
     });
   }
+
+  it("an endless run of [ in a JSON field stops at maxJsonDepth (lowered here to keep the test short)", async () => {
+    const read = { bytes: 0 };
+    const err = await caught(() =>
+      load("json", endless('{"name": "a", "x": ', 0x5b, read), { limits: { maxJsonDepth: 100_000 } }),
+    );
+    expect(err.code).toBe("LIMIT_EXCEEDED");
+    expect(read.bytes).toBeLessThanOrEqual(1 << 20);
+  });
 
   it("--max-nodes holds with an endless well-formed input (a path list)", async () => {
     const read = { bytes: 0 };

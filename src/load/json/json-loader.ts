@@ -123,6 +123,7 @@ export class JsonLoader extends JsonTokenizer {
     this.options = options;
     const limits = limitsOf(options.limits);
     this.maxTokenBytes = limits.maxTokenBytes;
+    this.maxDepth = limits.maxJsonDepth;
     this.captures = new Captures(limits.maxTokenBytes);
     this.probe = new RowsProbe(as);
     this.sink = new NodeSink(options.maxNodes, false);

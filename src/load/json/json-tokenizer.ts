@@ -52,6 +52,8 @@ export abstract class JsonTokenizer {
   private pendStart = 0;
   /** Longest string or number, in bytes (read-limits.ts); a subclass may lower it. */
   protected maxTokenBytes = readLimits.maxTokenBytes;
+  /** Deepest nesting (read-limits.ts): an endless run of "[" stops there, not in memory. */
+  protected maxDepth = readLimits.maxJsonDepth;
   private pendIsKey = false;
   private pendEscape = false;
   private pendWord = TRUE;
@@ -248,8 +250,14 @@ export abstract class JsonTokenizer {
   }
 
   private openContainer(i: number, object: boolean): void {
-    this.open(i, object);
     const top = this.depth;
+    if (top >= this.maxDepth)
+      throw new EspalierError(
+        "LIMIT_EXCEEDED",
+        `the JSON is nested more than ${this.maxDepth} levels deep (an endless input?)`,
+        this.pos.at(this.base + i),
+      );
+    this.open(i, object);
     if (top === this.isObject.length) {
       const grown = new Uint8Array(top * 2);
       grown.set(this.isObject);
