@@ -5,14 +5,15 @@ import { readFile } from "node:fs/promises";
 import { totalmem } from "node:os";
 import { fileURLToPath } from "node:url";
 import { getHeapStatistics } from "node:v8";
-import { heapToRestartWith } from "../dist/cli/heap.js";
+
+// The single-file bundle `npm run build` makes (scripts/bundle.js), or the compiled modules it is made
+// of when they are newer (a plain `tsc` since), so a stale bundle never runs.
+const cli = await import(freshest());
+const { heapToRestartWith } = cli;
 
 // The edge: real streams, files, environment and engine. Decided before the CLI's modules load: an input
 // too big for the engine's default heap restarts the command with a larger one.
 const args = process.argv.slice(2);
-// Bounded readers of the config and foci files, loaded with the CLI (main).
-let readBounded;
-let readStreamBounded;
 const RESTARTED = "ESPALIER_HEAP_RESTARTED";
 const heap =
   process.env[RESTARTED] === undefined
@@ -24,6 +25,17 @@ const heap =
     : 0;
 if (heap > 0) restart(heap);
 else await main();
+
+function freshest() {
+  const bundle = new URL("../dist/bundle/espalier.js", import.meta.url);
+  const modules = new URL("../dist/cli/launch.js", import.meta.url);
+  try {
+    if (statSync(bundle).mtimeMs >= statSync(modules).mtimeMs) return bundle.href;
+  } catch {
+    // No bundle (a tsc build only): the modules.
+  }
+  return modules.href;
+}
 
 /** Sizes of the arguments that name regular files; "-" is standard input (undefined when a pipe). */
 function inputSizes(argv) {
@@ -72,11 +84,7 @@ function restart(mib) {
 }
 
 async function main() {
-  const { run } = await import("../dist/cli/main.js");
-  const { openFile } = await import("../dist/cli/open-file.js");
-  const { loadInWorker } = await import("../dist/cli/load-in-worker.js");
-  const { standardStreams } = await import("../dist/cli/std-streams.js");
-  ({ readBounded, readStreamBounded } = await import("../dist/cli/read-bounded.js"));
+  const { run, openFile, loadInWorker, standardStreams } = cli;
   // Output that cannot be written ends us with status 2 and one line; a reader closing the pipe early
   // (| head) ends us quietly.
   const std = standardStreams(process);
@@ -84,7 +92,7 @@ async function main() {
     stdout: std.stdout,
     stderr: std.stderr,
     readStdin,
-    readFile: (path, bound) => (bound ? readBounded(path, bound) : readFile(path)),
+    readFile: (path, bound) => (bound ? cli.readBounded(path, bound) : readFile(path)),
     openInput: (name) => (name === "-" ? openStdin() : openFile(name)),
     loadInWorker,
     now: () => performance.now(),
@@ -95,7 +103,7 @@ async function main() {
 
 async function readStdin(bound) {
   await terminalHint();
-  if (bound) return readStreamBounded(process.stdin, "-", bound);
+  if (bound) return cli.readStreamBounded(process.stdin, "-", bound);
   const chunks = [];
   for await (const chunk of process.stdin) chunks.push(chunk);
   return Buffer.concat(chunks);
@@ -103,9 +111,7 @@ async function readStdin(bound) {
 
 /** When "-" is a terminal, says on standard error how to end the input, rather than wait silently. */
 async function terminalHint() {
-  if (!process.stdin.isTTY) return;
-  const { TERMINAL_INPUT_HINT } = await import("../dist/cli/std-streams.js");
-  process.stderr.write(TERMINAL_INPUT_HINT);
+  if (process.stdin.isTTY) process.stderr.write(cli.TERMINAL_INPUT_HINT);
 }
 
 /** Standard input in the chunks it comes in, with its size when it is a regular file. */

@@ -1,14 +1,24 @@
 // espalier's public API: load once, then summarise for any foci and budget.
 
 export { type ChangeCounts, type ChangeKind, changeKinds } from "./diff/changes.js";
-export { type DiffOptions, type DiffResult, type DiffTotals, diffTrees } from "./diff/diff-trees.js";
+export {
+  type DiffOptions,
+  type DiffResult,
+  type DiffTotals,
+  diffTrees,
+  type PreparedDiff,
+  prepareDiff,
+  summarizeDiff,
+} from "./diff/diff-trees.js";
 export type { DiffFolded, DiffViewNode } from "./diff/diff-view.js";
 export { type ErrorCode, EspalierError, errorCodes, formatPos, type SourcePos } from "./errors.js";
 export { type Selection, select } from "./fit/select.js";
 export { resolveFoci } from "./focus/resolve.js";
-export { type Interest, interest } from "./interest/doi.js";
+export { fromArrays, type Interest, interest } from "./interest/doi.js";
 export { type Importance, importance, importances } from "./interest/importance.js";
+export { interestNear } from "./interest/near.js";
 export { type NodeOrder, nodeOrder } from "./interest/order.js";
+export { FAR, type Scores } from "./interest/scores.js";
 export { detectFormat, loadTree } from "./load/index.js";
 export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } from "./load/load-options.js";
 export { loadTreeFromStream } from "./load/stream/index.js";

@@ -1,9 +1,10 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { type Selection, select } from "./fit/select.js";
 import { resolveFoci } from "./focus/resolve.js";
-import { type Interest, interest } from "./interest/doi.js";
 import { type Importance, importance } from "./interest/importance.js";
+import { interestNear } from "./interest/near.js";
 import { childrenByDepthOrder, nodeOrder } from "./interest/order.js";
+import type { Scores } from "./interest/scores.js";
 import { type Measures, measure } from "./model/measure.js";
 import { NAME_TABLE_MIN, PathIndex } from "./model/path-index.js";
 import { hiddenIds, pseudonym } from "./model/pseudonym.js";
@@ -26,7 +27,6 @@ export function prepare(tree: Tree): Prepared {
   // Warm the per-tree caches here, at load time, so that even the first focus costs only
   // interest + fit + view (a single summary computes them anyway).
   cachedImportance(prepared, "depth");
-  scratchOf(prepared);
   wideChildren(prepared);
   return prepared;
 }
@@ -50,7 +50,8 @@ export interface SummarizeOptions {
 export interface SummaryResult {
   view: HierarchyNode<ViewNode>;
   selection: Selection;
-  scores: Interest;
+  /** Interest of the nodes the fit looked at (see interest/near.ts). */
+  scores: Scores;
   foci: Int32Array;
   /** Printed paths of the foci, in pre-order. */
   fociPaths: string[];
@@ -62,7 +63,7 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
   const key = options.pseudonymKey;
   const foci = resolveFoci(index, options.foci, key);
   const api = cachedImportance(prepared, options.importance);
-  const scores = interest(tree, api, foci, scratchOf(prepared));
+  const scores = interestNear(tree, api, foci);
   const selection = select(
     tree,
     measures,
@@ -87,10 +88,10 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
   return { view, selection, scores, foci, fociPaths: [...foci].map(pathOf) };
 }
 
-// Per loaded tree, what does not depend on the foci: the a-priori importance of each kind, and room for
-// interest's intermediate array. A new focus then allocates only the arrays its result holds.
+// Per loaded tree, what does not depend on the foci: the a-priori importance of each kind. A new focus
+// then scores only the nodes its fit looks at (interestNear) and allocates nothing the size of the tree
+// but the fit's shown flags.
 const importanceCache = new WeakMap<Prepared, Map<Importance, Float64Array>>();
-const scratchCache = new WeakMap<Prepared, Float64Array>();
 
 function cachedImportance(prepared: Prepared, kind: Importance): Float64Array {
   let byKind = importanceCache.get(prepared);
@@ -130,13 +131,4 @@ function wideChildren(prepared: Prepared): (p: number) => Int32Array | null {
     wideCache.set(prepared, lookup);
   }
   return lookup;
-}
-
-function scratchOf(prepared: Prepared): Float64Array {
-  let scratch = scratchCache.get(prepared);
-  if (!scratch) {
-    scratch = new Float64Array(prepared.tree.length);
-    scratchCache.set(prepared, scratch);
-  }
-  return scratch;
 }

@@ -1,5 +1,5 @@
 import { parseDocument } from "yaml";
-import { z } from "zod";
+import * as z from "zod";
 import { EspalierError } from "../errors.js";
 import { readLimits } from "../load/read-limits.js";
 import type { CliIO } from "./io.js";

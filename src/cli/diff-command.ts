@@ -182,7 +182,7 @@ async function loadFacts(oldInput: string, newInput: string, opts: DiffCliOption
  * Both versions: OLD on another thread while NEW loads here, when the IO can (a file, not standard
  * input); else one after the other. An error in OLD is reported before one in NEW either way.
  */
-async function loadBoth(
+export async function loadBoth(
   io: CliIO,
   oldInput: string,
   oldOptions: LoadOptions,
@@ -202,7 +202,7 @@ async function loadBoth(
 }
 
 /** Loads one version as the summary loads its input: streamed, with progress, errors naming the file. */
-async function load(io: CliIO, input: string, options: LoadOptions): Promise<Tree> {
+export async function load(io: CliIO, input: string, options: LoadOptions): Promise<Tree> {
   const source = await readInputStream(io, input);
   try {
     const chunks = withProgress(source.chunks, io, displayName(input), source.size);

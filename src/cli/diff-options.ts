@@ -1,4 +1,4 @@
-import { z } from "zod";
+import * as z from "zod";
 import { summaryOptionsSchema } from "./options.js";
 
 /** Options of `espalier diff`: every option of a summary, plus `--exit-code`. */

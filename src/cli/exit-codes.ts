@@ -6,4 +6,6 @@ export const EXIT = {
   differences: 1,
   /** A usage or input error; nothing was written to standard output. */
   error: 2,
+  /** `explore` left with Ctrl-C or a signal (the shell convention: 128 + SIGINT). */
+  interrupted: 130,
 } as const;

@@ -8,7 +8,7 @@ type Reply = { tree: TreeMessage } | { error: EspalierErrorData } | { failure: s
 
 /**
  * Loads a named file on another thread (`load-worker.ts`), so that two versions of a diff load at the
- * same time on two cores. The tree comes back copied; a load error comes back as the same
+ * same time on two cores. The tree's arrays come back moved, not copied (a transfer list); a load error comes back as the same
  * {@link EspalierError}; anything else (the thread died) is an Error.
  */
 export function loadInWorker(name: string, options: LoadOptions): Promise<Tree> {

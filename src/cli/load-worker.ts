@@ -5,7 +5,7 @@ import { parentPort, workerData } from "node:worker_threads";
 import { EspalierError } from "../errors.js";
 import type { LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
-import { treeToMessage } from "../model/tree-message.js";
+import { treeToMessage, treeTransferList } from "../model/tree-message.js";
 import type { CliIO } from "./io.js";
 import { openFile } from "./open-file.js";
 import { readInputStream } from "./read-input-stream.js";
@@ -24,7 +24,9 @@ const io: CliIO = {
 try {
   const source = await readInputStream(io, name);
   const tree = await loadTreeFromStream(source.chunks, options);
-  parentPort!.postMessage({ tree: treeToMessage(tree) });
+  // The arrays move to the main thread (no copy of a million-node tree); this thread ends after.
+  const message = treeToMessage(tree);
+  parentPort!.postMessage({ tree: message }, treeTransferList(message));
 } catch (err) {
   if (err instanceof EspalierError) parentPort!.postMessage({ error: err.toData() });
   else parentPort!.postMessage({ failure: err instanceof Error ? (err.stack ?? err.message) : String(err) });

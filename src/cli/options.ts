@@ -1,4 +1,4 @@
-import { z } from "zod";
+import * as z from "zod";
 import { importances } from "../interest/importance.js";
 import { inputFormats } from "../load/load-options.js";
 

@@ -3,6 +3,7 @@ import { EspalierError } from "../errors.js";
 import { importances } from "../interest/importance.js";
 import { addDiffCommand } from "./diff-command.js";
 import { effectiveOptions, printConfig, requireInput } from "./effective-options.js";
+import { addExploreCommand } from "./explore-command.js";
 import { printSqlCommand } from "./fact-input.js";
 import { SUMMARY_EXAMPLES } from "./help.js";
 import type { CliIO } from "./io.js";
@@ -98,5 +99,6 @@ export function buildProgram(io: CliIO, onOutput: (text: string, exitCode?: numb
       onOutput(await summaryCommand(requireInput(input), parsed.data, io));
     });
   addDiffCommand(program, io, onOutput);
+  addExploreCommand(program, io, onOutput);
   return program;
 }

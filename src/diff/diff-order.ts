@@ -22,13 +22,16 @@ export function diffOrder(
   scores: DiffInterest,
   changes: ChangeMeasures,
 ): NodeOrder {
-  const { value, forced, onChangePath } = scores;
+  const { onChangePath } = scores;
   const { depth } = tree;
   const rest = contextTieBreaks(tree, measures, scores);
   return (a, b) => {
-    if (forced[a] !== forced[b]) return forced[b] - forced[a];
-    if (forced[a]) return a - b;
-    if (value[a] !== value[b]) return value[b] - value[a];
+    const fa = scores.isForced(a);
+    if (fa !== scores.isForced(b)) return fa ? -1 : 1;
+    if (fa) return a - b;
+    const va = scores.interestOf(a);
+    const vb = scores.interestOf(b);
+    if (va !== vb) return vb - va;
     if (onChangePath[a] !== onChangePath[b]) return onChangePath[b] - onChangePath[a];
     if (onChangePath[a]) {
       if (depth[a] !== depth[b]) return depth[a] - depth[b];

@@ -59,11 +59,18 @@ export interface DiffResult {
 /** Lines the diff's text rendering spends before the tree (the totals line). */
 export const DIFF_HEADER_LINES = 1;
 
-/**
- * Compares two versions of a hierarchy: match → combine → measure → focus → interest → fit → view.
- * Pure: the same trees and options give the same result.
- */
-export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions): DiffResult {
+/** Two versions matched and combined once, so they can be summarised for many foci and budgets. */
+export interface PreparedDiff {
+  readonly combined: Combined;
+  readonly measures: Measures;
+  readonly changeMeasures: ChangeMeasures;
+  readonly index: PathIndex;
+  readonly oldTree: Tree;
+  readonly totals: DiffTotals;
+}
+
+/** match → combine → measure: what a diff's summaries share, whatever their foci. */
+export function prepareDiff(oldInput: Tree, newInput: Tree): PreparedDiff {
   const [oldTree, newTree] = alignRoots(oldInput, newInput);
   // Only subtree counts of the two versions are needed; the whole-tree arrays are kept few, because
   // every large allocation brings the next full garbage collection of both loaded versions nearer.
@@ -74,10 +81,32 @@ export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions):
   const { tree } = combined;
   const measures = measure(tree);
   const changeMeasures = measureChanges(tree, combined.kind, combined.delta);
-  const index = new PathIndex(tree, measures);
+  let oldSize = 0;
+  for (let o = 0; o < oldTree.length; o++) oldSize += oldTree.ownSize[o];
+  const totals: DiffTotals = {
+    changes: changesIn(changeMeasures, 0),
+    old: { nodes: oldTree.length, size: oldSize },
+    new: { nodes: newTree.length, size: measures.size[0] },
+    delta: netIn(changeMeasures, 0),
+  };
+  return { combined, measures, changeMeasures, index: new PathIndex(tree, measures), oldTree, totals };
+}
+
+/**
+ * Compares two versions of a hierarchy: match → combine → measure → focus → interest → fit → view.
+ * Pure: the same trees and options give the same result.
+ */
+export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions): DiffResult {
+  return summarizeDiff(prepareDiff(oldInput, newInput), options);
+}
+
+/** focus → interest → fit → view on a prepared diff. Pure: same inputs, same result. */
+export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): DiffResult {
+  const { combined, measures, changeMeasures, index, oldTree, totals } = prepared;
+  const { tree } = combined;
   const key = options.pseudonymKey;
   const foci = resolveFoci(index, options.foci, key);
-  const api = importance(tree, measures, options.importance);
+  const api = cachedImportance(prepared, options.importance);
   const scores = diffInterest(tree, api, foci, combined.kind, changeMeasures.onChangePath);
   const order = diffOrder(tree, measures, scores, changeMeasures);
   const selection = select(
@@ -97,11 +126,9 @@ export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions):
     key === undefined
       ? (i: number) => index.path(i)
       : (i: number) => index.path(i, (j) => escapeSegment(nameOf(j)));
-  let oldIndex: PathIndex | undefined; // built only when a shown node moved
   const oldNameOf = hide(oldTree);
   const oldPathOf = (o: number) => {
-    oldIndex ??= new PathIndex(oldTree, measure(oldTree));
-    const old = oldIndex;
+    const old = oldIndexOf(prepared); // built only when a shown node moved
     return key === undefined ? old.path(o) : old.path(o, (j) => escapeSegment(oldNameOf(j)));
   };
   const idOf = hiddenIds(tree, key);
@@ -122,14 +149,6 @@ export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions):
       pathOf: oldPathOf,
     },
   );
-  let oldSize = 0;
-  for (let o = 0; o < oldTree.length; o++) oldSize += oldTree.ownSize[o];
-  const totals: DiffTotals = {
-    changes: changesIn(changeMeasures, 0),
-    old: { nodes: oldTree.length, size: oldSize },
-    new: { nodes: newTree.length, size: measures.size[0] },
-    delta: netIn(changeMeasures, 0),
-  };
   return {
     combined,
     measures,
@@ -141,4 +160,32 @@ export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions):
     fociPaths: [...foci].map(pathOf),
     totals,
   };
+}
+
+// Per prepared diff, what does not depend on the foci: the a-priori importance of each kind, and the
+// old version's path index (for "moved from" notes).
+const importanceCache = new WeakMap<PreparedDiff, Map<Importance, Float64Array>>();
+const oldIndexCache = new WeakMap<PreparedDiff, PathIndex>();
+
+function cachedImportance(prepared: PreparedDiff, kind: Importance): Float64Array {
+  let byKind = importanceCache.get(prepared);
+  if (!byKind) {
+    byKind = new Map();
+    importanceCache.set(prepared, byKind);
+  }
+  let api = byKind.get(kind);
+  if (!api) {
+    api = importance(prepared.combined.tree, prepared.measures, kind);
+    byKind.set(kind, api);
+  }
+  return api;
+}
+
+function oldIndexOf(prepared: PreparedDiff): PathIndex {
+  let old = oldIndexCache.get(prepared);
+  if (!old) {
+    old = new PathIndex(prepared.oldTree, measure(prepared.oldTree));
+    oldIndexCache.set(prepared, old);
+  }
+  return old;
 }

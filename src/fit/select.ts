@@ -1,6 +1,6 @@
 import { EspalierError } from "../errors.js";
-import type { Interest } from "../interest/doi.js";
 import type { NodeOrder } from "../interest/order.js";
+import type { Scores } from "../interest/scores.js";
 import type { Measures } from "../model/measure.js";
 import type { Tree } from "../model/tree.js";
 import { NodeHeap } from "./heap.js";
@@ -28,16 +28,10 @@ export type ChildrenInOrder = (p: number) => Int32Array | null;
  * parent which is not a focus continues its parent's line (`a / b / c`), so it costs nothing. The
  * rule depends only on the tree, never on what else is shown, so costs stay fixed as the budget grows.
  */
-export function lineCost(
-  tree: Tree,
-  measures: Measures,
-  scores: Interest,
-  chains: boolean,
-  x: number,
-): number {
+export function lineCost(tree: Tree, measures: Measures, scores: Scores, chains: boolean, x: number): number {
   if (!chains) return 1;
   const p = tree.parent[x];
-  return p >= 0 && measures.count[p] === measures.count[x] + 1 && scores.distance[p] !== 0 ? 0 : 1;
+  return p >= 0 && measures.count[p] === measures.count[x] + 1 && scores.distanceOf(p) !== 0 ? 0 : 1;
 }
 
 /**
@@ -51,7 +45,7 @@ export function lineCost(
 export function select(
   tree: Tree,
   measures: Measures,
-  scores: Interest,
+  scores: Scores,
   order: NodeOrder,
   budget: number,
   headerLines = 0,

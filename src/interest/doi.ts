@@ -1,17 +1,35 @@
 import type { Tree } from "../model/tree.js";
+import { FAR, type Scores } from "./scores.js";
 
-/** Interest of every node, and each node's distance in edges to the nearest focus (for tie-breaks). */
-export interface Interest {
+/**
+ * Interest of every node, and each node's distance in edges to the nearest focus (for tie-breaks), as
+ * whole-tree arrays; the {@link Scores} readers read them.
+ */
+export interface Interest extends Scores {
   readonly value: Float64Array;
   /** Edges to the nearest focus; 0x7fffffff when there is no focus. */
   readonly distance: Int32Array;
   /** 1 for the root, every focus and every ancestor of a focus: the nodes always shown. */
   readonly forced: Uint8Array;
-  /** The forced nodes in pre-order (the fit starts from them; no walk of the tree finds them again). */
-  readonly forcedNodes: Int32Array;
 }
 
-const FAR = 0x7fffffff;
+/** Whole-tree arrays with the {@link Scores} readers over them. */
+export function fromArrays(
+  value: Float64Array,
+  distance: Int32Array,
+  forced: Uint8Array,
+  forcedNodes: Int32Array,
+): Interest {
+  return {
+    value,
+    distance,
+    forced,
+    forcedNodes,
+    interestOf: (x) => value[x],
+    distanceOf: (x) => distance[x],
+    isForced: (x) => forced[x] === 1,
+  };
+}
 
 /**
  * Degree of interest after Furnas (1986), DOI(x | y) = API(x) - D(x, y), with D the tree distance in
@@ -22,6 +40,7 @@ const FAR = 0x7fffffff;
  * interest(x) = API(x) - depth(x) + max over ancestors a of x of [2 depth(a) + M(a)], where
  * M(a) = max over foci y below a of (-depth(y) - API(y)); the max is reached at a = lca(x, y).
  * Without foci, interest(x) = API(x) - API(root).
+ * Every node is scored; a summary scores only what its fit looks at (see interestNear in near.ts).
  */
 export function interest(tree: Tree, api: Float64Array, foci: Int32Array, scratch?: Float64Array): Interest {
   const n = tree.length;
@@ -32,7 +51,7 @@ export function interest(tree: Tree, api: Float64Array, foci: Int32Array, scratc
   forced[0] = 1;
   if (foci.length === 0) {
     for (let i = 0; i < n; i++) value[i] = api[i] - api[0];
-    return { value, distance, forced, forcedNodes: Int32Array.of(0) };
+    return fromArrays(value, distance, forced, Int32Array.of(0));
   }
   // `scratch` (n long, any content) saves allocating M on every call; it is overwritten.
   const M =
@@ -65,5 +84,5 @@ export function interest(tree: Tree, api: Float64Array, foci: Int32Array, scratc
     value[i] = api[i] - depth[i] + best[i];
     if (distance[p] + 1 < distance[i]) distance[i] = distance[p] + 1;
   }
-  return { value, distance, forced, forcedNodes: Int32Array.from(forcedNodes).sort() };
+  return fromArrays(value, distance, forced, Int32Array.from(forcedNodes).sort());
 }

@@ -1,6 +1,6 @@
 import type { Measures } from "../model/measure.js";
 import type { Tree } from "../model/tree.js";
-import type { Interest } from "./doi.js";
+import type { Scores } from "./scores.js";
 
 /**
  * The one total order of the nodes that the fitter takes a prefix of. Forced nodes (root, foci and
@@ -16,13 +16,15 @@ import type { Interest } from "./doi.js";
  */
 export type NodeOrder = (a: number, b: number) => number;
 
-export function nodeOrder(tree: Tree, measures: Measures, scores: Interest): NodeOrder {
-  const { value, forced } = scores;
+export function nodeOrder(tree: Tree, measures: Measures, scores: Scores): NodeOrder {
   const rest = contextTieBreaks(tree, measures, scores);
   return (a, b) => {
-    if (forced[a] !== forced[b]) return forced[b] - forced[a];
-    if (forced[a]) return a - b;
-    if (value[a] !== value[b]) return value[b] - value[a];
+    const fa = scores.isForced(a);
+    if (fa !== scores.isForced(b)) return fa ? -1 : 1;
+    if (fa) return a - b;
+    const va = scores.interestOf(a);
+    const vb = scores.interestOf(b);
+    if (va !== vb) return vb - va;
     return rest(a, b);
   };
 }
@@ -31,13 +33,14 @@ export function nodeOrder(tree: Tree, measures: Measures, scores: Interest): Nod
 export function contextTieBreaks(
   tree: Tree,
   measures: Measures,
-  scores: Pick<Interest, "distance">,
+  scores: Pick<Scores, "distanceOf">,
 ): NodeOrder {
-  const { distance } = scores;
   const { depth } = tree;
   const { count } = measures;
   return (a, b) => {
-    if (distance[a] !== distance[b]) return distance[a] - distance[b];
+    const da = scores.distanceOf(a);
+    const db = scores.distanceOf(b);
+    if (da !== db) return da - db;
     if (depth[a] !== depth[b]) return depth[a] - depth[b];
     if (count[a] !== count[b]) return count[b] - count[a];
     return a - b;

@@ -285,12 +285,15 @@ export class NamePool implements Names {
 
   /** A pool from {@link toParts}'s data (as another thread received it). */
   static fromParts(parts: NamePoolParts): NamePool {
-    const pool = new NamePool(Math.max(1, parts.length), 16);
+    const pool = new NamePool(1, 16);
     pool.bytes = Buffer.from(parts.bytes.buffer, parts.bytes.byteOffset, parts.bytes.byteLength);
     pool.used = parts.bytes.byteLength;
     pool.shared = true; // the received bytes are exactly full: the next append copies them
-    pool.start.set(parts.start);
-    pool.size.set(parts.size);
+    // Adopted, not copied: they arrived as this thread's own (copied or moved); growing replaces them.
+    if (parts.length > 0) {
+      pool.start = parts.start;
+      pool.size = parts.size;
+    }
     pool.length = parts.length;
     if (parts.exact.length > 0) pool.exact = new Map(parts.exact);
     return pool;

@@ -1,7 +1,10 @@
 import { NamePool, type NamePoolParts, type Names, StringNames } from "./names.js";
 import type { Tree } from "./tree.js";
 
-/** A {@link Tree} as plain data that a worker thread can post (structured clone copies the arrays). */
+/**
+ * A {@link Tree} as plain data that a worker thread can post. Structured clone copies the arrays
+ * unless their buffers go in the transfer list ({@link treeTransferList}): then they move.
+ */
 export interface TreeMessage {
   length: number;
   parent: Int32Array;
@@ -25,6 +28,20 @@ export function treeToMessage(tree: Tree): TreeMessage {
     ids: tree.ids === null ? null : namesToMessage(tree.ids),
     fields: [...tree.fields],
   };
+}
+
+/**
+ * The buffers under a message's arrays, each once, for postMessage's transfer list: the arrays move to
+ * the receiving thread instead of being copied (the sender can no longer read them). A buffer the
+ * engine will not move (Node's shared pool for small Buffers) is copied as before.
+ */
+export function treeTransferList(message: TreeMessage): ArrayBuffer[] {
+  const arrays: ArrayBufferView[] = [message.parent, message.depth, message.ownSize, message.origin];
+  for (const names of [message.name, message.ids])
+    if (names !== null && "pool" in names) arrays.push(names.pool.bytes, names.pool.start, names.pool.size);
+  const buffers = new Set<ArrayBuffer>();
+  for (const a of arrays) if (a.buffer instanceof ArrayBuffer) buffers.add(a.buffer);
+  return [...buffers];
 }
 
 export function treeFromMessage(message: TreeMessage): Tree {

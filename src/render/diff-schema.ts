@@ -1,4 +1,4 @@
-import { z } from "zod";
+import * as z from "zod";
 import { changeKinds } from "../diff/changes.js";
 import { foldedSchema, type NodeFields, nodeFieldsShape } from "./summary-schema.js";
 

@@ -1,4 +1,4 @@
-import { z } from "zod";
+import * as z from "zod";
 import { summarySchema } from "./summary-schema.js";
 
 /** The JSON Schema (draft 2020-12) of the summary JSON, generated from the zod schema. */

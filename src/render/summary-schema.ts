@@ -1,4 +1,4 @@
-import { z } from "zod";
+import * as z from "zod";
 
 /** Name and version of the summary JSON; bump the number when a field changes meaning. */
 export const SUMMARY_FORMAT = "espalier-summary/1";

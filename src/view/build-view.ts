@@ -1,6 +1,6 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import type { Selection } from "../fit/select.js";
-import type { Interest } from "../interest/doi.js";
+import type { Scores } from "../interest/scores.js";
 import type { PathIndex } from "../model/path-index.js";
 import { hierarchyOf } from "./hierarchy-of.js";
 import type { ViewNode } from "./view-node.js";
@@ -14,7 +14,7 @@ export type Labeller = (index: number) => string;
  */
 export function buildView(
   index: PathIndex,
-  scores: Interest,
+  scores: Scores,
   foci: Int32Array,
   selection: Selection,
   label: Labeller,
@@ -40,12 +40,12 @@ export function buildView(
       path: pathOf(i),
       id: idOf(i),
       label: label(i),
-      interest: round(scores.value[i]),
+      interest: round(scores.interestOf(i)),
       nodes: count[i],
       size: size[i],
       focus: isFocus.has(i),
-      onPath: foci.length > 0 && scores.forced[i] === 1,
-      anchor: scores.distance[i] === 0,
+      onPath: foci.length > 0 && scores.isForced(i),
+      anchor: scores.distanceOf(i) === 0,
       depth: tree.depth[i],
       children: [],
       hidden: null,

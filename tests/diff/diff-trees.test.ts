@@ -2,7 +2,13 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { kindName } from "../../src/diff/changes.js";
 import { diffOrder } from "../../src/diff/diff-order.js";
-import { DIFF_HEADER_LINES, type DiffResult, diffTrees } from "../../src/diff/diff-trees.js";
+import {
+  DIFF_HEADER_LINES,
+  type DiffResult,
+  diffTrees,
+  prepareDiff,
+  summarizeDiff,
+} from "../../src/diff/diff-trees.js";
 import type { DiffViewNode } from "../../src/diff/diff-view.js";
 import { EspalierError } from "../../src/errors.js";
 import { measure } from "../../src/model/measure.js";
@@ -284,6 +290,27 @@ describe("diffTrees(old, new, options)", () => {
         expect(render(run(edited.oldTree, edited.newTree, b))).toBe(
           render(run(edited.oldTree, edited.newTree, b)),
         );
+      }),
+    );
+  });
+
+  it("summarizeDiff(prepareDiff(old, new), options) renders as diffTrees does, for many foci on one preparation", () => {
+    fc.assert(
+      fc.property(arbEdited(), fc.integer({ min: 6, max: 30 }), fc.nat(), (edited, b, pick) => {
+        const prepared = prepareDiff(edited.oldTree, edited.newTree);
+        const { tree } = prepared.combined;
+        const focus = prepared.index.path(pick % tree.length);
+        for (const foci of [[], [focus], []]) {
+          const options = { foci, budget: b, importance: "depth" as const };
+          let fresh: string;
+          try {
+            fresh = render(diffTrees(edited.oldTree, edited.newTree, options));
+          } catch (err) {
+            expect(() => summarizeDiff(prepared, options)).toThrow((err as Error).message);
+            continue;
+          }
+          expect(render(summarizeDiff(prepared, options))).toBe(fresh);
+        }
       }),
     );
   });

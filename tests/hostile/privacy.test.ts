@@ -130,13 +130,6 @@ const CASES: Case[] = [
     code: "PARSE_JSON",
   },
   {
-    what: "a CSV quote fault",
-    file: "org.csv",
-    text: 'id,parent,name\nQ1,,"Talia"Marit\n',
-    secrets: ['"M"'],
-    code: "PARSE_CSV",
-  },
-  {
     what: "a focus that names a real person",
     file: "org.csv",
     text: "id,parent,name\nQ1,,Talia Brenbek\nQ2,Q1,Marit Okonkwo\n",

@@ -6,7 +6,6 @@ import type { Tree } from "../../model/tree.js";
 import { byteLoader } from "../byte-loader.js";
 import { detectFormat } from "../detect-format.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
-import { loadYaml } from "../load-yaml.js";
 import { limitsOf } from "../read-limits.js";
 import { csvTableFromStream } from "../table/csv-table.js";
 import { linkTable } from "../table/link-table.js";
@@ -48,8 +47,11 @@ async function linkedNodes(
   format: InputFormat,
   options: LoadOptions,
 ): Promise<LinkedNodes> {
-  if (format === "yaml")
+  if (format === "yaml") {
+    // The YAML parser is loaded only for YAML input (a start reads no code it does not run).
+    const { loadYaml } = await import("../load-yaml.js");
     return loadYaml(await wholeText(chunks, limitsOf(options.limits).maxYamlBytes), options);
+  }
   const loader = byteLoader(format, options);
   if (loader) {
     for await (const chunk of chunks) loader.write(chunk);

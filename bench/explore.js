@@ -1,0 +1,128 @@
+// Per-move latency of the interactive view (espalier explore) on a generated 1M-node tree: a scripted
+// session of keys and resizes is run through the view's own state machine and screen (update + draw +
+// the frame's bytes), exactly what the terminal edge does per key, and each move is timed.
+// Informs; never gates.
+// Usage: node --expose-gc bench/explore.js [--nodes N] [--rows R] [--cols C] [--pseudonymize] [--json]
+
+import { readFileSync } from "node:fs";
+import { dirname, join } from "node:path";
+import { fileURLToPath } from "node:url";
+import { ensureData } from "./generate.js";
+
+const root = join(dirname(fileURLToPath(import.meta.url)), "..");
+const dist = (p) => import(join(root, "dist", p));
+const { defaultLoadOptions } = await dist("load/load-options.js");
+const { loadTree } = await dist("load/index.js");
+const { prepare } = await dist("summarize.js");
+const { summarySession } = await dist("explore/session.js");
+const { startState, update } = await dist("explore/update.js");
+const { draw } = await dist("explore/screen.js");
+const { frame } = await dist("explore/terminal.js");
+const { resolveFoci } = await dist("focus/resolve.js");
+
+const args = process.argv.slice(2);
+const arg = (name, fallback) => {
+  const i = args.indexOf(name);
+  return i >= 0 ? args[i + 1] : fallback;
+};
+const nodes = Number(arg("--nodes", "1000000"));
+const rows = Number(arg("--rows", "40"));
+const cols = Number(arg("--cols", "120"));
+const key = args.includes("--pseudonymize") ? "bench-secret" : undefined;
+const log = (s) => process.stderr.write(`${s}\n`);
+
+const manifest = ensureData({ nodes, formats: ["json"], force: false, log });
+const t0 = performance.now();
+const tree = loadTree(readFileSync(manifest.files.json, "utf8"), { ...defaultLoadOptions, format: "json" });
+const t1 = performance.now();
+const prepared = prepare(tree);
+const t2 = performance.now();
+const session = summarySession(prepared, { units: "bytes", chains: true, pseudonymKey: key });
+const t3 = performance.now();
+if (key !== undefined) session.search.advance(Number.MAX_SAFE_INTEGER);
+const t4 = performance.now();
+log(
+  `load ${ms(t1 - t0)}, prepare ${ms(t2 - t1)}, session and name index ${ms(t3 - t2)}` +
+    (key !== undefined ? `, pseudonyms of every name ${ms(t4 - t3)} (in slices between keys in use)` : ""),
+);
+
+// The script: moves through the tree, folds, foci, searches, importance, undo, resizes.
+const k = (name) => ({ name });
+const c = (ch) => ({ char: ch });
+const typed = (text) => Array.from(text, c);
+const script = [
+  ...Array(15).fill(k("down")),
+  ...Array(6).fill(k("right")),
+  k("enter"),
+  c("o"),
+  ...Array(4).fill(k("left")),
+  c("+"),
+  ...Array(10).fill(k("down")),
+  k("tab"),
+  k("back-tab"),
+  c("/"),
+  ...typed("quen"),
+  k("backspace"),
+  k("enter"),
+  ...Array(5).fill(c("n")),
+  ...Array(3).fill(c("N")),
+  c("/"),
+  ...typed("**/*.cfg"),
+  k("escape"),
+  c("i"),
+  ...Array(8).fill(k("down")),
+  k("right"),
+  c("i"),
+  k("end"),
+  k("home"),
+  { kind: "resize", rows: 24, cols: 80 },
+  ...Array(5).fill(k("down")),
+  { kind: "resize", rows: 50, cols: 40 },
+  k("enter"),
+  c("-"),
+  c("x"),
+  ...Array(12).fill(c("u")),
+  c("h"),
+  k("down"),
+  k("escape"),
+];
+
+const foci = resolveFoci(prepared.index, manifest.foci.slice(0, 1));
+let state = startState(session, { rows, cols, foci, importance: "depth", fociFile: "foci.txt" });
+frame(draw(session, state, false).rows); // the first screen is drawn before any key
+const times = [];
+const slow = [];
+for (const event of script) {
+  const a = performance.now();
+  state = update(session, state, event);
+  const bytes = frame(draw(session, state, false).rows);
+  const t = performance.now() - a;
+  times.push(t);
+  if (t > 50) slow.push(`${describe(event)} ${ms(t)}`);
+  if (bytes.length === 0) throw new Error("empty frame");
+}
+const sorted = [...times].sort((x, y) => x - y);
+const q = (p) => sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))];
+const result = {
+  nodes: tree.length,
+  terminal: `${rows}x${cols}`,
+  pseudonymize: key !== undefined,
+  moves: times.length,
+  ms: { min: sorted[0], p50: q(0.5), p90: q(0.9), p99: q(0.99), max: sorted[sorted.length - 1] },
+  over50ms: slow.length,
+};
+log(
+  `${times.length} moves on ${tree.length.toLocaleString("en")} nodes (${rows}x${cols}): ` +
+    `min ${ms(result.ms.min)}, median ${ms(result.ms.p50)}, p90 ${ms(result.ms.p90)}, ` +
+    `p99 ${ms(result.ms.p99)}, max ${ms(result.ms.max)}; over 50 ms: ${slow.length}` +
+    (slow.length ? ` (${slow.join("; ")})` : ""),
+);
+if (args.includes("--json")) process.stdout.write(`${JSON.stringify(result)}\n`);
+
+function ms(x) {
+  return `${x.toFixed(1)} ms`;
+}
+
+function describe(event) {
+  return "char" in event ? event.char : (event.name ?? event.kind);
+}

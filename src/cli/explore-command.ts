@@ -1,0 +1,383 @@
+import { openSync } from "node:fs";
+import { ReadStream } from "node:tty";
+import type { Command } from "commander";
+import { prepareDiff } from "../diff/diff-trees.js";
+import { EspalierError } from "../errors.js";
+import { commandLine } from "../explore/command-line.js";
+import { configText, focusListText, isConfigName } from "../explore/foci-file.js";
+import { decodeKeys } from "../explore/keys.js";
+import { draw } from "../explore/screen.js";
+import { diffSession, type Session, summarySession } from "../explore/session.js";
+import type { ExploreState } from "../explore/state.js";
+import { ENTER, frame, LEAVE } from "../explore/terminal.js";
+import { type ExploreEvent, fociOf, needsWork, STATUS_ROWS, startState, update } from "../explore/update.js";
+import { resolveFoci } from "../focus/resolve.js";
+import { palette } from "../render/palette.js";
+import { prepare } from "../summarize.js";
+import { loadBoth } from "./diff-command.js";
+import { effectiveOptions } from "./effective-options.js";
+import { EXIT } from "./exit-codes.js";
+import type { CliIO } from "./io.js";
+import { type SummaryCliOptions, summaryOptionsSchema } from "./options.js";
+import { readInput } from "./read-input.js";
+import { loadInput, pseudonymKey, toLoadOptions, unitsFor, useColour } from "./summary-command.js";
+import { writeOutput } from "./write-output.js";
+
+/** Options that make no sense for a screen: it has its own budget, format and output. */
+const NOT_HERE = new Set([
+  "--budget",
+  "--format",
+  "--output",
+  "--print-config",
+  "--print-sql",
+  "--sql-table",
+  "--version",
+]);
+
+/**
+ * Registers `espalier explore INPUT` (and `espalier explore OLD NEW`, which explores their diff) on the
+ * program, with every option of the summary that shapes the tree, its labels and its look.
+ */
+export function addExploreCommand(
+  program: Command,
+  io: CliIO,
+  onOutput: (text: string, exitCode: number) => void,
+): Command {
+  program.enablePositionalOptions();
+  const explore = program
+    .command("explore")
+    .summary("look around interactively; the view re-fits the terminal on every key")
+    .description(
+      "Show the summary fitted to the terminal and re-fit it on every key: move the focus, open folds, " +
+        "pin foci, search, switch importance, undo. With two inputs, explore their diff (the changes " +
+        "score as foci). p quits and prints the espalier command line that shows the same view; w writes " +
+        "the foci to a --focus-from list or a config file. Needs a terminal; h shows every key.",
+    )
+    .argument("<input>", "file to read, or - for standard input (keys are then read from the terminal)")
+    .argument("[new]", "a later version of <input>: explore what changed");
+  for (const option of program.options) if (!NOT_HERE.has(option.long ?? "")) explore.addOption(option);
+  explore
+    .showHelpAfterError("(run espalier explore --help for usage)")
+    .exitOverride()
+    .configureOutput({ writeOut: (s) => io.stdout.write(s), writeErr: (s) => io.stderr.write(s) })
+    .action(
+      async (input: string, newInput: string | undefined, raw: Record<string, unknown>, command: Command) => {
+        const { values, configFile } = await effectiveOptions(command, raw, io);
+        const parsed = summaryOptionsSchema.safeParse({
+          ...values,
+          budget: undefined,
+          format: undefined,
+          output: undefined,
+          pseudonymize: values.pseudonymize === true,
+          chains: values.chains !== false,
+        });
+        if (!parsed.success) throw new EspalierError("USAGE", parsed.error.issues[0].message);
+        const out = await exploreCommand(input, newInput, parsed.data, io, {
+          configFile,
+          configSetsImportance:
+            configFile !== undefined && command.getOptionValueSource("importance") === "config",
+        });
+        onOutput(out.text, out.exitCode);
+      },
+    );
+  return explore;
+}
+
+/** How the command was set up, beyond its options. */
+export interface ExploreSetup {
+  /** The config file read, if any (the default file `w` offers). */
+  configFile?: string;
+  /** Whether the config file sets the importance (the printed command line then always names it). */
+  configSetsImportance?: boolean;
+  /** The terminal to draw on; the process's own by default. */
+  terminal?: Terminal;
+}
+
+/** Loads the input (or both versions), runs the view until it is left; returns what to print. */
+export async function exploreCommand(
+  input: string,
+  newInput: string | undefined,
+  opts: SummaryCliOptions,
+  io: CliIO,
+  setup: ExploreSetup = {},
+): Promise<{ text: string; exitCode: number }> {
+  if (!io.stdout.isTTY)
+    throw new EspalierError(
+      "USAGE",
+      "espalier explore draws on a terminal, and standard output is not one; run espalier without explore to print a summary",
+    );
+  const terminal = setup.terminal ?? nodeTerminal(input === "-" || newInput === "-");
+  const inputs = newInput === undefined ? [input] : [input, newInput];
+  const foci = [...opts.focus];
+  if (opts.focusFrom !== undefined) {
+    if (opts.focusFrom === "-" && inputs.includes("-"))
+      throw new EspalierError("USAGE", "standard input cannot hold both the tree and the foci");
+    foci.push(...(await readInput(io, opts.focusFrom)).split(/\r?\n/).filter((line) => line !== ""));
+  }
+  const key = pseudonymKey(opts, io);
+  const look = {
+    units: unitsFor(opts),
+    label: opts.label,
+    chains: opts.chains,
+    pseudonymKey: key,
+    palette: palette(useColour(opts, io)),
+  };
+  let session: Session;
+  if (newInput === undefined) {
+    session = summarySession(prepare(await loadInput(io, input, opts)), look);
+  } else {
+    if (input === "-" && newInput === "-")
+      throw new EspalierError("USAGE", "only one of the two versions can come from standard input");
+    const newOptions = toLoadOptions(newInput, opts);
+    const oldOptions = { ...toLoadOptions(input, opts), rootName: newOptions.rootName };
+    const [oldTree, newTree] = await loadBoth(io, input, oldOptions, newInput, newOptions);
+    session = diffSession(prepareDiff(oldTree, newTree), look);
+  }
+  const given = resolveFoci(session.index, foci, key);
+  const size = () => ({
+    rows: terminal.rows(),
+    cols: Math.min(opts.width ?? Number.POSITIVE_INFINITY, terminal.cols()),
+  });
+  const start = startState(session, {
+    ...size(),
+    foci: given,
+    importance: opts.importance,
+    fociFile:
+      opts.focusFrom !== undefined && opts.focusFrom !== "-"
+        ? opts.focusFrom
+        : (setup.configFile ?? "foci.txt"),
+  });
+  const colour = useColour(opts, io);
+  const end = await runView(session, start, terminal, colour, {
+    size,
+    write: (file, state) => writeFoci(io, session, state, file, inputs),
+  });
+  if (end.kind === "interrupt") return { text: "", exitCode: EXIT.interrupted };
+  if (end.kind === "quit") return { text: "", exitCode: EXIT.ok };
+  const head = ["espalier", ...(newInput === undefined ? [] : ["diff"]), ...inputs, ...shapeArgs(opts)];
+  const importance = end.state.spec.importance;
+  const tail = importance !== "depth" || setup.configSetsImportance ? ["--importance", importance] : [];
+  const paths = [...fociOf(end.state.spec)].map((i) => session.pathOf(i));
+  return { text: `${commandLine(head, paths, end.state.rows - STATUS_ROWS, tail)}\n`, exitCode: EXIT.ok };
+}
+
+/** Options the printed command line sets itself, or that do not change what it prints. */
+const NOT_PRINTED = new Set([
+  "focus",
+  "focusFrom",
+  "budget",
+  "importance",
+  "format",
+  "output",
+  "width",
+  "color",
+  "printSql",
+  "sqlTable",
+]);
+
+/**
+ * The options that shape the tree, its labels and its numbers, as arguments, where they differ from
+ * the defaults (whether they came from flags or a config file, so the line stands on its own).
+ */
+function shapeArgs(opts: SummaryCliOptions): string[] {
+  const defaults: Record<string, unknown> = summaryOptionsSchema.parse({});
+  const args: string[] = [];
+  for (const [key, value] of Object.entries(opts)) {
+    if (NOT_PRINTED.has(key) || value === undefined || value === defaults[key]) continue;
+    const flag = key.replace(/[A-Z]/g, (c) => `-${c.toLowerCase()}`);
+    if (value === true) args.push(`--${flag}`);
+    else if (value === false) args.push(`--no-${flag}`);
+    else args.push(`--${flag}`, String(value));
+  }
+  return args;
+}
+
+/** Writes the view's foci to `file`: a config file when it is named *.yaml or *.yml, else a list. */
+async function writeFoci(
+  io: CliIO,
+  session: Session,
+  state: ExploreState,
+  file: string,
+  inputs: string[],
+): Promise<ExploreEvent> {
+  const foci = [...fociOf(state.spec)].map((i) => session.pathOf(i));
+  const what = { foci, budget: state.rows - STATUS_ROWS, importance: state.spec.importance };
+  try {
+    let text: string;
+    if (isConfigName(file)) {
+      let existing: string | null = null;
+      try {
+        existing = new TextDecoder().decode(await io.readFile(file));
+      } catch (err) {
+        if ((err as NodeJS.ErrnoException).code !== "ENOENT") throw err;
+      }
+      text = configText(existing, what);
+    } else text = focusListText(what);
+    // Never over the tree being explored.
+    await writeOutput(file, text, inputs, io.outputFiles);
+    return { kind: "written", file, foci: foci.length };
+  } catch (err) {
+    const reason =
+      err instanceof EspalierError ? err.message : ((err as NodeJS.ErrnoException).code ?? String(err));
+    return { kind: "write-failed", file, reason };
+  }
+}
+
+/** What the view needs of a terminal; the process's own in use, a fake one in tests. */
+export interface Terminal {
+  rows(): number;
+  cols(): number;
+  write(text: string): void;
+  /** Raw mode on and key bytes to `onBytes`, size changes to `onResize`. */
+  start(onBytes: (bytes: Uint8Array) => void, onResize: () => void): void;
+  /** Raw mode off, listeners removed. Safe to call twice, and from an exit handler (synchronous). */
+  stop(): void;
+}
+
+/** How the view ended: the key that left it, and the last state. */
+type Ending = { kind: "quit" | "print" | "interrupt"; state: ExploreState };
+
+interface Effects {
+  size(): { rows: number; cols: number };
+  write(file: string, state: ExploreState): Promise<ExploreEvent>;
+}
+
+/**
+ * Runs the view: enters the alternate screen, draws every state, feeds keys and resizes to `update`,
+ * and restores the terminal exactly (screen, cursor, raw mode) however it ends: a key, an error (then
+ * rethrown), a signal (then raised again), or the process exiting.
+ */
+export function runView(
+  session: Session,
+  start: ExploreState,
+  terminal: Terminal,
+  colour: boolean,
+  effects: Effects,
+): Promise<Ending> {
+  return new Promise<Ending>((resolve, reject) => {
+    let state = start;
+    let done = false;
+    // A file being written when the view is left is finished first.
+    let pending: Promise<unknown> = Promise.resolve();
+    const signals = ["SIGINT", "SIGTERM", "SIGHUP"] as const;
+    const onSignal = (signal: NodeJS.Signals) => {
+      leave();
+      process.kill(process.pid, signal);
+    };
+    const onCrash = (err: unknown) => {
+      leave();
+      reject(err);
+    };
+    const onExit = () => leave();
+    function leave() {
+      if (done) return;
+      done = true;
+      terminal.write(LEAVE);
+      terminal.stop();
+      for (const s of signals) process.off(s, onSignal);
+      process.off("uncaughtException", onCrash);
+      process.off("exit", onExit);
+    }
+    const paint = () => terminal.write(frame(draw(session, state, colour).rows));
+    let schedule = () => {};
+    const dispatch = (event: ExploreEvent) => {
+      if (done) return;
+      try {
+        state = update(session, state, event);
+        const request = state.request;
+        if (request !== null && request.kind !== "write") {
+          leave();
+          const ending: Ending = { kind: request.kind, state };
+          void pending.then(() => resolve(ending));
+          return;
+        }
+        paint();
+        schedule();
+        if (request?.kind === "write") pending = effects.write(request.file, state).then(dispatch, onCrash);
+      } catch (err) {
+        onCrash(err);
+      }
+    };
+    for (const s of signals) process.on(s, onSignal);
+    process.on("uncaughtException", onCrash);
+    process.on("exit", onExit);
+    try {
+      terminal.write(ENTER);
+      terminal.start(
+        (bytes) => {
+          for (const key of decodeKeys(bytes)) dispatch(key);
+        },
+        () => dispatch({ kind: "resize", ...effects.size() }),
+      );
+      paint();
+    } catch (err) {
+      onCrash(err);
+      return;
+    }
+    // Between keys: pseudonyms are hashed in slices (so a search can cover every name), and a search's
+    // matches are counted in slices; a key always comes before the next slice.
+    let queued = false;
+    const quiet = () => {
+      queued = false;
+      if (done) return;
+      if (session.search.searchable < session.tree.length) session.search.advance(400);
+      if (needsWork(session, state)) dispatch({ kind: "work" });
+      schedule();
+    };
+    schedule = () => {
+      if (done || queued) return;
+      if (session.search.searchable < session.tree.length || needsWork(session, state)) {
+        queued = true;
+        setImmediate(quiet);
+      }
+    };
+    schedule();
+  });
+}
+
+/**
+ * The process's terminal: standard output to draw on; keys from standard input, or from the
+ * controlling terminal (/dev/tty) when standard input carries the data or is not a terminal.
+ */
+function nodeTerminal(stdinIsData: boolean): Terminal {
+  let keys: NodeJS.ReadStream & { setRawMode?: (on: boolean) => unknown; isTTY?: boolean };
+  let own = false;
+  if (!stdinIsData && process.stdin.isTTY) keys = process.stdin;
+  else {
+    try {
+      keys = new ReadStream(openSync("/dev/tty", "r"));
+      own = true;
+    } catch {
+      throw new EspalierError("USAGE", "espalier explore reads keys from a terminal, and none is open");
+    }
+  }
+  const out = process.stdout;
+  let onData: ((b: Buffer) => void) | undefined;
+  let onResize: (() => void) | undefined;
+  return {
+    rows: () => out.rows ?? 24,
+    cols: () => out.columns ?? 80,
+    // A terminal is written synchronously on POSIX systems (Node's process I/O notes), so a frame, or the
+    // restoring sequence in an exit handler, is out before the next key or the exit.
+    write: (text) => {
+      out.write(text);
+    },
+    start(bytes, resize) {
+      onData = (b) => bytes(b);
+      onResize = resize;
+      keys.setRawMode?.(true);
+      keys.on("data", onData);
+      keys.resume();
+      out.on("resize", onResize);
+    },
+    stop() {
+      if (onData) keys.off("data", onData);
+      if (onResize) out.off("resize", onResize);
+      onData = undefined;
+      onResize = undefined;
+      keys.setRawMode?.(false);
+      keys.pause();
+      if (own) keys.destroy();
+    },
+  };
+}

@@ -1,0 +1,259 @@
+import { EspalierError } from "../../errors.js";
+import { readLimits, tooLong } from "../read-limits.js";
+
+/** Receives the records a {@link CsvScanner} finds, field by field, as byte ranges. */
+export interface CsvSink {
+  /**
+   * Field `column` (0-based) of the record being delivered: the bytes `bytes[start, end)`, quotes
+   * removed and `""` undone. The range is valid only during the call.
+   */
+  field(column: number, bytes: Uint8Array, start: number, end: number): void;
+  /**
+   * The record whose fields were just delivered ended; it had `fields` fields and started on `line`.
+   * Return true to stop the scan (no more records are delivered).
+   */
+  record(fields: number, line: number): boolean | undefined;
+}
+
+const QUOTE = 0x22;
+const CR = 0x0d;
+const LF = 0x0a;
+const BOM = [0xef, 0xbb, 0xbf];
+
+/**
+ * A byte-level scanner for delimiter-separated records, RFC 4180 §2 ("Common Format and MIME Type for
+ * Comma-Separated Values Files"): fields separated by the delimiter, records by a line break (CRLF, and
+ * also a lone LF or CR, as files written on other systems end their lines); with the comma, a field
+ * that starts with a double quote is quoted: it may hold delimiters, line breaks and `""` for one
+ * quote (§2.5-2.7), and must be followed by a delimiter, a line break or the end. TSV (the tab)
+ * has no quoting: a quote is an ordinary byte. A line with nothing on it is skipped; a UTF-8 byte
+ * order mark before the first byte is skipped. Every record must have as many fields as the first
+ * (§2.4).
+ *
+ * Chunks may be cut anywhere (inside a field, a quote pair, a CRLF or a multi-byte character): the
+ * bytes of an unfinished record are kept and scanned again with the next chunk. Nothing is decoded
+ * here; the sink gets byte ranges. Errors are PARSE_CSV at the line where the faulty record starts,
+ * with the row (records before it, the header included) when there was one.
+ */
+export class CsvScanner {
+  private readonly quoting: boolean;
+  private carry: Uint8Array | null = null;
+  private started = false;
+  private stopped = false;
+  /** Line where the next record starts (1-based). */
+  private line = 1;
+  /** Records delivered so far (the header included). */
+  private records = 0;
+  /** Fields of the first record: every later one must have as many. */
+  private width = -1;
+  // The current record's field bounds (start, end) and whether a field holds `""` to undo.
+  private starts = new Int32Array(64);
+  private ends = new Int32Array(64);
+  private escaped = new Uint8Array(64);
+  private scratch = new Uint8Array(256);
+
+  constructor(
+    private readonly delimiter: number,
+    private readonly sink: CsvSink,
+    /** Longest record, in bytes (read-limits.ts): an endless one stops there, not in memory. */
+    private readonly maxRecordBytes = readLimits.maxLineBytes,
+  ) {
+    this.quoting = delimiter !== 0x09;
+  }
+
+  private tooLong(line: number): EspalierError {
+    return tooLong(`the record at line ${line}`, this.maxRecordBytes, { line });
+  }
+
+  /** Whether the sink asked to stop. */
+  get done(): boolean {
+    return this.stopped;
+  }
+
+  write(chunk: Uint8Array): void {
+    if (this.stopped || chunk.length === 0) return;
+    let bytes = chunk;
+    if (this.carry !== null) {
+      const joined = new Uint8Array(this.carry.length + chunk.length);
+      joined.set(this.carry);
+      joined.set(chunk, this.carry.length);
+      bytes = joined;
+      this.carry = null;
+    }
+    this.scan(bytes, false);
+  }
+
+  end(): void {
+    if (this.stopped) return;
+    const rest = this.carry;
+    this.carry = null;
+    if (rest !== null) this.scan(rest, true);
+  }
+
+  private scan(bytes: Uint8Array, last: boolean): void {
+    let p = 0;
+    const n = bytes.length;
+    if (!this.started) {
+      if (n < 3 && !last && isPrefixOfBom(bytes)) {
+        this.carry = bytes.slice();
+        return;
+      }
+      this.started = true;
+      if (n >= 3 && bytes[0] === BOM[0] && bytes[1] === BOM[1] && bytes[2] === BOM[2]) p = 3;
+    }
+    while (p < n) {
+      const line = this.line;
+      const next = this.record(bytes, p, last);
+      if (next < 0) {
+        // The record is not finished in these bytes: keep them for the next chunk, up to the limit.
+        if (n - p > this.maxRecordBytes) throw this.tooLong(line);
+        this.carry = bytes.slice(p);
+        return;
+      }
+      // A whole record past the limit is refused too, so chunked and whole input agree.
+      if (next - p > this.maxRecordBytes) throw this.tooLong(line);
+      p = next;
+      if (this.stopped) return;
+    }
+  }
+
+  /**
+   * Scans the record starting at `p`; delivers it (or skips an empty line) and returns where the next
+   * one starts, or -1 when the bytes end first (and more may come).
+   */
+  private record(bytes: Uint8Array, p: number, last: boolean): number {
+    const n = bytes.length;
+    const delimiter = this.delimiter;
+    const quoting = this.quoting;
+    let lines = 0; // line breaks inside quoted fields
+    let fields = 0;
+    let q = p;
+    for (;;) {
+      if (fields === this.starts.length) this.grow();
+      if (quoting && q < n && bytes[q] === QUOTE) {
+        // A quoted field: up to the quote that is not doubled.
+        let escaped = 0;
+        let k = q + 1;
+        for (;;) {
+          while (k < n) {
+            const c = bytes[k];
+            if (c === QUOTE) break;
+            if (c === LF) lines++;
+            else if (c === CR && (k + 1 >= n || bytes[k + 1] !== LF)) lines++;
+            k++;
+          }
+          if (k >= n) {
+            if (!last) return -1;
+            throw this.error("a quoted field is not closed before the end of the input");
+          }
+          if (k + 1 < n && bytes[k + 1] === QUOTE) {
+            escaped = 1;
+            k += 2;
+            continue;
+          }
+          if (k + 1 >= n && !last) return -1;
+          break;
+        }
+        this.starts[fields] = q + 1;
+        this.ends[fields] = k;
+        this.escaped[fields] = escaped;
+        fields++;
+        q = k + 1;
+        if (q < n) {
+          const c = bytes[q];
+          if (c !== delimiter && c !== LF && c !== CR)
+            throw this.error(
+              "a closing quote is followed by other text instead of a delimiter or a line break",
+            );
+        }
+      } else {
+        let k = q;
+        if (quoting) {
+          for (; k < n; k++) {
+            const c = bytes[k];
+            if (c === delimiter || c === LF || c === CR) break;
+            if (c === QUOTE) throw this.error("a quote inside a field that does not start with one");
+          }
+        } else {
+          for (; k < n; k++) {
+            const c = bytes[k];
+            if (c === delimiter || c === LF || c === CR) break;
+          }
+        }
+        if (k >= n && !last) return -1;
+        this.starts[fields] = q;
+        this.ends[fields] = k;
+        this.escaped[fields] = 0;
+        fields++;
+        q = k;
+      }
+      if (q < n && bytes[q] === delimiter) {
+        q++;
+        continue;
+      }
+      // The record ends: a line break (CRLF counts once; a CR at the end waits for what follows) or
+      // the end of the input.
+      if (q < n) {
+        if (bytes[q] === CR) {
+          if (q + 1 >= n && !last) return -1;
+          q += q + 1 < n && bytes[q + 1] === LF ? 2 : 1;
+        } else q++;
+      }
+      break;
+    }
+    const line = this.line;
+    this.line += lines + 1;
+    if (fields === 1 && this.ends[0] === this.starts[0] && (p >= n || bytes[p] !== QUOTE)) return q;
+    if (this.width === -1) this.width = fields;
+    else if (fields !== this.width) {
+      this.line = line;
+      throw this.error(`a record has ${fields} fields where the first had ${this.width}`);
+    }
+    const sink = this.sink;
+    for (let f = 0; f < fields; f++) {
+      if (this.escaped[f] === 0) sink.field(f, bytes, this.starts[f], this.ends[f]);
+      else {
+        const length = this.unescape(bytes, this.starts[f], this.ends[f]);
+        sink.field(f, this.scratch, 0, length);
+      }
+    }
+    this.records++;
+    if (sink.record(fields, line) === true) this.stopped = true;
+    return q;
+  }
+
+  /** Copies `bytes[s, e)` into the scratch buffer with every `""` as one quote; returns the length. */
+  private unescape(bytes: Uint8Array, s: number, e: number): number {
+    if (this.scratch.length < e - s) this.scratch = new Uint8Array(Math.max(e - s, this.scratch.length * 2));
+    const out = this.scratch;
+    let m = 0;
+    for (let k = s; k < e; k++) {
+      out[m++] = bytes[k];
+      if (bytes[k] === QUOTE) k++;
+    }
+    return m;
+  }
+
+  private grow(): void {
+    const size = this.starts.length * 2;
+    const starts = new Int32Array(size);
+    starts.set(this.starts);
+    this.starts = starts;
+    const ends = new Int32Array(size);
+    ends.set(this.ends);
+    this.ends = ends;
+    const escaped = new Uint8Array(size);
+    escaped.set(this.escaped);
+    this.escaped = escaped;
+  }
+
+  private error(reason: string): EspalierError {
+    const pos = this.records > 0 ? { line: this.line, row: this.records } : { line: this.line };
+    return new EspalierError("PARSE_CSV", `invalid CSV: ${reason}`, pos);
+  }
+}
+
+function isPrefixOfBom(bytes: Uint8Array): boolean {
+  for (let k = 0; k < bytes.length; k++) if (bytes[k] !== BOM[k]) return false;
+  return true;
+}

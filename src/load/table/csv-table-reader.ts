@@ -1,0 +1,181 @@
+import { Buffer } from "node:buffer";
+import { EspalierError } from "../../errors.js";
+import { NamePool, namesToArray } from "../../model/names.js";
+import type { LoadOptions } from "../load-options.js";
+import { limitsOf } from "../read-limits.js";
+import { CsvScanner, type CsvSink } from "./csv-scanner.js";
+import type { Table } from "./table.js";
+
+/** The columns a table loader reads. */
+export type TableFields = Pick<
+  LoadOptions,
+  "nameField" | "sizeField" | "idField" | "parentField" | "pathField" | "keepFields" | "maxNodes" | "limits"
+>;
+
+/** What is kept of one column the loader reads. */
+interface Kept {
+  name: string;
+  /** Sizes and parent ids: cells of plain digits are kept as their numbers. */
+  numbers: boolean;
+  cells: (string | number)[];
+  /** The name column, when no other role reads it: its cells go into a name pool as bytes. */
+  pool: NamePool | null;
+}
+
+/**
+ * A CSV or TSV table read from bytes with {@link CsvScanner}, fed in chunks (`write`, then `end`). The
+ * first record is the header (names trimmed). Only the columns a loader reads are kept, cell by cell:
+ * the name column, when no other role reads it, as bytes in a name pool (no string per row); sizes and
+ * parent ids written as plain digits as numbers (a number costs no string and reads back as the same
+ * text; see IdIndex); other cells as strings. Once more rows than `maxNodes` are known, reading stops.
+ */
+export class CsvTableReader implements CsvSink {
+  private readonly scanner: CsvScanner;
+  private readonly wanted: Set<string>;
+  private readonly poolNames: boolean;
+  private header: string[] | undefined;
+  private headerLine = 0;
+  private readonly at = new Map<string, number>();
+  private kept: Kept[] = [];
+  /** For each field of a record, the kept column it goes to, or undefined. */
+  private route: (Kept | undefined)[] = [];
+  private rows = 0;
+  private readonly maxRows: number;
+  // A Buffer over the bytes the scanner hands over, for Node's own UTF-8 decoding of one cell.
+  private viewOf: Uint8Array | undefined;
+  private view: Buffer & { utf8Slice(start: number, end: number): string } = Buffer.alloc(0) as never;
+
+  constructor(
+    delimiter: "," | "\t",
+    private readonly fields: TableFields,
+  ) {
+    this.scanner = new CsvScanner(delimiter.charCodeAt(0), this, limitsOf(fields.limits).maxLineBytes);
+    this.wanted = new Set([
+      fields.idField,
+      fields.parentField,
+      fields.pathField,
+      fields.nameField,
+      fields.sizeField,
+      ...fields.keepFields,
+    ]);
+    const others = new Set([
+      fields.idField,
+      fields.parentField,
+      fields.pathField,
+      fields.sizeField,
+      ...fields.keepFields,
+    ]);
+    this.poolNames = !others.has(fields.nameField);
+    this.maxRows = fields.maxNodes;
+  }
+
+  /** Whether enough rows are read (more than maxNodes): what follows need not be read. */
+  get full(): boolean {
+    return this.scanner.done;
+  }
+
+  write(chunk: Uint8Array): void {
+    this.scanner.write(chunk);
+  }
+
+  /** The table, after the last chunk. */
+  end(): Table {
+    this.scanner.end();
+    const header = this.header;
+    if (header === undefined) throw new EspalierError("INPUT_EMPTY", "the table has no header row");
+    const { at, headerLine } = this;
+    let kept = this.kept;
+    // As before streaming existed: no further than one row over the limit.
+    const length = Math.min(this.rows, this.maxRows + 1);
+    return {
+      length,
+      textCells: true,
+      column(name) {
+        const c = at.get(name);
+        if (c === undefined) return undefined;
+        if (header.indexOf(name, c + 1) !== -1) {
+          throw new EspalierError("PARSE_CSV", `the header names the column "${name}" more than once`, {
+            line: headerLine,
+          });
+        }
+        const column = kept.find((k) => k.name === name);
+        if (!column) throw new Error(`column "${name}" was not kept while reading`);
+        if (column.pool) return namesToArray(column.pool).slice(0, length);
+        return column.cells.length > length ? column.cells.slice(0, length) : column.cells;
+      },
+      columnNames: () => header,
+      pooledColumn(name) {
+        const c = at.get(name);
+        if (c === undefined || header.indexOf(name, c + 1) !== -1) return undefined;
+        return kept.find((k) => k.name === name)?.pool ?? undefined;
+      },
+      release() {
+        kept = [];
+        at.clear();
+      },
+    };
+  }
+
+  field(column: number, bytes: Uint8Array, start: number, end: number): void {
+    if (this.header === undefined) {
+      this.headerCells[column] = this.text(bytes, start, end);
+      return;
+    }
+    const keep = this.route[column];
+    if (keep === undefined) return;
+    if (keep.pool !== null) keep.pool.setBytes(this.rows, bytes, start, end);
+    else if (keep.numbers) keep.cells.push(plainNumber(bytes, start, end) ?? this.text(bytes, start, end));
+    else keep.cells.push(this.text(bytes, start, end));
+  }
+
+  record(fields: number, line: number): boolean {
+    if (this.header === undefined) {
+      this.startTable(this.headerCells, fields, line);
+      this.headerCells = [];
+      return false;
+    }
+    this.rows++;
+    return this.rows > this.maxRows;
+  }
+
+  private headerCells: string[] = [];
+
+  private startTable(cells: string[], fields: number, line: number): void {
+    const header = cells.slice(0, fields).map((name) => name.trim());
+    this.header = header;
+    this.headerLine = line;
+    header.forEach((name, c) => {
+      if (!this.at.has(name)) this.at.set(name, c);
+    });
+    this.route = new Array(fields).fill(undefined);
+    for (const [name, index] of this.at) {
+      if (!this.wanted.has(name)) continue;
+      const numbers = name === this.fields.sizeField || name === this.fields.parentField;
+      const pool = this.poolNames && name === this.fields.nameField ? new NamePool() : null;
+      const keep: Kept = { name, numbers, cells: [], pool };
+      this.kept.push(keep);
+      this.route[index] = keep;
+    }
+  }
+
+  private text(bytes: Uint8Array, start: number, end: number): string {
+    if (bytes !== this.viewOf) {
+      this.viewOf = bytes;
+      this.view = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength) as never;
+    }
+    return this.view.utf8Slice(start, end);
+  }
+}
+
+/** The number a cell of 1 to 15 digits without a leading zero (or "0") stands for; else undefined. */
+function plainNumber(bytes: Uint8Array, start: number, end: number): number | undefined {
+  const n = end - start;
+  if (n === 0 || n > 15 || (n > 1 && bytes[start] === 0x30)) return undefined;
+  let value = 0;
+  for (let k = start; k < end; k++) {
+    const d = bytes[k] - 0x30;
+    if (d < 0 || d > 9) return undefined;
+    value = value * 10 + d;
+  }
+  return value;
+}

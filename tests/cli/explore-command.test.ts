@@ -1,0 +1,212 @@
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, readFileSync } from "node:fs";
+import { readFile } from "node:fs/promises";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { exploreCommand, runView, type Terminal } from "../../src/cli/explore-command.js";
+import type { CliIO } from "../../src/cli/io.js";
+import { summaryOptionsSchema } from "../../src/cli/options.js";
+import { summarySession } from "../../src/explore/session.js";
+import { ENTER, ERASE_LINE, HOME, LEAVE } from "../../src/explore/terminal.js";
+import { startState } from "../../src/explore/update.js";
+import { loadTree } from "../../src/load/index.js";
+import { defaultLoadOptions } from "../../src/load/load-options.js";
+import { namesToArray } from "../../src/model/names.js";
+import { prepare } from "../../src/summarize.js";
+import { cli } from "../helpers/cli.js";
+
+type Input = string | { resize: [number, number] };
+
+/** A terminal that types `inputs` one read at a time and records what is drawn. */
+class FakeTerminal implements Terminal {
+  written = "";
+  log: string[] = [];
+  constructor(
+    private readonly inputs: Input[],
+    private r = 24,
+    private c = 80,
+  ) {}
+  rows() {
+    return this.r;
+  }
+  cols() {
+    return this.c;
+  }
+  write(text: string) {
+    this.written += text;
+  }
+  start(onBytes: (b: Uint8Array) => void, onResize: () => void) {
+    this.log.push("raw on");
+    const feed = (k: number) => {
+      if (k >= this.inputs.length) return;
+      const input = this.inputs[k];
+      if (typeof input === "string") onBytes(new TextEncoder().encode(input));
+      else {
+        [this.r, this.c] = input.resize;
+        onResize();
+      }
+      setImmediate(() => feed(k + 1));
+    };
+    setImmediate(() => feed(0));
+  }
+  stop() {
+    this.log.push("raw off");
+  }
+  /** The rows of the last frame drawn. */
+  lastFrame(): string[] {
+    const frames = this.written.split(HOME);
+    const last = frames[frames.length - 1].split(LEAVE)[0];
+    return last.split("\r\n").map((row) => row.split(ERASE_LINE)[0]);
+  }
+}
+
+const io = (env: Record<string, string> = {}): CliIO => ({
+  stdout: { write: () => true, isTTY: true, rows: 24, columns: 80 },
+  stderr: { write: () => true },
+  readStdin: async () => Buffer.alloc(0),
+  readFile: (p: string) => readFile(p),
+  env,
+});
+
+const options = (extra: Record<string, unknown> = {}) =>
+  summaryOptionsSchema.parse({ parentField: "manager", sizeField: "cost", color: "never", ...extra });
+const ORG = "fixtures/quillfeather-org.csv";
+
+/** The arguments bash reads from a printed command line. */
+function argsOf(line: string): string[] {
+  const out = spawnSync("bash", ["-c", `printf '%s\\0' ${line}`], { encoding: "utf8" });
+  return out.stdout.split("\0").slice(0, -1);
+}
+
+describe("espalier explore", () => {
+  it("refuses when standard output is not a terminal: USAGE, exit 2, nothing on standard output", async () => {
+    const r = await cli(["explore", ORG, "--parent-field", "manager"]);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr).toMatch(/\[USAGE\]\n$/);
+  });
+
+  it("enters the alternate screen, and q leaves it with raw mode off, printing nothing", async () => {
+    const terminal = new FakeTerminal(["\u001b[B", "\u001b[D", "q"]);
+    const out = await exploreCommand(ORG, undefined, options({ focus: ["Q2417"] }), io(), { terminal });
+    expect(out).toEqual({ text: "", exitCode: 0 });
+    expect(terminal.written.startsWith(ENTER)).toBe(true);
+    expect(terminal.written.endsWith(LEAVE)).toBe(true);
+    expect(terminal.log).toEqual(["raw on", "raw off"]);
+  });
+
+  it("Ctrl-C leaves the same way with exit status 130", async () => {
+    const terminal = new FakeTerminal(["\u0003"]);
+    const out = await exploreCommand(ORG, undefined, options(), io(), { terminal });
+    expect(out.exitCode).toBe(130);
+    expect(terminal.written.endsWith(LEAVE)).toBe(true);
+  });
+
+  it("p prints a command line that, run without the view, prints the same tree as the last screen", async () => {
+    const terminal = new FakeTerminal([
+      "\u001b[B",
+      "\u001b[B",
+      "+",
+      "\u001b[D",
+      "i",
+      { resize: [18, 70] },
+      "p",
+    ]);
+    const out = await exploreCommand(ORG, undefined, options({ focus: ["Q2417"] }), io(), { terminal });
+    expect(out.text).toMatch(
+      /^espalier fixtures\/quillfeather-org.csv --size-field cost --parent-field manager /,
+    );
+    expect(out.text).toContain("--budget 17");
+    expect(out.text).toContain("--importance size");
+    const screen = terminal.lastFrame();
+    const tree = screen
+      .slice(0, -1)
+      .filter((row) => row !== "")
+      .map((row) => row.slice(2));
+    const args = argsOf(out.text.trim()).slice(1);
+    const printed = await cli([...args, "--width", "68", "--color", "never"]);
+    expect(printed.code).toBe(0);
+    expect(printed.stdout).toBe(`${tree.join("\n")}\n`);
+  });
+
+  it("w writes the foci to the file typed, read back by --focus-from", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "espalier-explore-"));
+    const file = join(dir, "team.foci");
+    const erase = "\u007f".repeat("foci.txt".length);
+    const terminal = new FakeTerminal(["\u001b[D", "w", erase, file, "\r", "q"]);
+    await exploreCommand(ORG, undefined, options({ focus: ["Q2417"] }), io(), { terminal });
+    const written = readFileSync(file, "utf8");
+    // The parent of Q2417 (the cursor, after Left) and Q2417 itself (pinned, as given on the command line).
+    expect(written).toBe(
+      "Arjun Yarford/Sofia Emberrian/Thea Corrquist/Dov Larton/Esme Orby\n" +
+        "Arjun Yarford/Sofia Emberrian/Thea Corrquist/Dov Larton/Esme Orby/Marit Okonkwo-Lund\n",
+    );
+    const again = await cli([ORG, "--parent-field", "manager", "--focus-from", file, "--budget", "23"]);
+    expect(again.code).toBe(0);
+    expect(again.stdout).toContain("* Esme Orby");
+  });
+
+  it("restores the terminal and rethrows when the view fails (a crash mid-session)", async () => {
+    const tree = loadTree(readFileSync(ORG, "utf8"), { ...defaultLoadOptions, parentField: "manager" });
+    const real = summarySession(prepare(tree), { units: "plain", chains: true });
+    let calls = 0;
+    const failing = {
+      ...real,
+      fit: (...args: Parameters<typeof real.fit>) => {
+        if (++calls > 3) throw new Error("boom");
+        return real.fit(...args);
+      },
+    };
+    const terminal = new FakeTerminal(["\u001b[B", "\u001b[B", "\u001b[B", "\u001b[B"]);
+    const start = startState(failing, {
+      rows: 24,
+      cols: 80,
+      foci: new Int32Array(0),
+      importance: "depth",
+      fociFile: "f",
+    });
+    await expect(
+      runView(failing, start, terminal, false, {
+        size: () => ({ rows: 24, cols: 80 }),
+        write: async () => ({ kind: "work" }),
+      }),
+    ).rejects.toThrow("boom");
+    expect(terminal.written.endsWith(LEAVE)).toBe(true);
+    expect(terminal.log).toEqual(["raw on", "raw off"]);
+  });
+
+  it("with --pseudonymize, writes no real name to the terminal or the printed command line", async () => {
+    const env = { ESPALIER_PSEUDONYM_KEY: "kept-out-of-the-log" };
+    const terminal = new FakeTerminal([
+      "\u001b[B",
+      "/",
+      "Rosa",
+      "\r",
+      "/",
+      "anon-",
+      "\r",
+      "n",
+      "\u001b[C",
+      "+",
+      "p",
+    ]);
+    const out = await exploreCommand(
+      ORG,
+      undefined,
+      options({ pseudonymize: true, focus: ["Q2417"] }),
+      io(env),
+      {
+        terminal,
+      },
+    );
+    const tree = loadTree(readFileSync(ORG, "utf8"), { ...defaultLoadOptions, parentField: "manager" });
+    const real = namesToArray(tree.name).filter((n) => n.length >= 3 && n !== "(root)");
+    for (const name of real) {
+      expect(terminal.written).not.toContain(name);
+      expect(out.text).not.toContain(name);
+    }
+    expect(out.text).toContain("--pseudonymize");
+    expect(out.text).toMatch(/--focus anon-[0-9a-f]{12}\//);
+  });
+});

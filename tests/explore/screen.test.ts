@@ -1,0 +1,134 @@
+import { readFileSync } from "node:fs";
+import { describe, expect, it } from "vitest";
+import { KEY_MAP } from "../../src/explore/key-map.js";
+import type { Key } from "../../src/explore/keys.js";
+import { CURSOR_MARK, draw } from "../../src/explore/screen.js";
+import { summarySession } from "../../src/explore/session.js";
+import { type ExploreEvent, startState, update } from "../../src/explore/update.js";
+import { resolveFoci } from "../../src/focus/resolve.js";
+import { loadTree } from "../../src/load/index.js";
+import { defaultLoadOptions } from "../../src/load/load-options.js";
+import { namesToArray } from "../../src/model/names.js";
+import { displayWidth } from "../../src/render/display-width.js";
+import { palette } from "../../src/render/palette.js";
+import { prepare } from "../../src/summarize.js";
+
+const org = loadTree(readFileSync("fixtures/quillfeather-org.csv", "utf8"), {
+  ...defaultLoadOptions,
+  file: "quillfeather-org.csv",
+  parentField: "manager",
+  sizeField: "cost",
+  rootName: "quillfeather-org.csv",
+});
+const prepared = prepare(org);
+const named = (name: Extract<Key, { name: string }>["name"]): Key => ({ name });
+const typed = (text: string): Key[] => Array.from(text, (c) => ({ char: c }));
+const ESC = "\u001b";
+
+function sessionWith(options: { colour?: boolean; key?: string }) {
+  return summarySession(prepared, {
+    units: "plain",
+    chains: true,
+    pseudonymKey: options.key,
+    palette: palette(options.colour ?? false),
+  });
+}
+
+function screens(
+  options: { colour?: boolean; key?: string },
+  rows: number,
+  cols: number,
+  events: ExploreEvent[],
+) {
+  const s = sessionWith(options);
+  s.search.advance(Number.MAX_SAFE_INTEGER);
+  let state = startState(s, {
+    rows,
+    cols,
+    foci: resolveFoci(prepared.index, ["Q2417"]),
+    importance: "depth",
+    fociFile: "foci.txt",
+  });
+  const out = [draw(s, state, options.colour ?? false)];
+  for (const e of events) {
+    state = update(s, state, e);
+    out.push(draw(s, state, options.colour ?? false));
+  }
+  return out;
+}
+
+const walk: ExploreEvent[] = [
+  named("down"),
+  named("left"),
+  named("left"),
+  { char: "o" },
+  { char: "i" },
+  { char: "/" },
+  ...typed("Esme"),
+  named("enter"),
+  { char: "n" },
+  { kind: "resize", rows: 12, cols: 40 },
+  named("up"),
+  { char: "h" },
+  named("down"),
+];
+
+describe("draw(session, state, colour)", () => {
+  it("writes no control sequence at all without colour (NO_COLOR): the @ gutter carries the cursor", () => {
+    for (const screen of screens({}, 20, 80, walk)) {
+      for (const row of screen.rows) expect(row).not.toContain(ESC);
+      if (screen.cursorRow !== null) expect(screen.rows[screen.cursorRow].startsWith(CURSOR_MARK)).toBe(true);
+    }
+  });
+
+  it("with colour, puts the cursor's row and the status row in negative image (SGR 7 ... SGR 27)", () => {
+    // ECMA-48 8.3.117: SGR 7 negative image, SGR 27 positive image.
+    const [first] = screens({ colour: true }, 20, 80, []);
+    const row = first.rows[first.cursorRow ?? -1];
+    expect(row.startsWith(`${ESC}[7m${CURSOR_MARK}`)).toBe(true);
+    expect(row.endsWith(`${ESC}[27m`)).toBe(true);
+    expect(first.rows[19].startsWith(`${ESC}[7m`)).toBe(true);
+  });
+
+  it("fits 40 columns: no row is wider, in the tree, the status row or the help", () => {
+    for (const screen of screens({}, 14, 40, walk)) {
+      for (const row of screen.rows) expect(displayWidth(row)).toBeLessThanOrEqual(40);
+    }
+  });
+
+  it("lists every key of the key map in the help", () => {
+    const [, help] = screens({}, 80, 100, [{ char: "h" }]);
+    const text = help.rows.join("\n");
+    for (const binding of KEY_MAP) if (binding.label !== "") expect(text).toContain(binding.label);
+    // Every bound key is named by some label (a pair such as "Down / Up" names both).
+    const labels = KEY_MAP.map((b) => b.label).join(" ");
+    const spelled: Record<string, string> = {
+      down: "Down",
+      up: "Up",
+      left: "Left",
+      right: "Right",
+      home: "Home",
+      end: "End",
+      enter: "Enter",
+      tab: "Tab",
+      "back-tab": "Shift-Tab",
+      f1: "F1",
+      "ctrl-c": "Ctrl-C",
+      "ctrl-l": "Ctrl-L",
+    };
+    for (const binding of KEY_MAP)
+      for (const key of binding.keys)
+        expect(labels).toContain(typeof key === "string" ? spelled[key] : key.char);
+  });
+
+  it("with --pseudonymize, shows no real name anywhere: tree, status, search, help", () => {
+    const key = "a-secret-kept-out-of-logs";
+    const real = namesToArray(org.name).filter((n, i) => i > 0 && n.length >= 3);
+    // Search for a real name: it must find nothing (the search reads pseudonyms only).
+    const all = screens({ key }, 24, 100, [...walk, named("escape"), { char: "/" }, ...typed("Rosa")]);
+    const last = all[all.length - 1];
+    expect(last.rows[last.rows.length - 1]).toContain("no match");
+    for (const screen of all)
+      for (const row of screen.rows) for (const name of real) expect(row).not.toContain(name);
+  });
+});
