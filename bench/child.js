@@ -202,7 +202,7 @@ async function full({ file, foci, budget, profile }) {
   const api = await import(DIST);
   const cli = await cliModules();
   const io = benchIO();
-  // The options commander and zod give for those flags (every other option at its default).
+  // The validated options for those flags (every other option at its default), as src/cli/options.ts gives them.
   const opts = cli.summaryOptionsSchema.parse({ focus: foci, budget });
   const session = profile ? await startProfile() : undefined;
   const t0 = now();

@@ -21,7 +21,7 @@ await build({
   target: "node20",
   minify: true,
   legalComments: "eof",
-  // commander is CommonJS and requires Node's modules: give the ES module a require of its own.
+  // CommonJS dependencies require Node's modules: give the ES module a require of its own.
   banner: {
     js: 'import{createRequire as __espalierRequire}from"node:module";const require=__espalierRequire(import.meta.url);',
   },

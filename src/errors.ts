@@ -36,6 +36,12 @@ export const errorCodes = [
 export type ErrorCode = (typeof errorCodes)[number];
 
 /**
+ * Facts of an error that a program (or a test) can act on without reading the message, e.g.
+ * `{ smallestBudget: 5 }` or `{ option: "--budgt", suggestion: "--budget" }`.
+ */
+export type ErrorDetails = Readonly<Record<string, string | number | boolean | readonly string[]>>;
+
+/**
  * What a piece of input quoted in a message is. Under `--pseudonymize` names, ids and node paths print
  * as their pseudonyms; values and excerpts (a bad size cell, a parser's quote of the text) as `(hidden)`.
  */
@@ -91,34 +97,45 @@ export class EspalierError extends Error {
   readonly pos: SourcePos | undefined;
   /** The message as wording and marked input text ({@link quoted}); `message` shows the input as it is. */
   readonly parts: readonly MessagePart[];
+  readonly details: ErrorDetails;
   override readonly name = "EspalierError";
 
-  constructor(code: ErrorCode, message: string | readonly MessagePart[], pos?: SourcePos) {
+  constructor(
+    code: ErrorCode,
+    message: string | readonly MessagePart[],
+    pos?: SourcePos,
+    details: ErrorDetails = {},
+  ) {
     const parts = typeof message === "string" ? [message] : message;
     super(render(parts, showInput));
     this.code = code;
     this.pos = pos;
     this.parts = parts;
+    this.details = details;
   }
 
   /** A copy that names the file, for errors raised below the layer that knows it. */
   inFile(file: string): EspalierError {
     if (this.pos?.file !== undefined) return this;
-    return new EspalierError(this.code, this.parts, { ...this.pos, file });
+    return new EspalierError(this.code, this.parts, { ...this.pos, file }, this.details);
   }
 
   /** A copy whose input text is printed by `show` (pseudonyms, or hidden) and then kept only as wording. */
   hidingInput(show: (t: InputText) => string): EspalierError {
-    return new EspalierError(this.code, [render(this.parts, show)], this.pos);
+    // Details may quote the input as well: only numbers and yes/no facts stay.
+    const kept = Object.fromEntries(
+      Object.entries(this.details).filter(([, v]) => typeof v === "number" || typeof v === "boolean"),
+    );
+    return new EspalierError(this.code, [render(this.parts, show)], this.pos, kept);
   }
 
   /** Plain data, to cross a thread (structured clone) and come back as the same error. */
   toData(): EspalierErrorData {
-    return { code: this.code, parts: [...this.parts], pos: this.pos };
+    return { code: this.code, parts: [...this.parts], pos: this.pos, details: this.details };
   }
 
   static fromData(data: EspalierErrorData): EspalierError {
-    return new EspalierError(data.code, data.parts, data.pos);
+    return new EspalierError(data.code, data.parts, data.pos, data.details);
   }
 }
 
@@ -127,6 +144,7 @@ export interface EspalierErrorData {
   code: ErrorCode;
   parts: MessagePart[];
   pos: SourcePos | undefined;
+  details?: ErrorDetails;
 }
 
 function render(parts: readonly MessagePart[], show: (t: InputText) => string): string {

@@ -1,24 +1,16 @@
-import { parseDocument } from "yaml";
+import { isMap, isScalar, LineCounter, parseDocument } from "yaml";
 import * as z from "zod";
-import { EspalierError } from "../errors.js";
+import { EspalierError, type SourcePos } from "../errors.js";
 import { readLimits } from "../load/read-limits.js";
+import { didYouMeanText } from "./did-you-mean.js";
 import type { CliIO } from "./io.js";
-import { summaryOptionsSchema } from "./options.js";
+import { configSchema } from "./options.js";
+import { issueMessage } from "./validate-options.js";
+
+export { configSchema };
 
 /** File names looked for in the current directory when --config is not given. */
 export const CONFIG_FILES = [".espalier.yaml", ".espalier.yml"] as const;
-
-/**
- * A project config file: what a CI job would otherwise repeat on every call. Keys are the long
- * option names in camelCase (`parentField`, `budget`, `focus`, …); every key is optional, and a flag
- * given on the command line wins over the file.
- */
-export const configSchema = summaryOptionsSchema
-  .omit({ output: true, focusFrom: true, printSql: true })
-  .extend({ exitCode: z.boolean().describe("diff only: exit 1 when the versions differ.") })
-  .partial()
-  .strict()
-  .describe("espalier project configuration (.espalier.yaml)");
 
 export type ConfigValues = Record<string, unknown>;
 
@@ -27,7 +19,11 @@ export interface LoadedConfig {
   file: string | undefined;
   /** The keys the file sets, validated. */
   values: ConfigValues;
+  /** Where each key stands in the file (1-based line and column). */
+  keyPos: ReadonlyMap<string, SourcePos>;
 }
+
+const NO_CONFIG: LoadedConfig = { file: undefined, values: {}, keyPos: new Map() };
 
 /**
  * Reads the config named by --config, or else the first of {@link CONFIG_FILES} that exists. A
@@ -49,19 +45,25 @@ export async function loadConfig(io: CliIO, explicit: string | undefined): Promi
       throw new EspalierError(
         "IO",
         `cannot read the config ${file}: ${(err as NodeJS.ErrnoException).code ?? err}`,
-        {
-          file,
-        },
+        { file },
       );
     }
-    return { file, values: parseConfig(new TextDecoder().decode(bytes), file) };
+    return { file, ...parseConfigWithPositions(new TextDecoder().decode(bytes), file) };
   }
-  return { file: undefined, values: {} };
+  return NO_CONFIG;
 }
 
 /** Validates config text; returns only the keys it sets. */
 export function parseConfig(text: string, file: string): ConfigValues {
-  const doc = parseDocument(text);
+  return parseConfigWithPositions(text, file).values;
+}
+
+function parseConfigWithPositions(
+  text: string,
+  file: string,
+): { values: ConfigValues; keyPos: Map<string, SourcePos> } {
+  const lineCounter = new LineCounter();
+  const doc = parseDocument(text, { lineCounter });
   if (doc.errors.length > 0) {
     const e = doc.errors[0];
     throw new EspalierError("USAGE", `the config is not valid YAML: ${e.message.split("\n")[0]}`, {
@@ -70,37 +72,44 @@ export function parseConfig(text: string, file: string): ConfigValues {
       column: e.linePos?.[0].col,
     });
   }
+  const keyPos = new Map<string, SourcePos>();
+  if (isMap(doc.contents)) {
+    for (const item of doc.contents.items) {
+      if (isScalar(item.key) && item.key.range) {
+        const { line, col } = lineCounter.linePos(item.key.range[0]);
+        keyPos.set(String(item.key.value), { file, line, column: col });
+      }
+    }
+  }
   const raw = doc.toJS({ maxAliasCount: 50 }) ?? {};
   if (typeof raw !== "object" || Array.isArray(raw))
     throw new EspalierError("USAGE", "the config must be a mapping of option names to values", { file });
   const parsed = configSchema.safeParse(raw);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
-    const key = issue.path.join(".") || (issue.code === "unrecognized_keys" ? issue.keys.join(", ") : "");
-    throw new EspalierError("USAGE", `config key ${key}: ${issue.message}`, { file });
+    if (issue.code === "unrecognized_keys") {
+      const key = issue.keys[0];
+      throw new EspalierError(
+        "USAGE",
+        `config key ${key} is not an option${didYouMeanText(key, Object.keys(configSchema.shape))}`,
+        keyPos.get(key) ?? { file },
+        { key },
+      );
+    }
+    const key = String(issue.path[0]);
+    throw new EspalierError(
+      "USAGE",
+      issueMessage(issue, `config key ${key}`, (raw as Record<string, unknown>)[key]),
+      keyPos.get(key) ?? { file },
+      {
+        key,
+      },
+    );
   }
   // Keep only what the file sets: defaults are the command line's business.
   const values: ConfigValues = {};
   for (const key of Object.keys(raw)) values[key] = (parsed.data as ConfigValues)[key];
-  return values;
-}
-
-/**
- * Effective options: each option takes the command line's value when given there, else the
- * config's, else its default.
- */
-export function mergeConfig(
-  cli: ConfigValues,
-  sourceOf: (key: string) => string | undefined,
-  config: ConfigValues,
-): ConfigValues {
-  const out: ConfigValues = { ...cli };
-  for (const [key, value] of Object.entries(config)) {
-    const given =
-      sourceOf(key) === "cli" || (key === "focus" && Array.isArray(cli.focus) && cli.focus.length > 0);
-    if (!given) out[key] = value;
-  }
-  return out;
+  return { values, keyPos };
 }
 
 /** The JSON Schema (draft 2020-12) of the config file, published as docs/config.schema.json. */

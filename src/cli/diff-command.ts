@@ -1,4 +1,3 @@
-import type { Command } from "commander";
 import { totalChanges } from "../diff/changes.js";
 import { diffTrees } from "../diff/diff-trees.js";
 import { EspalierError } from "../errors.js";
@@ -10,14 +9,12 @@ import { renderDiffMarkdown } from "../render/diff-markdown.js";
 import { renderDiffText } from "../render/diff-text.js";
 import { renderSvg } from "../render/icicle-svg.js";
 import { palette } from "../render/palette.js";
-import { DIFF_EXAMPLES } from "./diff-help.js";
-import { type DiffCliOptions, diffOptionsSchema } from "./diff-options.js";
-import { effectiveOptions, printConfig } from "./effective-options.js";
+import type { CommandOutput } from "./commands.js";
 import { EXIT } from "./exit-codes.js";
 import { isFactInput, loadFactInput } from "./fact-input.js";
 import { hidingInput } from "./hide-input.js";
 import type { CliIO } from "./io.js";
-import { PSEUDONYM_KEY_ENV } from "./options.js";
+import { type DiffCliOptions, PSEUDONYM_KEY_ENV } from "./options.js";
 import { withProgress } from "./progress.js";
 import { FOCI_BOUND, readInput } from "./read-input.js";
 import { readInputStream } from "./read-input-stream.js";
@@ -30,57 +27,6 @@ import {
   unitsFor,
   useColour,
 } from "./summary-command.js";
-
-/** What a command hands back: the text for standard output and the exit code. */
-export interface CommandOutput {
-  text: string;
-  exitCode: number;
-}
-
-/**
- * Registers `espalier diff OLD NEW` on the program. It takes every option of the summary (the same
- * option objects, so they are declared once) plus `--exit-code`. Program options are read only before
- * the subcommand name, so `espalier diff a b --budget 9` gives the budget to the diff.
- */
-export function addDiffCommand(
-  program: Command,
-  io: CliIO,
-  onOutput: (text: string, exitCode: number) => void,
-): Command {
-  program.enablePositionalOptions();
-  const diff = program
-    .command("diff")
-    .summary("compare two versions and show what changed, within the line budget")
-    .description(
-      "Compare two versions of a hierarchy and show the changes, with just enough context, within a " +
-        "line budget. Nodes are matched by row id when both versions have ids, otherwise by path.",
-    )
-    .argument("<old>", "the earlier version (a file, or - for standard input)")
-    .argument("<new>", "the later version (a file, or - for standard input)");
-  for (const option of program.options) if (option.long !== "--version") diff.addOption(option);
-  diff
-    .option("--exit-code", "exit 1 when the versions differ, 0 when they do not")
-    .addHelpText("after", DIFF_EXAMPLES)
-    .showHelpAfterError("(run espalier diff --help for usage and examples)")
-    .exitOverride()
-    .configureOutput({ writeOut: (s) => io.stdout.write(s), writeErr: (s) => io.stderr.write(s) })
-    .action(async (oldInput: string, newInput: string, raw: Record<string, unknown>, command: Command) => {
-      const { values, configFile } = await effectiveOptions(command, raw, io);
-      const parsed = diffOptionsSchema.safeParse({
-        ...values,
-        pseudonymize: values.pseudonymize === true,
-        rolledUp: values.rolledUp === true,
-        printSql: values.printSql === true,
-        exitCode: values.exitCode === true,
-        chains: values.chains !== false,
-      });
-      if (!parsed.success) throw new EspalierError("USAGE", parsed.error.issues[0].message);
-      if (raw.printConfig === true) return onOutput(printConfig(parsed.data, configFile), EXIT.ok);
-      const out = await diffCommand(oldInput, newInput, parsed.data, io);
-      onOutput(out.text, out.exitCode);
-    });
-  return diff;
-}
 
 /** Reads, compares and renders two versions; returns the text to print and the exit code. */
 export async function diffCommand(

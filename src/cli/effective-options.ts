@@ -1,42 +1,66 @@
-import type { Command } from "commander";
 import { stringify } from "yaml";
+import type { z } from "zod";
 import { EspalierError } from "../errors.js";
-import { loadConfig, mergeConfig } from "./config.js";
+import { loadConfig } from "./config.js";
 import type { CliIO } from "./io.js";
+import { allOptions, controlOptions, type OptionSpec } from "./options.js";
+import { type CommandLine, flagsByKey } from "./parse-command-line.js";
+import { validateOptions } from "./validate-options.js";
 
-/** Options that steer the config itself, never stored in it. */
-const CONFIG_SWITCHES = new Set(["config", "printConfig", "output", "focusFrom", "printSql"]);
+/** The options a command runs with, and the config file they came from (if any). */
+export interface EffectiveOptions<T> {
+  options: T;
+  configFile: string | undefined;
+  /** Keys whose value came from the config file. */
+  fromConfig: ReadonlySet<string>;
+}
 
 /**
- * The options a command runs with: its flags over the project config file over the defaults. The
- * config is `--config FILE`, else `.espalier.yaml` in the current directory; `--no-config` skips it.
+ * The options a command runs with: its flags over the project config file over the defaults, validated
+ * against `schema`. The config is `--config FILE`, else `.espalier.yaml` in the current directory;
+ * `--no-config` skips it. A config key the command does not take (a diff-only key for a summary) is left
+ * out; `focus` on the command line replaces the config's list rather than adding to it.
  */
-export async function effectiveOptions(
-  command: Command,
-  raw: Record<string, unknown>,
+export async function effectiveOptions<S extends z.ZodObject>(
+  line: CommandLine,
+  schema: S,
+  takes: Record<string, OptionSpec>,
   io: CliIO,
-): Promise<{ values: Record<string, unknown>; configFile: string | undefined }> {
-  if (raw.config === false) return { values: raw, configFile: undefined };
-  const explicit = typeof raw.config === "string" ? raw.config : undefined;
-  const config = await loadConfig(io, explicit);
-  const values = mergeConfig(raw, (key) => command.getOptionValueSource(key), config.values);
-  return { values, configFile: config.file };
+): Promise<EffectiveOptions<z.infer<S>>> {
+  const { given } = line;
+  if (given.config !== undefined && given.noConfig === true)
+    throw new EspalierError("USAGE", "--config and --no-config cannot be given together", undefined, {
+      option: "--no-config",
+    });
+  const config =
+    given.noConfig === true
+      ? undefined
+      : await loadConfig(io, typeof given.config === "string" ? given.config : undefined);
+  const values: Record<string, unknown> = {};
+  const fromConfig = new Set<string>();
+  for (const key of Object.keys(takes)) {
+    if (key in controlOptions) continue;
+    if (given[key] !== undefined) values[key] = given[key];
+    else if (config && config.values[key] !== undefined) {
+      values[key] = config.values[key];
+      fromConfig.add(key);
+    }
+  }
+  const options = validateOptions(schema, values, (key) =>
+    fromConfig.has(key)
+      ? { name: `config key ${key}`, pos: config?.keyPos.get(key) ?? { file: config?.file } }
+      : { name: flagsByKey.get(key)?.long ?? key },
+  );
+  return { options, configFile: config?.file, fromConfig };
 }
 
 /** The effective configuration as YAML, as `--print-config` shows it (a valid config file itself). */
 export function printConfig(values: Record<string, unknown>, configFile: string | undefined): string {
   const shown: Record<string, unknown> = {};
   for (const key of Object.keys(values).sort()) {
-    if (CONFIG_SWITCHES.has(key) || values[key] === undefined) continue;
+    if (allOptions[key]?.config === false || values[key] === undefined) continue;
     shown[key] = values[key];
   }
   const source = configFile === undefined ? "no config file" : `config file: ${configFile}`;
   return `# effective espalier configuration (${source}; flags override it)\n${stringify(shown)}`;
-}
-
-/** The input argument, required unless only the configuration is printed. */
-export function requireInput(input: string | undefined): string {
-  if (input === undefined)
-    throw new EspalierError("USAGE", "missing the input: a file, or - for standard input");
-  return input;
 }

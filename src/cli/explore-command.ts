@@ -1,6 +1,5 @@
 import { openSync } from "node:fs";
 import { ReadStream } from "node:tty";
-import type { Command } from "commander";
 import { prepareDiff } from "../diff/diff-trees.js";
 import { EspalierError } from "../errors.js";
 import { commandLine } from "../explore/command-line.js";
@@ -15,73 +14,13 @@ import { resolveFoci } from "../focus/resolve.js";
 import { palette } from "../render/palette.js";
 import { prepare } from "../summarize.js";
 import { loadBoth } from "./diff-command.js";
-import { effectiveOptions } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
 import type { CliIO } from "./io.js";
 import { type SummaryCliOptions, summaryOptionsSchema } from "./options.js";
+import { flagsByKey } from "./parse-command-line.js";
 import { readInput } from "./read-input.js";
 import { loadInput, pseudonymKey, toLoadOptions, unitsFor, useColour } from "./summary-command.js";
 import { writeOutput } from "./write-output.js";
-
-/** Options that make no sense for a screen: it has its own budget, format and output. */
-const NOT_HERE = new Set([
-  "--budget",
-  "--format",
-  "--output",
-  "--print-config",
-  "--print-sql",
-  "--sql-table",
-  "--version",
-]);
-
-/**
- * Registers `espalier explore INPUT` (and `espalier explore OLD NEW`, which explores their diff) on the
- * program, with every option of the summary that shapes the tree, its labels and its look.
- */
-export function addExploreCommand(
-  program: Command,
-  io: CliIO,
-  onOutput: (text: string, exitCode: number) => void,
-): Command {
-  program.enablePositionalOptions();
-  const explore = program
-    .command("explore")
-    .summary("look around interactively; the view re-fits the terminal on every key")
-    .description(
-      "Show the summary fitted to the terminal and re-fit it on every key: move the focus, open folds, " +
-        "pin foci, search, switch importance, undo. With two inputs, explore their diff (the changes " +
-        "score as foci). p quits and prints the espalier command line that shows the same view; w writes " +
-        "the foci to a --focus-from list or a config file. Needs a terminal; h shows every key.",
-    )
-    .argument("<input>", "file to read, or - for standard input (keys are then read from the terminal)")
-    .argument("[new]", "a later version of <input>: explore what changed");
-  for (const option of program.options) if (!NOT_HERE.has(option.long ?? "")) explore.addOption(option);
-  explore
-    .showHelpAfterError("(run espalier explore --help for usage)")
-    .exitOverride()
-    .configureOutput({ writeOut: (s) => io.stdout.write(s), writeErr: (s) => io.stderr.write(s) })
-    .action(
-      async (input: string, newInput: string | undefined, raw: Record<string, unknown>, command: Command) => {
-        const { values, configFile } = await effectiveOptions(command, raw, io);
-        const parsed = summaryOptionsSchema.safeParse({
-          ...values,
-          budget: undefined,
-          format: undefined,
-          output: undefined,
-          pseudonymize: values.pseudonymize === true,
-          chains: values.chains !== false,
-        });
-        if (!parsed.success) throw new EspalierError("USAGE", parsed.error.issues[0].message);
-        const out = await exploreCommand(input, newInput, parsed.data, io, {
-          configFile,
-          configSetsImportance:
-            configFile !== undefined && command.getOptionValueSource("importance") === "config",
-        });
-        onOutput(out.text, out.exitCode);
-      },
-    );
-  return explore;
-}
 
 /** How the command was set up, beyond its options. */
 export interface ExploreSetup {
@@ -184,10 +123,12 @@ function shapeArgs(opts: SummaryCliOptions): string[] {
   const args: string[] = [];
   for (const [key, value] of Object.entries(opts)) {
     if (NOT_PRINTED.has(key) || value === undefined || value === defaults[key]) continue;
-    const flag = key.replace(/[A-Z]/g, (c) => `-${c.toLowerCase()}`);
-    if (value === true) args.push(`--${flag}`);
-    else if (value === false) args.push(`--no-${flag}`);
-    else args.push(`--${flag}`, String(value));
+    const flags = flagsByKey.get(key);
+    if (!flags) continue;
+    if (flags.switchValue !== undefined) {
+      if (value === flags.switchValue) args.push(flags.long);
+    } else if (Array.isArray(value)) for (const v of value) args.push(flags.long, String(v));
+    else args.push(flags.long, String(value));
   }
   return args;
 }

@@ -2,10 +2,10 @@ import { EspalierError } from "../errors.js";
 import { type FactFormat, type FactOptions, factFormatOf } from "../load/facts/fact-options.js";
 import type { Tree } from "../model/tree.js";
 import { templateFields } from "../view/label.js";
-import type { SummaryCliOptions } from "./options.js";
+import type { SharedCliOptions } from "./options.js";
 
 /** Whether the options make the input a fact table (rolled up by the SQL engine). */
-export function isFactInput(opts: SummaryCliOptions): boolean {
+export function isFactInput(opts: SharedCliOptions): boolean {
   return (
     opts.levels !== undefined ||
     opts.keyField !== undefined ||
@@ -16,7 +16,7 @@ export function isFactInput(opts: SummaryCliOptions): boolean {
 }
 
 /** How the options say a fact table forms a hierarchy. */
-export function factOptionsOf(opts: SummaryCliOptions): FactOptions {
+export function factOptionsOf(opts: SharedCliOptions): FactOptions {
   const levels = opts.levels === undefined ? [] : opts.levels.split(",").map((c) => c.trim());
   if (levels.some((c) => c === "")) throw new EspalierError("USAGE", "--levels has an empty column name");
   if (levels.length > 0 && opts.keyField !== undefined)
@@ -41,7 +41,7 @@ export function factOptionsOf(opts: SummaryCliOptions): FactOptions {
  * Loads a fact table through the embedded engine. The loader (and through it the engine) is imported
  * here, when a fact table is read, never at start-up.
  */
-export async function loadFactInput(input: string, opts: SummaryCliOptions, rootName: string): Promise<Tree> {
+export async function loadFactInput(input: string, opts: SharedCliOptions, rootName: string): Promise<Tree> {
   if (input === "-") {
     throw new EspalierError(
       "USAGE",
@@ -65,7 +65,7 @@ export async function loadFactInput(input: string, opts: SummaryCliOptions, root
  * `--print-sql`: the rollup query in standard SQL over the table `--sql-table`. A key hierarchy's depth
  * comes from --key-depth, else from the input file (the engine reads its deepest key).
  */
-export async function printSqlCommand(input: string | undefined, opts: SummaryCliOptions): Promise<string> {
+export async function printSqlCommand(input: string | undefined, opts: SharedCliOptions): Promise<string> {
   const facts = factOptionsOf(opts);
   if (opts.rolledUp)
     throw new EspalierError("USAGE", "--print-sql prints the query whose result --rolled-up reads");
@@ -84,7 +84,7 @@ export async function printSqlCommand(input: string | undefined, opts: SummaryCl
   return `${rollupSql(facts, depth, hasSize)};\n`;
 }
 
-function factFormat(input: string, opts: SummaryCliOptions): FactFormat {
+function factFormat(input: string, opts: SharedCliOptions): FactFormat {
   const forced = opts.inputFormat;
   if (forced === "csv" || forced === "tsv" || forced === "parquet" || forced === "jsonl") return forced;
   if (forced !== undefined)

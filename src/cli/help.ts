@@ -1,27 +1,92 @@
-/** Worked examples shown after --help, set in the fictional company and monorepo of the demo data. */
-export const SUMMARY_EXAMPLES = `
-Examples:
-  # The people around one engineer in a 3,000-person org chart, in 30 lines
-  espalier fixtures/quillfeather-org.csv --parent-field manager --size-field cost \\
-      --focus Q2417 --label '{name}, {title}' --budget 30
+import stringWidth from "string-width";
+import type { CommandSpec } from "./commands.js";
+import type { OptionFlags } from "./option-flags.js";
+import { allOptions, type CommandName, optionGroups } from "./options.js";
+import { flagsByKey } from "./parse-command-line.js";
 
-  # Two teams at once, names replaced by the team and title of each person
-  espalier fixtures/quillfeather-org.csv --parent-field manager --label '{title} ({team})' \\
-      --focus Q2417 --focus Q0627
+const INDENT = "  ";
+const GAP = 2;
+/** Help lines are wrapped to this many columns. */
+const WIDTH = 100;
 
-  # Where the bytes are in a monorepo listing (find DIR -printf '%s\\t%p\\n' > files.paths)
-  find . -printf '%s\\t%p\\n' | espalier - --importance size --budget 25
+/**
+ * `espalier --help` / `espalier diff --help`: what espalier does, how to call each command, every
+ * option in docs/cli.md's groups (with choices and defaults, all from the option declarations), the
+ * command's worked examples and its exit statuses. Returns the text; the caller prints it.
+ */
+export function renderHelp(command: CommandName, commands: Record<CommandName, CommandSpec>): string {
+  const spec = commands[command];
+  const out: string[] = [...wrap(`espalier: ${spec.about}`, WIDTH), ""];
+  const usages = (Object.keys(commands) as CommandName[]).map((c) => [
+    commands[c].usage,
+    commands[c].summary,
+  ]);
+  out.push(...columns(usages, widest(usages)), "");
+  out.push(
+    ...wrap(
+      "<input>, <old> and <new> are files, or - for standard input (at most one of them). Options may " +
+        "come anywhere, before or after the command's name; an option of one command only is refused " +
+        "by the other.",
+      WIDTH,
+    ),
+    "",
+  );
+  // Every group in docs/cli.md's order, so one help lists every option once.
+  const groups = optionGroups.map((group) => ({
+    group,
+    rows: [...flagsByKey.values()]
+      .filter((flags) => allOptions[flags.key].group === group)
+      .map((flags) => [flagText(flags), describe(flags)]),
+  }));
+  const left = Math.max(...groups.map(({ rows }) => widest(rows)));
+  for (const { group, rows } of groups) {
+    if (rows.length > 0) out.push(group, ...columns(rows, left), "");
+  }
+  out.push(spec.examples.trim(), "");
+  out.push(spec.exitStatus.trim(), "");
+  return `${out.join("\n").trimEnd()}\n`;
+}
 
-  # Every test folder of one service, as JSON for a script
-  espalier fixtures/tidewater-files.paths --focus './services/ledger/**/test' --format json
+function flagText(flags: OptionFlags): string {
+  const long = flags.valueName === undefined ? flags.long : `${flags.long} <${flags.valueName}>`;
+  return flags.short === undefined ? `    ${long}` : `${flags.short}, ${long}`;
+}
 
-  # Foci from a file, one path, id or glob per line
-  espalier fixtures/tidewater-deps.json --focus-from changed-packages.txt
+function describe(flags: OptionFlags): string {
+  let text = flags.help;
+  if (flags.choices) text += `; one of ${flags.choices.join(", ")}`;
+  const noDefault =
+    flags.defaultValue === undefined ||
+    flags.switchValue !== undefined ||
+    (Array.isArray(flags.defaultValue) && flags.defaultValue.length === 0);
+  if (!noDefault) text += `; default ${String(flags.defaultValue)}`;
+  return text;
+}
 
-Paths: names from below the root joined by "/", with "~" written "~0" and "/" written "~1"
-(RFC 6901). "*" matches within a name, "**" any number of levels. Every path espalier prints
-is accepted back as a focus.
+function widest(rows: string[][]): number {
+  return Math.max(0, ...rows.map(([cell]) => stringWidth(cell)));
+}
 
-Exit status: 0 success, 2 usage or input error (one line on standard error, nothing on standard
-output).
-`;
+/** Rows of two cells, the second starting after `left` columns and a gap, wrapped under itself. */
+function columns(rows: string[][], left: number): string[] {
+  const hang = " ".repeat(INDENT.length + left + GAP);
+  return rows.flatMap(([cell, text]) => {
+    const [first, ...rest] = wrap(text, WIDTH - hang.length);
+    const pad = " ".repeat(left - stringWidth(cell) + GAP);
+    return [`${INDENT}${cell}${pad}${first}`, ...rest.map((line) => hang + line)];
+  });
+}
+
+/** The words of `text` in lines of at most `width` columns (a longer word stands alone). */
+function wrap(text: string, width: number): string[] {
+  const lines: string[] = [];
+  let line = "";
+  for (const word of text.split(" ")) {
+    if (line !== "" && stringWidth(line) + 1 + stringWidth(word) > width) {
+      lines.push(line);
+      line = word;
+    } else line = line === "" ? word : `${line} ${word}`;
+  }
+  lines.push(line);
+  return lines;
+}

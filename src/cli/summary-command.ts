@@ -10,7 +10,12 @@ import { templateFields } from "../view/label.js";
 import { isFactInput, loadFactInput } from "./fact-input.js";
 import { hidingInput } from "./hide-input.js";
 import type { CliIO } from "./io.js";
-import { DEFAULT_BUDGET, PSEUDONYM_KEY_ENV, type SummaryCliOptions } from "./options.js";
+import {
+  DEFAULT_BUDGET,
+  PSEUDONYM_KEY_ENV,
+  type SharedCliOptions,
+  type SummaryCliOptions,
+} from "./options.js";
 import { withProgress } from "./progress.js";
 import { FOCI_BOUND, readInput } from "./read-input.js";
 import { readInputStream } from "./read-input-stream.js";
@@ -67,7 +72,7 @@ async function summaryOf(
 }
 
 /** Loads one input as every command does: a fact table rolled up, else any tree format, streamed. */
-export async function loadInput(io: CliIO, input: string, opts: SummaryCliOptions): Promise<Tree> {
+export async function loadInput(io: CliIO, input: string, opts: SharedCliOptions): Promise<Tree> {
   try {
     if (isFactInput(opts)) return await loadFactInput(input, opts, rootNameOf(input));
     const source = await readInputStream(io, input);
@@ -79,7 +84,7 @@ export async function loadInput(io: CliIO, input: string, opts: SummaryCliOption
   }
 }
 
-export function toLoadOptions(input: string, opts: SummaryCliOptions): LoadOptions {
+export function toLoadOptions(input: string, opts: SharedCliOptions): LoadOptions {
   const format = opts.inputFormat;
   if (format === "parquet" || format === "jsonl")
     throw new EspalierError(
@@ -117,13 +122,13 @@ function baseName(path: string): string {
 }
 
 /** Sizes print as bytes when the size field is called size or bytes, as plain numbers otherwise. */
-export function unitsFor(opts: SummaryCliOptions): Units {
+export function unitsFor(opts: SharedCliOptions): Units {
   if (opts.units !== "auto") return opts.units;
   return ["size", "bytes"].includes(opts.sizeField.toLowerCase()) ? "bytes" : "plain";
 }
 
 /** Colour only on a terminal, never with NO_COLOR set (no-color.org) or TERM=dumb, unless forced. */
-export function useColour(opts: SummaryCliOptions, io: CliIO): boolean {
+export function useColour(opts: SharedCliOptions, io: CliIO): boolean {
   if (opts.color !== "auto") return opts.color === "always";
   if (io.env.NO_COLOR !== undefined && io.env.NO_COLOR !== "") return false;
   if (io.env.TERM === "dumb") return false;
@@ -141,7 +146,7 @@ export function defaultBudget(io: CliIO): number {
   return DEFAULT_BUDGET;
 }
 
-export function pseudonymKey(opts: SummaryCliOptions, io: CliIO): string | undefined {
+export function pseudonymKey(opts: SharedCliOptions, io: CliIO): string | undefined {
   if (!opts.pseudonymize) return undefined;
   const key = io.env[PSEUDONYM_KEY_ENV];
   if (!key) {

@@ -13,7 +13,8 @@ const BIN = new URL("../../bin/espalier.js", import.meta.url).pathname;
 
 async function launcher(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
   try {
-    const { stdout, stderr } = await run(process.execPath, [BIN, ...args], { encoding: "utf8" });
+    // Run from a fresh folder, so no .espalier.yaml of the working directory is read.
+    const { stdout, stderr } = await run(process.execPath, [BIN, ...args], { encoding: "utf8", cwd: dir });
     return { code: 0, stdout, stderr };
   } catch (error) {
     const e = error as { code: number; stdout: string; stderr: string };

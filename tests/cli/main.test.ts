@@ -1,3 +1,4 @@
+import { readFile } from "node:fs/promises";
 import { describe, expect, it } from "vitest";
 import { cli } from "../helpers/cli.js";
 
@@ -152,11 +153,35 @@ describe("espalier <input> (summary)", () => {
     ).toHaveLength(11);
   });
 
-  it("prints help with worked examples", async () => {
-    const r = await cli(["--help"]);
-    expect(r.code).toBe(0);
-    expect(r.stdout).toContain("Examples:");
-    expect(r.stdout).toContain("--focus");
+  it.each([["--help"], ["diff", "-h"]])(
+    "prints help (%s) whose every example on the demo data works",
+    async (...argv) => {
+      const r = await cli(argv);
+      expect(r.code).toBe(0);
+      expect(r.stderr).toBe("");
+      // The examples' command lines that read only the demo data (not standard input, not a user's files);
+      // explore's need a terminal (tests/cli/explore-command.test.ts drives one).
+      const examples = r.stdout
+        .slice(r.stdout.indexOf("\nExamples\n"))
+        .split("\n")
+        .map((line) => line.trim())
+        .filter((line) => line.startsWith("espalier ") && !line.startsWith("espalier explore "))
+        .map(shellWords)
+        .filter((words) =>
+          words.every((w) => w !== "-" && (!FILE_LIKE.test(w) || w.startsWith("fixtures/"))),
+        );
+      expect(examples.length).toBeGreaterThan(0);
+      for (const words of examples) {
+        const run = await cli(words.slice(1));
+        expect(run.code, `${words.join(" ")}: ${run.stderr}`).toBe(0);
+      }
+    },
+  );
+
+  it("prints the version of package.json", async () => {
+    const { version } = JSON.parse(await readFile(new URL("../../package.json", import.meta.url), "utf8"));
+    const r = await cli(["--version"]);
+    expect(r).toEqual({ code: 0, stdout: `espalier ${version}\n`, stderr: "" });
   });
 });
 
@@ -173,3 +198,10 @@ describe("espalier <input> --format markdown|svg", () => {
     expect(svg.stdout.trimEnd().endsWith("</svg>")).toBe(true);
   });
 });
+
+const FILE_LIKE = /\.(json|csv|tsv|paths|ya?ml|txt)$/;
+
+/** A command line split as a POSIX shell splits it, for the single quotes the help's examples use. */
+function shellWords(line: string): string[] {
+  return [...line.matchAll(/'([^']*)'|(\S+)/g)].map((m) => m[1] ?? m[2]);
+}

@@ -1,4 +1,5 @@
 import { readFile } from "node:fs/promises";
+import { CONFIG_FILES } from "../../src/cli/config.js";
 import { run } from "../../src/cli/main.js";
 import { type ReadBound, readBounded, readStreamBounded } from "../../src/cli/read-bounded.js";
 import type { OutputFiles } from "../../src/cli/write-output.js";
@@ -20,7 +21,11 @@ export async function cli(
     env?: Record<string, string>;
     tty?: { rows: number };
     outputFiles?: OutputFiles;
-    /** Files served before the real file system (e.g. a config file in the current directory). */
+    /**
+     * Files served before the real file system (e.g. a config file in the current directory). The
+     * default config names (.espalier.yaml, .espalier.yml) come only from here, never from the working
+     * directory, so a config file left there cannot change a test's result.
+     */
     files?: Record<string, string>;
   } = {},
 ): Promise<CliResult> {
@@ -48,14 +53,17 @@ export async function cli(
           : Buffer.from(options.stdin);
       return bound ? readStreamBounded([bytes], "-", bound) : bytes;
     },
-    readFile: (p: string, bound?: ReadBound) =>
-      options.files && p in options.files
-        ? Promise.resolve(Buffer.from(options.files[p], "utf8"))
-        : bound
-          ? readBounded(p, bound)
-          : readFile(p),
+    readFile: (p: string, bound?: ReadBound) => {
+      if (options.files && p in options.files) return Promise.resolve(Buffer.from(options.files[p], "utf8"));
+      if ((CONFIG_FILES as readonly string[]).includes(p)) return Promise.reject(notFound(p));
+      return bound ? readBounded(p, bound) : readFile(p);
+    },
     env: options.env ?? {},
     outputFiles: options.outputFiles,
   });
   return { code, stdout, stderr };
+}
+
+function notFound(path: string): NodeJS.ErrnoException {
+  return Object.assign(new Error(`ENOENT: no such file, open '${path}'`), { code: "ENOENT" });
 }

@@ -27,29 +27,25 @@ function nodeLaughs(levels: number): string {
   return lines.join("\n");
 }
 
-async function timed<T>(run: () => Promise<T>): Promise<{ value: T; ms: number }> {
-  const start = performance.now();
-  const value = await run();
-  return { value, ms: performance.now() - start };
-}
-
+// These check what comes out (an error code, a short line, a small tree), not how fast: speed is
+// checked by the benchmark (npm run bench), never by a timed unit test, which fails on a busy machine.
 describe("espalier - (resource bombs)", () => {
   it("a billion-laughs YAML document is never expanded: an error or a small tree, at once", async () => {
     // Nine levels of nine aliases each: 387,420,489 leaves if aliases were expanded.
     const scalars = `${laughs(9)}\nname: root\nchildren: *l8\n`;
-    const a = await timed(() => cli(["-", "--input-format", "yaml"], { stdin: scalars }));
-    expect(oneErrorLine(a.value).code).toBe("SHAPE");
+    const a = await cli(["-", "--input-format", "yaml"], { stdin: scalars });
+    expect(oneErrorLine(a).code).toBe("SHAPE");
 
     // The same with node objects: an alias placed a second time would give a node two parents.
     const nodes = `${nodeLaughs(9)}\nname: root\nchildren: [*l8]\n`;
-    const b = await timed(() => cli(["-", "--input-format", "yaml"], { stdin: nodes }));
-    expect(oneErrorLine(b.value).code).toBe("TWO_PARENTS");
+    const b = await cli(["-", "--input-format", "yaml"], { stdin: nodes });
+    expect(oneErrorLine(b).code).toBe("TWO_PARENTS");
 
     // Aliases inside a kept field: the label shows the field as written, not expanded.
     const field = `${laughs(9)}\nname: root\nchildren:\n  - name: k\n    team: *l8\n`;
-    const c = await timed(() => cli(["-", "--input-format", "yaml", "--label", "{team}"], { stdin: field }));
-    expect(c.value.code, c.value.stderr).toBe(0);
-    expect(c.value.stdout.length).toBeLessThan(1000);
+    const c = await cli(["-", "--input-format", "yaml", "--label", "{team}"], { stdin: field });
+    expect(c.code, c.stderr).toBe(0);
+    expect(c.stdout.length).toBeLessThan(1000);
   });
 
   it("a 10 MB name does not flood the terminal: text lines stay short, JSON keeps the data whole", async () => {
@@ -65,15 +61,15 @@ describe("espalier - (resource bombs)", () => {
   it("a 10 MB focus that matches nothing fails at once with FOCUS_NO_MATCH and a short line", async () => {
     const stdin = JSON.stringify({ name: "root", children: [{ name: "q".repeat(1_000_000) }] });
     const spec = `${"q".repeat(10 * 1024 * 1024)}x`;
-    const r = await timed(() => cli(["-", "--focus", spec], { stdin }));
-    expect(oneErrorLine(r.value).code).toBe("FOCUS_NO_MATCH");
-    expect(r.value.stderr.length).toBeLessThan(5000);
+    const r = await cli(["-", "--focus", spec], { stdin });
+    expect(oneErrorLine(r).code).toBe("FOCUS_NO_MATCH");
+    expect(r.stderr.length).toBeLessThan(5000);
   });
 
   it("a focus of 100,000 segments that matches nothing fails at once", async () => {
     const spec = Array(100_000).fill("a").join("/");
-    const r = await timed(() => cli(["-", "--focus", spec], { stdin: "a/a\na/b\n" }));
-    expect(oneErrorLine(r.value).code).toBe("FOCUS_NO_MATCH");
+    const r = await cli(["-", "--focus", spec], { stdin: "a/a\na/b\n" });
+    expect(oneErrorLine(r).code).toBe("FOCUS_NO_MATCH");
   });
 
   it("ten thousand foci (paths, row ids, globs) are resolved and all shown", async () => {
@@ -83,24 +79,20 @@ describe("espalier - (resource bombs)", () => {
     const foci = paths.filter((_, k) => k % 2 === 0).map((p) => p.slice("quill/".length));
     expect(foci).toHaveLength(10_000);
     const focusArgs = foci.flatMap((f) => ["--focus", f]);
-    const r = await timed(() => cli(["-", ...focusArgs, "--budget", "20101", "--format", "json"], { stdin }));
-    expect(r.value.code, r.value.stderr).toBe(0);
-    expect(JSON.parse(r.value.stdout).foci).toHaveLength(10_000);
+    const r = await cli(["-", ...focusArgs, "--budget", "20101", "--format", "json"], { stdin });
+    expect(r.code, r.stderr).toBe(0);
+    expect(JSON.parse(r.stdout).foci).toHaveLength(10_000);
 
     const rows = ["id,parent", "q,", ...Array.from({ length: 10_000 }, (_, k) => `p${k},q`)].join("\n");
     const ids = Array.from({ length: 10_000 }, (_, k) => ["--focus", `p${k}`]).flat();
-    const byId = await timed(() =>
-      cli(["-", "--input-format", "csv", ...ids, "--budget", "10001"], { stdin: rows }),
-    );
-    expect(byId.value.code, byId.value.stderr).toBe(0);
-    expect(byId.value.stdout.split("\n").filter((l) => l.includes("* p"))).toHaveLength(10_000);
+    const byId = await cli(["-", "--input-format", "csv", ...ids, "--budget", "10001"], { stdin: rows });
+    expect(byId.code, byId.stderr).toBe(0);
+    expect(byId.stdout.split("\n").filter((l) => l.includes("* p"))).toHaveLength(10_000);
 
     const globs = Array.from({ length: 10_000 }, (_, k) => ["--focus", `d${k % 100}/f${k % 200}*`]).flat();
-    const byGlob = await timed(() =>
-      cli(["-", ...globs, "--budget", "20101", "--format", "json"], { stdin }),
-    );
-    expect(byGlob.value.code, byGlob.value.stderr).toBe(0);
-  }, 240_000);
+    const byGlob = await cli(["-", ...globs, "--budget", "20101", "--format", "json"], { stdin });
+    expect(byGlob.code, byGlob.stderr).toBe(0);
+  });
 
   it("--max-nodes N refuses bigger inputs in every format with LIMIT_EXCEEDED at the node past the limit", async () => {
     const inputs: [InputFormat, string, { line?: number; row?: number }][] = [
