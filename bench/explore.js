@@ -2,9 +2,10 @@
 // session of keys and resizes is run through the view's own state machine and screen (update + draw +
 // the frame's bytes), exactly what the terminal edge does per key, and each move is timed.
 // Informs; never gates.
-// Usage: node --expose-gc bench/explore.js [--nodes N] [--rows R] [--cols C] [--pseudonymize] [--json]
+// Usage: npm run bench:explore -- [--nodes N] [--rows R] [--cols C] [--repeat N] [--pseudonymize] [--json]
 
 import { readFileSync } from "node:fs";
+import { cpus, loadavg } from "node:os";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { ensureData } from "./generate.js";
@@ -29,6 +30,7 @@ const nodes = Number(arg("--nodes", "1000000"));
 const rows = Number(arg("--rows", "40"));
 const cols = Number(arg("--cols", "120"));
 const key = args.includes("--pseudonymize") ? "bench-secret" : undefined;
+const repeat = Number(arg("--repeat", "3"));
 const log = (s) => process.stderr.write(`${s}\n`);
 
 const manifest = ensureData({ nodes, formats: ["json"], force: false, log });
@@ -37,7 +39,21 @@ const tree = loadTree(readFileSync(manifest.files.json, "utf8"), { ...defaultLoa
 const t1 = performance.now();
 const prepared = prepare(tree);
 const t2 = performance.now();
-const session = summarySession(prepared, { units: "bytes", chains: true, pseudonymKey: key });
+const plain = summarySession(prepared, { units: "bytes", chains: true, pseudonymKey: key });
+// The same session, timing its fits (the library's summarize and the line layout): the rest of a move
+// is the view's own work.
+let fitMs = 0;
+const session = {
+  ...plain,
+  fit: (...a) => {
+    const t = performance.now();
+    try {
+      return plain.fit(...a);
+    } finally {
+      fitMs += performance.now() - t;
+    }
+  },
+};
 const t3 = performance.now();
 if (key !== undefined) session.search.advance(Number.MAX_SAFE_INTEGER);
 const t4 = performance.now();
@@ -91,18 +107,32 @@ const foci = resolveFoci(prepared.index, manifest.foci.slice(0, 1));
 let state = startState(session, { rows, cols, foci, importance: "depth", fociFile: "foci.txt" });
 frame(draw(session, state, false).rows); // the first screen is drawn before any key
 const times = [];
+const cpu = [];
+const cpuSlow = [];
+const own = [];
+const ownSlow = [];
 const slow = [];
-for (const event of script) {
+for (const event of Array.from({ length: repeat }, () => script).flat()) {
+  fitMs = 0;
+  const c = process.cpuUsage();
   const a = performance.now();
   state = update(session, state, event);
   const bytes = frame(draw(session, state, false).rows);
   const t = performance.now() - a;
+  const used = process.cpuUsage(c);
   times.push(t);
+  cpu.push((used.user + used.system) / 1000);
+  if ((used.user + used.system) / 1000 > 20)
+    cpuSlow.push(`${describe(event)} ${ms((used.user + used.system) / 1000)}`);
+  own.push(t - fitMs);
+  if (t - fitMs > 20) ownSlow.push(`${describe(event)} ${ms(t - fitMs)}`);
   if (t > 50) slow.push(`${describe(event)} ${ms(t)}`);
   if (bytes.length === 0) throw new Error("empty frame");
 }
 const sorted = [...times].sort((x, y) => x - y);
-const q = (p) => sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))];
+const q = (p, list = sorted) => list[Math.min(list.length - 1, Math.floor(p * list.length))];
+const ownSorted = [...own].sort((x, y) => x - y);
+const cpuSorted = [...cpu].sort((x, y) => x - y);
 const result = {
   nodes: tree.length,
   terminal: `${rows}x${cols}`,
@@ -110,12 +140,32 @@ const result = {
   moves: times.length,
   ms: { min: sorted[0], p50: q(0.5), p90: q(0.9), p99: q(0.99), max: sorted[sorted.length - 1] },
   over50ms: slow.length,
+  /** CPU time of each move (all the process's threads, the collector's included): what it costs the machine. */
+  cpuMs: {
+    p50: q(0.5, cpuSorted),
+    p90: q(0.9, cpuSorted),
+    p99: q(0.99, cpuSorted),
+    max: cpuSorted[cpuSorted.length - 1],
+  },
+  cpuOver50ms: cpu.filter((x) => x > 50).length,
+  /** The view's own part of each move: update, draw and the frame, without the fits. */
+  ownMs: { p50: q(0.5, ownSorted), p90: q(0.9, ownSorted), max: ownSorted[ownSorted.length - 1] },
+  load: loadavg()[0],
 };
 log(
   `${times.length} moves on ${tree.length.toLocaleString("en")} nodes (${rows}x${cols}): ` +
     `min ${ms(result.ms.min)}, median ${ms(result.ms.p50)}, p90 ${ms(result.ms.p90)}, ` +
     `p99 ${ms(result.ms.p99)}, max ${ms(result.ms.max)}; over 50 ms: ${slow.length}` +
     (slow.length ? ` (${slow.join("; ")})` : ""),
+);
+log(
+  `CPU time per move: median ${ms(result.cpuMs.p50)}, p90 ${ms(result.cpuMs.p90)}, p99 ${ms(result.cpuMs.p99)}, ` +
+    `max ${ms(result.cpuMs.max)}; over 50 ms: ${result.cpuOver50ms}` +
+    (cpuSlow.length ? ` (over 20 ms: ${cpuSlow.join("; ")})` : ""),
+);
+log(
+  `of which the view's own work (all but the fits): median ${ms(result.ownMs.p50)}, p90 ${ms(result.ownMs.p90)}, ` +
+    `max ${ms(result.ownMs.max)}${ownSlow.length ? ` (over 20 ms: ${ownSlow.join("; ")})` : ""}; load average ${result.load.toFixed(1)} on ${cpus().length} cores`,
 );
 if (args.includes("--json")) process.stdout.write(`${JSON.stringify(result)}\n`);
 

@@ -69,7 +69,7 @@ async function diffOf(
   });
   const by = result.combined.by;
   const textOptions = {
-    units: unitsFor(opts),
+    units: unitsFor(opts, result.combined.tree),
     sizes: result.combined.tree.hasSizes,
     by,
     palette: palette(useColour(opts, io)),

@@ -140,7 +140,7 @@ export const sharedOptions = {
       .enum(unitChoices)
       .default("auto")
       .describe(
-        "sizes as bytes (KiB, MiB) or plain numbers; auto: bytes when the size field is size or bytes",
+        "sizes as bytes (KiB, MiB) or plain numbers; auto: bytes for file sizes and a document's bytes",
       ),
   },
   label: {
@@ -178,6 +178,22 @@ export const sharedOptions = {
     flags: "--children-field <field>",
     group: "Input",
     schema: z.string().min(1).default("children").describe("field holding a node's children"),
+  },
+  readAs: {
+    flags: "--read-as <reading>",
+    group: "Input",
+    schema: z
+      .enum(["auto", "nodes", "values"])
+      .default("auto")
+      .describe("JSON/YAML: node objects, or every value a node sized in bytes; auto: by the document"),
+  },
+  nulSeparated: {
+    flags: "--nul-separated",
+    group: "Input",
+    schema: z
+      .boolean()
+      .default(false)
+      .describe("path lists: entries end with a NUL byte (find -print0, git ls-files -z)"),
   },
   sizeField: {
     flags: "--size-field <field>",

@@ -52,18 +52,23 @@ async function summaryOf(
       lines: result.selection.lines,
       foci: result.fociPaths,
       labels: opts.label !== undefined,
+      ...(tree.reading ? { input: tree.reading } : {}),
     });
   }
   if (opts.format === "svg") {
     const { renderSvg } = await import("../render/icicle-svg.js");
-    return renderSvg(result.view, { units: unitsFor(opts), sizes: tree.hasSizes });
+    return renderSvg(result.view, { units: unitsFor(opts, tree), sizes: tree.hasSizes });
   }
   if (opts.format === "markdown") {
     const { renderMarkdown } = await import("../render/summary-markdown.js");
-    return renderMarkdown(result.view, { units: unitsFor(opts), sizes: tree.hasSizes, chains: opts.chains });
+    return renderMarkdown(result.view, {
+      units: unitsFor(opts, tree),
+      sizes: tree.hasSizes,
+      chains: opts.chains,
+    });
   }
   return renderText(result.view, {
-    units: unitsFor(opts),
+    units: unitsFor(opts, tree),
     sizes: tree.hasSizes,
     palette: palette(useColour(opts, io)),
     chains: opts.chains,
@@ -104,6 +109,8 @@ export function toLoadOptions(input: string, opts: SharedCliOptions): LoadOption
     keepFields: opts.label ? templateFields(opts.label) : [],
     rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
+    ...(opts.readAs === "auto" ? {} : { readAs: opts.readAs }),
+    ...(opts.nulSeparated ? { nulSeparated: true } : {}),
   };
 }
 
@@ -121,10 +128,14 @@ function baseName(path: string): string {
   return parts[parts.length - 1] || path;
 }
 
-/** Sizes print as bytes when the size field is called size or bytes, as plain numbers otherwise. */
-export function unitsFor(opts: SharedCliOptions): Units {
+/**
+ * Sizes print as bytes when the loader says they count bytes (see src/load/size-unit.ts), else plain.
+ * Without a loaded tree (a caller that decides before loading) the size field's name decides.
+ */
+export function unitsFor(opts: SharedCliOptions, tree?: Tree): Units {
   if (opts.units !== "auto") return opts.units;
-  return ["size", "bytes"].includes(opts.sizeField.toLowerCase()) ? "bytes" : "plain";
+  if (tree === undefined) return ["size", "bytes"].includes(opts.sizeField.toLowerCase()) ? "bytes" : "plain";
+  return tree.reading?.sizeUnit === "bytes" ? "bytes" : "plain";
 }
 
 /** Colour only on a terminal, never with NO_COLOR set (no-color.org) or TERM=dumb, unless forced. */

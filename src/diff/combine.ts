@@ -278,5 +278,6 @@ function copyTree(
     originIsRow: newTree.originIsRow,
     fields,
     syntheticRoot: newTree.syntheticRoot,
+    ...(newTree.reading ? { reading: newTree.reading } : {}),
   };
 }

@@ -133,7 +133,15 @@ export class NameSearch {
   countIn(pattern: Pattern, from: number, to: number): number {
     const stop = Math.min(to, this.ready);
     let count = 0;
-    for (let i = Math.max(1, from); i < stop; i++) {
+    const first = Math.max(1, from);
+    if (!pattern.all && (pattern.literal === null || pattern.literal.length === 0)) {
+      // One walk for the whole range, counting as it goes.
+      this.walk(pattern, first, stop, () => {
+        count++;
+      });
+      return count;
+    }
+    for (let i = first; i < stop; i++) {
       i = this.scan(pattern, i, stop);
       if (i < 0) break;
       count++;
@@ -159,13 +167,13 @@ export class NameSearch {
     if (pattern.anchor !== "inside") {
       // The literal begins or ends the name: one look at each name, no search.
       const m = literal.length;
+      const c0 = literal[0];
+      const atStart = pattern.anchor === "start";
       for (let i = from; i < to; i++) {
-        if (end[i] - start[i] < m) continue;
-        if (
-          equalAt(bytes, pattern.anchor === "start" ? start[i] : end[i] - m, literal) &&
-          this.test(pattern, i)
-        )
-          return i;
+        const at = atStart ? start[i] : end[i] - m;
+        // The first byte, inline, settles most names without a call.
+        if (end[i] - start[i] < m || bytes[at] !== c0) continue;
+        if (equalAt(bytes, at, literal) && this.test(pattern, i)) return i;
       }
       return -1;
     }
@@ -191,9 +199,9 @@ export class NameSearch {
   /**
    * First match in the nodes [from, to) for a pattern with no literal to look for: a walk in pre-order
    * that carries each node's set of pattern positions down from its parent, as the focus globs do, and
-   * skips a subtree where no position is left.
+   * skips a subtree where no position is left. With `each`, every match goes to it and the walk runs on.
    */
-  private walk(pattern: Pattern, from: number, to: number): number {
+  private walk(pattern: Pattern, from: number, to: number, each?: (i: number) => void): number {
     const n = this.tree.length;
     if (this.masks.length < n) {
       this.masks = new Int32Array(n);
@@ -210,7 +218,10 @@ export class NameSearch {
       const mask = this.step(pattern, above, i);
       masks[i] = mask;
       stamps[i] = stamp;
-      if (mask & accept) return i;
+      if (mask & accept) {
+        if (each === undefined) return i;
+        each(i);
+      }
       if (mask === 0) i += count[i] - 1; // nothing below can match
     }
     return -1;
@@ -302,12 +313,14 @@ function closure(pattern: Pattern, mask: number): number {
 
 /**
  * A query as path steps (a plain word is `**` then `*word*`, a name pattern `**` then itself), or null
- * for the empty query. A `~` not followed by 0 or 1 is FOCUS_SYNTAX, as in a focus path.
+ * for the empty query. A trailing `/` is dropped: it starts the level the user is about to type. A `~` not followed by 0 or 1 is FOCUS_SYNTAX, as in a focus path.
  */
 export function compilePattern(query: string): Pattern | null {
-  if (query === "") return null;
-  const path = query.includes("/");
-  const raw = path ? splitPath(query) : ["**", query.includes("*") ? query : `*${query}*`];
+  // A trailing "/" is the next level about to be typed: until it is, the query is what comes before.
+  const text = query.length > 1 && query.endsWith("/") ? query.slice(0, -1) : query;
+  if (text === "" || text === "/") return null;
+  const path = text.includes("/");
+  const raw = path ? splitPath(text) : ["**", text.includes("*") ? text : `*${text}*`];
   if (raw.length > MAX_STEPS)
     throw new EspalierError("FOCUS_SYNTAX", `a pattern may have at most ${MAX_STEPS} levels`);
   const steps = raw.map((segment): Step => {
@@ -335,7 +348,7 @@ export function compilePattern(query: string): Pattern | null {
     }
   }
   // "*" and "**" (every node) need no test; "*" under a path (a/*) does.
-  return { query, all: all && !path, literal, anchor, steps };
+  return { query: text, all: all && !path, literal, anchor, steps };
 }
 
 function lowerAscii(text: string): string {

@@ -104,7 +104,6 @@ export function summarySession(prepared: Prepared, look: LookOptions): Session {
       const groups = lineOf.map((g) => g.nodes.map((n) => n.index));
       const lines = lineOf.map((g) => layoutLine(lineParts(g, numbers), { width, palette: look.palette }));
       return fitted(
-        tree,
         lines,
         groups,
         result.selection,
@@ -150,13 +149,12 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
       ];
       const groups = [[], ...lineOf.map((g) => g.nodes.map((n) => n.index))];
       const order = diffOrder(tree, measures, result.scores, changeMeasures);
-      return fitted(tree, lines, groups, result.selection, order, DIFF_HEADER_LINES, result.view);
+      return fitted(lines, groups, result.selection, order, DIFF_HEADER_LINES, result.view);
     }),
   };
 }
 
 function fitted(
-  tree: Tree,
   lines: string[],
   groups: number[][],
   selection: Selection,
@@ -165,9 +163,7 @@ function fitted(
   view: Fitted["view"],
 ): Fitted {
   const shown = Int32Array.from(selection.admitted).sort();
-  const isShown = new Uint8Array(tree.length);
-  for (const i of shown) isShown[i] = 1;
-  return { lines, groups, shown, isShown, order, selection, headerLines, view };
+  return { lines, groups, shown, isShown: selection.shown, order, selection, headerLines, view };
 }
 
 function namesFor(tree: Tree, index: PathIndex, key: string | undefined) {

@@ -1,7 +1,11 @@
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import { JsonLoader } from "./json/json-loader.js";
+import { JsonPathMapLoader } from "./json/json-path-map-loader.js";
+import { sampleJson } from "./json/json-sample.js";
+import { JsonValueLoader } from "./json/json-value-loader.js";
 import type { InputFormat, LoadOptions } from "./load-options.js";
 import { PathListReader } from "./path-list/path-list-reader.js";
+import { chooseReading } from "./shape/choose-reading.js";
 
 /** A loader fed UTF-8 bytes, whole or in chunks cut anywhere, synchronously. */
 export interface ByteLoader {
@@ -12,14 +16,34 @@ export interface ByteLoader {
 
 /**
  * The byte loader for `format`, or undefined for the formats read another way (CSV and TSV through
- * their record reader, YAML as text). JSON and rows are one loader: a detected format is a guess from
- * the first bytes, so unless `options.format` forces one, the input itself decides.
+ * their record reader, YAML as text). `head` is the start of the input (at least its first 64 KiB, when
+ * it has them): JSON is read as {@link chooseReading} decides from a sample of it, as nodes (with the
+ * configured or a found children field), values, rows or a map keyed by path. Rows and nodes are one
+ * loader: unless `options.format` forces one, the first element decides.
  */
-export function byteLoader(format: InputFormat, options: LoadOptions): ByteLoader | undefined {
+export function byteLoader(
+  format: InputFormat,
+  options: LoadOptions,
+  head: Uint8Array,
+): ByteLoader | undefined {
   switch (format) {
     case "json":
-    case "rows":
-      return new JsonLoader(options, options.format === undefined ? undefined : format);
+    case "rows": {
+      const as = options.format === undefined ? undefined : format;
+      if (as === "rows") return new JsonLoader(options, as);
+      const reading = chooseReading(sampleJson(head), options);
+      switch (reading.kind) {
+        case "values":
+          return new JsonValueLoader(options);
+        case "path-map":
+          return new JsonPathMapLoader(options, reading.field);
+        case "rows":
+          return new JsonLoader(options, as);
+        case "nodes":
+          return new JsonLoader({ ...options, childrenField: reading.childrenField }, as, reading.found);
+      }
+      break;
+    }
     case "paths":
       return new PathListReader(options);
     default:

@@ -31,18 +31,38 @@ export function detectFormat(
   if (first === -1) throw new EspalierError("INPUT_EMPTY", "the input is empty", file ? { file } : undefined);
   const name = file && file !== "-" ? file.toLowerCase() : "";
   if (name.endsWith(".json")) return jsonKind(body, first, fields);
-  for (const [extension, format] of byExtension) if (name.endsWith(extension)) return format;
+  for (const [extension, format] of byExtension) {
+    if (!name.endsWith(extension)) continue;
+    // A tab-separated listing of sizes and paths (find -printf '%s\t%P\n' saved as .tsv) is a path list.
+    if (format === "tsv" && !isHeader(firstLineOf(body, first), "\t", fields) && isSizedPath(body, first))
+      return "paths";
+    return format;
+  }
 
   if (body[first] === "{" || body[first] === "[") return jsonKind(body, first, fields);
-  const lineEnd = body.indexOf("\n");
-  const firstLine = body.slice(0, lineEnd === -1 ? body.length : lineEnd).replace(/\r$/, "");
-  const names = [fields.idField, fields.parentField, fields.pathField];
-  const header = (delimiter: string) =>
-    firstLine.split(delimiter).some((cell) => names.includes(cell.trim().replace(/^"(.*)"$/, "$1")));
-  if (firstLine.includes("\t") && header("\t")) return "tsv";
-  if (firstLine.includes(",") && header(",")) return "csv";
+  const firstLine = firstLineOf(body, 0);
+  if (firstLine.includes("\t") && isHeader(firstLine, "\t", fields)) return "tsv";
+  if (firstLine.includes(",") && isHeader(firstLine, ",", fields)) return "csv";
   if (looksLikeYaml(body)) return "yaml";
   return "paths";
+}
+
+/** The line that holds offset `at`, without its line end. */
+function firstLineOf(body: string, at: number): string {
+  const start = body.lastIndexOf("\n", at) + 1;
+  const end = body.indexOf("\n", at);
+  return body.slice(start, end === -1 ? body.length : end).replace(/\r$/, "");
+}
+
+/** Whether a line's cells name the id, parent or path field (a table's header). */
+function isHeader(line: string, delimiter: string, fields: FieldNames): boolean {
+  const names = [fields.idField, fields.parentField, fields.pathField];
+  return line.split(delimiter).some((cell) => names.includes(cell.trim().replace(/^"(.*)"$/, "$1")));
+}
+
+/** Whether the first non-blank line, at `first`, is a size, a tab and a path (or nothing: the root). */
+function isSizedPath(body: string, first: number): boolean {
+  return /^\s*\d+(?:\.\d+)?\t/.test(firstLineOf(body, first));
 }
 
 /** "rows" when the first element of a top-level array is a flat record with the id, parent or path field. */

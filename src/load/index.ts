@@ -36,7 +36,7 @@ export function loadTree(text: string, options: LoadOptions): Tree {
 function linkedNodes(body: string, format: InputFormat, options: LoadOptions): LinkedNodes {
   if (format === "yaml") return loadYaml(body, options);
   const bytes = Buffer.from(body, "utf8");
-  const loader = byteLoader(format, options);
+  const loader = byteLoader(format, options, bytes);
   if (loader) {
     loader.write(bytes);
     return loader.end();

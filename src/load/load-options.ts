@@ -30,6 +30,19 @@ export interface LoadOptions {
   maxNodes: number;
   /** Lower limits of reading than `readLimits` (see read-limits.ts); tests and the fuzzer use tiny ones. */
   limits?: Partial<ReadLimits>;
+  /**
+   * JSON and YAML: `nodes` reads node objects (children under the children field, or a field found to
+   * hold them), `values` makes every value of the document a node; undefined chooses by the document
+   * (src/load/shape/choose-reading.ts).
+   */
+  readAs?: "nodes" | "values";
+  /**
+   * The children field was named on purpose: never look for another one (nor for a map keyed by path)
+   * when it is absent. A children field other than the default counts as named.
+   */
+  childrenFieldNamed?: boolean;
+  /** Path lists: entries end with a NUL byte, not a line break (`find -print0`, `git ls-files -z`). */
+  nulSeparated?: boolean;
 }
 
 export const defaultLoadOptions: LoadOptions = {

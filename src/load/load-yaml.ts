@@ -7,12 +7,19 @@ import {
   LineCounter,
   type Node,
   parseDocument,
+  Scalar,
   visit,
+  type YAMLMap,
 } from "yaml";
 import { EspalierError, quoted, say } from "../errors.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { LoadOptions } from "./load-options.js";
+import { chooseReading } from "./shape/choose-reading.js";
+import { sampleNested } from "./shape/sample-nested.js";
+import { linkPathMap, linkTable } from "./table/link-table.js";
+import { rowsTable } from "./table/rows-table.js";
 import { Kind, type NestedAccess, walkNested } from "./walk-nested.js";
+import { yamlValues } from "./yaml-values.js";
 
 type YamlValue = Node | null;
 
@@ -71,6 +78,49 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
   const deref = (v: YamlValue | undefined): YamlValue => (isAlias(v) ? (target.get(v) ?? null) : (v ?? null));
   const placed = new Set<Node>();
 
+  // Merge keys (`<<: *base`, the YAML 1.1 merge type, yaml.org/type/merge.html): a mapping's own keys
+  // come first; then each merged mapping's keys it does not have, earlier mappings in a sequence of
+  // them before later ones, merged mappings' own merges included.
+  const mergedOf = (map: YAMLMap): YamlValue[] => {
+    const sources: YamlValue[] = [];
+    for (const pair of map.items) {
+      if (!isMergeKey(pair.key)) continue;
+      const value = deref(pair.value as YamlValue);
+      if (isSeq(value)) for (const item of value.items) sources.push(deref(item as YamlValue));
+      else sources.push(value);
+    }
+    return sources;
+  };
+  const fieldOf = (map: YamlValue, key: string, depth: number): YamlValue | undefined => {
+    if (!isMap(map) || depth > MAX_MERGE_DEPTH) return undefined;
+    for (const pair of map.items)
+      if (!isMergeKey(pair.key) && keyText(pair.key) === key) return pair.value as YamlValue;
+    for (const source of mergedOf(map)) {
+      const found = fieldOf(source, key, depth + 1);
+      if (found !== undefined) return found;
+    }
+    return undefined;
+  };
+  const entriesOf = (
+    map: YamlValue,
+    keys: string[],
+    values: YamlValue[],
+    seen: Set<string>,
+    depth: number,
+  ) => {
+    if (!isMap(map) || depth > MAX_MERGE_DEPTH) return;
+    for (const pair of map.items) {
+      if (isMergeKey(pair.key)) continue;
+      const key = keyText(pair.key);
+      // Within one mapping a repeated key is a parse error (uniqueKeys), so `seen` only skips merged ones.
+      if (depth > 0 && seen.has(key)) continue;
+      seen.add(key);
+      keys.push(key);
+      values.push(pair.value as YamlValue);
+    }
+    for (const source of mergedOf(map)) entriesOf(source, keys, values, seen, depth + 1);
+  };
+
   const access: NestedAccess<YamlValue> = {
     kind(value) {
       const v = deref(value);
@@ -91,22 +141,15 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
       }
     },
     field(value, key) {
-      const map = deref(value);
-      if (!isMap(map)) return undefined;
-      for (const pair of map.items) if (keyText(pair.key) === key) return pair.value as YamlValue;
-      return undefined;
+      return fieldOf(deref(value), key, 0);
     },
     items(value) {
       const seq = deref(value);
       return isSeq(seq) ? (seq.items as YamlValue[]) : [];
     },
     entries(value, keys, values) {
-      const map = deref(value);
-      if (!isMap(map)) return;
-      for (const pair of map.items) {
-        keys.push(keyText(pair.key));
-        values.push(pair.value as YamlValue);
-      }
+      const seen = new Set<string>();
+      entriesOf(deref(value), keys, values, seen, 0);
     },
     number(value) {
       const v = deref(value);
@@ -135,7 +178,69 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
       return true;
     },
   };
-  return walkNested<YamlValue>(root, access, options);
+  const reading = chooseReading(sampleNested<YamlValue>(root, access), options);
+  switch (reading.kind) {
+    case "values":
+      return yamlValues(root as Node, text, lineCounter, options);
+    case "rows": {
+      const items = access.items(root);
+      return linkTable(rowsTable(items.map((item) => recordOf(item, access))), options, "rows");
+    }
+    case "path-map": {
+      const map = reading.field === "" ? root : (access.field(root, reading.field) ?? null);
+      const keys: string[] = [];
+      const values: YamlValue[] = [];
+      access.entries(map, keys, values);
+      return linkPathMap(
+        keys,
+        values.map((value) => recordOf(value, access)),
+        options,
+        reading.field,
+      );
+    }
+    case "nodes":
+      return walkNested<YamlValue>(
+        root,
+        access,
+        { ...options, childrenField: reading.childrenField },
+        reading.found,
+      );
+  }
+}
+
+/**
+ * A mapping as a plain record for a table: scalars as their values, nested values as empty objects
+ * (a table reads only plain values; reading such a field is an error there, not a silent blank).
+ */
+function recordOf(value: YamlValue, access: NestedAccess<YamlValue>): Record<string, unknown> {
+  const record: Record<string, unknown> = {};
+  if (access.kind(value) !== Kind.Map) return record;
+  const keys: string[] = [];
+  const values: YamlValue[] = [];
+  access.entries(value, keys, values);
+  keys.forEach((key, k) => {
+    const v = values[k];
+    const kind = access.kind(v);
+    record[key] =
+      kind === Kind.Number
+        ? access.number(v)
+        : kind === Kind.String || kind === Kind.Boolean
+          ? access.text(v)
+          : kind === Kind.Null
+            ? null
+            : {};
+  });
+  return record;
+}
+
+/** How deep merges may nest (a merge of a mapping that merges one, …); deeper ones are not followed. */
+const MAX_MERGE_DEPTH = 64;
+
+/** Whether a mapping key is the merge key: `<<` written plain (a quoted "<<" is an ordinary key). */
+function isMergeKey(key: unknown): boolean {
+  if (!isScalar(key) || (key.type !== undefined && key.type !== Scalar.PLAIN)) return false;
+  const value = key.value;
+  return value === "<<" || (typeof value === "symbol" && value.description === "<<");
 }
 
 /** A mapping key as text: a scalar's value ("" for null), else the key as written. */

@@ -1,6 +1,7 @@
 import { EspalierError } from "../errors.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import { NamePool } from "../model/names.js";
+import type { TreeReading } from "../model/tree.js";
 
 /**
  * Growable flat arrays that a loader appends nodes to, in any order, each linked to its parent by index.
@@ -55,9 +56,15 @@ export class NodeSink {
   }
 
   /** The nodes so far, ready for `buildTree`. */
-  finish(rootName: string, fields: Map<string, string[]>, ids: string[] | null = null): LinkedNodes {
+  finish(
+    rootName: string,
+    fields: Map<string, string[]>,
+    ids: string[] | null = null,
+    reading?: TreeReading,
+  ): LinkedNodes {
     const n = this.length;
     return {
+      ...(reading ? { reading } : {}),
       parentOf: this.parentOf.subarray(0, n),
       name: this.name,
       ownSize: this.ownSize.subarray(0, n),

@@ -39,6 +39,7 @@ export class PathPlacer {
   private stackNode = new Int32Array(64);
   private stackEnd = new Int32Array(64);
   private stackDepth = 0;
+  private root = -1;
 
   // For paths given as text: two buffers taking turns, so the previous path's bytes stay as they are.
   private scratch = [Buffer.allocUnsafe(256), Buffer.allocUnsafe(256)];
@@ -49,6 +50,36 @@ export class PathPlacer {
   constructor(sink: NodeSink, ownKeys = false) {
     this.sink = sink;
     this.keys = ownKeys ? new NamePool() : sink.name;
+  }
+
+  /**
+   * The root, named by an empty path at `origin` (a listing's start, a lock file's `""`): a node of its
+   * own, empty-named until the caller names it, that every top-level node goes below in
+   * {@link adoptTopLevel}. A second empty path is DUPLICATE_PATH.
+   */
+  placeRoot(origin: number): number {
+    const sink = this.sink;
+    if (this.root !== -1) {
+      const unit = sink.originIsRow ? "row" : "line";
+      throw new EspalierError(
+        "DUPLICATE_PATH",
+        `${unit} ${origin} repeats the empty path (the root) of ${unit} ${sink.origin[this.root]}`,
+        sink.originIsRow ? { row: origin } : { line: origin },
+      );
+    }
+    this.root = sink.add(-1, "", origin);
+    if (this.keys !== sink.name) this.keys.setString(this.root, "");
+    return this.root;
+  }
+
+  /** Once every path is placed: puts the top-level nodes below the root, if one was named; the root or -1. */
+  adoptTopLevel(): number {
+    const { root, sink } = this;
+    if (root !== -1) {
+      const { parentOf } = sink;
+      for (let i = 0; i < sink.length; i++) if (parentOf[i] === -1 && i !== root) parentOf[i] = root;
+    }
+    return root;
   }
 
   /** As {@link place}, for the path `text` (as UTF-8: a lone surrogate becomes U+FFFD). */

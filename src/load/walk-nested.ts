@@ -4,6 +4,7 @@ import { isSize } from "../model/size-rule.js";
 import { describeNode } from "./describe-node.js";
 import type { LoadOptions } from "./load-options.js";
 import { NodeSink } from "./node-sink.js";
+import { fieldSizeUnit } from "./size-unit.js";
 
 /** What a value in a parsed document is, as far as the walker cares. */
 export const Kind = { Null: 0, Number: 1, String: 2, Boolean: 3, Seq: 4, Map: 5, Other: 6 } as const;
@@ -36,7 +37,12 @@ export interface NestedAccess<V> {
  * object, a number (a leaf of that size) or null (a leaf). Nodes are numbered as they are discovered
  * (siblings in input order), so the walk is a loop over that numbering, with no recursion.
  */
-export function walkNested<V>(root: V, access: NestedAccess<V>, options: LoadOptions): LinkedNodes {
+export function walkNested<V>(
+  root: V,
+  access: NestedAccess<V>,
+  options: LoadOptions,
+  found = false,
+): LinkedNodes {
   const { nameField, sizeField, childrenField, keepFields } = options;
   const sink = new NodeSink(options.maxNodes, false);
   const pending: (V | undefined)[] = [];
@@ -171,7 +177,36 @@ export function walkNested<V>(root: V, access: NestedAccess<V>, options: LoadOpt
     }
     fields.set(keepFields[f], kept[f]);
   }
-  return sink.finish(options.rootName, fields);
+  if (sink.length === 1 && rootKind === Kind.Map) {
+    // One node, from a top-level mapping that holds more than that node: say so, never print one line.
+    keys.length = 0;
+    values.length = 0;
+    access.entries(root, keys, values);
+    const nested = keys.filter((key, k) => {
+      if (key === childrenField || key === nameField || key === sizeField || keepFields.includes(key))
+        return false;
+      const kind = access.kind(values[k]);
+      return kind === Kind.Map || kind === Kind.Seq;
+    });
+    if (nested.length > 0) {
+      const names = nested
+        .slice(0, 12)
+        .map((name) => JSON.stringify(name))
+        .join(", ");
+      throw new EspalierError(
+        "FIELD_MISSING",
+        `no node has the children field "${childrenField}", so the input would be one node; ` +
+          `the top-level mapping's fields holding mappings or sequences are ${names}: ` +
+          "name the one holding the children with --children-field, or read every value with --read-as values",
+      );
+    }
+  }
+  return sink.finish(options.rootName, fields, null, {
+    shape: "nodes",
+    sizeUnit: fieldSizeUnit(options.sizeField),
+    childrenField,
+    ...(found ? { childrenFieldFound: true } : {}),
+  });
 }
 
 function badSize(shown: MessagePart, where: MessagePart[], pos: SourcePos | undefined): EspalierError {

@@ -96,6 +96,7 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
     originIsRow: input.originIsRow,
     fields,
     syntheticRoot: synthetic,
+    ...(input.reading ? { reading: input.reading } : {}),
   };
 }
 
@@ -161,6 +162,7 @@ function inPreOrder(input: PooledNodes): Tree | null {
     originIsRow: input.originIsRow,
     fields,
     syntheticRoot: shift === 1,
+    ...(input.reading ? { reading: input.reading } : {}),
   };
 }
 

@@ -1,4 +1,5 @@
 import type { NamePool } from "./names.js";
+import type { TreeReading } from "./tree.js";
 
 /** Nodes as a loader found them: any order, each linked to its parent by index. */
 export interface LinkedNodes {
@@ -16,4 +17,6 @@ export interface LinkedNodes {
   fields: Map<string, string[]>;
   /** Name of the root espalier adds when there are several top-level nodes (or none). */
   rootName: string;
+  /** How the loader read the input. */
+  reading?: TreeReading;
 }

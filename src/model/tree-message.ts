@@ -1,5 +1,5 @@
 import { NamePool, type NamePoolParts, type Names, StringNames } from "./names.js";
-import type { Tree } from "./tree.js";
+import type { Tree, TreeReading } from "./tree.js";
 
 /**
  * A {@link Tree} as plain data that a worker thread can post. Structured clone copies the arrays
@@ -17,6 +17,7 @@ export interface TreeMessage {
   originIsRow: boolean;
   fields: [string, readonly string[]][];
   syntheticRoot: boolean;
+  reading?: TreeReading;
 }
 
 type NamesMessage = { pool: NamePoolParts } | { strings: string[] };

@@ -27,4 +27,23 @@ export interface Tree {
   readonly fields: ReadonlyMap<string, readonly string[]>;
   /** Whether node 0 was added by espalier to join several top-level nodes. */
   readonly syntheticRoot: boolean;
+  /** How the loader read the input, when a loader says (trees built otherwise may leave it out). */
+  readonly reading?: TreeReading;
+}
+
+/** How an input was read: what a reader of the output needs to know to trust the numbers. */
+export interface TreeReading {
+  /**
+   * `nodes`: node objects (nested JSON/YAML); `values`: every value of a JSON/YAML document a node;
+   * `path-map`: an object keyed by path; `rows`: JSON rows; `table`: CSV/TSV; `paths`: a path list.
+   */
+  readonly shape: "nodes" | "values" | "path-map" | "rows" | "table" | "paths";
+  /** What sizes count: bytes (file sizes, a document's bytes, a field marked as bytes) or plain numbers. */
+  readonly sizeUnit: "bytes" | "number";
+  /** Nested JSON/YAML: the field children were read from. */
+  readonly childrenField?: string;
+  /** Whether espalier chose `childrenField` because the configured one was absent. */
+  readonly childrenFieldFound?: boolean;
+  /** A map keyed by path: the field of the top-level object that holds it ("" for the top level). */
+  readonly pathMapField?: string;
 }

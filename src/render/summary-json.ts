@@ -1,4 +1,5 @@
 import type { HierarchyNode } from "d3-hierarchy";
+import type { TreeReading } from "../model/tree.js";
 import type { ViewNode } from "../view/view-node.js";
 import { jsonNodeFields } from "./json-node.js";
 import { jsonText } from "./json-text.js";
@@ -11,6 +12,8 @@ export interface JsonOptions {
   foci: string[];
   /** Include each node's label (when a label template is in use). */
   labels: boolean;
+  /** How the input was read, when known (the tree's `reading`). */
+  input?: TreeReading;
 }
 
 /** The summary JSON object (see docs/summary.schema.json). Iterative: any depth of view is fine. */
@@ -27,6 +30,7 @@ export function toSummary(view: HierarchyNode<ViewNode>, options: JsonOptions): 
     lines: options.lines,
     totals: { nodes: view.data.nodes, size: view.data.size },
     foci: options.foci,
+    ...(options.input ? { input: { ...options.input } } : {}),
     root,
   };
 }

@@ -50,6 +50,25 @@ export const summaryNodeSchema: z.ZodType<SummaryNode> = z.lazy(() =>
     .strict(),
 );
 
+/** How the input was read (src/model/tree.ts TreeReading). */
+export const inputReadingSchema = z
+  .object({
+    shape: z
+      .enum(["nodes", "values", "path-map", "rows", "table", "paths"])
+      .describe(
+        "nodes: node objects; values: every value of a JSON/YAML document; path-map: an object keyed by path; rows: JSON rows; table: CSV/TSV; paths: a path list.",
+      ),
+    sizeUnit: z.enum(["bytes", "number"]).describe("What sizes count: bytes, or plain numbers."),
+    childrenField: z.string().optional().describe("Nested input: the field children were read from."),
+    childrenFieldFound: z
+      .boolean()
+      .optional()
+      .describe("Whether espalier chose childrenField because the configured field was absent."),
+    pathMapField: z.string().optional().describe("A map keyed by path: the field holding it."),
+  })
+  .strict()
+  .describe("How the input was read.");
+
 export const summarySchema = z
   .object({
     format: z.literal(SUMMARY_FORMAT),
@@ -57,6 +76,7 @@ export const summarySchema = z
     lines: z.number().int().nonnegative().describe("Lines the text rendering of this selection takes."),
     totals: z.object({ nodes: z.number().int().positive(), size: z.number() }).strict(),
     foci: z.array(z.string()).describe("Paths of the focus nodes."),
+    input: inputReadingSchema.optional(),
     root: summaryNodeSchema,
   })
   .strict()

@@ -1,5 +1,5 @@
 import { spawnSync } from "node:child_process";
-import { mkdtempSync, readFileSync } from "node:fs";
+import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { readFile } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
@@ -208,5 +208,46 @@ describe("espalier explore", () => {
     }
     expect(out.text).toContain("--pseudonymize");
     expect(out.text).toMatch(/--focus anon-[0-9a-f]{12}\//);
+  });
+  it("explores a diff: the changes score as foci, n steps through them, p prints espalier diff", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "espalier-explore-diff-"));
+    const oldFile = join(dir, "old.json");
+    const newFile = join(dir, "new.json");
+    writeFileSync(
+      oldFile,
+      JSON.stringify({
+        name: "r",
+        children: [
+          { name: "a", children: [{ name: "a1" }, { name: "a2" }] },
+          { name: "b", children: [{ name: "b1" }] },
+        ],
+      }),
+    );
+    writeFileSync(
+      newFile,
+      JSON.stringify({
+        name: "r",
+        children: [
+          { name: "a", children: [{ name: "a1" }] },
+          { name: "b", children: [{ name: "b1" }, { name: "b2" }] },
+        ],
+      }),
+    );
+    const terminal = new FakeTerminal(["n", "n", "p"], 12, 60);
+    const out = await exploreCommand(
+      oldFile,
+      newFile,
+      options({ parentField: "parent", sizeField: "size" }),
+      io(),
+      { terminal },
+    );
+    // The first frame: the totals line, then the tree with both changes shown.
+    const frames = terminal.written.split(HOME);
+    const first = frames[1].split("\r\n").map((row) => row.split(ERASE_LINE)[0]);
+    expect(first[0]).toMatch(/^ {2}matched by path: 1 added, 1 removed/);
+    expect(first.join("\n")).toContain("[removed] a2");
+    expect(first.join("\n")).toContain("[added] b2");
+    // n went to the first change (a2, removed), then the next (b2, added): the view ends focused on b2.
+    expect(out.text).toBe(`espalier diff ${oldFile} ${newFile} --focus b/b2 --budget 11\n`);
   });
 });

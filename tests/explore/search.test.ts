@@ -77,6 +77,9 @@ describe("NameSearch.find(query)", () => {
       }
     }
     expect(compilePattern("**/a~0")).not.toBeNull();
+    // A trailing "/" waits for the next level: "a/" searches as "a" until more is typed.
+    expect(compilePattern("services/")?.query).toBe("services");
+    expect(compilePattern("/")).toBeNull();
   });
 
   it("finds the next and previous match from any node, and counts matches in any range of nodes", () => {

@@ -49,6 +49,16 @@ describe("detectFormat(text, file)", () => {
     expect(detectFormat("a,b\n", "notes.md")).toBe("paths");
   });
 
+  it("detectFormat(text, file) reads a .tsv of sizes and paths as a path list, a .tsv with a header as a table", () => {
+    // find DIR -printf '%s\t%P\n' saved as .tsv: the first line is the start, an empty path.
+    expect(detectFormat("4096\t\n12\tsrc/a.ts\n", "listing.tsv")).toBe("paths");
+    expect(detectFormat("12\tsrc/a.ts\n", "listing.TSV")).toBe("paths");
+    expect(detectFormat("path\tsize\nsrc/a.ts\t12\n", "files.tsv")).toBe("tsv");
+    expect(detectFormat("id\tparent\n1\t\n", "org.tsv")).toBe("tsv");
+    // Neither: a table, whose FIELD_MISSING names --input-format paths (tests/load/table).
+    expect(detectFormat("a\tb\n", "odd.tsv")).toBe("tsv");
+  });
+
   it("detectFormat(text, file) rejects empty or whitespace-only text as INPUT_EMPTY", () => {
     expect(caught(() => detectFormat("", undefined)).code).toBe("INPUT_EMPTY");
     expect(caught(() => detectFormat("\ufeff \r\n\t", "a.json")).code).toBe("INPUT_EMPTY");

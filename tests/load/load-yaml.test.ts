@@ -98,3 +98,56 @@ describe("loadTree(yaml)", () => {
     expect(error.pos?.line).toBe(1);
   });
 });
+
+describe("loadTree(yaml) merge keys", () => {
+  // The YAML 1.1 merge type (yaml.org/type/merge.html, from memory): a mapping's own keys override
+  // merged ones; in a sequence of merged mappings, earlier ones override later ones.
+  it("loadTree(yaml) applies `<<: *base`: a merged size and name are the node's, its own keys win", () => {
+    const text = [
+      "defaults: &base",
+      "  size: 10",
+      "  owner: tidewater",
+      "name: root",
+      "children:",
+      "  - name: a",
+      "    <<: *base",
+      "  - name: b",
+      "    <<: *base",
+      "    size: 3",
+      "",
+    ].join("\n");
+    const tree = yaml(text, { keepFields: ["owner"] });
+    expect(outline(tree)).toEqual(["root 0", "  a 10", "  b 3"]);
+    expect(tree.fields.get("owner")).toEqual(["", "tidewater", "tidewater"]);
+  });
+
+  it("loadTree(yaml) merges a sequence of mappings, earlier ones first, and merges within merges", () => {
+    const text = [
+      "one: &one {size: 1}",
+      "two: &two {size: 2, name: from-two}",
+      "three: &three {<<: *two, owner: q}",
+      "name: r",
+      "children:",
+      "  - {<<: [*one, *two]}",
+      "  - {<<: [*three]}",
+      "  - {'<<': *one, name: quoted}",
+      "",
+    ].join("\n");
+    const tree = yaml(text, { keepFields: ["owner"] });
+    expect(outline(tree)).toEqual(["r 0", "  from-two 1", "  from-two 2", "  quoted 0"]);
+    expect(tree.fields.get("owner")).toEqual(["", "", "q", ""]);
+  });
+
+  it("loadTree(yaml) takes children keyed by name from a merged mapping too", () => {
+    const text = [
+      "common: &common",
+      "  lint: 4",
+      "name: ci",
+      "children:",
+      "  <<: *common",
+      "  test: 7",
+      "",
+    ].join("\n");
+    expect(outline(yaml(text))).toEqual(["ci 0", "  test 7", "  lint 4"]);
+  });
+});

@@ -120,3 +120,56 @@ describe.skipIf(!gnuTools)("loadTree(find -printf '%s\\t%p\\n' output, paths) ag
     }
   });
 });
+
+describe.skipIf(!gnuTools)(
+  "loadTree(find listings as engineers save them) against du -sb --apparent-size",
+  () => {
+    /** `du -sb --apparent-size DIR`: the whole folder's apparent size in bytes. */
+    const duTotal = (dir: string) =>
+      Number(execFileSync("du", ["-sb", "--apparent-size", dir], { encoding: "utf8" }).split("\t")[0]);
+    const total = (tree: Tree) => measure(tree).size[0];
+
+    it("reads -printf '%s\\t%P\\n' saved as .tsv: the empty path is the root, its size du's total", () => {
+      const top = join(base, "tree-root");
+      const listing = execFileSync("find", [top, "-printf", "%s\\t%P\\n"], { encoding: "utf8" });
+      // GNU find prints the starting point first, with %P empty (find(1), -printf %P).
+      expect(listing.startsWith(`${listing.split("\t")[0]}\t\n`)).toBe(true);
+      const tree = loadTree(listing, { ...defaultLoadOptions, file: "listing.tsv", rootName: "listing.tsv" });
+      expect(tree.reading?.shape).toBe("paths");
+      expect(tree.syntheticRoot).toBe(false);
+      expect(tree.length).toBe(listing.split("\n").length - 1);
+      expect(total(tree)).toBe(duTotal(top));
+    });
+
+    it("reads absolute paths under one root named /", () => {
+      const top = join(base, "tree-root");
+      const listing = execFileSync("find", [top, "-printf", "%s\\t%p\\n"], { encoding: "utf8" });
+      const tree = loadTree(listing, { ...defaultLoadOptions, format: "paths" });
+      expect(tree.name.get(0)).toBe("/");
+      const i = findByPath(tree, measure(tree), top.split("/").slice(1));
+      expect(measure(tree).size[i]).toBe(duTotal(top));
+    });
+
+    it("reads -printf '%s\\t%P\\0' with nulSeparated, names holding line breaks included", () => {
+      const top = join(base, "nul-root");
+      mkdirSync(join(top, "two\nlines"), { recursive: true });
+      writeFileSync(join(top, "two\nlines", "a\r.txt"), "abc");
+      writeFileSync(join(top, "plain.txt"), "x".repeat(99));
+      const listing = execFileSync("find", [top, "-printf", "%s\\t%P\\0"], { encoding: "utf8" });
+      const tree = loadTree(listing, { ...defaultLoadOptions, format: "paths", nulSeparated: true });
+      expect(tree.length).toBe(4);
+      const m = measure(tree);
+      expect(m.size[findByPath(tree, m, ["two\nlines", "a\r.txt"])]).toBe(3);
+      expect(m.size[0]).toBe(duTotal(top));
+    });
+
+    it("reads a JSON document as values: the root's size is the file's byte length", () => {
+      const file = join(base, "doc.json");
+      writeFileSync(file, `${JSON.stringify({ tide: [1, 2, { 潮: "ü" }], q: null }, null, 2)}\n`);
+      const text = execFileSync("cat", [file], { encoding: "utf8" });
+      const tree = loadTree(text, { ...defaultLoadOptions, file: "doc.json" });
+      expect(tree.reading?.shape).toBe("values");
+      expect(total(tree)).toBe(duTotal(file));
+    });
+  },
+);

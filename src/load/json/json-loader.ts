@@ -6,6 +6,7 @@ import { describeNode } from "../describe-node.js";
 import type { LoadOptions } from "../load-options.js";
 import { NodeSink } from "../node-sink.js";
 import { limitsOf } from "../read-limits.js";
+import { fieldSizeUnit } from "../size-unit.js";
 import { linkTable } from "../table/link-table.js";
 import { rowsTable } from "../table/rows-table.js";
 import { JsonTokenizer, NUL, numberValue, TRUE } from "./json-tokenizer.js";
@@ -110,6 +111,11 @@ export class JsonLoader extends JsonTokenizer {
   private readonly probe: RowsProbe;
   private readonly rows: unknown[] = [];
   private readonly captures: Captures;
+  private readonly found: boolean;
+  // The top-level node object's last key, and its fields holding an object or array that are not its
+  // children (a lone root with these is not what the input holds: see `end`).
+  private rootKey = "";
+  private readonly rootContainers: string[] = [];
 
   // What the next value is for, and what each open container is.
   private slot = S_TOP;
@@ -118,13 +124,15 @@ export class JsonLoader extends JsonTokenizer {
   private role = new Uint8Array(64);
   private readonly frames: Frame[] = [];
 
-  constructor(options: LoadOptions, as?: "json" | "rows") {
+  /** `found`: espalier chose `options.childrenField` (the configured one was absent). */
+  constructor(options: LoadOptions, as?: "json" | "rows", found = false) {
     super();
     this.options = options;
     const limits = limitsOf(options.limits);
     this.maxTokenBytes = limits.maxTokenBytes;
     this.maxDepth = limits.maxJsonDepth;
     this.captures = new Captures(limits.maxTokenBytes);
+    this.found = found;
     this.probe = new RowsProbe(as);
     this.sink = new NodeSink(options.maxNodes, false);
     this.kept = options.keepFields.map(() => []);
@@ -146,9 +154,10 @@ export class JsonLoader extends JsonTokenizer {
   /** Ends the input; the nodes, ready for `buildTree`. */
   end(): LinkedNodes {
     this.endTokens();
-    if (this.probe.rows) return linkTable(rowsTable(this.rows), this.options);
+    if (this.probe.rows) return linkTable(rowsTable(this.rows), this.options, "rows");
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the top-level array holds no nodes");
+    if (sink.length === 1 && this.rootContainers.length > 0) throw this.loneRoot();
     for (let i = 0; i < sink.length && !sink.hasSizes; i++) if (this.sized[i] === 1) sink.hasSizes = true;
     const { keepFields } = this.options;
     const fields = new Map<string, string[]>();
@@ -165,7 +174,23 @@ export class JsonLoader extends JsonTokenizer {
       }
       fields.set(keepFields[f], column as string[]);
     }
-    return sink.finish(this.options.rootName, fields);
+    return sink.finish(this.options.rootName, fields, null, {
+      shape: "nodes",
+      sizeUnit: fieldSizeUnit(this.options.sizeField),
+      childrenField: this.options.childrenField,
+      ...(this.found ? { childrenFieldFound: true } : {}),
+    });
+  }
+
+  /** FIELD_MISSING: the document would load as one node, though its top-level object holds more. */
+  private loneRoot(): EspalierError {
+    const names = this.rootContainers.map((name) => JSON.stringify(name)).join(", ");
+    return new EspalierError(
+      "FIELD_MISSING",
+      `no node has the children field "${this.options.childrenField}", so the input would be one node; ` +
+        `the top-level object's fields holding objects or arrays are ${names}: ` +
+        "name the one holding the children with --children-field, or read every value with --read-as values",
+    );
   }
 
   // ---------------------------------------------------------------------------------------------------
@@ -178,6 +203,7 @@ export class JsonLoader extends JsonTokenizer {
     if (role === NODE) {
       const fields = this.fields;
       let found = -1;
+      if (top === 0) this.rootKey = this.text(bytes, q, e, absQ);
       if (this.escaped) {
         const text = this.text(bytes, q, e, absQ);
         for (let f = 0; f < fields.length; f++) if (fields[f].text === text) found = f;
@@ -193,6 +219,11 @@ export class JsonLoader extends JsonTokenizer {
       }
       this.slot = found < 0 ? S_SKIP : S_FIELD;
       this.slotField = found;
+      if (found >= 0 && top === 1 && this.probe.undecided && (fields[found].mask & F_CHILDREN) !== 0) {
+        // The first element has children: the input is nodes, and that element need not be kept whole.
+        this.captures.open.shift();
+        this.probe.nodes();
+      }
     } else if (role === CHILD_MAP) {
       this.slotKey = this.text(bytes, q, e, absQ);
       this.slot = S_KEYED;
@@ -342,18 +373,16 @@ export class JsonLoader extends JsonTokenizer {
   protected open(i: number, object: boolean): void {
     const top = this.depth; // index of the new container
     if (top === this.role.length) this.growStack();
-    const captures = this.captures.open;
-    if (captures.length > 0 && captures[0].kind === C_PROBE && top >= 2) {
-      // A nested value in the first element: it is not a flat record, so the input is nodes.
-      captures.shift();
-      this.probe.nodes();
-    }
     let frame = this.frames[top];
     if (!frame) {
       frame = new Frame();
       this.frames[top] = frame;
     }
     const parentFrame = top > 0 ? this.frames[top - 1] : frame;
+    if (top === 1 && this.role[0] === NODE && this.rootContainers.length < 12) {
+      // Children, and the fields a node is read for (name, size, kept), are no sign of more.
+      if (this.slot !== S_FIELD) this.rootContainers.push(this.rootKey);
+    }
     let role = SKIP;
     let slot = S_SKIP;
     const column = this.pos.columnAt(this.base + i);

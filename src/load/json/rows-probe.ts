@@ -7,9 +7,9 @@ const M_UNDECIDED = 2;
 
 /**
  * Whether a JSON input is rows (a table) or nested nodes. Forced by `as`; otherwise a top-level object
- * is nodes, and a top-level array is rows when its first element is a flat record with the id, parent or
- * path field ({@link isRowsValue}), decided when that element ends, or earlier when it turns out not to
- * be flat (a nested container opens in it) or not an object.
+ * is nodes, and a top-level array is rows when its first element is a record with the id, parent or path
+ * field and no children field ({@link isRowsValue}), decided when that element ends, or earlier when it
+ * turns out to have children or not to be an object.
  */
 export class RowsProbe {
   private mode: number;

@@ -17,6 +17,10 @@ const space = 32;
  * A path list read from UTF-8 bytes, whole or in chunks: one "/"-separated path per line, blank lines
  * ignored. When the first non-blank line holds a tab, every line is "size<TAB>path" (as
  * `find -printf '%s\t%p\n'` prints); otherwise a whole line is one path. Origins are line numbers.
+ * A size with an empty path names the root (`find DIR -printf '%s\t%P\n'` prints the starting folder
+ * so): every top-level path goes below it. With `nulSeparated`, entries end with a NUL byte instead
+ * (`find -print0`, `git ls-files -z`), so a name may hold a line break; nothing is stripped but
+ * entries of nothing at all.
  *
  * No line is decoded: lines are cut, sizes parsed, each path compared with the previous one and its
  * segments hashed on the bytes themselves, and a new node's name is copied into the name pool as bytes.
@@ -37,12 +41,15 @@ export class PathListReader {
   private firstLine = 0;
   private line = 0;
   private readonly placer: PathPlacer;
+  /** The byte that ends an entry: "\n", or NUL. */
+  private readonly separator: number;
 
   constructor(options: LoadOptions) {
     this.sink = new NodeSink(options.maxNodes, false);
     this.placer = new PathPlacer(this.sink);
     this.rootName = options.rootName;
     this.maxLineBytes = limitsOf(options.limits).maxLineBytes;
+    this.separator = options.nulSeparated === true ? 0 : newline;
   }
 
   /**
@@ -54,7 +61,7 @@ export class PathListReader {
     const chunk = asBuffer(piece);
     let from = 0;
     if (this.waiting.length > 0) {
-      const first = chunk.indexOf(newline);
+      const first = chunk.indexOf(this.separator);
       if (first === -1) {
         this.wait(chunk);
         return;
@@ -66,7 +73,7 @@ export class PathListReader {
       this.waitingBytes = 0;
       from = first + 1;
     }
-    const last = chunk.lastIndexOf(newline);
+    const last = chunk.lastIndexOf(this.separator);
     if (last < from) {
       if (from < chunk.length) this.wait(chunk.subarray(from));
       return;
@@ -93,12 +100,14 @@ export class PathListReader {
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the path list names no paths");
     sink.hasSizes = this.sized === true;
-    return sink.finish(this.rootName, new Map());
+    const root = this.placer.adoptTopLevel();
+    if (root !== -1) sink.name.setString(root, this.rootName);
+    return sink.finish(this.rootName, new Map(), null, { shape: "paths", sizeUnit: "bytes" });
   }
 
   /**
-   * Reads the lines of `bytes[start, end)`, each ended by "\n" (a "\r" before it is dropped); the last
-   * line needs no "\n". The bytes are not kept past the next call, except the last path's.
+   * Reads the lines of `bytes[start, end)`, each ended by "\n" (a "\r" before it is dropped) or NUL; the
+   * last line needs no end. The bytes are not kept past the next call, except the last path's.
    */
   private lines(bytes: Buffer, start: number, end: number): void {
     if (!isUtf8(bytes.subarray(start, end))) {
@@ -107,8 +116,9 @@ export class PathListReader {
       end = bytes.length;
     }
     const view = viewOf(bytes);
+    const sep = this.separator;
     while (start < end) {
-      let stop = bytes.indexOf(newline, start);
+      let stop = bytes.indexOf(sep, start);
       if (stop === -1 || stop >= end) stop = end;
       this.one(bytes, view, start, stop);
       start = stop + 1;
@@ -119,8 +129,12 @@ export class PathListReader {
   private one(bytes: Buffer, view: DataView, start: number, end: number): void {
     const line = ++this.line;
     if (end - start > this.maxLineBytes) throw tooLong(`line ${line}`, this.maxLineBytes, { line });
-    if (end > start && bytes[end - 1] === cr) end--;
-    if (isBlank(bytes, start, end)) return;
+    if (this.separator === newline) {
+      if (end > start && bytes[end - 1] === cr) end--;
+      if (isBlank(bytes, start, end)) return;
+    } else if (end === start) {
+      return;
+    }
     let pathStart = start;
     let size = 0;
     if (this.sized === undefined) {
@@ -161,12 +175,8 @@ export class PathListReader {
       }
       pathStart = at + 1;
     }
-    const i = this.placer.place(bytes, view, pathStart, end, line);
-    if (i === -1) {
-      // The column counts UTF-16 code units, as in every other error position.
-      const column = bytes.toString("utf8", start, pathStart).length + 1;
-      throw new EspalierError("PARSE_PATHS", `line ${line} has a size but no path`, { line, column });
-    }
+    let i = this.placer.place(bytes, view, pathStart, end, line);
+    if (i === -1) i = this.placer.placeRoot(line);
     this.sink.ownSize[i] = size;
   }
 }

@@ -30,7 +30,7 @@ export async function loadTreeFromStream(
       if (start.complete && !/\S/.test(start.text))
         throw new EspalierError("INPUT_EMPTY", "the input is empty");
       const format = options.format ?? detectFormat(start.text, file, options);
-      linked = await linkedNodes(start.chunks, format, options);
+      linked = await linkedNodes(start.chunks, format, options, Buffer.from(start.text, "utf8"));
     } catch (error) {
       await start.close();
       throw error;
@@ -46,13 +46,14 @@ async function linkedNodes(
   chunks: AsyncIterable<Uint8Array>,
   format: InputFormat,
   options: LoadOptions,
+  head: Uint8Array,
 ): Promise<LinkedNodes> {
   if (format === "yaml") {
     // The YAML parser is loaded only for YAML input (a start reads no code it does not run).
     const { loadYaml } = await import("../load-yaml.js");
     return loadYaml(await wholeText(chunks, limitsOf(options.limits).maxYamlBytes), options);
   }
-  const loader = byteLoader(format, options);
+  const loader = byteLoader(format, options, head);
   if (loader) {
     for await (const chunk of chunks) loader.write(chunk);
     return loader.end();

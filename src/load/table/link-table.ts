@@ -6,7 +6,9 @@ import type { LoadOptions } from "../load-options.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer } from "../path-placer.js";
+import { fieldSizeUnit } from "../size-unit.js";
 import { IdIndex } from "./id-index.js";
+import { rowsTable } from "./rows-table.js";
 import type { Cell, Table } from "./table.js";
 
 /**
@@ -15,7 +17,17 @@ import type { Cell, Table } from "./table.js";
  * A node's name is its name cell when that is not empty, else its id or last path segment.
  * Origins are data rows (1-based).
  */
-export function linkTable(table: Table, options: LoadOptions): LinkedNodes {
+export function linkTable(
+  table: Table,
+  options: LoadOptions,
+  shape: "table" | "rows" = "table",
+): LinkedNodes {
+  const linked = linkRows(table, options, shape);
+  linked.reading = { shape, sizeUnit: fieldSizeUnit(options.sizeField) };
+  return linked;
+}
+
+function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): LinkedNodes {
   if (table.length === 0) throw new EspalierError("INPUT_EMPTY", "the table has no data rows");
   const ids = table.column(options.idField);
   const parents = ids && table.column(options.parentField);
@@ -25,7 +37,10 @@ export function linkTable(table: Table, options: LoadOptions): LinkedNodes {
   throw new EspalierError(
     "FIELD_MISSING",
     `rows need "${options.idField}" and "${options.parentField}" columns, or a "${options.pathField}" column; ` +
-      `the columns are ${listNames(table.columnNames())}`,
+      `the columns are ${listNames(table.columnNames())}` +
+      (shape === "table"
+        ? "; a listing of sizes and paths (size, a tab, the path) reads with --input-format paths"
+        : ""),
   );
 }
 
@@ -122,16 +137,17 @@ function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptio
   const nodeOfRow = new Int32Array(n);
   for (let r = 0; r < n; r++) {
     const path = cellText(pathCells[r]);
-    const i = index.placeText(path, r + 1);
-    if (i === -1) {
-      throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${options.pathField}"`, { row: r + 1 });
-    }
+    // The empty path is the root, as a lock file's "" key (and a listing's start) name it.
+    let i = index.placeText(path, r + 1);
+    if (i === -1) i = index.placeRoot(r + 1);
     nodeOfRow[r] = i;
     const label = names ? cellText(names[r]) : "";
     if (label !== "") sink.name.setString(i, label);
     if (sizes) sink.ownSize[i] = sizeOf(sizes[r], table.textCells, r + 1, options.sizeField);
   }
   sink.hasSizes = sizes !== undefined;
+  const root = index.adoptTopLevel();
+  if (root !== -1 && isEmptyName(sink.name, root)) sink.name.setString(root, options.rootName);
   const fields = new Map<string, string[]>();
   for (const [key, byRow] of keep) {
     const byNode: string[] = new Array(sink.length).fill("");
@@ -186,4 +202,30 @@ function cellText(cell: Cell): string {
 
 function listNames(names: readonly string[]): string {
   return names.length === 0 ? "(none)" : names.map((name) => JSON.stringify(name)).join(", ");
+}
+
+/** The column a path map's keys are read from; no record field can be named so. */
+const PATH_KEY = "\u0000path";
+
+/**
+ * Records keyed by path (see JsonPathMapLoader) linked as rows by path: the key is the path, the
+ * record's fields are the row's other columns. `field` is where the map was (for the reading).
+ */
+export function linkPathMap(
+  keys: readonly string[],
+  records: readonly unknown[],
+  options: LoadOptions,
+  field: string,
+): LinkedNodes {
+  const rows = rowsTable(records);
+  const table: Table = {
+    length: rows.length,
+    textCells: false,
+    column: (name) => (name === PATH_KEY ? keys : rows.column(name)),
+    columnNames: () => rows.columnNames(),
+  };
+  if (table.length === 0) throw new EspalierError("INPUT_EMPTY", `the object keyed by path is empty`);
+  const linked = linkByPath(table, keys, { ...options, pathField: PATH_KEY });
+  linked.reading = { shape: "path-map", sizeUnit: fieldSizeUnit(options.sizeField), pathMapField: field };
+  return linked;
 }

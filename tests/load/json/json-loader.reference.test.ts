@@ -1,7 +1,8 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
+import type { LoadOptions } from "../../../src/load/load-options.js";
 import { loadTreeFromStream } from "../../../src/load/stream/index.js";
-import { opts } from "../helpers.js";
+import { opts as allOptions } from "../helpers.js";
 import {
   awkwardAt,
   cutsFor,
@@ -16,6 +17,12 @@ import {
   rng,
   utf8,
 } from "../stream/helpers.js";
+
+// The reference reads node objects under the children field (or rows): so do the byte loaders here.
+// Reading by the document (values, a found children field, a path map) has its own tests in
+// tests/load/shape.
+const opts = (overrides: Partial<LoadOptions> = {}) =>
+  allOptions({ readAs: "nodes", childrenFieldNamed: true, ...overrides });
 
 // Names that stress the tokenizer: escapes, multi-byte characters (2, 3 and 4 bytes), a lone surrogate
 // (JSON allows it escaped), names like array indices (JSON.parse puts those keys first), path characters.

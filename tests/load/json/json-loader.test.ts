@@ -2,7 +2,9 @@ import { describe, expect, it } from "vitest";
 import { loadTree } from "../../../src/load/index.js";
 import { caught, opts, outline } from "../helpers.js";
 
-const json = (text: string, overrides = {}) => loadTree(text, opts({ format: "json", ...overrides }));
+// Node objects, as the tests in this file read them (reading by the document: tests/load/shape).
+const json = (text: string, overrides = {}) =>
+  loadTree(text, opts({ format: "json", readAs: "nodes", ...overrides }));
 
 describe("loadTree(json)", () => {
   it("loadTree(json) reads children given as an array, in input order", () => {
@@ -154,5 +156,23 @@ describe("loadTree(json)", () => {
     });
     expect(tree.hasSizes).toBe(false);
     expect(caught(() => json('{"name":"r"}', { keepFields: ["toString"] })).code).toBe("FIELD_MISSING");
+  });
+});
+
+describe("loadTree(json) rows or nodes", () => {
+  const detected = (text: string) => loadTree(text, opts({ file: "in.json" }));
+
+  it("loadTree(json) reads an array as rows by the keys of its first record, nested values and all", () => {
+    const tree = detected('[{"id":"r","parent":null,"x":{"d":1}},{"id":"a","parent":"r","x":[1,{"e":2}]}]');
+    expect(outline(tree)).toEqual(["r", "  a"]);
+    expect(tree.reading?.shape).toBe("rows");
+    const byPath = detected('[{"path":"a/b","meta":{"owner":"tidewater"}},{"path":"a/c"}]');
+    expect(outline(byPath)).toEqual(["a", "  b", "  c"]);
+  });
+
+  it("loadTree(json) reads an array as nodes when its first element has children, ids or not", () => {
+    const tree = detected('[{"id":"r","name":"r","children":[{"name":"a"}]},{"name":"s"}]');
+    expect(tree.reading?.shape).toBe("nodes");
+    expect(outline(tree).slice(1)).toEqual(["  r", "    a", "  s"]);
   });
 });

@@ -149,12 +149,13 @@ describe("loadTreeFromStream(paths)", () => {
       "a\na/b\n\na/b\n",
       "1\ta\n4.0K\ta/b\n",
       "1\ta\na/b\n",
-      "1\ta\n2\t\n",
+      // A size with an empty path is the root; a second one repeats it.
+      "1\t\n2\ta\n3\t\n",
       " \n\t\n",
       "",
-      // A size padded with a no-break space (trimmed, so valid): the column counts UTF-16 code units.
-      "1\ta\n\u00a02\t\n",
-      "1\ta\n1234567890123456\t\n",
+      // A size padded with a no-break space (trimmed, so valid).
+      "1\ta\n\u00a02\t\n\u00a03\t\n",
+      "1\ta\n1234567890123456\t\n9\t\n",
       "1\ta\nx\u00e9\tb\n",
     ];
     for (const text of cases) {

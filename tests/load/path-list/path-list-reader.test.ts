@@ -53,8 +53,31 @@ describe("loadTree(paths)", () => {
     expect(error.pos).toEqual({ line: 2 });
   });
 
-  it("loadTree(paths) rejects a size with no path as PARSE_PATHS", () => {
-    expect(caught(() => paths("1\ta\n2\t\n")).pos).toEqual({ line: 2, column: 3 });
+  it("loadTree(paths) reads a size with an empty path as the root, as find -printf '%s\\t%P\\n' lists the start", () => {
+    // GNU find's manual: %P is the file's name with the starting point removed, so the start is "".
+    const tree = paths("4096\t\n10\ta\n4096\tb\n5\tb/c\n", { rootName: "listing" });
+    expect(outline(tree)).toEqual(["listing 4096", "  a 10", "  b 4096", "    c 5"]);
+    expect(tree.syntheticRoot).toBe(false);
+    expect(tree.reading).toEqual({ shape: "paths", sizeUnit: "bytes" });
+    // The root may come anywhere; a second one is a repeated path.
+    expect(outline(paths("10\ta\n7\t\n", { rootName: "r" }))).toEqual(["r 7", "  a 10"]);
+    const twice = caught(() => paths("1\t\n2\ta\n3\t\n"));
+    expect(twice.code).toBe("DUPLICATE_PATH");
+    expect(twice.pos).toEqual({ line: 3 });
+  });
+
+  it("loadTree(paths) with nulSeparated reads entries ended by NUL, names with line breaks included", () => {
+    // find -print0 and git ls-files -z end each name with a NUL byte (their manuals).
+    const tree = paths("a/two\nlines\0a/b\r\0c\0", { nulSeparated: true, rootName: "r" });
+    expect([...Array(tree.length).keys()].map((i) => tree.name.get(i))).toEqual([
+      "r",
+      "a",
+      "two\nlines",
+      "b\r",
+      "c",
+    ]);
+    const sized = paths("3\ta b\0\0" + "4\tc\0", { nulSeparated: true, rootName: "r" });
+    expect(outline(sized)).toEqual(["r 0", "  a b 3", "  c 4"]);
   });
 
   it("loadTree(paths) stops with LIMIT_EXCEEDED at the line that adds one node too many", () => {

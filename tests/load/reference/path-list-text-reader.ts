@@ -19,6 +19,7 @@ export class PathListTextReader {
   private sized: boolean | undefined;
   private firstLine = 0;
   private line = 0;
+  private root = -1;
 
   constructor(options: LoadOptions) {
     this.sink = new NodeSink(options.maxNodes, false);
@@ -43,6 +44,12 @@ export class PathListTextReader {
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the path list names no paths");
     sink.hasSizes = this.sized === true;
+    // A size with an empty path named the root: every other top-level node goes below it.
+    if (this.root !== -1) {
+      for (let i = 0; i < sink.length; i++)
+        if (sink.parentOf[i] === -1 && i !== this.root) sink.parentOf[i] = this.root;
+      sink.name.setString(this.root, rootName);
+    }
     return sink.finish(rootName, new Map());
   }
 
@@ -79,10 +86,16 @@ export class PathListTextReader {
     }
     const i = this.index.place(text, pathStart, end, line);
     if (i === -1) {
-      throw new EspalierError("PARSE_PATHS", `line ${line} has a size but no path`, {
-        line,
-        column: pathStart - start + 1,
-      });
+      if (this.root !== -1) {
+        throw new EspalierError(
+          "DUPLICATE_PATH",
+          `line ${line} repeats the empty path (the root) of line ${this.sink.origin[this.root]}`,
+          { line },
+        );
+      }
+      this.root = this.sink.add(-1, "", line);
+      this.sink.ownSize[this.root] = size;
+      return;
     }
     this.sink.ownSize[i] = size;
   }

@@ -82,6 +82,8 @@ describe("linkTable by id and parent", () => {
     const error = caught(() => csv("key,boss\na,\n"));
     expect(error.code).toBe("FIELD_MISSING");
     expect(error.message).toContain('"key", "boss"');
+    // Detection cannot tell a headerless listing from a table: the error names the option to pass.
+    expect(error.message).toContain("--input-format paths");
   });
 
   it("loadTree(csv) rejects a kept column that does not exist as FIELD_MISSING", () => {

@@ -1,0 +1,152 @@
+import { defaultLoadOptions, type LoadOptions } from "../load-options.js";
+import type { Sample } from "./sample.js";
+
+/** How to read a JSON or YAML document. */
+export type Reading =
+  /** Node objects, children under `childrenField`; `found` when espalier chose the field. */
+  | { readonly kind: "nodes"; readonly childrenField: string; readonly found: boolean }
+  /** Records keyed by path in the object at `field` of the top-level object ("" for the top level). */
+  | { readonly kind: "path-map"; readonly field: string }
+  /** Every value a node. */
+  | { readonly kind: "values" }
+  /** A top-level array of records linked by id and parent, or by path (JSON rows). */
+  | { readonly kind: "rows" };
+
+type Fields = Pick<
+  LoadOptions,
+  | "nameField"
+  | "sizeField"
+  | "childrenField"
+  | "idField"
+  | "parentField"
+  | "pathField"
+  | "keepFields"
+  | "readAs"
+  | "childrenFieldNamed"
+>;
+
+/**
+ * Chooses how to read a document from a sample of its start, deterministically (the same bytes, the
+ * same choice), looking at the first node object: the top-level object, or the first element of a
+ * top-level array.
+ * 1. `readAs: "values"` reads values. Otherwise, when the first node object has the configured children
+ *    field, nodes as configured; a top-level array whose first record has the id, parent or path field
+ *    (and no children field) is rows.
+ * 2. With the children field left at its default: an object keyed by path (the top level, or a field of
+ *    the first node object) whose values are records is a path map; see {@link isPathMap}.
+ * 3. Then a field found to hold children (see {@link findChildrenField}).
+ * 4. Otherwise nodes as configured when asked for nodes (`readAs: "nodes"`, or a children field other
+ *    than the default), or when the first node object holds nothing nested; else values: a document
+ *    with no node shape at all reads as the tree of its values.
+ */
+export function chooseReading(sample: Sample | undefined, fields: Fields): Reading {
+  const configured: Reading = { kind: "nodes", childrenField: fields.childrenField, found: false };
+  if (fields.readAs === "values") return { kind: "values" };
+  const first = sample === undefined ? undefined : firstNodeObject(sample);
+  if (first !== undefined && has(first, fields.childrenField)) return configured;
+  // Rows by the keys of the first record (as isRowsValue decides on the whole record).
+  if (
+    sample?.kind === "array" &&
+    first !== undefined &&
+    (has(first, fields.idField) || has(first, fields.parentField) || has(first, fields.pathField))
+  )
+    return { kind: "rows" };
+  const discover =
+    fields.childrenField === defaultLoadOptions.childrenField && fields.childrenFieldNamed !== true;
+  if (discover && sample !== undefined) {
+    if (sample.kind === "object" && isPathMap(sample)) return { kind: "path-map", field: "" };
+    if (first !== undefined) {
+      for (const [key, value] of first.entries)
+        if (value.kind === "object" && isPathMap(value)) return { kind: "path-map", field: key };
+      const found = findChildrenField(first, fields);
+      if (found !== undefined) return { kind: "nodes", childrenField: found, found: true };
+    }
+  }
+  // Asked for nodes (or for a children field by name): read them so; the loader fails rather than give
+  // a lone root for a document with more in it.
+  if (fields.readAs === "nodes" || !discover) return configured;
+  // A node object with nothing nested but the fields it is read for (a leaf, or leaves in a top-level
+  // array) is nodes all the same.
+  if (first !== undefined && hasNoContainers(first, fieldsOf(fields))) return configured;
+  return { kind: "values" };
+}
+
+type ObjectSample = Extract<Sample, { kind: "object" }>;
+
+function firstNodeObject(sample: Sample): ObjectSample | undefined {
+  if (sample.kind === "object") return sample;
+  if (sample.kind === "array" && sample.items[0]?.kind === "object") return sample.items[0];
+  return undefined;
+}
+
+function has(object: ObjectSample, key: string): boolean {
+  return object.entries.some(([k]) => k === key);
+}
+
+/** Whether an object holds no object or array but in the fields named in `except`. */
+function hasNoContainers(object: ObjectSample, except: ReadonlySet<string> = new Set()): boolean {
+  return object.entries.every(([k, v]) => v.kind === "scalar" || except.has(k));
+}
+
+/** The fields a node object is read for besides its children: never children themselves. */
+function fieldsOf(fields: Pick<Fields, "nameField" | "sizeField" | "keepFields">): Set<string> {
+  return new Set([fields.nameField, fields.sizeField, ...fields.keepFields]);
+}
+
+/** The objects a container holds: an array's elements or an object's values, when all (sampled) are objects. */
+function childObjects(value: Sample): ObjectSample[] | undefined {
+  const members =
+    value.kind === "array" ? value.items : value.kind === "object" ? value.entries.map(([, v]) => v) : [];
+  if (members.length === 0) return undefined;
+  const objects: ObjectSample[] = [];
+  for (const member of members) {
+    if (member.kind !== "object") return undefined;
+    objects.push(member);
+  }
+  return objects;
+}
+
+/**
+ * The field of `first` that holds its children: its value is an array of objects or an object whose
+ * values are objects (children keyed by name), and the same field holds the children's children, as
+ * `dependencies` in a package manager's listing: the first such field in document order. A field whose
+ * children (as far as sampled) are all leaves counts only when it is the one field of `first` holding
+ * an object or array (a listing one level deep); otherwise a configuration's `defaults: {run: {…}}`
+ * would pass for children and hide the rest. The name, size and kept fields are never children.
+ */
+export function findChildrenField(
+  first: ObjectSample,
+  fields: Pick<Fields, "nameField" | "sizeField" | "keepFields">,
+): string | undefined {
+  const own = fieldsOf(fields);
+  let leafy: string | undefined;
+  let containers = 0;
+  for (const [key, value] of first.entries) {
+    if (own.has(key)) continue;
+    if (value.kind !== "scalar") containers++;
+    const children = childObjects(value);
+    if (children === undefined) continue;
+    const recurs = children.some((child) =>
+      child.entries.some(([k, v]) => k === key && childObjects(v) !== undefined),
+    );
+    if (recurs) return key;
+    if (leafy === undefined && children.every((child) => hasNoContainers(child))) leafy = key;
+  }
+  return containers === 1 ? leafy : undefined;
+}
+
+/**
+ * Whether an object is keyed by path with records as values, as a lock file's `packages` map: every
+ * (sampled) value is an object, and some key is "" (the root) or the path of another key's parent
+ * (`a` beside `a/b`). Names that merely hold a "/" (`@scope/name`) are not paths.
+ */
+export function isPathMap(object: ObjectSample): boolean {
+  if (object.entries.length === 0 || childObjects(object) === undefined) return false;
+  const keys = new Set(object.entries.map(([k]) => k));
+  if (keys.has("")) return true;
+  for (const key of keys) {
+    for (let k = key.lastIndexOf("/"); k > 0; k = key.lastIndexOf("/", k - 1))
+      if (keys.has(key.slice(0, k))) return true;
+  }
+  return false;
+}

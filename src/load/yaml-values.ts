@@ -1,0 +1,93 @@
+import { Buffer } from "node:buffer";
+import { isAlias, isMap, isScalar, isSeq, type LineCounter, type Node } from "yaml";
+import type { LinkedNodes } from "../model/linked-nodes.js";
+import type { LoadOptions } from "./load-options.js";
+import { NodeSink } from "./node-sink.js";
+
+/**
+ * A YAML document as a tree of its values, as JsonValueLoader reads JSON: a mapping's entries are its
+ * children, named by their keys, a sequence's items are named by index, scalars and aliases are leaves
+ * (an alias is its own text, `*name`: nothing is expanded, so no byte is counted twice). A value's size
+ * is the UTF-8 byte length of its source text, so a node's own size is what its text holds beyond its
+ * children's values; the root is the whole document (comments and markers too), so its size is the
+ * document's. Merge keys are entries like any other here (`<<`): the bytes are where they are written.
+ */
+export function yamlValues(
+  root: Node,
+  text: string,
+  lineCounter: LineCounter,
+  options: LoadOptions,
+): LinkedNodes {
+  const sink = new NodeSink(options.maxNodes, false);
+  const toBytes = byteOffsets(text);
+  const lineOf = (v: Node | null) => (v?.range ? lineCounter.linePos(v.range[0]).line : 0);
+  const lengthOf = (v: Node | null) => (v?.range ? toBytes(v.range[1]) - toBytes(v.range[0]) : 0);
+
+  // Each node's value, visited in the order nodes are added (pre-order by index).
+  const pending: (Node | null)[] = [root];
+  sink.add(-1, options.rootName, lineOf(root));
+  for (let i = 0; i < sink.length; i++) {
+    const v = pending[i];
+    pending[i] = null;
+    const own = i === 0 ? Buffer.byteLength(text, "utf8") : lengthOf(v);
+    let inner = 0;
+    if (!isAlias(v) && isMap(v)) {
+      for (const pair of v.items) {
+        const value = (pair.value ?? null) as Node | null;
+        const j = sink.add(i, keyText(pair.key), lineOf(value) || lineOf(pair.key as Node | null));
+        pending[j] = value;
+        inner += lengthOf(value);
+      }
+    } else if (!isAlias(v) && isSeq(v)) {
+      v.items.forEach((item, k) => {
+        const j = sink.add(i, String(k), lineOf(item as Node | null));
+        pending[j] = item as Node | null;
+        inner += lengthOf(item as Node | null);
+      });
+    }
+    sink.ownSize[i] = own - inner;
+  }
+  sink.hasSizes = true;
+  return sink.finish(options.rootName, new Map(), null, { shape: "values", sizeUnit: "bytes" });
+}
+
+/** A mapping key as text: a scalar's value ("" for null), else the key as written. */
+function keyText(key: unknown): string {
+  if (isScalar(key)) return key.value === null || key.value === undefined ? "" : String(key.value);
+  return String(key);
+}
+
+/** UTF-16 offsets of `text` to UTF-8 byte offsets, for offsets asked in any order. */
+function byteOffsets(text: string): (offset: number) => number {
+  if (Buffer.byteLength(text, "utf8") === text.length) return (offset) => offset;
+  // Checkpoints every 4,096 code units; an offset costs the bytes of at most that much text.
+  const STEP = 4096;
+  const marks = new Float64Array(Math.floor(text.length / STEP) + 1);
+  for (let k = 1; k < marks.length; k++) marks[k] = marks[k - 1] + utf8Length(text, (k - 1) * STEP, k * STEP);
+  return (offset) => {
+    const k = Math.floor(offset / STEP);
+    return marks[k] + utf8Length(text, k * STEP, offset);
+  };
+}
+
+/**
+ * UTF-8 bytes of the code units `text[s, e)` as Buffer.from(text) encodes the whole text: a surrogate
+ * pair is 4 bytes, counted at its high half (so a range may end between the halves), a lone surrogate
+ * 3 (U+FFFD).
+ */
+function utf8Length(text: string, s: number, e: number): number {
+  let bytes = 0;
+  for (let k = s; k < e; k++) {
+    const c = text.charCodeAt(k);
+    if (c < 0x80) bytes += 1;
+    else if (c < 0x800) bytes += 2;
+    else if (c >= 0xd800 && c <= 0xdbff) {
+      const d = k + 1 < text.length ? text.charCodeAt(k + 1) : 0;
+      bytes += d >= 0xdc00 && d <= 0xdfff ? 4 : 3;
+    } else if (c >= 0xdc00 && c <= 0xdfff) {
+      const b = k > 0 ? text.charCodeAt(k - 1) : 0;
+      bytes += b >= 0xd800 && b <= 0xdbff ? 0 : 3;
+    } else bytes += 3;
+  }
+  return bytes;
+}

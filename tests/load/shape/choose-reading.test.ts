@@ -1,0 +1,105 @@
+import { describe, expect, it } from "vitest";
+import { sampleJson } from "../../../src/load/json/json-sample.js";
+import { chooseReading } from "../../../src/load/shape/choose-reading.js";
+import { opts } from "../helpers.js";
+
+const choose = (text: string, overrides = {}) =>
+  chooseReading(sampleJson(Buffer.from(text)), opts(overrides));
+
+describe("chooseReading(sample, fields)", () => {
+  it("chooseReading reads nodes by the configured children field when the first node object has it", () => {
+    expect(choose('{"name":"r","children":[{"name":"a"}]}')).toEqual({
+      kind: "nodes",
+      childrenField: "children",
+      found: false,
+    });
+  });
+
+  it("chooseReading finds the field that holds children at the next level too, as a dependency listing", () => {
+    const listing = {
+      version: "1.0.0",
+      name: "tidewater",
+      problems: ["invalid: a@1"],
+      dependencies: {
+        alpha: { version: "2.0.0", dependencies: { beta: { version: "1.1.0" } } },
+        gamma: { version: "0.3.0" },
+      },
+    };
+    expect(choose(JSON.stringify(listing))).toEqual({
+      kind: "nodes",
+      childrenField: "dependencies",
+      found: true,
+    });
+    // An array of objects holding the same field: found too.
+    const arrays = { title: "q", parts: [{ title: "a", parts: [{ title: "b" }] }] };
+    expect(choose(JSON.stringify(arrays))).toMatchObject({ childrenField: "parts", found: true });
+  });
+
+  it("chooseReading takes a field of leaves as children only when it is the one nested field", () => {
+    expect(choose('{"name":"app","dependencies":{"a":{"version":"1"},"b":{}}}')).toMatchObject({
+      childrenField: "dependencies",
+    });
+    // A configuration: `defaults` holds objects of scalars beside `jobs`; neither recurs: every value.
+    const config = {
+      name: "CI",
+      defaults: { run: { shell: "bash" } },
+      jobs: { build: { steps: [{ run: "make" }] } },
+    };
+    expect(choose(JSON.stringify(config))).toEqual({ kind: "values" });
+  });
+
+  it("chooseReading reads an object keyed by path with record values as a path map, top level or a field", () => {
+    const lock = {
+      name: "tidewater",
+      lockfileVersion: 3,
+      packages: { "": { name: "tidewater" }, "node_modules/a": {}, "node_modules/a/node_modules/b": {} },
+    };
+    expect(choose(JSON.stringify(lock))).toEqual({ kind: "path-map", field: "packages" });
+    expect(choose('{"":{},"src":{},"src/a.ts":{"size":3}}')).toEqual({ kind: "path-map", field: "" });
+    // Scoped names hold a "/" but no key is another's parent and there is no "": not paths.
+    expect(choose('{"deps":{"@q/a":{"deps":{"@q/b":{}}},"@q/c":{}}}')).toMatchObject({ kind: "nodes" });
+  });
+
+  it("chooseReading reads values when nothing is shaped like nodes, and rows by their keys", () => {
+    expect(choose("[1, 2, 3]")).toEqual({ kind: "values" });
+    expect(choose('"text"')).toEqual({ kind: "values" });
+    expect(choose('{"a":{"b":[1,2]},"c":true}')).toEqual({ kind: "values" });
+    expect(choose('[{"id":"r","parent":null,"x":{"d":1}}]')).toEqual({ kind: "rows" });
+    // A leaf node object (nothing nested but its own fields) stays a node.
+    expect(choose('{"name":"r","size":4,"tags":["a"]}', { keepFields: ["tags"] })).toMatchObject({
+      kind: "nodes",
+    });
+  });
+
+  it("chooseReading obeys readAs and a children field given by name", () => {
+    expect(choose('{"name":"r","children":[]}', { readAs: "values" })).toEqual({ kind: "values" });
+    expect(choose('{"a":{"b":1}}', { readAs: "nodes" })).toEqual({
+      kind: "nodes",
+      childrenField: "children",
+      found: false,
+    });
+    // The default field named on purpose: no search either.
+    expect(
+      choose('{"name":"r","dependencies":{"a":{"dependencies":{}}}}', {
+        childrenFieldNamed: true,
+        readAs: "nodes",
+      }),
+    ).toEqual({ kind: "nodes", childrenField: "children", found: false });
+    // Another children field named: no search, so a lone root becomes the loader's error, not a guess.
+    expect(
+      choose('{"name":"r","dependencies":{"a":{"dependencies":{}}}}', { childrenField: "kids" }),
+    ).toEqual({
+      kind: "nodes",
+      childrenField: "kids",
+      found: false,
+    });
+  });
+
+  it("chooseReading decides on the start of a document, as far as the sample goes", () => {
+    // The loader samples the first bytes of a stream (64 KiB or more): a cut document is enough once
+    // a child holding the same field has begun.
+    const text = JSON.stringify({ name: "r", dependencies: { a: { dependencies: { b: {} } } } });
+    expect(choose(text.slice(0, text.indexOf('"b"') + 5))).toMatchObject({ childrenField: "dependencies" });
+    expect(choose(text.slice(0, text.indexOf('"b"')))).toEqual({ kind: "values" });
+  });
+});
