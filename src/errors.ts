@@ -69,6 +69,21 @@ export const quoted = {
 };
 
 /**
+ * Input texts of one kind as a list for a message, `"a", "b", "c"` (at most `max`, then `and N more`);
+ * `(none)` when empty.
+ */
+export function quotedList(kind: InputKind, texts: readonly string[], max = 12): MessagePart[] {
+  if (texts.length === 0) return ["(none)"];
+  const parts: MessagePart[] = [];
+  texts.slice(0, max).forEach((text, k) => {
+    if (k > 0) parts.push(", ");
+    parts.push({ kind, text });
+  });
+  if (texts.length > max) parts.push(` and ${texts.length - max} more`);
+  return parts;
+}
+
+/**
  * A message from a template: `` say`row ${3} repeats the id ${quoted.id(x)}` ``. A value may be input
  * text, an array of message parts (a message built elsewhere), or anything else, printed as text.
  */

@@ -1,4 +1,4 @@
-import { EspalierError, type MessagePart, quoted, type SourcePos, say } from "../errors.js";
+import { EspalierError, type MessagePart, quoted, quotedList, type SourcePos, say } from "../errors.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import { isSize } from "../model/size-rule.js";
 import { describeNode } from "./describe-node.js";
@@ -189,15 +189,9 @@ export function walkNested<V>(
       return kind === Kind.Map || kind === Kind.Seq;
     });
     if (nested.length > 0) {
-      const names = nested
-        .slice(0, 12)
-        .map((name) => JSON.stringify(name))
-        .join(", ");
       throw new EspalierError(
         "FIELD_MISSING",
-        `no node has the children field "${childrenField}", so the input would be one node; ` +
-          `the top-level mapping's fields holding mappings or sequences are ${names}: ` +
-          "name the one holding the children with --children-field, or read every value with --read-as values",
+        say`no node has the children field "${childrenField}", so the input would be one node; the top-level mapping's fields holding mappings or sequences are ${quotedList("name", nested)}: name the one holding the children with --children-field, or read every value with --read-as values`,
       );
     }
   }

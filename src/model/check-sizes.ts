@@ -18,7 +18,12 @@ export function checkSizes(input: LinkedNodes & { name: Names }, file?: string):
     if (!isSize(size)) {
       throw new EspalierError(
         "BAD_SIZE",
-        ["the size of ", where(input, i), ` must be a number from 0 to 2^53 - 1, got ${size}`],
+        [
+          "the size of ",
+          where(input, i),
+          " must be a number from 0 to 2^53 - 1, got ",
+          quoted.value(String(size)),
+        ],
         position(input, i, file),
       );
     }

@@ -98,17 +98,45 @@ describe("every reader has a stated limit (src/load/read-limits.ts), LIMIT_EXCEE
 
   it("JSON nested past maxJsonDepth, at the bracket's place", async () => {
     const text = `{"name": "quill", "x": ${"[".repeat(40)}`;
-    const err = await caught(() => load("json", inChunks(text, 5), { limits: { maxJsonDepth: 20 } }));
+    // Read as node objects: "x" is a field of the root node, not a child.
+    const nodes = { readAs: "nodes" as const, limits: { maxJsonDepth: 20 } };
+    const err = await caught(() => load("json", inChunks(text, 5), nodes));
     expect(err.code).toBe("LIMIT_EXCEEDED");
     expect(err.pos?.line).toBe(1);
     const fits = await load(
       "json",
-      inChunks(`{"name": "quill", "x": ${"[".repeat(10)}${"]".repeat(10)}}`, 5),
-      {
-        limits: { maxJsonDepth: 20 },
-      },
+      inChunks(`{"name": "quill", "children": [{"name": "a"}], "x": ${"[".repeat(10)}${"]".repeat(10)}}`, 5),
+      nodes,
     );
-    expect(fits.length).toBe(1);
+    expect(fits.length).toBe(2);
+  });
+
+  it("every reading of a JSON document keeps the limits: values, a map keyed by path, rows", async () => {
+    // A string past maxTokenBytes, cut across chunks, in each reading choose-reading can pick.
+    const long = "x".repeat(40);
+    const cases: [string, Partial<LoadOptions>][] = [
+      [`{"quill": {"desk": "${long}"}}`, { readAs: "values" }],
+      [`{"packages": {"": {}, "desks/a": {"v": "${long}"}}}`, {}],
+      [`{"packages": {"": {}, "desks/${long}": {}}}`, {}],
+    ];
+    for (const [text, options] of cases) {
+      const err = await caught(() => load("json", inChunks(text, 4), { limits: tiny, ...options }));
+      expect(err.code, text).toBe("LIMIT_EXCEEDED");
+      expect(err.pos?.line, text).toBe(1);
+      // Under the limits, the same shape loads.
+      const fits = await load("json", inChunks(text.replace(long, "x"), 4), { limits: tiny, ...options });
+      expect(fits.length, text).toBeGreaterThan(1);
+    }
+    // Nesting past maxJsonDepth in a document read as values, and in a map keyed by path.
+    for (const [text, options] of [
+      [`{"quill": ${"[".repeat(40)}`, { readAs: "values" }],
+      [`{"packages": {"": {}, "desks/a": {"v": ${"[".repeat(40)}`, {}],
+    ] as [string, Partial<LoadOptions>][]) {
+      const err = await caught(() =>
+        load("json", inChunks(text, 5), { limits: { maxJsonDepth: 20 }, ...options }),
+      );
+      expect(err.code, text).toBe("LIMIT_EXCEEDED");
+    }
   });
 
   it("a YAML input past maxYamlBytes", async () => {
@@ -125,6 +153,8 @@ describe("every reader has a stated limit (src/load/read-limits.ts), LIMIT_EXCEE
     ["csv", "id,parent\n", 0],
     ["json", '{"name": "', 0x61],
     ["json", '{"name": "a", "size": 1', 0x30],
+    // A map keyed by path (a lock file's packages) whose last key never ends.
+    ["json", '{"packages": {"": {}, "desks/a": {}, "desks/', 0x61],
     ["yaml", "name: ", 0x61],
   ] as const) {
     it(`an endless ${format} input (${JSON.stringify(head)} then byte ${fill} for ever) stops at its limit`, async () => {

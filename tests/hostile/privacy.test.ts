@@ -130,6 +130,51 @@ const CASES: Case[] = [
     code: "PARSE_JSON",
   },
   {
+    what: "a lone root whose other fields are named for people (JSON, a named children field)",
+    file: "org.json",
+    text: '{"name":"quill","Talia Brenbek":{"desk":1},"Marit Okonkwo":[1]}',
+    secrets: ["Talia", "Marit"],
+    code: "FIELD_MISSING",
+    args: ["--children-field", "reports"],
+  },
+  {
+    what: "a lone root whose other fields are named for people (YAML, a named children field)",
+    file: "org.yaml",
+    text: "name: quill\nTalia Brenbek: {desk: 1}\nMarit Okonkwo: [1]\n",
+    secrets: ["Talia", "Marit"],
+    code: "FIELD_MISSING",
+    args: ["--children-field", "reports"],
+  },
+  {
+    what: "columns named for people, none of them id/parent or path (CSV)",
+    file: "org.csv",
+    text: "Talia Brenbek,Marit Okonkwo\n1,2\n",
+    secrets: ["Talia", "Marit"],
+    code: "FIELD_MISSING",
+  },
+  {
+    what: "a duplicate path in a map keyed by path (JSON)",
+    file: "lock.json",
+    text: '{"packages":{"":{},"desks/Talia Brenbek":{},"desks/Talia Brenbek":{}}}',
+    secrets: ["Talia"],
+    code: "DUPLICATE_PATH",
+  },
+  {
+    what: "a map keyed by path whose late value is not a record (JSON, past the sample)",
+    file: "lock.json",
+    text: `{"packages":{"":{},${Array.from({ length: 70 }, (_, i) => `"desks/d${i}":{}`).join(",")},"desks/Talia Brenbek":3}}`,
+    secrets: ["Talia"],
+    code: "SHAPE",
+  },
+  {
+    what: "a document read as values, with a bad focus near a real name (JSON values)",
+    file: "org.json",
+    text: '{"Talia Brenbek":{"desk":1},"Marit Okonkwo":[1,2]}',
+    secrets: ["Marit Okonkwx"],
+    code: "FOCUS_NO_MATCH",
+    args: ["--read-as", "values", "--focus", "Marit Okonkwx"],
+  },
+  {
     what: "a focus that names a real person",
     file: "org.csv",
     text: "id,parent,name\nQ1,,Talia Brenbek\nQ2,Q1,Marit Okonkwo\n",
@@ -230,15 +275,15 @@ describe("espalier --pseudonymize on random faulty inputs (property)", () => {
     await fc.assert(
       fc.asyncProperty(
         fc.array(token, { minLength: 2, maxLength: 6 }),
-        fc.constantFrom("csv", "tsv", "json", "rows", "yaml", "paths"),
+        fc.constantFrom("csv", "tsv", "json", "rows", "yaml", "paths", "pathmap", "values", "lone"),
         fc.nat(),
         fc.constantFrom("dup", "size", "parent", "cycle", "cut", "focus"),
         async (names, format, pick, fault) => {
           const text = faultyInput(names, format, pick, fault);
-          const file = join(dir, `in.${format === "rows" ? "json" : format}`);
+          const file = join(dir, `in.${FILE_TYPE[format] ?? format}`);
           await writeFile(file, text);
           const focus = fault === "focus" ? ["--focus", `${names[0]}/${names[pick % names.length]}x`] : [];
-          const fmt = ["--input-format", format];
+          const fmt = FORMAT_ARGS[format] ?? ["--input-format", format];
           for (const argv of [
             [file, ...fmt, ...focus, "--pseudonymize"],
             ["diff", file, file, ...fmt, ...focus, "--pseudonymize"],
@@ -253,6 +298,15 @@ describe("espalier --pseudonymize on random faulty inputs (property)", () => {
     );
   });
 });
+
+// Readings of a JSON document that choose-reading picks by its shape: a map keyed by path (a lock
+// file's "packages"), every value a node, a lone root beside a children field named on purpose.
+const FILE_TYPE: Record<string, string> = { rows: "json", pathmap: "json", values: "json", lone: "json" };
+const FORMAT_ARGS: Record<string, string[]> = {
+  pathmap: [],
+  values: ["--read-as", "values"],
+  lone: ["--children-field", "reports"],
+};
 
 /** An input of `format` naming people `names` (ids are the names reversed), with one fault. */
 function faultyInput(names: string[], format: string, pick: number, fault: string): string {
@@ -278,6 +332,28 @@ function faultyInput(names: string[], format: string, pick: number, fault: strin
   } else if (format === "rows") {
     text = JSON.stringify(
       rows.map((r) => ({ ...r, parent: r.parent === "" ? null : r.parent, size: Number(r.size) || r.size })),
+    );
+  } else if (format === "pathmap") {
+    // Keys are paths of the names; a repeated key, a size that is a name, or a record that is text.
+    const entries = [`"":{"size":0}`];
+    names.forEach((_, i) => {
+      const path = JSON.stringify(names.slice(0, i + 1).join("/"));
+      const size = fault === "size" && i === k ? JSON.stringify(names[k]) : String(i);
+      entries.push(
+        fault === "parent" && i === k ? `${path}:${JSON.stringify(names[i])}` : `${path}:{"size":${size}}`,
+      );
+      if (fault === "dup" && i === k) entries.push(`${path}:{}`);
+    });
+    text = `{"lockfileVersion":3,"packages":{${entries.join(",")}}}`;
+  } else if (format === "values") {
+    // Keys are the names, nested: each value's node is named by its key (JSON Pointer segments).
+    let value: unknown = fault === "size" ? names[k] : names.length;
+    for (let i = names.length - 1; i >= 0; i--) value = { [names[i]]: value, [`${names[i]}s`]: [i] };
+    text = JSON.stringify(value);
+  } else if (format === "lone") {
+    // The top-level object's fields are the names: no "reports" field, so FIELD_MISSING lists them.
+    text = JSON.stringify(
+      Object.fromEntries([["name", "quill"], ...names.map((n, i) => [n, i % 2 ? [i] : { i }])]),
     );
   } else if (format === "paths") {
     const paths = names.map((_, i) => names.slice(0, i + 1).join("/"));

@@ -1,6 +1,6 @@
 import { open } from "node:fs/promises";
 import { parse } from "csv-parse/sync";
-import { EspalierError, quoted as input, say } from "../../errors.js";
+import { EspalierError, quoted as input, quotedList, say } from "../../errors.js";
 import type { Tree } from "../../model/tree.js";
 import { type Columns, type Engine, type EngineSettings, openEngine } from "./engine.js";
 import type { FactFormat, FactOptions } from "./fact-options.js";
@@ -83,7 +83,7 @@ function requireColumns(columns: readonly string[], facts: FactOptions): void {
   if (missing.length > 0) {
     throw new EspalierError(
       "FIELD_MISSING",
-      `the table has no column ${missing.map((m) => JSON.stringify(m)).join(", ")}; columns: ${columns.join(", ")}`,
+      say`the table has no column ${quotedList("name", missing)}; columns: ${quotedList("name", columns, 40)}`,
     );
   }
 }

@@ -1,4 +1,4 @@
-import { EspalierError, type MessagePart, quoted, say } from "../../errors.js";
+import { EspalierError, type MessagePart, quoted, quotedList, say } from "../../errors.js";
 import { checkSizes } from "../../model/check-sizes.js";
 import { NamePool } from "../../model/names.js";
 import type { Tree } from "../../model/tree.js";
@@ -211,8 +211,7 @@ function columnsOf(result: Columns): ColumnIndex {
   if (missing.length > 0) {
     throw new EspalierError(
       "FIELD_MISSING",
-      `a rollup result needs the columns ${C.depth}, ${C.level}1…, ${C.rows} (and ${C.size} for sizes); ` +
-        `missing ${missing.join(", ")}; columns: ${result.names.join(", ")}`,
+      say`a rollup result needs the columns ${C.depth}, ${C.level}1…, ${C.rows} (and ${C.size} for sizes); missing ${missing.join(", ")}; columns: ${quotedList("name", result.names, 40)}`,
     );
   }
   return index;

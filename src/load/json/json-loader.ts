@@ -1,11 +1,10 @@
 import type { Buffer } from "node:buffer";
-import { EspalierError, type MessagePart, quoted, type SourcePos, say } from "../../errors.js";
+import { EspalierError, type MessagePart, quoted, quotedList, type SourcePos, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { isSize } from "../../model/size-rule.js";
 import { describeNode } from "../describe-node.js";
 import type { LoadOptions } from "../load-options.js";
 import { NodeSink } from "../node-sink.js";
-import { limitsOf } from "../read-limits.js";
 import { fieldSizeUnit } from "../size-unit.js";
 import { linkTable } from "../table/link-table.js";
 import { rowsTable } from "../table/rows-table.js";
@@ -126,12 +125,9 @@ export class JsonLoader extends JsonTokenizer {
 
   /** `found`: espalier chose `options.childrenField` (the configured one was absent). */
   constructor(options: LoadOptions, as?: "json" | "rows", found = false) {
-    super();
+    super(options.limits);
     this.options = options;
-    const limits = limitsOf(options.limits);
-    this.maxTokenBytes = limits.maxTokenBytes;
-    this.maxDepth = limits.maxJsonDepth;
-    this.captures = new Captures(limits.maxTokenBytes);
+    this.captures = new Captures(this.maxTokenBytes);
     this.found = found;
     this.probe = new RowsProbe(as);
     this.sink = new NodeSink(options.maxNodes, false);
@@ -184,12 +180,9 @@ export class JsonLoader extends JsonTokenizer {
 
   /** FIELD_MISSING: the document would load as one node, though its top-level object holds more. */
   private loneRoot(): EspalierError {
-    const names = this.rootContainers.map((name) => JSON.stringify(name)).join(", ");
     return new EspalierError(
       "FIELD_MISSING",
-      `no node has the children field "${this.options.childrenField}", so the input would be one node; ` +
-        `the top-level object's fields holding objects or arrays are ${names}: ` +
-        "name the one holding the children with --children-field, or read every value with --read-as values",
+      say`no node has the children field "${this.options.childrenField}", so the input would be one node; the top-level object's fields holding objects or arrays are ${quotedList("name", this.rootContainers)}: name the one holding the children with --children-field, or read every value with --read-as values`,
     );
   }
 

@@ -1,7 +1,7 @@
 import type { Buffer } from "node:buffer";
 import { EspalierError, type MessagePart, quoted, say } from "../../errors.js";
 import { asBuffer, codecs } from "../../model/buffer-codecs.js";
-import { readLimits, tooLong } from "../read-limits.js";
+import { limitsOf, type ReadLimits, readLimits, tooLong } from "../read-limits.js";
 import { ByteBuffer } from "./byte-buffer.js";
 import { JsonPositions } from "./json-positions.js";
 
@@ -50,10 +50,10 @@ export abstract class JsonTokenizer {
   private pend = P_NONE;
   private readonly pendBytes = new ByteBuffer();
   private pendStart = 0;
-  /** Longest string or number, in bytes (read-limits.ts); a subclass may lower it. */
-  protected maxTokenBytes = readLimits.maxTokenBytes;
+  /** Longest string or number, in bytes (read-limits.ts). */
+  protected readonly maxTokenBytes: number = readLimits.maxTokenBytes;
   /** Deepest nesting (read-limits.ts): an endless run of "[" stops there, not in memory. */
-  protected maxDepth = readLimits.maxJsonDepth;
+  protected readonly maxDepth: number = readLimits.maxJsonDepth;
   private pendIsKey = false;
   private pendEscape = false;
   private pendWord = TRUE;
@@ -61,6 +61,13 @@ export abstract class JsonTokenizer {
   // Of the last string scanned: whether it holds an escape or a byte >= 0x80.
   private strEscape = false;
   private strHigh = false;
+
+  /** `limits`: lower limits of reading than `readLimits` (LoadOptions.limits). */
+  constructor(limits?: Partial<ReadLimits>) {
+    const l = limitsOf(limits);
+    this.maxTokenBytes = l.maxTokenBytes;
+    this.maxDepth = l.maxJsonDepth;
+  }
 
   /** An object or array opens at offset `i` of the chunk; it will be level `this.depth`. */
   protected abstract open(i: number, object: boolean): void;

@@ -29,7 +29,7 @@ export class JsonValueLoader extends JsonTokenizer {
   private keyText: string | null = null;
 
   constructor(options: LoadOptions) {
-    super();
+    super(options.limits);
     this.options = options;
     this.sink = new NodeSink(options.maxNodes, false);
   }

@@ -1,4 +1,4 @@
-import { EspalierError, quoted, say } from "../../errors.js";
+import { EspalierError, quoted, quotedList, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { copyName, isEmptyName, NamePool } from "../../model/names.js";
 import { isSize } from "../../model/size-rule.js";
@@ -36,11 +36,11 @@ function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): 
   if (paths) return linkByPath(table, paths, options);
   throw new EspalierError(
     "FIELD_MISSING",
-    `rows need "${options.idField}" and "${options.parentField}" columns, or a "${options.pathField}" column; ` +
-      `the columns are ${listNames(table.columnNames())}` +
-      (shape === "table"
+    say`rows need "${options.idField}" and "${options.parentField}" columns, or a "${options.pathField}" column; the columns are ${quotedList("name", table.columnNames())}${
+      shape === "table"
         ? "; a listing of sizes and paths (size, a tab, the path) reads with --input-format paths"
-        : ""),
+        : ""
+    }`,
   );
 }
 
@@ -165,7 +165,7 @@ function keptColumns(table: Table, options: LoadOptions): Map<string, string[]> 
     if (!cells) {
       throw new EspalierError(
         "FIELD_MISSING",
-        `no column "${key}" to keep; the columns are ${listNames(table.columnNames())}`,
+        say`no column "${key}" to keep; the columns are ${quotedList("name", table.columnNames())}`,
       );
     }
     values.set(key, cells.map(cellText));
@@ -198,10 +198,6 @@ function allText(cells: readonly Cell[], n: number, nonEmpty = false): boolean {
 function cellText(cell: Cell): string {
   if (cell === undefined || cell === null) return "";
   return typeof cell === "string" ? cell : String(cell);
-}
-
-function listNames(names: readonly string[]): string {
-  return names.length === 0 ? "(none)" : names.map((name) => JSON.stringify(name)).join(", ");
 }
 
 /** The column a path map's keys are read from; no record field can be named so. */
