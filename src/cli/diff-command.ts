@@ -12,7 +12,6 @@ import { palette } from "../render/palette.js";
 import type { CommandOutput } from "./commands.js";
 import { EXIT } from "./exit-codes.js";
 import { isFactInput, loadFactInput } from "./fact-input.js";
-import { hidingInput } from "./hide-input.js";
 import type { CliIO } from "./io.js";
 import { type DiffCliOptions, PSEUDONYM_KEY_ENV } from "./options.js";
 import { withProgress } from "./progress.js";
@@ -37,8 +36,8 @@ export async function diffCommand(
 ): Promise<CommandOutput> {
   if (oldInput === "-" && newInput === "-")
     throw new EspalierError("USAGE", "only one of the two versions can come from standard input");
-  const key = pseudonymKey(opts, io);
-  return hidingInput(key, () => diffOf(oldInput, newInput, opts, io, key));
+  // Errors leave through hidingInput in commands.ts (defineCommand), as every command's do.
+  return diffOf(oldInput, newInput, opts, io, pseudonymKey(opts, io));
 }
 
 async function diffOf(

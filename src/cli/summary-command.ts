@@ -8,7 +8,6 @@ import { renderText } from "../render/summary-text.js";
 import { prepare, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
 import { isFactInput, loadFactInput } from "./fact-input.js";
-import { hidingInput } from "./hide-input.js";
 import type { CliIO } from "./io.js";
 import {
   DEFAULT_BUDGET,
@@ -22,8 +21,8 @@ import { readInputStream } from "./read-input-stream.js";
 
 /** Reads, summarises and renders one input; returns the text to print (nothing is printed here). */
 export async function summaryCommand(input: string, opts: SummaryCliOptions, io: CliIO): Promise<string> {
-  const key = pseudonymKey(opts, io);
-  return hidingInput(key, () => summaryOf(input, opts, io, key));
+  // Errors leave through hidingInput in commands.ts (defineCommand), as every command's do.
+  return summaryOf(input, opts, io, pseudonymKey(opts, io));
 }
 
 async function summaryOf(
@@ -157,7 +156,8 @@ export function defaultBudget(io: CliIO): number {
   return DEFAULT_BUDGET;
 }
 
-export function pseudonymKey(opts: SharedCliOptions, io: CliIO): string | undefined {
+/** The secret of --pseudonymize (USAGE when it is on without one); undefined when it is off. */
+export function pseudonymKey(opts: { pseudonymize?: boolean }, io: CliIO): string | undefined {
   if (!opts.pseudonymize) return undefined;
   const key = io.env[PSEUDONYM_KEY_ENV];
   if (!key) {
