@@ -4,6 +4,7 @@
 // Usage: npm run bench -- [--nodes N[,N...]] [--only json,csv,paths,inventory,diff] [--repeat N] [--budget N]
 //                         [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--no-memory] [--no-diff]
 //                         [--rss-from auto|time|proc] [--force-data] [--big [--big-nodes N]]
+//        npm run bench -- --facts [...]   fact tables rolled up by the SQL engine (see bench/facts.js)
 // See docs/performance.md for what every number means.
 
 import { constants } from "node:buffer";
@@ -54,6 +55,11 @@ const TARGETS = {
 const MEMORY_ROW_MAX_NODES = 2_000_000;
 
 const log = (s) => process.stderr.write(`${s}\n`);
+if (process.argv.includes("--facts")) {
+  const { benchFacts } = await import("./facts.js");
+  await benchFacts(process.argv.slice(2).filter((a) => a !== "--facts"));
+  process.exit(0);
+}
 const options = parseArgs(process.argv.slice(2));
 
 if (!existsSync(distIndex)) {

@@ -89,7 +89,7 @@ export async function exploreCommand(
   const colour = useColour(opts, io);
   const end = await runView(session, start, terminal, colour, {
     size,
-    write: (file, state) => writeFoci(io, session, state, file, inputs),
+    write: (file, state) => writeFoci(io, session, state, file, inputs, key !== undefined),
   });
   if (end.kind === "interrupt") return { text: "", exitCode: EXIT.interrupted };
   if (end.kind === "quit") return { text: "", exitCode: EXIT.ok };
@@ -140,6 +140,7 @@ async function writeFoci(
   state: ExploreState,
   file: string,
   inputs: string[],
+  hidden: boolean,
 ): Promise<ExploreEvent> {
   const foci = [...fociOf(state.spec)].map((i) => session.pathOf(i));
   const what = { foci, budget: state.rows - STATUS_ROWS, importance: state.spec.importance };
@@ -158,8 +159,14 @@ async function writeFoci(
     await writeOutput(file, text, inputs, io.outputFiles);
     return { kind: "written", file, foci: foci.length };
   } catch (err) {
+    // A YAML error may quote the file, and the file may hold real names: under --pseudonymize the screen
+    // says only what kind of failure it was.
     const reason =
-      err instanceof EspalierError ? err.message : ((err as NodeJS.ErrnoException).code ?? String(err));
+      err instanceof EspalierError
+        ? hidden
+          ? `${err.code} (details hidden under --pseudonymize)`
+          : err.message
+        : ((err as NodeJS.ErrnoException).code ?? "failed");
     return { kind: "write-failed", file, reason };
   }
 }

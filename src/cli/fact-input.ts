@@ -1,8 +1,11 @@
 import { EspalierError } from "../errors.js";
 import { type FactFormat, type FactOptions, factFormatOf } from "../load/facts/fact-options.js";
+import type { FactLoad, FactSession } from "../load/facts/load-facts.js";
+import { parseSegment, splitPath } from "../model/segment.js";
 import type { Tree } from "../model/tree.js";
+import { prepare, type SummarizeOptions, type SummaryResult, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
-import type { SharedCliOptions } from "./options.js";
+import type { SharedCliOptions, SummaryCliOptions } from "./options.js";
 
 /** Whether the options make the input a fact table (rolled up by the SQL engine). */
 export function isFactInput(opts: SharedCliOptions): boolean {
@@ -42,37 +45,127 @@ export function factOptionsOf(opts: SharedCliOptions): FactOptions {
  * here, when a fact table is read, never at start-up.
  */
 export async function loadFactInput(input: string, opts: SharedCliOptions, rootName: string): Promise<Tree> {
+  const { loadFactTable } = await import("../load/facts/load-facts.js");
+  return loadFactTable(factLoadOf(input, opts, rootName));
+}
+
+function factLoadOf(input: string, opts: SharedCliOptions, rootName: string): FactLoad {
   if (input === "-") {
     throw new EspalierError(
       "USAGE",
       "a fact table is read from a file, not standard input: the SQL engine streams the file itself",
     );
   }
-  const format = factFormat(input, opts);
-  const { loadFactTable } = await import("../load/facts/load-facts.js");
-  return loadFactTable({
+  return {
     file: input,
-    format,
+    format: factFormat(input, opts),
     facts: factOptionsOf(opts),
     rolledUp: opts.rolledUp,
     rootName,
     keepFields: opts.label ? templateFields(opts.label) : [],
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
-  });
+  };
+}
+
+/** With `--pushdown auto`, a rollup with more rows than this is fetched only as deep as the summary reaches. */
+export const PUSHDOWN_FROM = 1_000_000;
+
+/**
+ * Loads and summarises a fact table. A small rollup is fetched whole. A big one (or any, with
+ * `--pushdown always`) is fetched only near the focus paths: the nodes within `reach` levels of them,
+ * each other node counted in its nearest fetched ancestor. The summary is exact when no shown node has
+ * unfetched children, since then the fit meets exactly the nodes it meets on the whole tree, with the
+ * same counts, sizes and order; otherwise the reach grows by one and the summary is made again. A
+ * rolled-up input that is too shallow for the summary is SHAPE, with the reach to ask for.
+ */
+export async function summarizeFactInput(
+  input: string,
+  opts: SharedCliOptions,
+  options: SummarizeOptions,
+  rootName: string,
+): Promise<{ tree: Tree; result: SummaryResult }> {
+  const { openFactTable } = await import("../load/facts/load-facts.js");
+  const session = await openFactTable(factLoadOf(input, opts, rootName));
+  try {
+    const pushdown =
+      opts.pushdown === "always" ||
+      (opts.pushdown === "auto" && session.size > PUSHDOWN_FROM) ||
+      opts.rolledUp;
+    return await summarizeFactSession(session, options, pushdown, opts.rolledUp);
+  } finally {
+    session.close();
+  }
+}
+
+/** The loop of {@link summarizeFactInput} on an open fact table (see there). */
+export async function summarizeFactSession(
+  session: FactSession,
+  options: SummarizeOptions,
+  pushdown: boolean,
+  rolledUp: boolean,
+): Promise<{ tree: Tree; result: SummaryResult }> {
+  const foci = literalFoci(options);
+  if (!pushdown || foci === undefined || options.importance !== "depth") {
+    const tree = await session.whole();
+    const result = summarize(prepare(tree), options);
+    if (rolledUp) exactOrShallow(tree, result);
+    return { tree, result };
+  }
+  for (let reach = 2; ; reach++) {
+    const tree = await session.near(foci, reach);
+    const result = summarize(prepare(tree), options);
+    if (rolledUp) {
+      exactOrShallow(tree, result);
+      return { tree, result };
+    }
+    if (reachesFar(tree, result) || !tree.elided?.some((e) => e > 0)) return { tree, result };
+  }
+}
+
+/** Whether no shown node has descendants that were not fetched. */
+function reachesFar(tree: Tree, result: SummaryResult): boolean {
+  const { elided } = tree;
+  if (!elided) return true;
+  for (const i of result.selection.admitted) if (elided[i] > 0) return false;
+  return true;
+}
+
+function exactOrShallow(tree: Tree, result: SummaryResult): void {
+  if (reachesFar(tree, result)) return;
+  throw new EspalierError(
+    "SHAPE",
+    "the rollup result stops above nodes this summary shows: print the query again with a larger " +
+      "--sql-reach (or a smaller --budget), run it, and read its result",
+  );
+}
+
+/** The foci as lists of names when every one is an exact path (no glob, no pseudonym); else undefined. */
+function literalFoci(options: SummarizeOptions): string[][] | undefined {
+  const out: string[][] = [];
+  for (const spec of options.foci) {
+    if (spec.includes("*")) return undefined;
+    if (options.pseudonymKey !== undefined && spec.includes("anon-")) return undefined;
+    out.push(splitPath(spec).map((raw) => parseSegment(raw).name));
+  }
+  return out;
 }
 
 /**
  * `--print-sql`: the rollup query in standard SQL over the table `--sql-table`. A key hierarchy's depth
  * comes from --key-depth, else from the input file (the engine reads its deepest key).
  */
-export async function printSqlCommand(input: string | undefined, opts: SharedCliOptions): Promise<string> {
+export async function printSqlCommand(input: string | undefined, opts: SummaryCliOptions): Promise<string> {
   const facts = factOptionsOf(opts);
   if (opts.rolledUp)
     throw new EspalierError("USAGE", "--print-sql prints the query whose result --rolled-up reads");
-  const { rollupSql } = await import("../load/facts/rollup-sql.js");
-  const hasSize = true;
-  if (facts.levels.length > 0) return `${rollupSql(facts, facts.levels.length, hasSize)};\n`;
-  if (facts.keyDepth !== undefined) return `${rollupSql(facts, facts.keyDepth, hasSize)};\n`;
+  const { printedSql } = await import("../load/facts/printed-sql.js");
+  const foci =
+    opts.sqlReach === undefined ? undefined : literalFoci({ ...opts, foci: opts.focus, budget: 1 });
+  if (opts.sqlReach !== undefined && foci === undefined)
+    throw new EspalierError("USAGE", "--sql-reach needs foci given as exact paths (no globs)");
+  const reach = opts.sqlReach === undefined ? undefined : { foci: foci ?? [], reach: opts.sqlReach };
+  if (facts.levels.length > 0) return printedSql(facts, facts.levels.length, reach);
+  if (facts.keyDepth !== undefined) return printedSql(facts, facts.keyDepth, reach);
   if (input === undefined || input === "-") {
     throw new EspalierError(
       "USAGE",
@@ -80,8 +173,7 @@ export async function printSqlCommand(input: string | undefined, opts: SharedCli
     );
   }
   const { deepestKey } = await import("../load/facts/load-facts.js");
-  const depth = await deepestKey(input, factFormat(input, opts), facts);
-  return `${rollupSql(facts, depth, hasSize)};\n`;
+  return printedSql(facts, await deepestKey(input, factFormat(input, opts), facts), reach);
 }
 
 function factFormat(input: string, opts: SharedCliOptions): FactFormat {

@@ -12,6 +12,9 @@ export const colorModes = ["auto", "always", "never"] as const;
 /** How sizes print. */
 export const unitChoices = ["auto", "bytes", "plain"] as const;
 
+/** When a fact table's rollup is fetched only as deep as the summary reaches. */
+export const pushdownModes = ["auto", "always", "never"] as const;
+
 /** The commands of the command line. */
 export const commandNames = ["summary", "diff", "explore"] as const;
 export type CommandName = (typeof commandNames)[number];
@@ -251,6 +254,14 @@ export const sharedOptions = {
     group: "Fact tables",
     schema: z.string().min(1).default("facts").describe("table name in the --print-sql query"),
   },
+  pushdown: {
+    flags: "--pushdown <when>",
+    group: "Fact tables",
+    schema: z
+      .enum(pushdownModes)
+      .default("auto")
+      .describe("fetch a big rollup only as deep as the summary reaches (auto: past 1,000,000 rows)"),
+  },
   rolledUp: {
     flags: "--rolled-up",
     group: "Fact tables",
@@ -271,6 +282,13 @@ export const summaryOnlyOptions = {
       .boolean()
       .default(false)
       .describe("print the rollup query in standard SQL (GROUP BY ROLLUP) and stop"),
+  },
+  sqlReach: {
+    flags: "--sql-reach <levels>",
+    group: "Fact tables",
+    schema: wholeNumber()
+      .optional()
+      .describe("with --print-sql and foci: a pushdown query, only nodes this near the focus paths"),
   },
 } satisfies Record<string, OptionSpec>;
 

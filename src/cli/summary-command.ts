@@ -5,9 +5,9 @@ import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
 import { palette } from "../render/palette.js";
 import { renderText } from "../render/summary-text.js";
-import { prepare, summarize } from "../summarize.js";
+import { prepare, type SummaryResult, summarize } from "../summarize.js";
 import { templateFields } from "../view/label.js";
-import { isFactInput, loadFactInput } from "./fact-input.js";
+import { isFactInput, loadFactInput, summarizeFactInput } from "./fact-input.js";
 import type { CliIO } from "./io.js";
 import {
   DEFAULT_BUDGET,
@@ -22,27 +22,31 @@ import { readInputStream } from "./read-input-stream.js";
 /** Reads, summarises and renders one input; returns the text to print (nothing is printed here). */
 export async function summaryCommand(input: string, opts: SummaryCliOptions, io: CliIO): Promise<string> {
   // Errors leave through hidingInput in commands.ts (defineCommand), as every command's do.
-  return summaryOf(input, opts, io, pseudonymKey(opts, io));
-}
-
-async function summaryOf(
-  input: string,
-  opts: SummaryCliOptions,
-  io: CliIO,
-  key: string | undefined,
-): Promise<string> {
   const foci = [...opts.focus];
   if (opts.focusFrom !== undefined) foci.push(...(await readFociFile(io, opts.focusFrom, input)));
-  const tree = await loadInput(io, input, opts);
+  const key = pseudonymKey(opts, io);
   const budget = opts.budget ?? defaultBudget(io);
-  const result = summarize(prepare(tree), {
+  const options = {
     foci,
     budget,
     importance: opts.importance,
     label: opts.label,
     pseudonymKey: key,
     chains: opts.chains,
-  });
+  };
+  let tree: Tree;
+  let result: SummaryResult;
+  if (isFactInput(opts)) {
+    // A fact table is summarised as it is fetched: only as deep as the summary reaches (see fact-input).
+    try {
+      ({ tree, result } = await summarizeFactInput(input, opts, options, rootNameOf(input)));
+    } catch (err) {
+      throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
+    }
+  } else {
+    tree = await loadInput(io, input, opts);
+    result = summarize(prepare(tree), options);
+  }
   if (opts.format === "json") {
     // Each other output format is loaded when asked for: a start loads only what the run needs.
     const { renderJson } = await import("../render/summary-json.js");

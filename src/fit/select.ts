@@ -31,7 +31,7 @@ export type ChildrenInOrder = (p: number) => Int32Array | null;
 export function lineCost(tree: Tree, measures: Measures, scores: Scores, chains: boolean, x: number): number {
   if (!chains) return 1;
   const p = tree.parent[x];
-  return p >= 0 && measures.count[p] === measures.count[x] + 1 && scores.distanceOf(p) !== 0 ? 0 : 1;
+  return p >= 0 && measures.nodes[p] === measures.nodes[x] + 1 && scores.distanceOf(p) !== 0 ? 0 : 1;
 }
 
 /**

@@ -36,13 +36,13 @@ export function contextTieBreaks(
   scores: Pick<Scores, "distanceOf">,
 ): NodeOrder {
   const { depth } = tree;
-  const { count } = measures;
+  const { nodes } = measures;
   return (a, b) => {
     const da = scores.distanceOf(a);
     const db = scores.distanceOf(b);
     if (da !== db) return da - db;
     if (depth[a] !== depth[b]) return depth[a] - depth[b];
-    if (count[a] !== count[b]) return count[b] - count[a];
+    if (nodes[a] !== nodes[b]) return nodes[b] - nodes[a];
     return a - b;
   };
 }
@@ -55,13 +55,13 @@ export function contextTieBreaks(
  * it per parent and a new focus need not look at every child of a node with very many.
  */
 export function childrenByDepthOrder(measures: Measures, p: number): Int32Array {
-  const { count, children } = measures;
+  const { count, nodes, children } = measures;
   const list = new Int32Array(children[p]);
   let uniform = true;
   for (let c = p + 1, k = 0, end = p + count[p]; c < end; c += count[c], k++) {
     list[k] = c;
-    if (count[c] !== count[p + 1]) uniform = false;
+    if (nodes[c] !== nodes[p + 1]) uniform = false;
   }
   // Children come in input order; with equal subtree counts that is the order already.
-  return uniform ? list : list.sort((a, b) => count[b] - count[a] || a - b);
+  return uniform ? list : list.sort((a, b) => nodes[b] - nodes[a] || a - b);
 }

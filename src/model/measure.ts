@@ -2,8 +2,13 @@ import type { Tree } from "./tree.js";
 
 /** Subtree aggregates of every node, including the node itself. */
 export interface Measures {
-  /** Nodes in the subtree (>= 1). In pre-order the subtree of i is [i, i + count[i]). */
+  /** Nodes of the arrays in the subtree (>= 1): in pre-order the subtree of i is [i, i + count[i]). */
   readonly count: Int32Array;
+  /**
+   * Nodes in the subtree as the input has them: `count` plus the elided descendants (Tree.elided);
+   * the very array `count` when nothing is elided. What a reader is shown, and what orders nodes.
+   */
+  readonly nodes: Int32Array | Float64Array;
   /** Sum of own sizes over the subtree. */
   readonly size: Float64Array;
   /** Leaves in the subtree. */
@@ -33,7 +38,20 @@ export function measure(tree: Tree): Measures {
     leaves[p] += leaves[i];
     if (height[i] + 1 > height[p]) height[p] = height[i] + 1;
   }
-  return { count, size, leaves, height, children };
+  return { count, nodes: withElided(tree, count), size, leaves, height, children };
+}
+
+/** Subtree node counts with the elided descendants added in (a reverse pass, as above). */
+function withElided(tree: Tree, count: Int32Array): Int32Array | Float64Array {
+  const { elided, parent } = tree;
+  if (!elided) return count;
+  const nodes = Float64Array.from(count);
+  const extra = Float64Array.from(elided);
+  for (let i = tree.length - 1; i >= 0; i--) {
+    nodes[i] += extra[i];
+    if (parent[i] >= 0) extra[parent[i]] += extra[i];
+  }
+  return nodes;
 }
 
 /** Children of `i` in input order, using the pre-order layout. */

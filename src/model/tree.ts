@@ -27,6 +27,12 @@ export interface Tree {
   readonly fields: ReadonlyMap<string, readonly string[]>;
   /** Whether node 0 was added by espalier to join several top-level nodes. */
   readonly syntheticRoot: boolean;
+  /**
+   * Descendants of each node that exist in the input but are not in these arrays (a fact table's
+   * rollup fetched only as deep as the summary can reach; see docs/scale.md). Absent: none.
+   * A node with elided descendants has no children here, and its own size is its whole subtree's.
+   */
+  readonly elided?: Float64Array;
   /** How the loader read the input, when a loader says (trees built otherwise may leave it out). */
   readonly reading?: TreeReading;
 }

@@ -23,7 +23,7 @@ export function buildView(
   idOf: (i: number) => string | null = (i) => index.tree.ids?.get(i) ?? null,
 ): HierarchyNode<ViewNode> {
   const { tree, measures } = index;
-  const { count, size, children } = measures;
+  const { count, nodes, size, children } = measures;
   const { shown } = selection;
   const isFocus = new Set(foci);
   const byIndex = new Map<number, ViewNode>();
@@ -41,7 +41,7 @@ export function buildView(
       id: idOf(i),
       label: label(i),
       interest: round(scores.interestOf(i)),
-      nodes: count[i],
+      nodes: nodes[i],
       size: size[i],
       focus: isFocus.has(i),
       onPath: foci.length > 0 && scores.isForced(i),
@@ -63,7 +63,7 @@ export function buildView(
       shownKids.set(p, sums);
     }
     sums.children++;
-    sums.nodes += count[i];
+    sums.nodes += nodes[i];
     sums.size += size[i];
     if (!Number.isInteger(size[i])) sums.exact = false;
   }
@@ -77,7 +77,7 @@ export function buildView(
     const exact = sums.exact && Number.isInteger(size[i]) && Number.isInteger(own);
     byIndex.get(i)!.hidden = {
       children: hiddenChildren,
-      nodes: count[i] - 1 - sums.nodes,
+      nodes: nodes[i] - 1 - sums.nodes,
       size: exact ? size[i] - own - sums.size : hiddenSize(i),
     };
   }

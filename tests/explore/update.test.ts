@@ -162,6 +162,14 @@ describe("update(session, state, event)", () => {
             const all = [...Array(s.tree.length).keys()].sort(fitted.order);
             const k = fitted.shown.length;
             expect(all.slice(0, k).every((i) => fitted.isShown[i] === 1)).toBe(true);
+            expect(all.slice(k).every((i) => fitted.isShown[i] === 0)).toBe(true);
+            // Conservation in the combined tree: nodes add up at every shown node, the root holds all.
+            let hidden = 0;
+            (fitted.view as HierarchyNode<ViewNode>).each(({ data: v }) => {
+              expect(v.nodes).toBe(1 + v.children.reduce((a, c) => a + c.nodes, 0) + (v.hidden?.nodes ?? 0));
+              hidden += v.hidden?.nodes ?? 0;
+            });
+            expect(k + hidden).toBe(s.tree.length);
           }
         },
       ),

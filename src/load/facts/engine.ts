@@ -20,6 +20,8 @@ export interface EngineSettings {
   memoryLimit?: string;
   /** Worker threads; the engine's default (every core) when undefined. */
   threads?: number;
+  /** Where the engine spills what does not fit its memory cap. */
+  tempDirectory?: string;
 }
 
 /** The package that ships the engine; imported here and nowhere else, and only when a fact table is read. */
@@ -47,6 +49,7 @@ export async function openEngine(settings: EngineSettings = {}, from: string = P
   const options: Record<string, string> = {};
   if (settings.memoryLimit !== undefined) options.memory_limit = settings.memoryLimit;
   if (settings.threads !== undefined) options.threads = String(settings.threads);
+  if (settings.tempDirectory !== undefined) options.temp_directory = settings.tempDirectory;
   const instance = await api.DuckDBInstance.create(":memory:", options);
   const connection = await instance.connect();
   return {

@@ -1,10 +1,13 @@
 import { open } from "node:fs/promises";
+import { tmpdir } from "node:os";
 import { parse } from "csv-parse/sync";
 import { EspalierError, quoted as input, quotedList, say } from "../../errors.js";
 import type { Tree } from "../../model/tree.js";
 import { type Columns, type Engine, type EngineSettings, openEngine } from "./engine.js";
 import type { FactFormat, FactOptions } from "./fact-options.js";
-import { keyDepthSql, rollupSql } from "./rollup-sql.js";
+import { ROLLUP_TABLE, STATS_TABLE } from "./printed-sql.js";
+import { reachSql, statsSql } from "./pushdown-sql.js";
+import { identifier, keyDepthSql, rollupSql } from "./rollup-sql.js";
 import { rollupTree } from "./rollup-tree.js";
 import { sourceViewSql } from "./source-sql.js";
 
@@ -27,11 +30,40 @@ export interface FactLoad {
  * built (rollupTree). With `rolledUp`, the file already is such a result, made by another engine.
  */
 export async function loadFactTable(load: FactLoad): Promise<Tree> {
+  const session = await openFactTable(load);
+  try {
+    return await session.whole();
+  } finally {
+    session.close();
+  }
+}
+
+/** A fact table opened in the engine and rolled up there, from which trees are fetched. */
+export interface FactSession {
+  /** Rows of the rollup result (nodes, and own rows of a key hierarchy): what a whole tree costs. */
+  readonly size: number;
+  /** The whole rollup as a tree. */
+  whole(): Promise<Tree>;
+  /**
+   * The nodes within `reach` levels of the focus paths (names, outermost first), each other node
+   * counted in its nearest fetched ancestor's `elided` descendants. The rolled-up input of a
+   * pushdown query gives what it holds.
+   */
+  near(foci: readonly (readonly string[])[], reach: number): Promise<Tree>;
+  close(): void;
+}
+
+/**
+ * Opens a fact table: the engine reads the file as a view and rolls it up into a temporary table
+ * (kept by the engine, spilled to disk past its memory cap), so that a tree of any part of it costs
+ * one more query over the rollup, never another pass over the facts.
+ */
+export async function openFactTable(load: FactLoad): Promise<FactSession> {
   const header = load.format === "csv" || load.format === "tsv" ? await readHeader(load) : [];
-  const engine = await openEngine(load.engine);
+  const engine = await openEngine({ memoryLimit: "1GB", tempDirectory: tmpdir(), ...load.engine });
   try {
     await run(engine, sourceViewSql(load.facts.table, load.file, load.format, header), load);
-    const columns = (await run(engine, `SELECT * FROM ${quoted(load.facts.table)} LIMIT 0`, load)).names;
+    const columns = (await run(engine, `SELECT * FROM ${identifier(load.facts.table)} LIMIT 0`, load)).names;
     const treeOptions = {
       rootName: load.rootName,
       keepFields: load.keepFields,
@@ -40,17 +72,44 @@ export async function loadFactTable(load: FactLoad): Promise<Tree> {
       rowsAreInput: load.rolledUp,
     };
     if (load.rolledUp) {
-      return rollupTree(await run(engine, `SELECT * FROM ${quoted(load.facts.table)}`, load), treeOptions);
+      const all = async () =>
+        rollupTree(await run(engine, `SELECT * FROM ${identifier(load.facts.table)}`, load), treeOptions);
+      return { size: 0, whole: all, near: all, close: () => engine.close() };
     }
     requireColumns(columns, load.facts);
     const hasSize = columns.includes(load.facts.sizeField);
     const depth = load.facts.levels.length > 0 ? load.facts.levels.length : await keyDepth(engine, load);
-    const result = await run(engine, rollupSql(load.facts, depth, hasSize), load, hasSize);
-    const tree = rollupTree(result, treeOptions);
-    if (!hasSize) return { ...tree, hasSizes: false };
-    return tree;
-  } finally {
+    await run(
+      engine,
+      `CREATE TEMPORARY TABLE ${ROLLUP_TABLE} AS ${rollupSql(load.facts, depth, hasSize)}`,
+      load,
+      hasSize,
+    );
+    const size = Number((await run(engine, `SELECT COUNT(*) FROM ${ROLLUP_TABLE}`, load)).values[0][0]);
+    const sized = (tree: Tree): Tree => (hasSize ? tree : { ...tree, hasSizes: false });
+    let stats = false;
+    return {
+      size,
+      whole: async () =>
+        sized(rollupTree(await run(engine, `SELECT * FROM ${ROLLUP_TABLE}`, load), treeOptions)),
+      near: async (foci, reach) => {
+        if (!stats) {
+          await run(
+            engine,
+            `CREATE TEMPORARY TABLE ${STATS_TABLE} AS ${statsSql(ROLLUP_TABLE, depth)}`,
+            load,
+          );
+          stats = true;
+        }
+        return sized(
+          rollupTree(await run(engine, reachSql(STATS_TABLE, depth, foci, reach), load), treeOptions),
+        );
+      },
+      close: () => engine.close(),
+    };
+  } catch (err) {
     engine.close();
+    throw err;
   }
 }
 
@@ -61,7 +120,10 @@ export async function deepestKey(file: string, format: FactFormat, facts: FactOp
   const engine = await openEngine();
   try {
     await run(engine, sourceViewSql(facts.table, file, format, header), load);
-    requireColumns((await run(engine, `SELECT * FROM ${quoted(facts.table)} LIMIT 0`, load)).names, facts);
+    requireColumns(
+      (await run(engine, `SELECT * FROM ${identifier(facts.table)} LIMIT 0`, load)).names,
+      facts,
+    );
     return await keyDepth(engine, { ...load, facts: { ...facts, keyDepth: undefined } });
   } finally {
     engine.close();
@@ -137,8 +199,4 @@ async function readHeader(load: FactLoad): Promise<string[]> {
   const records: string[][] = parse(text, { to_line: 1, relax_column_count: true, bom: true });
   if (records.length === 0) throw new EspalierError("INPUT_EMPTY", "the input is empty");
   return records[0];
-}
-
-function quoted(table: string): string {
-  return `"${table.replaceAll('"', '""')}"`;
 }

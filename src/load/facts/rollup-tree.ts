@@ -25,6 +25,9 @@ interface NodeRow {
   size: number;
   /** Result row (1-based). */
   at: number;
+  /** Nodes in the subtree and children, when the result carries them (a pushdown result); else -1. */
+  nodes: number;
+  children: number;
 }
 
 /**
@@ -54,6 +57,12 @@ export function rollupTree(result: Columns, options: RollupTreeOptions): Tree {
       levels.push(String(v));
     }
     const rows = wholeNumber(result.values[col.rows][r], C.rows, r, options);
+    const counted = (c: number, name: string) => {
+      const v = c < 0 ? null : result.values[c][r];
+      return v === null || v === undefined ? -1 : wholeNumber(v, name, r, options);
+    };
+    const nodeCount = counted(col.nodes, C.nodes);
+    const childCount = counted(col.children, C.children);
     const size = col.size < 0 ? 0 : sizeValue(result.values[col.size][r]);
     if (col.sizeMin >= 0) {
       const min = result.values[col.sizeMin][r];
@@ -71,9 +80,9 @@ export function rollupTree(result: Columns, options: RollupTreeOptions): Tree {
       own.set(key, { rows, size, at: r + 1 });
     } else if (g === 0) {
       if (total) throw duplicate(levels, total.at, r, options);
-      total = { levels, rows, size, at: r + 1 };
+      total = { levels, rows, size, at: r + 1, nodes: nodeCount, children: childCount };
     } else {
-      nodes.push({ levels, rows, size, at: r + 1 });
+      nodes.push({ levels, rows, size, at: r + 1, nodes: nodeCount, children: childCount });
     }
   }
   if (!total) throw shape("the result has no total row (prefix_depth 0)", -1, options);
@@ -103,6 +112,8 @@ function build(
   const ownRows = new Float64Array(n);
   const childRows = new Float64Array(n);
   const rowsOf = new Float64Array(n);
+  const kids = new Float64Array(n);
+  const kidNodes = new Float64Array(n);
   const names: string[] = new Array(n);
   names[0] = options.rootName;
   parent[0] = -1;
@@ -126,10 +137,18 @@ function build(
     names[i] = row.levels[d - 1];
     rowsOf[i] = row.rows;
     childRows[p] += row.rows;
+    kids[p]++;
+    kidNodes[p] += row.nodes;
     origin[i] = options.rowsAreInput ? row.at : 0;
   }
+  const counts = all.some((row) => row.nodes >= 0);
+  const elided = counts ? new Float64Array(n) : undefined;
   // Own size: the own row where the query gave one; at the deepest level the subtree's (no set is finer).
   for (let i = 0; i < n; i++) {
+    if (elided && pushedDown(all[i], kids[i], kidNodes[i], elided, i, options)) {
+      ownSize[i] = all[i].size;
+      continue;
+    }
     const mine = own.get(keyOf(all[i].levels));
     if (mine) {
       ownSize[i] = mine.size;
@@ -191,7 +210,38 @@ function build(
     originIsRow: true,
     fields,
     syntheticRoot: true,
+    ...(elided ? { elided } : {}),
   };
+}
+
+/**
+ * For a pushdown result: whether node `i` is a cut node (its children were not fetched), recording its
+ * descendants as elided; checks that a fetched node's counts add up. A node with some but not all of
+ * its children is SHAPE: the result was cut across a family, and no tree can be built from it.
+ */
+function pushedDown(
+  row: NodeRow,
+  fetched: number,
+  fetchedNodes: number,
+  elided: Float64Array,
+  i: number,
+  options: RollupTreeOptions,
+): boolean {
+  if (row.nodes < 1 || row.children < 0)
+    throw shape(`${describe(row.levels)} has no ${C.nodes} or ${C.children}`, row.at - 1, options);
+  if (fetched === 0 && row.children > 0) {
+    elided[i] = row.nodes - 1;
+    return true;
+  }
+  if (fetched !== row.children || fetchedNodes + 1 !== row.nodes) {
+    throw shape(
+      `${describe(row.levels)} has ${row.children} children and ${row.nodes} nodes, but the result holds ` +
+        `${fetched} children with ${fetchedNodes + 1} nodes: the result is cut across a family`,
+      row.at - 1,
+      options,
+    );
+  }
+  return false;
 }
 
 interface ColumnIndex {
@@ -200,13 +250,23 @@ interface ColumnIndex {
   rows: number;
   size: number;
   sizeMin: number;
+  nodes: number;
+  children: number;
 }
 
 function columnsOf(result: Columns): ColumnIndex {
   const at = (name: string) => result.names.findIndex((n) => n.toLowerCase() === name);
   const levels: number[] = [];
   for (let k = 1; at(`${C.level}${k}`) >= 0; k++) levels.push(at(`${C.level}${k}`));
-  const index = { depth: at(C.depth), levels, rows: at(C.rows), size: at(C.size), sizeMin: at(C.sizeMin) };
+  const index = {
+    depth: at(C.depth),
+    levels,
+    rows: at(C.rows),
+    size: at(C.size),
+    sizeMin: at(C.sizeMin),
+    nodes: at(C.nodes),
+    children: at(C.children),
+  };
   const missing = [C.depth, C.rows].filter((name) => at(name) < 0);
   if (missing.length > 0) {
     throw new EspalierError(

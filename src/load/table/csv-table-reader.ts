@@ -1,5 +1,6 @@
 import { Buffer } from "node:buffer";
 import { EspalierError } from "../../errors.js";
+import { asBuffer, codecs } from "../../model/buffer-codecs.js";
 import { NamePool, namesToArray } from "../../model/names.js";
 import type { LoadOptions } from "../load-options.js";
 import { limitsOf } from "../read-limits.js";
@@ -43,7 +44,7 @@ export class CsvTableReader implements CsvSink {
   private readonly maxRows: number;
   // A Buffer over the bytes the scanner hands over, for Node's own UTF-8 decoding of one cell.
   private viewOf: Uint8Array | undefined;
-  private view: Buffer & { utf8Slice(start: number, end: number): string } = Buffer.alloc(0) as never;
+  private view: Buffer = Buffer.alloc(0);
 
   constructor(
     delimiter: "," | "\t",
@@ -161,9 +162,9 @@ export class CsvTableReader implements CsvSink {
   private text(bytes: Uint8Array, start: number, end: number): string {
     if (bytes !== this.viewOf) {
       this.viewOf = bytes;
-      this.view = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength) as never;
+      this.view = asBuffer(bytes);
     }
-    return this.view.utf8Slice(start, end);
+    return codecs.utf8Slice(this.view, start, end);
   }
 }
 
