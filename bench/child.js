@@ -8,7 +8,7 @@
 //             the engine's default heap limit (what the launcher compares its estimate with)
 //   floor     the least any loader must do: read the text and parse it, with no tree built
 //   full      what `espalier FILE --focus A --focus B --budget N` does, step by step as
-//             src/cli/summary-command.ts does it (chunks from a file stream, loadTreeFromStream, prepare,
+//             src/cli/summary-command.ts and input.ts do it (chunks from a file stream, loadTreeFromStream, prepare,
 //             summarize, renderText), through the modules in dist/
 //   memory    the same summary through the in-memory loader: read the whole text, then loadTree
 //   refocus   load once (as the CLI loads), then time summarize() for many different random foci
@@ -158,8 +158,9 @@ async function readAsCli(file) {
 
 /** The CLI's modules (dist/cli), imported before the clock starts. */
 async function cliModules() {
-  const [command, stream, progress, options, palette] = await Promise.all([
-    import(CLI("summary-command")),
+  const [input, settings, stream, progress, options, palette] = await Promise.all([
+    import(CLI("input")),
+    import(CLI("output-settings")),
     import(CLI("read-input-stream")),
     import(CLI("progress")),
     import(CLI("options")),
@@ -171,7 +172,7 @@ async function cliModules() {
   const modules = new URL("../dist/cli/launch.js", import.meta.url);
   const fresh = existsSync(bundle) && statSync(bundle).mtimeMs >= statSync(modules).mtimeMs;
   const { loadInWorker } = await import(fresh ? bundle : CLI("load-in-worker"));
-  return { ...command, ...stream, ...progress, ...options, ...palette, loadInWorker };
+  return { ...input, ...settings, ...stream, ...progress, ...options, ...palette, loadInWorker };
 }
 
 /**

@@ -25,7 +25,7 @@ const outDir = join(benchDir, "out");
 const childScript = join(benchDir, "child.js");
 const cliScript = join(repoRoot, "bin", "espalier.js");
 const distIndex = join(repoRoot, "dist", "index.js");
-const distHeap = join(repoRoot, "dist", "cli", "heap.js");
+const distHeap = join(repoRoot, "dist", "cli", "heap-to-restart-with.js");
 const TIME = "/usr/bin/time";
 const MiB = 2 ** 20;
 

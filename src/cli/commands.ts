@@ -5,10 +5,11 @@ import { effectiveOptions, printConfig } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
 import { printSqlCommand } from "./fact-input.js";
 import { hidingInput } from "./hide-input.js";
+import { pseudonymKey } from "./input.js";
 import type { CliIO } from "./io.js";
 import { type CommandName, commandOptions, diffOptionsSchema, summaryOptionsSchema } from "./options.js";
 import type { CommandLine } from "./parse-command-line.js";
-import { pseudonymKey, summaryCommand } from "./summary-command.js";
+import { summaryCommand } from "./summary-command.js";
 import { checkOutputTarget } from "./write-output.js";
 
 /** What a command hands back: the text for standard output and the exit code. */

@@ -11,15 +11,15 @@ import type { ExploreState } from "../explore/state.js";
 import { ENTER, frame, LEAVE } from "../explore/terminal.js";
 import { type ExploreEvent, fociOf, needsWork, STATUS_ROWS, startState, update } from "../explore/update.js";
 import { resolveFoci } from "../focus/resolve.js";
+import type { Tree } from "../model/tree.js";
 import { palette } from "../render/palette.js";
 import { prepare } from "../summarize.js";
-import { loadBoth } from "./diff-command.js";
 import { EXIT } from "./exit-codes.js";
+import { loadInput, loadVersions, pseudonymKey, readFoci } from "./input.js";
 import type { CliIO } from "./io.js";
 import { type SummaryCliOptions, summaryOptionsSchema } from "./options.js";
+import { unitsFor, useColour } from "./output-settings.js";
 import { flagsByKey } from "./parse-command-line.js";
-import { readInput } from "./read-input.js";
-import { loadInput, pseudonymKey, toLoadOptions, unitsFor, useColour } from "./summary-command.js";
 import { writeOutput } from "./write-output.js";
 
 /** How the command was set up, beyond its options. */
@@ -47,30 +47,24 @@ export async function exploreCommand(
     );
   const terminal = setup.terminal ?? nodeTerminal(input === "-" || newInput === "-");
   const inputs = newInput === undefined ? [input] : [input, newInput];
-  const foci = [...opts.focus];
-  if (opts.focusFrom !== undefined) {
-    if (opts.focusFrom === "-" && inputs.includes("-"))
-      throw new EspalierError("USAGE", "standard input cannot hold both the tree and the foci");
-    foci.push(...(await readInput(io, opts.focusFrom)).split(/\r?\n/).filter((line) => line !== ""));
-  }
+  const foci = await readFoci(io, opts, inputs);
   const key = pseudonymKey(opts, io);
-  const look = {
-    units: unitsFor(opts),
+  // The unit of size follows the loaded tree (file sizes and a document's bytes print as bytes).
+  const look = (tree: Tree) => ({
+    units: unitsFor(opts, tree),
     label: opts.label,
     chains: opts.chains,
     pseudonymKey: key,
     palette: palette(useColour(opts, io)),
-  };
+  });
   let session: Session;
   if (newInput === undefined) {
-    session = summarySession(prepare(await loadInput(io, input, opts)), look);
+    const tree = await loadInput(io, input, opts);
+    session = summarySession(prepare(tree), look(tree));
   } else {
-    if (input === "-" && newInput === "-")
-      throw new EspalierError("USAGE", "only one of the two versions can come from standard input");
-    const newOptions = toLoadOptions(newInput, opts);
-    const oldOptions = { ...toLoadOptions(input, opts), rootName: newOptions.rootName };
-    const [oldTree, newTree] = await loadBoth(io, input, oldOptions, newInput, newOptions);
-    session = diffSession(prepareDiff(oldTree, newTree), look);
+    const [oldTree, newTree] = await loadVersions(io, input, newInput, opts);
+    const prepared = prepareDiff(oldTree, newTree);
+    session = diffSession(prepared, look(prepared.combined.tree));
   }
   const given = resolveFoci(session.index, foci, key);
   const size = () => ({

@@ -7,6 +7,7 @@ export const cliInputFormats = [...inputFormats, "jsonl", "parquet"] as const;
 
 /** Output formats of a summary and of a diff. */
 export const outputFormats = ["text", "json", "markdown", "svg"] as const;
+export type OutputFormat = (typeof outputFormats)[number];
 /** When text output is coloured. */
 export const colorModes = ["auto", "always", "never"] as const;
 /** How sizes print. */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { heapToRestartWith } from "../../src/cli/heap.js";
+import { heapToRestartWith } from "../../src/cli/heap-to-restart-with.js";
 
 const GiB = 2 ** 30;
 const MiB = 2 ** 20;

@@ -1,0 +1,144 @@
+import { EspalierError } from "../errors.js";
+import { defaultLoadOptions, type LoadOptions } from "../load/load-options.js";
+import { loadTreeFromStream } from "../load/stream/index.js";
+import type { Tree } from "../model/tree.js";
+import { templateFields } from "../view/label.js";
+import { isFactInput, loadFactInput } from "./fact-input.js";
+import type { CliIO } from "./io.js";
+import { PSEUDONYM_KEY_ENV, type SharedCliOptions } from "./options.js";
+import { withProgress } from "./progress.js";
+import { FOCI_BOUND, readInput } from "./read-input.js";
+import { readInputStream } from "./read-input-stream.js";
+
+// What every command reads: its input trees, its foci and the pseudonym key. Summary, diff and explore
+// all go through here, so they read the same inputs the same way.
+
+/**
+ * One input as a tree: a fact table rolled up by the engine, else any tree format streamed in chunks
+ * (no string ever holds the whole input, so inputs past the engine's longest string load too), with
+ * progress on a terminal. Errors name the file.
+ */
+export async function loadInput(
+  io: CliIO,
+  input: string,
+  opts: SharedCliOptions,
+  rootName: string = rootNameOf(input),
+): Promise<Tree> {
+  try {
+    if (isFactInput(opts)) return await loadFactInput(input, opts, rootName);
+    return await streamTree(io, input, { ...toLoadOptions(input, opts), rootName });
+  } catch (err) {
+    throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
+  }
+}
+
+/**
+ * Two versions of one hierarchy, under one root name (NEW's) so that a root espalier adds never shows
+ * as renamed. OLD loads on another thread while NEW loads here when the IO can (a named file of a tree
+ * format); else one after the other. An error in OLD is reported before one in NEW either way.
+ */
+export async function loadVersions(
+  io: CliIO,
+  oldInput: string,
+  newInput: string,
+  opts: SharedCliOptions,
+): Promise<[Tree, Tree]> {
+  if (oldInput === "-" && newInput === "-")
+    throw new EspalierError("USAGE", "only one of the two versions can come from standard input");
+  const rootName = rootNameOf(newInput);
+  if (!io.loadInWorker || oldInput === "-" || isFactInput(opts)) {
+    // A fact table's engine uses every core itself: one after the other.
+    const oldTree = await loadInput(io, oldInput, opts, rootName);
+    return [oldTree, await loadInput(io, newInput, opts, rootName)];
+  }
+  const named = (err: unknown) => (err instanceof EspalierError ? err.inFile(displayName(oldInput)) : err);
+  const [oldTree, newTree] = await Promise.allSettled([
+    io
+      .loadInWorker(oldInput, { ...toLoadOptions(oldInput, opts), rootName })
+      .catch((err) => Promise.reject(named(err))),
+    loadInput(io, newInput, opts, rootName),
+  ]);
+  if (oldTree.status === "rejected") throw oldTree.reason;
+  if (newTree.status === "rejected") throw newTree.reason;
+  return [oldTree.value, newTree.value];
+}
+
+/**
+ * The foci: every `--focus`, then each line of the `--focus-from` file taken verbatim (a name may begin
+ * or end with spaces; blank lines are skipped). `inputs` are the command's inputs: standard input
+ * cannot hold both one of them and the foci.
+ */
+export async function readFoci(
+  io: CliIO,
+  opts: SharedCliOptions,
+  inputs: readonly string[],
+): Promise<string[]> {
+  const foci = [...opts.focus];
+  if (opts.focusFrom === undefined) return foci;
+  if (opts.focusFrom === "-" && inputs.includes("-"))
+    throw new EspalierError(
+      "USAGE",
+      "standard input cannot hold both an input and the foci (--focus-from -)",
+    );
+  // A file or a pipe, never a device, at most maxFociBytes (read-limits.ts).
+  const text = await readInput(io, opts.focusFrom, FOCI_BOUND);
+  foci.push(...text.split(/\r?\n/).filter((line) => line !== ""));
+  return foci;
+}
+
+/** The secret of `--pseudonymize`, from the environment (never from an option, which a log would keep). */
+export function pseudonymKey(opts: { pseudonymize?: boolean }, io: CliIO): string | undefined {
+  if (!opts.pseudonymize) return undefined;
+  const key = io.env[PSEUDONYM_KEY_ENV];
+  if (!key) {
+    throw new EspalierError(
+      "USAGE",
+      `--pseudonymize needs a secret in the environment variable ${PSEUDONYM_KEY_ENV} (keep it out of the log)`,
+    );
+  }
+  return key;
+}
+
+/** The loader's options for one input of a tree format. */
+export function toLoadOptions(input: string, opts: SharedCliOptions): LoadOptions {
+  const format = opts.inputFormat;
+  if (format === "parquet" || format === "jsonl")
+    throw new EspalierError(
+      "USAGE",
+      `--input-format ${format} is read as a fact table: give --levels or --key-field`,
+    );
+  return {
+    ...defaultLoadOptions,
+    format,
+    file: input === "-" ? undefined : input,
+    nameField: opts.nameField,
+    childrenField: opts.childrenField,
+    sizeField: opts.sizeField,
+    idField: opts.idField,
+    parentField: opts.parentField,
+    pathField: opts.pathField,
+    keepFields: opts.label ? templateFields(opts.label) : [],
+    rootName: rootNameOf(input),
+    maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
+    ...(opts.readAs === "auto" ? {} : { readAs: opts.readAs }),
+    ...(opts.nulSeparated ? { nulSeparated: true } : {}),
+  };
+}
+
+/** The name of a root espalier adds: the input file's base name, `(stdin)` for standard input. */
+export function rootNameOf(input: string): string {
+  if (input === "-") return "(stdin)";
+  const parts = input.split(/[\\/]/);
+  return parts[parts.length - 1] || input;
+}
+
+/** How an input is named in messages. */
+export function displayName(input: string): string {
+  return input === "-" ? "<stdin>" : input;
+}
+
+async function streamTree(io: CliIO, input: string, options: LoadOptions): Promise<Tree> {
+  const source = await readInputStream(io, input);
+  const chunks = withProgress(source.chunks, io, displayName(input), source.size);
+  return loadTreeFromStream(chunks, options);
+}

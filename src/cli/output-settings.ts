@@ -1,0 +1,61 @@
+import type { Tree } from "../model/tree.js";
+import type { Units } from "../render/format-size.js";
+import { type Palette, palette } from "../render/palette.js";
+import type { CliIO } from "./io.js";
+import { DEFAULT_BUDGET, type SharedCliOptions } from "./options.js";
+
+/** How a command's result is printed: what the options and the terminal say. */
+export interface OutputSettings {
+  budget: number;
+  /** Widest line in columns; undefined for no limit. */
+  width: number | undefined;
+  units: Units;
+  palette: Palette;
+  chains: boolean;
+  /** Whether a label template was given (JSON then carries each node's label). */
+  labels: boolean;
+}
+
+/**
+ * The settings of one run: options first, then the terminal (when printing to one), then defaults; the
+ * unit of size also from the loaded tree.
+ */
+export function outputSettings(opts: SharedCliOptions, io: CliIO, tree: Tree): OutputSettings {
+  return {
+    budget: opts.budget ?? defaultBudget(io),
+    width: opts.width ?? defaultWidth(io),
+    units: unitsFor(opts, tree),
+    palette: palette(useColour(opts, io)),
+    chains: opts.chains,
+    labels: opts.label !== undefined,
+  };
+}
+
+/**
+ * Sizes print as bytes when the loader says they count bytes (see src/load/size-unit.ts), else plain.
+ * Without a loaded tree (a caller that decides before loading) the size field's name decides.
+ */
+export function unitsFor(opts: SharedCliOptions, tree?: Tree): Units {
+  if (opts.units !== "auto") return opts.units;
+  if (tree === undefined) return ["size", "bytes"].includes(opts.sizeField.toLowerCase()) ? "bytes" : "plain";
+  return tree.reading?.sizeUnit === "bytes" ? "bytes" : "plain";
+}
+
+/** Colour only on a terminal, never with NO_COLOR set (no-color.org) or TERM=dumb, unless forced. */
+export function useColour(opts: SharedCliOptions, io: CliIO): boolean {
+  if (opts.color !== "auto") return opts.color === "always";
+  if (io.env.NO_COLOR !== undefined && io.env.NO_COLOR !== "") return false;
+  if (io.env.TERM === "dumb") return false;
+  return io.stdout.isTTY === true;
+}
+
+/** The terminal's width when printing to one; no limit otherwise. */
+export function defaultWidth(io: CliIO): number | undefined {
+  return io.stdout.isTTY && io.stdout.columns && io.stdout.columns > 0 ? io.stdout.columns : undefined;
+}
+
+/** The terminal's height less one line for the prompt; 40 when not printing to a terminal. */
+export function defaultBudget(io: CliIO): number {
+  if (io.stdout.isTTY && io.stdout.rows && io.stdout.rows > 2) return io.stdout.rows - 1;
+  return DEFAULT_BUDGET;
+}

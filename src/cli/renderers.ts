@@ -1,0 +1,86 @@
+import type { DiffResult } from "../diff/diff-trees.js";
+import type { Tree } from "../model/tree.js";
+import type { DiffTextOptions } from "../render/diff-text.js";
+import { renderText } from "../render/summary-text.js";
+import type { SummaryResult } from "../summarize.js";
+import type { OutputFormat } from "./options.js";
+import type { OutputSettings } from "./output-settings.js";
+
+/** Turns a command's result into the text to print, in one format; `tree` is the tree it shows. */
+export type Renderer<R> = (result: R, settings: OutputSettings, tree: Tree) => Promise<string>;
+
+/**
+ * A summary in each output format. The text renderer is loaded with the command; every other one when
+ * a run asks for it, so a start loads only what the run needs.
+ */
+export const summaryRenderers: Record<OutputFormat, Renderer<SummaryResult>> = {
+  text: async (result, s, tree) =>
+    renderText(result.view, {
+      units: s.units,
+      sizes: tree.hasSizes,
+      palette: s.palette,
+      chains: s.chains,
+      width: s.width,
+    }),
+  json: async (result, s, tree) =>
+    (await import("../render/summary-json.js")).renderJson(result.view, {
+      budget: s.budget,
+      lines: result.selection.lines,
+      foci: result.fociPaths,
+      labels: s.labels,
+      ...(tree.reading ? { input: tree.reading } : {}),
+    }),
+  markdown: async (result, s, tree) =>
+    (await import("../render/summary-markdown.js")).renderMarkdown(result.view, {
+      units: s.units,
+      sizes: tree.hasSizes,
+      chains: s.chains,
+    }),
+  svg: async (result, s, tree) =>
+    (await import("../render/icicle-svg.js")).renderSvg(result.view, {
+      units: s.units,
+      sizes: tree.hasSizes,
+    }),
+};
+
+/** A diff in each output format (loaded when asked for, like the summary's). */
+export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
+  text: async (result, s, tree) =>
+    (await import("../render/diff-text.js")).renderDiffText(
+      result.view,
+      result.totals,
+      diffLines(result, s, tree.hasSizes),
+    ),
+  json: async (result, s) =>
+    (await import("../render/diff-json.js")).renderDiffJson(result.view, result.totals, {
+      budget: s.budget,
+      lines: result.selection.lines,
+      foci: result.fociPaths,
+      by: result.combined.by,
+      labels: s.labels,
+    }),
+  markdown: async (result, s, tree) =>
+    (await import("../render/diff-markdown.js")).renderDiffMarkdown(
+      result.view,
+      result.totals,
+      diffLines(result, s, tree.hasSizes),
+    ),
+  svg: async (result, s, tree) =>
+    (await import("../render/icicle-svg.js")).renderSvg(result.view, {
+      units: s.units,
+      sizes: tree.hasSizes,
+      changeOf: (n) => n.change,
+    }),
+};
+
+/** The line options of a diff's text and Markdown (Markdown takes no colour and no width). */
+function diffLines(result: DiffResult, s: OutputSettings, sizes: boolean): DiffTextOptions {
+  return {
+    units: s.units,
+    sizes,
+    by: result.combined.by,
+    palette: s.palette,
+    chains: s.chains,
+    width: s.width,
+  };
+}
