@@ -16,11 +16,12 @@
 
 import { constants } from "node:buffer";
 import { createHash } from "node:crypto";
-import { createReadStream, existsSync, statSync, writeFileSync } from "node:fs";
+import { createReadStream, statSync, writeFileSync } from "node:fs";
 import { open, readFile } from "node:fs/promises";
 import { Session } from "node:inspector/promises";
 import { totalmem } from "node:os";
 import { getHeapStatistics } from "node:v8";
+import launcher from "../bin/load-bundle.js";
 import { makeRng } from "./generate.js";
 
 const DIST = new URL("../dist/index.js", import.meta.url);
@@ -168,10 +169,7 @@ async function cliModules() {
   ]);
   // loadInWorker as bin/espalier.js hands it over: from the bundle (its worker starts from the
   // bundle's load-worker.js), unless the compiled modules are newer (then, as bin does, from them).
-  const bundle = new URL("../dist/bundle/espalier.js", import.meta.url);
-  const modules = new URL("../dist/cli/launch.js", import.meta.url);
-  const fresh = existsSync(bundle) && statSync(bundle).mtimeMs >= statSync(modules).mtimeMs;
-  const { loadInWorker } = await import(fresh ? bundle : CLI("load-in-worker"));
+  const { loadInWorker } = await launcher.loadCli();
   return { ...input, ...settings, ...stream, ...progress, ...options, ...palette, loadInWorker };
 }
 

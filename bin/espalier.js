@@ -1,40 +1,31 @@
 #!/usr/bin/env node
-import { spawn } from "node:child_process";
-import { fstatSync, statSync } from "node:fs";
-import { readFile } from "node:fs/promises";
-import { totalmem } from "node:os";
-import { fileURLToPath } from "node:url";
-import { getHeapStatistics } from "node:v8";
+"use strict";
+// The edge: real streams, files, environment and engine. A CommonJS script (bin/package.json), so a
+// run never starts the engine's ES module loader: that alone is a good part of a small run (issue 14).
+const { fstatSync, statSync } = require("node:fs");
+const { readFile } = require("node:fs/promises");
+const { totalmem } = require("node:os");
+const { getHeapStatistics } = require("node:v8");
+const { loadCli } = require("./load-bundle.js");
 
-// The single-file bundle `npm run build` makes (scripts/bundle.js), or the compiled modules it is made
-// of when they are newer (a plain `tsc` since), so a stale bundle never runs.
-const cli = await import(freshest());
-const { heapToRestartWith } = cli;
-
-// The edge: real streams, files, environment and engine. Decided before the CLI's modules load: an input
-// too big for the engine's default heap restarts the command with a larger one.
 const args = process.argv.slice(2);
 const RESTARTED = "ESPALIER_HEAP_RESTARTED";
-const heap =
-  process.env[RESTARTED] === undefined
-    ? heapToRestartWith({
-        heapLimit: getHeapStatistics().heap_size_limit,
-        totalMemory: totalmem(),
-        inputBytes: inputSizes(args),
-      })
-    : 0;
-if (heap > 0) restart(heap);
-else await main();
 
-function freshest() {
-  const bundle = new URL("../dist/bundle/espalier.js", import.meta.url);
-  const modules = new URL("../dist/cli/launch.js", import.meta.url);
-  try {
-    if (statSync(bundle).mtimeMs >= statSync(modules).mtimeMs) return bundle.href;
-  } catch {
-    // No bundle (a tsc build only): the modules.
-  }
-  return modules.href;
+start();
+
+async function start() {
+  const cli = await loadCli();
+  // An input too big for the engine's default heap restarts the command with a larger one.
+  const heap =
+    process.env[RESTARTED] === undefined
+      ? cli.heapToRestartWith({
+          heapLimit: getHeapStatistics().heap_size_limit,
+          totalMemory: totalmem(),
+          inputBytes: inputSizes(args),
+        })
+      : 0;
+  if (heap > 0) restart(cli, heap);
+  else await main(cli);
 }
 
 /** Sizes of the arguments that name regular files; "-" is standard input (undefined when a pipe). */
@@ -58,8 +49,10 @@ function inputSizes(argv) {
 }
 
 /** Runs this script again with a larger heap, on the same streams; its exit (code or signal) is ours. */
-function restart(mib) {
-  const script = fileURLToPath(import.meta.url);
+function restart(cli, mib) {
+  // Only a big input restarts: a small run never loads the child-process module.
+  const { spawn } = require("node:child_process");
+  const script = __filename;
   const child = spawn(
     process.execPath,
     [...process.execArgv, `--max-old-space-size=${mib}`, script, ...args],
@@ -74,7 +67,7 @@ function restart(mib) {
   child.on("error", async () => {
     // Could not start a second engine: run here with the default heap.
     for (const signal of signals) process.off(signal, forward);
-    await main();
+    await main(cli);
   });
   child.on("exit", (code, signal) => {
     for (const s of signals) process.off(s, forward);
@@ -83,7 +76,7 @@ function restart(mib) {
   });
 }
 
-async function main() {
+async function main(cli) {
   const { run, openFile, loadInWorker, standardStreams } = cli;
   // Output that cannot be written ends us with status 2 and one line; a reader closing the pipe early
   // (| head) ends us quietly.
@@ -91,9 +84,9 @@ async function main() {
   const code = await run(args, {
     stdout: std.stdout,
     stderr: std.stderr,
-    readStdin,
+    readStdin: (bound) => readStdin(cli, bound),
     readFile: (path, bound) => (bound ? cli.readBounded(path, bound) : readFile(path)),
-    openInput: (name) => (name === "-" ? openStdin() : openFile(name)),
+    openInput: (name) => (name === "-" ? openStdin(cli) : openFile(name)),
     loadInWorker,
     now: () => performance.now(),
     env: process.env,
@@ -101,8 +94,8 @@ async function main() {
   process.exitCode = std.finish(code);
 }
 
-async function readStdin(bound) {
-  await terminalHint();
+async function readStdin(cli, bound) {
+  terminalHint(cli);
   if (bound) return cli.readStreamBounded(process.stdin, "-", bound);
   const chunks = [];
   for await (const chunk of process.stdin) chunks.push(chunk);
@@ -110,13 +103,13 @@ async function readStdin(bound) {
 }
 
 /** When "-" is a terminal, says on standard error how to end the input, rather than wait silently. */
-async function terminalHint() {
+function terminalHint(cli) {
   if (process.stdin.isTTY) process.stderr.write(cli.TERMINAL_INPUT_HINT);
 }
 
 /** Standard input in the chunks it comes in, with its size when it is a regular file. */
-async function openStdin() {
-  await terminalHint();
+async function openStdin(cli) {
+  terminalHint(cli);
   let size;
   try {
     const stat = fstatSync(0);

@@ -1,29 +1,80 @@
-// Bundles the command line (dist/cli/launch.js, compiled by tsc) and its worker into dist/bundle/ with
-// esbuild: one minified file per entry, code used only by some runs (YAML, other output formats, the
-// diff) in chunks loaded when a run needs them. Node resolves and compiles hundreds of small modules
-// slowly; one file starts in a fraction of the time. Run by `npm run build` and `prepare` after tsc.
-import { rmSync } from "node:fs";
+// Bundles the command line (dist/cli/launch.js, compiled by tsc) into dist/bundle/ with esbuild, and
+// makes the engine's code cache for it. Node resolves and compiles hundreds of small modules slowly, and
+// compiling even one big file is a good part of a small run (issue 14), so:
+// - espalier.cjs: the whole command line as ONE CommonJS file. Code only some runs need (YAML, other
+//   output formats, the diff, the interactive view, fact tables) stays inside it behind lazy
+//   initialisers: it is compiled, never run, unless a run needs it. Its first line is its build id.
+// - espalier.cjs.cache: the build id, then V8's code cache of that file, made here by running it on a
+//   few tiny invented inputs so the functions a run needs are compiled already; bin/load-bundle.js uses
+//   it only with the file it was made from (and V8 refuses it under another engine version or flags).
+// - load-worker.js: the diff's loading thread (an ES module, started by load-in-worker next to itself).
+// Run by `npm run build` and `prepare` after tsc.
+import { createHash } from "node:crypto";
+import { readFileSync, rmSync, writeFileSync } from "node:fs";
+import { Readable } from "node:stream";
 import { build } from "esbuild";
+import { buildId, loadBundle } from "../bin/load-bundle.js";
 
-const outdir = new URL("../dist/bundle/", import.meta.url).pathname;
+const dist = (path) => new URL(`../dist/${path}`, import.meta.url).pathname;
+const outdir = dist("bundle/");
 rmSync(outdir, { recursive: true, force: true });
-await build({
-  entryPoints: {
-    espalier: new URL("../dist/cli/launch.js", import.meta.url).pathname,
-    // load-in-worker starts "./load-worker.js" next to itself: the bundle's own directory.
-    "load-worker": new URL("../dist/cli/load-worker.js", import.meta.url).pathname,
-  },
-  outdir,
+
+const common = {
   bundle: true,
-  splitting: true,
-  format: "esm",
   platform: "node",
   target: "node20",
   minify: true,
   legalComments: "eof",
+  logLevel: "warning",
+};
+
+const bundle = `${outdir}espalier.cjs`;
+await build({
+  ...common,
+  entryPoints: [dist("cli/launch.js")],
+  outfile: bundle,
+  format: "cjs",
+  // The modules find files next to themselves (package.json two levels up, the worker beside them):
+  // the bundle is two levels down too, and its worker is beside it.
+  define: { "import.meta.url": "__espalierUrl" },
+  banner: { js: 'const __espalierUrl=require("node:url").pathToFileURL(__filename).href;' },
+});
+const body = readFileSync(bundle, "utf8");
+const id = createHash("sha256").update(body).digest("hex").slice(0, 32);
+writeFileSync(bundle, `//build:${id}\n${body}`);
+if (buildId(readFileSync(bundle, "utf8")) !== id)
+  throw new Error("bundle.js: the build id did not read back");
+
+await build({
+  ...common,
+  entryPoints: [dist("cli/load-worker.js")],
+  outfile: `${outdir}load-worker.js`,
+  format: "esm",
   // CommonJS dependencies require Node's modules: give the ES module a require of its own.
   banner: {
     js: 'import{createRequire as __espalierRequire}from"node:module";const require=__espalierRequire(import.meta.url);',
   },
-  logLevel: "warning",
 });
+
+// The code cache: run the bundle here on tiny inputs of each common format, then save what V8 compiled.
+const { exports: cli, script } = loadBundle(bundle);
+const inputs = {
+  "tiny.json": '{"name":"root","children":[{"name":"a","size":1},{"name":"b","size":2}]}',
+  "tiny.csv": "id,parent,name,size\n1,,root,0\n2,1,a,1\n3,1,b,2\n",
+  "tiny.paths": "0\t.\n1\t./a\n2\t./b\n",
+};
+for (const [name, text] of Object.entries(inputs)) {
+  let out = "";
+  const code = await cli.run([name, "--focus", "a"], {
+    stdout: { write: (t) => (out += t) },
+    stderr: { write: (t) => (out += t) },
+    readStdin: async () => Buffer.alloc(0),
+    readFile: async (path) => {
+      throw Object.assign(new Error(`${path}: not here`), { code: "ENOENT" });
+    },
+    openInput: async () => ({ size: text.length, chunks: Readable.from([Buffer.from(text)]) }),
+    env: {},
+  });
+  if (code !== 0) throw new Error(`bundle.js: the bundle failed on ${name} (exit ${code}): ${out}`);
+}
+writeFileSync(`${bundle}.cache`, Buffer.concat([Buffer.from(`${id}\n`), script.createCachedData()]));

@@ -82,7 +82,7 @@ function defineCommand<S extends z.ZodObject>(def: CommandDef<S>): CommandSpec {
         io,
       );
       if (line.given.printConfig === true)
-        return { text: printConfig(options, configFile), exitCode: EXIT.ok, target: undefined };
+        return { text: await printConfig(options, configFile), exitCode: EXIT.ok, target: undefined };
       const early = await def.early?.(line.args, options);
       if (early) return { ...early, target: undefined };
       checkArguments(def, line.args);

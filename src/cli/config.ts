@@ -1,11 +1,8 @@
-import { isMap, isScalar, LineCounter, parseDocument } from "yaml";
 import * as z from "zod";
 import { EspalierError, type SourcePos } from "../errors.js";
 import { readLimits } from "../load/read-limits.js";
-import { didYouMeanText } from "./did-you-mean.js";
 import type { CliIO } from "./io.js";
 import { configSchema } from "./options.js";
-import { issueMessage } from "./validate-options.js";
 
 export { configSchema };
 
@@ -48,68 +45,11 @@ export async function loadConfig(io: CliIO, explicit: string | undefined): Promi
         { file },
       );
     }
+    // The YAML reader loads only when there is a file to read (start-up: most runs have none).
+    const { parseConfigWithPositions } = await import("./config-text.js");
     return { file, ...parseConfigWithPositions(new TextDecoder().decode(bytes), file) };
   }
   return NO_CONFIG;
-}
-
-/** Validates config text; returns only the keys it sets. */
-export function parseConfig(text: string, file: string): ConfigValues {
-  return parseConfigWithPositions(text, file).values;
-}
-
-function parseConfigWithPositions(
-  text: string,
-  file: string,
-): { values: ConfigValues; keyPos: Map<string, SourcePos> } {
-  const lineCounter = new LineCounter();
-  const doc = parseDocument(text, { lineCounter });
-  if (doc.errors.length > 0) {
-    const e = doc.errors[0];
-    throw new EspalierError("USAGE", `the config is not valid YAML: ${e.message.split("\n")[0]}`, {
-      file,
-      line: e.linePos?.[0].line,
-      column: e.linePos?.[0].col,
-    });
-  }
-  const keyPos = new Map<string, SourcePos>();
-  if (isMap(doc.contents)) {
-    for (const item of doc.contents.items) {
-      if (isScalar(item.key) && item.key.range) {
-        const { line, col } = lineCounter.linePos(item.key.range[0]);
-        keyPos.set(String(item.key.value), { file, line, column: col });
-      }
-    }
-  }
-  const raw = doc.toJS({ maxAliasCount: 50 }) ?? {};
-  if (typeof raw !== "object" || Array.isArray(raw))
-    throw new EspalierError("USAGE", "the config must be a mapping of option names to values", { file });
-  const parsed = configSchema.safeParse(raw);
-  if (!parsed.success) {
-    const issue = parsed.error.issues[0];
-    if (issue.code === "unrecognized_keys") {
-      const key = issue.keys[0];
-      throw new EspalierError(
-        "USAGE",
-        `config key ${key} is not an option${didYouMeanText(key, Object.keys(configSchema.shape))}`,
-        keyPos.get(key) ?? { file },
-        { key },
-      );
-    }
-    const key = String(issue.path[0]);
-    throw new EspalierError(
-      "USAGE",
-      issueMessage(issue, `config key ${key}`, (raw as Record<string, unknown>)[key]),
-      keyPos.get(key) ?? { file },
-      {
-        key,
-      },
-    );
-  }
-  // Keep only what the file sets: defaults are the command line's business.
-  const values: ConfigValues = {};
-  for (const key of Object.keys(raw)) values[key] = (parsed.data as ConfigValues)[key];
-  return { values, keyPos };
 }
 
 /** The JSON Schema (draft 2020-12) of the config file, published as docs/config.schema.json. */

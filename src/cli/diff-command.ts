@@ -25,6 +25,7 @@ export async function diffCommand(
     label: opts.label,
     pseudonymKey: key,
     chains: opts.chains,
+    compareFields: opts.compareField,
   });
   const { tree } = result.combined;
   const text = await diffRenderers[opts.format](result, outputSettings(opts, io, tree), tree);

@@ -1,4 +1,3 @@
-import { stringify } from "yaml";
 import type { z } from "zod";
 import { EspalierError } from "../errors.js";
 import { loadConfig } from "./config.js";
@@ -55,7 +54,12 @@ export async function effectiveOptions<S extends z.ZodObject>(
 }
 
 /** The effective configuration as YAML, as `--print-config` shows it (a valid config file itself). */
-export function printConfig(values: Record<string, unknown>, configFile: string | undefined): string {
+export async function printConfig(
+  values: Record<string, unknown>,
+  configFile: string | undefined,
+): Promise<string> {
+  // The YAML library loads only for this (start-up: a plain run never writes YAML).
+  const { stringify } = await import("yaml");
   const shown: Record<string, unknown> = {};
   for (const key of Object.keys(values).sort()) {
     if (allOptions[key]?.config === false || values[key] === undefined) continue;

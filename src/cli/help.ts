@@ -1,4 +1,4 @@
-import stringWidth from "string-width";
+import { displayWidth } from "../render/display-width.js";
 import type { CommandSpec } from "./commands.js";
 import type { OptionFlags } from "./option-flags.js";
 import { allOptions, type CommandName, optionGroups } from "./options.js";
@@ -64,7 +64,7 @@ function describe(flags: OptionFlags): string {
 }
 
 function widest(rows: string[][]): number {
-  return Math.max(0, ...rows.map(([cell]) => stringWidth(cell)));
+  return Math.max(0, ...rows.map(([cell]) => displayWidth(cell)));
 }
 
 /** Rows of two cells, the second starting after `left` columns and a gap, wrapped under itself. */
@@ -72,7 +72,7 @@ function columns(rows: string[][], left: number): string[] {
   const hang = " ".repeat(INDENT.length + left + GAP);
   return rows.flatMap(([cell, text]) => {
     const [first, ...rest] = wrap(text, WIDTH - hang.length);
-    const pad = " ".repeat(left - stringWidth(cell) + GAP);
+    const pad = " ".repeat(left - displayWidth(cell) + GAP);
     return [`${INDENT}${cell}${pad}${first}`, ...rest.map((line) => hang + line)];
   });
 }
@@ -82,7 +82,7 @@ function wrap(text: string, width: number): string[] {
   const lines: string[] = [];
   let line = "";
   for (const word of text.split(" ")) {
-    if (line !== "" && stringWidth(line) + 1 + stringWidth(word) > width) {
+    if (line !== "" && displayWidth(line) + 1 + displayWidth(word) > width) {
       lines.push(line);
       line = word;
     } else line = line === "" ? word : `${line} ${word}`;

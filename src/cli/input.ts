@@ -99,8 +99,14 @@ export function pseudonymKey(opts: { pseudonymize?: boolean }, io: CliIO): strin
   return key;
 }
 
-/** The loader's options for one input of a tree format. */
-export function toLoadOptions(input: string, opts: SharedCliOptions): LoadOptions {
+/**
+ * The loader's options for one input of a tree format. Kept record fields: the label's, and a diff's
+ * compared fields (`--compare-field`).
+ */
+export function toLoadOptions(
+  input: string,
+  opts: SharedCliOptions & { compareField?: readonly string[] },
+): LoadOptions {
   const format = opts.inputFormat;
   if (format === "parquet" || format === "jsonl")
     throw new EspalierError(
@@ -117,7 +123,9 @@ export function toLoadOptions(input: string, opts: SharedCliOptions): LoadOption
     idField: opts.idField,
     parentField: opts.parentField,
     pathField: opts.pathField,
-    keepFields: opts.label ? templateFields(opts.label) : [],
+    keepFields: [
+      ...new Set([...(opts.label ? templateFields(opts.label) : []), ...(opts.compareField ?? [])]),
+    ],
     rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
     ...(opts.readAs === "auto" ? {} : { readAs: opts.readAs }),

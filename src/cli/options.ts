@@ -2,6 +2,10 @@ import * as z from "zod";
 import { importances } from "../interest/importance.js";
 import { inputFormats } from "../load/load-options.js";
 
+// Options are validated once a run: zod's compiled fast path (generated code, made on first use) costs
+// more than it saves there (start-up, issue 14). Set before any schema below is made.
+z.config({ jitless: true });
+
 /** Input formats on the command line: the tree formats, and the formats only fact tables come in. */
 export const cliInputFormats = [...inputFormats, "jsonl", "parquet"] as const;
 
@@ -299,6 +303,16 @@ export const diffOnlyOptions = {
     flags: "--exit-code",
     group: "Diff only",
     schema: z.boolean().default(false).describe("exit 1 when the versions differ, 0 when they do not"),
+  },
+  compareField: {
+    flags: "--compare-field <field>",
+    group: "Diff only",
+    schema: z
+      .array(z.string().min(1))
+      .default([])
+      .describe(
+        "a record field compared between matched nodes; a new value is a change (edited); repeatable",
+      ),
   },
 } satisfies Record<string, OptionSpec>;
 

@@ -65,12 +65,18 @@ export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
       result.totals,
       diffLines(result, s, tree.hasSizes),
     ),
-  svg: async (result, s, tree) =>
-    (await import("../render/icicle-svg.js")).renderSvg(result.view, {
+  svg: async (result, s, tree) => {
+    const [{ renderSvg }, { changeTag }] = await Promise.all([
+      import("../render/icicle-svg.js"),
+      import("../render/diff-line-parts.js"),
+    ]);
+    return renderSvg(result.view, {
       units: s.units,
       sizes: tree.hasSizes,
       changeOf: (n) => n.change,
-    }),
+      changeNote: (n) => changeTag(n, { units: s.units, sizes: tree.hasSizes }),
+    });
+  },
 };
 
 /** The line options of a diff's text and Markdown (Markdown takes no colour and no width). */

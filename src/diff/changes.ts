@@ -1,13 +1,17 @@
-/** The kinds of change a node can have, in precedence order: a node has exactly one kind, or none. */
-export const changeKinds = ["added", "removed", "moved", "renamed", "resized"] as const;
+/**
+ * The kinds of change a node can have, in precedence order: a node has exactly one kind, or none.
+ * `edited`: a field named by `--compare-field` holds another value (see diff/field-edits.ts).
+ */
+export const changeKinds = ["added", "removed", "moved", "renamed", "edited", "resized"] as const;
 export type ChangeKind = (typeof changeKinds)[number];
 
 /**
  * Kind codes stored per node in a `Uint8Array`: 0 for an unchanged node, else 1 + the kind's position
  * in {@link changeKinds}. A node that is both moved and renamed (or renamed and resized, …) counts
- * under the first of its kinds in that list; its own size change is still reported beside it.
+ * under the first of its kinds in that list; its own size change and its field edits are still
+ * reported beside it.
  */
-export const KIND = { none: 0, added: 1, removed: 2, moved: 3, renamed: 4, resized: 5 } as const;
+export const KIND = { none: 0, added: 1, removed: 2, moved: 3, renamed: 4, edited: 5, resized: 6 } as const;
 
 /** Numbers of changed nodes per kind. */
 export type ChangeCounts = Record<ChangeKind, number>;
@@ -17,7 +21,14 @@ export function kindName(code: number): ChangeKind | null {
   return code === KIND.none ? null : changeKinds[code - 1];
 }
 
-/** Sum of all five counts. */
+/** Sum of the counts of every kind. */
 export function totalChanges(c: ChangeCounts): number {
-  return c.added + c.removed + c.moved + c.renamed + c.resized;
+  let total = 0;
+  for (const kind of changeKinds) total += c[kind];
+  return total;
+}
+
+/** Counts of zero for every kind. */
+export function noChanges(): ChangeCounts {
+  return { added: 0, removed: 0, moved: 0, renamed: 0, edited: 0, resized: 0 };
 }

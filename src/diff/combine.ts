@@ -1,6 +1,7 @@
 import { copyName, NamePool } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 import { KIND } from "./changes.js";
+import { type ComparedFields, isEdited } from "./field-edits.js";
 import type { Matching } from "./match.js";
 
 /** Both versions in one tree: the new version plus every removed node at its old place. */
@@ -18,6 +19,8 @@ export interface Combined {
   readonly oldTree: Tree;
   readonly newTree: Tree;
   readonly by: Matching["by"];
+  /** The fields compared between matched nodes (`--compare-field`), or null when none are. */
+  readonly compared: ComparedFields | null;
 }
 
 /**
@@ -25,7 +28,8 @@ export interface Combined {
  * the nearest earlier old sibling that is still a child of the same parent (first when there is none).
  * A node has one kind, by precedence: added or removed, then moved (its parent's counterpart changed;
  * a moved subtree counts once, at its root, because the nodes below keep their parent), then renamed,
- * then resized (own size changed). The roots always match; a synthetic root is never renamed.
+ * then edited (a compared field's value differs), then resized (own size changed). The roots always
+ * match; a synthetic root is never renamed.
  */
 export function combine(
   oldTree: Tree,
@@ -33,6 +37,7 @@ export function combine(
   newTree: Tree,
   newCount: Int32Array,
   matching: Matching,
+  compared: ComparedFields | null = null,
 ): Combined {
   const { oldToNew, newToOld } = matching;
   const oldParent = oldTree.parent;
@@ -52,7 +57,7 @@ export function combine(
     const identity = new Int32Array(total);
     for (let k = 0; k < total; k++) identity[k] = k;
     return {
-      ...fill(oldTree, newTree, matching, identity, newToOld, newParent),
+      ...fill(oldTree, newTree, matching, identity, newToOld, newParent, compared),
       newIndex: identity,
       oldIndex: newToOld,
     };
@@ -167,7 +172,7 @@ export function combine(
     return sp;
   }
 
-  return { ...fill(oldTree, newTree, matching, newIndex, oldIndex, parent), newIndex, oldIndex };
+  return { ...fill(oldTree, newTree, matching, newIndex, oldIndex, parent, compared), newIndex, oldIndex };
 }
 
 /** The combined tree's arrays, each node's kind and own size change. */
@@ -178,6 +183,7 @@ function fill(
   newIndex: Int32Array,
   oldIndex: Int32Array,
   parent: Int32Array,
+  compared: ComparedFields | null,
 ) {
   const total = parent.length;
   const kind = new Uint8Array(total);
@@ -205,6 +211,7 @@ function fill(
       delta[k] = newSize[n] - oldSize[o];
       if (n > 0 && newToOld[newParent[n]] !== oldParent[o]) kind[k] = KIND.moved;
       else if ((n > 0 ? byId : renameRoot) && newName.get(n) !== oldName.get(o)) kind[k] = KIND.renamed;
+      else if (compared !== null && isEdited(compared, o, n)) kind[k] = KIND.edited;
       else if (delta[k] !== 0) kind[k] = KIND.resized;
     }
   }
@@ -214,7 +221,7 @@ function fill(
     total === newTree.length && keys.length === newTree.fields.size && (!ids || newTree.ids)
       ? { ...newTree, ids: ids ? newTree.ids : null, hasSizes: oldTree.hasSizes || newTree.hasSizes }
       : copyTree(oldTree, newTree, keys, ids, newIndex, oldIndex, parent);
-  return { tree, kind, delta, oldTree, newTree, by: matching.by };
+  return { tree, kind, delta, oldTree, newTree, by: matching.by, compared };
 }
 
 /** The combined tree's arrays when removed nodes are mixed in: each node from the version it lives in. */

@@ -14,6 +14,7 @@ import { type Combined, combine } from "./combine.js";
 import { type DiffInterest, diffInterest } from "./diff-interest.js";
 import { diffOrder } from "./diff-order.js";
 import { buildDiffView, type DiffViewNode } from "./diff-view.js";
+import { comparedFields } from "./field-edits.js";
 import { matchTrees } from "./match.js";
 import { type ChangeMeasures, changesIn, measureChanges, netIn } from "./measure-changes.js";
 import { subtreeCounts } from "./subtree-counts.js";
@@ -69,15 +70,26 @@ export interface PreparedDiff {
   readonly totals: DiffTotals;
 }
 
+/** What a diff compares, beside structure, names and sizes. */
+export interface CompareOptions {
+  /**
+   * Record fields whose values are compared between matched nodes (`--compare-field`): a difference
+   * makes the node `edited`. Both versions must have been loaded with these fields kept.
+   */
+  compareFields?: readonly string[];
+}
+
 /** match → combine → measure: what a diff's summaries share, whatever their foci. */
-export function prepareDiff(oldInput: Tree, newInput: Tree): PreparedDiff {
+export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOptions = {}): PreparedDiff {
   const [oldTree, newTree] = alignRoots(oldInput, newInput);
+  const fields = compare.compareFields ?? [];
+  const compared = fields.length > 0 ? comparedFields(oldTree, newTree, fields) : null;
   // Only subtree counts of the two versions are needed; the whole-tree arrays are kept few, because
   // every large allocation brings the next full garbage collection of both loaded versions nearer.
   const oldCount = subtreeCounts(oldTree);
   const newCount = subtreeCounts(newTree);
   const matching = matchTrees(oldTree, oldCount, newTree, newCount);
-  const combined = combine(oldTree, oldCount, newTree, newCount, matching);
+  const combined = combine(oldTree, oldCount, newTree, newCount, matching, compared);
   const { tree } = combined;
   const measures = measure(tree);
   const changeMeasures = measureChanges(tree, combined.kind, combined.delta);
@@ -96,8 +108,8 @@ export function prepareDiff(oldInput: Tree, newInput: Tree): PreparedDiff {
  * Compares two versions of a hierarchy: match → combine → measure → focus → interest → fit → view.
  * Pure: the same trees and options give the same result.
  */
-export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions): DiffResult {
-  return summarizeDiff(prepareDiff(oldInput, newInput), options);
+export function diffTrees(oldInput: Tree, newInput: Tree, options: DiffOptions & CompareOptions): DiffResult {
+  return summarizeDiff(prepareDiff(oldInput, newInput, options), options);
 }
 
 /** focus → interest → fit → view on a prepared diff. Pure: same inputs, same result. */
@@ -147,6 +159,7 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
     {
       nameOf: oldNameOf,
       pathOf: oldPathOf,
+      valueOf: (v) => (key === undefined || v === "" ? v : pseudonym(key, v)),
     },
   );
   return {

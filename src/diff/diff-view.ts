@@ -4,9 +4,10 @@ import type { PathIndex } from "../model/path-index.js";
 import { buildView, type Labeller } from "../view/build-view.js";
 import { hierarchyOf } from "../view/hierarchy-of.js";
 import type { Folded, ViewNode } from "../view/view-node.js";
-import { type ChangeCounts, type ChangeKind, changeKinds, KIND, kindName } from "./changes.js";
+import { type ChangeCounts, type ChangeKind, changeKinds, KIND, kindName, noChanges } from "./changes.js";
 import type { Combined } from "./combine.js";
 import type { DiffInterest } from "./diff-interest.js";
+import { type FieldEdit, fieldEdits } from "./field-edits.js";
 import { type ChangeMeasures, changesIn, netIn } from "./measure-changes.js";
 
 /** What is folded under a shown node of a diff: the summary's counts plus the changes inside. */
@@ -30,6 +31,11 @@ export interface DiffViewNode extends Omit<ViewNode, "children" | "hidden"> {
   movedFrom: string | null;
   /** A renamed node's old name. */
   renamedFrom: string | null;
+  /**
+   * The compared fields whose value differs (`--compare-field`), whatever the node's kind (a moved
+   * node can be edited too); empty for an added or removed node and when no field is compared.
+   */
+  edits: FieldEdit[];
   children: DiffViewNode[];
   hidden: DiffFolded | null;
 }
@@ -38,6 +44,8 @@ export interface DiffViewNode extends Omit<ViewNode, "children" | "hidden"> {
 export interface OldNames {
   nameOf: (o: number) => string;
   pathOf: (o: number) => string;
+  /** A compared field's value as printed (a keyed pseudonym under `--pseudonymize`). */
+  valueOf: (value: string) => string;
 }
 
 /**
@@ -62,7 +70,7 @@ export function buildDiffView(
   const base = buildView(index, scores, foci, selection, label, nameOf, pathOf, idOf);
   const { count } = index.measures;
   const { shown } = selection;
-  const { kind, delta, oldIndex, oldTree } = combined;
+  const { kind, delta, oldIndex, newIndex, oldTree, compared } = combined;
   const byIndex = new Map<number, DiffViewNode>();
   let root: DiffViewNode | undefined;
   base.eachBefore(({ data }) => {
@@ -71,7 +79,7 @@ export function buildDiffView(
     const k = kind[i];
     let hidden: DiffFolded | null = null;
     if (data.hidden) {
-      const inside: ChangeCounts = { added: 0, removed: 0, moved: 0, renamed: 0, resized: 0 };
+      const inside: ChangeCounts = noChanges();
       let net = 0;
       const end = i + count[i];
       for (let c = i + 1; c < end; c += count[c]) {
@@ -91,6 +99,14 @@ export function buildDiffView(
       changes: changesIn(changes, i),
       movedFrom: k === KIND.moved ? old.pathOf(oldTree.parent[o]) : null,
       renamedFrom: k === KIND.renamed ? old.nameOf(o) : null,
+      edits:
+        compared === null || o < 0 || newIndex[i] < 0
+          ? []
+          : fieldEdits(compared, o, newIndex[i]).map((e) => ({
+              field: e.field,
+              old: old.valueOf(e.old),
+              new: old.valueOf(e.new),
+            })),
       children: [],
       hidden,
     };

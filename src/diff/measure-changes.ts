@@ -1,5 +1,8 @@
 import type { Tree } from "../model/tree.js";
-import type { ChangeCounts } from "./changes.js";
+import { type ChangeCounts, changeKinds, noChanges } from "./changes.js";
+
+/** Counts kept per slot: one per kind. */
+const K = changeKinds.length;
 
 /**
  * Changes in every subtree of the combined tree, the node itself included. Only nodes on a change path
@@ -11,7 +14,7 @@ export interface ChangeMeasures {
   readonly onChangePath: Uint8Array;
   /** Each node's slot in `counts` and `net`, or -1 off change paths. */
   readonly slot: Int32Array;
-  /** Five counts per slot (added, removed, moved, renamed, resized), at `5 * slot`. */
+  /** One count per kind (in the order of `changeKinds`) per slot, at `K * slot`. */
   readonly counts: Int32Array;
   /** Sum of own size changes (new minus old) over the subtree, per slot. */
   readonly net: Float64Array;
@@ -29,39 +32,40 @@ export function measureChanges(tree: Tree, kind: Uint8Array, delta: Float64Array
   const slot = new Int32Array(n).fill(-1);
   let m = 0;
   for (let i = 0; i < n; i++) if (onChangePath[i]) slot[i] = m++;
-  const counts = new Int32Array(m * 5);
+  const counts = new Int32Array(m * K);
   const net = new Float64Array(m);
   for (let i = n - 1; i >= 0; i--) {
     const s = slot[i];
     if (s < 0) continue;
-    if (kind[i] !== 0) counts[s * 5 + kind[i] - 1]++;
+    if (kind[i] !== 0) counts[s * K + kind[i] - 1]++;
     net[s] += delta[i];
     if (i === 0) continue;
     const t = slot[parent[i]];
     net[t] += net[s];
-    for (let k = 0; k < 5; k++) counts[t * 5 + k] += counts[s * 5 + k];
+    for (let k = 0; k < K; k++) counts[t * K + k] += counts[s * K + k];
   }
   return { onChangePath, slot, counts, net };
 }
 
-const NONE: ChangeCounts = { added: 0, removed: 0, moved: 0, renamed: 0, resized: 0 };
-
 /** The changes in node i's subtree, per kind. */
 export function changesIn(cm: ChangeMeasures, i: number): ChangeCounts {
+  const out = noChanges();
   const s = cm.slot[i];
-  if (s < 0) return { ...NONE };
-  const b = s * 5;
-  const c = cm.counts;
-  return { added: c[b], removed: c[b + 1], moved: c[b + 2], renamed: c[b + 3], resized: c[b + 4] };
+  if (s < 0) return out;
+  const b = s * K;
+  changeKinds.forEach((kind, k) => {
+    out[kind] = cm.counts[b + k];
+  });
+  return out;
 }
 
 /** Number of changed nodes in node i's subtree. */
 export function changeTotalIn(cm: ChangeMeasures, i: number): number {
   const s = cm.slot[i];
   if (s < 0) return 0;
-  const b = s * 5;
-  const c = cm.counts;
-  return c[b] + c[b + 1] + c[b + 2] + c[b + 3] + c[b + 4];
+  let total = 0;
+  for (let k = 0; k < K; k++) total += cm.counts[s * K + k];
+  return total;
 }
 
 /** Net size change over node i's subtree. */

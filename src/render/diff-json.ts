@@ -28,6 +28,7 @@ export function toDiffSummary(
     net: node.net,
     ...(node.movedFrom !== null ? { movedFrom: node.movedFrom } : {}),
     ...(node.renamedFrom !== null ? { renamedFrom: node.renamedFrom } : {}),
+    ...(node.edits.length > 0 ? { edits: node.edits.map((e) => ({ ...e })) } : {}),
     children: [],
     hidden: node.hidden ? { ...node.hidden, changes: { ...node.hidden.changes } } : null,
   });

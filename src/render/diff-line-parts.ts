@@ -38,22 +38,33 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
 }
 
 /**
- * `[added]`, `[removed]`, `[moved from OLD/PARENT]`, `[renamed from OLD]`, `[resized]`, with the
- * node's own size change signed (`[resized +12 B]`); the old path or name cut to `fromWidth` columns.
+ * `[added]`, `[removed]`, `[moved from OLD/PARENT]`, `[renamed from OLD]`, `[edited FIELD OLD -> NEW]`,
+ * `[resized]`, with the node's field edits (`--compare-field`) and its own size change signed
+ * (`[resized +12 B]`, `[moved from A, version 1.2.0 -> 1.3.0, +2 B]`); the old path or name and each
+ * value cut to `fromWidth` columns. An empty (absent) value reads `(none)`.
  */
 export function changeTag(node: DiffViewNode, options: NumberOptions, fromWidth?: number): string {
   if (node.change === null) return "";
+  const cut = (text: string) => (fromWidth === undefined ? text : shortenMiddle(text, fromWidth));
   const parts: string[] = [node.change];
   if (node.movedFrom !== null) {
     const from = node.movedFrom === "" ? "the root" : safeText(node.movedFrom);
-    parts[0] += ` from ${fromWidth === undefined ? from : shortenMiddle(from, fromWidth)}`;
+    parts[0] += ` from ${cut(from)}`;
   }
-  if (node.renamedFrom !== null) {
-    const from = shownLabel(node.renamedFrom);
-    parts[0] += ` from ${fromWidth === undefined ? from : shortenMiddle(from, fromWidth)}`;
-  }
+  if (node.renamedFrom !== null) parts[0] += ` from ${cut(shownLabel(node.renamedFrom))}`;
+  node.edits.forEach((edit, k) => {
+    const text = `${safeText(edit.field)} ${cut(editValue(edit.old))} -> ${cut(editValue(edit.new))}`;
+    if (k === 0 && node.change === "edited") parts[0] += ` ${text}`;
+    else parts.push(text);
+  });
   if (options.sizes && node.delta !== 0) parts.push(signed(node.delta, options));
-  return `[${parts.join(node.movedFrom !== null || node.renamedFrom !== null ? ", " : " ")}]`;
+  const notes = node.movedFrom !== null || node.renamedFrom !== null || node.edits.length > 0;
+  return `[${parts.join(notes ? ", " : " ")}]`;
+}
+
+/** A compared field's value on a line: `(none)` when the node has none. */
+function editValue(value: string): string {
+  return value === "" ? "(none)" : shownLabel(value);
 }
 
 /** `2 added, 1 resized, net +1.0 KiB`, or `unchanged`. */

@@ -8,7 +8,7 @@ export const DIFF_FORMAT = "espalier-diff/1";
 const count = z.number().int().nonnegative();
 
 export const changeCountsSchema = z
-  .object({ added: count, removed: count, moved: count, renamed: count, resized: count })
+  .object({ added: count, removed: count, moved: count, renamed: count, edited: count, resized: count })
   .strict()
   .describe("Changed nodes per kind; each changed node counts under exactly one kind.");
 
@@ -20,12 +20,22 @@ export const diffFoldedSchema = foldedSchema
   .strict()
   .describe("What is folded under a shown node, with the changes inside it.");
 
+export const fieldEditSchema = z
+  .object({
+    field: z.string().describe("The compared field (--compare-field)."),
+    old: z.string().describe('Its value in OLD as text ("" when the node has none).'),
+    new: z.string().describe("Its value in NEW as text."),
+  })
+  .strict()
+  .describe("A compared field whose value differs between the two versions of a matched node.");
+
 export interface DiffSummaryNode extends NodeFields {
   change: (typeof changeKinds)[number] | null;
   delta: number;
   net: number;
   movedFrom?: string;
   renamedFrom?: string;
+  edits?: z.infer<typeof fieldEditSchema>[];
   children: DiffSummaryNode[];
   hidden: z.infer<typeof diffFoldedSchema> | null;
 }
@@ -51,6 +61,13 @@ export const diffNodeSchema: z.ZodType<DiffSummaryNode> = z.lazy(() =>
         .optional()
         .describe("For a moved node, the old parent's path in the old version."),
       renamedFrom: z.string().optional().describe("For a renamed node, its old name."),
+      edits: z
+        .array(fieldEditSchema)
+        .min(1)
+        .optional()
+        .describe(
+          "Compared fields whose value differs, in the order asked for (any kind of matched node); absent when none does.",
+        ),
       children: z.array(diffNodeSchema).describe("Shown children, in the combined tree's order."),
       hidden: diffFoldedSchema.nullable().describe("Hidden children folded into counts, or null."),
     })

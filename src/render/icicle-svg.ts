@@ -16,6 +16,11 @@ export interface SvgOptions<T extends ViewNode = ViewNode> {
   width?: number;
   /** A diff's change of each node, marked by shape and colour; omit for a plain summary. */
   changeOf?: (node: T) => ChangeKind | null;
+  /**
+   * A diff's words for a node's change in its tooltip (e.g. the text format's change tag, which names
+   * moved-from parents and field edits); default: the kind alone.
+   */
+  changeNote?: (node: T) => string;
 }
 
 /** The look: calm greens and a warm focus; every meaning also has a shape, so colour is never alone. */
@@ -35,6 +40,7 @@ const LOOK = {
     removed: { fill: "#f1dad4", mark: "#984636" },
     moved: { fill: "#d9ddef", mark: "#44508b" },
     renamed: { fill: "#eadcee", mark: "#744a82" },
+    edited: { fill: "#d5e8ea", mark: "#2f6a70" },
     resized: { fill: "#eee6c9", mark: "#76642a" },
   },
 } as const;
@@ -238,7 +244,7 @@ function tooltip<T extends ViewNode>(
   if (node.focus) lines.push("focus");
   else if (node.onPath)
     lines.push(options.changeOf ? "on the path to a focus or change" : "on the path to a focus");
-  if (change) lines.push(change);
+  if (change) lines.push(options.changeNote ? options.changeNote(node) : change);
   return lines.join("\n");
 }
 
@@ -253,6 +259,8 @@ function changeMark(kind: ChangeKind, x: number, y: number, s: number): string {
       return `<path d="M${num(x + h)} ${num(y)}l${num(h)} ${num(h)}l${num(-h)} ${num(h)}l${num(-h)} ${num(-h)}z" fill="${fill}"/>`;
     case "renamed": // a circle
       return `<circle cx="${num(x + h)}" cy="${num(y + h)}" r="${num(h)}" fill="${fill}"/>`;
+    case "edited": // a small square
+      return `<rect x="${num(x + 1)}" y="${num(y + 1)}" width="${num(s - 2)}" height="${num(s - 2)}" fill="${fill}"/>`;
     case "resized": // a bar, like a ruler mark
       return `<path d="M${num(x)} ${num(y + h - 1.5)}h${num(s)}v3h${num(-s)}z" fill="${fill}"/>`;
     case "removed":

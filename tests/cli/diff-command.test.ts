@@ -19,6 +19,19 @@ beforeAll(() => {
   );
   writeFileSync(at("org-next.csv"), moved.join("\n"));
   writeFileSync(at("broken.json"), '{"name": "tidewater", "children": [');
+  // Dependency listings in the shape of `npm ls --all --json` (npm-ls(1)), invented packages; one
+  // version moves back from 3.0.1 to 3.0.0.
+  const deps = (kelp: string) =>
+    JSON.stringify({
+      name: "tidewater",
+      version: "0.0.0",
+      dependencies: {
+        "coral-args": { version: "1.2.0", dependencies: { "kelp-log": { version: kelp } } },
+        brine: { version: "0.4.2" },
+      },
+    });
+  writeFileSync(at("deps-before.json"), deps("3.0.1"));
+  writeFileSync(at("deps-after.json"), deps("3.0.0"));
 });
 
 describe("espalier diff OLD NEW", () => {
@@ -27,7 +40,7 @@ describe("espalier diff OLD NEW", () => {
     expect(r.code).toBe(1);
     expect(r.stderr).toBe("");
     expect(r.stdout.split("\n")[0]).toMatch(
-      /^matched by path: 1 added, 0 removed, 0 moved, 0 renamed, 1 resized;/,
+      /^matched by path: 1 added, 0 removed, 0 moved, 0 renamed, 0 edited, 1 resized;/,
     );
     expect(r.stdout).toContain("[resized +6 B] y");
     expect(r.stdout).toContain("[added +7 B] c");
@@ -37,7 +50,7 @@ describe("espalier diff OLD NEW", () => {
     const r = await cli(["diff", at("old.paths"), at("old.paths"), "--exit-code"]);
     expect(r.code).toBe(0);
     expect(r.stdout.split("\n")[0]).toMatch(
-      /^matched by path: 0 added, 0 removed, 0 moved, 0 renamed, 0 resized;/,
+      /^matched by path: 0 added, 0 removed, 0 moved, 0 renamed, 0 edited, 0 resized;/,
     );
     expect(r.stdout).not.toContain("[");
   });
@@ -86,7 +99,7 @@ describe("espalier diff OLD NEW", () => {
     const json = JSON.parse(
       (await cli(["diff", at("old.paths"), at("new.paths"), "--format", "json"])).stdout,
     );
-    expect(json.changes).toEqual({ added: 1, removed: 0, moved: 0, renamed: 0, resized: 1 });
+    expect(json.changes).toEqual({ added: 1, removed: 0, moved: 0, renamed: 0, edited: 0, resized: 1 });
     const tight = await cli(["diff", at("old.paths"), at("new.paths"), "--budget", "1"]);
     expect(tight.code).toBe(2);
     expect(tight.stderr).toContain("[BUDGET_TOO_SMALL]");
@@ -109,7 +122,7 @@ describe("espalier diff OLD NEW", () => {
     );
     expect(r.code).toBe(0);
     expect(r.stdout.split("\n")[0]).toMatch(
-      /^matched by id: 0 added, 0 removed, 1 moved, 0 renamed, 0 resized;/,
+      /^matched by id: 0 added, 0 removed, 1 moved, 0 renamed, 0 edited, 0 resized;/,
     );
     expect(r.stdout).toMatch(/> (.* \/ )?\[moved from [^\]]+\] Marit Okonkwo-Lund/);
     expect(r.stdout.trimEnd().split("\n").length).toBeLessThanOrEqual(20);
@@ -128,6 +141,52 @@ describe("espalier diff OLD NEW", () => {
     expect(r.code).toBe(0);
     for (const line of r.stdout.trimEnd().split("\n")) expect(line.length).toBeLessThanOrEqual(40);
     expect(r.stdout).toContain("* [removed -7 B] c");
+  });
+
+  it("--compare-field version: a version moved 3.0.1 -> 3.0.0 is a change, so --exit-code exits 1", async () => {
+    const args = ["diff", at("deps-before.json"), at("deps-after.json"), "--exit-code"];
+    const without = await cli(args);
+    expect(without.code).toBe(0);
+    const r = await cli([...args, "--compare-field", "version"]);
+    expect(r.code).toBe(1);
+    expect(r.stdout.split("\n")[0]).toContain("1 edited");
+    expect(r.stdout).toContain("[edited version 3.0.1 -> 3.0.0] kelp-log");
+    const json = JSON.parse((await cli([...args, "--compare-field", "version", "--format", "json"])).stdout);
+    expect(json.changes.edited).toBe(1);
+    const kelp = json.root.children[0].children[0];
+    expect(kelp.edits).toEqual([{ field: "version", old: "3.0.1", new: "3.0.0" }]);
+    const md = await cli([...args, "--compare-field", "version", "--format", "markdown"]);
+    expect(md.stdout).toContain("edited version 3.0.1 -> 3.0.0");
+    const svg = await cli([...args, "--compare-field", "version", "--format", "svg"]);
+    expect(svg.stdout).toContain("edited version 3.0.1 -&gt; 3.0.0");
+    // Given before the word diff, the option applies all the same.
+    const before = await cli(["--compare-field", "version", ...args]);
+    expect(before.code).toBe(1);
+  });
+
+  it("--compare-field with a field no record has is FIELD_MISSING (exit 2), never an empty comparison", async () => {
+    const r = await cli(["diff", at("old.paths"), at("new.paths"), "--compare-field", "version"]);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr).toContain("[FIELD_MISSING]");
+    const json = await cli([
+      "diff",
+      at("deps-before.json"),
+      at("deps-after.json"),
+      "--compare-field",
+      "licence",
+    ]);
+    expect(json.code).toBe(2);
+    expect(json.stderr).toContain("[FIELD_MISSING]");
+  });
+
+  it("--compare-field under --pseudonymize prints no value", async () => {
+    const args = ["diff", at("deps-before.json"), at("deps-after.json"), "--compare-field", "version"];
+    const r = await cli([...args, "--pseudonymize"], { env: { ESPALIER_PSEUDONYM_KEY: "test-secret" } });
+    expect(r.code).toBe(0);
+    expect(r.stdout).not.toContain("3.0.1");
+    expect(r.stdout).not.toContain("kelp-log");
+    expect(r.stdout).toMatch(/\[edited version anon-[0-9a-f]{12} -> anon-[0-9a-f]{12}\]/);
   });
 
   it("leaves the summary as the default command", async () => {

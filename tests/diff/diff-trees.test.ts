@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { kindName } from "../../src/diff/changes.js";
+import { changeKinds, kindName } from "../../src/diff/changes.js";
 import { diffOrder } from "../../src/diff/diff-order.js";
 import {
   DIFF_HEADER_LINES,
@@ -17,11 +17,18 @@ import type { Tree } from "../../src/model/tree.js";
 import { renderDiffText } from "../../src/render/diff-text.js";
 import { makeTree } from "../helpers/make-tree.js";
 import { arbTree } from "../helpers/random-tree.js";
-import { arbEdited, withoutIds } from "./edit-script.js";
+import { arbEdited, EDIT_FIELD, withoutIds } from "./edit-script.js";
 import { makeIdTree } from "./id-tree.js";
 
+/** Compares EDIT_FIELD whenever both versions have it (the edit scripts' trees do). */
 const run = (oldTree: Tree, newTree: Tree, budget = 100, foci: string[] = [], chains = false) =>
-  diffTrees(oldTree, newTree, { foci, budget, importance: "depth", chains });
+  diffTrees(oldTree, newTree, {
+    foci,
+    budget,
+    importance: "depth",
+    chains,
+    compareFields: oldTree.fields.has(EDIT_FIELD) && newTree.fields.has(EDIT_FIELD) ? [EDIT_FIELD] : [],
+  });
 
 /** Every change as "<name> <kind>[ from <old parent> to <new parent>]", in the combined tree's order. */
 function changeList(result: DiffResult): string[] {
@@ -49,7 +56,14 @@ describe("diffTrees(old, new, options)", () => {
     // edit script (move x from A to B, insert C) is derived by hand.
     const result = run(makeIdTree("R{A{x,y},B{z}}"), makeIdTree("R{A{y},B{z,x},C}"));
     expect(changeList(result)).toEqual(["x moved from A to B", "C added"]);
-    expect(result.totals.changes).toEqual({ added: 1, removed: 0, moved: 1, renamed: 0, resized: 0 });
+    expect(result.totals.changes).toEqual({
+      added: 1,
+      removed: 0,
+      moved: 1,
+      renamed: 0,
+      edited: 0,
+      resized: 0,
+    });
   });
 
   it("reports a move as one removal and one addition when matching by path", () => {
@@ -65,7 +79,14 @@ describe("diffTrees(old, new, options)", () => {
           ? { ...tree, ids: new StringNames(Array.from({ length: tree.length }, (_, i) => `n${i}`)) }
           : tree;
         const result = run(t, t, 10);
-        expect(result.totals.changes).toEqual({ added: 0, removed: 0, moved: 0, renamed: 0, resized: 0 });
+        expect(result.totals.changes).toEqual({
+          added: 0,
+          removed: 0,
+          moved: 0,
+          renamed: 0,
+          edited: 0,
+          resized: 0,
+        });
         expect(result.totals.delta).toBe(0);
         expect(result.combined.tree.length).toBe(t.length);
       }),
@@ -233,8 +254,8 @@ describe("diffTrees(old, new, options)", () => {
         const [oldTree, newTree] = byId ? [edited.oldTree, edited.newTree] : withoutIds(edited);
         const result = run(oldTree, newTree, b);
         const { kind, delta } = result.combined;
-        const kinds = ["added", "removed", "moved", "renamed", "resized"] as const;
-        const seen = { added: 0, removed: 0, moved: 0, renamed: 0, resized: 0 };
+        const kinds = changeKinds;
+        const seen = { added: 0, removed: 0, moved: 0, renamed: 0, edited: 0, resized: 0 };
         let seenDelta = 0;
         result.view.each(({ data }) => {
           const v: DiffViewNode = data;
@@ -271,6 +292,7 @@ describe("diffTrees(old, new, options)", () => {
       removed: 3,
       moved: 0,
       renamed: 0,
+      edited: 0,
       resized: 0,
     });
     const err = (() => {

@@ -6,21 +6,24 @@ import { arbTree } from "../helpers/random-tree.js";
 
 /** What an edit script did to one node, keyed by id. */
 export interface Expected {
-  kind: "added" | "removed" | "moved" | "renamed" | "resized";
+  kind: "added" | "removed" | "moved" | "renamed" | "edited" | "resized";
   /** For a move: the old parent's id. */
   from?: string;
   /** For a move: the new parent's id. */
   to?: string;
 }
 
+/** The record field every node of both versions has, for `compareFields`. */
+export const EDIT_FIELD = "version";
+
 export interface Edited {
-  /** The old version, ids "n0", "n1", … by pre-order index. */
+  /** The old version, ids "n0", "n1", … by pre-order index; each node's `version` is "1.<index>". */
   oldTree: Tree;
   newTree: Tree;
   expected: Map<string, Expected>;
 }
 
-const ops = ["add", "remove", "move", "rename", "resize"] as const;
+const ops = ["add", "remove", "move", "rename", "edit", "resize"] as const;
 const arbOp = fc.record({ op: fc.constantFrom(...ops), a: fc.nat(), b: fc.nat(), v: fc.nat({ max: 999 }) });
 
 /**
@@ -32,7 +35,12 @@ export const arbEdited = (maxNodes = 40, maxEdits = 8): fc.Arbitrary<Edited> =>
   fc.tuple(arbTree(maxNodes), fc.array(arbOp, { maxLength: maxEdits })).map(([tree, script]) => {
     const n = tree.length;
     const ids = Array.from({ length: n }, (_, i) => `n${i}`);
-    const oldTree: Tree = { ...tree, ids: new StringNames(ids) };
+    const version = new Map(ids.map((id, i) => [id, `1.${i}`]));
+    const oldTree: Tree = {
+      ...tree,
+      ids: new StringNames(ids),
+      fields: new Map([[EDIT_FIELD, ids.map((id) => version.get(id)!)]]),
+    };
     const order = [...ids];
     const parent = new Map<string, string | null>(
       ids.map((id, i) => [id, i === 0 ? null : ids[tree.parent[i]]]),
@@ -68,6 +76,7 @@ export const arbEdited = (maxNodes = 40, maxEdits = 8): fc.Arbitrary<Edited> =>
         parent.set(id, nodes[a % nodes.length]);
         name.set(id, ["a", "b", "c"][v % 3]);
         size.set(id, v);
+        version.set(id, `1.${v}`);
         touched.add(id);
         expected.set(id, { kind: "added" });
       } else if (op === "remove") {
@@ -94,6 +103,14 @@ export const arbEdited = (maxNodes = 40, maxEdits = 8): fc.Arbitrary<Edited> =>
         name.set(m, `renamed${fresh++}`);
         touched.add(m);
         expected.set(m, { kind: "renamed" });
+      } else if (op === "edit") {
+        const pool = touched.has("n0") ? untouched : ["n0", ...untouched];
+        if (pool.length === 0) continue;
+        const m = pool[a % pool.length];
+        // An empty value counts as a value too ("" against "1.k" is an edit).
+        version.set(m, v % 7 === 0 ? "" : `2.${v}`);
+        touched.add(m);
+        expected.set(m, { kind: "edited" });
       } else {
         const pool = touched.has("n0") ? untouched : ["n0", ...untouched];
         if (pool.length === 0) continue;
@@ -113,7 +130,7 @@ export const arbEdited = (maxNodes = 40, maxEdits = 8): fc.Arbitrary<Edited> =>
       ids: kept,
       origin: Int32Array.from(kept.map((_, i) => i + 1)),
       originIsRow: true,
-      fields: new Map(),
+      fields: new Map([[EDIT_FIELD, kept.map((id) => version.get(id)!)]]),
       rootName: "(root)",
     });
     return { oldTree, newTree, expected };

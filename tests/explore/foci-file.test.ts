@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { parseConfig } from "../../src/cli/config.js";
+import { parseConfig } from "../../src/cli/config-text.js";
 import { EspalierError } from "../../src/errors.js";
 import { configText, focusListText, isConfigName } from "../../src/explore/foci-file.js";
 

@@ -9,13 +9,14 @@ import type { Tree } from "../../src/model/tree.js";
 import { renderDiffJson, toDiffSummary } from "../../src/render/diff-json.js";
 import { diffJsonSchema } from "../../src/render/diff-json-schema.js";
 import { type DiffSummaryNode, diffSchema } from "../../src/render/diff-schema.js";
-import { arbEdited } from "../diff/edit-script.js";
+import { arbEdited, EDIT_FIELD } from "../diff/edit-script.js";
 import { makeIdTree } from "../diff/id-tree.js";
 
 const published = JSON.parse(readFileSync(new URL("../../docs/diff.schema.json", import.meta.url), "utf8"));
 
 function summary(oldTree: Tree, newTree: Tree, budget: number) {
-  const r = diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth" });
+  const compareFields = oldTree.fields.has(EDIT_FIELD) ? [EDIT_FIELD] : [];
+  const r = diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth", compareFields });
   return toDiffSummary(r.view, r.totals, {
     budget,
     lines: r.selection.lines,
@@ -30,7 +31,7 @@ describe("toDiffSummary(view, totals, options)", () => {
     const s = summary(makeIdTree("R{A{x,y},B{z}}"), makeIdTree("R{A{y},B{z,x},C}"), 40);
     expect(s.format).toBe("espalier-diff/1");
     expect(s.match).toBe("id");
-    expect(s.changes).toEqual({ added: 1, removed: 0, moved: 1, renamed: 0, resized: 0 });
+    expect(s.changes).toEqual({ added: 1, removed: 0, moved: 1, renamed: 0, edited: 0, resized: 0 });
     const flat: DiffSummaryNode[] = [];
     const walk = (n: DiffSummaryNode) => {
       flat.push(n);
@@ -64,6 +65,13 @@ describe("toDiffSummary(view, totals, options)", () => {
         const hiddenAll = (n: DiffSummaryNode): boolean =>
           (n.hidden === null || n.hidden.changes !== undefined) && n.children.every(hiddenAll);
         expect(hiddenAll(s.root)).toBe(true);
+        // Edits appear exactly on shown nodes of kind edited, or of a kind before it (moved, renamed).
+        const walk = (n: DiffSummaryNode): void => {
+          if (n.change === "edited") expect(n.edits?.length).toBeGreaterThan(0);
+          if (n.edits) expect(["moved", "renamed", "edited"]).toContain(n.change);
+          n.children.forEach(walk);
+        };
+        walk(s.root);
       }),
     );
   });
@@ -91,7 +99,8 @@ function chain(depth: number, bottom: string): Tree {
 }
 
 function render(oldTree: Tree, newTree: Tree, budget: number): string {
-  const r = diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth" });
+  const compareFields = oldTree.fields.has(EDIT_FIELD) ? [EDIT_FIELD] : [];
+  const r = diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth", compareFields });
   return renderDiffJson(r.view, r.totals, {
     budget,
     lines: r.selection.lines,
@@ -110,7 +119,14 @@ describe("renderDiffJson(view, totals, options)", () => {
     });
     const out = renderDiffJson(r.view, r.totals, { budget: 10, lines: 3, foci: [], by: "id", labels: false });
     expect(out.endsWith("}\n")).toBe(true);
-    expect(JSON.parse(out).changes).toEqual({ added: 1, removed: 1, moved: 0, renamed: 0, resized: 0 });
+    expect(JSON.parse(out).changes).toEqual({
+      added: 1,
+      removed: 1,
+      moved: 0,
+      renamed: 0,
+      edited: 0,
+      resized: 0,
+    });
   });
 
   it("writes ESC and U+202E in a name as \\u escapes that parse back to the name", () => {

@@ -24,7 +24,7 @@ describe("renderDiffText(view, totals, options)", () => {
   it("opens with the totals per kind and tags each change in words", () => {
     expect(text(makeIdTree("R{A{x,y},B{z}}"), makeIdTree("R{A{y},B{z,x},C}"))).toBe(
       [
-        "matched by id: 1 added, 0 removed, 1 moved, 0 renamed, 0 resized; 6 -> 7 nodes",
+        "matched by id: 1 added, 0 removed, 1 moved, 0 renamed, 0 edited, 0 resized; 6 -> 7 nodes",
         "> R  7 nodes",
         "  - A  2 nodes",
         "    - y",
@@ -42,7 +42,7 @@ describe("renderDiffText(view, totals, options)", () => {
     const newTree = makeTree("R{A{y:26},B{z:5,w:3},D{d:1}}");
     expect(text(oldTree, newTree)).toBe(
       [
-        "matched by path: 1 added, 1 removed, 0 moved, 0 renamed, 1 resized; 8 -> 8 nodes; size 36 B -> 35 B (-1 B)",
+        "matched by path: 1 added, 1 removed, 0 moved, 0 renamed, 0 edited, 1 resized; 8 -> 8 nodes; size 36 B -> 35 B (-1 B)",
         "> R  9 nodes, 35 B, net -1 B",
         "  > A  3 nodes, 26 B, net -4 B",
         "    > [removed -10 B] x",
@@ -67,7 +67,7 @@ describe("renderDiffText(view, totals, options)", () => {
     const newTree = makeTree("R{A{B{C{x:1,y:4}}},D{E{F:3}}}");
     expect(text(oldTree, newTree, 40, true, true)).toBe(
       [
-        "matched by path: 1 added, 0 removed, 0 moved, 0 renamed, 1 resized; 8 -> 9 nodes; size 3 B -> 8 B (+5 B)",
+        "matched by path: 1 added, 0 removed, 0 moved, 0 renamed, 0 edited, 1 resized; 8 -> 9 nodes; size 3 B -> 8 B (+5 B)",
         "> R  9 nodes, 8 B, net +5 B",
         "  > A / B / C  5 nodes, 5 B, net +4 B",
         "    - x  1 B",

@@ -1,4 +1,5 @@
 import fc from "fast-check";
+import stringWidth from "string-width";
 import { describe, expect, it } from "vitest";
 import { measure } from "../../src/model/measure.js";
 import { PathIndex } from "../../src/model/path-index.js";
@@ -31,12 +32,41 @@ describe("displayWidth(text)", () => {
     expect(displayWidth("Zoé Łukasz")).toBe(10);
     expect(displayWidth("ｶﾀ")).toBe(2);
   });
+  it("agrees with string-width on any text, printable ASCII or not (property)", () => {
+    // Source: string-width, the reference library for terminal widths (UAX #11). Printable ASCII is
+    // answered without it (one column a character), which must give exactly its answer.
+    const text = fc.oneof(
+      fc.string({ unit: fc.integer({ min: 0x20, max: 0x7e }).map((c) => String.fromCharCode(c)) }),
+      fc.string({ unit: "grapheme" }),
+      fc.string({ unit: "binary" }),
+      fc.string(),
+    );
+    fc.assert(fc.property(text, (t) => displayWidth(t) === stringWidth(t)));
+  });
 });
 
 describe("shortenMiddle(text, width) and shortenEnd(text, width)", () => {
   it("keeps both ends around an ellipsis", () => {
     expect(shortenMiddle("services/ledger/src/events", 12)).toBe(`servic${ELLIPSIS}vents`);
     expect(shortenMiddle("short", 12)).toBe("short");
+  });
+
+  it("cuts printable ASCII where a grapheme segmenter would (property)", () => {
+    // Source: UAX #29 (grapheme clusters), through Intl.Segmenter: each printable ASCII character is a
+    // cluster of its own. A combining mark (U+0301) after the last character joins that character's
+    // cluster without adding a column, and sends the text down the segmenter's path: with the mark
+    // taken out again, both paths must give the same cut.
+    const ascii = fc.string({
+      unit: fc.integer({ min: 0x20, max: 0x7e }).map((c) => String.fromCharCode(c)),
+      maxLength: 40,
+    });
+    fc.assert(
+      fc.property(ascii, fc.integer({ min: 0, max: 45 }), (t, width) => {
+        const marked = `${t}\u0301`;
+        expect(shortenMiddle(marked, width).replace("\u0301", "")).toBe(shortenMiddle(t, width));
+        expect(shortenEnd(marked, width).replace("\u0301", "")).toBe(shortenEnd(t, width));
+      }),
+    );
   });
 
   it("never cuts a wide character or a grapheme cluster in half", () => {

@@ -1,3 +1,4 @@
+import { createRequire } from "node:module";
 import { EspalierError, quoted, say } from "../../errors.js";
 
 /** A query's result, column by column: values as the engine hands them to JavaScript. */
@@ -36,7 +37,9 @@ const PACKAGE = "@duckdb/node-api";
 export async function openEngine(settings: EngineSettings = {}, from: string = PACKAGE): Promise<Engine> {
   let api: typeof import("@duckdb/node-api");
   try {
-    api = await import(from);
+    // require, not import(): the package is CommonJS, and the command line's bundle runs as a script
+    // whose import() would need an experimental engine hook (bin/load-bundle.js).
+    api = createRequire(import.meta.url)(from) as typeof import("@duckdb/node-api");
   } catch (err) {
     throw new EspalierError(
       "ENGINE_MISSING",
