@@ -277,16 +277,24 @@ describe("espalier --pseudonymize on random faulty inputs (property)", () => {
         fc.array(token, { minLength: 2, maxLength: 6 }),
         fc.constantFrom("csv", "tsv", "json", "rows", "yaml", "paths", "pathmap", "values", "lone"),
         fc.nat(),
-        fc.constantFrom("dup", "size", "parent", "cycle", "cut", "focus"),
+        fc.constantFrom("dup", "size", "parent", "cycle", "cut", "focus", "hit"),
         async (names, format, pick, fault) => {
           const text = faultyInput(names, format, pick, fault);
           const file = join(dir, `in.${FILE_TYPE[format] ?? format}`);
           await writeFile(file, text);
-          const focus = fault === "focus" ? ["--focus", `${names[0]}/${names[pick % names.length]}x`] : [];
+          // "focus" names no node (an error); "hit" names real nodes that exist, by path and by id, so
+          // the output (its header and JSON foci too) is checked with foci typed as real names.
+          const focus =
+            fault === "focus"
+              ? ["--focus", `${names[0]}/${names[pick % names.length]}x`]
+              : fault === "hit"
+                ? hits(names, format)
+                : [];
+          const output = ["--format", ["text", "json", "markdown", "svg"][pick % 4]];
           const fmt = FORMAT_ARGS[format] ?? ["--input-format", format];
           for (const argv of [
-            [file, ...fmt, ...focus, "--pseudonymize"],
-            ["diff", file, file, ...fmt, ...focus, "--pseudonymize"],
+            [file, ...fmt, ...focus, ...output, "--pseudonymize"],
+            ["diff", file, file, ...fmt, ...focus, ...output, "--pseudonymize"],
           ]) {
             const r = await cli(argv, { env: KEY });
             expect(r.stderr, `${format} ${fault}: ${text}`).not.toMatch(LEAK);
@@ -307,6 +315,16 @@ const FORMAT_ARGS: Record<string, string[]> = {
   values: ["--read-as", "values"],
   lone: ["--children-field", "reports"],
 };
+
+/** Foci that name existing nodes of `faultyInput(names, format, …)`: by path, and by id in tables. */
+function hits(names: string[], format: string): string[] {
+  // A root row or node object is the root itself (path ""); path lists, path maps and values have a
+  // root above the first name.
+  const rooted = ["csv", "tsv", "rows", "json", "yaml"].includes(format);
+  const path = rooted ? names[1] : names.slice(0, 2).join("/");
+  const id = ["csv", "tsv", "rows"].includes(format) ? ["--focus", [...names[1]].reverse().join("")] : [];
+  return ["--focus", path, ...id];
+}
 
 /** An input of `format` naming people `names` (ids are the names reversed), with one fault. */
 function faultyInput(names: string[], format: string, pick: number, fault: string): string {
