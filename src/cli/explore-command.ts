@@ -10,6 +10,7 @@ import { diffSession, type Session, summarySession } from "../explore/session.js
 import type { ExploreState } from "../explore/state.js";
 import { ENTER, frame, LEAVE } from "../explore/terminal.js";
 import { type ExploreEvent, fociOf, needsWork, STATUS_ROWS, startState, update } from "../explore/update.js";
+import { warmImportances } from "../explore/warm.js";
 import { resolveFoci } from "../focus/resolve.js";
 import type { Tree } from "../model/tree.js";
 import { palette } from "../render/palette.js";
@@ -258,19 +259,30 @@ export function runView(
       onCrash(err);
       return;
     }
-    // Between keys: pseudonyms are hashed in slices (so a search can cover every name), and a search's
-    // matches are counted in slices; a key always comes before the next slice.
+    // Between keys: the other importance is computed once (warm.ts), pseudonyms are hashed in slices (so
+    // a search can cover every name), and a search's matches are counted in slices; a key always comes
+    // before the next slice.
     let queued = false;
+    let warm = false;
     const quiet = () => {
       queued = false;
       if (done) return;
+      if (!warm) {
+        warm = true;
+        try {
+          warmImportances(session, state);
+        } catch (err) {
+          onCrash(err);
+          return;
+        }
+      }
       if (session.search.searchable < session.tree.length) session.search.advance(400);
       if (needsWork(session, state)) dispatch({ kind: "work" });
       schedule();
     };
     schedule = () => {
       if (done || queued) return;
-      if (session.search.searchable < session.tree.length || needsWork(session, state)) {
+      if (!warm || session.search.searchable < session.tree.length || needsWork(session, state)) {
         queued = true;
         setImmediate(quiet);
       }

@@ -136,6 +136,28 @@ describe("espalier explore", () => {
     expect(printed.stdout).toBe(`${tree.join("\n")}\n`);
   });
 
+  it("p's command line prints the screen's numbers in the same units, on an input whose sizes are not bytes", async () => {
+    // A "size" field of a JSON document counts in the input's own unit: printed plain, by the summary
+    // and by the view alike (docs/input.md).
+    const terminal = new FakeTerminal(["\u001b[B", "p"]);
+    const out = await exploreCommand(
+      "fixtures/tidewater-deps.json",
+      undefined,
+      summaryOptionsSchema.parse({ color: "never" }),
+      io(),
+      { terminal },
+    );
+    const tree = terminal
+      .lastFrame()
+      .slice(0, -1)
+      .filter((row) => row !== "")
+      .map((row) => row.slice(2));
+    const printed = await cli([...argsOf(out.text.trim()).slice(1), "--width", "78", "--color", "never"]);
+    expect(printed.code).toBe(0);
+    expect(printed.stdout).toBe(`${tree.join("\n")}\n`);
+    expect(tree.join("\n")).not.toMatch(/[KMG]iB/);
+  });
+
   it("w writes the foci to the file typed, read back by --focus-from", async () => {
     const dir = mkdtempSync(join(tmpdir(), "espalier-explore-"));
     const file = join(dir, "team.foci");
@@ -253,6 +275,15 @@ describe("espalier explore", () => {
     expect(first.join("\n")).toContain("[added] b2");
     // n went to the first change (a2, removed), then the next (b2, added): the view ends focused on b2.
     expect(out.text).toBe(`espalier diff ${oldFile} ${newFile} --focus b/b2 --budget 11\n`);
+    // Run without the view, the printed line prints the last screen's rows, the totals line included.
+    const screen = terminal
+      .lastFrame()
+      .slice(0, -1)
+      .filter((row) => row !== "")
+      .map((row) => row.slice(2));
+    const printed = await cli([...argsOf(out.text.trim()).slice(1), "--width", "58", "--color", "never"]);
+    expect(printed.code).toBe(0);
+    expect(printed.stdout).toBe(`${screen.join("\n")}\n`);
   });
 
   it("with --pseudonymize, a failed write of a config file says only its error code", async () => {

@@ -150,11 +150,12 @@ describe("espalier explore in a terminal (tmux)", () => {
   it("restores the terminal on SIGINT and ends with the signal", async () => {
     const { name, files } = start(["fixtures/tidewater-deps.json"]);
     await until(name, (r) => status(r).includes("h: keys"), "the first screen");
-    const pid = spawnSync("pgrep", ["-f", `${BIN} explore fixtures/tidewater-deps.json`], {
-      encoding: "utf8",
-    })
+    // The program is the child of this pane's shell (so no other run's process can be picked).
+    const shell = flag(name, "#{pane_pid}");
+    const pid = spawnSync("pgrep", ["-P", shell, "-f", `${BIN} explore`], { encoding: "utf8" })
       .stdout.trim()
       .split("\n")[0];
+    expect(pid).toMatch(/^[0-9]+$/);
     process.kill(Number(pid), "SIGINT");
     // sh reports death by SIGINT as 128 + 2.
     expect(await exited(files)).toBe(130);
