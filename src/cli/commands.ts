@@ -1,7 +1,7 @@
 import type { z } from "zod";
 import { EspalierError } from "../errors.js";
 import { CONFIG_FILES } from "./config.js";
-import { effectiveOptions, printConfig } from "./effective-options.js";
+import { effectiveOptions, optionsInEffectYaml } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
 import { printSqlCommand } from "./fact-input.js";
 import { hidingInput } from "./hide-input.js";
@@ -30,20 +30,27 @@ export interface OutputTarget {
   inputs: string[];
 }
 
+/** A worked example of `--help`: what it shows, and the shell line that shows it. */
+export interface Example {
+  what: string;
+  /** One line for a POSIX shell, run from the project's folder (the demo data is in fixtures/). */
+  line: string;
+}
+
 /** One command of the command line: its help texts and how it runs. */
 export interface CommandSpec {
-  /** One sentence on what espalier does, at the top of `--help`. */
-  about: string;
-  /** `espalier diff [options] <old> <new>`. */
+  /** `espalier diff OLD NEW`: how it is called, its arguments in capitals. */
   usage: string;
   /** What the command does, beside its usage line. */
   summary: string;
   /** Names of its arguments, in order; `[new]` is optional (optional ones come last). */
   args: readonly string[];
-  /** Worked examples on the demo data, printed by `--help` (a test runs them). */
-  examples: string;
-  /** What each exit status means. */
-  exitStatus: string;
+  /** Worked examples on the demo data, printed by `--help` (tests/cli/help-examples.test.ts runs each). */
+  examples: readonly Example[];
+  /** What else a reader of the help needs: paths, matching, the terminal. */
+  notes: string;
+  /** What each exit status means, by status. */
+  exitStatus: readonly (readonly [number, string])[];
   /** Reads the options (flags over config over defaults), checks the arguments, runs. */
   invoke(line: CommandLine, io: CliIO): Promise<Invocation>;
 }
@@ -81,8 +88,8 @@ function defineCommand<S extends z.ZodObject>(def: CommandDef<S>): CommandSpec {
         commandOptions[name],
         io,
       );
-      if (line.given.printConfig === true)
-        return { text: await printConfig(options, configFile), exitCode: EXIT.ok, target: undefined };
+      if (line.given.optionsInEffect === true)
+        return { text: await optionsInEffectYaml(options, configFile), exitCode: EXIT.ok, target: undefined };
       const early = await def.early?.(line.args, options);
       if (early) return { ...early, target: undefined };
       checkArguments(def, line.args);
@@ -100,7 +107,7 @@ function checkArguments(def: CommandDef<z.ZodObject>, args: readonly string[]): 
   const required = def.args.filter((a) => !a.startsWith("["));
   const want = def.args.length;
   if (args.length >= required.length && args.length <= want) return;
-  const names = required.map((a) => `<${a}>`).join(" and ");
+  const names = required.map((a) => a.toUpperCase()).join(" and ");
   if (args.length < required.length) {
     throw new EspalierError(
       "USAGE",
@@ -110,7 +117,7 @@ function checkArguments(def: CommandDef<z.ZodObject>, args: readonly string[]): 
     );
   }
   const extra = args[want];
-  const hint = def.name === "summary" ? "; to compare two versions: espalier diff <old> <new>" : "";
+  const hint = def.name === "summary" ? "; to compare two versions: espalier diff OLD NEW" : "";
   throw new EspalierError(
     "USAGE",
     `unexpected argument ${JSON.stringify(extra)}: ${def.usage} takes at most ${want === 1 ? "one input" : `${want} inputs`}${hint}`,
@@ -130,46 +137,48 @@ function outputTarget(
   if (options.output === undefined) return undefined;
   const { given } = line;
   const configs =
-    given.noConfig === true ? [] : typeof given.config === "string" ? [given.config] : CONFIG_FILES;
+    given.withoutConfig === true ? [] : typeof given.config === "string" ? [given.config] : CONFIG_FILES;
   const inputs = [...line.args, options.focusFrom, ...configs].filter(
     (name): name is string => typeof name === "string",
   );
   return { file: options.output, inputs };
 }
 
-const ABOUT =
-  "show the part of a large hierarchy that matters, with enough context, within a line budget. " +
-  "Reads nested JSON or YAML, CSV/TSV tables linked by id and parent (or a path column), JSON rows " +
-  "and path lists, and scores every node by its degree of interest (Furnas) against the foci.";
-
 /** The commands, by name. */
 export const commands: Record<CommandName, CommandSpec> = {
   summary: defineCommand({
     name: "summary",
     schema: summaryOptionsSchema,
-    about: ABOUT,
-    usage: "espalier [options] <input>",
+    usage: "espalier INPUT",
     summary: "summarise one hierarchy",
     args: ["input"],
-    examples: `
-Examples
-  # The people around one engineer in a 3,000-person org chart, in 30 lines
-  espalier fixtures/quillfeather-org.csv --parent-field manager --size-field cost --focus Q2417 --label '{name}, {title}' --budget 30
-
-  # Two teams at once, names replaced by the team and title of each person
-  espalier fixtures/quillfeather-org.csv --parent-field manager --label '{title} ({team})' --focus Q2417 --focus Q0627
-
-  # Every test folder of one service, as JSON for a script
-  espalier fixtures/tidewater-files.paths --focus 'services/ledger/**/test' --format json
-
-  # Where the bytes are in a listing (find DIR -printf '%s\\t%p\\n' > files.paths)
-  find . -printf '%s\\t%p\\n' | espalier - --importance size --budget 25
-
-Paths: names from below the root joined by "/", with "~" written "~0" and "/" written "~1"
-(RFC 6901). "*" matches within a name, "**" any number of levels. Every path espalier prints
-is accepted back as a focus.`,
-    exitStatus: `Exit status: 0 success; 2 usage or input error (one line on standard error, nothing on
-standard output).`,
+    examples: [
+      {
+        what: "The people around one engineer of a 2,900-person org chart, in 30 lines",
+        line: "espalier fixtures/quillfeather-org.csv --parent-field manager --size-field cost --focus Q2417 --label '{name}, {title}' --budget 30",
+      },
+      {
+        what: "Two people at once, each shown by title and team",
+        line: "espalier fixtures/quillfeather-org.csv --parent-field manager --label '{title} ({team})' --focus Q2417 --focus Q0627",
+      },
+      {
+        what: "Every test folder of one service, as JSON for a script",
+        line: "espalier fixtures/tidewater-files.paths --focus 'services/ledger/**/test' --format json",
+      },
+      {
+        what: "Where the bytes are in a listing; a focus may be written as find writes its paths",
+        line: "find fixtures -printf '%s\\t%p\\n' | espalier - --importance size --focus fixtures/external --budget 15",
+      },
+    ],
+    notes:
+      'Paths are the names below the root joined by "/", with "~" written "~0" and "/" written "~1" ' +
+      '(RFC 6901). "*" matches within a name, "**" any number of levels. Every path espalier prints is ' +
+      "accepted back as a focus, and so is a path as a listing prints it (./a/b, or the listed folder's " +
+      "name in front).",
+    exitStatus: [
+      [0, "the summary is printed"],
+      [2, "a usage or input error: one line on standard error, nothing on standard output"],
+    ],
     early: async (args, options) =>
       options.printSql && args.length <= 1
         ? { text: await printSqlCommand(args[0], options), exitCode: EXIT.ok }
@@ -182,25 +191,31 @@ standard output).`,
   diff: defineCommand({
     name: "diff",
     schema: diffOptionsSchema,
-    about: ABOUT,
-    usage: "espalier diff [options] <old> <new>",
-    summary: "show what changed between two versions, within the line budget",
+    usage: "espalier diff OLD NEW",
+    summary: "what changed between two versions, within the line budget",
     args: ["old", "new"],
-    examples: `
-Examples
-  # What changed in the dependency tree, in 30 lines
-  espalier diff fixtures/tidewater-deps.json fixtures/tidewater-deps.json --budget 30
-
-  # Dependency tree before and after a pull request, failing the CI step when it changed
-  espalier diff deps-main.json deps-branch.json --exit-code --budget 40
-
-  # The new version from standard input, as JSON for a script
-  generate-deps | espalier diff fixtures/tidewater-deps.json - --format json
-
-Nodes are matched by row id when both versions have ids, otherwise by path; matched by path, a
-moved or renamed node shows as one removed and one added.`,
-    exitStatus: `Exit status: 0 success (with --exit-code: 0 the versions are the same, 1 they differ); 2 usage
-or input error.`,
+    examples: [
+      {
+        what: "What a clean-up of one service's tests would take away (the new version on standard input)",
+        line: "grep -v 'services/ledger/test' fixtures/tidewater-files.paths | espalier diff fixtures/tidewater-files.paths - --budget 20",
+      },
+      {
+        what: "The same as JSON, failing a CI step (status 1) because something changed",
+        line: "grep -v 'services/ledger/test' fixtures/tidewater-files.paths | espalier diff fixtures/tidewater-files.paths - --format json --fail-on-change",
+      },
+      {
+        what: "Two equal versions: nothing changed, so status 0 even with --fail-on-change",
+        line: "espalier diff fixtures/tidewater-deps.json fixtures/tidewater-deps.json --fail-on-change --budget 10",
+      },
+    ],
+    notes:
+      "Nodes are matched by row id when both versions have ids, otherwise by path; matched by path, a " +
+      "moved or renamed node shows as one removed and one added. The changes are the foci.",
+    exitStatus: [
+      [0, "the diff is printed (with --fail-on-change: and the versions are the same)"],
+      [1, "with --fail-on-change only: the versions differ"],
+      [2, "a usage or input error: one line on standard error, nothing on standard output"],
+    ],
     // Each command's own code loads when it runs: a start reads only what the run needs.
     run: async (args, options, io) =>
       (await import("./diff-command.js")).diffCommand(args[0], args[1], options, io),
@@ -208,20 +223,27 @@ or input error.`,
   explore: defineCommand({
     name: "explore",
     schema: summaryOptionsSchema,
-    about: ABOUT,
-    usage: "espalier explore [options] <input> [<new>]",
+    usage: "espalier explore INPUT [NEW]",
     summary: "look around interactively: the view re-fits the terminal on every key",
     args: ["input", "[new]"],
-    examples: `
-Examples
-  # Look around the org chart; h lists the keys, p quits printing the command line of the view
-  espalier explore fixtures/quillfeather-org.csv --parent-field manager --label '{name}, {title}'
-
-  # Explore what changed between two versions (the changes are the foci; n and N step through them)
-  espalier explore deps-main.json deps-branch.json
-
-It needs a terminal; --budget, --format and --output belong to printed summaries and are not taken.`,
-    exitStatus: `Exit status: 0 left with q or p; 2 usage or input error (nothing drawn); 130 left with Ctrl-C.`,
+    examples: [
+      {
+        what: "Look around the org chart; h lists the keys, q leaves, p leaves printing the view's command line",
+        line: "espalier explore fixtures/quillfeather-org.csv --parent-field manager --label '{name}, {title}'",
+      },
+      {
+        what: "Step through what changed (the changes are the foci; n and N move between them)",
+        line: "grep -v 'services/ledger/test' fixtures/tidewater-files.paths | espalier explore fixtures/tidewater-files.paths -",
+      },
+    ],
+    notes:
+      "It needs a terminal; keys come from the terminal even when standard input holds a version. " +
+      "--budget, --format and --output belong to printed summaries and are not taken.",
+    exitStatus: [
+      [0, "left with q or p"],
+      [2, "a usage or input error (nothing drawn)"],
+      [130, "left with Ctrl-C"],
+    ],
     run: async (args, options, io, sources) =>
       (await import("./explore-command.js")).exploreCommand(args[0], args[1], options, io, {
         configFile: sources.configFile,

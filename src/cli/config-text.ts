@@ -1,7 +1,7 @@
 import { isMap, isScalar, LineCounter, parseDocument } from "yaml";
+import { didYouMeanText } from "../did-you-mean.js";
 import { EspalierError, type SourcePos } from "../errors.js";
 import type { ConfigValues } from "./config.js";
-import { didYouMeanText } from "./did-you-mean.js";
 import { configSchema } from "./options.js";
 import { issueMessage } from "./validate-options.js";
 

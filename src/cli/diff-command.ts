@@ -30,5 +30,5 @@ export async function diffCommand(
   const { tree } = result.combined;
   const text = await diffRenderers[opts.format](result, outputSettings(opts, io, tree), tree);
   const differ = totalChanges(result.totals.changes) > 0;
-  return { text, exitCode: opts.exitCode && differ ? EXIT.differences : EXIT.ok };
+  return { text, exitCode: opts.failOnChange && differ ? EXIT.differences : EXIT.ok };
 }

@@ -17,7 +17,7 @@ export interface EffectiveOptions<T> {
 /**
  * The options a command runs with: its flags over the project config file over the defaults, validated
  * against `schema`. The config is `--config FILE`, else `.espalier.yaml` in the current directory;
- * `--no-config` skips it. A config key the command does not take (a diff-only key for a summary) is left
+ * `--without-config` skips it. A config key the command does not take (a diff-only key for a summary) is left
  * out; `focus` on the command line replaces the config's list rather than adding to it.
  */
 export async function effectiveOptions<S extends z.ZodObject>(
@@ -27,12 +27,12 @@ export async function effectiveOptions<S extends z.ZodObject>(
   io: CliIO,
 ): Promise<EffectiveOptions<z.infer<S>>> {
   const { given } = line;
-  if (given.config !== undefined && given.noConfig === true)
-    throw new EspalierError("USAGE", "--config and --no-config cannot be given together", undefined, {
-      option: "--no-config",
+  if (given.config !== undefined && given.withoutConfig === true)
+    throw new EspalierError("USAGE", "--config and --without-config cannot be given together", undefined, {
+      option: "--without-config",
     });
   const config =
-    given.noConfig === true
+    given.withoutConfig === true
       ? undefined
       : await loadConfig(io, typeof given.config === "string" ? given.config : undefined);
   const values: Record<string, unknown> = {};
@@ -53,8 +53,8 @@ export async function effectiveOptions<S extends z.ZodObject>(
   return { options, configFile: config?.file, fromConfig };
 }
 
-/** The effective configuration as YAML, as `--print-config` shows it (a valid config file itself). */
-export async function printConfig(
+/** The effective configuration as YAML, as `--options-in-effect` shows it (a valid config file itself). */
+export async function optionsInEffectYaml(
   values: Record<string, unknown>,
   configFile: string | undefined,
 ): Promise<string> {

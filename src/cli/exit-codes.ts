@@ -2,7 +2,7 @@
 export const EXIT = {
   /** Success. */
   ok: 0,
-  /** `diff --exit-code` found differences (the POSIX convention of comparison utilities). */
+  /** `diff --fail-on-change` found differences (the POSIX convention of comparison utilities). */
   differences: 1,
   /** A usage or input error; nothing was written to standard output. */
   error: 2,

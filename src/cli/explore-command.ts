@@ -47,7 +47,6 @@ export async function exploreCommand(
       "USAGE",
       "espalier explore draws on a terminal, and standard output is not one; run espalier without explore to print a summary",
     );
-  const terminal = setup.terminal ?? nodeTerminal(input === "-" || newInput === "-");
   const inputs = newInput === undefined ? [input] : [input, newInput];
   const foci = await readFoci(io, opts, inputs);
   const key = pseudonymKey(opts, io);
@@ -69,6 +68,9 @@ export async function exploreCommand(
     session = diffSession(prepared, look(prepared.combined.tree));
   }
   const given = resolveFoci(session.index, foci, key);
+  // The terminal is taken only once the input has loaded and its foci resolved: an error in either is
+  // reported on the untouched terminal, like any command's.
+  const terminal = setup.terminal ?? nodeTerminal(input === "-" || newInput === "-");
   const size = () => ({
     rows: terminal.rows(),
     cols: Math.min(opts.width ?? Number.POSITIVE_INFINITY, terminal.cols()),

@@ -299,10 +299,13 @@ export const summaryOnlyOptions = {
 
 /** Options of `espalier diff` only. */
 export const diffOnlyOptions = {
-  exitCode: {
-    flags: "--exit-code",
+  failOnChange: {
+    flags: "--fail-on-change",
     group: "Diff only",
-    schema: z.boolean().default(false).describe("exit 1 when the versions differ, 0 when they do not"),
+    schema: z
+      .boolean()
+      .default(false)
+      .describe("exit with status 1 when the versions differ (0 when they are the same, 2 on an error)"),
   },
   compareField: {
     flags: "--compare-field <field>",
@@ -328,20 +331,20 @@ export const controlOptions = {
       .optional()
       .describe("read options from this YAML file (default: .espalier.yaml if present)"),
   },
-  noConfig: {
-    flags: "--no-config",
+  withoutConfig: {
+    flags: "--without-config",
     group: "Config file",
     config: false,
-    schema: z.boolean().default(false).describe("read no config file"),
+    schema: z.boolean().default(false).describe("read no config file, not even .espalier.yaml"),
   },
-  printConfig: {
-    flags: "--print-config",
+  optionsInEffect: {
+    flags: "--options-in-effect",
     group: "Config file",
     config: false,
     schema: z
       .boolean()
       .default(false)
-      .describe("print the options in effect (flags over config file over defaults) and stop"),
+      .describe("print the options this run would use (flags over config file over defaults) and stop"),
   },
   help: {
     flags: "-h, --help",
@@ -350,7 +353,7 @@ export const controlOptions = {
     schema: z.boolean().default(false).describe("print this help and stop"),
   },
   version: {
-    flags: "-V, --version",
+    flags: "--version",
     group: "Help",
     config: false,
     schema: z.boolean().default(false).describe("print espalier's version and stop"),

@@ -1,5 +1,5 @@
+import { didYouMean } from "../did-you-mean.js";
 import { EspalierError } from "../errors.js";
-import { didYouMean } from "./did-you-mean.js";
 import { type OptionFlags, optionFlags } from "./option-flags.js";
 import { allOptions, type CommandName, commandNames, commandOptions } from "./options.js";
 
@@ -77,7 +77,7 @@ export function parseCommandLine(argv: readonly string[]): CommandLine {
       name = eq < 0 ? arg : arg.slice(0, eq);
       inline = eq < 0 ? undefined : arg.slice(eq + 1);
     } else {
-      // -b30 is -b 30; -hV is -h -V (switches only).
+      // -b30 is -b 30; one-letter switches may be grouped (-xy is -x -y).
       name = arg.slice(0, 2);
       inline = arg.length > 2 ? arg.slice(2) : undefined;
     }
@@ -88,7 +88,7 @@ export function parseCommandLine(argv: readonly string[]): CommandLine {
         throw usage(`${flags.long} takes no value (given ${JSON.stringify(inline)})`, { option: flags.long });
       set(flags, name, flags.switchValue);
       if (inline !== undefined) {
-        // Grouped one-letter switches: -hV.
+        // Grouped one-letter switches.
         for (const letter of inline) {
           const next = byName.get(`-${letter}`);
           if (!next) throw unknownOption(`-${letter}`);
@@ -120,7 +120,7 @@ export function parseCommandLine(argv: readonly string[]): CommandLine {
     if (!(key in takes)) {
       const owner = commandNames.find((c) => key in commandOptions[c]);
       throw usage(
-        `${typed.get(key)} belongs to espalier ${owner === "summary" ? "<input>" : owner}, not to ${commandLabel(command)}`,
+        `${typed.get(key)} belongs to espalier ${owner === "summary" ? "INPUT" : owner}, not to ${commandLabel(command)}`,
         { option: flagsByKey.get(key)!.long },
       );
     }
@@ -132,9 +132,9 @@ function isCommand(arg: string): arg is CommandName {
   return arg !== "summary" && (commandNames as readonly string[]).includes(arg);
 }
 
-/** `espalier diff`, or `espalier <input>` for the summary. */
+/** `espalier diff`, or `espalier INPUT` for the summary. */
 export function commandLabel(command: CommandName): string {
-  return command === "summary" ? "espalier <input>" : `espalier ${command}`;
+  return command === "summary" ? "espalier INPUT" : `espalier ${command}`;
 }
 
 function unknownOption(name: string): EspalierError {

@@ -1,6 +1,6 @@
 import type { z } from "zod";
+import { didYouMeanText } from "../did-you-mean.js";
 import { EspalierError, type SourcePos } from "../errors.js";
-import { didYouMeanText } from "./did-you-mean.js";
 
 /**
  * One line for a zod issue about one option, `name` being how the user wrote it (`--format`, or

@@ -38,27 +38,51 @@ export function resolvePseudonymPath(index: PathIndex, spec: string, key: string
 const PSEUDONYM = /^anon-[0-9a-f]{12}$/;
 
 /**
+ * A focus written as a listing writes its paths, read as espalier's own path: `find DIR` prints every
+ * path with DIR in front (`./services/ledger`, `fixtures/external`), and DIR is the tree's root, whose
+ * path is "". A leading `./` (POSIX: the same place), or the root's own name and "/", is dropped; the
+ * root's name alone (or ".") is the root. Undefined when neither applies. Callers try `spec` as it
+ * stands first: a node that is really called "." or like the root wins.
+ */
+export function pathAsListed(index: PathIndex, spec: string): string | undefined {
+  const root = escapeSegment(index.tree.name.get(0));
+  if (spec === "." || (root !== "" && spec === root)) return "";
+  for (const lead of ["./", ...(root !== "" && root !== "." ? [`${root}/`] : [])]) {
+    if (spec.startsWith(lead) && spec.length > lead.length) return spec.slice(lead.length);
+  }
+  return undefined;
+}
+
+/**
  * Focus specs -> node indices (sorted, without repeats). Each spec is tried as an exact path, then as a
  * row id (where rows have ids; with a pseudonym key also as a printed pseudonymous id), then as a glob;
- * a leading `./` (as `find .` prints paths) is dropped when the spec as written matches nothing.
- * A spec that matches nothing is FOCUS_NO_MATCH with the nearest foci that exist ({@link suggestFoci}).
- * With a pseudonym key the message neither repeats the spec nor compares it with real names: it says
- * which focus failed, and suggests only printed pseudonyms near a typed pseudonym.
+ * then, written as a listing writes paths (see {@link pathAsListed}), as a path or glob again. A spec
+ * that matches nothing is an error that suggests the closest existing path.
  */
 export function resolveFoci(index: PathIndex, specs: readonly string[], pseudonymKey?: string): Int32Array {
+  const { tree } = index;
   const found = new Set<number>();
-  specs.forEach((spec, k) => {
-    const nodes = resolveOne(index, spec, pseudonymKey);
-    const bare =
-      nodes.length === 0 && spec.startsWith("./") ? resolveOne(index, spec.slice(2), pseudonymKey) : nodes;
-    if (bare.length === 0) throw noMatch(index, spec, k, specs.length, pseudonymKey);
-    for (const node of bare) found.add(node);
-  });
+  for (const [k, spec] of specs.entries()) {
+    const listed = pathAsListed(index, spec);
+    const matches =
+      matchSpec(index, spec, pseudonymKey, true) ??
+      (listed === undefined ? undefined : matchSpec(index, listed, pseudonymKey, false));
+    if (matches !== undefined) {
+      for (const m of matches) found.add(m);
+      continue;
+    }
+    throw noMatch(index, spec, listed ?? spec, k, specs.length, pseudonymKey);
+  }
   return Int32Array.from([...found].sort((a, b) => a - b));
 }
 
-/** The nodes one spec names (see {@link resolveFoci}); empty when none. */
-function resolveOne(index: PathIndex, spec: string, pseudonymKey: string | undefined): number[] {
+/** The nodes `spec` names as a path, (when `ids`) a row id, or a glob; undefined when none. */
+function matchSpec(
+  index: PathIndex,
+  spec: string,
+  pseudonymKey: string | undefined,
+  ids: boolean,
+): readonly number[] | undefined {
   const { tree, measures } = index;
   const exact = resolvePath(index, spec);
   if (exact >= 0) return [exact];
@@ -66,7 +90,7 @@ function resolveOne(index: PathIndex, spec: string, pseudonymKey: string | undef
     const viaPseudonyms = resolvePseudonymPath(index, spec, pseudonymKey);
     if (viaPseudonyms >= 0) return [viaPseudonyms];
   }
-  if (tree.ids) {
+  if (ids && tree.ids) {
     const byId = indexOfName(tree.ids, spec);
     if (byId >= 0) return [byId];
     // A printed pseudonymous id reads back with the same secret (one keyed hash per row).
@@ -77,26 +101,31 @@ function resolveOne(index: PathIndex, spec: string, pseudonymKey: string | undef
       }
     }
   }
-  return isGlob(spec) ? matchGlob(tree, measures, spec) : [];
+  if (isGlob(spec)) {
+    const matches = matchGlob(tree, measures, spec);
+    if (matches.length > 0) return matches;
+  }
+  return undefined;
 }
 
 /** FOCUS_NO_MATCH for the k-th of n specs, with suggestions when some are near. */
 function noMatch(
   index: PathIndex,
   spec: string,
+  compared: string,
   k: number,
   n: number,
   key: string | undefined,
 ): EspalierError {
   if (key === undefined) {
-    const near = suggestFoci(index, spec, realView(index));
+    const near = suggestFoci(index, compared, realView(index));
     return new EspalierError(
       "FOCUS_NO_MATCH",
       say`focus ${quoted.value(spec)} matches no node${didYouMean(near)}`,
     );
   }
   // Only a typed pseudonym is compared, with pseudonyms only: guessing real names learns nothing.
-  const near = spec.includes("anon-") ? suggestFoci(index, spec, pseudonymView(index, key)) : [];
+  const near = spec.includes("anon-") ? suggestFoci(index, compared, pseudonymView(index, key)) : [];
   return new EspalierError(
     "FOCUS_NO_MATCH",
     `focus ${k + 1} of ${n} matches no node (not repeated here: --pseudonymize is on)${didYouMean(near)}`,

@@ -23,11 +23,11 @@ describe("the project config file (.espalier.yaml, --config)", () => {
     expect(r.stdout).not.toContain("* x");
   });
 
-  it("is read from --config FILE, and ignored with --no-config", async () => {
+  it("is read from --config FILE, and ignored with --without-config", async () => {
     const files = { "ci/espalier.yaml": "format: json\nbudget: 2\n", ".espalier.yaml": "budget: 3\n" };
     const viaFlag = await cli(["-", "--config", "ci/espalier.yaml"], { stdin: STDIN, files });
     expect(JSON.parse(viaFlag.stdout).budget).toBe(2);
-    const none = await cli(["-", "--no-config"], { stdin: STDIN, files });
+    const none = await cli(["-", "--without-config"], { stdin: STDIN, files });
     expect(none.stdout.trimEnd().split("\n")).toHaveLength(7);
   });
 
@@ -43,8 +43,8 @@ describe("the project config file (.espalier.yaml, --config)", () => {
     expect(yaml.stderr).toMatch(/\.espalier\.yaml:\d+:\d+/);
   });
 
-  it("--print-config prints the effective configuration as a valid config file, without an input", async () => {
-    const r = await cli(["--print-config", "--budget", "9"], {
+  it("--options-in-effect prints the effective configuration as a valid config file, without an input", async () => {
+    const r = await cli(["--options-in-effect", "--budget", "9"], {
       files: { ".espalier.yaml": "parentField: manager\nlabel: '{title}'\n" },
     });
     expect(r.code, r.stderr).toBe(0);
@@ -54,7 +54,7 @@ describe("the project config file (.espalier.yaml, --config)", () => {
   });
 
   it("also configures espalier diff", async () => {
-    const files = { ".espalier.yaml": "exitCode: true\n" };
+    const files = { ".espalier.yaml": "failOnChange: true\n" };
     const same = await cli(["diff", "-", "fixtures/quillfeather-costs.yaml"], {
       stdin: "name: x\n",
       files,

@@ -35,9 +35,11 @@ beforeAll(() => {
 });
 
 describe("espalier diff OLD NEW", () => {
-  it("exits 1 with --exit-code when the versions differ, and prints the diff", async () => {
-    const r = await cli(["diff", at("old.paths"), at("new.paths"), "--exit-code"]);
-    expect(r.code).toBe(1);
+  // Statuses as POSIX defines them for cmp and diff (POSIX.1-2017, XCU cmp and diff, EXIT STATUS):
+  // 0 no differences, 1 differences found, >1 an error occurred.
+  it("exits 1 with --fail-on-change when the versions differ, and prints the diff", async () => {
+    const r = await cli(["diff", at("old.paths"), at("new.paths"), "--fail-on-change"]);
+    expect(r.code).toBe(1); // POSIX diff: 1 = differences were found
     expect(r.stderr).toBe("");
     expect(r.stdout.split("\n")[0]).toMatch(
       /^matched by path: 1 added, 0 removed, 0 moved, 0 renamed, 0 edited, 1 resized;/,
@@ -46,22 +48,29 @@ describe("espalier diff OLD NEW", () => {
     expect(r.stdout).toContain("[added +7 B] c");
   });
 
-  it("exits 0 with --exit-code when the versions are the same (diff(T, T) reports nothing)", async () => {
-    const r = await cli(["diff", at("old.paths"), at("old.paths"), "--exit-code"]);
-    expect(r.code).toBe(0);
+  it("exits 0 with --fail-on-change when the versions are the same (diff(T, T) reports nothing)", async () => {
+    const r = await cli(["diff", at("old.paths"), at("old.paths"), "--fail-on-change"]);
+    expect(r.code).toBe(0); // POSIX diff: 0 = no differences were found
     expect(r.stdout.split("\n")[0]).toMatch(
       /^matched by path: 0 added, 0 removed, 0 moved, 0 renamed, 0 edited, 0 resized;/,
     );
     expect(r.stdout).not.toContain("[");
   });
 
-  it("exits 0 without --exit-code even when the versions differ", async () => {
+  it("takes no other name for --fail-on-change: --exit-code is an unknown option (USAGE)", async () => {
+    const r = await cli(["diff", at("old.paths"), at("new.paths"), "--exit-code"]);
+    expect(r.code).toBe(2); // POSIX diff: >1 = an error occurred
+    expect(r.stderr).toMatch(/^espalier: .*\[USAGE\]\n$/);
+    expect(r.stdout).toBe("");
+  });
+
+  it("exits 0 without --fail-on-change even when the versions differ", async () => {
     const r = await cli(["diff", at("old.paths"), at("new.paths")]);
     expect(r.code).toBe(0);
   });
 
   it("exits 2 on an input error either way, with one line on stderr and nothing on stdout", async () => {
-    for (const extra of [[], ["--exit-code"]]) {
+    for (const extra of [[], ["--fail-on-change"]]) {
       const missing = await cli(["diff", at("old.paths"), at("nope.paths"), ...extra]);
       expect(missing.code).toBe(2);
       expect(missing.stdout).toBe("");
@@ -75,7 +84,7 @@ describe("espalier diff OLD NEW", () => {
   });
 
   it("exits 2 on usage errors: both versions on standard input, a missing operand, a bad budget", async () => {
-    const both = await cli(["diff", "-", "-", "--exit-code"], { stdin: "a\n" });
+    const both = await cli(["diff", "-", "-", "--fail-on-change"], { stdin: "a\n" });
     expect(both.code).toBe(2);
     expect(both.stderr).toContain("[USAGE]");
     expect((await cli(["diff", at("old.paths")])).code).toBe(2);
@@ -86,8 +95,8 @@ describe("espalier diff OLD NEW", () => {
 
   it("reads either version from standard input", async () => {
     const stdin = readFileSync(at("new.paths"), "utf8");
-    const asNew = await cli(["diff", at("old.paths"), "-", "--exit-code"], { stdin });
-    const asOld = await cli(["diff", "-", at("old.paths"), "--exit-code"], { stdin });
+    const asNew = await cli(["diff", at("old.paths"), "-", "--fail-on-change"], { stdin });
+    const asOld = await cli(["diff", "-", at("old.paths"), "--fail-on-change"], { stdin });
     expect(asNew.code).toBe(1);
     expect(asNew.stdout).toContain("1 added, 0 removed");
     expect(asOld.stdout).toContain("0 added, 1 removed");
@@ -143,8 +152,8 @@ describe("espalier diff OLD NEW", () => {
     expect(r.stdout).toContain("* [removed -7 B] c");
   });
 
-  it("--compare-field version: a version moved 3.0.1 -> 3.0.0 is a change, so --exit-code exits 1", async () => {
-    const args = ["diff", at("deps-before.json"), at("deps-after.json"), "--exit-code"];
+  it("--compare-field version: a version moved 3.0.1 -> 3.0.0 is a change, so --fail-on-change exits 1", async () => {
+    const args = ["diff", at("deps-before.json"), at("deps-after.json"), "--fail-on-change"];
     const without = await cli(args);
     expect(without.code).toBe(0);
     const r = await cli([...args, "--compare-field", "version"]);

@@ -286,6 +286,26 @@ describe("espalier explore", () => {
     expect(printed.stdout).toBe(`${screen.join("\n")}\n`);
   });
 
+  it("reports an input or focus error as the summary does, before taking the terminal, naming no real name under --pseudonymize", async () => {
+    const env = { ESPALIER_PSEUDONYM_KEY: "kept-out-of-the-log" };
+    const tree = loadTree(readFileSync(ORG, "utf8"), { ...defaultLoadOptions, parentField: "manager" });
+    const real = namesToArray(tree.name).filter((n) => n.length >= 3 && n !== "(root)");
+    for (const args of [
+      [ORG, "--parent-field", "manager", "--pseudonymize", "--focus", "Q9999"],
+      [ORG, "--parent-field", "manager", "--pseudonymize", "--focus", "anon-0/nobody"],
+      [ORG, "--pseudonymize"],
+    ]) {
+      // A terminal is there (standard output is one): the error comes from the input, not from its absence.
+      const explored = await cli(["explore", ...args], { tty: { rows: 24 }, env });
+      const printed = await cli(args, { env });
+      expect(explored.code).toBe(2);
+      expect(explored.stdout).toBe("");
+      expect(explored.stderr).not.toContain("USAGE");
+      expect(explored.stderr).toBe(printed.stderr);
+      expect(leakedNames(explored.stderr, real)).toEqual([]);
+    }
+  });
+
   it("with --pseudonymize, a failed write of a config file says only its error code", async () => {
     const dir = mkdtempSync(join(tmpdir(), "espalier-explore-"));
     const file = join(dir, "team.yaml");

@@ -100,7 +100,7 @@ describe("espalier FILE --levels … (fact tables)", () => {
     const text = readFileSync(fixture, "utf8");
     const next = join(dir, "next-month.csv");
     writeFileSync(next, `${text}qf-lab,sandbox,harrow-north,hours,2031-05-01,40\n`);
-    const r = await cli(["diff", fixture, next, ...LEVELS, "--exit-code", "--budget", "10"]);
+    const r = await cli(["diff", fixture, next, ...LEVELS, "--fail-on-change", "--budget", "10"]);
     expect(r.stderr).toBe("");
     expect(r.code).toBe(1);
     expect(r.stdout).toContain("qf-lab");

@@ -128,8 +128,8 @@ describe("espalier <input> --output FILE", () => {
     expect(r.code).toBe(2);
     expect(errorCode(r.stderr)).toBe("USAGE");
     expect(await readFile(config, "utf8")).toBe("budget: 9\n");
-    // With --no-config no config file is read, so the file is an ordinary target.
-    const free = await cli([input, "--no-config", "--output", config]);
+    // With --without-config no config file is read, so the file is an ordinary target.
+    const free = await cli([input, "--without-config", "--output", config]);
     expect(free.code, free.stderr).toBe(0);
     expect(await readFile(config, "utf8")).toContain("quill");
   });

@@ -56,6 +56,6 @@ describe("parseCommandLine(argv)", () => {
   });
 
   it("refuses a diff-only option on a summary rather than dropping it", () => {
-    expect(usageError(["in", "--exit-code"]).details.option).toBe("--exit-code");
+    expect(usageError(["in", "--fail-on-change"]).details.option).toBe("--fail-on-change");
   });
 });

@@ -168,7 +168,7 @@ describe("readInputStream (UTF-16 and the diff)", () => {
     expect(await run(["diff", before.le, after.be, "--budget", "9"], mixed.io), mixed.err()).toBe(0);
     expect(mixed.out()).toBe(whole.stdout);
     // The same content in another encoding is no change.
-    const same = await cli(["diff", before.utf8, before.be, "--exit-code"]);
+    const same = await cli(["diff", before.utf8, before.be, "--fail-on-change"]);
     expect(same.code, same.stdout).toBe(0);
   });
 

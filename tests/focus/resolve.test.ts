@@ -103,3 +103,40 @@ describe("resolveFoci(index, specs)", () => {
     );
   });
 });
+
+describe("resolveFoci(index, specs) with paths as a listing prints them", () => {
+  // POSIX find -print writes each pathname with the starting point in front: `find .` gives
+  // "./services/ledger", `find fixtures` gives "fixtures/external" (POSIX find, -print; from memory).
+  // The listing's starting point is the tree's root, whose own path is "".
+  const dot = makeTree(".{services{ledger{src},billing},docs}");
+  const named = makeTree("fixtures{external{emoji-test.txt},fixtures{x}}");
+
+  it("drops a leading ./ and reads the rest as a path or a glob", () => {
+    expect(names(dot, resolveFoci(indexOf(dot), ["./services/ledger"]))).toEqual(["ledger"]);
+    expect(names(dot, resolveFoci(indexOf(dot), ["./services/*"]))).toEqual(["ledger", "billing"]);
+    expect(names(dot, resolveFoci(indexOf(dot), ["."]))).toEqual(["."]);
+  });
+
+  it("drops the root's own name in front, and reads the name alone as the root", () => {
+    const index = indexOf(named);
+    expect(names(named, resolveFoci(index, ["fixtures/external/emoji-test.txt"]))).toEqual([
+      "emoji-test.txt",
+    ]);
+    const plain = makeTree("fixtures{external{emoji-test.txt}}");
+    expect(resolveFoci(indexOf(plain), ["fixtures"])).toEqual(Int32Array.of(0));
+  });
+
+  it("prefers a node really named so: fixtures/x is the child fixtures' x, ./ is tried only after", () => {
+    const index = indexOf(named);
+    const [hit] = resolveFoci(index, ["fixtures/x"]);
+    expect(named.name.get(named.parent[hit])).toBe("fixtures");
+    expect(named.parent[named.parent[hit]]).toBe(0);
+    expect(named.parent[resolveFoci(index, ["fixtures"])[0]]).toBe(0);
+  });
+
+  it("still fails on a listed path that names nothing, suggesting espalier's own spelling", () => {
+    const e = caught(() => resolveFoci(indexOf(dot), ["./services/ledgr"]));
+    expect(e.code).toBe("FOCUS_NO_MATCH");
+    expect(e.message).toContain('"services/ledger"');
+  });
+});

@@ -72,7 +72,7 @@ describe("espalier diff of npm ls --all --json twice, --compare-field version", 
     const dir = mkdtempSync(join(tmpdir(), "espalier-npm-ls-"));
     writeFileSync(join(dir, "before.json"), listing);
     writeFileSync(join(dir, "after.json"), JSON.stringify(after, null, 2));
-    const args = ["--compare-field", "version", "--exit-code", "--format", "json"];
+    const args = ["--compare-field", "version", "--fail-on-change", "--format", "json"];
     const same = await cli(["diff", join(dir, "before.json"), join(dir, "before.json"), ...args]);
     expect(same.code).toBe(0);
     expect(JSON.parse(same.stdout).changes.edited).toBe(0);

@@ -37,7 +37,7 @@ describe("npm pack && npm install -g (the installable package)", () => {
     });
     const bin = join(prefix, "bin", "espalier");
     const help = execFileSync(bin, ["--help"], { encoding: "utf8" });
-    expect(help).toMatch(/^Examples$/m); // the help screen's own heading (src/cli/commands.ts)
+    expect(help).toMatch(/^On the demo data /m); // the help screen's own heading (src/cli/help.ts)
     const summary = execFileSync(bin, ["-", "--focus", "a/x", "--budget", "3"], {
       input: "1\ta/x\n2\ta/y\n3\tb\n",
       encoding: "utf8",

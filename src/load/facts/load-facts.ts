@@ -5,6 +5,7 @@ import { EspalierError, quoted as input, quotedList, say } from "../../errors.js
 import type { Tree } from "../../model/tree.js";
 import { type Columns, type Engine, type EngineSettings, openEngine } from "./engine.js";
 import type { FactFormat, FactOptions } from "./fact-options.js";
+import { KEY_TABLES, KeyLevels, keysSql } from "./key-levels-sql.js";
 import { ROLLUP_TABLE, STATS_TABLE } from "./printed-sql.js";
 import { reachSql, statsSql } from "./pushdown-sql.js";
 import { identifier, keyDepthSql, rollupSql } from "./rollup-sql.js";
@@ -78,7 +79,22 @@ export async function openFactTable(load: FactLoad): Promise<FactSession> {
     }
     requireColumns(columns, load.facts);
     const hasSize = columns.includes(load.facts.sizeField);
-    const depth = load.facts.levels.length > 0 ? load.facts.levels.length : await keyDepth(engine, load);
+    const sized = (tree: Tree): Tree => (hasSize ? tree : { ...tree, hasSizes: false });
+    const fetch = async (sql: string) => sized(rollupTree(await run(engine, sql, load), treeOptions));
+    if (load.facts.levels.length === 0) {
+      const levels = await keyLevels(engine, load, hasSize);
+      if (levels !== undefined) {
+        const { level, keys } = KEY_TABLES;
+        return {
+          size: levels.size,
+          whole: () => fetch(levels.plan.resultSql(level, keys, false)),
+          near: (foci, reach) => fetch(levels.plan.resultSql(level, keys, true, { foci, reach })),
+          close: () => engine.close(),
+        };
+      }
+    }
+    // Level columns; or a key hierarchy with no key below the root: its total alone.
+    const depth = load.facts.levels.length;
     await run(
       engine,
       `CREATE TEMPORARY TABLE ${ROLLUP_TABLE} AS ${rollupSql(load.facts, depth, hasSize)}`,
@@ -86,12 +102,10 @@ export async function openFactTable(load: FactLoad): Promise<FactSession> {
       hasSize,
     );
     const size = Number((await run(engine, `SELECT COUNT(*) FROM ${ROLLUP_TABLE}`, load)).values[0][0]);
-    const sized = (tree: Tree): Tree => (hasSize ? tree : { ...tree, hasSizes: false });
     let stats = false;
     return {
       size,
-      whole: async () =>
-        sized(rollupTree(await run(engine, `SELECT * FROM ${ROLLUP_TABLE}`, load), treeOptions)),
+      whole: () => fetch(`SELECT * FROM ${ROLLUP_TABLE}`),
       near: async (foci, reach) => {
         if (!stats) {
           await run(
@@ -101,9 +115,7 @@ export async function openFactTable(load: FactLoad): Promise<FactSession> {
           );
           stats = true;
         }
-        return sized(
-          rollupTree(await run(engine, reachSql(STATS_TABLE, depth, foci, reach), load), treeOptions),
-        );
+        return fetch(reachSql(STATS_TABLE, depth, foci, reach));
       },
       close: () => engine.close(),
     };
@@ -111,6 +123,44 @@ export async function openFactTable(load: FactLoad): Promise<FactSession> {
     engine.close();
     throw err;
   }
+}
+
+/**
+ * A key hierarchy rolled up level by level in the engine (KeyLevels): the rows grouped by key once,
+ * then each depth's nodes from the one below, into the tables KEY_TABLES names. Undefined when the
+ * table has no key deeper than the root (no key, or only NULL keys): rollupSql's total is then the tree.
+ */
+async function keyLevels(
+  engine: Engine,
+  load: FactLoad,
+  hasSize: boolean,
+): Promise<{ plan: KeyLevels; size: number } | undefined> {
+  const { keys, level } = KEY_TABLES;
+  if (load.facts.keyDepth === 0) return undefined;
+  await run(
+    engine,
+    `CREATE TEMPORARY TABLE ${keys} AS ${keysSql(load.facts, hasSize, load.facts.keyDepth)}`,
+    load,
+    hasSize,
+  );
+  const deepest = (await run(engine, `SELECT MAX(d) FROM ${keys}`, load)).values[0][0];
+  if (deepest === null || deepest === undefined || Number(deepest) === 0) return undefined;
+  const plan = new KeyLevels(load.facts, Number(deepest), hasSize);
+  await run(
+    engine,
+    `CREATE TEMPORARY TABLE ${level(plan.depth)} AS ${plan.levelSql(plan.depth, "", keys)}`,
+    load,
+  );
+  for (let j = plan.depth - 1; j >= 1; j--)
+    await run(engine, `CREATE TEMPORARY TABLE ${level(j)} AS ${plan.levelSql(j, level(j + 1), keys)}`, load);
+  await run(engine, `CREATE TEMPORARY TABLE ${level(0)} AS ${plan.rootSql(level(1), keys)}`, load);
+  const counts = Array.from({ length: plan.depth + 1 }, (_, j) => `(SELECT COUNT(*) FROM ${level(j)})`);
+  const counted = await run(
+    engine,
+    `SELECT ${counts.join(" + ")} + (SELECT COUNT(*) FROM ${keys} WHERE d IS NULL OR d < ${plan.depth})`,
+    load,
+  );
+  return { plan, size: Number(counted.values[0][0]) };
 }
 
 /** The deepest key of a key hierarchy in `file`, as the engine finds it (for the printed query). */

@@ -51,7 +51,7 @@ export function rollupSql(options: FactOptions, depth: number, hasSize: boolean)
 
 /** The deepest key, as a query: the number of separators plus one, at most. */
 export function keyDepthSql(options: FactOptions): string {
-  return `SELECT MAX(${keyDepth(identifier(keyField(options)), options.separator)}) AS key_depth FROM ${identifier(options.table)}`;
+  return `SELECT MAX(${keyDepthExpression(identifier(keyField(options)), options.separator)}) AS key_depth FROM ${identifier(options.table)}`;
 }
 
 /** `SELECT l1, …, lD, s FROM table`: the level values of every row (and its size as s). */
@@ -68,7 +68,7 @@ function levelSelect(options: FactOptions, depth: number, hasSize: boolean): str
   const cols = range(depth).map((k) => `CASE WHEN d >= ${k} THEN SPLIT_PART(k, ${sep}, ${k}) END AS l${k}`);
   const inner = [
     `${identifier(keyField(options))} AS k`,
-    `${keyDepth(identifier(keyField(options)), options.separator)} AS d`,
+    `${keyDepthExpression(identifier(keyField(options)), options.separator)} AS d`,
     ...size,
   ];
   return (
@@ -78,13 +78,13 @@ function levelSelect(options: FactOptions, depth: number, hasSize: boolean): str
 }
 
 /** Number of key levels of `column`: separators counted by the length lost when they are removed. */
-function keyDepth(column: string, separator: string): string {
+export function keyDepthExpression(column: string, separator: string): string {
   const sep = literal(separator);
   const removed = `CHAR_LENGTH(${column}) - CHAR_LENGTH(REPLACE(${column}, ${sep}, ''))`;
   return separator.length === 1 ? `${removed} + 1` : `(${removed}) / ${separator.length} + 1`;
 }
 
-function keyField(options: FactOptions): string {
+export function keyField(options: FactOptions): string {
   if (options.keyField === undefined)
     throw new EspalierError("USAGE", "a fact table needs --levels COL,COL,… or --key-field COL");
   return options.keyField;

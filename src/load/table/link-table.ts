@@ -1,3 +1,4 @@
+import { didYouMean } from "../../did-you-mean.js";
 import { EspalierError, quoted, quotedList, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { copyName, isEmptyName, NamePool } from "../../model/names.js";
@@ -163,9 +164,12 @@ function keptColumns(table: Table, options: LoadOptions): Map<string, string[]> 
   for (const key of options.keepFields) {
     const cells = table.column(key);
     if (!cells) {
+      const near = didYouMean(key, table.columnNames());
       throw new EspalierError(
         "FIELD_MISSING",
-        say`no column "${key}" to keep; the columns are ${quotedList("name", table.columnNames())}`,
+        say`no column "${key}" to keep${near === undefined ? "" : say`; did you mean ${quoted.name(near)}?`} The columns are ${quotedList("name", table.columnNames())}`,
+        undefined,
+        near === undefined ? { field: key } : { field: key, suggestion: near },
       );
     }
     values.set(key, cells.map(cellText));

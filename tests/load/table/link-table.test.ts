@@ -90,6 +90,13 @@ describe("linkTable by id and parent", () => {
     expect(caught(() => csv(org, { keepFields: ["email"] })).code).toBe("FIELD_MISSING");
   });
 
+  it("loadTree(csv) names the nearest column for a misspelt kept one (a --label field), else none", () => {
+    const typo = caught(() => csv("id,parent,title\na,,x\n", { keepFields: ["ttile"] }));
+    expect([typo.code, typo.details]).toEqual(["FIELD_MISSING", { field: "ttile", suggestion: "title" }]);
+    const far = caught(() => csv("id,parent,title\na,,x\n", { keepFields: ["email"] }));
+    expect(far.details).toEqual({ field: "email" });
+  });
+
   it("loadTree(csv) uses the column names from the options", () => {
     const tree = csv("key,boss,label\n1,,top\n2,1,low\n", {
       idField: "key",

@@ -1,0 +1,179 @@
+import { ROLLUP_COLUMNS as C, type FactOptions } from "./fact-options.js";
+import { identifier, keyDepthExpression, keyField, literal } from "./rollup-sql.js";
+
+/** Names of the engine's working tables for a key hierarchy. */
+export const KEY_TABLES = {
+  keys: "espalier_keys",
+  level: (j: number): string => `espalier_level_${j}`,
+} as const;
+
+/**
+ * The rows of a key hierarchy grouped by their key: one row per distinct key with its depth `d` (NULL
+ * for a NULL key), rows `n`, size sum `t` and minimum `m`. With `cutAt`, a deeper key counts at its
+ * prefix of `cutAt` names (as in rollupSql with --key-depth); without, the deepest `d` is the depth.
+ */
+export function keysSql(options: FactOptions, hasSize: boolean, cutAt?: number): string {
+  const key = identifier(keyField(options));
+  const d = keyDepthExpression(key, options.separator);
+  const s = hasSize
+    ? `CAST(${identifier(options.sizeField)} AS DOUBLE PRECISION)`
+    : "CAST(NULL AS DOUBLE PRECISION)";
+  const table = identifier(options.table);
+  if (cutAt === undefined) {
+    // The depth is a function of the key: counted once per distinct key, not once per row.
+    return (
+      `SELECT k, ${keyDepthExpression("k", options.separator)} AS d, n, t, m\n` +
+      `FROM (SELECT ${key} AS k, COUNT(*) AS n, SUM(${s}) AS t, MIN(${s}) AS m FROM ${table} GROUP BY ${key}) AS keyed`
+    );
+  }
+  const cut = `CASE WHEN ${d} > ${cutAt} THEN ${prefixSql(key, cutAt, options.separator)} ELSE ${key} END`;
+  return (
+    "SELECT k, d, COUNT(*) AS n, SUM(s) AS t, MIN(s) AS m\n" +
+    `FROM (SELECT ${cut} AS k, CASE WHEN ${d} > ${cutAt} THEN ${cutAt} ELSE ${d} END AS d, ${s} AS s\n` +
+    `      FROM ${table}) AS keyed\n` +
+    "GROUP BY k, d"
+  );
+}
+
+/**
+ * The rollup of a key hierarchy, level by level, as the embedded engine runs it: the same result table
+ * as rollupSql's `GROUP BY ROLLUP` (one row per node, own rows of keys that end above the deepest level),
+ * at a fraction of the work. The rollup's grouping sets each group every row (one set per key depth),
+ * and so does anything joining its level columns; here only the first statement touches the rows:
+ *
+ * 1. keysSql: the rows grouped by their key (one row per distinct key, its depth, rows, size sum and
+ *    minimum);
+ * 2. `levelSql(D)` … `levelSql(1)`, `rootSql`: the nodes of one depth from the nodes one level deeper
+ *    (grouped by their parent's prefix) and the keys ending at that depth, with each node's subtree node
+ *    count and child count summed on the way up;
+ * 3. `resultSql`: those as the rollup's result table, optionally only the rows near the focus paths.
+ *
+ * A node is identified by its prefix: the key cut after its d-th name. Beyond SQL:1999 it uses the
+ * functions rollupSql does (SPLIT_PART, REPLACE). `depth` is the deepest level (at least 1); a deeper key
+ * counts at its prefix of `depth` names, as in rollupSql.
+ */
+export class KeyLevels {
+  private readonly sep: string;
+  private readonly sepLength: number;
+
+  constructor(
+    private readonly options: FactOptions,
+    /** The deepest level, at least 1. */
+    readonly depth: number,
+    private readonly hasSize: boolean,
+  ) {
+    this.sep = literal(options.separator);
+    this.sepLength = options.separator.length;
+  }
+
+  /**
+   * The nodes at depth `j` (p, their prefix; n, t, m; nc, nodes in the subtree; cc, children), from the
+   * nodes at depth j + 1 in `nodes` and the keys of depth j in `keys`.
+   */
+  levelSql(j: number, nodes: string, keys: string): string {
+    // The deepest nodes are keys, already distinct.
+    if (j === this.depth)
+      return `SELECT ${j} AS j, k AS p, n, t, m, 1 AS nc, 0 AS cc FROM ${identifier(keys)} WHERE d = ${j}`;
+    const fromKeys = `SELECT k AS p, n, t, m, 0 AS nc, 0 AS cc FROM ${identifier(keys)} WHERE d = ${j}`;
+    const parent = `SUBSTRING(p FROM 1 FOR CHAR_LENGTH(p) - CHAR_LENGTH(SPLIT_PART(p, ${this.sep}, ${j + 1})) - ${this.sepLength})`;
+    return (
+      `SELECT ${j} AS j, p, SUM(n) AS n, SUM(t) AS t, MIN(m) AS m, 1 + SUM(nc) AS nc, SUM(cc) AS cc\n` +
+      `FROM (SELECT ${parent} AS p, n, t, m, nc, 1 AS cc FROM ${identifier(nodes)} WHERE j = ${j + 1}\n` +
+      `      UNION ALL ${fromKeys}) AS below\n` +
+      "GROUP BY p"
+    );
+  }
+
+  /** The root (depth 0): every row, rows with a NULL key as its own. */
+  rootSql(nodes: string, keys: string): string {
+    return (
+      `SELECT 0 AS j, CAST(NULL AS VARCHAR) AS p, COALESCE(SUM(n), 0) AS n, SUM(t) AS t, MIN(m) AS m,\n` +
+      `       1 + COALESCE(SUM(nc), 0) AS nc, COALESCE(SUM(cc), 0) AS cc\n` +
+      `FROM (SELECT n, t, m, nc, 1 AS cc FROM ${identifier(nodes)} WHERE j = 1\n` +
+      `      UNION ALL SELECT n, t, m, 0, 0 FROM ${identifier(keys)} WHERE k IS NULL) AS below`
+    );
+  }
+
+  /**
+   * The rollup result table (see rollupSql) from the level tables (`level(j)` names depth j's, as
+   * levelSql and rootSql make them) and `keys`: node rows, and own rows (a key
+   * ending above the deepest level, or NULL: `prefix_depth` d + 1, `level_{d+1}` NULL). With `stats`,
+   * also `node_count` and `child_count` (NULL on own rows). With `near`, only the rows within
+   * `near.reach` levels of the focus paths, as reachSql chooses them.
+   */
+  resultSql(
+    level: (j: number) => string,
+    keys: string,
+    stats: boolean,
+    near?: { foci: readonly (readonly string[])[]; reach: number },
+  ): string {
+    const D = this.depth;
+    const ks = Array.from({ length: D }, (_, i) => i + 1);
+    const levels = (p: string, d: string) =>
+      ks.map((k) => `CASE WHEN ${d} >= ${k} THEN SPLIT_PART(${p}, ${this.sep}, ${k}) END AS ${C.level}${k}`);
+    const sizes = this.hasSize ? [`t AS ${C.size}`, `m AS ${C.sizeMin}`] : [];
+    const nodeCols = [
+      `j AS ${C.depth}`,
+      ...levels("p", "j"),
+      `n AS ${C.rows}`,
+      ...sizes,
+      ...(stats ? [`nc AS ${C.nodes}`, `cc AS ${C.children}`] : []),
+    ];
+    const ownCols = [
+      `COALESCE(d, 0) + 1 AS ${C.depth}`,
+      ...levels("k", "d"),
+      `n AS ${C.rows}`,
+      ...sizes,
+      ...(stats ? [`CAST(NULL AS BIGINT) AS ${C.nodes}`, `CAST(NULL AS BIGINT) AS ${C.children}`] : []),
+    ];
+    // Nothing deeper than the longest focus plus the reach is near: those levels are not read at all.
+    const within = near ? Math.max(0, ...near.foci.map((f) => this.shareable(f))) + near.reach : D;
+    const nodeNear = near ? `\nWHERE ${this.nearSql("p", "j", near)}` : "";
+    const ownNear = near ? ` AND (d IS NULL OR (d <= ${within} AND ${this.nearSql("k", "d", near)}))` : "";
+    const depths = Array.from({ length: Math.min(D, within) + 1 }, (_, j) => j);
+    const nodeRows = depths.map(
+      (j) => `SELECT ${nodeCols.join(", ")}\nFROM ${identifier(level(j))}${nodeNear}`,
+    );
+    const ownRows = `SELECT ${ownCols.join(", ")}\nFROM ${identifier(keys)}\nWHERE (d IS NULL OR d < ${D})${ownNear}`;
+    return [...nodeRows, ownRows].join("\nUNION ALL\n");
+  }
+
+  /**
+   * Whether the node with prefix `p` at depth `d` is within `reach` levels of a focus: d minus the
+   * names it shares with the focus (as reachSql counts them; the root's prefix is NULL, depth 0).
+   */
+  private nearSql(
+    p: string,
+    d: string,
+    near: { foci: readonly (readonly string[])[]; reach: number },
+  ): string {
+    const foci = near.foci.length === 0 ? [[]] : near.foci;
+    const conditions = foci.map((focus) => {
+      const m = this.shareable(focus);
+      if (m === 0) return `${d} <= ${near.reach}`;
+      const steps: string[] = [];
+      for (let i = m; i >= 1; i--) {
+        const prefix = focus.slice(0, i).join(this.options.separator);
+        const under = literal(`${prefix}${this.options.separator}`);
+        steps.push(
+          `WHEN ${p} = ${literal(prefix)} OR SUBSTRING(${p} FROM 1 FOR CHAR_LENGTH(${under})) = ${under} THEN ${i}`,
+        );
+      }
+      return `${d} - (CASE ${steps.join(" ")} ELSE 0 END) <= ${near.reach}`;
+    });
+    return `(${conditions.join(" OR ")})`;
+  }
+
+  /** How many leading names of `focus` a node can share: a name holding the separator is no key's name. */
+  private shareable(focus: readonly string[]): number {
+    const cut = focus.findIndex((name) => name.includes(this.options.separator));
+    return Math.min(focus.length, this.depth, cut >= 0 ? cut : focus.length);
+  }
+}
+
+/** The first `n` names of `key` (n >= 1): the key cut before its n-th separator. */
+function prefixSql(key: string, n: number, separator: string): string {
+  const sep = literal(separator);
+  const lengths = Array.from({ length: n }, (_, i) => `CHAR_LENGTH(SPLIT_PART(${key}, ${sep}, ${i + 1}))`);
+  return `SUBSTRING(${key} FROM 1 FOR ${lengths.join(" + ")} + ${(n - 1) * separator.length})`;
+}
