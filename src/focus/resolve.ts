@@ -60,7 +60,6 @@ export function pathAsListed(index: PathIndex, spec: string): string | undefined
  * that matches nothing is an error that suggests the closest existing path.
  */
 export function resolveFoci(index: PathIndex, specs: readonly string[], pseudonymKey?: string): Int32Array {
-  const { tree } = index;
   const found = new Set<number>();
   for (const [k, spec] of specs.entries()) {
     const listed = pathAsListed(index, spec);
