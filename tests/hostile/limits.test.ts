@@ -226,7 +226,7 @@ describe("readBounded(path, bound) and readStreamBounded(chunks, name, bound)", 
 describe("espalier with devices and endless inputs, through bin/espalier.js", () => {
   it("/dev/zero as the input, every line format, with and without --max-nodes: LIMIT_EXCEEDED naming it", async () => {
     for (const args of [[], ["--input-format", "tsv", "--max-nodes", "5"], ["--input-format", "yaml"]]) {
-      const r = await runBin(["/dev/zero", "--no-config", ...args]);
+      const r = await runBin(["/dev/zero", "--without-config", ...args]);
       const line = oneErrorLine({ code: r.code ?? -1, stdout: r.stdout, stderr: r.stderr });
       expect(line.code, args.join(" ")).toBe("LIMIT_EXCEEDED");
       expect(line.file).toBe("/dev/zero");
@@ -250,7 +250,7 @@ describe("espalier with devices and endless inputs, through bin/espalier.js", ()
   it("--focus-from a device: IO; a config past its limit: LIMIT_EXCEEDED", async () => {
     const dir = await mkdtemp(join(tmpdir(), "espalier-limits-"));
     await writeFile(join(dir, "t.paths"), "quill/a\n");
-    const r = await runBin(["t.paths", "--no-config", "--focus-from", "/dev/zero"], { cwd: dir });
+    const r = await runBin(["t.paths", "--without-config", "--focus-from", "/dev/zero"], { cwd: dir });
     expect(oneErrorLine({ code: r.code ?? -1, stdout: r.stdout, stderr: r.stderr }).code).toBe("IO");
     await writeFile(join(dir, "big.yaml"), `# ${"x".repeat(readLimits.maxConfigBytes)}\nbudget: 5\n`);
     const c = await cli([join(dir, "t.paths"), "--config", join(dir, "big.yaml")]);
