@@ -4,6 +4,7 @@
 // Usage: npm run bench -- [--nodes N[,N...]] [--only json,csv,paths,inventory,diff] [--repeat N] [--budget N]
 //                         [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--no-memory] [--no-diff]
 //                         [--rss-from auto|time|proc] [--force-data] [--big [--big-nodes N]]
+//                         [--no-graph] [--graph-nodes N] [--only graph]
 //        npm run bench -- --facts [...]   fact tables rolled up by the SQL engine (see bench/facts.js)
 // See docs/performance.md for what every number means.
 
@@ -16,6 +17,7 @@ import { dirname, join, relative } from "node:path";
 import { fileURLToPath } from "node:url";
 import { DIFF_FORMATS, ensureDiffData } from "./diff-data.js";
 import { dataDir, ensureData, FORMATS } from "./generate.js";
+import { benchGraph, graphLines } from "./graph-bench.js";
 import { ensureInventory } from "./inventory.js";
 import { topFunctions } from "./prof-top.js";
 
@@ -86,6 +88,7 @@ const results = {
   startup: null,
   diff: null,
   big: null,
+  graph: null,
 };
 log(
   `baseline: an empty Node process peaks at ${results.baseline.maxRssMiB} MiB; default heap limit ` +
@@ -93,7 +96,7 @@ log(
 );
 
 let firstManifest;
-for (const nodes of options.diffOnly || options.big ? [] : options.sizes) {
+for (const nodes of options.diffOnly || options.big || options.graphOnly ? [] : options.sizes) {
   const treeFormats = options.only.filter((f) => FORMATS.includes(f));
   const manifest = ensureData({ nodes, formats: treeFormats, force: options.forceData, log });
   firstManifest ??= manifest;
@@ -118,13 +121,17 @@ for (const nodes of options.diffOnly || options.big ? [] : options.sizes) {
 }
 results.scale = scaleFigures(results.sizes);
 
-if (!options.diffOnly && !options.big) {
+if (!options.diffOnly && !options.big && !options.graphOnly) {
   const m = firstManifest;
   results.refocus = Object.fromEntries(options.only.map((format) => [format, benchRefocus(format, m)]));
   results.startup = benchStartup();
 }
 if (options.big) results.big = benchBig();
-else results.diff = await benchDiff();
+else if (!options.graphOnly) results.diff = await benchDiff();
+if (!options.big && !options.diffOnly)
+  results.graph = options.graph
+    ? benchGraph({ nodes: options.graphNodes, repeat: options.repeat, log })
+    : { skipped: true, reason: "--no-graph" };
 results.loadAfter = loadavg()[0];
 
 mkdirSync(outDir, { recursive: true });
@@ -706,6 +713,7 @@ function report(r) {
       `warning: the machine was busy (1-min load up to ${busy.toFixed(1)} on ${r.cpus} CPUs); times are noisy`,
     );
   if (r.big) lines.push(...bigLines(r.big));
+  lines.push(...graphLines(r.graph));
   for (const [nodes, size] of Object.entries(r.sizes)) {
     lines.push("");
     lines.push(`${Number(nodes).toLocaleString("en-US")} nodes:`);
@@ -1024,6 +1032,9 @@ function parseArgs(argv) {
     forceData: false,
     big: false,
     bigNodes: 30_000_000,
+    graph: true,
+    graphOnly: false,
+    graphNodes: 1_000_000,
   };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
@@ -1047,10 +1058,12 @@ function parseArgs(argv) {
     } else if (a === "--only") {
       const list = value().split(",");
       for (const f of list)
-        if (!FORMATS.includes(f) && f !== "diff" && f !== "inventory")
-          usage(`--only: unknown format ${f} (${FORMATS.join(",")},inventory,diff)`);
+        if (!FORMATS.includes(f) && f !== "diff" && f !== "inventory" && f !== "graph")
+          usage(`--only: unknown format ${f} (${FORMATS.join(",")},inventory,diff,graph)`);
       // "diff" in the list: only the diff benchmark, for the listed formats it covers (all when none).
       o.diffOnly = list.includes("diff");
+      o.graphOnly = list.length === 1 && list[0] === "graph";
+      if (o.graphOnly) continue;
       o.only = list.filter((f) => f !== "diff");
       if (o.diffOnly && o.only.length === 0) o.only = [...DIFF_FORMATS];
       if (o.diffOnly && !o.only.some((f) => DIFF_FORMATS.includes(f)))
@@ -1061,6 +1074,8 @@ function parseArgs(argv) {
     else if (a === "--heap") o.heap = count();
     else if (a === "--cpu-prof") o.cpuProf = true;
     else if (a === "--no-cli") o.cli = false;
+    else if (a === "--no-graph") o.graph = false;
+    else if (a === "--graph-nodes") o.graphNodes = count();
     else if (a === "--no-memory") o.memory = false;
     else if (a === "--rss-from") {
       o.rssFrom = value();
@@ -1080,7 +1095,7 @@ function parseArgs(argv) {
 function usage(message) {
   log(`bench: ${message}`);
   log(
-    "usage: npm run bench -- [--nodes N[,N...]] [--only json,csv,paths,inventory,diff] [--repeat N] [--budget N] [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--no-memory] [--no-diff] [--rss-from auto|time|proc] [--force-data] [--big [--big-nodes N]]",
+    "usage: npm run bench -- [--nodes N[,N...]] [--only json,csv,paths,inventory,diff] [--repeat N] [--budget N] [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--no-memory] [--no-diff] [--rss-from auto|time|proc] [--force-data] [--big [--big-nodes N]] [--no-graph] [--graph-nodes N] [--only graph]",
   );
   process.exit(2);
 }

@@ -1307,6 +1307,52 @@ function makeCostExport() {
 }
 
 // ---------------------------------------------------------------------------------------------------------
+// f. fixtures/tidewater-deps.edges and tidewater-packages.csv: the graph that the dependency tree unfolds.
+// Each package (by name) once, with the packages it requires in order; the tree above repeats a shared
+// package under every package that requires it. The records give each package's version and size.
+
+function depsGraph() {
+  const tree = JSON.parse(makeDeps().text);
+  const kids = new Map();
+  const info = new Map();
+  const visit = (node, name) => {
+    if (!info.has(name)) info.set(name, { version: node.version, size: node.size });
+    if (!kids.has(name)) kids.set(name, []);
+    const list = kids.get(name);
+    const children = node.children ?? [];
+    const pairs = Array.isArray(children)
+      ? children.map((c) => [c.name, c])
+      : Object.entries(children).map(([k, c]) => [k, c]);
+    for (const [childName, child] of pairs) {
+      if (!list.includes(childName)) list.push(childName);
+      visit(child, childName);
+    }
+  };
+  visit(tree, tree.name);
+  return { kids, info };
+}
+
+function makeDepsEdges() {
+  const { kids } = depsGraph();
+  let edges = 0;
+  let text = "";
+  for (const [name, list] of kids) {
+    for (const child of list) {
+      text += `${name} ${child}\n`;
+      edges++;
+    }
+  }
+  return { text, summary: [`${kids.size} packages, ${edges} edges`] };
+}
+
+function makePackages() {
+  const { info } = depsGraph();
+  let text = "id,version,size\n";
+  for (const [name, { version, size }] of info) text += `${name},${version},${size}\n`;
+  return { text, summary: [`${info.size} packages`] };
+}
+
+// ---------------------------------------------------------------------------------------------------------
 
 const jobs = [
   ["quillfeather-org.csv", makeOrg],
@@ -1314,6 +1360,8 @@ const jobs = [
   ["tidewater-deps.json", makeDeps],
   ["quillfeather-costs.yaml", makeCosts],
   ["quillfeather-cost-export.csv", makeCostExport],
+  ["tidewater-deps.edges", makeDepsEdges],
+  ["tidewater-packages.csv", makePackages],
 ];
 for (const [name, makeOne] of jobs) {
   const { text, summary } = makeOne();

@@ -1,6 +1,7 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { type Selection, select } from "./fit/select.js";
 import { resolveFoci } from "./focus/resolve.js";
+import { graphInterest } from "./interest/graph-doi.js";
 import { type Importance, importance } from "./interest/importance.js";
 import { interestNear } from "./interest/near.js";
 import { childrenByDepthOrder, nodeOrder } from "./interest/order.js";
@@ -8,6 +9,7 @@ import type { Scores } from "./interest/scores.js";
 import { type Measures, measure } from "./model/measure.js";
 import { NAME_TABLE_MIN, PathIndex } from "./model/path-index.js";
 import { hiddenIds, pseudonym } from "./model/pseudonym.js";
+import { type ReferenceIndex, referenceIndex } from "./model/reference-index.js";
 import { escapeSegment } from "./model/segment.js";
 import type { Tree } from "./model/tree.js";
 import { buildView } from "./view/build-view.js";
@@ -19,11 +21,18 @@ export interface Prepared {
   readonly tree: Tree;
   readonly measures: Measures;
   readonly index: PathIndex;
+  /** Graphs only: the references that stand for each node; null on a tree. */
+  readonly references: ReferenceIndex | null;
 }
 
 export function prepare(tree: Tree): Prepared {
   const measures = measure(tree);
-  const prepared = { tree, measures, index: new PathIndex(tree, measures) };
+  const prepared = {
+    tree,
+    measures,
+    index: new PathIndex(tree, measures),
+    references: referenceIndex(tree),
+  };
   // Warm the per-tree caches here, at load time, so that even the first focus costs only
   // interest + fit + view (a single summary computes them anyway).
   cachedImportance(prepared, "depth");
@@ -61,9 +70,13 @@ export interface SummaryResult {
 export function summarize(prepared: Prepared, options: SummarizeOptions): SummaryResult {
   const { tree, measures, index } = prepared;
   const key = options.pseudonymKey;
-  const foci = resolveFoci(index, options.foci, key);
+  const foci = fullEntries(tree, resolveFoci(index, options.foci, key));
   const api = cachedImportance(prepared, options.importance);
-  const scores = interestNear(tree, api, foci);
+  const refs = prepared.references;
+  // A graph scores by graph distance over the whole graph; a tree (no reference) near its foci, as before.
+  const scores: Scores = refs
+    ? graphInterest(tree, measures, api, foci, refs)
+    : interestNear(tree, api, foci);
   const selection = select(
     tree,
     measures,
@@ -72,7 +85,8 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
     options.budget,
     options.headerLines ?? 0,
     options.chains ?? false,
-    options.importance === "depth" ? wideChildren(prepared) : undefined,
+    // Siblings of a graph need not share an interest (one may be nearer a focus through a reference).
+    options.importance === "depth" && refs === null ? wideChildren(prepared) : undefined,
   );
   const nameOf =
     key === undefined
@@ -84,8 +98,45 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
       : (i: number) => index.path(i, (j) => escapeSegment(nameOf(j)));
   const idOf = hiddenIds(tree, key);
   const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf, (i) => idOf(i) ?? "");
-  const view = buildView(index, scores, foci, selection, label, nameOf, pathOf, idOf);
+  const view = buildView(
+    index,
+    scores,
+    foci,
+    selection,
+    label,
+    nameOf,
+    pathOf,
+    idOf,
+    parentsOf(prepared, selection),
+  );
   return { view, selection, scores, foci, fociPaths: [...foci].map(pathOf) };
+}
+
+/**
+ * Graphs: for a focus with several parents (its full entry's parent and the parents of the references
+ * that stand for it), how many it has and how many of them are not shown.
+ */
+function parentsOf(prepared: Prepared, selection: Selection) {
+  const refs = prepared.references;
+  if (refs === null) return undefined;
+  const { tree } = prepared;
+  return (i: number) => {
+    const p = tree.parent[i];
+    const own = p >= 0 && !(p === 0 && tree.syntheticRoot) ? 1 : 0;
+    let hidden = 0;
+    for (let k = refs.start[i]; k < refs.start[i + 1]; k++) if (selection.shown[refs.refs[k]] === 0) hidden++;
+    const count = own + refs.start[i + 1] - refs.start[i];
+    return count >= 2 ? { count, hidden } : undefined;
+  };
+}
+
+/** Foci with each reference (graphs) replaced by its node's full entry, sorted, without repeats. */
+function fullEntries(tree: Tree, foci: Int32Array): Int32Array {
+  const ref = tree.referenceTo;
+  if (ref === undefined) return foci;
+  const set = new Set<number>();
+  for (const f of foci) set.add(ref[f] === -1 ? f : ref[f]);
+  return Int32Array.from([...set].sort((a, b) => a - b));
 }
 
 // Per loaded tree, what does not depend on the foci: the a-priori importance of each kind. A new focus

@@ -33,8 +33,19 @@ export function parseConfigWithPositions(
       }
     }
   }
-  const raw = doc.toJS({ maxAliasCount: 50 }) ?? {};
-  if (typeof raw !== "object" || Array.isArray(raw))
+  let raw: object | null;
+  try {
+    raw = (doc.toJS({ maxAliasCount: 50 }) as object | null) ?? {};
+  } catch (err) {
+    // The YAML library refuses a document whose aliases expand too far (an alias bomb).
+    if (!(err instanceof ReferenceError)) throw err;
+    throw new EspalierError(
+      "LIMIT_EXCEEDED",
+      "the config uses its aliases (*name) more than 50 times; write the values out",
+      { file },
+    );
+  }
+  if (typeof raw !== "object" || raw === null || Array.isArray(raw))
     throw new EspalierError("USAGE", "the config must be a mapping of option names to values", { file });
   const parsed = configSchema.safeParse(raw);
   if (!parsed.success) {

@@ -75,7 +75,8 @@ export const PUSHDOWN_FROM = 1_000_000;
  * `--pushdown always`) is fetched only near the focus paths: the nodes within `reach` levels of them,
  * each other node counted in its nearest fetched ancestor. The summary is exact when no shown node has
  * unfetched children, since then the fit meets exactly the nodes it meets on the whole tree, with the
- * same counts, sizes and order; otherwise the reach grows by one and the summary is made again. A
+ * same counts, sizes and order; otherwise the children of the shown nodes that lack them are fetched
+ * (a key hierarchy) or the reach grows by one (level columns), and the summary is made again. A
  * rolled-up input that is too shallow for the summary is SHAPE, with the reach to ask for.
  */
 export async function summarizeFactInput(
@@ -111,15 +112,36 @@ export async function summarizeFactSession(
     if (rolledUp) exactOrShallow(tree, result);
     return { tree, result };
   }
-  for (let reach = 2; ; reach++) {
-    const tree = await session.near(foci, reach);
+  let tree = await session.near(foci, 2);
+  for (let reach = 2; ; ) {
     const result = summarize(prepare(tree), options);
     if (rolledUp) {
       exactOrShallow(tree, result);
       return { tree, result };
     }
-    if (reachesFar(tree, result) || !tree.elided?.some((e) => e > 0)) return { tree, result };
+    const cut = cutShown(tree, result);
+    if (cut.length === 0) return { tree, result };
+    // Fetch the missing families themselves where the engine can; else everything one level further.
+    const before = tree.length;
+    tree = session.widen
+      ? await session.widen(cut.map((i) => pathOf(tree, i)))
+      : await session.near(foci, ++reach);
+    if (tree.length <= before) throw new Error("fact table pushdown: a fetch added no nodes");
   }
+}
+
+/** Shown nodes with descendants that were not fetched. */
+function cutShown(tree: Tree, result: SummaryResult): number[] {
+  const { elided } = tree;
+  if (!elided) return [];
+  return [...result.selection.admitted].filter((i) => elided[i] > 0);
+}
+
+/** Names from the root's child down to node `i`. */
+function pathOf(tree: Tree, i: number): string[] {
+  const names: string[] = [];
+  for (let x = i; x > 0; x = tree.parent[x]) names.push(tree.name.get(x));
+  return names.reverse();
 }
 
 /** Whether no shown node has descendants that were not fetched. */

@@ -5,6 +5,7 @@ import type { Tree } from "../model/tree.js";
 import { templateFields } from "../view/label.js";
 import { isFactInput, loadFactInput } from "./fact-input.js";
 import type { CliIO } from "./io.js";
+import { readNodeRecords } from "./node-records.js";
 import { PSEUDONYM_KEY_ENV, type SharedCliOptions } from "./options.js";
 import { withProgress } from "./progress.js";
 import { FOCI_BOUND, readInput } from "./read-input.js";
@@ -26,7 +27,10 @@ export async function loadInput(
 ): Promise<Tree> {
   try {
     if (isFactInput(opts)) return await loadFactInput(input, opts, rootName);
-    return await streamTree(io, input, { ...toLoadOptions(input, opts), rootName });
+    const options: LoadOptions = { ...toLoadOptions(input, opts), rootName };
+    // A graph's node records (--nodes) come from a file of their own; its errors name that file.
+    if (opts.nodes !== undefined) options.nodeRecords = await readNodeRecords(io, opts.nodes, options);
+    return await streamTree(io, input, options);
   } catch (err) {
     throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
   }
@@ -45,6 +49,13 @@ export async function loadVersions(
 ): Promise<[Tree, Tree]> {
   if (oldInput === "-" && newInput === "-")
     throw new EspalierError("USAGE", "only one of the two versions can come from standard input");
+  if (opts.nodes !== undefined)
+    throw new EspalierError(
+      "USAGE",
+      "comparing two versions does not read --nodes yet: compare graphs without node records",
+      undefined,
+      { option: "--nodes" },
+    );
   const rootName = rootNameOf(newInput);
   if (!io.loadInWorker || oldInput === "-" || isFactInput(opts)) {
     // A fact table's engine uses every core itself: one after the other.
@@ -123,6 +134,8 @@ export function toLoadOptions(
     idField: opts.idField,
     parentField: opts.parentField,
     pathField: opts.pathField,
+    childField: opts.childField,
+    graph: opts.graph,
     keepFields: [
       ...new Set([...(opts.label ? templateFields(opts.label) : []), ...(opts.compareField ?? [])]),
     ],

@@ -223,6 +223,29 @@ export const sharedOptions = {
     group: "Input",
     schema: z.string().min(1).default("path").describe("column holding a row's full path"),
   },
+  childField: {
+    flags: "--child-field <column>",
+    group: "Input",
+    schema: z.string().min(1).default("child").describe("column holding an edge's child id (edge tables)"),
+  },
+  graph: {
+    flags: "--graph",
+    group: "Input",
+    schema: z
+      .boolean()
+      .default(false)
+      .describe("read the input as a graph: ids may repeat with other parents; a JSON/YAML object maps ids"),
+  },
+  nodes: {
+    flags: "--nodes <file>",
+    group: "Input",
+    config: false,
+    schema: z
+      .string()
+      .min(1)
+      .optional()
+      .describe("node records of a graph by id (names, sizes, fields) from this CSV/TSV/JSON table"),
+  },
   maxNodes: {
     flags: "--max-nodes <count>",
     group: "Input",

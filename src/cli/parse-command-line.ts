@@ -105,7 +105,7 @@ export function parseCommandLine(argv: readonly string[]): CommandLine {
       // A value may begin with "-" (a negative number, "-" for standard input), not with "--".
       if (next === undefined || next.startsWith("--")) {
         throw usage(
-          `${name} needs a value (<${flags.valueName}>)${next === undefined ? "" : `; to give one that begins with "--", write ${flags.long}=${next}`}`,
+          `${name} needs a value (${flags.valueName?.toUpperCase()})${next === undefined ? "" : `; to give one that begins with "--", write ${flags.long}=${next}`}`,
           { option: flags.long },
         );
       }

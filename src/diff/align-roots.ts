@@ -41,5 +41,14 @@ export function underRoot(tree: Tree, rootName: string): Tree {
     originIsRow: tree.originIsRow,
     fields,
     syntheticRoot: true,
+    ...(tree.referenceTo ? { referenceTo: shifted(tree.referenceTo) } : {}),
   };
+}
+
+/** A graph's references one slot down, under the new root (which is no reference). */
+function shifted(referenceTo: Int32Array): Int32Array {
+  const out = new Int32Array(referenceTo.length + 1);
+  out[0] = -1;
+  for (let i = 0; i < referenceTo.length; i++) out[i + 1] = referenceTo[i] === -1 ? -1 : referenceTo[i] + 1;
+  return out;
 }

@@ -1,9 +1,24 @@
 /**
+/**
  * The kinds of change a node can have, in precedence order: a node has exactly one kind, or none.
- * `edited`: a field named by `--compare-field` holds another value (see diff/field-edits.ts).
+ * `edited`: a field named by `--compare-field` holds another value (see diff/field-edits.ts). The last
+ * two are edges of graphs (see diff/graph-changes.ts): `linked`, a node gained a parent (an edge added
+ * to a node that was there); `unlinked`, a node lost one (an edge removed from a node that stays).
  */
-export const changeKinds = ["added", "removed", "moved", "renamed", "edited", "resized"] as const;
+export const changeKinds = [
+  "added",
+  "removed",
+  "moved",
+  "renamed",
+  "edited",
+  "resized",
+  "linked",
+  "unlinked",
+] as const;
 export type ChangeKind = (typeof changeKinds)[number];
+
+/** The kinds a diff of two trees can have: every kind but the edges of graphs. */
+export const treeChangeKinds = changeKinds.slice(0, 6);
 
 /**
  * Kind codes stored per node in a `Uint8Array`: 0 for an unchanged node, else 1 + the kind's position
@@ -11,7 +26,17 @@ export type ChangeKind = (typeof changeKinds)[number];
  * under the first of its kinds in that list; its own size change and its field edits are still
  * reported beside it.
  */
-export const KIND = { none: 0, added: 1, removed: 2, moved: 3, renamed: 4, edited: 5, resized: 6 } as const;
+export const KIND = {
+  none: 0,
+  added: 1,
+  removed: 2,
+  moved: 3,
+  renamed: 4,
+  edited: 5,
+  resized: 6,
+  linked: 7,
+  unlinked: 8,
+} as const;
 
 /** Numbers of changed nodes per kind. */
 export type ChangeCounts = Record<ChangeKind, number>;
@@ -30,5 +55,5 @@ export function totalChanges(c: ChangeCounts): number {
 
 /** Counts of zero for every kind. */
 export function noChanges(): ChangeCounts {
-  return { added: 0, removed: 0, moved: 0, renamed: 0, edited: 0, resized: 0 };
+  return { added: 0, removed: 0, moved: 0, renamed: 0, edited: 0, resized: 0, linked: 0, unlinked: 0 };
 }

@@ -15,6 +15,7 @@ import { type DiffInterest, diffInterest } from "./diff-interest.js";
 import { diffOrder } from "./diff-order.js";
 import { buildDiffView, type DiffViewNode } from "./diff-view.js";
 import { comparedFields } from "./field-edits.js";
+import { alignGraphRoots, distinctNodes, graphCombined, isGraphDiff, matchGraphs } from "./graph-changes.js";
 import { matchTrees } from "./match.js";
 import { type ChangeMeasures, changesIn, measureChanges, netIn } from "./measure-changes.js";
 import { subtreeCounts } from "./subtree-counts.js";
@@ -43,6 +44,8 @@ export interface DiffTotals {
   new: { nodes: number; size: number };
   /** Net size change: new size minus old size. */
   delta: number;
+  /** Whether the versions were compared as graphs (edges linked and unlinked are kinds of change). */
+  graph: boolean;
 }
 
 export interface DiffResult {
@@ -81,15 +84,34 @@ export interface CompareOptions {
 
 /** match → combine → measure: what a diff's summaries share, whatever their foci. */
 export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOptions = {}): PreparedDiff {
-  const [oldTree, newTree] = alignRoots(oldInput, newInput);
+  const graph = isGraphDiff(oldInput, newInput);
+  const [oldTree, newTree] = graph ? alignGraphRoots(oldInput, newInput) : alignRoots(oldInput, newInput);
   const fields = compare.compareFields ?? [];
   const compared = fields.length > 0 ? comparedFields(oldTree, newTree, fields) : null;
   // Only subtree counts of the two versions are needed; the whole-tree arrays are kept few, because
   // every large allocation brings the next full garbage collection of both loaded versions nearer.
   const oldCount = subtreeCounts(oldTree);
   const newCount = subtreeCounts(newTree);
-  const matching = matchTrees(oldTree, oldCount, newTree, newCount);
-  const combined = combine(oldTree, oldCount, newTree, newCount, matching, compared);
+  let combined: Combined;
+  if (graph) {
+    // Graphs: full entries matched by id, references by their edges; kinds of change by edges.
+    const { matching, oldEdges, newEdges } = matchGraphs(oldTree, oldCount, newTree, newCount);
+    combined = graphCombined(
+      combine(oldTree, oldCount, newTree, newCount, matching, compared),
+      matching,
+      oldEdges,
+      newEdges,
+    );
+  } else {
+    combined = combine(
+      oldTree,
+      oldCount,
+      newTree,
+      newCount,
+      matchTrees(oldTree, oldCount, newTree, newCount),
+      compared,
+    );
+  }
   const { tree } = combined;
   const measures = measure(tree);
   const changeMeasures = measureChanges(tree, combined.kind, combined.delta);
@@ -97,9 +119,10 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
   for (let o = 0; o < oldTree.length; o++) oldSize += oldTree.ownSize[o];
   const totals: DiffTotals = {
     changes: changesIn(changeMeasures, 0),
-    old: { nodes: oldTree.length, size: oldSize },
-    new: { nodes: newTree.length, size: measures.size[0] },
+    old: { nodes: distinctNodes(oldTree), size: oldSize },
+    new: { nodes: distinctNodes(newTree), size: measures.size[0] },
     delta: netIn(changeMeasures, 0),
+    graph,
   };
   return { combined, measures, changeMeasures, index: new PathIndex(tree, measures), oldTree, totals };
 }

@@ -27,7 +27,7 @@ export interface DiffViewNode extends Omit<ViewNode, "children" | "hidden"> {
   net: number;
   /** Changed nodes in the subtree, this node included, per kind. */
   changes: ChangeCounts;
-  /** A moved node's old parent, as a path in the old version. */
+  /** A moved node's old parent (graphs: the parent an unlinked full entry lost), a path in the old version. */
   movedFrom: string | null;
   /** A renamed node's old name. */
   renamedFrom: string | null;
@@ -97,7 +97,10 @@ export function buildDiffView(
       delta: delta[i],
       net: netIn(changes, i),
       changes: changesIn(changes, i),
-      movedFrom: k === KIND.moved ? old.pathOf(oldTree.parent[o]) : null,
+      movedFrom:
+        k === KIND.moved || (k === KIND.unlinked && combined.newIndex[i] >= 0 && data.reference === undefined)
+          ? old.pathOf(oldTree.parent[o])
+          : null,
       renamedFrom: k === KIND.renamed ? old.nameOf(o) : null,
       edits:
         compared === null || o < 0 || newIndex[i] < 0

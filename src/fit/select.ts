@@ -31,7 +31,11 @@ export type ChildrenInOrder = (p: number) => Int32Array | null;
 export function lineCost(tree: Tree, measures: Measures, scores: Scores, chains: boolean, x: number): number {
   if (!chains) return 1;
   const p = tree.parent[x];
-  return p >= 0 && measures.nodes[p] === measures.nodes[x] + 1 && scores.distanceOf(p) !== 0 ? 0 : 1;
+  // The root, and a reference (graphs), always have a line of their own.
+  if (p < 0 || (tree.referenceTo !== undefined && tree.referenceTo[x] !== -1)) return 1;
+  // x is p's only child: its only slot (a reference is another child) and its only node (elided ones count).
+  const only = measures.count[p] === measures.count[x] + 1 && measures.nodes[p] === measures.nodes[x] + 1;
+  return only && scores.distanceOf(p) !== 0 ? 0 : 1;
 }
 
 /**

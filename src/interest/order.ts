@@ -25,6 +25,9 @@ export function nodeOrder(tree: Tree, measures: Measures, scores: Scores): NodeO
     const va = scores.interestOf(a);
     const vb = scores.interestOf(b);
     if (va !== vb) return vb - va;
+    // Graphs: the paths to a focus's parents, nearest a root first (interest/graph-doi.ts).
+    const rank = scores.rank;
+    if (rank !== undefined && rank[a] !== rank[b]) return rank[a] - rank[b];
     return rest(a, b);
   };
 }

@@ -18,6 +18,11 @@ export interface Scores {
   isForced(x: number): boolean;
   /** The forced nodes in pre-order (the fit starts from them; no walk of the tree finds them again). */
   readonly forcedNodes: Int32Array;
+  /**
+   * Graphs only: the rank of the parent of a focus (a reference to it, nearest a root first) whose path
+   * this node is on; 0x7fffffff elsewhere. Among equal interest, a lower rank comes first.
+   */
+  readonly rank?: Int32Array;
 }
 
 /** The distance of every node when there is no focus. */

@@ -1,10 +1,14 @@
 import { Buffer } from "node:buffer";
 import { EspalierError } from "../errors.js";
+import { buildGraphTree } from "../model/build-graph.js";
 import { buildTree } from "../model/build-tree.js";
+import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { Tree } from "../model/tree.js";
 import { byteLoader } from "./byte-loader.js";
 import { detectFormat } from "./detect-format.js";
+import { isGraph, jsonGraph, loadEdges, withNodeRecords } from "./graph-input.js";
+import { linkGraphTable } from "./graph-table.js";
 import type { InputFormat, LoadOptions } from "./load-options.js";
 import { loadYaml } from "./load-yaml.js";
 import { csvTableFromBytes } from "./table/csv-table.js";
@@ -26,15 +30,23 @@ export function loadTree(text: string, options: LoadOptions): Tree {
     const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
     if (!/\S/.test(body)) throw new EspalierError("INPUT_EMPTY", "the input is empty");
     const format = options.format ?? detectFormat(body, file, options);
-    return buildTree(linkedNodes(body, format, options), file);
+    const nodes = linkedNodes(body, format, options);
+    return isGraph(nodes) ? buildGraphTree(withNodeRecords(nodes, options), file) : buildTree(nodes, file);
   } catch (error) {
     if (error instanceof EspalierError && file !== undefined) throw error.inFile(file);
     throw error;
   }
 }
 
-function linkedNodes(body: string, format: InputFormat, options: LoadOptions): LinkedNodes {
+function linkedNodes(body: string, format: InputFormat, options: LoadOptions): LinkedNodes | GraphNodes {
   if (format === "yaml") return loadYaml(body, options);
+  if (format === "edges") return loadEdges(body, options);
+  // A JSON graph (rows or an adjacency map) is parsed whole; a text that is no JSON goes to the JSON
+  // loader, which places the error.
+  if ((format === "json" || format === "rows") && options.graph) {
+    const graph = jsonGraph(body, options);
+    if (graph) return graph;
+  }
   const bytes = Buffer.from(body, "utf8");
   const loader = byteLoader(format, options, bytes);
   if (loader) {
@@ -43,7 +55,7 @@ function linkedNodes(body: string, format: InputFormat, options: LoadOptions): L
   }
   const table = csvTableFromBytes(bytes, format === "csv" ? "," : "\t", options);
   try {
-    return linkTable(table, options);
+    return options.graph ? linkGraphTable(table, options) : linkTable(table, options);
   } finally {
     table.release?.();
   }

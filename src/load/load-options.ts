@@ -1,7 +1,11 @@
 import type { ReadLimits } from "./read-limits.js";
+import type { Table } from "./table/table.js";
 
-/** Input formats espalier reads. `rows` is a JSON array of flat records (id + parent, or a path column). */
-export const inputFormats = ["json", "yaml", "csv", "tsv", "rows", "paths"] as const;
+/**
+ * Input formats espalier reads. `rows` is a JSON array of flat records (id + parent, or a path column);
+ * `edges` is a graph as one `parent child` pair per line, or a CSV/TSV with a parent and a child column.
+ */
+export const inputFormats = ["json", "yaml", "csv", "tsv", "rows", "paths", "edges"] as const;
 export type InputFormat = (typeof inputFormats)[number];
 
 /** Field names and choices for loading; every field has the documented default. */
@@ -22,6 +26,15 @@ export interface LoadOptions {
   parentField: string;
   /** Column holding a row's full path (tables linked by path). Default "path". */
   pathField: string;
+  /** Column holding an edge's child id (edge tables). Default "child". */
+  childField: string;
+  /**
+   * Read the input as a graph: a table (or JSON rows) linked by id and parent whose ids may repeat with
+   * other parents, or a JSON/YAML object as an adjacency map of ids. Default false.
+   */
+  graph: boolean;
+  /** Node records for a graph (names, sizes, kept fields) by id, from a second table. */
+  nodeRecords?: Table;
   /** Extra record fields to keep per node, e.g. for a label template. */
   keepFields: readonly string[];
   /** Name of the root espalier adds when the input has several top-level nodes. */
@@ -52,6 +65,8 @@ export const defaultLoadOptions: LoadOptions = {
   idField: "id",
   parentField: "parent",
   pathField: "path",
+  childField: "child",
+  graph: false,
   keepFields: [],
   rootName: "(root)",
   maxNodes: Number.POSITIVE_INFINITY,

@@ -12,7 +12,9 @@ import {
   type YAMLMap,
 } from "yaml";
 import { EspalierError, quoted, say } from "../errors.js";
+import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
+import { adjacencyNodes } from "./adjacency.js";
 import type { LoadOptions } from "./load-options.js";
 import { chooseReading } from "./shape/choose-reading.js";
 import { sampleNested } from "./shape/sample-nested.js";
@@ -28,7 +30,7 @@ type YamlValue = Node | null;
  * origins are line numbers. Aliases are followed, never expanded: a node or children list reached twice
  * is TWO_PARENTS, so an alias bomb cannot blow up.
  */
-export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
+export function loadYaml(text: string, options: LoadOptions): LinkedNodes | GraphNodes {
   const lineCounter = new LineCounter();
   let doc: ReturnType<typeof parseDocument>;
   try {
@@ -51,6 +53,13 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
         pos,
       );
     }
+    if (error.code === "MULTIPLE_DOCS") {
+      throw new EspalierError(
+        "PARSE_YAML",
+        "a second YAML document starts here (after ---); espalier reads one document per input: split the file",
+        pos,
+      );
+    }
     const reason = error.message.replace(/ at line \d+, column \d+:.*$/s, "");
     throw new EspalierError("PARSE_YAML", say`invalid YAML (${error.code}): ${quoted.excerpt(reason)}`, pos);
   }
@@ -58,6 +67,10 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
   if (root === null || (isScalar(root) && root.value === null)) {
     throw new EspalierError("INPUT_EMPTY", "the YAML document holds no value");
   }
+
+  // With `options.graph` the document is an adjacency map; aliases expand in its plain value, up to
+  // the yaml package's alias count limit.
+  if (options.graph) return adjacencyNodes(doc.toJS(), options);
 
   // An alias stands for the last node with its anchor before it, in document order.
   const target = new Map<Alias, Node>();
@@ -128,6 +141,7 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes {
       if (isMap(v)) return Kind.Map;
       if (isSeq(v)) return Kind.Seq;
       if (!isScalar(v)) return Kind.Other;
+      if (isTaggedFloat(v)) return Kind.Number;
       switch (typeof v.value) {
         case "number":
         case "bigint":
@@ -247,4 +261,15 @@ function isMergeKey(key: unknown): boolean {
 function keyText(key: unknown): string {
   if (isScalar(key)) return key.value === null || key.value === undefined ? "" : String(key.value);
   return String(key);
+}
+
+/** YAML 1.2.2, 10.3.2 (core schema): the plain text a !!float may have; "3" is one, the float 3.0. */
+const CORE_FLOAT = /^[-+]?(?:\.[0-9]+|[0-9]+(?:\.[0-9]*)?)(?:[eE][-+]?[0-9]+)?$/;
+
+/**
+ * A scalar tagged !!float whose text is a float by the core schema though the YAML library left it as
+ * text (it reads `!!float 3` as the string "3"): read as the number it is.
+ */
+function isTaggedFloat(v: Scalar): boolean {
+  return typeof v.value === "string" && v.tag === "tag:yaml.org,2002:float" && CORE_FLOAT.test(v.value);
 }

@@ -110,7 +110,12 @@ export function walkNested<V>(
     if (sizeKind === Kind.Number) {
       const size = access.number(sizeValue as V);
       if (!isSize(size)) {
-        throw badSize(quoted.excerpt(access.text(sizeValue as V)), where(i), access.pos(sizeValue));
+        // As written: a size past 2^53 - 1 must not be shown as its rounded neighbour.
+        throw badSize(
+          quoted.excerpt(access.source(sizeValue as V) || access.text(sizeValue as V)),
+          where(i),
+          access.pos(sizeValue),
+        );
       }
       sink.ownSize[i] = size;
       sink.hasSizes = true;

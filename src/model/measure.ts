@@ -2,11 +2,12 @@ import type { Tree } from "./tree.js";
 
 /** Subtree aggregates of every node, including the node itself. */
 export interface Measures {
-  /** Nodes of the arrays in the subtree (>= 1): in pre-order the subtree of i is [i, i + count[i]). */
+  /** Slots in the subtree (>= 1): in pre-order the subtree of i is [i, i + count[i]). */
   readonly count: Int32Array;
   /**
-   * Nodes in the subtree as the input has them: `count` plus the elided descendants (Tree.elided);
-   * the very array `count` when nothing is elided. What a reader is shown, and what orders nodes.
+   * Nodes in the subtree as the input has them, each counted once: the full entries among its slots (a
+   * graph's reference slot counts 0) plus the elided descendants (Tree.elided). The very array `count`
+   * on a tree with nothing elided. What a reader is shown, and what orders nodes.
    */
   readonly nodes: Int32Array | Float64Array;
   /** Sum of own sizes over the subtree. */
@@ -38,18 +39,21 @@ export function measure(tree: Tree): Measures {
     leaves[p] += leaves[i];
     if (height[i] + 1 > height[p]) height[p] = height[i] + 1;
   }
-  return { count, nodes: withElided(tree, count), size, leaves, height, children };
+  return { count, nodes: subtreeNodes(tree, count), size, leaves, height, children };
 }
 
-/** Subtree node counts with the elided descendants added in (a reverse pass, as above). */
-function withElided(tree: Tree, count: Int32Array): Int32Array | Float64Array {
-  const { elided, parent } = tree;
-  if (!elided) return count;
-  const nodes = Float64Array.from(count);
-  const extra = Float64Array.from(elided);
-  for (let i = tree.length - 1; i >= 0; i--) {
-    nodes[i] += extra[i];
-    if (parent[i] >= 0) extra[parent[i]] += extra[i];
+/**
+ * Nodes per subtree as the input has them (a reverse pass, as above): each slot that is a node's full
+ * entry counts 1 (a graph's reference 0), and a node's elided descendants count too.
+ */
+function subtreeNodes(tree: Tree, count: Int32Array): Int32Array | Float64Array {
+  const { elided, referenceTo: ref, parent } = tree;
+  if (elided === undefined && ref === undefined) return count;
+  const n = tree.length;
+  const nodes = elided === undefined ? new Int32Array(n) : new Float64Array(n);
+  for (let i = n - 1; i >= 0; i--) {
+    nodes[i] += (ref === undefined || ref[i] === -1 ? 1 : 0) + (elided === undefined ? 0 : elided[i]);
+    if (parent[i] >= 0) nodes[parent[i]] += nodes[i];
   }
   return nodes;
 }

@@ -17,6 +17,7 @@ export interface TreeMessage {
   originIsRow: boolean;
   fields: [string, readonly string[]][];
   syntheticRoot: boolean;
+  referenceTo?: Int32Array;
   reading?: TreeReading;
 }
 
@@ -38,6 +39,7 @@ export function treeToMessage(tree: Tree): TreeMessage {
  */
 export function treeTransferList(message: TreeMessage): ArrayBuffer[] {
   const arrays: ArrayBufferView[] = [message.parent, message.depth, message.ownSize, message.origin];
+  if (message.referenceTo) arrays.push(message.referenceTo);
   for (const names of [message.name, message.ids])
     if (names !== null && "pool" in names) arrays.push(names.pool.bytes, names.pool.start, names.pool.size);
   const buffers = new Set<ArrayBuffer>();

@@ -28,6 +28,12 @@ export interface Tree {
   /** Whether node 0 was added by espalier to join several top-level nodes. */
   readonly syntheticRoot: boolean;
   /**
+   * Graphs only (absent on a tree): for each slot, -1 when it is a node's full entry, else the slot of
+   * the full entry of the node this one-line reference stands for (see model/build-graph.ts). A
+   * reference is a leaf with no size; it counts in no node count.
+   */
+  readonly referenceTo?: Int32Array;
+  /**
    * Descendants of each node that exist in the input but are not in these arrays (a fact table's
    * rollup fetched only as deep as the summary can reach; see docs/scale.md). Absent: none.
    * A node with elided descendants has no children here, and its own size is its whole subtree's.
@@ -41,9 +47,10 @@ export interface Tree {
 export interface TreeReading {
   /**
    * `nodes`: node objects (nested JSON/YAML); `values`: every value of a JSON/YAML document a node;
-   * `path-map`: an object keyed by path; `rows`: JSON rows; `table`: CSV/TSV; `paths`: a path list.
+   * `path-map`: an object keyed by path; `rows`: JSON rows; `table`: CSV/TSV; `paths`: a path list;
+   * `graph`: nodes and edges (an edge list or table, an adjacency map, a table read with `graph`).
    */
-  readonly shape: "nodes" | "values" | "path-map" | "rows" | "table" | "paths";
+  readonly shape: "nodes" | "values" | "path-map" | "rows" | "table" | "paths" | "graph";
   /** What sizes count: bytes (file sizes, a document's bytes, a field marked as bytes) or plain numbers. */
   readonly sizeUnit: "bytes" | "number";
   /** Nested JSON/YAML: the field children were read from. */

@@ -1,7 +1,8 @@
 import type { HierarchyNode } from "d3-hierarchy";
+import { type ChangeCounts, treeChangeKinds } from "../diff/changes.js";
 import type { DiffTotals } from "../diff/diff-trees.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
-import { DIFF_FORMAT, type DiffSummary, type DiffSummaryNode } from "./diff-schema.js";
+import { DIFF_FORMAT, type DiffSummary, type DiffSummaryNode, type TreeChangeCounts } from "./diff-schema.js";
 import { jsonNodeFields } from "./json-node.js";
 import { jsonText } from "./json-text.js";
 import { mapTree } from "./map-tree.js";
@@ -30,15 +31,18 @@ export function toDiffSummary(
     ...(node.renamedFrom !== null ? { renamedFrom: node.renamedFrom } : {}),
     ...(node.edits.length > 0 ? { edits: node.edits.map((e) => ({ ...e })) } : {}),
     children: [],
-    hidden: node.hidden ? { ...node.hidden, changes: { ...node.hidden.changes } } : null,
+    hidden: node.hidden ? { ...node.hidden, changes: counts(node.hidden.changes) } : null,
   });
+  // A diff of trees has no edge kinds: its counts keep the six kinds of change a tree has.
+  const counts = (c: ChangeCounts): ChangeCounts | TreeChangeCounts =>
+    totals.graph ? { ...c } : (Object.fromEntries(treeChangeKinds.map((k) => [k, c[k]])) as TreeChangeCounts);
   const root = mapTree(view.data, convert);
   return {
     format: DIFF_FORMAT,
     match: options.by,
     budget: options.budget,
     lines: options.lines,
-    changes: { ...totals.changes },
+    changes: counts(totals.changes),
     totals: {
       nodes: view.data.nodes,
       size: view.data.size,

@@ -6,6 +6,7 @@ import { formatSize } from "./format-size.js";
 import type { LineGroup } from "./line-groups.js";
 import type { LineParts } from "./line-layout.js";
 import { foldAmount, lineParts } from "./line-parts.js";
+import { referenceText } from "./reference-text.js";
 import { safeText, shownLabel } from "./safe-text.js";
 
 /** Columns an old parent's path or old name keeps in a tag on a narrow line. */
@@ -21,9 +22,9 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
   const top = group.nodes[0];
   const last = group.nodes[group.nodes.length - 1];
   const removed = top.change === "removed";
-  const numbers = [
-    amount(top.nodes, removed ? 0 : top.size, { ...options, sizes: options.sizes && !removed }),
-  ];
+  const numbers = top.reference
+    ? [referenceText(top.reference)]
+    : [amount(top.nodes, removed ? 0 : top.size, { ...options, sizes: options.sizes && !removed })];
   if (options.sizes && top.nodes > 1 && top.net !== 0) numbers.push(`net ${signed(top.net, options)}`);
   const hidden = last.hidden;
   const inside = hidden ? changeSummary(hidden.changes, hidden.delta, options) : "";

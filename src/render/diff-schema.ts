@@ -8,9 +8,25 @@ export const DIFF_FORMAT = "espalier-diff/1";
 const count = z.number().int().nonnegative();
 
 export const changeCountsSchema = z
-  .object({ added: count, removed: count, moved: count, renamed: count, edited: count, resized: count })
+  .object({
+    added: count,
+    removed: count,
+    moved: count,
+    renamed: count,
+    edited: count,
+    resized: count,
+    linked: count
+      .optional()
+      .describe("Graphs only: edges added to a node that was there (it gained a parent)."),
+    unlinked: count
+      .optional()
+      .describe("Graphs only: edges removed from a node that stays (it lost a parent)."),
+  })
   .strict()
   .describe("Changed nodes per kind; each changed node counts under exactly one kind.");
+
+/** The counts of a diff of trees: the six kinds a tree has. */
+export type TreeChangeCounts = Omit<z.infer<typeof changeCountsSchema>, "linked" | "unlinked">;
 
 export const diffFoldedSchema = foldedSchema
   .extend({
@@ -50,7 +66,9 @@ export const diffNodeSchema: z.ZodType<DiffSummaryNode> = z.lazy(() =>
       ),
       id: nodeFieldsShape.id.describe("Row id, when nodes were matched by id."),
       interest: nodeFieldsShape.interest.describe("Degree of interest (changes score as foci do)."),
-      nodes: nodeFieldsShape.nodes.describe("Nodes in the combined subtree (removed ones included)."),
+      nodes: nodeFieldsShape.nodes.describe(
+        "Nodes in the combined subtree (removed ones included; 0 on a reference of a graph).",
+      ),
       size: nodeFieldsShape.size.describe("Size of the subtree in the new version (removed nodes hold 0)."),
       focus: nodeFieldsShape.focus.describe("Whether the node is one of the user's foci."),
       change: z.enum(changeKinds).nullable().describe("The node's kind of change, or null."),
@@ -59,7 +77,9 @@ export const diffNodeSchema: z.ZodType<DiffSummaryNode> = z.lazy(() =>
       movedFrom: z
         .string()
         .optional()
-        .describe("For a moved node, the old parent's path in the old version."),
+        .describe(
+          "For a moved node, the old parent's path in the old version; for an unlinked full entry of a graph, the parent it lost.",
+        ),
       renamedFrom: z.string().optional().describe("For a renamed node, its old name."),
       edits: z
         .array(fieldEditSchema)

@@ -1,5 +1,5 @@
 import type { HierarchyNode } from "d3-hierarchy";
-import { changeKinds } from "../diff/changes.js";
+import { changeKinds, treeChangeKinds } from "../diff/changes.js";
 import type { DiffTotals } from "../diff/diff-trees.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
 import type { NumberOptions } from "./amount.js";
@@ -43,7 +43,10 @@ export function renderDiffText(
 
 /** `matched by id: 1 added, 0 removed, 1 moved, 0 renamed, 0 resized; 6 -> 7 nodes; size …`. */
 export function totalsLine(totals: DiffTotals, options: DiffTextOptions): string {
-  const kinds = changeKinds.map((k) => `${totals.changes[k]} ${k}`).join(", ");
+  // A diff of graphs counts edges linked and unlinked too; a diff of trees has none to count.
+  const kinds = (totals.graph ? changeKinds : treeChangeKinds)
+    .map((k) => `${totals.changes[k]} ${k}`)
+    .join(", ");
   let line = `matched by ${options.by}: ${kinds}; ${totals.old.nodes} -> ${totals.new.nodes} nodes`;
   if (options.sizes) {
     const { units } = options;

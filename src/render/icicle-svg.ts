@@ -1,10 +1,12 @@
 import type { HierarchyNode } from "d3-hierarchy";
-import { type ChangeKind, changeKinds } from "../diff/changes.js";
+import { type ChangeKind, changeKinds, treeChangeKinds } from "../diff/changes.js";
 import type { ViewNode } from "../view/view-node.js";
 import { amount } from "./amount.js";
 import { displayWidth, shortenMiddle } from "./display-width.js";
 import { formatSize, type Units } from "./format-size.js";
 import { type IcicleBlock, icicle } from "./icicle-layout.js";
+import { MARK as LINE_MARK } from "./line-parts.js";
+import { parentsText, referenceText } from "./reference-text.js";
 import { shownLabel } from "./safe-text.js";
 import { xmlEscape } from "./xml-escape.js";
 
@@ -35,6 +37,7 @@ const LOOK = {
   focusEdge: "#7b4f17",
   foldGround: "#f2efe7",
   foldLine: "#cbc3b1",
+  referenceEdge: "#6b7a70",
   change: {
     added: { fill: "#d4e9d3", mark: "#3c7443" },
     removed: { fill: "#f1dad4", mark: "#984636" },
@@ -42,6 +45,8 @@ const LOOK = {
     renamed: { fill: "#eadcee", mark: "#744a82" },
     edited: { fill: "#d5e8ea", mark: "#2f6a70" },
     resized: { fill: "#eee6c9", mark: "#76642a" },
+    linked: { fill: "#d3e8e6", mark: "#2f6e69" },
+    unlinked: { fill: "#e6e1dc", mark: "#6b5a4c" },
   },
 } as const;
 
@@ -81,7 +86,10 @@ export function renderSvg<T extends ViewNode>(view: HierarchyNode<T>, options: S
     floorShare: 2 / 3,
   });
   const rowsHeight = blocks.reduce((h, b) => Math.max(h, b.y1), 0);
-  const legend = legendItems(options, new Set(blocks.map(kindOf)));
+  const changed = new Set(
+    blocks.map((b) => (b.folded ? null : (options.changeOf?.(b.node) ?? null))).filter((k) => k !== null),
+  );
+  const legend = legendItems(options, new Set(blocks.map(kindOf)), changed);
   const legendTop = MARGIN + rowsHeight + 14;
   const legendRows = layoutLegend(legend, inner);
   const height = legendTop + legendRows * LEGEND_ROW + MARGIN;
@@ -128,10 +136,18 @@ function defs(): string {
   );
 }
 
-type BlockKind = "focus" | "path" | "other" | "folded";
+type BlockKind = "focus" | "path" | "other" | "folded" | "reference";
 
 function kindOf<T extends ViewNode>({ node, folded }: IcicleBlock<T>): BlockKind {
-  return folded ? "folded" : node.focus ? "focus" : node.onPath ? "path" : "other";
+  return folded
+    ? "folded"
+    : node.reference
+      ? "reference"
+      : node.focus
+        ? "focus"
+        : node.onPath
+          ? "path"
+          : "other";
 }
 
 /** One block: a group with its tooltip, its rectangle, its marks and the labels that fit. */
@@ -150,6 +166,10 @@ function block<T extends ViewNode>(b: IcicleBlock<T>, options: SvgOptions<T>): s
   const dash = change === "removed" ? ` stroke-dasharray="5 3"` : "";
   if (folded)
     parts.push(`<rect ${box} fill="url(#${PATTERN})" stroke="${LOOK.background}" stroke-width="1"/>`);
+  else if (node.reference)
+    parts.push(
+      `<rect ${box} fill="${change ? LOOK.change[change].fill : LOOK.background}" stroke="${LOOK.referenceEdge}" stroke-width="1.5" stroke-dasharray="2 2"/>`,
+    );
   else if (node.focus)
     parts.push(`<rect ${box} fill="${LOOK.focus}" stroke="${LOOK.focusEdge}" stroke-width="3"${dash}/>`);
   else {
@@ -182,7 +202,12 @@ function labels<T extends ViewNode>(
   const x = num(b.x0 + PAD);
   const first = folded
     ? fitted([`+${node.hidden!.children} more`, `+${node.hidden!.children}`], room, LABEL_PX)
-    : fitted([shownLabel(node.label)], room, LABEL_PX, true);
+    : fitted(
+        [`${node.reference ? `${LINE_MARK.reference} ` : ""}${shownLabel(node.label)}`],
+        room,
+        LABEL_PX,
+        true,
+      );
   if (first === null) return out;
   const weight = !folded && node.focus ? ` font-weight="700"` : "";
   const style = folded ? ` font-style="italic"` : "";
@@ -206,6 +231,7 @@ function numbers<T extends ViewNode>(
   options: SvgOptions<T>,
   change: ChangeKind | null,
 ): string[] {
+  if (!folded && node.reference) return [referenceText(node.reference)];
   const { nodes, size } = folded ? node.hidden! : node;
   const sizes = options.sizes && change !== "removed";
   const always = folded;
@@ -240,7 +266,14 @@ function tooltip<T extends ViewNode>(
   const lines = [label];
   const path = shownLabel(node.path);
   if (node.path !== "" && path !== label) lines.push(path);
+  if (node.reference) {
+    lines.push(`reference, counted at its ${referenceText(node.reference)}`);
+    if (change) lines.push(change);
+    return lines.join("\n");
+  }
   lines.push(amount(node.nodes, node.size, always));
+  const parents = parentsText(node.parents);
+  if (parents) lines.push(parents);
   if (node.focus) lines.push("focus");
   else if (node.onPath)
     lines.push(options.changeOf ? "on the path to a focus or change" : "on the path to a focus");
@@ -263,6 +296,10 @@ function changeMark(kind: ChangeKind, x: number, y: number, s: number): string {
       return `<rect x="${num(x + 1)}" y="${num(y + 1)}" width="${num(s - 2)}" height="${num(s - 2)}" fill="${fill}"/>`;
     case "resized": // a bar, like a ruler mark
       return `<path d="M${num(x)} ${num(y + h - 1.5)}h${num(s)}v3h${num(-s)}z" fill="${fill}"/>`;
+    case "linked": // a ring: a new link
+      return `<circle cx="${num(x + h)}" cy="${num(y + h)}" r="${num(h - 1)}" fill="none" stroke="${fill}" stroke-width="2"/>`;
+    case "unlinked": // a slash: a link cut
+      return `<path d="M${num(x)} ${num(y + s)}L${num(x + s)} ${num(y)}" stroke="${fill}" stroke-width="2.5"/>`;
     case "removed":
       return "";
   }
@@ -279,7 +316,11 @@ const SWATCH = 16;
 const LEGEND_ROW = 24;
 
 /** What the marks mean: the kinds of block drawn, every change kind of a diff, and what widths show. */
-function legendItems<T extends ViewNode>(options: SvgOptions<T>, drawn: Set<BlockKind>): LegendItem[] {
+function legendItems<T extends ViewNode>(
+  options: SvgOptions<T>,
+  drawn: Set<BlockKind>,
+  changed: Set<ChangeKind>,
+): LegendItem[] {
   const s = SWATCH;
   const box = `width="${s}" height="${s}"`;
   const near = options.changeOf ? "a focus or change" : "a focus";
@@ -292,10 +333,16 @@ function legendItems<T extends ViewNode>(options: SvgOptions<T>, drawn: Set<Bloc
     ],
     ["other", `<rect ${box} fill="${LOOK.other}"/>`, "other shown node"],
     ["folded", `<rect ${box} fill="url(#${PATTERN})"/>`, "+N more: folded nodes"],
+    [
+      "reference",
+      `<rect ${box} fill="${LOOK.background}" stroke="${LOOK.referenceEdge}" stroke-width="1.5" stroke-dasharray="2 2"/>`,
+      "reference: a node whose full entry (and count) is elsewhere",
+    ],
   ];
   const items = kinds.filter(([kind]) => drawn.has(kind)).map(([, swatch, text]) => ({ swatch, text }));
   if (options.changeOf) {
-    for (const kind of changeKinds) {
+    // Every kind of a tree's diff; the edge kinds of a graph's diff when some block has one.
+    for (const kind of changeKinds.filter((k) => treeChangeKinds.includes(k) || changed.has(k))) {
       const { fill, mark } = LOOK.change[kind];
       const edge = kind === "removed" ? ` stroke="${mark}" stroke-width="1.5" stroke-dasharray="5 3"` : "";
       items.push({

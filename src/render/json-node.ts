@@ -16,5 +16,7 @@ export function jsonNodeFields(node: ViewNode, labels: boolean): NodeFields {
     nodes: node.nodes,
     size: node.size,
     focus: node.focus,
+    ...(node.reference ? { reference: { ...node.reference } } : {}),
+    ...(node.parents ? { parents: { ...node.parents } } : {}),
   };
 }

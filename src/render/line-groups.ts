@@ -14,7 +14,15 @@ export interface LineGroup<T extends ViewNode = ViewNode> {
  * child whose parent is not an anchor, that is neither a focus nor, in a diff, a change).
  */
 export function continuesLine(parent: ViewNode, child: ViewNode, chains: boolean): boolean {
-  return chains && !parent.anchor && parent.children.length === 1 && parent.nodes === child.nodes + 1;
+  // An only child: the one shown child, nothing folded beside it. A reference line (graphs) never joins one.
+  return (
+    chains &&
+    !parent.anchor &&
+    parent.children.length === 1 &&
+    parent.hidden === null &&
+    parent.nodes === child.nodes + 1 &&
+    child.reference === undefined
+  );
 }
 
 /** The lines of a view in order: every renderer that prints lines shares this grouping. */

@@ -1,4 +1,5 @@
 import { CHAIN_JOIN, type LineParts } from "./line-layout.js";
+import { MARK } from "./line-parts.js";
 import { markdownText } from "./markdown-escape.js";
 
 /**
@@ -8,6 +9,9 @@ import { markdownText } from "./markdown-escape.js";
  */
 export function markdownLine(p: LineParts): string {
   let label = p.labels.map((l) => markdownText(l, false)).join(markdownText(CHAIN_JOIN));
+  // A reference line of a graph: its mark, its label, where the full entry is in italics.
+  if (p.mark === MARK.reference)
+    return `${"  ".repeat(p.level)}- ${MARK.reference} ${p.tag ? `${codeSpan(p.tag)} ` : ""}${label} · *${markdownText(p.numbers)}*`;
   if (p.role === "focus") label = `**${label}** (focus)`;
   else if (p.role === "path") label = `**${label}**`;
   return (

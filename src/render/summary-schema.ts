@@ -8,6 +8,12 @@ export const foldedSchema = z
     children: z.number().int().nonnegative().describe("Hidden children of this node."),
     nodes: z.number().int().nonnegative().describe("Nodes in the hidden children's subtrees."),
     size: z.number().describe("Size in the hidden children's subtrees."),
+    references: z
+      .number()
+      .int()
+      .nonnegative()
+      .optional()
+      .describe("Graphs only: reference lines among what is folded (they count no node)."),
   })
   .describe("What is folded under a shown node.");
 
@@ -21,6 +27,8 @@ export interface NodeFields {
   nodes: number;
   size: number;
   focus: boolean;
+  reference?: { path: string; cycle: boolean };
+  parents?: { count: number; hidden: number };
 }
 
 /** The schemas of {@link NodeFields}, with their meaning in a summary (a diff re-describes some). */
@@ -30,9 +38,29 @@ export const nodeFieldsShape = {
   id: z.string().optional().describe("Row id, when the input links rows by id."),
   label: z.string().optional().describe("Display text, when a label template is in use."),
   interest: z.number().describe("Degree of interest (0 on focus paths, lower is less interesting)."),
-  nodes: z.number().int().positive().describe("Nodes in the subtree, this node included."),
+  nodes: z
+    .number()
+    .int()
+    .nonnegative()
+    .describe("Nodes in the subtree, this node included (distinct nodes; 0 on a reference)."),
   size: z.number().describe("Size of the subtree, this node included (0 without sizes)."),
   focus: z.boolean().describe("Whether the node is a focus."),
+  reference: z
+    .object({
+      path: z.string().describe("Path of the node's full entry; accepted back as a focus."),
+      cycle: z.boolean().describe("Whether the full entry is an ancestor of this line (a cycle)."),
+    })
+    .strict()
+    .optional()
+    .describe("Graphs only: this line stands for a node whose full entry is elsewhere."),
+  parents: z
+    .object({
+      count: z.number().int().positive().describe("Parents of the focus in the graph."),
+      hidden: z.number().int().nonnegative().describe("Those not shown."),
+    })
+    .strict()
+    .optional()
+    .describe("Graphs only, on a focus with several parents."),
 };
 
 export interface SummaryNode extends NodeFields {
@@ -54,9 +82,9 @@ export const summaryNodeSchema: z.ZodType<SummaryNode> = z.lazy(() =>
 export const inputReadingSchema = z
   .object({
     shape: z
-      .enum(["nodes", "values", "path-map", "rows", "table", "paths"])
+      .enum(["nodes", "values", "path-map", "rows", "table", "paths", "graph"])
       .describe(
-        "nodes: node objects; values: every value of a JSON/YAML document; path-map: an object keyed by path; rows: JSON rows; table: CSV/TSV; paths: a path list.",
+        "nodes: node objects; values: every value of a JSON/YAML document; path-map: an object keyed by path; rows: JSON rows; table: CSV/TSV; paths: a path list; graph: nodes and edges (edge list or table, adjacency map, a table read as a graph).",
       ),
     sizeUnit: z.enum(["bytes", "number"]).describe("What sizes count: bytes, or plain numbers."),
     childrenField: z.string().optional().describe("Nested input: the field children were read from."),

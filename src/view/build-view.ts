@@ -21,9 +21,11 @@ export function buildView(
   nameOf: (i: number) => string = (i) => index.tree.name.get(i),
   pathOf: (i: number) => string = (i) => index.path(i),
   idOf: (i: number) => string | null = (i) => index.tree.ids?.get(i) ?? null,
+  parentsOf?: (i: number) => { count: number; hidden: number } | undefined,
 ): HierarchyNode<ViewNode> {
   const { tree, measures } = index;
   const { count, nodes, size, children } = measures;
+  const ref = tree.referenceTo;
   const { shown } = selection;
   const isFocus = new Set(foci);
   const byIndex = new Map<number, ViewNode>();
@@ -31,7 +33,10 @@ export function buildView(
   const order = Int32Array.from(selection.admitted).sort();
   // What the shown children of each shown node hold, to take from the node's own totals: the folded
   // rest then costs nothing per hidden child, however many children a node has.
-  const shownKids = new Map<number, { children: number; nodes: number; size: number; exact: boolean }>();
+  const shownKids = new Map<
+    number,
+    { children: number; nodes: number; slots: number; size: number; exact: boolean }
+  >();
   let root: ViewNode | undefined;
   for (const i of order) {
     const node: ViewNode = {
@@ -44,12 +49,22 @@ export function buildView(
       nodes: nodes[i],
       size: size[i],
       focus: isFocus.has(i),
-      onPath: foci.length > 0 && scores.isForced(i),
+      // On a graph, the paths to a focus's other parents lead to it too.
+      onPath:
+        foci.length > 0 && (scores.isForced(i) || (scores.rank !== undefined && scores.rank[i] !== FAR)),
       anchor: scores.distanceOf(i) === 0,
       depth: tree.depth[i],
       children: [],
       hidden: null,
     };
+    if (node.focus && parentsOf) {
+      const parents = parentsOf(i);
+      if (parents) node.parents = parents;
+    }
+    if (ref !== undefined && ref[i] !== -1) {
+      const at = ref[i];
+      node.reference = { path: pathOf(at), cycle: at <= i && i < at + count[at] };
+    }
     byIndex.set(i, node);
     const p = tree.parent[i];
     if (p < 0) {
@@ -59,26 +74,30 @@ export function buildView(
     byIndex.get(p)!.children.push(node);
     let sums = shownKids.get(p);
     if (!sums) {
-      sums = { children: 0, nodes: 0, size: 0, exact: true };
+      sums = { children: 0, nodes: 0, slots: 0, size: 0, exact: true };
       shownKids.set(p, sums);
     }
     sums.children++;
     sums.nodes += nodes[i];
+    sums.slots += count[i];
     sums.size += size[i];
     if (!Number.isInteger(size[i])) sums.exact = false;
   }
   for (const i of order) {
-    const sums = shownKids.get(i) ?? { children: 0, nodes: 0, size: 0, exact: true };
+    const sums = shownKids.get(i) ?? { children: 0, nodes: 0, slots: 0, size: 0, exact: true };
     const hiddenChildren = children[i] - sums.children;
     if (hiddenChildren === 0) continue;
     const own = tree.ownSize[i];
     // Whole sizes below 2^53 add and subtract exactly; a fractional size is summed child by child, in
     // input order, so the total is the same double either way.
     const exact = sums.exact && Number.isInteger(size[i]) && Number.isInteger(own);
+    const hiddenNodes = nodes[i] - 1 - sums.nodes;
     byIndex.get(i)!.hidden = {
       children: hiddenChildren,
-      nodes: nodes[i] - 1 - sums.nodes,
+      nodes: hiddenNodes,
       size: exact ? size[i] - own - sums.size : hiddenSize(i),
+      // Hidden slots that are no node's full entry are references.
+      ...(ref !== undefined ? { references: count[i] - 1 - sums.slots - hiddenNodes } : {}),
     };
   }
   function hiddenSize(i: number): number {
@@ -89,6 +108,8 @@ export function buildView(
 
   return hierarchyOf(root!);
 }
+
+const FAR = 0x7fffffff;
 
 function round(x: number): number {
   const r = Math.round(x * 1000) / 1000;

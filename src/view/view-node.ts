@@ -6,6 +6,16 @@ export interface Folded {
   nodes: number;
   /** Size in those children's subtrees. */
   size: number;
+  /** Graphs only: references (one-line entries of nodes counted elsewhere) among the hidden slots. */
+  references?: number;
+}
+
+/** Graphs only: where the full entry of the node a reference line stands for is. */
+export interface ReferenceTo {
+  /** Printed path of the full entry (pseudonymised like every path). */
+  path: string;
+  /** Whether the full entry is an ancestor of the reference: the edge leads back up a cycle. */
+  cycle: boolean;
 }
 
 /** A shown node, budget-sized and friendly: the input to every renderer. */
@@ -35,4 +45,8 @@ export interface ViewNode {
   depth: number;
   children: ViewNode[];
   hidden: Folded | null;
+  /** Graphs only: set on a reference line (which counts no node and no size). */
+  reference?: ReferenceTo;
+  /** Graphs only, on a focus with several parents: how many there are, and how many are not shown. */
+  parents?: { count: number; hidden: number };
 }

@@ -43,6 +43,14 @@ describe("the project config file (.espalier.yaml, --config)", () => {
     expect(yaml.stderr).toMatch(/\.espalier\.yaml:\d+:\d+/);
   });
 
+  it("refuses a config whose aliases expand too far with LIMIT_EXCEEDED naming the file, never INTERNAL", async () => {
+    const bomb = `a: &a [1, 2]\nfocus: [${Array.from({ length: 60 }, () => "*a").join(", ")}]\n`;
+    const r = await cli(["-"], { stdin: STDIN, files: { ".espalier.yaml": bomb } });
+    expect({ code: r.code, stdout: r.stdout }).toEqual({ code: 2, stdout: "" });
+    // The one error line: espalier: FILE: message [CODE] (docs/cli.md, Exit status).
+    expect(r.stderr).toMatch(/^espalier: \.espalier\.yaml: .+ \[LIMIT_EXCEEDED\]\n$/);
+  });
+
   it("--options-in-effect prints the effective configuration as a valid config file, without an input", async () => {
     const r = await cli(["--options-in-effect", "--budget", "9"], {
       files: { ".espalier.yaml": "parentField: manager\nlabel: '{title}'\n" },

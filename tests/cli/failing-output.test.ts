@@ -49,7 +49,12 @@ describe("espalier when standard output or standard error fails", () => {
     const dir = await tempDir();
     await writeFile(join(dir, "a.paths"), LIST);
     await writeFile(join(dir, "b.paths"), `${LIST}7\tquill/e\n`);
-    for (const args of ["a.paths", "a.paths --format json", "diff a.paths b.paths --fail-on-change", "--help"]) {
+    for (const args of [
+      "a.paths",
+      "a.paths --format json",
+      "diff a.paths b.paths --fail-on-change",
+      "--help",
+    ]) {
       const r = await shell(`${node} ${bin} ${args} > /dev/full`, dir);
       // Never 1, which diff --fail-on-change uses for "the versions differ".
       expect(r.code, args).toBe(2);

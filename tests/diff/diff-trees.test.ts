@@ -56,6 +56,7 @@ describe("diffTrees(old, new, options)", () => {
     // edit script (move x from A to B, insert C) is derived by hand.
     const result = run(makeIdTree("R{A{x,y},B{z}}"), makeIdTree("R{A{y},B{z,x},C}"));
     expect(changeList(result)).toEqual(["x moved from A to B", "C added"]);
+    // Trees have no edge kinds: linked and unlinked (graphs, tests/graph/diff-graph.test.ts) stay 0.
     expect(result.totals.changes).toEqual({
       added: 1,
       removed: 0,
@@ -63,6 +64,8 @@ describe("diffTrees(old, new, options)", () => {
       renamed: 0,
       edited: 0,
       resized: 0,
+      linked: 0,
+      unlinked: 0,
     });
   });
 
@@ -86,6 +89,8 @@ describe("diffTrees(old, new, options)", () => {
           renamed: 0,
           edited: 0,
           resized: 0,
+          linked: 0,
+          unlinked: 0,
         });
         expect(result.totals.delta).toBe(0);
         expect(result.combined.tree.length).toBe(t.length);
@@ -255,7 +260,16 @@ describe("diffTrees(old, new, options)", () => {
         const result = run(oldTree, newTree, b);
         const { kind, delta } = result.combined;
         const kinds = changeKinds;
-        const seen = { added: 0, removed: 0, moved: 0, renamed: 0, edited: 0, resized: 0 };
+        const seen = {
+          added: 0,
+          removed: 0,
+          moved: 0,
+          renamed: 0,
+          edited: 0,
+          resized: 0,
+          linked: 0,
+          unlinked: 0,
+        };
         let seenDelta = 0;
         result.view.each(({ data }) => {
           const v: DiffViewNode = data;
@@ -294,6 +308,8 @@ describe("diffTrees(old, new, options)", () => {
       renamed: 0,
       edited: 0,
       resized: 0,
+      linked: 0,
+      unlinked: 0,
     });
     const err = (() => {
       try {

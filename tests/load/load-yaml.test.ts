@@ -150,4 +150,14 @@ describe("loadTree(yaml) merge keys", () => {
     ].join("\n");
     expect(outline(yaml(text))).toEqual(["ci 0", "  test 7", "  lint 4"]);
   });
+
+  it('loadTree(yaml) reads a !!float-tagged 3 as the number 3 (YAML 1.2.2, 10.3.2: "3" matches the core schema\'s float)', () => {
+    const tree = yaml("name: r\nsize: !!float 3\n");
+    expect(tree.ownSize[0]).toBe(3);
+  });
+
+  it("loadTree(yaml) refuses a second document as PARSE_YAML at the --- that starts it", () => {
+    const error = caught(() => yaml("name: r\nsize: 1\n---\nname: s\n"));
+    expect([error.code, error.pos]).toEqual(["PARSE_YAML", { line: 3, column: 1 }]);
+  });
 });

@@ -1,6 +1,8 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
+import { loadTree } from "../../src/load/index.js";
 import { parseSize } from "../../src/load/parse-size.js";
+import { opts, outline } from "./helpers.js";
 
 describe("parseSize(text)", () => {
   it("parseSize(text) reads plain decimal numbers and treats an empty cell as 0", () => {
@@ -38,5 +40,28 @@ describe("parseSize(text) property", () => {
         (n) => parseSize(String(n)) === n,
       ),
     );
+  });
+});
+
+describe("a size of -0 in every format", () => {
+  // RFC 8259 section 6: a number may carry a minus sign, so -0 is valid JSON; YAML 1.2.2 10.3.2 (core
+  // schema int) reads -0 as an integer; IEEE 754 -0 equals +0. So a size written -0 is the size 0 in
+  // JSON, YAML, CSV and a path list alike, and never a BAD_SIZE in one of them only.
+  it("parseSize reads -0, -0.0 and -0e3 as 0 (not -0), and still refuses any negative size", () => {
+    for (const text of ["-0", "-0.0", "-0e3", "-.0"]) expect(Object.is(parseSize(text), 0)).toBe(true);
+    for (const text of ["-1", "-0.5", "-1e-3"]) expect(parseSize(text)).toBeNaN();
+  });
+
+  it("loadTree gives the root size 0 from -0 in JSON, YAML, CSV and a path list", () => {
+    const trees = [
+      loadTree('{"name":"r","size":-0}', opts({ format: "json" })),
+      loadTree("name: r\nsize: -0\n", opts({ format: "yaml" })),
+      loadTree("id,parent,size\nr,,-0\n", opts({ format: "csv" })),
+      loadTree("-0\tr\n", opts({ format: "paths" })),
+    ];
+    for (const tree of trees) {
+      const root = tree.length === 1 ? 0 : 1; // a path list's "r" sits under the root espalier adds
+      expect(Object.is(tree.ownSize[root], 0), outline(tree).join("|")).toBe(true);
+    }
   });
 });

@@ -108,34 +108,76 @@ export class KeyLevels {
     near?: { foci: readonly (readonly string[])[]; reach: number },
   ): string {
     const D = this.depth;
-    const ks = Array.from({ length: D }, (_, i) => i + 1);
-    const levels = (p: string, d: string) =>
-      ks.map((k) => `CASE WHEN ${d} >= ${k} THEN SPLIT_PART(${p}, ${this.sep}, ${k}) END AS ${C.level}${k}`);
-    const sizes = this.hasSize ? [`t AS ${C.size}`, `m AS ${C.sizeMin}`] : [];
-    const nodeCols = [
-      `j AS ${C.depth}`,
-      ...levels("p", "j"),
-      `n AS ${C.rows}`,
-      ...sizes,
-      ...(stats ? [`nc AS ${C.nodes}`, `cc AS ${C.children}`] : []),
-    ];
-    const ownCols = [
-      `COALESCE(d, 0) + 1 AS ${C.depth}`,
-      ...levels("k", "d"),
-      `n AS ${C.rows}`,
-      ...sizes,
-      ...(stats ? [`CAST(NULL AS BIGINT) AS ${C.nodes}`, `CAST(NULL AS BIGINT) AS ${C.children}`] : []),
-    ];
     // Nothing deeper than the longest focus plus the reach is near: those levels are not read at all.
     const within = near ? Math.max(0, ...near.foci.map((f) => this.shareable(f))) + near.reach : D;
     const nodeNear = near ? `\nWHERE ${this.nearSql("p", "j", near)}` : "";
     const ownNear = near ? ` AND (d IS NULL OR (d <= ${within} AND ${this.nearSql("k", "d", near)}))` : "";
     const depths = Array.from({ length: Math.min(D, within) + 1 }, (_, j) => j);
-    const nodeRows = depths.map(
-      (j) => `SELECT ${nodeCols.join(", ")}\nFROM ${identifier(level(j))}${nodeNear}`,
-    );
-    const ownRows = `SELECT ${ownCols.join(", ")}\nFROM ${identifier(keys)}\nWHERE (d IS NULL OR d < ${D})${ownNear}`;
+    const nodeRows = depths.map((j) => `${this.nodeSelect(stats)}\nFROM ${identifier(level(j))}${nodeNear}`);
+    const ownRows = `${this.ownSelect(stats)}\nFROM ${identifier(keys)}\nWHERE (d IS NULL OR d < ${D})${ownNear}`;
     return [...nodeRows, ownRows].join("\nUNION ALL\n");
+  }
+
+  /**
+   * The children of the nodes at `parents` (paths of names, outermost first; none the root) as rows
+   * of the result table with statistics: their node rows and their own rows, nothing else.
+   */
+  childrenSql(level: (j: number) => string, keys: string, parents: readonly (readonly string[])[]): string {
+    const byDepth = new Map<number, (readonly string[])[]>();
+    for (const path of parents) {
+      if (path.length === 0 || path.length >= this.depth) continue;
+      byDepth.set(path.length, [...(byDepth.get(path.length) ?? []), path]);
+    }
+    const parts: string[] = [];
+    for (const [j, paths] of [...byDepth].sort((a, b) => a[0] - b[0])) {
+      const under = (column: string) =>
+        `(${paths
+          .map((path) => {
+            const prefix = literal(`${path.join(this.options.separator)}${this.options.separator}`);
+            return `SUBSTRING(${column} FROM 1 FOR CHAR_LENGTH(${prefix})) = ${prefix}`;
+          })
+          .join(" OR ")})`;
+      parts.push(`${this.nodeSelect(true)}\nFROM ${identifier(level(j + 1))}\nWHERE ${under("p")}`);
+      if (j + 1 < this.depth)
+        parts.push(`${this.ownSelect(true)}\nFROM ${identifier(keys)}\nWHERE d = ${j + 1} AND ${under("k")}`);
+    }
+    return parts.join("\nUNION ALL\n");
+  }
+
+  /** The result table's columns over a level table (p, j, n, t, m, nc, cc). */
+  private nodeSelect(stats: boolean): string {
+    const columns = [
+      `j AS ${C.depth}`,
+      ...this.levelColumns("p", "j"),
+      `n AS ${C.rows}`,
+      ...this.sizeColumns(),
+      ...(stats ? [`nc AS ${C.nodes}`, `cc AS ${C.children}`] : []),
+    ];
+    return `SELECT ${columns.join(", ")}`;
+  }
+
+  /** The result table's columns over the keys table (k, d, n, t, m), as own rows. */
+  private ownSelect(stats: boolean): string {
+    const columns = [
+      `COALESCE(d, 0) + 1 AS ${C.depth}`,
+      ...this.levelColumns("k", "d"),
+      `n AS ${C.rows}`,
+      ...this.sizeColumns(),
+      ...(stats ? [`CAST(NULL AS BIGINT) AS ${C.nodes}`, `CAST(NULL AS BIGINT) AS ${C.children}`] : []),
+    ];
+    return `SELECT ${columns.join(", ")}`;
+  }
+
+  private levelColumns(p: string, d: string): string[] {
+    return Array.from(
+      { length: this.depth },
+      (_, i) =>
+        `CASE WHEN ${d} >= ${i + 1} THEN SPLIT_PART(${p}, ${this.sep}, ${i + 1}) END AS ${C.level}${i + 1}`,
+    );
+  }
+
+  private sizeColumns(): string[] {
+    return this.hasSize ? [`t AS ${C.size}`, `m AS ${C.sizeMin}`] : [];
   }
 
   /**

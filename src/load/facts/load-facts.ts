@@ -51,6 +51,12 @@ export interface FactSession {
    * pushdown query gives what it holds.
    */
   near(foci: readonly (readonly string[])[], reach: number): Promise<Tree>;
+  /**
+   * Where the engine can fetch a family at a time (a key hierarchy): the tree of the last `near` or
+   * `widen` with the children of the nodes at `parents` (paths of names, each a node of that tree
+   * whose children were not fetched) added.
+   */
+  widen?(parents: readonly (readonly string[])[]): Promise<Tree>;
   close(): void;
 }
 
@@ -85,10 +91,21 @@ export async function openFactTable(load: FactLoad): Promise<FactSession> {
       const levels = await keyLevels(engine, load, hasSize);
       if (levels !== undefined) {
         const { level, keys } = KEY_TABLES;
+        let fetched: Columns | undefined;
+        const keep = (rows: Columns) => {
+          fetched = rows;
+          return sized(rollupTree(rows, treeOptions));
+        };
         return {
           size: levels.size,
           whole: () => fetch(levels.plan.resultSql(level, keys, false)),
-          near: (foci, reach) => fetch(levels.plan.resultSql(level, keys, true, { foci, reach })),
+          near: async (foci, reach) =>
+            keep(await run(engine, levels.plan.resultSql(level, keys, true, { foci, reach }), load)),
+          widen: async (parents) => {
+            if (fetched === undefined) throw new Error("widen() before near()");
+            const more = await run(engine, levels.plan.childrenSql(level, keys, parents), load);
+            return keep(appendRows(fetched, more));
+          },
           close: () => engine.close(),
         };
       }
@@ -161,6 +178,17 @@ async function keyLevels(
     load,
   );
   return { plan, size: Number(counted.values[0][0]) };
+}
+
+/** The rows of `b` after those of `a`, two results of the same columns. */
+function appendRows(a: Columns, b: Columns): Columns {
+  if (a.names.join("\u0000") !== b.names.join("\u0000"))
+    throw new Error(`appendRows: columns differ (${a.names.join(", ")} / ${b.names.join(", ")})`);
+  return {
+    names: a.names,
+    values: a.values.map((column, c) => [...column, ...b.values[c]]),
+    rowCount: a.rowCount + b.rowCount,
+  };
 }
 
 /** The deepest key of a key hierarchy in `file`, as the engine finds it (for the printed query). */

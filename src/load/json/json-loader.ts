@@ -13,6 +13,9 @@ import { isArrayIndexKey, reorderKeyedChildren } from "./keyed-order.js";
 import { RowsProbe } from "./rows-probe.js";
 import { C_KEEP, C_PROBE, C_ROW, Captures } from "./value-capture.js";
 
+/** A JSON number's bytes are ASCII (RFC 8259, section 6). */
+const ASCII = new TextDecoder("latin1");
+
 // What an open container is.
 const SKIP = 0; // a value nobody reads (still checked to be JSON)
 const NODE = 1;
@@ -246,7 +249,10 @@ export class JsonLoader extends JsonTokenizer {
 
   protected number(bytes: Uint8Array, s: number, e: number, absS: number, integerEnd: number): void {
     if (this.slot === S_SKIP) return;
-    this.scalar(NUMBER, "", numberValue(bytes, s, e, integerEnd), this.pos.columnAt(absS));
+    const value = numberValue(bytes, s, e, integerEnd);
+    // A number that is no size is reported as written: 9007199254740993 is not its rounded neighbour.
+    const text = isSize(value) ? "" : ASCII.decode(bytes.subarray(s, e));
+    this.scalar(NUMBER, text, value, this.pos.columnAt(absS));
   }
 
   protected word(word: Uint8Array, absS: number): void {
@@ -290,7 +296,7 @@ export class JsonLoader extends JsonTokenizer {
         const j = this.keyedChild(top);
         if (kind === NUMBER) {
           if (!isSize(value)) {
-            throw this.badSize(String(value), j, { line: this.pos.line, column });
+            throw this.badSize(text || String(value), j, { line: this.pos.line, column });
           }
           this.sink.ownSize[j] = value;
           this.sized[j] = 1;
@@ -523,7 +529,10 @@ export class JsonLoader extends JsonTokenizer {
     if (sizeKind === NUMBER) {
       const size = frame.size;
       if (!isSize(size)) {
-        throw this.badSize(String(size), i, { line: frame.sizeLine, column: frame.sizeColumn });
+        throw this.badSize(frame.sizeText || String(size), i, {
+          line: frame.sizeLine,
+          column: frame.sizeColumn,
+        });
       }
       this.sink.ownSize[i] = size;
       this.sized[i] = 1;

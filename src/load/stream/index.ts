@@ -1,14 +1,19 @@
 import { Buffer, constants } from "node:buffer";
 import { EspalierError } from "../../errors.js";
+import { buildGraphTree } from "../../model/build-graph.js";
 import { buildTree } from "../../model/build-tree.js";
+import type { GraphNodes } from "../../model/graph-nodes.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { Tree } from "../../model/tree.js";
 import { byteLoader } from "../byte-loader.js";
 import { detectFormat } from "../detect-format.js";
+import { edgeTableDelimiter, edgeTableFields, isGraph, jsonGraph, withNodeRecords } from "../graph-input.js";
+import { linkGraphTable } from "../graph-table.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
 import { limitsOf } from "../read-limits.js";
 import { csvTableFromStream } from "../table/csv-table.js";
 import { linkTable } from "../table/link-table.js";
+import { edgeListStream } from "./edge-list-stream.js";
 import { readStart } from "./read-start.js";
 
 /**
@@ -25,7 +30,7 @@ export async function loadTreeFromStream(
   const file = options.file === undefined || options.file === "-" ? undefined : options.file;
   try {
     const start = await readStart(chunks);
-    let linked: LinkedNodes;
+    let linked: LinkedNodes | GraphNodes;
     try {
       if (start.complete && !/\S/.test(start.text))
         throw new EspalierError("INPUT_EMPTY", "the input is empty");
@@ -35,7 +40,7 @@ export async function loadTreeFromStream(
       await start.close();
       throw error;
     }
-    return buildTree(linked, file);
+    return isGraph(linked) ? buildGraphTree(withNodeRecords(linked, options), file) : buildTree(linked, file);
   } catch (error) {
     if (error instanceof EspalierError && file !== undefined) throw error.inFile(file);
     throw error;
@@ -47,30 +52,63 @@ async function linkedNodes(
   format: InputFormat,
   options: LoadOptions,
   head: Uint8Array,
-): Promise<LinkedNodes> {
+): Promise<LinkedNodes | GraphNodes> {
   if (format === "yaml") {
     // The YAML parser is loaded only for YAML input (a start reads no code it does not run).
     const { loadYaml } = await import("../load-yaml.js");
-    return loadYaml(await wholeText(chunks, limitsOf(options.limits).maxYamlBytes), options);
+    return loadYaml(await wholeText(chunks, "YAML", limitsOf(options.limits).maxYamlBytes), options);
+  }
+  if (format === "edges") {
+    const delimiter = edgeTableDelimiter(new TextDecoder("utf-8", { ignoreBOM: true }).decode(head), options);
+    if (delimiter === null) return edgeListStream(chunks, options);
+    const table = await csvTableFromStream(chunks, delimiter, edgeTableFields(options));
+    try {
+      return linkGraphTable(table, options, true);
+    } finally {
+      table.release?.();
+    }
   }
   const loader = byteLoader(format, options, head);
+  // A JSON graph (rows or an adjacency map) is read whole and parsed.
+  if ((format === "json" || format === "rows") && options.graph) {
+    const bytes = await wholeBytes(chunks, "JSON");
+    const graph = jsonGraph(new TextDecoder("utf-8", { ignoreBOM: true }).decode(bytes), options);
+    if (graph) return graph;
+    // No JSON: the JSON loader reads the same bytes and places the error.
+    loader!.write(bytes);
+    return loader!.end();
+  }
   if (loader) {
     for await (const chunk of chunks) loader.write(chunk);
     return loader.end();
   }
   const table = await csvTableFromStream(chunks, format === "csv" ? "," : "\t", options);
   try {
-    return linkTable(table, options);
+    return options.graph ? linkGraphTable(table, options) : linkTable(table, options);
   } finally {
     table.release?.();
   }
 }
 
+/** The whole input as one string (YAML); LIMIT_EXCEEDED past `maxBytes` or what a string can hold. */
+async function wholeText(
+  chunks: AsyncIterable<Uint8Array>,
+  what: "YAML" | "JSON",
+  maxBytes: number = constants.MAX_STRING_LENGTH,
+): Promise<string> {
+  return new TextDecoder("utf-8", { ignoreBOM: true }).decode(await wholeBytes(chunks, what, maxBytes));
+}
+
 /**
- * The whole input as one string, for YAML; LIMIT_EXCEEDED past `maxBytes` (read-limits.ts: the YAML
- * parser holds the whole document and several times its size in nodes) or what a string can hold.
+ * The whole input as bytes (YAML, JSON graphs), at most `maxBytes` (read-limits.ts: the YAML parser
+ * holds the whole document and several times its size in nodes) and what a string can hold; else
+ * LIMIT_EXCEEDED.
  */
-async function wholeText(chunks: AsyncIterable<Uint8Array>, maxBytes: number): Promise<string> {
+async function wholeBytes(
+  chunks: AsyncIterable<Uint8Array>,
+  what: "YAML" | "JSON",
+  maxBytes: number = constants.MAX_STRING_LENGTH,
+): Promise<Buffer> {
   const most = Math.min(maxBytes, constants.MAX_STRING_LENGTH);
   const parts: Uint8Array[] = [];
   let length = 0;
@@ -80,9 +118,11 @@ async function wholeText(chunks: AsyncIterable<Uint8Array>, maxBytes: number): P
     if (length > most) {
       throw new EspalierError(
         "LIMIT_EXCEEDED",
-        `YAML input longer than ${most} bytes is not read (its parser holds the whole document); convert it to JSON, which streams`,
+        what === "YAML"
+          ? `YAML input longer than ${most} bytes is not read (its parser holds the whole document); convert it to JSON, which streams`
+          : `a JSON adjacency map or graph table longer than ${most} bytes cannot be read; write it as an edge list, which streams`,
       );
     }
   }
-  return new TextDecoder("utf-8", { ignoreBOM: true }).decode(Buffer.concat(parts, length));
+  return Buffer.concat(parts, length);
 }

@@ -34,8 +34,12 @@ function linkedNodes(body: string, format: InputFormat, options: LoadOptions): L
     case "json":
     case "rows":
       return loadJson(body, options, options.format === undefined ? undefined : format);
-    case "yaml":
-      return loadYaml(body, options);
+    case "yaml": {
+      // The reference reads trees; a YAML adjacency map is a graph (tests/graph).
+      const nodes = loadYaml(body, options);
+      if ("edgeFrom" in nodes) throw new Error("the reference loader reads trees only");
+      return nodes;
+    }
     case "csv":
       return linkTable(csvTable(body, ",", options.maxNodes), options);
     case "tsv":
@@ -45,5 +49,7 @@ function linkedNodes(body: string, format: InputFormat, options: LoadOptions): L
       reader.lines(body, 0, body.length);
       return reader.finish(options.rootName);
     }
+    case "edges":
+      throw new Error("the reference loader reads trees only; an edge list is a graph (tests/graph)");
   }
 }

@@ -1,0 +1,49 @@
+import { Buffer } from "node:buffer";
+import { EspalierError } from "../errors.js";
+import type { LoadOptions } from "../load/load-options.js";
+import { csvTableFromBytes } from "../load/table/csv-table.js";
+import { rowsTable } from "../load/table/rows-table.js";
+import type { Table } from "../load/table/table.js";
+import type { CliIO } from "./io.js";
+import { readInput } from "./read-input.js";
+
+/**
+ * The node records of a graph (`--nodes FILE`): a CSV or TSV table with a header, or a JSON array of
+ * flat records, one per node id. JSON by the `.json` extension or a first `[`; TSV by `.tsv`/`.tab` or a
+ * tab in the first line; CSV otherwise. Errors name the records file.
+ */
+export async function readNodeRecords(io: CliIO, file: string, fields: LoadOptions): Promise<Table> {
+  const shown = file === "-" ? "<stdin>" : file;
+  try {
+    const text = await readInput(io, file);
+    const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+    const lower = file.toLowerCase();
+    if (lower.endsWith(".json") || body.trimStart().startsWith("[")) {
+      let value: unknown;
+      try {
+        value = JSON.parse(body);
+      } catch (error) {
+        if (!(error instanceof SyntaxError)) throw error;
+        // The engine's message quotes the text around the fault (input: --pseudonymize must not print
+        // it); only its offset is kept.
+        const at = /position (\d+)/.exec(error.message);
+        throw new EspalierError(
+          "PARSE_JSON",
+          `invalid JSON in the node records${at ? ` at character ${Number(at[1]) + 1}` : ""}`,
+        );
+      }
+      if (!Array.isArray(value))
+        throw new EspalierError("SHAPE", "node records in JSON must be an array of objects");
+      return rowsTable(value);
+    }
+    const firstLine = body.slice(0, body.indexOf("\n") === -1 ? body.length : body.indexOf("\n"));
+    const tsv = lower.endsWith(".tsv") || lower.endsWith(".tab") || firstLine.includes("\t");
+    // The records are read by the id, name, size and kept columns (no row limit: one record per node).
+    return csvTableFromBytes(Buffer.from(body, "utf8"), tsv ? "\t" : ",", {
+      ...fields,
+      maxNodes: Number.POSITIVE_INFINITY,
+    });
+  } catch (error) {
+    throw error instanceof EspalierError ? error.inFile(shown) : error;
+  }
+}

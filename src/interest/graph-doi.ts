@@ -1,0 +1,202 @@
+import type { Measures } from "../model/measure.js";
+import type { ReferenceIndex } from "../model/reference-index.js";
+import type { Tree } from "../model/tree.js";
+import { FAR, type Scores } from "./scores.js";
+
+/** {@link Scores} of a graph: every member of the contract, and the rank of the parents of a focus. */
+export interface GraphScores extends Scores {
+  readonly rank: Int32Array;
+}
+
+/**
+ * Degree of interest on a graph (a tree with references, model/build-graph.ts): Furnas's
+ * DOI(x | y) = API(x) - D(x, y) with D the shortest-path distance in the graph, its edges taken both
+ * ways, as Furnas (CHI '86, section "General fisheye views") defines it for any structure with a
+ * distance, and as graph DOI work uses it (van Ham and Perer, IEEE TVCG 15(6), 2009). Several foci:
+ * interest(x) = API(x) - min over foci y of [D(x, y) + API(y)], the tree formula of doi.ts; a reference
+ * scores at its own place (its API) and its node's distance. Found by one breadth-first search from
+ * all foci at once, each starting at its offset API(y) (two merged queues whose keys never decrease),
+ * and, unless every focus has the same API, one plain breadth-first search for the distance to the
+ * nearest focus. Both walk the graph where
+ * the tree already holds it: a full entry's neighbours are its parent, the nodes of its child slots
+ * (entries and references) and the parents of the references to it. The interest of a slot is then
+ * read when the fit asks for it; nothing else of the tree's length is written.
+ *
+ * Order guarantees (interest/order.ts): a node's full entry never scores above its parent's, because
+ * API drops by at least one per level and D by at most one along an edge; ties between them are broken
+ * by `distance`, which grows by at least one from a parent that is not forced to a child. A focus with
+ * several parents: each reference to it, with the path above it, scores at least 0 and carries a rank
+ * (nearest a root first), so its parents show before other context, nearest first.
+ */
+export function graphInterest(
+  tree: Tree,
+  measures: Measures,
+  api: Float64Array,
+  foci: Int32Array,
+  refs: ReferenceIndex,
+): GraphScores {
+  const n = tree.length;
+  const { parent, depth } = tree;
+  const to = tree.referenceTo!;
+  const { count } = measures;
+  const rank = new Int32Array(n).fill(FAR);
+  if (foci.length === 0) {
+    const top = api[0];
+    return {
+      forcedNodes: Int32Array.of(0),
+      interestOf: (x) => api[x] - top,
+      distanceOf: () => FAR,
+      isForced: (x) => x === 0,
+      rank,
+    };
+  }
+  const { start, refs: refSlots } = refs;
+
+  // Key K(x) = min over foci of D(x, y) + API(y), settled in increasing order: the foci, sorted by their
+  // offset, and the queue of nodes reached (keys never decrease in it) are merged.
+  const sources = Int32Array.from(foci).sort((a, b) => api[a] - api[b] || a - b);
+  // key[x]: the best offset reaching x so far; final once x is settled.
+  const key = new Float64Array(n).fill(Number.POSITIVE_INFINITY);
+  const settled = new Uint8Array(n);
+  const queue = new Int32Array(n);
+  let head = 0;
+  let tail = 0;
+  let next = 0;
+  while (next < sources.length || head < tail) {
+    let x: number;
+    if (head < tail && (next === sources.length || key[queue[head]] <= api[sources[next]])) x = queue[head++];
+    else {
+      x = sources[next++];
+      if (api[x] < key[x]) key[x] = api[x];
+    }
+    if (settled[x] === 1) continue;
+    settled[x] = 1;
+    const reach = key[x] + 1;
+    // The neighbours of x, in a fixed order: its parent, its child slots' nodes, its references' parents.
+    let w = parent[x];
+    if (w >= 0 && reach < key[w]) {
+      key[w] = reach;
+      queue[tail++] = w;
+    }
+    for (let c = x + 1, end = x + count[x]; c < end; c += count[c]) {
+      w = to[c] === -1 ? c : to[c];
+      if (reach < key[w]) {
+        key[w] = reach;
+        queue[tail++] = w;
+      }
+    }
+    for (let j = start[x], end = start[x + 1]; j < end; j++) {
+      w = parent[refSlots[j]];
+      if (reach < key[w]) {
+        key[w] = reach;
+        queue[tail++] = w;
+      }
+    }
+  }
+
+  // Edges to the nearest focus. When every focus has the same API c, K(x) = D(x, nearest focus) + c, so
+  // the distance is K(x) - c (rounded: K was summed in doubles, and the true value is a whole number).
+  // Otherwise a plain breadth-first search over the same neighbours.
+  const offset = api[sources[0]];
+  const raw =
+    api[sources[sources.length - 1]] === offset ? null : plainDistances(tree, count, foci, refs, queue);
+  const edges = (node: number): number => (raw === null ? Math.round(key[node] - offset) : raw[node]);
+
+  // Forced: the root, the foci and the ancestors of their full entries.
+  const forced = new Uint8Array(n);
+  forced[0] = 1;
+  const forcedNodes: number[] = [0];
+  for (const y of foci) {
+    for (let a = y; a !== -1 && forced[a] === 0; a = parent[a]) {
+      forced[a] = 1;
+      forcedNodes.push(a);
+    }
+  }
+
+  // The references to a focus, nearest a root first, and the paths above them: ranked, at least 0.
+  const parentRefs: number[] = [];
+  for (const y of foci) for (let j = start[y]; j < start[y + 1]; j++) parentRefs.push(refSlots[j]);
+  parentRefs.sort((a, b) => depth[a] - depth[b] || a - b);
+  parentRefs.forEach((s, r) => {
+    for (let a = s; a !== -1 && rank[a] === FAR; a = parent[a]) rank[a] = r;
+  });
+
+  // A slot's distance, found when asked and kept (queue is free again: 0 unknown, else distance + 1).
+  // The tie-break distance of a slot that is not forced is at least its parent's plus one, so a parent
+  // comes first among equal values.
+  const known = queue.fill(0);
+  const path: number[] = [];
+  const distanceOf = (x: number): number => {
+    if (known[x] !== 0) return known[x] - 1;
+    // Up to a slot whose distance is known, forced, or the root; then down again.
+    let a = x;
+    while (known[a] === 0 && forced[a] === 0 && parent[a] >= 0) {
+      path.push(a);
+      a = parent[a];
+    }
+    let d = known[a] !== 0 ? known[a] - 1 : edges(to[a] === -1 ? a : to[a]);
+    known[a] = d + 1;
+    while (path.length > 0) {
+      const s = path.pop()!;
+      const own = edges(to[s] === -1 ? s : to[s]);
+      d = own <= d ? d + 1 : own;
+      known[s] = d + 1;
+    }
+    return d;
+  };
+  return {
+    forcedNodes: Int32Array.from(forcedNodes).sort(),
+    interestOf(x) {
+      const v = api[x] - key[to[x] === -1 ? x : to[x]];
+      return rank[x] !== FAR && v < 0 ? 0 : v;
+    },
+    distanceOf,
+    isForced: (x) => forced[x] === 1,
+    rank,
+  };
+}
+
+/** Edges from every full entry to the nearest focus: a breadth-first search (`queue`: n long, scratch). */
+function plainDistances(
+  tree: Tree,
+  count: Int32Array,
+  foci: Int32Array,
+  refs: ReferenceIndex,
+  queue: Int32Array,
+): Int32Array {
+  const { parent } = tree;
+  const to = tree.referenceTo!;
+  const { start, refs: refSlots } = refs;
+  const raw = new Int32Array(tree.length).fill(FAR);
+  let head = 0;
+  let tail = 0;
+  for (const y of foci) {
+    if (raw[y] === 0) continue;
+    raw[y] = 0;
+    queue[tail++] = y;
+  }
+  while (head < tail) {
+    const x = queue[head++];
+    const d = raw[x] + 1;
+    let w = parent[x];
+    if (w >= 0 && raw[w] === FAR) {
+      raw[w] = d;
+      queue[tail++] = w;
+    }
+    for (let c = x + 1, end = x + count[x]; c < end; c += count[c]) {
+      w = to[c] === -1 ? c : to[c];
+      if (raw[w] === FAR) {
+        raw[w] = d;
+        queue[tail++] = w;
+      }
+    }
+    for (let j = start[x], end = start[x + 1]; j < end; j++) {
+      w = parent[refSlots[j]];
+      if (raw[w] === FAR) {
+        raw[w] = d;
+        queue[tail++] = w;
+      }
+    }
+  }
+  return raw;
+}

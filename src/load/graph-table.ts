@@ -1,0 +1,289 @@
+import { EspalierError } from "../errors.js";
+import type { GraphNodes } from "../model/graph-nodes.js";
+import { isSize } from "../model/size-rule.js";
+import type { LoadOptions } from "./load-options.js";
+import { limitExceeded } from "./node-sink.js";
+import { parseSize } from "./parse-size.js";
+import { fieldSizeUnit } from "./size-unit.js";
+import type { Cell, Table } from "./table/table.js";
+
+type Fields = Pick<
+  LoadOptions,
+  | "idField"
+  | "parentField"
+  | "childField"
+  | "nameField"
+  | "sizeField"
+  | "keepFields"
+  | "rootName"
+  | "maxNodes"
+>;
+
+/**
+ * A table read as a graph. With an id and a parent column (`--graph`), each row links its id to its
+ * parent, and an id may repeat with other parents: the first row of an id gives the node's record
+ * (name, size, kept fields); a later row of it may leave those cells empty or repeat them, and a
+ * different value is DUPLICATE_ID, as is a row that repeats an id with the same parent. An empty parent
+ * declares the node only. A parent no row has as its id is MISSING_PARENT. With a parent and a child
+ * column instead (an edge table), each row is one edge and nodes come from the ids the rows name; the
+ * name, size and kept columns then describe nothing and are not read (give node records separately).
+ */
+export function linkGraphTable(table: Table, options: Fields, edgesOnly = false): GraphNodes {
+  if (table.length === 0) throw new EspalierError("INPUT_EMPTY", "the table has no data rows");
+  const parents = table.column(options.parentField);
+  const ids = edgesOnly ? undefined : table.column(options.idField);
+  if (ids && parents) return linkRows(table, ids, parents, options);
+  const children = table.column(options.childField);
+  if (parents && children) return linkEdges(table, parents, children, options);
+  throw new EspalierError(
+    "FIELD_MISSING",
+    `a graph table needs "${options.idField}" and "${options.parentField}" columns, or "${options.parentField}" and "${options.childField}"; ` +
+      `the columns are ${table
+        .columnNames()
+        .map((c) => JSON.stringify(c))
+        .join(", ")}`,
+  );
+}
+
+function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly Cell[], options: Fields) {
+  const rows = table.length;
+  const names = table.column(options.nameField);
+  const sizes = table.column(options.sizeField);
+  const kept = keptColumns(table, options);
+  const nodeOf = new Map<string, number>();
+  const ids: string[] = [];
+  const name: string[] = [];
+  const ownSize: number[] = [];
+  const origin: number[] = [];
+  const fields = new Map<string, string[]>([...kept.keys()].map((k) => [k, []]));
+  const firstRow: number[] = [];
+  const nodeOfRow = new Int32Array(rows);
+  for (let r = 0; r < rows; r++) {
+    const id = text(idCells[r]);
+    if (id === "")
+      throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${options.idField}"`, { row: r + 1 });
+    const rowName = names ? text(names[r]) : "";
+    const hasSize = sizes !== undefined && text(sizes[r]) !== "";
+    const size = sizes ? sizeOf(sizes[r], table.textCells, r + 1, options.sizeField) : 0;
+    let node = nodeOf.get(id);
+    if (node === undefined) {
+      node = ids.length;
+      if (node >= options.maxNodes) throw limitExceeded(options.maxNodes, true, r + 1);
+      nodeOf.set(id, node);
+      ids.push(id);
+      name.push(rowName || id);
+      ownSize.push(size);
+      origin.push(r + 1);
+      firstRow.push(r);
+      for (const [key, values] of kept) fields.get(key)!.push(values[r]);
+    } else {
+      const first = firstRow[node] + 1;
+      const clash = (what: string) =>
+        new EspalierError(
+          "DUPLICATE_ID",
+          `row ${r + 1} repeats the ${options.idField} ${JSON.stringify(id)} of row ${first} with another ${what}`,
+          { row: r + 1 },
+        );
+      if (rowName !== "" && rowName !== name[node]) throw clash(options.nameField);
+      if (hasSize && size !== ownSize[node]) throw clash(options.sizeField);
+      for (const [key, values] of kept)
+        if (values[r] !== "" && values[r] !== fields.get(key)![node]) throw clash(key);
+    }
+    nodeOfRow[r] = node;
+  }
+  const from = new Int32Array(rows);
+  const to = new Int32Array(rows);
+  const edgeOrigin = new Int32Array(rows);
+  let edges = 0;
+  for (let r = 0; r < rows; r++) {
+    const cell = parentCells[r];
+    const parentId = text(cell);
+    if (parentId === "") continue;
+    const p = nodeOf.get(parentId);
+    if (p === undefined) {
+      throw new EspalierError(
+        "MISSING_PARENT",
+        `row ${r + 1} names the ${options.parentField} ${JSON.stringify(parentId)}, which no row has as its ${options.idField}`,
+        { row: r + 1 },
+      );
+    }
+    from[edges] = p;
+    to[edges] = nodeOfRow[r];
+    edgeOrigin[edges] = r + 1;
+    edges++;
+  }
+  return {
+    name,
+    ids,
+    ownSize: Float64Array.from(ownSize),
+    hasSizes: sizes !== undefined,
+    sizeUnit: fieldSizeUnit(options.sizeField),
+    origin: Int32Array.from(origin),
+    originIsRow: true,
+    fields,
+    rootName: options.rootName,
+    edgeFrom: from,
+    edgeTo: to,
+    edgeOrigin,
+    edgeCount: edges,
+    repeatedEdges: "error",
+  } satisfies GraphNodes;
+}
+
+function linkEdges(table: Table, parentCells: readonly Cell[], childCells: readonly Cell[], options: Fields) {
+  const rows = table.length;
+  const nodeOf = new Map<string, number>();
+  const ids: string[] = [];
+  const origin: number[] = [];
+  const idOf = (cell: Cell, r: number, field: string) => {
+    const id = text(cell);
+    if (id === "") throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${field}"`, { row: r + 1 });
+    let node = nodeOf.get(id);
+    if (node === undefined) {
+      node = ids.length;
+      if (node >= options.maxNodes) throw limitExceeded(options.maxNodes, true, r + 1);
+      nodeOf.set(id, node);
+      ids.push(id);
+      origin.push(r + 1);
+    }
+    return node;
+  };
+  const from = new Int32Array(rows);
+  const to = new Int32Array(rows);
+  const edgeOrigin = new Int32Array(rows);
+  for (let r = 0; r < rows; r++) {
+    from[r] = idOf(parentCells[r], r, options.parentField);
+    to[r] = idOf(childCells[r], r, options.childField);
+    edgeOrigin[r] = r + 1;
+  }
+  return {
+    name: ids,
+    ids,
+    ownSize: new Float64Array(ids.length),
+    hasSizes: false,
+    sizeUnit: "number",
+    origin: Int32Array.from(origin),
+    originIsRow: true,
+    fields: new Map(),
+    rootName: options.rootName,
+    edgeFrom: from,
+    edgeTo: to,
+    edgeOrigin,
+    edgeCount: rows,
+    repeatedEdges: "skip",
+  } satisfies GraphNodes;
+}
+
+/**
+ * Node records from a second table (an id column, and name, size and kept columns) laid over a graph's
+ * nodes: a record's name (when not empty), size and fields become the node's. A record whose id no edge
+ * names adds a node with no edge, after the others, in record order. A repeated record id is
+ * DUPLICATE_ID; the positions name the records' rows.
+ */
+export function withRecords(graph: GraphNodes, records: Table, options: Fields): GraphNodes {
+  const idCells = records.column(options.idField);
+  if (!idCells) {
+    throw new EspalierError(
+      "FIELD_MISSING",
+      `the node records need an "${options.idField}" column; the columns are ${records
+        .columnNames()
+        .map((c) => JSON.stringify(c))
+        .join(", ")}`,
+    );
+  }
+  const names = records.column(options.nameField);
+  const sizes = records.column(options.sizeField);
+  const kept = keptColumns(records, options);
+  const n = graph.origin.length;
+  const idList: string[] = [];
+  const nodeOf = new Map<string, number>();
+  for (let i = 0; i < n; i++) {
+    const id = get(graph.ids, i);
+    idList.push(id);
+    nodeOf.set(id, i);
+  }
+  const nameList: string[] = [];
+  for (let i = 0; i < n; i++) nameList.push(get(graph.name, i));
+  const ownSize = [...graph.ownSize];
+  const origin = [...graph.origin];
+  const fields = new Map<string, string[]>([...kept.keys()].map((k) => [k, new Array<string>(n).fill("")]));
+  const seen = new Map<number, number>();
+  for (let r = 0; r < records.length; r++) {
+    const id = text(idCells[r]);
+    if (id === "")
+      throw new EspalierError("SHAPE", `record ${r + 1} has an empty "${options.idField}"`, { row: r + 1 });
+    let node = nodeOf.get(id);
+    if (node === undefined) {
+      node = idList.length;
+      if (node >= options.maxNodes) throw limitExceeded(options.maxNodes, true, r + 1);
+      nodeOf.set(id, node);
+      idList.push(id);
+      nameList.push(id);
+      ownSize.push(0);
+      origin.push(0);
+      for (const column of fields.values()) column.push("");
+    }
+    const earlier = seen.get(node);
+    if (earlier !== undefined) {
+      throw new EspalierError(
+        "DUPLICATE_ID",
+        `record ${r + 1} repeats the ${options.idField} ${JSON.stringify(id)} of record ${earlier + 1}`,
+        { row: r + 1 },
+      );
+    }
+    seen.set(node, r);
+    const label = names ? text(names[r]) : "";
+    if (label !== "") nameList[node] = label;
+    if (sizes) ownSize[node] = sizeOf(sizes[r], records.textCells, r + 1, options.sizeField);
+    for (const [key, values] of kept) fields.get(key)![node] = values[r];
+  }
+  return {
+    ...graph,
+    name: nameList,
+    ids: idList,
+    ownSize: Float64Array.from(ownSize),
+    hasSizes: graph.hasSizes || sizes !== undefined,
+    sizeUnit: sizes !== undefined ? fieldSizeUnit(options.sizeField) : graph.sizeUnit,
+    origin: Int32Array.from(origin),
+    fields,
+  };
+}
+
+function get(names: GraphNodes["name"], i: number): string {
+  return Array.isArray(names) ? (names as string[])[i] : (names as { get(i: number): string }).get(i);
+}
+
+function keptColumns(table: Table, options: Fields): Map<string, string[]> {
+  const values = new Map<string, string[]>();
+  for (const key of options.keepFields) {
+    const cells = table.column(key);
+    if (!cells) {
+      throw new EspalierError(
+        "FIELD_MISSING",
+        `no column "${key}" to keep; the columns are ${table
+          .columnNames()
+          .map((c) => JSON.stringify(c))
+          .join(", ")}`,
+      );
+    }
+    values.set(key, cells.map(text));
+  }
+  return values;
+}
+
+function sizeOf(cell: Cell, textCells: boolean, row: number, field: string): number {
+  if (cell === undefined || cell === null) return 0;
+  const value =
+    typeof cell === "number" ? cell : textCells && typeof cell === "string" ? parseSize(cell) : Number.NaN;
+  if (isSize(value)) return value;
+  throw new EspalierError(
+    "BAD_SIZE",
+    `the "${field}" of row ${row} must be a number from 0 to 2^53 - 1, got ${JSON.stringify(cell)}`,
+    { row },
+  );
+}
+
+function text(cell: Cell): string {
+  if (cell === undefined || cell === null) return "";
+  return typeof cell === "string" ? cell : String(cell);
+}

@@ -1,0 +1,34 @@
+import type { NamePool } from "./names.js";
+import type { TreeReading } from "./tree.js";
+
+/**
+ * A graph as a loader found it: nodes (records) and edges parent -> child in input order. A node may be
+ * the child of several parents, and edges may form cycles; {@link buildGraphTree} turns it into a
+ * spanning tree with one-line references.
+ */
+export interface GraphNodes {
+  /** Names, one per node (the id where the input gives no name). */
+  name: NamePool | readonly string[];
+  /** Ids, one per node: what edges name. */
+  ids: NamePool | readonly string[];
+  ownSize: Float64Array;
+  hasSizes: boolean;
+  /** What the sizes count (plain numbers when there are none). */
+  sizeUnit: TreeReading["sizeUnit"];
+  /** 1-based line or row where each node first appears. */
+  origin: Int32Array;
+  originIsRow: boolean;
+  /** Extra record fields kept for labels, one string per node. */
+  fields: Map<string, string[]>;
+  /** Name of the root espalier adds when there are several top-level nodes. */
+  rootName: string;
+  /** Edge k goes from node `edgeFrom[k]` (the parent) to node `edgeTo[k]` (the child). */
+  edgeFrom: Int32Array;
+  edgeTo: Int32Array;
+  /** 1-based line or row of each edge (in the same unit as `origin`). */
+  edgeOrigin: Int32Array;
+  /** Number of edges (the arrays may be longer). */
+  edgeCount: number;
+  /** A repeated edge (same parent, same child): read once ("skip"), or DUPLICATE_ID at its row ("error"). */
+  repeatedEdges: "skip" | "error";
+}
