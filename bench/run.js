@@ -132,12 +132,52 @@ if (!options.big && !options.diffOnly)
   results.graph = options.graph
     ? benchGraph({ nodes: options.graphNodes, repeat: options.repeat, log })
     : { skipped: true, reason: "--no-graph" };
+results.deepSvg = benchDeepSvg();
 results.loadAfter = loadavg()[0];
 
 mkdirSync(outDir, { recursive: true });
 writeFileSync(join(outDir, "results.json"), `${JSON.stringify(results, null, 2)}\n`);
 process.stdout.write(report(results));
+process.stdout.write(deepSvgLine(results.deepSvg));
 log(`\nwrote ${relative(repoRoot, join(outDir, "results.json"))}`);
+
+// ---------------------------------------------------------------------------------------------------------
+// Issue 12.7: the SVG of a deep chain takes time linear in its shown nodes
+
+/** Nodes of the chain; the target is the issue's: under 10 s on the command line. */
+const DEEP_SVG = { nodes: 100_000, targetS: 10 };
+
+/**
+ * `espalier chain.paths --focus-from bottom.txt --format svg` on a path list whose one line is a chain
+ * of DEEP_SVG.nodes names, the focus at its bottom: every node is shown, one row each in the picture.
+ */
+function benchDeepSvg() {
+  mkdirSync(outDir, { recursive: true });
+  const names = Array.from({ length: DEEP_SVG.nodes }, (_, i) => `n${i}`);
+  const file = join(outDir, "deep-chain.paths");
+  const foci = join(outDir, "deep-chain.focus");
+  writeFileSync(file, `${names.join("/")}\n`);
+  writeFileSync(foci, `${names.slice(1).join("/")}\n`);
+  const start = process.hrtime.bigint();
+  const r = spawnSync(
+    process.execPath,
+    [cliScript, file, "--focus-from", foci, "--budget", "3", "--format", "svg"],
+    {
+      maxBuffer: 2 ** 31,
+    },
+  );
+  const seconds = Number(process.hrtime.bigint() - start) / 1e9;
+  if (r.status !== 0) throw new Error(`deep-chain SVG failed: ${r.stderr}`);
+  return { nodes: DEEP_SVG.nodes, seconds, bytes: r.stdout.length, targetS: DEEP_SVG.targetS };
+}
+
+function deepSvgLine(d) {
+  return (
+    `\nSVG of a ${d.nodes.toLocaleString("en-US")}-deep chain (focus at the bottom, every node drawn): ` +
+    `${d.seconds.toFixed(1)} s, ${(d.bytes / MiB).toFixed(1)} MiB of SVG; target < ${d.targetS} s: ` +
+    `${passMiss(d.seconds < d.targetS)}\n`
+  );
+}
 
 // ---------------------------------------------------------------------------------------------------------
 // One format at one size

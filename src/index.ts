@@ -34,10 +34,18 @@ export { renderDiffMarkdown } from "./render/diff-markdown.js";
 export { DIFF_FORMAT, type DiffSummary, diffSchema } from "./render/diff-schema.js";
 export { renderDiffText } from "./render/diff-text.js";
 export { formatSize, type Units } from "./render/format-size.js";
+export { type HeaderOptions, summaryHeader } from "./render/header.js";
 export { renderSvg } from "./render/icicle-svg.js";
 export { type LineGroup, lineGroups } from "./render/line-groups.js";
-export { CHAIN_JOIN, type LayoutOptions, type LineParts, layoutLine } from "./render/line-layout.js";
-export { lineParts, MARK } from "./render/line-parts.js";
+export {
+  CHAIN_JOIN,
+  type LayoutOptions,
+  type LineParts,
+  layoutLine,
+  MIN_WIDTH,
+} from "./render/line-layout.js";
+export { lineParts } from "./render/line-parts.js";
+export { LEGEND_LINES, legendLines, MARK } from "./render/marks.js";
 export { type Palette, palette } from "./render/palette.js";
 export { renderJson, toSummary } from "./render/summary-json.js";
 export { renderMarkdown } from "./render/summary-markdown.js";

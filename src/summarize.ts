@@ -13,7 +13,9 @@ import { type ReferenceIndex, referenceIndex } from "./model/reference-index.js"
 import { escapeSegment } from "./model/segment.js";
 import type { Tree } from "./model/tree.js";
 import { buildView } from "./view/build-view.js";
+import { hierarchyOf } from "./view/hierarchy-of.js";
 import { compileLabel } from "./view/label.js";
+import { orderSiblings, type SiblingOrder } from "./view/sibling-order.js";
 import type { ViewNode } from "./view/view-node.js";
 
 /** A loaded tree with its aggregates: load once, then summarise for many foci and budgets. */
@@ -54,6 +56,8 @@ export interface SummarizeOptions {
   headerLines?: number;
   /** Print a run of only children as one line (see fit/select.ts lineCost); default false. */
   chains?: boolean;
+  /** Order of shown siblings in the view; default input order. */
+  siblingOrder?: SiblingOrder;
 }
 
 export interface SummaryResult {
@@ -98,7 +102,7 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
       : (i: number) => index.path(i, (j) => escapeSegment(nameOf(j)));
   const idOf = hiddenIds(tree, key);
   const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf, (i) => idOf(i) ?? "");
-  const view = buildView(
+  let view = buildView(
     index,
     scores,
     foci,
@@ -109,6 +113,10 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
     idOf,
     parentsOf(prepared, selection),
   );
+  if (options.siblingOrder && options.siblingOrder !== "input") {
+    orderSiblings(view.data, options.siblingOrder, tree.hasSizes);
+    view = hierarchyOf(view.data);
+  }
   return { view, selection, scores, foci, fociPaths: [...foci].map(pathOf) };
 }
 

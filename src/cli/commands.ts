@@ -238,7 +238,8 @@ export const commands: Record<CommandName, CommandSpec> = {
     ],
     notes:
       "It needs a terminal; keys come from the terminal even when standard input holds a version. " +
-      "--budget, --format and --output belong to printed summaries and are not taken.",
+      "--budget, --format, --output, --bare, --legend, --share and --sibling-order belong to printed " +
+      "summaries and are not taken.",
     exitStatus: [
       [0, "left with q or p"],
       [2, "a usage or input error (nothing drawn)"],

@@ -5,7 +5,7 @@ import { EXIT } from "./exit-codes.js";
 import { loadVersions, pseudonymKey, readFoci } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { DiffCliOptions } from "./options.js";
-import { defaultBudget, outputSettings } from "./output-settings.js";
+import { defaultBudget, headerLinesFor, outputSettings } from "./output-settings.js";
 import { diffRenderers } from "./renderers.js";
 
 /** Reads, compares and renders two versions; returns the text to print and the exit code. */
@@ -25,6 +25,8 @@ export async function diffCommand(
     label: opts.label,
     pseudonymKey: key,
     chains: opts.chains,
+    headerLines: headerLinesFor(opts, "diff"),
+    siblingOrder: opts.siblingOrder,
     compareFields: opts.compareField,
   });
   const { tree } = result.combined;

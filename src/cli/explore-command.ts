@@ -95,7 +95,10 @@ export async function exploreCommand(
   const importance = end.state.spec.importance;
   const tail = importance !== "depth" || setup.configSetsImportance ? ["--importance", importance] : [];
   const paths = [...fociOf(end.state.spec)].map((i) => session.pathOf(i));
-  return { text: `${commandLine(head, paths, end.state.rows - STATUS_ROWS, tail)}\n`, exitCode: EXIT.ok };
+  return {
+    text: `${commandLine(head, paths, end.state.rows - STATUS_ROWS, tail, session.headerLines === 0)}\n`,
+    exitCode: EXIT.ok,
+  };
 }
 
 /** Options the printed command line sets itself, or that do not change what it prints. */

@@ -1,6 +1,7 @@
 import * as z from "zod";
 import { importances } from "../interest/importance.js";
 import { inputFormats } from "../load/load-options.js";
+import { siblingOrders } from "../view/sibling-order.js";
 
 // Options are validated once a run: zod's compiled fast path (generated code, made on first use) costs
 // more than it saves there (start-up, issue 14). Set before any schema below is made.
@@ -16,6 +17,8 @@ export type OutputFormat = (typeof outputFormats)[number];
 export const colorModes = ["auto", "always", "never"] as const;
 /** How sizes print. */
 export const unitChoices = ["auto", "bytes", "plain"] as const;
+/** What a node's share (in percent) is of: nothing printed, the whole tree, the line above. */
+export const shareChoices = ["none", "total", "parent"] as const;
 
 /** When a fact table's rollup is fetched only as deep as the summary reaches. */
 export const pushdownModes = ["auto", "always", "never"] as const;
@@ -166,6 +169,35 @@ export const sharedOptions = {
       .boolean()
       .default(false)
       .describe("print keyed pseudonyms instead of names and ids (secret in ESPALIER_PSEUDONYM_KEY)"),
+  },
+  bare: {
+    flags: "--bare",
+    group: "Budget and layout",
+    schema: z.boolean().default(false).describe("print no header line, only the tree's lines (for scripts)"),
+  },
+  legend: {
+    flags: "--legend",
+    group: "Budget and layout",
+    schema: z
+      .boolean()
+      .default(false)
+      .describe("print what the marks and numbers mean under the header (the budget counts it)"),
+  },
+  share: {
+    flags: "--share <of>",
+    group: "Output",
+    schema: z
+      .enum(shareChoices)
+      .default("none")
+      .describe("add each node's share in percent: of the total, or of the line above"),
+  },
+  siblingOrder: {
+    flags: "--sibling-order <order>",
+    group: "Output",
+    schema: z
+      .enum(siblingOrders)
+      .default("input")
+      .describe("order of shown siblings: input, size (biggest first) or name"),
   },
   color: {
     flags: "--color <when>",
@@ -383,8 +415,20 @@ export const controlOptions = {
   },
 } satisfies Record<string, OptionSpec>;
 
-/** Options of printed output, which the interactive view (it has its own screen) does not take. */
-const printedOnly = new Set(["budget", "format", "output", "sqlTable"]);
+/**
+ * Options of printed output, which the interactive view (it has its own screen, with no header and its
+ * own order and numbers) does not take.
+ */
+const printedOnly = new Set([
+  "budget",
+  "format",
+  "output",
+  "sqlTable",
+  "bare",
+  "legend",
+  "share",
+  "siblingOrder",
+]);
 
 /** The options each command takes, by key. */
 export const commandOptions: Record<CommandName, Record<string, OptionSpec>> = {

@@ -1,5 +1,7 @@
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
+import { MIN_WIDTH } from "../render/line-layout.js";
+import { LEGEND_LINES } from "../render/marks.js";
 import { type Palette, palette } from "../render/palette.js";
 import type { CliIO } from "./io.js";
 import { DEFAULT_BUDGET, type SharedCliOptions } from "./options.js";
@@ -14,6 +16,16 @@ export interface OutputSettings {
   chains: boolean;
   /** Whether a label template was given (JSON then carries each node's label). */
   labels: boolean;
+  /** `--width` as given (an SVG is sized from it, never from the terminal); undefined without it. */
+  widthOption: number | undefined;
+  /** Whether text, Markdown and SVG start with the header line (not with --bare). */
+  header: boolean;
+  /** Whether the legend follows the header (--legend). */
+  legend: boolean;
+  /** Each node's share in percent, of the whole tree or of its parent; none when undefined. */
+  share: "total" | "parent" | undefined;
+  /** What the size measures, as the input calls it, for the header; undefined for the default `size`. */
+  sizeName: string | undefined;
 }
 
 /**
@@ -28,7 +40,17 @@ export function outputSettings(opts: SharedCliOptions, io: CliIO, tree: Tree): O
     palette: palette(useColour(opts, io)),
     chains: opts.chains,
     labels: opts.label !== undefined,
+    widthOption: opts.width,
+    header: !opts.bare,
+    legend: opts.legend,
+    share: opts.share === "none" ? undefined : opts.share,
+    sizeName: opts.sizeField === "size" ? undefined : opts.sizeField,
   };
+}
+
+/** Lines before the tree, which the budget counts: the header unless --bare, the legend with --legend. */
+export function headerLinesFor(opts: SharedCliOptions, kind: "summary" | "diff"): number {
+  return (opts.bare ? 0 : 1) + (opts.legend ? LEGEND_LINES[kind] : 0);
 }
 
 /**
@@ -49,9 +71,11 @@ export function useColour(opts: SharedCliOptions, io: CliIO): boolean {
   return io.stdout.isTTY === true;
 }
 
-/** The terminal's width when printing to one; no limit otherwise. */
+/** The terminal's width when printing to one (at least MIN_WIDTH); no limit otherwise. */
 export function defaultWidth(io: CliIO): number | undefined {
-  return io.stdout.isTTY && io.stdout.columns && io.stdout.columns > 0 ? io.stdout.columns : undefined;
+  return io.stdout.isTTY && io.stdout.columns && io.stdout.columns > 0
+    ? Math.max(MIN_WIDTH, io.stdout.columns)
+    : undefined;
 }
 
 /** The terminal's height less one line for the prompt; 40 when not printing to a terminal. */

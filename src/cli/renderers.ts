@@ -1,8 +1,11 @@
+import type { HierarchyNode } from "d3-hierarchy";
 import type { DiffResult } from "../diff/diff-trees.js";
 import type { Tree } from "../model/tree.js";
 import type { DiffTextOptions } from "../render/diff-text.js";
+import { diffHeader, fociOf, type HeaderOptions, summaryHeader } from "../render/header.js";
 import { renderText } from "../render/summary-text.js";
 import type { SummaryResult } from "../summarize.js";
+import type { ViewNode } from "../view/view-node.js";
 import type { OutputFormat } from "./options.js";
 import type { OutputSettings } from "./output-settings.js";
 
@@ -18,9 +21,12 @@ export const summaryRenderers: Record<OutputFormat, Renderer<SummaryResult>> = {
     renderText(result.view, {
       units: s.units,
       sizes: tree.hasSizes,
+      share: s.share,
       palette: s.palette,
       chains: s.chains,
       width: s.width,
+      header: headerOf(result, s),
+      legend: s.legend,
     }),
   json: async (result, s, tree) =>
     (await import("../render/summary-json.js")).renderJson(result.view, {
@@ -34,13 +40,22 @@ export const summaryRenderers: Record<OutputFormat, Renderer<SummaryResult>> = {
     (await import("../render/summary-markdown.js")).renderMarkdown(result.view, {
       units: s.units,
       sizes: tree.hasSizes,
+      share: s.share,
       chains: s.chains,
+      header: headerOf(result, s),
+      legend: s.legend,
     }),
-  svg: async (result, s, tree) =>
-    (await import("../render/icicle-svg.js")).renderSvg(result.view, {
+  svg: async (result, s, tree) => {
+    const { renderSvg, SVG_PX_PER_COLUMN } = await import("../render/icicle-svg.js");
+    const header = headerOf(result, s);
+    const numbers = { units: s.units, sizes: tree.hasSizes, share: s.share };
+    return renderSvg(result.view, {
       units: s.units,
       sizes: tree.hasSizes,
-    }),
+      width: s.widthOption === undefined ? undefined : s.widthOption * SVG_PX_PER_COLUMN,
+      heading: header && summaryHeader(result.view.data, header, numbers),
+    });
+  },
 };
 
 /** A diff in each output format (loaded when asked for, like the summary's). */
@@ -66,14 +81,17 @@ export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
       diffLines(result, s, tree.hasSizes),
     ),
   svg: async (result, s, tree) => {
-    const [{ renderSvg }, { changeTag }] = await Promise.all([
+    const [{ renderSvg, SVG_PX_PER_COLUMN }, { changeTag }] = await Promise.all([
       import("../render/icicle-svg.js"),
       import("../render/diff-line-parts.js"),
     ]);
+    const lines = diffLines(result, s, tree.hasSizes);
     return renderSvg(result.view, {
       units: s.units,
       sizes: tree.hasSizes,
       changeOf: (n) => n.change,
+      width: s.widthOption === undefined ? undefined : s.widthOption * SVG_PX_PER_COLUMN,
+      heading: lines.header && diffHeader(result.totals, result.combined.by, lines.header, lines),
       changeNote: (n) => changeTag(n, { units: s.units, sizes: tree.hasSizes }),
     });
   },
@@ -84,9 +102,26 @@ function diffLines(result: DiffResult, s: OutputSettings, sizes: boolean): DiffT
   return {
     units: s.units,
     sizes,
+    share: s.share,
     by: result.combined.by,
     palette: s.palette,
     chains: s.chains,
     width: s.width,
+    header: headerOf(result, s),
+    legend: s.legend,
+  };
+}
+
+/** The header's facts (budget, lines used, foci as printed, what the size measures); none with --bare. */
+function headerOf<T extends ViewNode>(
+  result: { view: HierarchyNode<T>; selection: { lines: number } },
+  s: OutputSettings,
+): HeaderOptions | undefined {
+  if (!s.header) return undefined;
+  return {
+    budget: s.budget,
+    lines: result.selection.lines,
+    foci: fociOf(result.view),
+    ...(s.sizeName === undefined ? {} : { sizeName: s.sizeName }),
   };
 }

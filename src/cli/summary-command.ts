@@ -5,7 +5,7 @@ import { isFactInput, summarizeFactInput } from "./fact-input.js";
 import { displayName, loadInput, pseudonymKey, readFoci, rootNameOf } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { SharedCliOptions, SummaryCliOptions } from "./options.js";
-import { defaultBudget, outputSettings } from "./output-settings.js";
+import { defaultBudget, headerLinesFor, outputSettings } from "./output-settings.js";
 import { summaryRenderers } from "./renderers.js";
 
 /** Reads, summarises and renders one input; returns the text to print (nothing is printed here). */
@@ -18,6 +18,8 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     label: opts.label,
     pseudonymKey: pseudonymKey(opts, io),
     chains: opts.chains,
+    headerLines: headerLinesFor(opts, "summary"),
+    siblingOrder: opts.siblingOrder,
   };
   const { tree, result } = await summarizeInput(io, input, opts, options);
   return summaryRenderers[opts.format](result, outputSettings(opts, io, tree), tree);

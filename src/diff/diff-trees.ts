@@ -7,7 +7,9 @@ import { PathIndex } from "../model/path-index.js";
 import { hiddenIds, pseudonym } from "../model/pseudonym.js";
 import { escapeSegment } from "../model/segment.js";
 import type { Tree } from "../model/tree.js";
+import { hierarchyOf } from "../view/hierarchy-of.js";
 import { compileLabel } from "../view/label.js";
+import { orderSiblings, type SiblingOrder } from "../view/sibling-order.js";
 import { alignRoots } from "./align-roots.js";
 import type { ChangeCounts } from "./changes.js";
 import { type Combined, combine } from "./combine.js";
@@ -35,6 +37,10 @@ export interface DiffOptions {
    * keeps its only child on a line of its own); default false.
    */
   chains?: boolean;
+  /** Lines the text rendering spends before the tree; default {@link DIFF_HEADER_LINES}. */
+  headerLines?: number;
+  /** Order of shown siblings in the view; default the combined tree's order. */
+  siblingOrder?: SiblingOrder;
 }
 
 /** Whole-diff numbers: the root's counts, and both versions' sizes. */
@@ -60,7 +66,7 @@ export interface DiffResult {
   totals: DiffTotals;
 }
 
-/** Lines the diff's text rendering spends before the tree (the totals line). */
+/** Lines the diff's text rendering spends before the tree by default (the header line). */
 export const DIFF_HEADER_LINES = 1;
 
 /** Two versions matched and combined once, so they can be summarised for many foci and budgets. */
@@ -150,7 +156,7 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
     scores,
     order,
     options.budget,
-    DIFF_HEADER_LINES,
+    options.headerLines ?? DIFF_HEADER_LINES,
     options.chains ?? false,
   );
 
@@ -168,7 +174,7 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
   };
   const idOf = hiddenIds(tree, key);
   const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf, (i) => idOf(i) ?? "");
-  const view = buildDiffView(
+  let view = buildDiffView(
     index,
     combined,
     changeMeasures,
@@ -185,6 +191,10 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
       valueOf: (v) => (key === undefined || v === "" ? v : pseudonym(key, v)),
     },
   );
+  if (options.siblingOrder && options.siblingOrder !== "input") {
+    orderSiblings(view.data, options.siblingOrder, tree.hasSizes);
+    view = hierarchyOf(view.data);
+  }
   return {
     combined,
     measures,

@@ -25,16 +25,19 @@ export function shellQuote(arg: string): string {
 
 /**
  * The command line that prints the view: `head` (the program, the inputs and the options that shape the
- * tree and its labels, as arguments), then one `--focus` per focus path and the budget.
+ * tree and its labels, as arguments), then one `--focus` per focus path, the budget, and `--bare` when
+ * the view shows no header line (a summary's; a diff's screen starts with its header, as the CLI's does).
  */
 export function commandLine(
   head: readonly string[],
   fociPaths: readonly string[],
   budget: number,
   tail: readonly string[] = [],
+  bare = true,
 ): string {
   const args = [...head];
   for (const path of fociPaths) args.push("--focus", path);
-  args.push("--budget", String(budget), ...tail);
+  // Without a header line on the screen, --bare makes the printed command spend its budget on the same tree.
+  args.push("--budget", String(budget), ...(bare ? ["--bare"] : []), ...tail);
   return args.map(shellQuote).join(" ");
 }

@@ -11,9 +11,8 @@ import { pseudonym } from "../model/pseudonym.js";
 import { escapeSegment } from "../model/segment.js";
 import type { Tree } from "../model/tree.js";
 import { diffLineParts } from "../render/diff-line-parts.js";
-import { totalsLine } from "../render/diff-text.js";
-import { shortenEnd } from "../render/display-width.js";
 import type { Units } from "../render/format-size.js";
+import { diffHeader } from "../render/header.js";
 import { lineGroups } from "../render/line-groups.js";
 import { layoutLine } from "../render/line-layout.js";
 import { lineParts } from "../render/line-parts.js";
@@ -144,7 +143,13 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
       const numbers = { units: look.units, sizes: tree.hasSizes };
       const lineOf = lineGroups(result.view, look.chains);
       const lines = [
-        shortenEnd(totalsLine(result.totals, { ...numbers, by: combined.by }), width),
+        diffHeader(
+          result.totals,
+          combined.by,
+          { budget, lines: result.selection.lines, foci: result.fociPaths },
+          numbers,
+          width,
+        ),
         ...lineOf.map((g) => layoutLine(diffLineParts(g, numbers), { width, palette: look.palette })),
       ];
       const groups = [[], ...lineOf.map((g) => g.nodes.map((n) => n.index))];

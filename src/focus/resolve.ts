@@ -4,6 +4,7 @@ import type { PathIndex } from "../model/path-index.js";
 import { pseudonym } from "../model/pseudonym.js";
 import { escapeSegment, parseSegment, splitPath } from "../model/segment.js";
 import { isGlob, matchGlob } from "./glob.js";
+import { isPrintedChain, pseudonymNames, resolvePrintedChain } from "./printed-chain.js";
 import { realView, type SuggestView, suggestFoci } from "./suggest.js";
 
 /** The node an exact path names, or -1. Glob characters are taken literally here. */
@@ -75,7 +76,10 @@ export function resolveFoci(index: PathIndex, specs: readonly string[], pseudony
   return Int32Array.from([...found].sort((a, b) => a - b));
 }
 
-/** The nodes `spec` names as a path, (when `ids`) a row id, or a glob; undefined when none. */
+/**
+ * The nodes `spec` names as a path, (when `ids`) a row id, a glob, or (when `ids`) a chain copied from a
+ * printed line (see printed-chain.ts); undefined when none.
+ */
 function matchSpec(
   index: PathIndex,
   spec: string,
@@ -102,6 +106,12 @@ function matchSpec(
   }
   if (isGlob(spec)) {
     const matches = matchGlob(tree, measures, spec);
+    if (matches.length > 0) return matches;
+  }
+  // A chain copied from a printed line (`services / ledger / src`), as the spec stands.
+  if (ids && isPrintedChain(spec)) {
+    const nameOf = pseudonymKey === undefined ? undefined : pseudonymNames(index, pseudonymKey);
+    const matches = resolvePrintedChain(index, spec, nameOf);
     if (matches.length > 0) return matches;
   }
   return undefined;

@@ -1,11 +1,11 @@
 import { type ChangeCounts, changeKinds } from "../diff/changes.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
-import { amount, type NumberOptions } from "./amount.js";
+import { amount, formatCount, type NumberOptions } from "./amount.js";
 import { shortenMiddle } from "./display-width.js";
 import { formatSize } from "./format-size.js";
 import type { LineGroup } from "./line-groups.js";
 import type { LineParts } from "./line-layout.js";
-import { foldAmount, lineParts } from "./line-parts.js";
+import { foldAmount, foldWords, lineParts } from "./line-parts.js";
 import { referenceText } from "./reference-text.js";
 import { safeText, shownLabel } from "./safe-text.js";
 
@@ -14,27 +14,37 @@ const SHORT_FROM = 8;
 
 /**
  * What the line of `group` says in a diff: the summary's parts (see `lineParts`) plus the change tag
- * of the chain's last node, the net size change after the numbers, and the changes inside the fold.
- * A removed node holds no size now, so its numbers show only its count.
+ * of the chain's last node (laid out right before its name), the net size change after its numbers,
+ * and what the fold holds: `(hidden: 9 children, 412 nodes, 3.0 MiB; 2 added, net +1.0 KiB)` or
+ * `…; none changed)`. A removed node holds no size now, so its numbers show only its count.
  */
 export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOptions): LineParts {
   const parts = lineParts(group, options);
-  const top = group.nodes[0];
   const last = group.nodes[group.nodes.length - 1];
-  const removed = top.change === "removed";
-  const numbers = top.reference
-    ? [referenceText(top.reference)]
-    : [amount(top.nodes, removed ? 0 : top.size, { ...options, sizes: options.sizes && !removed })];
-  if (options.sizes && top.nodes > 1 && top.net !== 0) numbers.push(`net ${signed(top.net, options)}`);
+  const removed = last.change === "removed";
+  const say = (o: NumberOptions, summary: string) => {
+    if (last.reference) return referenceText(last.reference);
+    const numbers = [removed ? amount(last.nodes, 0, { ...o, sizes: false }) : summary];
+    if (o.sizes && last.nodes > 1 && last.net !== 0) numbers.push(`net ${signed(last.net, o)}`);
+    return numbers.filter((s) => s !== "").join(", ");
+  };
   const hidden = last.hidden;
   const inside = hidden ? changeSummary(hidden.changes, hidden.delta, options) : "";
+  const changed = hidden ? changeKinds.reduce((n, k) => n + hidden.changes[k], 0) : 0;
+  const few = changed === 0 ? "none changed" : `${formatCount(changed)} changed`;
+  const fold = (o: NumberOptions) =>
+    hidden ? `(${foldWords(last)}, ${foldAmount(group, last, o)}; ${inside})` : "";
   return {
     ...parts,
     tag: changeTag(last, options),
     shortTag: changeTag(last, options, SHORT_FROM),
-    numbers: numbers.filter((s) => s !== "").join(", "),
-    fold: hidden ? `+${hidden.children} more: ${foldAmount(last, options)}; ${inside}` : "",
-    foldShort: hidden ? `+${hidden.children} more; ${inside}` : "",
+    tagKind: last.change,
+    numbers: say(options, parts.numbers),
+    compactNumbers: say({ ...options, compact: true }, parts.compactNumbers),
+    fold: fold(options),
+    compactFold: fold({ ...options, compact: true }),
+    foldShort: hidden ? `(${foldWords(last)}; ${few})` : "",
+    foldTiny: hidden ? `(${formatCount(hidden.children)} hidden, ${formatCount(changed)} changed)` : "",
   };
 }
 
@@ -68,14 +78,18 @@ function editValue(value: string): string {
   return value === "" ? "(none)" : shownLabel(value);
 }
 
-/** `2 added, 1 resized, net +1.0 KiB`, or `unchanged`. */
+/** `2 added, 1 resized, net +1.0 KiB`, or `none changed`. */
 export function changeSummary(changes: ChangeCounts, delta: number, options: NumberOptions): string {
-  const parts = changeKinds.filter((k) => changes[k] > 0).map((k) => `${changes[k]} ${k}`);
+  const parts = changeKinds.filter((k) => changes[k] > 0).map((k) => `${formatCount(changes[k])} ${k}`);
   if (options.sizes && delta !== 0) parts.push(`net ${signed(delta, options)}`);
-  return parts.length > 0 ? parts.join(", ") : "unchanged";
+  return parts.length > 0 ? parts.join(", ") : "none changed";
 }
 
-/** A size change with its sign: `+12 B`, `-3.0 KiB`. */
+/** A size change with its sign: `+12 B`, `-3.0 KiB` (compact plain numbers: `+12.1k`). */
 export function signed(value: number, options: NumberOptions): string {
-  return value < 0 ? formatSize(value, options.units) : `+${formatSize(Math.abs(value), options.units)}`;
+  const text =
+    options.compact && options.units === "plain"
+      ? formatCount(Math.abs(value), true)
+      : formatSize(Math.abs(value), options.units);
+  return `${value < 0 ? "-" : "+"}${text}`;
 }

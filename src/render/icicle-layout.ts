@@ -1,4 +1,5 @@
-import { type HierarchyNode, hierarchy, partition } from "d3-hierarchy";
+import { type HierarchyNode, partition } from "d3-hierarchy";
+import { hierarchyOf } from "../view/hierarchy-of.js";
 import type { ViewNode } from "../view/view-node.js";
 
 /** One block of the icicle: a shown node, or the folded remainder of one (drawn after its children). */
@@ -31,6 +32,7 @@ export interface IcicleOptions<T extends ViewNode> {
 interface Item<T extends ViewNode> {
   h: HierarchyNode<T>;
   folded: boolean;
+  children: Item<T>[];
 }
 
 /**
@@ -47,12 +49,19 @@ export function icicle<T extends ViewNode>(
   view: HierarchyNode<T>,
   options: IcicleOptions<T>,
 ): IcicleBlock<T>[] {
-  const items = hierarchy<Item<T>>({ h: view, folded: false }, ({ h, folded }) => {
-    if (folded) return null;
-    const below: Item<T>[] = (h.children ?? []).map((c) => ({ h: c, folded: false }));
-    if (h.data.hidden) below.push({ h, folded: true });
-    return below;
-  });
+  // Built without recursion and with heights in one pass (hierarchyOf): d3's own constructor walks
+  // to the root from every node, which costs depth squared on a deep chain.
+  const top: Item<T> = { h: view, folded: false, children: [] };
+  const stack = [top];
+  for (let item = stack.pop(); item !== undefined; item = stack.pop()) {
+    for (const c of item.h.children ?? []) {
+      const child: Item<T> = { h: c, folded: false, children: [] };
+      item.children.push(child);
+      stack.push(child);
+    }
+    if (item.h.data.hidden) item.children.push({ h: item.h, folded: true, children: [] });
+  }
+  const items = hierarchyOf(top);
   items.sum(({ h, folded }) => {
     if (!folded && (h.children || h.data.hidden)) return 0;
     const node = folded ? h.data.hidden! : h.data;
@@ -62,10 +71,15 @@ export function icicle<T extends ViewNode>(
 
   // Floors, bottom-up: a block needs its own floor and room for the floors beneath it.
   const floor = new Map<HierarchyNode<Item<T>>, number>();
+  // Whether a focus lies above a block, top-down in one pass (not a walk to the root per block).
+  const belowFocus = new Set<HierarchyNode<Item<T>>>();
+  items.eachBefore((b) => {
+    const p = b.parent;
+    if (p && (belowFocus.has(p) || (!p.data.folded && p.data.h.data.focus))) belowFocus.add(b);
+  });
   items.eachAfter((b) => {
     const { h, folded } = b.data;
-    const belowFocus = b.ancestors().some((a) => a !== b && a.data.h.data.focus);
-    const own = options.floor(h.data, folded, belowFocus);
+    const own = options.floor(h.data, folded, belowFocus.has(b));
     floor.set(
       b,
       Math.max(

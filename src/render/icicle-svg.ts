@@ -1,11 +1,11 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { type ChangeKind, changeKinds, treeChangeKinds } from "../diff/changes.js";
 import type { ViewNode } from "../view/view-node.js";
-import { amount } from "./amount.js";
-import { displayWidth, shortenMiddle } from "./display-width.js";
+import { amount, formatCount } from "./amount.js";
+import { displayWidth, shortenEnd } from "./display-width.js";
 import { formatSize, type Units } from "./format-size.js";
 import { type IcicleBlock, icicle } from "./icicle-layout.js";
-import { MARK as LINE_MARK } from "./line-parts.js";
+import { MARK as LINE_MARK } from "./marks.js";
 import { parentsText, referenceText } from "./reference-text.js";
 import { shownLabel } from "./safe-text.js";
 import { xmlEscape } from "./xml-escape.js";
@@ -18,6 +18,8 @@ export interface SvgOptions<T extends ViewNode = ViewNode> {
   width?: number;
   /** A diff's change of each node, marked by shape and colour; omit for a plain summary. */
   changeOf?: (node: T) => ChangeKind | null;
+  /** The heading above the picture: the text rendering's header (totals, foci, lines); none if undefined. */
+  heading?: string;
   /**
    * A diff's words for a node's change in its tooltip (e.g. the text format's change tag, which names
    * moved-from parents and field edits); default: the kind alone.
@@ -25,11 +27,14 @@ export interface SvgOptions<T extends ViewNode = ViewNode> {
   changeNote?: (node: T) => string;
 }
 
+/** Pixels per terminal column of `--width` when it sizes a picture. */
+export const SVG_PX_PER_COLUMN = 8;
+
 /** The look: calm greens and a warm focus; every meaning also has a shape, so colour is never alone. */
 const LOOK = {
   background: "#fbfaf6",
   ink: "#26302b",
-  quiet: "#56635b",
+  quiet: "#46524b",
   other: "#e3e8e2",
   path: "#c4d5c9",
   pathBar: "#3f5f4b",
@@ -59,11 +64,16 @@ const COLUMN = 0.62;
 const ROW = 38;
 const PAD = 5;
 const MARGIN = 10;
-const MIN_BLOCK = 4;
+const MIN_BLOCK = 2;
 const MIN_WIDTH = 200;
-/** Columns of label a block is widened to hold: on a focus path, below a focus. */
+/** Columns of label a block on a focus path is widened to hold. */
 const PATH_COLUMNS = 40;
-const BELOW_FOCUS_COLUMNS = 9;
+/** Most of the picture's width that widening the focus path may take from the shares by size. */
+export const WIDENING_CAP = 1 / 4;
+const HEADING_PX = 13;
+/** Longest path, in UTF-16 code units, a tooltip shows whole. */
+const TOOLTIP_PATH = 960;
+const HEADING_ROW = 24;
 const MARK = 8;
 const PATTERN = "espalier-folded";
 
@@ -82,15 +92,16 @@ export function renderSvg<T extends ViewNode>(view: HierarchyNode<T>, options: S
     weight: options.sizes ? "size" : "nodes",
     width: inner,
     rowHeight: ROW,
-    floor: (node, folded, belowFocus) => floorOf(node, folded, belowFocus),
-    floorShare: 2 / 3,
+    floor: (node, folded) => floorOf(node, folded),
+    floorShare: WIDENING_CAP,
   });
+  const top = options.heading ? HEADING_ROW : 0;
   const rowsHeight = blocks.reduce((h, b) => Math.max(h, b.y1), 0);
   const changed = new Set(
     blocks.map((b) => (b.folded ? null : (options.changeOf?.(b.node) ?? null))).filter((k) => k !== null),
   );
   const legend = legendItems(options, new Set(blocks.map(kindOf)), changed);
-  const legendTop = MARGIN + rowsHeight + 14;
+  const legendTop = MARGIN + top + rowsHeight + 14;
   const legendRows = layoutLegend(legend, inner);
   const height = legendTop + legendRows * LEGEND_ROW + MARGIN;
 
@@ -105,7 +116,13 @@ export function renderSvg<T extends ViewNode>(view: HierarchyNode<T>, options: S
     `<title>${xmlEscape(`Summary of ${shownLabel(view.data.label)}`)}</title>`,
     defs(),
     `<rect width="100%" height="100%" fill="${LOOK.background}"/>`,
-    `<g class="icicle" transform="translate(${MARGIN} ${MARGIN})">`,
+    ...(options.heading
+      ? [
+          `<text class="heading" x="${MARGIN}" y="${MARGIN + 15}" font-size="${HEADING_PX}" fill="${LOOK.ink}">` +
+            `${xmlEscape(shortenEnd(options.heading, Math.floor(inner / (HEADING_PX * COLUMN))))}</text>`,
+        ]
+      : []),
+    `<g class="icicle" transform="translate(${MARGIN} ${MARGIN + top})">`,
     ...ordered.map((b) => block(b, options)),
     "</g>",
     `<g class="legend" transform="translate(${MARGIN} ${num(legendTop)})" font-size="${LABEL_PX}" fill="${LOOK.ink}">`,
@@ -118,14 +135,13 @@ export function renderSvg<T extends ViewNode>(view: HierarchyNode<T>, options: S
 
 /**
  * The narrowest a block may be: a focus and its ancestors room for their label (up to 40 columns),
- * what lies below a focus room for a short label, anything else a sliver that still shows.
+ * anything else 2 pixels, so a shown node still shows. All floors together take at most
+ * {@link WIDENING_CAP} of the width; the legend says so.
  */
-function floorOf(node: ViewNode, folded: boolean, belowFocus: boolean): number {
-  const label = folded ? `+${node.hidden!.children} more` : shownLabel(node.label);
-  const columns =
-    !folded && (node.focus || node.onPath) ? PATH_COLUMNS : belowFocus ? BELOW_FOCUS_COLUMNS : 0;
-  if (columns === 0) return MIN_BLOCK;
-  return Math.max(MIN_BLOCK, Math.min(displayWidth(label), columns) * LABEL_PX * COLUMN + 2 * PAD);
+function floorOf(node: ViewNode, folded: boolean): number {
+  if (folded || !(node.focus || node.onPath)) return MIN_BLOCK;
+  const columns = Math.min(displayWidth(shownLabel(node.label)), PATH_COLUMNS);
+  return Math.max(MIN_BLOCK, columns * LABEL_PX * COLUMN + 2 * PAD);
 }
 
 function defs(): string {
@@ -208,6 +224,7 @@ function labels<T extends ViewNode>(
         LABEL_PX,
         true,
       );
+  // The numbers (and a diff's change in words) keep their own line whatever the label's cut.
   if (first === null) return out;
   const weight = !folded && node.focus ? ` font-weight="700"` : "";
   const style = folded ? ` font-style="italic"` : "";
@@ -235,19 +252,21 @@ function numbers<T extends ViewNode>(
   const { nodes, size } = folded ? node.hidden! : node;
   const sizes = options.sizes && change !== "removed";
   const always = folded;
-  const texts = [
+  const plain = [
     amount(nodes, size, { ...options, sizes, always }),
     sizes ? formatSize(size, options.units) : "",
     amount(nodes, size, { ...options, sizes: false, always }),
   ];
+  // A diff's change shows in words inside its block, before the numbers, and alone when they do not fit.
+  const texts = change ? [...plain.map((t) => (t ? `${change}: ${t}` : change)), change] : plain;
   return texts.filter((t, k) => t !== "" && texts.indexOf(t) === k);
 }
 
-/** The first text that fits `room` pixels; with `shorten`, the last cut in the middle; else null. */
+/** The first text that fits `room` pixels; with `shorten`, the last cut at its end; else null. */
 function fitted(texts: string[], room: number, px: number, shorten = false): string | null {
   const columns = Math.floor(room / (px * COLUMN));
   for (const t of texts) if (displayWidth(t) <= columns) return t;
-  return shorten && columns >= 5 ? shortenMiddle(texts[texts.length - 1], columns) : null;
+  return shorten && columns >= 2 ? shortenEnd(texts[texts.length - 1], columns) : null;
 }
 
 /** Full label, path, numbers and marks, one per line. */
@@ -264,7 +283,12 @@ function tooltip<T extends ViewNode>(
     return `+${children} more under ${label}: ${amount(nodes, size, always)}`;
   }
   const lines = [label];
-  const path = shownLabel(node.path);
+  // A deep node's path is long (a chain's grow with the square of its depth): past a few lines, the
+  // tooltip names the depth and the node instead of reading the whole path.
+  const path =
+    node.path.length > TOOLTIP_PATH
+      ? `… (depth ${formatCount(node.depth)}) / ${shownLabel(node.name)}`
+      : shownLabel(node.path);
   if (node.path !== "" && path !== label) lines.push(path);
   if (node.reference) {
     lines.push(`reference, counted at its ${referenceText(node.reference)}`);
@@ -293,7 +317,7 @@ function changeMark(kind: ChangeKind, x: number, y: number, s: number): string {
     case "renamed": // a circle
       return `<circle cx="${num(x + h)}" cy="${num(y + h)}" r="${num(h)}" fill="${fill}"/>`;
     case "edited": // a small square
-      return `<rect x="${num(x + 1)}" y="${num(y + 1)}" width="${num(s - 2)}" height="${num(s - 2)}" fill="${fill}"/>`;
+      return `<path d="M${num(x + 1)} ${num(y + 1)}h${num(s - 2)}v${num(s - 2)}h${num(2 - s)}z" fill="${fill}"/>`;
     case "resized": // a bar, like a ruler mark
       return `<path d="M${num(x)} ${num(y + h - 1.5)}h${num(s)}v3h${num(-s)}z" fill="${fill}"/>`;
     case "linked": // a ring: a new link
@@ -351,8 +375,11 @@ function legendItems<T extends ViewNode>(
       });
     }
   }
-  const stretched = drawn.has("focus") || drawn.has("path") ? `, stretched near ${near} to fit labels` : "";
-  items.push({ swatch: "", text: `width: ${options.sizes ? "size" : "node count"}${stretched}` });
+  const widened =
+    drawn.has("focus") || drawn.has("path")
+      ? `; the path to ${near} is widened to fit its labels, by at most a quarter of the width`
+      : "";
+  items.push({ swatch: "", text: `width: ${options.sizes ? "size" : "node count"}${widened}` });
   return items.map((item) => ({ ...item, x: 0, y: 0 }));
 }
 

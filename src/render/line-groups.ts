@@ -5,8 +5,12 @@ import type { ViewNode } from "../view/view-node.js";
 export interface LineGroup<T extends ViewNode = ViewNode> {
   /** Nesting level of the line (0 for the root's line). */
   level: number;
-  /** The chain, top first; its numbers are those of `nodes[0]`, its fold that of the last. */
+  /** The chain, top first; the line's mark, numbers and fold are those of the last. */
   nodes: T[];
+  /** The node of the line above (the chain top's parent), or null for the root's line. */
+  above: T | null;
+  /** The view's root, for shares of the total. */
+  root: T;
 }
 
 /**
@@ -42,7 +46,7 @@ export function lineGroups<T extends ViewNode>(view: HierarchyNode<T>, chains: b
       level.set(last, depth);
       nodes.push(last);
     }
-    groups.push({ level: depth, nodes });
+    groups.push({ level: depth, nodes, above: parent ?? null, root: view.data });
   });
   return groups;
 }

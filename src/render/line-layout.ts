@@ -1,3 +1,4 @@
+import type { ChangeKind } from "../diff/changes.js";
 import { displayWidth, shortenEnd, shortenMiddle } from "./display-width.js";
 import { noColour, type Palette } from "./palette.js";
 
@@ -7,80 +8,157 @@ export const CHAIN_JOIN = " / ";
 /**
  * What one output line says, before it is laid out: every line-based format (terminal text,
  * Markdown, the interactive view's screens) starts from this. Texts are already safe to print
- * (see `safeText`); `fold` and `foldShort` are empty when nothing is folded on the line.
+ * (see `safeText`); the fold texts are empty when nothing is folded on the line.
  */
 export interface LineParts {
   /** Nesting level: the line is indented two spaces per level. */
   level: number;
-  /** The mark that starts the line after the indentation; it carries the meaning without colour. */
+  /** The mark that starts the line after the indentation (see marks.ts); it reads without colour. */
   mark: string;
   /** Which style the mark and the label take. */
   role: "focus" | "path" | "other";
-  /** A diff's change tag (`[added]`), or "". */
+  /** A diff's change tag (`[added]`) of the line's last node, or "". */
   tag: string;
-  /** The same tag with any old path in it cut to a few columns, for narrow lines. */
+  /** The same tag with any old path or name in it cut to a few columns, for narrow lines. */
   shortTag: string;
+  /** The tag's kind, for its colour; null without a tag. */
+  tagKind: ChangeKind | null;
   /** The labels the line names: one node, or a chain of only children, top first. */
   labels: string[];
-  /** The numbers after the label (`12 nodes, 3.0 MiB`), or "". */
+  /** The last node's numbers after the labels (`12,121 nodes, 3.0 MiB`), or "". */
   numbers: string;
-  /** What is folded on the line, in full (`+3 more: 41 nodes, 2.0 MiB`). */
+  /** The same with counts and plain sizes compact (`12.1k nodes`). */
+  compactNumbers: string;
+  /** What is folded under the last node, in full (`(hidden: 3 children, 41 nodes, 2.0 MiB)`). */
   fold: string;
-  /** The same, shortened for narrow lines (`+3 more`). */
+  /** The same with compact numbers. */
+  compactFold: string;
+  /** The fold without its numbers (`(hidden: 3 children)`). */
   foldShort: string;
+  /** The fold at its shortest (`(3 hidden)`); a fold never disappears from a line. */
+  foldTiny: string;
 }
 
 export interface LayoutOptions {
   /** Widest line allowed, in terminal columns (UAX #11 widths); unlimited when undefined. */
   width?: number;
-  /** Colours for the marks, labels and numbers; none when undefined (see `palette(colour)`). */
+  /** Colours for the marks, labels, tags and numbers; none when undefined (see `palette(colour)`). */
   palette?: Palette;
 }
 
-/** Shortest label kept before other parts of a line give way to the width. */
+/** Narrowest width a line can be laid out in: a deep line's indentation gives way to keep this much. */
+export const MIN_WIDTH = 30;
+
+/** A fold at its barest, when not even its count fits: a reader still sees that something is hidden. */
+export const FOLD_SIGN = "(hidden)";
+
+/** Shortest label kept before the line's own numbers give way. */
 const MIN_LABEL = 8;
 
 /**
- * One line of text: `<indent><mark> <chain> / [<tag> ]<label>  <numbers>  <fold>`, within `width`
- * columns; a diff's tag stands right before the name it belongs to (a chain's last). What gives way,
- * in turn: the fold's numbers (`+3 more` stays), the tag's old path, the labels (cut in the middle,
- * down to a few columns), the numbers, the fold, and last the end of the line itself.
+ * One line of text, `<indent><mark> <a> / <b> / [<tag> ]<c>  <numbers>  <fold>`, within `width`
+ * columns. A diff's tag stands right before the name it belongs to, the chain's last. When the line
+ * is too wide, what gives way, in turn (the first that fits is used):
+ *   1. numbers become compact (`12.1k nodes`, plain sizes `286M`);
+ *   2. the fold keeps only how many children it hides (`(hidden: 3 children)`, then `(3 hidden)`;
+ *      in a diff with how many changed nodes it holds);
+ *   3. the tag's old path or old name is cut to a few columns;
+ *   4. the labels are cut, down to 8 columns: one name at its end, a chain in its middle (its first
+ *      and last names stay readable);
+ *   5. the line's own numbers go;
+ *   6. the labels are cut further, down to one column and `…`;
+ *   7. a deep line's indentation shrinks to a third of the width, then to its level in digits;
+ *   8. the tag keeps only its kind (`[moved]`), then the fold only its sign (`(hidden)`).
+ * A fold never goes: a reader always sees that something is hidden. At MIN_WIDTH and wider the line
+ * always fits this way; narrower (which the renderers refuse), the line's start is cut instead.
  */
 export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
   const { width } = options;
   const pal = options.palette ?? noColour;
-  const indent = "  ".repeat(p.level);
   const label = p.labels.join(CHAIN_JOIN);
   const style = p.role === "focus" ? pal.focus : p.role === "path" ? pal.path : (s: string) => s;
-  const tail = (numbers: string, fold: string) =>
-    `${numbers ? `  ${pal.quiet(numbers)}` : ""}${fold ? `  ${pal.quiet(fold)}` : ""}`;
-  // The tag goes before the last name: split a (possibly shortened) chain text there.
-  const head = (text: string, tag: string, styled: boolean) => {
+  const tagStyle = p.tagKind ? pal.change[p.tagKind] : (s: string) => s;
+  const line = (
+    indent: string,
+    text: string,
+    tag: string,
+    numbers: string,
+    fold: string,
+    styled: boolean,
+  ) => {
     const s = styled ? style : (x: string) => x;
-    if (!tag) return s(`${p.mark} ${text}`);
-    const [before, last] = splitLast(text, p.labels);
-    return `${s(p.mark)} ${before ? s(before) : ""}${styled ? pal.focus(tag) : tag} ${s(last)}`;
+    const q = styled ? pal.quiet : (x: string) => x;
+    let head: string;
+    if (!tag) head = s(`${p.mark} ${text}`);
+    else {
+      const [before, last] = splitLast(text, p.labels);
+      head = `${s(p.mark)} ${before ? s(before) : ""}${styled ? tagStyle(tag) : tag} ${s(last)}`;
+    }
+    return `${indent}${head}${numbers ? `  ${q(numbers)}` : ""}${fold ? `  ${q(fold)}` : ""}`;
   };
-  const plain = (text: string, tag: string, numbers: string, fold: string) =>
-    `${indent}${head(text, tag, false)}${numbers ? `  ${numbers}` : ""}${fold ? `  ${fold}` : ""}`;
-  const styled = (text: string, tag: string, numbers: string, fold: string) =>
-    `${indent}${head(text, tag, true)}${tail(numbers, fold)}`;
-  if (width === undefined || displayWidth(plain(label, p.tag, p.numbers, p.fold)) <= width)
-    return styled(label, p.tag, p.numbers, p.fold);
-  if (displayWidth(plain(label, p.tag, p.numbers, p.foldShort)) <= width)
-    return styled(label, p.tag, p.numbers, p.foldShort);
-  const attempts: [string, string, string][] = [
-    [p.tag, p.numbers, p.foldShort],
-    [p.shortTag, p.numbers, p.foldShort],
-    [p.shortTag, "", p.foldShort],
-    [p.shortTag, "", ""],
+  const indent = "  ".repeat(p.level);
+  if (width === undefined) return line(indent, label, p.tag, p.numbers, p.fold, true);
+  const fits = (ind: string, text: string, tag: string, numbers: string, fold: string) =>
+    displayWidth(line(ind, text, tag, numbers, fold, false)) <= width;
+  const whole: [string, string, string][] = [
+    [p.tag, p.numbers, p.fold],
+    [p.tag, p.compactNumbers, p.compactFold],
+    [p.tag, p.compactNumbers, p.foldShort],
+    [p.tag, p.compactNumbers, p.foldTiny],
+    [p.shortTag, p.compactNumbers, p.foldTiny],
   ];
-  for (const [tag, numbers, fold] of attempts) {
-    const room = width - displayWidth(plain("", tag, numbers, fold));
-    if (room >= Math.min(MIN_LABEL, displayWidth(label)))
-      return styled(shortenMiddle(label, room), tag, numbers, fold);
+  for (const [tag, numbers, fold] of whole)
+    if (fits(indent, label, tag, numbers, fold)) return line(indent, label, tag, numbers, fold, true);
+  const cut: [string, string, number][] = [
+    [p.compactNumbers, p.foldTiny, MIN_LABEL],
+    ["", p.foldTiny, MIN_LABEL],
+    ["", p.foldTiny, 1],
+  ];
+  for (const ind of [indent, shortIndent(p.level, width), `${p.level} `]) {
+    for (const [numbers, fold, least] of cut) {
+      const room = width - displayWidth(line(ind, "", p.shortTag, numbers, fold, false));
+      if (room >= Math.min(least, displayWidth(label)))
+        return line(ind, cutLabels(p.labels, room), p.shortTag, numbers, fold, true);
+    }
   }
-  return style(shortenEnd(plain(label, p.shortTag, "", ""), width));
+  // Still too wide (a diff's long tag and fold on a deep line): at the shortest indentation the tag
+  // keeps only its kind (`[moved]`), then the fold only its sign (`(hidden)`).
+  const least = indent.length <= `${p.level} `.length ? indent : `${p.level} `;
+  const kindTag = p.tagKind ? `[${p.tagKind}]` : "";
+  for (const fewest of [MIN_LABEL, 1])
+    for (const fold of [p.foldTiny, p.fold ? FOLD_SIGN : ""]) {
+      const room = width - displayWidth(line(least, "", kindTag, "", fold, false));
+      if (room >= Math.min(fewest, displayWidth(label)))
+        return line(least, cutLabels(p.labels, room), kindTag, "", fold, true);
+    }
+  // Narrower than MIN_WIDTH (the renderers refuse such a width; a small screen may still ask for it):
+  // the start of the line is cut, and the fold's sign stays at its end while the width holds it.
+  const sign = p.fold ? `  ${FOLD_SIGN}` : "";
+  const head = line(least, label, kindTag, "", "", false);
+  const room = width - displayWidth(sign);
+  if (!sign || room < 3) return style(shortenEnd(`${head}${sign}`, width));
+  return `${style(shortenEnd(head, room))}${pal.quiet(sign)}`;
+}
+
+/**
+ * Labels cut to `room` columns: one name at its end (its start is what a reader recognises), a chain
+ * in its middle, so its first name and the name the line's numbers belong to stay readable.
+ */
+export function cutLabels(labels: string[], room: number): string {
+  const text = labels.join(CHAIN_JOIN);
+  return labels.length > 1 ? shortenMiddle(text, room) : shortenEnd(text, room);
+}
+
+/**
+ * The indentation of a line too deep for `width`: at most a third of the width, with the level in
+ * digits at its end (`12 `), so the nesting can still be read.
+ */
+function shortIndent(level: number, width: number): string {
+  const full = "  ".repeat(level);
+  const most = Math.floor(width / 3);
+  if (full.length <= most) return full;
+  const digits = `${level} `;
+  return digits.length >= most ? digits : " ".repeat(most - digits.length) + digits;
 }
 
 /**

@@ -1,48 +1,67 @@
 import type { ViewNode } from "../view/view-node.js";
-import { amount, type NumberOptions } from "./amount.js";
+import { amount, formatCount, type NumberOptions, percent } from "./amount.js";
 import type { LineGroup } from "./line-groups.js";
 import type { LineParts } from "./line-layout.js";
+import { MARK } from "./marks.js";
 import { parentsText, referencesText, referenceText } from "./reference-text.js";
 import { shownLabel } from "./safe-text.js";
 
-/** Line marks; they carry the meaning without colour. `&`: a reference line of a graph. */
-export const MARK = { focus: "*", path: ">", other: "-", reference: "&" } as const;
+export { MARK };
 
 /**
  * The node converter of every line-based format: what the line of `group` says. The chain's labels,
- * the numbers of its top node, and the fold of its last. A diff adds its fields on top (see
- * `diffLineParts`).
+ * then the mark, numbers and fold of its last node, so that every number stands beside the node it
+ * belongs to and `nodes = 1 + the nodes on the lines below + hidden` holds on every line. A diff adds
+ * its fields on top (see `diffLineParts`).
  */
 export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: NumberOptions): LineParts {
   const { level, nodes } = group;
-  const top = nodes[0];
   const last = nodes[nodes.length - 1];
   const role = last.focus ? "focus" : last.onPath ? "path" : "other";
   // A reference (graphs) is a line of its own that says where its node's full entry is.
+  const top = nodes[0];
   if (top.reference) {
+    const where = referenceText(top.reference);
     return {
       level,
       mark: MARK.reference,
       role: role === "focus" ? "path" : role,
       tag: "",
       shortTag: "",
+      tagKind: null,
       labels: [shownLabel(top.label)],
-      numbers: referenceText(top.reference),
+      numbers: where,
+      compactNumbers: where,
       fold: "",
+      compactFold: "",
       foldShort: "",
+      foldTiny: "",
     };
   }
+  // A focus with several parents (graphs) says so after its fold.
   const parents = parentsText(last.parents);
+  const compact = { ...options, compact: true };
+  const say = (o: NumberOptions) => {
+    const numbers = amount(last.nodes, last.size, o);
+    const share = shareOf(group, last, o);
+    return share ? (numbers ? `${numbers}, ${share}` : share) : numbers;
+  };
+  const fold = (o: NumberOptions) =>
+    joined(last.hidden ? `(${foldWords(last)}, ${foldAmount(group, last, o)})` : "", parents);
   return {
     level,
     mark: MARK[role],
     role,
     tag: "",
     shortTag: "",
-    labels: nodes.map((n) => shownLabel(n.label)),
-    numbers: amount(top.nodes, top.size, options),
-    fold: joined(last.hidden ? `+${last.hidden.children} more: ${foldAmount(last, options)}` : "", parents),
-    foldShort: joined(last.hidden ? `+${last.hidden.children} more` : "", parents),
+    tagKind: null,
+    labels: chainLabels(group),
+    numbers: say(options),
+    compactNumbers: say(compact),
+    fold: fold(options),
+    compactFold: fold(compact),
+    foldShort: joined(last.hidden ? `(${foldWords(last)})` : "", parents),
+    foldTiny: last.hidden ? `(${formatCount(last.hidden.children)} hidden)` : "",
   };
 }
 
@@ -51,8 +70,37 @@ function joined(a: string, b: string): string {
   return a && b ? `${a}  ${b}` : a || b;
 }
 
-/** The numbers of what is folded under `node`: always with its count. */
-export function foldAmount(node: ViewNode, options: NumberOptions): string {
+/**
+ * The labels a line names, top first. A root named "/" (an absolute path listing) is glued to its
+ * only child's name as a path writes it, `/usr / bin`, not `/ / usr / bin`; the chain reads back as a
+ * focus either way (see focus/printed-chain.ts).
+ */
+export function chainLabels<T extends ViewNode>({ nodes, above }: LineGroup<T>): string[] {
+  const labels = nodes.map((n) => shownLabel(n.label));
+  if (above === null && labels.length > 1 && labels[0] === "/") labels.splice(0, 2, `/${labels[1]}`);
+  return labels;
+}
+
+/** `hidden: 3 children` (or `1 child`): how many of the node's children the fold holds. */
+export function foldWords(node: ViewNode): string {
+  const k = node.hidden!.children;
+  return `hidden: ${formatCount(k)} ${k === 1 ? "child" : "children"}`;
+}
+
+/** The numbers of what is folded under `node`: always with its count, and its share when asked. */
+export function foldAmount<T extends ViewNode>(group: LineGroup<T>, node: T, options: NumberOptions): string {
   const { nodes, size, references } = node.hidden!;
-  return amount(nodes, size, { ...options, always: true }) + referencesText(references);
+  const text = amount(nodes, size, { ...options, always: true }) + referencesText(references);
+  if (!options.share) return text;
+  const whole = options.share === "total" ? group.root : node;
+  const value = options.sizes ? size : nodes;
+  const p = percent(value, options.sizes ? whole.size : whole.nodes);
+  return p ? `${text}, ${p}` : text;
+}
+
+/** The node's share of the whole tree, or of the node on the line above, by size (or by count). */
+function shareOf<T extends ViewNode>(group: LineGroup<T>, node: T, options: NumberOptions): string {
+  if (!options.share) return "";
+  const whole = options.share === "total" ? group.root : (group.above ?? group.root);
+  return options.sizes ? percent(node.size, whole.size) : percent(node.nodes, whole.nodes);
 }

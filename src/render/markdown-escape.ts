@@ -6,10 +6,16 @@ import { safeText } from "./safe-text.js";
 const INLINE = /[\\`*_[\]<&|~$#]/g;
 const BLOCK_START = /^([+\-=>]|[0-9]+[.)])/;
 
-/** Text as CommonMark inline content that renders literally: no markup, HTML or entity survives. */
-export function markdownText(text: string, controls = true): string {
-  return (controls ? safeText(text) : text)
-    .replace(INLINE, (ch) => `\\${ch}`)
+/**
+ * Text as CommonMark inline content that renders literally: no markup, HTML or entity survives. A
+ * piece that goes in the middle of a line (`inside`) needs no guard for block starts or for spaces at
+ * its ends. Names go in code spans instead (see `codeSpan`), which also keeps GitHub's mentions and
+ * autolinks off; this is for espalier's own words and numbers.
+ */
+export function markdownText(text: string, controls = true, inside = false): string {
+  const escaped = (controls ? safeText(text) : text).replace(INLINE, (ch) => `\\${ch}`);
+  if (inside) return escaped;
+  return escaped
     .replace(BLOCK_START, (m) => `${m.slice(0, -1)}\\${m.slice(-1)}`)
     .replace(/^ +| +$/g, (spaces) => "&#32;".repeat(spaces.length));
 }

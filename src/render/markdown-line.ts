@@ -1,28 +1,56 @@
 import { CHAIN_JOIN, type LineParts } from "./line-layout.js";
-import { MARK } from "./line-parts.js";
 import { markdownText } from "./markdown-escape.js";
+import { legendLines, MARK } from "./marks.js";
 
 /**
- * One line as a CommonMark list item, at the same nesting as the text line: a diff's tag first in code
- * style, the label (a focus bold with "(focus)", its ancestors bold), the numbers after a middle dot,
- * what is folded in italics.
+ * One line as a CommonMark list item, at the same nesting as the text line. Every label is a code
+ * span, so no name can make markup, HTML, a link, or (where GitHub's extensions run) a mention, an
+ * issue reference or a bare-URL link: GitHub Flavored Markdown recognises none of them inside code.
+ * The source stays readable: a code span needs no escapes inside. A diff's tag, also a code span,
+ * stands right before the name it belongs to; a focus is bold with "(focus)", its ancestors bold, the
+ * fold in italics.
  */
 export function markdownLine(p: LineParts): string {
-  let label = p.labels.map((l) => markdownText(l, false)).join(markdownText(CHAIN_JOIN));
+  const names = p.labels.map(codeSpan);
+  if (p.tag) names[names.length - 1] = `${codeSpan(p.tag)} ${names[names.length - 1]}`;
+  let label = names.join(CHAIN_JOIN);
   // A reference line of a graph: its mark, its label, where the full entry is in italics.
   if (p.mark === MARK.reference)
-    return `${"  ".repeat(p.level)}- ${MARK.reference} ${p.tag ? `${codeSpan(p.tag)} ` : ""}${label} · *${markdownText(p.numbers)}*`;
+    return `${"  ".repeat(p.level)}- ${MARK.reference} ${label} · *${markdownText(p.numbers, true, true)}*`;
   if (p.role === "focus") label = `**${label}** (focus)`;
   else if (p.role === "path") label = `**${label}**`;
   return (
-    `${"  ".repeat(p.level)}- ${p.tag ? `${codeSpan(p.tag)} ` : ""}${label}` +
-    `${p.numbers ? ` · ${markdownText(p.numbers)}` : ""}${p.fold ? ` · *${markdownText(p.fold)}*` : ""}`
+    `${"  ".repeat(p.level)}- ${label}` +
+    `${p.numbers ? ` · ${markdownText(p.numbers, true, true)}` : ""}` +
+    `${p.fold ? ` · *${markdownText(p.fold, true, true)}*` : ""}`
   );
 }
 
-/** A code span that no backtick run inside can close (CommonMark 0.31, section 6.1). */
-function codeSpan(text: string): string {
+/**
+ * The header (already Markdown, see `markdownHeaderStyle`) as a paragraph and the legend (one line each, joined by hard line breaks), then a blank
+ * line before the list; nothing without either.
+ */
+export function markdownHead(
+  header: string | undefined,
+  legend: boolean | undefined,
+  kind: "summary" | "diff",
+): string[] {
+  const lines = [
+    ...(header ? [header] : []),
+    ...(legend ? legendLines(kind).map((l) => markdownText(l)) : []),
+  ];
+  if (lines.length === 0) return [];
+  return [...lines.map((l, k) => (k < lines.length - 1 ? `${l}\\` : l)), ""];
+}
+
+/**
+ * A code span that shows `text` exactly (CommonMark 0.31, section 6.1): a fence longer than any
+ * backtick run inside, and one space inside each fence, which the parser strips again (not around
+ * text of spaces only, which the parser keeps whole).
+ */
+export function codeSpan(text: string): string {
   const longest = Math.max(0, ...Array.from(text.matchAll(/`+/g), (m) => m[0].length));
   const fence = "`".repeat(longest + 1);
-  return `${fence} ${text} ${fence}`;
+  // Content made only of spaces is kept as it is, so it needs no padding (and must not get any).
+  return /^ *$/.test(text) ? `${fence}${text}${fence}` : `${fence} ${text} ${fence}`;
 }

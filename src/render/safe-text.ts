@@ -32,7 +32,15 @@ export const MAX_LABEL = 240;
 export function safeText(text: string, max = MAX_LABEL): string {
   // Most names are printable ASCII without "#": nothing to escape (one test, no allocation).
   if (text.length <= max && PLAIN.test(text)) return text;
-  let out = text.replace(UNSAFE, escapeUnlessKept).replace(CI_MARKER, (m) => `${m.slice(0, -1)}\\u{5b}`);
+  // Only the two ends of a very long text can show: escape those, not the whole of it, so that the
+  // deep paths of a long chain cost their ends each (the cut points lie far outside what is kept).
+  if (text.length > 4 * max) {
+    const keep = Math.floor((max - 5) / 2);
+    const head = Array.from(escapeUnsafe(text.slice(0, 2 * max))).slice(0, keep);
+    const tail = Array.from(escapeUnsafe(text.slice(-2 * max))).slice(-keep);
+    return `${head.join("")}[...]${tail.join("")}`;
+  }
+  let out = escapeUnsafe(text);
   if (out.length > max) {
     const points = Array.from(out);
     if (points.length > max) {
@@ -41,6 +49,11 @@ export function safeText(text: string, max = MAX_LABEL): string {
     }
   }
   return out;
+}
+
+/** Every unsafe or invisible character escaped (but where it shapes the text), CI markers broken. */
+function escapeUnsafe(text: string): string {
+  return text.replace(UNSAFE, escapeUnlessKept).replace(CI_MARKER, (m) => `${m.slice(0, -1)}\\u{5b}`);
 }
 
 /** A label as printed: made safe, and `""` for an empty name so the line still shows something. */

@@ -1,21 +1,31 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import type { ViewNode } from "../view/view-node.js";
 import type { NumberOptions } from "./amount.js";
+import { type HeaderOptions, markdownHeaderStyle, summaryHeader } from "./header.js";
 import { lineGroups } from "./line-groups.js";
 import { lineParts } from "./line-parts.js";
-import { markdownLine } from "./markdown-line.js";
+import { markdownHead, markdownLine } from "./markdown-line.js";
 
 export interface MarkdownOptions extends NumberOptions {
   /** Join an only child that is not a focus onto its parent's line (must match the fit's choice). */
   chains?: boolean;
+  /** The header paragraph (as the text's first line); none when undefined. */
+  header?: HeaderOptions;
+  /** The legend after the header. */
+  legend?: boolean;
 }
 
 /**
- * The summary as a CommonMark nested list, one item per line of the text rendering (so the same
- * budget holds): the focus in bold with "(focus)", its ancestors in bold, the folded remainder in
- * italics after the numbers. For pull-request comments and wiki pages.
+ * The summary as CommonMark: the header as a paragraph, then a nested list, one item per line of the
+ * text rendering (so the same budget holds): the focus in bold with "(focus)", its ancestors in bold,
+ * the fold in italics after the numbers. For pull-request comments and wiki pages: no label can make
+ * markup, a link or a mention (see `markdownText`).
  */
 export function renderMarkdown(view: HierarchyNode<ViewNode>, options: MarkdownOptions): string {
-  const lines = lineGroups(view, options.chains ?? false).map((g) => markdownLine(lineParts(g, options)));
+  const head =
+    options.header && summaryHeader(view.data, options.header, options, undefined, markdownHeaderStyle);
+  const lines = markdownHead(head, options.legend, "summary");
+  for (const group of lineGroups(view, options.chains ?? false))
+    lines.push(markdownLine(lineParts(group, options)));
   return `${lines.join("\n")}\n`;
 }

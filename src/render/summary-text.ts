@@ -1,29 +1,61 @@
 import type { HierarchyNode } from "d3-hierarchy";
+import { EspalierError } from "../errors.js";
 import type { ViewNode } from "../view/view-node.js";
 import type { NumberOptions } from "./amount.js";
+import { shortenEnd } from "./display-width.js";
+import { type HeaderOptions, summaryHeader } from "./header.js";
 import { lineGroups } from "./line-groups.js";
-import { layoutLine } from "./line-layout.js";
+import { layoutLine, MIN_WIDTH } from "./line-layout.js";
 import { lineParts } from "./line-parts.js";
+import { legendLines } from "./marks.js";
 import type { Palette } from "./palette.js";
 
 export interface TextOptions extends NumberOptions {
   palette?: Palette;
-  /** Join an only child that is not below a focus onto its parent's line (must match the fit's choice). */
+  /** Join an only child that is not a focus onto its parent's line (must match the fit's choice). */
   chains?: boolean;
-  /** Widest line allowed, in terminal columns (UAX #11 widths); unlimited when undefined. */
+  /** Widest line allowed, in terminal columns (UAX #11 widths), at least MIN_WIDTH; unlimited when undefined. */
   width?: number;
+  /** The first line: totals, foci, budget used; none when undefined (bare lines for scripts). */
+  header?: HeaderOptions;
+  /** Lines explaining the marks and numbers after the header (see `legendLines`). */
+  legend?: boolean;
 }
 
 /**
- * One line per shown node, indented two spaces a level:
- *   `<mark> <label>  <N nodes>, <size>  +<k> more: <N nodes>, <size>`
- * The folded remainder rides on its parent's line, so every line names a node and the budget buys
- * nodes. Marks: `*` a focus, `>` an ancestor of a focus, `-` any other node. With `chains`, a run of
- * only children prints as one line `a / b / c` with the numbers of its top node.
+ * A header line, then one line per shown node (or chain of only children), indented two spaces a
+ * level: `<mark> <label>  <N nodes>, <size>  (hidden: <k> children, <N nodes>, <size>)`. What is
+ * folded rides on its node's line, so every line below the header names a node and the budget buys
+ * nodes. Marks: `*` a focus, `:` on the way to one, `.` any other node. See `layoutLine` for what
+ * gives way to the width.
  */
 export function renderText(view: HierarchyNode<ViewNode>, options: TextOptions): string {
-  const lines = lineGroups(view, options.chains ?? false).map((g) =>
-    layoutLine(lineParts(g, options), options),
-  );
+  checkWidth(options.width);
+  const lines = headLines(options, (w) => summaryHeader(view.data, options.header!, options, w), "summary");
+  for (const group of lineGroups(view, options.chains ?? false))
+    lines.push(layoutLine(lineParts(group, options), options));
   return `${lines.join("\n")}\n`;
+}
+
+/** The header and legend lines a text rendering starts with, cut to the width. */
+export function headLines(
+  options: { header?: HeaderOptions; legend?: boolean; width?: number; palette?: Palette },
+  header: (width?: number) => string,
+  kind: "summary" | "diff",
+): string[] {
+  const quiet = options.palette?.quiet ?? ((s: string) => s);
+  const lines = options.header ? [quiet(header(options.width))] : [];
+  if (options.legend)
+    for (const line of legendLines(kind))
+      lines.push(quiet(options.width === undefined ? line : shortenEnd(line, options.width)));
+  return lines;
+}
+
+/** A width too narrow for a mark, a few columns of label and a fold is a usage error. */
+export function checkWidth(width: number | undefined): void {
+  if (width !== undefined && !(width >= MIN_WIDTH))
+    throw new EspalierError(
+      "USAGE",
+      `a width of ${width} columns is too narrow; lines need at least ${MIN_WIDTH} (a mark, a few characters of a name and a fold)`,
+    );
 }

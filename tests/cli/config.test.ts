@@ -7,9 +7,9 @@ const STDIN = "10\ta/x\n20\ta/y\n5\tb/z\n7\tb/w\n";
 
 describe("the project config file (.espalier.yaml, --config)", () => {
   it("is read from .espalier.yaml in the current directory when present", async () => {
-    const r = await cli(["-"], { stdin: STDIN, files: { ".espalier.yaml": "budget: 3\nfocus: [a/x]\n" } });
+    const r = await cli(["-"], { stdin: STDIN, files: { ".espalier.yaml": "budget: 4\nfocus: [a/x]\n" } });
     expect(r.code, r.stderr).toBe(0);
-    expect(r.stdout.trimEnd().split("\n")).toHaveLength(3);
+    expect(r.stdout.trimEnd().split("\n")).toHaveLength(4);
     expect(r.stdout).toContain("* x");
   });
 
@@ -28,7 +28,7 @@ describe("the project config file (.espalier.yaml, --config)", () => {
     const viaFlag = await cli(["-", "--config", "ci/espalier.yaml"], { stdin: STDIN, files });
     expect(JSON.parse(viaFlag.stdout).budget).toBe(2);
     const none = await cli(["-", "--without-config"], { stdin: STDIN, files });
-    expect(none.stdout.trimEnd().split("\n")).toHaveLength(7);
+    expect(none.stdout.trimEnd().split("\n")).toHaveLength(8); // the header and 7 nodes
   });
 
   it("rejects an unknown key or a bad value with USAGE naming the file", async () => {

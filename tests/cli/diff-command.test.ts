@@ -42,7 +42,7 @@ describe("espalier diff OLD NEW", () => {
     expect(r.code).toBe(1); // POSIX diff: 1 = differences were found
     expect(r.stderr).toBe("");
     expect(r.stdout.split("\n")[0]).toMatch(
-      /^matched by path: 1 added, 0 removed, 0 moved, 0 renamed, 0 edited, 1 resized;/,
+      /^diff by path: 1 added, 0 removed, 0 moved, 0 renamed, 0 edited, 1 resized;/,
     );
     expect(r.stdout).toContain("[resized +6 B] y");
     expect(r.stdout).toContain("[added +7 B] c");
@@ -52,7 +52,7 @@ describe("espalier diff OLD NEW", () => {
     const r = await cli(["diff", at("old.paths"), at("old.paths"), "--fail-on-change"]);
     expect(r.code).toBe(0); // POSIX diff: 0 = no differences were found
     expect(r.stdout.split("\n")[0]).toMatch(
-      /^matched by path: 0 added, 0 removed, 0 moved, 0 renamed, 0 edited, 0 resized;/,
+      /^diff by path: 0 added, 0 removed, 0 moved, 0 renamed, 0 edited, 0 resized;/,
     );
     expect(r.stdout).not.toContain("[");
   });
@@ -131,9 +131,9 @@ describe("espalier diff OLD NEW", () => {
     );
     expect(r.code).toBe(0);
     expect(r.stdout.split("\n")[0]).toMatch(
-      /^matched by id: 0 added, 0 removed, 1 moved, 0 renamed, 0 edited, 0 resized;/,
+      /^diff by id: 0 added, 0 removed, 1 moved, 0 renamed, 0 edited, 0 resized;/,
     );
-    expect(r.stdout).toMatch(/> (.* \/ )?\[moved from [^\]]+\] Marit Okonkwo-Lund/);
+    expect(r.stdout).toMatch(/: (.* \/ )?\[moved from [^\]]+\] Marit Okonkwo-Lund/);
     expect(r.stdout.trimEnd().split("\n").length).toBeLessThanOrEqual(20);
   });
 

@@ -270,7 +270,7 @@ describe("espalier explore", () => {
     // The first frame: the totals line, then the tree with both changes shown.
     const frames = terminal.written.split(HOME);
     const first = frames[1].split("\r\n").map((row) => row.split(ERASE_LINE)[0]);
-    expect(first[0]).toMatch(/^ {2}matched by path: 1 added, 1 removed/);
+    expect(first[0]).toMatch(/^ {2}diff by path: 1 added, 1 removed/);
     expect(first.join("\n")).toContain("[removed] a2");
     expect(first.join("\n")).toContain("[added] b2");
     // n went to the first change (a2, removed), then the next (b2, added): the view ends focused on b2.

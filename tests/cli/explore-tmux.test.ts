@@ -142,7 +142,7 @@ describe("espalier explore in a terminal (tmux)", () => {
     // Printed on the main screen once the view is gone (-J joins the rows a long line wrapped onto).
     const printed = tmux("capture-pane", "-p", "-J", "-t", name).trim();
     expect(printed).toMatch(
-      /^espalier fixtures\/quillfeather-org\.csv --parent-field manager --focus .* --budget 19$/,
+      /^espalier fixtures\/quillfeather-org\.csv --parent-field manager --focus .* --budget 19 --bare$/,
     );
     expect(readFileSync(files.after, "utf8")).toBe(readFileSync(files.before, "utf8"));
   });

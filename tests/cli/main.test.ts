@@ -31,7 +31,7 @@ describe("espalier <input> (summary)", () => {
     });
     expect(r.code).toBe(2);
     expect(r.stderr).toContain("[BUDGET_TOO_SMALL]");
-    expect(r.stderr).toContain("is 5");
+    expect(r.stderr).toContain("is 6"); // the header, and one line for each of 5 nodes
   });
 
   it("exits 2 for a bad option value, with a usage error and no output", async () => {
@@ -181,7 +181,7 @@ describe("espalier <input> (summary)", () => {
 describe("espalier <input> --format markdown|svg", () => {
   it("prints a Markdown list and an SVG picture of the same selection", async () => {
     const stdin = "10\ta/x\n20\ta/y\n5\tb/z\n";
-    const md = await cli(["-", "--format", "markdown", "--budget", "4"], { stdin });
+    const md = await cli(["-", "--format", "markdown", "--budget", "4", "--bare"], { stdin });
     expect(md.code).toBe(0);
     expect(md.stdout.trimEnd().split("\n")).toHaveLength(4);
     expect(md.stdout.startsWith("- ")).toBe(true);

@@ -47,7 +47,13 @@ function changeList(result: DiffResult): string[] {
 }
 
 const render = (r: DiffResult, chains = false) =>
-  renderDiffText(r.view, r.totals, { units: "plain", sizes: true, by: r.combined.by, chains });
+  renderDiffText(r.view, r.totals, {
+    units: "plain",
+    sizes: true,
+    by: r.combined.by,
+    chains,
+    header: { budget: 0, lines: r.selection.lines, foci: r.fociPaths },
+  });
 
 describe("diffTrees(old, new, options)", () => {
   it("finds exactly one move and one insertion in the change-detection example", () => {

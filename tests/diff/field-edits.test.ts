@@ -108,7 +108,12 @@ describe("diffTrees(old, new, { compareFields })", () => {
     const before = json(listing('"3.0.1"', '""'), ["version"]);
     const after = json(listing('"3.0.0"', '"0.3.0"'), ["version"]);
     const result = diff(before, after, ["version"]);
-    const text = renderDiffText(result.view, result.totals, { units: "plain", sizes: false, by: "path" });
+    const text = renderDiffText(result.view, result.totals, {
+      units: "plain",
+      sizes: false,
+      by: "path",
+      header: { budget: 40, lines: result.selection.lines, foci: [] },
+    });
     expect(text).toContain("[edited version 3.0.1 -> 3.0.0] coral-args");
     expect(text).toContain("[edited version (none) -> 0.3.0] kelp-log");
     expect(text.split("\n")[0]).toContain("2 edited");

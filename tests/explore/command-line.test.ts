@@ -85,9 +85,9 @@ describe("shellQuote(arg)", () => {
 });
 
 describe("commandLine(head, foci, budget, tail)", () => {
-  it("puts one --focus per path, then the budget, then the tail", () => {
+  it("puts one --focus per path, then the budget and --bare (the view has no header), then the tail", () => {
     expect(commandLine(["espalier", "org.csv"], ["a/b c", "d"], 23, ["--importance", "size"])).toBe(
-      "espalier org.csv --focus 'a/b c' --focus d --budget 23 --importance size",
+      "espalier org.csv --focus 'a/b c' --focus d --budget 23 --bare --importance size",
     );
   });
 });

@@ -14,11 +14,12 @@ import { opts } from "../load/helpers.js";
 const edges = (text: string) => loadTree(text, opts({ format: "edges", rootName: "deps" }));
 
 function diff(oldTree: Tree, newTree: Tree, budget = 40) {
-  const result = diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth" });
+  const result = diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth", headerLines: 1 });
   const text = renderDiffText(result.view, result.totals, {
     units: "plain",
     sizes: false,
     by: result.combined.by,
+    header: { budget, lines: result.selection.lines, foci: [] },
   });
   const json = renderDiffJson(result.view, result.totals, {
     budget,
@@ -44,14 +45,14 @@ describe("diffTrees(old graph, new graph)", () => {
     const { text } = diff(before, after);
     expect(text).toBe(
       [
-        "matched by id: 1 added, 1 removed, 1 moved, 0 renamed, 0 edited, 0 resized, 1 linked, 0 unlinked; 5 -> 5 nodes",
-        "> ledger  6 nodes",
-        "  > kelp-log  3 nodes",
-        "    - brine",
-        "    > [moved from shoal-codec] tern-fmt",
+        "diff by id: 1 added, 1 removed, 1 moved, 0 renamed, 0 edited, 0 resized, 1 linked, 0 unlinked; 5 -> 5 nodes; no focus; 9 of 40 lines",
+        ": ledger  6 nodes",
+        "  : kelp-log  3 nodes",
+        "    . brine",
+        "    : [moved from shoal-codec] tern-fmt",
         "  & tern-fmt  full entry at kelp-log/tern-fmt",
-        "  > [removed] shoal-codec",
-        "  > [added] reef-io",
+        "  : [removed] shoal-codec",
+        "  : [added] reef-io",
         "    & [linked] brine  full entry at kelp-log/brine",
         "",
       ].join("\n"),
@@ -64,7 +65,7 @@ describe("diffTrees(old graph, new graph)", () => {
       edges("hq lab\nhq ops\nlab rig\nops rig\n"),
     );
     expect(result.totals.changes).toMatchObject({ linked: 1, added: 0, moved: 0 });
-    expect(text).toContain("  > ops\n    & [linked] rig  full entry at lab/rig");
+    expect(text).toContain("  : ops\n    & [linked] rig  full entry at lab/rig");
   });
 
   it("names it `linked` on the full entry when the new parent is the deepest, and `unlinked` the other way", () => {
@@ -72,7 +73,7 @@ describe("diffTrees(old graph, new graph)", () => {
     const two = edges("hq lab\nhq rig\nlab rig\nlab deep\ndeep rig\n");
     const gained = diff(one, two);
     expect(gained.result.totals.changes).toMatchObject({ added: 1, linked: 1, moved: 0, unlinked: 0 });
-    expect(gained.text).toContain("> [linked] rig");
+    expect(gained.text).toContain(": [linked] rig");
     // The reverse: deep goes, and rig, which keeps lab, has lost a parent.
     const lost = diff(two, one);
     expect(lost.result.totals.changes).toMatchObject({ removed: 1, unlinked: 1, moved: 0, linked: 0 });
@@ -91,7 +92,7 @@ describe("diffTrees(old graph, new graph)", () => {
   it("keeps the counts of a diff of trees to the six kinds a tree has", () => {
     const { text, json } = diff(edges("a b\na c\n"), edges("a b\nb c\n"));
     expect(text.split("\n")[0]).toBe(
-      "matched by id: 0 added, 0 removed, 1 moved, 0 renamed, 0 edited, 0 resized; 3 -> 3 nodes",
+      "diff by id: 0 added, 0 removed, 1 moved, 0 renamed, 0 edited, 0 resized; 3 -> 3 nodes; no focus; 4 of 40 lines",
     );
     expect(Object.keys(json.changes)).toEqual(["added", "removed", "moved", "renamed", "edited", "resized"]);
   });

@@ -42,10 +42,10 @@ describe("renderText / renderJson / renderMarkdown / renderSvg on a graph", () =
     const { text, result } = run([], 20);
     expect(text).toBe(
       [
-        "- ledger  4 nodes",
-        "  - kelp-log  3 nodes",
-        "    - tern-fmt",
-        "    - brine",
+        ". ledger  4 nodes",
+        "  . kelp-log  3 nodes",
+        "    . tern-fmt",
+        "    . brine",
         "      & kelp-log  cycle, full entry above at kelp-log",
         "  & tern-fmt  full entry at kelp-log/tern-fmt",
         "",
@@ -80,8 +80,8 @@ describe("renderText / renderJson / renderMarkdown / renderSvg on a graph", () =
     // ledger, kelp-log, tern-fmt are forced; the reference under ledger and brine are folded.
     expect(text).toBe(
       [
-        "> ledger  4 nodes  +1 more: 0 nodes, 1 reference",
-        "  > kelp-log  3 nodes  +1 more: 1 node, 1 reference",
+        ": ledger  4 nodes  (hidden: 1 child, 0 nodes, 1 reference)",
+        "  : kelp-log  3 nodes  (hidden: 1 child, 1 node, 1 reference)",
         "    * tern-fmt  2 parents, 1 not shown",
         "",
       ].join("\n"),
@@ -91,13 +91,13 @@ describe("renderText / renderJson / renderMarkdown / renderSvg on a graph", () =
   it("renders a reference in Markdown as literal text (CommonMark 0.31 parser from the registry)", () => {
     const { markdown } = run([], 20);
     const line = markdown.split("\n").find((l) => l.includes("tern-fmt") && l.includes("full entry"))!;
-    expect(line).toBe("  - & tern-fmt · *full entry at kelp-log/tern-fmt*");
-    // Parsed by the commonmark package (0.31.2): the & stays text, the where-note is emphasis.
+    expect(line).toBe("  - & ` tern-fmt ` · *full entry at kelp-log/tern-fmt*");
+    // Parsed by the commonmark package (0.31.2): the & stays text, the name a code span, the where-note emphasis.
     const doc = new Parser().parse(line.trim());
     const text: string[] = [];
     const walker = doc.walker();
     for (let e = walker.next(); e; e = walker.next())
-      if (e.entering && e.node.type === "text") text.push(e.node.literal ?? "");
+      if (e.entering && (e.node.type === "text" || e.node.type === "code")) text.push(e.node.literal ?? "");
     expect(text.join("")).toBe("& tern-fmt · full entry at kelp-log/tern-fmt");
   });
 

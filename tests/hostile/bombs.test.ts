@@ -85,7 +85,7 @@ describe("espalier - (resource bombs)", () => {
 
     const rows = ["id,parent", "q,", ...Array.from({ length: 10_000 }, (_, k) => `p${k},q`)].join("\n");
     const ids = Array.from({ length: 10_000 }, (_, k) => ["--focus", `p${k}`]).flat();
-    const byId = await cli(["-", "--input-format", "csv", ...ids, "--budget", "10001"], { stdin: rows });
+    const byId = await cli(["-", "--input-format", "csv", ...ids, "--budget", "10002"], { stdin: rows });
     expect(byId.code, byId.stderr).toBe(0);
     expect(byId.stdout.split("\n").filter((l) => l.includes("* p"))).toHaveLength(10_000);
 

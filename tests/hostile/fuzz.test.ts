@@ -266,7 +266,7 @@ function renderChecked(tree: Tree, budget: number, focus: number): void {
   const lines = text.slice(0, -1).split("\n");
   expect(lines.length).toBeLessThanOrEqual(budget);
   for (const line of lines) {
-    expect(line).toMatch(/^(?: {2})*[-*>] /);
+    expect(line).toMatch(/^(?: {2})*[*:.] /);
     expect(line).not.toMatch(UNSAFE);
   }
   expect(renderMarkdown(result.view, { units: "plain", sizes: tree.hasSizes, chains })).not.toMatch(UNSAFE);

@@ -1,6 +1,7 @@
 import { mkdtemp, rm, writeFile } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
+import { Parser } from "commonmark";
 import { describe, expect, it } from "vitest";
 import { cli } from "../helpers/cli.js";
 import { oneErrorLine } from "./error-line.js";
@@ -31,6 +32,9 @@ const HOSTILE = [
 const UNSAFE =
   /[\u0000-\u0009\u000b-\u001f\u007f-\u009f\u061c\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2069]/u;
 
+// A tree line starts with indentation and a mark (src/render/marks.ts); the header with a fixed word.
+const LINE = /^(?:(?: {2})*[*:.] |summary: |diff by )/;
+
 function nestedJson(names: readonly string[]): string {
   return JSON.stringify({ name: "root", children: names.map((name, k) => ({ name, size: k })) });
 }
@@ -44,9 +48,9 @@ describe("espalier - (no injection): names are data in every human-readable form
       const r = await cli([...base, ...focus], { stdin });
       expect(r.code, r.stderr).toBe(0);
       const lines = r.stdout.slice(0, -1).split("\n");
-      expect(lines).toHaveLength(HOSTILE.length + 1);
+      expect(lines).toHaveLength(HOSTILE.length + 2);
       for (const line of lines) {
-        expect(line).toMatch(/^(?: {2})*[-*>] /);
+        expect(line).toMatch(LINE);
         expect(line).not.toMatch(UNSAFE);
       }
     }
@@ -57,19 +61,32 @@ describe("espalier - (no injection): names are data in every human-readable form
     expect(r.code, r.stderr).toBe(0);
     const plain = r.stdout.replace(/\u001b\[[0-9;]*m/g, "");
     expect(plain).not.toMatch(UNSAFE);
-    for (const line of plain.slice(0, -1).split("\n")) expect(line).toMatch(/^(?: {2})*[-*>] /);
+    for (const line of plain.slice(0, -1).split("\n")) expect(line).toMatch(LINE);
   });
 
   it("markdown: every line is a list item, no control or bidi character, no markup from a name", async () => {
     const r = await cli([...base, "--format", "markdown"], { stdin });
     expect(r.code, r.stderr).toBe(0);
-    for (const line of r.stdout.slice(0, -1).split("\n")) {
+    const [header, blank, ...items] = r.stdout.slice(0, -1).split("\n");
+    expect(header).toMatch(/^summary: /);
+    expect(blank).toBe("");
+    for (const line of items) {
       expect(line).toMatch(/^(?: {2})*- /);
       expect(line).not.toMatch(UNSAFE);
     }
-    // CommonMark 0.31, section 2.4: a backslash before ASCII punctuation makes it literal.
-    expect(r.stdout).not.toMatch(/(^|[^\\])<(b|script)>/m);
-    expect(r.stdout).toContain("\\<script>");
+    // Names are code spans (CommonMark 0.31, section 6.1), whose content is never markup: parsed by
+    // commonmark.js (the reference implementation), the output holds no HTML, link or emphasis node.
+    const walker = new Parser().parse(r.stdout).walker();
+    const kinds = new Set<string>();
+    const code: string[] = [];
+    for (let e = walker.next(); e; e = walker.next()) {
+      kinds.add(e.node.type);
+      if (e.node.type === "code" && e.node.literal) code.push(e.node.literal);
+    }
+    for (const kind of ["html_inline", "html_block", "link", "image", "emph"])
+      expect(kinds).not.toContain(kind);
+    expect(code).toContain("</text><script>alert(1)</script>");
+    expect(code).toContain("*bold* _em_ [link](x) <b>");
   });
 
   it("svg: no control or bidi character, no element from a name", async () => {
@@ -98,7 +115,7 @@ describe("espalier - (no injection): names are data in every human-readable form
     );
     expect(r.code, r.stderr).toBe(0);
     for (const line of r.stdout.slice(0, -1).split("\n")) {
-      expect(line).toMatch(/^(?: {2})*[-*>] /);
+      expect(line).toMatch(LINE);
       expect(line).not.toMatch(UNSAFE);
     }
   });
@@ -118,7 +135,7 @@ describe("espalier - (no injection): names are data in every human-readable form
       ]);
       expect(d.code, d.stderr).toBe(0);
       const lines = d.stdout.slice(0, -1).split("\n");
-      for (const line of lines.slice(1)) expect(line).toMatch(/^(?: {2})*[-*>] /);
+      for (const line of lines) expect(line).toMatch(LINE);
       expect(d.stdout).not.toMatch(UNSAFE);
     } finally {
       await rm(dir, { recursive: true, force: true });

@@ -117,10 +117,10 @@ describe("espalier - (faults of value): rejected with BAD_SIZE and a position, n
       stdin: "name: q\nsize: 0x10\n",
     });
     expect(JSON.parse(hex.stdout).totals.size).toBe(16);
-    const negativeZero = await cli(["-", "--input-format", "json", "--units", "plain"], {
+    const negativeZero = await cli(["-", "--input-format", "json", "--units", "plain", "--bare"], {
       stdin: '{"name": "q", "size": -0}',
     });
-    expect(negativeZero.stdout).toBe("- q  0\n");
+    expect(negativeZero.stdout).toBe(". q  0\n");
   });
 });
 

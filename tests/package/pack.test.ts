@@ -38,12 +38,15 @@ describe("npm pack && npm install -g (the installable package)", () => {
     const bin = join(prefix, "bin", "espalier");
     const help = execFileSync(bin, ["--help"], { encoding: "utf8" });
     expect(help).toMatch(/^On the demo data /m); // the help screen's own heading (src/cli/help.ts)
-    const summary = execFileSync(bin, ["-", "--focus", "a/x", "--budget", "3"], {
+    // The header line counts against the budget: 1 header + root + a + x.
+    const summary = execFileSync(bin, ["-", "--focus", "a/x", "--budget", "4"], {
       input: "1\ta/x\n2\ta/y\n3\tb\n",
       encoding: "utf8",
     });
-    expect(summary.trimEnd().split("\n")).toHaveLength(3);
-    expect(summary).toContain("* x");
+    const lines = summary.trimEnd().split("\n");
+    expect(lines).toHaveLength(4);
+    expect(lines[0]).toMatch(/^summary: 5 nodes, size 6 B; focus a\/x; 4 of 4 lines$/);
+    expect(lines[3]).toBe("    * x  1 B");
   }, 180_000);
 
   it("serves the typed library API through import from 'espalier'", () => {

@@ -6,7 +6,7 @@ const OLD = "id,parent,name,size\n1,,R,0\n2,1,A,5\n3,2,x,1\n4,2,y,2\n5,1,B,0\n6,
 const NEW = "id,parent,name,size\n1,,R,0\n2,1,A,5\n4,2,y,2\n5,1,B,0\n6,5,z,3\n3,5,x`s,1\n7,1,C,4\n";
 
 describe("renderDiffMarkdown(view, totals, options) through espalier diff --format markdown", () => {
-  it("writes valid CommonMark: a totals paragraph, then one list item per text line, tags as code spans", async () => {
+  it("writes valid CommonMark: a header paragraph, then one list item per text line, tags and names as code spans", async () => {
     const { writeFileSync, mkdtempSync } = await import("node:fs");
     const { join } = await import("node:path");
     const { tmpdir } = await import("node:os");
@@ -28,9 +28,10 @@ describe("renderDiffMarkdown(view, totals, options) through espalier diff --form
     }
     expect(doc.firstChild?.type).toBe("paragraph");
     expect(kinds.filter((k) => k === "item")).toHaveLength(text.stdout.trimEnd().split("\n").length - 1);
-    // One kind per node (moved outranks renamed), each tag a literal code span despite the backtick in x`s.
-    // A "size" column is a plain number (bytes only when the input says so, docs/input.md "Units").
-    expect(codes).toEqual(["[moved from A]", "[added +4]"]);
+    // One kind per node (moved outranks renamed), each tag a literal code span right before its name,
+    // which is a code span too, despite the backtick in x`s. A "size" column is a plain number (bytes
+    // only when the input says so, docs/input.md "Units").
+    expect(codes).toEqual(["R", "A", "y", "B", "z", "[moved from A]", "x`s", "[added +4]", "C"]);
     expect(kinds).not.toContain("html_inline");
   });
 });

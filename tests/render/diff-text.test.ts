@@ -5,6 +5,7 @@ import { StringNames } from "../../src/model/names.js";
 import type { Tree } from "../../src/model/tree.js";
 import { renderDiffText } from "../../src/render/diff-text.js";
 import { displayWidth } from "../../src/render/display-width.js";
+import { MIN_WIDTH } from "../../src/render/line-layout.js";
 import { arbEdited } from "../diff/edit-script.js";
 import { makeIdTree } from "../diff/id-tree.js";
 import { makeTree } from "../helpers/make-tree.js";
@@ -17,21 +18,22 @@ function text(
   chains = false,
 ) {
   const r = diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth", chains });
-  return renderDiffText(r.view, r.totals, { units: "bytes", sizes, by: r.combined.by, chains });
+  const header = { budget, lines: r.selection.lines, foci: r.fociPaths };
+  return renderDiffText(r.view, r.totals, { units: "bytes", sizes, by: r.combined.by, chains, header });
 }
 
 describe("renderDiffText(view, totals, options)", () => {
   it("opens with the totals per kind and tags each change in words", () => {
     expect(text(makeIdTree("R{A{x,y},B{z}}"), makeIdTree("R{A{y},B{z,x},C}"))).toBe(
       [
-        "matched by id: 1 added, 0 removed, 1 moved, 0 renamed, 0 edited, 0 resized; 6 -> 7 nodes",
-        "> R  7 nodes",
-        "  - A  2 nodes",
-        "    - y",
-        "  > B  3 nodes",
-        "    - z",
-        "    > [moved from A] x",
-        "  > [added] C",
+        "diff by id: 1 added, 0 removed, 1 moved, 0 renamed, 0 edited, 0 resized; 6 -> 7 nodes; no focus; 8 of 40 lines",
+        ": R  7 nodes",
+        "  . A  2 nodes",
+        "    . y",
+        "  : B  3 nodes",
+        "    . z",
+        "    : [moved from A] x",
+        "  : [added] C",
         "",
       ].join("\n"),
     );
@@ -42,23 +44,23 @@ describe("renderDiffText(view, totals, options)", () => {
     const newTree = makeTree("R{A{y:26},B{z:5,w:3},D{d:1}}");
     expect(text(oldTree, newTree)).toBe(
       [
-        "matched by path: 1 added, 1 removed, 0 moved, 0 renamed, 0 edited, 1 resized; 8 -> 8 nodes; size 36 B -> 35 B (-1 B)",
-        "> R  9 nodes, 35 B, net -1 B",
-        "  > A  3 nodes, 26 B, net -4 B",
-        "    > [removed -10 B] x",
-        "    > [resized +6 B] y  26 B",
-        "  > B  3 nodes, 8 B, net +3 B",
-        "    - z  5 B",
-        "    > [added +3 B] w  3 B",
-        "  - D  2 nodes, 1 B",
-        "    - d  1 B",
+        "diff by path: 1 added, 1 removed, 0 moved, 0 renamed, 0 edited, 1 resized; 8 -> 8 nodes, size 36 B -> 35 B (net -1 B); no focus; 10 of 40 lines",
+        ": R  9 nodes, 35 B, net -1 B",
+        "  : A  3 nodes, 26 B, net -4 B",
+        "    : [removed -10 B] x",
+        "    : [resized +6 B] y  26 B",
+        "  : B  3 nodes, 8 B, net +3 B",
+        "    . z  5 B",
+        "    : [added +3 B] w  3 B",
+        "  . D  2 nodes, 1 B",
+        "    . d  1 B",
         "",
       ].join("\n"),
     );
     expect(text(oldTree, newTree, 4).split("\n").slice(1, 4)).toEqual([
-      "> R  9 nodes, 35 B, net -1 B  +1 more: 2 nodes, 1 B; unchanged",
-      "  > A  3 nodes, 26 B, net -4 B  +2 more: 2 nodes, 26 B; 1 removed, 1 resized, net -4 B",
-      "  > B  3 nodes, 8 B, net +3 B  +2 more: 2 nodes, 8 B; 1 added, net +3 B",
+      ": R  9 nodes, 35 B, net -1 B  (hidden: 1 child, 2 nodes, 1 B; none changed)",
+      "  : A  3 nodes, 26 B, net -4 B  (hidden: 2 children, 2 nodes, 26 B; 1 removed, 1 resized, net -4 B)",
+      "  : B  3 nodes, 8 B, net +3 B  (hidden: 2 children, 2 nodes, 8 B; 1 added, net +3 B)",
     ]);
   });
 
@@ -67,12 +69,13 @@ describe("renderDiffText(view, totals, options)", () => {
     const newTree = makeTree("R{A{B{C{x:1,y:4}}},D{E{F:3}}}");
     expect(text(oldTree, newTree, 40, true, true)).toBe(
       [
-        "matched by path: 1 added, 0 removed, 0 moved, 0 renamed, 0 edited, 1 resized; 8 -> 9 nodes; size 3 B -> 8 B (+5 B)",
-        "> R  9 nodes, 8 B, net +5 B",
-        "  > A / B / C  5 nodes, 5 B, net +4 B",
-        "    - x  1 B",
-        "    > [added +4 B] y  4 B",
-        "  > D / E / [resized +1 B] F  3 nodes, 3 B, net +1 B",
+        "diff by path: 1 added, 0 removed, 0 moved, 0 renamed, 0 edited, 1 resized; 8 -> 9 nodes, size 3 B -> 8 B (net +5 B); no focus; 6 of 40 lines",
+        ": R  9 nodes, 8 B, net +5 B",
+        // The numbers are the chain's last node's: A / B add one node each to R's count.
+        "  : A / B / C  3 nodes, 5 B, net +4 B",
+        "    . x  1 B",
+        "    : [added +4 B] y  4 B",
+        "  : D / E / [resized +1 B] F  3 B",
         "",
       ].join("\n"),
     );
@@ -86,11 +89,11 @@ describe("renderDiffText(view, totals, options)", () => {
       name: new StringNames(["R", "A", "k", "b\u001b[31m"]),
     };
     const out = text(oldTree, newTree);
-    expect(out).toContain("> [moved from the root] k");
-    expect(out).toContain("> [moved from A] b\\u{1b}[31m");
+    expect(out).toContain(": [moved from the root] k");
+    expect(out).toContain(": [moved from A] b\\u{1b}[31m");
     const renamed: Tree = { ...makeIdTree("R{A{b},k}"), name: new StringNames(["R", "A", "b", "k2"]) };
     const oldWithEscape: Tree = { ...oldTree, name: new StringNames(["R", "A", "b", "k\u2028"]) };
-    expect(text(oldWithEscape, renamed)).toContain("> [renamed from k\\u{2028}] k2");
+    expect(text(oldWithEscape, renamed)).toContain(": [renamed from k\\u{2028}] k2");
   });
 
   it("keeps every line within the width, the change tags and the changes folded inside first", () => {
@@ -98,7 +101,7 @@ describe("renderDiffText(view, totals, options)", () => {
       fc.property(
         arbEdited(),
         fc.integer({ min: 2, max: 30 }),
-        fc.integer({ min: 1, max: 90 }),
+        fc.integer({ min: MIN_WIDTH, max: 90 }),
         (edited, b, width) => {
           const r = diffTrees(edited.oldTree, edited.newTree, { foci: [], budget: b, importance: "depth" });
           const wide = renderDiffText(r.view, r.totals, { units: "bytes", sizes: true, by: r.combined.by });

@@ -1,9 +1,12 @@
 import fc from "fast-check";
 import stringWidth from "string-width";
 import { describe, expect, it } from "vitest";
+import type { EspalierError } from "../../src/errors.js";
 import { measure } from "../../src/model/measure.js";
 import { PathIndex } from "../../src/model/path-index.js";
 import { displayWidth, ELLIPSIS, shortenEnd, shortenMiddle } from "../../src/render/display-width.js";
+import { lineGroups } from "../../src/render/line-groups.js";
+import { MIN_WIDTH } from "../../src/render/line-layout.js";
 import { renderText } from "../../src/render/summary-text.js";
 import { prepare, summarize } from "../../src/summarize.js";
 import { makeTree } from "../helpers/make-tree.js";
@@ -82,7 +85,7 @@ describe("renderText(view, { width })", () => {
     fc.assert(
       fc.property(
         arbTreeWithFoci(40),
-        fc.integer({ min: 1, max: 60 }),
+        fc.integer({ min: MIN_WIDTH, max: 80 }),
         fc.boolean(),
         ([tree, f], width, chains) => {
           const index = new PathIndex(tree, measure(tree));
@@ -97,22 +100,64 @@ describe("renderText(view, { width })", () => {
           const lines = text.trimEnd().split("\n");
           for (const line of lines) expect(displayWidth(line)).toBeLessThanOrEqual(width);
           expect(lines.length).toBe(result.selection.lines);
+          // No fold goes without a sign: every line whose node hides children says so.
+          const folds = lineGroups(result.view, chains).filter((g) => g.nodes[g.nodes.length - 1].hidden);
+          expect(lines.filter((l) => / \([0-9,]+ hidden\)$| \(hidden: | \(hidden\)$/.test(l))).toHaveLength(
+            folds.length,
+          );
         },
       ),
     );
   });
 
-  it("prints a run of only children as one line carrying the top node's numbers", () => {
+  it("refuses a width too narrow for a mark, a few characters and a fold (USAGE)", () => {
+    const result = summarize(prepare(makeTree("R{a,b}")), { foci: [], budget: 10, importance: "depth" });
+    for (const width of [0, 3, MIN_WIDTH - 1]) {
+      const error = (() => {
+        try {
+          renderText(result.view, { units: "plain", sizes: false, width });
+        } catch (e) {
+          return e as EspalierError;
+        }
+      })();
+      expect(error?.code).toBe("USAGE");
+    }
+    expect(renderText(result.view, { units: "plain", sizes: false, width: MIN_WIDTH })).toContain(". a");
+  });
+
+  it("shortens numbers before names, then the fold, and cuts a name at its end, a chain in its middle", () => {
+    const tree = makeTree("R{Esme Orby Lead Firmware Engineer:123456{a:1,b:2},alpha{beta{gamma:5{q,r}}}}");
+    const result = summarize(prepare(tree), { foci: [], budget: 3, importance: "depth", chains: true });
+    const at = (width: number) =>
+      renderText(result.view, { units: "plain", sizes: true, width, chains: true }).split("\n")[1];
+    expect(at(200)).toBe(
+      "  . Esme Orby Lead Firmware Engineer  3 nodes, 123,459  (hidden: 2 children, 2 nodes, 3)",
+    );
+    // Compact numbers first (SI prefix k = 1000, BIPM SI brochure, 9th edition, table 7) and the
+    // fold's count of hidden children only, the name whole; then the fold at its shortest.
+    expect(at(76)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123k  (hidden: 2 children)");
+    expect(at(66)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123k  (2 hidden)");
+    // Only then is the name cut, at its end, down to 8 columns; then the line's own numbers go.
+    expect(at(40)).toBe("  . Esme Orb…  3 nodes, 123k  (2 hidden)");
+    expect(at(32)).toBe("  . Esme Orby Lead …  (2 hidden)");
+    const chain = (width: number) =>
+      renderText(result.view, { units: "plain", sizes: true, width, chains: true }).split("\n")[2];
+    expect(chain(45)).toBe("  . alpha / beta  4 nodes, 5  (1 hidden)");
+    // A chain is cut in its middle: its start and the end of its last name stay.
+    expect(chain(36)).toBe("  . alph…eta  4 nodes, 5  (1 hidden)");
+  });
+
+  it("prints a run of only children as one line carrying the last node's numbers and fold", () => {
     const tree = makeTree("R{services{ledger{src:5{a:1,b:2}}},docs:3}");
     const result = summarize(prepare(tree), { foci: [], budget: 10, importance: "depth", chains: true });
     const text = renderText(result.view, { units: "plain", sizes: true, chains: true });
     expect(text).toBe(
       [
-        "- R  7 nodes, 11",
-        "  - services / ledger / src  5 nodes, 8",
-        "    - a  1",
-        "    - b  2",
-        "  - docs  3",
+        ". R  7 nodes, 11",
+        "  . services / ledger / src  3 nodes, 8",
+        "    . a  1",
+        "    . b  2",
+        "  . docs  3",
         "",
       ].join("\n"),
     );
@@ -124,6 +169,6 @@ describe("renderText(view, { width })", () => {
     const result = summarize(prepare(tree), { foci: ["a/b"], budget: 10, importance: "depth", chains: true });
     const text = renderText(result.view, { units: "plain", sizes: false, chains: true });
     // The chain R / a / b ends at the focus; c, the focus's only child, gets a line of its own.
-    expect(text).toBe(["* R / a / b  4 nodes", "  - c", ""].join("\n"));
+    expect(text).toBe(["* R / a / b  2 nodes", "  . c", ""].join("\n"));
   });
 });

@@ -6,7 +6,7 @@ import { diffTrees } from "../../src/diff/diff-trees.js";
 import { buildTree } from "../../src/model/build-tree.js";
 import type { Tree } from "../../src/model/tree.js";
 import { displayWidth } from "../../src/render/display-width.js";
-import { renderSvg, type SvgOptions } from "../../src/render/icicle-svg.js";
+import { renderSvg, type SvgOptions, WIDENING_CAP } from "../../src/render/icicle-svg.js";
 import { xmlEscape } from "../../src/render/xml-escape.js";
 import { prepare, summarize } from "../../src/summarize.js";
 import type { ViewNode } from "../../src/view/view-node.js";
@@ -128,7 +128,7 @@ describe("renderSvg(view, options)", () => {
     expect(folded2).toBeCloseTo(1, 3);
   });
 
-  it("keeps a tiny focus visible: no block is narrower than 4 pixels", () => {
+  it("keeps a tiny focus visible and wide enough for its label", () => {
     const t = makeTree("R{big:1000000000,tiny:1}");
     const blocks = blocksOf(renderSvg(view(t, ["tiny"], 10), opts));
     const tiny = blocks.find((b) => b.kind === "focus")!;
@@ -144,7 +144,9 @@ describe("renderSvg(view, options)", () => {
       const block = blocks.find((b) => b.title.startsWith(`${name}\n`))!;
       expect(block.group.getElementsByTagName("text")[0].textContent).toBe(name);
     }
-    expect(svg).toContain("width: size, stretched near a focus to fit labels");
+    expect(svg).toContain(
+      "width: size; the path to a focus is widened to fit its labels, by at most a quarter of the width",
+    );
     const plain = renderSvg(view(t, [], 10), opts);
     expect(plain).toContain("width: size<");
   });
@@ -164,7 +166,7 @@ describe("renderSvg(view, options)", () => {
     expect(other.group.getElementsByTagName("path").length).toBe(0);
   });
 
-  it("labels only what fits, cut in the middle, and keeps the full label in the tooltip", () => {
+  it("labels only what fits, cut at the end, and keeps the full label in the tooltip", () => {
     const long = "a-rather-long-name-that-will-never-fit-in-a-narrow-block";
     const t = makeTree(`R{${long}:1,wide:500}`);
     const blocks = blocksOf(renderSvg(view(t, [], 10), { ...opts, width: 300 }));
@@ -179,6 +181,108 @@ describe("renderSvg(view, options)", () => {
       }
     const wide = blocks.find((b) => b.title.startsWith("wide"))!;
     expect(wide.group.getElementsByTagName("text")[0].textContent).toBe("wide");
+    const cut = texts.find((t) => t.endsWith("…"));
+    if (cut) expect(long.startsWith(cut.slice(0, -1))).toBe(true);
+  });
+
+  it("keeps widths proportional to size but for the focus path's widening, at most a quarter of the width", () => {
+    const t = makeTree("R{huge:1000000{h1:500000,h2:500000},small:10{focus-with-a-long-name:1,other:9}}");
+    const blocks = blocksOf(
+      renderSvg(view(t, ["small/focus-with-a-long-name"], 10), { ...opts, width: 1000 }),
+    );
+    const inner = 1000 - 20;
+    const huge = blocks.find((b) => b.title.startsWith("huge\n"))!;
+    const small = blocks.find((b) => b.title.startsWith("small\n"))!;
+    // By size alone, small would be 10 / 1,000,010 of the width: its widening takes the rest.
+    expect(width(small)).toBeGreaterThan(inner * (10 / 1000010));
+    expect(width(small)).toBeLessThanOrEqual(inner * WIDENING_CAP + 0.01);
+    expect(width(huge)).toBeGreaterThanOrEqual(inner * (1 - WIDENING_CAP) - 0.01);
+    // Blocks off the path keep the proportion among themselves.
+    const h1 = blocks.find((b) => b.title.startsWith("h1\n"))!;
+    const h2 = blocks.find((b) => b.title.startsWith("h2\n"))!;
+    expect(width(h1)).toBeCloseTo(width(h2), 1);
+  });
+
+  it("writes every text at a contrast ratio of at least 4.5:1 on what lies under it (WCAG 2.x, 1.4.3)", () => {
+    // WCAG 2.x: relative luminance of sRGB colours and the contrast ratio (L1 + 0.05) / (L2 + 0.05),
+    // success criterion 1.4.3 (Contrast, Minimum) asks 4.5:1 for text.
+    const r = diffTrees(
+      makeIdTree("R{A{x:1,y:1},B{z:1},C:2,D:3,F:1}"),
+      makeIdTree("R{A{y:1},B{z:1,x:1},E:1,D:9,G:1}"),
+      {
+        foci: ["B"],
+        budget: 40,
+        importance: "depth",
+      },
+    );
+    const svg = renderSvg(r.view, {
+      units: "plain",
+      sizes: true,
+      changeOf: (n) => n.change,
+      heading: "diff",
+    });
+    const doc = parse(svg);
+    const fills = new Set<string>();
+    for (const rect of [...doc.getElementsByTagName("rect")]) {
+      const fill = rect.getAttribute("fill")!;
+      if (fill.startsWith("#")) fills.add(fill);
+    }
+    // The folded blocks' hatch: its ground and its lines are both under the text.
+    for (const e of [...doc.getElementsByTagName("pattern")[0].childNodes].filter(
+      (n): n is Element => n.nodeType === 1,
+    )) {
+      const c = e.getAttribute("fill") ?? e.getAttribute("stroke");
+      if (c?.startsWith("#")) fills.add(c);
+    }
+    const fillOf = (e: Element): string => {
+      for (let n: Element | null = e; n; n = n.parentNode as Element | null) {
+        const f = n.getAttribute?.("fill");
+        if (f) return f;
+      }
+      return "#000000";
+    };
+    const inks = new Set([...doc.getElementsByTagName("text")].map(fillOf));
+    expect(inks.size).toBeGreaterThan(0);
+    for (const ink of inks)
+      for (const fill of fills)
+        expect(contrastRatio(ink, fill), `${ink} on ${fill}`).toBeGreaterThanOrEqual(4.5);
+  });
+
+  it("keeps each change kind's shape visible under colour-vision deficiency (Machado et al. 2009)", () => {
+    // Kinds differ by shape (checked below in 'marks each change kind'); here each shape or outline must
+    // stay visible against its own fill, at least 3:1 (WCAG 2.x, 1.4.11 Non-text Contrast), when both
+    // colours go through the simulation matrices of Machado, Oliveira & Fernandes (2009), severity 1.0.
+    const r = diffTrees(
+      makeIdTree("R{A{x:1,y:1},B{z:1},C:2,D:3,F:1}"),
+      makeIdTree("R{A{y:1},B{z:1,x:1},E:1,D:9,G:1}"),
+      {
+        foci: [],
+        budget: 40,
+        importance: "depth",
+      },
+    );
+    const doc = parse(renderSvg(r.view, { units: "plain", sizes: true, changeOf: (n) => n.change }));
+    const legend = [...doc.getElementsByTagName("g")].find((g) => g.getAttribute("class") === "legend")!;
+    let checked = 0;
+    for (const item of [...legend.getElementsByTagName("g")]) {
+      const rect = item.getElementsByTagName("rect")[0];
+      const word = item.getElementsByTagName("text")[0]?.textContent;
+      if (!rect || !["added", "removed", "moved", "renamed", "resized"].includes(word ?? "")) continue;
+      const fill = rect.getAttribute("fill")!;
+      const mark =
+        word === "removed"
+          ? rect.getAttribute("stroke")!
+          : (item.getElementsByTagName("path")[0] ?? item.getElementsByTagName("circle")[0]).getAttribute(
+              "fill",
+            )!;
+      for (const [cvd, m] of Object.entries(MACHADO_2009))
+        expect(
+          contrastRatio(simulate(m, mark), simulate(m, fill)),
+          `${word} under ${cvd}`,
+        ).toBeGreaterThanOrEqual(3);
+      checked++;
+    }
+    expect(checked).toBe(5);
   });
 
   it("escapes every name: markup in a name stays text and no script element exists", () => {
@@ -289,3 +393,53 @@ describe("renderSvg(view, options)", () => {
     expect(words).not.toContain("focus");
   });
 });
+
+/** WCAG 2.x relative luminance of an sRGB colour `#rrggbb` (definition in WCAG 2.2, "relative luminance"). */
+function luminance(hex: string): number {
+  const n = Number.parseInt(hex.slice(1), 16);
+  const lin = (c: number) => {
+    const v = c / 255;
+    return v <= 0.04045 ? v / 12.92 : ((v + 0.055) / 1.055) ** 2.4;
+  };
+  return 0.2126 * lin(n >> 16) + 0.7152 * lin((n >> 8) & 255) + 0.0722 * lin(n & 255);
+}
+
+/** WCAG 2.x contrast ratio (L1 + 0.05) / (L2 + 0.05), L1 the lighter. */
+function contrastRatio(a: string, b: string): number {
+  const [l1, l2] = [luminance(a), luminance(b)].sort((x, y) => y - x);
+  return (l1 + 0.05) / (l2 + 0.05);
+}
+
+// Machado, Oliveira & Fernandes, "A Physiologically-based Model for Simulation of Color Vision
+// Deficiency", IEEE TVCG 15(6), 2009: the published matrices for severity 1.0, applied to linear RGB.
+// Protanomaly and deuteranomaly rows checked against a public copy of the paper's table; the
+// tritanomaly rows are from memory.
+const MACHADO_2009: Record<string, number[][]> = {
+  protanopia: [
+    [0.152286, 1.052583, -0.204868],
+    [0.114503, 0.786281, 0.099216],
+    [-0.003882, -0.048116, 1.051998],
+  ],
+  deuteranopia: [
+    [0.367322, 0.860646, -0.227968],
+    [0.280085, 0.672501, 0.047413],
+    [-0.01182, 0.04294, 0.968881],
+  ],
+  tritanopia: [
+    [1.255528, -0.076749, -0.178779],
+    [-0.078411, 0.930809, 0.147602],
+    [0.004733, 0.691367, 0.3039],
+  ],
+};
+
+/** `#rrggbb` as seen through a simulation matrix: sRGB decoded to linear, multiplied, encoded back (IEC 61966-2-1). */
+function simulate(m: number[][], hex: string): string {
+  const n = Number.parseInt(hex.slice(1), 16);
+  const lin = [n >> 16, (n >> 8) & 255, n & 255].map((c) => {
+    const v = c / 255;
+    return v <= 0.04045 ? v / 12.92 : ((v + 0.055) / 1.055) ** 2.4;
+  });
+  const out = m.map((row) => Math.min(1, Math.max(0, row[0] * lin[0] + row[1] * lin[1] + row[2] * lin[2])));
+  const enc = out.map((v) => Math.round(255 * (v <= 0.0031308 ? 12.92 * v : 1.055 * v ** (1 / 2.4) - 0.055)));
+  return `#${enc.map((c) => c.toString(16).padStart(2, "0")).join("")}`;
+}

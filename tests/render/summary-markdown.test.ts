@@ -67,7 +67,41 @@ describe("renderMarkdown(view, options)", () => {
     expect(items).toHaveLength(text.trimEnd().split("\n").length);
     expect(items.map((i) => i.depth)).toEqual([0, 1, 2, 3, 3, 2]);
     expect(items[2].text).toContain("A1 (focus)");
-    expect(items[0].text).toContain("+1 more: 4 nodes, 121 B");
+    expect(items[0].text).toContain("(hidden: 1 child, 4 nodes, 121 B)");
+  });
+
+  it("keeps mentions, issue references and URLs in labels as code, never links (checked with commonmark.js)", () => {
+    // GitHub Flavored Markdown 0.29 (section 6.9, extended autolinks) links bare URLs and www. only in
+    // text, and GitHub makes @mentions and #references only in text (common practice, no source); a
+    // code span's content is not text. commonmark.js (the CommonMark reference implementation) shows
+    // what the parser makes of the rest.
+    const names = [
+      "(root)",
+      "@quill-ops",
+      "#123",
+      "https://tidewater.invalid/x",
+      "www.tidewater.invalid",
+      "<a@b.invalid>",
+    ];
+    const result = summarize(prepare(treeWithNames(names)), { foci: [], budget: 100, importance: "depth" });
+    const md = renderMarkdown(result.view, {
+      units: "plain",
+      sizes: false,
+      header: { budget: 100, lines: result.selection.lines, foci: ["@quill-ops"] },
+    });
+    const walker = new Parser().parse(md).walker();
+    const code: string[] = [];
+    const text: string[] = [];
+    for (let e = walker.next(); e; e = walker.next()) {
+      expect(["link", "image", "html_inline", "html_block"]).not.toContain(e.node.type);
+      if (e.node.type === "code") code.push(e.node.literal!);
+      if (e.node.type === "text") text.push(e.node.literal!);
+    }
+    for (const name of names) expect(code).toContain(name);
+    expect(text.join("")).not.toMatch(/@|#[0-9]|https?:|www\./);
+    // The source stays readable: no entity and no backslash inside a name.
+    expect(md).not.toContain("&#");
+    expect(md).toContain("` #123 `");
   });
 
   it("keeps any name literal: punctuation, HTML, emphasis and list markers cannot break the markup (property)", () => {

@@ -1,6 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { buildTree } from "../../src/model/build-tree.js";
 import { measure } from "../../src/model/measure.js";
+import { renderText } from "../../src/render/summary-text.js";
+import { prepare, summarize } from "../../src/summarize.js";
 import { makeTree } from "../helpers/make-tree.js";
 import { generatedTree, summaryOf } from "../helpers/summary.js";
 
@@ -11,26 +13,48 @@ describe("renderText(view, options)", () => {
     const { text } = summaryOf(tree, ["A/A1"], 5);
     expect(text).toBe(
       [
-        "> R  11 nodes, 146 B  +1 more: 4 nodes, 121 B",
-        "  > A  6 nodes, 25 B  +1 more: 2 nodes, 7 B",
+        ": R  11 nodes, 146 B  (hidden: 1 child, 4 nodes, 121 B)",
+        "  : A  6 nodes, 25 B  (hidden: 1 child, 2 nodes, 7 B)",
         "    * A1  3 nodes, 8 B",
-        "      - A1a  1 B",
-        "      - A1b  2 B",
+        "      . A1a  1 B",
+        "      . A1b  2 B",
         "",
       ].join("\n"),
+    );
+  });
+
+  it("glues a root named / to its only child's name, as an absolute path writes it (/usr / bin)", () => {
+    // An absolute path listing has one root named "/" (docs/input.md); "/ / usr" would read as two roots.
+    const result = summarize(prepare(makeTree("/{usr{bin{a,b}}}")), {
+      foci: [],
+      budget: 10,
+      importance: "depth",
+      chains: true,
+    });
+    const text = renderText(result.view, { units: "plain", sizes: false, chains: true });
+    expect(text).toBe([". /usr / bin  3 nodes", "  . a", "  . b", ""].join("\n"));
+    // A node named "/" below the root is an ordinary name: only the root's "/" is glued.
+    const below = summarize(prepare(makeTree("R{x,/{usr{y,z}}}")), {
+      foci: [],
+      budget: 10,
+      importance: "depth",
+      chains: true,
+    });
+    expect(renderText(below.view, { units: "plain", sizes: false, chains: true })).toContain(
+      "  . / / usr  3 nodes",
     );
   });
 
   it("gives every node a line when the budget holds the whole tree", () => {
     const { text } = summaryOf(tree, ["A/A1"], 100);
     expect(text.split("\n").length - 1).toBe(tree.length);
-    expect(text).not.toContain("more:");
+    expect(text).not.toContain("hidden");
   });
 
   it("never starts a line with a name, so a name cannot pose as a CI command (lines start with indent and a mark)", () => {
     const t = makeTree("::warning{##vso[task.setvariable]}");
     const { text } = summaryOf(t, [], 10);
-    for (const line of text.trimEnd().split("\n")) expect(line).toMatch(/^ *[*>-] /);
+    for (const line of text.trimEnd().split("\n")) expect(line).toMatch(/^ *[*:.] /);
   });
 
   it("spends no line on chrome: a 20,000-node tree with two deep foci shows as many nodes as it has lines", () => {
@@ -59,7 +83,7 @@ describe("renderText(view, options)", () => {
     result.view.each(() => shownNodes++);
     expect(lines.length).toBe(40);
     expect(shownNodes).toBeGreaterThanOrEqual(lines.length);
-    expect(lines.every((l) => /^ *[*>-] \S/.test(l))).toBe(true);
+    expect(lines.every((l) => /^ *[*:.] \S/.test(l))).toBe(true);
   });
 
   it("is byte-identical across runs", () => {

@@ -1,0 +1,125 @@
+import type { HierarchyNode } from "d3-hierarchy";
+import { changeKinds, treeChangeKinds } from "../diff/changes.js";
+import type { DiffTotals } from "../diff/diff-trees.js";
+import type { ViewNode } from "../view/view-node.js";
+import { formatCount, type NumberOptions } from "./amount.js";
+import { displayWidth, shortenEnd } from "./display-width.js";
+import { formatSize } from "./format-size.js";
+import { markdownText } from "./markdown-escape.js";
+import { codeSpan } from "./markdown-line.js";
+import { safeText } from "./safe-text.js";
+
+/** How the header's own words and the input's names are written: plain text, or Markdown. */
+export interface HeaderStyle {
+  words: (s: string) => string;
+  name: (s: string) => string;
+}
+
+const plainStyle: HeaderStyle = { words: (s) => s, name: (s) => s };
+
+/** What the first line of a text or Markdown rendering states. */
+export interface HeaderOptions {
+  /** The line budget asked for. */
+  budget: number;
+  /** Lines the rendering takes, this header (and any legend) included. */
+  lines: number;
+  /** Printed paths (or row ids) of the foci; each is accepted back as a focus. */
+  foci: readonly string[];
+  /** What the size measures, as the input calls it (`cost`); default `size`. */
+  sizeName?: string;
+}
+
+/** Foci named on the header before the rest are counted (`and 4 more`). */
+const FOCI_SHOWN = 3;
+
+/**
+ * `summary: 5,260 nodes, size 587.9 MiB; focus services/ledger/src; 14 of 14 lines`: the totals with
+ * what the size measures, the foci, and the budget used. Starts with a fixed word, so a name can never
+ * begin the line. Within `width`, the list of foci shortens first, then the end is cut.
+ */
+export function summaryHeader(
+  root: { nodes: number; size: number },
+  header: HeaderOptions,
+  options: NumberOptions,
+  width?: number,
+  style: HeaderStyle = plainStyle,
+): string {
+  const w = style.words;
+  let totals = w(`summary: ${formatCount(root.nodes)} ${root.nodes === 1 ? "node" : "nodes"}`);
+  if (options.sizes)
+    totals += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(root.size, options.units)}`)}`;
+  return fitHeader(
+    (k) => `${totals}${w("; ")}${fociText(header.foci, k, style)}${w(`; ${used(header)}`)}`,
+    width,
+  );
+}
+
+/**
+ * `diff by id: 1 added, 0 removed, 1 moved, 0 renamed, 0 edited, 0 resized; 6 -> 7 nodes, size 3 KiB -> 4 KiB
+ * (net +1 KiB); no focus; 9 of 40 lines`: how nodes were matched, the count of each kind, both
+ * versions' totals, the foci and the budget used.
+ */
+export function diffHeader(
+  totals: DiffTotals,
+  by: "id" | "path",
+  header: HeaderOptions,
+  options: NumberOptions,
+  width?: number,
+  style: HeaderStyle = plainStyle,
+): string {
+  const w = style.words;
+  // A diff of graphs counts edges linked and unlinked too; a diff of trees has none to count.
+  const kinds = (totals.graph ? changeKinds : treeChangeKinds)
+    .map((k) => `${formatCount(totals.changes[k])} ${k}`)
+    .join(", ");
+  let head = w(
+    `diff by ${by}: ${kinds}; ${formatCount(totals.old.nodes)} -> ${formatCount(totals.new.nodes)} nodes`,
+  );
+  if (options.sizes) {
+    const { units } = options;
+    const net = totals.delta < 0 ? formatSize(totals.delta, units) : `+${formatSize(totals.delta, units)}`;
+    head += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(totals.old.size, units)} -> ${formatSize(totals.new.size, units)} (net ${net})`)}`;
+  }
+  return fitHeader(
+    (k) => `${head}${w("; ")}${fociText(header.foci, k, style)}${w(`; ${used(header)}`)}`,
+    width,
+  );
+}
+
+/** The header's text for Markdown: its own words escaped, the input's names as code spans. */
+export const markdownHeaderStyle: HeaderStyle = {
+  words: (s) => markdownText(s, true, true),
+  name: (s) => codeSpan(s),
+};
+
+function sizeWord(header: HeaderOptions, style: HeaderStyle): string {
+  return header.sizeName === undefined ? style.words("size") : style.name(safeText(header.sizeName, 40));
+}
+
+function used(header: HeaderOptions): string {
+  return `${formatCount(header.lines)} of ${formatCount(header.budget)} lines`;
+}
+
+/** `no focus`, `focus a`, `foci a, b, c and 4 more`, naming at most `shown` of them. */
+function fociText(foci: readonly string[], shown: number, style: HeaderStyle): string {
+  const w = style.words;
+  if (foci.length === 0) return w("no focus");
+  const named = foci.slice(0, Math.max(shown, 1)).map((f) => style.name(f === "" ? '""' : safeText(f)));
+  const rest = foci.length - named.length;
+  return `${w(foci.length === 1 ? "focus " : "foci ")}${named.join(w(", "))}${rest > 0 ? w(` and ${formatCount(rest)} more`) : ""}`;
+}
+
+function fitHeader(text: (fociShown: number) => string, width?: number): string {
+  if (width === undefined) return text(FOCI_SHOWN);
+  for (let k = FOCI_SHOWN; k >= 1; k--) if (displayWidth(text(k)) <= width) return text(k);
+  return shortenEnd(text(1), width);
+}
+
+/** The foci of a view as the header prints them: a row id where rows have ids, else the path. */
+export function fociOf<T extends ViewNode>(view: HierarchyNode<T>): string[] {
+  const out: string[] = [];
+  view.eachBefore(({ data }) => {
+    if (data.focus) out.push(data.id ?? data.path);
+  });
+  return out;
+}

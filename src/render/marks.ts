@@ -1,0 +1,35 @@
+/**
+ * Line marks, the same in summaries and diffs; each carries its meaning without colour. None of them
+ * is a sign a line diff uses (`+`, `-`, `<`, `>`), so a saved summary read through a line diff, or a
+ * diff of espalier's, never reads as an addition or removal by its mark alone.
+ */
+export const MARK = {
+  /** A focus the user asked for. */
+  focus: "*",
+  /** On the way to a focus; in a diff also a change or on the way to one. */
+  path: ":",
+  /** Any other shown node. */
+  other: ".",
+  /** A reference line of a graph: the node's full entry is elsewhere (its path follows). */
+  reference: "&",
+} as const;
+
+/** How many lines {@link legendLines} gives for a summary and for a diff. */
+export const LEGEND_LINES = { summary: 2, diff: 3 } as const;
+
+/**
+ * What the marks, numbers and folds mean, a few lines a reader can have without the docs: printed
+ * under the header with `--legend` (the budget counts them) and in `--help`.
+ */
+export function legendLines(kind: "summary" | "diff"): string[] {
+  const path = kind === "diff" ? "a change or on the way to a focus or change" : "on the way to a focus";
+  const lines = [
+    `marks: ${MARK.focus} focus, ${MARK.path} ${path}, ${MARK.other} other; a / b: b is a's only child, the line's numbers and fold are b's`,
+    "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1); no count: 1 node",
+  ];
+  if (kind === "diff")
+    lines.push(
+      "changes: [added] [removed] [moved from PARENT] [renamed from NAME] [edited FIELD OLD -> NEW] [resized ±SIZE] stand before the name; net ±SIZE: the subtree's size change",
+    );
+  return lines;
+}

@@ -1,0 +1,67 @@
+import { readFileSync, writeFileSync } from "node:fs";
+import { describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+
+// Every example output in README.md and docs/ is the tool's own output on the invented demo data in
+// fixtures/: a block marked `<!-- example: ARGS -->` holds exactly what `espalier ARGS` prints.
+// `npm run examples` rewrites the blocks from the current code (UPDATE_EXAMPLES=1).
+const FILES = ["README.md", "docs/diff.md", "docs/selection.md", "docs/cli.md", "docs/svg.md"];
+const MARKER = /^<!-- example: (.+) -->$/;
+
+/** Splits a command line as a POSIX shell would for the simple cases the docs use: words, '…' quotes. */
+function words(line: string): string[] {
+  const out: string[] = [];
+  for (const m of line.matchAll(/'([^']*)'|(\S+)/g)) out.push(m[1] ?? m[2]);
+  return out;
+}
+
+interface Example {
+  file: string;
+  args: string;
+  /** Line index of the opening fence; the block's text lies between it and `end`. */
+  start: number;
+  end: number;
+}
+
+function examples(file: string, lines: string[]): Example[] {
+  const found: Example[] = [];
+  for (let k = 0; k < lines.length; k++) {
+    const m = MARKER.exec(lines[k]);
+    if (!m) continue;
+    expect(lines[k + 1], `${file}:${k + 2} opens the example's block`).toMatch(/^```/);
+    let end = k + 2;
+    while (end < lines.length && lines[end] !== "```") end++;
+    found.push({ file, args: m[1], start: k + 1, end });
+  }
+  return found;
+}
+
+describe("the examples in README.md and docs/", () => {
+  const all = FILES.flatMap((file) => examples(file, readFileSync(file, "utf8").split("\n")));
+
+  it("are there: at least the README's and each diff example's", () => {
+    expect(all.filter((e) => e.file === "README.md").length).toBeGreaterThanOrEqual(1);
+    expect(all.filter((e) => e.file === "docs/diff.md").length).toBeGreaterThanOrEqual(3);
+  });
+
+  for (const file of FILES) {
+    it(`in ${file} are what espalier prints for them`, async () => {
+      const lines = readFileSync(file, "utf8").split("\n");
+      const found = examples(file, lines);
+      // Rewrite from the bottom, so that earlier blocks keep their line numbers.
+      for (const example of [...found].reverse()) {
+        const r = await cli(words(example.args));
+        expect(r.stderr, example.args).toBe("");
+        const printed = r.stdout.replace(/\n$/, "").split("\n");
+        if (process.env.UPDATE_EXAMPLES === "1")
+          lines.splice(example.start + 1, example.end - example.start - 1, ...printed);
+        else
+          expect(
+            lines.slice(example.start + 1, example.end).join("\n"),
+            `${file}: espalier ${example.args}`,
+          ).toBe(printed.join("\n"));
+      }
+      if (process.env.UPDATE_EXAMPLES === "1") writeFileSync(file, lines.join("\n"));
+    });
+  }
+});

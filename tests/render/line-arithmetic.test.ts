@@ -1,0 +1,107 @@
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { diffTrees } from "../../src/diff/diff-trees.js";
+import { measure } from "../../src/model/measure.js";
+import { PathIndex } from "../../src/model/path-index.js";
+import { renderDiffText } from "../../src/render/diff-text.js";
+import { renderText } from "../../src/render/summary-text.js";
+import { prepare, summarize } from "../../src/summarize.js";
+import { arbEdited } from "../diff/edit-script.js";
+import { arbTreeWithFoci } from "../helpers/random-tree.js";
+
+interface Line {
+  level: number;
+  /** Names on the line: a chain `a / b / c` has three. */
+  names: number;
+  /** The count printed beside the last name (1 when none is printed). */
+  nodes: number;
+  /** Nodes in the fold, 0 without one. */
+  hidden: number;
+}
+
+// A tree line as docs/selection.md states it: indentation, a mark, the names, then the last name's
+// count and the fold. Read with the lines alone, as a reader would.
+const LINE =
+  /^((?: {2})*)[*:.] (.+?)(?: {2}([0-9,]+) nodes)?(?: {2}\(hidden: [0-9,]+ child(?:ren)?, ([0-9,]+) nodes?(?:; [^)]*)?\))?$/;
+
+function parse(text: string): Line[] {
+  return text
+    .trimEnd()
+    .split("\n")
+    .map((line) => {
+      const m = LINE.exec(line);
+      expect(m, line).not.toBeNull();
+      const [, indent, label, nodes, hidden] = m!;
+      const number = (s: string | undefined) => (s === undefined ? 0 : Number(s.replaceAll(",", "")));
+      return {
+        level: indent.length / 2,
+        names: label.split(" / ").length,
+        nodes: nodes === undefined ? 1 : number(nodes),
+        hidden: number(hidden),
+      };
+    });
+}
+
+/**
+ * Checks `nodes = 1 + the nodes on the lines below + hidden` on every line, where a line below
+ * counts its own number plus one for each name before its last (the chain's upper nodes), and that
+ * the first line accounts for the whole tree.
+ */
+function checkArithmetic(lines: Line[], total: number): void {
+  for (let k = 0; k < lines.length; k++) {
+    let below = 0;
+    for (let j = k + 1; j < lines.length && lines[j].level > lines[k].level; j++)
+      if (lines[j].level === lines[k].level + 1) below += lines[j].nodes + lines[j].names - 1;
+    expect(lines[k].nodes, `line ${k}`).toBe(1 + below + lines[k].hidden);
+  }
+  expect(lines[0].nodes + lines[0].names - 1).toBe(total);
+}
+
+describe("nodes = 1 + shown children + folded, read from the printed lines alone", () => {
+  it("holds on every line of a summary, with and without chains (property)", () => {
+    fc.assert(
+      fc.property(
+        arbTreeWithFoci(50),
+        fc.integer({ min: 1, max: 40 }),
+        fc.boolean(),
+        ([tree, f], extra, chains) => {
+          const index = new PathIndex(tree, measure(tree));
+          const foci = f.map((i) => index.path(i));
+          const prepared = prepare(tree);
+          // The smallest budget that works, plus some: a selection with folds as well as without.
+          const needed = summarize(prepared, { foci, budget: tree.length + 1, importance: "depth", chains });
+          const budget = Math.min(needed.selection.forcedCount + extra, tree.length);
+          let result: ReturnType<typeof summarize>;
+          try {
+            result = summarize(prepared, { foci, budget, importance: "depth", chains });
+          } catch {
+            return; // BUDGET_TOO_SMALL: checked elsewhere
+          }
+          const text = renderText(result.view, { units: "plain", sizes: false, chains });
+          checkArithmetic(parse(text), tree.length);
+        },
+      ),
+    );
+  });
+
+  it("holds on every line of a diff, removed nodes counted, with and without chains (property)", () => {
+    fc.assert(
+      fc.property(arbEdited(), fc.integer({ min: 2, max: 30 }), fc.boolean(), (edited, budget, chains) => {
+        const r = diffTrees(edited.oldTree, edited.newTree, {
+          foci: [],
+          budget,
+          importance: "depth",
+          chains,
+          headerLines: 0,
+        });
+        const text = renderDiffText(r.view, r.totals, {
+          units: "plain",
+          sizes: false,
+          by: r.combined.by,
+          chains,
+        });
+        checkArithmetic(parse(text), r.combined.tree.length);
+      }),
+    );
+  });
+});
