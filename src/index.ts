@@ -13,7 +13,9 @@ export {
 export type { DiffFolded, DiffViewNode } from "./diff/diff-view.js";
 export { type ErrorCode, EspalierError, errorCodes, formatPos, type SourcePos } from "./errors.js";
 export { type Selection, select } from "./fit/select.js";
+export type { FocusSpec, ListedFocus, UnmatchedFoci } from "./focus/focus-spec.js";
 export { resolveFoci } from "./focus/resolve.js";
+export { resolveSpecs } from "./focus/resolve-specs.js";
 export { fromArrays, type Interest, interest } from "./interest/doi.js";
 export { type Importance, importance, importances } from "./interest/importance.js";
 export { interestNear } from "./interest/near.js";

@@ -1,6 +1,7 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { type Selection, select } from "./fit/select.js";
-import { resolveFoci } from "./focus/resolve.js";
+import type { FocusSpec, UnmatchedFoci } from "./focus/focus-spec.js";
+import { resolveSpecs } from "./focus/resolve-specs.js";
 import { graphInterest } from "./interest/graph-doi.js";
 import { type Importance, importance } from "./interest/importance.js";
 import { interestNear } from "./interest/near.js";
@@ -43,8 +44,10 @@ export function prepare(tree: Tree): Prepared {
 }
 
 export interface SummarizeOptions {
-  /** Focus specs: paths, ids or globs. */
-  foci: readonly string[];
+  /** Focus specs: paths, ids or globs, and literal lines of a focus list (see focus/focus-spec.ts). */
+  foci: readonly FocusSpec[];
+  /** A focus that matches no node: an error (default), or left out and listed in `unmatchedFoci`. */
+  unmatchedFoci?: UnmatchedFoci;
   /** Line budget for the text rendering. */
   budget: number;
   importance: Importance;
@@ -68,13 +71,16 @@ export interface SummaryResult {
   foci: Int32Array;
   /** Printed paths of the foci, in pre-order. */
   fociPaths: string[];
+  /** Foci that matched no node and were left out (see `SummarizeOptions.unmatchedFoci`). */
+  unmatchedFoci: string[];
 }
 
 /** focus -> interest -> fit -> view, on a prepared tree. Pure: same inputs, same result. */
 export function summarize(prepared: Prepared, options: SummarizeOptions): SummaryResult {
   const { tree, measures, index } = prepared;
   const key = options.pseudonymKey;
-  const foci = fullEntries(tree, resolveFoci(index, options.foci, key));
+  const { foci: found, unmatched } = resolveSpecs(index, options.foci, key, options.unmatchedFoci);
+  const foci = fullEntries(tree, found);
   const api = cachedImportance(prepared, options.importance);
   const refs = prepared.references;
   // A graph scores by graph distance over the whole graph; a tree (no reference) near its foci, as before.
@@ -117,7 +123,7 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
     orderSiblings(view.data, options.siblingOrder, tree.hasSizes);
     view = hierarchyOf(view.data);
   }
-  return { view, selection, scores, foci, fociPaths: [...foci].map(pathOf) };
+  return { view, selection, scores, foci, fociPaths: [...foci].map(pathOf), unmatchedFoci: unmatched };
 }
 
 /**

@@ -2,7 +2,7 @@ import { totalChanges } from "../diff/changes.js";
 import { diffTrees } from "../diff/diff-trees.js";
 import type { CommandOutput } from "./commands.js";
 import { EXIT } from "./exit-codes.js";
-import { loadVersions, pseudonymKey, readFoci } from "./input.js";
+import { loadVersions, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { DiffCliOptions } from "./options.js";
 import { defaultBudget, headerLinesFor, outputSettings } from "./output-settings.js";
@@ -28,7 +28,9 @@ export async function diffCommand(
     headerLines: headerLinesFor(opts, "diff"),
     siblingOrder: opts.siblingOrder,
     compareFields: opts.compareField,
+    unmatchedFoci: opts.unmatchedFoci,
   });
+  if (result.unmatchedFoci.length > 0) io.stderr.write(unmatchedWarning(result.unmatchedFoci));
   const { tree } = result.combined;
   const text = await diffRenderers[opts.format](result, outputSettings(opts, io, tree), tree);
   const differ = totalChanges(result.totals.changes) > 0;

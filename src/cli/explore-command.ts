@@ -11,13 +11,13 @@ import type { ExploreState } from "../explore/state.js";
 import { ENTER, frame, LEAVE } from "../explore/terminal.js";
 import { type ExploreEvent, fociOf, needsWork, STATUS_ROWS, startState, update } from "../explore/update.js";
 import { warmImportances } from "../explore/warm.js";
-import { resolveFoci } from "../focus/resolve.js";
+import { resolveSpecs } from "../focus/resolve-specs.js";
 import type { Tree } from "../model/tree.js";
 import { palette } from "../render/palette.js";
 import { prepare } from "../summarize.js";
 import { CONFIG_BOUND } from "./config.js";
 import { EXIT } from "./exit-codes.js";
-import { loadInput, loadVersions, pseudonymKey, readFoci } from "./input.js";
+import { loadInput, loadVersions, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import { type SummaryCliOptions, summaryOptionsSchema } from "./options.js";
 import { unitsFor, useColour } from "./output-settings.js";
@@ -67,7 +67,10 @@ export async function exploreCommand(
     const prepared = prepareDiff(oldTree, newTree);
     session = diffSession(prepared, look(prepared.combined.tree));
   }
-  const given = resolveFoci(session.index, foci, key);
+  const resolved = resolveSpecs(session.index, foci, key, opts.unmatchedFoci);
+  // Before the view takes the screen: the warning stays on the terminal after it.
+  if (resolved.unmatched.length > 0) io.stderr.write(unmatchedWarning(resolved.unmatched));
+  const given = resolved.foci;
   // The terminal is taken only once the input has loaded and its foci resolved: an error in either is
   // reported on the untouched terminal, like any command's.
   const terminal = setup.terminal ?? nodeTerminal(input === "-" || newInput === "-");

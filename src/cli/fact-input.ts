@@ -161,10 +161,14 @@ function exactOrShallow(tree: Tree, result: SummaryResult): void {
   );
 }
 
-/** The foci as lists of names when every one is an exact path (no glob, no pseudonym); else undefined. */
+/**
+ * The foci as lists of names when every one is an exact path (no glob, no pseudonym); else undefined.
+ * Lines of a focus list (which may start at the root's own name) take the whole tree too.
+ */
 function literalFoci(options: SummarizeOptions): string[][] | undefined {
   const out: string[][] = [];
   for (const spec of options.foci) {
+    if (typeof spec !== "string") return undefined;
     if (spec.includes("*")) return undefined;
     if (options.pseudonymKey !== undefined && spec.includes("anon-")) return undefined;
     out.push(splitPath(spec).map((raw) => parseSegment(raw).name));

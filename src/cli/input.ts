@@ -1,4 +1,5 @@
 import { EspalierError } from "../errors.js";
+import type { FocusSpec } from "../focus/focus-spec.js";
 import { defaultLoadOptions, type LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
 import type { Tree } from "../model/tree.js";
@@ -75,26 +76,48 @@ export async function loadVersions(
 }
 
 /**
- * The foci: every `--focus`, then each line of the `--focus-from` file taken verbatim (a name may begin
- * or end with spaces; blank lines are skipped). `inputs` are the command's inputs: standard input
- * cannot hold both one of them and the foci.
+ * The foci: every `--focus`, then each line of the `--focus-from` file, a literal path as other tools
+ * print them (see focus/listed-node.ts) taken verbatim: a name may begin or end with spaces; blank
+ * lines are skipped. A list holding a NUL byte is NUL-separated (`git diff --name-only -z`), so a
+ * name may hold a line break. `inputs` are the command's inputs: standard input cannot hold both one
+ * of them and the foci.
  */
 export async function readFoci(
   io: CliIO,
   opts: SharedCliOptions,
   inputs: readonly string[],
-): Promise<string[]> {
-  const foci = [...opts.focus];
+): Promise<FocusSpec[]> {
+  const foci: FocusSpec[] = [...opts.focus];
   if (opts.focusFrom === undefined) return foci;
   if (opts.focusFrom === "-" && inputs.includes("-"))
     throw new EspalierError(
       "USAGE",
       "standard input cannot hold both an input and the foci (--focus-from -)",
     );
+<<<<<<< HEAD
   // A file or a pipe, never a device, at most maxFociBytes (read-limits.ts).
   const text = await readInput(io, opts.focusFrom, FOCI_BOUND);
   foci.push(...text.split(/\r?\n/).filter((line) => line !== ""));
+=======
+  const text = await readInput(io, opts.focusFrom);
+  const lines = text.includes("\0") ? text.split("\0") : text.split(/\r?\n/);
+  lines.forEach((listed, k) => {
+    if (listed !== "") foci.push({ listed, line: k + 1 });
+  });
+>>>>>>> main
   return foci;
+}
+
+/**
+ * The lines a run writes to standard error for foci left out by `--unmatched-foci skip` (already
+ * pseudonymous under `--pseudonymize`); "" when there are none. At most 20 are named.
+ */
+export function unmatchedWarning(unmatched: readonly string[]): string {
+  if (unmatched.length === 0) return "";
+  const shown = unmatched.slice(0, 20).map((f) => JSON.stringify(f));
+  const more = unmatched.length > shown.length ? ` and ${unmatched.length - shown.length} more` : "";
+  const count = unmatched.length === 1 ? "1 focus matches" : `${unmatched.length} foci match`;
+  return `espalier: warning: ${count} no node and ${unmatched.length === 1 ? "is" : "are"} left out (--unmatched-foci skip): ${shown.join(", ")}${more}\n`;
 }
 
 /** The secret of `--pseudonymize`, from the environment (never from an option, which a log would keep). */

@@ -1,4 +1,5 @@
 import * as z from "zod";
+import { unmatchedFociChoices } from "../focus/focus-spec.js";
 import { importances } from "../interest/importance.js";
 import { inputFormats } from "../load/load-options.js";
 import { siblingOrders } from "../view/sibling-order.js";
@@ -102,6 +103,14 @@ export const sharedOptions = {
     group: "Focus",
     config: false,
     schema: z.string().optional().describe("more foci from a file, one per line (- for standard input)"),
+  },
+  unmatchedFoci: {
+    flags: "--unmatched-foci <choice>",
+    group: "Focus",
+    schema: z
+      .enum(unmatchedFociChoices)
+      .default("error")
+      .describe("a focus that matches no node: error, or skip it (listed on standard error and in JSON)"),
   },
   budget: {
     flags: "-b, --budget <lines>",

@@ -2,7 +2,7 @@ import { EspalierError } from "../errors.js";
 import type { Tree } from "../model/tree.js";
 import { prepare, type SummarizeOptions, type SummaryResult, summarize } from "../summarize.js";
 import { isFactInput, summarizeFactInput } from "./fact-input.js";
-import { displayName, loadInput, pseudonymKey, readFoci, rootNameOf } from "./input.js";
+import { displayName, loadInput, pseudonymKey, readFoci, rootNameOf, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { SharedCliOptions, SummaryCliOptions } from "./options.js";
 import { defaultBudget, headerLinesFor, outputSettings } from "./output-settings.js";
@@ -18,10 +18,12 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     label: opts.label,
     pseudonymKey: pseudonymKey(opts, io),
     chains: opts.chains,
+    unmatchedFoci: opts.unmatchedFoci,
     headerLines: headerLinesFor(opts, "summary"),
     siblingOrder: opts.siblingOrder,
   };
   const { tree, result } = await summarizeInput(io, input, opts, options);
+  if (result.unmatchedFoci.length > 0) io.stderr.write(unmatchedWarning(result.unmatchedFoci));
   return summaryRenderers[opts.format](result, outputSettings(opts, io, tree), tree);
 }
 

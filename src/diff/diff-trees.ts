@@ -1,6 +1,7 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { type Selection, select } from "../fit/select.js";
-import { resolveFoci } from "../focus/resolve.js";
+import type { FocusSpec, UnmatchedFoci } from "../focus/focus-spec.js";
+import { resolveSpecs } from "../focus/resolve-specs.js";
 import { type Importance, importance } from "../interest/importance.js";
 import { type Measures, measure } from "../model/measure.js";
 import { PathIndex } from "../model/path-index.js";
@@ -23,8 +24,10 @@ import { type ChangeMeasures, changesIn, measureChanges, netIn } from "./measure
 import { subtreeCounts } from "./subtree-counts.js";
 
 export interface DiffOptions {
-  /** Focus specs (paths, ids or globs), resolved in the combined tree. */
-  foci: readonly string[];
+  /** Focus specs (paths, ids, globs or literal listed lines), resolved in the combined tree. */
+  foci: readonly FocusSpec[];
+  /** A focus that matches no node: an error (default), or left out and listed in `unmatchedFoci`. */
+  unmatchedFoci?: UnmatchedFoci;
   /** Line budget for the text rendering, the totals line included. */
   budget: number;
   importance: Importance;
@@ -63,6 +66,8 @@ export interface DiffResult {
   view: HierarchyNode<DiffViewNode>;
   foci: Int32Array;
   fociPaths: string[];
+  /** Foci that matched no node and were left out (see `DiffOptions.unmatchedFoci`). */
+  unmatchedFoci: string[];
   totals: DiffTotals;
 }
 
@@ -146,7 +151,7 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
   const { combined, measures, changeMeasures, index, oldTree, totals } = prepared;
   const { tree } = combined;
   const key = options.pseudonymKey;
-  const foci = resolveFoci(index, options.foci, key);
+  const { foci, unmatched } = resolveSpecs(index, options.foci, key, options.unmatchedFoci);
   const api = cachedImportance(prepared, options.importance);
   const scores = diffInterest(tree, api, foci, combined.kind, changeMeasures.onChangePath);
   const order = diffOrder(tree, measures, scores, changeMeasures);
@@ -204,6 +209,7 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
     view,
     foci,
     fociPaths: [...foci].map(pathOf),
+    unmatchedFoci: unmatched,
     totals,
   };
 }

@@ -54,6 +54,12 @@ export interface LoadOptions {
    * when it is absent. A children field other than the default counts as named.
    */
   childrenFieldNamed?: boolean;
+  /**
+   * The size field was named on purpose (a size field other than the default counts as named): an input
+   * where no record carries a number in it, or whose sizes come from elsewhere (a path list, values),
+   * is FIELD_MISSING rather than a tree without sizes.
+   */
+  sizeFieldNamed?: boolean;
   /** Path lists: entries end with a NUL byte, not a line break (`find -print0`, `git ls-files -z`). */
   nulSeparated?: boolean;
 }

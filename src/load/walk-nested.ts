@@ -3,6 +3,7 @@ import type { LinkedNodes } from "../model/linked-nodes.js";
 import { isSize } from "../model/size-rule.js";
 import { describeNode } from "./describe-node.js";
 import type { LoadOptions } from "./load-options.js";
+import { FieldsSeen, missingField, sizeFieldNamed } from "./missing-field.js";
 import { NodeSink } from "./node-sink.js";
 import { fieldSizeUnit } from "./size-unit.js";
 
@@ -50,6 +51,8 @@ export function walkNested<V>(
   let keyed = new Uint8Array(1024);
   const kept = keepFields.map(() => [] as string[]);
   const keptSeen = keepFields.map(() => false);
+  // Keys of the first node objects, for the message of a field no node has.
+  const seen = new FieldsSeen();
 
   const rootKind = access.kind(root);
   if (rootKind === Kind.Map) {
@@ -90,6 +93,12 @@ export function walkNested<V>(
       continue;
     }
     if (!access.claim(v)) throw twoParents(where(i), access.pos(v));
+    if (seen.wants(i)) {
+      keys.length = 0;
+      values.length = 0;
+      access.entries(v, keys, values);
+      for (const key of keys) seen.add(key);
+    }
 
     if (keyed[i] !== 1) {
       const nameValue = access.field(v, nameField);
@@ -177,9 +186,7 @@ export function walkNested<V>(
 
   const fields = new Map<string, string[]>();
   for (let f = 0; f < keepFields.length; f++) {
-    if (!keptSeen[f]) {
-      throw new EspalierError("FIELD_MISSING", `no node has the field "${keepFields[f]}" asked to be kept`);
-    }
+    if (!keptSeen[f]) throw missingField("kept", keepFields[f], seen.list(), true);
     fields.set(keepFields[f], kept[f]);
   }
   if (sink.length === 1 && rootKind === Kind.Map) {
@@ -200,6 +207,7 @@ export function walkNested<V>(
       );
     }
   }
+  if (!sink.hasSizes && sizeFieldNamed(options)) throw missingField("size", sizeField, seen.list(), true);
   return sink.finish(options.rootName, fields, null, {
     shape: "nodes",
     sizeUnit: fieldSizeUnit(options.sizeField),

@@ -11,6 +11,8 @@ export interface DiffJsonOptions {
   budget: number;
   lines: number;
   foci: string[];
+  /** Foci left out because they matched no node; listed when there are any. */
+  unmatchedFoci?: readonly string[];
   by: "id" | "path";
   /** Include each node's label (when a label template is in use). */
   labels: boolean;
@@ -51,6 +53,7 @@ export function toDiffSummary(
       new: { ...totals.new },
     },
     foci: options.foci,
+    ...(options.unmatchedFoci?.length ? { unmatchedFoci: [...options.unmatchedFoci] } : {}),
     root,
   };
 }

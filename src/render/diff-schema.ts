@@ -121,6 +121,13 @@ export const diffSchema = z
       })
       .strict(),
     foci: z.array(z.string()).describe("Paths of the user's foci in the combined tree."),
+    unmatchedFoci: z
+      .array(z.string())
+      .min(1)
+      .optional()
+      .describe(
+        "Foci that matched no node and were left out (--unmatched-foci skip), as given (pseudonymous under --pseudonymize); absent when every focus matched.",
+      ),
     root: diffNodeSchema,
   })
   .strict()

@@ -10,6 +10,8 @@ export interface JsonOptions {
   budget: number;
   lines: number;
   foci: string[];
+  /** Foci left out because they matched no node; listed when there are any. */
+  unmatchedFoci?: readonly string[];
   /** Include each node's label (when a label template is in use). */
   labels: boolean;
   /** How the input was read, when known (the tree's `reading`). */
@@ -30,6 +32,7 @@ export function toSummary(view: HierarchyNode<ViewNode>, options: JsonOptions): 
     lines: options.lines,
     totals: { nodes: view.data.nodes, size: view.data.size },
     foci: options.foci,
+    ...(options.unmatchedFoci?.length ? { unmatchedFoci: [...options.unmatchedFoci] } : {}),
     ...(options.input ? { input: { ...options.input } } : {}),
     root,
   };

@@ -104,6 +104,13 @@ export const summarySchema = z
     lines: z.number().int().nonnegative().describe("Lines the text rendering of this selection takes."),
     totals: z.object({ nodes: z.number().int().positive(), size: z.number() }).strict(),
     foci: z.array(z.string()).describe("Paths of the focus nodes."),
+    unmatchedFoci: z
+      .array(z.string())
+      .min(1)
+      .optional()
+      .describe(
+        "Foci that matched no node and were left out (--unmatched-foci skip), as given (pseudonymous under --pseudonymize); absent when every focus matched.",
+      ),
     input: inputReadingSchema.optional(),
     root: summaryNodeSchema,
   })

@@ -178,7 +178,7 @@ describe("espalier - when standard input is a terminal", () => {
       tmpdir(),
     );
     expect(r.stdout.replaceAll("\r", "")).toContain(TERMINAL_INPUT_HINT);
-    expect(r.stdout.replaceAll("\r", "")).toMatch(/^- quill {2}3 nodes\n {2}- a\n {2}- b$/m);
+    expect(r.stdout.replaceAll("\r", "")).toMatch(/^\S quill {2}3 nodes\n {2}\S a\n {2}\S b$/m);
   });
 
   it("says nothing when standard input is a pipe or a file", async () => {

@@ -3,6 +3,7 @@ import { tmpdir } from "node:os";
 import { parse } from "csv-parse/sync";
 import { EspalierError, quoted as input, quotedList, say } from "../../errors.js";
 import type { Tree } from "../../model/tree.js";
+import { missingField, sizeFieldNamed } from "../missing-field.js";
 import { type Columns, type Engine, type EngineSettings, openEngine } from "./engine.js";
 import type { FactFormat, FactOptions } from "./fact-options.js";
 import { KEY_TABLES, KeyLevels, keysSql } from "./key-levels-sql.js";
@@ -85,6 +86,7 @@ export async function openFactTable(load: FactLoad): Promise<FactSession> {
     }
     requireColumns(columns, load.facts);
     const hasSize = columns.includes(load.facts.sizeField);
+    if (!hasSize && sizeFieldNamed(load.facts)) throw missingField("size", load.facts.sizeField, columns);
     const sized = (tree: Tree): Tree => (hasSize ? tree : { ...tree, hasSizes: false });
     const fetch = async (sql: string) => sized(rollupTree(await run(engine, sql, load), treeOptions));
     if (load.facts.levels.length === 0) {

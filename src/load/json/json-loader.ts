@@ -4,6 +4,7 @@ import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { isSize } from "../../model/size-rule.js";
 import { describeNode } from "../describe-node.js";
 import type { LoadOptions } from "../load-options.js";
+import { FieldsSeen, missingField, sizeFieldNamed } from "../missing-field.js";
 import { NodeSink } from "../node-sink.js";
 import { fieldSizeUnit } from "../size-unit.js";
 import { linkTable } from "../table/link-table.js";
@@ -125,6 +126,8 @@ export class JsonLoader extends JsonTokenizer {
   private slotKey = "";
   private role = new Uint8Array(64);
   private readonly frames: Frame[] = [];
+  /** Keys of the first node objects, for the message of a field no node has. */
+  private readonly seen = new FieldsSeen();
 
   /** `found`: espalier chose `options.childrenField` (the configured one was absent). */
   constructor(options: LoadOptions, as?: "json" | "rows", found = false) {
@@ -158,6 +161,8 @@ export class JsonLoader extends JsonTokenizer {
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the top-level array holds no nodes");
     if (sink.length === 1 && this.rootContainers.length > 0) throw this.loneRoot();
     for (let i = 0; i < sink.length && !sink.hasSizes; i++) if (this.sized[i] === 1) sink.hasSizes = true;
+    if (!sink.hasSizes && sizeFieldNamed(this.options))
+      throw missingField("size", this.options.sizeField, this.seen.list(), true);
     const { keepFields } = this.options;
     const fields = new Map<string, string[]>();
     for (let f = 0; f < keepFields.length; f++) {
@@ -168,9 +173,7 @@ export class JsonLoader extends JsonTokenizer {
         if (column[i] === undefined) column[i] = "";
         else seen = true;
       }
-      if (!seen) {
-        throw new EspalierError("FIELD_MISSING", `no node has the field "${keepFields[f]}" asked to be kept`);
-      }
+      if (!seen) throw missingField("kept", keepFields[f], this.seen.list(), true);
       fields.set(keepFields[f], column as string[]);
     }
     return sink.finish(this.options.rootName, fields, null, {
@@ -200,6 +203,7 @@ export class JsonLoader extends JsonTokenizer {
       const fields = this.fields;
       let found = -1;
       if (top === 0) this.rootKey = this.text(bytes, q, e, absQ);
+      if (this.seen.wants(this.frames[top].node)) this.seen.add(this.text(bytes, q, e, absQ));
       if (this.escaped) {
         const text = this.text(bytes, q, e, absQ);
         for (let f = 0; f < fields.length; f++) if (fields[f].text === text) found = f;

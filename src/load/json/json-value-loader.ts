@@ -1,6 +1,7 @@
 import type { Buffer } from "node:buffer";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { LoadOptions } from "../load-options.js";
+import { sizeFieldNamed, sizeFieldNotApplicable } from "../missing-field.js";
 import { NodeSink } from "../node-sink.js";
 import { ByteBuffer } from "./byte-buffer.js";
 import { JsonTokenizer } from "./json-tokenizer.js";
@@ -29,7 +30,12 @@ export class JsonValueLoader extends JsonTokenizer {
   private keyText: string | null = null;
 
   constructor(options: LoadOptions) {
+<<<<<<< HEAD
     super(options.limits);
+=======
+    super();
+    if (sizeFieldNamed(options)) throw sizeFieldNotApplicable(options.sizeField, "values");
+>>>>>>> main
     this.options = options;
     this.sink = new NodeSink(options.maxNodes, false);
   }

@@ -4,6 +4,7 @@ import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { copyName, isEmptyName, NamePool } from "../../model/names.js";
 import { isSize } from "../../model/size-rule.js";
 import type { LoadOptions } from "../load-options.js";
+import { missingField, sizeFieldNamed } from "../missing-field.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer } from "../path-placer.js";
@@ -56,7 +57,7 @@ function linkById(
   const keep = keptColumns(table, options);
   const pooled = table.pooledColumn?.(options.nameField);
   const names = pooled ? undefined : table.column(options.nameField);
-  const sizes = table.column(options.sizeField);
+  const sizes = sizeColumn(table, options);
   // A column of text is its own list of ids (the index writes back the same strings); else a copy.
   const ids: string[] = allText(idCells, n) ? (idCells as string[]) : new Array(n);
   const rowOf = new IdIndex(ids);
@@ -130,7 +131,7 @@ function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptio
   const n = table.length;
   const keep = keptColumns(table, options);
   const names = table.column(options.nameField);
-  const sizes = table.column(options.sizeField);
+  const sizes = sizeColumn(table, options);
   const sink = new NodeSink(options.maxNodes, true);
   // A name cell relabels the node in the sink, so the placer keeps the names it finds nodes by.
   const index = new PathPlacer(sink, names !== undefined);
@@ -158,18 +159,36 @@ function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptio
   return sink.finish(options.rootName, fields);
 }
 
+/** The size column; a named size field that is no column is FIELD_MISSING naming the columns. */
+function sizeColumn(table: Table, options: LoadOptions): readonly Cell[] | undefined {
+  const sizes = table.column(options.sizeField);
+  if (!sizes && sizeFieldNamed(options)) throw missingField("size", options.sizeField, visibleColumns(table));
+  return sizes;
+}
+
+/** The columns a user can name (a path map's key column is no field of the records). */
+function visibleColumns(table: Table): string[] {
+  return table.columnNames().filter((name) => name !== PATH_KEY);
+}
+
 /** The kept columns as text, by row; FIELD_MISSING names the columns there are. */
 function keptColumns(table: Table, options: LoadOptions): Map<string, string[]> {
   const values = new Map<string, string[]>();
   for (const key of options.keepFields) {
     const cells = table.column(key);
     if (!cells) {
-      const near = didYouMean(key, table.columnNames());
+      const near = didYouMean(key, visibleColumns(table));
       throw new EspalierError(
         "FIELD_MISSING",
+<<<<<<< HEAD
         say`no column "${key}" to keep${near === undefined ? "" : say`; did you mean ${quoted.name(near)}?`} The columns are ${quotedList("name", table.columnNames())}`,
+=======
+        `no column "${key}" to keep${near === undefined ? "" : `; did you mean "${near}"?`} The columns are ${listNames(visibleColumns(table))}`,
+>>>>>>> main
         undefined,
-        near === undefined ? { field: key } : { field: key, suggestion: near },
+        near === undefined
+          ? { field: key, fieldsSeen: visibleColumns(table) }
+          : { field: key, suggestion: near, fieldsSeen: visibleColumns(table) },
       );
     }
     values.set(key, cells.map(cellText));

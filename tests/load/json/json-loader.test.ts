@@ -150,11 +150,12 @@ describe("loadTree(json)", () => {
   });
 
   it("loadTree(json) does not mistake Object.prototype members for fields", () => {
-    const tree = json('{"name":"r","children":[{"name":"a"}]}', {
-      sizeField: "constructor",
-      childrenField: "children",
-    });
-    expect(tree.hasSizes).toBe(false);
+    // A named size field no node has is FIELD_MISSING (issue 10.8), naming the fields there are.
+    const err = caught(() =>
+      json('{"name":"r","children":[{"name":"a"}]}', { sizeField: "constructor", childrenField: "children" }),
+    );
+    expect(err.code).toBe("FIELD_MISSING");
+    expect(err.details).toMatchObject({ option: "--size-field", fieldsSeen: ["name", "children"] });
     expect(caught(() => json('{"name":"r"}', { keepFields: ["toString"] })).code).toBe("FIELD_MISSING");
   });
 });

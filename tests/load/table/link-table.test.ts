@@ -92,9 +92,13 @@ describe("linkTable by id and parent", () => {
 
   it("loadTree(csv) names the nearest column for a misspelt kept one (a --label field), else none", () => {
     const typo = caught(() => csv("id,parent,title\na,,x\n", { keepFields: ["ttile"] }));
-    expect([typo.code, typo.details]).toEqual(["FIELD_MISSING", { field: "ttile", suggestion: "title" }]);
+    const seen = ["id", "parent", "title"];
+    expect([typo.code, typo.details]).toEqual([
+      "FIELD_MISSING",
+      { field: "ttile", suggestion: "title", fieldsSeen: seen },
+    ]);
     const far = caught(() => csv("id,parent,title\na,,x\n", { keepFields: ["email"] }));
-    expect(far.details).toEqual({ field: "email" });
+    expect(far.details).toEqual({ field: "email", fieldsSeen: seen });
   });
 
   it("loadTree(csv) uses the column names from the options", () => {
