@@ -94,17 +94,12 @@ export async function readFoci(
       "USAGE",
       "standard input cannot hold both an input and the foci (--focus-from -)",
     );
-<<<<<<< HEAD
   // A file or a pipe, never a device, at most maxFociBytes (read-limits.ts).
   const text = await readInput(io, opts.focusFrom, FOCI_BOUND);
-  foci.push(...text.split(/\r?\n/).filter((line) => line !== ""));
-=======
-  const text = await readInput(io, opts.focusFrom);
   const lines = text.includes("\0") ? text.split("\0") : text.split(/\r?\n/);
   lines.forEach((listed, k) => {
     if (listed !== "") foci.push({ listed, line: k + 1 });
   });
->>>>>>> main
   return foci;
 }
 

@@ -30,12 +30,8 @@ export class JsonValueLoader extends JsonTokenizer {
   private keyText: string | null = null;
 
   constructor(options: LoadOptions) {
-<<<<<<< HEAD
     super(options.limits);
-=======
-    super();
     if (sizeFieldNamed(options)) throw sizeFieldNotApplicable(options.sizeField, "values");
->>>>>>> main
     this.options = options;
     this.sink = new NodeSink(options.maxNodes, false);
   }

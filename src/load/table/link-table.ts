@@ -180,11 +180,7 @@ function keptColumns(table: Table, options: LoadOptions): Map<string, string[]> 
       const near = didYouMean(key, visibleColumns(table));
       throw new EspalierError(
         "FIELD_MISSING",
-<<<<<<< HEAD
-        say`no column "${key}" to keep${near === undefined ? "" : say`; did you mean ${quoted.name(near)}?`} The columns are ${quotedList("name", table.columnNames())}`,
-=======
-        `no column "${key}" to keep${near === undefined ? "" : `; did you mean "${near}"?`} The columns are ${listNames(visibleColumns(table))}`,
->>>>>>> main
+        say`no column "${key}" to keep${near === undefined ? "" : say`; did you mean ${quoted.name(near)}?`} The columns are ${quotedList("name", visibleColumns(table))}`,
         undefined,
         near === undefined
           ? { field: key, fieldsSeen: visibleColumns(table) }
