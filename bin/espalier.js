@@ -77,32 +77,39 @@ function restart(cli, mib) {
 }
 
 async function main(cli) {
-  const { run, openFile, loadInWorker } = cli;
-  // A reader closing the pipe early ends us quietly.
-  process.stdout.on("error", (err) => {
-    if (err.code === "EPIPE") process.exit(0);
-    throw err;
-  });
-  process.exitCode = await run(args, {
-    stdout: process.stdout,
-    stderr: process.stderr,
-    readStdin,
-    readFile: (path) => readFile(path),
-    openInput: (name) => (name === "-" ? openStdin() : openFile(name)),
+  const { run, openFile, loadInWorker, standardStreams } = cli;
+  // Output that cannot be written ends us with status 2 and one line; a reader closing the pipe early
+  // (| head) ends us quietly.
+  const std = standardStreams(process);
+  const code = await run(args, {
+    stdout: std.stdout,
+    stderr: std.stderr,
+    readStdin: (bound) => readStdin(cli, bound),
+    readFile: (path, bound) => (bound ? cli.readBounded(path, bound) : readFile(path)),
+    openInput: (name) => (name === "-" ? openStdin(cli) : openFile(name)),
     loadInWorker,
     now: () => performance.now(),
     env: process.env,
   });
+  process.exitCode = std.finish(code);
 }
 
-async function readStdin() {
+async function readStdin(cli, bound) {
+  terminalHint(cli);
+  if (bound) return cli.readStreamBounded(process.stdin, "-", bound);
   const chunks = [];
   for await (const chunk of process.stdin) chunks.push(chunk);
   return Buffer.concat(chunks);
 }
 
+/** When "-" is a terminal, says on standard error how to end the input, rather than wait silently. */
+function terminalHint(cli) {
+  if (process.stdin.isTTY) process.stderr.write(cli.TERMINAL_INPUT_HINT);
+}
+
 /** Standard input in the chunks it comes in, with its size when it is a regular file. */
-function openStdin() {
+async function openStdin(cli) {
+  terminalHint(cli);
   let size;
   try {
     const stat = fstatSync(0);

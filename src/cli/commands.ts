@@ -4,6 +4,8 @@ import { CONFIG_FILES } from "./config.js";
 import { effectiveOptions, optionsInEffectYaml } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
 import { printSqlCommand } from "./fact-input.js";
+import { hidingInput } from "./hide-input.js";
+import { pseudonymKey } from "./input.js";
 import type { CliIO } from "./io.js";
 import { type CommandName, commandOptions, diffOptionsSchema, summaryOptionsSchema } from "./options.js";
 import type { CommandLine } from "./parse-command-line.js";
@@ -93,7 +95,10 @@ function defineCommand<S extends z.ZodObject>(def: CommandDef<S>): CommandSpec {
       checkArguments(def, line.args);
       const target = outputTarget(options as { output?: string; focusFrom?: string }, line);
       if (target) await checkOutputTarget(target.file, target.inputs, io.outputFiles);
-      return { ...(await run(line.args, options, io, { configFile, fromConfig })), target };
+      // Under --pseudonymize every error of the work leaves with the input hidden (hide-input.ts).
+      const key = pseudonymKey(options as { pseudonymize?: boolean }, io);
+      const output = await hidingInput(key, () => run(line.args, options, io, { configFile, fromConfig }));
+      return { ...output, target };
     },
   };
 }

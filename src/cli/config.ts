@@ -1,7 +1,9 @@
 import * as z from "zod";
 import { EspalierError, type SourcePos } from "../errors.js";
+import { readLimits } from "../load/read-limits.js";
 import type { CliIO } from "./io.js";
 import { configSchema } from "./options.js";
+import type { ReadBound } from "./read-bounded.js";
 
 export { configSchema };
 
@@ -21,6 +23,13 @@ export interface LoadedConfig {
 
 const NO_CONFIG: LoadedConfig = { file: undefined, values: {}, keyPos: new Map() };
 
+/** A config file: a regular file (never a device or a pipe, links followed), at most maxConfigBytes. */
+export const CONFIG_BOUND: ReadBound = {
+  maxBytes: readLimits.maxConfigBytes,
+  what: "the config",
+  pipes: false,
+};
+
 /**
  * Reads the config named by --config, or else the first of {@link CONFIG_FILES} that exists. A
  * malformed or invalid file is a USAGE error naming the file, line and key.
@@ -30,8 +39,9 @@ export async function loadConfig(io: CliIO, explicit: string | undefined): Promi
   for (const file of candidates) {
     let bytes: Buffer;
     try {
-      bytes = await io.readFile(file);
+      bytes = await io.readFile(file, CONFIG_BOUND);
     } catch (err) {
+      if (err instanceof EspalierError) throw err;
       if (explicit === undefined && (err as NodeJS.ErrnoException).code === "ENOENT") continue;
       throw new EspalierError(
         "IO",

@@ -15,6 +15,7 @@ import { resolveSpecs } from "../focus/resolve-specs.js";
 import type { Tree } from "../model/tree.js";
 import { palette } from "../render/palette.js";
 import { prepare } from "../summarize.js";
+import { CONFIG_BOUND } from "./config.js";
 import { EXIT } from "./exit-codes.js";
 import { loadInput, loadVersions, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
@@ -152,7 +153,8 @@ async function writeFoci(
     if (isConfigName(file)) {
       let existing: string | null = null;
       try {
-        existing = new TextDecoder().decode(await io.readFile(file));
+        // Bounded as any config: a file written here may be a link to a device.
+        existing = new TextDecoder().decode(await io.readFile(file, CONFIG_BOUND));
       } catch (err) {
         if ((err as NodeJS.ErrnoException).code !== "ENOENT") throw err;
       }

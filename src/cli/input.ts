@@ -9,7 +9,7 @@ import type { CliIO } from "./io.js";
 import { readNodeRecords } from "./node-records.js";
 import { PSEUDONYM_KEY_ENV, type SharedCliOptions } from "./options.js";
 import { withProgress } from "./progress.js";
-import { readInput } from "./read-input.js";
+import { FOCI_BOUND, readInput } from "./read-input.js";
 import { readInputStream } from "./read-input-stream.js";
 
 // What every command reads: its input trees, its foci and the pseudonym key. Summary, diff and explore
@@ -94,7 +94,8 @@ export async function readFoci(
       "USAGE",
       "standard input cannot hold both an input and the foci (--focus-from -)",
     );
-  const text = await readInput(io, opts.focusFrom);
+  // A file or a pipe, never a device, at most maxFociBytes (read-limits.ts).
+  const text = await readInput(io, opts.focusFrom, FOCI_BOUND);
   const lines = text.includes("\0") ? text.split("\0") : text.split(/\r?\n/);
   lines.forEach((listed, k) => {
     if (listed !== "") foci.push({ listed, line: k + 1 });
@@ -115,7 +116,7 @@ export function unmatchedWarning(unmatched: readonly string[]): string {
 }
 
 /** The secret of `--pseudonymize`, from the environment (never from an option, which a log would keep). */
-export function pseudonymKey(opts: SharedCliOptions, io: CliIO): string | undefined {
+export function pseudonymKey(opts: { pseudonymize?: boolean }, io: CliIO): string | undefined {
   if (!opts.pseudonymize) return undefined;
   const key = io.env[PSEUDONYM_KEY_ENV];
   if (!key) {

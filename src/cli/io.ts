@@ -1,14 +1,16 @@
 import type { LoadOptions } from "../load/load-options.js";
 import type { Tree } from "../model/tree.js";
+import type { ReadBound } from "./read-bounded.js";
 import type { OutputFiles } from "./write-output.js";
 
 /** Everything the CLI touches outside itself, passed in so tests drive it directly. */
 export interface CliIO {
   stdout: { write(text: string): unknown; isTTY?: boolean; rows?: number; columns?: number };
   stderr: { write(text: string): unknown; isTTY?: boolean };
-  /** Reads standard input whole. */
-  readStdin(): Promise<Buffer>;
-  readFile(path: string): Promise<Buffer>;
+  /** Reads standard input whole; with a bound, at most that much (see read-bounded.ts). */
+  readStdin(bound?: ReadBound): Promise<Buffer>;
+  /** Reads a file whole; with a bound, only a file of that kind and size (see read-bounded.ts). */
+  readFile(path: string, bound?: ReadBound): Promise<Buffer>;
   /**
    * Opens a file ("-" for standard input) to be read in chunks, with its size when known. Without it,
    * inputs are read whole with `readFile` / `readStdin` and handed over as one chunk.

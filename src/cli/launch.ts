@@ -4,3 +4,5 @@ export { heapToRestartWith } from "./heap-to-restart-with.js";
 export { loadInWorker } from "./load-in-worker.js";
 export { run } from "./main.js";
 export { openFile } from "./open-file.js";
+export { readBounded, readStreamBounded } from "./read-bounded.js";
+export { standardStreams, TERMINAL_INPUT_HINT } from "./std-streams.js";

@@ -1,13 +1,10 @@
 import { Worker } from "node:worker_threads";
-import { type ErrorCode, type ErrorDetails, EspalierError, type SourcePos } from "../errors.js";
+import { EspalierError, type EspalierErrorData } from "../errors.js";
 import type { LoadOptions } from "../load/load-options.js";
 import type { Tree } from "../model/tree.js";
 import { type TreeMessage, treeFromMessage } from "../model/tree-message.js";
 
-type Reply =
-  | { tree: TreeMessage }
-  | { error: { code: ErrorCode; message: string; pos: SourcePos | undefined; details: ErrorDetails } }
-  | { failure: string };
+type Reply = { tree: TreeMessage } | { error: EspalierErrorData } | { failure: string };
 
 /**
  * Loads a named file on another thread (`load-worker.ts`), so that two versions of a diff load at the
@@ -23,10 +20,7 @@ export function loadInWorker(name: string, options: LoadOptions): Promise<Tree> 
     worker.once("message", (reply: Reply) => {
       settled = true;
       if ("tree" in reply) resolve(treeFromMessage(reply.tree));
-      else if ("error" in reply)
-        reject(
-          new EspalierError(reply.error.code, reply.error.message, reply.error.pos, reply.error.details),
-        );
+      else if ("error" in reply) reject(EspalierError.fromData(reply.error));
       else reject(new Error(reply.failure));
       void worker.terminate();
     });

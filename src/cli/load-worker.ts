@@ -1,5 +1,5 @@
 // A worker thread's entry: loads one named file as the command line loads its input (streamed, the
-// same encoding checks) and posts the tree back as plain data, or the error's code, message and place.
+// same encoding checks) and posts the tree back as plain data, or the error as data (its code, message parts and place).
 import { readFile } from "node:fs/promises";
 import { parentPort, workerData } from "node:worker_threads";
 import { EspalierError } from "../errors.js";
@@ -28,9 +28,6 @@ try {
   const message = treeToMessage(tree);
   parentPort!.postMessage({ tree: message }, treeTransferList(message));
 } catch (err) {
-  if (err instanceof EspalierError)
-    parentPort!.postMessage({
-      error: { code: err.code, message: err.message, pos: err.pos, details: err.details },
-    });
+  if (err instanceof EspalierError) parentPort!.postMessage({ error: err.toData() });
   else parentPort!.postMessage({ failure: err instanceof Error ? (err.stack ?? err.message) : String(err) });
 }

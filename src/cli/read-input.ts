@@ -1,5 +1,7 @@
 import { EspalierError } from "../errors.js";
+import { readLimits } from "../load/read-limits.js";
 import type { CliIO } from "./io.js";
+import type { ReadBound } from "./read-bounded.js";
 import { unicodeEncoding } from "./unicode-encoding.js";
 
 /**
@@ -7,11 +9,19 @@ import { unicodeEncoding } from "./unicode-encoding.js";
  * byte-order mark, UTF-8 otherwise (see {@link unicodeEncoding}). The byte-order mark is dropped; bytes
  * that do not decode become U+FFFD (the WHATWG decoder's replacement behaviour).
  */
-export async function readInput(io: CliIO, name: string): Promise<string> {
+/** A --focus-from file: a file or a pipe (`<(git diff --name-only)`), at most `maxFociBytes`. */
+export const FOCI_BOUND: ReadBound = {
+  maxBytes: readLimits.maxFociBytes,
+  what: "the foci file",
+  pipes: true,
+};
+
+export async function readInput(io: CliIO, name: string, bound?: ReadBound): Promise<string> {
   let bytes: Buffer;
   try {
-    bytes = name === "-" ? await io.readStdin() : await io.readFile(name);
+    bytes = name === "-" ? await io.readStdin(bound) : await io.readFile(name, bound);
   } catch (err) {
+    if (err instanceof EspalierError) throw err;
     const reason = (err as NodeJS.ErrnoException).code ?? (err as Error).message;
     throw new EspalierError("IO", `cannot read ${name === "-" ? "standard input" : name}: ${reason}`, {
       file: name,

@@ -1,5 +1,6 @@
 import { randomBytes } from "node:crypto";
-import { chmod, open, realpath, rename, rm, stat } from "node:fs/promises";
+import { rmSync } from "node:fs";
+import { chmod, lstat, open, readlink, realpath, rename, rm, stat } from "node:fs/promises";
 import { basename, dirname, join, resolve } from "node:path";
 import { EspalierError } from "../errors.js";
 
@@ -21,6 +22,8 @@ export interface OutputFiles {
   rename(from: string, to: string): Promise<void>;
   /** Removes `path`; no error when it is already gone. */
   remove(path: string): Promise<void>;
+  /** The target of a symbolic link at `path`, or undefined when `path` is not one (or is missing). */
+  linkTarget?(path: string): Promise<string | undefined>;
 }
 
 export const nodeOutputFiles: OutputFiles = {
@@ -38,7 +41,26 @@ export const nodeOutputFiles: OutputFiles = {
   chmod: (path, mode) => chmod(path, mode),
   rename: (from, to) => rename(from, to),
   remove: (path) => rm(path, { force: true }),
+  async linkTarget(path) {
+    try {
+      return (await lstat(path)).isSymbolicLink() ? await readlink(path) : undefined;
+    } catch {
+      return undefined;
+    }
+  },
 };
+
+/** Signals that end espalier while it writes: the temporary file is removed first (Ctrl-C, kill, hang-up). */
+const ENDING_SIGNALS = ["SIGINT", "SIGTERM", "SIGHUP"] as const;
+
+/**
+ * The temporary file for `final`: hidden, in the same folder, named for espalier, the process and the
+ * file it will become (`.FILE.espalier-PID-RANDOM.tmp`), so one left behind by SIGKILL or a power cut
+ * is recognisable and never read as the output itself.
+ */
+export function temporaryName(final: string, pid = process.pid): string {
+  return join(dirname(final), `.${basename(final)}.espalier-${pid}-${randomBytes(4).toString("hex")}.tmp`);
+}
 
 /** Standard input's name in the file system, to tell whether it was redirected from the output file. */
 const STDIN = "/dev/stdin";
@@ -58,12 +80,27 @@ export async function writeOutput(
   files: OutputFiles = nodeOutputFiles,
 ): Promise<void> {
   const existing = await identify(files, target);
+  if (!existing) await refuseDanglingLink(files, target);
   const final = existing ? existing.path : resolve(target);
   if (existing) {
     if (!existing.id.isFile()) fail(target, "it exists and is not a regular file");
     await refuseInputs(files, target, existing, inputs);
   }
-  const temp = join(dirname(final), `.${basename(final)}.${randomBytes(6).toString("hex")}.tmp`);
+  const temp = temporaryName(final);
+  // A signal during the write removes the temporary file, then ends espalier as the signal would have.
+  const onSignal = (signal: NodeJS.Signals) => {
+    stopListening();
+    try {
+      rmSync(temp, { force: true });
+    } catch {
+      // Gone already, or not ours to remove: the signal still ends the process.
+    }
+    process.kill(process.pid, signal);
+  };
+  const stopListening = () => {
+    for (const signal of ENDING_SIGNALS) process.off(signal, onSignal);
+  };
+  for (const signal of ENDING_SIGNALS) process.on(signal, onSignal);
   try {
     await files.writeNew(temp, text);
     if (existing) await files.chmod(temp, existing.id.mode & 0o7777);
@@ -71,6 +108,8 @@ export async function writeOutput(
   } catch (error) {
     await files.remove(temp).catch(() => undefined);
     fail(target, reason(error));
+  } finally {
+    stopListening();
   }
 }
 
@@ -85,6 +124,7 @@ export async function checkOutputTarget(
 ): Promise<void> {
   const existing = await identify(files, target);
   if (existing) await refuseInputs(files, target, existing, inputs);
+  else await refuseDanglingLink(files, target);
 }
 
 interface Existing {
@@ -129,6 +169,20 @@ async function refuseInputs(
       );
     }
   }
+}
+
+/**
+ * IO when `target` is a symbolic link whose file does not exist: writing would either create a file
+ * wherever the link points (a link committed to a repository can point anywhere) or replace the link.
+ * espalier does neither; the user removes the link or names the file.
+ */
+async function refuseDanglingLink(files: OutputFiles, target: string): Promise<void> {
+  const to = await files.linkTarget?.(target);
+  if (to !== undefined)
+    fail(
+      target,
+      `it is a symbolic link to ${to}, which does not exist; remove the link or write to the file itself`,
+    );
 }
 
 function fail(target: string, why: string): never {

@@ -1,11 +1,11 @@
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 import { indexOfName } from "../model/names.js";
 import type { PathIndex } from "../model/path-index.js";
 import { pseudonym } from "../model/pseudonym.js";
 import { escapeSegment, parseSegment, splitPath } from "../model/segment.js";
 import { isGlob, matchGlob } from "./glob.js";
 import { isPrintedChain, pseudonymNames, resolvePrintedChain } from "./printed-chain.js";
-import { suggestPath } from "./suggest.js";
+import { realView, type SuggestView, suggestFoci } from "./suggest.js";
 
 /** The node an exact path names, or -1. Glob characters are taken literally here. */
 export function resolvePath(index: PathIndex, spec: string): number {
@@ -61,9 +61,8 @@ export function pathAsListed(index: PathIndex, spec: string): string | undefined
  * that matches nothing is an error that suggests the closest existing path.
  */
 export function resolveFoci(index: PathIndex, specs: readonly string[], pseudonymKey?: string): Int32Array {
-  const { tree } = index;
   const found = new Set<number>();
-  for (const spec of specs) {
+  for (const [k, spec] of specs.entries()) {
     const listed = pathAsListed(index, spec);
     const matches =
       matchSpec(index, spec, pseudonymKey, true) ??
@@ -72,18 +71,7 @@ export function resolveFoci(index: PathIndex, specs: readonly string[], pseudony
       for (const m of matches) found.add(m);
       continue;
     }
-    // With pseudonyms on, a suggestion must not print a real name either.
-    const near = suggestPath(
-      index,
-      listed ?? spec,
-      pseudonymKey === undefined
-        ? undefined
-        : (i) => index.path(i, (j) => escapeSegment(pseudonym(pseudonymKey, tree.name.get(j)))),
-    );
-    throw new EspalierError(
-      "FOCUS_NO_MATCH",
-      `focus ${JSON.stringify(spec)} matches no node${near !== undefined ? `; did you mean ${JSON.stringify(near)}?` : ""}`,
-    );
+    throw noMatch(index, spec, listed ?? spec, k, specs.length, pseudonymKey);
   }
   return Int32Array.from([...found].sort((a, b) => a - b));
 }
@@ -127,4 +115,51 @@ function matchSpec(
     if (matches.length > 0) return matches;
   }
   return undefined;
+}
+
+/** FOCUS_NO_MATCH for the k-th of n specs, with suggestions when some are near. */
+function noMatch(
+  index: PathIndex,
+  spec: string,
+  compared: string,
+  k: number,
+  n: number,
+  key: string | undefined,
+): EspalierError {
+  if (key === undefined) {
+    const near = suggestFoci(index, compared, realView(index));
+    return new EspalierError(
+      "FOCUS_NO_MATCH",
+      say`focus ${quoted.value(spec)} matches no node${didYouMean(near)}`,
+    );
+  }
+  // Only a typed pseudonym is compared, with pseudonyms only: guessing real names learns nothing.
+  const near = spec.includes("anon-") ? suggestFoci(index, compared, pseudonymView(index, key)) : [];
+  return new EspalierError(
+    "FOCUS_NO_MATCH",
+    `focus ${k + 1} of ${n} matches no node (not repeated here: --pseudonymize is on)${didYouMean(near)}`,
+  );
+}
+
+function didYouMean(near: readonly string[]): string {
+  if (near.length === 0) return "";
+  const quoted = near.map((s) => JSON.stringify(s));
+  const list =
+    quoted.length === 1 ? quoted[0] : `${quoted.slice(0, -1).join(", ")} or ${quoted[quoted.length - 1]}`;
+  return `; did you mean ${list}?`;
+}
+
+/** The tree as printed with pseudonyms: what a user of --pseudonymize has seen. */
+function pseudonymView(index: PathIndex, key: string): SuggestView {
+  const { tree } = index;
+  const base = (j: number) => escapeSegment(pseudonym(key, tree.name.get(j)));
+  return {
+    segment: base,
+    id: (i) => {
+      const id = tree.ids?.get(i);
+      return id ? pseudonym(key, id) : null;
+    },
+    path: (i) => index.path(i, base),
+    realNames: false,
+  };
 }

@@ -1,77 +1,194 @@
-import { distance } from "fastest-levenshtein";
 import type { PathIndex } from "../model/path-index.js";
-import { parseSegment, splitPath } from "../model/segment.js";
+import { escapeSegment, parseSegment, splitPath } from "../model/segment.js";
+import { boundedDistance, distanceWork, MAX_DISTANCE_TEXT } from "./bounded-distance.js";
 
-/** Characters of a name compared by edit distance. */
-const MAX_COMPARED = 256;
+/** Code units of a path, id or name compared by edit distance. */
+const MAX_COMPARED = MAX_DISTANCE_TEXT;
+/**
+ * Cells of edit-distance tables one search may fill (a few tenths of a second); past it the search
+ * stops with what it found, so no tree or spec makes an error message slow.
+ */
+export const MAX_SUGGEST_WORK = 100_000_000;
+/** Most suggestions offered, nearest first. */
+export const MAX_SUGGESTIONS = 3;
 /** Segments that may join into one name containing "/". */
 const MAX_JOINED = 16;
 /** Child lookups spent on such joins for one spec (also bounds the recursion depth). */
 const MAX_LOOKUPS = 2_000;
 
+/** How the nodes look to the user who typed the spec: printed segments, ids and paths. */
+export interface SuggestView {
+  /** Node `i`'s escaped segment without the `~~N` rank (a pseudonym when pseudonyms are on). */
+  segment(i: number): string;
+  /** Node `i`'s id as printed; null or "" when it has none. */
+  id(i: number): string | null;
+  /** Node `i`'s path as printed, accepted back as a focus. */
+  path(i: number): string;
+  /** Whether a name containing "/" typed unescaped may be looked up by its real name (not with pseudonyms). */
+  realNames: boolean;
+}
+
+/** Edits allowed for a typed text of `n` code units: a third of it, at least one; more is unrelated. */
+export function editsAllowed(n: number): number {
+  return Math.max(1, Math.ceil(n / 3));
+}
+
+interface Candidate {
+  text: string;
+  score: number;
+  /** 0 for a whole path or an id, 1 for a path with leading segments left out. */
+  partial: number;
+  depth: number;
+  node: number;
+}
+
 /**
- * The existing path closest to a spec that matched nothing: follow the spec as far as it matches, then
- * take the child whose name is nearest by edit distance; a node anywhere whose name equals the spec's
- * last segment wins when there is one (the usual mistake is a wrong or missing ancestor).
+ * Up to {@link MAX_SUGGESTIONS} foci close to a spec that matched nothing, nearest first; none when
+ * nothing is close ({@link editsAllowed}). Case-insensitive Levenshtein distance between the spec and
+ * every node's whole path, every id, its name and its last k segments for a spec of k segments (so a
+ * missing or wrong ancestor, or a bare name, still finds the node). The search fills at most
+ * {@link MAX_SUGGEST_WORK} cells of distance tables. A glob is compared without its leading `**` segments, and
+ * only when no `*` is left. Ties: whole paths and ids before partial ones, shallower, then input order.
  */
-export function suggestPath(
-  index: PathIndex,
-  spec: string,
-  pathOf: (i: number) => string = (i) => index.path(i),
-): string | undefined {
+export function suggestFoci(index: PathIndex, spec: string, view: SuggestView): string[] {
+  const whole = comparable(spec);
+  if (whole === undefined || whole === "") return [];
+  // Lengths compare in full (a cheap bound on the distance); long texts by their ends (textScore).
+  const typed = whole.length;
+  if (view.realNames) {
+    // A name that itself contains "/" typed unescaped ("@scope/pkg" for "@scope~1pkg").
+    const joined = lenientResolve(index, spec);
+    if (joined > 0) return [view.path(joined)];
+  }
+  const allowed = editsAllowed(typed);
+  const k = whole.split("/").length;
+  const { tree } = index;
+  const best: Candidate[] = [];
+  const offer = (c: Candidate) => {
+    const same = best.findIndex((b) => b.node === c.node && b.text === c.text);
+    if (same >= 0) {
+      if (byRank(c, best[same]) >= 0) return;
+      best.splice(same, 1);
+    }
+    best.push(c);
+    best.sort(byRank);
+    if (best.length > MAX_SUGGESTIONS * 2) best.length = MAX_SUGGESTIONS * 2;
+  };
+  // The path to the current node, one lower-cased segment per depth, and the running lengths.
+  const start = distanceWork.cells;
+  const segs: string[] = [""];
+  const ends: number[] = [0];
+  for (let i = 1; i < tree.length; i++) {
+    const d = tree.depth[i];
+    const seg = view.segment(i);
+    segs[d] = seg;
+    ends[d] = ends[d - 1] + (d > 1 ? 1 : 0) + seg.length;
+    const worst = best.length >= MAX_SUGGESTIONS ? best[MAX_SUGGESTIONS - 1].score : allowed;
+    for (let c = 0; c < 3; c++) {
+      // The last segment, the last k segments (as many as typed), the whole path: each once.
+      const j = c === 0 ? 1 : c === 1 ? k : d;
+      if (j > d || (c === 1 && j === 1) || (c === 2 && (j === 1 || j === k))) continue;
+      // Levenshtein distance is at least the difference of the lengths: most candidates stop here.
+      const length = ends[d] - ends[d - j] - (d - j > 0 ? 1 : 0);
+      if (Math.abs(length - typed) > worst) continue;
+      const score = scoreOf(segs, d - j + 1, d, length, whole, worst);
+      if (score <= worst) offer({ text: "", score, partial: j === d ? 0 : 1, depth: d, node: i });
+    }
+    const id = view.id(i);
+    if (id && Math.abs(id.length - typed) <= worst) {
+      const score = textScore(id.toLowerCase(), whole, worst);
+      if (score <= worst) offer({ text: id, score, partial: 0, depth: d, node: i });
+    }
+    if (distanceWork.cells - start > MAX_SUGGEST_WORK) break;
+  }
+  const out: string[] = [];
+  for (const c of best) {
+    const text = c.text !== "" ? c.text : view.path(c.node);
+    if (!out.includes(text)) out.push(text);
+    if (out.length === MAX_SUGGESTIONS) break;
+  }
+  return out;
+}
+
+/** The score of the path `segs[from..to]` (`length` code units long) against the typed text. */
+function scoreOf(
+  segs: readonly string[],
+  from: number,
+  to: number,
+  length: number,
+  typed: string,
+  max: number,
+): number {
+  if (length <= MAX_COMPARED)
+    return textScore(
+      segs
+        .slice(from, to + 1)
+        .join("/")
+        .toLowerCase(),
+      typed,
+      max,
+    );
+  let head = segs[from];
+  for (let d = from + 1; d <= to && head.length < MAX_COMPARED; d++) head += `/${segs[d]}`;
+  let tail = segs[to];
+  for (let d = to - 1; d >= from && tail.length < MAX_COMPARED; d--) tail = `${segs[d]}/${tail}`;
+  return longScore(head.slice(0, MAX_COMPARED), tail.slice(-MAX_COMPARED), length, typed, max);
+}
+
+/**
+ * The edit distance of two texts when both fit {@link MAX_COMPARED}; for longer ones the largest of
+ * three lower-bound-like measures: the difference of the lengths and the distances of the first and of
+ * the last {@link MAX_COMPARED} code units (a typo in the middle of a very long path goes unseen).
+ */
+function textScore(text: string, typed: string, max: number): number {
+  if (text.length <= MAX_COMPARED && typed.length <= MAX_COMPARED) return boundedDistance(text, typed, max);
+  return longScore(text.slice(0, MAX_COMPARED), text.slice(-MAX_COMPARED), text.length, typed, max);
+}
+
+function longScore(head: string, tail: string, length: number, typed: string, max: number): number {
+  const lengths = Math.abs(length - typed.length);
+  if (lengths > max) return max + 1;
+  const first = boundedDistance(head.toLowerCase(), typed.slice(0, MAX_COMPARED), max);
+  if (first > max) return first;
+  return Math.max(lengths, first, boundedDistance(tail.toLowerCase(), typed.slice(-MAX_COMPARED), max));
+}
+
+function byRank(a: Candidate, b: Candidate): number {
+  return a.score - b.score || a.partial - b.partial || a.depth - b.depth || a.node - b.node;
+}
+
+/**
+ * The spec as compared: lower-cased, cut to {@link MAX_COMPARED}, without a leading `./` or `/` and,
+ * for a glob, without leading `**` segments; undefined when a `*` is left (no single text to compare).
+ */
+function comparable(spec: string): string | undefined {
+  let s = spec;
+  for (;;) {
+    if (s.startsWith("./")) s = s.slice(2);
+    else if (s.startsWith("/")) s = s.slice(1);
+    else if (s.startsWith("**/")) s = s.slice(3);
+    else break;
+  }
+  if (s.includes("*")) return undefined;
+  return s.toLowerCase();
+}
+
+/** The node a spec names when runs of its segments are read as one name containing "/"; -1 if none. */
+function lenientResolve(index: PathIndex, spec: string): number {
   let raw: string[];
   try {
-    raw = splitPath(spec);
+    raw = splitPath(spec.startsWith("./") ? spec.slice(2) : spec);
   } catch {
-    return undefined;
+    return -1;
   }
-  if (raw.length === 0) return undefined;
-  let last: string;
-  try {
-    last = parseSegment(raw[raw.length - 1]).name;
-  } catch {
-    last = raw[raw.length - 1];
-  }
-  const { tree } = index;
-  // A name that itself contains "/" typed unescaped ("@scope/pkg" for "@scope~1pkg").
-  const joined = lenientResolve(index, 0, raw, 0, { left: MAX_LOOKUPS });
-  if (joined >= 0) return pathOf(joined);
-  for (let i = 1; i < tree.length; i++) if (tree.name.get(i) === last) return pathOf(i);
-
-  let node = 0;
-  for (const text of raw) {
-    let seg: ReturnType<typeof parseSegment>;
-    try {
-      seg = parseSegment(text);
-    } catch {
-      seg = { name: text, rank: 1 };
-    }
-    const next = index.child(node, seg);
-    if (next >= 0) {
-      node = next;
-      continue;
-    }
-    let best = -1;
-    let bestScore = Number.POSITIVE_INFINITY;
-    const wanted = seg.name.slice(0, MAX_COMPARED).toLowerCase();
-    for (const [name, list] of index.childrenByName(node)) {
-      // Edit distance costs the product of the lengths: a 10 MB name must not stall the error message.
-      const score = distance(name.slice(0, MAX_COMPARED).toLowerCase(), wanted);
-      if (score < bestScore) {
-        bestScore = score;
-        best = list[0];
-      }
-    }
-    return best >= 0 ? pathOf(best) : node > 0 ? pathOf(node) : undefined;
-  }
-  return undefined;
+  return joinSegments(index, 0, raw, 0, { left: MAX_LOOKUPS });
 }
 
 /**
  * Resolves segments where a run of them (up to {@link MAX_JOINED}) may form one name containing "/";
  * -1 when none does. `work.left` bounds the lookups, so a crafted spec or tree cannot make it slow.
  */
-function lenientResolve(
+function joinSegments(
   index: PathIndex,
   node: number,
   raw: string[],
@@ -92,8 +209,19 @@ function lenientResolve(
     }
     const list = index.childrenByName(node).get(name);
     if (!list) continue;
-    const found = lenientResolve(index, list[0], raw, j + 1, work);
+    const found = joinSegments(index, list[0], raw, j + 1, work);
     if (found >= 0) return found;
   }
   return -1;
+}
+
+/** The view of a tree with its real names: escaped names, ids as stored, printed paths. */
+export function realView(index: PathIndex): SuggestView {
+  const { tree } = index;
+  return {
+    segment: (i) => escapeSegment(tree.name.get(i)),
+    id: (i) => (tree.ids ? tree.ids.get(i) : null),
+    path: (i) => index.path(i),
+    realNames: true,
+  };
 }

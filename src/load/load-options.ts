@@ -1,3 +1,4 @@
+import type { ReadLimits } from "./read-limits.js";
 import type { Table } from "./table/table.js";
 
 /**
@@ -40,6 +41,8 @@ export interface LoadOptions {
   rootName: string;
   /** Refuse inputs with more nodes than this (LIMIT_EXCEEDED). */
   maxNodes: number;
+  /** Lower limits of reading than `readLimits` (see read-limits.ts); tests and the fuzzer use tiny ones. */
+  limits?: Partial<ReadLimits>;
   /**
    * JSON and YAML: `nodes` reads node objects (children under the children field, or a field found to
    * hold them), `values` makes every value of the document a node; undefined chooses by the document

@@ -11,7 +11,7 @@ import {
   visit,
   type YAMLMap,
 } from "yaml";
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import { adjacencyNodes } from "./adjacency.js";
@@ -61,7 +61,7 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
       );
     }
     const reason = error.message.replace(/ at line \d+, column \d+:.*$/s, "");
-    throw new EspalierError("PARSE_YAML", `invalid YAML: ${reason}`, pos);
+    throw new EspalierError("PARSE_YAML", say`invalid YAML (${error.code}): ${quoted.excerpt(reason)}`, pos);
   }
   const root = doc.contents as YamlValue;
   if (root === null || (isScalar(root) && root.value === null)) {

@@ -1,5 +1,5 @@
 import { Buffer } from "node:buffer";
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 import { codecs } from "../model/buffer-codecs.js";
 import { ChildTable, doubled, hashStep, mix, seed } from "../model/child-hash.js";
 import { NamePool } from "../model/names.js";
@@ -167,11 +167,11 @@ export class PathPlacer {
     }
     if (!created) {
       if (this.explicit[node] === 1) {
-        const shown = JSON.stringify(bytes.toString("utf8", start, end));
+        const shown = quoted.path(bytes.toString("utf8", start, end));
         const unit = sink.originIsRow ? "row" : "line";
         throw new EspalierError(
           "DUPLICATE_PATH",
-          `${unit} ${origin} repeats the path ${shown} of ${unit} ${sink.origin[node]}`,
+          say`${unit} ${origin} repeats the path ${shown} of ${unit} ${sink.origin[node]}`,
           sink.originIsRow ? { row: origin } : { line: origin },
         );
       }

@@ -1,4 +1,4 @@
-import { EspalierError, type SourcePos } from "../errors.js";
+import { EspalierError, type MessagePart, quoted, quotedList, type SourcePos, say } from "../errors.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import { isSize } from "../model/size-rule.js";
 import { describeNode } from "./describe-node.js";
@@ -82,12 +82,12 @@ export function walkNested<V>(
     if (kind !== Kind.Map) {
       if (keyed[i] === 1 && kind === Kind.Number) {
         const size = access.number(v);
-        if (!isSize(size)) throw badSize(access.text(v), where(i), access.pos(v));
+        if (!isSize(size)) throw badSize(quoted.excerpt(access.text(v)), where(i), access.pos(v));
         sink.ownSize[i] = size;
         sink.hasSizes = true;
       } else if (keyed[i] !== 1 || kind !== Kind.Null) {
         const expected = keyed[i] === 1 ? "a node object, a number or null" : "a node object";
-        throw new EspalierError("SHAPE", `${where(i)} must be ${expected}`, access.pos(v));
+        throw new EspalierError("SHAPE", say`${where(i)} must be ${expected}`, access.pos(v));
       }
       for (const column of kept) column.push("");
       continue;
@@ -108,7 +108,7 @@ export function walkNested<V>(
       } else if (nameKind !== Kind.Null) {
         throw new EspalierError(
           "SHAPE",
-          `the "${nameField}" of ${where(i)} must be text`,
+          say`the "${nameField}" of ${where(i)} must be text`,
           access.pos(nameValue),
         );
       }
@@ -121,7 +121,7 @@ export function walkNested<V>(
       if (!isSize(size)) {
         // As written: a size past 2^53 - 1 must not be shown as its rounded neighbour.
         throw badSize(
-          access.source(sizeValue as V) || access.text(sizeValue as V),
+          quoted.excerpt(access.source(sizeValue as V) || access.text(sizeValue as V)),
           where(i),
           access.pos(sizeValue),
         );
@@ -129,10 +129,10 @@ export function walkNested<V>(
       sink.ownSize[i] = size;
       sink.hasSizes = true;
     } else if (sizeKind !== Kind.Null) {
-      const shown = sizeKind === Kind.String ? JSON.stringify(access.text(sizeValue as V)) : "a non-number";
+      const shown = sizeKind === Kind.String ? quoted.value(access.text(sizeValue as V)) : "a non-number";
       throw new EspalierError(
         "BAD_SIZE",
-        `the "${sizeField}" of ${where(i)} must be a number from 0 to 2^53 - 1, got ${shown}`,
+        say`the "${sizeField}" of ${where(i)} must be a number from 0 to 2^53 - 1, got ${shown}`,
         access.pos(sizeValue),
       );
     }
@@ -156,12 +156,12 @@ export function walkNested<V>(
     if (childrenKind !== Kind.Seq && childrenKind !== Kind.Map) {
       throw new EspalierError(
         "SHAPE",
-        `the "${childrenField}" of ${where(i)} must be an array or an object keyed by child name`,
+        say`the "${childrenField}" of ${where(i)} must be an array or an object keyed by child name`,
         access.pos(children),
       );
     }
     if (!access.claim(children as V))
-      throw twoParents(`the "${childrenField}" of ${where(i)}`, access.pos(children));
+      throw twoParents(say`the "${childrenField}" of ${where(i)}`, access.pos(children));
     if (childrenKind === Kind.Seq) {
       for (const item of access.items(children as V)) {
         sink.add(i, "", access.line(item));
@@ -201,15 +201,9 @@ export function walkNested<V>(
       return kind === Kind.Map || kind === Kind.Seq;
     });
     if (nested.length > 0) {
-      const names = nested
-        .slice(0, 12)
-        .map((name) => JSON.stringify(name))
-        .join(", ");
       throw new EspalierError(
         "FIELD_MISSING",
-        `no node has the children field "${childrenField}", so the input would be one node; ` +
-          `the top-level mapping's fields holding mappings or sequences are ${names}: ` +
-          "name the one holding the children with --children-field, or read every value with --read-as values",
+        say`no node has the children field "${childrenField}", so the input would be one node; the top-level mapping's fields holding mappings or sequences are ${quotedList("name", nested)}: name the one holding the children with --children-field, or read every value with --read-as values`,
       );
     }
   }
@@ -222,18 +216,18 @@ export function walkNested<V>(
   });
 }
 
-function badSize(shown: string, where: string, pos: SourcePos | undefined): EspalierError {
+function badSize(shown: MessagePart, where: MessagePart[], pos: SourcePos | undefined): EspalierError {
   return new EspalierError(
     "BAD_SIZE",
-    `the size of ${where} must be a number from 0 to 2^53 - 1, got ${shown}`,
+    say`the size of ${where} must be a number from 0 to 2^53 - 1, got ${shown}`,
     pos,
   );
 }
 
-function twoParents(what: string, pos: SourcePos | undefined): EspalierError {
+function twoParents(what: MessagePart[], pos: SourcePos | undefined): EspalierError {
   return new EspalierError(
     "TWO_PARENTS",
-    `${what} is an alias of something already placed in the tree, so a node would have two parents`,
+    say`${what} is an alias of something already placed in the tree, so a node would have two parents`,
     pos,
   );
 }

@@ -1,4 +1,4 @@
-import { EspalierError } from "../errors.js";
+import { EspalierError, type MessagePart, quoted, say } from "../errors.js";
 import { checkSizes } from "./check-sizes.js";
 import type { LinkedNodes } from "./linked-nodes.js";
 import { NamePool } from "./names.js";
@@ -200,15 +200,17 @@ function cycleError(input: PooledNodes, par: Int32Array, visited: Int32Array, fi
   const cycle: number[] = [cur];
   for (let c = par[cur]; c !== cur; c = par[c]) cycle.push(c);
   const unit = input.originIsRow ? "row" : "line";
-  const where = (i: number) =>
-    `${unit} ${input.origin[i]}${input.ids ? ` (id ${JSON.stringify(input.ids.get(i))})` : ""}`;
+  const where = (i: number): MessagePart[] =>
+    input.ids
+      ? say`${unit} ${input.origin[i]} (id ${quoted.id(input.ids.get(i))})`
+      : [`${unit} ${input.origin[i]}`];
   const first = cycle.reduce((a, b) => (input.origin[a] <= input.origin[b] ? a : b));
   const pos = input.originIsRow ? { file, row: input.origin[first] } : { file, line: input.origin[first] };
-  if (cycle.length === 1) return new EspalierError("CYCLE", `${where(cur)} is its own parent`, pos);
-  const shown = cycle.slice(0, 6).map(where).join(" -> ");
+  if (cycle.length === 1) return new EspalierError("CYCLE", [...where(cur), " is its own parent"], pos);
+  const shown = cycle.slice(0, 6).flatMap((c, k) => (k === 0 ? where(c) : [" -> ", ...where(c)]));
   return new EspalierError(
     "CYCLE",
-    `the parent links form a cycle of ${cycle.length} nodes: ${shown}${cycle.length > 6 ? " -> …" : ""}`,
+    [`the parent links form a cycle of ${cycle.length} nodes: `, ...shown, cycle.length > 6 ? " -> …" : ""],
     pos,
   );
 }

@@ -1,4 +1,4 @@
-import { EspalierError, type SourcePos } from "../errors.js";
+import { EspalierError, type MessagePart, quoted, type SourcePos } from "../errors.js";
 import type { LinkedNodes } from "./linked-nodes.js";
 import type { Names } from "./names.js";
 import { isSize, MAX_SIZE } from "./size-rule.js";
@@ -18,7 +18,12 @@ export function checkSizes(input: LinkedNodes & { name: Names }, file?: string):
     if (!isSize(size)) {
       throw new EspalierError(
         "BAD_SIZE",
-        `the size of ${where(input, i)} must be a number from 0 to 2^53 - 1, got ${size}`,
+        [
+          "the size of ",
+          where(input, i),
+          " must be a number from 0 to 2^53 - 1, got ",
+          quoted.value(String(size)),
+        ],
         position(input, i, file),
       );
     }
@@ -30,18 +35,21 @@ export function checkSizes(input: LinkedNodes & { name: Names }, file?: string):
     if (total > MAX_SIZE) {
       throw new EspalierError(
         "BAD_SIZE",
-        `the sizes add up to more than 2^53 - 1 (${MAX_SIZE}) by ${where(input, i)}; ` +
-          "totals beyond that cannot be exact",
+        [
+          `the sizes add up to more than 2^53 - 1 (${MAX_SIZE}) by `,
+          where(input, i),
+          "; totals beyond that cannot be exact",
+        ],
         position(input, i, file),
       );
     }
   }
 }
 
-function where(input: LinkedNodes & { name: Names }, i: number): string {
+function where(input: LinkedNodes & { name: Names }, i: number): MessagePart {
   const at = input.origin[i];
   if (at > 0) return `${input.originIsRow ? "row" : "line"} ${at}`;
-  return `node ${JSON.stringify(input.name.get(i))}`;
+  return quoted.name(input.name.get(i));
 }
 
 function position(input: LinkedNodes, i: number, file: string | undefined): SourcePos | undefined {

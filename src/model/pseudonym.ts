@@ -1,4 +1,5 @@
 import { createHmac } from "node:crypto";
+import type { InputText } from "../errors.js";
 import type { Tree } from "./tree.js";
 
 /**
@@ -21,5 +22,24 @@ export function hiddenIds(tree: Tree, key: string | undefined): (i: number) => s
   return (i) => {
     const id = ids.get(i);
     return id === "" ? "" : pseudonym(key, id);
+  };
+}
+
+/**
+ * How input text quoted in an error prints under `--pseudonymize`: a name or an id as its pseudonym, a
+ * node path segment by segment, anything else (a value, a parser's excerpt) as `(hidden)`; so an error
+ * line in a CI log shows no more of the input than the output does.
+ */
+export function pseudonymousInput(secret: string): (t: InputText) => string {
+  return (t) => {
+    if (t.kind === "name" || t.kind === "id") return JSON.stringify(pseudonym(secret, t.text));
+    if (t.kind === "path")
+      return JSON.stringify(
+        t.text
+          .split("/")
+          .map((seg) => (seg === "" ? "" : pseudonym(secret, seg)))
+          .join("/"),
+      );
+    return "(hidden)";
   };
 }

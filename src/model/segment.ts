@@ -1,4 +1,4 @@
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 
 // Path segments use the escaping of RFC 6901 (JSON Pointer), section 3: "~" -> "~0", "/" -> "~1".
 
@@ -42,7 +42,7 @@ export function parseSegment(text: string): Segment {
     else
       throw new EspalierError(
         "FOCUS_SYNTAX",
-        `"~" must be followed by 0 or 1 in a path segment (RFC 6901 escaping): ${JSON.stringify(text)}`,
+        say`"~" must be followed by 0 or 1 in a path segment (RFC 6901 escaping): ${quoted.value(text)}`,
       );
     i++;
   }

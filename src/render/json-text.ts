@@ -1,10 +1,14 @@
 import { EspalierError } from "../errors.js";
 
-// What JSON.stringify leaves raw that a terminal or a log viewer may act on: DEL and the C1 controls
-// (U+009B is a one-character CSI), the line and paragraph separators, and the bidirectional controls
-// (Unicode UAX #9; the "Trojan Source" attack is CVE-2021-42574). JSON text holds them only inside
-// strings, where a \u escape stands for the same character (RFC 8259, section 7).
-const RAW = /[\u007f-\u009f\u061c\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2069]/g;
+// What JSON.stringify leaves raw that a terminal or a log viewer may act on or not show: DEL and the C1
+// controls (U+009B is a one-character CSI), the line and paragraph separators, every format character
+// (General_Category Cf, the bidirectional controls of Unicode UAX #9 among them; the "Trojan Source"
+// attack is CVE-2021-42574) and every other Default_Ignorable_Code_Point (Unicode
+// DerivedCoreProperties.txt), which print as nothing. JSON text holds them only inside strings, where a
+// \u escape (a surrogate pair's two, past U+FFFF) stands for the same character (RFC 8259, section 7).
+const RAW = /[\u007f-\u009f\u2028\u2029\p{Cf}\p{Default_Ignorable_Code_Point}]/gu;
+// The bracket of a CI runner's command marker ("##[", "##vso["; see render/safe-text.ts) inside a string.
+const CI_MARKER = /##(vso)?\[/gi;
 
 /**
  * `value` as JSON text (RFC 8259), two-space indented, ending in a newline: JSON.stringify's text with
@@ -14,7 +18,8 @@ const RAW = /[\u007f-\u009f\u061c\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2
  */
 export function jsonText(value: unknown, what: string): string {
   try {
-    return `${JSON.stringify(value, null, 2).replace(RAW, unicodeEscape)}\n`;
+    const text = JSON.stringify(value, null, 2);
+    return `${text.replace(RAW, unicodeEscape).replace(CI_MARKER, (m) => `${m.slice(0, -1)}\\u005b`)}\n`;
   } catch (error) {
     if (!(error instanceof RangeError)) throw error;
     throw new EspalierError(
@@ -26,5 +31,7 @@ export function jsonText(value: unknown, what: string): string {
 }
 
 function unicodeEscape(ch: string): string {
-  return `\\u${ch.charCodeAt(0).toString(16).padStart(4, "0")}`;
+  let out = "";
+  for (let k = 0; k < ch.length; k++) out += `\\u${ch.charCodeAt(k).toString(16).padStart(4, "0")}`;
+  return out;
 }

@@ -15,7 +15,22 @@ const ENTITY: Record<string, string> = {
 const NOT_XML =
   /[\u0000-\u0008\u000B\u000C\u000E-\u001F\uFFFE\uFFFF]|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/g;
 
-/** Text made literal inside XML character data or a quoted attribute value: no markup can survive. */
+// A line that begins (after blanks) with "::" or "##" is a command to some CI runners (common practice,
+// no source: GitHub Actions "::", Azure Pipelines "##vso[" and "##["). Text with line breaks (a
+// tooltip) puts its own lines in the file; their first character is written as a character reference,
+// which an SVG viewer shows as the character itself.
+const LINE_START_COMMAND = /(^|\n)([ \t]*)([:#])(?=[:#])/g;
+
+/**
+ * Text made literal inside XML character data or a quoted attribute value: no markup can survive, and
+ * no line of it can start with a CI runner's command prefix.
+ */
 export function xmlEscape(text: string): string {
-  return text.replace(NOT_XML, "\uFFFD").replace(SPECIAL, (ch) => ENTITY[ch]);
+  return text
+    .replace(NOT_XML, "\uFFFD")
+    .replace(SPECIAL, (ch) => ENTITY[ch])
+    .replace(
+      LINE_START_COMMAND,
+      (_m, br: string, blanks: string, ch: string) => `${br}${blanks}&#${ch.charCodeAt(0)};`,
+    );
 }

@@ -1,5 +1,5 @@
 import { spawnSync } from "node:child_process";
-import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { lstatSync, mkdtempSync, readFileSync, symlinkSync, writeFileSync } from "node:fs";
 import { readFile } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
@@ -7,6 +7,7 @@ import { describe, expect, it } from "vitest";
 import { exploreCommand, runView, type Terminal } from "../../src/cli/explore-command.js";
 import type { CliIO } from "../../src/cli/io.js";
 import { summaryOptionsSchema } from "../../src/cli/options.js";
+import { type ReadBound, readBounded } from "../../src/cli/read-bounded.js";
 import { summarySession } from "../../src/explore/session.js";
 import { ENTER, ERASE_LINE, HOME, LEAVE } from "../../src/explore/terminal.js";
 import { startState } from "../../src/explore/update.js";
@@ -69,7 +70,8 @@ const io = (env: Record<string, string> = {}): CliIO => ({
   stdout: { write: () => true, isTTY: true, rows: 24, columns: 80 },
   stderr: { write: () => true },
   readStdin: async () => Buffer.alloc(0),
-  readFile: (p: string) => readFile(p),
+  // As the launcher reads: bounded when the caller gives a bound (bin/espalier.js).
+  readFile: (p: string, bound?: ReadBound) => (bound ? readBounded(p, bound) : readFile(p)),
   env,
 });
 
@@ -316,5 +318,16 @@ describe("espalier explore", () => {
     expect(terminal.written).toContain("USAGE (details hidden under --pseudonymize)");
     expect(terminal.written).not.toContain("Rosa");
     expect(readFileSync(file, "utf8")).toBe("focus: [Rosa Istrian\n");
+  });
+
+  it("w onto a config name that links to a device: refused as IO (read bounded as any config), no hang", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "espalier-explore-"));
+    const file = join(dir, "team.yaml");
+    symlinkSync("/dev/zero", file);
+    const erase = "\u007f".repeat("foci.txt".length);
+    const terminal = new FakeTerminal(["w", erase, file, "\r", { wait: 1000 }, "q"], 24, 200);
+    await exploreCommand(ORG, undefined, options(), io(), { terminal });
+    expect(terminal.written).toContain("is a device");
+    expect(lstatSync(file).isSymbolicLink()).toBe(true);
   });
 });

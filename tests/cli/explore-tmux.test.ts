@@ -164,6 +164,17 @@ describe("espalier explore in a terminal (tmux)", () => {
     expect(readFileSync(files.after, "utf8")).toBe(readFileSync(files.before, "utf8"));
   });
 
+  it("with --pseudonymize, an input error names no person (names as pseudonyms, values hidden)", async () => {
+    // Invented people of Quillfeather Instruments; the negative size is the fault (BAD_SIZE).
+    const file = join(dir, "org.json");
+    writeFileSync(file, '{"name":"Talia Brenbek","children":[{"name":"Marit Okonkwo","size":-3}]}');
+    const { name, files } = start([file, "--pseudonymize"], 200, 10, { ESPALIER_PSEUDONYM_KEY: "k" });
+    expect(await exited(files)).toBe(2);
+    const printed = tmux("capture-pane", "-p", "-J", "-t", name);
+    expect(printed).toMatch(/\[BAD_SIZE\]/);
+    expect(printed).not.toMatch(/Talia|Marit/);
+  });
+
   it("refuses cleanly when standard output is not a terminal", () => {
     const out = spawnSync("node", [BIN, "explore", "fixtures/tidewater-deps.json"], { encoding: "utf8" });
     expect(out.status).toBe(2);

@@ -1,6 +1,7 @@
 import { readFile } from "node:fs/promises";
 import { CONFIG_FILES } from "../../src/cli/config.js";
 import { run } from "../../src/cli/main.js";
+import { type ReadBound, readBounded, readStreamBounded } from "../../src/cli/read-bounded.js";
 import type { OutputFiles } from "../../src/cli/write-output.js";
 
 export interface CliResult {
@@ -45,14 +46,17 @@ export async function cli(
         return true;
       },
     },
-    readStdin: async () =>
-      typeof options.stdin === "string" || options.stdin === undefined
-        ? Buffer.from(options.stdin ?? "", "utf8")
-        : Buffer.from(options.stdin),
-    readFile: (p: string) => {
+    readStdin: async (bound?: ReadBound) => {
+      const bytes =
+        typeof options.stdin === "string" || options.stdin === undefined
+          ? Buffer.from(options.stdin ?? "", "utf8")
+          : Buffer.from(options.stdin);
+      return bound ? readStreamBounded([bytes], "-", bound) : bytes;
+    },
+    readFile: (p: string, bound?: ReadBound) => {
       if (options.files && p in options.files) return Promise.resolve(Buffer.from(options.files[p], "utf8"));
       if ((CONFIG_FILES as readonly string[]).includes(p)) return Promise.reject(notFound(p));
-      return readFile(p);
+      return bound ? readBounded(p, bound) : readFile(p);
     },
     env: options.env ?? {},
     outputFiles: options.outputFiles,

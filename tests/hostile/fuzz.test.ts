@@ -99,6 +99,34 @@ const SEEDS: Seed[] = [
   { format: "paths", text: head("fixtures/tidewater-files.paths", 60) },
   { format: "paths", text: "a/b/c\n/abs/x\nd//e/\n./f\na/b\n" },
   { format: "yaml", text: head("fixtures/quillfeather-costs.yaml", 40) },
+  // The readings choose-reading picks by shape: a map keyed by path ("" the root, as lock files
+  // write it), every value a node (JSON and YAML), and a path list of NUL-ended entries.
+  {
+    format: "json",
+    text:
+      '{"name": "tidewater", "lockfileVersion": 3, "packages": {"": {"version": "1.0.0"},\n' +
+      ' "node_modules/ledger-core": {"version": "2.1.0", "size": 2048},\n' +
+      ' "node_modules/ledger-core/node_modules/mooring": {"size": 7},\n' +
+      ' "node_modules/@tidewater/tide-tables": {"size": 1.5e2, "dev": true}}}\n',
+  },
+  {
+    format: "json",
+    text: '{"tidewater": {"services": ["ledger", {"mooring-log": 7}], "ok": true, "none": null, "a/b~c": ""}}\n',
+    options: { readAs: "values" },
+    args: ["--read-as", "values"],
+  },
+  {
+    format: "yaml",
+    text: "tidewater:\n  services: [ledger, {mooring-log: 7}]\n  ok: true\n  base: &b {x: 1}\n  copy: *b\n",
+    options: { readAs: "values" },
+    args: ["--read-as", "values"],
+  },
+  {
+    format: "paths",
+    text: "12\tservices/ledger/src\x007\tservices/ledger/test\x000\tdocs/read me\n\x00",
+    options: { nulSeparated: true },
+    args: ["--nul-separated"],
+  },
 ];
 
 const INTERESTING = [
@@ -274,6 +302,36 @@ describe("fuzz: random and mutated inputs", () => {
         fc.asyncProperty(input, fc.array(where, { maxLength: 8 }), async (c, cuts) => {
           const options = { ...defaultLoadOptions, ...c.options, format: c.format };
           await typedOnly(() => loadTreeFromStream(chunks(c.bytes, cuts), options));
+        }),
+        params,
+      );
+    },
+    TIMEOUT,
+  );
+
+  it(
+    "loadTreeFromStream(chunks) with tiny read limits stops at a limit with LIMIT_EXCEEDED, never holds more",
+    async () => {
+      const limits = fc.record({
+        maxLineBytes: fc.integer({ min: 1, max: 64 }),
+        maxTokenBytes: fc.integer({ min: 1, max: 32 }),
+        maxYamlBytes: fc.integer({ min: 1, max: 512 }),
+      });
+      await fc.assert(
+        fc.asyncProperty(input, fc.array(where, { maxLength: 8 }), limits, async (c, cuts, lim) => {
+          const options = { ...defaultLoadOptions, ...c.options, format: c.format, limits: lim };
+          const tree = await typedOnly(() => loadTreeFromStream(chunks(c.bytes, cuts), options));
+          if (!tree) return;
+          // A tree came back: no piece held whole past its limit can have been in the input.
+          if (c.format === "yaml") expect(c.bytes.length).toBeLessThanOrEqual(lim.maxYamlBytes + 3);
+          if (c.format === "paths" || c.format === "csv" || c.format === "tsv") {
+            const end = c.options?.nulSeparated === true ? 0x00 : 0x0a;
+            let run = 0;
+            for (const b of c.bytes) {
+              run = b === end ? 0 : run + 1;
+              if (c.format === "paths") expect(run).toBeLessThanOrEqual(lim.maxLineBytes + 1);
+            }
+          }
         }),
         params,
       );

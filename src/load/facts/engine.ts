@@ -1,5 +1,5 @@
 import { createRequire } from "node:module";
-import { EspalierError } from "../../errors.js";
+import { EspalierError, quoted, say } from "../../errors.js";
 
 /** A query's result, column by column: values as the engine hands them to JavaScript. */
 export interface Columns {
@@ -74,7 +74,8 @@ export async function openEngine(settings: EngineSettings = {}, from: string = P
 
 /** An error the engine raised (a file it cannot read, a value it cannot convert), as ENGINE_FAILED. */
 export function engineFailed(err: unknown): EspalierError {
-  return new EspalierError("ENGINE_FAILED", `the SQL engine reported: ${firstLine(err)}`);
+  // The engine's words may quote the data (a value it cannot convert): an excerpt, hidden by --pseudonymize.
+  return new EspalierError("ENGINE_FAILED", say`the SQL engine reported: ${quoted.excerpt(firstLine(err))}`);
 }
 
 function firstLine(err: unknown): string {

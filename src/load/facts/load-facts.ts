@@ -1,7 +1,7 @@
 import { open } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import { parse } from "csv-parse/sync";
-import { EspalierError } from "../../errors.js";
+import { EspalierError, quoted as input, quotedList, say } from "../../errors.js";
 import type { Tree } from "../../model/tree.js";
 import { missingField, sizeFieldNamed } from "../missing-field.js";
 import { type Columns, type Engine, type EngineSettings, openEngine } from "./engine.js";
@@ -225,7 +225,7 @@ function requireColumns(columns: readonly string[], facts: FactOptions): void {
   if (missing.length > 0) {
     throw new EspalierError(
       "FIELD_MISSING",
-      `the table has no column ${missing.map((m) => JSON.stringify(m)).join(", ")}; columns: ${columns.join(", ")}`,
+      say`the table has no column ${quotedList("name", missing)}; columns: ${quotedList("name", columns, 40)}`,
     );
   }
 }
@@ -241,14 +241,18 @@ async function run(engine: Engine, sql: string, load: FactLoad, hasSize = false)
     if (!(err instanceof EspalierError)) throw err;
     const csvLine = /CSV Error on Line: (\d+)/.exec(err.message);
     if (csvLine) {
-      throw new EspalierError("PARSE_CSV", err.message.replace(/^the SQL engine reported: /, ""), {
-        line: Number(csvLine[1]),
-      });
+      throw new EspalierError(
+        "PARSE_CSV",
+        say`${input.excerpt(err.message.replace(/^the SQL engine reported: /, ""))}`,
+        {
+          line: Number(csvLine[1]),
+        },
+      );
     }
     if (hasSize && /Conversion Error/i.test(err.message)) {
       throw new EspalierError(
         "BAD_SIZE",
-        `a value of the size column ${JSON.stringify(load.facts.sizeField)} is not a number (${err.message})`,
+        say`a value of the size column ${JSON.stringify(load.facts.sizeField)} is not a number (${input.excerpt(err.message)})`,
       );
     }
     throw err;

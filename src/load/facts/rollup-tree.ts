@@ -1,4 +1,4 @@
-import { EspalierError } from "../../errors.js";
+import { EspalierError, type MessagePart, quoted, quotedList, say } from "../../errors.js";
 import { checkSizes } from "../../model/check-sizes.js";
 import { NamePool } from "../../model/names.js";
 import type { Tree } from "../../model/tree.js";
@@ -69,7 +69,7 @@ export function rollupTree(result: Columns, options: RollupTreeOptions): Tree {
       if (min !== null && min !== undefined && Number(min) < 0) {
         throw new EspalierError(
           "BAD_SIZE",
-          `a size under ${describe(levels)} is negative (${Number(min)}); sizes must be from 0 to 2^53 - 1`,
+          say`a size under ${describe(levels)} is negative (${Number(min)}); sizes must be from 0 to 2^53 - 1`,
           options.rowsAreInput ? { row: r + 1 } : undefined,
         );
       }
@@ -127,7 +127,7 @@ function build(
     while (stack.length > d) stack.pop();
     const p = stack[stack.length - 1];
     if (stack.length !== d || !isPrefix(all[p].levels, row.levels)) {
-      throw shape(`${describe(row.levels)} has no row for its parent`, row.at - 1, options);
+      throw shape(say`${describe(row.levels)} has no row for its parent`, row.at - 1, options);
     }
     if (i > 1 && compareLevels(nodes[i - 2].levels, row.levels) === 0)
       throw duplicate(row.levels, nodes[i - 2].at, row.at - 1, options);
@@ -159,8 +159,7 @@ function build(
     }
     if (ownRows[i] + childRows[i] !== rowsOf[i]) {
       throw shape(
-        `${describe(all[i].levels)} counts ${rowsOf[i]} rows but its own rows and its children's add up to ` +
-          `${ownRows[i] + childRows[i]}: the result is not a complete rollup`,
+        say`${describe(all[i].levels)} counts ${rowsOf[i]} rows but its own rows and its children's add up to ${ownRows[i] + childRows[i]}: the result is not a complete rollup`,
         all[i].at - 1,
         options,
       );
@@ -170,7 +169,7 @@ function build(
   for (const [key, row] of own) {
     if (!known.has(key)) {
       const levels = JSON.parse(key) as string[];
-      throw shape(`own rows of ${describe(levels)}, which has no row of its own`, row.at - 1, options);
+      throw shape(say`own rows of ${describe(levels)}, which has no row of its own`, row.at - 1, options);
     }
   }
   const fields = new Map<string, string[]>();
@@ -272,8 +271,7 @@ function columnsOf(result: Columns): ColumnIndex {
   if (missing.length > 0) {
     throw new EspalierError(
       "FIELD_MISSING",
-      `a rollup result needs the columns ${C.depth}, ${C.level}1…, ${C.rows} (and ${C.size} for sizes); ` +
-        `missing ${missing.join(", ")}; columns: ${result.names.join(", ")}`,
+      say`a rollup result needs the columns ${C.depth}, ${C.level}1…, ${C.rows} (and ${C.size} for sizes); missing ${missing.join(", ")}; columns: ${quotedList("name", result.names, 40)}`,
     );
   }
   return index;
@@ -312,14 +310,15 @@ function keyOf(levels: readonly string[]): string {
   return JSON.stringify(levels);
 }
 
-function describe(levels: readonly string[]): string {
-  return levels.length === 0 ? "the total" : JSON.stringify(levels.join("/"));
+/** A rollup node for a message: its levels as a path, marked as input text (hidden by --pseudonymize). */
+function describe(levels: readonly string[]): MessagePart {
+  return levels.length === 0 ? "the total" : quoted.path(levels.join("/"));
 }
 
 function wholeNumber(value: unknown, column: string, r: number, options: RollupTreeOptions): number {
   const v = typeof value === "bigint" ? Number(value) : typeof value === "string" ? Number(value) : value;
   if (typeof v !== "number" || !Number.isInteger(v) || v < 0)
-    throw shape(`${column} must be a whole number, got ${String(value)}`, r, options);
+    throw shape(say`${column} must be a whole number, got ${quoted.value(String(value))}`, r, options);
   return v;
 }
 
@@ -330,14 +329,14 @@ function sizeValue(value: unknown): number {
   return Object.is(v, -0) ? 0 : v;
 }
 
-function shape(message: string, r: number, options: RollupTreeOptions): EspalierError {
+function shape(message: string | MessagePart[], r: number, options: RollupTreeOptions): EspalierError {
   return new EspalierError("SHAPE", message, options.rowsAreInput && r >= 0 ? { row: r + 1 } : undefined);
 }
 
 function duplicate(levels: readonly string[], first: number, r: number, options: RollupTreeOptions) {
   return new EspalierError(
     "DUPLICATE_PATH",
-    `${describe(levels)} has two rows (${first} and ${r + 1}) in the rollup result`,
+    say`${describe(levels)} has two rows (${first} and ${r + 1}) in the rollup result`,
     options.rowsAreInput ? { row: r + 1 } : undefined,
   );
 }

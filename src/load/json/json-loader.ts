@@ -1,5 +1,5 @@
 import type { Buffer } from "node:buffer";
-import { EspalierError, type SourcePos } from "../../errors.js";
+import { EspalierError, type MessagePart, quoted, quotedList, type SourcePos, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { isSize } from "../../model/size-rule.js";
 import { describeNode } from "../describe-node.js";
@@ -113,7 +113,7 @@ export class JsonLoader extends JsonTokenizer {
   private readonly kept: (string | undefined)[][];
   private readonly probe: RowsProbe;
   private readonly rows: unknown[] = [];
-  private readonly captures = new Captures();
+  private readonly captures: Captures;
   private readonly found: boolean;
   // The top-level node object's last key, and its fields holding an object or array that are not its
   // children (a lone root with these is not what the input holds: see `end`).
@@ -131,8 +131,9 @@ export class JsonLoader extends JsonTokenizer {
 
   /** `found`: espalier chose `options.childrenField` (the configured one was absent). */
   constructor(options: LoadOptions, as?: "json" | "rows", found = false) {
-    super();
+    super(options.limits);
     this.options = options;
+    this.captures = new Captures(this.maxTokenBytes);
     this.found = found;
     this.probe = new RowsProbe(as);
     this.sink = new NodeSink(options.maxNodes, false);
@@ -185,12 +186,9 @@ export class JsonLoader extends JsonTokenizer {
 
   /** FIELD_MISSING: the document would load as one node, though its top-level object holds more. */
   private loneRoot(): EspalierError {
-    const names = this.rootContainers.map((name) => JSON.stringify(name)).join(", ");
     return new EspalierError(
       "FIELD_MISSING",
-      `no node has the children field "${this.options.childrenField}", so the input would be one node; ` +
-        `the top-level object's fields holding objects or arrays are ${names}: ` +
-        "name the one holding the children with --children-field, or read every value with --read-as values",
+      say`no node has the children field "${this.options.childrenField}", so the input would be one node; the top-level object's fields holding objects or arrays are ${quotedList("name", this.rootContainers)}: name the one holding the children with --children-field, or read every value with --read-as values`,
     );
   }
 
@@ -273,7 +271,7 @@ export class JsonLoader extends JsonTokenizer {
   }
 
   protected chunkEnd(buf: Buffer): void {
-    this.captures.chunkEnd(buf);
+    this.captures.chunkEnd(buf, this.pos.line);
   }
 
   // ---------------------------------------------------------------------------------------------------
@@ -307,7 +305,7 @@ export class JsonLoader extends JsonTokenizer {
           this.sink.ownSize[j] = value;
           this.sized[j] = 1;
         } else if (kind !== NULL) {
-          throw new EspalierError("SHAPE", `${this.where(j)} must be a node object, a number or null`, {
+          throw new EspalierError("SHAPE", say`${this.where(j)} must be a node object, a number or null`, {
             line: this.pos.line,
             column,
           });
@@ -318,7 +316,7 @@ export class JsonLoader extends JsonTokenizer {
       case S_TOP_ITEM: {
         this.probe.nodes();
         const j = this.addNode(this.slot === S_CHILD ? this.frames[top].node : -1, "");
-        throw new EspalierError("SHAPE", `${this.where(j)} must be a node object`, {
+        throw new EspalierError("SHAPE", say`${this.where(j)} must be a node object`, {
           line: this.pos.line,
           column,
         });
@@ -424,7 +422,11 @@ export class JsonLoader extends JsonTokenizer {
       case S_KEYED: {
         const j = this.keyedChild(top - 1);
         if (!object) {
-          throw new EspalierError("SHAPE", `${this.where(j)} must be a node object, a number or null`, pos);
+          throw new EspalierError(
+            "SHAPE",
+            say`${this.where(j)} must be a node object, a number or null`,
+            pos,
+          );
         }
         role = NODE;
         this.nodeFrame(frame, j, true);
@@ -522,7 +524,7 @@ export class JsonLoader extends JsonTokenizer {
     const i = frame.node;
     const { nameField, sizeField, childrenField } = this.options;
     if (!frame.keyed && frame.nameKind === COLLECTION) {
-      throw new EspalierError("SHAPE", `the "${nameField}" of ${this.where(i)} must be text`, {
+      throw new EspalierError("SHAPE", say`the "${nameField}" of ${this.where(i)} must be text`, {
         line: frame.nameLine,
         column: frame.nameColumn,
       });
@@ -539,10 +541,10 @@ export class JsonLoader extends JsonTokenizer {
       this.sink.ownSize[i] = size;
       this.sized[i] = 1;
     } else if (sizeKind !== ABSENT && sizeKind !== NULL) {
-      const shownSize = sizeKind === STRING ? JSON.stringify(frame.sizeText) : "a non-number";
+      const shownSize = sizeKind === STRING ? quoted.value(frame.sizeText) : "a non-number";
       throw new EspalierError(
         "BAD_SIZE",
-        `the "${sizeField}" of ${this.where(i)} must be a number from 0 to 2^53 - 1, got ${shownSize}`,
+        say`the "${sizeField}" of ${this.where(i)} must be a number from 0 to 2^53 - 1, got ${shownSize}`,
         { line: frame.sizeLine, column: frame.sizeColumn },
       );
     }
@@ -550,7 +552,7 @@ export class JsonLoader extends JsonTokenizer {
     if (childrenKind === STRING || childrenKind === NUMBER || childrenKind === BOOLEAN) {
       throw new EspalierError(
         "SHAPE",
-        `the "${childrenField}" of ${this.where(i)} must be an array or an object keyed by child name`,
+        say`the "${childrenField}" of ${this.where(i)} must be an array or an object keyed by child name`,
         { line: frame.childrenLine, column: frame.childrenColumn },
       );
     }
@@ -565,14 +567,14 @@ export class JsonLoader extends JsonTokenizer {
   // ---------------------------------------------------------------------------------------------------
   // Messages.
 
-  private where(i: number): string {
+  private where(i: number): MessagePart[] {
     return describeNode(this.sink.parentOf, this.sink.name, i);
   }
 
   private badSize(shownSize: string, i: number, pos: SourcePos | undefined): EspalierError {
     return new EspalierError(
       "BAD_SIZE",
-      `the size of ${this.where(i)} must be a number from 0 to 2^53 - 1, got ${shownSize}`,
+      say`the size of ${this.where(i)} must be a number from 0 to 2^53 - 1, got ${shownSize}`,
       pos,
     );
   }

@@ -1,5 +1,5 @@
 import type { Buffer } from "node:buffer";
-import { EspalierError } from "../../errors.js";
+import { EspalierError, type MessagePart, quoted, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { LoadOptions } from "../load-options.js";
 import { linkPathMap } from "../table/link-table.js";
@@ -16,7 +16,7 @@ import { C_ROW, Captures } from "./value-capture.js";
 export class JsonPathMapLoader extends JsonTokenizer {
   private readonly options: LoadOptions;
   private readonly field: string;
-  private readonly captures = new Captures();
+  private readonly captures: Captures;
   private readonly keys: string[] = [];
   private readonly records: Record<string, unknown>[] = [];
   // Depth of the map's object once it opened; -1 before.
@@ -25,8 +25,9 @@ export class JsonPathMapLoader extends JsonTokenizer {
   private currentKey = "";
 
   constructor(options: LoadOptions, field: string) {
-    super();
+    super(options.limits);
     this.options = options;
+    this.captures = new Captures(this.maxTokenBytes);
     this.field = field;
     this.nextIsMap = field === "";
   }
@@ -37,7 +38,7 @@ export class JsonPathMapLoader extends JsonTokenizer {
     if (this.mapDepth < 0) {
       throw new EspalierError(
         "FIELD_MISSING",
-        `the top-level object has no object "${this.field}" keyed by path`,
+        say`the top-level object has no object ${quoted.name(this.field)} keyed by path`,
       );
     }
     return linkPathMap(this.keys, this.records, this.options, this.field);
@@ -47,13 +48,14 @@ export class JsonPathMapLoader extends JsonTokenizer {
     const depth = this.depth;
     if (this.nextIsMap && depth === (this.field === "" ? 0 : 1)) {
       this.nextIsMap = false;
-      if (!object) throw this.notAnObject(`the "${this.field}" field must be an object keyed by path`);
+      if (!object)
+        throw this.notAnObject(say`the ${quoted.name(this.field)} field must be an object keyed by path`);
       this.mapDepth = depth;
       return;
     }
     if (this.mapDepth >= 0 && depth === this.mapDepth + 1) {
       if (!object)
-        throw this.notAnObject(`the value of the path ${JSON.stringify(this.currentKey)} must be an object`);
+        throw this.notAnObject(say`the value of the path ${quoted.path(this.currentKey)} must be an object`);
       this.captures.start(C_ROW, depth + 1, i, -1, []);
     }
   }
@@ -89,18 +91,18 @@ export class JsonPathMapLoader extends JsonTokenizer {
   }
 
   protected chunkEnd(buf: Buffer): void {
-    this.captures.chunkEnd(buf);
+    this.captures.chunkEnd(buf, this.pos.line);
   }
 
   private scalar(): void {
     if (this.nextIsMap && this.depth === (this.field === "" ? 0 : 1))
-      throw this.notAnObject(`the "${this.field}" field must be an object keyed by path`);
+      throw this.notAnObject(say`the ${quoted.name(this.field)} field must be an object keyed by path`);
     if (this.mapDepth >= 0 && this.depth === this.mapDepth + 1)
-      throw this.notAnObject(`the value of the path ${JSON.stringify(this.currentKey)} must be an object`);
+      throw this.notAnObject(say`the value of the path ${quoted.path(this.currentKey)} must be an object`);
     this.nextIsMap = false;
   }
 
-  private notAnObject(message: string): EspalierError {
+  private notAnObject(message: MessagePart[]): EspalierError {
     return new EspalierError("SHAPE", message, { line: this.pos.line });
   }
 }

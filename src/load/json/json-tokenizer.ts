@@ -1,6 +1,7 @@
 import type { Buffer } from "node:buffer";
-import { EspalierError } from "../../errors.js";
+import { EspalierError, type MessagePart, quoted, say } from "../../errors.js";
 import { asBuffer, codecs } from "../../model/buffer-codecs.js";
+import { limitsOf, type ReadLimits, readLimits, tooLong } from "../read-limits.js";
 import { ByteBuffer } from "./byte-buffer.js";
 import { JsonPositions } from "./json-positions.js";
 
@@ -49,6 +50,10 @@ export abstract class JsonTokenizer {
   private pend = P_NONE;
   private readonly pendBytes = new ByteBuffer();
   private pendStart = 0;
+  /** Longest string or number, in bytes (read-limits.ts). */
+  protected readonly maxTokenBytes: number = readLimits.maxTokenBytes;
+  /** Deepest nesting (read-limits.ts): an endless run of "[" stops there, not in memory. */
+  protected readonly maxDepth: number = readLimits.maxJsonDepth;
   private pendIsKey = false;
   private pendEscape = false;
   private pendWord = TRUE;
@@ -56,6 +61,13 @@ export abstract class JsonTokenizer {
   // Of the last string scanned: whether it holds an escape or a byte >= 0x80.
   private strEscape = false;
   private strHigh = false;
+
+  /** `limits`: lower limits of reading than `readLimits` (LoadOptions.limits). */
+  constructor(limits?: Partial<ReadLimits>) {
+    const l = limitsOf(limits);
+    this.maxTokenBytes = l.maxTokenBytes;
+    this.maxDepth = l.maxJsonDepth;
+  }
 
   /** An object or array opens at offset `i` of the chunk; it will be level `this.depth`. */
   protected abstract open(i: number, object: boolean): void;
@@ -181,7 +193,7 @@ export abstract class JsonTokenizer {
             this.word(word, base + i);
             i += k;
           } else {
-            throw this.syntax(base + i, `unexpected ${shown(c)} where a value was expected`);
+            throw this.syntax(base + i, say`unexpected ${shown(c)} where a value was expected`);
           }
           state = this.depth === 0 ? DONE : AFTER;
           continue;
@@ -206,11 +218,11 @@ export abstract class JsonTokenizer {
             state = this.depth === 0 ? DONE : AFTER;
             continue;
           }
-          throw this.syntax(base + i, `expected a double-quoted property name, found ${shown(c)}`);
+          throw this.syntax(base + i, say`expected a double-quoted property name, found ${shown(c)}`);
         }
         case COLON: {
           if (c !== 0x3a /* : */)
-            throw this.syntax(base + i, `expected ":" after a property name, found ${shown(c)}`);
+            throw this.syntax(base + i, say`expected ":" after a property name, found ${shown(c)}`);
           i++;
           state = VALUE;
           continue;
@@ -235,18 +247,24 @@ export abstract class JsonTokenizer {
           }
           const what =
             this.isObject[top] === 1 ? '"," or "}" after a property value' : '"," or "]" after an element';
-          throw this.syntax(base + i, `expected ${what}, found ${shown(c)}`);
+          throw this.syntax(base + i, say`expected ${what}, found ${shown(c)}`);
         }
         default:
-          throw this.syntax(base + i, `unexpected ${shown(c)} after the JSON value`);
+          throw this.syntax(base + i, say`unexpected ${shown(c)} after the JSON value`);
       }
     }
     this.state = state;
   }
 
   private openContainer(i: number, object: boolean): void {
-    this.open(i, object);
     const top = this.depth;
+    if (top >= this.maxDepth)
+      throw new EspalierError(
+        "LIMIT_EXCEEDED",
+        `the JSON is nested more than ${this.maxDepth} levels deep (an endless input?)`,
+        this.pos.at(this.base + i),
+      );
+    this.open(i, object);
     if (top === this.isObject.length) {
       const grown = new Uint8Array(top * 2);
       grown.set(this.isObject);
@@ -284,7 +302,7 @@ export abstract class JsonTokenizer {
       let j = 0;
       while (j < n && numberByte[buf[j]] === 1) j++;
       this.pendBytes.append(buf, 0, j);
-      if (j === n) return -1;
+      if (j === n) return this.stillPending("a JSON number");
       this.pend = P_NONE;
       this.numberToken(this.pendBytes.bytes, 0, this.pendBytes.length, this.pendStart);
       this.state = this.depth === 0 ? DONE : AFTER;
@@ -317,7 +335,7 @@ export abstract class JsonTokenizer {
     }
     if (j >= n) {
       this.pendBytes.append(buf, 0, n);
-      return -1;
+      return this.stillPending("a JSON string");
     }
     this.pendBytes.append(buf, 0, j + 1);
     this.pend = P_NONE;
@@ -390,7 +408,7 @@ export abstract class JsonTokenizer {
       while (k < e && isDigit(bytes[k])) k++;
       if (k === from) throw this.badNumber(absS + (k - s), k === e);
     }
-    if (k < e) throw this.syntax(absS + (k - s), `unexpected ${shown(bytes[k])} after a number`);
+    if (k < e) throw this.syntax(absS + (k - s), say`unexpected ${shown(bytes[k])} after a number`);
     this.number(bytes, s, e, absS, integerEnd);
   }
 
@@ -483,8 +501,15 @@ export abstract class JsonTokenizer {
     return new EspalierError("PARSE_JSON", `invalid JSON: ${message}`, this.pos.inString(bytes, q, k, absQ));
   }
 
-  private syntax(abs: number, message: string): EspalierError {
-    return new EspalierError("PARSE_JSON", `invalid JSON: ${message}`, this.pos.at(abs));
+  /** -1 (the token goes on in the next chunk), or LIMIT_EXCEEDED when it is already too long. */
+  private stillPending(what: string): -1 {
+    if (this.pendBytes.length > this.maxTokenBytes)
+      throw tooLong(what, this.maxTokenBytes, this.pos.at(this.pendStart));
+    return -1;
+  }
+
+  private syntax(abs: number, message: string | MessagePart[]): EspalierError {
+    return new EspalierError("PARSE_JSON", say`invalid JSON: ${message}`, this.pos.at(abs));
   }
 
   private badNumber(abs: number, atEnd: boolean): EspalierError {
@@ -529,7 +554,7 @@ function hexValue(c: number): number {
   return -1;
 }
 
-function shown(c: number): string {
-  if (c >= 0x21 && c < 0x7f) return JSON.stringify(String.fromCharCode(c));
+function shown(c: number): MessagePart {
+  if (c >= 0x21 && c < 0x7f) return quoted.value(String.fromCharCode(c));
   return `byte 0x${c.toString(16).padStart(2, "0")}`;
 }

@@ -30,7 +30,7 @@ export class JsonValueLoader extends JsonTokenizer {
   private keyText: string | null = null;
 
   constructor(options: LoadOptions) {
-    super();
+    super(options.limits);
     if (sizeFieldNamed(options)) throw sizeFieldNotApplicable(options.sizeField, "values");
     this.options = options;
     this.sink = new NodeSink(options.maxNodes, false);

@@ -1,4 +1,5 @@
 import { Buffer } from "node:buffer";
+import { readLimits, tooLong } from "../read-limits.js";
 
 /** What a captured value is for. */
 export const C_PROBE = 0; // the first element of a top-level array, to tell rows from nodes
@@ -11,6 +12,8 @@ export interface Capture {
   /** Nesting depth of the captured container; its end ends the capture. */
   depth: number;
   parts: Uint8Array[];
+  /** Bytes in `parts`. */
+  bytes: number;
   /** Where the capture starts in the current chunk. */
   start: number;
   /** The node a kept field belongs to. */
@@ -26,15 +29,26 @@ export interface Capture {
 export class Captures {
   readonly open: Capture[] = [];
 
+  /** `maxBytes`: the most one captured value may hold (read-limits.ts maxTokenBytes). */
+  constructor(private readonly maxBytes = readLimits.maxTokenBytes) {}
+
   /** Starts capturing a container that opens at offset `start` of the current chunk, at `depth`. */
   start(kind: number, depth: number, start: number, node: number, keeps: number[]): void {
-    this.open.push({ kind, depth, parts: [], start, node, keeps });
+    this.open.push({ kind, depth, parts: [], bytes: 0, start, node, keeps });
   }
 
-  /** The end of a chunk: each open capture keeps the rest of it (copied: chunks are not kept). */
-  chunkEnd(buf: Buffer): void {
+  /**
+   * The end of a chunk: each open capture keeps the rest of it (copied: chunks are not kept). A value
+   * past `maxBytes` is LIMIT_EXCEEDED at `line`, so an endless row or kept field cannot fill memory.
+   */
+  chunkEnd(buf: Buffer, line: number): void {
     for (const capture of this.open) {
-      if (capture.start < buf.length) capture.parts.push(Uint8Array.prototype.slice.call(buf, capture.start));
+      if (capture.start < buf.length) {
+        capture.parts.push(Uint8Array.prototype.slice.call(buf, capture.start));
+        capture.bytes += buf.length - capture.start;
+        if (capture.bytes > this.maxBytes)
+          throw tooLong("a value kept whole (a row, or a field kept for a label)", this.maxBytes, { line });
+      }
       capture.start = 0;
     }
   }

@@ -1,5 +1,5 @@
 import { Buffer, isUtf8 } from "node:buffer";
-import { EspalierError } from "../../errors.js";
+import { EspalierError, quoted, say } from "../../errors.js";
 import { asBuffer } from "../../model/buffer-codecs.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { LoadOptions } from "../load-options.js";
@@ -7,6 +7,7 @@ import { sizeFieldNamed, sizeFieldNotApplicable } from "../missing-field.js";
 import { NodeSink } from "../node-sink.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer, viewOf } from "../path-placer.js";
+import { limitsOf, tooLong } from "../read-limits.js";
 
 const newline = 10;
 const cr = 13;
@@ -34,6 +35,9 @@ export class PathListReader {
   private readonly rootName: string;
   // The start of a line cut by the end of a chunk, in pieces.
   private waiting: Buffer[] = [];
+  private waitingBytes = 0;
+  /** Longest line, in bytes (read-limits.ts): a line that never ends stops there, not in memory. */
+  private readonly maxLineBytes: number;
   private sized: boolean | undefined;
   private firstLine = 0;
   private line = 0;
@@ -46,6 +50,7 @@ export class PathListReader {
     this.sink = new NodeSink(options.maxNodes, false);
     this.placer = new PathPlacer(this.sink);
     this.rootName = options.rootName;
+    this.maxLineBytes = limitsOf(options.limits).maxLineBytes;
     this.separator = options.nulSeparated === true ? 0 : newline;
   }
 
@@ -60,22 +65,33 @@ export class PathListReader {
     if (this.waiting.length > 0) {
       const first = chunk.indexOf(this.separator);
       if (first === -1) {
-        this.waiting.push(chunk);
+        this.wait(chunk);
         return;
       }
       this.waiting.push(chunk.subarray(0, first + 1));
       const line = Buffer.concat(this.waiting);
       this.lines(line, 0, line.length);
       this.waiting = [];
+      this.waitingBytes = 0;
       from = first + 1;
     }
     const last = chunk.lastIndexOf(this.separator);
     if (last < from) {
-      if (from < chunk.length) this.waiting.push(chunk.subarray(from));
+      if (from < chunk.length) this.wait(chunk.subarray(from));
       return;
     }
     this.lines(chunk, from, last + 1);
-    if (last + 1 < chunk.length) this.waiting.push(chunk.subarray(last + 1));
+    if (last + 1 < chunk.length) this.wait(chunk.subarray(last + 1));
+  }
+
+  /** Keeps the start of a line cut by the end of a chunk; LIMIT_EXCEEDED past the longest line. */
+  private wait(bytes: Buffer): void {
+    this.waiting.push(bytes);
+    this.waitingBytes += bytes.length;
+    if (this.waitingBytes > this.maxLineBytes) {
+      const line = this.line + 1;
+      throw tooLong(`line ${line}`, this.maxLineBytes, { line });
+    }
   }
 
   /** Ends the input; the nodes, ready for `buildTree`. */
@@ -114,6 +130,7 @@ export class PathListReader {
   /** One line, `bytes[start, end)` without its "\n". */
   private one(bytes: Buffer, view: DataView, start: number, end: number): void {
     const line = ++this.line;
+    if (end - start > this.maxLineBytes) throw tooLong(`line ${line}`, this.maxLineBytes, { line });
     if (this.separator === newline) {
       if (end > start && bytes[end - 1] === cr) end--;
       if (isBlank(bytes, start, end)) return;
@@ -153,7 +170,7 @@ export class PathListReader {
         if (!(size >= 0)) {
           throw new EspalierError(
             "BAD_SIZE",
-            `the size on line ${line} must be a number from 0 to 2^53 - 1, got ${JSON.stringify(text)}`,
+            say`the size on line ${line} must be a number from 0 to 2^53 - 1, got ${quoted.value(text)}`,
             { line, column: 1 },
           );
         }

@@ -10,6 +10,7 @@ import { detectFormat } from "../detect-format.js";
 import { edgeTableDelimiter, edgeTableFields, isGraph, jsonGraph, withNodeRecords } from "../graph-input.js";
 import { linkGraphTable } from "../graph-table.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
+import { limitsOf } from "../read-limits.js";
 import { csvTableFromStream } from "../table/csv-table.js";
 import { linkTable } from "../table/link-table.js";
 import { edgeListStream } from "./edge-list-stream.js";
@@ -55,7 +56,7 @@ async function linkedNodes(
   if (format === "yaml") {
     // The YAML parser is loaded only for YAML input (a start reads no code it does not run).
     const { loadYaml } = await import("../load-yaml.js");
-    return loadYaml(await wholeText(chunks, "YAML"), options);
+    return loadYaml(await wholeText(chunks, "YAML", limitsOf(options.limits).maxYamlBytes), options);
   }
   if (format === "edges") {
     const delimiter = edgeTableDelimiter(new TextDecoder("utf-8", { ignoreBOM: true }).decode(head), options);
@@ -89,24 +90,37 @@ async function linkedNodes(
   }
 }
 
-/** The whole input as one string (YAML); LIMIT_EXCEEDED when no string can hold it. */
-async function wholeText(chunks: AsyncIterable<Uint8Array>, what: "YAML" | "JSON"): Promise<string> {
-  return new TextDecoder("utf-8", { ignoreBOM: true }).decode(await wholeBytes(chunks, what));
+/** The whole input as one string (YAML); LIMIT_EXCEEDED past `maxBytes` or what a string can hold. */
+async function wholeText(
+  chunks: AsyncIterable<Uint8Array>,
+  what: "YAML" | "JSON",
+  maxBytes: number = constants.MAX_STRING_LENGTH,
+): Promise<string> {
+  return new TextDecoder("utf-8", { ignoreBOM: true }).decode(await wholeBytes(chunks, what, maxBytes));
 }
 
-/** The whole input as bytes no longer than the longest string (YAML, JSON graphs); else LIMIT_EXCEEDED. */
-async function wholeBytes(chunks: AsyncIterable<Uint8Array>, what: "YAML" | "JSON"): Promise<Buffer> {
+/**
+ * The whole input as bytes (YAML, JSON graphs), at most `maxBytes` (read-limits.ts: the YAML parser
+ * holds the whole document and several times its size in nodes) and what a string can hold; else
+ * LIMIT_EXCEEDED.
+ */
+async function wholeBytes(
+  chunks: AsyncIterable<Uint8Array>,
+  what: "YAML" | "JSON",
+  maxBytes: number = constants.MAX_STRING_LENGTH,
+): Promise<Buffer> {
+  const most = Math.min(maxBytes, constants.MAX_STRING_LENGTH);
   const parts: Uint8Array[] = [];
   let length = 0;
   for await (const chunk of chunks) {
     parts.push(chunk);
     length += chunk.length;
-    if (length > constants.MAX_STRING_LENGTH) {
+    if (length > most) {
       throw new EspalierError(
         "LIMIT_EXCEEDED",
         what === "YAML"
-          ? `YAML input longer than ${constants.MAX_STRING_LENGTH} bytes cannot be read; convert it to JSON, which streams`
-          : `a JSON adjacency map or graph table longer than ${constants.MAX_STRING_LENGTH} bytes cannot be read; write it as an edge list, which streams`,
+          ? `YAML input longer than ${most} bytes is not read (its parser holds the whole document); convert it to JSON, which streams`
+          : `a JSON adjacency map or graph table longer than ${most} bytes cannot be read; write it as an edge list, which streams`,
       );
     }
   }

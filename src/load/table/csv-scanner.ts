@@ -1,4 +1,5 @@
 import { EspalierError } from "../../errors.js";
+import { readLimits, tooLong } from "../read-limits.js";
 
 /** Receives the records a {@link CsvScanner} finds, field by field, as byte ranges. */
 export interface CsvSink {
@@ -54,8 +55,14 @@ export class CsvScanner {
   constructor(
     private readonly delimiter: number,
     private readonly sink: CsvSink,
+    /** Longest record, in bytes (read-limits.ts): an endless one stops there, not in memory. */
+    private readonly maxRecordBytes = readLimits.maxLineBytes,
   ) {
     this.quoting = delimiter !== 0x09;
+  }
+
+  private tooLong(line: number): EspalierError {
+    return tooLong(`the record at line ${line}`, this.maxRecordBytes, { line });
   }
 
   /** Whether the sink asked to stop. */
@@ -95,12 +102,16 @@ export class CsvScanner {
       if (n >= 3 && bytes[0] === BOM[0] && bytes[1] === BOM[1] && bytes[2] === BOM[2]) p = 3;
     }
     while (p < n) {
+      const line = this.line;
       const next = this.record(bytes, p, last);
       if (next < 0) {
-        // The record is not finished in these bytes: keep them for the next chunk.
+        // The record is not finished in these bytes: keep them for the next chunk, up to the limit.
+        if (n - p > this.maxRecordBytes) throw this.tooLong(line);
         this.carry = bytes.slice(p);
         return;
       }
+      // A whole record past the limit is refused too, so chunked and whole input agree.
+      if (next - p > this.maxRecordBytes) throw this.tooLong(line);
       p = next;
       if (this.stopped) return;
     }

@@ -3,13 +3,14 @@ import { EspalierError } from "../../errors.js";
 import { asBuffer, codecs } from "../../model/buffer-codecs.js";
 import { NamePool, namesToArray } from "../../model/names.js";
 import type { LoadOptions } from "../load-options.js";
+import { limitsOf } from "../read-limits.js";
 import { CsvScanner, type CsvSink } from "./csv-scanner.js";
 import type { Table } from "./table.js";
 
 /** The columns a table loader reads. */
 export type TableFields = Pick<
   LoadOptions,
-  "nameField" | "sizeField" | "idField" | "parentField" | "pathField" | "keepFields" | "maxNodes"
+  "nameField" | "sizeField" | "idField" | "parentField" | "pathField" | "keepFields" | "maxNodes" | "limits"
 >;
 
 /** What is kept of one column the loader reads. */
@@ -49,7 +50,7 @@ export class CsvTableReader implements CsvSink {
     delimiter: "," | "\t",
     private readonly fields: TableFields,
   ) {
-    this.scanner = new CsvScanner(delimiter.charCodeAt(0), this);
+    this.scanner = new CsvScanner(delimiter.charCodeAt(0), this, limitsOf(fields.limits).maxLineBytes);
     this.wanted = new Set([
       fields.idField,
       fields.parentField,

@@ -4,7 +4,7 @@ import type { Table } from "./table.js";
 
 type Fields = Pick<
   LoadOptions,
-  "nameField" | "sizeField" | "idField" | "parentField" | "pathField" | "keepFields" | "maxNodes"
+  "nameField" | "sizeField" | "idField" | "parentField" | "pathField" | "keepFields" | "maxNodes" | "limits"
 >;
 
 /**

@@ -1,5 +1,5 @@
 import { didYouMean } from "../../did-you-mean.js";
-import { EspalierError } from "../../errors.js";
+import { EspalierError, quoted, quotedList, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { copyName, isEmptyName, NamePool } from "../../model/names.js";
 import { isSize } from "../../model/size-rule.js";
@@ -38,11 +38,11 @@ function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): 
   if (paths) return linkByPath(table, paths, options);
   throw new EspalierError(
     "FIELD_MISSING",
-    `rows need "${options.idField}" and "${options.parentField}" columns, or a "${options.pathField}" column; ` +
-      `the columns are ${listNames(table.columnNames())}` +
-      (shape === "table"
+    say`rows need "${options.idField}" and "${options.parentField}" columns, or a "${options.pathField}" column; the columns are ${quotedList("name", table.columnNames())}${
+      shape === "table"
         ? "; a listing of sizes and paths (size, a tab, the path) reads with --input-format paths"
-        : ""),
+        : ""
+    }`,
   );
 }
 
@@ -69,7 +69,7 @@ function linkById(
     if (earlier !== -1) {
       throw new EspalierError(
         "DUPLICATE_ID",
-        `row ${r + 1} repeats the ${options.idField} ${JSON.stringify(id)} of row ${earlier + 1}`,
+        say`row ${r + 1} repeats the ${options.idField} ${quoted.id(id)} of row ${earlier + 1}`,
         { row: r + 1 },
       );
     }
@@ -91,7 +91,7 @@ function linkById(
       if (p === -1) {
         throw new EspalierError(
           "MISSING_PARENT",
-          `row ${r + 1} names the ${options.parentField} ${JSON.stringify(cellText(parentId))}, which no row has as its ${options.idField}`,
+          say`row ${r + 1} names the ${options.parentField} ${quoted.id(cellText(parentId))}, which no row has as its ${options.idField}`,
           { row: r + 1 },
         );
       }
@@ -180,7 +180,7 @@ function keptColumns(table: Table, options: LoadOptions): Map<string, string[]> 
       const near = didYouMean(key, visibleColumns(table));
       throw new EspalierError(
         "FIELD_MISSING",
-        `no column "${key}" to keep${near === undefined ? "" : `; did you mean "${near}"?`} The columns are ${listNames(visibleColumns(table))}`,
+        say`no column "${key}" to keep${near === undefined ? "" : say`; did you mean ${quoted.name(near)}?`} The columns are ${quotedList("name", visibleColumns(table))}`,
         undefined,
         near === undefined
           ? { field: key, fieldsSeen: visibleColumns(table) }
@@ -199,7 +199,7 @@ function sizeOf(cell: Cell, textCells: boolean, row: number, field: string): num
   if (isSize(value)) return value;
   throw new EspalierError(
     "BAD_SIZE",
-    `the "${field}" of row ${row} must be a number from 0 to 2^53 - 1, got ${JSON.stringify(cell)}`,
+    say`the "${field}" of row ${row} must be a number from 0 to 2^53 - 1, got ${quoted.value(typeof cell === "string" ? cell : JSON.stringify(cell))}`,
     { row },
   );
 }
@@ -217,10 +217,6 @@ function allText(cells: readonly Cell[], n: number, nonEmpty = false): boolean {
 function cellText(cell: Cell): string {
   if (cell === undefined || cell === null) return "";
   return typeof cell === "string" ? cell : String(cell);
-}
-
-function listNames(names: readonly string[]): string {
-  return names.length === 0 ? "(none)" : names.map((name) => JSON.stringify(name)).join(", ");
 }
 
 /** The column a path map's keys are read from; no record field can be named so. */
