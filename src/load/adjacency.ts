@@ -1,4 +1,4 @@
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import { isSize } from "../model/size-rule.js";
 import type { LoadOptions } from "./load-options.js";
@@ -42,7 +42,7 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
   const from: number[] = [];
   const to: number[] = [];
   const shape = (key: string, what: string) =>
-    new EspalierError("SHAPE", `the entry ${JSON.stringify(key)} ${what}`);
+    new EspalierError("SHAPE", say`the entry ${quoted.id(key)} ${what}`);
   for (const key of keys) {
     const node = nodeOf.get(key)!;
     const value = map[key];
@@ -62,7 +62,7 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
           if (typeof size !== "number" || !isSize(size)) {
             throw new EspalierError(
               "BAD_SIZE",
-              `the "${options.sizeField}" of the entry ${JSON.stringify(key)} must be a number from 0 to 2^53 - 1, got ${JSON.stringify(size)}`,
+              say`the "${options.sizeField}" of the entry ${quoted.id(key)} must be a number from 0 to 2^53 - 1, got ${quoted.value(typeof size === "string" ? size : JSON.stringify(size))}`,
             );
           }
           sizes[node] = size;

@@ -26,7 +26,10 @@ export function edgeTableDelimiter(
   return null;
 }
 
-/** Load options for reading an edge table: its child column is read too, and nothing limits rows here. */
+/**
+ * Load options for reading a graph table (`--graph`, or an edge table): its child column is read too
+ * when there is one, and nothing limits rows here (a row is an edge; the graph counts its nodes).
+ */
 export function edgeTableFields(options: LoadOptions): LoadOptions {
   return {
     ...options,

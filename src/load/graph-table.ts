@@ -1,10 +1,9 @@
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, quotedList, say } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
-import { isSize } from "../model/size-rule.js";
 import type { LoadOptions } from "./load-options.js";
 import { limitExceeded } from "./node-sink.js";
-import { parseSize } from "./parse-size.js";
 import { fieldSizeUnit } from "./size-unit.js";
+import { keptColumns, sizeOf, cellText as text } from "./table/link-table.js";
 import type { Cell, Table } from "./table/table.js";
 
 type Fields = Pick<
@@ -37,11 +36,7 @@ export function linkGraphTable(table: Table, options: Fields, edgesOnly = false)
   if (parents && children) return linkEdges(table, parents, children, options);
   throw new EspalierError(
     "FIELD_MISSING",
-    `a graph table needs "${options.idField}" and "${options.parentField}" columns, or "${options.parentField}" and "${options.childField}"; ` +
-      `the columns are ${table
-        .columnNames()
-        .map((c) => JSON.stringify(c))
-        .join(", ")}`,
+    say`a graph table needs "${options.idField}" and "${options.parentField}" columns, or "${options.parentField}" and "${options.childField}"; the columns are ${quotedList("name", table.columnNames())}`,
   );
 }
 
@@ -81,7 +76,7 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
       const clash = (what: string) =>
         new EspalierError(
           "DUPLICATE_ID",
-          `row ${r + 1} repeats the ${options.idField} ${JSON.stringify(id)} of row ${first} with another ${what}`,
+          say`row ${r + 1} repeats the ${options.idField} ${quoted.id(id)} of row ${first} with another ${what}`,
           { row: r + 1 },
         );
       if (rowName !== "" && rowName !== name[node]) throw clash(options.nameField);
@@ -103,7 +98,7 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
     if (p === undefined) {
       throw new EspalierError(
         "MISSING_PARENT",
-        `row ${r + 1} names the ${options.parentField} ${JSON.stringify(parentId)}, which no row has as its ${options.idField}`,
+        say`row ${r + 1} names the ${options.parentField} ${quoted.id(parentId)}, which no row has as its ${options.idField}`,
         { row: r + 1 },
       );
     }
@@ -185,10 +180,7 @@ export function withRecords(graph: GraphNodes, records: Table, options: Fields):
   if (!idCells) {
     throw new EspalierError(
       "FIELD_MISSING",
-      `the node records need an "${options.idField}" column; the columns are ${records
-        .columnNames()
-        .map((c) => JSON.stringify(c))
-        .join(", ")}`,
+      say`the node records need an "${options.idField}" column; the columns are ${quotedList("name", records.columnNames())}`,
     );
   }
   const names = records.column(options.nameField);
@@ -227,7 +219,7 @@ export function withRecords(graph: GraphNodes, records: Table, options: Fields):
     if (earlier !== undefined) {
       throw new EspalierError(
         "DUPLICATE_ID",
-        `record ${r + 1} repeats the ${options.idField} ${JSON.stringify(id)} of record ${earlier + 1}`,
+        say`record ${r + 1} repeats the ${options.idField} ${quoted.id(id)} of record ${earlier + 1}`,
         { row: r + 1 },
       );
     }
@@ -251,39 +243,4 @@ export function withRecords(graph: GraphNodes, records: Table, options: Fields):
 
 function get(names: GraphNodes["name"], i: number): string {
   return Array.isArray(names) ? (names as string[])[i] : (names as { get(i: number): string }).get(i);
-}
-
-function keptColumns(table: Table, options: Fields): Map<string, string[]> {
-  const values = new Map<string, string[]>();
-  for (const key of options.keepFields) {
-    const cells = table.column(key);
-    if (!cells) {
-      throw new EspalierError(
-        "FIELD_MISSING",
-        `no column "${key}" to keep; the columns are ${table
-          .columnNames()
-          .map((c) => JSON.stringify(c))
-          .join(", ")}`,
-      );
-    }
-    values.set(key, cells.map(text));
-  }
-  return values;
-}
-
-function sizeOf(cell: Cell, textCells: boolean, row: number, field: string): number {
-  if (cell === undefined || cell === null) return 0;
-  const value =
-    typeof cell === "number" ? cell : textCells && typeof cell === "string" ? parseSize(cell) : Number.NaN;
-  if (isSize(value)) return value;
-  throw new EspalierError(
-    "BAD_SIZE",
-    `the "${field}" of row ${row} must be a number from 0 to 2^53 - 1, got ${JSON.stringify(cell)}`,
-    { row },
-  );
-}
-
-function text(cell: Cell): string {
-  if (cell === undefined || cell === null) return "";
-  return typeof cell === "string" ? cell : String(cell);
 }

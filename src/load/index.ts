@@ -7,7 +7,7 @@ import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { Tree } from "../model/tree.js";
 import { byteLoader } from "./byte-loader.js";
 import { detectFormat } from "./detect-format.js";
-import { isGraph, jsonGraph, loadEdges, withNodeRecords } from "./graph-input.js";
+import { edgeTableFields, isGraph, jsonGraph, loadEdges, withNodeRecords } from "./graph-input.js";
 import { linkGraphTable } from "./graph-table.js";
 import type { InputFormat, LoadOptions } from "./load-options.js";
 import { loadYaml } from "./load-yaml.js";
@@ -53,7 +53,11 @@ function linkedNodes(body: string, format: InputFormat, options: LoadOptions): L
     loader.write(bytes);
     return loader.end();
   }
-  const table = csvTableFromBytes(bytes, format === "csv" ? "," : "\t", options);
+  const table = csvTableFromBytes(
+    bytes,
+    format === "csv" ? "," : "\t",
+    options.graph ? edgeTableFields(options) : options,
+  );
   try {
     return options.graph ? linkGraphTable(table, options) : linkTable(table, options);
   } finally {

@@ -1,4 +1,4 @@
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 import { checkSizes } from "./check-sizes.js";
 import type { GraphNodes } from "./graph-nodes.js";
 import type { LinkedNodes } from "./linked-nodes.js";
@@ -213,11 +213,11 @@ function poolOf(names: NamePool | readonly string[]): NamePool {
 function repeatedEdge(graph: GraphNodes, e: number, file?: string): EspalierError {
   const at = graph.edgeOrigin[e];
   const ids = graph.ids;
-  const id = (i: number) => JSON.stringify(ids instanceof NamePool ? ids.get(i) : ids[i]);
+  const id = (i: number) => quoted.id(ids instanceof NamePool ? ids.get(i) : ids[i]);
   const pos = graph.originIsRow ? { file, row: at } : { file, line: at };
   return new EspalierError(
     "DUPLICATE_ID",
-    `${graph.originIsRow ? "row" : "line"} ${at} repeats the link from ${id(graph.edgeFrom[e])} to ${id(graph.edgeTo[e])}`,
+    say`${graph.originIsRow ? "row" : "line"} ${at} repeats the link from ${id(graph.edgeFrom[e])} to ${id(graph.edgeTo[e])}`,
     pos,
   );
 }

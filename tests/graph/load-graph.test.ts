@@ -1,5 +1,8 @@
+import { Buffer } from "node:buffer";
+import { Readable } from "node:stream";
 import { describe, expect, it } from "vitest";
 import { loadTree } from "../../src/load/index.js";
+import { loadTreeFromStream } from "../../src/load/stream/index.js";
 import { measure } from "../../src/model/measure.js";
 import type { Tree } from "../../src/model/tree.js";
 import { caught, opts } from "../load/helpers.js";
@@ -109,6 +112,21 @@ describe("loadTree(csv, { graph: true })", () => {
     );
     expect(other.code).toBe("DUPLICATE_ID");
     expect(other.pos).toMatchObject({ row: 3 });
+  });
+
+  it("reads a CSV or TSV with parent and child columns but no id column as an edge table, in memory and streamed", async () => {
+    for (const [format, text] of [
+      ["csv", "parent,child\nx,y\nx,z\ny,z\n"],
+      ["tsv", "parent\tchild\nx\ty\nx\tz\ny\tz\n"],
+    ] as const) {
+      const expected = ["x", "  y", "    z", "  &z"];
+      expect(slots(loadTree(text, opts({ format, graph: true })))).toEqual(expected);
+      const streamed = await loadTreeFromStream(
+        Readable.from([Buffer.from(text)]),
+        opts({ format, graph: true }),
+      );
+      expect(slots(streamed)).toEqual(expected);
+    }
   });
 
   it("names a parent that no row has with MISSING_PARENT", () => {

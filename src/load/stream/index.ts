@@ -82,7 +82,11 @@ async function linkedNodes(
     for await (const chunk of chunks) loader.write(chunk);
     return loader.end();
   }
-  const table = await csvTableFromStream(chunks, format === "csv" ? "," : "\t", options);
+  const table = await csvTableFromStream(
+    chunks,
+    format === "csv" ? "," : "\t",
+    options.graph ? edgeTableFields(options) : options,
+  );
   try {
     return options.graph ? linkGraphTable(table, options) : linkTable(table, options);
   } finally {

@@ -172,7 +172,7 @@ function visibleColumns(table: Table): string[] {
 }
 
 /** The kept columns as text, by row; FIELD_MISSING names the columns there are. */
-function keptColumns(table: Table, options: LoadOptions): Map<string, string[]> {
+export function keptColumns(table: Table, options: Pick<LoadOptions, "keepFields">): Map<string, string[]> {
   const values = new Map<string, string[]>();
   for (const key of options.keepFields) {
     const cells = table.column(key);
@@ -192,7 +192,8 @@ function keptColumns(table: Table, options: LoadOptions): Map<string, string[]> 
   return values;
 }
 
-function sizeOf(cell: Cell, textCells: boolean, row: number, field: string): number {
+/** A size cell as a number (text cells parsed as sizes); an empty cell is 0; anything else BAD_SIZE. */
+export function sizeOf(cell: Cell, textCells: boolean, row: number, field: string): number {
   if (cell === undefined || cell === null) return 0;
   const value =
     typeof cell === "number" ? cell : textCells && typeof cell === "string" ? parseSize(cell) : Number.NaN;
@@ -214,7 +215,8 @@ function allText(cells: readonly Cell[], n: number, nonEmpty = false): boolean {
   return true;
 }
 
-function cellText(cell: Cell): string {
+/** A cell as text; an empty cell is "". */
+export function cellText(cell: Cell): string {
   if (cell === undefined || cell === null) return "";
   return typeof cell === "string" ? cell : String(cell);
 }
