@@ -148,7 +148,6 @@ log(`\nwrote ${relative(repoRoot, join(outDir, "results.json"))}`);
 // ---------------------------------------------------------------------------------------------------------
 // Issue 12.7: the SVG of a deep chain takes time linear in its shown nodes
 
-
 /**
  * `espalier chain.paths --focus-from bottom.txt --format svg` on a path list whose one line is a chain
  * of DEEP_SVG.nodes names, the focus at its bottom: every node is shown, one row each in the picture.

@@ -1,4 +1,3 @@
-import { createHmac } from "node:crypto";
 import type { InputText } from "../errors.js";
 import type { Tree } from "./tree.js";
 
@@ -8,8 +7,13 @@ import type { Tree } from "./tree.js";
  * without the secret the name cannot be recomputed from a guess list.
  */
 export function pseudonym(secret: string, name: string): string {
-  return `anon-${createHmac("sha256", secret).update(name, "utf8").digest("hex").slice(0, 12)}`;
+  crypto ??= process.getBuiltinModule("node:crypto");
+  return `anon-${crypto.createHmac("sha256", secret).update(name, "utf8").digest("hex").slice(0, 12)}`;
 }
+
+// The crypto module loads on the first pseudonym, not with this module: most runs make none, and
+// loading it is a good part of a small run's start (issue 14).
+let crypto: typeof import("node:crypto") | undefined;
 
 /**
  * Each node's row id as printed: with a pseudonym key, an id is pseudonymised like a name (an employee
