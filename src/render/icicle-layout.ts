@@ -107,6 +107,7 @@ export function icicle<T extends ViewNode>(
   if (!(top.weight > 0)) {
     for (let k = order.length - 1; k >= 0; k--) {
       const it = order[k][0];
+      for (const c of it.children) if (c.member.folded) c.weight = 1;
       it.weight = it.children.length === 0 ? 1 : it.children.reduce((s, c) => s + c.weight, 0);
     }
   }

@@ -137,6 +137,15 @@ describe("renderSvg(view, options)", () => {
     expect(folded2).toBeCloseTo(1, 3);
   });
 
+  it("shares by leaves when every size is 0, a lone folded remainder included", () => {
+    const t = makeTree("R{a:0{a1:0,a2:0},b:0}");
+    const svg = renderSvg(view(t, [], 1), opts);
+    expect(svg).not.toContain("NaN");
+    const blocks = blocksOf(svg);
+    expect(blocks.map((b) => b.kind)).toEqual(["other", "folded"]);
+    expect(width(blocks[1])).toBeCloseTo(width(blocks[0]), 1);
+  });
+
   it("keeps a tiny focus visible and wide enough for its label", () => {
     const t = makeTree("R{big:1000000000,tiny:1}");
     const blocks = blocksOf(renderSvg(view(t, ["tiny"], 10), opts));
