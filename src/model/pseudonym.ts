@@ -1,5 +1,4 @@
 import type { InputText } from "../errors.js";
-import type { Tree } from "./tree.js";
 
 /**
  * A stable pseudonym for a name: the first 12 hex digits of HMAC-SHA-256(secret, name) (RFC 2104,
@@ -14,20 +13,6 @@ export function pseudonym(secret: string, name: string): string {
 // The crypto module loads on the first pseudonym, not with this module: most runs make none, and
 // loading it is a good part of a small run's start (issue 14).
 let crypto: typeof import("node:crypto") | undefined;
-
-/**
- * Each node's row id as printed: with a pseudonym key, an id is pseudonymised like a name (an employee
- * number points at a person as surely as the name does); an empty id stays empty. Null without ids.
- */
-export function hiddenIds(tree: Tree, key: string | undefined): (i: number) => string | null {
-  const ids = tree.ids;
-  if (ids === null) return () => null;
-  if (key === undefined) return (i) => ids.get(i);
-  return (i) => {
-    const id = ids.get(i);
-    return id === "" ? "" : pseudonym(key, id);
-  };
-}
 
 /**
  * How input text quoted in an error prints under `--pseudonymize`: a name or an id as its pseudonym, a
