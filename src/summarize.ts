@@ -9,11 +9,10 @@ import { childrenByDepthOrder, nodeOrder } from "./interest/order.js";
 import type { Scores } from "./interest/scores.js";
 import { type Measures, measure } from "./model/measure.js";
 import { NAME_TABLE_MIN, PathIndex } from "./model/path-index.js";
-import { hiddenIds, pseudonym } from "./model/pseudonym.js";
+import { printedNames } from "./model/printed-names.js";
 import { type ReferenceIndex, referenceIndex } from "./model/reference-index.js";
-import { escapeSegment } from "./model/segment.js";
 import type { Tree } from "./model/tree.js";
-import { buildView } from "./view/build-view.js";
+import { buildView, type ParentsOf } from "./view/build-view.js";
 import { hierarchyOf } from "./view/hierarchy-of.js";
 import { compileLabel } from "./view/label.js";
 import { orderSiblings, type SiblingOrder } from "./view/sibling-order.js";
@@ -88,49 +87,38 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
     ? graphInterest(tree, measures, api, foci, refs)
     : interestNear(tree, api, foci);
   const selection = select(
-    tree,
-    measures,
-    scores,
-    nodeOrder(tree, measures, scores),
-    options.budget,
-    options.headerLines ?? 0,
-    options.chains ?? false,
-    // Siblings of a graph need not share an interest (one may be nearer a focus through a reference).
-    options.importance === "depth" && refs === null ? wideChildren(prepared) : undefined,
+    { tree, measures, scores, order: nodeOrder(tree, measures, scores) },
+    {
+      budget: options.budget,
+      headerLines: options.headerLines,
+      chains: options.chains,
+      // Siblings of a graph need not share an interest (one may be nearer a focus through a reference).
+      childrenInOrder: options.importance === "depth" && refs === null ? wideChildren(prepared) : undefined,
+    },
   );
-  const nameOf =
-    key === undefined
-      ? (i: number) => tree.name.get(i)
-      : (i: number) => (i === 0 && tree.syntheticRoot ? tree.name.get(i) : pseudonym(key, tree.name.get(i)));
-  const pathOf =
-    key === undefined
-      ? (i: number) => index.path(i)
-      : (i: number) => index.path(i, (j) => escapeSegment(nameOf(j)));
-  const idOf = hiddenIds(tree, key);
-  const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf, (i) => idOf(i) ?? "");
-  let view = buildView(
+  const names = printedNames(tree, index, key);
+  const label = compileLabel(options.label ?? "{name}", tree, names);
+  let view = buildView({
     index,
     scores,
     foci,
     selection,
     label,
-    nameOf,
-    pathOf,
-    idOf,
-    parentsOf(prepared, selection),
-  );
+    names,
+    parentsOf: parentsOf(prepared, selection),
+  });
   if (options.siblingOrder && options.siblingOrder !== "input") {
     orderSiblings(view.data, options.siblingOrder, tree.hasSizes);
     view = hierarchyOf(view.data);
   }
-  return { view, selection, scores, foci, fociPaths: [...foci].map(pathOf), unmatchedFoci: unmatched };
+  return { view, selection, scores, foci, fociPaths: [...foci].map(names.pathOf), unmatchedFoci: unmatched };
 }
 
 /**
  * Graphs: for a focus with several parents (its full entry's parent and the parents of the references
  * that stand for it), how many it has and how many of them are not shown.
  */
-function parentsOf(prepared: Prepared, selection: Selection) {
+function parentsOf(prepared: Prepared, selection: Selection): ParentsOf | undefined {
   const refs = prepared.references;
   if (refs === null) return undefined;
   const { tree } = prepared;

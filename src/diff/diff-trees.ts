@@ -5,8 +5,7 @@ import { resolveSpecs } from "../focus/resolve-specs.js";
 import { type Importance, importance } from "../interest/importance.js";
 import { type Measures, measure } from "../model/measure.js";
 import { PathIndex } from "../model/path-index.js";
-import { hiddenIds, pseudonym } from "../model/pseudonym.js";
-import { escapeSegment } from "../model/segment.js";
+import { printedNames } from "../model/printed-names.js";
 import type { Tree } from "../model/tree.js";
 import { hierarchyOf } from "../view/hierarchy-of.js";
 import { compileLabel } from "../view/label.js";
@@ -156,46 +155,24 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
   const scores = diffInterest(tree, api, foci, combined.kind, changeMeasures.onChangePath);
   const order = diffOrder(tree, measures, scores, changeMeasures);
   const selection = select(
-    tree,
-    measures,
-    scores,
-    order,
-    options.budget,
-    options.headerLines ?? DIFF_HEADER_LINES,
-    options.chains ?? false,
+    { tree, measures, scores, order },
+    { budget: options.budget, headerLines: options.headerLines ?? DIFF_HEADER_LINES, chains: options.chains },
   );
-
-  const hide = (t: Tree) => (i: number) =>
-    key === undefined || (i === 0 && t.syntheticRoot) ? t.name.get(i) : pseudonym(key, t.name.get(i));
-  const nameOf = hide(tree);
-  const pathOf =
-    key === undefined
-      ? (i: number) => index.path(i)
-      : (i: number) => index.path(i, (j) => escapeSegment(nameOf(j)));
-  const oldNameOf = hide(oldTree);
-  const oldPathOf = (o: number) => {
-    const old = oldIndexOf(prepared); // built only when a shown node moved
-    return key === undefined ? old.path(o) : old.path(o, (j) => escapeSegment(oldNameOf(j)));
-  };
-  const idOf = hiddenIds(tree, key);
-  const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf, (i) => idOf(i) ?? "");
-  let view = buildDiffView(
+  const names = printedNames(tree, index, key);
+  // The old version's path index is built only when a shown node moved.
+  const old = printedNames(oldTree, () => oldIndexOf(prepared), key);
+  const label = compileLabel(options.label ?? "{name}", tree, names);
+  let view = buildDiffView({
     index,
     combined,
-    changeMeasures,
+    changes: changeMeasures,
     scores,
     foci,
     selection,
     label,
-    nameOf,
-    pathOf,
-    idOf,
-    {
-      nameOf: oldNameOf,
-      pathOf: oldPathOf,
-      valueOf: (v) => (key === undefined || v === "" ? v : pseudonym(key, v)),
-    },
-  );
+    names,
+    old,
+  });
   if (options.siblingOrder && options.siblingOrder !== "input") {
     orderSiblings(view.data, options.siblingOrder, tree.hasSizes);
     view = hierarchyOf(view.data);
@@ -208,7 +185,7 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
     selection,
     view,
     foci,
-    fociPaths: [...foci].map(pathOf),
+    fociPaths: [...foci].map(names.pathOf),
     unmatchedFoci: unmatched,
     totals,
   };
