@@ -21,7 +21,6 @@ import { open, readFile } from "node:fs/promises";
 import { Session } from "node:inspector/promises";
 import { totalmem } from "node:os";
 import { getHeapStatistics } from "node:v8";
-import launcher from "../bin/load-bundle.js";
 import { makeRng } from "./generate.js";
 
 const DIST = new URL("../dist/index.js", import.meta.url);
@@ -159,18 +158,21 @@ async function readAsCli(file) {
 
 /** The CLI's modules (dist/cli), imported before the clock starts. */
 async function cliModules() {
-  const [input, settings, stream, progress, options, palette] = await Promise.all([
+  const [input, settings, renderers, stream, progress, options, palette] = await Promise.all([
     import(CLI("input")),
     import(CLI("output-settings")),
+    import(CLI("renderers")),
     import(CLI("read-input-stream")),
     import(CLI("progress")),
     import(CLI("options")),
     import(new URL("../dist/render/palette.js", import.meta.url)),
   ]);
-  // loadInWorker as bin/espalier.js hands it over: from the bundle (its worker starts from the
-  // bundle's load-worker.js), unless the compiled modules are newer (then, as bin does, from them).
-  const { loadInWorker } = await launcher.loadCli();
-  return { ...input, ...settings, ...stream, ...progress, ...options, ...palette, loadInWorker };
+  // loadInWorker from the same compiled modules as the rest of this run (its worker runs
+  // dist/cli/load-worker.js): the tree it sends back is rebuilt with these modules' classes, so the
+  // diff meets one NamePool class, as the command line (all one bundle) does. Taken from the bundle,
+  // the old tree's names were another class, and every name comparison fell back to decoding.
+  const { loadInWorker } = await import(CLI("load-in-worker"));
+  return { ...input, ...settings, ...renderers, ...stream, ...progress, ...options, ...palette, loadInWorker };
 }
 
 /**
@@ -209,13 +211,13 @@ async function full({ file, foci, budget, profile }) {
   const chunks = cli.withProgress(source.chunks, io, cli.displayName(file), source.size);
   const tree = await api.loadTreeFromStream(chunks, cli.toLoadOptions(file, opts));
   const t1 = now();
-  const done = summaryText(api, cli, io, opts, tree);
+  const done = await summaryText(api, cli, io, opts, tree);
   if (session) await stopProfile(session, profile);
   return { ms: done.end - t0, phases: { "read+load": t1 - t0, ...done.phases }, check: done.check };
 }
 
-/** prepare, summarize and renderText with the options summary-command.ts passes; times each. */
-function summaryText(api, cli, io, opts, tree) {
+/** prepare, summarize and render with the options and renderer summary-command.ts uses; times each. */
+async function summaryText(api, cli, io, opts, tree) {
   const t1 = now();
   const prepared = api.prepare(tree);
   const t2 = now();
@@ -226,15 +228,12 @@ function summaryText(api, cli, io, opts, tree) {
     label: opts.label,
     pseudonymKey: undefined,
     chains: opts.chains,
+    unmatchedFoci: opts.unmatchedFoci,
+    headerLines: cli.headerLinesFor(opts, "summary"),
+    siblingOrder: opts.siblingOrder,
   });
   const t3 = now();
-  const output = api.renderText(result.view, {
-    units: cli.unitsFor(opts),
-    sizes: tree.hasSizes,
-    palette: cli.palette(cli.useColour(opts, io)),
-    chains: opts.chains,
-    width: cli.defaultWidth(io),
-  });
+  const output = await cli.summaryRenderers[opts.format](result, cli.outputSettings(opts, io, tree), tree);
   const t4 = now();
   return {
     end: t4,
@@ -266,7 +265,7 @@ async function inMemory({ file, foci, budget, profile }) {
   const t1 = now();
   const tree = api.loadTree(text, cli.toLoadOptions(file, opts));
   const t2 = now();
-  const done = summaryText(api, cli, io, opts, tree);
+  const done = await summaryText(api, cli, io, opts, tree);
   if (session) await stopProfile(session, profile);
   return {
     ms: done.end - t0,
@@ -327,7 +326,7 @@ async function diff({ oldFile, newFile, budget, profile }) {
   const api = await import(DIST);
   const cli = await cliModules();
   const io = benchIO();
-  const opts = cli.summaryOptionsSchema.parse({ budget });
+  const opts = cli.diffOptionsSchema.parse({ budget });
   const load = async (file, options) => {
     const source = await cli.readInputStream(io, file);
     const chunks = cli.withProgress(source.chunks, io, cli.displayName(file), source.size);
@@ -356,15 +355,15 @@ async function diff({ oldFile, newFile, budget, profile }) {
     importance: opts.importance,
     label: opts.label,
     pseudonymKey: undefined,
+    chains: opts.chains,
+    headerLines: cli.headerLinesFor(opts, "diff"),
+    siblingOrder: opts.siblingOrder,
+    compareFields: opts.compareField,
+    unmatchedFoci: opts.unmatchedFoci,
   });
   const t3 = now();
-  const output = api.renderDiffText(result.view, result.totals, {
-    units: cli.unitsFor(opts),
-    sizes: result.combined.tree.hasSizes,
-    by: result.combined.by,
-    palette: cli.palette(cli.useColour(opts, io)),
-    width: cli.defaultWidth(io),
-  });
+  const { tree } = result.combined;
+  const output = await cli.diffRenderers[opts.format](result, cli.outputSettings(opts, io, tree), tree);
   const t4 = now();
   if (session) await stopProfile(session, profile);
   return {

@@ -1,4 +1,4 @@
-import { copyName, NamePool } from "../model/names.js";
+import { copyName, NamePool, type Names, sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 import { KIND } from "./changes.js";
 import { type ComparedFields, isEdited } from "./field-edits.js";
@@ -210,7 +210,7 @@ function fill(
     } else {
       delta[k] = newSize[n] - oldSize[o];
       if (n > 0 && newToOld[newParent[n]] !== oldParent[o]) kind[k] = KIND.moved;
-      else if ((n > 0 ? byId : renameRoot) && newName.get(n) !== oldName.get(o)) kind[k] = KIND.renamed;
+      else if ((n > 0 ? byId : renameRoot) && !sameName(newName, n, oldName, o)) kind[k] = KIND.renamed;
       else if (compared !== null && isEdited(compared, o, n)) kind[k] = KIND.edited;
       else if (delta[k] !== 0) kind[k] = KIND.resized;
     }
@@ -236,10 +236,8 @@ function copyTree(
 ): Tree {
   const total = parent.length;
   const depth = new Int32Array(total);
-  const name = new NamePool(total, total * 12);
   const ownSize = new Float64Array(total);
   const origin = new Int32Array(total);
-  const ids = useIds ? new NamePool(total, total * 8) : null;
   const newName = newTree.name;
   const oldName = oldTree.name;
   const newOrigin = newTree.origin;
@@ -247,14 +245,19 @@ function copyTree(
   const newSize = newTree.ownSize;
   const newIds = newTree.ids;
   const oldIds = oldTree.ids;
+  // The new version's names (and ids) are shared, not copied: only the removed nodes' are copied in.
+  const name = sharedOrEmpty(newName, newIndex, total, 12);
+  const ids = useIds ? sharedOrEmpty(newIds!, newIndex, total, 8) : null;
+  const copyNew = !(newName instanceof NamePool);
+  const copyNewIds = ids !== null && !(newIds instanceof NamePool);
   for (let k = 0; k < total; k++) {
     const n = newIndex[k];
     depth[k] = k === 0 ? 0 : depth[parent[k]] + 1;
     if (n >= 0) {
-      copyName(name, k, newName, n);
+      if (copyNew) copyName(name, k, newName, n);
       origin[k] = newOrigin[n];
       ownSize[k] = newSize[n];
-      if (ids) copyName(ids, k, newIds!, n);
+      if (copyNewIds) copyName(ids, k, newIds!, n);
     } else {
       const o = oldIndex[k];
       copyName(name, k, oldName, o);
@@ -287,4 +290,12 @@ function copyTree(
     syntheticRoot: newTree.syntheticRoot,
     ...(newTree.reading ? { reading: newTree.reading } : {}),
   };
+}
+
+/**
+ * A pool whose node k has name `from[k]` of `names` (the empty name where `from[k]` is -1) sharing its
+ * bytes, when `names` is a pool; else an empty pool for `total` names of about `perName` bytes.
+ */
+function sharedOrEmpty(names: Names, from: Int32Array, total: number, perName: number): NamePool {
+  return names instanceof NamePool ? names.reordered(from, "") : new NamePool(total, total * perName);
 }
