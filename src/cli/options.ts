@@ -350,7 +350,7 @@ export const summaryOnlyOptions = {
     schema: z
       .boolean()
       .default(false)
-      .describe("print the rollup query in standard SQL (GROUP BY ROLLUP) and stop"),
+      .describe("print the rollup plan the engine runs as one standard SQL query, and stop"),
   },
   sqlReach: {
     flags: "--sql-reach <levels>",

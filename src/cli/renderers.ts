@@ -95,6 +95,7 @@ export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
       width: s.widthOption === undefined ? undefined : s.widthOption * SVG_PX_PER_COLUMN,
       heading: lines.header && diffHeader(result.totals, result.combined.by, lines.header, lines),
       changeNote: (n) => changeTag(n, { units: s.units, sizes: tree.hasSizes }),
+      changesIn: (n, folded) => (folded ? n.hidden!.changes : n.changes),
     });
   },
 };

@@ -2,16 +2,14 @@ import type { HierarchyNode } from "d3-hierarchy";
 import { type Selection, select } from "../fit/select.js";
 import type { FocusSpec, UnmatchedFoci } from "../focus/focus-spec.js";
 import { resolveSpecs } from "../focus/resolve-specs.js";
-import { type Importance, importance } from "../interest/importance.js";
+import type { Importance } from "../interest/importance.js";
 import { type Measures, measure } from "../model/measure.js";
-import { PathIndex } from "../model/path-index.js";
 import { printedNames } from "../model/printed-names.js";
 import type { Tree } from "../model/tree.js";
 import { hierarchyOf } from "../view/hierarchy-of.js";
 import { compileLabel } from "../view/label.js";
 import { orderSiblings, type SiblingOrder } from "../view/sibling-order.js";
 import { alignRoots } from "./align-roots.js";
-import type { ChangeCounts } from "./changes.js";
 import { type Combined, combine } from "./combine.js";
 import { type DiffInterest, diffInterest } from "./diff-interest.js";
 import { diffOrder } from "./diff-order.js";
@@ -20,6 +18,7 @@ import { comparedFields } from "./field-edits.js";
 import { alignGraphRoots, distinctNodes, graphCombined, isGraphDiff, matchGraphs } from "./graph-changes.js";
 import { matchTrees } from "./match.js";
 import { type ChangeMeasures, changesIn, measureChanges, netIn } from "./measure-changes.js";
+import { type DiffTotals, PreparedDiff } from "./prepared-diff.js";
 import { subtreeCounts } from "./subtree-counts.js";
 
 export interface DiffOptions {
@@ -45,17 +44,6 @@ export interface DiffOptions {
   siblingOrder?: SiblingOrder;
 }
 
-/** Whole-diff numbers: the root's counts, and both versions' sizes. */
-export interface DiffTotals {
-  changes: ChangeCounts;
-  old: { nodes: number; size: number };
-  new: { nodes: number; size: number };
-  /** Net size change: new size minus old size. */
-  delta: number;
-  /** Whether the versions were compared as graphs (edges linked and unlinked are kinds of change). */
-  graph: boolean;
-}
-
 export interface DiffResult {
   combined: Combined;
   measures: Measures;
@@ -72,16 +60,6 @@ export interface DiffResult {
 
 /** Lines the diff's text rendering spends before the tree by default (the header line). */
 export const DIFF_HEADER_LINES = 1;
-
-/** Two versions matched and combined once, so they can be summarised for many foci and budgets. */
-export interface PreparedDiff {
-  readonly combined: Combined;
-  readonly measures: Measures;
-  readonly changeMeasures: ChangeMeasures;
-  readonly index: PathIndex;
-  readonly oldTree: Tree;
-  readonly totals: DiffTotals;
-}
 
 /** What a diff compares, beside structure, names and sizes. */
 export interface CompareOptions {
@@ -134,7 +112,7 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
     delta: netIn(changeMeasures, 0),
     graph,
   };
-  return { combined, measures, changeMeasures, index: new PathIndex(tree, measures), oldTree, totals };
+  return new PreparedDiff({ combined, measures, changeMeasures, oldTree, totals });
 }
 
 /**
@@ -151,7 +129,7 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
   const { tree } = combined;
   const key = options.pseudonymKey;
   const { foci, unmatched } = resolveSpecs(index, options.foci, key, options.unmatchedFoci);
-  const api = cachedImportance(prepared, options.importance);
+  const api = prepared.importance(options.importance);
   const scores = diffInterest(tree, api, foci, combined.kind, changeMeasures.onChangePath);
   const order = diffOrder(tree, measures, scores, changeMeasures);
   const selection = select(
@@ -160,7 +138,7 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
   );
   const names = printedNames(tree, index, key);
   // The old version's path index is built only when a shown node moved.
-  const old = printedNames(oldTree, () => oldIndexOf(prepared), key);
+  const old = printedNames(oldTree, () => prepared.oldIndex(), key);
   const label = compileLabel(options.label ?? "{name}", tree, names);
   let view = buildDiffView({
     index,
@@ -189,32 +167,4 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
     unmatchedFoci: unmatched,
     totals,
   };
-}
-
-// Per prepared diff, what does not depend on the foci: the a-priori importance of each kind, and the
-// old version's path index (for "moved from" notes).
-const importanceCache = new WeakMap<PreparedDiff, Map<Importance, Float64Array>>();
-const oldIndexCache = new WeakMap<PreparedDiff, PathIndex>();
-
-function cachedImportance(prepared: PreparedDiff, kind: Importance): Float64Array {
-  let byKind = importanceCache.get(prepared);
-  if (!byKind) {
-    byKind = new Map();
-    importanceCache.set(prepared, byKind);
-  }
-  let api = byKind.get(kind);
-  if (!api) {
-    api = importance(prepared.combined.tree, prepared.measures, kind);
-    byKind.set(kind, api);
-  }
-  return api;
-}
-
-function oldIndexOf(prepared: PreparedDiff): PathIndex {
-  let old = oldIndexCache.get(prepared);
-  if (!old) {
-    old = new PathIndex(prepared.oldTree, measure(prepared.oldTree));
-    oldIndexCache.set(prepared, old);
-  }
-  return old;
 }

@@ -1,7 +1,8 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { diffOrder } from "../diff/diff-order.js";
-import { DIFF_HEADER_LINES, type PreparedDiff, summarizeDiff } from "../diff/diff-trees.js";
+import { DIFF_HEADER_LINES, summarizeDiff } from "../diff/diff-trees.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
+import type { PreparedDiff } from "../diff/prepared-diff.js";
 import type { Selection } from "../fit/select.js";
 import type { Importance } from "../interest/importance.js";
 import { type NodeOrder, nodeOrder } from "../interest/order.js";

@@ -1,6 +1,6 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { changeKinds, treeChangeKinds } from "../diff/changes.js";
-import type { DiffTotals } from "../diff/diff-trees.js";
+import type { DiffTotals } from "../diff/prepared-diff.js";
 import type { ViewNode } from "../view/view-node.js";
 import { formatCount, type NumberOptions } from "./amount.js";
 import { displayWidth, shortenEnd } from "./display-width.js";

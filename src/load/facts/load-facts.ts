@@ -155,23 +155,16 @@ async function keyLevels(
 ): Promise<{ plan: KeyLevels; size: number } | undefined> {
   const { keys, level } = KEY_TABLES;
   if (load.facts.keyDepth === 0) return undefined;
-  await run(
-    engine,
-    `CREATE TEMPORARY TABLE ${keys} AS ${keysSql(load.facts, hasSize, load.facts.keyDepth)}`,
-    load,
-    hasSize,
-  );
+  const keysStep = keysSql(load.facts, hasSize, load.facts.keyDepth);
+  await run(engine, `CREATE TEMPORARY TABLE ${keys} AS ${keysStep}`, load, hasSize);
   const deepest = (await run(engine, `SELECT MAX(d) FROM ${keys}`, load)).values[0][0];
   if (deepest === null || deepest === undefined || Number(deepest) === 0) return undefined;
   const plan = new KeyLevels(load.facts, Number(deepest), hasSize);
-  await run(
-    engine,
-    `CREATE TEMPORARY TABLE ${level(plan.depth)} AS ${plan.levelSql(plan.depth, "", keys)}`,
-    load,
-  );
-  for (let j = plan.depth - 1; j >= 1; j--)
-    await run(engine, `CREATE TEMPORARY TABLE ${level(j)} AS ${plan.levelSql(j, level(j + 1), keys)}`, load);
-  await run(engine, `CREATE TEMPORARY TABLE ${level(0)} AS ${plan.rootSql(level(1), keys)}`, load);
+  // The steps --print-sql prints (printedSql), the keys table's already run.
+  const [first, ...rest] = plan.steps(load.facts.keyDepth);
+  if (first.table !== keys || first.sql !== keysStep)
+    throw new Error("keyLevels: the plan's first step differs");
+  for (const step of rest) await run(engine, `CREATE TEMPORARY TABLE ${step.table} AS ${step.sql}`, load);
   const counts = Array.from({ length: plan.depth + 1 }, (_, j) => `(SELECT COUNT(*) FROM ${level(j)})`);
   const counted = await run(
     engine,
