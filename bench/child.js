@@ -172,7 +172,16 @@ async function cliModules() {
   // diff meets one NamePool class, as the command line (all one bundle) does. Taken from the bundle,
   // the old tree's names were another class, and every name comparison fell back to decoding.
   const { loadInWorker } = await import(CLI("load-in-worker"));
-  return { ...input, ...settings, ...renderers, ...stream, ...progress, ...options, ...palette, loadInWorker };
+  return {
+    ...input,
+    ...settings,
+    ...renderers,
+    ...stream,
+    ...progress,
+    ...options,
+    ...palette,
+    loadInWorker,
+  };
 }
 
 /**

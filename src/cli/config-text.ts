@@ -4,7 +4,7 @@ import { EspalierError, type SourcePos } from "../errors.js";
 import { configSchema } from "./options.js";
 import { issueMessage } from "./validate-options.js";
 
-/** The keys a config file sets, as read (validated against `configSchema`). */
+/** The keys a config file sets, as read (validated against `configSchema()`). */
 export type ConfigValues = Record<string, unknown>;
 
 /** Validates config text; returns only the keys it sets. */
@@ -49,14 +49,14 @@ export function parseConfigWithPositions(
   }
   if (typeof raw !== "object" || raw === null || Array.isArray(raw))
     throw new EspalierError("USAGE", "the config must be a mapping of option names to values", { file });
-  const parsed = configSchema.safeParse(raw);
+  const parsed = configSchema().safeParse(raw);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
     if (issue.code === "unrecognized_keys") {
       const key = issue.keys[0];
       throw new EspalierError(
         "USAGE",
-        `config key ${key} is not an option${didYouMeanText(key, Object.keys(configSchema.shape))}`,
+        `config key ${key} is not an option${didYouMeanText(key, Object.keys(configSchema().shape))}`,
         keyPos.get(key) ?? { file },
         { key },
       );

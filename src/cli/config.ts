@@ -60,6 +60,6 @@ export function configJsonSchema(): Record<string, unknown> {
   return {
     $id: "https://espalier.invalid/schema/config-1.json",
     title: "espalier configuration",
-    ...z.toJSONSchema(configSchema, { target: "draft-2020-12", io: "input" }),
+    ...z.toJSONSchema(configSchema(), { target: "draft-2020-12", io: "input" }),
   };
 }

@@ -488,20 +488,32 @@ export type SummaryCliOptions = z.infer<typeof summaryOptionsSchema> & NamedOpti
 export const diffOptionsSchema = z.object({ ...shapeOf(sharedOptions), ...shapeOf(diffOnlyOptions) });
 export type DiffCliOptions = z.infer<typeof diffOptionsSchema> & NamedOptions;
 
-/** The options a config file may set (every key optional; unknown keys refused). */
-export const configSchema = z
-  .object(
-    shapeOf(
-      Object.fromEntries(
-        Object.entries<OptionSpec>({ ...sharedOptions, ...summaryOnlyOptions, ...diffOnlyOptions }).filter(
-          ([, spec]) => spec.config !== false,
+function makeConfigSchema() {
+  return z
+    .object(
+      shapeOf(
+        Object.fromEntries(
+          Object.entries<OptionSpec>({ ...sharedOptions, ...summaryOnlyOptions, ...diffOnlyOptions }).filter(
+            ([, spec]) => spec.config !== false,
+          ),
         ),
       ),
-    ),
-  )
-  .partial()
-  .strict()
-  .describe("espalier project configuration (.espalier.yaml)");
+    )
+    .partial()
+    .strict()
+    .describe("espalier project configuration (.espalier.yaml)");
+}
+
+let madeConfigSchema: ReturnType<typeof makeConfigSchema> | undefined;
+
+/**
+ * The options a config file may set (every key optional; unknown keys refused). Made on first use: most
+ * runs read no config file, and making it is a good part of a small run's start (issue 14).
+ */
+export function configSchema(): ReturnType<typeof makeConfigSchema> {
+  madeConfigSchema ??= makeConfigSchema();
+  return madeConfigSchema;
+}
 
 /** Environment variable holding the secret for --pseudonymize. */
 export const PSEUDONYM_KEY_ENV = "ESPALIER_PSEUDONYM_KEY";

@@ -1,4 +1,3 @@
-import { Chalk, type ChalkInstance } from "chalk";
 import type { ChangeKind } from "../diff/changes.js";
 
 /** The styles the text rendering uses; identity functions when colour is off. */
@@ -29,24 +28,62 @@ export const noColour: Palette = {
 
 /**
  * Colour is decided at the edge (terminal, NO_COLOR, --color) and handed in as a boolean. The basic
- * sixteen colours only (chalk level 1), so any terminal shows them.
+ * sixteen colours only, so any terminal shows them.
  */
 export function palette(colour: boolean): Palette {
   if (!colour) return noColour;
-  const c: ChalkInstance = new Chalk({ level: 1 });
   return {
-    focus: (s) => c.bold.underline(s),
-    path: (s) => c.bold(s),
-    quiet: (s) => c.dim(s),
+    focus: styled("bold", "underline"),
+    path: styled("bold"),
+    quiet: styled("dim"),
     change: {
-      added: (s) => c.green(s),
-      removed: (s) => c.magenta(s),
-      moved: (s) => c.blue(s),
-      renamed: (s) => c.cyan(s),
-      edited: (s) => c.blueBright.underline(s),
-      linked: (s) => c.greenBright.underline(s),
-      unlinked: (s) => c.magentaBright.underline(s),
-      resized: (s) => c.yellow(s),
+      added: styled("green"),
+      removed: styled("magenta"),
+      moved: styled("blue"),
+      renamed: styled("cyan"),
+      edited: styled("blueBright", "underline"),
+      linked: styled("greenBright", "underline"),
+      unlinked: styled("magentaBright", "underline"),
+      resized: styled("yellow"),
     },
+  };
+}
+
+// Select Graphic Rendition parameters (ECMA-48, 8.3.117) that turn each style on and off; the bright
+// colours 90-97 are the common extension of the eight (common practice, no source). The styles are
+// written as the chalk package writes them at its level 1 (tests/render/palette.test.ts compares the
+// two): loading chalk itself took about a tenth of a small run's start (issue 14).
+const SGR = {
+  bold: [1, 22],
+  dim: [2, 22],
+  underline: [4, 24],
+  green: [32, 39],
+  yellow: [33, 39],
+  blue: [34, 39],
+  magenta: [35, 39],
+  cyan: [36, 39],
+  greenBright: [92, 39],
+  blueBright: [94, 39],
+  magentaBright: [95, 39],
+} as const;
+
+/**
+ * Text in the styles given, outermost first: each style's "on" sequence before it and the "off" ones
+ * after, innermost first. An "off" sequence inside the text (styled text within) turns its style on
+ * again after it, and the styles end before each line break and start again after it, so no style
+ * leaks out of the text or across lines. Empty text stays empty.
+ */
+function styled(...names: (keyof typeof SGR)[]): (text: string) => string {
+  const on = names.map((name) => `\u001b[${SGR[name][0]}m`);
+  const off = names.map((name) => `\u001b[${SGR[name][1]}m`);
+  const onAll = on.join("");
+  const offAll = [...off].reverse().join("");
+  return (text) => {
+    if (text === "") return text;
+    let out = text;
+    if (out.includes("\u001b"))
+      for (let k = names.length - 1; k >= 0; k--) out = out.replaceAll(off[k], off[k] + on[k]);
+    if (out.includes("\n")) out = out.replace(/\r?\n/g, (lineEnd) => offAll + lineEnd + onAll);
+    return onAll + out + offAll;
   };
 }
