@@ -1,3 +1,4 @@
+import type { SourcePos } from "../errors.js";
 import type { NamePool } from "./names.js";
 import type { TreeReading } from "./tree.js";
 
@@ -19,4 +20,6 @@ export interface LinkedNodes {
   rootName: string;
   /** How the loader read the input. */
   reading?: TreeReading;
+  /** Where a row (an origin when `originIsRow`) is in the input, when the loader can say. */
+  placeRow?: (row: number, field?: string) => SourcePos | undefined;
 }
