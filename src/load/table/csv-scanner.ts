@@ -44,8 +44,6 @@ export class CsvScanner {
   private stopped = false;
   /** Line where the next record starts (1-based). */
   private line = 1;
-  /** Records delivered so far (the header included). */
-  private records = 0;
   /** Fields of the first record: every later one must have as many. */
   private width = -1;
   // The current record's field bounds (start, end) and whether a field holds `""` to undo.
@@ -249,7 +247,6 @@ export class CsvScanner {
         sink.field(f, this.scratch, 0, length);
       }
     }
-    this.records++;
     if (sink.record(fields, line) === true) this.stopped = true;
     return q;
   }
