@@ -4,13 +4,12 @@ export { type ChangeCounts, type ChangeKind, changeKinds } from "./diff/changes.
 export {
   type DiffOptions,
   type DiffResult,
-  type DiffTotals,
   diffTrees,
-  type PreparedDiff,
   prepareDiff,
   summarizeDiff,
 } from "./diff/diff-trees.js";
 export type { DiffFolded, DiffViewNode } from "./diff/diff-view.js";
+export type { DiffTotals, PreparedDiff } from "./diff/prepared-diff.js";
 export { type ErrorCode, EspalierError, errorCodes, formatPos, type SourcePos } from "./errors.js";
 export { type Selection, select } from "./fit/select.js";
 export type { FocusSpec, ListedFocus, UnmatchedFoci } from "./focus/focus-spec.js";

@@ -1,5 +1,5 @@
 import type { HierarchyNode } from "d3-hierarchy";
-import { type Selection, select } from "./fit/select.js";
+import { type ChildrenInOrder, type Selection, select } from "./fit/select.js";
 import type { FocusSpec, UnmatchedFoci } from "./focus/focus-spec.js";
 import { resolveSpecs } from "./focus/resolve-specs.js";
 import { graphInterest } from "./interest/graph-doi.js";
@@ -9,38 +9,69 @@ import { childrenByDepthOrder, nodeOrder } from "./interest/order.js";
 import type { Scores } from "./interest/scores.js";
 import { type Measures, measure } from "./model/measure.js";
 import { NAME_TABLE_MIN, PathIndex } from "./model/path-index.js";
-import { hiddenIds, pseudonym } from "./model/pseudonym.js";
+import { printedNames } from "./model/printed-names.js";
 import { type ReferenceIndex, referenceIndex } from "./model/reference-index.js";
-import { escapeSegment } from "./model/segment.js";
 import type { Tree } from "./model/tree.js";
-import { buildView } from "./view/build-view.js";
+import { buildView, type ParentsOf } from "./view/build-view.js";
 import { hierarchyOf } from "./view/hierarchy-of.js";
 import { compileLabel } from "./view/label.js";
 import { orderSiblings, type SiblingOrder } from "./view/sibling-order.js";
 import type { ViewNode } from "./view/view-node.js";
 
-/** A loaded tree with its aggregates: load once, then summarise for many foci and budgets. */
-export interface Prepared {
-  readonly tree: Tree;
+/** Children of a node with at least this many are kept in order (see {@link Prepared.childrenInOrder}). */
+const WIDE = 1024;
+
+/**
+ * A loaded tree with its aggregates and what every summary of it shares, whatever the foci: load
+ * once, then summarise for many foci and budgets. It owns its caches: the a-priori importance of each
+ * kind asked for, and the children of wide nodes in the fit's order. A new focus then scores only the
+ * nodes its fit looks at (interestNear) and allocates nothing the size of the tree but the fit's
+ * shown flags.
+ */
+export class Prepared {
   readonly measures: Measures;
   readonly index: PathIndex;
   /** Graphs only: the references that stand for each node; null on a tree. */
   readonly references: ReferenceIndex | null;
+  private readonly importances = new Map<Importance, Float64Array>();
+  private readonly wide = new Map<number, Int32Array>();
+
+  constructor(readonly tree: Tree) {
+    this.measures = measure(tree);
+    this.index = new PathIndex(tree, this.measures);
+    this.references = referenceIndex(tree);
+    // Built here, at load time, so that even the first focus costs only interest + fit + view (a
+    // single summary needs them anyway): one pass over the child counts, which also builds the path
+    // index's name tables of wide nodes.
+    this.importance("depth");
+    const { children } = this.measures;
+    for (let p = 0; p < children.length; p++) {
+      if (children[p] >= NAME_TABLE_MIN) this.index.warm(p);
+      if (children[p] >= WIDE) this.wide.set(p, childrenByDepthOrder(this.measures, p));
+    }
+  }
+
+  /** The a-priori importance of every node, computed once per kind. */
+  importance(kind: Importance): Float64Array {
+    let api = this.importances.get(kind);
+    if (!api) {
+      api = importance(this.tree, this.measures, kind);
+      this.importances.set(kind, api);
+    }
+    return api;
+  }
+
+  /**
+   * The children of a node with at least {@link WIDE} of them in the order the fit takes them under
+   * the importance by depth (null for other nodes), so a new focus costs no scan of a node's million
+   * children.
+   */
+  readonly childrenInOrder: ChildrenInOrder = (p) => this.wide.get(p) ?? null;
 }
 
+/** Measures `tree` and builds its path index and caches: see {@link Prepared}. */
 export function prepare(tree: Tree): Prepared {
-  const measures = measure(tree);
-  const prepared = {
-    tree,
-    measures,
-    index: new PathIndex(tree, measures),
-    references: referenceIndex(tree),
-  };
-  // Warm the per-tree caches here, at load time, so that even the first focus costs only
-  // interest + fit + view (a single summary computes them anyway).
-  cachedImportance(prepared, "depth");
-  wideChildren(prepared);
-  return prepared;
+  return new Prepared(tree);
 }
 
 export interface SummarizeOptions {
@@ -81,56 +112,45 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
   const key = options.pseudonymKey;
   const { foci: found, unmatched } = resolveSpecs(index, options.foci, key, options.unmatchedFoci);
   const foci = fullEntries(tree, found);
-  const api = cachedImportance(prepared, options.importance);
+  const api = prepared.importance(options.importance);
   const refs = prepared.references;
   // A graph scores by graph distance over the whole graph; a tree (no reference) near its foci, as before.
   const scores: Scores = refs
     ? graphInterest(tree, measures, api, foci, refs)
     : interestNear(tree, api, foci);
   const selection = select(
-    tree,
-    measures,
-    scores,
-    nodeOrder(tree, measures, scores),
-    options.budget,
-    options.headerLines ?? 0,
-    options.chains ?? false,
-    // Siblings of a graph need not share an interest (one may be nearer a focus through a reference).
-    options.importance === "depth" && refs === null ? wideChildren(prepared) : undefined,
+    { tree, measures, scores, order: nodeOrder(tree, measures, scores) },
+    {
+      budget: options.budget,
+      headerLines: options.headerLines,
+      chains: options.chains,
+      // Siblings of a graph need not share an interest (one may be nearer a focus through a reference).
+      childrenInOrder: options.importance === "depth" && refs === null ? prepared.childrenInOrder : undefined,
+    },
   );
-  const nameOf =
-    key === undefined
-      ? (i: number) => tree.name.get(i)
-      : (i: number) => (i === 0 && tree.syntheticRoot ? tree.name.get(i) : pseudonym(key, tree.name.get(i)));
-  const pathOf =
-    key === undefined
-      ? (i: number) => index.path(i)
-      : (i: number) => index.path(i, (j) => escapeSegment(nameOf(j)));
-  const idOf = hiddenIds(tree, key);
-  const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf, (i) => idOf(i) ?? "");
-  let view = buildView(
+  const names = printedNames(tree, index, key);
+  const label = compileLabel(options.label ?? "{name}", tree, names);
+  let view = buildView({
     index,
     scores,
     foci,
     selection,
     label,
-    nameOf,
-    pathOf,
-    idOf,
-    parentsOf(prepared, selection),
-  );
+    names,
+    parentsOf: parentsOf(prepared, selection),
+  });
   if (options.siblingOrder && options.siblingOrder !== "input") {
     orderSiblings(view.data, options.siblingOrder, tree.hasSizes);
     view = hierarchyOf(view.data);
   }
-  return { view, selection, scores, foci, fociPaths: [...foci].map(pathOf), unmatchedFoci: unmatched };
+  return { view, selection, scores, foci, fociPaths: [...foci].map(names.pathOf), unmatchedFoci: unmatched };
 }
 
 /**
  * Graphs: for a focus with several parents (its full entry's parent and the parents of the references
  * that stand for it), how many it has and how many of them are not shown.
  */
-function parentsOf(prepared: Prepared, selection: Selection) {
+function parentsOf(prepared: Prepared, selection: Selection): ParentsOf | undefined {
   const refs = prepared.references;
   if (refs === null) return undefined;
   const { tree } = prepared;
@@ -151,49 +171,4 @@ function fullEntries(tree: Tree, foci: Int32Array): Int32Array {
   const set = new Set<number>();
   for (const f of foci) set.add(ref[f] === -1 ? f : ref[f]);
   return Int32Array.from([...set].sort((a, b) => a - b));
-}
-
-// Per loaded tree, what does not depend on the foci: the a-priori importance of each kind. A new focus
-// then scores only the nodes its fit looks at (interestNear) and allocates nothing the size of the tree
-// but the fit's shown flags.
-const importanceCache = new WeakMap<Prepared, Map<Importance, Float64Array>>();
-
-function cachedImportance(prepared: Prepared, kind: Importance): Float64Array {
-  let byKind = importanceCache.get(prepared);
-  if (!byKind) {
-    byKind = new Map();
-    importanceCache.set(prepared, byKind);
-  }
-  let api = byKind.get(kind);
-  if (!api) {
-    api = importance(prepared.tree, prepared.measures, kind);
-    byKind.set(kind, api);
-  }
-  return api;
-}
-
-/** Children of a node with at least this many are kept in order (see childrenByDepthOrder). */
-const WIDE = 1024;
-const wideCache = new WeakMap<Prepared, (p: number) => Int32Array | null>();
-
-/**
- * Per tree, the children of every node with at least {@link WIDE} of them in the order the fit takes
- * them under the importance by depth, so a new focus costs no scan of a node's million children. Built
- * all at once (at prepare time) in one pass over the child counts, which also builds the path index's
- * name tables of wide nodes.
- */
-function wideChildren(prepared: Prepared): (p: number) => Int32Array | null {
-  let lookup = wideCache.get(prepared);
-  if (!lookup) {
-    const { measures } = prepared;
-    const lists = new Map<number, Int32Array>();
-    const { children } = measures;
-    for (let p = 0; p < children.length; p++) {
-      if (children[p] >= NAME_TABLE_MIN) prepared.index.warm(p);
-      if (children[p] >= WIDE) lists.set(p, childrenByDepthOrder(measures, p));
-    }
-    lookup = (p) => lists.get(p) ?? null;
-    wideCache.set(prepared, lookup);
-  }
-  return lookup;
 }

@@ -2,7 +2,7 @@ import type { z } from "zod";
 import { EspalierError } from "../errors.js";
 import { loadConfig } from "./config.js";
 import type { CliIO } from "./io.js";
-import { allOptions, controlOptions, type OptionSpec } from "./options.js";
+import { allOptions, controlOptions, type NamedOptions, type OptionSpec } from "./options.js";
 import { type CommandLine, flagsByKey } from "./parse-command-line.js";
 import { validateOptions } from "./validate-options.js";
 
@@ -25,7 +25,7 @@ export async function effectiveOptions<S extends z.ZodObject>(
   schema: S,
   takes: Record<string, OptionSpec>,
   io: CliIO,
-): Promise<EffectiveOptions<z.infer<S>>> {
+): Promise<EffectiveOptions<z.infer<S> & NamedOptions>> {
   const { given } = line;
   if (given.config !== undefined && given.withoutConfig === true)
     throw new EspalierError("USAGE", "--config and --without-config cannot be given together", undefined, {
@@ -50,7 +50,9 @@ export async function effectiveOptions<S extends z.ZodObject>(
       ? { name: `config key ${key}`, pos: config?.keyPos.get(key) ?? { file: config?.file } }
       : { name: flagsByKey.get(key)?.long ?? key },
   );
-  return { options, configFile: config?.file, fromConfig };
+  // Which options were named (flag or config), for checks that tell a default from a value asked for.
+  const named: NamedOptions = { named: new Set(Object.keys(values)) };
+  return { options: Object.assign(options, named), configFile: config?.file, fromConfig };
 }
 
 /** The effective configuration as YAML, as `--options-in-effect` shows it (a valid config file itself). */
@@ -62,7 +64,7 @@ export async function optionsInEffectYaml(
   const { stringify } = await import("yaml");
   const shown: Record<string, unknown> = {};
   for (const key of Object.keys(values).sort()) {
-    if (allOptions[key]?.config === false || values[key] === undefined) continue;
+    if (!(key in allOptions) || allOptions[key].config === false || values[key] === undefined) continue;
     shown[key] = values[key];
   }
   const source = configFile === undefined ? "no config file" : `config file: ${configFile}`;

@@ -35,6 +35,7 @@ export function factOptionsOf(opts: SharedCliOptions): FactOptions {
     keyField: opts.keyField,
     separator: opts.keySeparator,
     sizeField: opts.sizeField,
+    ...(opts.named?.has("sizeField") ? { sizeFieldNamed: true } : {}),
     keyDepth: opts.keyDepth,
     table: opts.sqlTable,
   };

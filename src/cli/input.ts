@@ -162,6 +162,9 @@ export function toLoadOptions(
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
     ...(opts.readAs === "auto" ? {} : { readAs: opts.readAs }),
     ...(opts.nulSeparated ? { nulSeparated: true } : {}),
+    // Named on purpose (a flag or the config), even as the default name: then the input must have it.
+    ...(opts.named?.has("sizeField") ? { sizeFieldNamed: true } : {}),
+    ...(opts.named?.has("nameField") ? { nameFieldNamed: true } : {}),
   };
 }
 

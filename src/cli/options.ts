@@ -350,7 +350,7 @@ export const summaryOnlyOptions = {
     schema: z
       .boolean()
       .default(false)
-      .describe("print the rollup query in standard SQL (GROUP BY ROLLUP) and stop"),
+      .describe("print the rollup plan the engine runs as one standard SQL query, and stop"),
   },
   sqlReach: {
     flags: "--sql-reach <levels>",
@@ -465,17 +465,26 @@ function shapeOf<T extends Record<string, OptionSpec>>(table: T): Shape<T> {
   return shape as Shape<T>;
 }
 
+/**
+ * Which options the run was given (on the command line or in the config file), beside their values: an
+ * option set to its default value on purpose (`--size-field size`) is named, and checked as such.
+ * Absent when the options were made in code.
+ */
+export interface NamedOptions {
+  named?: ReadonlySet<string>;
+}
+
 /** The validated options every command takes. */
 export const sharedOptionsSchema = z.object(shapeOf(sharedOptions));
-export type SharedCliOptions = z.infer<typeof sharedOptionsSchema>;
+export type SharedCliOptions = z.infer<typeof sharedOptionsSchema> & NamedOptions;
 
 /** The validated options of a summary, as the core receives them. */
 export const summaryOptionsSchema = z.object({ ...shapeOf(sharedOptions), ...shapeOf(summaryOnlyOptions) });
-export type SummaryCliOptions = z.infer<typeof summaryOptionsSchema>;
+export type SummaryCliOptions = z.infer<typeof summaryOptionsSchema> & NamedOptions;
 
 /** The validated options of `espalier diff`: every option of a summary, plus the diff's own. */
 export const diffOptionsSchema = z.object({ ...shapeOf(sharedOptions), ...shapeOf(diffOnlyOptions) });
-export type DiffCliOptions = z.infer<typeof diffOptionsSchema>;
+export type DiffCliOptions = z.infer<typeof diffOptionsSchema> & NamedOptions;
 
 /** The options a config file may set (every key optional; unknown keys refused). */
 export const configSchema = z

@@ -95,6 +95,7 @@ export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
       width: s.widthOption === undefined ? undefined : s.widthOption * SVG_PX_PER_COLUMN,
       heading: lines.header && diffHeader(result.totals, result.combined.by, lines.header, lines),
       changeNote: (n) => changeTag(n, { units: s.units, sizes: tree.hasSizes }),
+      changesIn: (n, folded) => (folded ? n.hidden!.changes : n.changes),
     });
   },
 };
@@ -114,9 +115,12 @@ function diffLines(result: DiffResult, s: OutputSettings, sizes: boolean): DiffT
   };
 }
 
-/** The header's facts (budget, lines used, foci as printed, what the size measures); none with --bare. */
+/**
+ * The header's facts (budget, lines used, foci as printed, how many were skipped for matching nothing,
+ * what the size measures); none with --bare.
+ */
 function headerOf<T extends ViewNode>(
-  result: { view: HierarchyNode<T>; selection: { lines: number } },
+  result: { view: HierarchyNode<T>; selection: { lines: number }; unmatchedFoci: readonly string[] },
   s: OutputSettings,
 ): HeaderOptions | undefined {
   if (!s.header) return undefined;
@@ -124,6 +128,7 @@ function headerOf<T extends ViewNode>(
     budget: s.budget,
     lines: result.selection.lines,
     foci: fociOf(result.view),
+    ...(result.unmatchedFoci.length > 0 ? { skippedFoci: result.unmatchedFoci.length } : {}),
     ...(s.sizeName === undefined ? {} : { sizeName: s.sizeName }),
   };
 }

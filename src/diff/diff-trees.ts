@@ -2,17 +2,14 @@ import type { HierarchyNode } from "d3-hierarchy";
 import { type Selection, select } from "../fit/select.js";
 import type { FocusSpec, UnmatchedFoci } from "../focus/focus-spec.js";
 import { resolveSpecs } from "../focus/resolve-specs.js";
-import { type Importance, importance } from "../interest/importance.js";
+import type { Importance } from "../interest/importance.js";
 import { type Measures, measure } from "../model/measure.js";
-import { PathIndex } from "../model/path-index.js";
-import { hiddenIds, pseudonym } from "../model/pseudonym.js";
-import { escapeSegment } from "../model/segment.js";
+import { printedNames } from "../model/printed-names.js";
 import type { Tree } from "../model/tree.js";
 import { hierarchyOf } from "../view/hierarchy-of.js";
 import { compileLabel } from "../view/label.js";
 import { orderSiblings, type SiblingOrder } from "../view/sibling-order.js";
 import { alignRoots } from "./align-roots.js";
-import type { ChangeCounts } from "./changes.js";
 import { type Combined, combine } from "./combine.js";
 import { type DiffInterest, diffInterest } from "./diff-interest.js";
 import { diffOrder } from "./diff-order.js";
@@ -21,6 +18,7 @@ import { comparedFields } from "./field-edits.js";
 import { alignGraphRoots, distinctNodes, graphCombined, isGraphDiff, matchGraphs } from "./graph-changes.js";
 import { matchTrees } from "./match.js";
 import { type ChangeMeasures, changesIn, measureChanges, netIn } from "./measure-changes.js";
+import { type DiffTotals, PreparedDiff } from "./prepared-diff.js";
 import { subtreeCounts } from "./subtree-counts.js";
 
 export interface DiffOptions {
@@ -46,17 +44,6 @@ export interface DiffOptions {
   siblingOrder?: SiblingOrder;
 }
 
-/** Whole-diff numbers: the root's counts, and both versions' sizes. */
-export interface DiffTotals {
-  changes: ChangeCounts;
-  old: { nodes: number; size: number };
-  new: { nodes: number; size: number };
-  /** Net size change: new size minus old size. */
-  delta: number;
-  /** Whether the versions were compared as graphs (edges linked and unlinked are kinds of change). */
-  graph: boolean;
-}
-
 export interface DiffResult {
   combined: Combined;
   measures: Measures;
@@ -73,16 +60,6 @@ export interface DiffResult {
 
 /** Lines the diff's text rendering spends before the tree by default (the header line). */
 export const DIFF_HEADER_LINES = 1;
-
-/** Two versions matched and combined once, so they can be summarised for many foci and budgets. */
-export interface PreparedDiff {
-  readonly combined: Combined;
-  readonly measures: Measures;
-  readonly changeMeasures: ChangeMeasures;
-  readonly index: PathIndex;
-  readonly oldTree: Tree;
-  readonly totals: DiffTotals;
-}
 
 /** What a diff compares, beside structure, names and sizes. */
 export interface CompareOptions {
@@ -135,7 +112,7 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
     delta: netIn(changeMeasures, 0),
     graph,
   };
-  return { combined, measures, changeMeasures, index: new PathIndex(tree, measures), oldTree, totals };
+  return new PreparedDiff({ combined, measures, changeMeasures, oldTree, totals });
 }
 
 /**
@@ -152,50 +129,28 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
   const { tree } = combined;
   const key = options.pseudonymKey;
   const { foci, unmatched } = resolveSpecs(index, options.foci, key, options.unmatchedFoci);
-  const api = cachedImportance(prepared, options.importance);
+  const api = prepared.importance(options.importance);
   const scores = diffInterest(tree, api, foci, combined.kind, changeMeasures.onChangePath);
   const order = diffOrder(tree, measures, scores, changeMeasures);
   const selection = select(
-    tree,
-    measures,
-    scores,
-    order,
-    options.budget,
-    options.headerLines ?? DIFF_HEADER_LINES,
-    options.chains ?? false,
+    { tree, measures, scores, order },
+    { budget: options.budget, headerLines: options.headerLines ?? DIFF_HEADER_LINES, chains: options.chains },
   );
-
-  const hide = (t: Tree) => (i: number) =>
-    key === undefined || (i === 0 && t.syntheticRoot) ? t.name.get(i) : pseudonym(key, t.name.get(i));
-  const nameOf = hide(tree);
-  const pathOf =
-    key === undefined
-      ? (i: number) => index.path(i)
-      : (i: number) => index.path(i, (j) => escapeSegment(nameOf(j)));
-  const oldNameOf = hide(oldTree);
-  const oldPathOf = (o: number) => {
-    const old = oldIndexOf(prepared); // built only when a shown node moved
-    return key === undefined ? old.path(o) : old.path(o, (j) => escapeSegment(oldNameOf(j)));
-  };
-  const idOf = hiddenIds(tree, key);
-  const label = compileLabel(options.label ?? "{name}", tree, nameOf, pathOf, (i) => idOf(i) ?? "");
-  let view = buildDiffView(
+  const names = printedNames(tree, index, key);
+  // The old version's path index is built only when a shown node moved.
+  const old = printedNames(oldTree, () => prepared.oldIndex(), key);
+  const label = compileLabel(options.label ?? "{name}", tree, names);
+  let view = buildDiffView({
     index,
     combined,
-    changeMeasures,
+    changes: changeMeasures,
     scores,
     foci,
     selection,
     label,
-    nameOf,
-    pathOf,
-    idOf,
-    {
-      nameOf: oldNameOf,
-      pathOf: oldPathOf,
-      valueOf: (v) => (key === undefined || v === "" ? v : pseudonym(key, v)),
-    },
-  );
+    names,
+    old,
+  });
   if (options.siblingOrder && options.siblingOrder !== "input") {
     orderSiblings(view.data, options.siblingOrder, tree.hasSizes);
     view = hierarchyOf(view.data);
@@ -208,36 +163,8 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
     selection,
     view,
     foci,
-    fociPaths: [...foci].map(pathOf),
+    fociPaths: [...foci].map(names.pathOf),
     unmatchedFoci: unmatched,
     totals,
   };
-}
-
-// Per prepared diff, what does not depend on the foci: the a-priori importance of each kind, and the
-// old version's path index (for "moved from" notes).
-const importanceCache = new WeakMap<PreparedDiff, Map<Importance, Float64Array>>();
-const oldIndexCache = new WeakMap<PreparedDiff, PathIndex>();
-
-function cachedImportance(prepared: PreparedDiff, kind: Importance): Float64Array {
-  let byKind = importanceCache.get(prepared);
-  if (!byKind) {
-    byKind = new Map();
-    importanceCache.set(prepared, byKind);
-  }
-  let api = byKind.get(kind);
-  if (!api) {
-    api = importance(prepared.combined.tree, prepared.measures, kind);
-    byKind.set(kind, api);
-  }
-  return api;
-}
-
-function oldIndexOf(prepared: PreparedDiff): PathIndex {
-  let old = oldIndexCache.get(prepared);
-  if (!old) {
-    old = new PathIndex(prepared.oldTree, measure(prepared.oldTree));
-    oldIndexCache.set(prepared, old);
-  }
-  return old;
 }

@@ -1,7 +1,6 @@
 import type { HierarchyNode } from "d3-hierarchy";
-import type { Selection } from "../fit/select.js";
-import type { PathIndex } from "../model/path-index.js";
-import { buildView, type Labeller } from "../view/build-view.js";
+import type { PrintedNames } from "../model/printed-names.js";
+import { buildView, type ViewInput } from "../view/build-view.js";
 import { hierarchyOf } from "../view/hierarchy-of.js";
 import type { Folded, ViewNode } from "../view/view-node.js";
 import { type ChangeCounts, type ChangeKind, changeKinds, KIND, kindName, noChanges } from "./changes.js";
@@ -40,12 +39,16 @@ export interface DiffViewNode extends Omit<ViewNode, "children" | "hidden"> {
   hidden: DiffFolded | null;
 }
 
-/** Names and paths in the old version, for the "moved from" and "renamed from" notes. */
-export interface OldNames {
-  nameOf: (o: number) => string;
-  pathOf: (o: number) => string;
-  /** A compared field's value as printed (a keyed pseudonym under `--pseudonymize`). */
-  valueOf: (value: string) => string;
+/** What a diff's view is built from: a view's input on the combined tree, and the changes. */
+export interface DiffViewInput extends Omit<ViewInput, "scores" | "parentsOf"> {
+  readonly scores: DiffInterest;
+  readonly combined: Combined;
+  readonly changes: ChangeMeasures;
+  /**
+   * Names and paths in the old version, for the "moved from" and "renamed from" notes, and how a
+   * compared field's value prints (a keyed pseudonym under `--pseudonymize`).
+   */
+  readonly old: PrintedNames;
 }
 
 /**
@@ -54,20 +57,9 @@ export interface OldNames {
  * every shown node each count and the net size change equal the node's own plus its shown children's
  * plus its folded remainder's.
  */
-export function buildDiffView(
-  index: PathIndex,
-  combined: Combined,
-  changes: ChangeMeasures,
-  scores: DiffInterest,
-  foci: Int32Array,
-  selection: Selection,
-  label: Labeller,
-  nameOf: (i: number) => string,
-  pathOf: (i: number) => string,
-  idOf: (i: number) => string | null,
-  old: OldNames,
-): HierarchyNode<DiffViewNode> {
-  const base = buildView(index, scores, foci, selection, label, nameOf, pathOf, idOf);
+export function buildDiffView(input: DiffViewInput): HierarchyNode<DiffViewNode> {
+  const { index, combined, changes, scores, selection, old } = input;
+  const base = buildView(input);
   const { count } = index.measures;
   const { shown } = selection;
   const { kind, delta, oldIndex, newIndex, oldTree, compared } = combined;

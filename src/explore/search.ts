@@ -1,7 +1,7 @@
 import { EspalierError } from "../errors.js";
 import type { Measures } from "../model/measure.js";
 import { NamePool } from "../model/names.js";
-import { pseudonym } from "../model/pseudonym.js";
+import { printedNameOf } from "../model/printed-names.js";
 import { parseSegment, splitPath } from "../model/segment.js";
 import type { Tree } from "../model/tree.js";
 
@@ -83,14 +83,11 @@ export class NameSearch {
 
   /** Computes up to `count` more pseudonyms; returns whether every name is now searchable. */
   advance(count: number): boolean {
-    const key = this.key;
-    if (key === undefined) return true;
+    if (this.key === undefined) return true;
     const { tree } = this;
+    const nameOf = printedNameOf(tree, this.key);
     const stop = Math.min(tree.length, this.ready + count);
-    for (let i = this.ready; i < stop; i++) {
-      const shown = i === 0 && tree.syntheticRoot ? tree.name.get(i) : pseudonym(key, tree.name.get(i));
-      this.put(i, encoder.encode(shown));
-    }
+    for (let i = this.ready; i < stop; i++) this.put(i, encoder.encode(nameOf(i)));
     this.ready = stop;
     return stop === tree.length;
   }

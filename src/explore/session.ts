@@ -1,14 +1,14 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { diffOrder } from "../diff/diff-order.js";
-import { DIFF_HEADER_LINES, type PreparedDiff, summarizeDiff } from "../diff/diff-trees.js";
+import { DIFF_HEADER_LINES, summarizeDiff } from "../diff/diff-trees.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
+import type { PreparedDiff } from "../diff/prepared-diff.js";
 import type { Selection } from "../fit/select.js";
 import type { Importance } from "../interest/importance.js";
 import { type NodeOrder, nodeOrder } from "../interest/order.js";
 import type { Measures } from "../model/measure.js";
 import type { PathIndex } from "../model/path-index.js";
-import { pseudonym } from "../model/pseudonym.js";
-import { escapeSegment } from "../model/segment.js";
+import { printedNames } from "../model/printed-names.js";
 import type { Tree } from "../model/tree.js";
 import { diffLineParts } from "../render/diff-line-parts.js";
 import type { Units } from "../render/format-size.js";
@@ -78,13 +78,14 @@ export interface Session {
 /** A session over one prepared tree. */
 export function summarySession(prepared: Prepared, look: LookOptions): Session {
   const { tree, measures, index } = prepared;
-  const naming = namesFor(tree, index, look.pseudonymKey);
+  const { nameOf, pathOf } = printedNames(tree, index, look.pseudonymKey);
   return {
     kind: "summary",
     tree,
     measures,
     index,
-    ...naming,
+    nameOf,
+    pathOf,
     landmarks: new Int32Array(0),
     headerLines: 0,
     search: new NameSearch(tree, measures, look.pseudonymKey),
@@ -118,7 +119,7 @@ export function summarySession(prepared: Prepared, look: LookOptions): Session {
 export function diffSession(prepared: PreparedDiff, look: LookOptions): Session {
   const { combined, measures, index, changeMeasures } = prepared;
   const { tree } = combined;
-  const naming = namesFor(tree, index, look.pseudonymKey);
+  const { nameOf, pathOf } = printedNames(tree, index, look.pseudonymKey);
   const changed: number[] = [];
   for (let i = 0; i < tree.length; i++) if (combined.kind[i] !== 0) changed.push(i);
   return {
@@ -126,7 +127,8 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
     tree,
     measures,
     index,
-    ...naming,
+    nameOf,
+    pathOf,
     landmarks: Int32Array.from(changed),
     headerLines: DIFF_HEADER_LINES,
     search: new NameSearch(tree, measures, look.pseudonymKey),
@@ -169,18 +171,6 @@ function fitted(
 ): Fitted {
   const shown = Int32Array.from(selection.admitted).sort();
   return { lines, groups, shown, isShown: selection.shown, order, selection, headerLines, view };
-}
-
-function namesFor(tree: Tree, index: PathIndex, key: string | undefined) {
-  const nameOf =
-    key === undefined
-      ? (i: number) => tree.name.get(i)
-      : (i: number) => (i === 0 && tree.syntheticRoot ? tree.name.get(i) : pseudonym(key, tree.name.get(i)));
-  const pathOf =
-    key === undefined
-      ? (i: number) => index.path(i)
-      : (i: number) => index.path(i, (j) => escapeSegment(nameOf(j)));
-  return { nameOf, pathOf };
 }
 
 type FitFn = Session["fit"];

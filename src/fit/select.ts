@@ -38,6 +38,26 @@ export function lineCost(tree: Tree, measures: Measures, scores: Scores, chains:
   return only && scores.distanceOf(p) !== 0 ? 0 : 1;
 }
 
+/** What the fit chooses from: a tree, its measures, the interest of its nodes and their one total order. */
+export interface Ranked {
+  readonly tree: Tree;
+  readonly measures: Measures;
+  readonly scores: Scores;
+  readonly order: NodeOrder;
+}
+
+/** How much the fit may show, and how lines are counted. */
+export interface SelectOptions {
+  /** Lines the output may take, header included. */
+  budget: number;
+  /** Lines the output spends before the tree; default 0. */
+  headerLines?: number;
+  /** A run of only children takes one line (see {@link lineCost}); default false. */
+  chains?: boolean;
+  /** Wide nodes' children in the order's own order (a hint, see {@link ChildrenInOrder}). */
+  childrenInOrder?: ChildrenInOrder;
+}
+
 /**
  * Chooses the shown set under a line budget: the forced nodes, then the longest prefix of the node
  * order whose rendering fits. A shown node takes one line (folded remainders ride on their parent's
@@ -46,16 +66,9 @@ export function lineCost(tree: Tree, measures: Measures, scores: Scores, chains:
  * the order is always a child of a node already shown, because a parent precedes its children.
  * Cost: O(k log k + children of shown nodes), never a sort of the whole tree.
  */
-export function select(
-  tree: Tree,
-  measures: Measures,
-  scores: Scores,
-  order: NodeOrder,
-  budget: number,
-  headerLines = 0,
-  chains = false,
-  childrenInOrder?: ChildrenInOrder,
-): Selection {
+export function select(ranked: Ranked, options: SelectOptions): Selection {
+  const { tree, measures, scores, order } = ranked;
+  const { budget, headerLines = 0, chains = false, childrenInOrder } = options;
   const n = tree.length;
   const shown = new Uint8Array(n);
   const { count } = measures;

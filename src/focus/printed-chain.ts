@@ -1,5 +1,4 @@
 import type { PathIndex } from "../model/path-index.js";
-import { pseudonym } from "../model/pseudonym.js";
 import { CHAIN_JOIN } from "../render/line-layout.js";
 import { shownLabel } from "../render/safe-text.js";
 
@@ -54,10 +53,4 @@ export function resolvePrintedChain(
     if (k < 0) out.push(i);
   }
   return out;
-}
-
-/** Names as a summary prints them under `--pseudonymize` with `key` (a synthetic root keeps its name). */
-export function pseudonymNames(index: PathIndex, key: string): (i: number) => string {
-  const { tree } = index;
-  return (i) => (i === 0 && tree.syntheticRoot ? tree.name.get(i) : pseudonym(key, tree.name.get(i)));
 }

@@ -1,11 +1,12 @@
 import { EspalierError, quoted, say } from "../errors.js";
 import { indexOfName } from "../model/names.js";
 import type { PathIndex } from "../model/path-index.js";
+import { printedNameOf, printedNames } from "../model/printed-names.js";
 import { pseudonym } from "../model/pseudonym.js";
 import { escapeSegment, parseSegment, splitPath } from "../model/segment.js";
 import { isGlob, matchGlob } from "./glob.js";
-import { isPrintedChain, pseudonymNames, resolvePrintedChain } from "./printed-chain.js";
-import { realView, type SuggestView, suggestFoci } from "./suggest.js";
+import { isPrintedChain, resolvePrintedChain } from "./printed-chain.js";
+import { suggestFoci } from "./suggest.js";
 
 /** The node an exact path names, or -1. Glob characters are taken literally here. */
 export function resolvePath(index: PathIndex, spec: string): number {
@@ -110,7 +111,7 @@ function matchSpec(
   }
   // A chain copied from a printed line (`services / ledger / src`), as the spec stands.
   if (ids && isPrintedChain(spec)) {
-    const nameOf = pseudonymKey === undefined ? undefined : pseudonymNames(index, pseudonymKey);
+    const nameOf = pseudonymKey === undefined ? undefined : printedNameOf(tree, pseudonymKey);
     const matches = resolvePrintedChain(index, spec, nameOf);
     if (matches.length > 0) return matches;
   }
@@ -127,14 +128,16 @@ function noMatch(
   key: string | undefined,
 ): EspalierError {
   if (key === undefined) {
-    const near = suggestFoci(index, compared, realView(index));
+    const near = suggestFoci(index, compared, printedNames(index.tree, index, undefined));
     return new EspalierError(
       "FOCUS_NO_MATCH",
       say`focus ${quoted.value(spec)} matches no node${didYouMean(near)}`,
     );
   }
   // Only a typed pseudonym is compared, with pseudonyms only: guessing real names learns nothing.
-  const near = spec.includes("anon-") ? suggestFoci(index, compared, pseudonymView(index, key)) : [];
+  const near = spec.includes("anon-")
+    ? suggestFoci(index, compared, printedNames(index.tree, index, key))
+    : [];
   return new EspalierError(
     "FOCUS_NO_MATCH",
     `focus ${k + 1} of ${n} matches no node (not repeated here: --pseudonymize is on)${didYouMean(near)}`,
@@ -147,19 +150,4 @@ function didYouMean(near: readonly string[]): string {
   const list =
     quoted.length === 1 ? quoted[0] : `${quoted.slice(0, -1).join(", ")} or ${quoted[quoted.length - 1]}`;
   return `; did you mean ${list}?`;
-}
-
-/** The tree as printed with pseudonyms: what a user of --pseudonymize has seen. */
-function pseudonymView(index: PathIndex, key: string): SuggestView {
-  const { tree } = index;
-  const base = (j: number) => escapeSegment(pseudonym(key, tree.name.get(j)));
-  return {
-    segment: base,
-    id: (i) => {
-      const id = tree.ids?.get(i);
-      return id ? pseudonym(key, id) : null;
-    },
-    path: (i) => index.path(i, base),
-    realNames: false,
-  };
 }

@@ -1,4 +1,5 @@
 import type { PathIndex } from "../model/path-index.js";
+import type { PrintedNames } from "../model/printed-names.js";
 import { escapeSegment, parseSegment, splitPath } from "../model/segment.js";
 import { boundedDistance, distanceWork, MAX_DISTANCE_TEXT } from "./bounded-distance.js";
 
@@ -15,18 +16,6 @@ export const MAX_SUGGESTIONS = 3;
 const MAX_JOINED = 16;
 /** Child lookups spent on such joins for one spec (also bounds the recursion depth). */
 const MAX_LOOKUPS = 2_000;
-
-/** How the nodes look to the user who typed the spec: printed segments, ids and paths. */
-export interface SuggestView {
-  /** Node `i`'s escaped segment without the `~~N` rank (a pseudonym when pseudonyms are on). */
-  segment(i: number): string;
-  /** Node `i`'s id as printed; null or "" when it has none. */
-  id(i: number): string | null;
-  /** Node `i`'s path as printed, accepted back as a focus. */
-  path(i: number): string;
-  /** Whether a name containing "/" typed unescaped may be looked up by its real name (not with pseudonyms). */
-  realNames: boolean;
-}
 
 /** Edits allowed for a typed text of `n` code units: a third of it, at least one; more is unrelated. */
 export function editsAllowed(n: number): number {
@@ -49,16 +38,17 @@ interface Candidate {
  * missing or wrong ancestor, or a bare name, still finds the node). The search fills at most
  * {@link MAX_SUGGEST_WORK} cells of distance tables. A glob is compared without its leading `**` segments, and
  * only when no `*` is left. Ties: whole paths and ids before partial ones, shallower, then input order.
+ * Paths, names and ids are compared as `names` prints them: what the user who typed the spec has seen.
  */
-export function suggestFoci(index: PathIndex, spec: string, view: SuggestView): string[] {
+export function suggestFoci(index: PathIndex, spec: string, names: PrintedNames): string[] {
   const whole = comparable(spec);
   if (whole === undefined || whole === "") return [];
   // Lengths compare in full (a cheap bound on the distance); long texts by their ends (textScore).
   const typed = whole.length;
-  if (view.realNames) {
+  if (!names.pseudonymous) {
     // A name that itself contains "/" typed unescaped ("@scope/pkg" for "@scope~1pkg").
     const joined = lenientResolve(index, spec);
-    if (joined > 0) return [view.path(joined)];
+    if (joined > 0) return [names.pathOf(joined)];
   }
   const allowed = editsAllowed(typed);
   const k = whole.split("/").length;
@@ -80,7 +70,7 @@ export function suggestFoci(index: PathIndex, spec: string, view: SuggestView): 
   const ends: number[] = [0];
   for (let i = 1; i < tree.length; i++) {
     const d = tree.depth[i];
-    const seg = view.segment(i);
+    const seg = escapeSegment(names.nameOf(i));
     segs[d] = seg;
     ends[d] = ends[d - 1] + (d > 1 ? 1 : 0) + seg.length;
     const worst = best.length >= MAX_SUGGESTIONS ? best[MAX_SUGGESTIONS - 1].score : allowed;
@@ -94,7 +84,7 @@ export function suggestFoci(index: PathIndex, spec: string, view: SuggestView): 
       const score = scoreOf(segs, d - j + 1, d, length, whole, worst);
       if (score <= worst) offer({ text: "", score, partial: j === d ? 0 : 1, depth: d, node: i });
     }
-    const id = view.id(i);
+    const id = names.idOf(i);
     if (id && Math.abs(id.length - typed) <= worst) {
       const score = textScore(id.toLowerCase(), whole, worst);
       if (score <= worst) offer({ text: id, score, partial: 0, depth: d, node: i });
@@ -103,7 +93,7 @@ export function suggestFoci(index: PathIndex, spec: string, view: SuggestView): 
   }
   const out: string[] = [];
   for (const c of best) {
-    const text = c.text !== "" ? c.text : view.path(c.node);
+    const text = c.text !== "" ? c.text : names.pathOf(c.node);
     if (!out.includes(text)) out.push(text);
     if (out.length === MAX_SUGGESTIONS) break;
   }
@@ -213,15 +203,4 @@ function joinSegments(
     if (found >= 0) return found;
   }
   return -1;
-}
-
-/** The view of a tree with its real names: escaped names, ids as stored, printed paths. */
-export function realView(index: PathIndex): SuggestView {
-  const { tree } = index;
-  return {
-    segment: (i) => escapeSegment(tree.name.get(i)),
-    id: (i) => (tree.ids ? tree.ids.get(i) : null),
-    path: (i) => index.path(i),
-    realNames: true,
-  };
 }

@@ -38,6 +38,8 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
   const names: string[] = [...ids];
   const sizes: number[] = new Array(ids.length).fill(0);
   let hasSizes = false;
+  // Keys of the entries' own records, for the message of a named field no record has.
+  const recordFields = new Set<string>();
   const kept = new Map<string, string[]>(options.keepFields.map((k) => [k, new Array(ids.length).fill("")]));
   const from: number[] = [];
   const to: number[] = [];
@@ -49,6 +51,7 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
     let children: unknown = value;
     if (typeof value === "object" && value !== null && !Array.isArray(value)) {
       const record = value as Record<string, unknown>;
+      for (const field of Object.keys(record)) recordFields.add(field);
       children = Object.hasOwn(record, options.childrenField) ? record[options.childrenField] : null;
       if (Object.hasOwn(record, options.nameField)) {
         const name = record[options.nameField];
@@ -103,6 +106,7 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
     sizeUnit: fieldSizeUnit(options.sizeField),
     origin: new Int32Array(ids.length),
     originIsRow: false,
+    recordFields: [...recordFields],
     fields: kept,
     rootName: options.rootName,
     edgeFrom: Int32Array.from(from),

@@ -182,6 +182,7 @@ export class EdgeListReader {
       sizeUnit: "number",
       origin: this.origin.slice(0, n),
       originIsRow: false,
+      recordFields: [],
       fields: new Map(),
       rootName: this.options.rootName,
       edgeFrom: this.from,

@@ -4,6 +4,7 @@ import { adjacencyNodes } from "./adjacency.js";
 import { loadEdgeList } from "./edge-list.js";
 import { linkGraphTable, withRecords } from "./graph-table.js";
 import type { LoadOptions } from "./load-options.js";
+import { checkGraphFields } from "./missing-field.js";
 import { csvTableFromBytes } from "./table/csv-table.js";
 import { rowsTable } from "./table/rows-table.js";
 
@@ -65,9 +66,14 @@ export function jsonGraph(text: string, options: LoadOptions): GraphNodes | null
   return Array.isArray(value) ? linkGraphTable(rowsTable(value), options) : adjacencyNodes(value, options);
 }
 
-/** The graph with `options.nodeRecords` laid over its nodes, when there are records. */
+/**
+ * The graph with `options.nodeRecords` laid over its nodes, when there are records; a named size or
+ * name field that neither the graph's records nor the node records have is FIELD_MISSING.
+ */
 export function withNodeRecords(graph: GraphNodes, options: LoadOptions): GraphNodes {
-  return options.nodeRecords ? withRecords(graph, options.nodeRecords, options) : graph;
+  const full = options.nodeRecords ? withRecords(graph, options.nodeRecords, options) : graph;
+  checkGraphFields(full, options);
+  return full;
 }
 
 /** Whether loaders gave a graph (edges) rather than linked tree nodes. */

@@ -60,6 +60,12 @@ export interface LoadOptions {
    * is FIELD_MISSING rather than a tree without sizes.
    */
   sizeFieldNamed?: boolean;
+  /**
+   * The name field was named on purpose (a name field other than the default counts as named): an input
+   * where no record carries a name in it, or whose names come from elsewhere (a path list, values, an
+   * edge list without node records), is FIELD_MISSING rather than a tree named by keys or ids.
+   */
+  nameFieldNamed?: boolean;
   /** Path lists: entries end with a NUL byte, not a line break (`find -print0`, `git ls-files -z`). */
   nulSeparated?: boolean;
 }

@@ -1,4 +1,4 @@
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, quotedList, say } from "../errors.js";
 
 /** Names of fields seen on node objects, kept while a loader reads: the first few, of the first nodes. */
 export class FieldsSeen {
@@ -19,51 +19,121 @@ export class FieldsSeen {
   }
 }
 
+/** A field the user names for every record: its role, the option that names it. */
+export type NamedField = "size" | "name" | "kept";
+
+const asked: Record<NamedField, string> = {
+  size: "has a number in the size field",
+  name: "has the name field",
+  kept: "has the field",
+};
+const option: Record<NamedField, string> = {
+  size: "--size-field",
+  name: "--name-field",
+  kept: "--label, --compare-field",
+};
+
 /**
  * FIELD_MISSING for a field the user named that no record has: `--size-field` (a named size field
- * that no node carries a number in) or a kept field (`--label`, `--compare-field`). The message names
- * the fields the input does have, so the user can pick the right one; `seen` may be a sample.
+ * that no node carries a number in), `--name-field` (named, and no node carries a name in it) or a
+ * kept field (`--label`, `--compare-field`). The message names the fields the input does have, so the
+ * user can pick the right one; `seen` may be a sample.
  */
 export function missingField(
-  role: "size" | "kept",
+  role: NamedField,
   field: string,
   seen: readonly string[],
   sampled = false,
 ): EspalierError {
-  const what =
-    role === "size"
-      ? `no record has a number in the size field ${JSON.stringify(field)} (--size-field)`
-      : `no record has the field ${JSON.stringify(field)} asked to be kept (--label, --compare-field)`;
-  const names = seen.map((name) => JSON.stringify(name)).join(", ");
+  const what = say`no record ${asked[role]} ${quoted.name(field)}${role === "kept" ? " asked to be kept" : ""} (${option[role]})`;
   const have =
     seen.length === 0
-      ? "; the records have no fields"
-      : `; the ${sampled ? "fields seen on the first records" : "fields"} are ${names}`;
-  return new EspalierError("FIELD_MISSING", `${what}${have}`, undefined, {
-    ...(role === "size" ? { option: "--size-field" } : {}),
+      ? ["; the records have no fields"]
+      : say`; the ${sampled ? "fields seen on the first records" : "fields"} are ${quotedList("name", seen, 40)}`;
+  return new EspalierError("FIELD_MISSING", [...what, ...have], undefined, {
+    ...(role === "kept" ? {} : { option: option[role] }),
     field,
     fieldsSeen: [...seen],
   });
 }
 
 /**
- * FIELD_MISSING for a named `--size-field` on an input whose sizes come from elsewhere: a path list's
- * size column, or a document read as values (each value's bytes).
+ * FIELD_MISSING for a named `--size-field` or `--name-field` on an input whose sizes or names come from
+ * elsewhere: a path list (the numbers before a tab, the path's last name), a document read as values
+ * (each value's bytes, its key or index), or an edge list without node records (the ids).
  */
-export function sizeFieldNotApplicable(field: string, shape: "paths" | "values"): EspalierError {
-  const why =
-    shape === "paths"
-      ? "a path list has no record fields: its sizes are the numbers before a tab"
-      : "a document read as values is sized by each value's bytes";
+export function fieldNotApplicable(
+  role: "size" | "name",
+  field: string,
+  shape: "paths" | "values" | "edges",
+): EspalierError {
+  const why = {
+    paths:
+      role === "size"
+        ? "a path list has no record fields: its sizes are the numbers before a tab"
+        : "a path list has no record fields: a node's name is the last name of its path",
+    values:
+      role === "size"
+        ? "a document read as values is sized by each value's bytes"
+        : "a document read as values names each value by its key or index",
+    edges: "the input holds edges and ids only: names and sizes come from node records (--nodes)",
+  }[shape];
   return new EspalierError(
     "FIELD_MISSING",
-    `--size-field ${JSON.stringify(field)} does not apply: ${why}`,
+    say`${option[role]} ${quoted.name(field)} does not apply: ${why}`,
     undefined,
-    { option: "--size-field", field, fieldsSeen: [] },
+    { option: option[role], field, fieldsSeen: [] },
   );
 }
 
 /** Whether an input must carry the size field: it was named, or differs from the default `size`. */
 export function sizeFieldNamed(options: { sizeField: string; sizeFieldNamed?: boolean }): boolean {
   return options.sizeFieldNamed === true || options.sizeField !== "size";
+}
+
+/** Whether an input must carry the name field: it was named, or differs from the default `name`. */
+export function nameFieldNamed(options: { nameField: string; nameFieldNamed?: boolean }): boolean {
+  return options.nameFieldNamed === true || options.nameField !== "name";
+}
+
+/**
+ * Checks the named size and name fields against the fields (columns) a table has: FIELD_MISSING naming
+ * them when a named one is absent.
+ */
+export function checkNamedColumns(
+  columns: readonly string[],
+  options: { sizeField: string; sizeFieldNamed?: boolean; nameField: string; nameFieldNamed?: boolean },
+): void {
+  if (sizeFieldNamed(options) && !columns.includes(options.sizeField))
+    throw missingField("size", options.sizeField, columns);
+  if (nameFieldNamed(options) && !columns.includes(options.nameField))
+    throw missingField("name", options.nameField, columns);
+}
+
+/** FIELD_MISSING for a named size or name field on an input that has no record fields to read it from. */
+export function checkNoNamedFields(
+  options: { sizeField: string; sizeFieldNamed?: boolean; nameField: string; nameFieldNamed?: boolean },
+  shape: "paths" | "values" | "edges",
+): void {
+  if (sizeFieldNamed(options)) throw fieldNotApplicable("size", options.sizeField, shape);
+  if (nameFieldNamed(options)) throw fieldNotApplicable("name", options.nameField, shape);
+}
+
+/**
+ * Checks a graph's named size and name fields against its records (its own and `--nodes`): a named
+ * field no record has is FIELD_MISSING naming the fields the records have; on a graph of edges and ids
+ * only, the error says that names and sizes come from node records.
+ */
+export function checkGraphFields(
+  graph: { hasSizes: boolean; recordFields?: readonly string[] },
+  options: { sizeField: string; sizeFieldNamed?: boolean; nameField: string; nameFieldNamed?: boolean },
+): void {
+  const fields = graph.recordFields;
+  if (fields === undefined) return;
+  const size = sizeFieldNamed(options) && !graph.hasSizes;
+  const name = nameFieldNamed(options) && !fields.includes(options.nameField);
+  if (!size && !name) return;
+  const role = size ? "size" : "name";
+  const field = size ? options.sizeField : options.nameField;
+  throw fields.length === 0 ? fieldNotApplicable(role, field, "edges") : missingField(role, field, fields);
 }

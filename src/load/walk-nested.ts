@@ -3,7 +3,7 @@ import type { LinkedNodes } from "../model/linked-nodes.js";
 import { isSize } from "../model/size-rule.js";
 import { describeNode } from "./describe-node.js";
 import type { LoadOptions } from "./load-options.js";
-import { FieldsSeen, missingField, sizeFieldNamed } from "./missing-field.js";
+import { FieldsSeen, missingField, nameFieldNamed, sizeFieldNamed } from "./missing-field.js";
 import { NodeSink } from "./node-sink.js";
 import { fieldSizeUnit } from "./size-unit.js";
 
@@ -53,6 +53,7 @@ export function walkNested<V>(
   const keptSeen = keepFields.map(() => false);
   // Keys of the first node objects, for the message of a field no node has.
   const seen = new FieldsSeen();
+  let hasNames = false;
 
   const rootKind = access.kind(root);
   if (rootKind === Kind.Map) {
@@ -105,6 +106,7 @@ export function walkNested<V>(
       const nameKind = access.kind(nameValue);
       if (nameKind === Kind.String || nameKind === Kind.Number || nameKind === Kind.Boolean) {
         sink.name.setString(i, access.text(nameValue as V));
+        hasNames = true;
       } else if (nameKind !== Kind.Null) {
         throw new EspalierError(
           "SHAPE",
@@ -208,6 +210,7 @@ export function walkNested<V>(
     }
   }
   if (!sink.hasSizes && sizeFieldNamed(options)) throw missingField("size", sizeField, seen.list(), true);
+  if (!hasNames && nameFieldNamed(options)) throw missingField("name", nameField, seen.list(), true);
   return sink.finish(options.rootName, fields, null, {
     shape: "nodes",
     sizeUnit: fieldSizeUnit(options.sizeField),

@@ -2,7 +2,7 @@ import { Buffer } from "node:buffer";
 import { isAlias, isMap, isScalar, isSeq, type LineCounter, type Node } from "yaml";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { LoadOptions } from "./load-options.js";
-import { sizeFieldNamed, sizeFieldNotApplicable } from "./missing-field.js";
+import { checkNoNamedFields } from "./missing-field.js";
 import { NodeSink } from "./node-sink.js";
 
 /**
@@ -19,7 +19,7 @@ export function yamlValues(
   lineCounter: LineCounter,
   options: LoadOptions,
 ): LinkedNodes {
-  if (sizeFieldNamed(options)) throw sizeFieldNotApplicable(options.sizeField, "values");
+  checkNoNamedFields(options, "values");
   const sink = new NodeSink(options.maxNodes, false);
   const toBytes = byteOffsets(text);
   const lineOf = (v: Node | null) => (v?.range ? lineCounter.linePos(v.range[0]).line : 0);

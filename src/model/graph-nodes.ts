@@ -19,6 +19,11 @@ export interface GraphNodes {
   /** 1-based line or row where each node first appears. */
   origin: Int32Array;
   originIsRow: boolean;
+  /**
+   * The fields the nodes' records have (a table's columns, the keys of an adjacency map's records), for
+   * the message of a named field no record has; empty when the input holds edges only.
+   */
+  recordFields?: readonly string[];
   /** Extra record fields kept for labels, one string per node. */
   fields: Map<string, string[]>;
   /** Name of the root espalier adds when there are several top-level nodes. */

@@ -1,6 +1,5 @@
 import { createHmac } from "node:crypto";
 import type { InputText } from "../errors.js";
-import type { Tree } from "./tree.js";
 
 /**
  * A stable pseudonym for a name: the first 12 hex digits of HMAC-SHA-256(secret, name) (RFC 2104,
@@ -9,20 +8,6 @@ import type { Tree } from "./tree.js";
  */
 export function pseudonym(secret: string, name: string): string {
   return `anon-${createHmac("sha256", secret).update(name, "utf8").digest("hex").slice(0, 12)}`;
-}
-
-/**
- * Each node's row id as printed: with a pseudonym key, an id is pseudonymised like a name (an employee
- * number points at a person as surely as the name does); an empty id stays empty. Null without ids.
- */
-export function hiddenIds(tree: Tree, key: string | undefined): (i: number) => string | null {
-  const ids = tree.ids;
-  if (ids === null) return () => null;
-  if (key === undefined) return (i) => ids.get(i);
-  return (i) => {
-    const id = ids.get(i);
-    return id === "" ? "" : pseudonym(key, id);
-  };
 }
 
 /**

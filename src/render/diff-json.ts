@@ -1,7 +1,7 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { type ChangeCounts, treeChangeKinds } from "../diff/changes.js";
-import type { DiffTotals } from "../diff/diff-trees.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
+import type { DiffTotals } from "../diff/prepared-diff.js";
 import { DIFF_FORMAT, type DiffSummary, type DiffSummaryNode, type TreeChangeCounts } from "./diff-schema.js";
 import { jsonNodeFields } from "./json-node.js";
 import { jsonText } from "./json-text.js";

@@ -1,6 +1,6 @@
 import type { HierarchyNode } from "d3-hierarchy";
-import type { DiffTotals } from "../diff/diff-trees.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
+import type { DiffTotals } from "../diff/prepared-diff.js";
 import { diffLineParts } from "./diff-line-parts.js";
 import type { DiffTextOptions } from "./diff-text.js";
 import { diffHeader, markdownHeaderStyle } from "./header.js";

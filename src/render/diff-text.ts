@@ -1,6 +1,6 @@
 import type { HierarchyNode } from "d3-hierarchy";
-import type { DiffTotals } from "../diff/diff-trees.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
+import type { DiffTotals } from "../diff/prepared-diff.js";
 import type { NumberOptions } from "./amount.js";
 import { diffLineParts } from "./diff-line-parts.js";
 import { diffHeader, type HeaderOptions } from "./header.js";

@@ -1,6 +1,6 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { changeKinds, treeChangeKinds } from "../diff/changes.js";
-import type { DiffTotals } from "../diff/diff-trees.js";
+import type { DiffTotals } from "../diff/prepared-diff.js";
 import type { ViewNode } from "../view/view-node.js";
 import { formatCount, type NumberOptions } from "./amount.js";
 import { displayWidth, shortenEnd } from "./display-width.js";
@@ -27,6 +27,11 @@ export interface HeaderOptions {
   foci: readonly string[];
   /** What the size measures, as the input calls it (`cost`); default `size`. */
   sizeName?: string;
+  /**
+   * How many foci matched no node and were left out (`--unmatched-foci skip`): the header counts them,
+   * never names them (a typed path is no path of the input, and may be what `--pseudonymize` hides).
+   */
+  skippedFoci?: number;
 }
 
 /** Foci named on the header before the rest are counted (`and 4 more`). */
@@ -48,10 +53,7 @@ export function summaryHeader(
   let totals = w(`summary: ${formatCount(root.nodes)} ${root.nodes === 1 ? "node" : "nodes"}`);
   if (options.sizes)
     totals += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(root.size, options.units)}`)}`;
-  return fitHeader(
-    (k) => `${totals}${w("; ")}${fociText(header.foci, k, style)}${w(`; ${used(header)}`)}`,
-    width,
-  );
+  return fitHeader((k) => `${totals}${w("; ")}${fociText(header, k, style)}${w(`; ${used(header)}`)}`, width);
 }
 
 /**
@@ -80,10 +82,7 @@ export function diffHeader(
     const net = totals.delta < 0 ? formatSize(totals.delta, units) : `+${formatSize(totals.delta, units)}`;
     head += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(totals.old.size, units)} -> ${formatSize(totals.new.size, units)} (net ${net})`)}`;
   }
-  return fitHeader(
-    (k) => `${head}${w("; ")}${fociText(header.foci, k, style)}${w(`; ${used(header)}`)}`,
-    width,
-  );
+  return fitHeader((k) => `${head}${w("; ")}${fociText(header, k, style)}${w(`; ${used(header)}`)}`, width);
 }
 
 /** The header's text for Markdown: its own words escaped, the input's names as code spans. */
@@ -100,13 +99,21 @@ function used(header: HeaderOptions): string {
   return `${formatCount(header.lines)} of ${formatCount(header.budget)} lines`;
 }
 
-/** `no focus`, `focus a`, `foci a, b, c and 4 more`, naming at most `shown` of them. */
-function fociText(foci: readonly string[], shown: number, style: HeaderStyle): string {
+/**
+ * `no focus`, `focus a`, `foci a, b, c and 4 more`, naming at most `shown` of them; then the foci left
+ * out for matching nothing, counted: `focus a; 2 foci skipped (no match)`.
+ */
+function fociText(header: HeaderOptions, shown: number, style: HeaderStyle): string {
+  const { foci, skippedFoci = 0 } = header;
   const w = style.words;
-  if (foci.length === 0) return w("no focus");
+  const skipped =
+    skippedFoci > 0
+      ? w(`; ${formatCount(skippedFoci)} ${skippedFoci === 1 ? "focus" : "foci"} skipped (no match)`)
+      : "";
+  if (foci.length === 0) return `${w("no focus")}${skipped}`;
   const named = foci.slice(0, Math.max(shown, 1)).map((f) => style.name(f === "" ? '""' : safeText(f)));
   const rest = foci.length - named.length;
-  return `${w(foci.length === 1 ? "focus " : "foci ")}${named.join(w(", "))}${rest > 0 ? w(` and ${formatCount(rest)} more`) : ""}`;
+  return `${w(foci.length === 1 ? "focus " : "foci ")}${named.join(w(", "))}${rest > 0 ? w(` and ${formatCount(rest)} more`) : ""}${skipped}`;
 }
 
 function fitHeader(text: (fociShown: number) => string, width?: number): string {

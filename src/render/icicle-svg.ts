@@ -1,10 +1,16 @@
 import type { HierarchyNode } from "d3-hierarchy";
-import { type ChangeKind, changeKinds, treeChangeKinds } from "../diff/changes.js";
+import {
+  type ChangeCounts,
+  type ChangeKind,
+  changeKinds,
+  noChanges,
+  treeChangeKinds,
+} from "../diff/changes.js";
 import type { ViewNode } from "../view/view-node.js";
 import { amount, formatCount } from "./amount.js";
 import { displayWidth, shortenEnd } from "./display-width.js";
 import { formatSize, type Units } from "./format-size.js";
-import { type IcicleBlock, icicle } from "./icicle-layout.js";
+import { type IcicleBlock, type IcicleLayout, type IcicleMember, icicle } from "./icicle-layout.js";
 import { MARK as LINE_MARK } from "./marks.js";
 import { parentsText, referenceText } from "./reference-text.js";
 import { shownLabel } from "./safe-text.js";
@@ -25,6 +31,11 @@ export interface SvgOptions<T extends ViewNode = ViewNode> {
    * moved-from parents and field edits); default: the kind alone.
    */
   changeNote?: (node: T) => string;
+  /**
+   * A diff's changed nodes per kind in a shown node's subtree, or (with `folded`) in its folded
+   * remainder: a group of narrow siblings says what changed among them.
+   */
+  changesIn?: (node: T, folded: boolean) => ChangeCounts;
 }
 
 /** Pixels per terminal column of `--width` when it sizes a picture. */
@@ -41,6 +52,8 @@ const LOOK = {
   focus: "#f2d9a6",
   focusEdge: "#7b4f17",
   foldGround: "#f2efe7",
+  group: "#ebe7dc",
+  groupComb: "#8d8676",
   foldLine: "#cbc3b1",
   referenceEdge: "#6b7a70",
   change: {
@@ -63,8 +76,15 @@ const NUMBER_PX = 10.5;
 const COLUMN = 0.62;
 const ROW = 38;
 const PAD = 5;
+const MARK = 8;
+/** Room a diff's change mark takes from a label. */
+const MARK_ROOM = MARK + 3;
 const MARGIN = 10;
-const MIN_BLOCK = 2;
+/**
+ * The narrowest block drawn, in pixels: room for four columns of label (a name cut to `Ros…`, a
+ * count `+12`) beside a diff's change mark. Siblings narrower than this are drawn as one group.
+ */
+export const MIN_BLOCK = 2 * PAD + 4 * LABEL_PX * COLUMN + MARK_ROOM;
 const MIN_WIDTH = 200;
 /** Columns of label a block on a focus path is widened to hold. */
 const PATH_COLUMNS = 40;
@@ -73,8 +93,9 @@ export const WIDENING_CAP = 1 / 4;
 const HEADING_PX = 13;
 /** Longest path, in UTF-16 code units, a tooltip shows whole. */
 const TOOLTIP_PATH = 960;
+/** Members of a group its tooltip lists by name. */
+const TOOLTIP_MEMBERS = 40;
 const HEADING_ROW = 24;
-const MARK = 8;
 const PATTERN = "espalier-folded";
 
 /**
@@ -86,21 +107,15 @@ const PATTERN = "espalier-folded";
  * No script and no outside reference; every name is escaped.
  */
 export function renderSvg<T extends ViewNode>(view: HierarchyNode<T>, options: SvgOptions<T>): string {
-  const width = Math.max(MIN_WIDTH, options.width ?? 1200);
+  const width = pictureWidth(options);
   const inner = width - 2 * MARGIN;
-  const blocks = icicle(view, {
-    weight: options.sizes ? "size" : "nodes",
-    width: inner,
-    rowHeight: ROW,
-    floor: (node, folded) => floorOf(node, folded),
-    floorShare: WIDENING_CAP,
-  });
+  const { blocks, widened } = pictureLayout(view, options);
   const top = options.heading ? HEADING_ROW : 0;
   const rowsHeight = blocks.reduce((h, b) => Math.max(h, b.y1), 0);
   const changed = new Set(
     blocks.map((b) => (b.folded ? null : (options.changeOf?.(b.node) ?? null))).filter((k) => k !== null),
   );
-  const legend = legendItems(options, new Set(blocks.map(kindOf)), changed);
+  const legend = legendItems(options, new Set(blocks.map(kindOf)), changed, widened / inner);
   const legendTop = MARGIN + top + rowsHeight + 14;
   const legendRows = layoutLegend(legend, inner);
   const height = legendTop + legendRows * LEGEND_ROW + MARGIN;
@@ -133,13 +148,33 @@ export function renderSvg<T extends ViewNode>(view: HierarchyNode<T>, options: S
   return `${out.join("\n")}\n`;
 }
 
+/** The picture's width in pixels: `options.width`, default 1,200, at least 200. */
+export function pictureWidth(options: { width?: number }): number {
+  return Math.max(MIN_WIDTH, options.width ?? 1200);
+}
+
+/** The icicle the picture draws (coordinates inside the margins, below the heading). */
+export function pictureLayout<T extends ViewNode>(
+  view: HierarchyNode<T>,
+  options: SvgOptions<T>,
+): IcicleLayout<T> {
+  return icicle(view, {
+    weight: options.sizes ? "size" : "nodes",
+    width: pictureWidth(options) - 2 * MARGIN,
+    rowHeight: ROW,
+    floor: floorOf,
+    floorShare: WIDENING_CAP,
+    minBlock: MIN_BLOCK,
+  });
+}
+
 /**
- * The narrowest a block may be: a focus and its ancestors room for their label (up to 40 columns),
- * anything else 2 pixels, so a shown node still shows. All floors together take at most
- * {@link WIDENING_CAP} of the width; the legend says so.
+ * The width a block is widened to: a focus and its ancestors room for their label (up to 40
+ * columns); anything else none (it is drawn by size, or grouped with its narrow siblings). All these
+ * floors together take at most {@link WIDENING_CAP} of the width; the legend says how much is widened.
  */
-function floorOf(node: ViewNode, folded: boolean): number {
-  if (folded || !(node.focus || node.onPath)) return MIN_BLOCK;
+function floorOf(node: ViewNode): number {
+  if (!(node.focus || node.onPath)) return 0;
   const columns = Math.min(displayWidth(shownLabel(node.label)), PATH_COLUMNS);
   return Math.max(MIN_BLOCK, columns * LABEL_PX * COLUMN + 2 * PAD);
 }
@@ -152,18 +187,20 @@ function defs(): string {
   );
 }
 
-type BlockKind = "focus" | "path" | "other" | "folded" | "reference";
+type BlockKind = "focus" | "path" | "other" | "folded" | "reference" | "group";
 
-function kindOf<T extends ViewNode>({ node, folded }: IcicleBlock<T>): BlockKind {
-  return folded
-    ? "folded"
-    : node.reference
-      ? "reference"
-      : node.focus
-        ? "focus"
-        : node.onPath
-          ? "path"
-          : "other";
+function kindOf<T extends ViewNode>({ node, folded, members }: IcicleBlock<T>): BlockKind {
+  return members
+    ? "group"
+    : folded
+      ? "folded"
+      : node.reference
+        ? "reference"
+        : node.focus
+          ? "focus"
+          : node.onPath
+            ? "path"
+            : "other";
 }
 
 /** One block: a group with its tooltip, its rectangle, its marks and the labels that fit. */
@@ -171,7 +208,7 @@ function block<T extends ViewNode>(b: IcicleBlock<T>, options: SvgOptions<T>): s
   const { node, folded } = b;
   const w = b.x1 - b.x0;
   const h = b.y1 - b.y0;
-  const change = folded ? null : (options.changeOf?.(node) ?? null);
+  const change = folded || b.members ? null : (options.changeOf?.(node) ?? null);
   const kind = kindOf(b);
   const parts: string[] = [
     `<g class="${kind}${change ? ` ${change}` : ""}">`,
@@ -180,7 +217,10 @@ function block<T extends ViewNode>(b: IcicleBlock<T>, options: SvgOptions<T>): s
   // Width from the rounded ends, so that neighbours share an edge exactly.
   const box = `x="${num(b.x0)}" y="${num(b.y0)}" width="${num(round2(b.x1) - round2(b.x0))}" height="${num(h)}"`;
   const dash = change === "removed" ? ` stroke-dasharray="5 3"` : "";
-  if (folded)
+  if (b.members) {
+    parts.push(`<rect ${box} fill="${LOOK.group}" stroke="${LOOK.background}" stroke-width="1"/>`);
+    parts.push(comb(b.x0, b.x1, b.y1));
+  } else if (folded)
     parts.push(`<rect ${box} fill="url(#${PATTERN})" stroke="${LOOK.background}" stroke-width="1"/>`);
   else if (node.reference)
     parts.push(
@@ -216,22 +256,28 @@ function labels<T extends ViewNode>(
   const room = b.x1 - b.x0 - 2 * PAD - (marked ? MARK + 3 : 0);
   const out: string[] = [];
   const x = num(b.x0 + PAD);
-  const first = folded
-    ? fitted([`+${node.hidden!.children} more`, `+${node.hidden!.children}`], room, LABEL_PX)
-    : fitted(
-        [`${node.reference ? `${LINE_MARK.reference} ` : ""}${shownLabel(node.label)}`],
-        room,
-        LABEL_PX,
-        true,
-      );
+  const first = b.members
+    ? fitted(groupNames(b.members), room, LABEL_PX, true)
+    : folded
+      ? fitted([`+${node.hidden!.children} more`, `+${node.hidden!.children}`], room, LABEL_PX, true)
+      : fitted(
+          [`${node.reference ? `${LINE_MARK.reference} ` : ""}${shownLabel(node.label)}`],
+          room,
+          LABEL_PX,
+          true,
+        );
   // The numbers (and a diff's change in words) keep their own line whatever the label's cut.
   if (first === null) return out;
-  const weight = !folded && node.focus ? ` font-weight="700"` : "";
-  const style = folded ? ` font-style="italic"` : "";
+  const weight = !folded && !b.members && node.focus ? ` font-weight="700"` : "";
+  const style = folded || b.members ? ` font-style="italic"` : "";
   out.push(
     `<text x="${x}" y="${num(b.y0 + 15)}" font-size="${LABEL_PX}" fill="${LOOK.ink}"${weight}${style}>${xmlEscape(first)}</text>`,
   );
-  const second = fitted(numbers(b, options, change), b.x1 - b.x0 - 2 * PAD, NUMBER_PX);
+  const second = fitted(
+    b.members ? groupNumbers(b.members, options) : numbers(b, options, change),
+    b.x1 - b.x0 - 2 * PAD,
+    NUMBER_PX,
+  );
   if (second !== null)
     out.push(
       `<text x="${x}" y="${num(b.y0 + 29)}" font-size="${NUMBER_PX}" fill="${LOOK.quiet}">${xmlEscape(second)}</text>`,
@@ -262,6 +308,54 @@ function numbers<T extends ViewNode>(
   return texts.filter((t, k) => t !== "" && texts.indexOf(t) === k);
 }
 
+/** How many siblings a group holds: its shown nodes and the hidden children of a folded remainder. */
+function groupCount<T extends ViewNode>(members: IcicleMember<T>[]): number {
+  return members.reduce((n, m) => n + (m.folded ? m.node.hidden!.children : 1), 0);
+}
+
+/** A group's label, longest first: `12 grouped`, then `12`. */
+function groupNames<T extends ViewNode>(members: IcicleMember<T>[]): string[] {
+  const k = formatCount(groupCount(members));
+  return [`${k} grouped`, k];
+}
+
+/** A group's numbers (nodes and size together), or in a diff what changed among them first. */
+function groupNumbers<T extends ViewNode>(members: IcicleMember<T>[], options: SvgOptions<T>): string[] {
+  const totals = groupTotals(members);
+  const plain = [
+    amount(totals.nodes, totals.size, { ...options, always: true }),
+    options.sizes ? formatSize(totals.size, options.units) : "",
+    amount(totals.nodes, totals.size, { ...options, sizes: false, always: true }),
+  ].filter((t) => t !== "");
+  if (!options.changesIn) return plain;
+  const changes = noChanges();
+  for (const m of members) {
+    const c = options.changesIn(m.node, m.folded);
+    for (const kind of changeKinds) changes[kind] += c[kind];
+  }
+  const words = changeKinds.filter((k) => changes[k] > 0).map((k) => `${formatCount(changes[k])} ${k}`);
+  const total = changeKinds.reduce((n, k) => n + changes[k], 0);
+  return total > 0 ? [words.join(", "), `${formatCount(total)} changed`] : ["none changed", ...plain];
+}
+
+function groupTotals<T extends ViewNode>(members: IcicleMember<T>[]): { nodes: number; size: number } {
+  let nodes = 0;
+  let size = 0;
+  for (const m of members) {
+    const n = m.folded ? m.node.hidden! : m.node;
+    nodes += n.nodes;
+    size += n.size;
+  }
+  return { nodes, size };
+}
+
+/** Short ticks along a group's bottom edge, one every 5 pixels: the group's own pattern. */
+function comb(x0: number, x1: number, y1: number): string {
+  let d = "";
+  for (let x = x0 + 3; x < x1 - 2; x += 5) d += `M${num(x)} ${num(y1)}v-5`;
+  return d ? `<path d="${d}" stroke="${LOOK.groupComb}" stroke-width="1"/>` : "";
+}
+
 /** The first text that fits `room` pixels; with `shorten`, the last cut at its end; else null. */
 function fitted(texts: string[], room: number, px: number, shorten = false): string | null {
   const columns = Math.floor(room / (px * COLUMN));
@@ -278,6 +372,24 @@ function tooltip<T extends ViewNode>(
   const { node } = b;
   const label = shownLabel(node.label);
   const always = { ...options, always: true };
+  if (b.members) {
+    const totals = groupTotals(b.members);
+    const lines = [
+      `${formatCount(groupCount(b.members))} grouped under ${label}: ${amount(totals.nodes, totals.size, always)}`,
+    ];
+    for (const m of b.members.slice(0, TOOLTIP_MEMBERS)) {
+      const n = m.folded ? m.node.hidden! : m.node;
+      const name = m.folded ? `+${formatCount(m.node.hidden!.children)} more` : shownLabel(m.node.label);
+      const change = m.folded ? null : (options.changeOf?.(m.node) ?? null);
+      const note = change
+        ? ` [${options.changeNote ? options.changeNote(m.node).replace(/^\[|\]$/g, "") : change}]`
+        : "";
+      lines.push(`${name}: ${amount(n.nodes, n.size, always)}${note}`);
+    }
+    if (b.members.length > TOOLTIP_MEMBERS)
+      lines.push(`… and ${formatCount(b.members.length - TOOLTIP_MEMBERS)} more`);
+    return lines.join("\n");
+  }
   if (b.folded) {
     const { children, nodes, size } = node.hidden!;
     return `+${children} more under ${label}: ${amount(nodes, size, always)}`;
@@ -344,6 +456,7 @@ function legendItems<T extends ViewNode>(
   options: SvgOptions<T>,
   drawn: Set<BlockKind>,
   changed: Set<ChangeKind>,
+  widened: number,
 ): LegendItem[] {
   const s = SWATCH;
   const box = `width="${s}" height="${s}"`;
@@ -357,6 +470,11 @@ function legendItems<T extends ViewNode>(
     ],
     ["other", `<rect ${box} fill="${LOOK.other}"/>`, "other shown node"],
     ["folded", `<rect ${box} fill="url(#${PATTERN})"/>`, "+N more: folded nodes"],
+    [
+      "group",
+      `<rect ${box} fill="${LOOK.group}"/>${comb(0, s, s)}`,
+      "N grouped: shown siblings too narrow to label one by one (names in the tooltip)",
+    ],
     [
       "reference",
       `<rect ${box} fill="${LOOK.background}" stroke="${LOOK.referenceEdge}" stroke-width="1.5" stroke-dasharray="2 2"/>`,
@@ -375,11 +493,13 @@ function legendItems<T extends ViewNode>(
       });
     }
   }
-  const widened =
-    drawn.has("focus") || drawn.has("path")
-      ? `; the path to ${near} is widened to fit its labels, by at most a quarter of the width`
+  // The widening, measured: what the blocks have beyond their share by weight, as a share of the width.
+  const percent = widened * 100;
+  const wider =
+    percent >= 0.05
+      ? `; ${percent < 1 ? percent.toFixed(1) : Math.round(percent)}% of the width is widened to fit labels (the path to ${near}, narrow blocks)`
       : "";
-  items.push({ swatch: "", text: `width: ${options.sizes ? "size" : "node count"}${widened}` });
+  items.push({ swatch: "", text: `width: ${options.sizes ? "size" : "node count"}${wider}` });
   return items.map((item) => ({ ...item, x: 0, y: 0 }));
 }
 

@@ -2,27 +2,37 @@ import type { HierarchyNode } from "d3-hierarchy";
 import type { Selection } from "../fit/select.js";
 import type { Scores } from "../interest/scores.js";
 import type { PathIndex } from "../model/path-index.js";
+import { type PrintedNames, printedNames } from "../model/printed-names.js";
 import { hierarchyOf } from "./hierarchy-of.js";
 import type { ViewNode } from "./view-node.js";
 
 /** Turns a node's fields into its display text. */
 export type Labeller = (index: number) => string;
 
+/** Graphs: of a focus with several parents, how many it has and how many of them are not shown. */
+export type ParentsOf = (i: number) => { count: number; hidden: number } | undefined;
+
+/** What a view is built from: the fit's selection and how each shown node is printed. */
+export interface ViewInput {
+  readonly index: PathIndex;
+  readonly scores: Scores;
+  /** The foci, sorted node indices. */
+  readonly foci: Int32Array;
+  readonly selection: Selection;
+  readonly label: Labeller;
+  /** Names, paths and ids as printed; default the input's own (see model/printed-names.ts). */
+  readonly names?: PrintedNames;
+  /** Graphs only: a focus's parents (see {@link ParentsOf}). */
+  readonly parentsOf?: ParentsOf;
+}
+
 /**
  * The shown nodes as a d3-hierarchy tree in input order, each carrying what is folded under it, so
  * that at every shown node: nodes = 1 + sum of shown children's nodes + hidden.nodes (size likewise).
  */
-export function buildView(
-  index: PathIndex,
-  scores: Scores,
-  foci: Int32Array,
-  selection: Selection,
-  label: Labeller,
-  nameOf: (i: number) => string = (i) => index.tree.name.get(i),
-  pathOf: (i: number) => string = (i) => index.path(i),
-  idOf: (i: number) => string | null = (i) => index.tree.ids?.get(i) ?? null,
-  parentsOf?: (i: number) => { count: number; hidden: number } | undefined,
-): HierarchyNode<ViewNode> {
+export function buildView(input: ViewInput): HierarchyNode<ViewNode> {
+  const { index, scores, foci, selection, label, parentsOf } = input;
+  const { nameOf, pathOf, idOf } = input.names ?? printedNames(index.tree, index, undefined);
   const { tree, measures } = index;
   const { count, nodes, size, children } = measures;
   const ref = tree.referenceTo;

@@ -1,4 +1,5 @@
 import { EspalierError } from "../errors.js";
+import type { PrintedNames } from "../model/printed-names.js";
 import type { Tree } from "../model/tree.js";
 
 const FIELD = /\{([^{}]+)\}/g;
@@ -12,15 +13,12 @@ export function templateFields(template: string): string[] {
 
 /**
  * Compiles a label template such as "{title}, {team}": `{field}` is replaced by the node's value of
- * that record field; `{name}`, `{id}` and `{path}` are built in. A field the input lacks is an error.
+ * that record field; `{name}`, `{id}` and `{path}` are built in, printed as `names` prints them. A
+ * field the input lacks is an error.
  */
-export function compileLabel(
-  template: string,
-  tree: Tree,
-  nameOf: (i: number) => string,
-  pathOf: (i: number) => string,
-  idOf: (i: number) => string = (i) => tree.ids?.get(i) ?? "",
-): (i: number) => string {
+export function compileLabel(template: string, tree: Tree, names: PrintedNames): (i: number) => string {
+  const { nameOf, pathOf } = names;
+  const idOf = (i: number) => names.idOf(i) ?? "";
   const parts = template.split(FIELD); // even: literal text, odd: field names
   const getters = parts.map((part, k): ((i: number) => string) => {
     if (k % 2 === 0) return () => part;

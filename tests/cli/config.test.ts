@@ -89,3 +89,29 @@ describe("docs/config.schema.json", () => {
     expect(validate({ budgett: 3 })).toBe(false);
   });
 });
+
+describe("an input field named on purpose, even by its default name (issue 10.8)", () => {
+  // Nested JSON nodes (RFC 8259 §4) whose sizes sit in "bytes" and names in "title": the default
+  // fields "size" and "name" are absent.
+  const DOC = '{"title":"tidewater","bytes":5,"children":[{"title":"kelp","bytes":2}]}';
+
+  it("--size-field size or --name-field name on the command line is FIELD_MISSING naming the fields", async () => {
+    for (const flag of ["--size-field=size", "--name-field=name"]) {
+      const r = await cli(["doc.json", flag], { files: { "doc.json": DOC } });
+      expect(r.code, flag).toBe(2);
+      expect(r.stderr, flag).toContain("[FIELD_MISSING]");
+      expect(r.stderr, flag).toContain('"title", "bytes", "children"');
+    }
+  });
+
+  it("set in the config file counts as named too", async () => {
+    const r = await cli(["doc.json"], { files: { "doc.json": DOC, ".espalier.yaml": "sizeField: size\n" } });
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain("(--size-field)");
+  });
+
+  it("left at the default, an absent size or name field is no error", async () => {
+    const r = await cli(["doc.json", "--budget", "5"], { files: { "doc.json": DOC } });
+    expect(r.code, r.stderr).toBe(0);
+  });
+});

@@ -86,6 +86,53 @@ describe("espalier --focus-from with git's list of changed files", () => {
     expect([...doc.foci].sort()).toEqual(["ledger/lib/jsr305-0.1~0+svn49.jar", "ledger/src/main.ts"]);
   });
 
+  it("with --unmatched-foci skip, the header line counts the skipped foci (one line, in the budget)", async () => {
+    const args = [at("files.paths"), "--focus-from", at("changed.txt"), "--unmatched-foci", "skip"];
+    for (const format of ["text", "markdown"]) {
+      const r = await cli([...args, "--format", format, "--budget", "6"]);
+      expect(r.code, r.stderr).toBe(0);
+      const lines = r.stdout
+        .trimEnd()
+        .split("\n")
+        .filter((line) => line !== "");
+      expect(lines[0], format).toMatch(/; 1 focus skipped \(no match\); \d+ of 6 lines$/);
+      expect(lines.length, format).toBeLessThanOrEqual(6);
+      // Counted, never named: the typed path is not echoed on standard output.
+      expect(r.stdout, format).not.toContain("gone");
+    }
+    const svg = await cli([...args, "--format", "svg"]);
+    expect(svg.stdout).toContain("1 focus skipped (no match)");
+    const all = await cli([
+      at("files.paths"),
+      "--focus",
+      "nope/a",
+      "--focus",
+      "nope/b",
+      "--unmatched-foci",
+      "skip",
+    ]);
+    expect(all.stdout.split("\n")[0]).toContain("; no focus; 2 foci skipped (no match);");
+    const none = await cli([
+      at("files.paths"),
+      "--focus-from",
+      at("changed.txt"),
+      "--unmatched-foci",
+      "skip",
+      "--bare",
+    ]);
+    expect(none.stdout).not.toContain("skipped");
+  });
+
+  it("under --pseudonymize, the header counts the skipped foci and names none", async () => {
+    const r = await cli(
+      [at("files.paths"), "--focus-from", at("changed.txt"), "--unmatched-foci", "skip", "--pseudonymize"],
+      { env: { ESPALIER_PSEUDONYM_KEY: "test-secret" } },
+    );
+    expect(r.stdout.split("\n")[0]).toContain("1 focus skipped (no match)");
+    expect(r.stdout).not.toContain("gone");
+    expect(r.stdout).not.toContain("riptide");
+  });
+
   it("reads a NUL-separated list (git diff --name-only -z) the same way", async () => {
     const r = await cli([
       at("files.paths"),
@@ -149,6 +196,18 @@ describe("espalier --focus-from with git's list of changed files", () => {
     ]);
     expect(r.code).toBe(0);
     expect(JSON.parse(r.stdout).unmatchedFoci).toEqual(["riptide/src/gone.ts"]);
+    const text = await cli([
+      "diff",
+      at("old.paths"),
+      at("files.paths"),
+      "--focus-from",
+      at("changed.txt"),
+      "--unmatched-foci",
+      "skip",
+    ]);
+    expect(text.stdout.split("\n")[0]).toMatch(
+      /^diff by path: .*; 1 focus skipped \(no match\); \d+ of \d+ lines$/,
+    );
     const strict = await cli(["diff", at("old.paths"), at("files.paths"), "--focus-from", at("changed.txt")]);
     expect(strict.code).toBe(2);
     expect(strict.stderr).toContain("[FOCUS_NO_MATCH]");

@@ -23,14 +23,14 @@ function setup(tree: Tree, focusList: number[], kind: "depth" | "size" = "depth"
   const forcedCount = [...scores.forced.keys()]
     .filter((i) => scores.forced[i])
     .reduce((a, i) => a + lineCost(tree, m, scores, chains, i), 0);
-  const run = (budget: number) => select(tree, m, scores, order, budget, 0, chains);
+  const run = (budget: number) => select({ tree, measures: m, scores, order }, { budget, chains });
   return { m, foci, scores, order, forcedCount, run };
 }
 
 const budgets = fc.integer({ min: 1, max: 80 });
 const kinds = fc.constantFrom<"depth" | "size">("depth", "size");
 
-describe("select(tree, measures, scores, order, budget)", () => {
+describe("select({tree, measures, scores, order}, {budget, headerLines, chains})", () => {
   it("never renders more lines than the budget, and refuses budgets below the forced nodes", () => {
     fc.assert(
       fc.property(arbTreeWithFoci(), budgets, kinds, fc.boolean(), ([tree, f], budget, kind, chains) => {
@@ -49,7 +49,13 @@ describe("select(tree, measures, scores, order, budget)", () => {
           return;
         }
         const sel = run(budget);
-        const view = buildView(new PathIndex(tree, m), scores, foci, sel, (i) => tree.name.get(i));
+        const view = buildView({
+          index: new PathIndex(tree, m),
+          scores,
+          foci,
+          selection: sel,
+          label: (i) => tree.name.get(i),
+        });
         const text = renderText(view, { units: "bytes", sizes: true, chains });
         const lines = text.split("\n").length - 1;
         expect(lines).toBe(sel.lines);
@@ -110,7 +116,13 @@ describe("select(tree, measures, scores, order, budget)", () => {
       fc.property(arbTreeWithFoci(), budgets, ([tree, f], b) => {
         const { m, foci, scores, forcedCount, run } = setup(tree, f);
         const sel = run(Math.max(b, forcedCount));
-        const view = buildView(new PathIndex(tree, m), scores, foci, sel, (i) => tree.name.get(i));
+        const view = buildView({
+          index: new PathIndex(tree, m),
+          scores,
+          foci,
+          selection: sel,
+          label: (i) => tree.name.get(i),
+        });
         let hiddenNodes = 0;
         let shownNodes = 0;
         view.each((h) => {

@@ -30,7 +30,7 @@ describe("shortcuts for wide nodes", () => {
           const order = nodeOrder(tree, m, scores);
           const run = (hint?: (p: number) => Int32Array | null) => {
             try {
-              return select(tree, m, scores, order, budget, 0, chains, hint);
+              return select({ tree, measures: m, scores, order }, { budget, chains, childrenInOrder: hint });
             } catch (error) {
               return (error as Error).message;
             }
@@ -58,11 +58,17 @@ describe("shortcuts for wide nodes", () => {
           const scores = interest(tree, importance(tree, m, "size"), foci);
           let sel: ReturnType<typeof select>;
           try {
-            sel = select(tree, m, scores, nodeOrder(tree, m, scores), budget);
+            sel = select({ tree, measures: m, scores, order: nodeOrder(tree, m, scores) }, { budget });
           } catch {
             return;
           }
-          const view = buildView(new PathIndex(tree, m), scores, foci, sel, (i) => tree.name.get(i));
+          const view = buildView({
+            index: new PathIndex(tree, m),
+            scores,
+            foci,
+            selection: sel,
+            label: (i) => tree.name.get(i),
+          });
           view.each(({ data }: { data: ViewNode }) => {
             const i = data.index;
             let children = 0;

@@ -4,10 +4,11 @@ import { describe, expect, it } from "vitest";
 import { EspalierError } from "../../src/errors.js";
 import { boundedDistance, distanceWork } from "../../src/focus/bounded-distance.js";
 import { resolveFoci } from "../../src/focus/resolve.js";
-import { editsAllowed, MAX_SUGGEST_WORK, realView, suggestFoci } from "../../src/focus/suggest.js";
+import { editsAllowed, MAX_SUGGEST_WORK, suggestFoci } from "../../src/focus/suggest.js";
 import { buildTree } from "../../src/model/build-tree.js";
 import { measure } from "../../src/model/measure.js";
 import { PathIndex } from "../../src/model/path-index.js";
+import { printedNames } from "../../src/model/printed-names.js";
 import { pseudonym } from "../../src/model/pseudonym.js";
 import type { Tree } from "../../src/model/tree.js";
 import { makeTree, nodeNamed } from "../helpers/make-tree.js";
@@ -15,7 +16,7 @@ import { makeTree, nodeNamed } from "../helpers/make-tree.js";
 const indexOf = (tree: Tree) => new PathIndex(tree, measure(tree));
 const suggest = (tree: Tree, spec: string) => {
   const index = indexOf(tree);
-  return suggestFoci(index, spec, realView(index));
+  return suggestFoci(index, spec, printedNames(tree, index, undefined));
 };
 
 function caught(fn: () => unknown): EspalierError {

@@ -66,7 +66,10 @@ describe("interestNear(tree, api, foci)", () => {
           const foci = Int32Array.from([...new Set(list)].sort((a, b) => a - b));
           const run = (scores: ReturnType<typeof interestNear>) => {
             try {
-              return select(tree, m, scores, nodeOrder(tree, m, scores), budget, 0, chains);
+              return select(
+                { tree, measures: m, scores, order: nodeOrder(tree, m, scores) },
+                { budget, chains },
+              );
             } catch (error) {
               return (error as Error).message;
             }

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { EspalierError } from "../../src/errors.js";
 import { loadTree } from "../../src/load/index.js";
 import { loadTreeFromStream } from "../../src/load/stream/index.js";
+import { csvTableFromBytes } from "../../src/load/table/csv-table.js";
 import { caught, opts } from "./helpers.js";
 
 // Issue 10.8: a --size-field or kept (--label) field that no record has is FIELD_MISSING naming the
@@ -97,5 +98,119 @@ describe("loadTree(input, { keepFields }) with a kept field no record has", () =
       expect(err.details.field, file).toBe("titel");
       expect((err.details.fieldsSeen as string[]).length, file).toBeGreaterThan(0);
     }
+  });
+});
+
+describe("loadTree(input, { nameField }) with a named name field no record has", () => {
+  it("is FIELD_MISSING naming the fields seen, in every record format", () => {
+    for (const [file, text] of inputs) {
+      const err = caught(() => loadTree(text, opts({ file, nameField: "title" })));
+      expect(err.code, file).toBe("FIELD_MISSING");
+      expect(err.details, file).toMatchObject({ option: "--name-field", field: "title" });
+      expect((err.details.fieldsSeen as string[]).length, file).toBeGreaterThan(0);
+    }
+  });
+
+  it("is FIELD_MISSING when the default name is named on purpose and no record has it", () => {
+    // rows.json and lock.json have no "name" anywhere; the others do and load.
+    for (const file of ["rows.json", "lock.json"]) {
+      const text = inputs.find(([f]) => f === file)![1];
+      expect(caught(() => loadTree(text, opts({ file, nameFieldNamed: true }))).code, file).toBe(
+        "FIELD_MISSING",
+      );
+      expect(loadTree(text, opts({ file })).length, file).toBeGreaterThan(1);
+    }
+    for (const file of ["org.csv", "deps.json", "deps.yaml"]) {
+      const text = inputs.find(([f]) => f === file)![1];
+      expect(loadTree(text, opts({ file, nameFieldNamed: true })).name.get(1), file).not.toBe("");
+    }
+  });
+
+  it("does not count a key that names a child: a name field only keys name is missing", () => {
+    // Children keyed by name (an object of objects) take their key as the name, never the name field.
+    const keyed = '{"children":{"kelp":{"size":2},"brine":{"size":3}}}';
+    expect(caught(() => loadTree(keyed, opts({ file: "k.json", nameField: "label" }))).code).toBe(
+      "FIELD_MISSING",
+    );
+    const labelled = '{"label":"tidewater","children":{"kelp":{"size":2}}}';
+    expect(loadTree(labelled, opts({ file: "k.json", nameField: "label" })).name.get(0)).toBe("tidewater");
+  });
+
+  it("is FIELD_MISSING on a path list and on a document read as values, named by their own rules", () => {
+    const err = caught(() => loadTree(PATHS, opts({ file: "f.paths", nameFieldNamed: true })));
+    expect(err.code).toBe("FIELD_MISSING");
+    expect(err.details).toMatchObject({ option: "--name-field", field: "name" });
+    for (const [file, text] of [
+      ["doc.json", NODES],
+      ["doc.yaml", YAML],
+    ]) {
+      const values = caught(() => loadTree(text, opts({ file, nameField: "title", readAs: "values" })));
+      expect(values.code, file).toBe("FIELD_MISSING");
+      expect(values.details).toMatchObject({ option: "--name-field" });
+    }
+  });
+
+  it("streams to the same error as the whole text", async () => {
+    for (const [file, text] of inputs) {
+      const chunks = (async function* () {
+        const bytes = Buffer.from(text);
+        for (let k = 0; k < bytes.length; k += 3) yield bytes.subarray(k, k + 3);
+      })();
+      const err = await loadTreeFromStream(chunks, opts({ file, nameField: "title" })).catch((e) => e);
+      expect((err as EspalierError).code, file).toBe("FIELD_MISSING");
+      expect((err as EspalierError).details.fieldsSeen, file).toEqual(
+        caught(() => loadTree(text, opts({ file, nameField: "title" }))).details.fieldsSeen,
+      );
+    }
+  });
+});
+
+describe("graphs: a named size or name field no record has", () => {
+  const EDGES = "tidewater kelp\ntidewater brine\nkelp brine\n";
+  // Read as the CLI reads --nodes: by the same id, name and size fields (src/cli/node-records.ts).
+  const records = (text: string, fields = {}) =>
+    csvTableFromBytes(Buffer.from(text), ",", opts({ maxNodes: 1e9, ...fields }));
+
+  it("an edge list alone has no records: the error says names and sizes come from node records", () => {
+    for (const named of [{ sizeFieldNamed: true }, { nameField: "title" }]) {
+      const err = caught(() => loadTree(EDGES, opts({ file: "g.txt", format: "edges", ...named })));
+      expect(err.code).toBe("FIELD_MISSING");
+      expect(err.message).toContain("--nodes");
+    }
+  });
+
+  it("node records without the field are FIELD_MISSING naming their columns; with it the graph loads", () => {
+    const err = caught(() =>
+      loadTree(
+        EDGES,
+        opts({ format: "edges", sizeField: "bytes", nodeRecords: records("id,cost\nkelp,3\n") }),
+      ),
+    );
+    expect(err.code).toBe("FIELD_MISSING");
+    expect(err.details.fieldsSeen).toEqual(["id", "cost"]);
+    const tree = loadTree(
+      EDGES,
+      opts({
+        format: "edges",
+        sizeField: "cost",
+        nameField: "title",
+        nodeRecords: records("id,cost,title\nkelp,3,Kelp\n", { sizeField: "cost", nameField: "title" }),
+      }),
+    );
+    expect(tree.hasSizes).toBe(true);
+  });
+
+  it("an id-parent table read as a graph and an adjacency map check their own records", () => {
+    const table = "id,parent,cost\nt,,1\nk,t,2\nb,t,3\nb,k,\n";
+    expect(
+      caught(() => loadTree(table, opts({ file: "g.csv", graph: true, nameField: "title" }))).details,
+    ).toMatchObject({
+      field: "title",
+      fieldsSeen: ["id", "parent", "cost"],
+    });
+    const map = '{"t":{"children":["k","b"],"cost":1},"k":["b"]}';
+    const err = caught(() => loadTree(map, opts({ file: "g.json", graph: true, sizeFieldNamed: true })));
+    expect(err.details).toMatchObject({ option: "--size-field", fieldsSeen: ["children", "cost"] });
+    expect(loadTree(map, opts({ file: "g.json", graph: true, sizeField: "cost" })).hasSizes).toBe(true);
   });
 });

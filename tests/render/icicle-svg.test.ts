@@ -6,10 +6,17 @@ import { diffTrees } from "../../src/diff/diff-trees.js";
 import { buildTree } from "../../src/model/build-tree.js";
 import type { Tree } from "../../src/model/tree.js";
 import { displayWidth } from "../../src/render/display-width.js";
-import { renderSvg, type SvgOptions, WIDENING_CAP } from "../../src/render/icicle-svg.js";
+import {
+  MIN_BLOCK,
+  pictureLayout,
+  renderSvg,
+  type SvgOptions,
+  WIDENING_CAP,
+} from "../../src/render/icicle-svg.js";
 import { xmlEscape } from "../../src/render/xml-escape.js";
 import { prepare, summarize } from "../../src/summarize.js";
 import type { ViewNode } from "../../src/view/view-node.js";
+import { arbEdited } from "../diff/edit-script.js";
 import { makeIdTree } from "../diff/id-tree.js";
 import { makeTree } from "../helpers/make-tree.js";
 import { arbTreeWithFoci } from "../helpers/random-tree.js";
@@ -86,8 +93,10 @@ const view = (t: Tree, foci: string[], budget: number, label?: string) =>
 
 describe("renderSvg(view, options)", () => {
   it("draws one block per shown node and one per folded remainder, as well-formed XML", () => {
+    // Wide enough that no block falls below MIN_BLOCK, so nothing is grouped.
     const v = view(tree, ["A/A1"], 6);
-    const blocks = blocksOf(renderSvg(v, opts));
+    const blocks = blocksOf(renderSvg(v, { ...opts, width: 40000 }));
+    expect(blocks.some((b) => b.kind === "group")).toBe(false);
     const { shown, folded } = shownCount(v);
     expect(folded).toBeGreaterThan(0);
     expect(blocks.filter((b) => b.kind !== "folded")).toHaveLength(shown);
@@ -96,7 +105,7 @@ describe("renderSvg(view, options)", () => {
 
   it("fills each block exactly with its shown children and then its folded block", () => {
     const v = view(tree, ["A/A1"], 6);
-    const blocks = blocksOf(renderSvg(v, opts));
+    const blocks = blocksOf(renderSvg(v, { ...opts, width: 40000 }));
     const byLabel = new Map(
       blocks.filter((b) => b.kind !== "folded").map((b) => [b.title.split("\n")[0], b]),
     );
@@ -128,6 +137,15 @@ describe("renderSvg(view, options)", () => {
     expect(folded2).toBeCloseTo(1, 3);
   });
 
+  it("shares by leaves when every size is 0, a lone folded remainder included", () => {
+    const t = makeTree("R{a:0{a1:0,a2:0},b:0}");
+    const svg = renderSvg(view(t, [], 1), opts);
+    expect(svg).not.toContain("NaN");
+    const blocks = blocksOf(svg);
+    expect(blocks.map((b) => b.kind)).toEqual(["other", "folded"]);
+    expect(width(blocks[1])).toBeCloseTo(width(blocks[0]), 1);
+  });
+
   it("keeps a tiny focus visible and wide enough for its label", () => {
     const t = makeTree("R{big:1000000000,tiny:1}");
     const blocks = blocksOf(renderSvg(view(t, ["tiny"], 10), opts));
@@ -144,10 +162,11 @@ describe("renderSvg(view, options)", () => {
       const block = blocks.find((b) => b.title.startsWith(`${name}\n`))!;
       expect(block.group.getElementsByTagName("text")[0].textContent).toBe(name);
     }
-    expect(svg).toContain(
-      "width: size; the path to a focus is widened to fit its labels, by at most a quarter of the width",
+    expect(svg).toMatch(
+      /width: size; \d+(\.\d)?% of the width is widened to fit labels \(the path to a focus, narrow blocks\)</,
     );
-    const plain = renderSvg(view(t, [], 10), opts);
+    // Nothing narrow and no focus: nothing widened, and the legend says width is size alone.
+    const plain = renderSvg(view(makeTree("R{a:5,b:7}"), [], 10), opts);
     expect(plain).toContain("width: size<");
   });
 
@@ -322,36 +341,45 @@ describe("renderSvg(view, options)", () => {
     expect(a).not.toMatch(/\d\.\d{3,}/);
   });
 
-  it("fills every block and counts every node for any tree, focus and budget (property)", () => {
+  it("fills every block, labels every block and accounts for every node, for any tree, focus, budget and width (property)", () => {
     fc.assert(
       fc.property(
         arbTreeWithFoci(40),
         fc.integer({ min: 1, max: 25 }),
         fc.boolean(),
-        ([t, foci], budget, sizes) => {
+        fc.integer({ min: 150, max: 1600 }),
+        ([t, foci], budget, sizes, w) => {
           const prepared = prepare(t);
           const paths = foci.map((i) => prepared.index.path(i));
           // Enough lines for the root and every focus path.
           const needed = foci.reduce((n, i) => n + t.depth[i], 1);
           const r = summarize(prepared, { foci: paths, budget: budget + needed, importance: "depth" });
-          const svg = renderSvg(r.view, { units: "plain", sizes });
-          const blocks = blocksOf(svg);
-          const { shown, folded } = shownCount(r.view);
-          expect(blocks).toHaveLength(shown + folded);
-          const rows = [...new Set(blocks.map((b) => b.y))].sort((a, b) => a - b);
-          for (const b of blocks) {
-            const below = beneath(blocks, b);
-            if (below.length > 0)
-              expect(Math.abs(sum(below) - width(b))).toBeLessThan(0.01 * (below.length + 1));
-          }
-          // Every block below the first row lies within one block of the row above.
-          for (const b of blocks.filter((b) => b.y !== rows[0])) {
-            const above = rows[rows.indexOf(b.y) - 1];
-            expect(blocks.filter((p) => p.y === above && beneath(blocks, p).includes(b))).toHaveLength(1);
-          }
+          checkPicture(r.view, { units: "plain", sizes, width: w });
         },
       ),
-      { numRuns: 60 },
+      { numRuns: 80 },
+    );
+  });
+
+  it("labels or groups every block of a diff picture too, for any edit, budget and width (property)", () => {
+    fc.assert(
+      fc.property(
+        arbEdited(),
+        fc.integer({ min: 2, max: 30 }),
+        fc.integer({ min: 150, max: 1600 }),
+        fc.boolean(),
+        ({ oldTree, newTree }, budget, w, sizes) => {
+          const r = diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth" });
+          checkPicture(r.view, {
+            units: "plain",
+            sizes,
+            width: w,
+            changeOf: (n) => n.change,
+            changesIn: (n, folded) => (folded ? n.hidden!.changes : n.changes),
+          });
+        },
+      ),
+      { numRuns: 80 },
     );
   });
 
@@ -393,6 +421,71 @@ describe("renderSvg(view, options)", () => {
     expect(words).not.toContain("focus");
   });
 });
+
+/**
+ * The picture's promises, whatever the tree: the row beneath a block fills it; every block is at
+ * least MIN_BLOCK wide and carries a label that fits it (no unlabelled sliver); every shown node and
+ * every folded remainder is drawn once, as its own block or inside a group (with all below it); the
+ * leaves' weights add up to the root's; and the legend's widening is what the blocks have beyond
+ * their share by weight.
+ */
+function checkPicture<T extends ViewNode>(v: HierarchyNode<T>, options: SvgOptions<T>) {
+  const svg = renderSvg(v, options);
+  const blocks = blocksOf(svg);
+  const rows = [...new Set(blocks.map((b) => b.y))].sort((a, b) => a - b);
+  for (const b of blocks) {
+    const below = beneath(blocks, b);
+    if (below.length > 0) expect(Math.abs(sum(below) - width(b))).toBeLessThan(0.01 * (below.length + 1));
+    // Every block below the first row lies within one block of the row above.
+    if (b.y !== rows[0]) {
+      const above = rows[rows.indexOf(b.y) - 1];
+      expect(blocks.filter((p) => p.y === above && beneath(blocks, p).includes(b))).toHaveLength(1);
+    }
+    expect(width(b)).toBeGreaterThanOrEqual(MIN_BLOCK - 0.02);
+    const texts = [...b.group.getElementsByTagName("text")];
+    expect(texts.length, `unlabelled block ${b.title}`).toBeGreaterThan(0);
+    expect(texts[0].textContent!.length).toBeGreaterThan(0);
+    // 0.6 em per column: common practice for monospace faces, no source (the renderer assumes 0.62).
+    for (const e of texts)
+      expect(displayWidth(e.textContent!) * Number(e.getAttribute("font-size")) * 0.6).toBeLessThanOrEqual(
+        width(b),
+      );
+  }
+  // Accounting, on the layout the picture draws.
+  const { blocks: laid, widened } = pictureLayout(v, options);
+  expect(laid).toHaveLength(blocks.length);
+  const drawn = new Set<T>();
+  const foldedDrawn = new Set<T>();
+  for (const b of laid) {
+    if (b.members)
+      for (const m of b.members) {
+        if (m.folded) foldedDrawn.add(m.node);
+        else
+          for (const d of v.find((h) => h.data === m.node)!.descendants()) {
+            drawn.add(d.data);
+            if (d.data.hidden) foldedDrawn.add(d.data);
+          }
+      }
+    else if (b.folded) {
+      expect(foldedDrawn.has(b.node)).toBe(false);
+      foldedDrawn.add(b.node);
+    } else {
+      expect(drawn.has(b.node)).toBe(false);
+      drawn.add(b.node);
+    }
+  }
+  expect(drawn.size).toBe(v.descendants().length);
+  expect(foldedDrawn.size).toBe(v.descendants().filter((h) => h.data.hidden).length);
+  const leaves = laid.filter((b) => b.leaf);
+  const inner = laid[0].x1 - laid[0].x0;
+  const total = laid[0].weight;
+  expect(leaves.reduce((s, b) => s + b.weight, 0)).toBeCloseTo(total, 6);
+  const beyond = leaves.reduce((s, b) => s + Math.max(0, b.x1 - b.x0 - (b.weight / total) * inner), 0);
+  expect(widened).toBeCloseTo(beyond, 6);
+  const stated = /(\d+(?:\.\d)?)% of the width is widened/.exec(svg);
+  if (beyond / inner >= 0.0005) expect(Number(stated?.[1])).toBeCloseTo((100 * beyond) / inner, 0);
+  else expect(stated).toBeNull();
+}
 
 /** WCAG 2.x relative luminance of an sRGB colour `#rrggbb` (definition in WCAG 2.2, "relative luminance"). */
 function luminance(hex: string): number {

@@ -23,6 +23,8 @@ export interface EngineSettings {
   threads?: number;
   /** Where the engine spills what does not fit its memory cap. */
   tempDirectory?: string;
+  /** Told of each statement that ran: its text, milliseconds and result rows (tests, benchmarks). */
+  onQuery?: (sql: string, ms: number, rows: number) => void;
 }
 
 /** The package that ships the engine; imported here and nowhere else, and only when a fact table is read. */
@@ -58,11 +60,13 @@ export async function openEngine(settings: EngineSettings = {}, from: string = P
   return {
     async run(sql: string): Promise<Columns> {
       let reader: Awaited<ReturnType<typeof connection.runAndReadAll>>;
+      const started = performance.now();
       try {
         reader = await connection.runAndReadAll(sql);
       } catch (err) {
         throw engineFailed(err);
       }
+      settings.onQuery?.(sql, performance.now() - started, reader.currentRowCount);
       return { names: reader.columnNames(), values: reader.getColumnsJS(), rowCount: reader.currentRowCount };
     },
     close(): void {

@@ -15,6 +15,8 @@ export interface FactOptions {
   separator: string;
   /** Numeric column summed into each node's size; a table without it has no sizes. */
   sizeField: string;
+  /** The size field was named on purpose (even as the default "size"): a table without it is FIELD_MISSING. */
+  sizeFieldNamed?: boolean;
   /** Deepest key level to roll up to; found by a query over the table when undefined. */
   keyDepth?: number;
   /** Name of the table in the printed SQL; default "facts". */

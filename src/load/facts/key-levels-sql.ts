@@ -67,6 +67,24 @@ export class KeyLevels {
   }
 
   /**
+   * The statements that build the working tables, in the order they run: the keys table (keysSql, cut
+   * at `cutAt`), then the level tables from the deepest up to the root. The engine runs each as
+   * `CREATE TEMPORARY TABLE table AS sql`; --print-sql prints them as the common table expressions
+   * of one statement (printedSql), followed by resultSql.
+   */
+  steps(cutAt: number | undefined): { table: string; sql: string }[] {
+    const { keys, level } = KEY_TABLES;
+    const out: { table: string; sql: string }[] = [
+      { table: keys, sql: keysSql(this.options, this.hasSize, cutAt) },
+    ];
+    out.push({ table: level(this.depth), sql: this.levelSql(this.depth, "", keys) });
+    for (let j = this.depth - 1; j >= 1; j--)
+      out.push({ table: level(j), sql: this.levelSql(j, level(j + 1), keys) });
+    out.push({ table: level(0), sql: this.rootSql(level(1), keys) });
+    return out;
+  }
+
+  /**
    * The nodes at depth `j` (p, their prefix; n, t, m; nc, nodes in the subtree; cc, children), from the
    * nodes at depth j + 1 in `nodes` and the keys of depth j in `keys`.
    */

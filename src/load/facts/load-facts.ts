@@ -1,6 +1,4 @@
-import { open } from "node:fs/promises";
 import { tmpdir } from "node:os";
-import { parse } from "csv-parse/sync";
 import { EspalierError, quoted as input, quotedList, say } from "../../errors.js";
 import type { Tree } from "../../model/tree.js";
 import { missingField, sizeFieldNamed } from "../missing-field.js";
@@ -9,6 +7,7 @@ import type { FactFormat, FactOptions } from "./fact-options.js";
 import { KEY_TABLES, KeyLevels, keysSql } from "./key-levels-sql.js";
 import { ROLLUP_TABLE, STATS_TABLE } from "./printed-sql.js";
 import { reachSql, statsSql } from "./pushdown-sql.js";
+import { readHeader } from "./read-header.js";
 import { identifier, keyDepthSql, rollupSql } from "./rollup-sql.js";
 import { rollupTree } from "./rollup-tree.js";
 import { sourceViewSql } from "./source-sql.js";
@@ -67,7 +66,7 @@ export interface FactSession {
  * one more query over the rollup, never another pass over the facts.
  */
 export async function openFactTable(load: FactLoad): Promise<FactSession> {
-  const header = load.format === "csv" || load.format === "tsv" ? await readHeader(load) : [];
+  const header = await headerOf(load);
   const engine = await openEngine({ memoryLimit: "1GB", tempDirectory: tmpdir(), ...load.engine });
   try {
     await run(engine, sourceViewSql(load.facts.table, load.file, load.format, header), load);
@@ -156,23 +155,16 @@ async function keyLevels(
 ): Promise<{ plan: KeyLevels; size: number } | undefined> {
   const { keys, level } = KEY_TABLES;
   if (load.facts.keyDepth === 0) return undefined;
-  await run(
-    engine,
-    `CREATE TEMPORARY TABLE ${keys} AS ${keysSql(load.facts, hasSize, load.facts.keyDepth)}`,
-    load,
-    hasSize,
-  );
+  const keysStep = keysSql(load.facts, hasSize, load.facts.keyDepth);
+  await run(engine, `CREATE TEMPORARY TABLE ${keys} AS ${keysStep}`, load, hasSize);
   const deepest = (await run(engine, `SELECT MAX(d) FROM ${keys}`, load)).values[0][0];
   if (deepest === null || deepest === undefined || Number(deepest) === 0) return undefined;
   const plan = new KeyLevels(load.facts, Number(deepest), hasSize);
-  await run(
-    engine,
-    `CREATE TEMPORARY TABLE ${level(plan.depth)} AS ${plan.levelSql(plan.depth, "", keys)}`,
-    load,
-  );
-  for (let j = plan.depth - 1; j >= 1; j--)
-    await run(engine, `CREATE TEMPORARY TABLE ${level(j)} AS ${plan.levelSql(j, level(j + 1), keys)}`, load);
-  await run(engine, `CREATE TEMPORARY TABLE ${level(0)} AS ${plan.rootSql(level(1), keys)}`, load);
+  // The steps --print-sql prints (printedSql), the keys table's already run.
+  const [first, ...rest] = plan.steps(load.facts.keyDepth);
+  if (first.table !== keys || first.sql !== keysStep)
+    throw new Error("keyLevels: the plan's first step differs");
+  for (const step of rest) await run(engine, `CREATE TEMPORARY TABLE ${step.table} AS ${step.sql}`, load);
   const counts = Array.from({ length: plan.depth + 1 }, (_, j) => `(SELECT COUNT(*) FROM ${level(j)})`);
   const counted = await run(
     engine,
@@ -196,7 +188,7 @@ function appendRows(a: Columns, b: Columns): Columns {
 /** The deepest key of a key hierarchy in `file`, as the engine finds it (for the printed query). */
 export async function deepestKey(file: string, format: FactFormat, facts: FactOptions): Promise<number> {
   const load: FactLoad = { file, format, facts, rolledUp: false, rootName: "", keepFields: [], maxNodes: 0 };
-  const header = format === "csv" || format === "tsv" ? await readHeader(load) : [];
+  const header = await headerOf(load);
   const engine = await openEngine();
   try {
     await run(engine, sourceViewSql(facts.table, file, format, header), load);
@@ -259,24 +251,9 @@ async function run(engine: Engine, sql: string, load: FactLoad, hasSize = false)
   }
 }
 
-/** The header row's names of a CSV or TSV file (RFC 4180 for CSV, through csv-parse; TSV split on tabs). */
-async function readHeader(load: FactLoad): Promise<string[]> {
-  let text: string;
-  const handle = await open(load.file).catch((err: NodeJS.ErrnoException) => {
-    throw new EspalierError("IO", `cannot read ${load.file}: ${err.code ?? err.message}`, {
-      file: load.file,
-    });
-  });
-  try {
-    const buffer = Buffer.alloc(1 << 20);
-    const { bytesRead } = await handle.read(buffer, 0, buffer.length, 0);
-    text = new TextDecoder("utf-8", { ignoreBOM: false }).decode(buffer.subarray(0, bytesRead));
-  } finally {
-    await handle.close();
-  }
-  if (!/\S/.test(text)) throw new EspalierError("INPUT_EMPTY", "the input is empty");
-  if (load.format === "tsv") return text.split(/\r?\n/, 1)[0].split("\t");
-  const records: string[][] = parse(text, { to_line: 1, relax_column_count: true, bom: true });
-  if (records.length === 0) throw new EspalierError("INPUT_EMPTY", "the input is empty");
-  return records[0];
+/** The header row's names of a CSV or TSV input; none for the formats that name their own columns. */
+function headerOf(load: FactLoad): Promise<string[]> | string[] {
+  if (load.format === "csv") return readHeader(load.file, ",");
+  if (load.format === "tsv") return readHeader(load.file, "\t");
+  return [];
 }

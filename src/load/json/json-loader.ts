@@ -4,7 +4,7 @@ import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { isSize } from "../../model/size-rule.js";
 import { describeNode } from "../describe-node.js";
 import type { LoadOptions } from "../load-options.js";
-import { FieldsSeen, missingField, sizeFieldNamed } from "../missing-field.js";
+import { FieldsSeen, missingField, nameFieldNamed, sizeFieldNamed } from "../missing-field.js";
 import { NodeSink } from "../node-sink.js";
 import { fieldSizeUnit } from "../size-unit.js";
 import { linkTable } from "../table/link-table.js";
@@ -131,6 +131,8 @@ export class JsonLoader extends JsonTokenizer {
   private readonly frames: Frame[] = [];
   /** Keys of the first node objects, for the message of a field no node has. */
   private readonly seen = new FieldsSeen();
+  /** Whether a node not keyed by name has a name in the name field (text, a number or a boolean). */
+  private hasNames = false;
 
   /** `found`: espalier chose `options.childrenField` (the configured one was absent). */
   constructor(options: LoadOptions, as?: "json" | "rows", found = false) {
@@ -173,6 +175,8 @@ export class JsonLoader extends JsonTokenizer {
     for (let i = 0; i < sink.length && !sink.hasSizes; i++) if (this.sized[i] === 1) sink.hasSizes = true;
     if (!sink.hasSizes && sizeFieldNamed(this.options))
       throw missingField("size", this.options.sizeField, this.seen.list(), true);
+    if (!this.hasNames && nameFieldNamed(this.options))
+      throw missingField("name", this.options.nameField, this.seen.list(), true);
     const { keepFields } = this.options;
     const fields = new Map<string, string[]>();
     for (let f = 0; f < keepFields.length; f++) {
@@ -536,7 +540,10 @@ export class JsonLoader extends JsonTokenizer {
   private closeNode(frame: Frame): void {
     const i = frame.node;
     const { nameField, sizeField, childrenField } = this.options;
-    if (!frame.keyed && frame.nameKind === COLLECTION) {
+    const nameKind = frame.nameKind;
+    if (!frame.keyed && (nameKind === STRING || nameKind === NUMBER || nameKind === BOOLEAN))
+      this.hasNames = true;
+    if (!frame.keyed && nameKind === COLLECTION) {
       throw new EspalierError("SHAPE", say`the "${nameField}" of ${this.where(i)} must be text`, {
         line: frame.nameLine,
         column: frame.nameColumn,

@@ -1,7 +1,7 @@
 import type { Buffer } from "node:buffer";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { LoadOptions } from "../load-options.js";
-import { sizeFieldNamed, sizeFieldNotApplicable } from "../missing-field.js";
+import { checkNoNamedFields } from "../missing-field.js";
 import { NodeSink } from "../node-sink.js";
 import { ByteBuffer } from "./byte-buffer.js";
 import { JsonTokenizer } from "./json-tokenizer.js";
@@ -31,7 +31,7 @@ export class JsonValueLoader extends JsonTokenizer {
 
   constructor(options: LoadOptions) {
     super(options.limits);
-    if (sizeFieldNamed(options)) throw sizeFieldNotApplicable(options.sizeField, "values");
+    checkNoNamedFields(options, "values");
     this.options = options;
     this.sink = new NodeSink(options.maxNodes, false);
   }

@@ -3,7 +3,7 @@ import { EspalierError, quoted, say } from "../../errors.js";
 import { asBuffer } from "../../model/buffer-codecs.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { LoadOptions } from "../load-options.js";
-import { sizeFieldNamed, sizeFieldNotApplicable } from "../missing-field.js";
+import { checkNoNamedFields } from "../missing-field.js";
 import { NodeSink } from "../node-sink.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer, viewOf } from "../path-placer.js";
@@ -46,7 +46,7 @@ export class PathListReader {
   private readonly separator: number;
 
   constructor(options: LoadOptions) {
-    if (sizeFieldNamed(options)) throw sizeFieldNotApplicable(options.sizeField, "paths");
+    checkNoNamedFields(options, "paths");
     this.sink = new NodeSink(options.maxNodes, false);
     this.placer = new PathPlacer(this.sink);
     this.rootName = options.rootName;

@@ -4,7 +4,7 @@ import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { copyName, isEmptyName, NamePool } from "../../model/names.js";
 import { isSize } from "../../model/size-rule.js";
 import type { LoadOptions } from "../load-options.js";
-import { missingField, sizeFieldNamed } from "../missing-field.js";
+import { missingField, nameFieldNamed, sizeFieldNamed } from "../missing-field.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer } from "../path-placer.js";
@@ -60,6 +60,7 @@ function linkById(
 ) {
   const n = table.length;
   if (n > options.maxNodes) throw limitExceeded(options.maxNodes, true, options.maxNodes + 1);
+  checkNameColumn(table, options);
   const keep = keptColumns(table, options);
   const pooled = table.pooledColumn?.(options.nameField);
   const names = pooled ? undefined : table.column(options.nameField);
@@ -138,6 +139,7 @@ function namesOrIds(pooled: NamePool, ids: readonly string[], n: number): NamePo
 
 function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptions): LinkedNodes {
   const n = table.length;
+  checkNameColumn(table, options);
   const keep = keptColumns(table, options);
   const names = table.column(options.nameField);
   const sizes = sizeColumn(table, options);
@@ -179,6 +181,12 @@ function sizeColumn(table: Table, options: LoadOptions): readonly Cell[] | undef
   const sizes = table.column(options.sizeField);
   if (!sizes && sizeFieldNamed(options)) throw missingField("size", options.sizeField, visibleColumns(table));
   return sizes;
+}
+
+/** A named name field that is no column is FIELD_MISSING naming the columns. */
+function checkNameColumn(table: Table, options: LoadOptions): void {
+  if (nameFieldNamed(options) && !table.columnNames().includes(options.nameField))
+    throw missingField("name", options.nameField, visibleColumns(table));
 }
 
 /** The columns a user can name (a path map's key column is no field of the records). */
