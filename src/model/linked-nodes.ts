@@ -22,4 +22,10 @@ export interface LinkedNodes {
   reading?: TreeReading;
   /** Where a row (an origin when `originIsRow`) is in the input, when the loader can say. */
   placeRow?: (row: number, field?: string) => SourcePos | undefined;
+  /**
+   * One-line references (a YAML alias reaching a node placed elsewhere): for each node, -1 for a full
+   * entry, else the node whose full entry it stands for (a full entry itself). A reference has no
+   * children and no size; the tree gets it as `referenceTo` (see model/tree.ts).
+   */
+  referenceOf?: Int32Array;
 }
