@@ -130,7 +130,8 @@ export class PathListReader {
   /** One line, `bytes[start, end)` without its "\n". */
   private one(bytes: Buffer, view: DataView, start: number, end: number): void {
     const line = ++this.line;
-    if (end - start > this.maxLineBytes) throw tooLong(`line ${line}`, this.maxLineBytes, { line, column: 1 });
+    if (end - start > this.maxLineBytes)
+      throw tooLong(`line ${line}`, this.maxLineBytes, { line, column: 1 });
     if (this.separator === newline) {
       if (end > start && bytes[end - 1] === cr) end--;
       if (isBlank(bytes, start, end)) return;
