@@ -18,6 +18,7 @@ import {
 import { linkGraphTable } from "./graph-table.js";
 import type { InputFormat, LoadOptions } from "./load-options.js";
 import { loadYaml } from "./load-yaml.js";
+import { jsonGraphTooLong, limitsOf } from "./read-limits.js";
 import { csvTableFromBytes } from "./table/csv-table.js";
 import { linkTable } from "./table/link-table.js";
 import { placeInTableBytes } from "./table/locate-cell.js";
@@ -81,6 +82,9 @@ function linkedNodes(
   // A JSON graph (rows or an adjacency map) is parsed whole; a text that is no JSON goes to the JSON
   // loader, which places the error.
   if ((format === "json" || format === "rows") && options.graph) {
+    // The same bound as a streamed graph's (counted in UTF-8 bytes, as read from a file).
+    const limit = limitsOf(options.limits).maxJsonGraphBytes;
+    if (body.length * 3 > limit && Buffer.byteLength(body, "utf8") > limit) throw jsonGraphTooLong(limit);
     const graph = jsonGraph(body, options);
     if (graph) return graph;
   }

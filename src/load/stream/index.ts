@@ -10,7 +10,7 @@ import { detectFormat } from "../detect-format.js";
 import { edgeTableDelimiter, edgeTableFields, isGraph, jsonGraph, withNodeRecords } from "../graph-input.js";
 import { linkGraphTable } from "../graph-table.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
-import { limitsOf } from "../read-limits.js";
+import { jsonGraphTooLong, limitsOf } from "../read-limits.js";
 import { csvTableFromStream } from "../table/csv-table.js";
 import { linkTable } from "../table/link-table.js";
 import { placeInTable } from "../table/locate-cell.js";
@@ -91,7 +91,7 @@ async function linkedNodes(
   const loader = byteLoader(format, options, head);
   // A JSON graph (rows or an adjacency map) is read whole and parsed.
   if ((format === "json" || format === "rows") && options.graph) {
-    const bytes = await wholeBytes(chunks, "JSON");
+    const bytes = await wholeBytes(chunks, "JSON", limitsOf(options.limits).maxJsonGraphBytes);
     const graph = jsonGraph(new TextDecoder("utf-8", { ignoreBOM: true }).decode(bytes), options);
     if (graph) return graph;
     // No JSON: the JSON loader reads the same bytes and places the error.
@@ -125,9 +125,10 @@ async function wholeText(
 }
 
 /**
- * The whole input as bytes (YAML, JSON graphs), at most `maxBytes` (read-limits.ts: the YAML parser
- * holds the whole document and several times its size in nodes) and what a string can hold; else
- * LIMIT_EXCEEDED.
+ * The whole input as bytes (YAML, JSON graphs), at most `maxBytes` (read-limits.ts maxYamlBytes,
+ * maxJsonGraphBytes: the parser holds the whole document and several times its size in values) and
+ * what a string can hold; else LIMIT_EXCEEDED, checked as the chunks arrive (an endless input stops
+ * there).
  */
 async function wholeBytes(
   chunks: AsyncIterable<Uint8Array>,
@@ -145,7 +146,7 @@ async function wholeBytes(
         "LIMIT_EXCEEDED",
         what === "YAML"
           ? `YAML input longer than ${most} bytes is not read (its parser holds the whole document); convert it to JSON, which streams`
-          : `a JSON adjacency map or graph table longer than ${most} bytes cannot be read; write it as an edge list, which streams`,
+          : jsonGraphTooLong(most).message,
       );
     }
   }
