@@ -10,8 +10,10 @@
 // - load-worker.js: the diff's loading thread (an ES module, started by load-in-worker next to itself).
 // Run by `npm run build` and `prepare` after tsc.
 import { createHash } from "node:crypto";
-import { readFileSync, rmSync, writeFileSync } from "node:fs";
-import { Readable } from "node:stream";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { readFile } from "node:fs/promises";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import { build } from "esbuild";
 import { buildId, loadBundle } from "../bin/load-bundle.js";
 
@@ -39,7 +41,7 @@ await build({
   define: { "import.meta.url": "__espalierUrl" },
   banner: { js: 'const __espalierUrl=require("node:url").pathToFileURL(__filename).href;' },
 });
-const body = readFileSync(bundle, "utf8");
+const body = asciiOnly(readFileSync(bundle, "utf8"));
 const id = createHash("sha256").update(body).digest("hex").slice(0, 32);
 writeFileSync(bundle, `//build:${id}\n${body}`);
 if (buildId(readFileSync(bundle, "utf8")) !== id)
@@ -63,18 +65,40 @@ const inputs = {
   "tiny.csv": "id,parent,name,size\n1,,root,0\n2,1,a,1\n3,1,b,2\n",
   "tiny.paths": "0\t.\n1\t./a\n2\t./b\n",
 };
-for (const [name, text] of Object.entries(inputs)) {
-  let out = "";
-  const code = await cli.run([name, "--focus", "a"], {
-    stdout: { write: (t) => (out += t) },
-    stderr: { write: (t) => (out += t) },
-    readStdin: async () => Buffer.alloc(0),
-    readFile: async (path) => {
-      throw Object.assign(new Error(`${path}: not here`), { code: "ENOENT" });
-    },
-    openInput: async () => ({ size: text.length, chunks: Readable.from([Buffer.from(text)]) }),
-    env: {},
-  });
-  if (code !== 0) throw new Error(`bundle.js: the bundle failed on ${name} (exit ${code}): ${out}`);
+// The inputs are real files in an empty folder, opened and read (the config file looked for) through
+// the same functions bin/espalier.js hands the command line, so their code is in the cache too.
+const home = process.cwd();
+const scratch = mkdtempSync(join(tmpdir(), "espalier-bundle-"));
+process.chdir(scratch);
+try {
+  cli.heapToRestartWith({ heapLimit: 2 ** 32, totalMemory: 2 ** 34, inputBytes: [1] });
+  for (const [name, text] of Object.entries(inputs)) {
+    writeFileSync(name, text);
+    let out = "";
+    const code = await cli.run([name, "--focus", "a"], {
+      stdout: { write: (t) => (out += t) },
+      stderr: { write: (t) => (out += t) },
+      readStdin: async () => Buffer.alloc(0),
+      readFile: (path, bound) => (bound ? cli.readBounded(path, bound) : readFile(path)),
+      openInput: (file) => cli.openFile(file),
+      env: {},
+    });
+    if (code !== 0) throw new Error(`bundle.js: the bundle failed on ${name} (exit ${code}): ${out}`);
+  }
+} finally {
+  process.chdir(home);
+  rmSync(scratch, { recursive: true, force: true });
 }
 writeFileSync(`${bundle}.cache`, Buffer.concat([Buffer.from(`${id}\n`), script.createCachedData()]));
+
+/**
+ * The bundle with every character past ASCII written as a `\uXXXX` escape. esbuild escapes them in
+ * strings, but leaves a tagged template's text as written (the tag may read its raw form; ours never
+ * do): one such character makes the engine hold the whole bundle as a two-byte string, twice the
+ * memory and a slower decoding at every start. The escape means the same character in a string, a
+ * template, a regular expression or a name (a code unit at a time: a pair of surrogate escapes is one
+ * code point, in a `u` pattern too).
+ */
+function asciiOnly(text) {
+  return text.replace(/[^\x00-\x7f]/g, (ch) => `\\u${ch.charCodeAt(0).toString(16).padStart(4, "0")}`);
+}

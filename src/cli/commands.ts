@@ -10,7 +10,6 @@ import type { CliIO } from "./io.js";
 import { type CommandName, commandOptions, diffOptionsSchema, summaryOptionsSchema } from "./options.js";
 import type { CommandLine } from "./parse-command-line.js";
 import { summaryCommand } from "./summary-command.js";
-import { checkOutputTarget } from "./write-output.js";
 
 /** What a command hands back: the text for standard output and the exit code. */
 export interface CommandOutput {
@@ -94,7 +93,10 @@ function defineCommand<S extends z.ZodObject>(def: CommandDef<S>): CommandSpec {
       if (early) return { ...early, target: undefined };
       checkArguments(def, line.args);
       const target = outputTarget(options as { output?: string; focusFrom?: string }, line);
-      if (target) await checkOutputTarget(target.file, target.inputs, io.outputFiles);
+      if (target) {
+        const { checkOutputTarget } = await import("./write-output.js");
+        await checkOutputTarget(target.file, target.inputs, io.outputFiles);
+      }
       // Under --pseudonymize every error of the work leaves with the input hidden (hide-input.ts).
       const key = pseudonymKey(options as { pseudonymize?: boolean }, io);
       const output = await hidingInput(key, () => run(line.args, options, io, { configFile, fromConfig }));

@@ -6,7 +6,6 @@ import type { CliIO } from "./io.js";
 import { parseCommandLine } from "./parse-command-line.js";
 import { formatError } from "./report-error.js";
 import { packageVersion } from "./version.js";
-import { writeOutput } from "./write-output.js";
 
 /**
  * Runs the CLI on user arguments (without node and script); returns the exit code. Nothing is written
@@ -24,9 +23,11 @@ export async function run(argv: readonly string[], io: CliIO): Promise<number> {
       return EXIT.ok;
     }
     const result = await commands[line.command].invoke(line, io);
-    if (result.target)
+    if (result.target) {
+      // --output's module (and the file-system and crypto modules it needs) loads only for --output.
+      const { writeOutput } = await import("./write-output.js");
       await writeOutput(result.target.file, result.text, result.target.inputs, io.outputFiles);
-    else io.stdout.write(result.text);
+    } else io.stdout.write(result.text);
     return result.exitCode;
   } catch (err) {
     io.stderr.write(formatError(err instanceof RangeError ? outOfRoom(err) : err));

@@ -1,4 +1,3 @@
-import { createHmac } from "node:crypto";
 import type { InputText } from "../errors.js";
 
 /**
@@ -7,8 +6,13 @@ import type { InputText } from "../errors.js";
  * without the secret the name cannot be recomputed from a guess list.
  */
 export function pseudonym(secret: string, name: string): string {
-  return `anon-${createHmac("sha256", secret).update(name, "utf8").digest("hex").slice(0, 12)}`;
+  crypto ??= process.getBuiltinModule("node:crypto");
+  return `anon-${crypto.createHmac("sha256", secret).update(name, "utf8").digest("hex").slice(0, 12)}`;
 }
+
+// The crypto module loads on the first pseudonym, not with this module: most runs make none, and
+// loading it is a good part of a small run's start (issue 14).
+let crypto: typeof import("node:crypto") | undefined;
 
 /**
  * How input text quoted in an error prints under `--pseudonymize`: a name or an id as its pseudonym, a

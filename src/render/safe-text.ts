@@ -9,8 +9,7 @@
 //   DerivedCoreProperties.txt: variation selectors, Hangul fillers, combining grapheme joiner, ...),
 //   which print as nothing, so `adm\u{200b}in` would look like `admin`; except where they change how
 //   the text looks (see keepInvisible).
-const UNSAFE =
-  /\u{1F3F4}[\u{E0030}-\u{E0039}\u{E0061}-\u{E007A}]{1,6}\u{E007F}|[\u0000-\u001f\u007f-\u009f\u2028\u2029\ud800-\udfff\p{Cf}\p{Default_Ignorable_Code_Point}]/gu;
+// (the class UNSAFE of compileClasses() below)
 
 // Lines that CI runners read as commands (common practice, no source; from memory: Azure Pipelines
 // acts on "##vso[" anywhere in a line and GitHub Actions' older syntax on "##["): the bracket becomes
@@ -53,7 +52,9 @@ export function safeText(text: string, max = MAX_LABEL): string {
 
 /** Every unsafe or invisible character escaped (but where it shapes the text), CI markers broken. */
 function escapeUnsafe(text: string): string {
-  return text.replace(UNSAFE, escapeUnlessKept).replace(CI_MARKER, (m) => `${m.slice(0, -1)}\\u{5b}`);
+  return text
+    .replace(unicodeClasses().UNSAFE, escapeUnlessKept)
+    .replace(CI_MARKER, (m) => `${m.slice(0, -1)}\\u{5b}`);
 }
 
 /** A label as printed: made safe, and `""` for an empty name so the line still shows something. */
@@ -74,18 +75,33 @@ function escapeUnlessKept(match: string, offset: number, whole: string): string 
     : escaped(match);
 }
 
-// Scripts whose spelling uses the zero-width joiner and non-joiner (Unicode 15, section 23.2, "Cursive
-// Connection and Ligatures", and the Indic chapters): between their letters these change the shapes.
-const JOINING_SCRIPT =
-  /[\p{Script_Extensions=Arabic}\p{Script_Extensions=Syriac}\p{Script_Extensions=Nko}\p{Script_Extensions=Mongolian}\p{Script_Extensions=Devanagari}\p{Script_Extensions=Bengali}\p{Script_Extensions=Gurmukhi}\p{Script_Extensions=Gujarati}\p{Script_Extensions=Oriya}\p{Script_Extensions=Tamil}\p{Script_Extensions=Telugu}\p{Script_Extensions=Kannada}\p{Script_Extensions=Malayalam}\p{Script_Extensions=Sinhala}\p{Script_Extensions=Tibetan}\p{Script_Extensions=Myanmar}\p{Script_Extensions=Khmer}]/u;
-const LETTER_OR_MARK = /[\p{L}\p{M}]/u;
-const LETTER = /\p{L}/u;
-const PICTOGRAPH = /\p{Extended_Pictographic}/u;
-const EMOJI_BEFORE_JOINER = /^(?:[\p{Extended_Pictographic}\p{Emoji_Modifier}]|\u{FE0F})$/u;
-const EMOJI = /\p{Emoji}/u;
-const VISIBLE_BASE = /[\p{L}\p{N}\p{S}\p{P}]/u;
-const IDEOGRAPH = /\p{Ideographic}/u;
-const MONGOLIAN = /\p{Script_Extensions=Mongolian}/u;
+// The Unicode property classes are compiled on first use, not when this module loads: most names are
+// plain ASCII and never reach them, and compiling them is a good part of a small run's start (issue 14).
+function compileClasses() {
+  return {
+    UNSAFE:
+      /\u{1F3F4}[\u{E0030}-\u{E0039}\u{E0061}-\u{E007A}]{1,6}\u{E007F}|[\u0000-\u001f\u007f-\u009f\u2028\u2029\ud800-\udfff\p{Cf}\p{Default_Ignorable_Code_Point}]/gu,
+    // Scripts whose spelling uses the zero-width joiner and non-joiner (Unicode 15, section 23.2, "Cursive
+    // Connection and Ligatures", and the Indic chapters): between their letters these change the shapes.
+    JOINING_SCRIPT:
+      /[\p{Script_Extensions=Arabic}\p{Script_Extensions=Syriac}\p{Script_Extensions=Nko}\p{Script_Extensions=Mongolian}\p{Script_Extensions=Devanagari}\p{Script_Extensions=Bengali}\p{Script_Extensions=Gurmukhi}\p{Script_Extensions=Gujarati}\p{Script_Extensions=Oriya}\p{Script_Extensions=Tamil}\p{Script_Extensions=Telugu}\p{Script_Extensions=Kannada}\p{Script_Extensions=Malayalam}\p{Script_Extensions=Sinhala}\p{Script_Extensions=Tibetan}\p{Script_Extensions=Myanmar}\p{Script_Extensions=Khmer}]/u,
+    LETTER_OR_MARK: /[\p{L}\p{M}]/u,
+    LETTER: /\p{L}/u,
+    PICTOGRAPH: /\p{Extended_Pictographic}/u,
+    EMOJI_BEFORE_JOINER: /^(?:[\p{Extended_Pictographic}\p{Emoji_Modifier}]|\u{FE0F})$/u,
+    EMOJI: /\p{Emoji}/u,
+    VISIBLE_BASE: /[\p{L}\p{N}\p{S}\p{P}]/u,
+    IDEOGRAPH: /\p{Ideographic}/u,
+    MONGOLIAN: /\p{Script_Extensions=Mongolian}/u,
+  };
+}
+
+let classes: ReturnType<typeof compileClasses> | undefined;
+
+function unicodeClasses(): ReturnType<typeof compileClasses> {
+  classes ??= compileClasses();
+  return classes;
+}
 
 /**
  * Whether an invisible character is part of how the text looks, so it stays: a zero-width joiner in an
@@ -97,6 +113,17 @@ const MONGOLIAN = /\p{Script_Extensions=Mongolian}/u;
  */
 function keepInvisible(ch: string, before: string, after: string): boolean {
   const c = ch.codePointAt(0)!;
+  const {
+    JOINING_SCRIPT,
+    LETTER_OR_MARK,
+    LETTER,
+    PICTOGRAPH,
+    EMOJI_BEFORE_JOINER,
+    EMOJI,
+    VISIBLE_BASE,
+    IDEOGRAPH,
+    MONGOLIAN,
+  } = unicodeClasses();
   if (c === 0x200d && EMOJI_BEFORE_JOINER.test(before) && PICTOGRAPH.test(after)) return true;
   if (c === 0x200c || c === 0x200d)
     return (

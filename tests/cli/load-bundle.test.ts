@@ -62,4 +62,9 @@ describe("dist/bundle/espalier.cjs (npm run build)", () => {
     expect(typeof loaded.exports.run).toBe("function");
     expect(loaded.cacheUsed).toBe(true);
   });
+
+  it("is ASCII only, so the engine holds it as a one-byte string", () => {
+    const bundle = readFileSync(new URL("../../dist/bundle/espalier.cjs", import.meta.url));
+    expect(bundle.findIndex((byte) => byte > 0x7f)).toBe(-1);
+  });
 });
