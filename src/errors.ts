@@ -24,7 +24,6 @@ export const errorCodes = [
   "DUPLICATE_ID",
   "DUPLICATE_PATH",
   "MISSING_PARENT",
-  "TWO_PARENTS",
   "FOCUS_SYNTAX",
   "FOCUS_NO_MATCH",
   "BUDGET_TOO_SMALL",

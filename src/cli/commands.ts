@@ -1,5 +1,6 @@
 import type { z } from "zod";
 import { EspalierError } from "../errors.js";
+import type { CommandOutput } from "./command-output.js";
 import { CONFIG_FILES } from "./config.js";
 import { effectiveOptions, optionsInEffectYaml } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
@@ -10,12 +11,6 @@ import type { CliIO } from "./io.js";
 import { type CommandName, commandOptions, diffOptionsSchema, summaryOptionsSchema } from "./options.js";
 import type { CommandLine } from "./parse-command-line.js";
 import { summaryCommand } from "./summary-command.js";
-
-/** What a command hands back: the text for standard output and the exit code. */
-export interface CommandOutput {
-  text: string;
-  exitCode: number;
-}
 
 /** A command's result and where it goes: standard output, or the `--output` file. */
 export interface Invocation extends CommandOutput {

@@ -1,9 +1,11 @@
 import { isMap, isScalar, LineCounter, parseDocument } from "yaml";
 import { didYouMeanText } from "../did-you-mean.js";
 import { EspalierError, type SourcePos } from "../errors.js";
-import type { ConfigValues } from "./config.js";
 import { configSchema } from "./options.js";
 import { issueMessage } from "./validate-options.js";
+
+/** The keys a config file sets, as read (validated against `configSchema`). */
+export type ConfigValues = Record<string, unknown>;
 
 /** Validates config text; returns only the keys it sets. */
 export function parseConfig(text: string, file: string): ConfigValues {

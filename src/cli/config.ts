@@ -1,6 +1,7 @@
 import * as z from "zod";
 import { EspalierError, type SourcePos } from "../errors.js";
 import { readLimits } from "../load/read-limits.js";
+import type { ConfigValues } from "./config-text.js";
 import type { CliIO } from "./io.js";
 import { configSchema } from "./options.js";
 import type { ReadBound } from "./read-bounded.js";
@@ -9,8 +10,6 @@ export { configSchema };
 
 /** File names looked for in the current directory when --config is not given. */
 export const CONFIG_FILES = [".espalier.yaml", ".espalier.yml"] as const;
-
-export type ConfigValues = Record<string, unknown>;
 
 export interface LoadedConfig {
   /** Where the values came from; undefined when no file was found. */

@@ -1,6 +1,6 @@
 import { totalChanges } from "../diff/changes.js";
 import { diffTrees } from "../diff/diff-trees.js";
-import type { CommandOutput } from "./commands.js";
+import type { CommandOutput } from "./command-output.js";
 import { EXIT } from "./exit-codes.js";
 import { loadVersions, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";

@@ -9,7 +9,14 @@ import { draw } from "../explore/screen.js";
 import { diffSession, type Session, summarySession } from "../explore/session.js";
 import type { ExploreState } from "../explore/state.js";
 import { ENTER, frame, LEAVE } from "../explore/terminal.js";
-import { type ExploreEvent, fociOf, needsWork, STATUS_ROWS, startState, update } from "../explore/update.js";
+import {
+  type ExploreEvent,
+  needsWork,
+  STATUS_ROWS,
+  specFoci,
+  startState,
+  update,
+} from "../explore/update.js";
 import { warmImportances } from "../explore/warm.js";
 import { resolveSpecs } from "../focus/resolve-specs.js";
 import type { Tree } from "../model/tree.js";
@@ -97,7 +104,7 @@ export async function exploreCommand(
   const head = ["espalier", ...(newInput === undefined ? [] : ["diff"]), ...inputs, ...shapeArgs(opts)];
   const importance = end.state.spec.importance;
   const tail = importance !== "depth" || setup.configSetsImportance ? ["--importance", importance] : [];
-  const paths = [...fociOf(end.state.spec)].map((i) => session.pathOf(i));
+  const paths = [...specFoci(end.state.spec)].map((i) => session.pathOf(i));
   return {
     text: `${commandLine(head, paths, end.state.rows - STATUS_ROWS, tail, session.headerLines === 0)}\n`,
     exitCode: EXIT.ok,
@@ -146,7 +153,7 @@ async function writeFoci(
   inputs: string[],
   hidden: boolean,
 ): Promise<ExploreEvent> {
-  const foci = [...fociOf(state.spec)].map((i) => session.pathOf(i));
+  const foci = [...specFoci(state.spec)].map((i) => session.pathOf(i));
   const what = { foci, budget: state.rows - STATUS_ROWS, importance: state.spec.importance };
   try {
     let text: string;

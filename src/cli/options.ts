@@ -17,7 +17,7 @@ export type OutputFormat = (typeof outputFormats)[number];
 /** When text output is coloured. */
 export const colorModes = ["auto", "always", "never"] as const;
 /** How sizes print. */
-export const unitChoices = ["auto", "bytes", "plain"] as const;
+export const unitModes = ["auto", "bytes", "plain"] as const;
 /** What a node's share (in percent) is of: nothing printed, the whole tree, the line above. */
 export const shareChoices = ["none", "total", "parent"] as const;
 
@@ -157,7 +157,7 @@ export const sharedOptions = {
     flags: "--units <units>",
     group: "Output",
     schema: z
-      .enum(unitChoices)
+      .enum(unitModes)
       .default("auto")
       .describe(
         "sizes as bytes (KiB, MiB) or plain numbers; auto: bytes for file sizes and a document's bytes",

@@ -54,6 +54,12 @@ export function matchGraphs(
   newCount: Int32Array,
 ): { matching: Matching; oldEdges: Edges; newEdges: Edges } {
   if (!oldTree.ids || !newTree.ids) {
+    // A tree with references but no ids: a YAML document read as nodes whose aliases are used again.
+    if (oldTree.reading?.shape === "nodes" || newTree.reading?.shape === "nodes")
+      throw new EspalierError(
+        "USAGE",
+        "a YAML document whose aliases are used more than once holds references, which are compared by node ids, and its nodes have none: compare the versions read as values (--read-as values)",
+      );
     throw new EspalierError(
       "USAGE",
       "a graph is compared by node ids: give both versions as graphs (edge lists, adjacency maps or tables with --graph)",

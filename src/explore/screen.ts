@@ -5,7 +5,7 @@ import { helpEntries } from "./key-map.js";
 import type { Session } from "./session.js";
 import type { ExploreState } from "./state.js";
 import { INVERSE, INVERSE_OFF } from "./terminal.js";
-import { fitOf, fociOf, GUTTER } from "./update.js";
+import { fitOf, GUTTER, specFoci } from "./update.js";
 
 /** A screenful: exactly `rows` rows, none wider than `cols` columns, and where the cursor's row is. */
 export interface Screen {
@@ -81,7 +81,7 @@ function statusRow(session: Session, state: ExploreState, cols: number, colour: 
   } else {
     const path = session.pathOf(state.spec.cursor);
     left = path === "" ? "/" : safeText(path);
-    const foci = fociOf(state.spec).length;
+    const foci = specFoci(state.spec).length;
     right = state.message ?? `${foci} ${foci === 1 ? "focus" : "foci"} · ${state.spec.importance} · h: keys`;
   }
   if (state.message !== null && mode.kind !== "browse") right = state.message;

@@ -58,7 +58,7 @@ export function startState(session: Session, start: StartOptions): ExploreState 
 }
 
 /** The foci of a spec, as the fit takes them: the cursor (unless on the root) and the extra foci. */
-export function fociOf(spec: ViewSpec): Int32Array {
+export function specFoci(spec: ViewSpec): Int32Array {
   const all = new Set<number>(spec.extra.map((e) => e.node));
   if (spec.cursor !== 0) all.add(spec.cursor);
   return Int32Array.from(all).sort();
@@ -70,7 +70,7 @@ export function fitOf(session: Session, spec: ViewSpec, rows: number, cols: numb
   if (budget < 1 + session.headerLines || cols - GUTTER < 1)
     return new EspalierError("BUDGET_TOO_SMALL", "the terminal is too small");
   try {
-    return session.fit(fociOf(spec), budget, spec.importance, cols - GUTTER);
+    return session.fit(specFoci(spec), budget, spec.importance, cols - GUTTER);
   } catch (err) {
     if (err instanceof EspalierError && err.code === "BUDGET_TOO_SMALL") return err;
     throw err;

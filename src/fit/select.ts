@@ -80,6 +80,8 @@ export function select(ranked: Ranked, options: SelectOptions): Selection {
     throw new EspalierError(
       "BUDGET_TOO_SMALL",
       `a budget of ${budget} lines cannot hold the root and the focus paths; the smallest budget that works is ${needed}`,
+      undefined,
+      { budget, smallest: needed },
     );
   }
   const admitted: number[] = [];

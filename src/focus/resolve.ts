@@ -59,7 +59,7 @@ export function pathAsListed(index: PathIndex, spec: string): string | undefined
  * Focus specs -> node indices (sorted, without repeats). Each spec is tried as an exact path, then as a
  * row id (where rows have ids; with a pseudonym key also as a printed pseudonymous id), then as a glob;
  * then, written as a listing writes paths (see {@link pathAsListed}), as a path or glob again. A spec
- * that matches nothing is an error that suggests the closest existing path.
+ * that matches nothing is FOCUS_NO_MATCH suggesting the closest existing paths (`details.suggestions`).
  */
 export function resolveFoci(index: PathIndex, specs: readonly string[], pseudonymKey?: string): Int32Array {
   const found = new Set<number>();
@@ -132,6 +132,8 @@ function noMatch(
     return new EspalierError(
       "FOCUS_NO_MATCH",
       say`focus ${quoted.value(spec)} matches no node${didYouMean(near)}`,
+      undefined,
+      { suggestions: near },
     );
   }
   // Only a typed pseudonym is compared, with pseudonyms only: guessing real names learns nothing.
@@ -141,6 +143,8 @@ function noMatch(
   return new EspalierError(
     "FOCUS_NO_MATCH",
     `focus ${k + 1} of ${n} matches no node (not repeated here: --pseudonymize is on)${didYouMean(near)}`,
+    undefined,
+    { suggestions: near },
   );
 }
 

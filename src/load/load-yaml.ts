@@ -27,8 +27,9 @@ type YamlValue = Node | null;
 
 /**
  * Loads a YAML document of nested nodes (the shapes JSON allows), walking the parsed nodes themselves so
- * origins are line numbers. Aliases are followed, never expanded: a node or children list reached twice
- * is TWO_PARENTS, so an alias bomb cannot blow up.
+ * origins are line numbers. Aliases are followed, never expanded: a node object or children list reached
+ * again through an alias is a one-line reference to where it was first placed (see walkNested), so an
+ * alias bomb cannot blow up and nothing is counted twice.
  */
 export function loadYaml(text: string, options: LoadOptions): LinkedNodes | GraphNodes {
   const lineCounter = new LineCounter();
@@ -89,7 +90,9 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
   }
   // Values stay as written (an alias is kept, so positions point at it); each use looks through it.
   const deref = (v: YamlValue | undefined): YamlValue => (isAlias(v) ? (target.get(v) ?? null) : (v ?? null));
-  const placed = new Set<Node>();
+  // Where each anchored node object or children list was first placed (the node that holds it).
+  const placedNodes = new Map<Node, number>();
+  const placedLists = new Map<Node, number>();
 
   // Merge keys (`<<: *base`, the YAML 1.1 merge type, yaml.org/type/merge.html): a mapping's own keys
   // come first; then each merged mapping's keys it does not have, earlier mappings in a sequence of
@@ -183,13 +186,16 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
       const at = lineCounter.linePos(v.range[0]);
       return { line: at.line, column: at.col };
     },
-    claim(value) {
-      // Only an anchored node can be reached twice.
+    claim(value, owner, role) {
+      // Only an anchored node can be reached twice (its alias); a node inside an anchored one is reached
+      // again only through it, and a node reached again is not walked into.
       const v = deref(value);
-      if (v === null || !("anchor" in v) || !v.anchor) return true;
-      if (placed.has(v)) return false;
-      placed.add(v);
-      return true;
+      if (v === null || !("anchor" in v) || !v.anchor) return -1;
+      const placed = role === "node" ? placedNodes : placedLists;
+      const first = placed.get(v);
+      if (first !== undefined) return first;
+      placed.set(v, owner);
+      return -1;
     },
   };
   const reading = chooseReading(sampleNested<YamlValue>(root, access), options);

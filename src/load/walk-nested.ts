@@ -28,8 +28,12 @@ export interface NestedAccess<V> {
   line(v: V | undefined): number;
   /** Where `v` is in the input, when known. */
   pos(v: V | undefined): SourcePos | undefined;
-  /** Marks a node or children list as placed; false when it already was (an alias placed it twice). */
-  claim(v: V): boolean;
+  /**
+   * Marks a node object (`role` "node") or children list (`role` "children") as placed by node `owner`;
+   * -1 when it was not placed before, else the node that placed it first (a YAML alias reaches the same
+   * value again).
+   */
+  claim(v: V, owner: number, role: "node" | "children"): number;
 }
 
 /**
@@ -37,6 +41,11 @@ export interface NestedAccess<V> {
  * an own size and children, either an array of node objects or a mapping from child name to a node
  * object, a number (a leaf of that size) or null (a leaf). Nodes are numbered as they are discovered
  * (siblings in input order), so the walk is a loop over that numbering, with no recursion.
+ * A value reached a second time (a YAML alias of a node object or of a children list) is placed once,
+ * where the walk (breadth-first, then input order) first reaches it; every other place it is reached
+ * holds one-line references (`referenceOf`): a node object becomes a reference to its full entry, a
+ * children list gives one reference per child, to that child's entry. References have no size, no
+ * children and count in no node count, so every size and count adds up once.
  */
 export function walkNested<V>(
   root: V,
@@ -54,6 +63,21 @@ export function walkNested<V>(
   // Keys of the first node objects, for the message of a field no node has.
   const seen = new FieldsSeen();
   let hasNames = false;
+  // referenceOf[i] = the node whose full entry node i stands for, -1 for a full entry.
+  let referenceOf = new Int32Array(1024).fill(-1);
+  let references = 0;
+  const refer = (i: number, to: number) => {
+    while (i >= referenceOf.length) {
+      const grown = new Int32Array(referenceOf.length * 2).fill(-1);
+      grown.set(referenceOf);
+      referenceOf = grown;
+    }
+    referenceOf[i] = to;
+    references++;
+  };
+  // A node's children: the index of the first and how many (they are added together).
+  const childStart = new Map<number, number>();
+  const childCount = new Map<number, number>();
 
   const rootKind = access.kind(root);
   if (rootKind === Kind.Map) {
@@ -79,6 +103,11 @@ export function walkNested<V>(
   for (let i = 0; i < sink.length; i++) {
     const v = pending[i] as V;
     pending[i] = undefined;
+    if (i < referenceOf.length && referenceOf[i] !== -1) {
+      // A reference made for a child of a children list placed before: nothing more to read.
+      for (const column of kept) column.push("");
+      continue;
+    }
     const kind = access.kind(v);
     if (kind !== Kind.Map) {
       if (keyed[i] === 1 && kind === Kind.Number) {
@@ -93,7 +122,13 @@ export function walkNested<V>(
       for (const column of kept) column.push("");
       continue;
     }
-    if (!access.claim(v)) throw twoParents(where(i), access.pos(v));
+    const placedAt = access.claim(v, i, "node");
+    if (placedAt !== -1) {
+      // The same node object again (an alias): a reference to its full entry.
+      refer(i, placedAt);
+      for (const column of kept) column.push("");
+      continue;
+    }
     if (seen.wants(i)) {
       keys.length = 0;
       values.length = 0;
@@ -162,30 +197,53 @@ export function walkNested<V>(
         access.pos(children),
       );
     }
-    if (!access.claim(children as V))
-      throw twoParents(say`the "${childrenField}" of ${where(i)}`, access.pos(children));
+    const listedAt = access.claim(children as V, i, "children");
+    if (listedAt !== -1) {
+      // The same children list again (an alias): one reference per child of the list's first place.
+      const start = childStart.get(listedAt) ?? 0;
+      const count = childCount.get(listedAt) ?? 0;
+      for (let c = 0; c < count; c++) {
+        const j = sink.add(i, keyed[start + c] === 1 ? sink.name.get(start + c) : "", access.line(children));
+        pending.push(undefined);
+        if (j >= keyed.length) keyed = grownFlags(keyed);
+        keyed[j] = keyed[start + c];
+        refer(j, start + c);
+      }
+      continue;
+    }
+    const first = sink.length;
     if (childrenKind === Kind.Seq) {
       for (const item of access.items(children as V)) {
         sink.add(i, "", access.line(item));
         pending.push(item);
       }
-      continue;
-    }
-    keys.length = 0;
-    values.length = 0;
-    access.entries(children as V, keys, values);
-    for (let c = 0; c < keys.length; c++) {
-      const j = sink.add(i, keys[c], access.line(values[c]));
-      pending.push(values[c]);
-      if (j >= keyed.length) {
-        const grown = new Uint8Array(keyed.length * 2);
-        grown.set(keyed);
-        keyed = grown;
+    } else {
+      keys.length = 0;
+      values.length = 0;
+      access.entries(children as V, keys, values);
+      for (let c = 0; c < keys.length; c++) {
+        const j = sink.add(i, keys[c], access.line(values[c]));
+        pending.push(values[c]);
+        if (j >= keyed.length) keyed = grownFlags(keyed);
+        keyed[j] = 1;
       }
-      keyed[j] = 1;
     }
+    childStart.set(i, first);
+    childCount.set(i, sink.length - first);
   }
 
+  // A reference stands for its target's full entry (a reference's target may be one itself: follow it);
+  // one in a list takes the entry's name, one keyed by name keeps its key.
+  const linkedReferences = references > 0 ? referenceOf.slice(0, sink.length) : undefined;
+  if (linkedReferences) {
+    for (let j = 0; j < linkedReferences.length; j++) {
+      let to = linkedReferences[j];
+      if (to === -1) continue;
+      while (linkedReferences[to] !== -1) to = linkedReferences[to];
+      linkedReferences[j] = to;
+      if (keyed[j] !== 1) sink.name.setString(j, sink.name.get(to));
+    }
+  }
   const fields = new Map<string, string[]>();
   for (let f = 0; f < keepFields.length; f++) {
     if (!keptSeen[f]) throw missingField("kept", keepFields[f], seen.list(), true);
@@ -211,26 +269,25 @@ export function walkNested<V>(
   }
   if (!sink.hasSizes && sizeFieldNamed(options)) throw missingField("size", sizeField, seen.list(), true);
   if (!hasNames && nameFieldNamed(options)) throw missingField("name", nameField, seen.list(), true);
-  return sink.finish(options.rootName, fields, null, {
+  const linked = sink.finish(options.rootName, fields, null, {
     shape: "nodes",
     sizeUnit: fieldSizeUnit(options.sizeField),
     childrenField,
     ...(found ? { childrenFieldFound: true } : {}),
   });
+  return linkedReferences ? { ...linked, referenceOf: linkedReferences } : linked;
+}
+
+function grownFlags(flags: Uint8Array<ArrayBuffer>): Uint8Array<ArrayBuffer> {
+  const grown = new Uint8Array(flags.length * 2);
+  grown.set(flags);
+  return grown;
 }
 
 function badSize(shown: MessagePart, where: MessagePart[], pos: SourcePos | undefined): EspalierError {
   return new EspalierError(
     "BAD_SIZE",
     say`the size of ${where} must be a number from 0 to 2^53 - 1, got ${shown}`,
-    pos,
-  );
-}
-
-function twoParents(what: MessagePart[], pos: SourcePos | undefined): EspalierError {
-  return new EspalierError(
-    "TWO_PARENTS",
-    say`${what} is an alias of something already placed in the tree, so a node would have two parents`,
     pos,
   );
 }

@@ -20,7 +20,8 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
   };
   checkSizes(input, file);
   const ordered = inPreOrder(input);
-  if (ordered) return ordered;
+  if (ordered)
+    return withReferences(ordered, input.referenceOf, (i) => i + ordered.length - input.parentOf.length);
   const n = input.parentOf.length;
   let tops = 0;
   for (let i = 0; i < n; i++) if (input.parentOf[i] === -1) tops++;
@@ -84,20 +85,40 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
     origin[k] = input.origin[o];
     for (const [key, values] of fieldSources) fields.get(key)![k] = values[o] ?? "";
   }
-  return {
-    length: total,
-    parent,
-    depth,
-    name: input.name.reordered(from, input.rootName),
-    ownSize,
-    hasSizes: input.hasSizes,
-    ids: input.ids === null ? null : input.ids.reordered(from, ""),
-    origin,
-    originIsRow: input.originIsRow,
-    fields,
-    syntheticRoot: synthetic,
-    ...(input.reading ? { reading: input.reading } : {}),
-  };
+  return withReferences(
+    {
+      length: total,
+      parent,
+      depth,
+      name: input.name.reordered(from, input.rootName),
+      ownSize,
+      hasSizes: input.hasSizes,
+      ids: input.ids === null ? null : input.ids.reordered(from, ""),
+      origin,
+      originIsRow: input.originIsRow,
+      fields,
+      syntheticRoot: synthetic,
+      ...(input.reading ? { reading: input.reading } : {}),
+    },
+    input.referenceOf,
+    (i) => newIndex[i],
+  );
+}
+
+/**
+ * The tree with `referenceTo` (slot -> slot of the full entry) from the loader's `referenceOf` (node ->
+ * node), when there are references; `slotOf` maps a node to its slot.
+ */
+function withReferences(
+  tree: Tree,
+  referenceOf: Int32Array | undefined,
+  slotOf: (i: number) => number,
+): Tree {
+  if (referenceOf === undefined) return tree;
+  const referenceTo = new Int32Array(tree.length).fill(-1);
+  for (let i = 0; i < referenceOf.length; i++)
+    if (referenceOf[i] !== -1) referenceTo[slotOf(i)] = slotOf(referenceOf[i]);
+  return { ...tree, referenceTo };
 }
 
 /**

@@ -19,4 +19,10 @@ export interface LinkedNodes {
   rootName: string;
   /** How the loader read the input. */
   reading?: TreeReading;
+  /**
+   * One-line references (a YAML alias reaching a node placed elsewhere): for each node, -1 for a full
+   * entry, else the node whose full entry it stands for (a full entry itself). A reference has no
+   * children and no size; the tree gets it as `referenceTo` (see model/tree.ts).
+   */
+  referenceOf?: Int32Array;
 }

@@ -3,6 +3,7 @@ import { join } from "node:path";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { summarizeFactSession } from "../../src/cli/fact-input.js";
+import type { EspalierError } from "../../src/errors.js";
 import { openFactTable } from "../../src/load/facts/load-facts.js";
 import type { Tree } from "../../src/model/tree.js";
 import { renderJson } from "../../src/render/summary-json.js";
@@ -68,7 +69,7 @@ describe("espalier FILE --key-field … --pushdown always", () => {
             // The smallest budget that holds the foci, from the whole rollup's own error, plus some.
             const least = await summarizeFactSession(session, options, false, false).then(
               () => 1,
-              (err: Error) => Number(/smallest budget that works is (\d+)/.exec(err.message)?.[1]),
+              (err: EspalierError) => err.details.smallest as number,
             );
             const budget = least + extra;
             const whole = await summarizeFactSession(session, { ...options, budget }, false, false);

@@ -10,9 +10,9 @@ import type { ExploreState } from "../../src/explore/state.js";
 import {
   type ExploreEvent,
   fitOf,
-  fociOf,
   GUTTER,
   STATUS_ROWS,
+  specFoci,
   startState,
   update,
 } from "../../src/explore/update.js";
@@ -90,7 +90,7 @@ function checkScreen(s: Session, state: ExploreState): void {
   const marked = screen.rows.filter((row) => row.startsWith(CURSOR_MARK));
   expect(marked.length).toBe(1);
   expect(screen.rows.indexOf(marked[0])).toBe(screen.cursorRow);
-  for (const f of fociOf(state.spec)) expect(fitted.isShown[f]).toBe(1);
+  for (const f of specFoci(state.spec)) expect(fitted.isShown[f]).toBe(1);
   // 3. a prefix of one total order (no hidden node before a shown one), and connected
   const all = [...Array(tree.length).keys()].sort(fitted.order);
   const k = fitted.shown.length;
@@ -99,7 +99,7 @@ function checkScreen(s: Session, state: ExploreState): void {
   // 4. the budget is used up whenever something is hidden
   if (k < tree.length) expect(fitted.lines.length).toBe(budget);
   // 2. nested: a larger budget hides nothing shown here
-  const larger = s.fit(fociOf(state.spec), budget + 3, state.spec.importance, state.cols - GUTTER);
+  const larger = s.fit(specFoci(state.spec), budget + 3, state.spec.importance, state.cols - GUTTER);
   for (const i of fitted.shown) expect(larger.isShown[i]).toBe(1);
   // 5. conservation: nodes and sizes add up at every shown node, and the root holds the whole tree
   let hidden = 0;
@@ -289,7 +289,7 @@ describe("moves on the check tree", () => {
   it("+ pins the node so that it stays a focus after the cursor moves; - and x drop extra foci", () => {
     const pinned = keys(big, named("down"), named("right"), char("+"), named("home"));
     expect(pinned.spec.cursor).toBe(0);
-    expect([...fociOf(pinned.spec)]).toEqual([at("A"), at("A1")].filter((i) => i === at("A1")));
+    expect([...specFoci(pinned.spec)]).toEqual([at("A"), at("A1")].filter((i) => i === at("A1")));
     expect(keys(pinned, char("-")).spec.extra).toEqual([]);
     expect(keys(pinned, char("x")).spec.extra).toEqual([]);
     expect(keys(pinned, named("tab")).spec.cursor).toBe(at("A1"));

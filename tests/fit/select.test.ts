@@ -45,7 +45,7 @@ describe("select({tree, measures, scores, order}, {budget, headerLines, chains})
           })();
           expect(err).toBeInstanceOf(EspalierError);
           expect((err as EspalierError).code).toBe("BUDGET_TOO_SMALL");
-          expect((err as EspalierError).message).toContain(String(forcedCount));
+          expect((err as EspalierError).details).toEqual({ budget, smallest: forcedCount });
           return;
         }
         const sel = run(budget);

@@ -54,9 +54,9 @@ describe("resolveFoci(index, specs)", () => {
   it("throws FOCUS_NO_MATCH and suggests the closest existing path", () => {
     const err = caught(() => resolveFoci(index, ["src/lbi/a.ts"]));
     expect(err.code).toBe("FOCUS_NO_MATCH");
-    expect(err.message).toContain('"src/lib/a.ts"');
+    expect(err.details.suggestions).toContain("src/lib/a.ts");
     const near = caught(() => resolveFoci(index, ["src/tset"]));
-    expect(near.message).toContain('"src/test"');
+    expect(near.details.suggestions).toContain("src/test");
   });
 
   it("neither repeats the spec nor suggests from real names when pseudonyms are on", () => {
@@ -137,6 +137,6 @@ describe("resolveFoci(index, specs) with paths as a listing prints them", () => 
   it("still fails on a listed path that names nothing, suggesting espalier's own spelling", () => {
     const e = caught(() => resolveFoci(indexOf(dot), ["./services/ledgr"]));
     expect(e.code).toBe("FOCUS_NO_MATCH");
-    expect(e.message).toContain('"services/ledger"');
+    expect(e.details.suggestions).toContain("services/ledger");
   });
 });

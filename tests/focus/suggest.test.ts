@@ -145,7 +145,7 @@ describe("resolveFoci(index, specs) with foci that match nothing", () => {
   it("names the nearest foci in FOCUS_NO_MATCH", () => {
     const err = caught(() => resolveFoci(index, ["services/ledgr/src"]));
     expect(err.code).toBe("FOCUS_NO_MATCH");
-    expect(err.message).toContain('"services/ledger/src"');
+    expect(err.details.suggestions).toContain("services/ledger/src");
   });
 
   it("with pseudonyms: does not repeat the typed focus and is no oracle for real names", () => {
@@ -166,7 +166,7 @@ describe("resolveFoci(index, specs) with foci that match nothing", () => {
     const printed = `${seg("services")}/${seg("ledger")}`;
     const typo = `${printed.slice(0, -1)}x`;
     const err = caught(() => resolveFoci(index, [typo], "k"));
-    expect(err.message).toContain(JSON.stringify(printed));
+    expect(err.details.suggestions).toContain(printed);
     expect(err.message).not.toContain(typo);
     expect(err.message).not.toMatch(/ledger|services/);
   });

@@ -116,13 +116,6 @@ const CASES: Case[] = [
     code: "DUPLICATE_PATH",
   },
   {
-    what: "two parents (a YAML alias placed twice)",
-    file: "org.yaml",
-    text: "name: Talia Brenbek\nchildren:\n  - &m {name: Marit Okonkwo}\n  - *m\n",
-    secrets: ["Talia"],
-    code: "TWO_PARENTS",
-  },
-  {
     what: "a JSON syntax error",
     file: "org.json",
     text: '{"name":"Talia", Marit}',

@@ -37,23 +37,13 @@ describe("loadTree(yaml)", () => {
     expect(outline(yaml(text))).toEqual(["lab 0", "  probe 2"]);
   });
 
-  it("loadTree(yaml) rejects an alias that puts one node under two parents as TWO_PARENTS", () => {
+  it("loadTree(yaml) reads an alias placed twice as one entry and a reference (tests/load/yaml-aliases.test.ts)", () => {
     const text = "name: r\nchildren:\n  - &a {name: a}\n  - name: b\n    children: [*a]\n";
-    const error = caught(() => yaml(text));
-    expect(error.code).toBe("TWO_PARENTS");
-    expect(error.pos).toEqual({ line: 5, column: 16 });
-  });
-
-  it("loadTree(yaml) rejects one children list used by two nodes as TWO_PARENTS", () => {
-    const text =
-      "name: r\nchildren:\n  - name: a\n    children: &kids [{name: x}]\n  - name: b\n    children: *kids\n";
-    const error = caught(() => yaml(text));
-    expect(error.code).toBe("TWO_PARENTS");
-    expect(error.pos).toEqual({ line: 6, column: 15 });
-  });
-
-  it("loadTree(yaml) rejects a node that aliases its own ancestor as TWO_PARENTS", () => {
-    expect(caught(() => yaml("&r\nname: r\nchildren: [*r]\n")).code).toBe("TWO_PARENTS");
+    const tree = yaml(text);
+    expect(outline(tree)).toEqual(["r", "  a", "  b", "    a"]);
+    expect([...(tree.referenceTo ?? [])]).toEqual([-1, -1, -1, 1]);
+    // The reference's origin is the alias's line.
+    expect(tree.origin[3]).toBe(5);
   });
 
   it("loadTree(yaml) reports a syntax error as PARSE_YAML at its line and column", () => {

@@ -334,11 +334,8 @@ describe("renderSvg(view, options)", () => {
     expect(xmlEscape("tab\tline\n\u{1f333}")).toBe("tab\tline\n\u{1f333}");
   });
 
-  it("is deterministic: the same view gives byte-identical output", () => {
-    const a = renderSvg(view(tree, ["A/A1"], 6), opts);
-    const b = renderSvg(view(tree, ["A/A1"], 6), opts);
-    expect(a).toBe(b);
-    expect(a).not.toMatch(/\d\.\d{3,}/);
+  it("writes no coordinate with more than two decimals", () => {
+    expect(renderSvg(view(tree, ["A/A1"], 6), opts)).not.toMatch(/\d\.\d{3,}/);
   });
 
   it("fills every block, labels every block and accounts for every node, for any tree, focus, budget and width (property)", () => {
