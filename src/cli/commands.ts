@@ -87,7 +87,7 @@ function defineCommand<S extends z.ZodObject>(def: CommandDef<S>): CommandSpec {
       const early = await def.early?.(line.args, options);
       if (early) return { ...early, target: undefined };
       checkArguments(def, line.args);
-      const target = outputTarget(options as { output?: string; focusFrom?: string }, line);
+      const target = outputTarget(options as { output?: string; focusFrom?: string; nodes?: string[] }, line);
       if (target) {
         const { checkOutputTarget } = await import("./write-output.js");
         await checkOutputTarget(target.file, target.inputs, io.outputFiles);
@@ -124,18 +124,19 @@ function checkArguments(def: CommandDef<z.ZodObject>, args: readonly string[]): 
 }
 
 /**
- * The --output file with the command's inputs: the arguments, the --focus-from file and the config file
- * it may read (--config FILE, else the default names; a name with no file behind it is skipped later).
+ * The --output file with the command's inputs: the arguments, the --focus-from and --nodes files and the
+ * config file it may read (--config FILE, else the default names; a name with no file behind it is
+ * skipped later).
  */
 function outputTarget(
-  options: { output?: string; focusFrom?: string },
+  options: { output?: string; focusFrom?: string; nodes?: string[] },
   line: CommandLine,
 ): OutputTarget | undefined {
   if (options.output === undefined) return undefined;
   const { given } = line;
   const configs =
     given.withoutConfig === true ? [] : typeof given.config === "string" ? [given.config] : CONFIG_FILES;
-  const inputs = [...line.args, options.focusFrom, ...configs].filter(
+  const inputs = [...line.args, options.focusFrom, ...(options.nodes ?? []), ...configs].filter(
     (name): name is string => typeof name === "string",
   );
   return { file: options.output, inputs };

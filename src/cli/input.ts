@@ -25,22 +25,38 @@ export async function loadInput(
   input: string,
   opts: SharedCliOptions,
   rootName: string = rootNameOf(input),
+  nodes: string | undefined = singleNodes(opts),
 ): Promise<Tree> {
   try {
     if (isFactInput(opts)) return await loadFactInput(input, opts, rootName);
     const options: LoadOptions = { ...toLoadOptions(input, opts), rootName };
     // A graph's node records (--nodes) come from a file of their own; its errors name that file.
-    if (opts.nodes !== undefined) options.nodeRecords = await readNodeRecords(io, opts.nodes, options);
+    if (nodes !== undefined) options.nodeRecords = await readNodeRecords(io, nodes, options);
     return await streamTree(io, input, options);
   } catch (err) {
     throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
   }
 }
 
+/** The one `--nodes` table of a run with one input; two are a USAGE error there. */
+function singleNodes(opts: SharedCliOptions): string | undefined {
+  const nodes = opts.nodes ?? [];
+  if (nodes.length > 1)
+    throw new EspalierError(
+      "USAGE",
+      "--nodes is given twice, but there is one input: give it twice only when comparing two versions (OLD's, then NEW's)",
+      undefined,
+      { option: "--nodes" },
+    );
+  return nodes[0];
+}
+
 /**
  * Two versions of one hierarchy, under one root name (NEW's) so that a root espalier adds never shows
  * as renamed. OLD loads on another thread while NEW loads here when the IO can (a named file of a tree
- * format); else one after the other. An error in OLD is reported before one in NEW either way.
+ * format, without node records); else one after the other. An error in OLD is reported before one in
+ * NEW either way. `--nodes` given once gives both versions its node records; given twice, the first
+ * is OLD's and the second NEW's.
  */
 export async function loadVersions(
   io: CliIO,
@@ -50,18 +66,14 @@ export async function loadVersions(
 ): Promise<[Tree, Tree]> {
   if (oldInput === "-" && newInput === "-")
     throw new EspalierError("USAGE", "only one of the two versions can come from standard input");
-  if (opts.nodes !== undefined)
-    throw new EspalierError(
-      "USAGE",
-      "comparing two versions does not read --nodes yet: compare graphs without node records",
-      undefined,
-      { option: "--nodes" },
-    );
+  // --nodes once: one table of node records for both versions; twice: OLD's, then NEW's.
+  const nodes = opts.nodes ?? [];
+  const [oldNodes, newNodes] = nodes.length === 2 ? nodes : [nodes[0], nodes[0]];
   const rootName = rootNameOf(newInput);
-  if (!io.loadInWorker || oldInput === "-" || isFactInput(opts)) {
-    // A fact table's engine uses every core itself: one after the other.
-    const oldTree = await loadInput(io, oldInput, opts, rootName);
-    return [oldTree, await loadInput(io, newInput, opts, rootName)];
+  if (!io.loadInWorker || oldInput === "-" || isFactInput(opts) || oldNodes !== undefined) {
+    // A fact table's engine uses every core itself, and node records are read here: one after the other.
+    const oldTree = await loadInput(io, oldInput, opts, rootName, oldNodes);
+    return [oldTree, await loadInput(io, newInput, opts, rootName, newNodes)];
   }
   const named = (err: unknown) => (err instanceof EspalierError ? err.inFile(displayName(oldInput)) : err);
   const [oldTree, newTree] = await Promise.allSettled([

@@ -282,10 +282,12 @@ export const sharedOptions = {
     group: "Input",
     config: false,
     schema: z
-      .string()
-      .min(1)
-      .optional()
-      .describe("node records of a graph by id (names, sizes, fields) from this CSV/TSV/JSON table"),
+      .array(z.string().min(1))
+      .max(2, { error: "is given at most twice: once for both versions, or OLD's then NEW's" })
+      .default([])
+      .describe(
+        "node records of a graph by id (names, sizes, fields) from this CSV/TSV/JSON table; comparing two versions: once for both, or twice (OLD's, then NEW's)",
+      ),
   },
   maxNodes: {
     flags: "--max-nodes <count>",

@@ -286,6 +286,36 @@ describe("espalier explore", () => {
     expect(printed.stdout).toBe(`${screen.join("\n")}\n`);
   });
 
+  it("explores two versions of a graph with --nodes: once for both, or OLD's then NEW's", async () => {
+    const edges = "fixtures/tidewater-deps.edges";
+    const packages = "fixtures/tidewater-packages.csv";
+    const dir = mkdtempSync(join(tmpdir(), "espalier-explore-nodes-"));
+    const newer = join(dir, "new-packages.csv");
+    // NEW's records give one package another size: 51,000 bytes instead of 40,922.
+    writeFileSync(
+      newer,
+      readFileSync(packages, "utf8").replace(
+        "@tidewater/ledger-core,0.7.5,40922",
+        "@tidewater/ledger-core,0.8.0,51000",
+      ),
+    );
+    const screen = async (nodes: string[]) => {
+      const terminal = new FakeTerminal(["q"], 12, 250);
+      const out = await exploreCommand(
+        edges,
+        edges,
+        options({ inputFormat: "edges", sizeField: "size", nodes, units: "bytes" }),
+        io(),
+        { terminal },
+      );
+      expect(out.exitCode).toBe(0);
+      return terminal.lastFrame().join("\n");
+    };
+    expect(await screen([packages])).toMatch(/0 edited, 0 resized, .* \(net \+0 B\)/);
+    // 51,000 - 40,922 = 10,078 bytes = 9.8 KiB (IEC 80000-13 binary prefix, 1 KiB = 1,024 B).
+    expect(await screen([packages, newer])).toMatch(/0 edited, 1 resized, .* \(net \+9\.8 KiB\)/);
+  });
+
   it("reports an input or focus error as the summary does, before taking the terminal, naming no real name under --pseudonymize", async () => {
     const env = { ESPALIER_PSEUDONYM_KEY: "kept-out-of-the-log" };
     const tree = loadTree(readFileSync(ORG, "utf8"), { ...defaultLoadOptions, parentField: "manager" });

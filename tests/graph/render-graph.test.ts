@@ -1,4 +1,6 @@
-import { readFileSync } from "node:fs";
+import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import Ajv2020 from "ajv/dist/2020.js";
 import { Parser } from "commonmark";
 import { describe, expect, it } from "vitest";
@@ -140,15 +142,103 @@ describe("espalier --input-format edges (command line)", () => {
     expect(doc.totals.size).toBe(rows.reduce((s, r) => s + Number(r.split(",")[2]), 0));
   });
 
-  it("refuses --nodes in a diff and in a config file (usage errors), never ignoring it", async () => {
-    const diff = await cli(["diff", EDGES, EDGES, "--input-format", "edges", "--nodes", PACKAGES]);
-    expect(diff.code).toBe(2);
-    expect(diff.stderr).toContain("[USAGE]");
+  it("diff reads --nodes once for both versions, or twice (OLD's, then NEW's)", async () => {
+    // One table for both: the records are the same, so only edges can change; none did.
+    const same = await cli([
+      "diff",
+      EDGES,
+      EDGES,
+      "--input-format",
+      "edges",
+      "--nodes",
+      PACKAGES,
+      "--format",
+      "json",
+    ]);
+    expect(same.code, same.stderr).toBe(0);
+    const rows = readFileSync(PACKAGES, "utf8").trim().split("\n").slice(1);
+    const total = rows.reduce((s, r) => s + Number(r.split(",")[2]), 0);
+    const doc = JSON.parse(same.stdout);
+    expect(doc.totals.old).toMatchObject({ nodes: rows.length, size: total });
+    expect(doc.totals.new).toMatchObject({ nodes: rows.length, size: total });
+    // Two tables: NEW's records give ledger-core another version and size: one edited node (its size
+    // change shown on the same line), the net change the size difference (51,000 - 40,922).
+    const newer = readFileSync(PACKAGES, "utf8").replace(
+      "@tidewater/ledger-core,0.7.5,40922",
+      "@tidewater/ledger-core,0.8.0,51000",
+    );
+    const files = { "new-packages.csv": newer };
+    const args = [
+      "diff",
+      EDGES,
+      EDGES,
+      "--input-format",
+      "edges",
+      "--nodes",
+      PACKAGES,
+      "--nodes",
+      "new-packages.csv",
+    ];
+    const two = await cli([...args, "--compare-field", "version", "--format", "json", "--fail-on-change"], {
+      files,
+    });
+    expect(two.code, two.stderr).toBe(1);
+    const changed = JSON.parse(two.stdout);
+    expect(changed.totals.delta).toBe(51000 - 40922);
+    expect(changed.changes.edited).toBe(1);
+    // Given in the other order, the versions' records swap: the change reverses.
+    const back = await cli(
+      [
+        "diff",
+        EDGES,
+        EDGES,
+        "--input-format",
+        "edges",
+        "--nodes",
+        "new-packages.csv",
+        "--nodes",
+        PACKAGES,
+        "--format",
+        "json",
+      ],
+      { files },
+    );
+    expect(JSON.parse(back.stdout).totals.delta).toBe(40922 - 51000);
+  });
+
+  it("refuses --nodes three times, twice for one input, and in a config file (usage errors)", async () => {
+    const three = await cli([
+      "diff",
+      EDGES,
+      EDGES,
+      "--input-format",
+      "edges",
+      "--nodes",
+      PACKAGES,
+      "--nodes",
+      PACKAGES,
+      "--nodes",
+      PACKAGES,
+    ]);
+    expect(three.code).toBe(2);
+    expect(three.stderr).toContain("[USAGE]");
+    const twice = await cli([EDGES, "--input-format", "edges", "--nodes", PACKAGES, "--nodes", PACKAGES]);
+    expect(twice.code).toBe(2);
+    expect(twice.stderr).toContain("comparing two versions");
     const config = await cli([EDGES, "--input-format", "edges"], {
       files: { ".espalier.yaml": `nodes: ${PACKAGES}\n` },
     });
     expect(config.code).toBe(2);
     expect(config.stderr).toContain("[USAGE]");
+  });
+
+  it("never lets --output overwrite a --nodes table", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "espalier-nodes-output-"));
+    const records = join(dir, "p.csv");
+    writeFileSync(records, readFileSync(PACKAGES, "utf8"));
+    const r = await cli([EDGES, "--input-format", "edges", "--nodes", records, "--output", records]);
+    expect(r.code).toBe(2);
+    expect(readFileSync(records, "utf8")).toBe(readFileSync(PACKAGES, "utf8"));
   });
 
   it("keeps --pseudonymize: no name or id, also in reference paths, reaches the output", async () => {

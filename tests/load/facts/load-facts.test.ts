@@ -70,6 +70,18 @@ describe("loadFactTable(CSV, --levels)", () => {
     expect(await loadFacts(jsonl, "jsonl", levelsOptions(LEVELS, "cost"))).toEqual(fromCsv);
   });
 
+  it("reads the same table as TSV (tab-separated, no quoting) to the same tree as the CSV", async () => {
+    const tsv = join(dir, "export.tsv");
+    const header = Object.keys(records[0]);
+    // Source: the csv-parse records above (RFC 4180), written with tabs per the IANA registration of
+    // text/tab-separated-values (fields separated by tabs, no quoting); none of the cells holds a tab.
+    expect(records.every((r) => header.every((c) => !/[\t\r\n]/.test(r[c])))).toBe(true);
+    const lines = [header.join("\t"), ...records.map((r) => header.map((c) => r[c]).join("\t"))];
+    writeFileSync(tsv, `${lines.join("\n")}\n`);
+    const fromCsv = await loadFacts(fixture, "csv", levelsOptions(LEVELS, "cost"));
+    expect(await loadFacts(tsv, "tsv", levelsOptions(LEVELS, "cost"))).toEqual(fromCsv);
+  });
+
   it('makes a missing level value a node named "", so no row is dropped', async () => {
     const file = join(dir, "gaps.csv");
     writeFileSync(file, "a,b,c,size\nx,,z,1\nx,y,,2\n,,,4\n");
