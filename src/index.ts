@@ -2,6 +2,7 @@
 
 export { type ChangeCounts, type ChangeKind, changeKinds } from "./diff/changes.js";
 export {
+  type CompareOptions,
   type DiffOptions,
   type DiffResult,
   diffTrees,
@@ -10,33 +11,50 @@ export {
 } from "./diff/diff-trees.js";
 export type { DiffFolded, DiffViewNode } from "./diff/diff-view.js";
 export type { DiffTotals, PreparedDiff } from "./diff/prepared-diff.js";
-export { type ErrorCode, EspalierError, errorCodes, formatPos, type SourcePos } from "./errors.js";
-export { type Selection, select } from "./fit/select.js";
+export {
+  type ErrorCode,
+  type ErrorDetails,
+  EspalierError,
+  errorCodes,
+  formatPos,
+  type InputText,
+  type MessagePart,
+  type SourcePos,
+} from "./errors.js";
+export {
+  type ChildrenInOrder,
+  type Ranked,
+  type Selection,
+  type SelectOptions,
+  select,
+} from "./fit/select.js";
 export type { FocusSpec, ListedFocus, UnmatchedFoci } from "./focus/focus-spec.js";
 export { resolveFoci } from "./focus/resolve.js";
-export { resolveSpecs } from "./focus/resolve-specs.js";
+export { type ResolvedFoci, resolveSpecs } from "./focus/resolve-specs.js";
 export { fromArrays, type Interest, interest } from "./interest/doi.js";
 export { type Importance, importance, importances } from "./interest/importance.js";
 export { interestNear } from "./interest/near.js";
 export { type NodeOrder, nodeOrder } from "./interest/order.js";
 export { FAR, type Scores } from "./interest/scores.js";
-export { detectFormat, loadTree } from "./load/index.js";
+export { detectFormat, type FieldNames } from "./load/detect-format.js";
+export { loadTree } from "./load/index.js";
 export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } from "./load/load-options.js";
 export { loadTreeFromStream } from "./load/stream/index.js";
 export { buildTree } from "./model/build-tree.js";
 export type { LinkedNodes } from "./model/linked-nodes.js";
 export { type Measures, measure } from "./model/measure.js";
-export { NamePool, type Names, namesToArray, StringNames } from "./model/names.js";
+export { type Names, namesToArray, StringNames } from "./model/names.js";
 export { PathIndex } from "./model/path-index.js";
 export { escapeSegment, parseSegment, splitPath } from "./model/segment.js";
 export type { Tree } from "./model/tree.js";
-export { renderDiffJson, toDiffSummary } from "./render/diff-json.js";
+export type { NumberOptions } from "./render/amount.js";
+export { type DiffJsonOptions, renderDiffJson, toDiffSummary } from "./render/diff-json.js";
 export { renderDiffMarkdown } from "./render/diff-markdown.js";
 export { DIFF_FORMAT, type DiffSummary, diffSchema } from "./render/diff-schema.js";
-export { renderDiffText } from "./render/diff-text.js";
+export { type DiffTextOptions, renderDiffText } from "./render/diff-text.js";
 export { formatSize, type Units } from "./render/format-size.js";
-export { type HeaderOptions, summaryHeader } from "./render/header.js";
-export { renderSvg } from "./render/icicle-svg.js";
+export { type HeaderOptions, type HeaderStyle, summaryHeader } from "./render/header.js";
+export { renderSvg, type SvgOptions } from "./render/icicle-svg.js";
 export { type LineGroup, lineGroups } from "./render/line-groups.js";
 export {
   CHAIN_JOIN,
@@ -48,9 +66,9 @@ export {
 export { lineParts } from "./render/line-parts.js";
 export { LEGEND_LINES, legendLines, MARK } from "./render/marks.js";
 export { type Palette, palette } from "./render/palette.js";
-export { renderJson, toSummary } from "./render/summary-json.js";
-export { renderMarkdown } from "./render/summary-markdown.js";
+export { type JsonOptions, renderJson, toSummary } from "./render/summary-json.js";
+export { type MarkdownOptions, renderMarkdown } from "./render/summary-markdown.js";
 export { SUMMARY_FORMAT, type Summary, summarySchema } from "./render/summary-schema.js";
-export { renderText } from "./render/summary-text.js";
+export { renderText, type TextOptions } from "./render/summary-text.js";
 export { type Prepared, prepare, type SummarizeOptions, type SummaryResult, summarize } from "./summarize.js";
 export type { Folded, ViewNode } from "./view/view-node.js";

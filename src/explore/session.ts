@@ -17,7 +17,7 @@ import { lineGroups } from "../render/line-groups.js";
 import { layoutLine } from "../render/line-layout.js";
 import { lineParts } from "../render/line-parts.js";
 import type { Palette } from "../render/palette.js";
-import { type Prepared, summarize } from "../summarize.js";
+import { type Prepared, type SummarizeOptions, summarize } from "../summarize.js";
 import type { ViewNode } from "../view/view-node.js";
 import { NameSearch } from "./search.js";
 
@@ -78,26 +78,13 @@ export interface Session {
 /** A session over one prepared tree. */
 export function summarySession(prepared: Prepared, look: LookOptions): Session {
   const { tree, measures, index } = prepared;
-  const { nameOf, pathOf } = printedNames(tree, index, look.pseudonymKey);
   return {
     kind: "summary",
-    tree,
-    measures,
-    index,
-    nameOf,
-    pathOf,
+    ...sessionOf(tree, measures, index, look),
     landmarks: new Int32Array(0),
     headerLines: 0,
-    search: new NameSearch(tree, measures, look.pseudonymKey),
     fit: remember((foci, budget, importance, width) => {
-      const result = summarize(prepared, {
-        foci: [...foci].map((i) => index.path(i)),
-        budget,
-        importance,
-        label: look.label,
-        pseudonymKey: look.pseudonymKey,
-        chains: look.chains,
-      });
+      const result = summarize(prepared, fitOptions(index, look, foci, budget, importance));
       // The lines `espalier` prints, through the shared line layout (render/line-layout.ts).
       const numbers = { units: look.units, sizes: tree.hasSizes };
       const lineOf = lineGroups(result.view, look.chains);
@@ -119,28 +106,15 @@ export function summarySession(prepared: Prepared, look: LookOptions): Session {
 export function diffSession(prepared: PreparedDiff, look: LookOptions): Session {
   const { combined, measures, index, changeMeasures } = prepared;
   const { tree } = combined;
-  const { nameOf, pathOf } = printedNames(tree, index, look.pseudonymKey);
   const changed: number[] = [];
   for (let i = 0; i < tree.length; i++) if (combined.kind[i] !== 0) changed.push(i);
   return {
     kind: "diff",
-    tree,
-    measures,
-    index,
-    nameOf,
-    pathOf,
+    ...sessionOf(tree, measures, index, look),
     landmarks: Int32Array.from(changed),
     headerLines: DIFF_HEADER_LINES,
-    search: new NameSearch(tree, measures, look.pseudonymKey),
     fit: remember((foci, budget, importance, width) => {
-      const result = summarizeDiff(prepared, {
-        foci: [...foci].map((i) => index.path(i)),
-        budget,
-        importance,
-        label: look.label,
-        pseudonymKey: look.pseudonymKey,
-        chains: look.chains,
-      });
+      const result = summarizeDiff(prepared, fitOptions(index, look, foci, budget, importance));
       // The totals line, then the diff's lines through the shared line layout, as `espalier diff` prints.
       const numbers = { units: look.units, sizes: tree.hasSizes };
       const lineOf = lineGroups(result.view, look.chains);
@@ -158,6 +132,30 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
       const order = diffOrder(tree, measures, result.scores, changeMeasures);
       return fitted(lines, groups, result.selection, order, DIFF_HEADER_LINES, result.view);
     }),
+  };
+}
+
+/** What a session of either kind holds of its tree: the tree, how its nodes print, and the live search. */
+function sessionOf(tree: Tree, measures: Measures, index: PathIndex, look: LookOptions) {
+  const { nameOf, pathOf } = printedNames(tree, index, look.pseudonymKey);
+  return { tree, measures, index, nameOf, pathOf, search: new NameSearch(tree, measures, look.pseudonymKey) };
+}
+
+/** The library's options for one fit: the foci as paths, and how the look prints lines. */
+function fitOptions(
+  index: PathIndex,
+  look: LookOptions,
+  foci: Int32Array,
+  budget: number,
+  importance: Importance,
+): SummarizeOptions {
+  return {
+    foci: [...foci].map((i) => index.path(i)),
+    budget,
+    importance,
+    label: look.label,
+    pseudonymKey: look.pseudonymKey,
+    chains: look.chains,
   };
 }
 

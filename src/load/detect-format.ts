@@ -2,7 +2,8 @@ import { EspalierError } from "../errors.js";
 import { defaultLoadOptions, type InputFormat, type LoadOptions } from "./load-options.js";
 import { isRowsValue } from "./rows-shape.js";
 
-type FieldNames = Pick<LoadOptions, "childrenField" | "idField" | "parentField" | "pathField">;
+/** The field names that tell a table's columns (and a document's children) apart. */
+export type FieldNames = Pick<LoadOptions, "childrenField" | "idField" | "parentField" | "pathField">;
 
 const byExtension: ReadonlyArray<[string, InputFormat]> = [
   [".yaml", "yaml"],
