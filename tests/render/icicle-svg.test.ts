@@ -401,7 +401,10 @@ describe("renderSvg(view, options)", () => {
         b.kind.split(" ").includes(k),
       );
       if (kind) {
-        expect(texts(b).some((t) => t.startsWith(kind)), `${b.title}`).toBe(true);
+        expect(
+          texts(b).some((t) => t.startsWith(kind)),
+          `${b.title}`,
+        ).toBe(true);
         changed++;
       }
     }
