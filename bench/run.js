@@ -1,7 +1,7 @@
 // espalier's benchmark: full summary time and peak memory against the floor (the least any loader must
 // spend: read and parse, no tree), per input format, on a generated tree; the real command line beside
 // it, its peak memory taken from outside. Informs; never gates (exit 0 whatever the ratios).
-// Usage: npm run bench -- [--nodes N[,N...]] [--only json,csv,paths,inventory,diff] [--repeat N] [--budget N]
+// Usage: npm run bench -- [--only deep-svg] | [--nodes N[,N...]] [--only json,csv,paths,inventory,diff] [--repeat N] [--budget N]
 //                         [--calls N] [--heap MiB] [--cpu-prof] [--no-cli] [--no-memory] [--no-diff]
 //                         [--rss-from auto|time|proc] [--force-data] [--big [--big-nodes N]]
 //                         [--no-graph] [--graph-nodes N] [--only graph]
@@ -98,6 +98,11 @@ log(
   `baseline: an empty Node process peaks at ${results.baseline.maxRssMiB} MiB; default heap limit ` +
     `${Math.round(results.baseline.heapLimit / MiB)} MiB; CLI peak memory from ${results.peakFrom}`,
 );
+
+if (options.deepSvgOnly) {
+  process.stdout.write(deepSvgLine(benchDeepSvg()));
+  process.exit(0);
+}
 
 let firstManifest;
 for (const nodes of options.diffOnly || options.big || options.graphOnly ? [] : options.sizes) {
@@ -1098,6 +1103,11 @@ function parseArgs(argv) {
       o.sizes = [...new Set(o.sizes)].sort((x, y) => x - y);
     } else if (a === "--only") {
       const list = value().split(",");
+      // The SVG of a 100,000-deep chain alone (issue 12.7's line).
+      if (list.length === 1 && list[0] === "deep-svg") {
+        o.deepSvgOnly = true;
+        continue;
+      }
       for (const f of list)
         if (!FORMATS.includes(f) && f !== "diff" && f !== "inventory" && f !== "graph")
           usage(`--only: unknown format ${f} (${FORMATS.join(",")},inventory,diff,graph)`);

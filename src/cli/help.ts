@@ -1,5 +1,5 @@
 import { displayWidth } from "../render/display-width.js";
-import { MARK } from "../render/line-parts.js";
+import { legendLines } from "../render/marks.js";
 import type { CommandSpec } from "./commands.js";
 import type { OptionFlags } from "./option-flags.js";
 import { type CommandName, commandNames, commandOptions, type OptionGroup, optionGroups } from "./options.js";
@@ -70,7 +70,8 @@ export function renderHelp(command: CommandName, commands: Record<CommandName, C
     );
 
   out.push(`Reading ${command === "diff" ? "a diff" : "the output"}`);
-  for (const line of readingLines(command))
+  // The same lines as --legend prints under the header (one source, src/render/marks.ts).
+  for (const line of legendLines(command === "diff" ? "diff" : "summary"))
     out.push(...wrap(line, WIDTH - INDENT.length).map((l) => INDENT + l));
   out.push("", ...wrap(spec.notes, WIDTH), "");
 
@@ -102,24 +103,6 @@ function optionText(flags: OptionFlags): string {
     if (hasDefault) text += `; when not given: ${String(defaultValue)}`;
   } else if (hasDefault) text += `. When not given: ${String(defaultValue)}`;
   return text;
-}
-
-/** What the marks, numbers and folds of the text output mean. */
-function readingLines(command: CommandName): string[] {
-  const path = command === "diff" ? "a change, or on the way to one or to a focus" : "on the way to a focus";
-  const lines = [
-    `${MARK.focus} a focus   ${MARK.path} ${path}   ${MARK.other} any other node shown`,
-    "a / b: b is a's only child, on a's line. After the name: the nodes in its subtree (itself " +
-      "included) and their size; a line without a count is one node.",
-    "+K more: N nodes, SIZE: K children folded away, with everything below them. On every line, the " +
-      "nodes = 1 + the nodes of the lines below it + the folded ones.",
-  ];
-  if (command === "diff")
-    lines.push(
-      "[added] [removed] [moved from PARENT] [renamed from NAME] [edited FIELD OLD -> NEW] [resized ±SIZE] say how a node " +
-        "changed; net ±SIZE is its subtree's change in size; a fold also counts the changes it hides.",
-    );
-  return lines;
 }
 
 /** `name` then `text` from column `at` (or on the next line when `name` reaches it), wrapped under itself. */

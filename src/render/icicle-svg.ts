@@ -7,7 +7,7 @@ import {
   treeChangeKinds,
 } from "../diff/changes.js";
 import type { ViewNode } from "../view/view-node.js";
-import { amount, formatCount } from "./amount.js";
+import { amount, formatCount, type NumberOptions } from "./amount.js";
 import { displayWidth, shortenEnd } from "./display-width.js";
 import { formatSize, type Units } from "./format-size.js";
 import { type IcicleBlock, type IcicleLayout, type IcicleMember, icicle } from "./icicle-layout.js";
@@ -81,10 +81,11 @@ const MARK = 8;
 const MARK_ROOM = MARK + 3;
 const MARGIN = 10;
 /**
- * The narrowest block drawn, in pixels: room for four columns of label (a name cut to `Ros…`, a
- * count `+12`) beside a diff's change mark. Siblings narrower than this are drawn as one group.
+ * The narrowest block drawn, in pixels: room for five columns of label (a name cut to `Rosa…`, a
+ * count `+123`) beside a diff's change mark, which leaves seven columns of numbers (`1.2 MiB`,
+ * `58.3M`). Siblings narrower than this are drawn as one group.
  */
-export const MIN_BLOCK = 2 * PAD + 4 * LABEL_PX * COLUMN + MARK_ROOM;
+export const MIN_BLOCK = 2 * PAD + 5 * LABEL_PX * COLUMN + MARK_ROOM;
 const MIN_WIDTH = 200;
 /** Columns of label a block on a focus path is widened to hold. */
 const PATH_COLUMNS = 40;
@@ -96,6 +97,8 @@ const TOOLTIP_PATH = 960;
 /** Members of a group its tooltip lists by name. */
 const TOOLTIP_MEMBERS = 40;
 const HEADING_ROW = 24;
+/** Distance between the lines of a wrapped heading. */
+const HEADING_LINE = 17;
 const PATTERN = "espalier-folded";
 
 /**
@@ -110,7 +113,11 @@ export function renderSvg<T extends ViewNode>(view: HierarchyNode<T>, options: S
   const width = pictureWidth(options);
   const inner = width - 2 * MARGIN;
   const { blocks, widened } = pictureLayout(view, options);
-  const top = options.heading ? HEADING_ROW : 0;
+  // The heading wraps at spaces (its facts are separated by "; "), so that nothing of it is lost.
+  const heading = options.heading
+    ? wrapWords(options.heading, Math.floor(inner / (HEADING_PX * COLUMN)))
+    : [];
+  const top = heading.length > 0 ? HEADING_ROW + (heading.length - 1) * HEADING_LINE : 0;
   const rowsHeight = blocks.reduce((h, b) => Math.max(h, b.y1), 0);
   const changed = new Set(
     blocks.map((b) => (b.folded ? null : (options.changeOf?.(b.node) ?? null))).filter((k) => k !== null),
@@ -131,12 +138,11 @@ export function renderSvg<T extends ViewNode>(view: HierarchyNode<T>, options: S
     `<title>${xmlEscape(`Summary of ${shownLabel(view.data.label)}`)}</title>`,
     defs(),
     `<rect width="100%" height="100%" fill="${LOOK.background}"/>`,
-    ...(options.heading
-      ? [
-          `<text class="heading" x="${MARGIN}" y="${MARGIN + 15}" font-size="${HEADING_PX}" fill="${LOOK.ink}">` +
-            `${xmlEscape(shortenEnd(options.heading, Math.floor(inner / (HEADING_PX * COLUMN))))}</text>`,
-        ]
-      : []),
+    ...heading.map(
+      (line, k) =>
+        `<text class="heading" x="${MARGIN}" y="${MARGIN + 15 + k * HEADING_LINE}" font-size="${HEADING_PX}" fill="${LOOK.ink}">` +
+        `${xmlEscape(line)}</text>`,
+    ),
     `<g class="icicle" transform="translate(${MARGIN} ${MARGIN + top})">`,
     ...ordered.map((b) => block(b, options)),
     "</g>",
@@ -162,7 +168,7 @@ export function pictureLayout<T extends ViewNode>(
     weight: options.sizes ? "size" : "nodes",
     width: pictureWidth(options) - 2 * MARGIN,
     rowHeight: ROW,
-    floor: floorOf,
+    floor: (node) => floorOf(node, options),
     floorShare: WIDENING_CAP,
     minBlock: MIN_BLOCK,
   });
@@ -173,10 +179,14 @@ export function pictureLayout<T extends ViewNode>(
  * columns); anything else none (it is drawn by size, or grouped with its narrow siblings). All these
  * floors together take at most {@link WIDENING_CAP} of the width; the legend says how much is widened.
  */
-function floorOf(node: ViewNode): number {
+function floorOf<T extends ViewNode>(node: T, options: SvgOptions<T>): number {
   if (!(node.focus || node.onPath)) return 0;
-  const columns = Math.min(displayWidth(shownLabel(node.label)), PATH_COLUMNS);
-  return Math.max(MIN_BLOCK, columns * LABEL_PX * COLUMN + 2 * PAD);
+  const label = Math.min(displayWidth(shownLabel(node.label)), PATH_COLUMNS) * LABEL_PX * COLUMN;
+  // Room for the numbers too, written compact (the shortest that still has count and size).
+  const change = options.changeOf?.(node) ?? null;
+  const shortest = numbers({ node, folded: false }, options, change)[1] ?? "";
+  const figures = Math.min(displayWidth(shortest), PATH_COLUMNS) * NUMBER_PX * COLUMN;
+  return Math.max(MIN_BLOCK, Math.max(label + (change ? MARK_ROOM : 0), figures) + 2 * PAD);
 }
 
 function defs(): string {
@@ -290,7 +300,7 @@ function labels<T extends ViewNode>(
  * A removed node holds nothing now, so only its count is shown.
  */
 function numbers<T extends ViewNode>(
-  { node, folded }: IcicleBlock<T>,
+  { node, folded }: { node: T; folded: boolean },
   options: SvgOptions<T>,
   change: ChangeKind | null,
 ): string[] {
@@ -298,13 +308,28 @@ function numbers<T extends ViewNode>(
   const { nodes, size } = folded ? node.hidden! : node;
   const sizes = options.sizes && change !== "removed";
   const always = folded;
-  const plain = [
-    amount(nodes, size, { ...options, sizes, always }),
-    sizes ? formatSize(size, options.units) : "",
-    amount(nodes, size, { ...options, sizes: false, always }),
-  ];
+  const plain = numberTexts(nodes, size, { ...options, sizes }, always);
+  // A diff's fold says what changed inside it, as the text format's fold does.
+  if (folded) return withChanges(plain, [{ node, folded }], options);
   // A diff's change shows in words inside its block, before the numbers, and alone when they do not fit.
   const texts = change ? [...plain.map((t) => (t ? `${change}: ${t}` : change)), change] : plain;
+  return texts.filter((t, k) => t !== "" && texts.indexOf(t) === k);
+}
+
+/**
+ * A block's numbers, longest first: count and size, then both compact (`12.1k nodes, 286M`), then
+ * the size alone, compact, then the count alone, compact; the first that fits is drawn, so a
+ * narrow block keeps its size when its name is cut.
+ */
+function numberTexts(nodes: number, size: number, options: NumberOptions, always: boolean): string[] {
+  const texts = [
+    amount(nodes, size, { ...options, always }),
+    amount(nodes, size, { ...options, always, compact: true }),
+    options.sizes ? formatSize(size, options.units) : "",
+    options.sizes ? amount(0, size, { ...options, compact: true }) : "",
+    amount(nodes, size, { ...options, sizes: false, always }),
+    amount(nodes, size, { ...options, sizes: false, always, compact: true }),
+  ];
   return texts.filter((t, k) => t !== "" && texts.indexOf(t) === k);
 }
 
@@ -322,11 +347,18 @@ function groupNames<T extends ViewNode>(members: IcicleMember<T>[]): string[] {
 /** A group's numbers (nodes and size together), or in a diff what changed among them first. */
 function groupNumbers<T extends ViewNode>(members: IcicleMember<T>[], options: SvgOptions<T>): string[] {
   const totals = groupTotals(members);
-  const plain = [
-    amount(totals.nodes, totals.size, { ...options, always: true }),
-    options.sizes ? formatSize(totals.size, options.units) : "",
-    amount(totals.nodes, totals.size, { ...options, sizes: false, always: true }),
-  ].filter((t) => t !== "");
+  return withChanges(numberTexts(totals.nodes, totals.size, options, true), members, options);
+}
+
+/**
+ * In a diff, what changed among `members` (`2 removed, 1 added`, then `3 changed`) before the
+ * numbers, or `none changed`; the numbers alone in a summary.
+ */
+function withChanges<T extends ViewNode>(
+  plain: string[],
+  members: IcicleMember<T>[],
+  options: SvgOptions<T>,
+): string[] {
   if (!options.changesIn) return plain;
   const changes = noChanges();
   for (const m of members) {
@@ -335,7 +367,9 @@ function groupNumbers<T extends ViewNode>(members: IcicleMember<T>[], options: S
   }
   const words = changeKinds.filter((k) => changes[k] > 0).map((k) => `${formatCount(changes[k])} ${k}`);
   const total = changeKinds.reduce((n, k) => n + changes[k], 0);
-  return total > 0 ? [words.join(", "), `${formatCount(total)} changed`] : ["none changed", ...plain];
+  return total > 0
+    ? [words.join(", "), `${formatCount(total)} changed`, ...plain]
+    : ["none changed", ...plain];
 }
 
 function groupTotals<T extends ViewNode>(members: IcicleMember<T>[]): { nodes: number; size: number } {
@@ -358,7 +392,8 @@ function comb(x0: number, x1: number, y1: number): string {
 
 /** The first text that fits `room` pixels; with `shorten`, the last cut at its end; else null. */
 function fitted(texts: string[], room: number, px: number, shorten = false): string | null {
-  const columns = Math.floor(room / (px * COLUMN));
+  // A hair of slack: a block widened to exactly its label must still take it whole.
+  const columns = Math.floor(room / (px * COLUMN) + 1e-6);
   for (const t of texts) if (displayWidth(t) <= columns) return t;
   return shorten && columns >= 2 ? shortenEnd(texts[texts.length - 1], columns) : null;
 }
@@ -444,6 +479,8 @@ function changeMark(kind: ChangeKind, x: number, y: number, s: number): string {
 interface LegendItem {
   swatch: string;
   text: string;
+  /** The text wrapped to the legend's width (set by `layoutLegend`). */
+  lines?: string[];
   x: number;
   y: number;
 }
@@ -503,28 +540,59 @@ function legendItems<T extends ViewNode>(
   return items.map((item) => ({ ...item, x: 0, y: 0 }));
 }
 
-/** Places the legend's items left to right, wrapping at `width`; returns the number of rows. */
+/**
+ * Places the legend's items left to right, wrapping at `width`; an item wider than the whole width
+ * has its words wrapped onto lines of its own. Returns the legend's height in rows.
+ */
 function layoutLegend(items: LegendItem[], width: number): number {
   let x = 0;
   let row = 0;
+  let rowLines = 1;
   for (const item of items) {
-    const w = (item.swatch ? SWATCH + 6 : 0) + displayWidth(item.text) * LABEL_PX * COLUMN + 22;
+    const lead = item.swatch ? SWATCH + 6 : 0;
+    const columns = Math.max(4, Math.floor((width - lead) / (LABEL_PX * COLUMN)));
+    item.lines = wrapWords(item.text, columns);
+    const w = lead + Math.max(...item.lines.map(displayWidth)) * LABEL_PX * COLUMN + 22;
     if (x > 0 && x + w > width) {
       x = 0;
-      row++;
+      row += rowLines;
+      rowLines = 1;
     }
     item.x = x;
     item.y = row * LEGEND_ROW;
+    rowLines = Math.max(rowLines, item.lines.length);
     x += w;
   }
-  return row + 1;
+  return row + rowLines;
+}
+
+/**
+ * `text` in lines of at most `columns` (UAX #11 widths), broken at spaces; a word longer than a
+ * line is cut at its end.
+ */
+function wrapWords(text: string, columns: number): string[] {
+  const lines: string[] = [];
+  let line = "";
+  for (const word of text.split(" ")) {
+    const next = line === "" ? word : `${line} ${word}`;
+    if (displayWidth(next) <= columns) line = next;
+    else {
+      if (line !== "") lines.push(line);
+      line = displayWidth(word) <= columns ? word : shortenEnd(word, columns);
+    }
+  }
+  lines.push(line);
+  return lines;
 }
 
 function legendItem(item: LegendItem): string {
   const textX = item.swatch ? SWATCH + 6 : 0;
   return (
     `<g transform="translate(${num(item.x)} ${num(item.y)})">${item.swatch}` +
-    `<text x="${textX}" y="${SWATCH - 4}">${xmlEscape(item.text)}</text></g>`
+    (item.lines ?? [item.text])
+      .map((line, k) => `<text x="${textX}" y="${SWATCH - 4 + k * LEGEND_ROW}">${xmlEscape(line)}</text>`)
+      .join("") +
+    "</g>"
   );
 }
 

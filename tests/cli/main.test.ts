@@ -2,6 +2,8 @@ import { readFile } from "node:fs/promises";
 import { describe, expect, it } from "vitest";
 import { commandOptions, optionGroups } from "../../src/cli/options.js";
 import { flagsByKey } from "../../src/cli/parse-command-line.js";
+import { SVG_PX_PER_COLUMN } from "../../src/render/icicle-svg.js";
+import { LEGEND_LINES, legendLines } from "../../src/render/marks.js";
 import { cli } from "../helpers/cli.js";
 
 const ORG = "fixtures/quillfeather-org.csv";
@@ -189,5 +191,33 @@ describe("espalier <input> --format markdown|svg", () => {
     expect(svg.code).toBe(0);
     expect(svg.stdout.startsWith("<svg")).toBe(true);
     expect(svg.stdout.trimEnd().endsWith("</svg>")).toBe(true);
+  });
+});
+
+describe("espalier <input> --legend, --help and --width", () => {
+  const stdin = "10\ta/x\n20\ta/y\n5\tb/z\n";
+
+  it("prints the legend under the header, counted by the budget, and the same lines in --help", async () => {
+    const r = await cli(["-", "--legend", "--budget", "5"], { stdin });
+    expect(r.code).toBe(0);
+    const lines = r.stdout.trimEnd().split("\n");
+    expect(lines.length).toBeLessThanOrEqual(5);
+    expect(lines.slice(1, 1 + LEGEND_LINES.summary)).toEqual(legendLines("summary"));
+    const diff = await cli(["diff", "--help"]);
+    const summary = await cli(["--help"]);
+    // --help wraps lines at its width: compare words.
+    const words = (t: string) => t.split(/\s+/).join(" ");
+    for (const line of legendLines("summary")) expect(words(summary.stdout)).toContain(words(line));
+    for (const line of legendLines("diff")) expect(words(diff.stdout)).toContain(words(line));
+  });
+
+  it("draws the SVG --width columns wide, SVG_PX_PER_COLUMN pixels each", async () => {
+    for (const width of [40, 150]) {
+      const r = await cli(["-", "--format", "svg", "--width", String(width)], { stdin });
+      expect(r.code).toBe(0);
+      expect(r.stdout).toContain(
+        `<svg xmlns="http://www.w3.org/2000/svg" width="${width * SVG_PX_PER_COLUMN}" `,
+      );
+    }
   });
 });

@@ -448,6 +448,12 @@ function checkPicture<T extends ViewNode>(v: HierarchyNode<T>, options: SvgOptio
         width(b),
       );
   }
+  // The heading and the legend stay inside the picture (0.6 em per column, as above).
+  const picture = Number(parse(svg).documentElement!.getAttribute("width"));
+  for (const e of [...parse(svg).getElementsByTagName("text")]) {
+    const px = Number(e.getAttribute("font-size") || 12);
+    expect(displayWidth(e.textContent!) * px * 0.6).toBeLessThanOrEqual(picture - 20);
+  }
   // Accounting, on the layout the picture draws.
   const { blocks: laid, widened } = pictureLayout(v, options);
   expect(laid).toHaveLength(blocks.length);
@@ -479,7 +485,10 @@ function checkPicture<T extends ViewNode>(v: HierarchyNode<T>, options: SvgOptio
   expect(leaves.reduce((s, b) => s + b.weight, 0)).toBeCloseTo(total, 6);
   const beyond = leaves.reduce((s, b) => s + Math.max(0, b.x1 - b.x0 - (b.weight / total) * inner), 0);
   expect(widened).toBeCloseTo(beyond, 6);
-  const stated = /(\d+(?:\.\d)?)% of the width is widened/.exec(svg);
+  // The legend's words, its wrapped lines joined again.
+  const legend = [...parse(svg).getElementsByTagName("g")].find((g) => g.getAttribute("class") === "legend")!;
+  const words = [...legend.getElementsByTagName("text")].map((e) => e.textContent).join(" ");
+  const stated = /(\d+(?:\.\d)?)% of the width is widened/.exec(words);
   if (beyond / inner >= 0.0005) expect(Number(stated?.[1])).toBeCloseTo((100 * beyond) / inner, 0);
   else expect(stated).toBeNull();
 }
