@@ -6,6 +6,7 @@
 //                         [--rss-from auto|time|proc] [--force-data] [--big [--big-nodes N]]
 //                         [--no-graph] [--graph-nodes N] [--only graph]
 //        npm run bench -- --facts [...]   fact tables rolled up by the SQL engine (see bench/facts.js)
+//        npm run bench -- --globs [--repeat N]   the glob bound: a crafted glob on long names (bench/globs.js)
 // See docs/performance.md for what every number means.
 
 import { constants } from "node:buffer";
@@ -66,6 +67,11 @@ const TARGETS = {
 const MEMORY_ROW_MAX_NODES = 2_000_000;
 
 const log = (s) => process.stderr.write(`${s}\n`);
+if (process.argv.includes("--globs")) {
+  const { benchGlobs } = await import("./globs.js");
+  await benchGlobs(process.argv.slice(2), join(repoRoot, "dist"));
+  process.exit(0);
+}
 if (process.argv.includes("--facts")) {
   const { benchFacts } = await import("./facts.js");
   await benchFacts(process.argv.slice(2).filter((a) => a !== "--facts"));

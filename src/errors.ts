@@ -5,6 +5,11 @@ export interface SourcePos {
   column?: number;
   /** Data row of a table (1 = the first row after the header). */
   row?: number;
+  /**
+   * The table column (its header name) of the faulty cell in `row`, while the loader that read the
+   * table places the cell as a line and column; never printed, and gone once placed.
+   */
+  field?: string;
 }
 
 /** The closed set of error codes. Tests assert these, never message wording. */
@@ -134,6 +139,17 @@ export class EspalierError extends Error {
     return new EspalierError(this.code, this.parts, { ...this.pos, file }, this.details);
   }
 
+  /**
+   * A copy at `pos` where it says more (the line and column of a table row the loader found); once it
+   * has a column, the table column it was placed by is dropped.
+   */
+  placed(pos: SourcePos | undefined): EspalierError {
+    if (pos === undefined) return this;
+    const merged = { ...this.pos, ...pos };
+    if (pos.column !== undefined) delete merged.field;
+    return new EspalierError(this.code, this.parts, merged, this.details);
+  }
+
   /** A copy whose input text is printed by `show` (pseudonyms, or hidden) and then kept only as wording. */
   hidingInput(show: (t: InputText) => string): EspalierError {
     // Details may quote the input as well: only numbers and yes/no facts stay.
@@ -167,11 +183,35 @@ function render(parts: readonly MessagePart[], show: (t: InputText) => string): 
   return out;
 }
 
-/** `file:line:column`, `file: row N` or just the file, for the one line printed at the edge. */
+/**
+ * `file:line:column` (or `file:line` where no column is known), or just the file when the fault is the
+ * file as a whole, for the one line printed at the edge. A row without a line is not printed: the
+ * message names its row itself (printing both read "row 3: row 3").
+ */
 export function formatPos(pos: SourcePos | undefined): string {
   if (!pos) return "";
   const file = pos.file ?? "<input>";
   if (pos.line !== undefined) return `${file}:${pos.line}${pos.column !== undefined ? `:${pos.column}` : ""}`;
-  if (pos.row !== undefined) return `${file}: row ${pos.row}`;
   return file;
+}
+
+/** `err` without the table column it was to be placed by (see {@link SourcePos.field}), once placing is over. */
+export function placingDone(err: unknown): unknown {
+  if (!(err instanceof EspalierError) || err.pos?.field === undefined) return err;
+  const { field: _, ...pos } = err.pos;
+  return new EspalierError(err.code, err.parts, pos, err.details);
+}
+
+/**
+ * `err` placed by `place` when it is an error about a table row that has no column yet (see
+ * {@link SourcePos.field}); anything else as it is.
+ */
+export function placedAtRow(
+  err: unknown,
+  place: ((row: number, field?: string) => SourcePos | undefined) | undefined,
+): unknown {
+  if (!(err instanceof EspalierError) || place === undefined) return err;
+  const pos = err.pos;
+  if (pos?.row === undefined || pos.column !== undefined) return err;
+  return err.placed(place(pos.row, pos.field));
 }

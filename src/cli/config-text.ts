@@ -20,7 +20,9 @@ export function parseConfigWithPositions(
   const doc = parseDocument(text, { lineCounter });
   if (doc.errors.length > 0) {
     const e = doc.errors[0];
-    throw new EspalierError("USAGE", `the config is not valid YAML: ${e.message.split("\n")[0]}`, {
+    // The parser's own "at line N, column M:" is left out: the position leads the line.
+    const reason = e.message.replace(/ at line \d+, column \d+:.*$/s, "").split("\n")[0];
+    throw new EspalierError("USAGE", `the config is not valid YAML: ${reason}`, {
       file,
       line: e.linePos?.[0].line,
       column: e.linePos?.[0].col,

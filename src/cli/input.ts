@@ -107,10 +107,11 @@ export async function readFoci(
       "standard input cannot hold both an input and the foci (--focus-from -)",
     );
   // A file or a pipe, never a device, at most maxFociBytes (read-limits.ts).
-  const text = await readInput(io, opts.focusFrom, FOCI_BOUND);
+  const focusFrom = opts.focusFrom;
+  const text = await readInput(io, focusFrom, FOCI_BOUND);
   const lines = text.includes("\0") ? text.split("\0") : text.split(/\r?\n/);
   lines.forEach((listed, k) => {
-    if (listed !== "") foci.push({ listed, line: k + 1 });
+    if (listed !== "") foci.push({ listed, line: k + 1, file: displayName(focusFrom) });
   });
   return foci;
 }
@@ -194,5 +195,18 @@ export function displayName(input: string): string {
 async function streamTree(io: CliIO, input: string, options: LoadOptions): Promise<Tree> {
   const source = await readInputStream(io, input);
   const chunks = withProgress(source.chunks, io, displayName(input), source.size);
-  return loadTreeFromStream(chunks, options);
+  return loadTreeFromStream(chunks, options, readAgain(io, input, source.size));
+}
+
+/**
+ * How to read a named regular file again, to place a table row's error at its cell (a pipe, standard
+ * input or a re-encoded file cannot be: the error then has the row's line only).
+ */
+export function readAgain(
+  io: CliIO,
+  input: string,
+  size: number | undefined,
+): (() => Promise<AsyncIterable<Uint8Array>>) | undefined {
+  if (input === "-" || size === undefined) return undefined;
+  return async () => (await readInputStream(io, input)).chunks;
 }

@@ -6,6 +6,7 @@ import { EspalierError } from "../errors.js";
 import type { LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
 import { treeToMessage, treeTransferList } from "../model/tree-message.js";
+import { readAgain } from "./input.js";
 import type { CliIO } from "./io.js";
 import { openFile } from "./open-file.js";
 import { readInputStream } from "./read-input-stream.js";
@@ -23,7 +24,7 @@ const io: CliIO = {
 
 try {
   const source = await readInputStream(io, name);
-  const tree = await loadTreeFromStream(source.chunks, options);
+  const tree = await loadTreeFromStream(source.chunks, options, readAgain(io, name, source.size));
   // The arrays move to the main thread (no copy of a million-node tree); this thread ends after.
   const message = treeToMessage(tree);
   parentPort!.postMessage({ tree: message }, treeTransferList(message));

@@ -2,6 +2,7 @@ import { Buffer } from "node:buffer";
 import { EspalierError } from "../errors.js";
 import type { LoadOptions } from "../load/load-options.js";
 import { csvTableFromBytes } from "../load/table/csv-table.js";
+import { locateCell } from "../load/table/locate-cell.js";
 import { rowsTable } from "../load/table/rows-table.js";
 import type { Table } from "../load/table/table.js";
 import type { CliIO } from "./io.js";
@@ -34,15 +35,20 @@ export async function readNodeRecords(io: CliIO, file: string, fields: LoadOptio
       }
       if (!Array.isArray(value))
         throw new EspalierError("SHAPE", "node records in JSON must be an array of objects");
-      return rowsTable(value);
+      // A record's fault names this file (its message names the record).
+      return { ...rowsTable(value), place: () => ({ file: shown }) };
     }
     const firstLine = body.slice(0, body.indexOf("\n") === -1 ? body.length : body.indexOf("\n"));
     const tsv = lower.endsWith(".tsv") || lower.endsWith(".tab") || firstLine.includes("\t");
     // The records are read by the id, name, size and kept columns (no row limit: one record per node).
-    return csvTableFromBytes(Buffer.from(body, "utf8"), tsv ? "\t" : ",", {
-      ...fields,
-      maxNodes: Number.POSITIVE_INFINITY,
-    });
+    const bytes = Buffer.from(body, "utf8");
+    const delimiter = tsv ? "\t" : ",";
+    const table = csvTableFromBytes(bytes, delimiter, { ...fields, maxNodes: Number.POSITIVE_INFINITY });
+    // A record's fault is placed at its cell in this file.
+    return {
+      ...table,
+      place: (row, field) => ({ file: shown, ...locateCell(bytes, delimiter, row, field) }),
+    };
   } catch (error) {
     throw error instanceof EspalierError ? error.inFile(shown) : error;
   }

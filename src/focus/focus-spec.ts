@@ -10,6 +10,8 @@ export interface ListedFocus {
   readonly listed: string;
   /** Its 1-based line number in the list. */
   readonly line: number;
+  /** The list's file as messages name it (`<stdin>` for standard input), when known. */
+  readonly file?: string;
 }
 
 /** The text of a spec as the user wrote it. */

@@ -1,4 +1,4 @@
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, type SourcePos, say } from "../errors.js";
 import type { PathIndex } from "../model/path-index.js";
 import { pseudonym } from "../model/pseudonym.js";
 import type { FocusSpec, ListedFocus, UnmatchedFoci } from "./focus-spec.js";
@@ -72,20 +72,24 @@ function listedSpec(
   try {
     if (!isGlob(spec.listed)) resolveFoci(index, [spec.listed], pseudonymKey);
   } catch (err) {
+    // The message keeps its marked input (--pseudonymize hides it); the place is the list's line.
     if (err instanceof EspalierError && err.code === "FOCUS_NO_MATCH")
-      throw new EspalierError("FOCUS_NO_MATCH", `--focus-from line ${spec.line}: ${err.message}`, err.pos, {
+      throw new EspalierError("FOCUS_NO_MATCH", err.parts, listedAt(spec), {
         ...err.details,
         line: spec.line,
       });
   }
   throw new EspalierError(
     "FOCUS_NO_MATCH",
-    `--focus-from line ${spec.line}: ${
-      pseudonymKey === undefined ? JSON.stringify(spec.listed) : "the focus"
-    } matches no node (lines are literal paths: no globs)`,
-    undefined,
+    say`${pseudonymKey === undefined ? [quoted.path(spec.listed)] : "the focus"} matches no node (lines of --focus-from are literal paths: no globs)`,
+    listedAt(spec),
     { line: spec.line },
   );
+}
+
+/** Where a listed focus is: its line of the `--focus-from` file (the line is the focus, from column 1). */
+function listedAt(spec: ListedFocus): SourcePos {
+  return { ...(spec.file === undefined ? {} : { file: spec.file }), line: spec.line, column: 1 };
 }
 
 /** The nodes `resolve` finds, or null when it reports FOCUS_NO_MATCH or FOCUS_SYNTAX (a stray `~`). */

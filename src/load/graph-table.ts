@@ -1,4 +1,4 @@
-import { EspalierError, quoted, quotedList, say } from "../errors.js";
+import { EspalierError, placedAtRow, quoted, quotedList, say } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LoadOptions } from "./load-options.js";
 import { limitExceeded } from "./node-sink.js";
@@ -28,6 +28,16 @@ type Fields = Pick<
  * name, size and kept columns then describe nothing and are not read (give node records separately).
  */
 export function linkGraphTable(table: Table, options: Fields, edgesOnly = false): GraphNodes {
+  try {
+    const graph = linkGraph(table, options, edgesOnly);
+    if (table.place) graph.placeRow = table.place;
+    return graph;
+  } catch (err) {
+    throw placedAtRow(err, table.place);
+  }
+}
+
+function linkGraph(table: Table, options: Fields, edgesOnly: boolean): GraphNodes {
   if (table.length === 0) throw new EspalierError("INPUT_EMPTY", "the table has no data rows");
   const parents = table.column(options.parentField);
   const ids = edgesOnly ? undefined : table.column(options.idField);
@@ -56,7 +66,10 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
   for (let r = 0; r < rows; r++) {
     const id = text(idCells[r]);
     if (id === "")
-      throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${options.idField}"`, { row: r + 1 });
+      throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${options.idField}"`, {
+        row: r + 1,
+        field: options.idField,
+      });
     const rowName = names ? text(names[r]) : "";
     const hasSize = sizes !== undefined && text(sizes[r]) !== "";
     const size = sizes ? sizeOf(sizes[r], table.textCells, r + 1, options.sizeField) : 0;
@@ -77,7 +90,7 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
         new EspalierError(
           "DUPLICATE_ID",
           say`row ${r + 1} repeats the ${options.idField} ${quoted.id(id)} of row ${first} with another ${what}`,
-          { row: r + 1 },
+          { row: r + 1, field: what },
         );
       if (rowName !== "" && rowName !== name[node]) throw clash(options.nameField);
       if (hasSize && size !== ownSize[node]) throw clash(options.sizeField);
@@ -99,7 +112,7 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
       throw new EspalierError(
         "MISSING_PARENT",
         say`row ${r + 1} names the ${options.parentField} ${quoted.id(parentId)}, which no row has as its ${options.idField}`,
-        { row: r + 1 },
+        { row: r + 1, field: options.parentField },
       );
     }
     from[edges] = p;
@@ -133,7 +146,8 @@ function linkEdges(table: Table, parentCells: readonly Cell[], childCells: reado
   const origin: number[] = [];
   const idOf = (cell: Cell, r: number, field: string) => {
     const id = text(cell);
-    if (id === "") throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${field}"`, { row: r + 1 });
+    if (id === "")
+      throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${field}"`, { row: r + 1, field });
     let node = nodeOf.get(id);
     if (node === undefined) {
       node = ids.length;
@@ -178,6 +192,15 @@ function linkEdges(table: Table, parentCells: readonly Cell[], childCells: reado
  * DUPLICATE_ID; the positions name the records' rows.
  */
 export function withRecords(graph: GraphNodes, records: Table, options: Fields): GraphNodes {
+  try {
+    return withRecordsOf(graph, records, options);
+  } catch (err) {
+    // At the record in the records' own file (its table's places name it).
+    throw placedAtRow(err, records.place);
+  }
+}
+
+function withRecordsOf(graph: GraphNodes, records: Table, options: Fields): GraphNodes {
   const idCells = records.column(options.idField);
   if (!idCells) {
     throw new EspalierError(
@@ -205,7 +228,10 @@ export function withRecords(graph: GraphNodes, records: Table, options: Fields):
   for (let r = 0; r < records.length; r++) {
     const id = text(idCells[r]);
     if (id === "")
-      throw new EspalierError("SHAPE", `record ${r + 1} has an empty "${options.idField}"`, { row: r + 1 });
+      throw new EspalierError("SHAPE", `record ${r + 1} has an empty "${options.idField}"`, {
+        row: r + 1,
+        field: options.idField,
+      });
     let node = nodeOf.get(id);
     if (node === undefined) {
       node = idList.length;
@@ -222,7 +248,7 @@ export function withRecords(graph: GraphNodes, records: Table, options: Fields):
       throw new EspalierError(
         "DUPLICATE_ID",
         say`record ${r + 1} repeats the ${options.idField} ${quoted.id(id)} of record ${earlier + 1}`,
-        { row: r + 1 },
+        { row: r + 1, field: options.idField },
       );
     }
     seen.set(node, r);

@@ -1,5 +1,5 @@
 import { Buffer } from "node:buffer";
-import { EspalierError } from "../errors.js";
+import { EspalierError, placedAtRow, placingDone } from "../errors.js";
 import { buildGraphTree } from "../model/build-graph.js";
 import { buildTree } from "../model/build-tree.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
@@ -7,12 +7,21 @@ import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { Tree } from "../model/tree.js";
 import { byteLoader } from "./byte-loader.js";
 import { detectFormat } from "./detect-format.js";
-import { edgeTableFields, isGraph, jsonGraph, loadEdges, withNodeRecords } from "./graph-input.js";
+import {
+  edgeTableDelimiter,
+  edgeTableFields,
+  isGraph,
+  jsonGraph,
+  loadEdges,
+  withNodeRecords,
+} from "./graph-input.js";
 import { linkGraphTable } from "./graph-table.js";
 import type { InputFormat, LoadOptions } from "./load-options.js";
 import { loadYaml } from "./load-yaml.js";
+import { jsonGraphTooLong, limitsOf } from "./read-limits.js";
 import { csvTableFromBytes } from "./table/csv-table.js";
 import { linkTable } from "./table/link-table.js";
+import { placeInTableBytes } from "./table/locate-cell.js";
 
 export { detectFormat } from "./detect-format.js";
 export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } from "./load-options.js";
@@ -26,24 +35,56 @@ export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } 
  */
 export function loadTree(text: string, options: LoadOptions): Tree {
   const file = options.file === undefined || options.file === "-" ? undefined : options.file;
+  const table: TableText = {};
+  let placeRow: LinkedNodes["placeRow"];
   try {
     const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
     if (!/\S/.test(body)) throw new EspalierError("INPUT_EMPTY", "the input is empty");
     const format = options.format ?? detectFormat(body, file, options);
-    const nodes = linkedNodes(body, format, options);
+    const nodes = linkedNodes(body, format, options, table);
+    placeRow = nodes.placeRow;
     return isGraph(nodes) ? buildGraphTree(withNodeRecords(nodes, options), file) : buildTree(nodes, file);
-  } catch (error) {
+  } catch (caught) {
+    // An error about a row of this input (not of node records, which name their file): at its cell.
+    let error = caught;
+    if (!(error instanceof EspalierError) || error.pos?.file === undefined || error.pos.file === file) {
+      error = placedAtRow(error, placeRow);
+      if (table.bytes !== undefined && table.delimiter !== undefined)
+        error = placeInTableBytes(error, table.delimiter, table.bytes);
+    }
+    error = placingDone(error);
     if (error instanceof EspalierError && file !== undefined) throw error.inFile(file);
     throw error;
   }
 }
 
-function linkedNodes(body: string, format: InputFormat, options: LoadOptions): LinkedNodes | GraphNodes {
+/** The CSV or TSV table an input was read as, once known: its bytes, to place a row's error. */
+interface TableText {
+  delimiter?: "," | "\t";
+  bytes?: Uint8Array;
+}
+
+function linkedNodes(
+  body: string,
+  format: InputFormat,
+  options: LoadOptions,
+  table: TableText,
+): LinkedNodes | GraphNodes {
   if (format === "yaml") return loadYaml(body, options);
-  if (format === "edges") return loadEdges(body, options);
+  if (format === "edges") {
+    const delimiter = edgeTableDelimiter(body, options);
+    if (delimiter !== null) {
+      table.delimiter = delimiter;
+      table.bytes = Buffer.from(body, "utf8");
+    }
+    return loadEdges(body, options);
+  }
   // A JSON graph (rows or an adjacency map) is parsed whole; a text that is no JSON goes to the JSON
   // loader, which places the error.
   if ((format === "json" || format === "rows") && options.graph) {
+    // The same bound as a streamed graph's (counted in UTF-8 bytes, as read from a file).
+    const limit = limitsOf(options.limits).maxJsonGraphBytes;
+    if (body.length * 3 > limit && Buffer.byteLength(body, "utf8") > limit) throw jsonGraphTooLong(limit);
     const graph = jsonGraph(body, options);
     if (graph) return graph;
   }
@@ -53,14 +94,12 @@ function linkedNodes(body: string, format: InputFormat, options: LoadOptions): L
     loader.write(bytes);
     return loader.end();
   }
-  const table = csvTableFromBytes(
-    bytes,
-    format === "csv" ? "," : "\t",
-    options.graph ? edgeTableFields(options) : options,
-  );
+  table.delimiter = format === "csv" ? "," : "\t";
+  table.bytes = bytes;
+  const csv = csvTableFromBytes(bytes, table.delimiter, options.graph ? edgeTableFields(options) : options);
   try {
-    return options.graph ? linkGraphTable(table, options) : linkTable(table, options);
+    return options.graph ? linkGraphTable(csv, options) : linkTable(csv, options);
   } finally {
-    table.release?.();
+    csv.release?.();
   }
 }

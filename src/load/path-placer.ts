@@ -64,7 +64,7 @@ export class PathPlacer {
       throw new EspalierError(
         "DUPLICATE_PATH",
         `${unit} ${origin} repeats the empty path (the root) of ${unit} ${sink.origin[this.root]}`,
-        sink.originIsRow ? { row: origin } : { line: origin },
+        sink.originIsRow ? { row: origin } : { line: origin, column: 1 },
       );
     }
     this.root = sink.add(-1, "", origin);
@@ -172,7 +172,7 @@ export class PathPlacer {
         throw new EspalierError(
           "DUPLICATE_PATH",
           say`${unit} ${origin} repeats the path ${shown} of ${unit} ${sink.origin[node]}`,
-          sink.originIsRow ? { row: origin } : { line: origin },
+          sink.originIsRow ? { row: origin } : { line: origin, column: 1 },
         );
       }
       sink.origin[node] = origin;

@@ -14,6 +14,11 @@ export interface ReadLimits {
   maxJsonDepth: number;
   /** Bytes of a YAML input: its parser reads the whole document before espalier sees a node. */
   maxYamlBytes: number;
+  /**
+   * Bytes of a JSON graph (`--graph`: an adjacency map or rows whose ids repeat): it is parsed whole,
+   * and its parsed values take several times its bytes.
+   */
+  maxJsonGraphBytes: number;
   /** Bytes of a config file (`.espalier.yaml`, `--config`). */
   maxConfigBytes: number;
   /** Bytes of a `--focus-from` file. */
@@ -28,6 +33,7 @@ export const readLimits: Readonly<ReadLimits> = {
   maxTokenBytes: 16 * MiB,
   maxJsonDepth: 4 * MiB,
   maxYamlBytes: 64 * MiB,
+  maxJsonGraphBytes: 256 * MiB,
   maxConfigBytes: 1 * MiB,
   maxFociBytes: 64 * MiB,
 };
@@ -35,6 +41,14 @@ export const readLimits: Readonly<ReadLimits> = {
 /** The limits with `overrides` applied. */
 export function limitsOf(overrides: Partial<ReadLimits> | undefined): ReadLimits {
   return overrides === undefined ? readLimits : { ...readLimits, ...overrides };
+}
+
+/** LIMIT_EXCEEDED for a JSON graph past `limit` bytes (held whole to be parsed): the whole file is at fault. */
+export function jsonGraphTooLong(limit: number): EspalierError {
+  return new EspalierError(
+    "LIMIT_EXCEEDED",
+    `a JSON graph (an adjacency map or rows with repeated ids) is read whole, and this one is longer than ${limit} bytes (maxJsonGraphBytes); write it as an edge list or an edge table, which stream`,
+  );
 }
 
 /** LIMIT_EXCEEDED for a piece of input past `limit` bytes: `what` names it ("a line", "a JSON string"). */

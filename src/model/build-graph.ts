@@ -214,7 +214,7 @@ function repeatedEdge(graph: GraphNodes, e: number, file?: string): EspalierErro
   const at = graph.edgeOrigin[e];
   const ids = graph.ids;
   const id = (i: number) => quoted.id(ids instanceof NamePool ? ids.get(i) : ids[i]);
-  const pos = graph.originIsRow ? { file, row: at } : { file, line: at };
+  const pos = graph.originIsRow ? { file, row: at } : { file, line: at, column: 1 };
   return new EspalierError(
     "DUPLICATE_ID",
     say`${graph.originIsRow ? "row" : "line"} ${at} repeats the link from ${id(graph.edgeFrom[e])} to ${id(graph.edgeTo[e])}`,

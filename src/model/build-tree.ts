@@ -226,7 +226,9 @@ function cycleError(input: PooledNodes, par: Int32Array, visited: Int32Array, fi
       ? say`${unit} ${input.origin[i]} (id ${quoted.id(input.ids.get(i))})`
       : [`${unit} ${input.origin[i]}`];
   const first = cycle.reduce((a, b) => (input.origin[a] <= input.origin[b] ? a : b));
-  const pos = input.originIsRow ? { file, row: input.origin[first] } : { file, line: input.origin[first] };
+  const pos = input.originIsRow
+    ? { file, row: input.origin[first] }
+    : { file, line: input.origin[first], column: 1 };
   if (cycle.length === 1) return new EspalierError("CYCLE", [...where(cur), " is its own parent"], pos);
   const shown = cycle.slice(0, 6).flatMap((c, k) => (k === 0 ? where(c) : [" -> ", ...where(c)]));
   return new EspalierError(

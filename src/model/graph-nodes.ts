@@ -1,3 +1,4 @@
+import type { SourcePos } from "../errors.js";
 import type { NamePool } from "./names.js";
 import type { TreeReading } from "./tree.js";
 
@@ -34,6 +35,8 @@ export interface GraphNodes {
   edgeOrigin: Int32Array;
   /** Number of edges (the arrays may be longer). */
   edgeCount: number;
+  /** Where a row (an origin when `originIsRow`) is in the input, when the loader can say. */
+  placeRow?: (row: number, field?: string) => SourcePos | undefined;
   /** A repeated edge (same parent, same child): read once ("skip"), or DUPLICATE_ID at its row ("error"). */
   repeatedEdges: "skip" | "error";
 }

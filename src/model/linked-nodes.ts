@@ -1,3 +1,4 @@
+import type { SourcePos } from "../errors.js";
 import type { NamePool } from "./names.js";
 import type { TreeReading } from "./tree.js";
 
@@ -19,6 +20,8 @@ export interface LinkedNodes {
   rootName: string;
   /** How the loader read the input. */
   reading?: TreeReading;
+  /** Where a row (an origin when `originIsRow`) is in the input, when the loader can say. */
+  placeRow?: (row: number, field?: string) => SourcePos | undefined;
   /**
    * One-line references (a YAML alias reaching a node placed elsewhere): for each node, -1 for a full
    * entry, else the node whose full entry it stands for (a full entry itself). A reference has no

@@ -1,4 +1,4 @@
-import { EspalierError } from "../errors.js";
+import { EspalierError, quotedList, say } from "../errors.js";
 import type { PrintedNames } from "../model/printed-names.js";
 import type { Tree } from "../model/tree.js";
 
@@ -13,8 +13,10 @@ export function templateFields(template: string): string[] {
 
 /**
  * Compiles a label template such as "{title}, {team}": `{field}` is replaced by the node's value of
- * that record field; `{name}`, `{id}` and `{path}` are built in, printed as `names` prints them. A
- * field the input lacks is an error.
+ * that record field; `{name}`, `{id}` and `{path}` are built in. Every part is printed as `names`
+ * prints it: under `--pseudonymize` a field's value (a title, an e-mail address) is its keyed
+ * pseudonym like a name, since any field of a person's record may point at the person. A field the
+ * input lacks is an error.
  */
 export function compileLabel(template: string, tree: Tree, names: PrintedNames): (i: number) => string {
   const { nameOf, pathOf } = names;
@@ -32,12 +34,14 @@ export function compileLabel(template: string, tree: Tree, names: PrintedNames):
     const values = tree.fields.get(part);
     if (!values) {
       const have = ["name", "path", ...(tree.ids ? ["id"] : []), ...tree.fields.keys()];
+      // The fields are the input's own column names: marked, so --pseudonymize hides them.
       throw new EspalierError(
         "FIELD_MISSING",
-        `the label uses {${part}}; fields available: ${have.join(", ")}`,
+        say`the label uses {${part}}; fields available: ${quotedList("name", have)}`,
       );
     }
-    return (i) => values[i] ?? "";
+    const printValue = names.valueOf;
+    return (i) => printValue(values[i] ?? "");
   });
   return (i) => {
     let s = "";

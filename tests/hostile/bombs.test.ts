@@ -97,14 +97,16 @@ describe("espalier - (resource bombs)", () => {
   });
 
   it("--max-nodes N refuses bigger inputs in every format with LIMIT_EXCEEDED at the node past the limit", async () => {
-    const inputs: [InputFormat, string, { line?: number; row?: number }][] = [
+    const inputs: [InputFormat, string, { line?: number; column?: number }][] = [
       ["paths", "q/a\nq/b\nq/c\n", { line: 3 }],
-      ["csv", "id,parent\n1,\n2,1\n3,1\n4,1\n", { row: 4 }],
-      ["tsv", "id\tparent\n1\t\n2\t1\n3\t1\n4\t1\n", { row: 4 }],
+      // Data row 4 is line 5 (from standard input, not read again: the line only).
+      ["csv", "id,parent\n1,\n2,1\n3,1\n4,1\n", { line: 5 }],
+      ["tsv", "id\tparent\n1\t\n2\t1\n3\t1\n4\t1\n", { line: 5 }],
       [
         "rows",
         '[{"id":"1","parent":""},{"id":"2","parent":"1"},{"id":"3","parent":"1"},{"id":"4","parent":"1"}]',
-        {},
+        // The 4th row's "{": "[", the first row (22) and ",", two rows of 24 with their ",": column 73.
+        { line: 1, column: 73 },
       ],
       // JSON nodes carry no line yet (docs/reliability.md): only the code is checked.
       ["json", '{"name": "q", "children": [\n{"name": "a"},\n{"name": "b"},\n{"name": "c"}]}', {}],
@@ -115,7 +117,7 @@ describe("espalier - (resource bombs)", () => {
       const e = oneErrorLine(over);
       expect(e.code, format).toBe("LIMIT_EXCEEDED");
       if (at.line !== undefined) expect(e.line, format).toBe(at.line);
-      if (at.row !== undefined) expect(e.row, format).toBe(at.row);
+      if (at.column !== undefined) expect(e.column, format).toBe(at.column);
       const fits = await cli(["-", "--input-format", format, "--max-nodes", "4"], { stdin });
       expect(fits.code, `${format}: ${fits.stderr}`).toBe(0);
     }

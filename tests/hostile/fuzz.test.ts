@@ -127,6 +127,29 @@ const SEEDS: Seed[] = [
     options: { nulSeparated: true },
     args: ["--nul-separated"],
   },
+  // Graphs: a JSON adjacency map and JSON rows with a repeated id (read whole, maxJsonGraphBytes), an
+  // edge list and a CSV whose ids repeat with other parents (streamed, maxLineBytes).
+  {
+    format: "json",
+    text:
+      '{"tidewater": ["ledger", "mooring-log"], "ledger": {"children": ["core", 7], "size": 12},\n' +
+      ' "mooring-log": ["core"], "core": null}\n',
+    options: { graph: true },
+    args: ["--graph"],
+  },
+  {
+    format: "rows",
+    text: '[{"id": "Q1", "parent": ""}, {"id": "Q2", "parent": "Q1"}, {"id": "Q3", "parent": "Q1"},\n {"id": "Q3", "parent": "Q2", "size": 4}]\n',
+    options: { graph: true },
+    args: ["--graph"],
+  },
+  { format: "edges", text: "Q1 Q2\nQ1 Q3\nQ2 Q4\nQ3 Q4\n# a comment\nQ4 Q5\n" },
+  {
+    format: "csv",
+    text: "id,parent,name,size\nQ1,,Quillfeather,0\nQ2,Q1,Optics,3\nQ3,Q1,Firmware,\nQ3,Q2,,\n",
+    options: { graph: true },
+    args: ["--graph"],
+  },
 ];
 
 const INTERESTING = [
@@ -266,7 +289,8 @@ function renderChecked(tree: Tree, budget: number, focus: number): void {
   const lines = text.slice(0, -1).split("\n");
   expect(lines.length).toBeLessThanOrEqual(budget);
   for (const line of lines) {
-    expect(line).toMatch(/^(?: {2})*[*:.] /);
+    // A graph's reference line carries the mark & (src/render/marks.ts MARK.reference).
+    expect(line).toMatch(/^(?: {2})*[*:.&] /);
     expect(line).not.toMatch(UNSAFE);
   }
   expect(renderMarkdown(result.view, { units: "plain", sizes: tree.hasSizes, chains })).not.toMatch(UNSAFE);
@@ -276,7 +300,10 @@ function renderChecked(tree: Tree, budget: number, focus: number): void {
     foci: result.fociPaths,
     labels: false,
   });
-  expect(JSON.parse(json).totals.nodes).toBe(tree.length);
+  // Every node once: a graph's reference slots (referenceTo >= 0) stand for a node counted at its full entry.
+  let nodes = tree.length;
+  if (tree.referenceTo) for (const to of tree.referenceTo) if (to >= 0) nodes--;
+  expect(JSON.parse(json).totals.nodes).toBe(nodes);
 }
 
 describe("fuzz: random and mutated inputs", () => {
@@ -316,6 +343,7 @@ describe("fuzz: random and mutated inputs", () => {
         maxLineBytes: fc.integer({ min: 1, max: 64 }),
         maxTokenBytes: fc.integer({ min: 1, max: 32 }),
         maxYamlBytes: fc.integer({ min: 1, max: 512 }),
+        maxJsonGraphBytes: fc.integer({ min: 1, max: 512 }),
       });
       await fc.assert(
         fc.asyncProperty(input, fc.array(where, { maxLength: 8 }), limits, async (c, cuts, lim) => {
@@ -324,6 +352,8 @@ describe("fuzz: random and mutated inputs", () => {
           if (!tree) return;
           // A tree came back: no piece held whole past its limit can have been in the input.
           if (c.format === "yaml") expect(c.bytes.length).toBeLessThanOrEqual(lim.maxYamlBytes + 3);
+          if (c.options?.graph === true && (c.format === "json" || c.format === "rows"))
+            expect(c.bytes.length).toBeLessThanOrEqual(lim.maxJsonGraphBytes);
           if (c.format === "paths" || c.format === "csv" || c.format === "tsv") {
             const end = c.options?.nulSeparated === true ? 0x00 : 0x0a;
             let run = 0;

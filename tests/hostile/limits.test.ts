@@ -5,6 +5,7 @@ import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { readBounded, readStreamBounded } from "../../src/cli/read-bounded.js";
 import { EspalierError } from "../../src/errors.js";
+import { loadTree } from "../../src/load/index.js";
 import { defaultLoadOptions, type InputFormat, type LoadOptions } from "../../src/load/load-options.js";
 import { readLimits } from "../../src/load/read-limits.js";
 import { loadTreeFromStream } from "../../src/load/stream/index.js";
@@ -137,6 +138,45 @@ describe("every reader has a stated limit (src/load/read-limits.ts), LIMIT_EXCEE
       );
       expect(err.code, text).toBe("LIMIT_EXCEEDED");
     }
+  });
+
+  it("a JSON graph (adjacency map, rows with repeated ids) past maxJsonGraphBytes, streamed or held whole", async () => {
+    const map = `{"quill": ["desk", "lab"], "desk": ${JSON.stringify(["a", "b", "c", "d", "e", "f"])}}`;
+    const rows = '[{"id": "q", "parent": ""}, {"id": "d", "parent": "q"}, {"id": "d", "parent": "q2"}]';
+    for (const [format, text] of [
+      ["json", map],
+      ["rows", rows],
+    ] as const) {
+      const limits = { maxJsonGraphBytes: text.length - 1 };
+      const options = { graph: true, limits, file: "graph.json" };
+      const err = await caught(() => load(format, inChunks(text, 7), options));
+      expect(err.code, text).toBe("LIMIT_EXCEEDED");
+      // The whole file is at fault: named, no line.
+      expect(err.pos, text).toEqual({ file: "graph.json" });
+      const whole = await caught(async () => loadTree(text, { ...defaultLoadOptions, format, ...options }));
+      expect(whole.code, text).toBe("LIMIT_EXCEEDED");
+      // One byte more of limit: the graph is read (or, for rows naming a missing parent, refused for that).
+      const fits = { ...options, limits: { maxJsonGraphBytes: text.length } };
+      const outcome = await load(format, inChunks(text, 7), fits).then(
+        () => "tree",
+        (e: EspalierError) => e.code,
+      );
+      expect(outcome, text).not.toBe("LIMIT_EXCEEDED");
+    }
+  });
+
+  it("an endless JSON graph stops at maxJsonGraphBytes (lowered to 4 MiB here), never holding more", async () => {
+    const read = { bytes: 0 };
+    const limit = 4 << 20;
+    const err = await caught(() =>
+      load("json", endless('{"quill": ["', 0x61, read), {
+        graph: true,
+        limits: { maxJsonGraphBytes: limit },
+      }),
+    );
+    expect(err.code).toBe("LIMIT_EXCEEDED");
+    // Counted, not timed: at most one 1 MiB block past the limit was read.
+    expect(read.bytes).toBeLessThanOrEqual(limit + (1 << 20));
   });
 
   it("a YAML input past maxYamlBytes", async () => {

@@ -1,10 +1,13 @@
+import { readFileSync } from "node:fs";
 import { mkdtemp, writeFile } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
+import { parse } from "csv-parse/sync";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { runBin } from "../helpers/bin.js";
 import { cli } from "../helpers/cli.js";
+import { leakedNames } from "../helpers/leaked-names.js";
 import { oneErrorLine } from "./error-line.js";
 
 // Org charts are personal data and CI logs are widely readable: under --pseudonymize no real name, id
@@ -435,3 +438,47 @@ function toYaml(node: Record<string, unknown>, indent: string): string {
   }
   return out;
 }
+
+describe("espalier --pseudonymize with --label fields beyond {name} and {id}", () => {
+  // The invented org chart: every column a label can name (name, title, team) holds personal data.
+  const ORG = new URL("../../fixtures/quillfeather-org.csv", import.meta.url).pathname;
+  // Read with csv-parse, an RFC 4180 reader from the registry (titles hold quoted commas).
+  const rows = (parse(readFileSync(ORG, "utf8")) as string[][]).slice(1);
+  // id,manager,name,title,team,cost: names, titles and teams (longer than 3 characters, so that a
+  // word of the output's own wording is no false alarm), and ids.
+  const secrets = new Set<string>();
+  for (const [id, , name, title, team] of rows)
+    for (const v of [id, name, title, team]) if (v !== undefined && v.length > 3) secrets.add(v);
+  const args = [ORG, "--parent-field", "manager", "--size-field", "cost", "--focus", "Q2417"];
+  const label = ["--label", "{name} <{title}> {team} #{id}"];
+
+  it("no name, id, title or team in any output format, summary and diff (a leak scan)", async () => {
+    // The plain run prints them, so the scan can fail.
+    const plain = await cli([...args, ...label]);
+    expect(plain.code, plain.stderr).toBe(0);
+    expect(leakedNames(plain.stdout, secrets).length).toBeGreaterThan(10);
+    for (const format of ["text", "json", "markdown", "svg"]) {
+      const r = await cli([...args, ...label, "--format", format, "--pseudonymize"], { env: KEY });
+      expect(r.code, r.stderr).toBe(0);
+      expect(leakedNames(r.stdout + r.stderr, secrets), format).toEqual([]);
+      const d = await cli(
+        ["diff", ORG, ORG, ...args.slice(1), ...label, "--format", format, "--pseudonymize"],
+        {
+          env: KEY,
+        },
+      );
+      expect(d.code, d.stderr).toBe(0);
+      expect(leakedNames(d.stdout + d.stderr, secrets), `diff ${format}`).toEqual([]);
+    }
+  });
+
+  it("a label field no record has: FIELD_MISSING lists the columns as pseudonyms", async () => {
+    const dir = await inDir({ "org.csv": "id,parent,Marit Okonkwo\nQ1,,x\n" });
+    const plain = await cli([join(dir, "org.csv"), "--label", "{email}"]);
+    expect(oneErrorLine(plain).code).toBe("FIELD_MISSING");
+    expect(plain.stderr).toContain("Marit Okonkwo");
+    const r = await cli([join(dir, "org.csv"), "--label", "{email}", "--pseudonymize"], { env: KEY });
+    expect(oneErrorLine(r).code).toBe("FIELD_MISSING");
+    expect(r.stderr).not.toContain("Marit");
+  });
+});

@@ -11,33 +11,36 @@ const N = 1_000_000;
 
 describe("espalier - (faults of structure): each named by its row or line", () => {
   it("a row that is its own parent: CYCLE at its row", async () => {
+    // From standard input (not read again) a row's error names the line the row starts on.
     const r = await cli(["-", "--input-format", "csv"], { stdin: "id,parent\n1,\n2,2\n" });
-    expect(oneErrorLine(r)).toMatchObject({ code: "CYCLE", row: 2 });
+    expect(oneErrorLine(r)).toMatchObject({ code: "CYCLE", line: 3 });
   });
 
   it("a longer cycle: CYCLE at its first row, also in JSON rows", async () => {
     const csv = await cli(["-", "--input-format", "csv"], { stdin: "id,parent\n1,\n2,4\n3,2\n4,3\n" });
-    expect(oneErrorLine(csv)).toMatchObject({ code: "CYCLE", row: 2 });
+    expect(oneErrorLine(csv)).toMatchObject({ code: "CYCLE", line: 3 });
     const rows = '[{"id":"r","parent":""},{"id":"a","parent":"b"},{"id":"b","parent":"a"}]';
+    // A JSON row is placed at its "{".
     expect(oneErrorLine(await cli(["-", "--input-format", "rows"], { stdin: rows }))).toMatchObject({
       code: "CYCLE",
-      row: 2,
+      line: 1,
+      column: 25,
     });
   });
 
   it("a cycle with no top-level row at all: CYCLE, not an empty tree", async () => {
     const r = await cli(["-", "--input-format", "csv"], { stdin: "id,parent\n1,2\n2,1\n" });
-    expect(oneErrorLine(r)).toMatchObject({ code: "CYCLE", row: 1 });
+    expect(oneErrorLine(r)).toMatchObject({ code: "CYCLE", line: 2 });
   });
 
   it("a duplicate id: DUPLICATE_ID at the second row", async () => {
     const r = await cli(["-", "--input-format", "csv"], { stdin: "id,parent\n1,\n2,1\n2,1\n" });
-    expect(oneErrorLine(r)).toMatchObject({ code: "DUPLICATE_ID", row: 3 });
+    expect(oneErrorLine(r)).toMatchObject({ code: "DUPLICATE_ID", line: 4 });
   });
 
   it("a missing parent: MISSING_PARENT at the row that names it", async () => {
     const r = await cli(["-", "--input-format", "tsv"], { stdin: "id\tparent\n1\t\n2\t9\n" });
-    expect(oneErrorLine(r)).toMatchObject({ code: "MISSING_PARENT", row: 2 });
+    expect(oneErrorLine(r)).toMatchObject({ code: "MISSING_PARENT", line: 3 });
   });
 
   it("a node with two parents (a YAML alias placed twice): one entry and a reference, counted once", async () => {
@@ -62,7 +65,7 @@ describe("espalier - (faults of structure): each named by its row or line", () =
       oneErrorLine(await cli(["-", "--input-format", "csv"], { stdin: "path\na/b\na/b\n" })),
     ).toMatchObject({
       code: "DUPLICATE_PATH",
-      row: 2,
+      line: 3,
     });
   });
 

@@ -11,14 +11,14 @@ import { oneErrorLine } from "./error-line.js";
 const PAST_2_53 = "9007199254740993";
 const HALF = "4503599627370496"; // 2^52: two of them reach 2^53, one more than the largest exact total
 
-/** Each format with a size written as `size`, on line 2 (or data row 1 of a table). */
-const formats: { format: InputFormat; input: (size: string) => string; at: "line" | "row" }[] = [
-  { format: "json", input: (s) => `{"name": "quill",\n "size": ${s}}`, at: "line" },
-  { format: "yaml", input: (s) => `name: quill\nsize: ${s}\n`, at: "line" },
-  { format: "csv", input: (s) => `id,parent,size\n1,,${s}\n`, at: "row" },
-  { format: "tsv", input: (s) => `id\tparent\tsize\n1\t\t${s}\n`, at: "row" },
-  { format: "rows", input: (s) => `[\n{"id": "1", "parent": "", "size": ${s}}]`, at: "row" },
-  { format: "paths", input: (s) => `0\tquill\n${s}\tquill/a\n`, at: "line" },
+/** Each format with a size written as `size`, on line 2 (in a table, data row 1). */
+const formats: { format: InputFormat; input: (size: string) => string }[] = [
+  { format: "json", input: (s) => `{"name": "quill",\n "size": ${s}}` },
+  { format: "yaml", input: (s) => `name: quill\nsize: ${s}\n` },
+  { format: "csv", input: (s) => `id,parent,size\n1,,${s}\n` },
+  { format: "tsv", input: (s) => `id\tparent\tsize\n1\t\t${s}\n` },
+  { format: "rows", input: (s) => `[\n{"id": "1", "parent": "", "size": ${s}}]` },
+  { format: "paths", input: (s) => `0\tquill\n${s}\tquill/a\n` },
 ];
 
 async function sizeError(format: InputFormat, input: string) {
@@ -27,18 +27,18 @@ async function sizeError(format: InputFormat, input: string) {
 
 describe("espalier - (faults of value): rejected with BAD_SIZE and a position, never a wrong total", () => {
   it("a negative size, in every format", async () => {
-    for (const { format, input, at } of formats) {
+    for (const { format, input } of formats) {
       const e = await sizeError(format, input("-1"));
       expect(e.code, format).toBe("BAD_SIZE");
-      expect(e[at], format).toBe(at === "row" ? 1 : 2);
+      expect(e.line, format).toBe(2);
     }
   });
 
   it("a size past 2^53 - 1, where doubles stop counting exactly, in every format", async () => {
-    for (const { format, input, at } of formats) {
+    for (const { format, input } of formats) {
       const e = await sizeError(format, input(PAST_2_53));
       expect(e.code, format).toBe("BAD_SIZE");
-      expect(e[at], format).toBe(at === "row" ? 1 : 2);
+      expect(e.line, format).toBe(2);
     }
   });
 
@@ -91,7 +91,7 @@ describe("espalier - (faults of value): rejected with BAD_SIZE and a position, n
 
   it("sizes each fine but adding up past 2^53 - 1: BAD_SIZE at the node where the total crosses it", async () => {
     const csv = `id,parent,size\n1,,${HALF}\n2,1,1\n3,1,${HALF}\n`;
-    expect(await sizeError("csv", csv)).toMatchObject({ code: "BAD_SIZE", row: 3 });
+    expect(await sizeError("csv", csv)).toMatchObject({ code: "BAD_SIZE", line: 4 });
     const paths = `${HALF}\tq\n${HALF}\tq/a\n`;
     expect(await sizeError("paths", paths)).toMatchObject({ code: "BAD_SIZE", line: 2 });
     const yaml = `name: q\nsize: ${HALF}\nchildren:\n  - name: a\n    size: ${HALF}\n`;

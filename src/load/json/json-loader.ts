@@ -113,6 +113,9 @@ export class JsonLoader extends JsonTokenizer {
   private readonly kept: (string | undefined)[][];
   private readonly probe: RowsProbe;
   private readonly rows: unknown[] = [];
+  // Where each row starts, for the errors about a row the table finds.
+  private readonly rowLines: number[] = [];
+  private readonly rowColumns: number[] = [];
   private readonly captures: Captures;
   private readonly found: boolean;
   // The top-level node object's last key, and its fields holding an object or array that are not its
@@ -158,7 +161,14 @@ export class JsonLoader extends JsonTokenizer {
   /** Ends the input; the nodes, ready for `buildTree`. */
   end(): LinkedNodes {
     this.endTokens();
-    if (this.probe.rows) return linkTable(rowsTable(this.rows), this.options, "rows");
+    if (this.probe.rows) {
+      const { rowLines, rowColumns } = this;
+      const place = (row: number) =>
+        row >= 1 && row <= rowLines.length
+          ? { line: rowLines[row - 1], column: rowColumns[row - 1] }
+          : undefined;
+      return linkTable(rowsTable(this.rows, place), this.options, "rows");
+    }
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the top-level array holds no nodes");
     if (sink.length === 1 && this.rootContainers.length > 0) throw this.loneRoot();
@@ -326,7 +336,7 @@ export class JsonLoader extends JsonTokenizer {
         });
       }
       case S_ROW:
-        throw this.badRow();
+        throw this.badRow({ line: this.pos.line, column });
       default:
         throw this.badTop({ line: this.pos.line, column });
     }
@@ -412,8 +422,10 @@ export class JsonLoader extends JsonTokenizer {
           break;
         }
         if (this.probe.undecided) {
-          if (this.sink.length === 0) this.captures.start(C_PROBE, top + 1, i, -1, []);
-          else this.probe.nodes();
+          if (this.sink.length === 0) {
+            this.captures.start(C_PROBE, top + 1, i, -1, []);
+            this.rowAt(0, pos);
+          } else this.probe.nodes();
         }
         role = NODE;
         this.nodeFrame(frame, this.addNode(-1, ""), false);
@@ -469,8 +481,9 @@ export class JsonLoader extends JsonTokenizer {
         break;
       }
       case S_ROW:
-        if (!object) throw this.badRow();
+        if (!object) throw this.badRow(pos);
         this.captures.start(C_ROW, top + 1, i, -1, []);
+        this.rowAt(this.rows.length, pos);
         break;
     }
     this.role[top] = role;
@@ -591,8 +604,14 @@ export class JsonLoader extends JsonTokenizer {
     return new EspalierError("SHAPE", "the top level must be a node object or an array of them", pos);
   }
 
-  private badRow(): EspalierError {
+  private badRow(pos: SourcePos): EspalierError {
     const row = this.rows.length + 1;
-    return new EspalierError("SHAPE", `row ${row} must be an object`, { row });
+    return new EspalierError("SHAPE", `row ${row} must be an object`, { row, ...pos });
+  }
+
+  /** Row `r` (0-based) starts at `pos` (its `{`). */
+  private rowAt(r: number, pos: { line: number; column: number }): void {
+    this.rowLines[r] = pos.line;
+    this.rowColumns[r] = pos.column;
   }
 }

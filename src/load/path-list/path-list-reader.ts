@@ -90,7 +90,7 @@ export class PathListReader {
     this.waitingBytes += bytes.length;
     if (this.waitingBytes > this.maxLineBytes) {
       const line = this.line + 1;
-      throw tooLong(`line ${line}`, this.maxLineBytes, { line });
+      throw tooLong(`line ${line}`, this.maxLineBytes, { line, column: 1 });
     }
   }
 
@@ -130,7 +130,8 @@ export class PathListReader {
   /** One line, `bytes[start, end)` without its "\n". */
   private one(bytes: Buffer, view: DataView, start: number, end: number): void {
     const line = ++this.line;
-    if (end - start > this.maxLineBytes) throw tooLong(`line ${line}`, this.maxLineBytes, { line });
+    if (end - start > this.maxLineBytes)
+      throw tooLong(`line ${line}`, this.maxLineBytes, { line, column: 1 });
     if (this.separator === newline) {
       if (end > start && bytes[end - 1] === cr) end--;
       if (isBlank(bytes, start, end)) return;
@@ -162,7 +163,7 @@ export class PathListReader {
           throw new EspalierError(
             "PARSE_PATHS",
             `line ${line} has no size column before a tab, unlike line ${this.firstLine}`,
-            { line },
+            { line, column: 1 },
           );
         }
         const text = bytes.toString("utf8", start, at);

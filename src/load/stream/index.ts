@@ -1,5 +1,5 @@
 import { Buffer, constants } from "node:buffer";
-import { EspalierError } from "../../errors.js";
+import { EspalierError, placedAtRow, placingDone } from "../../errors.js";
 import { buildGraphTree } from "../../model/build-graph.js";
 import { buildTree } from "../../model/build-tree.js";
 import type { GraphNodes } from "../../model/graph-nodes.js";
@@ -10,9 +10,10 @@ import { detectFormat } from "../detect-format.js";
 import { edgeTableDelimiter, edgeTableFields, isGraph, jsonGraph, withNodeRecords } from "../graph-input.js";
 import { linkGraphTable } from "../graph-table.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
-import { limitsOf } from "../read-limits.js";
+import { jsonGraphTooLong, limitsOf } from "../read-limits.js";
 import { csvTableFromStream } from "../table/csv-table.js";
 import { linkTable } from "../table/link-table.js";
+import { placeInTable } from "../table/locate-cell.js";
 import { edgeListStream } from "./edge-list-stream.js";
 import { readStart } from "./read-start.js";
 
@@ -26,8 +27,11 @@ import { readStart } from "./read-start.js";
 export async function loadTreeFromStream(
   chunks: AsyncIterable<Uint8Array>,
   options: LoadOptions,
+  again?: () => Promise<AsyncIterable<Uint8Array>>,
 ): Promise<Tree> {
   const file = options.file === undefined || options.file === "-" ? undefined : options.file;
+  const table: TableSeen = {};
+  let placeRow: LinkedNodes["placeRow"];
   try {
     const start = await readStart(chunks);
     let linked: LinkedNodes | GraphNodes;
@@ -35,16 +39,30 @@ export async function loadTreeFromStream(
       if (start.complete && !/\S/.test(start.text))
         throw new EspalierError("INPUT_EMPTY", "the input is empty");
       const format = options.format ?? detectFormat(start.text, file, options);
-      linked = await linkedNodes(start.chunks, format, options, Buffer.from(start.text, "utf8"));
+      linked = await linkedNodes(start.chunks, format, options, Buffer.from(start.text, "utf8"), table);
     } catch (error) {
       await start.close();
       throw error;
     }
+    placeRow = linked.placeRow;
     return isGraph(linked) ? buildGraphTree(withNodeRecords(linked, options), file) : buildTree(linked, file);
-  } catch (error) {
+  } catch (caught) {
+    // An error about a row of this input (not of a --nodes file, which names itself): at its line,
+    // and at its cell when the table's bytes can be read again.
+    let error = caught;
+    if (!(error instanceof EspalierError) || error.pos?.file === undefined || error.pos.file === file) {
+      error = placedAtRow(error, placeRow);
+      if (table.delimiter !== undefined && again) error = await placeInTable(error, table.delimiter, again);
+    }
+    error = placingDone(error);
     if (error instanceof EspalierError && file !== undefined) throw error.inFile(file);
     throw error;
   }
+}
+
+/** The delimiter of the CSV or TSV table an input was read as, once known. */
+interface TableSeen {
+  delimiter?: "," | "\t";
 }
 
 async function linkedNodes(
@@ -52,6 +70,7 @@ async function linkedNodes(
   format: InputFormat,
   options: LoadOptions,
   head: Uint8Array,
+  seen: TableSeen,
 ): Promise<LinkedNodes | GraphNodes> {
   if (format === "yaml") {
     // The YAML parser is loaded only for YAML input (a start reads no code it does not run).
@@ -61,6 +80,7 @@ async function linkedNodes(
   if (format === "edges") {
     const delimiter = edgeTableDelimiter(new TextDecoder("utf-8", { ignoreBOM: true }).decode(head), options);
     if (delimiter === null) return edgeListStream(chunks, options);
+    seen.delimiter = delimiter;
     const table = await csvTableFromStream(chunks, delimiter, edgeTableFields(options));
     try {
       return linkGraphTable(table, options, true);
@@ -71,7 +91,7 @@ async function linkedNodes(
   const loader = byteLoader(format, options, head);
   // A JSON graph (rows or an adjacency map) is read whole and parsed.
   if ((format === "json" || format === "rows") && options.graph) {
-    const bytes = await wholeBytes(chunks, "JSON");
+    const bytes = await wholeBytes(chunks, "JSON", limitsOf(options.limits).maxJsonGraphBytes);
     const graph = jsonGraph(new TextDecoder("utf-8", { ignoreBOM: true }).decode(bytes), options);
     if (graph) return graph;
     // No JSON: the JSON loader reads the same bytes and places the error.
@@ -82,9 +102,10 @@ async function linkedNodes(
     for await (const chunk of chunks) loader.write(chunk);
     return loader.end();
   }
+  seen.delimiter = format === "csv" ? "," : "\t";
   const table = await csvTableFromStream(
     chunks,
-    format === "csv" ? "," : "\t",
+    seen.delimiter,
     options.graph ? edgeTableFields(options) : options,
   );
   try {
@@ -104,9 +125,10 @@ async function wholeText(
 }
 
 /**
- * The whole input as bytes (YAML, JSON graphs), at most `maxBytes` (read-limits.ts: the YAML parser
- * holds the whole document and several times its size in nodes) and what a string can hold; else
- * LIMIT_EXCEEDED.
+ * The whole input as bytes (YAML, JSON graphs), at most `maxBytes` (read-limits.ts maxYamlBytes,
+ * maxJsonGraphBytes: the parser holds the whole document and several times its size in values) and
+ * what a string can hold; else LIMIT_EXCEEDED, checked as the chunks arrive (an endless input stops
+ * there).
  */
 async function wholeBytes(
   chunks: AsyncIterable<Uint8Array>,
@@ -124,7 +146,7 @@ async function wholeBytes(
         "LIMIT_EXCEEDED",
         what === "YAML"
           ? `YAML input longer than ${most} bytes is not read (its parser holds the whole document); convert it to JSON, which streams`
-          : `a JSON adjacency map or graph table longer than ${most} bytes cannot be read; write it as an edge list, which streams`,
+          : jsonGraphTooLong(most).message,
       );
     }
   }

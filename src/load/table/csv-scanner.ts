@@ -1,4 +1,5 @@
-import { EspalierError } from "../../errors.js";
+import { EspalierError, type SourcePos } from "../../errors.js";
+import { utf16Length } from "../json/utf16-length.js";
 import { readLimits, tooLong } from "../read-limits.js";
 
 /** Receives the records a {@link CsvScanner} finds, field by field, as byte ranges. */
@@ -32,8 +33,9 @@ const BOM = [0xef, 0xbb, 0xbf];
  *
  * Chunks may be cut anywhere (inside a field, a quote pair, a CRLF or a multi-byte character): the
  * bytes of an unfinished record are kept and scanned again with the next chunk. Nothing is decoded
- * here; the sink gets byte ranges. Errors are PARSE_CSV at the line where the faulty record starts,
- * with the row (records before it, the header included) when there was one.
+ * here; the sink gets byte ranges. Errors are PARSE_CSV at the physical line and column (UTF-16 units of
+ * the decoded text, 1-based, as an editor counts them) of the faulty byte, a quoted field's line breaks
+ * counted; {@link fieldPosition} places a field the same way for a sink.
  */
 export class CsvScanner {
   private readonly quoting: boolean;
@@ -42,8 +44,6 @@ export class CsvScanner {
   private stopped = false;
   /** Line where the next record starts (1-based). */
   private line = 1;
-  /** Records delivered so far (the header included). */
-  private records = 0;
   /** Fields of the first record: every later one must have as many. */
   private width = -1;
   // The current record's field bounds (start, end) and whether a field holds `""` to undo.
@@ -51,6 +51,10 @@ export class CsvScanner {
   private ends = new Int32Array(64);
   private escaped = new Uint8Array(64);
   private scratch = new Uint8Array(256);
+  // The record being delivered to the sink: its bytes, where it starts and its first line.
+  private recordBytes: Uint8Array = new Uint8Array(0);
+  private recordStart = 0;
+  private recordLine = 1;
 
   constructor(
     private readonly delimiter: number,
@@ -63,6 +67,16 @@ export class CsvScanner {
 
   private tooLong(line: number): EspalierError {
     return tooLong(`the record at line ${line}`, this.maxRecordBytes, { line });
+  }
+
+  /**
+   * Where field `f` (0-based) of the record being delivered starts, at its opening quote when it is
+   * quoted: the physical line and the 1-based column in UTF-16 units. Valid only inside the sink's calls.
+   */
+  fieldPosition(f: number): { line: number; column: number } {
+    const s = this.starts[f];
+    const start = this.quoting && s > this.recordStart && this.recordBytes[s - 1] === QUOTE ? s - 1 : s;
+    return positionIn(this.recordBytes, this.recordStart, this.recordLine, start);
   }
 
   /** Whether the sink asked to stop. */
@@ -144,7 +158,7 @@ export class CsvScanner {
           }
           if (k >= n) {
             if (!last) return -1;
-            throw this.error("a quoted field is not closed before the end of the input");
+            throw this.error("a quoted field is not closed before the end of the input", bytes, p, q);
           }
           if (k + 1 < n && bytes[k + 1] === QUOTE) {
             escaped = 1;
@@ -164,6 +178,9 @@ export class CsvScanner {
           if (c !== delimiter && c !== LF && c !== CR)
             throw this.error(
               "a closing quote is followed by other text instead of a delimiter or a line break",
+              bytes,
+              p,
+              q,
             );
         }
       } else {
@@ -172,7 +189,8 @@ export class CsvScanner {
           for (; k < n; k++) {
             const c = bytes[k];
             if (c === delimiter || c === LF || c === CR) break;
-            if (c === QUOTE) throw this.error("a quote inside a field that does not start with one");
+            if (c === QUOTE)
+              throw this.error("a quote inside a field that does not start with one", bytes, p, k);
           }
         } else {
           for (; k < n; k++) {
@@ -207,9 +225,21 @@ export class CsvScanner {
     if (this.width === -1) this.width = fields;
     else if (fields !== this.width) {
       this.line = line;
-      throw this.error(`a record has ${fields} fields where the first had ${this.width}`);
+      // At the first field too many, or where the record ends a field short.
+      let at: number;
+      if (fields > this.width) {
+        at = this.starts[this.width];
+        if (quoting && bytes[at - 1] === QUOTE) at--; // its opening quote
+      } else {
+        at = this.ends[fields - 1];
+        if (quoting && bytes[at] === QUOTE) at++; // after the closing quote
+      }
+      throw this.error(`a record has ${fields} fields where the first had ${this.width}`, bytes, p, at);
     }
     const sink = this.sink;
+    this.recordBytes = bytes;
+    this.recordStart = p;
+    this.recordLine = line;
     for (let f = 0; f < fields; f++) {
       if (this.escaped[f] === 0) sink.field(f, bytes, this.starts[f], this.ends[f]);
       else {
@@ -217,7 +247,6 @@ export class CsvScanner {
         sink.field(f, this.scratch, 0, length);
       }
     }
-    this.records++;
     if (sink.record(fields, line) === true) this.stopped = true;
     return q;
   }
@@ -247,10 +276,31 @@ export class CsvScanner {
     this.escaped = escaped;
   }
 
-  private error(reason: string): EspalierError {
-    const pos = this.records > 0 ? { line: this.line, row: this.records } : { line: this.line };
-    return new EspalierError("PARSE_CSV", `invalid CSV: ${reason}`, pos);
+  /** PARSE_CSV at byte `at` of the record that starts at `bytes[p]` on line `this.line`. */
+  private error(reason: string, bytes: Uint8Array, p: number, at: number): EspalierError {
+    return new EspalierError("PARSE_CSV", `invalid CSV: ${reason}`, positionIn(bytes, p, this.line, at));
   }
+}
+
+/**
+ * The line and column of byte `at` in a record that starts at `bytes[p]`, on line `line`: line breaks
+ * inside quoted fields (LF, CR, CRLF once) start new lines.
+ */
+function positionIn(
+  bytes: Uint8Array,
+  p: number,
+  line: number,
+  at: number,
+): SourcePos & { line: number; column: number } {
+  let lineStart = p;
+  for (let k = p; k < at; k++) {
+    const c = bytes[k];
+    if (c === LF || (c === CR && bytes[k + 1] !== LF)) {
+      line++;
+      lineStart = k + 1;
+    }
+  }
+  return { line, column: utf16Length(bytes, lineStart, at) + 1 };
 }
 
 function isPrefixOfBom(bytes: Uint8Array): boolean {

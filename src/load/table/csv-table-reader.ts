@@ -1,5 +1,5 @@
 import { Buffer } from "node:buffer";
-import { EspalierError } from "../../errors.js";
+import { EspalierError, quoted, say } from "../../errors.js";
 import { asBuffer, codecs } from "../../model/buffer-codecs.js";
 import { NamePool, namesToArray } from "../../model/names.js";
 import type { LoadOptions } from "../load-options.js";
@@ -42,6 +42,10 @@ export class CsvTableReader implements CsvSink {
   private route: (Kept | undefined)[] = [];
   private rows = 0;
   private readonly maxRows: number;
+  /** Lines of rows whose line is not the one after the row before (a quoted line break, a blank line). */
+  private readonly lines = new RowLines();
+  /** Columns (1-based, UTF-16 units) of the header's cells. */
+  private headerColumns: number[] = [];
   // A Buffer over the bytes the scanner hands over, for Node's own UTF-8 decoding of one cell.
   private viewOf: Uint8Array | undefined;
   private view: Buffer = Buffer.alloc(0);
@@ -84,7 +88,7 @@ export class CsvTableReader implements CsvSink {
     this.scanner.end();
     const header = this.header;
     if (header === undefined) throw new EspalierError("INPUT_EMPTY", "the table has no header row");
-    const { at, headerLine } = this;
+    const { at, headerLine, headerColumns, lines } = this;
     let kept = this.kept;
     // As before streaming existed: no further than one row over the limit.
     const length = Math.min(this.rows, this.maxRows + 1);
@@ -95,9 +99,11 @@ export class CsvTableReader implements CsvSink {
         const c = at.get(name);
         if (c === undefined) return undefined;
         if (header.indexOf(name, c + 1) !== -1) {
-          throw new EspalierError("PARSE_CSV", `the header names the column "${name}" more than once`, {
-            line: headerLine,
-          });
+          throw new EspalierError(
+            "PARSE_CSV",
+            say`the header names the column ${quoted.name(name)} more than once`,
+            { line: headerLine, column: headerColumns[header.indexOf(name, c + 1)] },
+          );
         }
         const column = kept.find((k) => k.name === name);
         if (!column) throw new Error(`column "${name}" was not kept while reading`);
@@ -114,12 +120,15 @@ export class CsvTableReader implements CsvSink {
         kept = [];
         at.clear();
       },
+      // The line a row starts on (its cell's column needs the bytes again: see locate-cell.ts).
+      place: (row) => (row >= 1 && row <= length ? { line: lines.lineOf(row) } : undefined),
     };
   }
 
   field(column: number, bytes: Uint8Array, start: number, end: number): void {
     if (this.header === undefined) {
       this.headerCells[column] = this.text(bytes, start, end);
+      this.headerColumns[column] = this.scanner.fieldPosition(column).column;
       return;
     }
     const keep = this.route[column];
@@ -136,6 +145,7 @@ export class CsvTableReader implements CsvSink {
       return false;
     }
     this.rows++;
+    this.lines.add(this.rows, line);
     return this.rows > this.maxRows;
   }
 
@@ -165,6 +175,39 @@ export class CsvTableReader implements CsvSink {
       this.view = asBuffer(bytes);
     }
     return codecs.utf8Slice(this.view, start, end);
+  }
+}
+
+/**
+ * The line each data row starts on, kept sparsely: a row on the line after the row before costs
+ * nothing; only a row after a quoted line break or a blank line is written down.
+ */
+class RowLines {
+  private readonly rows: number[] = [];
+  private readonly shifts: number[] = [];
+  private shift = 0;
+  private first = -1;
+
+  add(row: number, line: number): void {
+    if (this.first === -1) this.first = line - row;
+    const shift = line - row - this.first;
+    if (shift !== this.shift) {
+      this.rows.push(row);
+      this.shifts.push(shift);
+      this.shift = shift;
+    }
+  }
+
+  lineOf(row: number): number {
+    // The last written row at or before `row`.
+    let lo = 0;
+    let hi = this.rows.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (this.rows[mid] <= row) lo = mid + 1;
+      else hi = mid;
+    }
+    return row + this.first + (lo === 0 ? 0 : this.shifts[lo - 1]);
   }
 }
 

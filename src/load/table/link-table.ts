@@ -1,5 +1,5 @@
 import { didYouMean } from "../../did-you-mean.js";
-import { EspalierError, quoted, quotedList, say } from "../../errors.js";
+import { EspalierError, placedAtRow, quoted, quotedList, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { copyName, isEmptyName, NamePool } from "../../model/names.js";
 import { isSize } from "../../model/size-rule.js";
@@ -24,8 +24,14 @@ export function linkTable(
   options: LoadOptions,
   shape: "table" | "rows" = "table",
 ): LinkedNodes {
-  const linked = linkRows(table, options, shape);
+  let linked: LinkedNodes;
+  try {
+    linked = linkRows(table, options, shape);
+  } catch (err) {
+    throw placedAtRow(err, table.place);
+  }
   linked.reading = { shape, sizeUnit: fieldSizeUnit(options.sizeField) };
+  if (table.place) linked.placeRow = table.place;
   return linked;
 }
 
@@ -65,13 +71,16 @@ function linkById(
   for (let r = 0; r < n; r++) {
     const id = cellText(idCells[r]);
     if (id === "")
-      throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${options.idField}"`, { row: r + 1 });
+      throw new EspalierError("SHAPE", say`row ${r + 1} has an empty "${options.idField}"`, {
+        row: r + 1,
+        field: options.idField,
+      });
     const earlier = rowOf.add(id, r);
     if (earlier !== -1) {
       throw new EspalierError(
         "DUPLICATE_ID",
         say`row ${r + 1} repeats the ${options.idField} ${quoted.id(id)} of row ${earlier + 1}`,
-        { row: r + 1 },
+        { row: r + 1, field: options.idField },
       );
     }
   }
@@ -93,7 +102,7 @@ function linkById(
         throw new EspalierError(
           "MISSING_PARENT",
           say`row ${r + 1} names the ${options.parentField} ${quoted.id(cellText(parentId))}, which no row has as its ${options.idField}`,
-          { row: r + 1 },
+          { row: r + 1, field: options.parentField },
         );
       }
       parentOf[r] = p;
@@ -142,8 +151,14 @@ function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptio
   for (let r = 0; r < n; r++) {
     const path = cellText(pathCells[r]);
     // The empty path is the root, as a lock file's "" key (and a listing's start) name it.
-    let i = index.placeText(path, r + 1);
-    if (i === -1) i = index.placeRoot(r + 1);
+    let i: number;
+    try {
+      i = index.placeText(path, r + 1);
+      if (i === -1) i = index.placeRoot(r + 1);
+    } catch (err) {
+      // A repeated path: at its cell.
+      throw err instanceof EspalierError ? err.placed({ field: options.pathField }) : err;
+    }
     nodeOfRow[r] = i;
     const label = names ? cellText(names[r]) : "";
     if (label !== "") sink.name.setString(i, label);
@@ -209,7 +224,7 @@ export function sizeOf(cell: Cell, textCells: boolean, row: number, field: strin
   throw new EspalierError(
     "BAD_SIZE",
     say`the "${field}" of row ${row} must be a number from 0 to 2^53 - 1, got ${quoted.value(typeof cell === "string" ? cell : JSON.stringify(cell))}`,
-    { row },
+    { row, field },
   );
 }
 

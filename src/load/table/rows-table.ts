@@ -1,12 +1,15 @@
-import { EspalierError } from "../../errors.js";
+import { EspalierError, type SourcePos } from "../../errors.js";
 import type { Cell, Table } from "./table.js";
 
-/** A table from a parsed JSON array of flat objects (rows); each element must be an object. */
-export function rowsTable(rows: readonly unknown[]): Table {
+/**
+ * A table from a parsed JSON array of flat objects (rows); each element must be an object. `place`
+ * says where a row starts in the input, when the reader kept that.
+ */
+export function rowsTable(rows: readonly unknown[], place?: (row: number) => SourcePos | undefined): Table {
   for (let r = 0; r < rows.length; r++) {
     const row = rows[r];
     if (typeof row !== "object" || row === null || Array.isArray(row)) {
-      throw new EspalierError("SHAPE", `row ${r + 1} must be an object`, { row: r + 1 });
+      throw new EspalierError("SHAPE", `row ${r + 1} must be an object`, { row: r + 1, ...place?.(r + 1) });
     }
   }
   const records = rows as readonly Record<string, unknown>[];
@@ -27,12 +30,14 @@ export function rowsTable(rows: readonly unknown[]): Table {
         if (typeof value === "object" && value !== null) {
           throw new EspalierError("SHAPE", `the "${name}" of row ${r + 1} must be a plain value`, {
             row: r + 1,
+            ...place?.(r + 1),
           });
         }
         cells[r] = value as Cell;
       }
       return found ? cells : undefined;
     },
+    ...(place ? { place } : {}),
     columnNames() {
       const names = new Set<string>();
       for (const record of records) for (const key of Object.keys(record)) names.add(key);

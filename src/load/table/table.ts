@@ -1,3 +1,4 @@
+import type { SourcePos } from "../../errors.js";
 import type { NamePool } from "../../model/names.js";
 
 /** One cell: text from CSV/TSV, any JSON scalar from rows. */
@@ -18,6 +19,11 @@ export interface Table {
    * keep a parser's closure alive in compiled code long after the load, and with it every cell.
    */
   release?(): void;
+  /**
+   * Where data row `row` (1-based) is in the input: its line and column as far as the table knows them
+   * (the cell of column `field` when it can say), or undefined. It outlives `release`.
+   */
+  place?(row: number, field?: string): SourcePos | undefined;
   /** The column's cells as a name pool, one name per row, when the table kept it so; else undefined. */
   pooledColumn?(name: string): NamePool | undefined;
 }

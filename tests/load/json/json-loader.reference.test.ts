@@ -276,7 +276,8 @@ describe("loadTreeFromStream(json)", () => {
 
   it("loadTreeFromStream(json) reports rows that are not all objects as SHAPE with the row", async () => {
     const error = await outcomeOfAsync(() => loadStreamed(utf8('[{"id":"a"},3]'), opts(), []));
-    expect(error).toEqual({ code: "SHAPE", pos: { row: 2 } });
+    // At the element: [{"id":"a"}, is 12 characters.
+    expect(error).toEqual({ code: "SHAPE", pos: { row: 2, line: 1, column: 13 } });
   });
 
   it("loadTreeFromStream(json) keeps an object or array field as the JSON text JSON.stringify gives", async () => {

@@ -37,7 +37,8 @@ describe("loadTree(paths)", () => {
   it("loadTree(paths) rejects an exact repeat of a listed path as DUPLICATE_PATH naming both lines", () => {
     const error = caught(() => paths("a\na/b\n\na/b\n", { file: "tree.txt" }));
     expect(error.code).toBe("DUPLICATE_PATH");
-    expect(error.pos).toEqual({ file: "tree.txt", line: 4 });
+    // An entry is its whole line: column 1.
+    expect(error.pos).toEqual({ file: "tree.txt", line: 4, column: 1 });
     expect(error.message).toContain("line 2");
   });
 
@@ -50,7 +51,7 @@ describe("loadTree(paths)", () => {
   it("loadTree(paths) requires a size column on every line once the first line has one", () => {
     const error = caught(() => paths("1\ta\na/b\n"));
     expect(error.code).toBe("PARSE_PATHS");
-    expect(error.pos).toEqual({ line: 2 });
+    expect(error.pos).toEqual({ line: 2, column: 1 });
   });
 
   it("loadTree(paths) reads a size with an empty path as the root, as find -printf '%s\\t%P\\n' lists the start", () => {
@@ -63,7 +64,7 @@ describe("loadTree(paths)", () => {
     expect(outline(paths("10\ta\n7\t\n", { rootName: "r" }))).toEqual(["r 7", "  a 10"]);
     const twice = caught(() => paths("1\t\n2\ta\n3\t\n"));
     expect(twice.code).toBe("DUPLICATE_PATH");
-    expect(twice.pos).toEqual({ line: 3 });
+    expect(twice.pos).toEqual({ line: 3, column: 1 });
   });
 
   it("loadTree(paths) with nulSeparated reads entries ended by NUL, names with line breaks included", () => {

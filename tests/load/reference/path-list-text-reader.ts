@@ -70,7 +70,7 @@ export class PathListTextReader {
         throw new EspalierError(
           "PARSE_PATHS",
           `line ${line} has no size column before a tab, unlike line ${this.firstLine}`,
-          { line },
+          { line, column: 1 },
         );
       }
       size = plainDigits(text, start, tab);
@@ -90,7 +90,7 @@ export class PathListTextReader {
         throw new EspalierError(
           "DUPLICATE_PATH",
           `line ${line} repeats the empty path (the root) of line ${this.sink.origin[this.root]}`,
-          { line },
+          { line, column: 1 },
         );
       }
       this.root = this.sink.add(-1, "", line);

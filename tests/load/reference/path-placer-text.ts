@@ -113,7 +113,7 @@ export class PathPlacer {
         throw new EspalierError(
           "DUPLICATE_PATH",
           `${this.unit} ${origin} repeats the path ${shown} of ${this.unit} ${sink.origin[node]}`,
-          this.unit === "row" ? { row: origin } : { line: origin },
+          this.unit === "row" ? { row: origin } : { line: origin, column: 1 },
         );
       }
       sink.origin[node] = origin;

@@ -84,15 +84,15 @@ describe("CsvScanner(delimiter, sink)", () => {
       "field_name",
     ]);
     // §2.4: each line should contain the same number of fields: a record that does not is an error, at
-    // the line where it starts; spaces are part of a field.
+    // the line and column where it ends a field short; spaces are part of a field.
     expect(scan(utf8("aaa, bbb ,ccc\r\n"))).toEqual([["aaa", " bbb ", "ccc"]]);
-    expect(failure("a,b\r\n1,2\r\n3\r\n")).toEqual({ code: "PARSE_CSV", pos: { line: 3, row: 2 } });
+    expect(failure("a,b\r\n1,2\r\n3\r\n")).toEqual({ code: "PARSE_CSV", pos: { line: 3, column: 2 } });
     // §2.5: fields may be enclosed in double quotes; a quote may not appear inside an unquoted field.
     expect(scan(utf8('"aaa","bbb","ccc"\r\nzzz,yyy,xxx'))).toEqual([
       ["aaa", "bbb", "ccc"],
       ["zzz", "yyy", "xxx"],
     ]);
-    expect(failure('a,b\r\n1,2"x"\r\n')).toEqual({ code: "PARSE_CSV", pos: { line: 2, row: 1 } });
+    expect(failure('a,b\r\n1,2"x"\r\n')).toEqual({ code: "PARSE_CSV", pos: { line: 2, column: 4 } });
     // §2.6: line breaks, double quotes and commas inside a field need quotes.
     expect(scan(utf8('"aaa","b\r\nbb","ccc"\r\nzzz,yyy,xxx'))).toEqual([
       ["aaa", "b\r\nbb", "ccc"],
@@ -102,8 +102,8 @@ describe("CsvScanner(delimiter, sink)", () => {
     expect(scan(utf8('"aaa","b""bb","ccc"'))).toEqual([["aaa", 'b"bb', "ccc"]]);
     // A quoted field must end with its closing quote followed by a delimiter or a line break (§2's
     // grammar: escaped = DQUOTE *(TEXTDATA / COMMA / CR / LF / 2DQUOTE) DQUOTE).
-    expect(failure('a,b\r\n"1"x,2\r\n')).toEqual({ code: "PARSE_CSV", pos: { line: 2, row: 1 } });
-    expect(failure('a,b\r\n1,"2\r\n')).toEqual({ code: "PARSE_CSV", pos: { line: 2, row: 1 } });
+    expect(failure('a,b\r\n"1"x,2\r\n')).toEqual({ code: "PARSE_CSV", pos: { line: 2, column: 4 } });
+    expect(failure('a,b\r\n1,"2\r\n')).toEqual({ code: "PARSE_CSV", pos: { line: 2, column: 3 } });
   });
 
   it("skips empty lines and a byte order mark, and counts lines inside quoted fields", () => {
@@ -113,7 +113,7 @@ describe("CsvScanner(delimiter, sink)", () => {
       ["1", "2"],
     ]);
     expect(scan(utf8('a\n""\n'))).toEqual([["a"], [""]]);
-    expect(failure('a,b\n"x\ny\r\nz",1\n\n3\n')).toEqual({ code: "PARSE_CSV", pos: { line: 6, row: 2 } });
+    expect(failure('a,b\n"x\ny\r\nz",1\n\n3\n')).toEqual({ code: "PARSE_CSV", pos: { line: 6, column: 2 } });
   });
 
   it("reads TSV with the quote as an ordinary byte", () => {

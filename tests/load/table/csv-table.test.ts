@@ -31,7 +31,8 @@ describe("loadTree(csv) against RFC 4180 section 2", () => {
     expect(csv("path,size\r\n a b ,1\r\n").name).toEqual([" a b "]);
     const error = caught(() => csv("path,size\r\naaa,1\r\nbbb\r\n"));
     expect(error.code).toBe("PARSE_CSV");
-    expect(error.pos).toEqual({ line: 3, row: 2 });
+    // Where the short record ends, after "bbb".
+    expect(error.pos).toEqual({ line: 3, column: 4 });
   });
 
   it("loadTree(csv) reads fields with or without enclosing double quotes alike", () => {
@@ -58,10 +59,10 @@ describe("loadTree(csv) against RFC 4180 section 2", () => {
 });
 
 describe("loadTree(csv) errors", () => {
-  it("loadTree(csv) reports an unclosed quote as PARSE_CSV at the line where its record starts", () => {
+  it("loadTree(csv) reports an unclosed quote as PARSE_CSV at its opening quote", () => {
     const error = caught(() => csv('id,parent\n1,\n2,"1\n3,1\n', { file: "org.csv" }));
     expect(error.code).toBe("PARSE_CSV");
-    expect(error.pos).toEqual({ file: "org.csv", line: 3, row: 2 });
+    expect(error.pos).toEqual({ file: "org.csv", line: 3, column: 3 });
   });
 
   it("loadTree(csv) reports a stray quote inside an unquoted field as PARSE_CSV with its line", () => {
@@ -69,19 +70,22 @@ describe("loadTree(csv) errors", () => {
     // not appear inside the fields.
     const error = caught(() => csv('id,parent\n1,\n\n2,1"x"\n'));
     expect(error.code).toBe("PARSE_CSV");
-    expect(error.pos).toEqual({ line: 4, row: 2 });
+    // Line 4 (after a blank line), column 4: the quote itself.
+    expect(error.pos).toEqual({ line: 4, column: 4 });
   });
 
   it("loadTree(csv) reports a ragged record after a multi-line one at the line where it starts", () => {
     const error = caught(() => csv('id,parent,name\n1,,"a\nb"\n2,1\n'));
     expect(error.code).toBe("PARSE_CSV");
-    expect(error.pos).toEqual({ line: 4, row: 2 });
+    // The quoted field's line break counts: "2,1" is line 4 and ends a field short at column 4.
+    expect(error.pos).toEqual({ line: 4, column: 4 });
   });
 
   it("loadTree(csv) rejects a header naming a used column twice", () => {
     const error = caught(() => csv("id,parent,id\n1,,1\n"));
     expect(error.code).toBe("PARSE_CSV");
-    expect(error.pos).toEqual({ line: 1 });
+    // The second "id".
+    expect(error.pos).toEqual({ line: 1, column: 11 });
   });
 
   it("loadTree(csv) rejects a header without data rows as INPUT_EMPTY", () => {
@@ -91,7 +95,7 @@ describe("loadTree(csv) errors", () => {
   it("loadTree(csv) stops with LIMIT_EXCEEDED at the first row over maxNodes", () => {
     const error = caught(() => csv("id,parent\n1,\n2,1\n3,1\n4,1\n", { maxNodes: 2 }));
     expect(error.code).toBe("LIMIT_EXCEEDED");
-    expect(error.pos).toEqual({ row: 3 });
+    expect(error.pos).toEqual({ row: 3, line: 4, column: 1 });
   });
 });
 
@@ -105,6 +109,6 @@ describe("loadTree(tsv)", () => {
   it("loadTree(tsv) reports a ragged row as PARSE_CSV with its line", () => {
     const error = caught(() => tsv("id\tparent\n1\t\n2\n"));
     expect(error.code).toBe("PARSE_CSV");
-    expect(error.pos).toEqual({ line: 3, row: 2 });
+    expect(error.pos).toEqual({ line: 3, column: 2 });
   });
 });

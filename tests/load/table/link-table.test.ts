@@ -53,27 +53,30 @@ describe("linkTable by id and parent", () => {
   it("loadTree(csv) rejects a repeated id as DUPLICATE_ID at the second row, naming the first", () => {
     const error = caught(() => csv("id,parent\na,\nb,a\na,b\n"));
     expect(error.code).toBe("DUPLICATE_ID");
-    expect(error.pos).toEqual({ row: 3 });
+    // Line 4 (the header is line 1), column 1: the id cell (RFC 4180 §2.1-2.4 line and field layout).
+    expect(error.pos).toEqual({ row: 3, line: 4, column: 1 });
     expect(error.message).toContain("row 1");
   });
 
   it("loadTree(csv) rejects a parent id no row has as MISSING_PARENT at that row", () => {
     const error = caught(() => csv("id,parent\na,\nb,zz\n", { file: "org.csv" }));
     expect(error.code).toBe("MISSING_PARENT");
-    expect(error.pos).toEqual({ file: "org.csv", row: 2 });
+    // The parent cell "zz": line 3, after "b," (RFC 4180 §2.4 fields).
+    expect(error.pos).toEqual({ file: "org.csv", row: 2, line: 3, column: 3 });
   });
 
   it("loadTree(csv) reports rows whose parents form a loop as CYCLE", () => {
     const error = caught(() => csv("id,parent\nr,\na,b\nb,a\n"));
     expect(error.code).toBe("CYCLE");
-    expect(error.pos).toEqual({ row: 2 });
+    expect(error.pos).toEqual({ row: 2, line: 3, column: 1 });
   });
 
   it("loadTree(csv) rejects a size that is not a number >= 0 as BAD_SIZE at its row", () => {
     for (const size of ["-1", "12KB", "0x10", "NaN", "Infinity"]) {
       const error = caught(() => csv(`id,parent,size\na,,1\nb,a,${size}\n`));
       expect(error.code).toBe("BAD_SIZE");
-      expect(error.pos).toEqual({ row: 2 });
+      // The size cell, after "b,a,".
+      expect(error.pos).toEqual({ row: 2, line: 3, column: 5 });
     }
     expect([...csv("id,parent,size\na,,\nb,a, 2.5e1 \n").ownSize]).toEqual([0, 25]);
   });
@@ -111,7 +114,7 @@ describe("linkTable by id and parent", () => {
   });
 
   it("loadTree(csv) rejects an empty id as SHAPE at its row", () => {
-    expect(caught(() => csv("id,parent\na,\n,a\n")).pos).toEqual({ row: 2 });
+    expect(caught(() => csv("id,parent\na,\n,a\n")).pos).toEqual({ row: 2, line: 3, column: 1 });
   });
 });
 
@@ -136,7 +139,7 @@ describe("linkTable by path", () => {
   it("loadTree(csv) rejects a path repeated by a later row as DUPLICATE_PATH naming both rows", () => {
     const error = caught(() => csv("path\na/b\na\na/b/\n"));
     expect(error.code).toBe("DUPLICATE_PATH");
-    expect(error.pos).toEqual({ row: 3 });
+    expect(error.pos).toEqual({ row: 3, line: 4, column: 1 });
     expect(error.message).toContain("row 1");
   });
 
@@ -163,12 +166,13 @@ describe("linkTable from JSON rows", () => {
   it("loadTree(rows) rejects a text size as BAD_SIZE at its row", () => {
     const error = caught(() => rows([{ id: "a" }, { id: "b", parent: "a", size: "12" }]));
     expect(error.code).toBe("BAD_SIZE");
-    expect(error.pos).toEqual({ row: 2 });
+    // The row's "{": [{"id":"a"}, is 12 characters.
+    expect(error.pos).toEqual({ row: 2, line: 1, column: 13 });
   });
 
   it("loadTree(rows) rejects an element that is not an object as SHAPE at its row", () => {
     const error = caught(() => rows([{ id: "a" }, 7]));
     expect(error.code).toBe("SHAPE");
-    expect(error.pos).toEqual({ row: 2 });
+    expect(error.pos).toEqual({ row: 2, line: 1, column: 13 });
   });
 });

@@ -1,0 +1,106 @@
+import { mkdtempSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { errorCodes } from "../../src/errors.js";
+import { runBin } from "../helpers/bin.js";
+import { oneErrorLine } from "./error-line.js";
+
+// The one error contract, end to end through bin/espalier.js: every failure is one line
+// `espalier: [FILE:LINE:COL: ]message [CODE]`, 1-based line and column (UTF-16 units of the decoded
+// text, as an editor counts), a code from the closed list, never INTERNAL, never a position twice.
+// Each expected position is counted by hand on the input beside it (RFC 4180 §2 for the CSV layout:
+// records end at a line break, fields are split by the delimiter, a quoted field may hold line breaks).
+
+const dir = mkdtempSync(join(tmpdir(), "espalier-contract-"));
+function file(name: string, text: string): string {
+  const path = join(dir, name);
+  writeFileSync(path, text);
+  return path;
+}
+
+async function errorOf(args: string[], stdin?: string) {
+  const r = await runBin(args, stdin === undefined ? {} : { stdin });
+  const e = oneErrorLine({ code: r.code ?? -1, stdout: r.stdout, stderr: r.stderr });
+  expect(errorCodes as readonly string[], r.stderr).toContain(e.code);
+  return { ...e, text: r.stderr };
+}
+
+describe("espalier FILE: one error line with the file, line and column of the fault", () => {
+  it("a CSV row's fault is at its cell: bad size, missing parent, duplicate id, empty id, cycle", async () => {
+    const cases: [string, string, number, number][] = [
+      // [table, code, line, column]
+      ["id,parent,size\nr,,1\na,r,x\n", "BAD_SIZE", 3, 5],
+      ["id,parent,size\nr,,1\na,q,2\n", "MISSING_PARENT", 3, 3],
+      ["id,parent,size\nr,,1\na,r,2\na,r,3\n", "DUPLICATE_ID", 4, 1],
+      ["id,parent,size\nr,,1\n,r,2\n", "SHAPE", 3, 1],
+      ["id,parent\nr,\na,b\nb,a\n", "CYCLE", 3, 1],
+      ["size,path\n1,a/b\n2,a/b\n", "DUPLICATE_PATH", 3, 3],
+    ];
+    for (const [table, code, line, column] of cases) {
+      const path = file("t.csv", table);
+      expect(await errorOf([path]), table).toMatchObject({ code, file: path, line, column });
+    }
+  });
+
+  it("a quoted CSV field spanning lines: later faults are on their physical line", async () => {
+    // Row 2's name spans lines 3-4; row 3 starts on line 5, its size field ("x\ny", quoted) at column 7.
+    const path = file("multi.csv", 'id,parent,size\nr,,1\n"a\nb",r,2\n"c",r,"x\ny"\n');
+    expect(await errorOf([path])).toMatchObject({ code: "BAD_SIZE", line: 5, column: 7 });
+    // A stray quote inside an unquoted field, after a multi-line record: the quote's own line and column.
+    const stray = file("stray.csv", 'id,parent,name\nr,,"Quill\nfeather"\na,r,x"y\n');
+    expect(await errorOf([stray])).toMatchObject({ code: "PARSE_CSV", line: 4, column: 6 });
+    // A record with a field too many: at that field.
+    const ragged = file("ragged.csv", 'id,parent\nr,\n"a\nb",r,3\n');
+    expect(await errorOf([ragged])).toMatchObject({ code: "PARSE_CSV", line: 4, column: 6 });
+  });
+
+  it("TSV columns count UTF-16 units: two-unit and multi-byte characters before the field", async () => {
+    // ä (1 unit), € (1), 😀 (2 units: a surrogate pair), then a tab: the parent cell at 6, size at 8.
+    const path = file("u.tsv", "id\tparent\tsize\nr\t\t1\nä€😀\tr\tx\n");
+    expect(await errorOf([path])).toMatchObject({ code: "BAD_SIZE", line: 3, column: 8 });
+  });
+
+  it("JSON rows and YAML: at the row's or value's line and column", async () => {
+    const rows = file("rows.json", '[{"id":"r","parent":null},\n {"id":"a","parent":"q"}]');
+    expect(await errorOf([rows])).toMatchObject({ code: "MISSING_PARENT", line: 2, column: 2 });
+    const nested = file("n.json", '{"name":"r","children":[{"name":"a","size":-1}]}');
+    expect(await errorOf([nested])).toMatchObject({ code: "BAD_SIZE", line: 1, column: 44 });
+  });
+
+  it("a position is never printed twice, and a row never stands in for a line", async () => {
+    for (const table of ["id,parent,size\nr,,1\na,r,x\n", "id,parent\nr,\na,q\n"]) {
+      const { text } = await errorOf([file("twice.csv", table)]);
+      expect(text).not.toMatch(/row \d+: row \d+/);
+      expect(text).toMatch(/^espalier: [^:]+:\d+:\d+: /);
+    }
+  });
+
+  it("from standard input (not read again) a table row's fault names its line", async () => {
+    const e = await errorOf(["-", "--input-format", "csv"], 'id,parent\nr,\n"a\nb",r\nc,q\n');
+    expect(e).toMatchObject({ code: "MISSING_PARENT", file: "<stdin>", line: 5 });
+  });
+
+  it("path lists, foci files and usage errors keep the same one-line form", async () => {
+    // A path list's entry is its whole line: column 1.
+    const twice = file("twice.txt", "a/b\na/c\na/b\n");
+    expect(await errorOf([twice, "--input-format", "paths"])).toMatchObject({
+      code: "DUPLICATE_PATH",
+      file: twice,
+      line: 3,
+      column: 1,
+    });
+    const list = file("list.txt", "a/b\na/c\n");
+    expect((await errorOf([list, "--budgt", "3"])).code).toBe("USAGE");
+    // A --focus-from line that matches nothing: at that line of the foci file, no second position.
+    const foci = file("foci.txt", "a/b\na/zz\n");
+    const e = await errorOf([list, "--input-format", "paths", "--focus-from", foci]);
+    expect(e).toMatchObject({ code: "FOCUS_NO_MATCH", file: foci, line: 2, column: 1 });
+    expect(e.text).not.toContain("line 2");
+    // A config file that is no YAML: the parser's own "at line N, column M" is not repeated.
+    const config = file("bad.yaml", "budget: [1\n");
+    const c = await errorOf([list, "--config", config]);
+    expect(c).toMatchObject({ code: "USAGE", file: config, line: 2, column: 1 });
+    expect(c.text).not.toMatch(/at line \d/);
+  });
+});
