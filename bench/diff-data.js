@@ -7,10 +7,10 @@
 //
 // Usage on its own: node bench/diff-data.js [--nodes N] [--force]
 
-import { closeSync, existsSync, openSync, readFileSync, statSync, writeFileSync, writeSync } from "node:fs";
+import { existsSync, readFileSync, statSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
-import { dataDir, ensureData, makeRng } from "./generate.js";
+import { csvCell, dataDir, ensureData, makeRng, Out } from "./generate.js";
 
 /** Bump when the edits change for the same parameters (invalidates old manifests). */
 export const DIFF_DATA_VERSION = 1;
@@ -319,34 +319,6 @@ function expectedCounts(tree, flags, addedCount) {
 
 // ---------------------------------------------------------------------------------------------------------
 // Writers
-
-class Out {
-  constructor(path) {
-    this.fd = openSync(path, "w");
-    this.parts = [];
-    this.length = 0;
-    this.bytes = 0;
-  }
-  write(s) {
-    this.parts.push(s);
-    this.length += s.length;
-    if (this.length > 1 << 20) this.flush();
-  }
-  flush() {
-    const buf = Buffer.from(this.parts.join(""), "utf8");
-    writeSync(this.fd, buf);
-    this.bytes += buf.length;
-    this.parts = [];
-    this.length = 0;
-  }
-  close() {
-    this.flush();
-    closeSync(this.fd);
-    return this.bytes;
-  }
-}
-
-const csvCell = (s) => (/[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
 
 /** Same ids; rows in id order (a moved row may now come before its parent), added rows last. */
 function writeCsv(tree, edits, file) {

@@ -146,7 +146,8 @@ function childBudgets(rng, budget, depth, maxDepth) {
 // ---------------------------------------------------------------------------------------------------------
 // Writers: buffered, synchronous, one file per format.
 
-class Out {
+/** A file written in pieces of about 1 MiB; `close()` returns the bytes written. */
+export class Out {
   constructor(path) {
     this.fd = openSync(path, "w");
     this.parts = [];
@@ -169,10 +170,12 @@ class Out {
   close() {
     this.flush();
     closeSync(this.fd);
+    return this.bytes;
   }
 }
 
-const csvCell = (s) => (/[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
+/** A CSV cell (RFC 4180): quoted when it holds a comma, a quote or a line break. */
+export const csvCell = (s) => (/[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
 
 /**
  * Generates the tree in pre-order and streams it to the requested formats. Memory is O(depth + widest

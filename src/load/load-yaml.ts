@@ -204,7 +204,21 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
       return yamlValues(root as Node, text, lineCounter, options);
     case "rows": {
       const items = access.items(root);
-      return linkTable(rowsTable(items.map((item) => recordOf(item, access))), options, "rows");
+      // A row's fault at its cell's value (or the row itself), as the parser places them.
+      const place = (row: number, field?: string) => {
+        const item = items[row - 1];
+        if (item === undefined) return undefined;
+        const cell = field === undefined ? undefined : access.field(item, field);
+        return (cell === undefined ? undefined : access.pos(cell)) ?? access.pos(item);
+      };
+      return linkTable(
+        rowsTable(
+          items.map((item) => recordOf(item, access)),
+          place,
+        ),
+        options,
+        "rows",
+      );
     }
     case "path-map": {
       const map = reading.field === "" ? root : (access.field(root, reading.field) ?? null);

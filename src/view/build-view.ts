@@ -19,7 +19,8 @@ export interface ViewInput {
   /** The foci, sorted node indices. */
   readonly foci: Int32Array;
   readonly selection: Selection;
-  readonly label: Labeller;
+  /** Each node's display text; default its printed name. */
+  readonly label?: Labeller;
   /** Names, paths and ids as printed; default the input's own (see model/printed-names.ts). */
   readonly names?: PrintedNames;
   /** Graphs only: a focus's parents (see {@link ParentsOf}). */
@@ -31,8 +32,9 @@ export interface ViewInput {
  * that at every shown node: nodes = 1 + sum of shown children's nodes + hidden.nodes (size likewise).
  */
 export function buildView(input: ViewInput): HierarchyNode<ViewNode> {
-  const { index, scores, foci, selection, label, parentsOf } = input;
+  const { index, scores, foci, selection, parentsOf } = input;
   const { nameOf, pathOf, idOf } = input.names ?? printedNames(index.tree, index, undefined);
+  const label = input.label ?? nameOf;
   const { tree, measures } = index;
   const { count, nodes, size, children } = measures;
   const ref = tree.referenceTo;

@@ -49,13 +49,7 @@ describe("select({tree, measures, scores, order}, {budget, headerLines, chains})
           return;
         }
         const sel = run(budget);
-        const view = buildView({
-          index: new PathIndex(tree, m),
-          scores,
-          foci,
-          selection: sel,
-          label: (i) => tree.name.get(i),
-        });
+        const view = buildView({ index: new PathIndex(tree, m), scores, foci, selection: sel });
         const text = renderText(view, { units: "bytes", sizes: true, chains });
         const lines = text.split("\n").length - 1;
         expect(lines).toBe(sel.lines);
@@ -116,13 +110,7 @@ describe("select({tree, measures, scores, order}, {budget, headerLines, chains})
       fc.property(arbTreeWithFoci(), budgets, ([tree, f], b) => {
         const { m, foci, scores, forcedCount, run } = setup(tree, f);
         const sel = run(Math.max(b, forcedCount));
-        const view = buildView({
-          index: new PathIndex(tree, m),
-          scores,
-          foci,
-          selection: sel,
-          label: (i) => tree.name.get(i),
-        });
+        const view = buildView({ index: new PathIndex(tree, m), scores, foci, selection: sel });
         let hiddenNodes = 0;
         let shownNodes = 0;
         view.each((h) => {

@@ -62,13 +62,7 @@ describe("shortcuts for wide nodes", () => {
           } catch {
             return;
           }
-          const view = buildView({
-            index: new PathIndex(tree, m),
-            scores,
-            foci,
-            selection: sel,
-            label: (i) => tree.name.get(i),
-          });
+          const view = buildView({ index: new PathIndex(tree, m), scores, foci, selection: sel });
           view.each(({ data }: { data: ViewNode }) => {
             const i = data.index;
             let children = 0;

@@ -1,5 +1,4 @@
 import { describe, expect, it } from "vitest";
-import { EspalierError } from "../../src/errors.js";
 import type { FocusSpec } from "../../src/focus/focus-spec.js";
 import { listedNode } from "../../src/focus/listed-node.js";
 import { resolveSpecs } from "../../src/focus/resolve-specs.js";
@@ -9,21 +8,12 @@ import { measure } from "../../src/model/measure.js";
 import { PathIndex } from "../../src/model/path-index.js";
 import { pseudonym } from "../../src/model/pseudonym.js";
 import type { Tree } from "../../src/model/tree.js";
+import { caught } from "../load/helpers.js";
 
 const indexOf = (tree: Tree) => new PathIndex(tree, measure(tree));
 const paths = (text: string, file = "files.paths") =>
   loadTree(text, { ...defaultLoadOptions, file, rootName: file });
 const listed = (...lines: string[]): FocusSpec[] => lines.map((l, k) => ({ listed: l, line: k + 1 }));
-
-function caught(fn: () => unknown): EspalierError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof EspalierError) return e;
-    throw e;
-  }
-  throw new Error("expected an EspalierError");
-}
 
 // A listing as `git ls-files` prints one (paths relative to the top, `/`-separated); the names are
 // invented, one with a `~` and one with glob characters, which are ordinary characters in a file name

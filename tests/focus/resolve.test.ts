@@ -1,6 +1,5 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { EspalierError } from "../../src/errors.js";
 import { resolveFoci, resolvePath } from "../../src/focus/resolve.js";
 import { buildTree } from "../../src/model/build-tree.js";
 import { measure } from "../../src/model/measure.js";
@@ -8,19 +7,10 @@ import { PathIndex } from "../../src/model/path-index.js";
 import type { Tree } from "../../src/model/tree.js";
 import { makeTree, nodeNamed } from "../helpers/make-tree.js";
 import { arbTree } from "../helpers/random-tree.js";
+import { caught } from "../load/helpers.js";
 
 const indexOf = (tree: Tree) => new PathIndex(tree, measure(tree));
 const names = (tree: Tree, nodes: Int32Array) => [...nodes].map((i) => tree.name.get(i));
-
-function caught(fn: () => unknown): EspalierError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof EspalierError) return e;
-    throw e;
-  }
-  throw new Error("expected an EspalierError");
-}
 
 describe("resolveFoci(index, specs)", () => {
   const tree = makeTree("R{src{lib{a.ts,b.ts},test{a.test.ts}},docs{lib{guide.md}},README.md}");

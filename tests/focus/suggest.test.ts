@@ -1,7 +1,6 @@
 import fc from "fast-check";
 import { distance } from "fastest-levenshtein";
 import { describe, expect, it } from "vitest";
-import { EspalierError } from "../../src/errors.js";
 import { boundedDistance, distanceWork } from "../../src/focus/bounded-distance.js";
 import { resolveFoci } from "../../src/focus/resolve.js";
 import { editsAllowed, MAX_SUGGEST_WORK, suggestFoci } from "../../src/focus/suggest.js";
@@ -12,22 +11,13 @@ import { printedNames } from "../../src/model/printed-names.js";
 import { pseudonym } from "../../src/model/pseudonym.js";
 import type { Tree } from "../../src/model/tree.js";
 import { makeTree, nodeNamed } from "../helpers/make-tree.js";
+import { caught } from "../load/helpers.js";
 
 const indexOf = (tree: Tree) => new PathIndex(tree, measure(tree));
 const suggest = (tree: Tree, spec: string) => {
   const index = indexOf(tree);
   return suggestFoci(index, spec, printedNames(tree, index, undefined));
 };
-
-function caught(fn: () => unknown): EspalierError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof EspalierError) return e;
-    throw e;
-  }
-  throw new Error("expected an EspalierError");
-}
 
 // The tidewater monorepo (invented): two "src" folders far apart.
 const repo = makeTree(

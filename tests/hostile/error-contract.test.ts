@@ -61,9 +61,14 @@ describe("espalier FILE: one error line with the file, line and column of the fa
     expect(await errorOf([path])).toMatchObject({ code: "BAD_SIZE", line: 3, column: 8 });
   });
 
-  it("JSON rows and YAML: at the row's or value's line and column", async () => {
+  it("JSON rows, YAML rows and nested JSON: at the row's, cell's or value's line and column", async () => {
     const rows = file("rows.json", '[{"id":"r","parent":null},\n {"id":"a","parent":"q"}]');
     expect(await errorOf([rows])).toMatchObject({ code: "MISSING_PARENT", line: 2, column: 2 });
+    // YAML rows: at the cell's value ("zz" after "  parent: "; "x" after "  size: ").
+    const yaml = file("rows.yaml", "- id: r\n  parent: null\n- id: a\n  parent: zz\n");
+    expect(await errorOf([yaml])).toMatchObject({ code: "MISSING_PARENT", line: 4, column: 11 });
+    const size = file("size.yaml", "- id: r\n  parent: null\n- id: a\n  parent: r\n  size: x\n");
+    expect(await errorOf([size])).toMatchObject({ code: "BAD_SIZE", line: 5, column: 9 });
     const nested = file("n.json", '{"name":"r","children":[{"name":"a","size":-1}]}');
     expect(await errorOf([nested])).toMatchObject({ code: "BAD_SIZE", line: 1, column: 44 });
   });

@@ -380,6 +380,40 @@ describe("renderSvg(view, options)", () => {
     );
   });
 
+  it("writes each block's change in words inside it, and what changed inside a fold", () => {
+    const r = diffTrees(
+      makeIdTree("R{A{x:1,y:1},B{z:1},C:2,D:3,H{h1:1,h2:1,h3:1}}"),
+      makeIdTree("R{A{y:1},B{z:1,x:1},E:1,D:9,H{h1:1,h3:5}}"),
+      { foci: [], budget: 8, importance: "depth" },
+    );
+    const svg = renderSvg(r.view, {
+      units: "plain",
+      sizes: true,
+      width: 3000,
+      changeOf: (n) => n.change,
+      changesIn: (n, folded) => (folded ? n.hidden!.changes : n.changes),
+    });
+    const blocks = blocksOf(svg);
+    const texts = (b: Block) => [...b.group.getElementsByTagName("text")].map((e) => e.textContent!);
+    let changed = 0;
+    for (const b of blocks) {
+      const kind = ["added", "removed", "moved", "renamed", "edited", "resized"].find((k) =>
+        b.kind.split(" ").includes(k),
+      );
+      if (kind) {
+        expect(
+          texts(b).some((t) => t.startsWith(kind)),
+          `${b.title}`,
+        ).toBe(true);
+        changed++;
+      }
+    }
+    expect(changed).toBeGreaterThan(0);
+    // H's fold hides one removed (h2) and one resized (h3) node, and says so.
+    const fold = blocks.find((b) => b.kind === "folded" && b.title.includes("under H"))!;
+    expect(texts(fold)).toContain("1 removed, 1 resized");
+  });
+
   it("marks each change kind of a diff by a shape or outline besides its tint, with a legend", () => {
     const r = diffTrees(
       makeIdTree("R{A{x:1,y:1},B{z:1},C:2,D:3}"),

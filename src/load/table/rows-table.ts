@@ -3,9 +3,12 @@ import type { Cell, Table } from "./table.js";
 
 /**
  * A table from a parsed JSON array of flat objects (rows); each element must be an object. `place`
- * says where a row starts in the input, when the reader kept that.
+ * says where a row (or its cell of a field) is in the input, when the reader kept that.
  */
-export function rowsTable(rows: readonly unknown[], place?: (row: number) => SourcePos | undefined): Table {
+export function rowsTable(
+  rows: readonly unknown[],
+  place?: (row: number, field?: string) => SourcePos | undefined,
+): Table {
   for (let r = 0; r < rows.length; r++) {
     const row = rows[r];
     if (typeof row !== "object" || row === null || Array.isArray(row)) {
@@ -30,7 +33,7 @@ export function rowsTable(rows: readonly unknown[], place?: (row: number) => Sou
         if (typeof value === "object" && value !== null) {
           throw new EspalierError("SHAPE", `the "${name}" of row ${r + 1} must be a plain value`, {
             row: r + 1,
-            ...place?.(r + 1),
+            ...place?.(r + 1, name),
           });
         }
         cells[r] = value as Cell;

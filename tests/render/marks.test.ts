@@ -1,0 +1,55 @@
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { changeKinds } from "../../src/diff/changes.js";
+import { diffTrees } from "../../src/diff/diff-trees.js";
+import { renderDiffText } from "../../src/render/diff-text.js";
+import { LEGEND_LINES, legendLines, MARK } from "../../src/render/marks.js";
+import { palette } from "../../src/render/palette.js";
+import { renderText } from "../../src/render/summary-text.js";
+import { prepare, summarize } from "../../src/summarize.js";
+import { arbEdited } from "../diff/edit-script.js";
+import { arbTree } from "../helpers/random-tree.js";
+
+const marks = Object.values(MARK);
+/** Every line after the header: an indent, one of the marks, a space. */
+const marked = new RegExp(`^ *[${marks.map((m) => `\\${m}`).join("")}] `);
+
+describe("MARK and legendLines(kind)", () => {
+  it("gives each meaning its own mark, none of them a sign a line diff uses", () => {
+    // POSIX.1-2017 diff: '<' and '>' mark the lines of each file, '!' a changed line in context
+    // output, and the unified format (diff -u, in POSIX since 2008) '+' and '-'.
+    expect(new Set(marks).size).toBe(marks.length);
+    for (const m of marks) expect(["+", "-", "<", ">", "!"]).not.toContain(m);
+  });
+
+  it("starts every line of a summary and of a diff with an indent and a mark, the same set in both (property)", () => {
+    fc.assert(
+      fc.property(arbTree(30), arbEdited(25), fc.integer({ min: 2, max: 20 }), (tree, edited, budget) => {
+        const summary = summarize(prepare(tree), { foci: [], budget, importance: "depth" });
+        const text = renderText(summary.view, { units: "plain", sizes: true });
+        const diff = diffTrees(edited.oldTree, edited.newTree, { foci: [], budget, importance: "depth" });
+        const diffText = renderDiffText(diff.view, diff.totals, { units: "plain", sizes: true, by: "id" });
+        for (const line of [...text.trimEnd().split("\n"), ...diffText.trimEnd().split("\n")])
+          expect(line).toMatch(marked);
+      }),
+      { numRuns: 40 },
+    );
+  });
+
+  it("explains every mark a summary or diff line uses, in as many lines as LEGEND_LINES says", () => {
+    for (const kind of ["summary", "diff"] as const) {
+      const lines = legendLines(kind);
+      expect(lines).toHaveLength(LEGEND_LINES[kind]);
+      for (const m of [MARK.focus, MARK.path, MARK.other]) expect(lines[0]).toContain(` ${m} `);
+    }
+    for (const kind of ["added", "removed", "moved", "renamed", "edited", "resized"])
+      expect(legendLines("diff").join(" ")).toContain(`[${kind}`);
+  });
+
+  it("colours each change kind differently (the tag's word carries the kind without colour)", () => {
+    const p = palette(true);
+    const styled = changeKinds.map((k) => p.change[k]("x"));
+    expect(new Set(styled).size).toBe(changeKinds.length);
+    for (const k of changeKinds) expect(palette(false).change[k]("x")).toBe("x");
+  });
+});
