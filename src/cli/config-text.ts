@@ -1,5 +1,5 @@
 import { isMap, isScalar, LineCounter, parseDocument } from "yaml";
-import { didYouMeanText } from "../did-you-mean.js";
+import { didYouMean } from "../did-you-mean.js";
 import { EspalierError, type SourcePos } from "../errors.js";
 import { configSchema } from "./options.js";
 import { issueMessage } from "./validate-options.js";
@@ -56,11 +56,12 @@ export function parseConfigWithPositions(
     const issue = parsed.error.issues[0];
     if (issue.code === "unrecognized_keys") {
       const key = issue.keys[0];
+      const suggestion = didYouMean(key, Object.keys(configSchema.shape));
       throw new EspalierError(
         "USAGE",
-        `config key ${key} is not an option${didYouMeanText(key, Object.keys(configSchema.shape))}`,
+        `config key ${key} is not an option${suggestion === undefined ? "" : `; did you mean ${suggestion}?`}`,
         keyPos.get(key) ?? { file },
-        { key },
+        suggestion === undefined ? { key } : { key, suggestion },
       );
     }
     const key = String(issue.path[0]);

@@ -1,6 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { parse } from "yaml";
 import { configSchema } from "../../src/cli/config.js";
+import { parseConfig } from "../../src/cli/config-text.js";
+import type { EspalierError } from "../../src/errors.js";
 import { cli } from "../helpers/cli.js";
 
 const STDIN = "10\ta/x\n20\ta/y\n5\tb/z\n7\tb/w\n";
@@ -41,6 +43,23 @@ describe("the project config file (.espalier.yaml, --config)", () => {
     const yaml = await cli(["-"], { stdin: STDIN, files: { ".espalier.yaml": "budget: [3\n" } });
     expect(yaml.code).toBe(2);
     expect(yaml.stderr).toMatch(/\.espalier\.yaml:\d+:\d+/);
+  });
+
+  it("names the nearest option for a misspelt config key, and none for a key near nothing", () => {
+    const error = (text: string) => {
+      try {
+        parseConfig(text, ".espalier.yaml");
+      } catch (err) {
+        return err as EspalierError;
+      }
+      throw new Error("no error");
+    };
+    expect(error("budgett: 3\n")).toMatchObject({
+      code: "USAGE",
+      details: { key: "budgett", suggestion: "budget" },
+    });
+    expect(error("widht: 80\n").details).toEqual({ key: "widht", suggestion: "width" });
+    expect(error("zzzzzzzz: 1\n").details).toEqual({ key: "zzzzzzzz" });
   });
 
   it("refuses a config whose aliases expand too far with LIMIT_EXCEEDED naming the file, never INTERNAL", async () => {
