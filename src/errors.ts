@@ -6,8 +6,9 @@ export interface SourcePos {
   /** Data row of a table (1 = the first row after the header). */
   row?: number;
   /**
-   * The table column (its header name) of the faulty cell in `row`, while the loader that read the
-   * table places the cell as a line and column; never printed, and gone once placed.
+   * The table column (its header name) of the faulty cell in `row`, or the key of a JSON graph's
+   * entry, while the loader that read the input places it as a line and column; never printed, and
+   * gone once placed.
    */
   field?: string;
 }

@@ -44,7 +44,7 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
   const from: number[] = [];
   const to: number[] = [];
   const shape = (key: string, what: string) =>
-    new EspalierError("SHAPE", say`the entry ${quoted.id(key)} ${what}`);
+    new EspalierError("SHAPE", say`the entry ${quoted.id(key)} ${what}`, { field: key });
   for (const key of keys) {
     const node = nodeOf.get(key)!;
     const value = map[key];
@@ -66,6 +66,7 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
             throw new EspalierError(
               "BAD_SIZE",
               say`the "${options.sizeField}" of the entry ${quoted.id(key)} must be a number from 0 to 2^53 - 1, got ${quoted.value(typeof size === "string" ? size : JSON.stringify(size))}`,
+              { field: key },
             );
           }
           sizes[node] = size;

@@ -1,8 +1,10 @@
 import { Buffer } from "node:buffer";
+import { EspalierError } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import { adjacencyNodes } from "./adjacency.js";
 import { loadEdgeList } from "./edge-list.js";
 import { linkGraphTable, withRecords } from "./graph-table.js";
+import { findJsonEntry } from "./json/json-entry-finder.js";
 import type { LoadOptions } from "./load-options.js";
 import { checkGraphFields } from "./missing-field.js";
 import { csvTableFromBytes } from "./table/csv-table.js";
@@ -56,14 +58,30 @@ export function loadEdges(text: string, options: LoadOptions): GraphNodes {
  * parents, an object an adjacency map (see {@link adjacencyNodes}). Null when the text is no JSON, so
  * that the JSON loader reads it and places the error.
  */
-export function jsonGraph(text: string, options: LoadOptions): GraphNodes | null {
+export function jsonGraph(text: string, options: LoadOptions, bytes?: Uint8Array): GraphNodes | null {
   let value: unknown;
   try {
     value = JSON.parse(text);
   } catch {
     return null;
   }
-  return Array.isArray(value) ? linkGraphTable(rowsTable(value), options) : adjacencyNodes(value, options);
+  try {
+    return Array.isArray(value) ? linkGraphTable(rowsTable(value), options) : adjacencyNodes(value, options);
+  } catch (err) {
+    throw placedInJson(err, bytes ?? Buffer.from(text, "utf8"));
+  }
+}
+
+/**
+ * A fault of a JSON graph, found after parsing, placed by reading the text again: a row's at the row,
+ * an adjacency map entry's (its key in `pos.field`) at the key.
+ */
+function placedInJson(err: unknown, bytes: Uint8Array): unknown {
+  if (!(err instanceof EspalierError) || err.pos?.column !== undefined) return err;
+  const { row, field } = err.pos ?? {};
+  if (row !== undefined) return err.placed(findJsonEntry(bytes, { index: row - 1 }));
+  if (field !== undefined) return err.placed(findJsonEntry(bytes, { key: field }));
+  return err;
 }
 
 /**

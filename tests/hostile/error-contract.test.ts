@@ -73,6 +73,19 @@ describe("espalier FILE: one error line with the file, line and column of the fa
     expect(await errorOf([nested])).toMatchObject({ code: "BAD_SIZE", line: 1, column: 44 });
   });
 
+  it("a JSON graph, parsed whole, is read again to place an entry's or a row's fault", async () => {
+    // The entry's key: line 2, after one blank.
+    const map = file("adj.json", '{"a": ["b"],\n "b": {"children": ["c"], "size": -1}}');
+    expect(await errorOf([map, "--graph"])).toMatchObject({ code: "BAD_SIZE", line: 2, column: 2 });
+    // A key given twice: JSON.parse keeps the last (ECMA-262 JSON.parse), so that is where the fault is;
+    // '{"a": ["b"], "b": 1, ' is 21 characters; "é" before it counts one UTF-16 unit.
+    const twice = file("twice.json", '{"a": ["é"], "b": 1, "b": {"size": -2}}');
+    expect(await errorOf([twice, "--graph"])).toMatchObject({ code: "BAD_SIZE", line: 1, column: 22 });
+    // Rows with repeated ids (--graph): at the row's "{", line 2 after two blanks.
+    const rows = file("rows.json", '[{"id":"a","parent":""},\n  {"id":"b","parent":"zz"}]');
+    expect(await errorOf([rows, "--graph"])).toMatchObject({ code: "MISSING_PARENT", line: 2, column: 3 });
+  });
+
   it("a position is never printed twice, and a row never stands in for a line", async () => {
     for (const table of ["id,parent,size\nr,,1\na,r,x\n", "id,parent\nr,\na,q\n"]) {
       const { text } = await errorOf([file("twice.csv", table)]);

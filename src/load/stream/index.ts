@@ -92,7 +92,7 @@ async function linkedNodes(
   // A JSON graph (rows or an adjacency map) is read whole and parsed.
   if ((format === "json" || format === "rows") && options.graph) {
     const bytes = await wholeBytes(chunks, "JSON", limitsOf(options.limits).maxJsonGraphBytes);
-    const graph = jsonGraph(new TextDecoder("utf-8", { ignoreBOM: true }).decode(bytes), options);
+    const graph = jsonGraph(new TextDecoder("utf-8", { ignoreBOM: true }).decode(bytes), options, bytes);
     if (graph) return graph;
     // No JSON: the JSON loader reads the same bytes and places the error.
     loader!.write(bytes);
