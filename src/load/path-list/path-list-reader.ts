@@ -119,12 +119,36 @@ export class PathListReader {
     }
     const view = viewOf(bytes);
     const sep = this.separator;
+    if (sep === newline) this.refuseNul(bytes, start, end);
     while (start < end) {
       let stop = bytes.indexOf(sep, start);
       if (stop === -1 || stop >= end) stop = end;
       this.one(bytes, view, start, stop);
       start = stop + 1;
     }
+  }
+
+  /**
+   * A NUL byte cannot be part of a file name (POSIX.1-2017, 3.170 Filename; from memory), so a line
+   * holding one means a NUL-separated list (`find -print0`, `git ls-files -z`) or UTF-16 without a
+   * byte-order mark: read as lines it would give a wrong tree with exit 0, so it is PARSE_PATHS at the
+   * byte, naming the option. One memchr per block of whole lines; the position is counted only then.
+   */
+  private refuseNul(bytes: Buffer, start: number, end: number): void {
+    const at = bytes.indexOf(0, start);
+    if (at === -1 || at >= end) return;
+    let line = this.line + 1;
+    let lineStart = start;
+    for (let i = bytes.indexOf(newline, start); i !== -1 && i < at; i = bytes.indexOf(newline, i + 1)) {
+      line++;
+      lineStart = i + 1;
+    }
+    const column = bytes.toString("utf8", lineStart, at).length + 1;
+    throw new EspalierError(
+      "PARSE_PATHS",
+      "a path list line holds a NUL byte, which no file name can: for a NUL-separated list (find -print0, git ls-files -z) pass --nul-separated; UTF-16 input needs a byte-order mark or iconv first",
+      { line, column },
+    );
   }
 
   /** One line, `bytes[start, end)` without its "\n". */

@@ -81,6 +81,19 @@ describe("loadTree(paths)", () => {
     expect(outline(sized)).toEqual(["r 0", "  a b 3", "  c 4"]);
   });
 
+  it("loadTree(paths) refuses a NUL byte in a line-separated list instead of reading it as a name", () => {
+    // No file name holds a NUL byte (POSIX.1-2017, 3.170 Filename; from memory): find -print0 output
+    // read without --nul-separated must not become one long chain of odd names with exit 0.
+    const print0 = caught(() => paths("a/b\0a/c\0"));
+    expect(print0.code).toBe("PARSE_PATHS");
+    expect(print0.pos).toEqual({ line: 1, column: 4 });
+    const later = caught(() => paths("a\n\nb/é\0c\n"));
+    expect(later.code).toBe("PARSE_PATHS");
+    expect(later.pos).toEqual({ line: 3, column: 4 });
+    // The same bytes with the option are the list they are.
+    expect(outline(paths("a/b\0a/c\0", { nulSeparated: true }))).toEqual(["a", "  b", "  c"]);
+  });
+
   it("loadTree(paths) stops with LIMIT_EXCEEDED at the line that adds one node too many", () => {
     const error = caught(() => paths("a\nb\nc/d/e\n", { maxNodes: 3 }));
     expect(error.code).toBe("LIMIT_EXCEEDED");
