@@ -187,7 +187,10 @@ export class JsonLoader extends JsonTokenizer {
         if (column[i] === undefined) column[i] = "";
         else seen = true;
       }
-      if (!seen) throw missingField("kept", keepFields[f], this.seen.list(), true);
+      if (!seen) {
+        if (this.options.optionalKeepFields?.includes(keepFields[f])) continue;
+        throw missingField("kept", keepFields[f], this.seen.list(), true);
+      }
       fields.set(keepFields[f], column as string[]);
     }
     return sink.finish(this.options.rootName, fields, null, {
