@@ -41,6 +41,7 @@ export { loadTree } from "./load/index.js";
 export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } from "./load/load-options.js";
 export { loadTreeFromStream } from "./load/stream/index.js";
 export { buildTree } from "./model/build-tree.js";
+export { CHAIN_JOIN } from "./model/chain-join.js";
 export type { LinkedNodes } from "./model/linked-nodes.js";
 export { type Measures, measure } from "./model/measure.js";
 export { type Names, namesToArray, StringNames } from "./model/names.js";
@@ -56,13 +57,7 @@ export { formatSize, type Units } from "./render/format-size.js";
 export { type HeaderOptions, type HeaderStyle, summaryHeader } from "./render/header.js";
 export { renderSvg, type SvgOptions } from "./render/icicle-svg.js";
 export { type LineGroup, lineGroups } from "./render/line-groups.js";
-export {
-  CHAIN_JOIN,
-  type LayoutOptions,
-  type LineParts,
-  layoutLine,
-  MIN_WIDTH,
-} from "./render/line-layout.js";
+export { type LayoutOptions, type LineParts, layoutLine, MIN_WIDTH } from "./render/line-layout.js";
 export { lineParts } from "./render/line-parts.js";
 export { LEGEND_LINES, legendLines, MARK } from "./render/marks.js";
 export { type Palette, palette } from "./render/palette.js";

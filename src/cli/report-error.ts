@@ -1,5 +1,5 @@
 import { EspalierError, formatPos } from "../errors.js";
-import { safeText } from "../render/safe-text.js";
+import { safeText } from "../model/safe-text.js";
 
 /** The single line printed on standard error for an error: position, message, code. No stack trace. */
 export function formatError(err: unknown): string {

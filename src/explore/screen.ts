@@ -1,6 +1,6 @@
 import { EspalierError } from "../errors.js";
+import { safeText } from "../model/safe-text.js";
 import { displayWidth, shortenEnd, shortenMiddle } from "../render/display-width.js";
-import { safeText } from "../render/safe-text.js";
 import { helpEntries } from "./key-map.js";
 import type { Session } from "./session.js";
 import type { ExploreState } from "./state.js";

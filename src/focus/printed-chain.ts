@@ -1,6 +1,6 @@
+import { CHAIN_JOIN } from "../model/chain-join.js";
 import type { PathIndex } from "../model/path-index.js";
-import { CHAIN_JOIN } from "../render/line-layout.js";
-import { shownLabel } from "../render/safe-text.js";
+import { shownLabel } from "../model/safe-text.js";
 
 /**
  * Whether a focus spec reads as a chain copied from a printed line: names joined by " / ", as a line

@@ -1,5 +1,6 @@
 import { type ChangeCounts, changeKinds } from "../diff/changes.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
+import { safeText, shownLabel } from "../model/safe-text.js";
 import { amount, formatCount, type NumberOptions } from "./amount.js";
 import { shortenMiddle } from "./display-width.js";
 import { formatSize } from "./format-size.js";
@@ -7,7 +8,6 @@ import type { LineGroup } from "./line-groups.js";
 import type { LineParts } from "./line-layout.js";
 import { foldAmount, foldWords, lineParts } from "./line-parts.js";
 import { referenceText } from "./reference-text.js";
-import { safeText, shownLabel } from "./safe-text.js";
 
 /** Columns an old parent's path or old name keeps in a tag on a narrow line. */
 const SHORT_FROM = 8;

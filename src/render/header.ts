@@ -1,13 +1,13 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { changeKinds, treeChangeKinds } from "../diff/changes.js";
 import type { DiffTotals } from "../diff/prepared-diff.js";
+import { safeText } from "../model/safe-text.js";
 import type { ViewNode } from "../view/view-node.js";
 import { formatCount, type NumberOptions } from "./amount.js";
 import { displayWidth, shortenEnd } from "./display-width.js";
 import { formatSize } from "./format-size.js";
 import { markdownText } from "./markdown-escape.js";
 import { codeSpan } from "./markdown-line.js";
-import { safeText } from "./safe-text.js";
 
 /** How the header's own words and the input's names are written: plain text, or Markdown. */
 export interface HeaderStyle {

@@ -6,6 +6,7 @@ import {
   noChanges,
   treeChangeKinds,
 } from "../diff/changes.js";
+import { shownLabel } from "../model/safe-text.js";
 import type { ViewNode } from "../view/view-node.js";
 import { amount, formatCount, type NumberOptions } from "./amount.js";
 import { displayWidth, shortenEnd } from "./display-width.js";
@@ -13,7 +14,6 @@ import { formatSize, type Units } from "./format-size.js";
 import { type IcicleBlock, type IcicleLayout, type IcicleMember, icicle } from "./icicle-layout.js";
 import { MARK as LINE_MARK } from "./marks.js";
 import { parentsText, referenceText } from "./reference-text.js";
-import { shownLabel } from "./safe-text.js";
 import { xmlEscape } from "./xml-escape.js";
 
 export interface SvgOptions<T extends ViewNode = ViewNode> {

@@ -7,7 +7,7 @@ import { EspalierError } from "../errors.js";
 // DerivedCoreProperties.txt), which print as nothing. JSON text holds them only inside strings, where a
 // \u escape (a surrogate pair's two, past U+FFFF) stands for the same character (RFC 8259, section 7).
 const RAW = /[\u007f-\u009f\u2028\u2029\p{Cf}\p{Default_Ignorable_Code_Point}]/gu;
-// The bracket of a CI runner's command marker ("##[", "##vso["; see render/safe-text.ts) inside a string.
+// The bracket of a CI runner's command marker ("##[", "##vso["; see model/safe-text.ts) inside a string.
 const CI_MARKER = /##(vso)?\[/gi;
 
 /**

@@ -1,9 +1,7 @@
 import type { ChangeKind } from "../diff/changes.js";
+import { CHAIN_JOIN } from "../model/chain-join.js";
 import { displayWidth, shortenEnd, shortenMiddle } from "./display-width.js";
 import { noColour, type Palette } from "./palette.js";
-
-/** Between the labels of a chain of only children printed on one line. */
-export const CHAIN_JOIN = " / ";
 
 /**
  * What one output line says, before it is laid out: every line-based format (terminal text,

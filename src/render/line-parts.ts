@@ -1,10 +1,10 @@
+import { shownLabel } from "../model/safe-text.js";
 import type { ViewNode } from "../view/view-node.js";
 import { amount, formatCount, type NumberOptions, percent } from "./amount.js";
 import type { LineGroup } from "./line-groups.js";
 import type { LineParts } from "./line-layout.js";
 import { MARK } from "./marks.js";
 import { parentsText, referencesText, referenceText } from "./reference-text.js";
-import { shownLabel } from "./safe-text.js";
 
 export { MARK };
 

@@ -1,4 +1,4 @@
-import { safeText } from "./safe-text.js";
+import { safeText } from "../model/safe-text.js";
 
 // Any ASCII punctuation may be backslash-escaped (CommonMark 0.31, section 2.4). Escaped here: what
 // can open inline markup, HTML, entities or links anywhere (CommonMark and GitHub's extensions:

@@ -1,4 +1,5 @@
-import { CHAIN_JOIN, type LineParts } from "./line-layout.js";
+import { CHAIN_JOIN } from "../model/chain-join.js";
+import type { LineParts } from "./line-layout.js";
 import { markdownText } from "./markdown-escape.js";
 import { legendLines, MARK } from "./marks.js";
 

@@ -1,4 +1,4 @@
-import { shownLabel } from "./safe-text.js";
+import { shownLabel } from "../model/safe-text.js";
 
 /** What a reference line of a graph says after its label: where the node's full entry is. */
 export function referenceText(to: { path: string; cycle: boolean }): string {

@@ -3,7 +3,7 @@ import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 import { formatError } from "../../src/cli/report-error.js";
 import { EspalierError, quoted, say } from "../../src/errors.js";
-import { safeText } from "../../src/render/safe-text.js";
+import { safeText } from "../../src/model/safe-text.js";
 import { cli } from "../helpers/cli.js";
 
 // Source: Unicode Character Database 15.0.0, via Debian package unicode-data 15.0.0-1: the

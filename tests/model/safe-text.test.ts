@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { safeText } from "../../src/render/safe-text.js";
+import { safeText } from "../../src/model/safe-text.js";
 
 describe("safeText(text)", () => {
   it("escapes newlines, carriage returns and the ESC of ANSI sequences (ECMA-48 C0 controls)", () => {
