@@ -1,6 +1,6 @@
 // Writes docs/*.schema.json from the zod schemas in the built package (run after `npm run build`).
 import { writeFileSync } from "node:fs";
-import { configJsonSchema } from "../dist/cli/config.js";
+import { configJsonSchema } from "../dist/cli/config-schema.js";
 import { diffJsonSchema } from "../dist/render/diff-json-schema.js";
 import { summaryJsonSchema } from "../dist/render/summary-json-schema.js";
 

@@ -1,4 +1,3 @@
-import type { z } from "zod";
 import { EspalierError } from "../errors.js";
 import type { CommandOutput } from "./command-output.js";
 import { CONFIG_FILES } from "./config.js";
@@ -8,7 +7,15 @@ import { printSqlCommand } from "./fact-input.js";
 import { hidingInput } from "./hide-input.js";
 import { pseudonymKey } from "./input.js";
 import type { CliIO } from "./io.js";
-import { type CommandName, commandOptions, diffOptionsSchema, summaryOptionsSchema } from "./options.js";
+import {
+  type CommandName,
+  commandOptions,
+  diffOptionsSchema,
+  type OptionSpec,
+  type OptionsOf,
+  type OptionsSchema,
+  summaryOptionsSchema,
+} from "./options.js";
 import type { CommandLine } from "./parse-command-line.js";
 import { summaryCommand } from "./summary-command.js";
 
@@ -57,21 +64,21 @@ export interface OptionSources {
   fromConfig: ReadonlySet<string>;
 }
 
-interface CommandDef<S extends z.ZodObject> extends Omit<CommandSpec, "invoke"> {
+interface CommandDef<T extends Record<string, OptionSpec>> extends Omit<CommandSpec, "invoke"> {
   name: CommandName;
-  schema: S;
+  schema: OptionsSchema<T>;
   /** Work that stops the command before its arguments are checked (e.g. printing a query); else undefined. */
-  early?(args: readonly string[], options: z.infer<S>): Promise<CommandOutput | undefined>;
+  early?(args: readonly string[], options: OptionsOf<T>): Promise<CommandOutput | undefined>;
   run(
     args: readonly string[],
-    options: z.infer<S>,
+    options: OptionsOf<T>,
     io: CliIO,
     sources: OptionSources,
   ): Promise<CommandOutput>;
 }
 
 /** The one path every command takes: options, arguments, the --output check before any work, the run. */
-function defineCommand<S extends z.ZodObject>(def: CommandDef<S>): CommandSpec {
+function defineCommand<T extends Record<string, OptionSpec>>(def: CommandDef<T>): CommandSpec {
   const { name, schema, run, ...texts } = def;
   return {
     ...texts,
@@ -100,7 +107,7 @@ function defineCommand<S extends z.ZodObject>(def: CommandDef<S>): CommandSpec {
   };
 }
 
-function checkArguments(def: CommandDef<z.ZodObject>, args: readonly string[]): void {
+function checkArguments(def: CommandDef<Record<string, OptionSpec>>, args: readonly string[]): void {
   const required = def.args.filter((a) => !a.startsWith("["));
   const want = def.args.length;
   if (args.length >= required.length && args.length <= want) return;

@@ -1,7 +1,7 @@
 import { isMap, isScalar, LineCounter, parseDocument } from "yaml";
 import { didYouMean } from "../did-you-mean.js";
 import { EspalierError, type SourcePos } from "../errors.js";
-import { configSchema } from "./options.js";
+import { configSchema } from "./config-schema.js";
 import { issueMessage } from "./validate-options.js";
 
 /** The keys a config file sets, as read (validated against `configSchema()`). */

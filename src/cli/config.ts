@@ -1,12 +1,8 @@
-import * as z from "zod";
 import { EspalierError, type SourcePos } from "../errors.js";
 import { readLimits } from "../load/read-limits.js";
 import type { ConfigValues } from "./config-text.js";
 import type { CliIO } from "./io.js";
-import { configSchema } from "./options.js";
 import type { ReadBound } from "./read-bounded.js";
-
-export { configSchema };
 
 /** File names looked for in the current directory when --config is not given. */
 export const CONFIG_FILES = [".espalier.yaml", ".espalier.yml"] as const;
@@ -53,13 +49,4 @@ export async function loadConfig(io: CliIO, explicit: string | undefined): Promi
     return { file, ...parseConfigWithPositions(new TextDecoder().decode(bytes), file) };
   }
   return NO_CONFIG;
-}
-
-/** The JSON Schema (draft 2020-12) of the config file, published as docs/config.schema.json. */
-export function configJsonSchema(): Record<string, unknown> {
-  return {
-    $id: "https://espalier.invalid/schema/config-1.json",
-    title: "espalier configuration",
-    ...z.toJSONSchema(configSchema(), { target: "draft-2020-12", io: "input" }),
-  };
 }

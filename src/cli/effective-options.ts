@@ -1,8 +1,14 @@
-import type { z } from "zod";
 import { EspalierError } from "../errors.js";
 import { loadConfig } from "./config.js";
 import type { CliIO } from "./io.js";
-import { allOptions, controlOptions, type NamedOptions, type OptionSpec } from "./options.js";
+import {
+  allOptions,
+  controlOptions,
+  type NamedOptions,
+  type OptionSpec,
+  type OptionsOf,
+  type OptionsSchema,
+} from "./options.js";
 import { type CommandLine, flagsByKey } from "./parse-command-line.js";
 import { validateOptions } from "./validate-options.js";
 
@@ -20,12 +26,12 @@ export interface EffectiveOptions<T> {
  * `--without-config` skips it. A config key the command does not take (a diff-only key for a summary) is left
  * out; `focus` on the command line replaces the config's list rather than adding to it.
  */
-export async function effectiveOptions<S extends z.ZodObject>(
+export async function effectiveOptions<T extends Record<string, OptionSpec>>(
   line: CommandLine,
-  schema: S,
+  schema: OptionsSchema<T>,
   takes: Record<string, OptionSpec>,
   io: CliIO,
-): Promise<EffectiveOptions<z.infer<S> & NamedOptions>> {
+): Promise<EffectiveOptions<OptionsOf<T> & NamedOptions>> {
   const { given } = line;
   if (given.config !== undefined && given.withoutConfig === true)
     throw new EspalierError("USAGE", "--config and --without-config cannot be given together", undefined, {
@@ -45,7 +51,7 @@ export async function effectiveOptions<S extends z.ZodObject>(
       fromConfig.add(key);
     }
   }
-  const options = validateOptions(schema, values, (key) =>
+  const options = validateOptions(schema.table, values, (key) =>
     fromConfig.has(key)
       ? { name: `config key ${key}`, pos: config?.keyPos.get(key) ?? { file: config?.file } }
       : { name: flagsByKey.get(key)?.long ?? key },

@@ -1,7 +1,6 @@
-import type { z } from "zod";
 import type { OptionSpec } from "./options.js";
 
-/** An option's flags taken apart, and what its schema says about the value. */
+/** An option's flags taken apart, and what its declaration says about the value. */
 export interface OptionFlags {
   key: string;
   /** `--focus`. */
@@ -10,7 +9,7 @@ export interface OptionFlags {
   short: string | undefined;
   /** `path` in `<path>`; undefined for a switch. */
   valueName: string | undefined;
-  /** Given more than once, its values are collected (an array schema). */
+  /** Given more than once, its values are collected (a list). */
   repeatable: boolean;
   /** A switch sets this value (the opposite of its default); undefined for an option with a value. */
   switchValue: boolean | undefined;
@@ -24,14 +23,13 @@ export interface OptionFlags {
 
 const FLAGS = /^(?:-([A-Za-z]), )?--([a-z][a-z-]*)(?: <([a-z-]+)>)?$/;
 
-/** Reads `-f, --focus <path>` and the schema's type, default, choices and description. */
+/** Reads `-f, --focus <path>` and the declared value's type, default, choices, and the help line. */
 export function optionFlags(key: string, spec: OptionSpec): OptionFlags {
   const m = FLAGS.exec(spec.flags);
   if (!m) throw new Error(`option ${key}: flags ${JSON.stringify(spec.flags)} are not "-x, --name <value>"`);
   const [, short, long, valueName] = m;
-  const inner = unwrap(spec.schema);
-  const defaultValue = defaultOf(spec.schema);
-  const isSwitch = inner.type === "boolean";
+  const { value } = spec;
+  const isSwitch = value.kind === "flag";
   if (isSwitch !== (valueName === undefined))
     throw new Error(`option ${key}: a boolean is a switch (no <value>), anything else takes a value`);
   return {
@@ -39,31 +37,10 @@ export function optionFlags(key: string, spec: OptionSpec): OptionFlags {
     long: `--${long}`,
     short: short === undefined ? undefined : `-${short}`,
     valueName,
-    repeatable: inner.type === "array",
-    switchValue: isSwitch ? defaultValue !== true : undefined,
-    choices: inner.type === "enum" ? (inner as z.ZodEnum).options.map(String) : undefined,
-    defaultValue,
-    help: spec.schema.description ?? "",
+    repeatable: value.kind === "list",
+    switchValue: isSwitch ? value.default !== true : undefined,
+    choices: value.kind === "choice" ? value.choices.map(String) : undefined,
+    defaultValue: value.kind === "list" ? [] : value.default,
+    help: spec.help,
   };
-}
-
-/** The schema under optional/default/preprocess wrappers. */
-function unwrap(schema: z.ZodType): z.ZodType {
-  let s = schema;
-  for (;;) {
-    const def = s.def as { type: string; innerType?: z.ZodType; out?: z.ZodType };
-    if ((def.type === "optional" || def.type === "default") && def.innerType) s = def.innerType;
-    else if (def.type === "pipe" && def.out) s = def.out;
-    else return s;
-  }
-}
-
-function defaultOf(schema: z.ZodType): unknown {
-  let s = schema;
-  for (;;) {
-    const def = s.def as { type: string; innerType?: z.ZodType; defaultValue?: unknown };
-    if (def.type === "default") return def.defaultValue;
-    if (def.type === "optional" && def.innerType) s = def.innerType;
-    else return undefined;
-  }
 }

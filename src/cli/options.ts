@@ -1,12 +1,18 @@
-import * as z from "zod";
 import { unmatchedFociChoices } from "../focus/focus-spec.js";
 import { importances } from "../interest/importance.js";
 import { inputFormats } from "../load/load-options.js";
 import { siblingOrders } from "../view/sibling-order.js";
-
-// Options are validated once a run: zod's compiled fast path (generated code, made on first use) costs
-// more than it saves there (start-up, issue 14). Set before any schema below is made.
-z.config({ jitless: true });
+import {
+  choice,
+  count,
+  flag,
+  list,
+  type MayBeAbsent,
+  type OptionValue,
+  text,
+  type ValueOf,
+} from "./option-value.js";
+import { validateOptions } from "./validate-options.js";
 
 /** Input formats on the command line: the tree formats, and the formats only fact tables come in. */
 export const cliInputFormats = [...inputFormats, "jsonl", "parquet"] as const;
@@ -46,8 +52,8 @@ export type OptionGroup = (typeof optionGroups)[number];
 
 /**
  * One option, declared once. Everything else is derived from it: the argument parser, `--help`, the
- * validated shape (a zod object of every option's `schema`), the config file's schema, and the check
- * that docs/cli.md documents it.
+ * check of a run's values (option-value.ts), the zod schemas of the config file and its JSON Schema
+ * (option-schema.ts, config-schema.ts), and the check that docs/cli.md documents it.
  */
 export interface OptionSpec {
   /**
@@ -56,32 +62,13 @@ export interface OptionSpec {
    * opposite of its default (`--no-chains` sets `chains` to false).
    */
   flags: string;
-  /** The value after parsing: type, default and the one-line help (`.describe()`). */
-  schema: z.ZodType;
+  /** The value after parsing: its type and default (option-value.ts). */
+  value: OptionValue;
+  /** One line of help. */
+  help: string;
   group: OptionGroup;
   /** Whether a config file may set it: no for options naming this run's own files. Default yes. */
   config?: boolean;
-}
-
-const DIGITS = /^[0-9]+$/;
-
-/** A count of at least 1; from the command line, digits only ("0x10", "1e3", " 12" are refused). */
-const wholeNumber = () =>
-  z.preprocess(
-    (v) => (typeof v === "string" && DIGITS.test(v) && Number.isSafeInteger(Number(v)) ? Number(v) : v),
-    z
-      .number({
-        error: (issue) =>
-          typeof issue.input === "string" && DIGITS.test(issue.input)
-            ? `must be at most ${Number.MAX_SAFE_INTEGER}, not ${quote(issue.input)}`
-            : `must be a whole number, not ${quote(issue.input)}`,
-      })
-      .int()
-      .positive({ error: (issue) => `must be at least 1, not ${quote(issue.input)}` }),
-  );
-
-function quote(value: unknown): string {
-  return typeof value === "string" ? JSON.stringify(value) : String(value);
 }
 
 /**
@@ -93,253 +80,230 @@ export const sharedOptions = {
   focus: {
     flags: "-f, --focus <path>",
     group: "Focus",
-    schema: z
-      .array(z.string())
-      .default([])
-      .describe("a node to show with its context: path, row id or glob; repeatable"),
+    value: list(),
+    help: "a node to show with its context: path, row id or glob; repeatable",
   },
   focusFrom: {
     flags: "--focus-from <file>",
     group: "Focus",
     config: false,
-    schema: z.string().optional().describe("more foci from a file, one per line (- for standard input)"),
+    value: text(),
+    help: "more foci from a file, one per line (- for standard input)",
   },
   unmatchedFoci: {
     flags: "--unmatched-foci <choice>",
     group: "Focus",
-    schema: z
-      .enum(unmatchedFociChoices)
-      .default("error")
-      .describe("a focus that matches no node: error, or skip it (listed on standard error and in JSON)"),
+    value: choice(unmatchedFociChoices, "error"),
+    help: "a focus that matches no node: error, or skip it (listed on standard error and in JSON)",
   },
   budget: {
     flags: "-b, --budget <lines>",
     group: "Budget and layout",
-    schema: wholeNumber().optional().describe("most lines to print (default: terminal height, else 40)"),
+    value: count(),
+    help: "most lines to print (default: terminal height, else 40)",
   },
   width: {
     flags: "--width <columns>",
     group: "Budget and layout",
-    schema: wholeNumber().optional().describe("widest line, in terminal columns (default: terminal width)"),
+    value: count(),
+    help: "widest line, in terminal columns (default: terminal width)",
   },
   chains: {
     flags: "--no-chains",
     group: "Budget and layout",
-    schema: z
-      .boolean()
-      .default(true)
-      .describe("a run of only children shares one line; --no-chains gives every node its own"),
+    value: flag(true),
+    help: "a run of only children shares one line; --no-chains gives every node its own",
   },
   importance: {
     flags: "--importance <kind>",
     group: "Budget and layout",
-    schema: z
-      .enum(importances)
-      .default("depth")
-      .describe("a-priori importance: depth, or size (bigger subtrees matter more)"),
+    value: choice(importances, "depth"),
+    help: "a-priori importance: depth, or size (bigger subtrees matter more)",
   },
   format: {
     flags: "--format <format>",
     group: "Output",
-    schema: z.enum(outputFormats).default("text").describe("what to print"),
+    value: choice(outputFormats, "text"),
+    help: "what to print",
   },
   output: {
     flags: "-o, --output <file>",
     group: "Output",
     config: false,
-    schema: z
-      .string()
-      .min(1)
-      .optional()
-      .describe("write to this file, whole or not at all, instead of standard output"),
+    value: text({ nonEmpty: true }),
+    help: "write to this file, whole or not at all, instead of standard output",
   },
   units: {
     flags: "--units <units>",
     group: "Output",
-    schema: z
-      .enum(unitModes)
-      .default("auto")
-      .describe(
-        "sizes as bytes (KiB, MiB) or plain numbers; auto: bytes for file sizes and a document's bytes",
-      ),
+    value: choice(unitModes, "auto"),
+    help: "sizes as bytes (KiB, MiB) or plain numbers; auto: bytes for file sizes and a document's bytes",
   },
   label: {
     flags: "--label <template>",
     group: "Output",
-    schema: z
-      .string()
-      .optional()
-      .describe("the text of each node from record fields, e.g. '{title}, {team}'"),
+    value: text(),
+    help: "the text of each node from record fields, e.g. '{title}, {team}'",
   },
   pseudonymize: {
     flags: "--pseudonymize",
     group: "Output",
-    schema: z
-      .boolean()
-      .default(false)
-      .describe("print keyed pseudonyms instead of names and ids (secret in ESPALIER_PSEUDONYM_KEY)"),
+    value: flag(false),
+    help: "print keyed pseudonyms instead of names and ids (secret in ESPALIER_PSEUDONYM_KEY)",
   },
   bare: {
     flags: "--bare",
     group: "Budget and layout",
-    schema: z.boolean().default(false).describe("print no header line, only the tree's lines (for scripts)"),
+    value: flag(false),
+    help: "print no header line, only the tree's lines (for scripts)",
   },
   legend: {
     flags: "--legend",
     group: "Budget and layout",
-    schema: z
-      .boolean()
-      .default(false)
-      .describe("print what the marks and numbers mean under the header (the budget counts it)"),
+    value: flag(false),
+    help: "print what the marks and numbers mean under the header (the budget counts it)",
   },
   share: {
     flags: "--share <of>",
     group: "Output",
-    schema: z
-      .enum(shareChoices)
-      .default("none")
-      .describe("add each node's share in percent: of the total, or of the line above"),
+    value: choice(shareChoices, "none"),
+    help: "add each node's share in percent: of the total, or of the line above",
   },
   siblingOrder: {
     flags: "--sibling-order <order>",
     group: "Output",
-    schema: z
-      .enum(siblingOrders)
-      .default("input")
-      .describe("order of shown siblings: input, size (biggest first) or name"),
+    value: choice(siblingOrders, "input"),
+    help: "order of shown siblings: input, size (biggest first) or name",
   },
   color: {
     flags: "--color <when>",
     group: "Output",
-    schema: z.enum(colorModes).default("auto").describe("colour in text output"),
+    value: choice(colorModes, "auto"),
+    help: "colour in text output",
   },
   inputFormat: {
     flags: "--input-format <format>",
     group: "Input",
-    schema: z.enum(cliInputFormats).optional().describe("input format (default: detected)"),
+    value: choice(cliInputFormats),
+    help: "input format (default: detected)",
   },
   nameField: {
     flags: "--name-field <field>",
     group: "Input",
-    schema: z.string().min(1).default("name").describe("field holding a node's name"),
+    value: text({ nonEmpty: true, default: "name" }),
+    help: "field holding a node's name",
   },
   childrenField: {
     flags: "--children-field <field>",
     group: "Input",
-    schema: z.string().min(1).default("children").describe("field holding a node's children"),
+    value: text({ nonEmpty: true, default: "children" }),
+    help: "field holding a node's children",
   },
   readAs: {
     flags: "--read-as <reading>",
     group: "Input",
-    schema: z
-      .enum(["auto", "nodes", "values"])
-      .default("auto")
-      .describe("JSON/YAML: node objects, or every value a node sized in bytes; auto: by the document"),
+    value: choice(["auto", "nodes", "values"], "auto"),
+    help: "JSON/YAML: node objects, or every value a node sized in bytes; auto: by the document",
   },
   nulSeparated: {
     flags: "--nul-separated",
     group: "Input",
-    schema: z
-      .boolean()
-      .default(false)
-      .describe("path lists: entries end with a NUL byte (find -print0, git ls-files -z)"),
+    value: flag(false),
+    help: "path lists: entries end with a NUL byte (find -print0, git ls-files -z)",
   },
   sizeField: {
     flags: "--size-field <field>",
     group: "Input",
-    schema: z.string().min(1).default("size").describe("field holding a node's own size"),
+    value: text({ nonEmpty: true, default: "size" }),
+    help: "field holding a node's own size",
   },
   idField: {
     flags: "--id-field <column>",
     group: "Input",
-    schema: z.string().min(1).default("id").describe("column holding a row's id"),
+    value: text({ nonEmpty: true, default: "id" }),
+    help: "column holding a row's id",
   },
   parentField: {
     flags: "--parent-field <column>",
     group: "Input",
-    schema: z.string().min(1).default("parent").describe("column holding the parent row's id"),
+    value: text({ nonEmpty: true, default: "parent" }),
+    help: "column holding the parent row's id",
   },
   pathField: {
     flags: "--path-field <column>",
     group: "Input",
-    schema: z.string().min(1).default("path").describe("column holding a row's full path"),
+    value: text({ nonEmpty: true, default: "path" }),
+    help: "column holding a row's full path",
   },
   childField: {
     flags: "--child-field <column>",
     group: "Input",
-    schema: z.string().min(1).default("child").describe("column holding an edge's child id (edge tables)"),
+    value: text({ nonEmpty: true, default: "child" }),
+    help: "column holding an edge's child id (edge tables)",
   },
   graph: {
     flags: "--graph",
     group: "Input",
-    schema: z
-      .boolean()
-      .default(false)
-      .describe("read the input as a graph: ids may repeat with other parents; a JSON/YAML object maps ids"),
+    value: flag(false),
+    help: "read the input as a graph: ids may repeat with other parents; a JSON/YAML object maps ids",
   },
   nodes: {
     flags: "--nodes <file>",
     group: "Input",
     config: false,
-    schema: z
-      .array(z.string().min(1))
-      .max(2, { error: "is given at most twice: once for both versions, or OLD's then NEW's" })
-      .default([])
-      .describe(
-        "node records of a graph by id (names, sizes, fields) from this CSV/TSV/JSON table; comparing two versions: once for both, or twice (OLD's, then NEW's)",
-      ),
+    value: list({
+      nonEmpty: true,
+      max: { count: 2, message: "is given at most twice: once for both versions, or OLD's then NEW's" },
+    }),
+    help: "node records of a graph by id (names, sizes, fields) from this CSV/TSV/JSON table; comparing two versions: once for both, or twice (OLD's, then NEW's)",
   },
   maxNodes: {
     flags: "--max-nodes <count>",
     group: "Input",
-    schema: wholeNumber().optional().describe("refuse inputs with more nodes than this"),
+    value: count(),
+    help: "refuse inputs with more nodes than this",
   },
   levels: {
     flags: "--levels <columns>",
     group: "Fact tables",
-    schema: z
-      .string()
-      .min(1)
-      .optional()
-      .describe("level columns, outermost first, comma-separated (account,service,region)"),
+    value: text({ nonEmpty: true }),
+    help: "level columns, outermost first, comma-separated (account,service,region)",
   },
   keyField: {
     flags: "--key-field <column>",
     group: "Fact tables",
-    schema: z.string().min(1).optional().describe("a key column split into levels"),
+    value: text({ nonEmpty: true }),
+    help: "a key column split into levels",
   },
   keySeparator: {
     flags: "--key-separator <text>",
     group: "Fact tables",
-    schema: z.string().min(1).default("/").describe("what --key-field values are split on"),
+    value: text({ nonEmpty: true, default: "/" }),
+    help: "what --key-field values are split on",
   },
   keyDepth: {
     flags: "--key-depth <levels>",
     group: "Fact tables",
-    schema: wholeNumber()
-      .optional()
-      .describe("deepest key level to roll up (default: the deepest in the table)"),
+    value: count(),
+    help: "deepest key level to roll up (default: the deepest in the table)",
   },
   sqlTable: {
     flags: "--sql-table <name>",
     group: "Fact tables",
-    schema: z.string().min(1).default("facts").describe("table name in the --print-sql query"),
+    value: text({ nonEmpty: true, default: "facts" }),
+    help: "table name in the --print-sql query",
   },
   pushdown: {
     flags: "--pushdown <when>",
     group: "Fact tables",
-    schema: z
-      .enum(pushdownModes)
-      .default("auto")
-      .describe("fetch a big rollup only as deep as the summary reaches (auto: past 1,000,000 rows)"),
+    value: choice(pushdownModes, "auto"),
+    help: "fetch a big rollup only as deep as the summary reaches (auto: past 1,000,000 rows)",
   },
   rolledUp: {
     flags: "--rolled-up",
     group: "Fact tables",
-    schema: z
-      .boolean()
-      .default(false)
-      .describe("the input is the result table of the --print-sql query, run elsewhere"),
+    value: flag(false),
+    help: "the input is the result table of the --print-sql query, run elsewhere",
   },
 } satisfies Record<string, OptionSpec>;
 
@@ -349,17 +313,14 @@ export const summaryOnlyOptions = {
     flags: "--print-sql",
     group: "Fact tables",
     config: false,
-    schema: z
-      .boolean()
-      .default(false)
-      .describe("print the rollup plan the engine runs as one standard SQL query, and stop"),
+    value: flag(false),
+    help: "print the rollup plan the engine runs as one standard SQL query, and stop",
   },
   sqlReach: {
     flags: "--sql-reach <levels>",
     group: "Fact tables",
-    schema: wholeNumber()
-      .optional()
-      .describe("with --print-sql and foci: a pushdown query, only nodes this near the focus paths"),
+    value: count(),
+    help: "with --print-sql and foci: a pushdown query, only nodes this near the focus paths",
   },
 } satisfies Record<string, OptionSpec>;
 
@@ -368,20 +329,14 @@ export const diffOnlyOptions = {
   failOnChange: {
     flags: "--fail-on-change",
     group: "Diff only",
-    schema: z
-      .boolean()
-      .default(false)
-      .describe("exit with status 1 when the versions differ (0 when they are the same, 2 on an error)"),
+    value: flag(false),
+    help: "exit with status 1 when the versions differ (0 when they are the same, 2 on an error)",
   },
   compareField: {
     flags: "--compare-field <field>",
     group: "Diff only",
-    schema: z
-      .array(z.string().min(1))
-      .default([])
-      .describe(
-        "a record field compared between matched nodes; a new value is a change (edited); repeatable",
-      ),
+    value: list({ nonEmpty: true }),
+    help: "a record field compared between matched nodes; a new value is a change (edited); repeatable",
   },
 } satisfies Record<string, OptionSpec>;
 
@@ -391,38 +346,36 @@ export const controlOptions = {
     flags: "--config <file>",
     group: "Config file",
     config: false,
-    schema: z
-      .string()
-      .min(1)
-      .optional()
-      .describe("read options from this YAML file (default: .espalier.yaml if present)"),
+    value: text({ nonEmpty: true }),
+    help: "read options from this YAML file (default: .espalier.yaml if present)",
   },
   withoutConfig: {
     flags: "--without-config",
     group: "Config file",
     config: false,
-    schema: z.boolean().default(false).describe("read no config file, not even .espalier.yaml"),
+    value: flag(false),
+    help: "read no config file, not even .espalier.yaml",
   },
   optionsInEffect: {
     flags: "--options-in-effect",
     group: "Config file",
     config: false,
-    schema: z
-      .boolean()
-      .default(false)
-      .describe("print the options this run would use (flags over config file over defaults) and stop"),
+    value: flag(false),
+    help: "print the options this run would use (flags over config file over defaults) and stop",
   },
   help: {
     flags: "-h, --help",
     group: "Help",
     config: false,
-    schema: z.boolean().default(false).describe("print this help and stop"),
+    value: flag(false),
+    help: "print this help and stop",
   },
   version: {
     flags: "--version",
     group: "Help",
     config: false,
-    schema: z.boolean().default(false).describe("print espalier's version and stop"),
+    value: flag(false),
+    help: "print espalier's version and stop",
   },
 } satisfies Record<string, OptionSpec>;
 
@@ -459,14 +412,6 @@ export const allOptions: Record<string, OptionSpec> = {
   ...controlOptions,
 };
 
-type Shape<T extends Record<string, OptionSpec>> = { [K in keyof T]: T[K]["schema"] };
-
-function shapeOf<T extends Record<string, OptionSpec>>(table: T): Shape<T> {
-  const shape: Record<string, z.ZodType> = {};
-  for (const [key, spec] of Object.entries(table)) shape[key] = spec.schema;
-  return shape as Shape<T>;
-}
-
 /**
  * Which options the run was given (on the command line or in the config file), beside their values: an
  * option set to its default value on purpose (`--size-field size`) is named, and checked as such.
@@ -476,44 +421,42 @@ export interface NamedOptions {
   named?: ReadonlySet<string>;
 }
 
-/** The validated options every command takes. */
-export const sharedOptionsSchema = z.object(shapeOf(sharedOptions));
-export type SharedCliOptions = z.infer<typeof sharedOptionsSchema> & NamedOptions;
+/** The checked values of a table of options: an option with no default may be absent. */
+export type OptionsOf<T extends Record<string, OptionSpec>> = {
+  [K in keyof T as MayBeAbsent<T[K]["value"]> extends true ? never : K]: ValueOf<T[K]["value"]>;
+} & {
+  [K in keyof T as MayBeAbsent<T[K]["value"]> extends true ? K : never]?: ValueOf<T[K]["value"]>;
+};
 
-/** The validated options of a summary, as the core receives them. */
-export const summaryOptionsSchema = z.object({ ...shapeOf(sharedOptions), ...shapeOf(summaryOnlyOptions) });
-export type SummaryCliOptions = z.infer<typeof summaryOptionsSchema> & NamedOptions;
-
-/** The validated options of `espalier diff`: every option of a summary, plus the diff's own. */
-export const diffOptionsSchema = z.object({ ...shapeOf(sharedOptions), ...shapeOf(diffOnlyOptions) });
-export type DiffCliOptions = z.infer<typeof diffOptionsSchema> & NamedOptions;
-
-function makeConfigSchema() {
-  return z
-    .object(
-      shapeOf(
-        Object.fromEntries(
-          Object.entries<OptionSpec>({ ...sharedOptions, ...summaryOnlyOptions, ...diffOnlyOptions }).filter(
-            ([, spec]) => spec.config !== false,
-          ),
-        ),
-      ),
-    )
-    .partial()
-    .strict()
-    .describe("espalier project configuration (.espalier.yaml)");
+/** A command's options: the table its values are checked against (validate-options.ts). */
+export interface OptionsSchema<T extends Record<string, OptionSpec> = Record<string, OptionSpec>> {
+  table: T;
+  /** The values to run with, defaults filled in; a bad value is a USAGE error naming its key. */
+  parse(values: Record<string, unknown>): OptionsOf<T>;
 }
 
-let madeConfigSchema: ReturnType<typeof makeConfigSchema> | undefined;
-
-/**
- * The options a config file may set (every key optional; unknown keys refused). Made on first use: most
- * runs read no config file, and making it is a good part of a small run's start (issue 14).
- */
-export function configSchema(): ReturnType<typeof makeConfigSchema> {
-  madeConfigSchema ??= makeConfigSchema();
-  return madeConfigSchema;
+function optionsSchema<T extends Record<string, OptionSpec>>(table: T): OptionsSchema<T> {
+  return { table, parse: (values) => validateOptions(table, values, (key) => ({ name: key })) };
 }
+
+/** The options every command takes. */
+export const sharedOptionsSchema = optionsSchema(sharedOptions);
+export type SharedCliOptions = OptionsOf<typeof sharedOptions> & NamedOptions;
+
+/** The options of a summary, as the core receives them. */
+export const summaryOptionsSchema = optionsSchema({ ...sharedOptions, ...summaryOnlyOptions });
+export type SummaryCliOptions = OptionsOf<typeof sharedOptions & typeof summaryOnlyOptions> & NamedOptions;
+
+/** The options of `espalier diff`: every option of a summary, plus the diff's own. */
+export const diffOptionsSchema = optionsSchema({ ...sharedOptions, ...diffOnlyOptions });
+export type DiffCliOptions = OptionsOf<typeof sharedOptions & typeof diffOnlyOptions> & NamedOptions;
+
+/** The options a config file may set: every option but those naming this run's own files. */
+export const configOptions: Record<string, OptionSpec> = Object.fromEntries(
+  Object.entries<OptionSpec>({ ...sharedOptions, ...summaryOnlyOptions, ...diffOnlyOptions }).filter(
+    ([, spec]) => spec.config !== false,
+  ),
+);
 
 /** Environment variable holding the secret for --pseudonymize. */
 export const PSEUDONYM_KEY_ENV = "ESPALIER_PSEUDONYM_KEY";

@@ -1,6 +1,8 @@
 import type { z } from "zod";
 import { didYouMeanText } from "../did-you-mean.js";
 import { EspalierError, type SourcePos } from "../errors.js";
+import { checkValue, quote } from "./option-value.js";
+import type { OptionSpec, OptionsOf } from "./options.js";
 
 /**
  * One line for a zod issue about one option, `name` being how the user wrote it (`--format`, or
@@ -23,26 +25,26 @@ export function issueMessage(issue: z.core.$ZodIssue, name: string, given: unkno
 }
 
 /**
- * Validates the options a command runs with; a bad value is a USAGE error naming the option as the user
- * wrote it (the flag, or the config file's key with its line and column).
+ * Checks the options a command runs with against their declarations (`table`, in its order: the first
+ * bad value is reported) and gives the values to run with, defaults filled in; keys the table does not
+ * declare are left out. A bad value is a USAGE error naming the option as the user wrote it (the flag,
+ * or the config file's key with its line and column).
  */
-export function validateOptions<S extends z.ZodType>(
-  schema: S,
+export function validateOptions<T extends Record<string, OptionSpec>>(
+  table: T,
   values: Record<string, unknown>,
   nameOf: (key: string) => { name: string; pos?: SourcePos },
-): z.infer<S> {
-  const parsed = schema.safeParse(values);
-  if (parsed.success) return parsed.data;
-  const issue = parsed.error.issues[0];
-  const key = String(issue.path[0]);
-  const { name, pos } = nameOf(key);
-  throw new EspalierError("USAGE", issueMessage(issue, name, values[key]), pos, { option: name });
-}
-
-function quote(value: unknown): string {
-  if (typeof value === "string") return JSON.stringify(value);
-  if (value === undefined) return "nothing";
-  return typeof value === "object" ? JSON.stringify(value) : String(value);
+): OptionsOf<T> {
+  const out: Record<string, unknown> = {};
+  for (const key of Object.keys(table)) {
+    const checked = checkValue(table[key].value, values[key]);
+    if (!checked.ok) {
+      const { name, pos } = nameOf(key);
+      throw new EspalierError("USAGE", checked.message(name), pos, { option: name });
+    }
+    if (checked.value !== undefined) out[key] = checked.value;
+  }
+  return out as OptionsOf<T>;
 }
 
 function article(type: string): string {

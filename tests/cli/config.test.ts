@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { parse } from "yaml";
-import { configSchema } from "../../src/cli/config.js";
+import { configSchema } from "../../src/cli/config-schema.js";
 import { parseConfig } from "../../src/cli/config-text.js";
 import type { EspalierError } from "../../src/errors.js";
 import { cli } from "../helpers/cli.js";
@@ -93,7 +93,7 @@ describe("the project config file (.espalier.yaml, --config)", () => {
 describe("docs/config.schema.json", () => {
   it("is exactly the JSON Schema generated from the zod config schema, and accepts a typical CI config", async () => {
     const { readFileSync } = await import("node:fs");
-    const { configJsonSchema } = await import("../../src/cli/config.js");
+    const { configJsonSchema } = await import("../../src/cli/config-schema.js");
     const Ajv2020 = (await import("ajv/dist/2020.js")).default;
     const published = JSON.parse(
       readFileSync(new URL("../../docs/config.schema.json", import.meta.url), "utf8"),
