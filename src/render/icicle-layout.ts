@@ -33,9 +33,15 @@ export interface IcicleLayout<T extends ViewNode> {
   blocks: IcicleBlock<T>[];
   /**
    * Width the blocks have beyond their share by weight, summed over the blocks with nothing beneath
-   * them (the widening near a focus and of blocks raised to `minBlock`), in the layout's units.
+   * them (the widening near a focus and of blocks raised to `minBlock`), in the layout's units; at
+   * most `cap` of the width.
    */
   widened: number;
+  /**
+   * Nodes with a floor (on the path to a focus, or in a diff to a change) that are not drawn as a
+   * block of their own but inside a group, so that the widening keeps within the cap.
+   */
+  pathGrouped: number;
 }
 
 export interface IcicleOptions<T extends ViewNode> {
@@ -48,8 +54,11 @@ export interface IcicleOptions<T extends ViewNode> {
    * label); 0 for a node that may be grouped with its narrow siblings.
    */
   floor: (node: T) => number;
-  /** Most of the width the floors may take together (they shrink alike beyond it), e.g. 0.25. */
-  floorShare: number;
+  /**
+   * Most of the width that all widening together may take (the floors and the blocks raised to
+   * `minBlock`), as a share of the width, e.g. 0.25: see {@link icicle} for what gives way.
+   */
+  cap: number;
   /**
    * The narrowest block drawn (say, room for a short label): siblings whose share is narrower are
    * drawn together as one group; a lone narrow one is widened to it.
@@ -61,10 +70,14 @@ interface Item<T extends ViewNode> {
   member: IcicleMember<T>;
   children: Item<T>[];
   weight: number;
-  /** Own floor (widened label room), 0 when the item may be grouped. */
+  /** Floor (widened label room) as asked for, 0 when the item may be grouped. */
+  asked: number;
+  /** Own floor in the layout being tried: `asked` scaled, or 0 once released. */
   own: number;
   /** Width the item's subtree asks for: its own floor, and room for the floors beneath it. */
   need: number;
+  /** The item is a focus or has one beneath it. */
+  focusPath: boolean;
 }
 
 /**
@@ -72,20 +85,25 @@ interface Item<T extends ViewNode> {
  * folded remainder side by side beneath it, together exactly as wide as it. Siblings share their
  * parent's width in proportion to their weight (subtree size or node count; an inner node's own size
  * has no width of its own), except that:
- * - a focus and its ancestors are widened to their floor (see `IcicleOptions.floor`); when the
- *   floors would take more than `floorShare` of the width, they shrink alike;
+ * - a node with a floor (a focus and its ancestors; in a diff, the path to a change) is widened to
+ *   it (see `IcicleOptions.floor`);
  * - siblings whose share is narrower than `minBlock` are drawn as one group block (last among
  *   them, standing for their whole subtrees), widened to `minBlock` if the group is still narrower;
  *   when the floors of a row do not fit their parent, its smallest children join the group.
- * So every block is at least `minBlock` wide (the root included, when `width` is), and the row
- * beneath a block fills it exactly. Blocks come in pre-order; time and memory are linear in the
- * number of shown nodes, up to a sort of each node's children.
+ * All this widening together — the width of the blocks with nothing beneath them beyond their share
+ * by weight — is at most `cap` of the width. Until it is, in this order: the floors of the path to
+ * a change give way, smallest weight first (those nodes may then be grouped like any other); the
+ * floors of the focus path shrink alike down to `minBlock`; those floors give way too, smallest
+ * first; and last, a row that would still pass the cap (rows are laid out shallowest first) is drawn
+ * as one group of all its blocks. So every block is at least `minBlock` wide (the root included, when
+ * `width` is), and the row beneath a block fills it exactly. Blocks come in pre-order; each layout
+ * tried takes time and memory linear in the number of shown nodes (up to a sort of each node's
+ * children), and the search tries one layout when nothing passes the cap, a few dozen at most.
  */
 export function icicle<T extends ViewNode>(
   view: HierarchyNode<T>,
   options: IcicleOptions<T>,
 ): IcicleLayout<T> {
-  const { minBlock } = options;
   // Items without recursion (a focus may lie 100,000 levels down): pre-order, then weights and
   // needs bottom-up in reverse pre-order.
   const top = item({ node: view.data, folded: false }, options);
@@ -102,6 +120,7 @@ export function icicle<T extends ViewNode>(
   for (let k = order.length - 1; k >= 0; k--) {
     const it = order[k][0];
     if (it.children.length > 0) it.weight = it.children.reduce((w, c) => w + c.weight, 0);
+    it.focusPath = (!it.member.folded && it.member.node.focus) || it.children.some((c) => c.focusPath);
   }
   // Without any weight (every size 0), blocks share by the number of leaves beneath them.
   if (!(top.weight > 0)) {
@@ -111,51 +130,140 @@ export function icicle<T extends ViewNode>(
       it.weight = it.children.length === 0 ? 1 : it.children.reduce((s, c) => s + c.weight, 0);
     }
   }
-  // The widened floors shrink alike (by s) until they add at most `floorShare` of the width to the
-  // room of minBlock each block needs (which does not shrink). The root's need grows with s: halve
-  // the interval.
-  const needs = (s: number) => {
+  // The floors that may give way, in the order they do: the path to a change, then the focus path;
+  // the lightest first, and of equal weight the deepest (later in pre-order) first, so that a node
+  // gives way no later than the nodes beneath it.
+  const floored = order.map(([it], k) => ({ it, k })).filter(({ it }) => it.asked > 0);
+  floored.sort(
+    (a, b) => Number(a.it.focusPath) - Number(b.it.focusPath) || a.it.weight - b.it.weight || b.k - a.k,
+  );
+  const changePath = floored.filter(({ it }) => !it.focusPath).length;
+  const released = new Uint8Array(order.length);
+  const { minBlock } = options;
+  const budget = options.cap * options.width;
+
+  /** Lays the icicle out with floors scaled by `s` and the first `r` floors of `floored` given way. */
+  const attempt = (s: number, r: number) => {
+    released.fill(0);
+    for (let j = 0; j < r; j++) released[floored[j].k] = 1;
     for (let k = order.length - 1; k >= 0; k--) {
       const it = order[k][0];
-      const own = it.own > 0 ? Math.max(minBlock, it.own * s) : 0;
+      it.own = it.asked > 0 && !released[k] ? Math.max(minBlock, it.asked * s) : 0;
       let forced = 0;
       let free = false;
       for (const c of it.children) {
         if (c.need > 0) forced += c.need;
         else free = true;
       }
-      it.need = Math.max(own, forced + (free && forced > 0 ? minBlock : 0));
+      it.need = Math.max(it.own, forced + (free && forced > 0 ? minBlock : 0));
     }
-    return top.need;
+    return place(top, options, budget, floored.length, floored.length - r);
   };
-  const cap = Math.min(options.width, needs(0) + options.width * options.floorShare);
-  if (needs(1) > cap) {
-    let [lo, hi] = [0, 1];
-    for (let round = 0; round < 20; round++) {
-      const mid = (lo + hi) / 2;
-      if (needs(mid) > cap) hi = mid;
-      else lo = mid;
-    }
-    needs(lo);
-  }
-  const scale = options.width / top.weight;
 
-  const blocks: IcicleBlock<T>[] = [];
-  let widened = 0;
+  // One layout when nothing passes the cap; else the least giving way that draws every row and every
+  // node whose floor stands as a block of its own.
+  const whole = (p: Placement<T>) => p.collapsed === 0 && p.lost === 0;
+  let best = attempt(1, 0);
+  if (whole(best)) return best.layout;
+  let r = 0;
+  let s = 1;
+  const search = (lo: number, hi: number, at: (r: number) => Placement<T>) => {
+    // `lo` is known to pass the cap (or is where the search starts); the smallest r in (lo, hi] that
+    // keeps every row, or hi.
+    const last = at(hi);
+    if (!whole(last)) return { r: hi, placed: last };
+    let good = { r: hi, placed: last };
+    while (hi - lo > 1) {
+      const mid = Math.floor((lo + hi) / 2);
+      const p = at(mid);
+      if (whole(p)) {
+        hi = mid;
+        good = { r: mid, placed: p };
+      } else lo = mid;
+    }
+    return good;
+  };
+  if (changePath > 0) {
+    ({ r, placed: best } = search(0, changePath, (j) => attempt(s, j)));
+    if (whole(best)) return best.layout;
+  }
+  const none = attempt(0, r);
+  if (whole(none)) {
+    let [lo, hi] = [0, 1];
+    best = none;
+    for (let round = 0; round < 12; round++) {
+      const mid = (lo + hi) / 2;
+      const p = attempt(mid, r);
+      if (whole(p)) {
+        lo = mid;
+        best = p;
+      } else hi = mid;
+    }
+    return best.layout;
+  }
+  s = 0;
+  if (floored.length > r) ({ placed: best } = search(r, floored.length, (j) => attempt(s, j)));
+  else best = none;
+  return best.layout;
+}
+
+interface Placement<T extends ViewNode> {
+  layout: IcicleLayout<T>;
+  /** Rows drawn as one group to keep within the cap. */
+  collapsed: number;
+  /** Nodes whose floor stands (not given way) that are drawn inside a group all the same. */
+  lost: number;
+}
+
+/**
+ * Places the items with their needs as computed: rows shallowest first, each row's widening added
+ * to what the blocks laid so far have beyond their share; a row that would pass `budget` is drawn as
+ * one group of all its blocks, which adds none. Blocks are returned in pre-order.
+ */
+function place<T extends ViewNode>(
+  top: Item<T>,
+  options: IcicleOptions<T>,
+  budget: number,
+  floors: number,
+  standing: number,
+): Placement<T> {
+  const { minBlock } = options;
+  const scale = options.width / top.weight;
   const h = options.rowHeight;
-  // Pre-order without recursion: a stack of parts with their place, each one's children pushed in reverse.
   interface Placed {
     part: Part<T>;
     x0: number;
     x1: number;
     depth: number;
+    /** Index of the block drawn for it. */
+    at: number;
   }
-  const stack: Placed[] = [{ part: { item: top, width: options.width }, x0: 0, x1: options.width, depth: 0 }];
-  for (let next = stack.pop(); next !== undefined; next = stack.pop()) {
-    const { part, x0, x1, depth } = next;
-    const row = part.item ? arrange(part.item, x1 - x0, minBlock) : [];
+  const blocks: IcicleBlock<T>[] = [];
+  // Children of each block by index, to put the blocks in pre-order at the end.
+  const below: number[][] = [];
+  const excess = (p: Part<T>, w: number) => Math.max(0, w - weightOf(p) * scale);
+  // Breadth first, so that the shallow rows are drawn whole before the deep ones spend the cap.
+  const queue: Placed[] = [
+    { part: { item: top, width: options.width }, x0: 0, x1: options.width, depth: 0, at: 0 },
+  ];
+  let spent = 0;
+  let collapsed = 0;
+  let drawnFloors = 0;
+  let drawnStanding = 0;
+  for (let head = 0; head < queue.length; head++) {
+    const { part, x0, x1, depth, at } = queue[head];
+    const w = x1 - x0;
+    let row = part.item ? arrange(part.item, w, minBlock) : [];
+    if (row.length > 1) {
+      // What the row would add to the widening so far; past the budget, one group of all.
+      let added = -excess(part, w);
+      for (const r of row) added += excess(r, r.width);
+      if (spent + added > budget + 1e-9 * options.width) {
+        row = [{ group: part.item!.children, parent: part.item!, width: w }];
+        collapsed++;
+      } else spent += Math.max(0, added);
+    }
     const group = part.group;
-    const weight = group ? group.reduce((s, c) => s + c.weight, 0) : part.item!.weight;
     const block: IcicleBlock<T> = {
       node: group ? part.parent!.member.node : part.item!.member.node,
       folded: group ? false : part.item!.member.folded,
@@ -164,22 +272,44 @@ export function icicle<T extends ViewNode>(
       x1,
       y0: depth * h,
       y1: (depth + 1) * h,
-      weight,
+      weight: weightOf(part),
       leaf: row.length === 0,
     };
     if (group) block.members = group.map((c) => c.member);
-    blocks.push(block);
-    if (block.leaf) widened += Math.max(0, x1 - x0 - weight * scale);
+    else if (part.item!.asked > 0) {
+      drawnFloors++;
+      if (part.item!.own > 0) drawnStanding++;
+    }
+    blocks[at] = block;
+    below[at] = [];
     let x = x0;
-    const below: Placed[] = [];
     row.forEach((r, k) => {
       const end = k === row.length - 1 ? x1 : x + r.width;
-      below.push({ part: r, x0: x, x1: end, depth: depth + 1 });
+      const index = queue.length;
+      below[at].push(index);
+      queue.push({ part: r, x0: x, x1: end, depth: depth + 1, at: index });
       x = end;
     });
-    for (let k = below.length - 1; k >= 0; k--) stack.push(below[k]);
   }
-  return { blocks, widened };
+  // Pre-order, and the widening measured on the blocks with nothing beneath them.
+  const ordered: IcicleBlock<T>[] = [];
+  let widened = 0;
+  const stack = [0];
+  for (let k = stack.pop(); k !== undefined; k = stack.pop()) {
+    const b = blocks[k];
+    ordered.push(b);
+    if (b.leaf) widened += Math.max(0, b.x1 - b.x0 - b.weight * scale);
+    for (let j = below[k].length - 1; j >= 0; j--) stack.push(below[k][j]);
+  }
+  return {
+    layout: { blocks: ordered, widened, pathGrouped: floors - drawnFloors },
+    collapsed,
+    lost: standing - drawnStanding,
+  };
+}
+
+function weightOf<T extends ViewNode>(part: Part<T>): number {
+  return part.group ? part.group.reduce((s, c) => s + c.weight, 0) : part.item!.weight;
 }
 
 /** A child's place in its parent's row: one item, or a group of them (then `parent` is set). */
@@ -256,13 +386,15 @@ function arrange<T extends ViewNode>(it: Item<T>, total: number, minBlock: numbe
 
 function item<T extends ViewNode>(member: IcicleMember<T>, options: IcicleOptions<T>): Item<T> {
   const node = member.folded ? member.node.hidden! : member.node;
-  const own = member.folded ? 0 : options.floor(member.node);
+  const asked = member.folded ? 0 : options.floor(member.node);
   return {
     member,
     children: [],
     weight: options.weight === "size" ? node.size : node.nodes,
-    own,
-    need: own,
+    asked,
+    own: asked,
+    need: asked,
+    focusPath: false,
   };
 }
 

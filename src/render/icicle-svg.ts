@@ -86,11 +86,24 @@ const MARGIN = 10;
  * `58.3M`). Siblings narrower than this are drawn as one group.
  */
 export const MIN_BLOCK = 2 * PAD + 5 * LABEL_PX * COLUMN + MARK_ROOM;
+/**
+ * The narrowest block of a diff picture, in pixels: its numbers line also holds `999 changed`
+ * (eleven columns), so that a narrow fold or group says what changed inside it before its size.
+ */
+export const MIN_DIFF_BLOCK = Math.max(MIN_BLOCK, 2 * PAD + 11 * NUMBER_PX * COLUMN);
+
+/** The narrowest block drawn: {@link MIN_DIFF_BLOCK} in a diff picture, else {@link MIN_BLOCK}. */
+export function minBlockOf(options: { changesIn?: unknown }): number {
+  return options.changesIn ? MIN_DIFF_BLOCK : MIN_BLOCK;
+}
 const MIN_WIDTH = 200;
 /** Columns of label a block on a focus path is widened to hold. */
 const PATH_COLUMNS = 40;
-/** Most of the picture's width that widening the focus path may take from the shares by size. */
-export const WIDENING_CAP = 1 / 4;
+/**
+ * Most of the picture's width that all widening together (labels on the path to a focus or change,
+ * blocks raised to `MIN_BLOCK`) may take from the shares by size; the legend states it.
+ */
+export const WIDENING_CAP = 1 / 3;
 const HEADING_PX = 13;
 /** Longest path, in UTF-16 code units, a tooltip shows whole. */
 const TOOLTIP_PATH = 960;
@@ -112,7 +125,7 @@ const PATTERN = "espalier-folded";
 export function renderSvg<T extends ViewNode>(view: HierarchyNode<T>, options: SvgOptions<T>): string {
   const width = pictureWidth(options);
   const inner = width - 2 * MARGIN;
-  const { blocks, widened } = pictureLayout(view, options);
+  const { blocks, widened, pathGrouped } = pictureLayout(view, options);
   // The heading wraps at spaces (its facts are separated by "; "), so that nothing of it is lost.
   const heading = options.heading
     ? wrapWords(options.heading, Math.floor(inner / (HEADING_PX * COLUMN)))
@@ -122,7 +135,9 @@ export function renderSvg<T extends ViewNode>(view: HierarchyNode<T>, options: S
   const changed = new Set(
     blocks.map((b) => (b.folded ? null : (options.changeOf?.(b.node) ?? null))).filter((k) => k !== null),
   );
-  const legend = legendItems(options, new Set(blocks.map(kindOf)), changed, widened / inner);
+  const drawn = new Set<BlockKind>(blocks.map(kindOf));
+  if (blocks.some((b) => b.members && focusesIn(b.members).length > 0)) drawn.add("focus-group");
+  const legend = legendItems(options, drawn, changed, widened / inner, pathGrouped);
   const legendTop = MARGIN + top + rowsHeight + 14;
   const legendRows = layoutLegend(legend, inner);
   const height = legendTop + legendRows * LEGEND_ROW + MARGIN;
@@ -169,15 +184,16 @@ export function pictureLayout<T extends ViewNode>(
     width: pictureWidth(options) - 2 * MARGIN,
     rowHeight: ROW,
     floor: (node) => floorOf(node, options),
-    floorShare: WIDENING_CAP,
-    minBlock: MIN_BLOCK,
+    cap: WIDENING_CAP,
+    minBlock: minBlockOf(options),
   });
 }
 
 /**
  * The width a block is widened to: a focus and its ancestors room for their label (up to 40
- * columns); anything else none (it is drawn by size, or grouped with its narrow siblings). All these
- * floors together take at most {@link WIDENING_CAP} of the width; the legend says how much is widened.
+ * columns); anything else none (it is drawn by size, or grouped with its narrow siblings). All
+ * widening together takes at most {@link WIDENING_CAP} of the width (the floors give way first, see
+ * `icicle`); the legend says how much is widened.
  */
 function floorOf<T extends ViewNode>(node: T, options: SvgOptions<T>): number {
   if (!(node.focus || node.onPath)) return 0;
@@ -186,7 +202,7 @@ function floorOf<T extends ViewNode>(node: T, options: SvgOptions<T>): number {
   const change = options.changeOf?.(node) ?? null;
   const shortest = numbers({ node, folded: false }, options, change)[1] ?? "";
   const figures = Math.min(displayWidth(shortest), PATH_COLUMNS) * NUMBER_PX * COLUMN;
-  return Math.max(MIN_BLOCK, Math.max(label + (change ? MARK_ROOM : 0), figures) + 2 * PAD);
+  return Math.max(minBlockOf(options), Math.max(label + (change ? MARK_ROOM : 0), figures) + 2 * PAD);
 }
 
 function defs(): string {
@@ -197,7 +213,7 @@ function defs(): string {
   );
 }
 
-type BlockKind = "focus" | "path" | "other" | "folded" | "reference" | "group";
+type BlockKind = "focus" | "path" | "other" | "folded" | "reference" | "group" | "focus-group";
 
 function kindOf<T extends ViewNode>({ node, folded, members }: IcicleBlock<T>): BlockKind {
   return members
@@ -228,7 +244,12 @@ function block<T extends ViewNode>(b: IcicleBlock<T>, options: SvgOptions<T>): s
   const box = `x="${num(b.x0)}" y="${num(b.y0)}" width="${num(round2(b.x1) - round2(b.x0))}" height="${num(h)}"`;
   const dash = change === "removed" ? ` stroke-dasharray="5 3"` : "";
   if (b.members) {
-    parts.push(`<rect ${box} fill="${LOOK.group}" stroke="${LOOK.background}" stroke-width="1"/>`);
+    // A group that holds a focus (drawn inside it to keep the widening within the cap) has its outline.
+    const edge =
+      focusesIn(b.members).length > 0
+        ? `stroke="${LOOK.focusEdge}" stroke-width="3"`
+        : `stroke="${LOOK.background}" stroke-width="1"`;
+    parts.push(`<rect ${box} fill="${LOOK.group}" ${edge}/>`);
     parts.push(comb(b.x0, b.x1, b.y1));
   } else if (folded)
     parts.push(`<rect ${box} fill="url(#${PATTERN})" stroke="${LOOK.background}" stroke-width="1"/>`);
@@ -269,7 +290,7 @@ function labels<T extends ViewNode>(
   const first = b.members
     ? fitted(groupNames(b.members), room, LABEL_PX, true)
     : folded
-      ? fitted([`+${node.hidden!.children} more`, `+${node.hidden!.children}`], room, LABEL_PX, true)
+      ? fitted(foldNames(node.hidden!.children), room, LABEL_PX, true)
       : fitted(
           [`${node.reference ? `${LINE_MARK.reference} ` : ""}${shownLabel(node.label)}`],
           room,
@@ -336,6 +357,11 @@ function numberTexts(nodes: number, size: number, options: NumberOptions, always
   return texts.filter((t, k) => t !== "" && texts.indexOf(t) === k);
 }
 
+/** A fold's label, longest first: `+17,847 more`, `+17,847`, `+17.8k` (counts in the one number style). */
+function foldNames(children: number): string[] {
+  return [`+${formatCount(children)} more`, `+${formatCount(children)}`, `+${formatCount(children, true)}`];
+}
+
 /** How many siblings a group holds: its shown nodes and the hidden children of a folded remainder. */
 function groupCount<T extends ViewNode>(members: IcicleMember<T>[]): number {
   return members.reduce((n, m) => n + (m.folded ? m.node.hidden!.children : 1), 0);
@@ -354,8 +380,9 @@ function groupNumbers<T extends ViewNode>(members: IcicleMember<T>[], options: S
 }
 
 /**
- * In a diff, what changed among `members` (`2 removed, 1 added`, then `3 changed`) before the
- * numbers, or `none changed`; the numbers alone in a summary.
+ * In a diff, what changed among `members` (`2 removed, 1 added`, then `3 changed`), or `none changed`
+ * (then `0 changed`), before the numbers, so that a block as narrow as {@link MIN_DIFF_BLOCK} still
+ * says it; the numbers alone in a summary.
  */
 function withChanges<T extends ViewNode>(
   plain: string[],
@@ -371,8 +398,20 @@ function withChanges<T extends ViewNode>(
   const words = changeKinds.filter((k) => changes[k] > 0).map((k) => `${formatCount(changes[k])} ${k}`);
   const total = changeKinds.reduce((n, k) => n + changes[k], 0);
   return total > 0
-    ? [words.join(", "), `${formatCount(total)} changed`, ...plain]
-    : ["none changed", ...plain];
+    ? [words.join(", "), `${formatCount(total)} changed`, `${formatCount(total, true)} changed`, ...plain]
+    : ["none changed", "0 changed", ...plain];
+}
+
+/** The foci inside a group's members (shown nodes and everything below them), in pre-order. */
+function focusesIn<T extends ViewNode>(members: IcicleMember<T>[]): ViewNode[] {
+  const found: ViewNode[] = [];
+  const stack: ViewNode[] = members.filter((m) => !m.folded && m.node.onPath).map((m) => m.node);
+  stack.reverse();
+  for (let n = stack.pop(); n !== undefined; n = stack.pop()) {
+    if (n.focus) found.push(n);
+    for (let k = n.children.length - 1; k >= 0; k--) if (n.children[k].onPath) stack.push(n.children[k]);
+  }
+  return found;
 }
 
 function groupTotals<T extends ViewNode>(members: IcicleMember<T>[]): { nodes: number; size: number } {
@@ -426,11 +465,19 @@ function tooltip<T extends ViewNode>(
     }
     if (b.members.length > TOOLTIP_MEMBERS)
       lines.push(`… and ${formatCount(b.members.length - TOOLTIP_MEMBERS)} more`);
+    const foci = focusesIn(b.members);
+    if (foci.length > 0)
+      lines.push(
+        `holds ${foci.length === 1 ? "the focus" : `${formatCount(foci.length)} foci:`} ${foci
+          .slice(0, TOOLTIP_MEMBERS)
+          .map((f) => shownLabel(f.label))
+          .join(", ")}${foci.length > TOOLTIP_MEMBERS ? ", …" : ""}`,
+      );
     return lines.join("\n");
   }
   if (b.folded) {
     const { children, nodes, size } = node.hidden!;
-    return `+${children} more under ${label}: ${amount(nodes, size, always)}`;
+    return `+${formatCount(children)} more under ${label}: ${amount(nodes, size, always)}`;
   }
   const lines = [label];
   // A deep node's path is long (a chain's grow with the square of its depth): past a few lines, the
@@ -497,6 +544,7 @@ function legendItems<T extends ViewNode>(
   drawn: Set<BlockKind>,
   changed: Set<ChangeKind>,
   widened: number,
+  pathGrouped: number,
 ): LegendItem[] {
   const s = SWATCH;
   const box = `width="${s}" height="${s}"`;
@@ -514,6 +562,11 @@ function legendItems<T extends ViewNode>(
       "group",
       `<rect ${box} fill="${LOOK.group}"/>${comb(0, s, s)}`,
       "N grouped: shown siblings too narrow to label one by one (names in the tooltip)",
+    ],
+    [
+      "focus-group",
+      `<rect ${box} fill="${LOOK.group}" stroke="${LOOK.focusEdge}" stroke-width="3"/>${comb(0, s, s)}`,
+      "a group with a focus inside",
     ],
     [
       "reference",
@@ -535,11 +588,17 @@ function legendItems<T extends ViewNode>(
   }
   // The widening, measured: what the blocks have beyond their share by weight, as a share of the width.
   const percent = widened * 100;
+  const cap = Math.round(WIDENING_CAP * 100);
   const wider =
     percent >= 0.05
-      ? `; ${percent < 1 ? percent.toFixed(1) : Math.round(percent)}% of the width is widened to fit labels (the path to ${near}, narrow blocks)`
+      ? `; ${percent < 1 ? percent.toFixed(1) : Math.round(percent)}% of the width is widened to fit labels (the path to ${near}, narrow blocks; at most ${cap}%)`
       : "";
-  items.push({ swatch: "", text: `width: ${options.sizes ? "size" : "node count"}${wider}` });
+  // What gave way to keep the cap: nodes with room of their own that are drawn inside a group.
+  const grouped =
+    pathGrouped > 0
+      ? `; to keep to ${cap}%, ${formatCount(pathGrouped)} ${pathGrouped === 1 ? "node" : "nodes"} on the path to ${near} ${pathGrouped === 1 ? "is" : "are"} drawn inside groups`
+      : "";
+  items.push({ swatch: "", text: `width: ${options.sizes ? "size" : "node count"}${wider}${grouped}` });
   return items.map((item) => ({ ...item, x: 0, y: 0 }));
 }
 

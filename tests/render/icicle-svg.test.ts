@@ -1,13 +1,16 @@
+import { readFileSync } from "node:fs";
 import { DOMParser, type Element } from "@xmldom/xmldom";
 import type { HierarchyNode } from "d3-hierarchy";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { diffTrees } from "../../src/diff/diff-trees.js";
+import { loadTree } from "../../src/load/index.js";
+import { defaultLoadOptions } from "../../src/load/load-options.js";
 import { buildTree } from "../../src/model/build-tree.js";
 import type { Tree } from "../../src/model/tree.js";
 import { displayWidth } from "../../src/render/display-width.js";
 import {
-  MIN_BLOCK,
+  minBlockOf,
   pictureLayout,
   renderSvg,
   type SvgOptions,
@@ -162,8 +165,11 @@ describe("renderSvg(view, options)", () => {
       const block = blocks.find((b) => b.title.startsWith(`${name}\n`))!;
       expect(block.group.getElementsByTagName("text")[0].textContent).toBe(name);
     }
+    const cap = Math.round(100 * WIDENING_CAP);
     expect(svg).toMatch(
-      /width: size; \d+(\.\d)?% of the width is widened to fit labels \(the path to a focus, narrow blocks\)</,
+      new RegExp(
+        `width: size; \\d+(\\.\\d)?% of the width is widened to fit labels \\(the path to a focus, narrow blocks; at most ${cap}%\\)<`,
+      ),
     );
     // Nothing narrow and no focus: nothing widened, and the legend says width is size alone.
     const plain = renderSvg(view(makeTree("R{a:5,b:7}"), [], 10), opts);
@@ -204,7 +210,7 @@ describe("renderSvg(view, options)", () => {
     if (cut) expect(long.startsWith(cut.slice(0, -1))).toBe(true);
   });
 
-  it("keeps widths proportional to size but for the focus path's widening, at most a quarter of the width", () => {
+  it("keeps widths proportional to size but for the focus path's widening, at most WIDENING_CAP of the width", () => {
     const t = makeTree("R{huge:1000000{h1:500000,h2:500000},small:10{focus-with-a-long-name:1,other:9}}");
     const blocks = blocksOf(
       renderSvg(view(t, ["small/focus-with-a-long-name"], 10), { ...opts, width: 1000 }),
@@ -380,6 +386,92 @@ describe("renderSvg(view, options)", () => {
     );
   });
 
+  it("keeps a busy diff's widening within WIDENING_CAP and says what gave way (tidewater listing)", () => {
+    // A second version of the fictional tidewater file listing, as `npm run screenshots` derives it:
+    // every 37th file removed, every 23rd grown by half, six files added under one folder. Before the
+    // cap, the paths to its changes took about 61% of the picture's width.
+    const lines = readFileSync(new URL("../../fixtures/tidewater-files.paths", import.meta.url), "utf8")
+      .trimEnd()
+      .split("\n");
+    const changed: string[] = [];
+    lines.forEach((line, k) => {
+      const [size, path] = line.split("\t");
+      if (k > 0 && k % 37 === 0 && !lines[k + 1]?.split("\t")[1].startsWith(`${path}/`)) return;
+      changed.push(k > 0 && k % 23 === 0 ? `${Math.round(Number(size) * 1.5)}\t${path}` : line);
+    });
+    for (let k = 0; k < 6; k++) changed.push(`${2048 * (k + 1)}\t./services/ledger/src/tide-gauge-${k}.ts`);
+    const load = (text: string) => loadTree(text, { ...defaultLoadOptions, file: "files.paths" });
+    for (const [budget, w] of [
+      [40, 1200],
+      [80, 800],
+      [25, 300],
+    ]) {
+      const r = diffTrees(load(`${lines.join("\n")}\n`), load(`${changed.join("\n")}\n`), {
+        foci: [],
+        budget,
+        importance: "depth",
+      });
+      const options: SvgOptions<(typeof r.view)["data"]> = {
+        units: "bytes",
+        sizes: true,
+        width: w,
+        changeOf: (n) => n.change,
+        changesIn: (n, folded) => (folded ? n.hidden!.changes : n.changes),
+      };
+      checkPicture(r.view, options);
+      const { widened, pathGrouped } = pictureLayout(r.view, options);
+      expect(widened).toBeLessThanOrEqual((w - 20) * WIDENING_CAP + 1e-6);
+      const words = legendWords(renderSvg(r.view, options));
+      expect(words).toContain(`at most ${Math.round(100 * WIDENING_CAP)}%`);
+      if (pathGrouped > 0)
+        expect(words).toContain(
+          `${pathGrouped} nodes on the path to a focus or change are drawn inside groups`,
+        );
+    }
+  });
+
+  it("draws a focus inside a group when showing it would pass the cap, outlined and named in the tooltip", () => {
+    // At 200 pixels, a focus five levels down a branch of 1 in 10,000 cannot have blocks of its own
+    // without taking far more than WIDENING_CAP of the width.
+    const t = makeTree("R{big:10000{b1:5000,b2:5000},tiny:1{s:1{u:1{v:1{f:1,g:1},w:1},x:1},y:1}}");
+    const v = view(t, ["tiny/s/u/v/f"], 20);
+    const svg = renderSvg(v, { ...opts, width: 200 });
+    const { widened, pathGrouped } = pictureLayout(v, { ...opts, width: 200 });
+    expect(widened).toBeLessThanOrEqual(180 * WIDENING_CAP + 1e-6);
+    expect(pathGrouped).toBeGreaterThan(0);
+    const blocks = blocksOf(svg);
+    expect(blocks.some((b) => b.kind === "focus")).toBe(false);
+    const holder = blocks.filter((b) => b.kind === "group" && b.title.includes("holds the focus f"));
+    expect(holder).toHaveLength(1);
+    expect(holder[0].rect.getAttribute("stroke-width")).toBe("3");
+    const words = legendWords(svg);
+    expect(words).toContain("a group with a focus inside");
+    expect(words).toContain(
+      `${pathGrouped} ${pathGrouped === 1 ? "node" : "nodes"} on the path to a focus ${pathGrouped === 1 ? "is" : "are"} drawn inside groups`,
+    );
+    // Wide enough, the same focus has its own block and no group holds it.
+    const wide = blocksOf(renderSvg(v, { ...opts, width: 4000 }));
+    expect(wide.filter((b) => b.kind === "focus")).toHaveLength(1);
+    expect(wide.some((b) => b.title.includes("holds the focus"))).toBe(false);
+  });
+
+  it("writes a fold's count in the one number style, compact when the block is narrow", () => {
+    // Budget 3: the root, two children and a fold of the other 12,345 (each as big as all of `a`).
+    const kids = Array.from({ length: 12346 }, (_, k) => `c${k}:1000`).join(",");
+    const v = view(makeTree(`R{a:1000,${kids}}`), [], 3);
+    const label = (w: number) => {
+      const fold = blocksOf(renderSvg(v, { ...opts, width: w })).find((b) => b.kind === "folded")!;
+      return [fold.group.getElementsByTagName("text")[0].textContent, fold.title.split(":")[0]];
+    };
+    expect(label(1200)).toEqual(["+12,345 more", "+12,345 more under R"]);
+    // Six columns of label or fewer: the compact count (from 10,000 up).
+    const tiny = Array.from({ length: 12345 }, (_, k) => `c${k}:1`).join(",");
+    const narrow = view(makeTree(`R{a:1000000000000,b:1000000000000,${tiny}}`), [], 3);
+    const fold = blocksOf(renderSvg(narrow, { ...opts, width: 1200 })).find((b) => b.title.startsWith("+"))!;
+    expect(fold.title.split(":")[0]).toBe("+12,345 more under R");
+    expect(fold.group.getElementsByTagName("text")[0].textContent).toBe("+12.3k");
+  });
+
   it("writes each block's change in words inside it, and what changed inside a fold", () => {
     const r = diffTrees(
       makeIdTree("R{A{x:1,y:1},B{z:1},C:2,D:3,H{h1:1,h2:1,h3:1}}"),
@@ -472,10 +564,15 @@ function checkPicture<T extends ViewNode>(v: HierarchyNode<T>, options: SvgOptio
       const above = rows[rows.indexOf(b.y) - 1];
       expect(blocks.filter((p) => p.y === above && beneath(blocks, p).includes(b))).toHaveLength(1);
     }
-    expect(width(b)).toBeGreaterThanOrEqual(MIN_BLOCK - 0.02);
+    expect(width(b)).toBeGreaterThanOrEqual(minBlockOf(options) - 0.02);
     const texts = [...b.group.getElementsByTagName("text")];
     expect(texts.length, `unlabelled block ${b.title}`).toBeGreaterThan(0);
     expect(texts[0].textContent!.length).toBeGreaterThan(0);
+    // In a diff, a fold or a group says what changed inside it before its size, however narrow.
+    if (options.changesIn && (b.kind === "folded" || b.kind === "group"))
+      expect(texts[1]?.textContent, b.title).toMatch(
+        /^(none changed|\d[\d,.]*k? changed|\d[\d,]* (added|removed|moved|renamed|edited|resized|linked|unlinked)(, |$))/,
+      );
     // 0.6 em per column: common practice for monospace faces, no source (the renderer assumes 0.62).
     for (const e of texts)
       expect(displayWidth(e.textContent!) * Number(e.getAttribute("font-size")) * 0.6).toBeLessThanOrEqual(
@@ -519,12 +616,18 @@ function checkPicture<T extends ViewNode>(v: HierarchyNode<T>, options: SvgOptio
   expect(leaves.reduce((s, b) => s + b.weight, 0)).toBeCloseTo(total, 6);
   const beyond = leaves.reduce((s, b) => s + Math.max(0, b.x1 - b.x0 - (b.weight / total) * inner), 0);
   expect(widened).toBeCloseTo(beyond, 6);
-  // The legend's words, its wrapped lines joined again.
-  const legend = [...parse(svg).getElementsByTagName("g")].find((g) => g.getAttribute("class") === "legend")!;
-  const words = [...legend.getElementsByTagName("text")].map((e) => e.textContent).join(" ");
+  // All widening together keeps to the cap, whatever the tree, focus, budget and width.
+  expect(beyond).toBeLessThanOrEqual(WIDENING_CAP * inner + 1e-6 * inner);
+  const words = legendWords(svg);
   const stated = /(\d+(?:\.\d)?)% of the width is widened/.exec(words);
   if (beyond / inner >= 0.0005) expect(Number(stated?.[1])).toBeCloseTo((100 * beyond) / inner, 0);
   else expect(stated).toBeNull();
+}
+
+/** The legend's words, its wrapped lines joined again. */
+function legendWords(svg: string): string {
+  const legend = [...parse(svg).getElementsByTagName("g")].find((g) => g.getAttribute("class") === "legend")!;
+  return [...legend.getElementsByTagName("text")].map((e) => e.textContent).join(" ");
 }
 
 /** WCAG 2.x relative luminance of an sRGB colour `#rrggbb` (definition in WCAG 2.2, "relative luminance"). */
