@@ -5,7 +5,7 @@ import { helpEntries } from "./key-map.js";
 import type { Session } from "./session.js";
 import type { ExploreState } from "./state.js";
 import { INVERSE, INVERSE_OFF } from "./terminal.js";
-import { fitOf, GUTTER, specFoci } from "./update.js";
+import { fitOf, GUTTER, rowsNeeded, specFoci } from "./update.js";
 
 /** A screenful: exactly `rows` rows, none wider than `cols` columns, and where the cursor's row is. */
 export interface Screen {
@@ -49,8 +49,8 @@ export function draw(session: Session, state: ExploreState, colour: boolean): Sc
 }
 
 function tooSmallReason(err: EspalierError): string {
-  const need = /smallest budget that works is (\d+)/.exec(err.message);
-  return need ? `it needs ${Number(need[1]) + 1} rows` : "enlarge the window";
+  const need = rowsNeeded(err);
+  return need !== undefined ? `it needs ${need} rows` : "enlarge the window";
 }
 
 /** The bottom row: where the cursor is and how the view is set, or the search or file being typed. */

@@ -228,8 +228,14 @@ function move(
 }
 
 function tooSmall(err: EspalierError): string {
-  const need = /smallest budget that works is (\d+)/.exec(err.message);
-  return need ? `no room: that needs ${Number(need[1]) + STATUS_ROWS} rows` : "no room on this screen";
+  const need = rowsNeeded(err);
+  return need !== undefined ? `no room: that needs ${need} rows` : "no room on this screen";
+}
+
+/** The rows a screen needs for a view the fit refused (BUDGET_TOO_SMALL's smallest budget and the status row). */
+export function rowsNeeded(err: EspalierError): number | undefined {
+  const smallest = err.details.smallest;
+  return typeof smallest === "number" ? smallest + STATUS_ROWS : undefined;
 }
 
 /** Opens the fold on the cursor's line: its best hidden children (in the fit's order) join the foci. */

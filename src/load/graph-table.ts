@@ -91,6 +91,7 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
           "DUPLICATE_ID",
           say`row ${r + 1} repeats the ${options.idField} ${quoted.id(id)} of row ${first} with another ${what}`,
           { row: r + 1, field: what },
+          { firstRow: first, field: what },
         );
       if (rowName !== "" && rowName !== name[node]) throw clash(options.nameField);
       if (hasSize && size !== ownSize[node]) throw clash(options.sizeField);
@@ -249,6 +250,7 @@ function withRecordsOf(graph: GraphNodes, records: Table, options: Fields): Grap
         "DUPLICATE_ID",
         say`record ${r + 1} repeats the ${options.idField} ${quoted.id(id)} of record ${earlier + 1}`,
         { row: r + 1, field: options.idField },
+        { firstRow: earlier + 1 },
       );
     }
     seen.set(node, r);

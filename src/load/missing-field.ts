@@ -60,7 +60,8 @@ export function missingField(
 /**
  * FIELD_MISSING for a named `--size-field` or `--name-field` on an input whose sizes or names come from
  * elsewhere: a path list (the numbers before a tab, the path's last name), a document read as values
- * (each value's bytes, its key or index), or an edge list without node records (the ids).
+ * (each value's bytes, its key or index), or an edge list without node records (the ids), where the
+ * message names --nodes (`details.remedies`).
  */
 export function fieldNotApplicable(
   role: "size" | "name",
@@ -82,7 +83,34 @@ export function fieldNotApplicable(
     "FIELD_MISSING",
     say`${option[role]} ${quoted.name(field)} does not apply: ${why}`,
     undefined,
-    { option: option[role], field, fieldsSeen: [] },
+    { option: option[role], field, fieldsSeen: [], ...(shape === "edges" ? { remedies: ["--nodes"] } : {}) },
+  );
+}
+
+/**
+ * FIELD_MISSING for a document that would load as one node although its top-level object (a mapping,
+ * in YAML's words) holds objects or arrays under other fields: `fields` are those fields, and the message
+ * names the two options that read such a document (`details.remedies`).
+ */
+export function loneRoot(
+  childrenField: string,
+  fields: readonly string[],
+  words: "json" | "yaml",
+): EspalierError {
+  const top =
+    words === "json"
+      ? "object's fields holding objects or arrays"
+      : "mapping's fields holding mappings or sequences";
+  return new EspalierError(
+    "FIELD_MISSING",
+    say`no node has the children field "${childrenField}", so the input would be one node; the top-level ${top} are ${quotedList("name", fields)}: name the one holding the children with --children-field, or read every value with --read-as values`,
+    undefined,
+    {
+      option: "--children-field",
+      field: childrenField,
+      fieldsSeen: [...fields],
+      remedies: ["--children-field", "--read-as values"],
+    },
   );
 }
 

@@ -65,6 +65,7 @@ export class PathPlacer {
         "DUPLICATE_PATH",
         `${unit} ${origin} repeats the empty path (the root) of ${unit} ${sink.origin[this.root]}`,
         sink.originIsRow ? { row: origin } : { line: origin, column: 1 },
+        sink.originIsRow ? { firstRow: sink.origin[this.root] } : { firstLine: sink.origin[this.root] },
       );
     }
     this.root = sink.add(-1, "", origin);
@@ -173,6 +174,7 @@ export class PathPlacer {
           "DUPLICATE_PATH",
           say`${unit} ${origin} repeats the path ${shown} of ${unit} ${sink.origin[node]}`,
           sink.originIsRow ? { row: origin } : { line: origin, column: 1 },
+          sink.originIsRow ? { firstRow: sink.origin[node] } : { firstLine: sink.origin[node] },
         );
       }
       sink.origin[node] = origin;

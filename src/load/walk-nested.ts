@@ -1,9 +1,10 @@
-import { EspalierError, type MessagePart, quoted, quotedList, type SourcePos, say } from "../errors.js";
+import { EspalierError, type MessagePart, quoted, type SourcePos, say } from "../errors.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import { isSize } from "../model/size-rule.js";
+import { badNodeSize } from "./bad-node-size.js";
 import { describeNode } from "./describe-node.js";
 import type { LoadOptions } from "./load-options.js";
-import { FieldsSeen, missingField, nameFieldNamed, sizeFieldNamed } from "./missing-field.js";
+import { FieldsSeen, loneRoot, missingField, nameFieldNamed, sizeFieldNamed } from "./missing-field.js";
 import { NodeSink } from "./node-sink.js";
 import { fieldSizeUnit } from "./size-unit.js";
 
@@ -98,6 +99,8 @@ export function walkNested<V>(
   }
 
   const where = (i: number) => describeNode(sink.parentOf, sink.name, i);
+  const badSize = (shown: MessagePart, i: number, field: string | undefined, pos: SourcePos | undefined) =>
+    badNodeSize(sink.parentOf, sink.name, i, shown, field, pos);
   const keys: string[] = [];
   const values: V[] = [];
   for (let i = 0; i < sink.length; i++) {
@@ -112,7 +115,7 @@ export function walkNested<V>(
     if (kind !== Kind.Map) {
       if (keyed[i] === 1 && kind === Kind.Number) {
         const size = access.number(v);
-        if (!isSize(size)) throw badSize(quoted.excerpt(access.text(v)), where(i), access.pos(v));
+        if (!isSize(size)) throw badSize(quoted.excerpt(access.text(v)), i, undefined, access.pos(v));
         sink.ownSize[i] = size;
         sink.hasSizes = true;
       } else if (keyed[i] !== 1 || kind !== Kind.Null) {
@@ -159,7 +162,8 @@ export function walkNested<V>(
         // As written: a size past 2^53 - 1 must not be shown as its rounded neighbour.
         throw badSize(
           quoted.excerpt(access.source(sizeValue as V) || access.text(sizeValue as V)),
-          where(i),
+          i,
+          undefined,
           access.pos(sizeValue),
         );
       }
@@ -167,11 +171,7 @@ export function walkNested<V>(
       sink.hasSizes = true;
     } else if (sizeKind !== Kind.Null) {
       const shown = sizeKind === Kind.String ? quoted.value(access.text(sizeValue as V)) : "a non-number";
-      throw new EspalierError(
-        "BAD_SIZE",
-        say`the "${sizeField}" of ${where(i)} must be a number from 0 to 2^53 - 1, got ${shown}`,
-        access.pos(sizeValue),
-      );
+      throw badSize(shown, i, sizeField, access.pos(sizeValue));
     }
 
     for (let f = 0; f < keepFields.length; f++) {
@@ -260,12 +260,7 @@ export function walkNested<V>(
       const kind = access.kind(values[k]);
       return kind === Kind.Map || kind === Kind.Seq;
     });
-    if (nested.length > 0) {
-      throw new EspalierError(
-        "FIELD_MISSING",
-        say`no node has the children field "${childrenField}", so the input would be one node; the top-level mapping's fields holding mappings or sequences are ${quotedList("name", nested)}: name the one holding the children with --children-field, or read every value with --read-as values`,
-      );
-    }
+    if (nested.length > 0) throw loneRoot(childrenField, nested, "yaml");
   }
   if (!sink.hasSizes && sizeFieldNamed(options)) throw missingField("size", sizeField, seen.list(), true);
   if (!hasNames && nameFieldNamed(options)) throw missingField("name", nameField, seen.list(), true);
@@ -282,12 +277,4 @@ function grownFlags(flags: Uint8Array<ArrayBuffer>): Uint8Array<ArrayBuffer> {
   const grown = new Uint8Array(flags.length * 2);
   grown.set(flags);
   return grown;
-}
-
-function badSize(shown: MessagePart, where: MessagePart[], pos: SourcePos | undefined): EspalierError {
-  return new EspalierError(
-    "BAD_SIZE",
-    say`the size of ${where} must be a number from 0 to 2^53 - 1, got ${shown}`,
-    pos,
-  );
 }

@@ -140,4 +140,29 @@ describe("draw(session, state, colour)", () => {
     const shown = all.map((screen) => screen.rows.join("\n")).join("\n");
     expect(leakedNames(shown, realNames)).toEqual([]);
   });
+  it("on a screen too short for the view, names the fewest rows that show it", () => {
+    const s = sessionWith({});
+    const start = (rows: number) =>
+      startState(s, {
+        rows,
+        cols: 60,
+        foci: resolveFoci(prepared.index, ["Q2417"]),
+        importance: "depth",
+        fociFile: "f",
+      });
+    // Q2417's path takes its depth + 1 rows and the status row one more: shrink below that.
+    const tall = start(40);
+    const short = update(s, tall, { kind: "resize", rows: 4, cols: 60 });
+    const rows = draw(s, short, false).rows;
+    expect(rows).toHaveLength(4);
+    let fewest = 4;
+    while (
+      draw(s, update(s, tall, { kind: "resize", rows: fewest, cols: 60 }), false).rows[0].startsWith(
+        "too small",
+      )
+    )
+      fewest++;
+    expect(fewest).toBeGreaterThan(4);
+    expect(rows[0].match(/\d+/g)?.map(Number)).toEqual([fewest]);
+  });
 });

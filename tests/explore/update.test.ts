@@ -337,6 +337,12 @@ describe("moves on the check tree", () => {
     const tiny = start(s, 3, 60);
     const moved = keys(tiny, named("down"), named("right"), named("right"));
     expect(fitOf(s, moved.spec, 3, 60)).not.toBeInstanceOf(EspalierError);
-    expect(moved.message).toMatch(/rows/);
+    // Right from A (to A1) is what was refused: on a tall screen it is taken. The fewest rows that show
+    // it are the number the message names (from the error's smallest budget, never from its wording).
+    const wanted = keys(start(s, 30, 60), named("down"), named("right")).spec;
+    expect([moved.spec.cursor, wanted.cursor]).toEqual([at("A"), at("A1")]);
+    let fewest = 3;
+    while (fitOf(s, wanted, fewest, 60) instanceof EspalierError) fewest++;
+    expect(moved.message?.match(/\d+/g)?.map(Number)).toEqual([fewest]);
   });
 });

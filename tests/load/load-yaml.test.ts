@@ -62,6 +62,7 @@ describe("loadTree(yaml)", () => {
     const error = caught(() => yaml('name: r\nchildren:\n  - name: a\n    size: "12"\n'));
     expect(error.code).toBe("BAD_SIZE");
     expect(error.pos).toEqual({ line: 4, column: 11 });
+    expect(error.details).toEqual({ path: "r/a", field: "size" });
   });
 
   it("loadTree(yaml) rejects a scalar child in a sequence as SHAPE at its line", () => {

@@ -175,7 +175,7 @@ describe("graphs: a named size or name field no record has", () => {
     for (const named of [{ sizeFieldNamed: true }, { nameField: "title" }]) {
       const err = caught(() => loadTree(EDGES, opts({ file: "g.txt", format: "edges", ...named })));
       expect(err.code).toBe("FIELD_MISSING");
-      expect(err.message).toContain("--nodes");
+      expect(err.details).toMatchObject({ remedies: ["--nodes"] });
     }
   });
 

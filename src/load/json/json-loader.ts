@@ -1,10 +1,11 @@
 import type { Buffer } from "node:buffer";
-import { EspalierError, type MessagePart, quoted, quotedList, type SourcePos, say } from "../../errors.js";
+import { EspalierError, type MessagePart, quoted, type SourcePos, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { isSize } from "../../model/size-rule.js";
+import { badNodeSize } from "../bad-node-size.js";
 import { describeNode } from "../describe-node.js";
 import type { LoadOptions } from "../load-options.js";
-import { FieldsSeen, missingField, nameFieldNamed, sizeFieldNamed } from "../missing-field.js";
+import { FieldsSeen, loneRoot, missingField, nameFieldNamed, sizeFieldNamed } from "../missing-field.js";
 import { NodeSink } from "../node-sink.js";
 import { fieldSizeUnit } from "../size-unit.js";
 import { linkTable } from "../table/link-table.js";
@@ -171,7 +172,8 @@ export class JsonLoader extends JsonTokenizer {
     }
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the top-level array holds no nodes");
-    if (sink.length === 1 && this.rootContainers.length > 0) throw this.loneRoot();
+    if (sink.length === 1 && this.rootContainers.length > 0)
+      throw loneRoot(this.options.childrenField, this.rootContainers, "json");
     for (let i = 0; i < sink.length && !sink.hasSizes; i++) if (this.sized[i] === 1) sink.hasSizes = true;
     if (!sink.hasSizes && sizeFieldNamed(this.options))
       throw missingField("size", this.options.sizeField, this.seen.list(), true);
@@ -196,14 +198,6 @@ export class JsonLoader extends JsonTokenizer {
       childrenField: this.options.childrenField,
       ...(this.found ? { childrenFieldFound: true } : {}),
     });
-  }
-
-  /** FIELD_MISSING: the document would load as one node, though its top-level object holds more. */
-  private loneRoot(): EspalierError {
-    return new EspalierError(
-      "FIELD_MISSING",
-      say`no node has the children field "${this.options.childrenField}", so the input would be one node; the top-level object's fields holding objects or arrays are ${quotedList("name", this.rootContainers)}: name the one holding the children with --children-field, or read every value with --read-as values`,
-    );
   }
 
   // ---------------------------------------------------------------------------------------------------
@@ -314,7 +308,7 @@ export class JsonLoader extends JsonTokenizer {
         const j = this.keyedChild(top);
         if (kind === NUMBER) {
           if (!isSize(value)) {
-            throw this.badSize(text || String(value), j, { line: this.pos.line, column });
+            throw this.badSize(text || String(value), j, undefined, { line: this.pos.line, column });
           }
           this.sink.ownSize[j] = value;
           this.sized[j] = 1;
@@ -553,7 +547,7 @@ export class JsonLoader extends JsonTokenizer {
     if (sizeKind === NUMBER) {
       const size = frame.size;
       if (!isSize(size)) {
-        throw this.badSize(frame.sizeText || String(size), i, {
+        throw this.badSize(frame.sizeText || String(size), i, undefined, {
           line: frame.sizeLine,
           column: frame.sizeColumn,
         });
@@ -562,11 +556,7 @@ export class JsonLoader extends JsonTokenizer {
       this.sized[i] = 1;
     } else if (sizeKind !== ABSENT && sizeKind !== NULL) {
       const shownSize = sizeKind === STRING ? quoted.value(frame.sizeText) : "a non-number";
-      throw new EspalierError(
-        "BAD_SIZE",
-        say`the "${sizeField}" of ${this.where(i)} must be a number from 0 to 2^53 - 1, got ${shownSize}`,
-        { line: frame.sizeLine, column: frame.sizeColumn },
-      );
+      throw this.badSize(shownSize, i, sizeField, { line: frame.sizeLine, column: frame.sizeColumn });
     }
     const childrenKind = frame.childrenKind;
     if (childrenKind === STRING || childrenKind === NUMBER || childrenKind === BOOLEAN) {
@@ -591,12 +581,13 @@ export class JsonLoader extends JsonTokenizer {
     return describeNode(this.sink.parentOf, this.sink.name, i);
   }
 
-  private badSize(shownSize: string, i: number, pos: SourcePos | undefined): EspalierError {
-    return new EspalierError(
-      "BAD_SIZE",
-      say`the size of ${this.where(i)} must be a number from 0 to 2^53 - 1, got ${shownSize}`,
-      pos,
-    );
+  private badSize(
+    shown: MessagePart,
+    i: number,
+    field: string | undefined,
+    pos: SourcePos | undefined,
+  ): EspalierError {
+    return badNodeSize(this.sink.parentOf, this.sink.name, i, shown, field, pos);
   }
 
   private badTop(pos: SourcePos): EspalierError {

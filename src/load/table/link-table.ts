@@ -49,6 +49,12 @@ function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): 
         ? "; a listing of sizes and paths (size, a tab, the path) reads with --input-format paths"
         : ""
     }`,
+    undefined,
+    {
+      fieldsNeeded: [options.idField, options.parentField, options.pathField],
+      fieldsSeen: table.columnNames(),
+      ...(shape === "table" ? { remedies: ["--input-format paths"] } : {}),
+    },
   );
 }
 
@@ -81,6 +87,7 @@ function linkById(
         "DUPLICATE_ID",
         say`row ${r + 1} repeats the ${options.idField} ${quoted.id(id)} of row ${earlier + 1}`,
         { row: r + 1, field: options.idField },
+        { firstRow: earlier + 1 },
       );
     }
   }

@@ -111,10 +111,13 @@ describe("loadTree(json)", () => {
   it("loadTree(json) rejects a text or negative size with BAD_SIZE naming the node's path", () => {
     const text = caught(() => json('{"name":"r","children":[{"name":"a/b","size":"12"}]}'));
     expect(text.code).toBe("BAD_SIZE");
-    expect(text.message).toContain("r/a~1b");
+    // The node's path, "/" in its name escaped as "~1" (RFC 6901 §3), and the size field read.
+    expect(text.details).toEqual({ path: "r/a~1b", field: "size" });
     // The column of the offending value: its index in the text (UTF-16 units) + 1.
     expect(text.pos).toEqual({ line: 1, column: 46 });
-    expect(caught(() => json('{"name":"r","children":{"x":-1}}')).code).toBe("BAD_SIZE");
+    // A size written as a keyed child's own value: no field.
+    const keyed = caught(() => json('{"name":"r","children":{"x":-1}}'));
+    expect([keyed.code, keyed.details]).toEqual(["BAD_SIZE", { path: "r/x" }]);
   });
 
   it("loadTree(json) places a structure error at a string holding multi-byte characters by its first character", () => {

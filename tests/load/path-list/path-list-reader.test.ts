@@ -39,7 +39,7 @@ describe("loadTree(paths)", () => {
     expect(error.code).toBe("DUPLICATE_PATH");
     // An entry is its whole line: column 1.
     expect(error.pos).toEqual({ file: "tree.txt", line: 4, column: 1 });
-    expect(error.message).toContain("line 2");
+    expect(error.details).toEqual({ firstLine: 2 });
   });
 
   it("loadTree(paths) rejects a size that is not a number >= 0 as BAD_SIZE at its line", () => {

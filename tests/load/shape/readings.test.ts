@@ -90,9 +90,12 @@ describe("loadTree(text) reads JSON and YAML as the document says", () => {
     ]) {
       const error = caught(() => load(text, file, { childrenField: "kids" }));
       expect(error.code).toBe("FIELD_MISSING");
-      expect(error.message).toContain('"deps", "meta"');
-      expect(error.message).toContain("--children-field");
-      expect(error.message).toContain("--read-as values");
+      expect(error.details).toEqual({
+        option: "--children-field",
+        field: "kids",
+        fieldsSeen: ["deps", "meta"],
+        remedies: ["--children-field", "--read-as values"],
+      });
       expect(caught(() => load(text, file, { readAs: "nodes" })).code).toBe("FIELD_MISSING");
     }
     // A leaf with kept nested fields is one node, as asked.

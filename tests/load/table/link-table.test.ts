@@ -55,7 +55,7 @@ describe("linkTable by id and parent", () => {
     expect(error.code).toBe("DUPLICATE_ID");
     // Line 4 (the header is line 1), column 1: the id cell (RFC 4180 §2.1-2.4 line and field layout).
     expect(error.pos).toEqual({ row: 3, line: 4, column: 1 });
-    expect(error.message).toContain("row 1");
+    expect(error.details).toEqual({ firstRow: 1 });
   });
 
   it("loadTree(csv) rejects a parent id no row has as MISSING_PARENT at that row", () => {
@@ -84,9 +84,12 @@ describe("linkTable by id and parent", () => {
   it("loadTree(csv) lists the existing columns when the linking columns are missing", () => {
     const error = caught(() => csv("key,boss\na,\n"));
     expect(error.code).toBe("FIELD_MISSING");
-    expect(error.message).toContain('"key", "boss"');
     // Detection cannot tell a headerless listing from a table: the error names the option to pass.
-    expect(error.message).toContain("--input-format paths");
+    expect(error.details).toEqual({
+      fieldsNeeded: ["id", "parent", "path"],
+      fieldsSeen: ["key", "boss"],
+      remedies: ["--input-format paths"],
+    });
   });
 
   it("loadTree(csv) rejects a kept column that does not exist as FIELD_MISSING", () => {
@@ -140,7 +143,7 @@ describe("linkTable by path", () => {
     const error = caught(() => csv("path\na/b\na\na/b/\n"));
     expect(error.code).toBe("DUPLICATE_PATH");
     expect(error.pos).toEqual({ row: 3, line: 4, column: 1 });
-    expect(error.message).toContain("row 1");
+    expect(error.details).toEqual({ firstRow: 1 });
   });
 
   it("loadTree(csv) prefers id and parent over path when a table has all three", () => {

@@ -1,0 +1,31 @@
+import { EspalierError, type MessagePart, type SourcePos, say } from "../errors.js";
+import type { Names } from "../model/names.js";
+import { describeNode } from "./describe-node.js";
+import { nodePath } from "./node-path.js";
+
+/**
+ * BAD_SIZE for node `i` of a nested document (JSON or YAML): its size `shown` as written (or "a
+ * non-number"), read from the field `field` or, with none, written as the node's own value (`"a": 12`
+ * under children keyed by name). `details.path` is the node's path (see {@link nodePath}) when it has a
+ * name, and `details.field` the size field read.
+ */
+export function badNodeSize(
+  parentOf: ArrayLike<number>,
+  name: Names,
+  i: number,
+  shown: MessagePart,
+  field: string | undefined,
+  pos: SourcePos | undefined,
+): EspalierError {
+  const where = describeNode(parentOf, name, i);
+  const what = field === undefined ? "the size" : `the "${field}"`;
+  return new EspalierError(
+    "BAD_SIZE",
+    say`${what} of ${where} must be a number from 0 to 2^53 - 1, got ${shown}`,
+    pos,
+    {
+      ...(name.get(i) === "" ? {} : { path: nodePath(parentOf, name, i) }),
+      ...(field === undefined ? {} : { field }),
+    },
+  );
+}
