@@ -7,6 +7,7 @@ import { type Importance, importance } from "./interest/importance.js";
 import { interestNear } from "./interest/near.js";
 import { childrenByDepthOrder, nodeOrder } from "./interest/order.js";
 import type { Scores } from "./interest/scores.js";
+import { type GraphNeighbours, graphNeighbours } from "./model/graph-neighbours.js";
 import { type Measures, measure } from "./model/measure.js";
 import { NAME_TABLE_MIN, PathIndex } from "./model/path-index.js";
 import { printedNames } from "./model/printed-names.js";
@@ -33,6 +34,8 @@ export class Prepared {
   readonly index: PathIndex;
   /** Graphs only: the references that stand for each node; null on a tree. */
   readonly references: ReferenceIndex | null;
+  /** Graphs only: each node's neighbours, for the graph interest's searches; null on a tree. */
+  readonly neighbours: GraphNeighbours | null;
   private readonly importances = new Map<Importance, Float64Array>();
   private readonly wide = new Map<number, Int32Array>();
 
@@ -40,6 +43,7 @@ export class Prepared {
     this.measures = measure(tree);
     this.index = new PathIndex(tree, this.measures);
     this.references = referenceIndex(tree);
+    this.neighbours = this.references === null ? null : graphNeighbours(tree);
     // Built here, at load time, so that even the first focus costs only interest + fit + view (a
     // single summary needs them anyway): one pass over the child counts, which also builds the path
     // index's name tables of wide nodes.
@@ -116,7 +120,7 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
   const refs = prepared.references;
   // A graph scores by graph distance over the whole graph; a tree (no reference) near its foci, as before.
   const scores: Scores = refs
-    ? graphInterest(tree, measures, api, foci, refs)
+    ? graphInterest(tree, measures, api, foci, refs, prepared.neighbours ?? undefined)
     : interestNear(tree, api, foci);
   const selection = select(
     { tree, measures, scores, order: nodeOrder(tree, measures, scores) },

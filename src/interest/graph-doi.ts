@@ -1,3 +1,4 @@
+import { type GraphNeighbours, graphNeighbours } from "../model/graph-neighbours.js";
 import type { Measures } from "../model/measure.js";
 import type { ReferenceIndex } from "../model/reference-index.js";
 import type { Tree } from "../model/tree.js";
@@ -17,10 +18,10 @@ export interface GraphScores extends Scores {
  * scores at its own place (its API) and its node's distance. Found by one breadth-first search from
  * all foci at once, each starting at its offset API(y) (two merged queues whose keys never decrease),
  * and, unless every focus has the same API, one plain breadth-first search for the distance to the
- * nearest focus. Both walk the graph where
- * the tree already holds it: a full entry's neighbours are its parent, the nodes of its child slots
- * (entries and references) and the parents of the references to it. The interest of a slot is then
- * read when the fit asks for it; nothing else of the tree's length is written.
+ * nearest focus. Both walk the graph node by node ({@link GraphNeighbours}, made once per prepared
+ * tree: a node's neighbours are its parent, the nodes of its child slots and the parents of the
+ * references to it), keeping one key per node, not per slot. The interest of a slot is then read when
+ * the fit asks for it; the slots' distances too, kept as they are asked.
  *
  * Order guarantees (interest/order.ts): a node's full entry never scores above its parent's, because
  * API drops by at least one per level and D by at most one along an edge; ties between them are broken
@@ -30,15 +31,14 @@ export interface GraphScores extends Scores {
  */
 export function graphInterest(
   tree: Tree,
-  measures: Measures,
+  _measures: Measures,
   api: Float64Array,
   foci: Int32Array,
   refs: ReferenceIndex,
+  neighbours: GraphNeighbours = graphNeighbours(tree),
 ): GraphScores {
   const n = tree.length;
   const { parent, depth } = tree;
-  const to = tree.referenceTo!;
-  const { count } = measures;
   const rank = new Int32Array(n).fill(FAR);
   if (foci.length === 0) {
     const top = api[0];
@@ -50,43 +50,31 @@ export function graphInterest(
       rank,
     };
   }
-  const { start, refs: refSlots } = refs;
+  const { nodes, nodeOf, start, adjacent } = neighbours;
 
-  // Key K(x) = min over foci of D(x, y) + API(y), settled in increasing order: the foci, sorted by their
-  // offset, and the queue of nodes reached (keys never decrease in it) are merged.
+  // Key K(v) = min over foci of D(v, y) + API(y), settled in increasing order: the foci, sorted by their
+  // offset, and the queue of nodes reached (keys never decrease in it) are merged. Nodes by number.
   const sources = Int32Array.from(foci).sort((a, b) => api[a] - api[b] || a - b);
-  // key[x]: the best offset reaching x so far; final once x is settled.
-  const key = new Float64Array(n).fill(Number.POSITIVE_INFINITY);
-  const settled = new Uint8Array(n);
-  const queue = new Int32Array(n);
+  // key[v]: the best offset reaching node v so far; final once v is settled.
+  const key = new Float64Array(nodes).fill(Number.POSITIVE_INFINITY);
+  const settled = new Uint8Array(nodes);
+  const queue = new Int32Array(nodes);
   let head = 0;
   let tail = 0;
   let next = 0;
   while (next < sources.length || head < tail) {
-    let x: number;
-    if (head < tail && (next === sources.length || key[queue[head]] <= api[sources[next]])) x = queue[head++];
+    let v: number;
+    if (head < tail && (next === sources.length || key[queue[head]] <= api[sources[next]])) v = queue[head++];
     else {
-      x = sources[next++];
-      if (api[x] < key[x]) key[x] = api[x];
+      const y = sources[next++];
+      v = nodeOf[y];
+      if (api[y] < key[v]) key[v] = api[y];
     }
-    if (settled[x] === 1) continue;
-    settled[x] = 1;
-    const reach = key[x] + 1;
-    // The neighbours of x, in a fixed order: its parent, its child slots' nodes, its references' parents.
-    let w = parent[x];
-    if (w >= 0 && reach < key[w]) {
-      key[w] = reach;
-      queue[tail++] = w;
-    }
-    for (let c = x + 1, end = x + count[x]; c < end; c += count[c]) {
-      w = to[c] === -1 ? c : to[c];
-      if (reach < key[w]) {
-        key[w] = reach;
-        queue[tail++] = w;
-      }
-    }
-    for (let j = start[x], end = start[x + 1]; j < end; j++) {
-      w = parent[refSlots[j]];
+    if (settled[v] === 1) continue;
+    settled[v] = 1;
+    const reach = key[v] + 1;
+    for (let j = start[v], end = start[v + 1]; j < end; j++) {
+      const w = adjacent[j];
       if (reach < key[w]) {
         key[w] = reach;
         queue[tail++] = w;
@@ -94,13 +82,13 @@ export function graphInterest(
     }
   }
 
-  // Edges to the nearest focus. When every focus has the same API c, K(x) = D(x, nearest focus) + c, so
-  // the distance is K(x) - c (rounded: K was summed in doubles, and the true value is a whole number).
+  // Edges to the nearest focus. When every focus has the same API c, K(v) = D(v, nearest focus) + c, so
+  // the distance is K(v) - c (rounded: K was summed in doubles, and the true value is a whole number).
   // Otherwise a plain breadth-first search over the same neighbours.
   const offset = api[sources[0]];
-  const raw =
-    api[sources[sources.length - 1]] === offset ? null : plainDistances(tree, count, foci, refs, queue);
-  const edges = (node: number): number => (raw === null ? Math.round(key[node] - offset) : raw[node]);
+  const raw = api[sources[sources.length - 1]] === offset ? null : plainDistances(neighbours, foci, queue);
+  const edges = (slot: number): number =>
+    raw === null ? Math.round(key[nodeOf[slot]] - offset) : raw[nodeOf[slot]];
 
   // Forced: the root, the foci and the ancestors of their full entries.
   const forced = new Uint8Array(n);
@@ -114,17 +102,18 @@ export function graphInterest(
   }
 
   // The references to a focus, nearest a root first, and the paths above them: ranked, at least 0.
+  const { start: refStart, refs: refSlots } = refs;
   const parentRefs: number[] = [];
-  for (const y of foci) for (let j = start[y]; j < start[y + 1]; j++) parentRefs.push(refSlots[j]);
+  for (const y of foci) for (let j = refStart[y]; j < refStart[y + 1]; j++) parentRefs.push(refSlots[j]);
   parentRefs.sort((a, b) => depth[a] - depth[b] || a - b);
   parentRefs.forEach((s, r) => {
     for (let a = s; a !== -1 && rank[a] === FAR; a = parent[a]) rank[a] = r;
   });
 
-  // A slot's distance, found when asked and kept (queue is free again: 0 unknown, else distance + 1).
-  // The tie-break distance of a slot that is not forced is at least its parent's plus one, so a parent
-  // comes first among equal values.
-  const known = queue.fill(0);
+  // A slot's distance, found when asked and kept (0 unknown, else distance + 1). The tie-break
+  // distance of a slot that is not forced is at least its parent's plus one, so a parent comes first
+  // among equal values.
+  const known = new Int32Array(n);
   const path: number[] = [];
   const distanceOf = (x: number): number => {
     if (known[x] !== 0) return known[x] - 1;
@@ -134,11 +123,11 @@ export function graphInterest(
       path.push(a);
       a = parent[a];
     }
-    let d = known[a] !== 0 ? known[a] - 1 : edges(to[a] === -1 ? a : to[a]);
+    let d = known[a] !== 0 ? known[a] - 1 : edges(a);
     known[a] = d + 1;
     while (path.length > 0) {
       const s = path.pop()!;
-      const own = edges(to[s] === -1 ? s : to[s]);
+      const own = edges(s);
       d = own <= d ? d + 1 : own;
       known[s] = d + 1;
     }
@@ -147,7 +136,7 @@ export function graphInterest(
   return {
     forcedNodes: Int32Array.from(forcedNodes).sort(),
     interestOf(x) {
-      const v = api[x] - key[to[x] === -1 ? x : to[x]];
+      const v = api[x] - key[nodeOf[x]];
       return rank[x] !== FAR && v < 0 ? 0 : v;
     },
     distanceOf,
@@ -156,42 +145,23 @@ export function graphInterest(
   };
 }
 
-/** Edges from every full entry to the nearest focus: a breadth-first search (`queue`: n long, scratch). */
-function plainDistances(
-  tree: Tree,
-  count: Int32Array,
-  foci: Int32Array,
-  refs: ReferenceIndex,
-  queue: Int32Array,
-): Int32Array {
-  const { parent } = tree;
-  const to = tree.referenceTo!;
-  const { start, refs: refSlots } = refs;
-  const raw = new Int32Array(tree.length).fill(FAR);
+/** Edges from every node to the nearest focus: a breadth-first search (`queue`: a node long, scratch). */
+function plainDistances(neighbours: GraphNeighbours, foci: Int32Array, queue: Int32Array): Int32Array {
+  const { nodes, nodeOf, start, adjacent } = neighbours;
+  const raw = new Int32Array(nodes).fill(FAR);
   let head = 0;
   let tail = 0;
   for (const y of foci) {
-    if (raw[y] === 0) continue;
-    raw[y] = 0;
-    queue[tail++] = y;
+    const v = nodeOf[y];
+    if (raw[v] === 0) continue;
+    raw[v] = 0;
+    queue[tail++] = v;
   }
   while (head < tail) {
-    const x = queue[head++];
-    const d = raw[x] + 1;
-    let w = parent[x];
-    if (w >= 0 && raw[w] === FAR) {
-      raw[w] = d;
-      queue[tail++] = w;
-    }
-    for (let c = x + 1, end = x + count[x]; c < end; c += count[c]) {
-      w = to[c] === -1 ? c : to[c];
-      if (raw[w] === FAR) {
-        raw[w] = d;
-        queue[tail++] = w;
-      }
-    }
-    for (let j = start[x], end = start[x + 1]; j < end; j++) {
-      w = parent[refSlots[j]];
+    const v = queue[head++];
+    const d = raw[v] + 1;
+    for (let j = start[v], end = start[v + 1]; j < end; j++) {
+      const w = adjacent[j];
       if (raw[w] === FAR) {
         raw[w] = d;
         queue[tail++] = w;

@@ -11,6 +11,8 @@ const SPACE = 0x20;
 const LF = 0x0a;
 const CR = 0x0d;
 const ID_SEED = 0x811c9dc5;
+/** The most bytes of ids one edge list may hold (a name pool's limit). */
+const LONGEST_IDS = 2 ** 32 - 1;
 
 /**
  * An edge list read from bytes: one `parent child` pair per line. The first non-blank line decides the
@@ -21,10 +23,17 @@ const ID_SEED = 0x811c9dc5;
  * numbered by first appearance; edges keep input order; a repeated edge is read once.
  */
 export class EdgeListReader {
-  private readonly ids = new NamePool(1 << 12, 1 << 16);
+  // Ids as UTF-8 bytes, one after the other in order of first appearance (node i's are
+  // idBytes[idStart[i], idStart[i] + idSize[i])); the name pool adopts them at the end.
+  private idBytes: Buffer = Buffer.allocUnsafe(1 << 16);
+  private used = 0;
+  private idStart: Uint32Array<ArrayBuffer> = new Uint32Array(1 << 11);
+  private idSize: Uint32Array<ArrayBuffer> = new Uint32Array(1 << 11);
   private count = 0;
-  private slots: Int32Array = new Int32Array(1 << 13); // pairs (node + 1, hash), at most half the places used
-  private hashes = new Int32Array(1 << 11);
+  // Open addressing, four numbers a place: node + 1 (0 when empty), the id's hash, where its bytes
+  // start, and how many there are. A lookup that finds its id reads one place and the id's bytes;
+  // at most half of the places are used.
+  private table: Int32Array = new Int32Array(4 << 12);
   private origin = new Int32Array(1 << 11);
   private from = new Int32Array(1 << 12);
   private to = new Int32Array(1 << 12);
@@ -98,7 +107,10 @@ export class EdgeListReader {
     // Edge lists usually list a parent's children together: the same parent as the line before costs a
     // byte comparison, not a lookup.
     const last = this.lastParent;
-    const p = last !== -1 && this.ids.equalsBytes(last, buf, ps, pe) ? last : this.idOf(buf, ps, pe);
+    const p =
+      last !== -1 && this.sameId(this.idStart[last], this.idSize[last], buf, ps, pe)
+        ? last
+        : this.idOf(buf, ps, pe);
     this.lastParent = p;
     const c = this.idOf(buf, cs, ce);
     const k = this.edges;
@@ -113,45 +125,81 @@ export class EdgeListReader {
     this.edges = k + 1;
   }
 
-  /**
-   * The node with the id `buf[s, e)`, added on first sight. The table holds pairs (node + 1, hash) side
-   * by side, so a probe reads one place, not the table and then a hash array.
-   */
+  /** The node with the id `buf[s, e)`, added on first sight. */
   private idOf(buf: Uint8Array, s: number, e: number): number {
     const hash = hashBytes(ID_SEED, buf, s, e);
-    const table = this.slots;
-    const mask = (table.length >> 1) - 1;
+    const table = this.table;
+    const mask = (table.length >> 2) - 1;
     let h = mix(hash) & mask;
-    for (let slot = table[2 * h]; slot !== 0; slot = table[2 * h]) {
-      if (table[2 * h + 1] === hash && this.ids.equalsBytes(slot - 1, buf, s, e)) return slot - 1;
+    for (let slot = table[4 * h]; slot !== 0; slot = table[4 * h]) {
+      if (table[4 * h + 1] === hash && this.sameId(table[4 * h + 2] >>> 0, table[4 * h + 3], buf, s, e))
+        return slot - 1;
       h = (h + 1) & mask;
     }
     const node = this.count;
     if (node >= this.options.maxNodes) throw limitExceeded(this.options.maxNodes, false, this.line);
-    this.ids.setBytes(node, buf, s, e);
-    if (node === this.hashes.length) {
-      this.hashes = doubled(this.hashes);
+    const at = this.kept(buf, s, e);
+    if (node === this.idStart.length) {
+      this.idStart = grownU32(this.idStart);
+      this.idSize = grownU32(this.idSize);
       this.origin = doubled(this.origin);
     }
-    this.hashes[node] = hash;
+    this.idStart[node] = at;
+    this.idSize[node] = e - s;
     this.origin[node] = this.line;
-    table[2 * h] = node + 1;
-    table[2 * h + 1] = hash;
+    table[4 * h] = node + 1;
+    table[4 * h + 1] = hash;
+    table[4 * h + 2] = at;
+    table[4 * h + 3] = e - s;
     this.count = node + 1;
-    if (this.count * 4 > table.length) this.slots = this.grown();
+    if (this.count * 8 > table.length) this.table = this.grown();
     return node;
   }
 
-  /** The table with twice the places, every node entered again by its hash. */
+  /** Whether the kept id at `at` (`size` bytes) is spelled by `buf[s, e)`. */
+  private sameId(at: number, size: number, buf: Uint8Array, s: number, e: number): boolean {
+    if (size !== e - s) return false;
+    const bytes = this.idBytes;
+    for (let k = 0; k < size; k++) if (bytes[at + k] !== buf[s + k]) return false;
+    return true;
+  }
+
+  /** Appends the bytes `buf[s, e)` to the kept ids; where they start. */
+  private kept(buf: Uint8Array, s: number, e: number): number {
+    const n = e - s;
+    const at = this.used;
+    if (at + n > this.idBytes.length) {
+      if (at + n > LONGEST_IDS) {
+        throw new EspalierError(
+          "LIMIT_EXCEEDED",
+          "the ids of the edge list take more than 4 GiB; load a smaller part of it",
+        );
+      }
+      const grown = Buffer.allocUnsafe(Math.min(LONGEST_IDS, Math.max(at + n, this.idBytes.length * 2)));
+      this.idBytes.copy(grown, 0, 0, at);
+      this.idBytes = grown;
+    }
+    const bytes = this.idBytes;
+    // A loop, not set(buf.subarray(...)): an id is short, and a view object per id costs more.
+    if (n <= 64) for (let k = 0; k < n; k++) bytes[at + k] = buf[s + k];
+    else bytes.set(buf.subarray(s, e), at);
+    this.used = at + n;
+    return at;
+  }
+
+  /** The table with twice the places, every id entered again by its hash. */
   private grown(): Int32Array {
-    const table = new Int32Array(this.slots.length * 2);
-    const mask = (table.length >> 1) - 1;
-    for (let node = 0; node < this.count; node++) {
-      const hash = this.hashes[node];
-      let h = mix(hash) & mask;
-      while (table[2 * h] !== 0) h = (h + 1) & mask;
-      table[2 * h] = node + 1;
-      table[2 * h + 1] = hash;
+    const old = this.table;
+    const table = new Int32Array(old.length * 2);
+    const mask = (table.length >> 2) - 1;
+    for (let q = 0; q < old.length; q += 4) {
+      if (old[q] === 0) continue;
+      let h = mix(old[q + 1]) & mask;
+      while (table[4 * h] !== 0) h = (h + 1) & mask;
+      table[4 * h] = old[q];
+      table[4 * h + 1] = old[q + 1];
+      table[4 * h + 2] = old[q + 2];
+      table[4 * h + 3] = old[q + 3];
     }
     return table;
   }
@@ -174,9 +222,16 @@ export class EdgeListReader {
   finish(): GraphNodes {
     const n = this.count;
     if (n === 0) throw new EspalierError("INPUT_EMPTY", "the edge list has no ids");
+    const ids = NamePool.fromParts({
+      length: n,
+      bytes: this.idBytes.subarray(0, this.used),
+      start: this.idStart,
+      size: this.idSize,
+      exact: [],
+    });
     return {
-      name: this.ids,
-      ids: this.ids,
+      name: ids,
+      ids,
       ownSize: new Float64Array(n),
       hasSizes: false,
       sizeUnit: "number",
@@ -192,6 +247,12 @@ export class EdgeListReader {
       repeatedEdges: "skip",
     };
   }
+}
+
+function grownU32(a: Uint32Array): Uint32Array<ArrayBuffer> {
+  const grown = new Uint32Array(a.length * 2);
+  grown.set(a);
+  return grown;
 }
 
 /** An edge list held as text (see {@link EdgeListReader}). */

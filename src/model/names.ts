@@ -70,9 +70,7 @@ export function isEmptyName(names: Names, i: number): boolean {
 export function indexOfName(names: Names, text: string): number {
   if (text === "") return -1;
   if (names instanceof NamePool && text.isWellFormed()) {
-    const bytes = Buffer.from(text, "utf8");
-    for (let i = 0; i < names.length; i++) if (names.equalsBytes(i, bytes, 0, bytes.length)) return i;
-    return -1;
+    return names.indexOfBytes(Buffer.from(text, "utf8"));
   }
   for (let i = 0; i < names.length; i++) if (names.get(i) === text) return i;
   return -1;
@@ -96,6 +94,8 @@ export function namesToArray(names: Names): string[] {
 }
 
 const LONGEST_POOL = 2 ** 32 - 1;
+/** Places of a name's bytes in the pool beyond which {@link NamePool.indexOfBytes} compares names one by one. */
+const MOST_PLACES = 64;
 
 /**
  * Names as UTF-8 bytes appended to one growing pool, with each node's start and byte length. Names may
@@ -213,6 +213,37 @@ export class NamePool implements Names {
     const bytes = this.bytes;
     for (let k = 0, at = this.start[i]; k < n; k++, at++) if (bytes[at] !== src[s + k]) return false;
     return true;
+  }
+
+  /**
+   * The first node whose name is spelled by `target`, or -1. The runtime's byte search finds where
+   * those bytes occur in the pool; then a node matches when its name starts at one of those places and
+   * is as long, so a lookup among millions of names reads their starts and lengths, not their bytes.
+   * A target found in very many places (a short, common name) is compared with each name instead.
+   */
+  indexOfBytes(target: Uint8Array): number {
+    const n = target.length;
+    const pool = this.bytes.subarray(0, this.used);
+    const places: number[] = [];
+    if (n > 0)
+      for (let at = pool.indexOf(target); at !== -1; at = pool.indexOf(target, at + 1)) {
+        if (places.length === MOST_PLACES) return this.indexOfBytesByScan(target);
+        places.push(at);
+      }
+    else return this.indexOfBytesByScan(target);
+    if (places.length === 0) return -1;
+    const { start, size } = this;
+    for (let i = 0; i < this.length; i++) {
+      if (size[i] !== n) continue;
+      const s = start[i];
+      for (let k = 0; k < places.length; k++) if (places[k] === s && this.exact?.has(i) !== true) return i;
+    }
+    return -1;
+  }
+
+  private indexOfBytesByScan(target: Uint8Array): number {
+    for (let i = 0; i < this.length; i++) if (this.equalsBytes(i, target, 0, target.length)) return i;
+    return -1;
   }
 
   /**

@@ -114,6 +114,41 @@ describe("NamePool", () => {
     }
   });
 
+  it("finds a name by its bytes only where a whole name starts: not inside another, nor across two", () => {
+    const pool = new NamePool(1, 16);
+    ["xemp-0042", "ab", "cd", "bc", "emp-0042", "b"].forEach((t, i) => {
+      pool.setString(i, t);
+    });
+    expect(indexOfName(pool, "emp-0042")).toBe(4); // also inside name 0
+    expect(indexOfName(pool, "bc")).toBe(3); // also across names 1 and 2
+    expect(indexOfName(pool, "b")).toBe(5);
+    expect(indexOfName(pool, "abc")).toBe(-1);
+    // A reordered pool shares the bytes: several nodes start at the same place; the first wins.
+    const moved = pool.reordered(Int32Array.of(2, 4, -1, 4, 3), "emp-0042");
+    expect(indexOfName(moved, "emp-0042")).toBe(1);
+    expect(indexOfName(moved, "bc")).toBe(4);
+    // A name found in more places than the search keeps: every name is compared.
+    const many = new NamePool(1, 16);
+    for (let i = 0; i < 200; i++) many.setString(i, `a${i % 7 === 0 ? "a" : "b"}`);
+    many.setString(200, "a");
+    expect(indexOfName(many, "a")).toBe(200);
+    expect(indexOfName(many, "ab")).toBe(1);
+  });
+
+  it("finds the same name by bytes as comparing every name does (property)", () => {
+    const name = fc.stringMatching(/^[abé]{0,4}$/);
+    fc.assert(
+      fc.property(fc.array(name, { maxLength: 120 }), name, (texts, target) => {
+        const pool = new NamePool(1, 16);
+        texts.forEach((t, i) => {
+          pool.setString(i, t);
+        });
+        const expected = target === "" ? -1 : texts.indexOf(target);
+        expect(indexOfName(pool, target)).toBe(expected);
+      }),
+    );
+  });
+
   it("copies names between pools, through a new root, without changing their text", () => {
     const src = new NamePool(1, 64);
     ["root", "Ærø", "b\ud800", ""].forEach((t, i) => {
