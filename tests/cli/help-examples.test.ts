@@ -75,9 +75,11 @@ describe("the examples printed by --help", () => {
       for (const [n, { line }] of examples.entries()) {
         const status = join(dir, `explore-${n}.status`);
         const script = join(dir, `explore-${n}.sh`);
+        // The status is written under another name and renamed (POSIX rename is atomic), so the poll
+        // below never reads the file between its creation and the write of the status.
         writeFileSync(
           script,
-          `cd '${dir}'; PATH='${PATH}'; export PATH NO_COLOR=1; ${line}\necho $? > '${status}'\nsleep 600\n`,
+          `cd '${dir}'; PATH='${PATH}'; export PATH NO_COLOR=1; ${line}\necho $? > '${status}.part' && mv '${status}.part' '${status}'\nsleep 600\n`,
         );
         tmux("new-session", "-d", "-s", `e${n}`, "-x", "100", "-y", "30", `sh '${script}'`);
         // The view is up when its bottom row (the status row) is drawn below the tree.
