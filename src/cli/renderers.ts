@@ -47,13 +47,13 @@ export const summaryRenderers: Record<OutputFormat, Renderer<SummaryResult>> = {
       legend: s.legend,
     }),
   svg: async (result, s, tree) => {
-    const { renderSvg, SVG_PX_PER_COLUMN } = await import("../render/icicle-svg.js");
+    const { renderSvg, svgWidth } = await import("../render/icicle-svg.js");
     const header = headerOf(result, s);
     const numbers = { units: s.units, sizes: tree.hasSizes, share: s.share };
     return renderSvg(result.view, {
       units: s.units,
       sizes: tree.hasSizes,
-      width: s.widthOption === undefined ? undefined : s.widthOption * SVG_PX_PER_COLUMN,
+      width: svgWidth(s.widthOption),
       heading: header && summaryHeader(result.view.data, header, numbers),
     });
   },
@@ -83,7 +83,7 @@ export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
       diffLines(result, s, tree.hasSizes),
     ),
   svg: async (result, s, tree) => {
-    const [{ renderSvg, SVG_PX_PER_COLUMN }, { changeTag }] = await Promise.all([
+    const [{ renderSvg, svgWidth }, { changeTag }] = await Promise.all([
       import("../render/icicle-svg.js"),
       import("../render/diff-line-parts.js"),
     ]);
@@ -92,7 +92,7 @@ export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
       units: s.units,
       sizes: tree.hasSizes,
       changeOf: (n) => n.change,
-      width: s.widthOption === undefined ? undefined : s.widthOption * SVG_PX_PER_COLUMN,
+      width: svgWidth(s.widthOption),
       heading: lines.header && diffHeader(result.totals, result.combined.by, lines.header, lines),
       changeNote: (n) => changeTag(n, { units: s.units, sizes: tree.hasSizes }),
       changesIn: (n, folded) => (folded ? n.hidden!.changes : n.changes),

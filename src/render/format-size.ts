@@ -5,8 +5,11 @@ export type Units = (typeof unitChoices)[number];
 // IEC 80000-13 binary prefixes: Ki = 2^10, Mi = 2^20, Gi = 2^30, Ti = 2^40, Pi = 2^50, Ei = 2^60.
 const PREFIXES = ["", "Ki", "Mi", "Gi", "Ti", "Pi", "Ei"];
 
-/** "512 B", "4.0 KiB", "18.1 MiB" (one decimal past 1 KiB), or "1,234,567" for plain numbers. */
-export function formatSize(value: number, units: Units): string {
+/**
+ * "512 B", "4.0 KiB", "18.1 MiB" (one decimal past 1 KiB, or `decimals`: 0 gives "18 MiB" for a
+ * narrow place), or "1,234,567" for plain numbers.
+ */
+export function formatSize(value: number, units: Units, decimals = 1): string {
   if (units === "plain") return formatPlain(value);
   const sign = value < 0 ? "-" : "";
   let x = Math.abs(value);
@@ -16,9 +19,9 @@ export function formatSize(value: number, units: Units): string {
     x /= 1024;
     k++;
   }
-  let shown = x.toFixed(1);
-  if (shown === "1024.0" && k < PREFIXES.length - 1) {
-    shown = "1.0";
+  let shown = x.toFixed(decimals);
+  if (Number(shown) >= 1024 && k < PREFIXES.length - 1) {
+    shown = (1).toFixed(decimals);
     k++;
   }
   return `${sign}${shown} ${PREFIXES[k]}B`;

@@ -14,6 +14,7 @@ import { formatSize, type Units } from "./format-size.js";
 import { type IcicleBlock, type IcicleLayout, type IcicleMember, icicle } from "./icicle-layout.js";
 import { MARK as LINE_MARK } from "./marks.js";
 import { parentsText, referenceText } from "./reference-text.js";
+import { checkWidth } from "./summary-text.js";
 import { xmlEscape } from "./xml-escape.js";
 
 export interface SvgOptions<T extends ViewNode = ViewNode> {
@@ -40,6 +41,16 @@ export interface SvgOptions<T extends ViewNode = ViewNode> {
 
 /** Pixels per terminal column of `--width` when it sizes a picture. */
 export const SVG_PX_PER_COLUMN = 8;
+
+/**
+ * The picture's width in pixels for `--width COLUMNS` ({@link SVG_PX_PER_COLUMN} a column), or
+ * undefined for the default; a width under MIN_WIDTH columns is the same usage error as for text,
+ * rather than a picture of another width than asked for.
+ */
+export function svgWidth(columns: number | undefined): number | undefined {
+  checkWidth(columns);
+  return columns === undefined ? undefined : columns * SVG_PX_PER_COLUMN;
+}
 
 /** The look: calm greens and a warm focus; every meaning also has a shape, so colour is never alone. */
 const LOOK = {
@@ -339,8 +350,8 @@ function numbers<T extends ViewNode>(
 
 /**
  * A block's numbers, longest first: count and size, then both compact (`12.1k nodes, 286M`), then
- * the size alone, compact, then the count alone, compact; the first that fits is drawn, so a
- * narrow block keeps its size when its name is cut.
+ * the size alone, compact, then in whole units of bytes (`18 MiB`), then the count alone, compact;
+ * the first that fits is drawn, so a narrow block keeps its size when its name is cut.
  */
 function numberTexts(nodes: number, size: number, options: NumberOptions, always: boolean): string[] {
   // Small option objects of one shape: this runs for every block, 100,000 times on a deep chain.
@@ -349,7 +360,13 @@ function numberTexts(nodes: number, size: number, options: NumberOptions, always
     amount(nodes, size, { units, sizes, always }),
     amount(nodes, size, { units, sizes, always, compact: true }),
   ];
-  if (sizes) texts.push(formatSize(size, units), amount(0, size, { units, sizes, compact: true }));
+  // Bytes rounded to whole units (`18 MiB`) last: a narrow block keeps a size (the tooltip is exact).
+  if (sizes)
+    texts.push(
+      formatSize(size, units),
+      amount(0, size, { units, sizes, compact: true }),
+      formatSize(size, units, 0),
+    );
   texts.push(
     amount(nodes, size, { units, sizes: false, always }),
     amount(nodes, size, { units, sizes: false, always, compact: true }),

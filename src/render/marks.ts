@@ -25,7 +25,9 @@ export function legendLines(kind: "summary" | "diff"): string[] {
   const path = kind === "diff" ? "a change or on the way to a focus or change" : "on the way to a focus";
   const lines = [
     `marks: ${MARK.focus} focus, ${MARK.path} ${path}, ${MARK.other} other; a / b: b is a's only child, the line's numbers and fold are b's`,
-    "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1); no count: 1 node",
+    kind === "diff"
+      ? "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1), removed nodes included; no count: 1 node; sizes are NEW's"
+      : "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1); no count: 1 node",
   ];
   if (kind === "diff")
     lines.push(

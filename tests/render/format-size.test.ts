@@ -24,6 +24,15 @@ describe("formatSize(value, units)", () => {
     expect(formatSize(-3 * 2 ** 20, "bytes")).toBe("-3.0 MiB");
   });
 
+  it("rounds to whole units when asked for no decimals, moving up a prefix at 1024", () => {
+    // 18.4 MiB and 18.6 MiB; 1023.6 KiB rounds to 1024 KiB, which is 1 MiB (IEC 80000-13: Mi = 2^20).
+    expect(formatSize(18.4 * 2 ** 20, "bytes", 0)).toBe("18 MiB");
+    expect(formatSize(18.6 * 2 ** 20, "bytes", 0)).toBe("19 MiB");
+    expect(formatSize(1023.6 * 2 ** 10, "bytes", 0)).toBe("1 MiB");
+    expect(formatSize(1023.4 * 2 ** 10, "bytes", 0)).toBe("1023 KiB");
+    expect(formatSize(700, "bytes", 0)).toBe("700 B");
+  });
+
   it("groups thousands in plain numbers (common practice, no source)", () => {
     expect(formatPlain(1234567)).toBe("1,234,567");
     expect(formatPlain(999)).toBe("999");

@@ -21,6 +21,7 @@ import { prepare, summarize } from "../../src/summarize.js";
 import type { ViewNode } from "../../src/view/view-node.js";
 import { arbEdited } from "../diff/edit-script.js";
 import { makeIdTree } from "../diff/id-tree.js";
+import { cli } from "../helpers/cli.js";
 import { makeTree } from "../helpers/make-tree.js";
 import { arbTreeWithFoci } from "../helpers/random-tree.js";
 
@@ -470,6 +471,30 @@ describe("renderSvg(view, options)", () => {
     const fold = blocksOf(renderSvg(narrow, { ...opts, width: 1200 })).find((b) => b.title.startsWith("+"))!;
     expect(fold.title.split(":")[0]).toBe("+12,345 more under R");
     expect(fold.group.getElementsByTagName("text")[0].textContent).toBe("+12.3k");
+  });
+
+  it("takes --width in columns, 8 pixels each, and refuses a width under 30 columns as text does", async () => {
+    const args = ["fixtures/tidewater-files.paths", "--format", "svg", "--budget", "12"];
+    const wide = await cli([...args, "--width", "30"]);
+    expect(wide.code).toBe(0);
+    expect(wide.stdout).toMatch(/^<svg [^>]*width="240"/);
+    for (const diff of [[], ["diff", "fixtures/examples/packages-main.paths"]]) {
+      const narrow = await cli([...diff, ...args, "--width", "3"]);
+      expect(narrow.code).toBe(2);
+      expect(narrow.stdout).toBe("");
+      expect(narrow.stderr).toMatch(/^espalier: a width of 3 columns is too narrow; .*\[USAGE\]\n$/);
+    }
+  });
+
+  it("keeps a size on a narrow block in whole units of bytes when one decimal does not fit", () => {
+    // Ten files of 1,929,380 bytes fold into 19,293,800 bytes = 18.4 MiB (IEC 80000-13: Mi = 2^20),
+    // a sliver beside two huge siblings: widened to the narrowest block, seven columns of numbers.
+    const files = Array.from({ length: 10 }, (_, k) => `c${k}:1929380`).join(",");
+    const v = view(makeTree(`R{a:1000000000000,b:1000000000000,${files}}`), [], 3);
+    const fold = blocksOf(renderSvg(v, { units: "bytes", sizes: true })).find((b) => b.kind === "folded")!;
+    expect(width(fold)).toBeLessThan(60);
+    expect([...fold.group.getElementsByTagName("text")].map((e) => e.textContent)).toEqual(["+10", "18 MiB"]);
+    expect(fold.title).toContain("18.4 MiB");
   });
 
   it("writes each block's change in words inside it, and what changed inside a fold", () => {

@@ -8,6 +8,7 @@ import { palette } from "../../src/render/palette.js";
 import { renderText } from "../../src/render/summary-text.js";
 import { prepare, summarize } from "../../src/summarize.js";
 import { arbEdited } from "../diff/edit-script.js";
+import { makeIdTree } from "../diff/id-tree.js";
 import { arbTree } from "../helpers/random-tree.js";
 
 const marks = Object.values(MARK);
@@ -44,6 +45,20 @@ describe("MARK and legendLines(kind)", () => {
     }
     for (const kind of ["added", "removed", "moved", "renamed", "edited", "resized"])
       expect(legendLines("diff").join(" ")).toContain(`[${kind}`);
+  });
+
+  it("says in the diff legend that counts include removed nodes, as the lines' arithmetic does", () => {
+    // R keeps A and B; C is removed and D added: 4 -> 4 nodes, yet R's line counts 5 (C included).
+    const diff = diffTrees(makeIdTree("R{A:1,B:1,C:1}"), makeIdTree("R{A:1,B:1,D:1}"), {
+      foci: [],
+      budget: 10,
+      importance: "depth",
+    });
+    const text = renderDiffText(diff.view, diff.totals, { units: "plain", sizes: true, by: "id" });
+    expect([diff.totals.old.nodes, diff.totals.new.nodes]).toEqual([4, 4]);
+    expect(text.split("\n")[0]).toMatch(/^: R {2}5 nodes/);
+    expect(legendLines("diff")[1]).toContain("removed nodes included");
+    expect(legendLines("summary")[1]).not.toContain("removed");
   });
 
   it("colours each change kind differently (the tag's word carries the kind without colour)", () => {
