@@ -8,10 +8,16 @@
 //   few tiny invented inputs so the functions a run needs are compiled already; bin/load-bundle.js uses
 //   it only with the file it was made from (and V8 refuses it under another engine version or flags).
 // - load-worker.js: the diff's loading thread (an ES module, started by load-in-worker next to itself).
+// - engine-api-VERSION.cjs: the SQL engine's JavaScript layer (@duckdb/node-api, an optional dependency)
+//   as one file, built against VERSION of its native part (@duckdb/node-bindings, left outside and found
+//   at run time). The package is some 120 small modules, resolved and compiled one by one on every run
+//   that reads a fact table; src/load/facts/engine.ts loads this file instead when the installed native
+//   part is VERSION. Not written when the package is not installed.
 // Run by `npm run build` and `prepare` after tsc.
 import { createHash } from "node:crypto";
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { readFile } from "node:fs/promises";
+import { createRequire } from "node:module";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { build } from "esbuild";
@@ -57,6 +63,26 @@ await build({
     js: 'import{createRequire as __espalierRequire}from"node:module";const require=__espalierRequire(import.meta.url);',
   },
 });
+
+// The engine's JavaScript layer, named after the native part it was built against (its own dependency,
+// resolved from where it is installed, as it is resolved at run time from the bundle's folder).
+const fromHere = createRequire(import.meta.url);
+let engineApi;
+try {
+  engineApi = fromHere.resolve("@duckdb/node-api");
+} catch {
+  engineApi = undefined;
+}
+if (engineApi !== undefined) {
+  const { version } = createRequire(engineApi)("@duckdb/node-bindings/package.json");
+  await build({
+    ...common,
+    entryPoints: [engineApi],
+    outfile: `${outdir}engine-api-${version}.cjs`,
+    format: "cjs",
+    external: ["@duckdb/node-bindings"],
+  });
+}
 
 // The code cache: run the bundle here on tiny inputs of each common format, then save what V8 compiled.
 const { exports: cli, script } = loadBundle(bundle);

@@ -66,4 +66,5 @@ export { type MarkdownOptions, renderMarkdown } from "./render/summary-markdown.
 export { SUMMARY_FORMAT, type Summary, summarySchema } from "./render/summary-schema.js";
 export { renderText, type TextOptions } from "./render/summary-text.js";
 export { type Prepared, prepare, type SummarizeOptions, type SummaryResult, summarize } from "./summarize.js";
+export type { SummaryOptions } from "./summary-options.js";
 export type { Folded, ViewNode } from "./view/view-node.js";

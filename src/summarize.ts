@@ -1,6 +1,5 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { type ChildrenInOrder, type Selection, select } from "./fit/select.js";
-import type { FocusSpec, UnmatchedFoci } from "./focus/focus-spec.js";
 import { resolveSpecs } from "./focus/resolve-specs.js";
 import { graphInterest } from "./interest/graph-doi.js";
 import { type Importance, importance } from "./interest/importance.js";
@@ -13,10 +12,11 @@ import { NAME_TABLE_MIN, PathIndex } from "./model/path-index.js";
 import { printedNames } from "./model/printed-names.js";
 import { type ReferenceIndex, referenceIndex } from "./model/reference-index.js";
 import type { Tree } from "./model/tree.js";
+import type { SummaryOptions } from "./summary-options.js";
 import { buildView, type ParentsOf } from "./view/build-view.js";
 import { hierarchyOf } from "./view/hierarchy-of.js";
 import { compileLabel } from "./view/label.js";
-import { orderSiblings, type SiblingOrder } from "./view/sibling-order.js";
+import { orderSiblings } from "./view/sibling-order.js";
 import type { ViewNode } from "./view/view-node.js";
 
 /** Children of a node with at least this many are kept in order (see {@link Prepared.childrenInOrder}). */
@@ -78,25 +78,8 @@ export function prepare(tree: Tree): Prepared {
   return new Prepared(tree);
 }
 
-export interface SummarizeOptions {
-  /** Focus specs: paths, ids or globs, and literal lines of a focus list (see focus/focus-spec.ts). */
-  foci: readonly FocusSpec[];
-  /** A focus that matches no node: an error (default), or left out and listed in `unmatchedFoci`. */
-  unmatchedFoci?: UnmatchedFoci;
-  /** Line budget for the text rendering. */
-  budget: number;
-  importance: Importance;
-  /** Label template, e.g. "{title}, {team}"; default "{name}". */
-  label?: string;
-  /** Replace every printed name by a keyed pseudonym (see view/pseudonym.ts). */
-  pseudonymKey?: string;
-  /** Lines the output spends before the tree (0 for plain summaries). */
-  headerLines?: number;
-  /** Print a run of only children as one line (see fit/select.ts lineCost); default false. */
-  chains?: boolean;
-  /** Order of shown siblings in the view; default input order. */
-  siblingOrder?: SiblingOrder;
-}
+/** The options of one summary (the same as a diff's, see {@link SummaryOptions}). */
+export type SummarizeOptions = SummaryOptions;
 
 export interface SummaryResult {
   view: HierarchyNode<ViewNode>;

@@ -1,5 +1,6 @@
 import { totalChanges } from "../diff/changes.js";
 import { diffTrees } from "../diff/diff-trees.js";
+import { defaultComparedFields } from "../diff/field-edits.js";
 import type { CommandOutput } from "./command-output.js";
 import { EXIT } from "./exit-codes.js";
 import { loadVersions, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
@@ -27,7 +28,7 @@ export async function diffCommand(
     chains: opts.chains,
     headerLines: headerLinesFor(opts, "diff"),
     siblingOrder: opts.siblingOrder,
-    compareFields: opts.compareField,
+    compareFields: opts.compareField.length > 0 ? opts.compareField : defaultComparedFields(oldTree, newTree),
     unmatchedFoci: opts.unmatchedFoci,
   });
   if (result.unmatchedFoci.length > 0) io.stderr.write(unmatchedWarning(result.unmatchedFoci));

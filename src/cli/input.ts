@@ -1,3 +1,4 @@
+import { DEFAULT_COMPARED_FIELDS } from "../diff/field-edits.js";
 import { EspalierError } from "../errors.js";
 import type { FocusSpec } from "../focus/focus-spec.js";
 import { defaultLoadOptions, type LoadOptions } from "../load/load-options.js";
@@ -168,8 +169,13 @@ export function toLoadOptions(
     childField: opts.childField,
     graph: opts.graph,
     keepFields: [
-      ...new Set([...(opts.label ? templateFields(opts.label) : []), ...(opts.compareField ?? [])]),
+      ...new Set([
+        ...(opts.label ? templateFields(opts.label) : []),
+        ...(opts.compareField ?? []),
+        ...defaultCompared(opts),
+      ]),
     ],
+    ...(defaultCompared(opts).length > 0 ? { optionalKeepFields: defaultCompared(opts) } : {}),
     rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
     ...(opts.readAs === "auto" ? {} : { readAs: opts.readAs }),
@@ -178,6 +184,14 @@ export function toLoadOptions(
     ...(opts.named?.has("sizeField") ? { sizeFieldNamed: true } : {}),
     ...(opts.named?.has("nameField") ? { nameFieldNamed: true } : {}),
   };
+}
+
+/**
+ * A diff without `--compare-field` keeps the fields it compares by default (`version`), where records
+ * have them; a summary keeps none of them.
+ */
+function defaultCompared(opts: { compareField?: readonly string[] }): readonly string[] {
+  return opts.compareField !== undefined && opts.compareField.length === 0 ? DEFAULT_COMPARED_FIELDS : [];
 }
 
 /** The name of a root espalier adds: the input file's base name, `(stdin)` for standard input. */

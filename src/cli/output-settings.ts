@@ -1,5 +1,6 @@
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
+import type { HeaderReading } from "../render/header.js";
 import { MIN_WIDTH } from "../render/line-layout.js";
 import { LEGEND_LINES } from "../render/marks.js";
 import { type Palette, palette } from "../render/palette.js";
@@ -26,6 +27,8 @@ export interface OutputSettings {
   share: "total" | "parent" | undefined;
   /** What the size measures, as the input calls it, for the header; undefined for the default `size`. */
   sizeName: string | undefined;
+  /** How the input was read when espalier chose it (the header names it); undefined when the options did. */
+  reading: HeaderReading | undefined;
 }
 
 /**
@@ -45,7 +48,24 @@ export function outputSettings(opts: SharedCliOptions, io: CliIO, tree: Tree): O
     legend: opts.legend,
     share: opts.share === "none" ? undefined : opts.share,
     sizeName: opts.sizeField === "size" ? undefined : opts.sizeField,
+    reading: chosenReading(opts, tree),
   };
+}
+
+/**
+ * The reading of a JSON or YAML input that espalier chose itself, for the header: children found under
+ * a field other than the one asked for, an object keyed by path, or every value a node when nothing
+ * looked like nodes. None when `--read-as` or `--children-field` decided it.
+ */
+export function chosenReading(opts: SharedCliOptions, tree: Tree): HeaderReading | undefined {
+  const r = tree.reading;
+  if (r === undefined || opts.readAs !== "auto") return undefined;
+  if (r.shape === "nodes" && r.childrenFieldFound && r.childrenField !== undefined)
+    return { kind: "children", field: r.childrenField };
+  if (r.shape === "path-map" && r.pathMapField !== undefined)
+    return { kind: "path-map", field: r.pathMapField };
+  if (r.shape === "values") return { kind: "values" };
+  return undefined;
 }
 
 /** Lines before the tree, which the budget counts: the header unless --bare, the legend with --legend. */

@@ -1,5 +1,6 @@
-import { open, stat } from "node:fs/promises";
+import { close, open, read, type Stats, stat } from "node:fs";
 import { EspalierError } from "../errors.js";
+import { fsCall } from "./fs-call.js";
 
 /** How much of a named file may be read, and what it may be. */
 export interface ReadBound {
@@ -18,7 +19,7 @@ export interface ReadBound {
  * LIMIT_EXCEEDED, so an endless pipe cannot fill memory. Errors name the file.
  */
 export async function readBounded(path: string, bound: ReadBound): Promise<Buffer> {
-  const kind = await stat(path);
+  const kind = await fsCall<Stats>(stat, path);
   if (kind.isDirectory()) throw Object.assign(new Error(`${path} is a directory`), { code: "EISDIR" });
   if (!kind.isFile() && !(bound.pipes && (kind.isFIFO() || kind.isSocket()))) {
     throw new EspalierError(
@@ -27,13 +28,13 @@ export async function readBounded(path: string, bound: ReadBound): Promise<Buffe
       { file: path },
     );
   }
-  const handle = await open(path, "r");
+  const fd = await fsCall<number>(open, path, "r");
   try {
     const parts: Buffer[] = [];
     let length = 0;
     for (;;) {
       const chunk = Buffer.allocUnsafe(Math.min(1 << 20, bound.maxBytes + 1 - length));
-      const { bytesRead } = await handle.read(chunk, 0, chunk.length, null);
+      const bytesRead = await fsCall<number>(read, fd, chunk, 0, chunk.length, null);
       if (bytesRead === 0) break;
       parts.push(chunk.subarray(0, bytesRead));
       length += bytesRead;
@@ -41,7 +42,7 @@ export async function readBounded(path: string, bound: ReadBound): Promise<Buffe
     }
     return Buffer.concat(parts, length);
   } finally {
-    await handle.close();
+    await fsCall(close, fd);
   }
 }
 

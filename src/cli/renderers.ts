@@ -130,5 +130,6 @@ function headerOf<T extends ViewNode>(
     foci: fociOf(result.view),
     ...(result.unmatchedFoci.length > 0 ? { skippedFoci: result.unmatchedFoci.length } : {}),
     ...(s.sizeName === undefined ? {} : { sizeName: s.sizeName }),
+    ...(s.reading === undefined ? {} : { reading: s.reading }),
   };
 }

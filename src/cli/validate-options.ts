@@ -1,8 +1,8 @@
 import type { z } from "zod";
 import { didYouMeanText } from "../did-you-mean.js";
 import { EspalierError, type SourcePos } from "../errors.js";
+import type { OptionSpec, OptionsOf } from "./option-spec.js";
 import { checkValue, quote } from "./option-value.js";
-import type { OptionSpec, OptionsOf } from "./options.js";
 
 /**
  * One line for a zod issue about one option, `name` being how the user wrote it (`--format`, or

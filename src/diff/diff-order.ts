@@ -1,11 +1,12 @@
-import { contextTieBreaks, type NodeOrder } from "../interest/order.js";
+import { type NodeOrder, nodeOrder } from "../interest/order.js";
 import type { Measures } from "../model/measure.js";
 import type { Tree } from "../model/tree.js";
 import type { DiffInterest } from "./diff-interest.js";
 import { type ChangeMeasures, changeTotalIn } from "./measure-changes.js";
 
 /**
- * The total order the fitter takes a prefix of, for a diff. Forced nodes (root, the user's foci and
+ * The total order the fitter takes a prefix of, for a diff: the summary's {@link nodeOrder} with the
+ * changes put between its first tie-break and the rest. Forced nodes (root, the user's foci and
  * their ancestors) first, in pre-order. Then:
  *   1. higher interest first;
  *   2. nodes on a change path (a changed node or an ancestor of one) before the others;
@@ -24,20 +25,12 @@ export function diffOrder(
 ): NodeOrder {
   const { onChangePath } = scores;
   const { depth } = tree;
-  const rest = contextTieBreaks(tree, measures, scores);
-  return (a, b) => {
-    const fa = scores.isForced(a);
-    if (fa !== scores.isForced(b)) return fa ? -1 : 1;
-    if (fa) return a - b;
-    const va = scores.interestOf(a);
-    const vb = scores.interestOf(b);
-    if (va !== vb) return vb - va;
+  // 0 leaves the pair to the summary's tie-breaks: neither is on a change path.
+  return nodeOrder(tree, measures, scores, (a, b) => {
     if (onChangePath[a] !== onChangePath[b]) return onChangePath[b] - onChangePath[a];
-    if (onChangePath[a]) {
-      if (depth[a] !== depth[b]) return depth[a] - depth[b];
-      const d = changeTotalIn(changes, b) - changeTotalIn(changes, a);
-      return d !== 0 ? d : a - b;
-    }
-    return rest(a, b);
-  };
+    if (!onChangePath[a]) return 0;
+    if (depth[a] !== depth[b]) return depth[a] - depth[b];
+    const d = changeTotalIn(changes, b) - changeTotalIn(changes, a);
+    return d !== 0 ? d : a - b;
+  });
 }

@@ -1,14 +1,13 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { type Selection, select } from "../fit/select.js";
-import type { FocusSpec, UnmatchedFoci } from "../focus/focus-spec.js";
 import { resolveSpecs } from "../focus/resolve-specs.js";
-import type { Importance } from "../interest/importance.js";
 import { type Measures, measure } from "../model/measure.js";
 import { printedNames } from "../model/printed-names.js";
 import type { Tree } from "../model/tree.js";
+import type { SummaryOptions } from "../summary-options.js";
 import { hierarchyOf } from "../view/hierarchy-of.js";
 import { compileLabel } from "../view/label.js";
-import { orderSiblings, type SiblingOrder } from "../view/sibling-order.js";
+import { orderSiblings } from "../view/sibling-order.js";
 import { alignRoots } from "./align-roots.js";
 import { type Combined, combine } from "./combine.js";
 import { type DiffInterest, diffInterest } from "./diff-interest.js";
@@ -21,28 +20,8 @@ import { type ChangeMeasures, changesIn, measureChanges, netIn } from "./measure
 import { type DiffTotals, PreparedDiff } from "./prepared-diff.js";
 import { subtreeCounts } from "./subtree-counts.js";
 
-export interface DiffOptions {
-  /** Focus specs (paths, ids, globs or literal listed lines), resolved in the combined tree. */
-  foci: readonly FocusSpec[];
-  /** A focus that matches no node: an error (default), or left out and listed in `unmatchedFoci`. */
-  unmatchedFoci?: UnmatchedFoci;
-  /** Line budget for the text rendering, the totals line included. */
-  budget: number;
-  importance: Importance;
-  /** Label template, e.g. "{title}, {team}"; default "{name}". */
-  label?: string;
-  /** Replace every printed name by a keyed pseudonym. */
-  pseudonymKey?: string;
-  /**
-   * Print a run of only children as one line (see fit/select.ts lineCost; a change, like a focus,
-   * keeps its only child on a line of its own); default false.
-   */
-  chains?: boolean;
-  /** Lines the text rendering spends before the tree; default {@link DIFF_HEADER_LINES}. */
-  headerLines?: number;
-  /** Order of shown siblings in the view; default the combined tree's order. */
-  siblingOrder?: SiblingOrder;
-}
+/** The options of one summary of a diff (the same as a tree's, see {@link SummaryOptions}). */
+export type DiffOptions = SummaryOptions;
 
 export interface DiffResult {
   combined: Combined;

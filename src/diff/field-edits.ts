@@ -18,6 +18,19 @@ export interface ComparedFields {
 }
 
 /**
+ * What `diff` compares without `--compare-field`: a package's `version`, as dependency listings and
+ * lock files carry it (npm's `npm ls --json` and package-lock.json name it so; common practice, no
+ * source for other ecosystems). Without it a version bump that moves no node and changes no size would
+ * be no change at all, and `--fail-on-change` would pass it.
+ */
+export const DEFAULT_COMPARED_FIELDS: readonly string[] = ["version"];
+
+/** The default compared fields that both versions kept (an input without them compares none). */
+export function defaultComparedFields(oldTree: Tree, newTree: Tree): string[] {
+  return DEFAULT_COMPARED_FIELDS.filter((f) => oldTree.fields.has(f) && newTree.fields.has(f));
+}
+
+/**
  * The compared fields of two versions. A field that some version does not have is FIELD_MISSING naming
  * the fields it does have: a comparison with nothing would report no change, or every node changed,
  * silently. (The loaders already refuse a kept field that no node of their input has; this also covers

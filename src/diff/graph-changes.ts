@@ -58,7 +58,9 @@ export function matchGraphs(
     if (oldTree.reading?.shape === "nodes" || newTree.reading?.shape === "nodes")
       throw new EspalierError(
         "USAGE",
-        "a YAML document whose aliases are used more than once holds references, which are compared by node ids, and its nodes have none: compare the versions read as values (--read-as values)",
+        "a YAML document whose aliases are used more than once holds references, and references are compared by node ids, which nodes read from YAML do not have: such versions compare only read as values (--read-as values: every key and item a node sized by its bytes, an alias a leaf of its own text)",
+        undefined,
+        { remedies: ["--read-as values"] },
       );
     throw new EspalierError(
       "USAGE",

@@ -2,6 +2,7 @@ import { type GraphNeighbours, graphNeighbours } from "../model/graph-neighbours
 import type { Measures } from "../model/measure.js";
 import type { ReferenceIndex } from "../model/reference-index.js";
 import type { Tree } from "../model/tree.js";
+import { interestNear } from "./near.js";
 import { FAR, type Scores } from "./scores.js";
 
 /** {@link Scores} of a graph: every member of the contract, and the rank of the parents of a focus. */
@@ -40,16 +41,8 @@ export function graphInterest(
   const n = tree.length;
   const { parent, depth } = tree;
   const rank = new Int32Array(n).fill(FAR);
-  if (foci.length === 0) {
-    const top = api[0];
-    return {
-      forcedNodes: Int32Array.of(0),
-      interestOf: (x) => api[x] - top,
-      distanceOf: () => FAR,
-      isForced: (x) => x === 0,
-      rank,
-    };
-  }
+  // No focus: the same scores as a tree's, API(x) − API(root) (near.ts), every rank FAR.
+  if (foci.length === 0) return { ...interestNear(tree, api, foci), rank };
   const { nodes, nodeOf } = neighbours;
 
   // Key K(v) = min over foci of D(v, y) + API(y). The foci, sorted by their offset API(y).

@@ -16,7 +16,11 @@ import type { Scores } from "./scores.js";
  */
 export type NodeOrder = (a: number, b: number) => number;
 
-export function nodeOrder(tree: Tree, measures: Measures, scores: Scores): NodeOrder {
+/**
+ * `between` (a diff's: changes first) decides, when it returns non-zero, between tie-break 1 and the
+ * rest; it must keep a parent before its children.
+ */
+export function nodeOrder(tree: Tree, measures: Measures, scores: Scores, between?: NodeOrder): NodeOrder {
   const rest = contextTieBreaks(tree, measures, scores);
   return (a, b) => {
     const fa = scores.isForced(a);
@@ -28,16 +32,16 @@ export function nodeOrder(tree: Tree, measures: Measures, scores: Scores): NodeO
     // Graphs: the paths to a focus's parents, nearest a root first (interest/graph-doi.ts).
     const rank = scores.rank;
     if (rank !== undefined && rank[a] !== rank[b]) return rank[a] - rank[b];
+    if (between !== undefined) {
+      const t = between(a, b);
+      if (t !== 0) return t;
+    }
     return rest(a, b);
   };
 }
 
-/** Tie-breaks 2 to 5 above (nearer a focus, shallower, bigger subtree, input order), shared with diffs. */
-export function contextTieBreaks(
-  tree: Tree,
-  measures: Measures,
-  scores: Pick<Scores, "distanceOf">,
-): NodeOrder {
+/** Tie-breaks 2 to 5 above (nearer a focus, shallower, bigger subtree, input order). */
+function contextTieBreaks(tree: Tree, measures: Measures, scores: Pick<Scores, "distanceOf">): NodeOrder {
   const { depth } = tree;
   const { nodes } = measures;
   return (a, b) => {

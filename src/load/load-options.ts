@@ -37,6 +37,11 @@ export interface LoadOptions {
   nodeRecords?: Table;
   /** Extra record fields to keep per node, e.g. for a label template. */
   keepFields: readonly string[];
+  /**
+   * Fields of `keepFields` kept only where records have them: when no record has one, it is left out
+   * of the tree's fields rather than FIELD_MISSING (`diff` compares `version` this way by default).
+   */
+  optionalKeepFields?: readonly string[];
   /** Name of the root espalier adds when the input has several top-level nodes. */
   rootName: string;
   /** Refuse inputs with more nodes than this (LIMIT_EXCEEDED). */

@@ -91,9 +91,24 @@ export class NodeSink {
   }
 }
 
-/** LIMIT_EXCEEDED at the line or row that would have added one node too many. */
-export function limitExceeded(maxNodes: number, originIsRow: boolean, origin: number): EspalierError {
-  const pos = origin <= 0 ? undefined : originIsRow ? { row: origin } : { line: origin };
+/**
+ * LIMIT_EXCEEDED at the line or row that would have added one node too many (and the column where that
+ * node starts, when the loader knows it).
+ */
+export function limitExceeded(
+  maxNodes: number,
+  originIsRow: boolean,
+  origin: number,
+  column?: number,
+): EspalierError {
+  const pos =
+    origin <= 0
+      ? undefined
+      : originIsRow
+        ? { row: origin }
+        : column === undefined
+          ? { line: origin }
+          : { line: origin, column };
   return new EspalierError(
     "LIMIT_EXCEEDED",
     `the input has more than ${maxNodes} nodes, the configured maximum; raise the limit or load a smaller part`,

@@ -189,12 +189,12 @@ export class PathPlacer {
    */
   private child(parent: number, bytes: Buffer, s: number, e: number, hash: number, origin: number): number {
     const { sink } = this;
-    const { slots, hashes } = this.table;
-    const mask = slots.length - 1;
+    const { entries } = this.table;
+    const mask = (entries.length >> 1) - 1;
     let h = mix(hash) & mask;
-    for (let slot = slots[h]; slot !== 0; slot = slots[h]) {
+    for (let slot = entries[2 * h]; slot !== 0; slot = entries[2 * h]) {
       const node = slot - 1;
-      if (hashes[node] === hash && sink.parentOf[node] === parent) {
+      if (entries[2 * h + 1] === hash && sink.parentOf[node] === parent) {
         // Valid UTF-8 (see the class comment) has one spelling per name, so equal names are equal bytes.
         if (this.keys.equalsBytes(node, bytes, s, e)) {
           this.created = false;

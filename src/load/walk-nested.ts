@@ -246,7 +246,10 @@ export function walkNested<V>(
   }
   const fields = new Map<string, string[]>();
   for (let f = 0; f < keepFields.length; f++) {
-    if (!keptSeen[f]) throw missingField("kept", keepFields[f], seen.list(), true);
+    if (!keptSeen[f]) {
+      if (options.optionalKeepFields?.includes(keepFields[f])) continue;
+      throw missingField("kept", keepFields[f], seen.list(), true);
+    }
     fields.set(keepFields[f], kept[f]);
   }
   if (sink.length === 1 && rootKind === Kind.Map) {

@@ -1,6 +1,6 @@
 import * as z from "zod";
 import { changeKinds } from "../diff/changes.js";
-import { foldedSchema, type NodeFields, nodeFieldsShape } from "./summary-schema.js";
+import { foldedSchema, type NodeFields, nodeFieldsShape, unmatchedFociSchema } from "./summary-schema.js";
 
 /** Name and version of the diff JSON; bump the number when a field changes meaning. */
 export const DIFF_FORMAT = "espalier-diff/1";
@@ -121,13 +121,7 @@ export const diffSchema = z
       })
       .strict(),
     foci: z.array(z.string()).describe("Paths of the user's foci in the combined tree."),
-    unmatchedFoci: z
-      .array(z.string())
-      .min(1)
-      .optional()
-      .describe(
-        "Foci that matched no node and were left out (--unmatched-foci skip), as given (pseudonymous under --pseudonymize); absent when every focus matched.",
-      ),
+    unmatchedFoci: unmatchedFociSchema,
     root: diffNodeSchema,
   })
   .strict()

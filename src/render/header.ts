@@ -32,7 +32,19 @@ export interface HeaderOptions {
    * never names them (a typed path is no path of the input, and may be what `--pseudonymize` hides).
    */
   skippedFoci?: number;
+  /**
+   * How the input was read, when espalier chose it rather than the options: children found under
+   * another field, a map keyed by path, or every value a node. The header says so, so a reader who
+   * expected another reading sees it without the docs.
+   */
+  reading?: HeaderReading;
 }
+
+/** A reading of the input the header names (see `HeaderOptions.reading`). */
+export type HeaderReading =
+  | { kind: "children"; field: string }
+  | { kind: "path-map"; field: string }
+  | { kind: "values" };
 
 /** Foci named on the header before the rest are counted (`and 4 more`). */
 const FOCI_SHOWN = 3;
@@ -53,7 +65,11 @@ export function summaryHeader(
   let totals = w(`summary: ${formatCount(root.nodes)} ${root.nodes === 1 ? "node" : "nodes"}`);
   if (options.sizes)
     totals += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(root.size, options.units)}`)}`;
-  return fitHeader((k) => `${totals}${w("; ")}${fociText(header, k, style)}${w(`; ${used(header)}`)}`, width);
+  const read = readingText(header, style);
+  return fitHeader(
+    (k) => `${totals}${read}${w("; ")}${fociText(header, k, style)}${w(`; ${used(header)}`)}`,
+    width,
+  );
 }
 
 /**
@@ -82,7 +98,11 @@ export function diffHeader(
     const net = totals.delta < 0 ? formatSize(totals.delta, units) : `+${formatSize(totals.delta, units)}`;
     head += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(totals.old.size, units)} -> ${formatSize(totals.new.size, units)} (net ${net})`)}`;
   }
-  return fitHeader((k) => `${head}${w("; ")}${fociText(header, k, style)}${w(`; ${used(header)}`)}`, width);
+  const read = readingText(header, style);
+  return fitHeader(
+    (k) => `${head}${read}${w("; ")}${fociText(header, k, style)}${w(`; ${used(header)}`)}`,
+    width,
+  );
 }
 
 /** The header's text for Markdown: its own words escaped, the input's names as code spans. */
@@ -93,6 +113,19 @@ export const markdownHeaderStyle: HeaderStyle = {
 
 function sizeWord(header: HeaderOptions, style: HeaderStyle): string {
   return header.sizeName === undefined ? style.words("size") : style.name(safeText(header.sizeName, 40));
+}
+
+/**
+ * `; children under dependencies`, `; paths from packages` (`; paths from keys` for the top level),
+ * `; every value a node`; empty when the options chose the reading.
+ */
+function readingText({ reading }: HeaderOptions, style: HeaderStyle): string {
+  const w = style.words;
+  if (reading === undefined) return "";
+  if (reading.kind === "values") return w("; every value a node");
+  const field = style.name(safeText(reading.field, 40));
+  if (reading.kind === "children") return `${w("; children under ")}${field}`;
+  return reading.field === "" ? w("; paths from keys") : `${w("; paths from ")}${field}`;
 }
 
 function used(header: HeaderOptions): string {

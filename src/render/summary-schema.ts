@@ -97,6 +97,15 @@ export const inputReadingSchema = z
   .strict()
   .describe("How the input was read.");
 
+/** The foci left out, in a summary and in a diff alike. */
+export const unmatchedFociSchema = z
+  .array(z.string())
+  .min(1)
+  .optional()
+  .describe(
+    "Foci that matched no node and were left out (--unmatched-foci skip), as given (pseudonymous under --pseudonymize); absent when every focus matched.",
+  );
+
 export const summarySchema = z
   .object({
     format: z.literal(SUMMARY_FORMAT),
@@ -104,13 +113,7 @@ export const summarySchema = z
     lines: z.number().int().nonnegative().describe("Lines the text rendering of this selection takes."),
     totals: z.object({ nodes: z.number().int().positive(), size: z.number() }).strict(),
     foci: z.array(z.string()).describe("Paths of the focus nodes."),
-    unmatchedFoci: z
-      .array(z.string())
-      .min(1)
-      .optional()
-      .describe(
-        "Foci that matched no node and were left out (--unmatched-foci skip), as given (pseudonymous under --pseudonymize); absent when every focus matched.",
-      ),
+    unmatchedFoci: unmatchedFociSchema,
     input: inputReadingSchema.optional(),
     root: summaryNodeSchema,
   })

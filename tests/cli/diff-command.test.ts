@@ -154,8 +154,11 @@ describe("espalier diff OLD NEW", () => {
 
   it("--compare-field version: a version moved 3.0.1 -> 3.0.0 is a change, so --fail-on-change exits 1", async () => {
     const args = ["diff", at("deps-before.json"), at("deps-after.json"), "--fail-on-change"];
+    // `version` is compared by default too; naming another field replaces the default.
     const without = await cli(args);
-    expect(without.code).toBe(0);
+    expect(without.code).toBe(1);
+    const other = await cli([...args, "--compare-field", "name"]);
+    expect(other.code).toBe(0);
     const r = await cli([...args, "--compare-field", "version"]);
     expect(r.code).toBe(1);
     expect(r.stdout.split("\n")[0]).toContain("1 edited");

@@ -1,5 +1,5 @@
 import { execFileSync, spawnSync } from "node:child_process";
-import { existsSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readFileSync, symlinkSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
@@ -10,6 +10,9 @@ import { BIN } from "../helpers/bin.js";
 // resize-window). tmux is installed by .ci/run (Debian package tmux) when missing.
 const SOCKET = `espalier-e2e-${process.pid}`;
 const dir = mkdtempSync(join(tmpdir(), "espalier-tmux-"));
+// The program runs in `dir`, where fixtures/ is the demo data and no .espalier.yaml of the directory
+// the tests were started from can change what it shows.
+symlinkSync(new URL("../../fixtures", import.meta.url).pathname, join(dir, "fixtures"));
 const tmux = (...args: string[]) => execFileSync("tmux", ["-L", SOCKET, ...args], { encoding: "utf8" });
 
 if (spawnSync("tmux", ["-V"]).status !== 0)
@@ -37,7 +40,7 @@ function start(args: string[], cols = 80, rows = 24, env: Record<string, string>
     .map(([k, v]) => `${k}='${v}'`)
     .join(" ");
   const script =
-    `stty -a > ${files.before}; ${exports} node ${BIN} explore ${quoted}; ` +
+    `cd ${dir}; stty -a > ${files.before}; ${exports} node ${BIN} explore ${quoted}; ` +
     `echo $? > ${files.status}.tmp; stty -a > ${files.after}; mv ${files.status}.tmp ${files.status}; sleep 600`;
   writeFileSync(join(dir, `${name}.sh`), script);
   tmux(
@@ -176,7 +179,10 @@ describe("espalier explore in a terminal (tmux)", () => {
   });
 
   it("refuses cleanly when standard output is not a terminal", () => {
-    const out = spawnSync("node", [BIN, "explore", "fixtures/tidewater-deps.json"], { encoding: "utf8" });
+    const out = spawnSync("node", [BIN, "explore", "fixtures/tidewater-deps.json"], {
+      encoding: "utf8",
+      cwd: dir,
+    });
     expect(out.status).toBe(2);
     expect(out.stdout).toBe("");
     expect(out.stderr).toMatch(/\[USAGE\]\n$/);

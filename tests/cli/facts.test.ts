@@ -1,6 +1,7 @@
-import { readdirSync, readFileSync, writeFileSync } from "node:fs";
+import { existsSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { describe, expect, it } from "vitest";
+import { runBin } from "../helpers/bin.js";
 import { cli } from "../helpers/cli.js";
 import { lit, scratchDir, withEngine } from "../load/facts/helpers.js";
 
@@ -132,5 +133,28 @@ describe("start-up path", () => {
       const text = readFileSync(join(src, f), "utf8");
       expect(text).not.toMatch(/^import (?!type ).*load\/facts\/(load-facts|engine)\.js/m);
     }
+  });
+
+  it("the launcher loads the engine's JavaScript layer as the one file built beside its bundle", async () => {
+    const root = resolve(import.meta.dirname, "../..");
+    const { version } = JSON.parse(
+      readFileSync(join(root, "node_modules/@duckdb/node-bindings/package.json"), "utf8"),
+    );
+    expect(existsSync(join(root, `dist/bundle/engine-api-${version}.cjs`))).toBe(true);
+    // A preloaded script lists, as the run ends, the engine modules Node loaded.
+    const hook = join(dir, "list-modules.cjs");
+    const list = 'Object.keys(require.cache).filter((k) => k.includes("duckdb") || k.includes("engine-api"))';
+    writeFileSync(
+      hook,
+      `process.on("exit", () => process.stderr.write("\\nMODULES " + JSON.stringify(${list}) + "\\n"));\n`,
+    );
+    const args = [fixture, ...LEVELS, "--focus", "qf-build", "--budget", "10"];
+    const bin = await runBin(args, { env: { NODE_OPTIONS: `--require ${hook}` } });
+    expect(bin.code).toBe(0);
+    expect(bin.stdout).toBe((await cli(args)).stdout);
+    const loaded: string[] = JSON.parse(/MODULES (.*)/.exec(bin.stderr)?.[1] ?? "null");
+    expect(loaded.some((m) => m.endsWith(`engine-api-${version}.cjs`))).toBe(true);
+    expect(loaded.filter((m) => m.includes("node-api"))).toEqual([]);
+    expect(loaded.some((m) => m.includes("node-bindings"))).toBe(true);
   });
 });

@@ -1,7 +1,20 @@
 import { type SpawnOptions, spawn } from "node:child_process";
+import { mkdtempSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 
 /** The launcher as users run it (dist/ is built by `npm test`'s pretest). */
 export const BIN = new URL("../../bin/espalier.js", import.meta.url).pathname;
+
+/**
+ * Where a run without `cwd` runs: a folder of its own with nothing in it, so no `.espalier.yaml` of the
+ * directory the tests were started from is read (give inputs as absolute paths, or a `cwd`).
+ */
+let emptyDir: string | undefined;
+function noConfigDir(): string {
+  emptyDir ??= mkdtempSync(join(tmpdir(), "espalier-bin-"));
+  return emptyDir;
+}
 
 export interface BinResult {
   code: number | null;
@@ -33,7 +46,7 @@ export function runBin(
   ];
   const child = spawn(process.execPath, [BIN, ...args], {
     stdio,
-    cwd: options.cwd,
+    cwd: options.cwd ?? noConfigDir(),
     env: { PATH: process.env.PATH ?? "", ...options.env },
   });
   options.onSpawn?.(child);

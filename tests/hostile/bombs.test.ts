@@ -99,17 +99,22 @@ describe("espalier - (resource bombs)", () => {
   it("--max-nodes N refuses bigger inputs in every format with LIMIT_EXCEEDED at the node past the limit", async () => {
     const inputs: [InputFormat, string, { line?: number; column?: number }][] = [
       ["paths", "q/a\nq/b\nq/c\n", { line: 3 }],
-      // Data row 4 is line 5 (from standard input, not read again: the line only).
-      ["csv", "id,parent\n1,\n2,1\n3,1\n4,1\n", { line: 5 }],
-      ["tsv", "id\tparent\n1\t\n2\t1\n3\t1\n4\t1\n", { line: 5 }],
+      // Data row 4 is line 5 (from standard input, not read again: the line, and column 1 for the
+      // row's first field, which starts the line).
+      ["csv", "id,parent\n1,\n2,1\n3,1\n4,1\n", { line: 5, column: 1 }],
+      ["tsv", "id\tparent\n1\t\n2\t1\n3\t1\n4\t1\n", { line: 5, column: 1 }],
       [
         "rows",
         '[{"id":"1","parent":""},{"id":"2","parent":"1"},{"id":"3","parent":"1"},{"id":"4","parent":"1"}]',
         // The 4th row's "{": "[", the first row (22) and ",", two rows of 24 with their ",": column 73.
         { line: 1, column: 73 },
       ],
-      // JSON nodes carry no line yet (docs/reliability.md): only the code is checked.
-      ["json", '{"name": "q", "children": [\n{"name": "a"},\n{"name": "b"},\n{"name": "c"}]}', {}],
+      // The 4th node's "{", at the start of line 4.
+      [
+        "json",
+        '{"name": "q", "children": [\n{"name": "a"},\n{"name": "b"},\n{"name": "c"}]}',
+        { line: 4, column: 1 },
+      ],
       ["yaml", "name: q\nchildren:\n  - name: a\n  - name: b\n  - name: c\n", { line: 5 }],
     ];
     for (const [format, stdin, at] of inputs) {

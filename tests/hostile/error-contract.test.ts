@@ -26,6 +26,14 @@ async function errorOf(args: string[], stdin?: string) {
   return { ...e, text: r.stderr };
 }
 
+describe("the launcher under test", () => {
+  it("runs away from the tests' working directory, so no .espalier.yaml there is read", async () => {
+    // A path that exists relative to the repository's root is not found: the run is elsewhere.
+    const r = await errorOf(["fixtures/tidewater-files.paths"]);
+    expect(r).toMatchObject({ code: "IO", file: "fixtures/tidewater-files.paths" });
+  });
+});
+
 describe("espalier FILE: one error line with the file, line and column of the fault", () => {
   it("a CSV row's fault is at its cell: bad size, missing parent, duplicate id, empty id, cycle", async () => {
     const cases: [string, string, number, number][] = [
@@ -97,6 +105,11 @@ describe("espalier FILE: one error line with the file, line and column of the fa
   it("from standard input (not read again) a table row's fault names its line", async () => {
     const e = await errorOf(["-", "--input-format", "csv"], 'id,parent\nr,\n"a\nb",r\nc,q\n');
     expect(e).toMatchObject({ code: "MISSING_PARENT", file: "<stdin>", line: 5 });
+    // The parent cell's column is not known without the bytes ...
+    expect(e.column).toBeUndefined();
+    // ... but a fault in the row's first field is at column 1: that field starts the row's line.
+    const dup = await errorOf(["-", "--input-format", "csv"], 'id,parent\nr,\n"a\nb",r\n"a\nb",r\n');
+    expect(dup).toMatchObject({ code: "DUPLICATE_ID", file: "<stdin>", line: 5, column: 1 });
   });
 
   it("path lists, foci files and usage errors keep the same one-line form", async () => {

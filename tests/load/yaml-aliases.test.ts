@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { parseDocument } from "yaml";
+import { prepareDiff } from "../../src/diff/diff-trees.js";
 import { loadTree } from "../../src/load/index.js";
 import { measure } from "../../src/model/measure.js";
 import type { Tree } from "../../src/model/tree.js";
@@ -169,7 +170,14 @@ describe("espalier diff of YAML documents with reused aliases", () => {
     const files = { "a.yaml": before, "b.yaml": after };
     const nodes = await cli(["diff", "a.yaml", "b.yaml"], { files });
     expect(nodes.code).toBe(2);
-    expect(nodes.stderr).toContain("--read-as values");
+    expect(nodes.stderr).toMatch(/\[USAGE\]\n$/);
+    let refused: unknown;
+    try {
+      prepareDiff(yaml(before), yaml(after));
+    } catch (err) {
+      refused = err;
+    }
+    expect(refused).toMatchObject({ code: "USAGE", details: { remedies: ["--read-as values"] } });
     const values = await cli(["diff", "a.yaml", "b.yaml", "--read-as", "values", "--fail-on-change"], {
       files,
     });

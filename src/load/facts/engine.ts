@@ -39,9 +39,7 @@ const PACKAGE = "@duckdb/node-api";
 export async function openEngine(settings: EngineSettings = {}, from: string = PACKAGE): Promise<Engine> {
   let api: typeof import("@duckdb/node-api");
   try {
-    // require, not import(): the package is CommonJS, and the command line's bundle runs as a script
-    // whose import() would need an experimental engine hook (bin/load-bundle.js).
-    api = createRequire(import.meta.url)(from) as typeof import("@duckdb/node-api");
+    api = engineApi(from);
   } catch (err) {
     throw new EspalierError(
       "ENGINE_MISSING",
@@ -74,6 +72,30 @@ export async function openEngine(settings: EngineSettings = {}, from: string = P
       instance.closeSync();
     },
   };
+}
+
+/**
+ * The package's JavaScript layer. From the command line's bundle, the one-file copy scripts/bundle.js
+ * writes beside it (engine-api-VERSION.cjs) when the installed native part (@duckdb/node-bindings, which
+ * that copy loads) is the VERSION it was built against: one file to compile instead of some 120
+ * modules. Anywhere else, or with another version installed, the package itself.
+ */
+function engineApi(from: string): typeof import("@duckdb/node-api") {
+  // require, not import(): the package is CommonJS, and the command line's bundle runs as a script
+  // whose import() would need an experimental engine hook (bin/load-bundle.js). Not named `require`,
+  // so that the bundler leaves these calls to run time.
+  const load = createRequire(import.meta.url);
+  if (from === PACKAGE) {
+    let copy: string | undefined;
+    try {
+      const { version } = load("@duckdb/node-bindings/package.json") as { version: string };
+      copy = load.resolve(`./engine-api-${version}.cjs`);
+    } catch {
+      copy = undefined;
+    }
+    if (copy !== undefined) return load(copy) as typeof import("@duckdb/node-api");
+  }
+  return load(from) as typeof import("@duckdb/node-api");
 }
 
 /** An error the engine raised (a file it cannot read, a value it cannot convert), as ENGINE_FAILED. */

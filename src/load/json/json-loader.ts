@@ -6,7 +6,7 @@ import { badNodeSize } from "../bad-node-size.js";
 import { describeNode } from "../describe-node.js";
 import type { LoadOptions } from "../load-options.js";
 import { FieldsSeen, loneRoot, missingField, nameFieldNamed, sizeFieldNamed } from "../missing-field.js";
-import { NodeSink } from "../node-sink.js";
+import { limitExceeded, NodeSink } from "../node-sink.js";
 import { fieldSizeUnit } from "../size-unit.js";
 import { linkTable } from "../table/link-table.js";
 import { rowsTable } from "../table/rows-table.js";
@@ -189,7 +189,10 @@ export class JsonLoader extends JsonTokenizer {
         if (column[i] === undefined) column[i] = "";
         else seen = true;
       }
-      if (!seen) throw missingField("kept", keepFields[f], this.seen.list(), true);
+      if (!seen) {
+        if (this.options.optionalKeepFields?.includes(keepFields[f])) continue;
+        throw missingField("kept", keepFields[f], this.seen.list(), true);
+      }
       fields.set(keepFields[f], column as string[]);
     }
     return sink.finish(this.options.rootName, fields, null, {
@@ -285,8 +288,11 @@ export class JsonLoader extends JsonTokenizer {
   // ---------------------------------------------------------------------------------------------------
   // Building nodes.
 
-  private addNode(parent: number, name: string): number {
-    const j = this.sink.add(parent, name, 0);
+  /** Adds a node whose value starts at `column` of the current line (where a node too many is reported). */
+  private addNode(parent: number, name: string, column: number): number {
+    const sink = this.sink;
+    if (sink.length >= sink.maxNodes) throw limitExceeded(sink.maxNodes, false, this.pos.line, column);
+    const j = sink.add(parent, name, 0);
     if (j === this.sized.length) {
       const grown = new Uint8Array(this.sized.length * 2);
       grown.set(this.sized);
@@ -305,7 +311,7 @@ export class JsonLoader extends JsonTokenizer {
         this.fieldScalar(this.frames[top], kind, text, value, column);
         return;
       case S_KEYED: {
-        const j = this.keyedChild(top);
+        const j = this.keyedChild(top, column);
         if (kind === NUMBER) {
           if (!isSize(value)) {
             throw this.badSize(text || String(value), j, undefined, { line: this.pos.line, column });
@@ -323,7 +329,7 @@ export class JsonLoader extends JsonTokenizer {
       case S_CHILD:
       case S_TOP_ITEM: {
         this.probe.nodes();
-        const j = this.addNode(this.slot === S_CHILD ? this.frames[top].node : -1, "");
+        const j = this.addNode(this.slot === S_CHILD ? this.frames[top].node : -1, "", column);
         throw new EspalierError("SHAPE", say`${this.where(j)} must be a node object`, {
           line: this.pos.line,
           column,
@@ -370,10 +376,10 @@ export class JsonLoader extends JsonTokenizer {
   }
 
   /** Adds the child named by the current key of the children-by-name object at `top`. */
-  private keyedChild(top: number): number {
+  private keyedChild(top: number, column: number): number {
     const map = this.frames[top];
     const key = this.slotKey;
-    const j = this.addNode(map.node, key);
+    const j = this.addNode(map.node, key, column);
     if (map.keys.has(key) || isArrayIndexKey(key)) map.reorder = true;
     map.keys.add(key);
     map.children.push(j);
@@ -404,7 +410,7 @@ export class JsonLoader extends JsonTokenizer {
         if (object) {
           this.probe.nodes();
           role = NODE;
-          this.nodeFrame(frame, this.addNode(-1, ""), false);
+          this.nodeFrame(frame, this.addNode(-1, "", column), false);
         } else {
           role = this.probe.rows ? ROWS : TOP_LIST;
           slot = itemSlot[role];
@@ -422,15 +428,15 @@ export class JsonLoader extends JsonTokenizer {
           } else this.probe.nodes();
         }
         role = NODE;
-        this.nodeFrame(frame, this.addNode(-1, ""), false);
+        this.nodeFrame(frame, this.addNode(-1, "", column), false);
         break;
       case S_CHILD:
         if (!object) this.scalar(COLLECTION, "", 0, column);
         role = NODE;
-        this.nodeFrame(frame, this.addNode(parentFrame.node, ""), false);
+        this.nodeFrame(frame, this.addNode(parentFrame.node, "", column), false);
         break;
       case S_KEYED: {
-        const j = this.keyedChild(top - 1);
+        const j = this.keyedChild(top - 1, column);
         if (!object) {
           throw new EspalierError(
             "SHAPE",

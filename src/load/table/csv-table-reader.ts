@@ -120,8 +120,13 @@ export class CsvTableReader implements CsvSink {
         kept = [];
         at.clear();
       },
-      // The line a row starts on (its cell's column needs the bytes again: see locate-cell.ts).
-      place: (row) => (row >= 1 && row <= length ? { line: lines.lineOf(row) } : undefined),
+      // The line a row starts on; a cell's column needs the bytes again (see locate-cell.ts), but for
+      // the row's first field, which starts the line: column 1.
+      place: (row, field) => {
+        if (row < 1 || row > length) return undefined;
+        const line = lines.lineOf(row);
+        return field === undefined || header.indexOf(field) === 0 ? { line, column: 1 } : { line };
+      },
     };
   }
 

@@ -202,10 +202,14 @@ function visibleColumns(table: Table): string[] {
 }
 
 /** The kept columns as text, by row; FIELD_MISSING names the columns there are. */
-export function keptColumns(table: Table, options: Pick<LoadOptions, "keepFields">): Map<string, string[]> {
+export function keptColumns(
+  table: Table,
+  options: Pick<LoadOptions, "keepFields" | "optionalKeepFields">,
+): Map<string, string[]> {
   const values = new Map<string, string[]>();
   for (const key of options.keepFields) {
     const cells = table.column(key);
+    if (!cells && options.optionalKeepFields?.includes(key)) continue;
     if (!cells) {
       const near = didYouMean(key, visibleColumns(table));
       throw new EspalierError(

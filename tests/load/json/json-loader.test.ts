@@ -145,6 +145,11 @@ describe("loadTree(json)", () => {
   it("loadTree(json) stops with LIMIT_EXCEEDED once there are more than maxNodes nodes", () => {
     const error = caught(() => json('{"name":"r","children":[{},{},{}]}', { maxNodes: 3 }));
     expect(error.code).toBe("LIMIT_EXCEEDED");
+    // The 4th node is the third "{}": after '{"name":"r","children":[' (24 characters) and "{},{},".
+    expect(error.pos).toEqual({ line: 1, column: 31 });
+    // A child keyed by name: at its value.
+    const keyed = caught(() => json('{"name":"r","children":{"a":1,"b":{},\n "c": 2}}', { maxNodes: 3 }));
+    expect([keyed.code, keyed.pos]).toEqual(["LIMIT_EXCEEDED", { line: 2, column: 7 }]);
     expect(json('{"name":"r","children":[{},{}]}', { maxNodes: 3 }).length).toBe(3);
   });
 

@@ -128,13 +128,13 @@ export class PathPlacer {
    */
   private child(parent: number, text: string, s: number, e: number, hash: number, origin: number): number {
     const { sink } = this;
-    const { slots, hashes } = this.table;
-    const mask = slots.length - 1;
+    const { entries } = this.table;
+    const mask = (entries.length >> 1) - 1;
     const length = e - s;
     let h = mix(hash) & mask;
-    for (let slot = slots[h]; slot !== 0; slot = slots[h]) {
+    for (let slot = entries[2 * h]; slot !== 0; slot = entries[2 * h]) {
       const node = slot - 1;
-      if (hashes[node] === hash && sink.parentOf[node] === parent) {
+      if (entries[2 * h + 1] === hash && sink.parentOf[node] === parent) {
         const name = this.keys[node];
         if (name.length === length) {
           let k = 0;

@@ -153,8 +153,9 @@ describe("loadTreeFromStream(csv)", () => {
     const outcome = await outcomeOfAsync(() =>
       loadStreamed(utf8("id,parent\n1,\n2,1\n3,1\n4,1\n"), options, [12]),
     );
-    // Row 3 starts on line 4 (the header is line 1).
-    expect(outcome).toEqual({ code: "LIMIT_EXCEEDED", pos: { row: 3, line: 4 } });
+    // Row 3 starts on line 4 (the header is line 1); the row as a whole is placed at its first field,
+    // column 1.
+    expect(outcome).toEqual({ code: "LIMIT_EXCEEDED", pos: { row: 3, line: 4, column: 1 } });
   });
 
   it("lets go of its cells once linked; columns read before stay whole", async () => {

@@ -1,0 +1,56 @@
+import { describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+
+/** The header line: the first line of a text summary or diff. */
+const head = (stdout: string) => stdout.split("\n")[0];
+
+// Inputs shaped as common tools write them (npm ls --all --json nests packages under `dependencies`;
+// a lock file keys records by path under `packages`; a settings file has no node objects at all).
+const NESTED = JSON.stringify({
+  name: "harbor-app",
+  dependencies: { "kelp-log": { dependencies: { "brine-util": {} } }, "tide-clock": {} },
+});
+const PATH_MAP = JSON.stringify({
+  packages: { "": {}, "node_modules/kelp-log": {}, "node_modules/tide-clock": {} },
+});
+const VALUES = JSON.stringify({ editor: { tabs: 2, wrap: true }, theme: "dusk" });
+
+describe("the header says how espalier chose to read a JSON or YAML input", () => {
+  it("names the field children were found under when it is not the one asked for", async () => {
+    const r = await cli(["-", "--input-format", "json"], { stdin: NESTED });
+    expect(r.code).toBe(0);
+    expect(head(r.stdout)).toBe("summary: 4 nodes; children under dependencies; no focus; 4 of 40 lines");
+  });
+
+  it("says nothing about the reading when the options chose it", async () => {
+    const asked = await cli(["-", "--input-format", "json", "--children-field", "dependencies"], {
+      stdin: NESTED,
+    });
+    expect(head(asked.stdout)).toBe("summary: 4 nodes; no focus; 4 of 40 lines");
+    const forced = await cli(["-", "--input-format", "json", "--read-as", "values"], { stdin: VALUES });
+    expect(head(forced.stdout)).not.toContain("every value a node");
+  });
+
+  it("names the field of a map keyed by path, and a document read value by value", async () => {
+    const map = await cli(["-", "--input-format", "json"], { stdin: PATH_MAP });
+    expect(head(map.stdout)).toContain("; paths from packages; no focus;");
+    // Read as values the size is the document's bytes: the root, editor, tabs, wrap and theme are 5 nodes.
+    const values = await cli(["-", "--input-format", "json"], { stdin: VALUES });
+    expect(head(values.stdout)).toContain(
+      `summary: 5 nodes, size ${Buffer.byteLength(VALUES)} B; every value a node; no focus;`,
+    );
+  });
+
+  it("does the same on a diff's header and in Markdown (the field as code)", async () => {
+    const files = { "old.json": NESTED, "new.json": NESTED.replace('"tide-clock"', '"tide-gauge"') };
+    const diff = await cli(["diff", "old.json", "new.json"], { files });
+    expect(head(diff.stdout)).toContain("; children under dependencies; no focus;");
+    const md = await cli(["-", "--input-format", "json", "--format", "markdown"], { stdin: NESTED });
+    expect(head(md.stdout)).toContain("children under ` dependencies `; no focus");
+  });
+
+  it("leaves tables, path lists and JSON without a search alone", async () => {
+    const r = await cli(["-", "--input-format", "paths"], { stdin: "quill/a\nquill/b\n" });
+    expect(head(r.stdout)).toBe("summary: 3 nodes; no focus; 4 of 40 lines");
+  });
+});
