@@ -43,45 +43,30 @@ export function graphInterest(
   const rank = new Int32Array(n).fill(FAR);
   // No focus: the same scores as a tree's, API(x) − API(root) (near.ts), every rank FAR.
   if (foci.length === 0) return { ...interestNear(tree, api, foci), rank };
-  const { nodes, nodeOf, start, adjacent } = neighbours;
+  const { nodes, nodeOf } = neighbours;
 
-  // Key K(v) = min over foci of D(v, y) + API(y), settled in increasing order: the foci, sorted by their
-  // offset, and the queue of nodes reached (keys never decrease in it) are merged. Nodes by number.
+  // Key K(v) = min over foci of D(v, y) + API(y). The foci, sorted by their offset API(y).
   const sources = Int32Array.from(foci).sort((a, b) => api[a] - api[b] || a - b);
-  // key[v]: the best offset reaching node v so far; final once v is settled.
-  const key = new Float64Array(nodes).fill(Number.POSITIVE_INFINITY);
-  const settled = new Uint8Array(nodes);
+  const offsets = Float64Array.from(sources, (y) => api[y]);
   const queue = new Int32Array(nodes);
-  let head = 0;
-  let tail = 0;
-  let next = 0;
-  while (next < sources.length || head < tail) {
-    let v: number;
-    if (head < tail && (next === sources.length || key[queue[head]] <= api[sources[next]])) v = queue[head++];
-    else {
-      const y = sources[next++];
-      v = nodeOf[y];
-      if (api[y] < key[v]) key[v] = api[y];
-    }
-    if (settled[v] === 1) continue;
-    settled[v] = 1;
-    const reach = key[v] + 1;
-    for (let j = start[v], end = start[v + 1]; j < end; j++) {
-      const w = adjacent[j];
-      if (reach < key[w]) {
-        key[w] = reach;
-        queue[tail++] = w;
-      }
-    }
-  }
+  const key = offsets.every(Number.isInteger)
+    ? levelSearch(neighbours, sources, offsets, queue)
+    : mergedSearch(neighbours, sources, offsets, queue);
 
   // Edges to the nearest focus. When every focus has the same API c, K(v) = D(v, nearest focus) + c, so
   // the distance is K(v) - c (rounded: K was summed in doubles, and the true value is a whole number).
-  // Otherwise a plain breadth-first search over the same neighbours.
-  const offset = api[sources[0]];
-  const raw = api[sources[sources.length - 1]] === offset ? null : plainDistances(neighbours, foci, queue);
-  const edges = (slot: number): number =>
-    raw === null ? Math.round(key[nodeOf[slot]] - offset) : raw[nodeOf[slot]];
+  // Otherwise a plain breadth-first search over the same neighbours (every focus at level 0), its
+  // unreached nodes FAR.
+  const offset = offsets[0];
+  const raw =
+    offsets[offsets.length - 1] === offset
+      ? null
+      : levelSearch(neighbours, sources, new Float64Array(sources.length), queue);
+  const edges = (slot: number): number => {
+    if (raw === null) return Math.round(key[nodeOf[slot]] - offset);
+    const d = raw[nodeOf[slot]];
+    return d === Number.POSITIVE_INFINITY ? FAR : d;
+  };
 
   // Forced: the root, the foci and the ancestors of their full entries.
   const forced = new Uint8Array(n);
@@ -138,28 +123,107 @@ export function graphInterest(
   };
 }
 
-/** Edges from every node to the nearest focus: a breadth-first search (`queue`: a node long, scratch). */
-function plainDistances(neighbours: GraphNeighbours, foci: Int32Array, queue: Int32Array): Int32Array {
+/**
+ * The least of (offset of a source + edges from it) for every node, +Infinity where no source
+ * reaches: a breadth-first search from all the sources (slots of full entries, sorted by offset),
+ * each entering when the search reaches its offset, which must be a whole number. Level by level: a
+ * level whose frontier has more edges than a fourteenth of those of the nodes not yet reached is found
+ * the other way round, every node not reached looking for a neighbour in the frontier and stopping at
+ * the first (Beamer, Asanović and Patterson, "Direction-optimizing breadth-first search", SC '12,
+ * with their α = 14); both give each node the first level it is reached at. `queue`: a node long.
+ */
+function levelSearch(
+  neighbours: GraphNeighbours,
+  sources: Int32Array,
+  offsets: Float64Array,
+  queue: Int32Array,
+): Float64Array {
   const { nodes, nodeOf, start, adjacent } = neighbours;
-  const raw = new Int32Array(nodes).fill(FAR);
+  const level = new Float64Array(nodes).fill(Number.POSITIVE_INFINITY);
   let head = 0;
   let tail = 0;
-  for (const y of foci) {
-    const v = nodeOf[y];
-    if (raw[v] === 0) continue;
-    raw[v] = 0;
-    queue[tail++] = v;
+  let next = 0;
+  let unreachedEdges = adjacent.length;
+  for (let d = offsets[0]; ; d++) {
+    // The frontier: the nodes reached at level d, and the sources entering at d not reached before.
+    while (next < sources.length && offsets[next] === d) {
+      const v = nodeOf[sources[next++]];
+      if (level[v] <= d) continue;
+      level[v] = d;
+      queue[tail++] = v;
+    }
+    if (head === tail) {
+      if (next === sources.length) return level;
+      d = offsets[next] - 1;
+      continue;
+    }
+    let frontierEdges = 0;
+    for (let k = head; k < tail; k++) frontierEdges += start[queue[k] + 1] - start[queue[k]];
+    unreachedEdges -= frontierEdges;
+    const levelEnd = tail;
+    const reach = d + 1;
+    if (frontierEdges * 14 > unreachedEdges) {
+      for (let v = 0; v < nodes; v++) {
+        if (level[v] <= reach) continue;
+        for (let j = start[v], end = start[v + 1]; j < end; j++) {
+          if (level[adjacent[j]] === d) {
+            level[v] = reach;
+            queue[tail++] = v;
+            break;
+          }
+        }
+      }
+      head = levelEnd;
+    } else {
+      while (head < levelEnd) {
+        const v = queue[head++];
+        for (let j = start[v], end = start[v + 1]; j < end; j++) {
+          const w = adjacent[j];
+          if (level[w] > reach) {
+            level[w] = reach;
+            queue[tail++] = w;
+          }
+        }
+      }
+    }
   }
-  while (head < tail) {
-    const v = queue[head++];
-    const d = raw[v] + 1;
+}
+
+/**
+ * What {@link levelSearch} finds, for offsets of any value: nodes settled in increasing order of key,
+ * the sources (sorted by offset) and the queue of nodes reached (keys never decrease in it) merged.
+ */
+function mergedSearch(
+  neighbours: GraphNeighbours,
+  sources: Int32Array,
+  offsets: Float64Array,
+  queue: Int32Array,
+): Float64Array {
+  const { nodes, nodeOf, start, adjacent } = neighbours;
+  // key[v]: the best offset reaching node v so far; final once v is settled.
+  const key = new Float64Array(nodes).fill(Number.POSITIVE_INFINITY);
+  const settled = new Uint8Array(nodes);
+  let head = 0;
+  let tail = 0;
+  let next = 0;
+  while (next < sources.length || head < tail) {
+    let v: number;
+    if (head < tail && (next === sources.length || key[queue[head]] <= offsets[next])) v = queue[head++];
+    else {
+      v = nodeOf[sources[next]];
+      if (offsets[next] < key[v]) key[v] = offsets[next];
+      next++;
+    }
+    if (settled[v] === 1) continue;
+    settled[v] = 1;
+    const reach = key[v] + 1;
     for (let j = start[v], end = start[v + 1]; j < end; j++) {
       const w = adjacent[j];
-      if (raw[w] === FAR) {
-        raw[w] = d;
+      if (reach < key[w]) {
+        key[w] = reach;
         queue[tail++] = w;
       }
     }
   }
-  return raw;
+  return key;
 }

@@ -1,6 +1,6 @@
 import { Buffer } from "node:buffer";
 import { EspalierError } from "../errors.js";
-import { doubled, hashBytes, mix } from "../model/child-hash.js";
+import { doubled, hashBytes, hashStep, mix } from "../model/child-hash.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import { NamePool } from "../model/names.js";
 import type { LoadOptions } from "./load-options.js";
@@ -42,6 +42,7 @@ export class EdgeListReader {
   private line = 0;
   private tabs: boolean | undefined;
   private lastParent = -1;
+  private lastHash = 0;
 
   constructor(private readonly options: Pick<LoadOptions, "maxNodes" | "rootName">) {}
 
@@ -49,12 +50,54 @@ export class EdgeListReader {
   lines(buf: Uint8Array, s: number, e: number): void {
     let at = s;
     while (at < e) {
+      if (this.tabs !== undefined) {
+        const next = this.usualLine(buf, at, e);
+        if (next !== -1) {
+          at = next;
+          continue;
+        }
+      }
       let end = buf.indexOf(LF, at);
       if (end === -1 || end >= e) end = e;
       this.line++;
       this.readLine(buf, at, end > at && buf[end - 1] === CR ? end - 1 : end);
       at = end + 1;
     }
+  }
+
+  /**
+   * A line in the usual shape, read in one pass that hashes each id as it finds its end: an id, the
+   * separator (with spaces: a run of spaces; with tabs: one tab), an id, then "\n" or the end of the
+   * range. Returns where the next line starts, or -1, having changed nothing, for any other line
+   * (blank, one id, three, a CR, a tab among spaces, a control byte), which {@link readLine} reads.
+   */
+  private usualLine(buf: Uint8Array, s: number, e: number): number {
+    let k = s;
+    let hp = ID_SEED;
+    let hc = ID_SEED;
+    let pe: number;
+    let cs: number;
+    if (this.tabs) {
+      // A line of spaces and tabs only is blank: a first id starting with a space goes the long way.
+      if (buf[k] === SPACE) return -1;
+      for (let c = buf[k]; k < e && c !== TAB && c !== LF && c !== CR; c = buf[++k]) hp = hashStep(hp, c);
+      pe = k;
+      if (pe === s || k === e || buf[k] !== TAB) return -1;
+      cs = ++k;
+      for (let c = buf[k]; k < e && c !== TAB && c !== LF && c !== CR; c = buf[++k]) hc = hashStep(hc, c);
+    } else {
+      for (let c = buf[k]; k < e && c > SPACE; c = buf[++k]) hp = hashStep(hp, c);
+      pe = k;
+      if (pe === s || k === e || buf[k] !== SPACE) return -1;
+      while (++k < e && buf[k] === SPACE);
+      cs = k;
+      for (let c = buf[k]; k < e && c > SPACE; c = buf[++k]) hc = hashStep(hc, c);
+    }
+    const ce = k;
+    if (ce === cs || (k < e && buf[k] !== LF)) return -1;
+    this.line++;
+    this.hashedEdge(buf, s, pe, hp, cs, ce, hc);
+    return k + 1;
   }
 
   private readLine(buf: Uint8Array, s: number, e: number): void {
@@ -100,19 +143,33 @@ export class EdgeListReader {
 
   private node(buf: Uint8Array, s: number, e: number, lineStart: number): void {
     if (s === e) throw this.emptyId(lineStart, s);
-    this.idOf(buf, s, e);
+    this.idOf(buf, s, e, hashBytes(ID_SEED, buf, s, e));
   }
 
   private edge(buf: Uint8Array, ps: number, pe: number, cs: number, ce: number, _lineStart: number): void {
+    this.hashedEdge(buf, ps, pe, hashBytes(ID_SEED, buf, ps, pe), cs, ce, hashBytes(ID_SEED, buf, cs, ce));
+  }
+
+  /** The edge from id `buf[ps, pe)` (hash `hp`) to id `buf[cs, ce)` (hash `hc`). */
+  private hashedEdge(
+    buf: Uint8Array,
+    ps: number,
+    pe: number,
+    hp: number,
+    cs: number,
+    ce: number,
+    hc: number,
+  ): void {
     // Edge lists usually list a parent's children together: the same parent as the line before costs a
     // byte comparison, not a lookup.
     const last = this.lastParent;
     const p =
-      last !== -1 && this.sameId(this.idStart[last], this.idSize[last], buf, ps, pe)
+      last !== -1 && hp === this.lastHash && this.sameId(this.idStart[last], this.idSize[last], buf, ps, pe)
         ? last
-        : this.idOf(buf, ps, pe);
+        : this.idOf(buf, ps, pe, hp);
     this.lastParent = p;
-    const c = this.idOf(buf, cs, ce);
+    this.lastHash = hp;
+    const c = this.idOf(buf, cs, ce, hc);
     const k = this.edges;
     if (k === this.from.length) {
       this.from = doubled(this.from);
@@ -125,9 +182,8 @@ export class EdgeListReader {
     this.edges = k + 1;
   }
 
-  /** The node with the id `buf[s, e)`, added on first sight. */
-  private idOf(buf: Uint8Array, s: number, e: number): number {
-    const hash = hashBytes(ID_SEED, buf, s, e);
+  /** The node with the id `buf[s, e)` (`hash`: FNV-1a of its bytes from ID_SEED), added on first sight. */
+  private idOf(buf: Uint8Array, s: number, e: number, hash: number): number {
     const table = this.table;
     const mask = (table.length >> 2) - 1;
     let h = mix(hash) & mask;

@@ -28,40 +28,37 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   const E = graph.edgeCount;
   const { edgeFrom, edgeTo } = graph;
 
-  // Out-edges of each node in input order (a stable counting sort by parent).
+  // Out-edges of each node in input order (a stable counting sort by parent): position j holds edge
+  // out[j] and its child outTo[j], so the walks below read a node's children from one run of one
+  // array. Whether a node has a parent is counted on the way.
   const outStart = new Int32Array(n + 1);
   for (let e = 0; e < E; e++) outStart[edgeFrom[e] + 1]++;
   for (let i = 0; i < n; i++) outStart[i + 1] += outStart[i];
   const out = new Int32Array(E);
-  const fill = outStart.slice(0, n);
-  for (let e = 0; e < E; e++) out[fill[edgeFrom[e]]++] = e;
-
-  // Repeated edges (same parent and child) count once; `live` marks the first of each.
-  const live = new Uint8Array(E);
-  const mark = new Int32Array(n);
+  const outTo = new Int32Array(E);
   const inDegree = new Int32Array(n);
-  for (let u = 0; u < n; u++) {
-    for (let k = outStart[u]; k < outStart[u + 1]; k++) {
-      const e = out[k];
-      const v = edgeTo[e];
-      if (mark[v] === u + 1) {
-        if (graph.repeatedEdges === "error") throw repeatedEdge(graph, e, file);
-        continue;
-      }
-      mark[v] = u + 1;
-      live[e] = 1;
-      inDegree[v]++;
-    }
+  const fill = outStart.slice(0, n);
+  for (let e = 0; e < E; e++) {
+    const j = fill[edgeFrom[e]]++;
+    const v = edgeTo[e];
+    out[j] = e;
+    outTo[j] = v;
+    inDegree[v]++;
   }
+  if (graph.repeatedEdges === "error") refuseRepeats(graph, outStart, out, outTo, file);
+
+  // What each position's edge is: a repeat of an earlier edge from the same parent to the same child
+  // (read once: the first is the edge), and whether it closes a cycle.
+  const kind = new Uint8Array(E);
 
   // Depth-first walk (iterative): back edges close cycles; the finishing order, reversed, is a
-  // topological order of the remaining edges.
+  // topological order of the remaining edges. A repeated edge walks as its first does (its child is
+  // reached by then), so repeats are told apart later.
   const state = new Uint8Array(n); // 0 unreached, 1 on the walk's path, 2 done
   const cursor = new Int32Array(n);
   const finished = new Int32Array(n);
   let finishedCount = 0;
   const stack = new Int32Array(n);
-  const back = new Uint8Array(E);
   const walkFrom = (r: number) => {
     let top = 0;
     stack[0] = r;
@@ -69,17 +66,18 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     cursor[r] = outStart[r];
     while (top >= 0) {
       const u = stack[top];
-      if (cursor[u] === outStart[u + 1]) {
+      const j = cursor[u];
+      if (j === outStart[u + 1]) {
         state[u] = 2;
         finished[finishedCount++] = u;
         top--;
         continue;
       }
-      const e = out[cursor[u]++];
-      if (live[e] === 0) continue;
-      const v = edgeTo[e];
-      if (state[v] === 1) back[e] = 1;
-      else if (state[v] === 0) {
+      cursor[u] = j + 1;
+      const v = outTo[j];
+      const seen = state[v];
+      if (seen === 1) kind[j] = BACK;
+      else if (seen === 0) {
         state[v] = 1;
         cursor[v] = outStart[v];
         stack[++top] = v;
@@ -90,27 +88,37 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   for (let r = 0; r < n; r++) if (state[r] === 0) walkFrom(r);
 
   // Longest path from a top-level node, in topological order; the full entry goes under the deepest
-  // parent (first edge in the input among equals).
-  const layer = new Int32Array(n);
-  const homeEdge = new Int32Array(n).fill(-1);
+  // parent (first edge in the input among equals). Per node, side by side: the position of its
+  // full entry's edge (-1 none yet), its layer, and the last parent (+ 1) whose edges marked it, which
+  // tells a repeated edge (a parent's edges are looked at together).
+  const rec = new Int32Array(3 * n);
+  for (let v = 0; v < n; v++) rec[3 * v] = -1;
+  let live = 0;
   for (let k = n - 1; k >= 0; k--) {
     const u = finished[k];
-    const next = layer[u] + 1;
-    for (let j = outStart[u]; j < outStart[u + 1]; j++) {
-      const e = out[j];
-      if (live[e] === 0 || back[e] === 1) continue;
-      const v = edgeTo[e];
-      if (homeEdge[v] === -1 || next > layer[v] || (next === layer[v] && e < homeEdge[v])) {
-        layer[v] = next;
-        homeEdge[v] = e;
+    const next = rec[3 * u + 1] + 1;
+    for (let j = outStart[u], end = outStart[u + 1]; j < end; j++) {
+      const v = outTo[j];
+      const r = 3 * v;
+      if (rec[r + 2] === u + 1) {
+        kind[j] = REPEAT;
+        continue;
+      }
+      rec[r + 2] = u + 1;
+      live++;
+      if (kind[j] === BACK) continue;
+      const home = rec[r];
+      if (home === -1 || next > rec[r + 1] || (next === rec[r + 1] && out[j] < out[home])) {
+        rec[r + 1] = next;
+        rec[r] = j;
       }
     }
   }
 
   let tops = 0;
-  for (let i = 0; i < n; i++) if (homeEdge[i] === -1) tops++;
+  for (let i = 0; i < n; i++) if (rec[3 * i] === -1) tops++;
   const synthetic = tops !== 1;
-  const slots = n + (synthetic ? 1 : 0) + (liveCount(live) - (n - tops));
+  const slots = n + (synthetic ? 1 : 0) + (live - (n - tops));
 
   // Pre-order layout: entries and references of each node in input order of their edges. A reference's
   // referenceTo holds its node until every entry has its slot, then the slot of that node's entry.
@@ -144,21 +152,22 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   };
   const slotStack = new Int32Array(n);
   for (let r = 0; r < n; r++) {
-    if (homeEdge[r] !== -1) continue;
+    if (rec[3 * r] !== -1) continue;
     let top = 0;
     slotStack[0] = place(r, synthetic ? 0 : -1);
     stack[0] = r;
     while (top >= 0) {
       const u = stack[top];
-      if (cursor[u] === outStart[u + 1]) {
+      const j = cursor[u];
+      if (j === outStart[u + 1]) {
         top--;
         continue;
       }
-      const e = out[cursor[u]++];
-      if (live[e] === 0) continue;
-      const v = edgeTo[e];
+      cursor[u] = j + 1;
+      if (kind[j] === REPEAT) continue;
+      const v = outTo[j];
       const pu = slotStack[top];
-      if (homeEdge[v] === e) {
+      if (rec[3 * v] === j) {
         slotStack[++top] = place(v, pu);
         stack[top] = v;
       } else {
@@ -167,7 +176,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
         depth[s] = depth[pu] + 1;
         from[s] = v;
         referenceTo[s] = v;
-        origin[s] = edgeOrigin[e];
+        origin[s] = edgeOrigin[out[j]];
       }
     }
   }
@@ -200,10 +209,27 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   };
 }
 
-function liveCount(live: Uint8Array): number {
-  let c = 0;
-  for (let e = 0; e < live.length; e++) c += live[e];
-  return c;
+/** Kinds of an edge position (see buildGraphTree): it closes a cycle, or repeats an earlier edge. */
+const BACK = 1;
+const REPEAT = 2;
+
+/** DUPLICATE_ID at the first repeated edge, parent by parent, each parent's edges in input order. */
+function refuseRepeats(
+  graph: GraphNodes,
+  outStart: Int32Array,
+  out: Int32Array,
+  outTo: Int32Array,
+  file: string | undefined,
+): void {
+  const n = outStart.length - 1;
+  const mark = new Int32Array(n);
+  for (let u = 0; u < n; u++) {
+    for (let j = outStart[u]; j < outStart[u + 1]; j++) {
+      const v = outTo[j];
+      if (mark[v] === u + 1) throw repeatedEdge(graph, out[j], file);
+      mark[v] = u + 1;
+    }
+  }
 }
 
 function poolOf(names: NamePool | readonly string[]): NamePool {
