@@ -185,6 +185,8 @@ export class JsonLoader extends JsonTokenizer {
       // Seen only on nodes of the tree: a value a repeated key replaced does not count.
       const column = this.kept[f];
       let seen = false;
+      // Columns are written only where a node has the field: a field no node has stays empty.
+      if (column.length > 0) column.length = sink.length;
       for (let i = 0; i < column.length; i++) {
         if (column[i] === undefined) column[i] = "";
         else seen = true;
@@ -299,7 +301,6 @@ export class JsonLoader extends JsonTokenizer {
       this.sized = grown;
     }
     this.sized[j] = 0;
-    for (const column of this.kept) column.push(undefined);
     return j;
   }
 
