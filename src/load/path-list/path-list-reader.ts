@@ -14,11 +14,20 @@ const newline = 10;
 const cr = 13;
 const tab = 9;
 const space = 32;
+const slash = 47;
+const dot = 46;
+const colon = 58;
+const backslash = 92;
 
 /**
  * A path list read from UTF-8 bytes, whole or in chunks: one "/"-separated path per line, blank lines
  * ignored. When the first non-blank line holds a tab, every line is "size<TAB>path" (as
- * `find -printf '%s\t%p\n'` prints); otherwise a whole line is one path. Origins are line numbers.
+ * `find -printf '%s\t%p\n'` prints); when it is digits, spaces and a path that starts with "/" or
+ * "./" (or is "."), every line is "size<SPACES>path" (`find DIR -printf '%s %p\n'`, `stat -c '%s %n'`:
+ * a relative name never starts so, so the reading is not a guess); otherwise a whole line is one path.
+ * When the first path starts with a drive (`C:\`) or two backslashes (`\\server`), the list is a
+ * Windows one (`dir /s /b`): every path is split on "\" (which no Windows name holds; "/" neither).
+ * Origins are line numbers.
  * A size with an empty path names the root (`find DIR -printf '%s\t%P\n'` prints the starting folder
  * so): every top-level path goes below it. With `nulSeparated`, entries end with a NUL byte instead
  * (`find -print0`, `git ls-files -z`), so a name may hold a line break; nothing is stripped but
@@ -40,6 +49,10 @@ export class PathListReader {
   /** Longest line, in bytes (read-limits.ts): a line that never ends stops there, not in memory. */
   private readonly maxLineBytes: number;
   private sized: boolean | undefined;
+  /** The byte after a line's size: a tab, or a space (then any further spaces are skipped too). */
+  private sizeEnd = tab;
+  /** Whether paths are split on "\" (a Windows listing), decided by the first path. */
+  private backslashes: boolean | undefined;
   private firstLine = 0;
   private line = 0;
   private readonly placer: PathPlacer;
@@ -191,6 +204,10 @@ export class PathListReader {
     if (this.sized === undefined) {
       const t = bytes.indexOf(tab, start);
       this.sized = t !== -1 && t < end;
+      if (!this.sized && spaceSized(bytes, start, end)) {
+        this.sized = true;
+        this.sizeEnd = space;
+      }
       this.firstLine = line;
     }
     if (this.sized) {
@@ -202,15 +219,17 @@ export class PathListReader {
         if (d < 0 || d > 9) break;
         value = value * 10 + d;
       }
+      const sizeEnd = this.sizeEnd;
       let at = k;
-      if (k > start && k - start <= 15 && k < end && bytes[k] === tab) {
+      if (k > start && k - start <= 15 && k < end && bytes[k] === sizeEnd) {
         size = value;
       } else {
-        at = bytes.indexOf(tab, start);
+        at = bytes.indexOf(sizeEnd, start);
         if (at === -1 || at >= end) {
+          const what = sizeEnd === tab ? "a tab" : "a space";
           throw new EspalierError(
             "PARSE_PATHS",
-            `line ${line} has no size column before a tab, unlike line ${this.firstLine}`,
+            `line ${line} has no size column before ${what}, unlike line ${this.firstLine}`,
             { line, column: 1 },
           );
         }
@@ -225,11 +244,38 @@ export class PathListReader {
         }
       }
       pathStart = at + 1;
+      if (sizeEnd === space) while (pathStart < end && bytes[pathStart] === space) pathStart++;
     }
-    let i = this.placer.place(bytes, view, pathStart, end, line);
+    if (this.backslashes === undefined) this.backslashes = windowsPath(bytes, pathStart, end);
+    let i = this.backslashes
+      ? this.placer.placeText(bytes.toString("utf8", pathStart, end).replaceAll("\\", "/"), line)
+      : this.placer.place(bytes, view, pathStart, end, line);
     if (i === -1) i = this.placer.placeRoot(line);
     this.sink.ownSize[i] = size;
   }
+}
+
+/**
+ * Whether `bytes[start, end)` is a size, spaces and a path that starts with "/" or "./" or is ".": the
+ * first line of `find DIR -printf '%s %p\n'` (DIR absolute or "."). A plain path list's first name
+ * could start with digits and a space ("2019 survey/a.jpg"), but then no "/" or "./" follows the spaces.
+ */
+function spaceSized(bytes: Buffer, start: number, end: number): boolean {
+  let k = start;
+  while (k < end && k - start < 16 && bytes[k] >= 48 && bytes[k] <= 57) k++;
+  if (k === start || k - start > 15 || k >= end || bytes[k] !== space) return false;
+  while (k < end && bytes[k] === space) k++;
+  if (k >= end) return false;
+  if (bytes[k] === slash) return true;
+  return bytes[k] === dot && (k + 1 === end || bytes[k + 1] === slash);
+}
+
+/** Whether a path starts as a Windows one: a drive letter, ":" and "\", or "\\" (a network share). */
+function windowsPath(bytes: Buffer, start: number, end: number): boolean {
+  if (end - start < 3) return false;
+  const c = bytes[start] | 0x20;
+  if (c >= 97 && c <= 122 && bytes[start + 1] === colon && bytes[start + 2] === backslash) return true;
+  return bytes[start] === backslash && bytes[start + 1] === backslash;
 }
 
 function isBlank(bytes: Buffer, start: number, end: number): boolean {

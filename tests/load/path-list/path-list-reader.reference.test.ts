@@ -30,22 +30,28 @@ const SEGMENTS = [
   "~1",
 ];
 
-/** A path list: sized or not, LF or CRLF, blank lines, absolute or relative, directories after contents. */
+/**
+ * A path list: sized or not (the size before a tab or spaces), LF or CRLF, blank lines, absolute or
+ * relative, directories after contents.
+ */
 function pathList(r: Rng, lines: number): string {
   const sized = r.chance(0.5);
+  // find -printf '%s %p\n' separates the size by a space (read so when the paths start with / or ./).
+  const gap = r.pick(["\t", " ", "  "]);
   const eol = r.chance(0.5) ? "\n" : "\r\n";
   const seen = new Set<string>();
   const out: string[] = [];
-  const lead = r.pick(["", "/", "./"]);
+  const lead = r.pick(["", "/", "./", "C:\\"]);
   for (let k = 0; k < lines; k++) {
     const depth = r.int(1, 4);
     const parts = Array.from({ length: depth }, () => r.pick(SEGMENTS));
-    let path = lead + parts.join("/");
+    // A Windows listing (dir /s /b) separates by "\\".
+    let path = lead + parts.join(lead === "C:\\" ? "\\" : "/");
     if (r.chance(0.1)) path += "/";
     if (seen.has(path.replace(/\/+$/, ""))) continue;
     seen.add(path.replace(/\/+$/, ""));
     if (r.chance(0.1)) out.push(r.pick(["", "  ", "\t"]));
-    out.push(sized ? `${r.pick(["0", "12", "4096", "1.5", "1e3"])}\t${path}` : path);
+    out.push(sized ? `${r.pick(["0", "12", "4096", "1.5", "1e3"])}${gap}${path}` : path);
   }
   const text = out.join(eol);
   return r.chance(0.5) ? text + eol : text;

@@ -9,7 +9,9 @@ import { PathPlacer } from "./path-placer-text.js";
 /**
  * Reads a path list a line at a time: one "/"-separated path per line, blank lines ignored. When the first
  * non-blank line holds a tab, every line is "size<TAB>path" (as `find -printf '%s\t%p\n'` prints);
- * otherwise a whole line is one path. Origins are line numbers.
+ * when it is digits, spaces and a path starting with "/" or "./" (or "."), every line is
+ * "size<SPACES>path" (`find DIR -printf '%s %p\n'`); otherwise a whole line is one path. A first
+ * path starting with a drive (`C:\`) or `\\` makes every path split on "\". Origins are line numbers.
  *
  * The reader on text espalier had before every path list was read as bytes, kept as a reference answer
  * for `PathListReader` (tests/load/path-list/path-list-reader.reference.test.ts).
@@ -18,6 +20,8 @@ export class PathListTextReader {
   private readonly sink: NodeSink;
   private readonly index: PathPlacer;
   private sized: boolean | undefined;
+  private separator = "\t";
+  private windows: boolean | undefined;
   private firstLine = 0;
   private line = 0;
   private root = -1;
@@ -74,15 +78,20 @@ export class PathListTextReader {
     let pathStart = start;
     let size = 0;
     if (this.sized === undefined) {
-      this.sized = text.slice(start, end).includes("\t");
+      const first = text.slice(start, end);
+      this.sized = first.includes("\t");
+      if (!this.sized && /^[0-9]{1,15} +(\/|\.\/|\.$)/.test(first)) {
+        this.sized = true;
+        this.separator = " ";
+      }
       this.firstLine = line;
     }
     if (this.sized) {
-      const tab = text.indexOf("\t", start);
+      const tab = text.indexOf(this.separator, start);
       if (tab === -1 || tab >= end) {
         throw new EspalierError(
           "PARSE_PATHS",
-          `line ${line} has no size column before a tab, unlike line ${this.firstLine}`,
+          `line ${line} has no size column before ${this.separator === " " ? "a space" : "a tab"}, unlike line ${this.firstLine}`,
           { line, column: 1 },
         );
       }
@@ -96,8 +105,12 @@ export class PathListTextReader {
         );
       }
       pathStart = tab + 1;
+      if (this.separator === " ") while (pathStart < end && text[pathStart] === " ") pathStart++;
     }
-    const i = this.index.place(text, pathStart, end, line);
+    if (this.windows === undefined) this.windows = /^([A-Za-z]:\\|\\\\)/.test(text.slice(pathStart, end));
+    const i = this.windows
+      ? this.index.place(text.slice(pathStart, end).replaceAll("\\", "/"), 0, end - pathStart, line)
+      : this.index.place(text, pathStart, end, line);
     for (let k = this.firstSeen.length; k < this.sink.length; k++) this.firstSeen.push(line);
     if (i === -1) {
       if (this.root !== -1) {

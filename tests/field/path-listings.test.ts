@@ -1,0 +1,96 @@
+import { describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+
+// Field tests: file listings as find and stat print them with a space (not a tab) between the size
+// and the path (`find DIR -printf '%s %p\n'`, `stat -c '%s %n'`), reduced to the invented tidewater
+// monorepo. Read as plain paths, the size would become part of the first name and the summary would
+// show no sizes at all, with exit 0.
+
+async function run(stdin: string, args: string[] = []) {
+  return cli(["-", "--input-format", "paths", "--format", "json", "--budget", "100", ...args], { stdin });
+}
+
+function paths(node: { path: string; children: unknown[] }): string[] {
+  return [node.path, ...(node.children as (typeof node)[]).flatMap(paths)];
+}
+
+describe("a listing of sizes and absolute paths separated by a space", () => {
+  const listing = [
+    "4096 /srv/tidewater",
+    "4096 /srv/tidewater/ledger",
+    "1200 /srv/tidewater/ledger/main.c",
+    "300 /srv/tidewater/ledger/read me.txt",
+    "57 /srv/tidewater/VERSION",
+    "",
+  ].join("\n");
+
+  it("reads the number before the first space as the size, the rest of the line as the path", async () => {
+    const result = await run(listing);
+    expect(result.stderr).toBe("");
+    const json = JSON.parse(result.stdout);
+    // 4096 + 4096 + 1200 + 300 + 57 (awk '{s+=$1} END {print s}' on the listing).
+    expect(json.totals).toEqual({ nodes: 7, size: 9749 });
+    expect(json.input.sizeUnit).toBe("bytes");
+    expect(paths(json.root)).toEqual([
+      "",
+      "srv",
+      "srv/tidewater",
+      "srv/tidewater/ledger",
+      "srv/tidewater/ledger/main.c",
+      "srv/tidewater/ledger/read me.txt",
+      "srv/tidewater/VERSION",
+    ]);
+  });
+
+  it("reads `find .` paths the same way, and a path that holds spaces keeps them", async () => {
+    const result = await run("4096 .\n12 ./a b/c d\n7 ./e\n");
+    const json = JSON.parse(result.stdout);
+    expect(json.totals).toEqual({ nodes: 4, size: 4115 });
+    expect(paths(json.root)).toEqual(["", "a b", "a b/c d", "e"]);
+  });
+
+  it("says which line lacks the size when a later line has none", async () => {
+    const result = await run("4096 /srv\n/srv/ledger\n");
+    expect(result.code).toBe(2);
+    expect(result.stderr).toMatch(/^espalier: <stdin>:2:1: .*line 1.*\[PARSE_PATHS\]\n$/);
+  });
+
+  it("leaves a plain path list whose names start with digits as names (no slash or ./ after the space)", async () => {
+    const json = JSON.parse(
+      (await run("2019 harbor survey/photo.jpg\n2020 harbor survey/photo.jpg\n")).stdout,
+    );
+    expect(json.totals.nodes).toBe(5);
+    expect(paths(json.root)).toContain("2019 harbor survey/photo.jpg");
+  });
+});
+
+describe("a Windows listing (dir /s /b, or sizes and full names from PowerShell)", () => {
+  it("splits the paths on backslashes, the drive the root, so folders count and fold", async () => {
+    const listing = [
+      "C:\\tidewater\\ledger\\main.c",
+      "C:\\tidewater\\ledger\\book.c",
+      "C:\\tidewater\\VERSION",
+      "",
+    ].join("\r\n");
+    const json = JSON.parse((await run(listing)).stdout);
+    // C:, tidewater, ledger and its 2 files, VERSION: 6 nodes (was 3 top-level names, no folders).
+    expect(json.totals.nodes).toBe(6);
+    expect(json.root.name).toBe("C:");
+    expect(paths(json.root)).toEqual([
+      "",
+      "tidewater",
+      "tidewater/ledger",
+      "tidewater/ledger/main.c",
+      "tidewater/ledger/book.c",
+      "tidewater/VERSION",
+    ]);
+  });
+
+  it("reads a size before a tab too, and a network share under a root named /", async () => {
+    const sized = JSON.parse((await run("40\tD:\\quay\\a.txt\n2\tD:\\quay\\b.txt\n")).stdout);
+    expect(sized.totals).toEqual({ nodes: 4, size: 42 });
+    const share = JSON.parse((await run("\\\\harbor\\docs\\a.txt\n")).stdout);
+    expect(share.root.name).toBe("/");
+    expect(paths(share.root)).toEqual(["", "harbor", "harbor/docs", "harbor/docs/a.txt"]);
+  });
+});
