@@ -25,6 +25,8 @@ export function editsAllowed(n: number): number {
 interface Candidate {
   text: string;
   score: number;
+  /** How far the compared text's length is from the typed one's: at equal distance, nearer comes first. */
+  gap: number;
   /** 0 for a whole path or an id, 1 for a path with leading segments left out. */
   partial: number;
   depth: number;
@@ -37,7 +39,9 @@ interface Candidate {
  * every node's whole path, every id, its name and its last k segments for a spec of k segments (so a
  * missing or wrong ancestor, or a bare name, still finds the node). The search fills at most
  * {@link MAX_SUGGEST_WORK} cells of distance tables. A glob is compared without its leading `**` segments, and
- * only when no `*` is left. Ties: whole paths and ids before partial ones, shallower, then input order.
+ * only when no `*` is left. Ties: the text whose length is nearer the typed one's (`vitset` suggests
+ * `vitest` before `vite`, both 2 edits away), then whole paths and ids before partial ones, shallower,
+ * then input order.
  * Paths, names and ids are compared as `names` prints them: what the user who typed the spec has seen.
  */
 export function suggestFoci(index: PathIndex, spec: string, names: PrintedNames): string[] {
@@ -82,12 +86,21 @@ export function suggestFoci(index: PathIndex, spec: string, names: PrintedNames)
       const length = ends[d] - ends[d - j] - (d - j > 0 ? 1 : 0);
       if (Math.abs(length - typed) > worst) continue;
       const score = scoreOf(segs, d - j + 1, d, length, whole, worst);
-      if (score <= worst) offer({ text: "", score, partial: j === d ? 0 : 1, depth: d, node: i });
+      if (score <= worst)
+        offer({
+          text: "",
+          score,
+          gap: Math.abs(length - typed),
+          partial: j === d ? 0 : 1,
+          depth: d,
+          node: i,
+        });
     }
     const id = names.idOf(i);
     if (id && Math.abs(id.length - typed) <= worst) {
       const score = textScore(id.toLowerCase(), whole, worst);
-      if (score <= worst) offer({ text: id, score, partial: 0, depth: d, node: i });
+      if (score <= worst)
+        offer({ text: id, score, gap: Math.abs(id.length - typed), partial: 0, depth: d, node: i });
     }
     if (distanceWork.cells - start > MAX_SUGGEST_WORK) break;
   }
@@ -144,7 +157,7 @@ function longScore(head: string, tail: string, length: number, typed: string, ma
 }
 
 function byRank(a: Candidate, b: Candidate): number {
-  return a.score - b.score || a.partial - b.partial || a.depth - b.depth || a.node - b.node;
+  return a.score - b.score || a.gap - b.gap || a.partial - b.partial || a.depth - b.depth || a.node - b.node;
 }
 
 /**

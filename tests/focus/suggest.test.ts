@@ -59,6 +59,15 @@ describe("suggestFoci(index, spec, view)", () => {
     expect(near[0]).toBe("services/ledger/src");
   });
 
+  it("breaks a tie in distance by the nearer length: vitset suggests vitest before vite", () => {
+    // Both are 2 edits from "vitset" (fastest-levenshtein, the library the ranking is checked against);
+    // "vite" comes first in the input, so input order alone would put it first.
+    const deps = makeTree("tidewater{vite,vitest}");
+    expect(distance("vitset", "vite")).toBe(2);
+    expect(distance("vitset", "vitest")).toBe(2);
+    expect(suggest(deps, "vitset")).toEqual(["vitest", "vite"]);
+  });
+
   it("suggests nothing rather than something unrelated (**/chia is not ajv-shim)", () => {
     expect(suggest(repo, "**/chia")).toEqual([]);
     expect(suggest(repo, "quillfeather/payroll")).toEqual([]);
