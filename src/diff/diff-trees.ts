@@ -15,8 +15,9 @@ import { diffOrder } from "./diff-order.js";
 import { buildDiffView, type DiffViewNode } from "./diff-view.js";
 import { comparedFields } from "./field-edits.js";
 import { alignGraphRoots, distinctNodes, graphCombined, isGraphDiff, matchGraphs } from "./graph-changes.js";
-import { matchTrees } from "./match.js";
+import { type Matching, matchTrees } from "./match.js";
 import { type ChangeMeasures, changesIn, measureChanges, netIn } from "./measure-changes.js";
+import { withPathIds } from "./path-ids.js";
 import { type DiffTotals, PreparedDiff } from "./prepared-diff.js";
 import { subtreeCounts } from "./subtree-counts.js";
 
@@ -61,13 +62,18 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
   const newCount = subtreeCounts(newTree);
   let combined: Combined;
   if (graph) {
-    // Graphs: full entries matched by id, references by their edges; kinds of change by edges.
-    const { matching, oldEdges, newEdges } = matchGraphs(oldTree, oldCount, newTree, newCount);
+    // Graphs: full entries matched by id, references by their edges; kinds of change by edges. Nodes
+    // read from YAML have references (aliases) but no ids: their paths serve, and they match by path.
+    const byPath = oldTree.ids === null && newTree.ids === null;
+    const oldKeyed = byPath ? withPathIds(oldTree) : oldTree;
+    const newKeyed = byPath ? withPathIds(newTree) : newTree;
+    const found = matchGraphs(oldKeyed, oldCount, newKeyed, newCount);
+    const matching: Matching = byPath ? { ...found.matching, by: "path" } : found.matching;
     combined = graphCombined(
-      combine(oldTree, oldCount, newTree, newCount, matching, compared),
+      combine(oldKeyed, oldCount, newKeyed, newCount, matching, compared),
       matching,
-      oldEdges,
-      newEdges,
+      found.oldEdges,
+      found.newEdges,
     );
   } else {
     combined = combine(

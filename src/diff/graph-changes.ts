@@ -54,14 +54,8 @@ export function matchGraphs(
   newCount: Int32Array,
 ): { matching: Matching; oldEdges: Edges; newEdges: Edges } {
   if (!oldTree.ids || !newTree.ids) {
-    // A tree with references but no ids: a YAML document read as nodes whose aliases are used again.
-    if (oldTree.reading?.shape === "nodes" || newTree.reading?.shape === "nodes")
-      throw new EspalierError(
-        "USAGE",
-        "a YAML document whose aliases are used more than once holds references, and references are compared by node ids, which nodes read from YAML do not have: such versions compare only read as values (--read-as values: every key and item a node sized by its bytes, an alias a leaf of its own text)",
-        undefined,
-        { remedies: ["--read-as values"] },
-      );
+    // One version has ids (a graph) and the other none (a tree, or YAML nodes whose paths serve as ids
+    // only when both versions are such: see prepareDiff).
     throw new EspalierError(
       "USAGE",
       "a graph is compared by node ids: give both versions as graphs (edge lists, adjacency maps or tables with --graph)",

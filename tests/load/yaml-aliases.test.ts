@@ -163,21 +163,45 @@ describe("YAML aliases read as values: a leaf of its own text", () => {
 });
 
 describe("espalier diff of YAML documents with reused aliases", () => {
-  it("is a USAGE error saying to compare them read as values, and works so", async () => {
+  // Two versions of an invented tidewater document: the anchored ledger's child grows, and a third
+  // parent starts using the alias. Read as nodes, each version has references (aliases) and no ids.
+  const before = [
+    "name: tidewater",
+    "children:",
+    "  - &ledger {name: ledger, size: 10, children: [{name: book, size: 5}]}",
+    "  - name: harbor",
+    "    children: [*ledger]",
+    "  - name: quay",
+    "    size: 3",
+    "",
+  ].join("\n");
+  const after = before
+    .replace("{name: book, size: 5}", "{name: book, size: 7}")
+    .replace("    size: 3\n", "    size: 3\n    children: [*ledger]\n");
+
+  it("compares them as graphs by path: the full entry's change once, a new alias use as linked", () => {
+    const diff = prepareDiff(yaml(before), yaml(after));
+    // Totals as the yaml package reads each version (distinct nodes, each size once).
+    expect(diff.totals.old).toEqual(distinctNodes(before));
+    expect(diff.totals.new).toEqual(distinctNodes(after));
+    expect(diff.totals.old).toEqual({ nodes: 5, size: 18 });
+    expect(diff.totals.changes).toMatchObject({ resized: 1, linked: 1, added: 0, removed: 0, unlinked: 0 });
+    expect(diff.totals.delta).toBe(2);
+  });
+
+  it("prints the diff by path, with --fail-on-change status 1, and none for equal versions", async () => {
     const { cli } = await import("../helpers/cli.js");
-    const before = "name: r\nchildren:\n  - &a {name: a, size: 1}\n  - *a\n";
-    const after = "name: r\nchildren:\n  - &a {name: a, size: 12}\n  - *a\n"; // a value of other bytes
     const files = { "a.yaml": before, "b.yaml": after };
-    const nodes = await cli(["diff", "a.yaml", "b.yaml"], { files });
-    expect(nodes.code).toBe(2);
-    expect(nodes.stderr).toMatch(/\[USAGE\]\n$/);
-    let refused: unknown;
-    try {
-      prepareDiff(yaml(before), yaml(after));
-    } catch (err) {
-      refused = err;
-    }
-    expect(refused).toMatchObject({ code: "USAGE", details: { remedies: ["--read-as values"] } });
+    const result = await cli(["diff", "a.yaml", "b.yaml", "--fail-on-change"], { files });
+    expect(result.stderr).toBe("");
+    expect(result.code).toBe(1);
+    expect(result.stdout.split("\n")[0]).toMatch(
+      /^diff by path: .*1 resized, 1 linked, 0 unlinked; 5 -> 5 nodes, size 18 -> 20 \(net \+2\)/,
+    );
+    expect(result.stdout).toContain("& [linked] ledger  full entry at ledger");
+    const same = await cli(["diff", "a.yaml", "a.yaml", "--fail-on-change"], { files });
+    expect(same.code, same.stderr).toBe(0);
+    // Read as values, an alias is a leaf of its own text, as before.
     const values = await cli(["diff", "a.yaml", "b.yaml", "--read-as", "values", "--fail-on-change"], {
       files,
     });
