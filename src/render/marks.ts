@@ -24,14 +24,14 @@ export const LEGEND_LINES = { summary: 2, diff: 3 } as const;
 export function legendLines(kind: "summary" | "diff"): string[] {
   const path = kind === "diff" ? "a change or on the way to a focus or change" : "on the way to a focus";
   const lines = [
-    `marks: ${MARK.focus} focus, ${MARK.path} ${path}, ${MARK.other} other; a / b: b is a's only child, the line's numbers and fold are b's`,
+    `marks: ${MARK.focus} focus, ${MARK.path} ${path}, ${MARK.other} other, ${MARK.reference} a reference (a node with several parents: its full entry is at the path shown; counts no node); a / b: b is a's only child, the line's numbers and fold are b's`,
     kind === "diff"
       ? "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1), removed nodes included; no count: 1 node; sizes are NEW's"
       : "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1); no count: 1 node",
   ];
   if (kind === "diff")
     lines.push(
-      "changes: [added] [removed] [moved from PARENT] [renamed from NAME] [edited FIELD OLD -> NEW] [resized ±SIZE] stand before the name; net ±SIZE: the subtree's size change",
+      "changes: [added] [removed] [moved from PARENT] [renamed from NAME] [edited FIELD OLD -> NEW] [resized ±SIZE] [linked] [unlinked] (a parent gained, lost) stand before the name; net ±SIZE: the subtree's size change",
     );
   return lines;
 }

@@ -41,10 +41,10 @@ describe("MARK and legendLines(kind)", () => {
     for (const kind of ["summary", "diff"] as const) {
       const lines = legendLines(kind);
       expect(lines).toHaveLength(LEGEND_LINES[kind]);
-      for (const m of [MARK.focus, MARK.path, MARK.other]) expect(lines[0]).toContain(` ${m} `);
+      for (const m of Object.values(MARK)) expect(lines[0]).toContain(` ${m} `);
     }
-    for (const kind of ["added", "removed", "moved", "renamed", "edited", "resized"])
-      expect(legendLines("diff").join(" ")).toContain(`[${kind}`);
+    // Every kind a diff line can carry, the graphs' edge kinds included.
+    for (const kind of changeKinds) expect(legendLines("diff").join(" ")).toContain(`[${kind}`);
   });
 
   it("says in the diff legend that counts include removed nodes, as the lines' arithmetic does", () => {
