@@ -6,6 +6,7 @@ import {
   isSeq,
   LineCounter,
   type Node,
+  parseAllDocuments,
   parseDocument,
   Scalar,
   visit,
@@ -55,9 +56,13 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
       );
     }
     if (error.code === "MULTIPLE_DOCS") {
+      // Several documents (a stream of manifests): each one's values under the root, when values are
+      // what is read; nodes, rows and graphs come in one document.
+      if (options.readAs !== "nodes" && !options.graph && options.childrenFieldNamed !== true)
+        return documentValues(text, options);
       throw new EspalierError(
         "PARSE_YAML",
-        "a second YAML document starts here (after ---); espalier reads one document per input: split the file",
+        "a second YAML document starts here (after ---); nodes, rows and graphs are read from one document per input: split the file, or read every document's values with --read-as values",
         pos,
       );
     }
@@ -201,7 +206,7 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
   const reading = chooseReading(sampleNested<YamlValue>(root, access), options);
   switch (reading.kind) {
     case "values":
-      return yamlValues(root as Node, text, lineCounter, options);
+      return yamlValues([root as Node], text, lineCounter, options);
     case "rows": {
       const items = access.items(root);
       // A row's fault at its cell's value (or the row itself), as the parser places them.
@@ -240,6 +245,33 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
         reading.found,
       );
   }
+}
+
+/**
+ * A YAML stream of several documents read as values: each document a child of the root named by its
+ * index (`0`, `1`, …), holding its values; a document's size is its text's, the markers between them
+ * the root's own. The first error of any document is reported as one document's would be.
+ */
+function documentValues(text: string, options: LoadOptions): LinkedNodes {
+  const lineCounter = new LineCounter();
+  const docs = parseAllDocuments(text, { lineCounter, uniqueKeys: true });
+  if (!Array.isArray(docs)) throw new EspalierError("INPUT_EMPTY", "the YAML document holds no value");
+  for (const doc of docs) {
+    const error = doc.errors[0];
+    if (error === undefined) continue;
+    const at = error.linePos?.[0] ?? lineCounter.linePos(error.pos[0]);
+    const reason = error.message.replace(/ at line \d+, column \d+:.*$/s, "");
+    throw new EspalierError("PARSE_YAML", say`invalid YAML (${error.code}): ${quoted.excerpt(reason)}`, {
+      line: at.line,
+      column: at.col,
+    });
+  }
+  return yamlValues(
+    docs.map((doc) => doc.contents as Node | null),
+    text,
+    lineCounter,
+    options,
+  );
 }
 
 /**

@@ -12,9 +12,10 @@ import { NodeSink } from "./node-sink.js";
  * is the UTF-8 byte length of its source text, so a node's own size is what its text holds beyond its
  * children's values; the root is the whole document (comments and markers too), so its size is the
  * document's. Merge keys are entries like any other here (`<<`): the bytes are where they are written.
+ * Several documents (a YAML stream) are the root's children, named by index, as a sequence's items.
  */
 export function yamlValues(
-  root: Node,
+  documents: readonly (Node | null)[],
   text: string,
   lineCounter: LineCounter,
   options: LoadOptions,
@@ -26,14 +27,21 @@ export function yamlValues(
   const lengthOf = (v: Node | null) => (v?.range ? toBytes(v.range[1]) - toBytes(v.range[0]) : 0);
 
   // Each node's value, visited in the order nodes are added (pre-order by index).
-  const pending: (Node | null)[] = [root];
-  sink.add(-1, options.rootName, lineOf(root));
+  const stream = documents.length > 1;
+  const pending: (Node | null)[] = [stream ? null : documents[0]];
+  sink.add(-1, options.rootName, stream ? 1 : lineOf(documents[0]));
   for (let i = 0; i < sink.length; i++) {
     const v = pending[i];
     pending[i] = null;
     const own = i === 0 ? Buffer.byteLength(text, "utf8") : lengthOf(v);
     let inner = 0;
-    if (!isAlias(v) && isMap(v)) {
+    if (i === 0 && stream) {
+      documents.forEach((doc, k) => {
+        const j = sink.add(i, String(k), lineOf(doc));
+        pending[j] = doc;
+        inner += lengthOf(doc);
+      });
+    } else if (!isAlias(v) && isMap(v)) {
       for (const pair of v.items) {
         const value = (pair.value ?? null) as Node | null;
         const j = sink.add(i, keyText(pair.key), lineOf(value) || lineOf(pair.key as Node | null));

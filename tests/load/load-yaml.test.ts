@@ -1,3 +1,4 @@
+import { Buffer } from "node:buffer";
 import { describe, expect, it } from "vitest";
 import { loadTree } from "../../src/load/index.js";
 import { caught, opts, outline } from "./helpers.js";
@@ -147,8 +148,26 @@ describe("loadTree(yaml) merge keys", () => {
     expect(tree.ownSize[0]).toBe(3);
   });
 
-  it("loadTree(yaml) refuses a second document as PARSE_YAML at the --- that starts it", () => {
-    const error = caught(() => yaml("name: r\nsize: 1\n---\nname: s\n"));
+  it("loadTree(yaml) refuses a second document read as nodes as PARSE_YAML at the --- that starts it", () => {
+    const error = caught(() => yaml("name: r\nsize: 1\n---\nname: s\n", { readAs: "nodes" }));
     expect([error.code, error.pos]).toEqual(["PARSE_YAML", { line: 3, column: 1 }]);
+  });
+
+  it("loadTree(yaml) reads several documents as values, each a child of the root named by index", () => {
+    const text = "name: r\nsize: 1\n---\nname: s\n";
+    const tree = yaml(text, { rootName: "two.yaml" });
+    expect(tree.reading?.shape).toBe("values");
+    // Own sizes in bytes of source text (28 in all): a block mapping's text runs to the end of its last
+    // line, so document 0 is "name: r\nsize: 1\n" (16 bytes, 2 of them its values), document 1
+    // "name: s\n" (8, 1 its value), and the root holds the "---\n" between them (4).
+    expect(outline(tree)).toEqual([
+      "two.yaml 4",
+      "  0 14",
+      "    name 1",
+      "    size 1",
+      "  1 7",
+      "    name 1",
+    ]);
+    expect(Buffer.byteLength(text)).toBe(4 + 14 + 1 + 1 + 7 + 1);
   });
 });
