@@ -145,7 +145,7 @@ function parentsOf(prepared: Prepared, selection: Selection): ParentsOf | undefi
     const p = tree.parent[i];
     const own = p >= 0 && !(p === 0 && tree.syntheticRoot) ? 1 : 0;
     let hidden = 0;
-    for (let k = refs.start[i]; k < refs.start[i + 1]; k++) if (selection.shown[refs.refs[k]] === 0) hidden++;
+    for (let k = refs.start[i]; k < refs.start[i + 1]; k++) if (!selection.isShown(refs.refs[k])) hidden++;
     const count = own + refs.start[i + 1] - refs.start[i];
     return count >= 2 ? { count, hidden } : undefined;
   };
