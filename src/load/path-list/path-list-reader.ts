@@ -8,6 +8,7 @@ import { NodeSink } from "../node-sink.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer, viewOf } from "../path-placer.js";
 import { limitsOf, tooLong } from "../read-limits.js";
+import { type FolderSizes, folderTotals } from "./folder-totals.js";
 
 const newline = 10;
 const cr = 13;
@@ -44,6 +45,8 @@ export class PathListReader {
   private readonly placer: PathPlacer;
   /** The byte that ends an entry: "\n", or NUL. */
   private readonly separator: number;
+  /** How folders' sizes count (folder-totals.ts); undefined: decided by the listing. */
+  private readonly folderSizes: FolderSizes | undefined;
 
   constructor(options: LoadOptions) {
     checkNoNamedFields(options, "paths");
@@ -52,6 +55,7 @@ export class PathListReader {
     this.rootName = options.rootName;
     this.maxLineBytes = limitsOf(options.limits).maxLineBytes;
     this.separator = options.nulSeparated === true ? 0 : newline;
+    this.folderSizes = options.folderSizes;
   }
 
   /**
@@ -102,9 +106,29 @@ export class PathListReader {
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the path list names no paths");
     sink.hasSizes = this.sized === true;
-    const root = this.placer.adoptTopLevel();
+    const placer = this.placer;
+    const root = placer.adoptTopLevel();
     if (root !== -1) sink.name.setString(root, this.rootName);
-    return sink.finish(this.rootName, new Map(), null, { shape: "paths", sizeUnit: "bytes" });
+    const totals =
+      sink.hasSizes &&
+      folderTotals(
+        {
+          length: sink.length,
+          parentOf: sink.parentOf,
+          ownSize: sink.ownSize,
+          origin: sink.origin,
+          isListed: (i) => placer.isListed(i),
+          pathOf: (i) => pathOf(sink, i, root),
+        },
+        root,
+        placer,
+        this.folderSizes,
+      );
+    return sink.finish(this.rootName, new Map(), null, {
+      shape: "paths",
+      sizeUnit: "bytes",
+      ...(totals ? { folderTotals: true } : {}),
+    });
   }
 
   /**
@@ -214,4 +238,12 @@ function isBlank(bytes: Buffer, start: number, end: number): boolean {
     if (c !== space && c !== tab) return false;
   }
   return true;
+}
+
+/** The path of node `i` as a listing names it: names from below the root joined by "/". */
+function pathOf(sink: NodeSink, i: number, root: number): string {
+  const names: string[] = [];
+  for (let k = i; k !== -1 && k !== root; k = sink.parentOf[k]) names.push(sink.name.get(k));
+  names.reverse();
+  return names[0] === "/" ? `/${names.slice(1).join("/")}` : names.join("/");
 }

@@ -3,6 +3,7 @@ import type { LoadOptions } from "../../../src/load/load-options.js";
 import { NodeSink } from "../../../src/load/node-sink.js";
 import { parseSize } from "../../../src/load/parse-size.js";
 import type { LinkedNodes } from "../../../src/model/linked-nodes.js";
+import { folderTotalsByReference } from "./folder-totals-reference.js";
 import { PathPlacer } from "./path-placer-text.js";
 
 /**
@@ -20,10 +21,16 @@ export class PathListTextReader {
   private firstLine = 0;
   private line = 0;
   private root = -1;
+  private readonly folderSizes: "own" | "total" | undefined;
+  /** The line that named each listed node. */
+  private readonly listedAt = new Map<number, number>();
+  /** The line each node was first made on. */
+  private readonly firstSeen: number[] = [];
 
   constructor(options: LoadOptions) {
     this.sink = new NodeSink(options.maxNodes, false);
     this.index = new PathPlacer(this.sink);
+    this.folderSizes = options.folderSizes;
   }
 
   /**
@@ -50,7 +57,13 @@ export class PathListTextReader {
         if (sink.parentOf[i] === -1 && i !== this.root) sink.parentOf[i] = this.root;
       sink.name.setString(this.root, rootName);
     }
-    return sink.finish(rootName, new Map());
+    const totals =
+      sink.hasSizes && folderTotalsByReference(sink, this.listedAt, this.firstSeen, this.folderSizes);
+    return sink.finish(rootName, new Map(), null, {
+      shape: "paths",
+      sizeUnit: "bytes",
+      ...(totals ? { folderTotals: true } : {}),
+    });
   }
 
   /** One line, `text[start, end)` without its "\n". */
@@ -85,6 +98,7 @@ export class PathListTextReader {
       pathStart = tab + 1;
     }
     const i = this.index.place(text, pathStart, end, line);
+    for (let k = this.firstSeen.length; k < this.sink.length; k++) this.firstSeen.push(line);
     if (i === -1) {
       if (this.root !== -1) {
         throw new EspalierError(
@@ -94,9 +108,12 @@ export class PathListTextReader {
         );
       }
       this.root = this.sink.add(-1, "", line);
+      this.firstSeen.push(line);
+      this.listedAt.set(this.root, line);
       this.sink.ownSize[this.root] = size;
       return;
     }
+    this.listedAt.set(i, line);
     this.sink.ownSize[i] = size;
   }
 }
