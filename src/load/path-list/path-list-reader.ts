@@ -58,6 +58,11 @@ export class PathListReader {
   private readonly placer: PathPlacer;
   /** The byte that ends an entry: "\n", or NUL. */
   private readonly separator: number;
+  /** Whether the format was detected, not asked for (`--input-format paths`). */
+  private readonly detected: boolean;
+  /** Unsized lists: non-blank lines, and those that start with a number and a space (see `end`). */
+  private pathLines = 0;
+  private numberFirstLines = 0;
   /** How folders' sizes count (folder-totals.ts); undefined: decided by the listing. */
   private readonly folderSizes: FolderSizes | undefined;
 
@@ -69,6 +74,7 @@ export class PathListReader {
     this.maxLineBytes = limitsOf(options.limits).maxLineBytes;
     this.separator = options.nulSeparated === true ? 0 : newline;
     this.folderSizes = options.folderSizes;
+    this.detected = options.format === undefined;
   }
 
   /**
@@ -118,6 +124,15 @@ export class PathListReader {
     this.lines(rest, 0, rest.length);
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the path list names no paths");
+    if (this.detected && this.sized === false && this.numberFirstLines === this.pathLines) {
+      // Every line as `find -printf '%s %p\n'` or `wc -c` prints it: read as names, each top-level name
+      // would be a size, and every size lost, with exit 0.
+      throw new EspalierError(
+        "PARSE_PATHS",
+        "every line starts with a number and a space, as find -printf '%s %P\\n' and wc -c print: a size is read before a tab (find -printf '%s\\t%p\\n'), or before spaces when the first path starts with / or ./ (find /DIR or find . -printf '%s %p\\n'); to read these lines as paths whose names start with a number, pass --input-format paths",
+        { line: this.firstLine, column: 1 },
+      );
+    }
     sink.hasSizes = this.sized === true;
     const placer = this.placer;
     const root = placer.adoptTopLevel();
@@ -245,6 +260,9 @@ export class PathListReader {
       }
       pathStart = at + 1;
       if (sizeEnd === space) while (pathStart < end && bytes[pathStart] === space) pathStart++;
+    } else {
+      this.pathLines++;
+      if (numberThenSpace(bytes, start, end)) this.numberFirstLines++;
     }
     if (this.backslashes === undefined) this.backslashes = windowsPath(bytes, pathStart, end);
     let i = this.backslashes
@@ -276,6 +294,17 @@ function windowsPath(bytes: Buffer, start: number, end: number): boolean {
   const c = bytes[start] | 0x20;
   if (c >= 97 && c <= 122 && bytes[start + 1] === colon && bytes[start + 2] === backslash) return true;
   return bytes[start] === backslash && bytes[start + 1] === backslash;
+}
+
+/** Whether the line is spaces, digits, one or more spaces and then more: `  1234 ./a` (wc -c, find '%s %p'). */
+function numberThenSpace(bytes: Buffer, start: number, end: number): boolean {
+  let k = start;
+  while (k < end && bytes[k] === space) k++;
+  const digits = k;
+  while (k < end && bytes[k] >= 48 && bytes[k] <= 57) k++;
+  if (k === digits || k >= end || bytes[k] !== space) return false;
+  while (k < end && bytes[k] === space) k++;
+  return k < end;
 }
 
 function isBlank(bytes: Buffer, start: number, end: number): boolean {

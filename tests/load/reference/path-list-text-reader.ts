@@ -31,7 +31,12 @@ export class PathListTextReader {
   /** The line each node was first made on. */
   private readonly firstSeen: number[] = [];
 
+  private readonly detected: boolean;
+  private pathLines = 0;
+  private numberFirstLines = 0;
+
   constructor(options: LoadOptions) {
+    this.detected = options.format === undefined;
     this.sink = new NodeSink(options.maxNodes, false);
     this.index = new PathPlacer(this.sink);
     this.folderSizes = options.folderSizes;
@@ -54,6 +59,12 @@ export class PathListTextReader {
   finish(rootName: string): LinkedNodes {
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the path list names no paths");
+    // Lines as `find -printf '%s %p\n'` prints them, with the format detected: said, not read as names.
+    if (this.detected && this.sized === false && this.numberFirstLines === this.pathLines)
+      throw new EspalierError("PARSE_PATHS", "every line starts with a number and a space", {
+        line: this.firstLine,
+        column: 1,
+      });
     sink.hasSizes = this.sized === true;
     // A size with an empty path named the root: every other top-level node goes below it.
     if (this.root !== -1) {
@@ -106,6 +117,9 @@ export class PathListTextReader {
       }
       pathStart = tab + 1;
       if (this.separator === " ") while (pathStart < end && text[pathStart] === " ") pathStart++;
+    } else {
+      this.pathLines++;
+      if (/^ *[0-9]+ +[^ ]/.test(text.slice(start, end))) this.numberFirstLines++;
     }
     if (this.windows === undefined) this.windows = /^([A-Za-z]:\\|\\\\)/.test(text.slice(pathStart, end));
     const i = this.windows
