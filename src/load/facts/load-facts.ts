@@ -247,36 +247,40 @@ async function keyLevels(
   if (load.facts.keyDepth === 0) return undefined;
   const partRows =
     load.partRows ?? Math.floor(bytesOf(load.engine?.memoryLimit ?? MEMORY_LIMIT) / GROUP_BYTES);
-  const keysStep = keysSql(load.facts, hasSize, load.facts.keyDepth);
   // The keys grouped in parts when the table may have more rows than a part holds (every row may be a
-  // key of its own).
+  // key of its own); then every table keeps its rows' hashes for the groupings in parts that follow.
   const keyParts = partsFor(await rowEstimate(engine, load), partRows);
+  const hashed = keyParts > 1;
+  const keysStep = keysSql(load.facts, hasSize, load.facts.keyDepth, undefined, hashed);
   await runInParts(
     engine,
     load,
     keys,
     keysStep,
-    (part) => keysSql(load.facts, hasSize, load.facts.keyDepth, part),
+    (part) => keysSql(load.facts, hasSize, load.facts.keyDepth, part, hashed),
     keyParts,
     hasSize,
   );
   const deepest = (await run(engine, `SELECT MAX(d) FROM ${keys}`, load)).values[0][0];
   if (deepest === null || deepest === undefined || Number(deepest) === 0) return undefined;
   const plan = new KeyLevels(load.facts, Number(deepest), hasSize);
-  // The steps --print-sql prints (printedSql), the keys table's already run.
-  const [first, ...rest] = plan.steps(load.facts.keyDepth);
+  // The steps --print-sql prints (printedSql; with hashes, those with h), the keys table's already run.
+  const [first, ...rest] = plan.steps(load.facts.keyDepth, hashed);
   if (first.table !== keys || first.sql !== keysStep)
     throw new Error("keyLevels: the plan's first step differs");
   // Keys by depth, and each level's nodes once made: a level has at most as many groups as the nodes
-  // one level deeper plus its keys.
+  // one level deeper plus its keys, and no more than there are keys (each node has a key under it).
   const byDepth = new Map<number, number>();
-  const depths = await run(engine, `SELECT d, COUNT(*) FROM ${keys} WHERE d IS NOT NULL GROUP BY d`, load);
-  for (let r = 0; r < depths.rowCount; r++)
+  const depths = await run(engine, `SELECT d, COUNT(*) FROM ${keys} GROUP BY d`, load);
+  let keyCount = 0;
+  for (let r = 0; r < depths.rowCount; r++) {
     byDepth.set(Number(depths.values[0][r]), Number(depths.values[1][r]));
+    keyCount += Number(depths.values[1][r]);
+  }
   let below = 0;
   for (const step of rest) {
-    const parts =
-      step.inPart === undefined ? 1 : partsFor(below + (byDepth.get(step.depth ?? 0) ?? 0), partRows);
+    const groups = Math.min(keyCount, below + (byDepth.get(step.depth ?? 0) ?? 0));
+    const parts = step.inPart === undefined ? 1 : partsFor(groups, partRows);
     await runInParts(engine, load, step.table, step.sql, step.inPart, parts);
     below = Number((await run(engine, `SELECT COUNT(*) FROM ${step.table}`, load)).values[0][0]);
   }
