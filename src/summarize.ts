@@ -10,7 +10,7 @@ import { type GraphNeighbours, graphNeighbours } from "./model/graph-neighbours.
 import { type Measures, measure } from "./model/measure.js";
 import { NAME_TABLE_MIN, PathIndex } from "./model/path-index.js";
 import { printedNames } from "./model/printed-names.js";
-import { type ReferenceIndex, referenceIndex } from "./model/reference-index.js";
+import { type ReferenceIndex, referencesTo } from "./model/reference-index.js";
 import type { Tree } from "./model/tree.js";
 import type { SummaryOptions } from "./summary-options.js";
 import { buildView, type ParentsOf } from "./view/build-view.js";
@@ -32,8 +32,6 @@ const WIDE = 1024;
 export class Prepared {
   readonly measures: Measures;
   readonly index: PathIndex;
-  /** Graphs only: the references that stand for each node; null on a tree. */
-  readonly references: ReferenceIndex | null;
   /** Graphs only: each node's neighbours, for the graph interest's searches; null on a tree. */
   readonly neighbours: GraphNeighbours | null;
   private readonly importances = new Map<Importance, Float64Array>();
@@ -42,8 +40,7 @@ export class Prepared {
   constructor(readonly tree: Tree) {
     this.measures = measure(tree);
     this.index = new PathIndex(tree, this.measures);
-    this.references = referenceIndex(tree);
-    this.neighbours = this.references === null ? null : graphNeighbours(tree);
+    this.neighbours = tree.referenceTo === undefined ? null : graphNeighbours(tree);
     // Built here, at load time, so that even the first focus costs only interest + fit + view (a
     // single summary needs them anyway): one pass over the child counts, which also builds the path
     // index's name tables of wide nodes.
@@ -100,7 +97,8 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
   const { foci: found, unmatched } = resolveSpecs(index, options.foci, key, options.unmatchedFoci);
   const foci = fullEntries(tree, found);
   const api = prepared.importance(options.importance);
-  const refs = prepared.references;
+  // The references to the foci (graphs; null on a tree).
+  const refs = referencesTo(tree, foci);
   // A graph scores by graph distance over the whole graph; a tree (no reference) near its foci, as before.
   const scores: Scores = refs
     ? graphInterest(tree, measures, api, foci, refs, prepared.neighbours ?? undefined)
@@ -124,7 +122,7 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
     selection,
     label,
     names,
-    parentsOf: parentsOf(prepared, selection),
+    parentsOf: parentsOf(tree, refs, selection),
   });
   if (options.siblingOrder && options.siblingOrder !== "input") {
     orderSiblings(view.data, options.siblingOrder, tree.hasSizes);
@@ -137,16 +135,15 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
  * Graphs: for a focus with several parents (its full entry's parent and the parents of the references
  * that stand for it), how many it has and how many of them are not shown.
  */
-function parentsOf(prepared: Prepared, selection: Selection): ParentsOf | undefined {
-  const refs = prepared.references;
+function parentsOf(tree: Tree, refs: ReferenceIndex | null, selection: Selection): ParentsOf | undefined {
   if (refs === null) return undefined;
-  const { tree } = prepared;
   return (i: number) => {
     const p = tree.parent[i];
     const own = p >= 0 && !(p === 0 && tree.syntheticRoot) ? 1 : 0;
+    const toI = refs.of(i);
     let hidden = 0;
-    for (let k = refs.start[i]; k < refs.start[i + 1]; k++) if (selection.shown[refs.refs[k]] === 0) hidden++;
-    const count = own + refs.start[i + 1] - refs.start[i];
+    for (const r of toI) if (selection.shown[r] === 0) hidden++;
+    const count = own + toI.length;
     return count >= 2 ? { count, hidden } : undefined;
   };
 }

@@ -168,6 +168,12 @@ export const sharedOptions = {
     value: flag(false),
     help: "path lists: entries end with a NUL byte (find -print0, git ls-files -z)",
   },
+  folderSizes: {
+    flags: "--folder-sizes <kind>",
+    group: "Input",
+    value: choice(["auto", "own", "total"], "auto"),
+    help: "path lists: a folder's size is its own (find -printf '%s') or a total with its contents (du -ab); auto: total when each folder comes after its contents and covers them",
+  },
   sizeField: {
     flags: "--size-field <field>",
     group: "Input",

@@ -53,9 +53,10 @@ export function outputSettings(opts: SharedCliOptions, io: CliIO, tree: Tree): O
 }
 
 /**
- * The reading of a JSON or YAML input that espalier chose itself, for the header: children found under
- * a field other than the one asked for, an object keyed by path, or every value a node when nothing
- * looked like nodes. None when `--read-as` or `--children-field` decided it.
+ * The reading of an input that espalier chose itself, for the header: children found under a field
+ * other than the one asked for, an object keyed by path, every value a node when nothing looked like
+ * nodes, or a path list's folder sizes read as totals (`du -ab`). None when `--read-as`,
+ * `--children-field` or `--folder-sizes` decided it.
  */
 export function chosenReading(opts: SharedCliOptions, tree: Tree): HeaderReading | undefined {
   const r = tree.reading;
@@ -65,6 +66,7 @@ export function chosenReading(opts: SharedCliOptions, tree: Tree): HeaderReading
   if (r.shape === "path-map" && r.pathMapField !== undefined)
     return { kind: "path-map", field: r.pathMapField };
   if (r.shape === "values") return { kind: "values" };
+  if (r.folderTotals && opts.folderSizes === "auto") return { kind: "folder-totals" };
   return undefined;
 }
 

@@ -1,6 +1,6 @@
 import { type GraphNeighbours, graphNeighbours } from "../model/graph-neighbours.js";
 import type { Measures } from "../model/measure.js";
-import type { ReferenceIndex } from "../model/reference-index.js";
+import type { ReferenceIndex, referencesTo } from "../model/reference-index.js";
 import type { Tree } from "../model/tree.js";
 import { interestNear } from "./near.js";
 import { FAR, type Scores } from "./scores.js";
@@ -28,7 +28,8 @@ export interface GraphScores extends Scores {
  * API drops by at least one per level and D by at most one along an edge; ties between them are broken
  * by `distance`, which grows by at least one from a parent that is not forced to a child. A focus with
  * several parents: each reference to it, with the path above it, scores at least 0 and carries a rank
- * (nearest a root first), so its parents show before other context, nearest first.
+ * (nearest a root first), so its parents show before other context, nearest first. `refs`: the
+ * references to the foci ({@link referencesTo}).
  */
 export function graphInterest(
   tree: Tree,
@@ -80,9 +81,8 @@ export function graphInterest(
   }
 
   // The references to a focus, nearest a root first, and the paths above them: ranked, at least 0.
-  const { start: refStart, refs: refSlots } = refs;
   const parentRefs: number[] = [];
-  for (const y of foci) for (let j = refStart[y]; j < refStart[y + 1]; j++) parentRefs.push(refSlots[j]);
+  for (const y of foci) for (const r of refs.of(y)) parentRefs.push(r);
   parentRefs.sort((a, b) => depth[a] - depth[b] || a - b);
   parentRefs.forEach((s, r) => {
     for (let a = s; a !== -1 && rank[a] === FAR; a = parent[a]) rank[a] = r;

@@ -13,6 +13,10 @@ const CR = 0x0d;
 const ID_SEED = 0x811c9dc5;
 /** The most bytes of ids one edge list may hold (a name pool's limit). */
 const LONGEST_IDS = 2 ** 32 - 1;
+/** Usual lines parsed before their ids are looked up together (see EdgeListReader.enterPending). */
+const BATCH = 256;
+/** Numbers kept per pending line: parent start, end, hash; child start, end, hash; line number. */
+const PENDING = 7;
 
 /**
  * An edge list read from bytes: one `parent child` pair per line. The first non-blank line decides the
@@ -43,6 +47,11 @@ export class EdgeListReader {
   private tabs: boolean | undefined;
   private lastParent = -1;
   private lastHash = 0;
+  // Usual lines read but not yet entered (at most BATCH, all in the buffer being read), PENDING numbers
+  // each; and what the touches of their places added up to (kept, so that the engine keeps the loads).
+  private pending = new Int32Array(BATCH * PENDING);
+  private pendingCount = 0;
+  private touched = 0;
 
   constructor(private readonly options: Pick<LoadOptions, "maxNodes" | "rootName">) {}
 
@@ -57,12 +66,14 @@ export class EdgeListReader {
           continue;
         }
       }
+      if (this.pendingCount > 0) this.enterPending(buf);
       let end = buf.indexOf(LF, at);
       if (end === -1 || end >= e) end = e;
       this.line++;
       this.readLine(buf, at, end > at && buf[end - 1] === CR ? end - 1 : end);
       at = end + 1;
     }
+    if (this.pendingCount > 0) this.enterPending(buf);
   }
 
   /**
@@ -70,6 +81,7 @@ export class EdgeListReader {
    * separator (with spaces: a run of spaces; with tabs: one tab), an id, then "\n" or the end of the
    * range. Returns where the next line starts, or -1, having changed nothing, for any other line
    * (blank, one id, three, a CR, a tab among spaces, a control byte), which {@link readLine} reads.
+   * The edge is entered with the rest of its batch ({@link enterPending}).
    */
   private usualLine(buf: Uint8Array, s: number, e: number): number {
     let k = s;
@@ -96,8 +108,68 @@ export class EdgeListReader {
     const ce = k;
     if (ce === cs || (k < e && buf[k] !== LF)) return -1;
     this.line++;
-    this.hashedEdge(buf, s, pe, hp, cs, ce, hc);
+    const q = PENDING * this.pendingCount++;
+    const pending = this.pending;
+    pending[q] = s;
+    pending[q + 1] = pe;
+    pending[q + 2] = hp;
+    pending[q + 3] = cs;
+    pending[q + 4] = ce;
+    pending[q + 5] = hc;
+    pending[q + 6] = this.line;
+    if (this.pendingCount === BATCH) this.enterPending(buf);
     return k + 1;
+  }
+
+  /**
+   * Enters the pending edges, in order, each at its own line. First the table places their ids hash to
+   * are read, all of them, then the kept bytes of the ids found there: loads that do not depend on each
+   * other, so the processor waits for their cache misses together rather than one after another (a
+   * graph's edge list names each node once per edge, so most ids are found, and finding one costs a
+   * miss for its place and one for its bytes). The lookups that follow then find both in the cache.
+   * The touches decide nothing: the lookups are the usual ones.
+   */
+  private enterPending(buf: Uint8Array): void {
+    const pending = this.pending;
+    const count = this.pendingCount;
+    this.pendingCount = 0;
+    const table = this.table;
+    const mask = (table.length >> 2) - 1;
+    let touched = 0;
+    for (let i = 0, hp = this.lastHash; i < count; i++) {
+      const q = PENDING * i;
+      if (pending[q + 2] !== hp) {
+        hp = pending[q + 2];
+        touched += table[4 * (mix(hp) & mask)];
+      }
+      touched += table[4 * (mix(pending[q + 5]) & mask)];
+    }
+    const bytes = this.idBytes;
+    for (let i = 0; i < count; i++) {
+      const hash = pending[PENDING * i + 5];
+      for (let h = mix(hash) & mask; table[4 * h] !== 0; h = (h + 1) & mask) {
+        if (table[4 * h + 1] === hash) {
+          touched += bytes[table[4 * h + 2] >>> 0];
+          break;
+        }
+      }
+    }
+    this.touched += touched;
+    const line = this.line;
+    for (let i = 0; i < count; i++) {
+      const q = PENDING * i;
+      this.line = pending[q + 6];
+      this.hashedEdge(
+        buf,
+        pending[q],
+        pending[q + 1],
+        pending[q + 2],
+        pending[q + 3],
+        pending[q + 4],
+        pending[q + 5],
+      );
+    }
+    this.line = line;
   }
 
   private readLine(buf: Uint8Array, s: number, e: number): void {

@@ -73,6 +73,11 @@ export interface LoadOptions {
   nameFieldNamed?: boolean;
   /** Path lists: entries end with a NUL byte, not a line break (`find -print0`, `git ls-files -z`). */
   nulSeparated?: boolean;
+  /**
+   * Path lists with sizes: a folder's line gives its own size (`own`, as `find -printf '%s'`) or the folder
+   * with its contents (`total`, as `du -ab`); absent: decided by the listing (src/load/path-list/folder-totals.ts).
+   */
+  folderSizes?: "own" | "total";
 }
 
 export const defaultLoadOptions: LoadOptions = {

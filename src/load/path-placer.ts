@@ -40,6 +40,13 @@ export class PathPlacer {
   private stackEnd = new Int32Array(64);
   private stackDepth = 0;
   private root = -1;
+  /**
+   * Paths that added a node below one already listed on a line of its own: a listing that names each
+   * folder before its contents (`find`) has many; one that names it after them (`du -a`) has none.
+   */
+  contentAfterListing = 0;
+  /** Paths that named a node made before as an ancestor of an earlier path: folders listed after contents. */
+  listedAfterContents = 0;
 
   // For paths given as text: two buffers taking turns, so the previous path's bytes stay as they are.
   private scratch = [Buffer.allocUnsafe(256), Buffer.allocUnsafe(256)];
@@ -68,6 +75,7 @@ export class PathPlacer {
         sink.originIsRow ? { firstRow: sink.origin[this.root] } : { firstLine: sink.origin[this.root] },
       );
     }
+    if (sink.length > 0) this.listedAfterContents++;
     this.root = sink.add(-1, "", origin);
     if (this.keys !== sink.name) this.keys.setString(this.root, "");
     return this.root;
@@ -78,9 +86,19 @@ export class PathPlacer {
     const { root, sink } = this;
     if (root !== -1) {
       const { parentOf } = sink;
-      for (let i = 0; i < sink.length; i++) if (parentOf[i] === -1 && i !== root) parentOf[i] = root;
+      for (let i = 0; i < sink.length; i++) {
+        if (parentOf[i] !== -1 || i === root) continue;
+        parentOf[i] = root;
+        // A top-level node made after the root's line is content listed after its folder.
+        if (i > root) this.contentAfterListing++;
+      }
     }
     return root;
+  }
+
+  /** Whether the node was named by a path of its own (or is the root an empty path named), not only made as an ancestor. */
+  isListed(node: number): boolean {
+    return node === this.root || (node < this.explicit.length && this.explicit[node] === 1);
   }
 
   /** As {@link place}, for the path `text` (as UTF-8: a lone surrogate becomes U+FFFD). */
@@ -143,8 +161,11 @@ export class PathPlacer {
         if (c === slash) break;
         hash = hashStep(hash, c);
       }
+      const parent = node;
       node = this.child(node, bytes, start + at, start + stop, hash, origin);
       created = this.created;
+      if (created && parent >= 0 && parent < this.explicit.length && this.explicit[parent] === 1)
+        this.contentAfterListing++;
       if (depth === stackNode.length) {
         this.growStack();
         ({ stackNode, stackEnd } = this);
@@ -178,6 +199,7 @@ export class PathPlacer {
         );
       }
       sink.origin[node] = origin;
+      this.listedAfterContents++;
     }
     this.explicit[node] = 1;
     return node;

@@ -48,7 +48,8 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   if (graph.repeatedEdges === "error") refuseRepeats(graph, outStart, out, outTo, file);
 
   // What each position's edge is: a repeat of an earlier edge from the same parent to the same child
-  // (read once: the first is the edge), and whether it closes a cycle.
+  // (read once: the first is the edge), whether it closes a cycle, and at last whether it is the edge
+  // of its child's full entry.
   const kind = new Uint8Array(E);
 
   // Depth-first walk (iterative): back edges close cycles; the finishing order, reversed, is a
@@ -94,7 +95,15 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   const rec = new Int32Array(3 * n);
   for (let v = 0; v < n; v++) rec[3 * v] = -1;
   let live = 0;
+  let touched = 0;
   for (let k = n - 1; k >= 0; k--) {
+    // Every AHEAD nodes, the records of the next AHEAD nodes' children are read first, all together,
+    // so that their cache misses overlap (they decide nothing; the pass below reads them again).
+    if ((n - 1 - k) % AHEAD === 0)
+      for (let a = k, stop = Math.max(0, k - AHEAD + 1); a >= stop; a--) {
+        const w = finished[a];
+        for (let j = outStart[w], end = outStart[w + 1]; j < end; j++) touched += rec[3 * outTo[j] + 2];
+      }
     const u = finished[k];
     const next = rec[3 * u + 1] + 1;
     for (let j = outStart[u], end = outStart[u + 1]; j < end; j++) {
@@ -115,8 +124,14 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     }
   }
 
+  sink.touched = touched;
+  // Each node's full-entry edge, marked where the layout reads its edges anyway.
   let tops = 0;
-  for (let i = 0; i < n; i++) if (rec[3 * i] === -1) tops++;
+  for (let i = 0; i < n; i++) {
+    const home = rec[3 * i];
+    if (home === -1) tops++;
+    else kind[home] = HOME;
+  }
   const synthetic = tops !== 1;
   const slots = n + (synthetic ? 1 : 0) + (live - (n - tops));
 
@@ -167,7 +182,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
       if (kind[j] === REPEAT) continue;
       const v = outTo[j];
       const pu = slotStack[top];
-      if (rec[3 * v] === j) {
+      if (kind[j] === HOME) {
         slotStack[++top] = place(v, pu);
         stack[top] = v;
       } else {
@@ -209,9 +224,17 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   };
 }
 
-/** Kinds of an edge position (see buildGraphTree): it closes a cycle, or repeats an earlier edge. */
+/**
+ * Kinds of an edge position (see buildGraphTree): it closes a cycle, repeats an earlier edge, or (once
+ * the parents are chosen) is the edge of its child's full entry.
+ */
 const BACK = 1;
 const REPEAT = 2;
+const HOME = 3;
+/** Nodes whose children's records the longest-path pass reads ahead (see buildGraphTree). */
+const AHEAD = 32;
+/** What those reads added up to: kept, so that the engine keeps the reads. */
+const sink = { touched: 0 };
 
 /** DUPLICATE_ID at the first repeated edge, parent by parent, each parent's edges in input order. */
 function refuseRepeats(

@@ -1,22 +1,43 @@
 import type { Tree } from "./tree.js";
 
-/** A graph's references grouped by the node they stand for. */
+/** A graph's references to some of its full entries (the foci of a summary), grouped by entry. */
 export interface ReferenceIndex {
-  /** References to slot t are `refs[start[t] .. start[t + 1])`, in pre-order. */
-  readonly start: Int32Array;
-  readonly refs: Int32Array;
+  /** The references to full entry `t`, in pre-order: empty when there are none or `t` was not asked for. */
+  of(t: number): Int32Array;
 }
 
-/** The references of a graph's tree grouped by the full entry they stand for; null on a tree. */
-export function referenceIndex(tree: Tree): ReferenceIndex | null {
+/** Targets beyond which {@link referencesTo} marks them in an array rather than comparing with each. */
+const FEW = 16;
+
+/**
+ * The references that stand for each of `targets` (slots of full entries): one pass over
+ * `referenceTo`, so a summary pays for its foci only, not for an index of every node's references;
+ * null on a tree.
+ */
+export function referencesTo(tree: Tree, targets: ArrayLike<number>): ReferenceIndex | null {
   const to = tree.referenceTo;
   if (to === undefined) return null;
   const n = tree.length;
-  const start = new Int32Array(n + 1);
-  for (let s = 0; s < n; s++) if (to[s] !== -1) start[to[s] + 1]++;
-  for (let t = 0; t < n; t++) start[t + 1] += start[t];
-  const refs = new Int32Array(start[n]);
-  const fill = start.slice(0, n);
-  for (let s = 0; s < n; s++) if (to[s] !== -1) refs[fill[to[s]]++] = s;
-  return { start, refs };
+  const wanted = Int32Array.from(new Set(Array.from(targets)));
+  const found: number[][] = Array.from(wanted, () => []);
+  const place = new Map<number, number>();
+  for (let k = 0; k < wanted.length; k++) place.set(wanted[k], k);
+  if (wanted.length <= FEW) {
+    const w = wanted.length;
+    for (let s = 0; s < n; s++) {
+      const t = to[s];
+      if (t === -1) continue;
+      for (let k = 0; k < w; k++) if (wanted[k] === t) found[k].push(s);
+    }
+  } else {
+    const mark = new Uint8Array(n);
+    for (const t of wanted) mark[t] = 1;
+    for (let s = 0; s < n; s++) {
+      const t = to[s];
+      if (t !== -1 && mark[t] === 1) found[place.get(t)!].push(s);
+    }
+  }
+  const lists = found.map((list) => Int32Array.from(list));
+  const none = new Int32Array(0);
+  return { of: (t) => lists[place.get(t) ?? -1] ?? none };
 }

@@ -59,4 +59,9 @@ export interface TreeReading {
   readonly childrenFieldFound?: boolean;
   /** A map keyed by path: the field of the top-level object that holds it ("" for the top level). */
   readonly pathMapField?: string;
+  /**
+   * A path list whose folder lines gave each folder with its contents (as `du -ab` prints them): own sizes
+   * are those totals minus the contents', so nothing counts twice.
+   */
+  readonly folderTotals?: boolean;
 }

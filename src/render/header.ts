@@ -44,7 +44,8 @@ export interface HeaderOptions {
 export type HeaderReading =
   | { kind: "children"; field: string }
   | { kind: "path-map"; field: string }
-  | { kind: "values" };
+  | { kind: "values" }
+  | { kind: "folder-totals" };
 
 /** Foci named on the header before the rest are counted (`and 4 more`). */
 const FOCI_SHOWN = 3;
@@ -117,12 +118,14 @@ function sizeWord(header: HeaderOptions, style: HeaderStyle): string {
 
 /**
  * `; children under dependencies`, `; paths from packages` (`; paths from keys` for the top level),
- * `; every value a node`; empty when the options chose the reading.
+ * `; every value a node`, `; folder sizes read as totals with contents`; empty when the options chose the
+ * reading.
  */
 function readingText({ reading }: HeaderOptions, style: HeaderStyle): string {
   const w = style.words;
   if (reading === undefined) return "";
   if (reading.kind === "values") return w("; every value a node");
+  if (reading.kind === "folder-totals") return w("; folder sizes read as totals with contents");
   const field = style.name(safeText(reading.field, 40));
   if (reading.kind === "children") return `${w("; children under ")}${field}`;
   return reading.field === "" ? w("; paths from keys") : `${w("; paths from ")}${field}`;

@@ -93,6 +93,12 @@ export const inputReadingSchema = z
       .optional()
       .describe("Whether espalier chose childrenField because the configured field was absent."),
     pathMapField: z.string().optional().describe("A map keyed by path: the field holding it."),
+    folderTotals: z
+      .boolean()
+      .optional()
+      .describe(
+        "A path list whose folder lines gave each folder with its contents (as du -ab prints them); own sizes are those totals minus the contents'.",
+      ),
   })
   .strict()
   .describe("How the input was read.");

@@ -54,3 +54,20 @@ describe("the header says how espalier chose to read a JSON or YAML input", () =
     expect(head(r.stdout)).toBe("summary: 3 nodes; no focus; 4 of 40 lines");
   });
 });
+
+describe("the header says when a path list's folder sizes were read as totals", () => {
+  // Shaped as GNU du -ab prints (each folder after its contents, with its total); sizes invented.
+  const DU = "100\tharbor/tide.log\n2000\tharbor/charts/reef.svg\n6096\tharbor/charts\n10292\tharbor\n";
+
+  it("reads du's folder totals once and says so; --folder-sizes own reads each line as its own size", async () => {
+    const auto = await cli(["-", "--input-format", "paths"], { stdin: DU });
+    expect(auto.code).toBe(0);
+    expect(head(auto.stdout)).toBe(
+      "summary: 4 nodes, size 10.1 KiB; folder sizes read as totals with contents; no focus; 4 of 40 lines",
+    );
+    const own = await cli(["-", "--input-format", "paths", "--folder-sizes", "own"], { stdin: DU });
+    expect(head(own.stdout)).toBe("summary: 4 nodes, size 18.1 KiB; no focus; 4 of 40 lines");
+    const asked = await cli(["-", "--input-format", "paths", "--folder-sizes", "total"], { stdin: DU });
+    expect(head(asked.stdout)).toBe("summary: 4 nodes, size 10.1 KiB; no focus; 4 of 40 lines");
+  });
+});

@@ -6,7 +6,7 @@ import { graphInterest } from "../../src/interest/graph-doi.js";
 import { type Importance, importance } from "../../src/interest/importance.js";
 import { loadTree } from "../../src/load/index.js";
 import { measure } from "../../src/model/measure.js";
-import { referenceIndex } from "../../src/model/reference-index.js";
+import { referencesTo } from "../../src/model/reference-index.js";
 import type { Tree } from "../../src/model/tree.js";
 import { opts } from "../load/helpers.js";
 
@@ -67,7 +67,7 @@ describe("graph interest against graphology's shortest paths", () => {
           const foci = Int32Array.from(new Set(picks.map((p) => entry.get(keys[p % keys.length])!))).sort();
           const m = measure(tree);
           const api = importance(tree, m, kind);
-          const scores = graphInterest(tree, m, api, foci, referenceIndex(tree)!);
+          const scores = graphInterest(tree, m, api, foci, referencesTo(tree, foci)!);
 
           const g = referenceGraph(tree, edges);
           const fromFocus = [...foci].map((y) => ({ y, d: singleSourceLength(g, nodeKey(y)) }));

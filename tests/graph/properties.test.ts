@@ -6,7 +6,7 @@ import { type Importance, importance } from "../../src/interest/importance.js";
 import { loadTree } from "../../src/load/index.js";
 import { csvTableFromBytes } from "../../src/load/table/csv-table.js";
 import { measure } from "../../src/model/measure.js";
-import { referenceIndex } from "../../src/model/reference-index.js";
+import { referencesTo } from "../../src/model/reference-index.js";
 import type { Tree } from "../../src/model/tree.js";
 import { renderJson } from "../../src/render/summary-json.js";
 import type { SummaryNode } from "../../src/render/summary-schema.js";
@@ -164,10 +164,10 @@ describe("graphs: property tests on random graphs (cycles, shared nodes, self-lo
           } catch {
             return;
           }
-          const refs = referenceIndex(tree);
           const prepared = prepare(tree);
           const y = out.result.foci[0];
-          const toFocus = refs ? [...refs.refs.subarray(refs.start[y], refs.start[y + 1])] : [];
+          // The references to the focus, found here by a plain scan of every slot.
+          const toFocus = [...tree.parent.keys()].filter((s) => (tree.referenceTo?.[s] ?? -1) === y);
           const shown = out.result.selection.shown;
           const hiddenParents = toFocus.filter((s) => shown[s] === 0).length;
           const root = JSON.parse(out.json).root as SummaryNode;
@@ -259,7 +259,7 @@ describe("graphs: on an input that is a tree", () => {
           new Set(picks.map((k) => (k % n) + (tree.syntheticRoot ? 1 : 0))),
         ).sort();
         const plain = interest(tree, api, foci);
-        const graph = graphInterest(asGraph, m, api, foci, referenceIndex(asGraph)!);
+        const graph = graphInterest(asGraph, m, api, foci, referencesTo(asGraph, foci)!);
         const all = [...tree.parent.keys()];
         expect(all.map((i) => graph.interestOf(i))).toEqual([...plain.value]);
         expect(all.map((i) => graph.distanceOf(i))).toEqual([...plain.distance]);

@@ -173,3 +173,46 @@ describe.skipIf(!gnuTools)(
     });
   },
 );
+
+describe.skipIf(!gnuTools)("loadTree(du -ab and du -b output itself, paths): folder lines are totals", () => {
+  // Source: GNU coreutils du(1): -a lists files too, -b is --apparent-size --block-size=1, and each
+  // directory is printed after its contents with the total of itself and everything below it.
+  // Read as own sizes, every byte would count once per folder above it (found on `du -ab /usr/share/doc`:
+  // 366.6 MiB for 107.2 MiB of entries).
+  const duListing = (flags: string[]) =>
+    execFileSync("du", [...flags, "tree-root"], { cwd: base, encoding: "utf8" });
+
+  it.each([
+    ["du -ab", ["-ab"]],
+    ["du -b", ["-b"]],
+  ])("%s: every folder's subtree size is du's line for it, and the reading says so", (_label, flags) => {
+    const listing = duListing(flags);
+    const tree = loadTree(listing, { ...defaultLoadOptions, format: "paths" });
+    expect(tree.reading?.folderTotals).toBe(true);
+    const m = measure(tree);
+    const du = duSizes(base, "tree-root");
+    for (const [path, bytes] of du) {
+      const i = findByPath(tree, m, path === "tree-root" ? [] : path.slice("tree-root/".length).split("/"));
+      expect(i, path).toBeGreaterThanOrEqual(0);
+      expect(m.size[i], path).toBe(bytes);
+    }
+  });
+
+  it("du -ab: a file's size is find's %s for it", () => {
+    const tree = loadTree(duListing(["-ab"]), { ...defaultLoadOptions, format: "paths" });
+    const m = measure(tree);
+    const i = findByPath(tree, m, ["wide", "big.bin"]);
+    expect(m.size[i]).toBe(files["wide/big.bin"]);
+    expect(m.count[i]).toBe(1);
+  });
+
+  it("find -depth (each folder after its contents, own sizes) is not read as totals", () => {
+    const listing = execFileSync("find", ["tree-root", "-depth", "-printf", "%s\\t%p\\n"], {
+      cwd: base,
+      encoding: "utf8",
+    });
+    const tree = loadTree(listing, { ...defaultLoadOptions, format: "paths" });
+    expect(tree.reading?.folderTotals).toBeUndefined();
+    expect(measure(tree).size[0]).toBe(duSizes(base, "tree-root").get("tree-root"));
+  });
+});

@@ -8,6 +8,7 @@ import { NodeSink } from "../node-sink.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer, viewOf } from "../path-placer.js";
 import { limitsOf, tooLong } from "../read-limits.js";
+import { type FolderSizes, folderTotals } from "./folder-totals.js";
 
 const newline = 10;
 const cr = 13;
@@ -44,6 +45,13 @@ export class PathListReader {
   private readonly placer: PathPlacer;
   /** The byte that ends an entry: "\n", or NUL. */
   private readonly separator: number;
+  /** Whether the format was detected, not asked for (`--input-format paths`). */
+  private readonly detected: boolean;
+  /** Unsized lists: non-blank lines, and those that start with a number and a space (see `end`). */
+  private pathLines = 0;
+  private numberFirstLines = 0;
+  /** How folders' sizes count (folder-totals.ts); undefined: decided by the listing. */
+  private readonly folderSizes: FolderSizes | undefined;
 
   constructor(options: LoadOptions) {
     checkNoNamedFields(options, "paths");
@@ -52,6 +60,8 @@ export class PathListReader {
     this.rootName = options.rootName;
     this.maxLineBytes = limitsOf(options.limits).maxLineBytes;
     this.separator = options.nulSeparated === true ? 0 : newline;
+    this.folderSizes = options.folderSizes;
+    this.detected = options.format === undefined;
   }
 
   /**
@@ -101,10 +111,39 @@ export class PathListReader {
     this.lines(rest, 0, rest.length);
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the path list names no paths");
+    if (this.detected && this.sized === false && this.numberFirstLines === this.pathLines) {
+      // Every line as `find -printf '%s %p\n'` or `wc -c` prints it: read as names, each top-level name
+      // would be a size, and every size lost, with exit 0.
+      throw new EspalierError(
+        "PARSE_PATHS",
+        "every line starts with a number and a space, as find -printf '%s %p\\n' and wc -c print: a size is read only before a tab (find -printf '%s\\t%p\\n'); to read these lines as paths whose names start with a number, pass --input-format paths",
+        { line: this.firstLine, column: 1 },
+      );
+    }
     sink.hasSizes = this.sized === true;
-    const root = this.placer.adoptTopLevel();
+    const placer = this.placer;
+    const root = placer.adoptTopLevel();
     if (root !== -1) sink.name.setString(root, this.rootName);
-    return sink.finish(this.rootName, new Map(), null, { shape: "paths", sizeUnit: "bytes" });
+    const totals =
+      sink.hasSizes &&
+      folderTotals(
+        {
+          length: sink.length,
+          parentOf: sink.parentOf,
+          ownSize: sink.ownSize,
+          origin: sink.origin,
+          isListed: (i) => placer.isListed(i),
+          pathOf: (i) => pathOf(sink, i, root),
+        },
+        root,
+        placer,
+        this.folderSizes,
+      );
+    return sink.finish(this.rootName, new Map(), null, {
+      shape: "paths",
+      sizeUnit: "bytes",
+      ...(totals ? { folderTotals: true } : {}),
+    });
   }
 
   /**
@@ -201,11 +240,25 @@ export class PathListReader {
         }
       }
       pathStart = at + 1;
+    } else {
+      this.pathLines++;
+      if (numberThenSpace(bytes, start, end)) this.numberFirstLines++;
     }
     let i = this.placer.place(bytes, view, pathStart, end, line);
     if (i === -1) i = this.placer.placeRoot(line);
     this.sink.ownSize[i] = size;
   }
+}
+
+/** Whether the line is spaces, digits, one or more spaces and then more: `  1234 ./a` (wc -c, find '%s %p'). */
+function numberThenSpace(bytes: Buffer, start: number, end: number): boolean {
+  let k = start;
+  while (k < end && bytes[k] === space) k++;
+  const digits = k;
+  while (k < end && bytes[k] >= 48 && bytes[k] <= 57) k++;
+  if (k === digits || k >= end || bytes[k] !== space) return false;
+  while (k < end && bytes[k] === space) k++;
+  return k < end;
 }
 
 function isBlank(bytes: Buffer, start: number, end: number): boolean {
@@ -214,4 +267,12 @@ function isBlank(bytes: Buffer, start: number, end: number): boolean {
     if (c !== space && c !== tab) return false;
   }
   return true;
+}
+
+/** The path of node `i` as a listing names it: names from below the root joined by "/". */
+function pathOf(sink: NodeSink, i: number, root: number): string {
+  const names: string[] = [];
+  for (let k = i; k !== -1 && k !== root; k = sink.parentOf[k]) names.push(sink.name.get(k));
+  names.reverse();
+  return names[0] === "/" ? `/${names.slice(1).join("/")}` : names.join("/");
 }

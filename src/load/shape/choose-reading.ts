@@ -36,8 +36,9 @@ type Fields = Pick<
  *    the first node object) whose values are records is a path map; see {@link isPathMap}.
  * 3. Then a field found to hold children (see {@link findChildrenField}).
  * 4. Otherwise nodes as configured when asked for nodes (`readAs: "nodes"`, or a children field other
- *    than the default), or when the first node object holds nothing nested; else values: a document
- *    with no node shape at all reads as the tree of its values.
+ *    than the default), or when the first node object is a leaf node: it has the name or the size field
+ *    and holds nothing nested; else values: a document with no node shape at all (a configuration's
+ *    flat `{"timeout": 30}` too) reads as the tree of its values, so no key goes unseen.
  */
 export function chooseReading(sample: Sample | undefined, fields: Fields): Reading {
   const configured: Reading = { kind: "nodes", childrenField: fields.childrenField, found: false };
@@ -66,8 +67,14 @@ export function chooseReading(sample: Sample | undefined, fields: Fields): Readi
   // a lone root for a document with more in it.
   if (fields.readAs === "nodes" || !discover) return configured;
   // A node object with nothing nested but the fields it is read for (a leaf, or leaves in a top-level
-  // array) is nodes all the same.
-  if (first !== undefined && hasNoContainers(first, fieldsOf(fields))) return configured;
+  // array) is nodes all the same, when it has a field a node is read for: without one, every key of
+  // the document would be dropped for one nameless node.
+  if (
+    first !== undefined &&
+    (has(first, fields.nameField) || has(first, fields.sizeField)) &&
+    hasNoContainers(first, fieldsOf(fields))
+  )
+    return configured;
   return { kind: "values" };
 }
 

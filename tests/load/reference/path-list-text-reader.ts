@@ -3,6 +3,7 @@ import type { LoadOptions } from "../../../src/load/load-options.js";
 import { NodeSink } from "../../../src/load/node-sink.js";
 import { parseSize } from "../../../src/load/parse-size.js";
 import type { LinkedNodes } from "../../../src/model/linked-nodes.js";
+import { folderTotalsByReference } from "./folder-totals-reference.js";
 import { PathPlacer } from "./path-placer-text.js";
 
 /**
@@ -20,10 +21,21 @@ export class PathListTextReader {
   private firstLine = 0;
   private line = 0;
   private root = -1;
+  private readonly folderSizes: "own" | "total" | undefined;
+  /** The line that named each listed node. */
+  private readonly listedAt = new Map<number, number>();
+  /** The line each node was first made on. */
+  private readonly firstSeen: number[] = [];
+
+  private readonly detected: boolean;
+  private pathLines = 0;
+  private numberFirstLines = 0;
 
   constructor(options: LoadOptions) {
+    this.detected = options.format === undefined;
     this.sink = new NodeSink(options.maxNodes, false);
     this.index = new PathPlacer(this.sink);
+    this.folderSizes = options.folderSizes;
   }
 
   /**
@@ -43,6 +55,12 @@ export class PathListTextReader {
   finish(rootName: string): LinkedNodes {
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the path list names no paths");
+    // Lines as `find -printf '%s %p\n'` prints them, with the format detected: said, not read as names.
+    if (this.detected && this.sized === false && this.numberFirstLines === this.pathLines)
+      throw new EspalierError("PARSE_PATHS", "every line starts with a number and a space", {
+        line: this.firstLine,
+        column: 1,
+      });
     sink.hasSizes = this.sized === true;
     // A size with an empty path named the root: every other top-level node goes below it.
     if (this.root !== -1) {
@@ -50,7 +68,13 @@ export class PathListTextReader {
         if (sink.parentOf[i] === -1 && i !== this.root) sink.parentOf[i] = this.root;
       sink.name.setString(this.root, rootName);
     }
-    return sink.finish(rootName, new Map());
+    const totals =
+      sink.hasSizes && folderTotalsByReference(sink, this.listedAt, this.firstSeen, this.folderSizes);
+    return sink.finish(rootName, new Map(), null, {
+      shape: "paths",
+      sizeUnit: "bytes",
+      ...(totals ? { folderTotals: true } : {}),
+    });
   }
 
   /** One line, `text[start, end)` without its "\n". */
@@ -83,8 +107,12 @@ export class PathListTextReader {
         );
       }
       pathStart = tab + 1;
+    } else {
+      this.pathLines++;
+      if (/^ *[0-9]+ +[^ ]/.test(text.slice(start, end))) this.numberFirstLines++;
     }
     const i = this.index.place(text, pathStart, end, line);
+    for (let k = this.firstSeen.length; k < this.sink.length; k++) this.firstSeen.push(line);
     if (i === -1) {
       if (this.root !== -1) {
         throw new EspalierError(
@@ -94,9 +122,12 @@ export class PathListTextReader {
         );
       }
       this.root = this.sink.add(-1, "", line);
+      this.firstSeen.push(line);
+      this.listedAt.set(this.root, line);
       this.sink.ownSize[this.root] = size;
       return;
     }
+    this.listedAt.set(i, line);
     this.sink.ownSize[i] = size;
   }
 }

@@ -78,6 +78,7 @@ export function expectSameTree(actual: Tree, expected: Tree): void {
   expect(actual.syntheticRoot).toBe(expected.syntheticRoot);
   expect(actual.ids).toEqual(expected.ids);
   expect([...actual.fields]).toEqual([...expected.fields]);
+  expect(actual.reading?.folderTotals).toBe(expected.reading?.folderTotals);
 }
 
 /** Text and JSON summaries of the tree, focused on node `focus` (by its printed path). */

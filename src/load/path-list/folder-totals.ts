@@ -1,0 +1,92 @@
+import { EspalierError, quoted, say } from "../../errors.js";
+
+/**
+ * How a path list's sizes count a folder: `own`, the folder's line gives the folder alone (`find -printf
+ * '%s\t%p\n'` prints a directory's own size); `total`, the folder with everything under it (`du -ab`
+ * prints that, each folder after its contents). Absent: decided by the listing (see {@link readsAsTotals}).
+ */
+export type FolderSizes = "own" | "total";
+
+/** The nodes of a placed path list, as {@link folderTotals} reads and changes them. */
+export interface PlacedSizes {
+  readonly length: number;
+  readonly parentOf: Int32Array;
+  /** Each node's size as its line gave it (0 for a node only made as an ancestor); changed in place. */
+  readonly ownSize: Float64Array;
+  /** The line that named each listed node. */
+  readonly origin: Int32Array;
+  /** Whether a line named the node (not only made as an ancestor of a path). */
+  isListed(node: number): boolean;
+  /** The node's path, for messages. */
+  pathOf(node: number): string;
+}
+
+/**
+ * Reads folder lines' sizes as totals when `mode` says so, or, without a mode, when the listing looks
+ * as `du -ab` prints it (see {@link readsAsTotals}): each listed folder's own size becomes its line's
+ * size minus what its contents add up to, so no byte is counted twice. Returns whether it did.
+ *
+ * `order` counts, from PathPlacer, the paths that added a node below a folder already listed (a listing
+ * that puts each folder after its contents has none) and the folders listed after some of their
+ * contents (a listing of files only has none). `root` is the node an empty
+ * path named (-1 when none), the only node whose index may exceed its children's; every other parent
+ * was made before its children.
+ *
+ * `mode` `total` on a folder whose line is smaller than its contents is BAD_SIZE at that line.
+ */
+export function folderTotals(
+  nodes: PlacedSizes,
+  root: number,
+  order: { contentAfterListing: number; listedAfterContents: number },
+  mode: FolderSizes | undefined,
+): boolean {
+  if (mode === "own") return false;
+  // Folders before their contents, or no folder listed at all (a list of files): own sizes, and no pass.
+  if (mode === undefined && (order.contentAfterListing > 0 || order.listedAfterContents === 0)) return false;
+  const { length, parentOf, ownSize } = nodes;
+  // What each node's contents add up to: a listed node stands for its line's size, an unlisted one
+  // (an ancestor no line named) for its contents. Children have higher indices than their parents,
+  // but the root an empty path named may come last, so it is summed after the rest.
+  const contents = new Float64Array(length);
+  const parents = new Uint8Array(length);
+  for (let i = length - 1; i >= 0; i--) {
+    if (i === root) continue;
+    const p = parentOf[i];
+    if (p === -1) continue;
+    contents[p] += nodes.isListed(i) ? ownSize[i] : contents[i];
+    parents[p] = 1;
+  }
+  if (mode === undefined && !readsAsTotals(nodes, contents, parents)) return false;
+  for (let i = 0; i < length; i++) {
+    if (parents[i] === 0 || !nodes.isListed(i)) continue;
+    if (ownSize[i] < contents[i]) throw smallerThanContents(nodes, i, contents[i]);
+    ownSize[i] -= contents[i];
+  }
+  return true;
+}
+
+/**
+ * Whether a listing with every folder after its contents gives folders' totals: at least one listed
+ * folder has contents of some size, and no listed folder is smaller than its contents. A listing of
+ * own sizes fails the second test on any folder holding more bytes than its own entry (a directory
+ * entry is a few KiB), so only a listing whose folders are all bigger than their contents, and listed
+ * after them (`find -depth` of tiny files), is read the other way: `--folder-sizes own` says otherwise.
+ */
+function readsAsTotals(nodes: PlacedSizes, contents: Float64Array, parents: Uint8Array): boolean {
+  let sized = false;
+  for (let i = 0; i < nodes.length; i++) {
+    if (parents[i] === 0 || !nodes.isListed(i)) continue;
+    if (nodes.ownSize[i] < contents[i]) return false;
+    if (contents[i] > 0) sized = true;
+  }
+  return sized;
+}
+
+function smallerThanContents(nodes: PlacedSizes, node: number, contents: number): EspalierError {
+  const line = nodes.origin[node];
+  return new EspalierError(
+    "BAD_SIZE",
+    say`line ${line} gives the folder ${quoted.path(nodes.pathOf(node))} the size ${nodes.ownSize[node]}, less than the ${contents} its contents add up to; with --folder-sizes total a folder's size includes its contents (--folder-sizes own reads each line's size as its own)`,
+    { line, column: 1 },
+  );
+}

@@ -1,0 +1,98 @@
+import { describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+
+// Field tests: shapes met on real inputs (a package manager's long listing, configuration files),
+// reduced to small documents of the invented tidewater scenario. Each expected count is checked by
+// hand against the document beside it.
+
+/** The summary JSON of `text` read from standard input. */
+async function summary(text: string, args: string[] = []) {
+  const result = await cli(["-", "--format", "json", "--budget", "200", ...args], { stdin: text });
+  expect(result.stderr).toBe("");
+  expect(result.code).toBe(0);
+  return JSON.parse(result.stdout);
+}
+
+/** Every node's path in the summary JSON (all shown with a budget this big), in pre-order. */
+function paths(node: { path: string; children: unknown[] }): string[] {
+  return [node.path, ...(node.children as (typeof node)[]).flatMap(paths)];
+}
+
+describe("a dependency listing with every package's manifest (npm ls --all --json --long shape)", () => {
+  // Each package record holds a dozen manifest fields before its `dependencies`, as the long listing
+  // prints them: the children field must still be found, not the whole record read as values.
+  const manifest = (name: string) => ({
+    version: "1.0.0",
+    name,
+    description: `the ${name} package`,
+    license: "MIT",
+    homepage: `https://tidewater.invalid/${name}`,
+    repository: { type: "git", url: `git+https://tidewater.invalid/${name}.git` },
+    bugs: { url: `https://tidewater.invalid/${name}/issues` },
+    keywords: ["tide", "harbor"],
+    engines: { node: ">=20" },
+    files: ["dist"],
+    _id: `${name}@1.0.0`,
+    path: `/srv/tidewater/node_modules/${name}`,
+    _dependencies: {},
+  });
+  const listing = {
+    ...manifest("tidewater"),
+    devDependencies: { "harbor-log": "^1.0.0" },
+    dependencies: {
+      "harbor-log": {
+        ...manifest("harbor-log"),
+        dependencies: { "tide-clock": { ...manifest("tide-clock"), dependencies: { "moon-phase": {} } } },
+      },
+      "@tidewater/ink": manifest("@tidewater/ink"),
+      "quay-fmt": {},
+    },
+  };
+
+  it("reads the packages under `dependencies` (6 nodes: the root, 3 dependencies, 2 nested below harbor-log)", async () => {
+    const json = await summary(JSON.stringify(listing, null, 2));
+    expect(json.input).toMatchObject({
+      shape: "nodes",
+      childrenField: "dependencies",
+      childrenFieldFound: true,
+    });
+    expect(json.totals.nodes).toBe(6);
+    expect(paths(json.root)).toEqual([
+      "",
+      "harbor-log",
+      "harbor-log/tide-clock",
+      "harbor-log/tide-clock/moon-phase",
+      "@tidewater~1ink",
+      "quay-fmt",
+    ]);
+  });
+});
+
+describe("a flat configuration object (no name, no size, nothing nested)", () => {
+  it("reads every key as a node rather than one nameless node that drops them", async () => {
+    const json = await summary('{"timeout": 30, "retries": 5, "region": "harrow-north"}');
+    expect(json.input.shape).toBe("values");
+    // The root and its three members.
+    expect(json.totals.nodes).toBe(4);
+    expect(paths(json.root)).toEqual(["", "timeout", "retries", "region"]);
+  });
+
+  it("reads YAML the same way (a one-key file is two nodes)", async () => {
+    const json = await summary("retries: 5\n");
+    expect(json.input.shape).toBe("values");
+    expect(paths(json.root)).toEqual(["", "retries"]);
+  });
+
+  it("reads a top-level array of flat records without names as values, not nameless nodes", async () => {
+    const json = await summary('[{"port": 8080}, {"port": 8081}]');
+    expect(json.input.shape).toBe("values");
+    expect(paths(json.root)).toEqual(["", "0", "0/port", "1", "1/port"]);
+  });
+
+  it("still reads a leaf that has the name or size field as one node", async () => {
+    expect(paths((await summary('{"name": "tidewater", "version": "4.2.0"}')).root)).toEqual([""]);
+    const sized = await summary('[{"name": "ledger", "size": 3}, {"name": "quay", "size": 4}]');
+    expect(sized.input.shape).toBe("nodes");
+    expect(sized.totals).toEqual({ nodes: 3, size: 7 });
+  });
+});

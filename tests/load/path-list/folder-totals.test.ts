@@ -1,0 +1,163 @@
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { EspalierError } from "../../../src/errors.js";
+import { loadTree } from "../../../src/load/index.js";
+import { defaultLoadOptions, type LoadOptions } from "../../../src/load/load-options.js";
+import { measure } from "../../../src/model/measure.js";
+import { opts } from "../helpers.js";
+import { expectSameTree, loadByReference, utf8 } from "../stream/helpers.js";
+
+const paths = (text: string, options: Partial<LoadOptions> = {}) =>
+  loadTree(text, { ...defaultLoadOptions, format: "paths", rootName: "r", ...options });
+
+/** Each node as "name own-size subtree-size", indented by depth, in tree order. */
+function sizes(text: string, options: Partial<LoadOptions> = {}): string[] {
+  const tree = paths(text, options);
+  const m = measure(tree);
+  const out: string[] = [];
+  const walk = (i: number, depth: number) => {
+    out.push(`${"  ".repeat(depth)}${tree.name.get(i)} ${tree.ownSize[i]} ${m.size[i]}`);
+    for (let c = i + 1; c < i + m.count[i]; c += m.count[c]) walk(c, depth + 1);
+  };
+  walk(0, 0);
+  return out;
+}
+
+// Listings in the shape GNU du -ab prints (each folder after its contents, with its total), and find
+// -printf '%s\t%p\n' (each folder first, with its own size). Sizes invented.
+const du =
+  "100\tharbor/tide.log\n4096\tharbor/empty\n2000\tharbor/charts/reef.svg\n6096\tharbor/charts\n14388\tharbor\n";
+
+describe("path lists whose folder lines are totals (du -ab)", () => {
+  it("read each folder's own size as its line minus its contents, so the root is du's total", () => {
+    expect(sizes(du)).toEqual([
+      "harbor 4096 14388",
+      "  tide.log 100 100",
+      "  empty 4096 4096",
+      "  charts 4096 6096",
+      "    reef.svg 2000 2000",
+    ]);
+    expect(paths(du).reading?.folderTotals).toBe(true);
+  });
+
+  it("leave a find listing (folders first) as own sizes, even when folders are bigger than their contents", () => {
+    const find = "4096\tharbor\n100\tharbor/tide.log\n4096\tharbor/charts\n20\tharbor/charts/reef.svg\n";
+    expect(paths(find).reading?.folderTotals).toBeUndefined();
+    expect(measure(paths(find)).size[0]).toBe(4096 + 100 + 4096 + 20);
+  });
+
+  it("leave folders-after-contents with own sizes (find -depth) alone when a folder is smaller than its contents", () => {
+    const depth = "100\tharbor/tide.log\n9000\tharbor/charts/reef.svg\n4096\tharbor/charts\n4096\tharbor\n";
+    expect(paths(depth).reading?.folderTotals).toBeUndefined();
+    expect(measure(paths(depth)).size[0]).toBe(100 + 9000 + 4096 + 4096);
+  });
+
+  it("need sizes somewhere below a folder to read totals (a listing of empty folders stays as it is)", () => {
+    const empty = "0\tharbor/a\n4096\tharbor\n";
+    expect(paths(empty).reading?.folderTotals).toBeUndefined();
+  });
+
+  it("count an ancestor no line names by its contents (du -b of two folders: their parent is made)", () => {
+    const two = "10\tport/a/x\n4106\tport/a\n7\tport/b/y\n4103\tport/b\n";
+    expect(sizes(two)).toEqual(["port 0 8209", "  a 4096 4106", "    x 10 10", "  b 4096 4103", "    y 7 7"]);
+  });
+
+  it("read the root an empty path names last as a folder with its contents (find -depth %P shape)", () => {
+    expect(sizes("10\ta\n20\tb\n4126\t\n", { folderSizes: "total" })).toEqual([
+      "r 4096 4126",
+      "  a 10 10",
+      "  b 20 20",
+    ]);
+  });
+
+  it("folderSizes own keeps each line's size as the node's own", () => {
+    expect(paths(du, { folderSizes: "own" }).reading?.folderTotals).toBeUndefined();
+    expect(measure(paths(du, { folderSizes: "own" })).size[0]).toBe(100 + 4096 + 2000 + 6096 + 14388);
+  });
+
+  it("folderSizes total reads a folders-first listing of totals too", () => {
+    const first = "300\tharbor\n100\tharbor/tide.log\n150\tharbor/charts\n50\tharbor/charts/reef.svg\n";
+    expect(sizes(first, { folderSizes: "total" })).toEqual([
+      "harbor 50 300",
+      "  tide.log 100 100",
+      "  charts 100 150",
+      "    reef.svg 50 50",
+    ]);
+  });
+
+  it("folderSizes total on a folder smaller than its contents is BAD_SIZE at the folder's line", () => {
+    const bad = "100\tharbor/tide.log\n9000\tharbor/charts/reef.svg\n4096\tharbor/charts\n20000\tharbor\n";
+    let error: unknown;
+    try {
+      paths(bad, { folderSizes: "total" });
+    } catch (e) {
+      error = e;
+    }
+    expect(error).toBeInstanceOf(EspalierError);
+    expect((error as EspalierError).code).toBe("BAD_SIZE");
+    expect((error as EspalierError).pos).toEqual({ line: 3, column: 1 });
+    expect((error as EspalierError).message).toContain('"harbor/charts"');
+  });
+});
+
+describe("folder totals on random trees", () => {
+  /** A random tree of folders and files: each entry's own size and its children. */
+  interface Entry {
+    name: string;
+    own: number;
+    kids: Entry[];
+  }
+  const entry: fc.Memo<Entry> = fc.memo((d) =>
+    fc.record({
+      name: fc.constantFrom("tide", "reef", "chart", "buoy", "gull"),
+      own: fc.integer({ min: 0, max: 5000 }),
+      kids: d > 1 ? fc.array(entry(d - 1), { maxLength: 4 }) : fc.constant([]),
+    }),
+  );
+  /** Unique sibling names, so every path is listed once. */
+  const unique = (e: Entry): Entry => {
+    const seen = new Map<string, number>();
+    return {
+      ...e,
+      kids: e.kids.map((k) => {
+        const n = (seen.get(k.name) ?? 0) + 1;
+        seen.set(k.name, n);
+        return unique({ ...k, name: `${k.name}${n}` });
+      }),
+    };
+  };
+  const total = (e: Entry): number => e.own + e.kids.reduce((s, k) => s + total(k), 0);
+  /** Lines as du -ab prints them: contents first, each with its total. */
+  const duLines = (e: Entry, path: string): string[] => [
+    ...e.kids.flatMap((k) => duLines(k, `${path}/${k.name}`)),
+    `${total(e)}\t${path}`,
+  ];
+  /** Lines as find -printf '%s\t%p\n' prints them: each folder first, with its own size. */
+  const findLines = (e: Entry, path: string): string[] => [
+    `${e.own}\t${path}`,
+    ...e.kids.flatMap((k) => findLines(k, `${path}/${k.name}`)),
+  ];
+
+  it("a du -ab listing gives each node its own size back, and agrees with the reference reader", () => {
+    fc.assert(
+      fc.property(entry(5), (raw) => {
+        const top = unique({ ...raw, name: "harbor" });
+        const du = `${duLines(top, "harbor").join("\n")}\n`;
+        const find = `${findLines(top, "harbor").join("\n")}\n`;
+        const fromDu = paths(du);
+        const fromFind = paths(find);
+        // Same tree: the du reading's own sizes are find's, whenever the listing has a sized folder.
+        const hasSizedFolder = (e: Entry): boolean =>
+          e.kids.some((k) => total(k) > 0) || e.kids.some(hasSizedFolder);
+        if (hasSizedFolder(top)) {
+          expect(fromDu.reading?.folderTotals).toBe(true);
+          expect(measure(fromDu).size[0]).toBe(total(top));
+        }
+        expect(measure(fromFind).size[0]).toBe(total(top));
+        expectSameTree(fromDu, loadByReference(utf8(du), opts({ format: "paths" })));
+        expectSameTree(fromFind, loadByReference(utf8(find), opts({ format: "paths" })));
+      }),
+      { numRuns: 200 },
+    );
+  });
+});

@@ -1,0 +1,48 @@
+import { EspalierError } from "../../../src/errors.js";
+import type { NodeSink } from "../../../src/load/node-sink.js";
+
+/**
+ * The reference rule for path lists whose folder lines are totals (as GNU du -ab prints them), written
+ * from its statement rather than from src/load/path-list/folder-totals.ts: with children lists and
+ * recursion, on the nodes a reference reader placed.
+ *
+ * Without a mode, the listing is read as totals when (1) every listed folder comes after all of its
+ * contents (no node below it was first seen after its line), (2) no listed folder's size is less than
+ * what its contents add up to (a listed node counts its size, an unlisted one its contents), and (3)
+ * some listed folder has contents of some size. Read as totals, a listed folder's own size is its size
+ * minus its contents'. Returns whether it read totals.
+ */
+export function folderTotalsByReference(
+  sink: NodeSink,
+  listedAt: ReadonlyMap<number, number>,
+  firstSeen: readonly number[],
+  mode: "own" | "total" | undefined,
+): boolean {
+  if (mode === "own") return false;
+  const n = sink.length;
+  const children: number[][] = Array.from({ length: n }, () => []);
+  for (let i = 0; i < n; i++) if (sink.parentOf[i] !== -1) children[sink.parentOf[i]].push(i);
+  const listed = (i: number) => listedAt.has(i);
+  const contentsOf = (i: number): number => children[i].reduce((sum, c) => sum + standsFor(c), 0);
+  const standsFor = (i: number): number => (listed(i) ? sink.ownSize[i] : contentsOf(i));
+  const below = (i: number): number[] => children[i].flatMap((c) => [c, ...below(c)]);
+  const folders = [...listedAt.keys()].filter((i) => children[i].length > 0);
+  if (mode === undefined) {
+    const afterContents = folders.every((f) => below(f).every((d) => firstSeen[d] < (listedAt.get(f) ?? 0)));
+    const covers = folders.every((f) => sink.ownSize[f] >= contentsOf(f));
+    const sized = folders.some((f) => contentsOf(f) > 0);
+    if (!(afterContents && covers && sized)) return false;
+  }
+  const contents = new Map(folders.map((f) => [f, contentsOf(f)]));
+  for (const [f, c] of contents) {
+    if (sink.ownSize[f] < c) {
+      const line = listedAt.get(f) ?? 0;
+      throw new EspalierError("BAD_SIZE", `line ${line}: folder smaller than its contents`, {
+        line,
+        column: 1,
+      });
+    }
+  }
+  for (const [f, c] of contents) sink.ownSize[f] -= c;
+  return true;
+}
