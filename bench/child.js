@@ -16,7 +16,7 @@
 
 import { constants } from "node:buffer";
 import { createHash } from "node:crypto";
-import { createReadStream, statSync, writeFileSync } from "node:fs";
+import { createReadStream, existsSync, statSync, writeFileSync } from "node:fs";
 import { open, readFile } from "node:fs/promises";
 import { Session } from "node:inspector/promises";
 import { totalmem } from "node:os";
@@ -25,6 +25,7 @@ import { makeRng } from "./generate.js";
 
 const DIST = new URL("../dist/index.js", import.meta.url);
 const CLI = (name) => new URL(`../dist/cli/${name}.js`, import.meta.url);
+const BUNDLED_WORKER = new URL("../dist/bundle/load-worker.js", import.meta.url);
 
 /** The options the CSV loader handed csv-parse before it had its own scanner (the old floor's options). */
 export const LOADER_CSV_OPTIONS = { delimiter: ",", quote: '"', skip_empty_lines: true };
@@ -167,11 +168,10 @@ async function cliModules() {
     import(CLI("options")),
     import(new URL("../dist/render/palette.js", import.meta.url)),
   ]);
-  // loadInWorker from the same compiled modules as the rest of this run (its worker runs
-  // dist/cli/load-worker.js): the tree it sends back is rebuilt with these modules' classes, so the
-  // diff meets one NamePool class, as the command line (all one bundle) does. Taken from the bundle,
-  // the old tree's names were another class, and every name comparison fell back to decoding.
-  const { loadInWorker } = await import(CLI("load-in-worker"));
+  // The tree a worker sends back is rebuilt with these modules' classes, so the diff meets one NamePool
+  // class, as the command line (all one bundle) does: taken from the bundle, the old tree's names were
+  // another class, and every name comparison fell back to decoding.
+  const loadInWorker = await workerLoader();
   return {
     ...input,
     ...settings,
@@ -182,6 +182,37 @@ async function cliModules() {
     ...palette,
     loadInWorker,
   };
+}
+
+/**
+ * Loads a file on a worker thread as the command line does. The command line's worker is the bundle's
+ * load-worker.js (one file; scripts/bundle.js); this one starts that same file and rebuilds the tree it
+ * posts back with dist/'s treeFromMessage, as loadInWorker (src/cli/load-in-worker.ts) does. Without a
+ * bundle, loadInWorker itself, whose worker imports the compiled modules one by one on the clock
+ * (some hundred of them: about 0.3 s of CPU the command line does not spend).
+ */
+async function workerLoader() {
+  const { loadInWorker } = await import(CLI("load-in-worker"));
+  // As bin/load-bundle.js: a bundle older than the compiled modules (a plain tsc since) is not used.
+  const modules = new URL("../dist/cli/load-worker.js", import.meta.url);
+  if (!existsSync(BUNDLED_WORKER) || statSync(BUNDLED_WORKER).mtimeMs < statSync(modules).mtimeMs)
+    return loadInWorker;
+  const [{ Worker }, { treeFromMessage }, { EspalierError }] = await Promise.all([
+    import("node:worker_threads"),
+    import(new URL("../dist/model/tree-message.js", import.meta.url)),
+    import(new URL("../dist/errors.js", import.meta.url)),
+  ]);
+  return (name, options) =>
+    new Promise((resolve, reject) => {
+      const worker = new Worker(BUNDLED_WORKER, { workerData: { name, options } });
+      worker.once("message", (reply) => {
+        if ("tree" in reply) resolve(treeFromMessage(reply.tree));
+        else if ("error" in reply) reject(EspalierError.fromData(reply.error));
+        else reject(new Error(reply.failure));
+        void worker.terminate();
+      });
+      worker.once("error", reject);
+    });
 }
 
 /**

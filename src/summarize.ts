@@ -142,7 +142,7 @@ function parentsOf(tree: Tree, refs: ReferenceIndex | null, selection: Selection
     const own = p >= 0 && !(p === 0 && tree.syntheticRoot) ? 1 : 0;
     const toI = refs.of(i);
     let hidden = 0;
-    for (const r of toI) if (selection.shown[r] === 0) hidden++;
+    for (const r of toI) if (!selection.isShown(r)) hidden++;
     const count = own + toI.length;
     return count >= 2 ? { count, hidden } : undefined;
   };

@@ -210,7 +210,8 @@ export function displayName(input: string): string {
 async function streamTree(io: CliIO, input: string, options: LoadOptions): Promise<Tree> {
   const source = await readInputStream(io, input);
   const chunks = withProgress(source.chunks, io, displayName(input), source.size);
-  return loadTreeFromStream(chunks, options, readAgain(io, input, source.size));
+  const sized = source.size === undefined ? options : { ...options, inputBytes: source.size };
+  return loadTreeFromStream(chunks, sized, readAgain(io, input, source.size));
 }
 
 /**

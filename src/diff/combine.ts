@@ -246,23 +246,16 @@ function copyTree(
   const newIds = newTree.ids;
   const oldIds = oldTree.ids;
   // The new version's names (and ids) are shared, not copied: only the removed nodes' are copied in.
-  const name = sharedOrEmpty(newName, newIndex, total, 12);
-  const ids = useIds ? sharedOrEmpty(newIds!, newIndex, total, 8) : null;
-  const copyNew = !(newName instanceof NamePool);
-  const copyNewIds = ids !== null && !(newIds instanceof NamePool);
+  const name = combinedNames(newName, newIndex, oldName, oldIndex, total, 12);
+  const ids = useIds ? combinedNames(newIds!, newIndex, oldIds!, oldIndex, total, 8) : null;
   for (let k = 0; k < total; k++) {
     const n = newIndex[k];
     depth[k] = k === 0 ? 0 : depth[parent[k]] + 1;
     if (n >= 0) {
-      if (copyNew) copyName(name, k, newName, n);
       origin[k] = newOrigin[n];
       ownSize[k] = newSize[n];
-      if (copyNewIds) copyName(ids, k, newIds!, n);
     } else {
-      const o = oldIndex[k];
-      copyName(name, k, oldName, o);
-      origin[k] = oldOrigin[o];
-      if (ids) copyName(ids, k, oldIds!, o);
+      origin[k] = oldOrigin[oldIndex[k]];
     }
   }
   const fieldValues = keys.map((key) => {
@@ -293,9 +286,25 @@ function copyTree(
 }
 
 /**
- * A pool whose node k has name `from[k]` of `names` (the empty name where `from[k]` is -1) sharing its
- * bytes, when `names` is a pool; else an empty pool for `total` names of about `perName` bytes.
+ * The combined tree's names: node k has name `newIndex[k]` of the new version's, or where that is -1
+ * (a removed node) name `oldIndex[k]` of the old version's. A new version's pool lends its bytes (only
+ * the removed names are copied, see NamePool.mergedWith); other names are copied into a pool of about
+ * `perName` bytes a name.
  */
-function sharedOrEmpty(names: Names, from: Int32Array, total: number, perName: number): NamePool {
-  return names instanceof NamePool ? names.reordered(from, "") : new NamePool(total, total * perName);
+function combinedNames(
+  newNames: Names,
+  newIndex: Int32Array,
+  oldNames: Names,
+  oldIndex: Int32Array,
+  total: number,
+  perName: number,
+): NamePool {
+  if (newNames instanceof NamePool) return newNames.mergedWith(newIndex, oldNames, oldIndex);
+  const out = new NamePool(total, total * perName);
+  for (let k = 0; k < total; k++) {
+    const n = newIndex[k];
+    if (n >= 0) copyName(out, k, newNames, n);
+    else copyName(out, k, oldNames, oldIndex[k]);
+  }
+  return out;
 }

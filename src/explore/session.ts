@@ -168,7 +168,19 @@ function fitted(
   view: Fitted["view"],
 ): Fitted {
   const shown = Int32Array.from(selection.admitted).sort();
-  return { lines, groups, shown, isShown: selection.shown, order, selection, headerLines, view };
+  return {
+    lines,
+    groups,
+    shown,
+    // A flag per node of the tree, made when a key first needs it (see Selection.shown).
+    get isShown() {
+      return selection.shown;
+    },
+    order,
+    selection,
+    headerLines,
+    view,
+  };
 }
 
 type FitFn = Session["fit"];

@@ -1,4 +1,5 @@
 import { EspalierError } from "../errors.js";
+import { NodeTable } from "../interest/node-table.js";
 import type { NodeOrder } from "../interest/order.js";
 import type { Scores } from "../interest/scores.js";
 import type { Measures } from "../model/measure.js";
@@ -7,8 +8,13 @@ import { NodeHeap } from "./heap.js";
 
 /** The nodes chosen for display. */
 export interface Selection {
-  /** 1 where a node is shown. */
+  /**
+   * 1 where a node is shown: one flag per node of the tree, made on first read (a fit keeps only the
+   * few shown nodes; {@link isShown} asks without making it).
+   */
   readonly shown: Uint8Array;
+  /** Whether node `i` is shown, as `shown[i] === 1`. */
+  isShown(i: number): boolean;
   /** Shown nodes in admission order: forced nodes (pre-order), then the order's prefix. */
   readonly admitted: Int32Array;
   /** How many of `admitted` are forced. */
@@ -70,7 +76,11 @@ export function select(ranked: Ranked, options: SelectOptions): Selection {
   const { tree, measures, scores, order } = ranked;
   const { budget, headerLines = 0, chains = false, childrenInOrder } = options;
   const n = tree.length;
-  const shown = new Uint8Array(n);
+  // The shown nodes by number: a fit shows a few of a tree's nodes, so a new focus allocates nothing
+  // the size of the tree (a flag per node, a megabyte a call at a million nodes, brought the engine's
+  // full collections, meant for large outside memory, into the calls).
+  const shown = new NodeTable(64);
+  const isShown = (x: number) => shown.get(x) !== -1;
   const { count } = measures;
   const { forcedNodes } = scores;
   const cost = (x: number) => lineCost(tree, measures, scores, chains, x);
@@ -86,7 +96,7 @@ export function select(ranked: Ranked, options: SelectOptions): Selection {
   }
   const admitted: number[] = [];
   for (const f of forcedNodes) {
-    shown[f] = 1;
+    shown.set(f, 1);
     admitted.push(f);
   }
   let lines = needed;
@@ -98,7 +108,7 @@ export function select(ranked: Ranked, options: SelectOptions): Selection {
     const end = p + count[p];
     if (count[p + 1] + 1 === count[p]) {
       // An only child (it may cost no line, see lineCost).
-      if (!shown[p + 1]) heap.push(p + 1);
+      if (!isShown(p + 1)) heap.push(p + 1);
       return;
     }
     // Two or more children each cost a line, so at most `budget - lines` of them can still enter;
@@ -110,14 +120,14 @@ export function select(ranked: Ranked, options: SelectOptions): Selection {
     const sorted = childrenInOrder?.(p);
     if (sorted) {
       for (let k = 0, taken = 0; k < sorted.length && taken < keep; k++) {
-        if (shown[sorted[k]]) continue;
+        if (isShown(sorted[k])) continue;
         heap.push(sorted[k]);
         taken++;
       }
       return;
     }
     for (let c = p + 1; c < end; c += count[c]) {
-      if (shown[c]) continue;
+      if (isShown(c)) continue;
       if (best.size < keep) best.push(c);
       else if (order(c, best.peek()) < 0) {
         best.pop();
@@ -131,14 +141,34 @@ export function select(ranked: Ranked, options: SelectOptions): Selection {
   while (heap.size > 0 && lines + cost(heap.peek()) <= budget) {
     const next = heap.pop();
     lines += cost(next);
-    shown[next] = 1;
+    shown.set(next, 1);
     admitted.push(next);
     pushChildren(next);
   }
-  return {
-    shown,
-    admitted: Int32Array.from(admitted),
-    forcedCount: forcedNodes.length,
-    lines,
-  };
+  return new Chosen(n, Int32Array.from(admitted), forcedNodes.length, lines, shown);
+}
+
+/** A {@link Selection} whose flags per node are made only when read. */
+class Chosen implements Selection {
+  private flags: Uint8Array | null = null;
+
+  constructor(
+    private readonly n: number,
+    readonly admitted: Int32Array,
+    readonly forcedCount: number,
+    readonly lines: number,
+    private readonly table: NodeTable,
+  ) {}
+
+  isShown(i: number): boolean {
+    return this.table.get(i) !== -1;
+  }
+
+  get shown(): Uint8Array {
+    if (this.flags === null) {
+      this.flags = new Uint8Array(this.n);
+      for (const x of this.admitted) this.flags[x] = 1;
+    }
+    return this.flags;
+  }
 }

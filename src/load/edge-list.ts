@@ -53,7 +53,11 @@ export class EdgeListReader {
   private pendingCount = 0;
   private touched = 0;
 
-  constructor(private readonly options: Pick<LoadOptions, "maxNodes" | "rootName">) {}
+  // Lines and their bytes at the end of the last call of lines() (for the edge arrays, see moreEdges).
+  private linesDone = 0;
+  private bytesDone = 0;
+
+  constructor(private readonly options: Pick<LoadOptions, "maxNodes" | "rootName" | "inputBytes">) {}
 
   /** Reads the whole lines in `buf[s, e)` (the last may lack its "\n" only at the end of the input). */
   lines(buf: Uint8Array, s: number, e: number): void {
@@ -74,6 +78,8 @@ export class EdgeListReader {
       at = end + 1;
     }
     if (this.pendingCount > 0) this.enterPending(buf);
+    this.linesDone = this.line;
+    this.bytesDone += e - s;
   }
 
   /**
@@ -243,15 +249,31 @@ export class EdgeListReader {
     this.lastHash = hp;
     const c = this.idOf(buf, cs, ce, hc);
     const k = this.edges;
-    if (k === this.from.length) {
-      this.from = doubled(this.from);
-      this.to = doubled(this.to);
-      this.edgeLine = doubled(this.edgeLine);
-    }
+    if (k === this.from.length) this.moreEdges();
     this.from[k] = p;
     this.to[k] = c;
     this.edgeLine[k] = this.line;
     this.edges = k + 1;
+  }
+
+  /**
+   * Longer edge arrays: twice as long, or, when the input's length is known, as long as its lines are
+   * likely to be (its bytes over the bytes per line of the pieces read so far, plus 5%), between twice and 16 times as
+   * long: each growth allocates and copies, and fresh memory costs its first touch, so a graph of
+   * millions of edges grows two or three times rather than a dozen (a line much longer than those
+   * before only makes the next growth come sooner).
+   */
+  private moreEdges(): void {
+    const now = this.from.length;
+    let length = 2 * now;
+    const total = this.options.inputBytes;
+    if (total !== undefined && this.linesDone > 0) {
+      const likely = Math.ceil(((total / this.bytesDone) * this.linesDone * 21) / 20);
+      length = Math.min(16 * now, Math.max(length, likely));
+    }
+    this.from = longer(this.from, length);
+    this.to = longer(this.to, length);
+    this.edgeLine = longer(this.edgeLine, length);
   }
 
   /** The node with the id `buf[s, e)` (`hash`: FNV-1a of its bytes from ID_SEED), added on first sight. */
@@ -375,6 +397,13 @@ export class EdgeListReader {
       repeatedEdges: "skip",
     };
   }
+}
+
+/** An Int32Array of `length` with the same prefix. */
+function longer(a: Int32Array, length: number): Int32Array<ArrayBuffer> {
+  const grown = new Int32Array(length);
+  grown.set(a);
+  return grown;
 }
 
 function grownU32(a: Uint32Array): Uint32Array<ArrayBuffer> {

@@ -49,6 +49,11 @@ export interface LoadOptions {
   /** Lower limits of reading than `readLimits` (see read-limits.ts); tests and the fuzzer use tiny ones. */
   limits?: Partial<ReadLimits>;
   /**
+   * The input's length in bytes, when known before reading (a named regular file): a reader may size
+   * its arrays from it (an edge list, see edge-list.ts). A hint only: nothing is refused by it.
+   */
+  inputBytes?: number;
+  /**
    * JSON and YAML: `nodes` reads node objects (children under the children field, or a field found to
    * hold them), `values` makes every value of the document a node; undefined chooses by the document
    * (src/load/shape/choose-reading.ts).

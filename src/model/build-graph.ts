@@ -1,5 +1,6 @@
 import { EspalierError, quoted, say } from "../errors.js";
 import { checkSizes } from "./check-sizes.js";
+import { type GraphNeighbours, rememberNeighbours } from "./graph-neighbours.js";
 import type { GraphNodes } from "./graph-nodes.js";
 import type { LinkedNodes } from "./linked-nodes.js";
 import { NamePool, type Names } from "./names.js";
@@ -134,6 +135,11 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   }
   const synthetic = tops !== 1;
   const slots = n + (synthetic ? 1 : 0) + (live - (n - tops));
+  // From here on each position's line, in place of its edge's number: the layout gives a reference
+  // its edge's line from the position it is at, without a second lookup.
+  const { edgeOrigin } = graph;
+  for (let j = 0; j < E; j++) out[j] = edgeOrigin[out[j]];
+  const outLine = out;
 
   // Pre-order layout: entries and references of each node in input order of their edges. A reference's
   // referenceTo holds its node until every entry has its slot, then the slot of that node's entry.
@@ -146,7 +152,9 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   const slotOf = new Int32Array(n).fill(-1);
   const nodeSize = graph.ownSize;
   const nodeOrigin = graph.origin;
-  const { edgeOrigin } = graph;
+  // Sizes are copied to the entries only when some node has one (ownSize starts at 0).
+  let sized = false;
+  for (let i = 0; i < n && !sized; i++) if (nodeSize[i] !== 0) sized = true;
   let next = 0;
   const base = synthetic ? 1 : 0;
   if (synthetic) {
@@ -159,7 +167,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     parent[s] = p;
     depth[s] = p === -1 ? 0 : depth[p] + 1;
     from[s] = node;
-    ownSize[s] = nodeSize[node];
+    if (sized) ownSize[s] = nodeSize[node];
     origin[s] = nodeOrigin[node];
     slotOf[node] = s;
     cursor[node] = outStart[node];
@@ -191,7 +199,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
         depth[s] = depth[pu] + 1;
         from[s] = v;
         referenceTo[s] = v;
-        origin[s] = edgeOrigin[out[j]];
+        origin[s] = outLine[j];
       }
     }
   }
@@ -205,7 +213,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   }
   const hasReferences = slots > n + base;
   const names = name.reordered(from, graph.rootName);
-  return {
+  const tree: Tree = {
     length: slots,
     parent,
     depth,
@@ -222,6 +230,58 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     reading: { shape: "graph", sizeUnit: graph.sizeUnit },
     ...(hasReferences ? { referenceTo } : {}),
   };
+  if (hasReferences) {
+    // The graph interest's neighbour table, from the edges at hand (see graph-neighbours.ts): nodes by
+    // their own numbers, so a slot's node is the node it shows (the added root: n).
+    if (synthetic) from[0] = n;
+    const topNodes = new Int32Array(synthetic ? tops : 0);
+    if (synthetic) for (let i = 0, t = 0; i < n; i++) if (rec[3 * i] === -1) topNodes[t++] = i;
+    rememberNeighbours(tree, neighbourTable(outStart, outTo, inDegree, topNodes, from));
+  }
+  return tree;
+}
+
+/**
+ * The neighbour table ({@link GraphNeighbours}) of a graph's nodes by their own numbers, the root
+ * espalier adds (when `tops`, the top-level nodes under it, are given) being node n: each node's
+ * children (its out-edges in order; a repeated edge gives a repeated neighbour, which changes no
+ * distance), then its parents, then its link to the added root. `inDegree` (edges into each node) is
+ * used up as the place of each node's next parent.
+ */
+function neighbourTable(
+  outStart: Int32Array,
+  outTo: Int32Array,
+  inDegree: Int32Array,
+  tops: Int32Array,
+  nodeOf: Int32Array,
+): GraphNeighbours {
+  const n = outStart.length - 1;
+  const root = tops.length > 0 ? n : -1;
+  const nodes = root === -1 ? n : n + 1;
+  const start = new Int32Array(nodes + 1);
+  for (let u = 0; u < n; u++) start[u + 1] = outStart[u + 1] - outStart[u] + inDegree[u];
+  for (let k = 0; k < tops.length; k++) start[tops[k] + 1]++;
+  if (root !== -1) start[root + 1] = tops.length;
+  for (let u = 0; u < nodes; u++) start[u + 1] += start[u];
+  const adjacent = new Int32Array(start[nodes]);
+  const parentAt = inDegree;
+  for (let u = 0; u < n; u++) parentAt[u] = start[u] + outStart[u + 1] - outStart[u];
+  for (let u = 0; u < n; u++) {
+    let k = start[u];
+    for (let j = outStart[u], end = outStart[u + 1]; j < end; j++) {
+      const v = outTo[j];
+      adjacent[k++] = v;
+      adjacent[parentAt[v]++] = u;
+    }
+  }
+  if (root !== -1) {
+    let k = start[root];
+    for (let t = 0; t < tops.length; t++) {
+      adjacent[k++] = tops[t];
+      adjacent[parentAt[tops[t]]++] = root;
+    }
+  }
+  return { nodes, nodeOf, start, adjacent };
 }
 
 /**

@@ -2,9 +2,10 @@ import type { Tree } from "./tree.js";
 
 /**
  * The graph a tree with references stands for, node by node, for searches over it (graph interest):
- * each node (a full entry) is numbered in pre-order of the entries, and its neighbours (the edges
+ * each node has a number (any numbering: a graph built from edges keeps its own, see
+ * model/build-graph.ts; otherwise the pre-order of the full entries), and its neighbours (the edges
  * taken both ways: its parent, the nodes of its child slots, the parents of the references to it) are
- * one run of a flat array. A search then reads one run per node and one array the size of the nodes,
+ * one run of a flat array, in any order, possibly with repeats. A search then reads one run per node and one array the size of the nodes,
  * instead of walking child slots and references scattered over the tree's slots, which are several
  * times as many as the nodes in a graph with many shared nodes.
  */
@@ -18,8 +19,26 @@ export interface GraphNeighbours {
   readonly adjacent: Int32Array;
 }
 
+/** Tables made with the tree they belong to (model/build-graph.ts), by tree. */
+const known = new WeakMap<Tree, GraphNeighbours>();
+
+/**
+ * Keeps `table` as the neighbour table of `tree`, which was made from the same edges (a tree is not
+ * changed once made; a tree derived from it is another object, whose table is made from its slots).
+ */
+export function rememberNeighbours(tree: Tree, table: GraphNeighbours): void {
+  known.set(tree, table);
+}
+
 /** The neighbours of every node of `tree`, a tree with references (see {@link GraphNeighbours}). */
 export function graphNeighbours(tree: Tree): GraphNeighbours {
+  const table = known.get(tree);
+  if (table !== undefined) return table;
+  return neighboursFromSlots(tree);
+}
+
+/** The table made from the tree's slots: nodes numbered in pre-order of their full entries. */
+export function neighboursFromSlots(tree: Tree): GraphNeighbours {
   const n = tree.length;
   const { parent } = tree;
   const to = tree.referenceTo;

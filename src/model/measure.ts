@@ -20,26 +20,59 @@ export interface Measures {
   readonly children: Int32Array;
 }
 
-/** One reverse pass over the pre-order arrays: every child is folded into its parent. */
+/**
+ * One reverse pass over the pre-order arrays: every child is folded into its parent. `leaves` and
+ * `height`, which no summary or diff reads, are made by a pass of their own when first read.
+ */
 export function measure(tree: Tree): Measures {
   const n = tree.length;
   const { parent, ownSize } = tree;
   const count = new Int32Array(n).fill(1);
   const size = new Float64Array(ownSize);
-  const leaves = new Int32Array(n);
-  const height = new Int32Array(n);
   const children = new Int32Array(n);
-  for (let i = n - 1; i >= 0; i--) {
-    if (count[i] === 1) leaves[i] = 1;
+  for (let i = n - 1; i > 0; i--) {
     const p = parent[i];
     if (p < 0) continue;
     count[p] += count[i];
     children[p]++;
     size[p] += size[i];
-    leaves[p] += leaves[i];
-    if (height[i] + 1 > height[p]) height[p] = height[i] + 1;
   }
-  return { count, nodes: subtreeNodes(tree, count), size, leaves, height, children };
+  let leaves: Int32Array | undefined;
+  let height: Int32Array | undefined;
+  return {
+    count,
+    nodes: subtreeNodes(tree, count),
+    size,
+    get leaves() {
+      leaves ??= leavesOf(parent, count);
+      return leaves;
+    },
+    get height() {
+      height ??= heightOf(parent);
+      return height;
+    },
+    children,
+  };
+}
+
+/** Leaves in every subtree (a reverse pass, as above). */
+function leavesOf(parent: Int32Array, count: Int32Array): Int32Array {
+  const leaves = new Int32Array(count.length);
+  for (let i = count.length - 1; i >= 0; i--) {
+    if (count[i] === 1) leaves[i] = 1;
+    if (parent[i] >= 0) leaves[parent[i]] += leaves[i];
+  }
+  return leaves;
+}
+
+/** Edges on the longest downward path of every node (a reverse pass, as above). */
+function heightOf(parent: Int32Array): Int32Array {
+  const height = new Int32Array(parent.length);
+  for (let i = parent.length - 1; i > 0; i--) {
+    const p = parent[i];
+    if (p >= 0 && height[i] + 1 > height[p]) height[p] = height[i] + 1;
+  }
+  return height;
 }
 
 /**

@@ -94,6 +94,12 @@ export function namesToArray(names: Names): string[] {
 }
 
 const LONGEST_POOL = 2 ** 32 - 1;
+/**
+ * For a byte buffer that several pools read (see {@link NamePool.reordered}): where the bytes some pool
+ * wrote end. A pool whose own end is that end wrote last (or none has written since they began to
+ * share), so the room past it is free and it may append there; any other pool copies the bytes first.
+ */
+const writtenEnd = new WeakMap<Uint8Array, number>();
 /** Places of a name's bytes in the pool beyond which {@link NamePool.indexOfBytes} compares names one by one. */
 const MOST_PLACES = 64;
 
@@ -110,7 +116,8 @@ export class NamePool implements Names {
   private start: Uint32Array;
   private size: Uint32Array;
   private exact: Map<number, string> | null = null;
-  // Set when another pool reads these bytes too (see reordered): the next append copies them first.
+  // Set when another pool reads these bytes too (see reordered): an append copies them first unless
+  // this pool wrote last (writtenEnd).
   private shared = false;
 
   constructor(capacity = 1024, poolBytes = 1 << 16) {
@@ -147,7 +154,7 @@ export class NamePool implements Names {
     // A loop, not set(src.subarray(...)): a name is short, and a view object per name costs more.
     if (n <= 64) for (let k = 0; k < n; k++) bytes[at + k] = src[s + k];
     else bytes.set(src.subarray(s, e), at);
-    this.used = at + n;
+    this.commit(at + n);
     this.place(i, at, n);
   }
 
@@ -159,7 +166,7 @@ export class NamePool implements Names {
     }
     const at = this.reserve(text.length * 3);
     const n = codecs.utf8Write(this.bytes, text, at, text.length * 3);
-    this.used = at + n;
+    this.commit(at + n);
     this.place(i, at, n);
     if (!text.isWellFormed()) {
       this.exact ??= new Map();
@@ -185,7 +192,7 @@ export class NamePool implements Names {
     const a = this.bytes;
     const b = src.bytes;
     for (let d = 0; d < n; d++) a[at + d] = b[from + d];
-    this.used = at + n;
+    this.commit(at + n);
     this.place(k, at, n);
   }
 
@@ -265,28 +272,22 @@ export class NamePool implements Names {
    * `from[k]` is -1 (a root espalier adds).
    */
   reordered(from: Int32Array, extra: string): NamePool {
-    const total = from.length;
-    // The extra name goes into this pool first; after that both pools copy the bytes before writing.
+    // The extra name goes into this pool first; after that both pools read the same bytes.
     const extraAt = this.used;
     const extraSize = extra === "" ? 0 : Buffer.byteLength(extra, "utf8");
     if (extraSize > 0) {
-      this.reserve(extraSize);
-      this.used = extraAt + codecs.utf8Write(this.bytes, extra, extraAt, extraSize);
+      const at = this.reserve(extraSize);
+      this.commit(at + codecs.utf8Write(this.bytes, extra, at, extraSize));
     }
-    const out = new NamePool(total, 16);
-    out.bytes = this.bytes;
-    out.used = this.used;
-    out.shared = true;
-    this.shared = true;
-    out.length = total;
-    for (let k = 0; k < total; k++) {
+    const out = this.sharedPool(from.length);
+    for (let k = 0; k < from.length; k++) {
       const o = from[k];
       out.start[k] = o === -1 ? extraAt : this.start[o];
       out.size[k] = o === -1 ? extraSize : this.size[o];
     }
     const exactExtra = !extra.isWellFormed();
     if (this.exact !== null || exactExtra)
-      for (let k = 0; k < total; k++) {
+      for (let k = 0; k < from.length; k++) {
         const text = from[k] === -1 ? (exactExtra ? extra : undefined) : this.exact?.get(from[k]);
         if (text !== undefined) {
           out.exact ??= new Map();
@@ -294,6 +295,87 @@ export class NamePool implements Names {
         }
       }
     return out;
+  }
+
+  /**
+   * A new pool sharing these bytes whose node k has the name of node `from[k]` here or, where `from[k]`
+   * is -1, name `otherFrom[k]` of `other`. Those other names are appended to this pool first (where it
+   * has room and no other pool wrote there, in place; else its bytes are copied once), so this pool's
+   * names stay as they are and only the other names' bytes are copied: a diff's combined tree takes
+   * the new version's names and the removed nodes' from the old.
+   */
+  mergedWith(from: Int32Array, other: Names, otherFrom: Int32Array): NamePool {
+    const total = from.length;
+    const out = new NamePool(total, 16);
+    let exact: Map<number, string> | null = null;
+    for (let k = 0; k < total; k++) {
+      if (from[k] !== -1) continue;
+      // Through a tree put under a new root to the pool below, as copyName does.
+      let names = other;
+      let o = otherFrom[k];
+      while (names instanceof PrefixedNames && o > 0) {
+        names = names.rest;
+        o--;
+      }
+      const pool = names instanceof NamePool ? names : null;
+      const text = pool === null ? names.get(o) : pool.exact?.get(o);
+      let at: number;
+      let n: number;
+      if (text === undefined) {
+        n = pool!.size[o];
+        at = this.reserve(n);
+        const a = this.bytes;
+        const b = pool!.bytes;
+        for (let d = 0, s = pool!.start[o]; d < n; d++) a[at + d] = b[s + d];
+      } else {
+        at = this.reserve(text.length * 3);
+        n = codecs.utf8Write(this.bytes, text, at, text.length * 3);
+        if (!text.isWellFormed()) {
+          exact ??= new Map();
+          exact.set(k, text);
+        }
+      }
+      this.commit(at + n);
+      out.start[k] = at;
+      out.size[k] = n;
+    }
+    this.share(out);
+    out.length = total;
+    for (let k = 0; k < total; k++) {
+      const i = from[k];
+      if (i === -1) continue;
+      out.start[k] = this.start[i];
+      out.size[k] = this.size[i];
+    }
+    if (this.exact !== null)
+      for (let k = 0; k < total; k++) {
+        const text = from[k] === -1 ? undefined : this.exact.get(from[k]);
+        if (text !== undefined) {
+          exact ??= new Map();
+          exact.set(k, text);
+        }
+      }
+    out.exact = exact;
+    return out;
+  }
+
+  /** A pool for `total` names reading this pool's bytes (its names still to be placed). */
+  private sharedPool(total: number): NamePool {
+    const out = new NamePool(total, 16);
+    this.share(out);
+    out.length = total;
+    return out;
+  }
+
+  /** Makes `out` read this pool's bytes: from now on both pools share them (see writtenEnd). */
+  private share(out: NamePool): void {
+    if (!this.shared) {
+      this.shared = true;
+      writtenEnd.set(this.bytes, this.used);
+    }
+    out.bytes = this.bytes;
+    out.used = this.used;
+    out.shared = true;
   }
 
   /** A pool of these strings, in order (a missing one is ""). */
@@ -319,7 +401,9 @@ export class NamePool implements Names {
     const pool = new NamePool(1, 16);
     pool.bytes = Buffer.from(parts.bytes.buffer, parts.bytes.byteOffset, parts.bytes.byteLength);
     pool.used = parts.bytes.byteLength;
-    pool.shared = true; // the received bytes are exactly full: the next append copies them
+    // The received bytes are exactly full: the next append copies them.
+    pool.shared = true;
+    writtenEnd.set(pool.bytes, pool.used);
     // Adopted, not copied: they arrived as this thread's own (copied or moved); growing replaces them.
     if (parts.length > 0) {
       pool.start = parts.start;
@@ -338,10 +422,20 @@ export class NamePool implements Names {
     if (this.exact !== null) this.exact.delete(i);
   }
 
-  /** Where `n` more bytes can go; grows the pool when they would not fit. */
+  /** Ends this pool's bytes at `end` (past what it just wrote at its end). */
+  private commit(end: number): void {
+    this.used = end;
+    if (this.shared) writtenEnd.set(this.bytes, end);
+  }
+
+  /**
+   * Where `n` more bytes can go: this pool's end, when they fit and no other pool reading these bytes
+   * wrote past it; else the bytes are copied to a larger buffer of this pool's own first.
+   */
   private reserve(n: number): number {
     const need = this.used + n;
-    if (need <= this.bytes.length && !this.shared) return this.used;
+    if (need <= this.bytes.length && (!this.shared || writtenEnd.get(this.bytes) === this.used))
+      return this.used;
     if (need > LONGEST_POOL) {
       throw new EspalierError(
         "LIMIT_EXCEEDED",

@@ -38,7 +38,6 @@ export function buildView(input: ViewInput): HierarchyNode<ViewNode> {
   const { tree, measures } = index;
   const { count, nodes, size, children } = measures;
   const ref = tree.referenceTo;
-  const { shown } = selection;
   const isFocus = new Set(foci);
   const byIndex = new Map<number, ViewNode>();
   // The shown nodes in pre-order (parents first); a sort of the shown set, never a walk of the tree.
@@ -114,7 +113,8 @@ export function buildView(input: ViewInput): HierarchyNode<ViewNode> {
   }
   function hiddenSize(i: number): number {
     let total = 0;
-    for (let c = i + 1, end = i + count[i]; c < end; c += count[c]) if (!shown[c]) total += size[c];
+    for (let c = i + 1, end = i + count[i]; c < end; c += count[c])
+      if (!selection.isShown(c)) total += size[c];
     return total;
   }
 

@@ -129,6 +129,27 @@ describe("loadTree(csv, { graph: true })", () => {
     }
   });
 
+  it("counts blank lines wherever the stream's chunks end: the same lines in memory and streamed", async () => {
+    const text = "a b\n\nb c\n\n\nc a\n  \nd\n\n";
+    const bytes = Buffer.from(text);
+    const whole = loadTree(text, opts({ format: "edges" }));
+    // Slots: the root espalier adds (0), a, b, c at the lines they first appear on, the reference of
+    // "c a" (it closes a cycle) at its line, d.
+    expect([...whole.origin]).toEqual([0, 1, 1, 3, 6, 8]);
+    const bad = `${text}e f g\n`;
+    for (let cut = 1; cut < bytes.length; cut++) {
+      const pieces = [bytes.subarray(0, cut), bytes.subarray(cut)];
+      const streamed = await loadTreeFromStream(Readable.from(pieces), opts({ format: "edges" }));
+      expect([...streamed.origin]).toEqual([...whole.origin]);
+      const badBytes = Buffer.from(bad);
+      const error = await loadTreeFromStream(
+        Readable.from([badBytes.subarray(0, cut), badBytes.subarray(cut)]),
+        opts({ format: "edges" }),
+      ).catch((err: unknown) => err);
+      expect(error).toMatchObject({ code: "SHAPE", pos: { line: 10, column: 5 } });
+    }
+  });
+
   it("names a parent that no row has with MISSING_PARENT", () => {
     expect(caught(() => loadTree("id,parent\na,\nb,zz\n", opts({ format: "csv", graph: true }))).code).toBe(
       "MISSING_PARENT",

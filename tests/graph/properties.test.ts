@@ -5,6 +5,7 @@ import { graphInterest } from "../../src/interest/graph-doi.js";
 import { type Importance, importance } from "../../src/interest/importance.js";
 import { loadTree } from "../../src/load/index.js";
 import { csvTableFromBytes } from "../../src/load/table/csv-table.js";
+import { graphNeighbours, neighboursFromSlots } from "../../src/model/graph-neighbours.js";
 import { measure } from "../../src/model/measure.js";
 import { referencesTo } from "../../src/model/reference-index.js";
 import type { Tree } from "../../src/model/tree.js";
@@ -266,6 +267,37 @@ describe("graphs: on an input that is a tree", () => {
         expect(all.map((i) => graph.isForced(i))).toEqual([...plain.forced].map((f) => f === 1));
         expect([...graph.forcedNodes]).toEqual([...plain.forcedNodes]);
       }),
+    );
+  });
+});
+
+describe("graphs: the neighbour table of graph interest", () => {
+  it("scores alike with the table the loader made from the edges and the one made from the slots", () => {
+    fc.assert(
+      fc.property(
+        arbSizedGraph,
+        fc.array(fc.nat(), { minLength: 1, maxLength: 3 }),
+        kinds,
+        (g, picks, kind) => {
+          const tree = load(g.text, g.sizes);
+          if (tree.referenceTo === undefined) return; // no reference: scored as a tree
+          const built = graphNeighbours(tree);
+          const fromSlots = neighboursFromSlots(tree);
+          // Two tables of the same graph, each numbering nodes its own way.
+          expect(built).not.toBe(fromSlots);
+          expect(built.adjacent.length).toBeGreaterThanOrEqual(fromSlots.adjacent.length);
+          const m = measure(tree);
+          const api = importance(tree, m, kind);
+          const entries = [...tree.parent.keys()].filter((s) => tree.referenceTo![s] === -1);
+          const foci = Int32Array.from(new Set(picks.map((k) => entries[k % entries.length]))).sort();
+          const refs = referencesTo(tree, foci)!;
+          const a = graphInterest(tree, m, api, foci, refs, built);
+          const b = graphInterest(tree, m, api, foci, refs, fromSlots);
+          const all = [...tree.parent.keys()];
+          expect(all.map((i) => a.interestOf(i))).toEqual(all.map((i) => b.interestOf(i)));
+          expect(all.map((i) => a.distanceOf(i))).toEqual(all.map((i) => b.distanceOf(i)));
+        },
+      ),
     );
   });
 });

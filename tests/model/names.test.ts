@@ -149,6 +149,88 @@ describe("NamePool", () => {
     );
   });
 
+  it("merges in another tree's names, copying only theirs, and never changes either pool", () => {
+    const mine = new NamePool(1, 1024); // room to spare: the other names go in place
+    ["r", "a", "b\ud800"].forEach((t, i) => {
+      mine.setString(i, t);
+    });
+    const theirs = new NamePool(1, 64);
+    ["R", "gone", "Ærø", "x\udc00"].forEach((t, i) => {
+      theirs.setString(i, t);
+    });
+    const from = Int32Array.of(0, -1, 1, -1, 2, -1);
+    const otherFrom = Int32Array.of(-1, 1, -1, 2, -1, 3);
+    const merged = mine.mergedWith(from, theirs, otherFrom);
+    expect(namesToArray(merged)).toEqual(["r", "gone", "a", "Ærø", "b\ud800", "x\udc00"]);
+    // Through a tree put under a new root, as copyName reads it.
+    const wrapped = mine.mergedWith(
+      Int32Array.of(-1, 0),
+      new PrefixedNames("top", theirs),
+      Int32Array.of(2, 0),
+    );
+    expect(namesToArray(wrapped)).toEqual(["gone", "r"]);
+    mine.setString(1, "later");
+    merged.setString(0, "again");
+    expect(namesToArray(mine)).toEqual(["r", "later", "b\ud800"]);
+    expect(namesToArray(merged)).toEqual(["again", "gone", "a", "Ærø", "b\ud800", "x\udc00"]);
+    expect(namesToArray(wrapped)).toEqual(["gone", "r"]);
+    expect(namesToArray(theirs)).toEqual(["R", "gone", "Ærø", "x\udc00"]);
+  });
+
+  it("keeps every pool's names when pools share bytes and each goes on writing (property)", () => {
+    // Model: a plain array of strings per pool. Pools made by reordered/mergedWith share bytes with
+    // their source; whichever writes next, no other pool's names may change.
+    const op = fc.oneof(
+      fc.record({ kind: fc.constant("set" as const), pool: fc.nat(), i: fc.nat(12), text: fc.string() }),
+      fc.record({
+        kind: fc.constant("reorder" as const),
+        pool: fc.nat(),
+        from: fc.array(fc.integer({ min: -1, max: 12 }), { maxLength: 10 }),
+        extra: fc.string(),
+      }),
+      fc.record({
+        kind: fc.constant("merge" as const),
+        pool: fc.nat(),
+        other: fc.nat(),
+        from: fc.array(fc.integer({ min: -1, max: 12 }), { maxLength: 10 }),
+        otherFrom: fc.array(fc.nat(12), { minLength: 10, maxLength: 10 }),
+      }),
+    );
+    fc.assert(
+      fc.property(fc.nat(64), fc.array(op, { maxLength: 40 }), (room, ops) => {
+        const first = new NamePool(1, 16 + room);
+        first.setString(0, "root");
+        const pools: NamePool[] = [first];
+        const model: string[][] = [["root"]];
+        for (const step of ops) {
+          const p = step.pool % pools.length;
+          const pool = pools[p];
+          const names = model[p];
+          if (step.kind === "set") {
+            pool.setString(step.i, step.text);
+            for (let k = names.length; k < step.i; k++) names[k] = "";
+            names[step.i] = step.text;
+          } else if (step.kind === "reorder") {
+            const from = Int32Array.from(step.from, (i) => (i >= names.length ? -1 : i));
+            pools.push(pool.reordered(from, step.extra));
+            model.push([...from].map((i) => (i === -1 ? step.extra : names[i])));
+          } else {
+            const o = step.other % pools.length;
+            const other = model[o];
+            if (other.length === 0) continue;
+            const from = Int32Array.from(step.from, (i) => (i >= names.length ? -1 : i));
+            const otherFrom = Int32Array.from(step.otherFrom.slice(0, from.length), (i) => i % other.length);
+            pools.push(pool.mergedWith(from, pools[o], otherFrom));
+            model.push([...from].map((i, k) => (i === -1 ? other[otherFrom[k]] : names[i])));
+          }
+          pools.forEach((q, k) => {
+            expect(namesToArray(q)).toEqual(model[k]);
+          });
+        }
+      }),
+    );
+  });
+
   it("copies names between pools, through a new root, without changing their text", () => {
     const src = new NamePool(1, 64);
     ["root", "Ærø", "b\ud800", ""].forEach((t, i) => {

@@ -9,7 +9,7 @@ import type { LoadOptions } from "../load-options.js";
  */
 export async function edgeListStream(
   chunks: AsyncIterable<Uint8Array>,
-  options: Pick<LoadOptions, "maxNodes" | "rootName">,
+  options: Pick<LoadOptions, "maxNodes" | "rootName" | "inputBytes">,
 ): Promise<GraphNodes> {
   const reader = new EdgeListReader(options);
   let waiting: Buffer[] = [];
@@ -24,7 +24,7 @@ export async function edgeListStream(
       }
       waiting.push(chunk.subarray(0, first + 1));
       const line = Buffer.concat(waiting);
-      reader.lines(line, 0, line.length - 1);
+      reader.lines(line, 0, line.length);
       waiting = [];
       from = first + 1;
     }
@@ -33,7 +33,8 @@ export async function edgeListStream(
       if (from < chunk.length) waiting.push(chunk.subarray(from));
       continue;
     }
-    reader.lines(chunk, from, last);
+    // Up to and with the last "\n": a blank line just before it is a line too.
+    reader.lines(chunk, from, last + 1);
     if (last + 1 < chunk.length) waiting.push(chunk.subarray(last + 1));
   }
   const rest = Buffer.concat(waiting);
