@@ -23,6 +23,7 @@ async function start() {
           heapLimit: getHeapStatistics().heap_size_limit,
           totalMemory: totalmem(),
           inputBytes: inputSizes(args),
+          args,
         })
       : 0;
   if (heap > 0) restart(cli, heap);

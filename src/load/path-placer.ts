@@ -37,6 +37,8 @@ export class PathPlacer {
   private prevStart = 0;
   private prevLength = 0;
   private stackNode = new Int32Array(64);
+  /** stackListed[d]: 1 when a line named one of stackNode[0..d] (a listed folder above the next new node). */
+  private stackListed = new Int32Array(64);
   private stackEnd = new Int32Array(64);
   private stackDepth = 0;
   private root = -1;
@@ -89,9 +91,9 @@ export class PathPlacer {
       for (let i = 0; i < sink.length; i++) {
         if (parentOf[i] !== -1 || i === root) continue;
         parentOf[i] = root;
-        // A top-level node made after the root's line is content listed after its folder.
-        if (i > root) this.contentAfterListing++;
       }
+      // Every node goes below the root: one made after the root's line is content listed after it.
+      if (sink.length - 1 > root) this.contentAfterListing++;
     }
     return root;
   }
@@ -121,7 +123,7 @@ export class PathPlacer {
   place(bytes: Buffer, view: DataView, start: number, end: number, origin: number): number {
     const length = end - start;
     const sink = this.sink;
-    let { stackNode, stackEnd } = this;
+    let { stackNode, stackEnd, stackListed } = this;
 
     // The length of the prefix shared with the previous path: four bytes at a time, then one.
     const prev = this.prevBytes;
@@ -148,6 +150,7 @@ export class PathPlacer {
       created = this.created;
       stackNode[depth] = node;
       stackEnd[depth] = 1;
+      stackListed[depth] = this.listedAt(node);
       depth++;
       at = 1;
     }
@@ -161,17 +164,17 @@ export class PathPlacer {
         if (c === slash) break;
         hash = hashStep(hash, c);
       }
-      const parent = node;
       node = this.child(node, bytes, start + at, start + stop, hash, origin);
       created = this.created;
-      if (created && parent >= 0 && parent < this.explicit.length && this.explicit[parent] === 1)
-        this.contentAfterListing++;
+      // A node made below a folder some line already named: content listed after its folder.
+      if (created && depth > 0 && stackListed[depth - 1] === 1) this.contentAfterListing++;
       if (depth === stackNode.length) {
         this.growStack();
-        ({ stackNode, stackEnd } = this);
+        ({ stackNode, stackEnd, stackListed } = this);
       }
       stackNode[depth] = node;
       stackEnd[depth] = stop;
+      stackListed[depth] = depth > 0 && stackListed[depth - 1] === 1 ? 1 : this.listedAt(node);
       depth++;
       at = stop;
     }
@@ -202,6 +205,8 @@ export class PathPlacer {
       this.listedAfterContents++;
     }
     this.explicit[node] = 1;
+    // The path's node is the top of the walk's stack.
+    stackListed[depth - 1] = 1;
     return node;
   }
 
@@ -232,9 +237,15 @@ export class PathPlacer {
     return node;
   }
 
+  /** 1 when a line named the node, else 0. */
+  private listedAt(node: number): number {
+    return node < this.explicit.length && this.explicit[node] === 1 ? 1 : 0;
+  }
+
   private growStack(): void {
     this.stackNode = doubled(this.stackNode);
     this.stackEnd = doubled(this.stackEnd);
+    this.stackListed = doubled(this.stackListed);
   }
 }
 

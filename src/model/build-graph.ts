@@ -135,6 +135,11 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   }
   const synthetic = tops !== 1;
   const slots = n + (synthetic ? 1 : 0) + (live - (n - tops));
+  // From here on each position's line, in place of its edge's number: the layout gives a reference
+  // its edge's line from the position it is at, without a second lookup.
+  const { edgeOrigin } = graph;
+  for (let j = 0; j < E; j++) out[j] = edgeOrigin[out[j]];
+  const outLine = out;
 
   // Pre-order layout: entries and references of each node in input order of their edges. A reference's
   // referenceTo holds its node until every entry has its slot, then the slot of that node's entry.
@@ -147,7 +152,9 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   const slotOf = new Int32Array(n).fill(-1);
   const nodeSize = graph.ownSize;
   const nodeOrigin = graph.origin;
-  const { edgeOrigin } = graph;
+  // Sizes are copied to the entries only when some node has one (ownSize starts at 0).
+  let sized = false;
+  for (let i = 0; i < n && !sized; i++) if (nodeSize[i] !== 0) sized = true;
   let next = 0;
   const base = synthetic ? 1 : 0;
   if (synthetic) {
@@ -160,7 +167,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     parent[s] = p;
     depth[s] = p === -1 ? 0 : depth[p] + 1;
     from[s] = node;
-    ownSize[s] = nodeSize[node];
+    if (sized) ownSize[s] = nodeSize[node];
     origin[s] = nodeOrigin[node];
     slotOf[node] = s;
     cursor[node] = outStart[node];
@@ -192,7 +199,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
         depth[s] = depth[pu] + 1;
         from[s] = v;
         referenceTo[s] = v;
-        origin[s] = edgeOrigin[out[j]];
+        origin[s] = outLine[j];
       }
     }
   }

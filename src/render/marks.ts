@@ -26,8 +26,8 @@ export function legendLines(kind: "summary" | "diff"): string[] {
   const lines = [
     `marks: ${MARK.focus} focus, ${MARK.path} ${path}, ${MARK.other} other, ${MARK.reference} a reference (a node with several parents: its full entry is at the path shown; counts no node); a / b: b is a's only child, the line's numbers and fold are b's`,
     kind === "diff"
-      ? "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1), removed nodes included; no count: 1 node; sizes are NEW's"
-      : "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1); no count: 1 node",
+      ? "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1, and the / of /usr), removed nodes included; no count: 1 node; sizes are NEW's"
+      : "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1, and the / of /usr); no count: 1 node",
   ];
   if (kind === "diff")
     lines.push(

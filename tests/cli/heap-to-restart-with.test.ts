@@ -29,4 +29,13 @@ describe("heapToRestartWith", () => {
       0,
     );
   });
+
+  it("heapToRestartWith(a fact table the SQL engine rolls up) never restarts, whatever its size", () => {
+    const big = { heapLimit: 2 * GiB, totalMemory: 64 * GiB, inputBytes: [2048 * MiB] };
+    expect(heapToRestartWith({ ...big, args: ["inv.parquet", "--key-field", "key"] })).toBe(0);
+    expect(heapToRestartWith({ ...big, args: ["costs.csv", "--levels=account,service"] })).toBe(0);
+    // A rolled-up result becomes a tree in the heap, a node per row: sized as any table.
+    expect(heapToRestartWith({ ...big, args: ["r.csv", "--rolled-up", "--levels", "a"] })).toBe(33024);
+    expect(heapToRestartWith({ ...big, args: ["org.csv", "--parent-field", "manager"] })).toBe(33024);
+  });
 });

@@ -23,6 +23,13 @@ export interface EngineSettings {
   threads?: number;
   /** Where the engine spills what does not fit its memory cap. */
   tempDirectory?: string;
+  /**
+   * A database file for the working tables (created; the caller removes it): their data is written to
+   * the file and leaves memory when memory is short. Measured with 10M grouped keys under a 200 MB cap,
+   * made in five parts: temporary tables of an in-memory instance ran out of memory, tables in a
+   * database file did not.
+   */
+  databaseFile?: string;
   /** Told of each statement that ran: its text, milliseconds and result rows (tests, benchmarks). */
   onQuery?: (sql: string, ms: number, rows: number) => void;
 }
@@ -53,8 +60,10 @@ export async function openEngine(settings: EngineSettings = {}, from: string = P
   if (settings.memoryLimit !== undefined) options.memory_limit = settings.memoryLimit;
   if (settings.threads !== undefined) options.threads = String(settings.threads);
   if (settings.tempDirectory !== undefined) options.temp_directory = settings.tempDirectory;
-  const instance = await api.DuckDBInstance.create(":memory:", options);
+  const instance = await api.DuckDBInstance.create(settings.databaseFile ?? ":memory:", options);
   const connection = await instance.connect();
+  // The working tables are thrown away with the file: closing need not write them into it first.
+  if (settings.databaseFile !== undefined) await connection.run("PRAGMA disable_checkpoint_on_shutdown");
   return {
     async run(sql: string): Promise<Columns> {
       let reader: Awaited<ReturnType<typeof connection.runAndReadAll>>;

@@ -8,11 +8,45 @@ export const KEY_TABLES = {
 } as const;
 
 /**
+ * One part of a grouping split by a hash of its group key, so that no one statement of the engine holds
+ * every group: part `index` of `of` (0 <= index < of). Engine-specific (`hash`): run, never printed.
+ */
+export interface Part {
+  readonly of: number;
+  readonly index: number;
+}
+
+/** The condition that a group key `expression` falls in `part` (none for a whole, one-part grouping). */
+export function partSql(expression: string, part: Part | undefined): string | undefined {
+  if (part === undefined || part.of <= 1) return undefined;
+  return `hash(${expression}) % ${part.of} = ${part.index}`;
+}
+
+/** A statement that makes one working table of a key hierarchy (KeyLevels.steps). */
+export interface KeyStep {
+  readonly table: string;
+  /** The depth of the level table's nodes; undefined for the keys table. */
+  readonly depth?: number;
+  readonly sql: string;
+  /** The same statement for one part of its groups, for a step that groups. */
+  readonly inPart?: (part: Part) => string;
+}
+
+/**
  * The rows of a key hierarchy grouped by their key: one row per distinct key with its depth `d` (NULL
  * for a NULL key), rows `n`, size sum `t` and minimum `m`. With `cutAt`, a deeper key counts at its
  * prefix of `cutAt` names (as in rollupSql with --key-depth); without, the deepest `d` is the depth.
+ * With `part`, only the keys of that part (the parts together are the whole result, each key in one).
  */
-export function keysSql(options: FactOptions, hasSize: boolean, cutAt?: number): string {
+export function keysSql(
+  options: FactOptions,
+  hasSize: boolean,
+  cutAt?: number,
+  part?: Part,
+  hashed = false,
+): string {
+  // Hashed (see KeyLevels.steps): each key's hash kept as h, the part it falls in at its own depth.
+  const h = hashed ? ", hash(k) AS h" : "";
   const key = identifier(keyField(options));
   const d = keyDepthExpression(key, options.separator);
   const s = hasSize
@@ -20,18 +54,21 @@ export function keysSql(options: FactOptions, hasSize: boolean, cutAt?: number):
     : "CAST(NULL AS DOUBLE PRECISION)";
   const table = identifier(options.table);
   if (cutAt === undefined) {
+    const where = partSql(key, part);
     // The depth is a function of the key: counted once per distinct key, not once per row.
     return (
-      `SELECT k, ${keyDepthExpression("k", options.separator)} AS d, n, t, m\n` +
-      `FROM (SELECT ${key} AS k, COUNT(*) AS n, SUM(${s}) AS t, MIN(${s}) AS m FROM ${table} GROUP BY ${key}) AS keyed`
+      `SELECT k, ${keyDepthExpression("k", options.separator)} AS d, n, t, m${h}\n` +
+      `FROM (SELECT ${key} AS k, COUNT(*) AS n, SUM(${s}) AS t, MIN(${s}) AS m FROM ${table}` +
+      `${where === undefined ? "" : ` WHERE ${where}`} GROUP BY ${key}) AS keyed`
     );
   }
   const cut = `CASE WHEN ${d} > ${cutAt} THEN ${prefixSql(key, cutAt, options.separator)} ELSE ${key} END`;
+  const where = partSql("k", part);
   return (
-    "SELECT k, d, COUNT(*) AS n, SUM(s) AS t, MIN(s) AS m\n" +
+    `SELECT k, d, COUNT(*) AS n, SUM(s) AS t, MIN(s) AS m${h}\n` +
     `FROM (SELECT ${cut} AS k, CASE WHEN ${d} > ${cutAt} THEN ${cutAt} ELSE ${d} END AS d, ${s} AS s\n` +
     `      FROM ${table}) AS keyed\n` +
-    "GROUP BY k, d"
+    `${where === undefined ? "" : `WHERE ${where}\n`}GROUP BY k, d`
   );
 }
 
@@ -69,37 +106,74 @@ export class KeyLevels {
   /**
    * The statements that build the working tables, in the order they run: the keys table (keysSql, cut
    * at `cutAt`), then the level tables from the deepest up to the root. The engine runs each as
-   * `CREATE TEMPORARY TABLE table AS sql`; --print-sql prints them as the common table expressions
-   * of one statement (printedSql), followed by resultSql.
+   * `CREATE TABLE table AS sql`; --print-sql prints them as the common table expressions of one
+   * statement (printedSql), followed by resultSql. A step that groups also gives `inPart`, the same
+   * statement for one part of its groups (see Part): the engine may run it part by part into the table.
+   * `hashed` (for a plan run in parts; never printed): every table row also keeps `h`, the engine's hash
+   * of the prefix it is grouped under one level up (a key's own, a node's parent's), so that a part of
+   * the next grouping is a filter on a stored number (`h % P = i`) and each parent prefix is cut once,
+   * not once per part.
    */
-  steps(cutAt: number | undefined): { table: string; sql: string }[] {
+  steps(cutAt: number | undefined, hashed = false): KeyStep[] {
     const { keys, level } = KEY_TABLES;
-    const out: { table: string; sql: string }[] = [
-      { table: keys, sql: keysSql(this.options, this.hasSize, cutAt) },
+    const out: KeyStep[] = [
+      {
+        table: keys,
+        sql: keysSql(this.options, this.hasSize, cutAt, undefined, hashed),
+        inPart: (part) => keysSql(this.options, this.hasSize, cutAt, part, hashed),
+      },
     ];
-    out.push({ table: level(this.depth), sql: this.levelSql(this.depth, "", keys) });
-    for (let j = this.depth - 1; j >= 1; j--)
-      out.push({ table: level(j), sql: this.levelSql(j, level(j + 1), keys) });
-    out.push({ table: level(0), sql: this.rootSql(level(1), keys) });
+    out.push({
+      table: level(this.depth),
+      depth: this.depth,
+      sql: this.levelSql(this.depth, "", keys, undefined, hashed),
+    });
+    for (let j = this.depth - 1; j >= 1; j--) {
+      const below = level(j + 1);
+      out.push({
+        table: level(j),
+        depth: j,
+        sql: this.levelSql(j, below, keys, undefined, hashed),
+        inPart: (part) => this.levelSql(j, below, keys, part, hashed),
+      });
+    }
+    out.push({ table: level(0), depth: 0, sql: this.rootSql(level(1), keys) });
     return out;
   }
 
   /**
    * The nodes at depth `j` (p, their prefix; n, t, m; nc, nodes in the subtree; cc, children), from the
-   * nodes at depth j + 1 in `nodes` and the keys of depth j in `keys`.
+   * nodes at depth j + 1 in `nodes` and the keys of depth j in `keys`; with `part`, only the nodes of
+   * that part (their prefix's hash: computed, or with `hashed` read from the rows' h).
    */
-  levelSql(j: number, nodes: string, keys: string): string {
+  levelSql(j: number, nodes: string, keys: string, part?: Part, hashed = false): string {
+    // The parent's hash, kept with each node (hashed); the root's children need none.
+    const h = (prefix: string) =>
+      !hashed ? "" : j > 1 ? `, hash(${this.parentSql(prefix, j)}) AS h` : ", CAST(0 AS UBIGINT) AS h";
     // The deepest nodes are keys, already distinct.
     if (j === this.depth)
-      return `SELECT ${j} AS j, k AS p, n, t, m, 1 AS nc, 0 AS cc FROM ${identifier(keys)} WHERE d = ${j}`;
-    const fromKeys = `SELECT k AS p, n, t, m, 0 AS nc, 0 AS cc FROM ${identifier(keys)} WHERE d = ${j}`;
-    const parent = `SUBSTRING(p FROM 1 FOR CHAR_LENGTH(p) - CHAR_LENGTH(SPLIT_PART(p, ${this.sep}, ${j + 1})) - ${this.sepLength})`;
+      return `SELECT ${j} AS j, k AS p, n, t, m, 1 AS nc, 0 AS cc${h("k")} FROM ${identifier(keys)} WHERE d = ${j}`;
+    const parent = this.parentSql("p", j + 1);
+    const inPart = (expression: string) => {
+      const where = hashed
+        ? part === undefined || part.of <= 1
+          ? undefined
+          : `h % ${part.of} = ${part.index}`
+        : partSql(expression, part);
+      return where === undefined ? "" : ` AND ${where}`;
+    };
+    const fromKeys = `SELECT k AS p, n, t, m, 0 AS nc, 0 AS cc FROM ${identifier(keys)} WHERE d = ${j}${inPart("k")}`;
     return (
-      `SELECT ${j} AS j, p, SUM(n) AS n, SUM(t) AS t, MIN(m) AS m, 1 + SUM(nc) AS nc, SUM(cc) AS cc\n` +
-      `FROM (SELECT ${parent} AS p, n, t, m, nc, 1 AS cc FROM ${identifier(nodes)} WHERE j = ${j + 1}\n` +
+      `SELECT ${j} AS j, p, SUM(n) AS n, SUM(t) AS t, MIN(m) AS m, 1 + SUM(nc) AS nc, SUM(cc) AS cc${h("p")}\n` +
+      `FROM (SELECT ${parent} AS p, n, t, m, nc, 1 AS cc FROM ${identifier(nodes)} WHERE j = ${j + 1}${inPart(parent)}\n` +
       `      UNION ALL ${fromKeys}) AS below\n` +
       "GROUP BY p"
     );
+  }
+
+  /** The prefix of the parent of a node at depth `j` (>= 2) whose prefix is `p`: p cut before its j-th name. */
+  private parentSql(p: string, j: number): string {
+    return `SUBSTRING(${p} FROM 1 FOR CHAR_LENGTH(${p}) - CHAR_LENGTH(SPLIT_PART(${p}, ${this.sep}, ${j})) - ${this.sepLength})`;
   }
 
   /** The root (depth 0): every row, rows with a NULL key as its own. */

@@ -149,7 +149,7 @@ function build(
       ownSize[i] = all[i].size;
       continue;
     }
-    const mine = own.get(keyOf(all[i].levels));
+    const mine = own.size === 0 ? undefined : own.get(keyOf(all[i].levels));
     if (mine) {
       ownSize[i] = mine.size;
       ownRows[i] = mine.rows;
@@ -165,7 +165,7 @@ function build(
       );
     }
   }
-  const known = new Set(all.map((node) => keyOf(node.levels)));
+  const known = new Set(own.size === 0 ? [] : all.map((node) => keyOf(node.levels)));
   for (const [key, row] of own) {
     if (!known.has(key)) {
       const levels = JSON.parse(key) as string[];
@@ -287,9 +287,25 @@ export function compareLevels(a: readonly string[], b: readonly string[]): numbe
   return a.length - b.length;
 }
 
-/** Code-point order (UTF-16 order differs above U+FFFF: a surrogate sorts below U+E000). */
+/**
+ * Code-point order (UTF-16 order differs above U+FFFF: a surrogate sorts below U+E000). Compared by
+ * UTF-16 unit up to the first difference, which decides as the code points do when neither unit there
+ * is a surrogate; otherwise code point by code point.
+ */
 export function compareCodePoints(a: string, b: string): number {
   if (a === b) return 0;
+  const n = Math.min(a.length, b.length);
+  for (let i = 0; i < n; i++) {
+    const x = a.charCodeAt(i);
+    const y = b.charCodeAt(i);
+    if (x === y) continue;
+    if ((x < 0xd800 || x > 0xdfff) && (y < 0xd800 || y > 0xdfff)) return x - y;
+    return byCodePoint(a, b);
+  }
+  return a.length - b.length;
+}
+
+function byCodePoint(a: string, b: string): number {
   const n = Math.min(a.length, b.length);
   for (let i = 0; i < n; i++) {
     const x = a.codePointAt(i)!;

@@ -5,6 +5,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { EspalierError } from "../../../src/errors.js";
 import { openEngine } from "../../../src/load/facts/engine.js";
+import { openFactTable } from "../../../src/load/facts/load-facts.js";
 import { rollupSql } from "../../../src/load/facts/rollup-sql.js";
 import { sourceViewSql } from "../../../src/load/facts/source-sql.js";
 import { measure } from "../../../src/model/measure.js";
@@ -180,6 +181,53 @@ describe("loadFactTable(CSV, --key-field)", () => {
     }
   });
 
+  it("gives the same tree and node counts when the engine groups in parts", async () => {
+    // 600 keys 1 to 6 levels deep, some ending at a node (a key that is also a directory), grouped
+    // whole and then at most 40 groups a statement (keys in 15 or more parts, each level in several).
+    const file = join(dir, "parts.csv");
+    const lines = ["key,size"];
+    for (let i = 0; i < 600; i++) {
+      const parts = [`b${i % 4}`];
+      for (let d = 1; d < 1 + (i % 6); d++) parts.push(`n${(i * (d + 3)) % (d + 4)}`);
+      lines.push(`${parts.join("/")}${i % 5 === 0 ? "" : `/o${i}`},${i % 17}`);
+    }
+    writeFileSync(file, `${lines.join("\n")}\n`);
+    const fetch = async (partRows: number | undefined, statements: string[]) => {
+      const session = await openFactTable({
+        file,
+        format: "csv",
+        facts: keyOptions("key", "size"),
+        rolledUp: false,
+        rootName: "facts",
+        keepFields: ["rows"],
+        maxNodes: Number.POSITIVE_INFINITY,
+        partRows,
+        engine: { onQuery: (sql) => statements.push(sql) },
+      });
+      try {
+        // Reach 9 from the root: every node, with its subtree node count (elided: none).
+        return { size: session.size, near: await session.near([], 9), whole: await session.whole() };
+      } finally {
+        session.close();
+      }
+    };
+    const wholeRun: string[] = [];
+    const partRun: string[] = [];
+    const whole = await fetch(undefined, wholeRun);
+    const parted = await fetch(40, partRun);
+    expect(wholeRun.some((sql) => sql.startsWith("INSERT"))).toBe(false);
+    expect(
+      partRun.filter((sql) => sql.startsWith("INSERT INTO espalier_keys")).length,
+    ).toBeGreaterThanOrEqual(14);
+    expect(partRun.some((sql) => sql.startsWith("INSERT INTO espalier_level_"))).toBe(true);
+    expect(parted.size).toBe(whole.size);
+    for (const key of ["near", "whole"] as const) {
+      expect(nodeTable(parted[key])).toEqual(nodeTable(whole[key]));
+      expect(measure(parted[key]).count).toEqual(measure(whole[key]).count);
+      expect(Array.from(parted[key].ownSize)).toEqual(Array.from(whole[key].ownSize));
+    }
+  });
+
   it("splits on a separator of several characters", async () => {
     const file = join(dir, "sep.csv");
     writeFileSync(file, "key,size\na::b::c,1\na::d,2\n");
@@ -220,6 +268,60 @@ describe("loadFactTable errors", () => {
     const text = join(dir, "text.csv");
     writeFileSync(text, "a,size\nx,many\n");
     expect((await code(loadFacts(text, "csv", levelsOptions(["a"], "size"))))[0]).toBe("BAD_SIZE");
+  });
+
+  it("places a size that is not a number at its row, line and column in a CSV file", async () => {
+    // A quoted field spans lines 2-3 (RFC 4180 section 2.6), so row 2 starts on line 4; its size
+    // field starts after "y," (column 3).
+    const file = join(dir, "text-at.csv");
+    writeFileSync(file, 'a,size\n"x\nx",5\ny,many\nz,7\n');
+    const [errorCode, pos] = await code(loadFacts(file, "csv", keyOptions("a", "size")));
+    expect(errorCode).toBe("BAD_SIZE");
+    expect(pos).toEqual({ row: 2, line: 4, column: 3 });
+  });
+
+  it("places a negative size at its row in a table the engine reads in parallel, in the file's order", async () => {
+    // 300,000 rows; as Parquet written by the engine they are three row groups of at most 122,880
+    // (the engine's default), read by its threads side by side: the row it names must still be the
+    // file's row 250,001 (line 250,002 of the CSV, after the header), the first negative one.
+    const file = join(dir, "negative-far.csv");
+    const lines = ["group,size"];
+    for (let i = 0; i < 300_000; i++)
+      lines.push(`b${i % 7},${i === 250_000 || i === 280_000 ? -3 : i % 100}`);
+    writeFileSync(file, `${lines.join("\n")}\n`);
+    const [errorCode, pos] = await code(loadFacts(file, "csv", levelsOptions(["group"], "size")));
+    expect(errorCode).toBe("BAD_SIZE");
+    expect(pos).toEqual({ row: 250_001, line: 250_002, column: 4 });
+    const parquet = join(dir, "negative-far.parquet");
+    await withEngine((engine) =>
+      engine.run(
+        `COPY (SELECT * FROM read_csv(${lit(file)}, columns = {'group': 'VARCHAR', 'size': 'BIGINT'})) TO ${lit(parquet)} (FORMAT parquet)`,
+      ),
+    );
+    expect(await code(loadFacts(parquet, "parquet", levelsOptions(["group"], "size")))).toEqual([
+      "BAD_SIZE",
+      { row: 250_001 },
+    ]);
+  });
+
+  it("places a bad size of a JSON lines record at its line, blank lines counted", async () => {
+    const file = join(dir, "bad-size.jsonl");
+    writeFileSync(file, '{"key":"a/b","size":1}\n\n{"key":"a/c","size":"lots"}\n');
+    expect(await code(loadFacts(file, "jsonl", keyOptions("key", "size")))).toEqual([
+      "BAD_SIZE",
+      { row: 2, line: 3 },
+    ]);
+  });
+
+  it("is PARSE_JSON at the line and column of a malformed JSON lines record", async () => {
+    // RFC 8259 section 4: after a member, only "," or "}" may follow; the second member's opening
+    // quote (column 14 of line 4, blank line 2 counted) is where the text stops being JSON.
+    const file = join(dir, "malformed.jsonl");
+    writeFileSync(file, '{"key":"a/b","size":1}\n\n{"key":"a/c","size":2}\n{"key":"a/e" "size":3}\n');
+    expect(await code(loadFacts(file, "jsonl", keyOptions("key", "size")))).toEqual([
+      "PARSE_JSON",
+      { line: 4, column: 14 },
+    ]);
   });
 
   it("is INPUT_EMPTY for a table without rows", async () => {

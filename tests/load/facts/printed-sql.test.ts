@@ -66,11 +66,11 @@ function parts(printed: string): { tables: Map<string, string>; result: string }
   return { tables, result: printed.slice(end).trimEnd().replace(/;$/, "") };
 }
 
-/** The statements that made working tables (`CREATE TEMPORARY TABLE name AS body`), by name. */
+/** The statements that made working tables (`CREATE TABLE name AS body`), by name. */
 function tablesMade(statements: string[]): Map<string, string> {
   const made = new Map<string, string>();
   for (const sql of statements) {
-    const m = /^CREATE TEMPORARY TABLE ([a-z_0-9]+) AS ([\s\S]*)$/.exec(sql);
+    const m = /^CREATE TABLE ([a-z_0-9]+) AS ([\s\S]*)$/.exec(sql);
     if (m) made.set(m[1], m[2]);
   }
   return made;

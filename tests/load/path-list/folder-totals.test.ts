@@ -161,3 +161,19 @@ describe("folder totals on random trees", () => {
     );
   });
 });
+
+describe("folder totals: content that comes after its folder's line, however deep", () => {
+  it("a node made two levels below a folder already listed keeps the listing as own sizes", () => {
+    // Found by the stream/reference property test: harbor is listed after harbor/charts/reef.svg, but
+    // harbor/charts/buoy.svg comes after harbor's line, below the unlisted harbor/charts.
+    const text = "20\tharbor/charts/reef.svg\n4096\tharbor\n30\tharbor/charts/buoy.svg\n";
+    expect(paths(text).reading?.folderTotals).toBeUndefined();
+    expect(measure(paths(text)).size[0]).toBe(20 + 4096 + 30);
+  });
+
+  it("a node made after the root's empty-path line, below an earlier top-level folder, too", () => {
+    const text = "20\tharbor/reef.svg\n4096\t\n30\tharbor/buoy.svg\n";
+    expect(paths(text).reading?.folderTotals).toBeUndefined();
+    expect(measure(paths(text)).size[0]).toBe(20 + 4096 + 30);
+  });
+});
