@@ -1,20 +1,10 @@
 import { describe, expect, it } from "vitest";
-import { EspalierError } from "../../../src/errors.js";
 import { loadTree } from "../../../src/load/index.js";
 import { defaultLoadOptions, type LoadOptions } from "../../../src/load/load-options.js";
+import { caught as errorOf } from "../helpers.js";
 
 const load = (text: string, options: Partial<LoadOptions> = {}) =>
   loadTree(text, { ...defaultLoadOptions, file: "listing.txt", ...options });
-
-function errorOf(run: () => unknown): EspalierError {
-  try {
-    run();
-  } catch (e) {
-    if (e instanceof EspalierError) return e;
-    throw e;
-  }
-  throw new Error("no error");
-}
 
 // Shapes as GNU find -printf '%s %p\n' and GNU wc -c print them (a space, not a tab, after the size);
 // paths invented. Read as names, each size would become a top-level folder and exit 0.
