@@ -177,3 +177,17 @@ describe("folder totals: content that comes after its folder's line, however dee
     expect(measure(paths(text)).size[0]).toBe(20 + 4096 + 30);
   });
 });
+
+describe("folderSizes on an input that is no path list", () => {
+  it("is USAGE, not ignored (a table's sizes would be read another way with exit 0)", () => {
+    const table = "id,parent,size\nharbor,,10\nreef,harbor,5\n";
+    let error: unknown;
+    try {
+      loadTree(table, { ...defaultLoadOptions, file: "harbor.csv", folderSizes: "total" });
+    } catch (e) {
+      error = e;
+    }
+    expect((error as EspalierError).code).toBe("USAGE");
+    expect((error as EspalierError).message).toContain("read as csv");
+  });
+});
