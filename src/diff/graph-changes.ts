@@ -148,7 +148,8 @@ export function graphCombined(
     else if (newTree.name.get(n) !== oldTree.name.get(o)) kind[k] = KIND.renamed;
     else kind[k] = delta[k] !== 0 ? KIND.resized : KIND.none;
   }
-  return { ...combined, tree: { ...tree, referenceTo } };
+  // `delta` was made (read above) and changed here: it is the one to read.
+  return { ...combined, tree: { ...tree, referenceTo }, deltaOf: (k) => delta[k] };
 }
 
 /** Node count of a version: its full entries (references are no nodes). */
