@@ -1,6 +1,7 @@
 import { EspalierError } from "../errors.js";
 import { type FactFormat, type FactOptions, factFormatOf } from "../load/facts/fact-options.js";
 import type { FactLoad, FactSession } from "../load/facts/load-facts.js";
+import { checkPathListOptions } from "../load/path-list/path-list-options.js";
 import { parseSegment, splitPath } from "../model/segment.js";
 import type { Tree } from "../model/tree.js";
 import { prepare, type SummarizeOptions, type SummaryResult, summarize } from "../summarize.js";
@@ -22,6 +23,10 @@ export function isFactInput(opts: SharedCliOptions): boolean {
 export function factOptionsOf(opts: SharedCliOptions): FactOptions {
   const levels = opts.levels === undefined ? [] : opts.levels.split(",").map((c) => c.trim());
   if (levels.some((c) => c === "")) throw new EspalierError("USAGE", "--levels has an empty column name");
+  checkPathListOptions("fact table", {
+    nulSeparated: opts.nulSeparated,
+    folderSizes: opts.folderSizes === "auto" ? undefined : opts.folderSizes,
+  });
   if (levels.length > 0 && opts.keyField !== undefined)
     throw new EspalierError("USAGE", "give either --levels or --key-field, not both");
   if (levels.length === 0 && opts.keyField === undefined && !opts.rolledUp) {

@@ -2,6 +2,8 @@ import type { PathIndex } from "../model/path-index.js";
 import type { PrintedNames } from "../model/printed-names.js";
 import { escapeSegment, parseSegment, splitPath } from "../model/segment.js";
 import { boundedDistance, distanceWork, MAX_DISTANCE_TEXT } from "./bounded-distance.js";
+import { isGlob } from "./glob.js";
+import { joinedGlob } from "./joined-glob.js";
 
 /** Code units of a path, id or name compared by edit distance. */
 const MAX_COMPARED = MAX_DISTANCE_TEXT;
@@ -43,8 +45,14 @@ interface Candidate {
  * `vitest` before `vite`, both 2 edits away), then whole paths and ids before partial ones, shallower,
  * then input order.
  * Paths, names and ids are compared as `names` prints them: what the user who typed the spec has seen.
+ * A glob whose plain segments, joined, name a name containing "/" is offered escaped ({@link joinedGlob}).
  */
 export function suggestFoci(index: PathIndex, spec: string, names: PrintedNames): string[] {
+  if (!names.pseudonymous && isGlob(spec)) {
+    // A glob whose plain segments name one name containing "/" typed unescaped (`@scope/pkg/*`).
+    const joined = joinedGlob(index, spec);
+    if (joined !== undefined) return [joined];
+  }
   const whole = comparable(spec);
   if (whole === undefined || whole === "") return [];
   // Lengths compare in full (a cheap bound on the distance); long texts by their ends (textScore).

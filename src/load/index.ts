@@ -18,7 +18,7 @@ import {
 import { linkGraphTable } from "./graph-table.js";
 import type { InputFormat, LoadOptions } from "./load-options.js";
 import { loadYaml } from "./load-yaml.js";
-import { checkFolderSizesFormat } from "./path-list/folder-sizes-format.js";
+import { checkPathListOptions } from "./path-list/path-list-options.js";
 import { jsonGraphTooLong, limitsOf } from "./read-limits.js";
 import { csvTableFromBytes } from "./table/csv-table.js";
 import { linkTable } from "./table/link-table.js";
@@ -42,7 +42,7 @@ export function loadTree(text: string, options: LoadOptions): Tree {
     const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
     if (!/\S/.test(body)) throw new EspalierError("INPUT_EMPTY", "the input is empty");
     const format = options.format ?? detectFormat(body, file, options);
-    checkFolderSizesFormat(format, options);
+    checkPathListOptions(format, options);
     const nodes = linkedNodes(body, format, options, table);
     placeRow = nodes.placeRow;
     return isGraph(nodes) ? buildGraphTree(withNodeRecords(nodes, options), file) : buildTree(nodes, file);

@@ -10,7 +10,7 @@ import { detectFormat } from "../detect-format.js";
 import { edgeTableDelimiter, edgeTableFields, isGraph, jsonGraph, withNodeRecords } from "../graph-input.js";
 import { linkGraphTable } from "../graph-table.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
-import { checkFolderSizesFormat } from "../path-list/folder-sizes-format.js";
+import { checkPathListOptions } from "../path-list/path-list-options.js";
 import { jsonGraphTooLong, limitsOf } from "../read-limits.js";
 import { csvTableFromStream } from "../table/csv-table.js";
 import { linkTable } from "../table/link-table.js";
@@ -40,7 +40,7 @@ export async function loadTreeFromStream(
       if (start.complete && !/\S/.test(start.text))
         throw new EspalierError("INPUT_EMPTY", "the input is empty");
       const format = options.format ?? detectFormat(start.text, file, options);
-      checkFolderSizesFormat(format, options);
+      checkPathListOptions(format, options);
       linked = await linkedNodes(start.chunks, format, options, Buffer.from(start.text, "utf8"), table);
     } catch (error) {
       await start.close();
