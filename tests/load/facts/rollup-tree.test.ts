@@ -2,7 +2,11 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import type { Columns } from "../../../src/load/facts/engine.js";
 import { preOrderSql, rollupSql } from "../../../src/load/facts/rollup-sql.js";
-import { type RollupTreeOptions, rollupTree } from "../../../src/load/facts/rollup-tree.js";
+import {
+  compareCodePoints,
+  type RollupTreeOptions,
+  rollupTree,
+} from "../../../src/load/facts/rollup-tree.js";
 import type { Tree } from "../../../src/model/tree.js";
 import { keyOptions, levelsOptions, lit, withEngine } from "./helpers.js";
 
@@ -104,5 +108,29 @@ describe("rollupTree(result)", () => {
     const orphan = permuted(result, [0, 1, 2, 3, 5]);
     expect(() => rollupTree(orphan, opts)).toThrow(/has no row for its parent/);
     expect(() => rollupTree(permuted(result, [5, 3, 2, 1, 0]), opts)).toThrow(/has no row for its parent/);
+  });
+  it("gets the rows from the engine already in pre-order, names in code-point order (property)", async () => {
+    // RFC 3629, section 1: sorting UTF-8 strings by their bytes orders them as their code points; the
+    // engine compares text by its bytes, so ORDER BY with preOrderSql is the order rollupTree builds in.
+    await fc.assert(
+      fc.asyncProperty(
+        fc.array(fc.tuple(name, name, fc.nat(100)), { minLength: 1, maxLength: 25 }),
+        async (rows) => {
+          const facts = levelsOptions(["a", "b"], "s");
+          const tuples = rows.map(([a, b, size]) => `(${lit(a)}, ${lit(b)}, ${size})`);
+          const result = await rollupOf(tuples, "a, b, s", facts, 2, preOrderSql(2));
+          const [depth, a, b] = [0, 1, 2].map((c) => result.values[c]);
+          const key = (r: number) => [a[r], b[r]].slice(0, Number(depth[r])) as string[];
+          for (let r = 1; r < result.rowCount; r++) {
+            const [x, y] = [key(r - 1), key(r)];
+            let c = 0;
+            for (let k = 0; k < Math.min(x.length, y.length) && c === 0; k++)
+              c = compareCodePoints(x[k], y[k]);
+            expect(c < 0 || (c === 0 && x.length < y.length)).toBe(true);
+          }
+        },
+      ),
+      { numRuns: 20 },
+    );
   });
 });
