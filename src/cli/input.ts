@@ -165,6 +165,7 @@ export function toLoadOptions(
     sizeField: opts.sizeField,
     idField: opts.idField,
     parentField: opts.parentField,
+    ...(opts.nullParent && opts.nullParent.length > 0 ? { nullParents: opts.nullParent } : {}),
     pathField: opts.pathField,
     childField: opts.childField,
     graph: opts.graph,

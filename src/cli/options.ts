@@ -192,6 +192,12 @@ export const sharedOptions = {
     value: text({ nonEmpty: true, default: "parent" }),
     help: "column holding the parent row's id",
   },
+  nullParent: {
+    flags: "--null-parent <value>",
+    group: "Input",
+    value: list({ nonEmpty: true }),
+    help: "a parent cell that means no parent, as an empty one does (0 in a process table, \\N or NULL in a database export); repeatable",
+  },
   pathField: {
     flags: "--path-field <column>",
     group: "Input",

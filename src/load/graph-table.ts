@@ -4,12 +4,14 @@ import type { LoadOptions } from "./load-options.js";
 import { limitExceeded } from "./node-sink.js";
 import { fieldSizeUnit } from "./size-unit.js";
 import { keptColumns, sizeOf, cellText as text } from "./table/link-table.js";
+import { idIsNullParent, missingParent, nullParentSet } from "./table/null-parent.js";
 import type { Cell, Table } from "./table/table.js";
 
 type Fields = Pick<
   LoadOptions,
   | "idField"
   | "parentField"
+  | "nullParents"
   | "childField"
   | "nameField"
   | "sizeField"
@@ -63,8 +65,10 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
   const fields = new Map<string, string[]>([...kept.keys()].map((k) => [k, []]));
   const firstRow: number[] = [];
   const nodeOfRow = new Int32Array(rows);
+  const nullParents = nullParentSet(options);
   for (let r = 0; r < rows; r++) {
     const id = text(idCells[r]);
+    if (nullParents?.has(id)) throw idIsNullParent(id, r + 1, options);
     if (id === "")
       throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${options.idField}"`, {
         row: r + 1,
@@ -107,15 +111,9 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
   for (let r = 0; r < rows; r++) {
     const cell = parentCells[r];
     const parentId = text(cell);
-    if (parentId === "") continue;
+    if (parentId === "" || nullParents?.has(parentId)) continue;
     const p = nodeOf.get(parentId);
-    if (p === undefined) {
-      throw new EspalierError(
-        "MISSING_PARENT",
-        say`row ${r + 1} names the ${options.parentField} ${quoted.id(parentId)}, which no row has as its ${options.idField}`,
-        { row: r + 1, field: options.parentField },
-      );
-    }
+    if (p === undefined) throw missingParent(parentId, r + 1, options);
     from[edges] = p;
     to[edges] = nodeOfRow[r];
     edgeOrigin[edges] = r + 1;

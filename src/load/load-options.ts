@@ -26,6 +26,11 @@ export interface LoadOptions {
   parentField: string;
   /** Column holding a row's full path (tables linked by path). Default "path". */
   pathField: string;
+  /**
+   * Parent cells that mean "no parent" as the empty cell does (a process table's 0, an export's `\N`);
+   * a row whose id is one of them is SHAPE (see table/null-parent.ts). Default none.
+   */
+  nullParents?: readonly string[];
   /** Column holding an edge's child id (edge tables). Default "child". */
   childField: string;
   /**

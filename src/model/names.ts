@@ -254,6 +254,16 @@ export class NamePool implements Names {
   }
 
   /**
+   * The pool's bytes with each node's start and byte length, for a loop that compares many names at
+   * once (equal bytes are the same name); null when some name is kept as a string (see the class
+   * comment), whose bytes do not spell it. Valid until the pool next grows.
+   */
+  byteRuns(): { bytes: Uint8Array; start: Uint32Array; size: Uint32Array } | null {
+    if (this.exact !== null && this.exact.size > 0) return null;
+    return { bytes: this.bytes, start: this.start, size: this.size };
+  }
+
+  /**
    * Whether name `i` here and name `j` of `other` are the same text, judged from the bytes: true when the
    * bytes are equal, false when they differ and are all ASCII; undefined when only decoding can tell
    * (different bytes beyond ASCII may decode alike when invalid, or a name is kept as a string).
@@ -269,9 +279,10 @@ export class NamePool implements Names {
 
   /**
    * A new pool sharing these bytes whose node k has the name of node `from[k]` here, or `extra` where
-   * `from[k]` is -1 (a root espalier adds).
+   * `from[k]` is -1 (a root espalier adds). `places`, when given: two arrays of `from.length` numbers,
+   * whatever they hold, that the new pool takes for its names' places (start and byte length).
    */
-  reordered(from: Int32Array, extra: string): NamePool {
+  reordered(from: Int32Array, extra: string, places?: { start: Uint32Array; size: Uint32Array }): NamePool {
     // The extra name goes into this pool first; after that both pools read the same bytes.
     const extraAt = this.used;
     const extraSize = extra === "" ? 0 : Buffer.byteLength(extra, "utf8");
@@ -280,6 +291,12 @@ export class NamePool implements Names {
       this.commit(at + codecs.utf8Write(this.bytes, extra, at, extraSize));
     }
     const out = this.sharedPool(from.length);
+    if (places !== undefined) {
+      if (places.start.length !== from.length || places.size.length !== from.length)
+        throw new Error(`reordered: places for ${places.start.length} names, not ${from.length}`);
+      out.start = places.start;
+      out.size = places.size;
+    }
     for (let k = 0; k < from.length; k++) {
       const o = from[k];
       out.start[k] = o === -1 ? extraAt : this.start[o];

@@ -10,6 +10,7 @@ import { parseSize } from "../parse-size.js";
 import { PathPlacer } from "../path-placer.js";
 import { fieldSizeUnit } from "../size-unit.js";
 import { IdIndex } from "./id-index.js";
+import { idIsNullParent, missingParent, nullParentSet } from "./null-parent.js";
 import { rowsTable } from "./rows-table.js";
 import type { Cell, Table } from "./table.js";
 
@@ -74,8 +75,10 @@ function linkById(
   // A column of text is its own list of ids (the index writes back the same strings); else a copy.
   const ids: string[] = allText(idCells, n) ? (idCells as string[]) : new Array(n);
   const rowOf = new IdIndex(ids);
+  const nullParents = nullParentSet(options);
   for (let r = 0; r < n; r++) {
     const id = cellText(idCells[r]);
+    if (nullParents?.has(id)) throw idIsNullParent(id, r + 1, options);
     if (id === "")
       throw new EspalierError("SHAPE", say`row ${r + 1} has an empty "${options.idField}"`, {
         row: r + 1,
@@ -101,17 +104,11 @@ function linkById(
     const parentCell = parentCells[r];
     // A cell kept as a number is looked up as the number (it stands for its digits).
     const parentId = typeof parentCell === "number" ? parentCell : cellText(parentCell);
-    if (parentId === "") {
+    if (parentId === "" || nullParents?.has(cellText(parentId))) {
       parentOf[r] = -1;
     } else {
       const p = rowOf.get(parentId);
-      if (p === -1) {
-        throw new EspalierError(
-          "MISSING_PARENT",
-          say`row ${r + 1} names the ${options.parentField} ${quoted.id(cellText(parentId))}, which no row has as its ${options.idField}`,
-          { row: r + 1, field: options.parentField },
-        );
-      }
+      if (p === -1) throw missingParent(cellText(parentId), r + 1, options);
       parentOf[r] = p;
     }
     origin[r] = r + 1;

@@ -1,0 +1,48 @@
+import { EspalierError, quoted, say } from "../../errors.js";
+import type { LoadOptions } from "../load-options.js";
+
+type Fields = Pick<LoadOptions, "idField" | "parentField" | "nullParents">;
+
+/**
+ * Parent cells that mean "no parent" besides the empty cell (`--null-parent`): a process table's
+ * parent 0, a database export's `\N` or `NULL`. Undefined when none is named.
+ */
+export function nullParentSet(options: Fields): ReadonlySet<string> | undefined {
+  return options.nullParents && options.nullParents.length > 0 ? new Set(options.nullParents) : undefined;
+}
+
+/**
+ * A row whose id is a value named to mean "no parent": its children could be either, so the table is
+ * refused rather than read one way in silence.
+ */
+export function idIsNullParent(id: string, row: number, options: Fields): EspalierError {
+  return new EspalierError(
+    "SHAPE",
+    say`row ${row} has the ${options.idField} ${quoted.id(id)}, which --null-parent says means no parent: a row naming it as its ${options.parentField} could be either`,
+    { row, field: options.idField },
+  );
+}
+
+/**
+ * Parent values that exports commonly write for "none" (common practice, no source): a process table's
+ * 0 (`ps -o ppid`), -1, SQL's NULL, MySQL's `\N` in CSV exports, `null`, `None`, `nil`, `n/a`.
+ */
+const usualNoneValues = new Set(["0", "-1", "null", "\\n", "none", "nil", "n/a", "nan", "#n/a"]);
+
+/** MISSING_PARENT for a parent id no row has; a value that usually means "none" names the option. */
+export function missingParent(parentId: string, row: number, options: Fields): EspalierError {
+  const hint = usualNoneValues.has(parentId.trim().toLowerCase());
+  return new EspalierError(
+    "MISSING_PARENT",
+    hint
+      ? say`row ${row} names the ${options.parentField} ${quoted.id(parentId)}, which no row has as its ${options.idField}; if it means no parent (a top-level row), say ${`--null-parent ${shellWord(parentId)}`}`
+      : say`row ${row} names the ${options.parentField} ${quoted.id(parentId)}, which no row has as its ${options.idField}`,
+    { row, field: options.parentField },
+    hint ? { remedies: [`--null-parent ${shellWord(parentId)}`] } : undefined,
+  );
+}
+
+/** The value as one shell word: as is when plain, else in single quotes (`'\\N'`). */
+function shellWord(value: string): string {
+  return /^[\w.+-]+$/.test(value) ? value : `'${value.replaceAll("'", "'\\''")}'`;
+}

@@ -1,0 +1,95 @@
+import { describe, expect, it } from "vitest";
+import { loadTree } from "../../../src/load/index.js";
+import { cli } from "../../helpers/cli.js";
+import { caught, opts, outline } from "../helpers.js";
+
+const csv = (text: string, overrides = {}) => loadTree(text, opts({ format: "csv", ...overrides }));
+
+// The shape of `ps -eo pid=,ppid=,comm=` on Linux: the first processes (init and the kernel's thread
+// starter) have the parent 0, which is no process (from memory: procfs reports PPid 0 for them).
+const processes = [
+  "id,parent,name",
+  "1,0,quill-init",
+  "2,0,quill-kthreads",
+  "40,1,ledger-agent",
+  "41,40,ledger-worker",
+  "50,2,kworker",
+].join("\n");
+
+describe("--null-parent: parent cells that mean no parent", () => {
+  it("loadTree(csv) without it refuses the parent 0 as MISSING_PARENT and names the option", () => {
+    const error = caught(() => csv(processes));
+    expect(error.code).toBe("MISSING_PARENT");
+    // Line 2 (after the header), column 3: the parent cell (RFC 4180 §2 line and field layout).
+    expect(error.pos).toEqual({ row: 1, line: 2, column: 3 });
+    expect(error.message).toContain("--null-parent 0");
+    expect(error.details).toEqual({ remedies: ["--null-parent 0"] });
+  });
+
+  it("loadTree(csv) reads the rows naming a null parent as top-level rows under the added root", () => {
+    const tree = csv(processes, { nullParents: ["0"], rootName: "ps.csv" });
+    expect(outline(tree)).toEqual([
+      "ps.csv",
+      "  quill-init",
+      "    ledger-agent",
+      "      ledger-worker",
+      "  quill-kthreads",
+      "    kworker",
+    ]);
+  });
+
+  it("loadTree(csv) keeps the empty parent meaning no parent beside the named values", () => {
+    // A database export's NULL written as \N (from memory: MySQL's SELECT … INTO OUTFILE default).
+    const tree = csv("id,parent\na,\\N\nb,a\nc,\n", { nullParents: ["\\N"], rootName: "export" });
+    expect(outline(tree)).toEqual(["export", "  a", "    b", "  c"]);
+  });
+
+  it("loadTree(csv) hints only at values that usually mean none, not at a mistyped id", () => {
+    const error = caught(() => csv("id,parent\nQ1,\nQ2,Q9999\n"));
+    expect(error.code).toBe("MISSING_PARENT");
+    expect(error.message).not.toContain("--null-parent");
+    expect(error.details?.remedies).toBeUndefined();
+    const nullWord = caught(() => csv("id,parent\nQ1,NULL\n"));
+    expect(nullWord.message).toContain("--null-parent NULL");
+    expect(caught(() => csv("id,parent\nQ1,\\N\n")).message).toContain("--null-parent '\\N'");
+  });
+
+  it("loadTree(csv) refuses a row whose id is a null-parent value as SHAPE at its id cell", () => {
+    const error = caught(() => csv("id,parent\n0,\n1,0\n", { nullParents: ["0"] }));
+    expect(error.code).toBe("SHAPE");
+    expect(error.pos).toEqual({ row: 1, line: 2, column: 1 });
+  });
+
+  it("loadTree(rows) reads a JSON row's parent 0 (a number) as no parent when named", () => {
+    const rows = JSON.stringify([
+      { id: 1, parent: 0, name: "quill-init" },
+      { id: 40, parent: 1, name: "ledger-agent" },
+    ]);
+    const tree = loadTree(rows, opts({ format: "rows", nullParents: ["0"] }));
+    expect(outline(tree)).toEqual(["quill-init", "  ledger-agent"]);
+  });
+
+  it("espalier --graph --null-parent 0 reads a null parent as a node without that edge", async () => {
+    // 3 has the parents 1 and 2: counted once (3 distinct nodes), its second parent a reference.
+    const stdin = "id,parent\n1,0\n2,1\n3,1\n3,2\n";
+    const args = ["-", "--input-format", "csv", "--graph", "--budget", "10", "--bare"];
+    const r = await cli([...args, "--null-parent", "0"], { stdin });
+    expect(r.code).toBe(0);
+    expect(r.stdout.split("\n")[0]).toMatch(/^\S+ 1 +3 nodes/);
+    const without = await cli(args, { stdin });
+    expect(without.code).toBe(2);
+    expect(without.stderr).toContain("--null-parent 0");
+    expect(without.stderr).toContain("[MISSING_PARENT]");
+  });
+
+  it("espalier --null-parent 0 counts every row once and the root adds one node", async () => {
+    const r = await cli(["-", "--input-format", "csv", "--null-parent", "0", "--budget", "10", "--bare"], {
+      stdin: processes,
+    });
+    expect(r.code).toBe(0);
+    expect(r.stdout.split("\n")[0]).toMatch(/ 6 nodes/);
+    const without = await cli(["-", "--input-format", "csv"], { stdin: processes });
+    expect(without.code).toBe(2);
+    expect(without.stderr).toContain("[MISSING_PARENT]");
+  });
+});
