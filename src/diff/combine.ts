@@ -14,8 +14,13 @@ export interface Combined {
   readonly oldIndex: Int32Array;
   /** Kind code of each node (see `KIND`). */
   readonly kind: Uint8Array;
-  /** Own size in the new version minus own size in the old (a removed node: minus its old size). */
+  /**
+   * Own size in the new version minus own size in the old (a removed node: minus its old size), as
+   * one array of every node: made when first read. {@link deltaOf} gives a node's without it.
+   */
   readonly delta: Float64Array;
+  /** Node k's entry of `delta`, read without making the whole array (non-zero only for a changed node). */
+  readonly deltaOf: (k: number) => number;
   readonly oldTree: Tree;
   readonly newTree: Tree;
   readonly by: Matching["by"];
@@ -56,11 +61,7 @@ export function combine(
     // Nothing to splice in: the combined tree is the new tree.
     const identity = new Int32Array(total);
     for (let k = 0; k < total; k++) identity[k] = k;
-    return {
-      ...fill(oldTree, newTree, matching, identity, newToOld, newParent, compared),
-      newIndex: identity,
-      oldIndex: newToOld,
-    };
+    return fill(oldTree, newTree, matching, identity, newToOld, newParent, compared);
   }
   const newIndex = new Int32Array(total);
   const oldIndex = new Int32Array(total);
@@ -172,10 +173,13 @@ export function combine(
     return sp;
   }
 
-  return { ...fill(oldTree, newTree, matching, newIndex, oldIndex, parent, compared), newIndex, oldIndex };
+  return fill(oldTree, newTree, matching, newIndex, oldIndex, parent, compared);
 }
 
-/** The combined tree's arrays, each node's kind and own size change. */
+/**
+ * The combined tree's arrays and each node's kind. The own size changes are read from both versions'
+ * sizes (one array of every node is fresh memory, dear on a big tree, and only changed nodes have one).
+ */
 function fill(
   oldTree: Tree,
   newTree: Tree,
@@ -184,10 +188,9 @@ function fill(
   oldIndex: Int32Array,
   parent: Int32Array,
   compared: ComparedFields | null,
-) {
+): Combined {
   const total = parent.length;
   const kind = new Uint8Array(total);
-  const delta = new Float64Array(total);
   const renameRoot = !oldTree.syntheticRoot && !newTree.syntheticRoot;
   // Matched by path, every pair below the root has equal names.
   const byId = matching.by === "id";
@@ -198,22 +201,20 @@ function fill(
   const newParent = newTree.parent;
   const oldName = oldTree.name;
   const newName = newTree.name;
+  const deltaOf = (k: number): number => {
+    const n = newIndex[k];
+    const o = oldIndex[k];
+    return n < 0 ? 0 - oldSize[o] : o < 0 ? newSize[n] : newSize[n] - oldSize[o];
+  };
   for (let k = 0; k < total; k++) {
     const n = newIndex[k];
     const o = oldIndex[k];
-    if (n < 0) {
-      kind[k] = KIND.removed;
-      delta[k] = 0 - oldSize[o];
-    } else if (o < 0) {
-      kind[k] = KIND.added;
-      delta[k] = newSize[n];
-    } else {
-      delta[k] = newSize[n] - oldSize[o];
-      if (n > 0 && newToOld[newParent[n]] !== oldParent[o]) kind[k] = KIND.moved;
-      else if ((n > 0 ? byId : renameRoot) && !sameName(newName, n, oldName, o)) kind[k] = KIND.renamed;
-      else if (compared !== null && isEdited(compared, o, n)) kind[k] = KIND.edited;
-      else if (delta[k] !== 0) kind[k] = KIND.resized;
-    }
+    if (n < 0) kind[k] = KIND.removed;
+    else if (o < 0) kind[k] = KIND.added;
+    else if (n > 0 && newToOld[newParent[n]] !== oldParent[o]) kind[k] = KIND.moved;
+    else if ((n > 0 ? byId : renameRoot) && !sameName(newName, n, oldName, o)) kind[k] = KIND.renamed;
+    else if (compared !== null && isEdited(compared, o, n)) kind[k] = KIND.edited;
+    else if (newSize[n] - oldSize[o] !== 0) kind[k] = KIND.resized;
   }
   const keys = [...new Set([...newTree.fields.keys(), ...oldTree.fields.keys()])];
   const ids = matching.by === "id";
@@ -221,7 +222,25 @@ function fill(
     total === newTree.length && keys.length === newTree.fields.size && (!ids || newTree.ids)
       ? { ...newTree, ids: ids ? newTree.ids : null, hasSizes: oldTree.hasSizes || newTree.hasSizes }
       : copyTree(oldTree, newTree, keys, ids, newIndex, oldIndex, parent);
-  return { tree, kind, delta, oldTree, newTree, by: matching.by, compared };
+  let delta: Float64Array | undefined;
+  return {
+    tree,
+    newIndex,
+    oldIndex,
+    kind,
+    get delta() {
+      if (delta === undefined) {
+        delta = new Float64Array(total);
+        for (let k = 0; k < total; k++) if (kind[k] !== KIND.none) delta[k] = deltaOf(k);
+      }
+      return delta;
+    },
+    deltaOf,
+    oldTree,
+    newTree,
+    by: matching.by,
+    compared,
+  };
 }
 
 /** The combined tree's arrays when removed nodes are mixed in: each node from the version it lives in. */

@@ -87,7 +87,7 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
   }
   const { tree } = combined;
   const measures = measure(tree);
-  const changeMeasures = measureChanges(tree, combined.kind, combined.delta);
+  const changeMeasures = measureChanges(tree, combined.kind, combined.deltaOf);
   let oldSize = 0;
   for (let o = 0; o < oldTree.length; o++) oldSize += oldTree.ownSize[o];
   const totals: DiffTotals = {

@@ -61,7 +61,7 @@ export function buildDiffView(input: DiffViewInput): HierarchyNode<DiffViewNode>
   const { index, combined, changes, scores, selection, old } = input;
   const base = buildView(input);
   const { count } = index.measures;
-  const { kind, delta, oldIndex, newIndex, oldTree, compared } = combined;
+  const { kind, deltaOf, oldIndex, newIndex, oldTree, compared } = combined;
   const byIndex = new Map<number, DiffViewNode>();
   let root: DiffViewNode | undefined;
   base.eachBefore(({ data }) => {
@@ -74,7 +74,7 @@ export function buildDiffView(input: DiffViewInput): HierarchyNode<DiffViewNode>
       let net = 0;
       const end = i + count[i];
       for (let c = i + 1; c < end; c += count[c]) {
-        if (selection.isShown(c) || changes.slot[c] < 0) continue;
+        if (selection.isShown(c) || changes.onChangePath[c] === 0) continue;
         const counts = changesIn(changes, c);
         for (const k of changeKinds) inside[k] += counts[k];
         net += netIn(changes, c);
@@ -85,7 +85,7 @@ export function buildDiffView(input: DiffViewInput): HierarchyNode<DiffViewNode>
       ...data,
       onPath: data.onPath || scores.onChangePath[i] === 1,
       change: kindName(k),
-      delta: delta[i],
+      delta: deltaOf(i),
       net: netIn(changes, i),
       changes: changesIn(changes, i),
       movedFrom:

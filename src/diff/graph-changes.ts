@@ -82,7 +82,8 @@ export function matchGraphs(
 
 /**
  * Kinds of change by edges, and the references of the combined tree. Per slot of the combined tree:
- * - a reference of the new version: `linked` when its edge is new, else unchanged;
+ * - a reference of the new version: `linked` when its edge is new, `renamed` when the edge was there
+ *   under another name (a YAML alias under a renamed key), else unchanged;
  * - a reference of the old version whose edge is gone (shown at its old place): `unlinked`;
  * - a node's full entry, the node in both versions, under another parent than before: `moved` when
  *   its new parent's edge is new and its old parent's is gone (as in a tree), `linked` when only the
@@ -114,7 +115,14 @@ export function graphCombined(
     const o = oldIndex[k];
     if (n >= 0 && newRef !== undefined && newRef[n] !== -1) {
       referenceTo[k] = newToCombined[newRef[n]];
-      kind[k] = oldEdges.has(edgeKey(newTree, n)!) ? KIND.none : KIND.linked;
+      // The same reference under another key (YAML: `ledger-link: *ledger` became `ledger-ref:
+      // *ledger`): the line names the node by that key, so the change is a rename, from the old key.
+      const before = oldEdges.get(edgeKey(newTree, n)!);
+      if (before === undefined) kind[k] = KIND.linked;
+      else if (matching.oldToNew[before] === n && oldTree.name.get(before) !== newTree.name.get(n)) {
+        kind[k] = KIND.renamed;
+        oldIndex[k] = before;
+      } else kind[k] = KIND.none;
       delta[k] = 0;
       continue;
     }
@@ -140,7 +148,8 @@ export function graphCombined(
     else if (newTree.name.get(n) !== oldTree.name.get(o)) kind[k] = KIND.renamed;
     else kind[k] = delta[k] !== 0 ? KIND.resized : KIND.none;
   }
-  return { ...combined, tree: { ...tree, referenceTo } };
+  // `delta` was made (read above) and changed here: it is the one to read.
+  return { ...combined, tree: { ...tree, referenceTo }, deltaOf: (k) => delta[k] };
 }
 
 /** Node count of a version: its full entries (references are no nodes). */

@@ -1,4 +1,4 @@
-import { isEmptyName, type Names, sameName } from "../model/names.js";
+import { isEmptyName, NamePool, type Names, sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 
 /** How the nodes of two versions correspond. Roots always correspond to each other. */
@@ -114,6 +114,25 @@ function matchByPath(
 ) {
   const oldName = oldTree.name;
   const newName = newTree.name;
+  // Two pools: equal bytes are equal names, compared here without a call per name; unequal bytes go
+  // to sameName, which decides whether only decoding can tell.
+  const oldRuns = oldName instanceof NamePool ? oldName.byteRuns() : null;
+  const newRuns = newName instanceof NamePool ? newName.byteRuns() : null;
+  const runs = oldRuns !== null && newRuns !== null;
+  const oldBytes = runs ? oldRuns.bytes : new Uint8Array(0);
+  const oldStart = runs ? oldRuns.start : new Uint32Array(0);
+  const oldSize = runs ? oldRuns.size : new Uint32Array(0);
+  const newBytes = runs ? newRuns.bytes : new Uint8Array(0);
+  const newStart = runs ? newRuns.start : new Uint32Array(0);
+  const newSize = runs ? newRuns.size : new Uint32Array(0);
+  const equalBytes = (oc: number, nc: number): boolean => {
+    if (!runs) return false;
+    const length = oldSize[oc];
+    if (length !== newSize[nc]) return false;
+    for (let a = oldStart[oc], b = newStart[nc], end = a + length; a < end; a++, b++)
+      if (oldBytes[a] !== newBytes[b]) return false;
+    return true;
+  };
   for (let n = 0; n < newTree.length; n++) {
     const o = newToOld[n];
     if (o < 0) {
@@ -125,7 +144,7 @@ function matchByPath(
     // Usual case: the same names in the same order, paired position by position.
     let oc = o + 1;
     let nc = n + 1;
-    while (oc < oEnd && nc < nEnd && sameName(oldName, oc, newName, nc)) {
+    while (oc < oEnd && nc < nEnd && (equalBytes(oc, nc) || sameName(oldName, oc, newName, nc))) {
       oldToNew[oc] = nc;
       newToOld[nc] = oc;
       oc += oldCount[oc];

@@ -12,45 +12,73 @@ const K = changeKinds.length;
 export interface ChangeMeasures {
   /** 1 for every changed node and every ancestor of one. */
   readonly onChangePath: Uint8Array;
-  /** Each node's slot in `counts` and `net`, or -1 off change paths. */
-  readonly slot: Int32Array;
+  /** The nodes on change paths in pre-order: node `onPath[s]` has slot s in `counts` and `net`. */
+  readonly onPath: Int32Array;
   /** One count per kind (in the order of `changeKinds`) per slot, at `K * slot`. */
   readonly counts: Int32Array;
   /** Sum of own size changes (new minus old) over the subtree, per slot. */
   readonly net: Float64Array;
 }
 
-/** Three linear passes: mark change paths, number them, then fold every child into its parent. */
-export function measureChanges(tree: Tree, kind: Uint8Array, delta: Float64Array): ChangeMeasures {
+/**
+ * Three linear passes: mark change paths, list them, then fold every child into its parent. `deltaOf`
+ * gives a node's own size change; it is read only for changed nodes (every other node has none).
+ */
+export function measureChanges(tree: Tree, kind: Uint8Array, deltaOf: (i: number) => number): ChangeMeasures {
   const n = tree.length;
   const { parent } = tree;
   const onChangePath = new Uint8Array(n);
+  let m = 0;
   for (let i = n - 1; i >= 0; i--) {
     if (kind[i] !== 0) onChangePath[i] = 1;
-    if (onChangePath[i] && i > 0) onChangePath[parent[i]] = 1;
+    if (!onChangePath[i]) continue;
+    m++;
+    if (i > 0) onChangePath[parent[i]] = 1;
   }
-  const slot = new Int32Array(n).fill(-1);
-  let m = 0;
-  for (let i = 0; i < n; i++) if (onChangePath[i]) slot[i] = m++;
+  const onPath = new Int32Array(m);
+  for (let i = 0, s = 0; s < m; i++) if (onChangePath[i]) onPath[s++] = i;
   const counts = new Int32Array(m * K);
   const net = new Float64Array(m);
-  for (let i = n - 1; i >= 0; i--) {
-    const s = slot[i];
-    if (s < 0) continue;
-    if (kind[i] !== 0) counts[s * K + kind[i] - 1]++;
-    net[s] += delta[i];
+  // In reverse pre-order every child comes before its parent; the parent's slot is found by a search
+  // of `onPath` (the list is a few nodes per change, where an array of every node's slot would be
+  // the size of the tree).
+  for (let s = m - 1; s >= 0; s--) {
+    const i = onPath[s];
+    if (kind[i] !== 0) {
+      counts[s * K + kind[i] - 1]++;
+      net[s] += deltaOf(i);
+    }
     if (i === 0) continue;
-    const t = slot[parent[i]];
+    const t = slotIn(onPath, parent[i], s);
     net[t] += net[s];
     for (let k = 0; k < K; k++) counts[t * K + k] += counts[s * K + k];
   }
-  return { onChangePath, slot, counts, net };
+  return { onChangePath, onPath, counts, net };
+}
+
+/** The slot of node i among the first `below` entries of `onPath` (sorted), or -1. */
+function slotIn(onPath: Int32Array, i: number, below: number): number {
+  let lo = 0;
+  let hi = below - 1;
+  while (lo <= hi) {
+    const mid = (lo + hi) >>> 1;
+    const v = onPath[mid];
+    if (v === i) return mid;
+    if (v < i) lo = mid + 1;
+    else hi = mid - 1;
+  }
+  return -1;
+}
+
+/** Node i's slot in `counts` and `net`, or -1 off change paths. */
+export function slotOf(cm: ChangeMeasures, i: number): number {
+  return cm.onChangePath[i] ? slotIn(cm.onPath, i, cm.onPath.length) : -1;
 }
 
 /** The changes in node i's subtree, per kind. */
 export function changesIn(cm: ChangeMeasures, i: number): ChangeCounts {
   const out = noChanges();
-  const s = cm.slot[i];
+  const s = slotOf(cm, i);
   if (s < 0) return out;
   const b = s * K;
   changeKinds.forEach((kind, k) => {
@@ -61,7 +89,7 @@ export function changesIn(cm: ChangeMeasures, i: number): ChangeCounts {
 
 /** Number of changed nodes in node i's subtree. */
 export function changeTotalIn(cm: ChangeMeasures, i: number): number {
-  const s = cm.slot[i];
+  const s = slotOf(cm, i);
   if (s < 0) return 0;
   let total = 0;
   for (let k = 0; k < K; k++) total += cm.counts[s * K + k];
@@ -70,6 +98,6 @@ export function changeTotalIn(cm: ChangeMeasures, i: number): number {
 
 /** Net size change over node i's subtree. */
 export function netIn(cm: ChangeMeasures, i: number): number {
-  const s = cm.slot[i];
+  const s = slotOf(cm, i);
   return s < 0 ? 0 : cm.net[s];
 }

@@ -254,6 +254,16 @@ export class NamePool implements Names {
   }
 
   /**
+   * The pool's bytes with each node's start and byte length, for a loop that compares many names at
+   * once (equal bytes are the same name); null when some name is kept as a string (see the class
+   * comment), whose bytes do not spell it. Valid until the pool next grows.
+   */
+  byteRuns(): { bytes: Uint8Array; start: Uint32Array; size: Uint32Array } | null {
+    if (this.exact !== null && this.exact.size > 0) return null;
+    return { bytes: this.bytes, start: this.start, size: this.size };
+  }
+
+  /**
    * Whether name `i` here and name `j` of `other` are the same text, judged from the bytes: true when the
    * bytes are equal, false when they differ and are all ASCII; undefined when only decoding can tell
    * (different bytes beyond ASCII may decode alike when invalid, or a name is kept as a string).

@@ -28,7 +28,12 @@ export function shortenMiddle(text: string, width: number): string {
   if (width <= 0) return "";
   if (width === 1) return ELLIPSIS;
   const graphemes = graphemesOf(text);
-  const widths = graphemes.map(displayWidth);
+  const { head, tail } = middleCut(graphemes, graphemes.map(displayWidth), width);
+  return graphemes.slice(0, head).join("") + ELLIPSIS + graphemes.slice(tail).join("");
+}
+
+/** Of graphemes too wide for `width` (at least 2): how many stay at the start, and where the end resumes. */
+function middleCut(graphemes: string[], widths: number[], width: number): { head: number; tail: number } {
   const room = width - 1;
   const headRoom = Math.ceil(room / 2);
   let head = 0;
@@ -36,7 +41,7 @@ export function shortenMiddle(text: string, width: number): string {
   while (head < graphemes.length && used + widths[head] <= headRoom) used += widths[head++];
   let tail = graphemes.length;
   while (tail > head && used + widths[tail - 1] <= room) used += widths[--tail];
-  return graphemes.slice(0, head).join("") + ELLIPSIS + graphemes.slice(tail).join("");
+  return { head, tail };
 }
 
 /** Cuts text at the end to at most `width` columns, marking the cut with an ellipsis. */
@@ -52,6 +57,39 @@ export function shortenEnd(text: string, width: number): string {
     used += w;
   }
   return out + ELLIPSIS;
+}
+
+/**
+ * Shortens text to at most `width` columns so that the grapheme holding code unit `at` stays, with the
+ * start of the text: cut at the end when that keeps it (`ledger-linux-x…`), else in the middle when the
+ * end holds it (`ledger…x64-musl`), else around it (`report-20…05-fin…`). Where a name first differs
+ * from its siblings' names, so that a cut never makes two of them print the same.
+ */
+export function shortenKeeping(text: string, width: number, at: number): string {
+  if (displayWidth(text) <= width) return text;
+  if (width <= 2) return shortenEnd(text, width);
+  const graphemes = graphemesOf(text);
+  const widths = graphemes.map(displayWidth);
+  let g = 0;
+  for (let units = 0; g < graphemes.length - 1 && units + graphemes[g].length <= at; g++)
+    units += graphemes[g].length;
+  let upTo = 0;
+  for (let k = 0; k <= g; k++) upTo += widths[k];
+  if (upTo <= width - 1) return shortenEnd(text, width);
+  const { head: kept, tail } = middleCut(graphemes, widths, width);
+  if (tail <= g) return graphemes.slice(0, kept).join("") + ELLIPSIS + graphemes.slice(tail).join("");
+  // Around it: a third of the room for the start, the rest from the grapheme before it on.
+  const room = width - 2;
+  const headRoom = Math.max(1, Math.floor(room / 3));
+  let head = 0;
+  let used = 0;
+  while (head < g && used + widths[head] <= headRoom) used += widths[head++];
+  let from = Math.max(head, g - 1);
+  if (used + widths[from] + (from < g ? widths[g] : 0) > room) from = g;
+  let end = from;
+  while (end < graphemes.length && used + widths[end] <= room) used += widths[end++];
+  const after = end < graphemes.length ? ELLIPSIS : "";
+  return `${graphemes.slice(0, head).join("")}${ELLIPSIS}${graphemes.slice(from, end).join("")}${after}`;
 }
 
 /** The text's grapheme clusters (UAX #29). */

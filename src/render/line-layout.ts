@@ -1,6 +1,6 @@
 import type { ChangeKind } from "../diff/changes.js";
 import { CHAIN_JOIN } from "../model/chain-join.js";
-import { displayWidth, shortenEnd, shortenMiddle } from "./display-width.js";
+import { displayWidth, shortenEnd, shortenKeeping, shortenMiddle } from "./display-width.js";
 import { noColour, type Palette } from "./palette.js";
 
 /**
@@ -23,6 +23,11 @@ export interface LineParts {
   tagKind: ChangeKind | null;
   /** The labels the line names: one node, or a chain of only children, top first. */
   labels: string[];
+  /**
+   * One name: the code unit where it first differs from every shown sibling's name (see
+   * `distinctAt`), which a cut keeps, so siblings never print the same; absent: none to tell apart.
+   */
+  distinctAt?: number;
   /** The last node's numbers after the labels (`12,121 nodes, 3.0 MiB`), or "". */
   numbers: string;
   /** The same with counts and plain sizes compact (`12.1k nodes`). */
@@ -61,8 +66,9 @@ const MIN_LABEL = 8;
  *   2. the fold keeps only how many children it hides (`(hidden: 3 children)`, then `(3 hidden)`;
  *      in a diff with how many changed nodes it holds);
  *   3. the tag's old path or old name is cut to a few columns;
- *   4. the labels are cut, down to 8 columns: one name at its end, a chain in its middle (its first
- *      and last names stay readable);
+ *   4. the labels are cut, down to 8 columns: one name at its end, or around where it differs from
+ *      its siblings when the end cut would lose that; a chain in its middle (its first and last names
+ *      stay readable);
  *   5. the line's own numbers go;
  *   6. the labels are cut further, down to one column and `…`;
  *   7. a deep line's indentation shrinks to a third of the width, then to its level in digits;
@@ -116,7 +122,7 @@ export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
     for (const [numbers, fold, least] of cut) {
       const room = width - displayWidth(line(ind, "", p.shortTag, numbers, fold, false));
       if (room >= Math.min(least, displayWidth(label)))
-        return line(ind, cutLabels(p.labels, room), p.shortTag, numbers, fold, true);
+        return line(ind, cutLabels(p.labels, room, p.distinctAt), p.shortTag, numbers, fold, true);
     }
   }
   // Still too wide (a diff's long tag and fold on a deep line): at the shortest indentation the tag
@@ -127,7 +133,7 @@ export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
     for (const fold of [p.foldTiny, p.fold ? FOLD_SIGN : ""]) {
       const room = width - displayWidth(line(least, "", kindTag, "", fold, false));
       if (room >= Math.min(fewest, displayWidth(label)))
-        return line(least, cutLabels(p.labels, room), kindTag, "", fold, true);
+        return line(least, cutLabels(p.labels, room, p.distinctAt), kindTag, "", fold, true);
     }
   // Narrower than MIN_WIDTH (the renderers refuse such a width; a small screen may still ask for it):
   // the start of the line is cut, and the fold's sign stays at its end while the width holds it.
@@ -139,12 +145,15 @@ export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
 }
 
 /**
- * Labels cut to `room` columns: one name at its end (its start is what a reader recognises), a chain
- * in its middle, so its first name and the name the line's numbers belong to stay readable.
+ * Labels cut to `room` columns: one name at its end (its start is what a reader recognises), unless
+ * that would cut away where it differs from its siblings (`distinctAt`): then that part stays too
+ * (`ledger…x64-musl` beside `ledger…linux-x64`); a chain in its middle, so its first name and the name
+ * the line's numbers belong to stay readable.
  */
-export function cutLabels(labels: string[], room: number): string {
+export function cutLabels(labels: string[], room: number, distinctAt?: number): string {
   const text = labels.join(CHAIN_JOIN);
-  return labels.length > 1 ? shortenMiddle(text, room) : shortenEnd(text, room);
+  if (labels.length > 1) return shortenMiddle(text, room);
+  return distinctAt === undefined ? shortenEnd(text, room) : shortenKeeping(text, room, distinctAt);
 }
 
 /**

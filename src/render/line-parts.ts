@@ -56,6 +56,7 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
     shortTag: "",
     tagKind: null,
     labels: chainLabels(group),
+    ...distinctPart(group),
     numbers: say(options),
     compactNumbers: say(compact),
     fold: fold(options),
@@ -103,4 +104,43 @@ function shareOf<T extends ViewNode>(group: LineGroup<T>, node: T, options: Numb
   if (!options.share) return "";
   const whole = options.share === "total" ? group.root : (group.above ?? group.root);
   return options.sizes ? percent(node.size, whole.size) : percent(node.nodes, whole.nodes);
+}
+
+/**
+ * A one-name line's `distinctAt`: one past the longest common prefix of its label with a shown
+ * sibling's (siblings sorted by label, so only the neighbours compare), where a cut must not reach.
+ */
+function distinctPart<T extends ViewNode>({ nodes, above }: LineGroup<T>): { distinctAt?: number } {
+  if (nodes.length !== 1 || above === null || above.children.length < 2) return {};
+  const self = shownLabel(nodes[0].label);
+  let sorted = siblingLabels.get(above);
+  if (sorted === undefined) {
+    sorted = above.children.map((c) => shownLabel(c.label));
+    sorted.sort();
+    siblingLabels.set(above, sorted);
+  }
+  let lo = 0;
+  let hi = sorted.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (sorted[mid] < self) lo = mid + 1;
+    else hi = mid;
+  }
+  let common = -1;
+  for (const k of [lo - 1, lo + 1])
+    if (k >= 0 && k < sorted.length) common = Math.max(common, prefix(self, sorted[k]));
+  // An equal label (a sibling of the same name) cannot be told apart by any cut.
+  if (lo + 1 < sorted.length && sorted[lo + 1] === self) return {};
+  return common < 0 ? {} : { distinctAt: common };
+}
+
+/** Shown siblings' labels, sorted, per parent: computed once per parent for all its lines. */
+const siblingLabels = new WeakMap<ViewNode, string[]>();
+
+/** Code units two texts share at their start. */
+function prefix(a: string, b: string): number {
+  const n = Math.min(a.length, b.length);
+  let k = 0;
+  while (k < n && a.charCodeAt(k) === b.charCodeAt(k)) k++;
+  return k;
 }

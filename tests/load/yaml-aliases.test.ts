@@ -208,3 +208,51 @@ describe("espalier diff of YAML documents with reused aliases", () => {
     expect(values.code, values.stderr).toBe(1);
   });
 });
+
+describe("espalier diff of YAML documents: an alias under a renamed key", () => {
+  // Invented tidewater document: harbor holds the anchored ledger under its own key, by an alias. The
+  // key names the reference's line (`& ledger-link  full entry at ledger`), so another key is a change.
+  const before = [
+    "name: tidewater",
+    "children:",
+    "  ledger: &ledger {size: 10, children: {book: 5}}",
+    "  harbor:",
+    "    size: 2",
+    "    children:",
+    "      ledger-link: *ledger",
+    "",
+  ].join("\n");
+  const after = before.replace("ledger-link: *ledger", "ledger-ref: *ledger");
+
+  it("counts it as renamed, with nothing else changed and the totals as before", () => {
+    const diff = prepareDiff(yaml(before), yaml(after));
+    expect(diff.totals.changes).toMatchObject({
+      renamed: 1,
+      added: 0,
+      removed: 0,
+      moved: 0,
+      resized: 0,
+      linked: 0,
+      unlinked: 0,
+    });
+    expect(diff.totals.old).toEqual(diff.totals.new);
+    expect(diff.totals.delta).toBe(0);
+  });
+
+  it("prints it renamed from the old key, and --fail-on-change fails", async () => {
+    const { cli } = await import("../helpers/cli.js");
+    const result = await cli(["diff", "a.yaml", "b.yaml", "--fail-on-change"], {
+      files: { "a.yaml": before, "b.yaml": after },
+    });
+    expect(result.stderr).toBe("");
+    expect(result.code).toBe(1);
+    expect(result.stdout.split("\n")[0]).toMatch(/^diff by path: .*1 renamed,/);
+    expect(result.stdout).toMatch(/& \[renamed from ledger-link\] ledger-ref {2}full entry at ledger/);
+  });
+
+  it("stays no change when only the anchor's name is another (`&ledger` to `&books`)", async () => {
+    const renamedAnchor = before.replace("&ledger", "&books").replace("*ledger", "*books");
+    const diff = prepareDiff(yaml(before), yaml(renamedAnchor));
+    expect(Object.values(diff.totals.changes).every((c) => c === 0)).toBe(true);
+  });
+});

@@ -4,7 +4,13 @@ import { describe, expect, it } from "vitest";
 import type { EspalierError } from "../../src/errors.js";
 import { measure } from "../../src/model/measure.js";
 import { PathIndex } from "../../src/model/path-index.js";
-import { displayWidth, ELLIPSIS, shortenEnd, shortenMiddle } from "../../src/render/display-width.js";
+import {
+  displayWidth,
+  ELLIPSIS,
+  shortenEnd,
+  shortenKeeping,
+  shortenMiddle,
+} from "../../src/render/display-width.js";
 import { lineGroups } from "../../src/render/line-groups.js";
 import { MIN_WIDTH } from "../../src/render/line-layout.js";
 import { renderText } from "../../src/render/summary-text.js";
@@ -170,5 +176,42 @@ describe("renderText(view, { width })", () => {
     const text = renderText(result.view, { units: "plain", sizes: false, chains: true });
     // The chain R / a / b ends at the focus; c, the focus's only child, gets a line of its own.
     expect(text).toBe(["* R / a / b  2 nodes", "  . c", ""].join("\n"));
+  });
+});
+
+describe("shortenKeeping(text, width, at)", () => {
+  // Widths by string-width, the reference library for terminal widths (Unicode UAX #11): a CJK
+  // ideograph (class W) takes two columns.
+  it("cuts at the end when that keeps code unit `at`, else keeps it from the end or around it", () => {
+    expect(shortenKeeping("ledger-linux-x64-musl", 12, 3)).toBe(`ledger-linu${ELLIPSIS}`);
+    expect(shortenKeeping("ledger-linux-x64-musl", 12, 16)).toBe(`ledger${ELLIPSIS}-musl`);
+    expect(shortenKeeping("report-2031-04-final-summary.csv", 14, 13)).toBe(
+      `repo${ELLIPSIS}04-final${ELLIPSIS}`,
+    );
+    expect(shortenKeeping("部門名名名名名名名名一", 12, 10)).toBe(`部門名${ELLIPSIS}名一`);
+  });
+
+  it("fits the width and keeps the grapheme at `at`, so two texts that differ there stay apart (property)", () => {
+    const unit = fc.constantFrom("a", "b", "-", "名", "ｶ", "e\u0301", "🌊");
+    const texts = fc.tuple(
+      fc.array(unit, { minLength: 0, maxLength: 30 }),
+      unit,
+      unit,
+      fc.array(unit, { maxLength: 30 }),
+    );
+    fc.assert(
+      fc.property(texts, fc.integer({ min: 8, max: 40 }), ([stem, x, y, rest], width) => {
+        fc.pre(x !== y);
+        const a = stem.join("") + x + rest.join("");
+        const b = stem.join("") + y + rest.join("");
+        const at = stem.join("").length;
+        const cutA = shortenKeeping(a, width, at);
+        const cutB = shortenKeeping(b, width, at);
+        expect(stringWidth(cutA)).toBeLessThanOrEqual(width);
+        expect(stringWidth(cutB)).toBeLessThanOrEqual(width);
+        expect(cutA).not.toBe(cutB);
+      }),
+      { numRuns: 2000 },
+    );
   });
 });
