@@ -7,7 +7,7 @@ import { FAR, type Scores } from "./scores.js";
 
 /** {@link Scores} of a graph: every member of the contract, and the rank of the parents of a focus. */
 export interface GraphScores extends Scores {
-  readonly rank: Int32Array;
+  rankOf(x: number): number;
 }
 
 /**
@@ -41,9 +41,12 @@ export function graphInterest(
 ): GraphScores {
   const n = tree.length;
   const { parent, depth } = tree;
-  const rank = new Int32Array(n).fill(FAR);
+  // Rank + 1 of the slots on the path to a parent of a focus, 0 elsewhere (FAR): a few slots of many,
+  // so the array is left as it was made (zeros) but for them.
+  const ranked = new Int32Array(n);
+  const rankOf = (x: number): number => (ranked[x] === 0 ? FAR : ranked[x] - 1);
   // No focus: the same scores as a tree's, API(x) − API(root) (near.ts), every rank FAR.
-  if (foci.length === 0) return { ...interestNear(tree, api, foci), rank };
+  if (foci.length === 0) return { ...interestNear(tree, api, foci), rankOf };
   const { nodes, nodeOf } = neighbours;
 
   // Key K(v) = min over foci of D(v, y) + API(y). The foci, sorted by their offset API(y).
@@ -85,7 +88,7 @@ export function graphInterest(
   for (const y of foci) for (const r of refs.of(y)) parentRefs.push(r);
   parentRefs.sort((a, b) => depth[a] - depth[b] || a - b);
   parentRefs.forEach((s, r) => {
-    for (let a = s; a !== -1 && rank[a] === FAR; a = parent[a]) rank[a] = r;
+    for (let a = s; a !== -1 && ranked[a] === 0; a = parent[a]) ranked[a] = r + 1;
   });
 
   // A slot's distance, found when asked and kept (0 unknown, else distance + 1). The tie-break
@@ -115,11 +118,11 @@ export function graphInterest(
     forcedNodes: Int32Array.from(forcedNodes).sort(),
     interestOf(x) {
       const v = api[x] - key[nodeOf[x]];
-      return rank[x] !== FAR && v < 0 ? 0 : v;
+      return ranked[x] !== 0 && v < 0 ? 0 : v;
     },
     distanceOf,
     isForced: (x) => forced[x] === 1,
-    rank,
+    rankOf,
   };
 }
 
@@ -130,7 +133,9 @@ export function graphInterest(
  * level whose frontier has more edges than a fourteenth of those of the nodes not yet reached is found
  * the other way round, every node not reached looking for a neighbour in the frontier and stopping at
  * the first (Beamer, Asanović and Patterson, "Direction-optimizing breadth-first search", SC '12,
- * with their α = 14); both give each node the first level it is reached at. `queue`: a node long.
+ * with their α = 14, and their bitmaps: such a level reads the frontier and the nodes reached as one
+ * bit per node, small enough to stay in the processor's cache); both give each node the first level
+ * it is reached at. `queue`: a node long.
  */
 function levelSearch(
   neighbours: GraphNeighbours,
@@ -138,18 +143,23 @@ function levelSearch(
   offsets: Float64Array,
   queue: Int32Array,
 ): Float64Array {
-  const { nodes, nodeOf, start, adjacent } = neighbours;
+  const { nodes, nodeOf, downStart, down, upStart, up } = neighbours;
   const level = new Float64Array(nodes).fill(Number.POSITIVE_INFINITY);
+  // One bit per node: reached (at any level so far), and in the frontier (a bottom-up level's only).
+  const words = (nodes + 31) >>> 5;
+  const reached = new Int32Array(words);
+  let frontier: Int32Array | null = null;
   let head = 0;
   let tail = 0;
   let next = 0;
-  let unreachedEdges = adjacent.length;
+  let unreachedEdges = down.length + up.length;
   for (let d = offsets[0]; ; d++) {
     // The frontier: the nodes reached at level d, and the sources entering at d not reached before.
     while (next < sources.length && offsets[next] === d) {
       const v = nodeOf[sources[next++]];
       if (level[v] <= d) continue;
       level[v] = d;
+      reached[v >>> 5] |= 1 << (v & 31);
       queue[tail++] = v;
     }
     if (head === tail) {
@@ -158,29 +168,51 @@ function levelSearch(
       continue;
     }
     let frontierEdges = 0;
-    for (let k = head; k < tail; k++) frontierEdges += start[queue[k] + 1] - start[queue[k]];
+    for (let k = head; k < tail; k++) {
+      const v = queue[k];
+      frontierEdges += downStart[v + 1] - downStart[v] + upStart[v + 1] - upStart[v];
+    }
     unreachedEdges -= frontierEdges;
     const levelEnd = tail;
     const reach = d + 1;
     if (frontierEdges * 14 > unreachedEdges) {
-      for (let v = 0; v < nodes; v++) {
-        if (level[v] <= reach) continue;
-        for (let j = start[v], end = start[v + 1]; j < end; j++) {
-          if (level[adjacent[j]] === d) {
+      frontier ??= new Int32Array(words);
+      for (let k = head; k < levelEnd; k++) frontier[queue[k] >>> 5] |= 1 << (queue[k] & 31);
+      for (let w = 0; w < words; w++) {
+        const done = reached[w];
+        if (done === -1) continue;
+        for (let v = w << 5, last = Math.min(nodes, v + 32); v < last; v++) {
+          if ((done & (1 << (v & 31))) !== 0) continue;
+          let found = false;
+          for (let j = upStart[v], end = upStart[v + 1]; j < end && !found; j++)
+            found = (frontier[up[j] >>> 5] & (1 << (up[j] & 31))) !== 0;
+          for (let j = downStart[v], end = downStart[v + 1]; j < end && !found; j++)
+            found = (frontier[down[j] >>> 5] & (1 << (down[j] & 31))) !== 0;
+          if (found) {
             level[v] = reach;
             queue[tail++] = v;
-            break;
           }
         }
       }
+      for (let k = head; k < levelEnd; k++) frontier[queue[k] >>> 5] = 0;
+      for (let k = levelEnd; k < tail; k++) reached[queue[k] >>> 5] |= 1 << (queue[k] & 31);
       head = levelEnd;
     } else {
       while (head < levelEnd) {
         const v = queue[head++];
-        for (let j = start[v], end = start[v + 1]; j < end; j++) {
-          const w = adjacent[j];
+        for (let j = downStart[v], end = downStart[v + 1]; j < end; j++) {
+          const w = down[j];
           if (level[w] > reach) {
             level[w] = reach;
+            reached[w >>> 5] |= 1 << (w & 31);
+            queue[tail++] = w;
+          }
+        }
+        for (let j = upStart[v], end = upStart[v + 1]; j < end; j++) {
+          const w = up[j];
+          if (level[w] > reach) {
+            level[w] = reach;
+            reached[w >>> 5] |= 1 << (w & 31);
             queue[tail++] = w;
           }
         }
@@ -199,7 +231,7 @@ function mergedSearch(
   offsets: Float64Array,
   queue: Int32Array,
 ): Float64Array {
-  const { nodes, nodeOf, start, adjacent } = neighbours;
+  const { nodes, nodeOf, downStart, down, upStart, up } = neighbours;
   // key[v]: the best offset reaching node v so far; final once v is settled.
   const key = new Float64Array(nodes).fill(Number.POSITIVE_INFINITY);
   const settled = new Uint8Array(nodes);
@@ -217,8 +249,15 @@ function mergedSearch(
     if (settled[v] === 1) continue;
     settled[v] = 1;
     const reach = key[v] + 1;
-    for (let j = start[v], end = start[v + 1]; j < end; j++) {
-      const w = adjacent[j];
+    for (let j = downStart[v], end = downStart[v + 1]; j < end; j++) {
+      const w = down[j];
+      if (reach < key[w]) {
+        key[w] = reach;
+        queue[tail++] = w;
+      }
+    }
+    for (let j = upStart[v], end = upStart[v + 1]; j < end; j++) {
+      const w = up[j];
       if (reach < key[w]) {
         key[w] = reach;
         queue[tail++] = w;

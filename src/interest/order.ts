@@ -30,8 +30,11 @@ export function nodeOrder(tree: Tree, measures: Measures, scores: Scores, betwee
     const vb = scores.interestOf(b);
     if (va !== vb) return vb - va;
     // Graphs: the paths to a focus's parents, nearest a root first (interest/graph-doi.ts).
-    const rank = scores.rank;
-    if (rank !== undefined && rank[a] !== rank[b]) return rank[a] - rank[b];
+    if (scores.rankOf !== undefined) {
+      const ra = scores.rankOf(a);
+      const rb = scores.rankOf(b);
+      if (ra !== rb) return ra - rb;
+    }
     if (between !== undefined) {
       const t = between(a, b);
       if (t !== 0) return t;

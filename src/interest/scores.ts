@@ -20,9 +20,9 @@ export interface Scores {
   readonly forcedNodes: Int32Array;
   /**
    * Graphs only: the rank of the parent of a focus (a reference to it, nearest a root first) whose path
-   * this node is on; 0x7fffffff elsewhere. Among equal interest, a lower rank comes first.
+   * node `x` is on; {@link FAR} elsewhere. Among equal interest, a lower rank comes first.
    */
-  readonly rank?: Int32Array;
+  rankOf?(x: number): number;
 }
 
 /** The distance of every node when there is no focus. */

@@ -1,8 +1,9 @@
 import { EspalierError, quoted, say } from "../errors.js";
 import { checkSizes } from "./check-sizes.js";
-import { type GraphNeighbours, rememberNeighbours } from "./graph-neighbours.js";
+import { type GraphNeighbours, rememberNeighbours, upRuns } from "./graph-neighbours.js";
 import type { GraphNodes } from "./graph-nodes.js";
 import type { LinkedNodes } from "./linked-nodes.js";
+import { rememberZeroSizes } from "./measure.js";
 import { NamePool, type Names } from "./names.js";
 import type { Tree } from "./tree.js";
 
@@ -143,12 +144,15 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
 
   // Pre-order layout: entries and references of each node in input order of their edges. A reference's
   // referenceTo holds its node until every entry has its slot, then the slot of that node's entry.
+  // The loader's edge arrays are read no more: where they are long enough, three of the slot arrays
+  // are made in their memory (every slot is written below), sparing that much fresh memory.
+  const taken = new Set<ArrayBufferLike>([graph.origin.buffer, graph.ownSize.buffer]);
   const parent = new Int32Array(slots);
-  const depth = new Int32Array(slots);
-  const from = new Int32Array(slots); // node whose name (and id, fields) a slot shows; -1 synthetic root
+  const depth = reused(graph.edgeTo, slots, taken);
+  const from = reused(graph.edgeFrom, slots, taken); // node whose name (and id, fields) a slot shows; -1 synthetic root
   const referenceTo = new Int32Array(slots).fill(-1);
   const ownSize = new Float64Array(slots);
-  const origin = new Int32Array(slots);
+  const origin = reused(edgeOrigin, slots, taken);
   const slotOf = new Int32Array(n).fill(-1);
   const nodeSize = graph.ownSize;
   const nodeOrigin = graph.origin;
@@ -159,7 +163,9 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   const base = synthetic ? 1 : 0;
   if (synthetic) {
     parent[0] = -1;
+    depth[0] = 0;
     from[0] = -1;
+    origin[0] = 0;
     next = 1;
   }
   const place = (node: number, p: number): number => {
@@ -212,7 +218,13 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     fields.set(key, column);
   }
   const hasReferences = slots > n + base;
-  const names = name.reordered(from, graph.rootName);
+  const topNodes = new Int32Array(synthetic && hasReferences ? tops : 0);
+  if (topNodes.length > 0) for (let i = 0, t = 0; i < n; i++) if (rec[3 * i] === -1) topNodes[t++] = i;
+  // The names' places, in the memory of two more arrays read no more (when long enough).
+  const names = name.reordered(from, graph.rootName, {
+    start: reusedU32(outLine, slots, taken),
+    size: reusedU32(rec, slots, taken),
+  });
   const tree: Tree = {
     length: slots,
     parent,
@@ -230,12 +242,11 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     reading: { shape: "graph", sizeUnit: graph.sizeUnit },
     ...(hasReferences ? { referenceTo } : {}),
   };
+  if (!sized) rememberZeroSizes(tree);
   if (hasReferences) {
     // The graph interest's neighbour table, from the edges at hand (see graph-neighbours.ts): nodes by
     // their own numbers, so a slot's node is the node it shows (the added root: n).
     if (synthetic) from[0] = n;
-    const topNodes = new Int32Array(synthetic ? tops : 0);
-    if (synthetic) for (let i = 0, t = 0; i < n; i++) if (rec[3 * i] === -1) topNodes[t++] = i;
     rememberNeighbours(tree, neighbourTable(outStart, outTo, inDegree, topNodes, from));
   }
   return tree;
@@ -243,10 +254,10 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
 
 /**
  * The neighbour table ({@link GraphNeighbours}) of a graph's nodes by their own numbers, the root
- * espalier adds (when `tops`, the top-level nodes under it, are given) being node n: each node's
- * children (its out-edges in order; a repeated edge gives a repeated neighbour, which changes no
- * distance), then its parents, then its link to the added root. `inDegree` (edges into each node) is
- * used up as the place of each node's next parent.
+ * espalier adds (when `tops`, the top-level nodes under it, are given) being node n: the `down` runs
+ * are the out-edges sorted by parent (a repeated edge gives a repeated neighbour, which changes no
+ * distance), with the added root's run (its top-level nodes) after them; the `up` runs are made from
+ * them, placed by `inDegree` (edges into each node).
  */
 function neighbourTable(
   outStart: Int32Array,
@@ -256,32 +267,24 @@ function neighbourTable(
   nodeOf: Int32Array,
 ): GraphNeighbours {
   const n = outStart.length - 1;
-  const root = tops.length > 0 ? n : -1;
-  const nodes = root === -1 ? n : n + 1;
-  const start = new Int32Array(nodes + 1);
-  for (let u = 0; u < n; u++) start[u + 1] = outStart[u + 1] - outStart[u] + inDegree[u];
-  for (let k = 0; k < tops.length; k++) start[tops[k] + 1]++;
-  if (root !== -1) start[root + 1] = tops.length;
-  for (let u = 0; u < nodes; u++) start[u + 1] += start[u];
-  const adjacent = new Int32Array(start[nodes]);
-  const parentAt = inDegree;
-  for (let u = 0; u < n; u++) parentAt[u] = start[u] + outStart[u + 1] - outStart[u];
-  for (let u = 0; u < n; u++) {
-    let k = start[u];
-    for (let j = outStart[u], end = outStart[u + 1]; j < end; j++) {
-      const v = outTo[j];
-      adjacent[k++] = v;
-      adjacent[parentAt[v]++] = u;
-    }
+  const E = outStart[n];
+  let downStart = outStart;
+  let down = outTo.length === E ? outTo : outTo.subarray(0, E);
+  let nodes = n;
+  if (tops.length > 0) {
+    nodes = n + 1;
+    downStart = new Int32Array(n + 2);
+    downStart.set(outStart);
+    downStart[n + 1] = E + tops.length;
+    down = new Int32Array(E + tops.length);
+    down.set(outTo.subarray(0, E));
+    down.set(tops, E);
   }
-  if (root !== -1) {
-    let k = start[root];
-    for (let t = 0; t < tops.length; t++) {
-      adjacent[k++] = tops[t];
-      adjacent[parentAt[tops[t]]++] = root;
-    }
-  }
-  return { nodes, nodeOf, start, adjacent };
+  const upStart = new Int32Array(nodes + 1);
+  for (let v = 0; v < n; v++) upStart[v + 1] = inDegree[v];
+  for (let t = 0; t < tops.length; t++) upStart[tops[t] + 1]++;
+  for (let k = 0; k < nodes; k++) upStart[k + 1] += upStart[k];
+  return { nodes, nodeOf, downStart, down, ...upRuns(nodes, downStart, down, upStart) };
 }
 
 /**
@@ -313,6 +316,24 @@ function refuseRepeats(
       mark[v] = u + 1;
     }
   }
+}
+
+/**
+ * `length` numbers in the memory of `spare`, an array whose contents are read no more, when it is long
+ * enough and its memory is not `taken` (lent already, or still read: whatever arrays a loader gave, no
+ * memory is lent twice); its first `length` numbers as they are (the caller writes every one). Else a
+ * new array.
+ */
+function reused(spare: Int32Array, length: number, taken: Set<ArrayBufferLike>): Int32Array {
+  if (spare.length < length || taken.has(spare.buffer)) return new Int32Array(length);
+  taken.add(spare.buffer);
+  return spare.subarray(0, length);
+}
+
+/** {@link reused}, read as unsigned numbers (the same memory). */
+function reusedU32(spare: Int32Array, length: number, taken: Set<ArrayBufferLike>): Uint32Array {
+  const numbers = reused(spare, length, taken);
+  return new Uint32Array(numbers.buffer, numbers.byteOffset, length);
 }
 
 function poolOf(names: NamePool | readonly string[]): NamePool {

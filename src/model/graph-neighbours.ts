@@ -4,19 +4,24 @@ import type { Tree } from "./tree.js";
  * The graph a tree with references stands for, node by node, for searches over it (graph interest):
  * each node has a number (any numbering: a graph built from edges keeps its own, see
  * model/build-graph.ts; otherwise the pre-order of the full entries), and its neighbours (the edges
- * taken both ways: its parent, the nodes of its child slots, the parents of the references to it) are
- * one run of a flat array, in any order, possibly with repeats. A search then reads one run per node and one array the size of the nodes,
- * instead of walking child slots and references scattered over the tree's slots, which are several
- * times as many as the nodes in a graph with many shared nodes.
+ * taken both ways) are two runs of flat arrays: the nodes it is a parent of (`down`), then the nodes
+ * that are its parents (`up`), in any order, possibly with repeats. A search then reads two runs per
+ * node and one array the size of the nodes, instead of walking child slots and references scattered
+ * over the tree's slots, which are several times as many as the nodes in a graph with many shared
+ * nodes. Two runs rather than one merged: a graph built from edges has its `down` runs already (its
+ * edges sorted by parent), so only the `up` runs are made.
  */
 export interface GraphNeighbours {
   /** Nodes (full entries, the root espalier adds included). */
   readonly nodes: number;
   /** Node number of each slot: its own for a full entry, its entry's for a reference. */
   readonly nodeOf: Int32Array;
-  /** The neighbours of node k are `adjacent[start[k] .. start[k + 1])`, by node number. */
-  readonly start: Int32Array;
-  readonly adjacent: Int32Array;
+  /** The nodes node k is a parent of: `down[downStart[k] .. downStart[k + 1])`, by node number. */
+  readonly downStart: Int32Array;
+  readonly down: Int32Array;
+  /** The parents of node k: `up[upStart[k] .. upStart[k + 1])`, by node number. */
+  readonly upStart: Int32Array;
+  readonly up: Int32Array;
 }
 
 /** Tables made with the tree they belong to (model/build-graph.ts), by tree. */
@@ -37,6 +42,30 @@ export function graphNeighbours(tree: Tree): GraphNeighbours {
   return neighboursFromSlots(tree);
 }
 
+/**
+ * The `up` runs of the graph whose `down` runs are given: node v's parents are the nodes u whose run
+ * holds v, in increasing order of u (a repeated edge repeats its parent). `upStart`, when given, holds
+ * the places already (how many runs hold each node, summed): it is counted otherwise.
+ */
+export function upRuns(
+  nodes: number,
+  downStart: Int32Array,
+  down: Int32Array,
+  upStart?: Int32Array,
+): { upStart: Int32Array; up: Int32Array } {
+  const edges = downStart[nodes];
+  if (upStart === undefined) {
+    upStart = new Int32Array(nodes + 1);
+    for (let j = 0; j < edges; j++) upStart[down[j] + 1]++;
+    for (let k = 0; k < nodes; k++) upStart[k + 1] += upStart[k];
+  }
+  const up = new Int32Array(edges);
+  const fill = upStart.slice(0, nodes);
+  for (let u = 0; u < nodes; u++)
+    for (let j = downStart[u], end = downStart[u + 1]; j < end; j++) up[fill[down[j]]++] = u;
+  return { upStart, up };
+}
+
 /** The table made from the tree's slots: nodes numbered in pre-order of their full entries. */
 export function neighboursFromSlots(tree: Tree): GraphNeighbours {
   const n = tree.length;
@@ -47,23 +76,17 @@ export function neighboursFromSlots(tree: Tree): GraphNeighbours {
   for (let s = 0; s < n; s++) if (to === undefined || to[s] === -1) nodeOf[s] = nodes++;
   if (to !== undefined) for (let s = 0; s < n; s++) if (to[s] !== -1) nodeOf[s] = nodeOf[to[s]];
   // Every slot but the root is one edge: from its parent's node to its own node. Counted, then placed.
-  const start = new Int32Array(nodes + 1);
+  const downStart = new Int32Array(nodes + 1);
   for (let s = 0; s < n; s++) {
     const p = parent[s];
-    if (p < 0) continue;
-    start[nodeOf[p] + 1]++;
-    start[nodeOf[s] + 1]++;
+    if (p >= 0) downStart[nodeOf[p] + 1]++;
   }
-  for (let k = 0; k < nodes; k++) start[k + 1] += start[k];
-  const adjacent = new Int32Array(start[nodes]);
-  const fill = start.slice(0, nodes);
+  for (let k = 0; k < nodes; k++) downStart[k + 1] += downStart[k];
+  const down = new Int32Array(downStart[nodes]);
+  const fill = downStart.slice(0, nodes);
   for (let s = 0; s < n; s++) {
     const p = parent[s];
-    if (p < 0) continue;
-    const a = nodeOf[p];
-    const b = nodeOf[s];
-    adjacent[fill[a]++] = b;
-    adjacent[fill[b]++] = a;
+    if (p >= 0) down[fill[nodeOf[p]]++] = nodeOf[s];
   }
-  return { nodes, nodeOf, start, adjacent };
+  return { nodes, nodeOf, downStart, down, ...upRuns(nodes, downStart, down) };
 }

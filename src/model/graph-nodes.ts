@@ -5,7 +5,8 @@ import type { TreeReading } from "./tree.js";
 /**
  * A graph as a loader found it: nodes (records) and edges parent -> child in input order. A node may be
  * the child of several parents, and edges may form cycles; {@link buildGraphTree} turns it into a
- * spanning tree with one-line references.
+ * spanning tree with one-line references. It takes the edge arrays over: once they are read, it makes
+ * some of the tree's arrays in their memory, so one GraphNodes builds one tree.
  */
 export interface GraphNodes {
   /** Names, one per node (the id where the input gives no name). */

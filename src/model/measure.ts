@@ -28,20 +28,31 @@ export function measure(tree: Tree): Measures {
   const n = tree.length;
   const { parent, ownSize } = tree;
   const count = new Int32Array(n).fill(1);
-  const size = new Float64Array(ownSize);
+  // Without a size anywhere every subtree's is 0: the array is left as it was made.
+  const sizes = !zeroSizes.has(tree);
+  const size = sizes ? new Float64Array(ownSize) : new Float64Array(n);
   const children = new Int32Array(n);
+  const ref = tree.referenceTo;
+  // Nodes per subtree where they differ from the slots: each slot that is a node's full entry counts 1
+  // (a graph's reference 0), and a node's elided descendants count too (see subtreeNodes).
+  const nodes = ref !== undefined && tree.elided === undefined ? new Int32Array(n) : null;
   for (let i = n - 1; i > 0; i--) {
     const p = parent[i];
+    if (nodes !== null) {
+      if (ref![i] === -1) nodes[i]++;
+      if (p >= 0) nodes[p] += nodes[i];
+    }
     if (p < 0) continue;
     count[p] += count[i];
     children[p]++;
-    size[p] += size[i];
+    if (sizes) size[p] += size[i];
   }
+  if (nodes !== null && n > 0 && ref![0] === -1) nodes[0]++;
   let leaves: Int32Array | undefined;
   let height: Int32Array | undefined;
   return {
     count,
-    nodes: subtreeNodes(tree, count),
+    nodes: nodes ?? subtreeNodes(tree, count),
     size,
     get leaves() {
       leaves ??= leavesOf(parent, count);
@@ -53,6 +64,18 @@ export function measure(tree: Tree): Measures {
     },
     children,
   };
+}
+
+/** Trees whose own sizes are all 0, as their builder knows (see {@link rememberZeroSizes}). */
+const zeroSizes = new WeakSet<Tree>();
+
+/**
+ * Notes that every own size of `tree` is 0 (a graph whose input has no sizes: model/build-graph.ts),
+ * so {@link measure} neither copies them nor adds them up: on a graph of millions of slots, that is
+ * two arrays' worth of memory touched for nothing.
+ */
+export function rememberZeroSizes(tree: Tree): void {
+  zeroSizes.add(tree);
 }
 
 /** Leaves in every subtree (a reverse pass, as above). */

@@ -279,9 +279,10 @@ export class NamePool implements Names {
 
   /**
    * A new pool sharing these bytes whose node k has the name of node `from[k]` here, or `extra` where
-   * `from[k]` is -1 (a root espalier adds).
+   * `from[k]` is -1 (a root espalier adds). `places`, when given: two arrays of `from.length` numbers,
+   * whatever they hold, that the new pool takes for its names' places (start and byte length).
    */
-  reordered(from: Int32Array, extra: string): NamePool {
+  reordered(from: Int32Array, extra: string, places?: { start: Uint32Array; size: Uint32Array }): NamePool {
     // The extra name goes into this pool first; after that both pools read the same bytes.
     const extraAt = this.used;
     const extraSize = extra === "" ? 0 : Buffer.byteLength(extra, "utf8");
@@ -290,6 +291,12 @@ export class NamePool implements Names {
       this.commit(at + codecs.utf8Write(this.bytes, extra, at, extraSize));
     }
     const out = this.sharedPool(from.length);
+    if (places !== undefined) {
+      if (places.start.length !== from.length || places.size.length !== from.length)
+        throw new Error(`reordered: places for ${places.start.length} names, not ${from.length}`);
+      out.start = places.start;
+      out.size = places.size;
+    }
     for (let k = 0; k < from.length; k++) {
       const o = from[k];
       out.start[k] = o === -1 ? extraAt : this.start[o];

@@ -62,7 +62,7 @@ export function buildView(input: ViewInput): HierarchyNode<ViewNode> {
       focus: isFocus.has(i),
       // On a graph, the paths to a focus's other parents lead to it too.
       onPath:
-        foci.length > 0 && (scores.isForced(i) || (scores.rank !== undefined && scores.rank[i] !== FAR)),
+        foci.length > 0 && (scores.isForced(i) || (scores.rankOf !== undefined && scores.rankOf(i) !== FAR)),
       anchor: scores.distanceOf(i) === 0,
       depth: tree.depth[i],
       children: [],
