@@ -8,6 +8,7 @@ import { NodeSink } from "../node-sink.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer, viewOf } from "../path-placer.js";
 import { limitsOf, tooLong } from "../read-limits.js";
+import { sizeTextHint } from "../size-text-hint.js";
 import { type FolderSizes, folderTotals } from "./folder-totals.js";
 
 const newline = 10;
@@ -253,7 +254,7 @@ export class PathListReader {
         if (!(size >= 0)) {
           throw new EspalierError(
             "BAD_SIZE",
-            say`the size on line ${line} must be a number from 0 to 2^53 - 1, got ${quoted.value(text)}`,
+            say`the size on line ${line} must be a number from 0 to 2^53 - 1, got ${quoted.value(text)}${sizeTextHint(text)}`,
             { line, column: 1 },
           );
         }

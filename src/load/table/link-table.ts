@@ -8,6 +8,7 @@ import { missingField, nameFieldNamed, sizeFieldNamed } from "../missing-field.j
 import { limitExceeded, NodeSink } from "../node-sink.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer } from "../path-placer.js";
+import { sizeTextHint } from "../size-text-hint.js";
 import { fieldSizeUnit } from "../size-unit.js";
 import { IdIndex } from "./id-index.js";
 import { idIsNullParent, missingParent, nullParentSet } from "./null-parent.js";
@@ -231,7 +232,7 @@ export function sizeOf(cell: Cell, textCells: boolean, row: number, field: strin
   if (isSize(value)) return value;
   throw new EspalierError(
     "BAD_SIZE",
-    say`the "${field}" of row ${row} must be a number from 0 to 2^53 - 1, got ${quoted.value(typeof cell === "string" ? cell : JSON.stringify(cell))}`,
+    say`the "${field}" of row ${row} must be a number from 0 to 2^53 - 1, got ${quoted.value(typeof cell === "string" ? cell : JSON.stringify(cell))}${typeof cell === "string" ? sizeTextHint(cell) : ""}`,
     { row, field },
   );
 }
