@@ -44,7 +44,9 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
   const say = (o: NumberOptions) => {
     const numbers = amount(last.nodes, last.size, o);
     const share = shareOf(group, last, o);
-    return share ? (numbers ? `${numbers}, ${share}` : share) : numbers;
+    const said = share ? (numbers ? `${numbers}, ${share}` : share) : numbers;
+    // An entry that is an empty object in the input says so: it counts as a node like any other.
+    return last.empty ? (said ? `${said}, ${EMPTY_WORDS}` : EMPTY_WORDS) : said;
   };
   const fold = (o: NumberOptions) =>
     joined(last.hidden ? `(${foldWords(last)}, ${foldAmount(group, last, o)})` : "", parents);
@@ -65,6 +67,9 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
     foldTiny: last.hidden ? `(${formatCount(last.hidden.children)} hidden)` : "",
   };
 }
+
+/** What marks an empty entry (an input object with no field, `{}`) on its line and in a fold. */
+export const EMPTY_WORDS = "empty {}";
 
 /** Two parts of a line's end, two spaces apart, either may be empty. */
 function joined(a: string, b: string): string {
@@ -90,8 +95,11 @@ export function foldWords(node: ViewNode): string {
 
 /** The numbers of what is folded under `node`: always with its count, and its share when asked. */
 export function foldAmount<T extends ViewNode>(group: LineGroup<T>, node: T, options: NumberOptions): string {
-  const { nodes, size, references } = node.hidden!;
-  const text = amount(nodes, size, { ...options, always: true }) + referencesText(references);
+  const { nodes, size, references, empty } = node.hidden!;
+  const text =
+    amount(nodes, size, { ...options, always: true }) +
+    referencesText(references) +
+    (empty ? `, ${formatCount(empty)} ${EMPTY_WORDS}` : "");
   if (!options.share) return text;
   const whole = options.share === "total" ? group.root : node;
   const value = options.sizes ? size : nodes;
