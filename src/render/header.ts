@@ -96,6 +96,11 @@ export function diffHeader(
   let head = w(
     `diff by ${by}: ${kinds}; ${formatCount(totals.old.nodes)} -> ${formatCount(totals.new.nodes)} nodes`,
   );
+  // Entries that are empty objects (`{}`) count as nodes: how many of each version's are such.
+  if (totals.old.empty || totals.new.empty)
+    head += w(
+      ` (${formatCount(totals.old.empty ?? 0)} -> ${formatCount(totals.new.empty ?? 0)} of them empty {})`,
+    );
   if (options.sizes) {
     const { units } = options;
     const net = totals.delta < 0 ? formatSize(totals.delta, units) : `+${formatSize(totals.delta, units)}`;

@@ -118,3 +118,29 @@ describe("entries that are empty objects ({}), as a listing writes a dependency 
     expect(text.stdout.split("\n")[0]).toMatch(/^summary: 7 nodes; /);
   });
 });
+
+describe("espalier diff of two listings with empty entries", () => {
+  it("says how many of each version's nodes are empty, and marks removed ones on their lines", async () => {
+    const after = JSON.parse(listing);
+    delete after.dependencies["@tidewater/ledger"].dependencies["@tidewater/ledger-win32-x64"];
+    after.dependencies["@tidewater/ledger"].dependencies["@tidewater/ledger-darwin-arm64"] = {
+      version: "1.3.0",
+    };
+    const result = await cli(["diff", "a.json", "b.json", "--budget", "10"], {
+      files: { "a.json": listing, "b.json": JSON.stringify(after) },
+    });
+    expect(result.stderr).toBe("");
+    // Old: 7 nodes, 2 of them {}; new: 6 nodes, none ({} of darwin-arm64 now has a version).
+    expect(result.stdout.split("\n")[0]).toMatch(/; 7 -> 6 nodes \(2 -> 0 of them empty \{\}\);/);
+    expect(result.stdout).toContain("[removed] @tidewater/ledger-win32-x64  empty {}\n");
+    const json = JSON.parse(
+      (
+        await cli(["diff", "a.json", "b.json", "--format", "json"], {
+          files: { "a.json": listing, "b.json": JSON.stringify(after) },
+        })
+      ).stdout,
+    );
+    expect(json.totals.old).toMatchObject({ nodes: 7, empty: 2 });
+    expect(json.totals.new.empty).toBeUndefined();
+  });
+});
