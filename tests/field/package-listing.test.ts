@@ -41,6 +41,11 @@ describe("a glob focus with a scoped name typed unescaped", () => {
     expect(JSON.parse(result.stdout).foci).toEqual(["@tidewater~1ledger/@tidewater~1ledger-linux-x64"]);
   });
 
+  it("joins a scope with the pattern after it: @tidewater/* below a package is @tidewater~1*", async () => {
+    const result = await cli(["-", "--focus", "@tidewater~1ledger/@tidewater/*linux*"], { stdin: listing });
+    expect(result.stderr).toContain('did you mean "@tidewater~1ledger/@tidewater~1*linux*"?');
+  });
+
   it("offers no joined glob when no join matches (a glob of unrelated names stays without it)", async () => {
     const result = await cli(["-", "--focus", "harbor/quay/*"], { stdin: listing });
     expect(result.code).toBe(2);
