@@ -110,8 +110,16 @@ describe("a du -a listing (1 KiB blocks, not bytes)", () => {
     expect(result.code).toBe(2);
     expect(result.stdout).toBe("");
     expect(result.stderr).toMatch(
-      /^espalier: <stdin>:1:1: every size is a multiple of 4 .*du -a .*du -ab.*\[PARSE_PATHS\]\n$/,
+      /^espalier: <stdin>:1:1: every size is a multiple of 4 .*du without -b .*du -ab.*\[PARSE_PATHS\]\n$/,
     );
+  });
+
+  it("is PARSE_PATHS for du without -a too (folders only, each a total in blocks)", async () => {
+    const folders = Array.from({ length: 16 }, (_, k) => `8\t/srv/tidewater/ledger/shelf-${k}`);
+    const listing = [...folders, "132\t/srv/tidewater/ledger", "136\t/srv/tidewater", ""].join("\n");
+    const result = await cli(["-"], { stdin: listing });
+    expect(result.code).toBe(2);
+    expect(result.stderr).toMatch(/du without -b .*\[PARSE_PATHS\]/);
   });
 
   it("reads the numbers as they are with --folder-sizes total --units plain", async () => {

@@ -107,7 +107,7 @@ function inBlocks(nodes: PlacedSizes): boolean {
 function blockCounts(): EspalierError {
   return new EspalierError(
     "PARSE_PATHS",
-    "every size is a multiple of 4 and each folder's line totals its contents, as du -a prints disk usage in 1 KiB blocks: read as bytes, each size would be 1,024 times too small. List bytes with du -ab, or pass --folder-sizes total (and --units plain) to read the numbers as they are",
+    "every size is a multiple of 4 and each folder's line totals its contents, as du without -b prints disk usage in 1 KiB blocks: read as bytes, each size would be 1,024 times too small. List bytes with du -ab, or pass --folder-sizes total (and --units plain) to read the numbers as they are",
     { line: 1, column: 1 },
   );
 }
