@@ -115,10 +115,12 @@ function shareOf<T extends ViewNode>(group: LineGroup<T>, node: T, options: Numb
 }
 
 /**
- * A one-name line's `distinctAt`: one past the longest common prefix of its label with a shown
- * sibling's (siblings sorted by label, so only the neighbours compare), where a cut must not reach.
+ * A one-name line's `distinct`: where its label first differs from each shown sibling's label (the
+ * length of their common start). Siblings sorted by label, that length only falls walking away from
+ * the label's place, so the walk stops at 0 (the first character tells the rest apart) or after
+ * {@link NEAREST} labels each way.
  */
-function distinctPart<T extends ViewNode>({ nodes, above }: LineGroup<T>): { distinctAt?: number } {
+function distinctPart<T extends ViewNode>({ nodes, above }: LineGroup<T>): { distinct?: number[] } {
   if (nodes.length !== 1 || above === null || above.children.length < 2) return {};
   const self = shownLabel(nodes[0].label);
   let sorted = siblingLabels.get(above);
@@ -134,13 +136,21 @@ function distinctPart<T extends ViewNode>({ nodes, above }: LineGroup<T>): { dis
     if (sorted[mid] < self) lo = mid + 1;
     else hi = mid;
   }
-  let common = -1;
-  for (const k of [lo - 1, lo + 1])
-    if (k >= 0 && k < sorted.length) common = Math.max(common, prefix(self, sorted[k]));
   // An equal label (a sibling of the same name) cannot be told apart by any cut.
   if (lo + 1 < sorted.length && sorted[lo + 1] === self) return {};
-  return common < 0 ? {} : { distinctAt: common };
+  const places = new Set<number>();
+  for (const step of [-1, 1]) {
+    for (let k = lo + step, n = 0; k >= 0 && k < sorted.length && n < NEAREST; k += step, n++) {
+      const common = prefix(self, sorted[k]);
+      places.add(common);
+      if (common === 0) break;
+    }
+  }
+  return places.size === 0 ? {} : { distinct: [...places] };
 }
+
+/** Sorted sibling labels compared on each side of a label for `distinctPart`. */
+const NEAREST = 64;
 
 /** Shown siblings' labels, sorted, per parent: computed once per parent for all its lines. */
 const siblingLabels = new WeakMap<ViewNode, string[]>();
