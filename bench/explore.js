@@ -20,7 +20,7 @@ const { startState, update } = await dist("explore/update.js");
 const { draw } = await dist("explore/screen.js");
 const { frame } = await dist("explore/terminal.js");
 const { resolveFoci } = await dist("focus/resolve.js");
-const { warmImportances } = await dist("explore/warm.js");
+const { warmFits } = await dist("explore/warm.js");
 
 const args = process.argv.slice(2);
 const arg = (name, fallback) => {
@@ -107,9 +107,10 @@ const script = [
 const foci = resolveFoci(prepared.index, manifest.foci.slice(0, 1));
 let state = startState(session, { rows, cols, foci, importance: "depth", fociFile: "foci.txt" });
 frame(draw(session, state, false).rows); // the first screen is drawn before any key
-// The edge's first quiet moment (before any key): the other importance is computed once.
+// The edge's first quiet moment (before any key): warm.ts fits the other importance and the view one
+// Down away.
 const w0 = performance.now();
-warmImportances(session, state);
+warmFits(session, state);
 log(`warm-up between the first screen and the first key: ${ms(performance.now() - w0)}`);
 const times = [];
 const cpu = [];

@@ -17,7 +17,7 @@ import {
   startState,
   update,
 } from "../explore/update.js";
-import { warmImportances } from "../explore/warm.js";
+import { warmFits } from "../explore/warm.js";
 import { resolveSpecs } from "../focus/resolve-specs.js";
 import type { Tree } from "../model/tree.js";
 import { palette } from "../render/palette.js";
@@ -274,9 +274,9 @@ export function runView(
       onCrash(err);
       return;
     }
-    // Between keys: the other importance is computed once (warm.ts), pseudonyms are hashed in slices (so
-    // a search can cover every name), and a search's matches are counted in slices; a key always comes
-    // before the next slice.
+    // Between keys: the views the first keys likely ask for are fitted once (warm.ts), pseudonyms are
+    // hashed in slices (so a search can cover every name), and a search's matches are counted in
+    // slices; a key always comes before the next slice.
     let queued = false;
     let warm = false;
     const quiet = () => {
@@ -285,7 +285,7 @@ export function runView(
       if (!warm) {
         warm = true;
         try {
-          warmImportances(session, state);
+          warmFits(session, state);
         } catch (err) {
           onCrash(err);
           return;

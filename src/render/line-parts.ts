@@ -98,7 +98,7 @@ export function foldAmount<T extends ViewNode>(group: LineGroup<T>, node: T, opt
   const { nodes, size, references, empty } = node.hidden!;
   const text =
     amount(nodes, size, { ...options, always: true }) +
-    referencesText(references) +
+    referencesText(references, options.compact) +
     (empty ? `, ${formatCount(empty)} ${EMPTY_WORDS}` : "");
   if (!options.share) return text;
   const whole = options.share === "total" ? group.root : node;

@@ -4,7 +4,7 @@ import { prepareDiff } from "../../src/diff/diff-trees.js";
 import { draw } from "../../src/explore/screen.js";
 import { diffSession, type Session, summarySession } from "../../src/explore/session.js";
 import { type ExploreEvent, startState, update } from "../../src/explore/update.js";
-import { warmImportances } from "../../src/explore/warm.js";
+import { warmFits } from "../../src/explore/warm.js";
 import { prepare } from "../../src/summarize.js";
 import { arbEdited } from "../diff/edit-script.js";
 import { arbTree } from "../helpers/random-tree.js";
@@ -22,7 +22,7 @@ const moves: ExploreEvent[] = [
 function screens(make: () => Session, rows: number, cols: number, warm: boolean): string[] {
   const s = make();
   let state = startState(s, { rows, cols, foci: new Int32Array(0), importance: "depth", fociFile: "f" });
-  if (warm) warmImportances(s, state);
+  if (warm) warmFits(s, state);
   const out = [draw(s, state, false).rows.join("\n")];
   for (const e of moves) {
     state = update(s, state, e);
@@ -31,7 +31,7 @@ function screens(make: () => Session, rows: number, cols: number, warm: boolean)
   return out;
 }
 
-describe("warmImportances(session, state)", () => {
+describe("warmFits(session, state)", () => {
   it("changes no screen: the same keys give the same screens, warmed or not (summaries)", () => {
     fc.assert(
       fc.property(
