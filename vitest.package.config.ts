@@ -6,6 +6,7 @@ export default defineConfig({
   test: {
     include: ["tests/package/**/*.test.ts"],
     setupFiles: ["tests/helpers/setup.ts"],
+    globalSetup: ["tests/helpers/temp-root.ts"],
     testTimeout: 180_000,
     hookTimeout: 60_000,
   },

@@ -100,6 +100,13 @@ async function benchInventory(o) {
         `SELECT count(*) FROM (SELECT key, count(*), sum(size) FROM read_parquet('${file}') GROUP BY key)`,
       )
     : { ms: Number.NaN, cpuMs: Number.NaN };
+  // Whether the file is in key order, from each row group's smallest and largest key (the file's
+  // metadata): a row group that starts below the largest key of the one before breaks the order.
+  const order = await engineTime(
+    "SELECT count(*) FILTER (WHERE previous_max > stats_min), count(*) FROM (SELECT stats_min, " +
+      "lag(stats_max) OVER (ORDER BY row_group_id) AS previous_max " +
+      `FROM parquet_metadata('${file}') WHERE path_in_schema = 'key')`,
+  );
   const foci = ["b1/f3/s43", "b6/f11"];
   const args = [file, "--key-field", "key", "--budget", String(o.budget), "--color", "never"];
   for (const f of foci) args.push("--focus", f);
@@ -109,6 +116,8 @@ async function benchInventory(o) {
     bytes: statSync(file).size,
     rows: o.inventoryRows,
     foci,
+    rowGroupsBelowThePrevious: Number(order.values[0]),
+    rowGroups: Number(order.values[1]),
     engineBareMs: bare.ms,
     engineKeyScanMs: keyScan.ms,
     engineGroupByKeyMs: grouped.ms,
@@ -131,7 +140,8 @@ async function benchInventory(o) {
       `scan of the keys, ${keyScan.ms} ms; ${out.groupRatio}x its GROUP BY key alone, ${grouped.ms} ms); ` +
       `CPU ${run.cpuMs} ms against ${bare.cpuMs} ms bare (${out.cpuRatio}x), ${keyScan.cpuMs} ms key scan ` +
       `(${out.cpuKeyScanRatio}x) and ${grouped.cpuMs} ms grouped (${out.cpuGroupRatio}x), peak ${run.maxRssMiB} MiB ` +
-      `(target < ${TARGETS.inventoryPeakMiB})${run.error ? `; ERROR ${run.error}` : ""}`,
+      `(target < ${TARGETS.inventoryPeakMiB}); ${out.rowGroupsBelowThePrevious} of ${out.rowGroups} row groups ` +
+      `start below the previous one's largest key${run.error ? `; ERROR ${run.error}` : ""}`,
   );
   return out;
 }

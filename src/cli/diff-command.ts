@@ -26,7 +26,7 @@ export async function diffCommand(
     label: opts.label,
     pseudonymKey: key,
     chains: opts.chains,
-    headerLines: headerLinesFor(opts, "diff"),
+    headerLines: headerLinesFor(opts, "diff", io),
     siblingOrder: opts.siblingOrder,
     compareFields: opts.compareField.length > 0 ? opts.compareField : defaultComparedFields(oldTree, newTree),
     unmatchedFoci: opts.unmatchedFoci,

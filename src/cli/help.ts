@@ -1,5 +1,6 @@
 import { displayWidth } from "../render/display-width.js";
 import { legendLines } from "../render/marks.js";
+import { wrapWords as wrap } from "../render/wrap-words.js";
 import type { CommandSpec } from "./commands.js";
 import type { OptionFlags } from "./option-flags.js";
 import { type CommandName, commandNames, commandOptions, type OptionGroup, optionGroups } from "./options.js";
@@ -116,15 +117,3 @@ function entry(name: string, text: string, at: number): string[] {
 }
 
 /** The words of `text` in lines of at most `width` columns (a longer word stands alone). */
-function wrap(text: string, width: number): string[] {
-  const lines: string[] = [];
-  let line = "";
-  for (const word of text.split(" ")) {
-    if (line !== "" && displayWidth(line) + 1 + displayWidth(word) > width) {
-      lines.push(line);
-      line = word;
-    } else line = line === "" ? word : `${line} ${word}`;
-  }
-  lines.push(line);
-  return lines;
-}

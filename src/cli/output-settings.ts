@@ -2,7 +2,7 @@ import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
 import type { HeaderReading } from "../render/header.js";
 import { MIN_WIDTH } from "../render/line-layout.js";
-import { LEGEND_LINES } from "../render/marks.js";
+import { legendLines } from "../render/marks.js";
 import { type Palette, palette } from "../render/palette.js";
 import type { CliIO } from "./io.js";
 import { DEFAULT_BUDGET, type SharedCliOptions } from "./options.js";
@@ -70,9 +70,14 @@ export function chosenReading(opts: SharedCliOptions, tree: Tree): HeaderReading
   return undefined;
 }
 
-/** Lines before the tree, which the budget counts: the header unless --bare, the legend with --legend. */
-export function headerLinesFor(opts: SharedCliOptions, kind: "summary" | "diff"): number {
-  return (opts.bare ? 0 : 1) + (opts.legend ? LEGEND_LINES[kind] : 0);
+/**
+ * Lines before the tree, which the budget counts: the header unless --bare, the legend with --legend
+ * (wrapped to the width of the run, as text prints it; every format counts the same lines, so every
+ * format shows the same nodes).
+ */
+export function headerLinesFor(opts: SharedCliOptions, kind: "summary" | "diff", io: CliIO): number {
+  const legend = opts.legend ? legendLines(kind, opts.width ?? defaultWidth(io)).length : 0;
+  return (opts.bare ? 0 : 1) + legend;
 }
 
 /**

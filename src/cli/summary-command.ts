@@ -19,7 +19,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     pseudonymKey: pseudonymKey(opts, io),
     chains: opts.chains,
     unmatchedFoci: opts.unmatchedFoci,
-    headerLines: headerLinesFor(opts, "summary"),
+    headerLines: headerLinesFor(opts, "summary", io),
     siblingOrder: opts.siblingOrder,
   };
   const { tree, result } = await summarizeInput(io, input, opts, options);

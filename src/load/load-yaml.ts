@@ -76,7 +76,7 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
 
   // With `options.graph` the document is an adjacency map; aliases expand in its plain value, up to
   // the yaml package's alias count limit.
-  if (options.graph) return adjacencyNodes(doc.toJS(), options);
+  if (options.graph) return adjacencyNodes(plainValue(doc, lineCounter), options);
 
   // An alias stands for the last node with its anchor before it, in document order.
   const target = new Map<Alias, Node>();
@@ -324,4 +324,44 @@ const CORE_FLOAT = /^[-+]?(?:\.[0-9]+|[0-9]+(?:\.[0-9]*)?)(?:[eE][-+]?[0-9]+)?$/
  */
 function isTaggedFloat(v: Scalar): boolean {
   return typeof v.value === "string" && v.tag === "tag:yaml.org,2002:float" && CORE_FLOAT.test(v.value);
+}
+
+/**
+ * The document as plain values (an adjacency map's ids). An alias must name an anchor set before it
+ * (YAML 1.2.2 §7.1: an alias node refers to the most recent preceding node with that anchor): one that
+ * does not is PARSE_YAML at the alias. Aliases that expand past the yaml package's alias count limit
+ * (an alias bomb) are LIMIT_EXCEEDED.
+ */
+function plainValue(doc: ReturnType<typeof parseDocument>, lineCounter: LineCounter): unknown {
+  const anchors = new Set<string>();
+  let unresolved: Alias | undefined;
+  visit(doc, {
+    Node(_, node) {
+      if (isAlias(node)) {
+        if (anchors.has(node.source)) return undefined;
+        unresolved = node;
+        return visit.BREAK;
+      }
+      if (node.anchor) anchors.add(node.anchor);
+      return undefined;
+    },
+  });
+  if (unresolved) {
+    const at = lineCounter.linePos(unresolved.range?.[0] ?? 0);
+    throw new EspalierError(
+      "PARSE_YAML",
+      say`the alias ${quoted.excerpt(`*${unresolved.source}`)} names no anchor set before it`,
+      { line: at.line, column: at.col },
+    );
+  }
+  try {
+    return doc.toJS();
+  } catch (error) {
+    if (error instanceof ReferenceError && /alias count/i.test(error.message))
+      throw new EspalierError(
+        "LIMIT_EXCEEDED",
+        "the YAML's aliases expand into too many values to read as a graph (an alias of an alias of …); write the lists out, or read the document without --graph",
+      );
+    throw error;
+  }
 }

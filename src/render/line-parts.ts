@@ -91,7 +91,8 @@ export function foldWords(node: ViewNode): string {
 /** The numbers of what is folded under `node`: always with its count, and its share when asked. */
 export function foldAmount<T extends ViewNode>(group: LineGroup<T>, node: T, options: NumberOptions): string {
   const { nodes, size, references } = node.hidden!;
-  const text = amount(nodes, size, { ...options, always: true }) + referencesText(references);
+  const text =
+    amount(nodes, size, { ...options, always: true }) + referencesText(references, options.compact);
   if (!options.share) return text;
   const whole = options.share === "total" ? group.root : node;
   const value = options.sizes ? size : nodes;

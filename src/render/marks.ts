@@ -1,3 +1,5 @@
+import { wrapWords } from "./wrap-words.js";
+
 /**
  * Line marks, the same in summaries and diffs; each carries its meaning without colour. None of them
  * is a sign a line diff uses (`+`, `-`, `<`, `>`), so a saved summary read through a line diff, or a
@@ -14,20 +16,30 @@ export const MARK = {
   reference: "&",
 } as const;
 
-/** How many lines {@link legendLines} gives for a summary and for a diff. */
+/** How many lines {@link legendLines} gives for a summary and for a diff, unwrapped. */
 export const LEGEND_LINES = { summary: 2, diff: 3 } as const;
+
+/** How a legend line that is wider than the width goes on: on lines of its own, indented so. */
+const LEGEND_INDENT = "  ";
 
 /**
  * What the marks, numbers and folds mean, a few lines a reader can have without the docs: printed
- * under the header with `--legend` (the budget counts them) and in `--help`.
+ * under the header with `--legend` (the budget counts them) and in `--help`. Given a width, each is
+ * wrapped at spaces to it (its further lines indented two columns), never cut: a legend cut short
+ * explains nothing.
  */
-export function legendLines(kind: "summary" | "diff"): string[] {
+export function legendLines(kind: "summary" | "diff", width?: number): string[] {
+  const lines = legendTexts(kind);
+  return width === undefined ? lines : lines.flatMap((line) => wrapWords(line, width, LEGEND_INDENT));
+}
+
+function legendTexts(kind: "summary" | "diff"): string[] {
   const path = kind === "diff" ? "a change or on the way to a focus or change" : "on the way to a focus";
   const lines = [
     `marks: ${MARK.focus} focus, ${MARK.path} ${path}, ${MARK.other} other, ${MARK.reference} a reference (a node with several parents: its full entry is at the path shown; counts no node); a / b: b is a's only child, the line's numbers and fold are b's`,
     kind === "diff"
-      ? "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1, and the / of /usr), removed nodes included; no count: 1 node; sizes are NEW's"
-      : "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1, and the / of /usr); no count: 1 node",
+      ? "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1, and the / of /usr), removed nodes included; no count: 1 node; sizes are NEW's; a line too narrow for its fold says (k hidden, c changed): k children hidden, c changed nodes among them"
+      : "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1, and the / of /usr); no count: 1 node; a line too narrow for its fold says (k hidden): k children hidden",
   ];
   if (kind === "diff")
     lines.push(

@@ -2,7 +2,6 @@ import type { HierarchyNode } from "d3-hierarchy";
 import { EspalierError } from "../errors.js";
 import type { ViewNode } from "../view/view-node.js";
 import type { NumberOptions } from "./amount.js";
-import { shortenEnd } from "./display-width.js";
 import { type HeaderOptions, summaryHeader } from "./header.js";
 import { lineGroups } from "./line-groups.js";
 import { layoutLine, MIN_WIDTH } from "./line-layout.js";
@@ -37,7 +36,7 @@ export function renderText(view: HierarchyNode<ViewNode>, options: TextOptions):
   return `${lines.join("\n")}\n`;
 }
 
-/** The header and legend lines a text rendering starts with, cut to the width. */
+/** The header line a text rendering starts with, cut to the width, then the legend wrapped to it. */
 export function headLines(
   options: { header?: HeaderOptions; legend?: boolean; width?: number; palette?: Palette },
   header: (width?: number) => string,
@@ -45,9 +44,7 @@ export function headLines(
 ): string[] {
   const quiet = options.palette?.quiet ?? ((s: string) => s);
   const lines = options.header ? [quiet(header(options.width))] : [];
-  if (options.legend)
-    for (const line of legendLines(kind))
-      lines.push(quiet(options.width === undefined ? line : shortenEnd(line, options.width)));
+  if (options.legend) for (const line of legendLines(kind, options.width)) lines.push(quiet(line));
   return lines;
 }
 

@@ -211,6 +211,22 @@ describe("espalier <input> --legend, --help and --width", () => {
     for (const line of legendLines("diff")) expect(words(diff.stdout)).toContain(words(line));
   });
 
+  it("wraps the legend to --width, whole, and the budget counts its wrapped lines", async () => {
+    const files = Array.from({ length: 40 }, (_, k) => `${k + 1}\tdir${k % 7}/sub${k % 3}/f${k}.txt`).join(
+      "\n",
+    );
+    for (const width of [48, 80, 120]) {
+      const r = await cli(["-", "--legend", "--budget", "20", "--width", String(width)], { stdin: files });
+      expect(r.code).toBe(0);
+      const lines = r.stdout.trimEnd().split("\n");
+      expect(lines.length).toBe(20);
+      const legend = legendLines("summary", width);
+      expect(lines.slice(1, 1 + legend.length)).toEqual(legend);
+      expect(legend.length).toBeGreaterThan(LEGEND_LINES.summary);
+      for (const line of lines) expect(line.length).toBeLessThanOrEqual(width);
+    }
+  });
+
   it("draws the SVG --width columns wide, SVG_PX_PER_COLUMN pixels each", async () => {
     for (const width of [40, 150]) {
       const r = await cli(["-", "--format", "svg", "--width", String(width)], { stdin });

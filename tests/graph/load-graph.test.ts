@@ -176,6 +176,53 @@ describe("loadTree(json adjacency map)", () => {
     expect(slots(tree)).toEqual(["hq", "  lab", "    rig", "  ops", "    &rig"]);
   });
 
+  it("reads a YAML map's aliased id lists as the lists they stand for", () => {
+    // YAML 1.2.2 §7.1: an alias node refers to the most recent preceding node with that anchor.
+    const tree = loadTree(
+      "hq: &both [lab, ops]\nlab: [rig]\nops: [rig]\nrig: []\nyard: *both\n",
+      opts({ format: "yaml", graph: true }),
+    );
+    // Two roots (hq, yard) under the added root; yard's lab and ops are references to hq's.
+    expect(slots(tree)).toEqual([
+      "(root)",
+      "  hq",
+      "    lab",
+      "      rig",
+      "    ops",
+      "      &rig",
+      "  yard",
+      "    &lab",
+      "    &ops",
+    ]);
+  });
+
+  it("refuses a YAML alias that names no anchor before it as PARSE_YAML at the alias (was an internal error)", () => {
+    // YAML 1.2.2 §7.1: it is an error for an alias node to use an anchor that does not previously occur.
+    for (const [doc, line, column] of [
+      ["a: *nope\n", 1, 4],
+      ["a: [b]\nb: *later\nc: &later [a]\n", 2, 4],
+    ] as const) {
+      const error = caught(() => loadTree(doc, opts({ format: "yaml", graph: true })));
+      expect(error.code).toBe("PARSE_YAML");
+      expect(error.pos).toEqual({ line, column });
+    }
+    // Bytes the fuzzer found (seed -925501349): an alias of stray bytes.
+    const fuzzed = Buffer.from([42, 187, 24, 201]).toString("utf8");
+    expect(caught(() => loadTree(fuzzed, opts({ format: "yaml", graph: true }))).code).toMatch(
+      /^PARSE_YAML$/,
+    );
+  });
+
+  it("refuses aliases that expand past the yaml package's alias count limit as LIMIT_EXCEEDED", () => {
+    // Each level aliases the one before it nine times: 9^11 values if expanded (an alias bomb).
+    let doc = "a0: &a0 [x]\n";
+    for (let i = 1; i < 12; i++)
+      doc += `a${i}: &a${i} [${Array(9)
+        .fill(`*a${i - 1}`)
+        .join(", ")}]\n`;
+    expect(caught(() => loadTree(doc, opts({ format: "yaml", graph: true }))).code).toBe("LIMIT_EXCEEDED");
+  });
+
   it("reads the map as the tree of its values without graph: true (only --graph reads it as a map of ids)", () => {
     const tree = loadTree('{"hq":["lab","ops"],"lab":["rig"],"ops":["rig"]}', opts({ format: "json" }));
     expect(tree.referenceTo).toBeUndefined();

@@ -3,6 +3,8 @@ import { describe, expect, it } from "vitest";
 import { changeKinds } from "../../src/diff/changes.js";
 import { diffTrees } from "../../src/diff/diff-trees.js";
 import { renderDiffText } from "../../src/render/diff-text.js";
+import { displayWidth } from "../../src/render/display-width.js";
+import { MIN_WIDTH } from "../../src/render/line-layout.js";
 import { LEGEND_LINES, legendLines, MARK } from "../../src/render/marks.js";
 import { palette } from "../../src/render/palette.js";
 import { renderText } from "../../src/render/summary-text.js";
@@ -45,6 +47,37 @@ describe("MARK and legendLines(kind)", () => {
     }
     // Every kind a diff line can carry, the graphs' edge kinds included.
     for (const kind of changeKinds) expect(legendLines("diff").join(" ")).toContain(`[${kind}`);
+  });
+
+  it("wraps the legend to any width from MIN_WIDTH at spaces, every word kept, none cut (property)", () => {
+    // Widths in terminal columns as Unicode UAX #11 counts them (displayWidth); the ± of a diff's
+    // legend is one column wide (East Asian Width: Ambiguous, narrow outside East Asian contexts).
+    const words = (lines: string[]) => lines.join(" ").split(" ").filter(Boolean);
+    fc.assert(
+      fc.property(
+        fc.constantFrom("summary", "diff"),
+        fc.integer({ min: MIN_WIDTH, max: 250 }),
+        (kind, width) => {
+          const wrapped = legendLines(kind, width);
+          for (const line of wrapped) expect(displayWidth(line)).toBeLessThanOrEqual(width);
+          expect(words(wrapped)).toEqual(words(legendLines(kind)));
+          expect(wrapped.join("\n")).not.toContain("…");
+          // Each legend line starts at the margin, its further lines two columns in.
+          const starts = wrapped.filter((l) => !l.startsWith("  "));
+          expect(starts.map((l) => l.split(":")[0])).toEqual(legendLines(kind).map((l) => l.split(":")[0]));
+        },
+      ),
+      { numRuns: 60 },
+    );
+  });
+
+  it("explains the fold's narrowest form, which a line at MIN_WIDTH uses", () => {
+    const tree = makeIdTree("R{A{A1:1,A2:1,A3:1},B{B1:1,B2:1}}");
+    const summary = summarize(prepare(tree), { foci: [], budget: 2, importance: "depth" });
+    const text = renderText(summary.view, { units: "plain", sizes: true, width: MIN_WIDTH });
+    expect(text).toMatch(/\(\d+ hidden\)/);
+    expect(legendLines("summary")[1]).toContain("(k hidden): k children hidden");
+    expect(legendLines("diff")[1]).toContain("(k hidden, c changed): k children hidden, c changed nodes");
   });
 
   it("says in the diff legend that counts include removed nodes, as the lines' arithmetic does", () => {

@@ -1,10 +1,14 @@
 import { createRequire } from "node:module";
 import { EspalierError, quoted, say } from "../../errors.js";
+import { type ChunkedResult, resultColumns } from "./result-columns.js";
 
 /** A query's result, column by column: values as the engine hands them to JavaScript. */
 export interface Columns {
   readonly names: readonly string[];
-  /** `values[c][r]`: column c, row r; null for SQL NULL; big integers arrive as bigint. */
+  /**
+   * `values[c][r]`: column c, row r; null for SQL NULL; numbers as numbers, 64- and 128-bit integers
+   * beyond 2^53 - 1 as bigint (resultColumns).
+   */
   readonly values: readonly (readonly unknown[])[];
   readonly rowCount: number;
 }
@@ -66,15 +70,16 @@ export async function openEngine(settings: EngineSettings = {}, from: string = P
   if (settings.databaseFile !== undefined) await connection.run("PRAGMA disable_checkpoint_on_shutdown");
   return {
     async run(sql: string): Promise<Columns> {
-      let reader: Awaited<ReturnType<typeof connection.runAndReadAll>>;
+      let result: Awaited<ReturnType<typeof connection.run>>;
       const started = performance.now();
       try {
-        reader = await connection.runAndReadAll(sql);
+        result = await connection.run(sql);
       } catch (err) {
         throw engineFailed(err);
       }
-      settings.onQuery?.(sql, performance.now() - started, reader.currentRowCount);
-      return { names: reader.columnNames(), values: reader.getColumnsJS(), rowCount: reader.currentRowCount };
+      const columns = resultColumns(result as unknown as ChunkedResult);
+      settings.onQuery?.(sql, performance.now() - started, columns.rowCount);
+      return columns;
     },
     close(): void {
       connection.closeSync();

@@ -11,7 +11,7 @@ import { locateBadSize, locateMalformedJson } from "./locate-fact-error.js";
 import { ROLLUP_TABLE, STATS_TABLE } from "./printed-sql.js";
 import { reachSql, statsSql } from "./pushdown-sql.js";
 import { readHeader } from "./read-header.js";
-import { identifier, keyDepthSql, rollupSql } from "./rollup-sql.js";
+import { identifier, keyDepthSql, preOrderSql, rollupSql } from "./rollup-sql.js";
 import { rollupTree } from "./rollup-tree.js";
 import { textRowEstimate } from "./row-estimate.js";
 import { sourceViewSql } from "./source-sql.js";
@@ -221,7 +221,7 @@ async function openSession(load: FactLoad, header: readonly string[], engine: En
   let stats = false;
   return {
     size,
-    whole: () => fetch(`SELECT * FROM ${ROLLUP_TABLE}`),
+    whole: () => fetch(`SELECT * FROM ${ROLLUP_TABLE}\n${preOrderSql(depth)}`),
     near: async (foci, reach) => {
       if (!stats) {
         await run(engine, `CREATE TABLE ${STATS_TABLE} AS ${statsSql(ROLLUP_TABLE, depth)}`, load);

@@ -49,6 +49,17 @@ export function rollupSql(options: FactOptions, depth: number, hasSize: boolean)
   );
 }
 
+/**
+ * `ORDER BY` for a rollup result in pre-order, the order rollupTree builds the tree in: by each level
+ * value (NULL first: a node before its descendants), then by fewer levels grouped (a node's row before
+ * its own rows). The engine compares text by its UTF-8 bytes, which is code-point order; rollupTree
+ * checks each row against the one before and sorts itself if they are not in that order.
+ */
+export function preOrderSql(depth: number): string {
+  const keys = [...range(depth).map((k) => `${C.level}${k} NULLS FIRST`), C.depth];
+  return `ORDER BY ${keys.join(", ")}`;
+}
+
 /** The deepest key, as a query: the number of separators plus one, at most. */
 export function keyDepthSql(options: FactOptions): string {
   return `SELECT MAX(${keyDepthExpression(identifier(keyField(options)), options.separator)}) AS key_depth FROM ${identifier(options.table)}`;
