@@ -2,7 +2,7 @@ import type { HierarchyNode } from "d3-hierarchy";
 import { type ChildrenInOrder, type Selection, select } from "./fit/select.js";
 import { resolveSpecs } from "./focus/resolve-specs.js";
 import { graphInterest } from "./interest/graph-doi.js";
-import { type Importance, importance } from "./interest/importance.js";
+import { depthImportance, type Importance, importance } from "./interest/importance.js";
 import { interestNear } from "./interest/near.js";
 import { childrenByDepthOrder, nodeOrder } from "./interest/order.js";
 import type { Scores } from "./interest/scores.js";
@@ -40,15 +40,18 @@ export class Prepared {
   constructor(readonly tree: Tree) {
     this.measures = measure(tree);
     this.index = new PathIndex(tree, this.measures);
-    this.neighbours = tree.referenceTo === undefined ? null : graphNeighbours(tree);
+    const graph = tree.referenceTo !== undefined;
+    this.neighbours = graph ? graphNeighbours(tree) : null;
     // Built here, at load time, so that even the first focus costs only interest + fit + view (a
     // single summary needs them anyway): one pass over the child counts, which also builds the path
-    // index's name tables of wide nodes.
-    this.importance("depth");
+    // index's name tables of wide nodes. A graph's summary reads neither the importance by depth (its
+    // interest works it out for the slots it reads) nor the wide nodes' children in order (siblings
+    // of a graph need not share an interest): it is spared both.
+    if (!graph) this.importance("depth");
     const { children } = this.measures;
     for (let p = 0; p < children.length; p++) {
       if (children[p] >= NAME_TABLE_MIN) this.index.warm(p);
-      if (children[p] >= WIDE) this.wide.set(p, childrenByDepthOrder(this.measures, p));
+      if (!graph && children[p] >= WIDE) this.wide.set(p, childrenByDepthOrder(this.measures, p));
     }
   }
 
@@ -96,13 +99,19 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
   const key = options.pseudonymKey;
   const { foci: found, unmatched } = resolveSpecs(index, options.foci, key, options.unmatchedFoci);
   const foci = fullEntries(tree, found);
-  const api = prepared.importance(options.importance);
   // The references to the foci (graphs; null on a tree).
   const refs = referencesTo(tree, foci);
   // A graph scores by graph distance over the whole graph; a tree (no reference) near its foci, as before.
   const scores: Scores = refs
-    ? graphInterest(tree, measures, api, foci, refs, prepared.neighbours ?? undefined)
-    : interestNear(tree, api, foci);
+    ? graphInterest(
+        tree,
+        measures,
+        options.importance === "depth" ? depthImportance(tree) : prepared.importance(options.importance),
+        foci,
+        refs,
+        prepared.neighbours ?? undefined,
+      )
+    : interestNear(tree, prepared.importance(options.importance), foci);
   const selection = select(
     { tree, measures, scores, order: nodeOrder(tree, measures, scores) },
     {

@@ -34,7 +34,7 @@ export interface GraphScores extends Scores {
 export function graphInterest(
   tree: Tree,
   _measures: Measures,
-  api: Float64Array,
+  api: Float64Array | ((x: number) => number),
   foci: Int32Array,
   refs: ReferenceIndex,
   neighbours: GraphNeighbours = graphNeighbours(tree),
@@ -46,12 +46,17 @@ export function graphInterest(
   const ranked = new Int32Array(n);
   const rankOf = (x: number): number => (ranked[x] === 0 ? FAR : ranked[x] - 1);
   // No focus: the same scores as a tree's, API(x) − API(root) (near.ts), every rank FAR.
-  if (foci.length === 0) return { ...interestNear(tree, api, foci), rankOf };
+  if (foci.length === 0) {
+    const all = typeof api === "function" ? Float64Array.from(depth, (_, x) => api(x)) : api;
+    return { ...interestNear(tree, all, foci), rankOf };
+  }
+  // API(x): `api` is an array, or worked out when asked (importance/depthImportance).
+  const apiOf = typeof api === "function" ? api : (x: number) => api[x];
   const { nodes, nodeOf } = neighbours;
 
   // Key K(v) = min over foci of D(v, y) + API(y). The foci, sorted by their offset API(y).
-  const sources = Int32Array.from(foci).sort((a, b) => api[a] - api[b] || a - b);
-  const offsets = Float64Array.from(sources, (y) => api[y]);
+  const sources = Int32Array.from(foci).sort((a, b) => apiOf(a) - apiOf(b) || a - b);
+  const offsets = Float64Array.from(sources, (y) => apiOf(y));
   const queue = new Int32Array(nodes);
   const key = offsets.every(Number.isInteger)
     ? levelSearch(neighbours, sources, offsets, queue)
@@ -117,7 +122,7 @@ export function graphInterest(
   return {
     forcedNodes: Int32Array.from(forcedNodes).sort(),
     interestOf(x) {
-      const v = api[x] - key[nodeOf[x]];
+      const v = apiOf(x) - key[nodeOf[x]];
       return ranked[x] !== 0 && v < 0 ? 0 : v;
     },
     distanceOf,

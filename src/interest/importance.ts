@@ -25,3 +25,13 @@ export function importance(tree: Tree, measures: Measures, kind: Importance): Fl
   for (let i = 0; i < n; i++) api[i] = -depth[i] + Math.log2(Math.max(0, size[i]) + 1) - rootLog;
   return api;
 }
+
+/**
+ * API(x) of the importance by depth, worked out when asked rather than kept for every node: the same
+ * value as {@link importance}'s array holds. A graph's interest reads it for the few slots its fit
+ * looks at (interest/graph-doi.ts), where an array would be one number per slot, a reference included.
+ */
+export function depthImportance(tree: Tree): (x: number) => number {
+  const { depth } = tree;
+  return (x) => 0 - depth[x];
+}

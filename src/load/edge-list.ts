@@ -395,6 +395,8 @@ export class EdgeListReader {
       edgeOrigin: this.edgeLine,
       edgeCount: this.edges,
       repeatedEdges: "skip",
+      // The ids are found no more: the table's memory is the build's (see GraphNodes.spare).
+      spare: this.table,
     };
   }
 }

@@ -247,7 +247,10 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     // The graph interest's neighbour table, from the edges at hand (see graph-neighbours.ts): nodes by
     // their own numbers, so a slot's node is the node it shows (the added root: n).
     if (synthetic) from[0] = n;
-    rememberNeighbours(tree, neighbourTable(outStart, outTo, inDegree, topNodes, from));
+    rememberNeighbours(
+      tree,
+      neighbourTable(outStart, outTo, inDegree, topNodes, from, carved(graph.spare, taken)),
+    );
   }
   return tree;
 }
@@ -265,6 +268,7 @@ function neighbourTable(
   inDegree: Int32Array,
   tops: Int32Array,
   nodeOf: Int32Array,
+  numbers: (length: number) => Int32Array,
 ): GraphNeighbours {
   const n = outStart.length - 1;
   const E = outStart[n];
@@ -280,11 +284,13 @@ function neighbourTable(
     down.set(outTo.subarray(0, E));
     down.set(tops, E);
   }
-  const upStart = new Int32Array(nodes + 1);
+  const upStart = numbers(nodes + 1);
+  upStart[0] = 0;
   for (let v = 0; v < n; v++) upStart[v + 1] = inDegree[v];
+  if (nodes > n) upStart[nodes] = 0;
   for (let t = 0; t < tops.length; t++) upStart[tops[t] + 1]++;
   for (let k = 0; k < nodes; k++) upStart[k + 1] += upStart[k];
-  return { nodes, nodeOf, downStart, down, ...upRuns(nodes, downStart, down, upStart) };
+  return { nodes, nodeOf, downStart, down, ...upRuns(nodes, downStart, down, upStart, numbers) };
 }
 
 /**
@@ -328,6 +334,21 @@ function reused(spare: Int32Array, length: number, taken: Set<ArrayBufferLike>):
   if (spare.length < length || taken.has(spare.buffer)) return new Int32Array(length);
   taken.add(spare.buffer);
   return spare.subarray(0, length);
+}
+
+/**
+ * Arrays of numbers cut one after the other from `spare` (memory read no more, as {@link reused} lends
+ * it: whatever it holds, the caller writes every number), new ones once it has no room left.
+ */
+function carved(spare: Int32Array | undefined, taken: Set<ArrayBufferLike>): (length: number) => Int32Array {
+  let used = 0;
+  const from = spare !== undefined && !taken.has(spare.buffer) ? spare : undefined;
+  if (from !== undefined) taken.add(from.buffer);
+  return (length) => {
+    if (from === undefined || from.length - used < length) return new Int32Array(length);
+    used += length;
+    return from.subarray(used - length, used);
+  };
 }
 
 /** {@link reused}, read as unsigned numbers (the same memory). */

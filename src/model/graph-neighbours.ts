@@ -45,13 +45,16 @@ export function graphNeighbours(tree: Tree): GraphNeighbours {
 /**
  * The `up` runs of the graph whose `down` runs are given: node v's parents are the nodes u whose run
  * holds v, in increasing order of u (a repeated edge repeats its parent). `upStart`, when given, holds
- * the places already (how many runs hold each node, summed): it is counted otherwise.
+ * the places already (how many runs hold each node, summed): it is counted otherwise. `numbers` gives
+ * the arrays of `up` and of the places being filled (new arrays, or memory read no more whatever it
+ * holds: every number is written before it is read).
  */
 export function upRuns(
   nodes: number,
   downStart: Int32Array,
   down: Int32Array,
   upStart?: Int32Array,
+  numbers: (length: number) => Int32Array = (length) => new Int32Array(length),
 ): { upStart: Int32Array; up: Int32Array } {
   const edges = downStart[nodes];
   if (upStart === undefined) {
@@ -59,8 +62,10 @@ export function upRuns(
     for (let j = 0; j < edges; j++) upStart[down[j] + 1]++;
     for (let k = 0; k < nodes; k++) upStart[k + 1] += upStart[k];
   }
-  const up = new Int32Array(edges);
-  const fill = upStart.slice(0, nodes);
+  // Every place of `up` is written once below; `fill` is written whole first.
+  const up = numbers(edges);
+  const fill = numbers(nodes);
+  fill.set(upStart.subarray(0, nodes));
   for (let u = 0; u < nodes; u++)
     for (let j = downStart[u], end = downStart[u + 1]; j < end; j++) up[fill[down[j]]++] = u;
   return { upStart, up };

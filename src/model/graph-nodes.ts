@@ -40,4 +40,9 @@ export interface GraphNodes {
   placeRow?: (row: number, field?: string) => SourcePos | undefined;
   /** A repeated edge (same parent, same child): read once ("skip"), or DUPLICATE_ID at its row ("error"). */
   repeatedEdges: "skip" | "error";
+  /**
+   * Memory the loader reads no more (the edge-list reader's hash table), whatever it holds: the build
+   * makes the graph interest's table of parents in it when it is long enough.
+   */
+  spare?: Int32Array;
 }
