@@ -2,6 +2,7 @@ import { EspalierError } from "../errors.js";
 import { type FactFormat, type FactOptions, factFormatOf } from "../load/facts/fact-options.js";
 import type { FactLoad, FactSession } from "../load/facts/load-facts.js";
 import { checkPathListOptions } from "../load/path-list/path-list-options.js";
+import { checkShortRowsFormat } from "../load/table/short-rows-format.js";
 import { parseSegment, splitPath } from "../model/segment.js";
 import type { Tree } from "../model/tree.js";
 import { prepare, type SummarizeOptions, type SummaryResult, summarize } from "../summarize.js";
@@ -27,6 +28,7 @@ export function factOptionsOf(opts: SharedCliOptions): FactOptions {
     nulSeparated: opts.nulSeparated,
     folderSizes: opts.folderSizes === "auto" ? undefined : opts.folderSizes,
   });
+  checkShortRowsFormat("fact table", opts.shortRows === "fill" ? { shortRows: "fill" } : {});
   if (levels.length > 0 && opts.keyField !== undefined)
     throw new EspalierError("USAGE", "give either --levels or --key-field, not both");
   if (levels.length === 0 && opts.keyField === undefined && !opts.rolledUp) {

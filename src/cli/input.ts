@@ -180,6 +180,7 @@ export function toLoadOptions(
     rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
     ...(opts.readAs === "auto" ? {} : { readAs: opts.readAs }),
+    ...(opts.shortRows === "fill" ? { shortRows: "fill" as const } : {}),
     ...(opts.nulSeparated ? { nulSeparated: true } : {}),
     ...(opts.folderSizes === "auto" ? {} : { folderSizes: opts.folderSizes }),
     // Named on purpose (a flag or the config), even as the default name: then the input must have it.

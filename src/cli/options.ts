@@ -162,6 +162,12 @@ export const sharedOptions = {
     value: choice(["auto", "nodes", "values"], "auto"),
     help: "JSON/YAML: node objects, or every value a node sized in bytes; auto: by the document",
   },
+  shortRows: {
+    flags: "--short-rows <choice>",
+    group: "Input",
+    value: choice(["error", "fill"], "error"),
+    help: "CSV/TSV: a row with fewer fields than the header is an error, or (fill) its missing last fields read as empty",
+  },
   nulSeparated: {
     flags: "--nul-separated",
     group: "Input",

@@ -288,6 +288,15 @@ function copyTree(
     return values;
   });
   const fields = new Map<string, string[]>(keys.map((key, f) => [key, fieldValues[f]]));
+  // Empty entries (`{}`), each from the version the node lives in.
+  let empty: Uint8Array | undefined;
+  if (newTree.empty !== undefined || oldTree.empty !== undefined) {
+    empty = new Uint8Array(total);
+    for (let k = 0; k < total; k++) {
+      const n = newIndex[k];
+      empty[k] = n >= 0 ? (newTree.empty?.[n] ?? 0) : (oldTree.empty?.[oldIndex[k]] ?? 0);
+    }
+  }
   return {
     length: total,
     parent,
@@ -301,6 +310,7 @@ function copyTree(
     fields,
     syntheticRoot: newTree.syntheticRoot,
     ...(newTree.reading ? { reading: newTree.reading } : {}),
+    ...(empty ? { empty } : {}),
   };
 }
 

@@ -92,8 +92,8 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
   for (let o = 0; o < oldTree.length; o++) oldSize += oldTree.ownSize[o];
   const totals: DiffTotals = {
     changes: changesIn(changeMeasures, 0),
-    old: { nodes: distinctNodes(oldTree), size: oldSize },
-    new: { nodes: distinctNodes(newTree), size: measures.size[0] },
+    old: { nodes: distinctNodes(oldTree), size: oldSize, ...emptyOf(oldTree) },
+    new: { nodes: distinctNodes(newTree), size: measures.size[0], ...emptyOf(newTree) },
     delta: netIn(changeMeasures, 0),
     graph,
   };
@@ -152,4 +152,12 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
     unmatchedFoci: unmatched,
     totals,
   };
+}
+
+/** `{ empty: n }` when some of the version's nodes are empty entries (`{}`); else nothing. */
+function emptyOf(tree: Tree): { empty?: number } {
+  if (tree.empty === undefined) return {};
+  let n = 0;
+  for (let i = 0; i < tree.length; i++) n += tree.empty[i];
+  return n > 0 ? { empty: n } : {};
 }

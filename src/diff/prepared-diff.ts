@@ -9,8 +9,9 @@ import type { ChangeMeasures } from "./measure-changes.js";
 /** Whole-diff numbers: the root's counts, and both versions' sizes. */
 export interface DiffTotals {
   changes: ChangeCounts;
-  old: { nodes: number; size: number };
-  new: { nodes: number; size: number };
+  /** Each version's nodes and size, and how many of its nodes are empty entries (`{}`), when any are. */
+  old: { nodes: number; size: number; empty?: number };
+  new: { nodes: number; size: number; empty?: number };
   /** Net size change: new size minus old size. */
   delta: number;
   /** Whether the versions were compared as graphs (edges linked and unlinked are kinds of change). */

@@ -6,9 +6,10 @@ import { matchGlob } from "./glob.js";
 const MAX_JOINS = 4;
 
 /**
- * A glob that matched nothing, rewritten so that adjacent plain segments (no `*`) form one name
- * containing "/", escaped as `~1` (RFC 6901, section 3): `@tidewater/ledger/*` typed for the children of
- * the package named `@tidewater/ledger` is `@tidewater~1ledger/*`. The rewrite with the fewest joins,
+ * A glob that matched nothing, rewritten so that adjacent segments (not `**`) form one name containing
+ * "/", escaped as `~1` (RFC 6901, section 3): `@tidewater/ledger/*` typed for the children of the
+ * package named `@tidewater/ledger` is `@tidewater~1ledger/*`, and `harbor/@tidewater/*` for the
+ * packages of that scope under harbor is `harbor/@tidewater~1*`. The rewrite with the fewest joins,
  * leftmost first, that matches a node; undefined when none does. Only the first {@link MAX_JOINS} such
  * places are tried (at most 2^4 - 1 globs, each one pass over the tree), so an error stays quick.
  */
@@ -20,10 +21,11 @@ export function joinedGlob(index: PathIndex, spec: string): string | undefined {
     return undefined;
   }
   const lead = spec.startsWith("/") ? "/" : "";
-  const plain = (s: string) => s !== "" && !s.includes("*") && !/~~[0-9]+$/.test(s);
+  // Any two segments but `**` (which spans levels) and a rank suffix (`~~2`) may be one name.
+  const joinable = (s: string) => s !== "" && s !== "**" && !/~~[0-9]+$/.test(s);
   const places: number[] = [];
   for (let k = 0; k + 1 < raw.length && places.length < MAX_JOINS; k++)
-    if (plain(raw[k]) && plain(raw[k + 1])) places.push(k);
+    if (joinable(raw[k]) && joinable(raw[k + 1])) places.push(k);
   if (places.length === 0) return undefined;
   const choices: number[] = [];
   for (let mask = 1; mask < 1 << places.length; mask++) choices.push(mask);

@@ -45,11 +45,11 @@ interface Candidate {
  * `vitest` before `vite`, both 2 edits away), then whole paths and ids before partial ones, shallower,
  * then input order.
  * Paths, names and ids are compared as `names` prints them: what the user who typed the spec has seen.
- * A glob whose plain segments, joined, name a name containing "/" is offered escaped ({@link joinedGlob}).
+ * A glob whose segments, joined, name a name containing "/" is offered escaped ({@link joinedGlob}).
  */
 export function suggestFoci(index: PathIndex, spec: string, names: PrintedNames): string[] {
   if (!names.pseudonymous && isGlob(spec)) {
-    // A glob whose plain segments name one name containing "/" typed unescaped (`@scope/pkg/*`).
+    // A glob whose segments name one name containing "/" typed unescaped (`@scope/pkg/*`).
     const joined = joinedGlob(index, spec);
     if (joined !== undefined) return [joined];
   }

@@ -23,6 +23,7 @@ import { jsonGraphTooLong, limitsOf } from "./read-limits.js";
 import { csvTableFromBytes } from "./table/csv-table.js";
 import { linkTable } from "./table/link-table.js";
 import { placeInTableBytes } from "./table/locate-cell.js";
+import { checkShortRowsFormat } from "./table/short-rows-format.js";
 
 export { detectFormat } from "./detect-format.js";
 export { defaultLoadOptions, type InputFormat, inputFormats, type LoadOptions } from "./load-options.js";
@@ -43,6 +44,7 @@ export function loadTree(text: string, options: LoadOptions): Tree {
     if (!/\S/.test(body)) throw new EspalierError("INPUT_EMPTY", "the input is empty");
     const format = options.format ?? detectFormat(body, file, options);
     checkPathListOptions(format, options);
+    checkShortRowsFormat(format, options);
     const nodes = linkedNodes(body, format, options, table);
     placeRow = nodes.placeRow;
     return isGraph(nodes) ? buildGraphTree(withNodeRecords(nodes, options), file) : buildTree(nodes, file);

@@ -81,6 +81,11 @@ export interface LoadOptions {
    * edge list without node records), is FIELD_MISSING rather than a tree named by keys or ids.
    */
   nameFieldNamed?: boolean;
+  /**
+   * CSV and TSV tables: a row with fewer fields than the header reads its missing last fields as empty
+   * (`fill`); absent: such a row is PARSE_CSV (RFC 4180, section 2.4).
+   */
+  shortRows?: "fill";
   /** Path lists: entries end with a NUL byte, not a line break (`find -print0`, `git ls-files -z`). */
   nulSeparated?: boolean;
   /**

@@ -66,6 +66,9 @@ export function walkNested<V>(
   let hasNames = false;
   // referenceOf[i] = the node whose full entry node i stands for, -1 for a full entry.
   let referenceOf = new Int32Array(1024).fill(-1);
+  // empty[i] = 1 when node i's object has no field at all (`{}`).
+  let empty: Uint8Array<ArrayBuffer> | undefined;
+  let emptyEntries = 0;
   let references = 0;
   const refer = (i: number, to: number) => {
     while (i >= referenceOf.length) {
@@ -139,8 +142,8 @@ export function walkNested<V>(
       for (const key of keys) seen.add(key);
     }
 
+    const nameValue = access.field(v, nameField);
     if (keyed[i] !== 1) {
-      const nameValue = access.field(v, nameField);
       const nameKind = access.kind(nameValue);
       if (nameKind === Kind.String || nameKind === Kind.Number || nameKind === Kind.Boolean) {
         sink.name.setString(i, access.text(nameValue as V));
@@ -189,6 +192,18 @@ export function walkNested<V>(
 
     const children = access.field(v, childrenField);
     const childrenKind = access.kind(children);
+    if (nameValue === undefined && sizeValue === undefined && children === undefined) {
+      // No name, size or children: an empty entry when the object has no field at all (`{}`).
+      keys.length = 0;
+      values.length = 0;
+      access.entries(v, keys, values);
+      if (keys.length === 0) {
+        empty ??= new Uint8Array(Math.max(1024, sink.parentOf.length));
+        while (i >= empty.length) empty = grownFlags(empty);
+        empty[i] = 1;
+        emptyEntries++;
+      }
+    }
     if (childrenKind === Kind.Null) continue;
     if (childrenKind !== Kind.Seq && childrenKind !== Kind.Map) {
       throw new EspalierError(
@@ -272,8 +287,10 @@ export function walkNested<V>(
     sizeUnit: fieldSizeUnit(options.sizeField),
     childrenField,
     ...(found ? { childrenFieldFound: true } : {}),
+    ...(emptyEntries > 0 ? { emptyEntries } : {}),
   });
-  return linkedReferences ? { ...linked, referenceOf: linkedReferences } : linked;
+  const withEmpty = empty === undefined ? linked : { ...linked, empty: empty.slice(0, sink.length) };
+  return linkedReferences ? { ...withEmpty, referenceOf: linkedReferences } : withEmpty;
 }
 
 function grownFlags(flags: Uint8Array<ArrayBuffer>): Uint8Array<ArrayBuffer> {

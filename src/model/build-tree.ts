@@ -20,8 +20,10 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
   };
   checkSizes(input, file);
   const ordered = inPreOrder(input);
-  if (ordered)
-    return withReferences(ordered, input.referenceOf, (i) => i + ordered.length - input.parentOf.length);
+  if (ordered) {
+    const slotOf = (i: number) => i + ordered.length - input.parentOf.length;
+    return withEmpty(withReferences(ordered, input.referenceOf, slotOf), input.empty, slotOf);
+  }
   const n = input.parentOf.length;
   let tops = 0;
   for (let i = 0; i < n; i++) if (input.parentOf[i] === -1) tops++;
@@ -85,7 +87,8 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
     origin[k] = input.origin[o];
     for (const [key, values] of fieldSources) fields.get(key)![k] = values[o] ?? "";
   }
-  return withReferences(
+  const slotOf = (i: number) => newIndex[i];
+  const tree = withReferences(
     {
       length: total,
       parent,
@@ -101,8 +104,17 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
       ...(input.reading ? { reading: input.reading } : {}),
     },
     input.referenceOf,
-    (i) => newIndex[i],
+    slotOf,
   );
+  return withEmpty(tree, input.empty, slotOf);
+}
+
+/** The tree with `empty` by slot from the loader's flags by node, when any node is empty. */
+function withEmpty(tree: Tree, empty: Uint8Array | undefined, slotOf: (i: number) => number): Tree {
+  if (empty === undefined) return tree;
+  const bySlot = new Uint8Array(tree.length);
+  for (let i = 0; i < empty.length; i++) if (empty[i] === 1) bySlot[slotOf(i)] = 1;
+  return { ...tree, empty: bySlot };
 }
 
 /**

@@ -28,4 +28,6 @@ export interface LinkedNodes {
    * children and no size; the tree gets it as `referenceTo` (see model/tree.ts).
    */
   referenceOf?: Int32Array;
+  /** Nested input: 1 where the node's object had no field at all (`{}`); absent when none had. */
+  empty?: Uint8Array;
 }

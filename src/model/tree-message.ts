@@ -19,6 +19,7 @@ export interface TreeMessage {
   syntheticRoot: boolean;
   referenceTo?: Int32Array;
   reading?: TreeReading;
+  empty?: Uint8Array;
 }
 
 type NamesMessage = { pool: NamePoolParts } | { strings: string[] };
@@ -40,6 +41,7 @@ export function treeToMessage(tree: Tree): TreeMessage {
 export function treeTransferList(message: TreeMessage): ArrayBuffer[] {
   const arrays: ArrayBufferView[] = [message.parent, message.depth, message.ownSize, message.origin];
   if (message.referenceTo) arrays.push(message.referenceTo);
+  if (message.empty) arrays.push(message.empty);
   for (const names of [message.name, message.ids])
     if (names !== null && "pool" in names) arrays.push(names.pool.bytes, names.pool.start, names.pool.size);
   const buffers = new Set<ArrayBuffer>();

@@ -41,6 +41,12 @@ export interface Tree {
   readonly elided?: Float64Array;
   /** How the loader read the input, when a loader says (trees built otherwise may leave it out). */
   readonly reading?: TreeReading;
+  /**
+   * Nested input: 1 where the node's object had no field at all (`{}`: `npm ls --json` lists a
+   * dependency it did not install so). Such a node counts like any other; the output says so. Absent:
+   * none.
+   */
+  readonly empty?: Uint8Array;
 }
 
 /** How an input was read: what a reader of the output needs to know to trust the numbers. */
@@ -64,4 +70,6 @@ export interface TreeReading {
    * are those totals minus the contents', so nothing counts twice.
    */
   readonly folderTotals?: boolean;
+  /** Nested input: how many nodes are empty objects (`{}`), when any are (see `Tree.empty`). */
+  readonly emptyEntries?: number;
 }

@@ -6,7 +6,7 @@ import { shortenMiddle } from "./display-width.js";
 import { formatSize } from "./format-size.js";
 import type { LineGroup } from "./line-groups.js";
 import type { LineParts } from "./line-layout.js";
-import { foldAmount, foldWords, lineParts } from "./line-parts.js";
+import { EMPTY_WORDS, foldAmount, foldWords, lineParts } from "./line-parts.js";
 import { referenceText } from "./reference-text.js";
 
 /** Columns an old parent's path or old name keeps in a tag on a narrow line. */
@@ -25,6 +25,7 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
   const say = (o: NumberOptions, summary: string) => {
     if (last.reference) return referenceText(last.reference);
     const numbers = [removed ? amount(last.nodes, 0, { ...o, sizes: false }) : summary];
+    if (removed && last.empty) numbers.push(EMPTY_WORDS);
     if (o.sizes && last.nodes > 1 && last.net !== 0) numbers.push(`net ${signed(last.net, o)}`);
     return numbers.filter((s) => s !== "").join(", ");
   };

@@ -94,7 +94,18 @@ export const diffNodeSchema: z.ZodType<DiffSummaryNode> = z.lazy(() =>
     .strict(),
 );
 
-const versionTotals = z.object({ nodes: z.number().int().positive(), size: z.number() }).strict();
+const versionTotals = z
+  .object({
+    nodes: z.number().int().positive(),
+    size: z.number(),
+    empty: z
+      .number()
+      .int()
+      .positive()
+      .optional()
+      .describe("Nested input: how many of the version's nodes are empty objects ({}); absent when none."),
+  })
+  .strict();
 
 export const diffSchema = z
   .object({

@@ -60,36 +60,53 @@ export function shortenEnd(text: string, width: number): string {
 }
 
 /**
- * Shortens text to at most `width` columns so that the grapheme holding code unit `at` stays, with the
- * start of the text: cut at the end when that keeps it (`ledger-linux-x…`), else in the middle when the
- * end holds it (`ledger…x64-musl`), else around it (`report-20…05-fin…`). Where a name first differs
- * from its siblings' names, so that a cut never makes two of them print the same.
+ * Shortens text to at most `width` columns so that it keeps, for every code unit in `needs`, the
+ * grapheme holding it (where a name first differs from each of its siblings' names:
+ * a cut that keeps one such place per sibling never makes two of them print the same): cut at the end
+ * when that keeps them (`ledger-linux-x…`), else in the middle when its start and end keep them
+ * (`ledger…x64-musl`), else a window around those past the start (`@ti…android-a…`), the start
+ * given up when the window would not reach the last of them.
  */
-export function shortenKeeping(text: string, width: number, at: number): string {
+export function shortenKeeping(text: string, width: number, needs: readonly number[]): string {
   if (displayWidth(text) <= width) return text;
-  if (width <= 2) return shortenEnd(text, width);
+  if (width <= 2 || needs.length === 0) return shortenEnd(text, width);
   const graphemes = graphemesOf(text);
   const widths = graphemes.map(displayWidth);
-  let g = 0;
-  for (let units = 0; g < graphemes.length - 1 && units + graphemes[g].length <= at; g++)
-    units += graphemes[g].length;
+  // The grapheme holding each needed code unit, ascending.
+  const starts: number[] = [];
+  for (let g = 0, units = 0; g < graphemes.length; units += graphemes[g].length, g++) starts.push(units);
+  const need = [...new Set(needs.map((u) => graphemeAt(starts, u)))].sort((a, b) => a - b);
+  const lastNeed = need[need.length - 1];
   let upTo = 0;
-  for (let k = 0; k <= g; k++) upTo += widths[k];
+  for (let k = 0; k <= lastNeed; k++) upTo += widths[k];
   if (upTo <= width - 1) return shortenEnd(text, width);
   const { head: kept, tail } = middleCut(graphemes, widths, width);
-  if (tail <= g) return graphemes.slice(0, kept).join("") + ELLIPSIS + graphemes.slice(tail).join("");
-  // Around it: a third of the room for the start, the rest from the grapheme before it on.
+  if (need.every((g) => g < kept || g >= tail))
+    return graphemes.slice(0, kept).join("") + ELLIPSIS + graphemes.slice(tail).join("");
   const room = width - 2;
-  const headRoom = Math.max(1, Math.floor(room / 3));
-  let head = 0;
-  let used = 0;
-  while (head < g && used + widths[head] <= headRoom) used += widths[head++];
-  let from = Math.max(head, g - 1);
-  if (used + widths[from] + (from < g ? widths[g] : 0) > room) from = g;
-  let end = from;
-  while (end < graphemes.length && used + widths[end] <= room) used += widths[end++];
-  const after = end < graphemes.length ? ELLIPSIS : "";
-  return `${graphemes.slice(0, head).join("")}${ELLIPSIS}${graphemes.slice(from, end).join("")}${after}`;
+  for (const headRoom of [Math.floor(room / 3), 0]) {
+    let head = 0;
+    let used = 0;
+    while (head < graphemes.length && used + widths[head] <= headRoom) used += widths[head++];
+    const from = need.find((g) => g >= head);
+    if (from === undefined) break;
+    let start = from;
+    if (start > head && used + widths[start - 1] + widths[start] <= room) start--;
+    let end = start;
+    while (end < graphemes.length && used + widths[end] <= room) used += widths[end++];
+    if (end <= lastNeed && headRoom > 0) continue;
+    const before = start > 0 ? ELLIPSIS : "";
+    const after = end < graphemes.length ? ELLIPSIS : "";
+    return `${graphemes.slice(0, head).join("")}${before}${graphemes.slice(start, end).join("")}${after}`;
+  }
+  return shortenEnd(text, width);
+}
+
+/** The index of the grapheme whose code units (starting at `starts[g]`) hold code unit `unit`. */
+function graphemeAt(starts: readonly number[], unit: number): number {
+  let g = 0;
+  while (g + 1 < starts.length && starts[g + 1] <= unit) g++;
+  return g;
 }
 
 /** The text's grapheme clusters (UAX #29). */

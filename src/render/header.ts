@@ -56,7 +56,7 @@ const FOCI_SHOWN = 3;
  * begin the line. Within `width`, the list of foci shortens first, then the end is cut.
  */
 export function summaryHeader(
-  root: { nodes: number; size: number },
+  root: { nodes: number; size: number; emptyBelow?: number },
   header: HeaderOptions,
   options: NumberOptions,
   width?: number,
@@ -64,6 +64,8 @@ export function summaryHeader(
 ): string {
   const w = style.words;
   let totals = w(`summary: ${formatCount(root.nodes)} ${root.nodes === 1 ? "node" : "nodes"}`);
+  // Entries that are empty objects (`{}`) count as nodes: the header says how many of them there are.
+  if (root.emptyBelow) totals += w(` (${formatCount(root.emptyBelow)} of them empty {})`);
   if (options.sizes)
     totals += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(root.size, options.units)}`)}`;
   const read = readingText(header, style);
@@ -94,6 +96,11 @@ export function diffHeader(
   let head = w(
     `diff by ${by}: ${kinds}; ${formatCount(totals.old.nodes)} -> ${formatCount(totals.new.nodes)} nodes`,
   );
+  // Entries that are empty objects (`{}`) count as nodes: how many of each version's are such.
+  if (totals.old.empty || totals.new.empty)
+    head += w(
+      ` (${formatCount(totals.old.empty ?? 0)} -> ${formatCount(totals.new.empty ?? 0)} of them empty {})`,
+    );
   if (options.sizes) {
     const { units } = options;
     const net = totals.delta < 0 ? formatSize(totals.delta, units) : `+${formatSize(totals.delta, units)}`;

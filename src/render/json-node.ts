@@ -18,5 +18,6 @@ export function jsonNodeFields(node: ViewNode, labels: boolean): NodeFields {
     focus: node.focus,
     ...(node.reference ? { reference: { ...node.reference } } : {}),
     ...(node.parents ? { parents: { ...node.parents } } : {}),
+    ...(node.empty ? { empty: true as const } : {}),
   };
 }

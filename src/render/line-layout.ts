@@ -24,10 +24,10 @@ export interface LineParts {
   /** The labels the line names: one node, or a chain of only children, top first. */
   labels: string[];
   /**
-   * One name: the code unit where it first differs from every shown sibling's name (see
-   * `distinctAt`), which a cut keeps, so siblings never print the same; absent: none to tell apart.
+   * One name: the code units where it first differs from its shown siblings' names, which a cut
+   * keeps, so siblings do not print the same; absent: none to tell apart.
    */
-  distinctAt?: number;
+  distinct?: readonly number[];
   /** The last node's numbers after the labels (`12,121 nodes, 3.0 MiB`), or "". */
   numbers: string;
   /** The same with counts and plain sizes compact (`12.1k nodes`). */
@@ -122,7 +122,7 @@ export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
     for (const [numbers, fold, least] of cut) {
       const room = width - displayWidth(line(ind, "", p.shortTag, numbers, fold, false));
       if (room >= Math.min(least, displayWidth(label)))
-        return line(ind, cutLabels(p.labels, room, p.distinctAt), p.shortTag, numbers, fold, true);
+        return line(ind, cutLabels(p.labels, room, p.distinct), p.shortTag, numbers, fold, true);
     }
   }
   // Still too wide (a diff's long tag and fold on a deep line): at the shortest indentation the tag
@@ -133,7 +133,7 @@ export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
     for (const fold of [p.foldTiny, p.fold ? FOLD_SIGN : ""]) {
       const room = width - displayWidth(line(least, "", kindTag, "", fold, false));
       if (room >= Math.min(fewest, displayWidth(label)))
-        return line(least, cutLabels(p.labels, room, p.distinctAt), kindTag, "", fold, true);
+        return line(least, cutLabels(p.labels, room, p.distinct), kindTag, "", fold, true);
     }
   // Narrower than MIN_WIDTH (the renderers refuse such a width; a small screen may still ask for it):
   // the start of the line is cut, and the fold's sign stays at its end while the width holds it.
@@ -146,14 +146,14 @@ export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
 
 /**
  * Labels cut to `room` columns: one name at its end (its start is what a reader recognises), unless
- * that would cut away where it differs from its siblings (`distinctAt`): then that part stays too
+ * that would cut away where it differs from its siblings (`distinct`): then that part stays too
  * (`ledger…x64-musl` beside `ledger…linux-x64`); a chain in its middle, so its first name and the name
  * the line's numbers belong to stay readable.
  */
-export function cutLabels(labels: string[], room: number, distinctAt?: number): string {
+export function cutLabels(labels: string[], room: number, distinct?: readonly number[]): string {
   const text = labels.join(CHAIN_JOIN);
   if (labels.length > 1) return shortenMiddle(text, room);
-  return distinctAt === undefined ? shortenEnd(text, room) : shortenKeeping(text, room, distinctAt);
+  return distinct === undefined ? shortenEnd(text, room) : shortenKeeping(text, room, distinct);
 }
 
 /**

@@ -44,7 +44,9 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
   const say = (o: NumberOptions) => {
     const numbers = amount(last.nodes, last.size, o);
     const share = shareOf(group, last, o);
-    return share ? (numbers ? `${numbers}, ${share}` : share) : numbers;
+    const said = share ? (numbers ? `${numbers}, ${share}` : share) : numbers;
+    // An entry that is an empty object in the input says so: it counts as a node like any other.
+    return last.empty ? (said ? `${said}, ${EMPTY_WORDS}` : EMPTY_WORDS) : said;
   };
   const fold = (o: NumberOptions) =>
     joined(last.hidden ? `(${foldWords(last)}, ${foldAmount(group, last, o)})` : "", parents);
@@ -65,6 +67,9 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
     foldTiny: last.hidden ? `(${formatCount(last.hidden.children)} hidden)` : "",
   };
 }
+
+/** What marks an empty entry (an input object with no field, `{}`) on its line and in a fold. */
+export const EMPTY_WORDS = "empty {}";
 
 /** Two parts of a line's end, two spaces apart, either may be empty. */
 function joined(a: string, b: string): string {
@@ -90,9 +95,11 @@ export function foldWords(node: ViewNode): string {
 
 /** The numbers of what is folded under `node`: always with its count, and its share when asked. */
 export function foldAmount<T extends ViewNode>(group: LineGroup<T>, node: T, options: NumberOptions): string {
-  const { nodes, size, references } = node.hidden!;
+  const { nodes, size, references, empty } = node.hidden!;
   const text =
-    amount(nodes, size, { ...options, always: true }) + referencesText(references, options.compact);
+    amount(nodes, size, { ...options, always: true }) +
+    referencesText(references, options.compact) +
+    (empty ? `, ${formatCount(empty)} ${EMPTY_WORDS}` : "");
   if (!options.share) return text;
   const whole = options.share === "total" ? group.root : node;
   const value = options.sizes ? size : nodes;
@@ -108,10 +115,12 @@ function shareOf<T extends ViewNode>(group: LineGroup<T>, node: T, options: Numb
 }
 
 /**
- * A one-name line's `distinctAt`: one past the longest common prefix of its label with a shown
- * sibling's (siblings sorted by label, so only the neighbours compare), where a cut must not reach.
+ * A one-name line's `distinct`: where its label first differs from each shown sibling's label (the
+ * length of their common start). Siblings sorted by label, that length only falls walking away from
+ * the label's place, so the walk stops at 0 (the first character tells the rest apart) or after
+ * {@link NEAREST} labels each way.
  */
-function distinctPart<T extends ViewNode>({ nodes, above }: LineGroup<T>): { distinctAt?: number } {
+function distinctPart<T extends ViewNode>({ nodes, above }: LineGroup<T>): { distinct?: number[] } {
   if (nodes.length !== 1 || above === null || above.children.length < 2) return {};
   const self = shownLabel(nodes[0].label);
   let sorted = siblingLabels.get(above);
@@ -127,13 +136,21 @@ function distinctPart<T extends ViewNode>({ nodes, above }: LineGroup<T>): { dis
     if (sorted[mid] < self) lo = mid + 1;
     else hi = mid;
   }
-  let common = -1;
-  for (const k of [lo - 1, lo + 1])
-    if (k >= 0 && k < sorted.length) common = Math.max(common, prefix(self, sorted[k]));
   // An equal label (a sibling of the same name) cannot be told apart by any cut.
   if (lo + 1 < sorted.length && sorted[lo + 1] === self) return {};
-  return common < 0 ? {} : { distinctAt: common };
+  const places = new Set<number>();
+  for (const step of [-1, 1]) {
+    for (let k = lo + step, n = 0; k >= 0 && k < sorted.length && n < NEAREST; k += step, n++) {
+      const common = prefix(self, sorted[k]);
+      places.add(common);
+      if (common === 0) break;
+    }
+  }
+  return places.size === 0 ? {} : { distinct: [...places] };
 }
+
+/** Sorted sibling labels compared on each side of a label for `distinctPart`. */
+const NEAREST = 64;
 
 /** Shown siblings' labels, sorted, per parent: computed once per parent for all its lines. */
 const siblingLabels = new WeakMap<ViewNode, string[]>();

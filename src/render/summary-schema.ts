@@ -14,6 +14,12 @@ export const foldedSchema = z
       .nonnegative()
       .optional()
       .describe("Graphs only: reference lines among what is folded (they count no node)."),
+    empty: z
+      .number()
+      .int()
+      .nonnegative()
+      .optional()
+      .describe("Nested input with empty entries ({}): how many of the hidden nodes are such."),
   })
   .describe("What is folded under a shown node.");
 
@@ -29,6 +35,7 @@ export interface NodeFields {
   focus: boolean;
   reference?: { path: string; cycle: boolean };
   parents?: { count: number; hidden: number };
+  empty?: true;
 }
 
 /** The schemas of {@link NodeFields}, with their meaning in a summary (a diff re-describes some). */
@@ -61,6 +68,12 @@ export const nodeFieldsShape = {
     .strict()
     .optional()
     .describe("Graphs only, on a focus with several parents."),
+  empty: z
+    .literal(true)
+    .optional()
+    .describe(
+      "Nested input: the node's object had no field at all ({}), as npm ls --json lists a dependency it did not install; it counts as a node.",
+    ),
 };
 
 export interface SummaryNode extends NodeFields {
@@ -98,6 +111,14 @@ export const inputReadingSchema = z
       .optional()
       .describe(
         "A path list whose folder lines gave each folder with its contents (as du -ab prints them); own sizes are those totals minus the contents'.",
+      ),
+    emptyEntries: z
+      .number()
+      .int()
+      .positive()
+      .optional()
+      .describe(
+        "Nested input: how many nodes are empty objects ({}), counted in totals.nodes; absent when none.",
       ),
   })
   .strict()

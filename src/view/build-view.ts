@@ -38,6 +38,9 @@ export function buildView(input: ViewInput): HierarchyNode<ViewNode> {
   const { tree, measures } = index;
   const { count, nodes, size, children } = measures;
   const ref = tree.referenceTo;
+  const emptyBefore = tree.empty === undefined ? undefined : countsBefore(tree.empty);
+  // Empty entries (`{}`) in the subtree of slot i: a difference of prefix counts (pre-order).
+  const emptyIn = (i: number) => (emptyBefore === undefined ? 0 : emptyBefore[i + count[i]] - emptyBefore[i]);
   const isFocus = new Set(foci);
   const byIndex = new Map<number, ViewNode>();
   // The shown nodes in pre-order (parents first); a sort of the shown set, never a walk of the tree.
@@ -46,7 +49,7 @@ export function buildView(input: ViewInput): HierarchyNode<ViewNode> {
   // rest then costs nothing per hidden child, however many children a node has.
   const shownKids = new Map<
     number,
-    { children: number; nodes: number; slots: number; size: number; exact: boolean }
+    { children: number; nodes: number; slots: number; size: number; exact: boolean; empty: number }
   >();
   let root: ViewNode | undefined;
   for (const i of order) {
@@ -72,6 +75,10 @@ export function buildView(input: ViewInput): HierarchyNode<ViewNode> {
       const parents = parentsOf(i);
       if (parents) node.parents = parents;
     }
+    if (emptyBefore !== undefined) {
+      if (tree.empty![i] === 1) node.empty = true;
+      node.emptyBelow = emptyIn(i);
+    }
     if (ref !== undefined && ref[i] !== -1) {
       const at = ref[i];
       node.reference = { path: pathOf(at), cycle: at <= i && i < at + count[at] };
@@ -85,9 +92,10 @@ export function buildView(input: ViewInput): HierarchyNode<ViewNode> {
     byIndex.get(p)!.children.push(node);
     let sums = shownKids.get(p);
     if (!sums) {
-      sums = { children: 0, nodes: 0, slots: 0, size: 0, exact: true };
+      sums = { children: 0, nodes: 0, slots: 0, size: 0, exact: true, empty: 0 };
       shownKids.set(p, sums);
     }
+    sums.empty += emptyIn(i);
     sums.children++;
     sums.nodes += nodes[i];
     sums.slots += count[i];
@@ -95,7 +103,7 @@ export function buildView(input: ViewInput): HierarchyNode<ViewNode> {
     if (!Number.isInteger(size[i])) sums.exact = false;
   }
   for (const i of order) {
-    const sums = shownKids.get(i) ?? { children: 0, nodes: 0, slots: 0, size: 0, exact: true };
+    const sums = shownKids.get(i) ?? { children: 0, nodes: 0, slots: 0, size: 0, exact: true, empty: 0 };
     const hiddenChildren = children[i] - sums.children;
     if (hiddenChildren === 0) continue;
     const own = tree.ownSize[i];
@@ -109,6 +117,7 @@ export function buildView(input: ViewInput): HierarchyNode<ViewNode> {
       size: exact ? size[i] - own - sums.size : hiddenSize(i),
       // Hidden slots that are no node's full entry are references.
       ...(ref !== undefined ? { references: count[i] - 1 - sums.slots - hiddenNodes } : {}),
+      ...(emptyBefore !== undefined ? { empty: emptyIn(i) - tree.empty![i] - sums.empty } : {}),
     };
   }
   function hiddenSize(i: number): number {
@@ -122,6 +131,13 @@ export function buildView(input: ViewInput): HierarchyNode<ViewNode> {
 }
 
 const FAR = 0x7fffffff;
+
+/** before[i] = how many of flags[0..i) are 1 (length n + 1). */
+function countsBefore(flags: Uint8Array): Int32Array {
+  const before = new Int32Array(flags.length + 1);
+  for (let i = 0; i < flags.length; i++) before[i + 1] = before[i] + flags[i];
+  return before;
+}
 
 function round(x: number): number {
   const r = Math.round(x * 1000) / 1000;

@@ -8,6 +8,8 @@ export interface Folded {
   size: number;
   /** Graphs only: references (one-line entries of nodes counted elsewhere) among the hidden slots. */
   references?: number;
+  /** Nested input with empty entries (`{}`): how many of the hidden nodes are such. */
+  empty?: number;
 }
 
 /** Graphs only: where the full entry of the node a reference line stands for is. */
@@ -49,4 +51,11 @@ export interface ViewNode {
   reference?: ReferenceTo;
   /** Graphs only, on a focus with several parents: how many there are, and how many are not shown. */
   parents?: { count: number; hidden: number };
+  /** Nested input with empty entries: set on a node whose object had no field at all (`{}`). */
+  empty?: true;
+  /**
+   * Nested input with empty entries: how many there are in the subtree, this node included (so
+   * `emptyBelow` = own + shown children's + `hidden.empty` at every shown node).
+   */
+  emptyBelow?: number;
 }

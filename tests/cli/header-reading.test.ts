@@ -19,14 +19,16 @@ describe("the header says how espalier chose to read a JSON or YAML input", () =
   it("names the field children were found under when it is not the one asked for", async () => {
     const r = await cli(["-", "--input-format", "json"], { stdin: NESTED });
     expect(r.code).toBe(0);
-    expect(head(r.stdout)).toBe("summary: 4 nodes; children under dependencies; no focus; 4 of 40 lines");
+    expect(head(r.stdout)).toBe(
+      "summary: 4 nodes (2 of them empty {}); children under dependencies; no focus; 4 of 40 lines",
+    );
   });
 
   it("says nothing about the reading when the options chose it", async () => {
     const asked = await cli(["-", "--input-format", "json", "--children-field", "dependencies"], {
       stdin: NESTED,
     });
-    expect(head(asked.stdout)).toBe("summary: 4 nodes; no focus; 4 of 40 lines");
+    expect(head(asked.stdout)).toBe("summary: 4 nodes (2 of them empty {}); no focus; 4 of 40 lines");
     const forced = await cli(["-", "--input-format", "json", "--read-as", "values"], { stdin: VALUES });
     expect(head(forced.stdout)).not.toContain("every value a node");
   });

@@ -21,12 +21,15 @@ children["潮汐台帳部門第一設計課帳簿"] = { size: 3 };
 const input = JSON.stringify({ name: "tidewater", children });
 
 describe("sibling names cut at --width 30", () => {
-  it("stay different from one another, and every line fits 30 columns", async () => {
-    const result = await cli(["-", "--width", "30", "--budget", "20"], { stdin: input });
+  it.each([
+    ["no focus", []],
+    ["each a focus, with its numbers on the line", ["--focus", "*"]],
+  ])("stay different from one another, and every line fits 30 columns (%s)", async (_, focus) => {
+    const result = await cli(["-", "--width", "30", "--budget", "20", ...focus], { stdin: input });
     expect(result.stderr).toBe("");
     const lines = result.stdout.trimEnd().split("\n");
     for (const line of lines) expect(displayWidth(line)).toBeLessThanOrEqual(30);
-    const names = lines.slice(2).map((line) => line.replace(/^ +\. /, "").replace(/ {2}.*$/, ""));
+    const names = lines.slice(2).map((line) => line.replace(/^ +[.*:] /, "").replace(/ {2}.*$/, ""));
     expect(names).toHaveLength(platforms.length + 2);
     expect(names.some((n) => n.includes("…"))).toBe(true);
     expect(new Set(names).size).toBe(names.length);

@@ -41,9 +41,111 @@ describe("a glob focus with a scoped name typed unescaped", () => {
     expect(JSON.parse(result.stdout).foci).toEqual(["@tidewater~1ledger/@tidewater~1ledger-linux-x64"]);
   });
 
+  it("joins a scope with the pattern after it: @tidewater/* below a package is @tidewater~1*", async () => {
+    const result = await cli(["-", "--focus", "@tidewater~1ledger/@tidewater/*linux*"], { stdin: listing });
+    expect(result.stderr).toContain('did you mean "@tidewater~1ledger/@tidewater~1*linux*"?');
+  });
+
   it("offers no joined glob when no join matches (a glob of unrelated names stays without it)", async () => {
     const result = await cli(["-", "--focus", "harbor/quay/*"], { stdin: listing });
     expect(result.code).toBe(2);
     expect(result.stderr).not.toContain("~1");
+  });
+});
+
+describe("entries that are empty objects ({}), as a listing writes a dependency it did not install", () => {
+  interface JsonNode {
+    path: string;
+    empty?: true;
+    children: JsonNode[];
+    hidden: { empty?: number } | null;
+  }
+  // The independent count: JSON.parse and a walk of "dependencies", counting objects with no key.
+  function emptyObjects(value: { dependencies?: Record<string, object> }): number {
+    let n = Object.keys(value).length === 0 ? 1 : 0;
+    for (const child of Object.values(value.dependencies ?? {})) n += emptyObjects(child);
+    return n;
+  }
+  const marked = (node: JsonNode): number =>
+    (node.empty ? 1 : 0) + (node.hidden?.empty ?? 0) + node.children.reduce((s, c) => s + marked(c), 0);
+
+  it("count as nodes, and the header, each line and each fold say how many are empty", async () => {
+    expect(emptyObjects(JSON.parse(listing))).toBe(2);
+    const text = await cli(["-", "--budget", "3"], { stdin: listing });
+    expect(text.stderr).toBe("");
+    const lines = text.stdout.split("\n");
+    // tidewater, @tidewater/ledger and its 3 entries, brackish-streams and tidal-math: 7 nodes.
+    expect(lines[0]).toMatch(/^summary: 7 nodes \(2 of them empty \{\}\); children under dependencies;/);
+    expect(lines[2]).toBe("  . @tidewater/ledger  4 nodes  (hidden: 3 children, 3 nodes, 2 empty {})");
+    const focused = await cli(["-", "--focus", "@tidewater~1ledger/*"], { stdin: listing });
+    expect(focused.stdout).toContain("* @tidewater/ledger-darwin-arm64  empty {}\n");
+    expect(focused.stdout).toContain("* @tidewater/ledger-linux-x64\n");
+  });
+
+  it("add up in JSON: empty lines plus folds' empties is input.emptyEntries, at any budget (YAML too)", async () => {
+    const yaml = [
+      "name: tidewater",
+      "dependencies:",
+      "  '@tidewater/ledger':",
+      "    version: 1.3.0",
+      "    dependencies:",
+      "      '@tidewater/ledger-darwin-arm64': {}",
+      "      '@tidewater/ledger-linux-x64': {version: 1.3.0}",
+      "      '@tidewater/ledger-win32-x64': {}",
+      "  brackish-streams:",
+      "    version: 0.9.1",
+      "    dependencies: {tidal-math: {version: 2.0.0}}",
+      "",
+    ].join("\n");
+    for (const [stdin, format] of [
+      [listing, "json"],
+      [yaml, "yaml"],
+    ])
+      for (const budget of ["2", "3", "5", "20"]) {
+        const result = await cli(["-", "--input-format", format, "--budget", budget, "--format", "json"], {
+          stdin,
+        });
+        expect(result.stderr).toBe("");
+        const json = JSON.parse(result.stdout);
+        expect(json.totals.nodes).toBe(7);
+        expect(json.input.emptyEntries).toBe(2);
+        expect(marked(json.root)).toBe(2);
+      }
+  });
+
+  it("leave an input without empty objects as it was: no word in the header, no field in JSON", async () => {
+    const full = listing.replaceAll("{}", '{"version":"1.3.0"}');
+    const result = await cli(["-", "--format", "json"], { stdin: full });
+    const json = JSON.parse(result.stdout);
+    expect(json.input.emptyEntries).toBeUndefined();
+    expect(result.stdout).not.toContain('"empty"');
+    const text = await cli(["-"], { stdin: full });
+    expect(text.stdout.split("\n")[0]).toMatch(/^summary: 7 nodes; /);
+  });
+});
+
+describe("espalier diff of two listings with empty entries", () => {
+  it("says how many of each version's nodes are empty, and marks removed ones on their lines", async () => {
+    const after = JSON.parse(listing);
+    delete after.dependencies["@tidewater/ledger"].dependencies["@tidewater/ledger-win32-x64"];
+    after.dependencies["@tidewater/ledger"].dependencies["@tidewater/ledger-darwin-arm64"] = {
+      version: "1.3.0",
+    };
+    const result = await cli(["diff", "a.json", "b.json", "--budget", "10"], {
+      files: { "a.json": listing, "b.json": JSON.stringify(after) },
+    });
+    expect(result.stderr).toBe("");
+    // Old: 7 nodes, 2 of them {}; new: 6 nodes, none ({} of darwin-arm64 now has a version).
+    expect(result.stdout.split("\n")[0]).toMatch(/; 7 -> 6 nodes \(2 -> 0 of them empty \{\}\);/);
+    expect(result.stdout).toContain("[removed] @tidewater/ledger-win32-x64  empty {}\n");
+    const json = JSON.parse(
+      (
+        await cli(["diff", "a.json", "b.json", "--format", "json"], {
+          files: { "a.json": listing, "b.json": JSON.stringify(after) },
+        })
+      ).stdout,
+    );
+    expect(json.totals.old).toMatchObject({ nodes: 7, empty: 2 });
+    expect(json.totals.new.empty).toBeUndefined();
   });
 });

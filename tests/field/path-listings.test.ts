@@ -94,3 +94,51 @@ describe("a Windows listing (dir /s /b, or sizes and full names from PowerShell)
     expect(paths(share.root)).toEqual(["", "harbor", "harbor/docs", "harbor/docs/a.txt"]);
   });
 });
+
+describe("a du -a listing (1 KiB blocks, not bytes)", () => {
+  // GNU du without -b prints disk usage in 1 KiB blocks (its --block-size defaults to 1024, from
+  // memory): on a file system of 4 KiB blocks every size is a multiple of 4, each folder after its
+  // contents with their total. Read as bytes, every size would be 1,024 times too small, with exit 0.
+  const files = Array.from({ length: 18 }, (_, k) => `${4 * (k + 1)}\t/srv/tidewater/ledger/part-${k}.bin`);
+  const ledger = 4 + files.reduce((s, line) => s + Number(line.split("\t")[0]), 0);
+  const blocks = [...files, `${ledger}\t/srv/tidewater/ledger`, `${ledger + 4}\t/srv/tidewater`, ""].join(
+    "\n",
+  );
+
+  it("is PARSE_PATHS saying so, not a summary in bytes", async () => {
+    const result = await cli(["-", "--budget", "5"], { stdin: blocks });
+    expect(result.code).toBe(2);
+    expect(result.stdout).toBe("");
+    expect(result.stderr).toMatch(
+      /^espalier: <stdin>:1:1: every size is a multiple of 4 .*du without -b .*du -ab.*\[PARSE_PATHS\]\n$/,
+    );
+  });
+
+  it("is PARSE_PATHS for du without -a too (folders only, each a total in blocks)", async () => {
+    const folders = Array.from({ length: 16 }, (_, k) => `8\t/srv/tidewater/ledger/shelf-${k}`);
+    const listing = [...folders, "132\t/srv/tidewater/ledger", "136\t/srv/tidewater", ""].join("\n");
+    const result = await cli(["-"], { stdin: listing });
+    expect(result.code).toBe(2);
+    expect(result.stderr).toMatch(/du without -b .*\[PARSE_PATHS\]/);
+  });
+
+  it("reads the numbers as they are with --folder-sizes total --units plain", async () => {
+    const result = await run(blocks, ["--folder-sizes", "total", "--units", "plain"]);
+    expect(result.stderr).toBe("");
+    // The top folder's line is the total: 4 * (1 + 2 + ... + 18) + 4 + 4 = 692 blocks.
+    // Nodes: /, srv, tidewater, ledger and the 18 files.
+    expect(JSON.parse(result.stdout).totals).toEqual({ nodes: 22, size: 692 });
+  });
+
+  it("reads a du -ab listing (bytes) whose sizes are not all multiples of 4 as before", async () => {
+    // The same folders with one file a byte longer: 693 bytes, read as totals.
+    const bytes = blocks
+      .replace("4\t/srv/tidewater/ledger/part-0.bin", "5\t/srv/tidewater/ledger/part-0.bin")
+      .replace(`${ledger}\t/srv/tidewater/ledger`, `${ledger + 1}\t/srv/tidewater/ledger`)
+      .replace(`${ledger + 4}\t/srv/tidewater`, `${ledger + 5}\t/srv/tidewater`);
+    const result = await cli(["-", "--format", "json"], { stdin: bytes });
+    expect(result.stderr).toBe("");
+    expect(JSON.parse(result.stdout).totals).toEqual({ nodes: 22, size: 693 });
+    expect(JSON.parse(result.stdout).input.folderTotals).toBe(true);
+  });
+});

@@ -179,16 +179,20 @@ describe("renderText(view, { width })", () => {
   });
 });
 
-describe("shortenKeeping(text, width, at)", () => {
+describe("shortenKeeping(text, width, needs)", () => {
   // Widths by string-width, the reference library for terminal widths (Unicode UAX #11): a CJK
   // ideograph (class W) takes two columns.
-  it("cuts at the end when that keeps code unit `at`, else keeps it from the end or around it", () => {
-    expect(shortenKeeping("ledger-linux-x64-musl", 12, 3)).toBe(`ledger-linu${ELLIPSIS}`);
-    expect(shortenKeeping("ledger-linux-x64-musl", 12, 16)).toBe(`ledger${ELLIPSIS}-musl`);
-    expect(shortenKeeping("report-2031-04-final-summary.csv", 14, 13)).toBe(
+  it("cuts at the end when that keeps the places needed, else keeps them from the end or around them", () => {
+    // Where "@tidewater/cli-android-arm64" differs from "…-darwin-arm64" (13) and "…-android-x64" (21).
+    expect(shortenKeeping("@tidewater/cli-android-arm64", 14, [15, 23])).toBe(
+      `${ELLIPSIS}-android-arm${ELLIPSIS}`,
+    );
+    expect(shortenKeeping("ledger-linux-x64-musl", 12, [3])).toBe(`ledger-linu${ELLIPSIS}`);
+    expect(shortenKeeping("ledger-linux-x64-musl", 12, [16])).toBe(`ledger${ELLIPSIS}-musl`);
+    expect(shortenKeeping("report-2031-04-final-summary.csv", 14, [13])).toBe(
       `repo${ELLIPSIS}04-final${ELLIPSIS}`,
     );
-    expect(shortenKeeping("部門名名名名名名名名一", 12, 10)).toBe(`部門名${ELLIPSIS}名一`);
+    expect(shortenKeeping("部門名名名名名名名名一", 12, [10])).toBe(`部門名${ELLIPSIS}名一`);
   });
 
   it("fits the width and keeps the grapheme at `at`, so two texts that differ there stay apart (property)", () => {
@@ -205,13 +209,44 @@ describe("shortenKeeping(text, width, at)", () => {
         const a = stem.join("") + x + rest.join("");
         const b = stem.join("") + y + rest.join("");
         const at = stem.join("").length;
-        const cutA = shortenKeeping(a, width, at);
-        const cutB = shortenKeeping(b, width, at);
+        const cutA = shortenKeeping(a, width, [at]);
+        const cutB = shortenKeeping(b, width, [at]);
         expect(stringWidth(cutA)).toBeLessThanOrEqual(width);
         expect(stringWidth(cutB)).toBeLessThanOrEqual(width);
         expect(cutA).not.toBe(cutB);
       }),
       { numRuns: 2000 },
+    );
+  });
+
+  it("keeps platform builds' names apart when the places where they first differ fit the width (property)", () => {
+    // Names as a package's builds are named: a long shared start, then system, machine and variant.
+    const build = fc
+      .tuple(
+        fc.constantFrom("android", "darwin", "linux", "win32", "freebsd", "潮汐"),
+        fc.constantFrom("arm64", "x64", "ia32", "arm"),
+        fc.constantFrom("", "-musl", "-gnu", "-msvc"),
+      )
+      .map(([os, cpu, variant]) => `@tidewater/ledger-bindings-${os}-${cpu}${variant}`);
+    fc.assert(
+      fc.property(
+        fc.uniqueArray(build, { minLength: 2, maxLength: 16 }),
+        fc.integer({ min: 16, max: 40 }),
+        (names, width) => {
+          const common = (a: string, b: string) => {
+            let k = 0;
+            while (k < a.length && k < b.length && a[k] === b[k]) k++;
+            return k;
+          };
+          const needs = names.map((n) => names.filter((o) => o !== n).map((o) => common(n, o)));
+          // Where the places a name needs span more than the width holds, no window keeps them all.
+          fc.pre(needs.every((p) => Math.max(...p) - Math.min(...p) + 4 <= width));
+          const cuts = names.map((n, k) => shortenKeeping(n, width, needs[k]));
+          for (const cut of cuts) expect(stringWidth(cut)).toBeLessThanOrEqual(width);
+          expect(new Set(cuts).size).toBe(names.length);
+        },
+      ),
+      { numRuns: 1000 },
     );
   });
 });

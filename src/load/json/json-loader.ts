@@ -49,6 +49,9 @@ const F_NAME = 1;
 const F_SIZE = 2;
 const F_CHILDREN = 4;
 
+// What `sized` says of a node.
+const EMPTY = 2;
+
 interface Field {
   bytes: Uint8Array;
   text: string;
@@ -75,6 +78,8 @@ class Frame {
   childrenColumn = 0;
   /** Sink length when the current children value began; -1 when there is none. */
   childrenMark = -1;
+  /** Keys the node object has so far: none at its end makes it an empty entry (`{}`). */
+  fieldCount = 0;
   /**
    * Children by name: the keys seen, the children in input order, whether they need reordering. Made
    * when a level first holds children by name, so a chain a million levels deep costs no Set per level.
@@ -108,7 +113,10 @@ export class JsonLoader extends JsonTokenizer {
   private readonly options: LoadOptions;
   private readonly sink: NodeSink;
   private readonly fields: Field[] = [];
-  /** 1 where a node has an own size: hasSizes counts only nodes a repeated key did not replace. */
+  /**
+   * SIZED where a node has an own size (hasSizes counts only nodes a repeated key did not replace);
+   * EMPTY where its object has no key at all (`{}`).
+   */
   private sized = new Uint8Array(1024);
   /** Kept field values by node; undefined where a node has no such field (it becomes ""). */
   private readonly kept: (string | undefined)[][];
@@ -197,12 +205,19 @@ export class JsonLoader extends JsonTokenizer {
       }
       fields.set(keepFields[f], column as string[]);
     }
-    return sink.finish(this.options.rootName, fields, null, {
+    let emptyEntries = 0;
+    for (let i = 0; i < sink.length; i++) if (this.sized[i] === EMPTY) emptyEntries++;
+    const linked = sink.finish(this.options.rootName, fields, null, {
       shape: "nodes",
       sizeUnit: fieldSizeUnit(this.options.sizeField),
       childrenField: this.options.childrenField,
       ...(this.found ? { childrenFieldFound: true } : {}),
+      ...(emptyEntries > 0 ? { emptyEntries } : {}),
     });
+    if (emptyEntries === 0) return linked;
+    const empty = new Uint8Array(sink.length);
+    for (let i = 0; i < sink.length; i++) if (this.sized[i] === EMPTY) empty[i] = 1;
+    return { ...linked, empty };
   }
 
   // ---------------------------------------------------------------------------------------------------
@@ -215,6 +230,7 @@ export class JsonLoader extends JsonTokenizer {
     if (role === NODE) {
       const fields = this.fields;
       let found = -1;
+      this.frames[top].fieldCount++;
       if (top === 0) this.rootKey = this.text(bytes, q, e, absQ);
       if (this.seen.wants(this.frames[top].node)) this.seen.add(this.text(bytes, q, e, absQ));
       if (this.escaped) {
@@ -498,6 +514,7 @@ export class JsonLoader extends JsonTokenizer {
     frame.sizeKind = ABSENT;
     frame.childrenKind = ABSENT;
     frame.childrenMark = -1;
+    frame.fieldCount = 0;
   }
 
   /** Closes the innermost container, whose last byte is at offset `i` of `buf`. */
@@ -540,6 +557,7 @@ export class JsonLoader extends JsonTokenizer {
   /** Checks a node's fields once all are known (a later repeat of a key replaces an earlier value). */
   private closeNode(frame: Frame): void {
     const i = frame.node;
+    if (frame.fieldCount === 0) this.sized[i] = EMPTY;
     const { nameField, sizeField, childrenField } = this.options;
     const nameKind = frame.nameKind;
     if (!frame.keyed && (nameKind === STRING || nameKind === NUMBER || nameKind === BOOLEAN))

@@ -57,6 +57,7 @@ export function folderTotals(
     parents[p] = 1;
   }
   if (mode === undefined && !readsAsTotals(nodes, contents, parents)) return false;
+  if (mode === undefined && inBlocks(nodes)) throw blockCounts();
   for (let i = 0; i < length; i++) {
     if (parents[i] === 0 || !nodes.isListed(i)) continue;
     if (ownSize[i] < contents[i]) throw smallerThanContents(nodes, i, contents[i]);
@@ -80,6 +81,35 @@ function readsAsTotals(nodes: PlacedSizes, contents: Float64Array, parents: Uint
     if (contents[i] > 0) sized = true;
   }
   return sized;
+}
+
+/** Listed sizes that must all be multiples of 4 before a listing reads as du's 1 KiB blocks. */
+const BLOCK_EVIDENCE = 16;
+
+/**
+ * Whether a listing of folder totals gives 1 KiB blocks, as `du -a` prints disk usage without `-b`
+ * (GNU coreutils: `--block-size` defaults to 1024), rather than bytes: on a file system of 4 KiB
+ * blocks every size is then a multiple of 4. At least {@link BLOCK_EVIDENCE} sizes above 0 must be,
+ * all of them: apparent byte sizes are so only by chance (one in 4 each).
+ */
+function inBlocks(nodes: PlacedSizes): boolean {
+  let seen = 0;
+  for (let i = 0; i < nodes.length; i++) {
+    if (!nodes.isListed(i)) continue;
+    const size = nodes.ownSize[i];
+    if (size === 0) continue;
+    if (size % 4 !== 0) return false;
+    seen++;
+  }
+  return seen >= BLOCK_EVIDENCE;
+}
+
+function blockCounts(): EspalierError {
+  return new EspalierError(
+    "PARSE_PATHS",
+    "every size is a multiple of 4 and each folder's line totals its contents, as du without -b prints disk usage in 1 KiB blocks: read as bytes, each size would be 1,024 times too small. List bytes with du -ab, or pass --folder-sizes total (and --units plain) to read the numbers as they are",
+    { line: 1, column: 1 },
+  );
 }
 
 function smallerThanContents(nodes: PlacedSizes, node: number, contents: number): EspalierError {

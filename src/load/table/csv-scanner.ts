@@ -56,11 +56,22 @@ export class CsvScanner {
   private recordStart = 0;
   private recordLine = 1;
 
+  /** Records delivered so far, the first (a header) included. */
+  private records = 0;
+
   constructor(
     private readonly delimiter: number,
     private readonly sink: CsvSink,
     /** Longest record, in bytes (read-limits.ts): an endless one stops there, not in memory. */
     private readonly maxRecordBytes = readLimits.maxLineBytes,
+    /**
+     * `header`: the first record is a header, and errors name data rows. `shortRows: "fill"`: a record
+     * with fewer fields than the first is delivered with the missing last fields empty (else PARSE_CSV).
+     */
+    private readonly table: { header: boolean; shortRows: "error" | "fill" } = {
+      header: false,
+      shortRows: "error",
+    },
   ) {
     this.quoting = delimiter !== 0x09;
   }
@@ -222,7 +233,9 @@ export class CsvScanner {
     const line = this.line;
     this.line += lines + 1;
     if (fields === 1 && this.ends[0] === this.starts[0] && (p >= n || bytes[p] !== QUOTE)) return q;
+    let filled = 0;
     if (this.width === -1) this.width = fields;
+    else if (fields < this.width && this.table.shortRows === "fill") filled = this.width - fields;
     else if (fields !== this.width) {
       this.line = line;
       // At the first field too many, or where the record ends a field short.
@@ -234,7 +247,7 @@ export class CsvScanner {
         at = this.ends[fields - 1];
         if (quoting && bytes[at] === QUOTE) at++; // after the closing quote
       }
-      throw this.error(`a record has ${fields} fields where the first had ${this.width}`, bytes, p, at);
+      throw this.error(this.countMessage(fields), bytes, p, at);
     }
     const sink = this.sink;
     this.recordBytes = bytes;
@@ -247,8 +260,22 @@ export class CsvScanner {
         sink.field(f, this.scratch, 0, length);
       }
     }
-    if (sink.record(fields, line) === true) this.stopped = true;
+    // Missing last fields, read as empty (`shortRows: "fill"`): empty ranges at the record's end.
+    for (let f = fields; f < fields + filled; f++) sink.field(f, bytes, q, q);
+    this.records++;
+    if (sink.record(fields + filled, line) === true) this.stopped = true;
     return q;
+  }
+
+  /** Why a record's field count is wrong: which row, how many fields, how many wanted, what to do. */
+  private countMessage(fields: number): string {
+    if (!this.table.header) return `a record has ${fields} fields where the first had ${this.width}`;
+    const row = `row ${this.records}`;
+    const counts = `has ${fields} ${fields === 1 ? "field" : "fields"} where the header has ${this.width}`;
+    // RFC 4180, section 2.4: each line should contain the same number of fields throughout the file.
+    return fields < this.width
+      ? `${row} ${counts} (RFC 4180: every row as many as the header); --short-rows fill reads its missing last fields as empty`
+      : `${row} ${counts} (RFC 4180: every row as many as the header)`;
   }
 
   /** Copies `bytes[s, e)` into the scratch buffer with every `""` as one quote; returns the length. */

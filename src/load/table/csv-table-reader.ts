@@ -5,12 +5,21 @@ import { NamePool, namesToArray } from "../../model/names.js";
 import type { LoadOptions } from "../load-options.js";
 import { limitsOf } from "../read-limits.js";
 import { CsvScanner, type CsvSink } from "./csv-scanner.js";
+import { withSeparatorHint } from "./separator-hint.js";
 import type { Table } from "./table.js";
 
 /** The columns a table loader reads. */
 export type TableFields = Pick<
   LoadOptions,
-  "nameField" | "sizeField" | "idField" | "parentField" | "pathField" | "keepFields" | "maxNodes" | "limits"
+  | "nameField"
+  | "sizeField"
+  | "idField"
+  | "parentField"
+  | "pathField"
+  | "keepFields"
+  | "maxNodes"
+  | "limits"
+  | "shortRows"
 >;
 
 /** What is kept of one column the loader reads. */
@@ -54,7 +63,10 @@ export class CsvTableReader implements CsvSink {
     delimiter: "," | "\t",
     private readonly fields: TableFields,
   ) {
-    this.scanner = new CsvScanner(delimiter.charCodeAt(0), this, limitsOf(fields.limits).maxLineBytes);
+    this.scanner = new CsvScanner(delimiter.charCodeAt(0), this, limitsOf(fields.limits).maxLineBytes, {
+      header: true,
+      shortRows: fields.shortRows ?? "error",
+    });
     this.wanted = new Set([
       fields.idField,
       fields.parentField,
@@ -80,12 +92,20 @@ export class CsvTableReader implements CsvSink {
   }
 
   write(chunk: Uint8Array): void {
-    this.scanner.write(chunk);
+    try {
+      this.scanner.write(chunk);
+    } catch (error) {
+      throw withSeparatorHint(error, this.header);
+    }
   }
 
   /** The table, after the last chunk. */
   end(): Table {
-    this.scanner.end();
+    try {
+      this.scanner.end();
+    } catch (error) {
+      throw withSeparatorHint(error, this.header);
+    }
     const header = this.header;
     if (header === undefined) throw new EspalierError("INPUT_EMPTY", "the table has no header row");
     const { at, headerLine, headerColumns, lines } = this;

@@ -4,7 +4,15 @@ import type { Table } from "./table.js";
 
 type Fields = Pick<
   LoadOptions,
-  "nameField" | "sizeField" | "idField" | "parentField" | "pathField" | "keepFields" | "maxNodes" | "limits"
+  | "nameField"
+  | "sizeField"
+  | "idField"
+  | "parentField"
+  | "pathField"
+  | "keepFields"
+  | "maxNodes"
+  | "limits"
+  | "shortRows"
 >;
 
 /**

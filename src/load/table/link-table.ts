@@ -12,6 +12,7 @@ import { fieldSizeUnit } from "../size-unit.js";
 import { IdIndex } from "./id-index.js";
 import { idIsNullParent, missingParent, nullParentSet } from "./null-parent.js";
 import { rowsTable } from "./rows-table.js";
+import { withSeparatorHint } from "./separator-hint.js";
 import type { Cell, Table } from "./table.js";
 
 /**
@@ -29,7 +30,7 @@ export function linkTable(
   try {
     linked = linkRows(table, options, shape);
   } catch (err) {
-    throw placedAtRow(err, table.place);
+    throw placedAtRow(shape === "table" ? withSeparatorHint(err, table.columnNames()) : err, table.place);
   }
   linked.reading = { shape, sizeUnit: fieldSizeUnit(options.sizeField) };
   if (table.place) linked.placeRow = table.place;
