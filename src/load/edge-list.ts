@@ -379,6 +379,9 @@ export class EdgeListReader {
       size: this.idSize,
       exact: [],
     });
+    // The ids are found no more: the table's memory is the build's, given once (GraphNodes.takeSpare).
+    let spare: Int32Array | undefined = this.table;
+    this.table = new Int32Array(0);
     return {
       name: ids,
       ids,
@@ -395,8 +398,11 @@ export class EdgeListReader {
       edgeOrigin: this.edgeLine,
       edgeCount: this.edges,
       repeatedEdges: "skip",
-      // The ids are found no more: the table's memory is the build's (see GraphNodes.spare).
-      spare: this.table,
+      takeSpare: () => {
+        const given = spare;
+        spare = undefined;
+        return given;
+      },
     };
   }
 }

@@ -29,6 +29,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   checkSizes({ ...graph, name, ids, parentOf: new Int32Array(0) } as LinkedNodes & { name: Names }, file);
   const E = graph.edgeCount;
   const { edgeFrom, edgeTo } = graph;
+  let spare = graph.takeSpare?.();
 
   // Out-edges of each node in input order (a stable counting sort by parent): position j holds edge
   // out[j] and its child outTo[j], so the walks below read a node's children from one run of one
@@ -136,6 +137,8 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   }
   const synthetic = tops !== 1;
   const slots = n + (synthetic ? 1 : 0) + (live - (n - tops));
+  // Without a reference no table of parents is made: the spare memory goes now, before the layout's.
+  if (slots === n + (synthetic ? 1 : 0)) spare = undefined;
   // From here on each position's line, in place of its edge's number: the layout gives a reference
   // its edge's line from the position it is at, without a second lookup.
   const { edgeOrigin } = graph;
@@ -247,10 +250,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     // The graph interest's neighbour table, from the edges at hand (see graph-neighbours.ts): nodes by
     // their own numbers, so a slot's node is the node it shows (the added root: n).
     if (synthetic) from[0] = n;
-    rememberNeighbours(
-      tree,
-      neighbourTable(outStart, outTo, inDegree, topNodes, from, carved(graph.spare, taken)),
-    );
+    rememberNeighbours(tree, neighbourTable(outStart, outTo, inDegree, topNodes, from, carved(spare, taken)));
   }
   return tree;
 }

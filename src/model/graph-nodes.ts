@@ -41,8 +41,10 @@ export interface GraphNodes {
   /** A repeated edge (same parent, same child): read once ("skip"), or DUPLICATE_ID at its row ("error"). */
   repeatedEdges: "skip" | "error";
   /**
-   * Memory the loader reads no more (the edge-list reader's hash table), whatever it holds: the build
-   * makes the graph interest's table of parents in it when it is long enough.
+   * Memory the loader reads no more (the edge-list reader's hash table), whatever it holds, given once
+   * (later calls give undefined, so that nothing else holds it): the build makes the graph interest's
+   * table of parents in it when it is long enough, and lets it go at once when the graph has no
+   * reference (a tree needs no such table).
    */
-  spare?: Int32Array;
+  takeSpare?: () => Int32Array | undefined;
 }
