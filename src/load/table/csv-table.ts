@@ -1,26 +1,12 @@
-import type { LoadOptions } from "../load-options.js";
-import { CsvTableReader } from "./csv-table-reader.js";
+import { CsvTableReader, type TableFields } from "./csv-table-reader.js";
 import type { Table } from "./table.js";
-
-type Fields = Pick<
-  LoadOptions,
-  | "nameField"
-  | "sizeField"
-  | "idField"
-  | "parentField"
-  | "pathField"
-  | "keepFields"
-  | "maxNodes"
-  | "limits"
-  | "shortRows"
->;
 
 /**
  * A CSV (RFC 4180, delimiter ",") or TSV (delimiter "\t", no quoting) table from bytes held whole,
  * through the byte scanner the streamed table uses ({@link CsvTableReader}), so both give the same
  * table and the same errors.
  */
-export function csvTableFromBytes(bytes: Uint8Array, delimiter: "," | "\t", fields: Fields): Table {
+export function csvTableFromBytes(bytes: Uint8Array, delimiter: "," | "\t", fields: TableFields): Table {
   const reader = new CsvTableReader(delimiter, fields);
   reader.write(bytes);
   return reader.end();
@@ -30,7 +16,7 @@ export function csvTableFromBytes(bytes: Uint8Array, delimiter: "," | "\t", fiel
 export async function csvTableFromStream(
   chunks: AsyncIterable<Uint8Array>,
   delimiter: "," | "\t",
-  fields: Fields,
+  fields: TableFields,
 ): Promise<Table> {
   const reader = new CsvTableReader(delimiter, fields);
   for await (const chunk of chunks) {
