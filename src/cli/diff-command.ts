@@ -33,7 +33,11 @@ export async function diffCommand(
   });
   if (result.unmatchedFoci.length > 0) io.stderr.write(unmatchedWarning(result.unmatchedFoci));
   const { tree } = result.combined;
-  const text = await diffRenderers[opts.format](result, outputSettings(opts, io, tree), tree);
+  const text = await diffRenderers[opts.format](
+    result,
+    outputSettings(opts, io, tree, [oldTree, newTree]),
+    tree,
+  );
   const differ = totalChanges(result.totals.changes) > 0;
   return { text, exitCode: opts.failOnChange && differ ? EXIT.differences : EXIT.ok };
 }

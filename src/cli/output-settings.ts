@@ -29,13 +29,21 @@ export interface OutputSettings {
   sizeName: string | undefined;
   /** How the input was read when espalier chose it (the header names it); undefined when the options did. */
   reading: HeaderReading | undefined;
+  /** Short rows read with empty last fields (`--short-rows fill`), per input; undefined when none was. */
+  filledRows: readonly number[] | undefined;
 }
 
 /**
  * The settings of one run: options first, then the terminal (when printing to one), then defaults; the
  * unit of size also from the loaded tree.
  */
-export function outputSettings(opts: SharedCliOptions, io: CliIO, tree: Tree): OutputSettings {
+export function outputSettings(
+  opts: SharedCliOptions,
+  io: CliIO,
+  tree: Tree,
+  inputs: readonly Tree[] = [tree],
+): OutputSettings {
+  const filled = inputs.map((t) => t.reading?.filledRows ?? 0);
   return {
     budget: opts.budget ?? defaultBudget(io),
     width: opts.width ?? defaultWidth(io),
@@ -49,6 +57,7 @@ export function outputSettings(opts: SharedCliOptions, io: CliIO, tree: Tree): O
     share: opts.share === "none" ? undefined : opts.share,
     sizeName: opts.sizeField === "size" ? undefined : opts.sizeField,
     reading: chosenReading(opts, tree),
+    filledRows: filled.some((n) => n > 0) ? filled : undefined,
   };
 }
 

@@ -131,5 +131,6 @@ function headerOf<T extends ViewNode>(
     ...(result.unmatchedFoci.length > 0 ? { skippedFoci: result.unmatchedFoci.length } : {}),
     ...(s.sizeName === undefined ? {} : { sizeName: s.sizeName }),
     ...(s.reading === undefined ? {} : { reading: s.reading }),
+    ...(s.filledRows === undefined ? {} : { filledRows: s.filledRows }),
   };
 }

@@ -72,4 +72,6 @@ export interface TreeReading {
   readonly folderTotals?: boolean;
   /** Nested input: how many nodes are empty objects (`{}`), when any are (see `Tree.empty`). */
   readonly emptyEntries?: number;
+  /** A CSV/TSV table: how many short rows were read with their missing last fields empty (`--short-rows fill`). */
+  readonly filledRows?: number;
 }

@@ -38,6 +38,11 @@ export interface HeaderOptions {
    * expected another reading sees it without the docs.
    */
   reading?: HeaderReading;
+  /**
+   * Short CSV/TSV rows read with their missing last fields empty (`--short-rows fill`): one count per
+   * input (a diff's OLD and NEW), said when any is above 0.
+   */
+  filledRows?: readonly number[];
 }
 
 /** A reading of the input the header names (see `HeaderOptions.reading`). */
@@ -128,7 +133,19 @@ function sizeWord(header: HeaderOptions, style: HeaderStyle): string {
  * `; every value a node`, `; folder sizes read as totals with contents`; empty when the options chose the
  * reading.
  */
-function readingText({ reading }: HeaderOptions, style: HeaderStyle): string {
+function readingText(header: HeaderOptions, style: HeaderStyle): string {
+  return choiceText(header, style) + filledText(header, style);
+}
+
+/** `; 3 short rows filled` (a diff: `; 3 -> 0 short rows filled`); empty when none was. */
+function filledText({ filledRows }: HeaderOptions, style: HeaderStyle): string {
+  if (!filledRows || !filledRows.some((n) => n > 0)) return "";
+  const last = filledRows[filledRows.length - 1];
+  const counts = filledRows.map((n) => formatCount(n)).join(" -> ");
+  return style.words(`; ${counts} short ${filledRows.length === 1 && last === 1 ? "row" : "rows"} filled`);
+}
+
+function choiceText({ reading }: HeaderOptions, style: HeaderStyle): string {
   const w = style.words;
   if (reading === undefined) return "";
   if (reading.kind === "values") return w("; every value a node");

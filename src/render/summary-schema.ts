@@ -120,6 +120,14 @@ export const inputReadingSchema = z
       .describe(
         "Nested input: how many nodes are empty objects ({}), counted in totals.nodes; absent when none.",
       ),
+    filledRows: z
+      .number()
+      .int()
+      .positive()
+      .optional()
+      .describe(
+        "A CSV/TSV table read with --short-rows fill: how many short rows had their missing last fields read as empty; absent when none.",
+      ),
   })
   .strict()
   .describe("How the input was read.");

@@ -44,6 +44,33 @@ describe("a CSV table with rows shorter than the header", () => {
     ]);
   });
 
+  it("with --short-rows fill says how many rows it filled: header, JSON input, and both versions of a diff", async () => {
+    // Rows 2, 3 and 4 are short (6, 4 and 4 fields where the header has 7); row 1 is whole.
+    const text = await run(["--short-rows", "fill", "--budget", "8"]);
+    expect(text.stdout.split("\n")[0]).toMatch(/^summary: 5 nodes; 3 short rows filled; no focus; /);
+    const json = JSON.parse((await run(["--short-rows", "fill", "--format", "json"])).stdout);
+    expect(json.input.filledRows).toBe(3);
+    const whole = releases.split("\n").slice(0, 2).join("\n");
+    const none = JSON.parse((await run(["--short-rows", "fill", "--format", "json"], whole)).stdout);
+    expect(none.input.filledRows).toBeUndefined();
+    const diff = await cli(
+      [
+        "diff",
+        "old.csv",
+        "new.csv",
+        "--input-format",
+        "csv",
+        "--path-field",
+        "series",
+        "--short-rows",
+        "fill",
+      ],
+      { files: { "old.csv": whole, "new.csv": releases } },
+    );
+    expect(diff.code).toBe(0);
+    expect(diff.stdout.split("\n")[0]).toContain("; 0 -> 3 short rows filled;");
+  });
+
   it("still refuses a row with more fields than the header, with or without the option", async () => {
     const long = [
       "version,codename,series,created,release,eol,eol-lts",

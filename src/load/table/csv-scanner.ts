@@ -58,6 +58,8 @@ export class CsvScanner {
 
   /** Records delivered so far, the first (a header) included. */
   private records = 0;
+  /** Records read with missing last fields filled in as empty (`shortRows: "fill"`). */
+  private filledRecords = 0;
 
   constructor(
     private readonly delimiter: number,
@@ -91,6 +93,11 @@ export class CsvScanner {
   }
 
   /** Whether the sink asked to stop. */
+  /** How many records were short and read with their missing last fields empty (`shortRows: "fill"`). */
+  get filled(): number {
+    return this.filledRecords;
+  }
+
   get done(): boolean {
     return this.stopped;
   }
@@ -262,6 +269,7 @@ export class CsvScanner {
     }
     // Missing last fields, read as empty (`shortRows: "fill"`): empty ranges at the record's end.
     for (let f = fields; f < fields + filled; f++) sink.field(f, bytes, q, q);
+    if (filled > 0) this.filledRecords++;
     this.records++;
     if (sink.record(fields + filled, line) === true) this.stopped = true;
     return q;

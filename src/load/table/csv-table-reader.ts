@@ -112,9 +112,11 @@ export class CsvTableReader implements CsvSink {
     let kept = this.kept;
     // As before streaming existed: no further than one row over the limit.
     const length = Math.min(this.rows, this.maxRows + 1);
+    const filledRows = this.scanner.filled;
     return {
       length,
       textCells: true,
+      ...(filledRows > 0 ? { filledRows } : {}),
       column(name) {
         const c = at.get(name);
         if (c === undefined) return undefined;

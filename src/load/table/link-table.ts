@@ -33,7 +33,11 @@ export function linkTable(
   } catch (err) {
     throw placedAtRow(shape === "table" ? withSeparatorHint(err, table.columnNames()) : err, table.place);
   }
-  linked.reading = { shape, sizeUnit: fieldSizeUnit(options.sizeField) };
+  linked.reading = {
+    shape,
+    sizeUnit: fieldSizeUnit(options.sizeField),
+    ...(table.filledRows ? { filledRows: table.filledRows } : {}),
+  };
   if (table.place) linked.placeRow = table.place;
   return linked;
 }

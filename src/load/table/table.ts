@@ -8,6 +8,8 @@ export type Cell = string | number | boolean | null | undefined;
 export interface Table {
   /** Number of data rows. */
   readonly length: number;
+  /** Rows that were short and read with their missing last fields empty (`--short-rows fill`), when any. */
+  readonly filledRows?: number;
   /** Whether cells are text that still needs parsing (CSV/TSV), so "12" is a size. */
   readonly textCells: boolean;
   /** The column's cells, one per row, or undefined when no row has that column. */
