@@ -15,8 +15,11 @@ const releases = [
   "",
 ].join("\n");
 
+/** The release table read as CSV linked by its series column, short rows filled. */
+const FILLED = ["--input-format", "csv", "--path-field", "series", "--short-rows", "fill"];
+
 async function run(args: string[], stdin = releases) {
-  return cli(["-", "--input-format", "csv", "--path-field", "series", ...args], { stdin });
+  return cli(["-", ...FILLED.slice(0, 4), ...args], { stdin });
 }
 
 describe("a CSV table with rows shorter than the header", () => {
@@ -53,20 +56,9 @@ describe("a CSV table with rows shorter than the header", () => {
     const whole = releases.split("\n").slice(0, 2).join("\n");
     const none = JSON.parse((await run(["--short-rows", "fill", "--format", "json"], whole)).stdout);
     expect(none.input.filledRows).toBeUndefined();
-    const diff = await cli(
-      [
-        "diff",
-        "old.csv",
-        "new.csv",
-        "--input-format",
-        "csv",
-        "--path-field",
-        "series",
-        "--short-rows",
-        "fill",
-      ],
-      { files: { "old.csv": whole, "new.csv": releases } },
-    );
+    const diff = await cli(["diff", "old.csv", "new.csv", ...FILLED], {
+      files: { "old.csv": whole, "new.csv": releases },
+    });
     expect(diff.code).toBe(0);
     expect(diff.stdout.split("\n")[0]).toContain("; 0 -> 3 short rows filled;");
   });
@@ -88,16 +80,7 @@ describe("a CSV table with rows shorter than the header", () => {
   });
 
   it("reads the same from a file (bytes held whole) as from standard input (streamed)", async () => {
-    const args = [
-      "--input-format",
-      "csv",
-      "--path-field",
-      "series",
-      "--short-rows",
-      "fill",
-      "--format",
-      "json",
-    ];
+    const args = [...FILLED, "--format", "json"];
     const fromFile = await cli(["releases.csv", ...args], { files: { "releases.csv": releases } });
     const fromStdin = await run(args.slice(4));
     expect(fromFile.stderr).toBe("");
