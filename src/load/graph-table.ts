@@ -135,6 +135,7 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
     edgeOrigin,
     edgeCount: edges,
     repeatedEdges: "error",
+    parentColumnRead: true,
   } satisfies GraphNodes;
 }
 

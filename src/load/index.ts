@@ -23,6 +23,7 @@ import { jsonGraphTooLong, limitsOf } from "./read-limits.js";
 import { csvTableFromBytes } from "./table/csv-table.js";
 import { linkTable } from "./table/link-table.js";
 import { placeInTableBytes } from "./table/locate-cell.js";
+import { checkNullParentUse } from "./table/null-parent.js";
 import { checkShortRowsFormat } from "./table/short-rows-format.js";
 
 export { detectFormat } from "./detect-format.js";
@@ -46,6 +47,7 @@ export function loadTree(text: string, options: LoadOptions): Tree {
     checkPathListOptions(format, options);
     checkShortRowsFormat(format, options);
     const nodes = linkedNodes(body, format, options, table);
+    checkNullParentUse(nodes, format, options);
     placeRow = nodes.placeRow;
     return isGraph(nodes) ? buildGraphTree(withNodeRecords(nodes, options), file) : buildTree(nodes, file);
   } catch (caught) {

@@ -9,6 +9,8 @@ import type { TreeReading } from "./tree.js";
  * some of the tree's arrays in their memory, so one GraphNodes builds one tree.
  */
 export interface GraphNodes {
+  /** Linked by an id and a parent column (`--graph` on a table or rows), where `--null-parent` applies. */
+  parentColumnRead?: boolean;
   /** Names, one per node (the id where the input gives no name). */
   name: NamePool | readonly string[];
   /** Ids, one per node: what edges name. */

@@ -4,6 +4,8 @@ import type { TreeReading } from "./tree.js";
 
 /** Nodes as a loader found them: any order, each linked to its parent by index. */
 export interface LinkedNodes {
+  /** Linked by an id and a parent column (a table or JSON rows), where `--null-parent` applies. */
+  parentColumnRead?: boolean;
   /** Parent index among these nodes, or -1 for a top-level node. */
   parentOf: Int32Array;
   /** Names, one per node: a pool (as loaders fill it) or plain strings. */

@@ -15,6 +15,7 @@ import { jsonGraphTooLong, limitsOf } from "../read-limits.js";
 import { csvTableFromStream } from "../table/csv-table.js";
 import { linkTable } from "../table/link-table.js";
 import { placeInTable } from "../table/locate-cell.js";
+import { checkNullParentUse } from "../table/null-parent.js";
 import { checkShortRowsFormat } from "../table/short-rows-format.js";
 import { edgeListStream } from "./edge-list-stream.js";
 import { readStart } from "./read-start.js";
@@ -44,6 +45,7 @@ export async function loadTreeFromStream(
       checkPathListOptions(format, options);
       checkShortRowsFormat(format, options);
       linked = await linkedNodes(start.chunks, format, options, Buffer.from(start.text, "utf8"), table);
+      checkNullParentUse(linked, format, options);
     } catch (error) {
       await start.close();
       throw error;

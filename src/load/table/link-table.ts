@@ -131,6 +131,7 @@ function linkById(
     originIsRow: true,
     fields: keep,
     rootName: options.rootName,
+    parentColumnRead: true,
   } satisfies LinkedNodes;
 }
 

@@ -12,6 +12,24 @@ export function nullParentSet(options: Fields): ReadonlySet<string> | undefined 
 }
 
 /**
+ * `--null-parent` says how a parent column reads; an input linked any other way (nested nodes, a path
+ * list or column, an edge list, an adjacency map) would ignore it, and a user who named the value would
+ * not learn that it did not apply: USAGE, naming what the input was read as.
+ */
+export function checkNullParentUse(
+  nodes: { parentColumnRead?: boolean; reading?: { shape: string } },
+  format: string,
+  options: Pick<LoadOptions, "nullParents">,
+): void {
+  if (!options.nullParents || options.nullParents.length === 0 || nodes.parentColumnRead) return;
+  const read = nodes.reading?.shape ?? format;
+  throw new EspalierError(
+    "USAGE",
+    `--null-parent reads a parent column (a table or JSON rows linked by id and parent); this input is read as ${read}, without one`,
+  );
+}
+
+/**
  * A row whose id is a value named to mean "no parent": its children could be either, so the table is
  * refused rather than read one way in silence.
  */

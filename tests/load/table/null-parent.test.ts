@@ -92,4 +92,20 @@ describe("--null-parent: parent cells that mean no parent", () => {
     expect(without.code).toBe(2);
     expect(without.stderr).toContain("[MISSING_PARENT]");
   });
+
+  it("is USAGE on an input read without a parent column, as other format options are (never ignored in silence)", async () => {
+    const inputs: [string, string[]][] = [
+      ['{"name":"hq","children":[{"name":"lab"}]}', ["--input-format", "json"]],
+      ["10\tdocs/a.txt\n", ["--input-format", "paths"]],
+      ["path,size\ndocs/a.txt,10\n", ["--input-format", "csv"]],
+      ["hq lab\nlab rig\n", ["--input-format", "edges"]],
+    ];
+    for (const [stdin, format] of inputs) {
+      const r = await cli(["-", ...format, "--null-parent", "0"], { stdin });
+      expect(r.code).toBe(2);
+      expect(r.stderr).toMatch(/--null-parent reads a parent column.*\[USAGE\]/);
+      // Without the option each of them reads (exit 0): the refusal is the option's alone.
+      expect((await cli(["-", ...format], { stdin })).code).toBe(0);
+    }
+  });
 });
