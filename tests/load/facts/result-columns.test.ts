@@ -36,12 +36,17 @@ async function espalierColumns(sql: string): Promise<unknown[][]> {
   }
 }
 
-const text = fc.oneof(
-  fc.string({ maxLength: 14 }),
-  fc.string({ unit: "grapheme", maxLength: 8 }),
-  fc.string({ unit: "binary", maxLength: 20 }),
-  fc.constantFrom("", "acct-1", "a-name-longer-than-twelve-bytes", "ü", "\u{1F30A}", "é\u0301"),
-);
+// Text is written into the statement as a literal; the engine's SQL parser ends a statement at a NUL
+// (it reads the text as a C string, from memory: seed 1740669552 gave "unterminated quoted string" for
+// "\u0000"), so no literal may hold one. Values with NUL in them reach the reader from files, not SQL.
+const text = fc
+  .oneof(
+    fc.string({ maxLength: 14 }),
+    fc.string({ unit: "grapheme", maxLength: 8 }),
+    fc.string({ unit: "binary", maxLength: 20 }),
+    fc.constantFrom("", "acct-1", "a-name-longer-than-twelve-bytes", "ü", "\u{1F30A}", "é\u0301"),
+  )
+  .filter((s) => !s.includes("\u0000"));
 
 describe("Engine.run: result values", () => {
   it("are those of the engine package's own conversion, for text, whole numbers and doubles (property)", async () => {
