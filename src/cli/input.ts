@@ -1,7 +1,7 @@
 import { DEFAULT_COMPARED_FIELDS } from "../diff/field-edits.js";
 import { EspalierError } from "../errors.js";
 import type { FocusSpec } from "../focus/focus-spec.js";
-import { defaultLoadOptions, type LoadOptions } from "../load/load-options.js";
+import { defaultLoadOptions, type LinkOption, type LoadOptions } from "../load/load-options.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
 import type { Tree } from "../model/tree.js";
 import { templateFields } from "../view/label.js";
@@ -190,7 +190,24 @@ export function toLoadOptions(
     // Named on purpose (a flag or the config), even as the default name: then the input must have it.
     ...(opts.named?.has("sizeField") ? { sizeFieldNamed: true } : {}),
     ...(opts.named?.has("nameField") ? { nameFieldNamed: true } : {}),
+    ...linkOptionsNamed(opts.named),
   };
+}
+
+const linkOptionKeys: Readonly<Record<string, LinkOption>> = {
+  idField: "--id-field",
+  parentField: "--parent-field",
+  pathField: "--path-field",
+  childField: "--child-field",
+  childrenField: "--children-field",
+};
+
+/** The link options the run named (a flag or the config), for the loader to check they are read. */
+function linkOptionsNamed(named: ReadonlySet<string> | undefined): { linkOptionsNamed?: LinkOption[] } {
+  const flags = Object.entries(linkOptionKeys)
+    .filter(([key]) => named?.has(key))
+    .map(([, flag]) => flag);
+  return flags.length > 0 ? { linkOptionsNamed: flags } : {};
 }
 
 /**

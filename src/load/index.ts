@@ -20,6 +20,7 @@ import type { InputFormat, LoadOptions } from "./load-options.js";
 import { loadYaml } from "./load-yaml.js";
 import { checkPathListOptions } from "./path-list/path-list-options.js";
 import { jsonGraphTooLong, limitsOf } from "./read-limits.js";
+import { checkReadingOptions } from "./reading-options.js";
 import { csvTableFromBytes } from "./table/csv-table.js";
 import { linkTable } from "./table/link-table.js";
 import { placeInTableBytes } from "./table/locate-cell.js";
@@ -48,6 +49,7 @@ export function loadTree(text: string, options: LoadOptions): Tree {
     checkShortRowsFormat(format, options);
     const nodes = linkedNodes(body, format, options, table);
     checkNullParentUse(nodes, format, options);
+    checkReadingOptions(nodes, format, options);
     placeRow = nodes.placeRow;
     return isGraph(nodes) ? buildGraphTree(withNodeRecords(nodes, options), file) : buildTree(nodes, file);
   } catch (caught) {

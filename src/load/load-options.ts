@@ -8,6 +8,14 @@ import type { Table } from "./table/table.js";
 export const inputFormats = ["json", "yaml", "csv", "tsv", "rows", "paths", "edges"] as const;
 export type InputFormat = (typeof inputFormats)[number];
 
+/** The options that name a column or field some reading links its nodes by. */
+export type LinkOption =
+  | "--id-field"
+  | "--parent-field"
+  | "--path-field"
+  | "--child-field"
+  | "--children-field";
+
 /** Field names and choices for loading; every field has the documented default. */
 export interface LoadOptions {
   /** Forced format; detected from the file name and content when undefined. */
@@ -86,6 +94,11 @@ export interface LoadOptions {
    * (`fill`); absent: such a row is PARSE_CSV (RFC 4180, section 2.4).
    */
   shortRows?: "fill";
+  /**
+   * Link options given on purpose (a flag or the config file, even at the default name): a reading
+   * that does not read one is USAGE rather than a tree read another way (reading-options.ts).
+   */
+  linkOptionsNamed?: readonly LinkOption[];
   /** Path lists: entries end with a NUL byte, not a line break (`find -print0`, `git ls-files -z`). */
   nulSeparated?: boolean;
   /**

@@ -8,6 +8,7 @@ import { NodeSink } from "../node-sink.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer, viewOf } from "../path-placer.js";
 import { limitsOf, tooLong } from "../read-limits.js";
+import { checkReadingOptions } from "../reading-options.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { type FolderSizes, folderTotals } from "./folder-totals.js";
 
@@ -64,11 +65,14 @@ export class PathListReader {
   /** Unsized lists: non-blank lines, and those that start with a number and a space (see `end`). */
   private pathLines = 0;
   private numberFirstLines = 0;
+  /** Whether the first unsized line is words and spaces without a "/", as a header of columns is. */
+  private headerFirst = false;
   /** How folders' sizes count (folder-totals.ts); undefined: decided by the listing. */
   private readonly folderSizes: FolderSizes | undefined;
 
   constructor(options: LoadOptions) {
     checkNoNamedFields(options, "paths");
+    checkReadingOptions({ reading: { shape: "paths" } }, "paths", options);
     this.sink = new NodeSink(options.maxNodes, false);
     this.placer = new PathPlacer(this.sink);
     this.rootName = options.rootName;
@@ -133,6 +137,18 @@ export class PathListReader {
         "every line starts with a number and a space, as find -printf '%s %P\\n' and wc -c print: a size is read before a tab (find -printf '%s\\t%p\\n'), or before spaces when the first path starts with / or ./ (find /DIR or find . -printf '%s %p\\n'); to read these lines as paths whose names start with a number, pass --input-format paths",
         { line: this.firstLine, column: 1 },
       );
+    }
+    if (
+      this.detected &&
+      this.sized === false &&
+      this.headerFirst &&
+      this.pathLines > 2 &&
+      this.numberFirstLines === this.pathLines - 1
+    ) {
+      // `ps -eo pid,ppid,comm`: a header of columns aligned with spaces, then a number first on every
+      // line. Read as paths, each line would be one path (a process name with a "/" split into
+      // folders), with exit 0.
+      throw new EspalierError("PARSE_PATHS", COLUMNS_ALIGNED, { line: this.firstLine, column: 1 });
     }
     sink.hasSizes = this.sized === true;
     const placer = this.placer;
@@ -262,7 +278,7 @@ export class PathListReader {
       pathStart = at + 1;
       if (sizeEnd === space) while (pathStart < end && bytes[pathStart] === space) pathStart++;
     } else {
-      this.pathLines++;
+      if (this.pathLines++ === 0) this.headerFirst = headerOfColumns(bytes, start, end);
       if (numberThenSpace(bytes, start, end)) this.numberFirstLines++;
     }
     if (this.backslashes === undefined) this.backslashes = windowsPath(bytes, pathStart, end);
@@ -307,6 +323,18 @@ function numberThenSpace(bytes: Buffer, start: number, end: number): boolean {
   while (k < end && bytes[k] === space) k++;
   return k < end;
 }
+
+/**
+ * Whether the line is two or more words separated by spaces, none holding a "/" or a digit first: as the
+ * header line of a command that aligns its columns with spaces (`  PID  PPID COMMAND`).
+ */
+function headerOfColumns(bytes: Buffer, start: number, end: number): boolean {
+  const words = bytes.toString("utf8", start, end).trim().split(/ +/);
+  return words.length >= 2 && words.every((word) => !word.includes("/") && !/^[0-9]/.test(word));
+}
+
+const COLUMNS_ALIGNED =
+  'the first line reads as a header of columns aligned with spaces and every later line starts with a number, as ps -eo pid,ppid,comm prints: read as a path list, each line would be one path. A table is read as CSV or TSV whose header names the id and parent columns: ps -eo pid=,ppid=,comm= | awk -v OFS=\'\\t\' \'BEGIN {print "id", "parent", "name"} {sub(/^ +/, ""); sub(/ +/, "\\t"); sub(/ +/, "\\t"); print}\' | espalier - --null-parent 0; to read each line as a path, pass --input-format paths';
 
 function isBlank(bytes: Buffer, start: number, end: number): boolean {
   for (let k = start; k < end; k++) {

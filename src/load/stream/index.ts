@@ -12,6 +12,7 @@ import { linkGraphTable } from "../graph-table.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
 import { checkPathListOptions } from "../path-list/path-list-options.js";
 import { jsonGraphTooLong, limitsOf } from "../read-limits.js";
+import { checkReadingOptions } from "../reading-options.js";
 import { csvTableFromStream } from "../table/csv-table.js";
 import { linkTable } from "../table/link-table.js";
 import { placeInTable } from "../table/locate-cell.js";
@@ -46,6 +47,7 @@ export async function loadTreeFromStream(
       checkShortRowsFormat(format, options);
       linked = await linkedNodes(start.chunks, format, options, Buffer.from(start.text, "utf8"), table);
       checkNullParentUse(linked, format, options);
+      checkReadingOptions(linked, format, options);
     } catch (error) {
       await start.close();
       throw error;

@@ -1,0 +1,79 @@
+import { EspalierError } from "../errors.js";
+import type { InputFormat, LinkOption, LoadOptions } from "./load-options.js";
+
+/** What the check needs to know of how a loader read the input. */
+interface ReadNodes {
+  parentColumnRead?: boolean;
+  reading?: { shape: string };
+}
+
+/**
+ * Options that say how some reading links its nodes (`--id-field`, `--parent-field`, `--path-field`,
+ * `--child-field`, `--children-field`), or that the input is a graph (`--graph`, `--nodes`), or how a
+ * JSON/YAML document is read (`--read-as`), given on an input read another way: each would be
+ * ignored, and a user who named a column (say, `ps` output with `--id-field pid --parent-field ppid`,
+ * read as a path list because it is no CSV) would get another tree with exit 0. USAGE instead, naming
+ * the options and what the input was read as. Graphs are not checked here: their readers check their
+ * own columns.
+ */
+export function checkReadingOptions(nodes: ReadNodes, format: InputFormat, options: LoadOptions): void {
+  const shape = nodes.reading?.shape;
+  if (shape === undefined || shape === "graph") return;
+  const byId = nodes.parentColumnRead === true;
+  const unused: string[] = (options.linkOptionsNamed ?? []).filter((flag) => !reads(flag, shape, byId));
+  if (options.graph) unused.push("--graph");
+  if (options.nodeRecords !== undefined) unused.push("--nodes");
+  if (options.readAs !== undefined && (shape === "table" || shape === "paths")) unused.push("--read-as");
+  if (unused.length === 0) return;
+  const list = unused.length === 1 ? unused[0] : `${unused.slice(0, -1).join(", ")} and ${unused.at(-1)}`;
+  throw new EspalierError(
+    "USAGE",
+    `${list} ${unused.length === 1 ? "does" : "do"} not apply: this input is read as ${readingName(shape, byId, format)}, which does not read ${unused.length === 1 ? "it" : "them"}${hint(shape)}`,
+    undefined,
+    { options: unused },
+  );
+}
+
+/** Whether a reading reads the column or field a link option names. */
+function reads(flag: LinkOption, shape: string, byId: boolean): boolean {
+  const table = shape === "table" || shape === "rows";
+  switch (flag) {
+    case "--id-field":
+    case "--parent-field":
+      return table && byId;
+    case "--path-field":
+      return table && !byId;
+    case "--children-field":
+      return shape === "nodes";
+    case "--child-field":
+      return false;
+  }
+}
+
+function readingName(shape: string, byId: boolean, format: InputFormat): string {
+  switch (shape) {
+    case "paths":
+      return "a path list (one path per line, with or without a size)";
+    case "table":
+    case "rows": {
+      const what = shape === "rows" ? "JSON rows" : `a ${format === "tsv" ? "TSV" : "CSV"} table`;
+      return byId ? `${what} linked by id and parent columns` : `${what} linked by a path column`;
+    }
+    case "nodes":
+      return "nested nodes (children inside their parent)";
+    case "values":
+      return "values (every value of the document a node)";
+    case "path-map":
+      return "an object keyed by path";
+    default:
+      return shape;
+  }
+}
+
+function hint(shape: string): string {
+  if (shape === "paths")
+    return " (a table is read as CSV or TSV with a header row; columns aligned with spaces, as ps prints them, read as paths until converted; --input-format names the format)";
+  if (shape === "table" || shape === "rows")
+    return " (rows are linked by id and parent when the table has both columns, else by the path column)";
+  return "";
+}

@@ -1,0 +1,129 @@
+import { describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+
+// Field tests: a process listing as `ps -eo pid,ppid,comm` prints it (procps-ng on this machine: a
+// header of right-aligned column names, then one process a line, the numbers padded with spaces on the
+// left), reduced to invented process names. It is no CSV or TSV, so it was read as a path list: each
+// line one path, a name holding "/" split into folders, exit 0; and --id-field/--parent-field, which
+// say how a table is linked, were ignored without a word.
+const ps = [
+  "    PID    PPID COMMAND",
+  "      1       0 tide-init",
+  "      2       0 harbor-threads",
+  "      3       2 harbor-worker/0:1",
+  "      4       2 harbor-worker/1:0",
+  "     57       1 quay-daemon",
+  "    112      57 ledger sync",
+  "",
+].join("\n");
+
+/**
+ * The conversion the error message gives, done here as awk would: the leading spaces dropped, the
+ * first two runs of spaces become tabs (a name may hold spaces), under a header naming the columns.
+ */
+const psTsv = [
+  "id\tparent\tname",
+  ...ps
+    .split("\n")
+    .slice(1, -1)
+    .map((line) => line.replace(/^ +/, "").replace(/ +/, "\t").replace(/ +/, "\t")),
+  "",
+].join("\n");
+
+describe("a process listing as ps prints it", () => {
+  it("is PARSE_PATHS at line 1 naming the conversion to a table and --input-format paths", async () => {
+    const result = await cli(["-"], { stdin: ps });
+    expect(result.code).toBe(2);
+    expect(result.stdout).toBe("");
+    expect(result.stderr).toMatch(
+      /^espalier: <stdin>:1:1: the first line reads as a header of columns .*ps -eo pid=,ppid=,comm= .*--null-parent 0.*--input-format paths \[PARSE_PATHS\]\n$/,
+    );
+  });
+
+  it("reads each line as a path when --input-format paths asks for it", async () => {
+    const result = await cli(["-", "--input-format", "paths", "--format", "json"], { stdin: ps });
+    expect(result.stderr).toBe("");
+    // 7 lines, two of them split at their "/" into a folder and a name: 7 + 2 nodes, and the root.
+    expect(JSON.parse(result.stdout).totals.nodes).toBe(10);
+  });
+
+  it("with --id-field and --parent-field is USAGE naming both and the path-list reading", async () => {
+    const result = await cli(["-", "--id-field", "PID", "--parent-field", "PPID"], { stdin: ps });
+    expect(result.code).toBe(2);
+    expect(result.stdout).toBe("");
+    expect(result.stderr).toMatch(
+      /^espalier: <stdin>: --id-field and --parent-field do not apply: this input is read as a path list .*\[USAGE\]\n$/,
+    );
+  });
+
+  it("reads as the process tree once converted as the message says", async () => {
+    const result = await cli(["-", "--null-parent", "0", "--format", "json"], { stdin: psTsv });
+    expect(result.stderr).toBe("");
+    const json = JSON.parse(result.stdout);
+    // 6 processes under the root espalier adds for the two of parent 0 (awk 'NR>1' | wc -l gives 6).
+    expect(json.totals.nodes).toBe(7);
+    const init = json.root.children.find((c: { name: string }) => c.name === "tide-init");
+    // tide-init (1) <- quay-daemon (57) <- "ledger sync" (112): the name keeps its space.
+    expect(init.nodes).toBe(3);
+    expect(init.children[0].children[0].name).toBe("ledger sync");
+  });
+});
+
+describe("options that name how another reading links its nodes", () => {
+  it("--parent-field on a table linked by its path column is USAGE, not a tree linked by path", async () => {
+    // A lock-file-like listing of paths (common practice, no source): no "manager" column, so the rows
+    // were linked by path and the option was ignored.
+    const table = "path,size\nservices,0\nservices/ledger,120\n";
+    const result = await cli(["-", "--input-format", "csv", "--parent-field", "manager"], { stdin: table });
+    expect(result.code).toBe(2);
+    expect(result.stderr).toMatch(
+      /--parent-field does not apply: this input is read as a CSV table linked by a path column.*\[USAGE\]\n$/,
+    );
+  });
+
+  it("--path-field on a table linked by id and parent is USAGE", async () => {
+    const table = "id,parent,path\nQ1,,a\nQ2,Q1,a/b\n";
+    const result = await cli(["-", "--input-format", "csv", "--path-field", "path"], { stdin: table });
+    expect(result.code).toBe(2);
+    expect(result.stderr).toMatch(
+      /--path-field does not apply: .*linked by id and parent columns.*\[USAGE\]/,
+    );
+  });
+
+  it("--nodes and --id-field on nested JSON (npm ls --all --json shape) are USAGE", async () => {
+    const listing = JSON.stringify({
+      name: "tidewater",
+      dependencies: {
+        "mooring-log": { version: "1.2.0", dependencies: { "tidal-math": { version: "0.3.1" } } },
+      },
+    });
+    const result = await cli(["-", "--id-field", "name", "--nodes", "fixtures/tidewater-packages.csv"], {
+      stdin: listing,
+    });
+    expect(result.code).toBe(2);
+    expect(result.stderr).toMatch(
+      /--id-field and --nodes do not apply: this input is read as nested nodes .*\[USAGE\]\n$/,
+    );
+  });
+
+  it("--children-field named in the config file, on a CSV table, is USAGE too", async () => {
+    const table = "id,parent,name\nQ1,,Rosa\nQ2,Q1,Arjun\n";
+    const result = await cli(["-", "--input-format", "csv"], {
+      stdin: table,
+      files: { ".espalier.yaml": "childrenField: reports\n" },
+    });
+    expect(result.code).toBe(2);
+    expect(result.stderr).toMatch(
+      /--children-field does not apply: .*CSV table linked by id and parent.*\[USAGE\]/,
+    );
+  });
+
+  it("leaves the options the reading does read alone", async () => {
+    const table = "pid,ppid,name\n1,,Rosa\n2,1,Arjun\n";
+    const result = await cli(["-", "--input-format", "csv", "--id-field", "pid", "--parent-field", "ppid"], {
+      stdin: table,
+    });
+    expect(result.stderr).toBe("");
+    expect(result.code).toBe(0);
+  });
+});
