@@ -54,7 +54,7 @@ export { renderDiffMarkdown } from "./render/diff-markdown.js";
 export { DIFF_FORMAT, type DiffSummary, diffSchema } from "./render/diff-schema.js";
 export { type DiffTextOptions, renderDiffText } from "./render/diff-text.js";
 export { formatSize, type Units } from "./render/format-size.js";
-export { type HeaderOptions, type HeaderStyle, summaryHeader } from "./render/header.js";
+export { type HeaderOptions, type HeaderStyle, summaryHeader, summaryHeaderLines } from "./render/header.js";
 export { renderSvg, type SvgOptions } from "./render/icicle-svg.js";
 export { type LineGroup, lineGroups } from "./render/line-groups.js";
 export { type LayoutOptions, type LineParts, layoutLine, MIN_WIDTH } from "./render/line-layout.js";

@@ -1,5 +1,5 @@
 import { totalChanges } from "../diff/changes.js";
-import { diffTrees } from "../diff/diff-trees.js";
+import { type DiffOptions, prepareDiff, summarizeDiff } from "../diff/diff-trees.js";
 import { defaultComparedFields } from "../diff/field-edits.js";
 import type { CommandOutput } from "./command-output.js";
 import { EXIT } from "./exit-codes.js";
@@ -7,7 +7,7 @@ import { loadVersions, pseudonymKey, readFoci, unmatchedWarning } from "./input.
 import type { CliIO } from "./io.js";
 import type { DiffCliOptions } from "./options.js";
 import { defaultBudget, headerLinesFor, outputSettings } from "./output-settings.js";
-import { diffRenderers } from "./renderers.js";
+import { diffHeaderRows, diffRenderers } from "./renderers.js";
 
 /** Reads, compares and renders two versions; returns the text to print and the exit code. */
 export async function diffCommand(
@@ -19,7 +19,10 @@ export async function diffCommand(
   const foci = await readFoci(io, opts, [oldInput, newInput]);
   const key = pseudonymKey(opts, io);
   const [oldTree, newTree] = await loadVersions(io, oldInput, newInput, opts);
-  const result = diffTrees(oldTree, newTree, {
+  const prepared = prepareDiff(oldTree, newTree, {
+    compareFields: opts.compareField.length > 0 ? opts.compareField : defaultComparedFields(oldTree, newTree),
+  });
+  const options: DiffOptions = {
     foci,
     budget: opts.budget ?? defaultBudget(io),
     importance: opts.importance,
@@ -28,16 +31,19 @@ export async function diffCommand(
     chains: opts.chains,
     headerLines: headerLinesFor(opts, "diff", io),
     siblingOrder: opts.siblingOrder,
-    compareFields: opts.compareField.length > 0 ? opts.compareField : defaultComparedFields(oldTree, newTree),
     unmatchedFoci: opts.unmatchedFoci,
-  });
+  };
+  const first = summarizeDiff(prepared, options);
+  const { tree } = first.combined;
+  const settings = outputSettings(opts, io, tree, [oldTree, newTree]);
+  // A header wider than the line wraps, and the budget counts its lines: fit again with them counted.
+  const extra = diffHeaderRows(first, settings, tree) - 1;
+  const result =
+    extra > 0
+      ? summarizeDiff(prepared, { ...options, headerLines: (options.headerLines ?? 1) + extra })
+      : first;
   if (result.unmatchedFoci.length > 0) io.stderr.write(unmatchedWarning(result.unmatchedFoci));
-  const { tree } = result.combined;
-  const text = await diffRenderers[opts.format](
-    result,
-    outputSettings(opts, io, tree, [oldTree, newTree]),
-    tree,
-  );
+  const text = await diffRenderers[opts.format](result, settings, tree);
   const differ = totalChanges(result.totals.changes) > 0;
   return { text, exitCode: opts.failOnChange && differ ? EXIT.differences : EXIT.ok };
 }

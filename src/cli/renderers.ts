@@ -2,7 +2,15 @@ import type { HierarchyNode } from "d3-hierarchy";
 import type { DiffResult } from "../diff/diff-trees.js";
 import type { Tree } from "../model/tree.js";
 import type { DiffTextOptions } from "../render/diff-text.js";
-import { diffHeader, fociOf, type HeaderOptions, summaryHeader } from "../render/header.js";
+import {
+  diffHeader,
+  diffHeaderLines,
+  fociOf,
+  type HeaderOptions,
+  summaryHeader,
+  summaryHeaderLines,
+} from "../render/header.js";
+import { MIN_WIDTH } from "../render/line-layout.js";
 import { renderText } from "../render/summary-text.js";
 import type { SummaryResult } from "../summarize.js";
 import type { ViewNode } from "../view/view-node.js";
@@ -99,6 +107,34 @@ export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
     });
   },
 };
+
+/**
+ * Lines the text header of a summary takes at the run's width, had the fit used the whole budget (the
+ * most it can take; see `wrapHeader`); 0 with --bare. Every format's fit counts them, as it counts the
+ * legend, so every format shows the same nodes.
+ */
+export function summaryHeaderRows(result: SummaryResult, s: OutputSettings, tree: Tree): number {
+  const header = headerOf(result, s);
+  if (!header) return 0;
+  if (tooNarrow(s)) return 1;
+  const numbers = { units: s.units, sizes: tree.hasSizes, share: s.share };
+  return summaryHeaderLines(result.view.data, { ...header, lines: s.budget }, numbers, s.width).length;
+}
+
+/** The same for a diff's header (see {@link summaryHeaderRows}). */
+export function diffHeaderRows(result: DiffResult, s: OutputSettings, tree: Tree): number {
+  const header = headerOf(result, s);
+  if (!header) return 0;
+  if (tooNarrow(s)) return 1;
+  const numbers = { units: s.units, sizes: tree.hasSizes, share: s.share };
+  return diffHeaderLines(result.totals, result.combined.by, { ...header, lines: s.budget }, numbers, s.width)
+    .length;
+}
+
+/** A width the text renderer refuses (USAGE, see `checkWidth`): no wrapping is counted for it. */
+function tooNarrow(s: OutputSettings): boolean {
+  return s.width !== undefined && !(s.width >= MIN_WIDTH);
+}
 
 /** The line options of a diff's text and Markdown (Markdown takes no colour and no width). */
 function diffLines(result: DiffResult, s: OutputSettings, sizes: boolean): DiffTextOptions {

@@ -1,6 +1,6 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { diffOrder } from "../diff/diff-order.js";
-import { DIFF_HEADER_LINES, summarizeDiff } from "../diff/diff-trees.js";
+import { DIFF_HEADER_LINES, type DiffResult, summarizeDiff } from "../diff/diff-trees.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
 import type { PreparedDiff } from "../diff/prepared-diff.js";
 import type { Selection } from "../fit/select.js";
@@ -12,7 +12,7 @@ import { printedNames } from "../model/printed-names.js";
 import type { Tree } from "../model/tree.js";
 import { diffLineParts } from "../render/diff-line-parts.js";
 import type { Units } from "../render/format-size.js";
-import { diffHeader } from "../render/header.js";
+import { diffHeaderLines } from "../render/header.js";
 import { lineGroups } from "../render/line-groups.js";
 import { layoutLine } from "../render/line-layout.js";
 import { lineParts } from "../render/line-parts.js";
@@ -114,23 +114,30 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
     landmarks: Int32Array.from(changed),
     headerLines: DIFF_HEADER_LINES,
     fit: remember((foci, budget, importance, width) => {
-      const result = summarizeDiff(prepared, fitOptions(index, look, foci, budget, importance));
-      // The totals line, then the diff's lines through the shared line layout, as `espalier diff` prints.
+      const options = fitOptions(index, look, foci, budget, importance);
       const numbers = { units: look.units, sizes: tree.hasSizes };
-      const lineOf = lineGroups(result.view, look.chains);
-      const lines = [
-        diffHeader(
+      const head = (result: DiffResult, lines: number) =>
+        diffHeaderLines(
           result.totals,
           combined.by,
-          { budget, lines: result.selection.lines, foci: result.fociPaths },
+          { budget, lines, foci: result.fociPaths },
           numbers,
           width,
-        ),
+        );
+      // The totals header wraps at the width as `espalier diff` prints it, and the fit counts its lines.
+      let result = summarizeDiff(prepared, { ...options, headerLines: DIFF_HEADER_LINES });
+      const rows = head(result, budget).length;
+      if (rows > DIFF_HEADER_LINES) result = summarizeDiff(prepared, { ...options, headerLines: rows });
+      const header = head(result, result.selection.lines);
+      // The header, then the diff's lines through the shared line layout, as `espalier diff` prints.
+      const lineOf = lineGroups(result.view, look.chains);
+      const lines = [
+        ...header,
         ...lineOf.map((g) => layoutLine(diffLineParts(g, numbers), { width, palette: look.palette })),
       ];
-      const groups = [[], ...lineOf.map((g) => g.nodes.map((n) => n.index))];
+      const groups = [...header.map(() => []), ...lineOf.map((g) => g.nodes.map((n) => n.index))];
       const order = diffOrder(tree, measures, result.scores, changeMeasures);
-      return fitted(lines, groups, result.selection, order, DIFF_HEADER_LINES, result.view);
+      return fitted(lines, groups, result.selection, order, header.length, result.view);
     }),
   };
 }

@@ -3,7 +3,7 @@ import type { DiffViewNode } from "../diff/diff-view.js";
 import type { DiffTotals } from "../diff/prepared-diff.js";
 import type { NumberOptions } from "./amount.js";
 import { diffLineParts } from "./diff-line-parts.js";
-import { diffHeader, type HeaderOptions } from "./header.js";
+import { diffHeaderLines, type HeaderOptions } from "./header.js";
 import { lineGroups } from "./line-groups.js";
 import { layoutLine } from "./line-layout.js";
 import type { Palette } from "./palette.js";
@@ -39,7 +39,7 @@ export function renderDiffText(
   checkWidth(options.width);
   const lines = headLines(
     options,
-    (w) => diffHeader(totals, options.by, options.header!, options, w),
+    (w) => diffHeaderLines(totals, options.by, options.header!, options, w),
     "diff",
   );
   for (const group of lineGroups(view, options.chains ?? false))

@@ -8,6 +8,7 @@ import { displayWidth, shortenEnd } from "./display-width.js";
 import { formatSize } from "./format-size.js";
 import { markdownText } from "./markdown-escape.js";
 import { codeSpan } from "./markdown-line.js";
+import { wrapWords } from "./wrap-words.js";
 
 /** How the header's own words and the input's names are written: plain text, or Markdown. */
 export interface HeaderStyle {
@@ -67,17 +68,37 @@ export function summaryHeader(
   width?: number,
   style: HeaderStyle = plainStyle,
 ): string {
+  return fitHeader(summaryParts(root, header, options, style), header, width, style);
+}
+
+/**
+ * The summary's header as text prints it within `width`: one line when it fits (the list of foci
+ * shortened first), else wrapped at its `; ` clauses (see {@link wrapHeader}); never cut short of a number.
+ */
+export function summaryHeaderLines(
+  root: { nodes: number; size: number; emptyBelow?: number },
+  header: HeaderOptions,
+  options: NumberOptions,
+  width?: number,
+): string[] {
+  return wrapHeader(summaryParts(root, header, options, plainStyle), header, width);
+}
+
+/** The summary header's clauses (joined by `; `), naming at most `fociShown` foci. */
+function summaryParts(
+  root: { nodes: number; size: number; emptyBelow?: number },
+  header: HeaderOptions,
+  options: NumberOptions,
+  style: HeaderStyle,
+): HeaderParts {
   const w = style.words;
   let totals = w(`summary: ${formatCount(root.nodes)} ${root.nodes === 1 ? "node" : "nodes"}`);
   // Entries that are empty objects (`{}`) count as nodes: the header says how many of them there are.
   if (root.emptyBelow) totals += w(` (${formatCount(root.emptyBelow)} of them empty {})`);
   if (options.sizes)
     totals += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(root.size, options.units)}`)}`;
-  const read = readingText(header, style);
-  return fitHeader(
-    (k) => `${totals}${read}${w("; ")}${fociText(header, k, style)}${w(`; ${used(header)}`)}`,
-    width,
-  );
+  const read = readingParts(header, style);
+  return (k, h) => [totals, ...read, fociText(header, k, style), w(used(h))];
 }
 
 /**
@@ -93,29 +114,46 @@ export function diffHeader(
   width?: number,
   style: HeaderStyle = plainStyle,
 ): string {
+  return fitHeader(diffParts(totals, by, header, options, style), header, width, style);
+}
+
+/** The diff's header as text prints it within `width` (see {@link summaryHeaderLines}). */
+export function diffHeaderLines(
+  totals: DiffTotals,
+  by: "id" | "path",
+  header: HeaderOptions,
+  options: NumberOptions,
+  width?: number,
+): string[] {
+  return wrapHeader(diffParts(totals, by, header, options, plainStyle), header, width);
+}
+
+/** The diff header's clauses (joined by `; `), naming at most `fociShown` foci. */
+function diffParts(
+  totals: DiffTotals,
+  by: "id" | "path",
+  header: HeaderOptions,
+  options: NumberOptions,
+  style: HeaderStyle,
+): HeaderParts {
   const w = style.words;
   // A diff of graphs counts edges linked and unlinked too; a diff of trees has none to count.
   const kinds = (totals.graph ? changeKinds : treeChangeKinds)
     .map((k) => `${formatCount(totals.changes[k])} ${k}`)
     .join(", ");
-  let head = w(
-    `diff by ${by}: ${kinds}; ${formatCount(totals.old.nodes)} -> ${formatCount(totals.new.nodes)} nodes`,
-  );
+  let counts = w(`${formatCount(totals.old.nodes)} -> ${formatCount(totals.new.nodes)} nodes`);
   // Entries that are empty objects (`{}`) count as nodes: how many of each version's are such.
   if (totals.old.empty || totals.new.empty)
-    head += w(
+    counts += w(
       ` (${formatCount(totals.old.empty ?? 0)} -> ${formatCount(totals.new.empty ?? 0)} of them empty {})`,
     );
   if (options.sizes) {
     const { units } = options;
     const net = totals.delta < 0 ? formatSize(totals.delta, units) : `+${formatSize(totals.delta, units)}`;
-    head += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(totals.old.size, units)} -> ${formatSize(totals.new.size, units)} (net ${net})`)}`;
+    counts += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(totals.old.size, units)} -> ${formatSize(totals.new.size, units)} (net ${net})`)}`;
   }
-  const read = readingText(header, style);
-  return fitHeader(
-    (k) => `${head}${read}${w("; ")}${fociText(header, k, style)}${w(`; ${used(header)}`)}`,
-    width,
-  );
+  const read = readingParts(header, style);
+  return (k, h) => [w(`diff by ${by}: ${kinds}`), counts, ...read, fociText(header, k, style), w(used(h))];
 }
 
 /** The header's text for Markdown: its own words escaped, the input's names as code spans. */
@@ -129,30 +167,30 @@ function sizeWord(header: HeaderOptions, style: HeaderStyle): string {
 }
 
 /**
- * `; children under dependencies`, `; paths from packages` (`; paths from keys` for the top level),
- * `; every value a node`, `; folder sizes read as totals with contents`; empty when the options chose the
- * reading.
+ * `children under dependencies`, `paths from packages` (`paths from keys` for the top level),
+ * `every value a node`, `folder sizes read as totals with contents`, `3 short rows filled`: the
+ * header's clauses on how the input was read; none when the options chose the reading.
  */
-function readingText(header: HeaderOptions, style: HeaderStyle): string {
-  return choiceText(header, style) + filledText(header, style);
+function readingParts(header: HeaderOptions, style: HeaderStyle): string[] {
+  return [choiceText(header, style), filledText(header, style)].filter((part) => part !== "");
 }
 
-/** `; 3 short rows filled` (a diff: `; 3 -> 0 short rows filled`); empty when none was. */
+/** `3 short rows filled` (a diff: `3 -> 0 short rows filled`); empty when none was. */
 function filledText({ filledRows }: HeaderOptions, style: HeaderStyle): string {
   if (!filledRows || !filledRows.some((n) => n > 0)) return "";
   const last = filledRows[filledRows.length - 1];
   const counts = filledRows.map((n) => formatCount(n)).join(" -> ");
-  return style.words(`; ${counts} short ${filledRows.length === 1 && last === 1 ? "row" : "rows"} filled`);
+  return style.words(`${counts} short ${filledRows.length === 1 && last === 1 ? "row" : "rows"} filled`);
 }
 
 function choiceText({ reading }: HeaderOptions, style: HeaderStyle): string {
   const w = style.words;
   if (reading === undefined) return "";
-  if (reading.kind === "values") return w("; every value a node");
-  if (reading.kind === "folder-totals") return w("; folder sizes read as totals with contents");
+  if (reading.kind === "values") return w("every value a node");
+  if (reading.kind === "folder-totals") return w("folder sizes read as totals with contents");
   const field = style.name(safeText(reading.field, 40));
-  if (reading.kind === "children") return `${w("; children under ")}${field}`;
-  return reading.field === "" ? w("; paths from keys") : `${w("; paths from ")}${field}`;
+  if (reading.kind === "children") return `${w("children under ")}${field}`;
+  return reading.field === "" ? w("paths from keys") : `${w("paths from ")}${field}`;
 }
 
 function used(header: HeaderOptions): string {
@@ -176,10 +214,72 @@ function fociText(header: HeaderOptions, shown: number, style: HeaderStyle): str
   return `${w(foci.length === 1 ? "focus " : "foci ")}${named.join(w(", "))}${rest > 0 ? w(` and ${formatCount(rest)} more`) : ""}${skipped}`;
 }
 
-function fitHeader(text: (fociShown: number) => string, width?: number): string {
+/**
+ * A header's clauses, naming at most `fociShown` foci and saying `header.lines` of the budget used
+ * (the lines asked for are passed apart, so the wrapping can be decided for the most lines there can be).
+ */
+type HeaderParts = (fociShown: number, header: HeaderOptions) => string[];
+
+/** One line within `width`: the list of foci shortens first, then the end is cut (the interactive view's). */
+function fitHeader(
+  parts: HeaderParts,
+  header: HeaderOptions,
+  width: number | undefined,
+  style: HeaderStyle,
+): string {
+  const text = (k: number) => parts(k, header).join(style.words("; "));
   if (width === undefined) return text(FOCI_SHOWN);
   for (let k = FOCI_SHOWN; k >= 1; k--) if (displayWidth(text(k)) <= width) return text(k);
   return shortenEnd(text(1), width);
+}
+
+/** How a wrapped header's lines after the first start. */
+const HEADER_INDENT = "  ";
+
+/**
+ * The header within `width` as printed lines: one line when it fits with some foci named (three, two,
+ * then one); else the one-focus text wrapped, whole `; ` clauses to a line where they fit, a clause
+ * longer than a line broken at its spaces (a word longer than a line cut at its end). Where the lines
+ * break is decided as if the whole budget were used, so a header counted before the fit (see
+ * `headerLinesFor`) takes no more lines once the fit says how many it used.
+ */
+export function wrapHeader(parts: HeaderParts, header: HeaderOptions, width: number | undefined): string[] {
+  const text = (k: number) => parts(k, header).join("; ");
+  if (width === undefined) return [text(FOCI_SHOWN)];
+  for (let k = FOCI_SHOWN; k >= 1; k--) if (displayWidth(text(k)) <= width) return [text(k)];
+  const widest = parts(1, { ...header, lines: header.budget });
+  const lines = packClauses(widest, width);
+  const last = widest[widest.length - 1];
+  const actual = parts(1, header);
+  const end = lines.length - 1;
+  if (!lines[end].endsWith(last)) return packClauses(actual, width);
+  lines[end] = lines[end].slice(0, lines[end].length - last.length) + actual[actual.length - 1];
+  return lines;
+}
+
+/** Clauses `; `-joined into lines of at most `width` columns (see {@link wrapHeader}). */
+function packClauses(clauses: readonly string[], width: number): string[] {
+  const lines: string[] = [];
+  let line = "";
+  const fits = (s: string) => displayWidth(s) <= width;
+  clauses.forEach((clause, i) => {
+    const piece = i < clauses.length - 1 ? `${clause};` : clause;
+    if (line !== "" && fits(`${line} ${piece}`)) line = `${line} ${piece}`;
+    else {
+      if (line !== "") lines.push(line);
+      const start = lines.length === 0 ? "" : HEADER_INDENT;
+      if (fits(start + piece)) line = start + piece;
+      else {
+        const broken = wrapWords(piece, width - displayWidth(HEADER_INDENT)).map((l, j) =>
+          j === 0 ? start + l : HEADER_INDENT + l,
+        );
+        line = broken.pop()!;
+        lines.push(...broken);
+      }
+    }
+  });
+  lines.push(line);
+  return lines;
 }
 
 /** The foci of a view as the header prints them: a row id where rows have ids, else the path. */

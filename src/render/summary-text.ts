@@ -2,7 +2,7 @@ import type { HierarchyNode } from "d3-hierarchy";
 import { EspalierError } from "../errors.js";
 import type { ViewNode } from "../view/view-node.js";
 import type { NumberOptions } from "./amount.js";
-import { type HeaderOptions, summaryHeader } from "./header.js";
+import { type HeaderOptions, summaryHeaderLines } from "./header.js";
 import { lineGroups } from "./line-groups.js";
 import { layoutLine, MIN_WIDTH } from "./line-layout.js";
 import { lineParts } from "./line-parts.js";
@@ -30,20 +30,24 @@ export interface TextOptions extends NumberOptions {
  */
 export function renderText(view: HierarchyNode<ViewNode>, options: TextOptions): string {
   checkWidth(options.width);
-  const lines = headLines(options, (w) => summaryHeader(view.data, options.header!, options, w), "summary");
+  const lines = headLines(
+    options,
+    (w) => summaryHeaderLines(view.data, options.header!, options, w),
+    "summary",
+  );
   for (const group of lineGroups(view, options.chains ?? false))
     lines.push(layoutLine(lineParts(group, options), options));
   return `${lines.join("\n")}\n`;
 }
 
-/** The header line a text rendering starts with, cut to the width, then the legend wrapped to it. */
+/** The header a text rendering starts with, wrapped to the width, then the legend wrapped to it. */
 export function headLines(
   options: { header?: HeaderOptions; legend?: boolean; width?: number; palette?: Palette },
-  header: (width?: number) => string,
+  header: (width?: number) => string[],
   kind: "summary" | "diff",
 ): string[] {
   const quiet = options.palette?.quiet ?? ((s: string) => s);
-  const lines = options.header ? [quiet(header(options.width))] : [];
+  const lines = options.header ? header(options.width).map(quiet) : [];
   if (options.legend) for (const line of legendLines(kind, options.width)) lines.push(quiet(line));
   return lines;
 }

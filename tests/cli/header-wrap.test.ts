@@ -1,0 +1,65 @@
+import { readFileSync } from "node:fs";
+import { describe, expect, it } from "vitest";
+import { displayWidth } from "../../src/render/display-width.js";
+import { cli } from "../helpers/cli.js";
+
+// A header wider than --width (a diff's counts of every kind, both versions' totals, the foci) used to
+// be cut at the width, so an 80-column terminal lost the node counts and the lines used. It now wraps
+// at its `; ` clauses, and the budget counts its lines in every format.
+const files = readFileSync("fixtures/tidewater-files.paths", "utf8");
+const edited = files
+  .split("\n")
+  .filter((line) => !line.includes("services/ledger/test"))
+  .join("\n");
+
+/** The lines before the tree: the header (the root's line is the first starting with a mark). */
+function split(stdout: string): { header: string[]; tree: string[] } {
+  const lines = stdout.trimEnd().split("\n");
+  const root = lines.findIndex((line) => /^[.*:&] /.test(line));
+  return { header: lines.slice(0, root), tree: lines.slice(root) };
+}
+
+describe("a header wider than --width", () => {
+  it.each([30, 44, 61, 80, 100])(
+    "wraps at %i columns, whole, and the budget counts its lines",
+    async (width) => {
+      const args = [
+        "diff",
+        "fixtures/tidewater-files.paths",
+        "-",
+        "--budget",
+        "14",
+        "--focus",
+        "services/ledger",
+      ];
+      const wide = await cli(args, { stdin: edited });
+      expect(wide.code).toBe(0);
+      const [full] = split(wide.stdout).header;
+      const narrow = await cli([...args, "--width", String(width)], { stdin: edited });
+      expect(narrow.stderr).toBe("");
+      const { header, tree } = split(narrow.stdout);
+      for (const line of [...header, ...tree]) expect(displayWidth(line)).toBeLessThanOrEqual(width);
+      // Nothing of the header is lost: its lines, joined again, are the unwrapped header but for the
+      // lines used (fewer tree lines fit when the header takes more).
+      const used = /(\d+) of 14 lines$/;
+      const joined = header.map((line, k) => (k === 0 ? line : line.trimStart())).join(" ");
+      expect(joined.replace(used, "")).toBe(full.replace(used, ""));
+      const [, lines] = joined.match(used)!;
+      expect(Number(lines)).toBe(header.length + tree.length);
+      expect(header.length + tree.length).toBeLessThanOrEqual(14);
+      if (displayWidth(full) > width) expect(header.length).toBeGreaterThan(1);
+      // JSON at the same width shows the same nodes: its fit counted the same header lines.
+      const json = await cli([...args, "--width", String(width), "--format", "json"], { stdin: edited });
+      expect(JSON.parse(json.stdout).lines).toBe(Number(lines));
+    },
+  );
+
+  it("keeps the foci short first: one line when naming fewer foci makes it fit", async () => {
+    const foci = ["docs", "services/ledger", "services"].flatMap((f) => ["--focus", f]);
+    const r = await cli(["fixtures/tidewater-files.paths", ...foci, "--budget", "20", "--width", "78"]);
+    expect(r.code).toBe(0);
+    const { header } = split(r.stdout);
+    expect(header).toHaveLength(1);
+    expect(header[0]).toMatch(/and 2 more; \d+ of 20 lines$/);
+  });
+});
