@@ -19,7 +19,7 @@ import { createHash } from "node:crypto";
 import { createReadStream, existsSync, statSync, writeFileSync } from "node:fs";
 import { open, readFile } from "node:fs/promises";
 import { Session } from "node:inspector/promises";
-import { totalmem } from "node:os";
+import { availableParallelism, loadavg, totalmem } from "node:os";
 import { getHeapStatistics } from "node:v8";
 import { makeRng } from "./generate.js";
 
@@ -32,6 +32,11 @@ export const LOADER_CSV_OPTIONS = { delimiter: ",", quote: '"', skip_empty_lines
 
 const job = JSON.parse(process.argv[2]);
 const now = () => performance.now();
+/** Processor time (user + system, every thread of this process) since `from`, in ms. */
+const cpuMs = (from) => {
+  const used = process.cpuUsage(from);
+  return (used.user + used.system) / 1000;
+};
 const mib = (kib) => Math.round((kib / 1024) * 10) / 10;
 
 try {
@@ -170,7 +175,7 @@ async function exploreModules() {
 
 /** The CLI's modules (dist/cli), imported before the clock starts. */
 async function cliModules() {
-  const [input, settings, renderers, stream, progress, options, palette] = await Promise.all([
+  const [input, settings, renderers, stream, progress, options, palette, threads] = await Promise.all([
     import(CLI("input")),
     import(CLI("output-settings")),
     import(CLI("renderers")),
@@ -178,6 +183,7 @@ async function cliModules() {
     import(CLI("progress")),
     import(CLI("options")),
     import(new URL("../dist/render/palette.js", import.meta.url)),
+    import(CLI("load-threads")),
   ]);
   // The tree a worker sends back is rebuilt with these modules' classes, so the diff meets one NamePool
   // class, as the command line (all one bundle) does: taken from the bundle, the old tree's names were
@@ -191,6 +197,7 @@ async function cliModules() {
     ...progress,
     ...options,
     ...palette,
+    ...threads,
     loadInWorker,
   };
 }
@@ -257,14 +264,21 @@ async function full({ file, foci, budget, profile }) {
   // The validated options for those flags (every other option at its default), as src/cli/options.ts gives them.
   const opts = cli.summaryOptionsSchema.parse({ focus: foci, budget });
   const session = profile ? await startProfile() : undefined;
+  const cpu0 = process.cpuUsage();
   const t0 = now();
   const source = await cli.readInputStream(io, file);
   const chunks = cli.withProgress(source.chunks, io, cli.displayName(file), source.size);
   const tree = await api.loadTreeFromStream(chunks, cli.toLoadOptions(file, opts));
   const t1 = now();
   const done = await summaryText(api, cli, io, opts, tree);
+  const cpu = cpuMs(cpu0);
   if (session) await stopProfile(session, profile);
-  return { ms: done.end - t0, phases: { "read+load": t1 - t0, ...done.phases }, check: done.check };
+  return {
+    ms: done.end - t0,
+    cpuMs: cpu,
+    phases: { "read+load": t1 - t0, ...done.phases },
+    check: done.check,
+  };
 }
 
 /** prepare, summarize and render with the options and renderer summary-command.ts uses; times each. */
@@ -391,8 +405,9 @@ async function refocus({ file, budget, calls, seed, profile }) {
 
 /**
  * `espalier diff OLD NEW --budget N` with no other option, as cli/diff-command.ts runs it: both
- * versions streamed at once, OLD on a worker thread (loadInWorker, as bin/espalier.js provides it) and
- * NEW here as the summary loads its input (OLD under NEW's root name, so a synthetic root never shows
+ * versions streamed, at once when the command line would use two threads (a second processor idle, or
+ * ESPALIER_LOAD_THREADS=2: cli/load-threads.ts), OLD on a worker thread (loadInWorker, as
+ * bin/espalier.js provides it), else OLD then NEW here; NEW as the summary loads its input (OLD under NEW's root name, so a synthetic root never shows
  * as renamed), diffTrees with no foci, and the text rendering with NEW's sizes, the matching's name
  * and the CLI's text options.
  */
@@ -406,22 +421,30 @@ async function diff({ oldFile, newFile, budget, profile }) {
     const chunks = cli.withProgress(source.chunks, io, cli.displayName(file), source.size);
     return api.loadTreeFromStream(chunks, options);
   };
+  // Two threads only when the command line would take them (cli/load-threads.ts): a second processor idle.
+  const threads = cli.loadThreads(process.env[cli.LOAD_THREADS_ENV], {
+    cores: availableParallelism(),
+    load: loadavg()[0],
+  });
   const session = profile ? await startProfile() : undefined;
+  const cpu0 = process.cpuUsage();
   const t0 = now();
   const newOptions = cli.toLoadOptions(newFile, opts);
   const oldOptions = { ...cli.toLoadOptions(oldFile, opts), rootName: newOptions.rootName };
   let oldDone = 0;
   let newDone = 0;
-  const [oldTree, newTree] = await Promise.all([
-    cli.loadInWorker(oldFile, oldOptions).then((tree) => {
+  const loadOld = () =>
+    (threads === 2 ? cli.loadInWorker(oldFile, oldOptions) : load(oldFile, oldOptions)).then((tree) => {
       oldDone = now();
       return tree;
-    }),
+    });
+  const loadNew = () =>
     load(newFile, newOptions).then((tree) => {
       newDone = now();
       return tree;
-    }),
-  ]);
+    });
+  const [oldTree, newTree] =
+    threads === 2 ? await Promise.all([loadOld(), loadNew()]) : [await loadOld(), await loadNew()];
   const t2 = now();
   const result = api.diffTrees(oldTree, newTree, {
     foci: [],
@@ -439,9 +462,12 @@ async function diff({ oldFile, newFile, budget, profile }) {
   const { tree } = result.combined;
   const output = await cli.diffRenderers[opts.format](result, cli.outputSettings(opts, io, tree), tree);
   const t4 = now();
+  const cpu = cpuMs(cpu0);
   if (session) await stopProfile(session, profile);
   return {
     ms: t4 - t0,
+    cpuMs: cpu,
+    threads,
     phases: { "read+loadOld": oldDone - t0, "read+loadNew": newDone - t0, diff: t3 - t2, render: t4 - t3 },
     check: {
       by: result.combined.by,

@@ -736,6 +736,12 @@ function summarizeDiffRuns(runs) {
   entry.summaryMiB = median(summary.map((r) => r.maxRssMiB));
   entry.diffMiB = median(diff.map((r) => r.maxRssMiB));
   entry.timeRatio = entry.diffMs / entry.summaryMs;
+  // Processor time of the same runs (every thread): what a busy machine's wall time tends to.
+  entry.summaryCpuMs = median(summary.map((r) => r.cpuMs));
+  entry.diffCpuMs = median(diff.map((r) => r.cpuMs));
+  entry.cpuRatio = entry.diffCpuMs / entry.summaryCpuMs;
+  // Threads the diff runs loaded on (cli/load-threads.ts: two only when a second processor was idle).
+  entry.threads = [...new Set(diff.map((r) => r.threads))].sort().join("/");
   entry.memoryRatio = entry.diffMiB / entry.summaryMiB;
   entry.summaryPhases = medianPhases(summary);
   entry.diffPhases = medianPhases(diff);
@@ -995,7 +1001,7 @@ function diffReport(d) {
   const n = d.nodes.old.toLocaleString("en-US");
   lines.push(
     `diff (issue 3): ${n} -> ${d.nodes.new.toLocaleString("en-US")} nodes, ${(d.fraction * 100).toFixed(0)}% changed; ` +
-      "summary = OLD alone, no foci; diff = OLD -> NEW, no foci; ratio diff / summary",
+      "summary = OLD alone, no foci; diff = OLD -> NEW, no foci; ratio diff / summary (wall; cpu x: processor time)",
   );
   const rows = [
     [
@@ -1006,6 +1012,8 @@ function diffReport(d) {
       "diff x",
       "issue 3",
       "issue 14",
+      "cpu x",
+      "threads",
       "summary MiB",
       "diff MiB",
       "mem x",
@@ -1016,7 +1024,7 @@ function diffReport(d) {
   ];
   for (const [format, e] of Object.entries(d.formats)) {
     if (e.timeRatio === undefined) {
-      rows.push([format, "error", "", "", "", "", "", "", "", "", "", "", ""]);
+      rows.push([format, "error", "", "", "", "", "", "", "", "", "", "", "", "", ""]);
       continue;
     }
     rows.push([
@@ -1027,6 +1035,8 @@ function diffReport(d) {
       e.timeRatio.toFixed(2),
       `${passMiss(e.pass)} <=${d.target.toFixed(1)}`,
       `${passMiss(e.pass14)} <=${TARGETS.diffTime14.toFixed(1)}`,
+      e.cpuRatio.toFixed(2),
+      e.threads,
       e.summaryMiB.toFixed(0),
       e.diffMiB.toFixed(0),
       e.memoryRatio.toFixed(2),

@@ -5,7 +5,7 @@
 // node:fs's callbacks, not node:fs/promises: that module is not loaded by Node's own start, and loading
 // it would be a good part of a small run's (issue 14).
 const { fstatSync, readFile, statSync } = require("node:fs");
-const { totalmem } = require("node:os");
+const { availableParallelism, loadavg, totalmem } = require("node:os");
 const { getHeapStatistics } = require("node:v8");
 const { loadCli } = require("./load-bundle.js");
 
@@ -101,6 +101,7 @@ async function main(cli) {
     readFile: (path, bound) => (bound ? cli.readBounded(path, bound) : readWhole(path)),
     openInput: (name) => (name === "-" ? openStdin(cli) : openFile(name)),
     loadInWorker,
+    machineLoad: () => ({ cores: availableParallelism(), load: loadavg()[0] }),
     now: () => performance.now(),
     env: process.env,
   });

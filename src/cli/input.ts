@@ -7,6 +7,7 @@ import type { Tree } from "../model/tree.js";
 import { templateFields } from "../view/label.js";
 import { isFactInput, loadFactInput } from "./fact-input.js";
 import type { CliIO } from "./io.js";
+import { LOAD_THREADS_ENV, loadThreads } from "./load-threads.js";
 import { readNodeRecords } from "./node-records.js";
 import { PSEUDONYM_KEY_ENV, type SharedCliOptions } from "./options.js";
 import { withProgress } from "./progress.js";
@@ -55,7 +56,8 @@ function singleNodes(opts: SharedCliOptions): string | undefined {
 /**
  * Two versions of one hierarchy, under one root name (NEW's) so that a root espalier adds never shows
  * as renamed. OLD loads on another thread while NEW loads here when the IO can (a named file of a tree
- * format, without node records); else one after the other. An error in OLD is reported before one in
+ * format, without node records) and a second processor is idle (load-threads.ts); else one after the
+ * other. An error in OLD is reported before one in
  * NEW either way. `--nodes` given once gives both versions its node records; given twice, the first
  * is OLD's and the second NEW's.
  */
@@ -71,8 +73,10 @@ export async function loadVersions(
   const nodes = opts.nodes ?? [];
   const [oldNodes, newNodes] = nodes.length === 2 ? nodes : [nodes[0], nodes[0]];
   const rootName = rootNameOf(newInput);
-  if (!io.loadInWorker || oldInput === "-" || isFactInput(opts) || oldNodes !== undefined) {
-    // A fact table's engine uses every core itself, and node records are read here: one after the other.
+  const threads = loadThreads(io.env[LOAD_THREADS_ENV], io.machineLoad?.());
+  if (!io.loadInWorker || threads === 1 || oldInput === "-" || isFactInput(opts) || oldNodes !== undefined) {
+    // No idle processor for a second thread (see load-threads.ts); a fact table's engine uses every core
+    // itself, and node records are read here: one after the other.
     const oldTree = await loadInput(io, oldInput, opts, rootName, oldNodes);
     return [oldTree, await loadInput(io, newInput, opts, rootName, newNodes)];
   }

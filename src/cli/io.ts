@@ -1,5 +1,6 @@
 import type { LoadOptions } from "../load/load-options.js";
 import type { Tree } from "../model/tree.js";
+import type { MachineLoad } from "./load-threads.js";
 import type { ReadBound } from "./read-bounded.js";
 import type { OutputFiles } from "./write-output.js";
 
@@ -21,6 +22,11 @@ export interface CliIO {
    * it they load here, one after the other.
    */
   loadInWorker?(name: string, options: LoadOptions): Promise<Tree>;
+  /**
+   * The machine's processors and load when asked, so that a diff uses `loadInWorker` only when a second
+   * processor is idle (see load-threads.ts); without it, a diff uses `loadInWorker` whenever it is given.
+   */
+  machineLoad?(): MachineLoad;
   /** Milliseconds from some fixed point, for progress; without it, no progress is shown. */
   now?(): number;
   env: Record<string, string | undefined>;

@@ -132,6 +132,14 @@ export const inputReadingSchema = z
       .describe(
         "A CSV/TSV table read with --short-rows fill: how many short rows had their missing last fields read as empty; absent when none.",
       ),
+    documents: z
+      .number()
+      .int()
+      .min(2)
+      .optional()
+      .describe(
+        "A YAML stream of several documents read as values: how many; each is a child of the root named by its index (0, 1, ...). Absent for one document.",
+      ),
   })
   .strict()
   .describe("How the input was read.");

@@ -7,14 +7,21 @@ import { describe, expect, it } from "vitest";
 import { cli } from "../helpers/cli.js";
 
 // The launcher loads a diff's OLD version on a worker thread (dist/cli/load-in-worker.js) while NEW
-// loads on the main one; the in-process runs here load both on one thread. Same bytes in, same text out.
+// loads on the main one (forced here: by default only when a second processor is idle); the in-process
+// runs here load both on one thread. Same bytes in, same text out.
 const run = promisify(execFile);
 const BIN = new URL("../../bin/espalier.js", import.meta.url).pathname;
 
 async function launcher(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
   try {
     // Run from a fresh folder, so no .espalier.yaml of the working directory is read.
-    const { stdout, stderr } = await run(process.execPath, [BIN, ...args], { encoding: "utf8", cwd: dir });
+    // Two threads whatever the machine's load (unset, a busy machine loads both on one: load-threads.ts).
+    const env = { ...process.env, ESPALIER_LOAD_THREADS: "2" };
+    const { stdout, stderr } = await run(process.execPath, [BIN, ...args], {
+      encoding: "utf8",
+      cwd: dir,
+      env,
+    });
     return { code: 0, stdout, stderr };
   } catch (error) {
     const e = error as { code: number; stdout: string; stderr: string };
