@@ -14,16 +14,18 @@ export interface Matching {
 /**
  * Pairs the nodes of two versions: by row id when both versions have ids, otherwise by path. Matching
  * by path pairs the k-th child named X of matched parents on both sides (the `~~k` of printed paths),
- * so a node whose path changed (moved or renamed) is one node removed and another added.
+ * so a node whose path changed (moved or renamed) is one node removed and another added. `room`: the
+ * numbers of memory under each of the two arrays, when more than its length (see {@link numbers}).
  */
 export function matchTrees(
   oldTree: Tree,
   oldCount: Int32Array,
   newTree: Tree,
   newCount: Int32Array,
+  room = 0,
 ): Matching {
-  const oldToNew = new Int32Array(oldTree.length).fill(-1);
-  const newToOld = new Int32Array(newTree.length).fill(-1);
+  const oldToNew = numbers(oldTree.length, room).fill(-1);
+  const newToOld = numbers(newTree.length, room).fill(-1);
   oldToNew[0] = 0;
   newToOld[0] = 0;
   if (oldTree.ids && newTree.ids) {
@@ -32,6 +34,14 @@ export function matchTrees(
   }
   matchByPath(oldTree, oldCount, newTree, newCount, oldToNew, newToOld);
   return { by: "path", oldToNew, newToOld };
+}
+
+/**
+ * `length` numbers over memory of at least `room` numbers: pages past `length` are never touched here,
+ * so they cost nothing until a later stage is lent them (see `prepareDiff`).
+ */
+function numbers(length: number, room: number): Int32Array {
+  return new Int32Array(new ArrayBuffer(Math.max(length, room) * 4), 0, length);
 }
 
 /**
