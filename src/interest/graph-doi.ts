@@ -58,9 +58,12 @@ export function graphInterest(
   const sources = Int32Array.from(foci).sort((a, b) => apiOf(a) - apiOf(b) || a - b);
   const offsets = Float64Array.from(sources, (y) => apiOf(y));
   const queue = new Int32Array(nodes);
-  const key = offsets.every(Number.isInteger)
-    ? levelSearch(neighbours, sources, offsets, queue)
-    : mergedSearch(neighbours, sources, offsets, queue);
+  // Whole offsets small enough that every key fits a 32-bit level: the level search, its keys read
+  // through `levelKey` (UNREACHED is +Infinity); else the merged search's keys as they are.
+  const whole = offsets.every((o) => Number.isInteger(o) && Math.abs(o) <= MAX_OFFSET) && nodes <= MAX_OFFSET;
+  const levels = whole ? levelSearch(neighbours, sources, offsets, queue) : null;
+  const merged = whole ? null : mergedSearch(neighbours, sources, offsets, queue);
+  const keyOf = levels !== null ? (v: number) => levelKey(levels[v]) : (v: number) => merged![v];
 
   // Edges to the nearest focus. When every focus has the same API c, K(v) = D(v, nearest focus) + c, so
   // the distance is K(v) - c (rounded: K was summed in doubles, and the true value is a whole number).
@@ -72,9 +75,9 @@ export function graphInterest(
       ? null
       : levelSearch(neighbours, sources, new Float64Array(sources.length), queue);
   const edges = (slot: number): number => {
-    if (raw === null) return Math.round(key[nodeOf[slot]] - offset);
+    if (raw === null) return Math.round(keyOf(nodeOf[slot]) - offset);
     const d = raw[nodeOf[slot]];
-    return d === Number.POSITIVE_INFINITY ? FAR : d;
+    return d === UNREACHED ? FAR : d;
   };
 
   // Forced: the root, the foci and the ancestors of their full entries.
@@ -122,7 +125,7 @@ export function graphInterest(
   return {
     forcedNodes: Int32Array.from(forcedNodes).sort(),
     interestOf(x) {
-      const v = apiOf(x) - key[nodeOf[x]];
+      const v = apiOf(x) - keyOf(nodeOf[x]);
       return ranked[x] !== 0 && v < 0 ? 0 : v;
     },
     distanceOf,
@@ -131,9 +134,19 @@ export function graphInterest(
   };
 }
 
+/** A level no source reaches, in {@link levelSearch}'s levels. */
+const UNREACHED = 0x7fffffff;
+/** The largest offset (and node count) for which every level fits below UNREACHED. */
+const MAX_OFFSET = 2 ** 29;
+
+/** A key of {@link levelSearch}'s levels as a number (+Infinity where no source reaches). */
+function levelKey(level: number): number {
+  return level === UNREACHED ? Number.POSITIVE_INFINITY : level;
+}
+
 /**
- * The least of (offset of a source + edges from it) for every node, +Infinity where no source
- * reaches: a breadth-first search from all the sources (slots of full entries, sorted by offset),
+ * The least of (offset of a source + edges from it) for every node, UNREACHED where no source
+ * reaches, as 32-bit levels (the offsets and node count are at most MAX_OFFSET, so every level fits): a breadth-first search from all the sources (slots of full entries, sorted by offset),
  * each entering when the search reaches its offset, which must be a whole number. Level by level: a
  * level whose frontier has more edges than a fourteenth of those of the nodes not yet reached is found
  * the other way round, every node not reached looking for a neighbour in the frontier and stopping at
@@ -147,9 +160,9 @@ function levelSearch(
   sources: Int32Array,
   offsets: Float64Array,
   queue: Int32Array,
-): Float64Array {
+): Int32Array {
   const { nodes, nodeOf, downStart, down, upStart, up } = neighbours;
-  const level = new Float64Array(nodes).fill(Number.POSITIVE_INFINITY);
+  const level = new Int32Array(nodes).fill(UNREACHED);
   // One bit per node: reached (at any level so far), and in the frontier (a bottom-up level's only).
   const words = (nodes + 31) >>> 5;
   const reached = new Int32Array(words);

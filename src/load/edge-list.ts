@@ -1,8 +1,9 @@
 import { Buffer } from "node:buffer";
 import { EspalierError } from "../errors.js";
-import { doubled, hashBytes, hashStep, mix } from "../model/child-hash.js";
+import { doubled } from "../model/child-hash.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import { NamePool } from "../model/names.js";
+import { firstBelow, idHash, sameBytes } from "./id-hash.js";
 import type { LoadOptions } from "./load-options.js";
 import { limitExceeded } from "./node-sink.js";
 
@@ -15,8 +16,11 @@ const ID_SEED = 0x811c9dc5;
 const LONGEST_IDS = 2 ** 32 - 1;
 /** Usual lines parsed before their ids are looked up together (see EdgeListReader.enterPending). */
 const BATCH = 256;
-/** Numbers kept per pending line: parent start, end, hash; child start, end, hash; line number. */
-const PENDING = 7;
+/**
+ * Numbers kept per pending line: parent start, end, hash; child start, end, hash; line number; 1 when
+ * the parent is that of the line before.
+ */
+const PENDING = 8;
 
 /**
  * An edge list read from bytes: one `parent child` pair per line. The first non-blank line decides the
@@ -30,6 +34,7 @@ export class EdgeListReader {
   // Ids as UTF-8 bytes, one after the other in order of first appearance (node i's are
   // idBytes[idStart[i], idStart[i] + idSize[i])); the name pool adopts them at the end.
   private idBytes: Buffer = Buffer.allocUnsafe(1 << 16);
+  private idView = viewOf(this.idBytes);
   private used = 0;
   private idStart: Uint32Array<ArrayBuffer> = new Uint32Array(1 << 11);
   private idSize: Uint32Array<ArrayBuffer> = new Uint32Array(1 << 11);
@@ -52,6 +57,10 @@ export class EdgeListReader {
   private pending = new Int32Array(BATCH * PENDING);
   private pendingCount = 0;
   private touched = 0;
+  // The parent id of the usual line before in the buffer being read (start -1: none), and its hash.
+  private prevStart = -1;
+  private prevEnd = 0;
+  private prevHash = 0;
 
   // Lines and their bytes at the end of the last call of lines() (for the edge arrays, see moreEdges).
   private linesDone = 0;
@@ -62,57 +71,68 @@ export class EdgeListReader {
   /** Reads the whole lines in `buf[s, e)` (the last may lack its "\n" only at the end of the input). */
   lines(buf: Uint8Array, s: number, e: number): void {
     let at = s;
+    this.prevStart = -1;
+    const view = viewOf(buf);
     while (at < e) {
       if (this.tabs !== undefined) {
-        const next = this.usualLine(buf, at, e);
+        const next = this.usualLine(buf, view, at, e);
         if (next !== -1) {
           at = next;
           continue;
         }
       }
-      if (this.pendingCount > 0) this.enterPending(buf);
+      if (this.pendingCount > 0) this.enterPending(buf, view);
       let end = buf.indexOf(LF, at);
       if (end === -1 || end >= e) end = e;
       this.line++;
-      this.readLine(buf, at, end > at && buf[end - 1] === CR ? end - 1 : end);
+      this.prevStart = -1;
+      this.readLine(buf, view, at, end > at && buf[end - 1] === CR ? end - 1 : end);
       at = end + 1;
     }
-    if (this.pendingCount > 0) this.enterPending(buf);
+    if (this.pendingCount > 0) this.enterPending(buf, view);
     this.linesDone = this.line;
     this.bytesDone += e - s;
   }
 
   /**
-   * A line in the usual shape, read in one pass that hashes each id as it finds its end: an id, the
-   * separator (with spaces: a run of spaces; with tabs: one tab), an id, then "\n" or the end of the
-   * range. Returns where the next line starts, or -1, having changed nothing, for any other line
-   * (blank, one id, three, a CR, a tab among spaces, a control byte), which {@link readLine} reads.
-   * The edge is entered with the rest of its batch ({@link enterPending}).
+   * A line in the usual shape: an id, the separator (with spaces: a run of spaces; with tabs: one
+   * tab), an id, then "\n" or the end of the range. Returns where the next line starts, or -1, having
+   * changed nothing, for any other line (blank, one id, three, a CR, a tab among spaces, a control
+   * byte), which {@link readLine} reads. The ids' ends are found and the ids hashed four bytes at a
+   * time (id-hash.ts); the edge is entered with the rest of its batch ({@link enterPending}).
    */
-  private usualLine(buf: Uint8Array, s: number, e: number): number {
+  private usualLine(buf: Uint8Array, view: DataView, s: number, e: number): number {
     let k = s;
-    let hp = ID_SEED;
-    let hc = ID_SEED;
     let pe: number;
     let cs: number;
     if (this.tabs) {
       // A line of spaces and tabs only is blank: a first id starting with a space goes the long way.
       if (buf[k] === SPACE) return -1;
-      for (let c = buf[k]; k < e && c !== TAB && c !== LF && c !== CR; c = buf[++k]) hp = hashStep(hp, c);
+      k = tabIdEnd(view, k, e);
       pe = k;
       if (pe === s || k === e || buf[k] !== TAB) return -1;
       cs = ++k;
-      for (let c = buf[k]; k < e && c !== TAB && c !== LF && c !== CR; c = buf[++k]) hc = hashStep(hc, c);
+      k = tabIdEnd(view, k, e);
     } else {
-      for (let c = buf[k]; k < e && c > SPACE; c = buf[++k]) hp = hashStep(hp, c);
+      k = firstBelow(view, k, e, SPACE + 1);
       pe = k;
       if (pe === s || k === e || buf[k] !== SPACE) return -1;
       while (++k < e && buf[k] === SPACE);
       cs = k;
-      for (let c = buf[k]; k < e && c > SPACE; c = buf[++k]) hc = hashStep(hc, c);
+      k = firstBelow(view, k, e, SPACE + 1);
     }
     const ce = k;
     if (ce === cs || (k < e && buf[k] !== LF)) return -1;
+    // Edge lists usually list a parent's children together: the parent of the usual line just before
+    // (entered just before this one) is found by comparing bytes in the buffer, not hashed again.
+    const before = this.prevStart;
+    const same =
+      before !== -1 && this.prevEnd - before === pe - s && sameBytes(view, before, view, s, pe - s);
+    const hp = same ? this.prevHash : idHash(view, s, pe, ID_SEED);
+    this.prevStart = s;
+    this.prevEnd = pe;
+    this.prevHash = hp;
+    const hc = idHash(view, cs, ce, ID_SEED);
     this.line++;
     const q = PENDING * this.pendingCount++;
     const pending = this.pending;
@@ -123,7 +143,8 @@ export class EdgeListReader {
     pending[q + 4] = ce;
     pending[q + 5] = hc;
     pending[q + 6] = this.line;
-    if (this.pendingCount === BATCH) this.enterPending(buf);
+    pending[q + 7] = same ? 1 : 0;
+    if (this.pendingCount === BATCH) this.enterPending(buf, view);
     return k + 1;
   }
 
@@ -135,25 +156,22 @@ export class EdgeListReader {
    * miss for its place and one for its bytes). The lookups that follow then find both in the cache.
    * The touches decide nothing: the lookups are the usual ones.
    */
-  private enterPending(buf: Uint8Array): void {
+  private enterPending(buf: Uint8Array, view: DataView): void {
     const pending = this.pending;
     const count = this.pendingCount;
     this.pendingCount = 0;
     const table = this.table;
     const mask = (table.length >> 2) - 1;
     let touched = 0;
-    for (let i = 0, hp = this.lastHash; i < count; i++) {
+    for (let i = 0; i < count; i++) {
       const q = PENDING * i;
-      if (pending[q + 2] !== hp) {
-        hp = pending[q + 2];
-        touched += table[4 * (mix(hp) & mask)];
-      }
-      touched += table[4 * (mix(pending[q + 5]) & mask)];
+      if (pending[q + 7] === 0) touched += table[4 * (pending[q + 2] & mask)];
+      touched += table[4 * (pending[q + 5] & mask)];
     }
     const bytes = this.idBytes;
     for (let i = 0; i < count; i++) {
       const hash = pending[PENDING * i + 5];
-      for (let h = mix(hash) & mask; table[4 * h] !== 0; h = (h + 1) & mask) {
+      for (let h = hash & mask; table[4 * h] !== 0; h = (h + 1) & mask) {
         if (table[4 * h + 1] === hash) {
           touched += bytes[table[4 * h + 2] >>> 0];
           break;
@@ -167,18 +185,20 @@ export class EdgeListReader {
       this.line = pending[q + 6];
       this.hashedEdge(
         buf,
+        view,
         pending[q],
         pending[q + 1],
         pending[q + 2],
         pending[q + 3],
         pending[q + 4],
         pending[q + 5],
+        pending[q + 7] === 1,
       );
     }
     this.line = line;
   }
 
-  private readLine(buf: Uint8Array, s: number, e: number): void {
+  private readLine(buf: Uint8Array, view: DataView, s: number, e: number): void {
     let a = s;
     if (this.tabs === undefined) {
       let blank = true;
@@ -192,13 +212,13 @@ export class EdgeListReader {
       if (blank) return;
       const t1 = indexIn(buf, TAB, s, e);
       if (t1 === -1) {
-        this.node(buf, s, e, s);
+        this.node(buf, view, s, e, s);
         return;
       }
       const t2 = indexIn(buf, TAB, t1 + 1, e);
       if (t2 !== -1) throw this.tooMany(s, t2 + 1);
       if (t1 === s || t1 + 1 === e) throw this.emptyId(s, t1 === s ? s : t1 + 1);
-      this.edge(buf, s, t1, t1 + 1, e, s);
+      this.edge(buf, view, s, t1, t1 + 1, e);
       return;
     }
     while (a < e && (buf[a] === SPACE || buf[a] === TAB)) a++;
@@ -208,7 +228,7 @@ export class EdgeListReader {
     let c = b;
     while (c < e && (buf[c] === SPACE || buf[c] === TAB)) c++;
     if (c === e) {
-      this.node(buf, a, b, s);
+      this.node(buf, view, a, b, s);
       return;
     }
     let d = c;
@@ -216,38 +236,56 @@ export class EdgeListReader {
     let f = d;
     while (f < e && (buf[f] === SPACE || buf[f] === TAB)) f++;
     if (f < e) throw this.tooMany(s, f);
-    this.edge(buf, a, b, c, d, s);
+    this.edge(buf, view, a, b, c, d);
   }
 
-  private node(buf: Uint8Array, s: number, e: number, lineStart: number): void {
+  private node(buf: Uint8Array, view: DataView, s: number, e: number, lineStart: number): void {
     if (s === e) throw this.emptyId(lineStart, s);
-    this.idOf(buf, s, e, hashBytes(ID_SEED, buf, s, e));
+    this.idOf(buf, view, s, e, idHash(view, s, e, ID_SEED));
   }
 
-  private edge(buf: Uint8Array, ps: number, pe: number, cs: number, ce: number, _lineStart: number): void {
-    this.hashedEdge(buf, ps, pe, hashBytes(ID_SEED, buf, ps, pe), cs, ce, hashBytes(ID_SEED, buf, cs, ce));
+  private edge(buf: Uint8Array, view: DataView, ps: number, pe: number, cs: number, ce: number): void {
+    this.hashedEdge(
+      buf,
+      view,
+      ps,
+      pe,
+      idHash(view, ps, pe, ID_SEED),
+      cs,
+      ce,
+      idHash(view, cs, ce, ID_SEED),
+      false,
+    );
   }
 
-  /** The edge from id `buf[ps, pe)` (hash `hp`) to id `buf[cs, ce)` (hash `hc`). */
+  /**
+   * The edge from id `buf[ps, pe)` (hash `hp`) to id `buf[cs, ce)` (hash `hc`); `sameParent`: the
+   * parent is known to be that of the edge entered just before.
+   */
   private hashedEdge(
     buf: Uint8Array,
+    view: DataView,
     ps: number,
     pe: number,
     hp: number,
     cs: number,
     ce: number,
     hc: number,
+    sameParent: boolean,
   ): void {
     // Edge lists usually list a parent's children together: the same parent as the line before costs a
     // byte comparison, not a lookup.
     const last = this.lastParent;
     const p =
-      last !== -1 && hp === this.lastHash && this.sameId(this.idStart[last], this.idSize[last], buf, ps, pe)
+      sameParent ||
+      (last !== -1 &&
+        hp === this.lastHash &&
+        this.sameId(this.idStart[last], this.idSize[last], view, ps, pe))
         ? last
-        : this.idOf(buf, ps, pe, hp);
+        : this.idOf(buf, view, ps, pe, hp);
     this.lastParent = p;
     this.lastHash = hp;
-    const c = this.idOf(buf, cs, ce, hc);
+    const c = this.idOf(buf, view, cs, ce, hc);
     const k = this.edges;
     if (k === this.from.length) this.moreEdges();
     this.from[k] = p;
@@ -276,13 +314,13 @@ export class EdgeListReader {
     this.edgeLine = longer(this.edgeLine, length);
   }
 
-  /** The node with the id `buf[s, e)` (`hash`: FNV-1a of its bytes from ID_SEED), added on first sight. */
-  private idOf(buf: Uint8Array, s: number, e: number, hash: number): number {
+  /** The node with the id `buf[s, e)` (`hash`: its {@link idHash} from ID_SEED), added on first sight. */
+  private idOf(buf: Uint8Array, view: DataView, s: number, e: number, hash: number): number {
     const table = this.table;
     const mask = (table.length >> 2) - 1;
-    let h = mix(hash) & mask;
+    let h = hash & mask;
     for (let slot = table[4 * h]; slot !== 0; slot = table[4 * h]) {
-      if (table[4 * h + 1] === hash && this.sameId(table[4 * h + 2] >>> 0, table[4 * h + 3], buf, s, e))
+      if (table[4 * h + 1] === hash && this.sameId(table[4 * h + 2] >>> 0, table[4 * h + 3], view, s, e))
         return slot - 1;
       h = (h + 1) & mask;
     }
@@ -307,11 +345,8 @@ export class EdgeListReader {
   }
 
   /** Whether the kept id at `at` (`size` bytes) is spelled by `buf[s, e)`. */
-  private sameId(at: number, size: number, buf: Uint8Array, s: number, e: number): boolean {
-    if (size !== e - s) return false;
-    const bytes = this.idBytes;
-    for (let k = 0; k < size; k++) if (bytes[at + k] !== buf[s + k]) return false;
-    return true;
+  private sameId(at: number, size: number, view: DataView, s: number, e: number): boolean {
+    return size === e - s && sameBytes(this.idView, at, view, s, size);
   }
 
   /** Appends the bytes `buf[s, e)` to the kept ids; where they start. */
@@ -328,6 +363,7 @@ export class EdgeListReader {
       const grown = Buffer.allocUnsafe(Math.min(LONGEST_IDS, Math.max(at + n, this.idBytes.length * 2)));
       this.idBytes.copy(grown, 0, 0, at);
       this.idBytes = grown;
+      this.idView = viewOf(grown);
     }
     const bytes = this.idBytes;
     // A loop, not set(buf.subarray(...)): an id is short, and a view object per id costs more.
@@ -344,7 +380,7 @@ export class EdgeListReader {
     const mask = (table.length >> 2) - 1;
     for (let q = 0; q < old.length; q += 4) {
       if (old[q] === 0) continue;
-      let h = mix(old[q + 1]) & mask;
+      let h = old[q + 1] & mask;
       while (table[4 * h] !== 0) h = (h + 1) & mask;
       table[4 * h] = old[q];
       table[4 * h + 1] = old[q + 1];
@@ -426,6 +462,22 @@ export function loadEdgeList(text: string, options: Pick<LoadOptions, "maxNodes"
   const bytes = Buffer.from(text, "utf8");
   reader.lines(bytes, 0, bytes.length);
   return reader.finish();
+}
+
+/** A DataView of the bytes `buf` shows. */
+function viewOf(buf: Uint8Array): DataView {
+  return new DataView(buf.buffer, buf.byteOffset, buf.byteLength);
+}
+
+/** With tabs: the end of an id at `k`, the first tab, "\n" or CR in `[k, e)` (or `e`). */
+function tabIdEnd(view: DataView, k: number, e: number): number {
+  for (;;) {
+    k = firstBelow(view, k, e, CR + 1);
+    if (k === e) return e;
+    const c = view.getUint8(k);
+    if (c === TAB || c === LF || c === CR) return k;
+    k++;
+  }
 }
 
 function indexIn(buf: Uint8Array, byte: number, s: number, e: number): number {

@@ -138,7 +138,8 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   const synthetic = tops !== 1;
   const slots = n + (synthetic ? 1 : 0) + (live - (n - tops));
   // Without a reference no table of parents is made: the spare memory goes now, before the layout's.
-  if (slots === n + (synthetic ? 1 : 0)) spare = undefined;
+  const hasReferences = slots > n + (synthetic ? 1 : 0);
+  if (!hasReferences) spare = undefined;
   // From here on each position's line, in place of its edge's number: the layout gives a reference
   // its edge's line from the position it is at, without a second lookup.
   const { edgeOrigin } = graph;
@@ -150,10 +151,12 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   // The loader's edge arrays are read no more: where they are long enough, three of the slot arrays
   // are made in their memory (every slot is written below), sparing that much fresh memory.
   const taken = new Set<ArrayBufferLike>([graph.origin.buffer, graph.ownSize.buffer]);
+  // With references, the spare memory holds their targets, then the neighbour table (as far as it goes).
+  const spareNumbers = carved(spare, taken);
   const parent = new Int32Array(slots);
   const depth = reused(graph.edgeTo, slots, taken);
   const from = reused(graph.edgeFrom, slots, taken); // node whose name (and id, fields) a slot shows; -1 synthetic root
-  const referenceTo = new Int32Array(slots).fill(-1);
+  const referenceTo = hasReferences ? spareNumbers(slots).fill(-1) : new Int32Array(0);
   const ownSize = new Float64Array(slots);
   const origin = reused(edgeOrigin, slots, taken);
   const slotOf = new Int32Array(n).fill(-1);
@@ -213,14 +216,14 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     }
   }
   if (next !== slots) throw new Error(`graph layout placed ${next} of ${slots} slots`);
-  for (let s = base; s < slots; s++) if (referenceTo[s] !== -1) referenceTo[s] = slotOf[referenceTo[s]];
+  if (hasReferences)
+    for (let s = base; s < slots; s++) if (referenceTo[s] !== -1) referenceTo[s] = slotOf[referenceTo[s]];
   const fields = new Map<string, string[]>();
   for (const [key, values] of graph.fields) {
     const column: string[] = new Array(slots);
     for (let s = 0; s < slots; s++) column[s] = from[s] === -1 ? "" : (values[from[s]] ?? "");
     fields.set(key, column);
   }
-  const hasReferences = slots > n + base;
   const topNodes = new Int32Array(synthetic && hasReferences ? tops : 0);
   if (topNodes.length > 0) for (let i = 0, t = 0; i < n; i++) if (rec[3 * i] === -1) topNodes[t++] = i;
   // The names' places, in the memory of two more arrays read no more (when long enough).
@@ -250,7 +253,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     // The graph interest's neighbour table, from the edges at hand (see graph-neighbours.ts): nodes by
     // their own numbers, so a slot's node is the node it shows (the added root: n).
     if (synthetic) from[0] = n;
-    rememberNeighbours(tree, neighbourTable(outStart, outTo, inDegree, topNodes, from, carved(spare, taken)));
+    rememberNeighbours(tree, neighbourTable(outStart, outTo, inDegree, topNodes, from, spareNumbers));
   }
   return tree;
 }
