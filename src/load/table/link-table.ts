@@ -114,7 +114,10 @@ function linkById(
       parentOf[r] = -1;
     } else {
       const p = rowOf.get(parentId);
-      if (p === -1) throw missingParent(cellText(parentId), r + 1, options);
+      if (p === -1) {
+        const text = cellText(parentId);
+        throw missingParent(text, r + 1, options, rowNamed(text, pooled, names, n));
+      }
       parentOf[r] = p;
     }
     origin[r] = r + 1;
@@ -283,4 +286,19 @@ export function linkPathMap(
   const linked = linkByPath(table, keys, { ...options, pathField: PATH_KEY });
   linked.reading = { shape: "path-map", sizeUnit: fieldSizeUnit(options.sizeField), pathMapField: field };
   return linked;
+}
+
+/** The 1-based row whose name is `text` (for MISSING_PARENT's hint), or undefined. */
+function rowNamed(
+  text: string,
+  pooled: NamePool | undefined,
+  names: readonly Cell[] | undefined,
+  n: number,
+): number | undefined {
+  for (let r = 0; r < n; r++) {
+    const name = pooled ? pooled.get(r) : names ? cellText(names[r]) : undefined;
+    if (name === undefined) return undefined;
+    if (name === text) return r + 1;
+  }
+  return undefined;
 }
