@@ -31,6 +31,17 @@ describe("a parent column that holds names", () => {
     expect(r.stdout).toBe(". Ada Quill / Bo Tarn / Cy Venn\n");
   });
 
+  it("without an id column, FIELD_MISSING names --id-field with the name column", async () => {
+    const noIds = ["name,manager", "Ada Quill,", "Bo Tarn,Ada Quill", ""].join("\n");
+    const r = await cli(["org.csv", "--parent-field", "manager"], { files: { "org.csv": noIds } });
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('; if "manager" holds the rows\' names, say --id-field name;');
+    const read = await cli(["org.csv", "--parent-field", "manager", "--id-field", "name", "--bare"], {
+      files: { "org.csv": noIds },
+    });
+    expect(read.stdout).toBe(". Ada Quill / Bo Tarn\n");
+  });
+
   it("names no row when the value is nobody's name either", async () => {
     const r = await cli(["org.csv", "--parent-field", "manager"], {
       files: { "org.csv": csv.replace("Bo Tarn,Ada Quill", "Bo Tarn,Q9") },

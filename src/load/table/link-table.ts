@@ -49,9 +49,21 @@ function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): 
   if (ids && parents) return linkById(table, ids, parents, options);
   const paths = table.column(options.pathField);
   if (paths) return linkByPath(table, paths, options);
+  // A parent column beside a name column and no id column: parents written by name (an org chart's
+  // manager column), which --id-field reads.
+  const byName =
+    !ids && table.column(options.parentField) !== undefined && table.column(options.nameField) !== undefined;
+  const remedies = [
+    ...(byName ? [`--id-field ${options.nameField}`] : []),
+    ...(shape === "table" ? ["--input-format paths"] : []),
+  ];
   throw new EspalierError(
     "FIELD_MISSING",
     say`rows need "${options.idField}" and "${options.parentField}" columns, or a "${options.pathField}" column; the columns are ${quotedList("name", table.columnNames())}${
+      byName
+        ? `; if "${options.parentField}" holds the rows' ${options.nameField}s, say --id-field ${options.nameField}`
+        : ""
+    }${
       shape === "table"
         ? "; a listing of sizes and paths (size, a tab, the path) reads with --input-format paths"
         : ""
@@ -60,7 +72,7 @@ function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): 
     {
       fieldsNeeded: [options.idField, options.parentField, options.pathField],
       fieldsSeen: table.columnNames(),
-      ...(shape === "table" ? { remedies: ["--input-format paths"] } : {}),
+      ...(remedies.length > 0 ? { remedies } : {}),
     },
   );
 }
