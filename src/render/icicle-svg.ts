@@ -12,6 +12,7 @@ import { amount, formatCount, type NumberOptions } from "./amount.js";
 import { displayWidth, shortenEnd } from "./display-width.js";
 import { formatSize, type Units } from "./format-size.js";
 import { type IcicleBlock, type IcicleLayout, type IcicleMember, icicle } from "./icicle-layout.js";
+import { EMPTY_WORDS } from "./line-parts.js";
 import { MARK as LINE_MARK } from "./marks.js";
 import { parentsText, referenceText } from "./reference-text.js";
 import { checkWidth } from "./summary-text.js";
@@ -340,7 +341,11 @@ function numbers<T extends ViewNode>(
   const { nodes, size } = folded ? node.hidden! : node;
   const sizes = options.sizes && change !== "removed";
   const always = folded;
-  const plain = numberTexts(nodes, size, { ...options, sizes }, always);
+  const plain = withEmpty(
+    numberTexts(nodes, size, { ...options, sizes }, always),
+    folded ? (node.hidden!.empty ?? 0) : 0,
+    !folded && node.empty === true,
+  );
   // A diff's fold says what changed inside it, as the text format's fold does.
   if (folded) return withChanges(plain, [{ node, folded }], options);
   // A diff's change shows in words inside its block, before the numbers, and alone when they do not fit.
@@ -374,6 +379,18 @@ function numberTexts(nodes: number, size: number, options: NumberOptions, always
   return texts.filter((t, k) => t !== "" && texts.indexOf(t) === k);
 }
 
+/**
+ * Nested input with empty entries (`{}`): the longest numbers first with how many of the block's nodes
+ * are such (`26 nodes, 25 empty {}`, as the text format's fold says it), or `empty {}` on an empty
+ * entry's own block, so the counts in the picture add up to the heading's as the text's do; the
+ * shorter texts follow for a narrow block (its tooltip always says it).
+ */
+function withEmpty(texts: string[], hiddenEmpty: number, ownEmpty: boolean): string[] {
+  const words = ownEmpty ? EMPTY_WORDS : hiddenEmpty > 0 ? `${formatCount(hiddenEmpty)} ${EMPTY_WORDS}` : "";
+  if (words === "") return texts;
+  return [texts.length > 0 ? `${texts[0]}, ${words}` : words, ...texts];
+}
+
 /** A fold's label, longest first: `+17,847 more`, `+17,847`, `+17.8k` (counts in the one number style). */
 function foldNames(children: number): string[] {
   return [`+${formatCount(children)} more`, `+${formatCount(children)}`, `+${formatCount(children, true)}`];
@@ -393,7 +410,8 @@ function groupNames<T extends ViewNode>(members: IcicleMember<T>[]): string[] {
 /** A group's numbers (nodes and size together), or in a diff what changed among them first. */
 function groupNumbers<T extends ViewNode>(members: IcicleMember<T>[], options: SvgOptions<T>): string[] {
   const totals = groupTotals(members);
-  return withChanges(numberTexts(totals.nodes, totals.size, options, true), members, options);
+  const plain = withEmpty(numberTexts(totals.nodes, totals.size, options, true), totals.empty, false);
+  return withChanges(plain, members, options);
 }
 
 /**
@@ -431,15 +449,24 @@ function focusesIn<T extends ViewNode>(members: IcicleMember<T>[]): ViewNode[] {
   return found;
 }
 
-function groupTotals<T extends ViewNode>(members: IcicleMember<T>[]): { nodes: number; size: number } {
+function groupTotals<T extends ViewNode>(
+  members: IcicleMember<T>[],
+): { nodes: number; size: number; empty: number } {
   let nodes = 0;
   let size = 0;
+  let empty = 0;
   for (const m of members) {
     const n = m.folded ? m.node.hidden! : m.node;
     nodes += n.nodes;
     size += n.size;
+    empty += (m.folded ? m.node.hidden!.empty : m.node.emptyBelow) ?? 0;
   }
-  return { nodes, size };
+  return { nodes, size, empty };
+}
+
+/** `, 25 empty {}` after a tooltip's numbers (nested input with empty entries), or nothing. */
+function emptyNote(count: number | undefined): string {
+  return count ? `, ${formatCount(count)} ${EMPTY_WORDS}` : "";
 }
 
 /** Short ticks along a group's bottom edge, one every 5 pixels: the group's own pattern. */
@@ -469,7 +496,7 @@ function tooltip<T extends ViewNode>(
   if (b.members) {
     const totals = groupTotals(b.members);
     const lines = [
-      `${formatCount(groupCount(b.members))} grouped under ${label}: ${amount(totals.nodes, totals.size, always)}`,
+      `${formatCount(groupCount(b.members))} grouped under ${label}: ${amount(totals.nodes, totals.size, always)}${emptyNote(totals.empty)}`,
     ];
     for (const m of b.members.slice(0, TOOLTIP_MEMBERS)) {
       const n = m.folded ? m.node.hidden! : m.node;
@@ -478,7 +505,13 @@ function tooltip<T extends ViewNode>(
       const note = change
         ? ` [${options.changeNote ? options.changeNote(m.node).replace(/^\[|\]$/g, "") : change}]`
         : "";
-      lines.push(`${name}: ${amount(n.nodes, n.size, always)}${note}`);
+      // A shown member says the empty entries in its subtree, so the members' add up to the group's.
+      const empty = m.folded
+        ? emptyNote(m.node.hidden!.empty)
+        : m.node.empty
+          ? `, ${EMPTY_WORDS}`
+          : emptyNote(m.node.emptyBelow);
+      lines.push(`${name}: ${amount(n.nodes, n.size, always)}${empty}${note}`);
     }
     if (b.members.length > TOOLTIP_MEMBERS)
       lines.push(`… and ${formatCount(b.members.length - TOOLTIP_MEMBERS)} more`);
@@ -493,8 +526,8 @@ function tooltip<T extends ViewNode>(
     return lines.join("\n");
   }
   if (b.folded) {
-    const { children, nodes, size } = node.hidden!;
-    return `+${formatCount(children)} more under ${label}: ${amount(nodes, size, always)}`;
+    const { children, nodes, size, empty } = node.hidden!;
+    return `+${formatCount(children)} more under ${label}: ${amount(nodes, size, always)}${emptyNote(empty)}`;
   }
   const lines = [label];
   // A deep node's path is long (a chain's grow with the square of its depth): past a few lines, the
@@ -510,6 +543,7 @@ function tooltip<T extends ViewNode>(
     return lines.join("\n");
   }
   lines.push(amount(node.nodes, node.size, always));
+  if (node.empty) lines.push(EMPTY_WORDS);
   const parents = parentsText(node.parents);
   if (parents) lines.push(parents);
   if (node.focus) lines.push("focus");
