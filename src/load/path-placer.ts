@@ -192,11 +192,15 @@ export class PathPlacer {
     }
     if (!created) {
       if (this.explicit[node] === 1) {
-        const shown = quoted.path(bytes.toString("utf8", start, end));
+        const text = bytes.toString("utf8", start, end);
+        const shown = quoted.path(text);
         const unit = sink.originIsRow ? "row" : "line";
         throw new EspalierError(
           "DUPLICATE_PATH",
-          say`${unit} ${origin} repeats the path ${shown} of ${unit} ${sink.origin[node]}`,
+          [
+            ...say`${unit} ${origin} repeats the path ${shown} of ${unit} ${sink.origin[node]}`,
+            ...(text.includes("\uFFFD") ? [NOT_UTF8] : []),
+          ],
           sink.originIsRow ? { row: origin } : { line: origin, column: 1 },
           sink.originIsRow ? { firstRow: sink.origin[node] } : { firstLine: sink.origin[node] },
         );
@@ -253,3 +257,10 @@ export class PathPlacer {
 export function viewOf(bytes: Buffer): DataView {
   return new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 }
+
+/**
+ * Why two lines that differ can repeat a path: bytes that are not UTF-8 (a Latin-1 name, `caf\xe9`)
+ * are read as U+FFFD, as the WHATWG decoder reads them, so names that differ only in such bytes are one.
+ */
+const NOT_UTF8 =
+  "; the path holds U+FFFD, which bytes that are not UTF-8 are read as, so names that differ only in such bytes are the same name here: list the names converted to UTF-8 first (iconv -f LATIN1 -t UTF-8, when they are Latin-1)";

@@ -259,9 +259,14 @@ export class PathListReader {
         at = bytes.indexOf(sizeEnd, start);
         if (at === -1 || at >= end) {
           const what = sizeEnd === tab ? "a tab" : "a space";
+          // find prints a name that holds a line break as it is, so the rest of the name is a line.
+          const split =
+            this.separator === newline
+              ? "; if a name holds a line break, it splits its entry over two lines: then list entries ended by NUL (find -printf '%s\\t%p\\0') and pass --nul-separated"
+              : "";
           throw new EspalierError(
             "PARSE_PATHS",
-            `line ${line} has no size column before ${what}, unlike line ${this.firstLine}`,
+            `line ${line} has no size column before ${what}, unlike line ${this.firstLine}${split}`,
             { line, column: 1 },
           );
         }
