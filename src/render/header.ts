@@ -152,6 +152,11 @@ function diffParts(
     counts += w(
       ` (${formatCount(totals.old.empty ?? 0)} -> ${formatCount(totals.new.empty ?? 0)} of them empty {})`,
     );
+  // The lines count NEW's nodes and the removed ones (each at its old place): the root's count is then
+  // not NEW's, and the header says what it is, so it can be checked against the root's line.
+  const removed = totals.changes.removed;
+  if (removed > 0)
+    counts += w(`, ${formatCount(totals.new.nodes + removed)} with the ${formatCount(removed)} removed`);
   if (options.sizes) {
     const { units } = options;
     const net = totals.delta < 0 ? formatSize(totals.delta, units) : `+${formatSize(totals.delta, units)}`;

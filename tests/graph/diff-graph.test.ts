@@ -45,7 +45,7 @@ describe("diffTrees(old graph, new graph)", () => {
     const { text } = diff(before, after);
     expect(text).toBe(
       [
-        "diff by id: 1 added, 1 removed, 1 moved, 0 renamed, 0 edited, 0 resized, 1 linked, 0 unlinked; 5 -> 5 nodes; no focus; 9 of 40 lines",
+        "diff by id: 1 added, 1 removed, 1 moved, 0 renamed, 0 edited, 0 resized, 1 linked, 0 unlinked; 5 -> 5 nodes, 6 with the 1 removed; no focus; 9 of 40 lines",
         ": ledger  6 nodes",
         "  : kelp-log  3 nodes",
         "    . brine",
