@@ -31,6 +31,8 @@ export interface OutputSettings {
   reading: HeaderReading | undefined;
   /** Short rows read with empty last fields (`--short-rows fill`), per input; undefined when none was. */
   filledRows: readonly number[] | undefined;
+  /** YAML documents of a stream read as values, per input; undefined when no input had several. */
+  documents: readonly number[] | undefined;
 }
 
 /**
@@ -44,6 +46,7 @@ export function outputSettings(
   inputs: readonly Tree[] = [tree],
 ): OutputSettings {
   const filled = inputs.map((t) => t.reading?.filledRows ?? 0);
+  const documents = inputs.map((t) => t.reading?.documents ?? 1);
   return {
     budget: opts.budget ?? defaultBudget(io),
     width: opts.width ?? defaultWidth(io),
@@ -58,6 +61,7 @@ export function outputSettings(
     sizeName: opts.sizeField === "size" ? undefined : opts.sizeField,
     reading: chosenReading(opts, tree),
     filledRows: filled.some((n) => n > 0) ? filled : undefined,
+    documents: documents.some((n) => n > 1) ? documents : undefined,
   };
 }
 

@@ -168,5 +168,6 @@ function headerOf<T extends ViewNode>(
     ...(s.sizeName === undefined ? {} : { sizeName: s.sizeName }),
     ...(s.reading === undefined ? {} : { reading: s.reading }),
     ...(s.filledRows === undefined ? {} : { filledRows: s.filledRows }),
+    ...(s.documents === undefined ? {} : { documents: s.documents }),
   };
 }

@@ -1,6 +1,6 @@
 import { EspalierError } from "../errors.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
-import { NamePool } from "../model/names.js";
+import { isEmptyName, NamePool } from "../model/names.js";
 import type { TreeReading } from "../model/tree.js";
 
 /**
@@ -53,6 +53,18 @@ export class NodeSink {
     this.ownSize.fill(0, length, this.length);
     this.length = length;
     this.name.setLength(length);
+  }
+
+  /**
+   * Names the top node `rootName` (the input file's base name, `(stdin)`) when it is the only top-level
+   * node and has no name (no name field, or an empty one): printed as `""`, the root of a nested
+   * document (`{"3166-1": [...]}`) told the reader nothing, where the file's name does, as it does for
+   * a root espalier adds. Its path stays empty. Scans only when node 0 is such a node.
+   */
+  nameNamelessTop(rootName: string): void {
+    if (this.length === 0 || this.parentOf[0] !== -1 || !isEmptyName(this.name, 0)) return;
+    for (let i = 1; i < this.length; i++) if (this.parentOf[i] === -1) return;
+    this.name.setString(0, rootName);
   }
 
   /** The nodes so far, ready for `buildTree`. */

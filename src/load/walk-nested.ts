@@ -282,6 +282,7 @@ export function walkNested<V>(
   }
   if (!sink.hasSizes && sizeFieldNamed(options)) throw missingField("size", sizeField, seen.list(), true);
   if (!hasNames && nameFieldNamed(options)) throw missingField("name", nameField, seen.list(), true);
+  sink.nameNamelessTop(options.rootName);
   const linked = sink.finish(options.rootName, fields, null, {
     shape: "nodes",
     sizeUnit: fieldSizeUnit(options.sizeField),

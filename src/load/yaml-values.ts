@@ -58,7 +58,11 @@ export function yamlValues(
     sink.ownSize[i] = own - inner;
   }
   sink.hasSizes = true;
-  return sink.finish(options.rootName, new Map(), null, { shape: "values", sizeUnit: "bytes" });
+  return sink.finish(options.rootName, new Map(), null, {
+    shape: "values",
+    sizeUnit: "bytes",
+    ...(stream ? { documents: documents.length } : {}),
+  });
 }
 
 /** A mapping key as text: a scalar's value ("" for null), else the key as written. */

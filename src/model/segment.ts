@@ -42,7 +42,7 @@ export function parseSegment(text: string): Segment {
     else
       throw new EspalierError(
         "FOCUS_SYNTAX",
-        say`"~" must be followed by 0 or 1 in a path segment (RFC 6901 escaping): ${quoted.value(text)}`,
+        say`"~" must be followed by 0 or 1 in a path segment (RFC 6901 escaping: ~0 is "~", ~1 is "/"): ${quoted.value(text)}; a name holding "~" is written ${quoted.value(text.replace(/~(?![01])/g, "~0"))}`,
       );
     i++;
   }

@@ -74,4 +74,6 @@ export interface TreeReading {
   readonly emptyEntries?: number;
   /** A CSV/TSV table: how many short rows were read with their missing last fields empty (`--short-rows fill`). */
   readonly filledRows?: number;
+  /** A YAML stream of several documents read as values: how many (each a child of the root named by its index). */
+  readonly documents?: number;
 }

@@ -44,6 +44,11 @@ export interface HeaderOptions {
    * input (a diff's OLD and NEW), said when any is above 0.
    */
   filledRows?: readonly number[];
+  /**
+   * YAML documents of a stream read as values (each a child of the root named by its index), one count
+   * per input; said when any is above 1, as a reader would take the `0`, `1` for a list's items.
+   */
+  documents?: readonly number[];
 }
 
 /** A reading of the input the header names (see `HeaderOptions.reading`). */
@@ -172,7 +177,20 @@ function sizeWord(header: HeaderOptions, style: HeaderStyle): string {
  * header's clauses on how the input was read; none when the options chose the reading.
  */
 function readingParts(header: HeaderOptions, style: HeaderStyle): string[] {
-  return [choiceText(header, style), filledText(header, style)].filter((part) => part !== "");
+  return [choiceText(header, style), documentsText(header, style), filledText(header, style)].filter(
+    (part) => part !== "",
+  );
+}
+
+/** `2 YAML documents, named 0 and 1`, `5 YAML documents, named 0 to 4` (a diff: `1 -> 3 YAML documents`). */
+function documentsText({ documents }: HeaderOptions, style: HeaderStyle): string {
+  if (!documents?.some((n) => n > 1)) return "";
+  const last = documents[documents.length - 1];
+  if (documents.length > 1)
+    return style.words(`${documents.map((n) => formatCount(n)).join(" -> ")} YAML documents`);
+  return style.words(
+    `${formatCount(last)} YAML documents, named 0 ${last === 2 ? "and" : "to"} ${formatCount(last - 1)}`,
+  );
 }
 
 /** `3 short rows filled` (a diff: `3 -> 0 short rows filled`); empty when none was. */

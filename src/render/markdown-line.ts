@@ -38,7 +38,8 @@ export function markdownHead(
 ): string[] {
   const lines = [
     ...(header ? [header] : []),
-    ...(legend ? legendLines(kind).map((l) => markdownText(l)) : []),
+    // The legend is espalier's own words, never input: escaped for Markdown, never cut as a long name is.
+    ...(legend ? legendLines(kind).map((l) => markdownText(l, false)) : []),
   ];
   if (lines.length === 0) return [];
   return [...lines.map((l, k) => (k < lines.length - 1 ? `${l}\\` : l)), ""];

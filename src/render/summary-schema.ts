@@ -40,7 +40,11 @@ export interface NodeFields {
 
 /** The schemas of {@link NodeFields}, with their meaning in a summary (a diff re-describes some). */
 export const nodeFieldsShape = {
-  name: z.string().describe("The node's own name, as in the input."),
+  name: z
+    .string()
+    .describe(
+      "The node's own name, as in the input; a root espalier adds, and a lone top node without a name, take the input file's base name ((stdin) from standard input).",
+    ),
   path: z.string().describe("Path from below the root, RFC 6901 escaping; accepted back as a focus."),
   id: z.string().optional().describe("Row id, when the input links rows by id."),
   label: z.string().optional().describe("Display text, when a label template is in use."),
@@ -127,6 +131,14 @@ export const inputReadingSchema = z
       .optional()
       .describe(
         "A CSV/TSV table read with --short-rows fill: how many short rows had their missing last fields read as empty; absent when none.",
+      ),
+    documents: z
+      .number()
+      .int()
+      .min(2)
+      .optional()
+      .describe(
+        "A YAML stream of several documents read as values: how many; each is a child of the root named by its index (0, 1, ...). Absent for one document.",
       ),
   })
   .strict()

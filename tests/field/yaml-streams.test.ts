@@ -52,6 +52,18 @@ describe("a YAML stream of several documents", () => {
     expect(json.totals.size).toBe(Buffer.byteLength(stream));
     expect(json.root.children.map((c: { name: string }) => c.name)).toEqual(["0", "1", "2"]);
     expect(json.root.children.map((c: { nodes: number }) => c.nodes)).toEqual(perDocument);
+    // The `0`, `1`, `2` read like a list's items: the output says they are documents.
+    expect(json.input.documents).toBe(perDocument.length);
+  });
+
+  it("says on the header that the root's children are documents, and how many each version has", async () => {
+    const files = { "deploy.yaml": stream, "one.yaml": "kind: Service\n" };
+    const summary = await cli(["deploy.yaml", "--budget", "5"], { files });
+    expect(summary.stdout.split("\n")[0]).toMatch(/; every value a node; 3 YAML documents, named 0 to 2; /);
+    const single = await cli(["one.yaml", "--read-as", "values"], { files });
+    expect(single.stdout).not.toContain("YAML documents");
+    const diff = await cli(["diff", "one.yaml", "deploy.yaml", "--budget", "5"], { files });
+    expect(diff.stdout.split("\n")[0]).toContain("; 1 -> 3 YAML documents; ");
   });
 
   it("still refuses a stream read as nodes, naming --read-as values", async () => {

@@ -57,7 +57,10 @@ describe("resolveFoci(index, specs)", () => {
   });
 
   it("throws FOCUS_SYNTAX for a ~ not followed by 0 or 1 (RFC 6901 section 3)", () => {
-    expect(caught(() => resolveFoci(index, ["src/a~2b"])).code).toBe("FOCUS_SYNTAX");
+    const err = caught(() => resolveFoci(index, ["src/a~2b"]));
+    expect(err.code).toBe("FOCUS_SYNTAX");
+    // The way out: a literal "~" is "~0" (RFC 6901 section 3).
+    expect(err.message).toContain('written "a~02b"');
   });
 
   it("names a row by id where rows have ids", () => {

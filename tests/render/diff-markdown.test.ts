@@ -1,5 +1,6 @@
 import { Parser } from "commonmark";
 import { describe, expect, it } from "vitest";
+import { legendLines } from "../../src/render/marks.js";
 import { cli } from "../helpers/cli.js";
 
 const OLD = "id,parent,name,size\n1,,R,0\n2,1,A,5\n3,2,x,1\n4,2,y,2\n5,1,B,0\n6,5,z,3\n";
@@ -33,5 +34,24 @@ describe("renderDiffMarkdown(view, totals, options) through espalier diff --form
     // only when the input says so, docs/input.md "Units").
     expect(codes).toEqual(["R", "A", "y", "B", "z", "[moved from A]", "x`s", "[added +4]", "C"]);
     expect(kinds).not.toContain("html_inline");
+  });
+
+  it("prints the legend whole under the header, however long its lines (espalier's words are never cut)", async () => {
+    const md = await cli(["diff", "old.csv", "new.csv", "--format", "markdown", "--legend"], {
+      files: { "old.csv": OLD, "new.csv": NEW },
+    });
+    expect(md.code, md.stderr).toBe(0);
+    // Read back by commonmark.js (the CommonMark reference implementation in JavaScript): the header
+    // paragraph's text holds each legend line as the legend writes it.
+    const paragraph = new Parser().parse(md.stdout).firstChild;
+    let text = "";
+    const walker = paragraph!.walker();
+    for (let ev = walker.next(); ev; ev = walker.next())
+      if (ev.entering && ev.node.type === "text") text += ev.node.literal;
+    for (const line of legendLines("diff")) {
+      expect(line.length).toBeGreaterThan(0);
+      expect(text).toContain(line);
+    }
+    expect(legendLines("diff").some((line) => line.length > 256)).toBe(true);
   });
 });

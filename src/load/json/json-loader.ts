@@ -207,6 +207,7 @@ export class JsonLoader extends JsonTokenizer {
     }
     let emptyEntries = 0;
     for (let i = 0; i < sink.length; i++) if (this.sized[i] === EMPTY) emptyEntries++;
+    sink.nameNamelessTop(this.options.rootName);
     const linked = sink.finish(this.options.rootName, fields, null, {
       shape: "nodes",
       sizeUnit: fieldSizeUnit(this.options.sizeField),

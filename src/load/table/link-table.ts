@@ -49,9 +49,21 @@ function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): 
   if (ids && parents) return linkById(table, ids, parents, options);
   const paths = table.column(options.pathField);
   if (paths) return linkByPath(table, paths, options);
+  // A parent column beside a name column and no id column: parents written by name (an org chart's
+  // manager column), which --id-field reads.
+  const byName =
+    !ids && table.column(options.parentField) !== undefined && table.column(options.nameField) !== undefined;
+  const remedies = [
+    ...(byName ? [`--id-field ${options.nameField}`] : []),
+    ...(shape === "table" ? ["--input-format paths"] : []),
+  ];
   throw new EspalierError(
     "FIELD_MISSING",
     say`rows need "${options.idField}" and "${options.parentField}" columns, or a "${options.pathField}" column; the columns are ${quotedList("name", table.columnNames())}${
+      byName
+        ? `; if "${options.parentField}" holds the rows' ${options.nameField}s, say --id-field ${options.nameField}`
+        : ""
+    }${
       shape === "table"
         ? "; a listing of sizes and paths (size, a tab, the path) reads with --input-format paths"
         : ""
@@ -60,7 +72,7 @@ function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): 
     {
       fieldsNeeded: [options.idField, options.parentField, options.pathField],
       fieldsSeen: table.columnNames(),
-      ...(shape === "table" ? { remedies: ["--input-format paths"] } : {}),
+      ...(remedies.length > 0 ? { remedies } : {}),
     },
   );
 }
@@ -114,7 +126,10 @@ function linkById(
       parentOf[r] = -1;
     } else {
       const p = rowOf.get(parentId);
-      if (p === -1) throw missingParent(cellText(parentId), r + 1, options);
+      if (p === -1) {
+        const text = cellText(parentId);
+        throw missingParent(text, r + 1, options, rowNamed(text, pooled, names, n));
+      }
       parentOf[r] = p;
     }
     origin[r] = r + 1;
@@ -283,4 +298,19 @@ export function linkPathMap(
   const linked = linkByPath(table, keys, { ...options, pathField: PATH_KEY });
   linked.reading = { shape: "path-map", sizeUnit: fieldSizeUnit(options.sizeField), pathMapField: field };
   return linked;
+}
+
+/** The 1-based row whose name is `text` (for MISSING_PARENT's hint), or undefined. */
+function rowNamed(
+  text: string,
+  pooled: NamePool | undefined,
+  names: readonly Cell[] | undefined,
+  n: number,
+): number | undefined {
+  for (let r = 0; r < n; r++) {
+    const name = pooled ? pooled.get(r) : names ? cellText(names[r]) : undefined;
+    if (name === undefined) return undefined;
+    if (name === text) return r + 1;
+  }
+  return undefined;
 }

@@ -47,17 +47,36 @@ export function idIsNullParent(id: string, row: number, options: Fields): Espali
  */
 const usualNoneValues = new Set(["0", "-1", "null", "\\n", "none", "nil", "n/a", "nan", "#n/a"]);
 
-/** MISSING_PARENT for a parent id no row has; a value that usually means "none" names the option. */
-export function missingParent(parentId: string, row: number, options: Fields): EspalierError {
-  const hint = usualNoneValues.has(parentId.trim().toLowerCase());
-  return new EspalierError(
-    "MISSING_PARENT",
-    hint
-      ? say`row ${row} names the ${options.parentField} ${quoted.id(parentId)}, which no row has as its ${options.idField}; if it means no parent (a top-level row), say ${`--null-parent ${shellWord(parentId)}`}`
-      : say`row ${row} names the ${options.parentField} ${quoted.id(parentId)}, which no row has as its ${options.idField}`,
-    { row, field: options.parentField },
-    hint ? { remedies: [`--null-parent ${shellWord(parentId)}`] } : undefined,
-  );
+/**
+ * MISSING_PARENT for a parent id no row has. A value that usually means "none" names `--null-parent`;
+ * a value that is another row's name (`nameRow`, 1-based: an org chart whose manager column holds names)
+ * names `--id-field` with the name column.
+ */
+export function missingParent(
+  parentId: string,
+  row: number,
+  options: Fields & { nameField?: string },
+  nameRow?: number,
+): EspalierError {
+  const none = usualNoneValues.has(parentId.trim().toLowerCase());
+  const missing = say`row ${row} names the ${options.parentField} ${quoted.id(parentId)}, which no row has as its ${options.idField}`;
+  if (none)
+    return new EspalierError(
+      "MISSING_PARENT",
+      say`${missing}; if it means no parent (a top-level row), say ${`--null-parent ${shellWord(parentId)}`}`,
+      { row, field: options.parentField },
+      { remedies: [`--null-parent ${shellWord(parentId)}`] },
+    );
+  if (nameRow !== undefined && options.nameField !== undefined) {
+    const remedy = `--id-field ${shellWord(options.nameField)}`;
+    return new EspalierError(
+      "MISSING_PARENT",
+      say`${missing}, but it is row ${nameRow}'s ${options.nameField}; if the ${options.parentField} column holds names, say ${remedy}`,
+      { row, field: options.parentField },
+      { remedies: [remedy] },
+    );
+  }
+  return new EspalierError("MISSING_PARENT", missing, { row, field: options.parentField });
 }
 
 /** The value as one shell word: as is when plain, else in single quotes (`'\\N'`). */

@@ -246,7 +246,7 @@ describe("loadTreeFromStream(json)", () => {
   it("loadTreeFromStream(json) orders children keyed like array indices first, as JSON.parse does", async () => {
     const text = '{"children":{"b":1,"10":2,"a":{"children":{"3":1,"1":2}},"2":3,"4294967295":4,"01":5}}';
     const tree = await loadStreamed(utf8(text), opts({ format: "json" }), [7, 20, 33]);
-    expect(tree.name).toEqual(["", "2", "10", "b", "a", "1", "3", "4294967295", "01"]);
+    expect(tree.name).toEqual(["(root)", "2", "10", "b", "a", "1", "3", "4294967295", "01"]);
     expectSameTree(tree, loadByReference(utf8(text), opts({ format: "json" })));
   });
 

@@ -58,9 +58,15 @@ describe("loadTree(json)", () => {
     expect(tree.hasSizes).toBe(false);
   });
 
-  it("loadTree(json) names a node without a name field with the empty string", () => {
+  it("loadTree(json) names a node without a name field with the empty string, the lone top node by the file", () => {
     const tree = json('{"children":[{"size":1},{"name":"b"}]}');
-    expect(tree.name).toEqual(["", "", "b"]);
+    // The root's "" told a reader nothing; it takes the root name espalier gives an added root.
+    expect(tree.name).toEqual(["(root)", "", "b"]);
+    const named = json('{"children":[{"size":1}]}', { rootName: "iso_3166-1.json" });
+    expect(named.name).toEqual(["iso_3166-1.json", ""]);
+    // An empty name field counts as none; several nameless top nodes keep "" under the added root.
+    expect(json('{"name":"","children":[{"name":"x"}]}').name).toEqual(["(root)", "x"]);
+    expect(json('[{"size":1},{"size":2}]').name).toEqual(["(root)", "", ""]);
   });
 
   it("loadTree(json) uses the field names from the options and keeps extra fields", () => {
