@@ -43,7 +43,7 @@ export { loadTreeFromStream } from "./load/stream/index.js";
 export { buildTree } from "./model/build-tree.js";
 export { CHAIN_JOIN } from "./model/chain-join.js";
 export type { LinkedNodes } from "./model/linked-nodes.js";
-export { type Measures, measure } from "./model/measure.js";
+export { type MeasureMemory, type Measures, measure } from "./model/measure.js";
 export { type Names, namesToArray, StringNames } from "./model/names.js";
 export { PathIndex } from "./model/path-index.js";
 export { escapeSegment, parseSegment, splitPath } from "./model/segment.js";

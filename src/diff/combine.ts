@@ -256,7 +256,6 @@ function copyTree(
   const total = parent.length;
   const depth = new Int32Array(total);
   const ownSize = new Float64Array(total);
-  const origin = new Int32Array(total);
   const newName = newTree.name;
   const oldName = oldTree.name;
   const newOrigin = newTree.origin;
@@ -270,13 +269,20 @@ function copyTree(
   for (let k = 0; k < total; k++) {
     const n = newIndex[k];
     depth[k] = k === 0 ? 0 : depth[parent[k]] + 1;
-    if (n >= 0) {
-      origin[k] = newOrigin[n];
-      ownSize[k] = newSize[n];
-    } else {
-      origin[k] = oldOrigin[oldIndex[k]];
-    }
+    if (n >= 0) ownSize[k] = newSize[n];
   }
+  // Where each node came from, made when first read: no summary or diff of it reads it, and an array
+  // of every node is new memory, dear on a big tree (docs/performance.md).
+  let origin: Int32Array | undefined;
+  const originOf = (): Int32Array => {
+    if (origin !== undefined) return origin;
+    origin = new Int32Array(total);
+    for (let k = 0; k < total; k++) {
+      const n = newIndex[k];
+      origin[k] = n >= 0 ? newOrigin[n] : oldOrigin[oldIndex[k]];
+    }
+    return origin;
+  };
   const fieldValues = keys.map((key) => {
     const values = new Array<string>(total);
     const fromNew = newTree.fields.get(key);
@@ -305,7 +311,9 @@ function copyTree(
     ownSize,
     hasSizes: oldTree.hasSizes || newTree.hasSizes,
     ids,
-    origin,
+    get origin() {
+      return originOf();
+    },
     originIsRow: newTree.originIsRow,
     fields,
     syntheticRoot: newTree.syntheticRoot,

@@ -58,9 +58,15 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
   const compared = fields.length > 0 ? comparedFields(oldTree, newTree, fields) : null;
   // Only subtree counts of the two versions are needed; the whole-tree arrays are kept few, because
   // every large allocation brings the next full garbage collection of both loaded versions nearer.
-  const oldCount = subtreeCounts(oldTree);
-  const newCount = subtreeCounts(newTree);
+  // A tree's counts and matching are read no more once the combined tree is made: their memory, made
+  // with room for the combined tree (at most both versions' nodes; pages no one writes cost nothing),
+  // is then lent to its measures and importance, which would otherwise each touch new memory, dear on
+  // a big tree (docs/performance.md).
+  const room = graph ? 0 : oldTree.length + newTree.length;
+  const oldCount = subtreeCounts(oldTree, room);
+  const newCount = subtreeCounts(newTree, room);
   let combined: Combined;
+  let lendable: (Int32Array | undefined)[] = [];
   if (graph) {
     // Graphs: full entries matched by id, references by their edges; kinds of change by edges. Nodes
     // read from YAML have references (aliases) but no ids: their paths serve, and they match by path.
@@ -76,17 +82,17 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
       found.newEdges,
     );
   } else {
-    combined = combine(
-      oldTree,
-      oldCount,
-      newTree,
-      newCount,
-      matchTrees(oldTree, oldCount, newTree, newCount),
-      compared,
-    );
+    const matching = matchTrees(oldTree, oldCount, newTree, newCount, 2 * room);
+    combined = combine(oldTree, oldCount, newTree, newCount, matching, compared);
+    lendable = unread(combined, [newCount, oldCount, matching.newToOld, matching.oldToNew]);
   }
   const { tree } = combined;
-  const measures = measure(tree);
+  const [countMemory, childrenMemory, sizeMemory, importanceMemory] = lendable;
+  const measures = measure(tree, {
+    count: countMemory,
+    children: childrenMemory,
+    size: asFloats(sizeMemory),
+  });
   const changeMeasures = measureChanges(tree, combined.kind, combined.deltaOf);
   let oldSize = 0;
   for (let o = 0; o < oldTree.length; o++) oldSize += oldTree.ownSize[o];
@@ -97,7 +103,35 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
     delta: netIn(changeMeasures, 0),
     graph,
   };
-  return new PreparedDiff({ combined, measures, changeMeasures, oldTree, totals });
+  return new PreparedDiff({
+    combined,
+    measures,
+    changeMeasures,
+    oldTree,
+    totals,
+    spare: asFloats(importanceMemory),
+  });
+}
+
+/**
+ * Each of `arrays` whose memory the combined tree does not hold (with nothing removed it may be the
+ * matching itself), in the same places; `undefined` for one it holds. Their contents are read no more.
+ */
+function unread(combined: Combined, arrays: Int32Array[]): (Int32Array | undefined)[] {
+  const { tree } = combined;
+  const held = new Set<ArrayBufferLike>(
+    [combined.newIndex, combined.oldIndex, combined.kind, tree.parent, tree.depth, tree.ownSize].map(
+      (a) => a.buffer,
+    ),
+  );
+  return arrays.map((a) => (held.has(a.buffer) ? undefined : new Int32Array(a.buffer)));
+}
+
+/** The whole memory under `numbers` read as doubles (none when there is none). */
+function asFloats(numbers: Int32Array | undefined): Float64Array | undefined {
+  return numbers === undefined
+    ? undefined
+    : new Float64Array(numbers.buffer, 0, numbers.buffer.byteLength >> 3);
 }
 
 /**

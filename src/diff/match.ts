@@ -14,16 +14,18 @@ export interface Matching {
 /**
  * Pairs the nodes of two versions: by row id when both versions have ids, otherwise by path. Matching
  * by path pairs the k-th child named X of matched parents on both sides (the `~~k` of printed paths),
- * so a node whose path changed (moved or renamed) is one node removed and another added.
+ * so a node whose path changed (moved or renamed) is one node removed and another added. `room`: the
+ * numbers of memory under each of the two arrays, when more than its length (see {@link numbers}).
  */
 export function matchTrees(
   oldTree: Tree,
   oldCount: Int32Array,
   newTree: Tree,
   newCount: Int32Array,
+  room = 0,
 ): Matching {
-  const oldToNew = new Int32Array(oldTree.length).fill(-1);
-  const newToOld = new Int32Array(newTree.length).fill(-1);
+  const oldToNew = numbers(oldTree.length, room).fill(-1);
+  const newToOld = numbers(newTree.length, room).fill(-1);
   oldToNew[0] = 0;
   newToOld[0] = 0;
   if (oldTree.ids && newTree.ids) {
@@ -32,6 +34,14 @@ export function matchTrees(
   }
   matchByPath(oldTree, oldCount, newTree, newCount, oldToNew, newToOld);
   return { by: "path", oldToNew, newToOld };
+}
+
+/**
+ * `length` numbers over memory of at least `room` numbers: pages past `length` are never touched here,
+ * so they cost nothing until a later stage is lent them (see `prepareDiff`).
+ */
+function numbers(length: number, room: number): Int32Array {
+  return new Int32Array(new ArrayBuffer(Math.max(length, room) * 4), 0, length);
 }
 
 /**
@@ -49,10 +59,11 @@ function matchById(
 ) {
   const nOld = oldIds.length;
   const nNew = newIds.length;
+  const equalBytes = bytesCompare(oldIds, newIds);
   let o = 1;
   let n = 1;
   while (o < nOld && n < nNew) {
-    if (!isEmptyName(newIds, n) && sameName(oldIds, o, newIds, n)) {
+    if (equalBytes(o, n) || (!isEmptyName(newIds, n) && sameName(oldIds, o, newIds, n))) {
       oldToNew[o] = n;
       newToOld[n] = o;
       o++;
@@ -114,25 +125,7 @@ function matchByPath(
 ) {
   const oldName = oldTree.name;
   const newName = newTree.name;
-  // Two pools: equal bytes are equal names, compared here without a call per name; unequal bytes go
-  // to sameName, which decides whether only decoding can tell.
-  const oldRuns = oldName instanceof NamePool ? oldName.byteRuns() : null;
-  const newRuns = newName instanceof NamePool ? newName.byteRuns() : null;
-  const runs = oldRuns !== null && newRuns !== null;
-  const oldBytes = runs ? oldRuns.bytes : new Uint8Array(0);
-  const oldStart = runs ? oldRuns.start : new Uint32Array(0);
-  const oldSize = runs ? oldRuns.size : new Uint32Array(0);
-  const newBytes = runs ? newRuns.bytes : new Uint8Array(0);
-  const newStart = runs ? newRuns.start : new Uint32Array(0);
-  const newSize = runs ? newRuns.size : new Uint32Array(0);
-  const equalBytes = (oc: number, nc: number): boolean => {
-    if (!runs) return false;
-    const length = oldSize[oc];
-    if (length !== newSize[nc]) return false;
-    for (let a = oldStart[oc], b = newStart[nc], end = a + length; a < end; a++, b++)
-      if (oldBytes[a] !== newBytes[b]) return false;
-    return true;
-  };
+  const equalBytes = bytesCompare(oldName, newName);
   for (let n = 0; n < newTree.length; n++) {
     const o = newToOld[n];
     if (o < 0) {
@@ -167,4 +160,24 @@ function matchByPath(
       newToOld[c] = m;
     }
   }
+}
+
+/**
+ * For two pools, whether name `i` of the first and name `j` of the second are the same non-empty bytes
+ * (then the same name), compared in the caller's loop without a call per name; false otherwise, and
+ * always when either is no pool or keeps some name as a string: `sameName` then decides.
+ */
+function bytesCompare(a: Names, b: Names): (i: number, j: number) => boolean {
+  const aRuns = a instanceof NamePool ? a.byteRuns() : null;
+  const bRuns = b instanceof NamePool ? b.byteRuns() : null;
+  if (aRuns === null || bRuns === null) return () => false;
+  const { bytes: aBytes, start: aStart, size: aSize } = aRuns;
+  const { bytes: bBytes, start: bStart, size: bSize } = bRuns;
+  return (i, j) => {
+    const length = aSize[i];
+    if (length !== bSize[j] || length === 0) return false;
+    for (let x = aStart[i], y = bStart[j], end = x + length; x < end; x++, y++)
+      if (aBytes[x] !== bBytes[y]) return false;
+    return true;
+  };
 }

@@ -32,6 +32,8 @@ export class PreparedDiff {
   readonly totals: DiffTotals;
   private readonly importances = new Map<Importance, Float64Array>();
   private oldPaths: PathIndex | undefined;
+  /** Memory no one reads any more, lent to the first importance computed (see `prepareDiff`). */
+  private spare: Float64Array | undefined;
 
   constructor(parts: {
     combined: Combined;
@@ -39,6 +41,7 @@ export class PreparedDiff {
     changeMeasures: ChangeMeasures;
     oldTree: Tree;
     totals: DiffTotals;
+    spare?: Float64Array;
   }) {
     this.combined = parts.combined;
     this.measures = parts.measures;
@@ -46,13 +49,15 @@ export class PreparedDiff {
     this.index = new PathIndex(parts.combined.tree, parts.measures);
     this.oldTree = parts.oldTree;
     this.totals = parts.totals;
+    this.spare = parts.spare;
   }
 
   /** The a-priori importance of every node of the combined tree, computed once per kind. */
   importance(kind: Importance): Float64Array {
     let api = this.importances.get(kind);
     if (!api) {
-      api = importance(this.combined.tree, this.measures, kind);
+      api = importance(this.combined.tree, this.measures, kind, this.spare);
+      this.spare = undefined;
       this.importances.set(kind, api);
     }
     return api;

@@ -11,10 +11,17 @@ export type Importance = (typeof importances)[number];
  * - size:  API(x) = -depth(x) + log2((size(x) + 1) / (size(root) + 1)): a node holding a small share of
  *   the total drops further. Subtree sizes never grow from parent to child (sizes are >= 0), so API
  *   still drops by at least 1 per level.
+ * `lent`: memory whose contents nobody reads any more, used (its first `tree.length` numbers, each
+ * written here) instead of a new array when it is that long (new memory is dear on a big tree).
  */
-export function importance(tree: Tree, measures: Measures, kind: Importance): Float64Array {
+export function importance(
+  tree: Tree,
+  measures: Measures,
+  kind: Importance,
+  lent?: Float64Array,
+): Float64Array {
   const n = tree.length;
-  const api = new Float64Array(n);
+  const api = lent !== undefined && lent.length >= n ? lent.subarray(0, n) : new Float64Array(n);
   const { depth } = tree;
   if (kind === "depth") {
     for (let i = 0; i < n; i++) api[i] = 0 - depth[i];

@@ -33,7 +33,13 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
 
   // Out-edges of each node in input order (a stable counting sort by parent): position j holds edge
   // out[j] and its child outTo[j], so the walks below read a node's children from one run of one
-  // array. Whether a node has a parent is counted on the way.
+  // array. Whether a node has a parent is counted on the way. When each edge comes from a later line
+  // than the one before (an edge list: one edge a line) and no repeat is refused, out[j] holds the
+  // edge's line from the start: lines then order edges as their numbers do, and the pass that looks
+  // the lines up at random later is spared.
+  const { edgeOrigin } = graph;
+  let byLine = graph.repeatedEdges !== "error";
+  for (let e = 1; e < E && byLine; e++) if (edgeOrigin[e] <= edgeOrigin[e - 1]) byLine = false;
   const outStart = new Int32Array(n + 1);
   for (let e = 0; e < E; e++) outStart[edgeFrom[e] + 1]++;
   for (let i = 0; i < n; i++) outStart[i + 1] += outStart[i];
@@ -44,7 +50,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   for (let e = 0; e < E; e++) {
     const j = fill[edgeFrom[e]]++;
     const v = edgeTo[e];
-    out[j] = e;
+    out[j] = byLine ? edgeOrigin[e] : e;
     outTo[j] = v;
     inDegree[v]++;
   }
@@ -142,8 +148,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   if (!hasReferences) spare = undefined;
   // From here on each position's line, in place of its edge's number: the layout gives a reference
   // its edge's line from the position it is at, without a second lookup.
-  const { edgeOrigin } = graph;
-  for (let j = 0; j < E; j++) out[j] = edgeOrigin[out[j]];
+  if (!byLine) for (let j = 0; j < E; j++) out[j] = edgeOrigin[out[j]];
   const outLine = out;
 
   // Pre-order layout: entries and references of each node in input order of their edges. A reference's

@@ -21,17 +21,30 @@ export interface Measures {
 }
 
 /**
- * One reverse pass over the pre-order arrays: every child is folded into its parent. `leaves` and
- * `height`, which no summary or diff reads, are made by a pass of their own when first read.
+ * Memory a caller lends {@link measure} for its arrays instead of new memory (dear on a big tree: see
+ * docs/performance.md): arrays whose contents nobody reads any more, each used from its start when it
+ * holds at least the tree's length (else a new array is made), and written in full before it is read.
  */
-export function measure(tree: Tree): Measures {
+export interface MeasureMemory {
+  count?: Int32Array;
+  size?: Float64Array;
+  children?: Int32Array;
+}
+
+/**
+ * One reverse pass over the pre-order arrays: every child is folded into its parent. `leaves` and
+ * `height`, which no summary or diff reads, are made by a pass of their own when first read. `lent`:
+ * see {@link MeasureMemory}.
+ */
+export function measure(tree: Tree, lent: MeasureMemory = {}): Measures {
   const n = tree.length;
   const { parent, ownSize } = tree;
-  const count = new Int32Array(n).fill(1);
-  // Without a size anywhere every subtree's is 0: the array is left as it was made.
+  const count = fitted(lent.count, n, Int32Array, 1);
+  // Without a size anywhere every subtree's is 0: the array is left as it was made (or cleared).
   const sizes = !zeroSizes.has(tree);
-  const size = sizes ? new Float64Array(ownSize) : new Float64Array(n);
-  const children = new Int32Array(n);
+  const size = fitted(lent.size, n, Float64Array, 0);
+  if (sizes) size.set(ownSize.subarray(0, n));
+  const children = fitted(lent.children, n, Int32Array, 0);
   const ref = tree.referenceTo;
   // Nodes per subtree where they differ from the slots: each slot that is a node's full entry counts 1
   // (a graph's reference 0), and a node's elided descendants count too (see subtreeNodes).
@@ -64,6 +77,22 @@ export function measure(tree: Tree): Measures {
     },
     children,
   };
+}
+
+/**
+ * `n` numbers, each `value`: the first `n` of `lent`, overwritten, when it has that many; else a new
+ * array (new memory is zeros already: filled only for another value, so pages no one writes stay
+ * untouched).
+ */
+function fitted<A extends Int32Array | Float64Array>(
+  lent: A | undefined,
+  n: number,
+  make: new (n: number) => A,
+  value: number,
+): A {
+  if (lent !== undefined && lent.length >= n) return lent.subarray(0, n).fill(value) as A;
+  const made = new make(n);
+  return value === 0 ? made : (made.fill(value) as A);
 }
 
 /** Trees whose own sizes are all 0, as their builder knows (see {@link rememberZeroSizes}). */

@@ -11,6 +11,7 @@ import {
 } from "../../src/diff/diff-trees.js";
 import type { DiffViewNode } from "../../src/diff/diff-view.js";
 import { EspalierError } from "../../src/errors.js";
+import { importance } from "../../src/interest/importance.js";
 import { measure } from "../../src/model/measure.js";
 import { namesToArray, StringNames } from "../../src/model/names.js";
 import type { Tree } from "../../src/model/tree.js";
@@ -188,6 +189,32 @@ describe("diffTrees(old, new, options)", () => {
     );
   });
 
+  it("prepareDiff(old, new) measures the combined tree as measure() and importance() do, in lent memory", () => {
+    // The counts and matching of both versions are lent to the combined tree's measures and
+    // importance once read no more (prepareDiff): the numbers must be those of fresh arrays, and the
+    // combined tree's own arrays (with nothing removed, its old-node map is the matching's) untouched.
+    fc.assert(
+      fc.property(arbEdited(), fc.boolean(), fc.boolean(), (edited, byId, same) => {
+        const [oldTree, newTree] = byId ? [edited.oldTree, edited.newTree] : withoutIds(edited);
+        const prepared = prepareDiff(same ? newTree : oldTree, newTree);
+        const { tree, newIndex, oldIndex } = prepared.combined;
+        const fresh = measure(tree);
+        const got = prepared.measures;
+        for (const key of ["count", "nodes", "size", "children"] as const)
+          expect([...got[key]], key).toEqual([...fresh[key]]);
+        for (const kind of ["depth", "size"] as const)
+          expect([...prepared.importance(kind)], kind).toEqual([...importance(tree, fresh, kind)]);
+        // Every node of the new version once, in order; each old index in range or -1.
+        expect([...newIndex].filter((n) => n >= 0)).toEqual([...Array(newTree.length).keys()]);
+        for (let k = 0; k < tree.length; k++) {
+          expect(oldIndex[k]).toBeGreaterThanOrEqual(-1);
+          expect(oldIndex[k]).toBeLessThan((same ? newTree : oldTree).length);
+          if (same) expect(oldIndex[k]).toBe(newIndex[k]);
+        }
+      }),
+    );
+  });
+
   it("builds the combined tree as the new tree in pre-order plus each removed node under its old parent", () => {
     fc.assert(
       fc.property(arbEdited(), fc.boolean(), (edited, byId) => {
@@ -204,6 +231,11 @@ describe("diffTrees(old, new, options)", () => {
           expect(p).toBeLessThan(k);
           expect(k + count[k]).toBeLessThanOrEqual(p + count[p]); // a subtree is a contiguous range
           expect(tree.depth[k]).toBe(tree.depth[p] + 1);
+          // Where each node came from and its own size, from the version it lives in (origin is
+          // made when first read).
+          const n = newIndex[k];
+          expect(tree.origin[k]).toBe(n >= 0 ? newTree.origin[n] : oldTree.origin[oldIndex[k]]);
+          expect(tree.ownSize[k]).toBe(n >= 0 ? newTree.ownSize[n] : 0);
           if (newIndex[k] >= 0) expect(p).toBe(whereNew.get(newTree.parent[newIndex[k]]));
           else {
             const op = oldTree.parent[oldIndex[k]];

@@ -130,6 +130,33 @@ describe("a du -a listing (1 KiB blocks, not bytes)", () => {
     expect(JSON.parse(result.stdout).totals).toEqual({ nodes: 22, size: 692 });
   });
 
+  it("reads a du -ab listing whose sizes are all multiples of 4 as bytes when every folder's own part is 1 KiB or more", async () => {
+    // The shape GNU du -ab printed on ext4 here for 10 files of 12 to 120 bytes and 10 of 4 to 40 KiB:
+    // each folder's line is its contents plus its directory's 4096 bytes. It was refused as blocks.
+    // In 1 KiB blocks a folder's own part is its directory's blocks, 4 for a small one (du -a here).
+    const pages = Array.from({ length: 10 }, (_, k) => `${12 * (k + 1)}\ttide/ledger/page-${k + 1}.bin`);
+    const tiles = Array.from({ length: 10 }, (_, k) => `${4096 * (k + 1)}\ttide/charts/tile-${k + 1}.raw`);
+    const listing = [...pages, "4756\ttide/ledger", ...tiles, "229376\ttide/charts", "238228\ttide", ""];
+    const result = await cli(["-", "--format", "json"], { stdin: listing.join("\n") });
+    expect(result.stderr).toBe("");
+    const json = JSON.parse(result.stdout);
+    // The top folder's line, as du printed it; 20 files, 3 folders.
+    expect(json.totals).toEqual({ nodes: 23, size: 238228 });
+    expect(json.input).toMatchObject({ sizeUnit: "bytes", folderTotals: true });
+    // The same folders in blocks, as du -a printed them: each folder's own part is 4.
+    const blocks = [
+      ...pages.map((line) => line.replace(/^\d+/, "4")),
+      "44\ttide/ledger",
+      ...tiles.map((line, k) => line.replace(/^\d+/, String(4 * (k + 1)))),
+      "224\ttide/charts",
+      "272\ttide",
+      "",
+    ];
+    const refused = await cli(["-"], { stdin: blocks.join("\n") });
+    expect(refused.code).toBe(2);
+    expect(refused.stderr).toMatch(/du without -b .*\[PARSE_PATHS\]/);
+  });
+
   it("reads a du -ab listing (bytes) whose sizes are not all multiples of 4 as before", async () => {
     // The same folders with one file a byte longer: 693 bytes, read as totals.
     const bytes = blocks

@@ -57,7 +57,7 @@ export function folderTotals(
     parents[p] = 1;
   }
   if (mode === undefined && !readsAsTotals(nodes, contents, parents)) return false;
-  if (mode === undefined && inBlocks(nodes)) throw blockCounts();
+  if (mode === undefined && inBlocks(nodes) && !foldersOfBytes(nodes, contents, parents)) throw blockCounts();
   for (let i = 0; i < length; i++) {
     if (parents[i] === 0 || !nodes.isListed(i)) continue;
     if (ownSize[i] < contents[i]) throw smallerThanContents(nodes, i, contents[i]);
@@ -102,6 +102,26 @@ function inBlocks(nodes: PlacedSizes): boolean {
     seen++;
   }
   return seen >= BLOCK_EVIDENCE;
+}
+
+/** A folder's own part (its line less its contents) from which a listing of multiples of 4 is bytes. */
+const FOLDER_BYTES = 1024;
+
+/**
+ * Whether a listing whose sizes are all multiples of 4 still gives bytes: every listed folder's own part
+ * (its line less its contents) is at least {@link FOLDER_BYTES}. `du -ab` prints a folder's own part as
+ * its directory's apparent size, 4096 bytes and up on ext4 (a directory is at least one block; seen with
+ * du -ab here); `du -a` in 1 KiB blocks prints it as the directory's blocks, 4 for a folder of a few
+ * entries, and 1,024 would take a directory of 1 MiB, so no block listing has every folder that big.
+ * A block listing with one huge folder is still refused, since a small one shows too; a byte listing
+ * whose folders are small (other file systems) is refused as before, with the way out said.
+ */
+function foldersOfBytes(nodes: PlacedSizes, contents: Float64Array, parents: Uint8Array): boolean {
+  for (let i = 0; i < nodes.length; i++) {
+    if (parents[i] === 0 || !nodes.isListed(i)) continue;
+    if (nodes.ownSize[i] - contents[i] < FOLDER_BYTES) return false;
+  }
+  return true;
 }
 
 function blockCounts(): EspalierError {
