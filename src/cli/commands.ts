@@ -94,6 +94,7 @@ function defineCommand<T extends Record<string, OptionSpec>>(def: CommandDef<T>)
       const early = await def.early?.(line.args, options);
       if (early) return { ...early, target: undefined };
       checkArguments(def, line.args);
+      checkShareFormat(options as { share?: string; format?: string }, fromConfig);
       const target = outputTarget(options as { output?: string; focusFrom?: string; nodes?: string[] }, line);
       if (target) {
         const { checkOutputTarget } = await import("./write-output.js");
@@ -105,6 +106,29 @@ function defineCommand<T extends Record<string, OptionSpec>>(def: CommandDef<T>)
       return { ...output, target };
     },
   };
+}
+
+/**
+ * `--share` adds percentages to the text and Markdown lines; JSON and SVG have no place for them, so
+ * given on the command line with `--format json` or `svg` it would be dropped with exit 0: USAGE. From
+ * the config file (a project's preference for its printed summaries) it does not stop a JSON run.
+ */
+function checkShareFormat(
+  options: { share?: string; format?: string },
+  fromConfig: ReadonlySet<string>,
+): void {
+  if (options.share === undefined || options.share === "none" || fromConfig.has("share")) return;
+  if (options.format !== "json" && options.format !== "svg") return;
+  const instead =
+    options.format === "json"
+      ? "each node's size is in the JSON, as are its parent's and the root's (a share is their ratio)"
+      : "block widths follow size, and each block's tooltip gives its size";
+  throw new EspalierError(
+    "USAGE",
+    `--share adds percentages to text and Markdown lines only; --format ${options.format} has none: ${instead}`,
+    undefined,
+    { option: "--share" },
+  );
 }
 
 function checkArguments(def: CommandDef<Record<string, OptionSpec>>, args: readonly string[]): void {
