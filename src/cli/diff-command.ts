@@ -6,7 +6,7 @@ import { EXIT } from "./exit-codes.js";
 import { loadVersions, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { DiffCliOptions } from "./options.js";
-import { defaultBudget, headerLinesFor, outputSettings } from "./output-settings.js";
+import { comparedSaid, defaultBudget, headerLinesFor, outputSettings } from "./output-settings.js";
 import { diffHeaderRows, diffRenderers } from "./renderers.js";
 
 /** Reads, compares and renders two versions; returns the text to print and the exit code. */
@@ -19,9 +19,9 @@ export async function diffCommand(
   const foci = await readFoci(io, opts, [oldInput, newInput]);
   const key = pseudonymKey(opts, io);
   const [oldTree, newTree] = await loadVersions(io, oldInput, newInput, opts);
-  const prepared = prepareDiff(oldTree, newTree, {
-    compareFields: opts.compareField.length > 0 ? opts.compareField : defaultComparedFields(oldTree, newTree),
-  });
+  const compareFields =
+    opts.compareField.length > 0 ? opts.compareField : defaultComparedFields(oldTree, newTree);
+  const prepared = prepareDiff(oldTree, newTree, { compareFields });
   const options: DiffOptions = {
     foci,
     budget: opts.budget ?? defaultBudget(io),
@@ -35,7 +35,10 @@ export async function diffCommand(
   };
   const first = summarizeDiff(prepared, options);
   const { tree } = first.combined;
-  const settings = outputSettings(opts, io, tree, [oldTree, newTree]);
+  const settings = {
+    ...outputSettings(opts, io, tree, [oldTree, newTree]),
+    compared: comparedSaid(compareFields, [oldTree, newTree]),
+  };
   // A header wider than the line wraps, and the budget counts its lines: fit again with them counted.
   const extra = diffHeaderRows(first, settings, tree) - 1;
   const result =

@@ -1,6 +1,7 @@
 import { openSync } from "node:fs";
 import { ReadStream } from "node:tty";
 import { prepareDiff } from "../diff/diff-trees.js";
+import { defaultComparedFields } from "../diff/field-edits.js";
 import { EspalierError } from "../errors.js";
 import { commandLine } from "../explore/command-line.js";
 import { configText, focusListText, isConfigName } from "../explore/foci-file.js";
@@ -27,8 +28,9 @@ import { EXIT } from "./exit-codes.js";
 import { loadInput, loadVersions, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import { type SummaryCliOptions, summaryOptionsSchema } from "./options.js";
-import { unitsFor, useColour } from "./output-settings.js";
+import { comparedSaid, outputSettings, unitsFor, useColour } from "./output-settings.js";
 import { flagsByKey } from "./parse-command-line.js";
+import { inputFacts } from "./renderers.js";
 import { writeOutput } from "./write-output.js";
 
 /** How the command was set up, beyond its options. */
@@ -70,9 +72,17 @@ export async function exploreCommand(
     const tree = await loadInput(io, input, opts);
     session = summarySession(prepare(tree), look(tree));
   } else {
-    const [oldTree, newTree] = await loadVersions(io, input, newInput, opts);
-    const prepared = prepareDiff(oldTree, newTree);
-    session = diffSession(prepared, look(prepared.combined.tree));
+    // Kept as `espalier diff` keeps them: the fields it compares by default (`version`).
+    const [oldTree, newTree] = await loadVersions(io, input, newInput, { ...opts, compareField: [] });
+    // The fields `espalier diff` compares by default, so the command p prints shows what the view did.
+    const compareFields = defaultComparedFields(oldTree, newTree);
+    const prepared = prepareDiff(oldTree, newTree, { compareFields });
+    // The header says of the inputs what `espalier diff` says (the reading chosen, the fields compared…).
+    const settings = {
+      ...outputSettings(opts, io, prepared.combined.tree, [oldTree, newTree]),
+      compared: comparedSaid(compareFields, [oldTree, newTree]),
+    };
+    session = diffSession(prepared, { ...look(prepared.combined.tree), inputFacts: inputFacts(settings) });
   }
   const resolved = resolveSpecs(session.index, foci, key, opts.unmatchedFoci);
   // Before the view takes the screen: the warning stays on the terminal after it.

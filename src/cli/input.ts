@@ -65,7 +65,7 @@ export async function loadVersions(
   io: CliIO,
   oldInput: string,
   newInput: string,
-  opts: SharedCliOptions,
+  opts: SharedCliOptions & { compareField?: readonly string[] },
 ): Promise<[Tree, Tree]> {
   if (oldInput === "-" && newInput === "-")
     throw new EspalierError("USAGE", "only one of the two versions can come from standard input");

@@ -33,6 +33,8 @@ export interface OutputSettings {
   filledRows: readonly number[] | undefined;
   /** YAML documents of a stream read as values, per input; undefined when no input had several. */
   documents: readonly number[] | undefined;
+  /** A diff's compared record fields (see `HeaderOptions.compared`); undefined for a summary. */
+  compared?: readonly string[];
 }
 
 /**
@@ -122,4 +124,18 @@ export function defaultWidth(io: CliIO): number | undefined {
 export function defaultBudget(io: CliIO): number {
   if (io.stdout.isTTY && io.stdout.rows && io.stdout.rows > 2) return io.stdout.rows - 1;
   return DEFAULT_BUDGET;
+}
+
+/**
+ * The compared fields as the header says them: the list, or none compared for inputs of records (a
+ * table, rows, node objects, a graph), whose other fields a reader could think compared; nothing to say
+ * for path lists and documents read as values, which hold no record fields.
+ */
+export function comparedSaid(
+  fields: readonly string[],
+  trees: readonly Tree[],
+): readonly string[] | undefined {
+  if (fields.length > 0) return [...new Set(fields)];
+  const records = trees.some((t) => t.reading?.shape !== "paths" && t.reading?.shape !== "values");
+  return records ? [] : undefined;
 }

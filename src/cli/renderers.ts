@@ -7,6 +7,7 @@ import {
   diffHeaderLines,
   fociOf,
   type HeaderOptions,
+  type InputFacts,
   summaryHeader,
   summaryHeaderLines,
 } from "../render/header.js";
@@ -83,6 +84,7 @@ export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
       unmatchedFoci: result.unmatchedFoci,
       by: result.combined.by,
       labels: s.labels,
+      compared: s.compared ?? [],
     }),
   markdown: async (result, s, tree) =>
     (await import("../render/diff-markdown.js")).renderDiffMarkdown(
@@ -165,9 +167,20 @@ function headerOf<T extends ViewNode>(
     lines: result.selection.lines,
     foci: fociOf(result.view),
     ...(result.unmatchedFoci.length > 0 ? { skippedFoci: result.unmatchedFoci.length } : {}),
+    ...inputFacts(s),
+  };
+}
+
+/**
+ * What the header says of the inputs, the same for every view of them (the interactive view's too):
+ * what the size measures, how the input was read, rows filled, YAML documents, fields compared.
+ */
+export function inputFacts(s: OutputSettings): InputFacts {
+  return {
     ...(s.sizeName === undefined ? {} : { sizeName: s.sizeName }),
     ...(s.reading === undefined ? {} : { reading: s.reading }),
     ...(s.filledRows === undefined ? {} : { filledRows: s.filledRows }),
     ...(s.documents === undefined ? {} : { documents: s.documents }),
+    ...(s.compared === undefined ? {} : { compared: s.compared }),
   };
 }

@@ -12,7 +12,7 @@ import { printedNames } from "../model/printed-names.js";
 import type { Tree } from "../model/tree.js";
 import { diffLineParts } from "../render/diff-line-parts.js";
 import type { Units } from "../render/format-size.js";
-import { diffHeaderLines } from "../render/header.js";
+import { diffHeaderLines, type InputFacts } from "../render/header.js";
 import { lineGroups } from "../render/line-groups.js";
 import { layoutLine } from "../render/line-layout.js";
 import { lineParts } from "../render/line-parts.js";
@@ -30,6 +30,8 @@ export interface LookOptions {
   pseudonymKey?: string;
   /** Styles of marks and numbers (colour decided at the edge); none by default. */
   palette?: Palette;
+  /** A diff: what its header says of the inputs, as `espalier diff` says it (see `inputFacts`). */
+  inputFacts?: InputFacts;
 }
 
 /** One fitted view: its printed lines and what each line shows. */
@@ -120,7 +122,7 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
         diffHeaderLines(
           result.totals,
           combined.by,
-          { budget, lines, foci: result.fociPaths },
+          { budget, lines, foci: result.fociPaths, ...look.inputFacts },
           numbers,
           width,
         );

@@ -14,6 +14,8 @@ export interface DiffJsonOptions {
   /** Foci left out because they matched no node; listed when there are any. */
   unmatchedFoci?: readonly string[];
   by: "id" | "path";
+  /** Record fields compared between matched nodes (a different value is `edited`); none by default. */
+  compared?: readonly string[];
   /** Include each node's label (when a label template is in use). */
   labels: boolean;
 }
@@ -42,6 +44,7 @@ export function toDiffSummary(
   return {
     format: DIFF_FORMAT,
     match: options.by,
+    compared: [...(options.compared ?? [])],
     budget: options.budget,
     lines: options.lines,
     changes: counts(totals.changes),

@@ -111,6 +111,11 @@ export const diffSchema = z
   .object({
     format: z.literal(DIFF_FORMAT),
     match: z.enum(["id", "path"]).describe("How nodes of the two versions were paired."),
+    compared: z
+      .array(z.string())
+      .describe(
+        "Record fields compared between matched nodes: a different value makes a node edited. --compare-field names them; without it, version where both versions have it. Other fields are not compared.",
+      ),
     budget: z.number().int().positive().describe("Line budget asked for."),
     lines: z
       .number()

@@ -49,7 +49,20 @@ export interface HeaderOptions {
    * per input; said when any is above 1, as a reader would take the `0`, `1` for a list's items.
    */
   documents?: readonly number[];
+  /**
+   * A diff: the record fields compared between matched nodes (`--compare-field`, else `version` where
+   * both versions have it), said beside the `edited` count (`1 edited (compared: version)`); empty
+   * for records of which no field was compared (`0 edited (no field compared)`), so a reader does not
+   * take a changed title for no change; undefined where inputs hold no record fields (path lists).
+   */
+  compared?: readonly string[];
 }
+
+/** What a header says of its inputs beside the budget, the lines and the foci (see `HeaderOptions`). */
+export type InputFacts = Pick<
+  HeaderOptions,
+  "sizeName" | "reading" | "filledRows" | "documents" | "compared"
+>;
 
 /** A reading of the input the header names (see `HeaderOptions.reading`). */
 export type HeaderReading =
@@ -144,7 +157,7 @@ function diffParts(
   const w = style.words;
   // A diff of graphs counts edges linked and unlinked too; a diff of trees has none to count.
   const kinds = (totals.graph ? changeKinds : treeChangeKinds)
-    .map((k) => `${formatCount(totals.changes[k])} ${k}`)
+    .map((k) => `${formatCount(totals.changes[k])} ${k}${k === "edited" ? comparedText(header) : ""}`)
     .join(", ");
   let counts = w(`${formatCount(totals.old.nodes)} -> ${formatCount(totals.new.nodes)} nodes`);
   // Entries that are empty objects (`{}`) count as nodes: how many of each version's are such.
@@ -159,6 +172,14 @@ function diffParts(
   }
   const read = readingParts(header, style);
   return (k, h) => [w(`diff by ${by}: ${kinds}`), counts, ...read, fociText(header, k, style), w(used(h))];
+}
+
+/** ` (compared: version, team)`, ` (no field compared)`, or nothing (see `HeaderOptions.compared`). */
+function comparedText({ compared }: HeaderOptions): string {
+  if (compared === undefined) return "";
+  return compared.length === 0
+    ? " (no field compared)"
+    : ` (compared: ${compared.map((f) => safeText(f, 40)).join(", ")})`;
 }
 
 /** The header's text for Markdown: its own words escaped, the input's names as code spans. */

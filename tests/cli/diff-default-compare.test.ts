@@ -40,7 +40,9 @@ describe("espalier diff compares `version` by default, where both versions' reco
     const files = { "old.json": listing("3.1.0"), "new.json": listing("3.2.0") };
     const r = await cli(["diff", "old.json", "new.json", "--fail-on-change"], { files });
     expect(r.code).toBe(1);
-    expect(head(r.stdout)).toContain("0 added, 0 removed, 0 moved, 0 renamed, 1 edited, 0 resized");
+    expect(head(r.stdout)).toContain(
+      "0 added, 0 removed, 0 moved, 0 renamed, 1 edited (compared: version), 0 resized",
+    );
     expect(r.stdout).toContain("[edited version 3.1.0 -> 3.2.0] kelp-log");
     const same = await cli(["diff", "old.json", "old.json", "--fail-on-change"], { files });
     expect(same.code).toBe(0);
@@ -65,10 +67,14 @@ describe("espalier diff compares `version` by default, where both versions' reco
     });
     expect(r.stderr).toBe("");
     expect(r.code).toBe(0);
+    // The header says no field was compared, so a changed team would not be taken for no change.
+    expect(head(r.stdout)).toContain("0 edited (no field compared)");
     const paths = await cli(["diff", "a.paths", "b.paths", "--fail-on-change"], {
       files: { "a.paths": "quill/a\n", "b.paths": "quill/a\n" },
     });
     expect(paths.code).toBe(0);
+    // A path list holds no record fields: nothing to say of compared ones.
+    expect(head(paths.stdout)).toContain(" 0 edited, ");
   });
 
   it("--compare-field replaces the default: then only the named fields count", async () => {
@@ -76,8 +82,10 @@ describe("espalier diff compares `version` by default, where both versions' reco
     const r = await cli(["diff", "old.json", "new.json", "--fail-on-change", "--compare-field", "resolved"], {
       files,
     });
-    expect(head(r.stdout)).toContain("0 edited");
+    expect(head(r.stdout)).toContain("0 edited (compared: resolved)");
     expect(r.code).toBe(0);
+    const json = await cli(["diff", "old.json", "new.json", "--format", "json"], { files });
+    expect(JSON.parse(json.stdout).compared).toEqual(["version"]);
   });
 
   it("a summary keeps no version field and still refuses a label field no record has", async () => {

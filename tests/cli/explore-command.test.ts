@@ -286,6 +286,35 @@ describe("espalier explore", () => {
     expect(printed.stdout).toBe(`${screen.join("\n")}\n`);
   });
 
+  it("compares version as espalier diff does, so a version bump is an edit on the screen and in p's command", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "espalier-explore-version-"));
+    const listing = (v: string) =>
+      JSON.stringify({ name: "tidewater", version: "1.0.0", dependencies: { "kelp-log": { version: v } } });
+    const oldFile = join(dir, "old.json");
+    const newFile = join(dir, "new.json");
+    writeFileSync(oldFile, listing("3.1.0"));
+    writeFileSync(newFile, listing("3.2.0"));
+    const terminal = new FakeTerminal(["p"], 12, 200);
+    const out = await exploreCommand(
+      oldFile,
+      newFile,
+      options({ parentField: "parent", sizeField: "size" }),
+      io(),
+      {
+        terminal,
+      },
+    );
+    const screen = terminal
+      .lastFrame()
+      .slice(0, -1)
+      .filter((row) => row !== "")
+      .map((row) => row.slice(2));
+    expect(screen.join("\n")).toContain("1 edited (compared: version)");
+    expect(screen.join("\n")).toContain("[edited version 3.1.0 -> 3.2.0] kelp-log");
+    const printed = await cli([...argsOf(out.text.trim()).slice(1), "--width", "198", "--color", "never"]);
+    expect(printed.stdout).toBe(`${screen.join("\n")}\n`);
+  });
+
   it("explores two versions of a graph with --nodes: once for both, or OLD's then NEW's", async () => {
     const edges = "fixtures/tidewater-deps.edges";
     const packages = "fixtures/tidewater-packages.csv";
@@ -311,9 +340,13 @@ describe("espalier explore", () => {
       expect(out.exitCode).toBe(0);
       return terminal.lastFrame().join("\n");
     };
-    expect(await screen([packages])).toMatch(/0 edited, 0 resized, .* \(net \+0 B\)/);
+    expect(await screen([packages])).toMatch(/0 edited \(compared: version\), 0 resized, .* \(net \+0 B\)/);
     // 51,000 - 40,922 = 10,078 bytes = 9.8 KiB (IEC 80000-13 binary prefix, 1 KiB = 1,024 B).
-    expect(await screen([packages, newer])).toMatch(/0 edited, 1 resized, .* \(net \+9\.8 KiB\)/);
+    // NEW's records bump ledger-core's version too: one edit, its size change on the edit's tag, as
+    // espalier diff reports it (the view compares version as the command does).
+    const newerScreen = await screen([packages, newer]);
+    expect(newerScreen).toMatch(/1 edited \(compared: version\), 0 resized, .* \(net \+9\.8 KiB\)/);
+    expect(newerScreen).toContain("[edited version 0.7.5 -> 0.8.0, +9.8 KiB]");
   });
 
   it("reports an input or focus error as the summary does, before taking the terminal, naming no real name under --pseudonymize", async () => {
