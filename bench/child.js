@@ -446,6 +446,11 @@ async function diff({ oldFile, newFile, budget, profile }) {
   const [oldTree, newTree] =
     threads === 2 ? await Promise.all([loadOld(), loadNew()]) : [await loadOld(), await loadNew()];
   const t2 = now();
+  // The fields the command line compares (cli/diff-command.ts): --compare-field, else `version` where
+  // both versions keep it; the header says which (cli/output-settings.ts, comparedSaid).
+  const { defaultComparedFields } = await import(new URL("../dist/diff/field-edits.js", import.meta.url));
+  const compareFields =
+    opts.compareField.length > 0 ? opts.compareField : defaultComparedFields(oldTree, newTree);
   const result = api.diffTrees(oldTree, newTree, {
     foci: [],
     budget: opts.budget ?? cli.defaultBudget(io),
@@ -455,12 +460,16 @@ async function diff({ oldFile, newFile, budget, profile }) {
     chains: opts.chains,
     headerLines: cli.headerLinesFor(opts, "diff"),
     siblingOrder: opts.siblingOrder,
-    compareFields: opts.compareField,
+    compareFields,
     unmatchedFoci: opts.unmatchedFoci,
   });
   const t3 = now();
   const { tree } = result.combined;
-  const output = await cli.diffRenderers[opts.format](result, cli.outputSettings(opts, io, tree), tree);
+  const settings = {
+    ...cli.outputSettings(opts, io, tree, [oldTree, newTree]),
+    compared: cli.comparedSaid(compareFields, [oldTree, newTree]),
+  };
+  const output = await cli.diffRenderers[opts.format](result, settings, tree);
   const t4 = now();
   const cpu = cpuMs(cpu0);
   if (session) await stopProfile(session, profile);
