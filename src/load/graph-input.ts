@@ -1,5 +1,5 @@
 import { Buffer } from "node:buffer";
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import { adjacencyNodes } from "./adjacency.js";
 import { loadEdgeList } from "./edge-list.js";
@@ -41,10 +41,40 @@ export function edgeTableFields(options: LoadOptions): LoadOptions {
   };
 }
 
+/**
+ * A plain edge list (pairs separated by spaces or a tab, no header naming its columns) reads no column,
+ * so column options named for it would be ignored: an edge table whose header names its columns
+ * otherwise (`from,to` with `--parent-field src`) would read as a list of one-id lines, with exit 0.
+ * FIELD_MISSING instead when --parent-field or --child-field was named (the header lacks them), USAGE
+ * for the other link options.
+ */
+export function checkPlainEdgeList(text: string, options: LoadOptions): void {
+  const named = options.linkOptionsNamed ?? [];
+  if (named.length === 0) return;
+  const first = (/^[ \t]*\S[^\n]*/m.exec(text)?.[0] ?? "").replace(/\r$/, "").trim();
+  const columns = named.filter((flag) => flag === "--parent-field" || flag === "--child-field");
+  if (columns.length > 0)
+    throw new EspalierError(
+      "FIELD_MISSING",
+      say`an edge table's first line names its columns, and this one names no ${options.parentField} and ${options.childField} columns (${columns.join(", ")}): it reads ${quoted.value(first.slice(0, 120))}; name the columns the header has, or, for pairs separated by spaces or a tab without a header, leave the options out`,
+      { line: 1, column: 1 },
+      { fieldsNeeded: [options.parentField, options.childField] },
+    );
+  throw new EspalierError(
+    "USAGE",
+    `${named.join(", ")} ${named.length === 1 ? "does" : "do"} not apply: an edge list is read by its ${options.parentField} and ${options.childField} columns (--parent-field, --child-field) or as pairs separated by spaces or a tab`,
+    undefined,
+    { options: [...named] },
+  );
+}
+
 /** An edge list or edge table held as text. */
 export function loadEdges(text: string, options: LoadOptions): GraphNodes {
   const delimiter = edgeTableDelimiter(text, options);
-  if (delimiter === null) return loadEdgeList(text, options);
+  if (delimiter === null) {
+    checkPlainEdgeList(text, options);
+    return loadEdgeList(text, options);
+  }
   const table = csvTableFromBytes(Buffer.from(text, "utf8"), delimiter, edgeTableFields(options));
   try {
     return linkGraphTable(table, options, true);

@@ -7,7 +7,14 @@ import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { Tree } from "../../model/tree.js";
 import { byteLoader } from "../byte-loader.js";
 import { detectFormat } from "../detect-format.js";
-import { edgeTableDelimiter, edgeTableFields, isGraph, jsonGraph, withNodeRecords } from "../graph-input.js";
+import {
+  checkPlainEdgeList,
+  edgeTableDelimiter,
+  edgeTableFields,
+  isGraph,
+  jsonGraph,
+  withNodeRecords,
+} from "../graph-input.js";
 import { linkGraphTable } from "../graph-table.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
 import { checkPathListOptions } from "../path-list/path-list-options.js";
@@ -86,8 +93,12 @@ async function linkedNodes(
     return loadYaml(await wholeText(chunks, "YAML", limitsOf(options.limits).maxYamlBytes), options);
   }
   if (format === "edges") {
-    const delimiter = edgeTableDelimiter(new TextDecoder("utf-8", { ignoreBOM: true }).decode(head), options);
-    if (delimiter === null) return edgeListStream(chunks, options);
+    const start = new TextDecoder("utf-8", { ignoreBOM: true }).decode(head);
+    const delimiter = edgeTableDelimiter(start, options);
+    if (delimiter === null) {
+      checkPlainEdgeList(start, options);
+      return edgeListStream(chunks, options);
+    }
     seen.delimiter = delimiter;
     const table = await csvTableFromStream(chunks, delimiter, edgeTableFields(options));
     try {
