@@ -1,5 +1,5 @@
 import { Buffer } from "node:buffer";
-import { EspalierError } from "../errors.js";
+import { EspalierError, quoted, say } from "../errors.js";
 import { doubled } from "../model/child-hash.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import { NamePool } from "../model/names.js";
@@ -408,6 +408,15 @@ export class EdgeListReader {
   finish(): GraphNodes {
     const n = this.count;
     if (n === 0) throw new EspalierError("INPUT_EMPTY", "the edge list has no ids");
+    // No line held two ids, and the first holds a comma: a CSV edge table whose header names its columns
+    // otherwise (`from,to`), which would read as lone nodes, one a line, with exit 0.
+    const first = this.idBytes.subarray(this.idStart[0], this.idStart[0] + this.idSize[0]);
+    if (this.edges === 0 && first.includes(0x2c))
+      throw new EspalierError(
+        "PARSE_CSV",
+        say`no line holds two ids separated by spaces or a tab, and the first, ${quoted.value(first.toString("utf8", 0, 120))}, holds commas: a CSV edge table's first line names its parent and child columns ("parent" and "child", or those --parent-field and --child-field name)`,
+        { line: this.origin[0], column: 1 },
+      );
     const ids = NamePool.fromParts({
       length: n,
       bytes: this.idBytes.subarray(0, this.used),

@@ -30,6 +30,17 @@ describe("column options on an edge list", () => {
     expect(r.stdout).toBe(". ledger / ledger-core / kelp-log\n");
   });
 
+  it("without options, a table whose header names no parent and child is PARSE_CSV, not lone nodes", async () => {
+    const r = await cli(["-", "--input-format", "edges"], { stdin: `\n${table}` });
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(
+      /^espalier: <stdin>:2:1: no line holds two ids .*"from,to", holds commas.*\[PARSE_CSV\]\n$/,
+    );
+    // One id a line without commas still declares lone nodes (docs/input.md).
+    const lone = await cli(["-", "--input-format", "edges", "--bare"], { stdin: "ledger\nkelp-log\n" });
+    expect(lone.stdout).toBe(". (stdin)  3 nodes\n  . ledger\n  . kelp-log\n");
+  });
+
   it("another link option on pairs separated by spaces is USAGE naming it", async () => {
     const r = await cli(["-", "--input-format", "edges", "--path-field", "p"], {
       stdin: "ledger ledger-core\nledger-core kelp-log\n",
