@@ -17,7 +17,9 @@ async function usage(args: string[], stdin: string, options: string, reading: st
   expect(r.code).toBe(2);
   expect(r.stdout).toBe("");
   expect(r.stderr).toMatch(
-    new RegExp(`^espalier: <stdin>: ${options} do(es)? not apply: this input is read as ${reading}.*\\[USAGE\\]\\n$`),
+    new RegExp(
+      `^espalier: <stdin>: ${options} do(es)? not apply: this input is read as ${reading}.*\\[USAGE\\]\\n$`,
+    ),
   );
 }
 
@@ -69,6 +71,8 @@ describe("link options on a graph that does not read them", () => {
     // Without --nodes it names no column the edge list has: USAGE as before.
     const alone = await cli(["-", "--input-format", "edges", "--id-field", "package"], { stdin: pairs });
     expect(alone.code).toBe(2);
-    expect(alone.stderr).toMatch(/^espalier: <stdin>: --id-field does not apply: an edge list .*\[USAGE\]\n$/);
+    expect(alone.stderr).toMatch(
+      /^espalier: <stdin>: --id-field does not apply: an edge list .*\[USAGE\]\n$/,
+    );
   });
 });
