@@ -33,10 +33,16 @@ export function linkTable(
   } catch (err) {
     throw placedAtRow(shape === "table" ? withSeparatorHint(err, table.columnNames()) : err, table.place);
   }
+  // Linked by id with no name column: the ids name the nodes, and the header says so.
+  const idsName =
+    table.column(options.idField) !== undefined &&
+    table.column(options.parentField) !== undefined &&
+    !table.columnNames().includes(options.nameField);
   linked.reading = {
     shape,
     sizeUnit: fieldSizeUnit(options.sizeField),
     ...(table.filledRows ? { filledRows: table.filledRows } : {}),
+    ...(idsName ? { namesFrom: options.idField } : {}),
   };
   if (table.place) linked.placeRow = table.place;
   return linked;
