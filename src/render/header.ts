@@ -213,9 +213,7 @@ function readingParts(header: HeaderOptions, style: HeaderStyle): string[] {
     documentsText(header, style),
     namesText(header, style),
     filledText(header, style),
-  ].filter(
-    (part) => part !== "",
-  );
+  ].filter((part) => part !== "");
 }
 
 /** `2 YAML documents, named 0 and 1`, `5 YAML documents, named 0 to 4` (a diff: `1 -> 3 YAML documents`). */
