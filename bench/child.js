@@ -270,6 +270,7 @@ async function full({ file, foci, budget, profile }) {
   const chunks = cli.withProgress(source.chunks, io, cli.displayName(file), source.size);
   const tree = await api.loadTreeFromStream(chunks, cli.toLoadOptions(file, opts));
   const t1 = now();
+  const cpuLoad = cpuMs(cpu0);
   const done = await summaryText(api, cli, io, opts, tree);
   const cpu = cpuMs(cpu0);
   if (session) await stopProfile(session, profile);
@@ -277,6 +278,8 @@ async function full({ file, foci, budget, profile }) {
     ms: done.end - t0,
     cpuMs: cpu,
     phases: { "read+load": t1 - t0, ...done.phases },
+    // Processor time: the load's, and the rest (prepare, summarize, render).
+    cpuPhases: { "read+load": cpuLoad, rest: cpu - cpuLoad },
     check: done.check,
   };
 }
@@ -433,9 +436,11 @@ async function diff({ oldFile, newFile, budget, profile }) {
   const oldOptions = { ...cli.toLoadOptions(oldFile, opts), rootName: newOptions.rootName };
   let oldDone = 0;
   let newDone = 0;
+  let oldCpu = 0;
   const loadOld = () =>
     (threads === 2 ? cli.loadInWorker(oldFile, oldOptions) : load(oldFile, oldOptions)).then((tree) => {
       oldDone = now();
+      oldCpu = cpuMs(cpu0);
       return tree;
     });
   const loadNew = () =>
@@ -446,6 +451,7 @@ async function diff({ oldFile, newFile, budget, profile }) {
   const [oldTree, newTree] =
     threads === 2 ? await Promise.all([loadOld(), loadNew()]) : [await loadOld(), await loadNew()];
   const t2 = now();
+  const loadsCpu = cpuMs(cpu0);
   // The fields the command line compares (cli/diff-command.ts): --compare-field, else `version` where
   // both versions keep it; the header says which (cli/output-settings.ts, comparedSaid).
   const { defaultComparedFields } = await import(new URL("../dist/diff/field-edits.js", import.meta.url));
@@ -464,6 +470,7 @@ async function diff({ oldFile, newFile, budget, profile }) {
     unmatchedFoci: opts.unmatchedFoci,
   });
   const t3 = now();
+  const diffCpu = cpuMs(cpu0);
   const { tree } = result.combined;
   const settings = {
     ...cli.outputSettings(opts, io, tree, [oldTree, newTree]),
@@ -478,6 +485,12 @@ async function diff({ oldFile, newFile, budget, profile }) {
     cpuMs: cpu,
     threads,
     phases: { "read+loadOld": oldDone - t0, "read+loadNew": newDone - t0, diff: t3 - t2, render: t4 - t3 },
+    // Processor time of each stage (each load on its own only on one thread: two overlap, and the
+    // worker's time is counted when it ends), not cumulative.
+    cpuPhases:
+      threads === 2
+        ? { loads: loadsCpu, diff: diffCpu - loadsCpu, render: cpu - diffCpu }
+        : { loadOld: oldCpu, loadNew: loadsCpu - oldCpu, diff: diffCpu - loadsCpu, render: cpu - diffCpu },
     check: {
       by: result.combined.by,
       oldNodes: oldTree.length,
