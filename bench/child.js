@@ -268,7 +268,8 @@ async function full({ file, foci, budget, profile }) {
   const t0 = now();
   const source = await cli.readInputStream(io, file);
   const chunks = cli.withProgress(source.chunks, io, cli.displayName(file), source.size);
-  const tree = await api.loadTreeFromStream(chunks, cli.toLoadOptions(file, opts));
+  // With the input's length, as the command line streams a named file (cli/input.ts, streamTree).
+  const tree = await api.loadTreeFromStream(chunks, sized(cli.toLoadOptions(file, opts), source.size));
   const t1 = now();
   const cpuLoad = cpuMs(cpu0);
   const done = await summaryText(api, cli, io, opts, tree);
@@ -315,6 +316,11 @@ async function summaryText(api, cli, io, opts, tree) {
       output: sha1(output),
     },
   };
+}
+
+/** Load options with the input's length, when known, as cli/input.ts streams a named file. */
+function sized(options, size) {
+  return size === undefined ? options : { ...options, inputBytes: size };
 }
 
 function sha1(text) {
@@ -422,7 +428,7 @@ async function diff({ oldFile, newFile, budget, profile }) {
   const load = async (file, options) => {
     const source = await cli.readInputStream(io, file);
     const chunks = cli.withProgress(source.chunks, io, cli.displayName(file), source.size);
-    return api.loadTreeFromStream(chunks, options);
+    return api.loadTreeFromStream(chunks, sized(options, source.size));
   };
   // Two threads only when the command line would take them (cli/load-threads.ts): a second processor idle.
   const threads = cli.loadThreads(process.env[cli.LOAD_THREADS_ENV], {
