@@ -115,5 +115,6 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
     edgeOrigin: new Int32Array(from.length),
     edgeCount: from.length,
     repeatedEdges: "skip",
+    linkedBy: "map",
   };
 }

@@ -443,6 +443,7 @@ export class EdgeListReader {
       edgeOrigin: this.edgeLine,
       edgeCount: this.edges,
       repeatedEdges: "skip",
+      linkedBy: "pairs",
       takeSpare: () => {
         const given = spare;
         spare = undefined;

@@ -46,10 +46,13 @@ export function edgeTableFields(options: LoadOptions): LoadOptions {
  * so column options named for it would be ignored: an edge table whose header names its columns
  * otherwise (`from,to` with `--parent-field src`) would read as a list of one-id lines, with exit 0.
  * FIELD_MISSING instead when --parent-field or --child-field was named (the header lacks them), USAGE
- * for the other link options.
+ * for the other link options (--id-field only without node records, whose id column it names).
  */
 export function checkPlainEdgeList(text: string, options: LoadOptions): void {
-  const named = options.linkOptionsNamed ?? [];
+  // --id-field names the id column of node records (--nodes), which a plain edge list may have.
+  const named = (options.linkOptionsNamed ?? []).filter(
+    (flag) => flag !== "--id-field" || options.nodeRecords === undefined,
+  );
   if (named.length === 0) return;
   const first = (/^[ \t]*\S[^\n]*/m.exec(text)?.[0] ?? "").replace(/\r$/, "").trim();
   const columns = named.filter((flag) => flag === "--parent-field" || flag === "--child-field");

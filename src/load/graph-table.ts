@@ -136,6 +136,7 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
     edgeCount: edges,
     repeatedEdges: "error",
     parentColumnRead: true,
+    linkedBy: "id-parent",
   } satisfies GraphNodes;
 }
 
@@ -182,6 +183,7 @@ function linkEdges(table: Table, parentCells: readonly Cell[], childCells: reado
     edgeOrigin,
     edgeCount: rows,
     repeatedEdges: "skip",
+    linkedBy: "parent-child",
   } satisfies GraphNodes;
 }
 

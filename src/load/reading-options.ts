@@ -1,10 +1,12 @@
 import { EspalierError } from "../errors.js";
+import type { GraphNodes } from "../model/graph-nodes.js";
 import type { InputFormat, LinkOption, LoadOptions } from "./load-options.js";
 
 /** What the check needs to know of how a loader read the input. */
 interface ReadNodes {
   parentColumnRead?: boolean;
   reading?: { shape: string };
+  linkedBy?: GraphNodes["linkedBy"];
 }
 
 /**
@@ -13,25 +15,71 @@ interface ReadNodes {
  * JSON/YAML document is read (`--read-as`), given on an input read another way: each would be
  * ignored, and a user who named a column (say, `ps` output with `--id-field pid --parent-field ppid`,
  * read as a path list because it is no CSV) would get another tree with exit 0. USAGE instead, naming
- * the options and what the input was read as. Graphs are not checked here: their readers check their
- * own columns.
+ * the options and what the input was read as. A graph is checked by how it links its nodes (an
+ * adjacency map given `--parent-field`, a `--graph` table given `--read-as`).
  */
 export function checkReadingOptions(nodes: ReadNodes, format: InputFormat, options: LoadOptions): void {
+  if (nodes.linkedBy !== undefined) {
+    const linkedBy = nodes.linkedBy;
+    const unused: string[] = (options.linkOptionsNamed ?? []).filter(
+      (flag) => !graphReads(flag, linkedBy, options.nodeRecords !== undefined),
+    );
+    if (options.readAs !== undefined) unused.push("--read-as");
+    refuse(unused, graphReadingName(linkedBy), "");
+    return;
+  }
   const shape = nodes.reading?.shape;
-  if (shape === undefined || shape === "graph") return;
+  if (shape === undefined) return;
   const byId = nodes.parentColumnRead === true;
   const unused: string[] = (options.linkOptionsNamed ?? []).filter((flag) => !reads(flag, shape, byId));
   if (options.graph) unused.push("--graph");
   if (options.nodeRecords !== undefined) unused.push("--nodes");
   if (options.readAs !== undefined && (shape === "table" || shape === "paths")) unused.push("--read-as");
+  refuse(unused, readingName(shape, byId, format), hint(shape));
+}
+
+/** USAGE naming the options `unused` and the reading (`what`) that does not read them; none: nothing. */
+function refuse(unused: readonly string[], what: string, hint: string): void {
   if (unused.length === 0) return;
   const list = unused.length === 1 ? unused[0] : `${unused.slice(0, -1).join(", ")} and ${unused.at(-1)}`;
   throw new EspalierError(
     "USAGE",
-    `${list} ${unused.length === 1 ? "does" : "do"} not apply: this input is read as ${readingName(shape, byId, format)}, which does not read ${unused.length === 1 ? "it" : "them"}${hint(shape)}`,
+    `${list} ${unused.length === 1 ? "does" : "do"} not apply: this input is read as ${what}, which does not read ${unused.length === 1 ? "it" : "them"}${hint}`,
     undefined,
-    { options: unused },
+    { options: [...unused] },
   );
+}
+
+/**
+ * Whether a graph linked so reads the column or field a link option names; `--id-field` also names
+ * the id column of node records (`--nodes`).
+ */
+function graphReads(flag: LinkOption, linkedBy: GraphNodes["linkedBy"], records: boolean): boolean {
+  switch (flag) {
+    case "--id-field":
+      return linkedBy === "id-parent" || records;
+    case "--parent-field":
+      return linkedBy === "id-parent" || linkedBy === "parent-child";
+    case "--child-field":
+      return linkedBy === "parent-child";
+    case "--children-field":
+      return linkedBy === "map";
+    case "--path-field":
+      return false;
+  }
+}
+
+function graphReadingName(linkedBy: GraphNodes["linkedBy"]): string {
+  switch (linkedBy) {
+    case "pairs":
+      return "an edge list (pairs of ids separated by spaces or a tab)";
+    case "parent-child":
+      return "an edge table (a parent and a child column)";
+    case "id-parent":
+      return "a graph linked by id and parent columns";
+    case "map":
+      return "an adjacency map (each key an id, its value its children)";
+  }
 }
 
 /** Whether a reading reads the column or field a link option names. */

@@ -11,6 +11,13 @@ import type { TreeReading } from "./tree.js";
 export interface GraphNodes {
   /** Linked by an id and a parent column (`--graph` on a table or rows), where `--null-parent` applies. */
   parentColumnRead?: boolean;
+  /**
+   * How the input links its nodes: `pairs` (an edge list of ids separated by spaces or a tab),
+   * `parent-child` (an edge table's parent and child columns), `id-parent` (a table or rows with
+   * `--graph`), `map` (an adjacency map); the link options each reads are checked against it
+   * (load/reading-options.ts).
+   */
+  linkedBy: "pairs" | "parent-child" | "id-parent" | "map";
   /** Names, one per node (the id where the input gives no name). */
   name: NamePool | readonly string[];
   /** Ids, one per node: what edges name. */
