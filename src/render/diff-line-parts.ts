@@ -43,6 +43,7 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
     numbers: say(options, parts.numbers),
     compactNumbers: say({ ...options, compact: true }, parts.compactNumbers),
     fold: fold(options),
+    foldCounts: hidden ? `(hidden: ${foldAmount(group, last, options)}; ${inside})` : "",
     compactFold: fold({ ...options, compact: true }),
     foldShort: hidden ? `(${foldWords(last)}; ${few})` : "",
     foldTiny: hidden ? `(${formatCount(hidden.children)} hidden, ${formatCount(changed)} changed)` : "",

@@ -34,6 +34,11 @@ export interface LineParts {
   compactNumbers: string;
   /** What is folded under the last node, in full (`(hidden: 3 children, 41 nodes, 2.0 MiB)`). */
   fold: string;
+  /**
+   * The fold's numbers without how many children it holds (`(hidden: 41 nodes, 2.0 MiB)`): the line
+   * keeps every number a reader needs to check `nodes = 1 + the lines below + hidden`.
+   */
+  foldCounts: string;
   /** The same with compact numbers. */
   compactFold: string;
   /** The fold without its numbers (`(hidden: 3 children)`). */
@@ -62,17 +67,19 @@ const MIN_LABEL = 8;
  * One line of text, `<indent><mark> <a> / <b> / [<tag> ]<c>  <numbers>  <fold>`, within `width`
  * columns. A diff's tag stands right before the name it belongs to, the chain's last. When the line
  * is too wide, what gives way, in turn (the first that fits is used):
- *   1. numbers become compact (`12.1k nodes`, plain sizes `286M`);
- *   2. the fold keeps only how many children it hides (`(hidden: 3 children)`, then `(3 hidden)`;
+ *   1. the fold drops how many children it hides and keeps its numbers (`(hidden: 41 nodes, 2.0 MiB)`),
+ *      so every count on the line can still be checked;
+ *   2. numbers become compact (`12.1k nodes`, plain sizes `286M`), the fold with its children again;
+ *   3. the fold keeps only how many children it hides (`(hidden: 3 children)`, then `(3 hidden)`;
  *      in a diff with how many changed nodes it holds);
- *   3. the tag's old path or old name is cut to a few columns;
- *   4. the labels are cut, down to 8 columns: one name at its end, or around where it differs from
+ *   4. the tag's old path or old name is cut to a few columns;
+ *   5. the labels are cut, down to 8 columns: one name at its end, or around where it differs from
  *      its siblings when the end cut would lose that; a chain in its middle (its first and last names
  *      stay readable);
- *   5. the line's own numbers go;
- *   6. the labels are cut further, down to one column and `…`;
- *   7. a deep line's indentation shrinks to a third of the width, then to its level in digits;
- *   8. the tag keeps only its kind (`[moved]`), then the fold only its sign (`(hidden)`).
+ *   6. the line's own numbers go;
+ *   7. the labels are cut further, down to one column and `…`;
+ *   8. a deep line's indentation shrinks to a third of the width, then to its level in digits;
+ *   9. the tag keeps only its kind (`[moved]`), then the fold only its sign (`(hidden)`).
  * A fold never goes: a reader always sees that something is hidden. At MIN_WIDTH and wider the line
  * always fits this way; narrower (which the renderers refuse), the line's start is cut instead.
  */
@@ -106,6 +113,7 @@ export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
     displayWidth(line(ind, text, tag, numbers, fold, false)) <= width;
   const whole: [string, string, string][] = [
     [p.tag, p.numbers, p.fold],
+    [p.tag, p.numbers, p.foldCounts],
     [p.tag, p.compactNumbers, p.compactFold],
     [p.tag, p.compactNumbers, p.foldShort],
     [p.tag, p.compactNumbers, p.foldTiny],

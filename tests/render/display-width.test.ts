@@ -139,9 +139,11 @@ describe("renderText(view, { width })", () => {
     expect(at(200)).toBe(
       "  . Esme Orby Lead Firmware Engineer  3 nodes, 123,459  (hidden: 2 children, 2 nodes, 3)",
     );
-    // Compact numbers first (SI prefix k = 1000, BIPM SI brochure, 9th edition, table 7) and the
+    // First the fold's count of children goes, every number kept exact: 3 = 1 + 2 hidden.
+    expect(at(76)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123,459  (hidden: 2 nodes, 3)");
+    // Then compact numbers (SI prefix k = 1000, BIPM SI brochure, 9th edition, table 7) and the
     // fold's count of hidden children only, the name whole; then the fold at its shortest.
-    expect(at(76)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123k  (hidden: 2 children)");
+    expect(at(75)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123k  (hidden: 2 children)");
     expect(at(66)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123k  (2 hidden)");
     // Only then is the name cut, at its end, down to 8 columns; then the line's own numbers go.
     expect(at(40)).toBe("  . Esme Orb…  3 nodes, 123k  (2 hidden)");

@@ -34,6 +34,7 @@ const arbParts: fc.Arbitrary<LineParts> = fc
       numbers: "12,345,678 nodes, 1.2 GiB, net +3.4 MiB",
       compactNumbers: "12.3M nodes, 1.2 GiB, net +3.4 MiB",
       fold: hidden === null ? "" : `(hidden: ${count} children, 9,999 nodes, 1.0 GiB; 3 added)`,
+      foldCounts: hidden === null ? "" : "(hidden: 9,999 nodes, 1.0 GiB; 3 added)",
       compactFold: hidden === null ? "" : `(hidden: ${count} children, 10k nodes, 1.0 GiB; 3 added)`,
       foldShort:
         hidden === null ? "" : `(hidden: ${count} children; ${changed.toLocaleString("en-US")} changed)`,
@@ -68,6 +69,7 @@ describe("layoutLine(parts, { width })", () => {
       numbers: "41 nodes, 2.0 MiB",
       compactNumbers: "41 nodes, 2.0 MiB",
       fold: "(hidden: 3 children, 40 nodes, 2.0 MiB; 12,345 changed)",
+      foldCounts: "(hidden: 40 nodes, 2.0 MiB; 12,345 changed)",
       compactFold: "(hidden: 3 children, 40 nodes, 2.0 MiB; 12,345 changed)",
       foldShort: "(hidden: 3 children; 12,345 changed)",
       foldTiny: "(3 hidden, 12,345 changed)",
@@ -80,5 +82,39 @@ describe("layoutLine(parts, { width })", () => {
     expect(layoutLine(parts, { width: 60 })).toBe("12 . [moved] ledger-events  (3 hidden, 12,345 changed)");
     // Below MIN_WIDTH (only a small interactive screen asks): the start is cut, the sign kept.
     expect(layoutLine(parts, { width: 20 })).toBe(`12 . [mov…  ${FOLD_SIGN}`);
+  });
+
+  it("drops the fold's children before any number, so the line's count can still be checked", () => {
+    const parts: LineParts = {
+      level: 0,
+      mark: ":",
+      role: "path",
+      tag: "",
+      shortTag: "",
+      tagKind: null,
+      labels: ["inventory", "warehouses"],
+      numbers: "3,257 nodes, 40.6 MiB",
+      compactNumbers: "3.3k nodes, 40.6 MiB",
+      fold: "(hidden: 67 children, 2,648 nodes, 33.2 MiB)",
+      foldCounts: "(hidden: 2,648 nodes, 33.2 MiB)",
+      compactFold: "(hidden: 67 children, 2.6k nodes, 33.2 MiB)",
+      foldShort: "(hidden: 67 children)",
+      foldTiny: "(67 hidden)",
+    };
+    // Whole: 93 columns.
+    expect(layoutLine(parts, { width: 93 })).toBe(
+      ": inventory / warehouses  3,257 nodes, 40.6 MiB  (hidden: 67 children, 2,648 nodes, 33.2 MiB)",
+    );
+    // One column less: the children go first; 3,257 = 1 + 608 on the lines below + 2,648 stays checkable.
+    expect(layoutLine(parts, { width: 92 })).toBe(
+      ": inventory / warehouses  3,257 nodes, 40.6 MiB  (hidden: 2,648 nodes, 33.2 MiB)",
+    );
+    expect(layoutLine(parts, { width: 80 })).toBe(
+      ": inventory / warehouses  3,257 nodes, 40.6 MiB  (hidden: 2,648 nodes, 33.2 MiB)",
+    );
+    // Narrower still (the compact fold, 91 columns, is no shorter here): only the children.
+    expect(layoutLine(parts, { width: 79 })).toBe(
+      ": inventory / warehouses  3.3k nodes, 40.6 MiB  (hidden: 67 children)",
+    );
   });
 });
