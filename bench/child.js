@@ -268,8 +268,10 @@ async function full({ file, foci, budget, profile }) {
   const t0 = now();
   const source = await cli.readInputStream(io, file);
   const chunks = cli.withProgress(source.chunks, io, cli.displayName(file), source.size);
-  const tree = await api.loadTreeFromStream(chunks, cli.toLoadOptions(file, opts));
+  // With the input's length, as the command line streams a named file (cli/input.ts, streamTree).
+  const tree = await api.loadTreeFromStream(chunks, sized(cli.toLoadOptions(file, opts), source.size));
   const t1 = now();
+  const cpuLoad = cpuMs(cpu0);
   const done = await summaryText(api, cli, io, opts, tree);
   const cpu = cpuMs(cpu0);
   if (session) await stopProfile(session, profile);
@@ -277,6 +279,8 @@ async function full({ file, foci, budget, profile }) {
     ms: done.end - t0,
     cpuMs: cpu,
     phases: { "read+load": t1 - t0, ...done.phases },
+    // Processor time: the load's, and the rest (prepare, summarize, render).
+    cpuPhases: { "read+load": cpuLoad, rest: cpu - cpuLoad },
     check: done.check,
   };
 }
@@ -312,6 +316,11 @@ async function summaryText(api, cli, io, opts, tree) {
       output: sha1(output),
     },
   };
+}
+
+/** Load options with the input's length, when known, as cli/input.ts streams a named file. */
+function sized(options, size) {
+  return size === undefined ? options : { ...options, inputBytes: size };
 }
 
 function sha1(text) {
@@ -419,7 +428,7 @@ async function diff({ oldFile, newFile, budget, profile }) {
   const load = async (file, options) => {
     const source = await cli.readInputStream(io, file);
     const chunks = cli.withProgress(source.chunks, io, cli.displayName(file), source.size);
-    return api.loadTreeFromStream(chunks, options);
+    return api.loadTreeFromStream(chunks, sized(options, source.size));
   };
   // Two threads only when the command line would take them (cli/load-threads.ts): a second processor idle.
   const threads = cli.loadThreads(process.env[cli.LOAD_THREADS_ENV], {
@@ -433,9 +442,11 @@ async function diff({ oldFile, newFile, budget, profile }) {
   const oldOptions = { ...cli.toLoadOptions(oldFile, opts), rootName: newOptions.rootName };
   let oldDone = 0;
   let newDone = 0;
+  let oldCpu = 0;
   const loadOld = () =>
     (threads === 2 ? cli.loadInWorker(oldFile, oldOptions) : load(oldFile, oldOptions)).then((tree) => {
       oldDone = now();
+      oldCpu = cpuMs(cpu0);
       return tree;
     });
   const loadNew = () =>
@@ -446,6 +457,7 @@ async function diff({ oldFile, newFile, budget, profile }) {
   const [oldTree, newTree] =
     threads === 2 ? await Promise.all([loadOld(), loadNew()]) : [await loadOld(), await loadNew()];
   const t2 = now();
+  const loadsCpu = cpuMs(cpu0);
   // The fields the command line compares (cli/diff-command.ts): --compare-field, else `version` where
   // both versions keep it; the header says which (cli/output-settings.ts, comparedSaid).
   const { defaultComparedFields } = await import(new URL("../dist/diff/field-edits.js", import.meta.url));
@@ -464,6 +476,7 @@ async function diff({ oldFile, newFile, budget, profile }) {
     unmatchedFoci: opts.unmatchedFoci,
   });
   const t3 = now();
+  const diffCpu = cpuMs(cpu0);
   const { tree } = result.combined;
   const settings = {
     ...cli.outputSettings(opts, io, tree, [oldTree, newTree]),
@@ -478,6 +491,12 @@ async function diff({ oldFile, newFile, budget, profile }) {
     cpuMs: cpu,
     threads,
     phases: { "read+loadOld": oldDone - t0, "read+loadNew": newDone - t0, diff: t3 - t2, render: t4 - t3 },
+    // Processor time of each stage (each load on its own only on one thread: two overlap, and the
+    // worker's time is counted when it ends), not cumulative.
+    cpuPhases:
+      threads === 2
+        ? { loads: loadsCpu, diff: diffCpu - loadsCpu, render: cpu - diffCpu }
+        : { loadOld: oldCpu, loadNew: loadsCpu - oldCpu, diff: diffCpu - loadsCpu, render: cpu - diffCpu },
     check: {
       by: result.combined.by,
       oldNodes: oldTree.length,

@@ -400,9 +400,12 @@ function summarizeRuns(format, runs) {
   return entry;
 }
 
-function medianPhases(list) {
+function medianPhases(list, field = "phases") {
   const out = {};
-  for (const key of Object.keys(list[0].phases ?? {})) out[key] = median(list.map((r) => r.phases[key]));
+  for (const key of Object.keys(list[0][field] ?? {})) {
+    const values = list.map((r) => r[field]?.[key]).filter((v) => v !== undefined);
+    if (values.length > 0) out[key] = median(values);
+  }
   return out;
 }
 
@@ -745,6 +748,8 @@ function summarizeDiffRuns(runs) {
   entry.memoryRatio = entry.diffMiB / entry.summaryMiB;
   entry.summaryPhases = medianPhases(summary);
   entry.diffPhases = medianPhases(diff);
+  entry.summaryCpuPhases = medianPhases(summary, "cpuPhases");
+  entry.diffCpuPhases = medianPhases(diff, "cpuPhases");
   entry.check = diff[0].check;
   entry.pass = entry.timeRatio <= TARGETS.diffTime;
   entry.pass14 = entry.timeRatio <= TARGETS.diffTime14;
@@ -1055,6 +1060,10 @@ function diffReport(d) {
       lines.push(
         `  ${format.padEnd(6)} diff: ${phases(e.diffPhases)}   | summary: ${phases(e.summaryPhases)} (ms)`,
       );
+      if (e.diffCpuPhases && Object.keys(e.diffCpuPhases).length > 0)
+        lines.push(
+          `  ${format.padEnd(6)} CPU diff: ${phases(e.diffCpuPhases)}   | summary: ${phases(e.summaryCpuPhases)} (ms)`,
+        );
       const got = e.check.changes;
       const same = Object.keys(e.expected).every((k) => got[k] === e.expected[k]);
       const counts = (c) =>

@@ -24,7 +24,9 @@ const io: CliIO = {
 
 try {
   const source = await readInputStream(io, name);
-  const tree = await loadTreeFromStream(source.chunks, options, readAgain(io, name, source.size));
+  // The input's length lets a reader size its arrays, as on the main thread (input.ts, streamTree).
+  const sized = source.size === undefined ? options : { ...options, inputBytes: source.size };
+  const tree = await loadTreeFromStream(source.chunks, sized, readAgain(io, name, source.size));
   // The arrays move to the main thread (no copy of a million-node tree); this thread ends after.
   const message = treeToMessage(tree);
   parentPort!.postMessage({ tree: message }, treeTransferList(message));

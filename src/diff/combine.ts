@@ -1,3 +1,4 @@
+import { MergedNames } from "../model/merged-names.js";
 import { copyName, NamePool, type Names, sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 import { KIND } from "./changes.js";
@@ -265,7 +266,8 @@ function copyTree(
   const oldIds = oldTree.ids;
   // The new version's names (and ids) are shared, not copied: only the removed nodes' are copied in.
   const name = combinedNames(newName, newIndex, oldName, oldIndex, total, 12);
-  const ids = useIds ? combinedNames(newIds!, newIndex, oldIds!, oldIndex, total, 8) : null;
+  // Ids are read only by a label or a focus by id: each from its version when asked (MergedNames).
+  const ids = useIds ? new MergedNames(newIds!, newIndex, oldIds!, oldIndex) : null;
   for (let k = 0; k < total; k++) {
     const n = newIndex[k];
     depth[k] = k === 0 ? 0 : depth[parent[k]] + 1;

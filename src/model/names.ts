@@ -12,6 +12,8 @@ export interface Names {
   readonly length: number;
   /** The name of node `i`, decoded (invalid UTF-8 as U+FFFD, as the WHATWG decoder does it). */
   get(i: number): string;
+  /** The first node named `text` (not empty), or -1, when these names can tell faster than by reading each. */
+  indexOf?(text: string): number;
 }
 
 /** Names kept as strings: small hand-made trees and derived trees. */
@@ -69,6 +71,7 @@ export function isEmptyName(names: Names, i: number): boolean {
 /** The first node whose name is `text` (not empty), or -1. Compares bytes in a pool: nothing decoded. */
 export function indexOfName(names: Names, text: string): number {
   if (text === "") return -1;
+  if (names.indexOf !== undefined) return names.indexOf(text);
   if (names instanceof NamePool && text.isWellFormed()) {
     return names.indexOfBytes(Buffer.from(text, "utf8"));
   }

@@ -1,4 +1,4 @@
-import { Buffer } from "node:buffer";
+import { Buffer, isUtf8 } from "node:buffer";
 import { EspalierError, quoted, say } from "../../errors.js";
 import { asBuffer, codecs } from "../../model/buffer-codecs.js";
 import { NamePool, namesToArray } from "../../model/names.js";
@@ -6,7 +6,7 @@ import type { LoadOptions } from "../load-options.js";
 import { limitsOf } from "../read-limits.js";
 import { CsvScanner, type CsvSink } from "./csv-scanner.js";
 import { withSeparatorHint } from "./separator-hint.js";
-import type { Table } from "./table.js";
+import { type NumberCells, numberCell, type Table } from "./table.js";
 
 /** The columns a table loader reads. */
 export type TableFields = Pick<
@@ -22,27 +22,48 @@ export type TableFields = Pick<
   | "shortRows"
 >;
 
+/** How the cells of one kept column are kept. */
+const Keeping = {
+  /** As strings, in `cells`. */
+  Text: 0,
+  /** As bytes, in `pool`: the name and id columns, when no other role reads them. */
+  Pool: 1,
+  /** Sizes and parent ids: plain digits as numbers in `values`, other cells as bytes in `pool`. */
+  Numbers: 2,
+} as const;
+type Keeping = (typeof Keeping)[keyof typeof Keeping];
+
 /** What is kept of one column the loader reads. */
 interface Kept {
   name: string;
-  /** Sizes and parent ids: cells of plain digits are kept as their numbers. */
-  numbers: boolean;
-  cells: (string | number)[];
-  /** The name column, when no other role reads it: its cells go into a name pool as bytes. */
+  keeping: Keeping;
+  cells: string[];
   pool: NamePool | null;
+  values: Float64Array;
+  /**
+   * Whether bytes that are no valid UTF-8 go into the pool as their decoded text (U+FFFD for each bad
+   * sequence), so that equal bytes are exactly equal text: ids and parent cells, which are compared by
+   * their bytes (ByteIdIndex) where they were once compared as strings.
+   */
+  asText: boolean;
 }
 
 /**
  * A CSV or TSV table read from bytes with {@link CsvScanner}, fed in chunks (`write`, then `end`). The
- * first record is the header (names trimmed). Only the columns a loader reads are kept, cell by cell:
- * the name column, when no other role reads it, as bytes in a name pool (no string per row); sizes and
- * parent ids written as plain digits as numbers (a number costs no string and reads back as the same
- * text; see IdIndex); other cells as strings. Once more rows than `maxNodes` are known, reading stops.
+ * first record is the header (names trimmed). Only the columns a loader reads are kept, cell by cell,
+ * with no string per row where it can be helped: the name column and the id column, when no other role
+ * reads them, as bytes in a name pool each; sizes and parent ids as numbers in a typed array where
+ * written as plain digits (a number reads back as the same text; see IdIndex) and as bytes in a pool
+ * otherwise ({@link NumberCells}); other cells as strings. A load's passing memory is then the
+ * allocator's, not millions of short-lived strings for the engine's collector to copy and promote (the
+ * id and parent cells of a 1M-row table were about 100 MiB of them; docs/performance.md). Once more
+ * rows than `maxNodes` are known, reading stops.
  */
 export class CsvTableReader implements CsvSink {
   private readonly scanner: CsvScanner;
   private readonly wanted: Set<string>;
   private readonly poolNames: boolean;
+  private readonly poolIds: boolean;
   private header: string[] | undefined;
   private headerLine = 0;
   private readonly at = new Map<string, number>();
@@ -75,14 +96,9 @@ export class CsvTableReader implements CsvSink {
       fields.sizeField,
       ...fields.keepFields,
     ]);
-    const others = new Set([
-      fields.idField,
-      fields.parentField,
-      fields.pathField,
-      fields.sizeField,
-      ...fields.keepFields,
-    ]);
-    this.poolNames = !others.has(fields.nameField);
+    const others = new Set([fields.parentField, fields.pathField, fields.sizeField, ...fields.keepFields]);
+    this.poolNames = !others.has(fields.nameField) && fields.nameField !== fields.idField;
+    this.poolIds = !others.has(fields.idField) && fields.nameField !== fields.idField;
     this.maxRows = fields.maxNodes;
   }
 
@@ -129,14 +145,27 @@ export class CsvTableReader implements CsvSink {
         }
         const column = kept.find((k) => k.name === name);
         if (!column) throw new Error(`column "${name}" was not kept while reading`);
-        if (column.pool) return namesToArray(column.pool).slice(0, length);
+        if (column.keeping === Keeping.Pool) return namesToArray(column.pool!).slice(0, length);
+        if (column.keeping === Keeping.Numbers) {
+          const numbers = numbersOf(column);
+          const cells: (number | string)[] = new Array(length);
+          for (let r = 0; r < length; r++) cells[r] = numberCell(numbers, r);
+          return cells;
+        }
         return column.cells.length > length ? column.cells.slice(0, length) : column.cells;
       },
       columnNames: () => header,
       pooledColumn(name) {
         const c = at.get(name);
         if (c === undefined || header.indexOf(name, c + 1) !== -1) return undefined;
-        return kept.find((k) => k.name === name)?.pool ?? undefined;
+        const column = kept.find((k) => k.name === name);
+        return column?.keeping === Keeping.Pool ? column.pool! : undefined;
+      },
+      numberColumn(name) {
+        const c = at.get(name);
+        if (c === undefined || header.indexOf(name, c + 1) !== -1) return undefined;
+        const column = kept.find((k) => k.name === name);
+        return column?.keeping === Keeping.Numbers ? numbersOf(column) : undefined;
       },
       release() {
         kept = [];
@@ -160,9 +189,25 @@ export class CsvTableReader implements CsvSink {
     }
     const keep = this.route[column];
     if (keep === undefined) return;
-    if (keep.pool !== null) keep.pool.setBytes(this.rows, bytes, start, end);
-    else if (keep.numbers) keep.cells.push(plainNumber(bytes, start, end) ?? this.text(bytes, start, end));
+    const row = this.rows;
+    if (keep.keeping === Keeping.Numbers) {
+      if (row === keep.values.length) keep.values = grown(keep.values);
+      const value = plainNumber(bytes, start, end);
+      if (value !== undefined) keep.values[row] = value;
+      else {
+        keep.values[row] = Number.NaN;
+        this.pooled(keep, row, bytes, start, end);
+      }
+    } else if (keep.keeping === Keeping.Pool) this.pooled(keep, row, bytes, start, end);
     else keep.cells.push(this.text(bytes, start, end));
+  }
+
+  /** Puts a cell's bytes in the column's pool at `row` (as its decoded text when asked and not UTF-8). */
+  private pooled(keep: Kept, row: number, bytes: Uint8Array, start: number, end: number): void {
+    const pool = keep.pool!;
+    if (keep.asText && !isAscii(bytes, start, end) && !isUtf8(bytes.subarray(start, end)))
+      pool.setString(row, this.text(bytes, start, end));
+    else pool.setBytes(row, bytes, start, end);
   }
 
   record(fields: number, line: number): boolean {
@@ -188,9 +233,21 @@ export class CsvTableReader implements CsvSink {
     this.route = new Array(fields).fill(undefined);
     for (const [name, index] of this.at) {
       if (!this.wanted.has(name)) continue;
-      const numbers = name === this.fields.sizeField || name === this.fields.parentField;
-      const pool = this.poolNames && name === this.fields.nameField ? new NamePool() : null;
-      const keep: Kept = { name, numbers, cells: [], pool };
+      const { fields } = this;
+      const keeping: Keeping =
+        name === fields.sizeField || name === fields.parentField
+          ? Keeping.Numbers
+          : (this.poolNames && name === fields.nameField) || (this.poolIds && name === fields.idField)
+            ? Keeping.Pool
+            : Keeping.Text;
+      const keep: Kept = {
+        name,
+        keeping,
+        cells: [],
+        pool: keeping === Keeping.Text ? null : new NamePool(),
+        values: new Float64Array(keeping === Keeping.Numbers ? 1024 : 0),
+        asText: keeping === Keeping.Numbers || name === fields.idField,
+      };
       this.kept.push(keep);
       this.route[index] = keep;
     }
@@ -236,6 +293,23 @@ class RowLines {
     }
     return row + this.first + (lo === 0 ? 0 : this.shifts[lo - 1]);
   }
+}
+
+/** A kept column of numbers as the table gives it. */
+function numbersOf(column: Kept): NumberCells {
+  return { values: column.values, texts: column.pool! };
+}
+
+/** `values` in an array twice as long. */
+function grown(values: Float64Array): Float64Array {
+  const out = new Float64Array(Math.max(1024, values.length * 2));
+  out.set(values);
+  return out;
+}
+
+function isAscii(bytes: Uint8Array, start: number, end: number): boolean {
+  for (let k = start; k < end; k++) if (bytes[k] >= 0x80) return false;
+  return true;
 }
 
 /** The number a cell of 1 to 15 digits without a leading zero (or "0") stands for; else undefined. */

@@ -1,7 +1,7 @@
 import { didYouMean } from "../../did-you-mean.js";
 import { EspalierError, placedAtRow, quoted, quotedList, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
-import { copyName, isEmptyName, NamePool } from "../../model/names.js";
+import { copyName, isEmptyName, NamePool, type Names, StringNames } from "../../model/names.js";
 import { isSize } from "../../model/size-rule.js";
 import type { LoadOptions } from "../load-options.js";
 import { missingField, nameFieldNamed, sizeFieldNamed } from "../missing-field.js";
@@ -10,11 +10,12 @@ import { parseSize } from "../parse-size.js";
 import { PathPlacer } from "../path-placer.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { fieldSizeUnit } from "../size-unit.js";
+import { ByteIdIndex, viewOf } from "./byte-id-index.js";
 import { IdIndex } from "./id-index.js";
 import { idIsNullParent, missingParent, nullParentSet } from "./null-parent.js";
 import { rowsTable } from "./rows-table.js";
 import { withSeparatorHint } from "./separator-hint.js";
-import type { Cell, Table } from "./table.js";
+import { type Cell, type NumberCells, numberCell, type Table } from "./table.js";
 
 /**
  * Links table rows into nodes: by id and parent columns when the table has both (an empty parent makes a
@@ -44,6 +45,10 @@ export function linkTable(
 
 function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): LinkedNodes {
   if (table.length === 0) throw new EspalierError("INPUT_EMPTY", "the table has no data rows");
+  const byteIds = table.pooledColumn?.(options.idField);
+  const byteParents = byteIds && table.numberColumn?.(options.parentField);
+  if (byteIds && byteParents && byteIds.length >= table.length && byteIds.byteRuns() !== null)
+    return linkByteIds(table, byteIds, byteParents, options);
   const ids = table.column(options.idField);
   const parents = ids && table.column(options.parentField);
   if (ids && parents) return linkById(table, ids, parents, options);
@@ -138,7 +143,7 @@ function linkById(
   }
   return {
     parentOf,
-    name: name === null ? namesOrIds(pooled!, ids, n) : name,
+    name: name === null ? namesOrIds(pooled!, new StringNames(ids), n) : name,
     ownSize,
     hasSizes: sizes !== undefined,
     ids,
@@ -150,14 +155,96 @@ function linkById(
   } satisfies LinkedNodes;
 }
 
+/**
+ * {@link linkById} for a table that kept its ids as bytes and its parent cells as numbers and bytes
+ * (a CSV table, csv-table-reader.ts): the same nodes and the same errors, with no string made per row.
+ * Ids are compared by their bytes, which the reader keeps as UTF-8 text ({@link ByteIdIndex}).
+ */
+function linkByteIds(table: Table, ids: NamePool, parents: NumberCells, options: LoadOptions): LinkedNodes {
+  const n = table.length;
+  if (n > options.maxNodes) throw limitExceeded(options.maxNodes, true, options.maxNodes + 1);
+  checkNameColumn(table, options);
+  const keep = keptColumns(table, options);
+  const pooled = table.pooledColumn?.(options.nameField);
+  const names = pooled ? undefined : table.column(options.nameField);
+  const byteSizes = table.numberColumn?.(options.sizeField);
+  const sizes = byteSizes ? undefined : sizeColumn(table, options);
+  const rowOf = new ByteIdIndex(ids.byteRuns()!, n);
+  const nullParents = nullParentSet(options);
+  for (let r = 0; r < n; r++) {
+    if (nullParents?.has(ids.get(r))) throw idIsNullParent(ids.get(r), r + 1, options);
+    if (ids.byteLengthOf(r) === 0)
+      throw new EspalierError("SHAPE", say`row ${r + 1} has an empty "${options.idField}"`, {
+        row: r + 1,
+        field: options.idField,
+      });
+    const earlier = rowOf.add(r);
+    if (earlier !== -1) {
+      throw new EspalierError(
+        "DUPLICATE_ID",
+        say`row ${r + 1} repeats the ${options.idField} ${quoted.id(ids.get(r))} of row ${earlier + 1}`,
+        { row: r + 1, field: options.idField },
+        { firstRow: earlier + 1 },
+      );
+    }
+  }
+  const parentOf = new Int32Array(n);
+  const origin = new Int32Array(n);
+  const ownSize = new Float64Array(n);
+  const named = names !== undefined && allText(names, n, true);
+  const name: string[] | null = pooled ? null : named ? (names as string[]) : new Array(n);
+  const { values, texts } = parents;
+  // The text cells' bytes (read only once every cell is in).
+  const textRuns = texts.byteRuns();
+  const textView = textRuns === null ? null : viewOf(textRuns.bytes);
+  for (let r = 0; r < n; r++) {
+    const value = values[r];
+    let p: number;
+    let text: string | undefined;
+    if (!Number.isNaN(value)) {
+      // A cell of plain digits stands for its digits.
+      if (nullParents?.has(String(value))) p = -1;
+      else {
+        p = rowOf.getNumber(value);
+        if (p === -1) text = String(value);
+      }
+    } else if (r >= texts.length || texts.byteLengthOf(r) === 0 || nullParents?.has(texts.get(r))) {
+      p = -1;
+    } else {
+      const s = textRuns === null ? 0 : textRuns.start[r];
+      p = textView === null ? -1 : rowOf.getBytes(textView, s, s + textRuns!.size[r]);
+      if (p === -1) text = texts.get(r);
+    }
+    if (text !== undefined) throw missingParent(text, r + 1, options, rowNamed(text, pooled, names, n));
+    parentOf[r] = p;
+    origin[r] = r + 1;
+    if (name !== null && !named) name[r] = (names && cellText(names[r])) || ids.get(r);
+    if (byteSizes) {
+      ownSize[r] = sizeOf(numberCell(byteSizes, r), true, r + 1, options.sizeField);
+    } else if (sizes) ownSize[r] = sizeOf(sizes[r], table.textCells, r + 1, options.sizeField);
+  }
+  return {
+    parentOf,
+    name: name === null ? namesOrIds(pooled!, ids, n) : name,
+    ownSize,
+    hasSizes: sizes !== undefined || byteSizes !== undefined,
+    ids,
+    origin,
+    originIsRow: true,
+    fields: keep,
+    rootName: options.rootName,
+    parentColumnRead: true,
+  } satisfies LinkedNodes;
+}
+
 /** The pooled name column as the nodes' names, each empty name replaced by the row's id. */
-function namesOrIds(pooled: NamePool, ids: readonly string[], n: number): NamePool {
+function namesOrIds(pooled: NamePool, ids: Names, n: number): NamePool {
   let empty = false;
   for (let r = 0; r < n && !empty; r++) empty = isEmptyName(pooled, r);
   if (!empty && pooled.length === n) return pooled;
   const out = new NamePool(n, n * 8);
   for (let r = 0; r < n; r++) {
-    if (isEmptyName(pooled, r)) out.setString(r, ids[r]);
+    if (isEmptyName(pooled, r)) copyName(out, r, ids, r);
     else copyName(out, r, pooled, r);
   }
   return out;

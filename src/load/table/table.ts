@@ -28,4 +28,25 @@ export interface Table {
   place?(row: number, field?: string): SourcePos | undefined;
   /** The column's cells as a name pool, one name per row, when the table kept it so; else undefined. */
   pooledColumn?(name: string): NamePool | undefined;
+  /** The column's cells as numbers and bytes ({@link NumberCells}), when the table kept it so; else undefined. */
+  numberColumn?(name: string): NumberCells | undefined;
+}
+
+/**
+ * A column of text cells (sizes, parent ids) with no string per row: a cell written as plain digits
+ * (1 to 15 of them, no leading zero, or "0") as its number, which reads back as the same text; any
+ * other cell as its bytes. `column` gives the same cells as numbers and strings.
+ */
+export interface NumberCells {
+  /** Row r's number (r from 0), or NaN where the cell is no plain number and its text is in `texts`. */
+  readonly values: Float64Array;
+  /** The cells that are no plain number, as UTF-8 text, at their rows (rows holding a number are empty). */
+  readonly texts: NamePool;
+}
+
+/** Cell `r` of a column kept as {@link NumberCells}: its number, or its text. */
+export function numberCell(cells: NumberCells, r: number): number | string {
+  const value = cells.values[r];
+  if (!Number.isNaN(value)) return value;
+  return r < cells.texts.length ? cells.texts.get(r) : "";
 }

@@ -28,9 +28,13 @@ function cell(r: Rng, value: string, delimiter: string): string {
   return must || r.chance(0.2) ? `"${value.replace(/"/g, '""')}"` : value;
 }
 
-/** A table linked by id and parent (or by path), with a name, size and team column, in random order. */
-function table(r: Rng, rows: number, delimiter: string): string {
-  const byPath = r.chance(0.3);
+/**
+ * A table linked by id and parent (or by path), with a name, size and team column, in random order.
+ * With `faults` (linked by id), now and then an id repeated or empty, and parents written as the null-parent values
+ * `nullParents` names ("0", "NULL"; and an id "0" that is one of them).
+ */
+function table(r: Rng, rows: number, delimiter: string, faults = false): string {
+  const byPath = !faults && r.chance(0.3);
   const columns = byPath ? ["path", "name", "size", "team"] : ["id", "parent", "name", "size", "team"];
   for (let k = columns.length - 1; k > 0; k--) {
     const j = r.int(0, k);
@@ -39,13 +43,16 @@ function table(r: Rng, rows: number, delimiter: string): string {
   const eol = r.chance(0.5) ? "\n" : "\r\n";
   const lines = [columns.map((c) => cell(r, c, delimiter)).join(delimiter)];
   const paths: string[] = [];
-  // Ids as text, as plain whole numbers (kept as numbers while streaming), with a leading zero (another
-  // id than the number), past 2^31, or long.
+  // Ids as text (some beyond ASCII), as plain whole numbers (kept as numbers while streaming), with a
+  // leading zero (another id than the number), past the rows' count, past 2^31, or long.
   const ids: string[] = [];
   const numeric = r.chance(0.5);
   for (let k = 1; k <= rows; k++) {
-    const forms = [`${k}`, `${k}`, `0${k}`, `${k + 3_000_000_000}`, `${k}000000000000`];
-    ids.push(!numeric ? `q${k}` : k === 1 && r.chance(0.3) ? "0" : r.pick(forms));
+    const forms = [`${k}`, `${k}`, `0${k}`, `${k * 100_000}`, `${k + 3_000_000_000}`, `${k}000000000000`];
+    let id = !numeric ? r.pick([`q${k}`, `q${k}`, `日${k}`]) : k === 1 && r.chance(0.3) ? "0" : r.pick(forms);
+    if (faults && k > 1 && r.chance(0.03)) id = r.pick(ids);
+    if (faults && r.chance(0.01)) id = "";
+    ids.push(id);
   }
   for (let k = 1; k <= rows; k++) {
     const parent = k === 1 || r.chance(0.1) ? 0 : r.int(1, k - 1);
@@ -54,7 +61,14 @@ function table(r: Rng, rows: number, delimiter: string): string {
     const values: Record<string, string> = {
       id: ids[k - 1],
       // Now and then a parent no row has (MISSING_PARENT), by number or text.
-      parent: parent === 0 ? "" : r.chance(0.02) ? r.pick(["99999", "q0", "7"]) : ids[parent - 1],
+      parent:
+        parent === 0
+          ? faults && r.chance(0.5)
+            ? r.pick(["0", "NULL"])
+            : ""
+          : r.chance(0.02)
+            ? r.pick(["99999", "q0", "7", "日0"])
+            : ids[parent - 1],
       path: paths[k - 1],
       name: r.pick(NAMES),
       size: r.pick(["", "0", "12", "3.5", "1e3"]),
@@ -91,11 +105,13 @@ describe("loadTreeFromStream(csv)", () => {
       fc.asyncProperty(fc.integer(), fc.integer({ min: 1, max: 30 }), async (seed, rows) => {
         const r = rng(seed);
         const tsv = r.chance(0.3);
-        const bytes = utf8(table(r, rows, tsv ? "\t" : ","));
+        const faults = r.chance(0.3);
+        const bytes = utf8(table(r, rows, tsv ? "\t" : ",", faults));
         const options = opts({
           format: r.chance(0.5) ? (tsv ? "tsv" : "csv") : undefined,
           file: tsv ? "org.tsv" : "org.csv",
-          keepFields: r.chance(0.5) ? ["team"] : [],
+          keepFields: r.chance(0.5) ? r.pick([["team"], ["team", "parent"], ["id"]]) : [],
+          ...(faults ? { nullParents: ["0", "NULL"] } : {}),
         });
         const cuts = cutsFor(r, bytes.length, r.int(0, 16), awkward(bytes));
         const expected = outcomeOf(() => loadByReference(bytes, options));
@@ -146,6 +162,29 @@ describe("loadTreeFromStream(csv)", () => {
         expect(lineOf(streamed), text).toBe(lineOf(whole));
       }
     }
+  });
+
+  it("loadTreeFromStream(csv) matches ids and parents that are no valid UTF-8 as their decoded text, as the reference does", async () => {
+    // The WHATWG Encoding Standard's UTF-8 decoder turns each bad byte here into one U+FFFD, so 0xFF and
+    // 0xFE read as the same text: one id for the reference (which decodes first), one id here too.
+    const text = (...lines: number[][]) => new Uint8Array(lines.flat());
+    const ascii = (line: string) => [...line].map((c) => c.charCodeAt(0));
+    const linked = text(ascii("id,parent,name\n"), [0xff], ascii(",,top\n1,"), [0xfe], ascii(",child\n"));
+    const repeated = text(ascii("id,parent\n"), [0xff], ascii(",\n"), [0xfe], ascii(",\n"));
+    for (const bytes of [linked, repeated]) {
+      const options = opts({ format: "csv", file: "org.csv" });
+      const expected = outcomeOf(() => loadByReference(bytes, options));
+      for (const cuts of [[], everyByte(bytes.length)]) {
+        const actual = await outcomeOfAsync(() => loadStreamed(bytes, options, cuts));
+        if ("tree" in expected && "tree" in actual) expectSameTree(actual.tree, expected.tree);
+        else expect(comparable(actual)).toEqual(comparable(expected));
+      }
+    }
+    expect(outcomeOf(() => loadByReference(linked, opts({ format: "csv" })))).toHaveProperty("tree");
+    expect(outcomeOf(() => loadByReference(repeated, opts({ format: "csv" })))).toHaveProperty(
+      "code",
+      "DUPLICATE_ID",
+    );
   });
 
   it("loadTreeFromStream(csv) stops with LIMIT_EXCEEDED at the first row over maxNodes", async () => {

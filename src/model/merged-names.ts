@@ -1,0 +1,42 @@
+import { indexOfName, type Names } from "./names.js";
+
+/**
+ * The names of a tree made of two others' nodes (a diff's combined tree): node k has name `newIndex[k]`
+ * of `fromNew`, or, where that is -1, name `oldIndex[k]` of `fromOld`. Nothing is copied: a name is read
+ * from the tree it came from when asked for. For names few readers ask for (a combined tree's row ids:
+ * a label or a focus by id), where copying every one into a pool of their own would touch memory the
+ * size of the tree for nothing (docs/performance.md).
+ */
+export class MergedNames implements Names {
+  constructor(
+    private readonly fromNew: Names,
+    private readonly newIndex: Int32Array,
+    private readonly fromOld: Names,
+    private readonly oldIndex: Int32Array,
+  ) {}
+
+  get length(): number {
+    return this.newIndex.length;
+  }
+
+  get(k: number): string {
+    const n = this.newIndex[k];
+    return n >= 0 ? this.fromNew.get(n) : this.fromOld.get(this.oldIndex[k]);
+  }
+
+  /**
+   * The first node named `text`: the new tree's nodes keep their order among themselves here, so its
+   * first node of that name is the first of them; the other nodes are read one by one.
+   */
+  indexOf(text: string): number {
+    if (text === "") return -1;
+    const { newIndex, oldIndex } = this;
+    const n = indexOfName(this.fromNew, text);
+    const total = newIndex.length;
+    for (let k = 0; k < total; k++) {
+      const from = newIndex[k];
+      if (from === -1 ? this.fromOld.get(oldIndex[k]) === text : from === n) return k;
+    }
+    return -1;
+  }
+}
