@@ -1,0 +1,58 @@
+import { describe, expect, it } from "vitest";
+import { displayWidth } from "../../src/render/display-width.js";
+import { wrapWords } from "../../src/render/wrap-words.js";
+import { cli } from "../helpers/cli.js";
+
+// Field test: at --width 40 the diff header of two `npm ls --all --json` listings broke as
+// "1 edited (compared:" / "version), 0 resized;", and that of two Python library listings as
+// "258.3 MiB -> 270.5" / "MiB": a clause or a number read apart from what it belongs to. Expected
+// lines worked out by hand from the greedy rule (common practice, no source); widths per UAX #11.
+describe("wrapWords(text, width, indent)", () => {
+  it("keeps a parenthesised clause on one line when it fits one", () => {
+    expect(wrapWords("0 renamed, 1 edited (compared: version), 0 resized;", 30, "  ")).toEqual([
+      "0 renamed, 1 edited",
+      "  (compared: version),",
+      "  0 resized;",
+    ]);
+  });
+
+  it("keeps a number with the word after it", () => {
+    expect(wrapWords("size 258.3 MiB -> 270.5 MiB", 23)).toEqual(["size 258.3 MiB ->", "270.5 MiB"]);
+  });
+
+  it("breaks a clause wider than a line at its spaces", () => {
+    expect(wrapWords("(a b c d e f)", 5)).toEqual(["(a b", "c d e", "f)"]);
+  });
+});
+
+const version = (v: string) =>
+  JSON.stringify({
+    name: "tidewater",
+    children: [
+      { name: "kelp-log", version: v, size: 10 },
+      { name: "tern-fmt", version: "2.0.0", size: 20 },
+    ],
+  });
+
+describe("a diff header at narrow widths", () => {
+  it("never ends a line inside (compared: version) or between a number and its word", async () => {
+    const files = { "old.json": version("1.0.0"), "new.json": version("1.1.0") };
+    for (let width = 30; width <= 80; width++) {
+      const r = await cli(["diff", "old.json", "new.json", "--width", String(width), "--budget", "20"], {
+        files,
+      });
+      expect(r.stderr).toBe("");
+      const lines = r.stdout.split("\n");
+      const header = lines.slice(
+        0,
+        lines.findIndex((l) => /^[.:*] /.test(l)),
+      );
+      for (const line of header) {
+        expect(displayWidth(line)).toBeLessThanOrEqual(width);
+        expect(line).not.toMatch(/\(compared:$/);
+        expect(line).not.toMatch(/ \d[\d,]*$/);
+      }
+      expect(header.join(" ").replace(/ +/g, " ")).toContain("1 edited (compared: version)");
+    }
+  });
+});
