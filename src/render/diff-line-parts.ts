@@ -6,7 +6,7 @@ import { shortenMiddle } from "./display-width.js";
 import { formatSize } from "./format-size.js";
 import type { LineGroup } from "./line-groups.js";
 import type { LineParts } from "./line-layout.js";
-import { EMPTY_WORDS, foldAmount, foldWords, lineParts } from "./line-parts.js";
+import { EMPTY_WORDS, foldAmount, foldWords, lineParts, nodesWord } from "./line-parts.js";
 import { referenceText } from "./reference-text.js";
 
 /** Columns an old parent's path or old name keeps in a tag on a narrow line. */
@@ -45,8 +45,8 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
     fold: fold(options),
     foldCounts: hidden ? `(hidden: ${foldAmount(group, last, options)}; ${inside})` : "",
     compactFold: fold({ ...options, compact: true }),
-    foldShort: hidden ? `(${foldWords(last)}; ${few})` : "",
-    foldTiny: hidden ? `(${formatCount(hidden.children)} hidden, ${formatCount(changed)} changed)` : "",
+    foldShort: hidden ? `(hidden: ${nodesWord(hidden.nodes)}; ${few})` : "",
+    foldTiny: hidden ? `(${formatCount(hidden.nodes)} hidden, ${formatCount(changed)} changed)` : "",
   };
 }
 

@@ -46,9 +46,9 @@ export interface LineParts {
   foldCounts: string;
   /** The same with compact numbers. */
   compactFold: string;
-  /** The fold without its numbers (`(hidden: 3 children)`). */
+  /** The fold with only how many nodes it hides (`(hidden: 41 nodes)`). */
   foldShort: string;
-  /** The fold at its shortest (`(3 hidden)`); a fold never disappears from a line. */
+  /** The fold at its shortest (`(41 hidden)`: nodes); a fold never disappears from a line. */
   foldTiny: string;
 }
 
@@ -81,8 +81,8 @@ const MIN_LABEL = 8;
  *   1. the fold drops how many children it hides and keeps its numbers (`(hidden: 41 nodes, 2.0 MiB)`),
  *      so every count on the line can still be checked;
  *   2. numbers become compact (`12.1k nodes`, plain sizes `286M`), the fold with its children again;
- *   3. the fold keeps only how many children it hides (`(hidden: 3 children)`, then `(3 hidden)`;
- *      in a diff with how many changed nodes it holds);
+ *   3. the fold keeps only how many nodes it hides (`(hidden: 41 nodes)`, then `(41 hidden)`: nodes,
+ *      not children, so the count still adds up; in a diff with how many changed nodes it holds);
  *   4. the tag's old path or old name is cut to a few columns;
  *   5. the labels are cut, down to 8 columns: one name at its end, or around where it differs from
  *      its siblings when the end cut would lose that; a chain in its middle (its first and last names

@@ -67,8 +67,8 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
     fold: fold(options),
     foldCounts: joined(last.hidden ? `(hidden: ${foldAmount(group, last, options)})` : "", parents),
     compactFold: fold(compact),
-    foldShort: joined(last.hidden ? `(${foldWords(last)})` : "", parents),
-    foldTiny: last.hidden ? `(${formatCount(last.hidden.children)} hidden)` : "",
+    foldShort: joined(last.hidden ? `(hidden: ${nodesWord(last.hidden.nodes)})` : "", parents),
+    foldTiny: last.hidden ? `(${formatCount(last.hidden.nodes)} hidden)` : "",
   };
 }
 
@@ -89,6 +89,14 @@ export function chainLabels<T extends ViewNode>({ nodes, above }: LineGroup<T>):
   const labels = nodes.map((n) => shownLabel(n.label));
   if (above === null && labels.length > 1 && labels[0] === "/") labels.splice(0, 2, `/${labels[1]}`);
   return labels;
+}
+
+/**
+ * `41 nodes` (or `1 node`), exact: what a narrow line's fold keeps, `(hidden: 41 nodes)`, then
+ * `(41 hidden)`, so `nodes = 1 + the lines below + hidden` can still be checked on it.
+ */
+export function nodesWord(n: number): string {
+  return `${formatCount(n)} ${n === 1 ? "node" : "nodes"}`;
 }
 
 /** `hidden: 3 children` (or `1 child`): how many of the node's children the fold holds. */

@@ -142,8 +142,8 @@ describe("renderText(view, { width })", () => {
     // First the fold's count of children goes, every number kept exact: 3 = 1 + 2 hidden.
     expect(at(76)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123,459  (hidden: 2 nodes, 3)");
     // Then compact numbers (SI prefix k = 1000, BIPM SI brochure, 9th edition, table 7) and the
-    // fold's count of hidden children only, the name whole; then the fold at its shortest.
-    expect(at(75)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123k  (hidden: 2 children)");
+    // fold's count of hidden nodes only, the name whole; then the fold at its shortest.
+    expect(at(75)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123k  (hidden: 2 nodes)");
     expect(at(66)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123k  (2 hidden)");
     // Only then is the name cut, at its end, down to 8 columns.
     expect(at(40)).toBe("  . Esme Orb…  3 nodes, 123k  (2 hidden)");
@@ -154,9 +154,11 @@ describe("renderText(view, { width })", () => {
     expect(at(32)).toBe("  . Esme Orby Le…  ?  (2 hidden)");
     const chain = (width: number) =>
       renderText(result.view, { units: "plain", sizes: true, width, chains: true }).split("\n")[2];
-    expect(chain(45)).toBe("  . alpha / beta  4 nodes, 5  (1 hidden)");
+    // The narrow fold counts hidden nodes, not children (gamma and its q and r under beta's one hidden
+    // child), so 4 = 1 + 3 still adds up on the line.
+    expect(chain(45)).toBe("  . alpha / beta  4 nodes, 5  (3 hidden)");
     // A chain is cut in its middle: its start and the end of its last name stay.
-    expect(chain(36)).toBe("  . alph…eta  4 nodes, 5  (1 hidden)");
+    expect(chain(36)).toBe("  . alph…eta  4 nodes, 5  (3 hidden)");
   });
 
   it("prints a run of only children as one line carrying the last node's numbers and fold", () => {

@@ -75,9 +75,11 @@ describe("MARK and legendLines(kind)", () => {
     const tree = makeIdTree("R{A{A1:1,A2:1,A3:1},B{B1:1,B2:1}}");
     const summary = summarize(prepare(tree), { foci: [], budget: 2, importance: "depth" });
     const text = renderText(summary.view, { units: "plain", sizes: true, width: MIN_WIDTH });
-    expect(text).toMatch(/\(\d+ hidden\)/);
-    expect(legendLines("summary")[1]).toContain("(k hidden): k children hidden");
-    expect(legendLines("diff")[1]).toContain("(k hidden, c changed): k children hidden, c changed nodes");
+    // R's line: 8 nodes = 1 + 4 on A's line + 3 hidden (B and its two children: nodes, not B alone),
+    // the sum the legend states.
+    expect(text.split("\n")[0]).toMatch(/^[.:] R {2}8 nodes.* \(3 hidden\)$/);
+    expect(legendLines("summary")[1]).toContain("(k hidden): k nodes hidden");
+    expect(legendLines("diff")[1]).toContain("(k hidden, c changed): k nodes hidden, c of them changed");
   });
 
   it("says in the diff legend that counts include removed nodes, as the lines' arithmetic does", () => {
