@@ -38,8 +38,8 @@ function legendTexts(kind: "summary" | "diff"): string[] {
   const lines = [
     `marks: ${MARK.focus} focus, ${MARK.path} ${path}, ${MARK.other} other, ${MARK.reference} a reference (a node with several parents: its full entry is at the path shown; counts no node); a / b: b is a's only child, the line's numbers and fold are b's`,
     kind === "diff"
-      ? "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1, and the / of /usr), removed nodes included; no count: 1 node; a size is the node's own plus all below it, NEW's (own = size - the sizes on the lines below - the hidden size); a line too narrow for its fold says (k hidden, c changed): k children hidden, c changed nodes among them"
-      : "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1, and the / of /usr); no count: 1 node; a size is the node's own plus all below it (own = size - the sizes on the lines below - the hidden size); a line too narrow for its fold says (k hidden): k children hidden",
+      ? "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1, and the / of /usr), removed nodes included; no count: 1 node (a lone ? stands where numbers did not fit the width); a size is the node's own plus all below it, NEW's (own = size - the sizes on the lines below - the hidden size); a line too narrow for its fold says (k hidden, c changed): k children hidden, c changed nodes among them"
+      : "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1, and the / of /usr); no count: 1 node (a lone ? stands where numbers did not fit the width); a size is the node's own plus all below it (own = size - the sizes on the lines below - the hidden size); a line too narrow for its fold says (k hidden): k children hidden",
   ];
   if (kind === "diff")
     lines.push(
