@@ -3,6 +3,7 @@ import type { Measures } from "../model/measure.js";
 import type { ReferenceIndex, referencesTo } from "../model/reference-index.js";
 import type { Tree } from "../model/tree.js";
 import { interestNear } from "./near.js";
+import { NodeTable } from "./node-table.js";
 import { FAR, type Scores } from "./scores.js";
 
 /** {@link Scores} of a graph: every member of the contract, and the rank of the parents of a focus. */
@@ -39,12 +40,18 @@ export function graphInterest(
   refs: ReferenceIndex,
   neighbours: GraphNeighbours = graphNeighbours(tree),
 ): GraphScores {
-  const n = tree.length;
   const { parent, depth } = tree;
-  // Rank + 1 of the slots on the path to a parent of a focus, 0 elsewhere (FAR): a few slots of many,
-  // so the array is left as it was made (zeros) but for them.
-  const ranked = new Int32Array(n);
-  const rankOf = (x: number): number => (ranked[x] === 0 ? FAR : ranked[x] - 1);
+  // The rank of the slots on the path to a parent of a focus (FAR elsewhere) and the distances found so
+  // far are kept for a few of the slots, in tables of those slots (node-table.ts), and whether a slot is
+  // forced or ranked as one bit a slot: on a graph of millions of slots, an array of a number a slot,
+  // read or written at the slots the fit asks about, touches most of its pages, and fresh memory is
+  // dear (docs/performance.md).
+  const n = tree.length;
+  const forcedBits = new Int32Array((n + 31) >>> 5);
+  const rankedBits = new Int32Array((n + 31) >>> 5);
+  const isSet = (bits: Int32Array, x: number): boolean => (bits[x >>> 5] & (1 << (x & 31))) !== 0;
+  const ranks = new NodeTable();
+  const rankOf = (x: number): number => (isSet(rankedBits, x) ? ranks.get(x) : FAR);
   // No focus: the same scores as a tree's, API(x) − API(root) (near.ts), every rank FAR.
   if (foci.length === 0) {
     const all = typeof api === "function" ? Float64Array.from(depth, (_, x) => api(x)) : api;
@@ -81,12 +88,11 @@ export function graphInterest(
   };
 
   // Forced: the root, the foci and the ancestors of their full entries.
-  const forced = new Uint8Array(n);
-  forced[0] = 1;
+  forcedBits[0] = 1;
   const forcedNodes: number[] = [0];
   for (const y of foci) {
-    for (let a = y; a !== -1 && forced[a] === 0; a = parent[a]) {
-      forced[a] = 1;
+    for (let a = y; a !== -1 && !isSet(forcedBits, a); a = parent[a]) {
+      forcedBits[a >>> 5] |= 1 << (a & 31);
       forcedNodes.push(a);
     }
   }
@@ -96,29 +102,39 @@ export function graphInterest(
   for (const y of foci) for (const r of refs.of(y)) parentRefs.push(r);
   parentRefs.sort((a, b) => depth[a] - depth[b] || a - b);
   parentRefs.forEach((s, r) => {
-    for (let a = s; a !== -1 && ranked[a] === 0; a = parent[a]) ranked[a] = r + 1;
+    for (let a = s; a !== -1 && !isSet(rankedBits, a); a = parent[a]) {
+      rankedBits[a >>> 5] |= 1 << (a & 31);
+      ranks.set(a, r);
+    }
   });
 
-  // A slot's distance, found when asked and kept (0 unknown, else distance + 1). The tie-break
-  // distance of a slot that is not forced is at least its parent's plus one, so a parent comes first
-  // among equal values.
-  const known = new Int32Array(n);
+  // A slot's distance, found when asked and kept (-1: unknown). The tie-break distance of a slot that
+  // is not forced is at least its parent's plus one, so a parent comes first among equal values. Every
+  // node is reached when there is a focus (the added root joins the top-level nodes), so a distance is
+  // a whole number below the count of nodes.
+  const known = new NodeTable();
   const path: number[] = [];
   const distanceOf = (x: number): number => {
-    if (known[x] !== 0) return known[x] - 1;
+    const asked = known.get(x);
+    if (asked !== -1) return asked;
     // Up to a slot whose distance is known, forced, or the root; then down again.
     let a = x;
-    while (known[a] === 0 && forced[a] === 0 && parent[a] >= 0) {
+    let d = asked;
+    while (!isSet(forcedBits, a) && parent[a] >= 0) {
       path.push(a);
       a = parent[a];
+      d = known.get(a);
+      if (d !== -1) break;
     }
-    let d = known[a] !== 0 ? known[a] - 1 : edges(a);
-    known[a] = d + 1;
+    if (d === -1) {
+      d = edges(a);
+      known.set(a, d);
+    }
     while (path.length > 0) {
       const s = path.pop()!;
       const own = edges(s);
       d = own <= d ? d + 1 : own;
-      known[s] = d + 1;
+      known.set(s, d);
     }
     return d;
   };
@@ -126,10 +142,10 @@ export function graphInterest(
     forcedNodes: Int32Array.from(forcedNodes).sort(),
     interestOf(x) {
       const v = apiOf(x) - keyOf(nodeOf[x]);
-      return ranked[x] !== 0 && v < 0 ? 0 : v;
+      return v < 0 && isSet(rankedBits, x) ? 0 : v;
     },
     distanceOf,
-    isForced: (x) => forced[x] === 1,
+    isForced: (x) => isSet(forcedBits, x),
     rankOf,
   };
 }

@@ -3,7 +3,7 @@ import { checkSizes } from "./check-sizes.js";
 import { type GraphNeighbours, rememberNeighbours, upRuns } from "./graph-neighbours.js";
 import type { GraphNodes } from "./graph-nodes.js";
 import type { LinkedNodes } from "./linked-nodes.js";
-import { rememberZeroSizes } from "./measure.js";
+import { lendToMeasure, rememberZeroSizes } from "./measure.js";
 import { NamePool, type Names } from "./names.js";
 import type { Tree } from "./tree.js";
 
@@ -45,8 +45,20 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   for (let i = 0; i < n; i++) outStart[i + 1] += outStart[i];
   const out = new Int32Array(E);
   const outTo = new Int32Array(E);
-  const inDegree = new Int32Array(n);
-  const fill = outStart.slice(0, n);
+  // The build's arrays of a number a node, read no more once it is done, are cut from one block, which
+  // is then lent to the tree's measures (lendToMeasure, model/measure.ts): three arrays of a number a
+  // slot, where a graph has several times as many slots as nodes. Long enough for them however many
+  // slots there are (at most one a node, one an edge and the added root); memory no one writes stays
+  // untouched, so the block touches as many pages as the larger of its two uses, not their sum.
+  const block = new Int32Array(Math.max(NODE_ARRAYS * n, 3 * (n + 1 + E)));
+  let blockUsed = 0;
+  const nodeArray = (): Int32Array => {
+    blockUsed += n;
+    return block.subarray(blockUsed - n, blockUsed);
+  };
+  const inDegree = nodeArray();
+  const fill = nodeArray();
+  fill.set(outStart.subarray(0, n));
   for (let e = 0; e < E; e++) {
     const j = fill[edgeFrom[e]]++;
     const v = edgeTo[e];
@@ -65,10 +77,10 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   // topological order of the remaining edges. A repeated edge walks as its first does (its child is
   // reached by then), so repeats are told apart later.
   const state = new Uint8Array(n); // 0 unreached, 1 on the walk's path, 2 done
-  const cursor = new Int32Array(n);
-  const finished = new Int32Array(n);
+  const cursor = nodeArray();
+  const finished = nodeArray();
   let finishedCount = 0;
-  const stack = new Int32Array(n);
+  const stack = nodeArray();
   const walkFrom = (r: number) => {
     let top = 0;
     stack[0] = r;
@@ -164,7 +176,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   const referenceTo = hasReferences ? spareNumbers(slots).fill(-1) : new Int32Array(0);
   const ownSize = new Float64Array(slots);
   const origin = reused(edgeOrigin, slots, taken);
-  const slotOf = new Int32Array(n).fill(-1);
+  const slotOf = nodeArray().fill(-1);
   const nodeSize = graph.ownSize;
   const nodeOrigin = graph.origin;
   // Sizes are copied to the entries only when some node has one (ownSize starts at 0).
@@ -190,7 +202,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     cursor[node] = outStart[node];
     return s;
   };
-  const slotStack = new Int32Array(n);
+  const slotStack = nodeArray();
   for (let r = 0; r < n; r++) {
     if (rec[3 * r] !== -1) continue;
     let top = 0;
@@ -260,6 +272,11 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     if (synthetic) from[0] = n;
     rememberNeighbours(tree, neighbourTable(outStart, outTo, inDegree, topNodes, from, spareNumbers));
   }
+  lendToMeasure(tree, {
+    count: block.subarray(0, slots),
+    children: block.subarray(slots, 2 * slots),
+    nodes: block.subarray(2 * slots, 3 * slots),
+  });
   return tree;
 }
 
@@ -308,6 +325,8 @@ function neighbourTable(
 const BACK = 1;
 const REPEAT = 2;
 const HOME = 3;
+/** The build's arrays of a number a node, cut from its block (see buildGraphTree). */
+const NODE_ARRAYS = 7;
 /** Nodes whose children's records the longest-path pass reads ahead (see buildGraphTree). */
 const AHEAD = 32;
 /** What those reads added up to: kept, so that the engine keeps the reads. */

@@ -29,14 +29,34 @@ export interface MeasureMemory {
   count?: Int32Array;
   size?: Float64Array;
   children?: Int32Array;
+  /** For {@link Measures.nodes} when it is an array of its own (a graph's). */
+  nodes?: Int32Array;
+}
+
+/** Memory lent by a tree's builder for its first measures (see {@link lendToMeasure}). */
+const lentByBuilder = new WeakMap<Tree, MeasureMemory>();
+
+/**
+ * Lends `memory` (see {@link MeasureMemory}; no other array of `tree` may share it) to the first
+ * {@link measure} of `tree` that is given no memory of its own: a builder's working arrays, read no more
+ * once the tree is made, spare the measures that much fresh memory. Given once.
+ */
+export function lendToMeasure(tree: Tree, memory: MeasureMemory): void {
+  lentByBuilder.set(tree, memory);
 }
 
 /**
  * One reverse pass over the pre-order arrays: every child is folded into its parent. `leaves` and
- * `height`, which no summary or diff reads, are made by a pass of their own when first read. `lent`:
- * see {@link MeasureMemory}.
+ * `height`, which no summary or diff reads, are made by a pass of their own when first read. `given`:
+ * see {@link MeasureMemory}; without it, what the tree's builder lent, if anything
+ * ({@link lendToMeasure}).
  */
-export function measure(tree: Tree, lent: MeasureMemory = {}): Measures {
+export function measure(tree: Tree, given?: MeasureMemory): Measures {
+  let lent = given;
+  if (lent === undefined) {
+    lent = lentByBuilder.get(tree) ?? {};
+    lentByBuilder.delete(tree);
+  }
   const n = tree.length;
   const { parent, ownSize } = tree;
   const count = fitted(lent.count, n, Int32Array, 1);
@@ -48,7 +68,7 @@ export function measure(tree: Tree, lent: MeasureMemory = {}): Measures {
   const ref = tree.referenceTo;
   // Nodes per subtree where they differ from the slots: each slot that is a node's full entry counts 1
   // (a graph's reference 0), and a node's elided descendants count too (see subtreeNodes).
-  const nodes = ref !== undefined && tree.elided === undefined ? new Int32Array(n) : null;
+  const nodes = ref !== undefined && tree.elided === undefined ? fitted(lent.nodes, n, Int32Array, 0) : null;
   for (let i = n - 1; i > 0; i--) {
     const p = parent[i];
     if (nodes !== null) {
