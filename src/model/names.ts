@@ -161,6 +161,25 @@ export class NamePool implements Names {
     this.place(i, at, n);
   }
 
+  /** Bytes the names set so far take in the pool (names set again included). */
+  get usedBytes(): number {
+    return this.used;
+  }
+
+  /**
+   * Makes room for names up to node `nodes - 1` and `bytes` more bytes of them, once, where appending
+   * name by name would grow the pool many times over (each growth fresh memory and a copy): for a
+   * loader that can tell how many names are coming. A hint: nothing is refused by it.
+   */
+  makeRoom(nodes: number, bytes: number): void {
+    if (nodes > this.start.length) this.growNodes(nodes);
+    const need = Math.min(LONGEST_POOL, this.used + bytes);
+    if (need <= this.bytes.length || this.shared) return;
+    const grown = Buffer.allocUnsafe(need);
+    this.bytes.copy(grown, 0, 0, this.used);
+    this.bytes = grown;
+  }
+
   /** Sets node `i`'s name to `text`. */
   setString(i: number, text: string): void {
     if (text.length === 0) {

@@ -171,6 +171,69 @@ describe("CsvScanner(delimiter, sink)", () => {
     );
   });
 
+  it("gives d3-dsv's rows on random tables of many rows and long fields, cut into chunks of kilobytes", () => {
+    // d3-dsv 3.0.2 (npm) csvParseRows / tsvParseRows as the reference parser. Chunks longer than the
+    // bytes a record carried over from the chunk before needs: that record is finished from the start
+    // of the chunk and the rest is scanned in place (a record longer than the first try, too).
+    const short = fc.string({
+      unit: fc.constantFrom("a", " ", ",", '"', "\r", "\n", "é", "日"),
+      maxLength: 8,
+    });
+    const long = fc.string({
+      unit: fc.constantFrom("b", ",", '"', "\n", "😀"),
+      minLength: 500,
+      maxLength: 3000,
+    });
+    const text = fc.oneof({ arbitrary: short, weight: 40 }, { arbitrary: long, weight: 1 });
+    fc.assert(
+      fc.property(
+        fc.boolean(),
+        fc.array(fc.array(text, { minLength: 3, maxLength: 3 }), { minLength: 50, maxLength: 300 }),
+        fc.constantFrom("\n", "\r\n", "\r"),
+        fc.array(fc.nat(), { maxLength: 6 }),
+        (tsv, table, eol, cutAt) => {
+          const delimiter = tsv ? "\t" : ",";
+          const rows = table.map((r) => r.map((v) => (tsv ? v.replace(/[\t\r\n"]/g, "_") : v)));
+          const written = rows
+            .map((r) =>
+              r.map((v) => (!tsv && /[",\r\n]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v)).join(delimiter),
+            )
+            .join(eol);
+          const bytes = utf8(written);
+          const expected = tsv ? tsvParseRows(written) : csvParseRows(written);
+          const cuts = cutAt.map((c) => c % (bytes.length + 1));
+          expect(scan(bytes, delimiter, cuts)).toEqual(expected);
+        },
+      ),
+      { numRuns: 100 },
+    );
+  });
+
+  it("refuses a record past the longest at the same line however the chunks are cut (common practice, no source)", () => {
+    const long = "x".repeat(3000);
+    const bytes = utf8(`a,b\n1,2\n${"3,4\n".repeat(400)}${long},5\n${"6,7\n".repeat(2000)}`);
+    const outcome = (cuts: number[]) => {
+      const scanner = new CsvScanner(0x2c, { field: () => {}, record: () => false }, 2500);
+      try {
+        let from = 0;
+        for (const cut of cuts) {
+          scanner.write(bytes.slice(from, cut));
+          from = cut;
+        }
+        scanner.write(bytes.slice(from));
+        scanner.end();
+        return "read";
+      } catch (error) {
+        return error instanceof EspalierError ? { code: error.code, pos: error.pos } : error;
+      }
+    };
+    const whole = outcome([]);
+    expect(whole).toEqual({ code: "LIMIT_EXCEEDED", pos: { line: 403 } });
+    // The long record starts at byte 1616; cut inside it, and just before and after it.
+    for (const cuts of [[1700], [1615], [1617], [1000, 2000, 4000], [1620, 4620]])
+      expect(outcome(cuts)).toEqual(whole);
+  });
+
   it("stops when the sink asks", () => {
     const seen: number[] = [];
     const scanner = new CsvScanner(0x2c, {
