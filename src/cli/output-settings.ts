@@ -33,6 +33,8 @@ export interface OutputSettings {
   filledRows: readonly number[] | undefined;
   /** YAML documents of a stream read as values, per input; undefined when no input had several. */
   documents: readonly number[] | undefined;
+  /** The id column that names the nodes of an input without a name column (the first such input's). */
+  namesFrom: string | undefined;
   /** A diff's compared record fields (see `HeaderOptions.compared`); undefined for a summary. */
   compared?: readonly string[];
 }
@@ -64,6 +66,11 @@ export function outputSettings(
     reading: chosenReading(opts, tree),
     filledRows: filled.some((n) => n > 0) ? filled : undefined,
     documents: documents.some((n) => n > 1) ? documents : undefined,
+    // A --label template says what each line shows, so the ids' naming is moot then.
+    namesFrom:
+      opts.label === undefined
+        ? inputs.find((t) => t.reading?.namesFrom !== undefined)?.reading?.namesFrom
+        : undefined,
   };
 }
 

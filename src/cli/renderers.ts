@@ -181,6 +181,7 @@ export function inputFacts(s: OutputSettings): InputFacts {
     ...(s.reading === undefined ? {} : { reading: s.reading }),
     ...(s.filledRows === undefined ? {} : { filledRows: s.filledRows }),
     ...(s.documents === undefined ? {} : { documents: s.documents }),
+    ...(s.namesFrom === undefined ? {} : { namesFrom: s.namesFrom }),
     ...(s.compared === undefined ? {} : { compared: s.compared }),
   };
 }

@@ -116,15 +116,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
   const rec = new Int32Array(3 * n);
   for (let v = 0; v < n; v++) rec[3 * v] = -1;
   let live = 0;
-  let touched = 0;
   for (let k = n - 1; k >= 0; k--) {
-    // Every AHEAD nodes, the records of the next AHEAD nodes' children are read first, all together,
-    // so that their cache misses overlap (they decide nothing; the pass below reads them again).
-    if ((n - 1 - k) % AHEAD === 0)
-      for (let a = k, stop = Math.max(0, k - AHEAD + 1); a >= stop; a--) {
-        const w = finished[a];
-        for (let j = outStart[w], end = outStart[w + 1]; j < end; j++) touched += rec[3 * outTo[j] + 2];
-      }
     const u = finished[k];
     const next = rec[3 * u + 1] + 1;
     for (let j = outStart[u], end = outStart[u + 1]; j < end; j++) {
@@ -145,7 +137,6 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     }
   }
 
-  sink.touched = touched;
   // Each node's full-entry edge, marked where the layout reads its edges anyway.
   let tops = 0;
   for (let i = 0; i < n; i++) {
@@ -327,10 +318,6 @@ const REPEAT = 2;
 const HOME = 3;
 /** The build's arrays of a number a node, cut from its block (see buildGraphTree). */
 const NODE_ARRAYS = 7;
-/** Nodes whose children's records the longest-path pass reads ahead (see buildGraphTree). */
-const AHEAD = 32;
-/** What those reads added up to: kept, so that the engine keeps the reads. */
-const sink = { touched: 0 };
 
 /** DUPLICATE_ID at the first repeated edge, parent by parent, each parent's edges in input order. */
 function refuseRepeats(

@@ -76,4 +76,9 @@ export interface TreeReading {
   readonly filledRows?: number;
   /** A YAML stream of several documents read as values: how many (each a child of the root named by its index). */
   readonly documents?: number;
+  /**
+   * A table or rows linked by id without the name column: the id column, whose values name the nodes.
+   * The header says so, so a reader whose names sit in another column sees where to point --name-field.
+   */
+  readonly namesFrom?: string;
 }

@@ -50,6 +50,11 @@ export interface HeaderOptions {
    */
   documents?: readonly number[];
   /**
+   * A table linked by id without the name column: the id column, which names the nodes
+   * (`named by employee_id (no name column)`), so a reader whose names sit in another column sees it.
+   */
+  namesFrom?: string;
+  /**
    * A diff: the record fields compared between matched nodes (`--compare-field`, else `version` where
    * both versions have it), said beside the `edited` count (`1 edited (compared: version)`); empty
    * for records of which no field was compared (`0 edited (no field compared)`), so a reader does not
@@ -61,7 +66,7 @@ export interface HeaderOptions {
 /** What a header says of its inputs beside the budget, the lines and the foci (see `HeaderOptions`). */
 export type InputFacts = Pick<
   HeaderOptions,
-  "sizeName" | "reading" | "filledRows" | "documents" | "compared"
+  "sizeName" | "reading" | "filledRows" | "documents" | "namesFrom" | "compared"
 >;
 
 /** A reading of the input the header names (see `HeaderOptions.reading`). */
@@ -203,9 +208,12 @@ function sizeWord(header: HeaderOptions, style: HeaderStyle): string {
  * header's clauses on how the input was read; none when the options chose the reading.
  */
 function readingParts(header: HeaderOptions, style: HeaderStyle): string[] {
-  return [choiceText(header, style), documentsText(header, style), filledText(header, style)].filter(
-    (part) => part !== "",
-  );
+  return [
+    choiceText(header, style),
+    documentsText(header, style),
+    namesText(header, style),
+    filledText(header, style),
+  ].filter((part) => part !== "");
 }
 
 /** `2 YAML documents, named 0 and 1`, `5 YAML documents, named 0 to 4` (a diff: `1 -> 3 YAML documents`). */
@@ -217,6 +225,12 @@ function documentsText({ documents }: HeaderOptions, style: HeaderStyle): string
   return style.words(
     `${formatCount(last)} YAML documents, named 0 ${last === 2 ? "and" : "to"} ${formatCount(last - 1)}`,
   );
+}
+
+/** `named by employee_id (no name column)`: the ids name the nodes; empty when a name column does. */
+function namesText({ namesFrom }: HeaderOptions, style: HeaderStyle): string {
+  if (namesFrom === undefined) return "";
+  return `${style.words("named by ")}${style.name(safeText(namesFrom, 40))}${style.words(" (no name column)")}`;
 }
 
 /** `3 short rows filled` (a diff: `3 -> 0 short rows filled`); empty when none was. */

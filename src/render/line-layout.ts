@@ -32,6 +32,11 @@ export interface LineParts {
   numbers: string;
   /** The same with counts and plain sizes compact (`12.1k nodes`). */
   compactNumbers: string;
+  /**
+   * The count alone, compact (`12.1k nodes`), for a narrow line: "" for a single node, which a line
+   * without a count is read as.
+   */
+  countNumbers: string;
   /** What is folded under the last node, in full (`(hidden: 3 children, 41 nodes, 2.0 MiB)`). */
   fold: string;
   /**
@@ -60,6 +65,12 @@ export const MIN_WIDTH = 30;
 /** A fold at its barest, when not even its count fits: a reader still sees that something is hidden. */
 export const FOLD_SIGN = "(hidden)";
 
+/**
+ * What stands where a line's own numbers were when they do not fit: a line without numbers reads as
+ * one node (the legend says so), which a folded line whose numbers gave way is not.
+ */
+export const NUMBERS_GONE = "?";
+
 /** Shortest label kept before the line's own numbers give way. */
 const MIN_LABEL = 8;
 
@@ -76,10 +87,11 @@ const MIN_LABEL = 8;
  *   5. the labels are cut, down to 8 columns: one name at its end, or around where it differs from
  *      its siblings when the end cut would lose that; a chain in its middle (its first and last names
  *      stay readable);
- *   6. the line's own numbers go;
- *   7. the labels are cut further, down to one column and `…`;
- *   8. a deep line's indentation shrinks to a third of the width, then to its level in digits;
- *   9. the tag keeps only its kind (`[moved]`), then the fold only its sign (`(hidden)`).
+ *   6. the line's size goes, its count stays (`608 nodes`);
+ *   7. the count goes too, `?` standing in its place (a line without a count reads as one node);
+ *   8. the labels are cut further, down to one column and `…`;
+ *   9. a deep line's indentation shrinks to a third of the width, then to its level in digits;
+ *   10. the tag keeps only its kind (`[moved]`), then the fold only its sign (`(hidden)`).
  * A fold never goes: a reader always sees that something is hidden. At MIN_WIDTH and wider the line
  * always fits this way; narrower (which the renderers refuse), the line's start is cut instead.
  */
@@ -121,10 +133,12 @@ export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
   ];
   for (const [tag, numbers, fold] of whole)
     if (fits(indent, label, tag, numbers, fold)) return line(indent, label, tag, numbers, fold, true);
+  const gone = p.countNumbers ? NUMBERS_GONE : "";
   const cut: [string, string, number][] = [
     [p.compactNumbers, p.foldTiny, MIN_LABEL],
-    ["", p.foldTiny, MIN_LABEL],
-    ["", p.foldTiny, 1],
+    [p.countNumbers, p.foldTiny, MIN_LABEL],
+    [gone, p.foldTiny, MIN_LABEL],
+    [gone, p.foldTiny, 1],
   ];
   for (const ind of [indent, shortIndent(p.level, width), `${p.level} `]) {
     for (const [numbers, fold, least] of cut) {
@@ -134,15 +148,17 @@ export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
     }
   }
   // Still too wide (a diff's long tag and fold on a deep line): at the shortest indentation the tag
-  // keeps only its kind (`[moved]`), then the fold only its sign (`(hidden)`).
+  // keeps only its kind (`[moved]`), then the fold only its sign (`(hidden)`); the `?` of the numbers
+  // goes last of all.
   const least = indent.length <= `${p.level} `.length ? indent : `${p.level} `;
   const kindTag = p.tagKind ? `[${p.tagKind}]` : "";
-  for (const fewest of [MIN_LABEL, 1])
-    for (const fold of [p.foldTiny, p.fold ? FOLD_SIGN : ""]) {
-      const room = width - displayWidth(line(least, "", kindTag, "", fold, false));
-      if (room >= Math.min(fewest, displayWidth(label)))
-        return line(least, cutLabels(p.labels, room, p.distinct), kindTag, "", fold, true);
-    }
+  for (const numbers of gone ? [gone, ""] : [""])
+    for (const fewest of [MIN_LABEL, 1])
+      for (const fold of [p.foldTiny, p.fold ? FOLD_SIGN : ""]) {
+        const room = width - displayWidth(line(least, "", kindTag, numbers, fold, false));
+        if (room >= Math.min(fewest, displayWidth(label)))
+          return line(least, cutLabels(p.labels, room, p.distinct), kindTag, numbers, fold, true);
+      }
   // Narrower than MIN_WIDTH (the renderers refuse such a width; a small screen may still ask for it):
   // the start of the line is cut, and the fold's sign stays at its end while the width holds it.
   const sign = p.fold ? `  ${FOLD_SIGN}` : "";

@@ -140,6 +140,12 @@ export const inputReadingSchema = z
       .describe(
         "A YAML stream of several documents read as values: how many; each is a child of the root named by its index (0, 1, ...). Absent for one document.",
       ),
+    namesFrom: z
+      .string()
+      .optional()
+      .describe(
+        "A table or rows linked by id without the name column (--name-field): the id column, whose values name the nodes. Absent when names come from the name column.",
+      ),
   })
   .strict()
   .describe("How the input was read.");

@@ -145,9 +145,13 @@ describe("renderText(view, { width })", () => {
     // fold's count of hidden children only, the name whole; then the fold at its shortest.
     expect(at(75)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123k  (hidden: 2 children)");
     expect(at(66)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123k  (2 hidden)");
-    // Only then is the name cut, at its end, down to 8 columns; then the line's own numbers go.
+    // Only then is the name cut, at its end, down to 8 columns.
     expect(at(40)).toBe("  . Esme Orb…  3 nodes, 123k  (2 hidden)");
-    expect(at(32)).toBe("  . Esme Orby Lead …  (2 hidden)");
+    // Then the size goes and the count stays; the name takes the room left.
+    expect(at(35)).toBe("  . Esme Orby…  3 nodes  (2 hidden)");
+    // Then the count goes too: its place keeps a "?", so the line does not read as one node (the
+    // legend's "no count").
+    expect(at(32)).toBe("  . Esme Orby Le…  ?  (2 hidden)");
     const chain = (width: number) =>
       renderText(result.view, { units: "plain", sizes: true, width, chains: true }).split("\n")[2];
     expect(chain(45)).toBe("  . alpha / beta  5 nodes, 5  (1 hidden)");

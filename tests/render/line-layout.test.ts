@@ -33,6 +33,7 @@ const arbParts: fc.Arbitrary<LineParts> = fc
       labels,
       numbers: "12,345,678 nodes, 1.2 GiB, net +3.4 MiB",
       compactNumbers: "12.3M nodes, 1.2 GiB, net +3.4 MiB",
+      countNumbers: "12.3M nodes",
       fold: hidden === null ? "" : `(hidden: ${count} children, 9,999 nodes, 1.0 GiB; 3 added)`,
       foldCounts: hidden === null ? "" : "(hidden: 9,999 nodes, 1.0 GiB; 3 added)",
       compactFold: hidden === null ? "" : `(hidden: ${count} children, 10k nodes, 1.0 GiB; 3 added)`,
@@ -68,18 +69,22 @@ describe("layoutLine(parts, { width })", () => {
       labels: ["ledger-events"],
       numbers: "41 nodes, 2.0 MiB",
       compactNumbers: "41 nodes, 2.0 MiB",
+      countNumbers: "41 nodes",
       fold: "(hidden: 3 children, 40 nodes, 2.0 MiB; 12,345 changed)",
       foldCounts: "(hidden: 40 nodes, 2.0 MiB; 12,345 changed)",
       compactFold: "(hidden: 3 children, 40 nodes, 2.0 MiB; 12,345 changed)",
       foldShort: "(hidden: 3 children; 12,345 changed)",
       foldTiny: "(3 hidden, 12,345 changed)",
     };
-    // 44 columns: "12 " + ". " + "[moved] " (13) + "  (3 hidden, 12,345 changed)" (28) leaves 3 columns of
-    // name, fewer than 8: the fold keeps only its sign and the name stays whole.
-    expect(layoutLine(parts, { width: 44 })).toBe(`12 . [moved] ledger-events  ${FOLD_SIGN}`);
-    // 30 columns: 13 + "  (hidden)" (10) leaves 7 columns, and the name is cut at its end.
-    expect(layoutLine(parts, { width: 30 })).toBe(`12 . [moved] ledger…  ${FOLD_SIGN}`);
-    expect(layoutLine(parts, { width: 60 })).toBe("12 . [moved] ledger-events  (3 hidden, 12,345 changed)");
+    // 44 columns: "12 " + ". " + "[moved] " (13) + "  ?" (3) + "  (3 hidden, 12,345 changed)" (28) leaves
+    // no room for 8 columns of name: the fold keeps only its sign, the name stays whole, and a "?" stands
+    // where the numbers were.
+    expect(layoutLine(parts, { width: 44 })).toBe(`12 . [moved] ledger-events  ?  ${FOLD_SIGN}`);
+    // 30 columns: 13 + "  ?" (3) + "  (hidden)" (10) leaves 4 columns, and the name is cut at its end.
+    expect(layoutLine(parts, { width: 30 })).toBe(`12 . [moved] led…  ?  ${FOLD_SIGN}`);
+    expect(layoutLine(parts, { width: 60 })).toBe(
+      "12 . [moved] ledger-events  ?  (3 hidden, 12,345 changed)",
+    );
     // Below MIN_WIDTH (only a small interactive screen asks): the start is cut, the sign kept.
     expect(layoutLine(parts, { width: 20 })).toBe(`12 . [mov…  ${FOLD_SIGN}`);
   });
@@ -95,6 +100,7 @@ describe("layoutLine(parts, { width })", () => {
       labels: ["inventory", "warehouses"],
       numbers: "3,257 nodes, 40.6 MiB",
       compactNumbers: "3.3k nodes, 40.6 MiB",
+      countNumbers: "3.3k nodes",
       fold: "(hidden: 67 children, 2,648 nodes, 33.2 MiB)",
       foldCounts: "(hidden: 2,648 nodes, 33.2 MiB)",
       compactFold: "(hidden: 67 children, 2.6k nodes, 33.2 MiB)",

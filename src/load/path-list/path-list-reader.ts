@@ -20,6 +20,7 @@ const slash = 47;
 const dot = 46;
 const colon = 58;
 const backslash = 92;
+const comma = 44;
 
 /**
  * A path list read from UTF-8 bytes, whole or in chunks: one "/"-separated path per line, blank lines
@@ -67,6 +68,12 @@ export class PathListReader {
   private numberFirstLines = 0;
   /** Whether the first unsized line is words and spaces without a "/", as a header of columns is. */
   private headerFirst = false;
+  /**
+   * Unsized lists: the commas on the first line, and whether each of the first {@link COMMA_LINES}
+   * lines holds as many: rows of a CSV table without its header row (see `end`).
+   */
+  private commas = 0;
+  private sameCommas = true;
   /** How folders' sizes count (folder-totals.ts); undefined: decided by the listing. */
   private readonly folderSizes: FolderSizes | undefined;
 
@@ -149,6 +156,16 @@ export class PathListReader {
       // line. Read as paths, each line would be one path (a process name with a "/" split into
       // folders), with exit 0.
       throw new EspalierError("PARSE_PATHS", COLUMNS_ALIGNED, { line: this.firstLine, column: 1 });
+    }
+    if (this.detected && this.sized === false && this.commas > 0 && this.sameCommas && this.pathLines >= 3) {
+      // A pip RECORD file (path,hash,size) or any CSV saved without its header row: read as paths, each
+      // whole row would be one path (its last name "f.py,sha256=…,2076"), with exit 0.
+      const n = this.commas;
+      throw new EspalierError(
+        "PARSE_PATHS",
+        `every line holds ${n === 1 ? "a comma" : `${n} commas`}, as the rows of a CSV table without its header row do: a table is read from a first line that names its columns (the id and parent columns, or a path column; --id-field, --parent-field and --path-field name others), so add one (e.g. id,parent,name or path,hash,size); to read each whole line as a path, pass --input-format paths`,
+        { line: this.firstLine, column: 1 },
+      );
     }
     sink.hasSizes = this.sized === true;
     const placer = this.placer;
@@ -285,6 +302,11 @@ export class PathListReader {
     } else {
       if (this.pathLines++ === 0) this.headerFirst = headerOfColumns(bytes, start, end);
       if (numberThenSpace(bytes, start, end)) this.numberFirstLines++;
+      if (this.pathLines <= COMMA_LINES && this.sameCommas) {
+        const commas = countByte(bytes, comma, start, end);
+        if (this.pathLines === 1) this.commas = commas;
+        else if (commas !== this.commas) this.sameCommas = false;
+      }
     }
     if (this.backslashes === undefined) this.backslashes = windowsPath(bytes, pathStart, end);
     let i = this.backslashes
@@ -336,6 +358,16 @@ function numberThenSpace(bytes: Buffer, start: number, end: number): boolean {
 function headerOfColumns(bytes: Buffer, start: number, end: number): boolean {
   const words = bytes.toString("utf8", start, end).trim().split(/ +/);
   return words.length >= 2 && words.every((word) => !word.includes("/") && !/^[0-9]/.test(word));
+}
+
+/** Lines of an unsized list whose commas are counted (see `PathListReader.commas`): a bounded cost. */
+const COMMA_LINES = 1000;
+
+/** How many `byte`s `bytes[start, end)` holds. */
+function countByte(bytes: Buffer, byte: number, start: number, end: number): number {
+  let n = 0;
+  for (let k = bytes.indexOf(byte, start); k !== -1 && k < end; k = bytes.indexOf(byte, k + 1)) n++;
+  return n;
 }
 
 const COLUMNS_ALIGNED =

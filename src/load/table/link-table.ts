@@ -34,10 +34,16 @@ export function linkTable(
   } catch (err) {
     throw placedAtRow(shape === "table" ? withSeparatorHint(err, table.columnNames()) : err, table.place);
   }
+  // Linked by id with no name column: the ids name the nodes, and the header says so.
+  const idsName =
+    table.column(options.idField) !== undefined &&
+    table.column(options.parentField) !== undefined &&
+    !table.columnNames().includes(options.nameField);
   linked.reading = {
     shape,
     sizeUnit: fieldSizeUnit(options.sizeField),
     ...(table.filledRows ? { filledRows: table.filledRows } : {}),
+    ...(idsName ? { namesFrom: options.idField } : {}),
   };
   if (table.place) linked.placeRow = table.place;
   return linked;
@@ -58,8 +64,12 @@ function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): 
   // manager column), which --id-field reads.
   const byName =
     !ids && table.column(options.parentField) !== undefined && table.column(options.nameField) !== undefined;
+  // Columns named otherwise (employee_id, manager_id) are read by naming them: the message says how,
+  // unless the header is one column (another separator, or a list of paths: nothing to name).
+  const naming = !byName && table.columnNames().length > 1;
   const remedies = [
     ...(byName ? [`--id-field ${options.nameField}`] : []),
+    ...(naming ? ["--id-field", "--parent-field", "--path-field"] : []),
     ...(shape === "table" ? ["--input-format paths"] : []),
   ];
   throw new EspalierError(
@@ -67,7 +77,9 @@ function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): 
     say`rows need "${options.idField}" and "${options.parentField}" columns, or a "${options.pathField}" column; the columns are ${quotedList("name", table.columnNames())}${
       byName
         ? `; if "${options.parentField}" holds the rows' ${options.nameField}s, say --id-field ${options.nameField}`
-        : ""
+        : naming
+          ? "; say which columns hold them with --id-field COLUMN and --parent-field COLUMN, or --path-field COLUMN"
+          : ""
     }${
       shape === "table"
         ? "; a listing of sizes and paths (size, a tab, the path) reads with --input-format paths"

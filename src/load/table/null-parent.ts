@@ -76,6 +76,14 @@ export function missingParent(
       { remedies: [remedy] },
     );
   }
+  // `1, , Ada`: spaces after the commas are part of each value (RFC 4180, 2.4), so " " is no empty
+  // parent and " 1" no id "1"; a hand-written table often has them.
+  if (parentId !== parentId.trim())
+    return new EspalierError(
+      "MISSING_PARENT",
+      say`${missing}; the cell has spaces around its value, which CSV keeps as part of it (RFC 4180, section 2.4): write the table without spaces around the separators`,
+      { row, field: options.parentField },
+    );
   return new EspalierError("MISSING_PARENT", missing, { row, field: options.parentField });
 }
 

@@ -88,8 +88,14 @@ describe("linkTable by id and parent", () => {
     expect(error.details).toEqual({
       fieldsNeeded: ["id", "parent", "path"],
       fieldsSeen: ["key", "boss"],
-      remedies: ["--input-format paths"],
+      remedies: ["--id-field", "--parent-field", "--path-field", "--input-format paths"],
     });
+    // The reader has no docs: the message itself names the options that read other-named columns.
+    expect(error.message).toContain("--id-field COLUMN and --parent-field COLUMN, or --path-field COLUMN");
+    // One column (another separator, or a bare list): no column to name, so no such hint.
+    const one = caught(() => csv("key;boss\na;\n"));
+    expect(one.message).not.toContain("--id-field");
+    expect(one.details?.remedies).toEqual(["--input-format paths"]);
   });
 
   it("loadTree(csv) rejects a kept column that does not exist as FIELD_MISSING", () => {

@@ -108,4 +108,16 @@ describe("--null-parent: parent cells that mean no parent", () => {
       expect((await cli(["-", ...format], { stdin })).code).toBe(0);
     }
   });
+
+  it("loadTree(csv) names the spaces when a parent cell holds them (a hand-written `1, , Ada`)", () => {
+    // RFC 4180, section 2.4: "Spaces are considered part of a field and should not be ignored."
+    const error = caught(() => csv("id, parent, name\n1, , Ada\n2, 1, Bo\n"));
+    expect(error.code).toBe("MISSING_PARENT");
+    expect(error.pos).toMatchObject({ row: 1, line: 2 });
+    expect(error.message).toContain(
+      "spaces around its value, which CSV keeps as part of it (RFC 4180, section 2.4)",
+    );
+    // No spaces: no such words.
+    expect(caught(() => csv("id,parent\n1,\n2,9\n")).message).not.toContain("spaces");
+  });
 });
