@@ -94,7 +94,12 @@ function defineCommand<T extends Record<string, OptionSpec>>(def: CommandDef<T>)
       const early = await def.early?.(line.args, options);
       if (early) return { ...early, target: undefined };
       checkArguments(def, line.args);
-      checkShareFormat(options as { share?: string; format?: string }, fromConfig);
+      const shareNote = checkShareFormat(
+        options as { share?: string; format?: string },
+        fromConfig,
+        configFile,
+      );
+      if (shareNote) io.stderr.write(shareNote);
       const target = outputTarget(options as { output?: string; focusFrom?: string; nodes?: string[] }, line);
       if (target) {
         const { checkOutputTarget } = await import("./write-output.js");
@@ -111,18 +116,23 @@ function defineCommand<T extends Record<string, OptionSpec>>(def: CommandDef<T>)
 /**
  * `--share` adds percentages to the text and Markdown lines; JSON and SVG have no place for them, so
  * given on the command line with `--format json` or `svg` it would be dropped with exit 0: USAGE. From
- * the config file (a project's preference for its printed summaries) it does not stop a JSON run.
+ * the config file (a project's preference for its printed summaries) it does not stop a JSON run, but
+ * is not dropped unsaid either: the note returned (for standard error) says it is left out and where
+ * the numbers are; undefined when there is nothing to say.
  */
 function checkShareFormat(
   options: { share?: string; format?: string },
   fromConfig: ReadonlySet<string>,
-): void {
-  if (options.share === undefined || options.share === "none" || fromConfig.has("share")) return;
-  if (options.format !== "json" && options.format !== "svg") return;
+  configFile: string | undefined,
+): string | undefined {
+  if (options.share === undefined || options.share === "none") return undefined;
+  if (options.format !== "json" && options.format !== "svg") return undefined;
   const instead =
     options.format === "json"
       ? "each node's size is in the JSON, as are its parent's and the root's (a share is their ratio)"
       : "block widths follow size, and each block's tooltip gives its size";
+  if (fromConfig.has("share"))
+    return `espalier: note: share: ${options.share} from ${configFile ?? "the config file"} is left out: --format ${options.format} has no place for percentages (${instead}); --share none leaves this note out\n`;
   throw new EspalierError(
     "USAGE",
     `--share adds percentages to text and Markdown lines only; --format ${options.format} has none: ${instead}`,

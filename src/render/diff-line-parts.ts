@@ -14,19 +14,23 @@ const SHORT_FROM = 8;
 
 /**
  * What the line of `group` says in a diff: the summary's parts (see `lineParts`) plus the change tag
- * of the chain's last node (laid out right before its name), the net size change after its numbers,
+ * of the chain's last node (laid out right before its name), the net size change of the line's top
+ * node after its numbers,
  * and what the fold holds: `(hidden: 9 children, 412 nodes, 3.0 MiB; 2 added, net +1.0 KiB)` or
  * `…; none changed)`. A removed node holds no size now, so its numbers show only its count.
  */
 export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOptions): LineParts {
   const parts = lineParts(group, options);
   const last = group.nodes[group.nodes.length - 1];
-  const removed = last.change === "removed";
+  // The numbers are the line's top node's, as in a summary (see `lineParts`); a removed top (then the
+  // whole line is removed) holds no size now.
+  const top = group.nodes[0];
+  const removed = top.change === "removed";
   const say = (o: NumberOptions, summary: string) => {
     if (last.reference) return referenceText(last.reference);
-    const numbers = [removed ? amount(last.nodes, 0, { ...o, sizes: false }) : summary];
+    const numbers = [removed ? amount(top.nodes, 0, { ...o, sizes: false }) : summary];
     if (removed && last.empty) numbers.push(EMPTY_WORDS);
-    if (o.sizes && last.nodes > 1 && last.net !== 0) numbers.push(`net ${signed(last.net, o)}`);
+    if (o.sizes && top.nodes > 1 && top.net !== 0) numbers.push(`net ${signed(top.net, o)}`);
     return numbers.filter((s) => s !== "").join(", ");
   };
   const hidden = last.hidden;

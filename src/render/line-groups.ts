@@ -5,7 +5,7 @@ import type { ViewNode } from "../view/view-node.js";
 export interface LineGroup<T extends ViewNode = ViewNode> {
   /** Nesting level of the line (0 for the root's line). */
   level: number;
-  /** The chain, top first; the line's mark, numbers and fold are those of the last. */
+  /** The chain, top first; the line's numbers are the top's (all of it), its mark and fold the last's. */
   nodes: T[];
   /** The node of the line above (the chain top's parent), or null for the root's line. */
   above: T | null;

@@ -28,7 +28,7 @@ export interface LineParts {
    * keeps, so siblings do not print the same; absent: none to tell apart.
    */
   distinct?: readonly number[];
-  /** The last node's numbers after the labels (`12,121 nodes, 3.0 MiB`), or "". */
+  /** The numbers after the labels, the top node's (`12,121 nodes, 3.0 MiB`), or "". */
   numbers: string;
   /** The same with counts and plain sizes compact (`12.1k nodes`). */
   compactNumbers: string;

@@ -10,9 +10,10 @@ export { MARK };
 
 /**
  * The node converter of every line-based format: what the line of `group` says. The chain's labels,
- * then the mark, numbers and fold of its last node, so that every number stands beside the node it
- * belongs to and `nodes = 1 + the nodes on the lines below + hidden` holds on every line. A diff adds
- * its fields on top (see `diffLineParts`).
+ * the numbers of its top node (itself and all below it: the line's names, the lines below and the
+ * fold), then the mark, fold and parents of its last node, so that `nodes = the line's names + the
+ * nodes on the lines below + hidden` holds on every line, and a size less the sizes below and the
+ * hidden size is the own size of the line's names. A diff adds its fields on top (see `diffLineParts`).
  */
 export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: NumberOptions): LineParts {
   const { level, nodes } = group;
@@ -43,9 +44,11 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
   // A focus with several parents (graphs) says so after its fold.
   const parents = parentsText(last.parents);
   const compact = { ...options, compact: true };
+  // The numbers count the whole line: its top node and all below it (a chain's upper nodes' own sizes
+  // included), so the line above adds up from the lines below it; the fold is the last node's.
   const say = (o: NumberOptions) => {
-    const numbers = amount(last.nodes, last.size, o);
-    const share = shareOf(group, last, o);
+    const numbers = amount(top.nodes, top.size, o);
+    const share = shareOf(group, top, o);
     const said = share ? (numbers ? `${numbers}, ${share}` : share) : numbers;
     // An entry that is an empty object in the input says so: it counts as a node like any other.
     return last.empty ? (said ? `${said}, ${EMPTY_WORDS}` : EMPTY_WORDS) : said;

@@ -36,10 +36,10 @@ export function legendLines(kind: "summary" | "diff", width?: number): string[] 
 function legendTexts(kind: "summary" | "diff"): string[] {
   const path = kind === "diff" ? "a change or on the way to a focus or change" : "on the way to a focus";
   const lines = [
-    `marks: ${MARK.focus} focus, ${MARK.path} ${path}, ${MARK.other} other, ${MARK.reference} a reference (a node with several parents: its full entry is at the path shown; counts no node); a / b: b is a's only child, the line's numbers and fold are b's`,
+    `marks: ${MARK.focus} focus, ${MARK.path} ${path}, ${MARK.other} other, ${MARK.reference} a reference (a node with several parents: its full entry is at the path shown; counts no node); a / b: b is a's only child, the line's numbers are a's (a with all below it), its fold b's`,
     kind === "diff"
-      ? "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1, and the / of /usr), removed nodes included; no count: 1 node (a lone ? stands where numbers did not fit the width); a size is the node's own plus all below it, NEW's (own = size - the sizes on the lines below - the hidden size); a line too narrow for its fold says (k hidden, c changed): k nodes hidden, c of them changed"
-      : "numbers: N nodes = 1 + the nodes on the lines below + the hidden ones (each a in a / b adds 1, and the / of /usr); no count: 1 node (a lone ? stands where numbers did not fit the width); a size is the node's own plus all below it (own = size - the sizes on the lines below - the hidden size); a line too narrow for its fold says (k hidden): k nodes hidden",
+      ? "numbers: N nodes = 1 for each name on the line (2 for /usr) + the nodes on the lines below + the hidden ones, removed nodes included; no count: 1 node (a lone ? stands where numbers did not fit the width); a size is the node's own plus all below it, NEW's (own = size - the sizes on the lines below - the hidden size; on a line a / b, a's and b's own together); a line too narrow for its fold says (k hidden, c changed): k nodes hidden, c of them changed"
+      : "numbers: N nodes = 1 for each name on the line (2 for /usr) + the nodes on the lines below + the hidden ones; no count: 1 node (a lone ? stands where numbers did not fit the width); a size is the node's own plus all below it (own = size - the sizes on the lines below - the hidden size; on a line a / b, a's and b's own together); a line too narrow for its fold says (k hidden): k nodes hidden",
   ];
   if (kind === "diff")
     lines.push(

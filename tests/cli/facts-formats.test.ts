@@ -52,9 +52,14 @@ function totalsOf(csv: string): Totals {
 /** "184,956" as a number (en-US digit groups). */
 const num = (text: string) => Number(text.replaceAll(",", ""));
 
-/** A shown line: its node's path, the numbers it states, and its fold's, if any. */
+/**
+ * A shown line: its last node's path (a chain's `top` is its first node, whose numbers the line
+ * states), the numbers it states, how many names it has, and its fold's numbers (the last node's), if any.
+ */
 interface Shown {
   path: string;
+  top: string;
+  names: number;
   nodes: number;
   size: number;
   hidden?: { children: number; nodes: number; size: number };
@@ -76,10 +81,10 @@ function shownChildren(lines: Shown[]): Map<Shown, Shown[]> {
 /** Every line's numbers equal the independent totals, and each fold is what its shown children leave. */
 function expectTotals(lines: Shown[], totals: Totals): void {
   for (const line of lines) {
-    expect([line.path, line.nodes, line.size]).toEqual([
-      line.path,
-      totals.nodes.get(line.path),
-      totals.size.get(line.path),
+    expect([line.top, line.nodes, line.size]).toEqual([
+      line.top,
+      totals.nodes.get(line.top),
+      totals.size.get(line.top),
     ]);
   }
   for (const [line, children] of shownChildren(lines)) {
@@ -97,7 +102,7 @@ function expectTotals(lines: Shown[], totals: Totals): void {
     }
     expect(line.hidden, line.path).toEqual({
       children: under.length - children.length,
-      nodes: line.nodes - 1 - shown((c) => c.nodes),
+      nodes: line.nodes - line.names - shown((c) => c.nodes),
       size: line.size - shown((c) => c.size),
     });
   }
@@ -120,11 +125,15 @@ function markdownLines(markdown: string, rootName: string): Shown[] {
     const level = m[1].length / 2;
     const names = [...m[2].matchAll(/` (.+?) `/g)].map((n) => n[1]);
     const above = level === 0 ? [] : paths[level - 1] === "" ? [] : [paths[level - 1]];
-    const path = names[0] === rootName ? names.slice(1).join("/") : [...above, ...names].join("/");
+    const own = names[0] === rootName ? names.slice(1) : [...above, ...names];
+    const path = own.join("/");
+    const top = own.slice(0, own.length - names.length + 1).join("/");
     paths[level] = path;
     const [countText, sizeText] = m[3].includes("node") ? m[3].split(/ nodes?, /) : ["1", m[3]];
     return {
       path,
+      top,
+      names: names.length,
       level,
       nodes: num(countText),
       size: num(sizeText),

@@ -29,11 +29,34 @@ describe("--share with an output format that has no place for percentages", () =
     }
   });
 
-  it("from the config file (a preference for printed summaries) does not stop a JSON run", async () => {
-    const result = await cli([DEPS, "--format", "json", "--budget", "3"], {
+  // Field test: `share: total` in the config file and --format json printed the JSON without a word
+  // that the option was left out (exit 0, standard error empty).
+  it("from the config file (a preference for printed summaries) does not stop a JSON or SVG run, and says it is left out", async () => {
+    for (const [format, start] of [
+      ["json", "{"],
+      ["svg", "<svg"],
+    ]) {
+      for (const args of [[DEPS], ["diff", DEPS, DEPS]]) {
+        const result = await cli([...args, "--format", format, "--budget", "3"], {
+          files: { ".espalier.yaml": "share: total\n" },
+        });
+        expect(result.code).toBe(0);
+        expect(result.stdout.startsWith(start)).toBe(true);
+        expect(result.stderr).toMatch(
+          new RegExp(
+            `^espalier: note: share: total from .*\\.espalier\\.yaml is left out: --format ${format} has no place for percentages .*\\n$`,
+          ),
+        );
+      }
+    }
+    // --share none on the command line (over the config file's) prints nothing more.
+    const quiet = await cli([DEPS, "--format", "json", "--budget", "3", "--share", "none"], {
       files: { ".espalier.yaml": "share: total\n" },
     });
-    expect(result.stderr).toBe("");
-    expect(JSON.parse(result.stdout).format).toBe("espalier-summary/1");
+    expect(quiet.stderr).toBe("");
+    // Text keeps the config file's percentages, with no note.
+    const text = await cli([DEPS, "--budget", "3"], { files: { ".espalier.yaml": "share: total\n" } });
+    expect(text.stderr).toBe("");
+    expect(text.stdout).toContain("100%");
   });
 });

@@ -27,7 +27,7 @@ describe("column options on an edge list", () => {
       },
     );
     expect(r.stderr).toBe("");
-    expect(r.stdout).toBe(". ledger / ledger-core / kelp-log\n");
+    expect(r.stdout).toBe(". ledger / ledger-core / kelp-log  3 nodes\n");
   });
 
   it("without options, a table whose header names no parent and child is PARSE_CSV, not lone nodes", async () => {

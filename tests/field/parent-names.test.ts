@@ -28,7 +28,7 @@ describe("a parent column that holds names", () => {
       files: { "org.csv": csv },
     });
     expect(r.stderr).toBe("");
-    expect(r.stdout).toBe(". Ada Quill / Bo Tarn / Cy Venn\n");
+    expect(r.stdout).toBe(". Ada Quill / Bo Tarn / Cy Venn  3 nodes\n");
   });
 
   it("without an id column, FIELD_MISSING names --id-field with the name column", async () => {
@@ -39,7 +39,7 @@ describe("a parent column that holds names", () => {
     const read = await cli(["org.csv", "--parent-field", "manager", "--id-field", "name", "--bare"], {
       files: { "org.csv": noIds },
     });
-    expect(read.stdout).toBe(". Ada Quill / Bo Tarn\n");
+    expect(read.stdout).toBe(". Ada Quill / Bo Tarn  2 nodes\n");
   });
 
   it("names no row when the value is nobody's name either", async () => {

@@ -114,8 +114,8 @@ describe("a million nodes deep or wide (no recursion on the input's shape)", () 
     // spaces of indentation, past the longest string the engine allows (see docs/reliability.md).
     const line = renderText(deep.view, { units: "plain", sizes: true, chains: true });
     expect(line.split("\n")).toHaveLength(2);
-    // The numbers are the last node's (a leaf of size 1); the N - 1 names before it add one node each.
-    expect(line).toContain(` / n${N - 1}  1
+    // The numbers are the top node's: all N nodes, each of size 1 (one node per name on the line).
+    expect(line).toContain(` / n${N - 1}  ${N.toLocaleString("en-US")} nodes, ${N.toLocaleString("en-US")}
 `);
   }, 240_000); // a million-node chain takes ~20 s alone and over a minute on a busy shared machine
 

@@ -71,11 +71,11 @@ describe("renderDiffText(view, totals, options)", () => {
       [
         "diff by path: 1 added, 0 removed, 0 moved, 0 renamed, 0 edited, 1 resized; 8 -> 9 nodes, size 3 B -> 8 B (net +5 B); no focus; 6 of 40 lines",
         ": R  9 nodes, 8 B, net +5 B",
-        // The numbers are the chain's last node's: A / B add one node each to R's count.
-        "  : A / B / C  3 nodes, 5 B, net +4 B",
+        // The numbers are the chain's top node's: A with all below it (3 names + 2 lines below).
+        "  : A / B / C  5 nodes, 5 B, net +4 B",
         "    . x  1 B",
         "    : [added +4 B] y  4 B",
-        "  : D / E / [resized +1 B] F  3 B",
+        "  : D / E / [resized +1 B] F  3 nodes, 3 B, net +1 B",
         "",
       ].join("\n"),
     );

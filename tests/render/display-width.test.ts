@@ -154,21 +154,23 @@ describe("renderText(view, { width })", () => {
     expect(at(32)).toBe("  . Esme Orby Le…  ?  (2 hidden)");
     const chain = (width: number) =>
       renderText(result.view, { units: "plain", sizes: true, width, chains: true }).split("\n")[2];
-    // The narrow fold counts hidden nodes, not children (gamma and its q and r under beta's one hidden
-    // child), so 4 = 1 + 3 still adds up on the line.
-    expect(chain(45)).toBe("  . alpha / beta  4 nodes, 5  (3 hidden)");
+    // The line's numbers are alpha's (with all below it); the narrow fold counts beta's hidden nodes,
+    // not children (gamma and its q and r under beta's one hidden child), so 5 = 2 names + 3 hidden.
+    expect(chain(45)).toBe("  . alpha / beta  5 nodes, 5  (3 hidden)");
     // A chain is cut in its middle: its start and the end of its last name stay.
-    expect(chain(36)).toBe("  . alph…eta  4 nodes, 5  (3 hidden)");
+    expect(chain(36)).toBe("  . alph…eta  5 nodes, 5  (3 hidden)");
   });
 
-  it("prints a run of only children as one line carrying the last node's numbers and fold", () => {
-    const tree = makeTree("R{services{ledger{src:5{a:1,b:2}}},docs:3}");
+  it("prints a run of only children as one line carrying its top node's numbers and its last node's fold", () => {
+    // services holds 4 of its own: the line's 12 = 4 + 0 (ledger) + 5 (src) + 1 + 2, so R's own
+    // size, 15 - 12 - 3 = 0, reads off the screen (docs/selection.md, Numbers a reader can check).
+    const tree = makeTree("R{services:4{ledger{src:5{a:1,b:2}}},docs:3}");
     const result = summarize(prepare(tree), { foci: [], budget: 10, importance: "depth", chains: true });
     const text = renderText(result.view, { units: "plain", sizes: true, chains: true });
     expect(text).toBe(
       [
-        ". R  7 nodes, 11",
-        "  . services / ledger / src  3 nodes, 8",
+        ". R  7 nodes, 15",
+        "  . services / ledger / src  5 nodes, 12",
         "    . a  1",
         "    . b  2",
         "  . docs  3",
@@ -182,8 +184,9 @@ describe("renderText(view, { width })", () => {
     const tree = makeTree("R{a{b{c}}}");
     const result = summarize(prepare(tree), { foci: ["a/b"], budget: 10, importance: "depth", chains: true });
     const text = renderText(result.view, { units: "plain", sizes: false, chains: true });
-    // The chain R / a / b ends at the focus; c, the focus's only child, gets a line of its own.
-    expect(text).toBe(["* R / a / b  2 nodes", "  . c", ""].join("\n"));
+    // The chain R / a / b ends at the focus; c, the focus's only child, gets a line of its own. The
+    // numbers are R's: 3 names + 1 below.
+    expect(text).toBe(["* R / a / b  4 nodes", "  . c", ""].join("\n"));
   });
 });
 

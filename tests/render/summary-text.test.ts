@@ -32,7 +32,8 @@ describe("renderText(view, options)", () => {
       chains: true,
     });
     const text = renderText(result.view, { units: "plain", sizes: false, chains: true });
-    expect(text).toBe([". /usr / bin  3 nodes", "  . a", "  . b", ""].join("\n"));
+    // The numbers are the root's: /usr names two nodes, bin one, and a and b are below (5).
+    expect(text).toBe([". /usr / bin  5 nodes", "  . a", "  . b", ""].join("\n"));
     // A node named "/" below the root is an ordinary name: only the root's "/" is glued.
     const below = summarize(prepare(makeTree("R{x,/{usr{y,z}}}")), {
       foci: [],
@@ -41,7 +42,7 @@ describe("renderText(view, options)", () => {
       chains: true,
     });
     expect(renderText(below.view, { units: "plain", sizes: false, chains: true })).toContain(
-      "  . / / usr  3 nodes",
+      "  . / / usr  4 nodes",
     );
   });
 
