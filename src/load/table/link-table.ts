@@ -114,20 +114,9 @@ function linkById(
   for (let r = 0; r < n; r++) {
     const id = cellText(idCells[r]);
     if (nullParents?.has(id)) throw idIsNullParent(id, r + 1, options);
-    if (id === "")
-      throw new EspalierError("SHAPE", say`row ${r + 1} has an empty "${options.idField}"`, {
-        row: r + 1,
-        field: options.idField,
-      });
+    if (id === "") throw emptyId(r, options);
     const earlier = rowOf.add(id, r);
-    if (earlier !== -1) {
-      throw new EspalierError(
-        "DUPLICATE_ID",
-        say`row ${r + 1} repeats the ${options.idField} ${quoted.id(id)} of row ${earlier + 1}`,
-        { row: r + 1, field: options.idField },
-        { firstRow: earlier + 1 },
-      );
-    }
+    if (earlier !== -1) throw duplicateId(r, id, earlier, options);
   }
   const parentOf = new Int32Array(n);
   const origin = new Int32Array(n);
@@ -167,6 +156,24 @@ function linkById(
   } satisfies LinkedNodes;
 }
 
+/** SHAPE at row `r` (0-based), whose id cell is empty. */
+function emptyId(r: number, options: LoadOptions): EspalierError {
+  return new EspalierError("SHAPE", say`row ${r + 1} has an empty "${options.idField}"`, {
+    row: r + 1,
+    field: options.idField,
+  });
+}
+
+/** DUPLICATE_ID at row `r` (0-based), naming the earlier row with the same id. */
+function duplicateId(r: number, id: string, earlier: number, options: LoadOptions): EspalierError {
+  return new EspalierError(
+    "DUPLICATE_ID",
+    say`row ${r + 1} repeats the ${options.idField} ${quoted.id(id)} of row ${earlier + 1}`,
+    { row: r + 1, field: options.idField },
+    { firstRow: earlier + 1 },
+  );
+}
+
 /**
  * {@link linkById} for a table that kept its ids as bytes and its parent cells as numbers and bytes
  * (a CSV table, csv-table-reader.ts): the same nodes and the same errors, with no string made per row.
@@ -185,20 +192,9 @@ function linkByteIds(table: Table, ids: NamePool, parents: NumberCells, options:
   const nullParents = nullParentSet(options);
   for (let r = 0; r < n; r++) {
     if (nullParents?.has(ids.get(r))) throw idIsNullParent(ids.get(r), r + 1, options);
-    if (ids.byteLengthOf(r) === 0)
-      throw new EspalierError("SHAPE", say`row ${r + 1} has an empty "${options.idField}"`, {
-        row: r + 1,
-        field: options.idField,
-      });
+    if (ids.byteLengthOf(r) === 0) throw emptyId(r, options);
     const earlier = rowOf.add(r);
-    if (earlier !== -1) {
-      throw new EspalierError(
-        "DUPLICATE_ID",
-        say`row ${r + 1} repeats the ${options.idField} ${quoted.id(ids.get(r))} of row ${earlier + 1}`,
-        { row: r + 1, field: options.idField },
-        { firstRow: earlier + 1 },
-      );
-    }
+    if (earlier !== -1) throw duplicateId(r, ids.get(r), earlier, options);
   }
   const parentOf = new Int32Array(n);
   const origin = new Int32Array(n);
