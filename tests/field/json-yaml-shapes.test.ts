@@ -96,3 +96,20 @@ describe("a flat configuration object (no name, no size, nothing nested)", () =>
     expect(sized.totals).toEqual({ nodes: 3, size: 7 });
   });
 });
+
+describe("rows asked for in a document that holds them under a member", () => {
+  // An API's answer or a dataset file (iso-codes' iso_3166-2.json: {"3166-2": [{...}, ...]}) wraps its
+  // array of rows in an object; --input-format rows reads a top-level array only.
+  const wrapped = JSON.stringify({ data: [{ id: "quay" }, { id: "ledger", parent: "quay" }] });
+
+  it("is SHAPE at 1:1 saying the document is an object and what to do", async () => {
+    const result = await cli(["-", "--input-format", "rows"], { stdin: wrapped });
+    expect(result.code).toBe(2);
+    expect(result.stderr).toMatch(
+      /^espalier: <stdin>:1:1: rows must be a top-level array of objects; this document is an object: rows held under one of its members need that array taken out first .*\[SHAPE\]\n$/,
+    );
+    // The array taken out reads as rows: 2 nodes.
+    const rows = JSON.stringify(JSON.parse(wrapped).data);
+    expect((await summary(rows, ["--input-format", "rows"])).totals.nodes).toBe(2);
+  });
+});

@@ -424,7 +424,7 @@ export class JsonLoader extends JsonTokenizer {
     const pos = { line: this.pos.line, column };
     switch (this.slot) {
       case S_TOP:
-        if (this.probe.rows && object) throw this.badTop(pos);
+        if (this.probe.rows && object) throw this.badTop(pos, true);
         if (object) {
           this.probe.nodes();
           role = NODE;
@@ -616,8 +616,13 @@ export class JsonLoader extends JsonTokenizer {
     return badNodeSize(this.sink.parentOf, this.sink.name, i, shown, field, pos);
   }
 
-  private badTop(pos: SourcePos): EspalierError {
-    if (this.probe.rows) return new EspalierError("SHAPE", "rows must be a top-level array of objects", pos);
+  private badTop(pos: SourcePos, object = false): EspalierError {
+    if (this.probe.rows)
+      return new EspalierError(
+        "SHAPE",
+        `rows must be a top-level array of objects${object ? ROWS_IN_OBJECT : ""}`,
+        pos,
+      );
     return new EspalierError("SHAPE", "the top level must be a node object or an array of them", pos);
   }
 
@@ -632,3 +637,10 @@ export class JsonLoader extends JsonTokenizer {
     this.rowColumns[r] = pos.column;
   }
 }
+
+/**
+ * What SHAPE adds when rows were asked for and the document is an object: an API's `{"data": [...]}`
+ * or a dataset's `{"3166-2": [...]}` holds its rows under a member, which espalier does not pick.
+ */
+export const ROWS_IN_OBJECT =
+  "; this document is an object: rows held under one of its members need that array taken out first (without --input-format rows, the object is read as nested nodes)";

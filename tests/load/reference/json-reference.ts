@@ -1,4 +1,5 @@
 import { EspalierError } from "../../../src/errors.js";
+import { ROWS_IN_OBJECT } from "../../../src/load/json/json-loader.js";
 import type { LoadOptions } from "../../../src/load/load-options.js";
 import { isRowsValue } from "../../../src/load/rows-shape.js";
 import { linkTable } from "../../../src/load/table/link-table.js";
@@ -19,7 +20,13 @@ import { lineColumnAt } from "./line-column.js";
 export function loadJson(text: string, options: LoadOptions, as?: "json" | "rows"): LinkedNodes {
   const value = parseJson(text);
   if (as === "rows" || (as === undefined && isRowsValue(value, options))) {
-    if (!Array.isArray(value)) throw new EspalierError("SHAPE", "rows must be a top-level array of objects");
+    if (!Array.isArray(value)) {
+      const object = typeof value === "object" && value !== null;
+      throw new EspalierError(
+        "SHAPE",
+        `rows must be a top-level array of objects${object ? ROWS_IN_OBJECT : ""}`,
+      );
+    }
     return linkTable(rowsTable(value), options);
   }
   return walkNested<unknown>(value, jsonAccess, options);
