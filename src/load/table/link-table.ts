@@ -34,11 +34,13 @@ export function linkTable(
   } catch (err) {
     throw placedAtRow(shape === "table" ? withSeparatorHint(err, table.columnNames()) : err, table.place);
   }
-  // Linked by id with no name column: the ids name the nodes, and the header says so.
+  // Linked by id with no name column: the ids name the nodes, and the header says so. By the header's
+  // names only: `column` would make a cell of every row of a table that keeps its ids as bytes.
+  const columns = table.columnNames();
   const idsName =
-    table.column(options.idField) !== undefined &&
-    table.column(options.parentField) !== undefined &&
-    !table.columnNames().includes(options.nameField);
+    columns.includes(options.idField) &&
+    columns.includes(options.parentField) &&
+    !columns.includes(options.nameField);
   linked.reading = {
     shape,
     sizeUnit: fieldSizeUnit(options.sizeField),
