@@ -6,7 +6,7 @@ import { shortenMiddle } from "./display-width.js";
 import { formatSize } from "./format-size.js";
 import type { LineGroup } from "./line-groups.js";
 import type { LineParts } from "./line-layout.js";
-import { EMPTY_WORDS, foldAmount, foldWords, lineParts, nodesWord } from "./line-parts.js";
+import { EMPTY_WORDS, foldAmount, foldWords, hiddenCount, lineParts } from "./line-parts.js";
 import { referenceText } from "./reference-text.js";
 
 /** Columns an old parent's path or old name keeps in a tag on a narrow line. */
@@ -49,7 +49,7 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
     fold: fold(options),
     foldCounts: hidden ? `(hidden: ${foldAmount(group, last, options)}; ${inside})` : "",
     compactFold: fold({ ...options, compact: true }),
-    foldShort: hidden ? `(hidden: ${nodesWord(hidden.nodes)}; ${few})` : "",
+    foldShort: hidden ? `(hidden: ${hiddenCount(hidden.nodes, options)}; ${few})` : "",
     foldTiny: hidden ? `(${formatCount(hidden.nodes)} hidden, ${formatCount(changed)} changed)` : "",
   };
 }

@@ -66,11 +66,12 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
     ...distinctPart(group),
     numbers: say(options),
     compactNumbers: say(compact),
-    countNumbers: amount(last.nodes, 0, { ...compact, sizes: false }),
+    // The line's count as its full numbers give it: the top node's, a chain's names included.
+    countNumbers: amount(top.nodes, 0, { ...compact, sizes: false }),
     fold: fold(options),
     foldCounts: joined(last.hidden ? `(hidden: ${foldAmount(group, last, options)})` : "", parents),
     compactFold: fold(compact),
-    foldShort: joined(last.hidden ? `(hidden: ${nodesWord(last.hidden.nodes)})` : "", parents),
+    foldShort: joined(last.hidden ? `(hidden: ${hiddenCount(last.hidden.nodes, options)})` : "", parents),
     foldTiny: last.hidden ? `(${formatCount(last.hidden.nodes)} hidden)` : "",
   };
 }
@@ -98,8 +99,8 @@ export function chainLabels<T extends ViewNode>({ nodes, above }: LineGroup<T>):
  * `41 nodes` (or `1 node`), exact: what a narrow line's fold keeps, `(hidden: 41 nodes)`, then
  * `(41 hidden)`, so `nodes = 1 + the lines below + hidden` can still be checked on it.
  */
-export function nodesWord(n: number): string {
-  return `${formatCount(n)} ${n === 1 ? "node" : "nodes"}`;
+export function hiddenCount(n: number, options: NumberOptions): string {
+  return amount(n, 0, { ...options, compact: false, sizes: false, always: true });
 }
 
 /** `hidden: 3 children` (or `1 child`): how many of the node's children the fold holds. */

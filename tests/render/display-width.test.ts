@@ -159,6 +159,8 @@ describe("renderText(view, { width })", () => {
     expect(chain(45)).toBe("  . alpha / beta  5 nodes, 5  (3 hidden)");
     // A chain is cut in its middle: its start and the end of its last name stay.
     expect(chain(36)).toBe("  . alph…eta  5 nodes, 5  (3 hidden)");
+    // Narrower, the size goes and the count stays: the line's count, alpha's (5), not beta's (4).
+    expect(chain(33)).toMatch(/^ {2}\. \S+ {2}5 nodes {2}\(3 hidden\)$/);
   });
 
   it("prints a run of only children as one line carrying its top node's numbers and its last node's fold", () => {
