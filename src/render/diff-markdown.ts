@@ -25,6 +25,7 @@ export function renderDiffMarkdown(
     options.legend ? "legend" : options.key ? "key" : undefined,
     "diff",
     parts,
+    options.sizes,
   );
   for (const line of parts) lines.push(markdownLine(line));
   return `${lines.join("\n")}\n`;

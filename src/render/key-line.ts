@@ -14,13 +14,16 @@ export interface KeyFacts {
   readonly marks: ReadonlySet<string>;
   /** Whether a line holds a chain of only children (`a / b`). */
   readonly chains: boolean;
+  /** Whether the lines print sizes (the input has them); default true. */
+  readonly sizes?: boolean;
 }
 
 /** The facts a key needs, read off the lines it stands above. */
-export function keyFacts(lines: readonly LineParts[]): KeyFacts {
+export function keyFacts(lines: readonly LineParts[], sizes = true): KeyFacts {
   return {
     marks: new Set(lines.map((l) => l.mark)),
     chains: lines.some((l) => l.labels.length > 1),
+    sizes,
   };
 }
 
@@ -38,11 +41,12 @@ export function keyLine(
   style: "text" | "markdown" = "text",
 ): string {
   const marks = markWords(kind, facts.marks, style);
+  const sizes = facts.sizes ?? true;
   const numbers =
     kind === "diff"
-      ? "N nodes: the node with all below it (removed ones too); a size: NEW's, with all below; net: its change"
-      : "N nodes and a size: the node with all below it";
-  const short = "totals include all below";
+      ? `N nodes: the node with all below it (removed ones too)${sizes ? "; a size: NEW's, with all below; net: its change" : ""}`
+      : `N nodes${sizes ? " and a size" : ""}: the node with all below it`;
+  const short = `${sizes ? "totals" : "counts"} include all below`;
   const chain = facts.chains ? ["a / b: b is a's only child"] : [];
   const more = "--legend explains more";
   const tries = [

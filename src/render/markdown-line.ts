@@ -37,13 +37,14 @@ export function markdownHead(
   explain: "legend" | "key" | undefined,
   kind: "summary" | "diff",
   parts: readonly LineParts[],
+  sizes?: boolean,
 ): string[] {
   // The legend and the key are espalier's own words, never input: escaped for Markdown, never cut as a long name is.
   const explained =
     explain === "legend"
       ? legendLines(kind)
       : explain === "key"
-        ? [keyLine(kind, keyFacts(parts), undefined, "markdown")]
+        ? [keyLine(kind, keyFacts(parts, sizes), undefined, "markdown")]
         : [];
   const lines = [...(header ? [header] : []), ...explained.map((l) => markdownText(l, false))];
   if (lines.length === 0) return [];

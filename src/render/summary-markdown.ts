@@ -32,6 +32,7 @@ export function renderMarkdown(view: HierarchyNode<ViewNode>, options: MarkdownO
     options.legend ? "legend" : options.key ? "key" : undefined,
     "summary",
     parts,
+    options.sizes,
   );
   for (const line of parts) lines.push(markdownLine(line));
   return `${lines.join("\n")}\n`;

@@ -100,6 +100,17 @@ describe("keyLine(kind, facts, width)", () => {
         expect(displayWidth(keyLine(kind, facts, width))).toBeLessThanOrEqual(width);
   });
 
+  it("speaks of counts only when the input has no sizes", () => {
+    const facts = { marks: new Set([MARK.other]), chains: false, sizes: false };
+    expect(keyLine("summary", facts)).toBe(
+      "key: '.' a node; N nodes: the node with all below it; --legend explains more",
+    );
+    expect(keyLine("diff", facts)).toBe(
+      "key: '.' nothing changed in it; N nodes: the node with all below it (removed ones too); --legend explains more",
+    );
+    expect(keyLine("summary", facts, 50)).toBe("key: '.' a node; counts include all below");
+  });
+
   it("speaks Markdown's terms there: bold names, not marks", () => {
     const facts = { marks: new Set([MARK.focus, MARK.path, MARK.other]), chains: false };
     expect(keyLine("summary", facts, undefined, "markdown")).toBe(
