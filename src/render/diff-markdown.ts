@@ -26,6 +26,7 @@ export function renderDiffMarkdown(
     "diff",
     parts,
     options.sizes,
+    options.header?.sizeName,
   );
   for (const line of parts) lines.push(markdownLine(line));
   return `${lines.join("\n")}\n`;

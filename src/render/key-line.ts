@@ -1,3 +1,4 @@
+import { safeText } from "../model/safe-text.js";
 import { displayWidth, shortenEnd } from "./display-width.js";
 import type { LineParts } from "./line-layout.js";
 import { MARK } from "./marks.js";
@@ -16,14 +17,17 @@ export interface KeyFacts {
   readonly chains: boolean;
   /** Whether the lines print sizes (the input has them); default true. */
   readonly sizes?: boolean;
+  /** What the size measures, as the input calls it (`cost`); default `size`. */
+  readonly sizeName?: string;
 }
 
 /** The facts a key needs, read off the lines it stands above. */
-export function keyFacts(lines: readonly LineParts[], sizes = true): KeyFacts {
+export function keyFacts(lines: readonly LineParts[], sizes = true, sizeName?: string): KeyFacts {
   return {
     marks: new Set(lines.map((l) => l.mark)),
     chains: lines.some((l) => l.labels.length > 1),
     sizes,
+    ...(sizeName === undefined ? {} : { sizeName }),
   };
 }
 
@@ -42,10 +46,12 @@ export function keyLine(
 ): string {
   const marks = markWords(kind, facts.marks, style);
   const sizes = facts.sizes ?? true;
+  // The size's name comes from the options or a config file: made safe and short as the header does.
+  const size = `a ${facts.sizeName === undefined ? "size" : safeText(facts.sizeName, 40)}`;
   const numbers =
     kind === "diff"
-      ? `N nodes: the node with all below it (removed ones too)${sizes ? "; a size: NEW's, with all below; net: its change" : ""}`
-      : `N nodes${sizes ? " and a size" : ""}: the node with all below it`;
+      ? `N nodes: the node with all below it (removed ones too)${sizes ? `; ${size}: NEW's, with all below; net: its change` : ""}`
+      : `N nodes${sizes ? ` and ${size}` : ""}: the node with all below it`;
   const short = `${sizes ? "totals" : "counts"} include all below`;
   const chain = facts.chains ? ["a / b: b is a's only child"] : [];
   const more = "--legend explains more";

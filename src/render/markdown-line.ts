@@ -38,13 +38,14 @@ export function markdownHead(
   kind: "summary" | "diff",
   parts: readonly LineParts[],
   sizes?: boolean,
+  sizeName?: string,
 ): string[] {
   // The legend and the key are espalier's own words, never input: escaped for Markdown, never cut as a long name is.
   const explained =
     explain === "legend"
       ? legendLines(kind)
       : explain === "key"
-        ? [keyLine(kind, keyFacts(parts, sizes), undefined, "markdown")]
+        ? [keyLine(kind, keyFacts(parts, sizes, sizeName), undefined, "markdown")]
         : [];
   const lines = [...(header ? [header] : []), ...explained.map((l) => markdownText(l, false))];
   if (lines.length === 0) return [];

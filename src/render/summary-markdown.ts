@@ -33,6 +33,7 @@ export function renderMarkdown(view: HierarchyNode<ViewNode>, options: MarkdownO
     "summary",
     parts,
     options.sizes,
+    options.header?.sizeName,
   );
   for (const line of parts) lines.push(markdownLine(line));
   return `${lines.join("\n")}\n`;

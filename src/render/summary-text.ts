@@ -64,7 +64,8 @@ export function headLines(
   const quiet = options.palette?.quiet ?? ((s: string) => s);
   const lines = options.header ? header(options.width).map(quiet) : [];
   if (options.legend) for (const line of legendLines(kind, options.width)) lines.push(quiet(line));
-  else if (options.key) lines.push(quiet(keyLine(kind, keyFacts(parts, options.sizes), options.width)));
+  else if (options.key)
+    lines.push(quiet(keyLine(kind, keyFacts(parts, options.sizes, options.header?.sizeName), options.width)));
   return lines;
 }
 

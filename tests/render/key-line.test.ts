@@ -111,6 +111,14 @@ describe("keyLine(kind, facts, width)", () => {
     expect(keyLine("summary", facts, 50)).toBe("key: '.' a node; counts include all below");
   });
 
+  it("calls the size what the input calls it, made safe as the header makes it", () => {
+    const facts = { marks: new Set([MARK.other]), chains: false, sizeName: "cost\u001b[2J" };
+    const key = keyLine("summary", facts);
+    expect(key).toContain("N nodes and a cost");
+    // No control character reaches the terminal (the header's safeText shows it escaped).
+    expect(key).not.toMatch(/\u001b/);
+  });
+
   it("speaks Markdown's terms there: bold names, not marks", () => {
     const facts = { marks: new Set([MARK.focus, MARK.path, MARK.other]), chains: false };
     expect(keyLine("summary", facts, undefined, "markdown")).toBe(
