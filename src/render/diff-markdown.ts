@@ -4,6 +4,7 @@ import type { DiffTotals } from "../diff/prepared-diff.js";
 import { diffLineParts } from "./diff-line-parts.js";
 import type { DiffTextOptions } from "./diff-text.js";
 import { diffHeader, markdownHeaderStyle } from "./header.js";
+import { keyContext } from "./key-line.js";
 import { lineGroups } from "./line-groups.js";
 import { markdownHead, markdownLine } from "./markdown-line.js";
 
@@ -25,8 +26,7 @@ export function renderDiffMarkdown(
     options.legend ? "legend" : options.key ? "key" : undefined,
     "diff",
     parts,
-    options.sizes,
-    options.header?.sizeName,
+    keyContext(options),
   );
   for (const line of parts) lines.push(markdownLine(line));
   return `${lines.join("\n")}\n`;

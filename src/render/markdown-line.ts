@@ -1,5 +1,5 @@
 import { CHAIN_JOIN } from "../model/chain-join.js";
-import { keyFacts, keyLine } from "./key-line.js";
+import { type KeyContext, keyFacts, keyLine } from "./key-line.js";
 import type { LineParts } from "./line-layout.js";
 import { markdownText } from "./markdown-escape.js";
 import { legendLines, MARK } from "./marks.js";
@@ -37,15 +37,14 @@ export function markdownHead(
   explain: "legend" | "key" | undefined,
   kind: "summary" | "diff",
   parts: readonly LineParts[],
-  sizes?: boolean,
-  sizeName?: string,
+  context: KeyContext,
 ): string[] {
   // The legend and the key are espalier's own words, never input: escaped for Markdown, never cut as a long name is.
   const explained =
     explain === "legend"
       ? legendLines(kind)
       : explain === "key"
-        ? [keyLine(kind, keyFacts(parts, sizes, sizeName), undefined, "markdown")]
+        ? [keyLine(kind, keyFacts(parts, context), undefined, "markdown")]
         : [];
   const lines = [...(header ? [header] : []), ...explained.map((l) => markdownText(l, false))];
   if (lines.length === 0) return [];

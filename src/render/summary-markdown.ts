@@ -2,6 +2,7 @@ import type { HierarchyNode } from "d3-hierarchy";
 import type { ViewNode } from "../view/view-node.js";
 import type { NumberOptions } from "./amount.js";
 import { type HeaderOptions, markdownHeaderStyle, summaryHeader } from "./header.js";
+import { keyContext } from "./key-line.js";
 import { lineGroups } from "./line-groups.js";
 import { lineParts } from "./line-parts.js";
 import { markdownHead, markdownLine } from "./markdown-line.js";
@@ -32,8 +33,7 @@ export function renderMarkdown(view: HierarchyNode<ViewNode>, options: MarkdownO
     options.legend ? "legend" : options.key ? "key" : undefined,
     "summary",
     parts,
-    options.sizes,
-    options.header?.sizeName,
+    keyContext(options),
   );
   for (const line of parts) lines.push(markdownLine(line));
   return `${lines.join("\n")}\n`;

@@ -3,7 +3,7 @@ import { EspalierError } from "../errors.js";
 import type { ViewNode } from "../view/view-node.js";
 import type { NumberOptions } from "./amount.js";
 import { type HeaderOptions, summaryHeaderLines } from "./header.js";
-import { keyFacts, keyLine } from "./key-line.js";
+import { keyContext, keyFacts, keyLine } from "./key-line.js";
 import { lineGroups } from "./line-groups.js";
 import { type LineParts, layoutLine, MIN_WIDTH } from "./line-layout.js";
 import { lineParts } from "./line-parts.js";
@@ -64,8 +64,7 @@ export function headLines(
   const quiet = options.palette?.quiet ?? ((s: string) => s);
   const lines = options.header ? header(options.width).map(quiet) : [];
   if (options.legend) for (const line of legendLines(kind, options.width)) lines.push(quiet(line));
-  else if (options.key)
-    lines.push(quiet(keyLine(kind, keyFacts(parts, options.sizes, options.header?.sizeName), options.width)));
+  else if (options.key) lines.push(quiet(keyLine(kind, keyFacts(parts, keyContext(options)), options.width)));
   return lines;
 }
 
