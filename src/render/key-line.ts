@@ -102,11 +102,11 @@ function markWords(kind: "summary" | "diff", marks: ReadonlySet<string>, style: 
   // A mark is quoted: after "key:" a bare `:` would read as punctuation.
   if (marks.has(MARK.focus) && !md) words.push(`'${MARK.focus}' a focus`);
   if (marks.has(MARK.path))
-    words.push(`${md ? "bold" : `'${MARK.path}'`} ${pathWords(kind, marks.has(MARK.focus))}`);
+    words.push(`${md ? "bold =" : `'${MARK.path}'`} ${pathWords(kind, marks.has(MARK.focus))}`);
   // In a diff a line marked `.` holds no change, in it or below it (a change marks every node above it).
   if (marks.has(MARK.other) && (kind === "diff" || !md))
     words.push(
-      `${md ? "not bold" : `'${MARK.other}'`} ${kind === "diff" ? "nothing changed in it" : alone ? "a node" : "other"}`,
+      `${md ? "not bold =" : `'${MARK.other}'`} ${kind === "diff" ? "nothing changed in it" : alone ? "a node" : "other"}`,
     );
   if (marks.has(MARK.reference)) words.push(`'${MARK.reference}' shown in full elsewhere`);
   return words.join(", ");

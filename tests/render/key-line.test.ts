@@ -137,7 +137,7 @@ describe("keyLine(kind, facts, width)", () => {
   it("speaks Markdown's terms there: bold names, not marks", () => {
     const facts = { marks: new Set([MARK.focus, MARK.path, MARK.other]), chains: false };
     expect(keyLine("summary", facts, undefined, "markdown")).toBe(
-      "key: bold on the way to a focus; N nodes and a size: the node with all below it; --legend explains more",
+      "key: bold = on the way to a focus; N nodes and a size: the node with all below it; --legend explains more",
     );
   });
 });
