@@ -112,7 +112,7 @@ export const sharedOptions = {
     flags: "--bare",
     group: "Budget and layout",
     value: flag(false),
-    help: "print no header line, only the tree's lines (for scripts)",
+    help: "print no header or key line, only the tree's lines (for scripts)",
   },
   legend: {
     flags: "--legend",
