@@ -88,7 +88,12 @@ export const KEY_MAP: readonly Binding[] = [
   { label: "", keys: [{ char: "N" }], action: "previous-match", help: "" },
   { label: "i", keys: [{ char: "i" }], action: "importance", help: "importance: by depth, or by size" },
   { label: "u", keys: [{ char: "u" }], action: "undo", help: "undo" },
-  { label: "h, F1", keys: [{ char: "h" }, "f1"], action: "help", help: "this help" },
+  {
+    label: "h, F1",
+    keys: [{ char: "h" }, "f1"],
+    action: "help",
+    help: "this help: the keys, then what the marks and numbers mean",
+  },
   {
     label: "w",
     keys: [{ char: "w" }],

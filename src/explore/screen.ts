@@ -1,6 +1,7 @@
 import { EspalierError } from "../errors.js";
 import { safeText } from "../model/safe-text.js";
 import { displayWidth, shortenEnd, shortenMiddle } from "../render/display-width.js";
+import { legendLines } from "../render/marks.js";
 import { helpEntries } from "./key-map.js";
 import type { Session } from "./session.js";
 import type { ExploreState } from "./state.js";
@@ -24,7 +25,7 @@ export const CURSOR_MARK = "@";
 export function draw(session: Session, state: ExploreState, colour: boolean): Screen {
   const { rows, cols } = state;
   if (state.mode.kind === "help")
-    return { rows: helpRows(state.mode.scroll, rows, cols, colour), cursorRow: null };
+    return { rows: helpRows(state.mode.scroll, rows, cols, colour, session.kind), cursorRow: null };
   const fitted = fitOf(session, state.spec, rows, cols);
   const out: string[] = [];
   let cursorRow: number | null = null;
@@ -98,8 +99,17 @@ function joinEnds(left: string, right: string, cols: number): string {
   return `${l}${" ".repeat(cols - displayWidth(l) - displayWidth(r))}${r}`;
 }
 
-/** The help: every key and what it does, wrapped to the width, scrolled by `scroll` rows. */
-function helpRows(scroll: number, rows: number, cols: number, colour: boolean): string[] {
+/**
+ * The help: every key and what it does, then what the marks and numbers on the lines mean (the
+ * printed legend of a summary or a diff), wrapped to the width, scrolled by `scroll` rows.
+ */
+function helpRows(
+  scroll: number,
+  rows: number,
+  cols: number,
+  colour: boolean,
+  kind: "summary" | "diff",
+): string[] {
   const entries = helpEntries();
   const keyWidth = Math.min(18, Math.max(...entries.map((e) => e.keys.length)) + 2);
   const body: string[] = ["espalier explore: keys", ""];
@@ -114,6 +124,7 @@ function helpRows(scroll: number, rows: number, cols: number, colour: boolean): 
         body.push(`${(k === 0 ? keys : "").padEnd(keyWidth, " ")}${line}`);
     }
   }
+  body.push("", "the lines", ...legendLines(kind, cols));
   const height = rows - 1;
   const top = Math.max(0, Math.min(scroll, body.length - height));
   const shown = body.slice(top, top + height).map((row) => shortenEnd(row, cols));

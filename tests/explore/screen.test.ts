@@ -10,6 +10,7 @@ import { loadTree } from "../../src/load/index.js";
 import { defaultLoadOptions } from "../../src/load/load-options.js";
 import { namesToArray } from "../../src/model/names.js";
 import { displayWidth } from "../../src/render/display-width.js";
+import { legendLines } from "../../src/render/marks.js";
 import { palette } from "../../src/render/palette.js";
 import { prepare } from "../../src/summarize.js";
 import { leakedNames } from "../helpers/leaked-names.js";
@@ -122,6 +123,14 @@ describe("draw(session, state, colour)", () => {
     for (const binding of KEY_MAP)
       for (const key of binding.keys)
         expect(labels).toContain(typeof key === "string" ? spelled[key] : key.char);
+  });
+
+  it("explains the marks and numbers of the lines after the keys, as --legend does", () => {
+    const [, help] = screens({}, 200, 100, [{ char: "h" }]);
+    const text = help.rows.join("\n");
+    expect(text).toContain("the lines");
+    // Each legend line starts a row of its own (a long one wraps onto further rows).
+    for (const line of legendLines("summary", 100)) expect(help.rows).toContain(line);
   });
 
   it("with --pseudonymize, shows no real name anywhere: tree, status, search, help", () => {
