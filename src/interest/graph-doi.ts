@@ -272,7 +272,7 @@ function bottomUpLevel(
     const done = reached[w];
     if (done === -1) continue;
     const first = w << 5;
-    const last = first + 32 < nodes ? first + 32 : nodes;
+    const last = Math.min(first + 32, nodes);
     for (let v = first; v < last; v++) {
       if ((done & (1 << (v & 31))) !== 0) continue;
       let found = false;
