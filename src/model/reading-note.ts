@@ -18,8 +18,11 @@ export interface ReadingNote {
 /**
  * The kinds of note. `FIRST_LINE_APART`: an edge list's first line was read as an edge that joins no
  * other line, as a header naming the columns (`from<TAB>to`) reads (load/apart-first-line.ts).
+ * `COMMAS_READ_AS_PATHS`: a detected path list of two lines holding as many commas, as a CSV table's
+ * header and one row do, was read as two paths (load/path-list/path-list-reader.ts; from three such
+ * lines on it is PARSE_PATHS).
  */
-export const readingNoteCodes = ["FIRST_LINE_APART"] as const;
+export const readingNoteCodes = ["FIRST_LINE_APART", "COMMAS_READ_AS_PATHS"] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];
 

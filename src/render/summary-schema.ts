@@ -154,7 +154,7 @@ export const inputReadingSchema = z
             code: z
               .enum(readingNoteCodes)
               .describe(
-                "What was noticed. FIRST_LINE_APART: an edge list's first line was read as an edge that shares no node with any other line, as a header naming the columns would be.",
+                "What was noticed. FIRST_LINE_APART: an edge list's first line was read as an edge that shares no node with any other line, as a header naming the columns would be. COMMAS_READ_AS_PATHS: two lines with as many commas (a CSV table's header and one row) were read as two paths.",
               ),
             line: z.number().int().positive().optional().describe("The input line the note is about."),
             message: z
