@@ -63,6 +63,26 @@ export function sameName(a: Names, i: number, b: Names, j: number): boolean {
   return a.get(i) === b.get(j);
 }
 
+/**
+ * For two pools, whether name `i` of the first and name `j` of the second are the same non-empty bytes
+ * (then the same name), compared in the caller's loop without a call per name; false otherwise, and
+ * always when either is no pool or keeps some name as a string: `sameName` then decides.
+ */
+export function bytesCompare(a: Names, b: Names): (i: number, j: number) => boolean {
+  const aRuns = a instanceof NamePool ? a.byteRuns() : null;
+  const bRuns = b instanceof NamePool ? b.byteRuns() : null;
+  if (aRuns === null || bRuns === null) return () => false;
+  const { bytes: aBytes, start: aStart, size: aSize } = aRuns;
+  const { bytes: bBytes, start: bStart, size: bSize } = bRuns;
+  return (i, j) => {
+    const length = aSize[i];
+    if (length !== bSize[j] || length === 0) return false;
+    for (let x = aStart[i], y = bStart[j], end = x + length; x < end; x++, y++)
+      if (aBytes[x] !== bBytes[y]) return false;
+    return true;
+  };
+}
+
 /** Whether name `i` is the empty string. */
 export function isEmptyName(names: Names, i: number): boolean {
   return names instanceof NamePool ? names.byteLengthOf(i) === 0 : names.get(i) === "";
