@@ -117,6 +117,7 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
     {
       budget: options.budget,
       headerLines: options.headerLines,
+      spareLines: options.spareLines,
       chains: options.chains,
       // Siblings of a graph need not share an interest (one may be nearer a focus through a reference).
       childrenInOrder: options.importance === "depth" && refs === null ? prepared.childrenInOrder : undefined,

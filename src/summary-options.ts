@@ -26,6 +26,8 @@ export interface SummaryOptions {
    * totals line) for a diff.
    */
   headerLines?: number;
+  /** How many of `headerLines` the output can do without when the budget is too small (see `SelectOptions.spareLines`). */
+  spareLines?: number;
   /**
    * Print a run of only children as one line (see fit/select.ts lineCost; in a diff a change, like a
    * focus, keeps its only child on a line of its own); default false.

@@ -120,6 +120,12 @@ export const sharedOptions = {
     value: flag(false),
     help: "print what the marks and numbers mean under the header (the budget counts it)",
   },
+  key: {
+    flags: "--no-key",
+    group: "Budget and layout",
+    value: flag(true),
+    help: "print no key line under the header (one line on what the marks and numbers on screen mean, printed when the budget has 10 lines or more; the budget counts it)",
+  },
   share: {
     flags: "--share <of>",
     group: "Output",
@@ -365,6 +371,7 @@ const printedOnly = new Set([
   "sqlTable",
   "bare",
   "legend",
+  "key",
   "share",
   "siblingOrder",
 ]);

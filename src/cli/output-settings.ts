@@ -2,6 +2,7 @@ import type { ShownNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
 import type { HeaderReading } from "../render/header.js";
+import { KEY_MIN_BUDGET } from "../render/key-line.js";
 import { MIN_WIDTH } from "../render/line-layout.js";
 import { legendLines } from "../render/marks.js";
 import { type Palette, palette } from "../render/palette.js";
@@ -26,6 +27,8 @@ export interface OutputSettings {
   header: boolean;
   /** Whether the legend follows the header (--legend). */
   legend: boolean;
+  /** Whether the key line follows the header instead (see `showsKey`). */
+  key: boolean;
   /** Each node's share in percent, of the whole tree or of its parent; none when undefined. */
   share: "total" | "parent" | undefined;
   /** What the size measures, as the input calls it, for the header; undefined for the default `size`. */
@@ -66,6 +69,7 @@ export function outputSettings(
     widthOption: opts.width,
     header: !opts.bare,
     legend: opts.legend,
+    key: showsKey(opts, io),
     share: opts.share === "none" ? undefined : opts.share,
     sizeName: opts.sizeField === "size" ? undefined : opts.sizeField,
     reading: chosenReading(opts, tree),
@@ -105,7 +109,16 @@ export function chosenReading(opts: SharedCliOptions, tree: Tree): HeaderReading
  */
 export function headerLinesFor(opts: SharedCliOptions, kind: "summary" | "diff", io: CliIO): number {
   const legend = opts.legend ? legendLines(kind, opts.width ?? defaultWidth(io)).length : 0;
-  return (opts.bare ? 0 : 1) + legend;
+  return (opts.bare ? 0 : 1) + legend + (showsKey(opts, io) ? 1 : 0);
+}
+
+/**
+ * Whether the key line (see `keyLine`) follows the header: by default, unless --bare, --legend (which
+ * says more) or --no-key, or a budget under `KEY_MIN_BUDGET` lines. Always one line, so it is counted
+ * before the fit as the header is.
+ */
+export function showsKey(opts: SharedCliOptions, io: CliIO): boolean {
+  return opts.key && !opts.bare && !opts.legend && (opts.budget ?? defaultBudget(io)) >= KEY_MIN_BUDGET;
 }
 
 /**

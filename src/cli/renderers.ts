@@ -36,6 +36,7 @@ export const summaryRenderers: Record<OutputFormat, Renderer<SummaryResult>> = {
       width: s.width,
       header: headerOf(result, s),
       legend: s.legend,
+      key: s.key && !result.selection.spared,
     }),
   json: async (result, s, tree) =>
     (await import("../render/summary-json.js")).renderJson(result.view, {
@@ -54,6 +55,7 @@ export const summaryRenderers: Record<OutputFormat, Renderer<SummaryResult>> = {
       chains: s.chains,
       header: headerOf(result, s),
       legend: s.legend,
+      key: s.key && !result.selection.spared,
     }),
   svg: async (result, s, tree) => {
     const { renderSvg, svgWidth } = await import("../render/icicle-svg.js");
@@ -150,6 +152,7 @@ function diffLines(result: DiffResult, s: OutputSettings, sizes: boolean): DiffT
     width: s.width,
     header: headerOf(result, s),
     legend: s.legend,
+    key: s.key && !result.selection.spared,
   };
 }
 

@@ -153,7 +153,12 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
   const order = diffOrder(tree, measures, scores, changeMeasures);
   const selection = select(
     { tree, measures, scores, order },
-    { budget: options.budget, headerLines: options.headerLines ?? DIFF_HEADER_LINES, chains: options.chains },
+    {
+      budget: options.budget,
+      headerLines: options.headerLines ?? DIFF_HEADER_LINES,
+      spareLines: options.spareLines,
+      chains: options.chains,
+    },
   );
   const names = printedNames(tree, index, key);
   // The old version's path index is built only when a shown node moved.

@@ -26,7 +26,8 @@ export function shellQuote(arg: string): string {
 /**
  * The command line that prints the view: `head` (the program, the inputs and the options that shape the
  * tree and its labels, as arguments), then one `--focus` per focus path, the budget, and `--bare` when
- * the view shows no header line (a summary's; a diff's screen starts with its header, as the CLI's does).
+ * the view shows no header line (a summary's; a diff's screen starts with its header, as the CLI's does),
+ * else `--no-key` (the screen has its own key row, not the key line under the header).
  */
 export function commandLine(
   head: readonly string[],
@@ -37,7 +38,8 @@ export function commandLine(
 ): string {
   const args = [...head];
   for (const path of fociPaths) args.push("--focus", path);
-  // Without a header line on the screen, --bare makes the printed command spend its budget on the same tree.
-  args.push("--budget", String(budget), ...(bare ? ["--bare"] : []), ...tail);
+  // Without a header line on the screen, --bare makes the printed command spend its budget on the same
+  // tree; with one, --no-key does (the screen has no key line under its header).
+  args.push("--budget", String(budget), bare ? "--bare" : "--no-key", ...tail);
   return args.map(shellQuote).join(" ");
 }

@@ -21,6 +21,8 @@ export interface Selection {
   readonly forcedCount: number;
   /** Lines the text rendering of this selection takes. */
   readonly lines: number;
+  /** Whether the fit dropped the header's spare lines (see `SelectOptions.spareLines`) to fit at all. */
+  readonly spared: boolean;
 }
 
 /**
@@ -58,6 +60,11 @@ export interface SelectOptions {
   budget: number;
   /** Lines the output spends before the tree; default 0. */
   headerLines?: number;
+  /**
+   * How many of `headerLines` the output does without (the key line) rather than refuse a budget too
+   * small for the root and the focus paths; default 0.
+   */
+  spareLines?: number;
   /** A run of only children takes one line (see {@link lineCost}); default false. */
   chains?: boolean;
   /** Wide nodes' children in the order's own order (a hint, see {@link ChildrenInOrder}). */
@@ -74,7 +81,7 @@ export interface SelectOptions {
  */
 export function select(ranked: Ranked, options: SelectOptions): Selection {
   const { tree, measures, scores, order } = ranked;
-  const { budget, headerLines = 0, chains = false, childrenInOrder } = options;
+  const { budget, headerLines = 0, spareLines = 0, chains = false, childrenInOrder } = options;
   const n = tree.length;
   // The shown nodes by number: a fit shows a few of a tree's nodes, so a new focus allocates nothing
   // the size of the tree (a flag per node, a megabyte a call at a million nodes, brought the engine's
@@ -86,6 +93,9 @@ export function select(ranked: Ranked, options: SelectOptions): Selection {
   const cost = (x: number) => lineCost(tree, measures, scores, chains, x);
   let needed = headerLines;
   for (const f of forcedNodes) needed += cost(f);
+  // The spare lines go first: a screen without its key beats no screen.
+  const spared = needed > budget && spareLines > 0 && needed - spareLines <= budget;
+  if (spared) needed -= spareLines;
   if (needed > budget) {
     throw new EspalierError(
       "BUDGET_TOO_SMALL",
@@ -126,14 +136,7 @@ export function select(ranked: Ranked, options: SelectOptions): Selection {
       }
       return;
     }
-    for (let c = p + 1; c < end; c += count[c]) {
-      if (isShown(c)) continue;
-      if (best.size < keep) best.push(c);
-      else if (order(c, best.peek()) < 0) {
-        best.pop();
-        best.push(c);
-      }
-    }
+    keepFirst(count, p + 1, end, keep, shown, order, best);
     while (best.size > 0) heap.push(best.pop());
   };
   for (const f of forcedNodes) pushChildren(f);
@@ -145,7 +148,35 @@ export function select(ranked: Ranked, options: SelectOptions): Selection {
     admitted.push(next);
     pushChildren(next);
   }
-  return new Chosen(n, Int32Array.from(admitted), forcedNodes.length, lines, shown);
+  return new Chosen(n, Int32Array.from(admitted), forcedNodes.length, lines, spared, shown);
+}
+
+/**
+ * Keeps in `best` the first `keep` in `order` of the children `c` of a node that are not `shown`, the
+ * first at `first` and each next at `c + count[c]` up to `end`. A function of its own: on a node with
+ * many children (a graph's hub: 155,000 under the bench graph's root) the engine compiles this loop
+ * while it runs, and compiled code that ends in the loop's caller is thrown away at the first code
+ * after the loop it has not seen run; here that is the return. In `select`, the same compiled loop was
+ * entered and thrown away again for each later node with two or more children (317 times in one
+ * summary of the bench graph).
+ */
+function keepFirst(
+  count: Int32Array,
+  first: number,
+  end: number,
+  keep: number,
+  shown: NodeTable,
+  order: NodeOrder,
+  best: NodeHeap,
+): void {
+  for (let c = first; c < end; c += count[c]) {
+    if (shown.get(c) !== -1) continue;
+    if (best.size < keep) best.push(c);
+    else if (order(c, best.peek()) < 0) {
+      best.pop();
+      best.push(c);
+    }
+  }
 }
 
 /** A {@link Selection} whose flags per node are made only when read. */
@@ -157,6 +188,7 @@ class Chosen implements Selection {
     readonly admitted: Int32Array,
     readonly forcedCount: number,
     readonly lines: number,
+    readonly spared: boolean,
     private readonly table: NodeTable,
   ) {}
 

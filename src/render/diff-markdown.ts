@@ -19,8 +19,13 @@ export function renderDiffMarkdown(
 ): string {
   const head =
     options.header && diffHeader(totals, options.by, options.header, options, undefined, markdownHeaderStyle);
-  const lines = markdownHead(head, options.legend, "diff");
-  for (const group of lineGroups(view, options.chains ?? false))
-    lines.push(markdownLine(diffLineParts(group, options)));
+  const parts = lineGroups(view, options.chains ?? false).map((group) => diffLineParts(group, options));
+  const lines = markdownHead(
+    head,
+    options.legend ? "legend" : options.key ? "key" : undefined,
+    "diff",
+    parts,
+  );
+  for (const line of parts) lines.push(markdownLine(line));
   return `${lines.join("\n")}\n`;
 }

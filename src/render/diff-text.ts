@@ -21,6 +21,8 @@ export interface DiffTextOptions extends NumberOptions {
   header?: HeaderOptions;
   /** Lines explaining the marks, numbers and change tags after the header. */
   legend?: boolean;
+  /** One line after the header saying what the marks on screen and the numbers mean (see `keyLine`); not with a legend. */
+  key?: boolean;
 }
 
 /**
@@ -37,12 +39,13 @@ export function renderDiffText(
   options: DiffTextOptions,
 ): string {
   checkWidth(options.width);
+  const parts = lineGroups(view, options.chains ?? false).map((group) => diffLineParts(group, options));
   const lines = headLines(
     options,
     (w) => diffHeaderLines(totals, options.by, options.header!, options, w),
     "diff",
+    parts,
   );
-  for (const group of lineGroups(view, options.chains ?? false))
-    lines.push(layoutLine(diffLineParts(group, options), options));
+  for (const line of parts) lines.push(layoutLine(line, options));
   return `${lines.join("\n")}\n`;
 }

@@ -1,4 +1,5 @@
 import { CHAIN_JOIN } from "../model/chain-join.js";
+import { keyFacts, keyLine } from "./key-line.js";
 import type { LineParts } from "./line-layout.js";
 import { markdownText } from "./markdown-escape.js";
 import { legendLines, MARK } from "./marks.js";
@@ -33,14 +34,18 @@ export function markdownLine(p: LineParts): string {
  */
 export function markdownHead(
   header: string | undefined,
-  legend: boolean | undefined,
+  explain: "legend" | "key" | undefined,
   kind: "summary" | "diff",
+  parts: readonly LineParts[],
 ): string[] {
-  const lines = [
-    ...(header ? [header] : []),
-    // The legend is espalier's own words, never input: escaped for Markdown, never cut as a long name is.
-    ...(legend ? legendLines(kind).map((l) => markdownText(l, false)) : []),
-  ];
+  // The legend and the key are espalier's own words, never input: escaped for Markdown, never cut as a long name is.
+  const explained =
+    explain === "legend"
+      ? legendLines(kind)
+      : explain === "key"
+        ? [keyLine(kind, keyFacts(parts), undefined, "markdown")]
+        : [];
+  const lines = [...(header ? [header] : []), ...explained.map((l) => markdownText(l, false))];
   if (lines.length === 0) return [];
   return [...lines.map((l, k) => (k < lines.length - 1 ? `${l}\\` : l)), ""];
 }

@@ -13,6 +13,8 @@ export interface MarkdownOptions extends NumberOptions {
   header?: HeaderOptions;
   /** The legend after the header. */
   legend?: boolean;
+  /** The key line after the header (see `keyLine`); not with a legend. */
+  key?: boolean;
 }
 
 /**
@@ -24,8 +26,13 @@ export interface MarkdownOptions extends NumberOptions {
 export function renderMarkdown(view: HierarchyNode<ViewNode>, options: MarkdownOptions): string {
   const head =
     options.header && summaryHeader(view.data, options.header, options, undefined, markdownHeaderStyle);
-  const lines = markdownHead(head, options.legend, "summary");
-  for (const group of lineGroups(view, options.chains ?? false))
-    lines.push(markdownLine(lineParts(group, options)));
+  const parts = lineGroups(view, options.chains ?? false).map((group) => lineParts(group, options));
+  const lines = markdownHead(
+    head,
+    options.legend ? "legend" : options.key ? "key" : undefined,
+    "summary",
+    parts,
+  );
+  for (const line of parts) lines.push(markdownLine(line));
   return `${lines.join("\n")}\n`;
 }

@@ -3,8 +3,9 @@ import { EspalierError } from "../errors.js";
 import type { ViewNode } from "../view/view-node.js";
 import type { NumberOptions } from "./amount.js";
 import { type HeaderOptions, summaryHeaderLines } from "./header.js";
+import { keyFacts, keyLine } from "./key-line.js";
 import { lineGroups } from "./line-groups.js";
-import { layoutLine, MIN_WIDTH } from "./line-layout.js";
+import { type LineParts, layoutLine, MIN_WIDTH } from "./line-layout.js";
 import { lineParts } from "./line-parts.js";
 import { legendLines } from "./marks.js";
 import type { Palette } from "./palette.js";
@@ -19,6 +20,8 @@ export interface TextOptions extends NumberOptions {
   header?: HeaderOptions;
   /** Lines explaining the marks and numbers after the header (see `legendLines`). */
   legend?: boolean;
+  /** One line after the header saying what the marks on screen and the numbers mean (see `keyLine`); not with a legend. */
+  key?: boolean;
 }
 
 /**
@@ -30,25 +33,31 @@ export interface TextOptions extends NumberOptions {
  */
 export function renderText(view: HierarchyNode<ViewNode>, options: TextOptions): string {
   checkWidth(options.width);
+  const parts = lineGroups(view, options.chains ?? false).map((group) => lineParts(group, options));
   const lines = headLines(
     options,
     (w) => summaryHeaderLines(view.data, options.header!, options, w),
     "summary",
+    parts,
   );
-  for (const group of lineGroups(view, options.chains ?? false))
-    lines.push(layoutLine(lineParts(group, options), options));
+  for (const line of parts) lines.push(layoutLine(line, options));
   return `${lines.join("\n")}\n`;
 }
 
-/** The header a text rendering starts with, wrapped to the width, then the legend wrapped to it. */
+/**
+ * The header a text rendering starts with, wrapped to the width, then the legend wrapped to it, or
+ * else the key line for the lines `parts` (see `keyLine`).
+ */
 export function headLines(
-  options: { header?: HeaderOptions; legend?: boolean; width?: number; palette?: Palette },
+  options: { header?: HeaderOptions; legend?: boolean; key?: boolean; width?: number; palette?: Palette },
   header: (width?: number) => string[],
   kind: "summary" | "diff",
+  parts: readonly LineParts[],
 ): string[] {
   const quiet = options.palette?.quiet ?? ((s: string) => s);
   const lines = options.header ? header(options.width).map(quiet) : [];
   if (options.legend) for (const line of legendLines(kind, options.width)) lines.push(quiet(line));
+  else if (options.key) lines.push(quiet(keyLine(kind, keyFacts(parts), options.width)));
   return lines;
 }
 

@@ -30,7 +30,7 @@ describe("the project config file (.espalier.yaml, --config)", () => {
     const viaFlag = await cli(["-", "--config", "ci/espalier.yaml"], { stdin: STDIN, files });
     expect(JSON.parse(viaFlag.stdout).budget).toBe(2);
     const none = await cli(["-", "--without-config"], { stdin: STDIN, files });
-    expect(none.stdout.trimEnd().split("\n")).toHaveLength(8); // the header and 7 nodes
+    expect(none.stdout.trimEnd().split("\n")).toHaveLength(9); // the header, the key line and 7 nodes
   });
 
   it("rejects an unknown key or a bad value with USAGE naming the file", async () => {

@@ -274,7 +274,7 @@ describe("espalier explore", () => {
     expect(first.join("\n")).toContain("[removed] a2");
     expect(first.join("\n")).toContain("[added] b2");
     // n went to the first change (a2, removed), then the next (b2, added): the view ends focused on b2.
-    expect(out.text).toBe(`espalier diff ${oldFile} ${newFile} --focus b/b2 --budget 11\n`);
+    expect(out.text).toBe(`espalier diff ${oldFile} ${newFile} --focus b/b2 --budget 11 --no-key\n`);
     // Run without the view, the printed line prints the last screen's rows, the totals line included.
     const screen = terminal
       .lastFrame()

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { cli } from "../helpers/cli.js";
 
-/** The header line: the first line of a text summary or diff. */
+/** The header line: the first line of a text summary or diff (the lines used count the key line under it). */
 const head = (stdout: string) => stdout.split("\n")[0];
 
 // Inputs shaped as common tools write them (npm ls --all --json nests packages under `dependencies`;
@@ -20,7 +20,7 @@ describe("the header says how espalier chose to read a JSON or YAML input", () =
     const r = await cli(["-", "--input-format", "json"], { stdin: NESTED });
     expect(r.code).toBe(0);
     expect(head(r.stdout)).toBe(
-      "summary: 4 nodes (2 of them empty {}); children under dependencies; no focus; 4 of 40 lines",
+      "summary: 4 nodes (2 of them empty {}); children under dependencies; no focus; 5 of 40 lines",
     );
   });
 
@@ -28,7 +28,7 @@ describe("the header says how espalier chose to read a JSON or YAML input", () =
     const asked = await cli(["-", "--input-format", "json", "--children-field", "dependencies"], {
       stdin: NESTED,
     });
-    expect(head(asked.stdout)).toBe("summary: 4 nodes (2 of them empty {}); no focus; 4 of 40 lines");
+    expect(head(asked.stdout)).toBe("summary: 4 nodes (2 of them empty {}); no focus; 5 of 40 lines");
     const forced = await cli(["-", "--input-format", "json", "--read-as", "values"], { stdin: VALUES });
     expect(head(forced.stdout)).not.toContain("every value a node");
   });
@@ -53,7 +53,7 @@ describe("the header says how espalier chose to read a JSON or YAML input", () =
 
   it("leaves tables, path lists and JSON without a search alone", async () => {
     const r = await cli(["-", "--input-format", "paths"], { stdin: "quill/a\nquill/b\n" });
-    expect(head(r.stdout)).toBe("summary: 3 nodes; no focus; 4 of 40 lines");
+    expect(head(r.stdout)).toBe("summary: 3 nodes; no focus; 5 of 40 lines");
   });
 });
 
@@ -65,11 +65,11 @@ describe("the header says when a path list's folder sizes were read as totals", 
     const auto = await cli(["-", "--input-format", "paths"], { stdin: DU });
     expect(auto.code).toBe(0);
     expect(head(auto.stdout)).toBe(
-      "summary: 4 nodes, size 10.1 KiB; folder sizes read as totals with contents; no focus; 4 of 40 lines",
+      "summary: 4 nodes, size 10.1 KiB; folder sizes read as totals with contents; no focus; 5 of 40 lines",
     );
     const own = await cli(["-", "--input-format", "paths", "--folder-sizes", "own"], { stdin: DU });
-    expect(head(own.stdout)).toBe("summary: 4 nodes, size 18.1 KiB; no focus; 4 of 40 lines");
+    expect(head(own.stdout)).toBe("summary: 4 nodes, size 18.1 KiB; no focus; 5 of 40 lines");
     const asked = await cli(["-", "--input-format", "paths", "--folder-sizes", "total"], { stdin: DU });
-    expect(head(asked.stdout)).toBe("summary: 4 nodes, size 10.1 KiB; no focus; 4 of 40 lines");
+    expect(head(asked.stdout)).toBe("summary: 4 nodes, size 10.1 KiB; no focus; 5 of 40 lines");
   });
 });

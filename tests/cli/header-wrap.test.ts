@@ -12,11 +12,16 @@ const edited = files
   .filter((line) => !line.includes("services/ledger/test"))
   .join("\n");
 
-/** The lines before the tree: the header (the root's line is the first starting with a mark). */
-function split(stdout: string): { header: string[]; tree: string[] } {
+/**
+ * The lines before the tree: the header, then the key line (the root's line is the first starting
+ * with a mark).
+ */
+function split(stdout: string): { header: string[]; key: string[]; tree: string[] } {
   const lines = stdout.trimEnd().split("\n");
   const root = lines.findIndex((line) => /^[.*:&] /.test(line));
-  return { header: lines.slice(0, root), tree: lines.slice(root) };
+  const head = lines.slice(0, root);
+  const key = head.filter((line) => line.startsWith("key: "));
+  return { header: head.filter((line) => !key.includes(line)), key, tree: lines.slice(root) };
 }
 
 describe("a header wider than --width", () => {
@@ -37,16 +42,18 @@ describe("a header wider than --width", () => {
       const [full] = split(wide.stdout).header;
       const narrow = await cli([...args, "--width", String(width)], { stdin: edited });
       expect(narrow.stderr).toBe("");
-      const { header, tree } = split(narrow.stdout);
-      for (const line of [...header, ...tree]) expect(displayWidth(line)).toBeLessThanOrEqual(width);
+      const { header, key, tree } = split(narrow.stdout);
+      // The key is one line whatever the width: it says less rather than wrap.
+      expect(key).toHaveLength(1);
+      for (const line of [...header, ...key, ...tree]) expect(displayWidth(line)).toBeLessThanOrEqual(width);
       // Nothing of the header is lost: its lines, joined again, are the unwrapped header but for the
       // lines used (fewer tree lines fit when the header takes more).
       const used = /(\d+) of 14 lines$/;
       const joined = header.map((line, k) => (k === 0 ? line : line.trimStart())).join(" ");
       expect(joined.replace(used, "")).toBe(full.replace(used, ""));
       const [, lines] = joined.match(used)!;
-      expect(Number(lines)).toBe(header.length + tree.length);
-      expect(header.length + tree.length).toBeLessThanOrEqual(14);
+      expect(Number(lines)).toBe(header.length + key.length + tree.length);
+      expect(header.length + key.length + tree.length).toBeLessThanOrEqual(14);
       if (displayWidth(full) > width) expect(header.length).toBeGreaterThan(1);
       // JSON at the same width shows the same nodes: its fit counted the same header lines.
       const json = await cli([...args, "--width", String(width), "--format", "json"], { stdin: edited });

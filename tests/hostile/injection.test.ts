@@ -32,8 +32,9 @@ const HOSTILE = [
 const UNSAFE =
   /[\u0000-\u0009\u000b-\u001f\u007f-\u009f\u061c\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2069]/u;
 
-// A tree line starts with indentation and a mark (src/render/marks.ts); the header with a fixed word.
-const LINE = /^(?:(?: {2})*[*:.] |summary: |diff by )/;
+// A tree line starts with indentation and a mark (src/render/marks.ts); the header and the key line
+// under it with a fixed word.
+const LINE = /^(?:(?: {2})*[*:.] |summary: |diff by |key: )/;
 
 function nestedJson(names: readonly string[]): string {
   return JSON.stringify({ name: "root", children: names.map((name, k) => ({ name, size: k })) });
@@ -48,7 +49,8 @@ describe("espalier - (no injection): names are data in every human-readable form
       const r = await cli([...base, ...focus], { stdin });
       expect(r.code, r.stderr).toBe(0);
       const lines = r.stdout.slice(0, -1).split("\n");
-      expect(lines).toHaveLength(HOSTILE.length + 2);
+      // The header, the key line, the root and one line per name.
+      expect(lines).toHaveLength(HOSTILE.length + 3);
       for (const line of lines) {
         expect(line).toMatch(LINE);
         expect(line).not.toMatch(UNSAFE);
@@ -67,8 +69,9 @@ describe("espalier - (no injection): names are data in every human-readable form
   it("markdown: every line is a list item, no control or bidi character, no markup from a name", async () => {
     const r = await cli([...base, "--format", "markdown"], { stdin });
     expect(r.code, r.stderr).toBe(0);
-    const [header, blank, ...items] = r.stdout.slice(0, -1).split("\n");
+    const [header, key, blank, ...items] = r.stdout.slice(0, -1).split("\n");
     expect(header).toMatch(/^summary: /);
+    expect(key).toMatch(/^key: /);
     expect(blank).toBe("");
     for (const line of items) {
       expect(line).toMatch(/^(?: {2})*- /);

@@ -28,7 +28,8 @@ describe("renderDiffMarkdown(view, totals, options) through espalier diff --form
       if (ev.node.type === "code") codes.push(ev.node.literal ?? "");
     }
     expect(doc.firstChild?.type).toBe("paragraph");
-    expect(kinds.filter((k) => k === "item")).toHaveLength(text.stdout.trimEnd().split("\n").length - 1);
+    // Every text line but the header's and the key's.
+    expect(kinds.filter((k) => k === "item")).toHaveLength(text.stdout.trimEnd().split("\n").length - 2);
     // One kind per node (moved outranks renamed), each tag a literal code span right before its name,
     // which is a code span too, despite the backtick in x`s. A "size" column is a plain number (bytes
     // only when the input says so, docs/input.md "Units").

@@ -1,0 +1,86 @@
+import { displayWidth, shortenEnd } from "./display-width.js";
+import type { LineParts } from "./line-layout.js";
+import { MARK } from "./marks.js";
+
+/**
+ * Fewest lines a budget must have for the key line to be printed by default: below it, the screen is
+ * kept for the tree (the key would take a tenth of the lines or more). A choice of this project, no source.
+ */
+export const KEY_MIN_BUDGET = 10;
+
+/** What the lines under the key show, so that the key explains those and nothing else. */
+export interface KeyFacts {
+  /** The marks at the start of the printed lines. */
+  readonly marks: ReadonlySet<string>;
+  /** Whether a line holds a chain of only children (`a / b`). */
+  readonly chains: boolean;
+}
+
+/** The facts a key needs, read off the lines it stands above. */
+export function keyFacts(lines: readonly LineParts[]): KeyFacts {
+  return {
+    marks: new Set(lines.map((l) => l.mark)),
+    chains: lines.some((l) => l.labels.length > 1),
+  };
+}
+
+/**
+ * One line under the header that says what the marks on the screen and its numbers mean, so a reader
+ * without the docs can read the screen: printed by default (not with `--bare`, `--legend` or
+ * `--no-key`, nor for a budget under {@link KEY_MIN_BUDGET}); the budget counts it. Always one line:
+ * within `width` it says less (shorter words for the numbers, then no chain and no pointer to
+ * `--legend`, then only the marks, cut at the end), never wraps, so it can be counted before the fit.
+ */
+export function keyLine(
+  kind: "summary" | "diff",
+  facts: KeyFacts,
+  width?: number,
+  style: "text" | "markdown" = "text",
+): string {
+  const marks = markWords(kind, facts.marks, style);
+  const numbers =
+    kind === "diff"
+      ? "N nodes: the node with all below it (removed ones too); a size: NEW's, with all below; net: its change"
+      : "N nodes and a size: the node with all below it";
+  const short = "totals include all below";
+  const chain = facts.chains ? ["a / b: b is a's only child"] : [];
+  const more = "--legend explains more";
+  const tries = [
+    [marks, numbers, ...chain, more],
+    [marks, short, ...chain, more],
+    [marks, short, more],
+    [marks, short],
+    [marks],
+  ];
+  for (const parts of tries) {
+    const text = `key: ${parts.filter((part) => part !== "").join("; ")}`;
+    if (width === undefined || displayWidth(text) <= width) return text;
+  }
+  return shortenEnd(`key: ${marks}`, width!);
+}
+
+/**
+ * The marks present, each with its meaning, in a fixed order. Markdown shows them otherwise (see
+ * `markdownLine`): a focus says "(focus)" and is bold, a line on the way to one is bold.
+ */
+function markWords(kind: "summary" | "diff", marks: ReadonlySet<string>, style: "text" | "markdown"): string {
+  const alone = marks.size === 1;
+  const md = style === "markdown";
+  const words: string[] = [];
+  // A mark is quoted: after "key:" a bare `:` would read as punctuation.
+  if (marks.has(MARK.focus) && !md) words.push(`'${MARK.focus}' a focus`);
+  if (marks.has(MARK.path))
+    words.push(`${md ? "bold" : `'${MARK.path}'`} ${pathWords(kind, marks.has(MARK.focus))}`);
+  // In a diff a line marked `.` holds no change, in it or below it (a change marks every node above it).
+  if (marks.has(MARK.other) && (kind === "diff" || !md))
+    words.push(
+      `${md ? "not bold" : `'${MARK.other}'`} ${kind === "diff" ? "nothing changed in it" : alone ? "a node" : "other"}`,
+    );
+  if (marks.has(MARK.reference)) words.push(`'${MARK.reference}' shown in full at the path after it`);
+  return words.join(", ");
+}
+
+function pathWords(kind: "summary" | "diff", focus: boolean): string {
+  if (kind === "summary") return "on the way to a focus";
+  return focus ? "a change, or on the way to a change or a focus" : "a change or on the way to one";
+}

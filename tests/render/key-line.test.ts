@@ -1,0 +1,152 @@
+import type { HierarchyNode } from "d3-hierarchy";
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { totalChanges } from "../../src/diff/changes.js";
+import { diffTrees } from "../../src/diff/diff-trees.js";
+import type { DiffViewNode } from "../../src/diff/diff-view.js";
+import { renderDiffText } from "../../src/render/diff-text.js";
+import { displayWidth } from "../../src/render/display-width.js";
+import { KEY_MIN_BUDGET, keyLine } from "../../src/render/key-line.js";
+import { MIN_WIDTH } from "../../src/render/line-layout.js";
+import { MARK } from "../../src/render/marks.js";
+import { renderText } from "../../src/render/summary-text.js";
+import { prepare, summarize } from "../../src/summarize.js";
+import { arbEdited } from "../diff/edit-script.js";
+import { cli } from "../helpers/cli.js";
+import { arbTree } from "../helpers/random-tree.js";
+
+const header = { budget: 30, lines: 30, foci: [] };
+/** The mark of a tree line (after its indentation), or undefined for the header and the key. */
+const markOf = (line: string) => /^ *([*:.&]) /.exec(line)?.[1];
+
+describe("keyLine(kind, facts, width)", () => {
+  it("names exactly the marks on the lines below it, in one line within the width (property)", () => {
+    fc.assert(
+      fc.property(
+        arbTree(30),
+        fc.integer({ min: 3, max: 20 }),
+        fc.option(fc.integer({ min: MIN_WIDTH, max: 160 }), { nil: undefined }),
+        fc.boolean(),
+        (tree, budget, width, focus) => {
+          const prepared = prepare(tree);
+          const foci = focus && tree.length > 2 ? [`#${tree.length - 1}`] : [];
+          const options = { foci, budget, importance: "depth" as const, unmatchedFoci: "skip" as const };
+          const result = summarize(prepared, options);
+          const text = renderText(result.view, { units: "plain", sizes: true, header, key: true, width });
+          const lines = text.trimEnd().split("\n");
+          // The header may wrap at a width; the key is the one line after it, never wrapped.
+          const at = lines.findIndex((l) => l.startsWith("key: "));
+          expect(at).toBeGreaterThan(0);
+          const key = lines[at];
+          const tree_ = lines.slice(at + 1);
+          if (width !== undefined) expect(displayWidth(key)).toBeLessThanOrEqual(width);
+          const shown = new Set(tree_.map(markOf));
+          // Each mark is quoted in the key, so it can be looked for among its words.
+          for (const mark of Object.values(MARK))
+            if (shown.has(mark) || displayWidth(key) < (width ?? Infinity) - 1)
+              expect(key.includes(`'${mark}'`), `${mark} in ${key}`).toBe(shown.has(mark));
+        },
+      ),
+      { numRuns: 80 },
+    );
+  });
+
+  it("says in a diff that a line marked '.' holds no change, which holds on every such line (property)", () => {
+    fc.assert(
+      fc.property(arbEdited(25), fc.integer({ min: 3, max: 20 }), (edited, budget) => {
+        const diff = diffTrees(edited.oldTree, edited.newTree, { foci: [], budget, importance: "depth" });
+        const text = renderDiffText(diff.view, diff.totals, {
+          units: "plain",
+          sizes: true,
+          by: "id",
+          header,
+          key: true,
+          chains: false,
+        });
+        const [, key, ...lines] = text.trimEnd().split("\n");
+        // Without chains every line is one node, in the view's pre-order.
+        const nodes: HierarchyNode<DiffViewNode>[] = [];
+        diff.view.eachBefore((n) => {
+          nodes.push(n);
+        });
+        expect(lines).toHaveLength(nodes.length);
+        lines.forEach((line, k) => {
+          if (markOf(line) !== MARK.other) return;
+          // No change in the node, below it on screen or in its fold.
+          expect(totalChanges(nodes[k].data.changes)).toBe(0);
+        });
+        if (lines.some((l) => markOf(l) === MARK.other)) expect(key).toContain("'.' nothing changed in it");
+      }),
+      { numRuns: 60 },
+    );
+  });
+
+  it("says less rather than wrap: the numbers shorter, then no pointer, then only the marks, cut last", () => {
+    const facts = { marks: new Set([MARK.focus, MARK.path, MARK.other]), chains: true };
+    const full = keyLine("summary", facts);
+    expect(full).toBe(
+      "key: '*' a focus, ':' on the way to a focus, '.' other; N nodes and a size: the node with all below it; a / b: b is a's only child; --legend explains more",
+    );
+    expect(keyLine("summary", facts, 110)).toBe(
+      "key: '*' a focus, ':' on the way to a focus, '.' other; totals include all below; --legend explains more",
+    );
+    expect(keyLine("summary", facts, 80)).toBe(
+      "key: '*' a focus, ':' on the way to a focus, '.' other; totals include all below",
+    );
+    expect(keyLine("summary", facts, 56)).toBe("key: '*' a focus, ':' on the way to a focus, '.' other");
+    expect(keyLine("summary", facts, MIN_WIDTH)).toBe("key: '*' a focus, ':' on the …");
+    for (let width = MIN_WIDTH; width <= 200; width++)
+      for (const kind of ["summary", "diff"] as const)
+        expect(displayWidth(keyLine(kind, facts, width))).toBeLessThanOrEqual(width);
+  });
+
+  it("speaks Markdown's terms there: bold names, not marks", () => {
+    const facts = { marks: new Set([MARK.focus, MARK.path, MARK.other]), chains: false };
+    expect(keyLine("summary", facts, undefined, "markdown")).toBe(
+      "key: bold on the way to a focus; N nodes and a size: the node with all below it; --legend explains more",
+    );
+  });
+});
+
+describe("the key line on the command line", () => {
+  const org = ["fixtures/quillfeather-org.csv", "--parent-field", "manager", "--focus", "Q2417"];
+
+  it("is printed under the header by default, and counted in the budget", async () => {
+    const r = await cli([...org, "--budget", "12"]);
+    expect(r.code, r.stderr).toBe(0);
+    const lines = r.stdout.trimEnd().split("\n");
+    expect(lines[1]).toMatch(/^key: '\*' a focus, ':' on the way to a focus, '\.' other; /);
+    expect(lines).toHaveLength(12);
+    expect(lines[0]).toMatch(/; 12 of 12 lines$/);
+  });
+
+  it("is left out with --no-key, --bare, --legend and a budget under KEY_MIN_BUDGET lines", async () => {
+    for (const extra of [["--no-key"], ["--bare"], ["--legend"], ["--budget", String(KEY_MIN_BUDGET - 1)]]) {
+      const r = await cli([...org, ...extra]);
+      expect(r.code, r.stderr).toBe(0);
+      expect(r.stdout, extra.join(" ")).not.toMatch(/^key: /m);
+    }
+  });
+
+  it("gives way when the budget is too small for the root and the focus paths with it", async () => {
+    // A budget of 3 holds the header and the focus path of a two-level tree but not a key too.
+    const stdin = "id,parent,name\n1,,Quillfeather\n2,1,Field Service\n3,2,Bench\n";
+    const tight = await cli(["-", "--input-format", "csv", "--focus", "3", "--budget", "10", "--no-chains"], {
+      stdin,
+    });
+    expect(tight.stdout).toMatch(/^key: /m);
+    const deep = `id,parent,name\n${Array.from({ length: 9 }, (_, k) => `${k + 1},${k || ""},n${k + 1}`).join("\n")}\n`;
+    // The focus path of n9 is 9 lines: with the header that is the whole budget of 10, the key left out.
+    const r = await cli(["-", "--input-format", "csv", "--focus", "9", "--budget", "10", "--no-chains"], {
+      stdin: deep,
+    });
+    expect(r.code, r.stderr).toBe(0);
+    const lines = r.stdout.trimEnd().split("\n");
+    expect(lines).toHaveLength(10);
+    expect(r.stdout).not.toMatch(/^key: /m);
+    const over = await cli(["-", "--input-format", "csv", "--focus", "9", "--budget", "9", "--no-chains"], {
+      stdin: deep,
+    });
+    expect(over.stderr).toContain("[BUDGET_TOO_SMALL]");
+  });
+});
