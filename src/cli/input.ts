@@ -13,6 +13,7 @@ import { PSEUDONYM_KEY_ENV, type SharedCliOptions } from "./options.js";
 import { withProgress } from "./progress.js";
 import { FOCI_BOUND, readInput } from "./read-input.js";
 import { readInputStream } from "./read-input-stream.js";
+import { notesText } from "./reading-notes.js";
 
 // What every command reads: its input trees, its foci and the pseudonym key. Summary, diff and explore
 // all go through here, so they read the same inputs the same way.
@@ -28,6 +29,25 @@ export async function loadInput(
   opts: SharedCliOptions,
   rootName: string = rootNameOf(input),
   nodes: string | undefined = singleNodes(opts),
+): Promise<Tree> {
+  const tree = await loadQuietly(io, input, opts, rootName, nodes);
+  sayNotes(io, input, tree, opts);
+  return tree;
+}
+
+/** The loader's notes on `tree` (read from `input`) on standard error, one line each (reading-notes.ts). */
+function sayNotes(io: CliIO, input: string, tree: Tree, opts: SharedCliOptions): void {
+  if (tree.reading?.notes?.length)
+    io.stderr.write(notesText(tree, displayName(input), pseudonymKey(opts, io)));
+}
+
+/** {@link loadInput} without printing the loader's notes. */
+async function loadQuietly(
+  io: CliIO,
+  input: string,
+  opts: SharedCliOptions,
+  rootName: string,
+  nodes: string | undefined,
 ): Promise<Tree> {
   try {
     if (isFactInput(opts)) return await loadFactInput(input, opts, rootName);
@@ -80,15 +100,18 @@ export async function loadVersions(
     const oldTree = await loadInput(io, oldInput, opts, rootName, oldNodes);
     return [oldTree, await loadInput(io, newInput, opts, rootName, newNodes)];
   }
+  // Notes are printed once both loads are over, OLD's first, as the loads one after the other print them.
   const named = (err: unknown) => (err instanceof EspalierError ? err.inFile(displayName(oldInput)) : err);
   const [oldTree, newTree] = await Promise.allSettled([
     io
       .loadInWorker(oldInput, { ...toLoadOptions(oldInput, opts), rootName })
       .catch((err) => Promise.reject(named(err))),
-    loadInput(io, newInput, opts, rootName),
+    loadQuietly(io, newInput, opts, rootName, undefined),
   ]);
   if (oldTree.status === "rejected") throw oldTree.reason;
   if (newTree.status === "rejected") throw newTree.reason;
+  sayNotes(io, oldInput, oldTree.value, opts);
+  sayNotes(io, newInput, newTree.value, opts);
   return [oldTree.value, newTree.value];
 }
 
@@ -180,7 +203,10 @@ export function toLoadOptions(
         ...defaultCompared(opts),
       ]),
     ],
-    ...(defaultCompared(opts).length > 0 ? { optionalKeepFields: defaultCompared(opts) } : {}),
+    // A diff without --compare-field compares a document's values where it is read as values.
+    ...(defaultCompared(opts).length > 0
+      ? { optionalKeepFields: defaultCompared(opts), keepScalars: true }
+      : {}),
     rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
     ...(opts.readAs === "auto" ? {} : { readAs: opts.readAs }),

@@ -1,3 +1,4 @@
+import type { ShownNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
 import type { HeaderReading } from "../render/header.js";
@@ -5,8 +6,10 @@ import { KEY_MIN_BUDGET } from "../render/key-line.js";
 import { MIN_WIDTH } from "../render/line-layout.js";
 import { legendLines } from "../render/marks.js";
 import { type Palette, palette } from "../render/palette.js";
+import { pseudonymKey } from "./input.js";
 import type { CliIO } from "./io.js";
 import { DEFAULT_BUDGET, type SharedCliOptions } from "./options.js";
+import { shownNotes } from "./reading-notes.js";
 
 /** How a command's result is printed: what the options and the terminal say. */
 export interface OutputSettings {
@@ -38,6 +41,8 @@ export interface OutputSettings {
   documents: readonly number[] | undefined;
   /** The id column that names the nodes of an input without a name column (the first such input's). */
   namesFrom: string | undefined;
+  /** The loader's notes on the input (reading-notes.ts), input text hidden under --pseudonymize; JSON carries them. */
+  notes: readonly ShownNote[];
   /** A diff's compared record fields (see `HeaderOptions.compared`); undefined for a summary. */
   compared?: readonly string[];
 }
@@ -75,6 +80,7 @@ export function outputSettings(
       opts.label === undefined
         ? inputs.find((t) => t.reading?.namesFrom !== undefined)?.reading?.namesFrom
         : undefined,
+    notes: shownNotes(tree, pseudonymKey(opts, io)),
   };
 }
 

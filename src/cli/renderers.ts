@@ -45,7 +45,7 @@ export const summaryRenderers: Record<OutputFormat, Renderer<SummaryResult>> = {
       foci: result.fociPaths,
       unmatchedFoci: result.unmatchedFoci,
       labels: s.labels,
-      ...(tree.reading ? { input: tree.reading } : {}),
+      ...(tree.reading ? { input: tree.reading, notes: s.notes } : {}),
     }),
   markdown: async (result, s, tree) =>
     (await import("../render/summary-markdown.js")).renderMarkdown(result.view, {

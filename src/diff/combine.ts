@@ -1,5 +1,5 @@
 import { MergedNames } from "../model/merged-names.js";
-import { copyName, NamePool, type Names, sameName } from "../model/names.js";
+import { bytesCompare, copyName, NamePool, type Names, sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 import { KIND } from "./changes.js";
 import { type ComparedFields, isEdited } from "./field-edits.js";
@@ -202,6 +202,9 @@ function fill(
   const newParent = newTree.parent;
   const oldName = oldTree.name;
   const newName = newTree.name;
+  // Equal bytes are the same name, compared in this loop; other pairs (a rename, or names only
+  // decoding can tell apart) go through sameName.
+  const equalBytes = bytesCompare(newName, oldName);
   const deltaOf = (k: number): number => {
     const n = newIndex[k];
     const o = oldIndex[k];
@@ -213,7 +216,8 @@ function fill(
     if (n < 0) kind[k] = KIND.removed;
     else if (o < 0) kind[k] = KIND.added;
     else if (n > 0 && newToOld[newParent[n]] !== oldParent[o]) kind[k] = KIND.moved;
-    else if ((n > 0 ? byId : renameRoot) && !sameName(newName, n, oldName, o)) kind[k] = KIND.renamed;
+    else if ((n > 0 ? byId : renameRoot) && !equalBytes(n, o) && !sameName(newName, n, oldName, o))
+      kind[k] = KIND.renamed;
     else if (compared !== null && isEdited(compared, o, n)) kind[k] = KIND.edited;
     else if (newSize[n] - oldSize[o] !== 0) kind[k] = KIND.resized;
   }

@@ -1,4 +1,4 @@
-import { isEmptyName, NamePool, type Names, sameName } from "../model/names.js";
+import { bytesCompare, isEmptyName, type Names, sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 
 /** How the nodes of two versions correspond. Roots always correspond to each other. */
@@ -160,24 +160,4 @@ function matchByPath(
       newToOld[c] = m;
     }
   }
-}
-
-/**
- * For two pools, whether name `i` of the first and name `j` of the second are the same non-empty bytes
- * (then the same name), compared in the caller's loop without a call per name; false otherwise, and
- * always when either is no pool or keeps some name as a string: `sameName` then decides.
- */
-function bytesCompare(a: Names, b: Names): (i: number, j: number) => boolean {
-  const aRuns = a instanceof NamePool ? a.byteRuns() : null;
-  const bRuns = b instanceof NamePool ? b.byteRuns() : null;
-  if (aRuns === null || bRuns === null) return () => false;
-  const { bytes: aBytes, start: aStart, size: aSize } = aRuns;
-  const { bytes: bBytes, start: bStart, size: bSize } = bRuns;
-  return (i, j) => {
-    const length = aSize[i];
-    if (length !== bSize[j] || length === 0) return false;
-    for (let x = aStart[i], y = bStart[j], end = x + length; x < end; x++, y++)
-      if (aBytes[x] !== bBytes[y]) return false;
-    return true;
-  };
 }

@@ -39,9 +39,25 @@ export function measureChanges(tree: Tree, kind: Uint8Array, deltaOf: (i: number
   for (let i = 0, s = 0; s < m; i++) if (onChangePath[i]) onPath[s++] = i;
   const counts = new Int32Array(m * K);
   const net = new Float64Array(m);
-  // In reverse pre-order every child comes before its parent; the parent's slot is found by a search
-  // of `onPath` (the list is a few nodes per change, where an array of every node's slot would be
+  // Each slot's parent slot: a node's parent is on a change path too, and in pre-order it is on the
+  // path of on-path nodes from the root down to the node before it (kept as a stack), so no slot is
+  // searched for (the list is a few nodes per change, where an array of every node's slot would be
   // the size of the tree).
+  const up = new Int32Array(m);
+  const path = new Int32Array(m);
+  let top = -1;
+  for (let s = 0; s < m; s++) {
+    const i = onPath[s];
+    if (i === 0) {
+      top = -1;
+      up[s] = -1;
+    } else {
+      while (top >= 0 && onPath[path[top]] !== parent[i]) top--;
+      up[s] = path[top];
+    }
+    path[++top] = s;
+  }
+  // In reverse pre-order every child comes before its parent.
   for (let s = m - 1; s >= 0; s--) {
     const i = onPath[s];
     if (kind[i] !== 0) {
@@ -49,7 +65,7 @@ export function measureChanges(tree: Tree, kind: Uint8Array, deltaOf: (i: number
       net[s] += deltaOf(i);
     }
     if (i === 0) continue;
-    const t = slotIn(onPath, parent[i], s);
+    const t = up[s];
     net[t] += net[s];
     for (let k = 0; k < K; k++) counts[t * K + k] += counts[s * K + k];
   }

@@ -5,6 +5,7 @@ import { buildTree } from "../model/build-tree.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { Tree } from "../model/tree.js";
+import { noteApartFirstLine } from "./apart-first-line.js";
 import { byteLoader } from "./byte-loader.js";
 import { detectFormat } from "./detect-format.js";
 import {
@@ -85,7 +86,7 @@ function linkedNodes(
       table.delimiter = delimiter;
       table.bytes = Buffer.from(body, "utf8");
     }
-    return loadEdges(body, options);
+    return noteApartFirstLine(loadEdges(body, options), body);
   }
   // A JSON graph (rows or an adjacency map) is parsed whole; a text that is no JSON goes to the JSON
   // loader, which places the error.

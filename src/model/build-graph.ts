@@ -253,7 +253,11 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
     originIsRow: graph.originIsRow,
     fields,
     syntheticRoot: synthetic,
-    reading: { shape: "graph", sizeUnit: graph.sizeUnit },
+    reading: {
+      shape: "graph",
+      sizeUnit: graph.sizeUnit,
+      ...(graph.notes && graph.notes.length > 0 ? { notes: graph.notes } : {}),
+    },
     ...(hasReferences ? { referenceTo } : {}),
   };
   if (!sized) rememberZeroSizes(tree);

@@ -35,15 +35,14 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
   for (let i = 0; i < n; i++) par[i] = input.parentOf[i] === -1 && synthetic ? n : input.parentOf[i];
   par[rootOld] = -1;
 
+  // Children lists in input order, made from the last node back (no array of last children).
   const firstChild = new Int32Array(total).fill(-1);
-  const lastChild = new Int32Array(total).fill(-1);
   const nextSib = new Int32Array(total).fill(-1);
-  for (let i = 0; i < n; i++) {
+  for (let i = n - 1; i >= 0; i--) {
     const p = par[i];
     if (p < 0) continue;
-    if (lastChild[p] === -1) firstChild[p] = i;
-    else nextSib[lastChild[p]] = i;
-    lastChild[p] = i;
+    nextSib[i] = firstChild[p];
+    firstChild[p] = i;
   }
 
   // Pre-order walk without a stack: down to the first child, else across, else up until a sibling.
@@ -64,9 +63,12 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
   }
   if (next < total) throw cycleError(input, par, newIndex, file);
 
-  const parent = new Int32Array(total);
-  const depth = new Int32Array(total);
-  const from = new Int32Array(total);
+  // The child lists are read no more: their memory holds the tree's parents and depths (memory
+  // touched for the first time is dear on a big tree: docs/performance.md). `oldOf` becomes `from`
+  // (where each node's name comes from; -1 for the synthetic root) as it is read.
+  const parent = firstChild;
+  const depth = nextSib;
+  const from = oldOf;
   const ownSize = new Float64Array(total);
   const origin = new Int32Array(total);
   const fields = new Map<string, string[]>();
@@ -82,18 +84,22 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
       for (const [key] of fieldSources) fields.get(key)![k] = "";
       continue;
     }
-    from[k] = o;
     ownSize[k] = input.ownSize[o];
     origin[k] = input.origin[o];
     for (const [key, values] of fieldSources) fields.get(key)![k] = values[o] ?? "";
   }
   const slotOf = (i: number) => newIndex[i];
+  // The names' places go in `par`'s memory, read no more, and in `newIndex`'s where no slotOf follows.
+  const spare = input.referenceOf === undefined && input.empty === undefined;
+  const places = spare
+    ? { start: new Uint32Array(par.buffer, 0, total), size: new Uint32Array(newIndex.buffer, 0, total) }
+    : undefined;
   const tree = withReferences(
     {
       length: total,
       parent,
       depth,
-      name: input.name.reordered(from, input.rootName),
+      name: input.name.reordered(from, input.rootName, places),
       ownSize,
       hasSizes: input.hasSizes,
       ids: input.ids === null ? null : input.ids.reordered(from, ""),

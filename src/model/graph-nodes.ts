@@ -1,5 +1,6 @@
 import type { SourcePos } from "../errors.js";
 import type { NamePool } from "./names.js";
+import type { ReadingNote } from "./reading-note.js";
 import type { TreeReading } from "./tree.js";
 
 /**
@@ -56,4 +57,6 @@ export interface GraphNodes {
    * reference (a tree needs no such table).
    */
   takeSpare?: () => Int32Array | undefined;
+  /** Notes on the reading for the tree's `reading.notes` (see model/reading-note.ts); absent when none. */
+  notes?: readonly ReadingNote[];
 }

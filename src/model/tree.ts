@@ -1,4 +1,5 @@
 import type { Names } from "./names.js";
+import type { ReadingNote } from "./reading-note.js";
 
 /**
  * The whole input as flat arrays, nodes numbered in pre-order (a parent precedes its descendants and a
@@ -81,4 +82,10 @@ export interface TreeReading {
    * The header says so, so a reader whose names sit in another column sees where to point --name-field.
    */
   readonly namesFrom?: string;
+  /**
+   * What the reader should know about this reading that the tree cannot show: the input was read one
+   * way although it may have meant another, and how to say so (see model/reading-note.ts). The command
+   * line prints each on standard error; absent when there is none.
+   */
+  readonly notes?: readonly ReadingNote[];
 }

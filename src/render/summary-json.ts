@@ -1,4 +1,5 @@
 import type { HierarchyNode } from "d3-hierarchy";
+import { type ShownNote, showNote } from "../model/reading-note.js";
 import type { TreeReading } from "../model/tree.js";
 import type { ViewNode } from "../view/view-node.js";
 import { jsonNodeFields } from "./json-node.js";
@@ -16,6 +17,11 @@ export interface JsonOptions {
   labels: boolean;
   /** How the input was read, when known (the tree's `reading`). */
   input?: TreeReading;
+  /**
+   * The input's notes as printed (model/reading-note.ts), input text shown or hidden as the run shows
+   * it (`--pseudonymize`); without them, `input.notes` shows the input as it is.
+   */
+  notes?: readonly ShownNote[];
 }
 
 /** The summary JSON object (see docs/summary.schema.json). Iterative: any depth of view is fine. */
@@ -33,9 +39,16 @@ export function toSummary(view: HierarchyNode<ViewNode>, options: JsonOptions): 
     totals: { nodes: view.data.nodes, size: view.data.size },
     foci: options.foci,
     ...(options.unmatchedFoci?.length ? { unmatchedFoci: [...options.unmatchedFoci] } : {}),
-    ...(options.input ? { input: { ...options.input } } : {}),
+    ...(options.input ? { input: jsonReading(options.input, options.notes) } : {}),
     root,
   };
+}
+
+/** `input` as the JSON has it: the reading, with its notes as messages (none: no `notes`). */
+function jsonReading(reading: TreeReading, shown: readonly ShownNote[] | undefined): Summary["input"] {
+  const { notes, ...rest } = reading;
+  const out = shown ?? (notes ?? []).map((note) => showNote(note));
+  return out.length > 0 ? { ...rest, notes: out.map((note) => ({ ...note })) } : { ...rest };
 }
 
 /** The summary as JSON text (RFC 8259), two-space indented, ending in a newline (see {@link jsonText}). */

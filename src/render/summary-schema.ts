@@ -1,4 +1,5 @@
 import * as z from "zod";
+import { readingNoteCodes } from "../model/reading-note.js";
 
 /** Name and version of the summary JSON; bump the number when a field changes meaning. */
 export const SUMMARY_FORMAT = "espalier-summary/1";
@@ -145,6 +146,29 @@ export const inputReadingSchema = z
       .optional()
       .describe(
         "A table or rows linked by id without the name column (--name-field): the id column, whose values name the nodes. Absent when names come from the name column.",
+      ),
+    notes: z
+      .array(
+        z
+          .object({
+            code: z
+              .enum(readingNoteCodes)
+              .describe(
+                "What was noticed. FIRST_LINE_APART: an edge list's first line was read as an edge that shares no node with any other line, as a header naming the columns would be. COMMAS_READ_AS_PATHS: two lines with as many commas (a CSV table's header and one row) were read as two paths.",
+              ),
+            line: z.number().int().positive().optional().describe("The input line the note is about."),
+            message: z
+              .string()
+              .describe(
+                "The note as standard error prints it: what was read, why, and how to read it otherwise.",
+              ),
+          })
+          .strict(),
+      )
+      .min(1)
+      .optional()
+      .describe(
+        "What the reader should know about this reading that the tree cannot show (each also printed on standard error); absent when there is none.",
       ),
   })
   .strict()

@@ -2,6 +2,7 @@ import { Buffer, isUtf8 } from "node:buffer";
 import { EspalierError, quoted, say } from "../../errors.js";
 import { asBuffer } from "../../model/buffer-codecs.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
+import type { ReadingNote } from "../../model/reading-note.js";
 import type { LoadOptions } from "../load-options.js";
 import { checkNoNamedFields } from "../missing-field.js";
 import { NodeSink } from "../node-sink.js";
@@ -11,6 +12,7 @@ import { limitsOf, tooLong } from "../read-limits.js";
 import { checkReadingOptions } from "../reading-options.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { type FolderSizes, folderTotals } from "./folder-totals.js";
+import { headerLineHint } from "./header-line-hint.js";
 
 const newline = 10;
 const cr = 13;
@@ -73,6 +75,7 @@ export class PathListReader {
    * lines holds as many: rows of a CSV table without its header row (see `end`).
    */
   private commas = 0;
+  private firstCells: string[] = [];
   private sameCommas = true;
   /** How folders' sizes count (folder-totals.ts); undefined: decided by the listing. */
   private readonly folderSizes: FolderSizes | undefined;
@@ -163,7 +166,7 @@ export class PathListReader {
       const n = this.commas;
       throw new EspalierError(
         "PARSE_PATHS",
-        `every line holds ${n === 1 ? "a comma" : `${n} commas`}, as the rows of a CSV table without its header row do: a table is read from a first line that names its columns (the id and parent columns, or a path column; --id-field, --parent-field and --path-field name others), so add one (e.g. id,parent,name or path,hash,size); to read each whole line as a path, pass --input-format paths`,
+        say`every line holds ${n === 1 ? "a comma" : `${n} commas`}, as the rows of a CSV table without its header row do: a table is read from a first line that names its columns (the id and parent columns, or a path column; --id-field, --parent-field and --path-field name others), so add one (e.g. id,parent,name or path,hash,size)${headerLineHint(this.firstCells, "csv")}; to read each whole line as a path, pass --input-format paths`,
         { line: this.firstLine, column: 1 },
       );
     }
@@ -186,10 +189,15 @@ export class PathListReader {
         placer,
         this.folderSizes,
       );
+    // Two lines with as many commas, too few to refuse (above): a CSV table's header and one row read
+    // so, as two paths; read as paths, but said.
+    const csvLike =
+      this.detected && this.sized === false && this.commas > 0 && this.sameCommas && this.pathLines === 2;
     return sink.finish(this.rootName, new Map(), null, {
       shape: "paths",
       sizeUnit: "bytes",
       ...(totals ? { folderTotals: true } : {}),
+      ...(csvLike ? { notes: [commasNote(this.firstLine, this.commas, this.firstCells)] } : {}),
     });
   }
 
@@ -292,7 +300,11 @@ export class PathListReader {
         if (!(size >= 0)) {
           throw new EspalierError(
             "BAD_SIZE",
-            say`the size on line ${line} must be a number from 0 to 2^53 - 1, got ${quoted.value(text)}${sizeTextHint(text)}`,
+            say`the size on line ${line} must be a number from 0 to 2^53 - 1, got ${quoted.value(text)}${sizeTextHint(text)}${
+              this.detected && line === this.firstLine && sizeEnd === tab
+                ? headerLineHint(bytes.toString("utf8", start, end).replace(/\r$/, "").split("\t"), "tsv")
+                : ""
+            }`,
             { line, column: 1 },
           );
         }
@@ -304,8 +316,12 @@ export class PathListReader {
       if (numberThenSpace(bytes, start, end)) this.numberFirstLines++;
       if (this.pathLines <= COMMA_LINES && this.sameCommas) {
         const commas = countByte(bytes, comma, start, end);
-        if (this.pathLines === 1) this.commas = commas;
-        else if (commas !== this.commas) this.sameCommas = false;
+        if (this.pathLines === 1) {
+          this.commas = commas;
+          // The first line's cells, for the message of a CSV table (see `end`): at most 200 bytes.
+          if (commas > 0)
+            this.firstCells = bytes.toString("utf8", start, Math.min(end, start + 200)).split(",");
+        } else if (commas !== this.commas) this.sameCommas = false;
       }
     }
     if (this.backslashes === undefined) this.backslashes = windowsPath(bytes, pathStart, end);
@@ -387,4 +403,13 @@ function pathOf(sink: NodeSink, i: number, root: number): string {
   for (let k = i; k !== -1 && k !== root; k = sink.parentOf[k]) names.push(sink.name.get(k));
   names.reverse();
   return names[0] === "/" ? `/${names.slice(1).join("/")}` : names.join("/");
+}
+
+/** The note on a two-line list read as paths whose lines hold as many commas (see `end`). */
+function commasNote(line: number, commas: number, cells: readonly string[]): ReadingNote {
+  return {
+    code: "COMMAS_READ_AS_PATHS",
+    line,
+    parts: say`both lines hold ${commas === 1 ? "a comma" : `${commas} commas`}, as a CSV table's header and row do, and were read as two paths: a table is read from a first line that names the id and parent columns, or a path column; for a table, pass --input-format csv with --id-field COLUMN and --parent-field COLUMN (or --path-field COLUMN)${headerLineHint(cells, "csv", "edges")}; --input-format paths reads the lines as paths without this note`,
+  };
 }

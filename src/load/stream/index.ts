@@ -5,6 +5,7 @@ import { buildTree } from "../../model/build-tree.js";
 import type { GraphNodes } from "../../model/graph-nodes.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { Tree } from "../../model/tree.js";
+import { noteApartFirstLine } from "../apart-first-line.js";
 import { byteLoader } from "../byte-loader.js";
 import { detectFormat } from "../detect-format.js";
 import {
@@ -97,7 +98,7 @@ async function linkedNodes(
     const delimiter = edgeTableDelimiter(start, options);
     if (delimiter === null) {
       checkPlainEdgeList(start, options);
-      return edgeListStream(chunks, options);
+      return noteApartFirstLine(await edgeListStream(chunks, options), start);
     }
     seen.delimiter = delimiter;
     const table = await csvTableFromStream(chunks, delimiter, edgeTableFields(options));

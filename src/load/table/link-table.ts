@@ -1,5 +1,5 @@
 import { didYouMean } from "../../did-you-mean.js";
-import { EspalierError, placedAtRow, quoted, quotedList, say } from "../../errors.js";
+import { EspalierError, type MessagePart, placedAtRow, quoted, quotedList, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { copyName, isEmptyName, NamePool, type Names, StringNames } from "../../model/names.js";
 import { isSize } from "../../model/size-rule.js";
@@ -69,9 +69,13 @@ function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): 
   // Columns named otherwise (employee_id, manager_id) are read by naming them: the message says how,
   // unless the header is one column (another separator, or a list of paths: nothing to name).
   const naming = !byName && table.columnNames().length > 1;
+  // A CSV/TSV table of edges (`from,to`, `source<TAB>target`) is read by --input-format edges, which
+  // never is detected: say so, naming its columns when there are two.
+  const edges = shape === "table" && naming ? edgeTableRemedy(table.columnNames(), options) : undefined;
   const remedies = [
     ...(byName ? [`--id-field ${options.nameField}`] : []),
     ...(naming ? ["--id-field", "--parent-field", "--path-field"] : []),
+    ...(edges ? ["--input-format edges"] : []),
     ...(shape === "table" ? ["--input-format paths"] : []),
   ];
   throw new EspalierError(
@@ -82,7 +86,7 @@ function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): 
         : naming
           ? "; say which columns hold them with --id-field COLUMN and --parent-field COLUMN, or --path-field COLUMN"
           : ""
-    }${
+    }${edges ?? ""}${
       shape === "table"
         ? "; a listing of sizes and paths (size, a tab, the path) reads with --input-format paths"
         : ""
@@ -94,6 +98,19 @@ function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): 
       ...(remedies.length > 0 ? { remedies } : {}),
     },
   );
+}
+
+/**
+ * The end of a FIELD_MISSING message for a table that may be a list of edges (a parent and a child a
+ * row): the options that read it so. With the parent and child columns at their names (`parent,child`)
+ * `--input-format edges` is enough; a table of two columns is named as it is, parent first.
+ */
+function edgeTableRemedy(columns: readonly string[], options: LoadOptions): MessagePart[] {
+  const lead = "; a table of edges (a parent and a child a row) reads with --input-format edges";
+  if (columns.includes(options.parentField) && columns.includes(options.childField)) return [lead];
+  if (columns.length === 2)
+    return say`${lead} --parent-field ${quoted.name(columns[0])} --child-field ${quoted.name(columns[1])}`;
+  return [`${lead} --parent-field COLUMN --child-field COLUMN`];
 }
 
 function linkById(

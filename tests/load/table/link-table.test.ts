@@ -88,7 +88,13 @@ describe("linkTable by id and parent", () => {
     expect(error.details).toEqual({
       fieldsNeeded: ["id", "parent", "path"],
       fieldsSeen: ["key", "boss"],
-      remedies: ["--id-field", "--parent-field", "--path-field", "--input-format paths"],
+      remedies: [
+        "--id-field",
+        "--parent-field",
+        "--path-field",
+        "--input-format edges",
+        "--input-format paths",
+      ],
     });
     // The reader has no docs: the message itself names the options that read other-named columns.
     expect(error.message).toContain("--id-field COLUMN and --parent-field COLUMN, or --path-field COLUMN");

@@ -1,0 +1,41 @@
+import { type InputText, type MessagePart, showInput } from "../errors.js";
+
+/**
+ * What a loader tells the reader beside the tree: the input was read one way although it may have meant
+ * another, and how to say so. The load succeeds (exit 0); the command line prints each note on
+ * standard error and the summary JSON carries them under `input.notes`, so a run whose numbers rest on
+ * a guess never says nothing about it. Plain data: a note crosses a thread with its tree.
+ */
+export interface ReadingNote {
+  /** What was noticed (one code per kind of note, as errors have). */
+  readonly code: ReadingNoteCode;
+  /** 1-based line of the input the note is about, when it is about one. */
+  readonly line?: number;
+  /** The note as wording and marked input text (see `quoted` in errors.ts), so `--pseudonymize` can hide it. */
+  readonly parts: readonly MessagePart[];
+}
+
+/**
+ * The kinds of note. `FIRST_LINE_APART`: an edge list's first line was read as an edge that joins no
+ * other line, as a header naming the columns (`from<TAB>to`) reads (load/apart-first-line.ts).
+ * `COMMAS_READ_AS_PATHS`: a detected path list of two lines holding as many commas, as a CSV table's
+ * header and one row do, was read as two paths (load/path-list/path-list-reader.ts; from three such
+ * lines on it is PARSE_PATHS).
+ */
+export const readingNoteCodes = ["FIRST_LINE_APART", "COMMAS_READ_AS_PATHS"] as const;
+
+export type ReadingNoteCode = (typeof readingNoteCodes)[number];
+
+/** A note as it is printed: its code, its line and its message (input shown by `show`). */
+export interface ShownNote {
+  code: ReadingNoteCode;
+  line?: number;
+  message: string;
+}
+
+/** `note` with its input text shown by `show` (as it is, or pseudonyms under `--pseudonymize`). */
+export function showNote(note: ReadingNote, show: (t: InputText) => string = showInput): ShownNote {
+  let message = "";
+  for (const part of note.parts) message += typeof part === "string" ? part : show(part);
+  return { code: note.code, ...(note.line === undefined ? {} : { line: note.line }), message };
+}
