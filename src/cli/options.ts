@@ -124,7 +124,7 @@ export const sharedOptions = {
     flags: "--no-key",
     group: "Budget and layout",
     value: flag(true),
-    help: "print no key line under the header (one line on what the marks and numbers on screen mean, printed when the budget has 10 lines or more; the budget counts it)",
+    help: "print no key line under the header (one line on what the marks and numbers on screen mean, printed when the budget has 6 lines or more; the budget counts it)",
   },
   share: {
     flags: "--share <of>",

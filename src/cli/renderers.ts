@@ -106,7 +106,8 @@ export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
       changeOf: (n) => n.change,
       width: svgWidth(s.widthOption),
       heading: lines.header && diffHeader(result.totals, result.combined.by, lines.header, lines),
-      changeNote: (n) => changeTag(n, { units: s.units, sizes: tree.hasSizes }),
+      changeNote: (n) =>
+        changeTag(n, { units: s.units, sizes: tree.hasSizes }, undefined, result.view.data.name),
       changesIn: (n, folded) => (folded ? n.hidden!.changes : n.changes),
     });
   },

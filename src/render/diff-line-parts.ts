@@ -41,8 +41,8 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
     hidden ? `(${foldWords(last)}, ${foldAmount(group, last, o)}; ${inside})` : "";
   return {
     ...parts,
-    tag: changeTag(last, options),
-    shortTag: changeTag(last, options, SHORT_FROM),
+    tag: changeTag(last, options, undefined, group.root.name),
+    shortTag: changeTag(last, options, SHORT_FROM, group.root.name),
     tagKind: last.change,
     numbers: say(options, parts.numbers),
     compactNumbers: say({ ...options, compact: true }, parts.compactNumbers),
@@ -60,12 +60,24 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
  * (`[resized +12 B]`, `[moved from A, version 1.2.0 -> 1.3.0, +2 B]`); the old path or name and each
  * value cut to `fromWidth` columns. An empty (absent) value reads `(none)`.
  */
-export function changeTag(node: DiffViewNode, options: NumberOptions, fromWidth?: number): string {
+export function changeTag(
+  node: DiffViewNode,
+  options: NumberOptions,
+  fromWidth?: number,
+  rootName?: string,
+): string {
   if (node.change === null) return "";
   const cut = (text: string) => (fromWidth === undefined ? text : shortenMiddle(text, fromWidth));
   const parts: string[] = [node.change];
   if (node.movedFrom !== null) {
-    const from = node.movedFrom === "" ? "the root" : safeText(node.movedFrom);
+    // The old parent was the root (its path is empty): named, since "from the root" read as "was a
+    // top node" (field test: an org chart's report moved from directly under the company).
+    const from =
+      node.movedFrom !== ""
+        ? safeText(node.movedFrom)
+        : rootName !== undefined
+          ? `${shownLabel(rootName)} (the root)`
+          : "the root";
     parts[0] += ` from ${cut(from)}`;
   }
   if (node.renamedFrom !== null) parts[0] += ` from ${cut(shownLabel(node.renamedFrom))}`;

@@ -6,9 +6,9 @@ import { MARK } from "./marks.js";
 
 /**
  * Fewest lines a budget must have for the key line to be printed by default: below it, the screen is
- * kept for the tree (the key would take a tenth of the lines or more). A choice of this project, no source.
+ * kept for the tree (the key would take a sixth of the lines or more). A choice of this project, no source.
  */
-export const KEY_MIN_BUDGET = 10;
+export const KEY_MIN_BUDGET = 6;
 
 /** What the lines under the key show, so that the key explains those and nothing else. */
 export interface KeyFacts {

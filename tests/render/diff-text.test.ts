@@ -89,7 +89,8 @@ describe("renderDiffText(view, totals, options)", () => {
       name: new StringNames(["R", "A", "k", "b\u001b[31m"]),
     };
     const out = text(oldTree, newTree);
-    expect(out).toContain(": [moved from the root] k");
+    // The old parent was the root: named, so the tag does not read as "k was a top node".
+    expect(out).toContain(": [moved from R (the root)] k");
     expect(out).toContain(": [moved from A] b\\u{1b}[31m");
     const renamed: Tree = { ...makeIdTree("R{A{b},k}"), name: new StringNames(["R", "A", "b", "k2"]) };
     const oldWithEscape: Tree = { ...oldTree, name: new StringNames(["R", "A", "b", "k\u2028"]) };

@@ -146,6 +146,8 @@ describe("the key line on the command line", () => {
   const org = ["fixtures/quillfeather-org.csv", "--parent-field", "manager", "--focus", "Q2417"];
 
   it("is printed under the header by default, and counted in the budget", async () => {
+    const small = await cli([...org.slice(0, 3), "--budget", String(KEY_MIN_BUDGET)]);
+    expect(small.stdout.split("\n")[1]).toMatch(/^key: /);
     const r = await cli([...org, "--budget", "12"]);
     expect(r.code, r.stderr).toBe(0);
     const lines = r.stdout.trimEnd().split("\n");
@@ -155,10 +157,16 @@ describe("the key line on the command line", () => {
   });
 
   it("is left out with --no-key, --bare, --legend and a budget under KEY_MIN_BUDGET lines", async () => {
-    for (const extra of [["--no-key"], ["--bare"], ["--legend"], ["--budget", String(KEY_MIN_BUDGET - 1)]]) {
-      const r = await cli([...org, ...extra]);
+    const unfocused = org.slice(0, 3);
+    for (const args of [
+      [...org, "--no-key"],
+      [...org, "--bare"],
+      [...org, "--legend"],
+      [...unfocused, "--budget", String(KEY_MIN_BUDGET - 1)],
+    ]) {
+      const r = await cli(args);
       expect(r.code, r.stderr).toBe(0);
-      expect(r.stdout, extra.join(" ")).not.toMatch(/^key: /m);
+      expect(r.stdout, args.join(" ")).not.toMatch(/^key: /m);
     }
   });
 
