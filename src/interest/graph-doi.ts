@@ -162,14 +162,23 @@ function levelKey(level: number): number {
 
 /**
  * The least of (offset of a source + edges from it) for every node, UNREACHED where no source
- * reaches, as 32-bit levels (the offsets and node count are at most MAX_OFFSET, so every level fits): a breadth-first search from all the sources (slots of full entries, sorted by offset),
- * each entering when the search reaches its offset, which must be a whole number. Level by level: a
- * level whose frontier has more edges than a fourteenth of those of the nodes not yet reached is found
- * the other way round, every node not reached looking for a neighbour in the frontier and stopping at
- * the first (Beamer, Asanović and Patterson, "Direction-optimizing breadth-first search", SC '12,
- * with their α = 14, and their bitmaps: such a level reads the frontier and the nodes reached as one
- * bit per node, small enough to stay in the processor's cache); both give each node the first level
- * it is reached at. `queue`: a node long.
+ * reaches, as 32-bit levels (the offsets and node count are at most MAX_OFFSET, so every level fits): a
+ * breadth-first search from all the sources (slots of full entries, sorted by offset), each entering
+ * when the search reaches its offset, which must be a whole number. Level by level: a level whose
+ * frontier has more edges than a fourteenth of those of the nodes not yet reached is found the other
+ * way round, every node not reached looking for a neighbour in the frontier and stopping at the first
+ * (Beamer, Asanović and Patterson, "Direction-optimizing breadth-first search", SC '12, with their
+ * α = 14, and their bitmaps: such a level reads the frontier and the nodes reached as one bit per node,
+ * small enough to stay in the processor's cache); both give each node the first level it is reached
+ * at. `queue`: a node long.
+ *
+ * Every loop over nodes or edges is a function of its own, this one keeping only the loop over
+ * levels (a dozen on the bench graph): the engine then compiles each loop once, with what it has seen
+ * of that loop, where one function holding them all was compiled again for each loop that became hot
+ * and thrown away at each branch its compiled code had not seen run (a bottom-up level after top-down
+ * ones). Compiling runs on a thread of its own, but it is CPU time of the command all the same: the
+ * two searches of a bench graph summary took 0.40 s of CPU in a fresh process before, 0.26 s this way
+ * (docs/performance.md).
  */
 function levelSearch(
   neighbours: GraphNeighbours,
@@ -201,58 +210,120 @@ function levelSearch(
       d = offsets[next] - 1;
       continue;
     }
-    let frontierEdges = 0;
-    for (let k = head; k < tail; k++) {
-      const v = queue[k];
-      frontierEdges += downStart[v + 1] - downStart[v] + upStart[v + 1] - upStart[v];
-    }
+    const frontierEdges = edgesOf(queue, head, tail, downStart, upStart);
     unreachedEdges -= frontierEdges;
     const levelEnd = tail;
-    const reach = d + 1;
     if (frontierEdges * 14 > unreachedEdges) {
       frontier ??= new Int32Array(words);
-      for (let k = head; k < levelEnd; k++) frontier[queue[k] >>> 5] |= 1 << (queue[k] & 31);
-      for (let w = 0; w < words; w++) {
-        const done = reached[w];
-        if (done === -1) continue;
-        for (let v = w << 5, last = Math.min(nodes, v + 32); v < last; v++) {
-          if ((done & (1 << (v & 31))) !== 0) continue;
-          let found = false;
-          for (let j = upStart[v], end = upStart[v + 1]; j < end && !found; j++)
-            found = (frontier[up[j] >>> 5] & (1 << (up[j] & 31))) !== 0;
-          for (let j = downStart[v], end = downStart[v + 1]; j < end && !found; j++)
-            found = (frontier[down[j] >>> 5] & (1 << (down[j] & 31))) !== 0;
-          if (found) {
-            level[v] = reach;
-            queue[tail++] = v;
-          }
-        }
-      }
-      for (let k = head; k < levelEnd; k++) frontier[queue[k] >>> 5] = 0;
-      for (let k = levelEnd; k < tail; k++) reached[queue[k] >>> 5] |= 1 << (queue[k] & 31);
-      head = levelEnd;
+      setBits(frontier, queue, head, levelEnd);
+      tail = bottomUpLevel(neighbours, words, reached, frontier, level, d + 1, queue, tail);
+      clearWords(frontier, queue, head, levelEnd);
+      setBits(reached, queue, levelEnd, tail);
     } else {
-      while (head < levelEnd) {
-        const v = queue[head++];
-        for (let j = downStart[v], end = downStart[v + 1]; j < end; j++) {
-          const w = down[j];
-          if (level[w] > reach) {
-            level[w] = reach;
-            reached[w >>> 5] |= 1 << (w & 31);
-            queue[tail++] = w;
-          }
-        }
-        for (let j = upStart[v], end = upStart[v + 1]; j < end; j++) {
-          const w = up[j];
-          if (level[w] > reach) {
-            level[w] = reach;
-            reached[w >>> 5] |= 1 << (w & 31);
-            queue[tail++] = w;
-          }
-        }
+      tail = topDownLevel(neighbours, reached, level, d + 1, queue, head, levelEnd, tail);
+    }
+    head = levelEnd;
+  }
+}
+
+/** The edges of the nodes `queue[from, to)`, both ways. */
+function edgesOf(
+  queue: Int32Array,
+  from: number,
+  to: number,
+  downStart: Int32Array,
+  upStart: Int32Array,
+): number {
+  let edges = 0;
+  for (let k = from; k < to; k++) {
+    const v = queue[k];
+    edges += downStart[v + 1] - downStart[v] + upStart[v + 1] - upStart[v];
+  }
+  return edges;
+}
+
+/** Sets the bits of the nodes `queue[from, to)`. */
+function setBits(bits: Int32Array, queue: Int32Array, from: number, to: number): void {
+  for (let k = from; k < to; k++) bits[queue[k] >>> 5] |= 1 << (queue[k] & 31);
+}
+
+/** Clears the words that hold the bits of the nodes `queue[from, to)` (no other bit is set in them). */
+function clearWords(bits: Int32Array, queue: Int32Array, from: number, to: number): void {
+  for (let k = from; k < to; k++) bits[queue[k] >>> 5] = 0;
+}
+
+/**
+ * A bottom-up level of {@link levelSearch}: every node not `reached` with a neighbour in `frontier` gets
+ * `reach` and joins the queue at `tail` (its bit in `reached` is set by the caller, after the level, so
+ * that a node found at this level is not taken for a frontier node). Returns the new tail.
+ */
+function bottomUpLevel(
+  neighbours: GraphNeighbours,
+  words: number,
+  reached: Int32Array,
+  frontier: Int32Array,
+  level: Int32Array,
+  reach: number,
+  queue: Int32Array,
+  tail: number,
+): number {
+  const { nodes, downStart, down, upStart, up } = neighbours;
+  for (let w = 0; w < words; w++) {
+    const done = reached[w];
+    if (done === -1) continue;
+    const first = w << 5;
+    const last = Math.min(first + 32, nodes);
+    for (let v = first; v < last; v++) {
+      if ((done & (1 << (v & 31))) !== 0) continue;
+      let found = false;
+      for (let j = upStart[v], end = upStart[v + 1]; j < end && !found; j++)
+        found = (frontier[up[j] >>> 5] & (1 << (up[j] & 31))) !== 0;
+      for (let j = downStart[v], end = downStart[v + 1]; j < end && !found; j++)
+        found = (frontier[down[j] >>> 5] & (1 << (down[j] & 31))) !== 0;
+      if (found) {
+        level[v] = reach;
+        queue[tail++] = v;
       }
     }
   }
+  return tail;
+}
+
+/**
+ * A top-down level of {@link levelSearch}: the neighbours of the frontier `queue[head, levelEnd)` not
+ * reached yet get `reach`, their bit in `reached`, and join the queue at `tail`. Returns the new tail.
+ */
+function topDownLevel(
+  neighbours: GraphNeighbours,
+  reached: Int32Array,
+  level: Int32Array,
+  reach: number,
+  queue: Int32Array,
+  head: number,
+  levelEnd: number,
+  tail: number,
+): number {
+  const { downStart, down, upStart, up } = neighbours;
+  for (let k = head; k < levelEnd; k++) {
+    const v = queue[k];
+    for (let j = downStart[v], end = downStart[v + 1]; j < end; j++) {
+      const w = down[j];
+      if (level[w] > reach) {
+        level[w] = reach;
+        reached[w >>> 5] |= 1 << (w & 31);
+        queue[tail++] = w;
+      }
+    }
+    for (let j = upStart[v], end = upStart[v + 1]; j < end; j++) {
+      const w = up[j];
+      if (level[w] > reach) {
+        level[w] = reach;
+        reached[w >>> 5] |= 1 << (w & 31);
+        queue[tail++] = w;
+      }
+    }
+  }
+  return tail;
 }
 
 /**

@@ -267,7 +267,8 @@ export class NamePool implements Names {
   /**
    * The first node whose name is spelled by `target`, or -1. The runtime's byte search finds where
    * those bytes occur in the pool; then a node matches when its name starts at one of those places and
-   * is as long, so a lookup among millions of names reads their starts and lengths, not their bytes.
+   * is as long, so a lookup among millions of names reads their starts (and the lengths of those that
+   * start there), not their bytes.
    * A target found in very many places (a short, common name) is compared with each name instead.
    */
   indexOfBytes(target: Uint8Array): number {
@@ -280,14 +281,24 @@ export class NamePool implements Names {
         places.push(at);
       }
     else return this.indexOfBytesByScan(target);
-    if (places.length === 0) return -1;
-    const { start, size } = this;
-    for (let i = 0; i < this.length; i++) {
-      if (size[i] !== n) continue;
-      const s = start[i];
-      for (let k = 0; k < places.length; k++) if (places[k] === s && this.exact?.has(i) !== true) return i;
+    // The first node starting at each place, by the runtime's search of the starts (several times
+    // faster than a loop here, which on a graph reads millions of starts: one per slot).
+    const starts = this.start.subarray(0, this.length);
+    const size = this.size;
+    let first = -1;
+    for (const at of places) {
+      for (
+        let i = starts.indexOf(at);
+        i !== -1 && (first === -1 || i < first);
+        i = starts.indexOf(at, i + 1)
+      ) {
+        if (size[i] === n && this.exact?.has(i) !== true) {
+          first = i;
+          break;
+        }
+      }
     }
-    return -1;
+    return first;
   }
 
   private indexOfBytesByScan(target: Uint8Array): number {

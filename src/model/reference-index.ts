@@ -23,12 +23,11 @@ export function referencesTo(tree: Tree, targets: ArrayLike<number>): ReferenceI
   const place = new Map<number, number>();
   for (let k = 0; k < wanted.length; k++) place.set(wanted[k], k);
   if (wanted.length <= FEW) {
-    const w = wanted.length;
-    for (let s = 0; s < n; s++) {
-      const t = to[s];
-      if (t === -1) continue;
-      for (let k = 0; k < w; k++) if (wanted[k] === t) found[k].push(s);
-    }
+    // Target by target, by the runtime's search of the array: a few times faster than one loop here
+    // comparing every slot with each target (2.9M slots on the bench graph).
+    const slots = to.length === n ? to : to.subarray(0, n);
+    for (let k = 0; k < wanted.length; k++)
+      for (let s = slots.indexOf(wanted[k]); s !== -1; s = slots.indexOf(wanted[k], s + 1)) found[k].push(s);
   } else {
     const mark = new Uint8Array(n);
     for (const t of wanted) mark[t] = 1;

@@ -271,6 +271,29 @@ describe("graphs: on an input that is a tree", () => {
   });
 });
 
+describe("graphs: the references to some full entries", () => {
+  it("are the slots whose referenceTo is each entry, in pre-order, for a few entries or many", () => {
+    fc.assert(
+      fc.property(arbGraph, fc.array(fc.nat(), { maxLength: 3 }), ({ text }, picks) => {
+        const tree = load(text);
+        if (tree.referenceTo === undefined) return;
+        const to = tree.referenceTo;
+        const slots = [...tree.parent.keys()];
+        const entries = slots.filter((s) => to[s] === -1);
+        // A few targets (compared one by one) and every entry (up to 25: past 16 they are marked).
+        const few = picks.map((k) => entries[k % entries.length]);
+        for (const targets of [few, entries]) {
+          const refs = referencesTo(tree, targets)!;
+          for (const t of entries) {
+            const expected = targets.includes(t) ? slots.filter((s) => to[s] === t) : [];
+            expect([...refs.of(t)]).toEqual(expected);
+          }
+        }
+      }),
+    );
+  });
+});
+
 describe("graphs: the neighbour table of graph interest", () => {
   it("scores alike with the table the loader made from the edges and the one made from the slots", () => {
     fc.assert(
