@@ -56,7 +56,14 @@ export { type DiffTextOptions, renderDiffText } from "./render/diff-text.js";
 export { formatSize, type Units } from "./render/format-size.js";
 export { type HeaderOptions, type HeaderStyle, summaryHeader, summaryHeaderLines } from "./render/header.js";
 export { renderSvg, type SvgOptions } from "./render/icicle-svg.js";
-export { KEY_MIN_BUDGET, type KeyFacts, keyFacts, keyLine } from "./render/key-line.js";
+export {
+  KEY_MIN_BUDGET,
+  type KeyContext,
+  type KeyFacts,
+  keyContext,
+  keyFacts,
+  keyLine,
+} from "./render/key-line.js";
 export { type LineGroup, lineGroups } from "./render/line-groups.js";
 export { type LayoutOptions, type LineParts, layoutLine, MIN_WIDTH } from "./render/line-layout.js";
 export { lineParts } from "./render/line-parts.js";

@@ -203,7 +203,10 @@ export function toLoadOptions(
         ...defaultCompared(opts),
       ]),
     ],
-    ...(defaultCompared(opts).length > 0 ? { optionalKeepFields: defaultCompared(opts) } : {}),
+    // A diff without --compare-field compares a document's values where it is read as values.
+    ...(defaultCompared(opts).length > 0
+      ? { optionalKeepFields: defaultCompared(opts), keepScalars: true }
+      : {}),
     rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
     ...(opts.readAs === "auto" ? {} : { readAs: opts.readAs }),

@@ -1,4 +1,5 @@
 import { type ErrorDetails, EspalierError } from "../errors.js";
+import { SCALAR_VALUE_FIELD } from "../load/load-options.js";
 import type { Tree } from "../model/tree.js";
 
 /** One compared field whose value differs between the two versions of a matched node. */
@@ -25,8 +26,16 @@ export interface ComparedFields {
  */
 export const DEFAULT_COMPARED_FIELDS: readonly string[] = ["version"];
 
-/** The default compared fields that both versions kept (an input without them compares none). */
+/**
+ * The default compared fields that both versions kept (an input without them compares none); two
+ * documents read as values compare their scalars' text (kept as `value`, see LoadOptions.keepScalars),
+ * which is what such a document holds beyond names and byte lengths.
+ */
 export function defaultComparedFields(oldTree: Tree, newTree: Tree): string[] {
+  const values = [oldTree, newTree].every(
+    (t) => t.reading?.shape === "values" && t.fields.has(SCALAR_VALUE_FIELD),
+  );
+  if (values) return [SCALAR_VALUE_FIELD];
   return DEFAULT_COMPARED_FIELDS.filter((f) => oldTree.fields.has(f) && newTree.fields.has(f));
 }
 

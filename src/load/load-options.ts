@@ -106,7 +106,16 @@ export interface LoadOptions {
    * with its contents (`total`, as `du -ab`); absent: decided by the listing (src/load/path-list/folder-totals.ts).
    */
   folderSizes?: "own" | "total";
+  /**
+   * JSON and YAML read as values: keep each scalar's source text (`"ec2"`, `1.0`, `true`) as the record
+   * field {@link SCALAR_VALUE_FIELD}, "" for an object or array, so that a diff compares values and not
+   * only names and byte lengths (a value changed to one of the same length changes neither).
+   */
+  keepScalars?: boolean;
 }
+
+/** The record field under which a document read as values keeps its scalars' text (`keepScalars`). */
+export const SCALAR_VALUE_FIELD = "value";
 
 export const defaultLoadOptions: LoadOptions = {
   nameField: "name",

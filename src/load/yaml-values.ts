@@ -1,7 +1,7 @@
 import { Buffer } from "node:buffer";
 import { isAlias, isMap, isScalar, isSeq, type LineCounter, type Node } from "yaml";
 import type { LinkedNodes } from "../model/linked-nodes.js";
-import type { LoadOptions } from "./load-options.js";
+import { type LoadOptions, SCALAR_VALUE_FIELD } from "./load-options.js";
 import { checkNoNamedFields } from "./missing-field.js";
 import { NodeSink } from "./node-sink.js";
 
@@ -28,6 +28,7 @@ export function yamlValues(
 
   // Each node's value, visited in the order nodes are added (pre-order by index).
   const stream = documents.length > 1;
+  const scalars: string[] | null = options.keepScalars ? [] : null;
   const pending: (Node | null)[] = [stream ? null : documents[0]];
   sink.add(-1, options.rootName, stream ? 1 : lineOf(documents[0]));
   for (let i = 0; i < sink.length; i++) {
@@ -56,9 +57,17 @@ export function yamlValues(
       });
     }
     sink.ownSize[i] = own - inner;
+    // A scalar's (or an alias's) source text, for a diff to compare (LoadOptions.keepScalars).
+    if (scalars && v?.range && (isScalar(v) || isAlias(v))) scalars[i] = text.slice(v.range[0], v.range[1]);
   }
   sink.hasSizes = true;
-  return sink.finish(options.rootName, new Map(), null, {
+  const fields = new Map<string, string[]>();
+  if (scalars)
+    fields.set(
+      SCALAR_VALUE_FIELD,
+      Array.from({ length: sink.length }, (_, i) => scalars[i] ?? ""),
+    );
+  return sink.finish(options.rootName, fields, null, {
     shape: "values",
     sizeUnit: "bytes",
     ...(stream ? { documents: documents.length } : {}),

@@ -5,7 +5,7 @@ import { diffLineParts } from "./diff-line-parts.js";
 import type { DiffTextOptions } from "./diff-text.js";
 import { diffHeader, markdownHeaderStyle } from "./header.js";
 import { lineGroups } from "./line-groups.js";
-import { markdownHead, markdownLine } from "./markdown-line.js";
+import { markdownDocument } from "./markdown-line.js";
 
 /**
  * A diff as CommonMark: the header as a paragraph, then one list item per line of the text rendering
@@ -20,12 +20,5 @@ export function renderDiffMarkdown(
   const head =
     options.header && diffHeader(totals, options.by, options.header, options, undefined, markdownHeaderStyle);
   const parts = lineGroups(view, options.chains ?? false).map((group) => diffLineParts(group, options));
-  const lines = markdownHead(
-    head,
-    options.legend ? "legend" : options.key ? "key" : undefined,
-    "diff",
-    parts,
-  );
-  for (const line of parts) lines.push(markdownLine(line));
-  return `${lines.join("\n")}\n`;
+  return markdownDocument(head, parts, "diff", options);
 }

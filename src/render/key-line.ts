@@ -1,4 +1,6 @@
+import { safeText } from "../model/safe-text.js";
 import { displayWidth, shortenEnd } from "./display-width.js";
+import type { HeaderOptions } from "./header.js";
 import type { LineParts } from "./line-layout.js";
 import { MARK } from "./marks.js";
 
@@ -14,13 +16,37 @@ export interface KeyFacts {
   readonly marks: ReadonlySet<string>;
   /** Whether a line holds a chain of only children (`a / b`). */
   readonly chains: boolean;
+  /** Whether the lines print sizes (the input has them); default true. */
+  readonly sizes?: boolean;
+  /** What the size measures, as the input calls it (`cost`); default `size`. */
+  readonly sizeName?: string;
+  /** Whether a printed path writes a `/` or `~` inside a name as `~1` or `~0` (JSON Pointer). */
+  readonly pathEscapes?: boolean;
 }
 
-/** The facts a key needs, read off the lines it stands above. */
-export function keyFacts(lines: readonly LineParts[]): KeyFacts {
+/** What the rest of the screen says that the key speaks of: the sizes, their name, the foci's paths. */
+export interface KeyContext {
+  /** Whether the lines print sizes (the input has them); default true. */
+  readonly sizes?: boolean;
+  /** What the size measures, as the input calls it (`cost`); default `size`. */
+  readonly sizeName?: string;
+  /** The foci's paths as the header prints them. */
+  readonly foci?: readonly string[];
+}
+
+/** The facts a key needs, read off the lines it stands above and the header. */
+export function keyFacts(lines: readonly LineParts[], context: KeyContext = {}): KeyFacts {
+  // A printed path (a reference's full entry, a focus in the header) writes a / inside a name as ~1
+  // (RFC 6901, section 3).
+  const escaped = (text: string) => /~[01]/.test(text);
   return {
     marks: new Set(lines.map((l) => l.mark)),
     chains: lines.some((l) => l.labels.length > 1),
+    sizes: context.sizes ?? true,
+    ...(context.sizeName === undefined ? {} : { sizeName: context.sizeName }),
+    pathEscapes:
+      lines.some((l) => l.mark === MARK.reference && escaped(l.numbers)) ||
+      (context.foci ?? []).some(escaped),
   };
 }
 
@@ -38,12 +64,18 @@ export function keyLine(
   style: "text" | "markdown" = "text",
 ): string {
   const marks = markWords(kind, facts.marks, style);
+  const sizes = facts.sizes ?? true;
+  // The size's name comes from the options or a config file: made safe and short as the header does.
+  const size = `a ${facts.sizeName === undefined ? "size" : safeText(facts.sizeName, 40)}`;
   const numbers =
     kind === "diff"
-      ? "N nodes: the node with all below it (removed ones too); a size: NEW's, with all below; net: its change"
-      : "N nodes and a size: the node with all below it";
-  const short = "totals include all below";
-  const chain = facts.chains ? ["a / b: b is a's only child"] : [];
+      ? `N nodes: the node with all below it (removed ones too)${sizes ? `; ${size}: NEW's, with all below; net: its change` : ""}`
+      : `N nodes${sizes ? ` and ${size}` : ""}: the node with all below it`;
+  const short = `${sizes ? "totals" : "counts"} include all below`;
+  const chain = [
+    ...(facts.chains ? ["a / b: b is a's only child"] : []),
+    ...(facts.pathEscapes ? ["in a path ~1 is a / inside a name, ~0 a ~"] : []),
+  ];
   const more = "--legend explains more";
   const tries = [
     [marks, numbers, ...chain, more],
@@ -70,17 +102,26 @@ function markWords(kind: "summary" | "diff", marks: ReadonlySet<string>, style: 
   // A mark is quoted: after "key:" a bare `:` would read as punctuation.
   if (marks.has(MARK.focus) && !md) words.push(`'${MARK.focus}' a focus`);
   if (marks.has(MARK.path))
-    words.push(`${md ? "bold" : `'${MARK.path}'`} ${pathWords(kind, marks.has(MARK.focus))}`);
+    words.push(`${md ? "bold =" : `'${MARK.path}'`} ${pathWords(kind, marks.has(MARK.focus))}`);
   // In a diff a line marked `.` holds no change, in it or below it (a change marks every node above it).
   if (marks.has(MARK.other) && (kind === "diff" || !md))
     words.push(
-      `${md ? "not bold" : `'${MARK.other}'`} ${kind === "diff" ? "nothing changed in it" : alone ? "a node" : "other"}`,
+      `${md ? "not bold =" : `'${MARK.other}'`} ${kind === "diff" ? "nothing changed in it" : alone ? "a node" : "other"}`,
     );
-  if (marks.has(MARK.reference)) words.push(`'${MARK.reference}' shown in full at the path after it`);
+  if (marks.has(MARK.reference)) words.push(`'${MARK.reference}' shown in full elsewhere`);
   return words.join(", ");
 }
 
 function pathWords(kind: "summary" | "diff", focus: boolean): string {
   if (kind === "summary") return "on the way to a focus";
   return focus ? "a change, or on the way to a change or a focus" : "a change or on the way to one";
+}
+
+/** The key's context from a rendering's options: its sizes, and the header's size name and foci. */
+export function keyContext(options: { sizes?: boolean; header?: HeaderOptions }): KeyContext {
+  return {
+    ...(options.sizes === undefined ? {} : { sizes: options.sizes }),
+    ...(options.header?.sizeName === undefined ? {} : { sizeName: options.header.sizeName }),
+    ...(options.header ? { foci: options.header.foci } : {}),
+  };
 }

@@ -1,5 +1,6 @@
 import { CHAIN_JOIN } from "../model/chain-join.js";
-import { keyFacts, keyLine } from "./key-line.js";
+import type { HeaderOptions } from "./header.js";
+import { keyContext, keyFacts, keyLine } from "./key-line.js";
 import type { LineParts } from "./line-layout.js";
 import { markdownText } from "./markdown-escape.js";
 import { legendLines, MARK } from "./marks.js";
@@ -29,25 +30,26 @@ export function markdownLine(p: LineParts): string {
 }
 
 /**
- * The header (already Markdown, see `markdownHeaderStyle`) as a paragraph and the legend (one line each, joined by hard line breaks), then a blank
- * line before the list; nothing without either.
+ * A whole Markdown rendering: the header (already Markdown, see `markdownHeaderStyle`) as a paragraph
+ * with the legend or the key line (one line each, joined by hard line breaks), a blank line, then one
+ * list item per line (see {@link markdownLine}); without a header, legend or key, only the list.
  */
-export function markdownHead(
+export function markdownDocument(
   header: string | undefined,
-  explain: "legend" | "key" | undefined,
-  kind: "summary" | "diff",
   parts: readonly LineParts[],
-): string[] {
+  kind: "summary" | "diff",
+  options: { legend?: boolean; key?: boolean; sizes?: boolean; header?: HeaderOptions },
+): string {
   // The legend and the key are espalier's own words, never input: escaped for Markdown, never cut as a long name is.
-  const explained =
-    explain === "legend"
-      ? legendLines(kind)
-      : explain === "key"
-        ? [keyLine(kind, keyFacts(parts), undefined, "markdown")]
-        : [];
-  const lines = [...(header ? [header] : []), ...explained.map((l) => markdownText(l, false))];
-  if (lines.length === 0) return [];
-  return [...lines.map((l, k) => (k < lines.length - 1 ? `${l}\\` : l)), ""];
+  const explained = options.legend
+    ? legendLines(kind)
+    : options.key
+      ? [keyLine(kind, keyFacts(parts, keyContext(options)), undefined, "markdown")]
+      : [];
+  const head = [...(header ? [header] : []), ...explained.map((l) => markdownText(l, false))];
+  const lines = head.length === 0 ? [] : [...head.map((l, k) => (k < head.length - 1 ? `${l}\\` : l)), ""];
+  for (const line of parts) lines.push(markdownLine(line));
+  return `${lines.join("\n")}\n`;
 }
 
 /**

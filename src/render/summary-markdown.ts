@@ -4,7 +4,7 @@ import type { NumberOptions } from "./amount.js";
 import { type HeaderOptions, markdownHeaderStyle, summaryHeader } from "./header.js";
 import { lineGroups } from "./line-groups.js";
 import { lineParts } from "./line-parts.js";
-import { markdownHead, markdownLine } from "./markdown-line.js";
+import { markdownDocument } from "./markdown-line.js";
 
 export interface MarkdownOptions extends NumberOptions {
   /** Join an only child that is not a focus onto its parent's line (must match the fit's choice). */
@@ -27,12 +27,5 @@ export function renderMarkdown(view: HierarchyNode<ViewNode>, options: MarkdownO
   const head =
     options.header && summaryHeader(view.data, options.header, options, undefined, markdownHeaderStyle);
   const parts = lineGroups(view, options.chains ?? false).map((group) => lineParts(group, options));
-  const lines = markdownHead(
-    head,
-    options.legend ? "legend" : options.key ? "key" : undefined,
-    "summary",
-    parts,
-  );
-  for (const line of parts) lines.push(markdownLine(line));
-  return `${lines.join("\n")}\n`;
+  return markdownDocument(head, parts, "summary", options);
 }

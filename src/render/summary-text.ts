@@ -3,7 +3,7 @@ import { EspalierError } from "../errors.js";
 import type { ViewNode } from "../view/view-node.js";
 import type { NumberOptions } from "./amount.js";
 import { type HeaderOptions, summaryHeaderLines } from "./header.js";
-import { keyFacts, keyLine } from "./key-line.js";
+import { keyContext, keyFacts, keyLine } from "./key-line.js";
 import { lineGroups } from "./line-groups.js";
 import { type LineParts, layoutLine, MIN_WIDTH } from "./line-layout.js";
 import { lineParts } from "./line-parts.js";
@@ -49,7 +49,14 @@ export function renderText(view: HierarchyNode<ViewNode>, options: TextOptions):
  * else the key line for the lines `parts` (see `keyLine`).
  */
 export function headLines(
-  options: { header?: HeaderOptions; legend?: boolean; key?: boolean; width?: number; palette?: Palette },
+  options: {
+    header?: HeaderOptions;
+    legend?: boolean;
+    key?: boolean;
+    width?: number;
+    palette?: Palette;
+    sizes?: boolean;
+  },
   header: (width?: number) => string[],
   kind: "summary" | "diff",
   parts: readonly LineParts[],
@@ -57,7 +64,7 @@ export function headLines(
   const quiet = options.palette?.quiet ?? ((s: string) => s);
   const lines = options.header ? header(options.width).map(quiet) : [];
   if (options.legend) for (const line of legendLines(kind, options.width)) lines.push(quiet(line));
-  else if (options.key) lines.push(quiet(keyLine(kind, keyFacts(parts), options.width)));
+  else if (options.key) lines.push(quiet(keyLine(kind, keyFacts(parts, keyContext(options)), options.width)));
   return lines;
 }
 

@@ -6,7 +6,7 @@ import { diffTrees } from "../../src/diff/diff-trees.js";
 import type { DiffViewNode } from "../../src/diff/diff-view.js";
 import { renderDiffText } from "../../src/render/diff-text.js";
 import { displayWidth } from "../../src/render/display-width.js";
-import { KEY_MIN_BUDGET, keyLine } from "../../src/render/key-line.js";
+import { KEY_MIN_BUDGET, keyFacts, keyLine } from "../../src/render/key-line.js";
 import { MIN_WIDTH } from "../../src/render/line-layout.js";
 import { MARK } from "../../src/render/marks.js";
 import { renderText } from "../../src/render/summary-text.js";
@@ -100,10 +100,44 @@ describe("keyLine(kind, facts, width)", () => {
         expect(displayWidth(keyLine(kind, facts, width))).toBeLessThanOrEqual(width);
   });
 
+  it("speaks of counts only when the input has no sizes", () => {
+    const facts = { marks: new Set([MARK.other]), chains: false, sizes: false };
+    expect(keyLine("summary", facts)).toBe(
+      "key: '.' a node; N nodes: the node with all below it; --legend explains more",
+    );
+    expect(keyLine("diff", facts)).toBe(
+      "key: '.' nothing changed in it; N nodes: the node with all below it (removed ones too); --legend explains more",
+    );
+    expect(keyLine("summary", facts, 50)).toBe("key: '.' a node; counts include all below");
+  });
+
+  it("calls the size what the input calls it, made safe as the header makes it", () => {
+    const facts = { marks: new Set([MARK.other]), chains: false, sizeName: "cost\u001b[2J" };
+    const key = keyLine("summary", facts);
+    expect(key).toContain("N nodes and a cost");
+    // No control character reaches the terminal (the header's safeText shows it escaped).
+    expect(key).not.toMatch(/\u001b/);
+  });
+
+  it("explains ~1 when a printed path writes a / inside a name (RFC 6901, section 3)", () => {
+    const reference = {
+      mark: MARK.reference,
+      labels: ["ledger-core"],
+      numbers: "full entry at @tidewater~1harbor-api",
+    };
+    const other = { mark: MARK.other, labels: ["docs"], numbers: "" };
+    const lines = [reference, other] as unknown as Parameters<typeof keyFacts>[0];
+    expect(keyLine("summary", keyFacts(lines))).toContain("in a path ~1 is a / inside a name, ~0 a ~");
+    expect(keyLine("summary", keyFacts([other] as unknown as typeof lines))).not.toContain("~1");
+    expect(
+      keyLine("summary", keyFacts([other] as unknown as typeof lines, { foci: ["@tidewater~1ledger"] })),
+    ).toContain("~1 is a /");
+  });
+
   it("speaks Markdown's terms there: bold names, not marks", () => {
     const facts = { marks: new Set([MARK.focus, MARK.path, MARK.other]), chains: false };
     expect(keyLine("summary", facts, undefined, "markdown")).toBe(
-      "key: bold on the way to a focus; N nodes and a size: the node with all below it; --legend explains more",
+      "key: bold = on the way to a focus; N nodes and a size: the node with all below it; --legend explains more",
     );
   });
 });

@@ -1,6 +1,6 @@
-import type { Buffer } from "node:buffer";
+import { Buffer } from "node:buffer";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
-import type { LoadOptions } from "../load-options.js";
+import { type LoadOptions, SCALAR_VALUE_FIELD } from "../load-options.js";
 import { checkNoNamedFields } from "../missing-field.js";
 import { NodeSink } from "../node-sink.js";
 import { ByteBuffer } from "./byte-buffer.js";
@@ -29,11 +29,15 @@ export class JsonValueLoader extends JsonTokenizer {
   private readonly keyBytes = new ByteBuffer();
   private keyText: string | null = null;
 
+  /** Each scalar's source text by node (`options.keepScalars`; holes are objects and arrays), else null. */
+  private readonly scalars: string[] | null;
+
   constructor(options: LoadOptions) {
     super(options.limits);
     checkNoNamedFields(options, "values");
     this.options = options;
     this.sink = new NodeSink(options.maxNodes, false);
+    this.scalars = options.keepScalars ? [] : null;
   }
 
   /** Ends the input; the nodes, ready for `buildTree`. */
@@ -43,7 +47,14 @@ export class JsonValueLoader extends JsonTokenizer {
     // The root's own size takes the white space around the value: the whole document is accounted.
     sink.ownSize[0] += this.base - this.rootLength;
     sink.hasSizes = true;
-    return sink.finish(this.options.rootName, new Map(), null, { shape: "values", sizeUnit: "bytes" });
+    const fields = new Map<string, string[]>();
+    const scalars = this.scalars;
+    if (scalars)
+      fields.set(
+        SCALAR_VALUE_FIELD,
+        Array.from({ length: sink.length }, (_, i) => scalars[i] ?? ""),
+      );
+    return sink.finish(this.options.rootName, fields, null, { shape: "values", sizeUnit: "bytes" });
   }
 
   // The length of the top-level value.
@@ -107,24 +118,27 @@ export class JsonValueLoader extends JsonTokenizer {
     }
   }
 
-  protected stringValue(_bytes: Uint8Array, q: number, e: number): void {
-    this.leaf(e - q + 1);
+  protected stringValue(bytes: Uint8Array, q: number, e: number): void {
+    this.leaf(e - q + 1, bytes, q, e + 1);
   }
 
-  protected number(_bytes: Uint8Array, s: number, e: number): void {
-    this.leaf(e - s);
+  protected number(bytes: Uint8Array, s: number, e: number): void {
+    this.leaf(e - s, bytes, s, e);
   }
 
   protected word(word: Uint8Array): void {
-    this.leaf(word.length);
+    this.leaf(word.length, word, 0, word.length);
   }
 
   protected chunkEnd(): void {}
 
-  private leaf(length: number): void {
+  /** A scalar of `length` bytes, its source text `bytes[s, e)`. */
+  private leaf(length: number, bytes: Uint8Array, s: number, e: number): void {
     const i = this.addValue();
     this.sink.ownSize[i] = length;
     this.ended(this.depth - 1, length);
+    if (this.scalars)
+      this.scalars[i] = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString("utf8", s, e);
   }
 
   private grow(): void {

@@ -1,0 +1,72 @@
+import { describe, expect, it } from "vitest";
+import { defaultLoadOptions, loadTree } from "../../src/load/index.js";
+import { SCALAR_VALUE_FIELD } from "../../src/load/load-options.js";
+import { loadTreeFromStream } from "../../src/load/stream/index.js";
+import { cli } from "../helpers/cli.js";
+
+// Field test: two versions of a service description (a cloud SDK's 3 MiB API model on this machine,
+// reduced to an invented harbor-api document) in which one string changed to another of the same
+// length ("ec2" -> "ec3"). A document read as values has nodes named by keys and sized by bytes only,
+// so `espalier diff --fail-on-change` said "0 edited, 0 resized" and exited 0: a silent pass. A diff
+// now compares the scalars' text of two documents read as values (header: "compared: value").
+const oldJson = `{"metadata": {"apiVersion": "2031-04-01", "endpointPrefix": "ec2", "protocol": "query"},
+ "operations": {"ListQuays": {"http": {"method": "GET"}}}}
+`;
+const newJson = oldJson.replace('"ec2"', '"ec3"');
+
+describe("diff of two documents read as values", () => {
+  it("a value changed to one of the same length is an edit, seen by --fail-on-change", async () => {
+    const files = { "old.json": oldJson, "new.json": newJson };
+    const r = await cli(["diff", "old.json", "new.json", "--fail-on-change", "--width", "200"], { files });
+    expect(r.code).toBe(1);
+    expect(r.stderr).toBe("");
+    // Common practice, no source: a changed value is a change. The node's path is its RFC 6901 JSON
+    // Pointer without the leading "/" (metadata/endpointPrefix).
+    expect(r.stdout.split("\n")[0]).toMatch(/ 1 edited \(compared: value\), 0 resized;/);
+    expect(r.stdout).toContain(': [edited value "ec2" -> "ec3"] endpointPrefix  5 B\n');
+    const json = await cli(["diff", "old.json", "new.json", "--format", "json"], { files });
+    const doc = JSON.parse(json.stdout);
+    expect(doc.compared).toEqual(["value"]);
+    expect(doc.changes.edited).toBe(1);
+  });
+
+  it("YAML read as values too; the same document twice is no change", async () => {
+    const a = 'ledger:\n  region: eu-west\n  replicas: 3\n  tags: [a, "b"]\n';
+    const b = 'ledger:\n  region: eu-east\n  replicas: 4\n  tags: [a, "c"]\n';
+    const files = { "a.yaml": a, "b.yaml": b };
+    const r = await cli(["diff", "a.yaml", "b.yaml", "--read-as", "values", "--fail-on-change", "--bare"], {
+      files,
+    });
+    expect(r.code).toBe(1);
+    // YAML 1.2 (§7.3.3 plain scalars, §7.3.2 double-quoted): a scalar compares as written, quotes kept.
+    expect(r.stdout).toContain("[edited value eu-west -> eu-east] region");
+    expect(r.stdout).toContain("[edited value 3 -> 4] replicas");
+    expect(r.stdout).toContain('[edited value "b" -> "c"] 1');
+    const same = await cli(["diff", "a.yaml", "a.yaml", "--read-as", "values", "--fail-on-change"], {
+      files,
+    });
+    expect(same.code).toBe(0);
+  });
+
+  it("a summary keeps no values; a load asked to keeps each scalar's source text, the same in chunks", async () => {
+    const plain = loadTree(oldJson, { ...defaultLoadOptions, readAs: "values" });
+    expect(plain.fields.size).toBe(0);
+    const kept = loadTree(oldJson, { ...defaultLoadOptions, readAs: "values", keepScalars: true });
+    const values = kept.fields.get(SCALAR_VALUE_FIELD) ?? [];
+    // RFC 8259 §7: a string's text is from quotation mark to quotation mark; objects keep "".
+    expect(values.filter((v) => v !== "")).toEqual(['"2031-04-01"', '"ec2"', '"query"', '"GET"']);
+    const bytes = Buffer.from(oldJson, "utf8");
+    for (const cut of [1, 40, 47, 48, 49, 70]) {
+      const chunks = async function* () {
+        yield bytes.subarray(0, cut);
+        yield bytes.subarray(cut);
+      };
+      const streamed = await loadTreeFromStream(chunks(), {
+        ...defaultLoadOptions,
+        readAs: "values",
+        keepScalars: true,
+      });
+      expect(streamed.fields.get(SCALAR_VALUE_FIELD)).toEqual(values);
+    }
+  });
+});
