@@ -86,15 +86,21 @@ export function outputSettings(
 
 /**
  * The reading of an input that espalier chose itself, for the header: children found under a field
- * other than the one asked for, an object keyed by path, every value a node when nothing looked like
- * nodes, or a path list's folder sizes read as totals (`du -ab`). None when `--read-as`,
- * `--children-field` or `--folder-sizes` decided it.
+ * other than the one asked for (`--read-as nodes` says nodes, not which field holds them), an object
+ * keyed by path, every value a node when nothing looked like nodes, or a path list's folder sizes read
+ * as totals (`du -ab`). None when `--read-as`, `--children-field` or `--folder-sizes` decided it.
  */
 export function chosenReading(opts: SharedCliOptions, tree: Tree): HeaderReading | undefined {
   const r = tree.reading;
-  if (r === undefined || opts.readAs !== "auto") return undefined;
-  if (r.shape === "nodes" && r.childrenFieldFound && r.childrenField !== undefined)
+  if (r === undefined) return undefined;
+  if (
+    r.shape === "nodes" &&
+    r.childrenFieldFound &&
+    r.childrenField !== undefined &&
+    opts.readAs !== "values"
+  )
     return { kind: "children", field: r.childrenField };
+  if (opts.readAs !== "auto") return undefined;
   if (r.shape === "path-map" && r.pathMapField !== undefined)
     return { kind: "path-map", field: r.pathMapField };
   if (r.shape === "values") return { kind: "values" };

@@ -89,18 +89,22 @@ export function fieldNotApplicable(
 
 /**
  * FIELD_MISSING for a document that would load as one node although its top-level object (a mapping,
- * in YAML's words) holds objects or arrays under other fields: `fields` are those fields, and the message
- * names the two options that read such a document (`details.remedies`).
+ * in YAML's words), or the one object of a top-level array (`inList`), holds objects or arrays under
+ * other fields: `fields` are those fields, and the message names the two options that read such a
+ * document (`details.remedies`).
  */
 export function loneRoot(
   childrenField: string,
   fields: readonly string[],
   words: "json" | "yaml",
+  inList = false,
 ): EspalierError {
-  const top =
-    words === "json"
-      ? "object's fields holding objects or arrays"
-      : "mapping's fields holding mappings or sequences";
+  const holding =
+    words === "json" ? "fields holding objects or arrays" : "fields holding mappings or sequences";
+  const object = words === "json" ? "object" : "mapping";
+  const top = inList
+    ? `${words === "json" ? "array" : "sequence"}'s one ${object}'s ${holding}`
+    : `${object}'s ${holding}`;
   return new EspalierError(
     "FIELD_MISSING",
     say`no node has the children field "${childrenField}", so the input would be one node; the top-level ${top} are ${quotedList("name", fields)}: name the one holding the children with --children-field, or read every value with --read-as values`,

@@ -267,18 +267,20 @@ export function walkNested<V>(
     }
     fields.set(keepFields[f], kept[f]);
   }
-  if (sink.length === 1 && rootKind === Kind.Map) {
+  // The one node's mapping: the top-level one, or a top-level sequence's one item.
+  const lone = rootKind === Kind.Map ? root : rootKind === Kind.Seq ? access.items(root)[0] : undefined;
+  if (sink.length === 1 && lone !== undefined && access.kind(lone) === Kind.Map) {
     // One node, from a top-level mapping that holds more than that node: say so, never print one line.
     keys.length = 0;
     values.length = 0;
-    access.entries(root, keys, values);
+    access.entries(lone, keys, values);
     const nested = keys.filter((key, k) => {
       if (key === childrenField || key === nameField || key === sizeField || keepFields.includes(key))
         return false;
       const kind = access.kind(values[k]);
       return kind === Kind.Map || kind === Kind.Seq;
     });
-    if (nested.length > 0) throw loneRoot(childrenField, nested, "yaml");
+    if (nested.length > 0) throw loneRoot(childrenField, nested, "yaml", rootKind === Kind.Seq);
   }
   if (!sink.hasSizes && sizeFieldNamed(options)) throw missingField("size", sizeField, seen.list(), true);
   if (!hasNames && nameFieldNamed(options)) throw missingField("name", nameField, seen.list(), true);

@@ -130,6 +130,8 @@ export class JsonLoader extends JsonTokenizer {
   // The top-level node object's last key, and its fields holding an object or array that are not its
   // children (a lone root with these is not what the input holds: see `end`).
   private rootKey = "";
+  /** Whether the top level is an array (of nodes or rows). */
+  private topList = false;
   private readonly rootContainers: string[] = [];
 
   // What the next value is for, and what each open container is.
@@ -181,7 +183,7 @@ export class JsonLoader extends JsonTokenizer {
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the top-level array holds no nodes");
     if (sink.length === 1 && this.rootContainers.length > 0)
-      throw loneRoot(this.options.childrenField, this.rootContainers, "json");
+      throw loneRoot(this.options.childrenField, this.rootContainers, "json", this.topList);
     for (let i = 0; i < sink.length && !sink.hasSizes; i++) if (this.sized[i] === 1) sink.hasSizes = true;
     if (!sink.hasSizes && sizeFieldNamed(this.options))
       throw missingField("size", this.options.sizeField, this.seen.list(), true);
@@ -232,7 +234,8 @@ export class JsonLoader extends JsonTokenizer {
       const fields = this.fields;
       let found = -1;
       this.frames[top].fieldCount++;
-      if (top === 0) this.rootKey = this.text(bytes, q, e, absQ);
+      if (top === 0 || (top === 1 && this.role[0] === TOP_LIST && this.frames[1].node === 0))
+        this.rootKey = this.text(bytes, q, e, absQ);
       if (this.seen.wants(this.frames[top].node)) this.seen.add(this.text(bytes, q, e, absQ));
       if (this.escaped) {
         const text = this.text(bytes, q, e, absQ);
@@ -414,7 +417,9 @@ export class JsonLoader extends JsonTokenizer {
       this.frames[top] = frame;
     }
     const parentFrame = top > 0 ? this.frames[top - 1] : frame;
-    if (top === 1 && this.role[0] === NODE && this.rootContainers.length < 12) {
+    // A field of the top node (the top-level object, or the first element of a top-level array) that
+    // holds an object or array: a sign of more than one node (see `end`).
+    if (this.rootContainers.length < 12 && (top === 1 ? this.role[0] === NODE : this.inFirstItem(top))) {
       // Children, and the fields a node is read for (name, size, kept), are no sign of more.
       if (this.slot !== S_FIELD) this.rootContainers.push(this.rootKey);
     }
@@ -432,6 +437,7 @@ export class JsonLoader extends JsonTokenizer {
         } else {
           role = this.probe.rows ? ROWS : TOP_LIST;
           slot = itemSlot[role];
+          this.topList = true;
         }
         break;
       case S_TOP_ITEM:
@@ -506,6 +512,11 @@ export class JsonLoader extends JsonTokenizer {
     }
     this.role[top] = role;
     this.slot = slot;
+  }
+
+  /** Whether a container opening at level `top` is a field value of the first element of a top-level array. */
+  private inFirstItem(top: number): boolean {
+    return top === 2 && this.role[0] === TOP_LIST && this.role[1] === NODE && this.frames[1].node === 0;
   }
 
   private nodeFrame(frame: Frame, node: number, keyed: boolean): void {
