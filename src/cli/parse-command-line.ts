@@ -82,7 +82,7 @@ export function parseCommandLine(argv: readonly string[]): CommandLine {
       inline = arg.length > 2 ? arg.slice(2) : undefined;
     }
     const flags = byName.get(name);
-    if (!flags) throw unknownOption(name);
+    if (!flags) throw unknownOption(name, command);
     if (flags.switchValue !== undefined) {
       if (inline !== undefined && arg.startsWith("--"))
         throw usage(`${flags.long} takes no value (given ${JSON.stringify(inline)})`, { option: flags.long });
@@ -91,7 +91,7 @@ export function parseCommandLine(argv: readonly string[]): CommandLine {
         // Grouped one-letter switches.
         for (const letter of inline) {
           const next = byName.get(`-${letter}`);
-          if (!next) throw unknownOption(`-${letter}`);
+          if (!next) throw unknownOption(`-${letter}`, command);
           if (next.switchValue === undefined)
             throw usage(`${next.short} takes a value; give it on its own`, { option: next.long });
           set(next, `-${letter}`, next.switchValue);
@@ -137,13 +137,19 @@ export function commandLabel(command: CommandName): string {
   return command === "summary" ? "espalier INPUT" : `espalier ${command}`;
 }
 
-function unknownOption(name: string): EspalierError {
+/**
+ * USAGE for an option no command has, naming the help that lists the options of `command` (the command
+ * named so far: `espalier diff --exit-code` points at `espalier diff --help`, whose options the summary's
+ * help does not list).
+ */
+function unknownOption(name: string, command: CommandName): EspalierError {
   const suggestion = didYouMean(
     name,
     [...flagsByKey.values()].map((f) => f.long),
   );
+  const help = command === "summary" ? "espalier --help" : `espalier ${command} --help`;
   return usage(
-    `unknown option ${name}${suggestion === undefined ? "" : `; did you mean ${suggestion}?`} (espalier --help lists them)`,
+    `unknown option ${name}${suggestion === undefined ? "" : `; did you mean ${suggestion}?`} (${help} lists them)`,
     suggestion === undefined ? { option: name } : { option: name, suggestion },
   );
 }

@@ -57,8 +57,8 @@ export function yamlValues(
       });
     }
     sink.ownSize[i] = own - inner;
-    // A scalar's (or an alias's) source text, for a diff to compare (LoadOptions.keepScalars).
-    if (scalars && v?.range && (isScalar(v) || isAlias(v))) scalars[i] = text.slice(v.range[0], v.range[1]);
+    // A scalar's value for a diff to compare (LoadOptions.keepScalars), as JSON's value reader keeps it.
+    if (scalars && v?.range && (isScalar(v) || isAlias(v))) scalars[i] = scalarText(v, text);
   }
   sink.hasSizes = true;
   const fields = new Map<string, string[]>();
@@ -72,6 +72,19 @@ export function yamlValues(
     sizeUnit: "bytes",
     ...(stream ? { documents: documents.length } : {}),
   });
+}
+
+/**
+ * A scalar as a diff compares it, alike in YAML and JSON (json-value-loader.ts): a string as JSON
+ * writes it (`"eu-west"`, whether plain, quoted or a block in the source: YAML 1.2 §7, §8), a boolean
+ * or null as JSON's word, a number and an alias (`*base`) as written.
+ */
+function scalarText(v: Node, text: string): string {
+  const source = text.slice(v.range![0], v.range![1]);
+  if (!isScalar(v)) return source;
+  if (typeof v.value === "string") return JSON.stringify(v.value);
+  if (typeof v.value === "boolean" || v.value === null) return String(v.value);
+  return source;
 }
 
 /** A mapping key as text: a scalar's value ("" for null), else the key as written. */

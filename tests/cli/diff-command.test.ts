@@ -61,6 +61,9 @@ describe("espalier diff OLD NEW", () => {
     const r = await cli(["diff", at("old.paths"), at("new.paths"), "--exit-code"]);
     expect(r.code).toBe(2); // POSIX diff: >1 = an error occurred
     expect(r.stderr).toMatch(/^espalier: .*\[USAGE\]\n$/);
+    // Field test: the message pointed at espalier --help, which lists the summary's options, not diff's
+    // (--fail-on-change is in espalier diff --help).
+    expect(r.stderr).toContain("(espalier diff --help lists them)");
     expect(r.stdout).toBe("");
   });
 

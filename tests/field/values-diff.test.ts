@@ -38,8 +38,9 @@ describe("diff of two documents read as values", () => {
       files,
     });
     expect(r.code).toBe(1);
-    // YAML 1.2 (§7.3.3 plain scalars, §7.3.2 double-quoted): a scalar compares as written, quotes kept.
-    expect(r.stdout).toContain("[edited value eu-west -> eu-east] region");
+    // YAML 1.2 (§7.3.3 plain scalars, §7.3.2 double-quoted): a plain and a quoted string are both
+    // strings, compared by value and shown as JSON writes them; a number as written.
+    expect(r.stdout).toContain('[edited value "eu-west" -> "eu-east"] region');
     expect(r.stdout).toContain("[edited value 3 -> 4] replicas");
     expect(r.stdout).toContain('[edited value "b" -> "c"] 1');
     const same = await cli(["diff", "a.yaml", "a.yaml", "--read-as", "values", "--fail-on-change"], {
@@ -48,12 +49,26 @@ describe("diff of two documents read as values", () => {
     expect(same.code).toBe(0);
   });
 
+  it("values, not spellings: JSON escapes, and the same values in JSON and YAML, are no edit", async () => {
+    const files = {
+      "a.json": '{"ledger": {"region": "eu-west", "replicas": 3, "on": true, "tags": ["a", null]}}',
+      // RFC 8259 §7: "\u0061" is the string "a".
+      "b.json": '{"ledger": {"region": "eu-west", "replicas": 3, "on": true, "tags": ["\\u0061", null]}}',
+      // YAML 1.2 core schema (§10.3.2): true and null are the booleans and null of JSON.
+      "c.yaml": "ledger:\n  region: 'eu-west'\n  replicas: 3\n  on: true\n  tags: [a, null]\n",
+    };
+    for (const other of ["b.json", "c.yaml"]) {
+      const r = await cli(["diff", "a.json", other, "--read-as", "values", "--format", "json"], { files });
+      expect(JSON.parse(r.stdout).changes.edited).toBe(0);
+    }
+  });
+
   it("a summary keeps no values; a load asked to keeps each scalar's source text, the same in chunks", async () => {
     const plain = loadTree(oldJson, { ...defaultLoadOptions, readAs: "values" });
     expect(plain.fields.size).toBe(0);
     const kept = loadTree(oldJson, { ...defaultLoadOptions, readAs: "values", keepScalars: true });
     const values = kept.fields.get(SCALAR_VALUE_FIELD) ?? [];
-    // RFC 8259 §7: a string's text is from quotation mark to quotation mark; objects keep "".
+    // RFC 8259 §7: a string's value, written back as JSON; objects keep "".
     expect(values.filter((v) => v !== "")).toEqual(['"2031-04-01"', '"ec2"', '"query"', '"GET"']);
     const bytes = Buffer.from(oldJson, "utf8");
     for (const cut of [1, 40, 47, 48, 49, 70]) {

@@ -118,8 +118,11 @@ export class JsonValueLoader extends JsonTokenizer {
     }
   }
 
-  protected stringValue(bytes: Uint8Array, q: number, e: number): void {
-    this.leaf(e - q + 1, bytes, q, e + 1);
+  protected stringValue(bytes: Uint8Array, q: number, e: number, absQ: number): void {
+    // Kept as its value (escapes read, RFC 8259 §7) written as JSON, so "\u0061" and "a" are one value
+    // and a YAML version's strings compare alike (yaml-values.ts).
+    const text = this.scalars ? JSON.stringify(this.text(bytes, q, e, absQ)) : undefined;
+    this.leaf(e - q + 1, bytes, q, e + 1, text);
   }
 
   protected number(bytes: Uint8Array, s: number, e: number): void {
@@ -132,13 +135,14 @@ export class JsonValueLoader extends JsonTokenizer {
 
   protected chunkEnd(): void {}
 
-  /** A scalar of `length` bytes, its source text `bytes[s, e)`. */
-  private leaf(length: number, bytes: Uint8Array, s: number, e: number): void {
+  /** A scalar of `length` bytes, its source text `bytes[s, e)` (kept as `text` when given). */
+  private leaf(length: number, bytes: Uint8Array, s: number, e: number, text?: string): void {
     const i = this.addValue();
     this.sink.ownSize[i] = length;
     this.ended(this.depth - 1, length);
     if (this.scalars)
-      this.scalars[i] = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString("utf8", s, e);
+      this.scalars[i] =
+        text ?? Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString("utf8", s, e);
   }
 
   private grow(): void {
