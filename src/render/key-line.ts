@@ -55,7 +55,8 @@ export function keyFacts(lines: readonly LineParts[], context: KeyContext = {}):
  * without the docs can read the screen: printed by default (not with `--bare`, `--legend` or
  * `--no-key`, nor for a budget under {@link KEY_MIN_BUDGET}); the budget counts it. Always one line:
  * within `width` it says less (shorter words for the numbers, then no chain and no pointer to
- * `--legend`, then only the marks, cut at the end), never wraps, so it can be counted before the fit.
+ * `--legend`, then only the marks, then the marks in a word or two each, cut at the end), never
+ * wraps, so it can be counted before the fit.
  */
 export function keyLine(
   kind: "summary" | "diff",
@@ -83,12 +84,15 @@ export function keyLine(
     [marks, short, more],
     [marks, short],
     [marks],
+    // A narrow terminal: each mark in a word or two, so all of them fit before any is cut.
+    [compactMarks(kind, facts.marks, style), short],
+    [compactMarks(kind, facts.marks, style)],
   ];
   for (const parts of tries) {
     const text = `key: ${parts.filter((part) => part !== "").join("; ")}`;
     if (width === undefined || displayWidth(text) <= width) return text;
   }
-  return shortenEnd(`key: ${marks}`, width!);
+  return shortenEnd(`key: ${compactMarks(kind, facts.marks, style)}`, width!);
 }
 
 /**
@@ -124,4 +128,20 @@ export function keyContext(options: { sizes?: boolean; header?: HeaderOptions })
     ...(options.header?.sizeName === undefined ? {} : { sizeName: options.header.sizeName }),
     ...(options.header ? { foci: options.header.foci } : {}),
   };
+}
+
+/** The marks present in a word or two each, for a narrow line (see {@link keyLine}). */
+function compactMarks(
+  kind: "summary" | "diff",
+  marks: ReadonlySet<string>,
+  style: "text" | "markdown",
+): string {
+  if (style === "markdown") return markWords(kind, marks, style);
+  const words: string[] = [];
+  if (marks.has(MARK.focus)) words.push(`'${MARK.focus}' focus`);
+  if (marks.has(MARK.path))
+    words.push(`'${MARK.path}' ${kind === "diff" ? "change or above one" : "above a focus"}`);
+  if (marks.has(MARK.other)) words.push(`'${MARK.other}' ${kind === "diff" ? "unchanged" : "other"}`);
+  if (marks.has(MARK.reference)) words.push(`'${MARK.reference}' elsewhere`);
+  return words.join(", ");
 }

@@ -94,7 +94,9 @@ describe("keyLine(kind, facts, width)", () => {
       "key: '*' a focus, ':' on the way to a focus, '.' other; totals include all below",
     );
     expect(keyLine("summary", facts, 56)).toBe("key: '*' a focus, ':' on the way to a focus, '.' other");
-    expect(keyLine("summary", facts, MIN_WIDTH)).toBe("key: '*' a focus, ':' on the …");
+    // Narrower: each mark in a word or two, so every mark still has its meaning.
+    expect(keyLine("summary", facts, 50)).toBe("key: '*' focus, ':' above a focus, '.' other");
+    expect(keyLine("summary", facts, MIN_WIDTH)).toBe("key: '*' focus, ':' above a f…");
     for (let width = MIN_WIDTH; width <= 200; width++)
       for (const kind of ["summary", "diff"] as const)
         expect(displayWidth(keyLine(kind, facts, width))).toBeLessThanOrEqual(width);
