@@ -65,6 +65,7 @@ export function keyLine(
   style: "text" | "markdown" = "text",
 ): string {
   const marks = markWords(kind, facts.marks, style);
+  const compact = style === "markdown" ? marks : markWords(kind, facts.marks, style, true);
   const sizes = facts.sizes ?? true;
   // The size's name comes from the options or a config file: made safe and short as the header does.
   const size = `a ${facts.sizeName === undefined ? "size" : safeText(facts.sizeName, 40)}`;
@@ -85,34 +86,55 @@ export function keyLine(
     [marks, short],
     [marks],
     // A narrow terminal: each mark in a word or two, so all of them fit before any is cut.
-    [compactMarks(kind, facts.marks, style), short],
-    [compactMarks(kind, facts.marks, style)],
+    [compact, short],
+    [compact],
   ];
   for (const parts of tries) {
     const text = `key: ${parts.filter((part) => part !== "").join("; ")}`;
     if (width === undefined || displayWidth(text) <= width) return text;
   }
-  return shortenEnd(`key: ${compactMarks(kind, facts.marks, style)}`, width!);
+  return shortenEnd(`key: ${compact}`, width!);
 }
 
 /**
- * The marks present, each with its meaning, in a fixed order. Markdown shows them otherwise (see
- * `markdownLine`): a focus says "(focus)" and is bold, a line on the way to one is bold.
+ * The marks present, each with its meaning, in a fixed order; `compact`: in a word or two each, for a
+ * narrow line. Markdown shows them otherwise (see `markdownLine`), and never narrow: a focus says
+ * "(focus)" and is bold, a line on the way to one is bold.
  */
-function markWords(kind: "summary" | "diff", marks: ReadonlySet<string>, style: "text" | "markdown"): string {
-  const alone = marks.size === 1;
+function markWords(
+  kind: "summary" | "diff",
+  marks: ReadonlySet<string>,
+  style: "text" | "markdown",
+  compact = false,
+): string {
   const md = style === "markdown";
+  const diff = kind === "diff";
   const words: string[] = [];
   // A mark is quoted: after "key:" a bare `:` would read as punctuation.
-  if (marks.has(MARK.focus) && !md) words.push(`'${MARK.focus}' a focus`);
-  if (marks.has(MARK.path))
-    words.push(`${md ? "bold =" : `'${MARK.path}'`} ${pathWords(kind, marks.has(MARK.focus))}`);
+  const say = (mark: string, meaning: string) => words.push(`'${mark}' ${meaning}`);
+  if (marks.has(MARK.focus) && !md) say(MARK.focus, compact ? "focus" : "a focus");
+  if (marks.has(MARK.path)) {
+    const meaning = compact
+      ? diff
+        ? "change or above one"
+        : "above a focus"
+      : pathWords(kind, marks.has(MARK.focus));
+    if (md) words.push(`bold = ${meaning}`);
+    else say(MARK.path, meaning);
+  }
   // In a diff a line marked `.` holds no change, in it or below it (a change marks every node above it).
-  if (marks.has(MARK.other) && (kind === "diff" || !md))
-    words.push(
-      `${md ? "not bold =" : `'${MARK.other}'`} ${kind === "diff" ? "nothing changed in it" : alone ? "a node" : "other"}`,
-    );
-  if (marks.has(MARK.reference)) words.push(`'${MARK.reference}' shown in full elsewhere`);
+  if (marks.has(MARK.other) && (diff || !md)) {
+    const meaning = diff
+      ? compact
+        ? "unchanged"
+        : "nothing changed in it"
+      : marks.size === 1
+        ? "a node"
+        : "other";
+    if (md) words.push(`not bold = ${meaning}`);
+    else say(MARK.other, meaning);
+  }
+  if (marks.has(MARK.reference)) say(MARK.reference, compact ? "elsewhere" : "shown in full elsewhere");
   return words.join(", ");
 }
 
@@ -128,20 +150,4 @@ export function keyContext(options: { sizes?: boolean; header?: HeaderOptions })
     ...(options.header?.sizeName === undefined ? {} : { sizeName: options.header.sizeName }),
     ...(options.header ? { foci: options.header.foci } : {}),
   };
-}
-
-/** The marks present in a word or two each, for a narrow line (see {@link keyLine}). */
-function compactMarks(
-  kind: "summary" | "diff",
-  marks: ReadonlySet<string>,
-  style: "text" | "markdown",
-): string {
-  if (style === "markdown") return markWords(kind, marks, style);
-  const words: string[] = [];
-  if (marks.has(MARK.focus)) words.push(`'${MARK.focus}' focus`);
-  if (marks.has(MARK.path))
-    words.push(`'${MARK.path}' ${kind === "diff" ? "change or above one" : "above a focus"}`);
-  if (marks.has(MARK.other)) words.push(`'${MARK.other}' ${kind === "diff" ? "unchanged" : "other"}`);
-  if (marks.has(MARK.reference)) words.push(`'${MARK.reference}' elsewhere`);
-  return words.join(", ");
 }
