@@ -51,3 +51,30 @@ describe("ids past 2^53 - 1 as JSON or YAML numbers", () => {
     expect(r.stdout).toBe(". harbor / quay  2 nodes\n");
   });
 });
+
+describe("whole numbers past 2^53 - 1 as names and compared fields", () => {
+  it("keep their digits: two such names stay two, a change between them is an edit (JSON and YAML)", async () => {
+    // RFC 8259 §6; read as doubles both were 12345678901234567000, and the diff saw no change, exit 0.
+    const json = (n: string) => `{"name": "harbor", "children": [{"name": "quay", "serial": ${n}}]}`;
+    const files = {
+      "a.json": json("12345678901234567891"),
+      "b.json": json("12345678901234567892"),
+      "a.yaml": "name: harbor\nchildren:\n  - name: 12345678901234567891\n  - name: 12345678901234567892\n",
+    };
+    const r = await cli(
+      ["diff", "a.json", "b.json", "--compare-field", "serial", "--fail-on-change", "--bare"],
+      {
+        files,
+      },
+    );
+    expect(r.code).toBe(1);
+    expect(r.stdout).toContain("[edited serial 12345678901234567891 -> 12345678901234567892] quay");
+    const y = await cli(["a.yaml", "--bare"], { files });
+    expect(y.stdout).toBe(". harbor  3 nodes\n  . 12345678901234567891\n  . 12345678901234567892\n");
+    // Below 2^53 a number is its value, as JSON.parse reads it (docs/diff.md): 7e0 and 7 are one.
+    const same = await cli(["diff", "a.json", "c.json", "--compare-field", "serial", "--fail-on-change"], {
+      files: { ...files, "a.json": json("7"), "c.json": json("7e0") },
+    });
+    expect(same.code).toBe(0);
+  });
+});
