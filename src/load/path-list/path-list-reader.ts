@@ -63,6 +63,8 @@ export class PathListReader {
   private readonly placer: PathPlacer;
   /** The byte that ends an entry: "\n", or NUL. */
   private readonly separator: number;
+  /** Whether an entry's end has been read yet (see `noSeparator`). */
+  private sawSeparator = false;
   /** Whether the format was detected, not asked for (`--input-format paths`). */
   private readonly detected: boolean;
   /** Unsized lists: non-blank lines, and those that start with a number and a space (see `end`). */
@@ -114,6 +116,7 @@ export class PathListReader {
       from = first + 1;
     }
     const last = chunk.lastIndexOf(this.separator);
+    if (last !== -1) this.sawSeparator = true;
     if (last < from) {
       if (from < chunk.length) this.wait(chunk.subarray(from));
       return;
@@ -127,6 +130,7 @@ export class PathListReader {
     this.waiting.push(bytes);
     this.waitingBytes += bytes.length;
     if (this.waitingBytes > this.maxLineBytes) {
+      this.noSeparator(Buffer.concat(this.waiting));
       const line = this.line + 1;
       throw tooLong(`line ${line}`, this.maxLineBytes, { line, column: 1 });
     }
@@ -136,6 +140,7 @@ export class PathListReader {
   end(): LinkedNodes {
     const rest = Buffer.concat(this.waiting);
     this.waiting = [];
+    this.noSeparator(rest);
     this.lines(rest, 0, rest.length);
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the path list names no paths");
@@ -242,6 +247,25 @@ export class PathListReader {
       "PARSE_PATHS",
       "a path list line holds a NUL byte, which no file name can: for a NUL-separated list (find -print0, git ls-files -z) pass --nul-separated; UTF-16 input needs a byte-order mark or iconv first",
       { line, column },
+    );
+  }
+
+  /**
+   * PARSE_PATHS when entries should end with NUL (`--nul-separated`) but none has ended yet and `rest`,
+   * the input read so far, holds a line break: a list of one path per line (`find -printf '%s\t%p\n'`,
+   * `du -ab`) read so would be one entry, every later line part of its last name, with exit 0. Lists
+   * that are NUL-separated end every entry with NUL (`find -print0`, `git ls-files -z`; from memory), so
+   * a line break with no NUL anywhere before it is not one; one path with no end and no line break
+   * (`printf 'a/b'`) is still read.
+   */
+  private noSeparator(rest: Buffer): void {
+    if (this.separator !== 0 || this.sawSeparator) return;
+    const at = rest.indexOf(newline);
+    if (at === -1) return;
+    throw new EspalierError(
+      "PARSE_PATHS",
+      "--nul-separated reads entries ended by a NUL byte, but the input has none and holds line breaks: it lists one path per line, so leave out --nul-separated",
+      { line: 1, column: rest.toString("utf8", 0, at).length + 1 },
     );
   }
 

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { loadTree } from "../../../src/load/index.js";
+import { loadTreeFromStream } from "../../../src/load/stream/index.js";
 import { caught, opts, outline } from "../helpers.js";
 
 const paths = (text: string, overrides = {}) => loadTree(text, opts({ format: "paths", ...overrides }));
@@ -92,6 +93,32 @@ describe("loadTree(paths)", () => {
     expect(later.pos).toEqual({ line: 3, column: 4 });
     // The same bytes with the option are the list they are.
     expect(outline(paths("a/b\0a/c\0", { nulSeparated: true }))).toEqual(["a", "  b", "  c"]);
+  });
+
+  it("loadTree(paths) with nulSeparated refuses a list of one path per line instead of reading it as one entry", async () => {
+    // du -ab and find -printf '%s\t%p\n' end each entry with a line break; find -print0 and git ls-files -z
+    // end every entry, the last too, with NUL (their manuals; from memory). Read as one entry, du's
+    // listing was "57 nodes, size 3 B" with exit 0 (espalier - --nul-separated, du -ab of a small folder).
+    const du = "3\t/quill/nl\n4099\t/quill\n";
+    const whole = caught(() => paths(du, { nulSeparated: true }));
+    expect(whole.code).toBe("PARSE_PATHS");
+    expect(whole.pos).toEqual({ line: 1, column: 12 });
+    // Streamed in chunks, and past the longest line: the same error, not LIMIT_EXCEEDED.
+    const limits = { maxLineBytes: 14 };
+    const streamed = await loadTreeFromStream(
+      (async function* () {
+        for (let at = 0; at < du.length; at += 3) yield Buffer.from(du.slice(at, at + 3));
+      })(),
+      opts({ format: "paths", nulSeparated: true, limits }),
+    ).catch((e: unknown) => e);
+    expect(streamed).toMatchObject({ code: "PARSE_PATHS", pos: { line: 1, column: 12 } });
+    // One path with no end and no line break is still one path; a NUL anywhere makes breaks part of names.
+    expect(outline(paths("quill/a b", { nulSeparated: true }))).toEqual(["quill", "  a b"]);
+    expect(outline(paths("quill/two\nlines\0quill/c", { nulSeparated: true }))).toEqual([
+      "quill",
+      "  two\nlines",
+      "  c",
+    ]);
   });
 
   it("loadTree(paths) stops with LIMIT_EXCEEDED at the line that adds one node too many", () => {
