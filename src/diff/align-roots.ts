@@ -42,7 +42,18 @@ export function underRoot(tree: Tree, rootName: string): Tree {
     fields,
     syntheticRoot: true,
     ...(tree.referenceTo ? { referenceTo: shifted(tree.referenceTo) } : {}),
+    // How the input was read (its size unit, children field, values reading) and which nodes are empty
+    // `{}` or have elided descendants stay the tree's: the new root is none of those.
+    ...(tree.reading ? { reading: tree.reading } : {}),
+    ...(tree.empty ? { empty: oneDown(new Uint8Array(n), tree.empty) } : {}),
+    ...(tree.elided ? { elided: oneDown(new Float64Array(n), tree.elided) } : {}),
   };
+}
+
+/** `values` one slot down in `out` (slot 0, the new root, left 0). */
+function oneDown<T extends Uint8Array | Float64Array>(out: T, values: T): T {
+  out.set(values, 1);
+  return out;
 }
 
 /** A graph's references one slot down, under the new root (which is no reference). */

@@ -108,14 +108,23 @@ export interface LoadOptions {
   folderSizes?: "own" | "total";
   /**
    * JSON and YAML read as values: keep each scalar's source text (`"ec2"`, `1.0`, `true`) as the record
-   * field {@link SCALAR_VALUE_FIELD}, "" for an object or array, so that a diff compares values and not
-   * only names and byte lengths (a value changed to one of the same length changes neither).
+   * field {@link SCALAR_VALUE_FIELD}, {@link EMPTY_OBJECT} for an object and {@link EMPTY_ARRAY} for an
+   * array, so that a diff compares values and not only names and byte lengths (a value changed to one
+   * of the same length changes neither, nor does `[]` changed to `{}`).
    */
   keepScalars?: boolean;
 }
 
 /** The record field under which a document read as values keeps its scalars' text (`keepScalars`). */
 export const SCALAR_VALUE_FIELD = "value";
+/**
+ * The {@link SCALAR_VALUE_FIELD} of an object and of an array, whatever they hold: their members are
+ * nodes of their own, so only the kind is compared. `[]` and `{}` are not one value (RFC 8259 §4, §5:
+ * an object and an array are two kinds of value; YAML 1.2 §3.2.1.1: a mapping and a sequence), and no
+ * scalar is kept so (strings are kept as JSON writes them, quoted).
+ */
+export const EMPTY_OBJECT = "{}";
+export const EMPTY_ARRAY = "[]";
 
 export const defaultLoadOptions: LoadOptions = {
   nameField: "name",

@@ -1,7 +1,7 @@
 import { Buffer } from "node:buffer";
 import { isAlias, isMap, isScalar, isSeq, type LineCounter, type Node } from "yaml";
 import type { LinkedNodes } from "../model/linked-nodes.js";
-import { type LoadOptions, SCALAR_VALUE_FIELD } from "./load-options.js";
+import { EMPTY_ARRAY, EMPTY_OBJECT, type LoadOptions, SCALAR_VALUE_FIELD } from "./load-options.js";
 import { checkNoNamedFields } from "./missing-field.js";
 import { NodeSink } from "./node-sink.js";
 
@@ -59,6 +59,7 @@ export function yamlValues(
     sink.ownSize[i] = own - inner;
     // A scalar's value for a diff to compare (LoadOptions.keepScalars), as JSON's value reader keeps it.
     if (scalars && v?.range && (isScalar(v) || isAlias(v))) scalars[i] = scalarText(v, text);
+    else if (scalars) scalars[i] = isMap(v) ? EMPTY_OBJECT : isSeq(v) ? EMPTY_ARRAY : "";
   }
   sink.hasSizes = true;
   const fields = new Map<string, string[]>();

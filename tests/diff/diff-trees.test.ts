@@ -12,6 +12,8 @@ import {
 import type { DiffViewNode } from "../../src/diff/diff-view.js";
 import { EspalierError } from "../../src/errors.js";
 import { importance } from "../../src/interest/importance.js";
+import { loadTree } from "../../src/load/index.js";
+import { defaultLoadOptions } from "../../src/load/load-options.js";
 import { measure } from "../../src/model/measure.js";
 import { namesToArray, StringNames } from "../../src/model/names.js";
 import type { Tree } from "../../src/model/tree.js";
@@ -148,6 +150,25 @@ describe("diffTrees(old, new, options)", () => {
     expect(several.syntheticRoot).toBe(true);
     const result = run(one, several);
     expect(changeList(result)).toEqual(["B added"]);
+  });
+
+  it("keeps how a version was read when it is put under a root: its size unit, empty entries", () => {
+    // A listing whose one top-level file went (find -printf '%s\t%P\n' minus the root line) and an
+    // `npm ls --json`-shaped document that lost its second root: NEW is put under a root. Before, the
+    // diff printed NEW's byte sizes as plain numbers and counted its empty entry `{}` as 0.
+    const paths = (text: string) => loadTree(text, { ...defaultLoadOptions, format: "paths" });
+    const listing = run(paths("5000\tsrc/a\n3000\tREADME\n"), paths("5000\tsrc/a\n7000\tsrc/b\n"));
+    expect(listing.combined.tree.reading?.sizeUnit).toBe("bytes");
+    expect(changeList(listing)).toEqual(["b added", "README removed"]);
+    const npm = (text: string) => loadTree(text, { ...defaultLoadOptions, format: "json" });
+    const lost = run(
+      npm('[{"name": "app", "dependencies": {"x": {}, "y": {"version": "1"}}}, {"name": "tool"}]'),
+      npm('{"name": "app", "dependencies": {"x": {}, "y": {"version": "1"}}}'),
+    );
+    expect(lost.totals.old.empty).toBe(1);
+    expect(lost.totals.new.empty).toBe(1);
+    expect(lost.combined.tree.reading?.childrenField).toBe("dependencies");
+    expect(changeList(lost)).toEqual(["tool removed"]);
   });
 
   it("recovers a random edit script exactly when nodes have ids", () => {

@@ -63,13 +63,42 @@ describe("diff of two documents read as values", () => {
     }
   });
 
+  it("an array changed to an object (or back) is an edit, even empty and of the same length", async () => {
+    // Field test: `env: []` -> `env: {}` in a deployment file gave "0 edited, 0 resized" and exit 0
+    // under --fail-on-change (both 2 bytes, no members). RFC 8259 §4-§5 and YAML 1.2 §3.2.1.1: an
+    // object (mapping) and an array (sequence) are two kinds of value.
+    const files = {
+      "a.yaml": "harbor:\n  env: []\n  ports: [80]\n",
+      "b.yaml": "harbor:\n  env: {}\n  ports: {0: 80}\n",
+      "a.json": '{"env": [], "ports": [80]}',
+      "c.json": '{"env": {}, "ports": [80]}',
+    };
+    const yaml = await cli(
+      ["diff", "a.yaml", "b.yaml", "--read-as", "values", "--fail-on-change", "--bare"],
+      {
+        files,
+      },
+    );
+    expect(yaml.code).toBe(1);
+    expect(yaml.stdout).toContain("[edited value [] -> {}] env");
+    expect(yaml.stdout).toContain("[edited value [] -> {}, +3 B] ports");
+    const json = await cli(["diff", "a.json", "c.json", "--fail-on-change", "--format", "json"], { files });
+    expect(json.code).toBe(1);
+    expect(JSON.parse(json.stdout).changes.edited).toBe(1);
+    // The same kinds in JSON and YAML are no edit: the kind is compared, not how it is written.
+    const same = await cli(["diff", "a.json", "a.yaml", "--read-as", "values", "--format", "json"], {
+      files: { ...files, "a.yaml": "env: []\nports:\n  - 80\n" },
+    });
+    expect(JSON.parse(same.stdout).changes.edited).toBe(0);
+  });
+
   it("a summary keeps no values; a load asked to keeps each scalar's source text, the same in chunks", async () => {
     const plain = loadTree(oldJson, { ...defaultLoadOptions, readAs: "values" });
     expect(plain.fields.size).toBe(0);
     const kept = loadTree(oldJson, { ...defaultLoadOptions, readAs: "values", keepScalars: true });
     const values = kept.fields.get(SCALAR_VALUE_FIELD) ?? [];
-    // RFC 8259 §7: a string's value, written back as JSON; objects keep "".
-    expect(values.filter((v) => v !== "")).toEqual(['"2031-04-01"', '"ec2"', '"query"', '"GET"']);
+    // RFC 8259 §7: a string's value, written back as JSON; an object keeps only its kind, "{}".
+    expect(values).toEqual(["{}", "{}", '"2031-04-01"', '"ec2"', '"query"', "{}", "{}", "{}", '"GET"']);
     const bytes = Buffer.from(oldJson, "utf8");
     for (const cut of [1, 40, 47, 48, 49, 70]) {
       const chunks = async function* () {

@@ -1,6 +1,6 @@
 import { Buffer } from "node:buffer";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
-import { type LoadOptions, SCALAR_VALUE_FIELD } from "../load-options.js";
+import { EMPTY_ARRAY, EMPTY_OBJECT, type LoadOptions, SCALAR_VALUE_FIELD } from "../load-options.js";
 import { checkNoNamedFields } from "../missing-field.js";
 import { NodeSink } from "../node-sink.js";
 import { ByteBuffer } from "./byte-buffer.js";
@@ -29,7 +29,7 @@ export class JsonValueLoader extends JsonTokenizer {
   private readonly keyBytes = new ByteBuffer();
   private keyText: string | null = null;
 
-  /** Each scalar's source text by node (`options.keepScalars`; holes are objects and arrays), else null. */
+  /** Each value as a diff compares it by node (`options.keepScalars`; objects and arrays their kind), else null. */
   private readonly scalars: string[] | null;
 
   constructor(options: LoadOptions) {
@@ -97,6 +97,7 @@ export class JsonValueLoader extends JsonTokenizer {
     this.inner[top] = 0;
     this.nextIndex[top] = 0;
     this.objectAt[top] = object ? 1 : 0;
+    if (this.scalars) this.scalars[node] = object ? EMPTY_OBJECT : EMPTY_ARRAY;
   }
 
   protected close(_buf: Buffer, i: number): void {
