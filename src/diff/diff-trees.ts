@@ -58,13 +58,16 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
   const compared = fields.length > 0 ? comparedFields(oldTree, newTree, fields) : null;
   // Only subtree counts of the two versions are needed; the whole-tree arrays are kept few, because
   // every large allocation brings the next full garbage collection of both loaded versions nearer.
-  // A tree's counts and matching are read no more once the combined tree is made: their memory, made
-  // with room for the combined tree (at most both versions' nodes; pages no one writes cost nothing),
-  // is then lent to its measures and importance, which would otherwise each touch new memory, dear on
-  // a big tree (docs/performance.md).
+  // A tree's counts and matching are read no more once the combined tree is made: their memory is then
+  // lent to its measures, which would otherwise each touch new memory, dear on a big tree
+  // (docs/performance.md). Both versions' counts lie side by side in one block, twice their size: the
+  // combined tree (at most both versions' nodes) has its subtree sizes, doubles, there, in memory the
+  // counts wrote (pages no one writes cost nothing); each matching array is room for one of its
+  // measures' arrays of numbers.
   const room = graph ? 0 : oldTree.length + newTree.length;
-  const oldCount = subtreeCounts(oldTree, room);
-  const newCount = subtreeCounts(newTree, room);
+  const block = graph ? undefined : new ArrayBuffer(room * 8);
+  const oldCount = subtreeCounts(oldTree, block && new Int32Array(block, 0, oldTree.length));
+  const newCount = subtreeCounts(newTree, block && new Int32Array(block, oldTree.length * 4, newTree.length));
   let combined: Combined;
   let lendable: (Int32Array | undefined)[] = [];
   if (graph) {
@@ -82,12 +85,12 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
       found.newEdges,
     );
   } else {
-    const matching = matchTrees(oldTree, oldCount, newTree, newCount, 2 * room);
+    const matching = matchTrees(oldTree, oldCount, newTree, newCount, room);
     combined = combine(oldTree, oldCount, newTree, newCount, matching, compared);
-    lendable = unread(combined, [newCount, oldCount, matching.newToOld, matching.oldToNew]);
+    lendable = unread(combined, [matching.newToOld, matching.oldToNew, oldCount]);
   }
   const { tree } = combined;
-  const [countMemory, childrenMemory, sizeMemory, importanceMemory] = lendable;
+  const [countMemory, childrenMemory, sizeMemory] = lendable;
   const measures = measure(tree, {
     count: countMemory,
     children: childrenMemory,
@@ -109,7 +112,6 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
     changeMeasures,
     oldTree,
     totals,
-    spare: asFloats(importanceMemory),
   });
 }
 
@@ -148,8 +150,8 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
   const { tree } = combined;
   const key = options.pseudonymKey;
   const { foci, unmatched } = resolveSpecs(index, options.foci, key, options.unmatchedFoci);
-  const api = prepared.importance(options.importance);
-  const scores = diffInterest(tree, api, foci, combined.kind, changeMeasures.onChangePath);
+  const api = prepared.importanceOf(options.importance);
+  const scores = diffInterest(tree, api, foci, combined.kind, changeMeasures);
   const order = diffOrder(tree, measures, scores, changeMeasures);
   const selection = select(
     { tree, measures, scores, order },

@@ -1,4 +1,4 @@
-import { type Importance, importance } from "../interest/importance.js";
+import { type Importance, importance, importanceOf } from "../interest/importance.js";
 import { type Measures, measure } from "../model/measure.js";
 import { PathIndex } from "../model/path-index.js";
 import type { Tree } from "../model/tree.js";
@@ -50,6 +50,16 @@ export class PreparedDiff {
     this.oldTree = parts.oldTree;
     this.totals = parts.totals;
     this.spare = parts.spare;
+  }
+
+  /**
+   * The a-priori importance of a node of the combined tree, worked out when asked: what a summary of the
+   * diff reads (its interest scores the nodes near the changes and those its fit looks at), where an
+   * array of every node is memory touched for the first time, dear on a big tree. The same doubles as
+   * {@link importance}'s.
+   */
+  importanceOf(kind: Importance): (x: number) => number {
+    return importanceOf(this.combined.tree, this.measures, kind);
   }
 
   /** The a-priori importance of every node of the combined tree, computed once per kind. */

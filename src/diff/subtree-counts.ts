@@ -1,14 +1,21 @@
 import type { Tree } from "../model/tree.js";
 
 /**
- * Nodes in every subtree, the node included: the `count` of `measure` alone, for the two versions of
- * a diff, which need nothing else of them (one typed array instead of four). `room` (at least the
- * tree's length) sizes the memory under the array: pages past the tree's length are never touched
- * here, so they cost nothing until a later stage is lent them (see `prepareDiff`).
+ * Nodes in every subtree, the node itself included: the `count` of `measure` alone, for the two versions
+ * of a diff, which need nothing else of them (one typed array instead of four). Written into `zeroed`
+ * when given (memory holding zeros, at least the tree's length; see `prepareDiff`), else into a new
+ * array. One reverse pass: a node's children all come after it in pre-order, so when it is reached its
+ * entry holds their counts' sum, and the node adds itself.
  */
-export function subtreeCounts(tree: Tree, room: number = tree.length): Int32Array {
+export function subtreeCounts(tree: Tree, zeroed?: Int32Array): Int32Array {
+  const n = tree.length;
   const { parent } = tree;
-  const count = new Int32Array(new ArrayBuffer(Math.max(room, tree.length) * 4), 0, tree.length).fill(1);
-  for (let i = tree.length - 1; i > 0; i--) count[parent[i]] += count[i];
+  const count = zeroed === undefined ? new Int32Array(n) : zeroed.subarray(0, n);
+  for (let i = n - 1; i > 0; i--) {
+    const c = count[i] + 1;
+    count[i] = c;
+    count[parent[i]] += c;
+  }
+  if (n > 0) count[0] += 1;
   return count;
 }

@@ -42,3 +42,17 @@ export function depthImportance(tree: Tree): (x: number) => number {
   const { depth } = tree;
   return (x) => 0 - depth[x];
 }
+
+/**
+ * API(x) of either importance, worked out when asked: the same value (the same double) as
+ * {@link importance}'s array holds, by the same expression. A diff's interest reads it only for the nodes
+ * near its changes and the ones its fit looks at, where the array would be a number for every node of
+ * the combined tree, memory touched for the first time (dear on a big tree: docs/performance.md).
+ */
+export function importanceOf(tree: Tree, measures: Measures, kind: Importance): (x: number) => number {
+  if (kind === "depth") return depthImportance(tree);
+  const { depth } = tree;
+  const { size } = measures;
+  const rootLog = Math.log2(Math.max(0, size[0]) + 1);
+  return (x) => -depth[x] + Math.log2(Math.max(0, size[x]) + 1) - rootLog;
+}

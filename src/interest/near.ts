@@ -10,15 +10,21 @@ import { FAR, type Scores } from "./scores.js";
  *   interest(x) = API(x) - depth(x) + best(f),   distance(x) = distance(f) + depth(x) - depth(f),
  * the very operations the whole-tree pass does, so both give the same doubles. The fit asks only about
  * children of nodes it shows (best-first from the root and the foci), so a new focus on a million-node
- * tree scores a few thousand nodes and allocates nothing the size of the tree.
+ * tree scores a few thousand nodes and allocates nothing the size of the tree. `api`: API of every node,
+ * as an array (`importance`) or worked out when asked (`importanceOf`); both give the same doubles.
  */
-export function interestNear(tree: Tree, api: Float64Array, foci: Int32Array): Scores {
+export function interestNear(
+  tree: Tree,
+  api: Float64Array | ((x: number) => number),
+  foci: Int32Array,
+): Scores {
   const { parent, depth } = tree;
+  const apiOf = typeof api === "function" ? api : (x: number) => api[x];
   if (foci.length === 0) {
-    const top = api[0];
+    const top = apiOf(0);
     return {
       forcedNodes: Int32Array.of(0),
-      interestOf: (x) => api[x] - top,
+      interestOf: (x) => apiOf(x) - top,
       distanceOf: () => FAR,
       isForced: (x) => x === 0,
     };
@@ -31,7 +37,7 @@ export function interestNear(tree: Tree, api: Float64Array, foci: Int32Array): S
   let dist = new Int32Array(64);
   let used = 0;
   for (const y of foci) {
-    const t = -depth[y] - api[y];
+    const t = -depth[y] - apiOf(y);
     for (let a = y, d = 0; a !== -1; a = parent[a], d++) {
       let k = slot.get(a);
       if (k === -1) {
@@ -59,12 +65,12 @@ export function interestNear(tree: Tree, api: Float64Array, foci: Int32Array): S
     const k = slot.get(x);
     if (x === 0) {
       best[k] = term[k];
-      value[k] = api[0] + best[k];
+      value[k] = apiOf(0) + best[k];
       continue;
     }
     const pk = slot.get(parent[x]);
     best[k] = Math.max(2 * depth[x] + term[k], best[pk]);
-    value[k] = api[x] - depth[x] + best[k];
+    value[k] = apiOf(x) - depth[x] + best[k];
     if (dist[pk] + 1 < dist[k]) dist[k] = dist[pk] + 1;
   }
   // Each other node asked about: the slot of its nearest forced ancestor, found once.
@@ -84,7 +90,7 @@ export function interestNear(tree: Tree, api: Float64Array, foci: Int32Array): S
     forcedNodes,
     interestOf(x) {
       const k = slot.get(x);
-      return k !== -1 ? value[k] : api[x] - depth[x] + best[anchor(x)];
+      return k !== -1 ? value[k] : apiOf(x) - depth[x] + best[anchor(x)];
     },
     distanceOf(x) {
       const k = slot.get(x);
