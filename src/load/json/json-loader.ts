@@ -144,6 +144,8 @@ export class JsonLoader extends JsonTokenizer {
   private readonly seen = new FieldsSeen();
   /** Whether a node not keyed by name has a name in the name field (text, a number or a boolean). */
   private hasNames = false;
+  /** Node objects not keyed by name: with no name anywhere, more than one is a tree of "" names. */
+  private unkeyed = 0;
 
   /** `found`: espalier chose `options.childrenField` (the configured one was absent). */
   constructor(options: LoadOptions, as?: "json" | "rows", found = false) {
@@ -216,6 +218,7 @@ export class JsonLoader extends JsonTokenizer {
       childrenField: this.options.childrenField,
       ...(this.found ? { childrenFieldFound: true } : {}),
       ...(emptyEntries > 0 ? { emptyEntries } : {}),
+      ...(!this.hasNames && this.unkeyed > 1 ? { unnamed: this.options.nameField } : {}),
     });
     if (emptyEntries === 0) return linked;
     const empty = new Uint8Array(sink.length);
@@ -572,6 +575,7 @@ export class JsonLoader extends JsonTokenizer {
     if (frame.fieldCount === 0) this.sized[i] = EMPTY;
     const { nameField, sizeField, childrenField } = this.options;
     const nameKind = frame.nameKind;
+    if (!frame.keyed) this.unkeyed++;
     if (!frame.keyed && (nameKind === STRING || nameKind === NUMBER || nameKind === BOOLEAN))
       this.hasNames = true;
     if (!frame.keyed && nameKind === COLLECTION) {
