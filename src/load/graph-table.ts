@@ -3,6 +3,7 @@ import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LoadOptions } from "./load-options.js";
 import { limitExceeded } from "./node-sink.js";
 import { fieldSizeUnit } from "./size-unit.js";
+import { inexactId } from "./table/inexact-id.js";
 import { keptColumns, sizeOf, cellText as text } from "./table/link-table.js";
 import { idIsNullParent, missingParent, nullParentSet } from "./table/null-parent.js";
 import type { Cell, Table } from "./table/table.js";
@@ -67,6 +68,8 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
   const nodeOfRow = new Int32Array(rows);
   const nullParents = nullParentSet(options);
   for (let r = 0; r < rows; r++) {
+    const inexact = inexactId(idCells[r], r + 1, options.idField);
+    if (inexact) throw inexact;
     const id = text(idCells[r]);
     if (nullParents?.has(id)) throw idIsNullParent(id, r + 1, options);
     if (id === "")
@@ -110,6 +113,8 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
   let edges = 0;
   for (let r = 0; r < rows; r++) {
     const cell = parentCells[r];
+    const inexact = inexactId(cell, r + 1, options.parentField);
+    if (inexact) throw inexact;
     const parentId = text(cell);
     if (parentId === "" || nullParents?.has(parentId)) continue;
     const p = nodeOf.get(parentId);
@@ -146,6 +151,8 @@ function linkEdges(table: Table, parentCells: readonly Cell[], childCells: reado
   const ids: string[] = [];
   const origin: number[] = [];
   const idOf = (cell: Cell, r: number, field: string) => {
+    const inexact = inexactId(cell, r + 1, field);
+    if (inexact) throw inexact;
     const id = text(cell);
     if (id === "")
       throw new EspalierError("SHAPE", `row ${r + 1} has an empty "${field}"`, { row: r + 1, field });

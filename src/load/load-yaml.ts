@@ -179,7 +179,13 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
     },
     text(value) {
       const v = deref(value);
-      return isScalar(v) ? String(v.value) : "";
+      if (!isScalar(v)) return "";
+      // A whole number past 2^53 - 1 keeps its digits as written, as JSON's loader keeps them
+      // (json-loader.ts numberText): read as a double, 12345678901234567891 is 12345678901234567000.
+      const n = v.value;
+      if (typeof n === "number" && Number.isInteger(n) && !Number.isSafeInteger(n) && v.range)
+        return text.slice(v.range[0], v.range[1]);
+      return String(n);
     },
     source(value) {
       const range = deref(value)?.range;

@@ -368,7 +368,7 @@ export class JsonLoader extends JsonTokenizer {
     const i = frame.node;
     if ((field.mask & F_NAME) !== 0 && !frame.keyed) {
       frame.nameKind = kind;
-      this.sink.name.setString(i, kind === NUMBER ? String(value) : text);
+      this.sink.name.setString(i, kind === NUMBER ? numberText(value, text) : text);
     }
     if ((field.mask & F_SIZE) !== 0) {
       frame.sizeKind = kind;
@@ -384,7 +384,7 @@ export class JsonLoader extends JsonTokenizer {
       frame.childrenColumn = column;
     }
     for (const f of field.keeps) {
-      this.kept[f][i] = kind === NUMBER ? String(value) : text;
+      this.kept[f][i] = kind === NUMBER ? numberText(value, text) : text;
     }
   }
 
@@ -655,3 +655,13 @@ export class JsonLoader extends JsonTokenizer {
  */
 export const ROWS_IN_OBJECT =
   "; this document is an object: rows held under one of its members need that array taken out first (without --input-format rows, the object is read as nested nodes)";
+
+/**
+ * A number name or kept field as text: as JSON.parse reads it (`7e0` is "7", `1.10` is "1.1"), except a
+ * whole number past 2^53 - 1, which a double keeps only to about 16 digits (RFC 8259 §6): it keeps its
+ * digits as written (`written`, which `number` gives for every number that is no size), so
+ * 12345678901234567891 and 12345678901234567892 stay two names, and a change between them an edit.
+ */
+function numberText(value: number, written: string): string {
+  return Number.isInteger(value) && !Number.isSafeInteger(value) && written !== "" ? written : String(value);
+}

@@ -12,6 +12,7 @@ import { sizeTextHint } from "../size-text-hint.js";
 import { fieldSizeUnit } from "../size-unit.js";
 import { ByteIdIndex, viewOf } from "./byte-id-index.js";
 import { IdIndex } from "./id-index.js";
+import { inexactId } from "./inexact-id.js";
 import { idIsNullParent, missingParent, nullParentSet } from "./null-parent.js";
 import { rowsTable } from "./rows-table.js";
 import { withSeparatorHint } from "./separator-hint.js";
@@ -131,6 +132,9 @@ function linkById(
   const rowOf = new IdIndex(ids);
   const nullParents = nullParentSet(options);
   for (let r = 0; r < n; r++) {
+    const inexact =
+      inexactId(idCells[r], r + 1, options.idField) ?? inexactId(parentCells[r], r + 1, options.parentField);
+    if (inexact) throw inexact;
     const id = cellText(idCells[r]);
     if (nullParents?.has(id)) throw idIsNullParent(id, r + 1, options);
     if (id === "") throw emptyId(r, options);
