@@ -45,35 +45,52 @@ export function combine(
   matching: Matching,
   compared: ComparedFields | null = null,
 ): Combined {
+  return combineListing(oldTree, oldCount, newTree, newCount, matching, compared).combined;
+}
+
+/**
+ * {@link combine}, and the changed nodes of the combined tree (those with a kind) in ascending order,
+ * listed as they are placed: a later stage then needs no pass over every node's kind to find them.
+ */
+export function combineListing(
+  oldTree: Tree,
+  oldCount: Int32Array,
+  newTree: Tree,
+  newCount: Int32Array,
+  matching: Matching,
+  compared: ComparedFields | null = null,
+): { combined: Combined; changed: Int32Array } {
   const { oldToNew, newToOld } = matching;
   const oldParent = oldTree.parent;
   const newParent = newTree.parent;
 
-  // Old nodes with a removed child, and new subtrees that hold none of them (copied as one block).
-  const hasRemovedChild = new Uint8Array(oldTree.length);
+  // Per new node: SPLICE when its old counterpart has a removed child (spliced in among its children
+  // here), MIXED when its subtree holds such a node (else the subtree is copied as one block): marked
+  // up from each, to the first node marked before.
+  const flags = new Uint8Array(newTree.length);
   let removedCount = 0;
   for (let o = 1; o < oldTree.length; o++) {
     if (oldToNew[o] >= 0) continue;
     removedCount++;
-    hasRemovedChild[oldParent[o]] = 1;
+    const m = oldToNew[oldParent[o]];
+    if (m < 0) continue;
+    flags[m] |= SPLICE;
+    for (let a = m; a >= 0 && (flags[a] & MIXED) === 0; a = a > 0 ? newParent[a] : -1) flags[a] |= MIXED;
   }
   const total = newTree.length + removedCount;
   if (removedCount === 0) {
     // Nothing to splice in: the combined tree is the new tree.
     const identity = new Int32Array(total);
     for (let k = 0; k < total; k++) identity[k] = k;
-    return fill(oldTree, newTree, matching, identity, newToOld, newParent, compared);
+    const { kind, changed } = kinds(oldTree, newTree, matching, compared, identity, newToOld, null);
+    return {
+      combined: combined(oldTree, newTree, matching, identity, newToOld, kind, null, compared),
+      changed,
+    };
   }
   const newIndex = new Int32Array(total);
   const oldIndex = new Int32Array(total);
   const parent = new Int32Array(total);
-
-  const plain = new Uint8Array(newTree.length).fill(1);
-  for (let n = newTree.length - 1; n >= 0; n--) {
-    const o = newToOld[n];
-    if (o >= 0 && hasRemovedChild[o]) plain[n] = 0;
-    if (!plain[n] && n > 0) plain[newParent[n]] = 0;
-  }
 
   // Depth-first in pre-order. Stack entries: n >= 0 a new node, -(o + 1) a removed old node. Each
   // node is pushed once, so the stacks never outgrow the combined tree; they start small and grow.
@@ -95,7 +112,7 @@ export function combine(
   while (sp > 0) {
     const entry = stack[--sp];
     const pc = stackParent[sp];
-    if (entry >= 0 && plain[entry]) {
+    if (entry >= 0 && (flags[entry] & MIXED) === 0) {
       const n = entry;
       const base = k - n;
       const end = n + newCount[n];
@@ -140,14 +157,14 @@ export function combine(
   function mergedChildren(n: number, at: number): number {
     let sp = at;
     const nEnd = n + newCount[n];
-    const o = newToOld[n];
-    if (o < 0 || !hasRemovedChild[o]) {
+    if ((flags[n] & SPLICE) === 0) {
       for (let c = n + 1; c < nEnd; c += newCount[c]) {
         if (sp === stack.length) grow();
         stack[sp++] = c;
       }
       return sp;
     }
+    const o = newToOld[n];
     const after = new Map<number, number[]>(); // new child -> removed old siblings placed after it
     let anchor = -1;
     const oEnd = o + oldCount[o];
@@ -174,24 +191,38 @@ export function combine(
     return sp;
   }
 
-  return fill(oldTree, newTree, matching, newIndex, oldIndex, parent, compared);
+  const depth = new Int32Array(total);
+  const ownSize = new Float64Array(total);
+  const shape = { parent, depth, ownSize };
+  const { kind, changed } = kinds(oldTree, newTree, matching, compared, newIndex, oldIndex, shape);
+  return {
+    combined: combined(oldTree, newTree, matching, newIndex, oldIndex, kind, shape, compared),
+    changed,
+  };
 }
 
+/** Flags of a new node in `combine`: its counterpart has a removed child; its subtree holds such a node. */
+const SPLICE = 1;
+const MIXED = 2;
+
 /**
- * The combined tree's arrays and each node's kind. The own size changes are read from both versions'
- * sizes (one array of every node is fresh memory, dear on a big tree, and only changed nodes have one).
+ * Each node's kind, by the precedence `combine` states, and the changed nodes in ascending order; with
+ * `shape` (removed nodes spliced in), in the same pass each node's depth (from its parent's) and own
+ * size (a removed node's 0: it holds nothing now).
  */
-function fill(
+function kinds(
   oldTree: Tree,
   newTree: Tree,
   matching: Matching,
+  compared: ComparedFields | null,
   newIndex: Int32Array,
   oldIndex: Int32Array,
-  parent: Int32Array,
-  compared: ComparedFields | null,
-): Combined {
-  const total = parent.length;
+  shape: Shape | null,
+): { kind: Uint8Array; changed: Int32Array } {
+  const total = newIndex.length;
   const kind = new Uint8Array(total);
+  let changed = new Int32Array(1024);
+  let changes = 0;
   const renameRoot = !oldTree.syntheticRoot && !newTree.syntheticRoot;
   // Matched by path, every pair below the root has equal names.
   const byId = matching.by === "id";
@@ -205,28 +236,73 @@ function fill(
   // Equal bytes are the same name, compared in this loop; other pairs (a rename, or names only
   // decoding can tell apart) go through sameName.
   const equalBytes = bytesCompare(newName, oldName);
+  const parent = shape?.parent;
+  const depth = shape?.depth;
+  const ownSize = shape?.ownSize;
+  for (let k = 0; k < total; k++) {
+    const n = newIndex[k];
+    const o = oldIndex[k];
+    if (depth !== undefined) {
+      depth[k] = k === 0 ? 0 : depth[parent![k]] + 1;
+      if (n >= 0) ownSize![k] = newSize[n];
+    }
+    let c: number = KIND.none;
+    if (n < 0) c = KIND.removed;
+    else if (o < 0) c = KIND.added;
+    else if (n > 0 && newToOld[newParent[n]] !== oldParent[o]) c = KIND.moved;
+    else if ((n > 0 ? byId : renameRoot) && !equalBytes(n, o) && !sameName(newName, n, oldName, o))
+      c = KIND.renamed;
+    else if (compared !== null && isEdited(compared, o, n)) c = KIND.edited;
+    else if (newSize[n] - oldSize[o] !== 0) c = KIND.resized;
+    if (c === KIND.none) continue;
+    kind[k] = c;
+    if (changes === changed.length) {
+      const grown = new Int32Array(changes * 2);
+      grown.set(changed);
+      changed = grown;
+    }
+    changed[changes++] = k;
+  }
+  return { kind, changed: changed.subarray(0, changes) };
+}
+
+/** A combined tree's parent, depth and own size of every node. */
+interface Shape {
+  parent: Int32Array;
+  depth: Int32Array;
+  ownSize: Float64Array;
+}
+
+/**
+ * The combined tree and its record. `spliced`: its shape with the removed nodes spliced in, or null
+ * when none were (the new tree's shape; the new tree itself when it has every field and id the
+ * combined tree needs). The own size changes are read from both versions' sizes (one array of every
+ * node is fresh memory, dear on a big tree, and only changed nodes have one).
+ */
+function combined(
+  oldTree: Tree,
+  newTree: Tree,
+  matching: Matching,
+  newIndex: Int32Array,
+  oldIndex: Int32Array,
+  kind: Uint8Array,
+  spliced: Shape | null,
+  compared: ComparedFields | null,
+): Combined {
+  const total = newIndex.length;
+  const oldSize = oldTree.ownSize;
+  const newSize = newTree.ownSize;
   const deltaOf = (k: number): number => {
     const n = newIndex[k];
     const o = oldIndex[k];
     return n < 0 ? 0 - oldSize[o] : o < 0 ? newSize[n] : newSize[n] - oldSize[o];
   };
-  for (let k = 0; k < total; k++) {
-    const n = newIndex[k];
-    const o = oldIndex[k];
-    if (n < 0) kind[k] = KIND.removed;
-    else if (o < 0) kind[k] = KIND.added;
-    else if (n > 0 && newToOld[newParent[n]] !== oldParent[o]) kind[k] = KIND.moved;
-    else if ((n > 0 ? byId : renameRoot) && !equalBytes(n, o) && !sameName(newName, n, oldName, o))
-      kind[k] = KIND.renamed;
-    else if (compared !== null && isEdited(compared, o, n)) kind[k] = KIND.edited;
-    else if (newSize[n] - oldSize[o] !== 0) kind[k] = KIND.resized;
-  }
   const keys = [...new Set([...newTree.fields.keys(), ...oldTree.fields.keys()])];
   const ids = matching.by === "id";
   const tree: Tree =
-    total === newTree.length && keys.length === newTree.fields.size && (!ids || newTree.ids)
+    spliced === null && keys.length === newTree.fields.size && (!ids || newTree.ids)
       ? { ...newTree, ids: ids ? newTree.ids : null, hasSizes: oldTree.hasSizes || newTree.hasSizes }
-      : copyTree(oldTree, newTree, keys, ids, newIndex, oldIndex, parent);
+      : copyTree(oldTree, newTree, keys, ids, newIndex, oldIndex, spliced ?? newTree);
   let delta: Float64Array | undefined;
   return {
     tree,
@@ -248,7 +324,10 @@ function fill(
   };
 }
 
-/** The combined tree's arrays when removed nodes are mixed in: each node from the version it lives in. */
+/**
+ * The combined tree of `shape` (removed nodes mixed in, or fields or ids the new tree lacks): names,
+ * ids, fields and empty entries each from the version the node lives in.
+ */
 function copyTree(
   oldTree: Tree,
   newTree: Tree,
@@ -256,27 +335,20 @@ function copyTree(
   useIds: boolean,
   newIndex: Int32Array,
   oldIndex: Int32Array,
-  parent: Int32Array,
+  shape: Shape,
 ): Tree {
-  const total = parent.length;
-  const depth = new Int32Array(total);
-  const ownSize = new Float64Array(total);
+  const { parent, depth, ownSize } = shape;
+  const total = newIndex.length;
   const newName = newTree.name;
   const oldName = oldTree.name;
   const newOrigin = newTree.origin;
   const oldOrigin = oldTree.origin;
-  const newSize = newTree.ownSize;
   const newIds = newTree.ids;
   const oldIds = oldTree.ids;
   // The new version's names (and ids) are shared, not copied: only the removed nodes' are copied in.
   const name = combinedNames(newName, newIndex, oldName, oldIndex, total, 12);
   // Ids are read only by a label or a focus by id: each from its version when asked (MergedNames).
   const ids = useIds ? new MergedNames(newIds!, newIndex, oldIds!, oldIndex) : null;
-  for (let k = 0; k < total; k++) {
-    const n = newIndex[k];
-    depth[k] = k === 0 ? 0 : depth[parent[k]] + 1;
-    if (n >= 0) ownSize[k] = newSize[n];
-  }
   // Where each node came from, made when first read: no summary or diff of it reads it, and an array
   // of every node is new memory, dear on a big tree (docs/performance.md).
   let origin: Int32Array | undefined;

@@ -9,7 +9,7 @@ import { hierarchyOf } from "../view/hierarchy-of.js";
 import { compileLabel } from "../view/label.js";
 import { orderSiblings } from "../view/sibling-order.js";
 import { alignRoots } from "./align-roots.js";
-import { type Combined, combine } from "./combine.js";
+import { type Combined, combine, combineListing } from "./combine.js";
 import { type DiffInterest, diffInterest } from "./diff-interest.js";
 import { diffOrder } from "./diff-order.js";
 import { buildDiffView, type DiffViewNode } from "./diff-view.js";
@@ -69,6 +69,8 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
   const oldCount = subtreeCounts(oldTree, block && new Int32Array(block, 0, oldTree.length));
   const newCount = subtreeCounts(newTree, block && new Int32Array(block, oldTree.length * 4, newTree.length));
   let combined: Combined;
+  // The changed nodes in ascending order, as combine placed them (a graph's kinds change after).
+  let changed: Int32Array | undefined;
   let lendable: (Int32Array | undefined)[] = [];
   if (graph) {
     // Graphs: full entries matched by id, references by their edges; kinds of change by edges. Nodes
@@ -86,7 +88,7 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
     );
   } else {
     const matching = matchTrees(oldTree, oldCount, newTree, newCount, room);
-    combined = combine(oldTree, oldCount, newTree, newCount, matching, compared);
+    ({ combined, changed } = combineListing(oldTree, oldCount, newTree, newCount, matching, compared));
     lendable = unread(combined, [matching.newToOld, matching.oldToNew, oldCount]);
   }
   const { tree } = combined;
@@ -96,7 +98,7 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
     children: childrenMemory,
     size: asFloats(sizeMemory),
   });
-  const changeMeasures = measureChanges(tree, combined.kind, combined.deltaOf);
+  const changeMeasures = measureChanges(tree, combined.kind, combined.deltaOf, changed);
   let oldSize = 0;
   for (let o = 0; o < oldTree.length; o++) oldSize += oldTree.ownSize[o];
   const totals: DiffTotals = {

@@ -14,6 +14,8 @@ export interface ChangeMeasures {
   readonly onChangePath: Uint8Array;
   /** The nodes on change paths in pre-order: node `onPath[s]` has slot s in `counts` and `net`. */
   readonly onPath: Int32Array;
+  /** The slot of each slot's node's parent (-1 for the root's). */
+  readonly up: Int32Array;
   /** One count per kind (in the order of `changeKinds`) per slot, at `K * slot`. */
   readonly counts: Int32Array;
   /** Sum of own size changes (new minus old) over the subtree, per slot. */
@@ -21,42 +23,38 @@ export interface ChangeMeasures {
 }
 
 /**
- * Three linear passes: mark change paths, list them, then fold every child into its parent. `deltaOf`
- * gives a node's own size change; it is read only for changed nodes (every other node has none).
+ * Marks change paths up from each changed node, lists them, then folds every child into its parent.
+ * `deltaOf` gives a node's own size change; it is read only for changed nodes (every other node has
+ * none). `changed`: the changed nodes, when the caller has them listed (`combineListing`); else they
+ * are found by a pass over `kind`. Either way no other pass touches every node.
  */
-export function measureChanges(tree: Tree, kind: Uint8Array, deltaOf: (i: number) => number): ChangeMeasures {
+export function measureChanges(
+  tree: Tree,
+  kind: Uint8Array,
+  deltaOf: (i: number) => number,
+  changed: Int32Array = changedNodes(kind),
+): ChangeMeasures {
   const n = tree.length;
   const { parent } = tree;
   const onChangePath = new Uint8Array(n);
+  // Up from each changed node to the first node already marked: each node on a path once.
+  let onPath = new Int32Array(Math.max(16, changed.length * 2));
   let m = 0;
-  for (let i = n - 1; i >= 0; i--) {
-    if (kind[i] !== 0) onChangePath[i] = 1;
-    if (!onChangePath[i]) continue;
-    m++;
-    if (i > 0) onChangePath[parent[i]] = 1;
+  for (let c = 0; c < changed.length; c++) {
+    for (let a = changed[c]; a >= 0 && onChangePath[a] === 0; a = parent[a]) {
+      onChangePath[a] = 1;
+      if (m === onPath.length) {
+        const grown = new Int32Array(m * 2);
+        grown.set(onPath);
+        onPath = grown;
+      }
+      onPath[m++] = a;
+    }
   }
-  const onPath = new Int32Array(m);
-  for (let i = 0, s = 0; s < m; i++) if (onChangePath[i]) onPath[s++] = i;
+  onPath = onPath.slice(0, m).sort();
   const counts = new Int32Array(m * K);
   const net = new Float64Array(m);
-  // Each slot's parent slot: a node's parent is on a change path too, and in pre-order it is on the
-  // path of on-path nodes from the root down to the node before it (kept as a stack), so no slot is
-  // searched for (the list is a few nodes per change, where an array of every node's slot would be
-  // the size of the tree).
-  const up = new Int32Array(m);
-  const path = new Int32Array(m);
-  let top = -1;
-  for (let s = 0; s < m; s++) {
-    const i = onPath[s];
-    if (i === 0) {
-      top = -1;
-      up[s] = -1;
-    } else {
-      while (top >= 0 && onPath[path[top]] !== parent[i]) top--;
-      up[s] = path[top];
-    }
-    path[++top] = s;
-  }
+  const up = parentSlots(onPath, parent);
   // In reverse pre-order every child comes before its parent.
   for (let s = m - 1; s >= 0; s--) {
     const i = onPath[s];
@@ -69,7 +67,40 @@ export function measureChanges(tree: Tree, kind: Uint8Array, deltaOf: (i: number
     net[t] += net[s];
     for (let k = 0; k < K; k++) counts[t * K + k] += counts[s * K + k];
   }
-  return { onChangePath, onPath, counts, net };
+  return { onChangePath, onPath, up, counts, net };
+}
+
+/** The nodes with a kind, in ascending order. */
+function changedNodes(kind: Uint8Array): Int32Array {
+  let m = 0;
+  for (let i = 0; i < kind.length; i++) if (kind[i] !== 0) m++;
+  const out = new Int32Array(m);
+  for (let i = 0, s = 0; s < m; i++) if (kind[i] !== 0) out[s++] = i;
+  return out;
+}
+
+/**
+ * For nodes in pre-order that hold the parent of each (but the root) among them: the position of each
+ * one's parent in the list (-1 for the root). A node's parent is on the path of listed nodes from the
+ * root down to the node before it (kept as a stack), so no position is searched for.
+ */
+export function parentSlots(nodes: Int32Array, parent: Int32Array): Int32Array {
+  const m = nodes.length;
+  const up = new Int32Array(m);
+  const path = new Int32Array(m);
+  let top = -1;
+  for (let s = 0; s < m; s++) {
+    const i = nodes[s];
+    if (i === 0) {
+      top = -1;
+      up[s] = -1;
+    } else {
+      while (top >= 0 && nodes[path[top]] !== parent[i]) top--;
+      up[s] = path[top];
+    }
+    path[++top] = s;
+  }
+  return up;
 }
 
 /** The slot of node i among the first `below` entries of `onPath` (sorted), or -1. */
