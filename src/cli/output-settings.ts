@@ -41,6 +41,8 @@ export interface OutputSettings {
   documents: readonly number[] | undefined;
   /** The id column that names the nodes of an input without a name column (the first such input's). */
   namesFrom: string | undefined;
+  /** The name field no node of an input has (nested nodes all named ""), the first such input's. */
+  unnamed: string | undefined;
   /** The loader's notes on the input (reading-notes.ts), input text hidden under --pseudonymize; JSON carries them. */
   notes: readonly ShownNote[];
   /** A diff's compared record fields (see `HeaderOptions.compared`); undefined for a summary. */
@@ -79,6 +81,10 @@ export function outputSettings(
     namesFrom:
       opts.label === undefined
         ? inputs.find((t) => t.reading?.namesFrom !== undefined)?.reading?.namesFrom
+        : undefined,
+    unnamed:
+      opts.label === undefined
+        ? inputs.find((t) => t.reading?.unnamed !== undefined)?.reading?.unnamed
         : undefined,
     notes: shownNotes(tree, pseudonymKey(opts, io)),
   };

@@ -186,6 +186,7 @@ export function inputFacts(s: OutputSettings): InputFacts {
     ...(s.filledRows === undefined ? {} : { filledRows: s.filledRows }),
     ...(s.documents === undefined ? {} : { documents: s.documents }),
     ...(s.namesFrom === undefined ? {} : { namesFrom: s.namesFrom }),
+    ...(s.unnamed === undefined ? {} : { unnamed: s.unnamed }),
     ...(s.compared === undefined ? {} : { compared: s.compared }),
   };
 }

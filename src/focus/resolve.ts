@@ -1,4 +1,4 @@
-import { EspalierError, quoted, say } from "../errors.js";
+import { EspalierError, type MessagePart, quoted, quotedList, say } from "../errors.js";
 import { indexOfName } from "../model/names.js";
 import type { PathIndex } from "../model/path-index.js";
 import { printedNameOf, printedNames } from "../model/printed-names.js";
@@ -128,10 +128,12 @@ function noMatch(
   key: string | undefined,
 ): EspalierError {
   if (key === undefined) {
-    const near = suggestFoci(index, compared, printedNames(index.tree, index, undefined));
+    const names = printedNames(index.tree, index, undefined);
+    const near = suggestFoci(index, compared, names);
+    const where = near.length === 0 && !isGlob(compared) ? wherePathEnds(index, compared, names.pathOf) : [];
     return new EspalierError(
       "FOCUS_NO_MATCH",
-      say`focus ${quoted.value(spec)} matches no node${didYouMean(near)}`,
+      say`focus ${quoted.value(spec)} matches no node${didYouMean(near)}${where}`,
       undefined,
       { suggestions: near },
     );
@@ -146,6 +148,42 @@ function noMatch(
     undefined,
     { suggestions: near },
   );
+}
+
+/** Children named in a FOCUS_NO_MATCH message where a path stops matching. */
+const CHILDREN_NAMED = 5;
+
+/**
+ * Where a path that matches nothing and is near no node stops: the deepest node its leading segments
+ * name, and its first children (`; "harbor/quays" has no child "north": its 12 children include
+ * "east", ...`), so the message says what to type instead. Empty when the path cannot be split.
+ */
+function wherePathEnds(index: PathIndex, spec: string, pathOf: (i: number) => string): MessagePart[] {
+  let node = 0;
+  let segments: string[];
+  try {
+    segments = splitPath(spec);
+    for (const raw of segments) {
+      const next = index.child(node, parseSegment(raw));
+      if (next < 0) break;
+      node = next;
+    }
+  } catch {
+    return [];
+  }
+  const { count } = index.measures;
+  const children: string[] = [];
+  let n = 0;
+  for (let c = node + 1; c < node + count[node]; c += count[c], n++)
+    if (children.length < CHILDREN_NAMED) children.push(escapeSegment(index.tree.name.get(c)));
+  const at = node === 0 ? ["the root"] : say`${quoted.path(pathOf(node))}`;
+  const missing = segments[index.tree.depth[node]];
+  if (missing === undefined) return [];
+  if (n === 0) return say`; ${at} has no children`;
+  const list = quotedList("name", children, CHILDREN_NAMED);
+  const more = n > children.length ? ` and ${n - children.length} more` : "";
+  const what = n === 1 ? say`its one child is ${list}` : say`its ${n} children include ${list}${more}`;
+  return say`; ${at} has no child ${quoted.value(missing)}: ${what}`;
 }
 
 function didYouMean(near: readonly string[]): string {

@@ -64,6 +64,8 @@ export function walkNested<V>(
   // Keys of the first node objects, for the message of a field no node has.
   const seen = new FieldsSeen();
   let hasNames = false;
+  // Nodes not keyed by name (their name comes from the name field, or is "").
+  let unkeyed = 0;
   // referenceOf[i] = the node whose full entry node i stands for, -1 for a full entry.
   let referenceOf = new Int32Array(1024).fill(-1);
   // empty[i] = 1 when node i's object has no field at all (`{}`).
@@ -144,6 +146,7 @@ export function walkNested<V>(
 
     const nameValue = access.field(v, nameField);
     if (keyed[i] !== 1) {
+      unkeyed++;
       const nameKind = access.kind(nameValue);
       if (nameKind === Kind.String || nameKind === Kind.Number || nameKind === Kind.Boolean) {
         sink.name.setString(i, access.text(nameValue as V));
@@ -291,6 +294,7 @@ export function walkNested<V>(
     childrenField,
     ...(found ? { childrenFieldFound: true } : {}),
     ...(emptyEntries > 0 ? { emptyEntries } : {}),
+    ...(!hasNames && unkeyed > 1 ? { unnamed: nameField } : {}),
   });
   const withEmpty = empty === undefined ? linked : { ...linked, empty: empty.slice(0, sink.length) };
   return linkedReferences ? { ...withEmpty, referenceOf: linkedReferences } : withEmpty;

@@ -83,6 +83,12 @@ export interface TreeReading {
    */
   readonly namesFrom?: string;
   /**
+   * Nested nodes of which none has the name field (this field, `name` by default) and none is keyed by
+   * name below the top: every node is named "". The header says so, so a reader sees to point
+   * --name-field at the field that holds names (a mount table's `target`).
+   */
+  readonly unnamed?: string;
+  /**
    * What the reader should know about this reading that the tree cannot show: the input was read one
    * way although it may have meant another, and how to say so (see model/reading-note.ts). The command
    * line prints each on standard error; absent when there is none.

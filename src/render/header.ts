@@ -55,6 +55,11 @@ export interface HeaderOptions {
    */
   namesFrom?: string;
   /**
+   * Nested nodes none of which has the name field (`TreeReading.unnamed`): that field, said as
+   * `no "name" field: nodes print as "" (see --name-field)`, so a screen of `""` lines explains itself.
+   */
+  unnamed?: string;
+  /**
    * A diff: the record fields compared between matched nodes (`--compare-field`, else `version` where
    * both versions have it), said beside the `edited` count (`1 edited (compared: version)`); empty
    * for records of which no field was compared (`0 edited (no field compared)`), so a reader does not
@@ -66,7 +71,7 @@ export interface HeaderOptions {
 /** What a header says of its inputs beside the budget, the lines and the foci (see `HeaderOptions`). */
 export type InputFacts = Pick<
   HeaderOptions,
-  "sizeName" | "reading" | "filledRows" | "documents" | "namesFrom" | "compared"
+  "sizeName" | "reading" | "filledRows" | "documents" | "namesFrom" | "unnamed" | "compared"
 >;
 
 /** A reading of the input the header names (see `HeaderOptions.reading`). */
@@ -212,6 +217,7 @@ function readingParts(header: HeaderOptions, style: HeaderStyle): string[] {
     choiceText(header, style),
     documentsText(header, style),
     namesText(header, style),
+    unnamedText(header, style),
     filledText(header, style),
   ].filter((part) => part !== "");
 }
@@ -231,6 +237,12 @@ function documentsText({ documents }: HeaderOptions, style: HeaderStyle): string
 function namesText({ namesFrom }: HeaderOptions, style: HeaderStyle): string {
   if (namesFrom === undefined) return "";
   return `${style.words("named by ")}${style.name(safeText(namesFrom, 40))}${style.words(" (no name column)")}`;
+}
+
+/** `no "name" field: nodes print as "" (see --name-field)`: no node has the name field; empty when some node has it. */
+function unnamedText({ unnamed }: HeaderOptions, style: HeaderStyle): string {
+  if (unnamed === undefined) return "";
+  return `${style.words("no ")}${style.name(JSON.stringify(safeText(unnamed, 40)))}${style.words(' field: nodes print as "" (see --name-field)')}`;
 }
 
 /** `3 short rows filled` (a diff: `3 -> 0 short rows filled`); empty when none was. */

@@ -49,6 +49,22 @@ describe("resolveFoci(index, specs)", () => {
     expect(near.details.suggestions).toContain("src/test");
   });
 
+  it("with nothing near, says where the path stops and what is there (field test: a typed province)", () => {
+    // Field test on an administrative-division table: "<province>/nothere" said only "matches no node".
+    const err = caught(() => resolveFoci(index, ["src/quayside/moorings"]));
+    expect(err.code).toBe("FOCUS_NO_MATCH");
+    expect(err.details.suggestions).toEqual([]);
+    expect(err.message).toBe(
+      'focus "src/quayside/moorings" matches no node; "src" has no child "quayside": its 2 children include "lib", "test"',
+    );
+    const top = caught(() => resolveFoci(index, ["harbourmaster"]));
+    expect(top.message).toMatch(
+      /; the root has no child "harbourmaster": its 3 children include "src", "docs", "README\.md"$/,
+    );
+    const leaf = caught(() => resolveFoci(index, ["README.md/section/anchor"]));
+    expect(leaf.message).toMatch(/; "README\.md" has no children$/);
+  });
+
   it("neither repeats the spec nor suggests from real names when pseudonyms are on", () => {
     const err = caught(() => resolveFoci(index, ["src/lbi/a.ts"], "secret"));
     expect(err.code).toBe("FOCUS_NO_MATCH");

@@ -4,7 +4,7 @@ import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { isSize } from "../../model/size-rule.js";
 import { badNodeSize } from "../bad-node-size.js";
 import { describeNode } from "../describe-node.js";
-import type { LoadOptions } from "../load-options.js";
+import { defaultLoadOptions, type LoadOptions } from "../load-options.js";
 import { FieldsSeen, loneRoot, missingField, nameFieldNamed, sizeFieldNamed } from "../missing-field.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
 import { fieldSizeUnit } from "../size-unit.js";
@@ -46,6 +46,8 @@ const COLLECTION = 5;
 
 // What a field of a node object is for (bits).
 const F_NAME = 1;
+/** The children field by default (load-options.ts). */
+const DEFAULT_CHILDREN = defaultLoadOptions.childrenField;
 const F_SIZE = 2;
 const F_CHILDREN = 4;
 
@@ -144,6 +146,14 @@ export class JsonLoader extends JsonTokenizer {
   private readonly seen = new FieldsSeen();
   /** Whether a node not keyed by name has a name in the name field (text, a number or a boolean). */
   private hasNames = false;
+  /**
+   * With a children field other than `children`: the depth of the node object whose last key was an
+   * unread `children` (-1: none), and where the first such key held an object or array (see `end`).
+   */
+  private unreadChildrenDepth = -1;
+  private unreadChildrenAt: { line: number; column: number } | undefined;
+  /** Node objects not keyed by name: with no name anywhere, more than one is a tree of "" names. */
+  private unkeyed = 0;
 
   /** `found`: espalier chose `options.childrenField` (the configured one was absent). */
   constructor(options: LoadOptions, as?: "json" | "rows", found = false) {
@@ -184,6 +194,7 @@ export class JsonLoader extends JsonTokenizer {
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the top-level array holds no nodes");
     if (sink.length === 1 && this.rootContainers.length > 0)
       throw loneRoot(this.options.childrenField, this.rootContainers, "json", this.topList);
+    if (this.unreadChildrenAt !== undefined) this.checkUnreadChildren(this.unreadChildrenAt);
     for (let i = 0; i < sink.length && !sink.hasSizes; i++) if (this.sized[i] === 1) sink.hasSizes = true;
     if (!sink.hasSizes && sizeFieldNamed(this.options))
       throw missingField("size", this.options.sizeField, this.seen.list(), true);
@@ -216,6 +227,7 @@ export class JsonLoader extends JsonTokenizer {
       childrenField: this.options.childrenField,
       ...(this.found ? { childrenFieldFound: true } : {}),
       ...(emptyEntries > 0 ? { emptyEntries } : {}),
+      ...(!this.hasNames && this.unkeyed > 1 ? { unnamed: this.options.nameField } : {}),
     });
     if (emptyEntries === 0) return linked;
     const empty = new Uint8Array(sink.length);
@@ -252,6 +264,10 @@ export class JsonLoader extends JsonTokenizer {
       }
       this.slot = found < 0 ? S_SKIP : S_FIELD;
       this.slotField = found;
+      this.unreadChildrenDepth =
+        found < 0 && this.unreadChildrenAt === undefined && this.defaultChildrenKey(bytes, q, e)
+          ? this.depth
+          : -1;
       if (found >= 0 && top === 1 && this.probe.undecided && (fields[found].mask & F_CHILDREN) !== 0) {
         // The first element has children: the input is nodes, and that element need not be kept whole.
         this.captures.open.shift();
@@ -290,6 +306,43 @@ export class JsonLoader extends JsonTokenizer {
     // A number that is no size is reported as written: 9007199254740993 is not its rounded neighbour.
     const text = isSize(value) ? "" : ASCII.decode(bytes.subarray(s, e));
     this.scalar(NUMBER, text, value, this.pos.columnAt(absS));
+  }
+
+  /**
+   * Whether the key `bytes[q, e]` (quotes included) is `children` while another field holds children:
+   * a wrapper's field named as the children field (`{"filesystems": [...]}` of a mount table) reads
+   * the top level only, and every node below keeps its children under `children`, unread.
+   */
+  private defaultChildrenKey(bytes: Uint8Array, q: number, e: number): boolean {
+    if (
+      this.options.childrenField === DEFAULT_CHILDREN ||
+      this.escaped ||
+      e - q - 1 !== DEFAULT_CHILDREN.length
+    )
+      return false;
+    for (let k = 0; k < DEFAULT_CHILDREN.length; k++)
+      if (bytes[q + 1 + k] !== DEFAULT_CHILDREN.charCodeAt(k)) return false;
+    return true;
+  }
+
+  /**
+   * FIELD_MISSING when the children field named reads at most one level (no node has children but the
+   * top ones) while a node holds an object or array under `children`, at `at`: read so, a mount table
+   * named by its wrapper field (`--children-field filesystems`) was 2 nodes with exit 0.
+   */
+  private checkUnreadChildren(at: { line: number; column: number }): void {
+    const { parentOf, length } = this.sink;
+    for (let i = 0; i < length; i++) {
+      const p = parentOf[i];
+      if (p !== -1 && parentOf[p] !== -1) return;
+    }
+    const field = this.options.childrenField;
+    throw new EspalierError(
+      "FIELD_MISSING",
+      say`the children field "${field}" holds only the top level, while nodes below hold an object or array under "${DEFAULT_CHILDREN}" (one field holds the children at every level): if "${field}" wraps the top nodes, take them out first (jq '.${field}') and leave out --children-field`,
+      at,
+      { option: "--children-field", field },
+    );
   }
 
   protected word(word: Uint8Array, absS: number): void {
@@ -417,6 +470,9 @@ export class JsonLoader extends JsonTokenizer {
       this.frames[top] = frame;
     }
     const parentFrame = top > 0 ? this.frames[top - 1] : frame;
+    if (this.unreadChildrenDepth === top && this.slot === S_SKIP)
+      this.unreadChildrenAt = { line: this.pos.line, column: this.pos.columnAt(this.base + i) };
+    this.unreadChildrenDepth = -1;
     // A field of the top node (the top-level object, or the first element of a top-level array) that
     // holds an object or array: a sign of more than one node (see `end`).
     if (this.rootContainers.length < 12 && (top === 1 ? this.role[0] === NODE : this.inFirstItem(top))) {
@@ -531,6 +587,7 @@ export class JsonLoader extends JsonTokenizer {
 
   /** Closes the innermost container, whose last byte is at offset `i` of `buf`. */
   protected close(buf: Buffer, i: number): void {
+    this.unreadChildrenDepth = -1;
     const top = this.depth - 1;
     const frame = this.frames[top];
     const capture = this.captures.closing(top + 1);
@@ -572,6 +629,7 @@ export class JsonLoader extends JsonTokenizer {
     if (frame.fieldCount === 0) this.sized[i] = EMPTY;
     const { nameField, sizeField, childrenField } = this.options;
     const nameKind = frame.nameKind;
+    if (!frame.keyed) this.unkeyed++;
     if (!frame.keyed && (nameKind === STRING || nameKind === NUMBER || nameKind === BOOLEAN))
       this.hasNames = true;
     if (!frame.keyed && nameKind === COLLECTION) {
