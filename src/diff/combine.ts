@@ -1,5 +1,5 @@
 import { MergedNames } from "../model/merged-names.js";
-import { bytesCompare, copyName, NamePool, type Names, sameName } from "../model/names.js";
+import { bytesCompare, sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 import { KIND } from "./changes.js";
 import { type ComparedFields, isEdited } from "./field-edits.js";
@@ -345,9 +345,10 @@ function copyTree(
   const oldOrigin = oldTree.origin;
   const newIds = newTree.ids;
   const oldIds = oldTree.ids;
-  // The new version's names (and ids) are shared, not copied: only the removed nodes' are copied in.
-  const name = combinedNames(newName, newIndex, oldName, oldIndex, total, 12);
-  // Ids are read only by a label or a focus by id: each from its version when asked (MergedNames).
+  // Names and ids are read from the version each node came from when asked (MergedNames): a summary
+  // reads the names of the nodes it shows, and a pool of the combined tree's own would be two numbers
+  // a node, memory touched for the first time (dear on a big tree: docs/performance.md).
+  const name = new MergedNames(newName, newIndex, oldName, oldIndex);
   const ids = useIds ? new MergedNames(newIds!, newIndex, oldIds!, oldIndex) : null;
   // Where each node came from, made when first read: no summary or diff of it reads it, and an array
   // of every node is new memory, dear on a big tree (docs/performance.md).
@@ -398,28 +399,4 @@ function copyTree(
     ...(newTree.reading ? { reading: newTree.reading } : {}),
     ...(empty ? { empty } : {}),
   };
-}
-
-/**
- * The combined tree's names: node k has name `newIndex[k]` of the new version's, or where that is -1
- * (a removed node) name `oldIndex[k]` of the old version's. A new version's pool lends its bytes (only
- * the removed names are copied, see NamePool.mergedWith); other names are copied into a pool of about
- * `perName` bytes a name.
- */
-function combinedNames(
-  newNames: Names,
-  newIndex: Int32Array,
-  oldNames: Names,
-  oldIndex: Int32Array,
-  total: number,
-  perName: number,
-): NamePool {
-  if (newNames instanceof NamePool) return newNames.mergedWith(newIndex, oldNames, oldIndex);
-  const out = new NamePool(total, total * perName);
-  for (let k = 0; k < total; k++) {
-    const n = newIndex[k];
-    if (n >= 0) copyName(out, k, newNames, n);
-    else copyName(out, k, oldNames, oldIndex[k]);
-  }
-  return out;
 }

@@ -1,5 +1,6 @@
 import { EspalierError } from "../errors.js";
 import type { Measures } from "../model/measure.js";
+import { pooledBytes } from "../model/merged-names.js";
 import { NamePool } from "../model/names.js";
 import { printedNameOf } from "../model/printed-names.js";
 import { parseSegment, splitPath } from "../model/segment.js";
@@ -63,11 +64,13 @@ export class NameSearch {
       return;
     }
     const names = tree.name;
+    // Pooled names (a diff's combined names too: each from its version's pool) are copied as bytes.
+    const pooled = pooledBytes(names);
     let total = 0;
     if (names instanceof NamePool) for (let i = 0; i < n; i++) total += names.byteLengthOf(i);
+    else if (pooled !== null) for (let i = 0; i < n; i++) total += pooled(i).length;
     this.bytes = Buffer.alloc(Math.max(16, total));
-    const pooled = names instanceof NamePool && !names.hasExact;
-    for (let i = 0; i < n; i++) this.put(i, pooled ? names.bytesOf(i) : encoder.encode(names.get(i)));
+    for (let i = 0; i < n; i++) this.put(i, pooled !== null ? pooled(i) : encoder.encode(names.get(i)));
     this.ready = n;
   }
 

@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { MergedNames } from "../../src/model/merged-names.js";
+import { MergedNames, pooledBytes } from "../../src/model/merged-names.js";
 import { indexOfName, NamePool, PrefixedNames, StringNames } from "../../src/model/names.js";
 
 describe("MergedNames", () => {
@@ -49,6 +49,52 @@ describe("MergedNames", () => {
         },
       ),
       { numRuns: 300 },
+    );
+  });
+
+  it("gives each name's UTF-8 bytes from the pool it came from (RFC 3629 encoding, as Buffer writes it), or null when a version keeps names as strings", () => {
+    const name = fc.constantFrom("", "a", "b", "é", "12", "日本");
+    fc.assert(
+      fc.property(
+        fc.array(name, { maxLength: 10 }),
+        fc.array(name, { minLength: 1, maxLength: 10 }),
+        fc.array(fc.nat(), { maxLength: 20 }),
+        fc.boolean(),
+        fc.boolean(),
+        (newList, oldList, picks, prefixed, oldAsStrings) => {
+          const newIndex = [...newList.keys()].map((n) => (prefixed ? n + 1 : n));
+          const oldIndex = newList.map(() => -1);
+          if (prefixed) {
+            newIndex.unshift(0);
+            oldIndex.unshift(-1);
+          }
+          for (const p of picks) {
+            newIndex.push(-1);
+            oldIndex.push(p % oldList.length);
+          }
+          const fromNew = prefixed
+            ? new PrefixedNames("root é", NamePool.from(newList))
+            : NamePool.from(newList);
+          const fromOld = oldAsStrings ? new StringNames(oldList) : NamePool.from(oldList);
+          const merged = new MergedNames(
+            fromNew,
+            Int32Array.from(newIndex),
+            fromOld,
+            Int32Array.from(oldIndex),
+          );
+          const bytesOf = pooledBytes(merged);
+          if (oldAsStrings) {
+            expect(bytesOf).toBeNull();
+            return;
+          }
+          expect(bytesOf).not.toBeNull();
+          for (let k = 0; k < merged.length; k++)
+            expect(Buffer.from(bytesOf!(k)).toString("hex"), `name ${k}`).toBe(
+              Buffer.from(merged.get(k), "utf8").toString("hex"),
+            );
+        },
+      ),
+      { numRuns: 200 },
     );
   });
 });
