@@ -70,6 +70,10 @@ export class PathListReader {
   /** Unsized lists: non-blank lines, and those that start with a number and a space (see `end`). */
   private pathLines = 0;
   private numberFirstLines = 0;
+  /** Unsized lists: lines that start with a file's mode (`-rw-r--r--`), as `ls -l` and `tar tv` print. */
+  private modeFirstLines = 0;
+  /** Whether the first unsized line is `total N`, as `ls -l` prints first. */
+  private totalFirst = false;
   /** Whether the first unsized line is words and spaces without a "/", as a header of columns is. */
   private headerFirst = false;
   /**
@@ -164,6 +168,16 @@ export class PathListReader {
       // line. Read as paths, each line would be one path (a process name with a "/" split into
       // folders), with exit 0.
       throw new EspalierError("PARSE_PATHS", COLUMNS_ALIGNED, { line: this.firstLine, column: 1 });
+    }
+    if (
+      this.detected &&
+      this.sized === false &&
+      this.modeFirstLines > 0 &&
+      this.modeFirstLines === this.pathLines - (this.totalFirst ? 1 : 0)
+    ) {
+      // `ls -l` or `tar tv`: each line a file's mode, owner, size, date and name. Read as paths, each
+      // whole line would be one path split at its "/"s, the sizes in the names, with exit 0.
+      throw new EspalierError("PARSE_PATHS", MODES_FIRST, { line: this.firstLine, column: 1 });
     }
     if (this.detected && this.sized === false && this.commas > 0 && this.sameCommas && this.pathLines >= 3) {
       // A pip RECORD file (path,hash,size) or any CSV saved without its header row: read as paths, each
@@ -336,8 +350,12 @@ export class PathListReader {
       pathStart = at + 1;
       if (sizeEnd === space) while (pathStart < end && bytes[pathStart] === space) pathStart++;
     } else {
-      if (this.pathLines++ === 0) this.headerFirst = headerOfColumns(bytes, start, end);
+      if (this.pathLines++ === 0) {
+        this.headerFirst = headerOfColumns(bytes, start, end);
+        this.totalFirst = /^total [0-9]/.test(bytes.toString("latin1", start, Math.min(end, start + 8)));
+      }
       if (numberThenSpace(bytes, start, end)) this.numberFirstLines++;
+      if (modeFirst(bytes, start, end)) this.modeFirstLines++;
       if (this.pathLines <= COMMA_LINES && this.sameCommas) {
         const commas = countByte(bytes, comma, start, end);
         if (this.pathLines === 1) {
@@ -379,6 +397,26 @@ function windowsPath(bytes: Buffer, start: number, end: number): boolean {
   if (c >= 97 && c <= 122 && bytes[start + 1] === colon && bytes[start + 2] === backslash) return true;
   return bytes[start] === backslash && bytes[start + 1] === backslash;
 }
+
+/**
+ * Whether the line starts with a file's mode as `ls -l` and `tar tv` print it (POSIX ls, -l: the entry
+ * type, then three triplets of permissions; from memory): `-rw-r--r-- `, `drwxr-xr-x. `, `lrwxrwxrwx+ `.
+ */
+function modeFirst(bytes: Buffer, start: number, end: number): boolean {
+  if (end - start < 11 || !TYPES.includes(bytes[start])) return false;
+  for (let k = 1; k <= 9; k++) if (!PERMISSIONS.includes(bytes[start + k])) return false;
+  const after = bytes[start + 10];
+  if (after === space) return true;
+  return (after === dot || after === plus || after === at) && end - start > 11 && bytes[start + 11] === space;
+}
+
+const TYPES = Buffer.from("-dlcbpsD");
+const PERMISSIONS = Buffer.from("-rwxsStT");
+const plus = 43;
+const at = 64;
+
+const MODES_FIRST =
+  "every line starts with a file's mode (-rw-r--r--), as ls -l and tar tv print: read as a path list, each whole line would be one path, its size and date part of the names. List paths instead: find DIR -printf '%s\\t%p\\n' (sizes and paths), tar tf (names); to read each line as a path, pass --input-format paths";
 
 /** Whether the line is spaces, digits, one or more spaces and then more: `  1234 ./a` (wc -c, find '%s %p'). */
 function numberThenSpace(bytes: Buffer, start: number, end: number): boolean {
