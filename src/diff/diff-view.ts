@@ -28,7 +28,7 @@ export interface DiffViewNode extends Omit<ViewNode, "children" | "hidden"> {
   changes: ChangeCounts;
   /** A moved node's old parent (graphs: the parent an unlinked full entry lost), a path in the old version. */
   movedFrom: string | null;
-  /** A renamed node's old name. */
+  /** A renamed node's old name; a moved node's too when it has a new one. */
   renamedFrom: string | null;
   /**
    * The compared fields whose value differs (`--compare-field`), whatever the node's kind (a moved
@@ -92,7 +92,11 @@ export function buildDiffView(input: DiffViewInput): HierarchyNode<DiffViewNode>
         k === KIND.moved || (k === KIND.unlinked && combined.newIndex[i] >= 0 && data.reference === undefined)
           ? old.pathOf(oldTree.parent[o])
           : null,
-      renamedFrom: k === KIND.renamed ? old.nameOf(o) : null,
+      // A moved node that also has a new name says its old one too (one kind each: moved wins).
+      renamedFrom:
+        k === KIND.renamed || (k === KIND.moved && oldTree.name.get(o) !== index.tree.name.get(i))
+          ? old.nameOf(o)
+          : null,
       edits:
         compared === null || o < 0 || newIndex[i] < 0
           ? []

@@ -1,4 +1,4 @@
-import { EspalierError, quoted, quotedList, say } from "../errors.js";
+import { EspalierError, quoted, quotedList, type SourcePos, say } from "../errors.js";
 
 /** Names of fields seen on node objects, kept while a loader reads: the first few, of the first nodes. */
 export class FieldsSeen {
@@ -168,4 +168,34 @@ export function checkGraphFields(
   const role = size ? "size" : "name";
   const field = size ? options.sizeField : options.nameField;
   throw fields.length === 0 ? fieldNotApplicable(role, field, "edges") : missingField(role, field, fields);
+}
+
+/**
+ * FIELD_MISSING at `pos` when the children field named holds the top level only (no node has
+ * children but the top ones) while a node holds an object or array under `children`: a wrapper's
+ * field named as the children field (a mount table's `{"filesystems": [...]}`, each mount's own under
+ * `children`) read the top level and dropped the rest with exit 0.
+ */
+export function wrapperChildren(
+  field: string,
+  pos: SourcePos | undefined,
+  words: "json" | "yaml",
+): EspalierError {
+  const out = words === "json" ? `jq '.${field}'` : `the value of "${field}" as the document`;
+  const held = words === "json" ? "an object or array" : "a mapping or sequence";
+  return new EspalierError(
+    "FIELD_MISSING",
+    say`the children field "${field}" holds only the top level, while nodes below hold ${held} under "children" (one field holds the children at every level): if "${field}" wraps the top nodes, take them out first (${out}) and leave out --children-field`,
+    pos,
+    { option: "--children-field", field },
+  );
+}
+
+/** Whether no node of `parentOf[0, length)` has a grandparent: the tree is at most one level deep. */
+export function atMostOneLevel(parentOf: Int32Array, length: number): boolean {
+  for (let i = 0; i < length; i++) {
+    const p = parentOf[i];
+    if (p !== -1 && parentOf[p] !== -1) return false;
+  }
+  return true;
 }

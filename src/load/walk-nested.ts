@@ -3,10 +3,21 @@ import type { LinkedNodes } from "../model/linked-nodes.js";
 import { isSize } from "../model/size-rule.js";
 import { badNodeSize } from "./bad-node-size.js";
 import { describeNode } from "./describe-node.js";
-import type { LoadOptions } from "./load-options.js";
-import { FieldsSeen, loneRoot, missingField, nameFieldNamed, sizeFieldNamed } from "./missing-field.js";
+import { defaultLoadOptions, type LoadOptions } from "./load-options.js";
+import {
+  atMostOneLevel,
+  FieldsSeen,
+  loneRoot,
+  missingField,
+  nameFieldNamed,
+  sizeFieldNamed,
+  wrapperChildren,
+} from "./missing-field.js";
 import { NodeSink } from "./node-sink.js";
 import { fieldSizeUnit } from "./size-unit.js";
+
+/** The children field by default (load-options.ts). */
+const DEFAULT_CHILDREN = defaultLoadOptions.childrenField;
 
 /** What a value in a parsed document is, as far as the walker cares. */
 export const Kind = { Null: 0, Number: 1, String: 2, Boolean: 3, Seq: 4, Map: 5, Other: 6 } as const;
@@ -64,6 +75,8 @@ export function walkNested<V>(
   // Keys of the first node objects, for the message of a field no node has.
   const seen = new FieldsSeen();
   let hasNames = false;
+  // Where a node first held an object or array under `children` while another field holds children.
+  let unreadChildrenAt: SourcePos | undefined;
   // Nodes not keyed by name (their name comes from the name field, or is "").
   let unkeyed = 0;
   // referenceOf[i] = the node whose full entry node i stands for, -1 for a full entry.
@@ -195,6 +208,12 @@ export function walkNested<V>(
 
     const children = access.field(v, childrenField);
     const childrenKind = access.kind(children);
+    if (unreadChildrenAt === undefined && childrenField !== DEFAULT_CHILDREN) {
+      // Children under `children` while another field is read for them (see wrapperChildren).
+      const other = access.field(v, DEFAULT_CHILDREN);
+      const otherKind = access.kind(other);
+      if (otherKind === Kind.Seq || otherKind === Kind.Map) unreadChildrenAt = access.pos(other as V) ?? {};
+    }
     if (nameValue === undefined && sizeValue === undefined && children === undefined) {
       // No name, size or children: an empty entry when the object has no field at all (`{}`).
       keys.length = 0;
@@ -285,6 +304,8 @@ export function walkNested<V>(
     });
     if (nested.length > 0) throw loneRoot(childrenField, nested, "yaml", rootKind === Kind.Seq);
   }
+  if (unreadChildrenAt !== undefined && atMostOneLevel(sink.parentOf, sink.length))
+    throw wrapperChildren(childrenField, unreadChildrenAt, "yaml");
   if (!sink.hasSizes && sizeFieldNamed(options)) throw missingField("size", sizeField, seen.list(), true);
   if (!hasNames && nameFieldNamed(options)) throw missingField("name", nameField, seen.list(), true);
   sink.nameNamelessTop(options.rootName);

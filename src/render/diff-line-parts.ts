@@ -56,8 +56,9 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
 
 /**
  * `[added]`, `[removed]`, `[moved from OLD/PARENT]`, `[renamed from OLD]`, `[edited FIELD OLD -> NEW]`,
- * `[resized]`, with the node's field edits (`--compare-field`) and its own size change signed
- * (`[resized +12 B]`, `[moved from A, version 1.2.0 -> 1.3.0, +2 B]`); the old path or name and each
+ * `[resized]`, with the node's field edits (`--compare-field`), its old name when a moved node has a new
+ * one (`[moved from A, renamed from b]`) and its own size change signed (`[resized +12 B]`,
+ * `[moved from A, version 1.2.0 -> 1.3.0, +2 B]`); the old path or name and each
  * value cut to `fromWidth` columns. An empty (absent) value reads `(none)`.
  */
 export function changeTag(
@@ -80,7 +81,11 @@ export function changeTag(
           : "the root";
     parts[0] += ` from ${cut(from)}`;
   }
-  if (node.renamedFrom !== null) parts[0] += ` from ${cut(shownLabel(node.renamedFrom))}`;
+  if (node.renamedFrom !== null) {
+    const from = `from ${cut(shownLabel(node.renamedFrom))}`;
+    if (node.change === "renamed") parts[0] += ` ${from}`;
+    else parts.push(`renamed ${from}`);
+  }
   node.edits.forEach((edit, k) => {
     const text = `${safeText(edit.field)} ${cut(editValue(edit.old))} -> ${cut(editValue(edit.new))}`;
     if (k === 0 && node.change === "edited") parts[0] += ` ${text}`;

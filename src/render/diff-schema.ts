@@ -80,7 +80,10 @@ export const diffNodeSchema: z.ZodType<DiffSummaryNode> = z.lazy(() =>
         .describe(
           "For a moved node, the old parent's path in the old version; for an unlinked full entry of a graph, the parent it lost.",
         ),
-      renamedFrom: z.string().optional().describe("For a renamed node, its old name."),
+      renamedFrom: z
+        .string()
+        .optional()
+        .describe("For a renamed node, its old name; for a moved node, its old name when it has a new one."),
       edits: z
         .array(fieldEditSchema)
         .min(1)

@@ -122,6 +122,19 @@ describe("a du -a listing (1 KiB blocks, not bytes)", () => {
     expect(result.stderr).toMatch(/du without -b .*\[PARSE_PATHS\]/);
   });
 
+  it("is PARSE_PATHS for a small folder too: 8 sizes above 0 are enough", async () => {
+    // Field test: du -a of a docs folder of 14 files (15 lines) printed "size 372 B" with exit 0.
+    const few = Array.from({ length: 7 }, (_, k) => `${4 * (k + 1)}\tdocs/page-${k}.md`);
+    const total = 4 + few.reduce((s, line) => s + Number(line.split("\t")[0]), 0);
+    const result = await cli(["-"], { stdin: [...few, `${total}\tdocs`, ""].join("\n") });
+    expect(result.code).toBe(2);
+    expect(result.stderr).toMatch(/du without -b .*\[PARSE_PATHS\]/);
+    // Fewer than 8 is read as bytes still: 4^-7 is no longer small evidence against chance.
+    const six = [...few.slice(0, 6), `${4 + 4 * 21}\tdocs`, ""].join("\n");
+    const bytes = await cli(["-", "--bare"], { stdin: six });
+    expect(bytes.code).toBe(0);
+  });
+
   it("reads the numbers as they are with --folder-sizes total --units plain", async () => {
     const result = await run(blocks, ["--folder-sizes", "total", "--units", "plain"]);
     expect(result.stderr).toBe("");

@@ -37,6 +37,17 @@ describe("a children field that wraps the top level only", () => {
     expect(ok.stdout).toBe(". /  4 nodes\n  . /srv/quill\n  . /srv/tide / /srv/tide/logs  2 nodes\n");
   });
 
+  it("YAML the same, at the first unread children, naming the value to take out", async () => {
+    const yaml = "filesystems:\n  - target: /\n    children:\n      - target: /srv/quill\n";
+    const r = await cli(["mounts.yaml", "--children-field", "filesystems", "--name-field", "target"], {
+      files: { "mounts.yaml": yaml },
+    });
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(
+      /^espalier: mounts\.yaml:4:7: the children field "filesystems" holds only the top level, while nodes below hold a mapping or sequence under "children" .*the value of "filesystems" as the document.*\[FIELD_MISSING\]\n$/,
+    );
+  });
+
   it("a tree that uses the field below the top, or a scalar named children, reads as before", async () => {
     const deep = '{"name": "r", "kids": [{"name": "a", "kids": [{"name": "x", "children": [1]}]}]}';
     const r = await cli(["-", "--children-field", "kids", "--bare"], { stdin: deep });

@@ -30,10 +30,20 @@ describe("renderDiffMarkdown(view, totals, options) through espalier diff --form
     expect(doc.firstChild?.type).toBe("paragraph");
     // Every text line but the header's and the key's.
     expect(kinds.filter((k) => k === "item")).toHaveLength(text.stdout.trimEnd().split("\n").length - 2);
-    // One kind per node (moved outranks renamed), each tag a literal code span right before its name,
-    // which is a code span too, despite the backtick in x`s. A "size" column is a plain number (bytes
-    // only when the input says so, docs/input.md "Units").
-    expect(codes).toEqual(["R", "A", "y", "B", "z", "[moved from A]", "x`s", "[added +4]", "C"]);
+    // One kind per node (moved outranks renamed, and the tag still says the old name), each tag a
+    // literal code span right before its name, which is a code span too, despite the backtick in x`s.
+    // A "size" column is a plain number (bytes only when the input says so, docs/input.md "Units").
+    expect(codes).toEqual([
+      "R",
+      "A",
+      "y",
+      "B",
+      "z",
+      "[moved from A, renamed from x]",
+      "x`s",
+      "[added +4]",
+      "C",
+    ]);
     expect(kinds).not.toContain("html_inline");
   });
 

@@ -91,7 +91,8 @@ describe("renderDiffText(view, totals, options)", () => {
     const out = text(oldTree, newTree);
     // The old parent was the root: named, so the tag does not read as "k was a top node".
     expect(out).toContain(": [moved from R (the root)] k");
-    expect(out).toContain(": [moved from A] b\\u{1b}[31m");
+    // b also has a new name: moved wins as its kind, and its old name is said too.
+    expect(out).toContain(": [moved from A, renamed from b] b\\u{1b}[31m");
     const renamed: Tree = { ...makeIdTree("R{A{b},k}"), name: new StringNames(["R", "A", "b", "k2"]) };
     const oldWithEscape: Tree = { ...oldTree, name: new StringNames(["R", "A", "b", "k\u2028"]) };
     expect(text(oldWithEscape, renamed)).toContain(": [renamed from k\\u{2028}] k2");

@@ -5,7 +5,15 @@ import { isSize } from "../../model/size-rule.js";
 import { badNodeSize } from "../bad-node-size.js";
 import { describeNode } from "../describe-node.js";
 import { defaultLoadOptions, type LoadOptions } from "../load-options.js";
-import { FieldsSeen, loneRoot, missingField, nameFieldNamed, sizeFieldNamed } from "../missing-field.js";
+import {
+  atMostOneLevel,
+  FieldsSeen,
+  loneRoot,
+  missingField,
+  nameFieldNamed,
+  sizeFieldNamed,
+  wrapperChildren,
+} from "../missing-field.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
 import { fieldSizeUnit } from "../size-unit.js";
 import { linkTable } from "../table/link-table.js";
@@ -194,7 +202,8 @@ export class JsonLoader extends JsonTokenizer {
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the top-level array holds no nodes");
     if (sink.length === 1 && this.rootContainers.length > 0)
       throw loneRoot(this.options.childrenField, this.rootContainers, "json", this.topList);
-    if (this.unreadChildrenAt !== undefined) this.checkUnreadChildren(this.unreadChildrenAt);
+    if (this.unreadChildrenAt !== undefined && atMostOneLevel(sink.parentOf, sink.length))
+      throw wrapperChildren(this.options.childrenField, this.unreadChildrenAt, "json");
     for (let i = 0; i < sink.length && !sink.hasSizes; i++) if (this.sized[i] === 1) sink.hasSizes = true;
     if (!sink.hasSizes && sizeFieldNamed(this.options))
       throw missingField("size", this.options.sizeField, this.seen.list(), true);
@@ -323,26 +332,6 @@ export class JsonLoader extends JsonTokenizer {
     for (let k = 0; k < DEFAULT_CHILDREN.length; k++)
       if (bytes[q + 1 + k] !== DEFAULT_CHILDREN.charCodeAt(k)) return false;
     return true;
-  }
-
-  /**
-   * FIELD_MISSING when the children field named reads at most one level (no node has children but the
-   * top ones) while a node holds an object or array under `children`, at `at`: read so, a mount table
-   * named by its wrapper field (`--children-field filesystems`) was 2 nodes with exit 0.
-   */
-  private checkUnreadChildren(at: { line: number; column: number }): void {
-    const { parentOf, length } = this.sink;
-    for (let i = 0; i < length; i++) {
-      const p = parentOf[i];
-      if (p !== -1 && parentOf[p] !== -1) return;
-    }
-    const field = this.options.childrenField;
-    throw new EspalierError(
-      "FIELD_MISSING",
-      say`the children field "${field}" holds only the top level, while nodes below hold an object or array under "${DEFAULT_CHILDREN}" (one field holds the children at every level): if "${field}" wraps the top nodes, take them out first (jq '.${field}') and leave out --children-field`,
-      at,
-      { option: "--children-field", field },
-    );
   }
 
   protected word(word: Uint8Array, absS: number): void {

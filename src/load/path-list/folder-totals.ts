@@ -83,8 +83,13 @@ function readsAsTotals(nodes: PlacedSizes, contents: Float64Array, parents: Uint
   return sized;
 }
 
-/** Listed sizes that must all be multiples of 4 before a listing reads as du's 1 KiB blocks. */
-const BLOCK_EVIDENCE = 16;
+/**
+ * Listed sizes that must all be multiples of 4 before a listing reads as du's 1 KiB blocks: byte sizes
+ * are so by chance once in 4^8 (65,536) listings, and a byte listing must also have a folder whose own
+ * part is under 1 KiB to be refused (see foldersOfBytes). It was 16: `du -a` of a folder of 14 files
+ * read as bytes, 1,024 times too small, with exit 0.
+ */
+const BLOCK_EVIDENCE = 8;
 
 /**
  * Whether a listing of folder totals gives 1 KiB blocks, as `du -a` prints disk usage without `-b`

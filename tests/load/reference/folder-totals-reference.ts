@@ -10,7 +10,8 @@ import type { NodeSink } from "../../../src/load/node-sink.js";
  * contents (no node below it was first seen after its line), (2) no listed folder's size is less than
  * what its contents add up to (a listed node counts its size, an unlisted one its contents), and (3)
  * some listed folder has contents of some size. Read as totals, a listed folder's own size is its size
- * minus its contents'. Returns whether it read totals.
+ * minus its contents'; unless the sizes look like du -a's 1 KiB blocks (PARSE_PATHS). Returns whether it
+ * read totals.
  */
 export function folderTotalsByReference(
   sink: NodeSink,
@@ -32,6 +33,12 @@ export function folderTotalsByReference(
     const covers = folders.every((f) => sink.ownSize[f] >= contentsOf(f));
     const sized = folders.some((f) => contentsOf(f) > 0);
     if (!(afterContents && covers && sized)) return false;
+    // du -a without -b (1 KiB blocks): at least 8 listed sizes above 0, every one a multiple of 4, and
+    // some listed folder whose own part (its size less its contents) is under 1,024.
+    const sizes = [...listedAt.keys()].map((i) => sink.ownSize[i]).filter((size) => size !== 0);
+    const small = folders.some((f) => sink.ownSize[f] - contentsOf(f) < 1024);
+    if (sizes.length >= 8 && sizes.every((size) => size % 4 === 0) && small)
+      throw new EspalierError("PARSE_PATHS", "sizes read as 1 KiB blocks", { line: 1, column: 1 });
   }
   const contents = new Map(folders.map((f) => [f, contentsOf(f)]));
   for (const [f, c] of contents) {
