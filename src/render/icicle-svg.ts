@@ -128,7 +128,7 @@ const PATTERN = "espalier-folded";
 
 /**
  * The summary as an SVG icicle: a row per depth, each shown node a block as wide as its size (or
- * node count) and each folded remainder a hatched block `+3 more` after its parent's children, so
+ * node count) and each folded remainder a hatched block `+41 hidden` (nodes) after its parent's children, so
  * the row beneath a block fills it exactly. A focus has a thick outline and a warm fill; a node on
  * the path to one a darker fill and a bar along its bottom edge. In a diff, each change kind has a
  * tint and a shape (see docs/svg.md). Every block carries a tooltip with its full label and numbers.
@@ -302,7 +302,7 @@ function labels<T extends ViewNode>(
   const first = b.members
     ? fitted(groupNames(b.members), room, LABEL_PX, true)
     : folded
-      ? fitted(foldNames(node.hidden!.children), room, LABEL_PX, true)
+      ? fitted(foldNames(node.hidden!.nodes), room, LABEL_PX, true)
       : fitted(
           [`${node.reference ? `${LINE_MARK.reference} ` : ""}${shownLabel(node.label)}`],
           room,
@@ -391,9 +391,18 @@ function withEmpty(texts: string[], hiddenEmpty: number, ownEmpty: boolean): str
   return [texts.length > 0 ? `${texts[0]}, ${words}` : words, ...texts];
 }
 
-/** A fold's label, longest first: `+17,847 more`, `+17,847`, `+17.8k` (counts in the one number style). */
-function foldNames(children: number): string[] {
-  return [`+${formatCount(children)} more`, `+${formatCount(children)}`, `+${formatCount(children, true)}`];
+/**
+ * A fold's label, longest first: `+17,847 hidden`, `+17,847`, `+17.8k`: how many nodes it hides, as
+ * the text format's narrow fold counts them (`(17,847 hidden)`), so the node counts in the picture add
+ * up to the block above's (a count of its children would not; the tooltip says those).
+ */
+function foldNames(nodes: number): string[] {
+  return [`+${formatCount(nodes)} hidden`, `+${formatCount(nodes)}`, `+${formatCount(nodes, true)}`];
+}
+
+/** `3 children` (or `1 child`) a fold holds. */
+function childWords(children: number): string {
+  return `${formatCount(children)} ${children === 1 ? "child" : "children"}`;
 }
 
 /** How many siblings a group holds: its shown nodes and the hidden children of a folded remainder. */
@@ -500,7 +509,9 @@ function tooltip<T extends ViewNode>(
     ];
     for (const m of b.members.slice(0, TOOLTIP_MEMBERS)) {
       const n = m.folded ? m.node.hidden! : m.node;
-      const name = m.folded ? `+${formatCount(m.node.hidden!.children)} more` : shownLabel(m.node.label);
+      const name = m.folded
+        ? `+${formatCount(m.node.hidden!.nodes)} hidden (${childWords(m.node.hidden!.children)})`
+        : shownLabel(m.node.label);
       const change = m.folded ? null : (options.changeOf?.(m.node) ?? null);
       const note = change
         ? ` [${options.changeNote ? options.changeNote(m.node).replace(/^\[|\]$/g, "") : change}]`
@@ -527,7 +538,7 @@ function tooltip<T extends ViewNode>(
   }
   if (b.folded) {
     const { children, nodes, size, empty } = node.hidden!;
-    return `+${formatCount(children)} more under ${label}: ${amount(nodes, size, always)}${emptyNote(empty)}`;
+    return `+${formatCount(nodes)} hidden under ${label} (${childWords(children)} and all below them): ${amount(nodes, size, always)}${emptyNote(empty)}`;
   }
   const lines = [label];
   // A deep node's path is long (a chain's grow with the square of its depth): past a few lines, the
@@ -608,7 +619,11 @@ function legendItems<T extends ViewNode>(
       `on the path to ${near}`,
     ],
     ["other", `<rect ${box} fill="${LOOK.other}"/>`, "other shown node"],
-    ["folded", `<rect ${box} fill="url(#${PATTERN})"/>`, "+N more: folded nodes"],
+    [
+      "folded",
+      `<rect ${box} fill="url(#${PATTERN})"/>`,
+      "+N hidden: N nodes not drawn, children of the block above and all below them (how many children in the tooltip)",
+    ],
     [
       "group",
       `<rect ${box} fill="${LOOK.group}"/>${comb(0, s, s)}`,

@@ -194,11 +194,24 @@ describe("a fact table in Markdown, SVG and diff, checked against an independent
     // A box for a node: its name, its path (left out for the root, the focus path and the top level,
     // whose names say it), its node count and cost.
     const shown: { path: string; nodes: number; size: number }[] = [];
-    // Boxes of what is not shown: "+K more under NAME: N nodes, S" and "K grouped under NAME: …".
+    // Boxes of what is not shown: "+N hidden under NAME (K children and all below them): N nodes, S"
+    // and "K grouped under NAME: …".
     const rest: { under: string; children: number; nodes: number; size: number }[] = [];
     for (const { kind, lines } of boxes) {
-      if (kind === "folded" || kind === "group") {
-        const m = /^\+?(\d+) (?:more|grouped) under (.+): (.+)$/.exec(lines[0]);
+      if (kind === "folded") {
+        const m = /^\+(\d+) hidden under (.+) \((\d+) child(?:ren)? and all below them\): (.+)$/.exec(
+          lines[0],
+        );
+        expect(m, lines[0]).not.toBeNull();
+        if (!m) continue;
+        const [nodes, size] = amount(m[4]);
+        // The block's label counts the nodes it hides, as its numbers do.
+        expect(Number(m[1])).toBe(nodes);
+        rest.push({ under: m[2], children: Number(m[3]), nodes, size });
+        continue;
+      }
+      if (kind === "group") {
+        const m = /^(\d+) grouped under (.+): (.+)$/.exec(lines[0]);
         expect(m, lines[0]).not.toBeNull();
         if (!m) continue;
         const [nodes, size] = amount(m[3]);

@@ -130,7 +130,11 @@ describe("renderSvg(view, options)", () => {
     const row = (sizes: boolean) => {
       const blocks = blocksOf(renderSvg(v, { ...opts, sizes }));
       const below = beneath(blocks, blocks[0]);
-      expect(below.map((b) => b.title.split("\n")[0].split(":")[0])).toEqual(["A", "C", "+1 more under R"]);
+      expect(below.map((b) => b.title.split("\n")[0].split(":")[0])).toEqual([
+        "A",
+        "C",
+        "+1 hidden under R (1 child and all below them)",
+      ]);
       return below.map((b) => width(b) / width(below[0]));
     };
     const [, c, folded] = row(true);
@@ -456,7 +460,7 @@ describe("renderSvg(view, options)", () => {
     expect(wide.some((b) => b.title.includes("holds the focus"))).toBe(false);
   });
 
-  it("writes a fold's count in the one number style, compact when the block is narrow", () => {
+  it("writes a fold's count of hidden nodes in the one number style, compact when the block is narrow", () => {
     // Budget 3: the root, two children and a fold of the other 12,345 (each as big as all of `a`).
     const kids = Array.from({ length: 12346 }, (_, k) => `c${k}:1000`).join(",");
     const v = view(makeTree(`R{a:1000,${kids}}`), [], 3);
@@ -464,13 +468,36 @@ describe("renderSvg(view, options)", () => {
       const fold = blocksOf(renderSvg(v, { ...opts, width: w })).find((b) => b.kind === "folded")!;
       return [fold.group.getElementsByTagName("text")[0].textContent, fold.title.split(":")[0]];
     };
-    expect(label(1200)).toEqual(["+12,345 more", "+12,345 more under R"]);
+    // The fold counts the nodes it hides (here each hidden child is a leaf: 12,345 of each).
+    expect(label(1200)).toEqual([
+      "+12,345 hidden",
+      "+12,345 hidden under R (12,345 children and all below them)",
+    ]);
     // Six columns of label or fewer: the compact count (from 10,000 up).
     const tiny = Array.from({ length: 12345 }, (_, k) => `c${k}:1`).join(",");
     const narrow = view(makeTree(`R{a:1000000000000,b:1000000000000,${tiny}}`), [], 3);
     const fold = blocksOf(renderSvg(narrow, { ...opts, width: 1200 })).find((b) => b.title.startsWith("+"))!;
-    expect(fold.title.split(":")[0]).toBe("+12,345 more under R");
+    expect(fold.title.split(":")[0]).toBe("+12,345 hidden under R (12,345 children and all below them)");
     expect(fold.group.getElementsByTagName("text")[0].textContent).toBe("+12.3k");
+  });
+
+  it("labels a fold with the nodes it hides, not its children, and the legend says so (field test)", () => {
+    // Budget 2: R and B shown; B's 3 children folded, and R's child A with its 2 children (3 nodes in
+    // 1 child). The folds say +3 and +3, as the text format's (3 hidden) does, so R's 8 nodes = 1 + B's
+    // 4 + 3 reads off the picture; the tooltips say how many children.
+    const v = view(makeTree("R{A:1{a1:1,a2:1},B:6{b1:1,b2:1,b3:1}}"), [], 2);
+    const svg = renderSvg(v, { ...opts, width: 1200 });
+    const folds = blocksOf(svg).filter((b) => b.kind === "folded");
+    expect(folds.map((f) => f.group.getElementsByTagName("text")[0].textContent)).toEqual([
+      "+3 hidden",
+      "+3 hidden",
+    ]);
+    expect(folds.map((f) => f.title).sort()).toEqual([
+      "+3 hidden under B (3 children and all below them): 3 nodes, 3 B",
+      "+3 hidden under R (1 child and all below them): 3 nodes, 3 B",
+    ]);
+    expect(svg).toContain("+N hidden: N nodes not drawn");
+    expect(svg).not.toContain("+N more");
   });
 
   it("takes --width in columns, 8 pixels each, and refuses a width under 30 columns as text does", async () => {
