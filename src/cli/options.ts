@@ -63,7 +63,7 @@ export const sharedOptions = {
     flags: "--width <columns>",
     group: "Budget and layout",
     value: count(),
-    help: "widest line, in terminal columns (default: terminal width)",
+    help: "widest line, in terminal columns (default: COLUMNS, else the terminal's width, else no limit)",
   },
   chains: {
     flags: "--no-chains",

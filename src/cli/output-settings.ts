@@ -189,11 +189,25 @@ export function useColour(opts: SharedCliOptions, io: CliIO): boolean {
   return io.stdout.isTTY === true;
 }
 
-/** The terminal's width when printing to one (at least MIN_WIDTH); no limit otherwise. */
+/**
+ * The width without `--width`: `COLUMNS` when it holds a decimal integer above 0, on a terminal or
+ * not (POSIX.1-2017, XBD 8.3: the user's preferred width, used in place of the terminal's), else the
+ * terminal's width when printing to one; at least MIN_WIDTH either way. No limit otherwise, and for
+ * any other `COLUMNS` (empty, `80x`, `0`), which the standard leaves unspecified.
+ */
 export function defaultWidth(io: CliIO): number | undefined {
+  const asked = columnsOf(io.env.COLUMNS);
+  if (asked !== undefined) return Math.max(MIN_WIDTH, asked);
   return io.stdout.isTTY && io.stdout.columns && io.stdout.columns > 0
     ? Math.max(MIN_WIDTH, io.stdout.columns)
     : undefined;
+}
+
+/** `COLUMNS` as a width: digits only, above 0 (POSIX.1-2017, XBD 8.3); undefined otherwise. */
+export function columnsOf(value: string | undefined): number | undefined {
+  if (value === undefined || !/^[0-9]+$/.test(value)) return undefined;
+  const n = Number(value);
+  return n > 0 && Number.isSafeInteger(n) ? n : undefined;
 }
 
 /** The terminal's height less one line for the prompt; 40 when not printing to a terminal. */

@@ -19,7 +19,7 @@ export async function cli(
   options: {
     stdin?: string | Uint8Array;
     env?: Record<string, string>;
-    tty?: { rows: number };
+    tty?: { rows: number; columns?: number };
     outputFiles?: OutputFiles;
     /**
      * Files served before the real file system (e.g. a config file in the current directory). The
@@ -39,6 +39,7 @@ export async function cli(
       },
       isTTY: options.tty !== undefined,
       rows: options.tty?.rows,
+      columns: options.tty?.columns,
     },
     stderr: {
       write: (s: string) => {
