@@ -45,6 +45,8 @@ export interface OutputSettings {
   unnamed: string | undefined;
   /** The loader's notes on the input (reading-notes.ts), input text hidden under --pseudonymize; JSON carries them. */
   notes: readonly ShownNote[];
+  /** A fact table's rows the nodes stand for, per input (see `TreeReading.rolledUpRows`); undefined for other inputs. */
+  rolledUpRows: readonly number[] | undefined;
   /** A diff's compared record fields (see `HeaderOptions.compared`); undefined for a summary. */
   compared?: readonly string[];
 }
@@ -87,6 +89,9 @@ export function outputSettings(
         ? inputs.find((t) => t.reading?.unnamed !== undefined)?.reading?.unnamed
         : undefined,
     notes: shownNotes(tree, pseudonymKey(opts, io)),
+    rolledUpRows: inputs.every((t) => t.reading?.rolledUpRows !== undefined)
+      ? inputs.map((t) => t.reading!.rolledUpRows!)
+      : undefined,
   };
 }
 

@@ -177,7 +177,8 @@ function headerOf<T extends ViewNode>(
 
 /**
  * What the header says of the inputs, the same for every view of them (the interactive view's too):
- * what the size measures, how the input was read, rows filled, YAML documents, fields compared.
+ * what the size measures, how the input was read, rows filled, YAML documents, fields compared, a fact
+ * table's rows.
  */
 export function inputFacts(s: OutputSettings): InputFacts {
   return {
@@ -188,5 +189,6 @@ export function inputFacts(s: OutputSettings): InputFacts {
     ...(s.namesFrom === undefined ? {} : { namesFrom: s.namesFrom }),
     ...(s.unnamed === undefined ? {} : { unnamed: s.unnamed }),
     ...(s.compared === undefined ? {} : { compared: s.compared }),
+    ...(s.rolledUpRows === undefined ? {} : { rolledUpRows: s.rolledUpRows }),
   };
 }

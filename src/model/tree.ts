@@ -95,6 +95,12 @@ export interface TreeReading {
    */
   readonly unnamed?: string;
   /**
+   * A fact table rolled up by its level columns or keys: how many of its rows the tree's nodes stand
+   * for (the root's row count). Several rows may fall on one leaf (a row per day), so the header says
+   * it beside the node count.
+   */
+  readonly rolledUpRows?: number;
+  /**
    * What the reader should know about this reading that the tree cannot show: the input was read one
    * way although it may have meant another, and how to say so (see model/reading-note.ts). The command
    * line prints each on standard error; absent when there is none.

@@ -66,12 +66,18 @@ export interface HeaderOptions {
    * take a changed title for no change; undefined where inputs hold no record fields (path lists).
    */
   compared?: readonly string[];
+  /**
+   * A fact table: how many of its rows the nodes stand for, one count per input (a diff's OLD and NEW),
+   * said as `rolled up from 41,352 rows`, since several rows may fall on one node (a row per day) and
+   * the node count alone says nothing of them.
+   */
+  rolledUpRows?: readonly number[];
 }
 
 /** What a header says of its inputs beside the budget, the lines and the foci (see `HeaderOptions`). */
 export type InputFacts = Pick<
   HeaderOptions,
-  "sizeName" | "reading" | "filledRows" | "documents" | "namesFrom" | "unnamed" | "compared"
+  "sizeName" | "reading" | "filledRows" | "documents" | "namesFrom" | "unnamed" | "compared" | "rolledUpRows"
 >;
 
 /**
@@ -232,12 +238,21 @@ function sizeWord(header: HeaderOptions, style: HeaderStyle): string {
  */
 function readingParts(header: HeaderOptions, style: HeaderStyle): string[] {
   return [
+    rolledUpText(header, style),
     choiceText(header, style),
     documentsText(header, style),
     namesText(header, style),
     unnamedText(header, style),
     filledText(header, style),
   ].filter((part) => part !== "");
+}
+
+/** `rolled up from 41,352 rows` (a diff: `rolled up from 41,352 -> 41,400 rows`); empty for other inputs. */
+function rolledUpText({ rolledUpRows }: HeaderOptions, style: HeaderStyle): string {
+  if (!rolledUpRows || rolledUpRows.length === 0) return "";
+  const last = rolledUpRows[rolledUpRows.length - 1];
+  const counts = rolledUpRows.map((n) => formatCount(n)).join(" -> ");
+  return style.words(`rolled up from ${counts} ${rolledUpRows.length === 1 && last === 1 ? "row" : "rows"}`);
 }
 
 /** `2 YAML documents, named 0 and 1`, `5 YAML documents, named 0 to 4` (a diff: `1 -> 3 YAML documents`). */

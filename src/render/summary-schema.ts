@@ -102,7 +102,7 @@ export const inputReadingSchema = z
     shape: z
       .enum(["nodes", "values", "path-map", "rows", "table", "paths", "graph"])
       .describe(
-        "nodes: node objects; values: every value of a JSON/YAML document; path-map: an object keyed by path; rows: JSON rows; table: CSV/TSV; paths: a path list; graph: nodes and edges (edge list or table, adjacency map, a table read as a graph).",
+        "nodes: node objects; values: every value of a JSON/YAML document; path-map: an object keyed by path; rows: JSON rows; table: CSV/TSV or a fact table; paths: a path list; graph: nodes and edges (edge list or table, adjacency map, a table read as a graph).",
       ),
     sizeUnit: z.enum(["bytes", "number"]).describe("What sizes count: bytes, or plain numbers."),
     childrenField: z.string().optional().describe("Nested input: the field children were read from."),
@@ -130,6 +130,14 @@ export const inputReadingSchema = z
       .optional()
       .describe(
         "Nested input: how many nodes are empty objects ({}), counted in totals.nodes; absent when none.",
+      ),
+    rolledUpRows: z
+      .number()
+      .int()
+      .positive()
+      .optional()
+      .describe(
+        "A fact table (--levels, --key-field, --rolled-up): how many of its rows the nodes stand for (several rows may fall on one node); totals.nodes counts nodes, not rows.",
       ),
     filledRows: z
       .number()

@@ -27,6 +27,22 @@ describe("espalier FILE --levels … (fact tables)", () => {
     expect(r.stdout).toContain("* egress");
   });
 
+  it("says how many rows its nodes stand for, in the header and in JSON (field test: rows per leaf)", async () => {
+    // RFC 4180: one record per line after the header line, none of the fixture's fields quoted across
+    // lines, so its rows are its lines less the header.
+    const rows = readFileSync(fixture, "utf8").trimEnd().split("\n").length - 1;
+    const r = await cli([fixture, ...LEVELS, "--budget", "8"]);
+    expect(r.code).toBe(0);
+    const [header] = r.stdout.split("\n");
+    const nodes = Number(/^summary: ([\d,]+) nodes/.exec(header)![1].replaceAll(",", ""));
+    // A row per day: fewer nodes than rows, and the header says both.
+    expect(nodes).toBeLessThan(rows);
+    expect(header).toContain(`; rolled up from ${rows.toLocaleString("en-US")} rows;`);
+    const json = JSON.parse((await cli([fixture, ...LEVELS, "--budget", "8", "--format", "json"])).stdout);
+    expect(json.input).toEqual({ shape: "table", sizeUnit: "number", rolledUpRows: rows });
+    expect(json.totals.nodes).toBe(nodes);
+  });
+
   it("prints a query that, run as printed on the engine, gives a result read back to the same summary", async () => {
     const printed = await cli(["--print-sql", ...LEVELS, "--sql-table", "cost_export"]);
     expect(printed.code).toBe(0);
@@ -105,6 +121,11 @@ describe("espalier FILE --levels … (fact tables)", () => {
     expect(r.stderr).toBe("");
     expect(r.code).toBe(1);
     expect(r.stdout).toContain("qf-lab");
+    // Each month's rows: the added month has the one row more.
+    const rows = text.trimEnd().split("\n").length - 1;
+    expect(r.stdout).toContain(
+      `rolled up from ${rows.toLocaleString("en-US")} -> ${(rows + 1).toLocaleString("en-US")} rows`,
+    );
   });
 
   it("pseudonymises the level values like any names", async () => {

@@ -275,6 +275,9 @@ function build(
     fields,
     syntheticRoot: true,
     ...(elided ? { elided } : {}),
+    // The root's row count is every row of the table (of the original table, for a rollup result read
+    // with --rolled-up): the header says how many rows the nodes stand for.
+    reading: { shape: "table", sizeUnit: "number", rolledUpRows: rowsOf[0] },
   };
 }
 
