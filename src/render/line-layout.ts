@@ -33,7 +33,7 @@ export interface LineParts {
   /** The same with counts and plain sizes compact (`12.1k nodes`). */
   compactNumbers: string;
   /**
-   * The count alone, compact (`12.1k nodes`), for a narrow line: "" for a single node, which a line
+   * The count alone, exact (`12,121 nodes`), for a narrow line: "" for a single node, which a line
    * without a count is read as.
    */
   countNumbers: string;
@@ -81,6 +81,9 @@ const MIN_LABEL = 8;
 /** Shortest label kept before a tag's old path and its size, then a diff fold's changes, give way. */
 const FEW_LABEL = 4;
 
+/** A step's labels cut anyhow, a chain in its middle: only once the count is gone. */
+const ANY_CUT = -1;
+
 /** Shortest label kept, one character and `…`, before a count gives way. */
 const LEAST_LABEL = 2;
 
@@ -93,7 +96,7 @@ const NOTHING_CUT = {
 } as const;
 
 /** The first of `laidOutLine`'s steps that may leave a number out. */
-const FIRST_CUT = 6;
+const FIRST_CUT = 7;
 
 /** A laid-out line, and whether it gave up a number to fit its width. */
 export interface LaidOutLine {
@@ -123,17 +126,17 @@ export interface LaidOutLine {
  *   1. the fold drops how many children it hides and keeps its numbers (`(hidden: 41 nodes, 2.0 MiB)`),
  *      without a size in it to its fewest words (`(41 hidden)`);
  *   2. the tag's old path or old name is cut to a few columns (`…` marks every cut);
- *   3. the labels are cut, down to 8 columns: one name at its end, or around where it differs from
- *      its siblings when the end cut would lose that; a chain's longest names at their ends, every
- *      ` / ` kept so its names can be counted (see `cutLabels`);
+ *   3. the labels are cut, down to 8 columns a name, then to 4: one name at its end, or around where it
+ *      differs from its siblings when the end cut would lose that; a chain's longest names at their
+ *      ends, every ` / ` kept so its names can be counted (see `cutLabels`);
  *   4. numbers become compact (`12.1k nodes`, plain sizes `286M`);
  *   5. the fold's size goes, its count stays (`(hidden: 41 nodes)`; in a diff with how many changed
  *      nodes it holds), then the line's size (`608 nodes`), then the fold's words (`(41 hidden)`);
  *   6. a deep line's indentation shrinks to a third of the width, its level in digits at its end;
- *   7. the labels are cut down to 4 columns, then the tag keeps only its kind (`[moved]`: its old
- *      path and its size change go), then a diff's fold drops how many changed (`(41 hidden)`);
+ *   7. the labels are cut down to 4 columns again, then the tag keeps only its kind (`[moved]`: its
+ *      old path and its size change go), then a diff's fold drops how many changed (`(41 hidden)`);
  *   8. the labels are cut down to one character and `…`, then the indentation is only the level in
- *      digits (`12 `);
+ *      digits (`12 `), then each name down to `…` alone (a chain's ` / ` kept);
  *   9. the line's count goes, `?` standing in its place (a line without a count reads as one node),
  *      then the fold keeps only its sign (`(hidden)`), then the `?` goes.
  * A fold never goes: a reader always sees that something is hidden. At MIN_WIDTH and wider the line
@@ -190,6 +193,7 @@ export function laidOutLine(p: LineParts, options: LayoutOptions = {}): LaidOutL
     [indent, p.tag, 0, p.numbers, foldWords],
     [indent, p.shortTag, 0, p.numbers, foldWords],
     [indent, p.shortTag, MIN_LABEL, p.numbers, foldWords],
+    [indent, p.shortTag, FEW_LABEL, p.numbers, foldWords],
     [
       indent,
       p.shortTag,
@@ -206,17 +210,18 @@ export function laidOutLine(p: LineParts, options: LayoutOptions = {}): LaidOutL
     [short, kindTag, FEW_LABEL, p.countNumbers, foldBare],
     [short, kindTag, LEAST_LABEL, p.countNumbers, foldBare],
     [least, kindTag, LEAST_LABEL, p.countNumbers, foldBare],
+    [least, kindTag, 1, p.countNumbers, foldBare],
     [least, kindTag, LEAST_LABEL, gone, foldBare],
     [least, kindTag, LEAST_LABEL, gone, sign],
-    [least, kindTag, 1, gone, sign],
-    [least, kindTag, 1, "", sign],
+    [least, kindTag, ANY_CUT, gone, sign],
+    [least, kindTag, ANY_CUT, "", sign],
   ];
   for (const [k, [ind, tag, fewest, numbers, fold]] of steps.entries()) {
     const room = width - displayWidth(line(ind, "", tag, numbers, fold, false));
     const whole = displayWidth(label) <= room;
-    if (!whole && (fewest === 0 || room < Math.min(fewest, displayWidth(label)))) continue;
+    if (!whole && (fewest === 0 || room < floorOf(p.labels, fewest))) continue;
     // A chain keeps its joins while the line keeps a count: its names are counted in it.
-    if (!whole && p.labels.length > 1 && fewest > 1 && cutChain(p.labels, room) === null) continue;
+    if (!whole && p.labels.length > 1 && fewest !== ANY_CUT && cutChain(p.labels, room) === null) continue;
     const text = whole ? label : cutLabels(p.labels, room, p.distinct);
     // From step 5 on, less than the compact numbers and fold is a number (or a change's kind) left out.
     const numbersCut =
@@ -248,6 +253,16 @@ export function laidOutLine(p: LineParts, options: LayoutOptions = {}): LaidOutL
     nameCut: true,
     changesCut: foldCut && foldBare !== p.foldTiny,
   };
+}
+
+/**
+ * The fewest columns labels keep when cut to `fewest` columns a name (a name narrower stays whole;
+ * a chain's joins count too): the floor a step of `laidOutLine` keeps them above.
+ */
+function floorOf(labels: readonly string[], fewest: number): number {
+  if (fewest === ANY_CUT) return Math.min(1, displayWidth(labels.join(CHAIN_JOIN)));
+  const names = labels.reduce((sum, l) => sum + Math.min(displayWidth(l), fewest), 0);
+  return names + CHAIN_JOIN.length * (labels.length - 1);
 }
 
 /**

@@ -66,8 +66,9 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
     ...distinctPart(group),
     numbers: say(options),
     compactNumbers: say(compact),
-    // The line's count as its full numbers give it: the top node's, a chain's names included.
-    countNumbers: amount(top.nodes, 0, { ...compact, sizes: false }),
+    // The line's count as its full numbers give it: the top node's, a chain's names included; exact,
+    // so the line's sum can be checked to the node (a name gives way first, see layoutLine).
+    countNumbers: amount(top.nodes, 0, { ...options, compact: false, sizes: false }),
     fold: fold(options),
     foldCounts: joined(last.hidden ? `(hidden: ${foldAmount(group, last, options)})` : "", parents),
     compactFold: fold(compact),

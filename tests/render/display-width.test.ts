@@ -145,8 +145,9 @@ describe("renderText(view, { width })", () => {
     // Then the name is cut at its end (an ellipsis marks it), down to 8 columns, numbers exact.
     expect(at(75)).toBe("  . Esme Orby Lead Firmware Engine…  3 nodes, 123,459  (hidden: 2 nodes, 3)");
     expect(at(53)).toBe("  . Esme Orb…  3 nodes, 123,459  (hidden: 2 nodes, 3)");
-    // Only then do numbers become compact (SI prefix k = 1000, BIPM SI brochure, 9th edition, table 7).
-    expect(at(50)).toBe("  . Esme Orb…  3 nodes, 123k  (hidden: 2 nodes, 3)");
+    // Then down to 4 columns, every number still exact (compact numbers, 123k, would save fewer
+    // columns than the name gives).
+    expect(at(50)).toBe("  . Esme …  3 nodes, 123,459  (hidden: 2 nodes, 3)");
     // Narrower, a size would have to go from a line: the whole screen leaves sizes out, so every
     // number on it still adds up (R: 9 = 1 + 3 + 5), and the name takes the room the size left (the
     // fold in fewer words, which lose no number).

@@ -33,7 +33,7 @@ const arbParts: fc.Arbitrary<LineParts> = fc
       labels,
       numbers: "12,345,678 nodes, 1.2 GiB, net +3.4 MiB",
       compactNumbers: "12.3M nodes, 1.2 GiB, net +3.4 MiB",
-      countNumbers: "12.3M nodes",
+      countNumbers: "12,345,678 nodes",
       fold: hidden === null ? "" : `(hidden: ${count} children, 9,999 nodes, 1.0 GiB; 3 added)`,
       foldCounts: hidden === null ? "" : "(hidden: 9,999 nodes, 1.0 GiB; 3 added)",
       compactFold: hidden === null ? "" : `(hidden: ${count} children, 10k nodes, 1.0 GiB; 3 added)`,
@@ -101,7 +101,7 @@ describe("layoutLine(parts, { width })", () => {
       labels: ["inventory", "warehouses"],
       numbers: "3,257 nodes, 40.6 MiB",
       compactNumbers: "3.3k nodes, 40.6 MiB",
-      countNumbers: "3.3k nodes",
+      countNumbers: "3,257 nodes",
       fold: "(hidden: 67 children, 2,648 nodes, 33.2 MiB)",
       foldCounts: "(hidden: 2,648 nodes, 33.2 MiB)",
       compactFold: "(hidden: 67 children, 2.6k nodes, 33.2 MiB)",
@@ -118,20 +118,23 @@ describe("layoutLine(parts, { width })", () => {
       ": inventory / warehouses  3,257 nodes, 40.6 MiB  (hidden: 2,648 nodes, 33.2 MiB)",
     );
     // Narrower: the chain's names are cut at their ends, its " / " kept (the count holds both names),
-    // every number kept exact.
+    // every number kept exact, down to 4 columns a name.
     expect(layoutLine(parts, { width: 79 })).toBe(
       ": inventory / warehous…  3,257 nodes, 40.6 MiB  (hidden: 2,648 nodes, 33.2 MiB)",
     );
     expect(layoutLine(parts, { width: 70 })).toBe(
       ": inve… / war…  3,257 nodes, 40.6 MiB  (hidden: 2,648 nodes, 33.2 MiB)",
     );
-    // Then compact numbers, then the fold's size, then the line's size (a text renderer then leaves
-    // sizes out of the whole screen, see screenLines).
-    expect(layoutLine(parts, { width: 60 })).toBe(
-      ": inve… / ware…  3.3k nodes, 40.6 MiB  (hidden: 2,648 nodes)",
+    // Then compact numbers (8 columns a name again), then the fold's size, then the line's size (a
+    // text renderer then leaves sizes out of the whole screen, see screenLines).
+    expect(layoutLine(parts, { width: 66 })).toBe(
+      ": invento… / warehou…  3.3k nodes, 40.6 MiB  (hidden: 2,648 nodes)",
     );
-    expect(layoutLine(parts, { width: 50 })).toBe(": inve… / ware…  3.3k nodes  (hidden: 2,648 nodes)");
-    expect(layoutLine(parts, { width: 40 })).toBe(": inv… / wa…  3.3k nodes  (2,648 hidden)");
+    expect(layoutLine(parts, { width: 60 })).toBe(
+      ": inventory / warehouses  3,257 nodes  (hidden: 2,648 nodes)",
+    );
+    expect(layoutLine(parts, { width: 50 })).toBe(": invento… / warehou…  3,257 nodes  (2,648 hidden)");
+    expect(layoutLine(parts, { width: 40 })).toBe(": in… / wa…  3,257 nodes  (2,648 hidden)");
   });
 
   it("cuts a diff line's name, not its count, where the bare count fits (field test: width 40)", () => {
@@ -161,9 +164,11 @@ describe("layoutLine(parts, { width })", () => {
     expect(layoutLine(parts, { width: 80 })).toBe(
       "  : [added] @duckdb  11 nodes  (hidden: 10 children, 10 nodes; 10 added)",
     );
-    // 37 columns: the name keeps one character, and the count still fits; at 36 it does not.
+    // 37 columns: the name keeps one character; 36: only its "…", and the count still fits; at 35 it
+    // does not.
     expect(layoutLine(parts, { width: 37 })).toBe("  : [added] @…  11 nodes  (10 hidden)");
-    expect(layoutLine(parts, { width: 36 })).toBe("  : [added] @duckdb  ?  (10 hidden)");
+    expect(layoutLine(parts, { width: 36 })).toBe("  : [added] …  11 nodes  (10 hidden)");
+    expect(layoutLine(parts, { width: 35 })).toBe("  : [added] @duckdb  ?  (10 hidden)");
   });
 
   it("cuts wide names by their columns, never half a character, the count kept (UAX #11)", () => {
@@ -180,7 +185,7 @@ describe("layoutLine(parts, { width })", () => {
       labels,
       numbers: "3,257 nodes, 40.6 MiB",
       compactNumbers: "3.3k nodes, 40.6 MiB",
-      countNumbers: "3.3k nodes",
+      countNumbers: "3,257 nodes",
       fold: "(hidden: 67 children, 2,648 nodes, 33.2 MiB)",
       foldCounts: "(hidden: 2,648 nodes, 33.2 MiB)",
       compactFold: "(hidden: 67 children, 2.6k nodes, 33.2 MiB)",
@@ -193,20 +198,20 @@ describe("layoutLine(parts, { width })", () => {
     expect(layoutLine(wide, { width: 80 })).toBe(
       "  . 倉庫管理部門  3,257 nodes, 40.6 MiB  (hidden: 2,648 nodes, 33.2 MiB)",
     );
-    // 66 columns: 4 + 12 + 23 + 33 = 72 is too wide, and exact numbers leave 6 columns, under the 8 a
-    // name keeps before numbers turn compact; compact ones leave 8: three ideographs (6) and "…".
+    // 66 columns: 4 + 12 + 23 + 33 = 72 is too wide; exact numbers leave 6 columns, above the 4 a
+    // name keeps before numbers turn compact: two ideographs (4) and "…", a third would need 7.
     expect(layoutLine(wide, { width: 66 })).toBe(
-      "  . 倉庫管…  3.3k nodes, 40.6 MiB  (hidden: 2.6k nodes, 33.2 MiB)",
+      "  . 倉庫…  3,257 nodes, 40.6 MiB  (hidden: 2,648 nodes, 33.2 MiB)",
     );
-    expect(layoutLine(wide, { width: 40 })).toBe("  . 倉庫管…  3.3k nodes  (2,648 hidden)");
+    expect(layoutLine(wide, { width: 40 })).toBe("  . 倉庫管…  3,257 nodes  (2,648 hidden)");
     // Fullwidth (F) and halfwidth (H) in one chain: the joins stay, each name cut to the same width.
     const chain = parts(["ＡＢＣＤ", "ｶﾀｶﾅｶﾀｶﾅ"]);
-    // 60: 8 columns for the names, 4 each; "ＡＢ…" would be 5, so "Ａ…" (3), and the column over goes
-    // to the next name: "ｶﾀｶﾅ…" (5).
-    expect(layoutLine(chain, { width: 60 })).toBe(
-      "  . Ａ… / ｶﾀｶﾅ…  3.3k nodes, 40.6 MiB  (hidden: 2,648 nodes)",
-    );
-    expect(layoutLine(chain, { width: 40 })).toBe("  . Ａ… / ｶ…  3.3k nodes  (2,648 hidden)");
+    // 50: 11 columns for the names, 4 for the joins and 7 for the second... the first name "ＡＢＣ…"
+    // (7, its fourth ideograph would need 9) and "ｶﾀｶﾅｶﾀ…" (7).
+    expect(layoutLine(chain, { width: 50 })).toBe("  . ＡＢＣ… / ｶﾀｶﾅｶﾀ…  3,257 nodes  (2,648 hidden)");
+    // 40: 6 columns for two names: one column each, and the one left over goes to the second: the
+    // first, all wide characters, keeps only "…".
+    expect(layoutLine(chain, { width: 40 })).toBe("  . … / ｶﾀ…  3,257 nodes  (2,648 hidden)");
     for (const width of [40, 50, 60, 66, 80, 200])
       for (const p of [wide, chain]) {
         const line = layoutLine(p, { width });
@@ -232,9 +237,9 @@ describe("layoutLine(parts, { width })", () => {
         const kept = [parts.numbers, parts.compactNumbers, parts.countNumbers];
         if (kept.some((numbers) => line.includes(`  ${numbers}`))) return;
         // The narrowest line that keeps the count: level digits, the tag's kind, every name at one
-        // column (a chain's joins kept), the fold's bare count.
+        // column ("…" alone; a chain's joins kept), the fold's bare count.
         const kind = parts.tagKind ? `[${parts.tagKind}] ` : "";
-        const names = parts.labels.map((l) => Math.min(displayWidth(l), 2)).reduce((a, b) => a + b);
+        const names = parts.labels.map((l) => Math.min(displayWidth(l), 1)).reduce((a, b) => a + b);
         const least = Math.min(2 * parts.level, `${parts.level} `.length);
         const joins = 3 * (parts.labels.length - 1);
         const fold = parts.fold ? 2 + displayWidth(parts.foldBare ?? parts.foldTiny) : 0;
