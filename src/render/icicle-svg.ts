@@ -627,7 +627,7 @@ function legendItems<T extends ViewNode>(
     [
       "group",
       `<rect ${box} fill="${LOOK.group}"/>${comb(0, s, s)}`,
-      "N grouped: shown siblings too narrow to label one by one (names in the tooltip)",
+      "N grouped: N siblings too narrow to label one by one, hidden ones of a fold included, with all below them (names in the tooltip)",
     ],
     [
       "focus-group",
