@@ -93,7 +93,10 @@ function joined(a: string, b: string): string {
  */
 export function chainLabels<T extends ViewNode>({ nodes, above }: LineGroup<T>): string[] {
   const labels = nodes.map((n) => shownLabel(n.label));
-  if (above === null && labels.length > 1 && labels[0] === "/") labels.splice(0, 2, `/${labels[1]}`);
+  // A child whose own name starts with "/" (a mount table's `/srv/quill`) stays a name of its own:
+  // glued, `//srv/quill` would read as one name.
+  if (above === null && labels.length > 1 && labels[0] === "/" && !labels[1].startsWith("/"))
+    labels.splice(0, 2, `/${labels[1]}`);
   return labels;
 }
 

@@ -3,6 +3,7 @@ import { buildTree } from "../../src/model/build-tree.js";
 import { measure } from "../../src/model/measure.js";
 import { renderText } from "../../src/render/summary-text.js";
 import { prepare, summarize } from "../../src/summarize.js";
+import { cli } from "../helpers/cli.js";
 import { makeTree } from "../helpers/make-tree.js";
 import { generatedTree, summaryOf } from "../helpers/summary.js";
 
@@ -44,6 +45,16 @@ describe("renderText(view, options)", () => {
     expect(renderText(below.view, { units: "plain", sizes: false, chains: true })).toContain(
       "  . / / usr  4 nodes",
     );
+  });
+
+  it("keeps a root named / apart from a child whose own name starts with / (a mount table's targets)", async () => {
+    // Field note: '. //srv/quill  2 nodes' read as one name; the chain's " / " keeps them two, and the
+    // printed chain reads back as a focus.
+    const mounts = '[{"target":"/","children":[{"target":"/srv/quill","children":[{"target":"x"}]}]}]';
+    const args = ["-", "--name-field", "target", "--bare"];
+    expect((await cli(args, { stdin: mounts })).stdout).toBe(". / / /srv/quill / x  3 nodes\n");
+    const focused = await cli([...args, "--focus", "/ / /srv/quill"], { stdin: mounts });
+    expect(focused.stdout).toBe("* / / /srv/quill  3 nodes\n  . x\n");
   });
 
   it("gives every node a line when the budget holds the whole tree", () => {
