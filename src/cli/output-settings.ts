@@ -37,6 +37,8 @@ export interface OutputSettings {
   reading: HeaderReading | undefined;
   /** Short rows read with empty last fields (`--short-rows fill`), per input; undefined when none was. */
   filledRows: readonly number[] | undefined;
+  /** The part of a JSON/YAML document read (`--start-at`, a JSON Pointer); undefined for the whole. */
+  startAt: string | undefined;
   /** YAML documents of a stream read as values, per input; undefined when no input had several. */
   documents: readonly number[] | undefined;
   /** The id column that names the nodes of an input without a name column (the first such input's). */
@@ -77,6 +79,7 @@ export function outputSettings(
     reading: chosenReading(opts, tree),
     filledRows: filled.some((n) => n > 0) ? filled : undefined,
     documents: documents.some((n) => n > 1) ? documents : undefined,
+    startAt: inputs.find((t) => t.reading?.startAt !== undefined)?.reading?.startAt,
     // A --label template says what each line shows, so the ids' naming is moot then.
     namesFrom:
       opts.label === undefined

@@ -73,6 +73,11 @@ export interface LoadOptions {
    */
   readAs?: "nodes" | "values";
   /**
+   * JSON and YAML: a JSON Pointer (RFC 6901, e.g. `/data/items`) to the value read as the whole
+   * document (a list of rows or nodes inside a wrapper object); undefined or empty: the whole document.
+   */
+  startAt?: string;
+  /**
    * The children field was named on purpose: never look for another one (nor for a map keyed by path)
    * when it is absent. A children field other than the default counts as named.
    */

@@ -71,6 +71,8 @@ export interface TreeReading {
    * are those totals minus the contents', so nothing counts twice.
    */
   readonly folderTotals?: boolean;
+  /** JSON/YAML read from one part of the document (`--start-at`): the JSON Pointer (RFC 6901) of that part. */
+  readonly startAt?: string;
   /** Nested input: how many nodes are empty objects (`{}`), when any are (see `Tree.empty`). */
   readonly emptyEntries?: number;
   /** A CSV/TSV table: how many short rows were read with their missing last fields empty (`--short-rows fill`). */
