@@ -2,7 +2,9 @@ import { DEFAULT_COMPARED_FIELDS } from "../diff/field-edits.js";
 import { EspalierError } from "../errors.js";
 import type { FocusSpec } from "../focus/focus-spec.js";
 import { defaultLoadOptions, type LinkOption, type LoadOptions } from "../load/load-options.js";
+import type { Reading } from "../load/shape/choose-reading.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
+import type { ReadingNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import { templateFields } from "../view/label.js";
 import { isFactInput, loadFactInput } from "./fact-input.js";
@@ -14,6 +16,7 @@ import { withProgress } from "./progress.js";
 import { FOCI_BOUND, readInput } from "./read-input.js";
 import { readInputStream } from "./read-input-stream.js";
 import { notesText } from "./reading-notes.js";
+import { nestedReading, readAsOtherNote, readingsDiffer, sameWay } from "./version-readings.js";
 
 // What every command reads: its input trees, its foci and the pseudonym key. Summary, diff and explore
 // all go through here, so they read the same inputs the same way.
@@ -48,10 +51,15 @@ async function loadQuietly(
   opts: SharedCliOptions,
   rootName: string,
   nodes: string | undefined,
+  sameReading?: Reading,
 ): Promise<Tree> {
   try {
     if (isFactInput(opts)) return await loadFactInput(input, opts, rootName);
-    const options: LoadOptions = { ...toLoadOptions(input, opts), rootName };
+    const options: LoadOptions = {
+      ...toLoadOptions(input, opts),
+      rootName,
+      ...(sameReading === undefined ? {} : { sameReading }),
+    };
     // A graph's node records (--nodes) come from a file of their own; its errors name that file.
     if (nodes !== undefined) options.nodeRecords = await readNodeRecords(io, nodes, options);
     return await streamTree(io, input, options);
@@ -97,8 +105,14 @@ export async function loadVersions(
   if (!io.loadInWorker || threads === 1 || oldInput === "-" || isFactInput(opts) || oldNodes !== undefined) {
     // No idle processor for a second thread (see load-threads.ts); a fact table's engine uses every core
     // itself, and node records are read here: one after the other.
-    const oldTree = await loadInput(io, oldInput, opts, rootName, oldNodes);
-    return [oldTree, await loadInput(io, newInput, opts, rootName, newNodes)];
+    const oldTree = await loadQuietly(io, oldInput, opts, rootName, oldNodes);
+    const newTree = await loadQuietly(io, newInput, opts, rootName, newNodes);
+    return sayVersionNotes(
+      io,
+      [oldInput, newInput],
+      await readOneWay(io, [oldInput, newInput], [oldTree, newTree], opts, rootName, [oldNodes, newNodes]),
+      opts,
+    );
   }
   // Notes are printed once both loads are over, OLD's first, as the loads one after the other print them.
   const named = (err: unknown) => (err instanceof EspalierError ? err.inFile(displayName(oldInput)) : err);
@@ -110,9 +124,72 @@ export async function loadVersions(
   ]);
   if (oldTree.status === "rejected") throw oldTree.reason;
   if (newTree.status === "rejected") throw newTree.reason;
-  sayNotes(io, oldInput, oldTree.value, opts);
-  sayNotes(io, newInput, newTree.value, opts);
-  return [oldTree.value, newTree.value];
+  return sayVersionNotes(
+    io,
+    [oldInput, newInput],
+    await readOneWay(io, [oldInput, newInput], [oldTree.value, newTree.value], opts, rootName, [
+      undefined,
+      undefined,
+    ]),
+    opts,
+  );
+}
+
+/** Both versions' notes on standard error, OLD's first; the versions as they are. */
+function sayVersionNotes(
+  io: CliIO,
+  [oldInput, newInput]: readonly [string, string],
+  trees: [Tree, Tree],
+  opts: SharedCliOptions,
+): [Tree, Tree] {
+  sayNotes(io, oldInput, trees[0], opts);
+  sayNotes(io, newInput, trees[1], opts);
+  return trees;
+}
+
+/**
+ * The two versions read one way (see version-readings.ts): as loaded when they were (or either is no
+ * JSON or YAML document). Else OLD read again as NEW was, when OLD fell to every value a node on its own
+ * (nothing in it was shaped like nodes, and something in NEW was) and fits NEW's reading; else NEW read
+ * again as OLD was; a version read again carries a READ_AS_OTHER note. NEW that does not fit OLD's
+ * reading (or comes from standard input, which cannot be read twice) is SHAPE naming both readings.
+ */
+async function readOneWay(
+  io: CliIO,
+  [oldInput, newInput]: readonly [string, string],
+  [oldTree, newTree]: readonly [Tree, Tree],
+  opts: SharedCliOptions,
+  rootName: string,
+  [oldNodes, newNodes]: readonly [string | undefined, string | undefined],
+): Promise<[Tree, Tree]> {
+  const oldReading = nestedReading(oldTree);
+  const newReading = nestedReading(newTree);
+  if (oldReading === undefined || newReading === undefined || sameWay(oldReading, newReading))
+    return [oldTree, newTree];
+  const [oldFile, newFile] = [displayName(oldInput), displayName(newInput)];
+  if (oldReading.kind === "values" && opts.readAs === "auto" && oldInput !== "-") {
+    try {
+      const again = await loadQuietly(io, oldInput, opts, rootName, oldNodes, newReading);
+      return [withNote(again, readAsOtherNote("NEW", newFile, newReading, oldReading)), newTree];
+    } catch (err) {
+      if (!(err instanceof EspalierError)) throw err;
+      // OLD does not read as NEW: NEW is read as OLD was, as values, which fit every document.
+    }
+  }
+  if (newInput === "-") throw readingsDiffer(oldFile, oldReading, newReading, undefined).inFile(newFile);
+  try {
+    const again = await loadQuietly(io, newInput, opts, rootName, newNodes, oldReading);
+    return [oldTree, withNote(again, readAsOtherNote("OLD", oldFile, oldReading, newReading))];
+  } catch (err) {
+    if (!(err instanceof EspalierError)) throw err;
+    throw readingsDiffer(oldFile, oldReading, newReading, err).inFile(newFile);
+  }
+}
+
+function withNote(tree: Tree, note: ReadingNote): Tree {
+  const reading = tree.reading;
+  if (reading === undefined) return tree;
+  return { ...tree, reading: { ...reading, notes: [...(reading.notes ?? []), note] } };
 }
 
 /**

@@ -67,7 +67,12 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
           pos,
           { option: "--start-at" },
         );
-      if (options.readAs !== "nodes" && !options.graph && options.childrenFieldNamed !== true)
+      if (
+        options.readAs !== "nodes" &&
+        !options.graph &&
+        options.childrenFieldNamed !== true &&
+        (options.sameReading === undefined || options.sameReading.kind === "values")
+      )
         return documentValues(text, options);
       throw new EspalierError(
         "PARSE_YAML",
