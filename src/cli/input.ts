@@ -9,6 +9,7 @@ import type { Tree } from "../model/tree.js";
 import { templateFields } from "../view/label.js";
 import { isFactInput, loadFactInput } from "./fact-input.js";
 import type { CliIO } from "./io.js";
+import { alignListings } from "./listing-start.js";
 import { LOAD_THREADS_ENV, loadThreads } from "./load-threads.js";
 import { readNodeRecords } from "./node-records.js";
 import { PSEUDONYM_KEY_ENV, type SharedCliOptions } from "./options.js";
@@ -135,13 +136,17 @@ export async function loadVersions(
   );
 }
 
-/** Both versions' notes on standard error, OLD's first; the versions as they are. */
+/**
+ * The versions with path lists of one folder rooted alike (listing-start.ts), then both versions' notes
+ * on standard error, OLD's first.
+ */
 function sayVersionNotes(
   io: CliIO,
   [oldInput, newInput]: readonly [string, string],
-  trees: [Tree, Tree],
+  read: [Tree, Tree],
   opts: SharedCliOptions,
 ): [Tree, Tree] {
+  const trees = alignListings(read, [displayName(oldInput), displayName(newInput)]);
   sayNotes(io, oldInput, trees[0], opts);
   sayNotes(io, newInput, trees[1], opts);
   return trees;

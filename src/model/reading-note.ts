@@ -22,9 +22,16 @@ export interface ReadingNote {
  * header and one row do, was read as two paths (load/path-list/path-list-reader.ts; from three such
  * lines on it is PARSE_PATHS). `READ_AS_OTHER`: a diff's version was read as the other one was (node objects
  * with one children field, every value a node, …) although on its own it reads another way
- * (cli/input.ts readOneWay).
+ * (cli/input.ts readOneWay). `ROOT_IS_FOLDER`: a diff's path list that names its folder (`find proj`,
+ * `find /srv/proj`) was compared from that folder down with the other version, which lists the folder's
+ * contents without its name (cli/listing-start.ts).
  */
-export const readingNoteCodes = ["FIRST_LINE_APART", "COMMAS_READ_AS_PATHS", "READ_AS_OTHER"] as const;
+export const readingNoteCodes = [
+  "FIRST_LINE_APART",
+  "COMMAS_READ_AS_PATHS",
+  "READ_AS_OTHER",
+  "ROOT_IS_FOLDER",
+] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];
 

@@ -123,6 +123,12 @@ export const inputReadingSchema = z
       .describe(
         "JSON/YAML read from one part of the document (--start-at): the JSON Pointer (RFC 6901) of that part; absent when the whole document was read.",
       ),
+    rootIsStart: z
+      .boolean()
+      .optional()
+      .describe(
+        "A path list whose root stands for the listed folder whatever it is named: a line with an empty path named it (find DIR -printf '%P'), or every path starts with . (find .). A diff compares such a root with the other version's root.",
+      ),
     emptyEntries: z
       .number()
       .int()
@@ -160,7 +166,7 @@ export const inputReadingSchema = z
             code: z
               .enum(readingNoteCodes)
               .describe(
-                "What was noticed. FIRST_LINE_APART: an edge list's first line was read as an edge that shares no node with any other line, as a header naming the columns would be. COMMAS_READ_AS_PATHS: two lines with as many commas (a CSV table's header and one row) were read as two paths. READ_AS_OTHER (a diff's version, on standard error only): read as the other version was, although on its own it reads another way.",
+                "What was noticed. FIRST_LINE_APART: an edge list's first line was read as an edge that shares no node with any other line, as a header naming the columns would be. COMMAS_READ_AS_PATHS: two lines with as many commas (a CSV table's header and one row) were read as two paths. READ_AS_OTHER (a diff's version, on standard error only): read as the other version was, although on its own it reads another way. ROOT_IS_FOLDER (a diff's path list, on standard error only): compared from the folder it names down, as the other version lists that folder's contents without its name.",
               ),
             line: z.number().int().positive().optional().describe("The input line the note is about."),
             message: z
