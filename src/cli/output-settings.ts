@@ -2,7 +2,7 @@ import type { ShownNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
 import type { HeaderReading, ListedReading, VersionReading } from "../render/header.js";
-import { KEY_MIN_BUDGET } from "../render/key-line.js";
+import { KEY_MIN_BUDGET, keyRows } from "../render/key-line.js";
 import { MIN_WIDTH } from "../render/line-layout.js";
 import { legendLines } from "../render/marks.js";
 import { type Palette, palette } from "../render/palette.js";
@@ -37,6 +37,8 @@ export interface OutputSettings {
   reading: HeaderReading | undefined;
   /** Short rows read with empty last fields (`--short-rows fill`), per input; undefined when none was. */
   filledRows: readonly number[] | undefined;
+  /** The part of a JSON/YAML document read (`--start-at`, a JSON Pointer); undefined for the whole. */
+  startAt: string | undefined;
   /** YAML documents of a stream read as values, per input; undefined when no input had several. */
   documents: readonly number[] | undefined;
   /** The id column that names the nodes of an input without a name column (the first such input's). */
@@ -81,6 +83,7 @@ export function outputSettings(
     reading: inputs.length === 2 ? versionsReading(opts, inputs[0], inputs[1]) : chosenReading(opts, tree),
     filledRows: filled.some((n) => n > 0) ? filled : undefined,
     documents: documents.some((n) => n > 1) ? documents : undefined,
+    startAt: inputs.find((t) => t.reading?.startAt !== undefined)?.reading?.startAt,
     // A --label template says what each line shows, so the ids' naming is moot then.
     namesFrom:
       opts.label === undefined
@@ -167,13 +170,18 @@ function readingOfVersion(opts: SharedCliOptions, tree: Tree): VersionReading | 
  */
 export function headerLinesFor(opts: SharedCliOptions, kind: "summary" | "diff", io: CliIO): number {
   const legend = opts.legend ? legendLines(kind, opts.width ?? defaultWidth(io)).length : 0;
-  return (opts.bare ? 0 : 1) + legend + (showsKey(opts, io) ? 1 : 0);
+  return (opts.bare ? 0 : 1) + legend + keyRowsFor(opts, io);
+}
+
+/** Lines the key takes (see `keyRows`): one, two on a screen under 60 columns, none when not shown. */
+export function keyRowsFor(opts: SharedCliOptions, io: CliIO): number {
+  return showsKey(opts, io) ? keyRows(opts.width ?? defaultWidth(io)) : 0;
 }
 
 /**
  * Whether the key line (see `keyLine`) follows the header: by default, unless --bare, --legend (which
- * says more) or --no-key, or a budget under `KEY_MIN_BUDGET` lines. Always one line, so it is counted
- * before the fit as the header is.
+ * says more) or --no-key, or a budget under `KEY_MIN_BUDGET` lines. Its lines depend on the width
+ * alone (see `keyRowsFor`), so they are counted before the fit as the header is.
  */
 export function showsKey(opts: SharedCliOptions, io: CliIO): boolean {
   return opts.key && !opts.bare && !opts.legend && (opts.budget ?? defaultBudget(io)) >= KEY_MIN_BUDGET;

@@ -49,6 +49,8 @@ export interface HeaderOptions {
    * per input; said when any is above 1, as a reader would take the `0`, `1` for a list's items.
    */
   documents?: readonly number[];
+  /** The part of a JSON/YAML document read (`--start-at`): `read at /data/teams`. */
+  startAt?: string;
   /**
    * A table linked by id without the name column: the id column, which names the nodes
    * (`named by employee_id (no name column)`), so a reader whose names sit in another column sees it.
@@ -240,18 +242,24 @@ function sizeWord(header: HeaderOptions, style: HeaderStyle): string {
 }
 
 /**
- * `children under dependencies`, `paths from packages` (`paths from keys` for the top level),
+ * `read at /data/teams`, `children under dependencies`, `paths from packages` (`paths from keys` for the top level),
  * `every value a node`, `folder sizes read as totals with contents`, `3 short rows filled`: the
  * header's clauses on how the input was read; none when the options chose the reading.
  */
 function readingParts(header: HeaderOptions, style: HeaderStyle): string[] {
   return [
+    startAtText(header, style),
     choiceText(header, style),
     documentsText(header, style),
     namesText(header, style),
     unnamedText(header, style),
     filledText(header, style),
   ].filter((part) => part !== "");
+}
+
+/** `read at /data/teams`: the part of the document read (`--start-at`); empty for the whole. */
+function startAtText({ startAt }: HeaderOptions, style: HeaderStyle): string {
+  return startAt ? `${style.words("read at ")}${style.name(safeText(startAt, 80))}` : "";
 }
 
 /** `2 YAML documents, named 0 and 1`, `5 YAML documents, named 0 to 4` (a diff: `1 -> 3 YAML documents`). */
