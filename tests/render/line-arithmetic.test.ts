@@ -57,7 +57,8 @@ function checkArithmetic(lines: Line[], total: number): void {
     if (Number.isNaN(below + lines[k].nodes)) continue;
     expect(lines[k].nodes, `line ${k}`).toBe(lines[k].names + below + lines[k].hidden);
   }
-  expect(lines[0].nodes).toBe(total);
+  // A first line too narrow for its count (a diff's tag before one-letter names) says `?`.
+  if (!Number.isNaN(lines[0].nodes)) expect(lines[0].nodes).toBe(total);
 }
 
 describe("nodes = names + shown children + folded, read from the printed lines alone", () => {
