@@ -29,8 +29,9 @@ export async function loadInput(
   opts: SharedCliOptions,
   rootName: string = rootNameOf(input),
   nodes: string | undefined = singleNodes(opts),
+  earlier?: Tree,
 ): Promise<Tree> {
-  const tree = await loadQuietly(io, input, opts, rootName, nodes);
+  const tree = await loadQuietly(io, input, opts, rootName, nodes, earlier);
   sayNotes(io, input, tree, opts);
   return tree;
 }
@@ -48,10 +49,15 @@ async function loadQuietly(
   opts: SharedCliOptions,
   rootName: string,
   nodes: string | undefined,
+  earlier?: Tree,
 ): Promise<Tree> {
   try {
     if (isFactInput(opts)) return await loadFactInput(input, opts, rootName);
-    const options: LoadOptions = { ...toLoadOptions(input, opts), rootName };
+    const options: LoadOptions = {
+      ...toLoadOptions(input, opts),
+      rootName,
+      ...(earlier ? { earlierVersion: earlier } : {}),
+    };
     // A graph's node records (--nodes) come from a file of their own; its errors name that file.
     if (nodes !== undefined) options.nodeRecords = await readNodeRecords(io, nodes, options);
     return await streamTree(io, input, options);
@@ -98,7 +104,8 @@ export async function loadVersions(
     // No idle processor for a second thread (see load-threads.ts); a fact table's engine uses every core
     // itself, and node records are read here: one after the other.
     const oldTree = await loadInput(io, oldInput, opts, rootName, oldNodes);
-    return [oldTree, await loadInput(io, newInput, opts, rootName, newNodes)];
+    // NEW's table may read OLD's bytes for the cells they share (load/table/earlier-rows.ts).
+    return [oldTree, await loadInput(io, newInput, opts, rootName, newNodes, oldTree)];
   }
   // Notes are printed once both loads are over, OLD's first, as the loads one after the other print them.
   const named = (err: unknown) => (err instanceof EspalierError ? err.inFile(displayName(oldInput)) : err);
