@@ -2,11 +2,14 @@ import { DEFAULT_COMPARED_FIELDS } from "../diff/field-edits.js";
 import { EspalierError } from "../errors.js";
 import type { FocusSpec } from "../focus/focus-spec.js";
 import { defaultLoadOptions, type LinkOption, type LoadOptions } from "../load/load-options.js";
+import type { Reading } from "../load/shape/choose-reading.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
+import type { ReadingNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import { templateFields } from "../view/label.js";
 import { isFactInput, loadFactInput } from "./fact-input.js";
 import type { CliIO } from "./io.js";
+import { alignListings } from "./listing-start.js";
 import { LOAD_THREADS_ENV, loadThreads } from "./load-threads.js";
 import { readNodeRecords } from "./node-records.js";
 import { PSEUDONYM_KEY_ENV, type SharedCliOptions } from "./options.js";
@@ -14,6 +17,7 @@ import { withProgress } from "./progress.js";
 import { FOCI_BOUND, readInput } from "./read-input.js";
 import { readInputStream } from "./read-input-stream.js";
 import { notesText } from "./reading-notes.js";
+import { nestedReading, readAsOtherNote, readingsDiffer, sameWay } from "./version-readings.js";
 
 // What every command reads: its input trees, its foci and the pseudonym key. Summary, diff and explore
 // all go through here, so they read the same inputs the same way.
@@ -29,9 +33,8 @@ export async function loadInput(
   opts: SharedCliOptions,
   rootName: string = rootNameOf(input),
   nodes: string | undefined = singleNodes(opts),
-  earlier?: Tree,
 ): Promise<Tree> {
-  const tree = await loadQuietly(io, input, opts, rootName, nodes, earlier);
+  const tree = await loadQuietly(io, input, opts, rootName, nodes);
   sayNotes(io, input, tree, opts);
   return tree;
 }
@@ -49,6 +52,7 @@ async function loadQuietly(
   opts: SharedCliOptions,
   rootName: string,
   nodes: string | undefined,
+  sameReading?: Reading,
   earlier?: Tree,
 ): Promise<Tree> {
   try {
@@ -56,6 +60,7 @@ async function loadQuietly(
     const options: LoadOptions = {
       ...toLoadOptions(input, opts),
       rootName,
+      ...(sameReading === undefined ? {} : { sameReading }),
       ...(earlier ? { earlierVersion: earlier } : {}),
     };
     // A graph's node records (--nodes) come from a file of their own; its errors name that file.
@@ -103,9 +108,15 @@ export async function loadVersions(
   if (!io.loadInWorker || threads === 1 || oldInput === "-" || isFactInput(opts) || oldNodes !== undefined) {
     // No idle processor for a second thread (see load-threads.ts); a fact table's engine uses every core
     // itself, and node records are read here: one after the other.
-    const oldTree = await loadInput(io, oldInput, opts, rootName, oldNodes);
+    const oldTree = await loadQuietly(io, oldInput, opts, rootName, oldNodes);
     // NEW's table may read OLD's bytes for the cells they share (load/table/earlier-rows.ts).
-    return [oldTree, await loadInput(io, newInput, opts, rootName, newNodes, oldTree)];
+    const newTree = await loadQuietly(io, newInput, opts, rootName, newNodes, undefined, oldTree);
+    return sayVersionNotes(
+      io,
+      [oldInput, newInput],
+      await readOneWay(io, [oldInput, newInput], [oldTree, newTree], opts, rootName, [oldNodes, newNodes]),
+      opts,
+    );
   }
   // Notes are printed once both loads are over, OLD's first, as the loads one after the other print them.
   const named = (err: unknown) => (err instanceof EspalierError ? err.inFile(displayName(oldInput)) : err);
@@ -117,9 +128,76 @@ export async function loadVersions(
   ]);
   if (oldTree.status === "rejected") throw oldTree.reason;
   if (newTree.status === "rejected") throw newTree.reason;
-  sayNotes(io, oldInput, oldTree.value, opts);
-  sayNotes(io, newInput, newTree.value, opts);
-  return [oldTree.value, newTree.value];
+  return sayVersionNotes(
+    io,
+    [oldInput, newInput],
+    await readOneWay(io, [oldInput, newInput], [oldTree.value, newTree.value], opts, rootName, [
+      undefined,
+      undefined,
+    ]),
+    opts,
+  );
+}
+
+/**
+ * The versions with path lists of one folder rooted alike (listing-start.ts), then both versions' notes
+ * on standard error, OLD's first.
+ */
+function sayVersionNotes(
+  io: CliIO,
+  [oldInput, newInput]: readonly [string, string],
+  read: [Tree, Tree],
+  opts: SharedCliOptions,
+): [Tree, Tree] {
+  const trees = alignListings(read, [displayName(oldInput), displayName(newInput)]);
+  sayNotes(io, oldInput, trees[0], opts);
+  sayNotes(io, newInput, trees[1], opts);
+  return trees;
+}
+
+/**
+ * The two versions read one way (see version-readings.ts): as loaded when they were (or either is no
+ * JSON or YAML document). Else OLD read again as NEW was, when OLD fell to every value a node on its own
+ * (nothing in it was shaped like nodes, and something in NEW was) and fits NEW's reading; else NEW read
+ * again as OLD was; a version read again carries a READ_AS_OTHER note. NEW that does not fit OLD's
+ * reading (or comes from standard input, which cannot be read twice) is SHAPE naming both readings.
+ */
+async function readOneWay(
+  io: CliIO,
+  [oldInput, newInput]: readonly [string, string],
+  [oldTree, newTree]: readonly [Tree, Tree],
+  opts: SharedCliOptions,
+  rootName: string,
+  [oldNodes, newNodes]: readonly [string | undefined, string | undefined],
+): Promise<[Tree, Tree]> {
+  const oldReading = nestedReading(oldTree);
+  const newReading = nestedReading(newTree);
+  if (oldReading === undefined || newReading === undefined || sameWay(oldReading, newReading))
+    return [oldTree, newTree];
+  const [oldFile, newFile] = [displayName(oldInput), displayName(newInput)];
+  if (oldReading.kind === "values" && opts.readAs === "auto" && oldInput !== "-") {
+    try {
+      const again = await loadQuietly(io, oldInput, opts, rootName, oldNodes, newReading);
+      return [withNote(again, readAsOtherNote("NEW", newFile, newReading, oldReading)), newTree];
+    } catch (err) {
+      if (!(err instanceof EspalierError)) throw err;
+      // OLD does not read as NEW: NEW is read as OLD was, as values, which fit every document.
+    }
+  }
+  if (newInput === "-") throw readingsDiffer(oldFile, oldReading, newReading, undefined).inFile(newFile);
+  try {
+    const again = await loadQuietly(io, newInput, opts, rootName, newNodes, oldReading);
+    return [oldTree, withNote(again, readAsOtherNote("OLD", oldFile, oldReading, newReading))];
+  } catch (err) {
+    if (!(err instanceof EspalierError)) throw err;
+    throw readingsDiffer(oldFile, oldReading, newReading, err).inFile(newFile);
+  }
+}
+
+function withNote(tree: Tree, note: ReadingNote): Tree {
+  const reading = tree.reading;
+  if (reading === undefined) return tree;
+  return { ...tree, reading: { ...reading, notes: [...(reading.notes ?? []), note] } };
 }
 
 /**

@@ -1,7 +1,7 @@
 import type { ShownNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
-import type { HeaderReading } from "../render/header.js";
+import type { HeaderReading, ListedReading, VersionReading } from "../render/header.js";
 import { KEY_MIN_BUDGET } from "../render/key-line.js";
 import { MIN_WIDTH } from "../render/line-layout.js";
 import { legendLines } from "../render/marks.js";
@@ -74,7 +74,7 @@ export function outputSettings(
     key: showsKey(opts, io),
     share: opts.share === "none" ? undefined : opts.share,
     sizeName: opts.sizeField === "size" ? undefined : opts.sizeField,
-    reading: chosenReading(opts, tree),
+    reading: inputs.length === 2 ? versionsReading(opts, inputs[0], inputs[1]) : chosenReading(opts, tree),
     filledRows: filled.some((n) => n > 0) ? filled : undefined,
     documents: documents.some((n) => n > 1) ? documents : undefined,
     // A --label template says what each line shows, so the ids' naming is moot then.
@@ -112,6 +112,39 @@ export function chosenReading(opts: SharedCliOptions, tree: Tree): HeaderReading
   if (r.shape === "values") return { kind: "values" };
   if (r.folderTotals && opts.folderSizes === "auto") return { kind: "folder-totals" };
   return undefined;
+}
+
+/**
+ * A diff's reading for the header: as {@link chosenReading} says when both versions were read one way;
+ * else each version's (what espalier chose, or what its format reads as), so a diff of a table against
+ * a path list, or of folder sizes read as totals against ones read as listed, never says one of them.
+ */
+export function versionsReading(
+  opts: SharedCliOptions,
+  oldTree: Tree,
+  newTree: Tree,
+): HeaderReading | undefined {
+  const [old, now] = [readingOfVersion(opts, oldTree), readingOfVersion(opts, newTree)];
+  if (JSON.stringify(old) === JSON.stringify(now)) return chosenReading(opts, newTree);
+  if (old === undefined || now === undefined) return chosenReading(opts, newTree);
+  return { kind: "versions", old, new: now };
+}
+
+function readingOfVersion(opts: SharedCliOptions, tree: Tree): VersionReading | ListedReading | undefined {
+  const chosen = chosenReading(opts, tree);
+  if (chosen !== undefined && chosen.kind !== "versions") return chosen;
+  const r = tree.reading;
+  if (r === undefined) return undefined;
+  switch (r.shape) {
+    case "nodes":
+      return r.childrenField === undefined ? undefined : { kind: "children", field: r.childrenField };
+    case "values":
+      return { kind: "values" };
+    case "path-map":
+      return r.pathMapField === undefined ? undefined : { kind: "path-map", field: r.pathMapField };
+    default:
+      return { kind: "listed", shape: r.shape };
+  }
 }
 
 /**

@@ -4,13 +4,26 @@ import type { Tree } from "../model/tree.js";
 /**
  * Puts both versions under the same kind of root: when one version has several top-level nodes (so
  * espalier joined them under a synthetic root) and the other has one, the other is put under a
- * synthetic root too, so that the top-level nodes of both versions match each other.
+ * synthetic root too, so that the top-level nodes of both versions match each other. A path list's root
+ * that stands for the listed folder (`reading.rootIsStart`: `find .`, an empty path's line) is such a
+ * root already: two of them, or one and a synthetic root, are compared as one root, never renamed.
  */
 export function alignRoots(oldTree: Tree, newTree: Tree): [Tree, Tree] {
+  if (standsForFolder(oldTree) && standsForFolder(newTree))
+    return [asSynthetic(oldTree), asSynthetic(newTree)];
   if (oldTree.syntheticRoot === newTree.syntheticRoot) return [oldTree, newTree];
   return oldTree.syntheticRoot
     ? [oldTree, underRoot(newTree, oldTree.name.get(0))]
     : [underRoot(oldTree, newTree.name.get(0)), newTree];
+}
+
+/** Whether the root stands for the whole input rather than a node of it. */
+function standsForFolder(tree: Tree): boolean {
+  return tree.syntheticRoot || tree.reading?.rootIsStart === true;
+}
+
+function asSynthetic(tree: Tree): Tree {
+  return tree.syntheticRoot ? tree : { ...tree, syntheticRoot: true };
 }
 
 /** The same tree one level down, under a new synthetic root named `rootName`. */

@@ -38,7 +38,8 @@ export function byteLoader(
         case "path-map":
           return new JsonPathMapLoader(options, reading.field);
         case "rows":
-          return new JsonLoader(options, as);
+          // Read as rows because OLD was: the first element must not decide otherwise.
+          return new JsonLoader(options, options.sameReading?.kind === "rows" ? "rows" : as);
         case "nodes":
           return new JsonLoader({ ...options, childrenField: reading.childrenField }, as, reading.found);
       }

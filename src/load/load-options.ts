@@ -1,5 +1,6 @@
 import type { Tree } from "../model/tree.js";
 import type { ReadLimits } from "./read-limits.js";
+import type { Reading } from "./shape/choose-reading.js";
 import type { Table } from "./table/table.js";
 
 /**
@@ -80,6 +81,12 @@ export interface LoadOptions {
    * (src/load/shape/choose-reading.ts).
    */
   readAs?: "nodes" | "values";
+  /**
+   * JSON and YAML: read the document this way, or fail with SHAPE when it does not fit (a diff reads its
+   * NEW version as its OLD one was read when the two would be read differently: src/cli/version-readings.ts).
+   * Overrides `readAs` and the search for a children field.
+   */
+  sameReading?: Reading;
   /**
    * The children field was named on purpose: never look for another one (nor for a map keyed by path)
    * when it is absent. A children field other than the default counts as named.

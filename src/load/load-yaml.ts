@@ -58,7 +58,12 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
     if (error.code === "MULTIPLE_DOCS") {
       // Several documents (a stream of manifests): each one's values under the root, when values are
       // what is read; nodes, rows and graphs come in one document.
-      if (options.readAs !== "nodes" && !options.graph && options.childrenFieldNamed !== true)
+      if (
+        options.readAs !== "nodes" &&
+        !options.graph &&
+        options.childrenFieldNamed !== true &&
+        (options.sameReading === undefined || options.sameReading.kind === "values")
+      )
         return documentValues(text, options);
       throw new EspalierError(
         "PARSE_YAML",

@@ -20,9 +20,18 @@ export interface ReadingNote {
  * other line, as a header naming the columns (`from<TAB>to`) reads (load/apart-first-line.ts).
  * `COMMAS_READ_AS_PATHS`: a detected path list of two lines holding as many commas, as a CSV table's
  * header and one row do, was read as two paths (load/path-list/path-list-reader.ts; from three such
- * lines on it is PARSE_PATHS).
+ * lines on it is PARSE_PATHS). `READ_AS_OTHER`: a diff's version was read as the other one was (node objects
+ * with one children field, every value a node, …) although on its own it reads another way
+ * (cli/input.ts readOneWay). `ROOT_IS_FOLDER`: a diff's path list that names its folder (`find proj`,
+ * `find /srv/proj`) was compared from that folder down with the other version, which lists the folder's
+ * contents without its name (cli/listing-start.ts).
  */
-export const readingNoteCodes = ["FIRST_LINE_APART", "COMMAS_READ_AS_PATHS"] as const;
+export const readingNoteCodes = [
+  "FIRST_LINE_APART",
+  "COMMAS_READ_AS_PATHS",
+  "READ_AS_OTHER",
+  "ROOT_IS_FOLDER",
+] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];
 

@@ -71,6 +71,12 @@ export interface TreeReading {
    * are those totals minus the contents', so nothing counts twice.
    */
   readonly folderTotals?: boolean;
+  /**
+   * A path list whose root stands for the folder it lists, whatever the root is named: a line with an
+   * empty path named it (`find DIR -printf '%P'`), or every path starts with `.` (`find .`). A diff
+   * compares such a root with the other version's root or synthetic root (src/diff/align-roots.ts).
+   */
+  readonly rootIsStart?: boolean;
   /** Nested input: how many nodes are empty objects (`{}`), when any are (see `Tree.empty`). */
   readonly emptyEntries?: number;
   /** A CSV/TSV table: how many short rows were read with their missing last fields empty (`--short-rows fill`). */

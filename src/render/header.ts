@@ -74,12 +74,30 @@ export type InputFacts = Pick<
   "sizeName" | "reading" | "filledRows" | "documents" | "namesFrom" | "unnamed" | "compared"
 >;
 
-/** A reading of the input the header names (see `HeaderOptions.reading`). */
+/**
+ * A reading of the input the header names (see `HeaderOptions.reading`); a diff whose two versions were
+ * read differently names each one's (`OLD: a table, NEW: a path list`).
+ */
 export type HeaderReading =
+  | VersionReading
+  | { kind: "versions"; old: VersionReading | ListedReading; new: VersionReading | ListedReading };
+
+/** A reading espalier chose for one input. */
+export type VersionReading =
   | { kind: "children"; field: string }
   | { kind: "path-map"; field: string }
   | { kind: "values" }
   | { kind: "folder-totals" };
+
+/** An input read as its format reads (named only beside another version's other reading). */
+export type ListedReading = { kind: "listed"; shape: "rows" | "table" | "paths" | "graph" };
+
+const listedWords: Readonly<Record<ListedReading["shape"], string>> = {
+  rows: "rows",
+  table: "a table",
+  paths: "a path list",
+  graph: "a graph",
+};
 
 /** Foci named on the header before the rest are counted (`and 4 more`). */
 const FOCI_SHOWN = 3;
@@ -256,6 +274,14 @@ function filledText({ filledRows }: HeaderOptions, style: HeaderStyle): string {
 function choiceText({ reading }: HeaderOptions, style: HeaderStyle): string {
   const w = style.words;
   if (reading === undefined) return "";
+  if (reading.kind === "versions")
+    return `${w("OLD: ")}${readingText(reading.old, style)}${w(", NEW: ")}${readingText(reading.new, style)}`;
+  return readingText(reading, style);
+}
+
+function readingText(reading: VersionReading | ListedReading, style: HeaderStyle): string {
+  const w = style.words;
+  if (reading.kind === "listed") return w(listedWords[reading.shape]);
   if (reading.kind === "values") return w("every value a node");
   if (reading.kind === "folder-totals") return w("folder sizes read as totals with contents");
   const field = style.name(safeText(reading.field, 40));

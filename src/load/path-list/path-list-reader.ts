@@ -212,10 +212,14 @@ export class PathListReader {
     // so, as two paths; read as paths, but said.
     const csvLike =
       this.detected && this.sized === false && this.commas > 0 && this.sameCommas && this.pathLines === 2;
+    // The root is the listed folder when a line named it by the empty path, or when it is the one top
+    // name and that is "." (no folder of the listing can be named so).
+    const start = root !== -1 || onlyTopIsDot(sink);
     return sink.finish(this.rootName, new Map(), null, {
       shape: "paths",
       sizeUnit: "bytes",
       ...(totals ? { folderTotals: true } : {}),
+      ...(start ? { rootIsStart: true } : {}),
       ...(csvLike ? { notes: [commasNote(this.firstLine, this.commas, this.firstCells)] } : {}),
     });
   }
@@ -457,6 +461,17 @@ function isBlank(bytes: Buffer, start: number, end: number): boolean {
     if (c !== space && c !== tab) return false;
   }
   return true;
+}
+
+/** Whether the sink's one top-level node is named "." (`find .`): false for none or several. */
+function onlyTopIsDot(sink: NodeSink): boolean {
+  let top = -1;
+  for (let i = 0; i < sink.length; i++) {
+    if (sink.parentOf[i] !== -1) continue;
+    if (top !== -1) return false;
+    top = i;
+  }
+  return top !== -1 && sink.name.get(top) === ".";
 }
 
 /** The path of node `i` as a listing names it: names from below the root joined by "/". */

@@ -1,3 +1,4 @@
+import { EspalierError } from "../../errors.js";
 import { defaultLoadOptions, type LoadOptions } from "../load-options.js";
 import type { Sample } from "./sample.js";
 
@@ -23,12 +24,15 @@ type Fields = Pick<
   | "keepFields"
   | "readAs"
   | "childrenFieldNamed"
+  | "sameReading"
 >;
 
 /**
  * Chooses how to read a document from a sample of its start, deterministically (the same bytes, the
  * same choice), looking at the first node object: the top-level object, or the first element of a
  * top-level array.
+ * 0. `sameReading` (a diff's NEW read as its OLD was) is that reading, when the document fits it (see
+ *    {@link fitReading}).
  * 1. `readAs: "values"` reads values. Otherwise, when the first node object has the configured children
  *    field, nodes as configured; a top-level array whose first record has the id, parent or path field
  *    (and no children field) is rows.
@@ -41,6 +45,7 @@ type Fields = Pick<
  *    flat `{"timeout": 30}` too) reads as the tree of its values, so no key goes unseen.
  */
 export function chooseReading(sample: Sample | undefined, fields: Fields): Reading {
+  if (fields.sameReading !== undefined) return fitReading(sample, fields.sameReading, fields);
   const configured: Reading = { kind: "nodes", childrenField: fields.childrenField, found: false };
   if (fields.readAs === "values") return { kind: "values" };
   const first = sample === undefined ? undefined : firstNodeObject(sample);
@@ -78,7 +83,54 @@ export function chooseReading(sample: Sample | undefined, fields: Fields): Readi
   return { kind: "values" };
 }
 
+/**
+ * `wanted` for a document it fits, else SHAPE saying why: values fit every document; nodes fit where
+ * the first node object has the children field (the loader then refuses a document that would be one
+ * node while other fields hold objects or arrays, as for a field named by option); a map keyed by path
+ * where that object is one; rows where a top-level array's first record has the id, parent or path field.
+ */
+export function fitReading(
+  sample: Sample | undefined,
+  wanted: Reading,
+  fields: Pick<Fields, "idField" | "parentField" | "pathField">,
+): Reading {
+  const first = sample === undefined ? undefined : firstNodeObject(sample);
+  switch (wanted.kind) {
+    case "values":
+      return wanted;
+    case "nodes":
+      if (first !== undefined) return wanted;
+      throw new EspalierError("SHAPE", "the document holds no object to read as a node");
+    case "path-map": {
+      const map =
+        wanted.field === "" ? sample : sample?.kind === "object" ? fieldOf(sample, wanted.field) : undefined;
+      if (map?.kind === "object" && isPathMap(map)) return wanted;
+      throw new EspalierError(
+        "SHAPE",
+        wanted.field === ""
+          ? "the top-level object is not keyed by path"
+          : `the top-level object has no field ${JSON.stringify(wanted.field)} keyed by path`,
+      );
+    }
+    case "rows":
+      if (
+        sample?.kind === "array" &&
+        first !== undefined &&
+        (has(first, fields.idField) || has(first, fields.parentField) || has(first, fields.pathField))
+      )
+        return wanted;
+      throw new EspalierError(
+        "SHAPE",
+        `the document is not a top-level array whose first record has the field ${JSON.stringify(fields.idField)}, ${JSON.stringify(fields.parentField)} or ${JSON.stringify(fields.pathField)}`,
+      );
+  }
+}
+
 type ObjectSample = Extract<Sample, { kind: "object" }>;
+
+function fieldOf(object: ObjectSample, key: string): Sample | undefined {
+  return object.entries.find(([k]) => k === key)?.[1];
+}
 
 function firstNodeObject(sample: Sample): ObjectSample | undefined {
   if (sample.kind === "object") return sample;
@@ -117,9 +169,13 @@ function childObjects(value: Sample): ObjectSample[] | undefined {
  * The field of `first` that holds its children: its value is an array of objects or an object whose
  * values are objects (children keyed by name), and the same field holds the children's children, as
  * `dependencies` in a package manager's listing: the first such field in document order. A field whose
- * children (as far as sampled) are all leaves counts only when it is the one field of `first` holding
+ * children (as far as sampled) are all leaves counts when it is the one field of `first` holding
  * an object or array (a listing one level deep); otherwise a configuration's `defaults: {run: {…}}`
- * would pass for children and hide the rest. The name, size and kept fields are never children.
+ * would pass for children and hide the rest. It counts too beside other objects and arrays when it is
+ * the one field of `first` holding records, and they are records of the kind `first` is: each (not
+ * empty) shares a field with `first`, and holds no record of its own, only scalars and lists of them
+ * (a listing of packages none of which is installed: `{"name": …, "problems": […], "dependencies":
+ * {"a": {"missing": true, "problems": […]}}}`). The name, size and kept fields are never children.
  */
 export function findChildrenField(
   first: ObjectSample,
@@ -127,19 +183,49 @@ export function findChildrenField(
 ): string | undefined {
   const own = fieldsOf(fields);
   let leafy: string | undefined;
+  let kindred: string | undefined;
   let containers = 0;
+  let holdingRecords = 0;
   for (const [key, value] of first.entries) {
     if (own.has(key)) continue;
     if (value.kind !== "scalar") containers++;
     const children = childObjects(value);
     if (children === undefined) continue;
+    holdingRecords++;
     const recurs = children.some((child) =>
       child.entries.some(([k, v]) => k === key && childObjects(v) !== undefined),
     );
     if (recurs) return key;
     if (leafy === undefined && children.every((child) => hasNoContainers(child))) leafy = key;
+    if (kindred === undefined && recordsOfKind(children, first, key)) kindred = key;
   }
-  return containers === 1 ? leafy : undefined;
+  if (containers === 1 && leafy !== undefined) return leafy;
+  return holdingRecords === 1 ? kindred : undefined;
+}
+
+/**
+ * Whether `children` (found under `key` of `parent`) are records of the parent's kind with nothing of
+ * their own below: at least one is not empty, each that is not empty shares a field other than `key`
+ * with the parent, and none holds an object or array of anything but scalars.
+ */
+function recordsOfKind(children: readonly ObjectSample[], parent: ObjectSample, key: string): boolean {
+  const parentKeys = new Set(parent.entries.map(([k]) => k));
+  parentKeys.delete(key);
+  let filled = 0;
+  for (const child of children) {
+    if (child.entries.length === 0) continue;
+    filled++;
+    if (!child.entries.some(([k]) => parentKeys.has(k))) return false;
+    if (!child.entries.every(([, v]) => holdsScalarsOnly(v))) return false;
+  }
+  return filled > 0;
+}
+
+/** A scalar, or an object or array whose (sampled) members are all scalars. */
+function holdsScalarsOnly(value: Sample): boolean {
+  if (value.kind === "scalar") return true;
+  const members = value.kind === "array" ? value.items : value.entries.map(([, v]) => v);
+  return members.every((member) => member.kind === "scalar");
 }
 
 /**

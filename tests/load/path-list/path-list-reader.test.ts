@@ -60,7 +60,10 @@ describe("loadTree(paths)", () => {
     const tree = paths("4096\t\n10\ta\n4096\tb\n5\tb/c\n", { rootName: "listing" });
     expect(outline(tree)).toEqual(["listing 4096", "  a 10", "  b 4096", "    c 5"]);
     expect(tree.syntheticRoot).toBe(false);
-    expect(tree.reading).toEqual({ shape: "paths", sizeUnit: "bytes" });
+    // The root stands for the listed folder (a diff compares it with the other version's root).
+    expect(tree.reading).toEqual({ shape: "paths", sizeUnit: "bytes", rootIsStart: true });
+    expect(paths("10\t./a\n5\t./b\n").reading?.rootIsStart).toBe(true);
+    expect(paths("10\tproj/a\n5\tproj/b\n").reading?.rootIsStart).toBeUndefined();
     // The root may come anywhere; a second one is a repeated path.
     expect(outline(paths("10\ta\n7\t\n", { rootName: "r" }))).toEqual(["r 7", "  a 10"]);
     const twice = caught(() => paths("1\t\n2\ta\n3\t\n"));

@@ -102,4 +102,53 @@ describe("chooseReading(sample, fields)", () => {
     expect(choose(text.slice(0, text.indexOf('"b"') + 5))).toMatchObject({ childrenField: "dependencies" });
     expect(choose(text.slice(0, text.indexOf('"b"')))).toEqual({ kind: "values" });
   });
+
+  it("chooseReading takes the one field of records of the top object's kind beside other arrays and objects", () => {
+    // `npm ls --all --json` of a checkout with nothing installed (npm 10, from this project's own run):
+    // missing entries hold a `problems` list as the top object does, beside it an `error` object.
+    const missing = {
+      version: "4.2.0",
+      name: "tidewater",
+      problems: ["missing: quay-lint@5.1.0, required by tidewater@4.2.0"],
+      dependencies: {
+        "quay-lint": { required: "5.1.0", missing: true, problems: ["missing: quay-lint@5.1.0"] },
+        "tidal-math": {},
+      },
+      error: { code: "ELSPROBLEMS", summary: "missing: quay-lint@5.1.0" },
+    };
+    expect(choose(JSON.stringify(missing))).toEqual({
+      kind: "nodes",
+      childrenField: "dependencies",
+      found: true,
+    });
+    // Records that share no field with the top object are not its kind: a configuration stays values.
+    const config = { name: "CI", env: ["A=1"], services: { db: { image: "pg", ports: [5432] } } };
+    expect(choose(JSON.stringify(config))).toEqual({ kind: "values" });
+    // Two fields holding records: neither is taken.
+    const two = { ...missing, exports: { ".": { import: "./dist/index.js" } } };
+    expect(choose(JSON.stringify(two))).toEqual({ kind: "values" });
+    // Records holding records of their own below are no leaves.
+    const deeper = { ...missing, dependencies: { a: { problems: [], engines: { node: { min: 20 } } } } };
+    expect(choose(JSON.stringify(deeper))).toEqual({ kind: "values" });
+  });
+
+  it("chooseReading reads as another version was read (sameReading) when the document fits, else SHAPE", () => {
+    const lock = '{"packages":{"":{},"node_modules/a":{}}}';
+    const listing = '{"name":"r","dependencies":{"a":{"version":"1"}}}';
+    expect(choose(listing, { sameReading: { kind: "values" } })).toEqual({ kind: "values" });
+    expect(choose(lock, { sameReading: { kind: "path-map", field: "packages" } })).toEqual({
+      kind: "path-map",
+      field: "packages",
+    });
+    expect(() => choose(listing, { sameReading: { kind: "path-map", field: "packages" } })).toThrow(
+      expect.objectContaining({ code: "SHAPE" }),
+    );
+    expect(() =>
+      choose("[1, 2]", { sameReading: { kind: "nodes", childrenField: "deps", found: true } }),
+    ).toThrow(expect.objectContaining({ code: "SHAPE" }));
+    expect(() => choose('[{"name":"a"}]', { sameReading: { kind: "rows" } })).toThrow(
+      expect.objectContaining({ code: "SHAPE" }),
+    );
+    expect(choose('[{"id":"1","parent":""}]', { sameReading: { kind: "rows" } })).toEqual({ kind: "rows" });
+  });
 });
