@@ -58,17 +58,29 @@ export { type HeaderOptions, type HeaderStyle, summaryHeader, summaryHeaderLines
 export { renderSvg, type SvgOptions } from "./render/icicle-svg.js";
 export {
   KEY_MIN_BUDGET,
+  KEY_ONE_ROW,
   type KeyContext,
   type KeyFacts,
   keyContext,
   keyFacts,
   keyLine,
+  keyLines,
+  keyRows,
+  type WidthCuts,
 } from "./render/key-line.js";
 export { type LineGroup, lineGroups } from "./render/line-groups.js";
-export { type LayoutOptions, type LineParts, layoutLine, MIN_WIDTH } from "./render/line-layout.js";
+export {
+  type LaidOutLine,
+  type LayoutOptions,
+  type LineParts,
+  laidOutLine,
+  layoutLine,
+  MIN_WIDTH,
+} from "./render/line-layout.js";
 export { lineParts } from "./render/line-parts.js";
 export { LEGEND_LINES, legendLines, MARK } from "./render/marks.js";
 export { type Palette, palette } from "./render/palette.js";
+export { type ScreenLines, screenLines } from "./render/screen-lines.js";
 export { type JsonOptions, renderJson, toSummary } from "./render/summary-json.js";
 export { type MarkdownOptions, renderMarkdown } from "./render/summary-markdown.js";
 export { SUMMARY_FORMAT, type Summary, summarySchema } from "./render/summary-schema.js";

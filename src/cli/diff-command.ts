@@ -6,7 +6,13 @@ import { EXIT } from "./exit-codes.js";
 import { loadVersions, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { DiffCliOptions } from "./options.js";
-import { comparedSaid, defaultBudget, headerLinesFor, outputSettings, showsKey } from "./output-settings.js";
+import {
+  comparedSaid,
+  defaultBudget,
+  headerLinesFor,
+  keyRowsFor,
+  outputSettings,
+} from "./output-settings.js";
 import { diffHeaderRows, diffRenderers } from "./renderers.js";
 
 /** Reads, compares and renders two versions; returns the text to print and the exit code. */
@@ -30,7 +36,7 @@ export async function diffCommand(
     pseudonymKey: key,
     chains: opts.chains,
     headerLines: headerLinesFor(opts, "diff", io),
-    spareLines: showsKey(opts, io) ? 1 : 0,
+    spareLines: keyRowsFor(opts, io),
     siblingOrder: opts.siblingOrder,
     unmatchedFoci: opts.unmatchedFoci,
   };

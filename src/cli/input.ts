@@ -17,7 +17,7 @@ import { withProgress } from "./progress.js";
 import { FOCI_BOUND, readInput } from "./read-input.js";
 import { readInputStream } from "./read-input-stream.js";
 import { notesText } from "./reading-notes.js";
-import { nestedReading, readAsOtherNote, readingsDiffer, sameWay } from "./version-readings.js";
+import { nestedReading, readAsOtherNote, readingsDiffer, sameWay, sizedAlike } from "./version-readings.js";
 
 // What every command reads: its input trees, its foci and the pseudonym key. Summary, diff and explore
 // all go through here, so they read the same inputs the same way.
@@ -149,7 +149,8 @@ function sayVersionNotes(
   read: [Tree, Tree],
   opts: SharedCliOptions,
 ): [Tree, Tree] {
-  const trees = alignListings(read, [displayName(oldInput), displayName(newInput)]);
+  const files = [displayName(oldInput), displayName(newInput)] as const;
+  const trees = sizedAlike(alignListings(read, files), files);
   sayNotes(io, oldInput, trees[0], opts);
   sayNotes(io, newInput, trees[1], opts);
   return trees;

@@ -2,7 +2,7 @@ import type { ShownNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
 import type { HeaderReading, ListedReading, VersionReading } from "../render/header.js";
-import { KEY_MIN_BUDGET } from "../render/key-line.js";
+import { KEY_MIN_BUDGET, keyRows } from "../render/key-line.js";
 import { MIN_WIDTH } from "../render/line-layout.js";
 import { legendLines } from "../render/marks.js";
 import { type Palette, palette } from "../render/palette.js";
@@ -154,13 +154,18 @@ function readingOfVersion(opts: SharedCliOptions, tree: Tree): VersionReading | 
  */
 export function headerLinesFor(opts: SharedCliOptions, kind: "summary" | "diff", io: CliIO): number {
   const legend = opts.legend ? legendLines(kind, opts.width ?? defaultWidth(io)).length : 0;
-  return (opts.bare ? 0 : 1) + legend + (showsKey(opts, io) ? 1 : 0);
+  return (opts.bare ? 0 : 1) + legend + keyRowsFor(opts, io);
+}
+
+/** Lines the key takes (see `keyRows`): one, two on a screen under 60 columns, none when not shown. */
+export function keyRowsFor(opts: SharedCliOptions, io: CliIO): number {
+  return showsKey(opts, io) ? keyRows(opts.width ?? defaultWidth(io)) : 0;
 }
 
 /**
  * Whether the key line (see `keyLine`) follows the header: by default, unless --bare, --legend (which
- * says more) or --no-key, or a budget under `KEY_MIN_BUDGET` lines. Always one line, so it is counted
- * before the fit as the header is.
+ * says more) or --no-key, or a budget under `KEY_MIN_BUDGET` lines. Its lines depend on the width
+ * alone (see `keyRowsFor`), so they are counted before the fit as the header is.
  */
 export function showsKey(opts: SharedCliOptions, io: CliIO): boolean {
   return opts.key && !opts.bare && !opts.legend && (opts.budget ?? defaultBudget(io)) >= KEY_MIN_BUDGET;

@@ -5,7 +5,7 @@ import { isFactInput, summarizeFactInput } from "./fact-input.js";
 import { displayName, loadInput, pseudonymKey, readFoci, rootNameOf, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { SharedCliOptions, SummaryCliOptions } from "./options.js";
-import { defaultBudget, headerLinesFor, outputSettings, showsKey } from "./output-settings.js";
+import { defaultBudget, headerLinesFor, keyRowsFor, outputSettings } from "./output-settings.js";
 import { summaryHeaderRows, summaryRenderers } from "./renderers.js";
 
 /** Reads, summarises and renders one input; returns the text to print (nothing is printed here). */
@@ -20,7 +20,7 @@ export async function summaryCommand(input: string, opts: SummaryCliOptions, io:
     chains: opts.chains,
     unmatchedFoci: opts.unmatchedFoci,
     headerLines: headerLinesFor(opts, "summary", io),
-    spareLines: showsKey(opts, io) ? 1 : 0,
+    spareLines: keyRowsFor(opts, io),
     siblingOrder: opts.siblingOrder,
   };
   const { tree, result: first, again } = await summarizeInput(io, input, opts, options);

@@ -86,3 +86,32 @@ export function readAsOtherNote(
     parts: say`read as ${other} (${otherFile}) was, as ${readingWords(wanted)}; on its own it reads as ${readingWords(own)} (give --read-as or --children-field to choose)`,
   };
 }
+
+/**
+ * Two versions of which only one has sizes (a path list with sizes against one without, node objects
+ * with a size field against ones without): every node of the sized one would count as resized from 0.
+ * The sized one's sizes are left out, with a SIZES_LEFT_OUT note saying so; versions alike are kept.
+ */
+export function sizedAlike(
+  [oldTree, newTree]: readonly [Tree, Tree],
+  [oldFile, newFile]: readonly [string, string],
+): [Tree, Tree] {
+  if (oldTree.hasSizes === newTree.hasSizes) return [oldTree, newTree];
+  return oldTree.hasSizes
+    ? [withoutSizes(oldTree, "NEW", newFile), newTree]
+    : [oldTree, withoutSizes(newTree, "OLD", oldFile)];
+}
+
+function withoutSizes(tree: Tree, other: "OLD" | "NEW", otherFile: string): Tree {
+  const note: ReadingNote = {
+    code: "SIZES_LEFT_OUT",
+    parts: say`its sizes are left out: ${other} (${otherFile}) has none, so no node is compared by size (give both versions sizes, or neither)`,
+  };
+  const reading = tree.reading;
+  return {
+    ...tree,
+    hasSizes: false,
+    ownSize: new Float64Array(tree.length),
+    ...(reading ? { reading: { ...reading, notes: [...(reading.notes ?? []), note] } } : {}),
+  };
+}

@@ -32,7 +32,8 @@ export function resolvePrintedChain(
     names.splice(0, 1, "/", names[0].slice(1));
   const is = (i: number, name: string): boolean => {
     const own = printed(i);
-    if (own === name) return true;
+    // A name holding `\u{` itself prints with that backslash escaped: as typed, it is another name's print.
+    if (own === name) return nameOf !== undefined || !name.includes("\\u{");
     // Only a name printed escaped (see safeText) or empty (`""`) differs from its printed form.
     const escaped = name === '""' || name.includes("\\u{") || name.includes("[...]");
     return nameOf === undefined && escaped && shownLabel(own) === name;

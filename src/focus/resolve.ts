@@ -3,6 +3,7 @@ import { indexOfName } from "../model/names.js";
 import type { PathIndex } from "../model/path-index.js";
 import { printedNameOf, printedNames } from "../model/printed-names.js";
 import { pseudonym } from "../model/pseudonym.js";
+import { shownLabel } from "../model/safe-text.js";
 import { escapeSegment, parseSegment, splitPath } from "../model/segment.js";
 import { isGlob, matchGlob } from "./glob.js";
 import { isPrintedChain, resolvePrintedChain } from "./printed-chain.js";
@@ -16,6 +17,36 @@ export function resolvePath(index: PathIndex, spec: string): number {
     if (node < 0) return -1;
   }
   return node;
+}
+
+/**
+ * The node a path names as espalier prints it, or -1: each segment compared with its name's printed form
+ * (`c\u{9}d` for a name holding a tab, see safeText), so that a path copied from the output reads back.
+ * Printed forms are unambiguous: a name's own `\u{` prints as `\u{5c}u{`.
+ */
+export function resolvePrintedPath(index: PathIndex, spec: string): number {
+  let node = 0;
+  for (const raw of splitPath(spec)) {
+    const seg = parseSegment(raw);
+    // A name that prints as itself is found by name; one holding an escape is printed otherwise.
+    const list = shownLabel(seg.name) === seg.name ? index.childrenByName(node).get(seg.name) : undefined;
+    let next = list && seg.rank <= list.length ? list[seg.rank - 1] : -1;
+    if (list === undefined) {
+      for (const [name, named] of index.childrenByName(node)) {
+        if (shownLabel(name) !== seg.name) continue;
+        next = seg.rank <= named.length ? named[seg.rank - 1] : -1;
+        break;
+      }
+    }
+    if (next < 0) return -1;
+    node = next;
+  }
+  return node;
+}
+
+/** Whether a spec holds a printed escape (`\u{..}`): it is then read as printed first. */
+function holdsEscape(spec: string): boolean {
+  return /\\u\{[0-9a-f]+\}/.test(spec);
 }
 
 /** The node a path of pseudonyms names (as printed with a pseudonym key), or -1. */
@@ -88,6 +119,12 @@ function matchSpec(
   ids: boolean,
 ): readonly number[] | undefined {
   const { tree, measures } = index;
+  // A path copied from the output: its escapes are what the names print as (an exact name holding
+  // `\u{` prints otherwise, so the printed reading comes first).
+  if (holdsEscape(spec)) {
+    const printed = resolvePrintedPath(index, spec);
+    if (printed >= 0) return [printed];
+  }
   const exact = resolvePath(index, spec);
   if (exact >= 0) return [exact];
   if (pseudonymKey !== undefined) {

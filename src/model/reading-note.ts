@@ -24,13 +24,15 @@ export interface ReadingNote {
  * with one children field, every value a node, …) although on its own it reads another way
  * (cli/input.ts readOneWay). `ROOT_IS_FOLDER`: a diff's path list that names its folder (`find proj`,
  * `find /srv/proj`) was compared from that folder down with the other version, which lists the folder's
- * contents without its name (cli/listing-start.ts).
+ * contents without its name (cli/listing-start.ts). `SIZES_LEFT_OUT`: a diff's version with sizes was
+ * compared without them, as the other version has none (cli/version-readings.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
   "COMMAS_READ_AS_PATHS",
   "READ_AS_OTHER",
   "ROOT_IS_FOLDER",
+  "SIZES_LEFT_OUT",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

@@ -19,6 +19,10 @@ const CI_MARKER = /##(?:vso)?\[/giu;
 
 const PLAIN = /^[\x20-\x22\x24-\x7e]*$/;
 
+/** How an escape begins (`\u{`); in a name's own text, its backslash is escaped. */
+const ESCAPE_START = "\\u{";
+const LITERAL_ESCAPE = /\\(?=u\{)/g;
+
 /** Longest label shown, in code points; longer ones keep both ends around a marker. */
 export const MAX_LABEL = 240;
 
@@ -30,7 +34,7 @@ export const MAX_LABEL = 240;
  */
 export function safeText(text: string, max = MAX_LABEL): string {
   // Most names are printable ASCII without "#": nothing to escape (one test, no allocation).
-  if (text.length <= max && PLAIN.test(text)) return text;
+  if (text.length <= max && PLAIN.test(text) && !text.includes(ESCAPE_START)) return text;
   // Only the two ends of a very long text can show: escape those, not the whole of it, so that the
   // deep paths of a long chain cost their ends each (the cut points lie far outside what is kept).
   if (text.length > 4 * max) {
@@ -50,9 +54,14 @@ export function safeText(text: string, max = MAX_LABEL): string {
   return out;
 }
 
-/** Every unsafe or invisible character escaped (but where it shapes the text), CI markers broken. */
+/**
+ * Every unsafe or invisible character escaped (but where it shapes the text), CI markers broken, and a
+ * backslash that begins `\u{` in the text itself escaped too (`\u{5c}u{9}`), so that a printed `\u{..}`
+ * is always an escape and a printed name reads back as one name only (focus/resolve.ts).
+ */
 function escapeUnsafe(text: string): string {
   return text
+    .replace(LITERAL_ESCAPE, "\\u{5c}")
     .replace(unicodeClasses().UNSAFE, escapeUnlessKept)
     .replace(CI_MARKER, (m) => `${m.slice(0, -1)}\\u{5b}`);
 }

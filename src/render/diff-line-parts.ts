@@ -36,6 +36,9 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
   const hidden = last.hidden;
   const inside = hidden ? changeSummary(hidden.changes, hidden.delta, options) : "";
   const changed = hidden ? changeKinds.reduce((n, k) => n + hidden.changes[k], 0) : 0;
+  const bare = hidden ? `(${formatCount(hidden.nodes)} hidden)` : "";
+  const allChanged =
+    hidden !== null && (last.change === "added" || last.change === "removed") && changed === hidden.nodes;
   const few = changed === 0 ? "none changed" : `${formatCount(changed)} changed`;
   const fold = (o: NumberOptions) =>
     hidden ? `(${foldWords(last)}, ${foldAmount(group, last, o)}; ${inside})` : "";
@@ -49,8 +52,13 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
     fold: fold(options),
     foldCounts: hidden ? `(hidden: ${foldAmount(group, last, options)}; ${inside})` : "",
     compactFold: fold({ ...options, compact: true }),
+    compactFoldCounts: hidden
+      ? `(hidden: ${foldAmount(group, last, { ...options, compact: true })}; ${inside})`
+      : "",
     foldShort: hidden ? `(hidden: ${hiddenCount(hidden.nodes, options)}; ${few})` : "",
-    foldTiny: hidden ? `(${formatCount(hidden.nodes)} hidden, ${formatCount(changed)} changed)` : "",
+    // Below an added (removed) node every node is added (removed, or moved away): its count says all.
+    foldTiny: !hidden ? "" : allChanged ? bare : `(${bare.slice(1, -1)}, ${formatCount(changed)} changed)`,
+    foldBare: bare,
   };
 }
 

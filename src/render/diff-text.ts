@@ -5,8 +5,8 @@ import type { NumberOptions } from "./amount.js";
 import { diffLineParts } from "./diff-line-parts.js";
 import { diffHeaderLines, type HeaderOptions } from "./header.js";
 import { lineGroups } from "./line-groups.js";
-import { layoutLine } from "./line-layout.js";
 import type { Palette } from "./palette.js";
+import { screenLines } from "./screen-lines.js";
 import { checkWidth, headLines } from "./summary-text.js";
 
 export interface DiffTextOptions extends NumberOptions {
@@ -39,13 +39,13 @@ export function renderDiffText(
   options: DiffTextOptions,
 ): string {
   checkWidth(options.width);
-  const parts = lineGroups(view, options.chains ?? false).map((group) => diffLineParts(group, options));
+  const screen = screenLines(lineGroups(view, options.chains ?? false), diffLineParts, options);
   const lines = headLines(
     options,
     (w) => diffHeaderLines(totals, options.by, options.header!, options, w),
     "diff",
-    parts,
+    screen,
   );
-  for (const line of parts) lines.push(layoutLine(line, options));
+  lines.push(...screen.lines);
   return `${lines.join("\n")}\n`;
 }

@@ -1,7 +1,7 @@
 import { safeText } from "../model/safe-text.js";
-import { displayWidth, shortenEnd } from "./display-width.js";
+import { displayWidth, ELLIPSIS, shortenEnd } from "./display-width.js";
 import type { HeaderOptions } from "./header.js";
-import type { LineParts } from "./line-layout.js";
+import { FOLD_SIGN, type LineParts, NUMBERS_GONE } from "./line-layout.js";
 import { MARK } from "./marks.js";
 
 /**
@@ -22,7 +22,20 @@ export interface KeyFacts {
   readonly sizeName?: string;
   /** Whether a printed path writes a `/` or `~` inside a name as `~1` or `~0` (JSON Pointer). */
   readonly pathEscapes?: boolean;
+  /** Whether the lines leave the input's sizes out to fit the width (see `screenLines`). */
+  readonly sizesLeftOut?: boolean;
+  /** Whether a line's count did not fit the width (`?` stands in its place). */
+  readonly countsCut?: boolean;
+  /** Whether a fold's count did not fit (`(hidden)` alone). */
+  readonly foldsCut?: boolean;
+  /** Whether a name was cut to fit the width (`…` marks the cut). */
+  readonly namesCut?: boolean;
+  /** Whether a diff's fold left out how many changed nodes it holds (`(41 hidden)`). */
+  readonly changesCut?: boolean;
 }
+
+/** What the width took away from the laid-out lines (see `ScreenLines`), for the key. */
+export type WidthCuts = Pick<KeyFacts, "sizesLeftOut" | "countsCut" | "foldsCut" | "namesCut" | "changesCut">;
 
 /** What the rest of the screen says that the key speaks of: the sizes, their name, the foci's paths. */
 export interface KeyContext {
@@ -35,7 +48,11 @@ export interface KeyContext {
 }
 
 /** The facts a key needs, read off the lines it stands above and the header. */
-export function keyFacts(lines: readonly LineParts[], context: KeyContext = {}): KeyFacts {
+export function keyFacts(
+  lines: readonly LineParts[],
+  context: KeyContext = {},
+  cuts: WidthCuts = {},
+): KeyFacts {
   // A printed path (a reference's full entry, a focus in the header) writes a / inside a name as ~1
   // (RFC 6901, section 3).
   const escaped = (text: string) => /~[01]/.test(text);
@@ -47,16 +64,66 @@ export function keyFacts(lines: readonly LineParts[], context: KeyContext = {}):
     pathEscapes:
       lines.some((l) => l.mark === MARK.reference && escaped(l.numbers)) ||
       (context.foci ?? []).some(escaped),
+    ...(cuts.sizesLeftOut ? { sizesLeftOut: true } : {}),
+    ...(cuts.countsCut ? { countsCut: true } : {}),
+    ...(cuts.foldsCut ? { foldsCut: true } : {}),
+    ...(cuts.namesCut ? { namesCut: true } : {}),
+    ...(cuts.changesCut ? { changesCut: true } : {}),
   };
 }
+
+/** Narrowest width whose key is one line; a narrower screen's key takes two (see `keyRows`). */
+export const KEY_ONE_ROW = 60;
+
+/**
+ * How many lines the key takes at `width`: one, or two below {@link KEY_ONE_ROW} columns, where one
+ * line holds the marks and little else. Known before the fit, so the budget counts it as it counts
+ * the header.
+ */
+export function keyRows(width?: number): 1 | 2 {
+  return width !== undefined && width < KEY_ONE_ROW ? 2 : 1;
+}
+
+/**
+ * The key under the header (see `keyLine`) in `keyRows(width)` lines: below {@link KEY_ONE_ROW}
+ * columns the marks on the first line and, on the second (indented as a wrapped header line is), what
+ * the numbers mean and what the width took away: `no sizes: width`, `'?' count cut`, `'…' cut name`.
+ * Each line within the width; the second says less (shorter words, then fewer of its parts, the
+ * width's first) before it is cut at its end.
+ */
+export function keyLines(
+  kind: "summary" | "diff",
+  facts: KeyFacts,
+  width?: number,
+  style: "text" | "markdown" = "text",
+): string[] {
+  if (keyRows(width) === 1) return [keyLine(kind, facts, width, style)];
+  const room = width!;
+  const marks = markWords(kind, facts.marks, style);
+  const compact = markWords(kind, facts.marks, style, true);
+  const tiny = markWords(kind, facts.marks, style, "tiny");
+  const first = [marks, compact, tiny].map((m) => `key: ${m}`).find((t) => displayWidth(t) <= room);
+  const parts = explanations(kind, facts);
+  const tries: string[][] = [0, 1, 2].map((tier) => parts.map((p) => p[tier]));
+  for (let n = parts.length - 1; n >= 1; n--) tries.push(parts.slice(0, n).map((p) => p[2]));
+  const second = tries.map((t) => `${ROW_INDENT}${t.join("; ")}`).find((t) => displayWidth(t) <= room);
+  return [
+    first ?? shortenEnd(`key: ${tiny}`, room),
+    second ?? shortenEnd(`${ROW_INDENT}${parts[0][2]}`, room),
+  ];
+}
+
+/** The key's second line starts as a wrapped header line does. */
+const ROW_INDENT = "  ";
 
 /**
  * One line under the header that says what the marks on the screen and its numbers mean, so a reader
  * without the docs can read the screen: printed by default (not with `--bare`, `--legend` or
- * `--no-key`, nor for a budget under {@link KEY_MIN_BUDGET}); the budget counts it. Always one line:
- * within `width` it says less (shorter words for the numbers, then no chain and no pointer to
- * `--legend`, then only the marks, then the marks in a word or two each, cut at the end), never
- * wraps, so it can be counted before the fit.
+ * `--no-key`, nor for a budget under {@link KEY_MIN_BUDGET}); the budget counts it. One line: within
+ * `width` it says less (shorter words for the numbers and for what the width took away, then no chain
+ * and no pointer to `--legend`, then only the marks and what the width took away, then the marks in a
+ * word or two each, cut at the end), never wraps, so it can be counted before the fit. Below
+ * {@link KEY_ONE_ROW} columns the CLI prints `keyLines` instead.
  */
 export function keyLine(
   kind: "summary" | "diff",
@@ -66,29 +133,25 @@ export function keyLine(
 ): string {
   const marks = markWords(kind, facts.marks, style);
   const compact = style === "markdown" ? marks : markWords(kind, facts.marks, style, true);
-  const sizes = facts.sizes ?? true;
-  // The size's name comes from the options or a config file: made safe and short as the header does.
-  const size = `a ${facts.sizeName === undefined ? "size" : safeText(facts.sizeName, 40)}`;
-  const numbers =
-    kind === "diff"
-      ? `N nodes: the node with all below it (removed ones too)${sizes ? `; ${size}: NEW's, with all below; net: its change` : ""}`
-      : `N nodes${sizes ? ` and ${size}` : ""}: the node with all below it`;
-  const short = `${sizes ? "totals" : "counts"} include all below`;
-  const chain = [
-    ...(facts.chains ? ["a / b: b is a's only child"] : []),
-    ...(facts.pathEscapes ? ["in a path ~1 is a / inside a name, ~0 a ~"] : []),
-  ];
+  const [numbers, ...rest] = explanations(kind, facts);
+  const cuts = rest.filter((p) => p[3] === "cut");
+  // Sizes left out stay said however short the key (see `explanations`).
+  const must = facts.sizesLeftOut ? [numbers[2]] : [];
+  const chain = rest.filter((p) => p[3] === "chain");
   const more = "--legend explains more";
+  const long = (ps: Explanation[]) => ps.map((p) => p[0]);
+  const short = (ps: Explanation[]) => ps.map((p) => p[1]);
   const tries = [
-    [marks, numbers, ...chain, more],
-    [marks, short, ...chain, more],
-    [marks, short, more],
-    [marks, short],
-    [marks],
+    [marks, numbers[0], ...long(cuts), ...long(chain), more],
+    [marks, numbers[1], ...short(cuts), ...long(chain), more],
+    [marks, numbers[1], ...short(cuts), more],
+    [marks, numbers[1], ...short(cuts)],
+    [marks, ...must, ...short(cuts)],
     // A narrow terminal: each mark in a word or two, so all of them fit before any is cut.
-    [compact, short],
-    [compact],
+    [compact, numbers[1], ...short(cuts)],
+    [compact, ...must, ...short(cuts)],
   ];
+  for (let n = cuts.length - 1; n >= 0; n--) tries.push([compact, ...must, ...short(cuts.slice(0, n))]);
   for (const parts of tries) {
     const text = `key: ${parts.filter((part) => part !== "").join("; ")}`;
     if (width === undefined || displayWidth(text) <= width) return text;
@@ -97,15 +160,79 @@ export function keyLine(
 }
 
 /**
+ * One thing the key explains, in long, short and shortest words, and what it is: the numbers, what
+ * the width took away from the lines (`cut`), a chain or a path's escapes (`chain`), or the pointer
+ * to the legend.
+ */
+type Explanation = readonly [string, string, string, "numbers" | "cut" | "chain" | "more"];
+
+/** What the key explains besides the marks, most needed first (see `Explanation`). */
+function explanations(kind: "summary" | "diff", facts: KeyFacts): Explanation[] {
+  // Sizes left out at this width: the lines' counts are explained as counts (see `screenLines`).
+  const sizes = (facts.sizes ?? true) && !facts.sizesLeftOut;
+  // The size's name comes from the options or a config file: made safe and short as the header does.
+  const size = `a ${facts.sizeName === undefined ? "size" : safeText(facts.sizeName, 40)}`;
+  const numbers =
+    kind === "diff"
+      ? `N nodes: the node with all below it (removed ones too)${sizes ? `; ${size}: NEW's, with all below; net: its change` : ""}`
+      : `N nodes${sizes ? ` and ${size}` : ""}: the node with all below it`;
+  // Sizes the lines left out are said with the numbers, so no shorter key loses it.
+  const said: Explanation[] = [
+    facts.sizesLeftOut
+      ? [
+          `${numbers}; sizes left out to fit the width`,
+          "counts include all below; sizes left out (width)",
+          "counts: all below; sizes cut",
+          "numbers",
+        ]
+      : [numbers, `${sizes ? "totals" : "counts"} include all below`, "N nodes: all below", "numbers"],
+  ];
+  if (facts.countsCut)
+    said.push([
+      `'${NUMBERS_GONE}' a count that did not fit`,
+      `'${NUMBERS_GONE}' count cut`,
+      `'${NUMBERS_GONE}' count cut`,
+      "cut",
+    ]);
+  if (facts.foldsCut)
+    said.push([
+      `'${FOLD_SIGN}' nodes hidden, their count did not fit`,
+      `'${FOLD_SIGN}' count cut`,
+      `'${FOLD_SIGN}' count cut`,
+      "cut",
+    ]);
+  if (facts.changesCut)
+    said.push([
+      "(k hidden) alone: how many of them changed did not fit",
+      "(k hidden): changes cut",
+      "changes cut",
+      "cut",
+    ]);
+  if (facts.chains)
+    said.push(["a / b: b is a's only child", "a / b: only child", "a / b: only child", "chain"]);
+  if (facts.pathEscapes)
+    said.push([
+      "in a path ~1 is a / inside a name, ~0 a ~",
+      "~1: a / in a name",
+      "~1: a / in a name",
+      "chain",
+    ]);
+  if (facts.namesCut)
+    said.push([`'${ELLIPSIS}' a name cut to fit`, `'${ELLIPSIS}' cut name`, `'${ELLIPSIS}' cut`, "cut"]);
+  said.push(["--legend explains more", "--legend explains more", "--legend explains more", "more"]);
+  return said;
+}
+
+/**
  * The marks present, each with its meaning, in a fixed order; `compact`: in a word or two each, for a
- * narrow line. Markdown shows them otherwise (see `markdownLine`), and never narrow: a focus says
+ * narrow line (`"tiny"`: fewer letters still, for a diff's ':' in a two-line key). Markdown shows them otherwise (see `markdownLine`), and never narrow: a focus says
  * "(focus)" and is bold, a line on the way to one is bold.
  */
 function markWords(
   kind: "summary" | "diff",
   marks: ReadonlySet<string>,
   style: "text" | "markdown",
-  compact = false,
+  compact: boolean | "tiny" = false,
 ): string {
   const md = style === "markdown";
   const diff = kind === "diff";
@@ -116,7 +243,9 @@ function markWords(
   if (marks.has(MARK.path)) {
     const meaning = compact
       ? diff
-        ? "change or above one"
+        ? compact === "tiny"
+          ? "changed or above"
+          : "change or above one"
         : "above a focus"
       : pathWords(kind, marks.has(MARK.focus));
     if (md) words.push(`bold = ${meaning}`);

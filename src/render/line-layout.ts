@@ -48,8 +48,12 @@ export interface LineParts {
   compactFold: string;
   /** The fold with only how many nodes it hides (`(hidden: 41 nodes)`). */
   foldShort: string;
-  /** The fold at its shortest (`(41 hidden)`: nodes); a fold never disappears from a line. */
+  /** The fold with only how many nodes it hides (`(41 hidden)`; in a diff with how many changed). */
   foldTiny: string;
+  /** The fold's count alone (`(41 hidden)`), when `foldTiny` says more (a diff's changes); else absent. */
+  foldBare?: string;
+  /** The compact fold without how many children it holds, when it differs from `compactFold`. */
+  compactFoldCounts?: string;
 }
 
 export interface LayoutOptions {
@@ -74,28 +78,75 @@ export const NUMBERS_GONE = "?";
 /** Shortest label kept before the line's own numbers give way. */
 const MIN_LABEL = 8;
 
+/** Shortest label kept before a tag's old path and its size, then a diff fold's changes, give way. */
+const FEW_LABEL = 4;
+
+/** Shortest label kept, one character and `…`, before a count gives way. */
+const LEAST_LABEL = 2;
+
+const NOTHING_CUT = {
+  numbersCut: false,
+  countCut: false,
+  foldCut: false,
+  nameCut: false,
+  changesCut: false,
+} as const;
+
+/** The first of `laidOutLine`'s steps that may leave a number out. */
+const FIRST_CUT = 6;
+
+/** A laid-out line, and whether it gave up a number to fit its width. */
+export interface LaidOutLine {
+  /** The line, styled. */
+  text: string;
+  /**
+   * Whether the line left out a number its parts hold (a size first: `layoutLine` steps 5 and
+   * later): with sizes on, the sizes of the lines around it then no longer add up (see `screenLines`).
+   */
+  numbersCut: boolean;
+  /** Whether the line's count gave way (`?` in its place, or nothing at all). */
+  countCut: boolean;
+  /** Whether the fold kept only its sign (`(hidden)`). */
+  foldCut: boolean;
+  /** Whether a label was cut (`…` marks where). */
+  nameCut: boolean;
+  /** Whether a diff's fold left out how many changed nodes it holds (`(41 hidden)`). */
+  changesCut: boolean;
+}
+
 /**
  * One line of text, `<indent><mark> <a> / <b> / [<tag> ]<c>  <numbers>  <fold>`, within `width`
- * columns. A diff's tag stands right before the name it belongs to, the chain's last. When the line
- * is too wide, what gives way, in turn (the first that fits is used):
+ * columns. A diff's tag stands right before the name it belongs to, the chain's last. The rule: a
+ * name gives way before a number, and a number that the lines' sums need (a count) last of all, so
+ * that `nodes = 1 + the lines below + hidden` can be checked on every line a screen can hold. When
+ * the line is too wide, what gives way, in turn (the first that fits is used):
  *   1. the fold drops how many children it hides and keeps its numbers (`(hidden: 41 nodes, 2.0 MiB)`),
- *      so every count on the line can still be checked;
- *   2. numbers become compact (`12.1k nodes`, plain sizes `286M`), the fold with its children again;
- *   3. the fold keeps only how many nodes it hides (`(hidden: 41 nodes)`, then `(41 hidden)`: nodes,
- *      not children, so the count still adds up; in a diff with how many changed nodes it holds);
- *   4. the tag's old path or old name is cut to a few columns;
- *   5. the labels are cut, down to 8 columns: one name at its end, or around where it differs from
- *      its siblings when the end cut would lose that; a chain in its middle (its first and last names
- *      stay readable);
- *   6. the line's size goes, its count stays (`608 nodes`);
- *   7. the count goes too, `?` standing in its place (a line without a count reads as one node);
- *   8. the labels are cut further, down to one column and `…`;
- *   9. a deep line's indentation shrinks to a third of the width, then to its level in digits;
- *   10. the tag keeps only its kind (`[moved]`), then the fold only its sign (`(hidden)`).
+ *      without a size in it to its fewest words (`(41 hidden)`);
+ *   2. the tag's old path or old name is cut to a few columns (`…` marks every cut);
+ *   3. the labels are cut, down to 8 columns: one name at its end, or around where it differs from
+ *      its siblings when the end cut would lose that; a chain's longest names at their ends, every
+ *      ` / ` kept so its names can be counted (see `cutLabels`);
+ *   4. numbers become compact (`12.1k nodes`, plain sizes `286M`);
+ *   5. the fold's size goes, its count stays (`(hidden: 41 nodes)`; in a diff with how many changed
+ *      nodes it holds), then the line's size (`608 nodes`), then the fold's words (`(41 hidden)`);
+ *   6. a deep line's indentation shrinks to a third of the width, its level in digits at its end;
+ *   7. the labels are cut down to 4 columns, then the tag keeps only its kind (`[moved]`: its old
+ *      path and its size change go), then a diff's fold drops how many changed (`(41 hidden)`);
+ *   8. the labels are cut down to one character and `…`, then the indentation is only the level in
+ *      digits (`12 `);
+ *   9. the line's count goes, `?` standing in its place (a line without a count reads as one node),
+ *      then the fold keeps only its sign (`(hidden)`), then the `?` goes.
  * A fold never goes: a reader always sees that something is hidden. At MIN_WIDTH and wider the line
  * always fits this way; narrower (which the renderers refuse), the line's start is cut instead.
+ * Steps from the fold's size on leave a number out: the text renderers then lay the whole screen out again
+ * without sizes, so that the sizes on screen always add up (see `screenLines`).
  */
 export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
+  return laidOutLine(p, options).text;
+}
+
+/** `layoutLine`'s line, and whether it gave up a size to fit (see `LaidOutLine`). */
+export function laidOutLine(p: LineParts, options: LayoutOptions = {}): LaidOutLine {
   const { width } = options;
   const pal = options.palette ?? noColour;
   const label = p.labels.join(CHAIN_JOIN);
@@ -120,64 +171,120 @@ export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
     return `${indent}${head}${numbers ? `  ${q(numbers)}` : ""}${fold ? `  ${q(fold)}` : ""}`;
   };
   const indent = "  ".repeat(p.level);
-  if (width === undefined) return line(indent, label, p.tag, p.numbers, p.fold, true);
-  const fits = (ind: string, text: string, tag: string, numbers: string, fold: string) =>
-    displayWidth(line(ind, text, tag, numbers, fold, false)) <= width;
-  const whole: [string, string, string][] = [
-    [p.tag, p.numbers, p.fold],
-    [p.tag, p.numbers, p.foldCounts],
-    [p.tag, p.compactNumbers, p.compactFold],
-    [p.tag, p.compactNumbers, p.foldShort],
-    [p.tag, p.compactNumbers, p.foldTiny],
-    [p.shortTag, p.compactNumbers, p.foldTiny],
-  ];
-  for (const [tag, numbers, fold] of whole)
-    if (fits(indent, label, tag, numbers, fold)) return line(indent, label, tag, numbers, fold, true);
-  const gone = p.countNumbers ? NUMBERS_GONE : "";
-  const cut: [string, string, number][] = [
-    [p.compactNumbers, p.foldTiny, MIN_LABEL],
-    [p.countNumbers, p.foldTiny, MIN_LABEL],
-    [gone, p.foldTiny, MIN_LABEL],
-    [gone, p.foldTiny, 1],
-  ];
-  for (const ind of [indent, shortIndent(p.level, width), `${p.level} `]) {
-    for (const [numbers, fold, least] of cut) {
-      const room = width - displayWidth(line(ind, "", p.shortTag, numbers, fold, false));
-      if (room >= Math.min(least, displayWidth(label)))
-        return line(ind, cutLabels(p.labels, room, p.distinct), p.shortTag, numbers, fold, true);
-    }
-  }
-  // Still too wide (a diff's long tag and fold on a deep line): at the shortest indentation the tag
-  // keeps only its kind (`[moved]`), then the fold only its sign (`(hidden)`); the `?` of the numbers
-  // goes last of all.
+  if (width === undefined)
+    return { text: line(indent, label, p.tag, p.numbers, p.fold, true), ...NOTHING_CUT };
   const least = indent.length <= `${p.level} `.length ? indent : `${p.level} `;
   const kindTag = p.tagKind ? `[${p.tagKind}]` : "";
-  for (const numbers of gone ? [gone, ""] : [""])
-    for (const fewest of [MIN_LABEL, 1])
-      for (const fold of [p.foldTiny, p.fold ? FOLD_SIGN : ""]) {
-        const room = width - displayWidth(line(least, "", kindTag, numbers, fold, false));
-        if (room >= Math.min(fewest, displayWidth(label)))
-          return line(least, cutLabels(p.labels, room, p.distinct), kindTag, numbers, fold, true);
-      }
+  const gone = p.countNumbers ? NUMBERS_GONE : "";
+  const foldBare = p.foldBare ?? p.foldTiny;
+  const compactFoldCounts = p.compactFoldCounts ?? p.compactFold;
+  const sign = p.fold ? FOLD_SIGN : "";
+  const short = shortIndent(p.level, width);
+  // The fold in fewer words when that loses no number (no size in it): `(41 hidden)`.
+  const foldWords = p.foldShort === p.foldCounts ? p.foldTiny : p.foldCounts;
+  // [indentation, tag, fewest label columns (0: whole), numbers, fold]; from FIRST_CUT on a step may
+  // leave a number out.
+  const steps: [string, string, number, string, string][] = [
+    [indent, p.tag, 0, p.numbers, p.fold],
+    [indent, p.tag, 0, p.numbers, p.foldCounts],
+    [indent, p.tag, 0, p.numbers, foldWords],
+    [indent, p.shortTag, 0, p.numbers, foldWords],
+    [indent, p.shortTag, MIN_LABEL, p.numbers, foldWords],
+    [
+      indent,
+      p.shortTag,
+      MIN_LABEL,
+      p.compactNumbers,
+      p.foldShort === p.foldCounts ? p.foldTiny : compactFoldCounts,
+    ],
+    [indent, p.shortTag, MIN_LABEL, p.compactNumbers, p.foldShort],
+    [indent, p.shortTag, MIN_LABEL, p.countNumbers, p.foldShort],
+    [indent, p.shortTag, MIN_LABEL, p.countNumbers, p.foldTiny],
+    [short, p.shortTag, MIN_LABEL, p.countNumbers, p.foldTiny],
+    [short, p.shortTag, FEW_LABEL, p.countNumbers, p.foldTiny],
+    [short, kindTag, FEW_LABEL, p.countNumbers, p.foldTiny],
+    [short, kindTag, FEW_LABEL, p.countNumbers, foldBare],
+    [short, kindTag, LEAST_LABEL, p.countNumbers, foldBare],
+    [least, kindTag, LEAST_LABEL, p.countNumbers, foldBare],
+    [least, kindTag, LEAST_LABEL, gone, foldBare],
+    [least, kindTag, LEAST_LABEL, gone, sign],
+    [least, kindTag, 1, gone, sign],
+    [least, kindTag, 1, "", sign],
+  ];
+  for (const [k, [ind, tag, fewest, numbers, fold]] of steps.entries()) {
+    const room = width - displayWidth(line(ind, "", tag, numbers, fold, false));
+    const whole = displayWidth(label) <= room;
+    if (!whole && (fewest === 0 || room < Math.min(fewest, displayWidth(label)))) continue;
+    // A chain keeps its joins while the line keeps a count: its names are counted in it.
+    if (!whole && p.labels.length > 1 && fewest > 1 && cutChain(p.labels, room) === null) continue;
+    const text = whole ? label : cutLabels(p.labels, room, p.distinct);
+    // From step 5 on, less than the compact numbers and fold is a number (or a change's kind) left out.
+    const numbersCut =
+      k >= FIRST_CUT && (numbers !== p.compactNumbers || (fold !== compactFoldCounts && fold !== foldWords));
+    return {
+      text: line(ind, text, tag, numbers, fold, true),
+      numbersCut,
+      countCut: p.countNumbers !== "" && (numbers === gone || numbers === ""),
+      foldCut: fold === FOLD_SIGN,
+      nameCut: !whole,
+      changesCut: (fold === foldBare || fold === FOLD_SIGN) && foldBare !== p.foldTiny,
+    };
+  }
   // Narrower than MIN_WIDTH (the renderers refuse such a width; a small screen may still ask for it):
   // the start of the line is cut, and the fold's sign stays at its end while the width holds it.
-  const sign = p.fold ? `  ${FOLD_SIGN}` : "";
+  const signed = p.fold ? `  ${FOLD_SIGN}` : "";
   const head = line(least, label, kindTag, "", "", false);
-  const room = width - displayWidth(sign);
-  if (!sign || room < 3) return style(shortenEnd(`${head}${sign}`, width));
-  return `${style(shortenEnd(head, room))}${pal.quiet(sign)}`;
+  const room = width - displayWidth(signed);
+  const text =
+    !signed || room < 3
+      ? style(shortenEnd(`${head}${signed}`, width))
+      : `${style(shortenEnd(head, room))}${pal.quiet(signed)}`;
+  const foldCut = p.fold !== "";
+  return {
+    text,
+    numbersCut: true,
+    countCut: p.countNumbers !== "",
+    foldCut,
+    nameCut: true,
+    changesCut: foldCut && foldBare !== p.foldTiny,
+  };
 }
 
 /**
  * Labels cut to `room` columns: one name at its end (its start is what a reader recognises), unless
  * that would cut away where it differs from its siblings (`distinct`): then that part stays too
- * (`ledger…x64-musl` beside `ledger…linux-x64`); a chain in its middle, so its first name and the name
- * the line's numbers belong to stay readable.
+ * (`ledger…x64-musl` beside `ledger…linux-x64`). A chain keeps every ` / `, so its names can still be
+ * counted (each is a node of the line's count): the longest names are cut at their ends first, to
+ * one width (`invent… / wareho…`); only a chain too long for one column a name is cut in its middle.
  */
 export function cutLabels(labels: string[], room: number, distinct?: readonly number[]): string {
   const text = labels.join(CHAIN_JOIN);
-  if (labels.length > 1) return shortenMiddle(text, room);
+  if (labels.length > 1) return cutChain(labels, room) ?? shortenMiddle(text, room);
   return distinct === undefined ? shortenEnd(text, room) : shortenKeeping(text, room, distinct);
+}
+
+/**
+ * A chain's names cut at their ends to the widest width `cap` that fits `room` with the joins
+ * (names narrower than `cap` stay whole; a name cut to one column is `…` alone), or null when not
+ * even one column a name fits.
+ */
+function cutChain(labels: readonly string[], room: number): string | null {
+  const widths = labels.map(displayWidth);
+  const names = room - CHAIN_JOIN.length * (labels.length - 1);
+  if (names < labels.length) return null;
+  let cap = Math.max(...widths);
+  const used = (c: number) => widths.reduce((sum, w) => sum + Math.min(w, c), 0);
+  while (cap > 1 && used(cap) > names) cap--;
+  // A wide character the cut could not split leaves columns over: the next cut names take them.
+  let spare = names - used(cap);
+  const cut = labels.map((l, k) => {
+    if (widths[k] <= cap) return l;
+    const own = cap + spare;
+    const short = shortenEnd(l, own);
+    spare = own - displayWidth(short);
+    return short;
+  });
+  return cut.join(CHAIN_JOIN);
 }
 
 /**

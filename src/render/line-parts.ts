@@ -71,6 +71,7 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
     fold: fold(options),
     foldCounts: joined(last.hidden ? `(hidden: ${foldAmount(group, last, options)})` : "", parents),
     compactFold: fold(compact),
+    compactFoldCounts: joined(last.hidden ? `(hidden: ${foldAmount(group, last, compact)})` : "", parents),
     foldShort: joined(last.hidden ? `(hidden: ${hiddenCount(last.hidden.nodes, options)})` : "", parents),
     foldTiny: last.hidden ? `(${formatCount(last.hidden.nodes)} hidden)` : "",
   };

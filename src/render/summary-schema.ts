@@ -160,7 +160,7 @@ export const inputReadingSchema = z
             code: z
               .enum(readingNoteCodes)
               .describe(
-                "What was noticed. FIRST_LINE_APART: an edge list's first line was read as an edge that shares no node with any other line, as a header naming the columns would be. COMMAS_READ_AS_PATHS: two lines with as many commas (a CSV table's header and one row) were read as two paths. READ_AS_OTHER (a diff's version, on standard error only): read as the other version was, although on its own it reads another way. ROOT_IS_FOLDER (a diff's path list, on standard error only): compared from the folder it names down, as the other version lists that folder's contents without its name.",
+                "What was noticed. FIRST_LINE_APART: an edge list's first line was read as an edge that shares no node with any other line, as a header naming the columns would be. COMMAS_READ_AS_PATHS: two lines with as many commas (a CSV table's header and one row) were read as two paths. READ_AS_OTHER (a diff's version, on standard error only): read as the other version was, although on its own it reads another way. ROOT_IS_FOLDER (a diff's path list, on standard error only): compared from the folder it names down, as the other version lists that folder's contents without its name. SIZES_LEFT_OUT (a diff's version, on standard error only): its sizes were left out, as the other version has none.",
               ),
             line: z.number().int().positive().optional().describe("The input line the note is about."),
             message: z

@@ -3,12 +3,13 @@ import { EspalierError } from "../errors.js";
 import type { ViewNode } from "../view/view-node.js";
 import type { NumberOptions } from "./amount.js";
 import { type HeaderOptions, summaryHeaderLines } from "./header.js";
-import { keyContext, keyFacts, keyLine } from "./key-line.js";
+import { keyContext, keyFacts, keyLines } from "./key-line.js";
 import { lineGroups } from "./line-groups.js";
-import { type LineParts, layoutLine, MIN_WIDTH } from "./line-layout.js";
+import { MIN_WIDTH } from "./line-layout.js";
 import { lineParts } from "./line-parts.js";
 import { legendLines } from "./marks.js";
 import type { Palette } from "./palette.js";
+import { type ScreenLines, screenLines } from "./screen-lines.js";
 
 export interface TextOptions extends NumberOptions {
   palette?: Palette;
@@ -29,18 +30,18 @@ export interface TextOptions extends NumberOptions {
  * level: `<mark> <label>  <N nodes>, <size>  (hidden: <k> children, <N nodes>, <size>)`. What is
  * folded rides on its node's line, so every line below the header names a node and the budget buys
  * nodes. Marks: `*` a focus, `:` on the way to one, `.` any other node. See `layoutLine` for what
- * gives way to the width.
+ * gives way to the width, and `screenLines` for when the lines leave their sizes out.
  */
 export function renderText(view: HierarchyNode<ViewNode>, options: TextOptions): string {
   checkWidth(options.width);
-  const parts = lineGroups(view, options.chains ?? false).map((group) => lineParts(group, options));
+  const screen = screenLines(lineGroups(view, options.chains ?? false), lineParts, options);
   const lines = headLines(
     options,
     (w) => summaryHeaderLines(view.data, options.header!, options, w),
     "summary",
-    parts,
+    screen,
   );
-  for (const line of parts) lines.push(layoutLine(line, options));
+  lines.push(...screen.lines);
   return `${lines.join("\n")}\n`;
 }
 
@@ -59,12 +60,15 @@ export function headLines(
   },
   header: (width?: number) => string[],
   kind: "summary" | "diff",
-  parts: readonly LineParts[],
+  screen: ScreenLines,
 ): string[] {
   const quiet = options.palette?.quiet ?? ((s: string) => s);
   const lines = options.header ? header(options.width).map(quiet) : [];
   if (options.legend) for (const line of legendLines(kind, options.width)) lines.push(quiet(line));
-  else if (options.key) lines.push(quiet(keyLine(kind, keyFacts(parts, keyContext(options)), options.width)));
+  else if (options.key) {
+    const facts = keyFacts(screen.parts, keyContext(options), screen);
+    for (const line of keyLines(kind, facts, options.width)) lines.push(quiet(line));
+  }
   return lines;
 }
 

@@ -1,6 +1,7 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { displayWidth } from "../../src/render/display-width.js";
+import { KEY_ONE_ROW } from "../../src/render/key-line.js";
 import { cli } from "../helpers/cli.js";
 
 // A header wider than --width (a diff's counts of every kind, both versions' totals, the foci) used to
@@ -13,15 +14,15 @@ const edited = files
   .join("\n");
 
 /**
- * The lines before the tree: the header, then the key line (the root's line is the first starting
- * with a mark).
+ * The lines before the tree: the header, then the key from its "key: " line on (the root's line is
+ * the first starting with a mark).
  */
 function split(stdout: string): { header: string[]; key: string[]; tree: string[] } {
   const lines = stdout.trimEnd().split("\n");
   const root = lines.findIndex((line) => /^[.*:&] /.test(line));
-  const head = lines.slice(0, root);
-  const key = head.filter((line) => line.startsWith("key: "));
-  return { header: head.filter((line) => !key.includes(line)), key, tree: lines.slice(root) };
+  const at = lines.findIndex((line) => line.startsWith("key: "));
+  const end = at < 0 ? root : at;
+  return { header: lines.slice(0, end), key: lines.slice(end, root), tree: lines.slice(root) };
 }
 
 describe("a header wider than --width", () => {
@@ -43,8 +44,11 @@ describe("a header wider than --width", () => {
       const narrow = await cli([...args, "--width", String(width)], { stdin: edited });
       expect(narrow.stderr).toBe("");
       const { header, key, tree } = split(narrow.stdout);
-      // The key is one line whatever the width: it says less rather than wrap.
-      expect(key).toHaveLength(1);
+      // The key is one line from 60 columns (KEY_ONE_ROW), two below: its lines depend on the width
+      // alone, so the fit counts them before it knows the marks (a choice of this project, no source).
+      // A budget too small for the header, the key and the foci drops the key (its spare lines).
+      if (width >= KEY_ONE_ROW) expect(key).toHaveLength(1);
+      else expect([0, 2]).toContain(key.length);
       for (const line of [...header, ...key, ...tree]) expect(displayWidth(line)).toBeLessThanOrEqual(width);
       // Nothing of the header is lost: its lines, joined again, are the unwrapped header but for the
       // lines used (fewer tree lines fit when the header takes more).

@@ -102,3 +102,29 @@ describe("two listings of one folder, one naming the folder and one not", () => 
     expect(doc.changes).toMatchObject({ added: 2, removed: 1, renamed: 0 });
   });
 });
+
+describe("two versions of which only one has sizes", () => {
+  // `find DIR` prints paths only; `find DIR -printf '%s\t%P\n'` sizes too (findutils manual, -printf).
+  const bare = entries
+    .filter(([, path]) => path !== "")
+    .map(([, path]) => `harbour-ops/${path}\n`)
+    .join("");
+
+  it("are compared without sizes, and a note says why: no node reads as resized from 0", async () => {
+    const r = await cli(["diff", "bare.txt", "rel.tsv", "--format", "json"], {
+      files: { ...files, "bare.txt": bare },
+    });
+    expect(r.code).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.changes).toMatchObject({ added: 0, removed: 0, resized: 0 });
+    expect(doc.totals.old.size).toBe(0);
+    expect(doc.totals.new.size).toBe(0);
+    expect(r.stderr).toContain(
+      "rel.tsv: its sizes are left out: OLD (bare.txt) has none, so no node is compared by size (give both versions sizes, or neither) [SIZES_LEFT_OUT]",
+    );
+    const exit = await cli(["diff", "rel.tsv", "bare.txt", "--fail-on-change"], {
+      files: { ...files, "bare.txt": bare },
+    });
+    expect(exit.code).toBe(0);
+  });
+});

@@ -131,36 +131,41 @@ describe("renderText(view, { width })", () => {
     expect(renderText(result.view, { units: "plain", sizes: false, width: MIN_WIDTH })).toContain(". a");
   });
 
-  it("shortens numbers before names, then the fold, and cuts a name at its end, a chain in its middle", () => {
+  it("cuts names before numbers, leaves sizes out of the whole screen before a count, a chain keeps its joins", () => {
     const tree = makeTree("R{Esme Orby Lead Firmware Engineer:123456{a:1,b:2},alpha{beta{gamma:5{q,r}}}}");
     const result = summarize(prepare(tree), { foci: [], budget: 3, importance: "depth", chains: true });
-    const at = (width: number) =>
-      renderText(result.view, { units: "plain", sizes: true, width, chains: true }).split("\n")[1];
+    const lines = (width: number) =>
+      renderText(result.view, { units: "plain", sizes: true, width, chains: true }).split("\n");
+    const at = (width: number) => lines(width)[1];
     expect(at(200)).toBe(
       "  . Esme Orby Lead Firmware Engineer  3 nodes, 123,459  (hidden: 2 children, 2 nodes, 3)",
     );
     // First the fold's count of children goes, every number kept exact: 3 = 1 + 2 hidden.
     expect(at(76)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123,459  (hidden: 2 nodes, 3)");
-    // Then compact numbers (SI prefix k = 1000, BIPM SI brochure, 9th edition, table 7) and the
-    // fold's count of hidden nodes only, the name whole; then the fold at its shortest.
-    expect(at(75)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123k  (hidden: 2 nodes)");
-    expect(at(66)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123k  (2 hidden)");
-    // Only then is the name cut, at its end, down to 8 columns.
-    expect(at(40)).toBe("  . Esme Orb…  3 nodes, 123k  (2 hidden)");
-    // Then the size goes and the count stays; the name takes the room left.
-    expect(at(35)).toBe("  . Esme Orby…  3 nodes  (2 hidden)");
-    // Then the count goes too: its place keeps a "?", so the line does not read as one node (the
-    // legend's "no count").
-    expect(at(32)).toBe("  . Esme Orby Le…  ?  (2 hidden)");
-    const chain = (width: number) =>
-      renderText(result.view, { units: "plain", sizes: true, width, chains: true }).split("\n")[2];
+    // Then the name is cut at its end (an ellipsis marks it), down to 8 columns, numbers exact.
+    expect(at(75)).toBe("  . Esme Orby Lead Firmware Engine…  3 nodes, 123,459  (hidden: 2 nodes, 3)");
+    expect(at(53)).toBe("  . Esme Orb…  3 nodes, 123,459  (hidden: 2 nodes, 3)");
+    // Only then do numbers become compact (SI prefix k = 1000, BIPM SI brochure, 9th edition, table 7).
+    expect(at(50)).toBe("  . Esme Orb…  3 nodes, 123k  (hidden: 2 nodes, 3)");
+    // Narrower, a size would have to go from a line: the whole screen leaves sizes out, so every
+    // number on it still adds up (R: 9 = 1 + 3 + 5), and the name takes the room the size left (the
+    // fold in fewer words, which lose no number).
+    expect(lines(46).slice(0, 3)).toEqual([
+      ". R  9 nodes",
+      "  . Esme Orby Lead Firmw…  3 nodes  (2 hidden)",
+      "  . alpha / beta  5 nodes  (hidden: 3 nodes)",
+    ]);
+    // The count stays down to the narrowest width the renderers take: the name gives way.
+    expect(at(36)).toBe("  . Esme Orby …  3 nodes  (2 hidden)");
+    expect(at(MIN_WIDTH)).toBe("  . Esme…  3 nodes  (2 hidden)");
+    const chain = (width: number) => lines(width)[2];
     // The line's numbers are alpha's (with all below it); the narrow fold counts beta's hidden nodes,
     // not children (gamma and its q and r under beta's one hidden child), so 5 = 2 names + 3 hidden.
-    expect(chain(45)).toBe("  . alpha / beta  5 nodes, 5  (3 hidden)");
-    // A chain is cut in its middle: its start and the end of its last name stay.
-    expect(chain(36)).toBe("  . alph…eta  5 nodes, 5  (3 hidden)");
-    // Narrower, the size goes and the count stays: the line's count, alpha's (5), not beta's (4).
-    expect(chain(33)).toMatch(/^ {2}\. \S+ {2}5 nodes {2}\(3 hidden\)$/);
+    expect(chain(50)).toBe("  . alpha / beta  5 nodes, 5  (hidden: 3 nodes, 5)");
+    // A chain's names are cut at their ends, its " / " kept: the line's 5 = 2 names + 3 hidden still
+    // reads off the screen.
+    expect(chain(35)).toBe("  . alp… / be…  5 nodes  (3 hidden)");
+    expect(chain(MIN_WIDTH)).toBe("  . … / …  5 nodes  (3 hidden)");
   });
 
   it("prints a run of only children as one line carrying its top node's numbers and its last node's fold", () => {

@@ -58,7 +58,7 @@ describe("layoutLine(parts, { width })", () => {
     );
   });
 
-  it("keeps only the tag's kind, then only the fold's sign, on a deep line of a narrow screen", () => {
+  it("keeps the count to the last: the tag's kind, then the fold's sign, on a deep line of a narrow screen", () => {
     const parts: LineParts = {
       level: 12,
       mark: ".",
@@ -73,23 +73,24 @@ describe("layoutLine(parts, { width })", () => {
       fold: "(hidden: 3 children, 40 nodes, 2.0 MiB; 12,345 changed)",
       foldCounts: "(hidden: 40 nodes, 2.0 MiB; 12,345 changed)",
       compactFold: "(hidden: 3 children, 40 nodes, 2.0 MiB; 12,345 changed)",
-      foldShort: "(hidden: 3 children; 12,345 changed)",
-      foldTiny: "(3 hidden, 12,345 changed)",
+      foldShort: "(hidden: 40 nodes; 12,345 changed)",
+      foldTiny: "(40 hidden, 12,345 changed)",
+      foldBare: "(40 hidden)",
     };
-    // 44 columns: "12 " + ". " + "[moved] " (13) + "  ?" (3) + "  (3 hidden, 12,345 changed)" (28) leaves
-    // no room for 8 columns of name: the fold keeps only its sign, the name stays whole, and a "?" stands
-    // where the numbers were.
-    expect(layoutLine(parts, { width: 44 })).toBe(`12 . [moved] ledger-events  ?  ${FOLD_SIGN}`);
-    // 30 columns: 13 + "  ?" (3) + "  (hidden)" (10) leaves 4 columns, and the name is cut at its end.
+    // 50 columns: the tag keeps its kind, the fold its count, the indentation its level in digits;
+    // 41 = 1 + 40 hidden can still be checked.
+    expect(layoutLine(parts, { width: 50 })).toBe("12 . [moved] ledger-events  41 nodes  (40 hidden)");
+    // 40: the name is cut (down to one character and "…") before the count goes.
+    expect(layoutLine(parts, { width: 40 })).toBe("12 . [moved] led…  41 nodes  (40 hidden)");
+    // 36: "12 . [moved] " (13) + 2 columns of name + "  41 nodes" (10) + "  (40 hidden)" (13) is 38:
+    // no count fits, and a "?" stands where it was.
+    expect(layoutLine(parts, { width: 36 })).toBe("12 . [moved] ledger…  ?  (40 hidden)");
     expect(layoutLine(parts, { width: 30 })).toBe(`12 . [moved] led…  ?  ${FOLD_SIGN}`);
-    expect(layoutLine(parts, { width: 60 })).toBe(
-      "12 . [moved] ledger-events  ?  (3 hidden, 12,345 changed)",
-    );
     // Below MIN_WIDTH (only a small interactive screen asks): the start is cut, the sign kept.
     expect(layoutLine(parts, { width: 20 })).toBe(`12 . [mov…  ${FOLD_SIGN}`);
   });
 
-  it("drops the fold's children before any number, so the line's count can still be checked", () => {
+  it("drops the fold's children before any number, then cuts names before numbers go", () => {
     const parts: LineParts = {
       level: 0,
       mark: ":",
@@ -104,8 +105,9 @@ describe("layoutLine(parts, { width })", () => {
       fold: "(hidden: 67 children, 2,648 nodes, 33.2 MiB)",
       foldCounts: "(hidden: 2,648 nodes, 33.2 MiB)",
       compactFold: "(hidden: 67 children, 2.6k nodes, 33.2 MiB)",
-      foldShort: "(hidden: 67 children)",
-      foldTiny: "(67 hidden)",
+      compactFoldCounts: "(hidden: 2.6k nodes, 33.2 MiB)",
+      foldShort: "(hidden: 2,648 nodes)",
+      foldTiny: "(2,648 hidden)",
     };
     // Whole: 93 columns.
     expect(layoutLine(parts, { width: 93 })).toBe(
@@ -115,12 +117,131 @@ describe("layoutLine(parts, { width })", () => {
     expect(layoutLine(parts, { width: 92 })).toBe(
       ": inventory / warehouses  3,257 nodes, 40.6 MiB  (hidden: 2,648 nodes, 33.2 MiB)",
     );
-    expect(layoutLine(parts, { width: 80 })).toBe(
-      ": inventory / warehouses  3,257 nodes, 40.6 MiB  (hidden: 2,648 nodes, 33.2 MiB)",
-    );
-    // Narrower still (the compact fold, 91 columns, is no shorter here): only the children.
+    // Narrower: the chain's names are cut at their ends, its " / " kept (the count holds both names),
+    // every number kept exact.
     expect(layoutLine(parts, { width: 79 })).toBe(
-      ": inventory / warehouses  3.3k nodes, 40.6 MiB  (hidden: 67 children)",
+      ": inventory / warehous…  3,257 nodes, 40.6 MiB  (hidden: 2,648 nodes, 33.2 MiB)",
+    );
+    expect(layoutLine(parts, { width: 70 })).toBe(
+      ": inve… / war…  3,257 nodes, 40.6 MiB  (hidden: 2,648 nodes, 33.2 MiB)",
+    );
+    // Then compact numbers, then the fold's size, then the line's size (a text renderer then leaves
+    // sizes out of the whole screen, see screenLines).
+    expect(layoutLine(parts, { width: 60 })).toBe(
+      ": inve… / ware…  3.3k nodes, 40.6 MiB  (hidden: 2,648 nodes)",
+    );
+    expect(layoutLine(parts, { width: 50 })).toBe(": inve… / ware…  3.3k nodes  (hidden: 2,648 nodes)");
+    expect(layoutLine(parts, { width: 40 })).toBe(": inv… / wa…  3.3k nodes  (2,648 hidden)");
+  });
+
+  it("cuts a diff line's name, not its count, where the bare count fits (field test: width 40)", () => {
+    // The field test's line, '  : [added] @duckdb  ?  (hidden)' at 40 columns: 11 nodes, 10 hidden,
+    // all of them added. "  : [added] " (12) + "  11 nodes" (10) + "  (10 hidden)" (13) leaves 5
+    // columns for the name: 11 = 1 + 10 reads off the line.
+    const parts: LineParts = {
+      level: 1,
+      mark: ":",
+      role: "path",
+      tag: "[added]",
+      shortTag: "[added]",
+      tagKind: "added",
+      labels: ["@duckdb"],
+      numbers: "11 nodes",
+      compactNumbers: "11 nodes",
+      countNumbers: "11 nodes",
+      fold: "(hidden: 10 children, 10 nodes; 10 added)",
+      foldCounts: "(hidden: 10 nodes; 10 added)",
+      compactFold: "(hidden: 10 children, 10 nodes; 10 added)",
+      foldShort: "(hidden: 10 nodes; 10 changed)",
+      foldTiny: "(10 hidden)",
+      foldBare: "(10 hidden)",
+    };
+    expect(layoutLine(parts, { width: 40 })).toBe("  : [added] @duc…  11 nodes  (10 hidden)");
+    expect(layoutLine(parts, { width: 42 })).toBe("  : [added] @duckdb  11 nodes  (10 hidden)");
+    expect(layoutLine(parts, { width: 80 })).toBe(
+      "  : [added] @duckdb  11 nodes  (hidden: 10 children, 10 nodes; 10 added)",
+    );
+    // 37 columns: the name keeps one character, and the count still fits; at 36 it does not.
+    expect(layoutLine(parts, { width: 37 })).toBe("  : [added] @…  11 nodes  (10 hidden)");
+    expect(layoutLine(parts, { width: 36 })).toBe("  : [added] @duckdb  ?  (10 hidden)");
+  });
+
+  it("cuts wide names by their columns, never half a character, the count kept (UAX #11)", () => {
+    // Source: Unicode Standard Annex #11 (East Asian Width), via string-width: CJK ideographs are class
+    // W, two columns each; fullwidth Latin letters are class F, two columns; halfwidth katakana are
+    // class H, one column.
+    const parts = (labels: string[]): LineParts => ({
+      level: 1,
+      mark: ".",
+      role: "other",
+      tag: "",
+      shortTag: "",
+      tagKind: null,
+      labels,
+      numbers: "3,257 nodes, 40.6 MiB",
+      compactNumbers: "3.3k nodes, 40.6 MiB",
+      countNumbers: "3.3k nodes",
+      fold: "(hidden: 67 children, 2,648 nodes, 33.2 MiB)",
+      foldCounts: "(hidden: 2,648 nodes, 33.2 MiB)",
+      compactFold: "(hidden: 67 children, 2.6k nodes, 33.2 MiB)",
+      compactFoldCounts: "(hidden: 2.6k nodes, 33.2 MiB)",
+      foldShort: "(hidden: 2,648 nodes)",
+      foldTiny: "(2,648 hidden)",
+    });
+    // 倉庫管理部門 is 6 ideographs, 12 columns.
+    const wide = parts(["倉庫管理部門"]);
+    expect(layoutLine(wide, { width: 80 })).toBe(
+      "  . 倉庫管理部門  3,257 nodes, 40.6 MiB  (hidden: 2,648 nodes, 33.2 MiB)",
+    );
+    // 66 columns: 4 + 12 + 23 + 33 = 72 is too wide, and exact numbers leave 6 columns, under the 8 a
+    // name keeps before numbers turn compact; compact ones leave 8: three ideographs (6) and "…".
+    expect(layoutLine(wide, { width: 66 })).toBe(
+      "  . 倉庫管…  3.3k nodes, 40.6 MiB  (hidden: 2.6k nodes, 33.2 MiB)",
+    );
+    expect(layoutLine(wide, { width: 40 })).toBe("  . 倉庫管…  3.3k nodes  (2,648 hidden)");
+    // Fullwidth (F) and halfwidth (H) in one chain: the joins stay, each name cut to the same width.
+    const chain = parts(["ＡＢＣＤ", "ｶﾀｶﾅｶﾀｶﾅ"]);
+    // 60: 8 columns for the names, 4 each; "ＡＢ…" would be 5, so "Ａ…" (3), and the column over goes
+    // to the next name: "ｶﾀｶﾅ…" (5).
+    expect(layoutLine(chain, { width: 60 })).toBe(
+      "  . Ａ… / ｶﾀｶﾅ…  3.3k nodes, 40.6 MiB  (hidden: 2,648 nodes)",
+    );
+    expect(layoutLine(chain, { width: 40 })).toBe("  . Ａ… / ｶ…  3.3k nodes  (2,648 hidden)");
+    for (const width of [40, 50, 60, 66, 80, 200])
+      for (const p of [wide, chain]) {
+        const line = layoutLine(p, { width });
+        expect(displayWidth(line)).toBeLessThanOrEqual(width);
+        // The count stays at every width here (a count gives way only when no cut name lets it fit;
+        // at 30 columns "  . " + "  3.3k nodes" + "  (2,648 hidden)" alone is 32).
+        expect(line).toMatch(/ {2}3[.,][0-9k,]+ nodes/);
+      }
+  });
+
+  it("lets a count go only when even a one-character name would not make room for it (property)", () => {
+    const unit = fc.constantFrom("a", "-", "名", "Ａ", "ｶ", "e\u0301");
+    const wideParts = fc
+      .tuple(
+        arbParts,
+        fc.array(fc.array(unit, { minLength: 1, maxLength: 20 }), { minLength: 1, maxLength: 3 }),
+      )
+      .map(([p, names]) => ({ ...p, labels: names.map((n) => n.join("")) }));
+    fc.assert(
+      fc.property(fc.oneof(arbParts, wideParts), fc.integer({ min: MIN_WIDTH, max: 90 }), (parts, width) => {
+        const line = layoutLine(parts, { width });
+        expect(displayWidth(line)).toBeLessThanOrEqual(width);
+        const kept = [parts.numbers, parts.compactNumbers, parts.countNumbers];
+        if (kept.some((numbers) => line.includes(`  ${numbers}`))) return;
+        // The narrowest line that keeps the count: level digits, the tag's kind, every name at one
+        // column (a chain's joins kept), the fold's bare count.
+        const kind = parts.tagKind ? `[${parts.tagKind}] ` : "";
+        const names = parts.labels.map((l) => Math.min(displayWidth(l), 2)).reduce((a, b) => a + b);
+        const least = Math.min(2 * parts.level, `${parts.level} `.length);
+        const joins = 3 * (parts.labels.length - 1);
+        const fold = parts.fold ? 2 + displayWidth(parts.foldBare ?? parts.foldTiny) : 0;
+        const needed =
+          least + 2 + displayWidth(kind) + joins + names + 2 + displayWidth(parts.countNumbers) + fold;
+        expect(needed, line).toBeGreaterThan(width);
+      }),
     );
   });
 });

@@ -1,0 +1,108 @@
+import { describe, expect, it } from "vitest";
+import { keyLines, keyRows } from "../../src/render/key-line.js";
+import { lineGroups } from "../../src/render/line-groups.js";
+import { lineParts } from "../../src/render/line-parts.js";
+import { MARK } from "../../src/render/marks.js";
+import { screenLines } from "../../src/render/screen-lines.js";
+import { prepare, summarize } from "../../src/summarize.js";
+import { cli } from "../helpers/cli.js";
+import { makeTree } from "../helpers/make-tree.js";
+
+describe("screenLines(groups, parts, options)", () => {
+  const tree = makeTree("R{ledger-core:40000{a:1,b:2},riptide-rpc{kelp-log:5{q,r}}}");
+  const result = summarize(prepare(tree), { foci: [], budget: 3, importance: "depth", chains: true });
+  const groups = lineGroups(result.view, true);
+  const at = (width: number) => screenLines(groups, lineParts, { units: "plain", sizes: true, width });
+
+  it("keeps every size while every line holds its own", () => {
+    const wide = at(80);
+    expect(wide.sizesLeftOut).toBe(false);
+    expect(wide.lines).toEqual([
+      ". R  8 nodes, 40,008",
+      "  . ledger-core  3 nodes, 40,003  (hidden: 2 children, 2 nodes, 3)",
+      "  . riptide-rpc / kelp-log  4 nodes, 5  (hidden: 2 children, 2 nodes, 0)",
+    ]);
+  });
+
+  it("leaves sizes out of every line when one line could keep its own only by losing a number", () => {
+    // At 40 columns "  . riptide-rpc / kelp-log  4 nodes, 5  (2 hidden)" needs its fold's size gone
+    // (or the line's): the whole screen prints counts instead, and every count adds up from the lines
+    // (8 = 1 + 3 + 4; 3 = 1 + 2 hidden; 4 = 2 names + 2 hidden), the chain's " / " kept.
+    const narrow = at(40);
+    expect(narrow.sizesLeftOut).toBe(true);
+    expect(narrow.lines).toEqual([
+      ". R  8 nodes",
+      "  . ledger-core  3 nodes  (2 hidden)",
+      "  . ripti… / kelp-…  4 nodes  (2 hidden)",
+    ]);
+    expect(narrow.namesCut).toBe(true);
+  });
+});
+
+describe("keyLines(kind, facts, width)", () => {
+  const facts = { marks: new Set([MARK.path, MARK.other]), chains: true };
+
+  it("is one line from KEY_ONE_ROW columns, two below it", () => {
+    expect(keyRows(undefined)).toBe(1);
+    expect(keyRows(60)).toBe(1);
+    expect(keyRows(59)).toBe(2);
+    expect(keyLines("diff", facts, 80)).toHaveLength(1);
+    expect(keyLines("diff", facts, 59)).toHaveLength(2);
+  });
+
+  it("says on its second line what the width took from the lines, most needed first", () => {
+    const cut = { ...facts, sizesLeftOut: true, countsCut: true, namesCut: true };
+    expect(keyLines("summary", cut, 59)).toEqual([
+      "key: ':' on the way to a focus, '.' other",
+      "  counts: all below; sizes cut; '?' count cut",
+    ]);
+    expect(keyLines("summary", cut, 40)).toEqual([
+      "key: ':' above a focus, '.' other",
+      "  counts: all below; sizes cut",
+    ]);
+    expect(keyLines("diff", { ...facts, changesCut: true, namesCut: true }, 50)).toEqual([
+      "key: ':' change or above one, '.' unchanged",
+      "  N nodes: all below; changes cut",
+    ]);
+    // From 60 columns the same facts share the one line.
+    expect(keyLines("summary", cut, 100)).toEqual([
+      "key: ':' on the way to a focus, '.' other; counts: all below; sizes cut; '?' count cut; '…' cut name",
+    ]);
+  });
+});
+
+describe("a diff at 40, 80 and 200 columns (field test: '?' where a bare count fit)", () => {
+  const args = [
+    "diff",
+    "fixtures/examples/packages-main.paths",
+    "fixtures/examples/packages-branch.paths",
+    "--budget",
+    "14",
+  ];
+
+  it("keeps every count at 40 columns: names are cut, sizes leave every line, the key says so", async () => {
+    const r = await cli([...args, "--width", "40"]);
+    expect(r.code).toBe(0);
+    const lines = r.stdout.trimEnd().split("\n");
+    const key = lines.findIndex((l) => l.startsWith("key: "));
+    // 11 = 1 (tidewater) + 4 + 5 + 1 hidden; 4 = 1 + 1 + 1 + 1 hidden; 5 = 1 + 4 hidden.
+    expect(lines.slice(key)).toEqual([
+      "key: ':' a change or on the way to one",
+      "  counts: all below; sizes cut; '…' cut",
+      ": tide…  11 nodes  (1 hidden, 0 changed)",
+      "  : led…  4 nodes  (1 hidden, 0 changed)",
+      "    : [resized] estuary-path",
+      "    : [removed] shoal-codec",
+      "  : rip…  5 nodes  (4 hidden, 1 changed)",
+    ]);
+    expect(r.stdout).not.toMatch(/ {2}\? {2}|\(hidden\)/);
+  });
+
+  it("keeps sizes at 80 and 200 columns, where every line holds its own", async () => {
+    for (const width of ["80", "200"]) {
+      const r = await cli([...args, "--width", width]);
+      expect(r.stdout).toContain(": tidewater  11 nodes, 114.9 KiB, net +1.3 KiB\n");
+      expect(r.stdout).toContain("    . spar  4.0 KiB\n");
+    }
+  });
+});
