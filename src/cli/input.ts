@@ -296,6 +296,7 @@ export function toLoadOptions(
     rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
     ...(opts.readAs === "auto" ? {} : { readAs: opts.readAs }),
+    ...(opts.startAt ? { startAt: opts.startAt } : {}),
     ...(opts.shortRows === "fill" ? { shortRows: "fill" as const } : {}),
     ...(opts.nulSeparated ? { nulSeparated: true } : {}),
     ...(opts.folderSizes === "auto" ? {} : { folderSizes: opts.folderSizes }),

@@ -168,6 +168,12 @@ export const sharedOptions = {
     value: choice(["auto", "nodes", "values"], "auto"),
     help: "JSON/YAML: node objects, or every value a node sized in bytes; auto: by the document",
   },
+  startAt: {
+    flags: "--start-at <pointer>",
+    group: "Input",
+    value: text(),
+    help: "JSON/YAML: read only the value at this JSON Pointer (RFC 6901), as /data/items for rows or nodes inside a wrapper object; the rest is checked, not read",
+  },
   shortRows: {
     flags: "--short-rows <choice>",
     group: "Input",

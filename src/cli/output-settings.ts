@@ -37,12 +37,18 @@ export interface OutputSettings {
   reading: HeaderReading | undefined;
   /** Short rows read with empty last fields (`--short-rows fill`), per input; undefined when none was. */
   filledRows: readonly number[] | undefined;
+  /** The part of a JSON/YAML document read (`--start-at`, a JSON Pointer); undefined for the whole. */
+  startAt: string | undefined;
   /** YAML documents of a stream read as values, per input; undefined when no input had several. */
   documents: readonly number[] | undefined;
   /** The id column that names the nodes of an input without a name column (the first such input's). */
   namesFrom: string | undefined;
   /** The name field no node of an input has (nested nodes all named ""), the first such input's. */
   unnamed: string | undefined;
+  /** A diff: the one version `namesFrom` is of, when the other has a name column; undefined otherwise. */
+  namesFromOnly?: "OLD" | "NEW";
+  /** A diff: the one version `unnamed` is of, when the other's nodes have names; undefined otherwise. */
+  unnamedOnly?: "OLD" | "NEW";
   /** The loader's notes on the input (reading-notes.ts), input text hidden under --pseudonymize; JSON carries them. */
   notes: readonly ShownNote[];
   /** A diff's compared record fields (see `HeaderOptions.compared`); undefined for a summary. */
@@ -77,6 +83,7 @@ export function outputSettings(
     reading: inputs.length === 2 ? versionsReading(opts, inputs[0], inputs[1]) : chosenReading(opts, tree),
     filledRows: filled.some((n) => n > 0) ? filled : undefined,
     documents: documents.some((n) => n > 1) ? documents : undefined,
+    startAt: inputs.find((t) => t.reading?.startAt !== undefined)?.reading?.startAt,
     // A --label template says what each line shows, so the ids' naming is moot then.
     namesFrom:
       opts.label === undefined
@@ -86,6 +93,8 @@ export function outputSettings(
       opts.label === undefined
         ? inputs.find((t) => t.reading?.unnamed !== undefined)?.reading?.unnamed
         : undefined,
+    namesFromOnly: onlyIn(inputs, (t) => t.reading?.namesFrom !== undefined),
+    unnamedOnly: onlyIn(inputs, (t) => t.reading?.unnamed !== undefined),
     notes: shownNotes(tree, pseudonymKey(opts, io)),
   };
 }
@@ -112,6 +121,13 @@ export function chosenReading(opts: SharedCliOptions, tree: Tree): HeaderReading
   if (r.shape === "values") return { kind: "values" };
   if (r.folderTotals && opts.folderSizes === "auto") return { kind: "folder-totals" };
   return undefined;
+}
+
+/** A diff's version of which alone `holds` is true; undefined for a summary, or for both or neither. */
+function onlyIn(inputs: readonly Tree[], holds: (tree: Tree) => boolean): "OLD" | "NEW" | undefined {
+  if (inputs.length !== 2) return undefined;
+  const [old, now] = [holds(inputs[0]), holds(inputs[1])];
+  return old === now ? undefined : old ? "OLD" : "NEW";
 }
 
 /**

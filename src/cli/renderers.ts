@@ -185,8 +185,11 @@ export function inputFacts(s: OutputSettings): InputFacts {
     ...(s.reading === undefined ? {} : { reading: s.reading }),
     ...(s.filledRows === undefined ? {} : { filledRows: s.filledRows }),
     ...(s.documents === undefined ? {} : { documents: s.documents }),
+    ...(s.startAt === undefined ? {} : { startAt: s.startAt }),
     ...(s.namesFrom === undefined ? {} : { namesFrom: s.namesFrom }),
     ...(s.unnamed === undefined ? {} : { unnamed: s.unnamed }),
+    ...(s.namesFromOnly === undefined ? {} : { namesFromOnly: s.namesFromOnly }),
+    ...(s.unnamedOnly === undefined ? {} : { unnamedOnly: s.unnamedOnly }),
     ...(s.compared === undefined ? {} : { compared: s.compared }),
   };
 }

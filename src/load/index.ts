@@ -17,6 +17,8 @@ import {
   withNodeRecords,
 } from "./graph-input.js";
 import { linkGraphTable } from "./graph-table.js";
+import { valueAtPointerInBytes } from "./json/value-at-pointer.js";
+import { parsePointer, readAtPointer, startAtFormat } from "./json-pointer.js";
 import type { InputFormat, LoadOptions } from "./load-options.js";
 import { loadYaml } from "./load-yaml.js";
 import { checkPathListOptions } from "./path-list/path-list-options.js";
@@ -48,7 +50,10 @@ export function loadTree(text: string, options: LoadOptions): Tree {
     const format = options.format ?? detectFormat(body, file, options);
     checkPathListOptions(format, options);
     checkShortRowsFormat(format, options);
-    const nodes = linkedNodes(body, format, options, table);
+    const nodes = readAtPointer(
+      linkedNodes(partAtPointer(body, format, options), format, options, table),
+      options,
+    );
     checkNullParentUse(nodes, format, options);
     checkReadingOptions(nodes, format, options);
     placeRow = nodes.placeRow;
@@ -65,6 +70,19 @@ export function loadTree(text: string, options: LoadOptions): Tree {
     if (error instanceof EspalierError && file !== undefined) throw error.inFile(file);
     throw error;
   }
+}
+
+/**
+ * The text as the loaders read it under `--start-at`: JSON with every byte outside the value the pointer
+ * refers to blanked (json/value-at-pointer.ts); YAML as it is (load-yaml.ts takes the part); any other
+ * format USAGE (startAtFormat).
+ */
+function partAtPointer(body: string, format: InputFormat, options: LoadOptions): string {
+  if (!options.startAt || format === "yaml") return body;
+  startAtFormat(format);
+  const bytes = Buffer.from(body, "utf8");
+  valueAtPointerInBytes(bytes, parsePointer(options.startAt), options.startAt, options.limits);
+  return bytes.toString("utf8");
 }
 
 /** The CSV or TSV table an input was read as, once known: its bytes, to place a row's error. */

@@ -82,6 +82,11 @@ export interface LoadOptions {
    */
   readAs?: "nodes" | "values";
   /**
+   * JSON and YAML: a JSON Pointer (RFC 6901, e.g. `/data/items`) to the value read as the whole
+   * document (a list of rows or nodes inside a wrapper object); undefined or empty: the whole document.
+   */
+  startAt?: string;
+  /**
    * JSON and YAML: read the document this way, or fail with SHAPE when it does not fit (a diff reads its
    * NEW version as its OLD one was read when the two would be read differently: src/cli/version-readings.ts).
    * Overrides `readAs` and the search for a children field.

@@ -8,7 +8,7 @@ import {
   type Node,
   parseAllDocuments,
   parseDocument,
-  Scalar,
+  type Scalar,
   visit,
   type YAMLMap,
 } from "yaml";
@@ -22,6 +22,8 @@ import { sampleNested } from "./shape/sample-nested.js";
 import { linkPathMap, linkTable } from "./table/link-table.js";
 import { rowsTable } from "./table/rows-table.js";
 import { Kind, type NestedAccess, walkNested } from "./walk-nested.js";
+import { isMergeKey, keyText } from "./yaml-keys.js";
+import { yamlAtPointer } from "./yaml-pointer.js";
 import { yamlValues } from "./yaml-values.js";
 
 type YamlValue = Node | null;
@@ -58,6 +60,13 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
     if (error.code === "MULTIPLE_DOCS") {
       // Several documents (a stream of manifests): each one's values under the root, when values are
       // what is read; nodes, rows and graphs come in one document.
+      if (options.startAt)
+        throw new EspalierError(
+          "USAGE",
+          "a second YAML document starts here (after ---); --start-at reads into one document: split the file",
+          pos,
+          { option: "--start-at" },
+        );
       if (
         options.readAs !== "nodes" &&
         !options.graph &&
@@ -74,14 +83,17 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
     const reason = error.message.replace(/ at line \d+, column \d+:.*$/s, "");
     throw new EspalierError("PARSE_YAML", say`invalid YAML (${error.code}): ${quoted.excerpt(reason)}`, pos);
   }
-  const root = doc.contents as YamlValue;
-  if (root === null || (isScalar(root) && root.value === null)) {
+  if (doc.contents === null || (isScalar(doc.contents) && doc.contents.value === null)) {
     throw new EspalierError("INPUT_EMPTY", "the YAML document holds no value");
   }
+  // `--start-at`: the part read as the whole document (aliases in it still reach anchors before it).
+  const root = (
+    options.startAt ? yamlAtPointer(doc, options.startAt, lineCounter) : doc.contents
+  ) as YamlValue;
 
   // With `options.graph` the document is an adjacency map; aliases expand in its plain value, up to
   // the yaml package's alias count limit.
-  if (options.graph) return adjacencyNodes(plainValue(doc, lineCounter), options);
+  if (options.graph) return adjacencyNodes(plainValue(doc, lineCounter, root), options);
 
   // An alias stands for the last node with its anchor before it, in document order.
   const target = new Map<Alias, Node>();
@@ -313,19 +325,6 @@ function recordOf(value: YamlValue, access: NestedAccess<YamlValue>): Record<str
 /** How deep merges may nest (a merge of a mapping that merges one, …); deeper ones are not followed. */
 const MAX_MERGE_DEPTH = 64;
 
-/** Whether a mapping key is the merge key: `<<` written plain (a quoted "<<" is an ordinary key). */
-function isMergeKey(key: unknown): boolean {
-  if (!isScalar(key) || (key.type !== undefined && key.type !== Scalar.PLAIN)) return false;
-  const value = key.value;
-  return value === "<<" || (typeof value === "symbol" && value.description === "<<");
-}
-
-/** A mapping key as text: a scalar's value ("" for null), else the key as written. */
-function keyText(key: unknown): string {
-  if (isScalar(key)) return key.value === null || key.value === undefined ? "" : String(key.value);
-  return String(key);
-}
-
 /** YAML 1.2.2, 10.3.2 (core schema): the plain text a !!float may have; "3" is one, the float 3.0. */
 const CORE_FLOAT = /^[-+]?(?:\.[0-9]+|[0-9]+(?:\.[0-9]*)?)(?:[eE][-+]?[0-9]+)?$/;
 
@@ -343,7 +342,11 @@ function isTaggedFloat(v: Scalar): boolean {
  * does not is PARSE_YAML at the alias. Aliases that expand past the yaml package's alias count limit
  * (an alias bomb) are LIMIT_EXCEEDED.
  */
-function plainValue(doc: ReturnType<typeof parseDocument>, lineCounter: LineCounter): unknown {
+function plainValue(
+  doc: ReturnType<typeof parseDocument>,
+  lineCounter: LineCounter,
+  root: YamlValue,
+): unknown {
   const anchors = new Set<string>();
   let unresolved: Alias | undefined;
   visit(doc, {
@@ -366,7 +369,7 @@ function plainValue(doc: ReturnType<typeof parseDocument>, lineCounter: LineCoun
     );
   }
   try {
-    return doc.toJS();
+    return root === doc.contents ? doc.toJS() : (root?.toJS(doc) ?? null);
   } catch (error) {
     if (error instanceof ReferenceError && /alias count/i.test(error.message))
       throw new EspalierError(

@@ -1,4 +1,5 @@
 import { EspalierError, quoted, quotedList, type SourcePos, say } from "../errors.js";
+import { escapeSegment } from "../model/segment.js";
 
 /** Names of fields seen on node objects, kept while a loader reads: the first few, of the first nodes. */
 export class FieldsSeen {
@@ -181,11 +182,11 @@ export function wrapperChildren(
   pos: SourcePos | undefined,
   words: "json" | "yaml",
 ): EspalierError {
-  const out = words === "json" ? `jq '.${field}'` : `the value of "${field}" as the document`;
+  const out = `--start-at /${escapeSegment(field)}`;
   const held = words === "json" ? "an object or array" : "a mapping or sequence";
   return new EspalierError(
     "FIELD_MISSING",
-    say`the children field "${field}" holds only the top level, while nodes below hold ${held} under "children" (one field holds the children at every level): if "${field}" wraps the top nodes, take them out first (${out}) and leave out --children-field`,
+    say`the children field "${field}" holds only the top level, while nodes below hold ${held} under "children" (one field holds the children at every level): if "${field}" wraps the top nodes, read them alone (${out}) and leave out --children-field`,
     pos,
     { option: "--children-field", field },
   );

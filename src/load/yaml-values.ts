@@ -34,7 +34,8 @@ export function yamlValues(
   for (let i = 0; i < sink.length; i++) {
     const v = pending[i];
     pending[i] = null;
-    const own = i === 0 ? Buffer.byteLength(text, "utf8") : lengthOf(v);
+    // The root is the whole text, but under --start-at the part read (its own length).
+    const own = i === 0 && !options.startAt ? Buffer.byteLength(text, "utf8") : lengthOf(v);
     let inner = 0;
     if (i === 0 && stream) {
       documents.forEach((doc, k) => {

@@ -71,6 +71,8 @@ export interface TreeReading {
    * are those totals minus the contents', so nothing counts twice.
    */
   readonly folderTotals?: boolean;
+  /** JSON/YAML read from one part of the document (`--start-at`): the JSON Pointer (RFC 6901) of that part. */
+  readonly startAt?: string;
   /**
    * A path list whose root stands for the folder it lists, whatever the root is named: a line with an
    * empty path named it (`find DIR -printf '%P'`), or every path starts with `.` (`find .`). A diff

@@ -49,6 +49,8 @@ export interface HeaderOptions {
    * per input; said when any is above 1, as a reader would take the `0`, `1` for a list's items.
    */
   documents?: readonly number[];
+  /** The part of a JSON/YAML document read (`--start-at`): `read at /data/teams`. */
+  startAt?: string;
   /**
    * A table linked by id without the name column: the id column, which names the nodes
    * (`named by employee_id (no name column)`), so a reader whose names sit in another column sees it.
@@ -59,6 +61,12 @@ export interface HeaderOptions {
    * `no "name" field: nodes print as "" (see --name-field)`, so a screen of `""` lines explains itself.
    */
   unnamed?: string;
+  /**
+   * A diff of which one version alone is named by ids (`namesFrom`) or has no names (`unnamed`): that
+   * version, said in front (`NEW: no "name" field: …`), so the clause is not read as both versions'.
+   */
+  namesFromOnly?: "OLD" | "NEW";
+  unnamedOnly?: "OLD" | "NEW";
   /**
    * A diff: the record fields compared between matched nodes (`--compare-field`, else `version` where
    * both versions have it), said beside the `edited` count (`1 edited (compared: version)`); empty
@@ -71,7 +79,15 @@ export interface HeaderOptions {
 /** What a header says of its inputs beside the budget, the lines and the foci (see `HeaderOptions`). */
 export type InputFacts = Pick<
   HeaderOptions,
-  "sizeName" | "reading" | "filledRows" | "documents" | "namesFrom" | "unnamed" | "compared"
+  | "sizeName"
+  | "reading"
+  | "filledRows"
+  | "documents"
+  | "namesFrom"
+  | "unnamed"
+  | "namesFromOnly"
+  | "unnamedOnly"
+  | "compared"
 >;
 
 /**
@@ -226,18 +242,24 @@ function sizeWord(header: HeaderOptions, style: HeaderStyle): string {
 }
 
 /**
- * `children under dependencies`, `paths from packages` (`paths from keys` for the top level),
+ * `read at /data/teams`, `children under dependencies`, `paths from packages` (`paths from keys` for the top level),
  * `every value a node`, `folder sizes read as totals with contents`, `3 short rows filled`: the
  * header's clauses on how the input was read; none when the options chose the reading.
  */
 function readingParts(header: HeaderOptions, style: HeaderStyle): string[] {
   return [
+    startAtText(header, style),
     choiceText(header, style),
     documentsText(header, style),
     namesText(header, style),
     unnamedText(header, style),
     filledText(header, style),
   ].filter((part) => part !== "");
+}
+
+/** `read at /data/teams`: the part of the document read (`--start-at`); empty for the whole. */
+function startAtText({ startAt }: HeaderOptions, style: HeaderStyle): string {
+  return startAt ? `${style.words("read at ")}${style.name(safeText(startAt, 80))}` : "";
 }
 
 /** `2 YAML documents, named 0 and 1`, `5 YAML documents, named 0 to 4` (a diff: `1 -> 3 YAML documents`). */
@@ -252,15 +274,15 @@ function documentsText({ documents }: HeaderOptions, style: HeaderStyle): string
 }
 
 /** `named by employee_id (no name column)`: the ids name the nodes; empty when a name column does. */
-function namesText({ namesFrom }: HeaderOptions, style: HeaderStyle): string {
+function namesText({ namesFrom, namesFromOnly }: HeaderOptions, style: HeaderStyle): string {
   if (namesFrom === undefined) return "";
-  return `${style.words("named by ")}${style.name(safeText(namesFrom, 40))}${style.words(" (no name column)")}`;
+  return `${style.words(namesFromOnly === undefined ? "" : `${namesFromOnly}: `)}${style.words("named by ")}${style.name(safeText(namesFrom, 40))}${style.words(" (no name column)")}`;
 }
 
 /** `no "name" field: nodes print as "" (see --name-field)`: no node has the name field; empty when some node has it. */
-function unnamedText({ unnamed }: HeaderOptions, style: HeaderStyle): string {
+function unnamedText({ unnamed, unnamedOnly }: HeaderOptions, style: HeaderStyle): string {
   if (unnamed === undefined) return "";
-  return `${style.words("no ")}${style.name(JSON.stringify(safeText(unnamed, 40)))}${style.words(' field: nodes print as "" (see --name-field)')}`;
+  return `${style.words(unnamedOnly === undefined ? "no " : `${unnamedOnly}: no `)}${style.name(JSON.stringify(safeText(unnamed, 40)))}${style.words(' field: nodes print as "" (see --name-field)')}`;
 }
 
 /** `3 short rows filled` (a diff: `3 -> 0 short rows filled`); empty when none was. */

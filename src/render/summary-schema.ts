@@ -117,6 +117,12 @@ export const inputReadingSchema = z
       .describe(
         "A path list whose folder lines gave each folder with its contents (as du -ab prints them); own sizes are those totals minus the contents'.",
       ),
+    startAt: z
+      .string()
+      .optional()
+      .describe(
+        "JSON/YAML read from one part of the document (--start-at): the JSON Pointer (RFC 6901) of that part; absent when the whole document was read.",
+      ),
     rootIsStart: z
       .boolean()
       .optional()

@@ -106,10 +106,13 @@ describe("rows asked for in a document that holds them under a member", () => {
     const result = await cli(["-", "--input-format", "rows"], { stdin: wrapped });
     expect(result.code).toBe(2);
     expect(result.stderr).toMatch(
-      /^espalier: <stdin>:1:1: rows must be a top-level array of objects; this document is an object: rows held under one of its members need that array taken out first .*\[SHAPE\]\n$/,
+      /^espalier: <stdin>:1:1: rows must be a top-level array of objects; this document is an object: rows held under one of its members are read with --start-at .*\[SHAPE\]\n$/,
     );
-    // The array taken out reads as rows: 2 nodes.
+    // The array taken out reads as rows: 2 nodes; so does the array read in place with --start-at.
     const rows = JSON.stringify(JSON.parse(wrapped).data);
     expect((await summary(rows, ["--input-format", "rows"])).totals.nodes).toBe(2);
+    const inPlace = await summary(wrapped, ["--input-format", "rows", "--start-at", "/data"]);
+    expect(inPlace.totals.nodes).toBe(2);
+    expect(inPlace.input.startAt).toBe("/data");
   });
 });

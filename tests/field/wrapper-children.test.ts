@@ -29,7 +29,7 @@ describe("a children field that wraps the top level only", () => {
     expect(r.code).toBe(2);
     expect(r.stdout).toBe("");
     expect(r.stderr).toMatch(
-      /^espalier: mounts\.json:5:16: the children field "filesystems" holds only the top level, while nodes below hold an object or array under "children" .*jq '\.filesystems'.*\[FIELD_MISSING\]\n$/,
+      /^espalier: mounts\.json:5:16: the children field "filesystems" holds only the top level, while nodes below hold an object or array under "children" .*--start-at \/filesystems.*\[FIELD_MISSING\]\n$/,
     );
     // Taken out, the mounts read with the default children field: all 4.
     const out = JSON.stringify(JSON.parse(table).filesystems);
@@ -44,8 +44,16 @@ describe("a children field that wraps the top level only", () => {
     });
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(
-      /^espalier: mounts\.yaml:4:7: the children field "filesystems" holds only the top level, while nodes below hold a mapping or sequence under "children" .*the value of "filesystems" as the document.*\[FIELD_MISSING\]\n$/,
+      /^espalier: mounts\.yaml:4:7: the children field "filesystems" holds only the top level, while nodes below hold a mapping or sequence under "children" .*--start-at \/filesystems.*\[FIELD_MISSING\]\n$/,
     );
+    // As the message says: the wrapped nodes read alone, each mount's own under "children".
+    const alone = await cli(
+      ["mounts.yaml", "--start-at", "/filesystems", "--name-field", "target", "--bare"],
+      {
+        files: { "mounts.yaml": yaml },
+      },
+    );
+    expect(alone.stdout).toBe(". //srv/quill  2 nodes\n");
   });
 
   it("a tree that uses the field below the top, or a scalar named children, reads as before", async () => {

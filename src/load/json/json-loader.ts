@@ -701,7 +701,7 @@ export class JsonLoader extends JsonTokenizer {
  * or a dataset's `{"3166-2": [...]}` holds its rows under a member, which espalier does not pick.
  */
 export const ROWS_IN_OBJECT =
-  "; this document is an object: rows held under one of its members need that array taken out first (without --input-format rows, the object is read as nested nodes)";
+  "; this document is an object: rows held under one of its members are read with --start-at and the JSON Pointer of that array (as --start-at /data); without --input-format rows, the object is read as nested nodes";
 
 /**
  * A number name or kept field as text: as JSON.parse reads it (`7e0` is "7", `1.10` is "1.1"), except a

@@ -86,6 +86,11 @@ export abstract class JsonTokenizer {
   /** The chunk `buf` has been read. */
   protected abstract chunkEnd(buf: Buffer): void;
 
+  /** Absolute offset of a token the end of the last chunk cut (its hooks run once it ends); -1: none. */
+  protected pendingFrom(): number {
+    return this.pend === P_NONE ? -1 : this.pendStart;
+  }
+
   /** Reads the next chunk of the input. */
   write(chunk: Uint8Array): void {
     const buf = asBuffer(chunk);

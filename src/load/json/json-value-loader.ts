@@ -13,7 +13,8 @@ import { JsonTokenizer } from "./json-tokenizer.js";
  * value. A value's size is the UTF-8 byte length of its source text, from its first character to its
  * last, so a node's own size is what its text holds beyond its children's values (keys, punctuation,
  * white space) and every subtree's size is its value's length. The root is the whole document: its own
- * size takes the white space around the value too, so its size is the document's.
+ * size takes the white space around the value too, so its size is the document's (under `--start-at`,
+ * the value read: the part's own length).
  */
 export class JsonValueLoader extends JsonTokenizer {
   private readonly options: LoadOptions;
@@ -44,8 +45,9 @@ export class JsonValueLoader extends JsonTokenizer {
   end(): LinkedNodes {
     this.endTokens();
     const sink = this.sink;
-    // The root's own size takes the white space around the value: the whole document is accounted.
-    sink.ownSize[0] += this.base - this.rootLength;
+    // The root's own size takes the white space around the value: the whole document is accounted
+    // (not under --start-at, where all but the value read is blanked: the root is that value).
+    if (!this.options.startAt) sink.ownSize[0] += this.base - this.rootLength;
     sink.hasSizes = true;
     const fields = new Map<string, string[]>();
     const scalars = this.scalars;

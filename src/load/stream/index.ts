@@ -17,6 +17,8 @@ import {
   withNodeRecords,
 } from "../graph-input.js";
 import { linkGraphTable } from "../graph-table.js";
+import { valueAtPointer } from "../json/value-at-pointer.js";
+import { parsePointer, readAtPointer, startAtFormat } from "../json-pointer.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
 import { checkPathListOptions } from "../path-list/path-list-options.js";
 import { jsonGraphTooLong, limitsOf } from "../read-limits.js";
@@ -27,7 +29,7 @@ import { placeInTable } from "../table/locate-cell.js";
 import { checkNullParentUse } from "../table/null-parent.js";
 import { checkShortRowsFormat } from "../table/short-rows-format.js";
 import { edgeListStream } from "./edge-list-stream.js";
-import { readStart } from "./read-start.js";
+import { readStart, type StreamStart } from "./read-start.js";
 
 /**
  * Reads a byte stream into a {@link Tree}, never holding the input as one string: the streaming
@@ -53,7 +55,11 @@ export async function loadTreeFromStream(
       const format = options.format ?? detectFormat(start.text, file, options);
       checkPathListOptions(format, options);
       checkShortRowsFormat(format, options);
-      linked = await linkedNodes(start.chunks, format, options, Buffer.from(start.text, "utf8"), table);
+      const part = await partAtPointer(start, format, options);
+      linked = readAtPointer(
+        await linkedNodes(part.chunks, format, options, Buffer.from(part.text, "utf8"), table),
+        options,
+      );
       checkNullParentUse(linked, format, options);
       checkReadingOptions(linked, format, options);
     } catch (error) {
@@ -74,6 +80,23 @@ export async function loadTreeFromStream(
     if (error instanceof EspalierError && file !== undefined) throw error.inFile(file);
     throw error;
   }
+}
+
+/**
+ * The input as the loaders read it under `--start-at`: a JSON text with every byte outside the value the
+ * pointer refers to blanked (json/value-at-pointer.ts), its start read again for the loader's sample;
+ * YAML as it is (load-yaml.ts takes the part); any other format USAGE (startAtFormat).
+ */
+async function partAtPointer(
+  start: StreamStart,
+  format: InputFormat,
+  options: LoadOptions,
+): Promise<StreamStart> {
+  if (!options.startAt || format === "yaml") return start;
+  startAtFormat(format);
+  return readStart(
+    valueAtPointer(start.chunks, parsePointer(options.startAt), options.startAt, options.limits),
+  );
 }
 
 /** The delimiter of the CSV or TSV table an input was read as, once known. */
