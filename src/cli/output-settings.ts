@@ -45,6 +45,10 @@ export interface OutputSettings {
   namesFrom: string | undefined;
   /** The name field no node of an input has (nested nodes all named ""), the first such input's. */
   unnamed: string | undefined;
+  /** A diff: the one version `namesFrom` is of, when the other has a name column; undefined otherwise. */
+  namesFromOnly?: "OLD" | "NEW";
+  /** A diff: the one version `unnamed` is of, when the other's nodes have names; undefined otherwise. */
+  unnamedOnly?: "OLD" | "NEW";
   /** The loader's notes on the input (reading-notes.ts), input text hidden under --pseudonymize; JSON carries them. */
   notes: readonly ShownNote[];
   /** A diff's compared record fields (see `HeaderOptions.compared`); undefined for a summary. */
@@ -89,6 +93,8 @@ export function outputSettings(
       opts.label === undefined
         ? inputs.find((t) => t.reading?.unnamed !== undefined)?.reading?.unnamed
         : undefined,
+    namesFromOnly: onlyIn(inputs, (t) => t.reading?.namesFrom !== undefined),
+    unnamedOnly: onlyIn(inputs, (t) => t.reading?.unnamed !== undefined),
     notes: shownNotes(tree, pseudonymKey(opts, io)),
   };
 }
@@ -115,6 +121,13 @@ export function chosenReading(opts: SharedCliOptions, tree: Tree): HeaderReading
   if (r.shape === "values") return { kind: "values" };
   if (r.folderTotals && opts.folderSizes === "auto") return { kind: "folder-totals" };
   return undefined;
+}
+
+/** A diff's version of which alone `holds` is true; undefined for a summary, or for both or neither. */
+function onlyIn(inputs: readonly Tree[], holds: (tree: Tree) => boolean): "OLD" | "NEW" | undefined {
+  if (inputs.length !== 2) return undefined;
+  const [old, now] = [holds(inputs[0]), holds(inputs[1])];
+  return old === now ? undefined : old ? "OLD" : "NEW";
 }
 
 /**

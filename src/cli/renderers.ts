@@ -188,6 +188,8 @@ export function inputFacts(s: OutputSettings): InputFacts {
     ...(s.startAt === undefined ? {} : { startAt: s.startAt }),
     ...(s.namesFrom === undefined ? {} : { namesFrom: s.namesFrom }),
     ...(s.unnamed === undefined ? {} : { unnamed: s.unnamed }),
+    ...(s.namesFromOnly === undefined ? {} : { namesFromOnly: s.namesFromOnly }),
+    ...(s.unnamedOnly === undefined ? {} : { unnamedOnly: s.unnamedOnly }),
     ...(s.compared === undefined ? {} : { compared: s.compared }),
   };
 }

@@ -62,6 +62,12 @@ export interface HeaderOptions {
    */
   unnamed?: string;
   /**
+   * A diff of which one version alone is named by ids (`namesFrom`) or has no names (`unnamed`): that
+   * version, said in front (`NEW: no "name" field: …`), so the clause is not read as both versions'.
+   */
+  namesFromOnly?: "OLD" | "NEW";
+  unnamedOnly?: "OLD" | "NEW";
+  /**
    * A diff: the record fields compared between matched nodes (`--compare-field`, else `version` where
    * both versions have it), said beside the `edited` count (`1 edited (compared: version)`); empty
    * for records of which no field was compared (`0 edited (no field compared)`), so a reader does not
@@ -73,7 +79,15 @@ export interface HeaderOptions {
 /** What a header says of its inputs beside the budget, the lines and the foci (see `HeaderOptions`). */
 export type InputFacts = Pick<
   HeaderOptions,
-  "sizeName" | "reading" | "filledRows" | "documents" | "namesFrom" | "unnamed" | "compared"
+  | "sizeName"
+  | "reading"
+  | "filledRows"
+  | "documents"
+  | "namesFrom"
+  | "unnamed"
+  | "namesFromOnly"
+  | "unnamedOnly"
+  | "compared"
 >;
 
 /**
@@ -260,15 +274,15 @@ function documentsText({ documents }: HeaderOptions, style: HeaderStyle): string
 }
 
 /** `named by employee_id (no name column)`: the ids name the nodes; empty when a name column does. */
-function namesText({ namesFrom }: HeaderOptions, style: HeaderStyle): string {
+function namesText({ namesFrom, namesFromOnly }: HeaderOptions, style: HeaderStyle): string {
   if (namesFrom === undefined) return "";
-  return `${style.words("named by ")}${style.name(safeText(namesFrom, 40))}${style.words(" (no name column)")}`;
+  return `${style.words(namesFromOnly === undefined ? "" : `${namesFromOnly}: `)}${style.words("named by ")}${style.name(safeText(namesFrom, 40))}${style.words(" (no name column)")}`;
 }
 
 /** `no "name" field: nodes print as "" (see --name-field)`: no node has the name field; empty when some node has it. */
-function unnamedText({ unnamed }: HeaderOptions, style: HeaderStyle): string {
+function unnamedText({ unnamed, unnamedOnly }: HeaderOptions, style: HeaderStyle): string {
   if (unnamed === undefined) return "";
-  return `${style.words("no ")}${style.name(JSON.stringify(safeText(unnamed, 40)))}${style.words(' field: nodes print as "" (see --name-field)')}`;
+  return `${style.words(unnamedOnly === undefined ? "no " : `${unnamedOnly}: no `)}${style.name(JSON.stringify(safeText(unnamed, 40)))}${style.words(' field: nodes print as "" (see --name-field)')}`;
 }
 
 /** `3 short rows filled` (a diff: `3 -> 0 short rows filled`); empty when none was. */

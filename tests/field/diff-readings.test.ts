@@ -197,3 +197,28 @@ describe("two versions that would be read two ways are read one way", () => {
     expect(r.stdout.split("\n")[0]).toContain("; OLD: a path list, NEW: children under children;");
   });
 });
+
+describe("a header clause that holds for one version only says which", () => {
+  it('no "name" field in OLD alone: the clause starts OLD:, and NEW: the other way round', async () => {
+    // An export of the same tree before and after its records gained names (invented harbour units).
+    const unnamed = JSON.stringify({ children: [{ children: [{ size: 1 }] }, { size: 2 }] });
+    const named = JSON.stringify({
+      name: "harbour",
+      children: [
+        { name: "quay", children: [{ name: "berth", size: 1 }] },
+        { name: "tug", size: 2 },
+      ],
+    });
+    const both = { "unnamed.json": unnamed, "named.json": named };
+    const r = await cli(["diff", "unnamed.json", "named.json", "--width", "300"], { files: both });
+    expect(r.stdout.split("\n")[0]).toContain(
+      '; OLD: no "name" field: nodes print as "" (see --name-field);',
+    );
+    const back = await cli(["diff", "named.json", "unnamed.json", "--width", "300"], { files: both });
+    expect(back.stdout.split("\n")[0]).toContain(
+      '; NEW: no "name" field: nodes print as "" (see --name-field);',
+    );
+    const same = await cli(["diff", "unnamed.json", "unnamed.json", "--width", "300"], { files: both });
+    expect(same.stdout.split("\n")[0]).toContain('; no "name" field: nodes print as "" (see --name-field);');
+  });
+});
