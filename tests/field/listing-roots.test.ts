@@ -148,3 +148,29 @@ describe("a listing's folder compared as the other's root stays a name", () => {
     }
   });
 });
+
+describe("a focus copied from the list that names the folder", () => {
+  it("names the node whichever version that list is (the folder's path in front is read as the root)", async () => {
+    // GNU find (findutils manual, -printf %p) writes every path with the starting point in front.
+    for (const [a, b] of [
+      ["rel.tsv", "abs.tsv"],
+      ["abs.tsv", "rel.tsv"],
+    ]) {
+      const r = await cli(
+        ["diff", a, b, "--focus", "/srv/harbour-ops/berths/north.yaml", "--format", "json"],
+        {
+          files,
+        },
+      );
+      expect(r.code).toBe(0);
+      expect(JSON.parse(r.stdout).foci).toEqual(["berths/north.yaml"]);
+    }
+    const named = await cli(
+      ["diff", "named.tsv", "rel.tsv", "--focus", "harbour-ops/cranes", "--format", "json"],
+      {
+        files,
+      },
+    );
+    expect(JSON.parse(named.stdout).foci).toEqual(["cranes"]);
+  });
+});
