@@ -449,13 +449,16 @@ async function diff({ oldFile, newFile, budget, profile }) {
       oldCpu = cpuMs(cpu0);
       return tree;
     });
-  const loadNew = () =>
-    load(newFile, newOptions).then((tree) => {
+  // On one thread NEW's table may read OLD's bytes for the cells they share, as cli/input.ts does.
+  const loadNew = (oldTree) =>
+    load(newFile, oldTree ? { ...newOptions, earlierVersion: oldTree } : newOptions).then((tree) => {
       newDone = now();
       return tree;
     });
   const [oldTree, newTree] =
-    threads === 2 ? await Promise.all([loadOld(), loadNew()]) : [await loadOld(), await loadNew()];
+    threads === 2
+      ? await Promise.all([loadOld(), loadNew()])
+      : await loadOld().then(async (old) => [old, await loadNew(old)]);
   const t2 = now();
   const loadsCpu = cpuMs(cpu0);
   // The fields the command line compares (cli/diff-command.ts): --compare-field, else `version` where

@@ -53,6 +53,7 @@ async function loadQuietly(
   rootName: string,
   nodes: string | undefined,
   sameReading?: Reading,
+  earlier?: Tree,
 ): Promise<Tree> {
   try {
     if (isFactInput(opts)) return await loadFactInput(input, opts, rootName);
@@ -60,6 +61,7 @@ async function loadQuietly(
       ...toLoadOptions(input, opts),
       rootName,
       ...(sameReading === undefined ? {} : { sameReading }),
+      ...(earlier ? { earlierVersion: earlier } : {}),
     };
     // A graph's node records (--nodes) come from a file of their own; its errors name that file.
     if (nodes !== undefined) options.nodeRecords = await readNodeRecords(io, nodes, options);
@@ -107,7 +109,8 @@ export async function loadVersions(
     // No idle processor for a second thread (see load-threads.ts); a fact table's engine uses every core
     // itself, and node records are read here: one after the other.
     const oldTree = await loadQuietly(io, oldInput, opts, rootName, oldNodes);
-    const newTree = await loadQuietly(io, newInput, opts, rootName, newNodes);
+    // NEW's table may read OLD's bytes for the cells they share (load/table/earlier-rows.ts).
+    const newTree = await loadQuietly(io, newInput, opts, rootName, newNodes, undefined, oldTree);
     return sayVersionNotes(
       io,
       [oldInput, newInput],

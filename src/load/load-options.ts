@@ -1,3 +1,4 @@
+import type { Tree } from "../model/tree.js";
 import type { ReadLimits } from "./read-limits.js";
 import type { Reading } from "./shape/choose-reading.js";
 import type { Table } from "./table/table.js";
@@ -67,6 +68,13 @@ export interface LoadOptions {
    * its arrays from it (an edge list, see edge-list.ts). A hint only: nothing is refused by it.
    */
   inputBytes?: number;
+  /**
+   * A version of this input loaded before it (a diff's OLD, when NEW loads after it on one thread): a
+   * CSV/TSV table places a name or id cell whose bytes that version's node of the same row has too
+   * where that version keeps them, rather than copying them (load/table/earlier-rows.ts). The tree read
+   * is the same without it.
+   */
+  earlierVersion?: Pick<Tree, "name" | "ids">;
   /**
    * JSON and YAML: `nodes` reads node objects (children under the children field, or a field found to
    * hold them), `values` makes every value of the document a node; undefined chooses by the document

@@ -74,9 +74,13 @@ export function bytesCompare(a: Names, b: Names): (i: number, j: number) => bool
   if (aRuns === null || bRuns === null) return () => false;
   const { bytes: aBytes, start: aStart, size: aSize } = aRuns;
   const { bytes: bBytes, start: bStart, size: bSize } = bRuns;
+  // Pools reading one buffer (a table read against an earlier version, see readingBytes): a name at the
+  // same place in both is the same bytes.
+  const oneBuffer = aBytes === bBytes;
   return (i, j) => {
     const length = aSize[i];
     if (length !== bSize[j] || length === 0) return false;
+    if (oneBuffer && aStart[i] === bStart[j]) return true;
     for (let x = aStart[i], y = bStart[j], end = x + length; x < end; x++, y++)
       if (aBytes[x] !== bBytes[y]) return false;
     return true;
@@ -142,6 +146,8 @@ export class NamePool implements Names {
   // Set when another pool reads these bytes too (see reordered): an append copies them first unless
   // this pool wrote last (writtenEnd).
   private shared = false;
+  // Bytes at the start of this pool's that another pool's names are in (see readingBytes): 0 when none.
+  private sharedEnd = 0;
 
   constructor(capacity = 1024, poolBytes = 1 << 16) {
     this.start = new Uint32Array(Math.max(1, capacity));
@@ -343,10 +349,12 @@ export class NamePool implements Names {
       const at = this.reserve(extraSize);
       this.commit(at + codecs.utf8Write(this.bytes, extra, at, extraSize));
     }
-    const out = this.sharedPool(from.length);
+    if (places !== undefined && (places.start.length !== from.length || places.size.length !== from.length))
+      throw new Error(`reordered: places for ${places.start.length} names, not ${from.length}`);
+    // With places given, no arrays of the pool's own: made and dropped, they were fresh memory to clear.
+    const out = this.sharedPool(places === undefined ? from.length : 1);
+    out.length = from.length;
     if (places !== undefined) {
-      if (places.start.length !== from.length || places.size.length !== from.length)
-        throw new Error(`reordered: places for ${places.start.length} names, not ${from.length}`);
       out.start = places.start;
       out.size = places.size;
     }
@@ -427,6 +435,32 @@ export class NamePool implements Names {
       }
     out.exact = exact;
     return out;
+  }
+
+  /**
+   * A new pool, empty, reading this pool's bytes: its names may be placed where this pool holds equal
+   * bytes ({@link placeShared}), others appended as by {@link setBytes} (after this pool's bytes, where
+   * there is room and no other pool wrote there; else the bytes are copied first). Null when some name
+   * here is kept as a string (see the class comment), whose bytes do not spell it.
+   */
+  readingBytes(): NamePool | null {
+    if (this.exact !== null && this.exact.size > 0) return null;
+    const out = new NamePool(1024, 16);
+    this.share(out);
+    out.length = 0;
+    out.sharedEnd = this.used;
+    return out;
+  }
+
+  /**
+   * Sets node `i`'s name to the `n` bytes at `at` of the pool this one was made from by
+   * {@link readingBytes} (its start and byte length of a name there): nothing copied. These bytes stay
+   * at the start of this pool's, copied or not.
+   */
+  placeShared(i: number, at: number, n: number): void {
+    if (at + n > this.sharedEnd)
+      throw new Error(`placeShared: bytes ${at}+${n} past the shared ${this.sharedEnd}`);
+    this.place(i, at, n);
   }
 
   /** A pool for `total` names reading this pool's bytes (its names still to be placed). */

@@ -1,10 +1,11 @@
 import { Buffer, isUtf8 } from "node:buffer";
 import { EspalierError, quoted, say } from "../../errors.js";
 import { asBuffer, codecs } from "../../model/buffer-codecs.js";
-import { NamePool, namesToArray } from "../../model/names.js";
+import { NamePool, type Names, namesToArray } from "../../model/names.js";
 import type { LoadOptions } from "../load-options.js";
 import { limitsOf } from "../read-limits.js";
 import { CsvScanner, type CsvSink } from "./csv-scanner.js";
+import { EarlierRows } from "./earlier-rows.js";
 import { withSeparatorHint } from "./separator-hint.js";
 import { type NumberCells, numberCell, type Table } from "./table.js";
 
@@ -21,6 +22,7 @@ export type TableFields = Pick<
   | "limits"
   | "shortRows"
   | "inputBytes"
+  | "earlierVersion"
 >;
 
 /** How the cells of one kept column are kept. */
@@ -47,6 +49,8 @@ interface Kept {
    * their bytes (ByteIdIndex) where they were once compared as strings.
    */
   asText: boolean;
+  /** A pooled id or name column read against an earlier version's (see EarlierRows), else undefined. */
+  earlier?: "id" | "name";
 }
 
 /**
@@ -80,6 +84,8 @@ export class CsvTableReader implements CsvSink {
   // A Buffer over the bytes the scanner hands over, for Node's own UTF-8 decoding of one cell.
   private viewOf: Uint8Array | undefined;
   private view: Buffer = Buffer.alloc(0);
+  /** With an earlier version of the table given: its rows the records stand for (see EarlierRows). */
+  private earlier: EarlierRows | undefined;
 
   constructor(
     delimiter: "," | "\t",
@@ -123,18 +129,23 @@ export class CsvTableReader implements CsvSink {
 
   /**
    * After the first chunk, when the input's length is known: room in every kept column for the rows
-   * the input likely has (its bytes over the bytes per row so far, plus 5%; at most 16 times the rows
-   * read), and in a pool of names for their bytes, so that a column grows once rather than doubling a
-   * dozen times, each time fresh memory and
-   * a copy (docs/performance.md: fresh memory cost about 4 ms per MiB on the bench machine). Room no
-   * row fills is never touched and costs nothing; more rows than estimated grow the columns as before.
+   * the input likely has (its bytes over the bytes per row so far, plus 5%), and in a pool of names
+   * for their bytes, so that a column is made once at its size rather than doubled a dozen times, each
+   * time fresh memory and a copy (docs/performance.md: fresh memory cost about 4 ms per MiB on the
+   * bench machine). Never more rows than the bytes left can hold (a row takes at least a byte a field:
+   * its delimiters and its line break) or than the reader will keep. Room no row fills is never
+   * touched and costs nothing; more rows than estimated grow the columns as before.
    */
   private sizeColumns(): void {
     this.sized = true;
     const total = this.fields.inputBytes;
     if (total === undefined || total <= this.bytesRead) return;
     const rows = this.rows;
-    const likely = Math.min(16 * rows, Math.ceil(((total / this.bytesRead) * rows * 21) / 20));
+    // A short row read with its last fields empty (--short-rows fill) may be one byte and a line break.
+    const least = this.fields.shortRows === "fill" ? 2 : Math.max(2, this.route.length);
+    // One more for the record cut at the end of the bytes read so far.
+    const most = Math.min(this.maxRows + 1, rows + 1 + Math.ceil((total - this.bytesRead) / least));
+    const likely = Math.min(most, Math.ceil(((total / this.bytesRead) * rows * 21) / 20));
     for (const keep of this.kept) {
       if (keep.keeping === Keeping.Numbers && keep.values.length < likely)
         keep.values = grown(keep.values, likely);
@@ -230,8 +241,25 @@ export class CsvTableReader implements CsvSink {
         keep.values[row] = Number.NaN;
         this.pooled(keep, row, bytes, start, end);
       }
-    } else if (keep.keeping === Keeping.Pool) this.pooled(keep, row, bytes, start, end);
-    else keep.cells.push(this.text(bytes, start, end));
+    } else if (keep.keeping === Keeping.Pool) {
+      if (keep.earlier === undefined || !this.placedAsEarlier(keep, row, bytes, start, end))
+        this.pooled(keep, row, bytes, start, end);
+    } else keep.cells.push(this.text(bytes, start, end));
+  }
+
+  /**
+   * Places a cell's bytes where the earlier version keeps the same bytes, when its row there has them
+   * (see EarlierRows); false when not. An id read as text keeps its bytes too: the earlier version
+   * keeps an id's bytes as UTF-8 text, so bytes equal to them are valid UTF-8 and read as they are.
+   */
+  private placedAsEarlier(keep: Kept, row: number, bytes: Uint8Array, start: number, end: number): boolean {
+    const earlier = this.earlier!;
+    const id = keep.earlier === "id";
+    const runs = id ? earlier.ids! : earlier.names!;
+    const at = id ? earlier.idRow(bytes, start, end) : earlier.nameRow(bytes, start, end);
+    if (at === -1) return false;
+    keep.pool!.placeShared(row, runs.start[at], runs.size[at]);
+    return true;
   }
 
   /** Puts a cell's bytes in the column's pool at `row` (as its decoded text when asked and not UTF-8). */
@@ -250,6 +278,7 @@ export class CsvTableReader implements CsvSink {
     }
     this.rows++;
     this.lines.add(this.rows, line);
+    this.earlier?.endRecord();
     return this.rows > this.maxRows;
   }
 
@@ -263,6 +292,10 @@ export class CsvTableReader implements CsvSink {
       if (!this.at.has(name)) this.at.set(name, c);
     });
     this.route = new Array(fields).fill(undefined);
+    const earlier = this.fields.earlierVersion;
+    // The earlier version's pools of ids and names, whose bytes this table's may read (see EarlierRows).
+    const earlierIds = this.poolIds ? readableBytes(earlier?.ids) : null;
+    const earlierNames = this.poolNames ? readableBytes(earlier?.name) : null;
     for (const [name, index] of this.at) {
       if (!this.wanted.has(name)) continue;
       const { fields } = this;
@@ -272,17 +305,24 @@ export class CsvTableReader implements CsvSink {
           : (this.poolNames && name === fields.nameField) || (this.poolIds && name === fields.idField)
             ? Keeping.Pool
             : Keeping.Text;
+      const from = keeping !== Keeping.Pool ? null : name === fields.idField ? earlierIds : earlierNames;
+      const shared = from === null ? null : from.readingBytes();
       const keep: Kept = {
         name,
         keeping,
         cells: [],
-        pool: keeping === Keeping.Text ? null : new NamePool(),
+        pool: keeping === Keeping.Text ? null : (shared ?? new NamePool()),
         values: new Float64Array(keeping === Keeping.Numbers ? 1024 : 0),
         asText: keeping === Keeping.Numbers || name === fields.idField,
       };
+      if (shared !== null) keep.earlier = name === fields.idField ? "id" : "name";
       this.kept.push(keep);
       this.route[index] = keep;
     }
+    const ids = this.kept.some((k) => k.earlier === "id") ? earlierIds!.byteRuns() : null;
+    const names = this.kept.some((k) => k.earlier === "name") ? earlierNames!.byteRuns() : null;
+    if (earlier !== undefined && (ids !== null || names !== null))
+      this.earlier = new EarlierRows(ids, names, earlier.name.length);
   }
 
   private text(bytes: Uint8Array, start: number, end: number): string {
@@ -325,6 +365,11 @@ class RowLines {
     }
     return row + this.first + (lo === 0 ? 0 : this.shifts[lo - 1]);
   }
+}
+
+/** An earlier version's ids or names when they are a pool whose bytes spell them all; else null. */
+function readableBytes(names: Names | null | undefined): NamePool | null {
+  return names instanceof NamePool && names.byteRuns() !== null ? names : null;
 }
 
 /** A kept column of numbers as the table gives it. */
