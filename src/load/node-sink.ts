@@ -1,7 +1,8 @@
 import { EspalierError } from "../errors.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
-import { isEmptyName, NamePool } from "../model/names.js";
+import { isEmptyName, NamePool, type Names } from "../model/names.js";
 import type { TreeReading } from "../model/tree.js";
+import { EarlierNames } from "./earlier-names.js";
 
 /**
  * Growable flat arrays that a loader appends nodes to, in any order, each linked to its parent by index.
@@ -17,10 +18,31 @@ export class NodeSink {
   readonly maxNodes: number;
   readonly originIsRow: boolean;
 
-  constructor(maxNodes: number, originIsRow: boolean) {
+  /** With an earlier version's names given: where its nodes keep a name's bytes (see EarlierNames). */
+  private readonly earlier: EarlierNames | undefined;
+
+  /**
+   * `earlier`: the names of a version of this input loaded before it (a diff's OLD), whose bytes the
+   * names set by {@link setNameBytes} are placed in where equal.
+   */
+  constructor(maxNodes: number, originIsRow: boolean, earlier?: Names | null) {
     this.maxNodes = maxNodes;
     this.originIsRow = originIsRow;
-    this.name = new NamePool();
+    const shared = earlier instanceof NamePool ? earlier.readingBytes() : null;
+    this.name = shared ?? new NamePool();
+    const runs = shared === null ? null : (earlier as NamePool).byteRuns();
+    if (runs !== null) this.earlier = new EarlierNames(runs, (earlier as NamePool).length);
+  }
+
+  /**
+   * Sets node `i`'s name to the UTF-8 bytes `src[s, e)`: where the earlier version has a node of those
+   * bytes near the one expected (see EarlierNames), in its bytes; else copied.
+   */
+  setNameBytes(i: number, src: Uint8Array, s: number, e: number): void {
+    const earlier = this.earlier;
+    const at = earlier === undefined ? -1 : earlier.find(src, s, e);
+    if (at === -1) this.name.setBytes(i, src, s, e);
+    else this.name.placeShared(i, earlier!.names.start[at], earlier!.names.size[at]);
   }
 
   /** Appends a node (own size 0) named `name` and returns its index. */
@@ -42,7 +64,7 @@ export class NodeSink {
     if (i === this.parentOf.length) this.grow();
     this.parentOf[i] = parent;
     this.origin[i] = origin;
-    this.name.setBytes(i, src, s, e);
+    this.setNameBytes(i, src, s, e);
     this.length = i + 1;
     return i;
   }

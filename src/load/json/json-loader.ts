@@ -170,7 +170,7 @@ export class JsonLoader extends JsonTokenizer {
     this.captures = new Captures(this.maxTokenBytes);
     this.found = found;
     this.probe = new RowsProbe(as);
-    this.sink = new NodeSink(options.maxNodes, false);
+    this.sink = new NodeSink(options.maxNodes, false, options.earlierVersion?.name);
     this.kept = options.keepFields.map(() => []);
     const add = (text: string, mask: number, keep: number) => {
       let field = this.fields.find((f) => f.text === text);
@@ -300,7 +300,7 @@ export class JsonLoader extends JsonTokenizer {
       const frame = this.frames[this.depth - 1];
       if (field.keeps.length === 0 && !frame.keyed) {
         frame.nameKind = STRING;
-        this.sink.name.setBytes(frame.node, bytes, q + 1, e);
+        this.sink.setNameBytes(frame.node, bytes, q + 1, e);
         return;
       }
     }
