@@ -30,7 +30,23 @@ export function alignListings(
   const start = startIn(other, topNames(folder));
   if (start === -1) return [oldTree, newTree];
   const moved = fromNode(other, start, folderRole, folderFile);
-  return oldStart ? [oldTree, moved] : [moved, newTree];
+  // Both versions know the folder's path as the naming list writes it, so a focus copied from that
+  // list (`/srv/harbour-ops/berths`) names the node whichever version is printed (focus/resolve.ts).
+  const folderPath = pathOfChain(other, start);
+  const paired: [Tree, Tree] = oldStart ? [oldTree, moved] : [moved, newTree];
+  return [withFolderPath(paired[0], folderPath), withFolderPath(paired[1], folderPath)];
+}
+
+/** Nodes 0 to k of the root chain as a listing writes their path (`/srv/harbour-ops`, `harbour-ops`). */
+function pathOfChain(tree: Tree, k: number): string {
+  const path: string[] = [];
+  for (let i = 0; i <= k; i++) path.push(tree.name.get(i));
+  return path[0] === "/" ? `/${path.slice(1).join("/")}` : path.join("/");
+}
+
+function withFolderPath(tree: Tree, folderPath: string): Tree {
+  const reading = tree.reading;
+  return reading === undefined ? tree : { ...tree, reading: { ...reading, folderPath } };
 }
 
 function standsForFolder(tree: Tree): boolean {
@@ -73,9 +89,7 @@ function startIn(tree: Tree, names: ReadonlySet<string>): number {
  */
 function fromNode(tree: Tree, k: number, folderRole: "OLD" | "NEW", folderFile: string): Tree {
   const reading = tree.reading;
-  const path: string[] = [];
-  for (let i = 0; i <= k; i++) path.push(tree.name.get(i));
-  const shown = path[0] === "/" ? `/${path.slice(1).join("/")}` : path.join("/");
+  const shown = pathOfChain(tree, k);
   const note: ReadingNote = {
     code: "ROOT_IS_FOLDER",
     ...(tree.origin[k] > 0 ? { line: tree.origin[k] } : {}),

@@ -1,4 +1,4 @@
-import { PrefixedNames } from "../model/names.js";
+import { type Names, PrefixedNames } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 
 /**
@@ -9,8 +9,12 @@ import type { Tree } from "../model/tree.js";
  * root already: two of them, or one and a synthetic root, are compared as one root, never renamed.
  */
 export function alignRoots(oldTree: Tree, newTree: Tree): [Tree, Tree] {
-  if (standsForFolder(oldTree) && standsForFolder(newTree))
-    return [asSynthetic(oldTree), asSynthetic(newTree)];
+  if (standsForFolder(oldTree) && standsForFolder(newTree)) {
+    // Compared root to root; two roots with names take NEW's, as synthetic roots do, so the root is
+    // never renamed (a name stays a name: --pseudonymize hides it as any other).
+    if (oldTree.syntheticRoot || newTree.syntheticRoot) return [oldTree, newTree];
+    return [renamedRoot(oldTree, newTree.name.get(0)), newTree];
+  }
   if (oldTree.syntheticRoot === newTree.syntheticRoot) return [oldTree, newTree];
   return oldTree.syntheticRoot
     ? [oldTree, underRoot(newTree, oldTree.name.get(0))]
@@ -22,8 +26,24 @@ function standsForFolder(tree: Tree): boolean {
   return tree.syntheticRoot || tree.reading?.rootIsStart === true;
 }
 
-function asSynthetic(tree: Tree): Tree {
-  return tree.syntheticRoot ? tree : { ...tree, syntheticRoot: true };
+function renamedRoot(tree: Tree, name: string): Tree {
+  return tree.name.get(0) === name ? tree : { ...tree, name: new RootNamed(name, tree.name) };
+}
+
+/** `names` with the root's replaced by `root`. */
+class RootNamed implements Names {
+  constructor(
+    private readonly root: string,
+    private readonly names: Names,
+  ) {}
+
+  get length(): number {
+    return this.names.length;
+  }
+
+  get(i: number): string {
+    return i === 0 ? this.root : this.names.get(i);
+  }
 }
 
 /** The same tree one level down, under a new synthetic root named `rootName`. */

@@ -79,8 +79,15 @@ const PSEUDONYM = /^anon-[0-9a-f]{12}$/;
  */
 export function pathAsListed(index: PathIndex, spec: string): string | undefined {
   const root = escapeSegment(index.tree.name.get(0));
-  if (spec === "." || (root !== "" && spec === root)) return "";
-  for (const lead of ["./", ...(root !== "" && root !== "." ? [`${root}/`] : [])]) {
+  // A diff of listings of one folder, one naming it: the path that list writes the folder at.
+  const folder = index.tree.reading?.folderPath;
+  if (spec === "." || (root !== "" && spec === root) || spec === folder) return "";
+  const leads = [
+    "./",
+    ...(root !== "" && root !== "." ? [`${root}/`] : []),
+    ...(folder ? [`${folder}/`] : []),
+  ];
+  for (const lead of leads) {
     if (spec.startsWith(lead) && spec.length > lead.length) return spec.slice(lead.length);
   }
   return undefined;

@@ -79,6 +79,11 @@ export interface TreeReading {
    * compares such a root with the other version's root or synthetic root (src/diff/align-roots.ts).
    */
   readonly rootIsStart?: boolean;
+  /**
+   * A diff's path lists of one folder that one of them names (`find /srv/harbour-ops`): the folder's path
+   * as that list writes it, set on both versions; a focus may start with it (see cli/listing-start.ts).
+   */
+  readonly folderPath?: string;
   /** Nested input: how many nodes are empty objects (`{}`), when any are (see `Tree.empty`). */
   readonly emptyEntries?: number;
   /** A CSV/TSV table: how many short rows were read with their missing last fields empty (`--short-rows fill`). */

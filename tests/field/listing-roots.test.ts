@@ -128,3 +128,49 @@ describe("two versions of which only one has sizes", () => {
     expect(exit.code).toBe(0);
   });
 });
+
+describe("a listing's folder compared as the other's root stays a name", () => {
+  it("under --pseudonymize the folder's name prints as its pseudonym, never in clear", async () => {
+    for (const [a, b] of [
+      ["rel.tsv", "named.tsv"],
+      ["named.tsv", "rel.tsv"],
+      ["dot.tsv", "abs.tsv"],
+    ]) {
+      const r = await cli(["diff", a, b, "--pseudonymize", "--bare"], {
+        files,
+        env: { ESPALIER_PSEUDONYM_KEY: "harbour-test-key" },
+      });
+      expect(r.code).toBe(0);
+      // Common practice, no source: a pseudonymized run prints no real name of the input.
+      expect(r.stdout).not.toContain("harbour-ops");
+      expect(r.stdout).not.toContain("berths");
+      expect(r.stderr).not.toContain("harbour-ops");
+    }
+  });
+});
+
+describe("a focus copied from the list that names the folder", () => {
+  it("names the node whichever version that list is (the folder's path in front is read as the root)", async () => {
+    // GNU find (findutils manual, -printf %p) writes every path with the starting point in front.
+    for (const [a, b] of [
+      ["rel.tsv", "abs.tsv"],
+      ["abs.tsv", "rel.tsv"],
+    ]) {
+      const r = await cli(
+        ["diff", a, b, "--focus", "/srv/harbour-ops/berths/north.yaml", "--format", "json"],
+        {
+          files,
+        },
+      );
+      expect(r.code).toBe(0);
+      expect(JSON.parse(r.stdout).foci).toEqual(["berths/north.yaml"]);
+    }
+    const named = await cli(
+      ["diff", "named.tsv", "rel.tsv", "--focus", "harbour-ops/cranes", "--format", "json"],
+      {
+        files,
+      },
+    );
+    expect(JSON.parse(named.stdout).foci).toEqual(["cranes"]);
+  });
+});

@@ -3,6 +3,7 @@ import { resolveFoci, resolvePath } from "../../src/focus/resolve.js";
 import { buildTree } from "../../src/model/build-tree.js";
 import { measure } from "../../src/model/measure.js";
 import { PathIndex } from "../../src/model/path-index.js";
+import { rfc6901MemberPointers } from "../helpers/rfc6901-example.js";
 
 // Source: RFC 6901 (JSON Pointer), section 5. The example document's members become nodes; each
 // member's value (0..8) is kept as the node's size so the test can check the node the RFC names.
@@ -54,17 +55,7 @@ describe("focus paths follow RFC 6901 section 5", () => {
   });
 
   // Each pointer of the RFC's table with the value it evaluates to.
-  const table: [string, number][] = [
-    ["/", 0],
-    ["/a~1b", 1],
-    ["/c%d", 2],
-    ["/e^f", 3],
-    ["/g|h", 4],
-    ["/i\\j", 5],
-    ['/k"l', 6],
-    ["/ ", 7],
-    ["/m~0n", 8],
-  ];
+  const table = rfc6901MemberPointers;
   for (const [pointer, value] of table) {
     it(`${JSON.stringify(pointer)} selects the member whose value is ${value}`, () => {
       const node = resolvePath(index, pointer);

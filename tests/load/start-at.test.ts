@@ -7,34 +7,16 @@ import { valueAtPointer, valueAtPointerInBytes } from "../../src/load/json/value
 import { parsePointer } from "../../src/load/json-pointer.js";
 import { loadTreeFromStream } from "../../src/load/stream/index.js";
 import { cli } from "../helpers/cli.js";
+import { rfc6901Document, rfc6901MemberPointers } from "../helpers/rfc6901-example.js";
 import { caught, opts, outline } from "./helpers.js";
 
-// RFC 6901, section 5: the example document and what each pointer refers to (copied from the RFC).
-const rfcDocument = `{
-      "foo": ["bar", "baz"],
-      "": 0,
-      "a/b": 1,
-      "c%d": 2,
-      "e^f": 3,
-      "g|h": 4,
-      "i\\\\j": 5,
-      "k\\"l": 6,
-      " ": 7,
-      "m~n": 8
-   }`;
+// RFC 6901, section 5: the example document and what each pointer refers to.
+const rfcDocument = rfc6901Document;
 const rfcExamples: [string, unknown][] = [
   ["", JSON.parse(rfcDocument)],
   ["/foo", ["bar", "baz"]],
   ["/foo/0", "bar"],
-  ["/", 0],
-  ["/a~1b", 1],
-  ["/c%d", 2],
-  ["/e^f", 3],
-  ["/g|h", 4],
-  ["/i\\j", 5],
-  ['/k"l', 6],
-  ["/ ", 7],
-  ["/m~0n", 8],
+  ...rfc6901MemberPointers,
 ];
 
 /** The text left of `json` when all but the value at `pointer` is blanked. */
