@@ -241,6 +241,7 @@ function benchIO() {
   return {
     stdout: { write() {}, isTTY: false },
     stderr: { write() {}, isTTY: false },
+    env: {},
     readStdin: () => Promise.reject(new Error("no stdin in the bench")),
     readFile: (path) => readFile(path),
     async openInput(name) {
@@ -298,7 +299,7 @@ async function summaryText(api, cli, io, opts, tree) {
     pseudonymKey: undefined,
     chains: opts.chains,
     unmatchedFoci: opts.unmatchedFoci,
-    headerLines: cli.headerLinesFor(opts, "summary"),
+    headerLines: cli.headerLinesFor(opts, "summary", io),
     siblingOrder: opts.siblingOrder,
   });
   const t3 = now();
@@ -473,7 +474,7 @@ async function diff({ oldFile, newFile, budget, profile }) {
     label: opts.label,
     pseudonymKey: undefined,
     chains: opts.chains,
-    headerLines: cli.headerLinesFor(opts, "diff"),
+    headerLines: cli.headerLinesFor(opts, "diff", io),
     siblingOrder: opts.siblingOrder,
     compareFields,
     unmatchedFoci: opts.unmatchedFoci,
