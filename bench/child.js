@@ -241,7 +241,6 @@ function benchIO() {
   return {
     stdout: { write() {}, isTTY: false },
     stderr: { write() {}, isTTY: false },
-    env: {},
     readStdin: () => Promise.reject(new Error("no stdin in the bench")),
     readFile: (path) => readFile(path),
     async openInput(name) {
