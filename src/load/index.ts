@@ -81,7 +81,7 @@ function partAtPointer(body: string, format: InputFormat, options: LoadOptions):
   if (!options.startAt || format === "yaml") return body;
   startAtFormat(format);
   const bytes = Buffer.from(body, "utf8");
-  valueAtPointerInBytes(bytes, parsePointer(options.startAt), options.startAt, options.limits);
+  valueAtPointerInBytes(bytes, parsePointer(options.startAt), options.startAt, options.limits, true);
   return bytes.toString("utf8");
 }
 

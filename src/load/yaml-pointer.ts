@@ -54,6 +54,16 @@ export function yamlAtPointer(doc: Document, pointer: string, lineCounter: LineC
       fail(say`${where} is a single value (no mapping or list), so ${quoted.name(token)} is not in it`);
     }
   }
+  if (tokens.length > 0 && !isMap(node) && !isSeq(node)) {
+    // A lone value holds no hierarchy: a one-node tree with exit 0 would hide the mistake.
+    const at = lineCounter.linePos(node?.range?.[0] ?? 0);
+    throw new EspalierError(
+      "SHAPE",
+      say`--start-at ${pointer} refers to a single value (no mapping or list), which holds no tree: point at the mapping or list that holds it${tokens.length > 1 ? ` (${pointerPrefix(tokens, tokens.length - 1)})` : ""}`,
+      { line: at.line, column: at.col },
+      { option: "--start-at" },
+    );
+  }
   return node;
 }
 

@@ -194,6 +194,22 @@ describe("--start-at in the loaders", () => {
     expect(sizeOf(loadTree(yaml, opts({ format: "yaml", readAs: "values", startAt: "/foo" })))).toBe(10);
   });
 
+  it("a pointer to a single value is SHAPE at it, in JSON and YAML (no one-node tree with exit 0)", async () => {
+    const json = caught(() => loadTree(wrapped, opts({ startAt: "/page/total" })));
+    expect(json.code).toBe("SHAPE");
+    expect(json.message).toContain("point at the object or array that holds it (/page)");
+    expect(json.pos?.line).toBe(4);
+    async function* chunks() {
+      yield Buffer.from(wrapped, "utf8");
+    }
+    await expect(loadTreeFromStream(chunks(), opts({ startAt: "/page/total" }))).rejects.toMatchObject({
+      code: "SHAPE",
+    });
+    const yaml = caught(() => loadTree(wrappedYaml, opts({ format: "yaml", startAt: "/page/total" })));
+    expect(yaml.code).toBe("SHAPE");
+    expect(yaml.pos?.line).toBe(1);
+  });
+
   it("is refused for input that is no JSON or YAML document", () => {
     const error = caught(() => loadTree("id,parent\na,\n", opts({ format: "csv", startAt: "/a" })));
     expect(error.code).toBe("USAGE");

@@ -1,5 +1,5 @@
 import type { Buffer } from "node:buffer";
-import { EspalierError, quoted, quotedList, say } from "../../errors.js";
+import { EspalierError, quoted, quotedList, type SourcePos, say } from "../../errors.js";
 import { arrayIndex, type PointerTokens, pointerPrefix } from "../json-pointer.js";
 import type { ReadLimits } from "../read-limits.js";
 import { JsonTokenizer } from "./json-tokenizer.js";
@@ -139,6 +139,7 @@ class PointerLocator extends JsonTokenizer {
     const count = this.onPath + 1;
     if (count === this.tokens.length) {
       this.end = e;
+      this.scalarPos = this.pos.at(s);
       return;
     }
     throw new EspalierError(
@@ -178,21 +179,36 @@ class PointerLocator extends JsonTokenizer {
     return cut >= 0 ? cut : this.base;
   }
 
-  /** Ends the text: it must be one whole JSON value. */
-  finish(): void {
+  /** Where the value found starts when it is a scalar (no object or array). */
+  private scalarPos: SourcePos | undefined;
+
+  /**
+   * Ends the text: it must be one whole JSON value. With `tree`, a pointer to a scalar is SHAPE at it:
+   * a lone value holds no hierarchy, and a one-node tree with exit 0 would hide the mistake.
+   */
+  finish(tree: boolean): void {
     this.endTokens();
+    if (!tree || this.scalarPos === undefined) return;
+    throw new EspalierError(
+      "SHAPE",
+      say`--start-at ${this.pointer} refers to a single value (no object or array), which holds no tree: point at the object or array that holds it${this.tokens.length > 1 ? ` (${this.where(this.tokens.length - 1)})` : ""}`,
+      this.scalarPos,
+      { option: "--start-at" },
+    );
   }
 }
 
 /**
  * The value `tokens` refers to, out of a JSON text arriving in `chunks`: the same chunks with every byte
- * outside that value a space (line feeds kept). The chunks are changed in place.
+ * outside that value a space (line feeds kept). The chunks are changed in place. With `tree` (the
+ * loaders), a pointer to a scalar is SHAPE once the text has ended.
  */
 export async function* valueAtPointer(
   chunks: AsyncIterable<Uint8Array>,
   tokens: PointerTokens,
   pointer: string,
   limits?: Partial<ReadLimits>,
+  tree = false,
 ): AsyncGenerator<Uint8Array> {
   const locator = new PointerLocator(tokens, pointer, limits);
   // Chunks read but not yet passed on: a token cut at a chunk's end may turn out to be the value.
@@ -209,7 +225,7 @@ export async function* valueAtPointer(
       yield next;
     }
   }
-  locator.finish();
+  locator.finish(tree);
   for (const next of held) {
     blankOutside(next, at, locator.start, locator.end);
     at += next.length;
@@ -223,10 +239,11 @@ export function valueAtPointerInBytes(
   tokens: PointerTokens,
   pointer: string,
   limits?: Partial<ReadLimits>,
+  tree = false,
 ): Uint8Array {
   const locator = new PointerLocator(tokens, pointer, limits);
   locator.write(bytes);
-  locator.finish();
+  locator.finish(tree);
   blankOutside(bytes, 0, locator.start, locator.end);
   return bytes;
 }

@@ -95,7 +95,7 @@ async function partAtPointer(
   if (!options.startAt || format === "yaml") return start;
   startAtFormat(format);
   return readStart(
-    valueAtPointer(start.chunks, parsePointer(options.startAt), options.startAt, options.limits),
+    valueAtPointer(start.chunks, parsePointer(options.startAt), options.startAt, options.limits, true),
   );
 }
 
