@@ -71,7 +71,8 @@ export function startAtFormat(format: InputFormat): void {
 
 /** Nodes read under `--start-at`, their reading saying which part of the document they are (the header names it). */
 export function readAtPointer<N extends LinkedNodes | GraphNodes>(nodes: N, options: LoadOptions): N {
-  if (options.startAt && "reading" in nodes && nodes.reading !== undefined)
-    nodes.reading = { ...nodes.reading, startAt: options.startAt };
+  if (!options.startAt) return nodes;
+  if ("edgeFrom" in nodes) nodes.startAt = options.startAt;
+  else if (nodes.reading !== undefined) nodes.reading = { ...nodes.reading, startAt: options.startAt };
   return nodes;
 }

@@ -257,6 +257,7 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
       shape: "graph",
       sizeUnit: graph.sizeUnit,
       ...(graph.notes && graph.notes.length > 0 ? { notes: graph.notes } : {}),
+      ...(graph.startAt === undefined ? {} : { startAt: graph.startAt }),
     },
     ...(hasReferences ? { referenceTo } : {}),
   };

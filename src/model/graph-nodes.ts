@@ -59,4 +59,6 @@ export interface GraphNodes {
   takeSpare?: () => Int32Array | undefined;
   /** Notes on the reading for the tree's `reading.notes` (see model/reading-note.ts); absent when none. */
   notes?: readonly ReadingNote[];
+  /** A JSON/YAML adjacency map read from one part of the document (`--start-at`): that part's JSON Pointer. */
+  startAt?: string;
 }
