@@ -16,7 +16,9 @@ async function launcher(args: string[]): Promise<{ code: number; stdout: string;
   try {
     // Run from a fresh folder, so no .espalier.yaml of the working directory is read.
     // Two threads whatever the machine's load (unset, a busy machine loads both on one: load-threads.ts).
-    const env = { ...process.env, ESPALIER_LOAD_THREADS: "2" };
+    // Nothing else of the test's environment: the in-process run sees none (COLUMNS, NO_COLOR and the
+    // pseudonym key would change one output and not the other).
+    const env = { PATH: process.env.PATH ?? "", ESPALIER_LOAD_THREADS: "2" };
     const { stdout, stderr } = await run(process.execPath, [BIN, ...args], {
       encoding: "utf8",
       cwd: dir,
