@@ -13,6 +13,7 @@ import { checkReadingOptions } from "../reading-options.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { type FolderSizes, folderTotals } from "./folder-totals.js";
 import { headerLineHint } from "./header-line-hint.js";
+import { WrittenPaths } from "./written-paths.js";
 
 const newline = 10;
 const cr = 13;
@@ -85,6 +86,10 @@ export class PathListReader {
   private sameCommas = true;
   /** How folders' sizes count (folder-totals.ts); undefined: decided by the listing. */
   private readonly folderSizes: FolderSizes | undefined;
+  /** The bytes of the line being read when they are not UTF-8 (it is read decoded), else undefined. */
+  private writtenLine: Buffer | undefined;
+  /** Paths of lines whose bytes are not UTF-8, as read and as written (see {@link WrittenPaths}). */
+  private readonly written = new WrittenPaths();
 
   constructor(options: LoadOptions) {
     checkNoNamedFields(options, "paths");
@@ -127,6 +132,33 @@ export class PathListReader {
     }
     this.lines(chunk, from, last + 1);
     if (last + 1 < chunk.length) this.wait(chunk.subarray(last + 1));
+  }
+
+  /**
+   * As {@link lines}, for bytes that are not all UTF-8: each line that is not is decoded on its own (each
+   * bad sequence one U+FFFD, as the WHATWG decoder reads it) and encoded again, so that equal names are
+   * equal bytes, and its path is checked against the others so written ({@link WrittenPaths}).
+   */
+  private undecodedLines(bytes: Buffer, start: number, end: number): void {
+    const view = viewOf(bytes);
+    const sep = this.separator;
+    while (start < end) {
+      let stop = bytes.indexOf(sep, start);
+      if (stop === -1 || stop >= end) stop = end;
+      const written = bytes.subarray(start, stop);
+      if (isUtf8(written)) {
+        this.one(bytes, view, start, stop);
+      } else {
+        const read = Buffer.from(written.toString("utf8"), "utf8");
+        this.writtenLine = written;
+        try {
+          this.one(read, viewOf(read), 0, read.length);
+        } finally {
+          this.writtenLine = undefined;
+        }
+      }
+      start = stop + 1;
+    }
   }
 
   /** Keeps the start of a line cut by the end of a chunk; LIMIT_EXCEEDED past the longest line. */
@@ -229,14 +261,13 @@ export class PathListReader {
    * last line needs no end. The bytes are not kept past the next call, except the last path's.
    */
   private lines(bytes: Buffer, start: number, end: number): void {
-    if (!isUtf8(bytes.subarray(start, end))) {
-      bytes = Buffer.from(bytes.toString("utf8", start, end), "utf8");
-      start = 0;
-      end = bytes.length;
-    }
-    const view = viewOf(bytes);
     const sep = this.separator;
     if (sep === newline) this.refuseNul(bytes, start, end);
+    if (!isUtf8(bytes.subarray(start, end))) {
+      this.undecodedLines(bytes, start, end);
+      return;
+    }
+    const view = viewOf(bytes);
     while (start < end) {
       let stop = bytes.indexOf(sep, start);
       if (stop === -1 || stop >= end) stop = end;
@@ -285,6 +316,23 @@ export class PathListReader {
       "--nul-separated reads entries ended by a NUL byte, but the input has none and holds line breaks: it lists one path per line, so leave out --nul-separated",
       { line: 1, column: rest.toString("utf8", 0, at).length + 1 },
     );
+  }
+
+  /**
+   * The path of the line being read, `bytes[pathStart, end)` (a line `bytes[start, …)` decoded from
+   * {@link writtenLine}), against the other paths written in bytes that are not UTF-8. What comes before
+   * the path (a size, a tab or spaces) is ASCII, so the path starts as many bytes into the written line.
+   */
+  private checkWritten(bytes: Buffer, start: number, pathStart: number, end: number, line: number): void {
+    const writtenLine = this.writtenLine!;
+    const cut = this.separator === newline && writtenLine[writtenLine.length - 1] === cr ? 1 : 0;
+    let read = bytes.toString("utf8", pathStart, end);
+    let written = writtenLine.toString("latin1", pathStart - start, writtenLine.length - cut);
+    if (this.backslashes) {
+      read = read.replaceAll("\\", "/");
+      written = written.replaceAll("\\", "/");
+    }
+    this.written.check(read, written, line);
   }
 
   /** One line, `bytes[start, end)` without its "\n". */
@@ -371,6 +419,7 @@ export class PathListReader {
       }
     }
     if (this.backslashes === undefined) this.backslashes = windowsPath(bytes, pathStart, end);
+    if (this.writtenLine !== undefined) this.checkWritten(bytes, start, pathStart, end, line);
     let i = this.backslashes
       ? this.placer.placeText(bytes.toString("utf8", pathStart, end).replaceAll("\\", "/"), line)
       : this.placer.place(bytes, view, pathStart, end, line);
