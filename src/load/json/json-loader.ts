@@ -1,6 +1,7 @@
 import type { Buffer } from "node:buffer";
 import { EspalierError, type MessagePart, quoted, type SourcePos, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
+import type { ReadingNote } from "../../model/reading-note.js";
 import { isSize } from "../../model/size-rule.js";
 import { badNodeSize } from "../bad-node-size.js";
 import { describeNode } from "../describe-node.js";
@@ -162,6 +163,13 @@ export class JsonLoader extends JsonTokenizer {
   private unreadChildrenAt: { line: number; column: number } | undefined;
   /** Node objects not keyed by name: with no name anywhere, more than one is a tree of "" names. */
   private unkeyed = 0;
+  /**
+   * Keys repeated where a repeat drops nodes (in a children-by-name object, or a node's children field
+   * twice), the first such, and the nodes the earlier values held: a REPEATED_KEY note says so.
+   */
+  private repeats = 0;
+  private firstRepeat: { key: string; line: number } | undefined;
+  private droppedNodes = 0;
 
   /** `found`: espalier chose `options.childrenField` (the configured one was absent). */
   constructor(options: LoadOptions, as?: "json" | "rows", found = false) {
@@ -237,6 +245,7 @@ export class JsonLoader extends JsonTokenizer {
       ...(this.found ? { childrenFieldFound: true } : {}),
       ...(emptyEntries > 0 ? { emptyEntries } : {}),
       ...(!this.hasNames && this.unkeyed > 1 ? { unnamed: this.options.nameField } : {}),
+      ...(this.repeats > 0 ? { notes: [this.repeatNote()] } : {}),
     });
     if (emptyEntries === 0) return linked;
     const empty = new Uint8Array(sink.length);
@@ -433,9 +442,33 @@ export class JsonLoader extends JsonTokenizer {
   /** A later children field replaces an earlier one (JSON.parse keeps the last value of a key). */
   private dropChildren(frame: Frame): void {
     if (frame.childrenMark < 0) return;
+    this.repeated(this.options.childrenField);
+    this.droppedNodes += this.sink.length - frame.childrenMark;
     this.sink.truncate(frame.childrenMark);
     for (const column of this.kept) column.length = frame.childrenMark;
     frame.childrenMark = -1;
+  }
+
+  /** Counts a key repeated where the repeat drops the earlier value's nodes (see `repeats`). */
+  private repeated(key: string): void {
+    if (this.repeats++ === 0) this.firstRepeat = { key, line: this.pos.line };
+  }
+
+  /**
+   * REPEATED_KEY: JSON.parse keeps the last value of a repeated key, and so does this reading, so the
+   * earlier values' nodes are not in the tree; RFC 8259 section 4 leaves such an object's meaning to
+   * each reader ("names within an object SHOULD be unique"), so the reader is told.
+   */
+  private repeatNote(): ReadingNote {
+    const { key, line } = this.firstRepeat!;
+    const more =
+      this.repeats > 1 ? `, and ${this.repeats - 1} more key${this.repeats > 2 ? "s" : ""} so` : "";
+    const nodes = this.droppedNodes === 1 ? "1 node" : `${this.droppedNodes} nodes`;
+    return {
+      code: "REPEATED_KEY",
+      line,
+      parts: say`line ${line} repeats the key ${quoted.name(key)} of its object${more}: as JSON.parse does, the last value is read and the earlier ones (${nodes}) are not; RFC 8259 leaves a repeated key to each reader, so give each key once, or read every value with --read-as values`,
+    };
   }
 
   /** Adds the child named by the current key of the children-by-name object at `top`. */
@@ -443,6 +476,7 @@ export class JsonLoader extends JsonTokenizer {
     const map = this.frames[top];
     const key = this.slotKey;
     const j = this.addNode(map.node, key, column);
+    if (map.keys.has(key)) this.repeated(key);
     if (map.keys.has(key) || isArrayIndexKey(key)) map.reorder = true;
     map.keys.add(key);
     map.children.push(j);
@@ -605,7 +639,14 @@ export class JsonLoader extends JsonTokenizer {
     } else if (role === CHILD_MAP) {
       if (frame.reorder) {
         const mark = this.frames[top - 1].childrenMark;
-        reorderKeyedChildren(this.sink, this.sized, this.kept, frame.node, mark, frame.children);
+        this.droppedNodes += reorderKeyedChildren(
+          this.sink,
+          this.sized,
+          this.kept,
+          frame.node,
+          mark,
+          frame.children,
+        );
       }
       frame.keys.clear();
       frame.children.length = 0;
