@@ -10,6 +10,7 @@ import {
   atMostOneLevel,
   FieldsSeen,
   loneRoot,
+  mapOfNodes,
   missingField,
   nameFieldNamed,
   sizeFieldNamed,
@@ -144,6 +145,8 @@ export class JsonLoader extends JsonTokenizer {
   /** Whether the top level is an array (of nodes or rows). */
   private topList = false;
   private readonly rootContainers: string[] = [];
+  /** The first object under the top-level node that holds the children field: its key there, and the line. */
+  private childrenBelowTop: { holder: string; line: number } | undefined;
 
   // What the next value is for, and what each open container is.
   private slot = S_TOP;
@@ -208,8 +211,11 @@ export class JsonLoader extends JsonTokenizer {
     }
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the top-level array holds no nodes");
-    if (sink.length === 1 && this.rootContainers.length > 0)
+    if (sink.length === 1 && this.rootContainers.length > 0) {
+      if (this.childrenBelowTop !== undefined && !this.topList)
+        throw mapOfNodes(this.options.childrenField, this.childrenBelowTop, this.options.startAt, "json");
       throw loneRoot(this.options.childrenField, this.rootContainers, "json", this.topList);
+    }
     if (this.unreadChildrenAt !== undefined && atMostOneLevel(sink.parentOf, sink.length))
       throw wrapperChildren(this.options.childrenField, this.unreadChildrenAt, "json");
     for (let i = 0; i < sink.length && !sink.hasSizes; i++) if (this.sized[i] === 1) sink.hasSizes = true;
@@ -296,6 +302,10 @@ export class JsonLoader extends JsonTokenizer {
       this.slot = S_KEYED;
     } else {
       this.slot = S_SKIP;
+      // The children field in an object under the top-level node: the top may be a map of nodes by name.
+      if (top === 1 && this.role[0] === NODE && this.childrenBelowTop === undefined)
+        if (this.text(bytes, q, e, absQ) === this.options.childrenField)
+          this.childrenBelowTop = { holder: this.rootKey, line: this.pos.line };
     }
   }
 
