@@ -3,6 +3,7 @@ import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LoadOptions } from "./load-options.js";
 import { limitExceeded } from "./node-sink.js";
 import { fieldSizeUnit } from "./size-unit.js";
+import { checkWrittenIds } from "./table/check-written.js";
 import { inexactId } from "./table/inexact-id.js";
 import { keptColumns, sizeOf, cellText as text } from "./table/link-table.js";
 import { idIsNullParent, missingParent, nullParentSet } from "./table/null-parent.js";
@@ -44,9 +45,15 @@ function linkGraph(table: Table, options: Fields, edgesOnly: boolean): GraphNode
   if (table.length === 0) throw new EspalierError("INPUT_EMPTY", "the table has no data rows");
   const parents = table.column(options.parentField);
   const ids = edgesOnly ? undefined : table.column(options.idField);
-  if (ids && parents) return linkRows(table, ids, parents, options);
+  if (ids && parents) {
+    checkWrittenIds(table, [options.idField, options.parentField]);
+    return linkRows(table, ids, parents, options);
+  }
   const children = table.column(options.childField);
-  if (parents && children) return linkEdges(table, parents, children, options);
+  if (parents && children) {
+    checkWrittenIds(table, [options.parentField, options.childField]);
+    return linkEdges(table, parents, children, options);
+  }
   throw new EspalierError(
     "FIELD_MISSING",
     say`a graph table needs "${options.idField}" and "${options.parentField}" columns, or "${options.parentField}" and "${options.childField}"; the columns are ${quotedList("name", table.columnNames())}`,

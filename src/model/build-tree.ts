@@ -11,6 +11,9 @@ type PooledNodes = LinkedNodes & { name: NamePool; ids: NamePool | null };
  * Orders linked nodes into a pre-order {@link Tree}. Children keep input order. Several top-level nodes
  * get one synthetic root named `rootName`. Nodes unreachable from a top-level node lie on a cycle, which
  * is reported with the rows or lines on it. Iterative: no recursion a deep tree could overflow.
+ * The linked nodes are the tree's afterwards: their arrays may be the tree's own or hold its other
+ * arrays (nodes out of pre-order: `parentOf`, `ownSize` and `origin` are read no more once reordered,
+ * and their memory holds what would otherwise be new arrays), so the caller reads them no more.
  */
 export function buildTree(linked: LinkedNodes, file?: string): Tree {
   const input = {
@@ -30,9 +33,10 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
   const synthetic = tops !== 1;
   const total = n + (synthetic ? 1 : 0);
   const rootOld = synthetic ? n : input.parentOf.indexOf(-1);
-  // par: old index -> old parent index, with the synthetic root (if any) at index n.
-  const par = new Int32Array(total);
-  for (let i = 0; i < n; i++) par[i] = input.parentOf[i] === -1 && synthetic ? n : input.parentOf[i];
+  // par: old index -> old parent index, with the synthetic root (if any) at index n: without one, the
+  // loader's own parents, which say just that (the one top-level node is the root, its parent -1).
+  const par = synthetic ? new Int32Array(total) : input.parentOf;
+  if (synthetic) for (let i = 0; i < n; i++) par[i] = input.parentOf[i] === -1 ? n : input.parentOf[i];
   par[rootOld] = -1;
 
   // Children lists in input order, made from the last node back (no array of last children).
@@ -70,10 +74,12 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
   const depth = nextSib;
   const from = oldOf;
   const ownSize = new Float64Array(total);
-  const origin = new Int32Array(total);
-  const fields = new Map<string, string[]>();
-  const fieldSources = [...input.fields];
-  for (const [key] of fieldSources) fields.set(key, new Array(total));
+  // Rows numbered 1, 2, 3, ... in input order (a table's): each node's is where it came from plus one,
+  // written over the loader's (read no more) when they have room, instead of gathered into new memory.
+  const rowsInOrder = input.origin.length >= total && isCounting(input.origin, n);
+  const origin = rowsInOrder
+    ? new Int32Array(input.origin.buffer, input.origin.byteOffset, total)
+    : new Int32Array(total);
   for (let k = 0; k < total; k++) {
     const o = oldOf[k];
     const p = par[o];
@@ -81,19 +87,35 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
     depth[k] = p === -1 ? 0 : depth[parent[k]] + 1;
     if (o === n) {
       from[k] = -1;
-      for (const [key] of fieldSources) fields.get(key)![k] = "";
+      origin[k] = 0;
       continue;
     }
     ownSize[k] = input.ownSize[o];
-    origin[k] = input.origin[o];
-    for (const [key, values] of fieldSources) fields.get(key)![k] = values[o] ?? "";
+    origin[k] = rowsInOrder ? o + 1 : input.origin[o];
+  }
+  const fields = new Map<string, string[]>();
+  for (const [key, values] of input.fields) {
+    const byNode = new Array<string>(total);
+    for (let k = 0; k < total; k++) byNode[k] = from[k] === -1 ? "" : (values[from[k]] ?? "");
+    fields.set(key, byNode);
   }
   const slotOf = (i: number) => newIndex[i];
-  // The names' places go in `par`'s memory, read no more, and in `newIndex`'s where no slotOf follows.
+  // The names' places go in `par`'s memory, read no more, and in `newIndex`'s where no slotOf follows;
+  // the ids' in the loader's sizes', read no more either, when they have room for both.
   const spare = input.referenceOf === undefined && input.empty === undefined;
   const places = spare
-    ? { start: new Uint32Array(par.buffer, 0, total), size: new Uint32Array(newIndex.buffer, 0, total) }
+    ? {
+        start: new Uint32Array(par.buffer, par.byteOffset, total),
+        size: new Uint32Array(newIndex.buffer, 0, total),
+      }
     : undefined;
+  const idPlaces =
+    input.ownSize.length >= total
+      ? {
+          start: new Uint32Array(input.ownSize.buffer, input.ownSize.byteOffset, total),
+          size: new Uint32Array(input.ownSize.buffer, input.ownSize.byteOffset + 4 * total, total),
+        }
+      : undefined;
   const tree = withReferences(
     {
       length: total,
@@ -102,7 +124,7 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
       name: input.name.reordered(from, input.rootName, places),
       ownSize,
       hasSizes: input.hasSizes,
-      ids: input.ids === null ? null : input.ids.reordered(from, ""),
+      ids: input.ids === null ? null : input.ids.reordered(from, "", idPlaces),
       origin,
       originIsRow: input.originIsRow,
       fields,
@@ -205,6 +227,12 @@ function inPreOrder(input: PooledNodes): Tree | null {
     syntheticRoot: shift === 1,
     ...(input.reading ? { reading: input.reading } : {}),
   };
+}
+
+/** Whether `origin[i]` is `i + 1` for each of the first `n` nodes (rows in input order). */
+function isCounting(origin: Int32Array, n: number): boolean {
+  for (let i = 0; i < n; i++) if (origin[i] !== i + 1) return false;
+  return true;
 }
 
 function poolOf(names: NamePool | readonly string[]): NamePool {

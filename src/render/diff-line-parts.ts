@@ -40,8 +40,17 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
   const allChanged =
     hidden !== null && (last.change === "added" || last.change === "removed") && changed === hidden.nodes;
   const few = changed === 0 ? "none changed" : `${formatCount(changed)} changed`;
-  const fold = (o: NumberOptions) =>
-    hidden ? `(${foldWords(last)}, ${foldAmount(group, last, o)}; ${inside})` : "";
+  // A fold of removed nodes only (below a removed node, every one) holds no size now: as on a removed
+  // node's line, it says only its count, and its net change after the `;`.
+  const gone = hidden !== null && hidden.size === 0 && hidden.changes.removed === hidden.nodes;
+  const sized = (o: NumberOptions) => (gone ? { ...o, sizes: false } : o);
+  const amountOf = (o: NumberOptions) => foldAmount(group, last, sized(o));
+  const fold = (o: NumberOptions) => (hidden ? `(${foldWords(last)}, ${amountOf(o)}; ${inside})` : "");
+  // The changes in one count, and the net change the sums need: `386 changed, net +1.0 MiB`.
+  const changedIn = (o: NumberOptions) =>
+    o.sizes && hidden !== null && hidden.delta !== 0
+      ? `${few}, net ${signed(hidden.delta, { ...o, compact: true })}`
+      : few;
   return {
     ...parts,
     tag: changeTag(last, options, undefined, group.root.name),
@@ -50,11 +59,12 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
     numbers: say(options, parts.numbers),
     compactNumbers: say({ ...options, compact: true }, parts.compactNumbers),
     fold: fold(options),
-    foldCounts: hidden ? `(hidden: ${foldAmount(group, last, options)}; ${inside})` : "",
+    foldCounts: hidden ? `(hidden: ${amountOf(options)}; ${inside})` : "",
     compactFold: fold({ ...options, compact: true }),
-    compactFoldCounts: hidden
-      ? `(hidden: ${foldAmount(group, last, { ...options, compact: true })}; ${inside})`
-      : "",
+    compactFoldCounts: hidden ? `(hidden: ${amountOf({ ...options, compact: true })}; ${inside})` : "",
+    ...(hidden && changeKinds.filter((k) => hidden.changes[k] > 0).length > 1
+      ? { compactFoldChanged: `(hidden: ${amountOf({ ...options, compact: true })}; ${changedIn(options)})` }
+      : {}),
     foldShort: hidden ? `(hidden: ${hiddenCount(hidden.nodes, options)}; ${few})` : "",
     // Below an added (removed) node every node is added (removed, or moved away): its count says all.
     foldTiny: !hidden ? "" : allChanged ? bare : `(${bare.slice(1, -1)}, ${formatCount(changed)} changed)`,

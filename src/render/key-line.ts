@@ -1,7 +1,7 @@
 import { safeText } from "../model/safe-text.js";
 import { displayWidth, ELLIPSIS, shortenEnd } from "./display-width.js";
 import type { HeaderOptions } from "./header.js";
-import { FOLD_SIGN, type LineParts, NUMBERS_GONE } from "./line-layout.js";
+import { FOLD_SIGN, type LineParts, NUMBERS_GONE, SIZE_CUT } from "./line-layout.js";
 import { MARK } from "./marks.js";
 
 /**
@@ -24,6 +24,8 @@ export interface KeyFacts {
   readonly pathEscapes?: boolean;
   /** Whether the lines leave the input's sizes out to fit the width (see `screenLines`). */
   readonly sizesLeftOut?: boolean;
+  /** Whether a line's sizes did not fit the width (`size cut` stands in their place, see `screenLines`). */
+  readonly sizesCut?: boolean;
   /** Whether a line's count did not fit the width (`?` stands in its place). */
   readonly countsCut?: boolean;
   /** Whether a fold's count did not fit (`(hidden)` alone). */
@@ -35,7 +37,10 @@ export interface KeyFacts {
 }
 
 /** What the width took away from the laid-out lines (see `ScreenLines`), for the key. */
-export type WidthCuts = Pick<KeyFacts, "sizesLeftOut" | "countsCut" | "foldsCut" | "namesCut" | "changesCut">;
+export type WidthCuts = Pick<
+  KeyFacts,
+  "sizesLeftOut" | "sizesCut" | "countsCut" | "foldsCut" | "namesCut" | "changesCut"
+>;
 
 /** What the rest of the screen says that the key speaks of: the sizes, their name, the foci's paths. */
 export interface KeyContext {
@@ -65,6 +70,7 @@ export function keyFacts(
       lines.some((l) => l.mark === MARK.reference && escaped(l.numbers)) ||
       (context.foci ?? []).some(escaped),
     ...(cuts.sizesLeftOut ? { sizesLeftOut: true } : {}),
+    ...(cuts.sizesCut ? { sizesCut: true } : {}),
     ...(cuts.countsCut ? { countsCut: true } : {}),
     ...(cuts.foldsCut ? { foldsCut: true } : {}),
     ...(cuts.namesCut ? { namesCut: true } : {}),
@@ -105,7 +111,12 @@ export function keyLines(
   const first = [marks, compact, tiny].map((m) => `key: ${m}`).find((t) => displayWidth(t) <= room);
   const parts = explanations(kind, facts);
   const tries: string[][] = [0, 1, 2].map((tier) => parts.map((p) => p[tier]));
-  for (let n = parts.length - 1; n >= 1; n--) tries.push(parts.slice(0, n).map((p) => p[2]));
+  for (let n = parts.length - 1; n >= 2; n--) tries.push(parts.slice(0, n).map((p) => p[2]));
+  // A line's sizes cut (just after the numbers) stays longer than what the counts include: the line
+  // above it does not add up, which no other word on screen says.
+  const sized = parts.filter((p) => p[3] === "sizes");
+  if (sized.length > 0) tries.push(sized.map((p) => p[2]));
+  tries.push([parts[0][2]]);
   const second = tries.map((t) => `${ROW_INDENT}${t.join("; ")}`).find((t) => displayWidth(t) <= room);
   return [
     first ?? shortenEnd(`key: ${tiny}`, room),
@@ -135,20 +146,21 @@ export function keyLine(
   const compact = style === "markdown" ? marks : markWords(kind, facts.marks, style, true);
   const [numbers, ...rest] = explanations(kind, facts);
   const cuts = rest.filter((p) => p[3] === "cut");
-  // Sizes left out stay said however short the key (see `explanations`).
-  const must = facts.sizesLeftOut ? [numbers[2]] : [];
+  // Sizes left out, or cut from a line, stay said however short the key (see `explanations`).
+  const sized = rest.filter((p) => p[3] === "sizes");
+  const must = [...(facts.sizesLeftOut ? [numbers[2]] : []), ...sized.map((p) => p[2])];
   const chain = rest.filter((p) => p[3] === "chain");
   const more = "--legend explains more";
   const long = (ps: Explanation[]) => ps.map((p) => p[0]);
   const short = (ps: Explanation[]) => ps.map((p) => p[1]);
   const tries = [
-    [marks, numbers[0], ...long(cuts), ...long(chain), more],
-    [marks, numbers[1], ...short(cuts), ...long(chain), more],
-    [marks, numbers[1], ...short(cuts), more],
-    [marks, numbers[1], ...short(cuts)],
+    [marks, numbers[0], ...long(sized), ...long(cuts), ...long(chain), more],
+    [marks, numbers[1], ...short(sized), ...short(cuts), ...long(chain), more],
+    [marks, numbers[1], ...short(sized), ...short(cuts), more],
+    [marks, numbers[1], ...short(sized), ...short(cuts)],
     [marks, ...must, ...short(cuts)],
     // A narrow terminal: each mark in a word or two, so all of them fit before any is cut.
-    [compact, numbers[1], ...short(cuts)],
+    [compact, numbers[1], ...short(sized), ...short(cuts)],
     [compact, ...must, ...short(cuts)],
   ];
   for (let n = cuts.length - 1; n >= 0; n--) tries.push([compact, ...must, ...short(cuts.slice(0, n))]);
@@ -164,7 +176,7 @@ export function keyLine(
  * the width took away from the lines (`cut`), a chain or a path's escapes (`chain`), or the pointer
  * to the legend.
  */
-type Explanation = readonly [string, string, string, "numbers" | "cut" | "chain" | "more"];
+type Explanation = readonly [string, string, string, "numbers" | "sizes" | "cut" | "chain" | "more"];
 
 /** What the key explains besides the marks, most needed first (see `Explanation`). */
 function explanations(kind: "summary" | "diff", facts: KeyFacts): Explanation[] {
@@ -187,6 +199,14 @@ function explanations(kind: "summary" | "diff", facts: KeyFacts): Explanation[] 
         ]
       : [numbers, `${sizes ? "totals" : "counts"} include all below`, "N nodes: all below", "numbers"],
   ];
+  // A line whose sizes did not fit says `size cut`; the line above it then does not add up by size.
+  if (facts.sizesCut)
+    said.push([
+      `'${SIZE_CUT}' a line's sizes did not fit, so the sizes of the line above it do not add up`,
+      `'${SIZE_CUT}': so the line above's sizes do not add up`,
+      `'${SIZE_CUT}': line above won't add up`,
+      "sizes",
+    ]);
   if (facts.countsCut)
     said.push([
       `'${NUMBERS_GONE}' a count that did not fit`,

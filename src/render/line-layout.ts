@@ -54,6 +54,11 @@ export interface LineParts {
   foldBare?: string;
   /** The compact fold without how many children it holds, when it differs from `compactFold`. */
   compactFoldCounts?: string;
+  /**
+   * A diff's compact fold with its changes in one count (`(hidden: 604 nodes, 3.1 MiB; 386 changed,
+   * net +1.0 MiB)`): every number a sum needs, not what kinds of change; absent outside a diff.
+   */
+  compactFoldChanged?: string;
 }
 
 export interface LayoutOptions {
@@ -74,6 +79,14 @@ export const FOLD_SIGN = "(hidden)";
  * one node (the legend says so), which a folded line whose numbers gave way is not.
  */
 export const NUMBERS_GONE = "?";
+
+/**
+ * What stands on a line in place of its sizes when they do not fit, after its count
+ * (`14 nodes, size cut`): the lines around it keep theirs. The line's own sizes and its fold's all
+ * go, so no number on it is read as a sum of sizes it is not; the line above it then does not add up
+ * by size, which the key says (see `screenLines`).
+ */
+export const SIZE_CUT = "size cut";
 
 /** Shortest label kept before the line's own numbers give way. */
 const MIN_LABEL = 8;
@@ -150,6 +163,22 @@ export function layoutLine(p: LineParts, options: LayoutOptions = {}): string {
 
 /** `layoutLine`'s line, and whether it gave up a size to fit (see `LaidOutLine`). */
 export function laidOutLine(p: LineParts, options: LayoutOptions = {}): LaidOutLine {
+  return layOut(p, options, false)!;
+}
+
+/**
+ * The line with every number its parts hold (the compact ones at least), or null when it cannot be:
+ * `layoutLine`'s steps up to 4 (compact numbers), then a diff's fold with its changes in one count
+ * (`386 changed`), its names cut down to 4 columns again, then a deep line's indentation shrunk (step
+ * 6), nothing else. A screen whose line would lose a size tries
+ * this before the line leaves its sizes out (see `screenLines`).
+ */
+export function laidOutWhole(p: LineParts, options: LayoutOptions = {}): LaidOutLine | null {
+  return layOut(p, options, true);
+}
+
+/** `laidOutLine`, or with `keepAll` only the steps that keep every number (null when none fits). */
+function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOutLine | null {
   const { width } = options;
   const pal = options.palette ?? noColour;
   const label = p.labels.join(CHAIN_JOIN);
@@ -187,6 +216,7 @@ export function laidOutLine(p: LineParts, options: LayoutOptions = {}): LaidOutL
   const foldWords = p.foldShort === p.foldCounts ? p.foldTiny : p.foldCounts;
   // [indentation, tag, fewest label columns (0: whole), numbers, fold]; from FIRST_CUT on a step may
   // leave a number out.
+  const compactWords = p.foldShort === p.foldCounts ? p.foldTiny : compactFoldCounts;
   const steps: [string, string, number, string, string][] = [
     [indent, p.tag, 0, p.numbers, p.fold],
     [indent, p.tag, 0, p.numbers, p.foldCounts],
@@ -194,13 +224,7 @@ export function laidOutLine(p: LineParts, options: LayoutOptions = {}): LaidOutL
     [indent, p.shortTag, 0, p.numbers, foldWords],
     [indent, p.shortTag, MIN_LABEL, p.numbers, foldWords],
     [indent, p.shortTag, FEW_LABEL, p.numbers, foldWords],
-    [
-      indent,
-      p.shortTag,
-      MIN_LABEL,
-      p.compactNumbers,
-      p.foldShort === p.foldCounts ? p.foldTiny : compactFoldCounts,
-    ],
+    [indent, p.shortTag, MIN_LABEL, p.compactNumbers, compactWords],
     [indent, p.shortTag, MIN_LABEL, p.compactNumbers, p.foldShort],
     [indent, p.shortTag, MIN_LABEL, p.countNumbers, p.foldShort],
     [indent, p.shortTag, MIN_LABEL, p.countNumbers, p.foldTiny],
@@ -216,7 +240,17 @@ export function laidOutLine(p: LineParts, options: LayoutOptions = {}): LaidOutL
     [least, kindTag, ANY_CUT, gone, sign],
     [least, kindTag, ANY_CUT, "", sign],
   ];
-  for (const [k, [ind, tag, fewest, numbers, fold]] of steps.entries()) {
+  // Every number kept: the steps before any gives way, then a deep line's indentation and its names.
+  // A diff's fold counts its changes in one number first (`386 changed`): no sum needs their kinds.
+  const changed = p.compactFoldChanged ?? compactWords;
+  const kept: typeof steps = [
+    ...steps.slice(0, FIRST_CUT),
+    [indent, p.shortTag, MIN_LABEL, p.compactNumbers, changed],
+    [indent, p.shortTag, FEW_LABEL, p.compactNumbers, changed],
+    [short, p.shortTag, MIN_LABEL, p.compactNumbers, changed],
+    [short, p.shortTag, FEW_LABEL, p.compactNumbers, changed],
+  ];
+  for (const [k, [ind, tag, fewest, numbers, fold]] of (keepAll ? kept : steps).entries()) {
     const room = width - displayWidth(line(ind, "", tag, numbers, fold, false));
     const whole = displayWidth(label) <= room;
     if (!whole && (fewest === 0 || room < floorOf(p.labels, fewest))) continue;
@@ -225,7 +259,9 @@ export function laidOutLine(p: LineParts, options: LayoutOptions = {}): LaidOutL
     const text = whole ? label : cutLabels(p.labels, room, p.distinct);
     // From step 5 on, less than the compact numbers and fold is a number (or a change's kind) left out.
     const numbersCut =
-      k >= FIRST_CUT && (numbers !== p.compactNumbers || (fold !== compactFoldCounts && fold !== foldWords));
+      !keepAll &&
+      k >= FIRST_CUT &&
+      (numbers !== p.compactNumbers || (fold !== compactFoldCounts && fold !== foldWords));
     return {
       text: line(ind, text, tag, numbers, fold, true),
       numbersCut,
@@ -235,6 +271,7 @@ export function laidOutLine(p: LineParts, options: LayoutOptions = {}): LaidOutL
       changesCut: (fold === foldBare || fold === FOLD_SIGN) && foldBare !== p.foldTiny,
     };
   }
+  if (keepAll) return null;
   // Narrower than MIN_WIDTH (the renderers refuse such a width; a small screen may still ask for it):
   // the start of the line is cut, and the fold's sign stays at its end while the width holds it.
   const signed = p.fold ? `  ${FOLD_SIGN}` : "";

@@ -1,39 +1,95 @@
 import type { NumberOptions } from "./amount.js";
 import type { WidthCuts } from "./key-line.js";
-import { type LaidOutLine, type LayoutOptions, type LineParts, laidOutLine } from "./line-layout.js";
+import {
+  type LaidOutLine,
+  type LayoutOptions,
+  type LineParts,
+  laidOutLine,
+  laidOutWhole,
+  SIZE_CUT,
+} from "./line-layout.js";
 
-/** A screen's lines as laid out, the parts they came from, and whether the sizes were left out. */
+/** A screen's lines as laid out, the parts they came from, and what the width took from their sizes. */
 export interface ScreenLines extends WidthCuts {
   parts: LineParts[];
   lines: string[];
   /**
-   * The input has sizes but the lines print none: at this width some line could hold its size only by
-   * leaving out a number (see `layoutLine`), and a screen where some lines have sizes and others not
-   * cannot be added up. The key says so (see `keyLine`).
+   * The input has sizes but the lines print none: some line could say neither its sizes nor that
+   * they were cut ({@link SIZE_CUT}) without leaving out a count. The key says so (see `keyLine`).
    */
   sizesLeftOut: boolean;
 }
 
 /**
  * The lines of one screen, each of `groups` made into parts by `parts` and laid out within the width.
- * Sizes are a screen's, not a line's: when one line would have to leave a number out to fit, the whole
- * screen is laid out again without sizes, so every count and size on it adds up from the lines below
- * (a line's size less its lines' sizes and its fold's is its own size).
+ * A line that would have to leave a number out to fit first keeps them all if its indentation and
+ * names give way further (see `laidOutWhole`); failing that it leaves its sizes out, all of them, and
+ * says so in their place (`14 nodes, size cut  (hidden: 13 nodes)`), so every size left on screen
+ * adds up (a line's size less its lines' sizes and its fold's is its own size) except on the line
+ * just above such a line, which the key points out. When a line cannot say even that, or more than a
+ * third of the lines would, the whole screen leaves sizes out (`sizesLeftOut`), so every count and
+ * size on it adds up.
  */
 export function screenLines<G>(
   groups: readonly G[],
   parts: (group: G, options: NumberOptions) => LineParts,
   options: NumberOptions & LayoutOptions,
 ): ScreenLines {
-  const lay = (o: NumberOptions) => {
-    const made = groups.map((g) => parts(g, o));
-    const laid = made.map((p) => laidOutLine(p, options));
-    return { made, laid };
+  const made = groups.map((g) => parts(g, options));
+  const laid = made.map((p) => laidOutLine(p, options));
+  let sizesCut = 0;
+  if (options.sizes)
+    for (let k = 0; k < laid.length; k++) {
+      if (!laid[k].numbersCut) continue;
+      const whole = laidOutWhole(made[k], options);
+      if (whole !== null) {
+        laid[k] = whole;
+        continue;
+      }
+      // A share is of sizes on this screen: the line's, by count, would read as one of them.
+      const bare = sizeCut(parts(groups[k], { ...options, sizes: false, share: undefined }));
+      const line = laidOutLine(bare, options);
+      if (line.numbersCut) return everyLineBare(groups, parts, options);
+      made[k] = bare;
+      laid[k] = line;
+      sizesCut++;
+    }
+  // A screen of mostly `size cut` says less than one of counts alone: past a third of the lines, none
+  // keeps its sizes (a choice of this project, no source).
+  if (sizesCut * MOST_CUT > laid.length) return everyLineBare(groups, parts, options);
+  return {
+    parts: made,
+    lines: laid.map((l) => l.text),
+    sizesLeftOut: false,
+    ...cutsOf(laid),
+    sizesCut: sizesCut > 0,
   };
-  const first = lay(options);
-  const sizesLeftOut = options.sizes && first.laid.some((l) => l.numbersCut);
-  const { made, laid } = sizesLeftOut ? lay({ ...options, sizes: false }) : first;
-  return { parts: made, lines: laid.map((l) => l.text), sizesLeftOut, ...cutsOf(laid) };
+}
+
+/** Lines over lines that say `size cut`, at most, for the others to keep their sizes (see `screenLines`). */
+const MOST_CUT = 3;
+
+/** The screen laid out without sizes, every line (see `screenLines`). */
+function everyLineBare<G>(
+  groups: readonly G[],
+  parts: (group: G, options: NumberOptions) => LineParts,
+  options: NumberOptions & LayoutOptions,
+): ScreenLines {
+  const made = groups.map((g) => parts(g, { ...options, sizes: false }));
+  const laid = made.map((p) => laidOutLine(p, options));
+  return {
+    parts: made,
+    lines: laid.map((l) => l.text),
+    sizesLeftOut: true,
+    ...cutsOf(laid),
+    sizesCut: false,
+  };
+}
+
+/** Parts laid out without sizes that say so after their count: `14 nodes, size cut`. */
+function sizeCut(p: LineParts): LineParts {
+  const say = (numbers: string) => (numbers ? `${numbers}, ${SIZE_CUT}` : SIZE_CUT);
+  return { ...p, numbers: say(p.numbers), compactNumbers: say(p.compactNumbers) };
 }
 
 /** What the width took from any of the lines, for the key. */

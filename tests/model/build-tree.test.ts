@@ -2,6 +2,8 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { buildTree } from "../../src/model/build-tree.js";
 import type { LinkedNodes } from "../../src/model/linked-nodes.js";
+import { NamePool, type Names } from "../../src/model/names.js";
+import type { Tree } from "../../src/model/tree.js";
 
 /** Nodes of a random tree listed in pre-order, and the same nodes breadth-first. */
 const arbOrders = fc
@@ -43,7 +45,80 @@ function linked(parentOf: number[], order: number[]): LinkedNodes {
   };
 }
 
+/**
+ * The same nodes as {@link linked}, as a table's loader gives them: rows numbered 1, 2, 3, ... in the
+ * order listed (origin), ids in a name pool, and with `spread`, every array a view into a larger buffer
+ * (at an offset, garbage around it), as a loader's arrays cut from a grown one are.
+ */
+function tableRows(
+  parentOf: number[],
+  order: number[],
+  spread: boolean,
+  around: (Int32Array | Float64Array)[] = [],
+): LinkedNodes {
+  const base = linked(parentOf, order);
+  const n = order.length;
+  const view = <T extends Int32Array | Float64Array>(make: (length: number) => T, values: T): T => {
+    if (!spread) return values;
+    const big = make(n + 7).fill(AROUND);
+    big.set(values, 3);
+    around.push(big.subarray(0, 3), big.subarray(3 + n));
+    return big.subarray(3, 3 + n) as T;
+  };
+  return {
+    ...base,
+    parentOf: view((k) => new Int32Array(k), base.parentOf),
+    ownSize: view((k) => new Float64Array(k), base.ownSize),
+    origin: view(
+      (k) => new Int32Array(k),
+      Int32Array.from(order, (_, k) => k + 1),
+    ),
+    ids: NamePool.from(base.ids as string[]),
+  };
+}
+
+/** What lies around the arrays of {@link tableRows} (memory that is not the nodes'). */
+const AROUND = -123456;
+
+/** What a tree says of each node, by slot, as plain values. */
+function plainTree(tree: Tree) {
+  const at = (names: Names | null) => (names === null ? null : [...tree.parent].map((_, k) => names.get(k)));
+  return {
+    length: tree.length,
+    parent: [...tree.parent],
+    depth: [...tree.depth],
+    ownSize: [...tree.ownSize],
+    origin: [...tree.origin],
+    name: at(tree.name),
+    ids: at(tree.ids),
+    fields: [...tree.fields].map(([key, values]) => [key, [...values]]),
+    syntheticRoot: tree.syntheticRoot,
+  };
+}
+
 describe("buildTree", () => {
+  // Common practice, no source: the pre-order of a forest is unique once children keep their input
+  // order, so listing the nodes in another order (here breadth-first) must give the same tree.
+  it("rows numbered in input order, out of pre-order, give the tree their pre-order listing gives", () => {
+    fc.assert(
+      fc.property(arbOrders, fc.boolean(), ({ parentOf, order }, spread) => {
+        const identity = parentOf.map((_, i) => i);
+        // The pre-order listing with each node's row number in the breadth-first listing.
+        const rowOf = new Map(order.map((old, k) => [old, k + 1]));
+        const ordered = buildTree({
+          ...linked(parentOf, identity),
+          origin: Int32Array.from(identity, (old) => rowOf.get(old)!),
+          ids: NamePool.from(parentOf.map((_, old) => `id${old}`)),
+        });
+        const around: (Int32Array | Float64Array)[] = [];
+        const shuffled = buildTree(tableRows(parentOf, order, spread, around));
+        expect(plainTree(shuffled)).toEqual(plainTree(ordered));
+        // The memory around the nodes' arrays is left as it was.
+        for (const part of around) expect([...part].every((v) => v === AROUND)).toBe(true);
+      }),
+    );
+  });
+
   it("buildTree(nodes in pre-order) gives the tree it gives for the same nodes breadth-first", () => {
     fc.assert(
       fc.property(arbOrders, ({ parentOf, order }) => {

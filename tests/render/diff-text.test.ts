@@ -159,3 +159,35 @@ describe("renderDiffText(view, totals, options)", () => {
     );
   });
 });
+
+describe("renderDiffText(view, totals, { width }): a fold's sizes in a diff", () => {
+  const render = (oldTree: Tree, newTree: Tree, budget: number, width?: number) => {
+    const r = diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth", chains: false });
+    return renderDiffText(r.view, r.totals, { units: "plain", sizes: true, by: r.combined.by, width });
+  };
+
+  it("says only the count and net change of a fold of removed nodes, which hold no size now", () => {
+    // docs/selection.md (Narrow screens): a removed node's line has no size; nor has a fold of removed nodes.
+    const oldTree = makeTree("R{zones:4{a:10,b:20,c:30},keep:5}");
+    const newTree = makeTree("R{zones:4,keep:5}");
+    const out = render(oldTree, newTree, 3);
+    // zones' 4 = its own 4 + nothing hidden now; its net -60 = the three removed files' 10 + 20 + 30.
+    expect(out).toContain(
+      "  : zones  4 nodes, 4, net -60  (hidden: 3 children, 3 nodes; 3 removed, net -60)",
+    );
+    expect(out).not.toMatch(/nodes, 0;/);
+  });
+
+  it("counts a fold's changes in one number before the line's sizes are cut", () => {
+    // 11 = 1 + 10 hidden (g removed counted); 117 = R's own 0 + 117 hidden; net +6 = +5 (c) + 1 (h)
+    // + 1 (i) - 1 (g): every number read off the line alone, at 90 columns and at 70.
+    const oldTree = makeTree("R{lib:8{a:10,b:20,c:30,d:40,e:1,f:1,g:1}}");
+    const newTree = makeTree("R{lib:8{a:10,b:20,c:35,d:40,e:1,f:1,h:1,i:1}}");
+    expect(render(oldTree, newTree, 2, 90)).toContain(
+      ": R  11 nodes, 117, net +6  (hidden: 10 nodes, 117; 2 added, 1 removed, 1 resized, net +6)",
+    );
+    expect(render(oldTree, newTree, 2, 70)).toContain(
+      ": R  11 nodes, 117, net +6  (hidden: 10 nodes, 117; 4 changed, net +6)",
+    );
+  });
+});

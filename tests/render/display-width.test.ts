@@ -131,7 +131,7 @@ describe("renderText(view, { width })", () => {
     expect(renderText(result.view, { units: "plain", sizes: false, width: MIN_WIDTH })).toContain(". a");
   });
 
-  it("cuts names before numbers, leaves sizes out of the whole screen before a count, a chain keeps its joins", () => {
+  it("cuts names before numbers, leaves a line's sizes out (saying so) before a count, a chain keeps its joins", () => {
     const tree = makeTree("R{Esme Orby Lead Firmware Engineer:123456{a:1,b:2},alpha{beta{gamma:5{q,r}}}}");
     const result = summarize(prepare(tree), { foci: [], budget: 3, importance: "depth", chains: true });
     const lines = (width: number) =>
@@ -148,13 +148,13 @@ describe("renderText(view, { width })", () => {
     // Then down to 4 columns, every number still exact (compact numbers, 123k, would save fewer
     // columns than the name gives).
     expect(at(50)).toBe("  . Esme …  3 nodes, 123,459  (hidden: 2 nodes, 3)");
-    // Narrower, a size would have to go from a line: the whole screen leaves sizes out, so every
-    // number on it still adds up (R: 9 = 1 + 3 + 5), and the name takes the room the size left (the
-    // fold in fewer words, which lose no number).
+    // Narrower, the name gives way again down to 4 columns while the numbers turn compact, every
+    // number kept; the chain's line cannot keep its sizes so: it leaves them all out and says so in
+    // their place, its count kept (5 = 2 names + 3 hidden), and the other lines keep theirs.
     expect(lines(46).slice(0, 3)).toEqual([
-      ". R  9 nodes",
-      "  . Esme Orby Lead Firmw…  3 nodes  (2 hidden)",
-      "  . alpha / beta  5 nodes  (hidden: 3 nodes)",
+      ". R  9 nodes, 123,464",
+      "  . Esme…  3 nodes, 123k  (hidden: 2 nodes, 3)",
+      "  . alp… / beta  5 nodes, size cut  (3 hidden)",
     ]);
     // The count stays down to the narrowest width the renderers take: the name gives way.
     expect(at(36)).toBe("  . Esme Orby …  3 nodes  (2 hidden)");

@@ -111,12 +111,13 @@ describe("nodes = names + shown children + folded, read from the printed lines a
 });
 
 // A narrow line (docs/selection.md, Narrow screens): a name may be cut (`…`), the fold may drop its
-// children and size (`(hidden: 41 nodes)`) or its words (`(41 hidden)`), a diff's fold its changes.
+// children and size (`(hidden: 41 nodes)`) or its words (`(41 hidden)`), a diff's fold its changes;
+// a line whose sizes did not fit says `size cut` in their place.
 // A size (plain units, compact from 10,000: `12.3k`) may follow a count or stand alone (one node); a
 // deep line's indentation may end in its level in digits (`12 `); a `?` stands for a count that did
 // not fit, and after it the fold may keep only its sign (`(hidden)`).
 const NARROW =
-  /^( *)(?:([0-9]+) )?[*:.] (.+?)(?: {2}(?:([0-9,]+) nodes(?:, [0-9.,]+k?)?|[0-9.,]+k?|(\?)))?(?: {2}\((?:hidden: (?:[0-9,]+ child(?:ren)?, )?([0-9,]+) nodes?(?:, [0-9.,]+k?)?(?:; [^)]*)?|([0-9,]+) hidden(?:, [0-9,]+ changed)?|(hidden))\))?$/;
+  /^( *)(?:([0-9]+) )?[*:.] (.+?)(?: {2}(?:([0-9,]+) nodes(?:, [0-9.,]+k?|, size cut)?|[0-9.,]+k?|size cut|(\?)))?(?: {2}\((?:hidden: (?:[0-9,]+ child(?:ren)?, )?([0-9,]+) nodes?(?:, [0-9.,]+k?)?(?:; [^)]*)?|([0-9,]+) hidden(?:, [0-9,]+ changed)?|(hidden))\))?$/;
 
 function parseNarrow(text: string, width: number): Line[] {
   return text
@@ -173,11 +174,13 @@ describe("the sums hold on narrow screens too: names give way before counts", ()
           }
           const text = renderText(result.view, { units: "plain", sizes: true, chains: true, width });
           const counts = renderText(result.view, { units: "plain", sizes: false, chains: true, width });
-          // Sizes are on every line or on none (a line that could not hold its size takes them off
-          // every line, see screen-lines.ts).
+          // Every line has its size, or says `size cut` where it would be; only when a line could
+          // say neither are sizes off every line (see screen-lines.ts).
           if (text !== counts)
             for (const line of text.trimEnd().split("\n"))
-              expect(line, `${width}: ${text}`).toMatch(/(?: {2}|, )[0-9][0-9.,]*k?(?: {2}\(.*)?$/);
+              expect(line, `${width}: ${text}`).toMatch(
+                /(?:(?: {2}|, )[0-9][0-9.,]*k?| {2}(?:[0-9,]+ nodes, )?size cut)(?: {2}\(.*)?$/,
+              );
           checkOn(text, width, tree.length);
         },
       ),
@@ -259,6 +262,71 @@ describe("own size = size - the sizes on the lines below - the hidden size, read
           expect(line.size - below - line.hidden, `line ${k}: ${text}`).toBe(own);
         });
       }),
+    );
+  });
+});
+
+// A narrow sized line: the count and an exact or compact size (`123k`), or `size cut` where the sizes
+// did not fit; the fold with its size, or in fewer words once the line's sizes are cut.
+const SIZED_NARROW =
+  /^( *)(?:([0-9]+) )?[*:.] (.+?)(?: {2}(?:[0-9,]+ nodes, )?(?:([0-9][0-9.,]*k?)|(size cut)))(?: {2}\((?:hidden: (?:[0-9,]+ child(?:ren)?, )?[0-9,]+ nodes?(?:, ([0-9][0-9.,]*k?))?|[0-9,]+ hidden)\))?$/;
+
+describe("own size = size - the sizes below - the hidden size on narrow screens, a line's `size cut` aside", () => {
+  it("holds on every line whose size and whose lines' sizes below are shown exactly, widths 40-120 (property)", () => {
+    fc.assert(
+      fc.property(
+        arbTreeWithFoci(50),
+        fc.integer({ min: 1, max: 40 }),
+        fc.integer({ min: 40, max: 120 }),
+        ([tree, f], extra, width) => {
+          const index = new PathIndex(tree, measure(tree));
+          const foci = f.map((i) => index.path(i));
+          const prepared = prepare(tree);
+          const options = { foci, importance: "depth" as const, chains: true };
+          const needed = summarize(prepared, { ...options, budget: tree.length + 1 });
+          let result: ReturnType<typeof summarize>;
+          try {
+            result = summarize(prepared, {
+              ...options,
+              budget: Math.min(needed.selection.forcedCount + extra, tree.length),
+            });
+          } catch {
+            return; // BUDGET_TOO_SMALL: checked elsewhere
+          }
+          const text = renderText(result.view, { units: "plain", sizes: true, chains: true, width });
+          const rows = text.trimEnd().split("\n");
+          // Sizes off every line (a line could not even say `size cut`): nothing to add up by size.
+          if (!rows.some((r) => SIZED_NARROW.test(r))) return;
+          // An exact size, or NaN: compact (`123k`) or cut.
+          const exact = (s: string | undefined) =>
+            s === undefined || s.endsWith("k") ? Number.NaN : Number(s.replaceAll(",", ""));
+          const lines = rows.map((row) => {
+            const m = SIZED_NARROW.exec(row);
+            expect(m, `${width}: ${row}\n${text}`).not.toBeNull();
+            const [, indent, digits, , size, cut, hidden] = m!;
+            const folded = /\(hidden/.test(row) || / hidden\)$/.test(row);
+            // With its sizes kept, a line's fold keeps its size too: no number on it is half a sum.
+            if (!cut && folded) expect(hidden, `${width}: ${row}`).toBeDefined();
+            return {
+              level: digits === undefined ? indent.length / 2 : Number(digits),
+              size: cut ? Number.NaN : exact(size),
+              hidden: folded ? exact(hidden) : 0,
+            };
+          });
+          const groups = lineGroups(result.view, true);
+          expect(groups).toHaveLength(lines.length);
+          lines.forEach((line, k) => {
+            let below = 0;
+            for (let j = k + 1; j < lines.length && lines[j].level > line.level; j++)
+              if (lines[j].level === line.level + 1) below += lines[j].size;
+            // A size compact or cut, here or on a line below: the key says this line does not add up.
+            if (Number.isNaN(line.size - below - line.hidden)) return;
+            const own = groups[k].nodes.reduce((sum, n) => sum + tree.ownSize[n.index], 0);
+            expect(line.size - below - line.hidden, `line ${k} at ${width}: ${text}`).toBe(own);
+          });
+        },
+      ),
+      { numRuns: 300 },
     );
   });
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { keyLines, keyRows } from "../../src/render/key-line.js";
+import { keyFacts, keyLines, keyRows } from "../../src/render/key-line.js";
 import { lineGroups } from "../../src/render/line-groups.js";
 import { lineParts } from "../../src/render/line-parts.js";
 import { MARK } from "../../src/render/marks.js";
@@ -24,10 +24,29 @@ describe("screenLines(groups, parts, options)", () => {
     ]);
   });
 
-  it("leaves sizes out of every line when one line could keep its own only by losing a number", () => {
+  it("cuts one line's sizes, saying so, when only that line cannot hold them; the others keep theirs", () => {
+    // At 48 columns "  . riptide-rpc / kelp-log  4 nodes, 5  (hidden: 2 nodes, 0)" does not fit even
+    // with its names at 4 columns each: it says `size cut` where its sizes were and keeps its count
+    // (4 = 2 names + 2 hidden); the other lines keep their sizes, each name cut to 4 columns first
+    // (ledger-core: 40,003 - 3 hidden = its own 40,000).
+    const mid = at(48);
+    expect(mid.sizesLeftOut).toBe(false);
+    expect(mid.sizesCut).toBe(true);
+    expect(mid.lines).toEqual([
+      ". R  8 nodes, 40,008",
+      "  . ledg…  3 nodes, 40,003  (hidden: 2 nodes, 3)",
+      "  . ript… / kelp…  4 nodes, size cut  (2 hidden)",
+    ]);
+    // The key says what `size cut` means for the line above it (R: 40,008 is not 40,003 + a size shown).
+    const key = keyLines("summary", keyFacts(mid.parts, {}, mid), 48).join("\n");
+    expect(key).toContain("'size cut'");
+  });
+
+  it("leaves sizes out of every line when a line cannot even say that its sizes were cut", () => {
     // At 40 columns "  . riptide-rpc / kelp-log  4 nodes, 5  (2 hidden)" needs its fold's size gone
-    // (or the line's): the whole screen prints counts instead, and every count adds up from the lines
-    // (8 = 1 + 3 + 4; 3 = 1 + 2 hidden; 4 = 2 names + 2 hidden), the chain's " / " kept.
+    // (or the line's), and `4 nodes, size cut` does not fit either: the whole screen prints counts
+    // instead, and every count adds up from the lines (8 = 1 + 3 + 4; 3 = 1 + 2 hidden; 4 = 2 names +
+    // 2 hidden), the chain's " / " kept.
     const narrow = at(40);
     expect(narrow.sizesLeftOut).toBe(true);
     expect(narrow.lines).toEqual([

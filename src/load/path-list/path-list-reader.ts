@@ -11,9 +11,9 @@ import { PathPlacer, viewOf } from "../path-placer.js";
 import { limitsOf, tooLong } from "../read-limits.js";
 import { checkReadingOptions } from "../reading-options.js";
 import { sizeTextHint } from "../size-text-hint.js";
+import { WrittenPaths } from "../written-paths.js";
 import { type FolderSizes, folderTotals } from "./folder-totals.js";
 import { headerLineHint } from "./header-line-hint.js";
-import { WrittenPaths } from "./written-paths.js";
 
 const newline = 10;
 const cr = 13;
@@ -89,7 +89,7 @@ export class PathListReader {
   /** The bytes of the line being read when they are not UTF-8 (it is read decoded), else undefined. */
   private writtenLine: Buffer | undefined;
   /** Paths of lines whose bytes are not UTF-8, as read and as written (see {@link WrittenPaths}). */
-  private readonly written = new WrittenPaths();
+  private readonly written = new WrittenPaths("line");
 
   constructor(options: LoadOptions) {
     checkNoNamedFields(options, "paths");
@@ -332,7 +332,7 @@ export class PathListReader {
       read = read.replaceAll("\\", "/");
       written = written.replaceAll("\\", "/");
     }
-    this.written.check(read, written, line);
+    this.written.checkPath(read, written, line);
   }
 
   /** One line, `bytes[start, end)` without its "\n". */

@@ -7,7 +7,7 @@ import { limitsOf } from "../read-limits.js";
 import { CsvScanner, type CsvSink } from "./csv-scanner.js";
 import { EarlierRows } from "./earlier-rows.js";
 import { withSeparatorHint } from "./separator-hint.js";
-import { type NumberCells, numberCell, type Table } from "./table.js";
+import { type NumberCells, numberCell, type Table, type WrittenCell } from "./table.js";
 
 /** The columns a table loader reads. */
 export type TableFields = Pick<
@@ -17,6 +17,7 @@ export type TableFields = Pick<
   | "idField"
   | "parentField"
   | "pathField"
+  | "childField"
   | "keepFields"
   | "maxNodes"
   | "limits"
@@ -51,6 +52,10 @@ interface Kept {
   asText: boolean;
   /** A pooled id or name column read against an earlier version's (see EarlierRows), else undefined. */
   earlier?: "id" | "name";
+  /** Whether the column may link rows (the id, parent or path column): its cells not UTF-8 are kept as written. */
+  links: boolean;
+  /** Of a column that `links`: its cells whose bytes are not UTF-8, by row (see Table.writtenCells). */
+  written?: Map<number, WrittenCell>;
 }
 
 /**
@@ -210,6 +215,9 @@ export class CsvTableReader implements CsvSink {
         const column = kept.find((k) => k.name === name);
         return column?.keeping === Keeping.Numbers ? numbersOf(column) : undefined;
       },
+      writtenCells(name) {
+        return kept.find((k) => k.name === name)?.written;
+      },
       release() {
         kept = [];
         at.clear();
@@ -244,7 +252,25 @@ export class CsvTableReader implements CsvSink {
     } else if (keep.keeping === Keeping.Pool) {
       if (keep.earlier === undefined || !this.placedAsEarlier(keep, row, bytes, start, end))
         this.pooled(keep, row, bytes, start, end);
-    } else keep.cells.push(this.text(bytes, start, end));
+    } else {
+      const text = this.text(bytes, start, end);
+      if (keep.links && text.includes("\uFFFD") && !isUtf8(bytes.subarray(start, end)))
+        this.keepWritten(keep, row, text, bytes, start, end);
+      keep.cells.push(text);
+    }
+  }
+
+  /** Keeps a linking cell that is not UTF-8 as read and as written (see Table.writtenCells). */
+  private keepWritten(
+    keep: Kept,
+    row: number,
+    read: string,
+    bytes: Uint8Array,
+    start: number,
+    end: number,
+  ): void {
+    keep.written ??= new Map();
+    keep.written.set(row, { read, written: asBuffer(bytes).toString("latin1", start, end) });
   }
 
   /**
@@ -265,9 +291,11 @@ export class CsvTableReader implements CsvSink {
   /** Puts a cell's bytes in the column's pool at `row` (as its decoded text when asked and not UTF-8). */
   private pooled(keep: Kept, row: number, bytes: Uint8Array, start: number, end: number): void {
     const pool = keep.pool!;
-    if (keep.asText && !isAscii(bytes, start, end) && !isUtf8(bytes.subarray(start, end)))
-      pool.setString(row, this.text(bytes, start, end));
-    else pool.setBytes(row, bytes, start, end);
+    if (keep.asText && !isAscii(bytes, start, end) && !isUtf8(bytes.subarray(start, end))) {
+      const text = this.text(bytes, start, end);
+      if (keep.links) this.keepWritten(keep, row, text, bytes, start, end);
+      pool.setString(row, text);
+    } else pool.setBytes(row, bytes, start, end);
   }
 
   record(fields: number, line: number): boolean {
@@ -314,6 +342,7 @@ export class CsvTableReader implements CsvSink {
         pool: keeping === Keeping.Text ? null : (shared ?? new NamePool()),
         values: new Float64Array(keeping === Keeping.Numbers ? 1024 : 0),
         asText: keeping === Keeping.Numbers || name === fields.idField,
+        links: [fields.idField, fields.parentField, fields.pathField, fields.childField].includes(name),
       };
       if (shared !== null) keep.earlier = name === fields.idField ? "id" : "name";
       this.kept.push(keep);

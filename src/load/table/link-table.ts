@@ -11,6 +11,7 @@ import { PathPlacer } from "../path-placer.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { fieldSizeUnit } from "../size-unit.js";
 import { ByteIdIndex, viewOf } from "./byte-id-index.js";
+import { checkWrittenIds, checkWrittenPaths } from "./check-written.js";
 import { IdIndex } from "./id-index.js";
 import { inexactId } from "./inexact-id.js";
 import { idIsNullParent, missingParent, nullParentSet } from "./null-parent.js";
@@ -56,13 +57,21 @@ function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): 
   if (table.length === 0) throw new EspalierError("INPUT_EMPTY", "the table has no data rows");
   const byteIds = table.pooledColumn?.(options.idField);
   const byteParents = byteIds && table.numberColumn?.(options.parentField);
-  if (byteIds && byteParents && byteIds.length >= table.length && byteIds.byteRuns() !== null)
+  if (byteIds && byteParents && byteIds.length >= table.length && byteIds.byteRuns() !== null) {
+    checkWrittenIds(table, [options.idField, options.parentField]);
     return linkByteIds(table, byteIds, byteParents, options);
+  }
   const ids = table.column(options.idField);
   const parents = ids && table.column(options.parentField);
-  if (ids && parents) return linkById(table, ids, parents, options);
+  if (ids && parents) {
+    checkWrittenIds(table, [options.idField, options.parentField]);
+    return linkById(table, ids, parents, options);
+  }
   const paths = table.column(options.pathField);
-  if (paths) return linkByPath(table, paths, options);
+  if (paths) {
+    checkWrittenPaths(table, options);
+    return linkByPath(table, paths, options);
+  }
   // A parent column beside a name column and no id column: parents written by name (an org chart's
   // manager column), which --id-field reads.
   const byName =

@@ -30,6 +30,18 @@ export interface Table {
   pooledColumn?(name: string): NamePool | undefined;
   /** The column's cells as numbers and bytes ({@link NumberCells}), when the table kept it so; else undefined. */
   numberColumn?(name: string): NumberCells | undefined;
+  /**
+   * The cells of an id, parent or path column whose bytes are not UTF-8, by row (from 0): as read (every
+   * bad sequence one U+FFFD) and as written (the bytes as Latin-1, one character each); undefined when
+   * none (see load/written-paths.ts).
+   */
+  writtenCells?(name: string): ReadonlyMap<number, WrittenCell> | undefined;
+}
+
+/** A cell whose bytes are not UTF-8: its text as read, and its bytes as Latin-1 (one character a byte). */
+export interface WrittenCell {
+  readonly read: string;
+  readonly written: string;
 }
 
 /**

@@ -89,7 +89,11 @@ describe("loadTreeFromStream(paths)", () => {
 
   it("loadTreeFromStream(paths) agrees with the reference on invalid UTF-8, stray bytes and odd sizes, however cut", async () => {
     // Invalid sequences (a lone 0xff, a cut 3-byte lead) become U+FFFD on both sides; the reader keys
-    // names on bytes, so two spellings of one name must not make two nodes.
+    // names on bytes, so two spellings of one name must not make two nodes. The reference decodes
+    // first, so where two lines write one folder in different bad bytes (0xff, 0xfe) it makes one node
+    // of two; the reader refuses that (DUPLICATE_PATH), and only that: read one character a byte
+    // (Latin-1, which tells every byte apart), the reference then finds more nodes, or, for an error
+    // the reference meets further on, already in the lines before the reader's.
     const pieces = [
       [0x61],
       [0x62],
@@ -108,6 +112,19 @@ describe("loadTreeFromStream(paths)", () => {
       [0xf0, 0x9f, 0x98, 0x80],
       [0xc2, 0xa0],
     ];
+    const options = opts({ format: "paths", file: "t.paths" });
+    // Whether the first `lines` lines of `bytes` hold two folders written in other bytes that read alike.
+    const mergedIn = (bytes: Uint8Array, lines: number) => {
+      let at = 0;
+      for (let k = 0; k < lines && at < bytes.length; k++) {
+        const end = bytes.indexOf(0x0a, at);
+        at = end === -1 ? bytes.length : end + 1;
+      }
+      const part = bytes.subarray(0, at);
+      const lossy = outcomeOf(() => loadByReference(part, options));
+      const lossless = outcomeOf(() => loadByReference(utf8(Buffer.from(part).toString("latin1")), options));
+      return "tree" in lossy && "tree" in lossless && lossless.tree.length > lossy.tree.length;
+    };
     await fc.assert(
       fc.asyncProperty(
         fc.array(fc.integer({ min: 0, max: pieces.length - 1 }), { maxLength: 60 }),
@@ -115,16 +132,65 @@ describe("loadTreeFromStream(paths)", () => {
         async (picks, seed) => {
           const r = rng(seed);
           const bytes = Uint8Array.from(picks.flatMap((k) => pieces[k]));
-          const options = opts({ format: "paths", file: "t.paths" });
           const expected = outcomeOf(() => loadByReference(bytes, options));
           for (const cuts of [[], cutsFor(r, bytes.length, r.int(0, 8)), everyByte(bytes.length)]) {
             const actual = await outcomeOfAsync(() => loadStreamed(bytes, options, cuts));
             if ("tree" in expected && "tree" in actual) expectSameTree(actual.tree, expected.tree);
-            else expect(actual).toEqual(expected);
+            else if (
+              "code" in actual &&
+              actual.code === "DUPLICATE_PATH" &&
+              JSON.stringify(actual) !== JSON.stringify(expected)
+            ) {
+              const line = (actual.pos as { line: number }).line;
+              expect(mergedIn(bytes, line), "a refusal only where two folders would be one").toBe(true);
+            } else expect(actual).toEqual(expected);
+          }
+          // And every merge the reference makes is refused.
+          if ("tree" in expected && mergedIn(bytes, Number.POSITIVE_INFINITY)) {
+            const actual = await outcomeOfAsync(() => loadStreamed(bytes, options, []));
+            expect(actual).toMatchObject({ code: "DUPLICATE_PATH" });
           }
         },
       ),
       { numRuns: 500 },
+    );
+  });
+
+  it("loadTreeFromStream(paths) refuses a listing exactly when two folders written in other bad bytes would be one", async () => {
+    // Names with bytes that are not UTF-8 (0xff, 0xfe; Latin-1 0xe9, 0xe8 before "t"), which the WHATWG
+    // decoder reads as U+FFFD: "a\xff" and "a\xfe" read alike. Read one character a byte (Latin-1),
+    // the reference tells them apart; read decoded, it makes one node of two. The reader must give the
+    // reference's tree when no two names merged, and DUPLICATE_PATH when any did.
+    const names = [[0x61], [0x61, 0xff], [0x61, 0xfe], [0xe9, 0x74], [0xe8, 0x74], [0x62]];
+    const options = opts({ format: "paths", file: "t.paths" });
+    await fc.assert(
+      fc.asyncProperty(
+        fc.array(fc.array(fc.integer({ min: 0, max: names.length - 1 }), { minLength: 1, maxLength: 3 }), {
+          minLength: 1,
+          maxLength: 8,
+        }),
+        fc.boolean(),
+        async (paths, sized) => {
+          const lines = paths.map((path, k) => [
+            ...(sized ? [...utf8(String(k + 1)), 0x09] : []),
+            ...path.flatMap((n, d) => (d === 0 ? names[n] : [0x2f, ...names[n]])),
+            0x0a,
+          ]);
+          const bytes = Uint8Array.from(lines.flat());
+          const lossy = outcomeOf(() => loadByReference(bytes, options));
+          const lossless = outcomeOf(() =>
+            loadByReference(utf8(Buffer.from(bytes).toString("latin1")), options),
+          );
+          const actual = await outcomeOfAsync(() => loadStreamed(bytes, options, everyByte(bytes.length)));
+          if ("tree" in lossy && "tree" in lossless && lossless.tree.length > lossy.tree.length)
+            expect(actual).toMatchObject({ code: "DUPLICATE_PATH" });
+          else if ("tree" in lossy && "tree" in actual) expectSameTree(actual.tree, lossy.tree);
+          else if ("tree" in lossy) expect.unreachable("no two names merged, yet the reader refused");
+          // A path named twice in the same bytes: DUPLICATE_PATH either way.
+          else expect(actual).toMatchObject({ code: lossy.code });
+        },
+      ),
+      { numRuns: 300 },
     );
   });
 
