@@ -119,6 +119,43 @@ export function loneRoot(
   );
 }
 
+/**
+ * FIELD_MISSING for a top-level object (mapping) that is no node but a map of nodes by name: it has no
+ * children field, while objects under it do (`below`: the first, by its key, and its field's line), as the
+ * value of a children field does (`--start-at /dependencies` of a package listing). A children-by-name
+ * object is read below the node that holds it, so the message names the pointer one level up
+ * (`startAt` without its last segment) or, with no `--start-at`, the document that holds this one.
+ */
+export function mapOfNodes(
+  childrenField: string,
+  below: { holder: string; line: number },
+  startAt: string | undefined,
+  words: "json" | "yaml",
+): EspalierError {
+  const object = words === "json" ? "object" : "mapping";
+  const up = startAt ? startAt.slice(0, startAt.lastIndexOf("/")) : undefined;
+  const remedy =
+    up === undefined
+      ? [
+          "such a map is read as the children field of the node that holds it, or every value with --read-as values",
+        ]
+      : up === ""
+        ? [
+            "such a map is read as the children field of the node that holds it: leave out --start-at to read the whole document, or read every value with --read-as values",
+          ]
+        : say`such a map is read as the children field of the node that holds it: --start-at ${quoted.path(up)}, or read every value with --read-as values`;
+  return new EspalierError(
+    "FIELD_MISSING",
+    say`the top-level ${object} has no children field "${childrenField}", but the ${object}s under it do (that of ${quoted.name(below.holder)} on line ${below.line}): it is a map of nodes by name, not a node, so it would be one node; ${remedy}`,
+    { line: below.line },
+    {
+      option: "--children-field",
+      field: childrenField,
+      remedies: up === undefined ? ["--read-as values"] : ["--start-at", "--read-as values"],
+    },
+  );
+}
+
 /** Whether an input must carry the size field: it was named, or differs from the default `size`. */
 export function sizeFieldNamed(options: { sizeField: string; sizeFieldNamed?: boolean }): boolean {
   return options.sizeFieldNamed === true || options.sizeField !== "size";

@@ -25,7 +25,9 @@ export interface ReadingNote {
  * (cli/input.ts readOneWay). `ROOT_IS_FOLDER`: a diff's path list that names its folder (`find proj`,
  * `find /srv/proj`) was compared from that folder down with the other version, which lists the folder's
  * contents without its name (cli/listing-start.ts). `SIZES_LEFT_OUT`: a diff's version with sizes was
- * compared without them, as the other version has none (cli/version-readings.ts).
+ * compared without them, as the other version has none (cli/version-readings.ts). `REPEATED_KEY`: JSON
+ * node objects in which a key repeats where the repeat drops nodes (a children-by-name object, a
+ * node's children field): the last value was read, as JSON.parse reads it (load/json/json-loader.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -33,6 +35,7 @@ export const readingNoteCodes = [
   "READ_AS_OTHER",
   "ROOT_IS_FOLDER",
   "SIZES_LEFT_OUT",
+  "REPEATED_KEY",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

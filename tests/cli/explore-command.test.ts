@@ -18,7 +18,8 @@ import { prepare } from "../../src/summarize.js";
 import { cli } from "../helpers/cli.js";
 import { leakedNames } from "../helpers/leaked-names.js";
 
-type Input = string | { resize: [number, number] } | { wait: number };
+/** A key, a resize, or a pause until the screen has shown `shown` (at most 30 s, then the next input). */
+type Input = string | { resize: [number, number] } | { shown: string };
 
 /** A terminal that types `inputs` one read at a time and records what is drawn. */
 class FakeTerminal implements Terminal {
@@ -44,8 +45,14 @@ class FakeTerminal implements Terminal {
       if (k >= this.inputs.length) return;
       const input = this.inputs[k];
       if (typeof input === "string") onBytes(new TextEncoder().encode(input));
-      else if ("wait" in input) {
-        setTimeout(() => feed(k + 1), input.wait);
+      else if ("shown" in input) {
+        // Waits for what was drawn, not for a time: a slow machine may take any while to read a file.
+        const until = Date.now() + 30_000;
+        const poll = () => {
+          if (this.written.includes(input.shown) || Date.now() > until) feed(k + 1);
+          else setTimeout(poll, 10);
+        };
+        poll();
         return;
       } else {
         [this.r, this.c] = input.resize;
@@ -395,8 +402,12 @@ describe("espalier explore", () => {
     const file = join(dir, "team.yaml");
     writeFileSync(file, "focus: [Rosa Istrian\n");
     const erase = "\u007f".repeat("foci.txt".length);
-    // The file is read and refused before the wait is over; then q.
-    const terminal = new FakeTerminal(["w", erase, file, "\r", { wait: 1000 }, "q"], 24, 200);
+    // The file is read and refused (a key pressed before that would end the view first); then q.
+    const terminal = new FakeTerminal(
+      ["w", erase, file, "\r", { shown: "USAGE (details hidden under --pseudonymize)" }, "q"],
+      24,
+      200,
+    );
     const env = { ESPALIER_PSEUDONYM_KEY: "kept-out-of-the-log" };
     await exploreCommand(ORG, undefined, options({ pseudonymize: true }), io(env), { terminal });
     expect(terminal.written).toContain("USAGE (details hidden under --pseudonymize)");
@@ -409,7 +420,7 @@ describe("espalier explore", () => {
     const file = join(dir, "team.yaml");
     symlinkSync("/dev/zero", file);
     const erase = "\u007f".repeat("foci.txt".length);
-    const terminal = new FakeTerminal(["w", erase, file, "\r", { wait: 1000 }, "q"], 24, 200);
+    const terminal = new FakeTerminal(["w", erase, file, "\r", { shown: "is a device" }, "q"], 24, 200);
     await exploreCommand(ORG, undefined, options(), io(), { terminal });
     expect(terminal.written).toContain("is a device");
     expect(lstatSync(file).isSymbolicLink()).toBe(true);

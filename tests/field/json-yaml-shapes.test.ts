@@ -116,3 +116,56 @@ describe("rows asked for in a document that holds them under a member", () => {
     expect(inPlace.input.startAt).toBe("/data");
   });
 });
+
+describe("a dependency listing with a key given twice (a merge left both sides of a conflict)", () => {
+  // npm ls --all --json shape, reduced to invented tidewater packages: "tide-core" appears twice under
+  // one "dependencies" object, its earlier value holding two packages of its own. RFC 8259 section 4:
+  // "The names within an object SHOULD be unique"; "many implementations report the last name/value
+  // pair only", as ECMA-262's JSON.parse does. Reading the last is right, but it was silent: the two
+  // packages of the earlier value were simply not counted.
+  const text = `{
+  "name": "tidewater",
+  "dependencies": {
+    "tide-core": { "version": "1.0.0", "dependencies": { "salt": { "version": "2.0.0" }, "brine": { "version": "1.1.0" } } },
+    "harbor-ui": { "version": "3.0.0" },
+    "tide-core": { "version": "1.2.0" }
+  }
+}
+`;
+
+  /** Nodes as JSON.parse reads the listing: the root and every package under "dependencies". */
+  const parsedNodes = (node: { dependencies?: Record<string, object> }): number =>
+    1 + Object.values(node.dependencies ?? {}).reduce<number>((sum, child) => sum + parsedNodes(child), 0);
+
+  it("counts what JSON.parse reads and says on standard error and in JSON which key repeated, and what was left", async () => {
+    const result = await cli(["-", "--format", "json", "--budget", "200"], { stdin: text });
+    expect(result.code).toBe(0);
+    const summary = JSON.parse(result.stdout);
+    // JSON.parse keeps the last "tide-core": tidewater, tide-core, harbor-ui.
+    expect(summary.totals.nodes).toBe(parsedNodes(JSON.parse(text)));
+    expect(summary.totals.nodes).toBe(3);
+    expect(summary.input.notes).toEqual([
+      expect.objectContaining({
+        code: "REPEATED_KEY",
+        line: 6,
+        message: expect.stringMatching(/"tide-core".*\(3 nodes\)/),
+      }),
+    ]);
+    expect(result.stderr).toMatch(
+      /^espalier: note: <stdin>:6: line 6 repeats the key "tide-core" .*\[REPEATED_KEY\]\n$/,
+    );
+  });
+
+  it("says nothing of a listing whose keys are each given once, and names no package under --pseudonymize", async () => {
+    const once = text
+      .replace(/\n {4}"tide-core": \{ "version": "1\.2\.0" \}/, "")
+      .replace('"3.0.0" },', '"3.0.0" }');
+    const plain = await cli(["-", "--format", "json"], { stdin: once });
+    expect(plain.stderr).toBe("");
+    expect(JSON.parse(plain.stdout).totals.nodes).toBe(parsedNodes(JSON.parse(once)));
+    const hidden = await cli(["-", "--pseudonymize"], { stdin: text, env: { ESPALIER_PSEUDONYM_KEY: "k" } });
+    expect(hidden.code).toBe(0);
+    expect(hidden.stderr).toMatch(/\[REPEATED_KEY\]/);
+    expect(hidden.stderr).not.toMatch(/tide-core/);
+  });
+});

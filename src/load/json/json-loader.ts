@@ -1,6 +1,7 @@
 import type { Buffer } from "node:buffer";
 import { EspalierError, type MessagePart, quoted, type SourcePos, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
+import type { ReadingNote } from "../../model/reading-note.js";
 import { isSize } from "../../model/size-rule.js";
 import { badNodeSize } from "../bad-node-size.js";
 import { describeNode } from "../describe-node.js";
@@ -9,6 +10,7 @@ import {
   atMostOneLevel,
   FieldsSeen,
   loneRoot,
+  mapOfNodes,
   missingField,
   nameFieldNamed,
   sizeFieldNamed,
@@ -143,6 +145,8 @@ export class JsonLoader extends JsonTokenizer {
   /** Whether the top level is an array (of nodes or rows). */
   private topList = false;
   private readonly rootContainers: string[] = [];
+  /** The first object under the top-level node that holds the children field: its key there, and the line. */
+  private childrenBelowTop: { holder: string; line: number } | undefined;
 
   // What the next value is for, and what each open container is.
   private slot = S_TOP;
@@ -162,6 +166,13 @@ export class JsonLoader extends JsonTokenizer {
   private unreadChildrenAt: { line: number; column: number } | undefined;
   /** Node objects not keyed by name: with no name anywhere, more than one is a tree of "" names. */
   private unkeyed = 0;
+  /**
+   * Keys repeated where a repeat drops nodes (in a children-by-name object, or a node's children field
+   * twice), the first such, and the nodes the earlier values held: a REPEATED_KEY note says so.
+   */
+  private repeats = 0;
+  private firstRepeat: { key: string; line: number } | undefined;
+  private droppedNodes = 0;
 
   /** `found`: espalier chose `options.childrenField` (the configured one was absent). */
   constructor(options: LoadOptions, as?: "json" | "rows", found = false) {
@@ -200,8 +211,11 @@ export class JsonLoader extends JsonTokenizer {
     }
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the top-level array holds no nodes");
-    if (sink.length === 1 && this.rootContainers.length > 0)
+    if (sink.length === 1 && this.rootContainers.length > 0) {
+      if (this.childrenBelowTop !== undefined && !this.topList)
+        throw mapOfNodes(this.options.childrenField, this.childrenBelowTop, this.options.startAt, "json");
       throw loneRoot(this.options.childrenField, this.rootContainers, "json", this.topList);
+    }
     if (this.unreadChildrenAt !== undefined && atMostOneLevel(sink.parentOf, sink.length))
       throw wrapperChildren(this.options.childrenField, this.unreadChildrenAt, "json");
     for (let i = 0; i < sink.length && !sink.hasSizes; i++) if (this.sized[i] === 1) sink.hasSizes = true;
@@ -237,6 +251,7 @@ export class JsonLoader extends JsonTokenizer {
       ...(this.found ? { childrenFieldFound: true } : {}),
       ...(emptyEntries > 0 ? { emptyEntries } : {}),
       ...(!this.hasNames && this.unkeyed > 1 ? { unnamed: this.options.nameField } : {}),
+      ...(this.repeats > 0 ? { notes: [this.repeatNote()] } : {}),
     });
     if (emptyEntries === 0) return linked;
     const empty = new Uint8Array(sink.length);
@@ -287,6 +302,10 @@ export class JsonLoader extends JsonTokenizer {
       this.slot = S_KEYED;
     } else {
       this.slot = S_SKIP;
+      // The children field in an object under the top-level node: the top may be a map of nodes by name.
+      if (top === 1 && this.role[0] === NODE && this.childrenBelowTop === undefined)
+        if (this.text(bytes, q, e, absQ) === this.options.childrenField)
+          this.childrenBelowTop = { holder: this.rootKey, line: this.pos.line };
     }
   }
 
@@ -433,9 +452,33 @@ export class JsonLoader extends JsonTokenizer {
   /** A later children field replaces an earlier one (JSON.parse keeps the last value of a key). */
   private dropChildren(frame: Frame): void {
     if (frame.childrenMark < 0) return;
+    this.repeated(this.options.childrenField);
+    this.droppedNodes += this.sink.length - frame.childrenMark;
     this.sink.truncate(frame.childrenMark);
     for (const column of this.kept) column.length = frame.childrenMark;
     frame.childrenMark = -1;
+  }
+
+  /** Counts a key repeated where the repeat drops the earlier value's nodes (see `repeats`). */
+  private repeated(key: string): void {
+    if (this.repeats++ === 0) this.firstRepeat = { key, line: this.pos.line };
+  }
+
+  /**
+   * REPEATED_KEY: JSON.parse keeps the last value of a repeated key, and so does this reading, so the
+   * earlier values' nodes are not in the tree; RFC 8259 section 4 leaves such an object's meaning to
+   * each reader ("names within an object SHOULD be unique"), so the reader is told.
+   */
+  private repeatNote(): ReadingNote {
+    const { key, line } = this.firstRepeat!;
+    const more =
+      this.repeats > 1 ? `, and ${this.repeats - 1} more key${this.repeats > 2 ? "s" : ""} so` : "";
+    const nodes = this.droppedNodes === 1 ? "1 node" : `${this.droppedNodes} nodes`;
+    return {
+      code: "REPEATED_KEY",
+      line,
+      parts: say`line ${line} repeats the key ${quoted.name(key)} of its object${more}: as JSON.parse does, the last value is read and the earlier ones (${nodes}) are not; RFC 8259 leaves a repeated key to each reader, so give each key once, or read every value with --read-as values`,
+    };
   }
 
   /** Adds the child named by the current key of the children-by-name object at `top`. */
@@ -443,6 +486,7 @@ export class JsonLoader extends JsonTokenizer {
     const map = this.frames[top];
     const key = this.slotKey;
     const j = this.addNode(map.node, key, column);
+    if (map.keys.has(key)) this.repeated(key);
     if (map.keys.has(key) || isArrayIndexKey(key)) map.reorder = true;
     map.keys.add(key);
     map.children.push(j);
@@ -605,7 +649,14 @@ export class JsonLoader extends JsonTokenizer {
     } else if (role === CHILD_MAP) {
       if (frame.reorder) {
         const mark = this.frames[top - 1].childrenMark;
-        reorderKeyedChildren(this.sink, this.sized, this.kept, frame.node, mark, frame.children);
+        this.droppedNodes += reorderKeyedChildren(
+          this.sink,
+          this.sized,
+          this.kept,
+          frame.node,
+          mark,
+          frame.children,
+        );
       }
       frame.keys.clear();
       frame.children.length = 0;

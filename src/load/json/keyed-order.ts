@@ -8,7 +8,7 @@ import type { NodeSink } from "../node-sink.js";
  *
  * `children` lists the children of `owner` in input order; each child's subtree is the index range up to
  * the next child (or the end of the sink), all of it after `mark`. Rewrites that tail of the sink, of
- * the `sized` flags and of the `kept` columns.
+ * the `sized` flags and of the `kept` columns; returns how many nodes the dropped earlier values held.
  */
 export function reorderKeyedChildren(
   sink: NodeSink,
@@ -17,7 +17,7 @@ export function reorderKeyedChildren(
   owner: number,
   mark: number,
   children: readonly number[],
-): void {
+): number {
   const end = sink.length;
   const count = children.length;
   const lastOf = new Map<string, number>();
@@ -68,6 +68,7 @@ export function reorderKeyedChildren(
     kept[f].length = mark;
     for (let x = 0; x < total; x++) kept[f].push(columns[f][x]);
   }
+  return end - mark - total;
 }
 
 /** Whether JSON.parse treats `key` as an array index: "0", or digits without a leading 0 up to 2^32 - 2. */
