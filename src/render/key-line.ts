@@ -110,7 +110,10 @@ export function keyLines(
   const marks = markWords(kind, facts.marks, style);
   const compact = markWords(kind, facts.marks, style, true);
   const tiny = markWords(kind, facts.marks, style, "tiny");
-  const first = [marks, compact, tiny].map((m) => `key: ${m}`).find((t) => displayWidth(t) <= room);
+  const fitting = [marks, compact, tiny].map((m) => `key: ${m}`).find((t) => displayWidth(t) <= room);
+  // Marks too many for the first line in their fewest words: those that do not fit open the second,
+  // so every mark on screen is said (a cut `'.'…` says nothing).
+  const [first, over] = fitting === undefined ? splitMarks(kind, facts.marks, style, room) : [fitting, ""];
   const parts = explanations(kind, facts);
   const tries: string[][] = [0, 1, 2].map((tier) => parts.map((p) => p[tier]));
   for (let n = parts.length - 1; n >= 2; n--) tries.push(parts.slice(0, n).map((p) => p[2]));
@@ -119,11 +122,13 @@ export function keyLines(
   const sized = parts.filter((p) => p[3] === "sizes");
   if (sized.length > 0) tries.push(sized.map((p) => p[2]));
   tries.push([parts[0][2]]);
-  const second = tries.map((t) => `${ROW_INDENT}${t.join("; ")}`).find((t) => displayWidth(t) <= room);
-  return [
-    first ?? shortenEnd(`key: ${tiny}`, room),
-    second ?? shortenEnd(`${ROW_INDENT}${parts[0][2]}`, room),
-  ];
+  // What no sum on screen can do without, in fewest words, before the leftover marks alone.
+  const least = [...(facts.sizesLeftOut ? [SIZES_GONE] : []), ...sized.map((p) => p[2])];
+  if (least.length > 0) tries.push(least);
+  if (over !== "") tries.push([]);
+  const row = (t: string[]) => `${ROW_INDENT}${[...(over ? [over] : []), ...t].join("; ")}`;
+  const second = tries.map(row).find((t) => displayWidth(t) <= room);
+  return [first, second ?? shortenEnd(row([parts[0][2]]), room)];
 }
 
 /** The key's second line starts as a wrapped header line does. */
@@ -146,6 +151,7 @@ export function keyLine(
 ): string {
   const marks = markWords(kind, facts.marks, style);
   const compact = style === "markdown" ? marks : markWords(kind, facts.marks, style, true);
+  const tiny = style === "markdown" ? marks : markWords(kind, facts.marks, style, "tiny");
   const [numbers, ...rest] = explanations(kind, facts);
   const cuts = rest.filter((p) => p[3] === "cut");
   // Sizes left out, or cut from a line, stay said however short the key (see `explanations`).
@@ -166,12 +172,18 @@ export function keyLine(
     [compact, ...must, ...short(cuts)],
   ];
   for (let n = cuts.length - 1; n >= 0; n--) tries.push([compact, ...must, ...short(cuts.slice(0, n))]);
+  // Fewer letters still for the marks, and what no sum on screen can do without said in fewest words.
+  const least = [...(facts.sizesLeftOut ? [SIZES_GONE] : []), ...sized.map((p) => p[2])];
+  tries.push([tiny, ...must], [tiny, ...least]);
   for (const parts of tries) {
     const text = `key: ${parts.filter((part) => part !== "").join("; ")}`;
     if (width === undefined || displayWidth(text) <= width) return text;
   }
-  return shortenEnd(`key: ${compact}`, width!);
+  return shortenEnd(`key: ${tiny}`, width!);
 }
+
+/** Sizes left out of every line, in fewest words. */
+const SIZES_GONE = "sizes cut";
 
 /**
  * One thing the key explains, in long, short and shortest words, and what it is: the numbers, what
@@ -267,9 +279,11 @@ function markWords(
     const meaning = compact
       ? diff
         ? compact === "tiny"
-          ? "changed or above"
+          ? "changed/above"
           : "change or above one"
-        : "above a focus"
+        : compact === "tiny"
+          ? "on path"
+          : "above a focus"
       : pathWords(kind, marks.has(MARK.focus));
     if (md) words.push(`bold = ${meaning}`);
     else say(MARK.path, meaning);
@@ -288,6 +302,24 @@ function markWords(
   }
   if (marks.has(MARK.reference)) say(MARK.reference, compact ? "elsewhere" : "shown in full elsewhere");
   return words.join(", ");
+}
+
+/**
+ * The marks in their fewest words split over two key lines: as many as fit `room` after `key: ` on
+ * the first, the rest (joined) to open the second (see `keyLines`).
+ */
+function splitMarks(
+  kind: "summary" | "diff",
+  marks: ReadonlySet<string>,
+  style: "text" | "markdown",
+  room: number,
+): [string, string] {
+  // Each mark's fewest words hold no comma of their own.
+  const said = markWords(kind, marks, style, "tiny").split(", ");
+  let k = said.length;
+  while (k > 1 && displayWidth(`key: ${said.slice(0, k).join(", ")}`) > room) k--;
+  const first = shortenEnd(`key: ${said.slice(0, k).join(", ")}`, room);
+  return [first, said.slice(k).join(", ")];
 }
 
 function pathWords(kind: "summary" | "diff", focus: boolean): string {

@@ -6,7 +6,7 @@ import { diffTrees } from "../../src/diff/diff-trees.js";
 import type { DiffViewNode } from "../../src/diff/diff-view.js";
 import { renderDiffText } from "../../src/render/diff-text.js";
 import { displayWidth } from "../../src/render/display-width.js";
-import { KEY_MIN_BUDGET, keyFacts, keyLine } from "../../src/render/key-line.js";
+import { KEY_MIN_BUDGET, keyFacts, keyLine, keyLines } from "../../src/render/key-line.js";
 import { MIN_WIDTH } from "../../src/render/line-layout.js";
 import { MARK } from "../../src/render/marks.js";
 import { renderText } from "../../src/render/summary-text.js";
@@ -96,7 +96,9 @@ describe("keyLine(kind, facts, width)", () => {
     expect(keyLine("summary", facts, 56)).toBe("key: '*' a focus, ':' on the way to a focus, '.' other");
     // Narrower: each mark in a word or two, so every mark still has its meaning.
     expect(keyLine("summary", facts, 50)).toBe("key: '*' focus, ':' above a focus, '.' other");
-    expect(keyLine("summary", facts, MIN_WIDTH)).toBe("key: '*' focus, ':' above a f…");
+    // Narrower still, fewer letters: at 40 columns every mark is said.
+    expect(keyLine("summary", facts, 40)).toBe("key: '*' focus, ':' on path, '.' other");
+    expect(keyLine("summary", facts, MIN_WIDTH)).toBe("key: '*' focus, ':' on path,…");
     for (let width = MIN_WIDTH; width <= 200; width++)
       for (const kind of ["summary", "diff"] as const)
         expect(displayWidth(keyLine(kind, facts, width))).toBeLessThanOrEqual(width);
@@ -192,5 +194,34 @@ describe("the key line on the command line", () => {
       stdin: deep,
     });
     expect(over.stderr).toContain("[BUDGET_TOO_SMALL]");
+  });
+});
+
+describe("keyLines(kind, facts, width) at 40 and 60 columns (field test: '.' cut from the key)", () => {
+  // Field test: at 38-40 columns a summary's key ended "'.'…" and a diff's lost its '.', so the screen
+  // did not say what its marks meant; at 60 a diff's key with three marks lost "sizes cut".
+  const three = { marks: new Set([MARK.focus, MARK.path, MARK.other]), chains: true };
+
+  it("says every mark on screen: those the first line cannot hold open the second", () => {
+    expect(keyLines("diff", three, 40)).toEqual([
+      "key: '*' focus, ':' changed/above",
+      "  '.' unchanged; N nodes: all below",
+    ]);
+    for (const width of [40, 45, 50, 55, 59])
+      for (const kind of ["summary", "diff"] as const) {
+        const text = keyLines(kind, three, width).join("\n");
+        for (const mark of three.marks) expect(text, `${kind} ${width}`).toContain(`'${mark}' `);
+      }
+  });
+
+  it("keeps saying that sizes were left out, in fewest words where need be", () => {
+    const cut = { ...three, sizesLeftOut: true };
+    expect(keyLines("diff", cut, 40)).toEqual([
+      "key: '*' focus, ':' changed/above",
+      "  '.' unchanged; sizes cut",
+    ]);
+    expect(keyLine("diff", cut, 60)).toBe("key: '*' focus, ':' changed/above, '.' unchanged; sizes cut");
+    for (const width of [40, 50, 60, 80, 100, 120])
+      expect(keyLines("diff", cut, width).join("\n"), `${width}`).toMatch(/sizes (cut|left out)/);
   });
 });
