@@ -28,7 +28,8 @@ export interface ReadingNote {
  * compared without them, as the other version has none (cli/version-readings.ts). `REPEATED_KEY`: JSON
  * node objects in which a key repeats where the repeat drops nodes (a children-by-name object, a
  * node's children field), or an id repeats in a JSON adjacency map: the last value was read, as
- * JSON.parse reads it (load/json/json-loader.ts, load/graph-input.ts).
+ * JSON.parse reads it (load/json/json-loader.ts, load/graph-input.ts). `UNSIZED_IMPORTANCE`:
+ * `--importance size` on an input without sizes, which ranks as `--importance depth` (cli/input.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -37,6 +38,7 @@ export const readingNoteCodes = [
   "ROOT_IS_FOLDER",
   "SIZES_LEFT_OUT",
   "REPEATED_KEY",
+  "UNSIZED_IMPORTANCE",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];
