@@ -70,7 +70,9 @@ export async function exploreCommand(
   let session: Session;
   if (newInput === undefined) {
     const tree = await loadInput(io, input, opts);
-    session = summarySession(prepare(tree), look(tree));
+    // The header says of the input what `espalier` says (what the size measures, the reading chosen…).
+    const facts = inputFacts(outputSettings(opts, io, tree));
+    session = summarySession(prepare(tree), { ...look(tree), inputFacts: facts });
   } else {
     // Kept as `espalier diff` keeps them: the fields it compares by default (`version`).
     const [oldTree, newTree] = await loadVersions(io, input, newInput, { ...opts, compareField: [] });

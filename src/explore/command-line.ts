@@ -26,8 +26,8 @@ export function shellQuote(arg: string): string {
 /**
  * The command line that prints the view: `head` (the program, the inputs and the options that shape the
  * tree and its labels, as arguments), then one `--focus` per focus path, the budget, and `--bare` when
- * the view shows no header line (a summary's; a diff's screen starts with its header, as the CLI's does),
- * else `--no-key` (the screen has its own key row, not the key line under the header).
+ * the view shows no header line. A screen that starts with its header and key prints as the CLI's
+ * output does (same rows, the key's pointer to more aside: the view's help is `h`).
  */
 export function commandLine(
   head: readonly string[],
@@ -39,7 +39,7 @@ export function commandLine(
   const args = [...head];
   for (const path of fociPaths) args.push("--focus", path);
   // Without a header line on the screen, --bare makes the printed command spend its budget on the same
-  // tree; with one, --no-key does (the screen has no key line under its header).
-  args.push("--budget", String(budget), bare ? "--bare" : "--no-key", ...tail);
+  // tree; with one, the header and key are the CLI's own.
+  args.push("--budget", String(budget), ...(bare ? ["--bare"] : []), ...tail);
   return args.map(shellQuote).join(" ");
 }

@@ -3,6 +3,7 @@ import { diffOrder } from "../diff/diff-order.js";
 import { DIFF_HEADER_LINES, type DiffResult, summarizeDiff } from "../diff/diff-trees.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
 import type { PreparedDiff } from "../diff/prepared-diff.js";
+import { EspalierError } from "../errors.js";
 import type { Selection } from "../fit/select.js";
 import type { Importance } from "../interest/importance.js";
 import { type NodeOrder, nodeOrder } from "../interest/order.js";
@@ -10,14 +11,17 @@ import type { Measures } from "../model/measure.js";
 import type { PathIndex } from "../model/path-index.js";
 import { printedNames } from "../model/printed-names.js";
 import type { Tree } from "../model/tree.js";
+import type { NumberOptions } from "../render/amount.js";
 import { diffLineParts } from "../render/diff-line-parts.js";
 import type { Units } from "../render/format-size.js";
-import { diffHeaderLines, type InputFacts } from "../render/header.js";
-import { lineGroups } from "../render/line-groups.js";
-import { layoutLine } from "../render/line-layout.js";
+import { diffHeaderLines, fociOf, type InputFacts, summaryHeaderLines } from "../render/header.js";
+import { KEY_MIN_BUDGET, keyContext, keyFacts, keyLines, keyRows } from "../render/key-line.js";
+import { type LineGroup, lineGroups } from "../render/line-groups.js";
+import type { LineParts } from "../render/line-layout.js";
 import { lineParts } from "../render/line-parts.js";
 import type { Palette } from "../render/palette.js";
-import { type Prepared, type SummarizeOptions, summarize } from "../summarize.js";
+import { screenLines } from "../render/screen-lines.js";
+import { type Prepared, type SummarizeOptions, type SummaryResult, summarize } from "../summarize.js";
 import type { ViewNode } from "../view/view-node.js";
 import { NameSearch } from "./search.js";
 
@@ -69,7 +73,7 @@ export interface Session {
   nameOf(i: number): string;
   /** Nodes that n and N visit before any search: a diff's changed nodes, in pre-order. */
   readonly landmarks: Int32Array;
-  /** Lines the fit of a budget's view takes at least (the diff's totals line). */
+  /** Lines the fit of a budget's view takes at least (the header's first line). */
   readonly headerLines: number;
   /** The view for these foci (sorted node indices) within `budget` lines of `width` columns. */
   fit(foci: Int32Array, budget: number, importance: Importance, width: number): Fitted;
@@ -84,23 +88,37 @@ export function summarySession(prepared: Prepared, look: LookOptions): Session {
     kind: "summary",
     ...sessionOf(tree, measures, index, look),
     landmarks: new Int32Array(0),
-    headerLines: 0,
-    fit: remember((foci, budget, importance, width) => {
-      const result = summarize(prepared, fitOptions(index, look, foci, budget, importance));
-      // The lines `espalier` prints, through the shared line layout (render/line-layout.ts).
-      const numbers = { units: look.units, sizes: tree.hasSizes };
-      const lineOf = lineGroups(result.view, look.chains);
-      const groups = lineOf.map((g) => g.nodes.map((n) => n.index));
-      const lines = lineOf.map((g) => layoutLine(lineParts(g, numbers), { width, palette: look.palette }));
-      return fitted(
-        lines,
-        groups,
-        result.selection,
-        nodeOrder(tree, measures, result.scores),
-        0,
-        result.view,
-      );
-    }),
+    headerLines: 1,
+    fit: remember(
+      smallestThatFits((foci, budget, importance, width) => {
+        // The header and the key take the screen's first rows as `espalier` prints them; the key gives
+        // way on a small screen, and a header wider than the screen wraps, the fit counting its rows.
+        const key = keyRowsOf(budget, width);
+        const options = { ...fitOptions(index, look, foci, budget, importance), spareLines: key };
+        const numbers = { units: look.units, sizes: tree.hasSizes };
+        const head = (result: SummaryResult, lines: number) =>
+          summaryHeaderLines(
+            result.view.data,
+            { budget, lines, foci: fociOf(result.view), ...look.inputFacts },
+            numbers,
+            width,
+          );
+        let result = summarize(prepared, { ...options, headerLines: 1 + key });
+        const rows = head(result, budget).length;
+        if (rows > 1) result = summarize(prepared, { ...options, headerLines: rows + key });
+        const header = head(result, result.selection.lines);
+        const lineOf = lineGroups(result.view, look.chains);
+        const keyed = result.selection.spared ? 0 : key;
+        const { lines, groups } = screenOf("summary", lineOf, lineParts, header, keyed, {
+          numbers,
+          width,
+          look,
+          foci: fociOf(result.view),
+        });
+        const order = nodeOrder(tree, measures, result.scores);
+        return fitted(lines, groups, result.selection, order, lines.length - lineOf.length, result.view);
+      }),
+    ),
   };
 }
 
@@ -115,33 +133,76 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
     ...sessionOf(tree, measures, index, look),
     landmarks: Int32Array.from(changed),
     headerLines: DIFF_HEADER_LINES,
-    fit: remember((foci, budget, importance, width) => {
-      const options = fitOptions(index, look, foci, budget, importance);
-      const numbers = { units: look.units, sizes: tree.hasSizes };
-      const head = (result: DiffResult, lines: number) =>
-        diffHeaderLines(
-          result.totals,
-          combined.by,
-          { budget, lines, foci: result.fociPaths, ...look.inputFacts },
+    fit: remember(
+      smallestThatFits((foci, budget, importance, width) => {
+        const key = keyRowsOf(budget, width);
+        const options = { ...fitOptions(index, look, foci, budget, importance), spareLines: key };
+        const numbers = { units: look.units, sizes: tree.hasSizes };
+        const head = (result: DiffResult, lines: number) =>
+          diffHeaderLines(
+            result.totals,
+            combined.by,
+            { budget, lines, foci: result.fociPaths, ...look.inputFacts },
+            numbers,
+            width,
+          );
+        // The totals header wraps at the width as `espalier diff` prints it, and the fit counts its lines.
+        let result = summarizeDiff(prepared, { ...options, headerLines: DIFF_HEADER_LINES + key });
+        const rows = head(result, budget).length;
+        if (rows > DIFF_HEADER_LINES)
+          result = summarizeDiff(prepared, { ...options, headerLines: rows + key });
+        const header = head(result, result.selection.lines);
+        // The header, the key, then the diff's lines laid out as one screen, as `espalier diff` prints.
+        const lineOf = lineGroups(result.view, look.chains);
+        const keyed = result.selection.spared ? 0 : key;
+        const { lines, groups } = screenOf("diff", lineOf, diffLineParts, header, keyed, {
           numbers,
           width,
-        );
-      // The totals header wraps at the width as `espalier diff` prints it, and the fit counts its lines.
-      let result = summarizeDiff(prepared, { ...options, headerLines: DIFF_HEADER_LINES });
-      const rows = head(result, budget).length;
-      if (rows > DIFF_HEADER_LINES) result = summarizeDiff(prepared, { ...options, headerLines: rows });
-      const header = head(result, result.selection.lines);
-      // The header, then the diff's lines through the shared line layout, as `espalier diff` prints.
-      const lineOf = lineGroups(result.view, look.chains);
-      const lines = [
-        ...header,
-        ...lineOf.map((g) => layoutLine(diffLineParts(g, numbers), { width, palette: look.palette })),
-      ];
-      const groups = [...header.map(() => []), ...lineOf.map((g) => g.nodes.map((n) => n.index))];
-      const order = diffOrder(tree, measures, result.scores, changeMeasures);
-      return fitted(lines, groups, result.selection, order, header.length, result.view);
-    }),
+          look,
+          foci: result.fociPaths,
+        });
+        const order = diffOrder(tree, measures, result.scores, changeMeasures);
+        return fitted(lines, groups, result.selection, order, lines.length - lineOf.length, result.view);
+      }),
+    ),
   };
+}
+
+/** Rows the key takes on a screen of `budget` rows for the tree (see `keyRows`); none on a small one. */
+function keyRowsOf(budget: number, width: number): number {
+  return budget >= KEY_MIN_BUDGET ? keyRows(width) : 0;
+}
+
+/**
+ * A screen's rows as `espalier` prints them: the header, the key (`keyed` rows, 0 for none) saying
+ * what the marks and numbers below mean, then the lines laid out together (see `screenLines`: a line
+ * whose sizes do not fit says `size cut`, or the whole screen leaves sizes out), each row with the
+ * nodes it shows.
+ */
+function screenOf<T extends ViewNode>(
+  kind: "summary" | "diff",
+  lineOf: LineGroup<T>[],
+  parts: (group: LineGroup<T>, options: NumberOptions) => LineParts,
+  header: readonly string[],
+  keyed: number,
+  {
+    numbers,
+    width,
+    look,
+    foci,
+  }: { numbers: NumberOptions; width: number; look: LookOptions; foci: readonly string[] },
+): { lines: string[]; groups: number[][] } {
+  const screen = screenLines(lineOf, parts, { ...numbers, width, palette: look.palette });
+  const quiet = look.palette?.quiet ?? ((t: string) => t);
+  const context = keyContext({
+    sizes: numbers.sizes,
+    header: { budget: 0, lines: 0, foci, ...look.inputFacts },
+  });
+  const facts = { ...keyFacts(screen.parts, context, screen), more: "h" };
+  const key = keyed > 0 ? keyLines(kind, facts, width).map(quiet) : [];
+  const lines = [...header, ...key, ...screen.lines];
+  const groups = [...[...header, ...key].map(() => []), ...lineOf.map((g) => g.nodes.map((n) => n.index))];
+  return { lines, groups };
 }
 
 /** What a session of either kind holds of its tree: the tree, how its nodes print, and the live search. */
@@ -193,6 +254,48 @@ function fitted(
 }
 
 type FitFn = Session["fit"];
+
+/** Budgets above a refused one tried for the one that fits (the header's rows and the key's vary with it). */
+const SMALLEST_TRIES = 8;
+
+/**
+ * A fit whose refusal (BUDGET_TOO_SMALL) names a budget that fits: the fit's own smallest budget counts
+ * the rows the header and key take at the budget refused, and a larger budget may wrap the header
+ * otherwise (it says `9 of 9 lines`) or hold the key, so the budgets from it up are tried.
+ */
+function smallestThatFits(compute: FitFn): FitFn {
+  return (foci, budget, importance, width) => {
+    try {
+      return compute(foci, budget, importance, width);
+    } catch (err) {
+      const smallest = tooSmall(err);
+      if (smallest === undefined) throw err;
+      for (let b = Math.max(smallest, budget + 1); b < smallest + SMALLEST_TRIES; b++) {
+        try {
+          compute(foci, b, importance, width);
+        } catch (again) {
+          if (tooSmall(again) === undefined) throw again;
+          continue;
+        }
+        if (b === smallest) throw err;
+        throw new EspalierError(
+          "BUDGET_TOO_SMALL",
+          `a budget of ${budget} lines cannot hold the root and the focus paths; the smallest budget that works is ${b}`,
+          undefined,
+          { budget, smallest: b },
+        );
+      }
+      throw err;
+    }
+  };
+}
+
+/** The smallest budget a BUDGET_TOO_SMALL error names, or undefined for any other error. */
+function tooSmall(err: unknown): number | undefined {
+  if (!(err instanceof EspalierError) || err.code !== "BUDGET_TOO_SMALL") return undefined;
+  const smallest = err.details.smallest;
+  return typeof smallest === "number" ? smallest : undefined;
+}
 
 /**
  * The last few fits, by their arguments: a screen is drawn after every key, and a move is first tried

@@ -29,7 +29,7 @@ export function shortenMiddle(text: string, width: number): string {
   if (width === 1) return ELLIPSIS;
   const graphemes = graphemesOf(text);
   const { head, tail } = middleCut(graphemes, graphemes.map(displayWidth), width);
-  return graphemes.slice(0, head).join("") + ELLIPSIS + graphemes.slice(tail).join("");
+  return `${graphemes.slice(0, head).join("").trimEnd()}${ELLIPSIS}${graphemes.slice(tail).join("").trimStart()}`;
 }
 
 /** Of graphemes too wide for `width` (at least 2): how many stay at the start, and where the end resumes. */
@@ -44,7 +44,7 @@ function middleCut(graphemes: string[], widths: number[], width: number): { head
   return { head, tail };
 }
 
-/** Cuts text at the end to at most `width` columns, marking the cut with an ellipsis. */
+/** Cuts text at the end to at most `width` columns, marking the cut with an ellipsis right after the last character kept (no space before it). */
 export function shortenEnd(text: string, width: number): string {
   if (displayWidth(text) <= width) return text;
   if (width <= 0) return "";
@@ -56,7 +56,8 @@ export function shortenEnd(text: string, width: number): string {
     out += grapheme;
     used += w;
   }
-  return out + ELLIPSIS;
+  // A cut after a space reads as a word cut away: `size …` would say less than `size…`.
+  return out.trimEnd() + ELLIPSIS;
 }
 
 /**

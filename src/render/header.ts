@@ -380,15 +380,40 @@ const HEADER_INDENT = "  ";
 export function wrapHeader(parts: HeaderParts, header: HeaderOptions, width: number | undefined): string[] {
   const text = (k: number) => parts(k, header).join("; ");
   if (width === undefined) return [text(FOCI_SHOWN)];
-  for (let k = FOCI_SHOWN; k >= 1; k--) if (displayWidth(text(k)) <= width) return [text(k)];
+  // One line only when it would be one with the whole budget used (`40 of 40 lines`): the fit counted
+  // the rows so, and a header one row shorter would make its own count of lines wrong.
+  const most = (k: number) => parts(k, { ...header, lines: header.budget }).join("; ");
+  for (let k = FOCI_SHOWN; k >= 1; k--) if (displayWidth(most(k)) <= width) return [text(k)];
   const widest = parts(1, { ...header, lines: header.budget });
   const lines = packClauses(widest, width);
   const last = widest[widest.length - 1];
   const actual = parts(1, header);
-  const end = lines.length - 1;
-  if (!lines[end].endsWith(last)) return packClauses(actual, width);
-  lines[end] = lines[end].slice(0, lines[end].length - last.length) + actual[actual.length - 1];
-  return lines;
+  return lastClauseReplaced(lines, last, actual[actual.length - 1]) ?? packClauses(actual, width);
+}
+
+/**
+ * `lines` with their last clause `was` (`40 of 40 lines`) written as `now` (`12 of 40 lines`), word for
+ * word where it stands, so the header takes the rows the fit counted even where `was` broke over two
+ * lines and `now` would not; null when the two do not have the same words in number, or `was` is not
+ * at the end whole (a word cut).
+ */
+function lastClauseReplaced(lines: readonly string[], was: string, now: string): string[] | null {
+  const before = was.split(" ");
+  const after = now.split(" ");
+  if (before.length !== after.length) return null;
+  const out = [...lines];
+  let left = before.length;
+  for (let i = out.length - 1; i >= 0 && left > 0; i--) {
+    const body = out[i].trimStart();
+    const indent = out[i].slice(0, out[i].length - body.length);
+    const words = body.split(" ");
+    const n = Math.min(left, words.length);
+    const tail = words.slice(words.length - n);
+    if (tail.join(" ") !== before.slice(left - n, left).join(" ")) return null;
+    out[i] = indent + [...words.slice(0, words.length - n), ...after.slice(left - n, left)].join(" ");
+    left -= n;
+  }
+  return left === 0 ? out : null;
 }
 
 /** Clauses `; `-joined into lines of at most `width` columns (see {@link wrapHeader}). */

@@ -34,6 +34,8 @@ export interface KeyFacts {
   readonly namesCut?: boolean;
   /** Whether a diff's fold left out how many changed nodes it holds (`(41 hidden)`). */
   readonly changesCut?: boolean;
+  /** Where the reader finds more (the interactive view's help key); default `--legend`. */
+  readonly more?: string;
 }
 
 /** What the width took away from the laid-out lines (see `ScreenLines`), for the key. */
@@ -150,7 +152,7 @@ export function keyLine(
   const sized = rest.filter((p) => p[3] === "sizes");
   const must = [...(facts.sizesLeftOut ? [numbers[2]] : []), ...sized.map((p) => p[2])];
   const chain = rest.filter((p) => p[3] === "chain");
-  const more = "--legend explains more";
+  const more = moreWords(facts);
   const long = (ps: Explanation[]) => ps.map((p) => p[0]);
   const short = (ps: Explanation[]) => ps.map((p) => p[1]);
   const tries = [
@@ -239,7 +241,8 @@ function explanations(kind: "summary" | "diff", facts: KeyFacts): Explanation[] 
     ]);
   if (facts.namesCut)
     said.push([`'${ELLIPSIS}' a name cut to fit`, `'${ELLIPSIS}' cut name`, `'${ELLIPSIS}' cut`, "cut"]);
-  said.push(["--legend explains more", "--legend explains more", "--legend explains more", "more"]);
+  const more = moreWords(facts);
+  said.push([more, more, more, "more"]);
   return said;
 }
 
@@ -299,4 +302,9 @@ export function keyContext(options: { sizes?: boolean; header?: HeaderOptions })
     ...(options.header?.sizeName === undefined ? {} : { sizeName: options.header.sizeName }),
     ...(options.header ? { foci: options.header.foci } : {}),
   };
+}
+
+/** The key's pointer to more: `--legend explains more`, or where a screen keeps its own legend. */
+function moreWords(facts: KeyFacts): string {
+  return `${facts.more ?? "--legend"} explains more`;
 }

@@ -78,6 +78,13 @@ describe("shortenMiddle(text, width) and shortenEnd(text, width)", () => {
     );
   });
 
+  it("puts the ellipsis right after the last character kept, never after a space", () => {
+    // An explore screen cut its status text as "size …": a cut word read as a word left out.
+    expect(shortenEnd("size 1.4 MiB", 6)).toBe(`size${ELLIPSIS}`);
+    expect(shortenEnd("size 1.4 MiB", 7)).toBe(`size 1${ELLIPSIS}`);
+    expect(shortenMiddle("ledger / core / src", 9)).toBe(`ledg${ELLIPSIS}src`);
+  });
+
   it("never cuts a wide character or a grapheme cluster in half", () => {
     const out = shortenMiddle("山田太郎山田太郎", 7);
     expect(displayWidth(out)).toBeLessThanOrEqual(7);
@@ -147,7 +154,7 @@ describe("renderText(view, { width })", () => {
     expect(at(53)).toBe("  . Esme Orb…  3 nodes, 123,459  (hidden: 2 nodes, 3)");
     // Then down to 4 columns, every number still exact (compact numbers, 123k, would save fewer
     // columns than the name gives).
-    expect(at(50)).toBe("  . Esme …  3 nodes, 123,459  (hidden: 2 nodes, 3)");
+    expect(at(50)).toBe("  . Esme…  3 nodes, 123,459  (hidden: 2 nodes, 3)");
     // Narrower, the name gives way again down to 4 columns while the numbers turn compact, every
     // number kept; the chain's line cannot keep its sizes so: it leaves them all out and says so in
     // their place, its count kept (5 = 2 names + 3 hidden), and the other lines keep theirs.
@@ -157,7 +164,7 @@ describe("renderText(view, { width })", () => {
       "  . alp… / beta  5 nodes, size cut  (3 hidden)",
     ]);
     // The count stays down to the narrowest width the renderers take: the name gives way.
-    expect(at(36)).toBe("  . Esme Orby …  3 nodes  (2 hidden)");
+    expect(at(36)).toBe("  . Esme Orby…  3 nodes  (2 hidden)");
     expect(at(MIN_WIDTH)).toBe("  . Esme…  3 nodes  (2 hidden)");
     const chain = (width: number) => lines(width)[2];
     // The line's numbers are alpha's (with all below it); the narrow fold counts beta's hidden nodes,

@@ -16,8 +16,31 @@ describe("wrapWords(text, width, indent)", () => {
     ]);
   });
 
-  it("keeps a number with the word after it", () => {
-    expect(wrapWords("size 258.3 MiB -> 270.5 MiB", 23)).toEqual(["size 258.3 MiB ->", "270.5 MiB"]);
+  it("keeps a number with the word after it, and with the word before it", () => {
+    // The arrow's ends give way first: each value stays with its unit and the word that names it.
+    expect(wrapWords("size 258.3 MiB -> 270.5 MiB", 23)).toEqual(["size 258.3 MiB", "-> 270.5 MiB"]);
+    expect(wrapWords("size 258.3 MiB -> 270.5 MiB", 27)).toEqual(["size 258.3 MiB -> 270.5 MiB"]);
+  });
+
+  it("never ends a line on a word that names the number starting the next (field test: 'size' / '1.4 MiB')", () => {
+    // A diff header of two zoneinfo listings at 60 columns broke as "…346 removed, size" / "1.4 MiB ->".
+    const clause =
+      "1,308 -> 962 nodes, 1,308 with the 346 removed, size 1.4 MiB -> 1006.5 KiB (net -450.8 KiB);";
+    const lines = wrapWords(clause, 58, "  ");
+    expect(lines).toEqual([
+      "1,308 -> 962 nodes, 1,308 with the 346 removed,",
+      "  size 1.4 MiB -> 1006.5 KiB (net -450.8 KiB);",
+    ]);
+    // After a comma a number starts its own part: "0 moved," / "0 renamed" may break there.
+    expect(wrapWords("0 added, 346 removed, 0 moved, 0 renamed,", 30)).toEqual([
+      "0 added, 346 removed, 0 moved,",
+      "0 renamed,",
+    ]);
+  });
+
+  it("breaks the bonds of a run wider than a line, loosest first, then word by word", () => {
+    expect(wrapWords("40 of 40 lines", 8)).toEqual(["40 of", "40 lines"]);
+    expect(wrapWords("of 40000000", 5)).toEqual(["of", "4000…"]);
   });
 
   it("breaks a clause wider than a line at its spaces", () => {
