@@ -3,7 +3,7 @@ import type { CommandOutput } from "./command-output.js";
 import { CONFIG_FILES } from "./config.js";
 import { effectiveOptions, optionsInEffectYaml } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
-import { printSqlCommand } from "./fact-input.js";
+import { checkFactOptionsRead, printSqlCommand } from "./fact-input.js";
 import { hidingInput } from "./hide-input.js";
 import { pseudonymKey } from "./input.js";
 import type { CliIO } from "./io.js";
@@ -14,6 +14,7 @@ import {
   type OptionSpec,
   type OptionsOf,
   type OptionsSchema,
+  type SharedCliOptions,
   summaryOptionsSchema,
 } from "./options.js";
 import type { CommandLine } from "./parse-command-line.js";
@@ -94,6 +95,7 @@ function defineCommand<T extends Record<string, OptionSpec>>(def: CommandDef<T>)
       const early = await def.early?.(line.args, options);
       if (early) return { ...early, target: undefined };
       checkArguments(def, line.args);
+      checkFactOptionsRead(options as SharedCliOptions & { printSql?: boolean }, fromConfig, name);
       const shareNote = checkShareFormat(
         options as { share?: string; format?: string },
         fromConfig,

@@ -20,6 +20,46 @@ export function isFactInput(opts: SharedCliOptions): boolean {
   );
 }
 
+/** Fact-table options that read something only in some runs: each with its flag and what it needs. */
+const FACT_OPTION_NEEDS = {
+  keySeparator: { flag: "--key-separator", needs: "key" },
+  keyDepth: { flag: "--key-depth", needs: "key" },
+  sqlTable: { flag: "--sql-table", needs: "print" },
+  sqlReach: { flag: "--sql-reach", needs: "print" },
+  pushdown: { flag: "--pushdown", needs: "summary" },
+} as const;
+
+/**
+ * USAGE for a fact-table option given as a flag where it reads nothing, rather than a run that
+ * silently ignores it: any of them on an input that is no fact table; `--key-separator` and
+ * `--key-depth` without `--key-field`; `--sql-table` and `--sql-reach` without `--print-sql`;
+ * `--pushdown` outside a summary (`command`). A config file's values are not checked: a file serves
+ * many runs.
+ */
+export function checkFactOptionsRead(
+  opts: SharedCliOptions & { printSql?: boolean },
+  fromConfig: ReadonlySet<string>,
+  command: string,
+): void {
+  const fact = isFactInput(opts);
+  for (const [key, { flag, needs }] of Object.entries(FACT_OPTION_NEEDS)) {
+    if (!opts.named?.has(key) || fromConfig.has(key)) continue;
+    const why = !fact
+      ? "applies to fact tables (read with --levels, --key-field or --rolled-up), and this input is none"
+      : needs === "key" && opts.keyField === undefined
+        ? "applies to a key split into levels (--key-field) only"
+        : needs === "print" && opts.printSql !== true
+          ? "shapes the --print-sql query only"
+          : needs === "summary" && command !== "summary"
+            ? `applies to a summary only, not to espalier ${command}`
+            : undefined;
+    if (why !== undefined)
+      throw new EspalierError("USAGE", `${flag} ${why}: it would change nothing here`, undefined, {
+        option: flag,
+      });
+  }
+}
+
 /** How the options say a fact table forms a hierarchy. */
 export function factOptionsOf(opts: SharedCliOptions): FactOptions {
   const levels = opts.levels === undefined ? [] : opts.levels.split(",").map((c) => c.trim());

@@ -34,9 +34,24 @@ export async function loadInput(
   rootName: string = rootNameOf(input),
   nodes: string | undefined = singleNodes(opts),
 ): Promise<Tree> {
-  const tree = await loadQuietly(io, input, opts, rootName, nodes);
+  const tree = withUnsizedImportance(await loadQuietly(io, input, opts, rootName, nodes), opts);
   sayNotes(io, input, tree, opts);
   return tree;
+}
+
+/**
+ * The tree with an UNSIZED_IMPORTANCE note when `--importance size` was asked for and it has no sizes:
+ * API(x) = -depth(x) + log2((size(x) + 1) / (size(root) + 1)) is then -depth(x) for every node
+ * (interest/importance.ts), the ranking of `--importance depth`, which the run must not leave unsaid.
+ */
+function withUnsizedImportance(tree: Tree, opts: SharedCliOptions): Tree {
+  if (opts.importance !== "size" || tree.hasSizes) return tree;
+  return withNote(tree, {
+    code: "UNSIZED_IMPORTANCE",
+    parts: [
+      "--importance size ranks a node by its subtree's size, and this input has no sizes: every node ranks as with --importance depth",
+    ],
+  });
 }
 
 /** The loader's notes on `tree` (read from `input`) on standard error, one line each (reading-notes.ts). */
@@ -150,7 +165,9 @@ function sayVersionNotes(
   opts: SharedCliOptions,
 ): [Tree, Tree] {
   const files = [displayName(oldInput), displayName(newInput)] as const;
-  const trees = sizedAlike(alignListings(read, files), files);
+  const aligned = sizedAlike(alignListings(read, files), files);
+  // A diff's sizes are NEW's (none when either version has none): one note, on NEW.
+  const trees: [Tree, Tree] = [aligned[0], withUnsizedImportance(aligned[1], opts)];
   sayNotes(io, oldInput, trees[0], opts);
   sayNotes(io, newInput, trees[1], opts);
   return trees;

@@ -1,10 +1,12 @@
 import { Buffer } from "node:buffer";
 import { EspalierError, quoted, say } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
+import type { ReadingNote } from "../model/reading-note.js";
 import { adjacencyNodes } from "./adjacency.js";
 import { loadEdgeList } from "./edge-list.js";
 import { linkGraphTable, withRecords } from "./graph-table.js";
 import { findJsonEntry } from "./json/json-entry-finder.js";
+import { type RepeatedKeys, repeatedTopKeys } from "./json/repeated-top-keys.js";
 import type { LoadOptions } from "./load-options.js";
 import { checkGraphFields } from "./missing-field.js";
 import { csvTableFromBytes } from "./table/csv-table.js";
@@ -99,10 +101,27 @@ export function jsonGraph(text: string, options: LoadOptions, bytes?: Uint8Array
     return null;
   }
   try {
-    return Array.isArray(value) ? linkGraphTable(rowsTable(value), options) : adjacencyNodes(value, options);
+    if (Array.isArray(value)) return linkGraphTable(rowsTable(value), options);
+    const graph = adjacencyNodes(value, options);
+    const repeated = repeatedTopKeys(bytes ?? Buffer.from(text, "utf8"));
+    if (repeated !== undefined) graph.notes = [...(graph.notes ?? []), repeatedIdNote(repeated)];
+    return graph;
   } catch (err) {
     throw placedInJson(err, bytes ?? Buffer.from(text, "utf8"));
   }
+}
+
+/**
+ * REPEATED_KEY: an adjacency map's id given twice; JSON.parse keeps the last entry, so the earlier
+ * ones' links are not read (RFC 8259 section 4 leaves a repeated name to each reader).
+ */
+function repeatedIdNote({ key, line, repeats }: RepeatedKeys): ReadingNote {
+  const more = repeats > 1 ? `, and ${repeats - 1} more id${repeats > 2 ? "s" : ""} so` : "";
+  return {
+    code: "REPEATED_KEY",
+    line,
+    parts: say`line ${line} repeats the id ${quoted.id(key)} of the adjacency map${more}: as JSON.parse does, the last entry is read and the links of the earlier ones are not; give each id once, with all its children`,
+  };
 }
 
 /**

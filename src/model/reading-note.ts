@@ -27,7 +27,9 @@ export interface ReadingNote {
  * contents without its name (cli/listing-start.ts). `SIZES_LEFT_OUT`: a diff's version with sizes was
  * compared without them, as the other version has none (cli/version-readings.ts). `REPEATED_KEY`: JSON
  * node objects in which a key repeats where the repeat drops nodes (a children-by-name object, a
- * node's children field): the last value was read, as JSON.parse reads it (load/json/json-loader.ts).
+ * node's children field), or an id repeats in a JSON adjacency map: the last value was read, as
+ * JSON.parse reads it (load/json/json-loader.ts, load/graph-input.ts). `UNSIZED_IMPORTANCE`:
+ * `--importance size` on an input without sizes, which ranks as `--importance depth` (cli/input.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -36,6 +38,7 @@ export const readingNoteCodes = [
   "ROOT_IS_FOLDER",
   "SIZES_LEFT_OUT",
   "REPEATED_KEY",
+  "UNSIZED_IMPORTANCE",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

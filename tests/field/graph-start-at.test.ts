@@ -57,3 +57,31 @@ describe("--graph --start-at on an adjacency map inside a wrapper object", () =>
     expect(both.stdout.split("\n")[0]).toMatch(/^diff by id: 1 added, .*4 -> 5 nodes; read at \/tasks; /);
   });
 });
+
+describe("--graph on an adjacency map that gives a task twice (a merge kept both sides)", () => {
+  // RFC 8259 section 4: "The names within an object SHOULD be unique"; ECMA-262 JSON.parse keeps the
+  // last value of a repeated name. The earlier "build" entry's link to "lint" was dropped, with exit 0
+  // and nothing said: "lint" showed as a top-level task.
+  const text = '{\n"build": ["compile", "lint"],\n"compile": [],\n"lint": [],\n"build": ["compile"]\n}\n';
+
+  it("reads the last entry, as JSON.parse does, and says so on standard error and in JSON", async () => {
+    const result = await cli(["-", "--graph", "--format", "json"], { stdin: text });
+    expect(result.code).toBe(0);
+    const summary = JSON.parse(result.stdout);
+    // As JSON.parse reads it: build -> compile; lint alone; 3 tasks under espalier's root.
+    const parsed = JSON.parse(text) as Record<string, string[]>;
+    expect(parsed.build).toEqual(["compile"]);
+    expect(summary.totals.nodes).toBe(Object.keys(parsed).length + 1);
+    expect(summary.input.notes).toEqual([expect.objectContaining({ code: "REPEATED_KEY", line: 5 })]);
+    expect(result.stderr).toMatch(
+      /^espalier: note: <stdin>:5: line 5 repeats the id "build" .*\[REPEATED_KEY\]\n$/,
+    );
+  });
+
+  it("says nothing when every task is given once", async () => {
+    const once = '{"build": ["compile", "lint"], "compile": [], "lint": []}';
+    const result = await cli(["-", "--graph"], { stdin: once });
+    expect(result.code).toBe(0);
+    expect(result.stderr).toBe("");
+  });
+});

@@ -135,9 +135,10 @@ export class PathListReader {
   }
 
   /**
-   * As {@link lines}, for bytes that are not all UTF-8: each line that is not is decoded on its own (each
-   * bad sequence one U+FFFD, as the WHATWG decoder reads it) and encoded again, so that equal names are
-   * equal bytes, and its path is checked against the others so written ({@link WrittenPaths}).
+   * As {@link lines}, for bytes that are not all UTF-8 or that write U+FFFD: each line that is not UTF-8
+   * is decoded on its own (each bad sequence one U+FFFD, as the WHATWG decoder reads it) and encoded
+   * again, so that equal names are equal bytes; its path, and that of a line writing U+FFFD itself, is
+   * checked against the others so written ({@link WrittenPaths}).
    */
   private undecodedLines(bytes: Buffer, start: number, end: number): void {
     const view = viewOf(bytes);
@@ -147,7 +148,13 @@ export class PathListReader {
       if (stop === -1 || stop >= end) stop = end;
       const written = bytes.subarray(start, stop);
       if (isUtf8(written)) {
-        this.one(bytes, view, start, stop);
+        // Valid UTF-8 read as it is; its path is checked against the others only when it writes U+FFFD.
+        this.writtenLine = hasReplacement(written, 0, written.length) ? written : undefined;
+        try {
+          this.one(bytes, view, start, stop);
+        } finally {
+          this.writtenLine = undefined;
+        }
       } else {
         const read = Buffer.from(written.toString("utf8"), "utf8");
         this.writtenLine = written;
@@ -263,7 +270,9 @@ export class PathListReader {
   private lines(bytes: Buffer, start: number, end: number): void {
     const sep = this.separator;
     if (sep === newline) this.refuseNul(bytes, start, end);
-    if (!isUtf8(bytes.subarray(start, end))) {
+    // A line that writes U+FFFD itself (EF BF BD) is checked too: a folder so named and one written in
+    // bytes that are not UTF-8 read alike (docs/input.md). One more memchr-like search per block.
+    if (!isUtf8(bytes.subarray(start, end)) || hasReplacement(bytes, start, end)) {
       this.undecodedLines(bytes, start, end);
       return;
     }
@@ -538,4 +547,13 @@ function commasNote(line: number, commas: number, cells: readonly string[]): Rea
     line,
     parts: say`both lines hold ${commas === 1 ? "a comma" : `${commas} commas`}, as a CSV table's header and row do, and were read as two paths: a table is read from a first line that names the id and parent columns, or a path column; for a table, pass --input-format csv with --id-field COLUMN and --parent-field COLUMN (or --path-field COLUMN)${headerLineHint(cells, "csv", "edges")}; --input-format paths reads the lines as paths without this note`,
   };
+}
+
+/** U+FFFD in UTF-8: what every sequence that is not UTF-8 reads as. */
+const REPLACEMENT = Buffer.from([0xef, 0xbf, 0xbd]);
+
+/** Whether `bytes[start, end)` writes U+FFFD itself. */
+function hasReplacement(bytes: Buffer, start: number, end: number): boolean {
+  const at = bytes.indexOf(REPLACEMENT, start);
+  return at !== -1 && at + REPLACEMENT.length <= end;
 }

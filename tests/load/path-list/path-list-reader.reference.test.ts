@@ -152,7 +152,16 @@ describe("loadTreeFromStream(paths)", () => {
           }
         },
       ),
-      { numRuns: 500 },
+      {
+        numRuns: 500,
+        examples: [
+          // Seed 1981617148 (ESPALIER_PROPERTY_RUNS=25), before 31f2f9b: 0xff, then the folder 0xe2 0x82.
+          [[9, 3, 12, 2, 0], 0],
+          // A folder named U+FFFD in UTF-8 (EF BF BD) and one named 0xff: read as one, exit 0, before.
+          [[13, 2, 0, 3, 9, 2, 1], 0],
+          [[9, 2, 0, 3, 13, 2, 1], 0],
+        ],
+      },
     );
   });
 
