@@ -3,6 +3,7 @@ import { EspalierError, quoted, say } from "../../errors.js";
 import { asBuffer } from "../../model/buffer-codecs.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { ReadingNote } from "../../model/reading-note.js";
+import { hasReplacement } from "../has-replacement.js";
 import type { LoadOptions } from "../load-options.js";
 import { checkNoNamedFields } from "../missing-field.js";
 import { NodeSink } from "../node-sink.js";
@@ -547,13 +548,4 @@ function commasNote(line: number, commas: number, cells: readonly string[]): Rea
     line,
     parts: say`both lines hold ${commas === 1 ? "a comma" : `${commas} commas`}, as a CSV table's header and row do, and were read as two paths: a table is read from a first line that names the id and parent columns, or a path column; for a table, pass --input-format csv with --id-field COLUMN and --parent-field COLUMN (or --path-field COLUMN)${headerLineHint(cells, "csv", "edges")}; --input-format paths reads the lines as paths without this note`,
   };
-}
-
-/** U+FFFD in UTF-8: what every sequence that is not UTF-8 reads as. */
-const REPLACEMENT = Buffer.from([0xef, 0xbf, 0xbd]);
-
-/** Whether `bytes[start, end)` writes U+FFFD itself. */
-function hasReplacement(bytes: Buffer, start: number, end: number): boolean {
-  const at = bytes.indexOf(REPLACEMENT, start);
-  return at !== -1 && at + REPLACEMENT.length <= end;
 }

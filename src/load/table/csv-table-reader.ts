@@ -2,6 +2,7 @@ import { Buffer, isUtf8 } from "node:buffer";
 import { EspalierError, quoted, say } from "../../errors.js";
 import { asBuffer, codecs } from "../../model/buffer-codecs.js";
 import { NamePool, type Names, namesToArray } from "../../model/names.js";
+import { hasReplacement } from "../has-replacement.js";
 import type { LoadOptions } from "../load-options.js";
 import { limitsOf } from "../read-limits.js";
 import { CsvScanner, type CsvSink } from "./csv-scanner.js";
@@ -54,7 +55,10 @@ interface Kept {
   earlier?: "id" | "name";
   /** Whether the column may link rows (the id, parent or path column): its cells not UTF-8 are kept as written. */
   links: boolean;
-  /** Of a column that `links`: its cells whose bytes are not UTF-8, by row (see Table.writtenCells). */
+  /**
+   * Of a column that `links`: its cells whose bytes are not UTF-8, by row, and those that write U+FFFD
+   * as itself (see Table.writtenCells).
+   */
   written?: Map<number, WrittenCell>;
 }
 
@@ -177,6 +181,7 @@ export class CsvTableReader implements CsvSink {
     // As before streaming existed: no further than one row over the limit.
     const length = Math.min(this.rows, this.maxRows + 1);
     const filledRows = this.scanner.filled;
+    let spelledOut = false;
     return {
       length,
       textCells: true,
@@ -216,6 +221,13 @@ export class CsvTableReader implements CsvSink {
         return column?.keeping === Keeping.Numbers ? numbersOf(column) : undefined;
       },
       writtenCells(name) {
+        // Cells that write U+FFFD as itself are looked for only when some linking cell is no UTF-8:
+        // else equal text is equal bytes, and the valid input pays nothing for the search.
+        if (!spelledOut) {
+          spelledOut = true;
+          if (kept.some((k) => k.links && k.written !== undefined))
+            for (const k of kept) if (k.links && k.pool !== null) keepSpelledReplacements(k, length);
+        }
         return kept.find((k) => k.name === name)?.written;
       },
       release() {
@@ -254,23 +266,10 @@ export class CsvTableReader implements CsvSink {
         this.pooled(keep, row, bytes, start, end);
     } else {
       const text = this.text(bytes, start, end);
-      if (keep.links && text.includes("\uFFFD") && !isUtf8(bytes.subarray(start, end)))
-        this.keepWritten(keep, row, text, bytes, start, end);
+      // Not UTF-8, or U+FFFD written as itself: both read as U+FFFD (see writtenCells).
+      if (keep.links && text.includes("\uFFFD")) keepWrittenCell(keep, row, text, bytes, start, end);
       keep.cells.push(text);
     }
-  }
-
-  /** Keeps a linking cell that is not UTF-8 as read and as written (see Table.writtenCells). */
-  private keepWritten(
-    keep: Kept,
-    row: number,
-    read: string,
-    bytes: Uint8Array,
-    start: number,
-    end: number,
-  ): void {
-    keep.written ??= new Map();
-    keep.written.set(row, { read, written: asBuffer(bytes).toString("latin1", start, end) });
   }
 
   /**
@@ -293,7 +292,7 @@ export class CsvTableReader implements CsvSink {
     const pool = keep.pool!;
     if (keep.asText && !isAscii(bytes, start, end) && !isUtf8(bytes.subarray(start, end))) {
       const text = this.text(bytes, start, end);
-      if (keep.links) this.keepWritten(keep, row, text, bytes, start, end);
+      if (keep.links) keepWrittenCell(keep, row, text, bytes, start, end);
       pool.setString(row, text);
     } else pool.setBytes(row, bytes, start, end);
   }
@@ -393,6 +392,39 @@ class RowLines {
       else hi = mid;
     }
     return row + this.first + (lo === 0 ? 0 : this.shifts[lo - 1]);
+  }
+}
+
+/** Keeps a linking cell as read and as written (see Table.writtenCells). */
+function keepWrittenCell(
+  keep: Kept,
+  row: number,
+  read: string,
+  bytes: Uint8Array,
+  start: number,
+  end: number,
+): void {
+  keep.written ??= new Map();
+  keep.written.set(row, { read, written: asBuffer(bytes).toString("latin1", start, end) });
+}
+
+/**
+ * Adds to a pooled linking column's written cells those of its first `rows` rows that are UTF-8 and
+ * write U+FFFD as itself (EF BF BD): such a cell reads as one written in bytes that are not UTF-8 (a
+ * literal U+FFFD id and a parent cell `\xff` were one id, linking a row to another's row, exit 0). One
+ * byte search over the pool; the rows are read only when it finds one.
+ */
+function keepSpelledReplacements(keep: Kept, rows: number): void {
+  const pool = keep.pool!;
+  const runs = pool.byteRuns();
+  if (runs === null || !hasReplacement(runs.bytes, 0, pool.usedBytes)) return;
+  const numbers = keep.keeping === Keeping.Numbers ? keep.values : null;
+  const { bytes, start, size } = runs;
+  for (let r = 0, n = Math.min(rows, pool.length); r < n; r++) {
+    if ((numbers !== null && !Number.isNaN(numbers[r])) || keep.written?.has(r)) continue;
+    const s = start[r];
+    const e = s + size[r];
+    if (hasReplacement(bytes, s, e)) keepWrittenCell(keep, r, pool.get(r), bytes, s, e);
   }
 }
 

@@ -33,7 +33,8 @@ export interface Table {
   /**
    * The cells of an id, parent or path column whose bytes are not UTF-8, by row (from 0): as read (every
    * bad sequence one U+FFFD) and as written (the bytes as Latin-1, one character each); undefined when
-   * none (see load/written-paths.ts).
+   * none (see load/written-paths.ts). When there are any, the cells that write U+FFFD as itself are
+   * among them too: they read as the others do.
    */
   writtenCells?(name: string): ReadonlyMap<number, WrittenCell> | undefined;
 }
