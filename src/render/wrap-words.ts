@@ -5,8 +5,10 @@ import { displayWidth, shortenEnd } from "./display-width.js";
  * the first starting with `indent`; a word wider than a line is cut at its end ("…"), never split.
  * Some words stay together when the run fits a line: a parenthesised clause (`(compared: version)`),
  * a number with the word after it (`1 edited`, `258.3 MiB`) and with the word before it (`size 1.4`,
- * `of 40`, `-> 962`; not after a `,` or `;`), and, more loosely, the two ends of an arrow
- * (`1.4 MiB -> 1006.5 KiB`), so a line never ends between a number and what names it.
+ * `of 40`, `-> 962`; not after a `,` or `;`), a word that leads into what follows with it (`with the
+ * 346 removed`: a line ending `1,308 with` reads as if `with` were what 1,308 counts), and, more
+ * loosely, the two ends of an arrow (`1.4 MiB -> 1006.5 KiB`), so a line never ends between a number
+ * and what names it.
  */
 export function wrapWords(text: string, width: number, indent = ""): string[] {
   const lines: string[] = [];
@@ -77,10 +79,17 @@ function bondsOf(words: readonly string[], room: number): number[] {
     const [a, b] = [words[k], words[k + 1]];
     if (NUMBER.test(a)) bonds[k] = Math.max(bonds[k], UNIT);
     else if (NUMBER.test(b) && !/[,;:]$/.test(a)) bonds[k] = Math.max(bonds[k], NAMED);
+    else if (LEADING.has(a)) bonds[k] = Math.max(bonds[k], NAMED);
     else if (b === ARROW || a === ARROW) bonds[k] = Math.max(bonds[k], LOOSE);
   }
   return bonds;
 }
+
+/**
+ * Words that lead into the words after them and never end a line while the run fits one: `1,308 with
+ * the 346 removed` stays whole (a choice of this project, no source).
+ */
+const LEADING: ReadonlySet<string> = new Set(["with", "the"]);
 
 /** The arrow between an old and a new value (`6 -> 7 nodes`). */
 const ARROW = "->";

@@ -3,12 +3,40 @@ import { describe, expect, it } from "vitest";
 import { diffTrees } from "../../src/diff/diff-trees.js";
 import { measure } from "../../src/model/measure.js";
 import { PathIndex } from "../../src/model/path-index.js";
+import type { Tree } from "../../src/model/tree.js";
 import { renderDiffText } from "../../src/render/diff-text.js";
 import { lineGroups } from "../../src/render/line-groups.js";
 import { renderText } from "../../src/render/summary-text.js";
 import { prepare, summarize } from "../../src/summarize.js";
 import { arbEdited } from "../diff/edit-script.js";
 import { arbTreeWithFoci } from "../helpers/random-tree.js";
+
+/**
+ * A summary of `tree` with the foci at `focusNodes` and chains on or off, at a budget `extra` lines
+ * above the smallest that holds the root and the foci's paths (at most one line a node), so the
+ * selection has folds as well as none; null when even that budget is too small (BUDGET_TOO_SMALL,
+ * tested elsewhere).
+ */
+function arbitrarySummary(
+  tree: Tree,
+  focusNodes: readonly number[],
+  extra: number,
+  chains = true,
+): ReturnType<typeof summarize> | null {
+  const index = new PathIndex(tree, measure(tree));
+  const foci = focusNodes.map((i) => index.path(i));
+  const prepared = prepare(tree);
+  const options = { foci, importance: "depth" as const, chains };
+  const needed = summarize(prepared, { ...options, budget: tree.length + 1 });
+  try {
+    return summarize(prepared, {
+      ...options,
+      budget: Math.min(needed.selection.forcedCount + extra, tree.length),
+    });
+  } catch {
+    return null;
+  }
+}
 
 interface Line {
   level: number;
@@ -69,18 +97,8 @@ describe("nodes = names + shown children + folded, read from the printed lines a
         fc.integer({ min: 1, max: 40 }),
         fc.boolean(),
         ([tree, f], extra, chains) => {
-          const index = new PathIndex(tree, measure(tree));
-          const foci = f.map((i) => index.path(i));
-          const prepared = prepare(tree);
-          // The smallest budget that works, plus some: a selection with folds as well as without.
-          const needed = summarize(prepared, { foci, budget: tree.length + 1, importance: "depth", chains });
-          const budget = Math.min(needed.selection.forcedCount + extra, tree.length);
-          let result: ReturnType<typeof summarize>;
-          try {
-            result = summarize(prepared, { foci, budget, importance: "depth", chains });
-          } catch {
-            return; // BUDGET_TOO_SMALL: checked elsewhere
-          }
+          const result = arbitrarySummary(tree, f, extra, chains);
+          if (result === null) return;
           const text = renderText(result.view, { units: "plain", sizes: false, chains });
           checkArithmetic(parse(text), tree.length);
         },
@@ -158,20 +176,8 @@ describe("the sums hold on narrow screens too: names give way before counts", ()
         fc.integer({ min: 1, max: 40 }),
         fc.integer({ min: 40, max: 120 }),
         ([tree, f], extra, width) => {
-          const index = new PathIndex(tree, measure(tree));
-          const foci = f.map((i) => index.path(i));
-          const prepared = prepare(tree);
-          const options = { foci, importance: "depth" as const, chains: true };
-          const needed = summarize(prepared, { ...options, budget: tree.length + 1 });
-          let result: ReturnType<typeof summarize>;
-          try {
-            result = summarize(prepared, {
-              ...options,
-              budget: Math.min(needed.selection.forcedCount + extra, tree.length),
-            });
-          } catch {
-            return; // BUDGET_TOO_SMALL: checked elsewhere
-          }
+          const result = arbitrarySummary(tree, f, extra);
+          if (result === null) return;
           const text = renderText(result.view, { units: "plain", sizes: true, chains: true, width });
           const counts = renderText(result.view, { units: "plain", sizes: false, chains: true, width });
           // Every line has its size, or says `size cut` where it would be; only when a line could
@@ -228,20 +234,8 @@ describe("own size = size - the sizes on the lines below - the hidden size, read
   it("is the own size of the line's names, chains included (property)", () => {
     fc.assert(
       fc.property(arbTreeWithFoci(50), fc.integer({ min: 1, max: 40 }), ([tree, f], extra) => {
-        const index = new PathIndex(tree, measure(tree));
-        const foci = f.map((i) => index.path(i));
-        const prepared = prepare(tree);
-        const options = { foci, importance: "depth" as const, chains: true };
-        const needed = summarize(prepared, { ...options, budget: tree.length + 1 });
-        let result: ReturnType<typeof summarize>;
-        try {
-          result = summarize(prepared, {
-            ...options,
-            budget: Math.min(needed.selection.forcedCount + extra, tree.length),
-          });
-        } catch {
-          return; // BUDGET_TOO_SMALL: checked elsewhere
-        }
+        const result = arbitrarySummary(tree, f, extra);
+        if (result === null) return;
         const text = renderText(result.view, { units: "plain", sizes: true, chains: true });
         const number = (s: string | undefined) => (s === undefined ? 0 : Number(s.replaceAll(",", "")));
         const lines = text
@@ -279,20 +273,8 @@ describe("own size = size - the sizes below - the hidden size on narrow screens,
         fc.integer({ min: 1, max: 40 }),
         fc.integer({ min: 40, max: 120 }),
         ([tree, f], extra, width) => {
-          const index = new PathIndex(tree, measure(tree));
-          const foci = f.map((i) => index.path(i));
-          const prepared = prepare(tree);
-          const options = { foci, importance: "depth" as const, chains: true };
-          const needed = summarize(prepared, { ...options, budget: tree.length + 1 });
-          let result: ReturnType<typeof summarize>;
-          try {
-            result = summarize(prepared, {
-              ...options,
-              budget: Math.min(needed.selection.forcedCount + extra, tree.length),
-            });
-          } catch {
-            return; // BUDGET_TOO_SMALL: checked elsewhere
-          }
+          const result = arbitrarySummary(tree, f, extra);
+          if (result === null) return;
           const text = renderText(result.view, { units: "plain", sizes: true, chains: true, width });
           const rows = text.trimEnd().split("\n");
           // Sizes off every line (a line could not even say `size cut`): nothing to add up by size.

@@ -38,6 +38,31 @@ describe("wrapWords(text, width, indent)", () => {
     ]);
   });
 
+  it("keeps '1,308 with the 346 removed' whole: no line ends on 'with' or 'the' (field test at 40 columns)", () => {
+    // A diff header of two zoneinfo listings at 40 columns broke as "…nodes, 1,308 with" / "the 346
+    // removed,": 1,308 read as a count of something called "with". Widths per UAX #11 (ASCII: one
+    // column each); the rule is this project's (common practice, no source).
+    const clause =
+      "1,308 -> 962 nodes, 1,308 with the 346 removed, size 1.4 MiB -> 1006.5 KiB (net -450.8 KiB);";
+    expect(wrapWords(clause, 38, "  ")).toEqual([
+      "1,308 -> 962 nodes,",
+      "  1,308 with the 346 removed,",
+      "  size 1.4 MiB -> 1006.5 KiB",
+      "  (net -450.8 KiB);",
+    ]);
+    for (let width = 30; width <= 120; width++) {
+      const lines = wrapWords(clause, width, "  ");
+      for (const line of lines) {
+        expect(line, `${width}`).not.toMatch(/ (?:with|the)$/);
+        expect(displayWidth(line)).toBeLessThanOrEqual(width);
+      }
+      expect(
+        lines.some((l) => l.includes("1,308 with the 346 removed")),
+        `${width}`,
+      ).toBe(true);
+    }
+  });
+
   it("breaks the bonds of a run wider than a line, loosest first, then word by word", () => {
     expect(wrapWords("40 of 40 lines", 8)).toEqual(["40 of", "40 lines"]);
     expect(wrapWords("of 40000000", 5)).toEqual(["of", "4000…"]);
