@@ -122,7 +122,6 @@ export function keyLines(
   const vital = vitalWords(facts, parts);
   tries.push(vital);
   if (!(facts.sizes ?? true)) tries.push([parts[0][2]]);
-  const sized = parts.filter((p) => p[3] === "sizes");
   const least = [...(facts.sizesLeftOut ? [SIZES_GONE] : []), ...(facts.sizesCut ? [SIZE_CUT_LEAST] : [])];
   if (least.length > 0) tries.push(least);
   if (over !== "") tries.push([]);
