@@ -147,11 +147,19 @@ function checkArguments(def: CommandDef<Record<string, OptionSpec>>, args: reado
   const required = def.args.filter((a) => !a.startsWith("["));
   const want = def.args.length;
   if (args.length >= required.length && args.length <= want) return;
-  const names = required.map((a) => a.toUpperCase()).join(" and ");
   if (args.length < required.length) {
+    // Name only what is missing, and what each given argument is read as.
+    const missing = required
+      .slice(args.length)
+      .map((a) => a.toUpperCase())
+      .join(" and ");
+    const given = args
+      .map((a, k) => `${JSON.stringify(a)} is read as ${required[k].toUpperCase()}; `)
+      .join("");
+    const each = required.length > 1 ? `${def.usage} reads ${required.length} inputs, each` : "";
     throw new EspalierError(
       "USAGE",
-      `missing ${required.length > 1 ? `${names} (got ${args.length})` : names}: a file, or - for standard input`,
+      `missing ${missing}: ${given}${each === "" ? "a file" : `${each} a file`}, or - for standard input`,
       undefined,
       { expected: required.length, got: args.length },
     );

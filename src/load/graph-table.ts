@@ -125,7 +125,13 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
     const parentId = text(cell);
     if (parentId === "" || nullParents?.has(parentId)) continue;
     const p = nodeOf.get(parentId);
-    if (p === undefined) throw missingParent(parentId, r + 1, options);
+    if (p === undefined) {
+      const trimmed = nodeOf.get(parentId.trim());
+      throw missingParent(parentId, r + 1, options, undefined, {
+        ...(trimmed === undefined ? {} : { trimmedRow: firstRow[trimmed] + 1 }),
+        strings: !table.textCells,
+      });
+    }
     from[edges] = p;
     to[edges] = nodeOfRow[r];
     edgeOrigin[edges] = r + 1;

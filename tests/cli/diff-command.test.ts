@@ -67,6 +67,18 @@ describe("espalier diff OLD NEW", () => {
     expect(r.stdout).toBe("");
   });
 
+  it("given one file, names NEW as the one missing and the file as OLD (USAGE)", async () => {
+    // Field test: the message said "missing OLD and NEW (got 1)", as if neither had been given.
+    const r = await cli(["diff", at("old.paths")]);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr).toMatch(/^espalier: missing NEW: .*\[USAGE\]\n$/);
+    expect(r.stderr).toContain(`${JSON.stringify(at("old.paths"))} is read as OLD`);
+    const none = await cli(["diff"]);
+    expect(none.code).toBe(2);
+    expect(none.stderr).toMatch(/^espalier: missing OLD and NEW: .*\[USAGE\]\n$/);
+  });
+
   it("exits 0 without --fail-on-change even when the versions differ", async () => {
     const r = await cli(["diff", at("old.paths"), at("new.paths")]);
     expect(r.code).toBe(0);

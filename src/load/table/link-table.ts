@@ -1,3 +1,4 @@
+import { Buffer } from "node:buffer";
 import { didYouMean } from "../../did-you-mean.js";
 import { EspalierError, type MessagePart, placedAtRow, quoted, quotedList, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
@@ -166,7 +167,11 @@ function linkById(
       const p = rowOf.get(parentId);
       if (p === -1) {
         const text = cellText(parentId);
-        throw missingParent(text, r + 1, options, rowNamed(text, pooled, names, n));
+        const trimmed = rowOf.get(text.trim());
+        throw missingParent(text, r + 1, options, rowNamed(text, pooled, names, n), {
+          ...(trimmed === -1 ? {} : { trimmedRow: trimmed + 1 }),
+          strings: !table.textCells,
+        });
       }
       parentOf[r] = p;
     }
@@ -255,7 +260,14 @@ function linkByteIds(table: Table, ids: NamePool, parents: NumberCells, options:
       p = textView === null ? -1 : rowOf.getBytes(textView, s, s + textRuns!.size[r]);
       if (p === -1) text = texts.get(r);
     }
-    if (text !== undefined) throw missingParent(text, r + 1, options, rowNamed(text, pooled, names, n));
+    if (text !== undefined) {
+      const trimmed = Buffer.from(text.trim(), "utf8");
+      const at = rowOf.getBytes(viewOf(trimmed), 0, trimmed.length);
+      throw missingParent(text, r + 1, options, rowNamed(text, pooled, names, n), {
+        ...(at === -1 ? {} : { trimmedRow: at + 1 }),
+        strings: false,
+      });
+    }
     parentOf[r] = p;
     origin[r] = r + 1;
     if (name !== null && !named) name[r] = (names && cellText(names[r])) || ids.get(r);

@@ -48,15 +48,27 @@ export function idIsNullParent(id: string, row: number, options: Fields): Espali
 const usualNoneValues = new Set(["0", "-1", "null", "\\n", "none", "nil", "n/a", "nan", "#n/a"]);
 
 /**
+ * Where a parent cell with spaces around its value came from, for MISSING_PARENT's hint: `trimmedRow`,
+ * the 1-based row whose id is the value without them, when one is; `strings`, whether the cells are
+ * JSON strings (JSON rows) rather than CSV or TSV text.
+ */
+export interface SpacedParent {
+  trimmedRow?: number;
+  strings: boolean;
+}
+
+/**
  * MISSING_PARENT for a parent id no row has. A value that usually means "none" names `--null-parent`;
  * a value that is another row's name (`nameRow`, 1-based: an org chart whose manager column holds names)
- * names `--id-field` with the name column.
+ * names `--id-field` with the name column; a value with spaces around it says so, and names the row whose
+ * id it is without them (`spaced`).
  */
 export function missingParent(
   parentId: string,
   row: number,
   options: Fields & { nameField?: string },
   nameRow?: number,
+  spaced?: SpacedParent,
 ): EspalierError {
   const none = usualNoneValues.has(parentId.trim().toLowerCase());
   const missing = say`row ${row} names the ${options.parentField} ${quoted.id(parentId)}, which no row has as its ${options.idField}`;
@@ -78,12 +90,27 @@ export function missingParent(
   }
   // `1, , Ada`: spaces after the commas are part of each value (RFC 4180, 2.4), so " " is no empty
   // parent and " 1" no id "1"; a hand-written table often has them.
-  if (parentId !== parentId.trim())
+  if (parentId !== parentId.trim()) {
+    const trimmed = parentId.trim();
+    const what = spaced?.strings ? "value" : "cell";
+    const keeps = spaced?.strings
+      ? "a JSON string keeps every character between its quotes"
+      : "CSV and TSV keep spaces as part of a value (RFC 4180, section 2.4): write the table without spaces around the separators";
+    if (spaced?.trimmedRow !== undefined)
+      return new EspalierError(
+        "MISSING_PARENT",
+        say`${missing}; row ${spaced.trimmedRow}'s ${options.idField} is ${quoted.id(trimmed)}, the ${what} without its spaces: ${keeps}`,
+        { row, field: options.parentField },
+        { idRow: spaced.trimmedRow },
+      );
     return new EspalierError(
       "MISSING_PARENT",
-      say`${missing}; the cell has spaces around its value, which CSV keeps as part of it (RFC 4180, section 2.4): write the table without spaces around the separators`,
+      spaced?.strings
+        ? say`${missing}; the value has spaces around it, which are part of it: ${keeps}`
+        : say`${missing}; the cell has spaces around its value, which CSV keeps as part of it (RFC 4180, section 2.4): write the table without spaces around the separators`,
       { row, field: options.parentField },
     );
+  }
   return new EspalierError("MISSING_PARENT", missing, { row, field: options.parentField });
 }
 

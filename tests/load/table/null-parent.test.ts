@@ -120,4 +120,31 @@ describe("--null-parent: parent cells that mean no parent", () => {
     // No spaces: no such words.
     expect(caught(() => csv("id,parent\n1,\n2,9\n")).message).not.toContain("spaces");
   });
+
+  it("loadTree names the row whose id is the parent cell without its spaces (CSV, TSV, JSON rows, a graph table)", () => {
+    // RFC 4180, section 2.4: "Spaces are considered part of a field and should not be ignored."
+    // Field test: "a " matched no id while row 1's id is "a", and the message did not say so.
+    const fromCsv = caught(() => csv("id,parent,name\na,,root\nb,a ,kid\n"));
+    expect(fromCsv.code).toBe("MISSING_PARENT");
+    expect(fromCsv.pos).toMatchObject({ row: 2, line: 3 });
+    expect(fromCsv.message).toContain('row 1\'s id is "a", the cell without its spaces');
+    // Ids written as digits are kept as numbers: " 7" still finds row 1.
+    const digits = caught(() => csv("id,parent,name\n7,,root\n8, 7,kid\n"));
+    expect(digits.message).toContain('row 1\'s id is "7", the cell without its spaces');
+    const tsv = caught(() => loadTree("id\tparent\na\t\nb\ta \n", opts({ format: "tsv" })));
+    expect(tsv.message).toContain('row 1\'s id is "a", the cell without its spaces');
+    const graph = caught(() => csv("id,parent\na,\nb,a \n", { graph: true }));
+    expect(graph.code).toBe("MISSING_PARENT");
+    expect(graph.message).toContain('row 1\'s id is "a", the cell without its spaces');
+    // JSON rows: a string keeps its spaces (RFC 8259, section 7: every character between the quotes is
+    // the string's); the words are not about CSV there.
+    const rows = caught(() =>
+      loadTree('[{"id":"a","parent":null},{"id":"b","parent":"a "}]', opts({ format: "rows" })),
+    );
+    expect(rows.code).toBe("MISSING_PARENT");
+    expect(rows.message).toContain('row 1\'s id is "a", the value without its spaces');
+    expect(rows.message).not.toMatch(/CSV|RFC 4180|separator/);
+    // Spaces, and no id without them: the spaces are named, no row is.
+    expect(caught(() => csv("id,parent\na,\nb,c \n")).message).not.toContain("row 1's id");
+  });
 });
