@@ -80,6 +80,21 @@ export function keyFacts(
   };
 }
 
+/**
+ * Whether the key for `facts` at `width` (see `keyLines`) says what the sizes on screen are (totals
+ * with all below), that they were left out (`sizes cut`), or that a line's were cut (`'size cut'`).
+ */
+export function keyExplainsSizes(kind: "summary" | "diff", facts: KeyFacts, width?: number): boolean {
+  if (facts.sizes === false) return true;
+  const text = keyLines(kind, facts, width).join("\n");
+  if (facts.sizesLeftOut) return text.includes(SIZES_GONE) || text.includes("sizes left out");
+  if (facts.sizesCut && !text.includes(`'${SIZE_CUT}'`)) return false;
+  return SIZES_SAID.some((words) => text.includes(words));
+}
+
+/** The key's words for sizes shown, in each of its forms (see `explanations`). */
+const SIZES_SAID = ["totals", "a size", "sizes cut", "sizes left out"];
+
 /** Narrowest width whose key is one line; a narrower screen's key takes two (see `keyRows`). */
 export const KEY_ONE_ROW = 60;
 
@@ -121,6 +136,7 @@ export function keyLines(
   // counts alone, then what no sum on screen can do without in fewest words, then the leftover marks.
   const vital = vitalWords(facts, parts);
   tries.push(vital);
+  if (facts.sizesCut && !facts.sizesLeftOut) tries.push([parts[0][2], SIZE_CUT_LEAST]);
   if (!(facts.sizes ?? true)) tries.push([parts[0][2]]);
   const least = [...(facts.sizesLeftOut ? [SIZES_GONE] : []), ...(facts.sizesCut ? [SIZE_CUT_LEAST] : [])];
   if (least.length > 0) tries.push(least);
