@@ -87,13 +87,12 @@ export function keyFacts(
 export function keyExplainsSizes(kind: "summary" | "diff", facts: KeyFacts, width?: number): boolean {
   if (facts.sizes === false) return true;
   const text = keyLines(kind, facts, width).join("\n");
-  if (facts.sizesLeftOut) return text.includes(SIZES_GONE) || text.includes("sizes left out");
-  if (facts.sizesCut && !text.includes(`'${SIZE_CUT}'`)) return false;
-  return SIZES_SAID.some((words) => text.includes(words));
+  const [numbers, ...rest] = explanations(kind, facts);
+  const says = (e: Explanation, least: string) => [e[0], e[1], e[2], least].some((w) => text.includes(w));
+  // The numbers' words say what the sizes are (or that they were left out), in any of their forms.
+  if (!says(numbers, facts.sizesLeftOut ? SIZES_GONE : numbers[2])) return false;
+  return rest.filter((e) => e[3] === "sizes").every((e) => says(e, SIZE_CUT_LEAST));
 }
-
-/** The key's words for sizes shown, in each of its forms (see `explanations`). */
-const SIZES_SAID = ["totals", "a size", "sizes cut", "sizes left out"];
 
 /** Narrowest width whose key is one line; a narrower screen's key takes two (see `keyRows`). */
 export const KEY_ONE_ROW = 60;
