@@ -30,7 +30,7 @@ export function draw(session: Session, state: ExploreState, colour: boolean): Sc
   const out: string[] = [];
   let cursorRow: number | null = null;
   if (fitted instanceof EspalierError) {
-    out.push(shortenEnd(`too small for this view: ${tooSmallReason(fitted)}`, cols));
+    out.push(tooSmallRow(fitted, cols));
   } else {
     const here = state.spec.cursor;
     fitted.lines.forEach((line, r) => {
@@ -49,7 +49,18 @@ export function draw(session: Session, state: ExploreState, colour: boolean): Sc
   return { rows: out, cursorRow };
 }
 
+/**
+ * Why no view is drawn, in the most words that fit `cols` (a reason cut short says nothing): `too
+ * small for this view: it needs 32 columns`, then `needs 32 columns` (cut only below 16 columns).
+ */
+function tooSmallRow(err: EspalierError, cols: number): string {
+  const reason = tooSmallReason(err);
+  const tries = [`too small for this view: ${reason}`, reason.replace(/^it /, "")];
+  return tries.find((t) => displayWidth(t) <= cols) ?? shortenEnd(tries[tries.length - 1], cols);
+}
+
 function tooSmallReason(err: EspalierError): string {
+  if (typeof err.details.columns === "number") return `it needs ${err.details.columns} columns`;
   const need = rowsNeeded(err);
   return need !== undefined ? `it needs ${need} rows` : "enlarge the window";
 }

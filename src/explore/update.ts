@@ -1,5 +1,6 @@
 import { EspalierError } from "../errors.js";
 import type { Importance } from "../interest/importance.js";
+import { MIN_WIDTH } from "../render/line-layout.js";
 import { actionOf } from "./key-map.js";
 import type { Key } from "./keys.js";
 import { compilePattern, type Pattern } from "./search.js";
@@ -11,6 +12,8 @@ export const COUNT_SLICE = 8192;
 
 /** Columns left of every tree line for the cursor mark. */
 export const GUTTER = 2;
+/** Narrowest terminal a view is drawn in: the gutter and the narrowest lines the renderers lay out. */
+export const MIN_COLUMNS = GUTTER + MIN_WIDTH;
 /** Rows under the tree: the status bar. */
 export const STATUS_ROWS = 1;
 
@@ -67,7 +70,13 @@ export function specFoci(spec: ViewSpec): Int32Array {
 /** The view a spec gives on a screen of this size, or the reason it cannot be shown. */
 export function fitOf(session: Session, spec: ViewSpec, rows: number, cols: number): Fitted | EspalierError {
   const budget = rows - STATUS_ROWS;
-  if (budget < 1 + session.headerLines || cols - GUTTER < 1)
+  // Narrower than the lines' floor the key and the lines would be cut short of what they explain:
+  // the screen says how wide it must be instead (docs/cli.md, explore).
+  if (cols < MIN_COLUMNS)
+    return new EspalierError("BUDGET_TOO_SMALL", "the terminal is too narrow", undefined, {
+      columns: MIN_COLUMNS,
+    });
+  if (budget < 1 + session.headerLines)
     return new EspalierError("BUDGET_TOO_SMALL", "the terminal is too small");
   try {
     return session.fit(specFoci(spec), budget, spec.importance, cols - GUTTER);
@@ -229,6 +238,7 @@ function move(
 
 function tooSmall(err: EspalierError): string {
   const need = rowsNeeded(err);
+  if (typeof err.details.columns === "number") return `no room: that needs ${err.details.columns} columns`;
   return need !== undefined ? `no room: that needs ${need} rows` : "no room on this screen";
 }
 

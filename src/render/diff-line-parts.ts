@@ -6,7 +6,7 @@ import { shortenMiddle } from "./display-width.js";
 import { formatSize } from "./format-size.js";
 import type { LineGroup } from "./line-groups.js";
 import type { LineParts } from "./line-layout.js";
-import { EMPTY_WORDS, foldAmount, foldWords, hiddenCount, lineParts } from "./line-parts.js";
+import { EMPTY_WORDS, foldAmount, foldWords, hiddenCount, hiddenSized, lineParts } from "./line-parts.js";
 import { referenceText } from "./reference-text.js";
 
 /** Columns an old parent's path or old name keeps in a tag on a narrow line. */
@@ -45,6 +45,7 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
   const gone = hidden !== null && hidden.size === 0 && hidden.changes.removed === hidden.nodes;
   const sized = (o: NumberOptions) => (gone ? { ...o, sizes: false } : o);
   const amountOf = (o: NumberOptions) => foldAmount(group, last, sized(o));
+  const sizedOf = (o: NumberOptions) => hiddenSized(group, last, sized(o));
   const fold = (o: NumberOptions) => (hidden ? `(${foldWords(last)}, ${amountOf(o)}; ${inside})` : "");
   // The changes in one count, and the net change the sums need: `386 changed, net +1.0 MiB`.
   const changedIn = (o: NumberOptions) =>
@@ -63,8 +64,15 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
     compactFold: fold({ ...options, compact: true }),
     compactFoldCounts: hidden ? `(hidden: ${amountOf({ ...options, compact: true })}; ${inside})` : "",
     ...(hidden && changeKinds.filter((k) => hidden.changes[k] > 0).length > 1
-      ? { compactFoldChanged: `(hidden: ${amountOf({ ...options, compact: true })}; ${changedIn(options)})` }
+      ? { compactFoldChanged: `(${sizedOf({ ...options, compact: true })}; ${changedIn(options)})` }
       : {}),
+    // In fewest words, every number kept: `(41 hidden, 2.0 MiB; 2 added, net +1.0 KiB)`.
+    ...(hidden && sized(options).sizes
+      ? {
+          foldSized: `(${sizedOf(options)}; ${inside})`,
+          compactFoldSized: `(${sizedOf({ ...options, compact: true })}; ${inside})`,
+        }
+      : { foldSized: undefined, compactFoldSized: undefined }),
     foldShort: hidden ? `(hidden: ${hiddenCount(hidden.nodes, options)}; ${few})` : "",
     // Below an added (removed) node every node is added (removed, or moved away): its count says all.
     foldTiny: !hidden ? "" : allChanged ? bare : `(${bare.slice(1, -1)}, ${formatCount(changed)} changed)`,

@@ -117,13 +117,12 @@ export function keyLines(
   const parts = explanations(kind, facts);
   const tries: string[][] = [0, 1, 2].map((tier) => parts.map((p) => p[tier]));
   for (let n = parts.length - 1; n >= 2; n--) tries.push(parts.slice(0, n).map((p) => p[2]));
-  // A line's sizes cut (just after the numbers) stays longer than what the counts include: the line
-  // above it does not add up, which no other word on screen says.
-  const sized = parts.filter((p) => p[3] === "sizes");
-  if (sized.length > 0) tries.push(sized.map((p) => p[2]));
-  tries.push([parts[0][2]]);
-  // What no sum on screen can do without, in fewest words, before the leftover marks alone.
-  const least = [...(facts.sizesLeftOut ? [SIZES_GONE] : []), ...sized.map((p) => p[2])];
+  // What the sizes on screen are, or that they were cut, stays longest (see `vitalWords`); then the
+  // counts alone, then what no sum on screen can do without in fewest words, then the leftover marks.
+  const vital = vitalWords(facts, parts);
+  tries.push(vital);
+  if (!(facts.sizes ?? true)) tries.push([parts[0][2]]);
+  const least = [...(facts.sizesLeftOut ? [SIZES_GONE] : []), ...(facts.sizesCut ? [SIZE_CUT_LEAST] : [])];
   if (least.length > 0) tries.push(least);
   if (over !== "") tries.push([]);
   const row = (t: string[]) => `${ROW_INDENT}${[...(over ? [over] : []), ...t].join("; ")}`;
@@ -154,9 +153,9 @@ export function keyLine(
   const tiny = style === "markdown" ? marks : markWords(kind, facts.marks, style, "tiny");
   const [numbers, ...rest] = explanations(kind, facts);
   const cuts = rest.filter((p) => p[3] === "cut");
-  // Sizes left out, or cut from a line, stay said however short the key (see `explanations`).
+  // Sizes shown, left out, or cut from a line, stay said however short the key (see `vitalWords`).
   const sized = rest.filter((p) => p[3] === "sizes");
-  const must = [...(facts.sizesLeftOut ? [numbers[2]] : []), ...sized.map((p) => p[2])];
+  const must = vitalWords(facts, [numbers, ...rest]);
   const chain = rest.filter((p) => p[3] === "chain");
   const more = moreWords(facts);
   const long = (ps: Explanation[]) => ps.map((p) => p[0]);
@@ -173,14 +172,28 @@ export function keyLine(
   ];
   for (let n = cuts.length - 1; n >= 0; n--) tries.push([compact, ...must, ...short(cuts.slice(0, n))]);
   // Fewer letters still for the marks, and what no sum on screen can do without said in fewest words.
-  const least = [...(facts.sizesLeftOut ? [SIZES_GONE] : []), ...sized.map((p) => p[2])];
-  tries.push([tiny, ...must], [tiny, ...least]);
+  const least = [...(facts.sizesLeftOut ? [SIZES_GONE] : []), ...(facts.sizesCut ? [SIZE_CUT_LEAST] : [])];
+  const vitalLeast = [...(facts.sizes === false ? [] : [numbers[2]]), ...least];
+  tries.push([tiny, ...must], [tiny, ...vitalLeast], [tiny, ...least]);
   for (const parts of tries) {
     const text = `key: ${parts.filter((part) => part !== "").join("; ")}`;
     if (width === undefined || displayWidth(text) <= width) return text;
   }
   return shortenEnd(`key: ${tiny}`, width!);
 }
+
+/**
+ * What a key says however short it is, besides the marks: what the sizes on screen are (totals with
+ * all below), that they were left out to fit, or that a line's were cut (`size cut`), each in fewest
+ * words; nothing for an input without sizes.
+ */
+function vitalWords(facts: KeyFacts, parts: readonly Explanation[]): string[] {
+  if (!(facts.sizes ?? true)) return [];
+  return [parts[0][2], ...parts.filter((p) => p[3] === "sizes").map((p) => p[2])];
+}
+
+/** A line's sizes cut, in fewest words: the line above it does not add up by size. */
+const SIZE_CUT_LEAST = `'${SIZE_CUT}': sum above off`;
 
 /** Sizes left out of every line, in fewest words. */
 const SIZES_GONE = "sizes cut";
@@ -211,14 +224,19 @@ function explanations(kind: "summary" | "diff", facts: KeyFacts): Explanation[] 
           "counts: all below; sizes cut",
           "numbers",
         ]
-      : [numbers, `${sizes ? "totals" : "counts"} include all below`, "N nodes: all below", "numbers"],
+      : [
+          numbers,
+          `${sizes ? "totals" : "counts"} include all below`,
+          `${sizes ? "totals" : "N nodes"}: all below`,
+          "numbers",
+        ],
   ];
   // A line whose sizes did not fit says `size cut`; the line above it then does not add up by size.
   if (facts.sizesCut)
     said.push([
       `'${SIZE_CUT}' a line's sizes did not fit, so the sizes of the line above it do not add up`,
       `'${SIZE_CUT}': so the line above's sizes do not add up`,
-      `'${SIZE_CUT}': line above won't add up`,
+      `'${SIZE_CUT}': above won't add up`,
       "sizes",
     ]);
   if (facts.countsCut)

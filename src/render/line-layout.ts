@@ -50,6 +50,13 @@ export interface LineParts {
   foldShort: string;
   /** The fold with only how many nodes it hides (`(41 hidden)`; in a diff with how many changed). */
   foldTiny: string;
+  /**
+   * The fold's numbers in fewest words, its size kept (`(41 hidden, 2.0 MiB)`; in a diff with what
+   * changed after a `;`), when the fold has a size; else absent.
+   */
+  foldSized?: string;
+  /** The same with compact numbers. */
+  compactFoldSized?: string;
   /** The fold's count alone (`(41 hidden)`), when `foldTiny` says more (a diff's changes); else absent. */
   foldBare?: string;
   /** The compact fold without how many children it holds, when it differs from `compactFold`. */
@@ -137,7 +144,7 @@ export interface LaidOutLine {
  * that `nodes = 1 + the lines below + hidden` can be checked on every line a screen can hold. When
  * the line is too wide, what gives way, in turn (the first that fits is used):
  *   1. the fold drops how many children it hides and keeps its numbers (`(hidden: 41 nodes, 2.0 MiB)`),
- *      without a size in it to its fewest words (`(41 hidden)`);
+ *      then says them in fewest words (`(41 hidden, 2.0 MiB)`; without a size `(41 hidden)`);
  *   2. the tag's old path or old name is cut to a few columns (`…` marks every cut);
  *   3. the labels are cut, down to 8 columns a name, then to 4: one name at its end, or around where it
  *      differs from its siblings when the end cut would lose that; a chain's longest names at their
@@ -212,11 +219,11 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
   const compactFoldCounts = p.compactFoldCounts ?? p.compactFold;
   const sign = p.fold ? FOLD_SIGN : "";
   const short = shortIndent(p.level, width);
-  // The fold in fewer words when that loses no number (no size in it): `(41 hidden)`.
-  const foldWords = p.foldShort === p.foldCounts ? p.foldTiny : p.foldCounts;
+  // The fold in fewer words, every number kept: `(41 hidden)`, with a size `(41 hidden, 2.0 MiB)`.
+  const foldWords = p.foldShort === p.foldCounts ? p.foldTiny : (p.foldSized ?? p.foldCounts);
   // [indentation, tag, fewest label columns (0: whole), numbers, fold]; from FIRST_CUT on a step may
   // leave a number out.
-  const compactWords = p.foldShort === p.foldCounts ? p.foldTiny : compactFoldCounts;
+  const compactWords = p.foldShort === p.foldCounts ? p.foldTiny : (p.compactFoldSized ?? compactFoldCounts);
   const steps: [string, string, number, string, string][] = [
     [indent, p.tag, 0, p.numbers, p.fold],
     [indent, p.tag, 0, p.numbers, p.foldCounts],
@@ -261,7 +268,8 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     const numbersCut =
       !keepAll &&
       k >= FIRST_CUT &&
-      (numbers !== p.compactNumbers || (fold !== compactFoldCounts && fold !== foldWords));
+      (numbers !== p.compactNumbers ||
+        (fold !== compactFoldCounts && fold !== foldWords && fold !== compactWords));
     return {
       text: line(ind, text, tag, numbers, fold, true),
       numbersCut,

@@ -75,7 +75,27 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
     compactFoldCounts: joined(last.hidden ? `(hidden: ${foldAmount(group, last, compact)})` : "", parents),
     foldShort: joined(last.hidden ? `(hidden: ${hiddenCount(last.hidden.nodes, options)})` : "", parents),
     foldTiny: last.hidden ? `(${formatCount(last.hidden.nodes)} hidden)` : "",
+    ...(last.hidden && options.sizes
+      ? {
+          foldSized: joined(`(${hiddenSized(group, last, options)})`, parents),
+          compactFoldSized: joined(`(${hiddenSized(group, last, compact)})`, parents),
+        }
+      : {}),
   };
+}
+
+/**
+ * The fold's numbers with its count said as `41 hidden` (`41 hidden, 2.0 MiB`): `foldAmount` in
+ * fewest words, every number kept.
+ */
+export function hiddenSized<T extends ViewNode>(
+  group: LineGroup<T>,
+  node: T,
+  options: NumberOptions,
+): string {
+  const n = node.hidden!.nodes;
+  const count = amount(n, 0, { ...options, sizes: false, always: true });
+  return `${formatCount(n, options.compact)} hidden${foldAmount(group, node, options).slice(count.length)}`;
 }
 
 /** What marks an empty entry (an input object with no field, `{}`) on its line and in a fold. */

@@ -4,7 +4,7 @@ import { KEY_MAP } from "../../src/explore/key-map.js";
 import type { Key } from "../../src/explore/keys.js";
 import { CURSOR_MARK, draw } from "../../src/explore/screen.js";
 import { summarySession } from "../../src/explore/session.js";
-import { type ExploreEvent, startState, update } from "../../src/explore/update.js";
+import { type ExploreEvent, MIN_COLUMNS, startState, update } from "../../src/explore/update.js";
 import { resolveFoci } from "../../src/focus/resolve.js";
 import { loadTree } from "../../src/load/index.js";
 import { defaultLoadOptions } from "../../src/load/load-options.js";
@@ -149,6 +149,35 @@ describe("draw(session, state, colour)", () => {
     const shown = all.map((screen) => screen.rows.join("\n")).join("\n");
     expect(leakedNames(shown, realNames)).toEqual([]);
   });
+  it("on a screen narrower than its lines' floor, says how many columns it needs instead of cutting the key", () => {
+    // Below GUTTER + MIN_WIDTH columns the key and the lines would be cut short of what they say
+    // (docs/cli.md, explore): the screen names the narrowest width that shows the view.
+    const s = sessionWith({});
+    const at = (cols: number) =>
+      draw(
+        s,
+        startState(s, {
+          rows: 20,
+          cols,
+          foci: resolveFoci(prepared.index, ["Q2417"]),
+          importance: "depth",
+          fociFile: "f",
+        }),
+        false,
+      ).rows;
+    expect(at(MIN_COLUMNS - 1)[0]).toBe(`needs ${MIN_COLUMNS} columns`);
+    for (let cols = 16; cols < MIN_COLUMNS; cols++) {
+      const rows = at(cols);
+      expect(rows[0], `${cols}`).toMatch(new RegExp(`needs ${MIN_COLUMNS} columns$`));
+      for (const row of rows) expect(displayWidth(row)).toBeLessThanOrEqual(cols);
+      expect(rows.join("\n")).not.toMatch(/^key: /m);
+    }
+    // From the floor on, the tree is drawn with its key, every row within the width.
+    const wide = at(MIN_COLUMNS);
+    expect(wide.some((r) => /^ *key: /.test(r))).toBe(true);
+    for (const row of wide) expect(displayWidth(row)).toBeLessThanOrEqual(MIN_COLUMNS);
+  });
+
   it("on a screen too short for the view, names the fewest rows that show it", () => {
     const s = sessionWith({});
     const start = (rows: number) =>

@@ -187,7 +187,7 @@ describe("renderDiffText(view, totals, { width }): a fold's sizes in a diff", ()
       ": R  11 nodes, 117, net +6  (hidden: 10 nodes, 117; 2 added, 1 removed, 1 resized, net +6)",
     );
     expect(render(oldTree, newTree, 2, 70)).toContain(
-      ": R  11 nodes, 117, net +6  (hidden: 10 nodes, 117; 4 changed, net +6)",
+      ": R  11 nodes, 117, net +6  (10 hidden, 117; 4 changed, net +6)",
     );
   });
 });

@@ -115,9 +115,9 @@ describe("renderText(view, { width })", () => {
           expect(lines.length).toBe(result.selection.lines);
           // No fold goes without a sign: every line whose node hides children says so.
           const folds = lineGroups(result.view, chains).filter((g) => g.nodes[g.nodes.length - 1].hidden);
-          expect(lines.filter((l) => / \([0-9,]+ hidden\)$| \(hidden: | \(hidden\)$/.test(l))).toHaveLength(
-            folds.length,
-          );
+          expect(
+            lines.filter((l) => / \([0-9,]+ hidden(?:, [^)]*)?\)$| \(hidden: | \(hidden\)$/.test(l)),
+          ).toHaveLength(folds.length);
         },
       ),
     );
@@ -138,7 +138,7 @@ describe("renderText(view, { width })", () => {
     expect(renderText(result.view, { units: "plain", sizes: false, width: MIN_WIDTH })).toContain(". a");
   });
 
-  it("cuts names before numbers, leaves a line's sizes out (saying so) before a count, a chain keeps its joins", () => {
+  it("cuts names before numbers, leaves sizes out before a count, a chain keeps its joins", () => {
     const tree = makeTree("R{Esme Orby Lead Firmware Engineer:123456{a:1,b:2},alpha{beta{gamma:5{q,r}}}}");
     const result = summarize(prepare(tree), { foci: [], budget: 3, importance: "depth", chains: true });
     const lines = (width: number) =>
@@ -149,19 +149,24 @@ describe("renderText(view, { width })", () => {
     );
     // First the fold's count of children goes, every number kept exact: 3 = 1 + 2 hidden.
     expect(at(76)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123,459  (hidden: 2 nodes, 3)");
+    // Then the fold says its numbers in fewest words, both kept.
+    expect(at(75)).toBe("  . Esme Orby Lead Firmware Engineer  3 nodes, 123,459  (2 hidden, 3)");
     // Then the name is cut at its end (an ellipsis marks it), down to 8 columns, numbers exact.
-    expect(at(75)).toBe("  . Esme Orby Lead Firmware Engine…  3 nodes, 123,459  (hidden: 2 nodes, 3)");
-    expect(at(53)).toBe("  . Esme Orb…  3 nodes, 123,459  (hidden: 2 nodes, 3)");
+    expect(at(53)).toBe("  . Esme Orby Lead…  3 nodes, 123,459  (2 hidden, 3)");
+    expect(at(46)).toBe("  . Esme Orb…  3 nodes, 123,459  (2 hidden, 3)");
     // Then down to 4 columns, every number still exact (compact numbers, 123k, would save fewer
-    // columns than the name gives).
-    expect(at(50)).toBe("  . Esme…  3 nodes, 123,459  (hidden: 2 nodes, 3)");
-    // Narrower, the name gives way again down to 4 columns while the numbers turn compact, every
-    // number kept; the chain's line cannot keep its sizes so: it leaves them all out and says so in
-    // their place, its count kept (5 = 2 names + 3 hidden), and the other lines keep theirs.
-    expect(lines(46).slice(0, 3)).toEqual([
+    // columns than the name gives); the chain's names are cut too, its " / " kept, its sizes kept.
+    expect(lines(42).slice(0, 3)).toEqual([
       ". R  9 nodes, 123,464",
-      "  . Esme…  3 nodes, 123k  (hidden: 2 nodes, 3)",
-      "  . alp… / beta  5 nodes, size cut  (3 hidden)",
+      "  . Esme…  3 nodes, 123,459  (2 hidden, 3)",
+      "  . alp… / beta  5 nodes, 5  (3 hidden, 5)",
+    ]);
+    // Narrower, the chain's line cannot keep its count and its sizes, nor say `size cut` beside its
+    // count: every line leaves its sizes out (the key says so), every count kept.
+    expect(lines(40).slice(0, 3)).toEqual([
+      ". R  9 nodes",
+      "  . Esme Orby Lead…  3 nodes  (2 hidden)",
+      "  . alpha / beta  5 nodes  (3 hidden)",
     ]);
     // The count stays down to the narrowest width the renderers take: the name gives way.
     expect(at(36)).toBe("  . Esme Orby…  3 nodes  (2 hidden)");

@@ -93,9 +93,10 @@ describe("keyLine(kind, facts, width)", () => {
     expect(keyLine("summary", facts, 80)).toBe(
       "key: '*' a focus, ':' on the way to a focus, '.' other; totals include all below",
     );
-    expect(keyLine("summary", facts, 56)).toBe("key: '*' a focus, ':' on the way to a focus, '.' other");
-    // Narrower: each mark in a word or two, so every mark still has its meaning.
-    expect(keyLine("summary", facts, 50)).toBe("key: '*' focus, ':' above a focus, '.' other");
+    // Narrower: each mark in fewest words, so every mark keeps its meaning and the sizes theirs
+    // (60 columns: the narrowest a one-line key is printed at, see keyLines).
+    expect(keyLine("summary", facts, 60)).toBe("key: '*' focus, ':' on path, '.' other; totals: all below");
+    expect(keyLine("summary", facts, 50)).toBe("key: '*' focus, ':' on path, '.' other");
     // Narrower still, fewer letters: at 40 columns every mark is said.
     expect(keyLine("summary", facts, 40)).toBe("key: '*' focus, ':' on path, '.' other");
     expect(keyLine("summary", facts, MIN_WIDTH)).toBe("key: '*' focus, ':' on path,…");
@@ -205,7 +206,7 @@ describe("keyLines(kind, facts, width) at 40 and 60 columns (field test: '.' cut
   it("says every mark on screen: those the first line cannot hold open the second", () => {
     expect(keyLines("diff", three, 40)).toEqual([
       "key: '*' focus, ':' changed/above",
-      "  '.' unchanged; N nodes: all below",
+      "  '.' unchanged; totals: all below",
     ]);
     for (const width of [40, 45, 50, 55, 59])
       for (const kind of ["summary", "diff"] as const) {

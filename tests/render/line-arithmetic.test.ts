@@ -1,14 +1,18 @@
 import fc from "fast-check";
+import stringWidth from "string-width";
 import { describe, expect, it } from "vitest";
 import { diffTrees } from "../../src/diff/diff-trees.js";
 import { measure } from "../../src/model/measure.js";
 import { PathIndex } from "../../src/model/path-index.js";
 import type { Tree } from "../../src/model/tree.js";
 import { renderDiffText } from "../../src/render/diff-text.js";
+import { displayWidth } from "../../src/render/display-width.js";
 import { lineGroups } from "../../src/render/line-groups.js";
+import { MIN_WIDTH } from "../../src/render/line-layout.js";
 import { renderText } from "../../src/render/summary-text.js";
 import { prepare, summarize } from "../../src/summarize.js";
 import { arbEdited } from "../diff/edit-script.js";
+import { makeTree } from "../helpers/make-tree.js";
 import { arbTreeWithFoci } from "../helpers/random-tree.js";
 
 /**
@@ -135,7 +139,7 @@ describe("nodes = names + shown children + folded, read from the printed lines a
 // deep line's indentation may end in its level in digits (`12 `); a `?` stands for a count that did
 // not fit, and after it the fold may keep only its sign (`(hidden)`).
 const NARROW =
-  /^( *)(?:([0-9]+) )?[*:.] (.+?)(?: {2}(?:([0-9,]+) nodes(?:, [0-9.,]+k?|, size cut)?|[0-9.,]+k?|size cut|(\?)))?(?: {2}\((?:hidden: (?:[0-9,]+ child(?:ren)?, )?([0-9,]+) nodes?(?:, [0-9.,]+k?)?(?:; [^)]*)?|([0-9,]+) hidden(?:, [0-9,]+ changed)?|(hidden))\))?$/;
+  /^( *)(?:([0-9]+) )?[*:.] (.+?)(?: {2}(?:([0-9,]+) nodes(?:, [0-9.,]+k?|, size cut)?|[0-9.,]+k?|size cut|(\?)))?(?: {2}\((?:hidden: (?:[0-9,]+ child(?:ren)?, )?([0-9,]+) nodes?(?:, [0-9.,]+k?)?(?:; [^)]*)?|([0-9,]+) hidden(?:, [0-9.,]+k?)?(?:, [0-9,]+ changed)?|(hidden))\))?$/;
 
 function parseNarrow(text: string, width: number): Line[] {
   return text
@@ -169,12 +173,12 @@ function checkOn(text: string, width: number, total: number): void {
 }
 
 describe("the sums hold on narrow screens too: names give way before counts", () => {
-  it("holds on every line of a summary at any width from 40 columns, sizes on (property)", () => {
+  it("holds on every line of a summary at any width from MIN_WIDTH to 200 columns, sizes on (property)", () => {
     fc.assert(
       fc.property(
         arbTreeWithFoci(50),
         fc.integer({ min: 1, max: 40 }),
-        fc.integer({ min: 40, max: 120 }),
+        fc.integer({ min: MIN_WIDTH, max: 200 }),
         ([tree, f], extra, width) => {
           const result = arbitrarySummary(tree, f, extra);
           if (result === null) return;
@@ -193,12 +197,12 @@ describe("the sums hold on narrow screens too: names give way before counts", ()
     );
   });
 
-  it("holds on every line of a diff at any width from 40 columns (property)", () => {
+  it("holds on every line of a diff at any width from MIN_WIDTH to 200 columns (property)", () => {
     fc.assert(
       fc.property(
         arbEdited(),
         fc.integer({ min: 2, max: 30 }),
-        fc.integer({ min: 40, max: 120 }),
+        fc.integer({ min: MIN_WIDTH, max: 200 }),
         (edited, budget, width) => {
           const r = diffTrees(edited.oldTree, edited.newTree, {
             foci: [],
@@ -261,54 +265,118 @@ describe("own size = size - the sizes on the lines below - the hidden size, read
 });
 
 // A narrow sized line: the count and an exact or compact size (`123k`), or `size cut` where the sizes
-// did not fit; the fold with its size, or in fewer words once the line's sizes are cut.
+// did not fit; the fold with its size (`(hidden: 41 nodes, 123k)`, `(41 hidden, 123k)`), or without it
+// once the line's sizes are cut.
 const SIZED_NARROW =
-  /^( *)(?:([0-9]+) )?[*:.] (.+?)(?: {2}(?:[0-9,]+ nodes, )?(?:([0-9][0-9.,]*k?)|(size cut)))(?: {2}\((?:hidden: (?:[0-9,]+ child(?:ren)?, )?[0-9,]+ nodes?(?:, ([0-9][0-9.,]*k?))?|[0-9,]+ hidden)\))?$/;
+  /^( *)(?:([0-9]+) )?[*:.] (.+?)(?: {2}(?:[0-9,]+ nodes, )?(?:([0-9][0-9.,]*k?)|(size cut)))(?: {2}\((?:hidden: (?:[0-9,]+ child(?:ren)?, )?[0-9,]+ nodes?(?:, ([0-9][0-9.,]*k?))?|[0-9,]+ hidden(?:, ([0-9][0-9.,]*k?))?)\))?$/;
+
+/**
+ * Reads a sized narrow screen (`SIZED_NARROW`) as a reader would and checks, on every line whose size
+ * and whose lines' sizes below are exact, that its size less those and the hidden size is the own size
+ * of its names, and that the first line's size, when exact, is the whole tree's. False when the screen
+ * prints no size at all.
+ */
+function checkSizes(text: string, width: number, tree: Tree, result: ReturnType<typeof summarize>): boolean {
+  const rows = text.trimEnd().split("\n");
+  // Sizes off every line (a line could not even say `size cut`): nothing to add up by size.
+  if (!rows.some((r) => SIZED_NARROW.test(r))) return false;
+  // An exact size, or NaN: compact (`123k`) or cut.
+  const exact = (s: string | undefined) =>
+    s === undefined || s.endsWith("k") ? Number.NaN : Number(s.replaceAll(",", ""));
+  const lines = rows.map((row) => {
+    const m = SIZED_NARROW.exec(row);
+    expect(m, `${width}: ${row}\n${text}`).not.toBeNull();
+    const [, indent, digits, , size, cut, hiddenLong, hiddenShort] = m!;
+    const hidden = hiddenLong ?? hiddenShort;
+    const folded = /\((?:hidden|[0-9,]+ hidden)/.test(row);
+    // With its sizes kept, a line's fold keeps its size too: no number on it is half a sum.
+    if (!cut && folded) expect(hidden, `${width}: ${row}`).toBeDefined();
+    return {
+      level: digits === undefined ? indent.length / 2 : Number(digits),
+      size: cut ? Number.NaN : exact(size),
+      hidden: folded ? exact(hidden) : 0,
+    };
+  });
+  const groups = lineGroups(result.view, true);
+  expect(groups).toHaveLength(lines.length);
+  lines.forEach((line, k) => {
+    let below = 0;
+    for (let j = k + 1; j < lines.length && lines[j].level > line.level; j++)
+      if (lines[j].level === line.level + 1) below += lines[j].size;
+    // A size compact or cut, here or on a line below: the key says this line does not add up.
+    if (Number.isNaN(line.size - below - line.hidden)) return;
+    const own = groups[k].nodes.reduce((sum, n) => sum + tree.ownSize[n.index], 0);
+    expect(line.size - below - line.hidden, `line ${k} at ${width}: ${text}`).toBe(own);
+  });
+  const total = Array.from(tree.ownSize).reduce((sum, x) => sum + x, 0);
+  if (!Number.isNaN(lines[0].size)) expect(lines[0].size, `total at ${width}: ${text}`).toBe(total);
+  return true;
+}
 
 describe("own size = size - the sizes below - the hidden size on narrow screens, a line's `size cut` aside", () => {
-  it("holds on every line whose size and whose lines' sizes below are shown exactly, widths 40-120 (property)", () => {
+  it("holds on every line whose size and whose lines' sizes below are shown exactly, widths MIN_WIDTH-200 (property)", () => {
     fc.assert(
       fc.property(
         arbTreeWithFoci(50),
         fc.integer({ min: 1, max: 40 }),
-        fc.integer({ min: 40, max: 120 }),
+        fc.integer({ min: MIN_WIDTH, max: 200 }),
         ([tree, f], extra, width) => {
           const result = arbitrarySummary(tree, f, extra);
           if (result === null) return;
           const text = renderText(result.view, { units: "plain", sizes: true, chains: true, width });
-          const rows = text.trimEnd().split("\n");
-          // Sizes off every line (a line could not even say `size cut`): nothing to add up by size.
-          if (!rows.some((r) => SIZED_NARROW.test(r))) return;
-          // An exact size, or NaN: compact (`123k`) or cut.
-          const exact = (s: string | undefined) =>
-            s === undefined || s.endsWith("k") ? Number.NaN : Number(s.replaceAll(",", ""));
-          const lines = rows.map((row) => {
-            const m = SIZED_NARROW.exec(row);
-            expect(m, `${width}: ${row}\n${text}`).not.toBeNull();
-            const [, indent, digits, , size, cut, hidden] = m!;
-            const folded = /\(hidden/.test(row) || / hidden\)$/.test(row);
-            // With its sizes kept, a line's fold keeps its size too: no number on it is half a sum.
-            if (!cut && folded) expect(hidden, `${width}: ${row}`).toBeDefined();
-            return {
-              level: digits === undefined ? indent.length / 2 : Number(digits),
-              size: cut ? Number.NaN : exact(size),
-              hidden: folded ? exact(hidden) : 0,
-            };
-          });
-          const groups = lineGroups(result.view, true);
-          expect(groups).toHaveLength(lines.length);
-          lines.forEach((line, k) => {
-            let below = 0;
-            for (let j = k + 1; j < lines.length && lines[j].level > line.level; j++)
-              if (lines[j].level === line.level + 1) below += lines[j].size;
-            // A size compact or cut, here or on a line below: the key says this line does not add up.
-            if (Number.isNaN(line.size - below - line.hidden)) return;
-            const own = groups[k].nodes.reduce((sum, n) => sum + tree.ownSize[n.index], 0);
-            expect(line.size - below - line.hidden, `line ${k} at ${width}: ${text}`).toBe(own);
-          });
+          checkSizes(text, width, tree, result);
         },
       ),
       { numRuns: 300 },
     );
+  });
+});
+
+// Names a narrow screen must measure right (Unicode UAX #11, East Asian Width): CJK ideographs and
+// katakana (class W) and fullwidth letters (class F) take two columns each, halfwidth katakana
+// (class H) one, a combining acute accent (U+0301, general category Mn) none. The organisation is
+// invented (a fictional company's folders).
+const WIDE_NAMES = ["東京", "データ基盤", "ＡＢ", "ｶﾀｶﾅ", "e\u0301te\u0301", "kelp-log", "a"];
+
+describe("at every width from the floor (MIN_WIDTH) to 200, counts and sizes add up to the totals", () => {
+  it("holds with wide and combining names, every line measured as string-width measures it (property)", () => {
+    fc.assert(
+      fc.property(
+        arbTreeWithFoci(50, 3, WIDE_NAMES),
+        fc.integer({ min: 1, max: 40 }),
+        fc.integer({ min: MIN_WIDTH, max: 200 }),
+        ([tree, f], extra, width) => {
+          const result = arbitrarySummary(tree, f, extra);
+          if (result === null) return;
+          const text = renderText(result.view, { units: "plain", sizes: true, chains: true, width });
+          for (const line of text.trimEnd().split("\n")) {
+            // Source: string-width, the reference library for terminal widths (UAX #11).
+            expect(displayWidth(line), line).toBe(stringWidth(line));
+            expect(stringWidth(line), `${width}: ${line}`).toBeLessThanOrEqual(width);
+          }
+          checkOn(text, width, tree.length);
+          checkSizes(text, width, tree, result);
+        },
+      ),
+      { numRuns: 200 },
+    );
+  });
+
+  it("holds at each width 30 to 200 on one screen of wide names, its sizes kept from 60 columns", () => {
+    // An invented company's shared drive: 東京 (Tokyo office) with a data platform folder and some
+    // files; names measured per UAX #11 as above. Every width is laid out, not a sample.
+    const tree = makeTree(
+      "R{東京:4{データ基盤:40000{ｶﾀｶﾅ:1,ＡＢ:2,c:3},e\u0301te\u0301{kelp-log:5{q:7,r:9}},x:11},backups{a:100,b:200}}",
+    );
+    const result = summarize(prepare(tree), { foci: [], budget: 4, importance: "depth", chains: true });
+    for (let width = MIN_WIDTH; width <= 200; width++) {
+      const text = renderText(result.view, { units: "plain", sizes: true, chains: true, width });
+      for (const line of text.trimEnd().split("\n"))
+        expect(stringWidth(line), `${width}: ${line}`).toBeLessThanOrEqual(width);
+      checkOn(text, width, tree.length);
+      const sized = checkSizes(text, width, tree, result);
+      // Where every line can hold its count and its sizes, they are there (the reader sees the bytes).
+      if (width >= 60) expect(sized, `${width}:\n${text}`).toBe(true);
+    }
   });
 });

@@ -80,7 +80,7 @@ describe("MARK and legendLines(kind)", () => {
     // R's line: 8 nodes = 1 + 4 on A's line + 3 hidden (B and its two children: nodes, not B alone),
     // the sum the legend states.
     expect(text.split("\n")[0]).toMatch(/^[.:] R {2}8 nodes.* \(3 hidden\)$/);
-    expect(legendLines("summary")[1]).toContain("(k hidden): k nodes hidden");
+    expect(legendLines("summary")[1]).toContain("(k hidden, S): k nodes hidden, S their size");
     expect(legendLines("diff")[1]).toContain("(k hidden, c changed): k nodes hidden, c of them changed");
   });
 

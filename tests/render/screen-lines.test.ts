@@ -9,7 +9,7 @@ import { cli } from "../helpers/cli.js";
 import { makeTree } from "../helpers/make-tree.js";
 
 describe("screenLines(groups, parts, options)", () => {
-  const tree = makeTree("R{ledger-core:40000{a:1,b:2},riptide-rpc{kelp-log:5{q,r}}}");
+  const tree = makeTree("R{ledger-core:40000{a:1,b:2},riptide-rpc{kelp-log:5{q:123456,r}}}");
   const result = summarize(prepare(tree), { foci: [], budget: 3, importance: "depth", chains: true });
   const groups = lineGroups(result.view, true);
   const at = (width: number) => screenLines(groups, lineParts, { units: "plain", sizes: true, width });
@@ -18,33 +18,33 @@ describe("screenLines(groups, parts, options)", () => {
     const wide = at(80);
     expect(wide.sizesLeftOut).toBe(false);
     expect(wide.lines).toEqual([
-      ". R  8 nodes, 40,008",
+      ". R  8 nodes, 163,464",
       "  . ledger-core  3 nodes, 40,003  (hidden: 2 children, 2 nodes, 3)",
-      "  . riptide-rpc / kelp-log  4 nodes, 5  (hidden: 2 children, 2 nodes, 0)",
+      "  . riptide-rpc / kelp-log  4 nodes, 123,461  (hidden: 2 nodes, 123,456)",
     ]);
   });
 
   it("cuts one line's sizes, saying so, when only that line cannot hold them; the others keep theirs", () => {
-    // At 48 columns "  . riptide-rpc / kelp-log  4 nodes, 5  (hidden: 2 nodes, 0)" does not fit even
-    // with its names at 4 columns each: it says `size cut` where its sizes were and keeps its count
-    // (4 = 2 names + 2 hidden); the other lines keep their sizes, each name cut to 4 columns first
-    // (ledger-core: 40,003 - 3 hidden = its own 40,000).
-    const mid = at(48);
+    // At 46 columns "  . riptide-rpc / kelp-log  4 nodes, 123k  (2 hidden, 123k)" does not fit even
+    // with its names at 4 columns each and its fold in fewest words: it says `size cut` where its
+    // sizes were and keeps its count (4 = 2 names + 2 hidden); the other lines keep their sizes, a
+    // name cut first (ledger-core: 40,003 - 3 hidden = its own 40,000).
+    const mid = at(46);
     expect(mid.sizesLeftOut).toBe(false);
     expect(mid.sizesCut).toBe(true);
     expect(mid.lines).toEqual([
-      ". R  8 nodes, 40,008",
-      "  . ledg…  3 nodes, 40,003  (hidden: 2 nodes, 3)",
-      "  . ript… / kelp…  4 nodes, size cut  (2 hidden)",
+      ". R  8 nodes, 163,464",
+      "  . ledger-co…  3 nodes, 40,003  (2 hidden, 3)",
+      "  . rip… / kel…  4 nodes, size cut  (2 hidden)",
     ]);
     // The key says what `size cut` means for the line above it (R: 40,008 is not 40,003 + a size shown).
-    const key = keyLines("summary", keyFacts(mid.parts, {}, mid), 48).join("\n");
+    const key = keyLines("summary", keyFacts(mid.parts, {}, mid), 46).join("\n");
     expect(key).toContain("'size cut'");
   });
 
   it("leaves sizes out of every line when a line cannot even say that its sizes were cut", () => {
-    // At 40 columns "  . riptide-rpc / kelp-log  4 nodes, 5  (2 hidden)" needs its fold's size gone
-    // (or the line's), and `4 nodes, size cut` does not fit either: the whole screen prints counts
+    // At 40 columns "  . riptide-rpc / kelp-log  4 nodes, 123k  (2 hidden, 123k)" needs its fold's
+    // size gone (or the line's), and `4 nodes, size cut` does not fit either: the whole screen prints counts
     // instead, and every count adds up from the lines (8 = 1 + 3 + 4; 3 = 1 + 2 hidden; 4 = 2 names +
     // 2 hidden), the chain's " / " kept.
     const narrow = at(40);
@@ -81,7 +81,7 @@ describe("keyLines(kind, facts, width)", () => {
     ]);
     expect(keyLines("diff", { ...facts, changesCut: true, namesCut: true }, 50)).toEqual([
       "key: ':' change or above one, '.' unchanged",
-      "  N nodes: all below; changes cut",
+      "  totals: all below; changes cut",
     ]);
     // From 60 columns the same facts share the one line.
     expect(keyLines("summary", cut, 100)).toEqual([
