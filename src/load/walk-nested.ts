@@ -4,6 +4,7 @@ import { isSize } from "../model/size-rule.js";
 import { badNodeSize } from "./bad-node-size.js";
 import { describeNode } from "./describe-node.js";
 import { defaultLoadOptions, type LoadOptions } from "./load-options.js";
+import { MISSING_FIELD, missingEntriesNote } from "./missing-entries.js";
 import {
   atMostOneLevel,
   FieldsSeen,
@@ -84,6 +85,10 @@ export function walkNested<V>(
   // empty[i] = 1 when node i's object has no field at all (`{}`).
   let empty: Uint8Array<ArrayBuffer> | undefined;
   let emptyEntries = 0;
+  // Node objects holding `"missing": true` (missing-entries.ts), the first, and the line of its field.
+  let missingEntries = 0;
+  let firstMissing = -1;
+  let firstMissingLine = 0;
   let references = 0;
   const refer = (i: number, to: number) => {
     while (i >= referenceOf.length) {
@@ -206,6 +211,14 @@ export function walkNested<V>(
       );
     }
 
+    const missing = access.field(v, MISSING_FIELD);
+    if (access.kind(missing) === Kind.Boolean && access.text(missing as V) === "true") {
+      if (missingEntries++ === 0) {
+        firstMissing = i;
+        firstMissingLine = access.line(missing);
+      }
+    }
+
     const children = access.field(v, childrenField);
     const childrenKind = access.kind(children);
     if (unreadChildrenAt === undefined && childrenField !== DEFAULT_CHILDREN) {
@@ -309,6 +322,10 @@ export function walkNested<V>(
   if (!sink.hasSizes && sizeFieldNamed(options)) throw missingField("size", sizeField, seen.list(), true);
   if (!hasNames && nameFieldNamed(options)) throw missingField("name", nameField, seen.list(), true);
   sink.nameNamelessTop(options.rootName);
+  const missingNote =
+    missingEntries === 0
+      ? undefined
+      : missingEntriesNote(missingEntries, where(firstMissing), firstMissingLine || undefined);
   const linked = sink.finish(options.rootName, fields, null, {
     shape: "nodes",
     sizeUnit: fieldSizeUnit(options.sizeField),
@@ -316,6 +333,7 @@ export function walkNested<V>(
     ...(found ? { childrenFieldFound: true } : {}),
     ...(emptyEntries > 0 ? { emptyEntries } : {}),
     ...(!hasNames && unkeyed > 1 ? { unnamed: nameField } : {}),
+    ...(missingNote ? { notes: [missingNote] } : {}),
   });
   const withEmpty = empty === undefined ? linked : { ...linked, empty: empty.slice(0, sink.length) };
   return linkedReferences ? { ...withEmpty, referenceOf: linkedReferences } : withEmpty;

@@ -30,6 +30,8 @@ export interface ReadingNote {
  * node's children field), or an id repeats in a JSON adjacency map: the last value was read, as
  * JSON.parse reads it (load/json/json-loader.ts, load/graph-input.ts). `UNSIZED_IMPORTANCE`:
  * `--importance size` on an input without sizes, which ranks as `--importance depth` (cli/input.ts).
+ * `MISSING_ENTRIES`: node objects holding `"missing": true`, as `npm ls --all --json` lists a dependency
+ * it did not find, counted as nodes (load/missing-entries.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -39,6 +41,7 @@ export const readingNoteCodes = [
   "SIZES_LEFT_OUT",
   "REPEATED_KEY",
   "UNSIZED_IMPORTANCE",
+  "MISSING_ENTRIES",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

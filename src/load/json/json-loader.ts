@@ -6,6 +6,7 @@ import { isSize } from "../../model/size-rule.js";
 import { badNodeSize } from "../bad-node-size.js";
 import { describeNode } from "../describe-node.js";
 import { defaultLoadOptions, type LoadOptions } from "../load-options.js";
+import { MISSING_FIELD, missingEntriesNote } from "../missing-entries.js";
 import {
   atMostOneLevel,
   FieldsSeen,
@@ -60,9 +61,13 @@ const F_NAME = 1;
 const DEFAULT_CHILDREN = defaultLoadOptions.childrenField;
 const F_SIZE = 2;
 const F_CHILDREN = 4;
+/** The field by which a node says it is missing (missing-entries.ts). */
+const F_MISSING = 8;
 
-// What `sized` says of a node.
+// What `sized` says of a node: SIZED, or EMPTY; with MISSING besides.
+const SIZED = 1;
 const EMPTY = 2;
+const MISSING = 4;
 
 interface Field {
   bytes: Uint8Array;
@@ -92,6 +97,9 @@ class Frame {
   childrenMark = -1;
   /** Keys the node object has so far: none at its end makes it an empty entry (`{}`). */
   fieldCount = 0;
+  /** Whether its `missing` field's last value is `true` (missing-entries.ts), and the line of that value. */
+  missing = false;
+  missingLine = 0;
   /**
    * Children by name: the keys seen, the children in input order, whether they need reordering. Made
    * when a level first holds children by name, so a chain a million levels deep costs no Set per level.
@@ -173,6 +181,10 @@ export class JsonLoader extends JsonTokenizer {
   private repeats = 0;
   private firstRepeat: { key: string; line: number } | undefined;
   private droppedNodes = 0;
+  /** The line of each `"missing": true` by node (MISSING_ENTRIES), while no node is moved or dropped. */
+  private readonly missingLines = new Map<number, number>();
+  /** Whether children by name were put in JSON.parse's order (nodes moved: missingLines may be stale). */
+  private reordered = false;
 
   /** `found`: espalier chose `options.childrenField` (the configured one was absent). */
   constructor(options: LoadOptions, as?: "json" | "rows", found = false) {
@@ -196,6 +208,7 @@ export class JsonLoader extends JsonTokenizer {
     add(options.sizeField, F_SIZE, -1);
     add(options.childrenField, F_CHILDREN, -1);
     for (let f = 0; f < options.keepFields.length; f++) add(options.keepFields[f], 0, f);
+    add(MISSING_FIELD, F_MISSING, -1);
   }
 
   /** Ends the input; the nodes, ready for `buildTree`. */
@@ -218,7 +231,8 @@ export class JsonLoader extends JsonTokenizer {
     }
     if (this.unreadChildrenAt !== undefined && atMostOneLevel(sink.parentOf, sink.length))
       throw wrapperChildren(this.options.childrenField, this.unreadChildrenAt, "json");
-    for (let i = 0; i < sink.length && !sink.hasSizes; i++) if (this.sized[i] === 1) sink.hasSizes = true;
+    for (let i = 0; i < sink.length && !sink.hasSizes; i++)
+      if ((this.sized[i] & SIZED) !== 0) sink.hasSizes = true;
     if (!sink.hasSizes && sizeFieldNamed(this.options))
       throw missingField("size", this.options.sizeField, this.seen.list(), true);
     if (!this.hasNames && nameFieldNamed(this.options))
@@ -244,6 +258,10 @@ export class JsonLoader extends JsonTokenizer {
     let emptyEntries = 0;
     for (let i = 0; i < sink.length; i++) if (this.sized[i] === EMPTY) emptyEntries++;
     sink.nameNamelessTop(this.options.rootName);
+    const notes: ReadingNote[] = [];
+    if (this.repeats > 0) notes.push(this.repeatNote());
+    const missing = this.missingNote();
+    if (missing) notes.push(missing);
     const linked = sink.finish(this.options.rootName, fields, null, {
       shape: "nodes",
       sizeUnit: fieldSizeUnit(this.options.sizeField),
@@ -251,7 +269,7 @@ export class JsonLoader extends JsonTokenizer {
       ...(this.found ? { childrenFieldFound: true } : {}),
       ...(emptyEntries > 0 ? { emptyEntries } : {}),
       ...(!this.hasNames && this.unkeyed > 1 ? { unnamed: this.options.nameField } : {}),
-      ...(this.repeats > 0 ? { notes: [this.repeatNote()] } : {}),
+      ...(notes.length > 0 ? { notes } : {}),
     });
     if (emptyEntries === 0) return linked;
     const empty = new Uint8Array(sink.length);
@@ -447,6 +465,10 @@ export class JsonLoader extends JsonTokenizer {
     for (const f of field.keeps) {
       this.kept[f][i] = kind === NUMBER ? numberText(value, text) : text;
     }
+    if ((field.mask & F_MISSING) !== 0) {
+      frame.missing = kind === BOOLEAN && text === "true";
+      frame.missingLine = this.pos.line;
+    }
   }
 
   /** A later children field replaces an earlier one (JSON.parse keeps the last value of a key). */
@@ -479,6 +501,23 @@ export class JsonLoader extends JsonTokenizer {
       line,
       parts: say`line ${line} repeats the key ${quoted.name(key)} of its object${more}: as JSON.parse does, the last value is read and the earlier ones (${nodes}) are not; RFC 8259 leaves a repeated key to each reader, so give each key once, or read every value with --read-as values`,
     };
+  }
+
+  /**
+   * MISSING_ENTRIES when some node objects hold `"missing": true`; the first one's line is given unless
+   * a repeated key dropped nodes (it may have been among them). Undefined when none does.
+   */
+  private missingNote(): ReadingNote | undefined {
+    const { sink, sized } = this;
+    let count = 0;
+    let first = -1;
+    for (let i = 0; i < sink.length; i++)
+      if ((sized[i] & MISSING) !== 0) {
+        if (count++ === 0) first = i;
+      }
+    if (count === 0) return undefined;
+    const line = this.droppedNodes === 0 && !this.reordered ? this.missingLines.get(first) : undefined;
+    return missingEntriesNote(count, this.where(first), line);
   }
 
   /** Adds the child named by the current key of the children-by-name object at `top`. */
@@ -591,6 +630,7 @@ export class JsonLoader extends JsonTokenizer {
         if (field.keeps.length > 0) {
           this.captures.start(C_KEEP, top + 1, i, node, field.keeps);
         }
+        if ((field.mask & F_MISSING) !== 0) parentFrame.missing = false;
         break;
       }
       case S_ROW:
@@ -616,6 +656,7 @@ export class JsonLoader extends JsonTokenizer {
     frame.childrenKind = ABSENT;
     frame.childrenMark = -1;
     frame.fieldCount = 0;
+    frame.missing = false;
   }
 
   /** Closes the innermost container, whose last byte is at offset `i` of `buf`. */
@@ -648,6 +689,7 @@ export class JsonLoader extends JsonTokenizer {
       this.closeNode(frame);
     } else if (role === CHILD_MAP) {
       if (frame.reorder) {
+        this.reordered = true;
         const mark = this.frames[top - 1].childrenMark;
         this.droppedNodes += reorderKeyedChildren(
           this.sink,
@@ -688,7 +730,7 @@ export class JsonLoader extends JsonTokenizer {
         });
       }
       this.sink.ownSize[i] = size;
-      this.sized[i] = 1;
+      this.sized[i] = SIZED;
     } else if (sizeKind !== ABSENT && sizeKind !== NULL) {
       const shownSize = sizeKind === STRING ? quoted.value(frame.sizeText) : "a non-number";
       throw this.badSize(shownSize, i, sizeField, { line: frame.sizeLine, column: frame.sizeColumn });
@@ -700,6 +742,10 @@ export class JsonLoader extends JsonTokenizer {
         say`the "${childrenField}" of ${this.where(i)} must be an array or an object keyed by child name`,
         { line: frame.childrenLine, column: frame.childrenColumn },
       );
+    }
+    if (frame.missing) {
+      this.sized[i] |= MISSING;
+      this.missingLines.set(i, frame.missingLine);
     }
   }
 
