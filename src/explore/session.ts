@@ -15,12 +15,19 @@ import type { NumberOptions } from "../render/amount.js";
 import { diffLineParts } from "../render/diff-line-parts.js";
 import type { Units } from "../render/format-size.js";
 import { diffHeaderLines, fociOf, type InputFacts, summaryHeaderLines } from "../render/header.js";
-import { KEY_MIN_BUDGET, keyContext, keyFacts, keyLines, keyRows } from "../render/key-line.js";
+import {
+  KEY_MIN_BUDGET,
+  keyContext,
+  keyExplainsSizes,
+  keyFacts,
+  keyLines,
+  keyRows,
+} from "../render/key-line.js";
 import { type LineGroup, lineGroups } from "../render/line-groups.js";
 import type { LineParts } from "../render/line-layout.js";
 import { lineParts } from "../render/line-parts.js";
 import type { Palette } from "../render/palette.js";
-import { screenLines } from "../render/screen-lines.js";
+import { type ScreenLines, screenLines } from "../render/screen-lines.js";
 import { type Prepared, type SummarizeOptions, type SummaryResult, summarize } from "../summarize.js";
 import type { ViewNode } from "../view/view-node.js";
 import { NameSearch } from "./search.js";
@@ -192,13 +199,16 @@ function screenOf<T extends ViewNode>(
     foci,
   }: { numbers: NumberOptions; width: number; look: LookOptions; foci: readonly string[] },
 ): { lines: string[]; groups: number[][] } {
-  const screen = screenLines(lineOf, parts, { ...numbers, width, palette: look.palette });
-  const quiet = look.palette?.quiet ?? ((t: string) => t);
   const context = keyContext({
     sizes: numbers.sizes,
     header: { budget: 0, lines: 0, foci, ...look.inputFacts },
   });
-  const facts = { ...keyFacts(screen.parts, context, screen), more: "h" };
+  const factsOf = (s: ScreenLines) => ({ ...keyFacts(s.parts, context, s), more: "h" });
+  // A `size cut` the key has no room to explain leaves sizes off every line (see `screenLines`).
+  const explained = keyed > 0 ? (s: ScreenLines) => keyExplainsSizes(kind, factsOf(s), width) : undefined;
+  const screen = screenLines(lineOf, parts, { ...numbers, width, palette: look.palette }, explained);
+  const quiet = look.palette?.quiet ?? ((t: string) => t);
+  const facts = factsOf(screen);
   const key = keyed > 0 ? keyLines(kind, facts, width).map(quiet) : [];
   const lines = [...header, ...key, ...screen.lines];
   const groups = [...[...header, ...key].map(() => []), ...lineOf.map((g) => g.nodes.map((n) => n.index))];

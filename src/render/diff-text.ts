@@ -7,7 +7,7 @@ import { diffHeaderLines, type HeaderOptions } from "./header.js";
 import { lineGroups } from "./line-groups.js";
 import type { Palette } from "./palette.js";
 import { screenLines } from "./screen-lines.js";
-import { checkWidth, headLines } from "./summary-text.js";
+import { checkWidth, headLines, keyCheck } from "./summary-text.js";
 
 export interface DiffTextOptions extends NumberOptions {
   /** How nodes were matched, named on the header. */
@@ -39,7 +39,12 @@ export function renderDiffText(
   options: DiffTextOptions,
 ): string {
   checkWidth(options.width);
-  const screen = screenLines(lineGroups(view, options.chains ?? false), diffLineParts, options);
+  const screen = screenLines(
+    lineGroups(view, options.chains ?? false),
+    diffLineParts,
+    options,
+    keyCheck(options, "diff"),
+  );
   const lines = headLines(
     options,
     (w) => diffHeaderLines(totals, options.by, options.header!, options, w),

@@ -80,6 +80,20 @@ export function keyFacts(
   };
 }
 
+/**
+ * Whether the key for `facts` at `width` (see `keyLines`) says what the sizes on screen are (totals
+ * with all below), that they were left out (`sizes cut`), or that a line's were cut (`'size cut'`).
+ */
+export function keyExplainsSizes(kind: "summary" | "diff", facts: KeyFacts, width?: number): boolean {
+  if (facts.sizes === false) return true;
+  const text = keyLines(kind, facts, width).join("\n");
+  const [numbers, ...rest] = explanations(kind, facts);
+  const says = (e: Explanation, least: string) => [e[0], e[1], e[2], least].some((w) => text.includes(w));
+  // The numbers' words say what the sizes are (or that they were left out), in any of their forms.
+  if (!says(numbers, facts.sizesLeftOut ? SIZES_GONE : numbers[2])) return false;
+  return rest.filter((e) => e[3] === "sizes").every((e) => says(e, SIZE_CUT_LEAST));
+}
+
 /** Narrowest width whose key is one line; a narrower screen's key takes two (see `keyRows`). */
 export const KEY_ONE_ROW = 60;
 
@@ -121,6 +135,7 @@ export function keyLines(
   // counts alone, then what no sum on screen can do without in fewest words, then the leftover marks.
   const vital = vitalWords(facts, parts);
   tries.push(vital);
+  if (facts.sizesCut && !facts.sizesLeftOut) tries.push([parts[0][2], SIZE_CUT_LEAST]);
   if (!(facts.sizes ?? true)) tries.push([parts[0][2]]);
   const least = [...(facts.sizesLeftOut ? [SIZES_GONE] : []), ...(facts.sizesCut ? [SIZE_CUT_LEAST] : [])];
   if (least.length > 0) tries.push(least);

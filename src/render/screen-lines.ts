@@ -27,13 +27,15 @@ export interface ScreenLines extends WidthCuts {
  * says so in their place (`14 nodes, size cut  (hidden: 13 nodes)`), so every size left on screen
  * adds up (a line's size less its lines' sizes and its fold's is its own size) except on the line
  * just above such a line, which the key points out. When a line cannot say even that, or more than a
- * third of the lines would, the whole screen leaves sizes out (`sizesLeftOut`), so every count and
- * size on it adds up.
+ * third of the lines would, or the key cannot say what `size cut` means (`explained`, given the
+ * screen, says whether it can), the whole screen leaves sizes out (`sizesLeftOut`), so every count
+ * and size on it adds up.
  */
 export function screenLines<G>(
   groups: readonly G[],
   parts: (group: G, options: NumberOptions) => LineParts,
   options: NumberOptions & LayoutOptions,
+  explained?: (screen: ScreenLines) => boolean,
 ): ScreenLines {
   const made = groups.map((g) => parts(g, options));
   const laid = made.map((p) => laidOutLine(p, options));
@@ -57,13 +59,18 @@ export function screenLines<G>(
   // A screen of mostly `size cut` says less than one of counts alone: past a third of the lines, none
   // keeps its sizes (a choice of this project, no source).
   if (sizesCut * MOST_CUT > laid.length) return everyLineBare(groups, parts, options);
-  return {
+  const screen = {
     parts: made,
     lines: laid.map((l) => l.text),
     sizesLeftOut: false,
     ...cutsOf(laid),
     sizesCut: sizesCut > 0,
   };
+  // Sizes, or a `size cut`, the key above the lines has no room to explain (a line above a cut would
+  // not add up, with nothing on screen saying so): counts only, which the key says in fewer words.
+  if (options.sizes && explained !== undefined && !explained(screen))
+    return everyLineBare(groups, parts, options);
+  return screen;
 }
 
 /** Lines over lines that say `size cut`, at most, for the others to keep their sizes (see `screenLines`). */

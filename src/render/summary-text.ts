@@ -3,7 +3,7 @@ import { EspalierError } from "../errors.js";
 import type { ViewNode } from "../view/view-node.js";
 import type { NumberOptions } from "./amount.js";
 import { type HeaderOptions, summaryHeaderLines } from "./header.js";
-import { keyContext, keyFacts, keyLines } from "./key-line.js";
+import { keyContext, keyExplainsSizes, keyFacts, keyLines } from "./key-line.js";
 import { lineGroups } from "./line-groups.js";
 import { MIN_WIDTH } from "./line-layout.js";
 import { lineParts } from "./line-parts.js";
@@ -34,7 +34,12 @@ export interface TextOptions extends NumberOptions {
  */
 export function renderText(view: HierarchyNode<ViewNode>, options: TextOptions): string {
   checkWidth(options.width);
-  const screen = screenLines(lineGroups(view, options.chains ?? false), lineParts, options);
+  const screen = screenLines(
+    lineGroups(view, options.chains ?? false),
+    lineParts,
+    options,
+    keyCheck(options, "summary"),
+  );
   const lines = headLines(
     options,
     (w) => summaryHeaderLines(view.data, options.header!, options, w),
@@ -70,6 +75,19 @@ export function headLines(
     for (const line of keyLines(kind, facts, options.width)) lines.push(quiet(line));
   }
   return lines;
+}
+
+/**
+ * Whether the key a rendering prints (none with a legend, which explains every cut) can say what the
+ * width did to the sizes of a screen (see `screenLines`); undefined when no key is printed.
+ */
+export function keyCheck(
+  options: { key?: boolean; legend?: boolean; width?: number; sizes?: boolean; header?: HeaderOptions },
+  kind: "summary" | "diff",
+): ((screen: ScreenLines) => boolean) | undefined {
+  if (!options.key || options.legend) return undefined;
+  return (screen) =>
+    keyExplainsSizes(kind, keyFacts(screen.parts, keyContext(options), screen), options.width);
 }
 
 /** A width too narrow for a mark, a few columns of label and a fold is a usage error. */

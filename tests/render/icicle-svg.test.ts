@@ -672,8 +672,12 @@ function checkPicture<T extends ViewNode>(v: HierarchyNode<T>, options: SvgOptio
   expect(beyond).toBeLessThanOrEqual(WIDENING_CAP * inner + 1e-6 * inner);
   const words = legendWords(svg);
   const stated = /(\d+(?:\.\d)?)% of the width is widened/.exec(words);
-  if (beyond / inner >= 0.0005) expect(Number(stated?.[1])).toBeCloseTo((100 * beyond) / inner, 0);
-  else expect(stated).toBeNull();
+  if (beyond / inner >= 0.0005) {
+    // The legend rounds: a whole percent from 1% up, one decimal under it. A printed figure is within
+    // half its last digit of the true share, a tie included (27.5% is printed 28%).
+    const half = stated?.[1].includes(".") ? 0.05 : 0.5;
+    expect(Math.abs(Number(stated?.[1]) - (100 * beyond) / inner)).toBeLessThanOrEqual(half + 1e-9);
+  } else expect(stated).toBeNull();
 }
 
 /** The legend's words, its wrapped lines joined again. */
