@@ -6,7 +6,7 @@ import { fieldSizeUnit } from "./size-unit.js";
 import { checkWrittenIds } from "./table/check-written.js";
 import { inexactId } from "./table/inexact-id.js";
 import { keptColumns, sizeOf, cellText as text } from "./table/link-table.js";
-import { idIsNullParent, missingParent, nullParentSet } from "./table/null-parent.js";
+import { idIsNullParent, missingParent, nearParentId, nullParentSet } from "./table/null-parent.js";
 import type { Cell, Table } from "./table/table.js";
 
 type Fields = Pick<
@@ -126,7 +126,8 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
     if (parentId === "" || nullParents?.has(parentId)) continue;
     const p = nodeOf.get(parentId);
     if (p === undefined) {
-      const trimmed = nodeOf.get(parentId.trim());
+      const near = nearParentId(parentId);
+      const trimmed = near === undefined ? undefined : nodeOf.get(near);
       throw missingParent(parentId, r + 1, options, undefined, {
         ...(trimmed === undefined ? {} : { trimmedRow: firstRow[trimmed] + 1 }),
         strings: !table.textCells,

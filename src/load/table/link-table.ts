@@ -15,7 +15,7 @@ import { ByteIdIndex, viewOf } from "./byte-id-index.js";
 import { checkWrittenIds, checkWrittenPaths } from "./check-written.js";
 import { IdIndex } from "./id-index.js";
 import { inexactId } from "./inexact-id.js";
-import { idIsNullParent, missingParent, nullParentSet } from "./null-parent.js";
+import { idIsNullParent, missingParent, nearParentId, nullParentSet } from "./null-parent.js";
 import { rowsTable } from "./rows-table.js";
 import { withSeparatorHint } from "./separator-hint.js";
 import { type Cell, type NumberCells, numberCell, type Table } from "./table.js";
@@ -167,7 +167,8 @@ function linkById(
       const p = rowOf.get(parentId);
       if (p === -1) {
         const text = cellText(parentId);
-        const trimmed = rowOf.get(text.trim());
+        const near = nearParentId(text);
+        const trimmed = near === undefined ? -1 : rowOf.get(near);
         throw missingParent(text, r + 1, options, rowNamed(text, pooled, names, n), {
           ...(trimmed === -1 ? {} : { trimmedRow: trimmed + 1 }),
           strings: !table.textCells,
@@ -261,8 +262,8 @@ function linkByteIds(table: Table, ids: NamePool, parents: NumberCells, options:
       if (p === -1) text = texts.get(r);
     }
     if (text !== undefined) {
-      const trimmed = Buffer.from(text.trim(), "utf8");
-      const at = rowOf.getBytes(viewOf(trimmed), 0, trimmed.length);
+      const near = Buffer.from(nearParentId(text) ?? "", "utf8");
+      const at = near.length === 0 ? -1 : rowOf.getBytes(viewOf(near), 0, near.length);
       throw missingParent(text, r + 1, options, rowNamed(text, pooled, names, n), {
         ...(at === -1 ? {} : { trimmedRow: at + 1 }),
         strings: false,

@@ -48,13 +48,25 @@ export function idIsNullParent(id: string, row: number, options: Fields): Espali
 const usualNoneValues = new Set(["0", "-1", "null", "\\n", "none", "nil", "n/a", "nan", "#n/a"]);
 
 /**
- * Where a parent cell with spaces around its value came from, for MISSING_PARENT's hint: `trimmedRow`,
- * the 1-based row whose id is the value without them, when one is; `strings`, whether the cells are
- * JSON strings (JSON rows) rather than CSV or TSV text.
+ * For MISSING_PARENT's hint on a parent cell that is nearly an id ({@link nearParentId}): `trimmedRow`,
+ * the 1-based row whose id is that near id, when one is; `strings`, whether the cells are JSON strings
+ * (JSON rows) rather than CSV or TSV text.
  */
 export interface SpacedParent {
   trimmedRow?: number;
   strings: boolean;
+}
+
+/**
+ * The id a parent cell likely means when it names none: the value without the spaces around it (`a `,
+ * which CSV keeps: RFC 4180, section 2.4), or a whole number without its `.0` (`12.0`, as a spreadsheet
+ * may write a column of numbers: common practice, no source); undefined when the cell is neither.
+ */
+export function nearParentId(parentId: string): string | undefined {
+  const trimmed = parentId.trim();
+  if (trimmed !== parentId) return trimmed;
+  const whole = /^(\d+)\.0+$/.exec(parentId);
+  return whole ? whole[1] : undefined;
 }
 
 /**
@@ -88,6 +100,14 @@ export function missingParent(
       { remedies: [remedy] },
     );
   }
+  const whole = /^(\d+)\.0+$/.exec(parentId);
+  if (whole && spaced?.trimmedRow !== undefined)
+    return new EspalierError(
+      "MISSING_PARENT",
+      say`${missing}; row ${spaced.trimmedRow}'s ${options.idField} is ${quoted.id(whole[1])}, the same whole number without ".0", as a spreadsheet may write a column of numbers: write the ${options.parentField} column as whole numbers`,
+      { row, field: options.parentField },
+      { idRow: spaced.trimmedRow },
+    );
   // `1, , Ada`: spaces after the commas are part of each value (RFC 4180, 2.4), so " " is no empty
   // parent and " 1" no id "1"; a hand-written table often has them.
   if (parentId !== parentId.trim()) {

@@ -147,4 +147,23 @@ describe("--null-parent: parent cells that mean no parent", () => {
     // Spaces, and no id without them: the spaces are named, no row is.
     expect(caught(() => csv("id,parent\na,\nb,c \n")).message).not.toContain("row 1's id");
   });
+
+  it("loadTree names the row whose id is a parent cell's whole number without its .0 (a spreadsheet's 12.0)", () => {
+    // Common practice, no source: a spreadsheet's number column exported as 1.0, 2.0 while the id
+    // column is text. Field test: "1.0" matched no id while row 1's id is "1", and nothing said so.
+    const bytes = caught(() => csv("id,parent,name\n1,,root\n2,1.0,kid\n"));
+    expect(bytes.code).toBe("MISSING_PARENT");
+    expect(bytes.pos).toMatchObject({ row: 2, line: 3 });
+    expect(bytes.message).toContain('row 1\'s id is "1", the same whole number without ".0"');
+    // Ids read as strings (the name column as the id) and a graph table say it too.
+    const named = caught(() =>
+      csv("name,manager\n7,\n8,7.00\n", { idField: "name", parentField: "manager" }),
+    );
+    expect(named.message).toContain('row 1\'s name is "7", the same whole number without ".0"');
+    const graph = caught(() => csv("id,parent\n1,\n2,1.0\n", { graph: true }));
+    expect(graph.message).toContain('row 1\'s id is "1", the same whole number');
+    // No such row, or not a whole number: no row is named.
+    expect(caught(() => csv("id,parent\n1,\n2,3.0\n")).message).not.toContain("row 1's");
+    expect(caught(() => csv("id,parent\n1,\n2,1.5\n")).message).not.toContain("row 1's");
+  });
 });
