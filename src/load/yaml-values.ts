@@ -1,6 +1,9 @@
 import { Buffer } from "node:buffer";
 import { isAlias, isMap, isScalar, isSeq, type LineCounter, type Node } from "yaml";
+import { type MessagePart, quoted, say } from "../errors.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
+import type { ReadingNote } from "../model/reading-note.js";
+import { describeNode } from "./describe-node.js";
 import { EMPTY_ARRAY, EMPTY_OBJECT, type LoadOptions, SCALAR_VALUE_FIELD } from "./load-options.js";
 import { checkNoNamedFields } from "./missing-field.js";
 import { NodeSink } from "./node-sink.js";
@@ -8,7 +11,8 @@ import { NodeSink } from "./node-sink.js";
 /**
  * A YAML document as a tree of its values, as JsonValueLoader reads JSON: a mapping's entries are its
  * children, named by their keys, a sequence's items are named by index, scalars and aliases are leaves
- * (an alias is its own text, `*name`: nothing is expanded, so no byte is counted twice). A value's size
+ * (an alias is its own text, `*name`: nothing is expanded, so no byte is counted twice; an
+ * ALIASES_AS_TEXT note says so). A value's size
  * is the UTF-8 byte length of its source text, so a node's own size is what its text holds beyond its
  * children's values; the root is the whole document (comments and markers too), so its size is the
  * document's. Merge keys are entries like any other here (`<<`): the bytes are where they are written.
@@ -31,9 +35,18 @@ export function yamlValues(
   const scalars: string[] | null = options.keepScalars ? [] : null;
   const pending: (Node | null)[] = [stream ? null : documents[0]];
   sink.add(-1, options.rootName, stream ? 1 : lineOf(documents[0]));
+  // Aliases read (each a leaf of its own text), and the first: its node, text and line.
+  let aliases = 0;
+  let firstAlias: { node: number; text: string; line: number } | undefined;
   for (let i = 0; i < sink.length; i++) {
     const v = pending[i];
     pending[i] = null;
+    if (isAlias(v) && aliases++ === 0)
+      firstAlias = {
+        node: i,
+        text: v.range ? text.slice(v.range[0], v.range[1]) : `*${v.source}`,
+        line: lineOf(v),
+      };
     // The root is the whole text, but under --start-at the part read (its own length).
     const own = i === 0 && !options.startAt ? Buffer.byteLength(text, "utf8") : lengthOf(v);
     let inner = 0;
@@ -69,11 +82,33 @@ export function yamlValues(
       SCALAR_VALUE_FIELD,
       Array.from({ length: sink.length }, (_, i) => scalars[i] ?? ""),
     );
+  const note =
+    firstAlias && aliasesNote(aliases, firstAlias, describeNode(sink.parentOf, sink.name, firstAlias.node));
   return sink.finish(options.rootName, fields, null, {
     shape: "values",
     sizeUnit: "bytes",
     ...(stream ? { documents: documents.length } : {}),
+    ...(note ? { notes: [note] } : {}),
   });
+}
+
+/**
+ * ALIASES_AS_TEXT: a value tree shows an alias as a leaf like any scalar (`0  5 B`), though it stands
+ * for a value written elsewhere, maybe a whole mapping (YAML 1.2.2 §3.2.2.2: a node in several places
+ * is written once with an anchor, then as aliases). Nothing on a line can tell it, so a note says how
+ * many there are and where the first is, and that what each names counts once, at its anchor.
+ */
+function aliasesNote(
+  count: number,
+  first: { text: string; line: number },
+  where: readonly MessagePart[],
+): ReadingNote {
+  const some = count === 1 ? "1 YAML alias is" : `${count} YAML aliases are`;
+  return {
+    code: "ALIASES_AS_TEXT",
+    ...(first.line > 0 ? { line: first.line } : {}),
+    parts: say`${some} read as leaves of their own text (the first: ${quoted.excerpt(first.text)}, ${where}): the value an alias names is counted once, where its anchor is, and not again where the alias stands; read as nodes (--read-as nodes), an alias of a node object is that node, shown as a reference`,
+  };
 }
 
 /**

@@ -31,7 +31,8 @@ export interface ReadingNote {
  * JSON.parse reads it (load/json/json-loader.ts, load/graph-input.ts). `UNSIZED_IMPORTANCE`:
  * `--importance size` on an input without sizes, which ranks as `--importance depth` (cli/input.ts).
  * `MISSING_ENTRIES`: node objects holding `"missing": true`, as `npm ls --all --json` lists a dependency
- * it did not find, counted as nodes (load/missing-entries.ts).
+ * it did not find, counted as nodes (load/missing-entries.ts). `ALIASES_AS_TEXT`: YAML read as values
+ * holds aliases, each a leaf of its own text (`*base`), not the value it names (load/yaml-values.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -42,6 +43,7 @@ export const readingNoteCodes = [
   "REPEATED_KEY",
   "UNSIZED_IMPORTANCE",
   "MISSING_ENTRIES",
+  "ALIASES_AS_TEXT",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

@@ -1,8 +1,9 @@
 import { describe, expect, it } from "vitest";
-import { parseDocument } from "yaml";
+import { parseDocument, visit } from "yaml";
 import { prepareDiff } from "../../src/diff/diff-trees.js";
 import { loadTree } from "../../src/load/index.js";
 import { measure } from "../../src/model/measure.js";
+import { showNote } from "../../src/model/reading-note.js";
 import type { Tree } from "../../src/model/tree.js";
 import { opts, outline } from "./helpers.js";
 
@@ -159,6 +160,48 @@ describe("YAML aliases read as values: a leaf of its own text", () => {
     ]);
     // The bytes are where they are written: the whole document ("*b" twice, 2 bytes each).
     expect(measure(tree).size[0]).toBe(Buffer.byteLength(text));
+  });
+
+  it("says in an ALIASES_AS_TEXT note how many aliases were read as text, and where the first is", async () => {
+    // Field test: a resource file of an invented tidewater tool; `- *project` stood on screen as a leaf
+    // of 9 bytes (`0  9 B`) though it names a whole mapping, with nothing said.
+    const text = [
+      "project: &project",
+      "  name: project",
+      "  help: the tidewater project",
+      "instance:",
+      "  attributes:",
+      "    - *project",
+      "    - name: instance",
+      "  merged:",
+      "    <<: *project",
+      "",
+    ].join("\n");
+    // Alias nodes as the yaml package (a reference library from the registry) finds them: YAML 1.2.2
+    // §7.1, an alias node is `*` followed by the anchor's name.
+    let expected = 0;
+    visit(parseDocument(text), { Alias: () => void expected++ });
+    expect(expected).toBe(2);
+    const tree = yaml(text, { readAs: "values" });
+    expect(tree.reading?.notes?.map((note) => showNote(note))).toEqual([
+      {
+        code: "ALIASES_AS_TEXT",
+        line: 6,
+        message: expect.stringMatching(
+          new RegExp(
+            `^${expected} YAML aliases are read as leaves of their own text \\(the first: \\*project, node "\\(root\\)/instance/attributes/0"\\)`,
+          ),
+        ),
+      },
+    ]);
+    const { cli } = await import("../helpers/cli.js");
+    const shown = await cli(["-", "--input-format", "yaml", "--read-as", "values"], { stdin: text });
+    expect(shown.code).toBe(0);
+    expect(shown.stderr).toMatch(
+      /^espalier: note: <stdin>:6: 2 YAML aliases are read as leaves .*\*project, .*\[ALIASES_AS_TEXT\]\n$/,
+    );
+    // No alias, no note.
+    expect(yaml("a: 1\nb: [2, 3]\n", { readAs: "values" }).reading?.notes).toBeUndefined();
   });
 });
 
