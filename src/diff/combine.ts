@@ -4,6 +4,7 @@ import type { Tree } from "../model/tree.js";
 import { KIND } from "./changes.js";
 import { type ComparedFields, isEdited } from "./field-edits.js";
 import type { Matching } from "./match.js";
+import { splice } from "./splice.js";
 
 /** Both versions in one tree: the new version plus every removed node at its old place. */
 export interface Combined {
@@ -64,19 +65,17 @@ export function combineListing(
   // Each pass below is a function of its own with one loop (and no growing array in it): the engine
   // compiles a loop that runs once while it runs, and compiles it again when the loop meets code it has
   // not run yet (docs/performance.md, eleventh session).
-  const flags = new Uint8Array(newTree.length);
-  const removedCount = markSplices(oldTree.parent, newTree.parent, oldToNew, flags);
-  const total = newTree.length + removedCount;
-  if (removedCount === 0) {
+  const removed = removedIn(oldToNew);
+  if (removed === 0) {
     // Nothing to splice in: the combined tree is the new tree.
-    const identity = identityOf(total);
+    const identity = identityOf(newTree.length);
     const { kind, changed } = kinds(oldTree, newTree, matching, compared, identity, newToOld);
     return {
       combined: combined(oldTree, newTree, matching, identity, newToOld, kind, null, compared),
       changed,
     };
   }
-  const spliced = splice(oldTree, oldCount, newTree, newCount, matching, flags, total);
+  const spliced = splice(oldTree, oldCount, newTree, newCount, oldToNew, newToOld, removed);
   const { newIndex, oldIndex } = spliced;
   const { kind, changed } = kinds(oldTree, newTree, matching, compared, newIndex, oldIndex);
   return {
@@ -85,26 +84,10 @@ export function combineListing(
   };
 }
 
-/**
- * Per new node: SPLICE when its old counterpart has a removed child (spliced in among its children by
- * {@link splice}), MIXED when its subtree holds such a node (else the subtree is copied as one block):
- * marked up from each, to the first node marked before. Returns the number of removed nodes.
- */
-function markSplices(
-  oldParent: Int32Array,
-  newParent: Int32Array,
-  oldToNew: Int32Array,
-  flags: Uint8Array,
-): number {
+/** Old nodes with no counterpart (the root always has one). */
+function removedIn(oldToNew: Int32Array): number {
   let removed = 0;
-  for (let o = 1; o < oldToNew.length; o++) {
-    if (oldToNew[o] >= 0) continue;
-    removed++;
-    const m = oldToNew[oldParent[o]];
-    if (m < 0) continue;
-    flags[m] |= SPLICE;
-    for (let a = m; a >= 0 && (flags[a] & MIXED) === 0; a = a > 0 ? newParent[a] : -1) flags[a] |= MIXED;
-  }
+  for (let o = 1; o < oldToNew.length; o++) if (oldToNew[o] < 0) removed++;
   return removed;
 }
 
@@ -114,157 +97,6 @@ function identityOf(length: number): Int32Array {
   for (let k = 0; k < length; k++) identity[k] = k;
   return identity;
 }
-
-/** The combined tree's nodes (where each comes from) and shape, the removed nodes spliced in. */
-interface Spliced extends Shape {
-  newIndex: Int32Array;
-  oldIndex: Int32Array;
-}
-
-/** Blocks shorter than this are copied by a loop; longer ones by the runtime's copy of a range. */
-const SHORT_BLOCK = 64;
-
-/**
- * The combined tree in pre-order, depth first. Stack entries: n >= 0 a new node, -(o + 1) a removed
- * old node. A new node with no removed node in its subtree (not MIXED) is copied with its whole subtree
- * as one block: where each node comes from, and the new version's parents (shifted by the block's
- * place), depths and own sizes (a new node's depth is the same in both trees: removed nodes only add
- * siblings and their subtrees). Each node is pushed once, so neither stack outgrows the combined tree:
- * both are made that long (memory no one writes costs nothing) and never grow in the loop.
- */
-function splice(
-  oldTree: Tree,
-  oldCount: Int32Array,
-  newTree: Tree,
-  newCount: Int32Array,
-  matching: Matching,
-  flags: Uint8Array,
-  total: number,
-): Spliced {
-  const { oldToNew, newToOld } = matching;
-  const newParent = newTree.parent;
-  const newDepth = newTree.depth;
-  const newSize = newTree.ownSize;
-  const newIndex = new Int32Array(total);
-  const oldIndex = new Int32Array(total);
-  const parent = new Int32Array(total);
-  const depth = new Int32Array(total);
-  const ownSize = new Float64Array(total);
-  const stack = new Int32Array(total);
-  const stackParent = new Int32Array(total);
-  let sp = 0;
-  stack[sp] = 0;
-  stackParent[sp++] = -1;
-  let k = 0;
-  while (sp > 0) {
-    const entry = stack[--sp];
-    const pc = stackParent[sp];
-    if (entry >= 0 && (flags[entry] & MIXED) === 0) {
-      const n = entry;
-      const end = n + newCount[n];
-      const base = k - n;
-      newIndex[k] = n;
-      parent[k] = pc;
-      if (end - n < SHORT_BLOCK) {
-        for (let j = n; j < end; j++) {
-          oldIndex[j + base] = newToOld[j];
-          depth[j + base] = newDepth[j];
-          ownSize[j + base] = newSize[j];
-        }
-      } else {
-        oldIndex.set(newToOld.subarray(n, end), k);
-        depth.set(newDepth.subarray(n, end), k);
-        ownSize.set(newSize.subarray(n, end), k);
-      }
-      for (let j = n + 1; j < end; j++) {
-        newIndex[j + base] = j;
-        parent[j + base] = newParent[j] + base;
-      }
-      k += end - n;
-      continue;
-    }
-    const self = k++;
-    parent[self] = pc;
-    depth[self] = pc < 0 ? 0 : depth[pc] + 1;
-    const first = sp;
-    if (entry >= 0) {
-      newIndex[self] = entry;
-      oldIndex[self] = newToOld[entry];
-      ownSize[self] = newSize[entry];
-      sp =
-        (flags[entry] & SPLICE) === 0
-          ? pushChildren(stack, sp, entry, newCount)
-          : pushSpliced(stack, sp, entry, newTree, newCount, newToOld[entry], oldCount, oldToNew);
-    } else {
-      const o = -entry - 1;
-      newIndex[self] = -1;
-      oldIndex[self] = o;
-      const end = o + oldCount[o];
-      for (let c = o + 1; c < end; c += oldCount[c]) if (oldToNew[c] < 0) stack[sp++] = -c - 1;
-    }
-    // Reverse the children just pushed, so that the first child is popped first.
-    for (let a = first, b = sp - 1; a < b; a++, b--) {
-      const t = stack[a];
-      stack[a] = stack[b];
-      stack[b] = t;
-    }
-    for (let a = first; a < sp; a++) stackParent[a] = self;
-  }
-  return { newIndex, oldIndex, parent, depth, ownSize };
-}
-
-/** Pushes the children of new node n from stack position `at`; returns the new stack position. */
-function pushChildren(stack: Int32Array, at: number, n: number, newCount: Int32Array): number {
-  let sp = at;
-  const end = n + newCount[n];
-  for (let c = n + 1; c < end; c += newCount[c]) stack[sp++] = c;
-  return sp;
-}
-
-/**
- * Pushes the children of new node n, whose old counterpart o lost some, from stack position `at`: its
- * new children with the removed old ones spliced in, each right after the nearest earlier old sibling
- * that is still a child of n (first when there is none). Returns the new stack position.
- */
-function pushSpliced(
-  stack: Int32Array,
-  at: number,
-  n: number,
-  newTree: Tree,
-  newCount: Int32Array,
-  o: number,
-  oldCount: Int32Array,
-  oldToNew: Int32Array,
-): number {
-  const newParent = newTree.parent;
-  const after = new Map<number, number[]>(); // new child -> removed old siblings placed after it
-  let anchor = -1;
-  const oEnd = o + oldCount[o];
-  for (let s = o + 1; s < oEnd; s += oldCount[s]) {
-    const m = oldToNew[s];
-    if (m >= 0) {
-      if (newParent[m] === n) anchor = m;
-      continue;
-    }
-    const list = after.get(anchor);
-    if (list) list.push(-s - 1);
-    else after.set(anchor, [-s - 1]);
-  }
-  let sp = at;
-  const first = after.get(-1);
-  if (first !== undefined) for (let r = 0; r < first.length; r++) stack[sp++] = first[r];
-  const nEnd = n + newCount[n];
-  for (let c = n + 1; c < nEnd; c += newCount[c]) {
-    stack[sp++] = c;
-    const list = after.get(c);
-    if (list !== undefined) for (let r = 0; r < list.length; r++) stack[sp++] = list[r];
-  }
-  return sp;
-}
-
-/** Flags of a new node in `combine`: its counterpart has a removed child; its subtree holds such a node. */
-const SPLICE = 1;
-const MIXED = 2;
 
 /**
  * Each node's kind, by the precedence `combine` states, and the changed nodes in ascending order. The
