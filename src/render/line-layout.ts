@@ -115,6 +115,11 @@ const NOTHING_CUT = {
   changesCut: false,
 } as const;
 
+/** The level a line prints in digits (see `LaidOutLine.depthInDigits`), when its indentation does. */
+function depthOf(indentation: string, full: string, level: number): { depthInDigits?: number } {
+  return indentation === full ? {} : { depthInDigits: level };
+}
+
 /** The first of `laidOutLine`'s steps that may leave a number out. */
 const FIRST_CUT = 7;
 
@@ -135,6 +140,11 @@ export interface LaidOutLine {
   nameCut: boolean;
   /** Whether a diff's fold left out how many changed nodes it holds (`(41 hidden)`). */
   changesCut: boolean;
+  /**
+   * The line's level when its indentation, too deep for the width, prints it in digits (`8 : name`,
+   * 8 levels below the top line); absent when the line is indented in full.
+   */
+  depthInDigits?: number;
 }
 
 /**
@@ -277,6 +287,7 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
       foldCut: fold === FOLD_SIGN,
       nameCut: !whole,
       changesCut: (fold === foldBare || fold === FOLD_SIGN) && foldBare !== p.foldTiny,
+      ...depthOf(ind, indent, p.level),
     };
   }
   if (keepAll) return null;
@@ -297,6 +308,7 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     foldCut,
     nameCut: true,
     changesCut: foldCut && foldBare !== p.foldTiny,
+    ...depthOf(least, indent, p.level),
   };
 }
 
