@@ -1,5 +1,5 @@
 import { EspalierError } from "../errors.js";
-import type { ShownNote } from "../model/reading-note.js";
+import { type NoteFact, noteFact, type ShownNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
 import type { HeaderReading, ListedReading, VersionReading } from "../render/header.js";
@@ -52,6 +52,10 @@ export interface OutputSettings {
   unnamedOnly?: "OLD" | "NEW";
   /** The loader's notes on the input (reading-notes.ts), input text hidden under --pseudonymize; JSON carries them. */
   notes: readonly ShownNote[];
+  /** A diff: each version's notes as {@link notes} shows them, OLD's first; the diff JSON carries them. */
+  versionNotes?: readonly (ShownNote & { version: "OLD" | "NEW" })[];
+  /** The notes as the header says them (`2 missing counted as nodes`), a diff's with their version. */
+  noteFacts: readonly NoteFact[];
   /** A fact table's rows the nodes stand for, per input (see `TreeReading.rolledUpRows`); undefined for other inputs. */
   rolledUpRows: readonly number[] | undefined;
   /** A diff's compared record fields (see `HeaderOptions.compared`); undefined for a summary. */
@@ -99,10 +103,25 @@ export function outputSettings(
     namesFromOnly: onlyIn(inputs, (t) => t.reading?.namesFrom !== undefined),
     unnamedOnly: onlyIn(inputs, (t) => t.reading?.unnamed !== undefined),
     notes: shownNotes(tree, pseudonymKey(opts, io)),
+    ...(inputs.length === 2 ? { versionNotes: versionNotes(inputs, pseudonymKey(opts, io)) } : {}),
+    noteFacts:
+      inputs.length === 2
+        ? inputs.flatMap((t, v) => (t.reading?.notes ?? []).map((n) => noteFact(n, v === 0 ? "OLD" : "NEW")))
+        : (tree.reading?.notes ?? []).map((n) => noteFact(n)),
     rolledUpRows: inputs.every((t) => t.reading?.rolledUpRows !== undefined)
       ? inputs.map((t) => t.reading!.rolledUpRows!)
       : undefined,
   };
+}
+
+/** A diff's notes, OLD's then NEW's, each with its version (input text hidden under a pseudonym key). */
+function versionNotes(
+  inputs: readonly Tree[],
+  key: string | undefined,
+): (ShownNote & { version: "OLD" | "NEW" })[] {
+  return inputs.flatMap((t, v) =>
+    shownNotes(t, key).map((note) => ({ version: v === 0 ? ("OLD" as const) : ("NEW" as const), ...note })),
+  );
 }
 
 /**

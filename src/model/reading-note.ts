@@ -13,6 +13,12 @@ export interface ReadingNote {
   readonly line?: number;
   /** The note as wording and marked input text (see `quoted` in errors.ts), so `--pseudonymize` can hide it. */
   readonly parts: readonly MessagePart[];
+  /**
+   * How many things the note is about, where it counts them: node objects marked missing, keys
+   * repeated, aliases, folders left out above a listing's start. The header line says it (see
+   * render/note-clause.ts), so standard output alone tells a reader how to take the numbers.
+   */
+  readonly count?: number;
 }
 
 /**
@@ -53,6 +59,25 @@ export interface ShownNote {
   code: ReadingNoteCode;
   line?: number;
   message: string;
+}
+
+/** A note as the header line says it: its code, its count and line, and the diff version it is on. */
+export interface NoteFact {
+  code: ReadingNoteCode;
+  count?: number;
+  line?: number;
+  /** A diff: the version the note is on; undefined for a summary. */
+  version?: "OLD" | "NEW";
+}
+
+/** `note` as the header says it: no input text, so nothing `--pseudonymize` hides. */
+export function noteFact(note: ReadingNote, version?: "OLD" | "NEW"): NoteFact {
+  return {
+    code: note.code,
+    ...(note.count === undefined ? {} : { count: note.count }),
+    ...(note.line === undefined ? {} : { line: note.line }),
+    ...(version === undefined ? {} : { version }),
+  };
 }
 
 /** `note` with its input text shown by `show` (as it is, or pseudonyms under `--pseudonymize`). */
