@@ -1,7 +1,7 @@
 import { safeText } from "../model/safe-text.js";
 import { displayWidth, ELLIPSIS, shortenEnd } from "./display-width.js";
 import type { HeaderOptions } from "./header.js";
-import { FOLD_SIGN, type LineParts, NUMBERS_GONE, SIZE_CUT } from "./line-layout.js";
+import { FOLD_SIGN, type LineParts, moreNames, NUMBERS_GONE, SIZE_CUT } from "./line-layout.js";
 import { MARK } from "./marks.js";
 
 /**
@@ -39,6 +39,8 @@ export interface KeyFacts {
    * line's level and mark, for the key's example.
    */
   readonly depthInDigits?: { readonly level: number; readonly mark: string };
+  /** Whether a chain left names out of its middle (`a / (3 more) / b`). */
+  readonly namesLeftOut?: boolean;
   /** Where the reader finds more (the interactive view's help key); default `--legend`. */
   readonly more?: string;
 }
@@ -46,7 +48,14 @@ export interface KeyFacts {
 /** What the width took away from the laid-out lines (see `ScreenLines`), for the key. */
 export type WidthCuts = Pick<
   KeyFacts,
-  "sizesLeftOut" | "sizesCut" | "countsCut" | "foldsCut" | "namesCut" | "changesCut" | "depthInDigits"
+  | "sizesLeftOut"
+  | "sizesCut"
+  | "countsCut"
+  | "foldsCut"
+  | "namesCut"
+  | "changesCut"
+  | "depthInDigits"
+  | "namesLeftOut"
 >;
 
 /** What the rest of the screen says that the key speaks of: the sizes, their name, the foci's paths. */
@@ -83,6 +92,7 @@ export function keyFacts(
     ...(cuts.namesCut ? { namesCut: true } : {}),
     ...(cuts.changesCut ? { changesCut: true } : {}),
     ...(cuts.depthInDigits ? { depthInDigits: cuts.depthInDigits } : {}),
+    ...(cuts.namesLeftOut ? { namesLeftOut: true } : {}),
   };
 }
 
@@ -136,7 +146,10 @@ export function keyLines(
   const [first, over] = fitting === undefined ? splitMarks(kind, facts.marks, style, room) : [fitting, ""];
   const parts = explanations(kind, facts);
   const tries: string[][] = [0, 1, 2].map((tier) => parts.map((p) => p[tier]));
-  for (let n = parts.length - 1; n >= 2; n--) tries.push(parts.slice(0, n).map((p) => p[2]));
+  // Fewer parts, from the end, while every part said however short the key stays (see `vitalWords`).
+  const lastVital = parts.findLastIndex((p) => p[3] === "sizes" || p[3] === "depth");
+  for (let n = parts.length - 1; n >= Math.max(2, lastVital + 1); n--)
+    tries.push(parts.slice(0, n).map((p) => p[2]));
   // What the sizes on screen are, or that they were cut, stays longest (see `vitalWords`); then the
   // counts alone, then what no sum on screen can do without in fewest words, then the leftover marks.
   const vital = vitalWords(facts, parts);
@@ -285,13 +298,6 @@ function explanations(kind: "summary" | "diff", facts: KeyFacts): Explanation[] 
       `'${SIZE_CUT}': above won't add up`,
       "sizes",
     ]);
-  if (facts.countsCut)
-    said.push([
-      `'${NUMBERS_GONE}' a count that did not fit`,
-      `'${NUMBERS_GONE}' count cut`,
-      `'${NUMBERS_GONE}' count cut`,
-      "cut",
-    ]);
   if (facts.depthInDigits) {
     // The screen's own first such line is the example: `'8 :'` reads as it is printed.
     const { level, mark } = facts.depthInDigits;
@@ -303,6 +309,20 @@ function explanations(kind: "summary" | "diff", facts: KeyFacts): Explanation[] 
       "depth",
     ]);
   }
+  if (facts.namesLeftOut)
+    said.push([
+      `a / ${moreNames(3)} / b: 3 more names between a and b, each a node of the count`,
+      "(k more): k names left out",
+      "(k more): k names",
+      "depth",
+    ]);
+  if (facts.countsCut)
+    said.push([
+      `'${NUMBERS_GONE}' a count that did not fit`,
+      `'${NUMBERS_GONE}' count cut`,
+      `'${NUMBERS_GONE}' count cut`,
+      "cut",
+    ]);
   if (facts.foldsCut)
     said.push([
       `'${FOLD_SIGN}' nodes hidden, their count did not fit`,

@@ -107,6 +107,7 @@ function cutsOf(laid: readonly LaidOutLine[], parts: readonly LineParts[]): Widt
     namesCut: laid.some((l) => l.nameCut),
     changesCut: laid.some((l) => l.changesCut),
     ...firstDepth(laid, parts),
+    ...(laid.some((l) => l.namesLeftOut) ? { namesLeftOut: true } : {}),
   };
 }
 

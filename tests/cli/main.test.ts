@@ -231,10 +231,10 @@ describe("espalier <input> --legend, --help and --width", () => {
       "\n",
     );
     for (const width of [48, 80, 120]) {
-      const r = await cli(["-", "--legend", "--budget", "24", "--width", String(width)], { stdin: files });
+      const r = await cli(["-", "--legend", "--budget", "30", "--width", String(width)], { stdin: files });
       expect(r.code).toBe(0);
       const lines = r.stdout.trimEnd().split("\n");
-      expect(lines.length).toBe(24);
+      expect(lines.length).toBe(30);
       const legend = legendLines("summary", width);
       // The header wraps to the width too (its clauses), and the legend follows it.
       const at = lines.findIndex((line) => line.startsWith("marks: "));

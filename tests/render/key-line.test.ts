@@ -343,3 +343,34 @@ describe("keyLines(kind, facts, width) for a line too deep to indent (field test
       expect(legendLines(kind).join(" ")).toContain("level in digits");
   });
 });
+
+describe("keyLines(kind, facts, width) for a chain with names left out (field test: a bare '?')", () => {
+  // Field defect: a deep chain at 60 columns printed `. 1037 / 1074 / … /…06 / 2443 / …  ?`, its
+  // count gone. An invented archive of numbered boxes, 90 levels of only children, then 4 files.
+  const boxes = Array.from({ length: 90 }, (_, k) => String(1000 + ((k * 4001) % 9000)));
+  const paths = boxes.map((_, k) => boxes.slice(0, k + 1).join("/"));
+  for (let f = 0; f < 4; f++) paths.push(`${paths[paths.length - 1]}/file-${f}`);
+  const stdin = `${paths.join("\n")}\n`;
+
+  it("keeps the count and says what '(k more)' is, at every width", async () => {
+    const seen: number[] = [];
+    for (let width = MIN_WIDTH; width <= 90; width++) {
+      const r = await cli(["-", "--budget", "12"], { stdin, env: { COLUMNS: String(width) } });
+      expect(r.code, r.stderr).toBe(0);
+      const lines = r.stdout.trimEnd().split("\n");
+      const top = lines.find((l) => l.startsWith(". "))!;
+      // 94 nodes: the 90 names of the chain and the 4 files below it.
+      expect(top, `${width}`).toMatch(/ {2}94 nodes$/);
+      if (!/ \/ \(\d+ more\) \/ /.test(top)) continue;
+      seen.push(width);
+      const at = lines.findIndex((l) => l.startsWith("key: "));
+      expect(lines.slice(at, at + keyRows(width)).join("\n"), `${width}:\n${r.stdout}`).toContain("(k more)");
+    }
+    expect(seen).toContain(60);
+  });
+
+  it("--legend says what '(3 more)' in a chain is", () => {
+    for (const kind of ["summary", "diff"] as const)
+      expect(legendLines(kind).join(" ")).toContain("(3 more)");
+  });
+});
