@@ -1,3 +1,4 @@
+import { EspalierError } from "../errors.js";
 import { type NoteFact, noteFact, type ShownNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
@@ -195,6 +196,29 @@ function readingOfVersion(opts: SharedCliOptions, tree: Tree): VersionReading | 
 export function headerLinesFor(opts: SharedCliOptions, kind: "summary" | "diff", io: CliIO): number {
   const legend = opts.legend ? legendLines(kind, opts.width ?? defaultWidth(io)).length : 0;
   return (opts.bare ? 0 : 1) + legend + keyRowsFor(opts, io);
+}
+
+/**
+ * A BUDGET_TOO_SMALL error from a run with `--legend` says how many of the lines before the tree the
+ * legend takes, so the reader sees what to drop; any other error is returned as it is.
+ */
+export function legendInError(
+  err: unknown,
+  opts: SharedCliOptions,
+  kind: "summary" | "diff",
+  io: CliIO,
+): unknown {
+  if (!opts.legend || !(err instanceof EspalierError) || err.code !== "BUDGET_TOO_SMALL") return err;
+  const width = opts.width ?? defaultWidth(io);
+  const legend = legendLines(kind, width).length;
+  const at = width === undefined ? "" : ` at ${width} columns`;
+  const before = Number(err.details.before ?? 0);
+  return new EspalierError(
+    err.code,
+    [...err.parts, ` (--legend takes ${legend} of those ${before} lines${at})`],
+    err.pos,
+    err.details,
+  );
 }
 
 /** Lines the key takes (see `keyRows`): one, two on a screen under 60 columns, none when not shown. */
