@@ -23,6 +23,7 @@ import type { InputFormat, LoadOptions } from "../load-options.js";
 import { checkPathListOptions } from "../path-list/path-list-options.js";
 import { jsonGraphTooLong, limitsOf } from "../read-limits.js";
 import { checkReadingOptions } from "../reading-options.js";
+import { readSizeTotals } from "../size-totals.js";
 import { csvTableFromStream } from "../table/csv-table.js";
 import { linkTable } from "../table/link-table.js";
 import { placeInTable } from "../table/locate-cell.js";
@@ -67,7 +68,10 @@ export async function loadTreeFromStream(
       throw error;
     }
     placeRow = linked.placeRow;
-    return isGraph(linked) ? buildGraphTree(withNodeRecords(linked, options), file) : buildTree(linked, file);
+    return readSizeTotals(
+      isGraph(linked) ? buildGraphTree(withNodeRecords(linked, options), file) : buildTree(linked, file),
+      options.folderSizes,
+    );
   } catch (caught) {
     // An error about a row of this input (not of a --nodes file, which names itself): at its line,
     // and at its cell when the table's bytes can be read again.
