@@ -443,8 +443,12 @@ async function diff({ oldFile, newFile, budget, profile }) {
   let oldDone = 0;
   let newDone = 0;
   let oldCpu = 0;
+  // On one thread OLD's table keeps its bytes and cells for NEW's, as cli/input.ts asks.
   const loadOld = () =>
-    (threads === 2 ? cli.loadInWorker(oldFile, oldOptions) : load(oldFile, oldOptions)).then((tree) => {
+    (threads === 2
+      ? cli.loadInWorker(oldFile, oldOptions)
+      : load(oldFile, { ...oldOptions, keepForLaterVersion: true })
+    ).then((tree) => {
       oldDone = now();
       oldCpu = cpuMs(cpu0);
       return tree;
