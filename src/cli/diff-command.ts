@@ -11,12 +11,26 @@ import {
   defaultBudget,
   headerLinesFor,
   keyRowsFor,
+  legendInError,
   outputSettings,
 } from "./output-settings.js";
 import { diffHeaderRows, diffRenderers } from "./renderers.js";
 
 /** Reads, compares and renders two versions; returns the text to print and the exit code. */
 export async function diffCommand(
+  oldInput: string,
+  newInput: string,
+  opts: DiffCliOptions,
+  io: CliIO,
+): Promise<CommandOutput> {
+  try {
+    return await diffOutput(oldInput, newInput, opts, io);
+  } catch (err) {
+    throw legendInError(err, opts, "diff", io);
+  }
+}
+
+async function diffOutput(
   oldInput: string,
   newInput: string,
   opts: DiffCliOptions,

@@ -92,6 +92,7 @@ function fromNode(tree: Tree, k: number, folderRole: "OLD" | "NEW", folderFile: 
   const shown = pathOfChain(tree, k);
   const note: ReadingNote = {
     code: "ROOT_IS_FOLDER",
+    count: k,
     ...(tree.origin[k] > 0 ? { line: tree.origin[k] } : {}),
     parts:
       k === 0

@@ -1,4 +1,5 @@
-import type { ShownNote } from "../model/reading-note.js";
+import { EspalierError } from "../errors.js";
+import { type NoteFact, noteFact, type ShownNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
 import type { HeaderReading, ListedReading, VersionReading } from "../render/header.js";
@@ -51,6 +52,10 @@ export interface OutputSettings {
   unnamedOnly?: "OLD" | "NEW";
   /** The loader's notes on the input (reading-notes.ts), input text hidden under --pseudonymize; JSON carries them. */
   notes: readonly ShownNote[];
+  /** A diff: each version's notes as {@link notes} shows them, OLD's first; the diff JSON carries them. */
+  versionNotes?: readonly (ShownNote & { version: "OLD" | "NEW" })[];
+  /** The notes as the header says them (`2 missing counted as nodes`), a diff's with their version. */
+  noteFacts: readonly NoteFact[];
   /** A fact table's rows the nodes stand for, per input (see `TreeReading.rolledUpRows`); undefined for other inputs. */
   rolledUpRows: readonly number[] | undefined;
   /** A diff's compared record fields (see `HeaderOptions.compared`); undefined for a summary. */
@@ -98,10 +103,25 @@ export function outputSettings(
     namesFromOnly: onlyIn(inputs, (t) => t.reading?.namesFrom !== undefined),
     unnamedOnly: onlyIn(inputs, (t) => t.reading?.unnamed !== undefined),
     notes: shownNotes(tree, pseudonymKey(opts, io)),
+    ...(inputs.length === 2 ? { versionNotes: versionNotes(inputs, pseudonymKey(opts, io)) } : {}),
+    noteFacts:
+      inputs.length === 2
+        ? inputs.flatMap((t, v) => (t.reading?.notes ?? []).map((n) => noteFact(n, v === 0 ? "OLD" : "NEW")))
+        : (tree.reading?.notes ?? []).map((n) => noteFact(n)),
     rolledUpRows: inputs.every((t) => t.reading?.rolledUpRows !== undefined)
       ? inputs.map((t) => t.reading!.rolledUpRows!)
       : undefined,
   };
+}
+
+/** A diff's notes, OLD's then NEW's, each with its version (input text hidden under a pseudonym key). */
+function versionNotes(
+  inputs: readonly Tree[],
+  key: string | undefined,
+): (ShownNote & { version: "OLD" | "NEW" })[] {
+  return inputs.flatMap((t, v) =>
+    shownNotes(t, key).map((note) => ({ version: v === 0 ? ("OLD" as const) : ("NEW" as const), ...note })),
+  );
 }
 
 /**
@@ -176,6 +196,29 @@ function readingOfVersion(opts: SharedCliOptions, tree: Tree): VersionReading | 
 export function headerLinesFor(opts: SharedCliOptions, kind: "summary" | "diff", io: CliIO): number {
   const legend = opts.legend ? legendLines(kind, opts.width ?? defaultWidth(io)).length : 0;
   return (opts.bare ? 0 : 1) + legend + keyRowsFor(opts, io);
+}
+
+/**
+ * A BUDGET_TOO_SMALL error from a run with `--legend` says how many of the lines before the tree the
+ * legend takes, so the reader sees what to drop; any other error is returned as it is.
+ */
+export function legendInError(
+  err: unknown,
+  opts: SharedCliOptions,
+  kind: "summary" | "diff",
+  io: CliIO,
+): unknown {
+  if (!opts.legend || !(err instanceof EspalierError) || err.code !== "BUDGET_TOO_SMALL") return err;
+  const width = opts.width ?? defaultWidth(io);
+  const legend = legendLines(kind, width).length;
+  const at = width === undefined ? "" : ` at ${width} columns`;
+  const before = Number(err.details.before ?? 0);
+  return new EspalierError(
+    err.code,
+    [...err.parts, ` (--legend takes ${legend} of those ${before} lines${at})`],
+    err.pos,
+    err.details,
+  );
 }
 
 /** Lines the key takes (see `keyRows`): one, two on a screen under 60 columns, none when not shown. */

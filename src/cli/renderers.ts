@@ -87,6 +87,7 @@ export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
       by: result.combined.by,
       labels: s.labels,
       compared: s.compared ?? [],
+      notes: s.versionNotes ?? [],
     }),
   markdown: async (result, s, tree) =>
     (await import("../render/diff-markdown.js")).renderDiffMarkdown(
@@ -178,7 +179,7 @@ function headerOf<T extends ViewNode>(
 /**
  * What the header says of the inputs, the same for every view of them (the interactive view's too):
  * what the size measures, how the input was read, rows filled, YAML documents, fields compared, a fact
- * table's rows.
+ * table's rows, the loader's notes.
  */
 export function inputFacts(s: OutputSettings): InputFacts {
   return {
@@ -193,5 +194,6 @@ export function inputFacts(s: OutputSettings): InputFacts {
     ...(s.unnamedOnly === undefined ? {} : { unnamedOnly: s.unnamedOnly }),
     ...(s.compared === undefined ? {} : { compared: s.compared }),
     ...(s.rolledUpRows === undefined ? {} : { rolledUpRows: s.rolledUpRows }),
+    ...(s.noteFacts.length === 0 ? {} : { notes: s.noteFacts }),
   };
 }

@@ -5,11 +5,25 @@ import { isFactInput, summarizeFactInput } from "./fact-input.js";
 import { displayName, loadInput, pseudonymKey, readFoci, rootNameOf, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { SharedCliOptions, SummaryCliOptions } from "./options.js";
-import { defaultBudget, headerLinesFor, keyRowsFor, outputSettings } from "./output-settings.js";
+import {
+  defaultBudget,
+  headerLinesFor,
+  keyRowsFor,
+  legendInError,
+  outputSettings,
+} from "./output-settings.js";
 import { summaryHeaderRows, summaryRenderers } from "./renderers.js";
 
 /** Reads, summarises and renders one input; returns the text to print (nothing is printed here). */
 export async function summaryCommand(input: string, opts: SummaryCliOptions, io: CliIO): Promise<string> {
+  try {
+    return await summaryText(input, opts, io);
+  } catch (err) {
+    throw legendInError(err, opts, "summary", io);
+  }
+}
+
+async function summaryText(input: string, opts: SummaryCliOptions, io: CliIO): Promise<string> {
   const foci = await readFoci(io, opts, [input]);
   const options: SummarizeOptions = {
     foci,

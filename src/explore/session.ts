@@ -4,7 +4,7 @@ import { DIFF_HEADER_LINES, type DiffResult, summarizeDiff } from "../diff/diff-
 import type { DiffViewNode } from "../diff/diff-view.js";
 import type { PreparedDiff } from "../diff/prepared-diff.js";
 import { EspalierError } from "../errors.js";
-import type { Selection } from "../fit/select.js";
+import { budgetTooSmall, type Selection } from "../fit/select.js";
 import type { Importance } from "../interest/importance.js";
 import { type NodeOrder, nodeOrder } from "../interest/order.js";
 import type { Measures } from "../model/measure.js";
@@ -288,12 +288,8 @@ function smallestThatFits(compute: FitFn): FitFn {
           continue;
         }
         if (b === smallest) throw err;
-        throw new EspalierError(
-          "BUDGET_TOO_SMALL",
-          `a budget of ${budget} lines cannot hold the root and the focus paths; the smallest budget that works is ${b}`,
-          undefined,
-          { budget, smallest: b },
-        );
+        const { before, focused } = (err as EspalierError).details;
+        throw budgetTooSmall(budget, b, Number(before ?? 0), focused !== false);
       }
       throw err;
     }

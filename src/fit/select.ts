@@ -97,12 +97,8 @@ export function select(ranked: Ranked, options: SelectOptions): Selection {
   const spared = needed > budget && spareLines > 0 && needed - spareLines <= budget;
   if (spared) needed -= spareLines;
   if (needed > budget) {
-    throw new EspalierError(
-      "BUDGET_TOO_SMALL",
-      `a budget of ${budget} lines cannot hold the root and the focus paths; the smallest budget that works is ${needed}`,
-      undefined,
-      { budget, smallest: needed },
-    );
+    const forcedLines = forcedNodes.reduce((sum, f) => sum + cost(f), 0);
+    throw budgetTooSmall(budget, needed, needed - forcedLines, forcedNodes.length > 1);
   }
   const admitted: number[] = [];
   for (const f of forcedNodes) {
@@ -203,4 +199,32 @@ class Chosen implements Selection {
     }
     return this.flags;
   }
+}
+
+/**
+ * BUDGET_TOO_SMALL, saying what takes the lines: those before the tree (`before`: the header, a key
+ * or legend) and the root, with the focus paths only when one is more than the root (`focused`).
+ */
+export function budgetTooSmall(
+  budget: number,
+  smallest: number,
+  before: number,
+  focused: boolean,
+): EspalierError {
+  const held = [
+    ...(before > 0 ? [`the ${linesOf(before)} before the tree`] : []),
+    "the root",
+    ...(focused ? ["the focus paths"] : []),
+  ];
+  const list = held.length === 1 ? held[0] : `${held.slice(0, -1).join(", ")} and ${held[held.length - 1]}`;
+  return new EspalierError(
+    "BUDGET_TOO_SMALL",
+    `a budget of ${linesOf(budget)} cannot hold ${list}; the smallest budget that works is ${smallest}`,
+    undefined,
+    { budget, smallest, before, focused },
+  );
+}
+
+function linesOf(n: number): string {
+  return `${n} ${n === 1 ? "line" : "lines"}`;
 }

@@ -120,6 +120,7 @@ function repeatedIdNote({ key, line, repeats }: RepeatedKeys): ReadingNote {
   return {
     code: "REPEATED_KEY",
     line,
+    count: repeats,
     parts: say`line ${line} repeats the id ${quoted.id(key)} of the adjacency map${more}: as JSON.parse does, the last entry is read and the links of the earlier ones are not; give each id once, with all its children`,
   };
 }

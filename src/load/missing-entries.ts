@@ -17,6 +17,7 @@ export function missingEntriesNote(count: number, first: readonly MessagePart[],
   const objects = count === 1 ? "1 node object holds" : `${count} node objects hold`;
   return {
     code: "MISSING_ENTRIES",
+    count,
     ...(line === undefined ? {} : { line }),
     parts: say`${objects} "${MISSING_FIELD}": true, as npm ls --all --json lists a dependency it did not find (the first: ${first}): each is counted as a node, in every total; --label '{name} {${MISSING_FIELD}}' marks them on their lines`,
   };

@@ -106,6 +106,7 @@ function aliasesNote(
   const some = count === 1 ? "1 YAML alias is" : `${count} YAML aliases are`;
   return {
     code: "ALIASES_AS_TEXT",
+    count,
     ...(first.line > 0 ? { line: first.line } : {}),
     parts: say`${some} read as leaves of their own text (the first: ${quoted.excerpt(first.text)}, ${where}): the value an alias names is counted once, where its anchor is, and not again where the alias stands; read as nodes (--read-as nodes), an alias of a node object is that node, shown as a reference`,
   };

@@ -13,6 +13,12 @@ export interface ReadingNote {
   readonly line?: number;
   /** The note as wording and marked input text (see `quoted` in errors.ts), so `--pseudonymize` can hide it. */
   readonly parts: readonly MessagePart[];
+  /**
+   * How many things the note is about, where it counts them: node objects marked missing, keys
+   * repeated, aliases, folders left out above a listing's start. The header line says it (see
+   * render/note-clause.ts), so standard output alone tells a reader how to take the numbers.
+   */
+  readonly count?: number;
 }
 
 /**
@@ -33,6 +39,10 @@ export interface ReadingNote {
  * `MISSING_ENTRIES`: node objects holding `"missing": true`, as `npm ls --all --json` lists a dependency
  * it did not find, counted as nodes (load/missing-entries.ts). `ALIASES_AS_TEXT`: YAML read as values
  * holds aliases, each a leaf of its own text (`*base`), not the value it names (load/yaml-values.ts).
+ * `SIZES_LIKE_TOTALS`: node objects or rows whose every node with children is at least as big as its
+ * children add up to, as sizes that include the children's are, read as own sizes
+ * (load/size-totals.ts). `TOTAL_LINE_LEFT_OUT`: a path list's last line `SIZE<TAB>total` that gives
+ * what the other lines add up to, as `du -c` ends its listing, left out (path-list/grand-total.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -44,6 +54,8 @@ export const readingNoteCodes = [
   "UNSIZED_IMPORTANCE",
   "MISSING_ENTRIES",
   "ALIASES_AS_TEXT",
+  "SIZES_LIKE_TOTALS",
+  "TOTAL_LINE_LEFT_OUT",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];
@@ -53,6 +65,25 @@ export interface ShownNote {
   code: ReadingNoteCode;
   line?: number;
   message: string;
+}
+
+/** A note as the header line says it: its code, its count and line, and the diff version it is on. */
+export interface NoteFact {
+  code: ReadingNoteCode;
+  count?: number;
+  line?: number;
+  /** A diff: the version the note is on; undefined for a summary. */
+  version?: "OLD" | "NEW";
+}
+
+/** `note` as the header says it: no input text, so nothing `--pseudonymize` hides. */
+export function noteFact(note: ReadingNote, version?: "OLD" | "NEW"): NoteFact {
+  return {
+    code: note.code,
+    ...(note.count === undefined ? {} : { count: note.count }),
+    ...(note.line === undefined ? {} : { line: note.line }),
+    ...(version === undefined ? {} : { version }),
+  };
 }
 
 /** `note` with its input text shown by `show` (as it is, or pseudonyms under `--pseudonymize`). */

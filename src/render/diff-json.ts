@@ -2,6 +2,7 @@ import type { HierarchyNode } from "d3-hierarchy";
 import { type ChangeCounts, treeChangeKinds } from "../diff/changes.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
 import type { DiffTotals } from "../diff/prepared-diff.js";
+import type { ShownNote } from "../model/reading-note.js";
 import { DIFF_FORMAT, type DiffSummary, type DiffSummaryNode, type TreeChangeCounts } from "./diff-schema.js";
 import { jsonNodeFields } from "./json-node.js";
 import { jsonText } from "./json-text.js";
@@ -18,6 +19,8 @@ export interface DiffJsonOptions {
   compared?: readonly string[];
   /** Include each node's label (when a label template is in use). */
   labels: boolean;
+  /** Each version's reading notes as printed, with the version they are on; listed when there are any. */
+  notes?: readonly (ShownNote & { version: "OLD" | "NEW" })[];
 }
 
 /** The diff JSON object (see docs/diff.md and `diffSchema`). Iterative: any depth of view is fine. */
@@ -57,6 +60,7 @@ export function toDiffSummary(
     },
     foci: options.foci,
     ...(options.unmatchedFoci?.length ? { unmatchedFoci: [...options.unmatchedFoci] } : {}),
+    ...(options.notes?.length ? { notes: options.notes.map((note) => ({ ...note })) } : {}),
     root,
   };
 }

@@ -1,6 +1,12 @@
 import * as z from "zod";
 import { changeKinds } from "../diff/changes.js";
-import { foldedSchema, type NodeFields, nodeFieldsShape, unmatchedFociSchema } from "./summary-schema.js";
+import {
+  foldedSchema,
+  type NodeFields,
+  nodeFieldsShape,
+  readingNoteSchema,
+  unmatchedFociSchema,
+} from "./summary-schema.js";
 
 /** Name and version of the diff JSON; bump the number when a field changes meaning. */
 export const DIFF_FORMAT = "espalier-diff/1";
@@ -141,6 +147,17 @@ export const diffSchema = z
       .strict(),
     foci: z.array(z.string()).describe("Paths of the user's foci in the combined tree."),
     unmatchedFoci: unmatchedFociSchema,
+    notes: z
+      .array(
+        readingNoteSchema
+          .extend({ version: z.enum(["OLD", "NEW"]).describe("The version the note is on.") })
+          .strict(),
+      )
+      .min(1)
+      .optional()
+      .describe(
+        "Each version's reading notes (as a summary's input.notes), OLD's first, each also printed on standard error and said in a few words on the text header; absent when there is none.",
+      ),
     root: diffNodeSchema,
   })
   .strict()

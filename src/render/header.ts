@@ -1,6 +1,7 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { changeKinds, treeChangeKinds } from "../diff/changes.js";
 import type { DiffTotals } from "../diff/prepared-diff.js";
+import type { NoteFact } from "../model/reading-note.js";
 import { safeText } from "../model/safe-text.js";
 import type { ViewNode } from "../view/view-node.js";
 import { formatCount, type NumberOptions } from "./amount.js";
@@ -8,6 +9,7 @@ import { displayWidth, shortenEnd } from "./display-width.js";
 import { formatSize } from "./format-size.js";
 import { markdownText } from "./markdown-escape.js";
 import { codeSpan } from "./markdown-line.js";
+import { noteClauses } from "./note-clause.js";
 import { wrapWords } from "./wrap-words.js";
 
 /** How the header's own words and the input's names are written: plain text, or Markdown. */
@@ -80,6 +82,12 @@ export interface HeaderOptions {
    * the node count alone says nothing of them.
    */
   rolledUpRows?: readonly number[];
+  /**
+   * The loader's notes on the inputs (model/reading-note.ts), said in a few words each right after the
+   * totals (`2 missing counted as nodes`; see render/note-clause.ts), so the screen says how its numbers
+   * were read even where standard error, which has the whole note, is not kept.
+   */
+  notes?: readonly NoteFact[];
 }
 
 /** What a header says of its inputs beside the budget, the lines and the foci (see `HeaderOptions`). */
@@ -95,6 +103,7 @@ export type InputFacts = Pick<
   | "unnamedOnly"
   | "compared"
   | "rolledUpRows"
+  | "notes"
 >;
 
 /**
@@ -249,12 +258,13 @@ function sizeWord(header: HeaderOptions, style: HeaderStyle): string {
 }
 
 /**
- * `read at /data/teams`, `children under dependencies`, `paths from packages` (`paths from keys` for the top level),
+ * `2 missing counted as nodes` (the loader's notes), `read at /data/teams`, `children under dependencies`, `paths from packages` (`paths from keys` for the top level),
  * `every value a node`, `folder sizes read as totals with contents`, `3 short rows filled`: the
  * header's clauses on how the input was read; none when the options chose the reading.
  */
 function readingParts(header: HeaderOptions, style: HeaderStyle): string[] {
   return [
+    ...noteClauses(header.notes ?? []).map((clause) => style.words(clause)),
     rolledUpText(header, style),
     startAtText(header, style),
     choiceText(header, style),

@@ -1,7 +1,7 @@
 import { safeText } from "../model/safe-text.js";
 import { displayWidth, ELLIPSIS, shortenEnd } from "./display-width.js";
 import type { HeaderOptions } from "./header.js";
-import { FOLD_SIGN, type LineParts, NUMBERS_GONE, SIZE_CUT } from "./line-layout.js";
+import { FOLD_SIGN, type LineParts, moreNames, NUMBERS_GONE, SIZE_CUT } from "./line-layout.js";
 import { MARK } from "./marks.js";
 
 /**
@@ -34,6 +34,13 @@ export interface KeyFacts {
   readonly namesCut?: boolean;
   /** Whether a diff's fold left out how many changed nodes it holds (`(41 hidden)`). */
   readonly changesCut?: boolean;
+  /**
+   * A line too deep to indent prints its level in digits before its mark (`8 : name`): the first such
+   * line's level and mark, for the key's example.
+   */
+  readonly depthInDigits?: { readonly level: number; readonly mark: string };
+  /** Whether a chain left names out of its middle (`a / (3 more) / b`). */
+  readonly namesLeftOut?: boolean;
   /** Where the reader finds more (the interactive view's help key); default `--legend`. */
   readonly more?: string;
 }
@@ -41,7 +48,14 @@ export interface KeyFacts {
 /** What the width took away from the laid-out lines (see `ScreenLines`), for the key. */
 export type WidthCuts = Pick<
   KeyFacts,
-  "sizesLeftOut" | "sizesCut" | "countsCut" | "foldsCut" | "namesCut" | "changesCut"
+  | "sizesLeftOut"
+  | "sizesCut"
+  | "countsCut"
+  | "foldsCut"
+  | "namesCut"
+  | "changesCut"
+  | "depthInDigits"
+  | "namesLeftOut"
 >;
 
 /** What the rest of the screen says that the key speaks of: the sizes, their name, the foci's paths. */
@@ -77,6 +91,8 @@ export function keyFacts(
     ...(cuts.foldsCut ? { foldsCut: true } : {}),
     ...(cuts.namesCut ? { namesCut: true } : {}),
     ...(cuts.changesCut ? { changesCut: true } : {}),
+    ...(cuts.depthInDigits ? { depthInDigits: cuts.depthInDigits } : {}),
+    ...(cuts.namesLeftOut ? { namesLeftOut: true } : {}),
   };
 }
 
@@ -130,15 +146,25 @@ export function keyLines(
   const [first, over] = fitting === undefined ? splitMarks(kind, facts.marks, style, room) : [fitting, ""];
   const parts = explanations(kind, facts);
   const tries: string[][] = [0, 1, 2].map((tier) => parts.map((p) => p[tier]));
-  for (let n = parts.length - 1; n >= 2; n--) tries.push(parts.slice(0, n).map((p) => p[2]));
+  // Fewer parts, from the end, while every part said however short the key stays (see `vitalWords`).
+  const lastVital = parts.findLastIndex((p) => p[3] === "sizes" || p[3] === "depth");
+  for (let n = parts.length - 1; n >= Math.max(2, lastVital + 1); n--)
+    tries.push(parts.slice(0, n).map((p) => p[2]));
   // What the sizes on screen are, or that they were cut, stays longest (see `vitalWords`); then the
   // counts alone, then what no sum on screen can do without in fewest words, then the leftover marks.
   const vital = vitalWords(facts, parts);
   tries.push(vital);
   if (facts.sizesCut && !facts.sizesLeftOut) tries.push([parts[0][2], SIZE_CUT_LEAST]);
   if (!(facts.sizes ?? true)) tries.push([parts[0][2]]);
-  const least = [...(facts.sizesLeftOut ? [SIZES_GONE] : []), ...(facts.sizesCut ? [SIZE_CUT_LEAST] : [])];
+  const depth = depthWords(parts);
+  const least = [
+    ...(facts.sizesLeftOut ? [SIZES_GONE] : []),
+    ...(facts.sizesCut ? [SIZE_CUT_LEAST] : []),
+    ...depth,
+  ];
   if (least.length > 0) tries.push(least);
+  // A deep line misreads without its digits explained; what the sizes are can go first.
+  if (depth.length > 0) tries.push(depth);
   if (over !== "") tries.push([]);
   const row = (t: string[]) => `${ROW_INDENT}${[...(over ? [over] : []), ...t].join("; ")}`;
   const second = tries.map(row).find((t) => displayWidth(t) <= room);
@@ -169,7 +195,7 @@ export function keyLine(
   const [numbers, ...rest] = explanations(kind, facts);
   const cuts = rest.filter((p) => p[3] === "cut");
   // Sizes shown, left out, or cut from a line, stay said however short the key (see `vitalWords`).
-  const sized = rest.filter((p) => p[3] === "sizes");
+  const sized = [...rest.filter((p) => p[3] === "sizes"), ...rest.filter((p) => p[3] === "depth")];
   const must = vitalWords(facts, [numbers, ...rest]);
   const chain = rest.filter((p) => p[3] === "chain");
   const more = moreWords(facts);
@@ -187,9 +213,15 @@ export function keyLine(
   ];
   for (let n = cuts.length - 1; n >= 0; n--) tries.push([compact, ...must, ...short(cuts.slice(0, n))]);
   // Fewer letters still for the marks, and what no sum on screen can do without said in fewest words.
-  const least = [...(facts.sizesLeftOut ? [SIZES_GONE] : []), ...(facts.sizesCut ? [SIZE_CUT_LEAST] : [])];
+  const depth = depthWords(rest);
+  const least = [
+    ...(facts.sizesLeftOut ? [SIZES_GONE] : []),
+    ...(facts.sizesCut ? [SIZE_CUT_LEAST] : []),
+    ...depth,
+  ];
   const vitalLeast = [...(facts.sizes === false ? [] : [numbers[2]]), ...least];
   tries.push([tiny, ...must], [tiny, ...vitalLeast], [tiny, ...least]);
+  if (depth.length > 0) tries.push([tiny, ...depth]);
   for (const parts of tries) {
     const text = `key: ${parts.filter((part) => part !== "").join("; ")}`;
     if (width === undefined || displayWidth(text) <= width) return text;
@@ -200,11 +232,17 @@ export function keyLine(
 /**
  * What a key says however short it is, besides the marks: what the sizes on screen are (totals with
  * all below), that they were left out to fit, or that a line's were cut (`size cut`), each in fewest
- * words; nothing for an input without sizes.
+ * words (nothing of sizes for an input without them), and a deep line's level in digits.
  */
 function vitalWords(facts: KeyFacts, parts: readonly Explanation[]): string[] {
-  if (!(facts.sizes ?? true)) return [];
-  return [parts[0][2], ...parts.filter((p) => p[3] === "sizes").map((p) => p[2])];
+  const depth = depthWords(parts);
+  if (!(facts.sizes ?? true)) return depth;
+  return [parts[0][2], ...parts.filter((p) => p[3] === "sizes").map((p) => p[2]), ...depth];
+}
+
+/** A deep line's level in digits, in fewest words (`'8 :' depth`), if one is on screen. */
+function depthWords(parts: readonly Explanation[]): string[] {
+  return parts.filter((p) => p[3] === "depth").map((p) => p[2]);
 }
 
 /** A line's sizes cut, in fewest words: the line above it does not add up by size. */
@@ -215,10 +253,16 @@ const SIZES_GONE = "sizes cut";
 
 /**
  * One thing the key explains, in long, short and shortest words, and what it is: the numbers, what
- * the width took away from the lines (`cut`), a chain or a path's escapes (`chain`), or the pointer
+ * the width took away from the lines (`cut`), a deep line's level in digits (`depth`, said however short
+ * the key: the line reads wrongly without it), a chain or a path's escapes (`chain`), or the pointer
  * to the legend.
  */
-type Explanation = readonly [string, string, string, "numbers" | "sizes" | "cut" | "chain" | "more"];
+type Explanation = readonly [
+  string,
+  string,
+  string,
+  "numbers" | "sizes" | "depth" | "cut" | "chain" | "more",
+];
 
 /** What the key explains besides the marks, most needed first (see `Explanation`). */
 function explanations(kind: "summary" | "diff", facts: KeyFacts): Explanation[] {
@@ -253,6 +297,24 @@ function explanations(kind: "summary" | "diff", facts: KeyFacts): Explanation[] 
       `'${SIZE_CUT}': so the line above's sizes do not add up`,
       `'${SIZE_CUT}': above won't add up`,
       "sizes",
+    ]);
+  if (facts.depthInDigits) {
+    // The screen's own first such line is the example: `'8 :'` reads as it is printed.
+    const { level, mark } = facts.depthInDigits;
+    const seen = `'${level} ${mark}'`;
+    said.push([
+      `${seen} a line ${level} levels down, too deep to indent`,
+      `${seen} ${level} levels down`,
+      `${seen} depth`,
+      "depth",
+    ]);
+  }
+  if (facts.namesLeftOut)
+    said.push([
+      `a / ${moreNames(3)} / b: 3 more names between a and b, each a node of the count`,
+      "(k more): k names left out",
+      "(k more): k names",
+      "depth",
     ]);
   if (facts.countsCut)
     said.push([

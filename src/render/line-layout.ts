@@ -1,5 +1,6 @@
 import type { ChangeKind } from "../diff/changes.js";
 import { CHAIN_JOIN } from "../model/chain-join.js";
+import { formatCount } from "./amount.js";
 import { displayWidth, shortenEnd, shortenKeeping, shortenMiddle } from "./display-width.js";
 import { noColour, type Palette } from "./palette.js";
 
@@ -115,6 +116,11 @@ const NOTHING_CUT = {
   changesCut: false,
 } as const;
 
+/** The level a line prints in digits (see `LaidOutLine.depthInDigits`), when its indentation does. */
+function depthOf(indentation: string, full: string, level: number): { depthInDigits?: number } {
+  return indentation === full ? {} : { depthInDigits: level };
+}
+
 /** The first of `laidOutLine`'s steps that may leave a number out. */
 const FIRST_CUT = 7;
 
@@ -135,6 +141,13 @@ export interface LaidOutLine {
   nameCut: boolean;
   /** Whether a diff's fold left out how many changed nodes it holds (`(41 hidden)`). */
   changesCut: boolean;
+  /** Whether a chain left names out of its middle, `(k more)` standing for them. */
+  namesLeftOut?: boolean;
+  /**
+   * The line's level when its indentation, too deep for the width, prints it in digits (`8 : name`,
+   * 8 levels below the top line); absent when the line is indented in full.
+   */
+  depthInDigits?: number;
 }
 
 /**
@@ -148,7 +161,8 @@ export interface LaidOutLine {
  *   2. the tag's old path or old name is cut to a few columns (`…` marks every cut);
  *   3. the labels are cut, down to 8 columns a name, then to 4: one name at its end, or around where it
  *      differs from its siblings when the end cut would lose that; a chain's longest names at their
- *      ends, every ` / ` kept so its names can be counted (see `cutLabels`);
+ *      ends, every ` / ` kept so its names can be counted; at 4 a long chain keeps its first and
+ *      last names around `(k more)`, the k left out of its middle (see `cutChain`);
  *   4. numbers become compact (`12.1k nodes`, plain sizes `286M`);
  *   5. the fold's size goes, its count stays (`(hidden: 41 nodes)`; in a diff with how many changed
  *      nodes it holds), then the line's size (`608 nodes`), then the fold's words (`(41 hidden)`);
@@ -262,8 +276,12 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     const whole = displayWidth(label) <= room;
     if (!whole && (fewest === 0 || room < floorOf(p.labels, fewest))) continue;
     // A chain keeps its joins while the line keeps a count: its names are counted in it.
-    if (!whole && p.labels.length > 1 && fewest !== ANY_CUT && cutChain(p.labels, room) === null) continue;
-    const text = whole ? label : cutLabels(p.labels, room, p.distinct);
+    if (!whole && p.labels.length > 1 && fewest !== ANY_CUT && cutChain(p.labels, room, fewest) === null)
+      continue;
+    const names = whole
+      ? { text: label, elided: false, shortened: false }
+      : cutNames(p.labels, room, p.distinct, fewest);
+    const text = names.text;
     // From step 5 on, less than the compact numbers and fold is a number (or a change's kind) left out.
     const numbersCut =
       !keepAll &&
@@ -275,8 +293,10 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
       numbersCut,
       countCut: p.countNumbers !== "" && (numbers === gone || numbers === ""),
       foldCut: fold === FOLD_SIGN,
-      nameCut: !whole,
+      nameCut: names.shortened,
       changesCut: (fold === foldBare || fold === FOLD_SIGN) && foldBare !== p.foldTiny,
+      ...depthOf(ind, indent, p.level),
+      ...(names.elided ? { namesLeftOut: true } : {}),
     };
   }
   if (keepAll) return null;
@@ -297,6 +317,7 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     foldCut,
     nameCut: true,
     changesCut: foldCut && foldBare !== p.foldTiny,
+    ...depthOf(least, indent, p.level),
   };
 }
 
@@ -307,7 +328,22 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
 function floorOf(labels: readonly string[], fewest: number): number {
   if (fewest === ANY_CUT) return Math.min(1, displayWidth(labels.join(CHAIN_JOIN)));
   const names = labels.reduce((sum, l) => sum + Math.min(displayWidth(l), fewest), 0);
-  return names + CHAIN_JOIN.length * (labels.length - 1);
+  const every = names + CHAIN_JOIN.length * (labels.length - 1);
+  if (labels.length < 3 || fewest > FEW_LABEL) return every;
+  // Or its first and last names around how many are left out (see `cutChain`).
+  const ends = [labels[0], labels[labels.length - 1]].reduce(
+    (sum, l) => sum + Math.max(1, Math.min(displayWidth(l), fewest)),
+    0,
+  );
+  return Math.min(every, ends + 2 * CHAIN_JOIN.length + displayWidth(moreNames(labels.length - 2)));
+}
+
+/**
+ * What stands in a chain for the names left out of its middle (`(116 more)`): each is a node of the
+ * line's count, so the count can still be checked against the names.
+ */
+export function moreNames(k: number): string {
+  return `(${formatCount(k)} more)`;
 }
 
 /**
@@ -315,26 +351,90 @@ function floorOf(labels: readonly string[], fewest: number): number {
  * that would cut away where it differs from its siblings (`distinct`): then that part stays too
  * (`ledger…x64-musl` beside `ledger…linux-x64`). A chain keeps every ` / `, so its names can still be
  * counted (each is a node of the line's count): the longest names are cut at their ends first, to
- * one width (`invent… / wareho…`); only a chain too long for one column a name is cut in its middle.
+ * one width (`invent… / wareho…`), each keeping `fewest` columns; a long chain then leaves names out
+ * of its middle, `(k more)` standing for them (see `cutChain`); only a chain too long for even that
+ * is cut in its middle.
  */
-export function cutLabels(labels: string[], room: number, distinct?: readonly number[]): string {
+export function cutLabels(labels: string[], room: number, distinct?: readonly number[], fewest = 1): string {
+  return cutNames(labels, room, distinct, fewest).text;
+}
+
+/** `cutLabels`, and whether a chain left names out of its middle (`(k more)`). */
+function cutNames(
+  labels: string[],
+  room: number,
+  distinct: readonly number[] | undefined,
+  fewest: number,
+): CutChain {
   const text = labels.join(CHAIN_JOIN);
-  if (labels.length > 1) return cutChain(labels, room) ?? shortenMiddle(text, room);
-  return distinct === undefined ? shortenEnd(text, room) : shortenKeeping(text, room, distinct);
+  if (labels.length > 1)
+    return (
+      cutChain(labels, room, fewest) ??
+      cutChain(labels, room, 1) ?? { text: shortenMiddle(text, room), elided: false, shortened: true }
+    );
+  const cut = distinct === undefined ? shortenEnd(text, room) : shortenKeeping(text, room, distinct);
+  return { text: cut, elided: false, shortened: cut !== text };
+}
+
+/**
+ * A chain within `room`: every name cut at its end to one width (see `cutEach`) while each keeps
+ * `fewest` columns (or all of its own); else, from {@link FEW_LABEL} columns down and three names or
+ * more, its first and last names and as many more from both ends as fit at `fewest` columns, around
+ * `(k more)`, the k names left out of its middle, so the names on the line can still be counted;
+ * null when neither fits.
+ */
+function cutChain(labels: readonly string[], room: number, fewest: number): CutChain | null {
+  const every = cutEach(labels, room, fewest);
+  if (every !== null)
+    return {
+      text: every.join(CHAIN_JOIN),
+      elided: false,
+      shortened: every.some((name, k) => name !== labels[k]),
+    };
+  const n = labels.length;
+  if (n < 3 || fewest > FEW_LABEL) return null;
+  // Names from both ends, the top first, while they fit at `fewest` columns with the marker.
+  const least = (k: number) => Math.max(1, Math.min(displayWidth(labels[k]), fewest)) + CHAIN_JOIN.length;
+  let head = 1;
+  let tail = 1;
+  let used = least(0) + least(n - 1);
+  while (head + tail < n - 1) {
+    const next = head <= tail ? head : n - 1 - tail;
+    const more = used + least(next) + displayWidth(moreNames(n - head - tail - 1));
+    if (more > room) break;
+    used += least(next);
+    if (next === head) head++;
+    else tail++;
+  }
+  const more = moreNames(n - head - tail);
+  const ends = [...labels.slice(0, head), ...labels.slice(n - tail)];
+  const cut = cutEach(ends, room - CHAIN_JOIN.length - displayWidth(more), fewest);
+  if (cut === null) return null;
+  const text = [...cut.slice(0, head), more, ...cut.slice(head)].join(CHAIN_JOIN);
+  return { text, elided: true, shortened: cut.some((name, k) => name !== ends[k]) };
+}
+
+/** A chain as `cutChain` cut it, and whether names were left out of its middle (`(k more)`). */
+interface CutChain {
+  text: string;
+  elided: boolean;
+  /** Whether a name was cut at its end (`…`). */
+  shortened: boolean;
 }
 
 /**
  * A chain's names cut at their ends to the widest width `cap` that fits `room` with the joins
- * (names narrower than `cap` stay whole; a name cut to one column is `…` alone), or null when not
- * even one column a name fits.
+ * (names narrower than `cap` stay whole; a name cut to one column is `…` alone), or null when that
+ * width would be under `fewest` for a name wider than it.
  */
-function cutChain(labels: readonly string[], room: number): string | null {
-  const widths = labels.map(displayWidth);
+function cutEach(labels: readonly string[], room: number, fewest: number): string[] | null {
   const names = room - CHAIN_JOIN.length * (labels.length - 1);
   if (names < labels.length) return null;
+  const widths = labels.map(displayWidth);
   let cap = Math.max(...widths);
   const used = (c: number) => widths.reduce((sum, w) => sum + Math.min(w, c), 0);
   while (cap > 1 && used(cap) > names) cap--;
+  if (used(cap) > names || cap < Math.min(fewest, Math.max(...widths))) return null;
   // A wide character the cut could not split leaves columns over: the next cut names take them.
   let spare = names - used(cap);
   const cut = labels.map((l, k) => {
@@ -344,7 +444,7 @@ function cutChain(labels: readonly string[], room: number): string | null {
     spare = own - displayWidth(short);
     return short;
   });
-  return cut.join(CHAIN_JOIN);
+  return cut;
 }
 
 /**

@@ -63,7 +63,7 @@ export function screenLines<G>(
     parts: made,
     lines: laid.map((l) => l.text),
     sizesLeftOut: false,
-    ...cutsOf(laid),
+    ...cutsOf(laid, made),
     sizesCut: sizesCut > 0,
   };
   // Sizes, or a `size cut`, the key above the lines has no room to explain (a line above a cut would
@@ -88,7 +88,7 @@ function everyLineBare<G>(
     parts: made,
     lines: laid.map((l) => l.text),
     sizesLeftOut: true,
-    ...cutsOf(laid),
+    ...cutsOf(laid, made),
     sizesCut: false,
   };
 }
@@ -100,11 +100,22 @@ function sizeCut(p: LineParts): LineParts {
 }
 
 /** What the width took from any of the lines, for the key. */
-function cutsOf(laid: readonly LaidOutLine[]): WidthCuts {
+function cutsOf(laid: readonly LaidOutLine[], parts: readonly LineParts[]): WidthCuts {
   return {
     countsCut: laid.some((l) => l.countCut),
     foldsCut: laid.some((l) => l.foldCut),
     namesCut: laid.some((l) => l.nameCut),
     changesCut: laid.some((l) => l.changesCut),
+    ...firstDepth(laid, parts),
+    ...(laid.some((l) => l.namesLeftOut) ? { namesLeftOut: true } : {}),
   };
+}
+
+/** The first line's level printed in digits, if any line prints one, with that line's mark (for the key). */
+function firstDepth(
+  laid: readonly LaidOutLine[],
+  parts: readonly LineParts[],
+): Pick<WidthCuts, "depthInDigits"> {
+  const k = laid.findIndex((l) => l.depthInDigits !== undefined);
+  return k < 0 ? {} : { depthInDigits: { level: laid[k].depthInDigits!, mark: parts[k].mark } };
 }

@@ -97,6 +97,21 @@ export const summaryNodeSchema: z.ZodType<SummaryNode> = z.lazy(() =>
 );
 
 /** How the input was read (src/model/tree.ts TreeReading). */
+/** One reading note as printed (model/reading-note.ts): in a summary's `input.notes` and a diff's `notes`. */
+export const readingNoteSchema = z
+  .object({
+    code: z
+      .enum(readingNoteCodes)
+      .describe(
+        "What was noticed. FIRST_LINE_APART: an edge list's first line was read as an edge that shares no node with any other line, as a header naming the columns would be. COMMAS_READ_AS_PATHS: two lines with as many commas (a CSV table's header and one row) were read as two paths. READ_AS_OTHER (a diff's version): read as the other version was, although on its own it reads another way. ROOT_IS_FOLDER (a diff's path list): compared from the folder it names down, as the other version lists that folder's contents without its name. SIZES_LEFT_OUT (a diff's version): its sizes were left out, as the other version has none. REPEATED_KEY: a key repeated in a JSON object of children by name (or a node's children field given twice), or an id repeated in a JSON adjacency map (--graph): as JSON.parse does, the last value was read and the nodes or links of the earlier ones were not. UNSIZED_IMPORTANCE: --importance size was asked for and the input has no sizes, so nodes rank as with --importance depth. MISSING_ENTRIES: node objects hold \"missing\": true, as npm ls --all --json lists a dependency it did not find; each is counted as a node, in every total. ALIASES_AS_TEXT: YAML read as values holds aliases (*name), each a leaf of its own text: the value an alias names is counted once, at its anchor, not where the alias stands. SIZES_LIKE_TOTALS: every node with children is at least as big as its children add up to, as sizes that include the children's are (lsblk -J -b), and they were read as each node's own (--folder-sizes total reads them as totals). TOTAL_LINE_LEFT_OUT: a path list's last line SIZE<TAB>total gave what the other lines add up to, as du -c ends its listing, and was left out.",
+      ),
+    line: z.number().int().positive().optional().describe("The input line the note is about."),
+    message: z
+      .string()
+      .describe("The note as standard error prints it: what was read, why, and how to read it otherwise."),
+  })
+  .strict();
+
 export const inputReadingSchema = z
   .object({
     shape: z
@@ -168,27 +183,11 @@ export const inputReadingSchema = z
         "A table or rows linked by id without the name column (--name-field): the id column, whose values name the nodes. Absent when names come from the name column.",
       ),
     notes: z
-      .array(
-        z
-          .object({
-            code: z
-              .enum(readingNoteCodes)
-              .describe(
-                "What was noticed. FIRST_LINE_APART: an edge list's first line was read as an edge that shares no node with any other line, as a header naming the columns would be. COMMAS_READ_AS_PATHS: two lines with as many commas (a CSV table's header and one row) were read as two paths. READ_AS_OTHER (a diff's version, on standard error only): read as the other version was, although on its own it reads another way. ROOT_IS_FOLDER (a diff's path list, on standard error only): compared from the folder it names down, as the other version lists that folder's contents without its name. SIZES_LEFT_OUT (a diff's version, on standard error only): its sizes were left out, as the other version has none. REPEATED_KEY: a key repeated in a JSON object of children by name (or a node's children field given twice), or an id repeated in a JSON adjacency map (--graph): as JSON.parse does, the last value was read and the nodes or links of the earlier ones were not. UNSIZED_IMPORTANCE: --importance size was asked for and the input has no sizes, so nodes rank as with --importance depth. MISSING_ENTRIES: node objects hold \"missing\": true, as npm ls --all --json lists a dependency it did not find; each is counted as a node, in every total. ALIASES_AS_TEXT: YAML read as values holds aliases (*name), each a leaf of its own text: the value an alias names is counted once, at its anchor, not where the alias stands.",
-              ),
-            line: z.number().int().positive().optional().describe("The input line the note is about."),
-            message: z
-              .string()
-              .describe(
-                "The note as standard error prints it: what was read, why, and how to read it otherwise.",
-              ),
-          })
-          .strict(),
-      )
+      .array(readingNoteSchema)
       .min(1)
       .optional()
       .describe(
-        "What the reader should know about this reading that the tree cannot show (each also printed on standard error); absent when there is none.",
+        "What the reader should know about this reading that the tree cannot show (each also printed on standard error, and said in a few words on the text header); absent when there is none.",
       ),
   })
   .strict()

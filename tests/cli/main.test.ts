@@ -36,6 +36,21 @@ describe("espalier <input> (summary)", () => {
     expect(r.stderr).toContain("is 6"); // the header, and one line for each of 5 nodes
   });
 
+  it("BUDGET_TOO_SMALL without a focus names the lines before the tree and the root, not focus paths", async () => {
+    // Field defect: --legend at 40 columns took the budget, and the error blamed focus paths never given.
+    const stdin = "a/x\na/y\nb/z\n";
+    const r = await cli(["-", "--budget", "20", "--legend"], { stdin, env: { COLUMNS: "40" } });
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain("[BUDGET_TOO_SMALL]");
+    expect(r.stderr).not.toContain("focus");
+    const legend = legendLines("summary", 40).length;
+    // The header (1 line at 40 columns) and the legend, then the root.
+    expect(r.stderr).toContain(`is ${1 + legend + 1}`);
+    expect(r.stderr).toContain(`--legend takes ${legend} of those ${1 + legend} lines at 40 columns`);
+    const focused = await cli(["-", "--budget", "2", "--focus", "a/x", "--no-chains"], { stdin });
+    expect(focused.stderr).toContain("focus paths");
+  });
+
   it("exits 2 for a bad option value, with a usage error and no output", async () => {
     const r = await cli(["-", "--budget", "zero"], { stdin: "a\n" });
     expect(r.code).toBe(2);
@@ -216,10 +231,10 @@ describe("espalier <input> --legend, --help and --width", () => {
       "\n",
     );
     for (const width of [48, 80, 120]) {
-      const r = await cli(["-", "--legend", "--budget", "24", "--width", String(width)], { stdin: files });
+      const r = await cli(["-", "--legend", "--budget", "30", "--width", String(width)], { stdin: files });
       expect(r.code).toBe(0);
       const lines = r.stdout.trimEnd().split("\n");
-      expect(lines.length).toBe(24);
+      expect(lines.length).toBe(30);
       const legend = legendLines("summary", width);
       // The header wraps to the width too (its clauses), and the legend follows it.
       const at = lines.findIndex((line) => line.startsWith("marks: "));

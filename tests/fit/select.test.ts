@@ -45,7 +45,13 @@ describe("select({tree, measures, scores, order}, {budget, headerLines, chains})
           })();
           expect(err).toBeInstanceOf(EspalierError);
           expect((err as EspalierError).code).toBe("BUDGET_TOO_SMALL");
-          expect((err as EspalierError).details).toEqual({ budget, smallest: forcedCount });
+          expect((err as EspalierError).details).toEqual({
+            budget,
+            smallest: forcedCount,
+            before: 0,
+            // The error names focus paths only when the forced set is more than the root.
+            focused: scores.forcedNodes.length > 1,
+          });
           return;
         }
         const sel = run(budget);

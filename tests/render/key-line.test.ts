@@ -1,3 +1,6 @@
+import { mkdtemp, writeFile } from "node:fs/promises";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import type { HierarchyNode } from "d3-hierarchy";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
@@ -8,7 +11,7 @@ import { renderDiffText } from "../../src/render/diff-text.js";
 import { displayWidth } from "../../src/render/display-width.js";
 import { KEY_MIN_BUDGET, keyFacts, keyLine, keyLines, keyRows } from "../../src/render/key-line.js";
 import { MIN_WIDTH } from "../../src/render/line-layout.js";
-import { MARK } from "../../src/render/marks.js";
+import { legendLines, MARK } from "../../src/render/marks.js";
 import { renderText } from "../../src/render/summary-text.js";
 import { prepare, summarize } from "../../src/summarize.js";
 import { arbEdited } from "../diff/edit-script.js";
@@ -293,5 +296,81 @@ describe("the key above a screen at any width from MIN_WIDTH to 200", () => {
       ),
       { numRuns: 150 },
     );
+  });
+});
+
+describe("keyLines(kind, facts, width) for a line too deep to indent (field test: '2 :' unexplained)", () => {
+  // Field test: at 40 columns a diff printed `2 : [removed] Ar…`, its level in digits, and neither the
+  // key nor --legend said what the leading number was. An invented workshop, 12 levels deep, with a
+  // sibling at every level so each level takes a line of its own; NEW renames one bay, drops a spare.
+  const rows = ["id,parent,name,size", "1,,Kestrel Looms,1"];
+  for (let k = 2; k <= 12; k++)
+    rows.push(`${k},${k - 1},Weaving Bay ${k},${k}`, `${k + 100},${k - 1},Spare ${k},1`);
+  const oldCsv = `${rows.join("\n")}\n`;
+  const kept = rows.filter((r) => !r.startsWith("112,"));
+  const newCsv = `${kept.join("\n").replace("Weaving Bay 11,", "Loom Hall 11,")}\n`;
+
+  it("says what the leading digits of the first such line mean, at every width that prints them", async () => {
+    const dir = await mkdtemp(join(tmpdir(), "espalier-deep-"));
+    const [oldFile, newFile] = [join(dir, "old.csv"), join(dir, "new.csv")];
+    await writeFile(oldFile, oldCsv);
+    await writeFile(newFile, newCsv);
+    const seen: string[] = [];
+    const missed: string[] = [];
+    // From 33 columns: at 30-32 a diff's three marks alone overflow the key's two rows (a known limit).
+    for (let width = 33; width <= 60; width++) {
+      for (const command of [[oldFile], ["diff", oldFile, newFile]]) {
+        const args = [...command, "--no-chains", "--budget", "40", "--focus", "12"];
+        const r = await cli(args, { env: { COLUMNS: String(width) } });
+        expect(r.code, r.stderr).toBe(0);
+        const lines = r.stdout.trimEnd().split("\n");
+        const deep = lines.map((l) => /^ *(\d+) ([*:.&]) /.exec(l)).find((m) => m !== null);
+        if (!deep) continue;
+        seen.push(`${command[0]}@${width}`);
+        const at = lines.findIndex((l) => l.startsWith("key: "));
+        const key = lines.slice(at, at + keyRows(width)).join("\n");
+        if (!key.includes(`'${deep[1]} ${deep[2]}'`)) missed.push(`${command[0]}@${width}:\n${key}`);
+      }
+    }
+    expect(missed).toEqual([]);
+    // Both commands print such lines at some of these widths, or the test checks nothing.
+    expect(seen.some((s) => s.startsWith("diff@"))).toBe(true);
+    expect(seen.some((s) => !s.startsWith("diff@"))).toBe(true);
+  });
+
+  it("--legend says what a level in digits is", () => {
+    for (const kind of ["summary", "diff"] as const)
+      expect(legendLines(kind).join(" ")).toContain("level in digits");
+  });
+});
+
+describe("keyLines(kind, facts, width) for a chain with names left out (field test: a bare '?')", () => {
+  // Field defect: a deep chain at 60 columns printed `. 1037 / 1074 / … /…06 / 2443 / …  ?`, its
+  // count gone. An invented archive of numbered boxes, 90 levels of only children, then 4 files.
+  const boxes = Array.from({ length: 90 }, (_, k) => String(1000 + ((k * 4001) % 9000)));
+  const paths = boxes.map((_, k) => boxes.slice(0, k + 1).join("/"));
+  for (let f = 0; f < 4; f++) paths.push(`${paths[paths.length - 1]}/file-${f}`);
+  const stdin = `${paths.join("\n")}\n`;
+
+  it("keeps the count and says what '(k more)' is, at every width", async () => {
+    const seen: number[] = [];
+    for (let width = MIN_WIDTH; width <= 90; width++) {
+      const r = await cli(["-", "--budget", "12"], { stdin, env: { COLUMNS: String(width) } });
+      expect(r.code, r.stderr).toBe(0);
+      const lines = r.stdout.trimEnd().split("\n");
+      const top = lines.find((l) => l.startsWith(". "))!;
+      // 94 nodes: the 90 names of the chain and the 4 files below it.
+      expect(top, `${width}`).toMatch(/ {2}94 nodes$/);
+      if (!/ \/ \(\d+ more\) \/ /.test(top)) continue;
+      seen.push(width);
+      const at = lines.findIndex((l) => l.startsWith("key: "));
+      expect(lines.slice(at, at + keyRows(width)).join("\n"), `${width}:\n${r.stdout}`).toContain("(k more)");
+    }
+    expect(seen).toContain(60);
+  });
+
+  it("--legend says what '(3 more)' in a chain is", () => {
+    for (const kind of ["summary", "diff"] as const)
+      expect(legendLines(kind).join(" ")).toContain("(3 more)");
   });
 });

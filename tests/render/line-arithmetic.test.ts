@@ -42,6 +42,17 @@ function arbitrarySummary(
   }
 }
 
+/**
+ * The names a line's label stands for: each between ` / ` joins, and the k of a chain's `(k more)`,
+ * the names left out of its middle (docs/selection.md).
+ */
+function namesIn(label: string): number {
+  return label
+    .split(" / ")
+    .map((name) => /^\(([0-9,]+) more\)$/.exec(name))
+    .reduce((sum, more) => sum + (more ? Number(more[1].replaceAll(",", "")) : 1), 0);
+}
+
 interface Line {
   level: number;
   /** Names on the line: a chain `a / b / c` has three. */
@@ -68,7 +79,7 @@ function parse(text: string): Line[] {
       const number = (s: string | undefined) => (s === undefined ? 0 : Number(s.replaceAll(",", "")));
       return {
         level: indent.length / 2,
-        names: label.split(" / ").length,
+        names: namesIn(label),
         nodes: nodes === undefined ? 1 : number(nodes),
         hidden: number(hidden),
       };
@@ -155,7 +166,7 @@ function parseNarrow(text: string, width: number): Line[] {
       const number = (s: string | undefined) => (s === undefined ? 0 : Number(s.replaceAll(",", "")));
       return {
         level: digits === undefined ? indent.length / 2 : Number(digits),
-        names: label.split(" / ").length,
+        names: namesIn(label),
         // No count fitted: the line's sum, and its parent's, cannot be checked (and are not).
         nodes: gone ? Number.NaN : nodes === undefined ? 1 : number(nodes),
         hidden: sign ? Number.NaN : number(hidden ?? tiny),

@@ -250,3 +250,65 @@ describe("layoutLine(parts, { width })", () => {
     );
   });
 });
+
+describe("layoutLine(parts, { width }) for a long chain of only children", () => {
+  // Field defect: at 60 columns a chain of 4-digit names was cut in its middle with its count gone,
+  // `. 1037 / 1074 / … /…06 / 2443 / …  ?`, so nothing on the line could be checked.
+  const chain = (n: number, name = (k: number) => String(1000 + ((k * 7919) % 9000))): LineParts => ({
+    level: 0,
+    mark: ".",
+    role: "other",
+    tag: "",
+    shortTag: "",
+    tagKind: null,
+    labels: Array.from({ length: n }, (_, k) => name(k)),
+    numbers: `${n + 5} nodes`,
+    compactNumbers: `${n + 5} nodes`,
+    countNumbers: `${n + 5} nodes`,
+    fold: "",
+    foldCounts: "",
+    compactFold: "",
+    foldShort: "",
+    foldTiny: "",
+  });
+  /** The names a chain line stands for: those printed, and the k of a `(k more)`. */
+  const namesOn = (line: string): number => {
+    const names = line
+      .replace(/ {2}.*$/, "")
+      .slice(2)
+      .split(" / ");
+    const more = names.map((n) => /^\(([\d,]+) more\)$/.exec(n)).find((m) => m !== null);
+    return names.length - (more ? 1 - Number(more[1].replace(/,/g, "")) : 0);
+  };
+
+  it("keeps the count, the first and last names and how many it leaves out between them", () => {
+    const line = layoutLine(chain(120), { width: 60 });
+    expect(displayWidth(line)).toBeLessThanOrEqual(60);
+    expect(line).toMatch(/^\. 1000 \/ .* \/ \(\d+ more\) \/ .* \/ \d{4} {2}125 nodes$/);
+    expect(namesOn(line)).toBe(120);
+  });
+
+  it("prints a count only beside names that can be counted to it, at any width (property)", () => {
+    const names = fc.constantFrom(
+      (k: number) => String(k),
+      (k: number) => `bay-${k}-annex`,
+      (k: number) => `倉庫${k}`,
+    );
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 2, max: 400 }),
+        names,
+        fc.integer({ min: MIN_WIDTH, max: 120 }),
+        (n, name, width) => {
+          const line = layoutLine(chain(n, name), { width });
+          expect(displayWidth(line)).toBeLessThanOrEqual(width);
+          if (!line.endsWith(`  ${n + 5} nodes`)) return;
+          expect(namesOn(line), line).toBe(n);
+        },
+      ),
+    );
+    // The count stays wherever the first and last names fit at one column around the marker: at 30
+    // columns `. … / (48 more) / …  55 nodes` is 30 (with 398 more it would be 32).
+    for (const n of [3, 50]) expect(layoutLine(chain(n), { width: MIN_WIDTH })).toContain(`  ${n + 5} nodes`);
+  });
+});

@@ -499,6 +499,7 @@ export class JsonLoader extends JsonTokenizer {
     return {
       code: "REPEATED_KEY",
       line,
+      count: this.repeats,
       parts: say`line ${line} repeats the key ${quoted.name(key)} of its object${more}: as JSON.parse does, the last value is read and the earlier ones (${nodes}) are not; RFC 8259 leaves a repeated key to each reader, so give each key once, or read every value with --read-as values`,
     };
   }

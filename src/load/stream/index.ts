@@ -23,6 +23,7 @@ import type { InputFormat, LoadOptions } from "../load-options.js";
 import { checkPathListOptions } from "../path-list/path-list-options.js";
 import { jsonGraphTooLong, limitsOf } from "../read-limits.js";
 import { checkReadingOptions } from "../reading-options.js";
+import { readSizeTotals } from "../size-totals.js";
 import { csvTableFromStream } from "../table/csv-table.js";
 import { type KeptTable, keepTable, takeKeptTable } from "../table/kept-table.js";
 import { linkTable } from "../table/link-table.js";
@@ -71,8 +72,9 @@ export async function loadTreeFromStream(
       throw error;
     }
     placeRow = linked.placeRow;
-    if (isGraph(linked)) return buildGraphTree(withNodeRecords(linked, options), file);
-    const tree = buildTree(linked, file);
+    if (isGraph(linked))
+      return readSizeTotals(buildGraphTree(withNodeRecords(linked, options), file), options.folderSizes);
+    const tree = readSizeTotals(buildTree(linked, file), options.folderSizes);
     if (table.kept) keepTable(tree, table.kept);
     return tree;
   } catch (caught) {

@@ -1,0 +1,66 @@
+import type { NoteFact, ReadingNoteCode } from "../model/reading-note.js";
+import { formatCount } from "./amount.js";
+
+/**
+ * How the header says each kind of reading note (model/reading-note.ts) in a few words, so that
+ * standard output alone, without the note on standard error, tells a reader how to take its numbers:
+ * `720 missing counted as nodes`. A counted kind's words follow its count (`one` and `many` for 1 and
+ * the rest); a diff says both versions' counts (`0 -> 2 …`). The words name no input text, so
+ * `--pseudonymize` has nothing to hide in them.
+ */
+const clauses: Readonly<Record<ReadingNoteCode, Clause>> = {
+  FIRST_LINE_APART: { said: (n) => `line ${formatCount(n.line ?? 1)} read as an edge` },
+  COMMAS_READ_AS_PATHS: { said: () => "lines with commas read as paths" },
+  READ_AS_OTHER: { said: (n) => `read as ${n.version === "OLD" ? "NEW" : "OLD"} was` },
+  ROOT_IS_FOLDER: {
+    said: (n) =>
+      n.count
+        ? `${formatCount(n.count)} ${n.count === 1 ? "folder" : "folders"} above the start left out`
+        : "top folder compared as the root",
+  },
+  SIZES_LEFT_OUT: { said: () => "sizes left out" },
+  REPEATED_KEY: { counted: ["repeated key, the last read", "repeated keys, the last read"] },
+  UNSIZED_IMPORTANCE: { said: () => "ranked by depth (no sizes)", ofRun: true },
+  MISSING_ENTRIES: { counted: ["missing counted as a node", "missing counted as nodes"] },
+  ALIASES_AS_TEXT: { counted: ["YAML alias read as text", "YAML aliases read as text"] },
+  SIZES_LIKE_TOTALS: { said: () => "sizes may count children twice" },
+  TOTAL_LINE_LEFT_OUT: { said: (n) => `line ${formatCount(n.line ?? 1)} read as a grand total, left out` },
+};
+
+/**
+ * A kind of note as the header says it: `counted`, the words after its count (for 1, for others),
+ * where a version without the note counts 0; else `said`, its words for one note. `ofRun`: about the
+ * run (the options), said without a version's name in a diff.
+ */
+type Clause =
+  | { counted: readonly [one: string, many: string]; said?: undefined; ofRun?: undefined }
+  | { said: (note: NoteFact) => string; ofRun?: boolean; counted?: undefined };
+
+/**
+ * The header's clauses for `notes`, in the order of their kinds in `readingNoteCodes`' table above,
+ * one per kind: a summary's `2 missing counted as nodes`; a diff's `0 -> 2 missing counted as nodes`
+ * for a counted kind, else each version's note behind its name (`NEW: read as OLD was`).
+ */
+export function noteClauses(notes: readonly NoteFact[]): string[] {
+  const out: string[] = [];
+  const diff = notes.some((n) => n.version !== undefined);
+  for (const [code, clause] of Object.entries(clauses) as [ReadingNoteCode, Clause][]) {
+    const of = notes.filter((n) => n.code === code);
+    if (of.length === 0) continue;
+    if (clause.counted) {
+      const count = (version?: "OLD" | "NEW") =>
+        of.filter((n) => n.version === version).reduce((sum, n) => sum + (n.count ?? 1), 0);
+      const counts = diff ? [count("OLD"), count("NEW")] : [count()];
+      const last = counts[counts.length - 1];
+      out.push(`${counts.map((c) => formatCount(c)).join(" -> ")} ${clause.counted[last === 1 ? 0 : 1]}`);
+      continue;
+    }
+    const said = new Set<string>();
+    for (const note of of) {
+      const version = note.version === undefined || clause.ofRun ? "" : `${note.version}: `;
+      said.add(`${version}${clause.said(note)}`);
+    }
+    out.push(...said);
+  }
+  return out;
+}
