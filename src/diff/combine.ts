@@ -4,6 +4,7 @@ import type { Tree } from "../model/tree.js";
 import { KIND } from "./changes.js";
 import { type ComparedFields, isEdited } from "./field-edits.js";
 import type { Matching } from "./match.js";
+import { splice } from "./splice.js";
 
 /** Both versions in one tree: the new version plus every removed node at its old place. */
 export interface Combined {
@@ -61,154 +62,46 @@ export function combineListing(
   compared: ComparedFields | null = null,
 ): { combined: Combined; changed: Int32Array } {
   const { oldToNew, newToOld } = matching;
-  const oldParent = oldTree.parent;
-  const newParent = newTree.parent;
-
-  // Per new node: SPLICE when its old counterpart has a removed child (spliced in among its children
-  // here), MIXED when its subtree holds such a node (else the subtree is copied as one block): marked
-  // up from each, to the first node marked before.
-  const flags = new Uint8Array(newTree.length);
-  let removedCount = 0;
-  for (let o = 1; o < oldTree.length; o++) {
-    if (oldToNew[o] >= 0) continue;
-    removedCount++;
-    const m = oldToNew[oldParent[o]];
-    if (m < 0) continue;
-    flags[m] |= SPLICE;
-    for (let a = m; a >= 0 && (flags[a] & MIXED) === 0; a = a > 0 ? newParent[a] : -1) flags[a] |= MIXED;
-  }
-  const total = newTree.length + removedCount;
-  if (removedCount === 0) {
+  // Each pass below is a function of its own with one loop (and no growing array in it): the engine
+  // compiles a loop that runs once while it runs, and compiles it again when the loop meets code it has
+  // not run yet (docs/performance.md, eleventh session).
+  const removed = removedIn(oldToNew);
+  if (removed === 0) {
     // Nothing to splice in: the combined tree is the new tree.
-    const identity = new Int32Array(total);
-    for (let k = 0; k < total; k++) identity[k] = k;
-    const { kind, changed } = kinds(oldTree, newTree, matching, compared, identity, newToOld, null);
+    const identity = identityOf(newTree.length);
+    const { kind, changed } = kinds(oldTree, newTree, matching, compared, identity, newToOld);
     return {
       combined: combined(oldTree, newTree, matching, identity, newToOld, kind, null, compared),
       changed,
     };
   }
-  const newIndex = new Int32Array(total);
-  const oldIndex = new Int32Array(total);
-  const parent = new Int32Array(total);
-
-  // Depth-first in pre-order. Stack entries: n >= 0 a new node, -(o + 1) a removed old node. Each
-  // node is pushed once, so the stacks never outgrow the combined tree; they start small and grow.
-  let stack = new Int32Array(Math.min(total, 1024));
-  let stackParent = new Int32Array(stack.length);
-  const grow = () => {
-    const size = Math.min(total, stack.length * 2);
-    const grown = new Int32Array(size);
-    grown.set(stack);
-    stack = grown;
-    const grownParent = new Int32Array(size);
-    grownParent.set(stackParent);
-    stackParent = grownParent;
-  };
-  let sp = 0;
-  stack[sp] = 0;
-  stackParent[sp++] = -1;
-  let k = 0;
-  while (sp > 0) {
-    const entry = stack[--sp];
-    const pc = stackParent[sp];
-    if (entry >= 0 && (flags[entry] & MIXED) === 0) {
-      const n = entry;
-      const base = k - n;
-      const end = n + newCount[n];
-      for (let j = n; j < end; j++, k++) {
-        newIndex[k] = j;
-        oldIndex[k] = newToOld[j];
-        parent[k] = j === n ? pc : newParent[j] + base;
-      }
-      continue;
-    }
-    const self = k++;
-    parent[self] = pc;
-    const first = sp;
-    if (entry >= 0) {
-      newIndex[self] = entry;
-      oldIndex[self] = newToOld[entry];
-      sp = mergedChildren(entry, sp);
-    } else {
-      const o = -entry - 1;
-      newIndex[self] = -1;
-      oldIndex[self] = o;
-      const end = o + oldCount[o];
-      for (let c = o + 1; c < end; c += oldCount[c]) {
-        if (oldToNew[c] >= 0) continue;
-        if (sp === stack.length) grow();
-        stack[sp++] = -c - 1;
-      }
-    }
-    // Reverse the children just pushed, so that the first child is popped first.
-    for (let a = first, b = sp - 1; a < b; a++, b--) {
-      const t = stack[a];
-      stack[a] = stack[b];
-      stack[b] = t;
-    }
-    for (let a = first; a < sp; a++) stackParent[a] = self;
-  }
-
-  /**
-   * Pushes the children of new node n in the combined tree from stack position `sp`: its new children
-   * with the removed old ones spliced in. Returns the new stack position.
-   */
-  function mergedChildren(n: number, at: number): number {
-    let sp = at;
-    const nEnd = n + newCount[n];
-    if ((flags[n] & SPLICE) === 0) {
-      for (let c = n + 1; c < nEnd; c += newCount[c]) {
-        if (sp === stack.length) grow();
-        stack[sp++] = c;
-      }
-      return sp;
-    }
-    const o = newToOld[n];
-    const after = new Map<number, number[]>(); // new child -> removed old siblings placed after it
-    let anchor = -1;
-    const oEnd = o + oldCount[o];
-    for (let s = o + 1; s < oEnd; s += oldCount[s]) {
-      const m = oldToNew[s];
-      if (m >= 0) {
-        if (newParent[m] === n) anchor = m;
-        continue;
-      }
-      const list = after.get(anchor);
-      if (list) list.push(-s - 1);
-      else after.set(anchor, [-s - 1]);
-    }
-    const order: number[] = [...(after.get(-1) ?? [])];
-    for (let c = n + 1; c < nEnd; c += newCount[c]) {
-      order.push(c);
-      const list = after.get(c);
-      if (list) for (const r of list) order.push(r);
-    }
-    for (const c of order) {
-      if (sp === stack.length) grow();
-      stack[sp++] = c;
-    }
-    return sp;
-  }
-
-  const depth = new Int32Array(total);
-  const ownSize = new Float64Array(total);
-  const shape = { parent, depth, ownSize };
-  const { kind, changed } = kinds(oldTree, newTree, matching, compared, newIndex, oldIndex, shape);
+  const spliced = splice(oldTree, oldCount, newTree, newCount, oldToNew, newToOld, removed);
+  const { newIndex, oldIndex } = spliced;
+  const { kind, changed } = kinds(oldTree, newTree, matching, compared, newIndex, oldIndex);
   return {
-    combined: combined(oldTree, newTree, matching, newIndex, oldIndex, kind, shape, compared),
+    combined: combined(oldTree, newTree, matching, newIndex, oldIndex, kind, spliced, compared),
     changed,
   };
 }
 
-/** Flags of a new node in `combine`: its counterpart has a removed child; its subtree holds such a node. */
-const SPLICE = 1;
-const MIXED = 2;
+/** Old nodes with no counterpart (the root always has one). */
+function removedIn(oldToNew: Int32Array): number {
+  let removed = 0;
+  for (let o = 1; o < oldToNew.length; o++) if (oldToNew[o] < 0) removed++;
+  return removed;
+}
+
+/** 0, 1, 2, ... `length - 1`. */
+function identityOf(length: number): Int32Array {
+  const identity = new Int32Array(length);
+  for (let k = 0; k < length; k++) identity[k] = k;
+  return identity;
+}
 
 /**
- * Each node's kind, by the precedence `combine` states, and the changed nodes in ascending order; with
- * `shape` (removed nodes spliced in), in the same pass each node's depth (from its parent's) and own
- * size (a removed node's 0: it holds nothing now).
+ * Each node's kind, by the precedence `combine` states, and the changed nodes in ascending order. The
+ * list is made as long as the tree (memory no one writes costs nothing) so that it never grows in the
+ * loop, and copied to its length at the end.
  */
 function kinds(
   oldTree: Tree,
@@ -217,11 +110,10 @@ function kinds(
   compared: ComparedFields | null,
   newIndex: Int32Array,
   oldIndex: Int32Array,
-  shape: Shape | null,
 ): { kind: Uint8Array; changed: Int32Array } {
   const total = newIndex.length;
   const kind = new Uint8Array(total);
-  let changed = new Int32Array(1024);
+  const changed = new Int32Array(total);
   let changes = 0;
   const renameRoot = !oldTree.syntheticRoot && !newTree.syntheticRoot;
   // Matched by path, every pair below the root has equal names.
@@ -236,16 +128,9 @@ function kinds(
   // Equal bytes are the same name, compared in this loop; other pairs (a rename, or names only
   // decoding can tell apart) go through sameName.
   const equalBytes = bytesCompare(newName, oldName);
-  const parent = shape?.parent;
-  const depth = shape?.depth;
-  const ownSize = shape?.ownSize;
   for (let k = 0; k < total; k++) {
     const n = newIndex[k];
     const o = oldIndex[k];
-    if (depth !== undefined) {
-      depth[k] = k === 0 ? 0 : depth[parent![k]] + 1;
-      if (n >= 0) ownSize![k] = newSize[n];
-    }
     let c: number = KIND.none;
     if (n < 0) c = KIND.removed;
     else if (o < 0) c = KIND.added;
@@ -256,14 +141,9 @@ function kinds(
     else if (newSize[n] - oldSize[o] !== 0) c = KIND.resized;
     if (c === KIND.none) continue;
     kind[k] = c;
-    if (changes === changed.length) {
-      const grown = new Int32Array(changes * 2);
-      grown.set(changed);
-      changed = grown;
-    }
     changed[changes++] = k;
   }
-  return { kind, changed: changed.subarray(0, changes) };
+  return { kind, changed: changed.slice(0, changes) };
 }
 
 /** A combined tree's parent, depth and own size of every node. */

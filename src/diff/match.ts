@@ -48,6 +48,9 @@ function numbers(length: number, room: number): Int32Array {
  * Pairs equal ids. Most rows keep their place between versions, so a first pass walks both pre-orders
  * side by side and pairs equal ids in place, stepping over whole subtrees that were removed, added or
  * moved; only the rows it leaves over go through a hash map. Every pair has equal ids either way.
+ * Each pass is a function of its own, with one loop: the engine compiles a loop that runs once while it
+ * runs, and a loop followed by more work in the same function is compiled again for that work, the
+ * largest part of this stage's processor time at 1M rows (docs/performance.md, eleventh session).
  */
 function matchById(
   oldIds: Names,
@@ -57,39 +60,65 @@ function matchById(
   oldToNew: Int32Array,
   newToOld: Int32Array,
 ) {
+  pairInPlace(oldIds, oldCount, newIds, newCount, oldToNew, newToOld);
+  const byId = unpairedIds(oldIds, oldToNew);
+  if (byId.size > 0) pairByMap(byId, newIds, oldToNew, newToOld);
+}
+
+/** The side-by-side walk of {@link matchById}. */
+function pairInPlace(
+  oldIds: Names,
+  oldCount: Int32Array,
+  newIds: Names,
+  newCount: Int32Array,
+  oldToNew: Int32Array,
+  newToOld: Int32Array,
+): void {
   const nOld = oldIds.length;
   const nNew = newIds.length;
   const equalBytes = bytesCompare(oldIds, newIds);
   let o = 1;
   let n = 1;
   while (o < nOld && n < nNew) {
-    if (equalBytes(o, n) || (!isEmptyName(newIds, n) && sameName(oldIds, o, newIds, n))) {
+    if (!equalBytes(o, n) && (isEmptyName(newIds, n) || !sameName(oldIds, o, newIds, n))) {
+      const skipOld = ahead(oldIds, oldCount, o, newIds, n);
+      if (skipOld > 0) {
+        o = skipOld;
+        continue;
+      }
+      const skipNew = ahead(newIds, newCount, n, oldIds, o);
+      if (skipNew > 0) {
+        n = skipNew;
+        continue;
+      }
+    } else {
       oldToNew[o] = n;
       newToOld[n] = o;
-      o++;
-      n++;
-      continue;
     }
-    const skipOld = ahead(oldIds, oldCount, o, newIds, n);
-    if (skipOld > 0) {
-      o = skipOld;
-      continue;
-    }
-    const skipNew = ahead(newIds, newCount, n, oldIds, o);
-    if (skipNew > 0) n = skipNew;
-    else {
-      o++;
-      n++;
-    }
+    o++;
+    n++;
   }
+}
+
+/** Old rows the walk left unpaired, by id (the first row of an id), as {@link matchById} looks them up. */
+function unpairedIds(oldIds: Names, oldToNew: Int32Array): Map<string, number> {
   const byId = new Map<string, number>();
-  for (let k = 1; k < nOld; k++) {
+  for (let k = 1; k < oldIds.length; k++) {
     if (oldToNew[k] !== -1 || isEmptyName(oldIds, k)) continue;
     const key = oldIds.get(k);
     if (!byId.has(key)) byId.set(key, k);
   }
-  if (byId.size === 0) return;
-  for (let k = 1; k < nNew; k++) {
+  return byId;
+}
+
+/** New rows the walk left unpaired, paired with the unpaired old row of their id. */
+function pairByMap(
+  byId: Map<string, number>,
+  newIds: Names,
+  oldToNew: Int32Array,
+  newToOld: Int32Array,
+): void {
+  for (let k = 1; k < newIds.length; k++) {
     if (newToOld[k] !== -1 || isEmptyName(newIds, k)) continue;
     const m = byId.get(newIds.get(k));
     if (m === undefined || oldToNew[m] !== -1) continue;

@@ -24,6 +24,7 @@ import { loadYaml } from "./load-yaml.js";
 import { checkPathListOptions } from "./path-list/path-list-options.js";
 import { jsonGraphTooLong, limitsOf } from "./read-limits.js";
 import { checkReadingOptions } from "./reading-options.js";
+import { readSizeTotals } from "./size-totals.js";
 import { csvTableFromBytes } from "./table/csv-table.js";
 import { linkTable } from "./table/link-table.js";
 import { placeInTableBytes } from "./table/locate-cell.js";
@@ -57,7 +58,10 @@ export function loadTree(text: string, options: LoadOptions): Tree {
     checkNullParentUse(nodes, format, options);
     checkReadingOptions(nodes, format, options);
     placeRow = nodes.placeRow;
-    return isGraph(nodes) ? buildGraphTree(withNodeRecords(nodes, options), file) : buildTree(nodes, file);
+    return readSizeTotals(
+      isGraph(nodes) ? buildGraphTree(withNodeRecords(nodes, options), file) : buildTree(nodes, file),
+      options.folderSizes,
+    );
   } catch (caught) {
     // An error about a row of this input (not of node records, which name their file): at its cell.
     let error = caught;

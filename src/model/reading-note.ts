@@ -39,6 +39,10 @@ export interface ReadingNote {
  * `MISSING_ENTRIES`: node objects holding `"missing": true`, as `npm ls --all --json` lists a dependency
  * it did not find, counted as nodes (load/missing-entries.ts). `ALIASES_AS_TEXT`: YAML read as values
  * holds aliases, each a leaf of its own text (`*base`), not the value it names (load/yaml-values.ts).
+ * `SIZES_LIKE_TOTALS`: node objects or rows whose every node with children is at least as big as its
+ * children add up to, as sizes that include the children's are, read as own sizes
+ * (load/size-totals.ts). `TOTAL_LINE_LEFT_OUT`: a path list's last line `SIZE<TAB>total` that gives
+ * what the other lines add up to, as `du -c` ends its listing, left out (path-list/grand-total.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -50,6 +54,8 @@ export const readingNoteCodes = [
   "UNSIZED_IMPORTANCE",
   "MISSING_ENTRIES",
   "ALIASES_AS_TEXT",
+  "SIZES_LIKE_TOTALS",
+  "TOTAL_LINE_LEFT_OUT",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

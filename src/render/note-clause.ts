@@ -23,6 +23,8 @@ const clauses: Readonly<Record<ReadingNoteCode, Clause>> = {
   UNSIZED_IMPORTANCE: { said: () => "ranked by depth (no sizes)", ofRun: true },
   MISSING_ENTRIES: { counted: ["missing counted as a node", "missing counted as nodes"] },
   ALIASES_AS_TEXT: { counted: ["YAML alias read as text", "YAML aliases read as text"] },
+  SIZES_LIKE_TOTALS: { said: () => "sizes may count children twice" },
+  TOTAL_LINE_LEFT_OUT: { said: (n) => `line ${formatCount(n.line ?? 1)} read as a grand total, left out` },
 };
 
 /**

@@ -179,15 +179,20 @@ describe("folder totals: content that comes after its folder's line, however dee
 });
 
 describe("folderSizes on an input that is no path list", () => {
-  it("is USAGE, not ignored (a table's sizes would be read another way with exit 0)", () => {
+  it("reads a table's sizes as totals (tests/load/size-totals.test.ts has more)", () => {
     const table = "id,parent,size\nharbor,,10\nreef,harbor,5\n";
+    const tree = loadTree(table, { ...defaultLoadOptions, file: "harbor.csv", folderSizes: "total" });
+    expect(Array.from(tree.ownSize)).toEqual([5, 5]);
+  });
+
+  it("is USAGE on an edge list, not ignored (its sizes would be read another way with exit 0)", () => {
     let error: unknown;
     try {
-      loadTree(table, { ...defaultLoadOptions, file: "harbor.csv", folderSizes: "total" });
+      loadTree("harbor reef\n", { ...defaultLoadOptions, format: "edges", folderSizes: "total" });
     } catch (e) {
       error = e;
     }
     expect((error as EspalierError).code).toBe("USAGE");
-    expect((error as EspalierError).message).toContain("read as csv");
+    expect((error as EspalierError).message).toContain("read as edges");
   });
 });
