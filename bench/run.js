@@ -736,6 +736,16 @@ function benchStartup() {
   return out;
 }
 
+/**
+ * How the diff's wall-time loads are counted (bench/child.js): on one thread each alone, NEW's from
+ * OLD's end; on two both from the start, as they overlap. Runs on both mix the two in their medians.
+ */
+function loadsSaid(threads) {
+  if (threads === "1") return "one thread: each load alone";
+  if (threads === "2") return "two threads: the loads overlap, each from the start";
+  return "runs on one and two threads: the loads' medians mix two countings";
+}
+
 function summarizeDiffRuns(runs) {
   const ok = (list) => list.filter((r) => !r.error);
   const summary = ok(runs.summary);
@@ -1068,7 +1078,7 @@ function diffReport(d) {
   for (const [format, e] of Object.entries(d.formats)) {
     if (e.diffPhases) {
       lines.push(
-        `  ${format.padEnd(6)} diff: ${phases(e.diffPhases)}   | summary: ${phases(e.summaryPhases)} (ms)`,
+        `  ${format.padEnd(6)} diff: ${phases(e.diffPhases)}   | summary: ${phases(e.summaryPhases)} (ms; ${loadsSaid(e.threads)})`,
       );
       if (e.diffCpuPhases && Object.keys(e.diffCpuPhases).length > 0)
         lines.push(

@@ -69,6 +69,7 @@ async function loadQuietly(
   nodes: string | undefined,
   sameReading?: Reading,
   earlier?: Tree,
+  keepForLaterVersion = false,
 ): Promise<Tree> {
   try {
     if (isFactInput(opts)) return await loadFactInput(input, opts, rootName);
@@ -77,6 +78,7 @@ async function loadQuietly(
       rootName,
       ...(sameReading === undefined ? {} : { sameReading }),
       ...(earlier ? { earlierVersion: earlier } : {}),
+      ...(keepForLaterVersion ? { keepForLaterVersion } : {}),
     };
     // A graph's node records (--nodes) come from a file of their own; its errors name that file.
     if (nodes !== undefined) options.nodeRecords = await readNodeRecords(io, nodes, options);
@@ -123,8 +125,10 @@ export async function loadVersions(
   if (!io.loadInWorker || threads === 1 || oldInput === "-" || isFactInput(opts) || oldNodes !== undefined) {
     // No idle processor for a second thread (see load-threads.ts); a fact table's engine uses every core
     // itself, and node records are read here: one after the other.
-    const oldTree = await loadQuietly(io, oldInput, opts, rootName, oldNodes);
-    // NEW's table may read OLD's bytes for the cells they share (load/table/earlier-rows.ts).
+    // OLD's table keeps its bytes and cells until NEW's load, which takes its rows whose bytes are the
+    // same from them (load/table/kept-table.ts), and reads OLD's bytes for the cells they share
+    // (load/table/earlier-rows.ts).
+    const oldTree = await loadQuietly(io, oldInput, opts, rootName, oldNodes, undefined, undefined, true);
     const newTree = await loadQuietly(io, newInput, opts, rootName, newNodes, undefined, oldTree);
     return sayVersionNotes(
       io,

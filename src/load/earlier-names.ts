@@ -39,6 +39,13 @@ export class EarlierNames {
     return this.next;
   }
 
+  /** The next name is expected to be node `k`'s, after names that were: no looks to pass. */
+  expect(k: number): void {
+    this.next = k;
+    this.misses = 0;
+    this.quiet = 0;
+  }
+
   /** The earlier node whose name is the bytes `cell[s, e)`, looked for near the one expected; or -1. */
   find(cell: Uint8Array, s: number, e: number): number {
     const names = this.names;

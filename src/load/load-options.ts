@@ -76,6 +76,15 @@ export interface LoadOptions {
    */
   earlierVersion?: Pick<Tree, "name" | "ids">;
   /**
+   * A later version of this input will be loaded against the tree this load returns (`earlierVersion`,
+   * a diff's NEW after its OLD on one thread): a CSV/TSV table read from a stream of known length
+   * (`inputBytes`, at most 256 MiB) keeps its bytes, where its rows start and its cells until that
+   * load, which then takes the rows whose bytes are the same from it instead of scanning them
+   * (load/table/kept-table.ts). Held until a load with this tree as its `earlierVersion` ends; the
+   * tree read is the same without it.
+   */
+  keepForLaterVersion?: boolean;
+  /**
    * JSON and YAML: `nodes` reads node objects (children under the children field, or a field found to
    * hold them), `values` makes every value of the document a node; undefined chooses by the document
    * (src/load/shape/choose-reading.ts).

@@ -463,6 +463,21 @@ export class NamePool implements Names {
     this.place(i, at, n);
   }
 
+  /**
+   * Sets the names of nodes `i` to `i + count - 1` to those of nodes `from` to `from + count - 1` of
+   * `src`, the pool this one was made from by {@link readingBytes}: nothing copied but their places.
+   */
+  placeSharedRun(i: number, src: NamePool, from: number, count: number): void {
+    if (src.used > this.sharedEnd || src.hasExact)
+      throw new Error(`placeSharedRun: not the pool these bytes are shared with`);
+    const end = i + count;
+    if (end > this.start.length) this.growNodes(end);
+    if (end > this.length) this.length = end;
+    this.start.set(src.start.subarray(from, from + count), i);
+    this.size.set(src.size.subarray(from, from + count), i);
+    if (this.exact !== null) for (let k = i; k < end; k++) this.exact.delete(k);
+  }
+
   /** A pool for `total` names reading this pool's bytes (its names still to be placed). */
   private sharedPool(total: number): NamePool {
     const out = new NamePool(total, 16);

@@ -13,7 +13,8 @@ import { limitsOf, tooLong } from "../read-limits.js";
 import { checkReadingOptions } from "../reading-options.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { WrittenPaths } from "../written-paths.js";
-import { type FolderSizes, folderTotals } from "./folder-totals.js";
+import { type FolderSizes, folderTotals, type PlacedSizes } from "./folder-totals.js";
+import { grandTotalNote, isGrandTotal, TOTAL_NAME } from "./grand-total.js";
 import { headerLineHint } from "./header-line-hint.js";
 
 const newline = 10;
@@ -233,21 +234,23 @@ export class PathListReader {
     const placer = this.placer;
     const root = placer.adoptTopLevel();
     if (root !== -1) sink.name.setString(root, this.rootName);
+    const total = sink.length - 1;
+    const placed: PlacedSizes = {
+      length: sink.length,
+      parentOf: sink.parentOf,
+      ownSize: sink.ownSize,
+      origin: sink.origin,
+      isListed: (i) => placer.isListed(i),
+      pathOf: (i) => pathOf(sink, i, root),
+    };
+    // `du -abc` and `wc -c` end with the grand total: read as a file named total, it doubles the size.
+    const grandTotal =
+      sink.hasSizes && root === -1 && sink.name.get(total) === TOTAL_NAME && isGrandTotal(placed, total)
+        ? grandTotalNote(sink.origin[total], sink.ownSize[total])
+        : undefined;
+    if (grandTotal) sink.truncate(total);
     const totals =
-      sink.hasSizes &&
-      folderTotals(
-        {
-          length: sink.length,
-          parentOf: sink.parentOf,
-          ownSize: sink.ownSize,
-          origin: sink.origin,
-          isListed: (i) => placer.isListed(i),
-          pathOf: (i) => pathOf(sink, i, root),
-        },
-        root,
-        placer,
-        this.folderSizes,
-      );
+      sink.hasSizes && folderTotals({ ...placed, length: sink.length }, root, placer, this.folderSizes);
     // Two lines with as many commas, too few to refuse (above): a CSV table's header and one row read
     // so, as two paths; read as paths, but said.
     const csvLike =
@@ -260,7 +263,14 @@ export class PathListReader {
       sizeUnit: "bytes",
       ...(totals ? { folderTotals: true } : {}),
       ...(start ? { rootIsStart: true } : {}),
-      ...(csvLike ? { notes: [commasNote(this.firstLine, this.commas, this.firstCells)] } : {}),
+      ...(csvLike || grandTotal
+        ? {
+            notes: [
+              ...(csvLike ? [commasNote(this.firstLine, this.commas, this.firstCells)] : []),
+              ...(grandTotal ? [grandTotal] : []),
+            ],
+          }
+        : {}),
     });
   }
 

@@ -25,6 +25,7 @@ import { jsonGraphTooLong, limitsOf } from "../read-limits.js";
 import { checkReadingOptions } from "../reading-options.js";
 import { readSizeTotals } from "../size-totals.js";
 import { csvTableFromStream } from "../table/csv-table.js";
+import { type KeptTable, keepTable, takeKeptTable } from "../table/kept-table.js";
 import { linkTable } from "../table/link-table.js";
 import { placeInTable } from "../table/locate-cell.js";
 import { checkNullParentUse } from "../table/null-parent.js";
@@ -47,6 +48,9 @@ export async function loadTreeFromStream(
   const file = options.file === undefined || options.file === "-" ? undefined : options.file;
   const table: TableSeen = {};
   let placeRow: LinkedNodes["placeRow"];
+  // What an earlier version's load kept for this one (a table's), taken whatever this input turns out
+  // to be, so that it is held no longer than this load.
+  if (options.earlierVersion) table.earlier = takeKeptTable(options.earlierVersion);
   try {
     const start = await readStart(chunks);
     let linked: LinkedNodes | GraphNodes;
@@ -68,10 +72,11 @@ export async function loadTreeFromStream(
       throw error;
     }
     placeRow = linked.placeRow;
-    return readSizeTotals(
-      isGraph(linked) ? buildGraphTree(withNodeRecords(linked, options), file) : buildTree(linked, file),
-      options.folderSizes,
-    );
+    if (isGraph(linked))
+      return readSizeTotals(buildGraphTree(withNodeRecords(linked, options), file), options.folderSizes);
+    const tree = readSizeTotals(buildTree(linked, file), options.folderSizes);
+    if (table.kept) keepTable(tree, table.kept);
+    return tree;
   } catch (caught) {
     // An error about a row of this input (not of a --nodes file, which names itself): at its line,
     // and at its cell when the table's bytes can be read again.
@@ -103,9 +108,14 @@ async function partAtPointer(
   );
 }
 
-/** The delimiter of the CSV or TSV table an input was read as, once known. */
+/**
+ * The delimiter of the CSV or TSV table an input was read as, once known; what an earlier version's
+ * load kept for this one, and what this one kept for a later one (kept-table.ts).
+ */
 interface TableSeen {
   delimiter?: "," | "\t";
+  earlier?: KeptTable;
+  kept?: KeptTable;
 }
 
 async function linkedNodes(
@@ -150,11 +160,15 @@ async function linkedNodes(
     return loader.end();
   }
   seen.delimiter = format === "csv" ? "," : "\t";
+  const earlier = seen.earlier;
+  seen.earlier = undefined;
   const table = await csvTableFromStream(
     chunks,
     seen.delimiter,
     options.graph ? edgeTableFields(options) : options,
+    options.graph ? {} : { keep: options.keepForLaterVersion === true, earlier },
   );
+  seen.kept = table.keptForLater;
   try {
     return options.graph ? linkGraphTable(table, options) : linkTable(table, options);
   } finally {

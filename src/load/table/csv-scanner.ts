@@ -16,6 +16,16 @@ export interface CsvSink {
   record(fields: number, line: number): boolean | undefined;
 }
 
+/**
+ * Takes whole records off the scanner's hands where it can tell them without scanning (a table read
+ * against an earlier version of itself: rows whose bytes that version had, kept-table.ts). Called where
+ * a record may start, with the bytes the scanner holds (`bytes[p, n)`); returns where the records it
+ * took end (`p` when it took none), having told the scanner how many and how many lines they spanned
+ * ({@link CsvScanner.skipped}). It may take only records that end before `n`, each settled by bytes
+ * before `n` (a line feed, or a byte after a carriage return), as the scanner would have read them.
+ */
+export type RecordSkipper = (bytes: Uint8Array, p: number, n: number) => number;
+
 const QUOTE = 0x22;
 const CR = 0x0d;
 const LF = 0x0a;
@@ -60,6 +70,13 @@ export class CsvScanner {
   private records = 0;
   /** Records read with missing last fields filled in as empty (`shortRows: "fill"`). */
   private filledRecords = 0;
+  /** Offset in the whole input of the bytes being scanned (`bytes[0]` of scan), and of the next chunk. */
+  private base = 0;
+  private nextChunkAt = 0;
+  /** Where the record being delivered ends (past its line break), in the bytes being scanned. */
+  private recordEnd = 0;
+  /** Whole records taken without scanning, when set (see RecordSkipper). */
+  skipper: RecordSkipper | null = null;
 
   constructor(
     private readonly delimiter: number,
@@ -92,24 +109,51 @@ export class CsvScanner {
     return positionIn(this.recordBytes, this.recordStart, this.recordLine, start);
   }
 
-  /** Whether the sink asked to stop. */
+  /**
+   * Where the record being delivered starts and where it ends (past its line break), as offsets in the
+   * whole input (every chunk's bytes, a byte order mark included). Valid only inside the sink's calls.
+   */
+  get recordAt(): number {
+    return this.base + this.recordStart;
+  }
+
+  get recordEndAt(): number {
+    return this.base + this.recordEnd;
+  }
+
+  /** The line the next record starts on, unless blank lines come first (1-based). */
+  get nextLine(): number {
+    return this.line;
+  }
+
+  /** A {@link RecordSkipper} took `records` records spanning `lines` lines. */
+  skipped(records: number, lines: number): void {
+    this.records += records;
+    this.line += lines;
+  }
+
   /** How many records were short and read with their missing last fields empty (`shortRows: "fill"`). */
   get filled(): number {
     return this.filledRecords;
   }
 
+  /** Whether the sink asked to stop. */
   get done(): boolean {
     return this.stopped;
   }
 
   write(chunk: Uint8Array): void {
     if (this.stopped || chunk.length === 0) return;
+    const at = this.nextChunkAt;
+    this.nextChunkAt += chunk.length;
     const carry = this.carry;
     if (carry === null) {
+      this.base = at;
       this.scan(chunk, false, 0);
       return;
     }
     this.carry = null;
+    this.base = at - carry.length;
     if (!this.started) {
       this.scan(joined(carry, chunk, chunk.length), false, 0);
       return;
@@ -130,8 +174,13 @@ export class CsvScanner {
       // As scan does with each record: one past the limit is refused.
       if (next > this.maxRecordBytes) throw this.tooLong(line);
       if (this.stopped) return;
-      if (next >= carry.length) this.scan(chunk, false, next - carry.length);
-      else this.scan(joined(carry.subarray(next), chunk, chunk.length), false, 0);
+      if (next >= carry.length) {
+        this.base = at;
+        this.scan(chunk, false, next - carry.length);
+      } else {
+        this.base = at - carry.length + next;
+        this.scan(joined(carry.subarray(next), chunk, chunk.length), false, 0);
+      }
       return;
     }
   }
@@ -140,7 +189,9 @@ export class CsvScanner {
     if (this.stopped) return;
     const rest = this.carry;
     this.carry = null;
-    if (rest !== null) this.scan(rest, true, 0);
+    if (rest === null) return;
+    this.base = this.nextChunkAt - rest.length;
+    this.scan(rest, true, 0);
   }
 
   /** Scans the records of `bytes` from `from`; keeps an unfinished last one for the next chunk. */
@@ -156,6 +207,15 @@ export class CsvScanner {
       if (n >= 3 && bytes[0] === BOM[0] && bytes[1] === BOM[1] && bytes[2] === BOM[2]) p = 3;
     }
     while (p < n) {
+      // Read each time: the sink sets it once it has read the header, in this very loop.
+      const skipper = this.skipper;
+      if (skipper !== null) {
+        const q = skipper(bytes, p, n);
+        if (q > p) {
+          p = q;
+          continue;
+        }
+      }
       const line = this.line;
       const next = this.record(bytes, p, last);
       if (next < 0) {
@@ -281,6 +341,7 @@ export class CsvScanner {
     const sink = this.sink;
     this.recordBytes = bytes;
     this.recordStart = p;
+    this.recordEnd = q;
     this.recordLine = line;
     for (let f = 0; f < fields; f++) {
       if (this.escaped[f] === 0) sink.field(f, bytes, this.starts[f], this.ends[f]);

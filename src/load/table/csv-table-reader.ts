@@ -7,6 +7,8 @@ import type { LoadOptions } from "../load-options.js";
 import { limitsOf } from "../read-limits.js";
 import { CsvScanner, type CsvSink } from "./csv-scanner.js";
 import { EarlierRows } from "./earlier-rows.js";
+import { type KeptColumn, type KeptTable, MOST_KEPT_BYTES, TableKeeper } from "./kept-table.js";
+import { RowLines } from "./row-lines.js";
 import { withSeparatorHint } from "./separator-hint.js";
 import { type NumberCells, numberCell, type Table, type WrittenCell } from "./table.js";
 
@@ -27,6 +29,19 @@ export type TableFields = Pick<
   | "earlierVersion"
 >;
 
+/**
+ * A table read for a diff's versions one after the other (kept-table.ts): `keep`, keep what a later
+ * version's load may read it against (OLD's load); `earlier`, what the earlier version's load kept
+ * (NEW's load).
+ */
+export interface TableReading {
+  keep?: boolean;
+  earlier?: KeptTable | undefined;
+}
+
+/** Rows passed at most before looking again for the earlier version's rows (see takeRows). */
+const QUIET_ROWS = 64;
+
 /** How the cells of one kept column are kept. */
 const Keeping = {
   /** As strings, in `cells`. */
@@ -39,7 +54,7 @@ const Keeping = {
 type Keeping = (typeof Keeping)[keyof typeof Keeping];
 
 /** What is kept of one column the loader reads. */
-interface Kept {
+interface Kept extends KeptColumn {
   name: string;
   keeping: Keeping;
   cells: string[];
@@ -51,6 +66,8 @@ interface Kept {
    * their bytes (ByteIdIndex) where they were once compared as strings.
    */
   asText: boolean;
+  /** Of a column of numbers: whether some cell is no plain number (its text in `pool`). */
+  texts?: boolean;
   /** A pooled id or name column read against an earlier version's (see EarlierRows), else undefined. */
   earlier?: "id" | "name";
   /** Whether the column may link rows (the id, parent or path column): its cells not UTF-8 are kept as written. */
@@ -95,10 +112,24 @@ export class CsvTableReader implements CsvSink {
   private view: Buffer = Buffer.alloc(0);
   /** With an earlier version of the table given: its rows the records stand for (see EarlierRows). */
   private earlier: EarlierRows | undefined;
+  /** Keeping the input for a later version's load (see kept-table.ts), else undefined. */
+  private keeper: TableKeeper | undefined;
+  /**
+   * The earlier version's kept table, when this table is read against it: rows whose bytes it has are
+   * taken from it (takeRows), not scanned. Its columns by this reader's (`kept`), and the earlier row
+   * expected next.
+   */
+  private against: KeptTable | undefined;
+  private againstColumns: readonly KeptColumn[] = [];
+  private oldRow = 0;
+  // Rows in a row where no earlier one was repeated, and rows to pass before looking again.
+  private misses = 0;
+  private quiet = 0;
 
   constructor(
-    delimiter: "," | "\t",
+    private readonly delimiter: "," | "\t",
     private readonly fields: TableFields,
+    reading: TableReading = {},
   ) {
     this.scanner = new CsvScanner(delimiter.charCodeAt(0), this, limitsOf(fields.limits).maxLineBytes, {
       header: true,
@@ -116,7 +147,13 @@ export class CsvTableReader implements CsvSink {
     this.poolNames = !others.has(fields.nameField) && fields.nameField !== fields.idField;
     this.poolIds = !others.has(fields.idField) && fields.nameField !== fields.idField;
     this.maxRows = fields.maxNodes;
+    const size = fields.inputBytes;
+    if (reading.keep && size !== undefined && size <= MOST_KEPT_BYTES) this.keeper = new TableKeeper(size);
+    this.laterOf = reading.earlier;
   }
+
+  /** The earlier version's kept table this one may be read against, until the header is read. */
+  private laterOf: KeptTable | undefined;
 
   /** Whether enough rows are read (more than maxNodes): what follows need not be read. */
   get full(): boolean {
@@ -124,6 +161,7 @@ export class CsvTableReader implements CsvSink {
   }
 
   write(chunk: Uint8Array): void {
+    this.keeper?.write(chunk);
     try {
       this.scanner.write(chunk);
     } catch (error) {
@@ -155,6 +193,7 @@ export class CsvTableReader implements CsvSink {
     // One more for the record cut at the end of the bytes read so far.
     const most = Math.min(this.maxRows + 1, rows + 1 + Math.ceil((total - this.bytesRead) / least));
     const likely = Math.min(most, Math.ceil(((total / this.bytesRead) * rows * 21) / 20));
+    this.keeper?.makeRoom(likely);
     for (const keep of this.kept) {
       if (keep.keeping === Keeping.Numbers && keep.values.length < likely)
         keep.values = grown(keep.values, likely);
@@ -174,6 +213,11 @@ export class CsvTableReader implements CsvSink {
     } catch (error) {
       throw withSeparatorHint(error, this.header);
     }
+    // The earlier version's kept table is read no more (and nothing else reads it).
+    this.against?.release();
+    this.against = undefined;
+    this.againstColumns = [];
+    this.scanner.skipper = null;
     const header = this.header;
     if (header === undefined) throw new EspalierError("INPUT_EMPTY", "the table has no header row");
     const { at, headerLine, headerColumns, lines } = this;
@@ -182,9 +226,11 @@ export class CsvTableReader implements CsvSink {
     const length = Math.min(this.rows, this.maxRows + 1);
     const filledRows = this.scanner.filled;
     let spelledOut = false;
+    const keptForLater = this.keptTable(length, filledRows);
     return {
       length,
       textCells: true,
+      ...(keptForLater ? { keptForLater } : {}),
       ...(filledRows > 0 ? { filledRows } : {}),
       column(name) {
         const c = at.get(name);
@@ -259,6 +305,7 @@ export class CsvTableReader implements CsvSink {
       if (value !== undefined) keep.values[row] = value;
       else {
         keep.values[row] = Number.NaN;
+        keep.texts = true;
         this.pooled(keep, row, bytes, start, end);
       }
     } else if (keep.keeping === Keeping.Pool) {
@@ -303,10 +350,130 @@ export class CsvTableReader implements CsvSink {
       this.headerCells = [];
       return false;
     }
+    const scanner = this.scanner;
+    this.keeper?.row(this.rows, scanner.recordAt, scanner.recordEndAt, scanner.nextLine);
     this.rows++;
     this.lines.add(this.rows, line);
+    if (this.against !== undefined) {
+      // A row scanned: the earlier one expected next is the one after the row of its id (or name),
+      // else the one expected before it (a row added since).
+      const found = this.earlier?.found ?? -1;
+      if (found !== -1) {
+        this.oldRow = found + 1;
+        // Found where it was looked for: the rows after it are likely the earlier ones again.
+        this.misses = 0;
+      } else if (this.earlier === undefined) this.oldRow++;
+    }
     this.earlier?.endRecord();
     return this.rows > this.maxRows;
+  }
+
+  /**
+   * Takes the rows from `bytes[p]` on that repeat the earlier version's rows from the one expected
+   * (RecordSkipper, csv-scanner.ts): their cells as that version read them, each row's line as many
+   * lines after the first as there. Returns where they end, or `p` when they are not the earlier ones.
+   */
+  private readonly takeRows = (bytes: Uint8Array, p: number, n: number): number => {
+    if (this.quiet > 0) {
+      this.quiet--;
+      return p;
+    }
+    const against = this.against!;
+    const from = this.oldRow;
+    const room = this.maxRows - this.rows;
+    if (from >= against.rows || room <= 0) return p;
+    const to = against.rowsRepeated(bytes, p, n, from, room);
+    if (to === from) {
+      // Looks in a row that found nothing, of rows not found by id either, make the next ones rarer
+      // (rows added since, or an input in another order).
+      this.misses++;
+      if (this.misses > 1) this.quiet = Math.min(QUIET_ROWS, 2 ** (this.misses - 1) - 1);
+      return p;
+    }
+    this.misses = 0;
+    this.copyRows(against, from, to);
+    return p + against.start[to] - against.start[from];
+  };
+
+  /** Appends the earlier version's rows `from` to `to - 1` as they were read there. */
+  private copyRows(against: KeptTable, from: number, to: number): void {
+    const count = to - from;
+    const row = this.rows;
+    const columns = this.againstColumns;
+    for (let c = 0; c < this.kept.length; c++) {
+      const keep = this.kept[c];
+      const old = columns[c];
+      if (keep.keeping === Keeping.Pool) keep.pool!.placeSharedRun(row, old.pool!, from, count);
+      else if (keep.keeping === Keeping.Numbers) {
+        if (row + count > keep.values.length)
+          keep.values = grown(keep.values, Math.max(2 * row, row + count));
+        keep.values.set(old.values.subarray(from, to), row);
+        if (against.hasTexts[c]) {
+          const texts = old.pool!;
+          for (let k = from; k < to; k++)
+            if (Number.isNaN(old.values[k])) keep.pool!.copyFrom(row + k - from, texts, k);
+          keep.texts = true;
+        }
+      } else for (let k = from; k < to; k++) keep.cells.push(old.cells[k]);
+    }
+    const scanner = this.scanner;
+    this.lines.addRun(against.lines, from + 1, to + 1, row + 1, scanner.nextLine);
+    scanner.skipped(count, against.lineOf(to) - against.lineOf(from));
+    this.rows += count;
+    this.earlier?.expect(to);
+    this.oldRow = to;
+  }
+
+  /**
+   * What this table keeps for a later version's load (kept-table.ts), when asked to and when its rows
+   * read the same by their bytes alone: no cell kept as read and as written (not UTF-8), no short row
+   * filled, no name kept as a string.
+   */
+  private keptTable(length: number, filledRows: number): KeptTable | undefined {
+    const keeper = this.keeper;
+    if (keeper === undefined || this.header === undefined) return undefined;
+    this.keeper = undefined;
+    const plain = this.kept.every(
+      (k) => k.written === undefined && (k.pool === null || readableBytes(k.pool) !== null),
+    );
+    if (!plain || filledRows > 0 || this.fields.shortRows === "fill") return undefined;
+    const hasTexts = this.kept.map((k) => k.texts === true);
+    return keeper.table(
+      length,
+      this.lines,
+      this.delimiter.charCodeAt(0),
+      this.header,
+      this.kept,
+      hasTexts,
+      limitsOf(this.fields.limits).maxLineBytes,
+    );
+  }
+
+  /**
+   * The earlier version's kept table, when this table reads as it did: the same delimiter, header,
+   * columns kept the same way, longest record and no short rows filled. Null otherwise.
+   */
+  private readsAs(
+    kept: KeptTable | undefined,
+    columns: readonly Kept[],
+    header: string[],
+  ): KeptColumn[] | null {
+    if (kept === undefined || this.fields.shortRows === "fill") return null;
+    if (kept.delimiter !== this.delimiter.charCodeAt(0)) return null;
+    if (kept.maxLineBytes !== limitsOf(this.fields.limits).maxLineBytes) return null;
+    if (kept.header.length !== header.length || kept.header.some((h, k) => h !== header[k])) return null;
+    if (kept.columns.length !== columns.length) return null;
+    const same = columns.every((c, k) => {
+      const o = kept.columns[k];
+      return (
+        o.name === c.name &&
+        o.keeping === c.keeping &&
+        o.asText === c.asText &&
+        o.links === c.links &&
+        (o.keeping !== Keeping.Pool || readableBytes(o.pool) !== null)
+      );
+    });
+    return same ? [...kept.columns] : null;
   }
 
   private headerCells: string[] = [];
@@ -319,10 +486,6 @@ export class CsvTableReader implements CsvSink {
       if (!this.at.has(name)) this.at.set(name, c);
     });
     this.route = new Array(fields).fill(undefined);
-    const earlier = this.fields.earlierVersion;
-    // The earlier version's pools of ids and names, whose bytes this table's may read (see EarlierRows).
-    const earlierIds = this.poolIds ? readableBytes(earlier?.ids) : null;
-    const earlierNames = this.poolNames ? readableBytes(earlier?.name) : null;
     for (const [name, index] of this.at) {
       if (!this.wanted.has(name)) continue;
       const { fields } = this;
@@ -332,25 +495,51 @@ export class CsvTableReader implements CsvSink {
           : (this.poolNames && name === fields.nameField) || (this.poolIds && name === fields.idField)
             ? Keeping.Pool
             : Keeping.Text;
-      const from = keeping !== Keeping.Pool ? null : name === fields.idField ? earlierIds : earlierNames;
-      const shared = from === null ? null : from.readingBytes();
       const keep: Kept = {
         name,
         keeping,
         cells: [],
-        pool: keeping === Keeping.Text ? null : (shared ?? new NamePool()),
+        pool: null,
         values: new Float64Array(keeping === Keeping.Numbers ? 1024 : 0),
         asText: keeping === Keeping.Numbers || name === fields.idField,
         links: [fields.idField, fields.parentField, fields.pathField, fields.childField].includes(name),
       };
-      if (shared !== null) keep.earlier = name === fields.idField ? "id" : "name";
       this.kept.push(keep);
       this.route[index] = keep;
     }
+    // Read against the earlier version's kept table when this one reads as it did (its rows are then
+    // taken from it where their bytes are its), else against the earlier version's tree, if any.
+    const kept = this.laterOf;
+    this.laterOf = undefined;
+    const againstColumns = this.readsAs(kept, this.kept, header);
+    if (againstColumns !== null) {
+      this.against = kept;
+      this.againstColumns = againstColumns;
+      this.scanner.skipper = this.takeRows;
+    }
+    const poolOf = (name: string) =>
+      againstColumns?.find((c) => c.name === name && c.keeping === Keeping.Pool)?.pool ?? undefined;
+    const earlier = this.fields.earlierVersion;
+    // The earlier version's pools of ids and names, whose bytes this table's may read (see EarlierRows).
+    const earlierIds = this.poolIds
+      ? readableBytes(againstColumns ? poolOf(this.fields.idField) : earlier?.ids)
+      : null;
+    const earlierNames = this.poolNames
+      ? readableBytes(againstColumns ? poolOf(this.fields.nameField) : earlier?.name)
+      : null;
+    for (const keep of this.kept) {
+      if (keep.keeping === Keeping.Text) continue;
+      const from =
+        keep.keeping !== Keeping.Pool ? null : keep.name === this.fields.idField ? earlierIds : earlierNames;
+      const shared = from === null ? null : from.readingBytes();
+      keep.pool = shared ?? new NamePool();
+      if (shared !== null) keep.earlier = keep.name === this.fields.idField ? "id" : "name";
+    }
     const ids = this.kept.some((k) => k.earlier === "id") ? earlierIds!.byteRuns() : null;
     const names = this.kept.some((k) => k.earlier === "name") ? earlierNames!.byteRuns() : null;
-    if (earlier !== undefined && (ids !== null || names !== null))
-      this.earlier = new EarlierRows(ids, names, earlier.name.length);
+    const rows = kept !== undefined && againstColumns !== null ? kept.rows : earlier?.name.length;
+    if (rows !== undefined && (ids !== null || names !== null))
+      this.earlier = new EarlierRows(ids, names, rows);
   }
 
   private text(bytes: Uint8Array, start: number, end: number): string {
@@ -359,39 +548,6 @@ export class CsvTableReader implements CsvSink {
       this.view = asBuffer(bytes);
     }
     return codecs.utf8Slice(this.view, start, end);
-  }
-}
-
-/**
- * The line each data row starts on, kept sparsely: a row on the line after the row before costs
- * nothing; only a row after a quoted line break or a blank line is written down.
- */
-class RowLines {
-  private readonly rows: number[] = [];
-  private readonly shifts: number[] = [];
-  private shift = 0;
-  private first = -1;
-
-  add(row: number, line: number): void {
-    if (this.first === -1) this.first = line - row;
-    const shift = line - row - this.first;
-    if (shift !== this.shift) {
-      this.rows.push(row);
-      this.shifts.push(shift);
-      this.shift = shift;
-    }
-  }
-
-  lineOf(row: number): number {
-    // The last written row at or before `row`.
-    let lo = 0;
-    let hi = this.rows.length;
-    while (lo < hi) {
-      const mid = (lo + hi) >>> 1;
-      if (this.rows[mid] <= row) lo = mid + 1;
-      else hi = mid;
-    }
-    return row + this.first + (lo === 0 ? 0 : this.shifts[lo - 1]);
   }
 }
 

@@ -1,4 +1,4 @@
-import { CsvTableReader, type TableFields } from "./csv-table-reader.js";
+import { CsvTableReader, type TableFields, type TableReading } from "./csv-table-reader.js";
 import type { Table } from "./table.js";
 
 /**
@@ -12,13 +12,17 @@ export function csvTableFromBytes(bytes: Uint8Array, delimiter: "," | "\t", fiel
   return reader.end();
 }
 
-/** The same table read from a byte stream, in chunks; reading stops once more rows than maxNodes are known. */
+/**
+ * The same table read from a byte stream, in chunks; reading stops once more rows than maxNodes are
+ * known. `reading`: what to keep for a later version's load, or what an earlier version's kept.
+ */
 export async function csvTableFromStream(
   chunks: AsyncIterable<Uint8Array>,
   delimiter: "," | "\t",
   fields: TableFields,
+  reading?: TableReading,
 ): Promise<Table> {
-  const reader = new CsvTableReader(delimiter, fields);
+  const reader = new CsvTableReader(delimiter, fields, reading);
   for await (const chunk of chunks) {
     reader.write(chunk);
     if (reader.full) break;

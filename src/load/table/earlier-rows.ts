@@ -39,14 +39,28 @@ export class EarlierRows {
    * those bytes (with no ids, a row near the one expected); else -1.
    */
   nameRow(cell: Uint8Array, s: number, e: number): number {
-    if (this.byName !== null) return this.byName.find(cell, s, e);
+    if (this.byName !== null) {
+      this.row = this.byName.find(cell, s, e);
+      return this.row;
+    }
     // Before the record's id cell (a name column ahead of the id column), the row expected.
     const c = this.row !== -1 ? this.row : this.byId!.expected;
     return c < this.length && sameAt(this.names!, c, cell, s, e) ? c : -1;
   }
 
+  /** The earlier row the record's id (or, with no ids, its name) was found in so far, or -1. */
+  get found(): number {
+    return this.row;
+  }
+
   /** The record ends. */
   endRecord(): void {
     this.row = -1;
+  }
+
+  /** The next record is expected to stand for earlier row `row` (the rows before it were taken whole). */
+  expect(row: number): void {
+    this.byId?.expect(row);
+    this.byName?.expect(row);
   }
 }

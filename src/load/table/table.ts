@@ -1,5 +1,6 @@
 import type { SourcePos } from "../../errors.js";
 import type { NamePool } from "../../model/names.js";
+import type { KeptTable } from "./kept-table.js";
 
 /** One cell: text from CSV/TSV, any JSON scalar from rows. */
 export type Cell = string | number | boolean | null | undefined;
@@ -37,6 +38,8 @@ export interface Table {
    * among them too: they read as the others do.
    */
   writtenCells?(name: string): ReadonlyMap<number, WrittenCell> | undefined;
+  /** What the table's load kept for a later version's (LoadOptions.keepForLaterVersion), when it did. */
+  readonly keptForLater?: KeptTable;
 }
 
 /** A cell whose bytes are not UTF-8: its text as read, and its bytes as Latin-1 (one character a byte). */

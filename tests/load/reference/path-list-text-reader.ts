@@ -72,6 +72,7 @@ export class PathListTextReader {
         if (sink.parentOf[i] === -1 && i !== this.root) sink.parentOf[i] = this.root;
       sink.name.setString(this.root, rootName);
     }
+    if (sink.hasSizes && this.root === -1) this.dropGrandTotal();
     const totals =
       sink.hasSizes && folderTotalsByReference(sink, this.listedAt, this.firstSeen, this.folderSizes);
     return sink.finish(rootName, new Map(), null, {
@@ -79,6 +80,34 @@ export class PathListTextReader {
       sizeUnit: "bytes",
       ...(totals ? { folderTotals: true } : {}),
     });
+  }
+
+  /**
+   * `du -c` and `wc -c` end a listing with `SIZE<TAB>total`, the sum of the lines before it: when the
+   * last line named a new top-level leaf "total" whose size is that sum, read as each line's own size
+   * or as du's folder totals (a top-level entry's line, or what its listed descendants give), the
+   * node is dropped. Written from that statement, with children lists, not from grand-total.ts.
+   */
+  private dropGrandTotal(): void {
+    const sink = this.sink;
+    const k = sink.length - 1;
+    if (k < 1 || sink.parentOf[k] !== -1 || sink.name.get(k) !== "total" || !this.listedAt.has(k)) return;
+    const children = new Map<number, number[]>();
+    for (let i = 0; i < k; i++) {
+      const p = sink.parentOf[i];
+      if (p !== -1) children.set(p, [...(children.get(p) ?? []), i]);
+    }
+    const given = (i: number): number =>
+      this.listedAt.has(i) ? sink.ownSize[i] : (children.get(i) ?? []).reduce((s, c) => s + given(c), 0);
+    const last = this.listedAt.get(k)!;
+    if ([...this.listedAt.values()].some((line) => line > last)) return;
+    let own = 0;
+    let totals = 0;
+    for (let i = 0; i < k; i++) {
+      if (this.listedAt.has(i)) own += sink.ownSize[i];
+      if (sink.parentOf[i] === -1) totals += given(i);
+    }
+    if (sink.ownSize[k] === own || sink.ownSize[k] === totals) sink.truncate(k);
   }
 
   /** One line, `text[start, end)` without its "\n". */

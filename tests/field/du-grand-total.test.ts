@@ -1,0 +1,106 @@
+import { execFileSync } from "node:child_process";
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { summarySchema } from "../../src/render/summary-schema.js";
+import { cli } from "../helpers/cli.js";
+
+// Field tests: `du -abc DIR` and `du -sbc *` (GNU coreutils, run here) end with a grand total,
+// `SIZE<TAB>total`. espalier read that line as a top-level file named total: the listing's size
+// doubled (du -abc: 2 nodes more, one a root espalier added; du -sbc *: a "total" entry as big as all
+// the rest), exit 0. The sizes checked are du's own numbers: the total line, and du -sb for the folder.
+const isGnuDu = (() => {
+  try {
+    return /GNU/.test(execFileSync("du", ["--version"], { encoding: "utf8" }));
+  } catch {
+    return false;
+  }
+})();
+
+const files: Record<string, number> = {
+  "ledger/a.csv": 1200,
+  "ledger/b.csv": 40,
+  "sails/plan.md": 4097,
+  "sails/deep/er/x.bin": 70000,
+  "notes.txt": 12,
+};
+let base = "";
+const du = (args: string[], cwd = base) => execFileSync("du", args, { cwd, encoding: "utf8" });
+const lastSize = (listing: string) => Number(listing.trimEnd().split("\n").pop()!.split("\t")[0]);
+
+beforeAll(() => {
+  if (!isGnuDu) return;
+  base = mkdtempSync(join(tmpdir(), "espalier-du-total-"));
+  for (const [path, size] of Object.entries(files)) {
+    const full = join(base, "harbor", path);
+    mkdirSync(join(full, ".."), { recursive: true });
+    writeFileSync(full, Buffer.alloc(size, 0x61));
+  }
+});
+
+afterAll(() => {
+  if (base) rmSync(base, { recursive: true, force: true });
+});
+
+describe.skipIf(!isGnuDu)("a du -c listing's grand total line", () => {
+  it("du -abc DIR: is left out, the root is DIR with du -sb's size, and a note says so", async () => {
+    const listing = du(["-abc", "harbor"]);
+    expect(listing.trimEnd().split("\n").pop()).toMatch(/^\d+\ttotal$/);
+    const result = await cli(["-", "--format", "json"], { stdin: listing });
+    expect(result.code).toBe(0);
+    const doc = summarySchema.parse(JSON.parse(result.stdout));
+    const folder = Number(du(["-sb", "harbor"]).split("\t")[0]);
+    expect(doc.totals.size).toBe(folder);
+    expect(doc.totals.size).toBe(lastSize(listing));
+    expect(doc.root.name).toBe("harbor");
+    // Every line but the total is a node: the folders and files du listed.
+    expect(doc.totals.nodes).toBe(listing.trimEnd().split("\n").length - 1);
+    const lines = listing.trimEnd().split("\n").length;
+    expect(doc.input?.notes).toEqual([expect.objectContaining({ code: "TOTAL_LINE_LEFT_OUT", line: lines })]);
+    expect(result.stderr).toMatch(
+      new RegExp(`^espalier: note: <stdin>:${lines}: .*\\[TOTAL_LINE_LEFT_OUT\\]\\n$`),
+    );
+    const text = await cli(["-", "--budget", "10"], { stdin: listing });
+    expect(text.stdout.split("\n")[0]).toContain(`; line ${lines} read as a grand total, left out; `);
+  });
+
+  it("du -sbc *: is left out, and the entries add up to du's total", async () => {
+    const listing = du(["-sbc", "ledger", "sails", "notes.txt"], join(base, "harbor"));
+    const result = await cli(["-", "--format", "json"], { stdin: listing });
+    const doc = summarySchema.parse(JSON.parse(result.stdout));
+    expect(doc.totals.size).toBe(lastSize(listing));
+    expect(doc.root.children.map((c) => c.name).sort()).toEqual(["ledger", "notes.txt", "sails"]);
+  });
+
+  it("a diff of two du -abc listings shows no total added, removed or resized", async () => {
+    const before = du(["-abc", "harbor"]);
+    writeFileSync(join(base, "harbor", "ledger", "c.csv"), Buffer.alloc(333, 0x61));
+    const after = du(["-abc", "harbor"]);
+    const result = await cli(["diff", "old.du", "-", "--format", "json"], {
+      stdin: after,
+      files: { "old.du": before },
+    });
+    expect(result.code).toBe(0);
+    const doc = JSON.parse(result.stdout);
+    expect(doc.changes).toMatchObject({ added: 1, removed: 0 });
+    expect(doc.totals.delta).toBe(lastSize(after) - lastSize(before));
+    expect(doc.notes.map((n: { version: string }) => n.version)).toEqual(["OLD", "NEW"]);
+  });
+});
+
+describe("a last line named total that is no grand total", () => {
+  it("is read as a file: its size is not what the other lines add up to", async () => {
+    const listing = "10\tharbor/a\n20\tharbor\n7\ttotal\n";
+    const result = await cli(["-", "--format", "json"], { stdin: listing });
+    const doc = JSON.parse(result.stdout);
+    expect(doc.root.children.map((c: { name: string }) => c.name)).toEqual(["harbor", "total"]);
+    expect(doc.input.notes).toBeUndefined();
+  });
+
+  it("is read as a file when it is not the last line listed", async () => {
+    const listing = "10\ttotal\n10\tharbor/a\n";
+    const result = await cli(["-", "--format", "json"], { stdin: listing });
+    expect(JSON.parse(result.stdout).totals.size).toBe(20);
+  });
+});

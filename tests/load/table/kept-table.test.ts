@@ -1,0 +1,204 @@
+import fc from "fast-check";
+import { afterEach, describe, expect, it, vi } from "vitest";
+import type { LoadOptions } from "../../../src/load/load-options.js";
+import { KeptTable } from "../../../src/load/table/kept-table.js";
+import { opts } from "../helpers.js";
+import {
+  cutsFor,
+  expectSameTree,
+  loadStreamed,
+  type Outcome,
+  outcomeOfAsync,
+  type Rng,
+  rng,
+} from "../stream/helpers.js";
+
+// A diff's NEW read against what its OLD's load kept (LoadOptions.keepForLaterVersion): the rows whose
+// bytes OLD had are taken from OLD, not scanned. Checked against NEW read on its own: the same tree, or
+// the same error at the same place (code and position), whatever the line breaks, quoting, blank lines
+// and chunk cuts (RFC 4180 section 2: CRLF, quoted fields holding line breaks and `""`; lone LF and CR
+// as the scanner also takes them, common practice, no source).
+
+const NAMES = [
+  "Optics",
+  "Optic",
+  "Mira Quell",
+  "é",
+  "日本",
+  "a, b",
+  'say "hi"',
+  "two\nlines",
+  "cr\rhere",
+  "",
+];
+const BREAKS = ["\n", "\n", "\n", "\r\n", "\r", "\n\n", "\r\n\r\n"];
+
+interface Row {
+  id: string;
+  parent: string;
+  name: string;
+  size: string;
+  /** What follows the record: its line break, and blank lines. */
+  end: string;
+}
+
+function cell(r: Rng, value: string, tsv: boolean): string {
+  if (tsv) return value.replace(/[\t\r\n]/g, " ");
+  return /[",\r\n]/.test(value) || r.chance(0.1) ? `"${value.replace(/"/g, '""')}"` : value;
+}
+
+function table(
+  r: Rng,
+  rows: readonly Row[],
+  tsv: boolean,
+  last: string,
+  header = "id,parent,name,size",
+): Uint8Array {
+  const sep = tsv ? "\t" : ",";
+  const parts = [header.replaceAll(",", sep), "\n"];
+  rows.forEach((row, k) => {
+    parts.push([row.id, row.parent, row.name, row.size].map((v) => cell(r, v, tsv)).join(sep));
+    parts.push(k === rows.length - 1 ? last : row.end);
+  });
+  const bytes = new TextEncoder().encode(parts.join(""));
+  // Now and then a byte that is no UTF-8 in a name or an id (then OLD keeps nothing: its cells are kept
+  // as read and as written).
+  return bytes;
+}
+
+function earlierRows(r: Rng, count: number): Row[] {
+  const rows: Row[] = [];
+  for (let k = 1; k <= count; k++) {
+    const id = r.pick([`${k}`, `${k}`, `q${k}`, `0${k}`]);
+    const parent = k === 1 || r.chance(0.05) ? "" : rows[r.int(Math.max(0, k - 6), k - 2)].id;
+    rows.push({
+      id,
+      parent,
+      name: r.pick(NAMES),
+      size: r.pick(["", "0", "12", "3.5", "7"]),
+      end: r.pick(BREAKS),
+    });
+  }
+  return rows;
+}
+
+/** NEW as a later export of OLD: most rows as they were, some removed, edited, moved or added. */
+function laterRows(r: Rng, rows: readonly Row[]): Row[] {
+  const out = rows.filter(() => !r.chance(0.08)).map((row) => ({ ...row }));
+  for (const row of out) {
+    if (r.chance(0.08)) row.name = r.pick(NAMES);
+    if (r.chance(0.04) && out.length > 1) row.parent = r.pick(out).id;
+    if (r.chance(0.06)) row.size = r.pick(["", "9", "12"]);
+    if (r.chance(0.05)) row.end = r.pick(BREAKS);
+  }
+  if (r.chance(0.3) && out.length > 4) {
+    const run = out.splice(r.int(0, out.length - 3), r.int(1, 3));
+    out.splice(r.int(0, out.length), 0, ...run);
+  }
+  for (let k = r.int(0, 3); k > 0; k--) {
+    const id = r.chance(0.15) && out.length > 0 ? r.pick(out).id : `new${k}`;
+    const row = {
+      id,
+      parent: out.length > 0 ? r.pick(out).id : "",
+      name: r.pick(NAMES),
+      size: "1",
+      end: "\n",
+    };
+    out.splice(r.int(0, out.length), 0, row);
+  }
+  return out;
+}
+
+function withBadByte(r: Rng, bytes: Uint8Array): Uint8Array {
+  if (!r.chance(0.1)) return bytes;
+  const out = new Uint8Array(bytes);
+  const at = r.int(20, Math.max(20, out.length - 1));
+  if (at < out.length && out[at] > 0x20 && out[at] !== 0x22 && out[at] !== 0x2c) out[at] = 0xff;
+  return out;
+}
+
+/** Watches KeptTable.rowsRepeated: how many rows each look took, and how many in all. */
+function countTaken(): { seen: number[]; rows: number } {
+  const out = { seen: [] as number[], rows: 0 };
+  const repeated = KeptTable.prototype.rowsRepeated;
+  vi.spyOn(KeptTable.prototype, "rowsRepeated").mockImplementation(function (this: KeptTable, ...args) {
+    const to = repeated.apply(this, args);
+    out.seen.push(to - args[3]);
+    out.rows += to - args[3];
+    return to;
+  });
+  return out;
+}
+
+function comparable(outcome: Outcome): unknown {
+  return "tree" in outcome ? "tree" : outcome;
+}
+
+describe("a table read against what its earlier version's load kept (kept-table.ts)", () => {
+  afterEach(() => {
+    vi.restoreAllMocks();
+  });
+
+  it("reads the table NEW reads on its own, error places included, however either is cut", async () => {
+    const taken = countTaken();
+    await fc.assert(
+      fc.asyncProperty(fc.integer(), fc.integer({ min: 1, max: 60 }), async (seed, count) => {
+        const r = rng(seed);
+        const tsv = r.chance(0.2);
+        const old = earlierRows(r, count);
+        const oldBytes = withBadByte(r, table(r, old, tsv, r.pick(["\n", "", "\r\n", "\r"])));
+        const format = tsv ? "tsv" : "csv";
+        const options: LoadOptions = opts({
+          format,
+          file: `v2.${format}`,
+          ...(r.chance(0.1) ? { maxNodes: r.int(1, count + 2) } : {}),
+          ...(r.chance(0.1) ? { shortRows: "fill" as const } : {}),
+          ...(r.chance(0.1) ? { limits: { maxLineBytes: r.int(16, 200) } } : {}),
+        });
+        const oldCuts = cutsFor(r, oldBytes.length, r.int(0, 6));
+        const kept = { ...options, keepForLaterVersion: true, inputBytes: oldBytes.length };
+        const oldOutcome = await outcomeOfAsync(() => loadStreamed(oldBytes, kept, oldCuts));
+        if (!("tree" in oldOutcome)) return;
+        const header = r.chance(0.1) ? "id,parent,size,name" : "id,parent,name,size";
+        const newBytes = withBadByte(r, table(r, laterRows(r, old), tsv, r.pick(["\n", "", "\r\n"]), header));
+        const alone = await outcomeOfAsync(() =>
+          loadStreamed(newBytes, options, cutsFor(r, newBytes.length, 3)),
+        );
+        const cuts = cutsFor(r, newBytes.length, r.int(0, 8));
+        const against = { ...options, earlierVersion: oldOutcome.tree, inputBytes: newBytes.length };
+        const actual = await outcomeOfAsync(() => loadStreamed(newBytes, against, cuts));
+        expect(comparable(actual)).toEqual(comparable(alone));
+        if ("tree" in actual && "tree" in alone) expectSameTree(actual.tree, alone.tree);
+      }),
+      { numRuns: 400 },
+    );
+    // The property held with rows taken from OLD, not only with every row scanned.
+    expect(taken.rows).toBeGreaterThan(1000);
+  });
+
+  it("takes the rows OLD had from it, and scans the others", async () => {
+    const { seen } = countTaken();
+    const options = opts({ format: "csv", file: "v2.csv" });
+    const old = new TextEncoder().encode(
+      "id,parent,name\n1,,Tidewater\n2,1,Harbour Ops\n3,1,Ledger\n4,3,Payroll\n5,3,Quay\n",
+    );
+    const oldTree = await loadStreamed(
+      old,
+      { ...options, keepForLaterVersion: true, inputBytes: old.length },
+      [],
+    );
+    // Row 2 removed, row 4 renamed, row 6 added: rows 1, 3 and 5 are as before.
+    const later = new TextEncoder().encode(
+      "id,parent,name\n1,,Tidewater\n3,1,Ledger\n4,3,Payroll Desk\n5,3,Quay\n6,1,Dock\n",
+    );
+    const tree = await loadStreamed(later, { ...options, earlierVersion: oldTree }, []);
+    expect(tree.name).toEqual(["Tidewater", "Ledger", "Payroll Desk", "Quay", "Dock"]);
+    // Row 1 taken; row 3 not at OLD's row 2 (scanned, found at OLD's row 3); then row 3's successor
+    // differs (scanned); row 5 taken; row 6 is new.
+    expect(seen.filter((taken) => taken > 0)).toEqual([1, 1]);
+    // Read against it once: the second load of NEW scans every row.
+    seen.length = 0;
+    await loadStreamed(later, { ...options, earlierVersion: oldTree }, []);
+    expect(seen).toEqual([]);
+  });
+});
