@@ -73,6 +73,13 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
           compactFoldSized: `(${sizedOf({ ...options, compact: true })}; ${inside})`,
         }
       : { foldSized: undefined, compactFoldSized: undefined }),
+    // All below the line folded: the fold's size and net are the line's less its own.
+    ...(hidden && sized(options).sizes && last.children.length === 0
+      ? {
+          foldAllBelow: allChanged ? bare : `(${bare.slice(1, -1)}, ${formatCount(changed)} changed)`,
+          foldAllBelowBare: allChanged ? undefined : bare,
+        }
+      : { foldAllBelow: undefined, foldAllBelowBare: undefined }),
     foldShort: hidden ? `(hidden: ${hiddenCount(hidden.nodes, options)}; ${few})` : "",
     // Below an added (removed) node every node is added (removed, or moved away): its count says all.
     foldTiny: !hidden ? "" : allChanged ? bare : `(${bare.slice(1, -1)}, ${formatCount(changed)} changed)`,

@@ -60,6 +60,16 @@ export interface LineParts {
   compactFoldSized?: string;
   /** The fold's count alone (`(41 hidden)`), when `foldTiny` says more (a diff's changes); else absent. */
   foldBare?: string;
+  /**
+   * The fold's count alone (`(41 hidden)`; a diff's with how many changed, `(41 hidden, 2 changed)`)
+   * where that keeps every number the line's sums need: on a line with no lines below it, whose fold
+   * holds all below the line (its size, and a diff's net, is the line's less the line's own), so the
+   * line keeps its sizes without the fold's (see `laidOutWhole`); and on a line that says `size cut`
+   * (see `screenLines`). Absent otherwise.
+   */
+  foldAllBelow?: string;
+  /** A diff's `foldAllBelow` without how many changed (`(41 hidden)`), when that differs. */
+  foldAllBelowBare?: string;
   /** The compact fold without how many children it holds, when it differs from `compactFold`. */
   compactFoldCounts?: string;
   /**
@@ -111,6 +121,7 @@ const LEAST_LABEL = 2;
 const NOTHING_CUT = {
   numbersCut: false,
   countCut: false,
+  ownNumbersCut: false,
   foldCut: false,
   nameCut: false,
   changesCut: false,
@@ -135,6 +146,8 @@ export interface LaidOutLine {
   numbersCut: boolean;
   /** Whether the line's count gave way (`?` in its place, or nothing at all). */
   countCut: boolean;
+  /** Whether the line's own numbers gave way to less than their compact form (`608 nodes` alone). */
+  ownNumbersCut: boolean;
   /** Whether the fold kept only its sign (`(hidden)`). */
   foldCut: boolean;
   /** Whether a label was cut (`…` marks where). */
@@ -271,6 +284,16 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     [short, p.shortTag, MIN_LABEL, p.compactNumbers, changed],
     [short, p.shortTag, FEW_LABEL, p.compactNumbers, changed],
   ];
+  // Last, a line with none below it: its fold's count alone, the fold's size in the line's.
+  // A tag's own size change then may go too (`[resized]`): no sum on the line needs it.
+  for (const all of [p.foldAllBelow, p.foldAllBelowBare])
+    for (const tag of [p.shortTag, kindTag])
+      if (all !== undefined)
+        kept.push(
+          [indent, tag, MIN_LABEL, p.compactNumbers, all],
+          [indent, tag, FEW_LABEL, p.compactNumbers, all],
+          [short, tag, FEW_LABEL, p.compactNumbers, all],
+        );
   for (const [k, [ind, tag, fewest, numbers, fold]] of (keepAll ? kept : steps).entries()) {
     const room = width - displayWidth(line(ind, "", tag, numbers, fold, false));
     const whole = displayWidth(label) <= room;
@@ -292,6 +315,7 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
       text: line(ind, text, tag, numbers, fold, true),
       numbersCut,
       countCut: p.countNumbers !== "" && (numbers === gone || numbers === ""),
+      ownNumbersCut: numbers !== p.numbers && numbers !== p.compactNumbers,
       foldCut: fold === FOLD_SIGN,
       nameCut: names.shortened,
       changesCut: (fold === foldBare || fold === FOLD_SIGN) && foldBare !== p.foldTiny,
@@ -314,6 +338,7 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     text,
     numbersCut: true,
     countCut: p.countNumbers !== "",
+    ownNumbersCut: true,
     foldCut,
     nameCut: true,
     changesCut: foldCut && foldBare !== p.foldTiny,

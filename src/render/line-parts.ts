@@ -81,6 +81,15 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
           compactFoldSized: joined(`(${hiddenSized(group, last, compact)})`, parents),
         }
       : {}),
+    // All below the line folded: the fold's size is the line's less its own (see `foldAllBelow`).
+    ...(last.hidden && options.sizes && last.children.length === 0
+      ? {
+          foldAllBelow: joined(
+            `(${hiddenSized(group, last, { ...options, sizes: false, share: undefined })})`,
+            parents,
+          ),
+        }
+      : {}),
   };
 }
 

@@ -50,8 +50,10 @@ export function screenLines<G>(
       }
       // A share is of sizes on this screen: the line's, by count, would read as one of them.
       const bare = sizeCut(parts(groups[k], { ...options, sizes: false, share: undefined }));
-      const line = laidOutLine(bare, options);
-      if (line.numbersCut) return everyLineBare(groups, parts, options);
+      const line = laidOutWhole(bare, options) ?? laidOutLine(bare, options);
+      // Not even `N nodes, size cut` and the fold's count: counts only, every line. A fold that says
+      // its changes in one count (`278 changed`) keeps every number the sums need.
+      if (line.ownNumbersCut || line.countCut || line.foldCut) return everyLineBare(groups, parts, options);
       made[k] = bare;
       laid[k] = line;
       sizesCut++;
@@ -93,10 +95,18 @@ function everyLineBare<G>(
   };
 }
 
-/** Parts laid out without sizes that say so after their count: `14 nodes, size cut`. */
+/**
+ * Parts laid out without sizes that say so after their count: `14 nodes, size cut`. Without sizes
+ * the fold's count alone (`(13 hidden)`) keeps every number the line's sums need.
+ */
 function sizeCut(p: LineParts): LineParts {
   const say = (numbers: string) => (numbers ? `${numbers}, ${SIZE_CUT}` : SIZE_CUT);
-  return { ...p, numbers: say(p.numbers), compactNumbers: say(p.compactNumbers) };
+  return {
+    ...p,
+    numbers: say(p.numbers),
+    compactNumbers: say(p.compactNumbers),
+    ...(p.fold ? { foldAllBelow: p.foldTiny, foldAllBelowBare: p.foldBare } : {}),
+  };
 }
 
 /** What the width took from any of the lines, for the key. */

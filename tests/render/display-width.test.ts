@@ -161,11 +161,18 @@ describe("renderText(view, { width })", () => {
       "  . Esme…  3 nodes, 123,459  (2 hidden, 3)",
       "  . alp… / beta  5 nodes, 5  (3 hidden, 5)",
     ]);
-    // Narrower, the chain's line cannot keep its count and its sizes, nor say `size cut` beside its
-    // count: every line leaves its sizes out (the key says so), every count kept.
+    // Narrower, the chain's line, with no lines below it, keeps its sizes with its fold's count alone:
+    // the fold is all below the line, its size the line's less the line's own; Esme's size is compact.
     expect(lines(40).slice(0, 3)).toEqual([
+      ". R  9 nodes, 123,464",
+      "  . Esme…  3 nodes, 123k  (2 hidden, 3)",
+      "  . alpha / beta  5 nodes, 5  (3 hidden)",
+    ]);
+    // Narrower still, Esme's line cannot keep its count and its sizes, nor say `size cut` beside its
+    // count: every line leaves its sizes out (the key says so), every count kept.
+    expect(lines(38).slice(0, 3)).toEqual([
       ". R  9 nodes",
-      "  . Esme Orby Lead…  3 nodes  (2 hidden)",
+      "  . Esme Orby Le…  3 nodes  (2 hidden)",
       "  . alpha / beta  5 nodes  (3 hidden)",
     ]);
     // The count stays down to the narrowest width the renderers take: the name gives way.

@@ -1,3 +1,6 @@
+import { mkdtemp, writeFile } from "node:fs/promises";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { keyFacts, keyLines, keyRows } from "../../src/render/key-line.js";
 import { lineGroups } from "../../src/render/line-groups.js";
@@ -24,17 +27,30 @@ describe("screenLines(groups, parts, options)", () => {
     ]);
   });
 
-  it("cuts one line's sizes, saying so, when only that line cannot hold them; the others keep theirs", () => {
-    // At 46 columns "  . riptide-rpc / kelp-log  4 nodes, 123k  (2 hidden, 123k)" does not fit even
-    // with its names at 4 columns each and its fold in fewest words: it says `size cut` where its
-    // sizes were and keeps its count (4 = 2 names + 2 hidden); the other lines keep their sizes, a
-    // name cut first (ledger-core: 40,003 - 3 hidden = its own 40,000).
+  it("keeps a line's sizes with its fold's count alone when none of its lines is below it", () => {
+    // At 46 columns "  . riptide-rpc / kelp-log  4 nodes, 123k  (2 hidden, 123k)" does not fit with
+    // its names at 4 columns each: its fold, all below the line, says its count alone (4 = 2 names +
+    // 2 hidden); the fold's size is the line's, 123k, less the line's own.
     const mid = at(46);
     expect(mid.sizesLeftOut).toBe(false);
-    expect(mid.sizesCut).toBe(true);
+    expect(mid.sizesCut).toBe(false);
     expect(mid.lines).toEqual([
       ". R  8 nodes, 163,464",
       "  . ledger-co…  3 nodes, 40,003  (2 hidden, 3)",
+      "  . ripti… / kelp-…  4 nodes, 123k  (2 hidden)",
+    ]);
+  });
+
+  it("cuts one line's sizes, saying so, when only that line cannot hold them; the others keep theirs", () => {
+    // In bytes, which have no shorter form, at 46 columns "  . rip… / kel…  4 nodes, 120.6 KiB
+    // (2 hidden)" is 47: the line says `size cut` where its sizes were and keeps its count (4 = 2
+    // names + 2 hidden); the other lines keep their sizes, a name cut first.
+    const mid = screenLines(groups, lineParts, { units: "bytes", sizes: true, width: 46 });
+    expect(mid.sizesLeftOut).toBe(false);
+    expect(mid.sizesCut).toBe(true);
+    expect(mid.lines).toEqual([
+      ". R  8 nodes, 159.6 KiB",
+      "  . ledge…  3 nodes, 39.1 KiB  (2 hidden, 3 B)",
       "  . rip… / kel…  4 nodes, size cut  (2 hidden)",
     ]);
     // The key says what `size cut` means for the line above it (R: 40,008 is not 40,003 + a size shown).
@@ -122,6 +138,44 @@ describe("a diff at 40, 80 and 200 columns (field test: '?' where a bare count f
       const r = await cli([...args, "--width", width]);
       expect(r.stdout).toContain(": tidewater  11 nodes, 114.9 KiB, net +1.3 KiB\n");
       expect(r.stdout).toContain("    . spar  4.0 KiB\n");
+    }
+  });
+});
+
+describe("a diff whose lines fold all below them (field defect: 'sizes cut' at 60 to 100 columns)", () => {
+  // Field defect: a diff of two listings of a system folder printed counts only below about 100
+  // columns, each line needing `N nodes, S, net D  (k hidden, T; c changed, net E)`. An invented
+  // print shop's archive: 14 folders of 40 files; NEW drops one file a folder and grows another.
+  const oldLines: string[] = [];
+  const newLines: string[] = [];
+  for (let d = 0; d < 14; d++)
+    for (let f = 0; f < 40; f++) {
+      const path = `proofs-${d}/plate-${f}.tif`;
+      const size = 20_000 + 1_000 * d + 37 * f;
+      oldLines.push(`${size}\t${path}`);
+      if (f !== d) newLines.push(`${f === 39 ? size + 4_096 : size}\t${path}`);
+    }
+  const stdin = `${oldLines.join("\n")}\n`;
+
+  it("keeps every line's sizes from 70 columns, the fold saying its count alone", async () => {
+    const dir = await mkdtemp(join(tmpdir(), "espalier-fold-"));
+    const newFile = join(dir, "new.paths");
+    await writeFile(newFile, `${newLines.join("\n")}\n`);
+    for (const width of [70, 80]) {
+      const r = await cli(["diff", "-", newFile, "--budget", "22", "--width", String(width)], { stdin });
+      expect(r.code, r.stderr).toBe(0);
+      const lines = r.stdout.trimEnd().split("\n");
+      const tree = lines.filter((l) => /^ *[:.] /.test(l));
+      // Each folder's line whose 40 files are all folded: its count, NEW's size, its net change.
+      const folders = tree.filter((l) => / {2}\(40 hidden/.test(l));
+      expect(folders.length, r.stdout).toBeGreaterThan(10);
+      for (const line of folders) {
+        expect(line, `${width}:\n${r.stdout}`).toMatch(
+          / {2}41 nodes, [0-9.]+ (KiB|MiB), net [+-][0-9.]+ (KiB|B) {2}\(40 hidden(, 2 changed)?\)$/,
+        );
+        expect(line.length).toBeLessThanOrEqual(width);
+      }
+      expect(r.stdout).not.toContain("sizes cut");
     }
   });
 });
