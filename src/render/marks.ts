@@ -43,7 +43,7 @@ function legendTexts(kind: "summary" | "diff"): string[] {
   ];
   if (kind === "diff")
     lines.push(
-      "changes: [added] [removed] [moved from PARENT] [renamed from NAME] [edited FIELD OLD -> NEW] [resized ±SIZE] [linked] [unlinked] (a parent gained, lost) stand before the name; net ±SIZE: the subtree's size change",
+      "changes: [added] [removed] [moved from PARENT] [renamed from NAME] [edited FIELD OLD -> NEW] [resized ±SIZE] [linked] [unlinked] (a parent gained, lost) stand before the name (a narrow line keeps only the kind: [moved]); net ±SIZE: the subtree's size change",
     );
   return lines;
 }
