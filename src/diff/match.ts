@@ -231,19 +231,39 @@ function matchByPath(
       n += newCount[n] - 1; // nothing under an unmatched node can match by path
       continue;
     }
-    const oEnd = o + oldCount[o];
-    const nEnd = n + newCount[n];
-    let oc = o + 1;
-    let nc = n + 1;
-    while (oc < oEnd && nc < nEnd && same(oc, nc)) {
-      oldToNew[oc] = nc;
-      newToOld[nc] = oc;
-      oc += oldCount[oc];
-      nc += newCount[nc];
-    }
-    if (oc < oEnd && nc < nEnd)
-      pairByName(oldName, oldCount, oc, oEnd, newName, newCount, nc, nEnd, oldToNew, newToOld);
+    if (newCount[n] > 1 && oldCount[o] > 1)
+      pairChildren(same, oldName, oldCount, o, newName, newCount, n, oldToNew, newToOld);
   }
+}
+
+/**
+ * The children of matched old node o and new node n: position by position while `same` holds, then by
+ * name ({@link pairByName}). A function of its own, called once a node with children on both sides: the
+ * loop over every node stays small, and the engine makes a small loop fast soon.
+ */
+function pairChildren(
+  same: (i: number, j: number) => boolean,
+  oldName: Names,
+  oldCount: Int32Array,
+  o: number,
+  newName: Names,
+  newCount: Int32Array,
+  n: number,
+  oldToNew: Int32Array,
+  newToOld: Int32Array,
+): void {
+  const oEnd = o + oldCount[o];
+  const nEnd = n + newCount[n];
+  let oc = o + 1;
+  let nc = n + 1;
+  while (oc < oEnd && nc < nEnd && same(oc, nc)) {
+    oldToNew[oc] = nc;
+    newToOld[nc] = oc;
+    oc += oldCount[oc];
+    nc += newCount[nc];
+  }
+  if (oc < oEnd && nc < nEnd)
+    pairByName(oldName, oldCount, oc, oEnd, newName, newCount, nc, nEnd, oldToNew, newToOld);
 }
 
 /** Whether every name is bytes in a pool, which bytesCompare compares. */
