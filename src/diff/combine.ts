@@ -1,8 +1,8 @@
 import { MergedNames } from "../model/merged-names.js";
-import { bytesCompare, sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 import { KIND } from "./changes.js";
-import { type ComparedFields, isEdited } from "./field-edits.js";
+import type { ComparedFields } from "./field-edits.js";
+import { kindOf } from "./kind-of.js";
 import type { Matching } from "./match.js";
 import { splice } from "./splice.js";
 
@@ -65,19 +65,19 @@ export function combineListing(
   // Each pass below is a function of its own with one loop (and no growing array in it): the engine
   // compiles a loop that runs once while it runs, and compiles it again when the loop meets code it has
   // not run yet (docs/performance.md, eleventh session).
+  const kindOfPair = kindOf(oldTree, newTree, matching, compared);
   const removed = removedIn(oldToNew);
   if (removed === 0) {
     // Nothing to splice in: the combined tree is the new tree.
     const identity = identityOf(newTree.length);
-    const { kind, changed } = kinds(oldTree, newTree, matching, compared, identity, newToOld);
+    const { kind, changed } = kinds(kindOfPair, newToOld);
     return {
       combined: combined(oldTree, newTree, matching, identity, newToOld, kind, null, compared),
       changed,
     };
   }
-  const spliced = splice(oldTree, oldCount, newTree, newCount, oldToNew, newToOld, removed);
-  const { newIndex, oldIndex } = spliced;
-  const { kind, changed } = kinds(oldTree, newTree, matching, compared, newIndex, oldIndex);
+  const spliced = splice(oldTree, oldCount, newTree, newCount, oldToNew, newToOld, removed, kindOfPair);
+  const { newIndex, oldIndex, kind, changed } = spliced;
   return {
     combined: combined(oldTree, newTree, matching, newIndex, oldIndex, kind, spliced, compared),
     changed,
@@ -99,46 +99,20 @@ function identityOf(length: number): Int32Array {
 }
 
 /**
- * Each node's kind, by the precedence `combine` states, and the changed nodes in ascending order. The
- * list is made as long as the tree (memory no one writes costs nothing) so that it never grows in the
- * loop, and copied to its length at the end.
+ * Each node's kind when nothing was removed (node k is new node k, old node `newToOld[k]`), and the
+ * changed nodes in ascending order. The list is made as long as the tree (memory no one writes costs
+ * nothing) so that it never grows in the loop, and copied to its length at the end.
  */
 function kinds(
-  oldTree: Tree,
-  newTree: Tree,
-  matching: Matching,
-  compared: ComparedFields | null,
-  newIndex: Int32Array,
-  oldIndex: Int32Array,
+  kindOfPair: (n: number, o: number) => number,
+  newToOld: Int32Array,
 ): { kind: Uint8Array; changed: Int32Array } {
-  const total = newIndex.length;
+  const total = newToOld.length;
   const kind = new Uint8Array(total);
   const changed = new Int32Array(total);
   let changes = 0;
-  const renameRoot = !oldTree.syntheticRoot && !newTree.syntheticRoot;
-  // Matched by path, every pair below the root has equal names.
-  const byId = matching.by === "id";
-  const { newToOld } = matching;
-  const oldSize = oldTree.ownSize;
-  const newSize = newTree.ownSize;
-  const oldParent = oldTree.parent;
-  const newParent = newTree.parent;
-  const oldName = oldTree.name;
-  const newName = newTree.name;
-  // Equal bytes are the same name, compared in this loop; other pairs (a rename, or names only
-  // decoding can tell apart) go through sameName.
-  const equalBytes = bytesCompare(newName, oldName);
   for (let k = 0; k < total; k++) {
-    const n = newIndex[k];
-    const o = oldIndex[k];
-    let c: number = KIND.none;
-    if (n < 0) c = KIND.removed;
-    else if (o < 0) c = KIND.added;
-    else if (n > 0 && newToOld[newParent[n]] !== oldParent[o]) c = KIND.moved;
-    else if ((n > 0 ? byId : renameRoot) && !equalBytes(n, o) && !sameName(newName, n, oldName, o))
-      c = KIND.renamed;
-    else if (compared !== null && isEdited(compared, o, n)) c = KIND.edited;
-    else if (newSize[n] - oldSize[o] !== 0) c = KIND.resized;
+    const c = kindOfPair(k, newToOld[k]);
     if (c === KIND.none) continue;
     kind[k] = c;
     changed[changes++] = k;

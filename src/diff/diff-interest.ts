@@ -52,37 +52,10 @@ export function diffInterest(
     ? (x: number) => onChangePath[x] === 1
     : (x: number) => onChangePath[x] === 1 || forced.has(x);
   const m = nodes.length;
-  // Up the list (children before parents): M(a) = max over foci y below a of [−depth(y) − API(y)], and
-  // the distance down to the nearest of them.
-  const term = new Float64Array(m).fill(Number.NEGATIVE_INFINITY);
-  const dist = new Int32Array(m).fill(FAR);
-  for (let s = m - 1; s >= 0; s--) {
-    const y = nodes[s];
-    if (kind[y] !== 0 || user.has(y)) {
-      const t = -depth[y] - api(y);
-      if (t > term[s]) term[s] = t;
-      dist[s] = 0;
-    }
-    const u = up[s];
-    if (y === 0) continue;
-    if (term[s] > term[u]) term[u] = term[s];
-    if (dist[s] + 1 < dist[u]) dist[u] = dist[s] + 1;
-  }
-  // Down the list (parents first): best ancestor term, distance through the parent, the interest.
-  const best = new Float64Array(m);
-  const value = new Float64Array(m);
-  for (let s = 0; s < m; s++) {
-    const x = nodes[s];
-    if (x === 0) {
-      best[s] = term[s];
-      value[s] = api(0) + best[s];
-      continue;
-    }
-    const u = up[s];
-    best[s] = Math.max(2 * depth[x] + term[s], best[u]);
-    value[s] = api(x) - depth[x] + best[s];
-    if (dist[u] + 1 < dist[s]) dist[s] = dist[u] + 1;
-  }
+  // Each pass over the list is a function of its own: the engine compiles a loop that runs once while
+  // it runs, and again for the code after it in the same function.
+  const { term, dist } = termsUp(nodes, up, depth, api, (y) => kind[y] !== 0 || user.has(y));
+  const { best, value } = bestDown(nodes, up, depth, api, term, dist);
   const slotOf = (x: number): number => {
     let lo = 0;
     let hi = m - 1;
@@ -119,6 +92,65 @@ export function diffInterest(
     forcedNodes,
     onChangePath,
   };
+}
+
+/**
+ * Up the list (children before parents): M(a) = max over foci y below a of [−depth(y) − API(y)], and
+ * the distance down to the nearest of them.
+ */
+function termsUp(
+  nodes: Int32Array,
+  up: Int32Array,
+  depth: Int32Array,
+  api: (x: number) => number,
+  isFocus: (y: number) => boolean,
+): { term: Float64Array; dist: Int32Array } {
+  const m = nodes.length;
+  const term = new Float64Array(m).fill(Number.NEGATIVE_INFINITY);
+  const dist = new Int32Array(m).fill(FAR);
+  for (let s = m - 1; s >= 0; s--) {
+    const y = nodes[s];
+    if (isFocus(y)) {
+      const t = -depth[y] - api(y);
+      if (t > term[s]) term[s] = t;
+      dist[s] = 0;
+    }
+    const u = up[s];
+    if (y === 0) continue;
+    if (term[s] > term[u]) term[u] = term[s];
+    if (dist[s] + 1 < dist[u]) dist[u] = dist[s] + 1;
+  }
+  return { term, dist };
+}
+
+/**
+ * Down the list (parents first): the best ancestor term, the distance through the parent (into `dist`),
+ * the interest.
+ */
+function bestDown(
+  nodes: Int32Array,
+  up: Int32Array,
+  depth: Int32Array,
+  api: (x: number) => number,
+  term: Float64Array,
+  dist: Int32Array,
+): { best: Float64Array; value: Float64Array } {
+  const m = nodes.length;
+  const best = new Float64Array(m);
+  const value = new Float64Array(m);
+  for (let s = 0; s < m; s++) {
+    const x = nodes[s];
+    if (x === 0) {
+      best[s] = term[s];
+      value[s] = api(0) + best[s];
+      continue;
+    }
+    const u = up[s];
+    best[s] = Math.max(2 * depth[x] + term[s], best[u]);
+    value[s] = api(x) - depth[x] + best[s];
+    if (dist[u] + 1 < dist[s]) dist[s] = dist[u] + 1;
+  }
+  return { best, value };
 }
 
 /** Two lists of distinct nodes, none in both, as one in ascending order. */

@@ -99,11 +99,9 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
     size: asFloats(sizeMemory),
   });
   const changeMeasures = measureChanges(tree, combined.kind, combined.deltaOf, changed);
-  let oldSize = 0;
-  for (let o = 0; o < oldTree.length; o++) oldSize += oldTree.ownSize[o];
   const totals: DiffTotals = {
     changes: changesIn(changeMeasures, 0),
-    old: { nodes: distinctNodes(oldTree), size: oldSize, ...emptyOf(oldTree) },
+    old: { nodes: distinctNodes(oldTree), size: sizeOf(oldTree), ...emptyOf(oldTree) },
     new: { nodes: distinctNodes(newTree), size: measures.size[0], ...emptyOf(newTree) },
     delta: netIn(changeMeasures, 0),
     graph,
@@ -195,6 +193,13 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
     unmatchedFoci: unmatched,
     totals,
   };
+}
+
+/** The sum of every node's own size (a function of its own: a loop run once compiles apart). */
+function sizeOf(tree: Tree): number {
+  let size = 0;
+  for (let i = 0; i < tree.length; i++) size += tree.ownSize[i];
+  return size;
 }
 
 /** `{ empty: n }` when some of the version's nodes are empty entries (`{}`); else nothing. */

@@ -1,4 +1,4 @@
-import { bytesCompare, isEmptyName, type Names, sameName } from "../model/names.js";
+import { bytesCompare, isEmptyName, NamePool, type Names, sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 
 /** How the nodes of two versions correspond. Roots always correspond to each other. */
@@ -60,12 +60,15 @@ function matchById(
   oldToNew: Int32Array,
   newToOld: Int32Array,
 ) {
-  pairInPlace(oldIds, oldCount, newIds, newCount, oldToNew, newToOld);
-  const byId = unpairedIds(oldIds, oldToNew);
-  if (byId.size > 0) pairByMap(byId, newIds, oldToNew, newToOld);
+  const left = pairInPlace(oldIds, oldCount, newIds, newCount, oldToNew, newToOld);
+  const byId = unpairedIds(oldIds, left.old);
+  if (byId.size > 0) pairByMap(byId, newIds, left.new, oldToNew, newToOld);
 }
 
-/** The side-by-side walk of {@link matchById}. */
+/**
+ * The side-by-side walk of {@link matchById}. Returns the rows it left unpaired on each side, as ranges
+ * in ascending order (start, end, start, end, ...): the later passes read those, not every row.
+ */
 function pairInPlace(
   oldIds: Names,
   oldCount: Int32Array,
@@ -73,24 +76,38 @@ function pairInPlace(
   newCount: Int32Array,
   oldToNew: Int32Array,
   newToOld: Int32Array,
-): void {
+): { old: number[]; new: number[] } {
   const nOld = oldIds.length;
   const nNew = newIds.length;
   const equalBytes = bytesCompare(oldIds, newIds);
+  const oldLeft: number[] = [];
+  const newLeft: number[] = [];
   let o = 1;
   let n = 1;
   while (o < nOld && n < nNew) {
-    if (!equalBytes(o, n) && (isEmptyName(newIds, n) || !sameName(oldIds, o, newIds, n))) {
+    // Rows whose ids have equal bytes, paired by a run of their own: most rows are in such runs.
+    const run = equalRun(equalBytes, o, n, Math.min(nOld - o, nNew - n));
+    if (run > 0) {
+      pairRun(oldToNew, newToOld, o, n, run);
+      o += run;
+      n += run;
+      continue;
+    }
+    if (isEmptyName(newIds, n) || !sameName(oldIds, o, newIds, n)) {
       const skipOld = ahead(oldIds, oldCount, o, newIds, n);
       if (skipOld > 0) {
+        leave(oldLeft, o, skipOld);
         o = skipOld;
         continue;
       }
       const skipNew = ahead(newIds, newCount, n, oldIds, o);
       if (skipNew > 0) {
+        leave(newLeft, n, skipNew);
         n = skipNew;
         continue;
       }
+      leave(oldLeft, o, o + 1);
+      leave(newLeft, n, n + 1);
     } else {
       oldToNew[o] = n;
       newToOld[n] = o;
@@ -98,32 +115,73 @@ function pairInPlace(
     o++;
     n++;
   }
+  if (o < nOld) leave(oldLeft, o, nOld);
+  if (n < nNew) leave(newLeft, n, nNew);
+  return { old: oldLeft, new: newLeft };
 }
 
-/** Old rows the walk left unpaired, by id (the first row of an id), as {@link matchById} looks them up. */
-function unpairedIds(oldIds: Names, oldToNew: Int32Array): Map<string, number> {
+/**
+ * How many of the next `limit` row pairs from (o, n) have ids of equal bytes. A small function of its
+ * own, as {@link pairRun}: the engine makes a small loop fast soon, where the walk's loop, with all it
+ * calls, takes long to compile and runs slowly meanwhile.
+ */
+function equalRun(
+  equalBytes: (i: number, j: number) => boolean,
+  o: number,
+  n: number,
+  limit: number,
+): number {
+  let k = 0;
+  while (k < limit && equalBytes(o + k, n + k)) k++;
+  return k;
+}
+
+/** Pairs old rows [o, o + length) with new rows [n, n + length), in order. */
+function pairRun(oldToNew: Int32Array, newToOld: Int32Array, o: number, n: number, length: number): void {
+  for (let k = 0; k < length; k++) {
+    oldToNew[o + k] = n + k;
+    newToOld[n + k] = o + k;
+  }
+}
+
+/** Adds rows [from, to) to ranges kept as in {@link pairInPlace}, joined to the last when they touch. */
+function leave(ranges: number[], from: number, to: number): void {
+  if (ranges.length > 0 && ranges[ranges.length - 1] === from) ranges[ranges.length - 1] = to;
+  else ranges.push(from, to);
+}
+
+/**
+ * Old rows the walk left unpaired (`left`: ranges, see {@link pairInPlace}), by id (the first row of an
+ * id), as {@link matchById} looks them up.
+ */
+function unpairedIds(oldIds: Names, left: number[]): Map<string, number> {
   const byId = new Map<string, number>();
-  for (let k = 1; k < oldIds.length; k++) {
-    if (oldToNew[k] !== -1 || isEmptyName(oldIds, k)) continue;
-    const key = oldIds.get(k);
-    if (!byId.has(key)) byId.set(key, k);
+  for (let r = 0; r < left.length; r += 2) {
+    for (let k = left[r]; k < left[r + 1]; k++) {
+      if (isEmptyName(oldIds, k)) continue;
+      const key = oldIds.get(k);
+      if (!byId.has(key)) byId.set(key, k);
+    }
   }
   return byId;
 }
 
-/** New rows the walk left unpaired, paired with the unpaired old row of their id. */
+/** New rows the walk left unpaired (`left`: ranges), paired with the unpaired old row of their id. */
 function pairByMap(
   byId: Map<string, number>,
   newIds: Names,
+  left: number[],
   oldToNew: Int32Array,
   newToOld: Int32Array,
 ): void {
-  for (let k = 1; k < newIds.length; k++) {
-    if (newToOld[k] !== -1 || isEmptyName(newIds, k)) continue;
-    const m = byId.get(newIds.get(k));
-    if (m === undefined || oldToNew[m] !== -1) continue;
-    oldToNew[m] = k;
-    newToOld[k] = m;
+  for (let r = 0; r < left.length; r += 2) {
+    for (let k = left[r]; k < left[r + 1]; k++) {
+      if (isEmptyName(newIds, k)) continue;
+      const m = byId.get(newIds.get(k));
+      if (m === undefined || oldToNew[m] !== -1) continue;
+      oldToNew[m] = k;
+      newToOld[k] = m;
+    }
   }
 }
 
@@ -143,7 +201,15 @@ function ahead(ids: Names, count: Int32Array, at: number, other: Names, j: numbe
   return 0;
 }
 
-/** Top-down in the new tree's pre-order: a node's parent is matched (or not) before the node. */
+/**
+ * Top-down in the new tree's pre-order: a node's parent is matched (or not) before the node. Children
+ * are paired position by position while their names' bytes are equal; from the first pair that differs,
+ * the k-th remaining old child of a name pairs with the k-th remaining new child of it ({@link pairByName},
+ * names decoded). Stopping at bytes that differ but decode alike pairs the same nodes as going on would:
+ * from there both lists hold those names at the same positions, so their k-th occurrences are paired
+ * alike either way. Names that are not all pooled bytes (a tree put under a new root, names kept as
+ * strings) are compared by sameName in the first pass too, as their bytes cannot be.
+ */
 function matchByPath(
   oldTree: Tree,
   oldCount: Int32Array,
@@ -155,38 +221,84 @@ function matchByPath(
   const oldName = oldTree.name;
   const newName = newTree.name;
   const equalBytes = bytesCompare(oldName, newName);
+  const same =
+    pooledBytes(oldName) && pooledBytes(newName)
+      ? equalBytes
+      : (i: number, j: number) => equalBytes(i, j) || sameName(oldName, i, newName, j);
   for (let n = 0; n < newTree.length; n++) {
     const o = newToOld[n];
     if (o < 0) {
       n += newCount[n] - 1; // nothing under an unmatched node can match by path
       continue;
     }
-    const oEnd = o + oldCount[o];
-    const nEnd = n + newCount[n];
-    // Usual case: the same names in the same order, paired position by position.
-    let oc = o + 1;
-    let nc = n + 1;
-    while (oc < oEnd && nc < nEnd && (equalBytes(oc, nc) || sameName(oldName, oc, newName, nc))) {
-      oldToNew[oc] = nc;
-      newToOld[nc] = oc;
-      oc += oldCount[oc];
-      nc += newCount[nc];
-    }
-    if (oc >= oEnd || nc >= nEnd) continue;
-    // Otherwise the k-th remaining old child of a name pairs with the k-th remaining new child of it.
-    const waiting = new Map<string, { next: number; list: number[] }>();
-    for (let c = oc; c < oEnd; c += oldCount[c]) {
-      const name = oldName.get(c);
-      const queue = waiting.get(name);
-      if (queue) queue.list.push(c);
-      else waiting.set(name, { next: 0, list: [c] });
-    }
-    for (let c = nc; c < nEnd; c += newCount[c]) {
-      const queue = waiting.get(newName.get(c));
-      if (!queue || queue.next === queue.list.length) continue;
-      const m = queue.list[queue.next++];
-      oldToNew[m] = c;
-      newToOld[c] = m;
-    }
+    if (newCount[n] > 1 && oldCount[o] > 1)
+      pairChildren(same, oldName, oldCount, o, newName, newCount, n, oldToNew, newToOld);
+  }
+}
+
+/**
+ * The children of matched old node o and new node n: position by position while `same` holds, then by
+ * name ({@link pairByName}). A function of its own, called once a node with children on both sides: the
+ * loop over every node stays small, and the engine makes a small loop fast soon.
+ */
+function pairChildren(
+  same: (i: number, j: number) => boolean,
+  oldName: Names,
+  oldCount: Int32Array,
+  o: number,
+  newName: Names,
+  newCount: Int32Array,
+  n: number,
+  oldToNew: Int32Array,
+  newToOld: Int32Array,
+): void {
+  const oEnd = o + oldCount[o];
+  const nEnd = n + newCount[n];
+  let oc = o + 1;
+  let nc = n + 1;
+  while (oc < oEnd && nc < nEnd && same(oc, nc)) {
+    oldToNew[oc] = nc;
+    newToOld[nc] = oc;
+    oc += oldCount[oc];
+    nc += newCount[nc];
+  }
+  if (oc < oEnd && nc < nEnd)
+    pairByName(oldName, oldCount, oc, oEnd, newName, newCount, nc, nEnd, oldToNew, newToOld);
+}
+
+/** Whether every name is bytes in a pool, which bytesCompare compares. */
+function pooledBytes(names: Names): boolean {
+  return names instanceof NamePool && names.byteRuns() !== null;
+}
+
+/**
+ * The old children from `oc` to `oEnd` and the new ones from `nc` to `nEnd` (of matched parents): the
+ * k-th old child of a name pairs with the k-th new child of it.
+ */
+function pairByName(
+  oldName: Names,
+  oldCount: Int32Array,
+  oc: number,
+  oEnd: number,
+  newName: Names,
+  newCount: Int32Array,
+  nc: number,
+  nEnd: number,
+  oldToNew: Int32Array,
+  newToOld: Int32Array,
+): void {
+  const waiting = new Map<string, { next: number; list: number[] }>();
+  for (let c = oc; c < oEnd; c += oldCount[c]) {
+    const name = oldName.get(c);
+    const queue = waiting.get(name);
+    if (queue) queue.list.push(c);
+    else waiting.set(name, { next: 0, list: [c] });
+  }
+  for (let c = nc; c < nEnd; c += newCount[c]) {
+    const queue = waiting.get(newName.get(c));
+    if (!queue || queue.next === queue.list.length) continue;
+    const m = queue.list[queue.next++];
+    oldToNew[m] = c;
+    newToOld[c] = m;
   }
 }

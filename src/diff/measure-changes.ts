@@ -34,27 +34,43 @@ export function measureChanges(
   deltaOf: (i: number) => number,
   changed: Int32Array = changedNodes(kind),
 ): ChangeMeasures {
-  const n = tree.length;
   const { parent } = tree;
-  const onChangePath = new Uint8Array(n);
-  // Up from each changed node to the first node already marked: each node on a path once.
-  let onPath = new Int32Array(Math.max(16, changed.length * 2));
+  // Each pass is a function of its own with one loop, and no list grows in one: the engine compiles a
+  // loop that runs once while it runs, and again when the loop meets code it has not run yet.
+  const onChangePath = new Uint8Array(tree.length);
+  const onPath = markPaths(changed, parent, onChangePath).sort();
+  const up = parentSlots(onPath, parent);
+  const { counts, net } = summed(onPath, up, kind, deltaOf);
+  return { onChangePath, onPath, up, counts, net };
+}
+
+/**
+ * Marks the nodes up from each changed node to the first node already marked (each node on a path
+ * once) and lists them. The list is made as long as the tree (memory no one writes costs nothing) and
+ * copied to its length at the end.
+ */
+function markPaths(changed: Int32Array, parent: Int32Array, onChangePath: Uint8Array): Int32Array {
+  const onPath = new Int32Array(onChangePath.length);
   let m = 0;
   for (let c = 0; c < changed.length; c++) {
     for (let a = changed[c]; a >= 0 && onChangePath[a] === 0; a = parent[a]) {
       onChangePath[a] = 1;
-      if (m === onPath.length) {
-        const grown = new Int32Array(m * 2);
-        grown.set(onPath);
-        onPath = grown;
-      }
       onPath[m++] = a;
     }
   }
-  onPath = onPath.slice(0, m).sort();
+  return onPath.slice(0, m);
+}
+
+/** Each slot's counts per kind and net size change, its children's folded in (reverse pre-order). */
+function summed(
+  onPath: Int32Array,
+  up: Int32Array,
+  kind: Uint8Array,
+  deltaOf: (i: number) => number,
+): { counts: Int32Array; net: Float64Array } {
+  const m = onPath.length;
   const counts = new Int32Array(m * K);
   const net = new Float64Array(m);
-  const up = parentSlots(onPath, parent);
   // In reverse pre-order every child comes before its parent.
   for (let s = m - 1; s >= 0; s--) {
     const i = onPath[s];
@@ -67,7 +83,7 @@ export function measureChanges(
     net[t] += net[s];
     for (let k = 0; k < K; k++) counts[t * K + k] += counts[s * K + k];
   }
-  return { onChangePath, onPath, up, counts, net };
+  return { counts, net };
 }
 
 /** The nodes with a kind, in ascending order. */

@@ -1,9 +1,11 @@
 import type { Tree } from "../model/tree.js";
+import { KIND } from "./changes.js";
 
 /**
  * The combined tree's nodes in pre-order: where each comes from (`newIndex`: the node in the new
- * version or -1; `oldIndex`: the node in the old version or -1) and its shape (parent, depth, own size;
- * a removed node's own size is 0: it holds nothing now).
+ * version or -1; `oldIndex`: the node in the old version or -1), its shape (parent, depth, own size;
+ * a removed node's own size is 0: it holds nothing now) and its kind of change (see `KIND`), with the
+ * changed nodes listed in ascending order.
  */
 export interface Spliced {
   newIndex: Int32Array;
@@ -11,6 +13,13 @@ export interface Spliced {
   parent: Int32Array;
   depth: Int32Array;
   ownSize: Float64Array;
+  kind: Uint8Array;
+  changed: Int32Array;
+}
+
+/** What {@link splice} writes as it lays the nodes out: the arrays, and the changed nodes so far. */
+interface Layout extends Spliced {
+  changes: number;
 }
 
 /**
@@ -24,8 +33,9 @@ export interface Spliced {
  * sizes, and its parents shifted by the removed nodes put in before them. At one place, the removed
  * nodes of a deeper m (a later node in pre-order) come first, and those of one m in old order.
  * The places are found and sorted (O(t log t) for t top removed nodes; the usual input is nearly in
- * order already), so the work over every node is a few copies of runs, not a step per subtree.
- * `removed`: how many old nodes have no counterpart (at least 1).
+ * order already), so the work over every node is a few copies of runs, not a step per subtree; each
+ * new node's kind (`kindOfPair`, see `kindOf`) is found in the same step as its parent, and every
+ * removed node's written as it is laid. `removed`: how many old nodes have no counterpart (at least 1).
  */
 export function splice(
   oldTree: Tree,
@@ -35,16 +45,22 @@ export function splice(
   oldToNew: Int32Array,
   newToOld: Int32Array,
   removed: number,
+  kindOfPair: (n: number, o: number) => number,
 ): Spliced {
   const total = newTree.length + removed;
   const places = topRemoved(oldTree, oldCount, newTree, newCount, oldToNew, removed);
   const order = inPlaceOrder(places);
-  const out: Spliced = {
+  // The changed list is made as long as the tree (memory no one writes costs nothing) so that it never
+  // grows in a loop, and copied to its length at the end.
+  const out: Layout = {
     newIndex: new Int32Array(total),
     oldIndex: new Int32Array(total),
     parent: new Int32Array(total),
     depth: new Int32Array(total),
     ownSize: new Float64Array(total),
+    kind: new Uint8Array(total),
+    changed: new Int32Array(total),
+    changes: 0,
   };
   const runs = new Runs(places.count + 1);
   // Scratch for the removed nodes' parents while one group is laid out (a path from its top node).
@@ -54,7 +70,7 @@ export function splice(
   let from = 0;
   for (let e = 0; e < order.length; ) {
     const point = places.point[order[e]];
-    copyRun(out, newTree, newToOld, runs, from, point, shift);
+    copyRun(out, newTree, newToOld, kindOfPair, runs, from, point, shift);
     let k = point + shift;
     for (; e < order.length && places.point[order[e]] === point; e++) {
       const i = order[e];
@@ -64,8 +80,9 @@ export function splice(
     shift = k - point;
     from = point;
   }
-  copyRun(out, newTree, newToOld, runs, from, newTree.length, shift);
-  return out;
+  copyRun(out, newTree, newToOld, kindOfPair, runs, from, newTree.length, shift);
+  const { newIndex, oldIndex, parent, depth, ownSize, kind, changed, changes } = out;
+  return { newIndex, oldIndex, parent, depth, ownSize, kind, changed: changed.slice(0, changes) };
 }
 
 /** Top removed nodes (see {@link splice}), each with its place: before new node `point` (or at the end). */
@@ -200,11 +217,15 @@ class Runs {
 /** Blocks shorter than this are copied by a loop; longer ones by the runtime's copy of a range. */
 const SHORT_RUN = 64;
 
-/** New nodes [from, to) at their places, `shift` on: where each comes from, parent, depth, own size. */
+/**
+ * New nodes [from, to) at their places, `shift` on: where each comes from, parent, depth, own size and
+ * kind of change.
+ */
 function copyRun(
-  out: Spliced,
+  out: Layout,
   newTree: Tree,
   newToOld: Int32Array,
+  kindOfPair: (n: number, o: number) => number,
   runs: Runs,
   from: number,
   to: number,
@@ -212,7 +233,8 @@ function copyRun(
 ): void {
   if (from === to) return;
   runs.add(from, shift);
-  const { newIndex, oldIndex, parent, depth, ownSize } = out;
+  const { newIndex, oldIndex, parent, depth, ownSize, kind, changed } = out;
+  let changes = out.changes;
   const newParent = newTree.parent;
   if (to - from < SHORT_RUN) {
     for (let j = from; j < to; j++) {
@@ -227,9 +249,15 @@ function copyRun(
   }
   for (let j = from; j < to; j++) {
     const p = newParent[j];
-    newIndex[j + shift] = j;
-    parent[j + shift] = p >= from ? p + shift : p < 0 ? -1 : p + runs.shiftAt(p);
+    const k = j + shift;
+    newIndex[k] = j;
+    parent[k] = p >= from ? p + shift : p < 0 ? -1 : p + runs.shiftAt(p);
+    const c = kindOfPair(j, newToOld[j]);
+    if (c === KIND.none) continue;
+    kind[k] = c;
+    changed[changes++] = k;
   }
+  out.changes = changes;
 }
 
 /**
@@ -239,7 +267,7 @@ function copyRun(
  * (its place).
  */
 function layGroup(
-  out: Spliced,
+  out: Layout,
   oldTree: Tree,
   oldCount: Int32Array,
   oldToNew: Int32Array,
@@ -249,8 +277,9 @@ function layGroup(
   pathOld: Int32Array,
   pathAt: Int32Array,
 ): number {
-  const { newIndex, oldIndex, parent, depth, ownSize } = out;
+  const { newIndex, oldIndex, parent, depth, ownSize, kind, changed } = out;
   const oldParent = oldTree.parent;
+  let changes = out.changes;
   let k = at;
   let top = -1;
   const end = r + oldCount[r];
@@ -269,10 +298,13 @@ function layGroup(
     parent[k] = p;
     depth[k] = depth[p] + 1;
     ownSize[k] = 0;
+    kind[k] = KIND.removed;
+    changed[changes++] = k;
     pathOld[++top] = x;
     pathAt[top] = k;
     k++;
     x++;
   }
+  out.changes = changes;
   return k;
 }

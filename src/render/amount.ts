@@ -9,6 +9,11 @@ export interface NumberOptions {
   share?: "total" | "parent";
   /** Write counts and plain sizes of 10,000 and more with an SI prefix (`12.1k`), for narrow lines. */
   compact?: boolean;
+  /**
+   * With `compact`, counts stay exact (`12,121 nodes`): a tree line's count is read in its sums
+   * (`nodes = 1 + the lines below + hidden`), which `12.1k` would not let a reader check.
+   */
+  countsExact?: boolean;
 }
 
 // SI prefixes for powers of 1000 (BIPM, The International System of Units, 9th edition, table 7).
@@ -34,7 +39,9 @@ export function formatCount(n: number, compact = false): string {
 export function amount(nodes: number, size: number, options: NumberOptions & { always?: boolean }): string {
   const parts: string[] = [];
   if (nodes > 1 || options.always)
-    parts.push(`${formatCount(nodes, options.compact)} ${nodes === 1 ? "node" : "nodes"}`);
+    parts.push(
+      `${formatCount(nodes, options.compact && !options.countsExact)} ${nodes === 1 ? "node" : "nodes"}`,
+    );
   if (options.sizes)
     parts.push(
       options.compact && options.units === "plain"

@@ -58,19 +58,23 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
     shortTag: changeTag(last, options, SHORT_FROM, group.root.name),
     tagKind: last.change,
     numbers: say(options, parts.numbers),
-    compactNumbers: say({ ...options, compact: true }, parts.compactNumbers),
+    compactNumbers: say({ ...options, compact: true, countsExact: true }, parts.compactNumbers),
     fold: fold(options),
     foldCounts: hidden ? `(hidden: ${amountOf(options)}; ${inside})` : "",
-    compactFold: fold({ ...options, compact: true }),
-    compactFoldCounts: hidden ? `(hidden: ${amountOf({ ...options, compact: true })}; ${inside})` : "",
+    compactFold: fold({ ...options, compact: true, countsExact: true }),
+    compactFoldCounts: hidden
+      ? `(hidden: ${amountOf({ ...options, compact: true, countsExact: true })}; ${inside})`
+      : "",
     ...(hidden && changeKinds.filter((k) => hidden.changes[k] > 0).length > 1
-      ? { compactFoldChanged: `(${sizedOf({ ...options, compact: true })}; ${changedIn(options)})` }
+      ? {
+          compactFoldChanged: `(${sizedOf({ ...options, compact: true, countsExact: true })}; ${changedIn(options)})`,
+        }
       : {}),
     // In fewest words, every number kept: `(41 hidden, 2.0 MiB; 2 added, net +1.0 KiB)`.
     ...(hidden && sized(options).sizes
       ? {
           foldSized: `(${sizedOf(options)}; ${inside})`,
-          compactFoldSized: `(${sizedOf({ ...options, compact: true })}; ${inside})`,
+          compactFoldSized: `(${sizedOf({ ...options, compact: true, countsExact: true })}; ${inside})`,
         }
       : { foldSized: undefined, compactFoldSized: undefined }),
     // All below the line folded: the fold's size and net are the line's less its own.

@@ -153,9 +153,15 @@ export function keyLines(
   // What the sizes on screen are, or that they were cut, stays longest (see `vitalWords`); then the
   // counts alone, then what no sum on screen can do without in fewest words, then the leftover marks.
   const vital = vitalWords(facts, parts);
-  tries.push(vital);
+  // Nothing vital (no sizes, no deep line): the next tries say the counts; an empty row says nothing.
+  if (vital.length > 0) tries.push(vital);
   if (facts.sizesCut && !facts.sizesLeftOut) tries.push([parts[0][2], SIZE_CUT_LEAST]);
-  if (!(facts.sizes ?? true)) tries.push([parts[0][2]]);
+  if (!(facts.sizes ?? true)) {
+    // A `?` on screen reads as nothing without its words: they go before what the counts are.
+    const countCut = parts.find((p) => p[0].startsWith(`'${NUMBERS_GONE}'`));
+    if (countCut) tries.push([countCut[2]]);
+    tries.push([parts[0][2]]);
+  }
   const depth = depthWords(parts);
   const least = [
     ...(facts.sizesLeftOut ? [SIZES_GONE] : []),
@@ -165,6 +171,8 @@ export function keyLines(
   if (least.length > 0) tries.push(least);
   // A deep line misreads without its digits explained; what the sizes are can go first.
   if (depth.length > 0) tries.push(depth);
+  // Then each alone, the first on screen first (a deep line's digits before a chain's names).
+  if (depth.length > 1) for (const d of depth) tries.push([d]);
   if (over !== "") tries.push([]);
   const row = (t: string[]) => `${ROW_INDENT}${[...(over ? [over] : []), ...t].join("; ")}`;
   const second = tries.map(row).find((t) => displayWidth(t) <= room);
@@ -325,7 +333,7 @@ function explanations(kind: "summary" | "diff", facts: KeyFacts): Explanation[] 
     ]);
   if (facts.foldsCut)
     said.push([
-      `'${FOLD_SIGN}' nodes hidden, their count did not fit`,
+      `'${FOLD_SIGN}' nodes hidden, their count the line's less its names and the lines below`,
       `'${FOLD_SIGN}' count cut`,
       `'${FOLD_SIGN}' count cut`,
       "cut",

@@ -31,7 +31,7 @@ export interface LineParts {
   distinct?: readonly number[];
   /** The numbers after the labels, the top node's (`12,121 nodes, 3.0 MiB`), or "". */
   numbers: string;
-  /** The same with counts and plain sizes compact (`12.1k nodes`). */
+  /** The same with plain sizes compact (`12,121 nodes, 286M`; a tree line keeps its count whole). */
   compactNumbers: string;
   /**
    * The count alone, exact (`12,121 nodes`), for a narrow line: "" for a single node, which a line
@@ -176,7 +176,8 @@ export interface LaidOutLine {
  *      differs from its siblings when the end cut would lose that; a chain's longest names at their
  *      ends, every ` / ` kept so its names can be counted; at 4 a long chain keeps its first and
  *      last names around `(k more)`, the k left out of its middle (see `cutChain`);
- *   4. numbers become compact (`12.1k nodes`, plain sizes `286M`);
+ *   4. numbers become compact (plain sizes `286M`; the renderers' parts keep counts whole, see
+ *      `NumberOptions.countsExact`);
  *   5. the fold's size goes, its count stays (`(hidden: 41 nodes)`; in a diff with how many changed
  *      nodes it holds), then the line's size (`608 nodes`), then the fold's words (`(41 hidden)`);
  *   6. a deep line's indentation shrinks to a third of the width, its level in digits at its end;
@@ -184,8 +185,9 @@ export interface LaidOutLine {
  *      old path and its size change go), then a diff's fold drops how many changed (`(41 hidden)`);
  *   8. the labels are cut down to one character and `…`, then the indentation is only the level in
  *      digits (`12 `), then each name down to `…` alone (a chain's ` / ` kept);
- *   9. the line's count goes, `?` standing in its place (a line without a count reads as one node),
- *      then the fold keeps only its sign (`(hidden)`), then the `?` goes.
+ *   9. the fold keeps only its sign (`(hidden)`: its count is the line's less its names and the
+ *      lines below), then the line's count goes, `?` standing in its place (a line without a count
+ *      reads as one node), then the `?` goes.
  * A fold never goes: a reader always sees that something is hidden. At MIN_WIDTH and wider the line
  * always fits this way; narrower (which the renderers refuse), the line's start is cut instead.
  * Steps from the fold's size on leave a number out: the text renderers then lay the whole screen out again
@@ -269,7 +271,10 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     [short, kindTag, LEAST_LABEL, p.countNumbers, foldBare],
     [least, kindTag, LEAST_LABEL, p.countNumbers, foldBare],
     [least, kindTag, 1, p.countNumbers, foldBare],
-    [least, kindTag, LEAST_LABEL, gone, foldBare],
+    // The fold's count before the line's: the line's count is in the sum of the line above too, and
+    // the fold's is then the line's less its names and the lines below.
+    [least, kindTag, LEAST_LABEL, p.countNumbers, sign],
+    [least, kindTag, 1, p.countNumbers, sign],
     [least, kindTag, LEAST_LABEL, gone, sign],
     [least, kindTag, ANY_CUT, gone, sign],
     [least, kindTag, ANY_CUT, "", sign],

@@ -43,7 +43,7 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
   }
   // A focus with several parents (graphs) says so after its fold.
   const parents = parentsText(last.parents);
-  const compact = { ...options, compact: true };
+  const compact = { ...options, compact: true, countsExact: true };
   // The numbers count the whole line: its top node and all below it (a chain's upper nodes' own sizes
   // included), so the line above adds up from the lines below it; the fold is the last node's.
   const say = (o: NumberOptions) => {
@@ -104,7 +104,7 @@ export function hiddenSized<T extends ViewNode>(
 ): string {
   const n = node.hidden!.nodes;
   const count = amount(n, 0, { ...options, sizes: false, always: true });
-  return `${formatCount(n, options.compact)} hidden${foldAmount(group, node, options).slice(count.length)}`;
+  return `${formatCount(n, options.compact && !options.countsExact)} hidden${foldAmount(group, node, options).slice(count.length)}`;
 }
 
 /** What marks an empty entry (an input object with no field, `{}`) on its line and in a fold. */

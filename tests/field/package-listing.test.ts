@@ -152,3 +152,38 @@ describe("espalier diff of two listings with empty entries", () => {
     expect(json.totals.new.empty).toBeUndefined();
   });
 });
+
+// `npm ls --all --parseable --long` (npm 11.19.1 here): each package's folder, ":" and its
+// name@version. Read as paths, the project's own line made a folder "app:tidewater@0.4.0" beside the
+// project, and each scoped package three more nodes: 149 nodes for 117 folders, exit 0, nothing said.
+describe("npm ls --all --parseable --long", () => {
+  const long = [
+    "/srv/tidewater:tidewater@0.4.0",
+    "/srv/tidewater/node_modules/@reef/tide-core:@reef/tide-core@2.1.0",
+    "/srv/tidewater/node_modules/kelp-log:kelp-log@3.0.1",
+    "/srv/tidewater/node_modules/kelp-log/node_modules/brine:brine@0.4.2",
+    "",
+  ].join("\n");
+
+  it("is PARSE_PATHS at line 1 naming the folders-only and JSON listings", async () => {
+    const result = await cli(["-"], { stdin: long });
+    expect(result.code).toBe(2);
+    expect(result.stdout).toBe("");
+    expect(result.stderr).toMatch(
+      /^espalier: <stdin>:1:1: every line is a folder, a colon and a name@version, .*npm ls --all --parseable\).*npm ls --all --json.*--input-format paths \[PARSE_PATHS\]\n$/,
+    );
+  });
+
+  it("reads the folders alone (npm ls --all --parseable) as one node each, below the project", async () => {
+    const folders = long.replace(/:[^\n]*/g, "");
+    const result = await cli(["-", "--format", "json"], { stdin: folders });
+    expect(result.code).toBe(0);
+    // The 4 folders, and those their paths pass through: "/", srv, node_modules twice, @reef.
+    expect(JSON.parse(result.stdout).totals.nodes).toBe(4 + 5);
+  });
+
+  it("reads the same lines as paths under --input-format paths", async () => {
+    const result = await cli(["-", "--input-format", "paths"], { stdin: long });
+    expect(result.code).toBe(0);
+  });
+});

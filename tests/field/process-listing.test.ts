@@ -69,6 +69,68 @@ describe("a process listing as ps prints it", () => {
   });
 });
 
+// `ps -eo pid,ppid,rss,comm` (procps-ng here: a fourth column, RSS, between PPID and COMMAND). The
+// message gave the conversion for pid,ppid,comm; adapted by adding rss= to ps alone, its two splits
+// glued each process's RSS to its name ("12144 tide-init"), exit 0. It now follows the header's columns.
+const psRss = [
+  "    PID    PPID   RSS COMMAND",
+  "      1       0 12144 tide-init",
+  "      2       0     0 harbor-threads",
+  "      3       2     0 harbor-worker/0:1",
+  "     57       1 14000 quay-daemon",
+  "    112      57  5120 ledger sync",
+  "",
+].join("\n");
+
+/** The conversion the message gives, done as awk would: the leading spaces dropped, one split per column but the last. */
+function converted(listing: string, header: string[]): string {
+  const rows = listing
+    .split("\n")
+    .slice(1, -1)
+    .map((line) => {
+      let out = line.replace(/^ +/, "");
+      for (let k = 1; k < header.length; k++) out = out.replace(/ +/, "\t");
+      return out;
+    });
+  return [header.join("\t"), ...rows, ""].join("\n");
+}
+
+describe("a process listing with more columns (ps -eo pid,ppid,rss,comm)", () => {
+  it("is PARSE_PATHS naming a conversion that keeps every column, and the size column", async () => {
+    const result = await cli(["-"], { stdin: psRss });
+    expect(result.code).toBe(2);
+    expect(result.stderr).toContain(
+      `ps -eo pid=,ppid=,rss=,comm= | awk -v OFS='\\t' 'BEGIN {print "id", "parent", "rss", "name"} {sub(/^ +/, ""); sub(/ +/, "\\t"); sub(/ +/, "\\t"); sub(/ +/, "\\t"); print}' | espalier - --null-parent 0 --size-field rss;`,
+    );
+  });
+
+  it("reads as the process tree with the RSS column as sizes once converted so", async () => {
+    const table = converted(psRss, ["id", "parent", "rss", "name"]);
+    const result = await cli(["-", "--null-parent", "0", "--size-field", "rss", "--format", "json"], {
+      stdin: table,
+    });
+    expect(result.stderr).toBe("");
+    const json = JSON.parse(result.stdout);
+    // The RSS column summed (awk '{s += $3} END {print s}'): 12144 + 14000 + 5120.
+    expect(json.totals.size).toBe(12144 + 14000 + 5120);
+    const names: string[] = [];
+    const walk = (n: { name: string; children: object[] }) => {
+      names.push(n.name);
+      for (const c of n.children as (typeof n)[]) walk(c);
+    };
+    walk(json.root);
+    expect(names).toContain("ledger sync");
+    expect(names.some((n) => /^\d/.test(n))).toBe(false);
+  });
+
+  it("gives the pid,ppid,comm conversion for a header it does not know", async () => {
+    const result = await cli(["-"], { stdin: psRss.replace("RSS", "WCHAN") });
+    expect(result.code).toBe(2);
+    expect(result.stderr).toContain("ps -eo pid=,ppid=,comm= | awk");
+    expect(result.stderr).not.toContain("--size-field");
+  });
+});
+
 describe("options that name how another reading links its nodes", () => {
   it("--parent-field on a table linked by its path column is USAGE, not a tree linked by path", async () => {
     // A lock-file-like listing of paths (common practice, no source): no "manager" column, so the rows

@@ -374,3 +374,25 @@ describe("keyLines(kind, facts, width) for a chain with names left out (field te
       expect(legendLines(kind).join(" ")).toContain("(3 more)");
   });
 });
+
+describe("keyLines(kind, facts, width): no empty row", () => {
+  // Field test: a diff without sizes at 32 columns printed its key's second row blank, two spaces,
+  // while a '?' stood on a line below: an empty set of words fitted before any that said something.
+  it("says something on every row, and what a '?' is before what the counts are (property)", () => {
+    const flag = fc.boolean();
+    fc.assert(
+      fc.property(
+        fc.constantFrom<"summary" | "diff">("summary", "diff"),
+        fc.subarray([MARK.focus, MARK.path, MARK.other, MARK.reference], { minLength: 1 }),
+        fc.record({ sizes: flag, chains: flag, countsCut: flag, namesCut: flag, changesCut: flag }),
+        fc.integer({ min: MIN_WIDTH, max: 59 }),
+        (kind, marks, f, width) => {
+          const rows = keyLines(kind, { ...f, marks: new Set(marks) }, width);
+          for (const row of rows) expect(row.trim(), rows.join("\n")).not.toBe("");
+          if (f.countsCut && !f.sizes && rows[1].trim() === "N nodes: all below")
+            expect.fail(`a '?' unexplained where its words fit: ${rows.join(" | ")}`);
+        },
+      ),
+    );
+  });
+});

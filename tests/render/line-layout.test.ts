@@ -83,8 +83,9 @@ describe("layoutLine(parts, { width })", () => {
     // 40: the name is cut (down to one character and "…") before the count goes.
     expect(layoutLine(parts, { width: 40 })).toBe("12 . [moved] led…  41 nodes  (40 hidden)");
     // 36: "12 . [moved] " (13) + 2 columns of name + "  41 nodes" (10) + "  (40 hidden)" (13) is 38:
-    // no count fits, and a "?" stands where it was.
-    expect(layoutLine(parts, { width: 36 })).toBe("12 . [moved] ledger…  ?  (40 hidden)");
+    // the fold keeps only its sign, its count the line's less the name; the line's count stays.
+    expect(layoutLine(parts, { width: 36 })).toBe(`12 . [moved] le…  41 nodes  ${FOLD_SIGN}`);
+    // 30: not even that: a "?" stands where the count was.
     expect(layoutLine(parts, { width: 30 })).toBe(`12 . [moved] led…  ?  ${FOLD_SIGN}`);
     // Below MIN_WIDTH (only a small interactive screen asks): the start is cut, the sign kept.
     expect(layoutLine(parts, { width: 20 })).toBe(`12 . [mov…  ${FOLD_SIGN}`);
@@ -164,11 +165,14 @@ describe("layoutLine(parts, { width })", () => {
     expect(layoutLine(parts, { width: 80 })).toBe(
       "  : [added] @duckdb  11 nodes  (hidden: 10 children, 10 nodes; 10 added)",
     );
-    // 37 columns: the name keeps one character; 36: only its "…", and the count still fits; at 35 it
-    // does not.
+    // 37 columns: the name keeps one character; 36: only its "…", and the count still fits; at 35 the
+    // fold keeps only its sign, its count the line's less the name (10 = 11 - 1), so the line's count,
+    // which the line above adds up, stays.
     expect(layoutLine(parts, { width: 37 })).toBe("  : [added] @…  11 nodes  (10 hidden)");
     expect(layoutLine(parts, { width: 36 })).toBe("  : [added] …  11 nodes  (10 hidden)");
-    expect(layoutLine(parts, { width: 35 })).toBe("  : [added] @duckdb  ?  (10 hidden)");
+    expect(layoutLine(parts, { width: 35 })).toBe("  : [added] @d…  11 nodes  (hidden)");
+    expect(layoutLine(parts, { width: 33 })).toBe("  : [added] …  11 nodes  (hidden)");
+    expect(layoutLine(parts, { width: 32 })).toBe("  : [added] @duckdb  ?  (hidden)");
   });
 
   it("cuts wide names by their columns, never half a character, the count kept (UAX #11)", () => {

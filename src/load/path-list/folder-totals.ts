@@ -41,8 +41,15 @@ export function folderTotals(
   mode: FolderSizes | undefined,
 ): boolean {
   if (mode === "own") return false;
-  // Folders before their contents, or no folder listed at all (a list of files): own sizes, and no pass.
-  if (mode === undefined && (order.contentAfterListing > 0 || order.listedAfterContents === 0)) return false;
+  // Folders before their contents, or no folder listed at all (a list of files): own sizes, and no pass;
+  // unless the lines are sorted biggest first (`du -ab DIR | sort -rn`), which puts every total before
+  // its contents.
+  if (
+    mode === undefined &&
+    (order.contentAfterListing > 0 || order.listedAfterContents === 0) &&
+    !(order.listedAfterContents === 0 && biggestFirst(nodes))
+  )
+    return false;
   const { length, parentOf, ownSize } = nodes;
   // What each node's contents add up to: a listed node stands for its line's size, an unlisted one
   // (an ancestor no line named) for its contents. Children have higher indices than their parents,
@@ -64,6 +71,33 @@ export function folderTotals(
     ownSize[i] -= contents[i];
   }
   return true;
+}
+
+/**
+ * Lines a listing sorted biggest first must have before it may read as folder totals: a `find` listing
+ * (each folder first) of a few small files can be in that order by chance, its folder's entry bigger
+ * than what it holds (`1 a`, `1 a/b`); eight sizes fall in order by chance once in 8! (40,320).
+ */
+const SORTED_EVIDENCE = 8;
+
+/**
+ * Whether the listed entries, no folder listed after any of its contents (so in the order of their
+ * lines), never grow from one line to the next, as `sort -rn` orders a `du -ab` listing (every folder
+ * then comes before its contents): at least {@link SORTED_EVIDENCE} of them. A `find` listing so sorted
+ * puts its folders' few KiB among the files, and the test of {@link readsAsTotals} tells it apart.
+ */
+function biggestFirst(nodes: PlacedSizes): boolean {
+  let line = 0;
+  let size = Number.POSITIVE_INFINITY;
+  let seen = 0;
+  for (let i = 0; i < nodes.length; i++) {
+    if (!nodes.isListed(i)) continue;
+    if (nodes.origin[i] <= line || nodes.ownSize[i] > size) return false;
+    line = nodes.origin[i];
+    size = nodes.ownSize[i];
+    seen++;
+  }
+  return seen >= SORTED_EVIDENCE;
 }
 
 /**

@@ -16,6 +16,7 @@ import { WrittenPaths } from "../written-paths.js";
 import { type FolderSizes, folderTotals, type PlacedSizes } from "./folder-totals.js";
 import { grandTotalNote, isGrandTotal, TOTAL_NAME } from "./grand-total.js";
 import { headerLineHint } from "./header-line-hint.js";
+import { columnsAlignedMessage } from "./process-columns.js";
 
 const newline = 10;
 const cr = 13;
@@ -79,6 +80,10 @@ export class PathListReader {
   private totalFirst = false;
   /** Whether the first unsized line is words and spaces without a "/", as a header of columns is. */
   private headerFirst = false;
+  /** Unsized lists: how many of the first {@link COMMA_LINES} lines read as `npm ls --parseable --long` prints. */
+  private packageLines = 0;
+  /** The first line's words when it reads as a header of columns (see `headerFirst`). */
+  private headerWords: string[] = [];
   /**
    * Unsized lists: the commas on the first line, and whether each of the first {@link COMMA_LINES}
    * lines holds as many: rows of a CSV table without its header row (see `end`).
@@ -208,7 +213,10 @@ export class PathListReader {
       // `ps -eo pid,ppid,comm`: a header of columns aligned with spaces, then a number first on every
       // line. Read as paths, each line would be one path (a process name with a "/" split into
       // folders), with exit 0.
-      throw new EspalierError("PARSE_PATHS", COLUMNS_ALIGNED, { line: this.firstLine, column: 1 });
+      throw new EspalierError("PARSE_PATHS", columnsAlignedMessage(this.headerWords), {
+        line: this.firstLine,
+        column: 1,
+      });
     }
     if (
       this.detected &&
@@ -219,6 +227,16 @@ export class PathListReader {
       // `ls -l` or `tar tv`: each line a file's mode, owner, size, date and name. Read as paths, each
       // whole line would be one path split at its "/"s, the sizes in the names, with exit 0.
       throw new EspalierError("PARSE_PATHS", MODES_FIRST, { line: this.firstLine, column: 1 });
+    }
+    if (
+      this.detected &&
+      this.sized === false &&
+      this.pathLines >= 2 &&
+      this.packageLines === Math.min(this.pathLines, COMMA_LINES)
+    ) {
+      // `npm ls --all --parseable --long`: each line a package's folder, ":" and its name@version. Read
+      // as paths, each name@version would be a folder of its own beside or below the package's.
+      throw new EspalierError("PARSE_PATHS", PACKAGE_LINES, { line: this.firstLine, column: 1 });
     }
     if (this.detected && this.sized === false && this.commas > 0 && this.sameCommas && this.pathLines >= 3) {
       // A pip RECORD file (path,hash,size) or any CSV saved without its header row: read as paths, each
@@ -424,10 +442,12 @@ export class PathListReader {
     } else {
       if (this.pathLines++ === 0) {
         this.headerFirst = headerOfColumns(bytes, start, end);
+        if (this.headerFirst) this.headerWords = bytes.toString("utf8", start, end).trim().split(/ +/);
         this.totalFirst = /^total [0-9]/.test(bytes.toString("latin1", start, Math.min(end, start + 8)));
       }
       if (numberThenSpace(bytes, start, end)) this.numberFirstLines++;
       if (modeFirst(bytes, start, end)) this.modeFirstLines++;
+      if (this.pathLines <= COMMA_LINES && packageLine(bytes, start, end)) this.packageLines++;
       if (this.pathLines <= COMMA_LINES && this.sameCommas) {
         const commas = countByte(bytes, comma, start, end);
         if (this.pathLines === 1) {
@@ -511,6 +531,21 @@ function headerOfColumns(bytes: Buffer, start: number, end: number): boolean {
   return words.length >= 2 && words.every((word) => !word.includes("/") && !/^[0-9]/.test(word));
 }
 
+const PACKAGE_LINES =
+  "every line is a folder, a colon and a name@version, as npm ls --parseable --long prints: read as a path list, each name@version would be a folder of its own. List the folders alone (npm ls --all --parseable), or the packages with their versions as nested JSON (npm ls --all --json); to read these lines as paths, pass --input-format paths";
+
+/**
+ * Whether the line is an absolute path, ":", a package's name (`@scope/` allowed) and `@version`, with
+ * maybe more `:WORD`s after: `npm ls --parseable --long`'s line (npm 11 here:
+ * `/srv/app/node_modules/@scope/pkg:@scope/pkg@1.2.0`).
+ */
+function packageLine(bytes: Buffer, start: number, end: number): boolean {
+  if (end - start < 4 || bytes[start] !== slash) return false;
+  return /^\/[^:]*:(?:@[^/:@\s]+\/)?[^/:@\s]+@[^/:\s]+(?::[^/:\s]+)*$/.test(
+    bytes.toString("utf8", start, end),
+  );
+}
+
 /** Lines of an unsized list whose commas are counted (see `PathListReader.commas`): a bounded cost. */
 const COMMA_LINES = 1000;
 
@@ -520,9 +555,6 @@ function countByte(bytes: Buffer, byte: number, start: number, end: number): num
   for (let k = bytes.indexOf(byte, start); k !== -1 && k < end; k = bytes.indexOf(byte, k + 1)) n++;
   return n;
 }
-
-const COLUMNS_ALIGNED =
-  'the first line reads as a header of columns aligned with spaces and every later line starts with a number, as ps -eo pid,ppid,comm prints: read as a path list, each line would be one path. A table is read as CSV or TSV whose header names the id and parent columns: ps -eo pid=,ppid=,comm= | awk -v OFS=\'\\t\' \'BEGIN {print "id", "parent", "name"} {sub(/^ +/, ""); sub(/ +/, "\\t"); sub(/ +/, "\\t"); print}\' | espalier - --null-parent 0; to read each line as a path, pass --input-format paths';
 
 function isBlank(bytes: Buffer, start: number, end: number): boolean {
   for (let k = start; k < end; k++) {

@@ -160,6 +160,34 @@ describe("folder totals on random trees", () => {
       { numRuns: 200 },
     );
   });
+
+  it("a du -ab listing sorted biggest first (sort -rn) of 8 lines or more reads as it does unsorted", () => {
+    fc.assert(
+      fc.property(entry(5), (raw) => {
+        const top = unique({ ...raw, name: "harbor" });
+        const lines = duLines(top, "harbor");
+        // sort -rn; on a tie the shorter path first, so a folder whose own part is 0 stays before its
+        // contents (du -ab gives a folder's own part as its directory's size, above 0: gnu-du.test.ts).
+        const size = (line: string) => Number(line.split("\t")[0]);
+        const sorted = [...lines].sort((a, b) => size(b) - size(a) || a.length - b.length);
+        const du = paths(`${lines.join("\n")}\n`);
+        const byReference = loadByReference(utf8(`${sorted.join("\n")}\n`), opts({ format: "paths" }));
+        const fromSorted = paths(`${sorted.join("\n")}\n`);
+        expectSameTree(fromSorted, byReference);
+        if (lines.length >= 8 && du.reading?.folderTotals) {
+          expect(fromSorted.reading?.folderTotals).toBe(true);
+          expect(measure(fromSorted).size[0]).toBe(total(top));
+        }
+      }),
+      { numRuns: 200 },
+    );
+  });
+
+  it("a find listing of a few small files in size order is own sizes: fewer than 8 lines", () => {
+    const text = "1\tharbor\n1\tharbor/tide\n";
+    expect(paths(text).reading?.folderTotals).toBeUndefined();
+    expect(measure(paths(text)).size[0]).toBe(2);
+  });
 });
 
 describe("folder totals: content that comes after its folder's line, however deep", () => {

@@ -7,7 +7,9 @@ import type { NodeSink } from "../../../src/load/node-sink.js";
  * recursion, on the nodes a reference reader placed.
  *
  * Without a mode, the listing is read as totals when (1) every listed folder comes after all of its
- * contents (no node below it was first seen after its line), (2) no listed folder's size is less than
+ * contents (no node below it was first seen after its line), or every listed folder comes before all
+ * of its contents and no listed line's size is bigger than the listed line before it (at least two
+ * lines: `du -ab | sort -rn`, at least 8 of them), (2) no listed folder's size is less than
  * what its contents add up to (a listed node counts its size, an unlisted one its contents), and (3)
  * some listed folder has contents of some size. Read as totals, a listed folder's own size is its size
  * minus its contents'; unless the sizes look like du -a's 1 KiB blocks (PARSE_PATHS). Returns whether it
@@ -30,9 +32,12 @@ export function folderTotalsByReference(
   const folders = [...listedAt.keys()].filter((i) => children[i].length > 0);
   if (mode === undefined) {
     const afterContents = folders.every((f) => below(f).every((d) => firstSeen[d] < (listedAt.get(f) ?? 0)));
+    const beforeContents = folders.every((f) => below(f).every((d) => firstSeen[d] > (listedAt.get(f) ?? 0)));
+    const byLine = [...listedAt.entries()].sort((a, b) => a[1] - b[1]).map(([i]) => sink.ownSize[i]);
+    const biggestFirst = byLine.length >= 8 && byLine.every((size, k) => k === 0 || size <= byLine[k - 1]);
     const covers = folders.every((f) => sink.ownSize[f] >= contentsOf(f));
     const sized = folders.some((f) => contentsOf(f) > 0);
-    if (!(afterContents && covers && sized)) return false;
+    if (!((afterContents || (beforeContents && biggestFirst)) && covers && sized)) return false;
     // du -a without -b (1 KiB blocks): at least 8 listed sizes above 0, every one a multiple of 4, and
     // some listed folder whose own part (its size less its contents) is under 1,024.
     const sizes = [...listedAt.keys()].map((i) => sink.ownSize[i]).filter((size) => size !== 0);

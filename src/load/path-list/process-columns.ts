@@ -1,0 +1,50 @@
+/**
+ * The `ps -o` keyword for each column header procps-ng prints (seen here: `PID`, `PPID`, `RSS` and
+ * `COMMAND` from `ps -eo pid,ppid,rss,comm`; the rest from memory of ps(1)), with the column the
+ * converted table names it by: the id, the parent, the name, or the keyword itself.
+ */
+const psColumns: Readonly<Record<string, { key: string; column: string }>> = {
+  PID: { key: "pid", column: "id" },
+  PPID: { key: "ppid", column: "parent" },
+  RSS: { key: "rss", column: "rss" },
+  VSZ: { key: "vsz", column: "vsz" },
+  "%CPU": { key: "pcpu", column: "pcpu" },
+  "%MEM": { key: "pmem", column: "pmem" },
+  USER: { key: "user", column: "user" },
+  UID: { key: "uid", column: "uid" },
+  STAT: { key: "stat", column: "stat" },
+  TIME: { key: "time", column: "time" },
+  NI: { key: "ni", column: "ni" },
+  COMMAND: { key: "comm", column: "name" },
+  CMD: { key: "cmd", column: "name" },
+};
+
+/** Columns whose numbers can stand for a process's size (resident, then virtual memory, in KiB). */
+const SIZE_KEYS = ["rss", "vsz"];
+
+/**
+ * The PARSE_PATHS message for a listing of columns aligned with spaces, a number first on every line
+ * after the header (`ps -eo pid,ppid,comm`): how to make it a table. When the header names only
+ * columns of the table above, with PID, PPID and a last command column (which may hold spaces), the
+ * conversion keeps every column the listing has, in its order, and names the size column; else it
+ * gives the one for `pid,ppid,comm`. Only the table's own words are printed, never the input's.
+ */
+export function columnsAlignedMessage(header: readonly string[]): string {
+  const known = header.map((word) => psColumns[word.toUpperCase()]);
+  const fits =
+    known.every((c) => c !== undefined) &&
+    known.some((c) => c.column === "id") &&
+    known.some((c) => c.column === "parent") &&
+    known[known.length - 1].column === "name" &&
+    known.filter((c) => c.column === "name").length === 1;
+  const columns = fits ? known : [psColumns.PID, psColumns.PPID, psColumns.COMMAND];
+  const keys = columns.map((c) => `${c.key}=`).join(",");
+  const names = columns.map((c) => `"${c.column}"`).join(", ");
+  const splits = columns
+    .slice(1)
+    .map(() => 'sub(/ +/, "\\t"); ')
+    .join("");
+  const size = columns.find((c) => SIZE_KEYS.includes(c.key));
+  const sized = size ? ` --size-field ${size.column}` : "";
+  return `the first line reads as a header of columns aligned with spaces and every later line starts with a number, as ps -eo pid,ppid,comm prints: read as a path list, each line would be one path. A table is read as CSV or TSV whose header names the id and parent columns: ps -eo ${keys} | awk -v OFS='\\t' 'BEGIN {print ${names}} {sub(/^ +/, ""); ${splits}print}' | espalier - --null-parent 0${sized}; to read each line as a path, pass --input-format paths`;
+}

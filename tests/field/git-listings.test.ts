@@ -1,0 +1,87 @@
+import { execFileSync } from "node:child_process";
+import { mkdirSync, mkdtempSync, rmSync, statSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+
+// Field tests: git's listings of a commit (git 2.39 here). `git ls-tree -r -l HEAD` and `git ls-files
+// -s` put fields before the tab; the BAD_SIZE said "keep only the size before the separator", which for
+// ls-files -s is its stage (0), no size: done as told, every file would read as 0 bytes, exit 0.
+// Now each names its listing and the command that lists sizes and paths, checked here against the
+// files' sizes on disk (git keeps a file's bytes as they are, without filters).
+const hasGit = (() => {
+  try {
+    return /^git version/.test(execFileSync("git", ["--version"], { encoding: "utf8" }));
+  } catch {
+    return false;
+  }
+})();
+
+const files: Record<string, string> = {
+  "README.md": "# tidewater\n",
+  "src/ledger.ts": "export const ledger = 1;\n".repeat(40),
+  "src/sails/plan.ts": "export const plan = 2;\n".repeat(7),
+  "docs/guide.md": "guide\n".repeat(300),
+};
+let repo = "";
+const git = (args: string[]) =>
+  execFileSync("git", args, {
+    cwd: repo,
+    encoding: "utf8",
+    env: {
+      ...process.env,
+      GIT_AUTHOR_NAME: "Tidewater CI",
+      GIT_AUTHOR_EMAIL: "ci@tidewater.invalid",
+      GIT_COMMITTER_NAME: "Tidewater CI",
+      GIT_COMMITTER_EMAIL: "ci@tidewater.invalid",
+      GIT_CONFIG_NOSYSTEM: "1",
+      HOME: repo,
+    },
+  });
+
+beforeAll(() => {
+  if (!hasGit) return;
+  repo = mkdtempSync(join(tmpdir(), "espalier-git-"));
+  for (const [path, text] of Object.entries(files)) {
+    mkdirSync(join(repo, path, ".."), { recursive: true });
+    writeFileSync(join(repo, path), text);
+  }
+  git(["init", "-q"]);
+  git(["add", "."]);
+  git(["commit", "-q", "-m", "fixture"]);
+});
+
+afterAll(() => {
+  if (repo) rmSync(repo, { recursive: true, force: true });
+});
+
+describe.skipIf(!hasGit)("git listings of a commit", () => {
+  it("git ls-tree -r -l: BAD_SIZE at line 1 naming the listing and git ls-tree --format", async () => {
+    const result = await cli(["-"], { stdin: git(["ls-tree", "-r", "-l", "HEAD"]) });
+    expect(result.code).toBe(2);
+    expect(result.stdout).toBe("");
+    expect(result.stderr).toMatch(
+      /^espalier: <stdin>:1:1: .*it is a `git ls-tree -l` line \(mode, type, hash and size\): list sizes and paths with git ls-tree -r --format='%\(objectsize\)%x09%\(path\)' HEAD \[BAD_SIZE\]\n$/,
+    );
+  });
+
+  it("git ls-files -s: BAD_SIZE saying its number is a stage, no size", async () => {
+    const result = await cli(["-"], { stdin: git(["ls-files", "-s"]) });
+    expect(result.code).toBe(2);
+    expect(result.stderr).toMatch(
+      /it is a `git ls-files -s` line \(mode, hash and stage, which is no size\)/,
+    );
+    expect(result.stderr).not.toContain("keep only the size");
+  });
+
+  it("the listing the messages name reads with every file's size on disk", async () => {
+    const listing = git(["ls-tree", "-r", "--format=%(objectsize)%x09%(path)", "HEAD"]);
+    const result = await cli(["-", "--format", "json"], { stdin: listing });
+    expect(result.code).toBe(0);
+    const doc = JSON.parse(result.stdout);
+    const onDisk = Object.keys(files).reduce((sum, path) => sum + statSync(join(repo, path)).size, 0);
+    expect(doc.totals.size).toBe(onDisk);
+    expect(doc.totals.nodes).toBe(Object.keys(files).length + 4); // src, src/sails, docs and the root
+  });
+});
