@@ -22,21 +22,22 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
     ids: linked.ids === null ? null : poolOf(linked.ids),
   };
   checkSizes(input, file);
-  const ordered = inPreOrder(input);
+  const parentOf = input.parentOf;
+  const n = parentOf.length;
+  let tops = 0;
+  for (let i = 0; i < n; i++) if (parentOf[i] === -1) tops++;
+  const ordered = inPreOrder(input, tops);
   if (ordered) {
-    const slotOf = (i: number) => i + ordered.length - input.parentOf.length;
+    const slotOf = (i: number) => i + ordered.length - n;
     return withEmpty(withReferences(ordered, input.referenceOf, slotOf), input.empty, slotOf);
   }
-  const n = input.parentOf.length;
-  let tops = 0;
-  for (let i = 0; i < n; i++) if (input.parentOf[i] === -1) tops++;
   const synthetic = tops !== 1;
   const total = n + (synthetic ? 1 : 0);
-  const rootOld = synthetic ? n : input.parentOf.indexOf(-1);
+  const rootOld = synthetic ? n : parentOf.indexOf(-1);
   // par: old index -> old parent index, with the synthetic root (if any) at index n: without one, the
   // loader's own parents, which say just that (the one top-level node is the root, its parent -1).
-  const par = synthetic ? new Int32Array(total) : input.parentOf;
-  if (synthetic) for (let i = 0; i < n; i++) par[i] = input.parentOf[i] === -1 ? n : input.parentOf[i];
+  const par = synthetic ? new Int32Array(total) : parentOf;
+  if (synthetic) for (let i = 0; i < n; i++) par[i] = parentOf[i] === -1 ? n : parentOf[i];
   par[rootOld] = -1;
 
   // Children lists in input order, made from the last node back (no array of last children).
@@ -80,18 +81,21 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
   const origin = rowsInOrder
     ? new Int32Array(input.origin.buffer, input.origin.byteOffset, total)
     : new Int32Array(total);
+  const sizeOf = input.ownSize;
+  const originOf = input.origin;
   for (let k = 0; k < total; k++) {
     const o = oldOf[k];
     const p = par[o];
-    parent[k] = p === -1 ? -1 : newIndex[p];
-    depth[k] = p === -1 ? 0 : depth[parent[k]] + 1;
+    const pk = p === -1 ? -1 : newIndex[p];
+    parent[k] = pk;
+    depth[k] = p === -1 ? 0 : depth[pk] + 1;
     if (o === n) {
       from[k] = -1;
       origin[k] = 0;
       continue;
     }
-    ownSize[k] = input.ownSize[o];
-    origin[k] = rowsInOrder ? o + 1 : input.origin[o];
+    ownSize[k] = sizeOf[o];
+    origin[k] = rowsInOrder ? o + 1 : originOf[o];
   }
   const fields = new Map<string, string[]>();
   for (const [key, values] of input.fields) {
@@ -164,13 +168,11 @@ function withReferences(
 /**
  * The tree without reordering when the nodes already come in pre-order (each node's parent is on the
  * path from the latest top-level node down to the node before it), as document-order loaders give them;
- * null otherwise. Saves the linking arrays of the general case.
+ * null otherwise. Saves the linking arrays of the general case. `tops`: how many nodes have no parent.
  */
-function inPreOrder(input: PooledNodes): Tree | null {
+function inPreOrder(input: PooledNodes, tops: number): Tree | null {
   const { parentOf } = input;
   const n = parentOf.length;
-  let tops = 0;
-  for (let i = 0; i < n; i++) if (parentOf[i] === -1) tops++;
   const shift = tops !== 1 ? 1 : 0;
   if (shift === 0 && parentOf[0] !== -1) return null;
   const total = n + shift;

@@ -358,10 +358,14 @@ export class NamePool implements Names {
       out.start = places.start;
       out.size = places.size;
     }
+    // The arrays in locals, not read through `this` and `out` each time round.
+    const { start, size } = this;
+    const outStart = out.start;
+    const outSize = out.size;
     for (let k = 0; k < from.length; k++) {
       const o = from[k];
-      out.start[k] = o === -1 ? extraAt : this.start[o];
-      out.size[k] = o === -1 ? extraSize : this.size[o];
+      outStart[k] = o === -1 ? extraAt : start[o];
+      outSize[k] = o === -1 ? extraSize : size[o];
     }
     const exactExtra = !extra.isWellFormed();
     if (this.exact !== null || exactExtra)

@@ -198,7 +198,10 @@ export abstract class JsonTokenizer {
             this.word(word, base + i);
             i += k;
           } else {
-            throw this.syntax(base + i, say`unexpected ${shown(c)} where a value was expected`);
+            throw this.syntax(
+              base + i,
+              say`unexpected ${shown(c)} where a value was expected${jsoncHint(c, c === 0x5d && this.depth > 0 && this.isObject[this.depth - 1] === 0)}`,
+            );
           }
           state = this.depth === 0 ? DONE : AFTER;
           continue;
@@ -223,7 +226,10 @@ export abstract class JsonTokenizer {
             state = this.depth === 0 ? DONE : AFTER;
             continue;
           }
-          throw this.syntax(base + i, say`expected a double-quoted property name, found ${shown(c)}`);
+          throw this.syntax(
+            base + i,
+            say`expected a double-quoted property name, found ${shown(c)}${jsoncHint(c, c === 0x7d && state === KEY)}`,
+          );
         }
         case COLON: {
           if (c !== 0x3a /* : */)
@@ -252,7 +258,7 @@ export abstract class JsonTokenizer {
           }
           const what =
             this.isObject[top] === 1 ? '"," or "}" after a property value' : '"," or "]" after an element';
-          throw this.syntax(base + i, say`expected ${what}, found ${shown(c)}`);
+          throw this.syntax(base + i, say`expected ${what}, found ${shown(c)}${jsoncHint(c, false)}`);
         }
         default:
           throw this.syntax(base + i, say`unexpected ${shown(c)} after the JSON value`);
@@ -557,6 +563,21 @@ function hexValue(c: number): number {
   if (c >= 0x61 && c <= 0x66) return c - 0x57;
   if (c >= 0x41 && c <= 0x46) return c - 0x37;
   return -1;
+}
+
+/**
+ * What a JSONC file (JSON with comments and trailing commas, as tsconfig.json and editor settings are
+ * written) holds that JSON does not, for the end of a PARSE_JSON message: a "/" where a token was
+ * due starts a comment; `afterComma`, a "}" where a property name was due or a "]" where an array's
+ * value was due closes its object or array right after a comma (an empty one is read before). RFC
+ * 8259 has neither.
+ */
+function jsoncHint(c: number, afterComma: boolean): string {
+  if (c === 0x2f)
+    return "; JSON has no comments (RFC 8259): a file written with them (JSONC, as tsconfig.json may be) is read once they are removed";
+  if (afterComma)
+    return "; JSON has no comma before a closing bracket (RFC 8259), as JSONC files (tsconfig.json) may have: remove it";
+  return "";
 }
 
 function shown(c: number): MessagePart {
