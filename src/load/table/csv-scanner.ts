@@ -1,3 +1,4 @@
+import { Buffer } from "node:buffer";
 import { EspalierError, type SourcePos } from "../../errors.js";
 import { utf16Length } from "../json/utf16-length.js";
 import { readLimits, tooLong } from "../read-limits.js";
@@ -421,9 +422,14 @@ function positionIn(
   return { line, column: utf16Length(bytes, lineStart, at) + 1 };
 }
 
-/** The bytes of `carry` followed by the first `take` bytes of `chunk`, in a new array. */
+/**
+ * The bytes of `carry` followed by the first `take` bytes of `chunk`, in a new array: a Buffer, as a
+ * file's chunks are, so that the scanner and its sink see one kind of array. A plain Uint8Array here,
+ * met at the first record cut between chunks, threw away the optimized code of every function that
+ * reads the bytes (`record`, the reader's `field`, the name pool's `setBytes`; docs/performance.md).
+ */
 function joined(carry: Uint8Array, chunk: Uint8Array, take: number): Uint8Array {
-  const bytes = new Uint8Array(carry.length + take);
+  const bytes = Buffer.allocUnsafe(carry.length + take);
   bytes.set(carry);
   bytes.set(take === chunk.length ? chunk : chunk.subarray(0, take), carry.length);
   return bytes;
