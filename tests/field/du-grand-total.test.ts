@@ -1,22 +1,17 @@
 import { execFileSync } from "node:child_process";
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { summarySchema } from "../../src/render/summary-schema.js";
 import { cli } from "../helpers/cli.js";
+import { isGnuTool, writeFiles } from "../helpers/file-tree.js";
 
 // Field tests: `du -abc DIR` and `du -sbc *` (GNU coreutils, run here) end with a grand total,
 // `SIZE<TAB>total`. espalier read that line as a top-level file named total: the listing's size
 // doubled (du -abc: 2 nodes more, one a root espalier added; du -sbc *: a "total" entry as big as all
 // the rest), exit 0. The sizes checked are du's own numbers: the total line, and du -sb for the folder.
-const isGnuDu = (() => {
-  try {
-    return /GNU/.test(execFileSync("du", ["--version"], { encoding: "utf8" }));
-  } catch {
-    return false;
-  }
-})();
+const isGnuDu = isGnuTool("du");
 
 const files: Record<string, number> = {
   "ledger/a.csv": 1200,
@@ -32,11 +27,7 @@ const lastSize = (listing: string) => Number(listing.trimEnd().split("\n").pop()
 beforeAll(() => {
   if (!isGnuDu) return;
   base = mkdtempSync(join(tmpdir(), "espalier-du-total-"));
-  for (const [path, size] of Object.entries(files)) {
-    const full = join(base, "harbor", path);
-    mkdirSync(join(full, ".."), { recursive: true });
-    writeFileSync(full, Buffer.alloc(size, 0x61));
-  }
+  writeFiles(join(base, "harbor"), files);
 });
 
 afterAll(() => {

@@ -1,22 +1,16 @@
 import { execFileSync } from "node:child_process";
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { cli } from "../helpers/cli.js";
+import { isGnuTool, writeFiles } from "../helpers/file-tree.js";
 
 // Field tests: `du -ab DIR | sort -rn` (GNU coreutils du and sort, run here), the biggest first, puts
 // every folder before its contents, so the listing was taken for own sizes (as find lists a folder
 // before its contents) and each folder's total was added to its contents': /usr/share/doc/git read
 // as 8.7 MiB where du -sb says 3.0 MiB, exit 0, nothing said. The checks are du's own numbers.
-const isGnu = (cmd: string) => {
-  try {
-    return /GNU/.test(execFileSync(cmd, ["--version"], { encoding: "utf8" }));
-  } catch {
-    return false;
-  }
-};
-const gnuTools = isGnu("du") && isGnu("sort") && isGnu("find");
+const gnuTools = isGnuTool("du") && isGnuTool("sort") && isGnuTool("find");
 
 const files: Record<string, number> = {
   "ledger/a.csv": 1200,
@@ -33,11 +27,7 @@ const run = (cmd: string, args: string[], input?: string) =>
 beforeAll(() => {
   if (!gnuTools) return;
   base = mkdtempSync(join(tmpdir(), "espalier-du-sorted-"));
-  for (const [path, size] of Object.entries(files)) {
-    const full = join(base, "harbor", path);
-    mkdirSync(join(full, ".."), { recursive: true });
-    writeFileSync(full, Buffer.alloc(size, 0x61));
-  }
+  writeFiles(join(base, "harbor"), files);
 });
 
 afterAll(() => {

@@ -7,20 +7,14 @@ import { loadTree } from "../../src/load/index.js";
 import { defaultLoadOptions } from "../../src/load/load-options.js";
 import { type Measures, measure } from "../../src/model/measure.js";
 import type { Tree } from "../../src/model/tree.js";
+import { isGnuTool, writeFiles } from "../helpers/file-tree.js";
 
 // Source: GNU coreutils du -b (apparent size in bytes, including directory entries) vs our subtree sums.
 // `du -b` is `--apparent-size --block-size=1`: for each directory, the sum of the sizes that
 // `find -printf '%s'` prints for the directory itself and everything below it (files, directories, symlinks).
 // The listing comes from GNU find's -printf, the path-list format espalier documents.
 
-const isGnu = (cmd: string) => {
-  try {
-    return /GNU/.test(execFileSync(cmd, ["--version"], { encoding: "utf8" }));
-  } catch {
-    return false;
-  }
-};
-const gnuTools = isGnu("du") && isGnu("find");
+const gnuTools = isGnuTool("du") && isGnuTool("find");
 
 /** Files of known sizes (bytes) below the tree root; directories are implied, plus those in `emptyDirs`. */
 const files: Record<string, number> = {
@@ -43,11 +37,7 @@ beforeAll(() => {
   base = mkdtempSync(join(tmpdir(), "espalier-du-"));
   const top = join(base, "tree-root");
   mkdirSync(top);
-  for (const [path, size] of Object.entries(files)) {
-    const full = join(top, path);
-    mkdirSync(join(full, ".."), { recursive: true });
-    writeFileSync(full, Buffer.alloc(size, 0x61));
-  }
+  writeFiles(top, files);
   // Enough entries that the directory may outgrow one block on some file systems.
   for (let k = 0; k < 300; k++)
     writeFileSync(join(top, "wide", `entry-${String(k).padStart(3, "0")}.txt`), "x");
