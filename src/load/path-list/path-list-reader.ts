@@ -267,8 +267,10 @@ export class PathListReader {
         ? grandTotalNote(sink.origin[total], sink.ownSize[total])
         : undefined;
     if (grandTotal) sink.truncate(total);
-    const totals =
-      sink.hasSizes && folderTotals({ ...placed, length: sink.length }, root, placer, this.folderSizes);
+    const folders = sink.hasSizes
+      ? folderTotals({ ...placed, length: sink.length }, root, placer, this.folderSizes)
+      : undefined;
+    const totals = folders?.totals === true;
     // Two lines with as many commas, too few to refuse (above): a CSV table's header and one row read
     // so, as two paths; read as paths, but said.
     const csvLike =
@@ -281,11 +283,12 @@ export class PathListReader {
       sizeUnit: "bytes",
       ...(totals ? { folderTotals: true } : {}),
       ...(start ? { rootIsStart: true } : {}),
-      ...(csvLike || grandTotal
+      ...(csvLike || grandTotal || folders?.note
         ? {
             notes: [
               ...(csvLike ? [commasNote(this.firstLine, this.commas, this.firstCells)] : []),
               ...(grandTotal ? [grandTotal] : []),
+              ...(folders?.note ? [folders.note] : []),
             ],
           }
         : {}),
