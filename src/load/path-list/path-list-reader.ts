@@ -14,7 +14,7 @@ import { checkReadingOptions } from "../reading-options.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { WrittenPaths } from "../written-paths.js";
 import { type FolderSizes, folderTotals, type PlacedSizes } from "./folder-totals.js";
-import { grandTotalNote, isGrandTotal, TOTAL_NAME } from "./grand-total.js";
+import { grandTotalNote, isGrandTotal, likeTotalNote, TOTAL_NAMES } from "./grand-total.js";
 import { headerLineHint } from "./header-line-hint.js";
 import { columnsAlignedMessage } from "./process-columns.js";
 
@@ -262,11 +262,19 @@ export class PathListReader {
       pathOf: (i) => pathOf(sink, i, root),
     };
     // `du -abc` and `wc -c` end with the grand total: read as a file named total, it doubles the size.
+    // A word du prints in no catalog read (no "." in it, as a file's name has, and two lines before
+    // it at least, so two equal sizes are no total) is kept as an entry, and said.
+    const lastName = sink.hasSizes && root === -1 ? sink.name.get(total) : "";
+    const known = TOTAL_NAMES.has(lastName);
+    const sumLine =
+      (known || (lastName !== "" && !lastName.includes(".") && total >= 2)) && isGrandTotal(placed, total);
     const grandTotal =
-      sink.hasSizes && root === -1 && sink.name.get(total) === TOTAL_NAME && isGrandTotal(placed, total)
-        ? grandTotalNote(sink.origin[total], sink.ownSize[total])
-        : undefined;
-    if (grandTotal) sink.truncate(total);
+      sumLine && known
+        ? grandTotalNote(sink.origin[total], sink.ownSize[total], lastName)
+        : sumLine
+          ? likeTotalNote(sink.origin[total], sink.ownSize[total], lastName)
+          : undefined;
+    if (sumLine && known) sink.truncate(total);
     const folders = sink.hasSizes
       ? folderTotals({ ...placed, length: sink.length }, root, placer, this.folderSizes)
       : undefined;
