@@ -197,9 +197,9 @@ describe("folder totals on random trees", () => {
         name: fc.constantFrom("tide", "reef", "chart", "buoy", "gull"),
         own: fc.integer({ min: 0, max: 5000 }),
         blocks: fc.integer({ min: 1, max: 3 }),
-        kids: d > 1 ? fc.array(onDisk(d - 1), { maxLength: 4 }) : fc.constant([]),
+        kids: d > 1 ? fc.array(onDisk(d - 1), { maxLength: 4 }) : fc.constant<Entry[]>([]),
       })
-      .map(({ blocks, ...e }) => (e.kids.length > 0 ? { ...e, own: 4096 * blocks } : e)),
+      .map(({ blocks, ...e }): Entry => (e.kids.length > 0 ? { ...e, own: 4096 * blocks } : e)),
   );
   const byPath = (lines: string[]) =>
     [...lines].sort((a, b) => (a.split("\t")[1] < b.split("\t")[1] ? -1 : 1));
