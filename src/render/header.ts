@@ -313,7 +313,7 @@ function unnamedText({ unnamed, unnamedOnly }: HeaderOptions, style: HeaderStyle
 
 /** `3 short rows filled` (a diff: `3 -> 0 short rows filled`); empty when none was. */
 function filledText({ filledRows }: HeaderOptions, style: HeaderStyle): string {
-  if (!filledRows || !filledRows.some((n) => n > 0)) return "";
+  if (!filledRows?.some((n) => n > 0)) return "";
   const last = filledRows[filledRows.length - 1];
   const counts = filledRows.map((n) => formatCount(n)).join(" -> ");
   return style.words(`${counts} short ${filledRows.length === 1 && last === 1 ? "row" : "rows"} filled`);

@@ -84,17 +84,21 @@ describe("keyLine(kind, facts, width)", () => {
     );
   });
 
-  it("says less rather than wrap: the numbers shorter, then no pointer, then only the marks, cut last", () => {
+  it("says less rather than wrap: no pointer, then every part in fewer words, then fewer parts, cut last", () => {
     const facts = { marks: new Set([MARK.focus, MARK.path, MARK.other]), chains: true };
     const full = keyLine("summary", facts);
     expect(full).toBe(
       "key: '*' a focus, ':' on the way to a focus, '.' other; N nodes and a size: the node with all below it; a / b: b is a's only child; --legend explains more",
     );
+    // What is on screen (a chain) is said before the pointer to --legend, in fewer words first.
     expect(keyLine("summary", facts, 110)).toBe(
-      "key: '*' a focus, ':' on the way to a focus, '.' other; totals include all below; --legend explains more",
+      "key: '*' a focus, ':' on the way to a focus, '.' other; totals include all below; a / b: only child",
     );
     expect(keyLine("summary", facts, 80)).toBe(
-      "key: '*' a focus, ':' on the way to a focus, '.' other; totals include all below",
+      "key: '*' focus, ':' on path, '.' other; totals: all below; a / b: only child",
+    );
+    expect(keyLine("summary", facts, 70)).toBe(
+      "key: '*' focus, ':' above a focus, '.' other; totals include all below",
     );
     // Narrower: each mark in fewest words, so every mark keeps its meaning and the sizes theirs
     // (60 columns: the narrowest a one-line key is printed at, see keyLines).
@@ -106,6 +110,15 @@ describe("keyLine(kind, facts, width)", () => {
     for (let width = MIN_WIDTH; width <= 200; width++)
       for (const kind of ["summary", "diff"] as const)
         expect(displayWidth(keyLine(kind, facts, width))).toBeLessThanOrEqual(width);
+  });
+
+  it("says a cut name in fewest words rather than leave it unsaid (field test: an org chart at 60 columns)", () => {
+    // The old key kept "':' above a focus" and dropped "'…' cut" although both fitted in fewer words.
+    const facts = { marks: new Set([MARK.focus, MARK.path]), chains: false, namesCut: true };
+    expect(keyLine("summary", facts, 60)).toBe("key: '*' focus, ':' on path; totals: all below; '…' cut");
+    expect(keyLine("summary", facts, 80)).toBe(
+      "key: '*' focus, ':' above a focus; totals include all below; '…' cut name",
+    );
   });
 
   it("speaks of counts only when the input has no sizes", () => {
