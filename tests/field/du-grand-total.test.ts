@@ -129,17 +129,20 @@ describe.skipIf(!isGnuDu || languages.length === 0)(
 
 describe("a last line in a word no catalog gives, whose size is the others' sum", () => {
   it("is read as an entry, and a LAST_LINE_LIKE_TOTAL note says it may be a total", async () => {
-    const listing = "120\tledger.csv\n30\tnotes.txt\n150\tsumma\n";
+    const sizes = [120, 30, 7, 1, 2, 3, 4, 5];
+    const files = sizes.map((size, k) => `${size}\tledger/${k}.csv\n`).join("");
+    const listing = `${files}${sizes.reduce((a, b) => a + b)}\tsumma\n`;
     const result = await cli(["-", "--format", "json"], { stdin: listing });
     const doc = JSON.parse(result.stdout);
-    expect(doc.totals.size).toBe(300);
-    expect(doc.input.notes).toEqual([expect.objectContaining({ code: "LAST_LINE_LIKE_TOTAL", line: 3 })]);
+    expect(doc.totals.size).toBe(2 * 172);
+    expect(doc.input.notes).toEqual([expect.objectContaining({ code: "LAST_LINE_LIKE_TOTAL", line: 9 })]);
     const text = await cli(["-", "--budget", "6"], { stdin: listing });
-    expect(text.stdout.split("\n")[0]).toContain("; line 3 may be a grand total, counted; ");
+    expect(text.stdout.split("\n")[0]).toContain("; line 9 may be a grand total, counted; ");
   });
 
-  it("says nothing of two equal sizes, or of a last name with a dot (a file joined from the others)", async () => {
-    for (const listing of ["5\ta\n5\tb\n", "120\tpart1\n30\tpart2\n150\twhole.bin\n"]) {
+  it("says nothing of a few lines that add up, or of a last name with a dot (a file joined from the others)", async () => {
+    const parts = "120\tp1\n30\tp2\n1\tp3\n1\tp4\n1\tp5\n1\tp6\n1\tp7\n1\tp8\n";
+    for (const listing of ["5\ta\n5\tb\n", "1\ta/x\n2\ta/y\n3\tb\n", `${parts}156\twhole.bin\n`]) {
       const doc = JSON.parse((await cli(["-", "--format", "json"], { stdin: listing })).stdout);
       expect(doc.input.notes).toBeUndefined();
     }

@@ -79,6 +79,12 @@ export function grandTotalNote(line: number, size: number, name: string): Readin
 }
 
 /**
+ * Nodes before a last line in an unknown word that may make it a grand total: three lines add up so by
+ * chance ('1 a/x', '2 a/y', '3 b', the package test's listing), eight rarely.
+ */
+export const LIKE_TOTAL_EVIDENCE = 8;
+
+/**
  * LAST_LINE_LIKE_TOTAL: the last line names a top-level entry, in a word espalier does not know as
  * du's, whose size is what the other lines add up to, as a grand total in another language (or a
  * catalog newer than the one read) would be: read as a file, and said, since a total doubles the size.

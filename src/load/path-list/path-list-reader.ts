@@ -14,7 +14,13 @@ import { checkReadingOptions } from "../reading-options.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { WrittenPaths } from "../written-paths.js";
 import { type FolderSizes, folderTotals, type PlacedSizes } from "./folder-totals.js";
-import { grandTotalNote, isGrandTotal, likeTotalNote, TOTAL_NAMES } from "./grand-total.js";
+import {
+  grandTotalNote,
+  isGrandTotal,
+  LIKE_TOTAL_EVIDENCE,
+  likeTotalNote,
+  TOTAL_NAMES,
+} from "./grand-total.js";
 import { headerLineHint } from "./header-line-hint.js";
 import { columnsAlignedMessage } from "./process-columns.js";
 
@@ -262,12 +268,13 @@ export class PathListReader {
       pathOf: (i) => pathOf(sink, i, root),
     };
     // `du -abc` and `wc -c` end with the grand total: read as a file named total, it doubles the size.
-    // A word du prints in no catalog read (no "." in it, as a file's name has, and two lines before
-    // it at least, so two equal sizes are no total) is kept as an entry, and said.
+    // A word in no catalog read (no "." in it, as a file's name has, and 8 lines at least before it:
+    // '1 a/x', '2 a/y', '3 b' adds up so by chance) is kept as an entry, and said.
     const lastName = sink.hasSizes && root === -1 ? sink.name.get(total) : "";
     const known = TOTAL_NAMES.has(lastName);
     const sumLine =
-      (known || (lastName !== "" && !lastName.includes(".") && total >= 2)) && isGrandTotal(placed, total);
+      (known || (lastName !== "" && !lastName.includes(".") && total >= LIKE_TOTAL_EVIDENCE)) &&
+      isGrandTotal(placed, total);
     const grandTotal =
       sumLine && known
         ? grandTotalNote(sink.origin[total], sink.ownSize[total], lastName)
