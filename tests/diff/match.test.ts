@@ -34,7 +34,7 @@ function pairsByText(oldTree: Tree, newTree: Tree): { oldToNew: number[]; newToO
   oldIds.forEach((id, o) => {
     if (o > 0 && id !== "") byText.set(id, o);
   });
-  const oldToNew = oldIds.map((_, o) => (o === 0 ? 0 : -1));
+  const oldToNew: number[] = oldIds.map((_, o) => (o === 0 ? 0 : -1));
   const newToOld = newIds.map((id, n) => {
     if (n === 0) return 0;
     const o = id === "" ? undefined : byText.get(id);
