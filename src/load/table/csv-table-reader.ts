@@ -66,8 +66,8 @@ interface Kept extends KeptColumn {
    * their bytes (ByteIdIndex) where they were once compared as strings.
    */
   asText: boolean;
-  /** Of a column of numbers: whether some cell is no plain number (its text in `pool`). */
-  texts?: boolean;
+  /** Of a column of numbers: the rows whose cell is no plain number (its text in `pool`), in order. */
+  textRows?: number[];
   /** A pooled id or name column read against an earlier version's (see EarlierRows), else undefined. */
   earlier?: "id" | "name";
   /** Whether the column may link rows (the id, parent or path column): its cells not UTF-8 are kept as written. */
@@ -305,7 +305,7 @@ export class CsvTableReader implements CsvSink {
       if (value !== undefined) keep.values[row] = value;
       else {
         keep.values[row] = Number.NaN;
-        keep.texts = true;
+        (keep.textRows ??= []).push(row);
         this.pooled(keep, row, bytes, start, end);
       }
     } else if (keep.keeping === Keeping.Pool) {
@@ -408,12 +408,9 @@ export class CsvTableReader implements CsvSink {
         if (row + count > keep.values.length)
           keep.values = grown(keep.values, Math.max(2 * row, row + count));
         keep.values.set(old.values.subarray(from, to), row);
-        if (against.hasTexts[c]) {
-          const texts = old.pool!;
-          for (let k = from; k < to; k++)
-            if (Number.isNaN(old.values[k])) keep.pool!.copyFrom(row + k - from, texts, k);
-          keep.texts = true;
-        }
+        // Only the rows written down as text: a loop over every row copied was most of a run's work.
+        const texts = against.textRows[c];
+        if (texts.length > 0) copyTexts(keep, row - from, old.pool!, texts, from, to);
       } else for (let k = from; k < to; k++) keep.cells.push(old.cells[k]);
     }
     const scanner = this.scanner;
@@ -437,14 +434,14 @@ export class CsvTableReader implements CsvSink {
       (k) => k.written === undefined && (k.pool === null || readableBytes(k.pool) !== null),
     );
     if (!plain || filledRows > 0 || this.fields.shortRows === "fill") return undefined;
-    const hasTexts = this.kept.map((k) => k.texts === true);
+    const textRows = this.kept.map((k) => k.textRows ?? []);
     return keeper.table(
       length,
       this.lines,
       this.delimiter.charCodeAt(0),
       this.header,
       this.kept,
-      hasTexts,
+      textRows,
       limitsOf(this.fields.limits).maxLineBytes,
     );
   }
@@ -587,6 +584,31 @@ function keepSpelledReplacements(keep: Kept, rows: number): void {
 /** An earlier version's ids or names when they are a pool whose bytes spell them all; else null. */
 function readableBytes(names: Names | null | undefined): NamePool | null {
   return names instanceof NamePool && names.byteRuns() !== null ? names : null;
+}
+
+/**
+ * Copies the cells of `texts` (rows of an earlier column of numbers whose cell is text, in order) from
+ * `from` to `to - 1` into `keep`'s pool, each at its row plus `shift`.
+ */
+function copyTexts(
+  keep: Kept,
+  shift: number,
+  pool: NamePool,
+  texts: readonly number[],
+  from: number,
+  to: number,
+): void {
+  let lo = 0;
+  let hi = texts.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (texts[mid] < from) lo = mid + 1;
+    else hi = mid;
+  }
+  for (let k = lo; k < texts.length && texts[k] < to; k++) {
+    keep.pool!.copyFrom(texts[k] + shift, pool, texts[k]);
+    (keep.textRows ??= []).push(texts[k] + shift);
+  }
 }
 
 /** A kept column of numbers as the table gives it. */
