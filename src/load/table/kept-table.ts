@@ -46,6 +46,9 @@ export class KeptTable {
     readonly endLine: number,
     readonly delimiter: number,
     readonly header: readonly string[],
+    /** The line the header starts on, and the column (1-based, UTF-16 units) of each of its cells. */
+    readonly headerLine: number,
+    readonly headerColumns: readonly number[],
     readonly columns: readonly KeptColumn[],
     /** The rows (in order) whose cell is no plain number, by column (of numbers; empty for others). */
     readonly textRows: readonly (readonly number[])[],
@@ -61,6 +64,18 @@ export class KeptTable {
   release(): void {
     releaseMemory(this.bytes.buffer);
     releaseMemory(this.start.buffer);
+  }
+
+  /**
+   * Whether an input whose first bytes are `bytes[0, n)` begins with this table's bytes before its first
+   * row (a byte order mark, the header, blank lines) and ends them as this table did: the byte after
+   * them is there and, after a carriage return, the same (a line feed or not).
+   */
+  startsAs(bytes: Uint8Array, n: number): boolean {
+    if (this.rows === 0) return false;
+    const end = this.start[0];
+    if (end >= n || Buffer.compare(this.bytes.subarray(0, end), bytes.subarray(0, end)) !== 0) return false;
+    return this.bytes[end - 1] === LF || this.bytes[end] === bytes[end];
   }
 
   /** The line row `r` (from 0; `rows` for the end) starts on. */
@@ -211,6 +226,8 @@ export class TableKeeper {
     lines: RowLines,
     delimiter: number,
     header: readonly string[],
+    headerLine: number,
+    headerColumns: readonly number[],
     columns: readonly KeptColumn[],
     textRows: readonly (readonly number[])[],
     maxLineBytes: number,
@@ -227,6 +244,8 @@ export class TableKeeper {
       this.endLine,
       delimiter,
       header,
+      headerLine,
+      headerColumns,
       columns,
       textRows,
       maxLineBytes,
