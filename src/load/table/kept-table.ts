@@ -91,30 +91,40 @@ export class KeptTable {
   rowsRepeated(bytes: Uint8Array, p: number, n: number, r: number, most: number): number {
     const start = this.start;
     const old = this.bytes;
-    const shift = p - start[r];
     const last = Math.min(this.rows, r + most);
-    // Whole rows compared a group at a time by Buffer.compare (native code: nothing for the engine to
-    // compile, where a loop over bytes was compiled in every diff; docs/performance.md), the group
-    // doubling while its rows repeat and halving where they do not, down to one row.
-    let k = r;
-    for (let group = 1; group > 0 && k < last; ) {
+    if (r >= last) return r;
+    const shift = p - start[r];
+    // The first row byte by byte: a look that finds nothing mostly ends there, with no call out.
+    const firstEnd = start[r + 1];
+    if (firstEnd + shift > n) return r;
+    for (let i = start[r]; i < firstEnd; i++) if (old[i] !== bytes[i + shift]) return r;
+    // Then whole rows a group at a time in native code (Buffer.compare, where a loop over every byte
+    // was compiled in every diff; docs/performance.md), the group doubling while its rows repeat and
+    // halving where they do not, down to one row.
+    let k = r + 1;
+    for (let group = 2; group > 0 && k < last; ) {
       const to = Math.min(last, k + group);
       const end = start[to] + shift;
-      if (
-        end <= n &&
-        Buffer.compare(old.subarray(start[k], start[to]), bytes.subarray(start[k] + shift, end)) === 0
-      ) {
+      if (end <= n && sameBytes(old, start[k], start[to], bytes, start[k] + shift)) {
         k = to;
         group *= 2;
       } else group >>>= 1;
     }
     // The last row's end, when no line feed: settled by the byte after it, repeated too.
-    if (k > r && old[start[k] - 1] !== LF) {
+    if (old[start[k] - 1] !== LF) {
       const after = start[k] + shift;
       if (k === this.rows || after >= n || old[start[k]] !== bytes[after]) k--;
     }
     return k;
   }
+}
+
+/** Whether `a[from, to)` are the bytes of `b` from `at` on (which has them all), compared in native code. */
+function sameBytes(a: Uint8Array, from: number, to: number, b: Uint8Array, at: number): boolean {
+  // Views made by the typed array constructor: a Buffer's own subarray is JavaScript, and slower.
+  const x = new Uint8Array(a.buffer, a.byteOffset + from, to - from);
+  const y = new Uint8Array(b.buffer, b.byteOffset + at, to - from);
+  return Buffer.compare(x, y) === 0;
 }
 
 /**
