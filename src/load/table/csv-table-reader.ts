@@ -313,7 +313,7 @@ export class CsvTableReader implements CsvSink {
       if (value !== undefined) keep.values[row] = value;
       else {
         keep.values[row] = Number.NaN;
-        (keep.textRows ??= []).push(row);
+        textRow(keep, row);
         this.pooled(keep, row, bytes, start, end);
       }
     } else if (keep.keeping === Keeping.Pool) {
@@ -666,8 +666,14 @@ function copyTexts(
   }
   for (let k = lo; k < texts.length && texts[k] < to; k++) {
     keep.pool!.copyFrom(texts[k] + shift, pool, texts[k]);
-    (keep.textRows ??= []).push(texts[k] + shift);
+    textRow(keep, texts[k] + shift);
   }
+}
+
+/** Row `row` of a kept column of numbers is text. */
+function textRow(keep: Kept, row: number): void {
+  keep.textRows ??= [];
+  keep.textRows.push(row);
 }
 
 /** A kept column of numbers as the table gives it. */
