@@ -3,10 +3,12 @@ import { type DiffOptions, prepareDiff, summarizeDiff } from "../diff/diff-trees
 import { defaultComparedFields } from "../diff/field-edits.js";
 import type { CommandOutput } from "./command-output.js";
 import { EXIT } from "./exit-codes.js";
+import { fitToBudget } from "./fit-to-budget.js";
 import { loadVersions, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { DiffCliOptions } from "./options.js";
 import {
+  budgetLines,
   comparedSaid,
   defaultBudget,
   headerLinesFor,
@@ -54,20 +56,24 @@ async function diffOutput(
     siblingOrder: opts.siblingOrder,
     unmatchedFoci: opts.unmatchedFoci,
   };
-  const first = summarizeDiff(prepared, options);
-  const { tree } = first.combined;
+  const { tree } = prepared.combined;
   const settings = {
     ...outputSettings(opts, io, tree, [oldTree, newTree]),
     compared: comparedSaid(compareFields, [oldTree, newTree]),
   };
-  // A header wider than the line wraps, and the budget counts its lines: fit again with them counted.
-  const extra = diffHeaderRows(first, settings, tree) - 1;
-  const result =
-    extra > 0
-      ? summarizeDiff(prepared, { ...options, headerLines: (options.headerLines ?? 1) + extra })
-      : first;
+  // A header wider than the line wraps, and the budget counts its lines: fitted with them counted.
+  const { result, keyLeftOut } = fitToBudget(
+    {
+      fit: (budget, before, spare) =>
+        summarizeDiff(prepared, { ...options, budget, headerLines: before, spareLines: spare }),
+      headerRows: (r, budget, left) => diffHeaderRows(r, { ...settings, budget, keyLeftOut: left }, tree),
+      ...budgetLines(opts, "diff", io),
+      canGrow: true,
+    },
+    options.budget,
+  );
   if (result.unmatchedFoci.length > 0) io.stderr.write(unmatchedWarning(result.unmatchedFoci));
-  const text = await diffRenderers[opts.format](result, settings, tree);
+  const text = await diffRenderers[opts.format](result, { ...settings, keyLeftOut }, tree);
   const differ = totalChanges(result.totals.changes) > 0;
   return { text, exitCode: opts.failOnChange && differ ? EXIT.differences : EXIT.ok };
 }

@@ -2,7 +2,7 @@ import { EspalierError } from "../errors.js";
 import { type NoteFact, noteFact, type ShownNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
-import type { HeaderReading, ListedReading, VersionReading } from "../render/header.js";
+import type { HeaderReading, KeyLeftOut, ListedReading, VersionReading } from "../render/header.js";
 import { KEY_MIN_BUDGET, keyRows } from "../render/key-line.js";
 import { MIN_WIDTH } from "../render/line-layout.js";
 import { legendLines } from "../render/marks.js";
@@ -60,6 +60,8 @@ export interface OutputSettings {
   rolledUpRows: readonly number[] | undefined;
   /** A diff's compared record fields (see `HeaderOptions.compared`); undefined for a summary. */
   compared?: readonly string[];
+  /** The key was asked for but left out of the fit (see `HeaderOptions.keyLeftOut`); set after the fit. */
+  keyLeftOut?: KeyLeftOut;
 }
 
 /**
@@ -196,6 +198,23 @@ function readingOfVersion(opts: SharedCliOptions, tree: Tree): VersionReading | 
 export function headerLinesFor(opts: SharedCliOptions, kind: "summary" | "diff", io: CliIO): number {
   const legend = opts.legend ? legendLines(kind, opts.width ?? defaultWidth(io)).length : 0;
   return (opts.bare ? 0 : 1) + legend + keyRowsFor(opts, io);
+}
+
+/**
+ * How a run's lines before the tree are counted at any budget (see `BudgetFit`): the legend's lines,
+ * whether a header is printed, the key's rows at a budget, and whether a key is asked for at all.
+ */
+export function budgetLines(
+  opts: SharedCliOptions,
+  kind: "summary" | "diff",
+  io: CliIO,
+): { fixed: number; header: boolean; keyRows: (budget: number) => number; keyWanted: boolean } {
+  return {
+    fixed: opts.legend ? legendLines(kind, opts.width ?? defaultWidth(io)).length : 0,
+    header: !opts.bare,
+    keyRows: (budget) => keyRowsFor({ ...opts, budget }, io),
+    keyWanted: opts.key && !opts.bare && !opts.legend,
+  };
 }
 
 /**

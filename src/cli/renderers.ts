@@ -59,7 +59,8 @@ export const summaryRenderers: Record<OutputFormat, Renderer<SummaryResult>> = {
     }),
   svg: async (result, s, tree) => {
     const { renderSvg, svgWidth } = await import("../render/icicle-svg.js");
-    const header = headerOf(result, s);
+    // A picture has no key line to leave out (its legend is its own).
+    const header = headerOf(result, { ...s, keyLeftOut: undefined });
     const numbers = { units: s.units, sizes: tree.hasSizes, share: s.share };
     return renderSvg(result.view, {
       units: s.units,
@@ -100,7 +101,7 @@ export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
       import("../render/icicle-svg.js"),
       import("../render/diff-line-parts.js"),
     ]);
-    const lines = diffLines(result, s, tree.hasSizes);
+    const lines = diffLines(result, { ...s, keyLeftOut: undefined }, tree.hasSizes);
     return renderSvg(result.view, {
       units: s.units,
       sizes: tree.hasSizes,
@@ -172,6 +173,7 @@ function headerOf<T extends ViewNode>(
     lines: result.selection.lines,
     foci: fociOf(result.view),
     ...(result.unmatchedFoci.length > 0 ? { skippedFoci: result.unmatchedFoci.length } : {}),
+    ...(s.keyLeftOut === undefined ? {} : { keyLeftOut: s.keyLeftOut }),
     ...inputFacts(s),
   };
 }

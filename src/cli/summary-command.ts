@@ -2,10 +2,12 @@ import { EspalierError } from "../errors.js";
 import type { Tree } from "../model/tree.js";
 import { prepare, type SummarizeOptions, type SummaryResult, summarize } from "../summarize.js";
 import { isFactInput, summarizeFactInput } from "./fact-input.js";
+import { fitToBudget } from "./fit-to-budget.js";
 import { displayName, loadInput, pseudonymKey, readFoci, rootNameOf, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { SharedCliOptions, SummaryCliOptions } from "./options.js";
 import {
+  budgetLines,
   defaultBudget,
   headerLinesFor,
   keyRowsFor,
@@ -37,35 +39,44 @@ async function summaryText(input: string, opts: SummaryCliOptions, io: CliIO): P
     spareLines: keyRowsFor(opts, io),
     siblingOrder: opts.siblingOrder,
   };
-  const { tree, result: first, again } = await summarizeInput(io, input, opts, options);
+  const { tree, fit, canGrow } = await summarizeInput(io, input, opts, options);
   const settings = outputSettings(opts, io, tree);
-  // A header wider than the line wraps, and the budget counts its lines: fit again with them counted.
-  const extra = summaryHeaderRows(first, settings, tree) - 1;
-  const result = extra > 0 ? again({ ...options, headerLines: (options.headerLines ?? 1) + extra }) : first;
+  // A header wider than the line wraps, and the budget counts its lines: fitted with them counted.
+  const { result, keyLeftOut } = fitToBudget(
+    {
+      fit: (budget, before, spare) => fit({ ...options, budget, headerLines: before, spareLines: spare }),
+      headerRows: (r, budget, left) => summaryHeaderRows(r, { ...settings, budget, keyLeftOut: left }, tree),
+      ...budgetLines(opts, "summary", io),
+      canGrow,
+    },
+    options.budget,
+  );
   if (result.unmatchedFoci.length > 0) io.stderr.write(unmatchedWarning(result.unmatchedFoci));
-  return summaryRenderers[opts.format](result, settings, tree);
+  return summaryRenderers[opts.format](result, { ...settings, keyLeftOut }, tree);
 }
 
 /**
- * Loads and summarises one input, and says how to fit it again (with other options). A fact table is summarised as it is fetched: only as deep as the
- * summary reaches (see fact-input.ts); any other input is loaded whole, then summarised.
+ * Loads one input and says how to fit it (with any options): a fact table is summarised as it is
+ * fetched, only as deep as the summary reaches (see fact-input.ts), so its fits may not grow past
+ * the budget asked (`canGrow`); any other input is loaded whole, and fits at any budget.
  */
 async function summarizeInput(
   io: CliIO,
   input: string,
   opts: SharedCliOptions,
   options: SummarizeOptions,
-): Promise<{ tree: Tree; result: SummaryResult; again: (o: SummarizeOptions) => SummaryResult }> {
+): Promise<{ tree: Tree; fit: (o: SummarizeOptions) => SummaryResult; canGrow: boolean }> {
   if (!isFactInput(opts)) {
     const tree = await loadInput(io, input, opts);
     const prepared = prepare(tree);
-    return { tree, result: summarize(prepared, options), again: (o) => summarize(prepared, o) };
+    return { tree, fit: (o) => summarize(prepared, o), canGrow: true };
   }
   try {
     // A fact table's tree holds every node a fit of `options.budget` lines shows, so every fit of
     // fewer lines too (a fit is a prefix of one best-first order).
-    const { tree, result } = await summarizeFactInput(input, opts, options, rootNameOf(input));
-    return { tree, result, again: (o) => summarize(prepare(tree), o) };
+    const { tree } = await summarizeFactInput(input, opts, options, rootNameOf(input));
+    const prepared = prepare(tree);
+    return { tree, fit: (o) => summarize(prepared, o), canGrow: false };
   } catch (err) {
     throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
   }

@@ -165,7 +165,7 @@ export function summarizeDiff(prepared: PreparedDiff, options: DiffOptions): Dif
   const names = printedNames(tree, index, key);
   // The old version's path index is built only when a shown node moved.
   const old = printedNames(oldTree, () => prepared.oldIndex(), key);
-  const label = compileLabel(options.label ?? "{name}", tree, names);
+  const label = compileLabel(options.label, tree, names);
   let view = buildDiffView({
     index,
     combined,

@@ -41,8 +41,11 @@ export interface ReadingNote {
  * holds aliases, each a leaf of its own text (`*base`), not the value it names (load/yaml-values.ts).
  * `SIZES_LIKE_TOTALS`: node objects or rows whose every node with children is at least as big as its
  * children add up to, as sizes that include the children's are, read as own sizes
- * (load/size-totals.ts). `TOTAL_LINE_LEFT_OUT`: a path list's last line `SIZE<TAB>total` that gives
+ * (load/size-totals.ts); or a path list so, in an order and with sizes that do not settle it
+ * (path-list/folder-totals.ts). `TOTAL_LINE_LEFT_OUT`: a path list's last line `SIZE<TAB>total` that gives
  * what the other lines add up to, as `du -c` ends its listing, left out (path-list/grand-total.ts).
+ * `LAST_LINE_LIKE_TOTAL`: such a last line in a word that is no translation of du's "total" espalier
+ * knows, read as an entry (path-list/grand-total.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -56,6 +59,7 @@ export const readingNoteCodes = [
   "ALIASES_AS_TEXT",
   "SIZES_LIKE_TOTALS",
   "TOTAL_LINE_LEFT_OUT",
+  "LAST_LINE_LIKE_TOTAL",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

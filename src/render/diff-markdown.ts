@@ -6,6 +6,7 @@ import type { DiffTextOptions } from "./diff-text.js";
 import { diffHeader, markdownHeaderStyle } from "./header.js";
 import { lineGroups } from "./line-groups.js";
 import { markdownDocument } from "./markdown-line.js";
+import { keyRiding } from "./summary-text.js";
 
 /**
  * A diff as CommonMark: the header as a paragraph, then one list item per line of the text rendering
@@ -17,8 +18,8 @@ export function renderDiffMarkdown(
   totals: DiffTotals,
   options: DiffTextOptions,
 ): string {
-  const head =
-    options.header && diffHeader(totals, options.by, options.header, options, undefined, markdownHeaderStyle);
-  const parts = lineGroups(view, options.chains ?? false).map((group) => diffLineParts(group, options));
-  return markdownDocument(head, parts, "diff", options);
+  const said = keyRiding({ ...options, width: undefined });
+  const head = said.header && diffHeader(totals, said.by, said.header, said, undefined, markdownHeaderStyle);
+  const parts = lineGroups(view, said.chains ?? false).map((group) => diffLineParts(group, said));
+  return markdownDocument(head, parts, "diff", said);
 }

@@ -7,7 +7,7 @@ import { diffHeaderLines, type HeaderOptions } from "./header.js";
 import { lineGroups } from "./line-groups.js";
 import type { Palette } from "./palette.js";
 import { screenLines } from "./screen-lines.js";
-import { checkWidth, headLines, keyCheck } from "./summary-text.js";
+import { checkWidth, headLines, keyCheck, keyRiding } from "./summary-text.js";
 
 export interface DiffTextOptions extends NumberOptions {
   /** How nodes were matched, named on the header. */
@@ -39,15 +39,16 @@ export function renderDiffText(
   options: DiffTextOptions,
 ): string {
   checkWidth(options.width);
+  const said = keyRiding(options);
   const screen = screenLines(
     lineGroups(view, options.chains ?? false),
     diffLineParts,
-    options,
-    keyCheck(options, "diff"),
+    said,
+    keyCheck(said, "diff"),
   );
   const lines = headLines(
-    options,
-    (w) => diffHeaderLines(totals, options.by, options.header!, options, w),
+    said,
+    (w) => diffHeaderLines(totals, said.by, said.header!, said, w),
     "diff",
     screen,
   );

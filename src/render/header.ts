@@ -88,6 +88,17 @@ export interface HeaderOptions {
    * were read even where standard error, which has the whole note, is not kept.
    */
   notes?: readonly NoteFact[];
+  /**
+   * The key was asked for but the budget has no room for it beside the root and the focus paths (or
+   * is under `KEY_MIN_BUDGET`): the header says so, and names the smallest budget that prints it
+   * (`key left out: --budget 19 has room`), so a screen whose marks go unexplained says where to look.
+   */
+  keyLeftOut?: KeyLeftOut;
+}
+
+/** See `HeaderOptions.keyLeftOut`: the smallest budget that prints the key, when one was found. */
+export interface KeyLeftOut {
+  readonly budget: number | undefined;
 }
 
 /** What a header says of its inputs beside the budget, the lines and the foci (see `HeaderOptions`). */
@@ -176,7 +187,7 @@ function summaryParts(
   if (options.sizes)
     totals += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(root.size, options.units)}`)}`;
   const read = readingParts(header, style);
-  return (k, h) => [totals, ...read, fociText(header, k, style), w(used(h))];
+  return (k, h) => [totals, ...read, fociText(header, k, style), ...keyText(h, style), w(used(h))];
 }
 
 /**
@@ -236,7 +247,14 @@ function diffParts(
     counts += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(totals.old.size, units)} -> ${formatSize(totals.new.size, units)} (net ${net})`)}`;
   }
   const read = readingParts(header, style);
-  return (k, h) => [w(`diff by ${by}: ${kinds}`), counts, ...read, fociText(header, k, style), w(used(h))];
+  return (k, h) => [
+    w(`diff by ${by}: ${kinds}`),
+    counts,
+    ...read,
+    fociText(header, k, style),
+    ...keyText(h, style),
+    w(used(h)),
+  ];
 }
 
 /** ` (compared: version, team)`, ` (no field compared)`, or nothing (see `HeaderOptions.compared`). */
@@ -313,7 +331,7 @@ function unnamedText({ unnamed, unnamedOnly }: HeaderOptions, style: HeaderStyle
 
 /** `3 short rows filled` (a diff: `3 -> 0 short rows filled`); empty when none was. */
 function filledText({ filledRows }: HeaderOptions, style: HeaderStyle): string {
-  if (!filledRows || !filledRows.some((n) => n > 0)) return "";
+  if (!filledRows?.some((n) => n > 0)) return "";
   const last = filledRows[filledRows.length - 1];
   const counts = filledRows.map((n) => formatCount(n)).join(" -> ");
   return style.words(`${counts} short ${filledRows.length === 1 && last === 1 ? "row" : "rows"} filled`);
@@ -335,6 +353,13 @@ function readingText(reading: VersionReading | ListedReading, style: HeaderStyle
   const field = style.name(safeText(reading.field, 40));
   if (reading.kind === "children") return `${w("children under ")}${field}`;
   return reading.field === "" ? w("paths from keys") : `${w("paths from ")}${field}`;
+}
+
+/** `key left out: --budget 19 has room` (see `HeaderOptions.keyLeftOut`); nothing when the key is printed. */
+function keyText({ keyLeftOut }: HeaderOptions, style: HeaderStyle): string[] {
+  if (keyLeftOut === undefined) return [];
+  const room = keyLeftOut.budget === undefined ? "too few lines" : `--budget ${keyLeftOut.budget} has room`;
+  return [style.words(`key left out: ${room}`)];
 }
 
 function used(header: HeaderOptions): string {

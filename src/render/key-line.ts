@@ -186,9 +186,10 @@ const ROW_INDENT = "  ";
  * One line under the header that says what the marks on the screen and its numbers mean, so a reader
  * without the docs can read the screen: printed by default (not with `--bare`, `--legend` or
  * `--no-key`, nor for a budget under {@link KEY_MIN_BUDGET}); the budget counts it. One line: within
- * `width` it says less (shorter words for the numbers and for what the width took away, then no chain
- * and no pointer to `--legend`, then only the marks and what the width took away, then the marks in a
- * word or two each, cut at the end), never wraps, so it can be counted before the fit. Below
+ * `width` it says less, everything on screen said in ever fewer words (no pointer to `--legend`, then
+ * shorter words for every part, then the marks in a word or two and every part in its fewest) before
+ * any part is left out (then only the marks and what the width took away, cut at the end), never
+ * wraps, so it can be counted before the fit. Below
  * {@link KEY_ONE_ROW} columns the CLI prints `keyLines` instead.
  */
 export function keyLine(
@@ -209,10 +210,18 @@ export function keyLine(
   const more = moreWords(facts);
   const long = (ps: Explanation[]) => ps.map((p) => p[0]);
   const short = (ps: Explanation[]) => ps.map((p) => p[1]);
+  const least = (ps: Explanation[]) => ps.map((p) => p[2]);
+  // Everything on screen said, in ever fewer words, before anything is left unsaid: the pointer to
+  // --legend goes first, then each thing in shorter words, the marks too; only then do parts go.
+  const every = [...sized, ...cuts, ...chain];
   const tries = [
-    [marks, numbers[0], ...long(sized), ...long(cuts), ...long(chain), more],
+    [marks, numbers[0], ...long(every), more],
     [marks, numbers[1], ...short(sized), ...short(cuts), ...long(chain), more],
-    [marks, numbers[1], ...short(sized), ...short(cuts), more],
+    [marks, numbers[1], ...short(every), more],
+    [marks, numbers[1], ...short(every)],
+    [compact, numbers[1], ...short(every)],
+    [compact, numbers[2], ...least(every)],
+    [tiny, numbers[2], ...least(every)],
     [marks, numbers[1], ...short(sized), ...short(cuts)],
     [marks, ...must, ...short(cuts)],
     // A narrow terminal: each mark in a word or two, so all of them fit before any is cut.
@@ -222,13 +231,13 @@ export function keyLine(
   for (let n = cuts.length - 1; n >= 0; n--) tries.push([compact, ...must, ...short(cuts.slice(0, n))]);
   // Fewer letters still for the marks, and what no sum on screen can do without said in fewest words.
   const depth = depthWords(rest);
-  const least = [
+  const fewest = [
     ...(facts.sizesLeftOut ? [SIZES_GONE] : []),
     ...(facts.sizesCut ? [SIZE_CUT_LEAST] : []),
     ...depth,
   ];
-  const vitalLeast = [...(facts.sizes === false ? [] : [numbers[2]]), ...least];
-  tries.push([tiny, ...must], [tiny, ...vitalLeast], [tiny, ...least]);
+  const vitalLeast = [...(facts.sizes === false ? [] : [numbers[2]]), ...fewest];
+  tries.push([tiny, ...must], [tiny, ...vitalLeast], [tiny, ...fewest]);
   if (depth.length > 0) tries.push([tiny, ...depth]);
   for (const parts of tries) {
     const text = `key: ${parts.filter((part) => part !== "").join("; ")}`;

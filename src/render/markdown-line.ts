@@ -38,15 +38,19 @@ export function markdownDocument(
   header: string | undefined,
   parts: readonly LineParts[],
   kind: "summary" | "diff",
-  options: { legend?: boolean; key?: boolean; sizes?: boolean; header?: HeaderOptions },
+  options: { legend?: boolean; key?: boolean; keyRides?: boolean; sizes?: boolean; header?: HeaderOptions },
 ): string {
   // The legend and the key are espalier's own words, never input: escaped for Markdown, never cut as a long name is.
+  const key = () =>
+    markdownText(keyLine(kind, keyFacts(parts, keyContext(options)), undefined, "markdown"), false);
+  // A key left out of the fit rides on the header's line (see `keyRiding`): a paragraph has no width.
+  const first = options.keyRides && header ? `${header}; ${key()}` : header;
   const explained = options.legend
-    ? legendLines(kind)
+    ? legendLines(kind).map((l) => markdownText(l, false))
     : options.key
-      ? [keyLine(kind, keyFacts(parts, keyContext(options)), undefined, "markdown")]
+      ? [key()]
       : [];
-  const head = [...(header ? [header] : []), ...explained.map((l) => markdownText(l, false))];
+  const head = [...(first ? [first] : []), ...explained];
   const lines = head.length === 0 ? [] : [...head.map((l, k) => (k < head.length - 1 ? `${l}\\` : l)), ""];
   for (const line of parts) lines.push(markdownLine(line));
   return `${lines.join("\n")}\n`;

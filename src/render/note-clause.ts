@@ -25,6 +25,7 @@ const clauses: Readonly<Record<ReadingNoteCode, Clause>> = {
   ALIASES_AS_TEXT: { counted: ["YAML alias read as text", "YAML aliases read as text"] },
   SIZES_LIKE_TOTALS: { said: () => "sizes may count children twice" },
   TOTAL_LINE_LEFT_OUT: { said: (n) => `line ${formatCount(n.line ?? 1)} read as a grand total, left out` },
+  LAST_LINE_LIKE_TOTAL: { said: (n) => `line ${formatCount(n.line ?? 1)} may be a grand total, counted` },
 };
 
 /**

@@ -5,6 +5,7 @@ import { type HeaderOptions, markdownHeaderStyle, summaryHeader } from "./header
 import { lineGroups } from "./line-groups.js";
 import { lineParts } from "./line-parts.js";
 import { markdownDocument } from "./markdown-line.js";
+import { keyRiding } from "./summary-text.js";
 
 export interface MarkdownOptions extends NumberOptions {
   /** Join an only child that is not a focus onto its parent's line (must match the fit's choice). */
@@ -24,8 +25,8 @@ export interface MarkdownOptions extends NumberOptions {
  * markup, a link or a mention (see `markdownText`).
  */
 export function renderMarkdown(view: HierarchyNode<ViewNode>, options: MarkdownOptions): string {
-  const head =
-    options.header && summaryHeader(view.data, options.header, options, undefined, markdownHeaderStyle);
-  const parts = lineGroups(view, options.chains ?? false).map((group) => lineParts(group, options));
-  return markdownDocument(head, parts, "summary", options);
+  const said = keyRiding({ ...options, width: undefined });
+  const head = said.header && summaryHeader(view.data, said.header, said, undefined, markdownHeaderStyle);
+  const parts = lineGroups(view, said.chains ?? false).map((group) => lineParts(group, said));
+  return markdownDocument(head, parts, "summary", said);
 }

@@ -3,7 +3,7 @@ import { EspalierError } from "../errors.js";
 import type { ViewNode } from "../view/view-node.js";
 import type { NumberOptions } from "./amount.js";
 import { type HeaderOptions, summaryHeaderLines } from "./header.js";
-import { keyContext, keyExplainsSizes, keyFacts, keyLines } from "./key-line.js";
+import { keyContext, keyExplainsSizes, keyFacts, keyLine, keyLines } from "./key-line.js";
 import { lineGroups } from "./line-groups.js";
 import { MIN_WIDTH } from "./line-layout.js";
 import { lineParts } from "./line-parts.js";
@@ -34,15 +34,16 @@ export interface TextOptions extends NumberOptions {
  */
 export function renderText(view: HierarchyNode<ViewNode>, options: TextOptions): string {
   checkWidth(options.width);
+  const said = keyRiding(options);
   const screen = screenLines(
     lineGroups(view, options.chains ?? false),
     lineParts,
-    options,
-    keyCheck(options, "summary"),
+    said,
+    keyCheck(said, "summary"),
   );
   const lines = headLines(
-    options,
-    (w) => summaryHeaderLines(view.data, options.header!, options, w),
+    said,
+    (w) => summaryHeaderLines(view.data, said.header!, said, w),
     "summary",
     screen,
   );
@@ -59,6 +60,7 @@ export function headLines(
     header?: HeaderOptions;
     legend?: boolean;
     key?: boolean;
+    keyRides?: boolean;
     width?: number;
     palette?: Palette;
     sizes?: boolean;
@@ -68,13 +70,27 @@ export function headLines(
   screen: ScreenLines,
 ): string[] {
   const quiet = options.palette?.quiet ?? ((s: string) => s);
-  const lines = options.header ? header(options.width).map(quiet) : [];
-  if (options.legend) for (const line of legendLines(kind, options.width)) lines.push(quiet(line));
-  else if (options.key) {
-    const facts = keyFacts(screen.parts, keyContext(options), screen);
-    for (const line of keyLines(kind, facts, options.width)) lines.push(quiet(line));
-  }
-  return lines;
+  const lines = options.header ? header(options.width) : [];
+  const facts = () => keyFacts(screen.parts, keyContext(options), screen);
+  if (options.keyRides && lines.length > 0)
+    lines[lines.length - 1] += `; ${keyLine(kind, facts(), options.width)}`;
+  else if (options.legend) lines.push(...legendLines(kind, options.width));
+  else if (options.key) lines.push(...keyLines(kind, facts(), options.width));
+  return lines.map(quiet);
+}
+
+/**
+ * The options with the key riding on the header's line (`keyRides`) where the key was left out of
+ * the fit (see `HeaderOptions.keyLeftOut`) but a line has no width to run out of: the key then costs
+ * no line, and the header need not say it was left out. Otherwise the options as they are.
+ */
+export function keyRiding<T extends { header?: HeaderOptions; width?: number; legend?: boolean }>(
+  options: T,
+): T & { keyRides?: boolean } {
+  const { header } = options;
+  if (header?.keyLeftOut === undefined || options.width !== undefined || options.legend) return options;
+  const { keyLeftOut: _, ...rest } = header;
+  return { ...options, header: rest, keyRides: true };
 }
 
 /**
@@ -82,10 +98,17 @@ export function headLines(
  * width did to the sizes of a screen (see `screenLines`); undefined when no key is printed.
  */
 export function keyCheck(
-  options: { key?: boolean; legend?: boolean; width?: number; sizes?: boolean; header?: HeaderOptions },
+  options: {
+    key?: boolean;
+    keyRides?: boolean;
+    legend?: boolean;
+    width?: number;
+    sizes?: boolean;
+    header?: HeaderOptions;
+  },
   kind: "summary" | "diff",
 ): ((screen: ScreenLines) => boolean) | undefined {
-  if (!options.key || options.legend) return undefined;
+  if (!(options.key || options.keyRides) || options.legend) return undefined;
   return (screen) =>
     keyExplainsSizes(kind, keyFacts(screen.parts, keyContext(options), screen), options.width);
 }

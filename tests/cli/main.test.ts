@@ -44,9 +44,14 @@ describe("espalier <input> (summary)", () => {
     expect(r.stderr).toContain("[BUDGET_TOO_SMALL]");
     expect(r.stderr).not.toContain("focus");
     const legend = legendLines("summary", 40).length;
-    // The header (1 line at 40 columns) and the legend, then the root.
-    expect(r.stderr).toContain(`is ${1 + legend + 1}`);
     expect(r.stderr).toContain(`--legend takes ${legend} of those ${1 + legend} lines at 40 columns`);
+    // The budget it names works, and one less does not: at 40 columns the header says `32 of 32 lines`
+    // on a second line, which the first fit (one header line, the legend and the root: 31) did not know.
+    const smallest = Number(/smallest budget that works is (\d+)/.exec(r.stderr)![1]);
+    expect(smallest).toBe(1 + legend + 1 + 1);
+    const env = { COLUMNS: "40" };
+    expect((await cli(["-", "--budget", String(smallest), "--legend"], { stdin, env })).code).toBe(0);
+    expect((await cli(["-", "--budget", String(smallest - 1), "--legend"], { stdin, env })).code).toBe(2);
     const focused = await cli(["-", "--budget", "2", "--focus", "a/x", "--no-chains"], { stdin });
     expect(focused.stderr).toContain("focus paths");
   });

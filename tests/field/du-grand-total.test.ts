@@ -1,5 +1,5 @@
 import { execFileSync } from "node:child_process";
-import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -93,5 +93,58 @@ describe("a last line named total that is no grand total", () => {
     const listing = "10\ttotal\n10\tharbor/a\n";
     const result = await cli(["-", "--format", "json"], { stdin: listing });
     expect(JSON.parse(result.stdout).totals.size).toBe(20);
+  });
+});
+
+// Field tests: du under another language (GNU gettext reads LANGUAGE when the locale is C.UTF-8; du
+// printed "insgesamt" under LANGUAGE=de here) names the grand total line in that language, and
+// espalier read it as a file: /usr/share/doc/git read as 6.1 MiB where du -sb says 3.0 MiB, exit 0.
+// Each language is one whose coreutils message catalog is on this machine; the check is du's total.
+const catalogs = "/usr/share/locale";
+const languages = existsSync(catalogs)
+  ? readdirSync(catalogs).filter((l) => existsSync(join(catalogs, l, "LC_MESSAGES", "coreutils.mo")))
+  : [];
+const inLanguage = (language: string, args: string[]) =>
+  execFileSync("du", args, {
+    cwd: base,
+    encoding: "utf8",
+    env: { ...process.env, LC_ALL: "C.UTF-8", LANGUAGE: language },
+  });
+
+describe.skipIf(!isGnuDu || languages.length === 0)(
+  "a du -c listing's grand total line in another language",
+  () => {
+    it("is left out in every language whose coreutils catalog is here: the size is du's total", async () => {
+      for (const language of languages) {
+        const listing = inLanguage(language, ["-abc", "harbor"]);
+        const result = await cli(["-", "--format", "json"], { stdin: listing });
+        expect(result.code).toBe(0);
+        const doc = JSON.parse(result.stdout);
+        expect({ language, size: doc.totals.size }).toEqual({ language, size: lastSize(listing) });
+        expect(doc.input.notes).toEqual([expect.objectContaining({ code: "TOTAL_LINE_LEFT_OUT" })]);
+      }
+    });
+  },
+);
+
+describe("a last line in a word no catalog gives, whose size is the others' sum", () => {
+  it("is read as an entry, and a LAST_LINE_LIKE_TOTAL note says it may be a total", async () => {
+    const sizes = [120, 30, 7, 1, 2, 3, 4, 5];
+    const files = sizes.map((size, k) => `${size}\tledger/${k}.csv\n`).join("");
+    const listing = `${files}${sizes.reduce((a, b) => a + b)}\tsumma\n`;
+    const result = await cli(["-", "--format", "json"], { stdin: listing });
+    const doc = JSON.parse(result.stdout);
+    expect(doc.totals.size).toBe(2 * 172);
+    expect(doc.input.notes).toEqual([expect.objectContaining({ code: "LAST_LINE_LIKE_TOTAL", line: 9 })]);
+    const text = await cli(["-", "--budget", "6"], { stdin: listing });
+    expect(text.stdout.split("\n")[0]).toContain("; line 9 may be a grand total, counted; ");
+  });
+
+  it("says nothing of a few lines that add up, or of a last name with a dot (a file joined from the others)", async () => {
+    const parts = "120\tp1\n30\tp2\n1\tp3\n1\tp4\n1\tp5\n1\tp6\n1\tp7\n1\tp8\n";
+    for (const listing of ["5\ta\n5\tb\n", "1\ta/x\n2\ta/y\n3\tb\n", `${parts}156\twhole.bin\n`]) {
+      const doc = JSON.parse((await cli(["-", "--format", "json"], { stdin: listing })).stdout);
+      expect(doc.input.notes).toBeUndefined();
+    }
   });
 });

@@ -72,3 +72,34 @@ describe.skipIf(!gnuTools)("a du -ab listing sorted biggest first (sort -rn)", (
     expect(sorted.totals).toEqual((await jsonOf(listing)).totals);
   });
 });
+
+// Field tests: `du -ab DIR | sort -k2` (sorted by path) puts each folder before its contents, as find
+// lists, so it was read as own sizes: /usr/share/doc read as 366.6 MiB where du -sb says 107.2 MiB
+// (112,402,968 B), exit 0, nothing said. The checks are du's own numbers.
+describe.skipIf(!gnuTools)("a du -ab listing sorted by path (sort -k2) or as text (sort)", () => {
+  const duSb = (dir: string) => Number(run("du", ["-sb", dir]).split("\t")[0]);
+
+  it.each([
+    { by: "path", keys: ["-k2"] },
+    { by: "text", keys: [] },
+  ])(
+    "sorted by $by: read as folder totals, the root's size du -sb's, each folder's as du gives it",
+    async ({ keys }) => {
+      const listing = run("sort", keys, run("du", ["-ab", "harbor"]));
+      const doc = await jsonOf(listing);
+      expect(doc.input.folderTotals).toBe(true);
+      expect(doc.totals.size).toBe(duSb("harbor"));
+      const ledger = doc.root.children.find((c: { name: string }) => c.name === "ledger");
+      expect(ledger.size).toBe(duSb("harbor/ledger"));
+      expect(doc.input.notes).toBeUndefined();
+    },
+  );
+
+  it("a find listing sorted by path stays own sizes, its root's size du -sb's too", async () => {
+    const listing = run("sort", ["-k2"], run("find", ["harbor", "-printf", "%s\\t%p\\n"]));
+    const doc = await jsonOf(listing);
+    expect(doc.input.folderTotals).toBeUndefined();
+    expect(doc.input.notes).toBeUndefined();
+    expect(doc.totals.size).toBe(duSb("harbor"));
+  });
+});

@@ -84,17 +84,21 @@ describe("keyLine(kind, facts, width)", () => {
     );
   });
 
-  it("says less rather than wrap: the numbers shorter, then no pointer, then only the marks, cut last", () => {
+  it("says less rather than wrap: no pointer, then every part in fewer words, then fewer parts, cut last", () => {
     const facts = { marks: new Set([MARK.focus, MARK.path, MARK.other]), chains: true };
     const full = keyLine("summary", facts);
     expect(full).toBe(
       "key: '*' a focus, ':' on the way to a focus, '.' other; N nodes and a size: the node with all below it; a / b: b is a's only child; --legend explains more",
     );
+    // What is on screen (a chain) is said before the pointer to --legend, in fewer words first.
     expect(keyLine("summary", facts, 110)).toBe(
-      "key: '*' a focus, ':' on the way to a focus, '.' other; totals include all below; --legend explains more",
+      "key: '*' a focus, ':' on the way to a focus, '.' other; totals include all below; a / b: only child",
     );
     expect(keyLine("summary", facts, 80)).toBe(
-      "key: '*' a focus, ':' on the way to a focus, '.' other; totals include all below",
+      "key: '*' focus, ':' on path, '.' other; totals: all below; a / b: only child",
+    );
+    expect(keyLine("summary", facts, 70)).toBe(
+      "key: '*' focus, ':' above a focus, '.' other; totals include all below",
     );
     // Narrower: each mark in fewest words, so every mark keeps its meaning and the sizes theirs
     // (60 columns: the narrowest a one-line key is printed at, see keyLines).
@@ -106,6 +110,15 @@ describe("keyLine(kind, facts, width)", () => {
     for (let width = MIN_WIDTH; width <= 200; width++)
       for (const kind of ["summary", "diff"] as const)
         expect(displayWidth(keyLine(kind, facts, width))).toBeLessThanOrEqual(width);
+  });
+
+  it("says a cut name in fewest words rather than leave it unsaid (field test: an org chart at 60 columns)", () => {
+    // The old key kept "':' above a focus" and dropped "'…' cut" although both fitted in fewer words.
+    const facts = { marks: new Set([MARK.focus, MARK.path]), chains: false, namesCut: true };
+    expect(keyLine("summary", facts, 60)).toBe("key: '*' focus, ':' on path; totals: all below; '…' cut");
+    expect(keyLine("summary", facts, 80)).toBe(
+      "key: '*' focus, ':' above a focus; totals include all below; '…' cut name",
+    );
   });
 
   it("speaks of counts only when the input has no sizes", () => {
@@ -164,7 +177,7 @@ describe("the key line on the command line", () => {
     expect(lines[0]).toMatch(/; 12 of 12 lines$/);
   });
 
-  it("is left out with --no-key, --bare, --legend and a budget under KEY_MIN_BUDGET lines", async () => {
+  it("is left out with --no-key, --bare, --legend and (its own line) a budget under KEY_MIN_BUDGET lines", async () => {
     const unfocused = org.slice(0, 3);
     for (const args of [
       [...org, "--no-key"],
@@ -175,10 +188,12 @@ describe("the key line on the command line", () => {
       const r = await cli(args);
       expect(r.code, r.stderr).toBe(0);
       expect(r.stdout, args.join(" ")).not.toMatch(/^key: /m);
+      // Asked for not to be printed, it is not said either: neither on the header, nor left out.
+      if (!args.includes("--budget")) expect(r.stdout).not.toMatch(/key: |key left out/);
     }
   });
 
-  it("gives way when the budget is too small for the root and the focus paths with it", async () => {
+  it("gives way when the budget is too small for the root and the focus paths with it, and says so", async () => {
     // A budget of 3 holds the header and the focus path of a two-level tree but not a key too.
     const stdin = "id,parent,name\n1,,Quillfeather\n2,1,Field Service\n3,2,Bench\n";
     const tight = await cli(["-", "--input-format", "csv", "--focus", "3", "--budget", "10", "--no-chains"], {
@@ -194,10 +209,43 @@ describe("the key line on the command line", () => {
     const lines = r.stdout.trimEnd().split("\n");
     expect(lines).toHaveLength(10);
     expect(r.stdout).not.toMatch(/^key: /m);
+    // Without a width the key costs no line on the header's: the marks are still explained.
+    expect(lines[0]).toBe(
+      "summary: 9 nodes; focus 9; 10 of 10 lines; key: '*' a focus, ':' on the way to a focus; N nodes: the node with all below it; --legend explains more",
+    );
+    // Within a width, the header says the key was left out and the smallest budget that prints it,
+    // where it has room for those words; that budget prints the key.
+    const args = ["-", "--input-format", "csv", "--focus", "9", "--no-chains", "--width", "100"];
+    const noted = await cli([...args, "--budget", "10"], { stdin: deep });
+    expect(noted.stdout.split("\n")[0]).toBe(
+      "summary: 9 nodes; focus 9; key left out: --budget 11 has room; 10 of 10 lines",
+    );
+    const room = await cli([...args, "--budget", "11"], { stdin: deep });
+    expect(room.stdout.split("\n")[1]).toMatch(/^key: '\*' a focus, ':' on the way to a focus; /);
+    expect(room.stdout.trimEnd().split("\n")).toHaveLength(11);
+    // Markdown has no width: the key rides on the header's paragraph.
+    const md = await cli(
+      ["-", "--input-format", "csv", "--focus", "9", "--budget", "10", "--no-chains", "--format", "markdown"],
+      {
+        stdin: deep,
+      },
+    );
+    expect(md.stdout.split("\n")[0]).toContain("; 10 of 10 lines; key: bold = on the way to a focus;");
     const over = await cli(["-", "--input-format", "csv", "--focus", "9", "--budget", "9", "--no-chains"], {
       stdin: deep,
     });
     expect(over.stderr).toContain("[BUDGET_TOO_SMALL]");
+  });
+
+  it("says on the header that a budget under KEY_MIN_BUDGET lines left the key out, or carries it there", async () => {
+    const stdin = "a/x\na/y\nb/z\n";
+    const wide = await cli(["-", "--budget", "5"], { stdin });
+    expect(wide.stdout.split("\n")[0]).toMatch(/; 5 of 5 lines; key: '\.' a node; /);
+    const narrow = await cli(["-", "--budget", "5", "--width", "80"], { stdin });
+    expect(narrow.stdout.split("\n")[0]).toBe(
+      "summary: 6 nodes; no focus; key left out: --budget 6 has room; 5 of 5 lines",
+    );
+    expect(narrow.stdout.trimEnd().split("\n")).toHaveLength(5);
   });
 });
 

@@ -99,9 +99,9 @@ describe("keyLines(kind, facts, width)", () => {
       "key: ':' change or above one, '.' unchanged",
       "  totals: all below; changes cut",
     ]);
-    // From 60 columns the same facts share the one line.
+    // From 60 columns the same facts share the one line, every part said in fewer words before one goes.
     expect(keyLines("summary", cut, 100)).toEqual([
-      "key: ':' on the way to a focus, '.' other; counts: all below; sizes cut; '?' count cut; '…' cut name",
+      "key: ':' on path, '.' other; counts: all below; sizes cut; '?' count cut; '…' cut; a / b: only child",
     ]);
   });
 });

@@ -1,13 +1,47 @@
-import { say } from "../../errors.js";
+import { quoted, say } from "../../errors.js";
 import type { ReadingNote } from "../../model/reading-note.js";
 import type { PlacedSizes } from "./folder-totals.js";
 
 /**
- * The name `du -c` (`--total`) and `wc -c` give the line they end a listing with, the grand total of
- * the lines before it (GNU coreutils in the C locale, seen with du -abc and wc -c here; other locales
- * translate it, and such a line is read as a file).
+ * The names `du -c` (`--total`) and `wc -c` give the line they end a listing with, the grand total of
+ * the lines before it: "total" in the C locale (seen with du -abc and wc -c here), and its translation
+ * in every GNU coreutils message catalog on this machine (/usr/share/locale/LANG/LC_MESSAGES/coreutils.mo,
+ * msgid "total", read here; du prints "insgesamt" under LANGUAGE=de, seen here). du, wc and df share
+ * that message.
  */
-export const TOTAL_NAME = "total";
+export const TOTAL_NAMES: ReadonlySet<string> = new Set([
+  "total",
+  "totaal",
+  "усяго",
+  "общо",
+  "celkem",
+  "totalt",
+  "insgesamt",
+  "σύνολο",
+  "totalo",
+  "kokku",
+  "guztira",
+  "yhteensä",
+  "iomlán",
+  "sveukupno",
+  "összesen",
+  "totale",
+  "合計",
+  "합계",
+  "omugatte",
+  "viso",
+  "jumlah",
+  "razem",
+  "итого",
+  "celkom",
+  "skupno",
+  "укупно",
+  "toplam",
+  "загалом",
+  "tổng",
+  "总计",
+  "總用量",
+]);
 
 /**
  * Whether node `k`, the last node made, stands for a grand total rather than a file: a top-level leaf
@@ -35,11 +69,30 @@ export function isGrandTotal(nodes: PlacedSizes, k: number): boolean {
   return ownSize[k] === own || ownSize[k] === totals;
 }
 
-/** TOTAL_LINE_LEFT_OUT: the last line, `size<TAB>total`, read as the grand total and left out. */
-export function grandTotalNote(line: number, size: number): ReadingNote {
+/** TOTAL_LINE_LEFT_OUT: the last line, `size<TAB>total` (or the word in another language), read as the grand total and left out. */
+export function grandTotalNote(line: number, size: number, name: string): ReadingNote {
   return {
     code: "TOTAL_LINE_LEFT_OUT",
     line,
-    parts: say`line ${line} (${size} total) gives what the other lines add up to, as du -c and wc -c end a listing with a grand total: it was left out, not read as a file named total (list without -c to leave it out yourself)`,
+    parts: say`line ${line} (${size} ${quoted.name(name)}) gives what the other lines add up to, as du -c and wc -c end a listing with a grand total: it was left out, not read as a file of that name (list without -c to leave it out yourself)`,
+  };
+}
+
+/**
+ * Nodes before a last line in an unknown word that may make it a grand total: three lines add up so by
+ * chance ('1 a/x', '2 a/y', '3 b', the package test's listing), eight rarely.
+ */
+export const LIKE_TOTAL_EVIDENCE = 8;
+
+/**
+ * LAST_LINE_LIKE_TOTAL: the last line names a top-level entry, in a word espalier does not know as
+ * du's, whose size is what the other lines add up to, as a grand total in another language (or a
+ * catalog newer than the one read) would be: read as a file, and said, since a total doubles the size.
+ */
+export function likeTotalNote(line: number, size: number, name: string): ReadingNote {
+  return {
+    code: "LAST_LINE_LIKE_TOTAL",
+    line,
+    parts: say`line ${line} (${size} ${quoted.name(name)}) gives what the other lines add up to, as the grand total du -c and wc -c end a listing with does (in the C locale named total): it was read as an entry, so the listing's size counts it twice if it is one (list without -c, or with LC_ALL=C, to leave it out)`,
   };
 }

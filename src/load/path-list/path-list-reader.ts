@@ -14,7 +14,13 @@ import { checkReadingOptions } from "../reading-options.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { WrittenPaths } from "../written-paths.js";
 import { type FolderSizes, folderTotals, type PlacedSizes } from "./folder-totals.js";
-import { grandTotalNote, isGrandTotal, TOTAL_NAME } from "./grand-total.js";
+import {
+  grandTotalNote,
+  isGrandTotal,
+  LIKE_TOTAL_EVIDENCE,
+  likeTotalNote,
+  TOTAL_NAMES,
+} from "./grand-total.js";
 import { headerLineHint } from "./header-line-hint.js";
 import { columnsAlignedMessage } from "./process-columns.js";
 
@@ -262,13 +268,24 @@ export class PathListReader {
       pathOf: (i) => pathOf(sink, i, root),
     };
     // `du -abc` and `wc -c` end with the grand total: read as a file named total, it doubles the size.
+    // A word in no catalog read (no "." in it, as a file's name has, and 8 lines at least before it:
+    // '1 a/x', '2 a/y', '3 b' adds up so by chance) is kept as an entry, and said.
+    const lastName = sink.hasSizes && root === -1 ? sink.name.get(total) : "";
+    const known = TOTAL_NAMES.has(lastName);
+    const sumLine =
+      (known || (lastName !== "" && !lastName.includes(".") && total >= LIKE_TOTAL_EVIDENCE)) &&
+      isGrandTotal(placed, total);
     const grandTotal =
-      sink.hasSizes && root === -1 && sink.name.get(total) === TOTAL_NAME && isGrandTotal(placed, total)
-        ? grandTotalNote(sink.origin[total], sink.ownSize[total])
-        : undefined;
-    if (grandTotal) sink.truncate(total);
-    const totals =
-      sink.hasSizes && folderTotals({ ...placed, length: sink.length }, root, placer, this.folderSizes);
+      sumLine && known
+        ? grandTotalNote(sink.origin[total], sink.ownSize[total], lastName)
+        : sumLine
+          ? likeTotalNote(sink.origin[total], sink.ownSize[total], lastName)
+          : undefined;
+    if (sumLine && known) sink.truncate(total);
+    const folders = sink.hasSizes
+      ? folderTotals({ ...placed, length: sink.length }, root, placer, this.folderSizes)
+      : undefined;
+    const totals = folders?.totals === true;
     // Two lines with as many commas, too few to refuse (above): a CSV table's header and one row read
     // so, as two paths; read as paths, but said.
     const csvLike =
@@ -281,11 +298,12 @@ export class PathListReader {
       sizeUnit: "bytes",
       ...(totals ? { folderTotals: true } : {}),
       ...(start ? { rootIsStart: true } : {}),
-      ...(csvLike || grandTotal
+      ...(csvLike || grandTotal || folders?.note
         ? {
             notes: [
               ...(csvLike ? [commasNote(this.firstLine, this.commas, this.firstCells)] : []),
               ...(grandTotal ? [grandTotal] : []),
+              ...(folders?.note ? [folders.note] : []),
             ],
           }
         : {}),

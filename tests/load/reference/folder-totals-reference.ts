@@ -6,14 +6,16 @@ import type { NodeSink } from "../../../src/load/node-sink.js";
  * from its statement rather than from src/load/path-list/folder-totals.ts: with children lists and
  * recursion, on the nodes a reference reader placed.
  *
- * Without a mode, the listing is read as totals when (1) every listed folder comes after all of its
- * contents (no node below it was first seen after its line), or every listed folder comes before all
- * of its contents and no listed line's size is bigger than the listed line before it (at least two
- * lines: `du -ab | sort -rn`, at least 8 of them), (2) no listed folder's size is less than
- * what its contents add up to (a listed node counts its size, an unlisted one its contents), and (3)
- * some listed folder has contents of some size. Read as totals, a listed folder's own size is its size
- * minus its contents'; unless the sizes look like du -a's 1 KiB blocks (PARSE_PATHS). Returns whether it
- * read totals.
+ * Without a mode, the listing is read as totals when (1) no listed folder's size is less than
+ * what its contents add up to (a listed node counts its size, an unlisted one its contents), (2)
+ * some listed folder has contents of some size, and (3) one of: every listed folder comes after all of
+ * its contents (no node below it was first seen after its line); every listed folder comes before all
+ * of its contents and no listed line's size is bigger than the listed line before it (`du -ab | sort
+ * -rn`, at least 8 lines); the listed folders with contents of some size all have an own part (size
+ * less contents) that is a whole, non-zero number of 512-byte blocks, and not all a size that is; or,
+ * neither those sizes nor those own parts being all whole blocks, at least 8 lines. Read as totals, a
+ * listed folder's own size is its size minus its contents'; unless the sizes look like du -a's 1 KiB
+ * blocks (PARSE_PATHS). Returns whether it read totals.
  */
 export function folderTotalsByReference(
   sink: NodeSink,
@@ -37,7 +39,15 @@ export function folderTotalsByReference(
     const biggestFirst = byLine.length >= 8 && byLine.every((size, k) => k === 0 || size <= byLine[k - 1]);
     const covers = folders.every((f) => sink.ownSize[f] >= contentsOf(f));
     const sized = folders.some((f) => contentsOf(f) > 0);
-    if (!((afterContents || (beforeContents && biggestFirst)) && covers && sized)) return false;
+    if (!(covers && sized)) return false;
+    if (!(afterContents || (beforeContents && biggestFirst))) {
+      const sizedFolders = folders.filter((f) => contentsOf(f) > 0);
+      const whole = (size: number) => size > 0 && size % 512 === 0;
+      const linesWhole = sizedFolders.every((f) => whole(sink.ownSize[f]));
+      const ownWhole = sizedFolders.every((f) => whole(sink.ownSize[f] - contentsOf(f)));
+      if (linesWhole && !ownWhole) return false;
+      if (!(ownWhole && !linesWhole) && listedAt.size < 8) return false;
+    }
     // du -a without -b (1 KiB blocks): at least 8 listed sizes above 0, every one a multiple of 4, and
     // some listed folder whose own part (its size less its contents) is under 1,024.
     const sizes = [...listedAt.keys()].map((i) => sink.ownSize[i]).filter((size) => size !== 0);

@@ -2,6 +2,7 @@ import { EspalierError } from "../../../src/errors.js";
 import type { LoadOptions } from "../../../src/load/load-options.js";
 import { NodeSink } from "../../../src/load/node-sink.js";
 import { parseSize } from "../../../src/load/parse-size.js";
+import { TOTAL_NAMES } from "../../../src/load/path-list/grand-total.js";
 import type { LinkedNodes } from "../../../src/model/linked-nodes.js";
 import { folderTotalsByReference } from "./folder-totals-reference.js";
 import { PathPlacer } from "./path-placer-text.js";
@@ -84,14 +85,15 @@ export class PathListTextReader {
 
   /**
    * `du -c` and `wc -c` end a listing with `SIZE<TAB>total`, the sum of the lines before it: when the
-   * last line named a new top-level leaf "total" whose size is that sum, read as each line's own size
+   * last line named a new top-level leaf "total" (or its translation, TOTAL_NAMES) whose size is that sum, read as each line's own size
    * or as du's folder totals (a top-level entry's line, or what its listed descendants give), the
    * node is dropped. Written from that statement, with children lists, not from grand-total.ts.
    */
   private dropGrandTotal(): void {
     const sink = this.sink;
     const k = sink.length - 1;
-    if (k < 1 || sink.parentOf[k] !== -1 || sink.name.get(k) !== "total" || !this.listedAt.has(k)) return;
+    if (k < 1 || sink.parentOf[k] !== -1 || !TOTAL_NAMES.has(sink.name.get(k)) || !this.listedAt.has(k))
+      return;
     const children = new Map<number, number[]>();
     for (let i = 0; i < k; i++) {
       const p = sink.parentOf[i];

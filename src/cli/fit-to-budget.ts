@@ -1,0 +1,146 @@
+import { EspalierError } from "../errors.js";
+import { budgetTooSmall, type Selection } from "../fit/select.js";
+import type { KeyLeftOut } from "../render/header.js";
+
+/** What a command fits under a line budget, and how its lines before the tree are counted. */
+export interface BudgetFit<R extends { selection: Selection }> {
+  /**
+   * The fit at `budget` with `before` lines before the tree, of which the key's `spare` may be left
+   * out rather than refuse the budget (throws BUDGET_TOO_SMALL).
+   */
+  fit(budget: number, before: number, spare: number): R;
+  /** Rows the header takes for `result` at `budget` (0 with --bare), saying `keyLeftOut` when given. */
+  headerRows(result: R, budget: number, keyLeftOut: KeyLeftOut | undefined): number;
+  /** Lines before the tree besides the header and the key (the legend's). */
+  fixed: number;
+  /** Whether a header is printed (not with --bare): it takes a row at least. */
+  header: boolean;
+  /** Rows the key takes at `budget`: 0 where it is not printed at that budget (see `showsKey`). */
+  keyRows(budget: number): number;
+  /** Whether a key is asked for (not --no-key, --bare or --legend), though a budget may have no room. */
+  keyWanted: boolean;
+  /** Whether fits at budgets above the asked one are valid (a fact table's tree holds only the asked one's nodes). */
+  canGrow: boolean;
+}
+
+/** A fit, and whether the key was left out of it (the header then says so). */
+export interface Fitted<R> {
+  result: R;
+  keyLeftOut: KeyLeftOut | undefined;
+}
+
+/** Budgets above the asked one tried for the smallest that works, or the smallest that holds the key. */
+const TRIES = 24;
+
+/** Rounds of fitting again with the header's rows counted before giving up on them agreeing. */
+const ROUNDS = 8;
+
+/**
+ * The fit at `budget` whose header takes the rows it counted: the header's rows depend on the fit (it
+ * says `12 of 40 lines`, and whether the key was left out), so it is fitted again with them counted
+ * until the two agree. When the budget holds the root and the focus paths but not the key, the key is
+ * left out and the header says so, with the smallest budget that holds it (see `KeyLeftOut`); when it
+ * holds not even those, BUDGET_TOO_SMALL names the smallest budget that works, found by fitting.
+ */
+export function fitToBudget<R extends { selection: Selection }>(f: BudgetFit<R>, budget: number): Fitted<R> {
+  // The smallest budget that holds the key, by budget: asked once for each budget tried.
+  const holds = new Map<number, number | undefined>();
+  const attempt = (b: number, spare: boolean) =>
+    fitAt(f, b, spare, (at) => {
+      if (!holds.has(at)) holds.set(at, holdsKey(f, at, attempt));
+      return holds.get(at);
+    });
+  try {
+    return attempt(budget, true);
+  } catch (err) {
+    const smallest = smallestOf(err);
+    if (smallest === undefined || !f.canGrow) throw err;
+    // The refused fit's smallest counts the key and the header's first guess: the key may be left out
+    // and the header wrap otherwise at another budget, so the budgets from below it up are tried.
+    const from = Math.max(budget + 1, smallest - f.keyRows(smallest) - 1);
+    for (let b = from; b < from + TRIES; b++) {
+      try {
+        attempt(b, true);
+      } catch (again) {
+        if (smallestOf(again) === undefined) throw again;
+        continue;
+      }
+      const { before, focused } = (err as EspalierError).details;
+      throw budgetTooSmall(budget, b, Number(before ?? 0), focused !== false);
+    }
+    throw err;
+  }
+}
+
+/**
+ * The fit at `budget` with the header's rows agreed (see `fitToBudget`); the key may give way when
+ * `spare`, and the header then says so, naming `holds(budget)`, the smallest budget that prints it,
+ * where the budget has room for those words too (else the key is left out unsaid, as a budget too
+ * small for them was never refused).
+ */
+function fitAt<R extends { selection: Selection }>(
+  f: BudgetFit<R>,
+  budget: number,
+  spare: boolean,
+  holds: (budget: number) => number | undefined,
+): Fitted<R> {
+  const key = f.keyRows(budget);
+  const plain = agreed(f, budget, key, spare, undefined, f.header ? 1 : 0);
+  if (!f.keyWanted || (key > 0 && !plain.result.selection.spared))
+    return { result: plain.result, keyLeftOut: undefined };
+  const keyLeftOut = { budget: holds(budget) };
+  try {
+    return { result: agreed(f, budget, key, spare, keyLeftOut, plain.rows).result, keyLeftOut };
+  } catch (err) {
+    if (smallestOf(err) === undefined) throw err;
+    return { result: plain.result, keyLeftOut: undefined };
+  }
+}
+
+/**
+ * The fit whose header (saying `keyLeftOut` when given) takes no more rows than it counted, from
+ * `rows` up: more rows leave the key out sooner and never take the header's words away, so they
+ * agree within a few rounds.
+ */
+function agreed<R extends { selection: Selection }>(
+  f: BudgetFit<R>,
+  budget: number,
+  key: number,
+  spare: boolean,
+  keyLeftOut: KeyLeftOut | undefined,
+  rows: number,
+): { result: R; rows: number } {
+  let counted = rows;
+  for (let round = 0; ; round++) {
+    const result = f.fit(budget, f.fixed + counted + key, spare ? key : 0);
+    const actual = f.headerRows(result, budget, keyLeftOut);
+    if (actual <= counted || round === ROUNDS) return { result, rows: counted };
+    counted = actual;
+  }
+}
+
+/** The smallest budget above `budget` whose fit prints the key, if one within reach does. */
+function holdsKey<R extends { selection: Selection }>(
+  f: BudgetFit<R>,
+  budget: number,
+  attempt: (budget: number, spare: boolean) => Fitted<R>,
+): number | undefined {
+  if (!f.canGrow || !f.keyWanted) return undefined;
+  for (let b = budget + 1; b <= budget + TRIES; b++) {
+    if (f.keyRows(b) === 0) continue;
+    try {
+      attempt(b, false);
+      return b;
+    } catch (err) {
+      if (smallestOf(err) === undefined) throw err;
+    }
+  }
+  return undefined;
+}
+
+/** The smallest budget a BUDGET_TOO_SMALL error names, or undefined for any other error. */
+function smallestOf(err: unknown): number | undefined {
+  if (!(err instanceof EspalierError) || err.code !== "BUDGET_TOO_SMALL") return undefined;
+  const smallest = err.details.smallest;
+  return typeof smallest === "number" ? smallest : undefined;
+}
