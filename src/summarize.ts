@@ -124,7 +124,7 @@ export function summarize(prepared: Prepared, options: SummarizeOptions): Summar
     },
   );
   const names = printedNames(tree, index, key);
-  const label = compileLabel(options.label ?? "{name}", tree, names);
+  const label = compileLabel(options.label, tree, names);
   let view = buildView({
     index,
     scores,

@@ -144,6 +144,22 @@ export interface LoadOptions {
   keepScalars?: boolean;
 }
 
+/**
+ * The record field under which a document read as values keeps, for each list item that is an object
+ * with a string member `name`, that string (`steps: [{name: Checkout, …}]`): a node named by its index
+ * alone (`0`) says nothing of what it is. "" for every other node; absent when no item has one. The
+ * label shows it beside the index (view/label.ts); names and paths keep the index (RFC 6901 pointers).
+ */
+export const ITEM_NAME_FIELD = "item name";
+
+/**
+ * The most list items whose `name` a document read as values keeps (see {@link ITEM_NAME_FIELD}): past
+ * it, none, as the names cost memory for every node (a field holds one string per node) and only the
+ * few lines shown use them. A million named items (bench/out/data/tree-1000000.json read as values)
+ * took 150 MiB more and 1.38 times the CPU; 100,000 of them take about a tenth of that.
+ */
+export const MOST_ITEM_NAMES = 100_000;
+
 /** The record field under which a document read as values keeps its scalars' text (`keepScalars`). */
 export const SCALAR_VALUE_FIELD = "value";
 /**

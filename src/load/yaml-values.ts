@@ -3,8 +3,16 @@ import { isAlias, isMap, isScalar, isSeq, type LineCounter, type Node } from "ya
 import { type MessagePart, quoted, say } from "../errors.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { ReadingNote } from "../model/reading-note.js";
+import { byNode } from "./by-node.js";
 import { describeNode } from "./describe-node.js";
-import { EMPTY_ARRAY, EMPTY_OBJECT, type LoadOptions, SCALAR_VALUE_FIELD } from "./load-options.js";
+import {
+  EMPTY_ARRAY,
+  EMPTY_OBJECT,
+  ITEM_NAME_FIELD,
+  type LoadOptions,
+  MOST_ITEM_NAMES,
+  SCALAR_VALUE_FIELD,
+} from "./load-options.js";
 import { checkNoNamedFields } from "./missing-field.js";
 import { NodeSink } from "./node-sink.js";
 
@@ -33,6 +41,9 @@ export function yamlValues(
   // Each node's value, visited in the order nodes are added (pre-order by index).
   const stream = documents.length > 1;
   const scalars: string[] | null = options.keepScalars ? [] : null;
+  // The list items with a `name` string (see ITEM_NAME_FIELD), and those strings.
+  const namedItems: number[] = [];
+  const itemNames: string[] = [];
   const pending: (Node | null)[] = [stream ? null : documents[0]];
   sink.add(-1, options.rootName, stream ? 1 : lineOf(documents[0]));
   // Aliases read (each a leaf of its own text), and the first: its node, text and line.
@@ -66,6 +77,11 @@ export function yamlValues(
     } else if (!isAlias(v) && isSeq(v)) {
       v.items.forEach((item, k) => {
         const j = sink.add(i, String(k), lineOf(item as Node | null));
+        const named = isAlias(item) ? undefined : itemName(item as Node | null);
+        if (named !== undefined && namedItems.length <= MOST_ITEM_NAMES) {
+          namedItems.push(j);
+          itemNames.push(named);
+        }
         pending[j] = item as Node | null;
         inner += lengthOf(item as Node | null);
       });
@@ -82,6 +98,8 @@ export function yamlValues(
       SCALAR_VALUE_FIELD,
       Array.from({ length: sink.length }, (_, i) => scalars[i] ?? ""),
     );
+  const itemNamesField = byNode(sink.length, namedItems, itemNames, MOST_ITEM_NAMES);
+  if (itemNamesField) fields.set(ITEM_NAME_FIELD, itemNamesField);
   const note =
     firstAlias && aliasesNote(aliases, firstAlias, describeNode(sink.parentOf, sink.name, firstAlias.node));
   return sink.finish(options.rootName, fields, null, {
@@ -164,4 +182,20 @@ function utf8Length(text: string, s: number, e: number): number {
     } else bytes += 3;
   }
   return bytes;
+}
+
+/**
+ * A list item's `name`: the string value of its mapping's entry keyed `name` (the last, where the key
+ * repeats, as a mapping's value reads), undefined when the item is no mapping or holds no such string.
+ */
+function itemName(item: Node | null): string | undefined {
+  if (!isMap(item)) return undefined;
+  let found: string | undefined;
+  for (const pair of item.items) {
+    const key = pair.key as Node | null;
+    if (!isScalar(key) || key.value !== "name") continue;
+    const value = pair.value as Node | null;
+    found = isScalar(value) && typeof value.value === "string" ? value.value : undefined;
+  }
+  return found;
 }

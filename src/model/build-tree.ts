@@ -31,42 +31,23 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
     const slotOf = (i: number) => i + ordered.length - n;
     return withEmpty(withReferences(ordered, input.referenceOf, slotOf), input.empty, slotOf);
   }
+  // Each loop of the general path is a function of its own: one whose loops ran before compiles again
+  // at each loop (the code after a loop never ran), and a diff's NEW is the load that takes this path
+  // after OLD took the one above (docs/performance.md).
   const synthetic = tops !== 1;
   const total = n + (synthetic ? 1 : 0);
   const rootOld = synthetic ? n : parentOf.indexOf(-1);
   // par: old index -> old parent index, with the synthetic root (if any) at index n: without one, the
   // loader's own parents, which say just that (the one top-level node is the root, its parent -1).
-  const par = synthetic ? new Int32Array(total) : parentOf;
-  if (synthetic) for (let i = 0; i < n; i++) par[i] = parentOf[i] === -1 ? n : parentOf[i];
+  const par = synthetic ? underSyntheticRoot(parentOf) : parentOf;
   par[rootOld] = -1;
-
-  // Children lists in input order, made from the last node back (no array of last children).
   const firstChild = new Int32Array(total).fill(-1);
   const nextSib = new Int32Array(total).fill(-1);
-  for (let i = n - 1; i >= 0; i--) {
-    const p = par[i];
-    if (p < 0) continue;
-    nextSib[i] = firstChild[p];
-    firstChild[p] = i;
-  }
-
-  // Pre-order walk without a stack: down to the first child, else across, else up until a sibling.
+  childLists(par, n, firstChild, nextSib);
   const newIndex = new Int32Array(total).fill(-1);
   const oldOf = new Int32Array(total);
-  let next = 0;
-  let cur = rootOld;
-  while (cur !== -1) {
-    newIndex[cur] = next;
-    oldOf[next] = cur;
-    next++;
-    if (firstChild[cur] !== -1) {
-      cur = firstChild[cur];
-      continue;
-    }
-    while (cur !== -1 && cur !== rootOld && nextSib[cur] === -1) cur = par[cur];
-    cur = cur === -1 || cur === rootOld ? -1 : nextSib[cur];
-  }
-  if (next < total) throw cycleError(input, par, newIndex, file);
+  if (walkPreOrder(firstChild, nextSib, par, rootOld, newIndex, oldOf) < total)
+    throw cycleError(input, par, newIndex, file);
 
   // The child lists are read no more: their memory holds the tree's parents and depths (memory
   // touched for the first time is dear on a big tree: docs/performance.md). `oldOf` becomes `from`
@@ -81,22 +62,7 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
   const origin = rowsInOrder
     ? new Int32Array(input.origin.buffer, input.origin.byteOffset, total)
     : new Int32Array(total);
-  const sizeOf = input.ownSize;
-  const originOf = input.origin;
-  for (let k = 0; k < total; k++) {
-    const o = oldOf[k];
-    const p = par[o];
-    const pk = p === -1 ? -1 : newIndex[p];
-    parent[k] = pk;
-    depth[k] = p === -1 ? 0 : depth[pk] + 1;
-    if (o === n) {
-      from[k] = -1;
-      origin[k] = 0;
-      continue;
-    }
-    ownSize[k] = sizeOf[o];
-    origin[k] = rowsInOrder ? o + 1 : originOf[o];
-  }
+  gatherByPlace(oldOf, par, newIndex, { parent, depth, ownSize, origin }, input, rowsInOrder);
   const fields = new Map<string, string[]>();
   for (const [key, values] of input.fields) {
     const byNode = new Array<string>(total);
@@ -139,6 +105,85 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
     slotOf,
   );
   return withEmpty(tree, input.empty, slotOf);
+}
+
+/** The loader's parents with a synthetic root at index `n` above the top-level nodes. */
+function underSyntheticRoot(parentOf: Int32Array): Int32Array {
+  const n = parentOf.length;
+  const par = new Int32Array(n + 1);
+  for (let i = 0; i < n; i++) par[i] = parentOf[i] === -1 ? n : parentOf[i];
+  return par;
+}
+
+/** Children lists in input order (`firstChild`, `nextSib`: all -1 before), made from the last node back. */
+function childLists(par: Int32Array, n: number, firstChild: Int32Array, nextSib: Int32Array): void {
+  for (let i = n - 1; i >= 0; i--) {
+    const p = par[i];
+    if (p < 0) continue;
+    nextSib[i] = firstChild[p];
+    firstChild[p] = i;
+  }
+}
+
+/**
+ * Pre-order walk without a stack: down to the first child, else across, else up until a sibling. Fills
+ * `newIndex` (old -> new) and `oldOf` (new -> old); returns how many nodes it reached.
+ */
+function walkPreOrder(
+  firstChild: Int32Array,
+  nextSib: Int32Array,
+  par: Int32Array,
+  rootOld: number,
+  newIndex: Int32Array,
+  oldOf: Int32Array,
+): number {
+  let next = 0;
+  let cur = rootOld;
+  while (cur !== -1) {
+    newIndex[cur] = next;
+    oldOf[next] = cur;
+    next++;
+    if (firstChild[cur] !== -1) {
+      cur = firstChild[cur];
+      continue;
+    }
+    while (cur !== -1 && cur !== rootOld && nextSib[cur] === -1) cur = par[cur];
+    cur = cur === -1 || cur === rootOld ? -1 : nextSib[cur];
+  }
+  return next;
+}
+
+/**
+ * The tree's parents, depths, sizes and origins by new place, from the loader's by old index; `oldOf`
+ * becomes `from` (-1 for the synthetic root, at old index n) as it is read.
+ */
+function gatherByPlace(
+  oldOf: Int32Array,
+  par: Int32Array,
+  newIndex: Int32Array,
+  out: { parent: Int32Array; depth: Int32Array; ownSize: Float64Array; origin: Int32Array },
+  input: PooledNodes,
+  rowsInOrder: boolean,
+): void {
+  const { parent, depth, ownSize, origin } = out;
+  const sizeOf = input.ownSize;
+  const originOf = input.origin;
+  const n = input.parentOf.length;
+  const from = oldOf;
+  for (let k = 0; k < oldOf.length; k++) {
+    const o = oldOf[k];
+    const p = par[o];
+    const pk = p === -1 ? -1 : newIndex[p];
+    parent[k] = pk;
+    depth[k] = p === -1 ? 0 : depth[pk] + 1;
+    if (o === n) {
+      from[k] = -1;
+      origin[k] = 0;
+      continue;
+    }
+    ownSize[k] = sizeOf[o];
+    origin[k] = rowsInOrder ? o + 1 : originOf[o];
+  }
 }
 
 /** The tree with `empty` by slot from the loader's flags by node, when any node is empty. */

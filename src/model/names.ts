@@ -121,12 +121,6 @@ export function namesToArray(names: Names): string[] {
 }
 
 const LONGEST_POOL = 2 ** 32 - 1;
-/**
- * For a byte buffer that several pools read (see {@link NamePool.reordered}): where the bytes some pool
- * wrote end. A pool whose own end is that end wrote last (or none has written since they began to
- * share), so the room past it is free and it may append there; any other pool copies the bytes first.
- */
-const writtenEnd = new WeakMap<Uint8Array, number>();
 /** Places of a name's bytes in the pool beyond which {@link NamePool.indexOfBytes} compares names one by one. */
 const MOST_PLACES = 64;
 
@@ -144,8 +138,17 @@ export class NamePool implements Names {
   private size: Uint32Array;
   private exact: Map<number, string> | null = null;
   // Set when another pool reads these bytes too (see reordered): an append copies them first unless
-  // this pool wrote last (writtenEnd).
+  // this pool wrote last (`written`).
   private shared = false;
+  /**
+   * Where the bytes some pool wrote in this pool's buffer end: one record for all the pools reading the
+   * buffer. A pool whose own end is that end wrote last (or none has written since they began to
+   * share), so the room past it is free and it may append there; any other pool copies the bytes first.
+   * A pool alone has a record of its own, kept at its end, and runs the same code as a shared one: a
+   * pool read against an earlier version's (a diff's NEW) then meets no branch that OLD's load never ran,
+   * and the engine keeps the code it compiled for it (docs/performance.md).
+   */
+  private written = { end: 0 };
   // Bytes at the start of this pool's that another pool's names are in (see readingBytes): 0 when none.
   private sharedEnd = 0;
 
@@ -490,15 +493,13 @@ export class NamePool implements Names {
     return out;
   }
 
-  /** Makes `out` read this pool's bytes: from now on both pools share them (see writtenEnd). */
+  /** Makes `out` read this pool's bytes: from now on both pools share them (see `written`). */
   private share(out: NamePool): void {
-    if (!this.shared) {
-      this.shared = true;
-      writtenEnd.set(this.bytes, this.used);
-    }
+    this.shared = true;
     out.bytes = this.bytes;
     out.used = this.used;
     out.shared = true;
+    out.written = this.written;
   }
 
   /** A pool of these strings, in order (a missing one is ""). */
@@ -526,7 +527,7 @@ export class NamePool implements Names {
     pool.used = parts.bytes.byteLength;
     // The received bytes are exactly full: the next append copies them.
     pool.shared = true;
-    writtenEnd.set(pool.bytes, pool.used);
+    pool.written = { end: pool.used };
     // Adopted, not copied: they arrived as this thread's own (copied or moved); growing replaces them.
     if (parts.length > 0) {
       pool.start = parts.start;
@@ -548,7 +549,7 @@ export class NamePool implements Names {
   /** Ends this pool's bytes at `end` (past what it just wrote at its end). */
   private commit(end: number): void {
     this.used = end;
-    if (this.shared) writtenEnd.set(this.bytes, end);
+    this.written.end = end;
   }
 
   /**
@@ -557,8 +558,7 @@ export class NamePool implements Names {
    */
   private reserve(n: number): number {
     const need = this.used + n;
-    if (need <= this.bytes.length && (!this.shared || writtenEnd.get(this.bytes) === this.used))
-      return this.used;
+    if (need <= this.bytes.length && this.written.end === this.used) return this.used;
     if (need > LONGEST_POOL) {
       throw new EspalierError(
         "LIMIT_EXCEEDED",
@@ -569,6 +569,7 @@ export class NamePool implements Names {
     this.bytes.copy(grown, 0, 0, this.used);
     this.bytes = grown;
     this.shared = false;
+    this.written = { end: this.used };
     return this.used;
   }
 

@@ -1,4 +1,5 @@
 import { EspalierError, quotedList, say } from "../errors.js";
+import { ITEM_NAME_FIELD } from "../load/load-options.js";
 import type { PrintedNames } from "../model/printed-names.js";
 import type { Tree } from "../model/tree.js";
 
@@ -18,8 +19,17 @@ export function templateFields(template: string): string[] {
  * pseudonym like a name, since any field of a person's record may point at the person. A field the
  * input lacks is an error.
  */
-export function compileLabel(template: string, tree: Tree, names: PrintedNames): (i: number) => string {
+export function compileLabel(
+  template: string | undefined,
+  tree: Tree,
+  names: PrintedNames,
+): (i: number) => string {
   const { nameOf, pathOf } = names;
+  if (template === undefined) {
+    const items = tree.reading?.shape === "values" ? tree.fields.get(ITEM_NAME_FIELD) : undefined;
+    if (items === undefined) template = "{name}";
+    else return (i) => (items[i] ? `${nameOf(i)} name=${names.valueOf(items[i])}` : nameOf(i));
+  }
   const idOf = (i: number) => names.idOf(i) ?? "";
   const parts = template.split(FIELD); // even: literal text, odd: field names
   const getters = parts.map((part, k): ((i: number) => string) => {

@@ -1,6 +1,14 @@
 import { Buffer } from "node:buffer";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
-import { EMPTY_ARRAY, EMPTY_OBJECT, type LoadOptions, SCALAR_VALUE_FIELD } from "../load-options.js";
+import { byNode } from "../by-node.js";
+import {
+  EMPTY_ARRAY,
+  EMPTY_OBJECT,
+  ITEM_NAME_FIELD,
+  type LoadOptions,
+  MOST_ITEM_NAMES,
+  SCALAR_VALUE_FIELD,
+} from "../load-options.js";
 import { checkNoNamedFields } from "../missing-field.js";
 import { NodeSink } from "../node-sink.js";
 import { ByteBuffer } from "./byte-buffer.js";
@@ -30,6 +38,10 @@ export class JsonValueLoader extends JsonTokenizer {
   private readonly keyBytes = new ByteBuffer();
   private keyText: string | null = null;
 
+  /** The list items with a `name` string (see ITEM_NAME_FIELD), in the order read, and those strings. */
+  private readonly namedItems: number[] = [];
+  private readonly itemNames: string[] = [];
+
   /** Each value as a diff compares it by node (`options.keepScalars`; objects and arrays their kind), else null. */
   private readonly scalars: string[] | null;
 
@@ -56,6 +68,8 @@ export class JsonValueLoader extends JsonTokenizer {
         SCALAR_VALUE_FIELD,
         Array.from({ length: sink.length }, (_, i) => scalars[i] ?? ""),
       );
+    const itemNames = byNode(sink.length, this.namedItems, this.itemNames, MOST_ITEM_NAMES);
+    if (itemNames) fields.set(ITEM_NAME_FIELD, itemNames);
     return sink.finish(this.options.rootName, fields, null, { shape: "values", sizeUnit: "bytes" });
   }
 
@@ -125,7 +139,36 @@ export class JsonValueLoader extends JsonTokenizer {
     // Kept as its value (escapes read, RFC 8259 §7) written as JSON, so "\u0061" and "a" are one value
     // and a YAML version's strings compare alike (yaml-values.ts).
     const text = this.scalars ? JSON.stringify(this.text(bytes, q, e, absQ)) : undefined;
+    // A list item's `name` member: an object whose container is an array.
+    const top = this.depth - 1;
+    // Past MOST_ITEM_NAMES none is kept (byNode): no more are read.
+    if (
+      top >= 1 &&
+      this.objectAt[top] === 1 &&
+      this.objectAt[top - 1] === 0 &&
+      this.namedItems.length <= MOST_ITEM_NAMES &&
+      this.keyIsName()
+    )
+      this.named(this.node[top], this.text(bytes, q, e, absQ));
     this.leaf(e - q + 1, bytes, q, e + 1, text);
+  }
+
+  /** The item `node` is named `name`; a repeated key's last value counts, as JSON.parse reads it. */
+  private named(node: number, name: string): void {
+    const last = this.namedItems.length - 1;
+    if (last >= 0 && this.namedItems[last] === node) this.itemNames[last] = name;
+    else {
+      this.namedItems.push(node);
+      this.itemNames.push(name);
+    }
+  }
+
+  /** Whether the key of the member whose value comes next is `name`. */
+  private keyIsName(): boolean {
+    if (this.keyText !== null) return this.keyText === "name";
+    const { bytes, length } = this.keyBytes;
+    // "name" in UTF-8.
+    return length === 4 && bytes[0] === 0x6e && bytes[1] === 0x61 && bytes[2] === 0x6d && bytes[3] === 0x65;
   }
 
   protected number(bytes: Uint8Array, s: number, e: number): void {

@@ -63,7 +63,8 @@ export function chooseReading(sample: Sample | undefined, fields: Fields): Readi
     if (sample.kind === "object" && isPathMap(sample)) return { kind: "path-map", field: "" };
     if (first !== undefined) {
       for (const [key, value] of first.entries)
-        if (value.kind === "object" && isPathMap(value)) return { kind: "path-map", field: key };
+        if (value.kind === "object" && isPathMap(value) && !isSubpathMap(value))
+          return { kind: "path-map", field: key };
       const found = findChildrenField(first, fields);
       if (found !== undefined) return { kind: "nodes", childrenField: found, found: true };
     }
@@ -173,9 +174,14 @@ function childObjects(value: Sample): ObjectSample[] | undefined {
  * an object or array (a listing one level deep); otherwise a configuration's `defaults: {run: {…}}`
  * would pass for children and hide the rest. It counts too beside other objects and arrays when it is
  * the one field of `first` holding records, and they are records of the kind `first` is: each (not
- * empty) shares a field with `first`, and holds no record of its own, only scalars and lists of them
+ * empty) shares a field with `first`, holding the same kind of value there (a scalar, a list, an
+ * object), and holds no record of its own, only scalars and lists of them, and they are keyed by name
  * (a listing of packages none of which is installed: `{"name": …, "problems": […], "dependencies":
- * {"a": {"missing": true, "problems": […]}}}`). The name, size and kept fields are never children.
+ * {"a": {"missing": true, "problems": […]}}}`). A list of records sharing a scalar by chance is no
+ * such field (a package.json's `contributors: [{"name": …}]` or `funding: [{"type": …}]` beside its
+ * own `name` and `type`), nor records whose shared field holds another kind of value (a command's
+ * `arguments: {"resource": {"help_text": "…"}}` beside its own `help_text: {…}`). The name, size and
+ * kept fields are never children.
  */
 export function findChildrenField(
   first: ObjectSample,
@@ -197,25 +203,37 @@ export function findChildrenField(
     );
     if (recurs) return key;
     if (leafy === undefined && children.every((child) => hasNoContainers(child))) leafy = key;
-    if (kindred === undefined && recordsOfKind(children, first, key)) kindred = key;
+    if (kindred === undefined && value.kind === "object" && recordsOfKind(children, first, key))
+      kindred = key;
   }
   if (containers === 1 && leafy !== undefined) return leafy;
-  return holdingRecords === 1 ? kindred : undefined;
+  return holdingRecords === 1 && containers <= KINDRED_CONTAINERS ? kindred : undefined;
 }
+
+/**
+ * The most fields of `first` holding an object or array, its children's field among them, beside which
+ * records of its kind are read as its children: npm ls --all --json with nothing installed has three
+ * (`problems`, `dependencies`, `error`); a package.json has a dozen (`scripts`, `keywords`, `exports`,
+ * `devEngines: {"packageManager": {"name": …, "version": …}}` sharing its `name` and `version`), and
+ * read as the records of one of them it would lose the rest.
+ */
+const KINDRED_CONTAINERS = 3;
 
 /**
  * Whether `children` (found under `key` of `parent`) are records of the parent's kind with nothing of
  * their own below: at least one is not empty, each that is not empty shares a field other than `key`
- * with the parent, and none holds an object or array of anything but scalars.
+ * with the parent, every shared field holding the same kind of value in both (a scalar, an array, an
+ * object), and none holds an object or array of anything but scalars.
  */
 function recordsOfKind(children: readonly ObjectSample[], parent: ObjectSample, key: string): boolean {
-  const parentKeys = new Set(parent.entries.map(([k]) => k));
-  parentKeys.delete(key);
+  const parentKinds = new Map(parent.entries.map(([k, v]) => [k, v.kind]));
+  parentKinds.delete(key);
   let filled = 0;
   for (const child of children) {
     if (child.entries.length === 0) continue;
     filled++;
-    if (!child.entries.some(([k]) => parentKeys.has(k))) return false;
+    if (!child.entries.some(([k]) => parentKinds.has(k))) return false;
+    if (child.entries.some(([k, v]) => parentKinds.has(k) && parentKinds.get(k) !== v.kind)) return false;
     if (!child.entries.every(([, v]) => holdsScalarsOnly(v))) return false;
   }
   return filled > 0;
@@ -242,4 +260,14 @@ export function isPathMap(object: ObjectSample): boolean {
       if (keys.has(key.slice(0, k))) return true;
   }
   return false;
+}
+
+/**
+ * Whether an object's keys are the subpaths a package.json's `exports` lists (`.`, `./sync`,
+ * `./browser/esm`: Node.js package entry points, from memory), each `.` or starting with `./`: a map
+ * beside a package's other fields, not a listing of its paths (a lock file's `packages` keys are
+ * `""` and `node_modules/…`), so it is not read as the document's tree.
+ */
+function isSubpathMap(object: ObjectSample): boolean {
+  return object.entries.every(([k]) => k === "." || k.startsWith("./"));
 }

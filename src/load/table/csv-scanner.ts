@@ -133,6 +133,15 @@ export class CsvScanner {
     this.line += lines;
   }
 
+  /**
+   * A {@link RecordSkipper} took the first record, of `fields` fields, and with the blank lines around it
+   * `lines` lines: every later record must have as many fields.
+   */
+  tookFirst(fields: number, lines: number): void {
+    this.width = fields;
+    this.skipped(1, lines);
+  }
+
   /** How many records were short and read with their missing last fields empty (`shortRows: "fill"`). */
   get filled(): number {
     return this.filledRecords;

@@ -2,6 +2,7 @@ import { Buffer, isUtf8 } from "node:buffer";
 import { EspalierError, quoted, say } from "../../errors.js";
 import { asBuffer, codecs } from "../../model/buffer-codecs.js";
 import { NamePool, type Names, namesToArray } from "../../model/names.js";
+import { EarlierNames } from "../earlier-names.js";
 import { hasReplacement } from "../has-replacement.js";
 import type { LoadOptions } from "../load-options.js";
 import { limitsOf } from "../read-limits.js";
@@ -66,8 +67,8 @@ interface Kept extends KeptColumn {
    * their bytes (ByteIdIndex) where they were once compared as strings.
    */
   asText: boolean;
-  /** Of a column of numbers: whether some cell is no plain number (its text in `pool`). */
-  texts?: boolean;
+  /** Of a column of numbers: the rows whose cell is no plain number (its text in `pool`), in order. */
+  textRows?: number[];
   /** A pooled id or name column read against an earlier version's (see EarlierRows), else undefined. */
   earlier?: "id" | "name";
   /** Whether the column may link rows (the id, parent or path column): its cells not UTF-8 are kept as written. */
@@ -125,6 +126,12 @@ export class CsvTableReader implements CsvSink {
   // Rows in a row where no earlier one was repeated, and rows to pass before looking again.
   private misses = 0;
   private quiet = 0;
+  /**
+   * Read against a kept table: rows read so far when takeRows last looked (rows scanned since are the
+   * ones after), and the earlier rows by the column (ids, else names) that finds a scanned row's.
+   */
+  private looked = 0;
+  private rowFinder: { column: Kept; rows: EarlierNames } | undefined;
 
   constructor(
     private readonly delimiter: "," | "\t",
@@ -150,6 +157,7 @@ export class CsvTableReader implements CsvSink {
     const size = fields.inputBytes;
     if (reading.keep && size !== undefined && size <= MOST_KEPT_BYTES) this.keeper = new TableKeeper(size);
     this.laterOf = reading.earlier;
+    if (reading.earlier !== undefined) this.scanner.skipper = this.takeHeader;
   }
 
   /** The earlier version's kept table this one may be read against, until the header is read. */
@@ -305,7 +313,7 @@ export class CsvTableReader implements CsvSink {
       if (value !== undefined) keep.values[row] = value;
       else {
         keep.values[row] = Number.NaN;
-        keep.texts = true;
+        textRow(keep, row);
         this.pooled(keep, row, bytes, start, end);
       }
     } else if (keep.keeping === Keeping.Pool) {
@@ -354,19 +362,34 @@ export class CsvTableReader implements CsvSink {
     this.keeper?.row(this.rows, scanner.recordAt, scanner.recordEndAt, scanner.nextLine);
     this.rows++;
     this.lines.add(this.rows, line);
-    if (this.against !== undefined) {
-      // A row scanned: the earlier one expected next is the one after the row of its id (or name),
-      // else the one expected before it (a row added since).
-      const found = this.earlier?.found ?? -1;
-      if (found !== -1) {
-        this.oldRow = found + 1;
-        // Found where it was looked for: the rows after it are likely the earlier ones again.
-        this.misses = 0;
-      } else if (this.earlier === undefined) this.oldRow++;
-    }
     this.earlier?.endRecord();
     return this.rows > this.maxRows;
   }
+
+  /**
+   * Takes the header as the earlier version's kept table read it (RecordSkipper, csv-scanner.ts), when
+   * everything before its first row is this input's too and read alike (the same delimiter and longest
+   * record): the same header cells on the same line. The first record is then not scanned, and the
+   * records this table scans all go through the code a table read alone runs for its rows (the header,
+   * read first, is read before the engine keeps type feedback, and met again in code compiled without
+   * it, that code is thrown away; docs/performance.md). Returns where the first row starts, or `p`.
+   */
+  private readonly takeHeader = (bytes: Uint8Array, p: number, n: number): number => {
+    const scanner = this.scanner;
+    scanner.skipper = null;
+    const kept = this.laterOf;
+    if (
+      kept === undefined ||
+      kept.delimiter !== this.delimiter.charCodeAt(0) ||
+      kept.maxLineBytes !== limitsOf(this.fields.limits).maxLineBytes ||
+      !kept.startsAs(bytes, n)
+    )
+      return p;
+    scanner.tookFirst(kept.header.length, kept.lineOf(0) - 1);
+    this.headerColumns = [...kept.headerColumns];
+    this.startTable([...kept.header], kept.header.length, kept.headerLine);
+    return kept.start[0];
+  };
 
   /**
    * Takes the rows from `bytes[p]` on that repeat the earlier version's rows from the one expected
@@ -374,6 +397,7 @@ export class CsvTableReader implements CsvSink {
    * lines after the first as there. Returns where they end, or `p` when they are not the earlier ones.
    */
   private readonly takeRows = (bytes: Uint8Array, p: number, n: number): number => {
+    if (this.rows > this.looked) this.scannedSince();
     if (this.quiet > 0) {
       this.quiet--;
       return p;
@@ -395,6 +419,29 @@ export class CsvTableReader implements CsvSink {
     return p + against.start[to] - against.start[from];
   };
 
+  /**
+   * Rows were scanned since takeRows last looked: the earlier row expected next is the one after the row
+   * of the last one's id (or name), else the one expected before (a row added since); with no column to
+   * find rows by, the one after as many rows as were scanned. Here, not as each record ends, so that a
+   * record is read by the same code as in a table read alone, whose compiled code then holds (the
+   * engine compiles a function again where it meets a branch it never ran; docs/performance.md).
+   */
+  private scannedSince(): void {
+    const finder = this.rowFinder;
+    if (finder === undefined) this.oldRow += this.rows - this.looked;
+    else {
+      const runs = finder.column.pool!.byteRuns()!;
+      const r = this.rows - 1;
+      const found = finder.rows.find(runs.bytes, runs.start[r], runs.start[r] + runs.size[r]);
+      if (found !== -1) {
+        this.oldRow = found + 1;
+        // Found where it was looked for: the rows after it are likely the earlier ones again.
+        this.misses = 0;
+      }
+    }
+    this.looked = this.rows;
+  }
+
   /** Appends the earlier version's rows `from` to `to - 1` as they were read there. */
   private copyRows(against: KeptTable, from: number, to: number): void {
     const count = to - from;
@@ -408,19 +455,17 @@ export class CsvTableReader implements CsvSink {
         if (row + count > keep.values.length)
           keep.values = grown(keep.values, Math.max(2 * row, row + count));
         keep.values.set(old.values.subarray(from, to), row);
-        if (against.hasTexts[c]) {
-          const texts = old.pool!;
-          for (let k = from; k < to; k++)
-            if (Number.isNaN(old.values[k])) keep.pool!.copyFrom(row + k - from, texts, k);
-          keep.texts = true;
-        }
+        // Only the rows written down as text: a loop over every row copied was most of a run's work.
+        const texts = against.textRows[c];
+        if (texts.length > 0) copyTexts(keep, row - from, old.pool!, texts, from, to);
       } else for (let k = from; k < to; k++) keep.cells.push(old.cells[k]);
     }
     const scanner = this.scanner;
     this.lines.addRun(against.lines, from + 1, to + 1, row + 1, scanner.nextLine);
     scanner.skipped(count, against.lineOf(to) - against.lineOf(from));
     this.rows += count;
-    this.earlier?.expect(to);
+    this.looked = this.rows;
+    this.rowFinder?.rows.expect(to);
     this.oldRow = to;
   }
 
@@ -437,14 +482,16 @@ export class CsvTableReader implements CsvSink {
       (k) => k.written === undefined && (k.pool === null || readableBytes(k.pool) !== null),
     );
     if (!plain || filledRows > 0 || this.fields.shortRows === "fill") return undefined;
-    const hasTexts = this.kept.map((k) => k.texts === true);
+    const textRows = this.kept.map((k) => k.textRows ?? []);
     return keeper.table(
       length,
       this.lines,
       this.delimiter.charCodeAt(0),
       this.header,
+      this.headerLine,
+      this.headerColumns,
       this.kept,
-      hasTexts,
+      textRows,
       limitsOf(this.fields.limits).maxLineBytes,
     );
   }
@@ -527,17 +574,26 @@ export class CsvTableReader implements CsvSink {
     const earlierNames = this.poolNames
       ? readableBytes(againstColumns ? poolOf(this.fields.nameField) : earlier?.name)
       : null;
+    let findBy: Kept | undefined;
     for (const keep of this.kept) {
       if (keep.keeping === Keeping.Text) continue;
-      const from =
-        keep.keeping !== Keeping.Pool ? null : keep.name === this.fields.idField ? earlierIds : earlierNames;
+      const id = keep.name === this.fields.idField;
+      const from = keep.keeping !== Keeping.Pool ? null : id ? earlierIds : earlierNames;
       const shared = from === null ? null : from.readingBytes();
       keep.pool = shared ?? new NamePool();
-      if (shared !== null) keep.earlier = keep.name === this.fields.idField ? "id" : "name";
+      if (shared === null) continue;
+      // Read against a kept table, a row's cells are read as in a table read alone (rows whose bytes
+      // the earlier version had are taken whole); the ids (else names) find a scanned row's earlier row.
+      if (againstColumns === null) keep.earlier = id ? "id" : "name";
+      else if (id || findBy === undefined) findBy = keep;
+    }
+    if (findBy !== undefined && kept !== undefined) {
+      const runs = (findBy.name === this.fields.idField ? earlierIds : earlierNames)!.byteRuns()!;
+      this.rowFinder = { column: findBy, rows: new EarlierNames(runs, kept.rows) };
     }
     const ids = this.kept.some((k) => k.earlier === "id") ? earlierIds!.byteRuns() : null;
     const names = this.kept.some((k) => k.earlier === "name") ? earlierNames!.byteRuns() : null;
-    const rows = kept !== undefined && againstColumns !== null ? kept.rows : earlier?.name.length;
+    const rows = earlier?.name.length;
     if (rows !== undefined && (ids !== null || names !== null))
       this.earlier = new EarlierRows(ids, names, rows);
   }
@@ -587,6 +643,37 @@ function keepSpelledReplacements(keep: Kept, rows: number): void {
 /** An earlier version's ids or names when they are a pool whose bytes spell them all; else null. */
 function readableBytes(names: Names | null | undefined): NamePool | null {
   return names instanceof NamePool && names.byteRuns() !== null ? names : null;
+}
+
+/**
+ * Copies the cells of `texts` (rows of an earlier column of numbers whose cell is text, in order) from
+ * `from` to `to - 1` into `keep`'s pool, each at its row plus `shift`.
+ */
+function copyTexts(
+  keep: Kept,
+  shift: number,
+  pool: NamePool,
+  texts: readonly number[],
+  from: number,
+  to: number,
+): void {
+  let lo = 0;
+  let hi = texts.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (texts[mid] < from) lo = mid + 1;
+    else hi = mid;
+  }
+  for (let k = lo; k < texts.length && texts[k] < to; k++) {
+    keep.pool!.copyFrom(texts[k] + shift, pool, texts[k]);
+    textRow(keep, texts[k] + shift);
+  }
+}
+
+/** Row `row` of a kept column of numbers is text. */
+function textRow(keep: Kept, row: number): void {
+  keep.textRows ??= [];
+  keep.textRows.push(row);
 }
 
 /** A kept column of numbers as the table gives it. */

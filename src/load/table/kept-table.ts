@@ -31,9 +31,12 @@ export interface KeptColumn {
  */
 export class KeptTable {
   constructor(
-    /** The input's bytes, whole. */
-    readonly bytes: Buffer,
-    /** Where data row r (from 0) starts in `bytes`; at `rows`, where the last row's record ends. */
+    /** The input's bytes, whole (on memory from {@link releasableMemory}). */
+    readonly bytes: Uint8Array,
+    /**
+     * Where data row r (from 0) starts in `bytes`; at `rows`, where the last row's record ends (on memory
+     * from {@link releasableMemory}).
+     */
     readonly start: Uint32Array,
     /** Data rows. */
     readonly rows: number,
@@ -43,23 +46,36 @@ export class KeptTable {
     readonly endLine: number,
     readonly delimiter: number,
     readonly header: readonly string[],
+    /** The line the header starts on, and the column (1-based, UTF-16 units) of each of its cells. */
+    readonly headerLine: number,
+    readonly headerColumns: readonly number[],
     readonly columns: readonly KeptColumn[],
-    /** Whether a column of numbers holds a cell that is no plain number, by column. */
-    readonly hasTexts: readonly boolean[],
+    /** The rows (in order) whose cell is no plain number, by column (of numbers; empty for others). */
+    readonly textRows: readonly (readonly number[])[],
     /** The longest record the reader took (read-limits.ts). */
     readonly maxLineBytes: number,
   ) {}
 
   /**
-   * Gives the memory of the bytes and the rows' starts back now, not whenever the collector finds
-   * them (they are old by then, and a full collection may not come before the diff's own stage, whose
-   * memory would then come on top of them): moved into a new buffer nothing holds, which the next minor
-   * collection frees. The table is read no more.
+   * Gives the memory of the bytes and the rows' starts back now, not whenever the collector finds them
+   * (they are old by then, and a full collection may not come before the diff's own stage, whose memory
+   * would then come on top of them): their memory resized to nothing. The table is read no more.
    */
   release(): void {
-    for (const buffer of [this.bytes.buffer, this.start.buffer])
-      if (buffer instanceof ArrayBuffer && buffer.byteLength > 0)
-        structuredClone(buffer, { transfer: [buffer] });
+    releaseMemory(this.bytes.buffer);
+    releaseMemory(this.start.buffer);
+  }
+
+  /**
+   * Whether an input whose first bytes are `bytes[0, n)` begins with this table's bytes before its first
+   * row (a byte order mark, the header, blank lines) and ends them as this table did: the byte after
+   * them is there and, after a carriage return, the same (a line feed or not).
+   */
+  startsAs(bytes: Uint8Array, n: number): boolean {
+    if (this.rows === 0) return false;
+    const end = this.start[0];
+    if (end >= n || Buffer.compare(this.bytes.subarray(0, end), bytes.subarray(0, end)) !== 0) return false;
+    return this.bytes[end - 1] === LF || this.bytes[end] === bytes[end];
   }
 
   /** The line row `r` (from 0; `rows` for the end) starts on. */
@@ -74,46 +90,61 @@ export class KeptTable {
    */
   rowsRepeated(bytes: Uint8Array, p: number, n: number, r: number, most: number): number {
     const start = this.start;
-    const from = start[r];
-    const same = sameLength(this.bytes, from, start[this.rows], bytes, p, n);
-    let k = r;
+    const old = this.bytes;
     const last = Math.min(this.rows, r + most);
-    while (k < last && start[k + 1] - from <= same) k++;
-    if (k > r && start[k] - from === same && this.bytes[start[k] - 1] !== LF) k--;
+    if (r >= last) return r;
+    const shift = p - start[r];
+    // The first row byte by byte: a look that finds nothing mostly ends there, with no call out.
+    const firstEnd = start[r + 1];
+    if (firstEnd + shift > n) return r;
+    for (let i = start[r]; i < firstEnd; i++) if (old[i] !== bytes[i + shift]) return r;
+    // Then whole rows a group at a time in native code (Buffer.compare, where a loop over every byte
+    // was compiled in every diff; docs/performance.md), the group doubling while its rows repeat and
+    // halving where they do not, down to one row.
+    let k = r + 1;
+    for (let group = 2; group > 0 && k < last; ) {
+      const to = Math.min(last, k + group);
+      const end = start[to] + shift;
+      if (end <= n && sameBytes(old, start[k], start[to], bytes, start[k] + shift)) {
+        k = to;
+        group *= 2;
+      } else group >>>= 1;
+    }
+    // The last row's end, when no line feed: settled by the byte after it, repeated too.
+    if (old[start[k] - 1] !== LF) {
+      const after = start[k] + shift;
+      if (k === this.rows || after >= n || old[start[k]] !== bytes[after]) k--;
+    }
     return k;
   }
 }
 
-/** Bytes compared one by one before comparing in blocks: a row's worth. */
-const FIRST = 64;
-/** The first block compared at once; each after it twice as long. */
-const BLOCK = 4096;
+/** Whether `a[from, to)` are the bytes of `b` from `at` on (which has them all), compared in native code. */
+function sameBytes(a: Uint8Array, from: number, to: number, b: Uint8Array, at: number): boolean {
+  // Views made by the typed array constructor: a Buffer's own subarray is JavaScript, and slower.
+  const x = new Uint8Array(a.buffer, a.byteOffset + from, to - from);
+  const y = new Uint8Array(b.buffer, b.byteOffset + at, to - from);
+  return Buffer.compare(x, y) === 0;
+}
 
-/** How many bytes from `a[i]` and `b[j]` on are the same (at most to `aEnd` and `bEnd`). */
-function sameLength(a: Buffer, i: number, aEnd: number, b: Uint8Array, j: number, bEnd: number): number {
-  const most = Math.min(aEnd - i, bEnd - j);
-  const head = Math.min(most, FIRST);
-  let m = 0;
-  while (m < head && a[i + m] === b[j + m]) m++;
-  if (m < head || m === most) return m;
-  const other = b instanceof Buffer ? b : Buffer.from(b.buffer, b.byteOffset, b.byteLength);
-  for (let size = BLOCK; m < most; size *= 2) {
-    const take = Math.min(size, most - m);
-    if (a.compare(other, j + m, j + m + take, i + m, i + m + take) === 0) {
-      m += take;
-      continue;
-    }
-    // The first difference is in [m, m + take): halve until a row's worth is left, then byte by byte.
-    let hi = m + take;
-    while (hi - m > FIRST) {
-      const mid = m + ((hi - m) >>> 1);
-      if (a.compare(other, j + m, j + mid, i + m, i + mid) === 0) m = mid;
-      else hi = mid;
-    }
-    while (m < hi && a[i + m] === b[j + m]) m++;
-    return m;
+/**
+ * Memory for what a table keeps, which {@link releaseMemory} gives back at once: resizable, so that it
+ * can be resized to nothing. Not detached (moved away by a transfer), as it once was: the first
+ * ArrayBuffer detached in a process throws away the engine's optimized code of every function that
+ * reads a typed array, and a diff's NEW load compiled it all again (docs/performance.md). A plain
+ * ArrayBuffer where the engine cannot reserve the room (the collector frees it then).
+ */
+function releasableMemory(byteLength: number): ArrayBuffer {
+  try {
+    return new ArrayBuffer(byteLength, { maxByteLength: Math.max(1, byteLength) });
+  } catch {
+    return new ArrayBuffer(byteLength);
   }
-  return m;
+}
+
+/** Gives the memory of `buffer` back now, when it is resizable ({@link releasableMemory}). */
+function releaseMemory(buffer: ArrayBufferLike): void {
+  if (buffer instanceof ArrayBuffer && buffer.resizable) buffer.resize(0);
 }
 
 /** Kept tables by the tree their load built (see {@link keepTable}). */
@@ -136,9 +167,9 @@ export function takeKeptTable(tree: object): KeptTable | undefined {
  * reader's side of a {@link KeptTable}.
  */
 export class TableKeeper {
-  private bytes: Buffer;
+  private bytes: Uint8Array;
   private used = 0;
-  private start = new Uint32Array(1024);
+  private start = new Uint32Array(releasableMemory(4 * 1024));
   private rows = 0;
   private end = 0;
   private endLine = 0;
@@ -146,7 +177,7 @@ export class TableKeeper {
   keeping = true;
 
   constructor(inputBytes: number) {
-    this.bytes = Buffer.allocUnsafeSlow(inputBytes);
+    this.bytes = new Uint8Array(releasableMemory(inputBytes));
   }
 
   /** The next chunk of the input, copied (a stream may hand out the same memory again). */
@@ -158,8 +189,10 @@ export class TableKeeper {
       return;
     }
     if (need > this.bytes.length) {
-      const grown = Buffer.allocUnsafeSlow(Math.min(MOST_KEPT_BYTES, Math.max(need, 2 * this.bytes.length)));
-      this.bytes.copy(grown, 0, 0, this.used);
+      const size = Math.min(MOST_KEPT_BYTES, Math.max(need, 2 * this.bytes.length));
+      const grown = new Uint8Array(releasableMemory(size));
+      grown.set(this.bytes.subarray(0, this.used));
+      releaseMemory(this.bytes.buffer);
       this.bytes = grown;
     }
     this.bytes.set(chunk, this.used);
@@ -169,11 +202,7 @@ export class TableKeeper {
   /** Data row `row` (from 0, in order) starts at `at` and its record ends at `end`, before line `nextLine`. */
   row(row: number, at: number, end: number, nextLine: number): void {
     if (!this.keeping) return;
-    if (row + 1 >= this.start.length) {
-      const grown = new Uint32Array(2 * this.start.length);
-      grown.set(this.start);
-      this.start = grown;
-    }
+    if (row + 1 >= this.start.length) this.growStart(2 * this.start.length);
     this.start[row] = at;
     this.rows = row + 1;
     this.end = end;
@@ -182,17 +211,22 @@ export class TableKeeper {
 
   /** Room for `rows` rows' starts, once, where the reader can tell how many are coming. */
   makeRoom(rows: number): void {
-    if (this.keeping && rows + 1 > this.start.length) {
-      const grown = new Uint32Array(rows + 1);
-      grown.set(this.start.subarray(0, this.rows));
-      this.start = grown;
-    }
+    if (this.keeping && rows + 1 > this.start.length) this.growStart(rows + 1);
+  }
+
+  private growStart(length: number): void {
+    const grown = new Uint32Array(releasableMemory(4 * length));
+    grown.set(this.start.subarray(0, this.rows));
+    releaseMemory(this.start.buffer);
+    this.start = grown;
   }
 
   /** Lets go of what is kept: no later reading against this table. */
   drop(): void {
     this.keeping = false;
-    this.bytes = Buffer.alloc(0);
+    releaseMemory(this.bytes.buffer);
+    releaseMemory(this.start.buffer);
+    this.bytes = new Uint8Array(0);
     this.start = new Uint32Array(1);
   }
 
@@ -202,8 +236,10 @@ export class TableKeeper {
     lines: RowLines,
     delimiter: number,
     header: readonly string[],
+    headerLine: number,
+    headerColumns: readonly number[],
     columns: readonly KeptColumn[],
-    hasTexts: readonly boolean[],
+    textRows: readonly (readonly number[])[],
     maxLineBytes: number,
   ): KeptTable | undefined {
     if (!this.keeping || rows !== this.rows) return undefined;
@@ -218,8 +254,10 @@ export class TableKeeper {
       this.endLine,
       delimiter,
       header,
+      headerLine,
+      headerColumns,
       columns,
-      hasTexts,
+      textRows,
       maxLineBytes,
     );
   }

@@ -228,17 +228,69 @@ function linkByteIds(table: Table, ids: NamePool, parents: NumberCells, options:
   const sizes = byteSizes ? undefined : sizeColumn(table, options);
   const rowOf = new ByteIdIndex(ids.byteRuns()!, n);
   const nullParents = nullParentSet(options);
+  // Each loop over the rows is a function of its own: a function whose first loop ran compiles again
+  // at the second (its code never ran), in every load (docs/performance.md).
+  indexIds(rowOf, ids, n, nullParents, options);
+  const parentOf = new Int32Array(n);
+  const origin = new Int32Array(n);
+  const ownSize = new Float64Array(n);
+  const named = names !== undefined && allText(names, n, true);
+  const name: string[] | null = pooled ? null : named ? (names as string[]) : new Array(n);
+  const columns: RowColumns = { pooled, names, named, byteSizes, sizes, textCells: table.textCells };
+  linkParents(rowOf, ids, parents, columns, { parentOf, origin, ownSize, name }, nullParents, options);
+  return {
+    parentOf,
+    name: name === null ? namesOrIds(pooled!, ids, n) : name,
+    ownSize,
+    hasSizes: sizes !== undefined || byteSizes !== undefined,
+    ids,
+    origin,
+    originIsRow: true,
+    fields: keep,
+    rootName: options.rootName,
+    parentColumnRead: true,
+  } satisfies LinkedNodes;
+}
+
+/** Indexes the rows' ids; INVALID_ID, EMPTY_ID or DUPLICATE_ID at the first row that may not be linked. */
+function indexIds(
+  rowOf: ByteIdIndex,
+  ids: NamePool,
+  n: number,
+  nullParents: ReadonlySet<string> | undefined,
+  options: LoadOptions,
+): void {
   for (let r = 0; r < n; r++) {
     if (nullParents?.has(ids.get(r))) throw idIsNullParent(ids.get(r), r + 1, options);
     if (ids.byteLengthOf(r) === 0) throw emptyId(r, options);
     const earlier = rowOf.add(r);
     if (earlier !== -1) throw duplicateId(r, ids.get(r), earlier, options);
   }
-  const parentOf = new Int32Array(n);
-  const origin = new Int32Array(n);
-  const ownSize = new Float64Array(n);
-  const named = names !== undefined && allText(names, n, true);
-  const name: string[] | null = pooled ? null : named ? (names as string[]) : new Array(n);
+}
+
+/** The columns of a table {@link linkParents} reads besides the ids and parents. */
+interface RowColumns {
+  pooled: NamePool | undefined;
+  names: readonly Cell[] | undefined;
+  named: boolean;
+  byteSizes: NumberCells | undefined;
+  sizes: readonly Cell[] | undefined;
+  textCells: boolean;
+}
+
+/** Each row's parent (its row, -1 for none), origin, size and, unless pooled, name; MISSING_PARENT where none. */
+function linkParents(
+  rowOf: ByteIdIndex,
+  ids: NamePool,
+  parents: NumberCells,
+  columns: RowColumns,
+  out: { parentOf: Int32Array; origin: Int32Array; ownSize: Float64Array; name: string[] | null },
+  nullParents: ReadonlySet<string> | undefined,
+  options: LoadOptions,
+): void {
+  const { pooled, names, named, byteSizes, sizes, textCells } = columns;
+  const { parentOf, origin, ownSize, name } = out;
+  const n = parentOf.length;
   const { values, texts } = parents;
   // The text cells' bytes (read only once every cell is in).
   const textRuns = texts.byteRuns();
@@ -274,20 +326,8 @@ function linkByteIds(table: Table, ids: NamePool, parents: NumberCells, options:
     if (name !== null && !named) name[r] = (names && cellText(names[r])) || ids.get(r);
     if (byteSizes) {
       ownSize[r] = sizeOf(numberCell(byteSizes, r), true, r + 1, options.sizeField);
-    } else if (sizes) ownSize[r] = sizeOf(sizes[r], table.textCells, r + 1, options.sizeField);
+    } else if (sizes) ownSize[r] = sizeOf(sizes[r], textCells, r + 1, options.sizeField);
   }
-  return {
-    parentOf,
-    name: name === null ? namesOrIds(pooled!, ids, n) : name,
-    ownSize,
-    hasSizes: sizes !== undefined || byteSizes !== undefined,
-    ids,
-    origin,
-    originIsRow: true,
-    fields: keep,
-    rootName: options.rootName,
-    parentColumnRead: true,
-  } satisfies LinkedNodes;
 }
 
 /** The pooled name column as the nodes' names, each empty name replaced by the row's id. */

@@ -132,6 +132,45 @@ describe("chooseReading(sample, fields)", () => {
     expect(choose(JSON.stringify(deeper))).toEqual({ kind: "values" });
   });
 
+  it("chooseReading takes no records sharing a field by chance, nor a package's exports, for the document's children", () => {
+    // Shapes met on this machine (node_modules, a cloud SDK's command files), with invented values.
+    // A package.json: its contributors (a list) share its `name`, its funding list its `type`.
+    const manifest = {
+      name: "tidewater-ledger",
+      version: "4.2.0",
+      type: "module",
+      keywords: ["ledger"],
+      contributors: [{ name: "Harbor Crew", email: "crew@tidewater.invalid" }],
+    };
+    expect(choose(JSON.stringify(manifest))).toEqual({ kind: "values" });
+    const funded = { ...manifest, contributors: undefined, funding: [{ type: "opencollective", url: "x" }] };
+    expect(choose(JSON.stringify(funded))).toEqual({ kind: "values" });
+    // Keyed by name and sharing `name` and `version`, beside a dozen other fields holding objects.
+    const engines = {
+      ...manifest,
+      scripts: { build: "make" },
+      files: ["dist"],
+      devEngines: { packageManager: { name: "kelp", version: "1.0.0" } },
+    };
+    expect(choose(JSON.stringify(engines))).toEqual({ kind: "values" });
+    // A command file: its arguments' records share `help_text`, a string there and an object here.
+    const command = {
+      help_text: { brief: "List the ledgers." },
+      arguments: { resource: { help_text: "The harbor to list.", spec: "ledger" } },
+      request: { collection: "ledgers" },
+    };
+    expect(choose(JSON.stringify([command]))).toEqual({ kind: "values" });
+    // A package's exports: keyed by subpath ("." and "./…"), one under another, but no listing.
+    const exported = {
+      ...manifest,
+      contributors: undefined,
+      exports: { ".": { import: "./a.js" }, "./b/c": { import: "./c.js" }, "./b": { import: "./b.js" } },
+    };
+    expect(choose(JSON.stringify(exported))).toEqual({ kind: "values" });
+    const lock = { name: "t", packages: { "": { version: "1" }, "node_modules/a": { version: "2" } } };
+    expect(choose(JSON.stringify(lock))).toEqual({ kind: "path-map", field: "packages" });
+  });
+
   it("chooseReading reads as another version was read (sameReading) when the document fits, else SHAPE", () => {
     const lock = '{"packages":{"":{},"node_modules/a":{}}}';
     const listing = '{"name":"r","dependencies":{"a":{"version":"1"}}}';
