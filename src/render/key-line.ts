@@ -326,7 +326,11 @@ function packRows(
     const it = item(mark, k === 0 ? "" : ",");
     const last = lines[lines.length - 1];
     if (last.items.length === 0 || room(last, it) <= width) put(last, it);
-    else put((lines[lines.length] = { items: [], width: start(lines.length) }), it);
+    else {
+      const line = { items: [], width: start(lines.length) };
+      lines.push(line);
+      put(line, it);
+    }
   });
   const from = lines.length - 1;
   for (const clause of clauses) {
