@@ -182,7 +182,11 @@ export function keyLines(
   if (over !== "") tries.push([]);
   const row = (t: string[]) => `${ROW_INDENT}${[...(over ? [over] : []), ...t].join("; ")}`;
   const second = tries.map(row).find((t) => displayWidth(t) <= room);
-  return [first, second ?? shortenEnd(row([parts[0][2]]), room)];
+  const two = [first, second ?? shortenEnd(row([parts[0][2]]), room)];
+  // The first line holds the marks alone: where parts packed on both lines say more, those.
+  if (style === "markdown") return two;
+  const packed = packedKey(kind, facts, room, 2) ?? packedKey(kind, facts, room, 2, true);
+  return packed !== null && partsSaid(kind, facts, packed) > partsSaid(kind, facts, two) ? packed : two;
 }
 
 /** The key's second line starts as a wrapped header line does. */
