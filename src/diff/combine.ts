@@ -3,7 +3,7 @@ import type { Tree } from "../model/tree.js";
 import { KIND } from "./changes.js";
 import type { ComparedFields } from "./field-edits.js";
 import { kindOf } from "./kind-of.js";
-import type { Matching } from "./match.js";
+import type { Matching, UnmatchedOld } from "./match.js";
 import { splice } from "./splice.js";
 
 /** Both versions in one tree: the new version plus every removed node at its old place. */
@@ -52,6 +52,8 @@ export function combine(
 /**
  * {@link combine}, and the changed nodes of the combined tree (those with a kind) in ascending order,
  * listed as they are placed: a later stage then needs no pass over every node's kind to find them.
+ * `unmatched`: the removed nodes as the matcher listed them (`matchTreesListing`), when it did: then
+ * no pass over every old node looks for them.
  */
 export function combineListing(
   oldTree: Tree,
@@ -60,13 +62,14 @@ export function combineListing(
   newCount: Int32Array,
   matching: Matching,
   compared: ComparedFields | null = null,
+  unmatched?: UnmatchedOld,
 ): { combined: Combined; changed: Int32Array } {
   const { oldToNew, newToOld } = matching;
   // Each pass below is a function of its own with one loop (and no growing array in it): the engine
   // compiles a loop that runs once while it runs, and compiles it again when the loop meets code it has
   // not run yet (docs/performance.md, eleventh session).
   const kindOfPair = kindOf(oldTree, newTree, matching, compared);
-  const removed = removedIn(oldToNew);
+  const removed = unmatched?.count ?? removedIn(oldToNew);
   if (removed === 0) {
     // Nothing to splice in: the combined tree is the new tree.
     const identity = identityOf(newTree.length);
@@ -76,7 +79,16 @@ export function combineListing(
       changed,
     };
   }
-  const spliced = splice(oldTree, oldCount, newTree, newCount, oldToNew, newToOld, removed, kindOfPair);
+  const spliced = splice(
+    oldTree,
+    oldCount,
+    newTree,
+    newCount,
+    matching,
+    removed,
+    kindOfPair,
+    unmatched?.ranges,
+  );
   const { newIndex, oldIndex, kind, changed } = spliced;
   return {
     combined: combined(oldTree, newTree, matching, newIndex, oldIndex, kind, spliced, compared),

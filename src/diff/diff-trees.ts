@@ -15,7 +15,7 @@ import { diffOrder } from "./diff-order.js";
 import { buildDiffView, type DiffViewNode } from "./diff-view.js";
 import { comparedFields } from "./field-edits.js";
 import { alignGraphRoots, distinctNodes, graphCombined, isGraphDiff, matchGraphs } from "./graph-changes.js";
-import { type Matching, matchTrees } from "./match.js";
+import { type Matching, matchTreesListing } from "./match.js";
 import { type ChangeMeasures, changesIn, measureChanges, netIn } from "./measure-changes.js";
 import { withPathIds } from "./path-ids.js";
 import { type DiffTotals, PreparedDiff } from "./prepared-diff.js";
@@ -87,8 +87,16 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
       found.newEdges,
     );
   } else {
-    const matching = matchTrees(oldTree, oldCount, newTree, newCount, room);
-    ({ combined, changed } = combineListing(oldTree, oldCount, newTree, newCount, matching, compared));
+    const { matching, unmatched } = matchTreesListing(oldTree, oldCount, newTree, newCount, room);
+    ({ combined, changed } = combineListing(
+      oldTree,
+      oldCount,
+      newTree,
+      newCount,
+      matching,
+      compared,
+      unmatched,
+    ));
     lendable = unread(combined, [matching.newToOld, matching.oldToNew, oldCount]);
   }
   const { tree } = combined;

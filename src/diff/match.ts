@@ -9,6 +9,22 @@ export interface Matching {
   readonly oldToNew: Int32Array;
   /** The old node matching each new node, or -1 (the new node was added). */
   readonly newToOld: Int32Array;
+  /**
+   * True when every matched pair's parents are each other's counterparts, as matching by path pairs
+   * them (only children of matched parents): then no node but the root can be moved or renamed.
+   */
+  readonly parentsKept?: boolean;
+}
+
+/**
+ * The old nodes a matching left without a counterpart (the removed nodes), as the matcher knows them:
+ * how many, and, matched by id, ranges of old nodes (start, end, start, end, ... ascending) outside of
+ * which every old node has one; null when they may lie anywhere. A later stage then need not read
+ * every old node to find them.
+ */
+export interface UnmatchedOld {
+  readonly count: number;
+  readonly ranges: readonly number[] | null;
 }
 
 /**
@@ -24,16 +40,33 @@ export function matchTrees(
   newCount: Int32Array,
   room = 0,
 ): Matching {
+  return matchTreesListing(oldTree, oldCount, newTree, newCount, room).matching;
+}
+
+/** {@link matchTrees}, and the old nodes it left unmatched ({@link UnmatchedOld}). */
+export function matchTreesListing(
+  oldTree: Tree,
+  oldCount: Int32Array,
+  newTree: Tree,
+  newCount: Int32Array,
+  room = 0,
+): { matching: Matching; unmatched: UnmatchedOld } {
+  if (oldTree.ids && newTree.ids) {
+    // Every entry is written by the walk (a pair, or -1 for a row it leaves), so none is filled first.
+    const oldToNew = numbers(oldTree.length, room);
+    const newToOld = numbers(newTree.length, room);
+    const unmatched = matchById(oldTree.ids, oldCount, newTree.ids, newCount, oldToNew, newToOld);
+    return { matching: { by: "id", oldToNew, newToOld }, unmatched };
+  }
   const oldToNew = numbers(oldTree.length, room).fill(-1);
   const newToOld = numbers(newTree.length, room).fill(-1);
   oldToNew[0] = 0;
   newToOld[0] = 0;
-  if (oldTree.ids && newTree.ids) {
-    matchById(oldTree.ids, oldCount, newTree.ids, newCount, oldToNew, newToOld);
-    return { by: "id", oldToNew, newToOld };
-  }
-  matchByPath(oldTree, oldCount, newTree, newCount, oldToNew, newToOld);
-  return { by: "path", oldToNew, newToOld };
+  const pairs = matchByPath(oldTree, oldCount, newTree, newCount, oldToNew, newToOld);
+  return {
+    matching: { by: "path", oldToNew, newToOld, parentsKept: true },
+    unmatched: { count: oldTree.length - 1 - pairs, ranges: null },
+  };
 }
 
 /**
@@ -51,6 +84,7 @@ function numbers(length: number, room: number): Int32Array {
  * Each pass is a function of its own, with one loop: the engine compiles a loop that runs once while it
  * runs, and a loop followed by more work in the same function is compiled again for that work, the
  * largest part of this stage's processor time at 1M rows (docs/performance.md, eleventh session).
+ * Writes every entry of both arrays (memory of any contents); returns the old rows left unmatched.
  */
 function matchById(
   oldIds: Names,
@@ -59,10 +93,25 @@ function matchById(
   newCount: Int32Array,
   oldToNew: Int32Array,
   newToOld: Int32Array,
-) {
+): UnmatchedOld {
+  oldToNew[0] = 0;
+  newToOld[0] = 0;
   const left = pairInPlace(oldIds, oldCount, newIds, newCount, oldToNew, newToOld);
+  const oldLeft = unpaired(oldToNew, left.old);
+  unpaired(newToOld, left.new);
   const byId = unpairedIds(oldIds, left.old);
-  if (byId.size > 0) pairByMap(byId, newIds, left.new, oldToNew, newToOld);
+  const pairs = byId.size > 0 ? pairByMap(byId, newIds, left.new, oldToNew, newToOld) : 0;
+  return { count: oldLeft - pairs, ranges: left.old };
+}
+
+/** Marks the rows of `ranges` (see {@link pairInPlace}) unpaired (-1) in `toOther`; returns how many. */
+function unpaired(toOther: Int32Array, ranges: number[]): number {
+  let rows = 0;
+  for (let r = 0; r < ranges.length; r += 2) {
+    toOther.fill(-1, ranges[r], ranges[r + 1]);
+    rows += ranges[r + 1] - ranges[r];
+  }
+  return rows;
 }
 
 /**
@@ -80,6 +129,8 @@ function pairInPlace(
   const nOld = oldIds.length;
   const nNew = newIds.length;
   const equalBytes = bytesCompare(oldIds, newIds);
+  const sameOldNew = sameIds(oldIds, newIds);
+  const sameNewOld = sameIds(newIds, oldIds);
   const oldLeft: number[] = [];
   const newLeft: number[] = [];
   let o = 1;
@@ -93,14 +144,14 @@ function pairInPlace(
       n += run;
       continue;
     }
-    if (isEmptyName(newIds, n) || !sameName(oldIds, o, newIds, n)) {
-      const skipOld = ahead(oldIds, oldCount, o, newIds, n);
+    if (isEmptyName(newIds, n) || !sameOldNew(o, n)) {
+      const skipOld = ahead(oldCount, o, sameOldNew, isEmptyName(newIds, n) ? -1 : n);
       if (skipOld > 0) {
         leave(oldLeft, o, skipOld);
         o = skipOld;
         continue;
       }
-      const skipNew = ahead(newIds, newCount, n, oldIds, o);
+      const skipNew = ahead(newCount, n, sameNewOld, isEmptyName(oldIds, o) ? -1 : o);
       if (skipNew > 0) {
         leave(newLeft, n, skipNew);
         n = skipNew;
@@ -166,14 +217,18 @@ function unpairedIds(oldIds: Names, left: number[]): Map<string, number> {
   return byId;
 }
 
-/** New rows the walk left unpaired (`left`: ranges), paired with the unpaired old row of their id. */
+/**
+ * New rows the walk left unpaired (`left`: ranges), paired with the unpaired old row of their id;
+ * returns how many pairs it made.
+ */
 function pairByMap(
   byId: Map<string, number>,
   newIds: Names,
   left: number[],
   oldToNew: Int32Array,
   newToOld: Int32Array,
-): void {
+): number {
+  let pairs = 0;
   for (let r = 0; r < left.length; r += 2) {
     for (let k = left[r]; k < left[r + 1]; k++) {
       if (isEmptyName(newIds, k)) continue;
@@ -181,24 +236,40 @@ function pairByMap(
       if (m === undefined || oldToNew[m] !== -1) continue;
       oldToNew[m] = k;
       newToOld[k] = m;
+      pairs++;
     }
   }
+  return pairs;
 }
 
 /**
- * A position just past a few whole subtrees, or one node, from `at` whose id is id `j` of `other`;
- * else 0.
+ * A position just past a few whole subtrees, or one node, from `at` (in a version of `count.length`
+ * rows) whose id is id `j` of the other version by `same`; else 0, and always for `j` -1 (an empty id).
  */
-function ahead(ids: Names, count: Int32Array, at: number, other: Names, j: number): number {
-  if (isEmptyName(other, j)) return 0;
-  if (at + 1 < ids.length && sameName(ids, at + 1, other, j)) return at + 1;
+function ahead(count: Int32Array, at: number, same: (i: number, j: number) => boolean, j: number): number {
+  if (j < 0) return 0;
+  const length = count.length;
+  if (at + 1 < length && same(at + 1, j)) return at + 1;
   let p = at;
   for (let k = 0; k < 4; k++) {
     p += count[p];
-    if (p >= ids.length) return 0;
-    if (sameName(ids, p, other, j)) return p;
+    if (p >= length) return 0;
+    if (same(p, j)) return p;
   }
   return 0;
+}
+
+/**
+ * Whether id i of `a` and id j of `b` are the same id, as the walk of {@link pairInPlace} asks. Both
+ * pools of bytes: by equal bytes alone (`bytesCompare`). Ids whose bytes differ yet decode alike (bytes
+ * that are not UTF-8) are then left to {@link pairByMap}, which pairs them by text: ids are unique in
+ * a version, so the same pairs come out, and the walk's loop calls nothing that decodes (a smaller loop
+ * that the engine compiles sooner, docs/performance.md, twelfth session). Otherwise `sameName`.
+ */
+function sameIds(a: Names, b: Names): (i: number, j: number) => boolean {
+  const equalBytes = bytesCompare(a, b);
+  if (pooledBytes(a) && pooledBytes(b)) return equalBytes;
+  return (i, j) => equalBytes(i, j) || sameName(a, i, b, j);
 }
 
 /**
@@ -208,7 +279,8 @@ function ahead(ids: Names, count: Int32Array, at: number, other: Names, j: numbe
  * names decoded). Stopping at bytes that differ but decode alike pairs the same nodes as going on would:
  * from there both lists hold those names at the same positions, so their k-th occurrences are paired
  * alike either way. Names that are not all pooled bytes (a tree put under a new root, names kept as
- * strings) are compared by sameName in the first pass too, as their bytes cannot be.
+ * strings) are compared by sameName in the first pass too, as their bytes cannot be. Returns how many
+ * pairs it made below the roots.
  */
 function matchByPath(
   oldTree: Tree,
@@ -217,7 +289,7 @@ function matchByPath(
   newCount: Int32Array,
   oldToNew: Int32Array,
   newToOld: Int32Array,
-) {
+): number {
   const oldName = oldTree.name;
   const newName = newTree.name;
   const equalBytes = bytesCompare(oldName, newName);
@@ -225,6 +297,7 @@ function matchByPath(
     pooledBytes(oldName) && pooledBytes(newName)
       ? equalBytes
       : (i: number, j: number) => equalBytes(i, j) || sameName(oldName, i, newName, j);
+  let pairs = 0;
   for (let n = 0; n < newTree.length; n++) {
     const o = newToOld[n];
     if (o < 0) {
@@ -232,14 +305,15 @@ function matchByPath(
       continue;
     }
     if (newCount[n] > 1 && oldCount[o] > 1)
-      pairChildren(same, oldName, oldCount, o, newName, newCount, n, oldToNew, newToOld);
+      pairs += pairChildren(same, oldName, oldCount, o, newName, newCount, n, oldToNew, newToOld);
   }
+  return pairs;
 }
 
 /**
  * The children of matched old node o and new node n: position by position while `same` holds, then by
  * name ({@link pairByName}). A function of its own, called once a node with children on both sides: the
- * loop over every node stays small, and the engine makes a small loop fast soon.
+ * loop over every node stays small, and the engine makes a small loop fast soon. Returns how many pairs.
  */
 function pairChildren(
   same: (i: number, j: number) => boolean,
@@ -251,19 +325,22 @@ function pairChildren(
   n: number,
   oldToNew: Int32Array,
   newToOld: Int32Array,
-): void {
+): number {
   const oEnd = o + oldCount[o];
   const nEnd = n + newCount[n];
   let oc = o + 1;
   let nc = n + 1;
+  let pairs = 0;
   while (oc < oEnd && nc < nEnd && same(oc, nc)) {
     oldToNew[oc] = nc;
     newToOld[nc] = oc;
     oc += oldCount[oc];
     nc += newCount[nc];
+    pairs++;
   }
   if (oc < oEnd && nc < nEnd)
-    pairByName(oldName, oldCount, oc, oEnd, newName, newCount, nc, nEnd, oldToNew, newToOld);
+    pairs += pairByName(oldName, oldCount, oc, oEnd, newName, newCount, nc, nEnd, oldToNew, newToOld);
+  return pairs;
 }
 
 /** Whether every name is bytes in a pool, which bytesCompare compares. */
@@ -273,7 +350,7 @@ function pooledBytes(names: Names): boolean {
 
 /**
  * The old children from `oc` to `oEnd` and the new ones from `nc` to `nEnd` (of matched parents): the
- * k-th old child of a name pairs with the k-th new child of it.
+ * k-th old child of a name pairs with the k-th new child of it. Returns how many pairs.
  */
 function pairByName(
   oldName: Names,
@@ -286,7 +363,7 @@ function pairByName(
   nEnd: number,
   oldToNew: Int32Array,
   newToOld: Int32Array,
-): void {
+): number {
   const waiting = new Map<string, { next: number; list: number[] }>();
   for (let c = oc; c < oEnd; c += oldCount[c]) {
     const name = oldName.get(c);
@@ -294,11 +371,14 @@ function pairByName(
     if (queue) queue.list.push(c);
     else waiting.set(name, { next: 0, list: [c] });
   }
+  let pairs = 0;
   for (let c = nc; c < nEnd; c += newCount[c]) {
     const queue = waiting.get(newName.get(c));
     if (!queue || queue.next === queue.list.length) continue;
     const m = queue.list[queue.next++];
     oldToNew[m] = c;
     newToOld[c] = m;
+    pairs++;
   }
+  return pairs;
 }

@@ -38,7 +38,7 @@ export function measureChanges(
   // Each pass is a function of its own with one loop, and no list grows in one: the engine compiles a
   // loop that runs once while it runs, and again when the loop meets code it has not run yet.
   const onChangePath = new Uint8Array(tree.length);
-  const onPath = markPaths(changed, parent, onChangePath).sort();
+  const onPath = markPaths(changed, parent, tree.depth, onChangePath).sort();
   const up = parentSlots(onPath, parent);
   const { counts, net } = summed(onPath, up, kind, deltaOf);
   return { onChangePath, onPath, up, counts, net };
@@ -46,11 +46,20 @@ export function measureChanges(
 
 /**
  * Marks the nodes up from each changed node to the first node already marked (each node on a path
- * once) and lists them. The list is made as long as the tree (memory no one writes costs nothing) and
- * copied to its length at the end.
+ * once) and lists them. The list is made as long as the paths could be at most (no longer than the
+ * tree), so that it never grows in the loop, and copied to its length at the end: a list as long as
+ * the tree would cost nothing where it is not written, yet counts as memory taken, which brings the
+ * next full garbage collection nearer.
  */
-function markPaths(changed: Int32Array, parent: Int32Array, onChangePath: Uint8Array): Int32Array {
-  const onPath = new Int32Array(onChangePath.length);
+function markPaths(
+  changed: Int32Array,
+  parent: Int32Array,
+  depth: Int32Array,
+  onChangePath: Uint8Array,
+): Int32Array {
+  let most = 0;
+  for (let c = 0; c < changed.length && most < onChangePath.length; c++) most += depth[changed[c]] + 1;
+  const onPath = new Int32Array(Math.min(most, onChangePath.length));
   let m = 0;
   for (let c = 0; c < changed.length; c++) {
     for (let a = changed[c]; a >= 0 && onChangePath[a] === 0; a = parent[a]) {

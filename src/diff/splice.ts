@@ -1,5 +1,6 @@
 import type { Tree } from "../model/tree.js";
 import { KIND } from "./changes.js";
+import type { Matching } from "./match.js";
 
 /**
  * The combined tree's nodes in pre-order: where each comes from (`newIndex`: the node in the new
@@ -35,20 +36,23 @@ interface Layout extends Spliced {
  * The places are found and sorted (O(t log t) for t top removed nodes; the usual input is nearly in
  * order already), so the work over every node is a few copies of runs, not a step per subtree; each
  * new node's kind (`kindOfPair`, see `kindOf`) is found in the same step as its parent, and every
- * removed node's written as it is laid. `removed`: how many old nodes have no counterpart (at least 1).
+ * removed node's written as it is laid. `removed`: how many old nodes have no counterpart (at least 1);
+ * `ranges`: old nodes outside of which none lies (`UnmatchedOld`), when the matcher listed them.
  */
 export function splice(
   oldTree: Tree,
   oldCount: Int32Array,
   newTree: Tree,
   newCount: Int32Array,
-  oldToNew: Int32Array,
-  newToOld: Int32Array,
+  matching: Matching,
   removed: number,
   kindOfPair: (n: number, o: number) => number,
+  ranges?: readonly number[] | null,
 ): Spliced {
+  const { oldToNew, newToOld } = matching;
   const total = newTree.length + removed;
-  const places = topRemoved(oldTree, oldCount, newTree, newCount, oldToNew, removed);
+  const everyOld = [1, oldToNew.length];
+  const places = topRemoved(oldTree, oldCount, newTree, newCount, oldToNew, removed, ranges ?? everyOld);
   const order = inPlaceOrder(places);
   // The changed list is made as long as the tree (memory no one writes costs nothing) so that it never
   // grows in a loop, and copied to its length at the end.
@@ -99,7 +103,8 @@ interface Places {
 /**
  * The top removed nodes and their places, in old order under each new parent: the old children of each
  * old node that lost some are read once, in order, keeping the last one whose counterpart is a child of
- * that node's counterpart (the anchor).
+ * that node's counterpart (the anchor). The removed nodes are looked for in `ranges` of old nodes
+ * (start, end, ... ascending; see `UnmatchedOld`).
  */
 function topRemoved(
   oldTree: Tree,
@@ -108,6 +113,7 @@ function topRemoved(
   newCount: Int32Array,
   oldToNew: Int32Array,
   removed: number,
+  ranges: readonly number[],
 ): Places {
   const places: Places = {
     count: 0,
@@ -118,13 +124,15 @@ function topRemoved(
   const oldParent = oldTree.parent;
   // Old parents whose children were read (by their counterpart): each is read once.
   const read = new Uint8Array(newTree.length);
-  for (let r = 1; r < oldToNew.length; r++) {
-    if (oldToNew[r] >= 0) continue;
-    const o = oldParent[r];
-    const m = oldToNew[o];
-    if (m < 0 || read[m] === 1) continue;
-    read[m] = 1;
-    placeChildren(places, o, m, oldCount, oldToNew, newTree.parent, newCount);
+  for (let g = 0; g < ranges.length; g += 2) {
+    for (let r = ranges[g]; r < ranges[g + 1]; r++) {
+      if (oldToNew[r] >= 0) continue;
+      const o = oldParent[r];
+      const m = oldToNew[o];
+      if (m < 0 || read[m] === 1) continue;
+      read[m] = 1;
+      placeChildren(places, o, m, oldCount, oldToNew, newTree.parent, newCount);
+    }
   }
   return places;
 }

@@ -16,6 +16,7 @@ import { EspalierError, quoted, say } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import { adjacencyNodes } from "./adjacency.js";
+import { folderSectionsAt, folderSectionsError } from "./folder-sections.js";
 import type { LoadOptions } from "./load-options.js";
 import { chooseReading } from "./shape/choose-reading.js";
 import { sampleNested } from "./shape/sample-nested.js";
@@ -80,6 +81,9 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
         pos,
       );
     }
+    // Detected as YAML by its first line (no --input-format, no .yaml name): `ls -R` output starts so.
+    const sections = detectedYaml(options) ? folderSectionsAt(text) : undefined;
+    if (sections !== undefined) throw folderSectionsError(sections);
     const reason = error.message.replace(/ at line \d+, column \d+:.*$/s, "");
     throw new EspalierError("PARSE_YAML", say`invalid YAML (${error.code}): ${quoted.excerpt(reason)}`, pos);
   }
@@ -378,4 +382,9 @@ function plainValue(
       );
     throw error;
   }
+}
+
+/** Whether the input was taken for YAML by its content: no `--input-format`, no `.yaml`/`.yml` name. */
+function detectedYaml(options: LoadOptions): boolean {
+  return options.format === undefined && !/\.ya?ml$/i.test(options.file ?? "");
 }

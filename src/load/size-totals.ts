@@ -10,7 +10,7 @@ import type { FolderSizes } from "./path-list/folder-totals.js";
  * a cost roll-up gives a department with its teams), so its own size is that minus its children's;
  * `own`, each is the node alone, as espalier reads them by default. Without a mode, sizes that look
  * like totals (every node with children at least as big as they add up to, and one of them with
- * children of some size) are still read as own, and a SIZES_LIKE_TOTALS note says so: unlike a path
+ * children that fill {@link FILLED} of its size) are still read as own, and a SIZES_LIKE_TOTALS note says so: unlike a path
  * list, whose `du` order tells totals apart (path-list/folder-totals.ts), nothing in node objects or
  * rows does, and a parent that costs more than its one cheap child is no total.
  * Returns the tree with own sizes and reading changed as read; trees of other shapes as they are.
@@ -49,7 +49,7 @@ export function readSizeTotals(tree: Tree, mode: FolderSizes | undefined): Tree 
     if (mode === "total") ownSize[k] -= contents;
     else if (contents > 0) {
       sized++;
-      if (k < first) [first, firstSum] = [k, contents];
+      if (contents >= FILLED * ownSize[k] && k < first) [first, firstSum] = [k, contents];
     }
     return true;
   };
@@ -66,7 +66,7 @@ export function readSizeTotals(tree: Tree, mode: FolderSizes | undefined): Tree 
   }
   while (top >= 0) if (!close()) return tree;
   if (mode === "total") return { ...tree, reading: { ...reading, folderTotals: true } };
-  if (sized === 0) return tree;
+  if (first === length) return tree;
   const note = likeTotalsNote(tree, first, firstSum, sized);
   return { ...tree, reading: { ...reading, notes: [...(reading.notes ?? []), note] } };
 }
@@ -77,6 +77,16 @@ function grown<T extends Int32Array | Float64Array | Uint8Array>(a: T): T {
   b.set(a);
   return b;
 }
+
+/**
+ * The share of a node's size its children must fill, in one node at least, before sizes that pass the
+ * test of totals get the note: totals have a node whose own part is small beside what it holds (a
+ * disk's partitions fill it but for a MiB; a roll-up's top holds little of its own), where own sizes
+ * that pass by chance hold little below (a folder's 4 KiB entry above a few small files). Measured on
+ * every folder below /usr/share, /etc and two node_modules here as node objects of own sizes: 988 of
+ * 4,179 passed the test; 201 with a node 75% full (132 at 90%, 371 at 50%).
+ */
+const FILLED = 0.75;
 
 /** Shapes whose sizes are a record's field: node objects, JSON rows, tables, a map keyed by path. */
 const kept = new Set(["nodes", "rows", "table", "path-map"]);

@@ -50,6 +50,18 @@ describe("the header line says each reading note in a few words", () => {
     );
   });
 
+  it("under --bare, leaves standard output the tree's lines and says the note on standard error", async () => {
+    const result = await cli(["-", "--budget", "10", "--bare"], { stdin: listing });
+    expect(result.code).toBe(0);
+    expect(result.stdout).not.toContain("missing");
+    expect(result.stdout.split("\n")[0]).toMatch(/^\. tidewater {2}5 nodes/);
+    expect(result.stderr).toMatch(/^espalier: note: <stdin>:\d+: .*\[MISSING_ENTRIES\]\n$/);
+    const json = await cli(["-", "--bare", "--format", "json"], { stdin: listing });
+    expect(JSON.parse(json.stdout).input.notes).toEqual([
+      expect.objectContaining({ code: "MISSING_ENTRIES" }),
+    ]);
+  });
+
   it("wraps the clause with the others within a narrow width, and the budget counts the lines", async () => {
     for (const width of [40, 50, 60]) {
       const result = await cli(["-", "--budget", "9", "--width", String(width)], { stdin: listing });

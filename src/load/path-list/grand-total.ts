@@ -74,7 +74,7 @@ export function grandTotalNote(line: number, size: number, name: string): Readin
   return {
     code: "TOTAL_LINE_LEFT_OUT",
     line,
-    parts: say`line ${line} (${size} ${quoted.name(name)}) gives what the other lines add up to, as du -c and wc -c end a listing with a grand total: it was left out, not read as a file of that name (list without -c to leave it out yourself)`,
+    parts: say`line ${line} (${size} ${quoted.name(name)}) gives what the other lines add up to, as du -c and wc -c end a listing with a grand total: it was left out, not read as a file of that name (du without -c leaves it out itself)`,
   };
 }
 

@@ -414,6 +414,8 @@ export class PathListReader {
       this.firstLine = line;
     }
     if (this.sized) {
+      // wc -c pads its sizes with spaces to one width: read from the number on.
+      if (this.sizeEnd === space) while (start < end && bytes[start] === space) start++;
       // Fast path: 1 to 15 digits, then the tab (exact in a double).
       let k = start;
       let value = 0;
@@ -488,10 +490,12 @@ export class PathListReader {
 
 /**
  * Whether `bytes[start, end)` is a size, spaces and a path that starts with "/" or "./" or is ".": the
- * first line of `find DIR -printf '%s %p\n'` (DIR absolute or "."). A plain path list's first name
+ * first line of `find DIR -printf '%s %p\n'` (DIR absolute or "."), or of `wc -c ./a ./b`, whose sizes
+ * are padded with spaces in front to one width (GNU wc, seen here). A plain path list's first name
  * could start with digits and a space ("2019 survey/a.jpg"), but then no "/" or "./" follows the spaces.
  */
 function spaceSized(bytes: Buffer, start: number, end: number): boolean {
+  while (start < end && bytes[start] === space) start++;
   let k = start;
   while (k < end && k - start < 16 && bytes[k] >= 48 && bytes[k] <= 57) k++;
   if (k === start || k - start > 15 || k >= end || bytes[k] !== space) return false;
