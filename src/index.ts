@@ -58,6 +58,7 @@ export { type HeaderOptions, type HeaderStyle, summaryHeader, summaryHeaderLines
 export { renderSvg, type SvgOptions } from "./render/icicle-svg.js";
 export {
   KEY_MIN_BUDGET,
+  KEY_MOST_ROWS,
   KEY_ONE_ROW,
   type KeyContext,
   type KeyFacts,
@@ -65,7 +66,9 @@ export {
   keyFacts,
   keyLine,
   keyLines,
+  keyMostRows,
   keyRows,
+  keyRowsNeeded,
   type WidthCuts,
 } from "./render/key-line.js";
 export { type LineGroup, lineGroups } from "./render/line-groups.js";

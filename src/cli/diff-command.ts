@@ -1,6 +1,7 @@
 import { totalChanges } from "../diff/changes.js";
 import { type DiffOptions, prepareDiff, summarizeDiff } from "../diff/diff-trees.js";
 import { defaultComparedFields } from "../diff/field-edits.js";
+import { keyMostRows } from "../render/key-line.js";
 import type { CommandOutput } from "./command-output.js";
 import { EXIT } from "./exit-codes.js";
 import { fitToBudget } from "./fit-to-budget.js";
@@ -16,7 +17,7 @@ import {
   legendInError,
   outputSettings,
 } from "./output-settings.js";
-import { diffHeaderRows, diffRenderers } from "./renderers.js";
+import { diffHeaderRows, diffLines, diffRenderers } from "./renderers.js";
 
 /** Reads, compares and renders two versions; returns the text to print and the exit code. */
 export async function diffCommand(
@@ -61,19 +62,27 @@ async function diffOutput(
     ...outputSettings(opts, io, tree, [oldTree, newTree]),
     compared: comparedSaid(compareFields, [oldTree, newTree]),
   };
+  // The text's key rows are counted in every format, so every format shows the same nodes.
+  const { diffKeyRows } = await import("../render/diff-text.js");
   // A header wider than the line wraps, and the budget counts its lines: fitted with them counted.
-  const { result, keyLeftOut } = fitToBudget(
+  const { result, keyLeftOut, keyRows } = fitToBudget(
     {
       fit: (budget, before, spare) =>
         summarizeDiff(prepared, { ...options, budget, headerLines: before, spareLines: spare }),
       headerRows: (r, budget, left) => diffHeaderRows(r, { ...settings, budget, keyLeftOut: left }, tree),
+      keyRowsOf: (r, budget) =>
+        diffKeyRows(
+          r.view,
+          diffLines(r, { ...settings, budget }, tree.hasSizes),
+          keyMostRows(budget, settings.width),
+        ),
       ...budgetLines(opts, "diff", io),
       canGrow: true,
     },
     options.budget,
   );
   if (result.unmatchedFoci.length > 0) io.stderr.write(unmatchedWarning(result.unmatchedFoci));
-  const text = await diffRenderers[opts.format](result, { ...settings, keyLeftOut }, tree);
+  const text = await diffRenderers[opts.format](result, { ...settings, keyLeftOut, keyRows }, tree);
   const differ = totalChanges(result.totals.changes) > 0;
   return { text, exitCode: opts.failOnChange && differ ? EXIT.differences : EXIT.ok };
 }

@@ -17,15 +17,19 @@ export interface BudgetFit<R extends { selection: Selection }> {
   header: boolean;
   /** Rows the key takes at `budget`: 0 where it is not printed at that budget (see `showsKey`). */
   keyRows(budget: number): number;
+  /** Rows the key above `result`'s lines needs to say all it explains (see `keyRowsNeeded`). */
+  keyRowsOf(result: R, budget: number): number;
   /** Whether a key is asked for (not --no-key, --bare or --legend), though a budget may have no room. */
   keyWanted: boolean;
   /** Whether fits at budgets above the asked one are valid (a fact table's tree holds only the asked one's nodes). */
   canGrow: boolean;
 }
 
-/** A fit, and whether the key was left out of it (the header then says so). */
+/** A fit, the rows its key takes, and whether the key was left out of it (the header then says so). */
 export interface Fitted<R> {
   result: R;
+  /** Rows the fit counted for the key: 0 when it was left out. */
+  keyRows: number;
   keyLeftOut: KeyLeftOut | undefined;
 }
 
@@ -86,23 +90,58 @@ function fitAt<R extends { selection: Selection }>(
 ): Fitted<R> {
   const key = f.keyRows(budget);
   const plain = agreed(f, budget, key, spare, undefined, f.header ? 1 : 0);
-  if (!f.keyWanted || (key > 0 && !plain.result.selection.spared))
-    return { result: plain.result, keyLeftOut: undefined };
+  const keyed = key > 0 && !plain.result.selection.spared;
+  if (!f.keyWanted || keyed)
+    return { result: plain.result, keyRows: keyed ? plain.key : 0, keyLeftOut: undefined };
   const keyLeftOut = { budget: holds(budget) };
   try {
-    return { result: agreed(f, budget, key, spare, keyLeftOut, plain.rows).result, keyLeftOut };
+    return { result: agreed(f, budget, key, spare, keyLeftOut, plain.rows).result, keyRows: 0, keyLeftOut };
   } catch (err) {
     if (smallestOf(err) === undefined) throw err;
-    return { result: plain.result, keyLeftOut: undefined };
+    return { result: plain.result, keyRows: 0, keyLeftOut: undefined };
+  }
+}
+
+/**
+ * The fit whose header (saying `keyLeftOut` when given) and key take the rows it counted. The key
+ * takes the rows, from `key` up, that say all it explains on the screen fitted with them (see
+ * `keyRowsNeeded`; more rows for the key, fewer lines for the tree, so the screen changes with them),
+ * unless more than `key` would cost the key its place: then `key`.
+ */
+function agreed<R extends { selection: Selection }>(
+  f: BudgetFit<R>,
+  budget: number,
+  key: number,
+  spare: boolean,
+  keyLeftOut: KeyLeftOut | undefined,
+  rows: number,
+): { result: R; rows: number; key: number } {
+  const fewest = () => ({ ...headerAgreed(f, budget, key, spare, keyLeftOut, rows), key });
+  // The header's rows do not depend on the key's, so each try starts from the last one's.
+  let counted = rows;
+  for (let keyed = key; ; ) {
+    let fitted: { result: R; rows: number };
+    try {
+      fitted = headerAgreed(f, budget, keyed, spare, keyLeftOut, counted);
+    } catch (err) {
+      if (keyed === key || smallestOf(err) === undefined) throw err;
+      return fewest();
+    }
+    if (keyed > key && fitted.result.selection.spared) return fewest();
+    if (!f.keyWanted || keyed === 0 || fitted.result.selection.spared) return { ...fitted, key: keyed };
+    // Straight to the rows this screen needs: fewer lines for the tree seldom need more.
+    const needed = f.keyRowsOf(fitted.result, budget);
+    if (needed <= keyed) return { ...fitted, key: keyed };
+    [keyed, counted] = [needed, fitted.rows];
   }
 }
 
 /**
  * The fit whose header (saying `keyLeftOut` when given) takes no more rows than it counted, from
- * `rows` up: more rows leave the key out sooner and never take the header's words away, so they
- * agree within a few rounds.
+ * `rows` up, with `key` rows for the key: more rows leave the key out sooner and never take the
+ * header's words away, so they agree within a few rounds.
  */
-function agreed<R extends { selection: Selection }>(
+function headerAgreed<R extends { selection: Selection }>(
   f: BudgetFit<R>,
   budget: number,
   key: number,

@@ -62,6 +62,8 @@ export interface OutputSettings {
   compared?: readonly string[];
   /** The key was asked for but left out of the fit (see `HeaderOptions.keyLeftOut`); set after the fit. */
   keyLeftOut?: KeyLeftOut;
+  /** Lines the fit counted for the key (see `keyRowsNeeded`); set after the fit, `keyRows(width)` before. */
+  keyRows?: number;
 }
 
 /**

@@ -12,7 +12,7 @@ import {
   summaryHeaderLines,
 } from "../render/header.js";
 import { MIN_WIDTH } from "../render/line-layout.js";
-import { renderText } from "../render/summary-text.js";
+import { renderText, type TextOptions } from "../render/summary-text.js";
 import type { SummaryResult } from "../summarize.js";
 import type { ViewNode } from "../view/view-node.js";
 import type { OutputFormat } from "./options.js";
@@ -26,18 +26,7 @@ export type Renderer<R> = (result: R, settings: OutputSettings, tree: Tree) => P
  * a run asks for it, so a start loads only what the run needs.
  */
 export const summaryRenderers: Record<OutputFormat, Renderer<SummaryResult>> = {
-  text: async (result, s, tree) =>
-    renderText(result.view, {
-      units: s.units,
-      sizes: tree.hasSizes,
-      share: s.share,
-      palette: s.palette,
-      chains: s.chains,
-      width: s.width,
-      header: headerOf(result, s),
-      legend: s.legend,
-      key: s.key && !result.selection.spared,
-    }),
+  text: async (result, s, tree) => renderText(result.view, summaryTextOptions(result, s, tree)),
   json: async (result, s, tree) =>
     (await import("../render/summary-json.js")).renderJson(result.view, {
       budget: s.budget,
@@ -70,6 +59,22 @@ export const summaryRenderers: Record<OutputFormat, Renderer<SummaryResult>> = {
     });
   },
 };
+
+/** The options of a summary's text rendering. */
+export function summaryTextOptions(result: SummaryResult, s: OutputSettings, tree: Tree): TextOptions {
+  return {
+    units: s.units,
+    sizes: tree.hasSizes,
+    share: s.share,
+    palette: s.palette,
+    chains: s.chains,
+    width: s.width,
+    header: headerOf(result, s),
+    legend: s.legend,
+    key: s.key && !result.selection.spared,
+    ...(s.keyRows === undefined ? {} : { keyRows: s.keyRows }),
+  };
+}
 
 /** A diff in each output format (loaded when asked for, like the summary's). */
 export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
@@ -144,7 +149,7 @@ function tooNarrow(s: OutputSettings): boolean {
 }
 
 /** The line options of a diff's text and Markdown (Markdown takes no colour and no width). */
-function diffLines(result: DiffResult, s: OutputSettings, sizes: boolean): DiffTextOptions {
+export function diffLines(result: DiffResult, s: OutputSettings, sizes: boolean): DiffTextOptions {
   return {
     units: s.units,
     sizes,
@@ -156,6 +161,7 @@ function diffLines(result: DiffResult, s: OutputSettings, sizes: boolean): DiffT
     header: headerOf(result, s),
     legend: s.legend,
     key: s.key && !result.selection.spared,
+    ...(s.keyRows === undefined ? {} : { keyRows: s.keyRows }),
   };
 }
 

@@ -1,5 +1,7 @@
 import { EspalierError } from "../errors.js";
 import type { Tree } from "../model/tree.js";
+import { keyMostRows } from "../render/key-line.js";
+import { summaryKeyRows } from "../render/summary-text.js";
 import { prepare, type SummarizeOptions, type SummaryResult, summarize } from "../summarize.js";
 import { isFactInput, summarizeFactInput } from "./fact-input.js";
 import { fitToBudget } from "./fit-to-budget.js";
@@ -14,7 +16,7 @@ import {
   legendInError,
   outputSettings,
 } from "./output-settings.js";
-import { summaryHeaderRows, summaryRenderers } from "./renderers.js";
+import { summaryHeaderRows, summaryRenderers, summaryTextOptions } from "./renderers.js";
 
 /** Reads, summarises and renders one input; returns the text to print (nothing is printed here). */
 export async function summaryCommand(input: string, opts: SummaryCliOptions, io: CliIO): Promise<string> {
@@ -42,17 +44,23 @@ async function summaryText(input: string, opts: SummaryCliOptions, io: CliIO): P
   const { tree, fit, canGrow } = await summarizeInput(io, input, opts, options);
   const settings = outputSettings(opts, io, tree);
   // A header wider than the line wraps, and the budget counts its lines: fitted with them counted.
-  const { result, keyLeftOut } = fitToBudget(
+  const { result, keyLeftOut, keyRows } = fitToBudget(
     {
       fit: (budget, before, spare) => fit({ ...options, budget, headerLines: before, spareLines: spare }),
       headerRows: (r, budget, left) => summaryHeaderRows(r, { ...settings, budget, keyLeftOut: left }, tree),
+      keyRowsOf: (r, budget) =>
+        summaryKeyRows(
+          r.view,
+          summaryTextOptions(r, { ...settings, budget }, tree),
+          keyMostRows(budget, settings.width),
+        ),
       ...budgetLines(opts, "summary", io),
       canGrow,
     },
     options.budget,
   );
   if (result.unmatchedFoci.length > 0) io.stderr.write(unmatchedWarning(result.unmatchedFoci));
-  return summaryRenderers[opts.format](result, { ...settings, keyLeftOut }, tree);
+  return summaryRenderers[opts.format](result, { ...settings, keyLeftOut, keyRows }, tree);
 }
 
 /**

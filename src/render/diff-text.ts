@@ -4,6 +4,7 @@ import type { DiffTotals } from "../diff/prepared-diff.js";
 import type { NumberOptions } from "./amount.js";
 import { diffLineParts } from "./diff-line-parts.js";
 import { diffHeaderLines, type HeaderOptions } from "./header.js";
+import { keyContext, keyFacts, keyRows, keyRowsNeeded } from "./key-line.js";
 import { lineGroups } from "./line-groups.js";
 import type { Palette } from "./palette.js";
 import { screenLines } from "./screen-lines.js";
@@ -23,6 +24,24 @@ export interface DiffTextOptions extends NumberOptions {
   legend?: boolean;
   /** One line after the header saying what the marks on screen and the numbers mean (see `keyLine`); not with a legend. */
   key?: boolean;
+  /** Lines the key takes (see `keyRowsNeeded`, counted by the fit); `keyRows(width)` when undefined. */
+  keyRows?: number;
+}
+
+/** Lines the key above a diff's text lines takes at the options' width (see `summaryKeyRows`). */
+export function diffKeyRows(
+  view: HierarchyNode<DiffViewNode>,
+  options: DiffTextOptions,
+  most?: number,
+): number {
+  if (options.width === undefined) return keyRows(undefined);
+  const screen = screenLines(
+    lineGroups(view, options.chains ?? false),
+    diffLineParts,
+    options,
+    keyCheck(options, "diff"),
+  );
+  return keyRowsNeeded("diff", keyFacts(screen.parts, keyContext(options), screen), options.width, most);
 }
 
 /**

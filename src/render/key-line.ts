@@ -114,9 +114,10 @@ export function keyExplainsSizes(kind: "summary" | "diff", facts: KeyFacts, widt
 export const KEY_ONE_ROW = 60;
 
 /**
- * How many lines the key takes at `width`: one, or two below {@link KEY_ONE_ROW} columns, where one
+ * The fewest lines the key takes at `width`: one, or two below {@link KEY_ONE_ROW} columns, where one
  * line holds the marks and little else. Known before the fit, so the budget counts it as it counts
- * the header.
+ * the header; where they cannot say all the screen needs, the CLI fits again with more (see
+ * {@link keyRowsNeeded}).
  */
 export function keyRows(width?: number): 1 | 2 {
   return width !== undefined && width < KEY_ONE_ROW ? 2 : 1;
@@ -134,7 +135,12 @@ export function keyLines(
   facts: KeyFacts,
   width?: number,
   style: "text" | "markdown" = "text",
+  rows: number = keyRows(width),
 ): string[] {
+  if (rows > keyRows(width) && width !== undefined && style === "text") {
+    const packed = packedKey(kind, facts, width, rows) ?? packedKey(kind, facts, width, rows, true);
+    if (packed !== null) return packed;
+  }
   if (keyRows(width) === 1) return [keyLine(kind, facts, width, style)];
   const room = width!;
   const marks = markWords(kind, facts.marks, style);
@@ -176,11 +182,182 @@ export function keyLines(
   if (over !== "") tries.push([]);
   const row = (t: string[]) => `${ROW_INDENT}${[...(over ? [over] : []), ...t].join("; ")}`;
   const second = tries.map(row).find((t) => displayWidth(t) <= room);
-  return [first, second ?? shortenEnd(row([parts[0][2]]), room)];
+  const two = [first, second ?? shortenEnd(row([parts[0][2]]), room)];
+  // The first line holds the marks alone: where parts packed on both lines say more, those.
+  if (style === "markdown") return two;
+  const packed = packedKey(kind, facts, room, 2) ?? packedKey(kind, facts, room, 2, true);
+  return packed !== null && partsSaid(kind, facts, packed) > partsSaid(kind, facts, two) ? packed : two;
 }
 
 /** The key's second line starts as a wrapped header line does. */
 const ROW_INDENT = "  ";
+
+/**
+ * Most rows a key takes where fewer cannot say every part on screen (see {@link keyRowsNeeded}); past
+ * them it says less, as the one- and two-row keys do. A choice of this project, no source.
+ */
+export const KEY_MOST_ROWS = 5;
+
+/**
+ * Most lines the key may take in a budget of `budget` lines at `width`: {@link KEY_MOST_ROWS}, and no
+ * more than a quarter of the budget (the tree keeps the rest), but never fewer than `keyRows(width)`.
+ * A choice of this project, no source.
+ */
+export function keyMostRows(budget: number, width?: number): number {
+  return Math.max(keyRows(width), Math.min(KEY_MOST_ROWS, Math.floor(budget / 4)));
+}
+
+/**
+ * Rows the key for `facts` takes at `width`: `keyRows(width)` when those say every mark and part on
+ * screen (see `keyLines`), else the fewest up to {@link KEY_MOST_ROWS} that do (a diff's three marks
+ * and its cuts at 32 columns, a cut name beside `size cut` at 80); `keyRows(width)` when none does.
+ * The fit counts them, so the CLI fits again with them once it has laid a screen out.
+ */
+export function keyRowsNeeded(
+  kind: "summary" | "diff",
+  facts: KeyFacts,
+  width?: number,
+  most: number = KEY_MOST_ROWS,
+): number {
+  const least = keyRows(width);
+  if (width === undefined || saysAll(kind, facts, keyLines(kind, facts, width))) return least;
+  for (let rows = least + 1; rows <= most; rows++)
+    if (packedKey(kind, facts, width, rows) !== null) return rows;
+  // No key of `most` lines says it all: the lines that say the most, the fewest of them.
+  let best: number = least;
+  let said = partsSaid(kind, facts, keyLines(kind, facts, width));
+  for (let rows = least + 1; rows <= most; rows++) {
+    const key = packedKey(kind, facts, width, rows, true);
+    const says = key === null ? -1 : partsSaid(kind, facts, key);
+    if (says > said) [best, said] = [rows, says];
+  }
+  return best;
+}
+
+/** How many of the parts `facts` call for (marks, then the rest but the pointer) `lines` say. */
+function partsSaid(kind: "summary" | "diff", facts: KeyFacts, lines: readonly string[]): number {
+  const text = lines.join("\n");
+  const marks = [...facts.marks].filter((m) => text.includes(`'${m}'`)).length;
+  const parts = explanations(kind, facts)
+    .filter((p) => p[3] !== "more")
+    .filter((p) => [p[0], p[1], p[2]].some((w) => text.includes(w))).length;
+  return marks + parts;
+}
+
+/** Whether `lines` say every mark in `facts` and every part but the pointer to more, in any of its forms. */
+function saysAll(kind: "summary" | "diff", facts: KeyFacts, lines: readonly string[]): boolean {
+  const text = lines.join("\n");
+  if (![...facts.marks].every((m) => text.includes(`'${m}'`))) return false;
+  return explanations(kind, facts)
+    .filter((p) => p[3] !== "more")
+    .every((p) => [p[0], p[1], p[2]].some((w) => text.includes(w)));
+}
+
+/**
+ * The key in exactly `rows` lines within `width`: every mark and part said, in the longest words that
+ * fit (the pointer to `--legend` while it fits), then fewer; failing that (`partial`), the marks and
+ * as many parts as fit in their fewest words, the least needed left out first. Null when not even
+ * that fits, or too few parts are left to fill `rows` lines.
+ */
+function packedKey(
+  kind: "summary" | "diff",
+  facts: KeyFacts,
+  width: number,
+  rows: number,
+  partial = false,
+): string[] | null {
+  const said = explanations(kind, facts).filter((p) => p[3] !== "more");
+  const more = moreWords(facts);
+  const looks = [
+    [false, 0],
+    [false, 1],
+    [true, 1],
+    [false, 2],
+    [true, 2],
+    ["tiny", 2],
+  ] as const;
+  for (const [compact, tier] of looks) {
+    const marks = markItems(kind, facts.marks, "text", compact);
+    const words = said.map((p) => p[tier]);
+    for (const clauses of [[...words, more], words]) {
+      const packed = packRows(marks, clauses, width, rows);
+      if (packed !== null) return packed;
+    }
+  }
+  if (!partial) return null;
+  const tiny = markItems(kind, facts.marks, "text", "tiny");
+  // What the counts and sizes are and a level in digits go last: a line misreads without them.
+  const vital = (p: Explanation) => p[3] === "numbers" || p[3] === "sizes" || p[3] === "depth";
+  const kept = [...said.filter(vital), ...said.filter((p) => !vital(p))];
+  for (let n = kept.length - 1; n >= 0; n--) {
+    const packed = packRows(
+      tiny,
+      kept.slice(0, n).map((p) => p[2]),
+      width,
+      rows,
+    );
+    if (packed !== null) return packed;
+  }
+  return null;
+}
+
+/**
+ * `marks` (joined by `, `) then `clauses` (by `; `) in `rows` lines of at most `width` columns, the
+ * first after `key: `, the others indented (a line break stands for a separator, as in a two-line
+ * key). The marks in order, a line after another; each clause on the first line from the marks' last
+ * that has room for it, else a new one; then the last line holding two items or more gives its last
+ * to a line of its own until there are `rows`. Null when they take more lines, or too few items to
+ * fill them.
+ */
+function packRows(
+  marks: readonly string[],
+  clauses: readonly string[],
+  width: number,
+  rows: number,
+): string[] | null {
+  // Each item measured once; a line's width is its start, its items and `, ` or `; ` between them.
+  type Item = { text: string; sep: string; width: number };
+  type Line = { items: Item[]; width: number };
+  const item = (text: string, sep: string): Item => ({ text, sep, width: displayWidth(text) });
+  const start = (k: number) => (k === 0 ? 5 : ROW_INDENT.length); // `key: ` or the indent
+  const lines: Line[] = [{ items: [], width: start(0) }];
+  const room = (line: Line, it: Item) => line.width + (line.items.length === 0 ? 0 : 2) + it.width;
+  const put = (line: Line, it: Item) => {
+    line.width = room(line, it);
+    line.items.push(it);
+  };
+  marks.forEach((mark, k) => {
+    const it = item(mark, k === 0 ? "" : ",");
+    const last = lines[lines.length - 1];
+    if (last.items.length === 0 || room(last, it) <= width) put(last, it);
+    else {
+      const line = { items: [], width: start(lines.length) };
+      lines.push(line);
+      put(line, it);
+    }
+  });
+  const from = lines.length - 1;
+  for (const clause of clauses) {
+    const it = item(clause, ";");
+    let k = from;
+    while (k < lines.length && !(lines[k].items.length === 0 || room(lines[k], it) <= width)) k++;
+    if (k === lines.length) lines.push({ items: [], width: start(k) });
+    put(lines[k], it);
+  }
+  if (lines.length > rows || lines.some((line) => line.width > width)) return null;
+  while (lines.length < rows) {
+    const k = lines.findLastIndex((line) => line.items.length > 1);
+    if (k < 0) return null;
+    const moved = lines[k].items.pop()!;
+    lines[k].width -= 2 + moved.width;
+    lines.splice(k + 1, 0, { items: [moved], width: start(k + 1) + moved.width });
+  }
+  return lines.map(
+    (line, k) =>
+      (k === 0 ? "key: " : ROW_INDENT) +
+      line.items.map((it, j) => (j === 0 ? it.text : `${it.sep} ${it.text}`)).join(""),
+  );
+}
 
 /**
  * One line under the header that says what the marks on the screen and its numbers mean, so a reader
@@ -381,6 +558,16 @@ function markWords(
   style: "text" | "markdown",
   compact: boolean | "tiny" = false,
 ): string {
+  return markItems(kind, marks, style, compact).join(", ");
+}
+
+/** The marks of {@link markWords}, each with its meaning, as a list. */
+function markItems(
+  kind: "summary" | "diff",
+  marks: ReadonlySet<string>,
+  style: "text" | "markdown",
+  compact: boolean | "tiny" = false,
+): string[] {
   const md = style === "markdown";
   const diff = kind === "diff";
   const words: string[] = [];
@@ -413,7 +600,7 @@ function markWords(
     else say(MARK.other, meaning);
   }
   if (marks.has(MARK.reference)) say(MARK.reference, compact ? "elsewhere" : "shown in full elsewhere");
-  return words.join(", ");
+  return words;
 }
 
 /**

@@ -3,7 +3,15 @@ import { EspalierError } from "../errors.js";
 import type { ViewNode } from "../view/view-node.js";
 import type { NumberOptions } from "./amount.js";
 import { type HeaderOptions, summaryHeaderLines } from "./header.js";
-import { keyContext, keyExplainsSizes, keyFacts, keyLine, keyLines } from "./key-line.js";
+import {
+  keyContext,
+  keyExplainsSizes,
+  keyFacts,
+  keyLine,
+  keyLines,
+  keyRows,
+  keyRowsNeeded,
+} from "./key-line.js";
 import { lineGroups } from "./line-groups.js";
 import { MIN_WIDTH } from "./line-layout.js";
 import { lineParts } from "./line-parts.js";
@@ -23,6 +31,8 @@ export interface TextOptions extends NumberOptions {
   legend?: boolean;
   /** One line after the header saying what the marks on screen and the numbers mean (see `keyLine`); not with a legend. */
   key?: boolean;
+  /** Lines the key takes (see `keyRowsNeeded`, counted by the fit); `keyRows(width)` when undefined. */
+  keyRows?: number;
 }
 
 /**
@@ -52,6 +62,22 @@ export function renderText(view: HierarchyNode<ViewNode>, options: TextOptions):
 }
 
 /**
+ * Lines the key above `view`'s text lines takes at the options' width (see `keyRowsNeeded`): the
+ * screen laid out as `renderText` lays it out, for the fit to count before the text is printed.
+ */
+export function summaryKeyRows(view: HierarchyNode<ViewNode>, options: TextOptions, most?: number): number {
+  // Without a width the key is one line, whatever the screen: no layout needed to know it.
+  if (options.width === undefined) return keyRows(undefined);
+  const screen = screenLines(
+    lineGroups(view, options.chains ?? false),
+    lineParts,
+    options,
+    keyCheck(options, "summary"),
+  );
+  return keyRowsNeeded("summary", keyFacts(screen.parts, keyContext(options), screen), options.width, most);
+}
+
+/**
  * The header a text rendering starts with, wrapped to the width, then the legend wrapped to it, or
  * else the key line for the lines `parts` (see `keyLine`).
  */
@@ -60,6 +86,7 @@ export function headLines(
     header?: HeaderOptions;
     legend?: boolean;
     key?: boolean;
+    keyRows?: number;
     keyRides?: boolean;
     width?: number;
     palette?: Palette;
@@ -75,7 +102,7 @@ export function headLines(
   if (options.keyRides && lines.length > 0)
     lines[lines.length - 1] += `; ${keyLine(kind, facts(), options.width)}`;
   else if (options.legend) lines.push(...legendLines(kind, options.width));
-  else if (options.key) lines.push(...keyLines(kind, facts(), options.width));
+  else if (options.key) lines.push(...keyLines(kind, facts(), options.width, "text", options.keyRows));
   return lines.map(quiet);
 }
 

@@ -87,17 +87,18 @@ describe("keyLines(kind, facts, width)", () => {
 
   it("says on its second line what the width took from the lines, most needed first", () => {
     const cut = { ...facts, sizesLeftOut: true, countsCut: true, namesCut: true };
+    // Where the first line has room beside the marks, parts go there too, so more is said.
     expect(keyLines("summary", cut, 59)).toEqual([
-      "key: ':' on the way to a focus, '.' other",
-      "  counts: all below; sizes cut; '?' count cut",
+      "key: ':' on the way to a focus, '.' other; '?' count cut",
+      "  counts: all below; sizes cut; a / b: only child; '…' cut",
     ]);
     expect(keyLines("summary", cut, 40)).toEqual([
       "key: ':' above a focus, '.' other",
       "  counts: all below; sizes cut",
     ]);
     expect(keyLines("diff", { ...facts, changesCut: true, namesCut: true }, 50)).toEqual([
-      "key: ':' change or above one, '.' unchanged",
-      "  totals: all below; changes cut",
+      "key: ':' changed/above, '.' unchanged; changes cut",
+      "  totals: all below; a / b: only child; '…' cut",
     ]);
     // From 60 columns the same facts share the one line, every part said in fewer words before one goes.
     expect(keyLines("summary", cut, 100)).toEqual([
