@@ -288,9 +288,15 @@ export class JsonLoader extends JsonTokenizer {
       const fields = this.fields;
       let found = -1;
       this.frames[top].fieldCount++;
-      if (top === 0 || (top === 1 && this.role[0] === TOP_LIST && this.frames[1].node === 0))
-        this.rootKey = this.text(bytes, q, e, absQ);
-      if (this.seen.wants(this.frames[top].node)) this.seen.add(this.text(bytes, q, e, absQ));
+      const ofRoot = top === 0 || (top === 1 && this.role[0] === TOP_LIST && this.frames[1].node === 0);
+      const sampled = this.seen.wants(this.frames[top].node);
+      if (ofRoot || sampled) {
+        // One call and one store, run for the first thousand nodes' keys: code compiled in one load
+        // then has what it needs for the top node's keys of the next one (docs/performance.md).
+        const text = this.text(bytes, q, e, absQ);
+        if (sampled) this.seen.add(text);
+        this.rootKey = ofRoot ? text : this.rootKey;
+      }
       if (this.escaped) {
         const text = this.text(bytes, q, e, absQ);
         for (let f = 0; f < fields.length; f++) if (fields[f].text === text) found = f;
@@ -708,14 +714,15 @@ export class JsonLoader extends JsonTokenizer {
 
   /** Checks a node's fields once all are known (a later repeat of a key replaces an earlier value). */
   private closeNode(frame: Frame): void {
+    // The options are read for a message only: a diff's NEW gets an options object of another shape.
     const i = frame.node;
     if (frame.fieldCount === 0) this.sized[i] = EMPTY;
-    const { nameField, sizeField, childrenField } = this.options;
     const nameKind = frame.nameKind;
     if (!frame.keyed) this.unkeyed++;
     if (!frame.keyed && (nameKind === STRING || nameKind === NUMBER || nameKind === BOOLEAN))
       this.hasNames = true;
     if (!frame.keyed && nameKind === COLLECTION) {
+      const { nameField } = this.options;
       throw new EspalierError("SHAPE", say`the "${nameField}" of ${this.where(i)} must be text`, {
         line: frame.nameLine,
         column: frame.nameColumn,
@@ -734,10 +741,14 @@ export class JsonLoader extends JsonTokenizer {
       this.sized[i] = SIZED;
     } else if (sizeKind !== ABSENT && sizeKind !== NULL) {
       const shownSize = sizeKind === STRING ? quoted.value(frame.sizeText) : "a non-number";
-      throw this.badSize(shownSize, i, sizeField, { line: frame.sizeLine, column: frame.sizeColumn });
+      throw this.badSize(shownSize, i, this.options.sizeField, {
+        line: frame.sizeLine,
+        column: frame.sizeColumn,
+      });
     }
     const childrenKind = frame.childrenKind;
     if (childrenKind === STRING || childrenKind === NUMBER || childrenKind === BOOLEAN) {
+      const { childrenField } = this.options;
       throw new EspalierError(
         "SHAPE",
         say`the "${childrenField}" of ${this.where(i)} must be an array or an object keyed by child name`,

@@ -151,10 +151,10 @@ export abstract class JsonTokenizer {
             state = VALUE_OR_END;
             continue;
           }
-          if (c === 0x5d /* ] */ && state === VALUE_OR_END) {
-            this.closeContainer(buf, i);
-            i++;
-            state = this.depth === 0 ? DONE : AFTER;
+          if (state === VALUE_OR_END && c === 0x5d /* ] */) {
+            // An empty array closes as every array does (AFTER): code compiled on input that had none
+            // meets no branch without type feedback at the first one (docs/performance.md).
+            state = AFTER;
             continue;
           }
           if (c === 0x22 /* " */) {
@@ -220,10 +220,8 @@ export abstract class JsonTokenizer {
             state = COLON;
             continue;
           }
-          if (c === 0x7d /* } */ && state === KEY_OR_END) {
-            this.closeContainer(buf, i);
-            i++;
-            state = this.depth === 0 ? DONE : AFTER;
+          if (state === KEY_OR_END && c === 0x7d /* } */) {
+            state = AFTER; // an empty object closes as every object does, as above
             continue;
           }
           throw this.syntax(

@@ -333,6 +333,34 @@ export class PathListReader {
   }
 
   /**
+   * `du -ab --time` and `find -printf '%s\t%TY-%Tm-%Td\t%p\n'` put a column between the size and the
+   * path: read as part of the path, each date becomes a top-level folder and the folders' totals are
+   * split among them, with exit 0 (du -ab --time /usr/share/doc/git read as 5.9 MiB in three date
+   * folders, where du -sb says 3.0 MiB). So a detected listing whose first path holds a tab with no
+   * "/" before it (a name may hold a tab, but a path's first field is then a folder's name, and a
+   * listing's paths hold a "/") is PARSE_PATHS at that line.
+   */
+  private refuseMoreColumns(
+    bytes: Buffer,
+    lineStart: number,
+    start: number,
+    end: number,
+    line: number,
+  ): void {
+    const t = bytes.indexOf(tab, start);
+    if (t === -1 || t >= end) return;
+    const s = bytes.indexOf(slash, start);
+    if (s !== -1 && s < t) return;
+    const field = bytes.toString("utf8", start, Math.min(t, start + 40));
+    throw new EspalierError(
+      "PARSE_PATHS",
+      say`line ${line} holds another tab after the size: ${quoted.excerpt(field)} stands between the size and the path, as du --time and find -printf '%s\\t%T+\\t%p\\n' put a date there; read as part of the path, each would be a folder of its own. List the size and the path alone (du -ab, find -printf '%s\\t%p\\n'), or keep those columns with cut -f1,3; to read the tab as part of a name, pass --input-format paths`,
+      // The column of the second tab: the size is ASCII digits, and the field is counted in characters.
+      { line, column: start - lineStart + 1 + bytes.toString("utf8", start, t).length },
+    );
+  }
+
+  /**
    * A NUL byte cannot be part of a file name (POSIX.1-2017, 3.170 Filename; from memory), so a line
    * holding one means a NUL-separated list (`find -print0`, `git ls-files -z`) or UTF-16 without a
    * byte-order mark: read as lines it would give a wrong tree with exit 0, so it is PARSE_PATHS at the
@@ -459,6 +487,8 @@ export class PathListReader {
       }
       pathStart = at + 1;
       if (sizeEnd === space) while (pathStart < end && bytes[pathStart] === space) pathStart++;
+      else if (line === this.firstLine && this.detected && this.separator === newline)
+        this.refuseMoreColumns(bytes, start, pathStart, end, line);
     } else {
       if (this.pathLines++ === 0) {
         this.headerFirst = headerOfColumns(bytes, start, end);
