@@ -73,6 +73,25 @@ describe("MARK and legendLines(kind)", () => {
     );
   });
 
+  it("says it all in fewer lines at 32 columns (field test: 36 lines for a summary, 50 for a diff)", () => {
+    expect(legendLines("summary", 32).length).toBeLessThanOrEqual(29);
+    expect(legendLines("diff", 32).length).toBeLessThanOrEqual(44);
+    for (const kind of ["summary", "diff"] as const) {
+      const text = legendLines(kind).join(" ");
+      for (const said of [
+        "level in digits",
+        "(3 more)",
+        "a / b",
+        "?",
+        "…",
+        "(hidden)",
+        "(k hidden)",
+        "size cut",
+      ])
+        expect(text, `${kind}: ${said}`).toContain(said);
+    }
+  });
+
   it("explains the fold's narrowest form, which a line at MIN_WIDTH uses", () => {
     const tree = makeIdTree("R{A{A1:1,A2:1,A3:1},B{B1:1,B2:1}}");
     const summary = summarize(prepare(tree), { foci: [], budget: 2, importance: "depth" });
