@@ -93,13 +93,16 @@ function fitAt<R extends { selection: Selection }>(
   const keyed = key > 0 && !plain.result.selection.spared;
   if (!f.keyWanted || keyed)
     return { result: plain.result, keyRows: keyed ? plain.key : 0, keyLeftOut: undefined };
-  const keyLeftOut = { budget: holds(budget) };
-  try {
-    return { result: agreed(f, budget, key, spare, keyLeftOut, plain.rows).result, keyRows: 0, keyLeftOut };
-  } catch (err) {
-    if (smallestOf(err) === undefined) throw err;
-    return { result: plain.result, keyRows: 0, keyLeftOut: undefined };
+  // Said in fewer words where the longer ones would take a line the budget has not got.
+  const said = holds(budget);
+  for (const keyLeftOut of [{ budget: said }, { budget: said, short: true }]) {
+    try {
+      return { result: agreed(f, budget, key, spare, keyLeftOut, plain.rows).result, keyRows: 0, keyLeftOut };
+    } catch (err) {
+      if (smallestOf(err) === undefined) throw err;
+    }
   }
+  return { result: plain.result, keyRows: 0, keyLeftOut: undefined };
 }
 
 /**

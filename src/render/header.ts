@@ -96,9 +96,13 @@ export interface HeaderOptions {
   keyLeftOut?: KeyLeftOut;
 }
 
-/** See `HeaderOptions.keyLeftOut`: the smallest budget that prints the key, when one was found. */
+/**
+ * See `HeaderOptions.keyLeftOut`: the smallest budget that prints the key, when one was found, and
+ * whether to say it in fewest words (`no key: --budget 19`), where the longer ones would take a line.
+ */
 export interface KeyLeftOut {
   readonly budget: number | undefined;
+  readonly short?: boolean;
 }
 
 /** What a header says of its inputs beside the budget, the lines and the foci (see `HeaderOptions`). */
@@ -358,7 +362,9 @@ function readingText(reading: VersionReading | ListedReading, style: HeaderStyle
 /** `key left out: --budget 19 has room` (see `HeaderOptions.keyLeftOut`); nothing when the key is printed. */
 function keyText({ keyLeftOut }: HeaderOptions, style: HeaderStyle): string[] {
   if (keyLeftOut === undefined) return [];
-  const room = keyLeftOut.budget === undefined ? "too few lines" : `--budget ${keyLeftOut.budget} has room`;
+  const { budget, short } = keyLeftOut;
+  if (short) return [style.words(budget === undefined ? "no key" : `no key: --budget ${budget}`)];
+  const room = budget === undefined ? "too few lines" : `--budget ${budget} has room`;
   return [style.words(`key left out: ${room}`)];
 }
 

@@ -33,7 +33,9 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
       labels: [shownLabel(top.label)],
       numbers: where,
       compactNumbers: where,
-      countNumbers: where,
+      // No count to keep: where the path does not fit, the mark alone says the entry is elsewhere
+      // (a `?` would read as a count cut).
+      countNumbers: "",
       fold: "",
       foldCounts: "",
       compactFold: "",

@@ -229,6 +229,17 @@ describe("the key line on the command line", () => {
     expect(noted.stdout.split("\n")[0]).toBe(
       "summary: 9 nodes; focus 9; key left out: --budget 11 has room; 10 of 10 lines",
     );
+    // Where those words would take a line of their own, fewer: `no key: --budget 11`.
+    const short = await cli(
+      ["-", "--input-format", "csv", "--focus", "9", "--no-chains", "--width", "64", "--budget", "10"],
+      {
+        stdin: deep,
+      },
+    );
+    expect(short.stdout.split("\n")[0]).toBe(
+      "summary: 9 nodes; focus 9; no key: --budget 11; 10 of 10 lines",
+    );
+    expect(short.stdout.trimEnd().split("\n")).toHaveLength(10);
     const room = await cli([...args, "--budget", "11"], { stdin: deep });
     expect(room.stdout.split("\n")[1]).toMatch(/^key: '\*' a focus, ':' on the way to a focus; /);
     expect(room.stdout.trimEnd().split("\n")).toHaveLength(11);

@@ -209,7 +209,7 @@ function checkText(text, { budget, width, legend, key = true, kind = "summary" }
     problems.push(`root ${lines[0].nodes} != header ${total[1]}`);
   if (legend || !key) return problems;
   // A budget with no room for the key beside the root and the focus paths: the header says so.
-  if (/key left out: /.test(head.replaceAll("\n  ", " "))) {
+  if (/key left out: |no key: --budget /.test(head.replaceAll("\n  ", " "))) {
     noted++;
     return problems;
   }
