@@ -62,18 +62,7 @@ export const summaryRenderers: Record<OutputFormat, Renderer<SummaryResult>> = {
 
 /** The options of a summary's text rendering. */
 export function summaryTextOptions(result: SummaryResult, s: OutputSettings, tree: Tree): TextOptions {
-  return {
-    units: s.units,
-    sizes: tree.hasSizes,
-    share: s.share,
-    palette: s.palette,
-    chains: s.chains,
-    width: s.width,
-    header: headerOf(result, s),
-    legend: s.legend,
-    key: s.key && !result.selection.spared,
-    ...(s.keyRows === undefined ? {} : { keyRows: s.keyRows }),
-  };
+  return lineSettings(result, s, tree.hasSizes);
 }
 
 /** A diff in each output format (loaded when asked for, like the summary's). */
@@ -150,11 +139,19 @@ function tooNarrow(s: OutputSettings): boolean {
 
 /** The line options of a diff's text and Markdown (Markdown takes no colour and no width). */
 export function diffLines(result: DiffResult, s: OutputSettings, sizes: boolean): DiffTextOptions {
+  return { ...lineSettings(result, s, sizes), by: result.combined.by };
+}
+
+/** What a summary's and a diff's lines take alike from the output settings (a key only where the fit spared its line). */
+function lineSettings<T extends ViewNode>(
+  result: Parameters<typeof headerOf<T>>[0] & { selection: { spared: boolean } },
+  s: OutputSettings,
+  sizes: boolean,
+): TextOptions {
   return {
     units: s.units,
     sizes,
     share: s.share,
-    by: result.combined.by,
     palette: s.palette,
     chains: s.chains,
     width: s.width,

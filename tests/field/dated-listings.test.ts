@@ -46,8 +46,18 @@ describe.skipIf(!gnuTools)("a listing with a date between the size and the path"
     expect(doc.totals.size).toBe(Number(run("du", ["-sb", "harbor"]).split("\t")[0]));
   });
 
-  it("a tab inside a name below a folder is read as part of the name", async () => {
-    const doc = JSON.parse((await cli(["-", "--format", "json"], { stdin: "5\tharbor/tide\tlog\n" })).stdout);
+  it("find -printf with %y after the path is PARSE_PATHS too: each folder would be two nodes", async () => {
+    const text = run("find", ["harbor", "-printf", "%s\\t%p\\t%y\\n"]);
+    const result = await cli(["-"], { stdin: text });
+    expect(result.code).toBe(2);
+    const column = text.indexOf("\t", text.indexOf("\t") + 1) + 1;
+    expect(result.stderr).toMatch(new RegExp(`^espalier: <stdin>:1:${column}: .*\\[PARSE_PATHS\\]\\n$`));
+  });
+
+  it("a tab inside a name is read as part of it with --input-format paths", async () => {
+    const args = ["-", "--format", "json", "--input-format", "paths"];
+    const doc = JSON.parse((await cli(args, { stdin: "5\tharbor/tide\tlog\n" })).stdout);
     expect(doc.totals.size).toBe(5);
+    expect(doc.root.children.map((c: { name: string }) => c.name)).toEqual(["tide\tlog"]);
   });
 });

@@ -336,9 +336,10 @@ export class PathListReader {
    * `du -ab --time` and `find -printf '%s\t%TY-%Tm-%Td\t%p\n'` put a column between the size and the
    * path: read as part of the path, each date becomes a top-level folder and the folders' totals are
    * split among them, with exit 0 (du -ab --time /usr/share/doc/git read as 5.9 MiB in three date
-   * folders, where du -sb says 3.0 MiB). So a detected listing whose first path holds a tab with no
-   * "/" before it (a name may hold a tab, but a path's first field is then a folder's name, and a
-   * listing's paths hold a "/") is PARSE_PATHS at that line.
+   * folders, where du -sb says 3.0 MiB); `find -printf '%s\t%p\t%y\n'` puts one after it, and each
+   * folder was two nodes (`contrib\td` holding its size, `contrib` its contents). So a detected
+   * listing whose first path holds a tab is PARSE_PATHS at that tab: a name may hold a tab, but so
+   * rarely that `--input-format paths` is the way to read one.
    */
   private refuseMoreColumns(
     bytes: Buffer,
@@ -349,12 +350,13 @@ export class PathListReader {
   ): void {
     const t = bytes.indexOf(tab, start);
     if (t === -1 || t >= end) return;
-    const s = bytes.indexOf(slash, start);
-    if (s !== -1 && s < t) return;
-    const field = bytes.toString("utf8", start, Math.min(t, start + 40));
+    // The field the tab ends, after the path's last "/" (a column before the path has none).
+    const s = bytes.lastIndexOf(slash, t);
+    const from = s >= start ? s + 1 : start;
+    const field = bytes.toString("utf8", Math.max(from, t - 40), t);
     throw new EspalierError(
       "PARSE_PATHS",
-      say`line ${line} holds another tab after the size: ${quoted.excerpt(field)} stands between the size and the path, as du --time and find -printf '%s\\t%T+\\t%p\\n' put a date there; read as part of the path, each would be a folder of its own. List the size and the path alone (du -ab, find -printf '%s\\t%p\\n'), or keep those columns with cut -f1,3; to read the tab as part of a name, pass --input-format paths`,
+      say`line ${line} holds another tab after the size, after ${quoted.excerpt(field)}: a column besides the size and the path, as du --time and find -printf '%s\\t%T+\\t%p\\n' put a date before the path and find -printf '%s\\t%p\\t%y\\n' a type after it; read as part of the path, each date would be a folder of its own, or each folder two. List the size and the path alone (du -ab, find -printf '%s\\t%p\\n'), or keep those columns with cut (cut -f1,3 for a date before the path); to read the tab as part of a name, pass --input-format paths`,
       // The column of the second tab: the size is ASCII digits, and the field is counted in characters.
       { line, column: start - lineStart + 1 + bytes.toString("utf8", start, t).length },
     );
