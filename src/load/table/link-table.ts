@@ -180,18 +180,18 @@ function linkById(
     if (name !== null && !named) name[r] = (names && cellText(names[r])) || ids[r];
     if (sizes) ownSize[r] = sizeOf(sizes[r], table.textCells, r + 1, options.sizeField);
   }
-  return {
-    parentOf,
-    name: name === null ? namesOrIds(pooled!, new StringNames(ids), n) : name,
-    ownSize,
-    hasSizes: sizes !== undefined,
-    ids,
-    origin,
-    originIsRow: true,
-    fields: keep,
-    rootName: options.rootName,
-    parentColumnRead: true,
-  } satisfies LinkedNodes;
+  return rowLinked(
+    {
+      parentOf,
+      name: name === null ? namesOrIds(pooled!, new StringNames(ids), n) : name,
+      ownSize,
+      hasSizes: sizes !== undefined,
+      ids,
+      origin,
+      fields: keep,
+    },
+    options,
+  );
 }
 
 /** SHAPE at row `r` (0-based), whose id cell is empty. */
@@ -238,18 +238,26 @@ function linkByteIds(table: Table, ids: NamePool, parents: NumberCells, options:
   const name: string[] | null = pooled ? null : named ? (names as string[]) : new Array(n);
   const columns: RowColumns = { pooled, names, named, byteSizes, sizes, textCells: table.textCells };
   linkParents(rowOf, ids, parents, columns, { parentOf, origin, ownSize, name }, nullParents, options);
-  return {
-    parentOf,
-    name: name === null ? namesOrIds(pooled!, ids, n) : name,
-    ownSize,
-    hasSizes: sizes !== undefined || byteSizes !== undefined,
-    ids,
-    origin,
-    originIsRow: true,
-    fields: keep,
-    rootName: options.rootName,
-    parentColumnRead: true,
-  } satisfies LinkedNodes;
+  return rowLinked(
+    {
+      parentOf,
+      name: name === null ? namesOrIds(pooled!, ids, n) : name,
+      ownSize,
+      hasSizes: sizes !== undefined || byteSizes !== undefined,
+      ids,
+      origin,
+      fields: keep,
+    },
+    options,
+  );
+}
+
+/** A table linked by its id and parent columns: each node at its row. */
+function rowLinked(
+  nodes: Omit<LinkedNodes, "originIsRow" | "rootName" | "parentColumnRead">,
+  options: LoadOptions,
+): LinkedNodes {
+  return { ...nodes, originIsRow: true, rootName: options.rootName, parentColumnRead: true };
 }
 
 /** Indexes the rows' ids; INVALID_ID, EMPTY_ID or DUPLICATE_ID at the first row that may not be linked. */
