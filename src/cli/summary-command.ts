@@ -41,12 +41,12 @@ async function summaryText(input: string, opts: SummaryCliOptions, io: CliIO): P
     spareLines: keyRowsFor(opts, io),
     siblingOrder: opts.siblingOrder,
   };
-  const { tree, fit, canGrow } = await summarizeInput(io, input, opts, options);
+  const { tree, fit: fitWith, canGrow } = await summarizeInput(io, input, opts, options);
   const settings = outputSettings(opts, io, tree);
   // A header wider than the line wraps, and the budget counts its lines: fitted with them counted.
   const { result, keyLeftOut, keyRows } = fitToBudget(
     {
-      fit: (budget, before, spare) => fit({ ...options, budget, headerLines: before, spareLines: spare }),
+      fit: (budget, before, spare) => fitWith({ ...options, budget, headerLines: before, spareLines: spare }),
       headerRows: (r, budget, left) => summaryHeaderRows(r, { ...settings, budget, keyLeftOut: left }, tree),
       keyRowsOf: (r, budget) =>
         summaryKeyRows(
