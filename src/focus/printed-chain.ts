@@ -15,8 +15,8 @@ export function isPrintedChain(spec: string): boolean {
  * whose ancestors, upwards, bear the chain's other names, every node below the chain's top being its
  * parent's only child (as on a printed line: a chain never joins a node with siblings). The names are
  * compared as printed (`name`, or its escaped form, see `shownLabel`), not as path segments: no RFC
- * 6901 escapes. A root named "/" (an absolute path listing) prints glued to its child, `/usr / bin`,
- * and reads back so. With `nameOf` (pseudonyms), names are compared as that prints them. In
+ * 6901 escapes. A root named "/" (an absolute path listing) prints as a name of its own, `/ / usr /
+ * bin`; typed glued to its child, as paths write it (`/usr / bin`), it reads back too. With `nameOf` (pseudonyms), names are compared as that prints them. In
  * pre-order; empty when none.
  */
 export function resolvePrintedChain(

@@ -118,17 +118,13 @@ function joined(a: string, b: string): string {
 }
 
 /**
- * The labels a line names, top first. A root named "/" (an absolute path listing) is glued to its
- * only child's name as a path writes it, `/usr / bin`, not `/ / usr / bin`; the chain reads back as a
- * focus either way (see focus/printed-chain.ts).
+ * The labels a line names, top first, each a name of its own: a root named "/" (an absolute path
+ * listing) prints `/ / usr / bin`, so the line's count can be checked by its names (a glued `/usr`
+ * read as one name left the sum one short); a chain typed glued, `/usr / bin`, still reads back as a
+ * focus (see focus/printed-chain.ts).
  */
-export function chainLabels<T extends ViewNode>({ nodes, above }: LineGroup<T>): string[] {
-  const labels = nodes.map((n) => shownLabel(n.label));
-  // A child whose own name starts with "/" (a mount table's `/srv/quill`) stays a name of its own:
-  // glued, `//srv/quill` would read as one name.
-  if (above === null && labels.length > 1 && labels[0] === "/" && !labels[1].startsWith("/"))
-    labels.splice(0, 2, `/${labels[1]}`);
-  return labels;
+export function chainLabels<T extends ViewNode>({ nodes }: LineGroup<T>): string[] {
+  return nodes.map((n) => shownLabel(n.label));
 }
 
 /**

@@ -24,8 +24,9 @@ describe("renderText(view, options)", () => {
     );
   });
 
-  it("glues a root named / to its only child's name, as an absolute path writes it (/usr / bin)", () => {
-    // An absolute path listing has one root named "/" (docs/input.md); "/ / usr" would read as two roots.
+  it("prints a root named / as a name of its own in a chain (/ / usr / bin)", () => {
+    // An absolute path listing has one root named "/" (docs/input.md); the key's "a / b: b is a's only
+    // child" reads "/ / usr" as "/" and its only child "usr".
     const result = summarize(prepare(makeTree("/{usr{bin{a,b}}}")), {
       foci: [],
       budget: 10,
@@ -33,9 +34,11 @@ describe("renderText(view, options)", () => {
       chains: true,
     });
     const text = renderText(result.view, { units: "plain", sizes: false, chains: true });
-    // The numbers are the root's: /usr names two nodes, bin one, and a and b are below (5).
-    expect(text).toBe([". /usr / bin  5 nodes", "  . a", "  . b", ""].join("\n"));
-    // A node named "/" below the root is an ordinary name: only the root's "/" is glued.
+    // The numbers are the root's: three names on the line, and a and b below (5). The root "/" is a
+    // name of its own, so the sum can be checked by the names shown (glued, "/usr" read as one name
+    // left it one short).
+    expect(text).toBe([". / / usr / bin  5 nodes", "  . a", "  . b", ""].join("\n"));
+    // A node named "/" below the root is an ordinary name too.
     const below = summarize(prepare(makeTree("R{x,/{usr{y,z}}}")), {
       foci: [],
       budget: 10,
