@@ -94,9 +94,12 @@ async function* toUtf8(
   if (rest !== "") yield encoder.encode(rest);
 }
 
-function ioError(name: string, err: unknown): EspalierError {
+/**
+ * IO: an input that could not be read, by its name as given; an empty name (a script's unset variable,
+ * `espalier "$TREE"`) is said to be one, not printed as nothing.
+ */
+export function ioError(name: string, err: unknown): EspalierError {
   const reason = (err as NodeJS.ErrnoException).code ?? (err as Error).message;
-  return new EspalierError("IO", `cannot read ${name === "-" ? "standard input" : name}: ${reason}`, {
-    file: name,
-  });
+  const what = name === "-" ? "standard input" : name === "" ? 'an empty file name ("")' : name;
+  return new EspalierError("IO", `cannot read ${what}: ${reason}`, { file: name });
 }

@@ -2,6 +2,7 @@ import { EspalierError } from "../errors.js";
 import { readLimits } from "../load/read-limits.js";
 import type { CliIO } from "./io.js";
 import type { ReadBound } from "./read-bounded.js";
+import { ioError } from "./read-input-stream.js";
 import { unicodeEncoding } from "./unicode-encoding.js";
 
 /**
@@ -22,10 +23,7 @@ export async function readInput(io: CliIO, name: string, bound?: ReadBound): Pro
     bytes = name === "-" ? await io.readStdin(bound) : await io.readFile(name, bound);
   } catch (err) {
     if (err instanceof EspalierError) throw err;
-    const reason = (err as NodeJS.ErrnoException).code ?? (err as Error).message;
-    throw new EspalierError("IO", `cannot read ${name === "-" ? "standard input" : name}: ${reason}`, {
-      file: name,
-    });
+    throw ioError(name, err);
   }
   return new TextDecoder(unicodeEncoding(bytes), { ignoreBOM: false }).decode(bytes);
 }

@@ -84,6 +84,16 @@ describe("espalier diff OLD NEW", () => {
     expect(r.code).toBe(0);
   });
 
+  it("says an empty file name is one (a script's unset variable), for a summary and either version", async () => {
+    for (const args of [[""], ["diff", "", at("old.paths")], ["diff", at("old.paths"), ""]]) {
+      const r = await cli(args);
+      expect(r.code).toBe(2);
+      expect(r.stdout).toBe("");
+      expect(r.stderr).toContain('cannot read an empty file name ("")');
+      expect(r.stderr).toContain("[IO]");
+    }
+  });
+
   it("exits 2 on an input error either way, with one line on stderr and nothing on stdout", async () => {
     for (const extra of [[], ["--fail-on-change"]]) {
       const missing = await cli(["diff", at("old.paths"), at("nope.paths"), ...extra]);
