@@ -134,6 +134,7 @@ export type VersionReading =
   | { kind: "children"; field: string }
   | { kind: "path-map"; field: string }
   | { kind: "values" }
+  | { kind: "rows"; by: readonly string[] }
   | { kind: "folder-totals" };
 
 /** An input read as its format reads (named only beside another version's other reading). */
@@ -281,7 +282,7 @@ function sizeWord(header: HeaderOptions, style: HeaderStyle): string {
 
 /**
  * `2 missing counted as nodes` (the loader's notes), `read at /data/teams`, `children under dependencies`, `paths from packages` (`paths from keys` for the top level),
- * `every value a node`, `folder sizes read as totals with contents`, `3 short rows filled`: the
+ * `every value a node`, `rows linked by path`, `folder sizes read as totals with contents`, `3 short rows filled`: the
  * header's clauses on how the input was read; none when the options chose the reading.
  */
 function readingParts(header: HeaderOptions, style: HeaderStyle): string[] {
@@ -354,6 +355,8 @@ function readingText(reading: VersionReading | ListedReading, style: HeaderStyle
   if (reading.kind === "listed") return w(listedWords[reading.shape]);
   if (reading.kind === "values") return w("every value a node");
   if (reading.kind === "folder-totals") return w("folder sizes read as totals with contents");
+  if (reading.kind === "rows")
+    return `${w("rows linked by ")}${reading.by.map((f) => style.name(safeText(f, 40))).join(w(" and "))}`;
   const field = style.name(safeText(reading.field, 40));
   if (reading.kind === "children") return `${w("children under ")}${field}`;
   return reading.field === "" ? w("paths from keys") : `${w("paths from ")}${field}`;

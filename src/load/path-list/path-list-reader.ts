@@ -1,5 +1,5 @@
 import { Buffer, isUtf8 } from "node:buffer";
-import { EspalierError, quoted, say } from "../../errors.js";
+import { EspalierError, quoted, quotedList, say } from "../../errors.js";
 import { asBuffer } from "../../model/buffer-codecs.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { ReadingNote } from "../../model/reading-note.js";
@@ -254,6 +254,7 @@ export class PathListReader {
         { line: this.firstLine, column: 1 },
       );
     }
+    if (this.detected && this.sized === true && this.sizeEnd === space) columnAfterPath(sink, this.placer);
     sink.hasSizes = this.sized === true;
     const placer = this.placer;
     const root = placer.adoptTopLevel();
@@ -535,6 +536,52 @@ function spaceSized(bytes: Buffer, start: number, end: number): boolean {
   if (k >= end) return false;
   if (bytes[k] === slash) return true;
   return bytes[k] === dot && (k + 1 === end || bytes[k + 1] === slash);
+}
+
+/** Listed entries looked at for a column after the path (see {@link columnAfterPath}): a bounded cost. */
+const COLUMN_LINES = 1000;
+
+/**
+ * PARSE_PATHS when a listing of sizes and paths split by spaces holds another column after the path, as
+ * `find /DIR -printf '%s %p %u\n'` (an owner) and `stat -c '%s %n %U'` print: read as part of the
+ * names, each folder was two nodes (`git root` holding the folder's size, `git` its contents) and every
+ * name carried the word, with exit 0. A name may hold a space, so it is a column only when every entry
+ * looked at (at least 2) ends in a space and a word, and either some entry's name less that word is a
+ * folder no line names that holds entries (find lists every folder: there it is the start's own line),
+ * or the words repeat, at most one for every four entries (at least 4): owners, groups, types or modes
+ * do, the last words of names with spaces (`01 Overture.flac`) do not.
+ */
+function columnAfterPath(sink: NodeSink, placer: PathPlacer): void {
+  const words = new Set<string>();
+  const lessWord: { parent: number; name: string }[] = [];
+  let first = -1;
+  for (let i = 0; i < sink.length && lessWord.length < COLUMN_LINES; i++) {
+    if (!placer.isListed(i)) continue;
+    const name = sink.name.get(i);
+    const sp = name.lastIndexOf(" ");
+    if (sp <= 0 || sp === name.length - 1) return;
+    if (first === -1) first = i;
+    words.add(name.slice(sp + 1));
+    lessWord.push({ parent: sink.parentOf[i], name: name.slice(0, sp) });
+  }
+  const n = lessWord.length;
+  if (n < 2) return;
+  let repeated = n >= 4 && words.size * 4 <= n;
+  if (!repeated) {
+    // Folders no line names, holding entries, by parent and name.
+    const holds = new Uint8Array(sink.length);
+    for (let i = 0; i < sink.length; i++) if (sink.parentOf[i] !== -1) holds[sink.parentOf[i]] = 1;
+    const unlisted = new Set<string>();
+    for (let i = 0; i < sink.length; i++)
+      if (holds[i] === 1 && !placer.isListed(i)) unlisted.add(`${sink.parentOf[i]}/${sink.name.get(i)}`);
+    repeated = lessWord.some(({ parent, name }) => unlisted.has(`${parent}/${name}`));
+  }
+  if (!repeated) return;
+  throw new EspalierError(
+    "PARSE_PATHS",
+    say`every path ends in a space and a word (${quotedList("value", [...words], 3)}), as find -printf '%s %p %u\\n' and stat -c '%s %n %U' print a column after the path: read as part of the names, each folder would be two nodes and every name would hold the word. List the size and the path alone (find DIR -printf '%s\\t%p\\n', stat --printf '%s\\t%n\\n'), or put the column first and keep the size and path with cut; to read the word as part of the names, pass --input-format paths`,
+    { line: sink.origin[first], column: 1 },
+  );
 }
 
 /** Whether a path starts as a Windows one: a drive letter, ":" and "\", or "\\" (a network share). */

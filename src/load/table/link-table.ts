@@ -49,9 +49,18 @@ export function linkTable(
     sizeUnit: fieldSizeUnit(options.sizeField),
     ...(table.filledRows ? { filledRows: table.filledRows } : {}),
     ...(idsName ? { namesFrom: options.idField } : {}),
+    linkedBy: linkedBy(table, options),
   };
   if (table.place) linked.placeRow = table.place;
   return linked;
+}
+
+/** The columns {@link linkRows} linked the rows by: id and parent when the table has both, else the path. */
+function linkedBy(table: Table, options: LoadOptions): string[] {
+  const columns = table.columnNames();
+  return columns.includes(options.idField) && columns.includes(options.parentField)
+    ? [options.idField, options.parentField]
+    : [options.pathField];
 }
 
 function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): LinkedNodes {
