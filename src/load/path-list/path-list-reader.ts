@@ -91,6 +91,11 @@ export class PathListReader {
   /** The first line's words when it reads as a header of columns (see `headerFirst`). */
   private headerWords: string[] = [];
   /**
+   * Whether that header is words in capitals (`UID PID PPID C STIME TTY TIME CMD`, as ps prints) and
+   * each of the first {@link COMMA_LINES} lines after it holds as many fields split by spaces.
+   */
+  private filledColumns = false;
+  /**
    * Unsized lists: the commas on the first line, and whether each of the first {@link COMMA_LINES}
    * lines holds as many: rows of a CSV table without its header row (see `end`).
    */
@@ -219,7 +224,15 @@ export class PathListReader {
       // `ps -eo pid,ppid,comm`: a header of columns aligned with spaces, then a number first on every
       // line. Read as paths, each line would be one path (a process name with a "/" split into
       // folders), with exit 0.
-      throw new EspalierError("PARSE_PATHS", columnsAlignedMessage(this.headerWords), {
+      throw new EspalierError("PARSE_PATHS", columnsAlignedMessage(this.headerWords, "number"), {
+        line: this.firstLine,
+        column: 1,
+      });
+    }
+    if (this.detected && this.sized === false && this.filledColumns && this.pathLines > 2) {
+      // `ps -ef`, `ps aux`: a header of capitals, then lines that fill its columns, a user's name first.
+      // Read as paths, each line would be one path, a command's "/"s splitting it into folders.
+      throw new EspalierError("PARSE_PATHS", columnsAlignedMessage(this.headerWords, "filled"), {
         line: this.firstLine,
         column: 1,
       });
@@ -496,7 +509,11 @@ export class PathListReader {
       if (this.pathLines++ === 0) {
         this.headerFirst = headerOfColumns(bytes, start, end);
         if (this.headerFirst) this.headerWords = bytes.toString("utf8", start, end).trim().split(/ +/);
+        this.filledColumns = this.headerFirst && this.headerWords.every((word) => CAPITALS.test(word));
         this.totalFirst = /^total [0-9]/.test(bytes.toString("latin1", start, Math.min(end, start + 8)));
+      } else if (this.filledColumns && this.pathLines <= COMMA_LINES) {
+        const fields = bytes.toString("utf8", start, end).trim().split(/ +/).length;
+        if (fields < this.headerWords.length) this.filledColumns = false;
       }
       if (numberThenSpace(bytes, start, end)) this.numberFirstLines++;
       if (modeFirst(bytes, start, end)) this.modeFirstLines++;
@@ -631,6 +648,9 @@ function headerOfColumns(bytes: Buffer, start: number, end: number): boolean {
   const words = bytes.toString("utf8", start, end).trim().split(/ +/);
   return words.length >= 2 && words.every((word) => !word.includes("/") && !/^[0-9]/.test(word));
 }
+
+/** A column's name in a header of capitals: `PID`, `%CPU`, `STIME`, `RSS`. */
+const CAPITALS = /^%?[A-Z][A-Z0-9%_:+-]*$/;
 
 const PACKAGE_LINES =
   "every line is a folder, a colon and a name@version, as npm ls --parseable --long prints: read as a path list, each name@version would be a folder of its own. List the folders alone (npm ls --all --parseable), or the packages with their versions as nested JSON (npm ls --all --json); to read these lines as paths, pass --input-format paths";
