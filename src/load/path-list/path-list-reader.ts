@@ -82,6 +82,8 @@ export class PathListReader {
   private numberFirstLines = 0;
   /** Unsized lists: lines that start with a file's mode (`-rw-r--r--`), as `ls -l` and `tar tv` print. */
   private modeFirstLines = 0;
+  /** Whether the first line that starts with a mode is shaped as GNU tar tv prints it (see {@link TAR_LINE}). */
+  private tarFirst: boolean | undefined;
   /** Whether the first unsized line is `total N`, as `ls -l` prints first. */
   private totalFirst = false;
   /** Whether the first unsized line is words and spaces without a "/", as a header of columns is. */
@@ -245,7 +247,10 @@ export class PathListReader {
     ) {
       // `ls -l` or `tar tv`: each line a file's mode, owner, size, date and name. Read as paths, each
       // whole line would be one path split at its "/"s, the sizes in the names, with exit 0.
-      throw new EspalierError("PARSE_PATHS", MODES_FIRST, { line: this.firstLine, column: 1 });
+      throw new EspalierError("PARSE_PATHS", this.tarFirst ? TAR_LINES : MODES_FIRST, {
+        line: this.firstLine,
+        column: 1,
+      });
     }
     if (
       this.detected &&
@@ -516,7 +521,8 @@ export class PathListReader {
         if (fields < this.headerWords.length) this.filledColumns = false;
       }
       if (numberThenSpace(bytes, start, end)) this.numberFirstLines++;
-      if (modeFirst(bytes, start, end)) this.modeFirstLines++;
+      if (modeFirst(bytes, start, end) && this.modeFirstLines++ === 0)
+        this.tarFirst = TAR_LINE.test(bytes.toString("utf8", start, Math.min(end, start + 200)));
       if (this.pathLines <= COMMA_LINES && packageLine(bytes, start, end)) this.packageLines++;
       if (this.pathLines <= COMMA_LINES && this.sameCommas) {
         const commas = countByte(bytes, comma, start, end);
@@ -625,6 +631,20 @@ const TYPES = Buffer.from("-dlcbpsD");
 const PERMISSIONS = Buffer.from("-rwxsStT");
 const plus = 43;
 const at = 64;
+
+/**
+ * A line as GNU tar tv prints it (seen here, tar 1.34): a mode, owner/group, the size, a date and a time,
+ * then the name (`-rw-r--r-- 0/0   1077 1985-10-26 08:15 package/LICENSE`).
+ */
+const TAR_LINE =
+  /^\S{10,11} +\S+\/\S+ +[0-9]+ +[0-9]{4}-[0-9]{2}-[0-9]{2} +[0-9]{2}:[0-9]{2}(:[0-9]{2})? +\S/;
+
+/**
+ * The way out for GNU tar tv: its sizes and names as a path list, read by awk; a symbolic link's
+ * ` -> target` is dropped from its name.
+ */
+const TAR_LINES =
+  'every line starts with a file\'s mode (-rw-r--r--), as tar tv prints: read as a path list, each whole line would be one path, its size and date part of the names. Keep the size and the name as a path list: tar tvf FILE | awk \'{s = $3; l = ($1 ~ /^l/); sub(/^[^ ]+ +[^ ]+ +[^ ]+ +[^ ]+ +[^ ]+ +/, ""); if (l) sub(/ -> .*$/, ""); print s "\\t" $0}\' | espalier -; to read each line as a path, pass --input-format paths';
 
 const MODES_FIRST =
   "every line starts with a file's mode (-rw-r--r--), as ls -l and tar tv print: read as a path list, each whole line would be one path, its size and date part of the names. List paths instead: find DIR -printf '%s\\t%p\\n' (sizes and paths), tar tf (names); to read each line as a path, pass --input-format paths";
