@@ -74,6 +74,21 @@ describe("the header says an array of records was read as rows, and by which fie
     expect(JSON.parse(json.stdout).input).toMatchObject({ shape: "rows", linkedBy: ["path"] });
   });
 
+  it("a JSON Patch with two operations on one path is DUPLICATE_PATH naming --read-as values, which reads it", async () => {
+    // RFC 6902 §4.6 and §4.3: a "test" then a "replace" of the same path, as patches often pair them.
+    const pair = JSON.stringify([
+      { op: "test", path: "/tariff", value: 4 },
+      { op: "replace", path: "/tariff", value: 5 },
+    ]);
+    const r = await cli(["-"], { stdin: pair });
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/^espalier: <stdin>:1:\d+: .*--read-as values \[DUPLICATE_PATH\]\n$/);
+    const values = await cli(["-", "--read-as", "values", "--format", "json"], { stdin: pair });
+    expect(values.code).toBe(0);
+    // The array, its 2 operations, and their op, path and value: 1 + 2 + 6 nodes, the text's bytes.
+    expect(JSON.parse(values.stdout).totals).toEqual({ nodes: 9, size: Buffer.byteLength(pair) });
+  });
+
   it("rows linked by id and parent, YAML too; nothing said under --input-format rows, nor for CSV", async () => {
     const yaml = "- id: q1\n  parent:\n  name: quay\n- id: q2\n  parent: q1\n  name: crane\n";
     const r = await cli(["-", "--input-format", "yaml"], { stdin: yaml });

@@ -85,3 +85,44 @@ describe.skipIf(!hasGit)("git listings of a commit", () => {
     expect(doc.totals.nodes).toBe(Object.keys(files).length + 4); // src, src/sails, docs and the root
   });
 });
+
+describe.skipIf(!hasGit)("git diff --stat and --numstat of a change", () => {
+  // Read as a path list, git diff --stat's lines (`src/ledger.ts | 12 ++--`) were paths whose names held
+  // the counts and bars, exit 0. The check for the way out is git diff --shortstat's own totals.
+  const change = () => {
+    writeFileSync(join(repo, "src/ledger.ts"), "export const ledger = 1;\n".repeat(30) + "// tide\n");
+    writeFileSync(join(repo, "docs/guide.md"), "guide\n".repeat(310));
+  };
+
+  it("git diff --stat is PARSE_PATHS at line 1 naming git diff --numstat", async () => {
+    change();
+    const result = await cli(["-"], { stdin: git(["diff", "--stat"]) });
+    expect(result.code).toBe(2);
+    expect(result.stdout).toBe("");
+    expect(result.stderr).toMatch(/^espalier: <stdin>:1:1: .*git diff --numstat .*\[PARSE_PATHS\]\n$/);
+  });
+
+  it("git diff --numstat alone names its awk; through it, the root's size is --shortstat's lines changed", async () => {
+    change();
+    const numstat = git(["diff", "--numstat"]);
+    const told = await cli(["-"], { stdin: numstat });
+    expect(told.code).toBe(2);
+    expect(told.stderr).toMatch(
+      /for git diff --numstat .*--units plain reads the lines changed as sizes \[PARSE_PATHS\]\n$/,
+    );
+    const paths = execFileSync("awk", ["-F\t", '{print $1 + $2 "\t" $3}'], {
+      input: numstat,
+      encoding: "utf8",
+    });
+    const doc = JSON.parse(
+      (await cli(["-", "--units", "plain", "--format", "json"], { stdin: paths })).stdout,
+    );
+    const short = git(["diff", "--shortstat"]);
+    const counted = [...short.matchAll(/([0-9]+) (?:insertion|deletion)/g)].reduce(
+      (n, m) => n + Number(m[1]),
+      0,
+    );
+    expect(doc.totals.size).toBe(counted);
+    expect(counted).toBeGreaterThan(0);
+  });
+});

@@ -82,6 +82,13 @@ export class PathListReader {
   private numberFirstLines = 0;
   /** Unsized lists: lines that start with a file's mode (`-rw-r--r--`), as `ls -l` and `tar tv` print. */
   private modeFirstLines = 0;
+  /** Unsized lists: lines that start with a drawn tree's lines (`├── `, `+-- `), and the first one's number. */
+  private drawnLines = 0;
+  private firstDrawn = 0;
+  /** Unsized lists: lines as git diff --stat prints them (`path | 12 ++--`), and its closing count. */
+  private statLines = 0;
+  /** Whether the first line that starts with a mode is shaped as GNU tar tv prints it (see {@link TAR_LINE}). */
+  private tarFirst: boolean | undefined;
   /** Whether the first unsized line is `total N`, as `ls -l` prints first. */
   private totalFirst = false;
   /** Whether the first unsized line is words and spaces without a "/", as a header of columns is. */
@@ -90,6 +97,11 @@ export class PathListReader {
   private packageLines = 0;
   /** The first line's words when it reads as a header of columns (see `headerFirst`). */
   private headerWords: string[] = [];
+  /**
+   * Whether that header is words in capitals (`UID PID PPID C STIME TTY TIME CMD`, as ps prints) and
+   * each of the first {@link COMMA_LINES} lines after it holds as many fields split by spaces.
+   */
+  private filledColumns = false;
   /**
    * Unsized lists: the commas on the first line, and whether each of the first {@link COMMA_LINES}
    * lines holds as many: rows of a CSV table without its header row (see `end`).
@@ -219,7 +231,15 @@ export class PathListReader {
       // `ps -eo pid,ppid,comm`: a header of columns aligned with spaces, then a number first on every
       // line. Read as paths, each line would be one path (a process name with a "/" split into
       // folders), with exit 0.
-      throw new EspalierError("PARSE_PATHS", columnsAlignedMessage(this.headerWords), {
+      throw new EspalierError("PARSE_PATHS", columnsAlignedMessage(this.headerWords, "number"), {
+        line: this.firstLine,
+        column: 1,
+      });
+    }
+    if (this.detected && this.sized === false && this.filledColumns && this.pathLines > 2) {
+      // `ps -ef`, `ps aux`: a header of capitals, then lines that fill its columns, a user's name first.
+      // Read as paths, each line would be one path, a command's "/"s splitting it into folders.
+      throw new EspalierError("PARSE_PATHS", columnsAlignedMessage(this.headerWords, "filled"), {
         line: this.firstLine,
         column: 1,
       });
@@ -232,7 +252,30 @@ export class PathListReader {
     ) {
       // `ls -l` or `tar tv`: each line a file's mode, owner, size, date and name. Read as paths, each
       // whole line would be one path split at its "/"s, the sizes in the names, with exit 0.
-      throw new EspalierError("PARSE_PATHS", MODES_FIRST, { line: this.firstLine, column: 1 });
+      throw new EspalierError("PARSE_PATHS", this.tarFirst ? TAR_LINES : MODES_FIRST, {
+        line: this.firstLine,
+        column: 1,
+      });
+    }
+    if (
+      this.detected &&
+      this.sized === false &&
+      this.drawnLines >= 2 &&
+      this.drawnLines >= this.pathLines - 1
+    ) {
+      // `npm ls --all`: a tree already drawn, a package a line under `├── ` and `│ `. Read as paths, each
+      // line would be one path named with the drawing, a scoped package's "/" splitting it, exit 0.
+      throw new EspalierError("PARSE_PATHS", DRAWN_TREE, { line: this.firstDrawn, column: 1 });
+    }
+    if (
+      this.detected &&
+      this.sized === false &&
+      this.statLines >= 1 &&
+      this.statLines === Math.min(this.pathLines, COMMA_LINES)
+    ) {
+      // `git diff --stat`: each line a path, " | ", the lines changed and a bar of + and -. Read as
+      // paths, each count and bar would be part of a file's name, exit 0.
+      throw new EspalierError("PARSE_PATHS", DIFF_STAT, { line: this.firstLine, column: 1 });
     }
     if (
       this.detected &&
@@ -355,9 +398,14 @@ export class PathListReader {
     const s = bytes.lastIndexOf(slash, t);
     const from = s >= start ? s + 1 : start;
     const field = bytes.toString("utf8", Math.max(from, t - 40), t);
+    // `git diff --numstat`: lines added, a tab, lines deleted ("-" for a binary file), a tab, the path.
+    const numstat =
+      from === start && /^(?:[0-9]+|-)$/.test(field)
+        ? "; for git diff --numstat (lines added and deleted before the path), git diff --numstat | awk -F'\\t' '{print $1 + $2 \"\\t\" $3}' | espalier - --units plain reads the lines changed as sizes"
+        : "";
     throw new EspalierError(
       "PARSE_PATHS",
-      say`line ${line} holds another tab after the size, after ${quoted.excerpt(field)}: a column besides the size and the path, as du --time and find -printf '%s\\t%T+\\t%p\\n' put a date before the path and find -printf '%s\\t%p\\t%y\\n' a type after it; read as part of the path, each date would be a folder of its own, or each folder two. List the size and the path alone (du -ab, find -printf '%s\\t%p\\n'), or keep those columns with cut (cut -f1,3 for a date before the path); to read the tab as part of a name, pass --input-format paths`,
+      say`line ${line} holds another tab after the size, after ${quoted.excerpt(field)}: a column besides the size and the path, as du --time and find -printf '%s\\t%T+\\t%p\\n' put a date before the path and find -printf '%s\\t%p\\t%y\\n' a type after it; read as part of the path, each date would be a folder of its own, or each folder two. List the size and the path alone (du -ab, find -printf '%s\\t%p\\n'), or keep those columns with cut (cut -f1,3 for a date before the path); to read the tab as part of a name, pass --input-format paths${numstat}`,
       // The column of the second tab: the size is ASCII digits, and the field is counted in characters.
       { line, column: start - lineStart + 1 + bytes.toString("utf8", start, t).length },
     );
@@ -496,10 +544,23 @@ export class PathListReader {
       if (this.pathLines++ === 0) {
         this.headerFirst = headerOfColumns(bytes, start, end);
         if (this.headerFirst) this.headerWords = bytes.toString("utf8", start, end).trim().split(/ +/);
+        this.filledColumns = this.headerFirst && this.headerWords.every((word) => CAPITALS.test(word));
         this.totalFirst = /^total [0-9]/.test(bytes.toString("latin1", start, Math.min(end, start + 8)));
+      } else if (this.filledColumns && this.pathLines <= COMMA_LINES) {
+        const fields = bytes.toString("utf8", start, end).trim().split(/ +/).length;
+        if (fields < this.headerWords.length) this.filledColumns = false;
       }
       if (numberThenSpace(bytes, start, end)) this.numberFirstLines++;
-      if (modeFirst(bytes, start, end)) this.modeFirstLines++;
+      if (drawnTreeLine(bytes, start, end) && this.drawnLines++ === 0) this.firstDrawn = line;
+      // Only while every line so far is one: a bounded cost on other lists.
+      if (
+        this.pathLines <= COMMA_LINES &&
+        this.statLines === this.pathLines - 1 &&
+        diffStatLine(bytes, start, end)
+      )
+        this.statLines++;
+      if (modeFirst(bytes, start, end) && this.modeFirstLines++ === 0)
+        this.tarFirst = TAR_LINE.test(bytes.toString("utf8", start, Math.min(end, start + 200)));
       if (this.pathLines <= COMMA_LINES && packageLine(bytes, start, end)) this.packageLines++;
       if (this.pathLines <= COMMA_LINES && this.sameCommas) {
         const commas = countByte(bytes, comma, start, end);
@@ -513,9 +574,22 @@ export class PathListReader {
     }
     if (this.backslashes === undefined) this.backslashes = windowsPath(bytes, pathStart, end);
     if (this.writtenLine !== undefined) this.checkWritten(bytes, start, pathStart, end, line);
-    let i = this.backslashes
-      ? this.placer.placeText(bytes.toString("utf8", pathStart, end).replaceAll("\\", "/"), line)
-      : this.placer.place(bytes, view, pathStart, end, line);
+    let i: number;
+    try {
+      i = this.backslashes
+        ? this.placer.placeText(bytes.toString("utf8", pathStart, end).replaceAll("\\", "/"), line)
+        : this.placer.place(bytes, view, pathStart, end, line);
+    } catch (err) {
+      // A drawn tree repeats a line (`├── x deduped`) before its end is read: say what it is.
+      if (
+        this.sized === false &&
+        this.detected &&
+        this.drawnLines >= 2 &&
+        this.drawnLines >= this.pathLines - 1
+      )
+        throw new EspalierError("PARSE_PATHS", DRAWN_TREE, { line: this.firstDrawn, column: 1 });
+      throw err;
+    }
     if (i === -1) i = this.placer.placeRoot(line);
     this.sink.ownSize[i] = size;
   }
@@ -609,6 +683,20 @@ const PERMISSIONS = Buffer.from("-rwxsStT");
 const plus = 43;
 const at = 64;
 
+/**
+ * A line as GNU tar tv prints it (seen here, tar 1.34): a mode, owner/group, the size, a date and a time,
+ * then the name (`-rw-r--r-- 0/0   1077 1985-10-26 08:15 package/LICENSE`).
+ */
+const TAR_LINE =
+  /^\S{10,11} +\S+\/\S+ +[0-9]+ +[0-9]{4}-[0-9]{2}-[0-9]{2} +[0-9]{2}:[0-9]{2}(:[0-9]{2})? +\S/;
+
+/**
+ * The way out for GNU tar tv: its sizes and names as a path list, read by awk; a symbolic link's
+ * ` -> target` is dropped from its name.
+ */
+const TAR_LINES =
+  'every line starts with a file\'s mode (-rw-r--r--), as tar tv prints: read as a path list, each whole line would be one path, its size and date part of the names. Keep the size and the name as a path list: tar tvf FILE | awk \'{s = $3; l = ($1 ~ /^l/); sub(/^[^ ]+ +[^ ]+ +[^ ]+ +[^ ]+ +[^ ]+ +/, ""); if (l) sub(/ -> .*$/, ""); print s "\\t" $0}\' | espalier -; to read each line as a path, pass --input-format paths';
+
 const MODES_FIRST =
   "every line starts with a file's mode (-rw-r--r--), as ls -l and tar tv print: read as a path list, each whole line would be one path, its size and date part of the names. List paths instead: find DIR -printf '%s\\t%p\\n' (sizes and paths), tar tf (names); to read each line as a path, pass --input-format paths";
 
@@ -631,6 +719,51 @@ function headerOfColumns(bytes: Buffer, start: number, end: number): boolean {
   const words = bytes.toString("utf8", start, end).trim().split(/ +/);
   return words.length >= 2 && words.every((word) => !word.includes("/") && !/^[0-9]/.test(word));
 }
+
+const pipe = 124;
+
+/**
+ * Whether the line starts (after spaces) with the lines of a drawn tree: `├`, `└` or `│` (U+251C,
+ * U+2514, U+2502, as npm ls prints its dependencies), or `+-- `, `` `-- `` or `| ` (its --unicode=false
+ * form; seen here, npm 11).
+ */
+function drawnTreeLine(bytes: Buffer, start: number, end: number): boolean {
+  let k = start;
+  while (k < end && bytes[k] === space) k++;
+  if (end - k >= 3 && bytes[k] === 0xe2 && bytes[k + 1] === 0x94) {
+    const c = bytes[k + 2];
+    return c === 0x9c || c === 0x94 || c === 0x82;
+  }
+  if (end - k < 2) return false;
+  const a = bytes[k];
+  if (a === pipe) return bytes[k + 1] === space;
+  return (a === plus || a === backtick) && end - k >= 4 && bytes[k + 1] === dash && bytes[k + 2] === dash;
+}
+
+const dash = 45;
+const backtick = 96;
+
+const DRAWN_TREE =
+  "the lines start with a drawn tree's lines (├── , │ , or +-- and `-- ), as npm ls --all prints its dependencies: read as a path list, each line would be one path named with the drawing. Give espalier the hierarchy as data: npm ls --all --json (nested JSON) or npm ls --all --parseable (one folder a line); to read each line as a path, pass --input-format paths";
+
+/**
+ * Whether the line is as git diff --stat (and git log --stat) prints a changed file: the path, spaces,
+ * "|", spaces and the lines changed with a bar of "+" and "-", or `Bin 10 -> 12 bytes`; or the count
+ * that closes it (` 3 files changed, 12 insertions(+)`). From the lines git 2.39 prints here.
+ */
+function diffStatLine(bytes: Buffer, start: number, end: number): boolean {
+  const text = bytes.toString("utf8", start, end);
+  return DIFF_STAT_LINE.test(text) || DIFF_STAT_TOTAL.test(text);
+}
+
+const DIFF_STAT_LINE = / \| +(?:[0-9]+(?: [+-]*)?|Bin(?: [0-9]+ -> [0-9]+ bytes)?)$/;
+const DIFF_STAT_TOTAL = /^ *[0-9]+ files? changed(?:, [0-9]+ (?:insertions?\(\+\)|deletions?\(-\)))*$/;
+
+const DIFF_STAT =
+  "every line is a path, \" | \" and the lines changed, as git diff --stat prints: read as a path list, each count would be part of a file's name. List the lines changed as sizes: git diff --numstat | awk -F'\\t' '{print $1 + $2 \"\\t\" $3}' | espalier - --units plain (a binary file's \"-\" counts 0); to read each line as a path, pass --input-format paths";
+
+/** A column's name in a header of capitals: `PID`, `%CPU`, `STIME`, `RSS`. */
+const CAPITALS = /^%?[A-Z][A-Z0-9%_:+-]*$/;
 
 const PACKAGE_LINES =
   "every line is a folder, a colon and a name@version, as npm ls --parseable --long prints: read as a path list, each name@version would be a folder of its own. List the folders alone (npm ls --all --parseable), or the packages with their versions as nested JSON (npm ls --all --json); to read these lines as paths, pass --input-format paths";
