@@ -1,5 +1,5 @@
 import type { HierarchyNode } from "d3-hierarchy";
-import { changeKinds, treeChangeKinds } from "../diff/changes.js";
+import { type ChangeKind, changeKinds, treeChangeKinds } from "../diff/changes.js";
 import type { DiffTotals } from "../diff/prepared-diff.js";
 import type { NoteFact } from "../model/reading-note.js";
 import { safeText } from "../model/safe-text.js";
@@ -219,22 +219,43 @@ export function diffHeaderLines(
   options: NumberOptions,
   width?: number,
 ): string[] {
-  return wrapHeader(diffParts(totals, by, header, options, plainStyle), header, width);
+  const listed = diffParts(totals, by, header, options, plainStyle);
+  if (width === undefined) return wrapHeader(listed, header, width);
+  // The kinds none of the nodes has said once (`0 moved, renamed or edited`) where that takes fewer
+  // lines: decided as if the whole budget were used, as `wrapHeader` decides its breaks.
+  const grouped = diffParts(totals, by, header, options, plainStyle, true);
+  const most = { ...header, lines: header.budget };
+  const fewer = wrapHeader(grouped, most, width).length < wrapHeader(listed, most, width).length;
+  return wrapHeader(fewer ? grouped : listed, header, width);
 }
 
-/** The diff header's clauses (joined by `; `), naming at most `fociShown` foci. */
+/**
+ * The diff header's clauses (joined by `; `), naming at most `fociShown` foci; `grouped`: the kinds
+ * with no node said together after the others (`3 added, 340 removed, 0 moved, renamed or edited`),
+ * where two or more have none.
+ */
 function diffParts(
   totals: DiffTotals,
   by: "id" | "path",
   header: HeaderOptions,
   options: NumberOptions,
   style: HeaderStyle,
+  grouped = false,
 ): HeaderParts {
   const w = style.words;
   // A diff of graphs counts edges linked and unlinked too; a diff of trees has none to count.
-  const kinds = (totals.graph ? changeKinds : treeChangeKinds)
-    .map((k) => `${formatCount(totals.changes[k])} ${k}${k === "edited" ? comparedText(header) : ""}`)
-    .join(", ");
+  const all = totals.graph ? changeKinds : treeChangeKinds;
+  const said = (k: ChangeKind) => `${k}${k === "edited" ? comparedText(header) : ""}`;
+  const none = all.filter((k) => totals.changes[k] === 0);
+  const kinds =
+    grouped && none.length >= 2
+      ? [
+          ...all
+            .filter((k) => totals.changes[k] > 0)
+            .map((k) => `${formatCount(totals.changes[k])} ${said(k)}`),
+          `0 ${none.slice(0, -1).map(said).join(", ")} or ${said(none[none.length - 1])}`,
+        ].join(", ")
+      : all.map((k) => `${formatCount(totals.changes[k])} ${said(k)}`).join(", ");
   let counts = w(`${formatCount(totals.old.nodes)} -> ${formatCount(totals.new.nodes)} nodes`);
   // Entries that are empty objects (`{}`) count as nodes: how many of each version's are such.
   if (totals.old.empty || totals.new.empty)
