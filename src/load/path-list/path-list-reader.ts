@@ -85,6 +85,8 @@ export class PathListReader {
   /** Unsized lists: lines that start with a drawn tree's lines (`├── `, `+-- `), and the first one's number. */
   private drawnLines = 0;
   private firstDrawn = 0;
+  /** Unsized lists: lines of the first {@link COMMA_LINES} holding two spaces between words (see `end`). */
+  private spacedLines = 0;
   /** Unsized lists: lines as git diff --stat prints them (`path | 12 ++--`), and its closing count. */
   private statLines = 0;
   /** Whether the first line that starts with a mode is shaped as GNU tar tv prints it (see {@link TAR_LINE}). */
@@ -298,6 +300,16 @@ export class PathListReader {
       );
     }
     if (this.detected && this.sized === true && this.sizeEnd === space) columnAfterPath(sink, this.placer);
+    if (
+      this.detected &&
+      this.sized === false &&
+      this.pathLines >= 2 &&
+      this.spacedLines === Math.min(this.pathLines, COMMA_LINES)
+    ) {
+      // `df -B1`, `sha256sum`: columns aligned with runs of spaces, a size or a hash beside each path.
+      // Read as paths, each whole line would be one path, its numbers part of the names, exit 0.
+      throw new EspalierError("PARSE_PATHS", SPACED_COLUMNS, { line: this.firstLine, column: 1 });
+    }
     sink.hasSizes = this.sized === true;
     const placer = this.placer;
     const root = placer.adoptTopLevel();
@@ -552,6 +564,12 @@ export class PathListReader {
       }
       if (numberThenSpace(bytes, start, end)) this.numberFirstLines++;
       if (drawnTreeLine(bytes, start, end) && this.drawnLines++ === 0) this.firstDrawn = line;
+      if (
+        this.pathLines <= COMMA_LINES &&
+        this.spacedLines === this.pathLines - 1 &&
+        spacedWords(bytes, start, end)
+      )
+        this.spacedLines++;
       // Only while every line so far is one: a bounded cost on other lists.
       if (
         this.pathLines <= COMMA_LINES &&
@@ -721,6 +739,21 @@ function headerOfColumns(bytes: Buffer, start: number, end: number): boolean {
 }
 
 const pipe = 124;
+
+/**
+ * Whether the line holds two spaces or more between words (its ends trimmed): columns aligned with
+ * spaces (`df`, `sha256sum`'s hash and name); a file's name seldom holds two spaces in a row.
+ */
+function spacedWords(bytes: Buffer, start: number, end: number): boolean {
+  while (start < end && (bytes[start] === space || bytes[start] === tab)) start++;
+  while (end > start && (bytes[end - 1] === space || bytes[end - 1] === tab)) end--;
+  for (let k = bytes.indexOf(space, start); k !== -1 && k + 1 < end; k = bytes.indexOf(space, k + 1))
+    if (bytes[k + 1] === space) return true;
+  return false;
+}
+
+const SPACED_COLUMNS =
+  "every line holds two or more spaces between words, as columns aligned with spaces are (df, sha256sum): read as a path list, each whole line would be one path, its numbers part of the names. Give espalier a size and a path separated by a tab a line (find DIR -printf '%s\\t%p\\n', du -ab), or a table whose header row names its columns (CSV or TSV); to read each line as a path, pass --input-format paths";
 
 /**
  * Whether the line starts (after spaces) with the lines of a drawn tree: `├`, `└` or `│` (U+251C,
