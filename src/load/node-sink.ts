@@ -155,8 +155,17 @@ export class NodeSink {
     };
   }
 
-  private grow(): void {
-    const capacity = this.parentOf.length * 2;
+  /**
+   * Room for `nodes` nodes at once (a loader that can tell how many are coming: a diff's NEW, about as
+   * many as its OLD), where doubling would make fresh memory and a copy a dozen times over.
+   */
+  makeRoom(nodes: number): void {
+    if (nodes > this.parentOf.length) this.grow(nodes);
+    this.name.makeRoom(nodes, 0);
+  }
+
+  private grow(atLeast = 0): void {
+    const capacity = Math.max(atLeast, this.parentOf.length * 2);
     const parentOf = new Int32Array(capacity);
     parentOf.set(this.parentOf);
     this.parentOf = parentOf;

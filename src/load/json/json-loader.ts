@@ -19,11 +19,10 @@ import {
 } from "../missing-field.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
 import { fieldSizeUnit } from "../size-unit.js";
-import { MOST_KEPT_BYTES } from "../table/kept-table.js";
 import { linkTable } from "../table/link-table.js";
 import { rowsTable } from "../table/rows-table.js";
 import { JsonTokenizer, NUL, numberValue, TRUE } from "./json-tokenizer.js";
-import { JsonKeeper, K_HIGH, K_LINES, K_NAMED, KeptJson } from "./kept-json.js";
+import { JsonKeeper, K_HIGH, K_LINES, KeptJson } from "./kept-json.js";
 import { isArrayIndexKey, reorderKeyedChildren } from "./keyed-order.js";
 import { RowsProbe } from "./rows-probe.js";
 import { C_KEEP, C_PROBE, C_ROW, Captures } from "./value-capture.js";
@@ -256,17 +255,25 @@ export class JsonLoader extends JsonTokenizer {
       options.startAt === undefined &&
       options.folderSizes !== "total";
     const size = options.inputBytes;
-    this.keeping =
-      alike && options.keepForLaterVersion === true && size !== undefined && size <= MOST_KEPT_BYTES;
-    this.keeper = new JsonKeeper(this.keeping ? size! : 0);
-    if (!this.keeping) this.keeper.drop();
+    this.keeper = new JsonKeeper(
+      alike && options.keepForLaterVersion === true && size !== undefined ? size : 0,
+      options.inputReadAgain === true,
+    );
+    this.keeping = this.keeper.keeping;
     this.taking =
       alike &&
       earlier !== undefined &&
       options.earlierVersion?.name === earlier.names &&
       this.sink.readsEarlierNames &&
-      this.sameReadAs(earlier);
+      this.sameReadAs(earlier) &&
+      earlier.readable(options.earlierInput);
     this.earlier = this.taking ? earlier! : KeptJson.none;
+    if (this.taking) {
+      // About as many nodes as the earlier version: room made once.
+      const nodes = Math.ceil(1.05 * earlier!.length) + 1024;
+      this.sink.makeRoom(nodes);
+      this.sized = new Uint8Array(nodes);
+    }
   }
 
   /** Whether `earlier` was read as this input is. */
@@ -376,6 +383,7 @@ export class JsonLoader extends JsonTokenizer {
       sink.name,
       this.kept,
       this.pos.line > 1,
+      this.hasNames,
     );
   }
 
@@ -510,6 +518,8 @@ export class JsonLoader extends JsonTokenizer {
   protected override reuse(buf: Buffer, i: number): number {
     if (!this.taking || this.slot !== S_CHILD || this.captures.open.length > 0) return -1;
     const earlier = this.earlier;
+    // Whether a node taken is named is not kept: taken only when that cannot change `hasNames`.
+    if (!this.hasNames && earlier.named) return -1;
     const list = this.frames[this.depth - 1];
     const sink = this.sink;
     if (sink.length < SAMPLED_NODES) return -1;
@@ -529,7 +539,7 @@ export class JsonLoader extends JsonTokenizer {
         let adjust = 0;
         for (let t = k; t !== -1; t = t === last ? -1 : earlier.nextSibling(t)) {
           bits |= earlier.flags[t];
-          adjust += earlier.adjust[t];
+          adjust += earlier.adjust(t);
         }
         const lines = (bits & K_LINES) !== 0 || (last !== k && earlier.lines);
         this.passOver(buf, i, to, lines, (bits & K_HIGH) !== 0, adjust);
@@ -570,11 +580,6 @@ export class JsonLoader extends JsonTokenizer {
         if (value !== "") to[at + t] = value;
       }
     }
-    if (!this.hasNames) {
-      const flags = earlier.flags;
-      for (let t = k; t < k + count && !this.hasNames; t++)
-        if ((flags[t] & K_NAMED) !== 0) this.hasNames = true;
-    }
     this.unkeyed += count;
   }
 
@@ -592,6 +597,7 @@ export class JsonLoader extends JsonTokenizer {
       this.sized = grown;
     }
     this.sized[j] = 0;
+    if (this.keeping && j >= this.keeper.count.length) this.keeper.room(j);
     return j;
   }
 
@@ -663,6 +669,7 @@ export class JsonLoader extends JsonTokenizer {
     if ((field.mask & F_MISSING) !== 0) {
       frame.missing = kind === BOOLEAN && text === "true";
       frame.missingLine = this.pos.line;
+      if (frame.missing && this.keeping) this.keeper.odd(i, this.sink.parentOf);
     }
   }
 
@@ -726,6 +733,7 @@ export class JsonLoader extends JsonTokenizer {
     if (map.keys.has(key) || isArrayIndexKey(key)) map.reorder = true;
     map.keys.add(key);
     map.children.push(j);
+    if (this.keeping) this.keeper.odd(j, this.sink.parentOf);
     return j;
   }
 
@@ -789,7 +797,6 @@ export class JsonLoader extends JsonTokenizer {
         // Not taken from the earlier version: its counterpart there is found by its name (pairByName).
         frame.pairing = this.taking;
         if (this.keeping) {
-          if (j >= this.keeper.count.length) this.keeper.room(j);
           this.keeper.start[j] = this.base + i;
           frame.openLine = this.pos.line;
           frame.openAdjust = this.pos.lineAdjust;
@@ -996,23 +1003,14 @@ export class JsonLoader extends JsonTokenizer {
    * since it opened: all below it) and what its reading did (kept-json.ts).
    */
   private keepNode(keeper: JsonKeeper, frame: Frame, end: number): void {
+    // What made it odd (K_ODD) was marked as read: keyed by name, missing, a children key given twice.
     const i = frame.node;
-    const sink = this.sink;
-    if (i >= keeper.count.length) keeper.room(i);
     keeper.end[i] = end;
-    keeper.count[i] = sink.length - i;
-    const nameKind = frame.nameKind;
-    if (frame.keyed || frame.missing) keeper.odd(i, sink.parentOf);
-    // K_ODD and K_ODD_BELOW as set from below.
-    let flags = keeper.flags[i];
-    if (nameKind === STRING || nameKind === NUMBER || nameKind === BOOLEAN) flags |= K_NAMED;
+    keeper.count[i] = this.sink.length - i;
     // Its bytes' lines and columns, for a later load that takes them (JsonTokenizer.passOver).
-    if (this.pos.line !== frame.openLine) flags |= K_LINES | K_HIGH;
-    else if (this.pos.lineAdjust !== frame.openAdjust) {
-      flags |= K_HIGH;
-      keeper.setAdjust(i, this.pos.lineAdjust - frame.openAdjust);
-    }
-    keeper.flags[i] = flags;
+    const pos = this.pos;
+    if (pos.line !== frame.openLine) keeper.flags[i] |= K_LINES | K_HIGH;
+    else if (pos.lineAdjust !== frame.openAdjust) keeper.high(i, pos.lineAdjust - frame.openAdjust);
   }
 
   private growStack(): void {

@@ -1,9 +1,8 @@
 import type { Buffer } from "node:buffer";
 import { NamePool } from "../../model/names.js";
+import type { BytesAt } from "../load-options.js";
 import { MOST_KEPT_BYTES, releasableMemory, releaseMemory } from "../table/kept-table.js";
 
-/** A node object that read a name (its `hasNames` share), or one below it. */
-export const K_NAMED = 1;
 /**
  * A node object whose reading did more than add nodes: keyed by name, `"missing": true`, a children
  * field repeated: its subtree is read again, not taken.
@@ -28,17 +27,19 @@ export interface JsonReadAs {
 
 /**
  * What the load of a JSON input of node objects kept for the load of a later version of it (a diff's
- * OLD for its NEW, one after the other): the input's bytes, where each node object in a children array
- * starts and ends in them, how many nodes its subtree holds, and the nodes as read (parents, own sizes,
- * names, what was read of each). A node object of the later version whose bytes are those of one here,
- * at the same place in the tree, is then taken with its subtree from here instead of read: its nodes
- * are a function of its bytes, as long as nothing in them did more than add nodes (K_ODD).
+ * OLD for its NEW, one after the other): where each node object in a children array starts and ends
+ * in the input's bytes, how many nodes its subtree holds, and the nodes as read (parents, own sizes,
+ * names, what was read of each); the bytes themselves, or the input read again (`readAgain`: a regular
+ * file, read by the later load a window at a time, where keeping them would be fresh memory as big as
+ * the file). A node object of the later version whose bytes are those of one here, at the same place in
+ * the tree, is then taken with its subtree from here instead of read: its nodes are a function of its
+ * bytes, as long as nothing in them did more than add nodes (K_ODD).
  */
 export class KeptJson {
   constructor(
     readonly readAs: JsonReadAs,
-    /** The input's bytes (on memory from releasableMemory). */
-    readonly bytes: Uint8Array,
+    /** The input's bytes (on memory from releasableMemory); null when it is read again. */
+    private readonly bytes: Uint8Array | null,
     /** Nodes read; node 0 the one top-level node object. */
     readonly length: number,
     /** Where node i's object starts in `bytes` (its `{`), for the nodes of a children array; else 0. */
@@ -49,8 +50,11 @@ export class KeptJson {
     readonly count: Int32Array,
     /** K_ bits by node. */
     readonly flags: Uint8Array,
-    /** Node i's bytes beyond their UTF-16 length, when they hold no line feed (JsonPositions). */
-    readonly adjust: Int32Array,
+    /**
+     * Node i's bytes beyond their UTF-16 length, when they hold no line feed (JsonPositions), for those
+     * with a byte >= 0x80 (K_HIGH); empty when none has.
+     */
+    private readonly adjusts: Int32Array,
     /** The loader's own bits by node (json-loader.ts `sized`). */
     readonly sized: Uint8Array,
     readonly parentOf: Int32Array,
@@ -61,12 +65,14 @@ export class KeptJson {
     readonly kept: readonly (string | undefined)[][],
     /** Whether the input holds a line feed (what separates two nodes may). */
     readonly lines: boolean,
+    /** Whether some node has a name (json-loader.ts `hasNames`). */
+    readonly named: boolean,
   ) {}
 
   /** Nothing kept: what a load not read against an earlier version holds in its place. */
   static readonly none = new KeptJson(
     { nameField: "", sizeField: "", childrenField: "", keepFields: [], maxTokenBytes: 0, maxDepth: 0 },
-    new Uint8Array(0),
+    null,
     0,
     new Uint32Array(0),
     new Uint32Array(0),
@@ -79,7 +85,40 @@ export class KeptJson {
     new NamePool(1, 16),
     [],
     false,
+    false,
   );
+
+  /**
+   * Bytes of the input read again at once (LoadOptions.earlierInput), a 64th of them before the range
+   * asked for; a range longer than the rest is not compared (its nodes are taken piece by piece).
+   */
+  static windowBytes = 4 << 20;
+
+  /** The bytes compared with, and where in the input they start. */
+  private window: Uint8Array | null = null;
+  private windowAt = 0;
+  private source: BytesAt | null = null;
+
+  /**
+   * Whether the bytes can be compared with: kept, or read again through `readAgain` (the input as the
+   * earlier load read it: LoadOptions.earlierInput).
+   */
+  readable(readAgain: BytesAt | undefined): boolean {
+    if (this.bytes !== null) {
+      this.window = this.bytes;
+      return true;
+    }
+    if (readAgain === undefined) return false;
+    this.source = readAgain;
+    this.window = new Uint8Array(KeptJson.windowBytes);
+    this.windowAt = -KeptJson.windowBytes;
+    return true;
+  }
+
+  /** Node `i`'s bytes beyond their UTF-16 length (see `adjusts`). */
+  adjust(i: number): number {
+    return (this.flags[i] & K_HIGH) === 0 ? 0 : this.adjusts[i];
+  }
 
   /** Node `i`'s first child, or -1. */
   firstChild(i: number): number {
@@ -100,7 +139,7 @@ export class KeptJson {
     if ((this.flags[k] & (K_ODD | K_ODD_BELOW)) !== 0) return -1;
     const s = this.start[k];
     const e = this.end[k];
-    if (s === 0 || i + (e - s) > buf.length || !same(this.bytes, s, e, buf, i)) return -1;
+    if (s === 0 || i + (e - s) > buf.length || !this.same(s, e, buf, i)) return -1;
     return e - s;
   }
 
@@ -128,7 +167,7 @@ export class KeptJson {
       }
       if (m === 0) break;
       const to = at + (end[g] - end[last]);
-      if (nodes + more <= room && to <= buf.length && same(this.bytes, end[last], end[g], buf, at)) {
+      if (nodes + more <= room && to <= buf.length && this.same(end[last], end[g], buf, at)) {
         last = g;
         at = to;
         nodes += more;
@@ -138,64 +177,98 @@ export class KeptJson {
     return last;
   }
 
+  /** Whether the input's bytes `[from, to)` are those of `b` from `at` on (which has them all). */
+  private same(from: number, to: number, b: Buffer, at: number): boolean {
+    let a = this.window!;
+    let shift = 0;
+    if (this.source !== null) {
+      // A window of the input read again: moved on to start a little before `from` when it does not
+      // hold [from, to) (a range longer than it is never compared: taken piece by piece instead).
+      const size = a.length;
+      const back = size >>> 6;
+      if (to - from > size - back) return false;
+      if (from < this.windowAt || to > this.windowAt + size) {
+        const at0 = Math.max(0, from - back);
+        const read = this.source.read(a, 0, size, at0);
+        this.windowAt = at0;
+        if (at0 + read < to) {
+          this.windowAt = -size;
+          return false;
+        }
+      }
+      shift = this.windowAt;
+    } else if (this.bytes === null) return false;
+    a = this.window!;
+    // The first bytes one by one (a different node mostly differs there; a leaf is mostly shorter), then
+    // the rest in native code.
+    const x0 = from - shift;
+    const x1 = to - shift;
+    const head = Math.min(x1, x0 + 64);
+    for (let x = x0, y = at; x < head; x++, y++) if (a[x] !== b[y]) return false;
+    return x1 === head || b.compare(a, head, x1, at + (head - x0), at + (x1 - x0)) === 0;
+  }
+
   /** Gives the memory of the bytes and offsets back now: read no more. */
   release(): void {
-    releaseMemory(this.bytes.buffer);
+    if (this.bytes !== null) releaseMemory(this.bytes.buffer);
+    this.window = null;
+    this.source = null;
     releaseMemory(this.start.buffer);
     releaseMemory(this.end.buffer);
     releaseMemory(this.count.buffer);
     releaseMemory(this.flags.buffer);
-    releaseMemory(this.adjust.buffer);
+    releaseMemory(this.adjusts.buffer);
   }
 }
 
-/** Whether `a[from, to)` are the bytes of `b` from `at` on (which has them all). */
-function same(a: Uint8Array, from: number, to: number, b: Buffer, at: number): boolean {
-  // The first bytes one by one (a different node mostly differs there; a leaf is mostly shorter), then
-  // the rest in native code.
-  const head = Math.min(to, from + 64);
-  for (let x = from, y = at; x < head; x++, y++) if (a[x] !== b[y]) return false;
-  return to === head || b.compare(a, head, to, at + (head - from), at + (to - from)) === 0;
-}
+/** Longest input whose node objects' places are kept for a later version read again (offsets in 32 bits). */
+const MOST_PLACED_BYTES = 2 ** 32 - 1;
 
 /**
- * The loader's side of a {@link KeptJson}: keeps the input's bytes (up to MOST_KEPT_BYTES) and the
- * nodes' places while they are read.
+ * The loader's side of a {@link KeptJson}: keeps the nodes' places while they are read, and the input's
+ * bytes (up to MOST_KEPT_BYTES) unless the later load reads them again.
  */
 export class JsonKeeper {
-  private bytes: Uint8Array;
+  /** The bytes kept so far; null when the later load reads the input again (or nothing is kept). */
+  private bytes: Uint8Array | null;
   private used = 0;
   start = new Uint32Array(releasableMemory(4 * 1024));
   end = new Uint32Array(releasableMemory(4 * 1024));
   count = new Int32Array(releasableMemory(4 * 1024));
   flags = new Uint8Array(releasableMemory(1024));
-  /** Made at the first node that needs it (most inputs are ASCII: none does). */
-  adjust = new Int32Array(releasableMemory(4));
-  /** False once the input is longer than kept. */
-  keeping = true;
+  /** By node, for those with a byte >= 0x80 and no line feed (see KeptJson.adjusts): made at the first. */
+  private adjusts = new Int32Array(0);
+  /** False once the input is longer than kept, or nothing is to be kept. */
+  keeping: boolean;
 
-  constructor(inputBytes: number) {
-    this.bytes = new Uint8Array(releasableMemory(Math.min(inputBytes, MOST_KEPT_BYTES)));
+  /** `readAgain`: the later load reads the input's bytes again (LoadOptions.inputReadAgain). */
+  constructor(inputBytes: number, readAgain: boolean) {
+    this.keeping = inputBytes > 0 && inputBytes <= (readAgain ? MOST_PLACED_BYTES : MOST_KEPT_BYTES);
+    this.bytes =
+      this.keeping && !readAgain
+        ? new Uint8Array(releasableMemory(Math.min(inputBytes, MOST_KEPT_BYTES)))
+        : null;
   }
 
-  /** The next chunk of the input, copied (a stream may hand out the same memory again). */
+  /** The next chunk of the input, copied when the bytes are kept (a stream may hand out the same memory again). */
   write(chunk: Uint8Array): void {
     if (!this.keeping) return;
     const need = this.used + chunk.length;
-    if (need > MOST_KEPT_BYTES) {
+    const bytes = this.bytes;
+    if (need > (bytes === null ? MOST_PLACED_BYTES : MOST_KEPT_BYTES)) {
       this.drop();
       return;
     }
-    if (need > this.bytes.length) {
-      const grown = new Uint8Array(
-        releasableMemory(Math.min(MOST_KEPT_BYTES, Math.max(need, 2 * this.bytes.length))),
-      );
-      grown.set(this.bytes.subarray(0, this.used));
-      releaseMemory(this.bytes.buffer);
-      this.bytes = grown;
-    }
-    this.bytes.set(chunk, this.used);
     this.used = need;
+    if (bytes === null) return;
+    let into = bytes;
+    if (need > into.length) {
+      into = new Uint8Array(releasableMemory(Math.min(MOST_KEPT_BYTES, Math.max(need, 2 * into.length))));
+      into.set(bytes.subarray(0, need - chunk.length));
+      releaseMemory(bytes.buffer);
+      this.bytes = into;
+    }
+    into.set(chunk, need - chunk.length);
   }
 
   /**
@@ -211,15 +284,15 @@ export class JsonKeeper {
     this.end = grown(this.end, new Uint32Array(releasableMemory(4 * length)));
     this.count = grown(this.count, new Int32Array(releasableMemory(4 * length)));
     this.flags = grown(this.flags, new Uint8Array(releasableMemory(length)));
-    if (this.adjust.length > 4)
-      this.adjust = grown(this.adjust, new Int32Array(releasableMemory(4 * length)));
+    if (this.adjusts.length > 0)
+      this.adjusts = grown(this.adjusts, new Int32Array(releasableMemory(4 * length)));
   }
 
-  /** Node `i`'s bytes beyond their UTF-16 length (see KeptJson.adjust). */
-  setAdjust(i: number, adjust: number): void {
-    if (this.adjust.length < this.count.length)
-      this.adjust = grown(this.adjust, new Int32Array(releasableMemory(4 * this.count.length)));
-    this.adjust[i] = adjust;
+  /** Node `i` holds a byte >= 0x80, and no line feed: `adjust` bytes beyond their UTF-16 length. */
+  high(i: number, adjust: number): void {
+    if (this.adjusts.length === 0) this.adjusts = new Int32Array(releasableMemory(4 * this.count.length));
+    this.flags[i] |= K_HIGH;
+    this.adjusts[i] = adjust;
   }
 
   /** Node `i` did more than add nodes (K_ODD): so did a node below each of its ancestors. */
@@ -233,8 +306,8 @@ export class JsonKeeper {
   /** Lets go of what is kept. */
   drop(): void {
     this.keeping = false;
-    releaseMemory(this.bytes.buffer);
-    this.bytes = new Uint8Array(0);
+    if (this.bytes !== null) releaseMemory(this.bytes.buffer);
+    this.bytes = null;
   }
 
   /** What is kept, over the nodes as the loader read them; undefined when nothing is. */
@@ -247,34 +320,34 @@ export class JsonKeeper {
     names: NamePool,
     kept: readonly (string | undefined)[][],
     lines: boolean,
+    named: boolean,
   ): KeptJson | undefined {
     if (!this.keeping || length === 0) {
       this.release();
       return undefined;
     }
-    // Nodes with no adjustment read 0 (see KeptJson.adjust).
-    if (this.adjust.length < this.count.length) this.setAdjust(0, 0);
     return new KeptJson(
       readAs,
-      this.bytes.subarray(0, this.used),
+      this.bytes === null ? null : this.bytes.subarray(0, this.used),
       length,
       this.start,
       this.end,
       this.count,
       this.flags,
-      this.adjust,
+      this.adjusts,
       sized,
       parentOf,
       ownSize,
       names,
       kept,
       lines,
+      named,
     );
   }
 
   private release(): void {
     this.drop();
-    for (const a of [this.start, this.end, this.count, this.flags, this.adjust]) releaseMemory(a.buffer);
+    for (const a of [this.start, this.end, this.count, this.flags, this.adjusts]) releaseMemory(a.buffer);
   }
 }
 
