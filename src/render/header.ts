@@ -494,7 +494,8 @@ function packClauses(clauses: readonly string[], width: number): string[] {
       const start = lines.length === 0 ? "" : HEADER_INDENT;
       if (fits(start + piece)) line = start + piece;
       else {
-        const broken = wrapWords(piece, width - displayWidth(HEADER_INDENT)).map((l, j) =>
+        const room = width - displayWidth(HEADER_INDENT);
+        const broken = wrapWords(longWordsCut(piece, room), room).map((l, j) =>
           j === 0 ? start + l : HEADER_INDENT + l,
         );
         line = broken.pop()!;
@@ -504,6 +505,26 @@ function packClauses(clauses: readonly string[], width: number): string[] {
   });
   lines.push(line);
   return lines;
+}
+
+/** Fewest columns a word longer than a line keeps beside the word before it (see {@link longWordsCut}). */
+const LONG_WORD_KEPT = 12;
+
+/**
+ * `text` with each word longer than a line of `room` columns (a focus's long path) cut to the room
+ * its line has after the word before it (`focus doc/liberror-prone-java/exa…`), where that keeps
+ * {@link LONG_WORD_KEPT} columns of it: such a word is cut anyway, and on a line of its own it would
+ * leave the word before it alone on another.
+ */
+function longWordsCut(text: string, room: number): string {
+  const words = text.split(" ");
+  return words
+    .map((word, k) => {
+      if (k === 0 || displayWidth(word) <= room) return word;
+      const left = room - displayWidth(words[k - 1]) - 1;
+      return left >= LONG_WORD_KEPT ? shortenEnd(word, left) : word;
+    })
+    .join(" ");
 }
 
 /** The foci of a view as the header prints them: a row id where rows have ids, else the path. */

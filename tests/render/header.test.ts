@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import type { DiffTotals } from "../../src/diff/prepared-diff.js";
 import { displayWidth } from "../../src/render/display-width.js";
-import { diffHeaderLines, type HeaderOptions } from "../../src/render/header.js";
+import { diffHeaderLines, type HeaderOptions, summaryHeaderLines } from "../../src/render/header.js";
 
 // A listing diffed after a clean-up (invented figures): files removed and resized, none moved,
 // renamed or edited.
@@ -36,5 +36,24 @@ describe("diffHeaderLines(totals, by, header, options, width)", () => {
   it("keeps the fields compared beside `edited` when it is grouped", () => {
     const lines = diffHeaderLines(totals, "path", { ...header, compared: ["version"] }, numbers, 30);
     expect(said(lines)).toContain("0 moved, renamed or edited (compared: version);");
+  });
+});
+
+describe("summaryHeaderLines(root, header, options, width)", () => {
+  const root = { nodes: 53359, size: 570_167_460 };
+  const deep = "doc/harbour-ledger-reconciliation/examples/plugin/bazel/java/com/tidewater/sample/BUILD";
+
+  it("cuts a focus path longer than a line beside `focus`, not on a line of its own", () => {
+    for (const width of [30, 32, 40, 60]) {
+      const lines = summaryHeaderLines(root, { budget: 14, lines: 14, foci: [deep] }, numbers, width);
+      const at = lines.findIndex((l) => l.includes("focus"));
+      expect(lines[at], `${width}`).toMatch(/^ {2}focus doc\/harbour-.*…;?$/);
+      for (const line of lines) expect(displayWidth(line)).toBeLessThanOrEqual(width);
+    }
+  });
+
+  it("keeps a path that fits its line whole", () => {
+    const lines = summaryHeaderLines(root, { budget: 14, lines: 14, foci: ["doc/harbour"] }, numbers, 30);
+    expect(said(lines)).toContain("focus doc/harbour;");
   });
 });
