@@ -126,3 +126,63 @@ describe.skipIf(!hasGit)("git diff --stat and --numstat of a change", () => {
     expect(counted).toBeGreaterThan(0);
   });
 });
+
+describe.skipIf(!hasGit)("git's quoted paths (core.quotepath, on by default)", () => {
+  // git ls-files writes a path holding a byte other than printable ASCII, a '"' or a '\' as a C string
+  // ("docs/\346\275\256.md"): read as written, `"docs` was a folder apart from `docs` and every such name
+  // held its escapes, exit 0. The check is git's own unquoted listing, ended by NUL (-z).
+  let quotedRepo = "";
+  const inRepo = (args: string[]) => execFileSync("git", args, { cwd: quotedRepo, encoding: "utf8" });
+  beforeAll(() => {
+    quotedRepo = mkdtempSync(join(tmpdir(), "espalier-git-quoted-"));
+    mkdirSync(join(quotedRepo, "docs"));
+    for (const [name, text] of [
+      ["docs/tide.md", "tide\n"],
+      ["docs/潮.md", "shio\n"],
+      ['docs/quay "north".md', "quay\n"],
+      ["docs/back\\slash.md", "slash\n"],
+      ["docs/tab\there.md", "tab\n"],
+    ])
+      writeFileSync(join(quotedRepo, name), text);
+    inRepo(["init", "-q"]);
+    inRepo(["add", "."]);
+    execFileSync(
+      "git",
+      [
+        "-c",
+        "user.name=Tidewater CI",
+        "-c",
+        "user.email=ci@tidewater.invalid",
+        "commit",
+        "-q",
+        "-m",
+        "quoted",
+      ],
+      {
+        cwd: quotedRepo,
+      },
+    );
+  });
+  afterAll(() => {
+    if (quotedRepo) rmSync(quotedRepo, { recursive: true, force: true });
+  });
+
+  it.each([
+    ["git ls-files", ["ls-files"]],
+    ["git ls-tree --format with sizes", ["ls-tree", "-r", "--format=%(objectsize)%x09%(path)", "HEAD"]],
+  ])("%s reads as the same listing ended by NUL (-z) does", async (_, args) => {
+    const quoted = inRepo(args);
+    expect(quoted).toContain('"docs/\\346\\275\\256.md"');
+    const read = await cli(["-", "--format", "json"], { stdin: quoted });
+    const zArgs = [...args.slice(0, 1), "-z", ...args.slice(1)];
+    const plain = await cli(["-", "--nul-separated", "--format", "json"], { stdin: inRepo(zArgs) });
+    expect(read.code).toBe(0);
+    const [a, b] = [JSON.parse(read.stdout), JSON.parse(plain.stdout)];
+    expect(a.totals).toEqual(b.totals);
+    expect(a.root.children.map((c: { name: string }) => c.name)).toEqual(
+      b.root.children.map((c: { name: string }) => c.name),
+    );
+    // docs and its five files, the root named docs (the one top folder).
+    expect(a.totals.nodes).toBe(6);
+  });
+});

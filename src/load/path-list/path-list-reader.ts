@@ -14,6 +14,7 @@ import { checkReadingOptions } from "../reading-options.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { WrittenPaths } from "../written-paths.js";
 import { type FolderSizes, folderTotals, type PlacedSizes } from "./folder-totals.js";
+import { gitUnquoted } from "./git-quoted.js";
 import {
   grandTotalNote,
   isGrandTotal,
@@ -33,6 +34,7 @@ const dot = 46;
 const colon = 58;
 const backslash = 92;
 const comma = 44;
+const quote = 34;
 
 /**
  * A path list read from UTF-8 bytes, whole or in chunks: one "/"-separated path per line, blank lines
@@ -592,6 +594,22 @@ export class PathListReader {
     }
     if (this.backslashes === undefined) this.backslashes = windowsPath(bytes, pathStart, end);
     if (this.writtenLine !== undefined) this.checkWritten(bytes, start, pathStart, end, line);
+    // A path git wrote quoted (`"docs/\346\227\245.txt"`): read as written, its folder `"docs` would be
+    // another than `docs`, and each name would hold its escapes.
+    if (bytes[pathStart] === quote && end - pathStart > 2 && bytes[end - 1] === quote && !this.backslashes) {
+      const name = gitUnquoted(bytes, pathStart + 1, end - 1);
+      if (name !== undefined) {
+        if (!isUtf8(name))
+          throw new EspalierError(
+            "PARSE_PATHS",
+            `line ${line} is a path git quoted whose bytes are not UTF-8: list the paths ended by NUL (git ls-files -z) and pass --nul-separated, which reads such names as every other reader does`,
+            { line, column: pathStart - start + 1 },
+          );
+        const j = this.placer.place(name, viewOf(name), 0, name.length, line);
+        this.sink.ownSize[j === -1 ? this.placer.placeRoot(line) : j] = size;
+        return;
+      }
+    }
     let i: number;
     try {
       i = this.backslashes
