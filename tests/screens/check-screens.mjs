@@ -6,13 +6,15 @@
 // Usage (after `npm run build`): node tests/screens/check-screens.mjs [--quick]
 // Inputs it makes for itself under a temporary folder: `npm ls --all --json` of this project and an
 // edited copy (for a diff), and `find /usr/share -printf '%s\t%P\n'`; plus YAML files already on the
-// machine and the invented fixtures. The rule it checks (docs/selection.md): on every line,
+// machine and the invented fixtures; and the interactive view's first screens of some of them. The
+// rule it checks (docs/selection.md): on every line,
 // nodes = the line's names + the nodes of the lines below it + what its fold hides.
 import { execFileSync } from "node:child_process";
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
+import stringWidth from "string-width";
 import { run } from "../../dist/cli/main.js";
 import { ANSI, checkJson, checkText } from "./read-screen.mjs";
 
@@ -265,8 +267,84 @@ for (const c of cases) {
     }
   }
 }
+// --- the interactive view ------------------------------------------------------------------------
+// Its screens are `espalier`'s behind a two-column gutter, over a status row: the key says every mark
+// and cut on them, or the status row sends the reader to the help for them (`h: keys, marks`).
+const { draw } = await import("../../dist/explore/screen.js");
+const { summarySession } = await import("../../dist/explore/session.js");
+const { GUTTER, startState } = await import("../../dist/explore/update.js");
+const { resolveFoci } = await import("../../dist/focus/resolve.js");
+const { loadTree } = await import("../../dist/load/index.js");
+const { defaultLoadOptions } = await import("../../dist/load/load-options.js");
+const { prepare } = await import("../../dist/summarize.js");
+const { palette } = await import("../../dist/render/palette.js");
+
+const views = [
+  { name: "npm ls", file: npmLs, format: "json", foci: [] },
+  { name: "npm ls, focus", file: npmLs, format: "json", foci: ["**/vitest"] },
+  { name: "find /usr/share", file: share.file, format: "paths", foci: [] },
+  { name: "find /usr/share, deep focus", file: share.file, format: "paths", foci: [share.deep] },
+];
+const sizes = quick
+  ? [
+      [14, 34],
+      [24, 62],
+    ]
+  : [
+      [10, 32],
+      [14, 34],
+      [20, 42],
+      [24, 62],
+      [24, 82],
+      [40, 122],
+    ];
+let viewsRead = 0;
+let pointed = 0;
+for (const v of views) {
+  const tree = loadTree(readFileSync(v.file, "utf8"), {
+    ...defaultLoadOptions,
+    file: v.file,
+    format: v.format,
+    rootName: v.file.split("/").pop(),
+  });
+  const prepared = prepare(tree);
+  const session = summarySession(prepared, { units: "plain", chains: true, palette: palette(false) });
+  for (const [rows, cols] of sizes) {
+    const what = `explore ${v.name} | ${rows}x${cols}`;
+    const state = startState(session, {
+      rows,
+      cols,
+      foci: resolveFoci(prepared.index, v.foci),
+      importance: "depth",
+      fociFile: "foci.txt",
+    });
+    const screen = draw(session, state, false);
+    viewsRead++;
+    const problems = [];
+    for (const r of screen.rows) if (stringWidth(r) > cols) problems.push(`wider than ${cols}: ${r}`);
+    if (screen.rows.length !== rows) problems.push(`${screen.rows.length} rows for ${rows}`);
+    const status = screen.rows[screen.rows.length - 1];
+    const text = `${screen.rows
+      .slice(0, -1)
+      .map((r) => r.slice(GUTTER))
+      .join("\n")
+      .trimEnd()}\n`;
+    const read = checkText(text, { budget: rows - 1, width: cols - GUTTER });
+    if (/ h: keys, marks$/.test(status)) {
+      pointed++;
+      // What is wrong besides the key's words is still wrong.
+      problems.push(...read.filter((p) => !/not explained|no key|not said/.test(p)));
+    } else problems.push(...read);
+    if (problems.length > 0) {
+      failed++;
+      console.log(
+        `FAIL ${what}\n  ${problems.join("\n  ")}\n${screen.rows.join("\n").replace(/^/gm, "  | ")}`,
+      );
+    }
+  }
+}
 console.log(
-  `${screens} screens read (${noted} saying the key was left out), ${refused} budgets refused (each checked), ${failed} failed`,
+  `${screens} screens read (${noted} saying the key was left out), ${refused} budgets refused (each checked), ${viewsRead} interactive screens read (${pointed} pointing to the help for the marks), ${failed} failed`,
 );
 rmSync(work, { recursive: true, force: true });
 process.exitCode = failed > 0 ? 1 : 0;
