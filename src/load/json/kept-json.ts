@@ -97,6 +97,8 @@ export class KeptJson {
   /** The bytes compared with, and where in the input they start. */
   private window: Uint8Array | null = null;
   private windowAt = 0;
+  /** Where the bytes the window holds end in the input (a read may come short). */
+  private windowEnd = 0;
   private source: BytesAt | null = null;
 
   /**
@@ -111,7 +113,8 @@ export class KeptJson {
     if (readAgain === undefined) return false;
     this.source = readAgain;
     this.window = new Uint8Array(KeptJson.windowBytes);
-    this.windowAt = -KeptJson.windowBytes;
+    this.windowAt = 0;
+    this.windowEnd = 0;
     return true;
   }
 
@@ -187,14 +190,14 @@ export class KeptJson {
       const size = a.length;
       const back = size >>> 6;
       if (to - from > size - back) return false;
-      if (from < this.windowAt || to > this.windowAt + size) {
+      if (from < this.windowAt || to > this.windowEnd) {
+        // What is asked for and a MiB more (about a chunk of the later input): a look far back or
+        // ahead reads no more than it needs.
         const at0 = Math.max(0, from - back);
-        const read = this.source.read(a, 0, size, at0);
+        const read = this.source.read(a, 0, Math.min(size, to - at0 + (1 << 20)), at0);
         this.windowAt = at0;
-        if (at0 + read < to) {
-          this.windowAt = -size;
-          return false;
-        }
+        this.windowEnd = at0 + read;
+        if (to > this.windowEnd) return false;
       }
       shift = this.windowAt;
     } else if (this.bytes === null) return false;
