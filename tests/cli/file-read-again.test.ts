@@ -1,3 +1,4 @@
+import { execFileSync } from "node:child_process";
 import { appendFileSync, mkdirSync, mkdtempSync, renameSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
@@ -10,6 +11,7 @@ import { openFile } from "../../src/cli/open-file.js";
 import { diffOptionsSchema } from "../../src/cli/options.js";
 import { EspalierError } from "../../src/errors.js";
 import { NodeSink } from "../../src/load/node-sink.js";
+import { isGnuTool } from "../helpers/file-tree.js";
 
 // A diff on one thread reads OLD's file again while NEW loads against it (load/json/kept-json.ts):
 // only while it is the file its load read.
@@ -62,8 +64,14 @@ describe("fileReadAgain(name)", () => {
     again.close();
   });
 
-  it("is undefined for standard input, a folder or a file that is not there", () => {
+  it("is undefined for standard input, a folder, a named pipe (not opened: no wait for a writer) or a file that is not there", () => {
     mkdirSync(join(dir, "bay"), { recursive: true });
+    const fifo = join(dir, "pipe");
+    if (isGnuTool("mkfifo")) {
+      execFileSync("mkfifo", [fifo]);
+      // Opening it for reading would block this test until a writer came.
+      expect(fileReadAgain(fifo)).toBeUndefined();
+    }
     expect(fileReadAgain("-")).toBeUndefined();
     expect(fileReadAgain(join(dir, "bay"))).toBeUndefined();
     expect(fileReadAgain(join(dir, "no-such.json"))).toBeUndefined();
