@@ -15,6 +15,14 @@ export const K_LINES = 8;
 /** A node object whose bytes may hold a byte >= 0x80 (on its last line: its columns are not its bytes). */
 export const K_HIGH = 16;
 
+/**
+ * Shortest input kept for a later version: below it, keeping costs OLD's load more than NEW's saves
+ * (a second load of a small input is cheap anyway, its code compiled by the first). Measured on one
+ * machine (docs/performance.md, thirteenth session): 2.9 MB, OLD +15 to 27 ms, NEW no faster; 37.7 MB,
+ * OLD +38 ms, NEW -77 ms.
+ */
+export const LEAST_KEPT_BYTES = 16 * 2 ** 20;
+
 /** How a JSON input of node objects was read: a later version is taken from it only when read alike. */
 export interface JsonReadAs {
   readonly nameField: string;
@@ -93,6 +101,9 @@ export class KeptJson {
    * asked for; a range longer than the rest is not compared (its nodes are taken piece by piece).
    */
   static windowBytes = 4 << 20;
+
+  /** Shortest input kept (LEAST_KEPT_BYTES; tests read small inputs against their earlier versions). */
+  static leastBytes = LEAST_KEPT_BYTES;
 
   /** The bytes compared with, and where in the input they start. */
   private window: Uint8Array | null = null;
@@ -246,7 +257,10 @@ export class JsonKeeper {
 
   /** `readAgain`: the later load reads the input's bytes again (LoadOptions.inputReadAgain). */
   constructor(inputBytes: number, readAgain: boolean) {
-    this.keeping = inputBytes > 0 && inputBytes <= (readAgain ? MOST_PLACED_BYTES : MOST_KEPT_BYTES);
+    this.keeping =
+      inputBytes > 0 &&
+      inputBytes >= KeptJson.leastBytes &&
+      inputBytes <= (readAgain ? MOST_PLACED_BYTES : MOST_KEPT_BYTES);
     this.bytes =
       this.keeping && !readAgain
         ? new Uint8Array(releasableMemory(Math.min(inputBytes, MOST_KEPT_BYTES)))
