@@ -175,7 +175,7 @@ async function exploreModules() {
 
 /** The CLI's modules (dist/cli), imported before the clock starts. */
 async function cliModules() {
-  const [input, settings, renderers, stream, progress, options, palette, threads] = await Promise.all([
+  const [input, settings, renderers, stream, progress, options, palette, threads, again] = await Promise.all([
     import(CLI("input")),
     import(CLI("output-settings")),
     import(CLI("renderers")),
@@ -184,6 +184,7 @@ async function cliModules() {
     import(CLI("options")),
     import(new URL("../dist/render/palette.js", import.meta.url)),
     import(CLI("load-threads")),
+    import(CLI("file-read-again")),
   ]);
   // The tree a worker sends back is rebuilt with these modules' classes, so the diff meets one NamePool
   // class, as the command line (all one bundle) does: taken from the bundle, the old tree's names were
@@ -198,6 +199,7 @@ async function cliModules() {
     ...options,
     ...palette,
     ...threads,
+    ...again,
     loadInWorker,
   };
 }
@@ -443,11 +445,13 @@ async function diff({ oldFile, newFile, budget, profile }) {
   let oldDone = 0;
   let newDone = 0;
   let oldCpu = 0;
-  // On one thread OLD's table keeps its bytes and cells for NEW's, as cli/input.ts asks.
+  // On one thread OLD's table keeps its bytes and cells for NEW's, and a JSON document where its node
+  // objects lie, its file read again by NEW's load, as cli/input.ts asks.
+  const again = threads === 2 ? undefined : cli.fileReadAgain(oldFile);
   const loadOld = () =>
     (threads === 2
       ? cli.loadInWorker(oldFile, oldOptions)
-      : load(oldFile, { ...oldOptions, keepForLaterVersion: true })
+      : load(oldFile, { ...oldOptions, keepForLaterVersion: true, inputReadAgain: again !== undefined })
     ).then((tree) => {
       oldDone = now();
       oldCpu = cpuMs(cpu0);
@@ -455,7 +459,12 @@ async function diff({ oldFile, newFile, budget, profile }) {
     });
   // On one thread NEW's table may read OLD's bytes for the cells they share, as cli/input.ts does.
   const loadNew = (oldTree) =>
-    load(newFile, oldTree ? { ...newOptions, earlierVersion: oldTree } : newOptions).then((tree) => {
+    load(
+      newFile,
+      oldTree
+        ? { ...newOptions, earlierVersion: oldTree, ...(again?.unchanged() ? { earlierInput: again } : {}) }
+        : newOptions,
+    ).then((tree) => {
       newDone = now();
       return tree;
     });
@@ -463,6 +472,7 @@ async function diff({ oldFile, newFile, budget, profile }) {
     threads === 2
       ? await Promise.all([loadOld(), loadNew()])
       : await loadOld().then(async (old) => [old, await loadNew(old)]);
+  again?.close();
   const t2 = now();
   const loadsCpu = cpuMs(cpu0);
   // The fields the command line compares (cli/diff-command.ts): --compare-field, else `version` where

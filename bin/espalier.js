@@ -90,7 +90,7 @@ function restart(cli, mib) {
 }
 
 async function main(cli) {
-  const { run, openFile, loadInWorker, standardStreams } = cli;
+  const { run, openFile, fileReadAgain, loadInWorker, standardStreams } = cli;
   // Output that cannot be written ends us with status 2 and one line; a reader closing the pipe early
   // (| head) ends us quietly.
   const std = standardStreams(process);
@@ -100,6 +100,7 @@ async function main(cli) {
     readStdin: (bound) => readStdin(cli, bound),
     readFile: (path, bound) => (bound ? cli.readBounded(path, bound) : readWhole(path)),
     openInput: (name) => (name === "-" ? openStdin(cli) : openFile(name)),
+    readAgainAt: fileReadAgain,
     loadInWorker,
     machineLoad: () => ({ cores: availableParallelism(), load: loadavg()[0] }),
     now: () => performance.now(),

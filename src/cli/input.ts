@@ -8,6 +8,7 @@ import type { ReadingNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import { templateFields } from "../view/label.js";
 import { isFactInput, loadFactInput } from "./fact-input.js";
+import type { ReadAgain } from "./file-read-again.js";
 import type { CliIO } from "./io.js";
 import { alignListings } from "./listing-start.js";
 import { LOAD_THREADS_ENV, loadThreads } from "./load-threads.js";
@@ -70,6 +71,7 @@ async function loadQuietly(
   sameReading?: Reading,
   earlier?: Tree,
   keepForLaterVersion = false,
+  again?: { inputReadAgain: boolean } | { earlierInput: ReadAgain },
 ): Promise<Tree> {
   try {
     if (isFactInput(opts)) return await loadFactInput(input, opts, rootName);
@@ -79,6 +81,7 @@ async function loadQuietly(
       ...(sameReading === undefined ? {} : { sameReading }),
       ...(earlier ? { earlierVersion: earlier } : {}),
       ...(keepForLaterVersion ? { keepForLaterVersion } : {}),
+      ...again,
     };
     // A graph's node records (--nodes) come from a file of their own; its errors name that file.
     if (nodes !== undefined) options.nodeRecords = await readNodeRecords(io, nodes, options);
@@ -86,6 +89,17 @@ async function loadQuietly(
   } catch (err) {
     throw err instanceof EspalierError ? err.inFile(displayName(input)) : err;
   }
+}
+
+/**
+ * OLD's file changed while NEW was read against it (its node objects compared with OLD's bytes read
+ * again): what NEW's load took from OLD may not be OLD's, so nothing is shown.
+ */
+function oldChanged(oldInput: string): EspalierError {
+  return new EspalierError(
+    "IO",
+    `${displayName(oldInput)} changed while the new version was read against it; run the comparison again once it stays as it is`,
+  );
 }
 
 /** The one `--nodes` table of a run with one input; two are a USAGE error there. */
@@ -128,8 +142,32 @@ export async function loadVersions(
     // OLD's table keeps its bytes and cells until NEW's load, which takes its rows whose bytes are the
     // same from them (load/table/kept-table.ts), and reads OLD's bytes for the cells they share
     // (load/table/earlier-rows.ts).
-    const oldTree = await loadQuietly(io, oldInput, opts, rootName, oldNodes, undefined, undefined, true);
-    const newTree = await loadQuietly(io, newInput, opts, rootName, newNodes, undefined, oldTree);
+    // A JSON document's load keeps where its node objects lie, and NEW's reads OLD's file again to
+    // compare with them (file-read-again.ts, load/json/kept-json.ts), when OLD is a regular file that
+    // stays as it was; else OLD's load keeps the bytes too.
+    const again = io.readAgainAt?.(oldInput);
+    let oldTree: Tree;
+    let newTree: Tree;
+    try {
+      oldTree = await loadQuietly(io, oldInput, opts, rootName, oldNodes, undefined, undefined, true, {
+        inputReadAgain: again !== undefined,
+      });
+      const readable = again?.unchanged() === true;
+      newTree = await loadQuietly(
+        io,
+        newInput,
+        opts,
+        rootName,
+        newNodes,
+        undefined,
+        oldTree,
+        false,
+        readable ? { earlierInput: again! } : undefined,
+      );
+      if (readable && !again!.unchanged()) throw oldChanged(oldInput);
+    } finally {
+      again?.close();
+    }
     return sayVersionNotes(
       io,
       [oldInput, newInput],

@@ -1,5 +1,6 @@
 import type { LoadOptions } from "../load/load-options.js";
 import type { Tree } from "../model/tree.js";
+import type { ReadAgain } from "./file-read-again.js";
 import type { MachineLoad } from "./load-threads.js";
 import type { ReadBound } from "./read-bounded.js";
 import type { OutputFiles } from "./write-output.js";
@@ -17,6 +18,12 @@ export interface CliIO {
    * inputs are read whole with `readFile` / `readStdin` and handed over as one chunk.
    */
   openInput?(name: string): Promise<StreamedInput>;
+  /**
+   * A named regular file held open to be read again by position (a diff's OLD while its NEW loads
+   * against it on one thread: file-read-again.ts); undefined for anything else. Without it, OLD's load
+   * keeps the bytes it compares with itself.
+   */
+  readAgainAt?(name: string): ReadAgain | undefined;
   /**
    * Loads a named file (never "-") on another thread, so a diff's two versions load at once; without
    * it they load here, one after the other.

@@ -4,6 +4,7 @@ import type { loadInWorker as LoadInWorkerFn } from "./load-in-worker.js";
 
 type LoadInWorker = typeof LoadInWorkerFn;
 
+export { fileReadAgain } from "./file-read-again.js";
 export { heapToRestartWith } from "./heap-to-restart-with.js";
 export { run } from "./main.js";
 export { openFile } from "./open-file.js";

@@ -24,6 +24,7 @@ import {
   keyMostRows,
   keyRows,
   keyRowsNeeded,
+  keySaysAll,
 } from "../render/key-line.js";
 import { type LineGroup, lineGroups } from "../render/line-groups.js";
 import type { LineParts } from "../render/line-layout.js";
@@ -64,6 +65,11 @@ export interface Fitted {
   readonly headerLines: number;
   /** The view itself, for checks. */
   readonly view: HierarchyNode<ViewNode> | HierarchyNode<DiffViewNode>;
+  /**
+   * Whether the key above the lines says every mark and cut on them (see `keySaysAll`): false where
+   * the screen had room for none, or for only part of it (the status row then points to the help).
+   */
+  readonly keyWhole: boolean;
 }
 
 /**
@@ -110,7 +116,7 @@ export function summarySession(prepared: Prepared, look: LookOptions): Session {
             numbers,
             width,
           );
-        const { result, lineOf, lines, groups } = keyAgreed(budget, width, (key, spare) => {
+        const { result, lineOf, lines, groups, whole } = keyAgreed(budget, width, (key, spare) => {
           const options = {
             ...fitOptions(index, look, foci, budget, importance),
             spareLines: spare ? key : 0,
@@ -131,7 +137,8 @@ export function summarySession(prepared: Prepared, look: LookOptions): Session {
           return { result, lineOf, ...laid };
         });
         const order = nodeOrder(tree, measures, result.scores);
-        return fitted(lines, groups, result.selection, order, lines.length - lineOf.length, result.view);
+        const before = lines.length - lineOf.length;
+        return fitted(lines, groups, result.selection, order, before, result.view, whole);
       }),
     ),
   };
@@ -159,7 +166,7 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
             numbers,
             width,
           );
-        const { result, lineOf, lines, groups } = keyAgreed(budget, width, (key, spare) => {
+        const { result, lineOf, lines, groups, whole } = keyAgreed(budget, width, (key, spare) => {
           const options = {
             ...fitOptions(index, look, foci, budget, importance),
             spareLines: spare ? key : 0,
@@ -183,7 +190,8 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
           return { result, lineOf, ...laid };
         });
         const order = diffOrder(tree, measures, result.scores, changeMeasures);
-        return fitted(lines, groups, result.selection, order, lines.length - lineOf.length, result.view);
+        const before = lines.length - lineOf.length;
+        return fitted(lines, groups, result.selection, order, before, result.view, whole);
       }),
     ),
   };
@@ -240,7 +248,7 @@ function screenOf<T extends ViewNode>(
     foci,
     most,
   }: { numbers: NumberOptions; width: number; look: LookOptions; foci: readonly string[]; most: number },
-): { lines: string[]; groups: number[][]; needed: number } {
+): { lines: string[]; groups: number[][]; needed: number; whole: boolean } {
   const context = keyContext({
     sizes: numbers.sizes,
     header: { budget: 0, lines: 0, foci, ...look.inputFacts },
@@ -256,7 +264,8 @@ function screenOf<T extends ViewNode>(
   const groups = [...[...header, ...key].map(() => []), ...lineOf.map((g) => g.nodes.map((n) => n.index))];
   // More rows than it has, where those say what these cannot (see `keyRowsNeeded`); 0 for none.
   const rows = keyed > 0 ? keyRowsNeeded(kind, facts, width, most) : 0;
-  return { lines, groups, needed: rows > keyed ? rows : 0 };
+  const whole = keyed > 0 && keySaysAll(kind, facts, key);
+  return { lines, groups, needed: rows > keyed ? rows : 0, whole };
 }
 
 /** What a session of either kind holds of its tree: the tree, how its nodes print, and the live search. */
@@ -290,6 +299,7 @@ function fitted(
   order: NodeOrder,
   headerLines: number,
   view: Fitted["view"],
+  keyWhole: boolean,
 ): Fitted {
   const shown = Int32Array.from(selection.admitted).sort();
   return {
@@ -304,6 +314,7 @@ function fitted(
     selection,
     headerLines,
     view,
+    keyWhole,
   };
 }
 

@@ -3,6 +3,7 @@ import { JsonLoader } from "./json/json-loader.js";
 import { JsonPathMapLoader } from "./json/json-path-map-loader.js";
 import { sampleJson } from "./json/json-sample.js";
 import { JsonValueLoader } from "./json/json-value-loader.js";
+import type { KeptJson } from "./json/kept-json.js";
 import type { InputFormat, LoadOptions } from "./load-options.js";
 import { PathListReader } from "./path-list/path-list-reader.js";
 import { chooseReading } from "./shape/choose-reading.js";
@@ -19,12 +20,14 @@ export interface ByteLoader {
  * their record reader, YAML as text). `head` is the start of the input (at least its first 64 KiB, when
  * it has them): JSON is read as {@link chooseReading} decides from a sample of it, as nodes (with the
  * configured or a found children field), values, rows or a map keyed by path. Rows and nodes are one
- * loader: unless `options.format` forces one, the first element decides.
+ * loader: unless `options.format` forces one, the first element decides. `earlier`: what the load of
+ * an earlier version of this input kept for this one (kept-json.ts), which node objects may be taken from.
  */
 export function byteLoader(
   format: InputFormat,
   options: LoadOptions,
   head: Uint8Array,
+  earlier?: KeptJson,
 ): ByteLoader | undefined {
   switch (format) {
     case "json":
@@ -41,7 +44,12 @@ export function byteLoader(
           // Read as rows because OLD was: the first element must not decide otherwise.
           return new JsonLoader(options, options.sameReading?.kind === "rows" ? "rows" : as);
         case "nodes":
-          return new JsonLoader({ ...options, childrenField: reading.childrenField }, as, reading.found);
+          return new JsonLoader(
+            { ...options, childrenField: reading.childrenField },
+            as,
+            reading.found,
+            earlier,
+          );
       }
       break;
     }

@@ -85,6 +85,18 @@ export interface LoadOptions {
    */
   keepForLaterVersion?: boolean;
   /**
+   * With `keepForLaterVersion`: this input's bytes can be read again by the later version's load
+   * (`earlierInput`), so a JSON document's load keeps where its node objects lie, not its bytes
+   * (load/json/kept-json.ts).
+   */
+  inputReadAgain?: boolean;
+  /**
+   * With `earlierVersion`: its input's bytes read again where a JSON document's load compares its node
+   * objects with the earlier version's (load/json/kept-json.ts), when that load kept no bytes of its own
+   * (`inputReadAgain`). Its bytes must be those that load read.
+   */
+  earlierInput?: BytesAt;
+  /**
    * JSON and YAML: `nodes` reads node objects (children under the children field, or a field found to
    * hold them), `values` makes every value of the document a node; undefined chooses by the document
    * (src/load/shape/choose-reading.ts).
@@ -184,3 +196,9 @@ export const defaultLoadOptions: LoadOptions = {
   rootName: "(root)",
   maxNodes: Number.POSITIVE_INFINITY,
 };
+
+/** An input's bytes read again at a position, synchronously (a regular file's, by its descriptor). */
+export interface BytesAt {
+  /** Reads up to `length` bytes at `position` into `into` from `offset`; returns how many it read. */
+  read(into: Uint8Array, offset: number, length: number, position: number): number;
+}

@@ -45,6 +45,50 @@ export class NodeSink {
     else this.name.placeShared(i, earlier!.names.start[at], earlier!.names.size[at]);
   }
 
+  /** Whether names are placed in an earlier version's bytes (its pool is read by this one's). */
+  get readsEarlierNames(): boolean {
+    return this.earlier !== undefined;
+  }
+
+  /**
+   * Appends nodes `k` to `k + count - 1` of an earlier version (its parents, own sizes and names
+   * `names`, the pool this sink's names read): siblings and their subtrees, in their order, those
+   * siblings under node `parent`; as a loader reading them again would add them.
+   */
+  take(
+    parent: number,
+    parentOf: Int32Array,
+    ownSize: Float64Array,
+    names: NamePool,
+    k: number,
+    count: number,
+  ): void {
+    const at = this.length;
+    const end = at + count;
+    if (end > this.maxNodes) throw new Error(`take: ${end} nodes past the limit ${this.maxNodes}`);
+    while (end > this.parentOf.length) this.grow();
+    const to = this.parentOf;
+    const size = this.ownSize;
+    const origin = this.origin;
+    const shift = at - k;
+    const above = parentOf[k];
+    for (let t = 0; t < count; t++) {
+      const p = parentOf[k + t];
+      to[at + t] = p === above ? parent : p + shift;
+    }
+    if (count <= 16) {
+      for (let t = 0; t < count; t++) {
+        size[at + t] = ownSize[k + t];
+        origin[at + t] = 0;
+      }
+    } else {
+      size.set(ownSize.subarray(k, k + count), at);
+      origin.fill(0, at, end);
+    }
+    this.name.placeSharedRun(at, names, k, count);
+    this.length = end;
+  }
+
   /** Appends a node (own size 0) named `name` and returns its index. */
   add(parent: number, name: string, origin: number): number {
     const i = this.length;
@@ -111,8 +155,17 @@ export class NodeSink {
     };
   }
 
-  private grow(): void {
-    const capacity = this.parentOf.length * 2;
+  /**
+   * Room for `nodes` nodes at once (a loader that can tell how many are coming: a diff's NEW, about as
+   * many as its OLD), where doubling would make fresh memory and a copy a dozen times over.
+   */
+  makeRoom(nodes: number): void {
+    if (nodes > this.parentOf.length) this.grow(nodes);
+    this.name.makeRoom(nodes, 0);
+  }
+
+  private grow(atLeast = 0): void {
+    const capacity = Math.max(atLeast, this.parentOf.length * 2);
     const parentOf = new Int32Array(capacity);
     parentOf.set(this.parentOf);
     this.parentOf = parentOf;

@@ -480,8 +480,18 @@ export class NamePool implements Names {
     const end = i + count;
     if (end > this.start.length) this.growNodes(end);
     if (end > this.length) this.length = end;
-    this.start.set(src.start.subarray(from, from + count), i);
-    this.size.set(src.size.subarray(from, from + count), i);
+    if (count <= 16) {
+      // A few names (a JSON subtree taken from the earlier version): two views each cost more.
+      const start = this.start;
+      const size = this.size;
+      for (let t = 0; t < count; t++) {
+        start[i + t] = src.start[from + t];
+        size[i + t] = src.size[from + t];
+      }
+    } else {
+      this.start.set(src.start.subarray(from, from + count), i);
+      this.size.set(src.size.subarray(from, from + count), i);
+    }
     if (this.exact !== null) for (let k = i; k < end; k++) this.exact.delete(k);
   }
 

@@ -246,6 +246,14 @@ function partsSaid(kind: "summary" | "diff", facts: KeyFacts, lines: readonly st
   return marks + parts;
 }
 
+/**
+ * Whether the key `lines` (see `keyLines`) say every mark in `facts` and every part but the pointer
+ * to more, in any of its forms.
+ */
+export function keySaysAll(kind: "summary" | "diff", facts: KeyFacts, lines: readonly string[]): boolean {
+  return saysAll(kind, facts, lines);
+}
+
 /** Whether `lines` say every mark in `facts` and every part but the pointer to more, in any of its forms. */
 function saysAll(kind: "summary" | "diff", facts: KeyFacts, lines: readonly string[]): boolean {
   const text = lines.join("\n");

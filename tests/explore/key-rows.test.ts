@@ -51,4 +51,32 @@ describe("summarySession(prepared, look): the key's rows", () => {
     }
     expect(failures).toEqual([]);
   });
+
+  it("points the status row to the help for the marks where the key says only part of them, or had no room", () => {
+    const session = summarySession(prepared, { units: "plain", chains: true, palette: palette(false) });
+    const drawn = (height: number, cols: number) => {
+      const state = startState(session, {
+        rows: height,
+        cols,
+        foci: resolveFoci(prepared.index, [`${deep}/BUILD`]),
+        importance: "depth",
+        fociFile: "foci.txt",
+      });
+      const screen = draw(session, state, false);
+      return {
+        key: screen.rows.some((r) => r.slice(GUTTER).startsWith("key: ")),
+        status: screen.rows.at(-1)!,
+      };
+    };
+    // No room for a key: 9 rows at 40 columns; a key in part: 14 rows at 32; whole: 20 rows at 40.
+    const none = drawn(9, 40);
+    expect(none.key).toBe(false);
+    expect(none.status).toMatch(/ h: keys, marks$/);
+    const part = drawn(14, 32);
+    expect(part.key).toBe(true);
+    expect(part.status).toMatch(/ h: keys, marks$/);
+    const whole = drawn(20, 40);
+    expect(whole.key).toBe(true);
+    expect(whole.status).toMatch(/ h: keys$/);
+  });
 });

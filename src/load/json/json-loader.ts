@@ -22,6 +22,7 @@ import { fieldSizeUnit } from "../size-unit.js";
 import { linkTable } from "../table/link-table.js";
 import { rowsTable } from "../table/rows-table.js";
 import { JsonTokenizer, NUL, numberValue, TRUE } from "./json-tokenizer.js";
+import { JsonKeeper, K_HIGH, K_LINES, KeptJson } from "./kept-json.js";
 import { isArrayIndexKey, reorderKeyedChildren } from "./keyed-order.js";
 import { RowsProbe } from "./rows-probe.js";
 import { C_KEEP, C_PROBE, C_ROW, Captures } from "./value-capture.js";
@@ -115,7 +116,29 @@ class Frame {
     return this.childList;
   }
   reorder = false;
+  /**
+   * Read against an earlier version (kept-json.ts): a node's counterpart there (-1: none), whose
+   * children its children are compared with; a children array's next child there to compare with.
+   */
+  old = -1;
+  oldNext = -1;
+  /** A node read (not taken) whose counterpart is still to be found by its name (see pairByName). */
+  pairing = false;
+  /** Keeping (kept-json.ts): the line the node object opened on, and the column adjustment then. */
+  openLine = 0;
+  openAdjust = 0;
 }
+
+/** Nodes whose keys are sampled for messages (FieldsSeen): never taken from an earlier version. */
+const SAMPLED_NODES = 1000;
+/**
+ * Children of a node's counterpart that a child of its is compared with before it is read: the one at
+ * the cursor and the next (the cursor's was removed). A child read finds its counterpart by name among
+ * more (pairByName), and moves the cursor past it.
+ */
+const TRIED_CHILDREN = 2;
+/** Children of a node's counterpart that a child read is looked for among, by name. */
+const PAIRED_CHILDREN = 8;
 
 /**
  * Nested JSON (and JSON rows) read from UTF-8 bytes, whole or in chunks, never as one string: the
@@ -186,8 +209,23 @@ export class JsonLoader extends JsonTokenizer {
   /** Whether children by name were put in JSON.parse's order (nodes moved: missingLines may be stale). */
   private reordered = false;
 
-  /** `found`: espalier chose `options.childrenField` (the configured one was absent). */
-  constructor(options: LoadOptions, as?: "json" | "rows", found = false) {
+  // Never null, and of one class whatever the load, so that a diff's NEW runs the code its OLD compiled
+  // (a field that held null in one load and an object in the next changes the loader's shape).
+  /** Keeping the input for a later version's load (kept-json.ts), when `keeping`. */
+  private readonly keeper: JsonKeeper;
+  private readonly keeping: boolean;
+  /** The earlier version's kept input this one is read against (kept-json.ts), when `taking`. */
+  private readonly earlier: KeptJson;
+  private readonly taking: boolean;
+  /** What this load kept for a later version's, once ended (when it kept). */
+  keptForLater: KeptJson | undefined;
+
+  /**
+   * `found`: espalier chose `options.childrenField` (the configured one was absent). `earlier`: what an
+   * earlier version's load of node objects kept (`options.earlierVersion`'s, kept-json.ts): node
+   * objects whose bytes it has at the same place in the tree are taken from it, not read.
+   */
+  constructor(options: LoadOptions, as?: "json" | "rows", found = false, earlier?: KeptJson) {
     super(options.limits);
     this.options = options;
     this.captures = new Captures(this.maxTokenBytes);
@@ -209,6 +247,48 @@ export class JsonLoader extends JsonTokenizer {
     add(options.childrenField, F_CHILDREN, -1);
     for (let f = 0; f < options.keepFields.length; f++) add(options.keepFields[f], 0, f);
     add(MISSING_FIELD, F_MISSING, -1);
+    // Read again alike: nodes only, by the default children field (no unread `children` to note), the
+    // whole document, own sizes (a tree read as totals changes them after the load).
+    const alike =
+      as !== "rows" &&
+      options.childrenField === DEFAULT_CHILDREN &&
+      options.startAt === undefined &&
+      options.folderSizes !== "total";
+    const size = options.inputBytes;
+    this.keeper = new JsonKeeper(
+      alike && options.keepForLaterVersion === true && size !== undefined ? size : 0,
+      options.inputReadAgain === true,
+    );
+    this.keeping = this.keeper.keeping;
+    this.taking =
+      alike &&
+      earlier !== undefined &&
+      options.earlierVersion?.name === earlier.names &&
+      this.sink.readsEarlierNames &&
+      this.sameReadAs(earlier) &&
+      earlier.readable(options.earlierInput);
+    this.earlier = this.taking ? earlier! : KeptJson.none;
+    if (this.taking) {
+      // About as many nodes as the earlier version: room made once.
+      const nodes = Math.ceil(1.05 * earlier!.length) + 1024;
+      this.sink.makeRoom(nodes);
+      this.sized = new Uint8Array(nodes);
+    }
+  }
+
+  /** Whether `earlier` was read as this input is. */
+  private sameReadAs(earlier: KeptJson): boolean {
+    const o = this.options;
+    const r = earlier.readAs;
+    return (
+      r.nameField === o.nameField &&
+      r.sizeField === o.sizeField &&
+      r.childrenField === o.childrenField &&
+      r.keepFields.length === o.keepFields.length &&
+      r.keepFields.every((f, k) => f === o.keepFields[k]) &&
+      r.maxTokenBytes === this.maxTokenBytes &&
+      r.maxDepth === this.maxDepth
+    );
   }
 
   /** Ends the input; the nodes, ready for `buildTree`. */
@@ -257,6 +337,7 @@ export class JsonLoader extends JsonTokenizer {
     }
     let emptyEntries = 0;
     for (let i = 0; i < sink.length; i++) if (this.sized[i] === EMPTY) emptyEntries++;
+    if (this.keeping) this.keptForLater = this.keptJson(this.keeper);
     sink.nameNamelessTop(this.options.rootName);
     const notes: ReadingNote[] = [];
     if (this.repeats > 0) notes.push(this.repeatNote());
@@ -275,6 +356,35 @@ export class JsonLoader extends JsonTokenizer {
     const empty = new Uint8Array(sink.length);
     for (let i = 0; i < sink.length; i++) if (this.sized[i] === EMPTY) empty[i] = 1;
     return { ...linked, empty };
+  }
+
+  /** What this load keeps for a later version's: one top-level node object's, else nothing. */
+  private keptJson(keeper: JsonKeeper): KeptJson | undefined {
+    const sink = this.sink;
+    const one = !this.topList && this.role[0] === NODE && sink.parentOf[0] === -1;
+    const { nameField, sizeField, childrenField, keepFields } = this.options;
+    const readAs = {
+      nameField,
+      sizeField,
+      childrenField,
+      keepFields,
+      maxTokenBytes: this.maxTokenBytes,
+      maxDepth: this.maxDepth,
+    };
+    // Nodes moved (children by name put in order) or dropped (a key repeated) are no longer where the
+    // keeper saw them added.
+    if (!one || this.reordered || this.droppedNodes > 0) keeper.drop();
+    return keeper.kept(
+      readAs,
+      sink.length,
+      this.sized,
+      sink.parentOf,
+      sink.ownSize,
+      sink.name,
+      this.kept,
+      this.pos.line > 1,
+      this.hasNames,
+    );
   }
 
   // ---------------------------------------------------------------------------------------------------
@@ -390,6 +500,87 @@ export class JsonLoader extends JsonTokenizer {
 
   protected chunkEnd(buf: Buffer): void {
     this.captures.chunkEnd(buf, this.pos.line);
+    if (this.keeping) {
+      this.keeper.write(buf);
+      // After the first chunk: room for the nodes the input likely has (its length over the bytes per
+      // node so far, plus 5%).
+      const size = this.options.inputBytes!;
+      if (this.base === 0 && buf.length < size && this.sink.length > 0)
+        this.keeper.room(0, Math.ceil((1.05 * this.sink.length * size) / buf.length));
+    }
+  }
+
+  /**
+   * A node object of a children array starts at offset `i` of `buf`: when the earlier version has one of
+   * the same bytes among the next children of this node's counterpart, its nodes are taken (added as
+   * reading them would add them) and the offset after it returned; else -1.
+   */
+  protected override reuse(buf: Buffer, i: number): number {
+    if (!this.taking || this.slot !== S_CHILD || this.captures.open.length > 0) return -1;
+    const earlier = this.earlier;
+    // Whether a node taken is named is not kept: taken only when that cannot change `hasNames`.
+    if (!this.hasNames && earlier.named) return -1;
+    const list = this.frames[this.depth - 1];
+    const sink = this.sink;
+    if (sink.length < SAMPLED_NODES) return -1;
+    let k = list.oldNext;
+    for (let tried = 0; tried < TRIED_CHILDREN && k >= 0; tried++) {
+      const bytes = earlier.sameAt(k, buf, i);
+      if (bytes >= 0) {
+        const room = sink.maxNodes - sink.length;
+        if (earlier.count[k] > room) return -1;
+        // With the siblings after it that follow alike.
+        const last = earlier.lastRepeated(k, buf, i + bytes, room);
+        const to = i + (earlier.end[last] - earlier.start[k]);
+        this.take(earlier, k, last, list.node);
+        list.oldNext = earlier.nextSibling(last);
+        // What separates the siblings may hold a line feed; their bits cover their own bytes.
+        let bits = 0;
+        let adjust = 0;
+        for (let t = k; t !== -1; t = t === last ? -1 : earlier.nextSibling(t)) {
+          bits |= earlier.flags[t];
+          adjust += earlier.adjust(t);
+        }
+        const lines = (bits & K_LINES) !== 0 || (last !== k && earlier.lines);
+        this.passOver(buf, i, to, lines, (bits & K_HIGH) !== 0, adjust);
+        return to;
+      }
+      k = earlier.nextSibling(k);
+    }
+    return -1;
+  }
+
+  /**
+   * Adds the earlier version's siblings `k` to `last` and their subtrees under node `parent`, as reading
+   * them would.
+   */
+  private take(earlier: KeptJson, k: number, last: number, parent: number): void {
+    const sink = this.sink;
+    const count = last + earlier.count[last] - k;
+    const at = sink.length;
+    sink.take(parent, earlier.parentOf, earlier.ownSize, earlier.names, k, count);
+    if (at + count > this.sized.length) {
+      let length = this.sized.length * 2;
+      while (length < at + count) length *= 2;
+      const grown = new Uint8Array(length);
+      grown.set(this.sized);
+      this.sized = grown;
+    }
+    const sized = this.sized;
+    const from = earlier.sized;
+    if (count <= 16) for (let t = 0; t < count; t++) sized[at + t] = from[k + t];
+    else sized.set(from.subarray(k, k + count), at);
+    // Kept fields: "" is no such field where taken (see fieldScalar).
+    for (let f = 0; f < this.kept.length; f++) {
+      const from = earlier.kept[f];
+      if (from.length === 0) continue;
+      const to = this.kept[f];
+      for (let t = 0; t < count; t++) {
+        const value = from[k + t];
+        if (value !== "") to[at + t] = value;
+      }
+    }
+    this.unkeyed += count;
   }
 
   // ---------------------------------------------------------------------------------------------------
@@ -406,6 +597,7 @@ export class JsonLoader extends JsonTokenizer {
       this.sized = grown;
     }
     this.sized[j] = 0;
+    if (this.keeping && j >= this.keeper.count.length) this.keeper.room(j);
     return j;
   }
 
@@ -469,17 +661,22 @@ export class JsonLoader extends JsonTokenizer {
       frame.childrenColumn = column;
     }
     for (const f of field.keeps) {
-      this.kept[f][i] = kind === NUMBER ? numberText(value, text) : text;
+      const kept = kind === NUMBER ? numberText(value, text) : text;
+      this.kept[f][i] = kept;
+      // Read back, "" is also no such field (see end): such a node is read again, not taken.
+      if (kept === "" && this.keeping) this.keeper.odd(i, this.sink.parentOf);
     }
     if ((field.mask & F_MISSING) !== 0) {
       frame.missing = kind === BOOLEAN && text === "true";
       frame.missingLine = this.pos.line;
+      if (frame.missing && this.keeping) this.keeper.odd(i, this.sink.parentOf);
     }
   }
 
   /** A later children field replaces an earlier one (JSON.parse keeps the last value of a key). */
   private dropChildren(frame: Frame): void {
     if (frame.childrenMark < 0) return;
+    if (this.keeping) this.keeper.odd(frame.node, this.sink.parentOf);
     this.repeated(this.options.childrenField);
     this.droppedNodes += this.sink.length - frame.childrenMark;
     this.sink.truncate(frame.childrenMark);
@@ -536,6 +733,7 @@ export class JsonLoader extends JsonTokenizer {
     if (map.keys.has(key) || isArrayIndexKey(key)) map.reorder = true;
     map.keys.add(key);
     map.children.push(j);
+    if (this.keeping) this.keeper.odd(j, this.sink.parentOf);
     return j;
   }
 
@@ -569,6 +767,8 @@ export class JsonLoader extends JsonTokenizer {
           this.probe.nodes();
           role = NODE;
           this.nodeFrame(frame, this.addNode(-1, "", column), false);
+          // The top-level node object's counterpart: the earlier version's (kept only when it had one).
+          frame.old = this.taking ? 0 : -1;
         } else {
           role = this.probe.rows ? ROWS : TOP_LIST;
           slot = itemSlot[role];
@@ -589,11 +789,20 @@ export class JsonLoader extends JsonTokenizer {
         role = NODE;
         this.nodeFrame(frame, this.addNode(-1, "", column), false);
         break;
-      case S_CHILD:
+      case S_CHILD: {
         if (!object) this.scalar(COLLECTION, "", 0, column);
         role = NODE;
-        this.nodeFrame(frame, this.addNode(parentFrame.node, "", column), false);
+        const j = this.addNode(parentFrame.node, "", column);
+        this.nodeFrame(frame, j, false);
+        // Not taken from the earlier version: its counterpart there is found by its name (pairByName).
+        frame.pairing = this.taking;
+        if (this.keeping) {
+          this.keeper.start[j] = this.base + i;
+          frame.openLine = this.pos.line;
+          frame.openAdjust = this.pos.lineAdjust;
+        }
         break;
+      }
       case S_KEYED: {
         const j = this.keyedChild(top - 1, column);
         if (!object) {
@@ -628,6 +837,8 @@ export class JsonLoader extends JsonTokenizer {
           role = object ? CHILD_MAP : CHILD_LIST;
           slot = object ? S_SKIP : S_CHILD;
           frame.node = node;
+          if (parentFrame.pairing) this.pairByName(parentFrame, this.frames[top - 2]);
+          frame.oldNext = !object && parentFrame.old >= 0 ? this.earlier.firstChild(parentFrame.old) : -1;
           if (object) {
             frame.keys.clear();
             frame.children.length = 0;
@@ -664,6 +875,29 @@ export class JsonLoader extends JsonTokenizer {
     frame.childrenMark = -1;
     frame.fieldCount = 0;
     frame.missing = false;
+    frame.old = -1;
+    frame.pairing = false;
+  }
+
+  /**
+   * Node `frame.node`, read (not taken), in the children array whose frame is `list`: its counterpart in
+   * the earlier version is the first of the next children there (from the array's cursor on) with its
+   * name; the cursor moves past it. None found (an added node, or no name read yet): none, and the
+   * cursor stays. Only a guide to what is compared: a node is taken only where the bytes are the same.
+   */
+  private pairByName(frame: Frame, list: Frame): void {
+    const earlier = this.earlier;
+    const names = this.sink.name;
+    let k = list.oldNext;
+    for (let tried = 0; tried < PAIRED_CHILDREN && k >= 0; tried++) {
+      if (names.sameBytes(frame.node, earlier.names, k) === true) {
+        frame.old = k;
+        frame.pairing = false;
+        list.oldNext = earlier.nextSibling(k);
+        return;
+      }
+      k = earlier.nextSibling(k);
+    }
   }
 
   /** Closes the innermost container, whose last byte is at offset `i` of `buf`. */
@@ -694,6 +928,9 @@ export class JsonLoader extends JsonTokenizer {
     const role = this.role[top];
     if (role === NODE) {
       this.closeNode(frame);
+      // A node read whose counterpart is not found yet (one with no children): the cursor moves past it.
+      if (frame.pairing) this.pairByName(frame, this.frames[top - 1]);
+      if (this.keeping) this.keepNode(this.keeper, frame, this.base + i + 1);
     } else if (role === CHILD_MAP) {
       if (frame.reorder) {
         this.reordered = true;
@@ -759,6 +996,21 @@ export class JsonLoader extends JsonTokenizer {
       this.sized[i] |= MISSING;
       this.missingLines.set(i, frame.missingLine);
     }
+  }
+
+  /**
+   * Keeps where node object `frame.node` ends (`end`, after its `}`), its subtree's nodes (those added
+   * since it opened: all below it) and what its reading did (kept-json.ts).
+   */
+  private keepNode(keeper: JsonKeeper, frame: Frame, end: number): void {
+    // What made it odd (K_ODD) was marked as read: keyed by name, missing, a children key given twice.
+    const i = frame.node;
+    keeper.end[i] = end;
+    keeper.count[i] = this.sink.length - i;
+    // Its bytes' lines and columns, for a later load that takes them (JsonTokenizer.passOver).
+    const pos = this.pos;
+    if (pos.line !== frame.openLine) keeper.flags[i] |= K_LINES | K_HIGH;
+    else if (pos.lineAdjust !== frame.openAdjust) keeper.high(i, pos.lineAdjust - frame.openAdjust);
   }
 
   private growStack(): void {

@@ -4,6 +4,7 @@ import { asBuffer, codecs } from "../../model/buffer-codecs.js";
 import { limitsOf, type ReadLimits, readLimits, tooLong } from "../read-limits.js";
 import { ByteBuffer } from "./byte-buffer.js";
 import { JsonPositions } from "./json-positions.js";
+import { utf16Length } from "./utf16-length.js";
 
 // What may come next.
 const VALUE = 0;
@@ -86,6 +87,56 @@ export abstract class JsonTokenizer {
   /** The chunk `buf` has been read. */
   protected abstract chunkEnd(buf: Buffer): void;
 
+  /**
+   * An object opens at offset `i` of `buf` (its `{`): the offset after it when the subclass has taken
+   * its whole value from elsewhere (json-loader.ts, read against an earlier version), so that it is
+   * not read, and counted its lines and columns (passOver); -1 to read it.
+   */
+  protected reuse(_buf: Buffer, _i: number): number {
+    return -1;
+  }
+
+  /** Where the next line feed at or after `nlFrom` of `nlBuf` is (-1: none in it), for passOver. */
+  private nlBuf: Uint8Array | null = null;
+  private nlFrom = 0;
+  private nlAt = -1;
+
+  /**
+   * Counts the lines and columns of `buf[from, to)`, a value taken whole (see `reuse`), as reading it
+   * would: `lines`, whether it may hold a line feed; `high`, a byte >= 0x80; `adjust`, when it holds no
+   * line feed, its bytes beyond their UTF-16 length (JsonPositions.lineAdjust).
+   */
+  protected passOver(
+    buf: Buffer,
+    from: number,
+    to: number,
+    lines: boolean,
+    high: boolean,
+    adjust: number,
+  ): void {
+    const pos = this.pos;
+    if (!lines) {
+      pos.lineAdjust += adjust;
+      return;
+    }
+    let nl = this.nlAt;
+    if (this.nlBuf !== buf || from < this.nlFrom || (nl !== -1 && nl < from)) {
+      nl = buf.indexOf(0x0a, from);
+      this.nlBuf = buf;
+    }
+    let lineFrom = from;
+    while (nl !== -1 && nl < to) {
+      pos.newline(this.base + nl + 1);
+      lineFrom = nl + 1;
+      nl = buf.indexOf(0x0a, lineFrom);
+    }
+    this.nlFrom = to;
+    this.nlAt = nl;
+    // The last line's part: mostly a few bytes (after the last line feed of an indented text).
+    if (lineFrom === from) pos.lineAdjust += adjust;
+    else if (high) pos.lineAdjust += to - lineFrom - utf16Length(buf, lineFrom, to);
+  }
+
   /** Absolute offset of a token the end of the last chunk cut (its hooks run once it ends); -1: none. */
   protected pendingFrom(): number {
     return this.pend === P_NONE ? -1 : this.pendStart;
@@ -94,6 +145,7 @@ export abstract class JsonTokenizer {
   /** Reads the next chunk of the input. */
   write(chunk: Uint8Array): void {
     const buf = asBuffer(chunk);
+    this.nlBuf = null;
     let i = 0;
     if (this.pend !== P_NONE) i = this.resume(buf);
     if (i >= 0) this.run(buf, i);
@@ -140,6 +192,13 @@ export abstract class JsonTokenizer {
         case VALUE_OR_END: {
           this.seenValue = true;
           if (c === 0x7b /* { */) {
+            const to = this.reuse(buf, i);
+            if (to >= 0) {
+              // An object whose reading the subclass took from an earlier reading of the same bytes.
+              i = to;
+              state = AFTER;
+              continue;
+            }
             this.openContainer(i, true);
             i++;
             state = KEY_OR_END;

@@ -17,6 +17,8 @@ import {
   withNodeRecords,
 } from "../graph-input.js";
 import { linkGraphTable } from "../graph-table.js";
+import { JsonLoader } from "../json/json-loader.js";
+import { type KeptJson, keepJson, takeKeptJson } from "../json/kept-json.js";
 import { valueAtPointer } from "../json/value-at-pointer.js";
 import { parsePointer, readAtPointer, startAtFormat } from "../json-pointer.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
@@ -50,7 +52,10 @@ export async function loadTreeFromStream(
   let placeRow: LinkedNodes["placeRow"];
   // What an earlier version's load kept for this one (a table's), taken whatever this input turns out
   // to be, so that it is held no longer than this load.
-  if (options.earlierVersion) table.earlier = takeKeptTable(options.earlierVersion);
+  if (options.earlierVersion) {
+    table.earlier = takeKeptTable(options.earlierVersion);
+    table.earlierJson = takeKeptJson(options.earlierVersion);
+  }
   try {
     const start = await readStart(chunks);
     let linked: LinkedNodes | GraphNodes;
@@ -76,6 +81,7 @@ export async function loadTreeFromStream(
       return readSizeTotals(buildGraphTree(withNodeRecords(linked, options), file), options.folderSizes);
     const tree = readSizeTotals(buildTree(linked, file), options.folderSizes);
     if (table.kept) keepTable(tree, table.kept);
+    if (table.keptJson) keepJson(tree, table.keptJson);
     return tree;
   } catch (caught) {
     // An error about a row of this input (not of a --nodes file, which names itself): at its line,
@@ -88,6 +94,9 @@ export async function loadTreeFromStream(
     error = placingDone(error);
     if (error instanceof EspalierError && file !== undefined) throw error.inFile(file);
     throw error;
+  } finally {
+    // Read no more: its memory back at once, not when the collector finds it.
+    table.earlierJson?.release();
   }
 }
 
@@ -116,6 +125,9 @@ interface TableSeen {
   delimiter?: "," | "\t";
   earlier?: KeptTable;
   kept?: KeptTable;
+  /** The same for JSON node objects (json/kept-json.ts). */
+  earlierJson?: KeptJson;
+  keptJson?: KeptJson;
 }
 
 async function linkedNodes(
@@ -145,7 +157,7 @@ async function linkedNodes(
       table.release?.();
     }
   }
-  const loader = byteLoader(format, options, head);
+  const loader = byteLoader(format, options, head, seen.earlierJson);
   // A JSON graph (rows or an adjacency map) is read whole and parsed.
   if ((format === "json" || format === "rows") && options.graph) {
     const bytes = await wholeBytes(chunks, "JSON", limitsOf(options.limits).maxJsonGraphBytes);
@@ -157,7 +169,9 @@ async function linkedNodes(
   }
   if (loader) {
     for await (const chunk of chunks) loader.write(chunk);
-    return loader.end();
+    const linked = loader.end();
+    if (loader instanceof JsonLoader) seen.keptJson = loader.keptForLater;
+    return linked;
   }
   seen.delimiter = format === "csv" ? "," : "\t";
   const earlier = seen.earlier;

@@ -120,7 +120,7 @@ export class KeptTable {
 }
 
 /** Whether `a[from, to)` are the bytes of `b` from `at` on (which has them all), compared in native code. */
-function sameBytes(a: Uint8Array, from: number, to: number, b: Uint8Array, at: number): boolean {
+export function sameBytes(a: Uint8Array, from: number, to: number, b: Uint8Array, at: number): boolean {
   // Views made by the typed array constructor: a Buffer's own subarray is JavaScript, and slower.
   const x = new Uint8Array(a.buffer, a.byteOffset + from, to - from);
   const y = new Uint8Array(b.buffer, b.byteOffset + at, to - from);
@@ -134,7 +134,7 @@ function sameBytes(a: Uint8Array, from: number, to: number, b: Uint8Array, at: n
  * reads a typed array, and a diff's NEW load compiled it all again (docs/performance.md). A plain
  * ArrayBuffer where the engine cannot reserve the room (the collector frees it then).
  */
-function releasableMemory(byteLength: number): ArrayBuffer {
+export function releasableMemory(byteLength: number): ArrayBuffer {
   try {
     return new ArrayBuffer(byteLength, { maxByteLength: Math.max(1, byteLength) });
   } catch {
@@ -143,7 +143,7 @@ function releasableMemory(byteLength: number): ArrayBuffer {
 }
 
 /** Gives the memory of `buffer` back now, when it is resizable ({@link releasableMemory}). */
-function releaseMemory(buffer: ArrayBufferLike): void {
+export function releaseMemory(buffer: ArrayBufferLike): void {
   if (buffer instanceof ArrayBuffer && buffer.resizable) buffer.resize(0);
 }
 

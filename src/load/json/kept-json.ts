@@ -1,0 +1,373 @@
+import type { Buffer } from "node:buffer";
+import { NamePool } from "../../model/names.js";
+import type { BytesAt } from "../load-options.js";
+import { MOST_KEPT_BYTES, releasableMemory, releaseMemory } from "../table/kept-table.js";
+
+/**
+ * A node object whose reading did more than add nodes: keyed by name, `"missing": true`, a children
+ * field repeated: its subtree is read again, not taken.
+ */
+export const K_ODD = 2;
+/** Some node below is K_ODD. */
+export const K_ODD_BELOW = 4;
+/** A node object whose bytes hold a line feed. */
+export const K_LINES = 8;
+/** A node object whose bytes may hold a byte >= 0x80 (on its last line: its columns are not its bytes). */
+export const K_HIGH = 16;
+
+/** How a JSON input of node objects was read: a later version is taken from it only when read alike. */
+export interface JsonReadAs {
+  readonly nameField: string;
+  readonly sizeField: string;
+  readonly childrenField: string;
+  readonly keepFields: readonly string[];
+  readonly maxTokenBytes: number;
+  readonly maxDepth: number;
+}
+
+/**
+ * What the load of a JSON input of node objects kept for the load of a later version of it (a diff's
+ * OLD for its NEW, one after the other): where each node object in a children array starts and ends
+ * in the input's bytes, how many nodes its subtree holds, and the nodes as read (parents, own sizes,
+ * names, what was read of each); the bytes themselves, or the input read again (`readAgain`: a regular
+ * file, read by the later load a window at a time, where keeping them would be fresh memory as big as
+ * the file). A node object of the later version whose bytes are those of one here, at the same place in
+ * the tree, is then taken with its subtree from here instead of read: its nodes are a function of its
+ * bytes, as long as nothing in them did more than add nodes (K_ODD).
+ */
+export class KeptJson {
+  constructor(
+    readonly readAs: JsonReadAs,
+    /** The input's bytes (on memory from releasableMemory); null when it is read again. */
+    private readonly bytes: Uint8Array | null,
+    /** Nodes read; node 0 the one top-level node object. */
+    readonly length: number,
+    /** Where node i's object starts in `bytes` (its `{`), for the nodes of a children array; else 0. */
+    readonly start: Uint32Array,
+    /** Where node i's object ends (after its `}`). */
+    readonly end: Uint32Array,
+    /** Nodes in node i's subtree, itself included. */
+    readonly count: Int32Array,
+    /** K_ bits by node. */
+    readonly flags: Uint8Array,
+    /**
+     * Node i's bytes beyond their UTF-16 length, when they hold no line feed (JsonPositions), for those
+     * with a byte >= 0x80 (K_HIGH); empty when none has.
+     */
+    private readonly adjusts: Int32Array,
+    /** The loader's own bits by node (json-loader.ts `sized`). */
+    readonly sized: Uint8Array,
+    readonly parentOf: Int32Array,
+    /** Own sizes as read (a tree whose sizes were read as totals is not kept). */
+    readonly ownSize: Float64Array,
+    readonly names: NamePool,
+    /** The kept fields' values by node (json-loader.ts `kept`, once ended: "" where a node has none). */
+    readonly kept: readonly (string | undefined)[][],
+    /** Whether the input holds a line feed (what separates two nodes may). */
+    readonly lines: boolean,
+    /** Whether some node has a name (json-loader.ts `hasNames`). */
+    readonly named: boolean,
+  ) {}
+
+  /** Nothing kept: what a load not read against an earlier version holds in its place. */
+  static readonly none = new KeptJson(
+    { nameField: "", sizeField: "", childrenField: "", keepFields: [], maxTokenBytes: 0, maxDepth: 0 },
+    null,
+    0,
+    new Uint32Array(0),
+    new Uint32Array(0),
+    new Int32Array(0),
+    new Uint8Array(0),
+    new Int32Array(0),
+    new Uint8Array(0),
+    new Int32Array(0),
+    new Float64Array(0),
+    new NamePool(1, 16),
+    [],
+    false,
+    false,
+  );
+
+  /**
+   * Bytes of the input read again at once (LoadOptions.earlierInput), a 64th of them before the range
+   * asked for; a range longer than the rest is not compared (its nodes are taken piece by piece).
+   */
+  static windowBytes = 4 << 20;
+
+  /** The bytes compared with, and where in the input they start. */
+  private window: Uint8Array | null = null;
+  private windowAt = 0;
+  private source: BytesAt | null = null;
+
+  /**
+   * Whether the bytes can be compared with: kept, or read again through `readAgain` (the input as the
+   * earlier load read it: LoadOptions.earlierInput).
+   */
+  readable(readAgain: BytesAt | undefined): boolean {
+    if (this.bytes !== null) {
+      this.window = this.bytes;
+      return true;
+    }
+    if (readAgain === undefined) return false;
+    this.source = readAgain;
+    this.window = new Uint8Array(KeptJson.windowBytes);
+    this.windowAt = -KeptJson.windowBytes;
+    return true;
+  }
+
+  /** Node `i`'s bytes beyond their UTF-16 length (see `adjusts`). */
+  adjust(i: number): number {
+    return (this.flags[i] & K_HIGH) === 0 ? 0 : this.adjusts[i];
+  }
+
+  /** Node `i`'s first child, or -1. */
+  firstChild(i: number): number {
+    return this.count[i] > 1 ? i + 1 : -1;
+  }
+
+  /** The child after node `i` under the same parent, or -1. */
+  nextSibling(i: number): number {
+    const k = i + this.count[i];
+    return k < this.length && this.parentOf[k] === this.parentOf[i] ? k : -1;
+  }
+
+  /**
+   * The byte length of node `k`'s object when its subtree may be taken and `buf[i, n)` begins with its
+   * bytes; else -1.
+   */
+  sameAt(k: number, buf: Buffer, i: number): number {
+    if ((this.flags[k] & (K_ODD | K_ODD_BELOW)) !== 0) return -1;
+    const s = this.start[k];
+    const e = this.end[k];
+    if (s === 0 || i + (e - s) > buf.length || !this.same(s, e, buf, i)) return -1;
+    return e - s;
+  }
+
+  /**
+   * After node `k`, whose bytes `buf` repeats up to `at`: the last of the siblings after it that may be
+   * taken and whose bytes, with what separates them, `buf` repeats from `at` on, with at most `room`
+   * nodes in all (k's subtree's included); `k` when none. Whole groups of siblings are compared, the
+   * group doubling while they repeat and halving where they do not, down to one.
+   */
+  lastRepeated(k: number, buf: Buffer, at: number, room: number): number {
+    const end = this.end;
+    const flags = this.flags;
+    let last = k;
+    let nodes = this.count[k];
+    for (let group = 1; group > 0; ) {
+      let g = last;
+      let m = 0;
+      let more = 0;
+      while (m < group) {
+        const next = this.nextSibling(g);
+        if (next < 0 || (flags[next] & (K_ODD | K_ODD_BELOW)) !== 0) break;
+        g = next;
+        m++;
+        more += this.count[next];
+      }
+      if (m === 0) break;
+      const to = at + (end[g] - end[last]);
+      if (nodes + more <= room && to <= buf.length && this.same(end[last], end[g], buf, at)) {
+        last = g;
+        at = to;
+        nodes += more;
+        group *= 2;
+      } else group = m === group ? group >>> 1 : m >>> 1;
+    }
+    return last;
+  }
+
+  /** Whether the input's bytes `[from, to)` are those of `b` from `at` on (which has them all). */
+  private same(from: number, to: number, b: Buffer, at: number): boolean {
+    let a = this.window!;
+    let shift = 0;
+    if (this.source !== null) {
+      // A window of the input read again: moved on to start a little before `from` when it does not
+      // hold [from, to) (a range longer than it is never compared: taken piece by piece instead).
+      const size = a.length;
+      const back = size >>> 6;
+      if (to - from > size - back) return false;
+      if (from < this.windowAt || to > this.windowAt + size) {
+        const at0 = Math.max(0, from - back);
+        const read = this.source.read(a, 0, size, at0);
+        this.windowAt = at0;
+        if (at0 + read < to) {
+          this.windowAt = -size;
+          return false;
+        }
+      }
+      shift = this.windowAt;
+    } else if (this.bytes === null) return false;
+    a = this.window!;
+    // The first bytes one by one (a different node mostly differs there; a leaf is mostly shorter), then
+    // the rest in native code.
+    const x0 = from - shift;
+    const x1 = to - shift;
+    const head = Math.min(x1, x0 + 64);
+    for (let x = x0, y = at; x < head; x++, y++) if (a[x] !== b[y]) return false;
+    return x1 === head || b.compare(a, head, x1, at + (head - x0), at + (x1 - x0)) === 0;
+  }
+
+  /** Gives the memory of the bytes and offsets back now: read no more. */
+  release(): void {
+    if (this.bytes !== null) releaseMemory(this.bytes.buffer);
+    this.window = null;
+    this.source = null;
+    releaseMemory(this.start.buffer);
+    releaseMemory(this.end.buffer);
+    releaseMemory(this.count.buffer);
+    releaseMemory(this.flags.buffer);
+    releaseMemory(this.adjusts.buffer);
+  }
+}
+
+/** Longest input whose node objects' places are kept for a later version read again (offsets in 32 bits). */
+const MOST_PLACED_BYTES = 2 ** 32 - 1;
+
+/**
+ * The loader's side of a {@link KeptJson}: keeps the nodes' places while they are read, and the input's
+ * bytes (up to MOST_KEPT_BYTES) unless the later load reads them again.
+ */
+export class JsonKeeper {
+  /** The bytes kept so far; null when the later load reads the input again (or nothing is kept). */
+  private bytes: Uint8Array | null;
+  private used = 0;
+  start = new Uint32Array(releasableMemory(4 * 1024));
+  end = new Uint32Array(releasableMemory(4 * 1024));
+  count = new Int32Array(releasableMemory(4 * 1024));
+  flags = new Uint8Array(releasableMemory(1024));
+  /** By node, for those with a byte >= 0x80 and no line feed (see KeptJson.adjusts): made at the first. */
+  private adjusts = new Int32Array(0);
+  /** False once the input is longer than kept, or nothing is to be kept. */
+  keeping: boolean;
+
+  /** `readAgain`: the later load reads the input's bytes again (LoadOptions.inputReadAgain). */
+  constructor(inputBytes: number, readAgain: boolean) {
+    this.keeping = inputBytes > 0 && inputBytes <= (readAgain ? MOST_PLACED_BYTES : MOST_KEPT_BYTES);
+    this.bytes =
+      this.keeping && !readAgain
+        ? new Uint8Array(releasableMemory(Math.min(inputBytes, MOST_KEPT_BYTES)))
+        : null;
+  }
+
+  /** The next chunk of the input, copied when the bytes are kept (a stream may hand out the same memory again). */
+  write(chunk: Uint8Array): void {
+    if (!this.keeping) return;
+    const need = this.used + chunk.length;
+    const bytes = this.bytes;
+    if (need > (bytes === null ? MOST_PLACED_BYTES : MOST_KEPT_BYTES)) {
+      this.drop();
+      return;
+    }
+    this.used = need;
+    if (bytes === null) return;
+    let into = bytes;
+    if (need > into.length) {
+      into = new Uint8Array(releasableMemory(Math.min(MOST_KEPT_BYTES, Math.max(need, 2 * into.length))));
+      into.set(bytes.subarray(0, need - chunk.length));
+      releaseMemory(bytes.buffer);
+      this.bytes = into;
+    }
+    into.set(chunk, need - chunk.length);
+  }
+
+  /**
+   * Room for node `i`'s places: doubled, or at once for about `expected` nodes (the loader's estimate
+   * from the input's length), so that they are made once at their size rather than doubled a dozen
+   * times, each time fresh memory and a copy (docs/performance.md).
+   */
+  room(i: number, expected = 0): void {
+    if (i < this.count.length && expected <= this.count.length) return;
+    let length = Math.max(this.count.length * 2, expected);
+    while (length <= i) length *= 2;
+    this.start = grown(this.start, new Uint32Array(releasableMemory(4 * length)));
+    this.end = grown(this.end, new Uint32Array(releasableMemory(4 * length)));
+    this.count = grown(this.count, new Int32Array(releasableMemory(4 * length)));
+    this.flags = grown(this.flags, new Uint8Array(releasableMemory(length)));
+    if (this.adjusts.length > 0)
+      this.adjusts = grown(this.adjusts, new Int32Array(releasableMemory(4 * length)));
+  }
+
+  /** Node `i` holds a byte >= 0x80, and no line feed: `adjust` bytes beyond their UTF-16 length. */
+  high(i: number, adjust: number): void {
+    if (this.adjusts.length === 0) this.adjusts = new Int32Array(releasableMemory(4 * this.count.length));
+    this.flags[i] |= K_HIGH;
+    this.adjusts[i] = adjust;
+  }
+
+  /** Node `i` did more than add nodes (K_ODD): so did a node below each of its ancestors. */
+  odd(i: number, parentOf: Int32Array): void {
+    const flags = this.flags;
+    flags[i] |= K_ODD;
+    for (let p = parentOf[i]; p >= 0 && (flags[p] & K_ODD_BELOW) === 0; p = parentOf[p])
+      flags[p] |= K_ODD_BELOW;
+  }
+
+  /** Lets go of what is kept. */
+  drop(): void {
+    this.keeping = false;
+    if (this.bytes !== null) releaseMemory(this.bytes.buffer);
+    this.bytes = null;
+  }
+
+  /** What is kept, over the nodes as the loader read them; undefined when nothing is. */
+  kept(
+    readAs: JsonReadAs,
+    length: number,
+    sized: Uint8Array,
+    parentOf: Int32Array,
+    ownSize: Float64Array,
+    names: NamePool,
+    kept: readonly (string | undefined)[][],
+    lines: boolean,
+    named: boolean,
+  ): KeptJson | undefined {
+    if (!this.keeping || length === 0) {
+      this.release();
+      return undefined;
+    }
+    return new KeptJson(
+      readAs,
+      this.bytes === null ? null : this.bytes.subarray(0, this.used),
+      length,
+      this.start,
+      this.end,
+      this.count,
+      this.flags,
+      this.adjusts,
+      sized,
+      parentOf,
+      ownSize,
+      names,
+      kept,
+      lines,
+      named,
+    );
+  }
+
+  private release(): void {
+    this.drop();
+    for (const a of [this.start, this.end, this.count, this.flags, this.adjusts]) releaseMemory(a.buffer);
+  }
+}
+
+function grown<T extends Uint32Array | Int32Array | Uint8Array>(from: T, to: T): T {
+  to.set(from);
+  releaseMemory(from.buffer);
+  return to;
+}
+
+/** Kept JSON by the tree its load built (see {@link keepJson}). */
+const keptFor = new WeakMap<object, KeptJson>();
+
+/** Keeps `kept` for the load of a later version read against `tree` (LoadOptions.earlierVersion). */
+export function keepJson(tree: object, kept: KeptJson): void {
+  keptFor.set(tree, kept);
+}
+
+/** The JSON kept for `tree`, no longer kept: a later version's load takes it once. */
+export function takeKeptJson(tree: object): KeptJson | undefined {
+  const kept = keptFor.get(tree);
+  keptFor.delete(tree);
+  return kept;
+}
