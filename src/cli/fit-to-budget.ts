@@ -42,9 +42,10 @@ const ROUNDS = 8;
 /**
  * The fit at `budget` whose header takes the rows it counted: the header's rows depend on the fit (it
  * says `12 of 40 lines`, and whether the key was left out), so it is fitted again with them counted
- * until the two agree. When the budget holds the root and the focus paths but not the key, the key is
- * left out and the header says so, with the smallest budget that holds it (see `KeyLeftOut`); when it
- * holds not even those, BUDGET_TOO_SMALL names the smallest budget that works, found by fitting.
+ * until the two agree. When the budget holds the root and the focus paths but not the key (or not the
+ * rows it needs to say all it explains), the key is left out and the header says so, with the smallest
+ * budget that holds it (see `KeyLeftOut`); when it holds not even those words, or not the root and
+ * the focus paths, BUDGET_TOO_SMALL names the smallest budget that works, found by fitting.
  */
 export function fitToBudget<R extends { selection: Selection }>(f: BudgetFit<R>, budget: number): Fitted<R> {
   // The smallest budget that holds the key, by budget: asked once for each budget tried.
@@ -69,8 +70,8 @@ export function fitToBudget<R extends { selection: Selection }>(f: BudgetFit<R>,
         if (smallestOf(again) === undefined) throw again;
         continue;
       }
-      const { before, focused } = (err as EspalierError).details;
-      throw budgetTooSmall(budget, b, Number(before ?? 0), focused !== false);
+      const { before, focused, keySaid } = (err as EspalierError).details;
+      throw budgetTooSmall(budget, b, Number(before ?? 0), focused !== false, keySaid === true);
     }
     throw err;
   }
@@ -78,9 +79,10 @@ export function fitToBudget<R extends { selection: Selection }>(f: BudgetFit<R>,
 
 /**
  * The fit at `budget` with the header's rows agreed (see `fitToBudget`); the key may give way when
- * `spare`, and the header then says so, naming `holds(budget)`, the smallest budget that prints it,
- * where the budget has room for those words too (else the key is left out unsaid, as a budget too
- * small for them was never refused).
+ * `spare`, and the header then says so, naming `holds(budget)`, the smallest budget that prints it
+ * whole. The key gives way too where the rows that say all it explains would cost the root and the
+ * focus paths their place (a part of it would leave marks unexplained). A budget with no room for
+ * those words either is refused (BUDGET_TOO_SMALL), as one too small for the root and the focus paths.
  */
 function fitAt<R extends { selection: Selection }>(
   f: BudgetFit<R>,
@@ -90,26 +92,40 @@ function fitAt<R extends { selection: Selection }>(
 ): Fitted<R> {
   const key = f.keyRows(budget);
   const plain = agreed(f, budget, key, spare, undefined, f.header ? 1 : 0);
-  const keyed = key > 0 && !plain.result.selection.spared;
+  const printed = key > 0 && !plain.result.selection.spared;
+  // A fact table's fits cannot grow to find a budget with room for the whole key: its part stays.
+  const keyed = printed && (!plain.partial || !f.canGrow);
   if (!f.keyWanted || keyed)
     return { result: plain.result, keyRows: keyed ? plain.key : 0, keyLeftOut: undefined };
-  // Said in fewer words where the longer ones would take a line the budget has not got.
+  const refused = () => {
+    const { forcedCount } = plain.result.selection;
+    return budgetTooSmall(budget, budget + 1, f.fixed + plain.rows, forcedCount > 1, true);
+  };
+  // Asked whether this budget prints the whole key: it does not.
+  if (!spare) throw refused();
+  // Said in fewer words where the longer ones would take a line the budget has not got; the tree then
+  // takes the key's rows.
   const said = holds(budget);
   for (const keyLeftOut of [{ budget: said }, { budget: said, short: true }]) {
     try {
-      return { result: agreed(f, budget, key, spare, keyLeftOut, plain.rows).result, keyRows: 0, keyLeftOut };
+      return { result: agreed(f, budget, 0, spare, keyLeftOut, plain.rows).result, keyRows: 0, keyLeftOut };
     } catch (err) {
       if (smallestOf(err) === undefined) throw err;
     }
   }
-  return { result: plain.result, keyRows: 0, keyLeftOut: undefined };
+  // Neither the key nor a word that it was left out has room: a screen whose marks nothing explains
+  // is refused, as a budget too small for the root and the focus paths is (a fact table's fits cannot
+  // grow to find the smallest budget that says it: its screen stays as it was).
+  if (!f.canGrow) return { result: plain.result, keyRows: 0, keyLeftOut: undefined };
+  throw refused();
 }
 
 /**
  * The fit whose header (saying `keyLeftOut` when given) and key take the rows it counted. The key
  * takes the rows, from `key` up, that say all it explains on the screen fitted with them (see
  * `keyRowsNeeded`; more rows for the key, fewer lines for the tree, so the screen changes with them),
- * unless more than `key` would cost the key its place: then `key`.
+ * unless more than `key` would cost the key its place: then `key`, and `partial` (the key says only
+ * part of what the screen needs).
  */
 function agreed<R extends { selection: Selection }>(
   f: BudgetFit<R>,
@@ -118,8 +134,9 @@ function agreed<R extends { selection: Selection }>(
   spare: boolean,
   keyLeftOut: KeyLeftOut | undefined,
   rows: number,
-): { result: R; rows: number; key: number } {
-  const fewest = () => ({ ...headerAgreed(f, budget, key, spare, keyLeftOut, rows), key });
+): { result: R; rows: number; key: number; partial?: boolean } {
+  // The rows that say all cost the key its place: the fewest, which say only part of it.
+  const fewest = () => ({ ...headerAgreed(f, budget, key, spare, keyLeftOut, rows), key, partial: true });
   // The header's rows do not depend on the key's, so each try starts from the last one's.
   let counted = rows;
   for (let keyed = key; ; ) {

@@ -131,8 +131,9 @@ function versionNotes(
 /**
  * The reading of an input that espalier chose itself, for the header: children found under a field
  * other than the one asked for (`--read-as nodes` says nodes, not which field holds them), an object
- * keyed by path, every value a node when nothing looked like nodes, or a path list's folder sizes read
- * as totals (`du -ab`). None when `--read-as`, `--children-field` or `--folder-sizes` decided it.
+ * keyed by path, every value a node when nothing looked like nodes, an array of records read as rows
+ * (linked by id and parent, or by path), or a path list's folder sizes read as totals (`du -ab`). None
+ * when `--read-as`, `--input-format rows`, `--children-field` or `--folder-sizes` decided it.
  */
 export function chosenReading(opts: SharedCliOptions, tree: Tree): HeaderReading | undefined {
   const r = tree.reading;
@@ -148,6 +149,9 @@ export function chosenReading(opts: SharedCliOptions, tree: Tree): HeaderReading
   if (r.shape === "path-map" && r.pathMapField !== undefined)
     return { kind: "path-map", field: r.pathMapField };
   if (r.shape === "values") return { kind: "values" };
+  // An array of records read as rows rather than as nested roots, unless --input-format rows said so.
+  if (r.shape === "rows" && r.linkedBy !== undefined && opts.inputFormat !== "rows")
+    return { kind: "rows", by: r.linkedBy };
   if (r.folderTotals && opts.folderSizes === "auto") return { kind: "folder-totals" };
   return undefined;
 }

@@ -44,7 +44,7 @@ export const summaryRenderers: Record<OutputFormat, Renderer<SummaryResult>> = {
       chains: s.chains,
       header: headerOf(result, s),
       legend: s.legend,
-      key: s.key && !result.selection.spared,
+      key: s.key && !result.selection.spared && s.keyLeftOut === undefined,
     }),
   svg: async (result, s, tree) => {
     const { renderSvg, svgWidth } = await import("../render/icicle-svg.js");
@@ -157,7 +157,7 @@ function lineSettings<T extends ViewNode>(
     width: s.width,
     header: headerOf(result, s),
     legend: s.legend,
-    key: s.key && !result.selection.spared,
+    key: s.key && !result.selection.spared && s.keyLeftOut === undefined,
     ...(s.keyRows === undefined ? {} : { keyRows: s.keyRows }),
   };
 }

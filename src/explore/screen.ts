@@ -45,7 +45,8 @@ export function draw(session: Session, state: ExploreState, colour: boolean): Sc
   }
   while (out.length < rows - 1) out.push("");
   out.length = Math.max(0, rows - 1);
-  out.push(statusRow(session, state, cols, colour));
+  const keyWhole = !(fitted instanceof EspalierError) && fitted.keyWhole;
+  out.push(statusRow(session, state, cols, colour, keyWhole));
   return { rows: out, cursorRow };
 }
 
@@ -65,8 +66,18 @@ function tooSmallReason(err: EspalierError): string {
   return need !== undefined ? `it needs ${need} rows` : "enlarge the window";
 }
 
-/** The bottom row: where the cursor is and how the view is set, or the search or file being typed. */
-function statusRow(session: Session, state: ExploreState, cols: number, colour: boolean): string {
+/**
+ * The bottom row: where the cursor is and how the view is set, or the search or file being typed.
+ * Where the key above the lines says only part of what their marks mean, or had no room, it points
+ * to the help for them too (`h: keys, marks`).
+ */
+function statusRow(
+  session: Session,
+  state: ExploreState,
+  cols: number,
+  colour: boolean,
+  keyWhole: boolean,
+): string {
   const mode = state.mode;
   let left: string;
   let right: string;
@@ -94,16 +105,23 @@ function statusRow(session: Session, state: ExploreState, cols: number, colour: 
     const path = session.pathOf(state.spec.cursor);
     left = path === "" ? "/" : safeText(path);
     const foci = specFoci(state.spec).length;
-    right = state.message ?? `${foci} ${foci === 1 ? "focus" : "foci"} · ${state.spec.importance} · h: keys`;
+    const parts = [`${foci} ${foci === 1 ? "focus" : "foci"}`, state.spec.importance];
+    const help = keyWhole ? "h: keys" : "h: keys, marks";
+    // The pointer to the help stays whole longest: the view's settings go first on a narrow screen.
+    const said = [parts, parts.slice(1), []].map((p) => [...p, help].join(" · "));
+    right = state.message ?? said.find((t) => displayWidth(t) <= cols - STATUS_LEFT) ?? help;
   }
   if (state.message !== null && mode.kind !== "browse") right = state.message;
   const row = joinEnds(left, right, cols);
   return colour ? `${INVERSE}${row}${" ".repeat(Math.max(0, cols - displayWidth(row)))}${INVERSE_OFF}` : row;
 }
 
+/** Columns the status row keeps for its left end (the cursor's path) before the right is cut. */
+const STATUS_LEFT = 6;
+
 /** `left` and `right` on one row of `cols` columns; `left` gives way first (cut in the middle). */
 function joinEnds(left: string, right: string, cols: number): string {
-  const r = shortenEnd(right, Math.max(0, cols - 6));
+  const r = shortenEnd(right, Math.max(0, cols - STATUS_LEFT));
   const room = cols - displayWidth(r) - 2;
   if (room < 4) return shortenEnd(`${left}  ${right}`, cols);
   const l = shortenMiddle(left, room);

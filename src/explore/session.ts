@@ -21,7 +21,10 @@ import {
   keyExplainsSizes,
   keyFacts,
   keyLines,
+  keyMostRows,
   keyRows,
+  keyRowsNeeded,
+  keySaysAll,
 } from "../render/key-line.js";
 import { type LineGroup, lineGroups } from "../render/line-groups.js";
 import type { LineParts } from "../render/line-layout.js";
@@ -62,6 +65,11 @@ export interface Fitted {
   readonly headerLines: number;
   /** The view itself, for checks. */
   readonly view: HierarchyNode<ViewNode> | HierarchyNode<DiffViewNode>;
+  /**
+   * Whether the key above the lines says every mark and cut on them (see `keySaysAll`): false where
+   * the screen had room for none, or for only part of it (the status row then points to the help).
+   */
+  readonly keyWhole: boolean;
 }
 
 /**
@@ -100,8 +108,6 @@ export function summarySession(prepared: Prepared, look: LookOptions): Session {
       smallestThatFits((foci, budget, importance, width) => {
         // The header and the key take the screen's first rows as `espalier` prints them; the key gives
         // way on a small screen, and a header wider than the screen wraps, the fit counting its rows.
-        const key = keyRowsOf(budget, width);
-        const options = { ...fitOptions(index, look, foci, budget, importance), spareLines: key };
         const numbers = { units: look.units, sizes: tree.hasSizes };
         const head = (result: SummaryResult, lines: number) =>
           summaryHeaderLines(
@@ -110,20 +116,29 @@ export function summarySession(prepared: Prepared, look: LookOptions): Session {
             numbers,
             width,
           );
-        let result = summarize(prepared, { ...options, headerLines: 1 + key });
-        const rows = head(result, budget).length;
-        if (rows > 1) result = summarize(prepared, { ...options, headerLines: rows + key });
-        const header = head(result, result.selection.lines);
-        const lineOf = lineGroups(result.view, look.chains);
-        const keyed = result.selection.spared ? 0 : key;
-        const { lines, groups } = screenOf("summary", lineOf, lineParts, header, keyed, {
-          numbers,
-          width,
-          look,
-          foci: fociOf(result.view),
+        const { result, lineOf, lines, groups, whole } = keyAgreed(budget, width, (key, spare) => {
+          const options = {
+            ...fitOptions(index, look, foci, budget, importance),
+            spareLines: spare ? key : 0,
+          };
+          let result = summarize(prepared, { ...options, headerLines: 1 + key });
+          const rows = head(result, budget).length;
+          if (rows > 1) result = summarize(prepared, { ...options, headerLines: rows + key });
+          const header = head(result, result.selection.lines);
+          const lineOf = lineGroups(result.view, look.chains);
+          const keyed = result.selection.spared ? 0 : key;
+          const laid = screenOf("summary", lineOf, lineParts, header, keyed, {
+            numbers,
+            width,
+            look,
+            foci: fociOf(result.view),
+            most: keyMostRows(budget, width),
+          });
+          return { result, lineOf, ...laid };
         });
         const order = nodeOrder(tree, measures, result.scores);
-        return fitted(lines, groups, result.selection, order, lines.length - lineOf.length, result.view);
+        const before = lines.length - lineOf.length;
+        return fitted(lines, groups, result.selection, order, before, result.view, whole);
       }),
     ),
   };
@@ -142,8 +157,6 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
     headerLines: DIFF_HEADER_LINES,
     fit: remember(
       smallestThatFits((foci, budget, importance, width) => {
-        const key = keyRowsOf(budget, width);
-        const options = { ...fitOptions(index, look, foci, budget, importance), spareLines: key };
         const numbers = { units: look.units, sizes: tree.hasSizes };
         const head = (result: DiffResult, lines: number) =>
           diffHeaderLines(
@@ -153,23 +166,32 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
             numbers,
             width,
           );
-        // The totals header wraps at the width as `espalier diff` prints it, and the fit counts its lines.
-        let result = summarizeDiff(prepared, { ...options, headerLines: DIFF_HEADER_LINES + key });
-        const rows = head(result, budget).length;
-        if (rows > DIFF_HEADER_LINES)
-          result = summarizeDiff(prepared, { ...options, headerLines: rows + key });
-        const header = head(result, result.selection.lines);
-        // The header, the key, then the diff's lines laid out as one screen, as `espalier diff` prints.
-        const lineOf = lineGroups(result.view, look.chains);
-        const keyed = result.selection.spared ? 0 : key;
-        const { lines, groups } = screenOf("diff", lineOf, diffLineParts, header, keyed, {
-          numbers,
-          width,
-          look,
-          foci: result.fociPaths,
+        const { result, lineOf, lines, groups, whole } = keyAgreed(budget, width, (key, spare) => {
+          const options = {
+            ...fitOptions(index, look, foci, budget, importance),
+            spareLines: spare ? key : 0,
+          };
+          // The totals header wraps at the width as `espalier diff` prints it, and the fit counts its lines.
+          let result = summarizeDiff(prepared, { ...options, headerLines: DIFF_HEADER_LINES + key });
+          const rows = head(result, budget).length;
+          if (rows > DIFF_HEADER_LINES)
+            result = summarizeDiff(prepared, { ...options, headerLines: rows + key });
+          const header = head(result, result.selection.lines);
+          // The header, the key, then the diff's lines laid out as one screen, as `espalier diff` prints.
+          const lineOf = lineGroups(result.view, look.chains);
+          const keyed = result.selection.spared ? 0 : key;
+          const laid = screenOf("diff", lineOf, diffLineParts, header, keyed, {
+            numbers,
+            width,
+            look,
+            foci: result.fociPaths,
+            most: keyMostRows(budget, width),
+          });
+          return { result, lineOf, ...laid };
         });
         const order = diffOrder(tree, measures, result.scores, changeMeasures);
-        return fitted(lines, groups, result.selection, order, lines.length - lineOf.length, result.view);
+        const before = lines.length - lineOf.length;
+        return fitted(lines, groups, result.selection, order, before, result.view, whole);
       }),
     ),
   };
@@ -178,6 +200,33 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
 /** Rows the key takes on a screen of `budget` rows for the tree (see `keyRows`); none on a small one. */
 function keyRowsOf(budget: number, width: number): number {
   return budget >= KEY_MIN_BUDGET ? keyRows(width) : 0;
+}
+
+/** Rounds of fitting again with the rows the key needs before keeping the last that fitted. */
+const KEY_ROUNDS = 3;
+
+/**
+ * A screen whose key takes the rows it needs to say all it explains, as `espalier` fits it (see
+ * `fitToBudget`): laid out by `lay` with `keyRowsOf(budget, width)` rows first (which the fit may
+ * spare on a small screen), then again with the rows that screen's key needs (`needed`, see
+ * `keyRowsNeeded`), as long as the root and the focus paths keep their place with them; else the
+ * last screen that fitted (its key in part: `h` opens the help, which explains every mark).
+ */
+function keyAgreed<S extends { needed: number }>(
+  budget: number,
+  width: number,
+  lay: (key: number, spare: boolean) => S,
+): S {
+  let screen = lay(keyRowsOf(budget, width), true);
+  for (let round = 0; round < KEY_ROUNDS && screen.needed > 0; round++) {
+    try {
+      screen = lay(screen.needed, false);
+    } catch (err) {
+      if (tooSmall(err) === undefined) throw err;
+      break;
+    }
+  }
+  return screen;
 }
 
 /**
@@ -197,8 +246,9 @@ function screenOf<T extends ViewNode>(
     width,
     look,
     foci,
-  }: { numbers: NumberOptions; width: number; look: LookOptions; foci: readonly string[] },
-): { lines: string[]; groups: number[][] } {
+    most,
+  }: { numbers: NumberOptions; width: number; look: LookOptions; foci: readonly string[]; most: number },
+): { lines: string[]; groups: number[][]; needed: number; whole: boolean } {
   const context = keyContext({
     sizes: numbers.sizes,
     header: { budget: 0, lines: 0, foci, ...look.inputFacts },
@@ -209,10 +259,13 @@ function screenOf<T extends ViewNode>(
   const screen = screenLines(lineOf, parts, { ...numbers, width, palette: look.palette }, explained);
   const quiet = look.palette?.quiet ?? ((t: string) => t);
   const facts = factsOf(screen);
-  const key = keyed > 0 ? keyLines(kind, facts, width).map(quiet) : [];
+  const key = keyed > 0 ? keyLines(kind, facts, width, "text", keyed).map(quiet) : [];
   const lines = [...header, ...key, ...screen.lines];
   const groups = [...[...header, ...key].map(() => []), ...lineOf.map((g) => g.nodes.map((n) => n.index))];
-  return { lines, groups };
+  // More rows than it has, where those say what these cannot (see `keyRowsNeeded`); 0 for none.
+  const rows = keyed > 0 ? keyRowsNeeded(kind, facts, width, most) : 0;
+  const whole = keyed > 0 && keySaysAll(kind, facts, key);
+  return { lines, groups, needed: rows > keyed ? rows : 0, whole };
 }
 
 /** What a session of either kind holds of its tree: the tree, how its nodes print, and the live search. */
@@ -246,6 +299,7 @@ function fitted(
   order: NodeOrder,
   headerLines: number,
   view: Fitted["view"],
+  keyWhole: boolean,
 ): Fitted {
   const shown = Int32Array.from(selection.admitted).sort();
   return {
@@ -260,6 +314,7 @@ function fitted(
     selection,
     headerLines,
     view,
+    keyWhole,
   };
 }
 

@@ -203,25 +203,28 @@ class Chosen implements Selection {
 
 /**
  * BUDGET_TOO_SMALL, saying what takes the lines: those before the tree (`before`: the header, a key
- * or legend) and the root, with the focus paths only when one is more than the root (`focused`).
+ * or legend) and the root, with the focus paths only when one is more than the root (`focused`), and
+ * the key or the header's words that it was left out where neither had room (`keySaid`).
  */
 export function budgetTooSmall(
   budget: number,
   smallest: number,
   before: number,
   focused: boolean,
+  keySaid = false,
 ): EspalierError {
   const held = [
     ...(before > 0 ? [`the ${linesOf(before)} before the tree`] : []),
     "the root",
     ...(focused ? ["the focus paths"] : []),
+    ...(keySaid ? ["the key or a note that it was left out"] : []),
   ];
   const list = held.length === 1 ? held[0] : `${held.slice(0, -1).join(", ")} and ${held[held.length - 1]}`;
   return new EspalierError(
     "BUDGET_TOO_SMALL",
     `a budget of ${linesOf(budget)} cannot hold ${list}; the smallest budget that works is ${smallest}`,
     undefined,
-    { budget, smallest, before, focused },
+    { budget, smallest, before, focused, ...(keySaid ? { keySaid } : {}) },
   );
 }
 

@@ -96,6 +96,11 @@ export interface TreeReading {
    */
   readonly namesFrom?: string;
   /**
+   * A table or rows: the columns that link the rows, the id and parent columns or the path column. JSON
+   * rows are one reading of an array among others (nested roots), so the header names these.
+   */
+  readonly linkedBy?: string[];
+  /**
    * Nested nodes of which none has the name field (this field, `name` by default) and none is keyed by
    * name below the top: every node is named "". The header says so, so a reader sees to point
    * --name-field at the field that holds names (a mount table's `target`).

@@ -1,5 +1,5 @@
 import type { HierarchyNode } from "d3-hierarchy";
-import { changeKinds, treeChangeKinds } from "../diff/changes.js";
+import { type ChangeKind, changeKinds, treeChangeKinds } from "../diff/changes.js";
 import type { DiffTotals } from "../diff/prepared-diff.js";
 import type { NoteFact } from "../model/reading-note.js";
 import { safeText } from "../model/safe-text.js";
@@ -134,6 +134,7 @@ export type VersionReading =
   | { kind: "children"; field: string }
   | { kind: "path-map"; field: string }
   | { kind: "values" }
+  | { kind: "rows"; by: readonly string[] }
   | { kind: "folder-totals" };
 
 /** An input read as its format reads (named only beside another version's other reading). */
@@ -218,22 +219,43 @@ export function diffHeaderLines(
   options: NumberOptions,
   width?: number,
 ): string[] {
-  return wrapHeader(diffParts(totals, by, header, options, plainStyle), header, width);
+  const listed = diffParts(totals, by, header, options, plainStyle);
+  if (width === undefined) return wrapHeader(listed, header, width);
+  // The kinds none of the nodes has said once (`0 moved, renamed or edited`) where that takes fewer
+  // lines: decided as if the whole budget were used, as `wrapHeader` decides its breaks.
+  const grouped = diffParts(totals, by, header, options, plainStyle, true);
+  const most = { ...header, lines: header.budget };
+  const fewer = wrapHeader(grouped, most, width).length < wrapHeader(listed, most, width).length;
+  return wrapHeader(fewer ? grouped : listed, header, width);
 }
 
-/** The diff header's clauses (joined by `; `), naming at most `fociShown` foci. */
+/**
+ * The diff header's clauses (joined by `; `), naming at most `fociShown` foci; `grouped`: the kinds
+ * with no node said together after the others (`3 added, 340 removed, 0 moved, renamed or edited`),
+ * where two or more have none.
+ */
 function diffParts(
   totals: DiffTotals,
   by: "id" | "path",
   header: HeaderOptions,
   options: NumberOptions,
   style: HeaderStyle,
+  grouped = false,
 ): HeaderParts {
   const w = style.words;
   // A diff of graphs counts edges linked and unlinked too; a diff of trees has none to count.
-  const kinds = (totals.graph ? changeKinds : treeChangeKinds)
-    .map((k) => `${formatCount(totals.changes[k])} ${k}${k === "edited" ? comparedText(header) : ""}`)
-    .join(", ");
+  const all = totals.graph ? changeKinds : treeChangeKinds;
+  const said = (k: ChangeKind) => `${k}${k === "edited" ? comparedText(header) : ""}`;
+  const none = all.filter((k) => totals.changes[k] === 0);
+  const kinds =
+    grouped && none.length >= 2
+      ? [
+          ...all
+            .filter((k) => totals.changes[k] > 0)
+            .map((k) => `${formatCount(totals.changes[k])} ${said(k)}`),
+          `0 ${none.slice(0, -1).map(said).join(", ")} or ${said(none[none.length - 1])}`,
+        ].join(", ")
+      : all.map((k) => `${formatCount(totals.changes[k])} ${said(k)}`).join(", ");
   let counts = w(`${formatCount(totals.old.nodes)} -> ${formatCount(totals.new.nodes)} nodes`);
   // Entries that are empty objects (`{}`) count as nodes: how many of each version's are such.
   if (totals.old.empty || totals.new.empty)
@@ -281,7 +303,7 @@ function sizeWord(header: HeaderOptions, style: HeaderStyle): string {
 
 /**
  * `2 missing counted as nodes` (the loader's notes), `read at /data/teams`, `children under dependencies`, `paths from packages` (`paths from keys` for the top level),
- * `every value a node`, `folder sizes read as totals with contents`, `3 short rows filled`: the
+ * `every value a node`, `rows linked by path`, `folder sizes read as totals with contents`, `3 short rows filled`: the
  * header's clauses on how the input was read; none when the options chose the reading.
  */
 function readingParts(header: HeaderOptions, style: HeaderStyle): string[] {
@@ -354,6 +376,8 @@ function readingText(reading: VersionReading | ListedReading, style: HeaderStyle
   if (reading.kind === "listed") return w(listedWords[reading.shape]);
   if (reading.kind === "values") return w("every value a node");
   if (reading.kind === "folder-totals") return w("folder sizes read as totals with contents");
+  if (reading.kind === "rows")
+    return `${w("rows linked by ")}${reading.by.map((f) => style.name(safeText(f, 40))).join(w(" and "))}`;
   const field = style.name(safeText(reading.field, 40));
   if (reading.kind === "children") return `${w("children under ")}${field}`;
   return reading.field === "" ? w("paths from keys") : `${w("paths from ")}${field}`;
@@ -470,7 +494,8 @@ function packClauses(clauses: readonly string[], width: number): string[] {
       const start = lines.length === 0 ? "" : HEADER_INDENT;
       if (fits(start + piece)) line = start + piece;
       else {
-        const broken = wrapWords(piece, width - displayWidth(HEADER_INDENT)).map((l, j) =>
+        const room = width - displayWidth(HEADER_INDENT);
+        const broken = wrapWords(longWordsCut(piece, room), room).map((l, j) =>
           j === 0 ? start + l : HEADER_INDENT + l,
         );
         line = broken.pop()!;
@@ -480,6 +505,26 @@ function packClauses(clauses: readonly string[], width: number): string[] {
   });
   lines.push(line);
   return lines;
+}
+
+/** Fewest columns a word longer than a line keeps beside the word before it (see {@link longWordsCut}). */
+const LONG_WORD_KEPT = 12;
+
+/**
+ * `text` with each word longer than a line of `room` columns (a focus's long path) cut to the room
+ * its line has after the word before it (`focus doc/liberror-prone-java/exa…`), where that keeps
+ * {@link LONG_WORD_KEPT} columns of it: such a word is cut anyway, and on a line of its own it would
+ * leave the word before it alone on another.
+ */
+function longWordsCut(text: string, room: number): string {
+  const words = text.split(" ");
+  return words
+    .map((word, k) => {
+      if (k === 0 || displayWidth(word) <= room) return word;
+      const left = room - displayWidth(words[k - 1]) - 1;
+      return left >= LONG_WORD_KEPT ? shortenEnd(word, left) : word;
+    })
+    .join(" ");
 }
 
 /** The foci of a view as the header prints them: a row id where rows have ids, else the path. */

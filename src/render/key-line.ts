@@ -194,17 +194,19 @@ const ROW_INDENT = "  ";
 
 /**
  * Most rows a key takes where fewer cannot say every part on screen (see {@link keyRowsNeeded}); past
- * them it says less, as the one- and two-row keys do. A choice of this project, no source.
+ * them it says less, as the one- and two-row keys do. Eight hold every part a 30-column diff can
+ * need. A choice of this project, no source.
  */
-export const KEY_MOST_ROWS = 5;
+export const KEY_MOST_ROWS = 8;
 
 /**
- * Most lines the key may take in a budget of `budget` lines at `width`: {@link KEY_MOST_ROWS}, and no
- * more than a quarter of the budget (the tree keeps the rest), but never fewer than `keyRows(width)`.
- * A choice of this project, no source.
+ * Most lines the key may take in a budget of `budget` lines at `width`: {@link KEY_MOST_ROWS}, never
+ * more than the budget, never fewer than `keyRows(width)`. A screen whose marks go unexplained reads
+ * wrongly, so the key takes from the tree what it needs; where that leaves no room for the root and
+ * the focus paths, the CLI leaves it out and says so (see `fitToBudget`).
  */
 export function keyMostRows(budget: number, width?: number): number {
-  return Math.max(keyRows(width), Math.min(KEY_MOST_ROWS, Math.floor(budget / 4)));
+  return Math.max(keyRows(width), Math.min(KEY_MOST_ROWS, budget));
 }
 
 /**
@@ -242,6 +244,14 @@ function partsSaid(kind: "summary" | "diff", facts: KeyFacts, lines: readonly st
     .filter((p) => p[3] !== "more")
     .filter((p) => [p[0], p[1], p[2]].some((w) => text.includes(w))).length;
   return marks + parts;
+}
+
+/**
+ * Whether the key `lines` (see `keyLines`) say every mark in `facts` and every part but the pointer
+ * to more, in any of its forms.
+ */
+export function keySaysAll(kind: "summary" | "diff", facts: KeyFacts, lines: readonly string[]): boolean {
+  return saysAll(kind, facts, lines);
 }
 
 /** Whether `lines` say every mark in `facts` and every part but the pointer to more, in any of its forms. */

@@ -182,6 +182,14 @@ export const inputReadingSchema = z
       .describe(
         "A table or rows linked by id without the name column (--name-field): the id column, whose values name the nodes. Absent when names come from the name column.",
       ),
+    linkedBy: z
+      .array(z.string())
+      .min(1)
+      .max(2)
+      .optional()
+      .describe(
+        "A table or rows (not a graph): the fields that link the rows into a tree, the id and parent fields, or the path field.",
+      ),
     notes: z
       .array(readingNoteSchema)
       .min(1)

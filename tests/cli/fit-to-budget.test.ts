@@ -38,17 +38,34 @@ describe("fitToBudget(fit, budget) through the command line", () => {
         const lines = r.stdout.trimEnd().split("\n");
         expect(lines.length, `${width}/${budget}`).toBeLessThanOrEqual(budget);
         expect(r.stdout).toContain(`${lines.length} of ${budget} lines`);
-        // Either the key is printed, or the header says where it is not, or no room was left even for that.
+        // Either the key is printed, or the header says where it is (a budget with room for neither is refused).
         const keyed = lines.some((l) => l.startsWith("key: "));
-        const said = /key left out: --budget (\d+) has room/.exec(r.stdout.replaceAll("\n  ", " "));
+        const said = /key left out: --budget (\d+) has room|no key: --budget (\d+)/.exec(
+          r.stdout.replaceAll("\n  ", " "),
+        );
+        expect(keyed || said !== null, `${width}/${budget}:\n${r.stdout}`).toBe(true);
         if (said) {
-          const room = await at(Number(said[1]), width);
+          const room = await at(Number(said[1] ?? said[2]), width);
           expect(
             room.stdout.split("\n").some((l) => l.startsWith("key: ")),
-            `${width}/${said[1]}`,
+            `${width}/${said[1] ?? said[2]}`,
           ).toBe(true);
         }
-        if (!keyed && !said) expect(lines.length).toBe(budget);
       }
+  });
+
+  it("refuses a budget with room for the root and the focus paths but neither for the key nor for saying it was left out", async () => {
+    // At 32 columns the header wraps: 14 lines hold it, the 12 focus-path lines and nothing more.
+    // (Before, such a screen printed no key and no word of one: its marks unexplained.)
+    const refused = await at(14, 32);
+    expect(refused.code).toBe(2);
+    expect(refused.stderr).toContain("[BUDGET_TOO_SMALL]");
+    expect(refused.stderr).toContain("the key or a note that it was left out");
+    const smallest = Number(/smallest budget that works is (\d+)/.exec(refused.stderr)![1]);
+    const works = await at(smallest, 32);
+    expect(works.code).toBe(0);
+    expect(works.stdout.replaceAll("\n  ", " ")).toMatch(
+      /^key: |key left out: --budget \d+ has room|no key: --budget/m,
+    );
   });
 });

@@ -57,6 +57,61 @@ describe("the header says how espalier chose to read a JSON or YAML input", () =
   });
 });
 
+describe("the header says an array of records was read as rows, and by which fields", () => {
+  // A JSON Patch (RFC 6902 §3, §4: an array of operations, each with "op" and "path"): its "path"
+  // member makes it rows linked by path, one reading of an array among others (nested roots).
+  const PATCH = JSON.stringify([
+    { op: "add", path: "/berths/0", value: { id: "B-7" } },
+    { op: "replace", path: "/berths/1/owner", value: "quay team" },
+    { op: "remove", path: "/tariff" },
+  ]);
+
+  it("rows linked by path: '/' (the absolute paths' root), berths, 0, 1, owner, tariff are 6 nodes", async () => {
+    const r = await cli(["-"], { stdin: PATCH });
+    expect(r.code).toBe(0);
+    expect(head(r.stdout)).toBe("summary: 6 nodes; rows linked by path; no focus; 7 of 40 lines");
+    const json = await cli(["-", "--format", "json"], { stdin: PATCH });
+    expect(JSON.parse(json.stdout).input).toMatchObject({ shape: "rows", linkedBy: ["path"] });
+  });
+
+  it("a JSON Patch with two operations on one path is DUPLICATE_PATH naming --read-as values, which reads it", async () => {
+    // RFC 6902 §4.6 and §4.3: a "test" then a "replace" of the same path, as patches often pair them.
+    const pair = JSON.stringify([
+      { op: "test", path: "/tariff", value: 4 },
+      { op: "replace", path: "/tariff", value: 5 },
+    ]);
+    const r = await cli(["-"], { stdin: pair });
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/^espalier: <stdin>:1:\d+: .*--read-as values \[DUPLICATE_PATH\]\n$/);
+    const values = await cli(["-", "--read-as", "values", "--format", "json"], { stdin: pair });
+    expect(values.code).toBe(0);
+    // The array, its 2 operations, and their op, path and value: 1 + 2 + 6 nodes, the text's bytes.
+    expect(JSON.parse(values.stdout).totals).toEqual({ nodes: 9, size: Buffer.byteLength(pair) });
+  });
+
+  it("rows linked by id and parent, YAML too; nothing said under --input-format rows, nor for CSV", async () => {
+    const yaml = "- id: q1\n  parent:\n  name: quay\n- id: q2\n  parent: q1\n  name: crane\n";
+    const r = await cli(["-", "--input-format", "yaml"], { stdin: yaml });
+    expect(r.code).toBe(0);
+    expect(head(r.stdout)).toBe("summary: 2 nodes; rows linked by id and parent; no focus; 3 of 40 lines");
+    const asked = await cli(["-", "--input-format", "rows"], { stdin: PATCH });
+    expect(head(asked.stdout)).toBe("summary: 6 nodes; no focus; 7 of 40 lines");
+    const csv = await cli(["-", "--input-format", "csv"], {
+      stdin: "id,parent,name\nq1,,quay\nq2,q1,crane\n",
+    });
+    expect(head(csv.stdout)).toBe("summary: 2 nodes; no focus; 3 of 40 lines");
+    expect(
+      JSON.parse(
+        (
+          await cli(["-", "--input-format", "csv", "--format", "json"], {
+            stdin: "id,parent\nq1,\n",
+          })
+        ).stdout,
+      ).input.linkedBy,
+    ).toEqual(["id", "parent"]);
+  });
+});
+
 describe("the header says when a path list's folder sizes were read as totals", () => {
   // Shaped as GNU du -ab prints (each folder after its contents, with its total); sizes invented.
   const DU = "100\tharbor/tide.log\n2000\tharbor/charts/reef.svg\n6096\tharbor/charts\n10292\tharbor\n";

@@ -1,5 +1,12 @@
+import { execFileSync } from "node:child_process";
+import { mkdtempSync, rmSync, symlinkSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { cli } from "../helpers/cli.js";
+import { isGnuTool, writeFiles } from "../helpers/file-tree.js";
+
+const gnuTar = isGnuTool("tar");
 
 // Field test: `ls -l` of a folder and `tar tv` of an archive piped in (invented names here). Each line
 // starts with a file's mode, then owner, size, date and name (POSIX ls -l; from memory): read as a
@@ -19,15 +26,51 @@ const tar = [
 
 describe("a listing whose lines start with file modes (ls -l, tar tv)", () => {
   it("is PARSE_PATHS at its first line, naming find -printf and tar tf", async () => {
-    for (const stdin of [ls, tar]) {
-      const r = await cli(["-"], { stdin });
-      expect(r.code).toBe(2);
-      expect(r.stdout).toBe("");
-      expect(r.stderr).toMatch(
-        /^espalier: <stdin>:1:1: every line starts with a file's mode .*tar tf.*\[PARSE_PATHS\]\n$/,
-      );
-    }
+    const r = await cli(["-"], { stdin: ls });
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr).toMatch(
+      /^espalier: <stdin>:1:1: every line starts with a file's mode .*tar tf.*\[PARSE_PATHS\]\n$/,
+    );
   });
+
+  it("tar tv's lines are PARSE_PATHS naming an awk that keeps each size and name", async () => {
+    const r = await cli(["-"], { stdin: tar });
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr).toMatch(
+      /^espalier: <stdin>:1:1: .*tar tvf FILE \| awk '.*' \| espalier -.*\[PARSE_PATHS\]\n$/,
+    );
+  });
+
+  it.skipIf(!gnuTar)(
+    "the awk the message names reads GNU tar's own tv listing: sizes of the files written",
+    async () => {
+      const base = mkdtempSync(join(tmpdir(), "espalier-tar-"));
+      try {
+        // Source: GNU tar tv prints each member's size in bytes (0 for folders and links); the files'
+        // sizes are those written, 310 + 4,097 + 12 bytes.
+        writeFiles(join(base, "tide"), { "README.md": 310, "charts/neap.svg": 4097, "charts/log 1.txt": 12 });
+        symlinkSync("README.md", join(base, "tide", "readme-link"));
+        execFileSync("tar", ["-cf", "tide.tar", "tide"], { cwd: base });
+        const listing = execFileSync("tar", ["-tvf", "tide.tar"], { cwd: base, encoding: "utf8" });
+        const told = (await cli(["-"], { stdin: listing })).stderr;
+        const awk = /\| awk '(.*)' \| espalier -/.exec(told)?.[1];
+        expect(awk).toBeDefined();
+        const paths = execFileSync("awk", [awk!], { input: listing, encoding: "utf8" });
+        const doc = JSON.parse((await cli(["-", "--format", "json"], { stdin: paths })).stdout);
+        // tide, charts, the three files and the link (named without its target).
+        expect(doc.totals).toEqual({ nodes: 6, size: 310 + 4097 + 12 });
+        expect(doc.root.children.map((c: { name: string }) => c.name).sort()).toEqual([
+          "README.md",
+          "charts",
+          "readme-link",
+        ]);
+      } finally {
+        rmSync(base, { recursive: true, force: true });
+      }
+    },
+  );
 
   it("reads such lines as paths when asked, and a list where only some lines look so", async () => {
     const asked = await cli(["-", "--input-format", "paths", "--bare"], { stdin: tar });

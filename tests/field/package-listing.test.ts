@@ -187,3 +187,39 @@ describe("npm ls --all --parseable --long", () => {
     expect(result.code).toBe(0);
   });
 });
+
+describe("npm ls --all as text (a tree already drawn)", () => {
+  // Shaped as npm 11 prints it here (`npm ls --all`, and `--unicode=false`), the packages invented: read
+  // as a path list each line was one path named with the drawing, a scope's "/" splitting it, exit 0
+  // (or DUPLICATE_PATH where a deduped line repeated another, saying nothing of what the input was).
+  const drawn = [
+    "tidewater@4.2.0 /srv/tidewater",
+    "├─┬ @tidewater/ledger@1.3.0",
+    "│ └── brackish-streams@0.9.1 deduped",
+    "├─┬ brackish-streams@0.9.1",
+    "│ └── tidal-math@2.0.0",
+    "└── UNMET OPTIONAL DEPENDENCY @tidewater/ledger-darwin-arm64@1.3.0",
+    "",
+  ].join("\n");
+  const ascii = drawn
+    .replace(/├─┬ |├── /g, "+-- ")
+    .replace(/└── /g, "`-- ")
+    .replace(/│ /g, "| ");
+
+  it.each([
+    ["drawn with lines", drawn],
+    ["drawn with ASCII", ascii],
+    ["with a deduped line repeated", `${drawn}${drawn.split("\n")[2]}\n`],
+  ])("%s is PARSE_PATHS at its first drawn line, naming npm ls --all --json", async (_, text) => {
+    const result = await cli(["-"], { stdin: text });
+    expect(result.code).toBe(2);
+    expect(result.stdout).toBe("");
+    expect(result.stderr).toMatch(/^espalier: <stdin>:2:1: .*npm ls --all --json .*\[PARSE_PATHS\]\n$/);
+  });
+
+  it("paths that start with a bar or a plus are read when most lines do not", async () => {
+    const result = await cli(["-", "--format", "json"], { stdin: "| notes.txt\ntide/a\ntide/b\nquay/c\n" });
+    expect(result.code).toBe(0);
+    expect(JSON.parse(result.stdout).totals.nodes).toBe(7);
+  });
+});

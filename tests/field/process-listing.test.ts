@@ -1,5 +1,16 @@
+import { execFileSync } from "node:child_process";
 import { describe, expect, it } from "vitest";
 import { cli } from "../helpers/cli.js";
+
+/** Whether the machine has a ps that runs (procps-ng here). */
+const hasPs = (() => {
+  try {
+    execFileSync("ps", ["-ef"], { stdio: "ignore" });
+    return true;
+  } catch {
+    return false;
+  }
+})();
 
 // Field tests: a process listing as `ps -eo pid,ppid,comm` prints it (procps-ng on this machine: a
 // header of right-aligned column names, then one process a line, the numbers padded with spaces on the
@@ -128,6 +139,55 @@ describe("a process listing with more columns (ps -eo pid,ppid,rss,comm)", () =>
     expect(result.code).toBe(2);
     expect(result.stderr).toContain("ps -eo pid=,ppid=,comm= | awk");
     expect(result.stderr).not.toContain("--size-field");
+  });
+});
+
+describe("a process listing with a user's name first (ps -ef, ps aux)", () => {
+  // Shaped as procps-ng's ps -ef prints here (UID, then PID and PPID, a command with "/" and spaces
+  // last), the names invented: no line starts with a number, so the rule above did not hold, and each
+  // line was read as one path split at its "/"s, exit 0.
+  const psEf = [
+    "UID          PID    PPID  C STIME TTY          TIME CMD",
+    "tide           1       0  0 13:48 ?        00:00:01 /srv/tide-init --harbor",
+    "tide          57       1  0 13:49 ?        00:00:00 /usr/bin/quay-daemon -c /etc/quay.conf",
+    "kelp         112      57  0 18:33 pts/0    00:00:00 ledger sync",
+    "",
+  ].join("\n");
+
+  it("is PARSE_PATHS at line 1 naming the pid,ppid,comm conversion", async () => {
+    const result = await cli(["-"], { stdin: psEf });
+    expect(result.code).toBe(2);
+    expect(result.stdout).toBe("");
+    expect(result.stderr).toMatch(
+      /^espalier: <stdin>:1:1: .*fills its columns.*ps -eo pid=,ppid=,comm= .*\[PARSE_PATHS\]\n$/,
+    );
+  });
+
+  it("keeps the columns of ps -eo user,pid,ppid,comm, every one known", async () => {
+    const text = [
+      "USER         PID    PPID COMMAND",
+      "tide           1       0 tide-init",
+      "kelp          57       1 quay",
+      "",
+    ];
+    const result = await cli(["-"], { stdin: text.join("\n") });
+    expect(result.stderr).toContain("ps -eo user=,pid=,ppid=,comm= ");
+  });
+
+  it.skipIf(!hasPs)("the machine's own ps -ef and ps aux are PARSE_PATHS too", async () => {
+    for (const args of [["-ef"], ["aux"]]) {
+      const result = await cli(["-"], { stdin: execFileSync("ps", args, { encoding: "utf8" }) });
+      expect(result.code, args[0]).toBe(2);
+      expect(result.stderr, args[0]).toMatch(/^espalier: <stdin>:1:1: .*\[PARSE_PATHS\]\n$/);
+    }
+  });
+
+  it("a list whose first line is words in capitals and whose paths hold fewer words is read", async () => {
+    const list = "HARBOR LOGS\nHARBOR LOGS/tide.log\nquay/berths.txt\n";
+    const result = await cli(["-", "--format", "json"], { stdin: list });
+    expect(result.code).toBe(0);
+    // "HARBOR LOGS" (listed, holding tide.log), tide.log, quay, berths.txt, and the root joining them.
+    expect(JSON.parse(result.stdout).totals.nodes).toBe(5);
   });
 });
 

@@ -1,5 +1,5 @@
 import { execFileSync } from "node:child_process";
-import { mkdirSync, mkdtempSync, rmSync, symlinkSync, writeFileSync } from "node:fs";
+import { linkSync, mkdirSync, mkdtempSync, rmSync, symlinkSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -206,3 +206,33 @@ describe.skipIf(!gnuTools)("loadTree(du -ab and du -b output itself, paths): fol
     expect(measure(tree).size[0]).toBe(duSizes(base, "tree-root").get("tree-root"));
   });
 });
+
+describe.skipIf(!gnuTools)(
+  "loadTree(listings of a file with two names, paths): counted once per name listed",
+  () => {
+    // Source: GNU coreutils du(1): a file with several hard links is counted once (its first name met),
+    // unless -l (--count-links) counts it per name; GNU find lists every name. docs/input.md, Hard links.
+    const top = () => join(base, "linked-root");
+    const sizeOf = (listing: string) =>
+      measure(loadTree(listing, { ...defaultLoadOptions, format: "paths" })).size[0];
+    const du = (flags: string) =>
+      Number(execFileSync("du", [flags, top()], { encoding: "utf8" }).split("\n").at(-2)!.split("\t")[0]);
+
+    beforeAll(() => {
+      writeFiles(top(), { "charts/neap.bin": 5000, "tide.txt": 3 });
+      mkdirSync(join(top(), "backup"));
+      linkSync(join(top(), "charts", "neap.bin"), join(top(), "backup", "neap.bin"));
+    });
+
+    it("a find listing counts the file under both names: du -sbl's size, 5,000 bytes over du -sb's", () => {
+      const size = sizeOf(execFileSync("find", [top(), "-printf", "%s\\t%p\\n"], { encoding: "utf8" }));
+      expect(size).toBe(du("-sbl"));
+      expect(size - du("-sb")).toBe(5000);
+    });
+
+    it("du -ab lists it once, at du -sb's size; du -abl under both names, at du -sbl's", () => {
+      expect(sizeOf(execFileSync("du", ["-ab", top()], { encoding: "utf8" }))).toBe(du("-sb"));
+      expect(sizeOf(execFileSync("du", ["-abl", top()], { encoding: "utf8" }))).toBe(du("-sbl"));
+    });
+  },
+);

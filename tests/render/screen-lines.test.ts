@@ -125,6 +125,9 @@ describe("a diff at 40, 80 and 200 columns (field test: '?' where a bare count f
     expect(lines.slice(key)).toEqual([
       "key: ':' a change or on the way to one",
       "  counts: all below; sizes cut; '…' cut",
+      // The header's kinds grouped (one line fewer) leave a line that the fit gave the key first: a
+      // screen with one more tree line needed a third key row, and the key keeps the rows counted.
+      "  --legend explains more",
       ": tide…  11 nodes  (1 hidden, 0 changed)",
       "  : led…  4 nodes  (1 hidden, 0 changed)",
       "    : [resized] estuary-path",

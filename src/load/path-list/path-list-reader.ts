@@ -1,5 +1,5 @@
 import { Buffer, isUtf8 } from "node:buffer";
-import { EspalierError, quoted, say } from "../../errors.js";
+import { EspalierError, quoted, quotedList, say } from "../../errors.js";
 import { asBuffer } from "../../model/buffer-codecs.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { ReadingNote } from "../../model/reading-note.js";
@@ -14,6 +14,7 @@ import { checkReadingOptions } from "../reading-options.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { WrittenPaths } from "../written-paths.js";
 import { type FolderSizes, folderTotals, type PlacedSizes } from "./folder-totals.js";
+import { gitUnquoted } from "./git-quoted.js";
 import {
   grandTotalNote,
   isGrandTotal,
@@ -33,6 +34,7 @@ const dot = 46;
 const colon = 58;
 const backslash = 92;
 const comma = 44;
+const quote = 34;
 
 /**
  * A path list read from UTF-8 bytes, whole or in chunks: one "/"-separated path per line, blank lines
@@ -82,6 +84,15 @@ export class PathListReader {
   private numberFirstLines = 0;
   /** Unsized lists: lines that start with a file's mode (`-rw-r--r--`), as `ls -l` and `tar tv` print. */
   private modeFirstLines = 0;
+  /** Unsized lists: lines that start with a drawn tree's lines (`├── `, `+-- `), and the first one's number. */
+  private drawnLines = 0;
+  private firstDrawn = 0;
+  /** Unsized lists: lines of the first {@link COMMA_LINES} holding two spaces between words (see `end`). */
+  private spacedLines = 0;
+  /** Unsized lists: lines as git diff --stat prints them (`path | 12 ++--`), and its closing count. */
+  private statLines = 0;
+  /** Whether the first line that starts with a mode is shaped as GNU tar tv prints it (see {@link TAR_LINE}). */
+  private tarFirst: boolean | undefined;
   /** Whether the first unsized line is `total N`, as `ls -l` prints first. */
   private totalFirst = false;
   /** Whether the first unsized line is words and spaces without a "/", as a header of columns is. */
@@ -90,6 +101,11 @@ export class PathListReader {
   private packageLines = 0;
   /** The first line's words when it reads as a header of columns (see `headerFirst`). */
   private headerWords: string[] = [];
+  /**
+   * Whether that header is words in capitals (`UID PID PPID C STIME TTY TIME CMD`, as ps prints) and
+   * each of the first {@link COMMA_LINES} lines after it holds as many fields split by spaces.
+   */
+  private filledColumns = false;
   /**
    * Unsized lists: the commas on the first line, and whether each of the first {@link COMMA_LINES}
    * lines holds as many: rows of a CSV table without its header row (see `end`).
@@ -219,7 +235,15 @@ export class PathListReader {
       // `ps -eo pid,ppid,comm`: a header of columns aligned with spaces, then a number first on every
       // line. Read as paths, each line would be one path (a process name with a "/" split into
       // folders), with exit 0.
-      throw new EspalierError("PARSE_PATHS", columnsAlignedMessage(this.headerWords), {
+      throw new EspalierError("PARSE_PATHS", columnsAlignedMessage(this.headerWords, "number"), {
+        line: this.firstLine,
+        column: 1,
+      });
+    }
+    if (this.detected && this.sized === false && this.filledColumns && this.pathLines > 2) {
+      // `ps -ef`, `ps aux`: a header of capitals, then lines that fill its columns, a user's name first.
+      // Read as paths, each line would be one path, a command's "/"s splitting it into folders.
+      throw new EspalierError("PARSE_PATHS", columnsAlignedMessage(this.headerWords, "filled"), {
         line: this.firstLine,
         column: 1,
       });
@@ -232,7 +256,30 @@ export class PathListReader {
     ) {
       // `ls -l` or `tar tv`: each line a file's mode, owner, size, date and name. Read as paths, each
       // whole line would be one path split at its "/"s, the sizes in the names, with exit 0.
-      throw new EspalierError("PARSE_PATHS", MODES_FIRST, { line: this.firstLine, column: 1 });
+      throw new EspalierError("PARSE_PATHS", this.tarFirst ? TAR_LINES : MODES_FIRST, {
+        line: this.firstLine,
+        column: 1,
+      });
+    }
+    if (
+      this.detected &&
+      this.sized === false &&
+      this.drawnLines >= 2 &&
+      this.drawnLines >= this.pathLines - 1
+    ) {
+      // `npm ls --all`: a tree already drawn, a package a line under `├── ` and `│ `. Read as paths, each
+      // line would be one path named with the drawing, a scoped package's "/" splitting it, exit 0.
+      throw new EspalierError("PARSE_PATHS", DRAWN_TREE, { line: this.firstDrawn, column: 1 });
+    }
+    if (
+      this.detected &&
+      this.sized === false &&
+      this.statLines >= 1 &&
+      this.statLines === Math.min(this.pathLines, COMMA_LINES)
+    ) {
+      // `git diff --stat`: each line a path, " | ", the lines changed and a bar of + and -. Read as
+      // paths, each count and bar would be part of a file's name, exit 0.
+      throw new EspalierError("PARSE_PATHS", DIFF_STAT, { line: this.firstLine, column: 1 });
     }
     if (
       this.detected &&
@@ -253,6 +300,17 @@ export class PathListReader {
         say`every line holds ${n === 1 ? "a comma" : `${n} commas`}, as the rows of a CSV table without its header row do: a table is read from a first line that names its columns (the id and parent columns, or a path column; --id-field, --parent-field and --path-field name others), so add one (e.g. id,parent,name or path,hash,size)${headerLineHint(this.firstCells, "csv")}; to read each whole line as a path, pass --input-format paths`,
         { line: this.firstLine, column: 1 },
       );
+    }
+    if (this.detected && this.sized === true && this.sizeEnd === space) columnAfterPath(sink, this.placer);
+    if (
+      this.detected &&
+      this.sized === false &&
+      this.pathLines >= 2 &&
+      this.spacedLines === Math.min(this.pathLines, COMMA_LINES)
+    ) {
+      // `df -B1`, `sha256sum`: columns aligned with runs of spaces, a size or a hash beside each path.
+      // Read as paths, each whole line would be one path, its numbers part of the names, exit 0.
+      throw new EspalierError("PARSE_PATHS", SPACED_COLUMNS, { line: this.firstLine, column: 1 });
     }
     sink.hasSizes = this.sized === true;
     const placer = this.placer;
@@ -354,9 +412,14 @@ export class PathListReader {
     const s = bytes.lastIndexOf(slash, t);
     const from = s >= start ? s + 1 : start;
     const field = bytes.toString("utf8", Math.max(from, t - 40), t);
+    // `git diff --numstat`: lines added, a tab, lines deleted ("-" for a binary file), a tab, the path.
+    const numstat =
+      from === start && /^(?:[0-9]+|-)$/.test(field)
+        ? "; for git diff --numstat (lines added and deleted before the path), git diff --numstat | awk -F'\\t' '{print $1 + $2 \"\\t\" $3}' | espalier - --units plain reads the lines changed as sizes"
+        : "";
     throw new EspalierError(
       "PARSE_PATHS",
-      say`line ${line} holds another tab after the size, after ${quoted.excerpt(field)}: a column besides the size and the path, as du --time and find -printf '%s\\t%T+\\t%p\\n' put a date before the path and find -printf '%s\\t%p\\t%y\\n' a type after it; read as part of the path, each date would be a folder of its own, or each folder two. List the size and the path alone (du -ab, find -printf '%s\\t%p\\n'), or keep those columns with cut (cut -f1,3 for a date before the path); to read the tab as part of a name, pass --input-format paths`,
+      say`line ${line} holds another tab after the size, after ${quoted.excerpt(field)}: a column besides the size and the path, as du --time and find -printf '%s\\t%T+\\t%p\\n' put a date before the path and find -printf '%s\\t%p\\t%y\\n' a type after it; read as part of the path, each date would be a folder of its own, or each folder two. List the size and the path alone (du -ab, find -printf '%s\\t%p\\n'), or keep those columns with cut (cut -f1,3 for a date before the path); to read the tab as part of a name, pass --input-format paths${numstat}`,
       // The column of the second tab: the size is ASCII digits, and the field is counted in characters.
       { line, column: start - lineStart + 1 + bytes.toString("utf8", start, t).length },
     );
@@ -495,10 +558,29 @@ export class PathListReader {
       if (this.pathLines++ === 0) {
         this.headerFirst = headerOfColumns(bytes, start, end);
         if (this.headerFirst) this.headerWords = bytes.toString("utf8", start, end).trim().split(/ +/);
+        this.filledColumns = this.headerFirst && this.headerWords.every((word) => CAPITALS.test(word));
         this.totalFirst = /^total [0-9]/.test(bytes.toString("latin1", start, Math.min(end, start + 8)));
+      } else if (this.filledColumns && this.pathLines <= COMMA_LINES) {
+        const fields = bytes.toString("utf8", start, end).trim().split(/ +/).length;
+        if (fields < this.headerWords.length) this.filledColumns = false;
       }
       if (numberThenSpace(bytes, start, end)) this.numberFirstLines++;
-      if (modeFirst(bytes, start, end)) this.modeFirstLines++;
+      if (drawnTreeLine(bytes, start, end) && this.drawnLines++ === 0) this.firstDrawn = line;
+      if (
+        this.pathLines <= COMMA_LINES &&
+        this.spacedLines === this.pathLines - 1 &&
+        spacedWords(bytes, start, end)
+      )
+        this.spacedLines++;
+      // Only while every line so far is one: a bounded cost on other lists.
+      if (
+        this.pathLines <= COMMA_LINES &&
+        this.statLines === this.pathLines - 1 &&
+        diffStatLine(bytes, start, end)
+      )
+        this.statLines++;
+      if (modeFirst(bytes, start, end) && this.modeFirstLines++ === 0)
+        this.tarFirst = TAR_LINE.test(bytes.toString("utf8", start, Math.min(end, start + 200)));
       if (this.pathLines <= COMMA_LINES && packageLine(bytes, start, end)) this.packageLines++;
       if (this.pathLines <= COMMA_LINES && this.sameCommas) {
         const commas = countByte(bytes, comma, start, end);
@@ -512,9 +594,38 @@ export class PathListReader {
     }
     if (this.backslashes === undefined) this.backslashes = windowsPath(bytes, pathStart, end);
     if (this.writtenLine !== undefined) this.checkWritten(bytes, start, pathStart, end, line);
-    let i = this.backslashes
-      ? this.placer.placeText(bytes.toString("utf8", pathStart, end).replaceAll("\\", "/"), line)
-      : this.placer.place(bytes, view, pathStart, end, line);
+    // A path git wrote quoted (`"docs/\346\227\245.txt"`): read as written, its folder `"docs` would be
+    // another than `docs`, and each name would hold its escapes.
+    if (bytes[pathStart] === quote && end - pathStart > 2 && bytes[end - 1] === quote && !this.backslashes) {
+      const name = gitUnquoted(bytes, pathStart + 1, end - 1);
+      if (name !== undefined) {
+        if (!isUtf8(name))
+          throw new EspalierError(
+            "PARSE_PATHS",
+            `line ${line} is a path git quoted whose bytes are not UTF-8: list the paths ended by NUL (git ls-files -z) and pass --nul-separated, which reads such names as every other reader does`,
+            { line, column: pathStart - start + 1 },
+          );
+        const j = this.placer.place(name, viewOf(name), 0, name.length, line);
+        this.sink.ownSize[j === -1 ? this.placer.placeRoot(line) : j] = size;
+        return;
+      }
+    }
+    let i: number;
+    try {
+      i = this.backslashes
+        ? this.placer.placeText(bytes.toString("utf8", pathStart, end).replaceAll("\\", "/"), line)
+        : this.placer.place(bytes, view, pathStart, end, line);
+    } catch (err) {
+      // A drawn tree repeats a line (`├── x deduped`) before its end is read: say what it is.
+      if (
+        this.sized === false &&
+        this.detected &&
+        this.drawnLines >= 2 &&
+        this.drawnLines >= this.pathLines - 1
+      )
+        throw new EspalierError("PARSE_PATHS", DRAWN_TREE, { line: this.firstDrawn, column: 1 });
+      throw err;
+    }
     if (i === -1) i = this.placer.placeRoot(line);
     this.sink.ownSize[i] = size;
   }
@@ -535,6 +646,52 @@ function spaceSized(bytes: Buffer, start: number, end: number): boolean {
   if (k >= end) return false;
   if (bytes[k] === slash) return true;
   return bytes[k] === dot && (k + 1 === end || bytes[k + 1] === slash);
+}
+
+/** Listed entries looked at for a column after the path (see {@link columnAfterPath}): a bounded cost. */
+const COLUMN_LINES = 1000;
+
+/**
+ * PARSE_PATHS when a listing of sizes and paths split by spaces holds another column after the path, as
+ * `find /DIR -printf '%s %p %u\n'` (an owner) and `stat -c '%s %n %U'` print: read as part of the
+ * names, each folder was two nodes (`git root` holding the folder's size, `git` its contents) and every
+ * name carried the word, with exit 0. A name may hold a space, so it is a column only when every entry
+ * looked at (at least 2) ends in a space and a word, and either some entry's name less that word is a
+ * folder no line names that holds entries (find lists every folder: there it is the start's own line),
+ * or the words repeat, at most one for every four entries (at least 4): owners, groups, types or modes
+ * do, the last words of names with spaces (`01 Overture.flac`) do not.
+ */
+function columnAfterPath(sink: NodeSink, placer: PathPlacer): void {
+  const words = new Set<string>();
+  const lessWord: { parent: number; name: string }[] = [];
+  let first = -1;
+  for (let i = 0; i < sink.length && lessWord.length < COLUMN_LINES; i++) {
+    if (!placer.isListed(i)) continue;
+    const name = sink.name.get(i);
+    const sp = name.lastIndexOf(" ");
+    if (sp <= 0 || sp === name.length - 1) return;
+    if (first === -1) first = i;
+    words.add(name.slice(sp + 1));
+    lessWord.push({ parent: sink.parentOf[i], name: name.slice(0, sp) });
+  }
+  const n = lessWord.length;
+  if (n < 2) return;
+  let repeated = n >= 4 && words.size * 4 <= n;
+  if (!repeated) {
+    // Folders no line names, holding entries, by parent and name.
+    const holds = new Uint8Array(sink.length);
+    for (let i = 0; i < sink.length; i++) if (sink.parentOf[i] !== -1) holds[sink.parentOf[i]] = 1;
+    const unlisted = new Set<string>();
+    for (let i = 0; i < sink.length; i++)
+      if (holds[i] === 1 && !placer.isListed(i)) unlisted.add(`${sink.parentOf[i]}/${sink.name.get(i)}`);
+    repeated = lessWord.some(({ parent, name }) => unlisted.has(`${parent}/${name}`));
+  }
+  if (!repeated) return;
+  throw new EspalierError(
+    "PARSE_PATHS",
+    say`every path ends in a space and a word (${quotedList("value", [...words], 3)}), as find -printf '%s %p %u\\n' and stat -c '%s %n %U' print a column after the path: read as part of the names, each folder would be two nodes and every name would hold the word. List the size and the path alone (find DIR -printf '%s\\t%p\\n', stat --printf '%s\\t%n\\n'), or put the column first and keep the size and path with cut; to read the word as part of the names, pass --input-format paths`,
+    { line: sink.origin[first], column: 1 },
+  );
 }
 
 /** Whether a path starts as a Windows one: a drive letter, ":" and "\", or "\\" (a network share). */
@@ -562,6 +719,20 @@ const PERMISSIONS = Buffer.from("-rwxsStT");
 const plus = 43;
 const at = 64;
 
+/**
+ * A line as GNU tar tv prints it (seen here, tar 1.34): a mode, owner/group, the size, a date and a time,
+ * then the name (`-rw-r--r-- 0/0   1077 1985-10-26 08:15 package/LICENSE`).
+ */
+const TAR_LINE =
+  /^\S{10,11} +\S+\/\S+ +[0-9]+ +[0-9]{4}-[0-9]{2}-[0-9]{2} +[0-9]{2}:[0-9]{2}(:[0-9]{2})? +\S/;
+
+/**
+ * The way out for GNU tar tv: its sizes and names as a path list, read by awk; a symbolic link's
+ * ` -> target` is dropped from its name.
+ */
+const TAR_LINES =
+  'every line starts with a file\'s mode (-rw-r--r--), as tar tv prints: read as a path list, each whole line would be one path, its size and date part of the names. Keep the size and the name as a path list: tar tvf FILE | awk \'{s = $3; l = ($1 ~ /^l/); sub(/^[^ ]+ +[^ ]+ +[^ ]+ +[^ ]+ +[^ ]+ +/, ""); if (l) sub(/ -> .*$/, ""); print s "\\t" $0}\' | espalier -; to read each line as a path, pass --input-format paths';
+
 const MODES_FIRST =
   "every line starts with a file's mode (-rw-r--r--), as ls -l and tar tv print: read as a path list, each whole line would be one path, its size and date part of the names. List paths instead: find DIR -printf '%s\\t%p\\n' (sizes and paths), tar tf (names); to read each line as a path, pass --input-format paths";
 
@@ -584,6 +755,66 @@ function headerOfColumns(bytes: Buffer, start: number, end: number): boolean {
   const words = bytes.toString("utf8", start, end).trim().split(/ +/);
   return words.length >= 2 && words.every((word) => !word.includes("/") && !/^[0-9]/.test(word));
 }
+
+const pipe = 124;
+
+/**
+ * Whether the line holds two spaces or more between words (its ends trimmed): columns aligned with
+ * spaces (`df`, `sha256sum`'s hash and name); a file's name seldom holds two spaces in a row.
+ */
+function spacedWords(bytes: Buffer, start: number, end: number): boolean {
+  while (start < end && (bytes[start] === space || bytes[start] === tab)) start++;
+  while (end > start && (bytes[end - 1] === space || bytes[end - 1] === tab)) end--;
+  for (let k = bytes.indexOf(space, start); k !== -1 && k + 1 < end; k = bytes.indexOf(space, k + 1))
+    if (bytes[k + 1] === space) return true;
+  return false;
+}
+
+const SPACED_COLUMNS =
+  "every line holds two or more spaces between words, as columns aligned with spaces are (df, sha256sum): read as a path list, each whole line would be one path, its numbers part of the names. Give espalier a size and a path separated by a tab a line (find DIR -printf '%s\\t%p\\n', du -ab), or a table whose header row names its columns (CSV or TSV); to read each line as a path, pass --input-format paths";
+
+/**
+ * Whether the line starts (after spaces) with the lines of a drawn tree: `├`, `└` or `│` (U+251C,
+ * U+2514, U+2502, as npm ls prints its dependencies), or `+-- `, `` `-- `` or `| ` (its --unicode=false
+ * form; seen here, npm 11).
+ */
+function drawnTreeLine(bytes: Buffer, start: number, end: number): boolean {
+  let k = start;
+  while (k < end && bytes[k] === space) k++;
+  if (end - k >= 3 && bytes[k] === 0xe2 && bytes[k + 1] === 0x94) {
+    const c = bytes[k + 2];
+    return c === 0x9c || c === 0x94 || c === 0x82;
+  }
+  if (end - k < 2) return false;
+  const a = bytes[k];
+  if (a === pipe) return bytes[k + 1] === space;
+  return (a === plus || a === backtick) && end - k >= 4 && bytes[k + 1] === dash && bytes[k + 2] === dash;
+}
+
+const dash = 45;
+const backtick = 96;
+
+const DRAWN_TREE =
+  "the lines start with a drawn tree's lines (├── , │ , or +-- and `-- ), as npm ls --all prints its dependencies: read as a path list, each line would be one path named with the drawing. Give espalier the hierarchy as data: npm ls --all --json (nested JSON) or npm ls --all --parseable (one folder a line); to read each line as a path, pass --input-format paths";
+
+/**
+ * Whether the line is as git diff --stat (and git log --stat) prints a changed file: the path, spaces,
+ * "|", spaces and the lines changed with a bar of "+" and "-", or `Bin 10 -> 12 bytes`; or the count
+ * that closes it (` 3 files changed, 12 insertions(+)`). From the lines git 2.39 prints here.
+ */
+function diffStatLine(bytes: Buffer, start: number, end: number): boolean {
+  const text = bytes.toString("utf8", start, end);
+  return DIFF_STAT_LINE.test(text) || DIFF_STAT_TOTAL.test(text);
+}
+
+const DIFF_STAT_LINE = / \| +(?:[0-9]+(?: [+-]*)?|Bin(?: [0-9]+ -> [0-9]+ bytes)?)$/;
+const DIFF_STAT_TOTAL = /^ *[0-9]+ files? changed(?:, [0-9]+ (?:insertions?\(\+\)|deletions?\(-\)))*$/;
+
+const DIFF_STAT =
+  "every line is a path, \" | \" and the lines changed, as git diff --stat prints: read as a path list, each count would be part of a file's name. List the lines changed as sizes: git diff --numstat | awk -F'\\t' '{print $1 + $2 \"\\t\" $3}' | espalier - --units plain (a binary file's \"-\" counts 0); to read each line as a path, pass --input-format paths";
+
+/** A column's name in a header of capitals: `PID`, `%CPU`, `STIME`, `RSS`. */
+const CAPITALS = /^%?[A-Z][A-Z0-9%_:+-]*$/;
 
 const PACKAGE_LINES =
   "every line is a folder, a colon and a name@version, as npm ls --parseable --long prints: read as a path list, each name@version would be a folder of its own. List the folders alone (npm ls --all --parseable), or the packages with their versions as nested JSON (npm ls --all --json); to read these lines as paths, pass --input-format paths";

@@ -24,12 +24,13 @@ const SIZE_KEYS = ["rss", "vsz"];
 
 /**
  * The PARSE_PATHS message for a listing of columns aligned with spaces, a number first on every line
- * after the header (`ps -eo pid,ppid,comm`): how to make it a table. When the header names only
+ * after the header (`ps -eo pid,ppid,comm`), or a header of capitals whose columns every later line
+ * fills (`ps -ef`, `ps aux`): how to make it a table. When the header names only
  * columns of the table above, with PID, PPID and a last command column (which may hold spaces), the
  * conversion keeps every column the listing has, in its order, and names the size column; else it
  * gives the one for `pid,ppid,comm`. Only the table's own words are printed, never the input's.
  */
-export function columnsAlignedMessage(header: readonly string[]): string {
+export function columnsAlignedMessage(header: readonly string[], lines: "number" | "filled"): string {
   const known = header.map((word) => psColumns[word.toUpperCase()]);
   const fits =
     known.every((c) => c !== undefined) &&
@@ -46,5 +47,9 @@ export function columnsAlignedMessage(header: readonly string[]): string {
     .join("");
   const size = columns.find((c) => SIZE_KEYS.includes(c.key));
   const sized = size ? ` --size-field ${size.column}` : "";
-  return `the first line reads as a header of columns aligned with spaces and every later line starts with a number, as ps -eo pid,ppid,comm prints: read as a path list, each line would be one path. A table is read as CSV or TSV whose header names the id and parent columns: ps -eo ${keys} | awk -v OFS='\\t' 'BEGIN {print ${names}} {sub(/^ +/, ""); ${splits}print}' | espalier - --null-parent 0${sized}; to read each line as a path, pass --input-format paths`;
+  const rows =
+    lines === "number"
+      ? "every later line starts with a number, as ps -eo pid,ppid,comm prints"
+      : "every later line fills its columns, as ps -ef and ps aux print";
+  return `the first line reads as a header of columns aligned with spaces and ${rows}: read as a path list, each line would be one path. A table is read as CSV or TSV whose header names the id and parent columns: ps -eo ${keys} | awk -v OFS='\\t' 'BEGIN {print ${names}} {sub(/^ +/, ""); ${splits}print}' | espalier - --null-parent 0${sized}; to read each line as a path, pass --input-format paths`;
 }

@@ -169,7 +169,9 @@ function childObjects(value: Sample): ObjectSample[] | undefined {
 /**
  * The field of `first` that holds its children: its value is an array of objects or an object whose
  * values are objects (children keyed by name), and the same field holds the children's children, as
- * `dependencies` in a package manager's listing: the first such field in document order. A field whose
+ * `dependencies` in a package manager's listing: the first such field in document order; a list of
+ * records none of which has the name or size field only when it is the one field of `first` holding an
+ * object or array (a JSON Schema's `allOf` of `allOf` is no children field). A field whose
  * children (as far as sampled) are all leaves counts when it is the one field of `first` holding
  * an object or array (a listing one level deep); otherwise a configuration's `defaults: {run: {…}}`
  * would pass for children and hide the rest. It counts too beside other objects and arrays when it is
@@ -189,6 +191,7 @@ export function findChildrenField(
 ): string | undefined {
   const own = fieldsOf(fields);
   let leafy: string | undefined;
+  let nameless: string | undefined;
   let kindred: string | undefined;
   let containers = 0;
   let holdingRecords = 0;
@@ -201,12 +204,23 @@ export function findChildrenField(
     const recurs = children.some((child) =>
       child.entries.some(([k, v]) => k === key && childObjects(v) !== undefined),
     );
-    if (recurs) return key;
+    if (recurs) {
+      // A list of records none of which has the name or size field, beside other objects and arrays
+      // (a JSON Schema's `allOf: [{allOf: [...]}]` beside its `properties` and `definitions`): read
+      // so, the document would be a few nodes printed as "" and the rest unseen.
+      if (
+        value.kind === "object" ||
+        children.some((c) => has(c, fields.nameField) || has(c, fields.sizeField))
+      )
+        return key;
+      nameless ??= key;
+      continue;
+    }
     if (leafy === undefined && children.every((child) => hasNoContainers(child))) leafy = key;
     if (kindred === undefined && value.kind === "object" && recordsOfKind(children, first, key))
       kindred = key;
   }
-  if (containers === 1 && leafy !== undefined) return leafy;
+  if (containers === 1 && (nameless ?? leafy) !== undefined) return nameless ?? leafy;
   return holdingRecords === 1 && containers <= KINDRED_CONTAINERS ? kindred : undefined;
 }
 

@@ -35,7 +35,10 @@ export function linkTable(
   try {
     linked = linkRows(table, options, shape);
   } catch (err) {
-    throw placedAtRow(shape === "table" ? withSeparatorHint(err, table.columnNames()) : err, table.place);
+    throw placedAtRow(
+      shape === "table" ? withSeparatorHint(err, table.columnNames()) : withValuesHint(err, options),
+      table.place,
+    );
   }
   // Linked by id with no name column: the ids name the nodes, and the header says so. By the header's
   // names only: `column` would make a cell of every row of a table that keeps its ids as bytes.
@@ -49,9 +52,36 @@ export function linkTable(
     sizeUnit: fieldSizeUnit(options.sizeField),
     ...(table.filledRows ? { filledRows: table.filledRows } : {}),
     ...(idsName ? { namesFrom: options.idField } : {}),
+    linkedBy: linkedBy(table, options),
   };
   if (table.place) linked.placeRow = table.place;
   return linked;
+}
+
+/**
+ * DUPLICATE_PATH of JSON or YAML rows linked by path, with a way to read the document anyway: an array
+ * of records with a path member need not be a tree's rows, as a JSON Patch (RFC 6902 §3: operations
+ * applied in order, several on one path) is not; `--read-as values` reads every value of it.
+ */
+function withValuesHint(error: unknown, options: LoadOptions): unknown {
+  if (!(error instanceof EspalierError) || error.code !== "DUPLICATE_PATH") return error;
+  return new EspalierError(
+    error.code,
+    [
+      ...error.parts,
+      `; the array was read as rows linked by their "${options.pathField}" field, one row a path: to read it as written (a list of operations on paths, as a JSON Patch is), every value a node, pass --read-as values`,
+    ],
+    error.pos,
+    error.details,
+  );
+}
+
+/** The columns {@link linkRows} linked the rows by: id and parent when the table has both, else the path. */
+function linkedBy(table: Table, options: LoadOptions): string[] {
+  const columns = table.columnNames();
+  return columns.includes(options.idField) && columns.includes(options.parentField)
+    ? [options.idField, options.parentField]
+    : [options.pathField];
 }
 
 function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): LinkedNodes {

@@ -35,6 +35,7 @@ export class PathListTextReader {
   private readonly detected: boolean;
   private pathLines = 0;
   private numberFirstLines = 0;
+  private spacedLines = 0;
 
   constructor(options: LoadOptions) {
     this.detected = options.format === undefined;
@@ -66,6 +67,13 @@ export class PathListTextReader {
         line: this.firstLine,
         column: 1,
       });
+    // Columns aligned with runs of spaces (df, sha256sum): every line holds two spaces between words.
+    if (this.detected && this.sized === false && this.pathLines >= 2 && this.spacedLines === this.pathLines)
+      throw new EspalierError("PARSE_PATHS", "columns aligned with spaces", {
+        line: this.firstLine,
+        column: 1,
+      });
+    if (this.detected && this.sized === true && this.separator === " ") this.refuseColumnAfterPath();
     sink.hasSizes = this.sized === true;
     // A size with an empty path named the root: every other top-level node goes below it.
     if (this.root !== -1) {
@@ -81,6 +89,32 @@ export class PathListTextReader {
       sizeUnit: "bytes",
       ...(totals ? { folderTotals: true } : {}),
     });
+  }
+
+  /**
+   * A column after a path split from its size by spaces (`find /DIR -printf '%s %p %u\n'`): every listed
+   * name ends in a space and a word, and either a name less its word is an unlisted folder holding
+   * entries, or there are at least 4 entries and no more than one distinct word for every 4. Written
+   * from docs/input.md, with maps of names, not from path-list-reader.ts.
+   */
+  private refuseColumnAfterPath(): void {
+    const sink = this.sink;
+    const listed = [...this.listedAt.keys()].sort((a, b) => a - b);
+    if (listed.length < 2) return;
+    const split = listed.map((i) => /^(.+) ([^ ]+)$/.exec(sink.name.get(i)));
+    if (split.some((m) => m === null)) return;
+    const words = new Set(split.map((m) => m![2]));
+    const holding = new Set<string>();
+    for (let i = 0; i < sink.length; i++) {
+      const p = sink.parentOf[i];
+      if (p !== -1 && !this.listedAt.has(p)) holding.add(`${sink.parentOf[p]}:${sink.name.get(p)}`);
+    }
+    const folder = listed.some((i, k) => holding.has(`${sink.parentOf[i]}:${split[k]![1]}`));
+    if (folder || (listed.length >= 4 && words.size * 4 <= listed.length))
+      throw new EspalierError("PARSE_PATHS", "a column after the path", {
+        line: sink.origin[listed[0]],
+        column: 1,
+      });
   }
 
   /**
@@ -151,6 +185,7 @@ export class PathListTextReader {
     } else {
       this.pathLines++;
       if (/^ *[0-9]+ +[^ ]/.test(text.slice(start, end))) this.numberFirstLines++;
+      if (/\S {2,}\S/.test(text.slice(start, end))) this.spacedLines++;
     }
     if (this.windows === undefined) this.windows = /^([A-Za-z]:\\|\\\\)/.test(text.slice(pathStart, end));
     const i = this.windows

@@ -35,6 +35,23 @@ describe("chooseReading(sample, fields)", () => {
     expect(choose(JSON.stringify(arrays))).toMatchObject({ childrenField: "parts", found: true });
   });
 
+  it("chooseReading takes no list of nameless records beside other objects and arrays for children", () => {
+    // Shaped as a CloudFormation resource schema that cfn-lint ships (JSON Schema draft 7 composition,
+    // `allOf` of `allOf`), keys sorted: read under `allOf` it was 3 nodes printed as "", its
+    // `definitions` and `properties` unseen; read as values every key is a node.
+    const schema = {
+      additionalProperties: false,
+      allOf: [{ allOf: [{ required: ["BerthId"] }], anyOf: [{ required: ["Tide"] }] }],
+      definitions: { Tide: { properties: { Level: { type: "number" } }, type: "object" } },
+      properties: { BerthId: { type: "string" }, Tide: { $ref: "#/definitions/Tide" } },
+    };
+    expect(choose(JSON.stringify(schema))).toEqual({ kind: "values" });
+    // Alone in its object, or with a name on its records, such a list is children still.
+    expect(choose(JSON.stringify({ allOf: schema.allOf }))).toMatchObject({ childrenField: "allOf" });
+    const named = { ...schema, allOf: [{ name: "quay", allOf: [{ name: "crane" }] }] };
+    expect(choose(JSON.stringify(named))).toMatchObject({ childrenField: "allOf", found: true });
+  });
+
   it("chooseReading takes a field of leaves as children only when it is the one nested field", () => {
     expect(choose('{"name":"app","dependencies":{"a":{"version":"1"},"b":{}}}')).toMatchObject({
       childrenField: "dependencies",

@@ -1,0 +1,82 @@
+import { describe, expect, it } from "vitest";
+import { draw } from "../../src/explore/screen.js";
+import { summarySession } from "../../src/explore/session.js";
+import { GUTTER, startState } from "../../src/explore/update.js";
+import { resolveFoci } from "../../src/focus/resolve.js";
+import { loadTree } from "../../src/load/index.js";
+import { defaultLoadOptions } from "../../src/load/load-options.js";
+import { palette } from "../../src/render/palette.js";
+import { prepare } from "../../src/summarize.js";
+import { checkText } from "../screens/read-screen.mjs";
+
+// An invented monorepo's listing (`size<TAB>path`): a deep only-child chain down to the focus and
+// long names, so a narrow screen cuts names, chains them and leaves names out of a chain's middle.
+const deep = "services/harbour-ledger-reconciliation/examples/plugin/bazel/java/com/tidewater/ledger/sample";
+const rows = [`4096\t${deep}/BUILD`, `812\t${deep}/README`];
+for (let k = 0; k < 30; k++) rows.push(`${1000 + k}\tservices/harbour-ledger-reconciliation/notes-${k}.md`);
+for (let k = 0; k < 30; k++) rows.push(`${2000 + k}\tpackages/quayside-dashboards/src/module-${k}/index.ts`);
+const tree = loadTree(`${rows.join("\n")}\n`, {
+  ...defaultLoadOptions,
+  file: "listing.tsv",
+  format: "paths",
+  rootName: "listing.tsv",
+});
+const prepared = prepare(tree);
+
+describe("summarySession(prepared, look): the key's rows", () => {
+  it("takes the rows its screen needs to explain every mark and cut, as espalier prints it (common practice, no source)", () => {
+    const session = summarySession(prepared, { units: "plain", chains: true, palette: palette(false) });
+    const failures: string[] = [];
+    for (const [height, cols] of [
+      [20, 40],
+      [24, 42],
+      [16, 62],
+    ]) {
+      const state = startState(session, {
+        rows: height,
+        cols,
+        foci: resolveFoci(prepared.index, [`${deep}/BUILD`]),
+        importance: "depth",
+        fociFile: "foci.txt",
+      });
+      const screen = draw(session, state, false);
+      // The view as espalier prints it: the gutter (the cursor's column) and the status row off.
+      const text = `${screen.rows
+        .slice(0, -1)
+        .map((r) => r.slice(GUTTER))
+        .join("\n")
+        .trimEnd()}\n`;
+      const problems = checkText(text, { budget: height - 1, width: cols - GUTTER });
+      if (problems.length > 0) failures.push(`${height}x${cols}: ${problems.join("; ")}\n${text}`);
+    }
+    expect(failures).toEqual([]);
+  });
+
+  it("points the status row to the help for the marks where the key says only part of them, or had no room", () => {
+    const session = summarySession(prepared, { units: "plain", chains: true, palette: palette(false) });
+    const drawn = (height: number, cols: number) => {
+      const state = startState(session, {
+        rows: height,
+        cols,
+        foci: resolveFoci(prepared.index, [`${deep}/BUILD`]),
+        importance: "depth",
+        fociFile: "foci.txt",
+      });
+      const screen = draw(session, state, false);
+      return {
+        key: screen.rows.some((r) => r.slice(GUTTER).startsWith("key: ")),
+        status: screen.rows.at(-1)!,
+      };
+    };
+    // No room for a key: 9 rows at 40 columns; a key in part: 14 rows at 32; whole: 20 rows at 40.
+    const none = drawn(9, 40);
+    expect(none.key).toBe(false);
+    expect(none.status).toMatch(/ h: keys, marks$/);
+    const part = drawn(14, 32);
+    expect(part.key).toBe(true);
+    expect(part.status).toMatch(/ h: keys, marks$/);
+    const whole = drawn(20, 40);
+    expect(whole.key).toBe(true);
+    expect(whole.status).toMatch(/ h: keys$/);
+  });
+});
