@@ -21,7 +21,6 @@ import {
   keyExplainsSizes,
   keyFacts,
   keyLines,
-  keyMostRows,
   keyRows,
   keyRowsNeeded,
   keySaysAll,
@@ -132,7 +131,7 @@ export function summarySession(prepared: Prepared, look: LookOptions): Session {
             width,
             look,
             foci: fociOf(result.view),
-            most: keyMostRows(budget, width),
+            most: viewKeyMostRows(budget, width),
           });
           return { result, lineOf, ...laid };
         });
@@ -185,7 +184,7 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
             width,
             look,
             foci: result.fociPaths,
-            most: keyMostRows(budget, width),
+            most: viewKeyMostRows(budget, width),
           });
           return { result, lineOf, ...laid };
         });
@@ -204,6 +203,18 @@ function keyRowsOf(budget: number, width: number): number {
 
 /** Rounds of fitting again with the rows the key needs before keeping the last that fitted. */
 const KEY_ROUNDS = 3;
+
+/**
+ * Most rows the view's key takes on a screen of `budget` rows for the tree at `width` (`espalier`
+ * takes up to `KEY_MOST_ROWS`): one more than `keyRows(width)`, and that only where a screen three
+ * rows shorter has a key too. A screen three rows taller then never gives the key more than one of
+ * them (where the shorter had no key, no more than before), so it hides no node the shorter showed
+ * (guarantee 2 of docs/selection.md, as the view's tests check it). Past them the key says part,
+ * and the status row points to the help.
+ */
+function viewKeyMostRows(budget: number, width: number): number {
+  return budget >= KEY_MIN_BUDGET + 3 ? keyRows(width) + 1 : keyRows(width);
+}
 
 /**
  * A screen whose key takes the rows it needs to say all it explains, as `espalier` fits it (see

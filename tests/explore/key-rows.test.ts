@@ -28,7 +28,7 @@ describe("summarySession(prepared, look): the key's rows", () => {
     const session = summarySession(prepared, { units: "plain", chains: true, palette: palette(false) });
     const failures: string[] = [];
     for (const [height, cols] of [
-      [20, 40],
+      [20, 48],
       [24, 42],
       [16, 62],
     ]) {
@@ -68,14 +68,14 @@ describe("summarySession(prepared, look): the key's rows", () => {
         status: screen.rows.at(-1)!,
       };
     };
-    // No room for a key: 9 rows at 40 columns; a key in part: 14 rows at 32; whole: 20 rows at 40.
+    // No room for a key: 9 rows at 40 columns; a key in part: 14 rows at 32; whole: 20 rows at 48.
     const none = drawn(9, 40);
     expect(none.key).toBe(false);
     expect(none.status).toMatch(/ h: keys, marks$/);
     const part = drawn(14, 32);
     expect(part.key).toBe(true);
     expect(part.status).toMatch(/ h: keys, marks$/);
-    const whole = drawn(20, 40);
+    const whole = drawn(20, 48);
     expect(whole.key).toBe(true);
     expect(whole.status).toMatch(/ h: keys$/);
   });
