@@ -23,6 +23,12 @@ export const K_HIGH = 16;
  */
 export const LEAST_KEPT_BYTES = 16 * 2 ** 20;
 
+/**
+ * Longest range read apart from the window (and at most a quarter of it, which is also how far beyond
+ * its end a range counts as far).
+ */
+const ASIDE = 64 << 10;
+
 /** How a JSON input of node objects was read: a later version is taken from it only when read alike. */
 export interface JsonReadAs {
   readonly nameField: string;
@@ -149,11 +155,11 @@ export class KeptJson {
    * The byte length of node `k`'s object when its subtree may be taken and `buf[i, n)` begins with its
    * bytes; else -1.
    */
-  sameAt(k: number, buf: Buffer, i: number): number {
+  sameAt(k: number, buf: Buffer, i: number, anchor = true): number {
     if ((this.flags[k] & (K_ODD | K_ODD_BELOW)) !== 0) return -1;
     const s = this.start[k];
     const e = this.end[k];
-    if (s === 0 || i + (e - s) > buf.length || !this.same(s, e, buf, i)) return -1;
+    if (s === 0 || i + (e - s) > buf.length || !this.same(s, e, buf, i, 64, anchor)) return -1;
     return e - s;
   }
 
@@ -168,59 +174,75 @@ export class KeptJson {
     const flags = this.flags;
     let last = k;
     let nodes = this.count[k];
+    let bits = flags[k];
+    let adjust = this.adjust(k);
     for (let group = 1; group > 0; ) {
       let g = last;
       let m = 0;
       let more = 0;
+      let groupBits = 0;
+      let groupAdjust = 0;
       while (m < group) {
         const next = this.nextSibling(g);
         if (next < 0 || (flags[next] & (K_ODD | K_ODD_BELOW)) !== 0) break;
         g = next;
         m++;
         more += this.count[next];
+        groupBits |= flags[next];
+        groupAdjust += this.adjust(next);
       }
       if (m === 0) break;
       const to = at + (end[g] - end[last]);
-      if (nodes + more <= room && to <= buf.length && this.same(end[last], end[g], buf, at)) {
+      if (nodes + more <= room && to <= buf.length && this.same(end[last], end[g], buf, at, 8, true)) {
         last = g;
         at = to;
         nodes += more;
+        bits |= groupBits;
+        adjust += groupAdjust;
         group *= 2;
       } else group = m === group ? group >>> 1 : m >>> 1;
     }
+    this.runBits = bits;
+    this.runAdjust = adjust;
     return last;
   }
 
+  /** Of the siblings `lastRepeated` found last: their K_ bits, or-ed, and their adjustments, summed. */
+  runBits = 0;
+  runAdjust = 0;
+
   /** Whether the input's bytes `[from, to)` are those of `b` from `at` on (which has them all). */
-  private same(from: number, to: number, b: Buffer, at: number): boolean {
-    let a = this.window!;
+  private same(from: number, to: number, b: Buffer, at: number, first: number, anchor: boolean): boolean {
+    const a = this.window!;
     let shift = 0;
     if (this.source !== null) {
-      // A window of the input read again: moved on to start a little before `from` when it does not
-      // hold [from, to) (a range longer than it is never compared: taken piece by piece instead).
+      // A window of the input read again, moved where the looks go on (`anchor`: the counterpart's
+      // child at the cursor, and the siblings after it, within a chunk of the later input), a quarter of
+      // it kept behind. Another look out of it (the child after a big one, tried and mostly not the
+      // one) is read apart when short and else not made: the window stays where the next looks are. A
+      // range longer than the window is not compared: its nodes are taken piece by piece instead.
       const size = a.length;
-      const back = size >>> 6;
-      if (to - from > size - back) return false;
+      const quarter = size >>> 2;
       if (from < this.windowAt || to > this.windowEnd) {
-        // What is asked for and a MiB more (about a chunk of the later input): a look far back or
-        // ahead reads no more than it needs.
-        const at0 = Math.max(0, from - back);
-        const read = this.source.read(a, 0, Math.min(size, to - at0 + (1 << 20)), at0);
+        if (!anchor) {
+          if (to - from > Math.min(ASIDE, quarter)) return false;
+          const aside = this.aside;
+          if (this.source.read(aside, 0, to - from, from) < to - from) return false;
+          return sameFrom(aside, 0, to - from, b, at, first);
+        }
+        if (to - from > size - quarter) return false;
+        const at0 = Math.max(0, from - quarter);
         this.windowAt = at0;
-        this.windowEnd = at0 + read;
+        this.windowEnd = at0 + this.source.read(a, 0, size, at0);
         if (to > this.windowEnd) return false;
       }
       shift = this.windowAt;
     } else if (this.bytes === null) return false;
-    a = this.window!;
-    // The first bytes one by one (a different node mostly differs there; a leaf is mostly shorter), then
-    // the rest in native code.
-    const x0 = from - shift;
-    const x1 = to - shift;
-    const head = Math.min(x1, x0 + 64);
-    for (let x = x0, y = at; x < head; x++, y++) if (a[x] !== b[y]) return false;
-    return x1 === head || b.compare(a, head, x1, at + (head - x0), at + (x1 - x0)) === 0;
+    return sameFrom(this.window!, from - shift, to - shift, b, at, first);
   }
+
+  /** Where short ranges far from the window are read (see `same`). */
+  private readonly aside = new Uint8Array(ASIDE);
 
   /** Gives the memory of the bytes and offsets back now: read no more. */
   release(): void {
@@ -233,6 +255,17 @@ export class KeptJson {
     releaseMemory(this.flags.buffer);
     releaseMemory(this.adjusts.buffer);
   }
+}
+
+/**
+ * Whether `a[x0, x1)` are the bytes of `b` from `at` on (which has them all): the `first` bytes one by
+ * one (where a node that differs mostly does: its name; a leaf is mostly shorter than 64), then the
+ * rest in native code.
+ */
+function sameFrom(a: Uint8Array, x0: number, x1: number, b: Buffer, at: number, first: number): boolean {
+  const head = Math.min(x1, x0 + first);
+  for (let x = x0, y = at; x < head; x++, y++) if (a[x] !== b[y]) return false;
+  return x1 === head || b.compare(a, head, x1, at + (head - x0), at + (x1 - x0)) === 0;
 }
 
 /** Longest input whose node objects' places are kept for a later version read again (offsets in 32 bits). */
