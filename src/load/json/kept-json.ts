@@ -1,7 +1,8 @@
 import type { Buffer } from "node:buffer";
 import { NamePool } from "../../model/names.js";
+import { BytesKeeper, EarlierBytes } from "../earlier-bytes.js";
 import type { BytesAt } from "../load-options.js";
-import { MOST_KEPT_BYTES, releasableMemory, releaseMemory } from "../table/kept-table.js";
+import { releasableMemory, releaseMemory } from "../releasable-memory.js";
 
 /**
  * A node object whose reading did more than add nodes: keyed by name, `"missing": true`, a children
@@ -22,12 +23,6 @@ export const K_HIGH = 16;
  * OLD +38 ms, NEW -77 ms.
  */
 export const LEAST_KEPT_BYTES = 16 * 2 ** 20;
-
-/**
- * Longest range read apart from the window (and at most a quarter of it, which is also how far beyond
- * its end a range counts as far).
- */
-const ASIDE = 64 << 10;
 
 /** How a JSON input of node objects was read: a later version is taken from it only when read alike. */
 export interface JsonReadAs {
@@ -52,8 +47,8 @@ export interface JsonReadAs {
 export class KeptJson {
   constructor(
     readonly readAs: JsonReadAs,
-    /** The input's bytes (on memory from releasableMemory); null when it is read again. */
-    private readonly bytes: Uint8Array | null,
+    /** The input's bytes as its load kept them, or read again (earlier-bytes.ts). */
+    private readonly bytes: EarlierBytes,
     /** Nodes read; node 0 the one top-level node object. */
     readonly length: number,
     /** Where node i's object starts in `bytes` (its `{`), for the nodes of a children array; else 0. */
@@ -86,7 +81,7 @@ export class KeptJson {
   /** Nothing kept: what a load not read against an earlier version holds in its place. */
   static readonly none = new KeptJson(
     { nameField: "", sizeField: "", childrenField: "", keepFields: [], maxTokenBytes: 0, maxDepth: 0 },
-    null,
+    new EarlierBytes(null),
     0,
     new Uint32Array(0),
     new Uint32Array(0),
@@ -102,37 +97,15 @@ export class KeptJson {
     false,
   );
 
-  /**
-   * Bytes of the input read again at once (LoadOptions.earlierInput), a 64th of them before the range
-   * asked for; a range longer than the rest is not compared (its nodes are taken piece by piece).
-   */
-  static windowBytes = 4 << 20;
-
   /** Shortest input kept (LEAST_KEPT_BYTES; tests read small inputs against their earlier versions). */
   static leastBytes = LEAST_KEPT_BYTES;
-
-  /** The bytes compared with, and where in the input they start. */
-  private window: Uint8Array | null = null;
-  private windowAt = 0;
-  /** Where the bytes the window holds end in the input (a read may come short). */
-  private windowEnd = 0;
-  private source: BytesAt | null = null;
 
   /**
    * Whether the bytes can be compared with: kept, or read again through `readAgain` (the input as the
    * earlier load read it: LoadOptions.earlierInput).
    */
   readable(readAgain: BytesAt | undefined): boolean {
-    if (this.bytes !== null) {
-      this.window = this.bytes;
-      return true;
-    }
-    if (readAgain === undefined) return false;
-    this.source = readAgain;
-    this.window = new Uint8Array(KeptJson.windowBytes);
-    this.windowAt = 0;
-    this.windowEnd = 0;
-    return true;
+    return this.bytes.readable(readAgain);
   }
 
   /** Node `i`'s bytes beyond their UTF-16 length (see `adjusts`). */
@@ -211,44 +184,24 @@ export class KeptJson {
   runBits = 0;
   runAdjust = 0;
 
-  /** Whether the input's bytes `[from, to)` are those of `b` from `at` on (which has them all). */
+  /**
+   * Whether the input's bytes `[from, to)` are those of `b` from `at` on (which has them all): from the
+   * window, moved where the looks go on (`anchor`: the counterpart's child at the cursor and the
+   * siblings after it), or read apart (the child after it, tried in case the cursor's was removed).
+   */
   private same(from: number, to: number, b: Buffer, at: number, first: number, anchor: boolean): boolean {
-    const a = this.window!;
-    let shift = 0;
-    if (this.source !== null) {
-      // A window of the input read again, moved where the looks go on (`anchor`: the counterpart's
-      // child at the cursor, and the siblings after it, within a chunk of the later input), a quarter of
-      // it kept behind. Another look out of it (the child after a big one, tried and mostly not the
-      // one) is read apart when short and else not made: the window stays where the next looks are. A
-      // range longer than the window is not compared: its nodes are taken piece by piece instead.
-      const size = a.length;
-      const quarter = size >>> 2;
-      if (from < this.windowAt || to > this.windowEnd) {
-        if (!anchor) {
-          if (to - from > Math.min(ASIDE, quarter)) return false;
-          const aside = this.aside;
-          if (this.source.read(aside, 0, to - from, from) < to - from) return false;
-          return sameFrom(aside, 0, to - from, b, at, first);
-        }
-        if (to - from > size - quarter) return false;
-        const at0 = Math.max(0, from - quarter);
-        this.windowAt = at0;
-        this.windowEnd = at0 + this.source.read(a, 0, size, at0);
-        if (to > this.windowEnd) return false;
-      }
-      shift = this.windowAt;
-    } else if (this.bytes === null) return false;
-    return sameFrom(this.window!, from - shift, to - shift, b, at, first);
+    const kept = this.bytes;
+    if (anchor) {
+      if (!kept.holds(from, to)) return false;
+      return sameFrom(kept.window, from - kept.windowAt, to - kept.windowAt, b, at, first);
+    }
+    const part = kept.apart(from, to);
+    return part !== null && sameFrom(part, 0, to - from, b, at, first);
   }
-
-  /** Where short ranges far from the window are read (see `same`). */
-  private readonly aside = new Uint8Array(ASIDE);
 
   /** Gives the memory of the bytes and offsets back now: read no more. */
   release(): void {
-    if (this.bytes !== null) releaseMemory(this.bytes.buffer);
-    this.window = null;
-    this.source = null;
+    this.bytes.release();
     releaseMemory(this.start.buffer);
     releaseMemory(this.end.buffer);
     releaseMemory(this.count.buffer);
@@ -269,16 +222,14 @@ function sameFrom(a: Uint8Array, x0: number, x1: number, b: Buffer, at: number, 
 }
 
 /** Longest input whose node objects' places are kept for a later version read again (offsets in 32 bits). */
-const MOST_PLACED_BYTES = 2 ** 32 - 1;
 
 /**
  * The loader's side of a {@link KeptJson}: keeps the nodes' places while they are read, and the input's
  * bytes (up to MOST_KEPT_BYTES) unless the later load reads them again.
  */
 export class JsonKeeper {
-  /** The bytes kept so far; null when the later load reads the input again (or nothing is kept). */
-  private bytes: Uint8Array | null;
-  private used = 0;
+  /** The input's bytes kept, or counted (earlier-bytes.ts). */
+  private readonly bytes: BytesKeeper;
   start = new Uint32Array(releasableMemory(4 * 1024));
   end = new Uint32Array(releasableMemory(4 * 1024));
   count = new Int32Array(releasableMemory(4 * 1024));
@@ -290,35 +241,15 @@ export class JsonKeeper {
 
   /** `readAgain`: the later load reads the input's bytes again (LoadOptions.inputReadAgain). */
   constructor(inputBytes: number, readAgain: boolean) {
-    this.keeping =
-      inputBytes > 0 &&
-      inputBytes >= KeptJson.leastBytes &&
-      inputBytes <= (readAgain ? MOST_PLACED_BYTES : MOST_KEPT_BYTES);
-    this.bytes =
-      this.keeping && !readAgain
-        ? new Uint8Array(releasableMemory(Math.min(inputBytes, MOST_KEPT_BYTES)))
-        : null;
+    const kept = inputBytes > 0 && inputBytes >= KeptJson.leastBytes;
+    this.bytes = new BytesKeeper(kept ? inputBytes : 0, readAgain);
+    this.keeping = kept && this.bytes.keeping;
+    if (!this.keeping) this.bytes.drop();
   }
 
-  /** The next chunk of the input, copied when the bytes are kept (a stream may hand out the same memory again). */
+  /** The next chunk of the input. */
   write(chunk: Uint8Array): void {
-    if (!this.keeping) return;
-    const need = this.used + chunk.length;
-    const bytes = this.bytes;
-    if (need > (bytes === null ? MOST_PLACED_BYTES : MOST_KEPT_BYTES)) {
-      this.drop();
-      return;
-    }
-    this.used = need;
-    if (bytes === null) return;
-    let into = bytes;
-    if (need > into.length) {
-      into = new Uint8Array(releasableMemory(Math.min(MOST_KEPT_BYTES, Math.max(need, 2 * into.length))));
-      into.set(bytes.subarray(0, need - chunk.length));
-      releaseMemory(bytes.buffer);
-      this.bytes = into;
-    }
-    into.set(chunk, need - chunk.length);
+    if (this.keeping && !this.bytes.write(chunk)) this.drop();
   }
 
   /**
@@ -356,8 +287,7 @@ export class JsonKeeper {
   /** Lets go of what is kept. */
   drop(): void {
     this.keeping = false;
-    if (this.bytes !== null) releaseMemory(this.bytes.buffer);
-    this.bytes = null;
+    this.bytes.drop();
   }
 
   /** What is kept, over the nodes as the loader read them; undefined when nothing is. */
@@ -378,7 +308,7 @@ export class JsonKeeper {
     }
     return new KeptJson(
       readAs,
-      this.bytes === null ? null : this.bytes.subarray(0, this.used),
+      this.bytes.earlier(),
       length,
       this.start,
       this.end,
