@@ -19,12 +19,15 @@ export interface ReadAgain extends BytesAt {
 /**
  * A regular file opened to be read again (the descriptor held, so the same file is read whatever
  * happens to its name), its state taken now, before its load reads it; undefined for anything else
- * (standard input, a pipe, a file that cannot be opened: its load says why).
+ * (standard input, a pipe or a named pipe, a file that cannot be opened: its load says why).
  */
 export function fileReadAgain(name: string): ReadAgain | undefined {
   if (name === "-") return undefined;
   let fd: number;
   try {
+    // Only a regular file is opened: opening a named pipe would wait for its writer, here, before
+    // the load that reads it has begun.
+    if (!statSync(name).isFile()) return undefined;
     fd = openSync(name, "r");
   } catch {
     return undefined;

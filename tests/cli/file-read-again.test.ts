@@ -1,7 +1,8 @@
+import { execFileSync } from "node:child_process";
 import { appendFileSync, mkdirSync, mkdtempSync, renameSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { describe, expect, it, vi } from "vitest";
+import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import { fileReadAgain, type ReadAgain } from "../../src/cli/file-read-again.js";
 import { loadVersions } from "../../src/cli/input.js";
 import type { CliIO } from "../../src/cli/io.js";
@@ -9,7 +10,9 @@ import { LOAD_THREADS_ENV } from "../../src/cli/load-threads.js";
 import { openFile } from "../../src/cli/open-file.js";
 import { diffOptionsSchema } from "../../src/cli/options.js";
 import { EspalierError } from "../../src/errors.js";
+import { KeptJson, LEAST_KEPT_BYTES } from "../../src/load/json/kept-json.js";
 import { NodeSink } from "../../src/load/node-sink.js";
+import { isGnuTool } from "../helpers/file-tree.js";
 
 // A diff on one thread reads OLD's file again while NEW loads against it (load/json/kept-json.ts):
 // only while it is the file its load read.
@@ -62,8 +65,14 @@ describe("fileReadAgain(name)", () => {
     again.close();
   });
 
-  it("is undefined for standard input, a folder or a file that is not there", () => {
+  it("is undefined for standard input, a folder, a named pipe (not opened: no wait for a writer) or a file that is not there", () => {
     mkdirSync(join(dir, "bay"), { recursive: true });
+    const fifo = join(dir, "pipe");
+    if (isGnuTool("mkfifo")) {
+      execFileSync("mkfifo", [fifo]);
+      // Opening it for reading would block this test until a writer came.
+      expect(fileReadAgain(fifo)).toBeUndefined();
+    }
     expect(fileReadAgain("-")).toBeUndefined();
     expect(fileReadAgain(join(dir, "bay"))).toBeUndefined();
     expect(fileReadAgain(join(dir, "no-such.json"))).toBeUndefined();
@@ -71,6 +80,14 @@ describe("fileReadAgain(name)", () => {
 });
 
 describe("loadVersions(io, OLD, NEW) on one thread, OLD read again", () => {
+  // Files of a few KiB: kept as any size is (16 MiB and more outside tests, LEAST_KEPT_BYTES).
+  beforeEach(() => {
+    KeptJson.leastBytes = 0;
+  });
+  afterEach(() => {
+    KeptJson.leastBytes = LEAST_KEPT_BYTES;
+  });
+
   const opts = diffOptionsSchema.parse({ budget: 20 });
   const oldFile = join(dir, "old.json");
   const newFile = join(dir, "new.json");

@@ -15,6 +15,14 @@ export const K_LINES = 8;
 /** A node object whose bytes may hold a byte >= 0x80 (on its last line: its columns are not its bytes). */
 export const K_HIGH = 16;
 
+/**
+ * Shortest input kept for a later version: below it, keeping costs OLD's load more than NEW's saves
+ * (a second load of a small input is cheap anyway, its code compiled by the first). Measured on one
+ * machine (docs/performance.md, thirteenth session): 2.9 MB, OLD +15 to 27 ms, NEW no faster; 37.7 MB,
+ * OLD +38 ms, NEW -77 ms.
+ */
+export const LEAST_KEPT_BYTES = 16 * 2 ** 20;
+
 /** How a JSON input of node objects was read: a later version is taken from it only when read alike. */
 export interface JsonReadAs {
   readonly nameField: string;
@@ -94,9 +102,14 @@ export class KeptJson {
    */
   static windowBytes = 4 << 20;
 
+  /** Shortest input kept (LEAST_KEPT_BYTES; tests read small inputs against their earlier versions). */
+  static leastBytes = LEAST_KEPT_BYTES;
+
   /** The bytes compared with, and where in the input they start. */
   private window: Uint8Array | null = null;
   private windowAt = 0;
+  /** Where the bytes the window holds end in the input (a read may come short). */
+  private windowEnd = 0;
   private source: BytesAt | null = null;
 
   /**
@@ -111,7 +124,8 @@ export class KeptJson {
     if (readAgain === undefined) return false;
     this.source = readAgain;
     this.window = new Uint8Array(KeptJson.windowBytes);
-    this.windowAt = -KeptJson.windowBytes;
+    this.windowAt = 0;
+    this.windowEnd = 0;
     return true;
   }
 
@@ -187,14 +201,14 @@ export class KeptJson {
       const size = a.length;
       const back = size >>> 6;
       if (to - from > size - back) return false;
-      if (from < this.windowAt || to > this.windowAt + size) {
+      if (from < this.windowAt || to > this.windowEnd) {
+        // What is asked for and a MiB more (about a chunk of the later input): a look far back or
+        // ahead reads no more than it needs.
         const at0 = Math.max(0, from - back);
-        const read = this.source.read(a, 0, size, at0);
+        const read = this.source.read(a, 0, Math.min(size, to - at0 + (1 << 20)), at0);
         this.windowAt = at0;
-        if (at0 + read < to) {
-          this.windowAt = -size;
-          return false;
-        }
+        this.windowEnd = at0 + read;
+        if (to > this.windowEnd) return false;
       }
       shift = this.windowAt;
     } else if (this.bytes === null) return false;
@@ -243,7 +257,10 @@ export class JsonKeeper {
 
   /** `readAgain`: the later load reads the input's bytes again (LoadOptions.inputReadAgain). */
   constructor(inputBytes: number, readAgain: boolean) {
-    this.keeping = inputBytes > 0 && inputBytes <= (readAgain ? MOST_PLACED_BYTES : MOST_KEPT_BYTES);
+    this.keeping =
+      inputBytes > 0 &&
+      inputBytes >= KeptJson.leastBytes &&
+      inputBytes <= (readAgain ? MOST_PLACED_BYTES : MOST_KEPT_BYTES);
     this.bytes =
       this.keeping && !readAgain
         ? new Uint8Array(releasableMemory(Math.min(inputBytes, MOST_KEPT_BYTES)))

@@ -180,7 +180,14 @@ async function linkedNodes(
     chunks,
     seen.delimiter,
     options.graph ? edgeTableFields(options) : options,
-    options.graph ? {} : { keep: options.keepForLaterVersion === true, earlier },
+    options.graph
+      ? {}
+      : {
+          keep: options.keepForLaterVersion === true,
+          readAgain: options.inputReadAgain === true,
+          earlier,
+          earlierInput: options.earlierInput,
+        },
   );
   seen.kept = table.keptForLater;
   try {

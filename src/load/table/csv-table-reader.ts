@@ -4,7 +4,7 @@ import { asBuffer, codecs } from "../../model/buffer-codecs.js";
 import { NamePool, type Names, namesToArray } from "../../model/names.js";
 import { EarlierNames } from "../earlier-names.js";
 import { hasReplacement } from "../has-replacement.js";
-import type { LoadOptions } from "../load-options.js";
+import type { BytesAt, LoadOptions } from "../load-options.js";
 import { limitsOf } from "../read-limits.js";
 import { CsvScanner, type CsvSink } from "./csv-scanner.js";
 import { EarlierRows } from "./earlier-rows.js";
@@ -37,7 +37,11 @@ export type TableFields = Pick<
  */
 export interface TableReading {
   keep?: boolean;
+  /** With `keep`: the later load reads this input's bytes again (LoadOptions.inputReadAgain). */
+  readAgain?: boolean;
   earlier?: KeptTable | undefined;
+  /** With `earlier`: its input's bytes read again, when its load did not keep them (LoadOptions.earlierInput). */
+  earlierInput?: BytesAt | undefined;
 }
 
 /** Rows passed at most before looking again for the earlier version's rows (see takeRows). */
@@ -155,9 +159,10 @@ export class CsvTableReader implements CsvSink {
     this.poolIds = !others.has(fields.idField) && fields.nameField !== fields.idField;
     this.maxRows = fields.maxNodes;
     const size = fields.inputBytes;
-    if (reading.keep && size !== undefined && size <= MOST_KEPT_BYTES) this.keeper = new TableKeeper(size);
-    this.laterOf = reading.earlier;
-    if (reading.earlier !== undefined) this.scanner.skipper = this.takeHeader;
+    if (reading.keep && size !== undefined && (reading.readAgain === true || size <= MOST_KEPT_BYTES))
+      this.keeper = new TableKeeper(size, reading.readAgain === true);
+    this.laterOf = reading.earlier?.readable(reading.earlierInput) === true ? reading.earlier : undefined;
+    if (this.laterOf !== undefined) this.scanner.skipper = this.takeHeader;
   }
 
   /** The earlier version's kept table this one may be read against, until the header is read. */

@@ -1,5 +1,6 @@
 import { Buffer } from "node:buffer";
 import type { NamePool } from "../../model/names.js";
+import type { BytesAt } from "../load-options.js";
 import type { RowLines } from "./row-lines.js";
 
 /**
@@ -8,6 +9,8 @@ import type { RowLines } from "./row-lines.js";
  * it the later version is read as any table is (about 8 million rows of the benchmark's table).
  */
 export const MOST_KEPT_BYTES = 256 * 2 ** 20;
+/** Longest input whose rows' places are kept for a later version that reads it again (32-bit offsets). */
+const MOST_PLACED_BYTES = 2 ** 32 - 1;
 
 const LF = 0x0a;
 
@@ -27,12 +30,14 @@ export interface KeptColumn {
  * after the other): the input's bytes, where each data row starts in them, the line it starts on, and
  * the cells as the reader kept them. The later table's rows whose bytes are these bytes are then taken
  * from here instead of scanned (csv-table-reader.ts), and read the same: a row's cells are a function of
- * its bytes, and its end of its bytes and the byte after them.
+ * its bytes, and its end of its bytes and the byte after them. The bytes kept, or (`readable`) the input
+ * read again a window at a time (a regular file: LoadOptions.inputReadAgain, earlierInput), where keeping
+ * them would be fresh memory as big as the file.
  */
 export class KeptTable {
   constructor(
-    /** The input's bytes, whole (on memory from {@link releasableMemory}). */
-    readonly bytes: Uint8Array,
+    /** The input's bytes, whole (on memory from {@link releasableMemory}); null when read again. */
+    private readonly bytes: Uint8Array | null,
     /**
      * Where data row r (from 0) starts in `bytes`; at `rows`, where the last row's record ends (on memory
      * from {@link releasableMemory}).
@@ -62,8 +67,53 @@ export class KeptTable {
    * would then come on top of them): their memory resized to nothing. The table is read no more.
    */
   release(): void {
-    releaseMemory(this.bytes.buffer);
+    if (this.bytes !== null) releaseMemory(this.bytes.buffer);
+    this.window = EMPTY;
+    this.source = null;
     releaseMemory(this.start.buffer);
+  }
+
+  /**
+   * Bytes of the input read again at once (LoadOptions.earlierInput), a 64th of them before the range
+   * asked for; a longer range is not compared (its rows are scanned).
+   */
+  static windowBytes = 4 << 20;
+
+  /** The bytes compared with, and where in the input they start. */
+  private window: Uint8Array = EMPTY;
+  private windowAt = 0;
+  /** Where the bytes the window holds end in the input (a read may come short). */
+  private windowEnd = 0;
+  private source: BytesAt | null = null;
+
+  /** Whether the bytes can be compared with: kept, or read again through `readAgain`. */
+  readable(readAgain: BytesAt | undefined): boolean {
+    if (this.bytes !== null) {
+      this.window = this.bytes;
+      this.windowEnd = this.bytes.length;
+      return true;
+    }
+    if (readAgain === undefined) return false;
+    this.source = readAgain;
+    this.window = new Uint8Array(KeptTable.windowBytes);
+    return true;
+  }
+
+  /**
+   * Makes `window` hold the input's bytes `[from, to)` (read again when it does not, from a little
+   * before `from`); whether it does.
+   */
+  private holds(from: number, to: number): boolean {
+    if (from >= this.windowAt && to <= this.windowEnd) return true;
+    const size = this.window.length;
+    if (this.source === null) return false;
+    const back = size >>> 6;
+    if (to - from > size - back) return false;
+    const at = Math.max(0, from - back);
+    const read = this.source.read(this.window, 0, Math.min(size, to - at + (1 << 20)), at);
+    this.windowAt = at;
+    this.windowEnd = at + read;
+    return to <= this.windowEnd;
   }
 
   /**
@@ -74,8 +124,11 @@ export class KeptTable {
   startsAs(bytes: Uint8Array, n: number): boolean {
     if (this.rows === 0) return false;
     const end = this.start[0];
-    if (end >= n || Buffer.compare(this.bytes.subarray(0, end), bytes.subarray(0, end)) !== 0) return false;
-    return this.bytes[end - 1] === LF || this.bytes[end] === bytes[end];
+    if (end >= n || !this.holds(0, end + 1)) return false;
+    const old = this.window;
+    const o = this.windowAt;
+    if (Buffer.compare(old.subarray(-o, end - o), bytes.subarray(0, end)) !== 0) return false;
+    return old[end - 1 - o] === LF || old[end - o] === bytes[end];
   }
 
   /** The line row `r` (from 0; `rows` for the end) starts on. */
@@ -90,14 +143,15 @@ export class KeptTable {
    */
   rowsRepeated(bytes: Uint8Array, p: number, n: number, r: number, most: number): number {
     const start = this.start;
-    const old = this.bytes;
     const last = Math.min(this.rows, r + most);
     if (r >= last) return r;
     const shift = p - start[r];
     // The first row byte by byte: a look that finds nothing mostly ends there, with no call out.
     const firstEnd = start[r + 1];
-    if (firstEnd + shift > n) return r;
-    for (let i = start[r]; i < firstEnd; i++) if (old[i] !== bytes[i + shift]) return r;
+    if (firstEnd + shift > n || !this.holds(start[r], firstEnd)) return r;
+    const old = this.window;
+    const o = this.windowAt;
+    for (let i = start[r]; i < firstEnd; i++) if (old[i - o] !== bytes[i + shift]) return r;
     // Then whole rows a group at a time in native code (Buffer.compare, where a loop over every byte
     // was compiled in every diff; docs/performance.md), the group doubling while its rows repeat and
     // halving where they do not, down to one row.
@@ -105,19 +159,28 @@ export class KeptTable {
     for (let group = 2; group > 0 && k < last; ) {
       const to = Math.min(last, k + group);
       const end = start[to] + shift;
-      if (end <= n && sameBytes(old, start[k], start[to], bytes, start[k] + shift)) {
+      if (
+        end <= n &&
+        this.holds(start[k], start[to]) &&
+        sameBytes(this.window, start[k] - this.windowAt, start[to] - this.windowAt, bytes, start[k] + shift)
+      ) {
         k = to;
         group *= 2;
       } else group >>>= 1;
     }
     // The last row's end, when no line feed: settled by the byte after it, repeated too.
-    if (old[start[k] - 1] !== LF) {
-      const after = start[k] + shift;
-      if (k === this.rows || after >= n || old[start[k]] !== bytes[after]) k--;
+    const end = start[k];
+    if (!this.holds(end - 1, end)) return k - 1;
+    if (this.window[end - 1 - this.windowAt] !== LF) {
+      const after = end + shift;
+      if (k === this.rows || after >= n || !this.holds(end, end + 1)) return k - 1;
+      if (this.window[end - this.windowAt] !== bytes[after]) k--;
     }
     return k;
   }
 }
+
+const EMPTY = new Uint8Array(0);
 
 /** Whether `a[from, to)` are the bytes of `b` from `at` on (which has them all), compared in native code. */
 export function sameBytes(a: Uint8Array, from: number, to: number, b: Uint8Array, at: number): boolean {
@@ -167,7 +230,8 @@ export function takeKeptTable(tree: object): KeptTable | undefined {
  * reader's side of a {@link KeptTable}.
  */
 export class TableKeeper {
-  private bytes: Uint8Array;
+  /** The bytes kept so far; null when the later load reads the input again. */
+  private bytes: Uint8Array | null;
   private used = 0;
   private start = new Uint32Array(releasableMemory(4 * 1024));
   private rows = 0;
@@ -176,27 +240,30 @@ export class TableKeeper {
   /** False once the input is longer than kept or something else rules a later reading out. */
   keeping = true;
 
-  constructor(inputBytes: number) {
-    this.bytes = new Uint8Array(releasableMemory(inputBytes));
+  /** `readAgain`: the later load reads the input's bytes again (LoadOptions.inputReadAgain). */
+  constructor(inputBytes: number, readAgain = false) {
+    this.bytes = readAgain ? null : new Uint8Array(releasableMemory(inputBytes));
   }
 
-  /** The next chunk of the input, copied (a stream may hand out the same memory again). */
+  /** The next chunk of the input, copied when kept (a stream may hand out the same memory again). */
   write(chunk: Uint8Array): void {
     if (!this.keeping) return;
     const need = this.used + chunk.length;
-    if (need > MOST_KEPT_BYTES) {
+    const bytes = this.bytes;
+    if (need > (bytes === null ? MOST_PLACED_BYTES : MOST_KEPT_BYTES)) {
       this.drop();
       return;
     }
-    if (need > this.bytes.length) {
-      const size = Math.min(MOST_KEPT_BYTES, Math.max(need, 2 * this.bytes.length));
-      const grown = new Uint8Array(releasableMemory(size));
-      grown.set(this.bytes.subarray(0, this.used));
-      releaseMemory(this.bytes.buffer);
-      this.bytes = grown;
-    }
-    this.bytes.set(chunk, this.used);
     this.used = need;
+    if (bytes === null) return;
+    let into = bytes;
+    if (need > into.length) {
+      into = new Uint8Array(releasableMemory(Math.min(MOST_KEPT_BYTES, Math.max(need, 2 * into.length))));
+      into.set(bytes.subarray(0, need - chunk.length));
+      releaseMemory(bytes.buffer);
+      this.bytes = into;
+    }
+    into.set(chunk, need - chunk.length);
   }
 
   /** Data row `row` (from 0, in order) starts at `at` and its record ends at `end`, before line `nextLine`. */
@@ -224,9 +291,9 @@ export class TableKeeper {
   /** Lets go of what is kept: no later reading against this table. */
   drop(): void {
     this.keeping = false;
-    releaseMemory(this.bytes.buffer);
+    if (this.bytes !== null) releaseMemory(this.bytes.buffer);
     releaseMemory(this.start.buffer);
-    this.bytes = new Uint8Array(0);
+    this.bytes = null;
     this.start = new Uint32Array(1);
   }
 
@@ -245,7 +312,7 @@ export class TableKeeper {
     if (!this.keeping || rows !== this.rows) return undefined;
     if (this.start.length < rows + 1) this.makeRoom(rows);
     this.start[rows] = this.end;
-    const bytes = this.bytes.subarray(0, this.used);
+    const bytes = this.bytes === null ? null : this.bytes.subarray(0, this.used);
     return new KeptTable(
       bytes,
       this.start,

@@ -1,6 +1,6 @@
 import fc from "fast-check";
-import { afterEach, describe, expect, it, vi } from "vitest";
-import { KeptJson } from "../../../src/load/json/kept-json.js";
+import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { KeptJson, LEAST_KEPT_BYTES } from "../../../src/load/json/kept-json.js";
 import type { BytesAt, LoadOptions } from "../../../src/load/load-options.js";
 import { NodeSink } from "../../../src/load/node-sink.js";
 import { opts as allOptions } from "../helpers.js";
@@ -182,9 +182,23 @@ async function versions(
 }
 
 describe("a JSON document read against the kept earlier version of itself (kept-json.ts)", () => {
+  // Inputs of a few KiB: kept as any size is (16 MiB and more outside tests, LEAST_KEPT_BYTES).
+  beforeEach(() => {
+    KeptJson.leastBytes = 0;
+  });
   afterEach(() => {
     vi.restoreAllMocks();
     KeptJson.windowBytes = 4 << 20;
+    KeptJson.leastBytes = LEAST_KEPT_BYTES;
+  });
+
+  it("keeps nothing of an input shorter than LEAST_KEPT_BYTES outside tests", async () => {
+    KeptJson.leastBytes = LEAST_KEPT_BYTES;
+    const take = vi.spyOn(NodeSink.prototype, "take");
+    const r = rng(3);
+    const bytes = utf8(JSON.stringify(documentOf(r)));
+    await versions(bytes, bytes, r, opts(), false);
+    expect(take).not.toHaveBeenCalled();
   });
 
   it("reads what it reads alone, however the bytes are cut, and takes nodes where they are the same", async () => {

@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { afterEach, describe, expect, it, vi } from "vitest";
-import type { LoadOptions } from "../../../src/load/load-options.js";
+import type { BytesAt, LoadOptions } from "../../../src/load/load-options.js";
 import { KeptTable } from "../../../src/load/table/kept-table.js";
 import { opts } from "../helpers.js";
 import {
@@ -146,6 +146,7 @@ function comparable(outcome: Outcome): unknown {
 describe("a table read against what its earlier version's load kept (kept-table.ts)", () => {
   afterEach(() => {
     vi.restoreAllMocks();
+    KeptTable.windowBytes = 4 << 20;
   });
 
   it("reads the table NEW reads on its own, error places included, however either is cut", async () => {
@@ -168,7 +169,24 @@ describe("a table read against what its earlier version's load kept (kept-table.
           ...(r.chance(0.1) ? { limits: { maxLineBytes: r.int(16, 200) } } : {}),
         });
         const oldCuts = cutsFor(r, oldBytes.length, r.int(0, 6));
-        const kept = { ...options, keepForLaterVersion: true, inputBytes: oldBytes.length };
+        // OLD's bytes kept by its load, or read again as a file is (LoadOptions.inputReadAgain,
+        // earlierInput) through a window of a few bytes to a few KiB, in reads that may come short.
+        const again = r.chance(0.5);
+        KeptTable.windowBytes = r.pick([64, 256, 4096]);
+        const most = r.pick([7, 1 << 30]);
+        const earlierInput: BytesAt = {
+          read(into, offset, length, position) {
+            const part = oldBytes.subarray(position, position + Math.min(length, most));
+            into.set(part, offset);
+            return part.length;
+          },
+        };
+        const kept = {
+          ...options,
+          keepForLaterVersion: true,
+          inputBytes: oldBytes.length,
+          inputReadAgain: again,
+        };
         const oldOutcome = await outcomeOfAsync(() => loadStreamed(oldBytes, kept, oldCuts));
         if (!("tree" in oldOutcome)) return;
         const header = {
@@ -181,7 +199,12 @@ describe("a table read against what its earlier version's load kept (kept-table.
           loadStreamed(newBytes, options, cutsFor(r, newBytes.length, 3)),
         );
         const cuts = cutsFor(r, newBytes.length, r.int(0, 8));
-        const against = { ...options, earlierVersion: oldOutcome.tree, inputBytes: newBytes.length };
+        const against = {
+          ...options,
+          earlierVersion: oldOutcome.tree,
+          inputBytes: newBytes.length,
+          ...(again ? { earlierInput } : {}),
+        };
         const actual = await outcomeOfAsync(() => loadStreamed(newBytes, against, cuts));
         expect(comparable(actual)).toEqual(comparable(alone));
         if ("tree" in actual && "tree" in alone) expectSameTree(actual.tree, alone.tree);
