@@ -243,14 +243,13 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
         const cell = field === undefined ? undefined : access.field(item, field);
         return (cell === undefined ? undefined : access.pos(cell)) ?? access.pos(item);
       };
-      return linkTable(
-        rowsTable(
-          items.map((item) => recordOf(item, access)),
-          place,
-        ),
-        options,
-        "rows",
+      const table = rowsTable(
+        items.map((item) => recordOf(item, access)),
+        place,
       );
+      // The first row with its lists' first records, for the hint of a FIELD_MISSING (rows-inside.ts).
+      const first = items.length > 0 ? listsOf(items[0], access) : undefined;
+      return linkTable(first ? { ...table, firstRecord: first } : table, options, "rows");
     }
     case "path-map": {
       const map = reading.field === "" ? root : (access.field(root, reading.field) ?? null);
@@ -305,6 +304,23 @@ function documentValues(text: string, options: LoadOptions): LinkedNodes {
  * A mapping as a plain record for a table: scalars as their values, nested values as empty objects
  * (a table reads only plain values; reading such a field is an error there, not a silent blank).
  */
+/** A row's fields as {@link recordOf} reads them, a list of maps read as the list of its first record. */
+function listsOf(value: YamlValue, access: NestedAccess<YamlValue>): Record<string, unknown> {
+  const record = recordOf(value, access);
+  if (access.kind(value) !== Kind.Map) return record;
+  const keys: string[] = [];
+  const values: YamlValue[] = [];
+  access.entries(value, keys, values);
+  keys.forEach((key, k) => {
+    if (access.kind(values[k]) === Kind.Seq)
+      record[key] = access
+        .items(values[k])
+        .slice(0, 1)
+        .map((item) => recordOf(item, access));
+  });
+  return record;
+}
+
 function recordOf(value: YamlValue, access: NestedAccess<YamlValue>): Record<string, unknown> {
   const record: Record<string, unknown> = {};
   if (access.kind(value) !== Kind.Map) return record;

@@ -169,3 +169,39 @@ describe("a dependency listing with a key given twice (a merge left both sides o
     expect(hidden.stderr).not.toMatch(/tide-core/);
   });
 });
+
+describe("a package's file list (npm pack --dry-run --json shape)", () => {
+  // Shaped as npm 11 prints it for this project: an array of one record per package, its "id" making
+  // the array rows, and the files under "files", each with a "path" and a "size". The rows were
+  // FIELD_MISSING with no word of where the files were; the check is the record's own unpackedSize.
+  const pack = JSON.stringify([
+    {
+      id: "tidewater@4.2.0",
+      name: "tidewater",
+      size: 900,
+      unpackedSize: 3340,
+      files: [
+        { path: "LICENSE", size: 1077, mode: 420 },
+        { path: "dist/index.js", size: 2048, mode: 420 },
+        { path: "dist/harbor/quay.js", size: 215, mode: 420 },
+      ],
+      entryCount: 3,
+    },
+  ]);
+
+  it("is FIELD_MISSING naming --start-at /0/files, which reads the files at unpackedSize", async () => {
+    const told = await cli(["-"], { stdin: pack });
+    expect(told.code).toBe(2);
+    expect(told.stderr).toMatch(/--start-at \/0\/files reads them \[FIELD_MISSING\]\n$/);
+    const json = await summary(pack, ["--start-at", "/0/files"]);
+    expect(json.totals).toEqual({ nodes: 6, size: 3340 });
+    expect(paths(json.root)).toEqual([
+      "",
+      "LICENSE",
+      "dist",
+      "dist/index.js",
+      "dist/harbor",
+      "dist/harbor/quay.js",
+    ]);
+  });
+});

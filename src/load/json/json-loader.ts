@@ -525,7 +525,7 @@ export class JsonLoader extends JsonTokenizer {
     if (sink.length < SAMPLED_NODES) return -1;
     let k = list.oldNext;
     for (let tried = 0; tried < TRIED_CHILDREN && k >= 0; tried++) {
-      const bytes = earlier.sameAt(k, buf, i);
+      const bytes = earlier.sameAt(k, buf, i, tried === 0);
       if (bytes >= 0) {
         const room = sink.maxNodes - sink.length;
         if (earlier.count[k] > room) return -1;
@@ -535,14 +535,9 @@ export class JsonLoader extends JsonTokenizer {
         this.take(earlier, k, last, list.node);
         list.oldNext = earlier.nextSibling(last);
         // What separates the siblings may hold a line feed; their bits cover their own bytes.
-        let bits = 0;
-        let adjust = 0;
-        for (let t = k; t !== -1; t = t === last ? -1 : earlier.nextSibling(t)) {
-          bits |= earlier.flags[t];
-          adjust += earlier.adjust(t);
-        }
+        const bits = earlier.runBits;
         const lines = (bits & K_LINES) !== 0 || (last !== k && earlier.lines);
-        this.passOver(buf, i, to, lines, (bits & K_HIGH) !== 0, adjust);
+        this.passOver(buf, i, to, lines, (bits & K_HIGH) !== 0, earlier.runAdjust);
         return to;
       }
       k = earlier.nextSibling(k);

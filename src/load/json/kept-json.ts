@@ -1,7 +1,8 @@
 import type { Buffer } from "node:buffer";
 import { NamePool } from "../../model/names.js";
+import { BytesKeeper, EarlierBytes } from "../earlier-bytes.js";
 import type { BytesAt } from "../load-options.js";
-import { MOST_KEPT_BYTES, releasableMemory, releaseMemory } from "../table/kept-table.js";
+import { releasableMemory, releaseMemory } from "../releasable-memory.js";
 
 /**
  * A node object whose reading did more than add nodes: keyed by name, `"missing": true`, a children
@@ -46,8 +47,8 @@ export interface JsonReadAs {
 export class KeptJson {
   constructor(
     readonly readAs: JsonReadAs,
-    /** The input's bytes (on memory from releasableMemory); null when it is read again. */
-    private readonly bytes: Uint8Array | null,
+    /** The input's bytes as its load kept them, or read again (earlier-bytes.ts). */
+    private readonly bytes: EarlierBytes,
     /** Nodes read; node 0 the one top-level node object. */
     readonly length: number,
     /** Where node i's object starts in `bytes` (its `{`), for the nodes of a children array; else 0. */
@@ -80,7 +81,7 @@ export class KeptJson {
   /** Nothing kept: what a load not read against an earlier version holds in its place. */
   static readonly none = new KeptJson(
     { nameField: "", sizeField: "", childrenField: "", keepFields: [], maxTokenBytes: 0, maxDepth: 0 },
-    null,
+    new EarlierBytes(null),
     0,
     new Uint32Array(0),
     new Uint32Array(0),
@@ -96,37 +97,15 @@ export class KeptJson {
     false,
   );
 
-  /**
-   * Bytes of the input read again at once (LoadOptions.earlierInput), a 64th of them before the range
-   * asked for; a range longer than the rest is not compared (its nodes are taken piece by piece).
-   */
-  static windowBytes = 4 << 20;
-
   /** Shortest input kept (LEAST_KEPT_BYTES; tests read small inputs against their earlier versions). */
   static leastBytes = LEAST_KEPT_BYTES;
-
-  /** The bytes compared with, and where in the input they start. */
-  private window: Uint8Array | null = null;
-  private windowAt = 0;
-  /** Where the bytes the window holds end in the input (a read may come short). */
-  private windowEnd = 0;
-  private source: BytesAt | null = null;
 
   /**
    * Whether the bytes can be compared with: kept, or read again through `readAgain` (the input as the
    * earlier load read it: LoadOptions.earlierInput).
    */
   readable(readAgain: BytesAt | undefined): boolean {
-    if (this.bytes !== null) {
-      this.window = this.bytes;
-      return true;
-    }
-    if (readAgain === undefined) return false;
-    this.source = readAgain;
-    this.window = new Uint8Array(KeptJson.windowBytes);
-    this.windowAt = 0;
-    this.windowEnd = 0;
-    return true;
+    return this.bytes.readable(readAgain);
   }
 
   /** Node `i`'s bytes beyond their UTF-16 length (see `adjusts`). */
@@ -149,11 +128,11 @@ export class KeptJson {
    * The byte length of node `k`'s object when its subtree may be taken and `buf[i, n)` begins with its
    * bytes; else -1.
    */
-  sameAt(k: number, buf: Buffer, i: number): number {
+  sameAt(k: number, buf: Buffer, i: number, anchor = true): number {
     if ((this.flags[k] & (K_ODD | K_ODD_BELOW)) !== 0) return -1;
     const s = this.start[k];
     const e = this.end[k];
-    if (s === 0 || i + (e - s) > buf.length || !this.same(s, e, buf, i)) return -1;
+    if (s === 0 || i + (e - s) > buf.length || !this.same(s, e, buf, i, 64, anchor)) return -1;
     return e - s;
   }
 
@@ -168,65 +147,61 @@ export class KeptJson {
     const flags = this.flags;
     let last = k;
     let nodes = this.count[k];
+    let bits = flags[k];
+    let adjust = this.adjust(k);
     for (let group = 1; group > 0; ) {
       let g = last;
       let m = 0;
       let more = 0;
+      let groupBits = 0;
+      let groupAdjust = 0;
       while (m < group) {
         const next = this.nextSibling(g);
         if (next < 0 || (flags[next] & (K_ODD | K_ODD_BELOW)) !== 0) break;
         g = next;
         m++;
         more += this.count[next];
+        groupBits |= flags[next];
+        groupAdjust += this.adjust(next);
       }
       if (m === 0) break;
       const to = at + (end[g] - end[last]);
-      if (nodes + more <= room && to <= buf.length && this.same(end[last], end[g], buf, at)) {
+      if (nodes + more <= room && to <= buf.length && this.same(end[last], end[g], buf, at, 8, true)) {
         last = g;
         at = to;
         nodes += more;
+        bits |= groupBits;
+        adjust += groupAdjust;
         group *= 2;
       } else group = m === group ? group >>> 1 : m >>> 1;
     }
+    this.runBits = bits;
+    this.runAdjust = adjust;
     return last;
   }
 
-  /** Whether the input's bytes `[from, to)` are those of `b` from `at` on (which has them all). */
-  private same(from: number, to: number, b: Buffer, at: number): boolean {
-    let a = this.window!;
-    let shift = 0;
-    if (this.source !== null) {
-      // A window of the input read again: moved on to start a little before `from` when it does not
-      // hold [from, to) (a range longer than it is never compared: taken piece by piece instead).
-      const size = a.length;
-      const back = size >>> 6;
-      if (to - from > size - back) return false;
-      if (from < this.windowAt || to > this.windowEnd) {
-        // What is asked for and a MiB more (about a chunk of the later input): a look far back or
-        // ahead reads no more than it needs.
-        const at0 = Math.max(0, from - back);
-        const read = this.source.read(a, 0, Math.min(size, to - at0 + (1 << 20)), at0);
-        this.windowAt = at0;
-        this.windowEnd = at0 + read;
-        if (to > this.windowEnd) return false;
-      }
-      shift = this.windowAt;
-    } else if (this.bytes === null) return false;
-    a = this.window!;
-    // The first bytes one by one (a different node mostly differs there; a leaf is mostly shorter), then
-    // the rest in native code.
-    const x0 = from - shift;
-    const x1 = to - shift;
-    const head = Math.min(x1, x0 + 64);
-    for (let x = x0, y = at; x < head; x++, y++) if (a[x] !== b[y]) return false;
-    return x1 === head || b.compare(a, head, x1, at + (head - x0), at + (x1 - x0)) === 0;
+  /** Of the siblings `lastRepeated` found last: their K_ bits, or-ed, and their adjustments, summed. */
+  runBits = 0;
+  runAdjust = 0;
+
+  /**
+   * Whether the input's bytes `[from, to)` are those of `b` from `at` on (which has them all): from the
+   * window, moved where the looks go on (`anchor`: the counterpart's child at the cursor and the
+   * siblings after it), or read apart (the child after it, tried in case the cursor's was removed).
+   */
+  private same(from: number, to: number, b: Buffer, at: number, first: number, anchor: boolean): boolean {
+    const kept = this.bytes;
+    if (anchor) {
+      if (!kept.holds(from, to)) return false;
+      return sameFrom(kept.window, from - kept.windowAt, to - kept.windowAt, b, at, first);
+    }
+    const part = kept.apart(from, to);
+    return part !== null && sameFrom(part, 0, to - from, b, at, first);
   }
 
   /** Gives the memory of the bytes and offsets back now: read no more. */
   release(): void {
-    if (this.bytes !== null) releaseMemory(this.bytes.buffer);
-    this.window = null;
-    this.source = null;
+    this.bytes.release();
     releaseMemory(this.start.buffer);
     releaseMemory(this.end.buffer);
     releaseMemory(this.count.buffer);
@@ -235,17 +210,26 @@ export class KeptJson {
   }
 }
 
+/**
+ * Whether `a[x0, x1)` are the bytes of `b` from `at` on (which has them all): the `first` bytes one by
+ * one (where a node that differs mostly does: its name; a leaf is mostly shorter than 64), then the
+ * rest in native code.
+ */
+function sameFrom(a: Uint8Array, x0: number, x1: number, b: Buffer, at: number, first: number): boolean {
+  const head = Math.min(x1, x0 + first);
+  for (let x = x0, y = at; x < head; x++, y++) if (a[x] !== b[y]) return false;
+  return x1 === head || b.compare(a, head, x1, at + (head - x0), at + (x1 - x0)) === 0;
+}
+
 /** Longest input whose node objects' places are kept for a later version read again (offsets in 32 bits). */
-const MOST_PLACED_BYTES = 2 ** 32 - 1;
 
 /**
  * The loader's side of a {@link KeptJson}: keeps the nodes' places while they are read, and the input's
  * bytes (up to MOST_KEPT_BYTES) unless the later load reads them again.
  */
 export class JsonKeeper {
-  /** The bytes kept so far; null when the later load reads the input again (or nothing is kept). */
-  private bytes: Uint8Array | null;
-  private used = 0;
+  /** The input's bytes kept, or counted (earlier-bytes.ts). */
+  private readonly bytes: BytesKeeper;
   start = new Uint32Array(releasableMemory(4 * 1024));
   end = new Uint32Array(releasableMemory(4 * 1024));
   count = new Int32Array(releasableMemory(4 * 1024));
@@ -257,35 +241,15 @@ export class JsonKeeper {
 
   /** `readAgain`: the later load reads the input's bytes again (LoadOptions.inputReadAgain). */
   constructor(inputBytes: number, readAgain: boolean) {
-    this.keeping =
-      inputBytes > 0 &&
-      inputBytes >= KeptJson.leastBytes &&
-      inputBytes <= (readAgain ? MOST_PLACED_BYTES : MOST_KEPT_BYTES);
-    this.bytes =
-      this.keeping && !readAgain
-        ? new Uint8Array(releasableMemory(Math.min(inputBytes, MOST_KEPT_BYTES)))
-        : null;
+    const kept = inputBytes > 0 && inputBytes >= KeptJson.leastBytes;
+    this.bytes = new BytesKeeper(kept ? inputBytes : 0, readAgain);
+    this.keeping = kept && this.bytes.keeping;
+    if (!this.keeping) this.bytes.drop();
   }
 
-  /** The next chunk of the input, copied when the bytes are kept (a stream may hand out the same memory again). */
+  /** The next chunk of the input. */
   write(chunk: Uint8Array): void {
-    if (!this.keeping) return;
-    const need = this.used + chunk.length;
-    const bytes = this.bytes;
-    if (need > (bytes === null ? MOST_PLACED_BYTES : MOST_KEPT_BYTES)) {
-      this.drop();
-      return;
-    }
-    this.used = need;
-    if (bytes === null) return;
-    let into = bytes;
-    if (need > into.length) {
-      into = new Uint8Array(releasableMemory(Math.min(MOST_KEPT_BYTES, Math.max(need, 2 * into.length))));
-      into.set(bytes.subarray(0, need - chunk.length));
-      releaseMemory(bytes.buffer);
-      this.bytes = into;
-    }
-    into.set(chunk, need - chunk.length);
+    if (this.keeping && !this.bytes.write(chunk)) this.drop();
   }
 
   /**
@@ -323,8 +287,7 @@ export class JsonKeeper {
   /** Lets go of what is kept. */
   drop(): void {
     this.keeping = false;
-    if (this.bytes !== null) releaseMemory(this.bytes.buffer);
-    this.bytes = null;
+    this.bytes.drop();
   }
 
   /** What is kept, over the nodes as the loader read them; undefined when nothing is. */
@@ -345,7 +308,7 @@ export class JsonKeeper {
     }
     return new KeptJson(
       readAs,
-      this.bytes === null ? null : this.bytes.subarray(0, this.used),
+      this.bytes.earlier(),
       length,
       this.start,
       this.end,

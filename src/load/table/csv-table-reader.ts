@@ -2,13 +2,14 @@ import { Buffer, isUtf8 } from "node:buffer";
 import { EspalierError, quoted, say } from "../../errors.js";
 import { asBuffer, codecs } from "../../model/buffer-codecs.js";
 import { NamePool, type Names, namesToArray } from "../../model/names.js";
+import { BytesKeeper } from "../earlier-bytes.js";
 import { EarlierNames } from "../earlier-names.js";
 import { hasReplacement } from "../has-replacement.js";
 import type { BytesAt, LoadOptions } from "../load-options.js";
 import { limitsOf } from "../read-limits.js";
 import { CsvScanner, type CsvSink } from "./csv-scanner.js";
 import { EarlierRows } from "./earlier-rows.js";
-import { type KeptColumn, type KeptTable, MOST_KEPT_BYTES, TableKeeper } from "./kept-table.js";
+import { type KeptColumn, type KeptTable, TableKeeper } from "./kept-table.js";
 import { RowLines } from "./row-lines.js";
 import { withSeparatorHint } from "./separator-hint.js";
 import { type NumberCells, numberCell, type Table, type WrittenCell } from "./table.js";
@@ -159,8 +160,9 @@ export class CsvTableReader implements CsvSink {
     this.poolIds = !others.has(fields.idField) && fields.nameField !== fields.idField;
     this.maxRows = fields.maxNodes;
     const size = fields.inputBytes;
-    if (reading.keep && size !== undefined && (reading.readAgain === true || size <= MOST_KEPT_BYTES))
-      this.keeper = new TableKeeper(size, reading.readAgain === true);
+    const bytes =
+      reading.keep && size !== undefined ? new BytesKeeper(size, reading.readAgain === true) : null;
+    if (bytes?.keeping) this.keeper = new TableKeeper(bytes);
     this.laterOf = reading.earlier?.readable(reading.earlierInput) === true ? reading.earlier : undefined;
     if (this.laterOf !== undefined) this.scanner.skipper = this.takeHeader;
   }

@@ -1,16 +1,11 @@
 import { Buffer } from "node:buffer";
 import type { NamePool } from "../../model/names.js";
+import type { BytesKeeper, EarlierBytes } from "../earlier-bytes.js";
 import type { BytesAt } from "../load-options.js";
+import { releasableMemory, releaseMemory } from "../releasable-memory.js";
 import type { RowLines } from "./row-lines.js";
 
-/**
- * Longest input whose bytes a table keeps for a later version's load (LoadOptions.keepForLaterVersion):
- * they are held, with where each row starts and the columns of numbers, until that load ends. Above
- * it the later version is read as any table is (about 8 million rows of the benchmark's table).
- */
-export const MOST_KEPT_BYTES = 256 * 2 ** 20;
-/** Longest input whose rows' places are kept for a later version that reads it again (32-bit offsets). */
-const MOST_PLACED_BYTES = 2 ** 32 - 1;
+export { MOST_KEPT_BYTES } from "../earlier-bytes.js";
 
 const LF = 0x0a;
 
@@ -36,8 +31,8 @@ export interface KeptColumn {
  */
 export class KeptTable {
   constructor(
-    /** The input's bytes, whole (on memory from {@link releasableMemory}); null when read again. */
-    private readonly bytes: Uint8Array | null,
+    /** The input's bytes as its load kept them, or read again (earlier-bytes.ts). */
+    private readonly bytes: EarlierBytes,
     /**
      * Where data row r (from 0) starts in `bytes`; at `rows`, where the last row's record ends (on memory
      * from {@link releasableMemory}).
@@ -67,53 +62,13 @@ export class KeptTable {
    * would then come on top of them): their memory resized to nothing. The table is read no more.
    */
   release(): void {
-    if (this.bytes !== null) releaseMemory(this.bytes.buffer);
-    this.window = EMPTY;
-    this.source = null;
+    this.bytes.release();
     releaseMemory(this.start.buffer);
   }
 
-  /**
-   * Bytes of the input read again at once (LoadOptions.earlierInput), a 64th of them before the range
-   * asked for; a longer range is not compared (its rows are scanned).
-   */
-  static windowBytes = 4 << 20;
-
-  /** The bytes compared with, and where in the input they start. */
-  private window: Uint8Array = EMPTY;
-  private windowAt = 0;
-  /** Where the bytes the window holds end in the input (a read may come short). */
-  private windowEnd = 0;
-  private source: BytesAt | null = null;
-
   /** Whether the bytes can be compared with: kept, or read again through `readAgain`. */
   readable(readAgain: BytesAt | undefined): boolean {
-    if (this.bytes !== null) {
-      this.window = this.bytes;
-      this.windowEnd = this.bytes.length;
-      return true;
-    }
-    if (readAgain === undefined) return false;
-    this.source = readAgain;
-    this.window = new Uint8Array(KeptTable.windowBytes);
-    return true;
-  }
-
-  /**
-   * Makes `window` hold the input's bytes `[from, to)` (read again when it does not, from a little
-   * before `from`); whether it does.
-   */
-  private holds(from: number, to: number): boolean {
-    if (from >= this.windowAt && to <= this.windowEnd) return true;
-    const size = this.window.length;
-    if (this.source === null) return false;
-    const back = size >>> 6;
-    if (to - from > size - back) return false;
-    const at = Math.max(0, from - back);
-    const read = this.source.read(this.window, 0, Math.min(size, to - at + (1 << 20)), at);
-    this.windowAt = at;
-    this.windowEnd = at + read;
-    return to <= this.windowEnd;
+    return this.bytes.readable(readAgain);
   }
 
   /**
@@ -124,9 +79,10 @@ export class KeptTable {
   startsAs(bytes: Uint8Array, n: number): boolean {
     if (this.rows === 0) return false;
     const end = this.start[0];
-    if (end >= n || !this.holds(0, end + 1)) return false;
-    const old = this.window;
-    const o = this.windowAt;
+    const kept = this.bytes;
+    if (end >= n || !kept.holds(0, end + 1)) return false;
+    const old = kept.window;
+    const o = kept.windowAt;
     if (Buffer.compare(old.subarray(-o, end - o), bytes.subarray(0, end)) !== 0) return false;
     return old[end - 1 - o] === LF || old[end - o] === bytes[end];
   }
@@ -148,9 +104,10 @@ export class KeptTable {
     const shift = p - start[r];
     // The first row byte by byte: a look that finds nothing mostly ends there, with no call out.
     const firstEnd = start[r + 1];
-    if (firstEnd + shift > n || !this.holds(start[r], firstEnd)) return r;
-    const old = this.window;
-    const o = this.windowAt;
+    const kept = this.bytes;
+    if (firstEnd + shift > n || !kept.holds(start[r], firstEnd)) return r;
+    const old = kept.window;
+    const o = kept.windowAt;
     for (let i = start[r]; i < firstEnd; i++) if (old[i - o] !== bytes[i + shift]) return r;
     // Then whole rows a group at a time in native code (Buffer.compare, where a loop over every byte
     // was compiled in every diff; docs/performance.md), the group doubling while its rows repeat and
@@ -161,8 +118,8 @@ export class KeptTable {
       const end = start[to] + shift;
       if (
         end <= n &&
-        this.holds(start[k], start[to]) &&
-        sameBytes(this.window, start[k] - this.windowAt, start[to] - this.windowAt, bytes, start[k] + shift)
+        kept.holds(start[k], start[to]) &&
+        sameBytes(kept.window, start[k] - kept.windowAt, start[to] - kept.windowAt, bytes, start[k] + shift)
       ) {
         k = to;
         group *= 2;
@@ -170,17 +127,15 @@ export class KeptTable {
     }
     // The last row's end, when no line feed: settled by the byte after it, repeated too.
     const end = start[k];
-    if (!this.holds(end - 1, end)) return k - 1;
-    if (this.window[end - 1 - this.windowAt] !== LF) {
+    if (!kept.holds(end - 1, end)) return k - 1;
+    if (kept.window[end - 1 - kept.windowAt] !== LF) {
       const after = end + shift;
-      if (k === this.rows || after >= n || !this.holds(end, end + 1)) return k - 1;
-      if (this.window[end - this.windowAt] !== bytes[after]) k--;
+      if (k === this.rows || after >= n || !kept.holds(end, end + 1)) return k - 1;
+      if (kept.window[end - kept.windowAt] !== bytes[after]) k--;
     }
     return k;
   }
 }
-
-const EMPTY = new Uint8Array(0);
 
 /** Whether `a[from, to)` are the bytes of `b` from `at` on (which has them all), compared in native code. */
 export function sameBytes(a: Uint8Array, from: number, to: number, b: Uint8Array, at: number): boolean {
@@ -188,26 +143,6 @@ export function sameBytes(a: Uint8Array, from: number, to: number, b: Uint8Array
   const x = new Uint8Array(a.buffer, a.byteOffset + from, to - from);
   const y = new Uint8Array(b.buffer, b.byteOffset + at, to - from);
   return Buffer.compare(x, y) === 0;
-}
-
-/**
- * Memory for what a table keeps, which {@link releaseMemory} gives back at once: resizable, so that it
- * can be resized to nothing. Not detached (moved away by a transfer), as it once was: the first
- * ArrayBuffer detached in a process throws away the engine's optimized code of every function that
- * reads a typed array, and a diff's NEW load compiled it all again (docs/performance.md). A plain
- * ArrayBuffer where the engine cannot reserve the room (the collector frees it then).
- */
-export function releasableMemory(byteLength: number): ArrayBuffer {
-  try {
-    return new ArrayBuffer(byteLength, { maxByteLength: Math.max(1, byteLength) });
-  } catch {
-    return new ArrayBuffer(byteLength);
-  }
-}
-
-/** Gives the memory of `buffer` back now, when it is resizable ({@link releasableMemory}). */
-export function releaseMemory(buffer: ArrayBufferLike): void {
-  if (buffer instanceof ArrayBuffer && buffer.resizable) buffer.resize(0);
 }
 
 /** Kept tables by the tree their load built (see {@link keepTable}). */
@@ -230,9 +165,6 @@ export function takeKeptTable(tree: object): KeptTable | undefined {
  * reader's side of a {@link KeptTable}.
  */
 export class TableKeeper {
-  /** The bytes kept so far; null when the later load reads the input again. */
-  private bytes: Uint8Array | null;
-  private used = 0;
   private start = new Uint32Array(releasableMemory(4 * 1024));
   private rows = 0;
   private end = 0;
@@ -240,30 +172,12 @@ export class TableKeeper {
   /** False once the input is longer than kept or something else rules a later reading out. */
   keeping = true;
 
-  /** `readAgain`: the later load reads the input's bytes again (LoadOptions.inputReadAgain). */
-  constructor(inputBytes: number, readAgain = false) {
-    this.bytes = readAgain ? null : new Uint8Array(releasableMemory(inputBytes));
-  }
+  /** `bytes`: the input's bytes kept, or counted (earlier-bytes.ts). */
+  constructor(private readonly bytes: BytesKeeper) {}
 
-  /** The next chunk of the input, copied when kept (a stream may hand out the same memory again). */
+  /** The next chunk of the input. */
   write(chunk: Uint8Array): void {
-    if (!this.keeping) return;
-    const need = this.used + chunk.length;
-    const bytes = this.bytes;
-    if (need > (bytes === null ? MOST_PLACED_BYTES : MOST_KEPT_BYTES)) {
-      this.drop();
-      return;
-    }
-    this.used = need;
-    if (bytes === null) return;
-    let into = bytes;
-    if (need > into.length) {
-      into = new Uint8Array(releasableMemory(Math.min(MOST_KEPT_BYTES, Math.max(need, 2 * into.length))));
-      into.set(bytes.subarray(0, need - chunk.length));
-      releaseMemory(bytes.buffer);
-      this.bytes = into;
-    }
-    into.set(chunk, need - chunk.length);
+    if (this.keeping && !this.bytes.write(chunk)) this.drop();
   }
 
   /** Data row `row` (from 0, in order) starts at `at` and its record ends at `end`, before line `nextLine`. */
@@ -291,9 +205,8 @@ export class TableKeeper {
   /** Lets go of what is kept: no later reading against this table. */
   drop(): void {
     this.keeping = false;
-    if (this.bytes !== null) releaseMemory(this.bytes.buffer);
+    this.bytes.drop();
     releaseMemory(this.start.buffer);
-    this.bytes = null;
     this.start = new Uint32Array(1);
   }
 
@@ -312,9 +225,8 @@ export class TableKeeper {
     if (!this.keeping || rows !== this.rows) return undefined;
     if (this.start.length < rows + 1) this.makeRoom(rows);
     this.start[rows] = this.end;
-    const bytes = this.bytes === null ? null : this.bytes.subarray(0, this.used);
     return new KeptTable(
-      bytes,
+      this.bytes.earlier(),
       this.start,
       rows,
       lines,

@@ -16,6 +16,7 @@ import { checkWrittenIds, checkWrittenPaths } from "./check-written.js";
 import { IdIndex } from "./id-index.js";
 import { inexactId } from "./inexact-id.js";
 import { idIsNullParent, missingParent, nearParentId, nullParentSet } from "./null-parent.js";
+import { rowsInside } from "./rows-inside.js";
 import { rowsTable } from "./rows-table.js";
 import { withSeparatorHint } from "./separator-hint.js";
 import { type Cell, type NumberCells, numberCell, type Table } from "./table.js";
@@ -127,7 +128,7 @@ function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): 
         : naming
           ? "; say which columns hold them with --id-field COLUMN and --parent-field COLUMN, or --path-field COLUMN"
           : ""
-    }${edges ?? ""}${
+    }${edges ?? ""}${rowsInside(table, options)}${
       shape === "table"
         ? "; a listing of sizes and paths (size, a tab, the path) reads with --input-format paths"
         : ""

@@ -19,6 +19,7 @@ export function rowsTable(
   return {
     length: records.length,
     textCells: false,
+    ...(records.length > 0 ? { firstRecord: records[0] } : {}),
     column(name) {
       const cells: Cell[] = new Array(records.length);
       let found = false;

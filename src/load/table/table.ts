@@ -17,6 +17,8 @@ export interface Table {
   column(name: string): readonly Cell[] | undefined;
   /** The columns that exist, for messages. */
   columnNames(): string[];
+  /** JSON or YAML rows: the first row as parsed, for the hints of a message (see rows-inside.ts). */
+  readonly firstRecord?: Readonly<Record<string, unknown>>;
   /**
    * Lets go of the cells (columns read before stay valid; the table answers no more). The engine may
    * keep a parser's closure alive in compiled code long after the load, and with it every cell.

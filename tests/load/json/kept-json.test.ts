@@ -1,5 +1,6 @@
 import fc from "fast-check";
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { EarlierBytes } from "../../../src/load/earlier-bytes.js";
 import { KeptJson, LEAST_KEPT_BYTES } from "../../../src/load/json/kept-json.js";
 import type { BytesAt, LoadOptions } from "../../../src/load/load-options.js";
 import { NodeSink } from "../../../src/load/node-sink.js";
@@ -188,7 +189,7 @@ describe("a JSON document read against the kept earlier version of itself (kept-
   });
   afterEach(() => {
     vi.restoreAllMocks();
-    KeptJson.windowBytes = 4 << 20;
+    EarlierBytes.windowBytes = 4 << 20;
     KeptJson.leastBytes = LEAST_KEPT_BYTES;
   });
 
@@ -226,7 +227,7 @@ describe("a JSON document read against the kept earlier version of itself (kept-
         const r = rng(seed);
         // A window of a few hundred bytes to a few KiB: moved along, and too short for some ranges;
         // reads short of what was asked, now and then (a file read may return less).
-        KeptJson.windowBytes = r.pick([256, 1024, 4096]);
+        EarlierBytes.windowBytes = r.pick([256, 1024, 4096]);
         const root = documentOf(r);
         const oldBytes = utf8(text(r, root));
         const newBytes = spoiled(r, utf8(text(r, later(r, root))));

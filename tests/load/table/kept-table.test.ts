@@ -1,5 +1,6 @@
 import fc from "fast-check";
 import { afterEach, describe, expect, it, vi } from "vitest";
+import { EarlierBytes } from "../../../src/load/earlier-bytes.js";
 import type { BytesAt, LoadOptions } from "../../../src/load/load-options.js";
 import { KeptTable } from "../../../src/load/table/kept-table.js";
 import { opts } from "../helpers.js";
@@ -146,7 +147,7 @@ function comparable(outcome: Outcome): unknown {
 describe("a table read against what its earlier version's load kept (kept-table.ts)", () => {
   afterEach(() => {
     vi.restoreAllMocks();
-    KeptTable.windowBytes = 4 << 20;
+    EarlierBytes.windowBytes = 4 << 20;
   });
 
   it("reads the table NEW reads on its own, error places included, however either is cut", async () => {
@@ -172,7 +173,7 @@ describe("a table read against what its earlier version's load kept (kept-table.
         // OLD's bytes kept by its load, or read again as a file is (LoadOptions.inputReadAgain,
         // earlierInput) through a window of a few bytes to a few KiB, in reads that may come short.
         const again = r.chance(0.5);
-        KeptTable.windowBytes = r.pick([64, 256, 4096]);
+        EarlierBytes.windowBytes = r.pick([64, 256, 4096]);
         const most = r.pick([7, 1 << 30]);
         const earlierInput: BytesAt = {
           read(into, offset, length, position) {
