@@ -318,7 +318,10 @@ export abstract class JsonTokenizer {
           throw this.syntax(base + i, say`expected ${what}, found ${shown(c)}${jsoncHint(c, false)}`);
         }
         default:
-          throw this.syntax(base + i, say`unexpected ${shown(c)} after the JSON value`);
+          throw this.syntax(
+            base + i,
+            say`unexpected ${shown(c)} after the JSON value${jsonLinesHint(c, base + i === this.pos.lineStart)}`,
+          );
       }
     }
     this.state = state;
@@ -635,6 +638,15 @@ function jsoncHint(c: number, afterComma: boolean): string {
   if (afterComma)
     return "; JSON has no comma before a closing bracket (RFC 8259), as JSONC files (tsconfig.json) may have: remove it";
   return "";
+}
+
+/**
+ * What a second value at the start of a line is: JSON Lines (one JSON text a line, jsonlines.org),
+ * which espalier reads as a fact table, its records rolled up by columns named as levels.
+ */
+function jsonLinesHint(c: number, lineStart: boolean): string {
+  if (!lineStart || (c !== 0x7b && c !== 0x5b)) return "";
+  return "; another JSON text begins this line: one value a line (JSON Lines) is read as a table of records, with --input-format jsonl and the columns that make its levels (--levels team,service, or --key-field)";
 }
 
 function shown(c: number): MessagePart {

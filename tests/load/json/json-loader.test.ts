@@ -109,6 +109,20 @@ describe("loadTree(json)", () => {
     expect(error.pos).toEqual({ line: 3, column: 14 });
   });
 
+  it("loadTree(json) names JSON Lines where a second value begins a line, and only there", () => {
+    // JSON Lines: one JSON text a line (jsonlines.org); espalier reads them as a fact table.
+    const lines = caught(() => json('{"team":"ledger","cost":3}\n{"team":"quay","cost":5}\n'));
+    expect(lines.code).toBe("PARSE_JSON");
+    expect(lines.pos).toEqual({ line: 2, column: 1 });
+    expect(lines.message).toContain("--input-format jsonl");
+    // Another stray character after the value, or a value in the middle of a line: no such guess.
+    for (const text of ['{"name":"a"}\n}', '{"name":"a"} {"name":"b"}', '{"name":"a"}\n  x']) {
+      const error = caught(() => json(text));
+      expect(error.code).toBe("PARSE_JSON");
+      expect(error.message).not.toContain("JSON Lines");
+    }
+  });
+
   it("loadTree(json) reports input ending early at the end of the last line", () => {
     const error = caught(() => json('{"name": "a",\n "children": [\n'));
     expect(error.code).toBe("PARSE_JSON");
