@@ -271,7 +271,8 @@ for (const c of cases) {
 // Its screens are `espalier`'s behind a two-column gutter, over a status row: the key says every mark
 // and cut on them, or the status row sends the reader to the help for them (`h: keys, marks`).
 const { draw } = await import("../../dist/explore/screen.js");
-const { summarySession } = await import("../../dist/explore/session.js");
+const { diffSession, summarySession } = await import("../../dist/explore/session.js");
+const { prepareDiff } = await import("../../dist/diff/diff-trees.js");
 const { GUTTER, startState } = await import("../../dist/explore/update.js");
 const { resolveFoci } = await import("../../dist/focus/resolve.js");
 const { loadTree } = await import("../../dist/load/index.js");
@@ -284,6 +285,14 @@ const views = [
   { name: "npm ls, focus", file: npmLs, format: "json", foci: ["**/vitest"] },
   { name: "find /usr/share", file: share.file, format: "paths", foci: [] },
   { name: "find /usr/share, deep focus", file: share.file, format: "paths", foci: [share.deep] },
+  { name: "npm ls diff", file: npmLs, edited: npmLsEdited, format: "json", foci: [] },
+  {
+    name: "find /usr/share diff",
+    file: share.file,
+    edited: share.edited,
+    format: "paths",
+    foci: [share.mid],
+  },
 ];
 const sizes = quick
   ? [
@@ -301,14 +310,16 @@ const sizes = quick
 let viewsRead = 0;
 let pointed = 0;
 for (const v of views) {
-  const tree = loadTree(readFileSync(v.file, "utf8"), {
-    ...defaultLoadOptions,
-    file: v.file,
-    format: v.format,
-    rootName: v.file.split("/").pop(),
-  });
-  const prepared = prepare(tree);
-  const session = summarySession(prepared, { units: "plain", chains: true, palette: palette(false) });
+  const load = (file) =>
+    loadTree(readFileSync(file, "utf8"), {
+      ...defaultLoadOptions,
+      file,
+      format: v.format,
+      rootName: file.split("/").pop(),
+    });
+  const look = { units: "plain", chains: true, palette: palette(false) };
+  const prepared = v.edited ? prepareDiff(load(v.file), load(v.edited), {}) : prepare(load(v.file));
+  const session = v.edited ? diffSession(prepared, look) : summarySession(prepared, look);
   for (const [rows, cols] of sizes) {
     const what = `explore ${v.name} | ${rows}x${cols}`;
     const state = startState(session, {
@@ -319,17 +330,30 @@ for (const v of views) {
       fociFile: "foci.txt",
     });
     const screen = draw(session, state, false);
-    viewsRead++;
     const problems = [];
     for (const r of screen.rows) if (stringWidth(r) > cols) problems.push(`wider than ${cols}: ${r}`);
     if (screen.rows.length !== rows) problems.push(`${screen.rows.length} rows for ${rows}`);
     const status = screen.rows[screen.rows.length - 1];
+    // A screen too small for the root and the focus paths says what it needs, and shows no tree.
+    if (
+      screen.cursorRow === null &&
+      /needs [0-9]+ (rows|columns)$/.test(screen.rows[0]) &&
+      problems.length === 0
+    ) {
+      refused++;
+      continue;
+    }
+    viewsRead++;
     const text = `${screen.rows
       .slice(0, -1)
       .map((r) => r.slice(GUTTER))
       .join("\n")
       .trimEnd()}\n`;
-    const read = checkText(text, { budget: rows - 1, width: cols - GUTTER });
+    const read = checkText(text, {
+      budget: rows - 1,
+      width: cols - GUTTER,
+      kind: v.edited ? "diff" : "summary",
+    });
     if (/ h: keys, marks$/.test(status)) {
       pointed++;
       // What is wrong besides the key's words is still wrong.
