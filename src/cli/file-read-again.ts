@@ -13,6 +13,8 @@ export interface ReadAgain extends BytesAt {
    * back). A file written to between the two loads, or replaced, is read again in full instead.
    */
   unchanged(): boolean;
+  /** Whether a load read the file again (`read` was called): only then does a change matter. */
+  readFrom(): boolean;
   close(): void;
 }
 
@@ -44,8 +46,13 @@ export function fileReadAgain(name: string): ReadAgain | undefined {
     s.mtimeNs === first.mtimeNs &&
     s.ctimeNs === first.ctimeNs;
   let open = true;
+  let read = false;
   return {
-    read: (into, offset, length, position) => readSync(fd, into, offset, length, position),
+    read: (into, offset, length, position) => {
+      read = true;
+      return readSync(fd, into, offset, length, position);
+    },
+    readFrom: () => read,
     unchanged: () => {
       if (!open) return false;
       try {

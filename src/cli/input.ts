@@ -164,7 +164,8 @@ export async function loadVersions(
         false,
         readable ? { earlierInput: again! } : undefined,
       );
-      if (readable && !again!.unchanged()) throw oldChanged(oldInput);
+      // A change matters only where NEW's load read OLD again (a JSON document or a table it compared).
+      if (readable && again!.readFrom() && !again!.unchanged()) throw oldChanged(oldInput);
     } finally {
       again?.close();
     }

@@ -136,6 +136,17 @@ describe("loadVersions(io, OLD, NEW) on one thread, OLD read again", () => {
     expect((caught as EspalierError).message).toContain("changed while the new version was read");
   });
 
+  it("minds no change of OLD that NEW's load did not read again (an input too short to keep)", async () => {
+    KeptJson.leastBytes = LEAST_KEPT_BYTES;
+    let looks = 0;
+    const changing = (name: string): ReadAgain => {
+      const again = fileReadAgain(name)!;
+      return { ...again, unchanged: () => looks++ === 0 && again.unchanged() };
+    };
+    const [, tree] = await loadVersions(io(changing), oldFile, newFile, opts);
+    expect(tree.ownSize[2 + 700]).toBe(7000);
+  });
+
   it("reads NEW whole when OLD changed before NEW's load began", async () => {
     const take = vi.spyOn(NodeSink.prototype, "take");
     const [, tree] = await loadVersions(
