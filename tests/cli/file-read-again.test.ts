@@ -103,7 +103,13 @@ describe("loadVersions(io, OLD, NEW) on one thread, OLD read again", () => {
     const [, readAgain] = await loadVersions(
       io((name) => {
         const again = fileReadAgain(name)!;
-        return { ...again, read: (...args) => (reads.push(args[3]), again.read(...args)) };
+        return {
+          ...again,
+          read: (...args) => {
+            reads.push(args[3]);
+            return again.read(...args);
+          },
+        };
       }),
       oldFile,
       newFile,
