@@ -244,7 +244,9 @@ describe("a JSON document read against the kept earlier version of itself (kept-
       }),
       { numRuns: 120 },
     );
-    expect(take.mock.calls.length).toBeGreaterThan(100);
+    // Not a test that passes by never taking anything: 85 to 185 takes in 250 runs seen (fewer than
+    // with the bytes kept: short windows and reads leave more ranges uncompared).
+    expect(take.mock.calls.length).toBeGreaterThan(20);
   }, 60_000);
 
   it("takes a run of unchanged siblings in one piece and reads the one that changed", async () => {
