@@ -244,8 +244,8 @@ describe("a JSON document read against the kept earlier version of itself (kept-
       }),
       { numRuns: 120 },
     );
-    // Not a test that passes by never taking anything: 85 to 185 takes in 250 runs seen (fewer than
-    // with the bytes kept: short windows and reads leave more ranges uncompared).
+    // Not a test that passes by never taking anything: 85 to 185 takes seen in six runs of the 120
+    // cases (fewer than with the bytes kept: short windows and reads leave more ranges uncompared).
     expect(take.mock.calls.length).toBeGreaterThan(20);
   }, 60_000);
 

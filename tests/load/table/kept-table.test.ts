@@ -213,7 +213,8 @@ describe("a table read against what its earlier version's load kept (kept-table.
       { numRuns: 400 },
     );
     // The property held with rows taken from OLD, not only with every row scanned.
-    expect(taken.rows).toBeGreaterThan(1000);
+    // 1,438 to 1,966 rows seen in four runs since half the cases read OLD again through small windows.
+    expect(taken.rows).toBeGreaterThan(500);
   });
 
   it("takes the rows OLD had from it, and scans the others", async () => {
