@@ -4,11 +4,10 @@ import type { DiffTotals } from "../diff/prepared-diff.js";
 import type { NumberOptions } from "./amount.js";
 import { diffLineParts } from "./diff-line-parts.js";
 import { diffHeaderLines, type HeaderOptions } from "./header.js";
-import { keyContext, keyFacts, keyRows, keyRowsNeeded } from "./key-line.js";
 import { lineGroups } from "./line-groups.js";
 import type { Palette } from "./palette.js";
 import { screenLines } from "./screen-lines.js";
-import { checkWidth, headLines, keyCheck, keyRiding } from "./summary-text.js";
+import { checkWidth, headLines, keyCheck, keyRiding, screenKeyRows } from "./summary-text.js";
 
 export interface DiffTextOptions extends NumberOptions {
   /** How nodes were matched, named on the header. */
@@ -28,20 +27,13 @@ export interface DiffTextOptions extends NumberOptions {
   keyRows?: number;
 }
 
-/** Lines the key above a diff's text lines takes at the options' width (see `summaryKeyRows`). */
+/** Lines the key above a diff's text lines takes at the options' width (see `screenKeyRows`). */
 export function diffKeyRows(
   view: HierarchyNode<DiffViewNode>,
   options: DiffTextOptions,
   most?: number,
 ): number {
-  if (options.width === undefined) return keyRows(undefined);
-  const screen = screenLines(
-    lineGroups(view, options.chains ?? false),
-    diffLineParts,
-    options,
-    keyCheck(options, "diff"),
-  );
-  return keyRowsNeeded("diff", keyFacts(screen.parts, keyContext(options), screen), options.width, most);
+  return screenKeyRows("diff", view, diffLineParts, options, most);
 }
 
 /**

@@ -12,8 +12,8 @@ import {
   keyRows,
   keyRowsNeeded,
 } from "./key-line.js";
-import { lineGroups } from "./line-groups.js";
-import { MIN_WIDTH } from "./line-layout.js";
+import { type LineGroup, lineGroups } from "./line-groups.js";
+import { type LineParts, MIN_WIDTH } from "./line-layout.js";
 import { lineParts } from "./line-parts.js";
 import { legendLines } from "./marks.js";
 import type { Palette } from "./palette.js";
@@ -66,15 +66,29 @@ export function renderText(view: HierarchyNode<ViewNode>, options: TextOptions):
  * screen laid out as `renderText` lays it out, for the fit to count before the text is printed.
  */
 export function summaryKeyRows(view: HierarchyNode<ViewNode>, options: TextOptions, most?: number): number {
+  return screenKeyRows("summary", view, lineParts, options, most);
+}
+
+/**
+ * Lines the key above a summary's or a diff's text lines takes at the options' width, its lines made
+ * by `parts` (lineParts, diffLineParts) as the rendering makes them.
+ */
+export function screenKeyRows<T extends ViewNode>(
+  kind: "summary" | "diff",
+  view: HierarchyNode<T>,
+  parts: (group: LineGroup<T>, options: NumberOptions) => LineParts,
+  options: Parameters<typeof screenLines>[2] & Parameters<typeof keyCheck>[0] & { chains?: boolean },
+  most?: number,
+): number {
   // Without a width the key is one line, whatever the screen: no layout needed to know it.
   if (options.width === undefined) return keyRows(undefined);
   const screen = screenLines(
     lineGroups(view, options.chains ?? false),
-    lineParts,
+    parts,
     options,
-    keyCheck(options, "summary"),
+    keyCheck(options, kind),
   );
-  return keyRowsNeeded("summary", keyFacts(screen.parts, keyContext(options), screen), options.width, most);
+  return keyRowsNeeded(kind, keyFacts(screen.parts, keyContext(options), screen), options.width, most);
 }
 
 /**
