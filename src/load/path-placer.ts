@@ -109,6 +109,14 @@ export class PathPlacer {
     return root;
   }
 
+  /** Room for flags of `nodes` nodes at once (see `NodeSink.makeRoom`). */
+  makeRoom(nodes: number): void {
+    if (nodes <= this.explicit.length) return;
+    const grown = new Uint8Array(nodes);
+    grown.set(this.explicit);
+    this.explicit = grown;
+  }
+
   /** Whether the node was named by a path of its own (or is the root an empty path named), not only made as an ancestor. */
   isListed(node: number): boolean {
     return node === this.root || (node < this.explicit.length && this.explicit[node] === 1);
