@@ -137,6 +137,10 @@ export class PathListReader {
   private writtenLine: Buffer | undefined;
   /** Paths of lines whose bytes are not UTF-8, as read and as written (see {@link WrittenPaths}). */
   private readonly written = new WrittenPaths("line");
+  /** The input's length when known (`LoadOptions.inputBytes`), the bytes read so far, and whether room was made. */
+  private readonly inputBytes: number | undefined;
+  private readBytes = 0;
+  private roomMade = false;
 
   constructor(options: LoadOptions) {
     checkNoNamedFields(options, "paths");
@@ -148,6 +152,7 @@ export class PathListReader {
     this.separator = options.nulSeparated === true ? 0 : newline;
     this.folderSizes = options.folderSizes;
     this.detected = options.format === undefined;
+    this.inputBytes = options.inputBytes;
   }
 
   /**
@@ -156,7 +161,31 @@ export class PathListReader {
    * character, so a character (or a "\r\n") cut between chunks is whole again in the joined line.
    */
   write(piece: Uint8Array): void {
-    const chunk = asBuffer(piece);
+    this.writeLines(asBuffer(piece));
+    this.readBytes += piece.length;
+    if (!this.roomMade) this.makeRoom();
+  }
+
+  /**
+   * After the first chunk of an input of known length: room for the nodes and name bytes it likely has
+   * (those of the chunk, in proportion to the length, plus 5%), made once, where growing by doubling
+   * makes fresh memory and a copy of every array a dozen times over. A guess too low grows as before;
+   * room never used is memory never touched.
+   */
+  private makeRoom(): void {
+    const size = this.inputBytes;
+    const sink = this.sink;
+    if (size === undefined || sink.length === 0) return;
+    this.roomMade = true;
+    if (this.readBytes >= size) return;
+    const scale = (1.05 * size) / this.readBytes;
+    const nodes = Math.min(sink.maxNodes, Math.ceil(sink.length * scale) + 1024);
+    sink.makeRoom(nodes);
+    sink.name.makeRoom(nodes, Math.ceil(sink.name.usedBytes * scale));
+    this.placer.makeRoom(nodes);
+  }
+
+  private writeLines(chunk: Buffer): void {
     let from = 0;
     if (this.waiting.length > 0) {
       const first = chunk.indexOf(this.separator);
