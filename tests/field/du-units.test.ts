@@ -63,32 +63,6 @@ describe("du listings in units bigger than a byte", () => {
     );
   });
 
-  it.skipIf(!gnu)("find -depth (each folder after its files, own sizes) is read as own sizes", async () => {
-    // Folders that each hold less than their directory's entry: in du's order, they passed for totals
-    // (each folder's own size less its files'), unless the folders' sizes are whole blocks and what
-    // would be their own parts not, as on ext4 (4,096 bytes a directory, seen here; other file
-    // systems' directories are read as before).
-    // One folder of files (a folder holding another holds its entry, as big as its own).
-    writeFiles(join(base, "quay"), {
-      "a.txt": 120,
-      "b.txt": 340,
-      "c.txt": 90,
-      "d.txt": 410,
-      "e.txt": 75,
-      "f.txt": 260,
-      "g.txt": 31,
-    });
-    const listing = run("find", ["quay", "-depth", "-printf", "%s\\t%p\\n"]);
-    const dirs = run("find", ["quay", "-type", "d", "-printf", "%s\\n"]).trim().split("\n").map(Number);
-    // Source: the sum of the sizes find prints, one per entry (own sizes: nothing counted twice).
-    const sum = listing.split("\n").reduce((s, line) => s + (Number(line.split("\t")[0]) || 0), 0);
-    const r = JSON.parse((await cli(["-", "--format", "json"], { stdin: listing })).stdout);
-    if (dirs.every((size) => size % 512 === 0)) {
-      expect(r.totals.size).toBe(sum);
-      expect(r.input.folderTotals).toBeUndefined();
-    } else expect(r.input.folderTotals).toBe(true);
-  });
-
   it("a listing shaped as du -s DIR/* prints on 4 KiB blocks is PARSE_PATHS naming du -sb", async () => {
     // 1 KiB blocks of a file system of 4 KiB blocks: every size a multiple of 4 (common practice, no source).
     const tops = ["28", "24", "6072", "412", "16", "8", "1288", "40", "4"].map(

@@ -77,10 +77,6 @@ export function folderTotals(
     // sort -rn` puts every total before its contents): totals. Any other order (`sort -k2` by path,
     // as find lists) is one a listing of own sizes has too, so the sizes must settle it.
     const sorted = order.listedAfterContents === 0 && biggestFirst(nodes);
-    // `find -depth` lists as du does, each folder after its contents: where every folder holds less than
-    // its directory's entry, the sizes settle it (folders' lines whole blocks, their own parts not), unless
-    // they are all multiples of 4, as du's 1 KiB blocks are (a folder of 512 KiB is a whole block too).
-    if (duOrder && !inBlocks(nodes) && looksLikeDu(nodes, contents, parents) === "own") return OWN;
     if (!duOrder && !sorted) {
       const seen = looksLikeDu(nodes, contents, parents);
       if (seen === "own") return OWN;

@@ -13,9 +13,7 @@ import type { NodeSink } from "../../../src/load/node-sink.js";
  * of its contents and no listed line's size is bigger than the listed line before it (`du -ab | sort
  * -rn`, at least 8 lines); the listed folders with contents of some size all have an own part (size
  * less contents) that is a whole, non-zero number of 512-byte blocks, and not all a size that is; or,
- * neither those sizes nor those own parts being all whole blocks, at least 8 lines. In the first order
- * too, those folders' sizes all whole blocks and their own parts not (a find -depth listing) read as
- * own sizes, unless at least 8 listed sizes are above 0 and all multiples of 4. Read as totals, a
+ * neither those sizes nor those own parts being all whole blocks, at least 8 lines. Read as totals, a
  * listed folder's own size is its size minus its contents'; unless the sizes look like du -a's 1 KiB
  * blocks, or every listed folder's own part is 4 or less over at least 8 listed lines (units of 1 KiB
  * or more: PARSE_PATHS). Not read as totals, the listing is PARSE_PATHS when at least 8 listed sizes are
@@ -70,7 +68,6 @@ export function folderTotalsByReference(
     const sizedFolders = folders.filter((f) => contentsOf(f) > 0);
     const linesWhole = sizedFolders.every((f) => whole(sink.ownSize[f]));
     const ownWhole = sizedFolders.every((f) => whole(sink.ownSize[f] - contentsOf(f)));
-    if (afterContents && !fours && linesWhole && !ownWhole) return false;
     if (!(afterContents || (beforeContents && biggestFirst))) {
       if (linesWhole && !ownWhole) return false;
       if (!(ownWhole && !linesWhole) && listedAt.size < 8) return false;
