@@ -51,8 +51,12 @@ export function folderTotals(
 ): FolderReading {
   if (mode === "own") return OWN;
   // No line named a folder that holds entries (a listing of files only, as an object store's): no
-  // folder line to read as a total, and nothing to sum.
-  if (mode === undefined && order.contentAfterListing === 0 && order.listedAfterContents === 0) return OWN;
+  // folder line to read as a total, and nothing to sum; unless the sizes are du -s DIR/*'s 1 KiB blocks
+  // (a look at the first sizes, mostly: the first that is no multiple of 4 ends it).
+  if (mode === undefined && order.contentAfterListing === 0 && order.listedAfterContents === 0) {
+    if (inBlocks(nodes) && !wholeBlocks(nodes)) throw blockCounts("flat");
+    return OWN;
+  }
   const { length, parentOf, ownSize } = nodes;
   // What each node's contents add up to: a listed node stands for its line's size, an unlisted one
   // (an ancestor no line named) for its contents. Children have higher indices than their parents,
@@ -71,8 +75,6 @@ export function folderTotals(
   if (mode === undefined) {
     const duOrder = order.contentAfterListing === 0 && order.listedAfterContents > 0;
     if (!readsAsTotals(nodes, contents, parents)) {
-      if (inBlocks(nodes) && !someFolderListed(nodes, parents) && !wholeBlocks(nodes))
-        throw blockCounts("flat");
       if (duOrder && roundedUp(nodes, contents, parents)) throw roundedBlocks();
       return OWN;
     }
@@ -242,12 +244,6 @@ function blockCounts(listing: "totals" | "flat"): EspalierError {
       ? "every size is a multiple of 4 and each folder's line totals its contents, as du without -b prints disk usage in 1 KiB blocks: read as bytes, each size would be 1,024 times too small. List bytes with du -ab, or pass --folder-sizes total (and --units plain) to read the numbers as they are"
       : "every size is a multiple of 4 and no listed entry is inside another, as du -s DIR/* prints each entry's disk usage in 1 KiB blocks: read as bytes, each size would be 1,024 times too small. List bytes with du -sb DIR/* (or du -ab DIR, with what each folder holds), or pass --folder-sizes own to read the numbers as bytes (--units plain prints them as plain numbers)";
   return new EspalierError("PARSE_PATHS", message, { line: 1, column: 1 });
-}
-
-/** Whether a listed node holds nodes (a folder with contents in the listing), so the listing is not flat. */
-function someFolderListed(nodes: PlacedSizes, parents: Uint8Array): boolean {
-  for (let i = 0; i < nodes.length; i++) if (parents[i] === 1 && nodes.isListed(i)) return true;
-  return false;
 }
 
 /**
