@@ -4,6 +4,7 @@ import { codecs } from "../model/buffer-codecs.js";
 import { ChildTable, doubled, hashStep, mix, seed } from "../model/child-hash.js";
 import { NamePool } from "../model/names.js";
 import type { NodeSink } from "./node-sink.js";
+import { OpenFolders } from "./open-folders.js";
 
 const slash = 47;
 const EMPTY = Buffer.alloc(0);
@@ -19,6 +20,12 @@ const EMPTY = Buffer.alloc(0);
  * directory. Listings put related paths next to each other, so the walk starts from the deepest
  * ancestor shared with the previous path (compared four bytes at a time), usually leaving one lookup
  * per path. The bytes must be valid UTF-8, so that equal names are equal bytes.
+ *
+ * That lookup is first made among the children of the folders on the walk's stack ({@link OpenFolders}):
+ * while a folder stays on the stack from when it was made, all its children are there, in a small table
+ * of its own. Only a name below a folder the walk came back to after leaving it needs the table of every
+ * node, which is filled with the nodes made so far when first needed: a listing that keeps each folder's
+ * entries together never makes it.
  */
 export class PathPlacer {
   private readonly sink: NodeSink;
@@ -27,6 +34,10 @@ export class PathPlacer {
   private readonly keys: NamePool;
   // Children by (parent, name), hashed on the name's bytes seeded with the parent.
   private readonly table = new ChildTable();
+  /** Nodes in `table`; every node below `inTableBelow` (but the root) is there. */
+  private inTable = 0;
+  private inTableBelow = 0;
+  private readonly open = new OpenFolders();
   private explicit = new Uint8Array(1024);
   private created = false;
   // The previous path, prevBytes[prevStart, prevStart + prevLength) (prevView reads the same bytes four
@@ -36,7 +47,7 @@ export class PathPlacer {
   private prevView = viewOf(EMPTY);
   private prevStart = 0;
   private prevLength = 0;
-  private stackNode = new Int32Array(64);
+  private stackNode = new Int32Array(64).fill(-1);
   /** stackListed[d]: 1 when a line named one of stackNode[0..d] (a listed folder above the next new node). */
   private stackListed = new Int32Array(64);
   private stackEnd = new Int32Array(64);
@@ -98,6 +109,14 @@ export class PathPlacer {
     return root;
   }
 
+  /** Room for flags of `nodes` nodes at once (see `NodeSink.makeRoom`). */
+  makeRoom(nodes: number): void {
+    if (nodes <= this.explicit.length) return;
+    const grown = new Uint8Array(nodes);
+    grown.set(this.explicit);
+    this.explicit = grown;
+  }
+
   /** Whether the node was named by a path of its own (or is the root an empty path named), not only made as an ancestor. */
   isListed(node: number): boolean {
     return node === this.root || (node < this.explicit.length && this.explicit[node] === 1);
@@ -146,8 +165,9 @@ export class PathPlacer {
     let at = depth > 0 ? stackEnd[depth - 1] : 0;
     let created = false;
     if (at === 0 && length > 0 && bytes[start] === slash) {
-      node = this.child(node, bytes, start, start + 1, hashStep(seed(node), slash), origin);
+      node = this.child(depth, node, bytes, start, start + 1, hashStep(seed(node), slash), origin);
       created = this.created;
+      if (created || stackNode[depth] !== node) this.open.open(depth + 1, created);
       stackNode[depth] = node;
       stackEnd[depth] = 1;
       stackListed[depth] = this.listedAt(node);
@@ -164,7 +184,7 @@ export class PathPlacer {
         if (c === slash) break;
         hash = hashStep(hash, c);
       }
-      node = this.child(node, bytes, start + at, start + stop, hash, origin);
+      node = this.child(depth, node, bytes, start + at, start + stop, hash, origin);
       created = this.created;
       // A node made below a folder some line already named: content listed after its folder.
       if (created && depth > 0 && stackListed[depth - 1] === 1) this.contentAfterListing++;
@@ -172,6 +192,8 @@ export class PathPlacer {
         this.growStack();
         ({ stackNode, stackEnd, stackListed } = this);
       }
+      // A folder new at this depth: its children's level starts again (whole, when the folder is new).
+      if (created || stackNode[depth] !== node) this.open.open(depth + 1, created);
       stackNode[depth] = node;
       stackEnd[depth] = stop;
       stackListed[depth] = depth > 0 && stackListed[depth - 1] === 1 ? 1 : this.listedAt(node);
@@ -215,11 +237,32 @@ export class PathPlacer {
   }
 
   /**
-   * The child of `parent` named by `bytes[s, e)`, whose hash is `hash`,
+   * The child of `parent` (the folder at depth `depth - 1`) named by `bytes[s, e)`, whose hash is `hash`,
    * added when missing; `this.created` says which.
    */
-  private child(parent: number, bytes: Buffer, s: number, e: number, hash: number, origin: number): number {
-    const { sink } = this;
+  private child(
+    depth: number,
+    parent: number,
+    bytes: Buffer,
+    s: number,
+    e: number,
+    hash: number,
+    origin: number,
+  ): number {
+    const { sink, open } = this;
+    if (open.isWhole(depth)) {
+      const found = open.find(depth, hash, this.keys, bytes, s, e);
+      if (found !== -1) {
+        this.created = false;
+        return found;
+      }
+      this.created = true;
+      const node = sink.addBytes(parent, bytes, s, e, origin);
+      if (this.keys !== sink.name) this.keys.setBytes(node, bytes, s, e);
+      open.add(depth, node, hash);
+      return node;
+    }
+    if (this.inTableBelow < sink.length) this.fillTable();
     const { entries } = this.table;
     const mask = (entries.length >> 1) - 1;
     let h = mix(hash) & mask;
@@ -237,8 +280,18 @@ export class PathPlacer {
     this.created = true;
     const node = sink.addBytes(parent, bytes, s, e, origin);
     if (this.keys !== sink.name) this.keys.setBytes(node, bytes, s, e);
-    this.table.add(node, hash, h, sink.length);
+    this.table.add(node, hash, h, ++this.inTable);
+    this.inTableBelow = sink.length;
     return node;
+  }
+
+  /** Puts the nodes made since the table was last filled (the root named by an empty path apart) in it. */
+  private fillTable(): void {
+    const { keys, table, root } = this;
+    const { parentOf, length } = this.sink;
+    for (let i = this.inTableBelow; i < length; i++)
+      if (i !== root) table.insert(i, keys.hashFrom(i, seed(parentOf[i])), ++this.inTable);
+    this.inTableBelow = length;
   }
 
   /** 1 when a line named the node, else 0. */
@@ -250,6 +303,7 @@ export class PathPlacer {
     this.stackNode = doubled(this.stackNode);
     this.stackEnd = doubled(this.stackEnd);
     this.stackListed = doubled(this.stackListed);
+    this.stackNode.fill(-1, this.stackNode.length / 2);
   }
 }
 

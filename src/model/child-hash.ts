@@ -56,6 +56,15 @@ export function doubled(a: Int32Array): Int32Array<ArrayBuffer> {
 export class ChildTable {
   entries = new Int32Array(4096);
 
+  /** Records node `node` with `hash`, the table then holding `count` nodes. */
+  insert(node: number, hash: number, count: number): void {
+    const { entries } = this;
+    const mask = (entries.length >> 1) - 1;
+    let h = mix(hash) & mask;
+    while (entries[2 * h] !== 0) h = (h + 1) & mask;
+    this.add(node, hash, h, count);
+  }
+
   /** Records node `node` with `hash` in empty slot `h`, the table then holding `count` nodes. */
   add(node: number, hash: number, h: number, count: number): void {
     this.entries[2 * h] = node + 1;

@@ -30,6 +30,8 @@ export interface KeyFacts {
   readonly countsCut?: boolean;
   /** Whether a fold's count did not fit (`(hidden)` alone). */
   readonly foldsCut?: boolean;
+  /** Whether a line left its count out for its fold's to say it (`mime  (665 hidden)`: 666 nodes). */
+  readonly countsInFolds?: boolean;
   /** Whether a name was cut to fit the width (`…` marks the cut). */
   readonly namesCut?: boolean;
   /** Whether a diff's fold left out how many changed nodes it holds (`(41 hidden)`). */
@@ -52,6 +54,7 @@ export type WidthCuts = Pick<
   | "sizesCut"
   | "countsCut"
   | "foldsCut"
+  | "countsInFolds"
   | "namesCut"
   | "changesCut"
   | "depthInDigits"
@@ -89,6 +92,7 @@ export function keyFacts(
     ...(cuts.sizesCut ? { sizesCut: true } : {}),
     ...(cuts.countsCut ? { countsCut: true } : {}),
     ...(cuts.foldsCut ? { foldsCut: true } : {}),
+    ...(cuts.countsInFolds ? { countsInFolds: true } : {}),
     ...(cuts.namesCut ? { namesCut: true } : {}),
     ...(cuts.changesCut ? { changesCut: true } : {}),
     ...(cuts.depthInDigits ? { depthInDigits: cuts.depthInDigits } : {}),
@@ -241,7 +245,7 @@ function partsSaid(kind: "summary" | "diff", facts: KeyFacts, lines: readonly st
   const text = lines.join("\n");
   const marks = [...facts.marks].filter((m) => text.includes(`'${m}'`)).length;
   const parts = explanations(kind, facts)
-    .filter((p) => p[3] !== "more")
+    .filter((p) => p[3] !== "more" && p[3] !== "hint")
     .filter((p) => [p[0], p[1], p[2]].some((w) => text.includes(w))).length;
   return marks + parts;
 }
@@ -259,7 +263,7 @@ function saysAll(kind: "summary" | "diff", facts: KeyFacts, lines: readonly stri
   const text = lines.join("\n");
   if (![...facts.marks].every((m) => text.includes(`'${m}'`))) return false;
   return explanations(kind, facts)
-    .filter((p) => p[3] !== "more")
+    .filter((p) => p[3] !== "more" && p[3] !== "hint")
     .every((p) => [p[0], p[1], p[2]].some((w) => text.includes(w)));
 }
 
@@ -276,7 +280,9 @@ function packedKey(
   rows: number,
   partial = false,
 ): string[] | null {
-  const said = explanations(kind, facts).filter((p) => p[3] !== "more");
+  const all = explanations(kind, facts);
+  const said = all.filter((p) => p[3] !== "more" && p[3] !== "hint");
+  const hint = all.filter((p) => p[3] === "hint");
   const more = moreWords(facts);
   const looks = [
     [false, 0],
@@ -289,7 +295,8 @@ function packedKey(
   for (const [compact, tier] of looks) {
     const marks = markItems(kind, facts.marks, "text", compact);
     const words = said.map((p) => p[tier]);
-    for (const clauses of [[...words, more], words]) {
+    const hints = hint.map((p) => p[tier]);
+    for (const clauses of [[...words, ...hints, more], [...words, ...hints], [...words, more], words]) {
       const packed = packRows(marks, clauses, width, rows);
       if (packed !== null) return packed;
     }
@@ -394,6 +401,7 @@ export function keyLine(
   const sized = [...rest.filter((p) => p[3] === "sizes"), ...rest.filter((p) => p[3] === "depth")];
   const must = vitalWords(facts, [numbers, ...rest]);
   const chain = rest.filter((p) => p[3] === "chain");
+  const hint = rest.filter((p) => p[3] === "hint");
   const more = moreWords(facts);
   const long = (ps: Explanation[]) => ps.map((p) => p[0]);
   const short = (ps: Explanation[]) => ps.map((p) => p[1]);
@@ -402,6 +410,18 @@ export function keyLine(
   // --legend goes first, then each thing in shorter words, the marks too; only then do parts go.
   const every = [...sized, ...cuts, ...chain];
   const tries = [
+    // A hint (see `Explanation`) while the marks keep their words: before the pointer to --legend.
+    ...(hint.length === 0
+      ? []
+      : [
+          [marks, numbers[0], ...long(every), ...long(hint), more],
+          [marks, numbers[1], ...short(sized), ...short(cuts), ...long(chain), ...short(hint), more],
+          [marks, numbers[1], ...short(every), ...short(hint), more],
+          [marks, numbers[1], ...short(every), ...short(hint)],
+          [marks, numbers[1], ...short(every), ...least(hint)],
+          [compact, numbers[1], ...short(every), ...least(hint)],
+          [compact, numbers[2], ...least(every), ...least(hint)],
+        ]),
     [marks, numbers[0], ...long(every), more],
     [marks, numbers[1], ...short(sized), ...short(cuts), ...long(chain), more],
     [marks, numbers[1], ...short(every), more],
@@ -458,14 +478,15 @@ const SIZES_GONE = "sizes cut";
 /**
  * One thing the key explains, in long, short and shortest words, and what it is: the numbers, what
  * the width took away from the lines (`cut`), a deep line's level in digits (`depth`, said however short
- * the key: the line reads wrongly without it), a chain or a path's escapes (`chain`), or the pointer
+ * the key: the line reads wrongly without it), a chain or a path's escapes (`chain`), a reading the
+ * lines make plain themselves, said where the rows the key takes have room (`hint`), or the pointer
  * to the legend.
  */
 type Explanation = readonly [
   string,
   string,
   string,
-  "numbers" | "sizes" | "depth" | "cut" | "chain" | "more",
+  "numbers" | "sizes" | "depth" | "cut" | "chain" | "hint" | "more",
 ];
 
 /** What the key explains besides the marks, most needed first (see `Explanation`). */
@@ -552,6 +573,14 @@ function explanations(kind: "summary" | "diff", facts: KeyFacts): Explanation[] 
     ]);
   if (facts.namesCut)
     said.push([`'${ELLIPSIS}' a name cut to fit`, `'${ELLIPSIS}' cut name`, `'${ELLIPSIS}' cut`, "cut"]);
+  // Said where the key has room, never taking a row of its own: `(41 hidden)` says its own number.
+  if (facts.countsInFolds)
+    said.push([
+      "no count: 1 node + the k of its (k hidden)",
+      "no count: 1 + hidden",
+      "no count: 1+hidden",
+      "hint",
+    ]);
   const more = moreWords(facts);
   said.push([more, more, more, "more"]);
   return said;

@@ -68,6 +68,12 @@ export interface LineParts {
    * (see `screenLines`). Absent otherwise.
    */
   foldAllBelow?: string;
+  /**
+   * The line names one node and shows none below it, all below it in its fold: its count is 1 + the
+   * fold's, so a narrow line may leave the count out (`mime  (665 hidden)`, not `666 nodes`) and keep
+   * more of the name; absent otherwise.
+   */
+  countInFold?: true;
   /** A diff's `foldAllBelow` without how many changed (`(41 hidden)`), when that differs. */
   foldAllBelowBare?: string;
   /** The compact fold without how many children it holds, when it differs from `compactFold`. */
@@ -115,6 +121,9 @@ const FEW_LABEL = 4;
 /** A step's labels cut anyhow, a chain in its middle: only once the count is gone. */
 const ANY_CUT = -1;
 
+/** Shortest label kept, two characters and `…`, before a fold's count gives way. */
+const SOME_LABEL = 3;
+
 /** Shortest label kept, one character and `…`, before a count gives way. */
 const LEAST_LABEL = 2;
 
@@ -123,6 +132,7 @@ const NOTHING_CUT = {
   countCut: false,
   ownNumbersCut: false,
   foldCut: false,
+  countInFold: false,
   nameCut: false,
   changesCut: false,
 } as const;
@@ -150,7 +160,9 @@ export interface LaidOutLine {
   ownNumbersCut: boolean;
   /** Whether the fold kept only its sign (`(hidden)`). */
   foldCut: boolean;
-  /** Whether a label was cut (`…` marks where). */
+  /** Whether the line left its count out for its fold's to say it (see `LineParts.countInFold`). */
+  countInFold: boolean;
+  /** Whether a label, or an old path or value in its tag, was cut (`…` marks where). */
   nameCut: boolean;
   /** Whether a diff's fold left out how many changed nodes it holds (`(41 hidden)`). */
   changesCut: boolean;
@@ -183,11 +195,15 @@ export interface LaidOutLine {
  *   6. a deep line's indentation shrinks to a third of the width, its level in digits at its end;
  *   7. the labels are cut down to 4 columns again, then the tag keeps only its kind (`[moved]`: its
  *      old path and its size change go), then a diff's fold drops how many changed (`(41 hidden)`);
- *   8. the labels are cut down to one character and `…`, then the indentation is only the level in
- *      digits (`12 `), then each name down to `…` alone (a chain's ` / ` kept);
+ *   8. the indentation is only the level in digits (`12 `), the labels cut down to two characters
+ *      and `…`;
  *   9. the fold keeps only its sign (`(hidden)`: its count is the line's less its names and the
- *      lines below), then the line's count goes, `?` standing in its place (a line without a count
- *      reads as one node), then the `?` goes.
+ *      lines below), then the labels are cut down to one character and `…`, then each to `…` alone
+ *      (a chain's ` / ` kept), then the line's count goes, `?` standing in its place (a line without
+ *      a count reads as one node), then the `?` goes.
+ * A line that names one node and shows none below it (see `LineParts.countInFold`) leaves its count
+ * out, from step 5 on, where that keeps more of its name: `mime  (665 hidden)`, 666 nodes, no number
+ * lost.
  * A fold never goes: a reader always sees that something is hidden. At MIN_WIDTH and wider the line
  * always fits this way; narrower (which the renderers refuse), the line's start is cut instead.
  * Steps from the fold's size on leave a number out: the text renderers then lay the whole screen out again
@@ -253,7 +269,7 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
   // [indentation, tag, fewest label columns (0: whole), numbers, fold]; from FIRST_CUT on a step may
   // leave a number out.
   const compactWords = p.foldShort === p.foldCounts ? p.foldTiny : (p.compactFoldSized ?? compactFoldCounts);
-  const steps: [string, string, number, string, string][] = [
+  const steps: Step[] = [
     [indent, p.tag, 0, p.numbers, p.fold],
     [indent, p.tag, 0, p.numbers, p.foldCounts],
     [indent, p.tag, 0, p.numbers, foldWords],
@@ -268,11 +284,13 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     [short, p.shortTag, FEW_LABEL, p.countNumbers, p.foldTiny],
     [short, kindTag, FEW_LABEL, p.countNumbers, p.foldTiny],
     [short, kindTag, FEW_LABEL, p.countNumbers, foldBare],
-    [short, kindTag, LEAST_LABEL, p.countNumbers, foldBare],
-    [least, kindTag, LEAST_LABEL, p.countNumbers, foldBare],
-    [least, kindTag, 1, p.countNumbers, foldBare],
-    // The fold's count before the line's: the line's count is in the sum of the line above too, and
-    // the fold's is then the line's less its names and the lines below.
+    [least, kindTag, FEW_LABEL, p.countNumbers, foldBare],
+    [short, kindTag, SOME_LABEL, p.countNumbers, foldBare],
+    [least, kindTag, SOME_LABEL, p.countNumbers, foldBare],
+    // The fold's count before the line's, and before a name goes under two characters: the line's
+    // count is in the sum of the line above too, and the fold's is then the line's less its names
+    // and the lines below.
+    [least, kindTag, SOME_LABEL, p.countNumbers, sign],
     [least, kindTag, LEAST_LABEL, p.countNumbers, sign],
     [least, kindTag, 1, p.countNumbers, sign],
     [least, kindTag, LEAST_LABEL, gone, sign],
@@ -299,7 +317,7 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
           [indent, tag, FEW_LABEL, p.compactNumbers, all],
           [short, tag, FEW_LABEL, p.compactNumbers, all],
         );
-  for (const [k, [ind, tag, fewest, numbers, fold]] of (keepAll ? kept : steps).entries()) {
+  for (const [k, [ind, tag, fewest, numbers, fold]] of withoutCount(p, keepAll ? kept : steps, sign)) {
     const room = width - displayWidth(line(ind, "", tag, numbers, fold, false));
     const whole = displayWidth(label) <= room;
     if (!whole && (fewest === 0 || room < floorOf(p.labels, fewest))) continue;
@@ -319,10 +337,12 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     return {
       text: line(ind, text, tag, numbers, fold, true),
       numbersCut,
-      countCut: p.countNumbers !== "" && (numbers === gone || numbers === ""),
+      countCut: p.countNumbers !== "" && (numbers === gone || (numbers === "" && fold === FOLD_SIGN)),
       ownNumbersCut: numbers !== p.numbers && numbers !== p.compactNumbers,
       foldCut: fold === FOLD_SIGN,
-      nameCut: names.shortened,
+      countInFold: p.countNumbers !== "" && numbers === "" && fold !== FOLD_SIGN,
+      // A tag's old path or value cut to a few columns is cut as a name is (`…` marks where).
+      nameCut: names.shortened || (tag !== p.tag && tag === p.shortTag),
       changesCut: (fold === foldBare || fold === FOLD_SIGN) && foldBare !== p.foldTiny,
       ...depthOf(ind, indent, p.level),
       ...(names.elided ? { namesLeftOut: true } : {}),
@@ -345,10 +365,37 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     countCut: p.countNumbers !== "",
     ownNumbersCut: true,
     foldCut,
+    countInFold: false,
     nameCut: true,
     changesCut: foldCut && foldBare !== p.foldTiny,
     ...depthOf(least, indent, p.level),
   };
+}
+
+/** A step of `laidOutLine`: [indentation, tag, fewest label columns (0: whole), numbers, fold]. */
+type Step = [string, string, number, string, string];
+
+/**
+ * `steps` with their places in the list (a step from FIRST_CUT on may leave a number out), and for a
+ * line whose count is 1 + its fold's (see `LineParts.countInFold`), from FIRST_CUT on, each step
+ * that would cut the name while its numbers are the count alone tried first without the count, its
+ * fold keeping its own (`(hidden)` gives way to `(41 hidden)`): the name then keeps more columns,
+ * and no number is lost. The step still comes first where it keeps the name whole.
+ */
+function withoutCount(p: LineParts, steps: readonly Step[], sign: string): [number, Step][] {
+  const out: [number, Step][] = [];
+  const bare = p.foldBare ?? p.foldTiny;
+  const twinned = p.countInFold && p.countNumbers !== "";
+  steps.forEach((step, k) => {
+    const [ind, tag, fewest, numbers, fold] = step;
+    const counted = numbers === p.countNumbers || numbers === NUMBERS_GONE || numbers === "";
+    if (twinned && k >= FIRST_CUT && fewest !== 0 && counted) {
+      out.push([k, [ind, tag, 0, numbers, fold]]);
+      out.push([k, [ind, tag, fewest, "", fold === sign ? bare : fold]]);
+    }
+    out.push([k, step]);
+  });
+  return out;
 }
 
 /**

@@ -83,6 +83,10 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
           compactFoldSized: joined(`(${hiddenSized(group, last, compact)})`, parents),
         }
       : {}),
+    // One name and all below it folded: its count is 1 + the fold's (see `countInFold`).
+    ...(last.hidden && last.children.length === 0 && nodes.length === 1
+      ? { countInFold: true as const }
+      : {}),
     // All below the line folded: the fold's size is the line's less its own (see `foldAllBelow`).
     ...(last.hidden && options.sizes && last.children.length === 0
       ? {

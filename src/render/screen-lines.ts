@@ -114,6 +114,7 @@ function cutsOf(laid: readonly LaidOutLine[], parts: readonly LineParts[]): Widt
   return {
     countsCut: laid.some((l) => l.countCut),
     foldsCut: laid.some((l) => l.foldCut),
+    ...(laid.some((l) => l.countInFold) ? { countsInFolds: true } : {}),
     namesCut: laid.some((l) => l.nameCut),
     changesCut: laid.some((l) => l.changesCut),
     ...firstDepth(laid, parts),

@@ -185,7 +185,9 @@ describe("renderText(view, { width })", () => {
     // A chain's names are cut at their ends, its " / " kept: the line's 5 = 2 names + 3 hidden still
     // reads off the screen.
     expect(chain(35)).toBe("  . alp… / be…  5 nodes  (3 hidden)");
-    expect(chain(MIN_WIDTH)).toBe("  . … / …  5 nodes  (3 hidden)");
+    // Narrowest, the fold keeps only its sign (3 = 5 less the 2 names) before a name goes under two
+    // characters; the line's count, which the line above adds up, stays.
+    expect(chain(MIN_WIDTH)).toBe("  . a… / b…  5 nodes  (hidden)");
   });
 
   it("prints a run of only children as one line carrying its top node's numbers and its last node's fold", () => {

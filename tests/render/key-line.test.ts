@@ -498,6 +498,24 @@ describe("keyRowsNeeded(kind, facts, width, most) and keyLines(..., rows)", () =
     for (const row of key) expect(displayWidth(row)).toBeLessThanOrEqual(32);
   });
 
+  it("says what a line without a count holds where its rows have room, in no row of its own", () => {
+    // Field test: `find /usr/share` at 32 columns, `  . maven-repo  (665 hidden)`: 666 nodes.
+    const facts = { marks: new Set([MARK.other]), chains: false, sizes: false, countsInFolds: true };
+    expect(keyLines("summary", facts, 80)).toEqual([
+      "key: '.' a node; counts include all below; no count: 1 + hidden",
+    ]);
+    expect(keyLines("summary", facts, 60)).toEqual([
+      "key: '.' a node; N nodes: all below; no count: 1+hidden",
+    ]);
+    expect(keyLines("summary", facts, 40)).toEqual([
+      "key: '.' a node",
+      "  N nodes: all below; no count: 1+hidden",
+    ]);
+    // No room in the two rows at 32 columns: `(665 hidden)` says its own number, and no row is added.
+    expect(keyRowsNeeded("summary", facts, 32)).toBe(2);
+    expect(keyLines("summary", facts, 32)).toEqual(["key: '.' a node", "  N nodes: all below"]);
+  });
+
   it("fills exactly the lines it needs, each within the width, saying every mark (property)", () => {
     const marks = fc.subarray([MARK.focus, MARK.path, MARK.other, MARK.reference], { minLength: 1 });
     const flags = fc.record({
@@ -510,6 +528,7 @@ describe("keyRowsNeeded(kind, facts, width, most) and keyLines(..., rows)", () =
       namesCut: fc.boolean(),
       changesCut: fc.boolean(),
       namesLeftOut: fc.boolean(),
+      countsInFolds: fc.boolean(),
     });
     fc.assert(
       fc.property(
@@ -521,6 +540,9 @@ describe("keyRowsNeeded(kind, facts, width, most) and keyLines(..., rows)", () =
         (m, f, width, depth, kind) => {
           const facts = { ...f, marks: new Set(m), depthInDigits: { level: depth, mark: m[0] } };
           const rows = keyRowsNeeded(kind, facts, width);
+          // A line without a count (its fold's says it) is said where there is room, never in a row
+          // of its own.
+          expect(rows).toBe(keyRowsNeeded(kind, { ...facts, countsInFolds: false }, width));
           expect(rows).toBeGreaterThanOrEqual(keyRows(width));
           expect(rows).toBeLessThanOrEqual(KEY_MOST_ROWS);
           const key = keyLines(kind, facts, width, "text", rows);

@@ -169,12 +169,15 @@ function parseNarrow(text: string, width: number): Line[] {
       // step 9): its count is then the line's less its names and the lines below, which this line's
       // check cannot confirm, but the line above still can with the count.
       const number = (s: string | undefined) => (s === undefined ? 0 : Number(s.replaceAll(",", "")));
+      const folded = sign ? Number.NaN : number(hidden ?? tiny);
       return {
         level: digits === undefined ? indent.length / 2 : Number(digits),
         names: namesIn(label),
-        // No count fitted: the line's sum, and its parent's, cannot be checked (and are not).
-        nodes: gone ? Number.NaN : nodes === undefined ? 1 : number(nodes),
-        hidden: sign ? Number.NaN : number(hidden ?? tiny),
+        // No count fitted: the line's sum, and its parent's, cannot be checked (and are not). No
+        // count printed: the line's names and its fold's (`mime  (665 hidden)`), so a line without
+        // one that has lines below does not add up.
+        nodes: gone ? Number.NaN : nodes === undefined ? namesIn(label) + folded : number(nodes),
+        hidden: folded,
       };
     });
 }

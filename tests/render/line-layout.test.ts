@@ -2,7 +2,13 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { changeKinds } from "../../src/diff/changes.js";
 import { displayWidth } from "../../src/render/display-width.js";
-import { FOLD_SIGN, type LineParts, layoutLine, MIN_WIDTH } from "../../src/render/line-layout.js";
+import {
+  FOLD_SIGN,
+  type LineParts,
+  laidOutLine,
+  layoutLine,
+  MIN_WIDTH,
+} from "../../src/render/line-layout.js";
 
 /** A diff line's parts as diffLineParts writes them, with long tags and folds. */
 const arbParts: fc.Arbitrary<LineParts> = fc
@@ -165,14 +171,76 @@ describe("layoutLine(parts, { width })", () => {
     expect(layoutLine(parts, { width: 80 })).toBe(
       "  : [added] @duckdb  11 nodes  (hidden: 10 children, 10 nodes; 10 added)",
     );
-    // 37 columns: the name keeps one character; 36: only its "…", and the count still fits; at 35 the
-    // fold keeps only its sign, its count the line's less the name (10 = 11 - 1), so the line's count,
-    // which the line above adds up, stays.
-    expect(layoutLine(parts, { width: 37 })).toBe("  : [added] @…  11 nodes  (10 hidden)");
-    expect(layoutLine(parts, { width: 36 })).toBe("  : [added] …  11 nodes  (10 hidden)");
+    // 38 columns: the name keeps two characters and "…"; at 37 the fold keeps only its sign, its
+    // count the line's less the name (10 = 11 - 1), before the name goes under two characters: the
+    // line's count, which the line above adds up, stays.
+    expect(layoutLine(parts, { width: 38 })).toBe("  : [added] @d…  11 nodes  (10 hidden)");
+    expect(layoutLine(parts, { width: 37 })).toBe("  : [added] @duc…  11 nodes  (hidden)");
     expect(layoutLine(parts, { width: 35 })).toBe("  : [added] @d…  11 nodes  (hidden)");
     expect(layoutLine(parts, { width: 33 })).toBe("  : [added] …  11 nodes  (hidden)");
     expect(layoutLine(parts, { width: 32 })).toBe("  : [added] @duckdb  ?  (hidden)");
+  });
+
+  it("leaves a count out, not the name, where the fold says it: 1 node + what it hides (field test: 32 columns)", () => {
+    // Field test: `find /usr/share` at 32 columns printed `  . ma…  666 nodes  (665 hidden)`: the
+    // line shows nothing below it, so 666 = 1 + 665 and the count says nothing the fold does not.
+    const parts: LineParts = {
+      level: 1,
+      mark: ".",
+      role: "other",
+      tag: "",
+      shortTag: "",
+      tagKind: null,
+      labels: ["maven-repo"],
+      numbers: "666 nodes",
+      compactNumbers: "666 nodes",
+      countNumbers: "666 nodes",
+      fold: "(hidden: 12 children, 665 nodes)",
+      foldCounts: "(hidden: 665 nodes)",
+      compactFold: "(hidden: 12 children, 665 nodes)",
+      foldShort: "(hidden: 665 nodes)",
+      foldTiny: "(665 hidden)",
+      countInFold: true,
+    };
+    // Where the whole name fits beside it, the count stays.
+    expect(layoutLine(parts, { width: 40 })).toBe("  . maven-repo  666 nodes  (665 hidden)");
+    const narrow = laidOutLine(parts, { width: 32 });
+    expect(narrow.text).toBe("  . maven-repo  (665 hidden)");
+    expect(narrow).toMatchObject({ countInFold: true, countCut: false, nameCut: false });
+    expect(layoutLine(parts, { width: MIN_WIDTH })).toBe("  . maven-repo  (665 hidden)");
+    // A line with lines below it (no countInFold) keeps its count: the fold is not all below it.
+    const { countInFold: _, ...above } = parts;
+    expect(layoutLine(above, { width: 32 })).toBe("  . ma…  666 nodes  (665 hidden)");
+    expect(laidOutLine(above, { width: 32 }).countInFold).toBe(false);
+  });
+
+  it("says a tag's cut old value as a cut, even where the name stays whole", () => {
+    // Field test: `[edited version 4.10.2 -> 4.10…ext] fast-check` at 80 columns, under a key that
+    // said nothing of the `…`.
+    const parts: LineParts = {
+      level: 1,
+      mark: ":",
+      role: "path",
+      tag: "[edited version 4.10.2 -> 4.10.2-next]",
+      shortTag: "[edited version 4.10.2 -> 4.10…ext]",
+      tagKind: "edited",
+      labels: ["fast-check"],
+      numbers: "2 nodes",
+      compactNumbers: "2 nodes",
+      countNumbers: "2 nodes",
+      fold: "(hidden: 1 child, 1 node; none changed)",
+      foldCounts: "(hidden: 1 node; none changed)",
+      compactFold: "(hidden: 1 child, 1 node; none changed)",
+      foldShort: "(hidden: 1 node; none changed)",
+      foldTiny: "(1 hidden, 0 changed)",
+      foldBare: "(1 hidden)",
+    };
+    const line = laidOutLine(parts, { width: 84 });
+    expect(line.text).toBe(
+      "  : [edited version 4.10.2 -> 4.10…ext] fast-check  2 nodes  (1 hidden, 0 changed)",
+    );
+    expect(line.nameCut).toBe(true);
+    expect(laidOutLine(parts, { width: 100 }).nameCut).toBe(false);
   });
 
   it("cuts wide names by their columns, never half a character, the count kept (UAX #11)", () => {
@@ -213,9 +281,9 @@ describe("layoutLine(parts, { width })", () => {
     // 50: 11 columns for the names, 4 for the joins and 7 for the second... the first name "ＡＢＣ…"
     // (7, its fourth ideograph would need 9) and "ｶﾀｶﾅｶﾀ…" (7).
     expect(layoutLine(chain, { width: 50 })).toBe("  . ＡＢＣ… / ｶﾀｶﾅｶﾀ…  3,257 nodes  (2,648 hidden)");
-    // 40: 6 columns for two names: one column each, and the one left over goes to the second: the
-    // first, all wide characters, keeps only "…".
-    expect(layoutLine(chain, { width: 40 })).toBe("  . … / ｶﾀ…  3,257 nodes  (2,648 hidden)");
+    // 40: 6 columns for two names with the fold's count, under two characters each: the fold keeps
+    // only its sign (2,648 = 3,257 less the 2 names) and the names 5 columns each: "ＡＢ…", "ｶﾀｶﾅ…".
+    expect(layoutLine(chain, { width: 40 })).toBe("  . ＡＢ… / ｶﾀｶﾅ…  3,257 nodes  (hidden)");
     for (const width of [40, 50, 60, 66, 80, 200])
       for (const p of [wide, chain]) {
         const line = layoutLine(p, { width });

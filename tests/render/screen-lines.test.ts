@@ -126,13 +126,14 @@ describe("a diff at 40, 80 and 200 columns (field test: '?' where a bare count f
       "key: ':' a change or on the way to one",
       "  counts: all below; sizes cut; '…' cut",
       // The header's kinds grouped (one line fewer) leave a line that the fit gave the key first: a
-      // screen with one more tree line needed a third key row, and the key keeps the rows counted.
-      "  --legend explains more",
+      // screen with one more tree line needed a third key row, and the key keeps the rows counted;
+      // it says the line without a count there (5 = 1 + 4 hidden).
+      "  no count: 1+hidden",
       ": tide…  11 nodes  (1 hidden, 0 changed)",
       "  : led…  4 nodes  (1 hidden, 0 changed)",
       "    : [resized] estuary-path",
       "    : [removed] shoal-codec",
-      "  : rip…  5 nodes  (4 hidden, 1 changed)",
+      "  : riptide-rpc  (4 hidden, 1 changed)",
     ]);
     expect(r.stdout).not.toMatch(/ {2}\? {2}|\(hidden\)/);
   });

@@ -27,7 +27,8 @@ function readLine(line) {
   label = label.replace(/^\[[^\]]*\] ?/, "");
   const numbers = parts.slice(1).find((p) => !p.startsWith("(")) ?? "";
   const fold = parts.slice(1).find((p) => /^\((hidden|[0-9,]+ hidden)/.test(p)) ?? "";
-  let nodes = 1;
+  // A line without a count is its names and what its fold hides (`mime  (665 hidden)`: 666 nodes).
+  let nodes = null;
   if (numbers === "?") nodes = Number.NaN;
   else {
     const c = /^([0-9,]+) nodes?\b/.exec(numbers);
@@ -42,14 +43,18 @@ function readLine(line) {
     if (!f) return { bad: `fold not read: ${fold}` };
     hidden = num(f[1]);
   }
+  const names = mark === "&" ? 1 : namesIn(label);
+  const counted = nodes !== null;
+  if (nodes === null) nodes = names + hidden;
   const shownSize = /^[0-9,]+ nodes?, |^[0-9.,]+ ?[KMGTP]?i?B$|^[0-9.,]+[kMGTP]?$/.test(numbers);
   return {
     level: digits === undefined ? indent.length / 2 : Number(digits),
     digits: digits !== undefined,
     mark,
     label: parts[0],
-    names: mark === "&" ? 1 : namesIn(label),
+    names,
     nodes: mark === "&" ? 0 : nodes,
+    counted,
     hidden,
     shownSize,
     numbers,
@@ -89,7 +94,8 @@ export function checkText(text, { budget, width, legend, key = true, kind = "sum
       if (!(l.nodes > l.names + below)) problems.push(`a bare fold hides nothing: ${all[start + k]}`);
       continue;
     }
-    if (l.nodes !== l.names + below + l.hidden)
+    if (!l.counted && below > 0) problems.push(`no count, and lines below: ${all[start + k]}`);
+    else if (l.nodes !== l.names + below + l.hidden)
       problems.push(`${l.nodes} != ${l.names} + ${below} + ${l.hidden}: ${all[start + k]}`);
   }
   // The root's count is the header's total (a summary's).

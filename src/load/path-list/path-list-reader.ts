@@ -3,6 +3,7 @@ import { EspalierError, quoted, quotedList, say } from "../../errors.js";
 import { asBuffer } from "../../model/buffer-codecs.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { ReadingNote } from "../../model/reading-note.js";
+import { folderSectionsError, startsSections } from "../folder-sections.js";
 import { hasReplacement } from "../has-replacement.js";
 import type { LoadOptions } from "../load-options.js";
 import { checkNoNamedFields } from "../missing-field.js";
@@ -13,6 +14,7 @@ import { limitsOf, tooLong } from "../read-limits.js";
 import { checkReadingOptions } from "../reading-options.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { WrittenPaths } from "../written-paths.js";
+import { BLOCK_COUNTS, blockCountLine, blockTotalLine } from "./block-counts.js";
 import { type FolderSizes, folderTotals, type PlacedSizes } from "./folder-totals.js";
 import { gitUnquoted } from "./git-quoted.js";
 import {
@@ -23,6 +25,8 @@ import {
   TOTAL_NAMES,
 } from "./grand-total.js";
 import { headerLineHint } from "./header-line-hint.js";
+import { LS_LINES, MODES_FIRST, modeLineShape, TAR_LINES } from "./mode-lines.js";
+import { MOUNT_TABLE, mountLine } from "./mount-table.js";
 import { columnsAlignedMessage } from "./process-columns.js";
 
 const newline = 10;
@@ -91,10 +95,20 @@ export class PathListReader {
   private spacedLines = 0;
   /** Unsized lists: lines as git diff --stat prints them (`path | 12 ++--`), and its closing count. */
   private statLines = 0;
-  /** Whether the first line that starts with a mode is shaped as GNU tar tv prints it (see {@link TAR_LINE}). */
-  private tarFirst: boolean | undefined;
+  /**
+   * How the first line that starts with a mode is shaped: as GNU tar and busybox tar tv print it (see
+   * {@link TAR_LINE}), as ls -l and bsdtar tv do (see {@link LS_LINE}), or neither.
+   */
+  private tarFirst: "tar" | "ls" | undefined;
   /** Whether the first unsized line is `total N`, as `ls -l` prints first. */
   private totalFirst = false;
+  /** Unsized lists: lines after a first `total N` that are a count of blocks and a name, as `ls -s` prints. */
+  private blockLines = 0;
+  /** Unsized lists: lines of the first {@link COMMA_LINES} that are a mount table's, and those that are not comments. */
+  private mountLines = 0;
+  private mounts = 0;
+  /** The first unsized line when it ends with ":", as `ls -R` starts a folder's section (see `one`). */
+  private sectionHead: string | undefined;
   /** Whether the first unsized line is words and spaces without a "/", as a header of columns is. */
   private headerFirst = false;
   /** Unsized lists: how many of the first {@link COMMA_LINES} lines read as `npm ls --parseable --long` prints. */
@@ -119,6 +133,10 @@ export class PathListReader {
   private writtenLine: Buffer | undefined;
   /** Paths of lines whose bytes are not UTF-8, as read and as written (see {@link WrittenPaths}). */
   private readonly written = new WrittenPaths("line");
+  /** The input's length when known (`LoadOptions.inputBytes`), the bytes read so far, and whether room was made. */
+  private readonly inputBytes: number | undefined;
+  private readBytes = 0;
+  private roomMade = false;
 
   constructor(options: LoadOptions) {
     checkNoNamedFields(options, "paths");
@@ -130,6 +148,7 @@ export class PathListReader {
     this.separator = options.nulSeparated === true ? 0 : newline;
     this.folderSizes = options.folderSizes;
     this.detected = options.format === undefined;
+    this.inputBytes = options.inputBytes;
   }
 
   /**
@@ -138,7 +157,34 @@ export class PathListReader {
    * character, so a character (or a "\r\n") cut between chunks is whole again in the joined line.
    */
   write(piece: Uint8Array): void {
-    const chunk = asBuffer(piece);
+    this.writeLines(asBuffer(piece));
+    this.readBytes += piece.length;
+    if (!this.roomMade) this.makeRoom();
+  }
+
+  /**
+   * After the first chunk of an input of known length: room for the nodes and name bytes it likely has
+   * (those of the chunk, in proportion to the length, plus 5%), made once, where growing by doubling
+   * makes fresh memory and a copy of every array a dozen times over. A guess too low grows as before;
+   * room never used is memory never touched. A first chunk of short lines under a longer rest would
+   * guess too many: the room is at most a node for every {@link BYTES_A_NODE} bytes (about twice the
+   * input's length in arrays) and the names' bytes at most the input's.
+   */
+  private makeRoom(): void {
+    const size = this.inputBytes;
+    const sink = this.sink;
+    if (size === undefined || sink.length === 0) return;
+    this.roomMade = true;
+    if (this.readBytes >= size) return;
+    const scale = (1.05 * size) / this.readBytes;
+    const nodes =
+      Math.min(sink.maxNodes, Math.ceil(sink.length * scale), Math.ceil(size / BYTES_A_NODE)) + 1024;
+    sink.makeRoom(nodes);
+    sink.name.makeRoom(nodes, Math.min(size, Math.ceil(sink.name.usedBytes * scale)));
+    this.placer.makeRoom(nodes);
+  }
+
+  private writeLines(chunk: Buffer): void {
     let from = 0;
     if (this.waiting.length > 0) {
       const first = chunk.indexOf(this.separator);
@@ -216,6 +262,8 @@ export class PathListReader {
     this.lines(rest, 0, rest.length);
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the path list names no paths");
+    const named = this.namedRefusal();
+    if (named !== undefined) throw named;
     if (this.detected && this.sized === false && this.numberFirstLines === this.pathLines) {
       // Every line as `find -printf '%s %p\n'` or `wc -c` prints it: read as names, each top-level name
       // would be a size, and every size lost, with exit 0.
@@ -256,20 +304,11 @@ export class PathListReader {
     ) {
       // `ls -l` or `tar tv`: each line a file's mode, owner, size, date and name. Read as paths, each
       // whole line would be one path split at its "/"s, the sizes in the names, with exit 0.
-      throw new EspalierError("PARSE_PATHS", this.tarFirst ? TAR_LINES : MODES_FIRST, {
+      const message = this.tarFirst === "tar" ? TAR_LINES : this.tarFirst === "ls" ? LS_LINES : MODES_FIRST;
+      throw new EspalierError("PARSE_PATHS", message, {
         line: this.firstLine,
         column: 1,
       });
-    }
-    if (
-      this.detected &&
-      this.sized === false &&
-      this.drawnLines >= 2 &&
-      this.drawnLines >= this.pathLines - 1
-    ) {
-      // `npm ls --all`: a tree already drawn, a package a line under `├── ` and `│ `. Read as paths, each
-      // line would be one path named with the drawing, a scoped package's "/" splitting it, exit 0.
-      throw new EspalierError("PARSE_PATHS", DRAWN_TREE, { line: this.firstDrawn, column: 1 });
     }
     if (
       this.detected &&
@@ -366,6 +405,27 @@ export class PathListReader {
           }
         : {}),
     });
+  }
+
+  /**
+   * PARSE_PATHS for an unsized list detected as a path list whose every line (so far: at its end, or at
+   * a repeated path, which such lines meet before the end) is one a known command prints, naming it and
+   * what reads its data: a mount table, `ls -s`, a drawn tree (`npm ls --all`). Undefined otherwise.
+   */
+  private namedRefusal(): EspalierError | undefined {
+    if (!this.detected || this.sized !== false) return undefined;
+    const lines = Math.min(this.pathLines, COMMA_LINES);
+    if (this.mounts >= 2 && this.mountLines === lines)
+      // mount, /proc/mounts, fstab: read as paths, each line one path split at its mount point's "/"s.
+      return new EspalierError("PARSE_PATHS", MOUNT_TABLE, { line: this.firstLine, column: 1 });
+    if (this.totalFirst && this.pathLines >= 2 && this.blockLines === lines - 1)
+      // `ls -s`: read as paths, each block count would be part of a name and `total N` a name, exit 0.
+      return new EspalierError("PARSE_PATHS", BLOCK_COUNTS, { line: this.firstLine, column: 1 });
+    if (this.drawnLines >= 2 && this.drawnLines >= this.pathLines - 1)
+      // `npm ls --all`: a tree already drawn, a package a line under `├── ` and `│ `. Read as paths, each
+      // line would be one path named with the drawing, a scoped package's "/" splitting it, exit 0.
+      return new EspalierError("PARSE_PATHS", DRAWN_TREE, { line: this.firstDrawn, column: 1 });
+    return undefined;
   }
 
   /**
@@ -560,11 +620,33 @@ export class PathListReader {
         if (this.headerFirst) this.headerWords = bytes.toString("utf8", start, end).trim().split(/ +/);
         this.filledColumns = this.headerFirst && this.headerWords.every((word) => CAPITALS.test(word));
         this.totalFirst = /^total [0-9]/.test(bytes.toString("latin1", start, Math.min(end, start + 8)));
+        if (bytes[end - 1] === colon) this.sectionHead = bytes.toString("utf8", start, end);
       } else if (this.filledColumns && this.pathLines <= COMMA_LINES) {
         const fields = bytes.toString("utf8", start, end).trim().split(/ +/).length;
         if (fields < this.headerWords.length) this.filledColumns = false;
       }
+      if (this.pathLines === 2 && this.sectionHead !== undefined) {
+        // `ls -R`, `ls -lR`, `ls -sR`: a folder's path and ":", then its entries by name alone (or its
+        // `total N`): read as paths, every entry would be a top-level name, exit 0; said at once, as a
+        // name found in two folders would be DUPLICATE_PATH before the end.
+        const entry = bytes.toString("utf8", start, end);
+        if (startsSections(this.sectionHead, entry) && (blockTotalLine(entry) || !entry.includes("/")))
+          throw folderSectionsError(line, "paths");
+      }
       if (numberThenSpace(bytes, start, end)) this.numberFirstLines++;
+      // Only while every line so far is one (after `total N`, or in a mount table): a bounded cost.
+      if (
+        this.totalFirst &&
+        this.pathLines <= COMMA_LINES &&
+        this.blockLines === this.pathLines - 2 &&
+        blockCountLine(bytes.toString("utf8", start, end))
+      )
+        this.blockLines++;
+      if (this.pathLines <= COMMA_LINES && this.mountLines === this.pathLines - 1) {
+        const kind = mountLine(bytes.toString("utf8", start, end));
+        if (kind !== undefined) this.mountLines++;
+        if (kind === "mount") this.mounts++;
+      }
       if (drawnTreeLine(bytes, start, end) && this.drawnLines++ === 0) this.firstDrawn = line;
       if (
         this.pathLines <= COMMA_LINES &&
@@ -580,7 +662,7 @@ export class PathListReader {
       )
         this.statLines++;
       if (modeFirst(bytes, start, end) && this.modeFirstLines++ === 0)
-        this.tarFirst = TAR_LINE.test(bytes.toString("utf8", start, Math.min(end, start + 200)));
+        this.tarFirst = modeLineShape(bytes.toString("utf8", start, Math.min(end, start + 200)));
       if (this.pathLines <= COMMA_LINES && packageLine(bytes, start, end)) this.packageLines++;
       if (this.pathLines <= COMMA_LINES && this.sameCommas) {
         const commas = countByte(bytes, comma, start, end);
@@ -617,14 +699,8 @@ export class PathListReader {
         : this.placer.place(bytes, view, pathStart, end, line);
     } catch (err) {
       // A drawn tree repeats a line (`├── x deduped`) before its end is read: say what it is.
-      if (
-        this.sized === false &&
-        this.detected &&
-        this.drawnLines >= 2 &&
-        this.drawnLines >= this.pathLines - 1
-      )
-        throw new EspalierError("PARSE_PATHS", DRAWN_TREE, { line: this.firstDrawn, column: 1 });
-      throw err;
+      // So does a mount table (a device mounted twice), or ls -s (a name in two folders).
+      throw this.namedRefusal() ?? err;
     }
     if (i === -1) i = this.placer.placeRoot(line);
     this.sink.ownSize[i] = size;
@@ -718,23 +794,6 @@ const TYPES = Buffer.from("-dlcbpsD");
 const PERMISSIONS = Buffer.from("-rwxsStT");
 const plus = 43;
 const at = 64;
-
-/**
- * A line as GNU tar tv prints it (seen here, tar 1.34): a mode, owner/group, the size, a date and a time,
- * then the name (`-rw-r--r-- 0/0   1077 1985-10-26 08:15 package/LICENSE`).
- */
-const TAR_LINE =
-  /^\S{10,11} +\S+\/\S+ +[0-9]+ +[0-9]{4}-[0-9]{2}-[0-9]{2} +[0-9]{2}:[0-9]{2}(:[0-9]{2})? +\S/;
-
-/**
- * The way out for GNU tar tv: its sizes and names as a path list, read by awk; a symbolic link's
- * ` -> target` is dropped from its name.
- */
-const TAR_LINES =
-  'every line starts with a file\'s mode (-rw-r--r--), as tar tv prints: read as a path list, each whole line would be one path, its size and date part of the names. Keep the size and the name as a path list: tar tvf FILE | awk \'{s = $3; l = ($1 ~ /^l/); sub(/^[^ ]+ +[^ ]+ +[^ ]+ +[^ ]+ +[^ ]+ +/, ""); if (l) sub(/ -> .*$/, ""); print s "\\t" $0}\' | espalier -; to read each line as a path, pass --input-format paths';
-
-const MODES_FIRST =
-  "every line starts with a file's mode (-rw-r--r--), as ls -l and tar tv print: read as a path list, each whole line would be one path, its size and date part of the names. List paths instead: find DIR -printf '%s\\t%p\\n' (sizes and paths), tar tf (names); to read each line as a path, pass --input-format paths";
 
 /** Whether the line is spaces, digits, one or more spaces and then more: `  1234 ./a` (wc -c, find '%s %p'). */
 function numberThenSpace(bytes: Buffer, start: number, end: number): boolean {
@@ -830,6 +889,13 @@ function packageLine(bytes: Buffer, start: number, end: number): boolean {
     bytes.toString("utf8", start, end),
   );
 }
+
+/**
+ * The least input bytes a node is given room for before it is read (see `PathListReader.makeRoom`): a
+ * node takes 25 bytes of arrays (parent and line 4 each, the name's place 8, size 8, listed 1). The bench's
+ * listings have 80 to 90 bytes a node.
+ */
+const BYTES_A_NODE = 12;
 
 /** Lines of an unsized list whose commas are counted (see `PathListReader.commas`): a bounded cost. */
 const COMMA_LINES = 1000;

@@ -31,6 +31,10 @@ const SIZE_KEYS = ["rss", "vsz"];
  * gives the one for `pid,ppid,comm`. Only the table's own words are printed, never the input's.
  */
 export function columnsAlignedMessage(header: readonly string[], lines: "number" | "filled"): string {
+  const words = header.map((word) => word.toUpperCase());
+  // No process id: no ps listing, so no conversion from ps (findmnt's TARGET SOURCE FSTYPE OPTIONS).
+  if (!words.includes("PID"))
+    return words.includes("TARGET") && words.includes("FSTYPE") ? FINDMNT : OTHER_COLUMNS;
   const known = header.map((word) => psColumns[word.toUpperCase()]);
   const fits =
     known.every((c) => c !== undefined) &&
@@ -53,3 +57,11 @@ export function columnsAlignedMessage(header: readonly string[], lines: "number"
       : "every later line fills its columns, as ps -ef and ps aux print";
   return `the first line reads as a header of columns aligned with spaces and ${rows}: read as a path list, each line would be one path. A table is read as CSV or TSV whose header names the id and parent columns: ps -eo ${keys} | awk -v OFS='\\t' 'BEGIN {print ${names}} {sub(/^ +/, ""); ${splits}print}' | espalier - --null-parent 0${sized}; to read each line as a path, pass --input-format paths`;
 }
+
+/** A header of columns with no process id (see {@link columnsAlignedMessage}): no conversion named. */
+const OTHER_COLUMNS =
+  "the first line reads as a header of columns aligned with spaces and every later line fills its columns: read as a path list, each line would be one path. Give espalier a table whose header row names its columns (CSV or TSV: the id and parent columns, or a path column), or a size and a path separated by a tab a line (find DIR -printf '%s\\t%p\\n', du -ab); to read each line as a path, pass --input-format paths";
+
+/** findmnt's own listing (util-linux, seen here): its header, then each mount drawn under its parent. */
+const FINDMNT =
+  "the first line names the columns of a mount table (TARGET, SOURCE, FSTYPE), as findmnt prints each mount under the one it is mounted on: read as a path list, each line would be one path, its drawing and columns part of the names. findmnt -J lists the same mounts as nested JSON: findmnt -J | espalier - --start-at /filesystems --name-field target; to read each line as a path, pass --input-format paths";

@@ -225,6 +225,52 @@ describe("loadTreeFromStream(paths)", () => {
     else expect(actual).toEqual(expected);
   });
 
+  it("loadTreeFromStream(paths) builds the tree the reference builds for listings that keep folders together, but for a few lines", async () => {
+    // The reader finds a name among its folder's children while the folder stays on the walk from when
+    // it was made (src/load/open-folders.ts), and in the table of every node only below a folder the
+    // walk came back to. Listings made as find, du -a and sorted keys make them (a random tree in
+    // pre-order, folders named before or after their contents, or not at all), with wide folders (the
+    // small tables grow, and are made small again) and deep ones; then a few lines moved further on (a
+    // folder left and come back to, its table filled then) or repeated (DUPLICATE_PATH, where the
+    // reference says it).
+    await fc.assert(
+      fc.asyncProperty(fc.integer(), async (seed) => {
+        const r = rng(seed);
+        const folders = r.pick(["before", "after", "none"] as const);
+        const lines: string[] = [];
+        let made = 0;
+        const walk = (path: string, depth: number) => {
+          const wide = r.chance(0.1) ? r.int(40, 300) : r.int(0, 6);
+          const children = depth === 0 ? r.int(1, 5) : depth > 6 ? 0 : wide;
+          if (depth > 0 && folders === "before") lines.push(path);
+          for (let k = 0; k < children && made < 3000; k++, made++) {
+            const name = r.chance(0.2) ? r.pick(SEGMENTS) : `${r.pick(["run", "part", "é"])}-${k}`;
+            const child = path === "" ? name : `${path}/${name}`;
+            if (r.chance(0.3)) walk(child, depth + 1);
+            else lines.push(child);
+          }
+          if (depth > 0 && (folders === "after" || (folders === "none" && children === 0))) lines.push(path);
+        };
+        walk("", 0);
+        for (let moves = r.int(0, 3); moves > 0 && lines.length > 1; moves--) {
+          const from = r.int(0, lines.length - 1);
+          const [line] = lines.splice(from, 1);
+          if (r.chance(0.8)) lines.splice(r.int(from, lines.length), 0, line);
+          if (r.chance(0.2)) lines.splice(r.int(0, lines.length), 0, r.pick(lines));
+        }
+        const bytes = utf8(lines.map((line, k) => `${k}\t${line}\n`).join(""));
+        // The input's length, a hint the reader makes room by after its first chunk: right or wrong.
+        const inputBytes = r.pick([undefined, bytes.length, 1, 10 * bytes.length]);
+        const options = opts({ format: "paths", file: "tidewater.paths", inputBytes });
+        const expected = outcomeOf(() => loadByReference(bytes, options));
+        const actual = await outcomeOfAsync(() => loadStreamed(bytes, options, cutsFor(r, bytes.length, 4)));
+        if ("tree" in expected && "tree" in actual) expectSameTreeAndSummaries(r, actual.tree, expected.tree);
+        else expect(actual).toEqual(expected);
+      }),
+      { numRuns: 200 },
+    );
+  });
+
   it("loadTreeFromStream(paths) reports errors at the lines the reference reports", async () => {
     const cases = [
       "a\na/b\n\na/b\n",
