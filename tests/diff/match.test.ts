@@ -119,8 +119,8 @@ function pairsByPath(oldTree: Tree, newTree: Tree): { oldToNew: number[]; newToO
   };
   const oldKids = childrenOf(oldTree);
   const newKids = childrenOf(newTree);
-  const oldToNew = Array.from({ length: oldTree.length }, (_, o) => (o === 0 ? 0 : -1));
-  const newToOld = Array.from({ length: newTree.length }, (_, n) => (n === 0 ? 0 : -1));
+  const oldToNew = Array.from({ length: oldTree.length }, (_, o): number => (o === 0 ? 0 : -1));
+  const newToOld = Array.from({ length: newTree.length }, (_, n): number => (n === 0 ? 0 : -1));
   const stack: [number, number][] = [[0, 0]];
   while (stack.length > 0) {
     const [o, n] = stack.pop()!;
@@ -144,8 +144,8 @@ describe("matchTreesListing(old, new) by path", () => {
     fc.assert(
       fc.property(
         arbEdited(60, 12),
-        fc.array(fc.constantFrom("a", "b", "c", "d~", "e/f", "", "g h"), { maxLength: 3 }),
-        fc.array(fc.constantFrom("a", "b", "c", "d~", "e/f", "g h"), { maxLength: 3 }),
+        fc.array(fc.constantFrom<string>("a", "b", "c", "d~", "e/f", "", "g h"), { maxLength: 3 }),
+        fc.array(fc.constantFrom<string>("a", "b", "c", "d~", "e/f", "g h"), { maxLength: 3 }),
         fc.boolean(),
         (edited, wide, odd, alike) => {
           const [plainOld, plainNew] = withoutIds(edited);
