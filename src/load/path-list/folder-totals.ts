@@ -50,6 +50,9 @@ export function folderTotals(
   mode: FolderSizes | undefined,
 ): FolderReading {
   if (mode === "own") return OWN;
+  // No line named a folder that holds entries (a listing of files only, as an object store's): no
+  // folder line to read as a total, and nothing to sum.
+  if (mode === undefined && order.contentAfterListing === 0 && order.listedAfterContents === 0) return OWN;
   const { length, parentOf, ownSize } = nodes;
   // What each node's contents add up to: a listed node stands for its line's size, an unlisted one
   // (an ancestor no line named) for its contents. Children have higher indices than their parents,

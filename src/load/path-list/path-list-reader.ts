@@ -166,7 +166,9 @@ export class PathListReader {
    * After the first chunk of an input of known length: room for the nodes and name bytes it likely has
    * (those of the chunk, in proportion to the length, plus 5%), made once, where growing by doubling
    * makes fresh memory and a copy of every array a dozen times over. A guess too low grows as before;
-   * room never used is memory never touched.
+   * room never used is memory never touched. A first chunk of short lines under a longer rest would
+   * guess too many: the room is at most a node for every {@link BYTES_A_NODE} bytes (about twice the
+   * input's length in arrays) and the names' bytes at most the input's.
    */
   private makeRoom(): void {
     const size = this.inputBytes;
@@ -175,9 +177,10 @@ export class PathListReader {
     this.roomMade = true;
     if (this.readBytes >= size) return;
     const scale = (1.05 * size) / this.readBytes;
-    const nodes = Math.min(sink.maxNodes, Math.ceil(sink.length * scale) + 1024);
+    const nodes =
+      Math.min(sink.maxNodes, Math.ceil(sink.length * scale), Math.ceil(size / BYTES_A_NODE)) + 1024;
     sink.makeRoom(nodes);
-    sink.name.makeRoom(nodes, Math.ceil(sink.name.usedBytes * scale));
+    sink.name.makeRoom(nodes, Math.min(size, Math.ceil(sink.name.usedBytes * scale)));
     this.placer.makeRoom(nodes);
   }
 
@@ -886,6 +889,13 @@ function packageLine(bytes: Buffer, start: number, end: number): boolean {
     bytes.toString("utf8", start, end),
   );
 }
+
+/**
+ * The least input bytes a node is given room for before it is read (see `PathListReader.makeRoom`): a
+ * node takes 25 bytes of arrays (parent and line 4 each, the name's place 8, size 8, listed 1). The bench's
+ * listings have 80 to 90 bytes a node.
+ */
+const BYTES_A_NODE = 12;
 
 /** Lines of an unsized list whose commas are counted (see `PathListReader.commas`): a bounded cost. */
 const COMMA_LINES = 1000;

@@ -43,6 +43,28 @@ describe("loadTree(paths)", () => {
     expect(error.details).toEqual({ firstLine: 2 });
   });
 
+  it("loadTree(paths) finds a folder's entries again when a listing comes back to it after others", () => {
+    // Names are found among a folder's children while it stays on the walk (src/load/open-folders.ts):
+    // here `a/b` is left for `c` and come back to, and `b` is left for `b.txt` (a sorted listing puts
+    // "b.txt" before "b/x": "." sorts before "/").
+    const tree = paths("a/b/x\nc/y\na/b/z\na/b\na/b.txt\na/b/w\n", { rootName: "top" });
+    expect(outline(tree)).toEqual([
+      "top",
+      "  a",
+      "    b",
+      "      x",
+      "      z",
+      "      w",
+      "    b.txt",
+      "  c",
+      "    y",
+    ]);
+    const error = caught(() => paths("a/b/x\nc/y\na/b/z\na/b/x\n"));
+    expect(error.code).toBe("DUPLICATE_PATH");
+    expect(error.pos).toEqual({ line: 4, column: 1 });
+    expect(error.details).toEqual({ firstLine: 1 });
+  });
+
   it("loadTree(paths) rejects a size that is not a number >= 0 as BAD_SIZE at its line", () => {
     const error = caught(() => paths("1\ta\n4.0K\ta/b\n"));
     expect(error.code).toBe("BAD_SIZE");
