@@ -198,8 +198,10 @@ const ROW_INDENT = "  ";
 
 /**
  * Most rows a key takes where fewer cannot say every part on screen (see {@link keyRowsNeeded}); past
- * them it says less, as the one- and two-row keys do. Eight hold every part a 30-column diff can
- * need. A choice of this project, no source.
+ * them it says less, as the one- and two-row keys do. Eight hold every part a 30-column diff of a
+ * tree can need; a screen of every mark (a graph's `&` too) and every cut needs nine at 32 columns and
+ * says the marks, the numbers, the sizes and a deep line's digits first (see `packedKey`). A choice
+ * of this project, no source.
  */
 export const KEY_MOST_ROWS = 8;
 
@@ -520,7 +522,8 @@ function explanations(kind: "summary" | "diff", facts: KeyFacts): Explanation[] 
     said.push([
       `'${SIZE_CUT}' a line's sizes did not fit, so the sizes of the line above it do not add up`,
       `'${SIZE_CUT}': so the line above's sizes do not add up`,
-      `'${SIZE_CUT}': above won't add up`,
+      // Within a 30-column row after its indentation: `'size cut': above won't add up` is 29.
+      SIZE_CUT_LEAST,
       "sizes",
     ]);
   if (facts.depthInDigits) {

@@ -498,6 +498,34 @@ describe("keyRowsNeeded(kind, facts, width, most) and keyLines(..., rows)", () =
     for (const row of key) expect(displayWidth(row)).toBeLessThanOrEqual(32);
   });
 
+  it("says the marks, the numbers, the sizes and the depth first where 8 rows cannot say all (30 columns)", () => {
+    // Every mark and cut at once (constructed: a graph's `&`, a `/` in a name, a deep long chain): at
+    // 30 columns `'size cut': above won't add up` was 31 columns with its indentation, no 8 rows could
+    // hold it, and the key fell back to 4 rows saying the marks and `totals: all below` alone.
+    const every = {
+      marks: new Set([MARK.focus, MARK.path, MARK.other, MARK.reference]),
+      chains: true,
+      sizes: true,
+      pathEscapes: true,
+      sizesCut: true,
+      countsCut: true,
+      foldsCut: true,
+      namesCut: true,
+      changesCut: true,
+      depthInDigits: { level: 12, mark: MARK.path },
+      namesLeftOut: true,
+    };
+    for (const width of [30, 32]) {
+      const rows = keyRowsNeeded("diff", every, width);
+      expect(rows).toBe(KEY_MOST_ROWS);
+      const key = keyLines("diff", every, width, "text", rows);
+      for (const row of key) expect(displayWidth(row)).toBeLessThanOrEqual(width);
+      const text = key.join("\n");
+      for (const said of ["'*'", "':'", "'.'", "'&'", "all below", "'size cut'", "'12 :' depth", "(k more)"])
+        expect(text).toContain(said);
+    }
+  });
+
   it("says what a line without a count holds where its rows have room, in no row of its own", () => {
     // Field test: `find /usr/share` at 32 columns, `  . maven-repo  (665 hidden)`: 666 nodes.
     const facts = { marks: new Set([MARK.other]), chains: false, sizes: false, countsInFolds: true };

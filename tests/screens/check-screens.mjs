@@ -4,6 +4,8 @@
 // explain, and every screen over its budget or width.
 //
 // Usage (after `npm run build`): node tests/screens/check-screens.mjs [--quick]
+// It also compares each budget's screen with the next budget's: the larger shows every node the
+// smaller does, but where the key takes lines the tree had (docs/selection.md).
 // Inputs it makes for itself under a temporary folder: `npm ls --all --json` of this project and an
 // edited copy (for a diff), and `find /usr/share -printf '%s\t%P\n'`; plus YAML files already on the
 // machine and the invented fixtures; and the interactive view's first screens of some of them. The
@@ -187,6 +189,8 @@ let screens = 0;
 let noted = 0;
 let failed = 0;
 let refused = 0;
+/** [budget, screen] the budgets `key left out` screens name, for the nesting check below. */
+const keyNamed = [];
 for (const c of cases) {
   for (const width of widths) {
     for (const budget of budgets) {
@@ -239,6 +243,7 @@ for (const c of cases) {
         });
         // A screen that says `key left out: --budget N has room`: N prints the key, and N - 1 does not.
         if (room !== null && room !== undefined) {
+          keyNamed.push([room, { name: c.name, width }]);
           const keyed = async (b) =>
             /^key: /m.test((await cli([...c.args, "--budget", String(b)], env)).stdout);
           if (!(await keyed(room)))
@@ -267,6 +272,55 @@ for (const c of cases) {
     }
   }
 }
+// --- nesting across budgets ------------------------------------------------------------------------
+// Raising the budget by one never hides a node (guarantee 2 of docs/selection.md), except where the
+// key takes rows the tree had: the lines for the tree then fall (the key printed at last, at the
+// budget a `key left out` screen named, or taking more rows), and docs/selection.md says so. Checked
+// at each budget above and the one after it, and at the budget a screen names for its key and the one
+// before it: a pair whose tree lost a node while its lines did not fall fails.
+/** The paths a screen shows (its JSON's nodes), and the lines its text gives the tree. */
+async function shownAt(args, budget, env) {
+  const text = await cli([...args, "--budget", String(budget)], env);
+  const json = await cli([...args, "--budget", String(budget), "--format", "json"], env);
+  if (text.code !== 0 || json.code !== 0) return null;
+  const paths = new Set();
+  const walk = (n) => {
+    paths.add(n.path);
+    for (const c of n.children ?? []) walk(c);
+  };
+  walk(JSON.parse(json.stdout).root);
+  const all = text.stdout.trimEnd().split("\n");
+  return { paths, tree: all.length - all.findIndex((l) => /^[*:.&] /.test(l)) };
+}
+let pairs = 0;
+let unnested = 0;
+for (const c of cases) {
+  for (const width of widths) {
+    const env = width === undefined ? { NO_COLOR: "1" } : { COLUMNS: String(width), NO_COLOR: "1" };
+    const at = new Set(budgets);
+    for (const [budget, named] of keyNamed)
+      if (named.width === width && named.name === c.name) at.add(budget - 1);
+    for (const budget of at) {
+      const [lower, upper] = [await shownAt(c.args, budget, env), await shownAt(c.args, budget + 1, env)];
+      if (lower === null || upper === null) continue;
+      pairs++;
+      const lost = [...lower.paths].filter((p) => !upper.paths.has(p));
+      if (lost.length === 0) continue;
+      if (upper.tree < lower.tree) {
+        unnested++;
+        console.log(
+          `NOTE ${c.name} | COLUMNS=${width ?? "-"} --budget ${budget} -> ${budget + 1}: the key takes lines, ${lower.tree} -> ${upper.tree} for the tree, ${lost.length} node(s) hidden`,
+        );
+        continue;
+      }
+      failed++;
+      console.log(
+        `FAIL ${c.name} | COLUMNS=${width ?? "-"} --budget ${budget} -> ${budget + 1}\n  hides ${lost.length} shown node(s) with ${upper.tree} tree lines for ${lower.tree}: ${lost.slice(0, 3).join(", ")}`,
+      );
+    }
+  }
+}
+
 // --- the interactive view ------------------------------------------------------------------------
 // Its screens are `espalier`'s behind a two-column gutter, over a status row: the key says every mark
 // and cut on them, or the status row sends the reader to the help for them (`h: keys, marks`).
@@ -368,7 +422,7 @@ for (const v of views) {
   }
 }
 console.log(
-  `${screens} screens read (${noted} saying the key was left out), ${refused} budgets refused (each checked), ${viewsRead} interactive screens read (${pointed} pointing to the help for the marks), ${failed} failed`,
+  `${screens} screens read (${noted} saying the key was left out), ${refused} budgets refused (each checked), ${pairs} budgets and the next compared (${unnested} hiding a node where the key took the tree's lines), ${viewsRead} interactive screens read (${pointed} pointing to the help for the marks), ${failed} failed`,
 );
 rmSync(work, { recursive: true, force: true });
 process.exitCode = failed > 0 ? 1 : 0;
