@@ -1,5 +1,6 @@
 import { bytesCompare, isEmptyName, NamePool, type Names, sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
+import { wellFormedUtf8 } from "../model/well-formed-utf8.js";
 
 /** How the nodes of two versions correspond. Roots always correspond to each other. */
 export interface Matching {
@@ -276,7 +277,7 @@ function sameIds(a: Names, b: Names): (i: number, j: number) => boolean {
  * Top-down in the new tree's pre-order: a node's parent is matched (or not) before the node. Children
  * are paired position by position while their names' bytes are equal; from the first pair that differs,
  * the k-th remaining old child of a name pairs with the k-th remaining new child of it ({@link pairByName},
- * names decoded). Stopping at bytes that differ but decode alike pairs the same nodes as going on would:
+ * names decoded; a few children of well-formed names by their bytes, {@link pairInOrder}). Stopping at bytes that differ but decode alike pairs the same nodes as going on would:
  * from there both lists hold those names at the same positions, so their k-th occurrences are paired
  * alike either way. Names that are not all pooled bytes (a tree put under a new root, names kept as
  * strings) are compared by sameName in the first pass too, as their bytes cannot be. Returns how many
@@ -293,10 +294,14 @@ function matchByPath(
   const oldName = oldTree.name;
   const newName = newTree.name;
   const equalBytes = bytesCompare(oldName, newName);
-  const same =
-    pooledBytes(oldName) && pooledBytes(newName)
-      ? equalBytes
-      : (i: number, j: number) => equalBytes(i, j) || sameName(oldName, i, newName, j);
+  const pooled = pooledBytes(oldName) && pooledBytes(newName);
+  const same = pooled
+    ? equalBytes
+    : (i: number, j: number) => equalBytes(i, j) || sameName(oldName, i, newName, j);
+  // Names as bytes, for pairing few children by them (pairInOrder); null when some name is no bytes.
+  const byBytes = pooled
+    ? { equalBytes, old: (oldName as NamePool).byteRuns()!, new: (newName as NamePool).byteRuns()! }
+    : null;
   let pairs = 0;
   for (let n = 0; n < newTree.length; n++) {
     const o = newToOld[n];
@@ -305,10 +310,19 @@ function matchByPath(
       continue;
     }
     if (newCount[n] > 1 && oldCount[o] > 1)
-      pairs += pairChildren(same, oldName, oldCount, o, newName, newCount, n, oldToNew, newToOld);
+      pairs += pairChildren(same, byBytes, oldName, oldCount, o, newName, newCount, n, oldToNew, newToOld);
   }
   return pairs;
 }
+
+/** Both versions' names as bytes (NamePool.byteRuns), and whether two are equal bytes. */
+interface NameBytes {
+  equalBytes: (i: number, j: number) => boolean;
+  old: ByteRuns;
+  new: ByteRuns;
+}
+
+type ByteRuns = NonNullable<ReturnType<NamePool["byteRuns"]>>;
 
 /**
  * The children of matched old node o and new node n: position by position while `same` holds, then by
@@ -317,6 +331,7 @@ function matchByPath(
  */
 function pairChildren(
   same: (i: number, j: number) => boolean,
+  byBytes: NameBytes | null,
   oldName: Names,
   oldCount: Int32Array,
   o: number,
@@ -339,7 +354,72 @@ function pairChildren(
     pairs++;
   }
   if (oc < oEnd && nc < nEnd)
-    pairs += pairByName(oldName, oldCount, oc, oEnd, newName, newCount, nc, nEnd, oldToNew, newToOld);
+    pairs +=
+      byBytes !== null &&
+      fewWellFormed(byBytes.old, oldCount, oc, oEnd) &&
+      fewWellFormed(byBytes.new, newCount, nc, nEnd)
+        ? pairInOrder(byBytes, oldCount, oc, oEnd, newCount, nc, nEnd, oldToNew, newToOld)
+        : pairByName(oldName, oldCount, oc, oEnd, newName, newCount, nc, nEnd, oldToNew, newToOld);
+  return pairs;
+}
+
+/**
+ * Children at most {@link pairInOrder} pairs (on each side): it compares each new child with the old
+ * ones still unpaired, up to this many squared comparisons of names' lengths and bytes, where
+ * {@link pairByName} decodes every name once into a map. A bound chosen, not tuned: the bench's 1M
+ * JSON pair has about 9 old and 9 new children a call (5,509 calls; docs/performance.md, fourteenth
+ * session).
+ */
+const FEW_CHILDREN = 32;
+
+/**
+ * Whether the children from `c` to `end` (of one parent) are at most {@link FEW_CHILDREN}, with names of
+ * well-formed UTF-8: bytes that differ then decode differently, so equal bytes are equal names.
+ */
+function fewWellFormed(names: ByteRuns, count: Int32Array, c: number, end: number): boolean {
+  const { bytes, start, size } = names;
+  let children = 0;
+  for (; c < end; c += count[c]) {
+    if (++children > FEW_CHILDREN || !wellFormedUtf8(bytes, start[c], start[c] + size[c])) return false;
+  }
+  return true;
+}
+
+/**
+ * {@link pairByName} for few children of well-formed names (see {@link fewWellFormed}), by their bytes:
+ * each new child, in order, pairs with the first old child of its name not yet paired, which is the
+ * k-th old child of the name for the k-th new one. Nothing decoded, no map made (their strings and
+ * maps were most of what the collector had to do in a diff's own stage). Returns how many pairs.
+ */
+function pairInOrder(
+  byBytes: NameBytes,
+  oldCount: Int32Array,
+  oc: number,
+  oEnd: number,
+  newCount: Int32Array,
+  nc: number,
+  nEnd: number,
+  oldToNew: Int32Array,
+  newToOld: Int32Array,
+): number {
+  const { equalBytes } = byBytes;
+  const oldSize = byBytes.old.size;
+  const newSize = byBytes.new.size;
+  let pairs = 0;
+  // The first old child not yet paired: those before it all are.
+  let first = oc;
+  for (let c = nc; c < nEnd; c += newCount[c]) {
+    while (first < oEnd && oldToNew[first] !== -1) first += oldCount[first];
+    const length = newSize[c];
+    for (let m = first; m < oEnd; m += oldCount[m]) {
+      // Equal bytes (equalBytes: never two empty names, which are equal names too).
+      if (oldToNew[m] !== -1 || oldSize[m] !== length || (length > 0 && !equalBytes(m, c))) continue;
+      oldToNew[m] = c;
+      newToOld[c] = m;
+      pairs++;
+      break;
+    }
+  }
   return pairs;
 }
 

@@ -1,21 +1,6 @@
 import { EspalierError } from "../errors.js";
 
 /**
- * The line where a listing in folder sections begins its second line, when `text` is one: a first line
- * that is a folder's path and ":" (`src/ledger:`, `.:`), then its entries one a line, none of them
- * `key: value` or indented, as `ls -R` and `ls -lR` print each folder (GNU ls, seen here; `ls -lR`
- * with its `total N` line and a file's mode first). As YAML, that first line reads as a key and the
- * next as a stray text: the parser's own error names neither. Undefined otherwise.
- */
-export function folderSectionsAt(text: string): number | undefined {
-  const lines = text.split("\n", 4).map((line) => line.replace(/\r$/, ""));
-  const first = lines.findIndex((line) => line.trim() !== "");
-  if (first === -1) return undefined;
-  const entry = lines[first + 1];
-  return entry !== undefined && startsSections(lines[first], entry) ? first + 2 : undefined;
-}
-
-/**
  * Whether `head` and `entry`, an input's first line and the one after it, start a folder's section as
  * `ls -R` and `ls -lR` print it: a path and ":", then an entry that is not `key: value` nor indented.
  */

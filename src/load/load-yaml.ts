@@ -16,7 +16,7 @@ import { EspalierError, quoted, say } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
 import { adjacencyNodes } from "./adjacency.js";
-import { folderSectionsAt, folderSectionsError } from "./folder-sections.js";
+import { knownListingAt } from "./known-listings.js";
 import type { LoadOptions } from "./load-options.js";
 import { chooseReading } from "./shape/choose-reading.js";
 import { sampleNested } from "./shape/sample-nested.js";
@@ -81,9 +81,10 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
         pos,
       );
     }
-    // Detected as YAML by its first line (no --input-format, no .yaml name): `ls -R` output starts so.
-    const sections = detectedYaml(options) ? folderSectionsAt(text) : undefined;
-    if (sections !== undefined) throw folderSectionsError(sections);
+    // Detected as YAML by its first line (no --input-format, no .yaml name): `ls -R` output starts so,
+    // and `unzip -l`'s and `zipinfo`'s (`Archive:  NAME`).
+    const known = detectedYaml(options) ? knownListingAt(text) : undefined;
+    if (known !== undefined) throw known;
     const reason = error.message.replace(/ at line \d+, column \d+:.*$/s, "");
     throw new EspalierError("PARSE_YAML", say`invalid YAML (${error.code}): ${quoted.excerpt(reason)}`, pos);
   }

@@ -92,6 +92,88 @@ describe("matchTreesListing(old, oldCount, new, newCount)", () => {
   });
 });
 
+/**
+ * The tree with its names as a pool of bytes, each name spelled by `spell` (its UTF-8 bytes, or others
+ * that decode to another text or the same one).
+ */
+function pooledNames(tree: Tree, spell: (name: string) => Uint8Array): Tree {
+  const texts = namesToArray(tree.name);
+  const pool = new NamePool(texts.length, 16);
+  pool.setLength(texts.length);
+  texts.forEach((text, i) => {
+    const bytes = spell(text);
+    pool.setBytes(i, bytes, 0, bytes.length);
+  });
+  return { ...tree, name: pool };
+}
+
+/**
+ * The matching by path from its rule, decoding every name: the roots pair, and under two paired nodes
+ * the k-th child of a name (as text) pairs with the k-th child of that name on the other side.
+ */
+function pairsByPath(oldTree: Tree, newTree: Tree): { oldToNew: number[]; newToOld: number[] } {
+  const childrenOf = (tree: Tree) => {
+    const lists: number[][] = Array.from({ length: tree.length }, () => []);
+    for (let i = 1; i < tree.length; i++) lists[tree.parent[i]].push(i);
+    return lists;
+  };
+  const oldKids = childrenOf(oldTree);
+  const newKids = childrenOf(newTree);
+  const oldToNew = Array.from({ length: oldTree.length }, (_, o): number => (o === 0 ? 0 : -1));
+  const newToOld = Array.from({ length: newTree.length }, (_, n): number => (n === 0 ? 0 : -1));
+  const stack: [number, number][] = [[0, 0]];
+  while (stack.length > 0) {
+    const [o, n] = stack.pop()!;
+    const waiting = new Map<string, number[]>();
+    for (const c of oldKids[o])
+      waiting.set(oldTree.name.get(c), [...(waiting.get(oldTree.name.get(c)) ?? []), c]);
+    for (const c of newKids[n]) {
+      const m = waiting.get(newTree.name.get(c))?.shift();
+      if (m === undefined) continue;
+      oldToNew[m] = c;
+      newToOld[c] = m;
+      stack.push([m, c]);
+    }
+  }
+  return { oldToNew, newToOld };
+}
+
+describe("matchTreesListing(old, new) by path", () => {
+  it("pairs the k-th child of a name with the k-th, whatever the names' bytes", () => {
+    const utf8 = (text: string) => Buffer.from(text, "utf8");
+    fc.assert(
+      fc.property(
+        arbEdited(60, 12),
+        fc.array(fc.constantFrom<string>("a", "b", "c", "d~", "e/f", "", "g h"), { maxLength: 3 }),
+        fc.array(fc.constantFrom<string>("a", "b", "c", "d~", "e/f", "g h"), { maxLength: 3 }),
+        fc.boolean(),
+        (edited, wide, odd, alike) => {
+          const [plainOld, plainNew] = withoutIds(edited);
+          // Some names beyond ASCII; some (`odd`) spelled with a last byte that is no UTF-8 and decodes
+          // as U+FFFD, in NEW another such byte (`alike`: the same text of other bytes) or none.
+          const text = (name: string) => (wide.includes(name) ? `${name}é日本` : name);
+          const spell = (bad: number | null) => (name: string) =>
+            odd.includes(name) && bad !== null
+              ? Buffer.concat([utf8(text(name)), Buffer.from([bad])])
+              : utf8(text(name));
+          const oldTree = pooledNames(plainOld, spell(0xff));
+          const newTree = pooledNames(plainNew, spell(alike ? 0xfe : null));
+          const { matching } = matchTreesListing(
+            oldTree,
+            subtreeCounts(oldTree),
+            newTree,
+            subtreeCounts(newTree),
+          );
+          const expected = pairsByPath(oldTree, newTree);
+          expect([...matching.oldToNew]).toEqual(expected.oldToNew);
+          expect([...matching.newToOld]).toEqual(expected.newToOld);
+        },
+      ),
+      { numRuns: 300 },
+    );
+  });
+});
+
 describe("combineListing(old, oldCount, new, newCount, matching, compared, unmatched)", () => {
   it("lays out the same combined tree with the matcher's list of unmatched old nodes as without it", () => {
     fc.assert(

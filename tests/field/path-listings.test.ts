@@ -171,14 +171,18 @@ describe("a du -a listing (1 KiB blocks, not bytes)", () => {
   });
 
   it("reads a du -ab listing (bytes) whose sizes are not all multiples of 4 as before", async () => {
-    // The same folders with one file a byte longer: 693 bytes, read as totals.
-    const bytes = blocks
-      .replace("4\t/srv/tidewater/ledger/part-0.bin", "5\t/srv/tidewater/ledger/part-0.bin")
-      .replace(`${ledger}\t/srv/tidewater/ledger`, `${ledger + 1}\t/srv/tidewater/ledger`)
-      .replace(`${ledger + 4}\t/srv/tidewater`, `${ledger + 5}\t/srv/tidewater`);
+    // The same files with one a byte longer, and each folder's own part its directory's 4,096 bytes, as
+    // du -ab gives it on ext4 (seen here): 8,877 bytes, read as totals. (Own parts of 4, as the blocks
+    // above have, are units of 1 KiB or more: refused below.)
+    const bytes = [
+      ...files.map((line, k) => (k === 0 ? line.replace(/^4\t/, "5\t") : line)),
+      `${ledger - 4 + 1 + 4096}\t/srv/tidewater/ledger`,
+      `${ledger - 4 + 1 + 4096 * 2}\t/srv/tidewater`,
+      "",
+    ].join("\n");
     const result = await cli(["-", "--format", "json"], { stdin: bytes });
     expect(result.stderr).toBe("");
-    expect(JSON.parse(result.stdout).totals).toEqual({ nodes: 22, size: 693 });
+    expect(JSON.parse(result.stdout).totals).toEqual({ nodes: 22, size: 684 + 1 + 4096 * 2 });
     expect(JSON.parse(result.stdout).input.folderTotals).toBe(true);
   });
 });

@@ -51,8 +51,12 @@ export function folderTotals(
 ): FolderReading {
   if (mode === "own") return OWN;
   // No line named a folder that holds entries (a listing of files only, as an object store's): no
-  // folder line to read as a total, and nothing to sum.
-  if (mode === undefined && order.contentAfterListing === 0 && order.listedAfterContents === 0) return OWN;
+  // folder line to read as a total, and nothing to sum; unless the sizes are du -s DIR/*'s 1 KiB blocks
+  // (a look at the first sizes, mostly: the first that is no multiple of 4 ends it).
+  if (mode === undefined && order.contentAfterListing === 0 && order.listedAfterContents === 0) {
+    if (inBlocks(nodes) && !wholeBlocks(nodes)) throw blockCounts("flat");
+    return OWN;
+  }
   const { length, parentOf, ownSize } = nodes;
   // What each node's contents add up to: a listed node stands for its line's size, an unlisted one
   // (an ancestor no line named) for its contents. Children have higher indices than their parents,
@@ -69,18 +73,22 @@ export function folderTotals(
     parents[p] = 1;
   }
   if (mode === undefined) {
-    if (!readsAsTotals(nodes, contents, parents)) return OWN;
+    const duOrder = order.contentAfterListing === 0 && order.listedAfterContents > 0;
+    if (!readsAsTotals(nodes, contents, parents)) {
+      if (duOrder && roundedUp(nodes, contents, parents)) throw roundedBlocks();
+      return OWN;
+    }
     // du's own order (every folder after its contents), or du's lines sorted biggest first (`du -ab |
     // sort -rn` puts every total before its contents): totals. Any other order (`sort -k2` by path,
     // as find lists) is one a listing of own sizes has too, so the sizes must settle it.
-    const duOrder = order.contentAfterListing === 0 && order.listedAfterContents > 0;
     const sorted = order.listedAfterContents === 0 && biggestFirst(nodes);
     if (!duOrder && !sorted) {
       const seen = looksLikeDu(nodes, contents, parents);
       if (seen === "own") return OWN;
       if (seen === "unsure") return { totals: false, note: likeTotalsNote(nodes, contents, parents) };
     }
-    if (inBlocks(nodes) && !foldersOfBytes(nodes, contents, parents)) throw blockCounts();
+    if (inBlocks(nodes) && !foldersOfBytes(nodes, contents, parents)) throw blockCounts("totals");
+    if (foldersOfUnits(nodes, contents, parents)) throw roundedBlocks();
   }
   for (let i = 0; i < length; i++) {
     if (parents[i] === 0 || !nodes.isListed(i)) continue;
@@ -226,10 +234,77 @@ function foldersOfBytes(nodes: PlacedSizes, contents: Float64Array, parents: Uin
   return true;
 }
 
-function blockCounts(): EspalierError {
+/**
+ * PARSE_PATHS for du's 1 KiB blocks: a listing of `totals` (`du -a`), or a `flat` one, no listed entry
+ * inside another (`du -s DIR/*`, each entry's disk usage once).
+ */
+function blockCounts(listing: "totals" | "flat"): EspalierError {
+  const message =
+    listing === "totals"
+      ? "every size is a multiple of 4 and each folder's line totals its contents, as du without -b prints disk usage in 1 KiB blocks: read as bytes, each size would be 1,024 times too small. List bytes with du -ab, or pass --folder-sizes total (and --units plain) to read the numbers as they are"
+      : "every size is a multiple of 4 and no listed entry is inside another, as du -s DIR/* prints each entry's disk usage in 1 KiB blocks: read as bytes, each size would be 1,024 times too small. List bytes with du -sb DIR/* (or du -ab DIR, with what each folder holds), or pass --folder-sizes own to read the numbers as bytes (--units plain prints them as plain numbers)";
+  return new EspalierError("PARSE_PATHS", message, { line: 1, column: 1 });
+}
+
+/**
+ * Whether every listed size is a whole number of {@link DIRECTORY_BLOCK}s, as a listing of directories'
+ * own sizes is (`find DIR -maxdepth 1 -type d -printf '%s\t%p\n'`): no sign of du's 1 KiB blocks then.
+ */
+function wholeBlocks(nodes: PlacedSizes): boolean {
+  for (let i = 0; i < nodes.length; i++)
+    if (nodes.isListed(i) && nodes.ownSize[i] % DIRECTORY_BLOCK !== 0) return false;
+  return true;
+}
+
+/**
+ * Whether a listing in du's order (every folder after its contents) whose folders are not all at least
+ * their contents gives totals rounded up to blocks bigger than a byte, as `du -m`, `du -BM` and
+ * `du --apparent-size` in 1 KiB print (each entry's usage rounded up, so a folder can be less than its
+ * rounded contents add up to): at least {@link SORTED_EVIDENCE} lines, and every listed folder is at
+ * least each of its listed entries (a total is), and some folder's size is no whole number of
+ * {@link DIRECTORY_BLOCK}s (a `find -depth` listing of own sizes, each folder its directory's blocks
+ * after its files, passes the second test only where its files are all smaller than it).
+ */
+function roundedUp(nodes: PlacedSizes, contents: Float64Array, parents: Uint8Array): boolean {
+  const { length, parentOf, ownSize } = nodes;
+  let listed = 0;
+  let notWhole = false;
+  for (let i = 0; i < length; i++) {
+    if (!nodes.isListed(i)) continue;
+    listed++;
+    if (parents[i] === 1 && contents[i] > 0 && ownSize[i] % DIRECTORY_BLOCK !== 0) notWhole = true;
+    // The nearest listed folder above: a total is at least each entry under it.
+    let p = parentOf[i];
+    while (p !== -1 && !nodes.isListed(p)) p = parentOf[p];
+    if (p !== -1 && ownSize[p] < ownSize[i]) return false;
+  }
+  return notWhole && listed >= SORTED_EVIDENCE;
+}
+
+/** A folder's own part (its line less its contents) at most which, in every folder, a listing of totals is in units of 1 KiB or more. */
+const UNIT_OWN_PART = 4;
+
+/**
+ * Whether a listing read as totals gives them in units bigger than a byte, as `du -a --apparent-size`
+ * (1 KiB, rounded up) and `du -am` print them: every listed folder with contents has an own part (its
+ * line less its contents) of at most {@link UNIT_OWN_PART}, at least {@link SORTED_EVIDENCE} lines listed.
+ * In bytes a folder's own part is its directory's size (`du -ab`): 4,096 and up on ext4, 40 and up on
+ * tmpfs (seen here); in KiB it is the directory's 4 KiB less what rounding each entry up added.
+ */
+function foldersOfUnits(nodes: PlacedSizes, contents: Float64Array, parents: Uint8Array): boolean {
+  let listed = 0;
+  for (let i = 0; i < nodes.length; i++) {
+    if (!nodes.isListed(i)) continue;
+    listed++;
+    if (parents[i] === 1 && nodes.ownSize[i] - contents[i] > UNIT_OWN_PART) return false;
+  }
+  return listed >= SORTED_EVIDENCE;
+}
+
+function roundedBlocks(): EspalierError {
   return new EspalierError(
     "PARSE_PATHS",
-    "every size is a multiple of 4 and each folder's line totals its contents, as du without -b prints disk usage in 1 KiB blocks: read as bytes, each size would be 1,024 times too small. List bytes with du -ab, or pass --folder-sizes total (and --units plain) to read the numbers as they are",
+    "every folder's line comes after its contents and is at least as big as each of them, as du prints totals, yet some folder is less than its contents add up to, as sizes rounded up to whole blocks bigger than a byte are (du -m, du -BM, du without -b): read as bytes, each size would be too small and the folders' totals counted again. List bytes with du -ab, or pass --folder-sizes own to read each line as the entry's own size in bytes",
     { line: 1, column: 1 },
   );
 }

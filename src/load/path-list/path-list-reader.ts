@@ -3,8 +3,8 @@ import { EspalierError, quoted, quotedList, say } from "../../errors.js";
 import { asBuffer } from "../../model/buffer-codecs.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { ReadingNote } from "../../model/reading-note.js";
-import { folderSectionsError, startsSections } from "../folder-sections.js";
 import { hasReplacement } from "../has-replacement.js";
+import { knownListingError } from "../known-listings.js";
 import type { LoadOptions } from "../load-options.js";
 import { checkNoNamedFields } from "../missing-field.js";
 import { NodeSink } from "../node-sink.js";
@@ -14,7 +14,8 @@ import { limitsOf, tooLong } from "../read-limits.js";
 import { checkReadingOptions } from "../reading-options.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { WrittenPaths } from "../written-paths.js";
-import { BLOCK_COUNTS, blockCountLine, blockTotalLine } from "./block-counts.js";
+import { BLOCK_COUNTS, blockCountLine } from "./block-counts.js";
+import { colonFields, colonRecordsMessage } from "./colon-records.js";
 import { type FolderSizes, folderTotals, type PlacedSizes } from "./folder-totals.js";
 import { gitUnquoted } from "./git-quoted.js";
 import {
@@ -107,8 +108,11 @@ export class PathListReader {
   /** Unsized lists: lines of the first {@link COMMA_LINES} that are a mount table's, and those that are not comments. */
   private mountLines = 0;
   private mounts = 0;
-  /** The first unsized line when it ends with ":", as `ls -R` starts a folder's section (see `one`). */
-  private sectionHead: string | undefined;
+  /** Unsized lists: the colons of the first line's record (see {@link colonFields}), and the lines of the first {@link COMMA_LINES} with as many. */
+  private colons = -1;
+  private colonLines = 0;
+  /** The first unsized line (its first 200 bytes), to tell a known command's listing by its second (see `one`). */
+  private firstText = "";
   /** Whether the first unsized line is words and spaces without a "/", as a header of columns is. */
   private headerFirst = false;
   /** Unsized lists: how many of the first {@link COMMA_LINES} lines read as `npm ls --parseable --long` prints. */
@@ -418,6 +422,12 @@ export class PathListReader {
     if (this.mounts >= 2 && this.mountLines === lines)
       // mount, /proc/mounts, fstab: read as paths, each line one path split at its mount point's "/"s.
       return new EspalierError("PARSE_PATHS", MOUNT_TABLE, { line: this.firstLine, column: 1 });
+    if (this.colons !== -1 && this.pathLines >= 2 && this.colonLines === lines)
+      // /etc/passwd, /etc/group: read as paths, each account one path split at its home's "/"s, exit 0.
+      return new EspalierError("PARSE_PATHS", colonRecordsMessage(this.colons), {
+        line: this.firstLine,
+        column: 1,
+      });
     if (this.totalFirst && this.pathLines >= 2 && this.blockLines === lines - 1)
       // `ls -s`: read as paths, each block count would be part of a name and `total N` a name, exit 0.
       return new EspalierError("PARSE_PATHS", BLOCK_COUNTS, { line: this.firstLine, column: 1 });
@@ -620,18 +630,23 @@ export class PathListReader {
         if (this.headerFirst) this.headerWords = bytes.toString("utf8", start, end).trim().split(/ +/);
         this.filledColumns = this.headerFirst && this.headerWords.every((word) => CAPITALS.test(word));
         this.totalFirst = /^total [0-9]/.test(bytes.toString("latin1", start, Math.min(end, start + 8)));
-        if (bytes[end - 1] === colon) this.sectionHead = bytes.toString("utf8", start, end);
+        this.firstText = bytes.toString("utf8", start, Math.min(end, start + 200));
       } else if (this.filledColumns && this.pathLines <= COMMA_LINES) {
         const fields = bytes.toString("utf8", start, end).trim().split(/ +/).length;
         if (fields < this.headerWords.length) this.filledColumns = false;
       }
-      if (this.pathLines === 2 && this.sectionHead !== undefined) {
-        // `ls -R`, `ls -lR`, `ls -sR`: a folder's path and ":", then its entries by name alone (or its
-        // `total N`): read as paths, every entry would be a top-level name, exit 0; said at once, as a
-        // name found in two folders would be DUPLICATE_PATH before the end.
-        const entry = bytes.toString("utf8", start, end);
-        if (startsSections(this.sectionHead, entry) && (blockTotalLine(entry) || !entry.includes("/")))
-          throw folderSectionsError(line, "paths");
+      if (this.pathLines === 2 && this.detected) {
+        // `ls -R` (a folder's path and ":", then its entries by name alone), `unzip -l`, `zipinfo`,
+        // `git log`, told by their first two lines: read as paths, every line would be a path, exit 0.
+        // Said at once, as a line met twice (a name in two folders, a commit's author) would be
+        // DUPLICATE_PATH before the end.
+        const known = knownListingError(
+          this.firstText,
+          bytes.toString("utf8", start, Math.min(end, start + 200)),
+          line,
+          "paths",
+        );
+        if (known !== undefined) throw known;
       }
       if (numberThenSpace(bytes, start, end)) this.numberFirstLines++;
       // Only while every line so far is one (after `total N`, or in a mount table): a bounded cost.
@@ -642,6 +657,15 @@ export class PathListReader {
         blockCountLine(bytes.toString("utf8", start, end))
       )
         this.blockLines++;
+      if (
+        this.pathLines <= COMMA_LINES &&
+        this.colonLines === this.pathLines - 1 &&
+        (this.pathLines === 1 || this.colons !== -1)
+      ) {
+        const colons = colonFields(bytes.toString("utf8", start, Math.min(end, start + 4096)));
+        if (this.pathLines === 1) this.colons = colons;
+        if (colons !== -1 && colons === this.colons) this.colonLines++;
+      }
       if (this.pathLines <= COMMA_LINES && this.mountLines === this.pathLines - 1) {
         const kind = mountLine(bytes.toString("utf8", start, end));
         if (kind !== undefined) this.mountLines++;

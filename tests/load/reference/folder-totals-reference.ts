@@ -15,7 +15,12 @@ import type { NodeSink } from "../../../src/load/node-sink.js";
  * less contents) that is a whole, non-zero number of 512-byte blocks, and not all a size that is; or,
  * neither those sizes nor those own parts being all whole blocks, at least 8 lines. Read as totals, a
  * listed folder's own size is its size minus its contents'; unless the sizes look like du -a's 1 KiB
- * blocks (PARSE_PATHS). Returns whether it read totals.
+ * blocks, or every listed folder's own part is 4 or less over at least 8 listed lines (units of 1 KiB
+ * or more: PARSE_PATHS). Not read as totals, the listing is PARSE_PATHS when at least 8 listed sizes are
+ * above 0, all multiples of 4, no listed node holds another and some size is no whole block (du -s
+ * DIR/*), or when every listed folder comes after its contents, at least 8 lines are listed, no listed
+ * node is bigger than the nearest listed folder above it, and some listed folder with contents of some
+ * size is no whole block (du -m). Returns whether it read totals.
  */
 export function folderTotalsByReference(
   sink: NodeSink,
@@ -39,21 +44,41 @@ export function folderTotalsByReference(
     const biggestFirst = byLine.length >= 8 && byLine.every((size, k) => k === 0 || size <= byLine[k - 1]);
     const covers = folders.every((f) => sink.ownSize[f] >= contentsOf(f));
     const sized = folders.some((f) => contentsOf(f) > 0);
-    if (!(covers && sized)) return false;
+    const sizes = [...listedAt.keys()].map((i) => sink.ownSize[i]).filter((size) => size !== 0);
+    const fours = sizes.length >= 8 && sizes.every((size) => size % 4 === 0);
+    const whole = (size: number) => size > 0 && size % 512 === 0;
+    if (!(covers && sized)) {
+      const allWhole = [...listedAt.keys()].every((i) => sink.ownSize[i] % 512 === 0);
+      if (fours && folders.length === 0 && !allWhole)
+        throw new EspalierError("PARSE_PATHS", "flat sizes read as 1 KiB blocks", { line: 1, column: 1 });
+      const nearestListedAbove = (i: number): number => {
+        let p = sink.parentOf[i];
+        while (p !== -1 && !listed(p)) p = sink.parentOf[p];
+        return p;
+      };
+      const underTotals = [...listedAt.keys()].every((i) => {
+        const p = nearestListedAbove(i);
+        return p === -1 || sink.ownSize[p] >= sink.ownSize[i];
+      });
+      const someNotWhole = folders.some((f) => contentsOf(f) > 0 && sink.ownSize[f] % 512 !== 0);
+      if (afterContents && folders.length > 0 && listedAt.size >= 8 && underTotals && someNotWhole)
+        throw new EspalierError("PARSE_PATHS", "totals rounded up to blocks", { line: 1, column: 1 });
+      return false;
+    }
+    const sizedFolders = folders.filter((f) => contentsOf(f) > 0);
+    const linesWhole = sizedFolders.every((f) => whole(sink.ownSize[f]));
+    const ownWhole = sizedFolders.every((f) => whole(sink.ownSize[f] - contentsOf(f)));
     if (!(afterContents || (beforeContents && biggestFirst))) {
-      const sizedFolders = folders.filter((f) => contentsOf(f) > 0);
-      const whole = (size: number) => size > 0 && size % 512 === 0;
-      const linesWhole = sizedFolders.every((f) => whole(sink.ownSize[f]));
-      const ownWhole = sizedFolders.every((f) => whole(sink.ownSize[f] - contentsOf(f)));
       if (linesWhole && !ownWhole) return false;
       if (!(ownWhole && !linesWhole) && listedAt.size < 8) return false;
     }
     // du -a without -b (1 KiB blocks): at least 8 listed sizes above 0, every one a multiple of 4, and
     // some listed folder whose own part (its size less its contents) is under 1,024.
-    const sizes = [...listedAt.keys()].map((i) => sink.ownSize[i]).filter((size) => size !== 0);
     const small = folders.some((f) => sink.ownSize[f] - contentsOf(f) < 1024);
-    if (sizes.length >= 8 && sizes.every((size) => size % 4 === 0) && small)
+    if (fours && small)
       throw new EspalierError("PARSE_PATHS", "sizes read as 1 KiB blocks", { line: 1, column: 1 });
+    if (listedAt.size >= 8 && folders.every((f) => sink.ownSize[f] - contentsOf(f) <= 4))
+      throw new EspalierError("PARSE_PATHS", "totals in units of 1 KiB or more", { line: 1, column: 1 });
   }
   const contents = new Map(folders.map((f) => [f, contentsOf(f)]));
   for (const [f, c] of contents) {

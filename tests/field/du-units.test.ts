@@ -1,0 +1,101 @@
+import { execFileSync } from "node:child_process";
+import { mkdtempSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+import { isGnuTool, writeFiles } from "../helpers/file-tree.js";
+
+const gnu = isGnuTool("du") && isGnuTool("find");
+
+// Field tests: du in units bigger than a byte. `du -m`, `du -am` and `du -a --apparent-size` round
+// each entry up to a whole MiB or KiB (GNU coreutils du; seen here), so a folder can be less than its
+// rounded contents add up to: not read as totals, each line was read as an own size in bytes (every
+// folder of /usr/share: 5.0 KiB where du -sb says 544 MiB), exit 0. `du -s DIR/*` lists each entry's
+// disk usage in 1 KiB blocks once, none inside another: read as bytes, 1,024 times too small.
+// An invented harbour's files, 12 of 300 to 9,000 bytes in eight folders (du -m lists folders alone:
+// 8 lines at least, as for any reading of totals).
+const files: Record<string, number> = {};
+for (let k = 0; k < 4; k++) {
+  files[`berths/pier-${k}/north.csv`] = 300 + 700 * k;
+  files[`ledger/q${k + 1}.json`] = 9000 - 1000 * k;
+  files[`ledger/archive/${2020 + k}.txt`] = 1500 + 10 * k;
+}
+
+let base = "";
+beforeAll(() => {
+  if (!gnu) return;
+  base = mkdtempSync(join(tmpdir(), "espalier-du-units-"));
+  writeFiles(join(base, "harbour"), files);
+});
+afterAll(() => {
+  if (base) rmSync(base, { recursive: true, force: true });
+});
+
+function run(cmd: string, args: string[]): string {
+  return execFileSync(cmd, args, { cwd: base, encoding: "utf8" });
+}
+
+describe("du listings in units bigger than a byte", () => {
+  it.skipIf(!gnu).each([["-am"], ["-m"], ["-a", "--apparent-size"]])(
+    "du %s DIR (each entry rounded up to whole units) is PARSE_PATHS naming du -ab",
+    async (...flags) => {
+      const listing = run("du", [...flags, "harbour"]);
+      const r = await cli(["-"], { stdin: listing });
+      expect(r.code, listing).toBe(2);
+      expect(r.stdout).toBe("");
+      expect(r.stderr).toMatch(/^espalier: <stdin>:1:1: .*du -ab.*\[PARSE_PATHS\]\n$/);
+    },
+  );
+
+  it.skipIf(!gnu)("du -ab and du -sb DIR/* are read as bytes, the root at du -sb's size", async () => {
+    // Source: GNU du -sb (apparent size in bytes of the folder with everything in it).
+    const total = Number(run("du", ["-sb", "harbour"]).split("\t")[0]);
+    const all = JSON.parse(
+      (await cli(["-", "--format", "json"], { stdin: run("du", ["-ab", "harbour"]) })).stdout,
+    );
+    expect(all.totals.size).toBe(total);
+    const tops = run("sh", ["-c", "du -sb harbour/*"]);
+    const flat = JSON.parse((await cli(["-", "--format", "json"], { stdin: tops })).stdout);
+    // The three folders' totals; the root (harbour, no line of its own) adds its directory entry in du -sb.
+    expect(flat.totals.size).toBe(
+      tops.split("\n").reduce((s, line) => s + (Number(line.split("\t")[0]) || 0), 0),
+    );
+  });
+
+  it("a listing shaped as du -s DIR/* prints on 4 KiB blocks is PARSE_PATHS naming du -sb", async () => {
+    // 1 KiB blocks of a file system of 4 KiB blocks: every size a multiple of 4 (common practice, no source).
+    const tops = ["28", "24", "6072", "412", "16", "8", "1288", "40", "4"].map(
+      (kib, k) => `${kib}\t/srv/harbour/pier-${k}`,
+    );
+    const r = await cli(["-"], { stdin: `${tops.join("\n")}\n` });
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/^espalier: <stdin>:1:1: .*du -s DIR\/\*.*du -sb DIR\/\*.*\[PARSE_PATHS\]\n$/);
+    // Directories' own sizes, all whole 4,096-byte blocks (find -maxdepth 1 -type d), are read as bytes.
+    const dirs = tops.map((line, k) => line.replace(/^\d+/, String(4096 * (1 + (k % 2)))));
+    expect((await cli(["-", "--bare"], { stdin: `${dirs.join("\n")}\n` })).code).toBe(0);
+    // --folder-sizes own reads the numbers as bytes.
+    expect(
+      (await cli(["-", "--bare", "--folder-sizes", "own"], { stdin: `${tops.join("\n")}\n` })).code,
+    ).toBe(0);
+  });
+
+  it("a listing shaped as du -am prints (MiB, rounded up) is PARSE_PATHS; as find -depth prints, read", async () => {
+    // Each file 1 MiB rounded up, each folder after its files: 1 + 1 + 1 + 1 + 1 > 3 (common practice, no source).
+    const mib = [
+      ...["a", "b", "c", "d"].map((f) => `1\tharbour/berths/${f}.csv`),
+      "1\tharbour/berths",
+      ...["q1", "q2", "q3"].map((f) => `2\tharbour/ledger/${f}.json`),
+      "5\tharbour/ledger",
+      "6\tharbour",
+    ];
+    const r = await cli(["-"], { stdin: `${mib.join("\n")}\n` });
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/rounded up to whole blocks.*\[PARSE_PATHS\]\n$/);
+    // find -depth on ext4: each folder a whole 4,096-byte block after files smaller than it, which add
+    // up to more: own sizes (it was read as totals when they added up to less).
+    const own = mib.map((line) => line.replace(/^\d+/, line.includes(".") ? "1500" : "4096"));
+    const read = JSON.parse((await cli(["-", "--format", "json"], { stdin: `${own.join("\n")}\n` })).stdout);
+    expect(read.totals.size).toBe(7 * 1500 + 4096 * 3);
+  });
+});
