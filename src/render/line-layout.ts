@@ -318,8 +318,15 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
           [indent, tag, FEW_LABEL, p.compactNumbers, all],
           [short, tag, FEW_LABEL, p.compactNumbers, all],
         );
+  // Steps that differ only in how far they cut the names leave the names the same room: measured once.
+  const rooms = new Map<string, number>();
   for (const [k, [ind, tag, fewest, numbers, fold]] of withoutCount(p, keepAll ? kept : steps, sign)) {
-    const room = width - displayWidth(line(ind, "", tag, numbers, fold, false));
+    const at = `${ind.length}\u0000${tag}\u0000${numbers}\u0000${fold}`;
+    let room = rooms.get(at);
+    if (room === undefined) {
+      room = width - displayWidth(line(ind, "", tag, numbers, fold, false));
+      rooms.set(at, room);
+    }
     const whole = displayWidth(label) <= room;
     if (!whole && (fewest === 0 || room < floorOf(p.labels, fewest))) continue;
     // A chain keeps its joins while the line keeps a count: its names are counted in it.
