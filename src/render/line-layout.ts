@@ -1,7 +1,8 @@
 import type { ChangeKind } from "../diff/changes.js";
 import { CHAIN_JOIN } from "../model/chain-join.js";
+import { PSEUDONYM_PREFIX, startsPseudonymous } from "../model/pseudonym.js";
 import { formatCount } from "./amount.js";
-import { displayWidth, shortenEnd, shortenKeeping, shortenMiddle } from "./display-width.js";
+import { displayWidth, ELLIPSIS, shortenEnd, shortenKeeping, shortenMiddle } from "./display-width.js";
 import { noColour, type Palette } from "./palette.js";
 
 /**
@@ -449,7 +450,10 @@ function cutNames(
       cutChain(labels, room, fewest) ??
       cutChain(labels, room, 1) ?? { text: shortenMiddle(text, room), elided: false, shortened: true }
     );
-  const cut = distinct === undefined ? shortenEnd(text, room) : shortenKeeping(text, room, distinct);
+  const cut =
+    distinct === undefined || startsPseudonymous(text)
+      ? cutName(text, room)
+      : shortenKeeping(text, room, distinct);
   return { text: cut, elided: false, shortened: cut !== text };
 }
 
@@ -517,11 +521,21 @@ function cutEach(labels: readonly string[], room: number, fewest: number): strin
   const cut = labels.map((l, k) => {
     if (widths[k] <= cap) return l;
     const own = cap + spare;
-    const short = shortenEnd(l, own);
+    const short = cutName(l, own);
     spare = own - displayWidth(short);
     return short;
   });
   return cut;
+}
+
+/**
+ * A name cut at its end to `width` columns; a pseudonym (`anon-3d86f5f1e9ff`, --pseudonymize) gives
+ * up its `anon-` first, which every pseudonym shares, for the hex digits that tell it apart:
+ * `…3d86f…`, not `anon-3…`.
+ */
+function cutName(name: string, width: number): string {
+  if (width < 3 || displayWidth(name) <= width || !startsPseudonymous(name)) return shortenEnd(name, width);
+  return `${ELLIPSIS}${shortenEnd(name.slice(PSEUDONYM_PREFIX.length), width - 1)}`;
 }
 
 /**
