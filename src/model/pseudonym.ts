@@ -7,7 +7,15 @@ import type { InputText } from "../errors.js";
  */
 export function pseudonym(secret: string, name: string): string {
   crypto ??= process.getBuiltinModule("node:crypto");
-  return `anon-${crypto.createHmac("sha256", secret).update(name, "utf8").digest("hex").slice(0, 12)}`;
+  return `${PSEUDONYM_PREFIX}${crypto.createHmac("sha256", secret).update(name, "utf8").digest("hex").slice(0, 12)}`;
+}
+
+/** What every pseudonym starts with, before its 12 hex digits. */
+export const PSEUDONYM_PREFIX = "anon-";
+
+/** Whether `text` starts with a pseudonym (`anon-` and 12 hex digits). */
+export function startsPseudonymous(text: string): boolean {
+  return /^anon-[0-9a-f]{12}/.test(text);
 }
 
 // The crypto module loads on the first pseudonym, not with this module: most runs make none, and

@@ -1,7 +1,8 @@
 import type { ChangeKind } from "../diff/changes.js";
 import { CHAIN_JOIN } from "../model/chain-join.js";
+import { PSEUDONYM_PREFIX, startsPseudonymous } from "../model/pseudonym.js";
 import { formatCount } from "./amount.js";
-import { displayWidth, shortenEnd, shortenKeeping, shortenMiddle } from "./display-width.js";
+import { displayWidth, ELLIPSIS, shortenEnd, shortenKeeping, shortenMiddle } from "./display-width.js";
 import { noColour, type Palette } from "./palette.js";
 
 /**
@@ -317,8 +318,15 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
           [indent, tag, FEW_LABEL, p.compactNumbers, all],
           [short, tag, FEW_LABEL, p.compactNumbers, all],
         );
+  // Steps that differ only in how far they cut the names leave the names the same room: measured once.
+  const rooms = new Map<string, number>();
   for (const [k, [ind, tag, fewest, numbers, fold]] of withoutCount(p, keepAll ? kept : steps, sign)) {
-    const room = width - displayWidth(line(ind, "", tag, numbers, fold, false));
+    const at = `${ind.length}\u0000${tag}\u0000${numbers}\u0000${fold}`;
+    let room = rooms.get(at);
+    if (room === undefined) {
+      room = width - displayWidth(line(ind, "", tag, numbers, fold, false));
+      rooms.set(at, room);
+    }
     const whole = displayWidth(label) <= room;
     if (!whole && (fewest === 0 || room < floorOf(p.labels, fewest))) continue;
     // A chain keeps its joins while the line keeps a count: its names are counted in it.
@@ -449,7 +457,10 @@ function cutNames(
       cutChain(labels, room, fewest) ??
       cutChain(labels, room, 1) ?? { text: shortenMiddle(text, room), elided: false, shortened: true }
     );
-  const cut = distinct === undefined ? shortenEnd(text, room) : shortenKeeping(text, room, distinct);
+  const cut =
+    distinct === undefined || startsPseudonymous(text)
+      ? cutName(text, room)
+      : shortenKeeping(text, room, distinct);
   return { text: cut, elided: false, shortened: cut !== text };
 }
 
@@ -517,11 +528,21 @@ function cutEach(labels: readonly string[], room: number, fewest: number): strin
   const cut = labels.map((l, k) => {
     if (widths[k] <= cap) return l;
     const own = cap + spare;
-    const short = shortenEnd(l, own);
+    const short = cutName(l, own);
     spare = own - displayWidth(short);
     return short;
   });
   return cut;
+}
+
+/**
+ * A name cut at its end to `width` columns; a pseudonym (`anon-3d86f5f1e9ff`, --pseudonymize) gives
+ * up its `anon-` first, which every pseudonym shares, for the hex digits that tell it apart:
+ * `…3d86f…`, not `anon-3…`.
+ */
+function cutName(name: string, width: number): string {
+  if (width < 3 || displayWidth(name) <= width || !startsPseudonymous(name)) return shortenEnd(name, width);
+  return `${ELLIPSIS}${shortenEnd(name.slice(PSEUDONYM_PREFIX.length), width - 1)}`;
 }
 
 /**

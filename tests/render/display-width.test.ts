@@ -43,9 +43,11 @@ describe("displayWidth(text)", () => {
   });
   it("agrees with string-width on any text, printable ASCII or not (property)", () => {
     // Source: string-width, the reference library for terminal widths (UAX #11). Printable ASCII is
-    // answered without it (one column a character), which must give exactly its answer.
+    // answered without it (one column a character), and so is the ellipsis a cut leaves (U+2026),
+    // which must give exactly its answer: text of both, a combining mark after an ellipsis too.
     const text = fc.oneof(
       fc.string({ unit: fc.integer({ min: 0x20, max: 0x7e }).map((c) => String.fromCharCode(c)) }),
+      fc.string({ unit: fc.constantFrom("a", " ", "~", ELLIPSIS, "\u0301", "名") }),
       fc.string({ unit: "grapheme" }),
       fc.string({ unit: "binary" }),
       fc.string(),

@@ -214,6 +214,41 @@ describe("layoutLine(parts, { width })", () => {
     expect(laidOutLine(above, { width: 32 }).countInFold).toBe(false);
   });
 
+  it("cuts a pseudonym's shared anon- before its hex digits (--pseudonymize)", () => {
+    // Field test: the org chart under --pseudonymize at 60 columns printed `anon-4…`, `anon-5…`,
+    // `anon…`: every pseudonym starts with anon-, so the cut kept what tells none of them apart.
+    const parts: LineParts = {
+      level: 1,
+      mark: ":",
+      role: "path",
+      tag: "",
+      shortTag: "",
+      tagKind: null,
+      labels: ["anon-4193762583c0"],
+      numbers: "618 nodes, 85,125,650",
+      compactNumbers: "618 nodes, 85.1M",
+      countNumbers: "618 nodes",
+      fold: "(hidden: 4 children, 427 nodes, 58,304,800)",
+      foldCounts: "(hidden: 427 nodes, 58,304,800)",
+      compactFold: "(hidden: 4 children, 427 nodes, 58.3M)",
+      foldShort: "(hidden: 427 nodes)",
+      foldTiny: "(427 hidden)",
+      foldSized: "(427 hidden, 58,304,800)",
+    };
+    expect(layoutLine(parts, { width: 60 })).toBe(
+      "  : …41937…  618 nodes, 85,125,650  (427 hidden, 58,304,800)",
+    );
+    // A chain's names alike; a name that only looks like one (no 12 hex digits) is cut at its end.
+    const chain = { ...parts, labels: ["anon-4193762583c0", "anon-5012ffbb1568"] };
+    expect(layoutLine(chain, { width: 60 })).toBe(
+      "  : …419376258… / …5012ffbb…  618 nodes  (hidden: 427 nodes)",
+    );
+    const plain = { ...parts, labels: ["anon-harbour-ledger"] };
+    expect(layoutLine(plain, { width: 60 })).toBe(
+      "  : anon-h…  618 nodes, 85,125,650  (427 hidden, 58,304,800)",
+    );
+  });
+
   it("says a tag's cut old value as a cut, even where the name stays whole", () => {
     // Field test: `[edited version 4.10.2 -> 4.10…ext] fast-check` at 80 columns, under a key that
     // said nothing of the `…`.

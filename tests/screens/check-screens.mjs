@@ -170,6 +170,38 @@ const cases = [
     ],
   },
 ];
+// Org charts hold personal data: under --pseudonymize no screen, nor its standard error, names a
+// person of the input (its `name` column), however the lines are cut.
+const secret = { ESPALIER_PSEUDONYM_KEY: "check-screens, not a secret" };
+const orgCsv = join(fixtures, "quillfeather-org.csv");
+cases.push(
+  {
+    name: "org chart, pseudonymized",
+    args: [orgCsv, "--parent-field", "manager", "--size-field", "cost", "--focus", "Q2417", "--pseudonymize"],
+    env: secret,
+    people: orgCsv,
+  },
+  {
+    name: "org diff, pseudonymized",
+    args: [
+      "diff",
+      join(fixtures, "examples", "org-march.csv"),
+      join(fixtures, "examples", "org-april.csv"),
+      "--parent-field",
+      "manager",
+      "--pseudonymize",
+    ],
+    kind: "diff",
+    env: secret,
+    people: join(fixtures, "examples", "org-april.csv"),
+  },
+);
+/** The `name` column's values of a CSV fixture (no quoted commas in these), each a person. */
+function peopleIn(file) {
+  const [head, ...rows] = readFileSync(file, "utf8").trimEnd().split("\n");
+  const at = head.split(",").indexOf("name");
+  return rows.map((r) => r.split(",")[at]).filter((n) => n && n.length > 2);
+}
 if (existsSync(join(fixtures, "quillfeather-org-last-week.csv")))
   cases.push({
     name: "org diff",
@@ -197,9 +229,29 @@ for (const c of cases) {
       for (const legend of [false, true]) {
         if (legend && budget < 40) continue;
         const args = [...c.args, "--budget", String(budget), ...(legend ? ["--legend"] : [])];
-        const env = width === undefined ? { NO_COLOR: "1" } : { COLUMNS: String(width), NO_COLOR: "1" };
+        const env = {
+          ...(width === undefined ? { NO_COLOR: "1" } : { COLUMNS: String(width), NO_COLOR: "1" }),
+          ...c.env,
+        };
         const r = await cli(args, env);
         const what = `${c.name} | COLUMNS=${width ?? "-"} ${args.slice(c.args.length).join(" ")}`;
+        if (c.people) {
+          // Every format: the text, its JSON and its Markdown, and what each says on standard error.
+          const formats = [
+            r,
+            ...(await Promise.all(["json", "markdown"].map((f) => cli([...args, "--format", f], env)))),
+          ];
+          const said = formats.map((f) => `${f.stdout}\n${f.stderr}`).join("\n");
+          const named = peopleIn(c.people).filter(
+            (n) => said.includes(n) || (n.split(" ")[0].length > 3 && said.includes(n.split(" ")[0])),
+          );
+          if (named.length > 0) {
+            failed++;
+            console.log(
+              `FAIL ${what}\n  names ${named.length} people under --pseudonymize: ${named.slice(0, 3).join(", ")}`,
+            );
+          }
+        }
         if (r.code === 2 && /BUDGET_TOO_SMALL/.test(r.stderr)) {
           refused++;
           // The smallest budget it names must work.
@@ -253,10 +305,10 @@ for (const c of cases) {
         }
         // Colour changes nothing but the escapes.
         if (!legend && budget === budgets[0]) {
-          const coloured = await cli(
-            [...args, "--color", "always"],
-            width === undefined ? {} : { COLUMNS: String(width) },
-          );
+          const coloured = await cli([...args, "--color", "always"], {
+            ...(width === undefined ? {} : { COLUMNS: String(width) }),
+            ...c.env,
+          });
           if (coloured.stdout.replace(ANSI, "") !== r.stdout)
             problems.push("coloured text differs from plain");
         }
@@ -296,7 +348,10 @@ let pairs = 0;
 let unnested = 0;
 for (const c of cases) {
   for (const width of widths) {
-    const env = width === undefined ? { NO_COLOR: "1" } : { COLUMNS: String(width), NO_COLOR: "1" };
+    const env = {
+      ...(width === undefined ? { NO_COLOR: "1" } : { COLUMNS: String(width), NO_COLOR: "1" }),
+      ...c.env,
+    };
     const at = new Set(budgets);
     for (const [budget, named] of keyNamed)
       if (named.width === width && named.name === c.name) at.add(budget - 1);
@@ -347,6 +402,15 @@ const views = [
     format: "paths",
     foci: [share.mid],
   },
+  {
+    name: "org chart, pseudonymized",
+    file: orgCsv,
+    format: "csv",
+    fields: { parentField: "manager", sizeField: "cost" },
+    foci: [],
+    pseudonymKey: secret.ESPALIER_PSEUDONYM_KEY,
+    people: orgCsv,
+  },
 ];
 const sizes = quick
   ? [
@@ -367,11 +431,12 @@ for (const v of views) {
   const load = (file) =>
     loadTree(readFileSync(file, "utf8"), {
       ...defaultLoadOptions,
+      ...v.fields,
       file,
       format: v.format,
       rootName: file.split("/").pop(),
     });
-  const look = { units: "plain", chains: true, palette: palette(false) };
+  const look = { units: "plain", chains: true, palette: palette(false), pseudonymKey: v.pseudonymKey };
   const prepared = v.edited ? prepareDiff(load(v.file), load(v.edited), {}) : prepare(load(v.file));
   const session = v.edited ? diffSession(prepared, look) : summarySession(prepared, look);
   for (const [rows, cols] of sizes) {
@@ -388,6 +453,11 @@ for (const v of views) {
     for (const r of screen.rows) if (stringWidth(r) > cols) problems.push(`wider than ${cols}: ${r}`);
     if (screen.rows.length !== rows) problems.push(`${screen.rows.length} rows for ${rows}`);
     const status = screen.rows[screen.rows.length - 1];
+    if (v.people) {
+      const shown = screen.rows.join("\n");
+      const named = peopleIn(v.people).filter((n) => shown.includes(n));
+      if (named.length > 0) problems.push(`names ${named.length} people under a pseudonym key: ${named[0]}`);
+    }
     // A screen too small for the root and the focus paths says what it needs, and shows no tree.
     if (
       screen.cursorRow === null &&
