@@ -324,7 +324,19 @@ function cycleError(input: PooledNodes, par: Int32Array, visited: Int32Array, fi
   const pos = input.originIsRow
     ? { file, row: input.origin[first] }
     : { file, line: input.origin[first], column: 1 };
-  if (cycle.length === 1) return new EspalierError("CYCLE", [...where(cur), " is its own parent"], pos);
+  if (cycle.length === 1)
+    return new EspalierError(
+      "CYCLE",
+      [
+        ...where(cur),
+        " is its own parent",
+        // Some exports write the top row so (an org chart's head, a database's root).
+        input.ids
+          ? `; if it is the top ${unit} (some exports write their root as its own parent), leave its parent cell empty, which makes it a top-level ${unit}`
+          : "",
+      ],
+      pos,
+    );
   const shown = cycle.slice(0, 6).flatMap((c, k) => (k === 0 ? where(c) : [" -> ", ...where(c)]));
   return new EspalierError(
     "CYCLE",

@@ -37,7 +37,10 @@ export interface ReadingNote {
  * JSON.parse reads it (load/json/json-loader.ts, load/graph-input.ts). `UNSIZED_IMPORTANCE`:
  * `--importance size` on an input without sizes, which ranks as `--importance depth` (cli/input.ts).
  * `MISSING_ENTRIES`: node objects holding `"missing": true`, as `npm ls --all --json` lists a dependency
- * it did not find, counted as nodes (load/missing-entries.ts). `ALIASES_AS_TEXT`: YAML read as values
+ * it did not find, counted as nodes (load/missing-entries.ts). `DEDUPED_ENTRIES`: JSON node objects
+ * holding a `version` and no `overridden` beside others that hold one, as `npm ls --all --json` lists
+ * a package again under each package that requires it, counted as leaves (load/deduped-entries.ts).
+ * `ALIASES_AS_TEXT`: YAML read as values
  * holds aliases, each a leaf of its own text (`*base`), not the value it names (load/yaml-values.ts).
  * `SIZES_LIKE_TOTALS`: node objects or rows whose every node with children is at least as big as its
  * children add up to, as sizes that include the children's are, read as own sizes
@@ -56,6 +59,7 @@ export const readingNoteCodes = [
   "REPEATED_KEY",
   "UNSIZED_IMPORTANCE",
   "MISSING_ENTRIES",
+  "DEDUPED_ENTRIES",
   "ALIASES_AS_TEXT",
   "SIZES_LIKE_TOTALS",
   "TOTAL_LINE_LEFT_OUT",

@@ -22,6 +22,7 @@ const clauses: Readonly<Record<ReadingNoteCode, Clause>> = {
   REPEATED_KEY: { counted: ["repeated key, the last read", "repeated keys, the last read"] },
   UNSIZED_IMPORTANCE: { said: () => "ranked by depth (no sizes)", ofRun: true },
   MISSING_ENTRIES: { counted: ["missing counted as a node", "missing counted as nodes"] },
+  DEDUPED_ENTRIES: { counted: ["deduped entry counted as a leaf", "deduped entries counted as leaves"] },
   ALIASES_AS_TEXT: { counted: ["YAML alias read as text", "YAML aliases read as text"] },
   SIZES_LIKE_TOTALS: { said: () => "sizes may count children twice" },
   TOTAL_LINE_LEFT_OUT: { said: (n) => `line ${formatCount(n.line ?? 1)} read as a grand total, left out` },

@@ -4,6 +4,12 @@ import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { ReadingNote } from "../../model/reading-note.js";
 import { isSize } from "../../model/size-rule.js";
 import { badNodeSize } from "../bad-node-size.js";
+import {
+  dedupedEntriesNote,
+  NPM_CHILDREN_FIELD,
+  OVERRIDDEN_FIELD,
+  VERSION_FIELD,
+} from "../deduped-entries.js";
 import { describeNode } from "../describe-node.js";
 import { defaultLoadOptions, type LoadOptions } from "../load-options.js";
 import { MISSING_FIELD, missingEntriesNote } from "../missing-entries.js";
@@ -64,11 +70,15 @@ const F_SIZE = 2;
 const F_CHILDREN = 4;
 /** The field by which a node says it is missing (missing-entries.ts). */
 const F_MISSING = 8;
+/** The fields by which npm ls tells a deduped entry (deduped-entries.ts), read under its children field. */
+const F_VERSION = 16;
+const F_OVERRIDDEN = 32;
 
-// What `sized` says of a node: SIZED, or EMPTY; with MISSING besides.
+// What `sized` says of a node: SIZED, or EMPTY; with MISSING or DEDUPED besides.
 const SIZED = 1;
 const EMPTY = 2;
 const MISSING = 4;
+const DEDUPED = 8;
 
 interface Field {
   bytes: Uint8Array;
@@ -101,6 +111,10 @@ class Frame {
   /** Whether its `missing` field's last value is `true` (missing-entries.ts), and the line of that value. */
   missing = false;
   missingLine = 0;
+  /** Whether it holds a text `version`, and the line of it, and an `overridden` (deduped-entries.ts). */
+  version = false;
+  versionLine = 0;
+  overridden = false;
   /**
    * Children by name: the keys seen, the children in input order, whether they need reordering. Made
    * when a level first holds children by name, so a chain a million levels deep costs no Set per level.
@@ -204,6 +218,11 @@ export class JsonLoader extends JsonTokenizer {
   private repeats = 0;
   private firstRepeat: { key: string; line: number } | undefined;
   private droppedNodes = 0;
+  /** Whether a node object holds `overridden`, and the line of the first deduped entry's version (DEDUPED_ENTRIES). */
+  private overriddenSeen = false;
+  /** Whether `version` and `overridden` are read: under npm's children field only. */
+  private npmFields = false;
+  private readonly dedupedLines = new Map<number, number>();
   /** The line of each `"missing": true` by node (MISSING_ENTRIES), while no node is moved or dropped. */
   private readonly missingLines = new Map<number, number>();
   /** Whether children by name were put in JSON.parse's order (nodes moved: missingLines may be stale). */
@@ -247,6 +266,12 @@ export class JsonLoader extends JsonTokenizer {
     add(options.childrenField, F_CHILDREN, -1);
     for (let f = 0; f < options.keepFields.length; f++) add(options.keepFields[f], 0, f);
     add(MISSING_FIELD, F_MISSING, -1);
+    // Only in a listing with npm's children field: no more keys to compare in any other document.
+    if (options.childrenField === NPM_CHILDREN_FIELD) {
+      this.npmFields = true;
+      add(VERSION_FIELD, F_VERSION, -1);
+      add(OVERRIDDEN_FIELD, F_OVERRIDDEN, -1);
+    }
     // Read again alike: nodes only, by the default children field (no unread `children` to note), the
     // whole document, own sizes (a tree read as totals changes them after the load).
     const alike =
@@ -343,6 +368,8 @@ export class JsonLoader extends JsonTokenizer {
     if (this.repeats > 0) notes.push(this.repeatNote());
     const missing = this.missingNote();
     if (missing) notes.push(missing);
+    const deduped = this.dedupedNote();
+    if (deduped) notes.push(deduped);
     const linked = sink.finish(this.options.rootName, fields, null, {
       shape: "nodes",
       sizeUnit: fieldSizeUnit(this.options.sizeField),
@@ -666,6 +693,11 @@ export class JsonLoader extends JsonTokenizer {
       frame.missingLine = this.pos.line;
       if (frame.missing && this.keeping) this.keeper.odd(i, this.sink.parentOf);
     }
+    if ((field.mask & F_VERSION) !== 0) {
+      frame.version = kind === STRING;
+      frame.versionLine = this.pos.line;
+    }
+    if ((field.mask & F_OVERRIDDEN) !== 0) frame.overridden = true;
   }
 
   /** A later children field replaces an earlier one (JSON.parse keeps the last value of a key). */
@@ -700,6 +732,25 @@ export class JsonLoader extends JsonTokenizer {
       count: this.repeats,
       parts: say`line ${line} repeats the key ${quoted.name(key)} of its object${more}: as JSON.parse does, the last value is read and the earlier ones (${nodes}) are not; RFC 8259 leaves a repeated key to each reader, so give each key once, or read every value with --read-as values`,
     };
+  }
+
+  /**
+   * DEDUPED_ENTRIES when some node objects below the top hold a `version` and no `overridden` while
+   * others hold one (deduped-entries.ts): as for MISSING_ENTRIES, the first one's line is given unless
+   * nodes were dropped or moved. Undefined otherwise.
+   */
+  private dedupedNote(): ReadingNote | undefined {
+    if (!this.overriddenSeen) return undefined;
+    const { sink, sized } = this;
+    let count = 0;
+    let first = -1;
+    for (let i = 0; i < sink.length; i++)
+      if ((sized[i] & DEDUPED) !== 0) {
+        if (count++ === 0) first = i;
+      }
+    if (count === 0) return undefined;
+    const line = this.droppedNodes === 0 && !this.reordered ? this.dedupedLines.get(first) : undefined;
+    return dedupedEntriesNote(count, this.where(first), line);
   }
 
   /**
@@ -844,6 +895,8 @@ export class JsonLoader extends JsonTokenizer {
           this.captures.start(C_KEEP, top + 1, i, node, field.keeps);
         }
         if ((field.mask & F_MISSING) !== 0) parentFrame.missing = false;
+        if ((field.mask & F_VERSION) !== 0) parentFrame.version = false;
+        if ((field.mask & F_OVERRIDDEN) !== 0) parentFrame.overridden = true;
         break;
       }
       case S_ROW:
@@ -870,6 +923,8 @@ export class JsonLoader extends JsonTokenizer {
     frame.childrenMark = -1;
     frame.fieldCount = 0;
     frame.missing = false;
+    frame.version = false;
+    frame.overridden = false;
     frame.old = -1;
     frame.pairing = false;
   }
@@ -990,6 +1045,15 @@ export class JsonLoader extends JsonTokenizer {
     if (frame.missing) {
       this.sized[i] |= MISSING;
       this.missingLines.set(i, frame.missingLine);
+    }
+    // The project's own entry (the top) has a version and no `overridden` in npm's listing too, and a
+    // deduped entry no dependencies.
+    if (this.npmFields) {
+      if (frame.overridden) this.overriddenSeen = true;
+      else if (frame.version && frame.childrenKind === ABSENT && this.sink.parentOf[i] !== -1) {
+        this.sized[i] |= DEDUPED;
+        this.dedupedLines.set(i, frame.versionLine);
+      }
     }
   }
 

@@ -13,7 +13,11 @@ describe("loadTree(text) reads JSON and YAML as the document says", () => {
     version: "4.2.0",
     name: "tidewater",
     dependencies: {
-      "harbor-log": { version: "1.0.0", dependencies: { "tide-clock": { version: "0.2.1" } } },
+      "harbor-log": {
+        version: "1.0.0",
+        overridden: false,
+        dependencies: { "tide-clock": { version: "0.2.1", overridden: false } },
+      },
       "@quill/ink": { version: "3.0.1", overridden: false },
     },
   };
