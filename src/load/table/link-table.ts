@@ -452,7 +452,7 @@ export function keptColumns(
       const near = didYouMean(key, visibleColumns(table));
       throw new EspalierError(
         "FIELD_MISSING",
-        say`no column "${key}" to keep${near === undefined ? "" : say`; did you mean ${quoted.name(near)}?`} The columns are ${quotedList("name", visibleColumns(table))}`,
+        say`no column "${key}" to keep${near === undefined ? "." : say`; did you mean ${quoted.name(near)}?`} The columns are ${quotedList("name", visibleColumns(table))}`,
         undefined,
         near === undefined
           ? { field: key, fieldsSeen: visibleColumns(table) }

@@ -117,6 +117,9 @@ describe("linkTable by id and parent", () => {
     ]);
     const far = caught(() => csv("id,parent,title\na,,x\n", { keepFields: ["email"] }));
     expect(far.details).toEqual({ field: "email", fieldsSeen: seen });
+    // The message's sentences end where they should, with or without a suggestion.
+    expect(far.message).toContain('no column "email" to keep. The columns are "id", "parent", "title"');
+    expect(typo.message).toContain('no column "ttile" to keep; did you mean "title"? The columns are');
   });
 
   it("loadTree(csv) uses the column names from the options", () => {
