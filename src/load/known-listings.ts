@@ -34,24 +34,17 @@ export function knownListingError(
       ? "read as YAML it fails here"
       : "read as a path list, each line would be one path, its other words part of the names";
   const paths = "; to read each line as a path, pass --input-format paths";
-  if (ZIP_FIRST.test(first) && ZIP_SECOND.test(second))
+  for (const known of KNOWN) {
+    if (!known.first.test(first) || !known.second.test(second)) continue;
     return new EspalierError(
       "PARSE_PATHS",
-      `${ZIP_LISTING}; ${read}. ${ZIP_WAY}${as === "paths" ? paths : ""}`,
+      `${known.listing}; ${read}. ${known.way}${as === "paths" ? paths : ""}`,
       {
         line,
         column: 1,
       },
     );
-  if (COMMIT_FIRST.test(first) && COMMIT_SECOND.test(second))
-    return new EspalierError(
-      "PARSE_PATHS",
-      `${COMMIT}; ${read}. ${COMMIT_WAY}${as === "paths" ? paths : ""}`,
-      {
-        line,
-        column: 1,
-      },
-    );
+  }
   return undefined;
 }
 
@@ -77,3 +70,9 @@ const COMMIT =
   "the input starts as git log and git show print a commit (commit and its hash, then Author: or Merge:)";
 const COMMIT_WAY =
   'For the files the commits changed, list their paths alone, each with how many commits changed it as its size: git log --name-only --format= | sort | uniq -c | awk \'NF > 1 {n = $1; sub(/^ *[0-9]+ /, ""); print n "\\t" $0}\' | espalier - --units plain';
+
+/** The listings {@link knownListingError} knows by their first two lines: what they are, and the way to read them. */
+const KNOWN: readonly { first: RegExp; second: RegExp; listing: string; way: string }[] = [
+  { first: ZIP_FIRST, second: ZIP_SECOND, listing: ZIP_LISTING, way: ZIP_WAY },
+  { first: COMMIT_FIRST, second: COMMIT_SECOND, listing: COMMIT, way: COMMIT_WAY },
+];

@@ -741,16 +741,8 @@ export class JsonLoader extends JsonTokenizer {
    */
   private dedupedNote(): ReadingNote | undefined {
     if (!this.overriddenSeen) return undefined;
-    const { sink, sized } = this;
-    let count = 0;
-    let first = -1;
-    for (let i = 0; i < sink.length; i++)
-      if ((sized[i] & DEDUPED) !== 0) {
-        if (count++ === 0) first = i;
-      }
-    if (count === 0) return undefined;
-    const line = this.droppedNodes === 0 && !this.reordered ? this.dedupedLines.get(first) : undefined;
-    return dedupedEntriesNote(count, this.where(first), line);
+    const { count, first, line } = this.flagged(DEDUPED, this.dedupedLines);
+    return count === 0 ? undefined : dedupedEntriesNote(count, this.where(first), line);
   }
 
   /**
@@ -758,16 +750,28 @@ export class JsonLoader extends JsonTokenizer {
    * a repeated key dropped nodes (it may have been among them). Undefined when none does.
    */
   private missingNote(): ReadingNote | undefined {
+    const { count, first, line } = this.flagged(MISSING, this.missingLines);
+    return count === 0 ? undefined : missingEntriesNote(count, this.where(first), line);
+  }
+
+  /**
+   * How many nodes carry the `sized` flag `bit`, the first of them in the tree's order, and its line
+   * from `lines` (by node, as read) unless nodes were dropped or moved since (it may not be the first
+   * read then).
+   */
+  private flagged(
+    bit: number,
+    lines: ReadonlyMap<number, number>,
+  ): { count: number; first: number; line?: number } {
     const { sink, sized } = this;
     let count = 0;
     let first = -1;
     for (let i = 0; i < sink.length; i++)
-      if ((sized[i] & MISSING) !== 0) {
+      if ((sized[i] & bit) !== 0) {
         if (count++ === 0) first = i;
       }
-    if (count === 0) return undefined;
-    const line = this.droppedNodes === 0 && !this.reordered ? this.missingLines.get(first) : undefined;
-    return missingEntriesNote(count, this.where(first), line);
+    const line = count > 0 && this.droppedNodes === 0 && !this.reordered ? lines.get(first) : undefined;
+    return { count, first, line };
   }
 
   /** Adds the child named by the current key of the children-by-name object at `top`. */

@@ -1,6 +1,7 @@
 import type { Buffer } from "node:buffer";
 import { NamePool } from "../../model/names.js";
 import { BytesKeeper, EarlierBytes } from "../earlier-bytes.js";
+import { KeptForLater } from "../kept-for-later.js";
 import type { BytesAt } from "../load-options.js";
 import { releasableMemory, releaseMemory } from "../releasable-memory.js";
 
@@ -337,17 +338,5 @@ function grown<T extends Uint32Array | Int32Array | Uint8Array>(from: T, to: T):
   return to;
 }
 
-/** Kept JSON by the tree its load built (see {@link keepJson}). */
-const keptFor = new WeakMap<object, KeptJson>();
-
-/** Keeps `kept` for the load of a later version read against `tree` (LoadOptions.earlierVersion). */
-export function keepJson(tree: object, kept: KeptJson): void {
-  keptFor.set(tree, kept);
-}
-
-/** The JSON kept for `tree`, no longer kept: a later version's load takes it once. */
-export function takeKeptJson(tree: object): KeptJson | undefined {
-  const kept = keptFor.get(tree);
-  keptFor.delete(tree);
-  return kept;
-}
+/** Kept JSON by the tree its load built: kept by the JSON loader's caller, taken by a later version's load. */
+export const keptJsons = new KeptForLater<KeptJson>();

@@ -18,7 +18,7 @@ import {
 } from "../graph-input.js";
 import { linkGraphTable } from "../graph-table.js";
 import { JsonLoader } from "../json/json-loader.js";
-import { type KeptJson, keepJson, takeKeptJson } from "../json/kept-json.js";
+import { type KeptJson, keptJsons } from "../json/kept-json.js";
 import { valueAtPointer } from "../json/value-at-pointer.js";
 import { parsePointer, readAtPointer, startAtFormat } from "../json-pointer.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
@@ -27,7 +27,7 @@ import { jsonGraphTooLong, limitsOf } from "../read-limits.js";
 import { checkReadingOptions } from "../reading-options.js";
 import { readSizeTotals } from "../size-totals.js";
 import { csvTableFromStream } from "../table/csv-table.js";
-import { type KeptTable, keepTable, takeKeptTable } from "../table/kept-table.js";
+import { type KeptTable, keptTables } from "../table/kept-table.js";
 import { linkTable } from "../table/link-table.js";
 import { placeInTable } from "../table/locate-cell.js";
 import { checkNullParentUse } from "../table/null-parent.js";
@@ -53,8 +53,8 @@ export async function loadTreeFromStream(
   // What an earlier version's load kept for this one (a table's), taken whatever this input turns out
   // to be, so that it is held no longer than this load.
   if (options.earlierVersion) {
-    table.earlier = takeKeptTable(options.earlierVersion);
-    table.earlierJson = takeKeptJson(options.earlierVersion);
+    table.earlier = keptTables.take(options.earlierVersion);
+    table.earlierJson = keptJsons.take(options.earlierVersion);
   }
   try {
     const start = await readStart(chunks);
@@ -80,8 +80,8 @@ export async function loadTreeFromStream(
     if (isGraph(linked))
       return readSizeTotals(buildGraphTree(withNodeRecords(linked, options), file), options.folderSizes);
     const tree = readSizeTotals(buildTree(linked, file), options.folderSizes);
-    if (table.kept) keepTable(tree, table.kept);
-    if (table.keptJson) keepJson(tree, table.keptJson);
+    if (table.kept) keptTables.keep(tree, table.kept);
+    if (table.keptJson) keptJsons.keep(tree, table.keptJson);
     return tree;
   } catch (caught) {
     // An error about a row of this input (not of a --nodes file, which names itself): at its line,

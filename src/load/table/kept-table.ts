@@ -1,6 +1,7 @@
 import { Buffer } from "node:buffer";
 import type { NamePool } from "../../model/names.js";
 import type { BytesKeeper, EarlierBytes } from "../earlier-bytes.js";
+import { KeptForLater } from "../kept-for-later.js";
 import type { BytesAt } from "../load-options.js";
 import { releasableMemory, releaseMemory } from "../releasable-memory.js";
 import type { RowLines } from "./row-lines.js";
@@ -145,20 +146,8 @@ export function sameBytes(a: Uint8Array, from: number, to: number, b: Uint8Array
   return Buffer.compare(x, y) === 0;
 }
 
-/** Kept tables by the tree their load built (see {@link keepTable}). */
-const keptFor = new WeakMap<object, KeptTable>();
-
-/** Keeps `table` for the load of a later version read against `tree` (LoadOptions.earlierVersion). */
-export function keepTable(tree: object, table: KeptTable): void {
-  keptFor.set(tree, table);
-}
-
-/** The table kept for `tree`, no longer kept: a later version's load takes it once. */
-export function takeKeptTable(tree: object): KeptTable | undefined {
-  const table = keptFor.get(tree);
-  keptFor.delete(tree);
-  return table;
-}
+/** Kept tables by the tree their load built: kept by the table reader's caller, taken by a later version's load. */
+export const keptTables = new KeptForLater<KeptTable>();
 
 /**
  * Keeps a table's bytes and where its rows start while it is read, up to {@link MOST_KEPT_BYTES}: the
