@@ -114,3 +114,59 @@ describe("diff of two documents read as values", () => {
     }
   });
 });
+
+describe("diff of two lists of named elements (a document read as values)", () => {
+  // Field test: a gateway's routes, an element put first in the list. Elements are named by their index
+  // (RFC 6901: the JSON Pointer of an array element is its index), so by index every later element
+  // paired with its predecessor: "9 edited, 4 added" for one route added, each field of two routes
+  // "edited" to the other's values. (Read as nodes, such a list is children named by `name` already.) An element with a string `name` member is now that element
+  // whatever its index (docs/input.md, `3 name=…`); a new order among siblings is no change.
+  const routes = (names: string[]) =>
+    `routes:\n${names.map((n) => `  - name: ${n}\n    path: /${n}\n    timeout: ${n.length}\n`).join("")}`;
+  const files = {
+    "a.yaml": routes(["ledger", "harbour", "kelp"]),
+    "b.yaml": routes(["audit", "ledger", "kelp", "harbour"]),
+    "c.yaml": routes(["harbour", "kelp", "ledger"]),
+    "a.json": JSON.stringify({ routes: ["ledger", "harbour", "kelp"].map((n) => ({ name: n, timeout: 1 })) }),
+    "d.json": JSON.stringify({
+      routes: ["ledger", "kelp"].map((n) => ({ name: n, timeout: n === "kelp" ? 2 : 1 })),
+    }),
+  };
+
+  it("an element put first is one element added, the others unchanged", async () => {
+    const r = await cli(
+      ["diff", "a.yaml", "b.yaml", "--read-as", "values", "--format", "json", "--fail-on-change"],
+      { files },
+    );
+    expect(r.code).toBe(1);
+    const doc = JSON.parse(r.stdout);
+    // Expected from the two lists: the element audit and its 3 members are new; no other value changed.
+    // The list's own bytes grew by the new element's "  - " (docs/input.md: a value's own size is what
+    // its text holds beyond its children's): the one resized.
+    expect(doc.changes).toEqual({ added: 4, removed: 0, moved: 0, renamed: 0, edited: 0, resized: 1 });
+    const added = doc.root.children[0].children.filter((c: { change: string }) => c.change === "added");
+    expect(added.map((c: { path: string }) => c.path)).toEqual(["routes/0"]);
+  });
+
+  it("the same elements in another order are no change; an element taken out is removed with its members", async () => {
+    const same = await cli(
+      ["diff", "a.yaml", "c.yaml", "--read-as", "values", "--fail-on-change", "--format", "json"],
+      { files },
+    );
+    expect(JSON.parse(same.stdout).changes).toMatchObject({ added: 0, removed: 0, edited: 0 });
+    expect(same.code).toBe(0);
+    const r = await cli(["diff", "a.json", "d.json", "--read-as", "values", "--format", "json"], { files });
+    // harbour (its name and timeout) removed; kelp's timeout 1 -> 2 is its own edit.
+    expect(JSON.parse(r.stdout).changes).toMatchObject({ added: 0, removed: 3, edited: 1 });
+    const text = await cli(["diff", "a.json", "d.json", "--read-as", "values", "--bare"], { files });
+    expect(text.stdout).toContain("[edited value 1 -> 2] timeout");
+    expect(text.stdout).toContain("[removed");
+  });
+
+  it("elements without a name keep pairing by their order", async () => {
+    // Common practice, no source: a list of scalars has nothing but its order to tell elements apart.
+    const plain = { "p.yaml": "ports: [80, 443]\n", "q.yaml": "ports: [8080, 80, 443]\n" };
+    const r = await cli(["diff", "p.yaml", "q.yaml", "--format", "json"], { files: plain });
+    expect(JSON.parse(r.stdout).changes).toMatchObject({ added: 1, edited: 2 });
+  });
+});
