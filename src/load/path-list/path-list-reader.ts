@@ -16,6 +16,7 @@ import { sizeTextHint } from "../size-text-hint.js";
 import { WrittenPaths } from "../written-paths.js";
 import { BLOCK_COUNTS, blockCountLine } from "./block-counts.js";
 import { colonFields, colonRecordsMessage } from "./colon-records.js";
+import { dotAndPlain } from "./dot-prefix.js";
 import { type FolderSizes, folderTotals, type PlacedSizes } from "./folder-totals.js";
 import { gitUnquoted } from "./git-quoted.js";
 import {
@@ -355,6 +356,8 @@ export class PathListReader {
       // Read as paths, each whole line would be one path, its numbers part of the names, exit 0.
       throw new EspalierError("PARSE_PATHS", SPACED_COLUMNS, { line: this.firstLine, column: 1 });
     }
+    const twoWays = dotAndPlain(sink, this.sized === true);
+    if (twoWays !== undefined) throw twoWays;
     sink.hasSizes = this.sized === true;
     const placer = this.placer;
     const root = placer.adoptTopLevel();
