@@ -356,8 +356,6 @@ export class PathListReader {
       // Read as paths, each whole line would be one path, its numbers part of the names, exit 0.
       throw new EspalierError("PARSE_PATHS", SPACED_COLUMNS, { line: this.firstLine, column: 1 });
     }
-    const twoWays = dotAndPlain(sink, this.sized === true);
-    if (twoWays !== undefined) throw twoWays;
     sink.hasSizes = this.sized === true;
     const placer = this.placer;
     const root = placer.adoptTopLevel();
@@ -386,6 +384,8 @@ export class PathListReader {
           ? likeTotalNote(sink.origin[total], sink.ownSize[total], lastName)
           : undefined;
     if (sumLine && known) sink.truncate(total);
+    const twoWays = dotAndPlain(sink, root, this.sized === true);
+    if (twoWays !== undefined) throw twoWays;
     const folders = sink.hasSizes
       ? folderTotals({ ...placed, length: sink.length }, root, placer, this.folderSizes)
       : undefined;
