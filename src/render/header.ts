@@ -100,6 +100,12 @@ export interface HeaderOptions {
    * (`key left out: --budget 19 has room`), so a screen whose marks go unexplained says where to look.
    */
   keyLeftOut?: KeyLeftOut;
+  /**
+   * The interactive view's header where its key needs the rows (see `explore/session.ts`): `lines`
+   * leaves out the lines used (the screen is the budget), `foci` the foci too (the status row names
+   * the cursor's path and counts the foci, and `'*'` marks each focus's line).
+   */
+  brief?: "lines" | "foci";
 }
 
 /**
@@ -198,7 +204,14 @@ function summaryParts(
   if (options.sizes)
     totals += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(root.size, options.units)}`)}`;
   const read = readingParts(header, style);
-  return (k, h) => [totals, ...read, fociText(header, k, style), ...keyText(h, style), w(used(h))];
+  return (k, h) => [totals, ...read, ...endParts(h, k, style)];
+}
+
+/** A header's clauses after its totals and reading: the foci, the key left out, the lines used (see `brief`). */
+function endParts(header: HeaderOptions, fociShown: number, style: HeaderStyle): string[] {
+  if (header.brief === "foci") return [];
+  const foci = fociText(header, fociShown, style);
+  return header.brief === "lines" ? [foci] : [foci, ...keyText(header, style), style.words(used(header))];
 }
 
 /**
@@ -279,14 +292,7 @@ function diffParts(
     counts += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(totals.old.size, units)} -> ${formatSize(totals.new.size, units)} (net ${net})`)}`;
   }
   const read = readingParts(header, style);
-  return (k, h) => [
-    w(`diff by ${by}: ${kinds}`),
-    counts,
-    ...read,
-    fociText(header, k, style),
-    ...keyText(h, style),
-    w(used(h)),
-  ];
+  return (k, h) => [w(`diff by ${by}: ${kinds}`), counts, ...read, ...endParts(h, k, style)];
 }
 
 /** ` (compared: version, team)`, ` (no field compared)`, or nothing (see `HeaderOptions.compared`). */

@@ -16,6 +16,7 @@ import { sizeTextHint } from "../size-text-hint.js";
 import { WrittenPaths } from "../written-paths.js";
 import { BLOCK_COUNTS, blockCountLine } from "./block-counts.js";
 import { colonFields, colonRecordsMessage } from "./colon-records.js";
+import { dotAndPlain } from "./dot-prefix.js";
 import { type FolderSizes, folderTotals, type PlacedSizes } from "./folder-totals.js";
 import { gitUnquoted } from "./git-quoted.js";
 import {
@@ -383,6 +384,8 @@ export class PathListReader {
           ? likeTotalNote(sink.origin[total], sink.ownSize[total], lastName)
           : undefined;
     if (sumLine && known) sink.truncate(total);
+    const twoWays = dotAndPlain(sink, root, this.sized === true);
+    if (twoWays !== undefined) throw twoWays;
     const folders = sink.hasSizes
       ? folderTotals({ ...placed, length: sink.length }, root, placer, this.folderSizes)
       : undefined;

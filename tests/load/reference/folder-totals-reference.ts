@@ -51,6 +51,10 @@ export function folderTotalsByReference(
       const allWhole = [...listedAt.keys()].every((i) => sink.ownSize[i] % 512 === 0);
       if (fours && folders.length === 0 && !allWhole)
         throw new EspalierError("PARSE_PATHS", "flat sizes read as 1 KiB blocks", { line: 1, column: 1 });
+      // du -sm DIR/* (whole MiB, rounded up): at least 8 listed, a quarter or more of them exactly 1.
+      const ones = [...listedAt.keys()].filter((i) => sink.ownSize[i] === 1).length;
+      if (folders.length === 0 && listedAt.size >= 8 && ones * 4 >= listedAt.size)
+        throw new EspalierError("PARSE_PATHS", "flat sizes read as whole MiB", { line: 1, column: 1 });
       const nearestListedAbove = (i: number): number => {
         let p = sink.parentOf[i];
         while (p !== -1 && !listed(p)) p = sink.parentOf[p];
