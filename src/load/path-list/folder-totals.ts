@@ -247,14 +247,14 @@ function foldersOfBytes(nodes: PlacedSizes, contents: Float64Array, parents: Uin
  * listings refused.
  */
 function ownUnlessBlocks(nodes: PlacedSizes, parents: Uint8Array): FolderReading {
-  if (!inBlocks(nodes) || wholeBlocks(nodes)) return OWN;
+  // The folders first: a listing in bytes has one of 4,096 near its start, which ends the test.
   let folders = 0;
   for (let i = 0; i < nodes.length; i++) {
     if (parents[i] === 0 || !nodes.isListed(i)) continue;
     if (nodes.ownSize[i] >= FOLDER_BYTES) return OWN;
     folders++;
   }
-  if (folders === 0) return OWN;
+  if (folders === 0 || !inBlocks(nodes) || wholeBlocks(nodes)) return OWN;
   throw new EspalierError(
     "PARSE_PATHS",
     "every size is a multiple of 4 and every folder's line under 1,024, as find -printf '%k' (1 KiB blocks) and '%b' (512-byte blocks) print each entry's disk usage, where a folder's own bytes are 4,096 and up: read as bytes, each size would be 512 to 1,024 times too small. List bytes with find DIR -printf '%s\\t%p\\n', or pass --folder-sizes own to read the numbers as bytes (--units plain prints them as plain numbers)",
@@ -277,22 +277,24 @@ function blockCounts(listing: "totals" | "flat"): EspalierError {
 /**
  * Whether a listing with no entry inside another gives whole units of a MiB or more, rounded up, as
  * `du -sm DIR/*` (and `du -s --block-size=1M`) print each entry's disk usage: at least
- * {@link BLOCK_EVIDENCE} lines, a quarter of them or more exactly 1 (every entry of less than a unit
- * but above 0). A size of exactly one byte is rare: measured here on the 2,842 folders of 8 entries or
+ * {@link BLOCK_EVIDENCE} sizes above 0, a quarter of them or more exactly 1 (every entry of less than a
+ * unit but above 0). A size of exactly one byte is rare: measured here on the folders of 8 entries or
  * more below /usr/share, /usr/lib, /etc and /usr/include, each one's entries listed in bytes (as
- * `du -sb DIR/*` does) and its files alone: none had a quarter of its sizes 1, where in MiB (as
- * `du -sm DIR/*` does) 2,825 had, and the 17 others nearly all 0 (folders of links).
+ * `du -sb DIR/*` does) and its files alone: none of the 2,798 with 8 sizes above 0 (2,303 files alone)
+ * had a quarter of them 1, where 2,777 of the 2,778 listed in MiB (as `du -sm DIR/*` does) had.
  */
 function mostlyOnes(nodes: PlacedSizes): boolean {
-  let listed = 0;
+  // Only a listed node has a size above 0; a size of 0 (a link, an empty file) says nothing of the unit.
+  let sized = 0;
   let ones = 0;
   const { ownSize } = nodes;
   for (let i = 0; i < nodes.length; i++) {
-    if (ownSize[i] === 1) ones++;
-    else if (!nodes.isListed(i)) continue;
-    listed++;
+    const size = ownSize[i];
+    if (size === 0) continue;
+    sized++;
+    if (size === 1) ones++;
   }
-  return listed >= BLOCK_EVIDENCE && ones * 4 >= listed;
+  return sized >= BLOCK_EVIDENCE && ones * 4 >= sized;
 }
 
 /** PARSE_PATHS for du -s DIR/* in MiB (or bigger units), as {@link mostlyOnes} reads a listing. */

@@ -59,9 +59,9 @@ export function folderTotalsByReference(
       const allWhole = [...listedAt.keys()].every((i) => sink.ownSize[i] % 512 === 0);
       if (fours && folders.length === 0 && !allWhole)
         throw new EspalierError("PARSE_PATHS", "flat sizes read as 1 KiB blocks", { line: 1, column: 1 });
-      // du -sm DIR/* (whole MiB, rounded up): at least 8 listed, a quarter or more of them exactly 1.
-      const ones = [...listedAt.keys()].filter((i) => sink.ownSize[i] === 1).length;
-      if (folders.length === 0 && listedAt.size >= 8 && ones * 4 >= listedAt.size)
+      // du -sm DIR/* (whole MiB, rounded up): at least 8 sizes above 0, a quarter or more of them exactly 1.
+      const ones = sizes.filter((size) => size === 1).length;
+      if (folders.length === 0 && sizes.length >= 8 && ones * 4 >= sizes.length)
         throw new EspalierError("PARSE_PATHS", "flat sizes read as whole MiB", { line: 1, column: 1 });
       const nearestListedAbove = (i: number): number => {
         let p = sink.parentOf[i];
