@@ -16,6 +16,7 @@ import { sizeTextHint } from "../size-text-hint.js";
 import { WrittenPaths } from "../written-paths.js";
 import { BLOCK_COUNTS, blockCountLine } from "./block-counts.js";
 import { colonFields, colonRecordsMessage } from "./colon-records.js";
+import { complaintError, complaintLines, complaintOf } from "./complaint-lines.js";
 import { dotAndPlain } from "./dot-prefix.js";
 import { type FolderSizes, folderTotals, type PlacedSizes } from "./folder-totals.js";
 import { gitUnquoted } from "./git-quoted.js";
@@ -384,6 +385,8 @@ export class PathListReader {
           ? likeTotalNote(sink.origin[total], sink.ownSize[total], lastName)
           : undefined;
     if (sumLine && known) sink.truncate(total);
+    const complaint = complaintLines(sink, root);
+    if (complaint !== undefined) throw complaint;
     const twoWays = dotAndPlain(sink, root, this.sized === true);
     if (twoWays !== undefined) throw twoWays;
     const folders = sink.hasSizes
@@ -597,6 +600,8 @@ export class PathListReader {
       } else {
         at = bytes.indexOf(sizeEnd, start);
         if (at === -1 || at >= end) {
+          const whole = bytes.toString("utf8", start, end).replace(/\r$/, "");
+          if (complaintOf(whole) !== undefined) throw complaintError(whole, line);
           const what = sizeEnd === tab ? "a tab" : "a space";
           // find prints a name that holds a line break as it is, so the rest of the name is a line.
           const split =
