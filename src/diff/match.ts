@@ -1,7 +1,7 @@
-import { ITEM_NAME_FIELD } from "../load/load-options.js";
 import { bytesCompare, isEmptyName, NamePool, type Names, sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 import { wellFormedUtf8 } from "../model/well-formed-utf8.js";
+import { elementReadings, isSequence, pairElements } from "./pair-elements.js";
 
 /** How the nodes of two versions correspond. Roots always correspond to each other. */
 export interface Matching {
@@ -303,7 +303,7 @@ function matchByPath(
   const byBytes = pooled
     ? { equalBytes, old: (oldName as NamePool).byteRuns()!, new: (newName as NamePool).byteRuns()! }
     : null;
-  const items = namedItems(oldTree, newTree);
+  const elements = elementReadings(oldTree, oldCount, newTree, newCount);
   let pairs = 0;
   for (let n = 0; n < newTree.length; n++) {
     const o = newToOld[n];
@@ -313,64 +313,9 @@ function matchByPath(
     }
     if (newCount[n] > 1 && oldCount[o] > 1)
       pairs +=
-        items !== null && (namesAnItem(items.old, oldCount, o) || namesAnItem(items.new, newCount, n))
-          ? pairByItem(items, oldCount, o, newCount, n, oldToNew, newToOld)
+        elements !== null && isSequence(elements.old, o) && isSequence(elements.new, n)
+          ? pairElements(elements.old, o, elements.new, n, oldToNew, newToOld)
           : pairChildren(same, byBytes, oldName, oldCount, o, newName, newCount, n, oldToNew, newToOld);
-  }
-  return pairs;
-}
-
-/**
- * Both versions' item names, when both are documents read as values that have them: a list element
- * that is an object with a string `name` member (a CI job's steps, a service's routes) is named by its
- * index, and its `name` says which element it is (load/json/json-value-loader.ts); else null.
- */
-function namedItems(oldTree: Tree, newTree: Tree): { old: readonly string[]; new: readonly string[] } | null {
-  if (oldTree.reading?.shape !== "values" || newTree.reading?.shape !== "values") return null;
-  const old = oldTree.fields.get(ITEM_NAME_FIELD);
-  const fresh = newTree.fields.get(ITEM_NAME_FIELD);
-  return old === undefined || fresh === undefined ? null : { old, new: fresh };
-}
-
-/** Whether some child of node `p` has an item name (so `p` is a list of named elements). */
-function namesAnItem(items: readonly string[], count: Int32Array, p: number): boolean {
-  const end = p + count[p];
-  for (let c = p + 1; c < end; c += count[c]) if (items[c] !== "") return true;
-  return false;
-}
-
-/**
- * The elements of two matched lists, at least one of which holds named elements: the k-th old element
- * of an item name pairs with the k-th new one of it, and the k-th old element without one with the
- * k-th new one without. By index, an element put first would pair every later one with its
- * predecessor, each `edited` in every field; a new order among siblings is no change. Returns how
- * many pairs.
- */
-function pairByItem(
-  items: { old: readonly string[]; new: readonly string[] },
-  oldCount: Int32Array,
-  o: number,
-  newCount: Int32Array,
-  n: number,
-  oldToNew: Int32Array,
-  newToOld: Int32Array,
-): number {
-  const waiting = new Map<string, { next: number; list: number[] }>();
-  const oEnd = o + oldCount[o];
-  for (let c = o + 1; c < oEnd; c += oldCount[c]) {
-    const queue = waiting.get(items.old[c]);
-    if (queue) queue.list.push(c);
-    else waiting.set(items.old[c], { next: 0, list: [c] });
-  }
-  let pairs = 0;
-  const nEnd = n + newCount[n];
-  for (let c = n + 1; c < nEnd; c += newCount[c]) {
-    const queue = waiting.get(items.new[c]);
-    if (!queue || queue.next === queue.list.length) continue;
-    const m = queue.list[queue.next++];
-    oldToNew[m] = c;
-    newToOld[c] = m;
-    pairs++;
   }
   return pairs;
 }

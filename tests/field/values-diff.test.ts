@@ -116,22 +116,30 @@ describe("diff of two documents read as values", () => {
   });
 });
 
-describe("diff of two lists of named elements (a document read as values)", () => {
+describe("diff of two lists (documents read as values)", () => {
   // Field test: a gateway's routes, an element put first in the list. Elements are named by their index
   // (RFC 6901: the JSON Pointer of an array element is its index), so by index every later element
   // paired with its predecessor: "9 edited, 4 added" for one route added, each field of two routes
-  // "edited" to the other's values. (Read as nodes, such a list is children named by `name` already.) An element with a string `name` member is now that element
-  // whatever its index (docs/input.md, `3 name=…`); a new order among siblings is no change.
+  // "edited" to the other's values. (Read as nodes, such a list is children named by `name` already.)
+  // Now a list's elements are aligned as a line diff aligns lines (a longest common subsequence of each
+  // element's `name`, or of its whole value), and the order stays part of the value: RFC 8259 §5, an
+  // array is an ordered sequence of values.
   const routes = (names: string[]) =>
     `routes:\n${names.map((n) => `  - name: ${n}\n    path: /${n}\n    timeout: ${n.length}\n`).join("")}`;
   const files = {
     "a.yaml": routes(["ledger", "harbour", "kelp"]),
-    "b.yaml": routes(["audit", "ledger", "kelp", "harbour"]),
+    "b.yaml": routes(["audit", "ledger", "harbour", "kelp"]),
     "c.yaml": routes(["harbour", "kelp", "ledger"]),
     "a.json": JSON.stringify({ routes: ["ledger", "harbour", "kelp"].map((n) => ({ name: n, timeout: 1 })) }),
     "d.json": JSON.stringify({
       routes: ["ledger", "kelp"].map((n) => ({ name: n, timeout: n === "kelp" ? 2 : 1 })),
     }),
+  };
+  const changes = async (a: string, b: string, more: Record<string, string> = {}) => {
+    const r = await cli(["diff", a, b, "--read-as", "values", "--format", "json"], {
+      files: { ...files, ...more },
+    });
+    return JSON.parse(r.stdout).changes;
   };
 
   it("an element put first is one element added, the others unchanged", async () => {
@@ -147,26 +155,45 @@ describe("diff of two lists of named elements (a document read as values)", () =
     expect(added.map((c: { path: string }) => c.path)).toEqual(["routes/0"]);
   });
 
-  it("the same elements in another order are no change; an element taken out is removed with its members", async () => {
-    const same = await cli(
-      ["diff", "a.yaml", "c.yaml", "--read-as", "values", "--fail-on-change", "--format", "json"],
-      { files },
-    );
-    expect(JSON.parse(same.stdout).changes).toMatchObject({ added: 0, removed: 0, edited: 0 });
-    expect(same.code).toBe(0);
-    const r = await cli(["diff", "a.json", "d.json", "--read-as", "values", "--format", "json"], { files });
+  it("an element taken out is removed with its members; one whose value changed is edited", async () => {
     // harbour (its name and timeout) removed; kelp's timeout 1 -> 2 is its own edit.
-    expect(JSON.parse(r.stdout).changes).toMatchObject({ added: 0, removed: 3, edited: 1 });
+    expect(await changes("a.json", "d.json")).toMatchObject({ added: 0, removed: 3, edited: 1 });
     const text = await cli(["diff", "a.json", "d.json", "--read-as", "values", "--bare"], { files });
     expect(text.stdout).toContain("[edited value 1 -> 2] timeout");
-    expect(text.stdout).toContain("[removed");
   });
 
-  it("elements without a name keep pairing by their order", async () => {
-    // Common practice, no source: a list of scalars has nothing but its order to tell elements apart.
-    const plain = { "p.yaml": "ports: [80, 443]\n", "q.yaml": "ports: [8080, 80, 443]\n" };
-    const r = await cli(["diff", "p.yaml", "q.yaml", "--format", "json"], { files: plain });
-    expect(JSON.parse(r.stdout).changes).toMatchObject({ added: 1, edited: 2 });
+  it("a new order is a change: the element that left its place is removed there and added at the new one", async () => {
+    // As a line diff shows a moved line: ledger after harbour and kelp (4 nodes each way).
+    const r = await cli(["diff", "a.yaml", "c.yaml", "--read-as", "values", "--fail-on-change", "--bare"], {
+      files,
+    });
+    expect(r.code).toBe(1);
+    expect(await changes("a.yaml", "c.yaml")).toMatchObject({ added: 4, removed: 4, edited: 0 });
+    expect(r.stdout).toContain("[removed] 0 name=ledger");
+    expect(r.stdout).toContain("[added] 2 name=ledger");
+  });
+
+  it("elements without a name are aligned by their values: scalars, objects, a YAML stream's documents", async () => {
+    const more = {
+      "p.yaml": "ports: [80, 443]\n",
+      "q.yaml": "ports: [8080, 80, 443]\n",
+      "r.yaml": "ports: [443, 80]\n",
+      "u.json": '[{"a": 1}, {"a": 2}]',
+      "v.json": '[{"a": 0}, {"a": 1}, {"a": 3}]',
+      // YAML 1.2 §9.2: a stream of documents, each a child of the root here, named by its index.
+      "s.yaml": "kind: Service\nspec: {port: 80}\n---\nkind: Deployment\nspec: {replicas: 2}\n",
+      "t.yaml":
+        "kind: ConfigMap\ndata: {MODE: prod}\n---\nkind: Service\nspec: {port: 80}\n---\nkind: Deployment\nspec: {replicas: 3}\n",
+    };
+    // 8080 put first: one element added (by index: 2 edited and 1 added).
+    expect(await changes("p.yaml", "q.yaml", more)).toMatchObject({ added: 1, removed: 0, edited: 0 });
+    // Two ports swapped: a new order, 80 removed before 443 and added after it.
+    expect(await changes("p.yaml", "r.yaml", more)).toMatchObject({ added: 1, removed: 1, edited: 0 });
+    // {"a": 0} put first ({"a": 0} and its member added); {"a": 2} -> {"a": 3} between aligned
+    // elements is that element edited.
+    expect(await changes("u.json", "v.json", more)).toMatchObject({ added: 2, removed: 0, edited: 1 });
+    // A document put first: its 4 nodes added; the Deployment's replicas 2 -> 3 its one edit.
+    expect(await changes("s.yaml", "t.yaml", more)).toMatchObject({ added: 4, removed: 0, edited: 1 });
   });
 });
 
