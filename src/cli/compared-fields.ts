@@ -1,7 +1,7 @@
-import { defaultComparedFields } from "../diff/field-edits.js";
+import { DEFAULT_COMPARED_FIELDS, defaultComparedFields } from "../diff/field-edits.js";
 import { safeText } from "../model/safe-text.js";
 import type { Tree } from "../model/tree.js";
-import { loadVersions } from "./input.js";
+import { loadInput, loadVersions } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { SharedCliOptions } from "./options.js";
 
@@ -18,9 +18,11 @@ export interface ComparedVersions {
  * Loads both versions with the fields the diff compares. `--compare-field` names them. Without it, a
  * diff compares `version` where both versions' records have it (a dependency listing's), a document read
  * as values its scalars' text, and else every other field the records hold (TreeReading.otherFields:
- * an image tag in a list of services, a title in an org chart): the versions are read again keeping
- * them, since a field no one compared would make a changed value no change, and `--fail-on-change`
- * pass it. Standard input is read once: its diff says on standard error what it could not compare.
+ * an image tag in a list of services, a title in an org chart), since a field no one compared would make
+ * a changed value no change, and `--fail-on-change` pass it. Finding them takes a first read: both
+ * versions are read again keeping them. A version from standard input is read once: the other version's
+ * file is read first for its fields, and standard input keeps those; fields only it holds are said on
+ * standard error as not compared.
  */
 export async function loadCompared(
   io: CliIO,
@@ -28,17 +30,40 @@ export async function loadCompared(
   newInput: string,
   opts: SharedCliOptions & { readonly compareField: readonly string[] },
 ): Promise<ComparedVersions> {
+  if (opts.compareField.length > 0)
+    return {
+      trees: await loadVersions(io, oldInput, newInput, opts),
+      fields: opts.compareField,
+      optional: false,
+    };
+  // The first load's notes are said; a second load's are the same.
+  const quiet: CliIO = { ...io, stderr: { write: () => true, isTTY: false } };
+  const piped = oldInput === "-" ? newInput : newInput === "-" ? oldInput : undefined;
+  if (piped !== undefined) {
+    // The file's fields, from a load of its own; `version` among them is compared by default anyway.
+    const probe = await loadInput(quiet, piped, opts);
+    const other = (probe.reading?.otherFields ?? []).filter((f) => !DEFAULT_COMPARED_FIELDS.includes(f));
+    const trees = await loadVersions(
+      io,
+      oldInput,
+      newInput,
+      other.length > 0 ? { ...opts, otherCompared: other } : opts,
+    );
+    const fields = defaultComparedFields(trees[0], trees[1]);
+    if (fields.length > 0 || other.length === 0) {
+      const left = fields.length > 0 ? [] : otherFieldsOf(trees);
+      if (left.length > 0) io.stderr.write(notComparedNote(left));
+      return { trees, fields, optional: false };
+    }
+    // Fields standard input holds and the file does not: not kept, so not compared.
+    const left = otherFieldsOf(trees).filter((f) => !other.includes(f));
+    if (left.length > 0) io.stderr.write(notComparedNote(left));
+    return { trees, fields: other, optional: true };
+  }
   const trees = await loadVersions(io, oldInput, newInput, opts);
-  if (opts.compareField.length > 0) return { trees, fields: opts.compareField, optional: false };
   const fields = defaultComparedFields(trees[0], trees[1]);
   const other = fields.length > 0 ? [] : otherFieldsOf(trees);
   if (other.length === 0) return { trees, fields, optional: false };
-  if (oldInput === "-" || newInput === "-") {
-    io.stderr.write(notComparedNote(other));
-    return { trees, fields, optional: false };
-  }
-  // The first load's notes were said; the second's are the same.
-  const quiet: CliIO = { ...io, stderr: { write: () => true, isTTY: false } };
   const again = await loadVersions(quiet, oldInput, newInput, { ...opts, otherCompared: other });
   return { trees: again, fields: other, optional: true };
 }
@@ -48,11 +73,12 @@ function otherFieldsOf(trees: readonly Tree[]): string[] {
   return [...new Set(trees.flatMap((tree) => tree.reading?.otherFields ?? []))];
 }
 
+/** The fields only the version from standard input holds: it is read once, before they were known. */
 function notComparedNote(fields: readonly string[]): string {
   const named = fields.map((f) => JSON.stringify(safeText(f, 80))).join(", ");
   return (
-    `espalier: note: the records hold fields this diff did not compare (${named}), since a version ` +
-    `read from standard input is read once: a changed value in them is no change here; give each with ` +
-    `--compare-field to compare it [FIELDS_NOT_COMPARED]\n`
+    `espalier: note: the records from standard input hold fields the other version's do not, which this ` +
+    `diff did not compare (${named}): standard input is read once, so a value in them is no change ` +
+    `here; give each with --compare-field to compare it [FIELDS_NOT_COMPARED]\n`
   );
 }

@@ -69,12 +69,26 @@ describe("espalier diff compares the records' other fields when they have no ver
     expect(r.stdout).not.toMatch(/harbour\.example|Wren|Ines/);
   });
 
-  it("says on standard error what a version from standard input left uncompared", async () => {
+  it("compares the fields of a version from standard input by the other version's file", async () => {
     const files = { "old.yaml": services("1.4") };
-    const r = await cli(["diff", "old.yaml", "-", "--fail-on-change"], { files, stdin: services("1.5") });
+    // As a CI step pipes the base branch's copy: git show main:deploy.yaml | espalier diff - deploy.yaml
+    const r = await cli(["diff", "-", "old.yaml", "--fail-on-change"], { files, stdin: services("1.5") });
+    expect(r.code).toBe(1);
+    expect(head(r.stdout)).toContain("1 edited (compared: image, replicas, labels)");
+    expect(r.stderr).toBe("");
+    const back = await cli(["diff", "old.yaml", "-", "--fail-on-change"], { files, stdin: services("1.5") });
+    expect(back.code).toBe(1);
+  });
+
+  it("says on standard error which fields only standard input's records hold, not compared", async () => {
+    const files = { "old.yaml": services("1.4") };
+    const r = await cli(["diff", "old.yaml", "-", "--fail-on-change"], {
+      files,
+      stdin: services("1.4", "\n    owner: quay-team"),
+    });
     expect(r.code).toBe(0);
-    expect(head(r.stdout)).toContain("0 edited (no field compared)");
-    expect(r.stderr).toContain('did not compare ("image", "replicas", "labels")');
+    expect(head(r.stdout)).toContain("0 edited (compared: image, replicas, labels)");
+    expect(r.stderr).toContain('did not compare ("owner")');
     expect(r.stderr).toContain("[FIELDS_NOT_COMPARED]");
   });
 });
