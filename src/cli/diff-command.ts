@@ -1,11 +1,14 @@
 import { totalChanges } from "../diff/changes.js";
 import { type DiffOptions, prepareDiff, summarizeDiff } from "../diff/diff-trees.js";
 import { defaultComparedFields } from "../diff/field-edits.js";
+import { idsRenumberedNote } from "../diff/ids-renumbered.js";
+import type { ReadingNote } from "../model/reading-note.js";
+import type { Tree } from "../model/tree.js";
 import { keyMostRows } from "../render/key-line.js";
 import type { CommandOutput } from "./command-output.js";
 import { EXIT } from "./exit-codes.js";
 import { fitToBudget } from "./fit-to-budget.js";
-import { loadVersions, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
+import { displayName, loadVersions, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { DiffCliOptions } from "./options.js";
 import {
@@ -17,6 +20,7 @@ import {
   legendInError,
   outputSettings,
 } from "./output-settings.js";
+import { notesText } from "./reading-notes.js";
 import { diffHeaderRows, diffLines, diffRenderers } from "./renderers.js";
 
 /** Reads, compares and renders two versions; returns the text to print and the exit code. */
@@ -45,6 +49,12 @@ async function diffOutput(
   const compareFields =
     opts.compareField.length > 0 ? opts.compareField : defaultComparedFields(oldTree, newTree);
   const prepared = prepareDiff(oldTree, newTree, { compareFields });
+  // What only the comparison shows (ids renumbered) is a note on NEW, said as the loaders' notes are.
+  const renumbered = idsRenumberedNote(prepared);
+  if (renumbered) io.stderr.write(notesText(withNotes(newTree, [renumbered]), displayName(newInput), key));
+  const versions = renumbered
+    ? [oldTree, withNotes(newTree, [...(newTree.reading?.notes ?? []), renumbered])]
+    : [oldTree, newTree];
   const options: DiffOptions = {
     foci,
     budget: opts.budget ?? defaultBudget(io),
@@ -59,7 +69,7 @@ async function diffOutput(
   };
   const { tree } = prepared.combined;
   const settings = {
-    ...outputSettings(opts, io, tree, [oldTree, newTree]),
+    ...outputSettings(opts, io, tree, versions),
     compared: comparedSaid(compareFields, [oldTree, newTree]),
   };
   // The text's key rows are counted in every format, so every format shows the same nodes.
@@ -85,4 +95,10 @@ async function diffOutput(
   const text = await diffRenderers[opts.format](result, { ...settings, keyLeftOut, keyRows }, tree);
   const differ = totalChanges(result.totals.changes) > 0;
   return { text, exitCode: opts.failOnChange && differ ? EXIT.differences : EXIT.ok };
+}
+
+/** `tree` with `notes` as its reading notes (a tree read without a reading as a table's). */
+function withNotes(tree: Tree, notes: readonly ReadingNote[]): Tree {
+  const reading = tree.reading ?? { shape: "table", sizeUnit: "number" };
+  return { ...tree, reading: { ...reading, notes } };
 }
