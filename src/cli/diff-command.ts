@@ -19,6 +19,7 @@ import {
   keyRowsFor,
   legendInError,
   outputSettings,
+  sizeNameOf,
 } from "./output-settings.js";
 import { notesText } from "./reading-notes.js";
 import { diffHeaderRows, diffLines, diffRenderers } from "./renderers.js";
@@ -30,10 +31,12 @@ export async function diffCommand(
   opts: DiffCliOptions,
   io: CliIO,
 ): Promise<CommandOutput> {
+  // What the sizes measure, known once both versions are read: the legend says it.
+  const read: { sizeName?: string } = {};
   try {
-    return await diffOutput(oldInput, newInput, opts, io);
+    return await diffOutput(oldInput, newInput, opts, io, read);
   } catch (err) {
-    throw legendInError(err, opts, "diff", io);
+    throw legendInError(err, opts, "diff", io, read.sizeName);
   }
 }
 
@@ -42,10 +45,13 @@ async function diffOutput(
   newInput: string,
   opts: DiffCliOptions,
   io: CliIO,
+  read: { sizeName?: string },
 ): Promise<CommandOutput> {
   const foci = await readFoci(io, opts, [oldInput, newInput]);
   const key = pseudonymKey(opts, io);
   const [oldTree, newTree] = await loadVersions(io, oldInput, newInput, opts);
+  const sizeName = sizeNameOf(opts, [oldTree, newTree]);
+  read.sizeName = sizeName;
   const compareFields =
     opts.compareField.length > 0 ? opts.compareField : defaultComparedFields(oldTree, newTree);
   const prepared = prepareDiff(oldTree, newTree, { compareFields });
@@ -62,7 +68,7 @@ async function diffOutput(
     label: opts.label,
     pseudonymKey: key,
     chains: opts.chains,
-    headerLines: headerLinesFor(opts, "diff", io),
+    headerLines: headerLinesFor(opts, "diff", io, sizeName),
     spareLines: keyRowsFor(opts, io),
     siblingOrder: opts.siblingOrder,
     unmatchedFoci: opts.unmatchedFoci,
@@ -86,7 +92,7 @@ async function diffOutput(
           diffLines(r, { ...settings, budget }, tree.hasSizes),
           keyMostRows(budget, settings.width),
         ),
-      ...budgetLines(opts, "diff", io),
+      ...budgetLines(opts, "diff", io, sizeName),
       canGrow: true,
     },
     options.budget,
