@@ -312,17 +312,25 @@ function packedKey(
   // What the counts and sizes are and a level in digits go last: a line misreads without them.
   const vital = (p: Explanation) => p[3] === "numbers" || p[3] === "sizes" || p[3] === "depth";
   const kept = [...said.filter(vital), ...said.filter((p) => !vital(p))];
-  for (let n = kept.length - 1; n >= 0; n--) {
-    const packed = packRows(
-      tiny,
-      kept.slice(0, n).map((p) => p[2]),
-      width,
-      rows,
-    );
-    if (packed !== null) return packed;
+  // Printed in part, the key ends saying where the rest is; the interactive view's status row says
+  // it there instead (`h: keys, marks`), leaving the key its rows.
+  const rest = facts.more === undefined ? [KEY_REST] : [];
+  const vitals = said.filter(vital).length;
+  // The pointer goes before the vital parts do (none of them goes while it stays).
+  for (const [end, least] of [
+    [rest, vitals],
+    [[], 0],
+  ] as const) {
+    for (let n = kept.length - 1; n >= least; n--) {
+      const packed = packRows(tiny, [...kept.slice(0, n).map((p) => p[2]), ...end], width, rows);
+      if (packed !== null) return packed;
+    }
   }
   return null;
 }
+
+/** The last words of a printed key that says only part of what its lines need. */
+export const KEY_REST = "rest: --legend";
 
 /**
  * `marks` (joined by `, `) then `clauses` (by `; `) in `rows` lines of at most `width` columns, the
