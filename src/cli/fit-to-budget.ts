@@ -19,6 +19,8 @@ export interface BudgetFit<R extends { selection: Selection }> {
   keyRows(budget: number): number;
   /** Rows the key above `result`'s lines needs to say all it explains (see `keyRowsNeeded`). */
   keyRowsOf(result: R, budget: number): number;
+  /** Whether the key above `result`'s lines, in part in `rows` rows, says every mark and where the rest is. */
+  keyInPartSays(result: R, budget: number, rows: number): boolean;
   /** Whether a key is asked for (not --no-key, --bare or --legend), though a budget may have no room. */
   keyWanted: boolean;
   /** Whether fits at budgets above the asked one are valid (a fact table's tree holds only the asked one's nodes). */
@@ -31,6 +33,8 @@ export interface Fitted<R> {
   /** Rows the fit counted for the key: 0 when it was left out. */
   keyRows: number;
   keyLeftOut: KeyLeftOut | undefined;
+  /** Whether the key was printed in part (see `inPart`). */
+  keyInPart?: boolean;
 }
 
 /** Budgets above the asked one tried for the smallest that works, or the smallest that holds the key. */
@@ -126,19 +130,21 @@ function fitAt<R extends { selection: Selection }>(
 }
 
 /**
- * The key in part (see `fitAt`): the most rows below those that say all (`plain.wanted`) with which the
- * root and the focus paths keep their place; null where no more than `plain`'s own do (the key is
- * then left out, and the header says so: its fewest rows say too little beside where the rest is).
+ * The key in part (see `fitAt`): the most rows below those that say all (`plain.wanted`), down to its
+ * fewest, with which the root and the focus paths keep their place and the key says every mark and
+ * where the rest is (`rest: --legend`); null where none does (the key is then left out, and the
+ * header says so).
  */
 function inPart<R extends { selection: Selection }>(
   f: BudgetFit<R>,
   budget: number,
   plain: { result: R; rows: number; key: number; wanted?: number },
 ): Fitted<R> | null {
-  for (let k = (plain.wanted ?? plain.key) - 1; k > plain.key; k--) {
+  for (let k = (plain.wanted ?? plain.key) - 1; k >= plain.key; k--) {
     try {
       const { result } = headerAgreed(f, budget, k, false, undefined, plain.rows);
-      if (!result.selection.spared) return { result, keyRows: k, keyLeftOut: undefined };
+      if (!result.selection.spared && f.keyInPartSays(result, budget, k))
+        return { result, keyRows: k, keyLeftOut: undefined, keyInPart: true };
     } catch (err) {
       if (smallestOf(err) === undefined) throw err;
     }

@@ -45,6 +45,11 @@ export interface KeyFacts {
   readonly namesLeftOut?: boolean;
   /** Where the reader finds more (the interactive view's help key); default `--legend`. */
   readonly more?: string;
+  /**
+   * The fit printed the key in part (see `fitToBudget`): in its fewest rows it then says where the
+   * rest is (`rest: --legend`) where that and every mark fit.
+   */
+  readonly inPart?: boolean;
 }
 
 /** What the width took away from the laid-out lines (see `ScreenLines`), for the key. */
@@ -145,6 +150,38 @@ export function keyLines(
     const packed = packedKey(kind, facts, width, rows) ?? packedKey(kind, facts, width, rows, true);
     if (packed !== null) return packed;
   }
+  const least = leastKey(kind, facts, width, style);
+  // Printed in part in its fewest rows (see `fitToBudget`), it says where the rest is where that fits.
+  if (facts.inPart && width !== undefined && style === "text" && !saysAll(kind, facts, least)) {
+    const part = packedKey(kind, facts, width, rows, true);
+    if (part !== null && part.join("\n").includes(KEY_REST)) return part;
+  }
+  return least;
+}
+
+/**
+ * Whether the key for `facts` in `rows` rows, printed in part (see `KeyFacts.inPart`), says all it
+ * explains, or every mark and where the rest is.
+ */
+export function keyInPartSays(
+  kind: "summary" | "diff",
+  facts: KeyFacts,
+  width: number,
+  rows: number,
+): boolean {
+  const lines = keyLines(kind, { ...facts, inPart: true }, width, "text", rows);
+  if (saysAll(kind, facts, lines)) return true;
+  const text = lines.join("\n");
+  return text.includes(KEY_REST) && [...facts.marks].every((m) => text.includes(`'${m}'`));
+}
+
+/** The key in `keyRows(width)` lines (see `keyLines`). */
+function leastKey(
+  kind: "summary" | "diff",
+  facts: KeyFacts,
+  width: number | undefined,
+  style: "text" | "markdown",
+): string[] {
   if (keyRows(width) === 1) return [keyLine(kind, facts, width, style)];
   const room = width!;
   const marks = markWords(kind, facts.marks, style);
