@@ -18,7 +18,14 @@ import { withProgress } from "./progress.js";
 import { FOCI_BOUND, readInput } from "./read-input.js";
 import { readInputStream } from "./read-input-stream.js";
 import { notesText } from "./reading-notes.js";
-import { nestedReading, readAsOtherNote, readingsDiffer, sameWay, sizedAlike } from "./version-readings.js";
+import {
+  nestedReading,
+  readAsOtherNote,
+  readingsDiffer,
+  sameWay,
+  sizedAlike,
+  valueSized,
+} from "./version-readings.js";
 
 // What every command reads: its input trees, its foci and the pseudonym key. Summary, diff and explore
 // all go through here, so they read the same inputs the same way.
@@ -208,7 +215,7 @@ function sayVersionNotes(
   opts: SharedCliOptions,
 ): [Tree, Tree] {
   const files = [displayName(oldInput), displayName(newInput)] as const;
-  const aligned = sizedAlike(alignListings(read, files), files);
+  const aligned = valueSized(sizedAlike(alignListings(read, files), files));
   // A diff's sizes are NEW's (none when either version has none): one note, on NEW.
   const trees: [Tree, Tree] = [aligned[0], withUnsizedImportance(aligned[1], opts)];
   sayNotes(io, oldInput, trees[0], opts);

@@ -21,6 +21,7 @@ import {
   keyExplainsSizes,
   keyFacts,
   keyLines,
+  keyPartsSaid,
   keyRows,
   keyRowsNeeded,
   keySaysAll,
@@ -108,10 +109,10 @@ export function summarySession(prepared: Prepared, look: LookOptions): Session {
         // The header and the key take the screen's first rows as `espalier` prints them; the key gives
         // way on a small screen, and a header wider than the screen wraps, the fit counting its rows.
         const numbers = { units: look.units, sizes: tree.hasSizes };
-        const head = (result: SummaryResult, lines: number) =>
+        const head = (result: SummaryResult, lines: number, brief?: Brief) =>
           summaryHeaderLines(
             result.view.data,
-            { budget, lines, foci: fociOf(result.view), ...look.inputFacts },
+            { budget, lines, foci: fociOf(result.view), ...look.inputFacts, brief },
             numbers,
             width,
           );
@@ -126,14 +127,18 @@ export function summarySession(prepared: Prepared, look: LookOptions): Session {
           const header = head(result, result.selection.lines);
           const lineOf = lineGroups(result.view, look.chains);
           const keyed = result.selection.spared ? 0 : key;
-          const laid = screenOf("summary", lineOf, lineParts, header, keyed, {
-            numbers,
-            width,
-            look,
-            foci: fociOf(result.view),
-            most: viewKeyMostRows(budget, width),
-          });
-          return { result, lineOf, ...laid };
+          const lay = (header: readonly string[], keyed: number, fill?: boolean) =>
+            screenOf("summary", lineOf, lineParts, header, keyed, {
+              numbers,
+              width,
+              look,
+              foci: fociOf(result.view),
+              most: viewKeyMostRows(budget, width),
+              fill,
+            });
+          const laid = lay(header, keyed);
+          const brief = (b: Brief) => head(result, result.selection.lines, b);
+          return { result, lineOf, ...headerForKey(laid, header, keyed, width, brief, lay) };
         });
         const order = nodeOrder(tree, measures, result.scores);
         const before = lines.length - lineOf.length;
@@ -157,11 +162,11 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
     fit: remember(
       smallestThatFits((foci, budget, importance, width) => {
         const numbers = { units: look.units, sizes: tree.hasSizes };
-        const head = (result: DiffResult, lines: number) =>
+        const head = (result: DiffResult, lines: number, brief?: Brief) =>
           diffHeaderLines(
             result.totals,
             combined.by,
-            { budget, lines, foci: result.fociPaths, ...look.inputFacts },
+            { budget, lines, foci: result.fociPaths, ...look.inputFacts, brief },
             numbers,
             width,
           );
@@ -179,14 +184,18 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
           // The header, the key, then the diff's lines laid out as one screen, as `espalier diff` prints.
           const lineOf = lineGroups(result.view, look.chains);
           const keyed = result.selection.spared ? 0 : key;
-          const laid = screenOf("diff", lineOf, diffLineParts, header, keyed, {
-            numbers,
-            width,
-            look,
-            foci: result.fociPaths,
-            most: viewKeyMostRows(budget, width),
-          });
-          return { result, lineOf, ...laid };
+          const lay = (header: readonly string[], keyed: number, fill?: boolean) =>
+            screenOf("diff", lineOf, diffLineParts, header, keyed, {
+              numbers,
+              width,
+              look,
+              foci: result.fociPaths,
+              most: viewKeyMostRows(budget, width),
+              fill,
+            });
+          const laid = lay(header, keyed);
+          const brief = (b: Brief) => head(result, result.selection.lines, b);
+          return { result, lineOf, ...headerForKey(laid, header, keyed, width, brief, lay) };
         });
         const order = diffOrder(tree, measures, result.scores, changeMeasures);
         const before = lines.length - lineOf.length;
@@ -240,6 +249,39 @@ function keyAgreed<S extends { needed: number }>(
   return screen;
 }
 
+/** The header's shorter forms in the view (see `HeaderOptions.brief`). */
+type Brief = "lines" | "foci";
+
+type Laid = { lines: string[]; groups: number[][]; needed: number; whole: boolean; said: number };
+
+/**
+ * The screen `laid` (its header `header`, its key `keyed` rows), or where its key says only part of
+ * what the lines need (or had no room), the same lines under a shorter header whose rows go to the
+ * key: without the lines used, then without the foci too (see `HeaderOptions.brief`), the first that
+ * lets the key say all, else the one that lets it say most. The tree keeps its lines, so the view
+ * nests as it did; the header and the key take no more rows than before (docs/cli.md, explore).
+ */
+function headerForKey(
+  laid: Laid,
+  header: readonly string[],
+  keyed: number,
+  width: number,
+  brief: (b: Brief) => readonly string[],
+  lay: (header: readonly string[], keyed: number, fill?: boolean) => Laid,
+): Laid {
+  if (laid.whole) return laid;
+  let best = laid;
+  for (const b of ["lines", "foci"] as const) {
+    const shorter = brief(b);
+    const rows = keyed + header.length - shorter.length;
+    if (shorter.length >= header.length || rows < keyRows(width)) continue;
+    const tried = lay(shorter, rows, true);
+    if (tried.whole) return { ...tried, needed: laid.needed };
+    if (tried.said > best.said) best = { ...tried, needed: laid.needed };
+  }
+  return best;
+}
+
 /**
  * A screen's rows as `espalier` prints them: the header, the key (`keyed` rows, 0 for none) saying
  * what the marks and numbers below mean, then the lines laid out together (see `screenLines`: a line
@@ -258,8 +300,17 @@ function screenOf<T extends ViewNode>(
     look,
     foci,
     most,
-  }: { numbers: NumberOptions; width: number; look: LookOptions; foci: readonly string[]; most: number },
-): { lines: string[]; groups: number[][]; needed: number; whole: boolean } {
+    fill,
+  }: {
+    numbers: NumberOptions;
+    width: number;
+    look: LookOptions;
+    foci: readonly string[];
+    most: number;
+    /** `keyed` is the most rows the key may take: it takes the fewest of them that say the most. */
+    fill?: boolean;
+  },
+): Laid {
   const context = keyContext({
     sizes: numbers.sizes,
     header: { budget: 0, lines: 0, foci, ...look.inputFacts },
@@ -270,13 +321,16 @@ function screenOf<T extends ViewNode>(
   const screen = screenLines(lineOf, parts, { ...numbers, width, palette: look.palette }, explained);
   const quiet = look.palette?.quiet ?? ((t: string) => t);
   const facts = factsOf(screen);
-  const key = keyed > 0 ? keyLines(kind, facts, width, "text", keyed).map(quiet) : [];
+  const rows = fill ? keyRowsNeeded(kind, facts, width, keyed) : keyed;
+  const plain = keyed > 0 ? keyLines(kind, facts, width, "text", rows) : [];
+  const key = plain.map(quiet);
   const lines = [...header, ...key, ...screen.lines];
   const groups = [...[...header, ...key].map(() => []), ...lineOf.map((g) => g.nodes.map((n) => n.index))];
   // More rows than it has, where those say what these cannot (see `keyRowsNeeded`); 0 for none.
-  const rows = keyed > 0 ? keyRowsNeeded(kind, facts, width, most) : 0;
-  const whole = keyed > 0 && keySaysAll(kind, facts, key);
-  return { lines, groups, needed: rows > keyed ? rows : 0, whole };
+  const needed = keyed > 0 ? keyRowsNeeded(kind, facts, width, most) : 0;
+  const whole = keyed > 0 && keySaysAll(kind, facts, plain);
+  const said = keyed > 0 ? keyPartsSaid(kind, facts, plain) : 0;
+  return { lines, groups, needed: needed > keyed ? needed : 0, whole, said };
 }
 
 /** What a session of either kind holds of its tree: the tree, how its nodes print, and the live search. */
@@ -335,9 +389,10 @@ type FitFn = Session["fit"];
 const SMALLEST_TRIES = 8;
 
 /**
- * A fit whose refusal (BUDGET_TOO_SMALL) names a budget that fits: the fit's own smallest budget counts
- * the rows the header and key take at the budget refused, and a larger budget may wrap the header
- * otherwise (it says `9 of 9 lines`) or hold the key, so the budgets from it up are tried.
+ * A fit whose refusal (BUDGET_TOO_SMALL) names the smallest budget that fits: the fit's own smallest
+ * counts the rows the header and key take at the budget refused, and another budget may wrap the
+ * header otherwise (it says `9 of 9 lines`) or hold the key, so the budgets from the refused one up
+ * are tried (a 40-column screen of 7 rows was told `needs 10 rows` where 8 showed the view).
  */
 function smallestThatFits(compute: FitFn): FitFn {
   return (foci, budget, importance, width) => {
@@ -346,7 +401,7 @@ function smallestThatFits(compute: FitFn): FitFn {
     } catch (err) {
       const smallest = tooSmall(err);
       if (smallest === undefined) throw err;
-      for (let b = Math.max(smallest, budget + 1); b < smallest + SMALLEST_TRIES; b++) {
+      for (let b = budget + 1; b < smallest + SMALLEST_TRIES; b++) {
         try {
           compute(foci, b, importance, width);
         } catch (again) {

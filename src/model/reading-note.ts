@@ -30,7 +30,7 @@ export interface ReadingNote {
  * with one children field, every value a node, …) although on its own it reads another way
  * (cli/input.ts readOneWay). `ROOT_IS_FOLDER`: a diff's path list that names its folder (`find proj`,
  * `find /srv/proj`) was compared from that folder down with the other version, which lists the folder's
- * contents without its name (cli/listing-start.ts). `SIZES_LEFT_OUT`: a diff's version with sizes was
+ * contents without its name, or names it at another path (cli/listing-start.ts). `SIZES_LEFT_OUT`: a diff's version with sizes was
  * compared without them, as the other version has none (cli/version-readings.ts). `REPEATED_KEY`: JSON
  * node objects in which a key repeats where the repeat drops nodes (a children-by-name object, a
  * node's children field), or an id repeats in a JSON adjacency map: the last value was read, as

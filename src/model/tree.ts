@@ -84,6 +84,12 @@ export interface TreeReading {
    * as that list writes it, set on both versions; a focus may start with it (see cli/listing-start.ts).
    */
   readonly folderPath?: string;
+  /**
+   * A diff's document read as values, sized by its scalars' text as JSON writes it (objects and arrays
+   * by nothing of their own), as the other version is, not by its bytes: see cli/version-readings.ts
+   * `valueSized`.
+   */
+  readonly valueSizes?: boolean;
   /** Nested input: how many nodes are empty objects (`{}`), when any are (see `Tree.empty`). */
   readonly emptyEntries?: number;
   /** A CSV/TSV table: how many short rows were read with their missing last fields empty (`--short-rows fill`). */

@@ -20,6 +20,12 @@ export interface HeaderStyle {
 
 const plainStyle: HeaderStyle = { words: (s) => s, name: (s) => s };
 
+/**
+ * The size's name in a diff of two documents read as values, sized by their values' text rather than
+ * their bytes (cli/version-readings.ts `valueSized`): said in words, not as a field's name.
+ */
+export const VALUE_SIZE = "value size";
+
 /** What the first line of a text or Markdown rendering states. */
 export interface HeaderOptions {
   /** The line budget asked for. */
@@ -28,7 +34,7 @@ export interface HeaderOptions {
   lines: number;
   /** Printed paths (or row ids) of the foci; each is accepted back as a focus. */
   foci: readonly string[];
-  /** What the size measures, as the input calls it (`cost`); default `size`. */
+  /** What the size measures, as the input calls it (`cost`), or {@link VALUE_SIZE}; default `size`. */
   sizeName?: string;
   /**
    * How many foci matched no node and were left out (`--unmatched-foci skip`): the header counts them,
@@ -94,6 +100,12 @@ export interface HeaderOptions {
    * (`key left out: --budget 19 has room`), so a screen whose marks go unexplained says where to look.
    */
   keyLeftOut?: KeyLeftOut;
+  /**
+   * The interactive view's header where its key needs the rows (see `explore/session.ts`): `lines`
+   * leaves out the lines used (the screen is the budget), `foci` the foci too (the status row names
+   * the cursor's path and counts the foci, and `'*'` marks each focus's line).
+   */
+  brief?: "lines" | "foci";
 }
 
 /**
@@ -192,7 +204,14 @@ function summaryParts(
   if (options.sizes)
     totals += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(root.size, options.units)}`)}`;
   const read = readingParts(header, style);
-  return (k, h) => [totals, ...read, fociText(header, k, style), ...keyText(h, style), w(used(h))];
+  return (k, h) => [totals, ...read, ...endParts(h, k, style)];
+}
+
+/** A header's clauses after its totals and reading: the foci, the key left out, the lines used (see `brief`). */
+function endParts(header: HeaderOptions, fociShown: number, style: HeaderStyle): string[] {
+  if (header.brief === "foci") return [];
+  const foci = fociText(header, fociShown, style);
+  return header.brief === "lines" ? [foci] : [foci, ...keyText(header, style), style.words(used(header))];
 }
 
 /**
@@ -273,14 +292,7 @@ function diffParts(
     counts += `${w(", ")}${sizeWord(header, style)}${w(` ${formatSize(totals.old.size, units)} -> ${formatSize(totals.new.size, units)} (net ${net})`)}`;
   }
   const read = readingParts(header, style);
-  return (k, h) => [
-    w(`diff by ${by}: ${kinds}`),
-    counts,
-    ...read,
-    fociText(header, k, style),
-    ...keyText(h, style),
-    w(used(h)),
-  ];
+  return (k, h) => [w(`diff by ${by}: ${kinds}`), counts, ...read, ...endParts(h, k, style)];
 }
 
 /** ` (compared: version, team)`, ` (no field compared)`, or nothing (see `HeaderOptions.compared`). */
@@ -298,7 +310,9 @@ export const markdownHeaderStyle: HeaderStyle = {
 };
 
 function sizeWord(header: HeaderOptions, style: HeaderStyle): string {
-  return header.sizeName === undefined ? style.words("size") : style.name(safeText(header.sizeName, 40));
+  if (header.sizeName === undefined || header.sizeName === VALUE_SIZE)
+    return style.words(header.sizeName ?? "size");
+  return style.name(safeText(header.sizeName, 40));
 }
 
 /**

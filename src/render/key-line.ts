@@ -243,6 +243,10 @@ export function keyRowsNeeded(
 }
 
 /** How many of the parts `facts` call for (marks, then the rest but the pointer) `lines` say. */
+export function keyPartsSaid(kind: "summary" | "diff", facts: KeyFacts, lines: readonly string[]): number {
+  return partsSaid(kind, facts, lines);
+}
+
 function partsSaid(kind: "summary" | "diff", facts: KeyFacts, lines: readonly string[]): number {
   const text = lines.join("\n");
   const marks = [...facts.marks].filter((m) => text.includes(`'${m}'`)).length;

@@ -68,15 +68,67 @@ describe("summarySession(prepared, look): the key's rows", () => {
         status: screen.rows.at(-1)!,
       };
     };
-    // No room for a key: 9 rows at 40 columns; a key in part: 14 rows at 32; whole: 20 rows at 48.
-    const none = drawn(9, 40);
-    expect(none.key).toBe(false);
-    expect(none.status).toMatch(/ h: keys, marks$/);
+    // A key in part: 14 rows at 32; whole: 20 rows at 48 (the header gives the key its rows, see below).
     const part = drawn(14, 32);
     expect(part.key).toBe(true);
     expect(part.status).toMatch(/ h: keys, marks$/);
     const whole = drawn(20, 48);
     expect(whole.key).toBe(true);
     expect(whole.status).toMatch(/ h: keys$/);
+  });
+
+  it("gives the key the header's rows where its own cannot say all: the lines used go, then the foci (the status row names them)", () => {
+    const session = summarySession(prepared, { units: "plain", chains: true, palette: palette(false) });
+    const failures: string[] = [];
+    // 10-16 rows at 40 columns: the key said part of the marks on 44a9f63's screens of 11, 12, 15 and
+    // 16 rows (the header spent a row on `11 of 11 lines`, another on the focus's path); on 10 rows it
+    // still says part.
+    for (let height = 10; height <= 16; height++) {
+      const state = startState(session, {
+        rows: height,
+        cols: 40,
+        foci: resolveFoci(prepared.index, [`${deep}/BUILD`]),
+        importance: "depth",
+        fociFile: "foci.txt",
+      });
+      const screen = draw(session, state, false);
+      const text = `${screen.rows
+        .slice(0, -1)
+        .map((r) => r.slice(GUTTER))
+        .join("\n")
+        .trimEnd()}\n`;
+      const problems = checkText(text, { budget: height - 1, width: 40 - GUTTER });
+      if (height >= 11 && (problems.length > 0 || / h: keys, marks$/.test(screen.rows.at(-1)!)))
+        failures.push(`${height}x40: ${problems.join("; ")}\n${screen.rows.join("\n")}`);
+      // The header keeps its totals: the root's count is checked against them.
+      expect(screen.rows[0]).toMatch(/^ {2}summary: 106 nodes/);
+      // One cursor row: the view is drawn, not refused.
+      expect(screen.rows.filter((r) => r.startsWith("@"))).toHaveLength(1);
+    }
+    expect(failures).toEqual([]);
+  });
+
+  it("on a screen too short for the view, names the fewest rows that show it (every taller one shows it)", () => {
+    const session = summarySession(prepared, { units: "plain", chains: true, palette: palette(false) });
+    for (const cols of [32, 40, 60]) {
+      const drawn = (height: number) =>
+        draw(
+          session,
+          startState(session, {
+            rows: height,
+            cols,
+            foci: resolveFoci(prepared.index, [`${deep}/BUILD`]),
+            importance: "depth",
+            fociFile: "foci.txt",
+          }),
+          false,
+        );
+      let fewest = 3;
+      while (drawn(fewest).cursorRow === null) fewest++;
+      for (let height = 3; height < fewest; height++)
+        expect(drawn(height).rows[0], `${height}x${cols}`).toMatch(new RegExp(`needs ${fewest} rows$`));
+      for (let height = fewest; height < fewest + 12; height++)
+        expect(drawn(height).cursorRow, `${height}x${cols}`).not.toBeNull();
+    }
   });
 });

@@ -103,6 +103,80 @@ describe("two listings of one folder, one naming the folder and one not", () => 
   });
 });
 
+describe("two listings of one folder that both name it, at other paths", () => {
+  // GNU find (findutils manual, -printf %p) writes every path with the starting point in front, so
+  // `find harbour-ops`, `find /srv/harbour-ops` and `find /home/ci/harbour-ops` of one checkout differ
+  // only in that front; -type f lists files only, so no line names a folder. Before, the roots' chains
+  // parted above the folder ('harbour-ops' against '/', or '/srv' against '/home'): every node of one
+  // removed and every node of the other added, exit 1 under --fail-on-change with nothing changed.
+  const filesOnly = (prefix: string) =>
+    entries
+      .filter(([size, path]) => path !== "" && size !== 4096)
+      .map(([size, path]) => `${size}\t${prefix}${path}\n`)
+      .join("");
+  const more = {
+    "ci.tsv": listing("/home/ci/harbour-ops/", true), // find /home/ci/harbour-ops -printf '%s\t%p\n'
+    "ci-du.tsv": listing("/home/ci/harbour-ops/", true).split("\n").reverse().join("\n").slice(1), // each folder after its contents
+    "named-files.tsv": filesOnly("harbour-ops/"), // find harbour-ops -type f -printf '%s\t%p\n'
+    "abs-files.tsv": filesOnly("/srv/harbour-ops/"),
+  };
+  const pairs: [string, string][] = [
+    ["named.tsv", "abs.tsv"],
+    ["abs.tsv", "named.tsv"],
+    ["abs.tsv", "ci.tsv"],
+    ["ci-du.tsv", "named.tsv"],
+    ["abs-files.tsv", "named-files.tsv"],
+    ["named-files.tsv", "abs-files.tsv"],
+  ];
+  for (const [a, b] of pairs) {
+    it(`${a} against ${b}: no change, exit 0 under --fail-on-change`, async () => {
+      const { doc } = await diff(a, b, more);
+      expect(doc.changes).toEqual({ added: 0, removed: 0, moved: 0, renamed: 0, edited: 0, resized: 0 });
+      // The listings' own lines: the folder and its entries, or the files alone.
+      const lines = (f: string) => ({ ...files, ...more })[f as keyof typeof files].trim().split("\n").length;
+      expect(doc.totals.old.nodes).toBe(a.includes("files") ? lines(a) + 3 : lines(a));
+      expect(doc.totals.new.nodes).toBe(b.includes("files") ? lines(b) + 3 : lines(b));
+      const r = await cli(["diff", a, b, "--fail-on-change"], { files: { ...files, ...more } });
+      expect(r.code).toBe(0);
+    });
+  }
+
+  it("says which folders were left out above each start, on standard error and the header", async () => {
+    const r = await cli(["diff", "abs.tsv", "ci.tsv", "--budget", "4"], { files: { ...files, ...more } });
+    expect(r.stderr).toContain(
+      'abs.tsv:1: read from "/srv/harbour-ops" down, compared with "/home/ci/harbour-ops", the folder NEW (ci.tsv) lists, which holds mostly the same names; the 2 folders above it are left out [ROOT_IS_FOLDER]',
+    );
+    expect(r.stderr).toContain('ci.tsv:1: read from "/home/ci/harbour-ops" down');
+    expect(r.stdout.split("\n")[0]).toContain("OLD: 2 folders above the start left out; NEW: 3 folders");
+  });
+
+  it("a folder named otherwise in the other place is renamed, its contents compared", async () => {
+    const renamed = {
+      "ci-2.tsv": listing("/home/ci/harbour-ops-2/", true, (p, s) => (p === "README" ? s + 1 : s)),
+    };
+    const { doc } = await diff("abs.tsv", "ci-2.tsv", renamed);
+    expect(doc.changes).toMatchObject({ added: 0, removed: 0, renamed: 1, resized: 1 });
+    expect(doc.root).toMatchObject({ name: "harbour-ops-2", renamedFrom: "harbour-ops", change: "renamed" });
+  });
+
+  it("files only, everything moved one folder down: the deepest shared folder is not read as the start", async () => {
+    // Common practice, no source: harbour-ops/berths/north.yaml and harbour-ops/fleet/berths/north.yaml
+    // are two paths; with no folder line, which folder was listed is not known, so nothing is left out.
+    const moved = { "fleet-files.tsv": filesOnly("harbour-ops/fleet/") };
+    const { doc, stderr } = await diff("named-files.tsv", "fleet-files.tsv", { ...more, ...moved });
+    expect(stderr).toBe("");
+    expect(doc.changes).toMatchObject({ renamed: 0, removed: 6, added: 7 });
+  });
+
+  it("a listing of the folder above is compared as it is: its start holds other names", async () => {
+    // find /srv -printf '%s\t%p\n' lists harbour-ops as one folder of /srv beside another.
+    const above = { "srv.tsv": `4096\t/srv\n4096\t/srv/tug-fleet\n${listing("/srv/harbour-ops/", true)}` };
+    const { doc, stderr } = await diff("named.tsv", "srv.tsv", above);
+    expect(stderr).toBe("");
+    expect(doc.changes.removed).toBe(entries.length - 1); // all but the root, which is matched
+  });
+});
+
 describe("two versions of which only one has sizes", () => {
   // `find DIR` prints paths only; `find DIR -printf '%s\t%P\n'` sizes too (findutils manual, -printf).
   const bare = entries

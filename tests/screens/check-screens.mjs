@@ -3,7 +3,7 @@
 // budgets, and reports every line whose numbers do not add up, every mark the screen does not
 // explain, and every screen over its budget or width.
 //
-// Usage (after `npm run build`): node tests/screens/check-screens.mjs [--quick]
+// Usage (after `npm run build`): node tests/screens/check-screens.mjs [--quick | --views]
 // It also compares each budget's screen with the next budget's: the larger shows every node the
 // smaller does, but where the key takes lines the tree had (docs/selection.md).
 // Inputs it makes for itself under a temporary folder: `npm ls --all --json` of this project and an
@@ -22,6 +22,8 @@ import { ANSI, checkJson, checkText } from "./read-screen.mjs";
 
 const repo = fileURLToPath(new URL("../..", import.meta.url));
 const quick = process.argv.includes("--quick");
+// --views: the interactive view's screens only (all its sizes), not the printed ones.
+const viewsOnly = process.argv.includes("--views");
 
 /** Runs the CLI in-process, with `env` as its whole environment. */
 async function cli(args, env = {}) {
@@ -215,7 +217,7 @@ if (existsSync(join(fixtures, "quillfeather-org-last-week.csv")))
     kind: "diff",
   });
 
-const widths = quick ? [32, 60, undefined] : [30, 32, 40, 60, 80, 120, undefined];
+const widths = viewsOnly ? [] : quick ? [32, 60, undefined] : [30, 32, 40, 60, 80, 120, undefined];
 const budgets = quick ? [10, 20] : [6, 8, 10, 14, 20, 40];
 let screens = 0;
 let noted = 0;
@@ -412,19 +414,20 @@ const views = [
     people: orgCsv,
   },
 ];
-const sizes = quick
-  ? [
-      [14, 34],
-      [24, 62],
-    ]
-  : [
-      [10, 32],
-      [14, 34],
-      [20, 42],
-      [24, 62],
-      [24, 82],
-      [40, 122],
-    ];
+const sizes =
+  quick && !viewsOnly
+    ? [
+        [14, 34],
+        [24, 62],
+      ]
+    : [
+        [10, 32],
+        [14, 34],
+        [20, 42],
+        [24, 62],
+        [24, 82],
+        [40, 122],
+      ];
 let viewsRead = 0;
 let pointed = 0;
 for (const v of views) {
@@ -480,6 +483,7 @@ for (const v of views) {
     });
     if (/ h: keys, marks$/.test(status)) {
       pointed++;
+      console.log(`NOTE ${what}: the key says part, the status row points to the help`);
       // What is wrong besides the key's words is still wrong.
       problems.push(...read.filter((p) => !/not explained|no key|not said/.test(p)));
     } else problems.push(...read);
