@@ -7,6 +7,7 @@ import { isSize } from "../../model/size-rule.js";
 import type { LoadOptions } from "../load-options.js";
 import { missingField, nameFieldNamed, sizeFieldNamed } from "../missing-field.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
+import { otherFields, withOtherFields } from "../other-fields.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer } from "../path-placer.js";
 import { sizeTextHint } from "../size-text-hint.js";
@@ -54,6 +55,7 @@ export function linkTable(
     ...(table.filledRows ? { filledRows: table.filledRows } : {}),
     ...(idsName ? { namesFrom: options.idField } : {}),
     linkedBy: linkedBy(table, options),
+    ...withOtherFields(otherFields(columns, options)),
   };
   if (table.place) linked.placeRow = table.place;
   return linked;
