@@ -1,11 +1,11 @@
 import { totalChanges } from "../diff/changes.js";
 import { type DiffOptions, prepareDiff, summarizeDiff } from "../diff/diff-trees.js";
-import { defaultComparedFields } from "../diff/field-edits.js";
 import { keyMostRows } from "../render/key-line.js";
 import type { CommandOutput } from "./command-output.js";
+import { loadCompared } from "./compared-fields.js";
 import { EXIT } from "./exit-codes.js";
 import { fitToBudget } from "./fit-to-budget.js";
-import { loadVersions, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
+import { pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { DiffCliOptions } from "./options.js";
 import {
@@ -41,10 +41,10 @@ async function diffOutput(
 ): Promise<CommandOutput> {
   const foci = await readFoci(io, opts, [oldInput, newInput]);
   const key = pseudonymKey(opts, io);
-  const [oldTree, newTree] = await loadVersions(io, oldInput, newInput, opts);
-  const compareFields =
-    opts.compareField.length > 0 ? opts.compareField : defaultComparedFields(oldTree, newTree);
-  const prepared = prepareDiff(oldTree, newTree, { compareFields });
+  const compared = await loadCompared(io, oldInput, newInput, opts);
+  const [oldTree, newTree] = compared.trees;
+  const compareFields = compared.fields;
+  const prepared = prepareDiff(oldTree, newTree, { compareFields, fieldsOptional: compared.optional });
   const options: DiffOptions = {
     foci,
     budget: opts.budget ?? defaultBudget(io),

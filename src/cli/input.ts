@@ -18,7 +18,14 @@ import { withProgress } from "./progress.js";
 import { FOCI_BOUND, readInput } from "./read-input.js";
 import { readInputStream } from "./read-input-stream.js";
 import { notesText } from "./reading-notes.js";
-import { nestedReading, readAsOtherNote, readingsDiffer, sameWay, sizedAlike } from "./version-readings.js";
+import {
+  nestedReading,
+  readAsOtherNote,
+  readingsDiffer,
+  sameWay,
+  sizedAlike,
+  valueSized,
+} from "./version-readings.js";
 
 // What every command reads: its input trees, its foci and the pseudonym key. Summary, diff and explore
 // all go through here, so they read the same inputs the same way.
@@ -127,7 +134,7 @@ export async function loadVersions(
   io: CliIO,
   oldInput: string,
   newInput: string,
-  opts: SharedCliOptions & { compareField?: readonly string[] },
+  opts: SharedCliOptions & ComparedFieldOptions,
 ): Promise<[Tree, Tree]> {
   if (oldInput === "-" && newInput === "-")
     throw new EspalierError("USAGE", "only one of the two versions can come from standard input");
@@ -208,7 +215,7 @@ function sayVersionNotes(
   opts: SharedCliOptions,
 ): [Tree, Tree] {
   const files = [displayName(oldInput), displayName(newInput)] as const;
-  const aligned = sizedAlike(alignListings(read, files), files);
+  const aligned = valueSized(sizedAlike(alignListings(read, files), files));
   // A diff's sizes are NEW's (none when either version has none): one note, on NEW.
   const trees: [Tree, Tree] = [aligned[0], withUnsizedImportance(aligned[1], opts)];
   sayNotes(io, oldInput, trees[0], opts);
@@ -319,10 +326,7 @@ export function pseudonymKey(opts: { pseudonymize?: boolean }, io: CliIO): strin
  * The loader's options for one input of a tree format. Kept record fields: the label's, and a diff's
  * compared fields (`--compare-field`).
  */
-export function toLoadOptions(
-  input: string,
-  opts: SharedCliOptions & { compareField?: readonly string[] },
-): LoadOptions {
+export function toLoadOptions(input: string, opts: SharedCliOptions & ComparedFieldOptions): LoadOptions {
   const format = opts.inputFormat;
   if (format === "parquet" || format === "jsonl")
     throw new EspalierError(
@@ -347,11 +351,12 @@ export function toLoadOptions(
         ...(opts.label ? templateFields(opts.label) : []),
         ...(opts.compareField ?? []),
         ...defaultCompared(opts),
+        ...(opts.otherCompared ?? []),
       ]),
     ],
     // A diff without --compare-field compares a document's values where it is read as values.
     ...(defaultCompared(opts).length > 0
-      ? { optionalKeepFields: defaultCompared(opts), keepScalars: true }
+      ? { optionalKeepFields: [...defaultCompared(opts), ...(opts.otherCompared ?? [])], keepScalars: true }
       : {}),
     rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
@@ -381,6 +386,16 @@ function linkOptionsNamed(named: ReadonlySet<string> | undefined): { linkOptions
     .filter(([key]) => named?.has(key))
     .map(([, flag]) => flag);
   return flags.length > 0 ? { linkOptionsNamed: flags } : {};
+}
+
+/**
+ * The fields a diff keeps to compare: `compareField` (`--compare-field`; empty: a diff without it, which
+ * keeps `version` where records have it), and `otherCompared`, the records' other fields a diff without
+ * it compares (cli/compared-fields.ts), kept only where records have them.
+ */
+export interface ComparedFieldOptions {
+  compareField?: readonly string[];
+  otherCompared?: readonly string[];
 }
 
 /**

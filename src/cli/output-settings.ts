@@ -2,7 +2,13 @@ import { EspalierError } from "../errors.js";
 import { type NoteFact, noteFact, type ShownNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import type { Units } from "../render/format-size.js";
-import type { HeaderReading, KeyLeftOut, ListedReading, VersionReading } from "../render/header.js";
+import {
+  type HeaderReading,
+  type KeyLeftOut,
+  type ListedReading,
+  VALUE_SIZE,
+  type VersionReading,
+} from "../render/header.js";
 import { KEY_MIN_BUDGET, keyRows } from "../render/key-line.js";
 import { MIN_WIDTH } from "../render/line-layout.js";
 import { legendLines } from "../render/marks.js";
@@ -92,7 +98,13 @@ export function outputSettings(
     legend: opts.legend,
     key: showsKey(opts, io),
     share: opts.share === "none" ? undefined : opts.share,
-    sizeName: opts.sizeField === "size" ? undefined : opts.sizeField,
+    // A diff of documents read as values sizes them by their values (cli/version-readings.ts valueSized).
+    sizeName:
+      inputs.length === 2 && inputs.every((t) => t.reading?.valueSizes)
+        ? VALUE_SIZE
+        : opts.sizeField === "size"
+          ? undefined
+          : opts.sizeField,
     reading: inputs.length === 2 ? versionsReading(opts, inputs[0], inputs[1]) : chosenReading(opts, tree),
     filledRows: filled.some((n) => n > 0) ? filled : undefined,
     documents: documents.some((n) => n > 1) ? documents : undefined,

@@ -1,4 +1,5 @@
 import { EspalierError, type MessagePart, quoted, say } from "../errors.js";
+import { EMPTY_ARRAY, EMPTY_OBJECT, SCALAR_VALUE_FIELD } from "../load/load-options.js";
 import type { Reading } from "../load/shape/choose-reading.js";
 import type { ReadingNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
@@ -114,4 +115,30 @@ function withoutSizes(tree: Tree, other: "OLD" | "NEW", otherFile: string): Tree
     ownSize: new Float64Array(tree.length),
     ...(reading ? { reading: { ...reading, notes: [...(reading.notes ?? []), note] } } : {}),
   };
+}
+
+/**
+ * Two documents read as values, compared by their scalars' text (`value`): both sized by those values,
+ * each scalar by its text as JSON writes it (a string quoted, a number as written: the compared text,
+ * in UTF-8 bytes) and an object or array by nothing of its own; `reading.valueSizes` says so (the
+ * header and key name the sizes `value size`). Sized by the documents' bytes, a new layout (compact
+ * against indented JSON, JSON against YAML, a comment, quotes) resized nodes whose every value stayed,
+ * and `--fail-on-change` failed on it. Other versions are kept.
+ */
+export function valueSized([oldTree, newTree]: readonly [Tree, Tree]): [Tree, Tree] {
+  const [oldValues, newValues] = [oldTree, newTree].map((t) =>
+    t.reading?.shape === "values" && t.hasSizes ? t.fields.get(SCALAR_VALUE_FIELD) : undefined,
+  );
+  if (oldValues === undefined || newValues === undefined) return [oldTree, newTree];
+  return [sizedByValues(oldTree, oldValues), sizedByValues(newTree, newValues)];
+}
+
+function sizedByValues(tree: Tree, values: readonly string[]): Tree {
+  const ownSize = new Float64Array(tree.length);
+  for (let i = 0; i < tree.length; i++) {
+    const v = values[i];
+    ownSize[i] = v === EMPTY_OBJECT || v === EMPTY_ARRAY ? 0 : Buffer.byteLength(v, "utf8");
+  }
+  const reading = tree.reading;
+  return { ...tree, ownSize, ...(reading ? { reading: { ...reading, valueSizes: true } } : {}) };
 }

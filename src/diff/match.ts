@@ -1,6 +1,7 @@
 import { bytesCompare, isEmptyName, NamePool, type Names, sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 import { wellFormedUtf8 } from "../model/well-formed-utf8.js";
+import { elementReadings, isSequence, pairElements } from "./pair-elements.js";
 
 /** How the nodes of two versions correspond. Roots always correspond to each other. */
 export interface Matching {
@@ -302,6 +303,7 @@ function matchByPath(
   const byBytes = pooled
     ? { equalBytes, old: (oldName as NamePool).byteRuns()!, new: (newName as NamePool).byteRuns()! }
     : null;
+  const elements = elementReadings(oldTree, oldCount, newTree, newCount);
   let pairs = 0;
   for (let n = 0; n < newTree.length; n++) {
     const o = newToOld[n];
@@ -310,7 +312,10 @@ function matchByPath(
       continue;
     }
     if (newCount[n] > 1 && oldCount[o] > 1)
-      pairs += pairChildren(same, byBytes, oldName, oldCount, o, newName, newCount, n, oldToNew, newToOld);
+      pairs +=
+        elements !== null && isSequence(elements.old, o) && isSequence(elements.new, n)
+          ? pairElements(elements.old, o, elements.new, n, oldToNew, newToOld)
+          : pairChildren(same, byBytes, oldName, oldCount, o, newName, newCount, n, oldToNew, newToOld);
   }
   return pairs;
 }

@@ -1,5 +1,6 @@
 import { EspalierError } from "../errors.js";
 import { defaultLoadOptions, type InputFormat, type LoadOptions } from "./load-options.js";
+import { complaintOf } from "./path-list/complaint-lines.js";
 import { isRowsValue } from "./rows-shape.js";
 
 /** The field names that tell a table's columns (and a document's children) apart. */
@@ -44,7 +45,9 @@ export function detectFormat(
   const firstLine = firstLineOf(body, 0);
   if (firstLine.includes("\t") && isHeader(firstLine, "\t", fields)) return "tsv";
   if (firstLine.includes(",") && isHeader(firstLine, ",", fields)) return "csv";
-  if (looksLikeYaml(body)) return "yaml";
+  // `find: ‘x’: No such file or directory` first (a listing saved with 2>&1) reads like a YAML key: the
+  // path list's reader says what the line is.
+  if (looksLikeYaml(body) && complaintOf(firstLineOf(body, first)) === undefined) return "yaml";
   return "paths";
 }
 

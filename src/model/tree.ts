@@ -84,12 +84,25 @@ export interface TreeReading {
    * as that list writes it, set on both versions; a focus may start with it (see cli/listing-start.ts).
    */
   readonly folderPath?: string;
+  /**
+   * A diff's document read as values, sized by its scalars' text as JSON writes it (objects and arrays
+   * by nothing of their own), as the other version is, not by its bytes: see cli/version-readings.ts
+   * `valueSized`.
+   */
+  readonly valueSizes?: boolean;
   /** Nested input: how many nodes are empty objects (`{}`), when any are (see `Tree.empty`). */
   readonly emptyEntries?: number;
   /** A CSV/TSV table: how many short rows were read with their missing last fields empty (`--short-rows fill`). */
   readonly filledRows?: number;
   /** A YAML stream of several documents read as values: how many (each a child of the root named by its index). */
   readonly documents?: number;
+  /**
+   * Node objects, rows and tables: the record fields the records hold beside those read for the tree
+   * (name, size, children, id, parent, path) and those kept (`Tree.fields`), in the order first seen;
+   * a nested document's from a sample (the first 1,000 node objects' keys, up to 40 names). A diff
+   * without `--compare-field` compares them (cli/compared-fields.ts). Absent: none.
+   */
+  readonly otherFields?: readonly string[];
   /**
    * A table or rows linked by id without the name column: the id column, whose values name the nodes.
    * The header says so, so a reader whose names sit in another column sees where to point --name-field.

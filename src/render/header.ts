@@ -20,6 +20,12 @@ export interface HeaderStyle {
 
 const plainStyle: HeaderStyle = { words: (s) => s, name: (s) => s };
 
+/**
+ * The size's name in a diff of two documents read as values, sized by their values' text rather than
+ * their bytes (cli/version-readings.ts `valueSized`): said in words, not as a field's name.
+ */
+export const VALUE_SIZE = "value size";
+
 /** What the first line of a text or Markdown rendering states. */
 export interface HeaderOptions {
   /** The line budget asked for. */
@@ -28,7 +34,7 @@ export interface HeaderOptions {
   lines: number;
   /** Printed paths (or row ids) of the foci; each is accepted back as a focus. */
   foci: readonly string[];
-  /** What the size measures, as the input calls it (`cost`); default `size`. */
+  /** What the size measures, as the input calls it (`cost`), or {@link VALUE_SIZE}; default `size`. */
   sizeName?: string;
   /**
    * How many foci matched no node and were left out (`--unmatched-foci skip`): the header counts them,
@@ -304,7 +310,9 @@ export const markdownHeaderStyle: HeaderStyle = {
 };
 
 function sizeWord(header: HeaderOptions, style: HeaderStyle): string {
-  return header.sizeName === undefined ? style.words("size") : style.name(safeText(header.sizeName, 40));
+  if (header.sizeName === undefined || header.sizeName === VALUE_SIZE)
+    return style.words(header.sizeName ?? "size");
+  return style.name(safeText(header.sizeName, 40));
 }
 
 /**

@@ -141,8 +141,8 @@ describe("a last line in a word no catalog gives, whose size is the others' sum"
   });
 
   it("says nothing of a few lines that add up, or of a last name with a dot (a file joined from the others)", async () => {
-    const parts = "120\tp1\n30\tp2\n1\tp3\n1\tp4\n1\tp5\n1\tp6\n1\tp7\n1\tp8\n";
-    for (const listing of ["5\ta\n5\tb\n", "1\ta/x\n2\ta/y\n3\tb\n", `${parts}156\twhole.bin\n`]) {
+    const parts = "120\tp1\n30\tp2\n1\tp3\n2\tp4\n1\tp5\n3\tp6\n2\tp7\n4\tp8\n";
+    for (const listing of ["5\ta\n5\tb\n", "1\ta/x\n2\ta/y\n3\tb\n", `${parts}163\twhole.bin\n`]) {
       const doc = JSON.parse((await cli(["-", "--format", "json"], { stdin: listing })).stdout);
       expect(doc.input.notes).toBeUndefined();
     }

@@ -98,4 +98,46 @@ describe("du listings in units bigger than a byte", () => {
     const read = JSON.parse((await cli(["-", "--format", "json"], { stdin: `${own.join("\n")}\n` })).stdout);
     expect(read.totals.size).toBe(7 * 1500 + 4096 * 3);
   });
+  it.skipIf(!gnu).each([["-sm"], ["-s", "--block-size=1M"]])(
+    "du %s DIR/* (whole MiB, rounded up) is PARSE_PATHS naming du -sb; du -sb DIR/* is read",
+    async (...flags) => {
+      // Source: GNU du -sb (each entry's apparent bytes) and GNU du -sm (its disk usage in MiB, rounded up).
+      // A quay of nine small folders and files: each 1 MiB in du -sm, where read as bytes it was 1 B, exit 0.
+      const quay = mkdtempSync(join(tmpdir(), "espalier-du-sm-"));
+      try {
+        const entries: Record<string, number> = {};
+        for (let k = 0; k < 9; k++)
+          entries[k % 3 === 0 ? `crane-${k}.log` : `bay-${k}/manifest.csv`] = 200 + 90 * k;
+        writeFiles(quay, entries);
+        const du = (args: string[]) =>
+          execFileSync("sh", ["-c", `du ${args.join(" ")} *`], { cwd: quay, encoding: "utf8" });
+        const r = await cli(["-"], { stdin: du(flags) });
+        expect(r.code).toBe(2);
+        expect(r.stdout).toBe("");
+        expect(r.stderr).toMatch(
+          /^espalier: <stdin>:1:1: .*du -sm DIR\/\*.*du -sb DIR\/\*.*\[PARSE_PATHS\]\n$/,
+        );
+        const bytes = du(["-sb"]);
+        const read = JSON.parse((await cli(["-", "--format", "json"], { stdin: bytes })).stdout);
+        expect(read.totals.size).toBe(
+          bytes.split("\n").reduce((s, l) => s + (Number(l.split("\t")[0]) || 0), 0),
+        );
+      } finally {
+        rmSync(quay, { recursive: true, force: true });
+      }
+    },
+  );
+
+  it("a listing with a few one-byte entries among others is read as bytes", async () => {
+    // Flag files of one byte ("1" without a newline) beside bigger ones: 2 of 9 is under a quarter.
+    const lines = ["1", "1", "5120", "88", "4096", "613", "2048", "31", "977"].map(
+      (b, k) => `${b}\tflags/f${k}`,
+    );
+    const read = JSON.parse(
+      (await cli(["-", "--format", "json"], { stdin: `${lines.join("\n")}\n` })).stdout,
+    );
+    expect(read.totals.size).toBe(1 + 1 + 5120 + 88 + 4096 + 613 + 2048 + 31 + 977);
+    const more = lines.map((l, k) => (k === 2 ? l.replace(/^\d+/, "1") : l));
+    expect((await cli(["-"], { stdin: `${more.join("\n")}\n` })).code).toBe(2);
+  });
 });

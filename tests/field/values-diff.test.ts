@@ -81,7 +81,8 @@ describe("diff of two documents read as values", () => {
     );
     expect(yaml.code).toBe(1);
     expect(yaml.stdout).toContain("[edited value [] -> {}] env");
-    expect(yaml.stdout).toContain("[edited value [] -> {}, +3 B] ports");
+    // Sized by values (no own size for an object or an array), `ports` keeps its size: its one member, 80.
+    expect(yaml.stdout).toContain("[edited value [] -> {}] ports  2 nodes, 2 B");
     const json = await cli(["diff", "a.json", "c.json", "--fail-on-change", "--format", "json"], { files });
     expect(json.code).toBe(1);
     expect(JSON.parse(json.stdout).changes.edited).toBe(1);
@@ -112,5 +113,159 @@ describe("diff of two documents read as values", () => {
       });
       expect(streamed.fields.get(SCALAR_VALUE_FIELD)).toEqual(values);
     }
+  });
+});
+
+describe("diff of two lists (documents read as values)", () => {
+  // Field test: a gateway's routes, an element put first in the list. Elements are named by their index
+  // (RFC 6901: the JSON Pointer of an array element is its index), so by index every later element
+  // paired with its predecessor: "9 edited, 4 added" for one route added, each field of two routes
+  // "edited" to the other's values. (Read as nodes, such a list is children named by `name` already.)
+  // Now a list's elements are aligned as a line diff aligns lines (a longest common subsequence of each
+  // element's `name`, or of its whole value), and the order stays part of the value: RFC 8259 §5, an
+  // array is an ordered sequence of values.
+  const routes = (names: string[]) =>
+    `routes:\n${names.map((n) => `  - name: ${n}\n    path: /${n}\n    timeout: ${n.length}\n`).join("")}`;
+  const files = {
+    "a.yaml": routes(["ledger", "harbour", "kelp"]),
+    "b.yaml": routes(["audit", "ledger", "harbour", "kelp"]),
+    "c.yaml": routes(["harbour", "kelp", "ledger"]),
+    "a.json": JSON.stringify({ routes: ["ledger", "harbour", "kelp"].map((n) => ({ name: n, timeout: 1 })) }),
+    "d.json": JSON.stringify({
+      routes: ["ledger", "kelp"].map((n) => ({ name: n, timeout: n === "kelp" ? 2 : 1 })),
+    }),
+  };
+  const changes = async (a: string, b: string, more: Record<string, string> = {}) => {
+    const r = await cli(["diff", a, b, "--read-as", "values", "--format", "json"], {
+      files: { ...files, ...more },
+    });
+    return JSON.parse(r.stdout).changes;
+  };
+
+  it("an element put first is one element added, the others unchanged", async () => {
+    const r = await cli(
+      ["diff", "a.yaml", "b.yaml", "--read-as", "values", "--format", "json", "--fail-on-change"],
+      { files },
+    );
+    expect(r.code).toBe(1);
+    const doc = JSON.parse(r.stdout);
+    // Expected from the two lists: the element audit and its 3 members are new; no other value changed.
+    expect(doc.changes).toEqual({ added: 4, removed: 0, moved: 0, renamed: 0, edited: 0, resized: 0 });
+    const added = doc.root.children[0].children.filter((c: { change: string }) => c.change === "added");
+    expect(added.map((c: { path: string }) => c.path)).toEqual(["routes/0"]);
+  });
+
+  it("an element taken out is removed with its members; one whose value changed is edited", async () => {
+    // harbour (its name and timeout) removed; kelp's timeout 1 -> 2 is its own edit.
+    expect(await changes("a.json", "d.json")).toMatchObject({ added: 0, removed: 3, edited: 1 });
+    const text = await cli(["diff", "a.json", "d.json", "--read-as", "values", "--bare"], { files });
+    expect(text.stdout).toContain("[edited value 1 -> 2] timeout");
+  });
+
+  it("a new order is a change: the element that left its place is removed there and added at the new one", async () => {
+    // As a line diff shows a moved line: ledger after harbour and kelp (4 nodes each way).
+    const r = await cli(["diff", "a.yaml", "c.yaml", "--read-as", "values", "--fail-on-change", "--bare"], {
+      files,
+    });
+    expect(r.code).toBe(1);
+    expect(await changes("a.yaml", "c.yaml")).toMatchObject({ added: 4, removed: 4, edited: 0 });
+    expect(r.stdout).toContain("[removed] 0 name=ledger");
+    expect(r.stdout).toContain("[added] 2 name=ledger");
+  });
+
+  it("elements without a name are aligned by their values: scalars, objects, a YAML stream's documents", async () => {
+    const more = {
+      "p.yaml": "ports: [80, 443]\n",
+      "q.yaml": "ports: [8080, 80, 443]\n",
+      "r.yaml": "ports: [443, 80]\n",
+      "u.json": '[{"a": 1}, {"a": 2}]',
+      "v.json": '[{"a": 0}, {"a": 1}, {"a": 3}]',
+      // YAML 1.2 §9.2: a stream of documents, each a child of the root here, named by its index.
+      "s.yaml": "kind: Service\nspec: {port: 80}\n---\nkind: Deployment\nspec: {replicas: 2}\n",
+      "t.yaml":
+        "kind: ConfigMap\ndata: {MODE: prod}\n---\nkind: Service\nspec: {port: 80}\n---\nkind: Deployment\nspec: {replicas: 3}\n",
+    };
+    // 8080 put first: one element added (by index: 2 edited and 1 added).
+    expect(await changes("p.yaml", "q.yaml", more)).toMatchObject({ added: 1, removed: 0, edited: 0 });
+    // Two ports swapped: a new order, 80 removed before 443 and added after it.
+    expect(await changes("p.yaml", "r.yaml", more)).toMatchObject({ added: 1, removed: 1, edited: 0 });
+    // {"a": 0} put first ({"a": 0} and its member added); {"a": 2} -> {"a": 3} between aligned
+    // elements is that element edited.
+    expect(await changes("u.json", "v.json", more)).toMatchObject({ added: 2, removed: 0, edited: 1 });
+    // A document put first: its 4 nodes added; the Deployment's replicas 2 -> 3 its one edit.
+    expect(await changes("s.yaml", "t.yaml", more)).toMatchObject({ added: 4, removed: 0, edited: 1 });
+  });
+});
+
+describe("diff of one document written two ways (read as values)", () => {
+  // Field test: an invented gateway's configuration as indented JSON, compact JSON (JSON.stringify
+  // without spaces) and YAML of the same data. Sized by their bytes, every object and array whose
+  // layout changed was "resized" ("6 resized" compact against indented, "16 resized" YAML against
+  // JSON) and --fail-on-change exited 1 with no value changed. RFC 8259 §2: white space around
+  // structural characters is insignificant; YAML 1.2 §3.2.3: presentation details (indentation, styles,
+  // comments) are not part of the content.
+  const config = {
+    service: "tern-gateway",
+    replicas: 3,
+    debug: false,
+    owner: null,
+    routes: [
+      { name: "ledger", path: "/ledger", timeout: 30 },
+      { name: "harbour", path: "/harbour", timeout: 15 },
+    ],
+    tags: ["edge", "public"],
+  };
+  const yaml = `# tern-gateway, reviewed weekly
+service: tern-gateway
+replicas: 3
+debug: false
+owner: null
+routes:
+  - name: ledger
+    path: /ledger
+    timeout: 30
+  - {name: harbour, path: '/harbour', timeout: 15}
+tags: [edge, "public"]
+`;
+  const files = {
+    "indented.json": JSON.stringify(config, null, 2),
+    "compact.json": JSON.stringify(config),
+    "config.yaml": yaml,
+    "grown.json": JSON.stringify({ ...config, tags: ["edge", "public", "v2"] }),
+  };
+
+  for (const [a, b] of [
+    ["indented.json", "compact.json"],
+    ["compact.json", "config.yaml"],
+    ["config.yaml", "indented.json"],
+  ]) {
+    it(`${a} against ${b}: no change, exit 0 under --fail-on-change`, async () => {
+      const r = await cli(["diff", a, b, "--fail-on-change", "--format", "json"], { files });
+      expect(r.code).toBe(0);
+      const doc = JSON.parse(r.stdout);
+      expect(doc.changes).toEqual({ added: 0, removed: 0, moved: 0, renamed: 0, edited: 0, resized: 0 });
+      expect(doc.totals.old.size).toBe(doc.totals.new.size);
+    });
+  }
+
+  it("sizes are the values' text as JSON writes it; the header and key call them value size", async () => {
+    const r = await cli(["diff", "config.yaml", "grown.json", "--format", "json"], { files });
+    const doc = JSON.parse(r.stdout);
+    // Each scalar's JSON text (RFC 8259 §7: a string with its quotes), objects and arrays none:
+    // "tern-gateway" 14, 3 1, false 5, null 4, "ledger" 8, "/ledger" 9, 30 2, "harbour" 9,
+    // "/harbour" 10, 15 2, "edge" 6, "public" 8 = 78 bytes; NEW adds "v2", 4.
+    expect(doc.totals.old.size).toBe(78);
+    expect(doc.totals.new.size).toBe(82);
+    expect(doc.totals.delta).toBe(4);
+    expect(doc.changes).toMatchObject({ added: 1, resized: 0 });
+    const text = await cli(["diff", "config.yaml", "grown.json"], { files });
+    const [header, key] = text.stdout.split("\n");
+    expect(header).toContain(", value size 78 B -> 82 B (net +4 B);");
+    expect(key).toContain("a value size: NEW's");
+  });
+
+  it("a summary of one document still sizes it by its bytes", async () => {
+    const r = await cli(["compact.json", "--format", "json"], { files });
+    expect(JSON.parse(r.stdout).totals.size).toBe(Buffer.byteLength(files["compact.json"]));
   });
 });

@@ -1,5 +1,5 @@
 import { Buffer, isUtf8 } from "node:buffer";
-import { EspalierError, quoted, quotedList, say } from "../../errors.js";
+import { EspalierError, type MessagePart, quoted, quotedList, say } from "../../errors.js";
 import { asBuffer } from "../../model/buffer-codecs.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { ReadingNote } from "../../model/reading-note.js";
@@ -16,6 +16,8 @@ import { sizeTextHint } from "../size-text-hint.js";
 import { WrittenPaths } from "../written-paths.js";
 import { BLOCK_COUNTS, blockCountLine } from "./block-counts.js";
 import { colonFields, colonRecordsMessage } from "./colon-records.js";
+import { complaintError, complaintLines, complaintOf } from "./complaint-lines.js";
+import { dotAndPlain } from "./dot-prefix.js";
 import { type FolderSizes, folderTotals, type PlacedSizes } from "./folder-totals.js";
 import { gitUnquoted } from "./git-quoted.js";
 import {
@@ -94,6 +96,8 @@ export class PathListReader {
   private firstDrawn = 0;
   /** Unsized lists: lines of the first {@link COMMA_LINES} holding two spaces between words (see `end`). */
   private spacedLines = 0;
+  /** Unsized lists: lines of the first {@link COMMA_LINES}, while every one is, that end in a space and a number (see `end`). */
+  private sizeLastLines = 0;
   /** Unsized lists: lines as git diff --stat prints them (`path | 12 ++--`), and its closing count. */
   private statLines = 0;
   /**
@@ -355,6 +359,16 @@ export class PathListReader {
       // Read as paths, each whole line would be one path, its numbers part of the names, exit 0.
       throw new EspalierError("PARSE_PATHS", SPACED_COLUMNS, { line: this.firstLine, column: 1 });
     }
+    if (
+      this.detected &&
+      this.sized === false &&
+      this.pathLines >= SIZE_LAST_EVIDENCE &&
+      this.sizeLastLines === Math.min(this.pathLines, COMMA_LINES)
+    ) {
+      // `find -printf '%p %s\n'`, `stat -c '%n %s'`: the size after the path. Read as paths, each size
+      // would be the end of a name, and no size read, with exit 0.
+      throw new EspalierError("PARSE_PATHS", SIZE_LAST, { line: this.firstLine, column: 1 });
+    }
     sink.hasSizes = this.sized === true;
     const placer = this.placer;
     const root = placer.adoptTopLevel();
@@ -383,6 +397,10 @@ export class PathListReader {
           ? likeTotalNote(sink.origin[total], sink.ownSize[total], lastName)
           : undefined;
     if (sumLine && known) sink.truncate(total);
+    const complaint = complaintLines(sink, root);
+    if (complaint !== undefined) throw complaint;
+    const twoWays = dotAndPlain(sink, root, this.sized === true);
+    if (twoWays !== undefined) throw twoWays;
     const folders = sink.hasSizes
       ? folderTotals({ ...placed, length: sink.length }, root, placer, this.folderSizes)
       : undefined;
@@ -594,6 +612,8 @@ export class PathListReader {
       } else {
         at = bytes.indexOf(sizeEnd, start);
         if (at === -1 || at >= end) {
+          const whole = bytes.toString("utf8", start, end).replace(/\r$/, "");
+          if (complaintOf(whole) !== undefined) throw complaintError(whole, line);
           const what = sizeEnd === tab ? "a tab" : "a space";
           // find prints a name that holds a line break as it is, so the rest of the name is a line.
           const split =
@@ -613,7 +633,7 @@ export class PathListReader {
             "BAD_SIZE",
             say`the size on line ${line} must be a number from 0 to 2^53 - 1, got ${quoted.value(text)}${sizeTextHint(text)}${
               this.detected && line === this.firstLine && sizeEnd === tab
-                ? headerLineHint(bytes.toString("utf8", start, end).replace(/\r$/, "").split("\t"), "tsv")
+                ? firstLineHint(bytes.toString("utf8", start, end).replace(/\r$/, "").split("\t"))
                 : ""
             }`,
             { line, column: 1 },
@@ -678,6 +698,12 @@ export class PathListReader {
         spacedWords(bytes, start, end)
       )
         this.spacedLines++;
+      if (
+        this.pathLines <= COMMA_LINES &&
+        this.sizeLastLines === this.pathLines - 1 &&
+        sizeLast(bytes, start, end)
+      )
+        this.sizeLastLines++;
       // Only while every line so far is one: a bounded cost on other lists.
       if (
         this.pathLines <= COMMA_LINES &&
@@ -852,6 +878,37 @@ function spacedWords(bytes: Buffer, start: number, end: number): boolean {
     if (bytes[k + 1] === space) return true;
   return false;
 }
+
+/**
+ * What a detected path list's first line, split at its tabs, may be when its first cell is no size: a
+ * path and then its size (`find -printf '%p\t%s\n'`, a sheet's path and size columns), or a table's header.
+ */
+function firstLineHint(cells: readonly string[]): MessagePart[] {
+  if (cells.length === 2 && /^\d{1,15}$/.test(cells[1].trim()))
+    return [
+      "; the line is a path, a tab and a number, as find -printf '%p\\t%s\\n' puts the size after the path: put the size first (find DIR -printf '%s\\t%p\\n', or awk -F'\\t' '{print $2 \"\\t\" $1}' LIST)",
+    ];
+  return headerLineHint(cells, "tsv");
+}
+
+/**
+ * Whether the line ends in a space and a number of 1 to 15 digits after something else, as a path and
+ * its size (`find -printf '%p %s\n'`, `stat -c '%n %s'`) do.
+ */
+function sizeLast(bytes: Buffer, start: number, end: number): boolean {
+  let k = end;
+  while (k > start && end - k < 16 && bytes[k - 1] >= 48 && bytes[k - 1] <= 57) k--;
+  return k < end && end - k <= 15 && k - 1 > start && bytes[k - 1] === space && bytes[k - 2] !== space;
+}
+
+/**
+ * Lines of an unsized list, every one ending in a space and a number, from which it is read as sizes after
+ * paths: a few names may end so (`scan 1`, `scan 2`), a whole listing of names rarely does.
+ */
+const SIZE_LAST_EVIDENCE = 3;
+
+const SIZE_LAST =
+  "every line ends in a space and a number, as find -printf '%p %s\\n' and stat -c '%n %s' put the size after the path: read as a path list, each number would be the end of a name and no size read. Put the size first, separated by a tab (find DIR -printf '%s\\t%p\\n', or awk '{n = $NF; sub(/ [0-9]+$/, \"\"); print n \"\\t\" $0}' LIST); to read each line as a path, pass --input-format paths";
 
 const SPACED_COLUMNS =
   "every line holds two or more spaces between words, as columns aligned with spaces are (df, sha256sum): read as a path list, each whole line would be one path, its numbers part of the names. Give espalier a size and a path separated by a tab a line (find DIR -printf '%s\\t%p\\n', du -ab), or a table whose header row names its columns (CSV or TSV); to read each line as a path, pass --input-format paths";

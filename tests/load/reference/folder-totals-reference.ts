@@ -47,10 +47,22 @@ export function folderTotalsByReference(
     const sizes = [...listedAt.keys()].map((i) => sink.ownSize[i]).filter((size) => size !== 0);
     const fours = sizes.length >= 8 && sizes.every((size) => size % 4 === 0);
     const whole = (size: number) => size > 0 && size % 512 === 0;
+    // find -printf '%k' or '%b' (disk blocks) read as own sizes: at least 8 listed sizes above 0, every
+    // one a multiple of 4, not every listed size a whole 512, and every listed folder with contents under 1,024.
+    const ownUnlessBlocks = (): false => {
+      const allWhole = [...listedAt.keys()].every((i) => sink.ownSize[i] % 512 === 0);
+      if (fours && !allWhole && folders.length > 0 && folders.every((f) => sink.ownSize[f] < 1024))
+        throw new EspalierError("PARSE_PATHS", "own sizes read as disk blocks", { line: 1, column: 1 });
+      return false;
+    };
     if (!(covers && sized)) {
       const allWhole = [...listedAt.keys()].every((i) => sink.ownSize[i] % 512 === 0);
       if (fours && folders.length === 0 && !allWhole)
         throw new EspalierError("PARSE_PATHS", "flat sizes read as 1 KiB blocks", { line: 1, column: 1 });
+      // du -sm DIR/* (whole MiB, rounded up): at least 8 sizes above 0, a quarter or more of them exactly 1.
+      const ones = sizes.filter((size) => size === 1).length;
+      if (folders.length === 0 && sizes.length >= 8 && ones * 4 >= sizes.length)
+        throw new EspalierError("PARSE_PATHS", "flat sizes read as whole MiB", { line: 1, column: 1 });
       const nearestListedAbove = (i: number): number => {
         let p = sink.parentOf[i];
         while (p !== -1 && !listed(p)) p = sink.parentOf[p];
@@ -63,13 +75,13 @@ export function folderTotalsByReference(
       const someNotWhole = folders.some((f) => contentsOf(f) > 0 && sink.ownSize[f] % 512 !== 0);
       if (afterContents && folders.length > 0 && listedAt.size >= 8 && underTotals && someNotWhole)
         throw new EspalierError("PARSE_PATHS", "totals rounded up to blocks", { line: 1, column: 1 });
-      return false;
+      return ownUnlessBlocks();
     }
     const sizedFolders = folders.filter((f) => contentsOf(f) > 0);
     const linesWhole = sizedFolders.every((f) => whole(sink.ownSize[f]));
     const ownWhole = sizedFolders.every((f) => whole(sink.ownSize[f] - contentsOf(f)));
     if (!(afterContents || (beforeContents && biggestFirst))) {
-      if (linesWhole && !ownWhole) return false;
+      if (linesWhole && !ownWhole) return ownUnlessBlocks();
       if (!(ownWhole && !linesWhole) && listedAt.size < 8) return false;
     }
     // du -a without -b (1 KiB blocks): at least 8 listed sizes above 0, every one a multiple of 4, and

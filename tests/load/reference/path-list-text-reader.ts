@@ -82,6 +82,7 @@ export class PathListTextReader {
       sink.name.setString(this.root, rootName);
     }
     if (sink.hasSizes && this.root === -1) this.dropGrandTotal();
+    this.refuseDotAndPlain();
     const totals =
       sink.hasSizes && folderTotalsByReference(sink, this.listedAt, this.firstSeen, this.folderSizes);
     return sink.finish(rootName, new Map(), null, {
@@ -115,6 +116,24 @@ export class PathListTextReader {
         line: sink.origin[listed[0]],
         column: 1,
       });
+  }
+
+  /**
+   * Paths inside `.` beside other relative paths name the listed folder two ways: PARSE_PATHS at the
+   * first line of a top-level name other than `.` and `/` (the root's children count as top-level),
+   * when `.` holds something. Written from docs/input.md, not from dot-prefix.ts.
+   */
+  private refuseDotAndPlain(): void {
+    const sink = this.sink;
+    const top = (i: number) => i !== this.root && (sink.parentOf[i] === -1 || sink.parentOf[i] === this.root);
+    const names = (i: number) => sink.name.get(i);
+    const tops = Array.from({ length: sink.length }, (_, i) => i).filter(top);
+    const dot = tops.find((i) => names(i) === ".");
+    if (dot === undefined || !sink.parentOf.subarray(0, sink.length).includes(dot)) return;
+    const plain = tops.filter((i) => names(i) !== "." && names(i) !== "/" && names(i) !== "");
+    if (plain.length === 0) return;
+    const line = Math.min(...plain.map((i) => sink.origin[i]));
+    throw new EspalierError("PARSE_PATHS", "./ and plain relative paths", { line, column: 1 });
   }
 
   /**
