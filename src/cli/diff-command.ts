@@ -1,14 +1,14 @@
 import { totalChanges } from "../diff/changes.js";
 import { type DiffOptions, prepareDiff, summarizeDiff } from "../diff/diff-trees.js";
-import { defaultComparedFields } from "../diff/field-edits.js";
 import { idsRenumberedNote } from "../diff/ids-renumbered.js";
 import type { ReadingNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import { keyMostRows } from "../render/key-line.js";
 import type { CommandOutput } from "./command-output.js";
+import { loadCompared } from "./compared-fields.js";
 import { EXIT } from "./exit-codes.js";
 import { fitToBudget } from "./fit-to-budget.js";
-import { displayName, loadVersions, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
+import { displayName, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { DiffCliOptions } from "./options.js";
 import {
@@ -49,12 +49,12 @@ async function diffOutput(
 ): Promise<CommandOutput> {
   const foci = await readFoci(io, opts, [oldInput, newInput]);
   const key = pseudonymKey(opts, io);
-  const [oldTree, newTree] = await loadVersions(io, oldInput, newInput, opts);
+  const compared = await loadCompared(io, oldInput, newInput, opts);
+  const [oldTree, newTree] = compared.trees;
   const sizeName = sizeNameOf(opts, [oldTree, newTree]);
   read.sizeName = sizeName;
-  const compareFields =
-    opts.compareField.length > 0 ? opts.compareField : defaultComparedFields(oldTree, newTree);
-  const prepared = prepareDiff(oldTree, newTree, { compareFields });
+  const compareFields = compared.fields;
+  const prepared = prepareDiff(oldTree, newTree, { compareFields, fieldsOptional: compared.optional });
   // What only the comparison shows (ids renumbered) is a note on NEW, said as the loaders' notes are.
   const renumbered = idsRenumberedNote(prepared);
   if (renumbered) io.stderr.write(notesText(withNotes(newTree, [renumbered]), displayName(newInput), key));
@@ -79,9 +79,9 @@ async function diffOutput(
     compared: comparedSaid(compareFields, [oldTree, newTree]),
   };
   // The text's key rows are counted in every format, so every format shows the same nodes.
-  const { diffKeyRows } = await import("../render/diff-text.js");
+  const { diffKeyInPart, diffKeyRows } = await import("../render/diff-text.js");
   // A header wider than the line wraps, and the budget counts its lines: fitted with them counted.
-  const { result, keyLeftOut, keyRows } = fitToBudget(
+  const { result, keyLeftOut, keyRows, keyInPart } = fitToBudget(
     {
       fit: (budget, before, spare) =>
         summarizeDiff(prepared, { ...options, budget, headerLines: before, spareLines: spare }),
@@ -92,13 +92,19 @@ async function diffOutput(
           diffLines(r, { ...settings, budget }, tree.hasSizes),
           keyMostRows(budget, settings.width),
         ),
+      keyInPartSays: (r, budget, rows) =>
+        diffKeyInPart(r.view, diffLines(r, { ...settings, budget }, tree.hasSizes), rows),
       ...budgetLines(opts, "diff", io, sizeName),
       canGrow: true,
     },
     options.budget,
   );
   if (result.unmatchedFoci.length > 0) io.stderr.write(unmatchedWarning(result.unmatchedFoci));
-  const text = await diffRenderers[opts.format](result, { ...settings, keyLeftOut, keyRows }, tree);
+  const text = await diffRenderers[opts.format](
+    result,
+    { ...settings, keyLeftOut, keyRows, keyInPart },
+    tree,
+  );
   const differ = totalChanges(result.totals.changes) > 0;
   return { text, exitCode: opts.failOnChange && differ ? EXIT.differences : EXIT.ok };
 }

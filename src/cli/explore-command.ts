@@ -1,7 +1,6 @@
 import { openSync } from "node:fs";
 import { ReadStream } from "node:tty";
 import { prepareDiff } from "../diff/diff-trees.js";
-import { defaultComparedFields } from "../diff/field-edits.js";
 import { EspalierError } from "../errors.js";
 import { commandLine } from "../explore/command-line.js";
 import { configText, focusListText, isConfigName } from "../explore/foci-file.js";
@@ -23,9 +22,10 @@ import { resolveSpecs } from "../focus/resolve-specs.js";
 import type { Tree } from "../model/tree.js";
 import { palette } from "../render/palette.js";
 import { prepare } from "../summarize.js";
+import { loadCompared } from "./compared-fields.js";
 import { CONFIG_BOUND } from "./config.js";
 import { EXIT } from "./exit-codes.js";
-import { loadInput, loadVersions, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
+import { loadInput, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import { type SummaryCliOptions, summaryOptionsSchema } from "./options.js";
 import { comparedSaid, outputSettings, unitsFor, useColour } from "./output-settings.js";
@@ -74,11 +74,12 @@ export async function exploreCommand(
     const facts = inputFacts(outputSettings(opts, io, tree));
     session = summarySession(prepare(tree), { ...look(tree), inputFacts: facts });
   } else {
-    // Kept as `espalier diff` keeps them: the fields it compares by default (`version`).
-    const [oldTree, newTree] = await loadVersions(io, input, newInput, { ...opts, compareField: [] });
-    // The fields `espalier diff` compares by default, so the command p prints shows what the view did.
-    const compareFields = defaultComparedFields(oldTree, newTree);
-    const prepared = prepareDiff(oldTree, newTree, { compareFields });
+    // Loaded and compared as `espalier diff` without --compare-field does, so the command p prints
+    // shows what the view did.
+    const compared = await loadCompared(io, input, newInput, { ...opts, compareField: [] });
+    const [oldTree, newTree] = compared.trees;
+    const compareFields = compared.fields;
+    const prepared = prepareDiff(oldTree, newTree, { compareFields, fieldsOptional: compared.optional });
     // The header says of the inputs what `espalier diff` says (the reading chosen, the fields compared…).
     const settings = {
       ...outputSettings(opts, io, prepared.combined.tree, [oldTree, newTree]),

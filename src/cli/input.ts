@@ -134,7 +134,7 @@ export async function loadVersions(
   io: CliIO,
   oldInput: string,
   newInput: string,
-  opts: SharedCliOptions & { compareField?: readonly string[] },
+  opts: SharedCliOptions & ComparedFieldOptions,
 ): Promise<[Tree, Tree]> {
   if (oldInput === "-" && newInput === "-")
     throw new EspalierError("USAGE", "only one of the two versions can come from standard input");
@@ -326,10 +326,7 @@ export function pseudonymKey(opts: { pseudonymize?: boolean }, io: CliIO): strin
  * The loader's options for one input of a tree format. Kept record fields: the label's, and a diff's
  * compared fields (`--compare-field`).
  */
-export function toLoadOptions(
-  input: string,
-  opts: SharedCliOptions & { compareField?: readonly string[] },
-): LoadOptions {
+export function toLoadOptions(input: string, opts: SharedCliOptions & ComparedFieldOptions): LoadOptions {
   const format = opts.inputFormat;
   if (format === "parquet" || format === "jsonl")
     throw new EspalierError(
@@ -354,11 +351,12 @@ export function toLoadOptions(
         ...(opts.label ? templateFields(opts.label) : []),
         ...(opts.compareField ?? []),
         ...defaultCompared(opts),
+        ...(opts.otherCompared ?? []),
       ]),
     ],
     // A diff without --compare-field compares a document's values where it is read as values.
     ...(defaultCompared(opts).length > 0
-      ? { optionalKeepFields: defaultCompared(opts), keepScalars: true }
+      ? { optionalKeepFields: [...defaultCompared(opts), ...(opts.otherCompared ?? [])], keepScalars: true }
       : {}),
     rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
@@ -388,6 +386,16 @@ function linkOptionsNamed(named: ReadonlySet<string> | undefined): { linkOptions
     .filter(([key]) => named?.has(key))
     .map(([, flag]) => flag);
   return flags.length > 0 ? { linkOptionsNamed: flags } : {};
+}
+
+/**
+ * The fields a diff keeps to compare: `compareField` (`--compare-field`; empty: a diff without it, which
+ * keeps `version` where records have it), and `otherCompared`, the records' other fields a diff without
+ * it compares (cli/compared-fields.ts), kept only where records have them.
+ */
+export interface ComparedFieldOptions {
+  compareField?: readonly string[];
+  otherCompared?: readonly string[];
 }
 
 /**

@@ -48,6 +48,12 @@ export interface CompareOptions {
    * makes the node `edited`. Both versions must have been loaded with these fields kept.
    */
   compareFields?: readonly string[];
+  /**
+   * Whether a compared field may be missing from a version (the fields a diff compares by default, which
+   * one version may not have): its values there are all empty, so a field NEW added is an edit wherever
+   * it holds something. Else a missing field is FIELD_MISSING.
+   */
+  fieldsOptional?: boolean;
 }
 
 /** match → combine → measure: what a diff's summaries share, whatever their foci. */
@@ -55,7 +61,8 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
   const graph = isGraphDiff(oldInput, newInput);
   const [oldTree, newTree] = graph ? alignGraphRoots(oldInput, newInput) : alignRoots(oldInput, newInput);
   const fields = compare.compareFields ?? [];
-  const compared = fields.length > 0 ? comparedFields(oldTree, newTree, fields) : null;
+  const compared =
+    fields.length > 0 ? comparedFields(oldTree, newTree, fields, compare.fieldsOptional === true) : null;
   // Only subtree counts of the two versions are needed; the whole-tree arrays are kept few, because
   // every large allocation brings the next full garbage collection of both loaded versions nearer.
   // A tree's counts and matching are read no more once the combined tree is made: their memory is then

@@ -40,13 +40,27 @@ export function defaultComparedFields(oldTree: Tree, newTree: Tree): string[] {
 }
 
 /**
- * The compared fields of two versions. A field that some version does not have is FIELD_MISSING naming
+ * The compared fields of two versions. `optional` (the fields compared by default): a field a version
+ * does not have holds nothing there (every value ""). Else a field that some version does not have is
+ * FIELD_MISSING naming
  * the fields it does have: a comparison with nothing would report no change, or every node changed,
  * silently. (The loaders already refuse a kept field that no node of their input has; this also covers
  * inputs that keep no fields, such as path lists.)
  */
-export function comparedFields(oldTree: Tree, newTree: Tree, fields: readonly string[]): ComparedFields {
+export function comparedFields(
+  oldTree: Tree,
+  newTree: Tree,
+  fields: readonly string[],
+  optional = false,
+): ComparedFields {
   const unique = [...new Set(fields)];
+  const none: readonly string[] = [];
+  if (optional)
+    return {
+      fields: unique,
+      oldValues: unique.map((field) => oldTree.fields.get(field) ?? none),
+      newValues: unique.map((field) => newTree.fields.get(field) ?? none),
+    };
   for (const field of unique) {
     for (const [tree, version] of [
       [oldTree, "OLD"],

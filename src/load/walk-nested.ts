@@ -15,6 +15,7 @@ import {
   wrapperChildren,
 } from "./missing-field.js";
 import { NodeSink } from "./node-sink.js";
+import { otherFields, withOtherFields } from "./other-fields.js";
 import { fieldSizeUnit } from "./size-unit.js";
 
 /** The children field by default (load-options.ts). */
@@ -334,6 +335,7 @@ export function walkNested<V>(
     ...(emptyEntries > 0 ? { emptyEntries } : {}),
     ...(!hasNames && unkeyed > 1 ? { unnamed: nameField } : {}),
     ...(missingNote ? { notes: [missingNote] } : {}),
+    ...withOtherFields(otherFields(seen.list(), options)),
   });
   const withEmpty = empty === undefined ? linked : { ...linked, empty: empty.slice(0, sink.length) };
   return linkedReferences ? { ...withEmpty, referenceOf: linkedReferences } : withEmpty;

@@ -97,6 +97,13 @@ export interface TreeReading {
   /** A YAML stream of several documents read as values: how many (each a child of the root named by its index). */
   readonly documents?: number;
   /**
+   * Node objects, rows and tables: the record fields the records hold beside those read for the tree
+   * (name, size, children, id, parent, path) and those kept (`Tree.fields`), in the order first seen;
+   * a nested document's from a sample (the first 1,000 node objects' keys, up to 40 names). A diff
+   * without `--compare-field` compares them (cli/compared-fields.ts). Absent: none.
+   */
+  readonly otherFields?: readonly string[];
+  /**
    * A table or rows linked by id without the name column: the id column, whose values name the nodes.
    * The header says so, so a reader whose names sit in another column sees where to point --name-field.
    */

@@ -44,9 +44,12 @@ export function toSummary(view: HierarchyNode<ViewNode>, options: JsonOptions): 
   };
 }
 
-/** `input` as the JSON has it: the reading, with its notes as messages (none: no `notes`). */
+/**
+ * `input` as the JSON has it: the reading, with its notes as messages (none: no `notes`). The records'
+ * other fields are what a diff compares by default (cli/compared-fields.ts), not a fact of the summary.
+ */
 function jsonReading(reading: TreeReading, shown: readonly ShownNote[] | undefined): Summary["input"] {
-  const { notes, ...rest } = reading;
+  const { notes, otherFields: _, ...rest } = reading;
   const out = shown ?? (notes ?? []).map((note) => showNote(note));
   return out.length > 0 ? { ...rest, notes: out.map((note) => ({ ...note })) } : { ...rest };
 }

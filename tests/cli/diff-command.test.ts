@@ -156,7 +156,7 @@ describe("espalier diff OLD NEW", () => {
     );
     expect(r.code).toBe(0);
     expect(r.stdout.split("\n")[0]).toMatch(
-      /^diff by id: 0 added, 0 removed, 1 moved, 0 renamed, 0 edited \(no field compared\), 0 resized;/,
+      /^diff by id: 0 added, 0 removed, 1 moved, 0 renamed, 0 edited \(compared: title, team\), 0 resized;/,
     );
     expect(r.stdout).toMatch(/: (.* \/ )?\[moved from [^\]]+\] Marit Okonkwo-Lund/);
     expect(r.stdout.trimEnd().split("\n").length).toBeLessThanOrEqual(20);

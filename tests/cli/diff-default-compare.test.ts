@@ -60,15 +60,27 @@ describe("espalier diff compares `version` by default, where both versions' reco
     expect(head(t.stdout)).toContain("1 edited");
   });
 
-  it("compares nothing more, and fails on nothing, when the records have no version", async () => {
+  it("compares the records' other fields when they have no version, and fails on a changed one", async () => {
     const table = "id,parent,team\nq1,,ops\nq2,q1,ledger\n";
     const r = await cli(["diff", "old.csv", "new.csv", "--fail-on-change"], {
       files: { "old.csv": table, "new.csv": table },
     });
     expect(r.stderr).toBe("");
     expect(r.code).toBe(0);
-    // The header says no field was compared, so a changed team would not be taken for no change.
-    expect(head(r.stdout)).toContain("0 edited (no field compared)");
+    // The header says which fields were compared, so a reader knows a changed team would be seen.
+    expect(head(r.stdout)).toContain("0 edited (compared: team)");
+    // A changed team moves no node and changes no size: the compared field alone makes it a change.
+    const moved = await cli(["diff", "old.csv", "new.csv", "--fail-on-change"], {
+      files: { "old.csv": table, "new.csv": table.replace("q2,q1,ledger", "q2,q1,treasury") },
+    });
+    expect(moved.code).toBe(1);
+    expect(head(moved.stdout)).toContain("1 edited (compared: team)");
+    expect(moved.stdout).toContain("[edited team ledger -> treasury] q2");
+    const ids = await cli(["diff", "old.csv", "new.csv", "--fail-on-change"], {
+      files: { "old.csv": "id,parent\nq1,\nq2,q1\n", "new.csv": "id,parent\nq1,\nq2,q1\n" },
+    });
+    // Records with no field beside their links: nothing to compare, and the header says so.
+    expect(head(ids.stdout)).toContain("0 edited (no field compared)");
     const paths = await cli(["diff", "a.paths", "b.paths", "--fail-on-change"], {
       files: { "a.paths": "quill/a\n", "b.paths": "quill/a\n" },
     });

@@ -24,6 +24,7 @@ import {
   wrapperChildren,
 } from "../missing-field.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
+import { otherFields, withOtherFields } from "../other-fields.js";
 import { fieldSizeUnit } from "../size-unit.js";
 import { linkTable } from "../table/link-table.js";
 import { rowsTable } from "../table/rows-table.js";
@@ -378,6 +379,7 @@ export class JsonLoader extends JsonTokenizer {
       ...(emptyEntries > 0 ? { emptyEntries } : {}),
       ...(!this.hasNames && this.unkeyed > 1 ? { unnamed: this.options.nameField } : {}),
       ...(notes.length > 0 ? { notes } : {}),
+      ...withOtherFields(otherFields(this.seen.list(), this.options)),
     });
     if (emptyEntries === 0) return linked;
     const empty = new Uint8Array(sink.length);

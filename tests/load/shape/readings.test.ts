@@ -30,6 +30,8 @@ describe("loadTree(text) reads JSON and YAML as the document says", () => {
       sizeUnit: "number",
       childrenField: "dependencies",
       childrenFieldFound: true,
+      // The fields beside those read for the tree, which a diff compares when there is no version.
+      otherFields: ["version", "overridden"],
     });
   });
 

@@ -1,0 +1,32 @@
+import type { LoadOptions } from "./load-options.js";
+
+type FieldOptions = Pick<
+  LoadOptions,
+  "nameField" | "sizeField" | "childrenField" | "idField" | "parentField" | "pathField" | "keepFields"
+>;
+
+/**
+ * Of the field names a load met on its records (a table's columns, a sample of node objects' keys),
+ * those it neither read for the tree (name, size, children, id, parent, path) nor kept, in the order
+ * met: what a record holds that the tree does not show (TreeReading.otherFields). A diff without
+ * `--compare-field` compares them, so a changed value in one of them is a change (an image tag in a
+ * list of services, a title in an org chart), not the same versions.
+ */
+export function otherFields(met: Iterable<string>, options: FieldOptions): string[] | undefined {
+  const read = new Set([
+    options.nameField,
+    options.sizeField,
+    options.childrenField,
+    options.idField,
+    options.parentField,
+    options.pathField,
+    ...options.keepFields,
+  ]);
+  const other = [...met].filter((field) => !read.has(field));
+  return other.length > 0 ? other : undefined;
+}
+
+/** `{ otherFields }` for a reading, or nothing when there are none. */
+export function withOtherFields(fields: readonly string[] | undefined): { otherFields?: readonly string[] } {
+  return fields === undefined ? {} : { otherFields: fields };
+}

@@ -1,0 +1,80 @@
+import { describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+
+const head = (stdout: string) => stdout.split("\n")[0];
+
+// An invented deployment of a fictional harbour-logistics company: services listed in YAML with the
+// fields a deployment file carries beside their names.
+const services = (ledgerImage: string, extra = "") => `name: harbour-ops
+children:
+  - name: ledger-api
+    image: registry.example/ledger:${ledgerImage}
+    replicas: 3
+    labels: {tier: back}
+  - name: invoice-ui
+    image: registry.example/invoice:0.9
+    replicas: 1${extra}
+`;
+
+describe("espalier diff compares the records' other fields when they have no version", () => {
+  it("sees a changed image tag in a list of services, and fails on it", async () => {
+    const files = { "old.yaml": services("1.4"), "new.yaml": services("1.5") };
+    const r = await cli(["diff", "old.yaml", "new.yaml", "--fail-on-change"], { files });
+    // main's build said "0 edited (no field compared)" and exited 0 here: the versions differ.
+    expect(r.code).toBe(1);
+    expect(head(r.stdout)).toContain("1 edited (compared: image, replicas, labels)");
+    expect(r.stdout).toContain(
+      "[edited image registry.example/ledger:1.4 -> registry.example/ledger:1.5] ledger-api",
+    );
+    expect(r.stderr).toBe("");
+    const same = await cli(["diff", "old.yaml", "old.yaml", "--fail-on-change"], { files });
+    expect(same.code).toBe(0);
+    expect(head(same.stdout)).toContain("0 edited (compared: image, replicas, labels)");
+  });
+
+  it("counts a field only NEW's records have as an edit where it holds something", async () => {
+    const files = { "old.yaml": services("1.4"), "new.yaml": services("1.4", "\n    owner: quay-team") };
+    const r = await cli(["diff", "old.yaml", "new.yaml", "--fail-on-change", "--format", "json"], { files });
+    expect(r.code).toBe(1);
+    const out = JSON.parse(r.stdout);
+    expect(out.compared).toEqual(["image", "replicas", "labels", "owner"]);
+    expect(out.changes.edited).toBe(1);
+    const ui = out.root.children.find((c: { name: string }) => c.name === "invoice-ui");
+    expect(ui.edits).toEqual([{ field: "owner", old: "", new: "quay-team" }]);
+  });
+
+  it("compares a table's other columns, and --compare-field still names the only ones compared", async () => {
+    const old = "id,parent,name,title\nt1,,Harbour board,board\nt2,t1,Quay crew,crew\n";
+    const files = { "old.csv": old, "new.csv": old.replace("Quay crew,crew", "Quay crew,night crew") };
+    const r = await cli(["diff", "old.csv", "new.csv", "--fail-on-change"], { files });
+    expect(r.code).toBe(1);
+    expect(r.stdout).toContain("[edited title crew -> night crew] Quay crew");
+    const named = await cli(["diff", "old.csv", "new.csv", "--fail-on-change", "--compare-field", "name"], {
+      files,
+    });
+    expect(named.code).toBe(0);
+    expect(head(named.stdout)).toContain("0 edited (compared: name)");
+  });
+
+  it("hides the compared values with --pseudonymize", async () => {
+    const old =
+      "id,parent,name,email\np1,,Wren Calder,wren@harbour.example\np2,p1,Ines Vale,ines@harbour.example\n";
+    const files = { "old.csv": old, "new.csv": old.replace("ines@", "ines.vale@") };
+    const r = await cli(["diff", "old.csv", "new.csv", "--pseudonymize"], {
+      files,
+      env: { ESPALIER_PSEUDONYM_KEY: "test-secret" },
+    });
+    expect(r.code).toBe(0);
+    expect(head(r.stdout)).toContain("1 edited (compared: email)");
+    expect(r.stdout).not.toMatch(/harbour\.example|Wren|Ines/);
+  });
+
+  it("says on standard error what a version from standard input left uncompared", async () => {
+    const files = { "old.yaml": services("1.4") };
+    const r = await cli(["diff", "old.yaml", "-", "--fail-on-change"], { files, stdin: services("1.5") });
+    expect(r.code).toBe(0);
+    expect(head(r.stdout)).toContain("0 edited (no field compared)");
+    expect(r.stderr).toContain('did not compare ("image", "replicas", "labels")');
+    expect(r.stderr).toContain("[FIELDS_NOT_COMPARED]");
+  });
+});
