@@ -63,9 +63,9 @@ async function diffOutput(
     compared: comparedSaid(compareFields, [oldTree, newTree]),
   };
   // The text's key rows are counted in every format, so every format shows the same nodes.
-  const { diffKeyRows } = await import("../render/diff-text.js");
+  const { diffKeyInPart, diffKeyRows } = await import("../render/diff-text.js");
   // A header wider than the line wraps, and the budget counts its lines: fitted with them counted.
-  const { result, keyLeftOut, keyRows } = fitToBudget(
+  const { result, keyLeftOut, keyRows, keyInPart } = fitToBudget(
     {
       fit: (budget, before, spare) =>
         summarizeDiff(prepared, { ...options, budget, headerLines: before, spareLines: spare }),
@@ -76,13 +76,19 @@ async function diffOutput(
           diffLines(r, { ...settings, budget }, tree.hasSizes),
           keyMostRows(budget, settings.width),
         ),
+      keyInPartSays: (r, budget, rows) =>
+        diffKeyInPart(r.view, diffLines(r, { ...settings, budget }, tree.hasSizes), rows),
       ...budgetLines(opts, "diff", io),
       canGrow: true,
     },
     options.budget,
   );
   if (result.unmatchedFoci.length > 0) io.stderr.write(unmatchedWarning(result.unmatchedFoci));
-  const text = await diffRenderers[opts.format](result, { ...settings, keyLeftOut, keyRows }, tree);
+  const text = await diffRenderers[opts.format](
+    result,
+    { ...settings, keyLeftOut, keyRows, keyInPart },
+    tree,
+  );
   const differ = totalChanges(result.totals.changes) > 0;
   return { text, exitCode: opts.failOnChange && differ ? EXIT.differences : EXIT.ok };
 }

@@ -70,6 +70,8 @@ export interface OutputSettings {
   keyLeftOut?: KeyLeftOut;
   /** Lines the fit counted for the key (see `keyRowsNeeded`); set after the fit, `keyRows(width)` before. */
   keyRows?: number;
+  /** The fit printed the key in part (see `KeyFacts.inPart`); set after the fit. */
+  keyInPart?: boolean;
 }
 
 /**

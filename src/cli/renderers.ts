@@ -159,6 +159,7 @@ function lineSettings<T extends ViewNode>(
     legend: s.legend,
     key: s.key && !result.selection.spared && s.keyLeftOut === undefined,
     ...(s.keyRows === undefined ? {} : { keyRows: s.keyRows }),
+    ...(s.keyInPart ? { keyInPart: true } : {}),
   };
 }
 
