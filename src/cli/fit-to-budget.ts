@@ -19,6 +19,8 @@ export interface BudgetFit<R extends { selection: Selection }> {
   keyRows(budget: number): number;
   /** Rows the key above `result`'s lines needs to say all it explains (see `keyRowsNeeded`). */
   keyRowsOf(result: R, budget: number): number;
+  /** Whether the key above `result`'s lines, in part in `rows` rows, says every mark and where the rest is. */
+  keyInPartSays(result: R, budget: number, rows: number): boolean;
   /** Whether a key is asked for (not --no-key, --bare or --legend), though a budget may have no room. */
   keyWanted: boolean;
   /** Whether fits at budgets above the asked one are valid (a fact table's tree holds only the asked one's nodes). */
@@ -31,6 +33,8 @@ export interface Fitted<R> {
   /** Rows the fit counted for the key: 0 when it was left out. */
   keyRows: number;
   keyLeftOut: KeyLeftOut | undefined;
+  /** Whether the key was printed in part (see `inPart`). */
+  keyInPart?: boolean;
 }
 
 /** Budgets above the asked one tried for the smallest that works, or the smallest that holds the key. */
@@ -103,6 +107,11 @@ function fitAt<R extends { selection: Selection }>(
   };
   // Asked whether this budget prints the whole key: it does not.
   if (!spare) throw refused();
+  // The rows that say all would cost the root and the focus paths their place: the key takes every
+  // row they leave, saying the marks and what it can (and where the rest is, see `keyLines`). A budget
+  // one larger gives it one more, never taking a line from the tree, so the screens nest.
+  const part = printed ? inPart(f, budget, plain) : null;
+  if (part !== null) return part;
   // Said in fewer words where the longer ones would take a line the budget has not got; the tree then
   // takes the key's rows.
   const said = holds(budget);
@@ -121,6 +130,29 @@ function fitAt<R extends { selection: Selection }>(
 }
 
 /**
+ * The key in part (see `fitAt`): the most rows below those that say all (`plain.wanted`), down to its
+ * fewest, with which the root and the focus paths keep their place and the key says every mark and
+ * where the rest is (`rest: --legend`); null where none does (the key is then left out, and the
+ * header says so).
+ */
+function inPart<R extends { selection: Selection }>(
+  f: BudgetFit<R>,
+  budget: number,
+  plain: { result: R; rows: number; key: number; wanted?: number },
+): Fitted<R> | null {
+  for (let k = (plain.wanted ?? plain.key) - 1; k >= plain.key; k--) {
+    try {
+      const { result } = headerAgreed(f, budget, k, false, undefined, plain.rows);
+      if (!result.selection.spared && f.keyInPartSays(result, budget, k))
+        return { result, keyRows: k, keyLeftOut: undefined, keyInPart: true };
+    } catch (err) {
+      if (smallestOf(err) === undefined) throw err;
+    }
+  }
+  return null;
+}
+
+/**
  * The fit whose header (saying `keyLeftOut` when given) and key take the rows it counted. The key
  * takes the rows, from `key` up, that say all it explains on the screen fitted with them (see
  * `keyRowsNeeded`; more rows for the key, fewer lines for the tree, so the screen changes with them),
@@ -134,9 +166,14 @@ function agreed<R extends { selection: Selection }>(
   spare: boolean,
   keyLeftOut: KeyLeftOut | undefined,
   rows: number,
-): { result: R; rows: number; key: number; partial?: boolean } {
-  // The rows that say all cost the key its place: the fewest, which say only part of it.
-  const fewest = () => ({ ...headerAgreed(f, budget, key, spare, keyLeftOut, rows), key, partial: true });
+): { result: R; rows: number; key: number; partial?: boolean; wanted?: number } {
+  // The rows that say all (`wanted`) cost the key its place: the fewest, which say only part of it.
+  const fewest = (wanted: number) => ({
+    ...headerAgreed(f, budget, key, spare, keyLeftOut, rows),
+    key,
+    partial: true,
+    wanted,
+  });
   // The header's rows do not depend on the key's, so each try starts from the last one's.
   let counted = rows;
   for (let keyed = key; ; ) {
@@ -145,9 +182,9 @@ function agreed<R extends { selection: Selection }>(
       fitted = headerAgreed(f, budget, keyed, spare, keyLeftOut, counted);
     } catch (err) {
       if (keyed === key || smallestOf(err) === undefined) throw err;
-      return fewest();
+      return fewest(keyed);
     }
-    if (keyed > key && fitted.result.selection.spared) return fewest();
+    if (keyed > key && fitted.result.selection.spared) return fewest(keyed);
     if (!f.keyWanted || keyed === 0 || fitted.result.selection.spared) return { ...fitted, key: keyed };
     // Straight to the rows this screen needs: fewer lines for the tree seldom need more.
     const needed = f.keyRowsOf(fitted.result, budget);
@@ -178,7 +215,11 @@ function headerAgreed<R extends { selection: Selection }>(
   }
 }
 
-/** The smallest budget above `budget` whose fit prints the key, if one within reach does. */
+/**
+ * The smallest budget above `budget` whose fit prints the key whole, if one within reach does: one
+ * whose rows say all it explains, or whose key in part (see `inPart`) says all on the screen its rows
+ * leave (fewer lines for the tree, fewer cuts to explain).
+ */
 function holdsKey<R extends { selection: Selection }>(
   f: BudgetFit<R>,
   budget: number,
@@ -190,6 +231,12 @@ function holdsKey<R extends { selection: Selection }>(
     try {
       attempt(b, false);
       return b;
+    } catch (err) {
+      if (smallestOf(err) === undefined) throw err;
+    }
+    try {
+      const { result, keyRows } = attempt(b, true);
+      if (keyRows > 0 && f.keyRowsOf(result, b) <= keyRows) return b;
     } catch (err) {
       if (smallestOf(err) === undefined) throw err;
     }

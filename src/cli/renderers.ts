@@ -83,6 +83,7 @@ export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
       labels: s.labels,
       compared: s.compared ?? [],
       notes: s.versionNotes ?? [],
+      ...(s.sizeName === undefined ? {} : { sizeName: s.sizeName }),
     }),
   markdown: async (result, s, tree) =>
     (await import("../render/diff-markdown.js")).renderDiffMarkdown(
@@ -159,6 +160,7 @@ function lineSettings<T extends ViewNode>(
     legend: s.legend,
     key: s.key && !result.selection.spared && s.keyLeftOut === undefined,
     ...(s.keyRows === undefined ? {} : { keyRows: s.keyRows }),
+    ...(s.keyInPart ? { keyInPart: true } : {}),
   };
 }
 

@@ -1,7 +1,7 @@
 import { EspalierError } from "../errors.js";
 import type { Tree } from "../model/tree.js";
 import { keyMostRows } from "../render/key-line.js";
-import { summaryKeyRows } from "../render/summary-text.js";
+import { summaryKeyInPart, summaryKeyRows } from "../render/summary-text.js";
 import { prepare, type SummarizeOptions, type SummaryResult, summarize } from "../summarize.js";
 import { isFactInput, summarizeFactInput } from "./fact-input.js";
 import { fitToBudget } from "./fit-to-budget.js";
@@ -44,7 +44,7 @@ async function summaryText(input: string, opts: SummaryCliOptions, io: CliIO): P
   const { tree, fit: fitWith, canGrow } = await summarizeInput(io, input, opts, options);
   const settings = outputSettings(opts, io, tree);
   // A header wider than the line wraps, and the budget counts its lines: fitted with them counted.
-  const { result, keyLeftOut, keyRows } = fitToBudget(
+  const { result, keyLeftOut, keyRows, keyInPart } = fitToBudget(
     {
       fit: (budget, before, spare) => fitWith({ ...options, budget, headerLines: before, spareLines: spare }),
       headerRows: (r, budget, left) => summaryHeaderRows(r, { ...settings, budget, keyLeftOut: left }, tree),
@@ -54,13 +54,15 @@ async function summaryText(input: string, opts: SummaryCliOptions, io: CliIO): P
           summaryTextOptions(r, { ...settings, budget }, tree),
           keyMostRows(budget, settings.width),
         ),
+      keyInPartSays: (r, budget, rows) =>
+        summaryKeyInPart(r.view, summaryTextOptions(r, { ...settings, budget }, tree), rows),
       ...budgetLines(opts, "summary", io),
       canGrow,
     },
     options.budget,
   );
   if (result.unmatchedFoci.length > 0) io.stderr.write(unmatchedWarning(result.unmatchedFoci));
-  return summaryRenderers[opts.format](result, { ...settings, keyLeftOut, keyRows }, tree);
+  return summaryRenderers[opts.format](result, { ...settings, keyLeftOut, keyRows, keyInPart }, tree);
 }
 
 /**

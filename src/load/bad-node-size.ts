@@ -21,7 +21,7 @@ export function badNodeSize(
   const what = field === undefined ? "the size" : `the "${field}"`;
   return new EspalierError(
     "BAD_SIZE",
-    say`${what} of ${where} must be a number from 0 to 2^53 - 1, got ${shown}`,
+    say`${what} of ${where} must be a number from 0 to 2^53 - 1, got ${shown}${withUnit(shown) ? UNIT_HINT : ""}`,
     pos,
     {
       ...(name.get(i) === "" ? {} : { path: nodePath(parentOf, name, i) }),
@@ -29,3 +29,18 @@ export function badNodeSize(
     },
   );
 }
+
+/**
+ * Whether the size was written as text with a unit (`"12 KB"`, `"1.5GiB"`, `"256G"`, `"0B"`), as
+ * `lsblk -J` writes sizes without `-b` (util-linux, seen here) and spreadsheets do (common practice, no
+ * source). Only the shape is looked at; the message quotes the text through `shown`.
+ */
+function withUnit(shown: MessagePart): boolean {
+  return (
+    typeof shown !== "string" &&
+    /^\d+(?:[.,]\d+)?\s*(?:[kKMGTPEZY](?:i?B)?|B|bytes?)$/.test(shown.text.trim())
+  );
+}
+
+const UNIT_HINT =
+  "; sizes are plain numbers, not text with a unit: write them in bytes (lsblk -J -b, for one, prints bytes where lsblk -J prints 256G)";

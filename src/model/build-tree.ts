@@ -41,13 +41,16 @@ export function buildTree(linked: LinkedNodes, file?: string): Tree {
   // loader's own parents, which say just that (the one top-level node is the root, its parent -1).
   const par = synthetic ? underSyntheticRoot(parentOf) : parentOf;
   par[rootOld] = -1;
-  const firstChild = new Int32Array(total).fill(-1);
-  const nextSib = new Int32Array(total).fill(-1);
+  // Fresh memory is zeros: the child lists hold a node plus one (0: none), and the walk writes every
+  // node's place it reaches, so none of these is filled first (a pass over a million nodes each; a
+  // diff's NEW that is not in pre-order comes here, docs/performance.md).
+  const firstChild = new Int32Array(total);
+  const nextSib = new Int32Array(total);
   childLists(par, n, firstChild, nextSib);
-  const newIndex = new Int32Array(total).fill(-1);
+  const newIndex = new Int32Array(total);
   const oldOf = new Int32Array(total);
-  if (walkPreOrder(firstChild, nextSib, par, rootOld, newIndex, oldOf) < total)
-    throw cycleError(input, par, newIndex, file);
+  const reached = walkPreOrder(firstChild, nextSib, par, rootOld, newIndex, oldOf);
+  if (reached < total) throw cycleError(input, par, reachedNodes(oldOf, reached, total), file);
 
   // The child lists are read no more: their memory holds the tree's parents and depths (memory
   // touched for the first time is dear on a big tree: docs/performance.md). `oldOf` becomes `from`
@@ -115,19 +118,23 @@ function underSyntheticRoot(parentOf: Int32Array): Int32Array {
   return par;
 }
 
-/** Children lists in input order (`firstChild`, `nextSib`: all -1 before), made from the last node back. */
+/**
+ * Children lists in input order, made from the last node back: `firstChild[p]` and `nextSib[i]` hold a
+ * node plus one, 0 for none (both all 0 before).
+ */
 function childLists(par: Int32Array, n: number, firstChild: Int32Array, nextSib: Int32Array): void {
   for (let i = n - 1; i >= 0; i--) {
     const p = par[i];
     if (p < 0) continue;
     nextSib[i] = firstChild[p];
-    firstChild[p] = i;
+    firstChild[p] = i + 1;
   }
 }
 
 /**
- * Pre-order walk without a stack: down to the first child, else across, else up until a sibling. Fills
- * `newIndex` (old -> new) and `oldOf` (new -> old); returns how many nodes it reached.
+ * Pre-order walk without a stack: down to the first child, else across, else up until a sibling (the
+ * lists as {@link childLists} makes them). Fills `newIndex` (old -> new) and `oldOf` (new -> old) for the
+ * nodes it reaches; returns how many it reached.
  */
 function walkPreOrder(
   firstChild: Int32Array,
@@ -143,14 +150,21 @@ function walkPreOrder(
     newIndex[cur] = next;
     oldOf[next] = cur;
     next++;
-    if (firstChild[cur] !== -1) {
-      cur = firstChild[cur];
+    if (firstChild[cur] !== 0) {
+      cur = firstChild[cur] - 1;
       continue;
     }
-    while (cur !== -1 && cur !== rootOld && nextSib[cur] === -1) cur = par[cur];
-    cur = cur === -1 || cur === rootOld ? -1 : nextSib[cur];
+    while (cur !== -1 && cur !== rootOld && nextSib[cur] === 0) cur = par[cur];
+    cur = cur === -1 || cur === rootOld ? -1 : nextSib[cur] - 1;
   }
   return next;
+}
+
+/** 1 for each node the walk reached (the first `reached` of `oldOf`), 0 for the others. */
+function reachedNodes(oldOf: Int32Array, reached: number, total: number): Uint8Array {
+  const seen = new Uint8Array(total);
+  for (let k = 0; k < reached; k++) seen[oldOf[k]] = 1;
+  return seen;
 }
 
 /**
@@ -302,10 +316,10 @@ function withFirst(values: readonly string[], n: number, shift: number, first: s
   return out;
 }
 
-function cycleError(input: PooledNodes, par: Int32Array, visited: Int32Array, file?: string): EspalierError {
+function cycleError(input: PooledNodes, par: Int32Array, reached: Uint8Array, file?: string): EspalierError {
   const n = input.parentOf.length;
   let start = 0;
-  while (start < n && visited[start] !== -1) start++;
+  while (start < n && reached[start] === 1) start++;
   // Walk up from an unreached node until a node repeats: that node is on the cycle.
   const seen = new Set<number>();
   let cur = start;

@@ -7,7 +7,14 @@ import { diffHeaderLines, type HeaderOptions } from "./header.js";
 import { lineGroups } from "./line-groups.js";
 import type { Palette } from "./palette.js";
 import { screenLines } from "./screen-lines.js";
-import { checkWidth, headLines, keyCheck, keyRiding, screenKeyRows } from "./summary-text.js";
+import {
+  checkWidth,
+  headLines,
+  keyCheck,
+  keyRiding,
+  screenKeyInPart,
+  screenKeyRows,
+} from "./summary-text.js";
 
 export interface DiffTextOptions extends NumberOptions {
   /** How nodes were matched, named on the header. */
@@ -25,6 +32,8 @@ export interface DiffTextOptions extends NumberOptions {
   key?: boolean;
   /** Lines the key takes (see `keyRowsNeeded`, counted by the fit); `keyRows(width)` when undefined. */
   keyRows?: number;
+  /** The fit printed the key in part (see `KeyFacts.inPart`). */
+  keyInPart?: boolean;
 }
 
 /** Lines the key above a diff's text lines takes at the options' width (see `screenKeyRows`). */
@@ -34,6 +43,15 @@ export function diffKeyRows(
   most?: number,
 ): number {
   return screenKeyRows("diff", view, diffLineParts, options, most);
+}
+
+/** Whether a diff's key printed in part in `rows` rows says enough (see `screenKeyInPart`). */
+export function diffKeyInPart(
+  view: HierarchyNode<DiffViewNode>,
+  options: DiffTextOptions,
+  rows: number,
+): boolean {
+  return screenKeyInPart("diff", view, diffLineParts, options, rows);
 }
 
 /**

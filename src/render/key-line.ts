@@ -45,6 +45,11 @@ export interface KeyFacts {
   readonly namesLeftOut?: boolean;
   /** Where the reader finds more (the interactive view's help key); default `--legend`. */
   readonly more?: string;
+  /**
+   * The fit printed the key in part (see `fitToBudget`): in its fewest rows it then says where the
+   * rest is (`rest: --legend`) where that and every mark fit.
+   */
+  readonly inPart?: boolean;
 }
 
 /** What the width took away from the laid-out lines (see `ScreenLines`), for the key. */
@@ -145,6 +150,38 @@ export function keyLines(
     const packed = packedKey(kind, facts, width, rows) ?? packedKey(kind, facts, width, rows, true);
     if (packed !== null) return packed;
   }
+  const least = leastKey(kind, facts, width, style);
+  // Printed in part in its fewest rows (see `fitToBudget`), it says where the rest is where that fits.
+  if (facts.inPart && width !== undefined && style === "text" && !saysAll(kind, facts, least)) {
+    const part = packedKey(kind, facts, width, rows, true);
+    if (part !== null && part.join("\n").includes(KEY_REST)) return part;
+  }
+  return least;
+}
+
+/**
+ * Whether the key for `facts` in `rows` rows, printed in part (see `KeyFacts.inPart`), says all it
+ * explains, or every mark and where the rest is.
+ */
+export function keyInPartSays(
+  kind: "summary" | "diff",
+  facts: KeyFacts,
+  width: number,
+  rows: number,
+): boolean {
+  const lines = keyLines(kind, { ...facts, inPart: true }, width, "text", rows);
+  if (saysAll(kind, facts, lines)) return true;
+  const text = lines.join("\n");
+  return text.includes(KEY_REST) && [...facts.marks].every((m) => text.includes(`'${m}'`));
+}
+
+/** The key in `keyRows(width)` lines (see `keyLines`). */
+function leastKey(
+  kind: "summary" | "diff",
+  facts: KeyFacts,
+  width: number | undefined,
+  style: "text" | "markdown",
+): string[] {
   if (keyRows(width) === 1) return [keyLine(kind, facts, width, style)];
   const room = width!;
   const marks = markWords(kind, facts.marks, style);
@@ -312,17 +349,25 @@ function packedKey(
   // What the counts and sizes are and a level in digits go last: a line misreads without them.
   const vital = (p: Explanation) => p[3] === "numbers" || p[3] === "sizes" || p[3] === "depth";
   const kept = [...said.filter(vital), ...said.filter((p) => !vital(p))];
-  for (let n = kept.length - 1; n >= 0; n--) {
-    const packed = packRows(
-      tiny,
-      kept.slice(0, n).map((p) => p[2]),
-      width,
-      rows,
-    );
-    if (packed !== null) return packed;
+  // Printed in part, the key ends saying where the rest is; the interactive view's status row says
+  // it there instead (`h: keys, marks`), leaving the key its rows.
+  const rest = facts.more === undefined ? [KEY_REST] : [];
+  const vitals = said.filter(vital).length;
+  // The pointer goes before the vital parts do (none of them goes while it stays).
+  for (const [end, least] of [
+    [rest, vitals],
+    [[], 0],
+  ] as const) {
+    for (let n = kept.length - 1; n >= least; n--) {
+      const packed = packRows(tiny, [...kept.slice(0, n).map((p) => p[2]), ...end], width, rows);
+      if (packed !== null) return packed;
+    }
   }
   return null;
 }
+
+/** The last words of a printed key that says only part of what its lines need. */
+export const KEY_REST = "rest: --legend";
 
 /**
  * `marks` (joined by `, `) then `clauses` (by `; `) in `rows` lines of at most `width` columns, the

@@ -7,6 +7,7 @@ import {
   keyContext,
   keyExplainsSizes,
   keyFacts,
+  keyInPartSays,
   keyLine,
   keyLines,
   keyRows,
@@ -33,6 +34,8 @@ export interface TextOptions extends NumberOptions {
   key?: boolean;
   /** Lines the key takes (see `keyRowsNeeded`, counted by the fit); `keyRows(width)` when undefined. */
   keyRows?: number;
+  /** The fit printed the key in part (see `KeyFacts.inPart`). */
+  keyInPart?: boolean;
 }
 
 /**
@@ -92,6 +95,32 @@ export function screenKeyRows<T extends ViewNode>(
 }
 
 /**
+ * Whether the key above a summary's or a diff's text lines, printed in part in `rows` rows at the
+ * options' width, says every mark and where the rest is, or all (see `keyInPartSays`).
+ */
+export function screenKeyInPart<T extends ViewNode>(
+  kind: "summary" | "diff",
+  view: HierarchyNode<T>,
+  parts: (group: LineGroup<T>, options: NumberOptions) => LineParts,
+  options: Parameters<typeof screenLines>[2] & Parameters<typeof keyCheck>[0] & { chains?: boolean },
+  rows: number,
+): boolean {
+  if (options.width === undefined) return true;
+  const screen = screenLines(
+    lineGroups(view, options.chains ?? false),
+    parts,
+    options,
+    keyCheck(options, kind),
+  );
+  return keyInPartSays(kind, keyFacts(screen.parts, keyContext(options), screen), options.width, rows);
+}
+
+/** {@link screenKeyInPart} of a summary's lines. */
+export function summaryKeyInPart(view: HierarchyNode<ViewNode>, options: TextOptions, rows: number): boolean {
+  return screenKeyInPart("summary", view, lineParts, options, rows);
+}
+
+/**
  * The header a text rendering starts with, wrapped to the width, then the legend wrapped to it, or
  * else the key line for the lines `parts` (see `keyLine`).
  */
@@ -101,6 +130,7 @@ export function headLines(
     legend?: boolean;
     key?: boolean;
     keyRows?: number;
+    keyInPart?: boolean;
     keyRides?: boolean;
     width?: number;
     palette?: Palette;
@@ -112,10 +142,13 @@ export function headLines(
 ): string[] {
   const quiet = options.palette?.quiet ?? ((s: string) => s);
   const lines = options.header ? header(options.width) : [];
-  const facts = () => keyFacts(screen.parts, keyContext(options), screen);
+  const facts = () => ({
+    ...keyFacts(screen.parts, keyContext(options), screen),
+    ...(options.keyInPart ? { inPart: true } : {}),
+  });
   if (options.keyRides && lines.length > 0)
     lines[lines.length - 1] += `; ${keyLine(kind, facts(), options.width)}`;
-  else if (options.legend) lines.push(...legendLines(kind, options.width));
+  else if (options.legend) lines.push(...legendLines(kind, options.width, options.header?.sizeName));
   else if (options.key) lines.push(...keyLines(kind, facts(), options.width, "text", options.keyRows));
   return lines.map(quiet);
 }

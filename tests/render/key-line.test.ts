@@ -12,7 +12,9 @@ import { displayWidth } from "../../src/render/display-width.js";
 import {
   KEY_MIN_BUDGET,
   KEY_MOST_ROWS,
+  KEY_REST,
   keyFacts,
+  keyInPartSays,
   keyLine,
   keyLines,
   keyRows,
@@ -581,5 +583,49 @@ describe("keyRowsNeeded(kind, facts, width, most) and keyLines(..., rows)", () =
         },
       ),
     );
+  });
+});
+
+describe("keyInPartSays(kind, facts, width, rows) and keyLines(..., rows) printed in part", () => {
+  // A deep focus: two marks, what the counts are, sizes cut, a level in digits, names left out of a
+  // chain, a cut name and count: 4 rows say all at 40 columns, 5 at 30 (common practice, no source).
+  const facts = {
+    marks: new Set([MARK.focus, MARK.path]),
+    chains: true,
+    sizesLeftOut: true,
+    namesCut: true,
+    countsCut: true,
+    namesLeftOut: true,
+    depthInDigits: { level: 3, mark: MARK.path },
+  };
+  it("says every mark, what the numbers are and where the rest is ('rest: --legend') in fewer rows, each within the width", () => {
+    for (const [width, rows] of [
+      [40, 3],
+      [30, 4],
+    ]) {
+      const key = keyLines("summary", { ...facts, inPart: true }, width, "text", rows);
+      expect(key).toHaveLength(rows);
+      for (const line of key) expect(displayWidth(line)).toBeLessThanOrEqual(width);
+      const text = key.join("\n");
+      for (const said of ["'*'", "':'", "counts: all below; sizes cut", "'3 :' depth", KEY_REST])
+        expect(text, `${width} columns, ${rows} rows`).toContain(said);
+      expect(keyInPartSays("summary", facts, width, rows)).toBe(true);
+    }
+  });
+  it("is false where the marks, what the numbers are and where the rest is do not fit the rows", () => {
+    for (const [width, rows] of [
+      [40, 2],
+      [30, 3],
+    ]) {
+      expect(keyLines("summary", { ...facts, inPart: true }, width, "text", rows).join("\n")).not.toContain(
+        KEY_REST,
+      );
+      expect(keyInPartSays("summary", facts, width, rows)).toBe(false);
+    }
+  });
+  it("says all, without the pointer, where its rows have room for all", () => {
+    expect(keyRowsNeeded("summary", facts, 40)).toBe(4);
+    expect(keyInPartSays("summary", facts, 40, 4)).toBe(true);
+    expect(keyLines("summary", { ...facts, inPart: true }, 40, "text", 4).join("\n")).not.toContain(KEY_REST);
   });
 });

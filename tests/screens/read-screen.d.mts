@@ -9,6 +9,7 @@ export declare function checkText(
     key?: boolean;
     kind?: "summary" | "diff";
     noted?: (room: number | undefined) => void;
+    partial?: () => void;
   },
 ): string[];
 export declare function checkJson(text: string, budget: number): string[];

@@ -64,9 +64,13 @@ function readLine(line) {
 
 /**
  * The problems of one text screen (header and key first, then the tree's lines); `noted` is called
- * when the screen says its key was left out (and where it has room: `keyLeftOut`).
+ * when the screen says its key was left out (and where it has room: `keyLeftOut`), `partial` when its
+ * key says the marks and only part of the rest (`rest: --legend`).
  */
-export function checkText(text, { budget, width, legend, key = true, kind = "summary", noted = () => {} }) {
+export function checkText(
+  text,
+  { budget, width, legend, key = true, kind = "summary", noted = () => {}, partial = () => {} },
+) {
   const problems = [];
   const all = text.replace(ANSI, "").trimEnd().split("\n");
   if (all.length > budget) problems.push(`${all.length} lines for a budget of ${budget}`);
@@ -123,6 +127,12 @@ export function checkText(text, { budget, width, legend, key = true, kind = "sum
   };
   const marks = new Set(lines.map((l) => l.mark));
   for (const m of marks) need(true, `'${m}'`, `mark '${m}'`);
+  // A key in part (no room for all of it beside the root and the focus paths) says every mark and
+  // where the rest is.
+  if (/(^|; )rest: --legend(;|$)/m.test(head.replaceAll("\n  ", "; "))) {
+    partial();
+    return problems;
+  }
   need(
     lines.some((l) => Number.isNaN(l.nodes)),
     "'?'",

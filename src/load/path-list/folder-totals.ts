@@ -301,7 +301,7 @@ function mostlyOnes(nodes: PlacedSizes): boolean {
 function wholeUnits(): EspalierError {
   return new EspalierError(
     "PARSE_PATHS",
-    "a quarter or more of the sizes are exactly 1 and no listed entry is inside another, as du -sm DIR/* prints each entry's disk usage in whole MiB rounded up: read as bytes, each size would be about a million times too small. List bytes with du -sb DIR/* (or du -ab DIR, with what each folder holds), or pass --folder-sizes own to read the numbers as bytes (--units plain prints them as plain numbers)",
+    "a quarter or more of the sizes are exactly 1 and no listed entry is inside another, as du -sm DIR/* prints each entry's disk usage in whole MiB and du -s --apparent-size DIR/* its size in whole KiB, rounded up: read as bytes, each size would be a thousand or a million times too small. List bytes with du -sb DIR/* (or du -ab DIR, with what each folder holds), or pass --folder-sizes own to read the numbers as bytes (--units plain prints them as plain numbers)",
     { line: 1, column: 1 },
   );
 }

@@ -16,7 +16,7 @@ import { ByteIdIndex, viewOf } from "./byte-id-index.js";
 import { checkWrittenIds, checkWrittenPaths } from "./check-written.js";
 import { IdIndex } from "./id-index.js";
 import { inexactId } from "./inexact-id.js";
-import { idIsNullParent, missingParent, nearParentId, nullParentSet } from "./null-parent.js";
+import { idIsNullParent, missingParent, nearParentId, nullParentSet, spacedIdRow } from "./null-parent.js";
 import { rowsInside } from "./rows-inside.js";
 import { rowsTable } from "./rows-table.js";
 import { withSeparatorHint } from "./separator-hint.js";
@@ -202,8 +202,10 @@ function linkById(
         const text = cellText(parentId);
         const near = nearParentId(text);
         const trimmed = near === undefined ? -1 : rowOf.get(near);
+        const spacedId = spacedIdRow(text, n, (k) => ids[k]);
         throw missingParent(text, r + 1, options, rowNamed(text, pooled, names, n), {
           ...(trimmed === -1 ? {} : { trimmedRow: trimmed + 1 }),
+          ...(spacedId === -1 ? {} : { spacedIdRow: spacedId + 1 }),
           strings: !table.textCells,
         });
       }
@@ -357,8 +359,10 @@ function linkParents(
     if (text !== undefined) {
       const near = Buffer.from(nearParentId(text) ?? "", "utf8");
       const at = near.length === 0 ? -1 : rowOf.getBytes(viewOf(near), 0, near.length);
+      const spacedId = spacedIdRow(text, n, (k) => ids.get(k));
       throw missingParent(text, r + 1, options, rowNamed(text, pooled, names, n), {
         ...(at === -1 ? {} : { trimmedRow: at + 1 }),
+        ...(spacedId === -1 ? {} : { spacedIdRow: spacedId + 1 }),
         strings: false,
       });
     }

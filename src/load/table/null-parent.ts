@@ -54,7 +54,23 @@ const usualNoneValues = new Set(["0", "-1", "null", "\\n", "none", "nil", "n/a",
  */
 export interface SpacedParent {
   trimmedRow?: number;
+  /** The 1-based row whose id, with spaces around it, is the parent cell without them ({@link spacedIdRow}). */
+  spacedIdRow?: number;
   strings: boolean;
+}
+
+/**
+ * The first row (0-based) whose id has spaces around it and is `parentId` without them (`3 ` for a
+ * parent cell `3`), as a sheet's cell typed with a trailing space is; -1 for none. Looked for only
+ * once a parent names no id: a pass over the ids.
+ */
+export function spacedIdRow(parentId: string, rows: number, idOf: (row: number) => string): number {
+  if (parentId.trim() !== parentId || parentId === "") return -1;
+  for (let r = 0; r < rows; r++) {
+    const id = idOf(r);
+    if (id.length > parentId.length && id.trim() === parentId) return r;
+  }
+  return -1;
 }
 
 /**
@@ -129,6 +145,17 @@ export function missingParent(
         ? say`${missing}; the value has spaces around it, which are part of it: ${keeps}`
         : say`${missing}; the cell has spaces around its value, which CSV keeps as part of it (RFC 4180, section 2.4): write the table without spaces around the separators`,
       { row, field: options.parentField },
+    );
+  }
+  if (spaced?.spacedIdRow !== undefined) {
+    const keeps = spaced.strings
+      ? "a JSON string keeps every character between its quotes"
+      : "CSV and TSV keep spaces as part of a value (RFC 4180, section 2.4): write the table without spaces around the separators";
+    return new EspalierError(
+      "MISSING_PARENT",
+      say`${missing}; row ${spaced.spacedIdRow}'s ${options.idField} is the same with spaces around it: ${keeps}`,
+      { row, field: options.parentField },
+      { idRow: spaced.spacedIdRow },
     );
   }
   return new EspalierError("MISSING_PARENT", missing, { row, field: options.parentField });
