@@ -22,6 +22,7 @@ type Fields = Pick<
   | "parentField"
   | "pathField"
   | "keepFields"
+  | "optionalKeepFields"
   | "readAs"
   | "childrenFieldNamed"
   | "sameReading"
@@ -148,9 +149,17 @@ function hasNoContainers(object: ObjectSample, except: ReadonlySet<string> = new
   return object.entries.every(([k, v]) => v.kind === "scalar" || except.has(k));
 }
 
-/** The fields a node object is read for besides its children: never children themselves. */
-function fieldsOf(fields: Pick<Fields, "nameField" | "sizeField" | "keepFields">): Set<string> {
-  return new Set([fields.nameField, fields.sizeField, ...fields.keepFields]);
+/**
+ * The fields a node object is read for besides its children: never children themselves. Not those kept
+ * only where records have them (what a diff compares by default, cli/compared-fields.ts): a diff reads
+ * a document as a summary does, whatever it keeps, and its second read keeping the records' other
+ * fields reads it as its first did.
+ */
+function fieldsOf(
+  fields: Pick<Fields, "nameField" | "sizeField" | "keepFields" | "optionalKeepFields">,
+): Set<string> {
+  const optional = new Set(fields.optionalKeepFields ?? []);
+  return new Set([fields.nameField, fields.sizeField, ...fields.keepFields.filter((f) => !optional.has(f))]);
 }
 
 /** The objects a container holds: an array's elements or an object's values, when all (sampled) are objects. */
@@ -187,7 +196,7 @@ function childObjects(value: Sample): ObjectSample[] | undefined {
  */
 export function findChildrenField(
   first: ObjectSample,
-  fields: Pick<Fields, "nameField" | "sizeField" | "keepFields">,
+  fields: Pick<Fields, "nameField" | "sizeField" | "keepFields" | "optionalKeepFields">,
 ): string | undefined {
   const own = fieldsOf(fields);
   let leafy: string | undefined;
