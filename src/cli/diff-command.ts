@@ -1,11 +1,14 @@
 import { totalChanges } from "../diff/changes.js";
 import { type DiffOptions, prepareDiff, summarizeDiff } from "../diff/diff-trees.js";
+import { idsRenumberedNote } from "../diff/ids-renumbered.js";
+import type { ReadingNote } from "../model/reading-note.js";
+import type { Tree } from "../model/tree.js";
 import { keyMostRows } from "../render/key-line.js";
 import type { CommandOutput } from "./command-output.js";
 import { loadCompared } from "./compared-fields.js";
 import { EXIT } from "./exit-codes.js";
 import { fitToBudget } from "./fit-to-budget.js";
-import { pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
+import { displayName, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { DiffCliOptions } from "./options.js";
 import {
@@ -16,7 +19,9 @@ import {
   keyRowsFor,
   legendInError,
   outputSettings,
+  sizeNameOf,
 } from "./output-settings.js";
+import { notesText } from "./reading-notes.js";
 import { diffHeaderRows, diffLines, diffRenderers } from "./renderers.js";
 
 /** Reads, compares and renders two versions; returns the text to print and the exit code. */
@@ -26,10 +31,12 @@ export async function diffCommand(
   opts: DiffCliOptions,
   io: CliIO,
 ): Promise<CommandOutput> {
+  // What the sizes measure, known once both versions are read: the legend says it.
+  const read: { sizeName?: string } = {};
   try {
-    return await diffOutput(oldInput, newInput, opts, io);
+    return await diffOutput(oldInput, newInput, opts, io, read);
   } catch (err) {
-    throw legendInError(err, opts, "diff", io);
+    throw legendInError(err, opts, "diff", io, read.sizeName);
   }
 }
 
@@ -38,13 +45,22 @@ async function diffOutput(
   newInput: string,
   opts: DiffCliOptions,
   io: CliIO,
+  read: { sizeName?: string },
 ): Promise<CommandOutput> {
   const foci = await readFoci(io, opts, [oldInput, newInput]);
   const key = pseudonymKey(opts, io);
   const compared = await loadCompared(io, oldInput, newInput, opts);
   const [oldTree, newTree] = compared.trees;
+  const sizeName = sizeNameOf(opts, [oldTree, newTree]);
+  read.sizeName = sizeName;
   const compareFields = compared.fields;
   const prepared = prepareDiff(oldTree, newTree, { compareFields, fieldsOptional: compared.optional });
+  // What only the comparison shows (ids renumbered) is a note on NEW, said as the loaders' notes are.
+  const renumbered = idsRenumberedNote(prepared);
+  if (renumbered) io.stderr.write(notesText(withNotes(newTree, [renumbered]), displayName(newInput), key));
+  const versions = renumbered
+    ? [oldTree, withNotes(newTree, [...(newTree.reading?.notes ?? []), renumbered])]
+    : [oldTree, newTree];
   const options: DiffOptions = {
     foci,
     budget: opts.budget ?? defaultBudget(io),
@@ -52,14 +68,14 @@ async function diffOutput(
     label: opts.label,
     pseudonymKey: key,
     chains: opts.chains,
-    headerLines: headerLinesFor(opts, "diff", io),
+    headerLines: headerLinesFor(opts, "diff", io, sizeName),
     spareLines: keyRowsFor(opts, io),
     siblingOrder: opts.siblingOrder,
     unmatchedFoci: opts.unmatchedFoci,
   };
   const { tree } = prepared.combined;
   const settings = {
-    ...outputSettings(opts, io, tree, [oldTree, newTree]),
+    ...outputSettings(opts, io, tree, versions),
     compared: comparedSaid(compareFields, [oldTree, newTree]),
   };
   // The text's key rows are counted in every format, so every format shows the same nodes.
@@ -78,7 +94,7 @@ async function diffOutput(
         ),
       keyInPartSays: (r, budget, rows) =>
         diffKeyInPart(r.view, diffLines(r, { ...settings, budget }, tree.hasSizes), rows),
-      ...budgetLines(opts, "diff", io),
+      ...budgetLines(opts, "diff", io, sizeName),
       canGrow: true,
     },
     options.budget,
@@ -91,4 +107,10 @@ async function diffOutput(
   );
   const differ = totalChanges(result.totals.changes) > 0;
   return { text, exitCode: opts.failOnChange && differ ? EXIT.differences : EXIT.ok };
+}
+
+/** `tree` with `notes` as its reading notes (a tree read without a reading as a table's). */
+function withNotes(tree: Tree, notes: readonly ReadingNote[]): Tree {
+  const reading = tree.reading ?? { shape: "table", sizeUnit: "number" };
+  return { ...tree, reading: { ...reading, notes } };
 }

@@ -98,13 +98,7 @@ export function outputSettings(
     legend: opts.legend,
     key: showsKey(opts, io),
     share: opts.share === "none" ? undefined : opts.share,
-    // A diff of documents read as values sizes them by their values (cli/version-readings.ts valueSized).
-    sizeName:
-      inputs.length === 2 && inputs.every((t) => t.reading?.valueSizes)
-        ? VALUE_SIZE
-        : opts.sizeField === "size"
-          ? undefined
-          : opts.sizeField,
+    sizeName: sizeNameOf(opts, inputs),
     reading: inputs.length === 2 ? versionsReading(opts, inputs[0], inputs[1]) : chosenReading(opts, tree),
     filledRows: filled.some((n) => n > 0) ? filled : undefined,
     documents: documents.some((n) => n > 1) ? documents : undefined,
@@ -211,12 +205,27 @@ function readingOfVersion(opts: SharedCliOptions, tree: Tree): VersionReading | 
 }
 
 /**
+ * What the sizes measure, as the header, the key and the legend call it: {@link VALUE_SIZE} in a diff of
+ * documents read as values, which sizes them by their values (cli/version-readings.ts valueSized), the
+ * size field's name when it is not `size` (`cost`), else undefined (`size`).
+ */
+export function sizeNameOf(opts: SharedCliOptions, inputs: readonly Tree[] = []): string | undefined {
+  if (inputs.length === 2 && inputs.every((t) => t.reading?.valueSizes)) return VALUE_SIZE;
+  return opts.sizeField === "size" ? undefined : opts.sizeField;
+}
+
+/**
  * Lines before the tree, which the budget counts: the header unless --bare, the legend with --legend
  * (wrapped to the width of the run, as text prints it; every format counts the same lines, so every
- * format shows the same nodes).
+ * format shows the same nodes). `sizeName`: as {@link sizeNameOf} gives it, which the legend says.
  */
-export function headerLinesFor(opts: SharedCliOptions, kind: "summary" | "diff", io: CliIO): number {
-  const legend = opts.legend ? legendLines(kind, opts.width ?? defaultWidth(io)).length : 0;
+export function headerLinesFor(
+  opts: SharedCliOptions,
+  kind: "summary" | "diff",
+  io: CliIO,
+  sizeName = sizeNameOf(opts),
+): number {
+  const legend = opts.legend ? legendLines(kind, opts.width ?? defaultWidth(io), sizeName).length : 0;
   return (opts.bare ? 0 : 1) + legend + keyRowsFor(opts, io);
 }
 
@@ -228,9 +237,10 @@ export function budgetLines(
   opts: SharedCliOptions,
   kind: "summary" | "diff",
   io: CliIO,
+  sizeName = sizeNameOf(opts),
 ): { fixed: number; header: boolean; keyRows: (budget: number) => number; keyWanted: boolean } {
   return {
-    fixed: opts.legend ? legendLines(kind, opts.width ?? defaultWidth(io)).length : 0,
+    fixed: opts.legend ? legendLines(kind, opts.width ?? defaultWidth(io), sizeName).length : 0,
     header: !opts.bare,
     keyRows: (budget) => keyRowsFor({ ...opts, budget }, io),
     keyWanted: opts.key && !opts.bare && !opts.legend,
@@ -246,10 +256,11 @@ export function legendInError(
   opts: SharedCliOptions,
   kind: "summary" | "diff",
   io: CliIO,
+  sizeName = sizeNameOf(opts),
 ): unknown {
   if (!opts.legend || !(err instanceof EspalierError) || err.code !== "BUDGET_TOO_SMALL") return err;
   const width = opts.width ?? defaultWidth(io);
-  const legend = legendLines(kind, width).length;
+  const legend = legendLines(kind, width, sizeName).length;
   const at = width === undefined ? "" : ` at ${width} columns`;
   const before = Number(err.details.before ?? 0);
   return new EspalierError(

@@ -83,6 +83,7 @@ export const diffRenderers: Record<OutputFormat, Renderer<DiffResult>> = {
       labels: s.labels,
       compared: s.compared ?? [],
       notes: s.versionNotes ?? [],
+      ...(s.sizeName === undefined ? {} : { sizeName: s.sizeName }),
     }),
   markdown: async (result, s, tree) =>
     (await import("../render/diff-markdown.js")).renderDiffMarkdown(

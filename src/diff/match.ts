@@ -1,6 +1,7 @@
 import { bytesCompare, isEmptyName, NamePool, type Names, sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 import { wellFormedUtf8 } from "../model/well-formed-utf8.js";
+import { pairFullEntries } from "./full-entries.js";
 import { elementReadings, isSequence, pairElements } from "./pair-elements.js";
 
 /** How the nodes of two versions correspond. Roots always correspond to each other. */
@@ -13,7 +14,9 @@ export interface Matching {
   readonly newToOld: Int32Array;
   /**
    * True when every matched pair's parents are each other's counterparts, as matching by path pairs
-   * them (only children of matched parents): then no node but the root can be moved or renamed.
+   * them (only children of matched parents): then no node but the root can be moved or renamed. False
+   * when a package's dependencies were paired between its full entries in two npm listings
+   * (full-entries.ts): they are moved.
    */
   readonly parentsKept?: boolean;
 }
@@ -64,9 +67,9 @@ export function matchTreesListing(
   const newToOld = numbers(newTree.length, room).fill(-1);
   oldToNew[0] = 0;
   newToOld[0] = 0;
-  const pairs = matchByPath(oldTree, oldCount, newTree, newCount, oldToNew, newToOld);
+  const { pairs, parentsKept } = matchByPath(oldTree, oldCount, newTree, newCount, oldToNew, newToOld);
   return {
-    matching: { by: "path", oldToNew, newToOld, parentsKept: true },
+    matching: { by: "path", oldToNew, newToOld, parentsKept },
     unmatched: { count: oldTree.length - 1 - pairs, ranges: null },
   };
 }
@@ -281,8 +284,9 @@ function sameIds(a: Names, b: Names): (i: number, j: number) => boolean {
  * names decoded; a few children of well-formed names by their bytes, {@link pairInOrder}). Stopping at bytes that differ but decode alike pairs the same nodes as going on would:
  * from there both lists hold those names at the same positions, so their k-th occurrences are paired
  * alike either way. Names that are not all pooled bytes (a tree put under a new root, names kept as
- * strings) are compared by sameName in the first pass too, as their bytes cannot be. Returns how many
- * pairs it made below the roots.
+ * strings) are compared by sameName in the first pass too, as their bytes cannot be. Then, in two npm
+ * listings, a package's dependencies pair between its full entries ({@link pairFullEntries}). Returns
+ * how many pairs it made below the roots, and whether every pair's parents are each other's.
  */
 function matchByPath(
   oldTree: Tree,
@@ -291,7 +295,7 @@ function matchByPath(
   newCount: Int32Array,
   oldToNew: Int32Array,
   newToOld: Int32Array,
-): number {
+): { pairs: number; parentsKept: boolean } {
   const oldName = oldTree.name;
   const newName = newTree.name;
   const equalBytes = bytesCompare(oldName, newName);
@@ -304,8 +308,48 @@ function matchByPath(
     ? { equalBytes, old: (oldName as NamePool).byteRuns()!, new: (newName as NamePool).byteRuns()! }
     : null;
   const elements = elementReadings(oldTree, oldCount, newTree, newCount);
+  const below = (from: number, to: number): number =>
+    pairDown(same, byBytes, elements, oldName, oldCount, newName, newCount, oldToNew, newToOld, from, to);
+  const pairs = below(0, newTree.length);
+  // A package's dependencies, listed under its full entry only, pair wherever that entry stands.
+  const moved = pairFullEntries(oldTree, oldCount, newTree, newCount, oldToNew, newToOld, (o, n) => {
+    const children = pairChildren(
+      same,
+      byBytes,
+      oldName,
+      oldCount,
+      o,
+      newName,
+      newCount,
+      n,
+      oldToNew,
+      newToOld,
+    );
+    return children + below(n + 1, n + newCount[n]);
+  });
+  return { pairs: pairs + moved, parentsKept: moved === 0 };
+}
+
+/**
+ * The loop of {@link matchByPath} over new nodes `from` to `to` (a whole subtree's, or every node), in
+ * pre-order: the children of each matched node with children on both sides are paired. Returns how many
+ * pairs it made.
+ */
+function pairDown(
+  same: (i: number, j: number) => boolean,
+  byBytes: NameBytes | null,
+  elements: ReturnType<typeof elementReadings>,
+  oldName: Names,
+  oldCount: Int32Array,
+  newName: Names,
+  newCount: Int32Array,
+  oldToNew: Int32Array,
+  newToOld: Int32Array,
+  from: number,
+  to: number,
+): number {
   let pairs = 0;
-  for (let n = 0; n < newTree.length; n++) {
+  for (let n = from; n < to; n++) {
     const o = newToOld[n];
     if (o < 0) {
       n += newCount[n] - 1; // nothing under an unmatched node can match by path

@@ -48,7 +48,9 @@ export interface ReadingNote {
  * (path-list/folder-totals.ts). `TOTAL_LINE_LEFT_OUT`: a path list's last line `SIZE<TAB>total` that gives
  * what the other lines add up to, as `du -c` ends its listing, left out (path-list/grand-total.ts).
  * `LAST_LINE_LIKE_TOTAL`: such a last line in a word that is no translation of du's "total" espalier
- * knows, read as an entry (path-list/grand-total.ts).
+ * knows, read as an entry (path-list/grand-total.ts). `IDS_RENUMBERED`: a diff's NEW version, matched
+ * by id, in which almost no node kept its id while almost all pair by name and place, as renumbered ids
+ * do (diff/ids-renumbered.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -64,6 +66,7 @@ export const readingNoteCodes = [
   "SIZES_LIKE_TOTALS",
   "TOTAL_LINE_LEFT_OUT",
   "LAST_LINE_LIKE_TOTAL",
+  "IDS_RENUMBERED",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

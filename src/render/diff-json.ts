@@ -4,6 +4,7 @@ import type { DiffViewNode } from "../diff/diff-view.js";
 import type { DiffTotals } from "../diff/prepared-diff.js";
 import type { ShownNote } from "../model/reading-note.js";
 import { DIFF_FORMAT, type DiffSummary, type DiffSummaryNode, type TreeChangeCounts } from "./diff-schema.js";
+import { VALUE_SIZE } from "./header.js";
 import { jsonNodeFields } from "./json-node.js";
 import { jsonText } from "./json-text.js";
 import { mapTree } from "./map-tree.js";
@@ -21,6 +22,8 @@ export interface DiffJsonOptions {
   labels: boolean;
   /** Each version's reading notes as printed, with the version they are on; listed when there are any. */
   notes?: readonly (ShownNote & { version: "OLD" | "NEW" })[];
+  /** What the sizes measure, as the header says it: {@link VALUE_SIZE} makes `sizes` "values". */
+  sizeName?: string;
 }
 
 /** The diff JSON object (see docs/diff.md and `diffSchema`). Iterative: any depth of view is fine. */
@@ -48,6 +51,7 @@ export function toDiffSummary(
     format: DIFF_FORMAT,
     match: options.by,
     compared: [...(options.compared ?? [])],
+    ...(options.sizeName === VALUE_SIZE ? { sizes: "values" as const } : {}),
     budget: options.budget,
     lines: options.lines,
     changes: counts(totals.changes),

@@ -125,6 +125,12 @@ export const diffSchema = z
       .describe(
         "Record fields compared between matched nodes: a different value makes a node edited. --compare-field names them; without it, version where both versions have it. Other fields are not compared.",
       ),
+    sizes: z
+      .literal("values")
+      .optional()
+      .describe(
+        "Present when the two versions are documents read as values: every size, delta and net then counts values (each scalar's text as JSON writes it, in UTF-8 bytes; an object or array nothing of its own), not the documents' bytes, as the header's \"value size\" says. Absent: sizes are the inputs' own.",
+      ),
     budget: z.number().int().positive().describe("Line budget asked for."),
     lines: z
       .number()

@@ -46,7 +46,7 @@ export function markdownDocument(
   // A key left out of the fit rides on the header's line (see `keyRiding`): a paragraph has no width.
   const first = options.keyRides && header ? `${header}; ${key()}` : header;
   const explained = options.legend
-    ? legendLines(kind).map((l) => markdownText(l, false))
+    ? legendLines(kind, undefined, options.header?.sizeName).map((l) => markdownText(l, false))
     : options.key
       ? [key()]
       : [];

@@ -1,3 +1,4 @@
+import { safeText } from "../model/safe-text.js";
 import { wrapWords } from "./wrap-words.js";
 
 /**
@@ -26,22 +27,23 @@ const LEGEND_INDENT = "  ";
  * What the marks, numbers and folds mean, a few lines a reader can have without the docs: printed
  * under the header with `--legend` (the budget counts them) and in `--help`. Given a width, each is
  * wrapped at spaces to it (its further lines indented two columns), never cut: a legend cut short
- * explains nothing.
+ * explains nothing. `sizeName`: what the sizes measure, as the header and the key call it (`value size`
+ * in a diff of documents read as values, a size field's name such as `cost`); default `size`.
  */
-export function legendLines(kind: "summary" | "diff", width?: number): string[] {
-  const lines = legendTexts(kind);
+export function legendLines(kind: "summary" | "diff", width?: number, sizeName?: string): string[] {
+  const lines = legendTexts(kind, sizeName === undefined ? "size" : safeText(sizeName, 40));
   return width === undefined ? lines : lines.flatMap((line) => wrapWords(line, width, LEGEND_INDENT));
 }
 
-function legendTexts(kind: "summary" | "diff"): string[] {
+function legendTexts(kind: "summary" | "diff", size: string): string[] {
   const path = kind === "diff" ? "a change or on the way to a focus or change" : "on the way to a focus";
   // Every mark, number and cut in few words: at 32 columns a summary's legend took 36 lines (now 29),
   // a diff's 50 (now 44).
   const lines = [
     `marks: ${MARK.focus} focus, ${MARK.path} ${path}, ${MARK.other} other, ${MARK.reference} a node with several parents, in full at the path shown (counts no node); a / b: b is a's only child, the line's numbers a's (with all below), its fold b's; a / (3 more) / b: 3 names left out; 8 : x: x is 8 levels down, its level in digits (too deep to indent)`,
     kind === "diff"
-      ? "numbers: N nodes = 1 per name on the line (a leading / too: /usr is 2) + the lines below + the hidden, removed nodes included; no count: 1 + hidden; ?: count cut; … ends a cut name; a size: NEW's own + all below (own = size - the sizes below - the hidden size; on a / b, both own); a narrow fold: (k hidden, S; …): k nodes hidden, S their size; (k hidden, c changed): k nodes hidden, c of them changed; (k hidden): size and net in the line's (none below); (hidden): k = N less the names and the lines below; narrower: size cut (the line above won't add up), then counts only"
-      : "numbers: N nodes = 1 per name on the line (a leading / too: /usr is 2) + the lines below + the hidden; no count: 1 + hidden; ?: count cut; … ends a cut name; a size: the node's own + all below (own = size - the sizes below - the hidden size; on a / b, both own); a narrow fold: (k hidden, S): k nodes hidden, S their size; (k hidden): their size in the line's (none below); (hidden): k = N less the names and the lines below; narrower: size cut (the line above won't add up), then counts only",
+      ? `numbers: N nodes = 1 per name on the line (a leading / too: /usr is 2) + the lines below + the hidden, removed nodes included; no count: 1 + hidden; ?: count cut; … ends a cut name; a ${size}: NEW's own + all below (own = ${size} - the sizes below - the hidden size; on a / b, both own); a narrow fold: (k hidden, S; …): k nodes hidden, S their size; (k hidden, c changed): k nodes hidden, c of them changed; (k hidden): size and net in the line's (none below); (hidden): k = N less the names and the lines below; narrower: size cut (the line above won't add up), then counts only`
+      : `numbers: N nodes = 1 per name on the line (a leading / too: /usr is 2) + the lines below + the hidden; no count: 1 + hidden; ?: count cut; … ends a cut name; a ${size}: the node's own + all below (own = ${size} - the sizes below - the hidden size; on a / b, both own); a narrow fold: (k hidden, S): k nodes hidden, S their size; (k hidden): their size in the line's (none below); (hidden): k = N less the names and the lines below; narrower: size cut (the line above won't add up), then counts only`,
   ];
   if (kind === "diff")
     lines.push(

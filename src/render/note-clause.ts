@@ -27,6 +27,11 @@ const clauses: Readonly<Record<ReadingNoteCode, Clause>> = {
   SIZES_LIKE_TOTALS: { said: () => "sizes may count children twice" },
   TOTAL_LINE_LEFT_OUT: { said: (n) => `line ${formatCount(n.line ?? 1)} read as a grand total, left out` },
   LAST_LINE_LIKE_TOTAL: { said: (n) => `line ${formatCount(n.line ?? 1)} may be a grand total, counted` },
+  IDS_RENUMBERED: {
+    said: (n) =>
+      `ids look renumbered (${formatCount(n.count ?? 0)} ${n.count === 1 ? "node pairs" : "nodes pair"} by path)`,
+    ofRun: true,
+  },
 };
 
 /**

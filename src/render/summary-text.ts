@@ -148,7 +148,7 @@ export function headLines(
   });
   if (options.keyRides && lines.length > 0)
     lines[lines.length - 1] += `; ${keyLine(kind, facts(), options.width)}`;
-  else if (options.legend) lines.push(...legendLines(kind, options.width));
+  else if (options.legend) lines.push(...legendLines(kind, options.width, options.header?.sizeName));
   else if (options.key) lines.push(...keyLines(kind, facts(), options.width, "text", options.keyRows));
   return lines.map(quiet);
 }

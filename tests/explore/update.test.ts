@@ -98,9 +98,13 @@ function checkScreen(s: Session, state: ExploreState): void {
   expect(all.slice(k).every((i) => fitted.isShown[i] === 0)).toBe(true);
   // 4. the budget is used up whenever something is hidden
   if (k < tree.length) expect(fitted.lines.length).toBe(budget);
-  // 2. nested: a larger budget hides nothing shown here
+  // 2. nested: a larger budget hides nothing shown here, unless the key (and the header's rows) took
+  // lines the tree had: docs/selection.md's one exception, as tests/cli/budget-nesting.test.ts has it
+  // for the printed screen. (Found at 8 rows and 34 columns: the key left out, 5 lines for the tree;
+  // at 11 rows it takes 3, and the header a row more, 4 for the tree.)
   const larger = s.fit(specFoci(state.spec), budget + 3, state.spec.importance, state.cols - GUTTER);
-  for (const i of fitted.shown) expect(larger.isShown[i]).toBe(1);
+  if (larger.lines.length - larger.headerLines >= fitted.lines.length - fitted.headerLines)
+    for (const i of fitted.shown) expect(larger.isShown[i]).toBe(1);
   // 5. conservation: nodes and sizes add up at every shown node, and the root holds the whole tree
   let hidden = 0;
   (fitted.view as HierarchyNode<ViewNode>).each(({ data: v }) => {

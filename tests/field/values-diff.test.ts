@@ -264,6 +264,36 @@ tags: [edge, "public"]
     expect(key).toContain("a value size: NEW's");
   });
 
+  it("every output says the sizes are value sizes: --legend, Markdown's legend and JSON's sizes field", async () => {
+    // The header's own words are the reference: `value size 78 B -> 82 B` (the test above).
+    const json = JSON.parse(
+      (await cli(["diff", "config.yaml", "grown.json", "--format", "json"], { files })).stdout,
+    );
+    expect(json.sizes).toBe("values");
+    const legend = await cli(["diff", "config.yaml", "grown.json", "--legend", "--width", "50"], { files });
+    const lines = legend.stdout.trimEnd().split("\n");
+    // A legend line wraps at spaces, its further lines indented two columns: read as one.
+    const unwrapped = legend.stdout.replaceAll("\n  ", " ");
+    expect(unwrapped).toContain("a value size: NEW's own");
+    expect(unwrapped).not.toMatch(/\ba size:/);
+    // The budget counted the legend's lines as printed (wrapped at 50 columns), as JSON's lines says.
+    const counted = await cli(
+      ["diff", "config.yaml", "grown.json", "--legend", "--width", "50", "--format", "json"],
+      { files },
+    );
+    expect(JSON.parse(counted.stdout).lines).toBe(lines.length);
+    const markdown = await cli(["diff", "config.yaml", "grown.json", "--legend", "--format", "markdown"], {
+      files,
+    });
+    expect(markdown.stdout).toContain("a value size: NEW's own");
+    // Sizes that are the inputs' own (two path lists) carry no such field, and the legend says a size.
+    const paths = { "a.paths": "10\tquay/a\n5\tquay/b\n", "b.paths": "12\tquay/a\n5\tquay/b\n" };
+    const own = await cli(["diff", "a.paths", "b.paths", "--format", "json"], { files: paths });
+    expect(JSON.parse(own.stdout)).not.toHaveProperty("sizes");
+    const ownLegend = await cli(["diff", "a.paths", "b.paths", "--legend"], { files: paths });
+    expect(ownLegend.stdout).toContain("a size: NEW's own");
+  });
+
   it("a summary of one document still sizes it by its bytes", async () => {
     const r = await cli(["compact.json", "--format", "json"], { files });
     expect(JSON.parse(r.stdout).totals.size).toBe(Buffer.byteLength(files["compact.json"]));

@@ -401,6 +401,8 @@ export class PathListReader {
     if (complaint !== undefined) throw complaint;
     const twoWays = dotAndPlain(sink, root, this.sized === true);
     if (twoWays !== undefined) throw twoWays;
+    // A size that is no whole number (1.5) counts no bytes: every size then reads as a plain number.
+    const plain = sink.hasSizes && anyFraction(sink.ownSize, sink.length);
     const folders = sink.hasSizes
       ? folderTotals({ ...placed, length: sink.length }, root, placer, this.folderSizes)
       : undefined;
@@ -414,7 +416,7 @@ export class PathListReader {
     const start = root !== -1 || onlyTopIsDot(sink);
     return sink.finish(this.rootName, new Map(), null, {
       shape: "paths",
-      sizeUnit: "bytes",
+      sizeUnit: plain ? "number" : "bytes",
       ...(totals ? { folderTotals: true } : {}),
       ...(start ? { rootIsStart: true } : {}),
       ...(csvLike || grandTotal || folders?.note
@@ -994,6 +996,16 @@ function isBlank(bytes: Buffer, start: number, end: number): boolean {
     if (c !== space && c !== tab) return false;
   }
   return true;
+}
+
+/**
+ * Whether any of the first `length` sizes is no whole number, as no byte count is (a listing of sizes in
+ * KiB or MiB with fractions, `awk '{print $1 / 1024 "\t" $2}'`): printed with byte units it would
+ * read "1.5 B".
+ */
+function anyFraction(sizes: Float64Array, length: number): boolean {
+  for (let i = 0; i < length; i++) if (sizes[i] % 1 !== 0) return true;
+  return false;
 }
 
 /** Whether the sink's one top-level node is named "." (`find .`): false for none or several. */

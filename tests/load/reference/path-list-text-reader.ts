@@ -87,7 +87,10 @@ export class PathListTextReader {
       sink.hasSizes && folderTotalsByReference(sink, this.listedAt, this.firstSeen, this.folderSizes);
     return sink.finish(rootName, new Map(), null, {
       shape: "paths",
-      sizeUnit: "bytes",
+      // A size with a fraction counts no bytes: plain numbers (docs/input.md).
+      sizeUnit: [...sink.ownSize.subarray(0, sink.length)].some((size) => !Number.isInteger(size))
+        ? "number"
+        : "bytes",
       ...(totals ? { folderTotals: true } : {}),
     });
   }
