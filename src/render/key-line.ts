@@ -313,8 +313,9 @@ function saysAll(kind: "summary" | "diff", facts: KeyFacts, lines: readonly stri
 /**
  * The key in exactly `rows` lines within `width`: every mark and part said, in the longest words that
  * fit (the pointer to `--legend` while it fits), then fewer; failing that (`partial`), the marks and
- * as many parts as fit in their fewest words, the least needed left out first. Null when not even
- * that fits, or too few parts are left to fill `rows` lines.
+ * as many parts as fit in their fewest words, the least needed left out first (a later part said
+ * where it fits though one before it did not). Null when not even that fits, or too few parts are
+ * left to fill `rows` lines.
  */
 function packedKey(
   kind: "summary" | "diff",
@@ -346,9 +347,12 @@ function packedKey(
   }
   if (!partial) return null;
   const tiny = markItems(kind, facts.marks, "text", "tiny");
-  // What the counts and sizes are and a level in digits go last: a line misreads without them.
-  const vital = (p: Explanation) => p[3] === "numbers" || p[3] === "sizes" || p[3] === "depth";
-  const kept = [...said.filter(vital), ...said.filter((p) => !vital(p))];
+  // What the counts and sizes are and a level in digits go last: a line misreads without them; with
+  // no sizes, a `?` goes after them (its words before the counts', as in `keyLines`).
+  const countCut = (p: Explanation) => facts.sizes === false && p[0].startsWith(`'${NUMBERS_GONE}'`);
+  const vital = (p: Explanation) => p[3] === "numbers" || p[3] === "sizes" || p[3] === "depth" || countCut(p);
+  const kept = [...said.filter(countCut), ...said.filter((p) => vital(p) && !countCut(p))];
+  kept.push(...said.filter((p) => !vital(p)));
   // Printed in part, the key ends saying where the rest is; the interactive view's status row says
   // it there instead (`h: keys, marks`), leaving the key its rows.
   const rest = facts.more === undefined ? [KEY_REST] : [];
@@ -359,8 +363,17 @@ function packedKey(
     [[], 0],
   ] as const) {
     for (let n = kept.length - 1; n >= least; n--) {
-      const packed = packRows(tiny, [...kept.slice(0, n).map((p) => p[2]), ...end], width, rows);
-      if (packed !== null) return packed;
+      const chosen = kept.slice(0, n).map((p) => p[2]);
+      let packed = packRows(tiny, [...chosen, ...end], width, rows);
+      if (packed === null) continue;
+      // Every vital part said: a later part that still fits is said too, though one before it did not.
+      for (const p of n >= vitals ? kept.slice(n + 1) : []) {
+        const more = packRows(tiny, [...chosen, p[2], ...end], width, rows);
+        if (more === null) continue;
+        packed = more;
+        chosen.push(p[2]);
+      }
+      return packed;
     }
   }
   return null;

@@ -92,8 +92,10 @@ describe("keyLines(kind, facts, width)", () => {
       "key: ':' on the way to a focus, '.' other; '?' count cut",
       "  counts: all below; sizes cut; a / b: only child; '…' cut",
     ]);
+    // Where a part does not fit, a later one that does is said (the cut name here, not the '?' or
+    // the chain): on 4376903 the key said the marks and the numbers only.
     expect(keyLines("summary", cut, 40)).toEqual([
-      "key: ':' above a focus, '.' other",
+      "key: ':' on path, '.' other; '…' cut",
       "  counts: all below; sizes cut",
     ]);
     expect(keyLines("diff", { ...facts, changesCut: true, namesCut: true }, 50)).toEqual([
