@@ -154,7 +154,7 @@ export function keyLines(
   // Printed in part in its fewest rows (see `fitToBudget`), it says where the rest is where that fits.
   if (facts.inPart && width !== undefined && style === "text" && !saysAll(kind, facts, least)) {
     const part = packedKey(kind, facts, width, rows, true);
-    if (part !== null && part.join("\n").includes(KEY_REST)) return part;
+    if (part?.join("\n").includes(KEY_REST)) return part;
   }
   return least;
 }

@@ -85,13 +85,7 @@ export function screenKeyRows<T extends ViewNode>(
 ): number {
   // Without a width the key is one line, whatever the screen: no layout needed to know it.
   if (options.width === undefined) return keyRows(undefined);
-  const screen = screenLines(
-    lineGroups(view, options.chains ?? false),
-    parts,
-    options,
-    keyCheck(options, kind),
-  );
-  return keyRowsNeeded(kind, keyFacts(screen.parts, keyContext(options), screen), options.width, most);
+  return keyRowsNeeded(kind, screenKeyFacts(kind, view, parts, options), options.width, most);
 }
 
 /**
@@ -106,13 +100,23 @@ export function screenKeyInPart<T extends ViewNode>(
   rows: number,
 ): boolean {
   if (options.width === undefined) return true;
+  return keyInPartSays(kind, screenKeyFacts(kind, view, parts, options), options.width, rows);
+}
+
+/** What the key must say of a summary's or a diff's text lines, laid out as the rendering lays them out. */
+function screenKeyFacts<T extends ViewNode>(
+  kind: "summary" | "diff",
+  view: HierarchyNode<T>,
+  parts: (group: LineGroup<T>, options: NumberOptions) => LineParts,
+  options: Parameters<typeof screenLines>[2] & Parameters<typeof keyCheck>[0] & { chains?: boolean },
+) {
   const screen = screenLines(
     lineGroups(view, options.chains ?? false),
     parts,
     options,
     keyCheck(options, kind),
   );
-  return keyInPartSays(kind, keyFacts(screen.parts, keyContext(options), screen), options.width, rows);
+  return keyFacts(screen.parts, keyContext(options), screen);
 }
 
 /** {@link screenKeyInPart} of a summary's lines. */
