@@ -25,7 +25,10 @@ export const CURSOR_MARK = "@";
 export function draw(session: Session, state: ExploreState, colour: boolean): Screen {
   const { rows, cols } = state;
   if (state.mode.kind === "help")
-    return { rows: helpRows(state.mode.scroll, rows, cols, colour, session.kind), cursorRow: null };
+    return {
+      rows: helpRows(state.mode.scroll, rows, cols, colour, session.kind, session.sizeName),
+      cursorRow: null,
+    };
   const fitted = fitOf(session, state.spec, rows, cols);
   const out: string[] = [];
   let cursorRow: number | null = null;
@@ -138,6 +141,7 @@ function helpRows(
   cols: number,
   colour: boolean,
   kind: "summary" | "diff",
+  sizeName?: string,
 ): string[] {
   const entries = helpEntries();
   const keyWidth = Math.min(18, Math.max(...entries.map((e) => e.keys.length)) + 2);
@@ -153,7 +157,7 @@ function helpRows(
         body.push(`${(k === 0 ? keys : "").padEnd(keyWidth, " ")}${line}`);
     }
   }
-  body.push("", "the lines", ...legendLines(kind, cols));
+  body.push("", "the lines", ...legendLines(kind, cols, sizeName));
   const height = rows - 1;
   const top = Math.max(0, Math.min(scroll, body.length - height));
   const shown = body.slice(top, top + height).map((row) => shortenEnd(row, cols));

@@ -90,10 +90,20 @@ export interface Session {
   readonly landmarks: Int32Array;
   /** Lines the fit of a budget's view takes at least (the header's first line). */
   readonly headerLines: number;
+  /**
+   * What the header, key and help call sizes where not "size": "value size" (a diff of documents read
+   * as values), a `--size-field` name (see cli/output-settings.ts `sizeNameOf`).
+   */
+  readonly sizeName?: string;
   /** The view for these foci (sorted node indices) within `budget` lines of `width` columns. */
   fit(foci: Int32Array, budget: number, importance: Importance, width: number): Fitted;
   /** Live search over the printed names. */
   readonly search: NameSearch;
+}
+
+function sizeNameOf(look: LookOptions): { sizeName?: string } {
+  const name = look.inputFacts?.sizeName;
+  return name === undefined ? {} : { sizeName: name };
 }
 
 /** A session over one prepared tree. */
@@ -104,6 +114,7 @@ export function summarySession(prepared: Prepared, look: LookOptions): Session {
     ...sessionOf(tree, measures, index, look),
     landmarks: new Int32Array(0),
     headerLines: 1,
+    ...sizeNameOf(look),
     fit: remember(
       smallestThatFits((foci, budget, importance, width) => {
         // The header and the key take the screen's first rows as `espalier` prints them; the key gives
@@ -159,6 +170,7 @@ export function diffSession(prepared: PreparedDiff, look: LookOptions): Session 
     ...sessionOf(tree, measures, index, look),
     landmarks: Int32Array.from(changed),
     headerLines: DIFF_HEADER_LINES,
+    ...sizeNameOf(look),
     fit: remember(
       smallestThatFits((foci, budget, importance, width) => {
         const numbers = { units: look.units, sizes: tree.hasSizes };

@@ -29,17 +29,18 @@ const named = (name: Extract<Key, { name: string }>["name"]): Key => ({ name });
 const typed = (text: string): Key[] => Array.from(text, (c) => ({ char: c }));
 const ESC = "\u001b";
 
-function sessionWith(options: { colour?: boolean; key?: string }) {
+function sessionWith(options: { colour?: boolean; key?: string; sizeName?: string }) {
   return summarySession(prepared, {
     units: "plain",
     chains: true,
     pseudonymKey: options.key,
     palette: palette(options.colour ?? false),
+    ...(options.sizeName === undefined ? {} : { inputFacts: { sizeName: options.sizeName } }),
   });
 }
 
 function screens(
-  options: { colour?: boolean; key?: string },
+  options: { colour?: boolean; key?: string; sizeName?: string },
   rows: number,
   cols: number,
   events: ExploreEvent[],
@@ -131,6 +132,15 @@ describe("draw(session, state, colour)", () => {
     expect(text).toContain("the lines");
     // Each legend line starts a row of its own (a long one wraps onto further rows).
     for (const line of legendLines("summary", 100)) expect(help.rows).toContain(line);
+  });
+
+  it("calls sizes in the help what the header and key call them (the size field's name, a value size)", () => {
+    // espalier explore org.csv --size-field cost: the header and the printed legend say "a cost:".
+    const [, help] = screens({ sizeName: "cost" }, 200, 100, [{ char: "h" }]);
+    for (const line of legendLines("summary", 100, "cost")) expect(help.rows).toContain(line);
+    const text = help.rows.join(" ");
+    expect(text).toContain("a cost:");
+    expect(text).not.toContain("a size:");
   });
 
   it("with --pseudonymize, shows no real name anywhere: tree, status, search, help", () => {
