@@ -8,6 +8,7 @@ import { knownListingError } from "../known-listings.js";
 import type { LoadOptions } from "../load-options.js";
 import { checkNoNamedFields } from "../missing-field.js";
 import { NodeSink } from "../node-sink.js";
+import { notUtf8Note } from "../not-utf8-note.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer, viewOf } from "../path-placer.js";
 import { limitsOf, tooLong } from "../read-limits.js";
@@ -141,6 +142,9 @@ export class PathListReader {
   private writtenLine: Buffer | undefined;
   /** Paths of lines whose bytes are not UTF-8, as read and as written (see {@link WrittenPaths}). */
   private readonly written = new WrittenPaths("line");
+  /** Lines whose bytes are not UTF-8, and the first one's number (see {@link notUtf8Note}). */
+  private notUtf8Lines = 0;
+  private firstNotUtf8 = 0;
   /** The input's length when known (`LoadOptions.inputBytes`), the bytes read so far, and whether room was made. */
   private readonly inputBytes: number | undefined;
   private readBytes = 0;
@@ -239,6 +243,8 @@ export class PathListReader {
           this.writtenLine = undefined;
         }
       } else {
+        // One line further than read so far: a line that is not UTF-8 is not blank.
+        if (this.notUtf8Lines++ === 0) this.firstNotUtf8 = this.line + 1;
         const read = Buffer.from(written.toString("utf8"), "utf8");
         this.writtenLine = written;
         try {
@@ -419,12 +425,13 @@ export class PathListReader {
       sizeUnit: plain ? "number" : "bytes",
       ...(totals ? { folderTotals: true } : {}),
       ...(start ? { rootIsStart: true } : {}),
-      ...(csvLike || grandTotal || folders?.note
+      ...(csvLike || grandTotal || folders?.note || this.notUtf8Lines > 0
         ? {
             notes: [
               ...(csvLike ? [commasNote(this.firstLine, this.commas, this.firstCells)] : []),
               ...(grandTotal ? [grandTotal] : []),
               ...(folders?.note ? [folders.note] : []),
+              ...(this.notUtf8Lines > 0 ? [notUtf8Note("line", this.notUtf8Lines, this.firstNotUtf8)] : []),
             ],
           }
         : {}),
