@@ -51,7 +51,9 @@ export interface ReadingNote {
  * knows, read as an entry (path-list/grand-total.ts). `IDS_RENUMBERED`: a diff's NEW version, matched
  * by id, in which almost no node kept its id while almost all pair by name and place, as renumbered ids
  * do (diff/ids-renumbered.ts). `NOT_UTF8`: lines of a path list or rows of a table hold bytes that are
- * not UTF-8, read as U+FFFD; count: how many (load/not-utf8-note.ts).
+ * not UTF-8, read as U+FFFD; count: how many (load/not-utf8-note.ts). `ABSOLUTE_AND_RELATIVE`: a path
+ * list names paths from "/" and paths that start elsewhere, read as two trees side by side
+ * (load/path-list/mixed-starts.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -69,6 +71,7 @@ export const readingNoteCodes = [
   "LAST_LINE_LIKE_TOTAL",
   "IDS_RENUMBERED",
   "NOT_UTF8",
+  "ABSOLUTE_AND_RELATIVE",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

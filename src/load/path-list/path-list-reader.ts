@@ -29,6 +29,7 @@ import {
   TOTAL_NAMES,
 } from "./grand-total.js";
 import { headerLineHint } from "./header-line-hint.js";
+import { mixedStartsNote } from "./mixed-starts.js";
 import { LS_LINES, MODES_FIRST, modeLineShape, TAR_LINES } from "./mode-lines.js";
 import { MOUNT_TABLE, mountLine } from "./mount-table.js";
 import { columnsAlignedMessage } from "./process-columns.js";
@@ -420,14 +421,16 @@ export class PathListReader {
     // The root is the listed folder when a line named it by the empty path, or when it is the one top
     // name and that is "." (no folder of the listing can be named so).
     const start = root !== -1 || onlyTopIsDot(sink);
+    const mixed = this.backslashes ? undefined : mixedStartsNote(sink, root, (i) => placer.isListed(i));
     return sink.finish(this.rootName, new Map(), null, {
       shape: "paths",
       sizeUnit: plain ? "number" : "bytes",
       ...(totals ? { folderTotals: true } : {}),
       ...(start ? { rootIsStart: true } : {}),
-      ...(csvLike || grandTotal || folders?.note || this.notUtf8Lines > 0
+      ...(csvLike || grandTotal || folders?.note || this.notUtf8Lines > 0 || mixed
         ? {
             notes: [
+              ...(mixed ? [mixed] : []),
               ...(csvLike ? [commasNote(this.firstLine, this.commas, this.firstCells)] : []),
               ...(grandTotal ? [grandTotal] : []),
               ...(folders?.note ? [folders.note] : []),
