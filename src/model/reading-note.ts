@@ -50,7 +50,7 @@ export interface ReadingNote {
  * `LAST_LINE_LIKE_TOTAL`: such a last line in a word that is no translation of du's "total" espalier
  * knows, read as an entry (path-list/grand-total.ts). `IDS_RENUMBERED`: a diff's NEW version, matched
  * by id, in which almost no node kept its id while almost all pair by name and place, as renumbered ids
- * do (diff/ids-renumbered.ts). `NOT_UTF8`: lines of a path list or rows of a table hold bytes that are
+ * do (diff/ids-renumbered.ts). `UNDECODABLE_BYTES`: lines of a path list or rows of a table hold bytes that are
  * not UTF-8, read as U+FFFD; count: how many (load/not-utf8-note.ts). `ABSOLUTE_AND_RELATIVE`: a path
  * list names paths from "/" and paths that start elsewhere, read as two trees side by side
  * (load/path-list/mixed-starts.ts).
@@ -70,7 +70,7 @@ export const readingNoteCodes = [
   "TOTAL_LINE_LEFT_OUT",
   "LAST_LINE_LIKE_TOTAL",
   "IDS_RENUMBERED",
-  "NOT_UTF8",
+  "UNDECODABLE_BYTES",
   "ABSOLUTE_AND_RELATIVE",
 ] as const;
 

@@ -33,7 +33,9 @@ const clauses: Readonly<Record<ReadingNoteCode, Clause>> = {
     ofRun: true,
   },
   ABSOLUTE_AND_RELATIVE: { said: () => "absolute and relative paths read as two trees" },
-  NOT_UTF8: { counted: ["entry not UTF-8, read with U+FFFD", "entries not UTF-8, read with U+FFFD"] },
+  UNDECODABLE_BYTES: {
+    counted: ["entry not UTF-8, read with U+FFFD", "entries not UTF-8, read with U+FFFD"],
+  },
 };
 
 /**

@@ -41,7 +41,7 @@ describe("a table whose ids are written in Latin-1 bytes", () => {
     });
     // Only the note that two rows hold bytes that are not UTF-8 (each read as U+FFFD).
     expect(result.stderr).toMatch(
-      /^espalier: note: <stdin>:2: 2 rows hold bytes that are not UTF-8 .*\[NOT_UTF8\]\n$/,
+      /^espalier: note: <stdin>:2: 2 rows hold bytes that are not UTF-8 .*\[UNDECODABLE_BYTES\]\n$/,
     );
     expect(result.code).toBe(0);
     const summary = JSON.parse(result.stdout);

@@ -42,7 +42,7 @@ function sh(script: string): Buffer {
 
 describe("names whose bytes are not UTF-8", () => {
   it.skipIf(!gnu)(
-    "a find listing of Latin-1 names is read with a NOT_UTF8 note counting its lines",
+    "a find listing of Latin-1 names is read with a UNDECODABLE_BYTES note counting its lines",
     async () => {
       const listing = sh("find bakery -printf '%s\\t%p\\n' | sort -k2");
       const count = Number(
@@ -53,7 +53,7 @@ describe("names whose bytes are not UTF-8", () => {
       expect(r.code).toBe(0);
       const notes = JSON.parse(r.stdout).input.notes;
       expect(notes).toHaveLength(1);
-      expect(notes[0].code).toBe("NOT_UTF8");
+      expect(notes[0].code).toBe("UNDECODABLE_BYTES");
       expect(notes[0].message).toMatch(new RegExp(`^${count} lines hold bytes that are not UTF-8`));
       // The first such line, as the listing numbers its lines.
       const first =
@@ -62,7 +62,7 @@ describe("names whose bytes are not UTF-8", () => {
           .split("\n")
           .findIndex((line) => /[\x80-\xff]/.test(line)) + 1;
       expect(notes[0].line).toBe(first);
-      expect(r.stderr).toMatch(/iconv -f latin1 -t utf-8.*\[NOT_UTF8\]\n$/);
+      expect(r.stderr).toMatch(/iconv -f latin1 -t utf-8.*\[UNDECODABLE_BYTES\]\n$/);
       // The text header says it, so standard output alone does.
       const text = await cli(["-"], { stdin: listing });
       expect(text.stdout.split("\n")[0]).toContain("3 entries not UTF-8, read with U+FFFD");
@@ -81,7 +81,7 @@ describe("names whose bytes are not UTF-8", () => {
     },
   );
 
-  it("a name that writes U+FFFD itself in UTF-8 is no NOT_UTF8", async () => {
+  it("a name that writes U+FFFD itself in UTF-8 is no UNDECODABLE_BYTES", async () => {
     const r = await cli(["-", "--format", "json"], {
       stdin: "10\tbakery/\uFFFD-stamp.txt\n20\tbakery/b.txt\n",
     });
@@ -89,7 +89,7 @@ describe("names whose bytes are not UTF-8", () => {
     expect(JSON.parse(r.stdout).input.notes).toBeUndefined();
   });
 
-  it("a CSV table whose name cells are Latin-1 is read with a NOT_UTF8 note counting its rows", async () => {
+  it("a CSV table whose name cells are Latin-1 is read with a UNDECODABLE_BYTES note counting its rows", async () => {
     // An invented bakery's regions, exported by an old spreadsheet; rows 2 and 4 hold 0xE9 and 0xE8.
     const table = latin1(
       "id,parent,name,size\n1,,Bakery,0\n2,1,R\xe9gion Nord,10\n3,1,Sud,20\n4,2,Caf\xe8,5\n",
@@ -97,7 +97,7 @@ describe("names whose bytes are not UTF-8", () => {
     const r = await cli(["-", "--format", "json"], { stdin: table });
     expect(r.code).toBe(0);
     const read = JSON.parse(r.stdout);
-    expect(read.input.notes).toEqual([expect.objectContaining({ code: "NOT_UTF8", line: 3 })]);
+    expect(read.input.notes).toEqual([expect.objectContaining({ code: "UNDECODABLE_BYTES", line: 3 })]);
     expect(read.input.notes[0].message).toMatch(/^2 rows hold/);
     // The two names stay apart and keep their sizes (10 + 5 under R\uFFFDgion Nord).
     expect(read.totals.size).toBe(35);
@@ -105,13 +105,13 @@ describe("names whose bytes are not UTF-8", () => {
     expect(JSON.parse(converted.stdout).input.notes).toBeUndefined();
   });
 
-  it("a CSV table whose ids are Latin-1 is read with a NOT_UTF8 note at the first such row", async () => {
+  it("a CSV table whose ids are Latin-1 is read with a UNDECODABLE_BYTES note at the first such row", async () => {
     // An id in Latin-1 (0xE9, 0xF4) and the parent cell that names it: linked by their bytes, three rows.
     const table = latin1("id,parent,size\nd\xe9p\xf4t,,1\nstall,d\xe9p\xf4t,2\nkiosk,stall,3\n");
     const r = await cli(["-", "--format", "json"], { stdin: table });
     expect(r.code).toBe(0);
     const read = JSON.parse(r.stdout);
-    expect(read.input.notes).toEqual([expect.objectContaining({ code: "NOT_UTF8", line: 2 })]);
+    expect(read.input.notes).toEqual([expect.objectContaining({ code: "UNDECODABLE_BYTES", line: 2 })]);
     expect(read.input.notes[0].message).toMatch(/^2 rows hold/);
     expect(read.totals.nodes).toBe(3);
   });

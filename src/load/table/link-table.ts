@@ -64,7 +64,7 @@ export function linkTable(
   return linked;
 }
 
-/** The NOT_UTF8 note of a table some rows of which hold bytes that are not UTF-8, as `notes`. */
+/** The UNDECODABLE_BYTES note of a table some rows of which hold bytes that are not UTF-8, as `notes`. */
 function notUtf8Notes(table: Table): { notes?: ReadingNote[] } {
   const found = table.notUtf8?.();
   if (found === undefined) return {};
