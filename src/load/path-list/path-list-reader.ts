@@ -43,6 +43,7 @@ const dot = 46;
 const colon = 58;
 const backslash = 92;
 const comma = 44;
+const semicolon = 59;
 const quote = 34;
 
 /**
@@ -137,6 +138,9 @@ export class PathListReader {
   private commas = 0;
   private firstCells: string[] = [];
   private sameCommas = true;
+  /** As `commas`, for semicolons: rows of a table a spreadsheet saved with ";" between cells (see `end`). */
+  private semicolons = 0;
+  private sameSemicolons = true;
   /** How folders' sizes count (folder-totals.ts); undefined: decided by the listing. */
   private readonly folderSizes: FolderSizes | undefined;
   /** The bytes of the line being read when they are not UTF-8 (it is read decoded), else undefined. */
@@ -344,6 +348,20 @@ export class PathListReader {
       // `npm ls --all --parseable --long`: each line a package's folder, ":" and its name@version. Read
       // as paths, each name@version would be a folder of its own beside or below the package's.
       throw new EspalierError("PARSE_PATHS", PACKAGE_LINES, { line: this.firstLine, column: 1 });
+    }
+    if (
+      this.detected &&
+      this.sized === false &&
+      this.semicolons > 0 &&
+      this.sameSemicolons &&
+      this.pathLines >= 2
+    ) {
+      // A table a spreadsheet saved with ";" between cells (where the comma is the decimal mark), given
+      // on standard input or in a file not named .csv: read as paths, each whole row would be one name.
+      throw new EspalierError("PARSE_PATHS", semicolonsMessage(this.semicolons), {
+        line: this.firstLine,
+        column: 1,
+      });
     }
     if (this.detected && this.sized === false && this.commas > 0 && this.sameCommas && this.pathLines >= 3) {
       // A pip RECORD file (path,hash,size) or any CSV saved without its header row: read as paths, each
@@ -726,6 +744,11 @@ export class PathListReader {
       if (modeFirst(bytes, start, end) && this.modeFirstLines++ === 0)
         this.tarFirst = modeLineShape(bytes.toString("utf8", start, Math.min(end, start + 200)));
       if (this.pathLines <= COMMA_LINES && packageLine(bytes, start, end)) this.packageLines++;
+      if (this.pathLines <= COMMA_LINES && this.sameSemicolons) {
+        const semicolons = countByte(bytes, semicolon, start, end);
+        if (this.pathLines === 1) this.semicolons = semicolons;
+        else if (semicolons !== this.semicolons) this.sameSemicolons = false;
+      }
       if (this.pathLines <= COMMA_LINES && this.sameCommas) {
         const commas = countByte(bytes, comma, start, end);
         if (this.pathLines === 1) {
@@ -1035,6 +1058,16 @@ function pathOf(sink: NodeSink, i: number, root: number): string {
   for (let k = i; k !== -1 && k !== root; k = sink.parentOf[k]) names.push(sink.name.get(k));
   names.reverse();
   return names[0] === "/" ? `/${names.slice(1).join("/")}` : names.join("/");
+}
+
+/**
+ * PARSE_PATHS for an unsized list every line of which (of the first {@link COMMA_LINES}, 2 at least)
+ * holds `n` semicolons: a table saved with ";" between cells, as spreadsheets save "CSV" where the
+ * comma is the decimal mark. RFC 4180 (section 2) separates fields by commas; the python3 csv module
+ * (a reference reader with a delimiter option) converts it.
+ */
+function semicolonsMessage(n: number): string {
+  return `every line holds ${n === 1 ? "a semicolon" : `${n} semicolons`}, as the rows of a table saved with ";" between cells do (spreadsheets save CSV so where the comma is the decimal mark): read as a path list, each whole row would be one name. espalier reads tables separated by commas (CSV, RFC 4180) or tabs (TSV): convert it first, python3 -c 'import csv, sys; csv.writer(sys.stdout).writerows(csv.reader(sys.stdin, delimiter=";"))' < FILE | espalier - (a decimal comma in a size stays one: write it with a point); to read each line as a path, pass --input-format paths`;
 }
 
 /** The note on a two-line list read as paths whose lines hold as many commas (see `end`). */
