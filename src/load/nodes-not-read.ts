@@ -99,7 +99,9 @@ export class NodesNotRead {
     const line = this.line[0];
     const first = this.keys[this.key[0]];
     const of = where(this.node[0]);
-    const objects = count === 1 ? "1 node object" : `${count} node objects`;
+    // Their size when they hold one: a document without sizes says none.
+    const sized = size > 0 ? ` of size ${size}` : "";
+    const objects = `${count === 1 ? "1 node object" : `${count} node objects`}${sized}`;
     const places = this.node.length;
     const more =
       places === 1
@@ -115,7 +117,7 @@ export class NodesNotRead {
       code: "NODES_NOT_READ",
       ...(line > 0 ? { line } : {}),
       count,
-      parts: say`the field ${quoted.name(first)} of ${holder} holds node objects (objects with ${quoted.name(fields.nameField)}, ${quoted.name(fields.sizeField)} or ${quoted.name(fields.childrenField)}) outside its ${quoted.name(fields.childrenField)}${more}: ${objects} of size ${size} in all are not read, and no total counts them; ${fix}`,
+      parts: say`the field ${quoted.name(first)} of ${holder} holds node objects (objects with ${quoted.name(fields.nameField)}, ${quoted.name(fields.sizeField)} or ${quoted.name(fields.childrenField)}) outside its ${quoted.name(fields.childrenField)}${more}: ${objects} in all, not read, and no total counts them; ${fix}`,
     };
   }
 }

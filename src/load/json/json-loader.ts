@@ -247,12 +247,17 @@ export class JsonLoader extends JsonTokenizer {
   private readonly notRead = new NodesNotRead();
   private looseCount = 0;
   private looseSizes = 0;
-  private looseKey = "";
+  /** The key of the field value open now (LOOSE), as written (quotes included), decoded when it holds nodes. */
+  private looseKey = new Uint8Array(64);
+  private looseKeyLength = 0;
   private looseLine = 0;
+  /** The fields that make an object a node object (name, size, children), and which is the size. */
+  private readonly shapeFields: Uint8Array[];
+  private readonly shapeTexts: string[];
+  private readonly shapeSize: number;
   private unreadKey: Uint8Array = new Uint8Array(0);
   private unreadQ = 0;
   private unreadE = 0;
-  private unreadAbsQ = 0;
 
   // Never null, and of one class whatever the load, so that a diff's NEW runs the code its OLD compiled
   // (a field that held null in one load and an object in the next changes the loader's shape).
@@ -291,6 +296,9 @@ export class JsonLoader extends JsonTokenizer {
     add(options.sizeField, F_SIZE, -1);
     add(options.childrenField, F_CHILDREN, -1);
     for (let f = 0; f < options.keepFields.length; f++) add(options.keepFields[f], 0, f);
+    this.shapeTexts = [options.nameField, options.sizeField, options.childrenField];
+    this.shapeFields = this.shapeTexts.map((text) => new TextEncoder().encode(text));
+    this.shapeSize = 1;
     add(MISSING_FIELD, F_MISSING, -1);
     // Only in a listing with npm's children field: no more keys to compare in any other document.
     if (options.childrenField === NPM_CHILDREN_FIELD) {
@@ -485,7 +493,6 @@ export class JsonLoader extends JsonTokenizer {
         this.unreadKey = bytes;
         this.unreadQ = q;
         this.unreadE = e;
-        this.unreadAbsQ = absQ;
       }
       this.unreadChildrenDepth =
         found < 0 && this.unreadChildrenAt === undefined && this.defaultChildrenKey(bytes, q, e)
@@ -513,25 +520,23 @@ export class JsonLoader extends JsonTokenizer {
    * (nodes-not-read.ts); the size field's value is read next (S_LOOSE_SIZE).
    */
   private looseField(bytes: Uint8Array, q: number, e: number, absQ: number, frame: Frame): number {
-    const fields = this.fields;
+    const shapeFields = this.shapeFields;
     const length = e - q - 1;
     const escaped = this.escaped;
     const text = escaped ? this.text(bytes, q, e, absQ) : "";
     let slot = S_SKIP;
-    for (let f = 0; f < fields.length; f++) {
-      const field = fields[f];
-      if ((field.mask & (F_NAME | F_SIZE | F_CHILDREN)) === 0) continue;
+    for (let f = 0; f < shapeFields.length; f++) {
       if (escaped) {
-        if (field.text !== text) continue;
+        if (this.shapeTexts[f] !== text) continue;
       } else {
-        const want = field.bytes;
+        const want = shapeFields[f];
         if (want.length !== length) continue;
         let k = 0;
         while (k < length && bytes[q + 1 + k] === want[k]) k++;
         if (k < length) continue;
       }
       frame.loose |= L_SHAPED;
-      if ((field.mask & F_SIZE) !== 0) {
+      if (f === this.shapeSize) {
         slot = S_LOOSE_SIZE;
         frame.looseSize = 0;
       }
@@ -1014,7 +1019,13 @@ export class JsonLoader extends JsonTokenizer {
   private openLoose(): void {
     this.looseCount = 0;
     this.looseSizes = 0;
-    this.looseKey = this.text(this.unreadKey, this.unreadQ, this.unreadE, this.unreadAbsQ);
+    // Copied, not decoded: most such values hold no node object, and their key is never said.
+    const { unreadKey, unreadQ } = this;
+    const length = this.unreadE - unreadQ + 1;
+    if (length > this.looseKey.length) this.looseKey = new Uint8Array(length * 2);
+    const key = this.looseKey;
+    for (let k = 0; k < length; k++) key[k] = unreadKey[unreadQ + k];
+    this.looseKeyLength = length;
     this.looseLine = this.pos.line;
   }
 
@@ -1032,7 +1043,11 @@ export class JsonLoader extends JsonTokenizer {
     if (this.role[top - 1] !== NODE || this.looseCount === 0) return;
     const node = this.frames[top - 1].node;
     const kind = frame.loose === 0 ? "list" : shaped ? "node" : "map";
-    this.notRead.add(this.looseKey, node, this.looseLine, this.looseCount, this.looseSizes, kind);
+    // The key as written, quotes included, is a JSON string the tokenizer has checked.
+    const key = JSON.parse(
+      new TextDecoder().decode(this.looseKey.subarray(0, this.looseKeyLength)),
+    ) as string;
+    this.notRead.add(key, node, this.looseLine, this.looseCount, this.looseSizes, kind);
     if (this.keeping) this.keeper.odd(node, this.sink.parentOf);
   }
 
