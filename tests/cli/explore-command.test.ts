@@ -444,11 +444,19 @@ describe("espalier explore OLD NEW, ids renumbered", () => {
     const newFile = join(dir, "next.csv");
     writeFileSync(oldFile, march);
     writeFileSync(newFile, `${next.join("\n")}\n`);
-    let stderr = "";
-    const ioWithErr: CliIO = { ...io(), stderr: { write: (t: string) => ((stderr += t), true) } };
+    const said: string[] = [];
+    const ioWithErr: CliIO = {
+      ...io(),
+      stderr: {
+        write: (t: string) => {
+          said.push(t);
+          return true;
+        },
+      },
+    };
     const terminal = new FakeTerminal(["q"], 24, 200);
     await exploreCommand(oldFile, newFile, options({ sizeField: "size" }), ioWithErr, { terminal });
-    expect(stderr).toMatch(/^espalier: note: .*next\.csv: matched by id, .*\[IDS_RENUMBERED\]\n$/);
+    expect(said.join("")).toMatch(/^espalier: note: .*next\.csv: matched by id, .*\[IDS_RENUMBERED\]\n$/);
     const screen = terminal.lastFrame().join("\n");
     expect(screen).toContain("ids look renumbered (9 nodes pair by path)");
     const printed = await cli(["diff", oldFile, newFile, "--parent-field", "manager", "--width", "198"]);
