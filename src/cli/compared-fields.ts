@@ -1,4 +1,5 @@
-import { DEFAULT_COMPARED_FIELDS, defaultComparedFields } from "../diff/field-edits.js";
+import { defaultComparedFields } from "../diff/field-edits.js";
+import { NPM_CHILDREN_FIELD, OVERRIDDEN_FIELD } from "../load/deduped-entries.js";
 import { safeText } from "../model/safe-text.js";
 import type { Tree } from "../model/tree.js";
 import { loadInput, loadVersions } from "./input.js";
@@ -17,12 +18,12 @@ export interface ComparedVersions {
 /**
  * Loads both versions with the fields the diff compares. `--compare-field` names them. Without it, a
  * diff compares `version` where both versions' records have it (a dependency listing's), a document read
- * as values its scalars' text, and else every other field the records hold (TreeReading.otherFields:
- * an image tag in a list of services, a title in an org chart), since a field no one compared would make
- * a changed value no change, and `--fail-on-change` pass it. Finding them takes a first read: both
- * versions are read again keeping them. A version from standard input is read once: the other version's
- * file is read first for its fields, and standard input keeps those; fields only it holds are said on
- * standard error as not compared.
+ * as values its scalars' text, and besides every other field the records hold (TreeReading.otherFields:
+ * an image tag in a list of services that also name a version, a title in an org chart), since a field
+ * no one compared would make a changed value no change, and `--fail-on-change` pass it. Finding them
+ * takes a first read: both versions are read again keeping them. A version from standard input is read
+ * once: the other version's file is read first for its fields, and standard input keeps those; fields
+ * only it holds are said on standard error as not compared.
  */
 export async function loadCompared(
   io: CliIO,
@@ -40,9 +41,9 @@ export async function loadCompared(
   const quiet: CliIO = { ...io, stderr: { write: () => true, isTTY: false } };
   const piped = oldInput === "-" ? newInput : newInput === "-" ? oldInput : undefined;
   if (piped !== undefined) {
-    // The file's fields, from a load of its own; `version` among them is compared by default anyway.
+    // The file's fields, from a load of its own.
     const probe = await loadInput(quiet, piped, opts);
-    const other = (probe.reading?.otherFields ?? []).filter((f) => !DEFAULT_COMPARED_FIELDS.includes(f));
+    const other = otherCompared([probe]);
     const trees = await loadVersions(
       io,
       oldInput,
@@ -50,22 +51,40 @@ export async function loadCompared(
       other.length > 0 ? { ...opts, otherCompared: other } : opts,
     );
     const fields = defaultComparedFields(trees[0], trees[1]);
-    if (fields.length > 0 || other.length === 0) {
-      const left = fields.length > 0 ? [] : otherFieldsOf(trees);
-      if (left.length > 0) io.stderr.write(notComparedNote(left));
-      return { trees, fields, optional: false };
-    }
     // Fields standard input holds and the file does not: not kept, so not compared.
-    const left = otherFieldsOf(trees).filter((f) => !other.includes(f));
+    const left = otherCompared(trees).filter((f) => !other.includes(f) && !fields.includes(f));
     if (left.length > 0) io.stderr.write(notComparedNote(left));
-    return { trees, fields: other, optional: true };
+    return withOther(trees, fields, other);
   }
   const trees = await loadVersions(io, oldInput, newInput, opts);
   const fields = defaultComparedFields(trees[0], trees[1]);
-  const other = fields.length > 0 ? [] : otherFieldsOf(trees);
+  const other = otherCompared(trees).filter((f) => !fields.includes(f));
   if (other.length === 0) return { trees, fields, optional: false };
   const again = await loadVersions(quiet, oldInput, newInput, { ...opts, otherCompared: other });
-  return { trees: again, fields: other, optional: true };
+  return withOther(again, fields, other);
+}
+
+/** The default fields and the other fields after them; a version may lack the others (optional). */
+function withOther(
+  trees: [Tree, Tree],
+  fields: readonly string[],
+  other: readonly string[],
+): ComparedVersions {
+  const all = [...fields, ...other.filter((f) => !fields.includes(f))];
+  return { trees, fields: all, optional: all.length > fields.length };
+}
+
+/**
+ * The record fields the versions hold beside those read for the tree (OLD's first) that a diff without
+ * `--compare-field` compares after the default ones (`version`, where both versions have it): all but
+ * npm ls's `overridden` (deduped-entries.ts), which marks an entry full rather than deduped: a package's
+ * deduped entry paired with its full entry would be an edit of nothing.
+ */
+function otherCompared(trees: readonly Tree[]): string[] {
+  const npm = trees.some(
+    (t) => t.reading?.shape === "nodes" && t.reading.childrenField === NPM_CHILDREN_FIELD,
+  );
+  return otherFieldsOf(trees).filter((f) => !(npm && f === OVERRIDDEN_FIELD));
 }
 
 /** The record fields either version holds beside those read for the tree, OLD's first. */

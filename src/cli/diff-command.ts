@@ -1,14 +1,12 @@
 import { totalChanges } from "../diff/changes.js";
 import { type DiffOptions, prepareDiff, summarizeDiff } from "../diff/diff-trees.js";
-import { idsRenumberedNote } from "../diff/ids-renumbered.js";
-import type { ReadingNote } from "../model/reading-note.js";
-import type { Tree } from "../model/tree.js";
 import { keyMostRows } from "../render/key-line.js";
 import type { CommandOutput } from "./command-output.js";
 import { loadCompared } from "./compared-fields.js";
+import { comparisonNotes } from "./comparison-notes.js";
 import { EXIT } from "./exit-codes.js";
 import { fitToBudget } from "./fit-to-budget.js";
-import { displayName, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
+import { pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { DiffCliOptions } from "./options.js";
 import {
@@ -21,7 +19,6 @@ import {
   outputSettings,
   sizeNameOf,
 } from "./output-settings.js";
-import { notesText } from "./reading-notes.js";
 import { diffHeaderRows, diffLines, diffRenderers } from "./renderers.js";
 
 /** Reads, compares and renders two versions; returns the text to print and the exit code. */
@@ -55,12 +52,7 @@ async function diffOutput(
   read.sizeName = sizeName;
   const compareFields = compared.fields;
   const prepared = prepareDiff(oldTree, newTree, { compareFields, fieldsOptional: compared.optional });
-  // What only the comparison shows (ids renumbered) is a note on NEW, said as the loaders' notes are.
-  const renumbered = idsRenumberedNote(prepared);
-  if (renumbered) io.stderr.write(notesText(withNotes(newTree, [renumbered]), displayName(newInput), key));
-  const versions = renumbered
-    ? [oldTree, withNotes(newTree, [...(newTree.reading?.notes ?? []), renumbered])]
-    : [oldTree, newTree];
+  const versions = comparisonNotes(prepared, [oldTree, newTree], newInput, io, key);
   const options: DiffOptions = {
     foci,
     budget: opts.budget ?? defaultBudget(io),
@@ -107,10 +99,4 @@ async function diffOutput(
   );
   const differ = totalChanges(result.totals.changes) > 0;
   return { text, exitCode: opts.failOnChange && differ ? EXIT.differences : EXIT.ok };
-}
-
-/** `tree` with `notes` as its reading notes (a tree read without a reading as a table's). */
-function withNotes(tree: Tree, notes: readonly ReadingNote[]): Tree {
-  const reading = tree.reading ?? { shape: "table", sizeUnit: "number" };
-  return { ...tree, reading: { ...reading, notes } };
 }

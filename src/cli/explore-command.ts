@@ -23,6 +23,7 @@ import type { Tree } from "../model/tree.js";
 import { palette } from "../render/palette.js";
 import { prepare } from "../summarize.js";
 import { loadCompared } from "./compared-fields.js";
+import { comparisonNotes } from "./comparison-notes.js";
 import { CONFIG_BOUND } from "./config.js";
 import { EXIT } from "./exit-codes.js";
 import { loadInput, pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
@@ -80,9 +81,11 @@ export async function exploreCommand(
     const [oldTree, newTree] = compared.trees;
     const compareFields = compared.fields;
     const prepared = prepareDiff(oldTree, newTree, { compareFields, fieldsOptional: compared.optional });
+    // Before the view takes the screen, as espalier diff says it: the note stays on the terminal after it.
+    const versions = comparisonNotes(prepared, [oldTree, newTree], newInput, io, key);
     // The header says of the inputs what `espalier diff` says (the reading chosen, the fields compared…).
     const settings = {
-      ...outputSettings(opts, io, prepared.combined.tree, [oldTree, newTree]),
+      ...outputSettings(opts, io, prepared.combined.tree, versions),
       compared: comparedSaid(compareFields, [oldTree, newTree]),
     };
     session = diffSession(prepared, { ...look(prepared.combined.tree), inputFacts: inputFacts(settings) });

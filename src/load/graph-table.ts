@@ -5,9 +5,10 @@ import { limitExceeded } from "./node-sink.js";
 import { fieldSizeUnit } from "./size-unit.js";
 import { checkWrittenIds } from "./table/check-written.js";
 import { inexactId } from "./table/inexact-id.js";
-import { keptColumns, sizeOf, cellText as text } from "./table/link-table.js";
+import { keptColumns, sizeOf } from "./table/link-table.js";
 import { idIsNullParent, missingParent, nearParentId, nullParentSet } from "./table/null-parent.js";
 import type { Cell, Table } from "./table/table.js";
+import { cellText as text } from "./table/table.js";
 
 type Fields = Pick<
   LoadOptions,

@@ -77,7 +77,8 @@ export interface HeaderOptions {
   unnamedOnly?: "OLD" | "NEW";
   /**
    * A diff: the record fields compared between matched nodes (`--compare-field`, else `version` where
-   * both versions have it), said beside the `edited` count (`1 edited (compared: version)`); empty
+   * both versions have it and the records' other fields), said beside the `edited` count (`1 edited
+   * (compared: version)`, four named at most); empty
    * for records of which no field was compared (`0 edited (no field compared)`), so a reader does not
    * take a changed title for no change; undefined where inputs hold no record fields (path lists).
    */
@@ -295,12 +296,19 @@ function diffParts(
   return (k, h) => [w(`diff by ${by}: ${kinds}`), counts, ...read, ...endParts(h, k, style)];
 }
 
-/** ` (compared: version, team)`, ` (no field compared)`, or nothing (see `HeaderOptions.compared`). */
+/** The compared fields a header names; more are counted (a lock file's records hold some twenty). */
+const COMPARED_NAMED = 4;
+
+/**
+ * ` (compared: version, team)`, ` (compared: version, license, engines and 16 other fields)`, ` (no
+ * field compared)`, or nothing (see `HeaderOptions.compared`). The JSON output lists every field.
+ */
 function comparedText({ compared }: HeaderOptions): string {
   if (compared === undefined) return "";
-  return compared.length === 0
-    ? " (no field compared)"
-    : ` (compared: ${compared.map((f) => safeText(f, 40)).join(", ")})`;
+  if (compared.length === 0) return " (no field compared)";
+  const named = compared.length > COMPARED_NAMED ? compared.slice(0, COMPARED_NAMED - 1) : compared;
+  const more = compared.length - named.length;
+  return ` (compared: ${named.map((f) => safeText(f, 40)).join(", ")}${more > 0 ? ` and ${more} other fields` : ""})`;
 }
 
 /** The header's text for Markdown: its own words escaped, the input's names as code spans. */

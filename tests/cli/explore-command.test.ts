@@ -426,3 +426,40 @@ describe("espalier explore", () => {
     expect(lstatSync(file).isSymbolicLink()).toBe(true);
   });
 });
+
+describe("espalier explore OLD NEW, ids renumbered", () => {
+  it("says IDS_RENUMBERED on standard error and on the header, as espalier diff does", async () => {
+    // Quillfeather's March chart with every id renumbered (M1 -> P101, …), names and managers kept: the
+    // independent count is the chart's 10 rows, 9 below the root, each under a manager of the same name.
+    const march = readFileSync("fixtures/examples/org-march.csv", "utf8");
+    const [header, ...rows] = march.trimEnd().split("\n");
+    const id = (old: string) => (old === "" ? "" : `P${100 + Number(old.slice(1))}`);
+    const next = [
+      header,
+      ...rows.map((row) => row.split(",")).map(([i, m, n]) => [id(i), id(m), n].join(",")),
+    ];
+    expect(rows).toHaveLength(10);
+    const dir = mkdtempSync(join(tmpdir(), "espalier-explore-renumbered-"));
+    const oldFile = join(dir, "march.csv");
+    const newFile = join(dir, "next.csv");
+    writeFileSync(oldFile, march);
+    writeFileSync(newFile, `${next.join("\n")}\n`);
+    const said: string[] = [];
+    const ioWithErr: CliIO = {
+      ...io(),
+      stderr: {
+        write: (t: string) => {
+          said.push(t);
+          return true;
+        },
+      },
+    };
+    const terminal = new FakeTerminal(["q"], 24, 200);
+    await exploreCommand(oldFile, newFile, options({ sizeField: "size" }), ioWithErr, { terminal });
+    expect(said.join("")).toMatch(/^espalier: note: .*next\.csv: matched by id, .*\[IDS_RENUMBERED\]\n$/);
+    const screen = terminal.lastFrame().join("\n");
+    expect(screen).toContain("ids look renumbered (9 nodes pair by path)");
+    const printed = await cli(["diff", oldFile, newFile, "--parent-field", "manager", "--width", "198"]);
+    expect(printed.stdout.split("\n")[0]).toContain("ids look renumbered (9 nodes pair by path)");
+  });
+});

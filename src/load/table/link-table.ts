@@ -22,7 +22,7 @@ import { idIsNullParent, missingParent, nearParentId, nullParentSet, spacedIdRow
 import { rowsInside } from "./rows-inside.js";
 import { rowsTable } from "./rows-table.js";
 import { withSeparatorHint } from "./separator-hint.js";
-import { type Cell, type NumberCells, numberCell, type Table } from "./table.js";
+import { type Cell, cellText, type NumberCells, numberCell, type Table } from "./table.js";
 
 /**
  * Links table rows into nodes: by id and parent columns when the table has both (an empty parent makes a
@@ -463,7 +463,7 @@ export function keptColumns(
 ): Map<string, string[]> {
   const values = new Map<string, string[]>();
   for (const key of options.keepFields) {
-    const cells = table.column(key);
+    const cells = table.keptText ? table.keptText(key) : table.column(key)?.map(cellText);
     if (!cells && options.optionalKeepFields?.includes(key)) continue;
     if (!cells) {
       const near = didYouMean(key, visibleColumns(table));
@@ -476,7 +476,7 @@ export function keptColumns(
           : { field: key, suggestion: near, fieldsSeen: visibleColumns(table) },
       );
     }
-    values.set(key, cells.map(cellText));
+    values.set(key, cells);
   }
   return values;
 }
@@ -504,12 +504,6 @@ function allText(cells: readonly Cell[], n: number, nonEmpty = false): boolean {
   return true;
 }
 
-/** A cell as text; an empty cell is "". */
-export function cellText(cell: Cell): string {
-  if (cell === undefined || cell === null) return "";
-  return typeof cell === "string" ? cell : String(cell);
-}
-
 /** The column a path map's keys are read from; no record field can be named so. */
 const PATH_KEY = "\u0000path";
 
@@ -528,11 +522,17 @@ export function linkPathMap(
     length: rows.length,
     textCells: false,
     column: (name) => (name === PATH_KEY ? keys : rows.column(name)),
+    keptText: (name) => rows.keptText?.(name),
     columnNames: () => rows.columnNames(),
   };
   if (table.length === 0) throw new EspalierError("INPUT_EMPTY", `the object keyed by path is empty`);
   const linked = linkByPath(table, keys, { ...options, pathField: PATH_KEY });
-  linked.reading = { shape: "path-map", sizeUnit: fieldSizeUnit(options.sizeField), pathMapField: field };
+  linked.reading = {
+    shape: "path-map",
+    sizeUnit: fieldSizeUnit(options.sizeField),
+    pathMapField: field,
+    ...withOtherFields(otherFields(rows.columnNames(), options)),
+  };
   return linked;
 }
 

@@ -1,5 +1,5 @@
 import { EspalierError, type SourcePos } from "../../errors.js";
-import type { Cell, Table } from "./table.js";
+import { type Cell, cellText, type Table } from "./table.js";
 
 /**
  * A table from a parsed JSON array of flat objects (rows); each element must be an object. `place`
@@ -40,6 +40,17 @@ export function rowsTable(
         cells[r] = value as Cell;
       }
       return found ? cells : undefined;
+    },
+    keptText(name) {
+      // A kept field is text: a nested value as its JSON, as the nested loaders keep one.
+      let found = false;
+      const texts = records.map((record) => {
+        if (!Object.hasOwn(record, name)) return "";
+        found = true;
+        const value = record[name];
+        return typeof value === "object" && value !== null ? JSON.stringify(value) : cellText(value as Cell);
+      });
+      return found ? texts : undefined;
     },
     ...(place ? { place } : {}),
     columnNames() {

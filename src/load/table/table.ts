@@ -15,6 +15,13 @@ export interface Table {
   readonly textCells: boolean;
   /** The column's cells, one per row, or undefined when no row has that column. */
   column(name: string): readonly Cell[] | undefined;
+  /**
+   * A kept column's cells as text, one per row ("" where a row has none), or undefined when no row has
+   * it: JSON or YAML rows give a nested value as its JSON text (a kept field is compared and shown as
+   * text, as the nested loaders keep one) where `column` refuses it. Tables without it keep `column`'s
+   * cells as text.
+   */
+  keptText?(name: string): string[] | undefined;
   /** The columns that exist, for messages. */
   columnNames(): string[];
   /** JSON or YAML rows: the first row as parsed, for the hints of a message (see rows-inside.ts). */
@@ -72,4 +79,10 @@ export function numberCell(cells: NumberCells, r: number): number | string {
   const value = cells.values[r];
   if (!Number.isNaN(value)) return value;
   return r < cells.texts.length ? cells.texts.get(r) : "";
+}
+
+/** A cell as text; an empty cell is "". */
+export function cellText(cell: Cell): string {
+  if (cell === undefined || cell === null) return "";
+  return typeof cell === "string" ? cell : String(cell);
 }
