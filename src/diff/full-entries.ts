@@ -14,9 +14,9 @@ import type { Tree } from "../model/tree.js";
  * version whose dependencies went unmatched too; they are then moved from the old full entry.
  *
  * Only for two listings read as npm's (node objects under `dependencies`, with a `version`, and a
- * DEDUPED_ENTRIES note on one of them). `pairBelow(o, n)` pairs the children of old node o and new
- * node n by path, and everything below them; it returns how many pairs it made, which this returns
- * summed. The k-th such old full entry of a package (in pre-order) pairs with the k-th new one.
+ * DEDUPED_ENTRIES note on one of them). The k-th such old full entry of a package (shallower first,
+ * then in pre-order) pairs with the k-th new one that still has a dependency unpaired, and the
+ * dependencies pair by path below them, those paired already left out. Returns how many pairs it made.
  */
 export function pairFullEntries(
   oldTree: Tree,
@@ -25,29 +25,89 @@ export function pairFullEntries(
   newCount: Int32Array,
   oldToNew: Int32Array,
   newToOld: Int32Array,
-  pairBelow: (o: number, n: number) => number,
 ): number {
   if (!npmListing(oldTree, newTree)) return 0;
   const oldVersion = oldTree.fields.get(VERSION_FIELD)!;
   const newVersion = newTree.fields.get(VERSION_FIELD)!;
+  const oldEntries = outerFirst(oldTree, (o) => orphaned(oldCount, oldToNew, newCount, o));
+  if (oldEntries.length === 0) return 0;
   const waiting = new Map<string, number[]>();
-  for (let o = 1; o < oldTree.length; o++) {
-    if (!orphaned(oldCount, oldToNew, newCount, o)) continue;
-    const key = packageKey(oldTree.name.get(o), oldVersion[o]);
+  for (const n of outerFirst(newTree, (n) => orphaned(newCount, newToOld, oldCount, n))) {
+    const key = packageKey(newTree.name.get(n), newVersion[n]);
     const list = waiting.get(key);
-    if (list) list.push(o);
-    else waiting.set(key, [o]);
+    if (list) list.push(n);
+    else waiting.set(key, [n]);
   }
-  if (waiting.size === 0) return 0;
+  const oldSide = { tree: oldTree, count: oldCount, toOther: oldToNew };
+  const newSide = { tree: newTree, count: newCount, toOther: newToOld };
   let pairs = 0;
-  for (let n = 1; n < newTree.length; n++) {
-    if (!orphaned(newCount, newToOld, oldCount, n)) continue;
-    const list = waiting.get(packageKey(newTree.name.get(n), newVersion[n]));
-    if (!list) continue;
-    // An earlier pair may have paired this one's dependencies already (a full entry below another).
-    while (list.length > 0 && !orphaned(oldCount, oldToNew, newCount, list[0])) list.shift();
-    const o = list.shift();
-    if (o !== undefined) pairs += pairBelow(o, n);
+  for (const o of oldEntries) {
+    const list = waiting.get(packageKey(oldTree.name.get(o), oldVersion[o]));
+    // An earlier pair may have paired this entry's dependencies already (a full entry below another).
+    if (!list || !unpairedChild(oldSide, o)) continue;
+    while (list.length > 0 && !unpairedChild(newSide, list[0])) list.shift();
+    const n = list.shift();
+    if (n !== undefined) pairs += pairUnpaired(oldSide, o, newSide, n);
+  }
+  return pairs;
+}
+
+/** One version's tree, subtree counts and pairing, as {@link pairFullEntries} reads and writes them. */
+interface Side {
+  readonly tree: Tree;
+  readonly count: Int32Array;
+  readonly toOther: Int32Array;
+}
+
+/**
+ * The nodes of `tree` for which `take` holds, shallower first, then in pre-order: an entry pairs
+ * before the full entries listed below it, which then pair along with it, by path.
+ */
+function outerFirst(tree: Tree, take: (x: number) => boolean): number[] {
+  const entries: number[] = [];
+  for (let x = 1; x < tree.length; x++) if (take(x)) entries.push(x);
+  const depth = tree.depth;
+  return entries.sort((a, b) => depth[a] - depth[b] || a - b);
+}
+
+/** Whether some child of x is not paired yet. */
+function unpairedChild({ count, toOther }: Side, x: number): boolean {
+  const end = x + count[x];
+  for (let c = x + 1; c < end; c += count[c]) if (toOther[c] === -1) return true;
+  return false;
+}
+
+/**
+ * Pairs the children of old node o and new node n by name, and the children of each pair likewise,
+ * down both subtrees, leaving out every node paired already: an earlier pair of full entries may have
+ * paired some (a full entry listed below another), and a node is never paired twice. A package's
+ * dependencies are the keys of one JSON object, so a name is one child (RFC 8259 §4: names should be
+ * unique; a repeated one is read as JSON.parse reads it, the last). Returns how many pairs it made.
+ */
+function pairUnpaired(oldSide: Side, o: number, newSide: Side, n: number): number {
+  const oldName = oldSide.tree.name;
+  const newName = newSide.tree.name;
+  const { count: oldCount, toOther: oldToNew } = oldSide;
+  const { count: newCount, toOther: newToOld } = newSide;
+  let pairs = 0;
+  const stack = [o, n];
+  while (stack.length > 0) {
+    const nx = stack.pop()!;
+    const ox = stack.pop()!;
+    const byName = new Map<string, number>();
+    for (let c = ox + 1; c < ox + oldCount[ox]; c += oldCount[c])
+      if (oldToNew[c] === -1) byName.set(oldName.get(c), c);
+    if (byName.size === 0) continue;
+    for (let c = nx + 1; c < nx + newCount[nx]; c += newCount[c]) {
+      if (newToOld[c] !== -1) continue;
+      const m = byName.get(newName.get(c));
+      if (m === undefined) continue;
+      byName.delete(newName.get(c));
+      oldToNew[m] = c;
+      newToOld[c] = m;
+      pairs++;
+      stack.push(m, c);
+    }
   }
   return pairs;
 }

@@ -1,50 +1,118 @@
 import { say } from "../errors.js";
 import type { ReadingNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
+import { KIND } from "./changes.js";
 import { matchTrees } from "./match.js";
 import type { PreparedDiff } from "./prepared-diff.js";
 import { subtreeCounts } from "./subtree-counts.js";
 
 /**
- * At most this share of the smaller version's nodes (the roots aside) kept their id, and at least
- * {@link BY_PATH} of them pair by name and place: then the ids look renumbered. Chosen, not measured:
- * "almost none" and "almost all" (a reorganisation that kept its ids pairs far more by id, one that
- * renamed and moved most people far fewer by path).
+ * At least this share of the removed nodes pair by name and place with added ones: then their ids look
+ * renumbered. Chosen, not measured: "most of them" (a month of an org chart's real changes pairs none
+ * so, as people who leave and join have other names; half an export numbered afresh pairs all).
  */
-const BY_ID = 0.1;
-const BY_PATH = 0.9;
+const BY_PATH = 0.5;
 
 /**
- * IDS_RENUMBERED: a diff matched by id (tables with an id and a parent column) in which almost no node
- * kept its id while almost every node pairs with one of the same name under its parent's counterpart,
- * as matching by path pairs them: every node then reads as removed and added, which is loud but says
- * nothing of why. Undefined otherwise, and for graphs, diffs matched by path and versions of fewer than
- * two nodes below the root. The path matching runs only when matching by id paired almost nothing.
+ * At least this share of the smaller version's nodes (the roots aside) moved or were renamed: then the
+ * ids may name other rows in NEW than in OLD (row numbers as ids), and both versions are matched by
+ * path to see. Chosen, not measured: a reorganisation moves fewer, and below it no whole-tree matching
+ * by path is paid for.
+ */
+const REUSED = 0.1;
+
+/**
+ * IDS_RENUMBERED: a diff matched by id (tables with an id and a parent column) whose ids look numbered
+ * afresh, loud but saying nothing of why. Either most removed nodes (two at least) have an added node of
+ * the same name under the same parent, as matching by path would pair them (every id changed, or a part
+ * of them: they read as removed and added); or a tenth of the nodes moved or were renamed while most of
+ * those changes (and removals) are nodes that matching by path pairs with another node than their id
+ * does (ids that number rows, shifted by a row taken out: they read as moved and renamed). The note says
+ * how many nodes pair so. Undefined otherwise, and for graphs and diffs matched by path.
  */
 export function idsRenumberedNote(prepared: PreparedDiff): ReadingNote | undefined {
   const { combined, totals } = prepared;
   if (combined.by !== "id" || totals.graph) return undefined;
+  const { removed, added, moved, renamed } = totals.changes;
   const { oldTree, newTree } = combined;
+  const advice =
+    "A diff of two tables with ids matches by id (see docs/diff.md, Matching); to compare by name and place, give both versions the same ids, or name a column both share with --id-field (and its parent column with --parent-field)";
+  if (removed >= 2 && added >= 2) {
+    const byPath = removedPairedByPath(prepared);
+    if (byPath >= 2 && byPath >= BY_PATH * removed)
+      return {
+        code: "IDS_RENUMBERED",
+        count: byPath,
+        parts: say`matched by id, of OLD's ${oldTree.length - 1} nodes below the root ${removed} found no id in NEW, while ${byPath} of them have a node of the same name under the same parent there that found no id in OLD, as matching by path pairs them: their ids look renumbered, so they read as removed and added. ${advice}`,
+      };
+  }
   const smaller = Math.min(oldTree.length, newTree.length) - 1;
-  if (smaller < 2) return undefined;
-  const byId = oldTree.length - 1 - totals.changes.removed;
-  if (byId > BY_ID * smaller) return undefined;
-  const byPath = pairedByPath(oldTree, newTree);
-  if (byPath < BY_PATH * smaller) return undefined;
-  const kept = byId === 1 ? "1 kept its id" : `${byId} kept their ids`;
+  if (moved + renamed < 2 || moved + renamed < REUSED * smaller) return undefined;
+  const otherwise = pairedOtherwise(prepared, oldTree, newTree);
+  if (otherwise < 2 || otherwise < BY_PATH * (moved + renamed + removed)) return undefined;
   return {
     code: "IDS_RENUMBERED",
-    count: byPath,
-    parts: say`matched by id, of OLD's ${oldTree.length - 1} nodes below the root ${kept} in NEW, while ${byPath} have a node of the same name under the same parent there, as matching by path pairs them: the ids look renumbered, so nodes read as removed and added. A diff of two tables with ids matches by id (see docs/diff.md, Matching); to compare by name and place, give both versions the same ids, or name a column both share with --id-field (and its parent column with --parent-field)`,
+    count: otherwise,
+    parts: say`matched by id, of OLD's ${oldTree.length - 1} nodes below the root ${moved} moved, ${renamed} were renamed and ${removed} found no id in NEW, while ${otherwise} nodes of NEW have a node of the same name under the same parent in OLD that another id named, as matching by path pairs them: the ids look renumbered (as row numbers are when a row is taken out), so nodes read as moved and renamed. ${advice}`,
   };
 }
 
-/** How many nodes below the root pair by path (names under matched parents), the ids set aside. */
-function pairedByPath(oldTree: Tree, newTree: Tree): number {
+/**
+ * How many nodes of NEW pair by path (names under matched parents, the ids set aside) with an old node
+ * that matching by id paired with another node, or with none.
+ */
+function pairedOtherwise(prepared: PreparedDiff, oldTree: Tree, newTree: Tree): number {
+  const { newIndex, oldIndex } = prepared.combined;
+  const byId = new Int32Array(oldTree.length).fill(-1);
+  for (let k = 0; k < newIndex.length; k++)
+    if (newIndex[k] >= 0 && oldIndex[k] >= 0) byId[oldIndex[k]] = newIndex[k];
   const oldPaths: Tree = { ...oldTree, ids: null };
   const newPaths: Tree = { ...newTree, ids: null };
   const { newToOld } = matchTrees(oldPaths, subtreeCounts(oldPaths), newPaths, subtreeCounts(newPaths));
   let pairs = 0;
-  for (let n = 1; n < newToOld.length; n++) if (newToOld[n] >= 0) pairs++;
+  for (let n = 1; n < newToOld.length; n++) if (newToOld[n] >= 0 && byId[newToOld[n]] !== n) pairs++;
+  return pairs;
+}
+
+/**
+ * How many removed nodes pair with an added node of the same name under the same parent, in the
+ * combined tree (docs/diff.md): a removed node stands under its old parent's counterpart, or under its
+ * removed old parent, whose pair's added children it then pairs with. Pre-order pairs a parent first;
+ * among children of one name the k-th removed pairs with the k-th added, as matching by path pairs them.
+ * Reads the removed nodes' subtrees and the children of the nodes they stand under, not every node.
+ */
+function removedPairedByPath(prepared: PreparedDiff): number {
+  const { tree, kind } = prepared.combined;
+  const { count } = prepared.measures;
+  const { parent, name } = tree;
+  const partner = new Map<number, number>();
+  // Each parent's added children by name, and how many of each name were taken (a list is never shifted:
+  // a root of a million renumbered children would make that quadratic).
+  const added = new Map<number, Map<string, { nodes: number[]; taken: number }>>();
+  const addedChildren = (q: number): Map<string, { nodes: number[]; taken: number }> => {
+    let byName = added.get(q);
+    if (byName) return byName;
+    byName = new Map();
+    for (let c = q + 1; c < q + count[q]; c += count[c]) {
+      if (kind[c] !== KIND.added) continue;
+      const key = name.get(c);
+      const list = byName.get(key);
+      if (list) list.nodes.push(c);
+      else byName.set(key, { nodes: [c], taken: 0 });
+    }
+    added.set(q, byName);
+    return byName;
+  };
+  let pairs = 0;
+  for (let r = 1; r < tree.length; r++) {
+    if (kind[r] !== KIND.removed) continue;
+    const p = parent[r];
+    const q = kind[p] === KIND.removed ? partner.get(p) : p;
+    if (q === undefined) continue;
+    const list = addedChildren(q).get(name.get(r));
+    if (list === undefined || list.taken === list.nodes.length) continue;
+    partner.set(r, list.nodes[list.taken++]);
+    pairs++;
+  }
   return pairs;
 }

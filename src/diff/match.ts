@@ -312,21 +312,7 @@ function matchByPath(
     pairDown(same, byBytes, elements, oldName, oldCount, newName, newCount, oldToNew, newToOld, from, to);
   const pairs = below(0, newTree.length);
   // A package's dependencies, listed under its full entry only, pair wherever that entry stands.
-  const moved = pairFullEntries(oldTree, oldCount, newTree, newCount, oldToNew, newToOld, (o, n) => {
-    const children = pairChildren(
-      same,
-      byBytes,
-      oldName,
-      oldCount,
-      o,
-      newName,
-      newCount,
-      n,
-      oldToNew,
-      newToOld,
-    );
-    return children + below(n + 1, n + newCount[n]);
-  });
+  const moved = pairFullEntries(oldTree, oldCount, newTree, newCount, oldToNew, newToOld);
   return { pairs: pairs + moved, parentsKept: moved === 0 };
 }
 

@@ -219,6 +219,7 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
       const at = lineCounter.linePos(v.range[0]);
       return { line: at.line, column: at.col };
     },
+    target: (value) => deref(value),
     claim(value, owner, role) {
       // Only an anchored node can be reached twice (its alias); a node inside an anchored one is reached
       // again only through it, and a node reached again is not walked into.

@@ -15,6 +15,7 @@ import {
   wrapperChildren,
 } from "./missing-field.js";
 import { NodeSink } from "./node-sink.js";
+import { countNodeObjects, NodesNotRead, type NotReadKind } from "./nodes-not-read.js";
 import { otherFields, withOtherFields } from "./other-fields.js";
 import { fieldSizeUnit } from "./size-unit.js";
 
@@ -48,6 +49,8 @@ export interface NestedAccess<V> {
    * value again).
    */
   claim(v: V, owner: number, role: "node" | "children"): number;
+  /** The value itself, an alias's target for an alias: the same for every way the value is reached. */
+  target(v: V): unknown;
 }
 
 /**
@@ -127,6 +130,9 @@ export function walkNested<V>(
     badNodeSize(sink.parentOf, sink.name, i, shown, field, pos);
   const keys: string[] = [];
   const values: V[] = [];
+  // The node objects read, by node (undefined for a leaf or a reference): their other fields are looked
+  // through for node objects once all are read (see notReadNote).
+  const read: (V | undefined)[] = [];
   for (let i = 0; i < sink.length; i++) {
     const v = pending[i] as V;
     pending[i] = undefined;
@@ -150,6 +156,7 @@ export function walkNested<V>(
       continue;
     }
     const placedAt = access.claim(v, i, "node");
+    if (placedAt === -1) read[i] = v;
     if (placedAt !== -1) {
       // The same node object again (an alias): a reference to its full entry.
       refer(i, placedAt);
@@ -327,6 +334,8 @@ export function walkNested<V>(
     missingEntries === 0
       ? undefined
       : missingEntriesNote(missingEntries, where(firstMissing), firstMissingLine || undefined);
+  const notRead = notReadNote(read, access, options, where);
+  const notes = [...(notRead ? [notRead] : []), ...(missingNote ? [missingNote] : [])];
   const linked = sink.finish(options.rootName, fields, null, {
     shape: "nodes",
     sizeUnit: fieldSizeUnit(options.sizeField),
@@ -334,11 +343,80 @@ export function walkNested<V>(
     ...(found ? { childrenFieldFound: true } : {}),
     ...(emptyEntries > 0 ? { emptyEntries } : {}),
     ...(!hasNames && unkeyed > 1 ? { unnamed: nameField } : {}),
-    ...(missingNote ? { notes: [missingNote] } : {}),
+    ...(notes.length > 0 ? { notes } : {}),
     ...withOtherFields(otherFields(seen.list(), options)),
   });
   const withEmpty = empty === undefined ? linked : { ...linked, empty: empty.slice(0, sink.length) };
   return linkedReferences ? { ...withEmpty, referenceOf: linkedReferences } : withEmpty;
+}
+
+/**
+ * NODES_NOT_READ (nodes-not-read.ts) for the node objects `read` (by node): the node objects in their
+ * fields that are not read as nodes (all but the name, size and children fields), each value counted once
+ * however many aliases reach it, and none that is read as a node. Places in document order.
+ */
+function notReadNote<V>(
+  read: readonly (V | undefined)[],
+  access: NestedAccess<V>,
+  options: LoadOptions,
+  where: (i: number) => MessagePart[],
+) {
+  const { nameField, sizeField, childrenField } = options;
+  const seen = new Set<unknown>();
+  for (const v of read) if (v !== undefined) seen.add(access.target(v));
+  const counting = {
+    isMap: (v: V) => access.kind(v) === Kind.Map,
+    isSeq: (v: V) => access.kind(v) === Kind.Seq,
+    items: (v: V) => access.items(v),
+    entries: (v: V, keys: string[], values: V[]) => access.entries(v, keys, values),
+    size: (v: V | undefined) => {
+      if (access.kind(v) !== Kind.Number) return undefined;
+      const size = access.number(v as V);
+      return isSize(size) ? size : undefined;
+    },
+    target: (v: V) => access.target(v),
+  };
+  const places: {
+    key: string;
+    node: number;
+    line: number;
+    count: number;
+    size: number;
+    kind: NotReadKind;
+  }[] = [];
+  const keys: string[] = [];
+  const values: V[] = [];
+  for (let i = 0; i < read.length; i++) {
+    const v = read[i];
+    if (v === undefined) continue;
+    keys.length = 0;
+    values.length = 0;
+    access.entries(v, keys, values);
+    for (let k = 0; k < keys.length; k++) {
+      const key = keys[k];
+      if (key === nameField || key === sizeField || key === childrenField) continue;
+      const kind = access.kind(values[k]);
+      if (kind !== Kind.Map && kind !== Kind.Seq) continue;
+      const { count, size } = countNodeObjects(values[k], options, counting, seen);
+      if (count === 0) continue;
+      const shaped =
+        kind === Kind.Map &&
+        [nameField, sizeField, childrenField].some((f) => access.field(values[k], f) !== undefined);
+      places.push({
+        key,
+        node: i,
+        line: access.line(values[k]),
+        count,
+        size,
+        kind: kind === Kind.Seq ? "list" : shaped ? "node" : "map",
+      });
+    }
+  }
+  if (places.length === 0) return undefined;
+  places.sort((a, b) => a.line - b.line);
+  const notRead = new NodesNotRead();
+  for (const p of places) notRead.add(p.key, p.node, p.line, p.count, p.size, p.kind);
+  return notRead.note(options, "yaml", where);
 }
 
 function grownFlags(flags: Uint8Array<ArrayBuffer>): Uint8Array<ArrayBuffer> {

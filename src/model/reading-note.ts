@@ -49,8 +49,11 @@ export interface ReadingNote {
  * what the other lines add up to, as `du -c` ends its listing, left out (path-list/grand-total.ts).
  * `LAST_LINE_LIKE_TOTAL`: such a last line in a word that is no translation of du's "total" espalier
  * knows, read as an entry (path-list/grand-total.ts). `IDS_RENUMBERED`: a diff's NEW version, matched
- * by id, in which almost no node kept its id while almost all pair by name and place, as renumbered ids
- * do (diff/ids-renumbered.ts).
+ * by id, in which most removed nodes pair by name and place with added ones, or most nodes moved or
+ * renamed pair so with other nodes than by id, as renumbered ids do (diff/ids-renumbered.ts).
+ * `NODES_NOT_READ`: node objects (objects holding the name, size or children field) in a field of a
+ * node object that is not read, as a second list beside the children field's, left out of the tree and
+ * of every total (load/nodes-not-read.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -67,6 +70,7 @@ export const readingNoteCodes = [
   "TOTAL_LINE_LEFT_OUT",
   "LAST_LINE_LIKE_TOTAL",
   "IDS_RENUMBERED",
+  "NODES_NOT_READ",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

@@ -21,6 +21,9 @@ const clauses: Readonly<Record<ReadingNoteCode, Clause>> = {
   SIZES_LEFT_OUT: { said: () => "sizes left out" },
   REPEATED_KEY: { counted: ["repeated key, the last read", "repeated keys, the last read"] },
   UNSIZED_IMPORTANCE: { said: () => "ranked by depth (no sizes)", ofRun: true },
+  NODES_NOT_READ: {
+    counted: ["node object outside the children not read", "node objects outside the children not read"],
+  },
   MISSING_ENTRIES: { counted: ["missing counted as a node", "missing counted as nodes"] },
   DEDUPED_ENTRIES: { counted: ["deduped entry counted as a leaf", "deduped entries counted as leaves"] },
   ALIASES_AS_TEXT: { counted: ["YAML alias read as text", "YAML aliases read as text"] },

@@ -50,6 +50,25 @@ const changed = listing({
 });
 
 /**
+ * Reduced from two real listings (npm 11's `npm ls --all --json` of a scratch project before and after
+ * one `npm install` of cached packages: from four direct dependencies to three others), by leaving out
+ * entries while the diff of the main branch counted them unlike the walk below; names invented. mast's
+ * full entry moves from the top to below hull, and rigging, a full entry below mast, has a full entry
+ * below keel too, which comes first: paired first, it took cleat, and mast's pairing then paired cleat
+ * a second time (a diff of `0 added, 1 removed` whose lines all read the project's name).
+ */
+const rigging = () => full("6.0.1", { cleat: full("5.0.1") });
+const hoisted = listing({ mast: full("7.0.0", { rigging: rigging() }) });
+const hoistedWithBow = listing({ bow: full("3.0.1"), mast: full("7.0.0", { rigging: rigging() }) });
+const underHull = listing({
+  hull: full("5.1.2", {
+    keel: full("4.2.3", { rigging: rigging() }),
+    beam: deduped("3.1.0"),
+    mast: full("7.0.0", { rigging: rigging() }),
+  }),
+});
+
+/**
  * The independent count: npm's dependency edges (package name@version -> dependency name@version), read
  * by a walk of the JSON written here: each entry's `dependencies`, a deduped entry listing none. Every
  * entry below the top is one edge, so the listing gains as many entries as edges were added.
@@ -106,6 +125,25 @@ describe("pairFullEntries (npm ls --all --json)", () => {
       expect(code).toBe(1);
     },
   );
+
+  it.each([
+    ["a full entry listed below another one that moves", hoisted, underHull],
+    ["the same, back", underHull, hoisted],
+    ["the same with a package dropped beside it", hoistedWithBow, underHull],
+    ["the same, back", underHull, hoistedWithBow],
+  ])("%s: no node is paired twice, and the counts are the edge walk's", async (_, oldText, newText) => {
+    const { code, diff } = await diffJson(oldText, newText);
+    const oldEdges = edges(oldText);
+    const newEdges = edges(newText);
+    expect(diff.changes.added).toBe(lacking(newEdges, oldEdges));
+    expect(diff.changes.removed).toBe(lacking(oldEdges, newEdges));
+    // Each version's entries (one per edge) and the root, as the walk counts them.
+    const entries = (e: Map<string, number>) => [...e.values()].reduce((a, b) => a + b, 1);
+    expect(diff.totals.old.nodes).toBe(entries(oldEdges));
+    expect(diff.totals.new.nodes).toBe(entries(newEdges));
+    expect(diff.totals.nodes).toBe(diff.totals.new.nodes + diff.changes.removed);
+    expect(code).toBe(1);
+  });
 
   it("leaves a real removal and a version change as they are", async () => {
     const { code, diff } = await diffJson(before, changed);

@@ -34,6 +34,30 @@ function namePaths(csv: string): string[] {
   return rows.map(([id]) => path(id)).sort();
 }
 
+/** The paths of names (as {@link namePaths} reads them) of the rows of `csv` whose id `other` lacks. */
+function pathsById(csv: string, other: string): string[] {
+  const idsOf = (text: string) =>
+    text
+      .trimEnd()
+      .split("\n")
+      .slice(1)
+      .map((row) => row.split(",")[0]);
+  const kept = new Set(idsOf(other));
+  const ids = idsOf(csv);
+  // One path a row, in the rows' order (namePaths sorts them).
+  const rows = csv
+    .trimEnd()
+    .split("\n")
+    .slice(1)
+    .map((row) => row.split(","));
+  const byId = new Map(rows.map(([id, manager, name]) => [id, { manager, name }]));
+  const path = (id: string): string => {
+    const row = byId.get(id)!;
+    return row.manager === "" ? row.name : `${path(row.manager)}/${row.name}`;
+  };
+  return ids.filter((id) => !kept.has(id)).map(path);
+}
+
 const args = ["--parent-field", "manager", "--format", "json"];
 
 describe("idsRenumberedNote", () => {
@@ -51,7 +75,7 @@ describe("idsRenumberedNote", () => {
       expect.objectContaining({
         version: "NEW",
         code: "IDS_RENUMBERED",
-        message: expect.stringContaining(", while 9 have"),
+        message: expect.stringContaining(", while 9 of them have"),
       }),
     ]);
     expect(result.stderr).toMatch(/^espalier: note: next\.csv: matched by id, .*\[IDS_RENUMBERED\]\n$/);
@@ -59,6 +83,92 @@ describe("idsRenumberedNote", () => {
       files: { "march.csv": march, "next.csv": next },
     });
     expect(text.stdout.split("\n")[0]).toContain("; ids look renumbered (9 nodes pair by path)");
+  });
+
+  it("says so when half the ids changed, counting the removed nodes that pair by name and place", async () => {
+    // Every second row (E2, E4, …) numbered afresh, its reports' manager column with it.
+    const next = renumbered(march, (id) =>
+      Number(id.slice(1)) % 2 === 0 ? `P${100 + Number(id.slice(1))}` : id,
+    );
+    const result = await cli(["diff", "march.csv", "next.csv", ...args], {
+      files: { "march.csv": march, "next.csv": next },
+    });
+    const diff = JSON.parse(result.stdout);
+    // The independent count: the paths of names of the rows whose id only March has, against those of
+    // the rows whose id only the next version has; every one of the first is among the second.
+    const removed = pathsById(march, next);
+    const added = pathsById(next, march);
+    expect(removed.length).toBe(5);
+    expect(removed.filter((path) => added.includes(path))).toHaveLength(5);
+    expect(diff.changes).toMatchObject({ added: added.length, removed: removed.length });
+    expect(diff.notes).toEqual([
+      expect.objectContaining({
+        version: "NEW",
+        code: "IDS_RENUMBERED",
+        message: expect.stringContaining(", while 5 of them have"),
+      }),
+    ]);
+    const text = await cli(["diff", "march.csv", "next.csv", "--parent-field", "manager"], {
+      files: { "march.csv": march, "next.csv": next },
+    });
+    expect(text.stdout.split("\n")[0]).toContain("; ids look renumbered (5 nodes pair by path)");
+  });
+
+  it("says so when ids number the rows and a row taken out shifts them: nodes read as moved and renamed", async () => {
+    // A listing of the fictional harbour depot's sheds, bays and crates, its rows numbered as an export
+    // numbers them (id = row number), then the same listing with one early crate taken out: every later
+    // row's number is one less, so by id later rows name other nodes.
+    const rows: [string, string][] = [["depot", ""]];
+    for (let shed = 1; shed <= 4; shed++) {
+      rows.push([`shed-${shed}`, "depot"]);
+      for (let bay = 1; bay <= 3; bay++) {
+        rows.push([`bay-${bay}`, `depot/shed-${shed}`]);
+        for (let crate = 1; crate <= 4; crate++)
+          rows.push([`crate-${crate}`, `depot/shed-${shed}/bay-${bay}`]);
+      }
+    }
+    const table = (kept: [string, string][]): string => {
+      const pathOf = (k: number) => (kept[k][1] === "" ? "" : `${kept[k][1]}/`) + kept[k][0];
+      const number = new Map(kept.map((_, k) => [pathOf(k), String(k + 1)]));
+      const lines = kept.map(
+        ([name, parent], k) => `${k + 1},${parent === "" ? "" : number.get(parent)},${name}`,
+      );
+      return `id,manager,name\n${lines.join("\n")}\n`;
+    };
+    const before = table(rows);
+    const after = table(rows.filter((_, k) => k !== 3));
+    const result = await cli(["diff", "before.csv", "after.csv", ...args], {
+      files: { "before.csv": before, "after.csv": after },
+    });
+    const diff = JSON.parse(result.stdout);
+    // The independent count: the paths of names both versions have (RFC 4180 rows, no quotes here), and
+    // among them those whose id differs between the versions.
+    const byPath = (csv: string) => {
+      const lines = csv
+        .trimEnd()
+        .split("\n")
+        .slice(1)
+        .map((line) => line.split(","));
+      const byId = new Map(lines.map(([id, manager, name]) => [id, { manager, name }]));
+      const path = (id: string): string => {
+        const row = byId.get(id)!;
+        return row.manager === "" ? row.name : `${path(row.manager)}/${row.name}`;
+      };
+      return new Map(lines.map(([id]) => [path(id), id]));
+    };
+    const [oldPaths, newPaths] = [byPath(before), byPath(after)];
+    const otherId = [...newPaths].filter(
+      ([path, id]) => path !== "depot" && oldPaths.has(path) && oldPaths.get(path) !== id,
+    );
+    expect(otherId).toHaveLength(rows.length - 4);
+    expect(diff.changes.moved + diff.changes.renamed).toBeGreaterThan((rows.length - 1) / 10);
+    expect(diff.notes).toEqual([
+      expect.objectContaining({
+        version: "NEW",
+        code: "IDS_RENUMBERED",
+        message: expect.stringContaining(`, while ${otherId.length} nodes of NEW have`),
+      }),
+    ]);
   });
 
   it("says nothing when the ids were kept (a month of real changes) or most changed along with names", async () => {

@@ -24,6 +24,7 @@ import {
   wrapperChildren,
 } from "../missing-field.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
+import { countNodeObjects, NodesNotRead, plainValues } from "../nodes-not-read.js";
 import { otherFields, withOtherFields } from "../other-fields.js";
 import { fieldSizeUnit } from "../size-unit.js";
 import { linkTable } from "../table/link-table.js";
@@ -44,6 +45,8 @@ const CHILD_LIST = 2;
 const CHILD_MAP = 3;
 const TOP_LIST = 4;
 const ROWS = 5;
+/** A value inside a field of a node object that is not read (nodes-not-read.ts): its node objects counted. */
+const LOOSE = 6;
 
 // What the next value is.
 const S_SKIP = 0;
@@ -53,7 +56,9 @@ const S_CHILD = 3;
 const S_KEYED = 4;
 const S_FIELD = 5;
 const S_ROW = 6;
-const itemSlot = [S_SKIP, S_SKIP, S_CHILD, S_SKIP, S_TOP_ITEM, S_ROW];
+/** The size field of an object in a value not read (LOOSE). */
+const S_LOOSE_SIZE = 7;
+const itemSlot = [S_SKIP, S_SKIP, S_CHILD, S_SKIP, S_TOP_ITEM, S_ROW, S_SKIP];
 
 // The kind of the last value seen for a node's field.
 const ABSENT = 0;
@@ -80,6 +85,10 @@ const SIZED = 1;
 const EMPTY = 2;
 const MISSING = 4;
 const DEDUPED = 8;
+
+// What an object in a value not read (LOOSE) holds (bits): one of the fields makes it a node object.
+const L_OBJECT = 1;
+const L_SHAPED = 2;
 
 interface Field {
   bytes: Uint8Array;
@@ -142,6 +151,9 @@ class Frame {
   /** Keeping (kept-json.ts): the line the node object opened on, and the column adjustment then. */
   openLine = 0;
   openAdjust = 0;
+  /** A value not read (LOOSE): what it is (L_ bits), and its size field's last value when a size. */
+  loose = 0;
+  looseSize = 0;
 }
 
 /** Nodes whose keys are sampled for messages (FieldsSeen): never taken from an earlier version. */
@@ -228,6 +240,24 @@ export class JsonLoader extends JsonTokenizer {
   private readonly missingLines = new Map<number, number>();
   /** Whether children by name were put in JSON.parse's order (nodes moved: missingLines may be stale). */
   private reordered = false;
+  /**
+   * Node objects in fields not read (nodes-not-read.ts); in the field value open now (LOOSE), how many
+   * and their sizes, its key and line; the last key of a node object that is not read, where it is.
+   */
+  private readonly notRead = new NodesNotRead();
+  private looseCount = 0;
+  private looseSizes = 0;
+  /** The key of the field value open now (LOOSE), as written (quotes included), decoded when it holds nodes. */
+  private looseKey = new Uint8Array(64);
+  private looseKeyLength = 0;
+  private looseLine = 0;
+  /** The fields that make an object a node object (name, size, children), and which is the size. */
+  private readonly shapeFields: Uint8Array[];
+  private readonly shapeTexts: string[];
+  private readonly shapeSize: number;
+  private unreadKey: Uint8Array = new Uint8Array(0);
+  private unreadQ = 0;
+  private unreadE = 0;
 
   // Never null, and of one class whatever the load, so that a diff's NEW runs the code its OLD compiled
   // (a field that held null in one load and an object in the next changes the loader's shape).
@@ -266,6 +296,9 @@ export class JsonLoader extends JsonTokenizer {
     add(options.sizeField, F_SIZE, -1);
     add(options.childrenField, F_CHILDREN, -1);
     for (let f = 0; f < options.keepFields.length; f++) add(options.keepFields[f], 0, f);
+    this.shapeTexts = [options.nameField, options.sizeField, options.childrenField];
+    this.shapeFields = this.shapeTexts.map((text) => new TextEncoder().encode(text));
+    this.shapeSize = 1;
     add(MISSING_FIELD, F_MISSING, -1);
     // Only in a listing with npm's children field: no more keys to compare in any other document.
     if (options.childrenField === NPM_CHILDREN_FIELD) {
@@ -371,6 +404,10 @@ export class JsonLoader extends JsonTokenizer {
     if (missing) notes.push(missing);
     const deduped = this.dedupedNote();
     if (deduped) notes.push(deduped);
+    // Nodes moved or dropped: a node index kept with a place may name another node now.
+    const stale = this.reordered || this.droppedNodes > 0;
+    const notRead = this.notRead.note(this.options, "json", (i) => (stale ? undefined : this.where(i)));
+    if (notRead) notes.push(notRead);
     const linked = sink.finish(this.options.rootName, fields, null, {
       shape: "nodes",
       sizeUnit: fieldSizeUnit(this.options.sizeField),
@@ -451,6 +488,12 @@ export class JsonLoader extends JsonTokenizer {
       }
       this.slot = found < 0 ? S_SKIP : S_FIELD;
       this.slotField = found;
+      if (found < 0) {
+        // Its text is made only if its value is an object or array (see `open`).
+        this.unreadKey = bytes;
+        this.unreadQ = q;
+        this.unreadE = e;
+      }
       this.unreadChildrenDepth =
         found < 0 && this.unreadChildrenAt === undefined && this.defaultChildrenKey(bytes, q, e)
           ? this.depth
@@ -464,12 +507,41 @@ export class JsonLoader extends JsonTokenizer {
       this.slotKey = this.text(bytes, q, e, absQ);
       this.slot = S_KEYED;
     } else {
-      this.slot = S_SKIP;
+      this.slot = role === LOOSE ? this.looseField(bytes, q, e, absQ, this.frames[top]) : S_SKIP;
       // The children field in an object under the top-level node: the top may be a map of nodes by name.
       if (top === 1 && this.role[0] === NODE && this.childrenBelowTop === undefined)
         if (this.text(bytes, q, e, absQ) === this.options.childrenField)
           this.childrenBelowTop = { holder: this.rootKey, line: this.pos.line };
     }
+  }
+
+  /**
+   * A key of an object in a value not read: a field a node is read for makes the object a node object
+   * (nodes-not-read.ts); the size field's value is read next (S_LOOSE_SIZE).
+   */
+  private looseField(bytes: Uint8Array, q: number, e: number, absQ: number, frame: Frame): number {
+    const shapeFields = this.shapeFields;
+    const length = e - q - 1;
+    const escaped = this.escaped;
+    const text = escaped ? this.text(bytes, q, e, absQ) : "";
+    let slot = S_SKIP;
+    for (let f = 0; f < shapeFields.length; f++) {
+      if (escaped) {
+        if (this.shapeTexts[f] !== text) continue;
+      } else {
+        const want = shapeFields[f];
+        if (want.length !== length) continue;
+        let k = 0;
+        while (k < length && bytes[q + 1 + k] === want[k]) k++;
+        if (k < length) continue;
+      }
+      frame.loose |= L_SHAPED;
+      if (f === this.shapeSize) {
+        slot = S_LOOSE_SIZE;
+        frame.looseSize = 0;
+      }
+    }
+    return slot;
   }
 
   protected stringValue(bytes: Uint8Array, q: number, e: number, absQ: number): void {
@@ -632,6 +704,9 @@ export class JsonLoader extends JsonTokenizer {
       case S_FIELD:
         this.fieldScalar(this.frames[top], kind, text, value, column);
         return;
+      case S_LOOSE_SIZE:
+        this.frames[top].looseSize = kind === NUMBER && isSize(value) ? value : 0;
+        return;
       case S_KEYED: {
         const j = this.keyedChild(top, column);
         if (kind === NUMBER) {
@@ -708,6 +783,7 @@ export class JsonLoader extends JsonTokenizer {
     if (this.keeping) this.keeper.odd(frame.node, this.sink.parentOf);
     this.repeated(this.options.childrenField);
     this.droppedNodes += this.sink.length - frame.childrenMark;
+    if (this.notRead.any) this.notRead.dropFrom(frame.childrenMark);
     this.sink.truncate(frame.childrenMark);
     for (const column of this.kept) column.length = frame.childrenMark;
     frame.childrenMark = -1;
@@ -810,6 +886,16 @@ export class JsonLoader extends JsonTokenizer {
     }
     let role = SKIP;
     let slot = S_SKIP;
+    if ((this.slot === S_SKIP || this.slot === S_LOOSE_SIZE) && top > 0) {
+      // A field of a node object that is not read, or a value inside one: its node objects are counted.
+      const up = this.role[top - 1];
+      if (up === NODE) this.openLoose();
+      if (up === NODE || up === LOOSE) {
+        role = LOOSE;
+        frame.loose = object ? L_OBJECT : 0;
+        frame.looseSize = 0;
+      }
+    }
     const column = this.pos.columnAt(this.base + i);
     const pos = { line: this.pos.line, column };
     switch (this.slot) {
@@ -898,7 +984,7 @@ export class JsonLoader extends JsonTokenizer {
           }
         }
         if (field.keeps.length > 0) {
-          this.captures.start(C_KEEP, top + 1, i, node, field.keeps);
+          this.captures.start(C_KEEP, top + 1, i, node, field.keeps, this.pos.line);
         }
         if ((field.mask & F_MISSING) !== 0) parentFrame.missing = false;
         if ((field.mask & F_VERSION) !== 0) parentFrame.version = false;
@@ -913,6 +999,56 @@ export class JsonLoader extends JsonTokenizer {
     }
     this.role[top] = role;
     this.slot = slot;
+  }
+
+  /** Counts the node objects in `value`, kept as the text of field `key` of node `node` (nodes-not-read.ts). */
+  private keptNotRead(value: unknown, key: string, node: number, line: number): void {
+    const { count, size } = countNodeObjects(value, this.options, plainValues, new Set());
+    if (count === 0) return;
+    const list = Array.isArray(value);
+    const shaped =
+      !list &&
+      [this.options.nameField, this.options.sizeField, this.options.childrenField].some((f) =>
+        Object.hasOwn(value as object, f),
+      );
+    this.notRead.add(key, node, line, count, size, list ? "list" : shaped ? "node" : "map");
+    if (this.keeping) this.keeper.odd(node, this.sink.parentOf);
+  }
+
+  /** A field of a node object that is not read opens (an object or array): none of its node objects counted yet. */
+  private openLoose(): void {
+    this.looseCount = 0;
+    this.looseSizes = 0;
+    // Copied, not decoded: most such values hold no node object, and their key is never said.
+    const { unreadKey, unreadQ } = this;
+    const length = this.unreadE - unreadQ + 1;
+    if (length > this.looseKey.length) this.looseKey = new Uint8Array(length * 2);
+    const key = this.looseKey;
+    for (let k = 0; k < length; k++) key[k] = unreadKey[unreadQ + k];
+    this.looseKeyLength = length;
+    this.looseLine = this.pos.line;
+  }
+
+  /**
+   * A value not read closes: an object holding a field a node is read for counts as a node object; the
+   * whole field value closing adds what it holds to the places (nodes-not-read.ts). A node with such a
+   * field is not taken by a later version's load: its node objects are counted where read.
+   */
+  private closeLoose(frame: Frame, top: number): void {
+    const shaped = frame.loose === (L_OBJECT | L_SHAPED);
+    if (shaped) {
+      this.looseCount++;
+      this.looseSizes += frame.looseSize;
+    }
+    if (this.role[top - 1] !== NODE || this.looseCount === 0) return;
+    const node = this.frames[top - 1].node;
+    const kind = frame.loose === 0 ? "list" : shaped ? "node" : "map";
+    // The key as written, quotes included, is a JSON string the tokenizer has checked.
+    const key = JSON.parse(
+      new TextDecoder().decode(this.looseKey.subarray(0, this.looseKeyLength)),
+    ) as string;
+    this.notRead.add(key, node, this.looseLine, this.looseCount, this.looseSizes, kind);
+    if (this.keeping) this.keeper.odd(node, this.sink.parentOf);
   }
 
   /** Whether a container opening at level `top` is a field value of the first element of a top-level array. */
@@ -979,6 +1115,8 @@ export class JsonLoader extends JsonTokenizer {
         for (const f of capture.keeps) {
           this.kept[f][capture.node] = text;
         }
+        // Shown as text, its node objects are no nodes either.
+        this.keptNotRead(value, this.options.keepFields[capture.keeps[0]], capture.node, capture.line);
       }
     }
     const role = this.role[top];
@@ -1002,6 +1140,8 @@ export class JsonLoader extends JsonTokenizer {
       }
       frame.keys.clear();
       frame.children.length = 0;
+    } else if (role === LOOSE) {
+      this.closeLoose(frame, top);
     }
   }
 

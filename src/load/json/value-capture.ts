@@ -20,6 +20,8 @@ export interface Capture {
   node: number;
   /** Indices into keepFields, for a kept field. */
   keeps: number[];
+  /** The line it starts on. */
+  line: number;
 }
 
 /**
@@ -33,8 +35,8 @@ export class Captures {
   constructor(private readonly maxBytes = readLimits.maxTokenBytes) {}
 
   /** Starts capturing a container that opens at offset `start` of the current chunk, at `depth`. */
-  start(kind: number, depth: number, start: number, node: number, keeps: number[]): void {
-    this.open.push({ kind, depth, parts: [], bytes: 0, start, node, keeps });
+  start(kind: number, depth: number, start: number, node: number, keeps: number[], line = 0): void {
+    this.open.push({ kind, depth, parts: [], bytes: 0, start, node, keeps, line });
   }
 
   /**

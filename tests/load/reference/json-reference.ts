@@ -97,4 +97,5 @@ const jsonAccess: NestedAccess<Json> = {
   line: () => 0,
   pos: () => undefined,
   claim: () => -1, // parsed JSON has no aliases: every value is reached once
+  target: (v) => v,
 };
