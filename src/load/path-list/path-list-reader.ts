@@ -13,6 +13,7 @@ import { parseSize } from "../parse-size.js";
 import { PathPlacer, viewOf } from "../path-placer.js";
 import { limitsOf, tooLong } from "../read-limits.js";
 import { checkReadingOptions } from "../reading-options.js";
+import { SEP_LINE, sepLineMessage } from "../sep-line.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { WrittenPaths } from "../written-paths.js";
 import { BLOCK_COUNTS, blockCountLine } from "./block-counts.js";
@@ -141,6 +142,8 @@ export class PathListReader {
   /** As `commas`, for semicolons: rows of a table a spreadsheet saved with ";" between cells (see `end`). */
   private semicolons = 0;
   private sameSemicolons = true;
+  /** The separator a first line `sep=X` names, as spreadsheets write it before a table's header, else "". */
+  private sepLine = "";
   /** How folders' sizes count (folder-totals.ts); undefined: decided by the listing. */
   private readonly folderSizes: FolderSizes | undefined;
   /** The bytes of the line being read when they are not UTF-8 (it is read decoded), else undefined. */
@@ -349,6 +352,11 @@ export class PathListReader {
       // as paths, each name@version would be a folder of its own beside or below the package's.
       throw new EspalierError("PARSE_PATHS", PACKAGE_LINES, { line: this.firstLine, column: 1 });
     }
+    if (this.detected && this.sized === false && this.sepLine !== "" && this.pathLines >= 2)
+      throw new EspalierError("PARSE_PATHS", sepLineMessage(this.sepLine, "paths"), {
+        line: this.firstLine,
+        column: 1,
+      });
     if (
       this.detected &&
       this.sized === false &&
@@ -681,6 +689,7 @@ export class PathListReader {
         this.filledColumns = this.headerFirst && this.headerWords.every((word) => CAPITALS.test(word));
         this.totalFirst = /^total [0-9]/.test(bytes.toString("latin1", start, Math.min(end, start + 8)));
         this.firstText = bytes.toString("utf8", start, Math.min(end, start + 200));
+        this.sepLine = SEP_LINE.exec(this.firstText)?.[1] ?? "";
       } else if (this.filledColumns && this.pathLines <= COMMA_LINES) {
         const fields = bytes.toString("utf8", start, end).trim().split(/ +/).length;
         if (fields < this.headerWords.length) this.filledColumns = false;
