@@ -171,7 +171,7 @@ function sbomNote(
       : say`, and ${apart.length} ${apart.length === 1 ? "component" : "components"} it does not name, each a top-level node (${quotedList("name", apart, 3)})`;
   return {
     code: "SBOM_DEPENDENCIES",
-    parts: say`read as a CycloneDX SBOM's dependency graph (specVersion ${quoted.value(specVersion)}, ECMA-424): ${named} ${named === 1 ? "node" : "nodes"} its "dependencies" list names${from}${others}; each named by its component's name, with its version a field (--label '{name} {version}'); --read-as values reads the document's values instead`,
+    parts: say`read as a CycloneDX SBOM's dependency graph (specVersion ${specVersion}, ECMA-424): ${named} ${named === 1 ? "node" : "nodes"} its "dependencies" list names${from}${others}; each named by its component's name, with its version a field (--label '{name} {version}'); --read-as values reads the document's values instead`,
   };
 }
 
