@@ -54,6 +54,8 @@ export interface ReadingNote {
  * `NODES_NOT_READ`: node objects (objects holding the name, size or children field) in a field of a
  * node object that is not read, as a second list beside the children field's, left out of the tree and
  * of every total (load/nodes-not-read.ts).
+ * `SBOM_DEPENDENCIES`: a CycloneDX document read as its dependency graph, not as its values
+ * (load/cyclonedx.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -71,6 +73,7 @@ export const readingNoteCodes = [
   "LAST_LINE_LIKE_TOTAL",
   "IDS_RENUMBERED",
   "NODES_NOT_READ",
+  "SBOM_DEPENDENCIES",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];
