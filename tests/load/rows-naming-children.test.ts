@@ -107,11 +107,19 @@ describe("loadTree(rows naming their children, --graph)", () => {
     expect(none.pos).toMatchObject({ line: 2 });
   });
 
-  it("still reads rows linked by parent as a graph table", () => {
-    const tree = loadTree(
-      '[{"ref":"a","parent":""},{"ref":"b","parent":"a"},{"ref":"c","parent":"a"},{"ref":"c","parent":"b"}]',
-      opts({ format: "json", graph: true, idField: "ref" }),
-    );
-    expect(slots(tree)).toEqual(["a", "  b", "    c", "  &c"]);
+  it("still reads rows linked by parent as a graph table, in JSON and in YAML", () => {
+    const rows = [
+      { ref: "a", parent: "" },
+      { ref: "b", parent: "a" },
+      { ref: "c", parent: "a" },
+      { ref: "c", parent: "b" },
+    ];
+    for (const [format, text] of [
+      ["json", JSON.stringify(rows)],
+      ["yaml", stringify(rows)],
+    ] as const) {
+      const tree = loadTree(text, opts({ format, graph: true, idField: "ref" }));
+      expect(slots(tree), format).toEqual(["a", "  b", "    c", "  &c"]);
+    }
   });
 });
