@@ -3,6 +3,7 @@ import type { DiffViewNode } from "../diff/diff-view.js";
 import { safeText, shownLabel } from "../model/safe-text.js";
 import { amount, formatCount, type NumberOptions } from "./amount.js";
 import { shortenMiddle } from "./display-width.js";
+import { editValues } from "./edit-values.js";
 import { formatSize } from "./format-size.js";
 import type { LineGroup } from "./line-groups.js";
 import type { LineParts } from "./line-layout.js";
@@ -124,7 +125,8 @@ export function changeTag(
     else parts.push(`renamed ${from}`);
   }
   node.edits.forEach((edit, k) => {
-    const text = `${safeText(edit.field)} ${cut(editValue(edit.old))} -> ${cut(editValue(edit.new))}`;
+    const [old, now] = editValues(edit.old, edit.new);
+    const text = `${safeText(edit.field)} ${cut(editValue(old))} -> ${cut(editValue(now))}`;
     if (k === 0 && node.change === "edited") parts[0] += ` ${text}`;
     else parts.push(text);
   });

@@ -36,6 +36,10 @@ const clauses: Readonly<Record<ReadingNoteCode, Clause>> = {
       `ids look renumbered (${formatCount(n.count ?? 0)} ${n.count === 1 ? "node pairs" : "nodes pair"} by path)`,
     ofRun: true,
   },
+  ABSOLUTE_AND_RELATIVE: { said: () => "absolute and relative paths read as two trees" },
+  UNDECODABLE_BYTES: {
+    counted: ["entry not UTF-8, read with U+FFFD", "entries not UTF-8, read with U+FFFD"],
+  },
 };
 
 /**

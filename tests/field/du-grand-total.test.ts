@@ -129,20 +129,21 @@ describe.skipIf(!isGnuDu || languages.length === 0)(
 
 describe("a last line in a word no catalog gives, whose size is the others' sum", () => {
   it("is read as an entry, and a LAST_LINE_LIKE_TOTAL note says it may be a total", async () => {
-    const sizes = [120, 30, 7, 1, 2, 3, 4, 5];
+    // Byte sizes of some tens or more: a quarter of them 1 to 4 would read as du -s --apparent-size's KiB.
+    const sizes = [1200, 305, 77, 15, 22, 31, 48, 59];
     const files = sizes.map((size, k) => `${size}\tledger/${k}.csv\n`).join("");
     const listing = `${files}${sizes.reduce((a, b) => a + b)}\tsumma\n`;
     const result = await cli(["-", "--format", "json"], { stdin: listing });
     const doc = JSON.parse(result.stdout);
-    expect(doc.totals.size).toBe(2 * 172);
+    expect(doc.totals.size).toBe(2 * 1757);
     expect(doc.input.notes).toEqual([expect.objectContaining({ code: "LAST_LINE_LIKE_TOTAL", line: 9 })]);
     const text = await cli(["-", "--budget", "6"], { stdin: listing });
     expect(text.stdout.split("\n")[0]).toContain("; line 9 may be a grand total, counted; ");
   });
 
   it("says nothing of a few lines that add up, or of a last name with a dot (a file joined from the others)", async () => {
-    const parts = "120\tp1\n30\tp2\n1\tp3\n2\tp4\n1\tp5\n3\tp6\n2\tp7\n4\tp8\n";
-    for (const listing of ["5\ta\n5\tb\n", "1\ta/x\n2\ta/y\n3\tb\n", `${parts}163\twhole.bin\n`]) {
+    const parts = "1200\tp1\n305\tp2\n15\tp3\n22\tp4\n17\tp5\n31\tp6\n26\tp7\n48\tp8\n";
+    for (const listing of ["5\ta\n5\tb\n", "1\ta/x\n2\ta/y\n3\tb\n", `${parts}1664\twhole.bin\n`]) {
       const doc = JSON.parse((await cli(["-", "--format", "json"], { stdin: listing })).stdout);
       expect(doc.input.notes).toBeUndefined();
     }

@@ -128,6 +128,64 @@ describe("du listings in units bigger than a byte", () => {
     },
   );
 
+  it.skipIf(!gnu)(
+    "du -s --apparent-size DIR/* (whole KiB, rounded up) is PARSE_PATHS naming du -sb; du -sb DIR/* is read",
+    async () => {
+      // Source: GNU du -sb (each entry's apparent bytes) and GNU du -s --apparent-size (the same, rounded
+      // up to whole KiB: checked below). A slipway's logs and two bays: 1, 3, 4, 7, 15, 30 KiB and the
+      // bays' directory entries with their manifests; read as bytes they were 1 B to 30 B, exit 0.
+      const slipway = mkdtempSync(join(tmpdir(), "espalier-du-apparent-"));
+      try {
+        writeFiles(slipway, {
+          "winch-0.log": 901,
+          "winch-1.log": 2603,
+          "winch-2.log": 3901,
+          "winch-3.log": 7001,
+          "tally.csv": 15005,
+          "hull-survey.txt": 30001,
+          "bay-a/manifest.csv": 1501,
+          "bay-b/manifest.csv": 9001,
+        });
+        const du = (args: string) =>
+          execFileSync("sh", ["-c", `du ${args} *`], { cwd: slipway, encoding: "utf8" });
+        const kib = du("-s --apparent-size");
+        const bytes = du("-sb");
+        const sizes = (listing: string) =>
+          listing
+            .trim()
+            .split("\n")
+            .map((l) => Number(l.split("\t")[0]));
+        expect(sizes(kib)).toEqual(sizes(bytes).map((b) => Math.ceil(b / 1024)));
+        const r = await cli(["-"], { stdin: kib });
+        expect(r.code).toBe(2);
+        expect(r.stdout).toBe("");
+        expect(r.stderr).toMatch(
+          /^espalier: <stdin>:1:1: .*du -s --apparent-size DIR\/\*.*du -sb DIR\/\*.*\[PARSE_PATHS\]\n$/,
+        );
+        const read = JSON.parse((await cli(["-", "--format", "json"], { stdin: bytes })).stdout);
+        expect(read.totals.size).toBe(sizes(bytes).reduce((s, b) => s + b, 0));
+        // --folder-sizes own reads the numbers as bytes, as the message says.
+        expect((await cli(["-", "--bare", "--folder-sizes", "own"], { stdin: kib })).code).toBe(0);
+      } finally {
+        rmSync(slipway, { recursive: true, force: true });
+      }
+    },
+  );
+
+  it("a listing whose small sizes are all one length above 1 is read as bytes", async () => {
+    // Links to one short name, as /usr/lib/git-core holds 169 links of 3 bytes to "git" (seen here with
+    // du -sb): a quarter or more of the sizes are 3, where KiB rounded up would give 1 to 4 mixed.
+    const lines = ["3", "3", "3", "3", "88112", "5120", "613", "2048", "977"].map(
+      (b, k) => `${b}\tcore/c${k}`,
+    );
+    const read = JSON.parse(
+      (await cli(["-", "--format", "json"], { stdin: `${lines.join("\n")}\n` })).stdout,
+    );
+    expect(read.totals.size).toBe(4 * 3 + 88112 + 5120 + 613 + 2048 + 977);
+    const mixed = lines.map((l, k) => (k === 0 ? l.replace(/^\d+/, "2") : l));
+    expect((await cli(["-"], { stdin: `${mixed.join("\n")}\n` })).code).toBe(2);
+  });
+
   it("a listing with a few one-byte entries among others is read as bytes", async () => {
     // Flag files of one byte ("1" without a newline) beside bigger ones: 2 of 9 is under a quarter.
     const lines = ["1", "1", "5120", "88", "4096", "613", "2048", "31", "977"].map(

@@ -121,7 +121,8 @@ describe("a million nodes deep or wide (no recursion on the input's shape)", () 
 
   it("espalier - of a path list with a node of 1,000,000 children, within budget 40", async () => {
     const lines = new Array<string>(N);
-    for (let i = 0; i < N; i++) lines[i] = `${i % 7}\tquill/c${i}`;
+    // Byte sizes of 0 and up from 1,001 (a quarter of them 1 to 4 would read as whole KiB, all multiples of 4 as 1 KiB blocks).
+    for (let i = 0; i < N; i++) lines[i] = `${(i % 7) * 1001}\tquill/c${i}`;
     const r = await cli(["-", "--input-format", "paths", "--budget", "40", "--format", "json"], {
       stdin: lines.join("\n"),
     });

@@ -55,7 +55,7 @@ export function folderTotals(
   // (a look at the first sizes, mostly: the first that is no multiple of 4 ends it).
   if (mode === undefined && order.contentAfterListing === 0 && order.listedAfterContents === 0) {
     if (inBlocks(nodes) && !wholeBlocks(nodes)) throw blockCounts("flat");
-    if (mostlyOnes(nodes)) throw wholeUnits();
+    if (smallUnits(nodes)) throw wholeUnits();
     return OWN;
   }
   const { length, parentOf, ownSize } = nodes;
@@ -274,34 +274,47 @@ function blockCounts(listing: "totals" | "flat"): EspalierError {
   return new EspalierError("PARSE_PATHS", message, { line: 1, column: 1 });
 }
 
+/** The largest size {@link smallUnits} counts as small: an entry of up to 4 KiB in `du -s --apparent-size`. */
+const SMALL_UNITS = 4;
+
 /**
- * Whether a listing with no entry inside another gives whole units of a MiB or more, rounded up, as
- * `du -sm DIR/*` (and `du -s --block-size=1M`) print each entry's disk usage: at least
- * {@link BLOCK_EVIDENCE} sizes above 0, a quarter of them or more exactly 1 (every entry of less than a
- * unit but above 0). A size of exactly one byte is rare: measured here on the folders of 8 entries or
- * more below /usr/share, /usr/lib, /etc and /usr/include, each one's entries listed in bytes (as
- * `du -sb DIR/*` does) and its files alone: none of the 2,798 with 8 sizes above 0 (2,303 files alone)
- * had a quarter of them 1, where 2,777 of the 2,778 listed in MiB (as `du -sm DIR/*` does) had.
+ * Whether a listing with no entry inside another gives whole units of a KiB or more, rounded up, as
+ * `du -s --apparent-size DIR/*` (KiB; GNU du rounds each entry's bytes up, seen here: its size is
+ * du -sb's divided by 1,024 and rounded up), `du -sm DIR/*` and `du -s --block-size=1M` print each
+ * entry: at least {@link BLOCK_EVIDENCE} sizes above 0, a quarter of them or more at most
+ * {@link SMALL_UNITS} (each entry of up to 4 KiB, or 4 MiB), and those not all one size above 1. In
+ * bytes such sizes are links and files of a word, mostly one length (/usr/lib/git-core: 169 links of
+ * 3 bytes to "git"). Measured here on the 3,012 folders of 8 entries or more below /usr/share,
+ * /usr/lib, /usr/local, /usr/bin, /usr/sbin, /usr/libexec, /usr/include, /usr/src, /etc, /var, /opt
+ * and this project's node_modules, each one's entries listed as du -sb DIR/* lists them: none
+ * refused; listed in KiB, 2,246 refused (818 by the rule of a quarter exactly 1 this replaced), in
+ * MiB 3,010. Of the 5,189 such folders' files and links alone (find DIR ! -type d -printf '%s\t%p\n'),
+ * one refused, as by that rule (a test folder of 1-byte files: --folder-sizes own reads it).
  */
-function mostlyOnes(nodes: PlacedSizes): boolean {
+function smallUnits(nodes: PlacedSizes): boolean {
   // Only a listed node has a size above 0; a size of 0 (a link, an empty file) says nothing of the unit.
   let sized = 0;
-  let ones = 0;
+  let small = 0;
+  let least = Number.POSITIVE_INFINITY;
+  let most = 0;
   const { ownSize } = nodes;
   for (let i = 0; i < nodes.length; i++) {
     const size = ownSize[i];
     if (size === 0) continue;
     sized++;
-    if (size === 1) ones++;
+    if (size > SMALL_UNITS) continue;
+    small++;
+    least = Math.min(least, size);
+    most = Math.max(most, size);
   }
-  return sized >= BLOCK_EVIDENCE && ones * 4 >= sized;
+  return sized >= BLOCK_EVIDENCE && small * 4 >= sized && (least === 1 || least !== most);
 }
 
-/** PARSE_PATHS for du -s DIR/* in MiB (or bigger units), as {@link mostlyOnes} reads a listing. */
+/** PARSE_PATHS for du -s DIR/* in KiB or bigger units, as {@link smallUnits} reads a listing. */
 function wholeUnits(): EspalierError {
   return new EspalierError(
     "PARSE_PATHS",
-    "a quarter or more of the sizes are exactly 1 and no listed entry is inside another, as du -sm DIR/* prints each entry's disk usage in whole MiB and du -s --apparent-size DIR/* its size in whole KiB, rounded up: read as bytes, each size would be a thousand or a million times too small. List bytes with du -sb DIR/* (or du -ab DIR, with what each folder holds), or pass --folder-sizes own to read the numbers as bytes (--units plain prints them as plain numbers)",
+    "a quarter or more of the sizes are 1 to 4 and no listed entry is inside another, as du -s --apparent-size DIR/* prints each entry's size in whole KiB and du -sm DIR/* its disk usage in whole MiB, rounded up: read as bytes, each size would be a thousand or a million times too small. List bytes with du -sb DIR/* (or du -s --apparent-size -B1 DIR/*, or du -ab DIR, with what each folder holds), or pass --folder-sizes own to read the numbers as bytes (--units plain prints them as plain numbers)",
     { line: 1, column: 1 },
   );
 }

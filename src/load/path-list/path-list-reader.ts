@@ -8,6 +8,7 @@ import { knownListingError } from "../known-listings.js";
 import type { LoadOptions } from "../load-options.js";
 import { checkNoNamedFields } from "../missing-field.js";
 import { NodeSink } from "../node-sink.js";
+import { notUtf8Note } from "../not-utf8-note.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer, viewOf } from "../path-placer.js";
 import { limitsOf, tooLong } from "../read-limits.js";
@@ -28,6 +29,7 @@ import {
   TOTAL_NAMES,
 } from "./grand-total.js";
 import { headerLineHint } from "./header-line-hint.js";
+import { mixedStartsNote } from "./mixed-starts.js";
 import { LS_LINES, MODES_FIRST, modeLineShape, TAR_LINES } from "./mode-lines.js";
 import { MOUNT_TABLE, mountLine } from "./mount-table.js";
 import { columnsAlignedMessage } from "./process-columns.js";
@@ -41,6 +43,7 @@ const dot = 46;
 const colon = 58;
 const backslash = 92;
 const comma = 44;
+const semicolon = 59;
 const quote = 34;
 
 /**
@@ -135,12 +138,18 @@ export class PathListReader {
   private commas = 0;
   private firstCells: string[] = [];
   private sameCommas = true;
+  /** As `commas`, for semicolons: rows of a table a spreadsheet saved with ";" between cells (see `end`). */
+  private semicolons = 0;
+  private sameSemicolons = true;
   /** How folders' sizes count (folder-totals.ts); undefined: decided by the listing. */
   private readonly folderSizes: FolderSizes | undefined;
   /** The bytes of the line being read when they are not UTF-8 (it is read decoded), else undefined. */
   private writtenLine: Buffer | undefined;
   /** Paths of lines whose bytes are not UTF-8, as read and as written (see {@link WrittenPaths}). */
   private readonly written = new WrittenPaths("line");
+  /** Lines whose bytes are not UTF-8, and the first one's number (see {@link notUtf8Note}). */
+  private notUtf8Lines = 0;
+  private firstNotUtf8 = 0;
   /** The input's length when known (`LoadOptions.inputBytes`), the bytes read so far, and whether room was made. */
   private readonly inputBytes: number | undefined;
   private readBytes = 0;
@@ -239,6 +248,8 @@ export class PathListReader {
           this.writtenLine = undefined;
         }
       } else {
+        // One line further than read so far: a line that is not UTF-8 is not blank.
+        if (this.notUtf8Lines++ === 0) this.firstNotUtf8 = this.line + 1;
         const read = Buffer.from(written.toString("utf8"), "utf8");
         this.writtenLine = written;
         try {
@@ -338,6 +349,20 @@ export class PathListReader {
       // as paths, each name@version would be a folder of its own beside or below the package's.
       throw new EspalierError("PARSE_PATHS", PACKAGE_LINES, { line: this.firstLine, column: 1 });
     }
+    if (
+      this.detected &&
+      this.sized === false &&
+      this.semicolons > 0 &&
+      this.sameSemicolons &&
+      this.pathLines >= 2
+    ) {
+      // A table a spreadsheet saved with ";" between cells (where the comma is the decimal mark), given
+      // on standard input or in a file not named .csv: read as paths, each whole row would be one name.
+      throw new EspalierError("PARSE_PATHS", semicolonsMessage(this.semicolons), {
+        line: this.firstLine,
+        column: 1,
+      });
+    }
     if (this.detected && this.sized === false && this.commas > 0 && this.sameCommas && this.pathLines >= 3) {
       // A pip RECORD file (path,hash,size) or any CSV saved without its header row: read as paths, each
       // whole row would be one path (its last name "f.py,sha256=…,2076"), with exit 0.
@@ -414,17 +439,20 @@ export class PathListReader {
     // The root is the listed folder when a line named it by the empty path, or when it is the one top
     // name and that is "." (no folder of the listing can be named so).
     const start = root !== -1 || onlyTopIsDot(sink);
+    const mixed = this.backslashes ? undefined : mixedStartsNote(sink, root, (i) => placer.isListed(i));
     return sink.finish(this.rootName, new Map(), null, {
       shape: "paths",
       sizeUnit: plain ? "number" : "bytes",
       ...(totals ? { folderTotals: true } : {}),
       ...(start ? { rootIsStart: true } : {}),
-      ...(csvLike || grandTotal || folders?.note
+      ...(csvLike || grandTotal || folders?.note || this.notUtf8Lines > 0 || mixed
         ? {
             notes: [
+              ...(mixed ? [mixed] : []),
               ...(csvLike ? [commasNote(this.firstLine, this.commas, this.firstCells)] : []),
               ...(grandTotal ? [grandTotal] : []),
               ...(folders?.note ? [folders.note] : []),
+              ...(this.notUtf8Lines > 0 ? [notUtf8Note("line", this.notUtf8Lines, this.firstNotUtf8)] : []),
             ],
           }
         : {}),
@@ -716,6 +744,11 @@ export class PathListReader {
       if (modeFirst(bytes, start, end) && this.modeFirstLines++ === 0)
         this.tarFirst = modeLineShape(bytes.toString("utf8", start, Math.min(end, start + 200)));
       if (this.pathLines <= COMMA_LINES && packageLine(bytes, start, end)) this.packageLines++;
+      if (this.pathLines <= COMMA_LINES && this.sameSemicolons) {
+        const semicolons = countByte(bytes, semicolon, start, end);
+        if (this.pathLines === 1) this.semicolons = semicolons;
+        else if (semicolons !== this.semicolons) this.sameSemicolons = false;
+      }
       if (this.pathLines <= COMMA_LINES && this.sameCommas) {
         const commas = countByte(bytes, comma, start, end);
         if (this.pathLines === 1) {
@@ -1025,6 +1058,16 @@ function pathOf(sink: NodeSink, i: number, root: number): string {
   for (let k = i; k !== -1 && k !== root; k = sink.parentOf[k]) names.push(sink.name.get(k));
   names.reverse();
   return names[0] === "/" ? `/${names.slice(1).join("/")}` : names.join("/");
+}
+
+/**
+ * PARSE_PATHS for an unsized list every line of which (of the first {@link COMMA_LINES}, 2 at least)
+ * holds `n` semicolons: a table saved with ";" between cells, as spreadsheets save "CSV" where the
+ * comma is the decimal mark. RFC 4180 (section 2) separates fields by commas; the python3 csv module
+ * (a reference reader with a delimiter option) converts it.
+ */
+function semicolonsMessage(n: number): string {
+  return `every line holds ${n === 1 ? "a semicolon" : `${n} semicolons`}, as the rows of a table saved with ";" between cells do (spreadsheets save CSV so where the comma is the decimal mark): read as a path list, each whole row would be one name. espalier reads tables separated by commas (CSV, RFC 4180) or tabs (TSV): convert it first, python3 -c 'import csv, sys; csv.writer(sys.stdout).writerows(csv.reader(sys.stdin, delimiter=";"))' < FILE | espalier - (a decimal comma in a size stays one: write it with a point); to read each line as a path, pass --input-format paths`;
 }
 
 /** The note on a two-line list read as paths whose lines hold as many commas (see `end`). */

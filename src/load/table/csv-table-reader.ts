@@ -108,6 +108,8 @@ export class CsvTableReader implements CsvSink {
   /** For each field of a record, the kept column it goes to, or undefined. */
   private route: (Kept | undefined)[] = [];
   private rows = 0;
+  /** Rows (from 0) a kept cell of which is not UTF-8, found where a cell is decoded (see `notUtf8`). */
+  private readonly notUtf8Rows = new Set<number>();
   private readonly maxRows: number;
   /** Lines of rows whose line is not the one after the row before (a quoted line break, a blank line). */
   private readonly lines = new RowLines();
@@ -242,9 +244,13 @@ export class CsvTableReader implements CsvSink {
     const filledRows = this.scanner.filled;
     let spelledOut = false;
     const keptForLater = this.keptTable(length, filledRows);
+    const notUtf8Rows = this.notUtf8Rows;
     return {
       length,
       textCells: true,
+      notUtf8() {
+        return notUtf8Of(kept, length, notUtf8Rows);
+      },
       ...(keptForLater ? { keptForLater } : {}),
       ...(filledRows > 0 ? { filledRows } : {}),
       column(name) {
@@ -329,7 +335,10 @@ export class CsvTableReader implements CsvSink {
     } else {
       const text = this.text(bytes, start, end);
       // Not UTF-8, or U+FFFD written as itself: both read as U+FFFD (see writtenCells).
-      if (keep.links && text.includes("\uFFFD")) keepWrittenCell(keep, row, text, bytes, start, end);
+      if (text.includes("\uFFFD")) {
+        if (keep.links) keepWrittenCell(keep, row, text, bytes, start, end);
+        if (!isUtf8(bytes.subarray(start, end))) this.notUtf8Rows.add(row);
+      }
       keep.cells.push(text);
     }
   }
@@ -355,6 +364,7 @@ export class CsvTableReader implements CsvSink {
     if (keep.asText && !isAscii(bytes, start, end) && !isUtf8(bytes.subarray(start, end))) {
       const text = this.text(bytes, start, end);
       if (keep.links) keepWrittenCell(keep, row, text, bytes, start, end);
+      this.notUtf8Rows.add(row);
       pool.setString(row, text);
     } else pool.setBytes(row, bytes, start, end);
   }
@@ -612,6 +622,33 @@ export class CsvTableReader implements CsvSink {
     }
     return codecs.utf8Slice(this.view, start, end);
   }
+}
+
+/**
+ * The rows of the first `length` a kept cell of which is not UTF-8: those found as their cells were
+ * decoded (`rows`), and those of a pool kept as bytes (names), found by one validation of its bytes,
+ * the rows looked at only when it fails. How many, and the first (from 1); undefined when none.
+ */
+function notUtf8Of(
+  kept: readonly Kept[],
+  length: number,
+  rows: ReadonlySet<number>,
+): { count: number; first: number } | undefined {
+  const all = new Set<number>();
+  for (const r of rows) if (r < length) all.add(r);
+  for (const keep of kept) {
+    const pool = keep.pool;
+    if (keep.asText || pool === null) continue;
+    const runs = pool.byteRuns();
+    if (runs === null || isUtf8(runs.bytes.subarray(0, pool.usedBytes))) continue;
+    const { bytes, start, size } = runs;
+    for (let r = 0, n = Math.min(length, pool.length); r < n; r++)
+      if (!isUtf8(bytes.subarray(start[r], start[r] + size[r]))) all.add(r);
+  }
+  if (all.size === 0) return undefined;
+  let first = length;
+  for (const r of all) first = Math.min(first, r);
+  return { count: all.size, first: first + 1 };
 }
 
 /** Keeps a linking cell as read and as written (see Table.writtenCells). */

@@ -3,10 +3,12 @@ import { didYouMean } from "../../did-you-mean.js";
 import { EspalierError, type MessagePart, placedAtRow, quoted, quotedList, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { copyName, isEmptyName, NamePool, type Names, StringNames } from "../../model/names.js";
+import type { ReadingNote } from "../../model/reading-note.js";
 import { isSize } from "../../model/size-rule.js";
 import type { LoadOptions } from "../load-options.js";
 import { missingField, nameFieldNamed, sizeFieldNamed } from "../missing-field.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
+import { notUtf8Note } from "../not-utf8-note.js";
 import { otherFields, withOtherFields } from "../other-fields.js";
 import { parseSize } from "../parse-size.js";
 import { PathPlacer } from "../path-placer.js";
@@ -56,9 +58,18 @@ export function linkTable(
     ...(idsName ? { namesFrom: options.idField } : {}),
     linkedBy: linkedBy(table, options),
     ...withOtherFields(otherFields(columns, options)),
+    ...notUtf8Notes(table),
   };
   if (table.place) linked.placeRow = table.place;
   return linked;
+}
+
+/** The UNDECODABLE_BYTES note of a table some rows of which hold bytes that are not UTF-8, as `notes`. */
+function notUtf8Notes(table: Table): { notes?: ReadingNote[] } {
+  const found = table.notUtf8?.();
+  if (found === undefined) return {};
+  const line = table.place?.(found.first)?.line ?? found.first + 1;
+  return { notes: [notUtf8Note("row", found.count, line)] };
 }
 
 /**

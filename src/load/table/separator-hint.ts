@@ -16,7 +16,7 @@ export function withSeparatorHint(error: unknown, header: readonly string[] | un
     error.code,
     [
       ...error.parts,
-      `; the header is one column holding ${semicolons} ${semicolons === 1 ? "semicolon" : "semicolons"}: a semicolon-separated file, which espalier does not read as CSV (RFC 4180 separates by commas); save or convert it with commas as separators first`,
+      `; the header is one column holding ${semicolons} ${semicolons === 1 ? "semicolon" : "semicolons"}: a semicolon-separated file, which espalier does not read as CSV (RFC 4180 separates by commas); save or convert it with commas as separators first, python3 -c 'import csv, sys; csv.writer(sys.stdout).writerows(csv.reader(sys.stdin, delimiter=";"))' < FILE | espalier -`,
     ],
     error.pos,
     error.details,

@@ -47,6 +47,11 @@ export interface Table {
    * among them too: they read as the others do.
    */
   writtenCells?(name: string): ReadonlyMap<number, WrittenCell> | undefined;
+  /**
+   * How many rows hold a read cell whose bytes are not UTF-8 (each bad sequence read as U+FFFD), and the
+   * first of them (from 1); undefined when none, or when the table was read from text.
+   */
+  notUtf8?(): { count: number; first: number } | undefined;
   /** What the table's load kept for a later version's (LoadOptions.keepForLaterVersion), when it did. */
   readonly keptForLater?: KeptTable;
 }

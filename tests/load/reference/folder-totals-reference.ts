@@ -59,9 +59,11 @@ export function folderTotalsByReference(
       const allWhole = [...listedAt.keys()].every((i) => sink.ownSize[i] % 512 === 0);
       if (fours && folders.length === 0 && !allWhole)
         throw new EspalierError("PARSE_PATHS", "flat sizes read as 1 KiB blocks", { line: 1, column: 1 });
-      // du -sm DIR/* (whole MiB, rounded up): at least 8 sizes above 0, a quarter or more of them exactly 1.
-      const ones = sizes.filter((size) => size === 1).length;
-      if (folders.length === 0 && sizes.length >= 8 && ones * 4 >= sizes.length)
+      // du -s --apparent-size DIR/* (whole KiB, rounded up), du -sm DIR/*: at least 8 sizes above 0, a
+      // quarter or more of them 1 to 4, and those 1 or not all one number.
+      const upToFour = sizes.filter((size) => size <= 4);
+      const mixed = upToFour.includes(1) || new Set(upToFour).size > 1;
+      if (folders.length === 0 && sizes.length >= 8 && upToFour.length * 4 >= sizes.length && mixed)
         throw new EspalierError("PARSE_PATHS", "flat sizes read as whole MiB", { line: 1, column: 1 });
       const nearestListedAbove = (i: number): number => {
         let p = sink.parentOf[i];

@@ -1,0 +1,20 @@
+import { say } from "../errors.js";
+import type { ReadingNote } from "../model/reading-note.js";
+
+/**
+ * UNDECODABLE_BYTES: `count` lines of a path list, or rows of a table, hold bytes that are not UTF-8 (RFC 3629),
+ * the first on input line `line`. Each bad sequence reads as U+FFFD, as the WHATWG decoder reads it, so
+ * the names print with it and two names that differ only in such bytes look alike; where they would be
+ * one node (one path, one id) the load refuses (written-paths.ts), else they stay two nodes, alike.
+ * A folder named on another system or a spreadsheet's old export is mostly Latin-1 (ISO/IEC 8859-1).
+ */
+export function notUtf8Note(unit: "line" | "row", count: number, line: number): ReadingNote {
+  const what = count === 1 ? `1 ${unit} holds` : `${count} ${unit}s hold`;
+  const first = unit === "line" ? `: line ${line}` : ` on line ${line}`;
+  return {
+    code: "UNDECODABLE_BYTES",
+    line,
+    count,
+    parts: say`${what} bytes that are not UTF-8 (the first${first}): each bad sequence was read as U+FFFD, so names that differ only there print alike; where they would be one path or one id the input is refused. When the input is Latin-1, as a folder named on another system or a spreadsheet's old export often is, convert it first: iconv -f latin1 -t utf-8 FILE | espalier -`,
+  };
+}
