@@ -56,8 +56,10 @@ export interface ReadingNote {
  * of every total (load/nodes-not-read.ts). `UNDECODABLE_BYTES`: lines of a path list or rows of a table
  * hold bytes that are not UTF-8, read as U+FFFD; count: how many (load/not-utf8-note.ts).
  * `ABSOLUTE_AND_RELATIVE`: a path list names paths from "/" and paths that start elsewhere, read as two
- * trees side by side (load/path-list/mixed-starts.ts). `UNIT_NOT_SAID`: a path list of one folder's
- * entries whose sizes, which show no unit, were read as bytes; count: the entries (cli/input.ts).
+ * trees side by side (load/path-list/mixed-starts.ts).
+ * `SBOM_DEPENDENCIES`: a CycloneDX document read as its dependency graph, not as its values
+ * (load/cyclonedx.ts). `UNIT_NOT_SAID`: a path list of one folder's entries whose sizes, which show no
+ * unit, were read as bytes; count: the entries (cli/input.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -77,6 +79,7 @@ export const readingNoteCodes = [
   "NODES_NOT_READ",
   "UNDECODABLE_BYTES",
   "ABSOLUTE_AND_RELATIVE",
+  "SBOM_DEPENDENCIES",
   "UNIT_NOT_SAID",
 ] as const;
 

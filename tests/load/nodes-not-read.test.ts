@@ -4,6 +4,7 @@ import { stringify } from "yaml";
 import { loadTree } from "../../src/load/index.js";
 import type { LoadOptions } from "../../src/load/load-options.js";
 import type { Tree } from "../../src/model/tree.js";
+import { cli } from "../helpers/cli.js";
 import { opts } from "./helpers.js";
 import { everyByte, loadStreamed, rng, utf8 } from "./stream/helpers.js";
 
@@ -166,6 +167,21 @@ describe("NODES_NOT_READ", () => {
       expect(noteOf(kept)!.line).toBe(noteOf(loadTree(text, opts()))!.line);
       expect(named(kept)[0]).toBe("owner");
     }
+  });
+
+  it("espalier --pseudonymize says the note, its header clause and JSON with no key or name of the input", async () => {
+    const files = { "input.json": JSON.stringify(HARBOR) };
+    const env = { ESPALIER_PSEUDONYM_KEY: "test-key-not-secret" };
+    const text = await cli(["input.json", "--pseudonymize"], { files, env });
+    expect(text.code).toBe(0);
+    expect(text.stderr).toContain("[NODES_NOT_READ]");
+    expect(text.stdout).toContain("3 node objects outside the children not read");
+    const json = await cli(["input.json", "--pseudonymize", "--format", "json"], { files, env });
+    expect(JSON.parse(json.stdout).input.notes.map((n: { code: string }) => n.code)).toEqual([
+      "NODES_NOT_READ",
+    ]);
+    for (const out of [text.stdout, text.stderr, json.stdout])
+      for (const word of ["harbor", "extras", "mooring", "quay", "ledger"]) expect(out).not.toContain(word);
   });
 
   it("loadTreeFromStream(json) counts alike whatever the chunks, single bytes included", async () => {
