@@ -289,6 +289,8 @@ export class PathListReader {
     if (this.detected && this.sized === false && this.numberFirstLines === this.pathLines) {
       // Every line as `find -printf '%s %p\n'` or `wc -c` prints it: read as names, each top-level name
       // would be a size, and every size lost, with exit 0.
+      if (FIND_LS.test(this.firstText))
+        throw new EspalierError("PARSE_PATHS", FIND_LS_LINES, { line: this.firstLine, column: 1 });
       throw new EspalierError(
         "PARSE_PATHS",
         "every line starts with a number and a space, as find -printf '%s %P\\n' and wc -c print: a size is read before a tab (find -printf '%s\\t%p\\n'), or before spaces when the first path starts with / or ./ (find /DIR or find . -printf '%s %p\\n'); to read these lines as paths whose names start with a number, pass --input-format paths",
@@ -950,6 +952,15 @@ function sizeLast(bytes: Buffer, start: number, end: number): boolean {
  * paths: a few names may end so (`scan 1`, `scan 2`), a whole listing of names rarely does.
  */
 const SIZE_LAST_EVIDENCE = 3;
+
+/**
+ * A line as `find -ls` prints it (GNU findutils, seen here): the inode, the blocks, the mode, the links,
+ * the owner and the group, then the size, the date and the path (` 349299  8 -rw-r--r--  1 root root 7943 May 11  2023 /usr/share/doc/dpkg/copyright`).
+ */
+const FIND_LS = /^ *[0-9]+ +[0-9]+ +[-dlcbpsD][-rwxsStT]{9}[.+@]? +[0-9]+ +\S+ +\S+ +[0-9]+ /;
+
+const FIND_LS_LINES =
+  "every line is as find -ls prints an entry (its inode, blocks, mode, links, owner, group, size, date and path): read as a path list, each whole line would be one path, its size and date part of the names. List each entry's size and path: find DIR -printf '%s\\t%p\\n'; to read each line as a path, pass --input-format paths";
 
 const SIZE_LAST =
   "every line ends in a space and a number, as find -printf '%p %s\\n' and stat -c '%n %s' put the size after the path: read as a path list, each number would be the end of a name and no size read. Put the size first, separated by a tab (find DIR -printf '%s\\t%p\\n', or awk '{n = $NF; sub(/ [0-9]+$/, \"\"); print n \"\\t\" $0}' LIST); to read each line as a path, pass --input-format paths";
