@@ -20,10 +20,12 @@ export interface ComparedVersions {
  * diff compares `version` where both versions' records have it (a dependency listing's), a document read
  * as values its scalars' text, and besides every other field the records hold (TreeReading.otherFields:
  * an image tag in a list of services that also name a version, a title in an org chart), since a field
- * no one compared would make a changed value no change, and `--fail-on-change` pass it. Finding them
- * takes a first read: both versions are read again keeping them. A version from standard input is read
- * once: the other version's file is read first for its fields, and standard input keeps those; fields
- * only it holds are said on standard error as not compared.
+ * no one compared would make a changed value no change, and `--fail-on-change` pass it. Each version's
+ * load keeps them as it reads (LoadOptions.keepOtherFields: a table's columns, rows' fields), a version
+ * from standard input too. Where a load did not keep them (a nested document), both versions are read
+ * again keeping them; a version from standard input cannot be: the other version's file is read first
+ * for its fields, and standard input keeps those; fields only it holds are said on standard error as
+ * not compared.
  */
 export async function loadCompared(
   io: CliIO,
@@ -39,6 +41,7 @@ export async function loadCompared(
     };
   // The first load's notes are said; a second load's are the same.
   const quiet: CliIO = { ...io, stderr: { write: () => true, isTTY: false } };
+  const keeping = { ...opts, keepOtherFields: true };
   const piped = oldInput === "-" ? newInput : newInput === "-" ? oldInput : undefined;
   if (piped !== undefined) {
     // The file's fields, from a load of its own.
@@ -48,20 +51,31 @@ export async function loadCompared(
       io,
       oldInput,
       newInput,
-      other.length > 0 ? { ...opts, otherCompared: other } : opts,
+      other.length > 0 ? { ...keeping, otherCompared: other } : keeping,
     );
     const fields = defaultComparedFields(trees[0], trees[1]);
-    // Fields standard input holds and the file does not: not kept, so not compared.
-    const left = otherCompared(trees).filter((f) => !other.includes(f) && !fields.includes(f));
+    // Fields standard input holds and did not keep (a nested document's): not compared.
+    const left = otherCompared(trees).filter(
+      (f) => !other.includes(f) && !fields.includes(f) && !trees.every((t) => keptOwn(t, f)),
+    );
     if (left.length > 0) io.stderr.write(notComparedNote(left));
-    return withOther(trees, fields, other);
+    // The file's fields (kept as named), then those standard input kept of its own.
+    const kept = [...new Set([...other, ...otherCompared(trees)])].filter((f) => !left.includes(f));
+    return withOther(trees, fields, kept);
   }
-  const trees = await loadVersions(io, oldInput, newInput, opts);
+  const trees = await loadVersions(io, oldInput, newInput, keeping);
   const fields = defaultComparedFields(trees[0], trees[1]);
   const other = otherCompared(trees).filter((f) => !fields.includes(f));
-  if (other.length === 0) return { trees, fields, optional: false };
+  if (other.length === 0) return { trees: onlyCompared(trees, fields), fields, optional: false };
+  if (trees.every((t) => (t.reading?.otherFields ?? []).every((f) => keptOwn(t, f))))
+    return withOther(trees, fields, other);
   const again = await loadVersions(quiet, oldInput, newInput, { ...opts, otherCompared: other });
   return withOther(again, fields, other);
+}
+
+/** Whether a version kept other field `field` as it was read, or holds no such field. */
+function keptOwn(tree: Tree, field: string): boolean {
+  return tree.fields.has(field) || !(tree.reading?.otherFields ?? []).includes(field);
 }
 
 /** The default fields and the other fields after them; a version may lack the others (optional). */
@@ -71,7 +85,21 @@ function withOther(
   other: readonly string[],
 ): ComparedVersions {
   const all = [...fields, ...other.filter((f) => !fields.includes(f))];
-  return { trees, fields: all, optional: all.length > fields.length };
+  return { trees: onlyCompared(trees, all), fields: all, optional: all.length > fields.length };
+}
+
+/**
+ * The versions without the other fields their loads kept and the diff does not compare (npm ls's
+ * `overridden`): the combined tree carries only what was kept for a purpose.
+ */
+function onlyCompared(trees: [Tree, Tree], compared: readonly string[]): [Tree, Tree] {
+  return trees.map((tree) => {
+    const drop = (tree.reading?.otherFields ?? []).filter((f) => tree.fields.has(f) && !compared.includes(f));
+    if (drop.length === 0) return tree;
+    const fields = new Map(tree.fields);
+    for (const f of drop) fields.delete(f);
+    return { ...tree, fields };
+  }) as [Tree, Tree];
 }
 
 /**

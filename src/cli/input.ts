@@ -358,6 +358,7 @@ export function toLoadOptions(input: string, opts: SharedCliOptions & ComparedFi
     ...(defaultCompared(opts).length > 0
       ? { optionalKeepFields: [...defaultCompared(opts), ...(opts.otherCompared ?? [])], keepScalars: true }
       : {}),
+    ...(opts.keepOtherFields ? { keepOtherFields: true } : {}),
     rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
     ...(opts.readAs === "auto" ? {} : { readAs: opts.readAs }),
@@ -391,11 +392,14 @@ function linkOptionsNamed(named: ReadonlySet<string> | undefined): { linkOptions
 /**
  * The fields a diff keeps to compare: `compareField` (`--compare-field`; empty: a diff without it, which
  * keeps `version` where records have it), and `otherCompared`, the records' other fields a diff without
- * it compares (cli/compared-fields.ts), kept only where records have them.
+ * it compares (cli/compared-fields.ts), kept only where records have them, or `keepOtherFields`, all
+ * of those a load meets.
  */
 export interface ComparedFieldOptions {
   compareField?: readonly string[];
   otherCompared?: readonly string[];
+  /** Keep every other field the records hold, in the same read (LoadOptions.keepOtherFields). */
+  keepOtherFields?: boolean;
 }
 
 /**

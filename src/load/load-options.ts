@@ -57,6 +57,13 @@ export interface LoadOptions {
    * of the tree's fields rather than FIELD_MISSING (`diff` compares `version` this way by default).
    */
   optionalKeepFields?: readonly string[];
+  /**
+   * Keep, in the same read, every record field not read for the tree (nor in `keepFields`) as text,
+   * "" where a record has none, and list them as `reading.otherFields`: a diff of two versions
+   * without `--compare-field` compares them (cli/compared-fields.ts). CSV/TSV tables and JSON or YAML
+   * rows and path maps keep every such column. Default false: a summary keeps none.
+   */
+  keepOtherFields?: boolean;
   /** Name of the root espalier adds when the input has several top-level nodes. */
   rootName: string;
   /** Refuse inputs with more nodes than this (LIMIT_EXCEEDED). */

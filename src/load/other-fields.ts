@@ -30,3 +30,22 @@ export function otherFields(met: Iterable<string>, options: FieldOptions): strin
 export function withOtherFields(fields: readonly string[] | undefined): { otherFields?: readonly string[] } {
   return fields === undefined ? {} : { otherFields: fields };
 }
+
+/**
+ * The options of a load that keeps its records' other fields (LoadOptions.keepOtherFields): those of
+ * the fields met that it reads for no other purpose kept too, each where records have it (optional).
+ * Unchanged without `keepOtherFields`, or when there are none.
+ */
+export function keepingOtherFields<
+  T extends FieldOptions & Pick<LoadOptions, "keepOtherFields" | "optionalKeepFields">,
+>(options: T, met: Iterable<string>): T {
+  if (options.keepOtherFields !== true) return options;
+  const other = otherFields(met, options);
+  if (other === undefined) return options;
+  const unique = [...new Set(other)];
+  return {
+    ...options,
+    keepFields: [...options.keepFields, ...unique],
+    optionalKeepFields: [...(options.optionalKeepFields ?? []), ...unique],
+  };
+}

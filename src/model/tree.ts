@@ -98,9 +98,11 @@ export interface TreeReading {
   readonly documents?: number;
   /**
    * Node objects, rows and tables: the record fields the records hold beside those read for the tree
-   * (name, size, children, id, parent, path) and those kept (`Tree.fields`), in the order first seen;
-   * a nested document's from a sample (the first 1,000 node objects' keys, up to 40 names). A diff
-   * without `--compare-field` compares them (cli/compared-fields.ts). Absent: none.
+   * (name, size, children, id, parent, path) and those kept for a purpose (a label's, a compared one),
+   * in the order first seen; a nested document's from a sample (the first 1,000 node objects' keys, up
+   * to 40 names). A load asked to keep them (LoadOptions.keepOtherFields) keeps them in `Tree.fields`
+   * too, where its reader can (tables and rows). A diff without `--compare-field` compares them
+   * (cli/compared-fields.ts). Absent: none.
    */
   readonly otherFields?: readonly string[];
   /**
