@@ -1,8 +1,9 @@
 import { defaultComparedFields } from "../diff/field-edits.js";
 import { NPM_CHILDREN_FIELD, OVERRIDDEN_FIELD } from "../load/deduped-entries.js";
+import { MOST_OTHER_FIELDS } from "../load/other-fields-kept.js";
 import { safeText } from "../model/safe-text.js";
 import type { Tree } from "../model/tree.js";
-import { loadInput, loadVersions } from "./input.js";
+import { loadVersions } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { SharedCliOptions } from "./options.js";
 
@@ -21,11 +22,9 @@ export interface ComparedVersions {
  * as values its scalars' text, and besides every other field the records hold (TreeReading.otherFields:
  * an image tag in a list of services that also name a version, a title in an org chart), since a field
  * no one compared would make a changed value no change, and `--fail-on-change` pass it. Each version's
- * load keeps them as it reads (LoadOptions.keepOtherFields: a table's columns, rows' fields), a version
- * from standard input too. Where a load did not keep them (a nested document), both versions are read
- * again keeping them; a version from standard input cannot be: the other version's file is read first
- * for its fields, and standard input keeps those; fields only it holds are said on standard error as
- * not compared.
+ * load keeps them as it reads (LoadOptions.keepOtherFields), a version from standard input too, so each
+ * is read once. Fields a load met past the most it keeps (load/other-fields-kept.ts) are said on
+ * standard error as not compared.
  */
 export async function loadCompared(
   io: CliIO,
@@ -39,43 +38,19 @@ export async function loadCompared(
       fields: opts.compareField,
       optional: false,
     };
-  // The first load's notes are said; a second load's are the same.
-  const quiet: CliIO = { ...io, stderr: { write: () => true, isTTY: false } };
-  const keeping = { ...opts, keepOtherFields: true };
-  const piped = oldInput === "-" ? newInput : newInput === "-" ? oldInput : undefined;
-  if (piped !== undefined) {
-    // The file's fields, from a load of its own.
-    const probe = await loadInput(quiet, piped, opts);
-    const other = otherCompared([probe]);
-    const trees = await loadVersions(
-      io,
-      oldInput,
-      newInput,
-      other.length > 0 ? { ...keeping, otherCompared: other } : keeping,
-    );
-    const fields = defaultComparedFields(trees[0], trees[1]);
-    // Fields standard input holds and did not keep (a nested document's): not compared.
-    const left = otherCompared(trees).filter(
-      (f) => !other.includes(f) && !fields.includes(f) && !trees.every((t) => keptOwn(t, f)),
-    );
-    if (left.length > 0) io.stderr.write(notComparedNote(left));
-    // The file's fields (kept as named), then those standard input kept of its own.
-    const kept = [...new Set([...other, ...otherCompared(trees)])].filter((f) => !left.includes(f));
-    return withOther(trees, fields, kept);
-  }
-  const trees = await loadVersions(io, oldInput, newInput, keeping);
+  const trees = await loadVersions(io, oldInput, newInput, { ...opts, keepOtherFields: true });
   const fields = defaultComparedFields(trees[0], trees[1]);
+  const left = leftOut(trees).filter((f) => !fields.includes(f));
+  if (left.length > 0)
+    io.stderr.write(
+      notComparedNote(
+        left,
+        trees.some((t) => t.reading?.otherFieldsLeft?.more),
+      ),
+    );
   const other = otherCompared(trees).filter((f) => !fields.includes(f));
   if (other.length === 0) return { trees: onlyCompared(trees, fields), fields, optional: false };
-  if (trees.every((t) => (t.reading?.otherFields ?? []).every((f) => keptOwn(t, f))))
-    return withOther(trees, fields, other);
-  const again = await loadVersions(quiet, oldInput, newInput, { ...opts, otherCompared: other });
-  return withOther(again, fields, other);
-}
-
-/** Whether a version kept other field `field` as it was read, or holds no such field. */
-function keptOwn(tree: Tree, field: string): boolean {
-  return tree.fields.has(field) || !(tree.reading?.otherFields ?? []).includes(field);
+  return withOther(trees, fields, other);
 }
 
 /** The default fields and the other fields after them; a version may lack the others (optional). */
@@ -120,12 +95,17 @@ function otherFieldsOf(trees: readonly Tree[]): string[] {
   return [...new Set(trees.flatMap((tree) => tree.reading?.otherFields ?? []))];
 }
 
-/** The fields only the version from standard input holds: it is read once, before they were known. */
-function notComparedNote(fields: readonly string[]): string {
+/** The fields the versions' loads met past the most they keep, not kept (OLD's first). */
+function leftOut(trees: readonly Tree[]): string[] {
+  return [...new Set(trees.flatMap((tree) => tree.reading?.otherFieldsLeft?.names ?? []))];
+}
+
+/** The fields met past the most a load keeps: not kept, so not compared. */
+function notComparedNote(fields: readonly string[], more: boolean | undefined): string {
   const named = fields.map((f) => JSON.stringify(safeText(f, 80))).join(", ");
   return (
-    `espalier: note: the records from standard input hold fields the other version's do not, which this ` +
-    `diff did not compare (${named}): standard input is read once, so a value in them is no change ` +
-    `here; give each with --compare-field to compare it [FIELDS_NOT_COMPARED]\n`
+    `espalier: note: the records hold more than ${MOST_OTHER_FIELDS} fields beside those the tree is read ` +
+    `from; those met after them were not kept, so this diff did not compare them (${named}${more ? " and more" : ""}): ` +
+    `a value changed in them is no change here; give each with --compare-field to compare it [FIELDS_NOT_COMPARED]\n`
   );
 }

@@ -58,10 +58,12 @@ export interface LoadOptions {
    */
   optionalKeepFields?: readonly string[];
   /**
-   * Keep, in the same read, every record field not read for the tree (nor in `keepFields`) as text,
-   * "" where a record has none, and list them as `reading.otherFields`: a diff of two versions
-   * without `--compare-field` compares them (cli/compared-fields.ts). CSV/TSV tables and JSON or YAML
-   * rows and path maps keep every such column. Default false: a summary keeps none.
+   * Keep, in the same read, every record field not read for the tree (nor in `keepFields`) as text
+   * (an object or array as its JSON or YAML text), "" where a record has none, and list them, and only
+   * them, as `reading.otherFields`: a diff of two versions without `--compare-field` compares them
+   * (cli/compared-fields.ts). Tables and rows keep every other column; node objects at most
+   * MOST_OTHER_FIELDS, naming those met past it (`reading.otherFieldsLeft`; other-fields-kept.ts).
+   * Default false: a summary keeps none.
    */
   keepOtherFields?: boolean;
   /** Name of the root espalier adds when the input has several top-level nodes. */

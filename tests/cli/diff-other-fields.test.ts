@@ -136,15 +136,47 @@ describe("espalier diff compares the records' other fields when they have no ver
     expect(reads).toEqual({ "old.csv": 1, "new.csv": 1 });
   });
 
-  it("says on standard error which fields only standard input's records hold, not compared", async () => {
+  it("compares a field only standard input's node objects hold: it keeps its own", async () => {
     const files = { "old.yaml": services("1.4") };
     const r = await cli(["diff", "old.yaml", "-", "--fail-on-change"], {
       files,
       stdin: services("1.4", "\n    owner: quay-team"),
     });
+    // main's build compared image, replicas and labels only, exit 0, with FIELDS_NOT_COMPARED for owner.
+    expect(r.code).toBe(1);
+    expect(head(r.stdout)).toContain("1 edited (compared: image, replicas, labels, owner)");
+    expect(r.stdout).toContain("[edited owner (none) -> quay-team] invoice-ui");
+    expect(r.stderr).toBe("");
+    const json = JSON.stringify({
+      name: "harbour-ops",
+      children: [{ name: "ledger-api", image: "registry.example/ledger:1.4" }],
+    });
+    const piped = await cli(["diff", "-", "old.json", "--fail-on-change"], {
+      files: { "old.json": json },
+      stdin: json.replace('"image"', '"owner":"quay-team","image"'),
+    });
+    expect(piped.code).toBe(1);
+    expect(piped.stdout).toContain("[edited owner quay-team -> (none)] ledger-api");
+  });
+
+  it("says on standard error which fields past the most kept it did not compare", async () => {
+    // 45 fields beside the name: 40 are kept and compared, the last 5 are not.
+    const record = (last: string) =>
+      Object.fromEntries(Array.from({ length: 45 }, (_, k) => [`f${k}`, k === 44 ? last : "v"]));
+    const doc = (last: string) =>
+      JSON.stringify({ name: "harbour-ops", children: [{ name: "quay", ...record(last) }] });
+    const r = await cli(["diff", "old.json", "new.json", "--fail-on-change", "--format", "json"], {
+      files: { "old.json": doc("1"), "new.json": doc("2") },
+    });
     expect(r.code).toBe(0);
-    expect(head(r.stdout)).toContain("0 edited (compared: image, replicas, labels)");
-    expect(r.stderr).toContain('did not compare ("owner")');
+    const out = JSON.parse(r.stdout);
+    expect(out.compared).toHaveLength(40);
+    expect(out.compared.at(-1)).toBe("f39");
+    expect(r.stderr).toContain('("f40", "f41", "f42", "f43", "f44")');
     expect(r.stderr).toContain("[FIELDS_NOT_COMPARED]");
+    const named = await cli(["diff", "old.json", "new.json", "--fail-on-change", "--compare-field", "f44"], {
+      files: { "old.json": doc("1"), "new.json": doc("2") },
+    });
+    expect(named.code).toBe(1);
   });
 });

@@ -1,5 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
+import { stringify } from "yaml";
 import { loadTree } from "../../src/load/index.js";
 import type { LoadOptions } from "../../src/load/load-options.js";
 import type { Tree } from "../../src/model/tree.js";
@@ -150,6 +151,62 @@ describe("loadTree(text, { keepOtherFields }) keeps what a second read named the
     );
   });
 
+  // Nested node objects: a name, children as an array, and other fields of any JSON value, absent on some.
+  const nested = fc.letrec((tie) => ({
+    node: fc.record({
+      extra: fc.array(
+        fc.tuple(fc.constantFrom("team", "title", "version", "path", "cost centre"), jsonValue),
+        {
+          maxLength: 3,
+        },
+      ),
+      children: fc.oneof(
+        { depthSize: "small", withCrossShrink: true },
+        fc.constant([]),
+        fc.array(tie("node"), { maxLength: 3 }),
+      ),
+    }),
+  })).node as fc.Arbitrary<Shape>;
+
+  it("keeps nested JSON node objects' other fields, read streamed", () => {
+    fc.assert(
+      fc.property(nested, (shape) => {
+        const { one, two } = bothWays(JSON.stringify(document(shape)), { format: "json" });
+        expect(one).toEqual(two);
+      }),
+    );
+  });
+
+  it("keeps nested YAML node objects' other fields", () => {
+    fc.assert(
+      fc.property(nested, (shape) => {
+        const { one, two } = bothWays(stringify(document(shape)), { format: "yaml" });
+        expect(one).toEqual(two);
+      }),
+    );
+  });
+
+  it("keeps a field first met past the 1,000th node object, which the sample of fields did not see", () => {
+    const children = Array.from({ length: 1500 }, (_, k) => ({
+      name: `crate-${k}`,
+      ...(k >= 1200 ? { owner: `quay-${k % 3}` } : {}),
+    }));
+    for (const text of [
+      JSON.stringify({ name: "harbour", children }),
+      stringify({ name: "harbour", children }),
+    ]) {
+      const format = text.startsWith("{") ? "json" : "yaml";
+      expect(loadTree(text, opts({ format })).reading?.otherFields).toBeUndefined();
+      const tree = loadTree(text, opts({ format, keepOtherFields: true }));
+      expect(tree.reading?.otherFields).toEqual(["owner"]);
+      const owner = tree.fields.get("owner")!;
+      expect(owner).toHaveLength(1501);
+      expect(owner[1200]).toBe("");
+      expect(owner[1201]).toBe("quay-0");
+      expect(owner.filter((v) => v !== "")).toHaveLength(300);
+    }
+  });
+
   it("keeps nothing more without keepOtherFields", () => {
     const text = "id,parent,name,team\n1,,Harbour board,quay\n2,1,Night crew,dock\n";
     const tree = loadTree(text, opts({ format: "csv" }));
@@ -159,3 +216,17 @@ describe("loadTree(text, { keepOtherFields }) keeps what a second read named the
     expect(Object.fromEntries(one.fields)).toEqual({ team: ["quay", "dock"] });
   });
 });
+
+interface Shape {
+  extra: [string, unknown][];
+  children: Shape[];
+}
+
+/** The node objects of a shape, named by their place (`n`, `n0`, `n01`, …). */
+function document(shape: Shape, name = "n"): Record<string, unknown> {
+  const node: Record<string, unknown> = { name };
+  for (const [field, value] of shape.extra) if (value !== undefined) node[field] = value;
+  if (shape.children.length > 0)
+    node.children = shape.children.map((child, k) => document(child, `${name}${k}`));
+  return node;
+}
