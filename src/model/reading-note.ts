@@ -57,6 +57,8 @@ export interface ReadingNote {
  * hold bytes that are not UTF-8, read as U+FFFD; count: how many (load/not-utf8-note.ts).
  * `ABSOLUTE_AND_RELATIVE`: a path list names paths from "/" and paths that start elsewhere, read as two
  * trees side by side (load/path-list/mixed-starts.ts).
+ * `SBOM_DEPENDENCIES`: a CycloneDX document read as its dependency graph, not as its values
+ * (load/cyclonedx.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -76,6 +78,7 @@ export const readingNoteCodes = [
   "NODES_NOT_READ",
   "UNDECODABLE_BYTES",
   "ABSOLUTE_AND_RELATIVE",
+  "SBOM_DEPENDENCIES",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

@@ -21,6 +21,7 @@ const clauses: Readonly<Record<ReadingNoteCode, Clause>> = {
   SIZES_LEFT_OUT: { said: () => "sizes left out" },
   REPEATED_KEY: { counted: ["repeated key, the last read", "repeated keys, the last read"] },
   UNSIZED_IMPORTANCE: { said: () => "ranked by depth (no sizes)", ofRun: true },
+  SBOM_DEPENDENCIES: { said: () => "read as an SBOM's dependency graph" },
   NODES_NOT_READ: {
     counted: ["node object outside the children not read", "node objects outside the children not read"],
   },
