@@ -48,7 +48,7 @@ export async function loadCompared(
         trees.some((t) => t.reading?.otherFieldsLeft?.more),
       ),
     );
-  const other = otherCompared(trees).filter((f) => !fields.includes(f));
+  const other = otherCompared(trees).filter((f) => !fields.includes(f) && !left.includes(f));
   if (other.length === 0) return { trees: onlyCompared(trees, fields), fields, optional: false };
   return withOther(trees, fields, other);
 }
@@ -95,17 +95,28 @@ function otherFieldsOf(trees: readonly Tree[]): string[] {
   return [...new Set(trees.flatMap((tree) => tree.reading?.otherFields ?? []))];
 }
 
-/** The fields the versions' loads met past the most they keep, not kept (OLD's first). */
+/**
+ * The fields the versions' loads met past the most they keep, not kept (OLD's first), and any a
+ * reading lists that its load did not keep: compared, each would hold nothing, a change no change.
+ */
 function leftOut(trees: readonly Tree[]): string[] {
-  return [...new Set(trees.flatMap((tree) => tree.reading?.otherFieldsLeft?.names ?? []))];
+  return [
+    ...new Set(
+      trees.flatMap((tree) => [
+        ...(tree.reading?.otherFieldsLeft?.names ?? []),
+        ...(tree.reading?.otherFields ?? []).filter((f) => !tree.fields.has(f)),
+      ]),
+    ),
+  ];
 }
 
-/** The fields met past the most a load keeps: not kept, so not compared. */
+/** The fields not kept (met past the most a load keeps), so not compared. */
 function notComparedNote(fields: readonly string[], more: boolean | undefined): string {
   const named = fields.map((f) => JSON.stringify(safeText(f, 80))).join(", ");
   return (
-    `espalier: note: the records hold more than ${MOST_OTHER_FIELDS} fields beside those the tree is read ` +
-    `from; those met after them were not kept, so this diff did not compare them (${named}${more ? " and more" : ""}): ` +
-    `a value changed in them is no change here; give each with --compare-field to compare it [FIELDS_NOT_COMPARED]\n`
+    `espalier: note: the records hold fields this diff did not keep, so did not compare (${named}` +
+    `${more ? " and more" : ""}): a load keeps at most ${MOST_OTHER_FIELDS} fields beside those the tree is ` +
+    `read from, the first met; a value changed in the others is no change here; give each with ` +
+    `--compare-field to compare it [FIELDS_NOT_COMPARED]\n`
   );
 }

@@ -1,4 +1,4 @@
-import type { LoadOptions } from "./load-options.js";
+import { type FieldOptions, fieldsRead } from "./other-fields.js";
 
 /**
  * The most other fields a load of node objects keeps (LoadOptions.keepOtherFields): each is a string
@@ -11,11 +11,6 @@ export const MOST_OTHER_FIELDS = 40;
 
 /** How many of the fields left out past {@link MOST_OTHER_FIELDS} a reading names. */
 const NAMED_LEFT = 20;
-
-type FieldOptions = Pick<
-  LoadOptions,
-  "nameField" | "sizeField" | "childrenField" | "idField" | "parentField" | "pathField" | "keepFields"
->;
 
 /**
  * Which other fields of node objects a load keeps as it reads them (LoadOptions.keepOtherFields): every
@@ -31,15 +26,7 @@ export class OtherFieldsKept {
   private moreLeft = false;
 
   constructor(options: FieldOptions) {
-    this.read = new Set([
-      options.nameField,
-      options.sizeField,
-      options.childrenField,
-      options.idField,
-      options.parentField,
-      options.pathField,
-      ...options.keepFields,
-    ]);
+    this.read = fieldsRead(options);
   }
 
   /**

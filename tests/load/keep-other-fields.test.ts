@@ -54,6 +54,18 @@ const jsonValue = fc.oneof(
   fc.array(fc.string({ maxLength: 2 }), { maxLength: 2 }),
 );
 
+// Values of the other fields of up to 12 records, 5 a record.
+const recordValues = fc.array(jsonValue, { minLength: 60, maxLength: 60 });
+
+/** Record `r`'s other fields: each of `names` with its value, absent where the value is undefined. */
+function record(names: readonly string[], values: readonly unknown[], r: number): Record<string, unknown> {
+  const fields: Record<string, unknown> = {};
+  names.forEach((field, c) => {
+    if (values[r * 5 + c] !== undefined) fields[field] = values[r * 5 + c];
+  });
+  return fields;
+}
+
 function quotedCsv(cell: string): string {
   return /[",\n]/.test(cell) ? `"${cell.replaceAll('"', '""')}"` : cell;
 }
@@ -102,52 +114,33 @@ describe("loadTree(text, { keepOtherFields }) keeps what a second read named the
 
   it("keeps JSON rows' other fields, nested values as their JSON text", () => {
     fc.assert(
-      fc.property(
-        extraNames,
-        parents,
-        fc.array(jsonValue, { minLength: 60, maxLength: 60 }),
-        (names, ps, values) => {
-          const rows = ps.map((p, r) => {
-            const row: Record<string, unknown> = {
-              id: `r${r + 1}`,
-              parent: p === 0 ? null : `r${p}`,
-              name: `n${r}`,
-            };
-            names.forEach((field, c) => {
-              if (values[r * 5 + c] !== undefined) row[field] = values[r * 5 + c];
-            });
-            return row;
-          });
-          const { one, two } = bothWays(JSON.stringify(rows), { format: "rows" });
-          expect(one).toEqual(two);
-        },
-      ),
+      fc.property(extraNames, parents, recordValues, (names, ps, values) => {
+        const rows = ps.map((p, r) => ({
+          id: `r${r + 1}`,
+          parent: p === 0 ? null : `r${p}`,
+          name: `n${r}`,
+          ...record(names, values, r),
+        }));
+        const { one, two } = bothWays(JSON.stringify(rows), { format: "rows" });
+        expect(one).toEqual(two);
+      }),
     );
   });
 
   it("keeps the other fields of records keyed by path (a lock file's packages)", () => {
     fc.assert(
-      fc.property(
-        extraNames,
-        parents,
-        fc.array(jsonValue, { minLength: 60, maxLength: 60 }),
-        (names, ps, values) => {
-          const paths: string[] = [];
-          const packages: Record<string, Record<string, unknown>> = {};
-          ps.forEach((p, r) => {
-            paths[r] = r === 0 ? "" : `${paths[p - 1] === "" ? "" : `${paths[p - 1]}/`}node_modules/n${r}`;
-            const record: Record<string, unknown> = {};
-            names.forEach((field, c) => {
-              if (values[r * 5 + c] !== undefined) record[field] = values[r * 5 + c];
-            });
-            packages[paths[r]] = record;
-          });
-          const text = JSON.stringify({ name: "tidewater", lockfileVersion: 3, packages });
-          expect(loadTree(text, opts({ format: "json" })).reading?.shape).toBe("path-map");
-          const { one, two } = bothWays(text, { format: "json" });
-          expect(one).toEqual(two);
-        },
-      ),
+      fc.property(extraNames, parents, recordValues, (names, ps, values) => {
+        const paths: string[] = [];
+        const packages: Record<string, Record<string, unknown>> = {};
+        ps.forEach((p, r) => {
+          paths[r] = r === 0 ? "" : `${paths[p - 1] === "" ? "" : `${paths[p - 1]}/`}node_modules/n${r}`;
+          packages[paths[r]] = record(names, values, r);
+        });
+        const text = JSON.stringify({ name: "tidewater", lockfileVersion: 3, packages });
+        expect(loadTree(text, opts({ format: "json" })).reading?.shape).toBe("path-map");
+        const { one, two } = bothWays(text, { format: "json" });
+        expect(one).toEqual(two);
+      }),
     );
   });
 
