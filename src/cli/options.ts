@@ -232,7 +232,7 @@ export const sharedOptions = {
     flags: "--graph",
     group: "Input",
     value: flag(false),
-    help: "read the input as a graph: ids may repeat with other parents; a JSON/YAML object maps ids",
+    help: "read the input as a graph: ids may repeat with other parents; a JSON/YAML object maps ids, a list of records may name each one's child ids",
   },
   nodes: {
     flags: "--nodes <file>",

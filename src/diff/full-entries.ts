@@ -14,9 +14,10 @@ import type { Tree } from "../model/tree.js";
  * version whose dependencies went unmatched too; they are then moved from the old full entry.
  *
  * Only for two listings read as npm's (node objects under `dependencies`, with a `version`, and a
- * DEDUPED_ENTRIES note on one of them). The k-th such old full entry of a package (shallower first,
- * then in pre-order) pairs with the k-th new one that still has a dependency unpaired, and the
- * dependencies pair by path below them, those paired already left out. Returns how many pairs it made.
+ * DEDUPED_ENTRIES note on one of them). Each such old full entry of a package (shallower first, then
+ * in pre-order) pairs with the first new one still with a dependency unpaired that lists as many
+ * entries below it, else with the first one still so, and the dependencies pair by path below them,
+ * those paired already left out. Returns how many pairs it made.
  */
 export function pairFullEntries(
   oldTree: Tree,
@@ -46,8 +47,9 @@ export function pairFullEntries(
     // An earlier pair may have paired this entry's dependencies already (a full entry below another).
     if (!list || !unpairedChild(oldSide, o)) continue;
     while (list.length > 0 && !unpairedChild(newSide, list[0])) list.shift();
-    const n = list.shift();
-    if (n !== undefined) pairs += pairUnpaired(oldSide, o, newSide, n);
+    if (list.length === 0) continue;
+    const [n] = list.splice(alike(list, newSide, oldCount[o]), 1);
+    pairs += pairUnpaired(oldSide, o, newSide, n);
   }
   return pairs;
 }
@@ -68,6 +70,19 @@ function outerFirst(tree: Tree, take: (x: number) => boolean): number[] {
   for (let x = 1; x < tree.length; x++) if (take(x)) entries.push(x);
   const depth = tree.depth;
   return entries.sort((a, b) => depth[a] - depth[b] || a - b);
+}
+
+/**
+ * Of a package's full entries left in `list` (the first of which has a dependency unpaired), the first
+ * that lists as many entries below it as the old one (`entries`), else the first: npm installs a
+ * package at several places when their dependencies need it so, and each copy's listing differs in
+ * which dependencies are in full there and which deduped, so one of as many entries is likely the
+ * same copy at another place.
+ */
+function alike(list: readonly number[], side: Side, entries: number): number {
+  for (let k = 0; k < list.length; k++)
+    if (side.count[list[k]] === entries && unpairedChild(side, list[k])) return k;
+  return 0;
 }
 
 /** Whether some child of x is not paired yet. */

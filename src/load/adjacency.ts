@@ -1,4 +1,4 @@
-import { EspalierError, quoted, say } from "../errors.js";
+import { EspalierError, quoted, type SourcePos, say } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import { isSize } from "../model/size-rule.js";
 import type { LoadOptions } from "./load-options.js";
@@ -7,8 +7,40 @@ import { fieldSizeUnit } from "./size-unit.js";
 
 type Fields = Pick<
   LoadOptions,
-  "nameField" | "childrenField" | "sizeField" | "keepFields" | "rootName" | "maxNodes"
+  | "nameField"
+  | "childrenField"
+  | "sizeField"
+  | "keepFields"
+  | "rootName"
+  | "maxNodes"
+  | "idField"
+  | "parentField"
 >;
+
+/** A node's entry: its id, its value (a list of child ids, a record or null), and where it is. */
+interface Entry {
+  readonly id: string;
+  readonly value: unknown;
+  readonly at: SourcePos;
+}
+
+/**
+ * Whether `rows` (a JSON or YAML array read as a graph) are records naming their children: objects, one
+ * at least holding a list under the children field, and none the parent field (rows linked by parent
+ * are a graph table: graph-table.ts).
+ */
+export function rowsListChildren(
+  rows: readonly unknown[],
+  options: Pick<LoadOptions, "childrenField" | "parentField">,
+): boolean {
+  let lists = false;
+  for (const row of rows) {
+    if (typeof row !== "object" || row === null || Array.isArray(row)) return false;
+    if (Object.hasOwn(row, options.parentField)) return false;
+    if (Array.isArray((row as Record<string, unknown>)[options.childrenField])) lists = true;
+  }
+  return lists;
+}
 
 /**
  * An adjacency map as a graph: each key is a node id, and its value names its children by id: a list of
@@ -16,12 +48,64 @@ type Fields = Pick<
  * size and kept fields), or null for a node with no children. Ids are strings or numbers (a number
  * stands for its digits). An id that is no key is a node with no children and no record. Nodes are the
  * keys in map order, then the other ids in order of first mention; edges in map order.
+ * An array is rows naming their children (see {@link rowsListChildren}): each row a node's record, its
+ * id under the id field, as a CycloneDX SBOM lists `dependencies: [{"ref": …, "dependsOn": [...]}]`
+ * (ECMA-424); read as the map with those ids as keys, in row order.
  */
 export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
-  if (typeof value !== "object" || value === null || Array.isArray(value))
+  if (Array.isArray(value)) {
+    if (!rowsListChildren(value, options))
+      throw new EspalierError(
+        "SHAPE",
+        say`a graph read from a list must hold records naming their children: objects with an id under ${quoted.name(options.idField)} and a list of child ids under ${quoted.name(options.childrenField)} (--id-field, --children-field), or rows linked by ${quoted.name(options.parentField)}`,
+      );
+    return adjacencyEntries(rowEntries(value, options), options, "id-children");
+  }
+  if (typeof value !== "object" || value === null)
     throw new EspalierError("SHAPE", "a graph read as an adjacency map must be an object (a mapping) of ids");
   const map = value as Record<string, unknown>;
-  const keys = Object.keys(map);
+  return adjacencyEntries(
+    Object.keys(map).map((key) => ({ id: key, value: map[key], at: { field: key } })),
+    options,
+    "map",
+  );
+}
+
+/** Rows naming their children as entries: each row's id, and the row as its record. */
+function rowEntries(rows: readonly unknown[], options: Fields): Entry[] {
+  const entries: Entry[] = [];
+  const rowOf = new Map<string, number>();
+  for (let r = 0; r < rows.length; r++) {
+    const record = rows[r] as Record<string, unknown>;
+    const id = record[options.idField];
+    const at = { row: r + 1 };
+    if ((typeof id !== "string" && typeof id !== "number") || String(id) === "")
+      throw new EspalierError(
+        Object.hasOwn(record, options.idField) ? "SHAPE" : "FIELD_MISSING",
+        say`row ${r + 1} has no id under ${quoted.name(options.idField)} (text or a number): rows naming their children are linked by their ids (--id-field)`,
+        at,
+        { field: options.idField },
+      );
+    const text = String(id);
+    const earlier = rowOf.get(text);
+    if (earlier !== undefined)
+      throw new EspalierError(
+        "DUPLICATE_ID",
+        say`row ${r + 1} repeats the id ${quoted.id(text)} of row ${earlier}: a node's record, with all its children, is given once`,
+        at,
+      );
+    rowOf.set(text, r + 1);
+    entries.push({ id: text, value: record, at });
+  }
+  return entries;
+}
+
+/** Entries (in order) as a graph, linked as `linkedBy` says. */
+function adjacencyEntries(
+  entries: readonly Entry[],
+  options: Fields,
+  linkedBy: "map" | "id-children",
+): GraphNodes {
   const nodeOf = new Map<string, number>();
   const ids: string[] = [];
   const add = (id: string) => {
@@ -34,7 +118,7 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
     }
     return node;
   };
-  for (const key of keys) add(key);
+  for (const entry of entries) add(entry.id);
   const names: string[] = [...ids];
   const sizes: number[] = new Array(ids.length).fill(0);
   let hasSizes = false;
@@ -43,11 +127,12 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
   const kept = new Map<string, string[]>(options.keepFields.map((k) => [k, new Array(ids.length).fill("")]));
   const from: number[] = [];
   const to: number[] = [];
-  const shape = (key: string, what: string) =>
-    new EspalierError("SHAPE", say`the entry ${quoted.id(key)} ${what}`, { field: key });
-  for (const key of keys) {
+  const shape = (entry: Entry, what: string) =>
+    new EspalierError("SHAPE", say`the entry ${quoted.id(entry.id)} ${what}`, entry.at);
+  for (const entry of entries) {
+    const key = entry.id;
     const node = nodeOf.get(key)!;
-    const value = map[key];
+    const value = entry.value;
     let children: unknown = value;
     if (typeof value === "object" && value !== null && !Array.isArray(value)) {
       const record = value as Record<string, unknown>;
@@ -56,7 +141,7 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
       if (Object.hasOwn(record, options.nameField)) {
         const name = record[options.nameField];
         if (typeof name !== "string" && typeof name !== "number")
-          throw shape(key, `has a "${options.nameField}" that is not text`);
+          throw shape(entry, `has a "${options.nameField}" that is not text`);
         if (String(name) !== "") names[node] = String(name);
       }
       if (Object.hasOwn(record, options.sizeField)) {
@@ -66,7 +151,7 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
             throw new EspalierError(
               "BAD_SIZE",
               say`the "${options.sizeField}" of the entry ${quoted.id(key)} must be a number from 0 to 2^53 - 1, got ${quoted.value(typeof size === "string" ? size : JSON.stringify(size))}`,
-              { field: key },
+              entry.at,
             );
           }
           sizes[node] = size;
@@ -79,16 +164,16 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
           column[node] = typeof v === "object" ? JSON.stringify(v) : String(v);
       }
     } else if (value !== null && !Array.isArray(value)) {
-      throw shape(key, "must be a list of child ids, a record or null");
+      throw shape(entry, "must be a list of child ids, a record or null");
     }
     if (children === null || children === undefined) continue;
     if (!Array.isArray(children))
-      throw shape(key, `has "${options.childrenField}" that is not a list of ids`);
+      throw shape(entry, `has "${options.childrenField}" that is not a list of ids`);
     for (const child of children) {
       if (typeof child !== "string" && typeof child !== "number")
-        throw shape(key, "lists a child that is not an id (text or a number)");
+        throw shape(entry, "lists a child that is not an id (text or a number)");
       const id = String(child);
-      if (id === "") throw shape(key, "lists an empty child id");
+      if (id === "") throw shape(entry, "lists an empty child id");
       const c = add(id);
       if (c === names.length) {
         names.push(id);
@@ -115,6 +200,6 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
     edgeOrigin: new Int32Array(from.length),
     edgeCount: from.length,
     repeatedEdges: "skip",
-    linkedBy: "map",
+    linkedBy,
   };
 }

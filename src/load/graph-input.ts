@@ -2,7 +2,8 @@ import { Buffer } from "node:buffer";
 import { EspalierError, quoted, say } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import type { ReadingNote } from "../model/reading-note.js";
-import { adjacencyNodes } from "./adjacency.js";
+import { adjacencyNodes, rowsListChildren } from "./adjacency.js";
+import { sbomGraph } from "./cyclonedx.js";
 import { loadEdgeList } from "./edge-list.js";
 import { linkGraphTable, withRecords } from "./graph-table.js";
 import { findJsonEntry } from "./json/json-entry-finder.js";
@@ -101,7 +102,10 @@ export function jsonGraph(text: string, options: LoadOptions, bytes?: Uint8Array
     return null;
   }
   try {
-    if (Array.isArray(value)) return linkGraphTable(rowsTable(value), options);
+    if (Array.isArray(value))
+      return rowsListChildren(value, options)
+        ? adjacencyNodes(value, options)
+        : linkGraphTable(rowsTable(value), options);
     const graph = adjacencyNodes(value, options);
     const repeated = repeatedTopKeys(bytes ?? Buffer.from(text, "utf8"));
     if (repeated !== undefined) graph.notes = [...(graph.notes ?? []), repeatedIdNote(repeated)];
@@ -109,6 +113,20 @@ export function jsonGraph(text: string, options: LoadOptions, bytes?: Uint8Array
   } catch (err) {
     throw placedInJson(err, bytes ?? Buffer.from(text, "utf8"));
   }
+}
+
+/**
+ * A CycloneDX SBOM's dependency graph (cyclonedx.ts) from its bytes; undefined when they are no JSON or
+ * no such document, to be read as any other.
+ */
+export function jsonSbom(bytes: Uint8Array, options: LoadOptions): GraphNodes | undefined {
+  let value: unknown;
+  try {
+    value = JSON.parse(new TextDecoder("utf-8", { ignoreBOM: false }).decode(bytes));
+  } catch {
+    return undefined;
+  }
+  return sbomGraph(value, options);
 }
 
 /**

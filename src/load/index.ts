@@ -7,12 +7,14 @@ import type { LinkedNodes } from "../model/linked-nodes.js";
 import type { Tree } from "../model/tree.js";
 import { noteApartFirstLine } from "./apart-first-line.js";
 import { byteLoader } from "./byte-loader.js";
+import { mayBeSbom } from "./cyclonedx.js";
 import { detectFormat } from "./detect-format.js";
 import {
   edgeTableDelimiter,
   edgeTableFields,
   isGraph,
   jsonGraph,
+  jsonSbom,
   loadEdges,
   withNodeRecords,
 } from "./graph-input.js";
@@ -109,6 +111,11 @@ function linkedNodes(
       table.bytes = Buffer.from(body, "utf8");
     }
     return noteApartFirstLine(loadEdges(body, options), body);
+  }
+  // A CycloneDX SBOM is read as its dependency graph when it has one (cyclonedx.ts).
+  if (format === "json" && mayBeSbom(body.slice(0, 65536), options)) {
+    const graph = jsonSbom(Buffer.from(body, "utf8"), options);
+    if (graph) return graph;
   }
   // A JSON graph (rows or an adjacency map) is parsed whole; a text that is no JSON goes to the JSON
   // loader, which places the error.

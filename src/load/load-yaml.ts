@@ -15,7 +15,8 @@ import {
 import { EspalierError, quoted, say } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LinkedNodes } from "../model/linked-nodes.js";
-import { adjacencyNodes } from "./adjacency.js";
+import { adjacencyNodes, rowsListChildren } from "./adjacency.js";
+import { linkGraphTable } from "./graph-table.js";
 import { knownListingAt } from "./known-listings.js";
 import type { LoadOptions } from "./load-options.js";
 import { chooseReading } from "./shape/choose-reading.js";
@@ -96,9 +97,15 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
     options.startAt ? yamlAtPointer(doc, options.startAt, lineCounter) : doc.contents
   ) as YamlValue;
 
-  // With `options.graph` the document is an adjacency map; aliases expand in its plain value, up to
-  // the yaml package's alias count limit.
-  if (options.graph) return adjacencyNodes(plainValue(doc, lineCounter, root), options);
+  // With `options.graph` the document is an adjacency map, records naming their children or rows
+  // linked by parent, as JSON's (graph-input.ts); aliases expand in its plain value, up to the yaml
+  // package's alias count limit.
+  if (options.graph) {
+    const value = plainValue(doc, lineCounter, root);
+    if (Array.isArray(value) && !rowsListChildren(value, options))
+      return linkGraphTable(rowsTable(value), options);
+    return adjacencyNodes(value, options);
+  }
 
   // An alias stands for the last node with its anchor before it, in document order.
   const target = new Map<Alias, Node>();

@@ -112,12 +112,12 @@ export class NodesNotRead {
     const fix: MessagePart[] =
       merge === undefined
         ? ["read every value with --read-as values"]
-        : say`read every value with --read-as values, or move them under ${quoted.name(fields.childrenField)} first: ${merge}`;
+        : say`read every value with --read-as values, or move them under "${fields.childrenField}" first: ${merge}`;
     return {
       code: "NODES_NOT_READ",
       ...(line > 0 ? { line } : {}),
       count,
-      parts: say`the field ${quoted.name(first)} of ${holder} holds node objects (objects with ${quoted.name(fields.nameField)}, ${quoted.name(fields.sizeField)} or ${quoted.name(fields.childrenField)}) outside its ${quoted.name(fields.childrenField)}${more}: ${objects} in all, not read, and no total counts them; ${fix}`,
+      parts: say`the field ${quoted.name(first)} of ${holder} holds node objects (objects with "${fields.nameField}", "${fields.sizeField}" or "${fields.childrenField}") outside its "${fields.childrenField}"${more}: ${objects} in all, not read, and no total counts them; ${fix}`,
     };
   }
 }

@@ -57,13 +57,13 @@ function refuse(unused: readonly string[], what: string, hint: string): void {
 function graphReads(flag: LinkOption, linkedBy: GraphNodes["linkedBy"], records: boolean): boolean {
   switch (flag) {
     case "--id-field":
-      return linkedBy === "id-parent" || records;
+      return linkedBy === "id-parent" || linkedBy === "id-children" || records;
     case "--parent-field":
       return linkedBy === "id-parent" || linkedBy === "parent-child";
     case "--child-field":
       return linkedBy === "parent-child";
     case "--children-field":
-      return linkedBy === "map";
+      return linkedBy === "map" || linkedBy === "id-children";
     case "--path-field":
       return false;
   }
@@ -79,6 +79,10 @@ function graphReadingName(linkedBy: GraphNodes["linkedBy"]): string {
       return "a graph linked by id and parent columns";
     case "map":
       return "an adjacency map (each key an id, its value its children)";
+    case "id-children":
+      return "records naming their children (each an id and a list of child ids)";
+    case "sbom":
+      return "a CycloneDX SBOM's dependency graph (--read-as values reads its values)";
   }
 }
 

@@ -15,10 +15,11 @@ export interface GraphNodes {
   /**
    * How the input links its nodes: `pairs` (an edge list of ids separated by spaces or a tab),
    * `parent-child` (an edge table's parent and child columns), `id-parent` (a table or rows with
-   * `--graph`), `map` (an adjacency map); the link options each reads are checked against it
-   * (load/reading-options.ts).
+   * `--graph`), `map` (an adjacency map), `id-children` (records naming their children, each with its
+   * id), `sbom` (a CycloneDX SBOM's dependency graph, load/cyclonedx.ts); the link options each reads
+   * are checked against it (load/reading-options.ts).
    */
-  linkedBy: "pairs" | "parent-child" | "id-parent" | "map";
+  linkedBy: "pairs" | "parent-child" | "id-parent" | "map" | "id-children" | "sbom";
   /** Names, one per node (the id where the input gives no name). */
   name: NamePool | readonly string[];
   /** Ids, one per node: what edges name. */

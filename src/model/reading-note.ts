@@ -57,6 +57,9 @@ export interface ReadingNote {
  * hold bytes that are not UTF-8, read as U+FFFD; count: how many (load/not-utf8-note.ts).
  * `ABSOLUTE_AND_RELATIVE`: a path list names paths from "/" and paths that start elsewhere, read as two
  * trees side by side (load/path-list/mixed-starts.ts).
+ * `SBOM_DEPENDENCIES`: a CycloneDX document read as its dependency graph, not as its values
+ * (load/cyclonedx.ts). `UNIT_NOT_SAID`: a path list of one folder's entries whose sizes, which show no
+ * unit, were read as bytes; count: the entries (cli/input.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -76,6 +79,8 @@ export const readingNoteCodes = [
   "NODES_NOT_READ",
   "UNDECODABLE_BYTES",
   "ABSOLUTE_AND_RELATIVE",
+  "SBOM_DEPENDENCIES",
+  "UNIT_NOT_SAID",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

@@ -21,6 +21,7 @@ const clauses: Readonly<Record<ReadingNoteCode, Clause>> = {
   SIZES_LEFT_OUT: { said: () => "sizes left out" },
   REPEATED_KEY: { counted: ["repeated key, the last read", "repeated keys, the last read"] },
   UNSIZED_IMPORTANCE: { said: () => "ranked by depth (no sizes)", ofRun: true },
+  SBOM_DEPENDENCIES: { said: () => "read as an SBOM's dependency graph" },
   NODES_NOT_READ: {
     counted: ["node object outside the children not read", "node objects outside the children not read"],
   },
@@ -36,6 +37,7 @@ const clauses: Readonly<Record<ReadingNoteCode, Clause>> = {
     ofRun: true,
   },
   ABSOLUTE_AND_RELATIVE: { said: () => "absolute and relative paths read as two trees" },
+  UNIT_NOT_SAID: { said: () => "sizes read as bytes (no unit said)" },
   UNDECODABLE_BYTES: {
     counted: ["entry not UTF-8, read with U+FFFD", "entries not UTF-8, read with U+FFFD"],
   },

@@ -145,6 +145,30 @@ describe("pairFullEntries (npm ls --all --json)", () => {
     expect(code).toBe(1);
   });
 
+  it("pairs a package's full entries at several places with the one that lists as many entries", async () => {
+    // gauge 1.4.0 installed at two places in both versions (npm nests a copy where its dependencies need
+    // it), under parents that took other names, so neither pairs by path; which copy lists dial in full
+    // swaps between the versions. Taken in order, chart's gauge paired with atlas's and pin read as
+    // moved too; as many entries below, chart's pairs with beacon's and only the dials move.
+    const several = listing({
+      chart: full("1.0.0", { gauge: full("1.4.0", { dial: full("0.3.0", { pin: full("0.1.0") }) }) }),
+      sextant: full("2.0.0", { gauge: full("1.4.0", { dial: deduped("0.3.0") }) }),
+    });
+    const swapped = listing({
+      atlas: full("1.0.0", { gauge: full("1.4.0", { dial: deduped("0.3.0") }) }),
+      beacon: full("2.0.0", { gauge: full("1.4.0", { dial: full("0.3.0", { pin: full("0.1.0") }) }) }),
+    });
+    const { code, diff } = await diffJson(several, swapped);
+    expect(diff.changes.added).toBe(lacking(edges(swapped), edges(several)));
+    expect(diff.changes.removed).toBe(lacking(edges(several), edges(swapped)));
+    expect(diff.changes.moved).toBe(2);
+    expect(code).toBe(1);
+    const text = await cli(["diff", "old.json", "new.json"], {
+      files: { "old.json": several, "new.json": swapped },
+    });
+    expect(text.stdout).toContain(": [moved from chart/gauge] dial  2 nodes\n        . pin\n");
+  });
+
   it("leaves a real removal and a version change as they are", async () => {
     const { code, diff } = await diffJson(before, changed);
     // chart's gauge gone (1), gauge 1.4.0 -> 1.5.0 edited, scale gone with it (1): no pairing applies.

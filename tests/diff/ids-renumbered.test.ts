@@ -16,11 +16,10 @@ function renumbered(csv: string, id: (old: string) => string, name = (n: string)
 }
 
 /**
- * The independent count: each row's path of names (its managers' names down to its own), read from the
- * CSV here (RFC 4180 rows; these hold no quotes). Rows whose path of names is in both versions are the
- * rows a sorted line diff of the two lists leaves unchanged.
+ * The independent count: each row's id and path of names (its managers' names down to its own), in the
+ * rows' order, read from the CSV here (RFC 4180 rows; these hold no quotes).
  */
-function namePaths(csv: string): string[] {
+function rowPaths(csv: string): [string, string][] {
   const rows = csv
     .trimEnd()
     .split("\n")
@@ -31,31 +30,22 @@ function namePaths(csv: string): string[] {
     const row = byId.get(id)!;
     return row.manager === "" ? row.name : `${path(row.manager)}/${row.name}`;
   };
-  return rows.map(([id]) => path(id)).sort();
+  return rows.map(([id]) => [id, path(id)]);
 }
 
-/** The paths of names (as {@link namePaths} reads them) of the rows of `csv` whose id `other` lacks. */
+/** Every row's path of names, sorted: rows whose path is in both versions a sorted line diff leaves. */
+function namePaths(csv: string): string[] {
+  return rowPaths(csv)
+    .map(([, path]) => path)
+    .sort();
+}
+
+/** The paths of names of the rows of `csv` whose id `other` lacks. */
 function pathsById(csv: string, other: string): string[] {
-  const idsOf = (text: string) =>
-    text
-      .trimEnd()
-      .split("\n")
-      .slice(1)
-      .map((row) => row.split(",")[0]);
-  const kept = new Set(idsOf(other));
-  const ids = idsOf(csv);
-  // One path a row, in the rows' order (namePaths sorts them).
-  const rows = csv
-    .trimEnd()
-    .split("\n")
-    .slice(1)
-    .map((row) => row.split(","));
-  const byId = new Map(rows.map(([id, manager, name]) => [id, { manager, name }]));
-  const path = (id: string): string => {
-    const row = byId.get(id)!;
-    return row.manager === "" ? row.name : `${path(row.manager)}/${row.name}`;
-  };
-  return ids.filter((id) => !kept.has(id)).map(path);
+  const kept = new Set(rowPaths(other).map(([id]) => id));
+  return rowPaths(csv)
+    .filter(([id]) => !kept.has(id))
+    .map(([, path]) => path);
 }
 
 const args = ["--parent-field", "manager", "--format", "json"];
@@ -143,19 +133,7 @@ describe("idsRenumberedNote", () => {
     const diff = JSON.parse(result.stdout);
     // The independent count: the paths of names both versions have (RFC 4180 rows, no quotes here), and
     // among them those whose id differs between the versions.
-    const byPath = (csv: string) => {
-      const lines = csv
-        .trimEnd()
-        .split("\n")
-        .slice(1)
-        .map((line) => line.split(","));
-      const byId = new Map(lines.map(([id, manager, name]) => [id, { manager, name }]));
-      const path = (id: string): string => {
-        const row = byId.get(id)!;
-        return row.manager === "" ? row.name : `${path(row.manager)}/${row.name}`;
-      };
-      return new Map(lines.map(([id]) => [path(id), id]));
-    };
+    const byPath = (csv: string) => new Map(rowPaths(csv).map(([id, path]) => [path, id]));
     const [oldPaths, newPaths] = [byPath(before), byPath(after)];
     const otherId = [...newPaths].filter(
       ([path, id]) => path !== "depot" && oldPaths.has(path) && oldPaths.get(path) !== id,

@@ -195,6 +195,18 @@ describe("diff of two lists (documents read as values)", () => {
     // A document put first: its 4 nodes added; the Deployment's replicas 2 -> 3 its one edit.
     expect(await changes("s.yaml", "t.yaml", more)).toMatchObject({ added: 4, removed: 0, edited: 1 });
   });
+
+  it("--label '{name} {value}' shows what an element added or removed held, which its index does not", async () => {
+    // Field test: a CI workflow's version matrix on this machine (a vendored project's ci.yml) with its
+    // first entry dropped printed "[removed -5 B] 0" above ". 0": the removed element and the new first
+    // one are both named 0, by index (RFC 6901).
+    const more = { "m.yaml": 'versions: ["3.8", "3.9", "3.10"]\n', "n.yaml": 'versions: ["3.9", "3.10"]\n' };
+    const r = await cli(["diff", "m.yaml", "n.yaml", "--bare", "--label", "{name} {value}"], {
+      files: { ...files, ...more },
+    });
+    expect(r.stdout).toContain(': [removed -5 B] 0 "3.8"\n');
+    expect(r.stdout).toContain('. 0 "3.9"  5 B\n');
+  });
 });
 
 describe("diff of one document written two ways (read as values)", () => {

@@ -1,9 +1,12 @@
 import fc from "fast-check";
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, vi } from "vitest";
 import { stringify } from "yaml";
 import { loadTree } from "../../src/load/index.js";
+import { KeptJson, LEAST_KEPT_BYTES } from "../../src/load/json/kept-json.js";
 import type { LoadOptions } from "../../src/load/load-options.js";
+import { NodeSink } from "../../src/load/node-sink.js";
 import type { Tree } from "../../src/model/tree.js";
+import { cli } from "../helpers/cli.js";
 import { opts } from "./helpers.js";
 import { everyByte, loadStreamed, rng, utf8 } from "./stream/helpers.js";
 
@@ -165,6 +168,59 @@ describe("NODES_NOT_READ", () => {
       expect(noteOf(kept)!.count).toBe(2);
       expect(noteOf(kept)!.line).toBe(noteOf(loadTree(text, opts()))!.line);
       expect(named(kept)[0]).toBe("owner");
+    }
+  });
+
+  it("espalier --pseudonymize says the note, its header clause and JSON with no key or name of the input", async () => {
+    const files = { "input.json": JSON.stringify(HARBOR) };
+    const env = { ESPALIER_PSEUDONYM_KEY: "test-key-not-secret" };
+    const text = await cli(["input.json", "--pseudonymize"], { files, env });
+    expect(text.code).toBe(0);
+    expect(text.stderr).toContain("[NODES_NOT_READ]");
+    expect(text.stdout).toContain("3 node objects outside the children not read");
+    const json = await cli(["input.json", "--pseudonymize", "--format", "json"], { files, env });
+    expect(JSON.parse(json.stdout).input.notes.map((n: { code: string }) => n.code)).toEqual([
+      "NODES_NOT_READ",
+    ]);
+    for (const out of [text.stdout, text.stderr, json.stdout])
+      for (const word of ["harbor", "extras", "mooring", "quay", "ledger"]) expect(out).not.toContain(word);
+  });
+
+  it("loadTreeFromStream(json) against a kept earlier version counts them as a load alone does", async () => {
+    // Kept whatever the size (16 MiB and more outside tests), so NEW takes OLD's unchanged node objects
+    // from OLD's reading (json/kept-json.ts) instead of reading them.
+    KeptJson.leastBytes = 0;
+    const take = vi.spyOn(NodeSink.prototype, "take");
+    try {
+      let n = 0;
+      const make = (depth: number): Record<string, unknown> => {
+        const node: Record<string, unknown> = { name: `n${n++}`, size: n % 97 };
+        if (depth < 4) node.children = Array.from({ length: 8 }, () => make(depth + 1));
+        if (n % 37 === 0) node.extras = [{ name: `x${n}`, size: 5, children: [{ name: "y", size: 1 }] }];
+        return node;
+      };
+      const old = make(0);
+      const changed = structuredClone(old);
+      (changed.children as { size: number }[])[3].size = 999;
+      const oldBytes = utf8(JSON.stringify(old, null, 1));
+      const newBytes = utf8(JSON.stringify(changed, null, 1));
+      const options = nodes({ format: "json" });
+      const oldTree = await loadStreamed(
+        oldBytes,
+        { ...options, keepForLaterVersion: true, inputBytes: oldBytes.length },
+        [],
+      );
+      const tree = await loadStreamed(
+        newBytes,
+        { ...options, earlierVersion: oldTree, inputBytes: newBytes.length },
+        [],
+      );
+      expect(take).toHaveBeenCalled();
+      expect(noteOf(tree)!.count).toBe(notReadByWalk(changed).count);
+      expect(noteOf(oldTree)!.count).toBe(notReadByWalk(old).count);
+    } finally {
+      take.mockRestore();
+      KeptJson.leastBytes = LEAST_KEPT_BYTES;
     }
   });
 

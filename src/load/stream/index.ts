@@ -7,6 +7,7 @@ import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { Tree } from "../../model/tree.js";
 import { noteApartFirstLine } from "../apart-first-line.js";
 import { byteLoader } from "../byte-loader.js";
+import { mayBeSbom } from "../cyclonedx.js";
 import { detectFormat } from "../detect-format.js";
 import {
   checkPlainEdgeList,
@@ -14,6 +15,7 @@ import {
   edgeTableFields,
   isGraph,
   jsonGraph,
+  jsonSbom,
   withNodeRecords,
 } from "../graph-input.js";
 import { linkGraphTable } from "../graph-table.js";
@@ -158,6 +160,16 @@ async function linkedNodes(
     }
   }
   const loader = byteLoader(format, options, head, seen.earlierJson);
+  if (format === "json" && mayBeSbom(new TextDecoder().decode(head), options)) {
+    // A CycloneDX SBOM: read whole, as a JSON graph is, and read as its dependency graph when it has one.
+    const bytes = await wholeBytes(chunks, "JSON", limitsOf(options.limits).maxJsonGraphBytes);
+    const graph = jsonSbom(bytes, options);
+    if (graph) return graph;
+    loader!.write(bytes);
+    const linked = loader!.end();
+    if (loader instanceof JsonLoader) seen.keptJson = loader.keptForLater;
+    return linked;
+  }
   // A JSON graph (rows or an adjacency map) is read whole and parsed.
   if ((format === "json" || format === "rows") && options.graph) {
     const bytes = await wholeBytes(chunks, "JSON", limitsOf(options.limits).maxJsonGraphBytes);
