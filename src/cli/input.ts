@@ -2,6 +2,7 @@ import { DEFAULT_COMPARED_FIELDS } from "../diff/field-edits.js";
 import { EspalierError } from "../errors.js";
 import type { FocusSpec } from "../focus/focus-spec.js";
 import { defaultLoadOptions, type LinkOption, type LoadOptions } from "../load/load-options.js";
+import { oneFolderEntries } from "../load/path-list/one-folder-entries.js";
 import type { Reading } from "../load/shape/choose-reading.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
 import type { ReadingNote } from "../model/reading-note.js";
@@ -42,7 +43,10 @@ export async function loadInput(
   rootName: string = rootNameOf(input),
   nodes: string | undefined = singleNodes(opts),
 ): Promise<Tree> {
-  const tree = withUnsizedImportance(await loadQuietly(io, input, opts, rootName, nodes), opts);
+  const tree = withUnsizedImportance(
+    withUnitNotSaid(await loadQuietly(io, input, opts, rootName, nodes), opts),
+    opts,
+  );
   sayNotes(io, input, tree, opts);
   return tree;
 }
@@ -58,6 +62,31 @@ function withUnsizedImportance(tree: Tree, opts: SharedCliOptions): Tree {
     code: "UNSIZED_IMPORTANCE",
     parts: [
       "--importance size ranks a node by its subtree's size, and this input has no sizes: every node ranks as with --importance depth",
+    ],
+  });
+}
+
+/** Entries from which a path list of one folder's entries is said to have sizes read as bytes: as du's evidence (folder-totals.ts). */
+const UNIT_EVIDENCE = 8;
+
+/**
+ * The tree with a UNIT_NOT_SAID note when it is a path list of one folder's entries and nothing else
+ * ({@link oneFolderEntries}), at least {@link UNIT_EVIDENCE}, whose sizes were read as bytes under
+ * `--units auto`: such a list shows its unit nowhere, where `du -s --apparent-size DIR/*` of folders of
+ * folders (the KiB listings folder-totals.ts cannot tell) and `dpkg-query -W` (KiB) look as `du -sb
+ * DIR/*` does. `--units bytes` (they are bytes) or `plain` (numbers as given) says it instead.
+ */
+function withUnitNotSaid(tree: Tree, opts: SharedCliOptions): Tree {
+  const reading = tree.reading;
+  if (opts.units !== "auto" || reading?.shape !== "paths" || reading.sizeUnit !== "bytes") return tree;
+  if (!tree.hasSizes || reading.folderTotals === true) return tree;
+  const entries = oneFolderEntries(tree);
+  if (entries < UNIT_EVIDENCE) return tree;
+  return withNote(tree, {
+    code: "UNIT_NOT_SAID",
+    count: entries,
+    parts: [
+      `the list is ${entries.toLocaleString("en-US")} entries side by side (a folder's, or an inventory's), none inside another, and its sizes show no unit: they were read as bytes, as du -sb DIR/* lists them. du -s --apparent-size DIR/* and du -sk DIR/* list KiB, and so does dpkg-query -W -f='\${Installed-Size}\\t\${Package}\\n': list bytes instead (du -sb DIR/*; awk -F'\\t' -v OFS='\\t' '{$1 = $1 * 1024} 1' makes KiB bytes), or pass --units plain to print the numbers as given; --units bytes reads them as bytes without this note`,
     ],
   });
 }
@@ -217,7 +246,10 @@ function sayVersionNotes(
   const files = [displayName(oldInput), displayName(newInput)] as const;
   const aligned = valueSized(sizedAlike(alignListings(read, files), files));
   // A diff's sizes are NEW's (none when either version has none): one note, on NEW.
-  const trees: [Tree, Tree] = [aligned[0], withUnsizedImportance(aligned[1], opts)];
+  const trees: [Tree, Tree] = [
+    withUnitNotSaid(aligned[0], opts),
+    withUnsizedImportance(withUnitNotSaid(aligned[1], opts), opts),
+  ];
   sayNotes(io, oldInput, trees[0], opts);
   sayNotes(io, newInput, trees[1], opts);
   return trees;

@@ -58,7 +58,8 @@ export interface ReadingNote {
  * `ABSOLUTE_AND_RELATIVE`: a path list names paths from "/" and paths that start elsewhere, read as two
  * trees side by side (load/path-list/mixed-starts.ts).
  * `SBOM_DEPENDENCIES`: a CycloneDX document read as its dependency graph, not as its values
- * (load/cyclonedx.ts).
+ * (load/cyclonedx.ts). `UNIT_NOT_SAID`: a path list of one folder's entries whose sizes, which show no
+ * unit, were read as bytes; count: the entries (cli/input.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -79,6 +80,7 @@ export const readingNoteCodes = [
   "UNDECODABLE_BYTES",
   "ABSOLUTE_AND_RELATIVE",
   "SBOM_DEPENDENCIES",
+  "UNIT_NOT_SAID",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

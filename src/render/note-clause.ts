@@ -37,6 +37,7 @@ const clauses: Readonly<Record<ReadingNoteCode, Clause>> = {
     ofRun: true,
   },
   ABSOLUTE_AND_RELATIVE: { said: () => "absolute and relative paths read as two trees" },
+  UNIT_NOT_SAID: { said: () => "sizes read as bytes (no unit said)" },
   UNDECODABLE_BYTES: {
     counted: ["entry not UTF-8, read with U+FFFD", "entries not UTF-8, read with U+FFFD"],
   },

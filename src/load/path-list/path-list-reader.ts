@@ -13,6 +13,7 @@ import { parseSize } from "../parse-size.js";
 import { PathPlacer, viewOf } from "../path-placer.js";
 import { limitsOf, tooLong } from "../read-limits.js";
 import { checkReadingOptions } from "../reading-options.js";
+import { SEP_LINE, sepLineMessage } from "../sep-line.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { WrittenPaths } from "../written-paths.js";
 import { BLOCK_COUNTS, blockCountLine } from "./block-counts.js";
@@ -141,6 +142,8 @@ export class PathListReader {
   /** As `commas`, for semicolons: rows of a table a spreadsheet saved with ";" between cells (see `end`). */
   private semicolons = 0;
   private sameSemicolons = true;
+  /** The separator a first line `sep=X` names, as spreadsheets write it before a table's header, else "". */
+  private sepLine = "";
   /** How folders' sizes count (folder-totals.ts); undefined: decided by the listing. */
   private readonly folderSizes: FolderSizes | undefined;
   /** The bytes of the line being read when they are not UTF-8 (it is read decoded), else undefined. */
@@ -286,6 +289,8 @@ export class PathListReader {
     if (this.detected && this.sized === false && this.numberFirstLines === this.pathLines) {
       // Every line as `find -printf '%s %p\n'` or `wc -c` prints it: read as names, each top-level name
       // would be a size, and every size lost, with exit 0.
+      if (FIND_LS.test(this.firstText))
+        throw new EspalierError("PARSE_PATHS", FIND_LS_LINES, { line: this.firstLine, column: 1 });
       throw new EspalierError(
         "PARSE_PATHS",
         "every line starts with a number and a space, as find -printf '%s %P\\n' and wc -c print: a size is read before a tab (find -printf '%s\\t%p\\n'), or before spaces when the first path starts with / or ./ (find /DIR or find . -printf '%s %p\\n'); to read these lines as paths whose names start with a number, pass --input-format paths",
@@ -349,6 +354,11 @@ export class PathListReader {
       // as paths, each name@version would be a folder of its own beside or below the package's.
       throw new EspalierError("PARSE_PATHS", PACKAGE_LINES, { line: this.firstLine, column: 1 });
     }
+    if (this.detected && this.sized === false && this.sepLine !== "" && this.pathLines >= 2)
+      throw new EspalierError("PARSE_PATHS", sepLineMessage(this.sepLine, "paths"), {
+        line: this.firstLine,
+        column: 1,
+      });
     if (
       this.detected &&
       this.sized === false &&
@@ -681,6 +691,7 @@ export class PathListReader {
         this.filledColumns = this.headerFirst && this.headerWords.every((word) => CAPITALS.test(word));
         this.totalFirst = /^total [0-9]/.test(bytes.toString("latin1", start, Math.min(end, start + 8)));
         this.firstText = bytes.toString("utf8", start, Math.min(end, start + 200));
+        this.sepLine = SEP_LINE.exec(this.firstText)?.[1] ?? "";
       } else if (this.filledColumns && this.pathLines <= COMMA_LINES) {
         const fields = bytes.toString("utf8", start, end).trim().split(/ +/).length;
         if (fields < this.headerWords.length) this.filledColumns = false;
@@ -941,6 +952,15 @@ function sizeLast(bytes: Buffer, start: number, end: number): boolean {
  * paths: a few names may end so (`scan 1`, `scan 2`), a whole listing of names rarely does.
  */
 const SIZE_LAST_EVIDENCE = 3;
+
+/**
+ * A line as `find -ls` prints it (GNU findutils, seen here): the inode, the blocks, the mode, the links,
+ * the owner and the group, then the size, the date and the path (` 349299  8 -rw-r--r--  1 root root 7943 May 11  2023 /usr/share/doc/dpkg/copyright`).
+ */
+const FIND_LS = /^ *[0-9]+ +[0-9]+ +[-dlcbpsD][-rwxsStT]{9}[.+@]? +[0-9]+ +\S+ +\S+ +[0-9]+ /;
+
+const FIND_LS_LINES =
+  "every line is as find -ls prints an entry (its inode, blocks, mode, links, owner, group, size, date and path): read as a path list, each whole line would be one path, its size and date part of the names. List each entry's size and path: find DIR -printf '%s\\t%p\\n'; to read each line as a path, pass --input-format paths";
 
 const SIZE_LAST =
   "every line ends in a space and a number, as find -printf '%p %s\\n' and stat -c '%n %s' put the size after the path: read as a path list, each number would be the end of a name and no size read. Put the size first, separated by a tab (find DIR -printf '%s\\t%p\\n', or awk '{n = $NF; sub(/ [0-9]+$/, \"\"); print n \"\\t\" $0}' LIST); to read each line as a path, pass --input-format paths";

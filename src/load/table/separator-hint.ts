@@ -1,4 +1,5 @@
 import { EspalierError } from "../../errors.js";
+import { sepLineMessage } from "../sep-line.js";
 
 /**
  * An error about a CSV table whose header is one column holding semicolons, with a hint: such a file
@@ -8,8 +9,20 @@ import { EspalierError } from "../../errors.js";
  * Other errors, and other tables, are returned as they are.
  */
 export function withSeparatorHint(error: unknown, header: readonly string[] | undefined): unknown {
-  if (!(error instanceof EspalierError) || header === undefined || header.length !== 1) return error;
+  if (!(error instanceof EspalierError) || header === undefined) return error;
   if (error.code !== "FIELD_MISSING" && error.code !== "PARSE_CSV") return error;
+  // `sep=,` read as CSV is two cells, "sep=" and ""; `sep=;` one.
+  const sep = header.length <= 2 && /^sep=.?$/.test(header[0]) && (header[1] ?? "") === "";
+  if (sep) {
+    const separator = header.length === 2 ? "," : header[0].slice(4) || "\t";
+    return new EspalierError(
+      error.code,
+      [...error.parts, `; ${sepLineMessage(separator, "csv")}`],
+      error.pos,
+      error.details,
+    );
+  }
+  if (header.length !== 1) return error;
   const semicolons = header[0].split(";").length - 1;
   if (semicolons === 0) return error;
   return new EspalierError(
