@@ -357,17 +357,20 @@ function packedKey(
   // it there instead (`h: keys, marks`), leaving the key its rows.
   const rest = facts.more === undefined ? [KEY_REST] : [];
   const vitals = said.filter(vital).length;
-  // The pointer goes before the vital parts do (none of them goes while it stays).
-  for (const [end, least] of [
-    [rest, vitals],
-    [[], 0],
-  ] as const) {
+  // The pointer goes before the vital parts do (none of them goes while it stays), but in a key
+  // printed in part (see `fitToBudget`), which says every mark and where the rest is however few its
+  // rows: there the vital parts go, the last first, down to the marks and the pointer alone.
+  const stages: (readonly [readonly string[], number])[] = [[rest, vitals]];
+  if (facts.inPart && rest.length > 0) stages.push([rest, 0]);
+  stages.push([[], 0]);
+  for (const [end, least] of stages) {
     for (let n = kept.length - 1; n >= least; n--) {
       const chosen = kept.slice(0, n).map((p) => p[2]);
       let packed = packRows(tiny, [...chosen, ...end], width, rows);
       if (packed === null) continue;
-      // Every vital part said: a later part that still fits is said too, though one before it did not.
-      for (const p of n >= vitals ? kept.slice(n + 1) : []) {
+      // Every vital part said, or the pointer kept: a later part that still fits is said too, though
+      // one before it did not.
+      for (const p of n >= vitals || end.length > 0 ? kept.slice(n + 1) : []) {
         const more = packRows(tiny, [...chosen, p[2], ...end], width, rows);
         if (more === null) continue;
         packed = more;

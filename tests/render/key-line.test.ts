@@ -19,6 +19,7 @@ import {
   keyLines,
   keyRows,
   keyRowsNeeded,
+  keySaysAll,
 } from "../../src/render/key-line.js";
 import { MIN_WIDTH } from "../../src/render/line-layout.js";
 import { legendLines, MARK } from "../../src/render/marks.js";
@@ -612,16 +613,36 @@ describe("keyInPartSays(kind, facts, width, rows) and keyLines(..., rows) printe
       expect(keyInPartSays("summary", facts, width, rows)).toBe(true);
     }
   });
-  it("is false where the marks, what the numbers are and where the rest is do not fit the rows", () => {
+  it("keeps the marks and the pointer where its rows have no room for what the numbers are too", () => {
+    // Before, the pointer went first: these keys said no `rest: --legend`, the fit left the key out,
+    // and a budget one larger printed it, taking a line from the tree (a node shown at B hidden at B + 1).
     for (const [width, rows] of [
       [40, 2],
       [30, 3],
     ]) {
-      expect(keyLines("summary", { ...facts, inPart: true }, width, "text", rows).join("\n")).not.toContain(
+      const key = keyLines("summary", { ...facts, inPart: true }, width, "text", rows);
+      expect(key).toHaveLength(rows);
+      for (const line of key) expect(displayWidth(line)).toBeLessThanOrEqual(width);
+      const text = key.join("\n");
+      for (const said of ["'*'", "':'", KEY_REST])
+        expect(text, `${width} columns, ${rows} rows`).toContain(said);
+      // A vital part left out for the pointer (what the counts are at 40, `(k more)` at 30).
+      expect(keySaysAll("summary", facts, key)).toBe(false);
+      expect(keyInPartSays("summary", facts, width, rows)).toBe(true);
+    }
+  });
+  it("is false where the marks and where the rest is do not fit the rows", () => {
+    // Four marks at 60-69 columns: `key: ` and their fewest words take 53, the pointer 16 more.
+    const four = { ...facts, marks: new Set([MARK.focus, MARK.path, MARK.other, MARK.reference]) };
+    for (const width of [60, 68]) {
+      expect(keyLines("summary", { ...four, inPart: true }, width, "text", 1).join("\n")).not.toContain(
         KEY_REST,
       );
-      expect(keyInPartSays("summary", facts, width, rows)).toBe(false);
+      expect(keyInPartSays("summary", four, width, 1)).toBe(false);
     }
+    expect(keyInPartSays("summary", four, 70, 1)).toBe(true);
+    // Without the pointer the marks alone fill both rows at 30 columns.
+    expect(keyInPartSays("summary", four, 30, 2)).toBe(false);
   });
   it("says all, without the pointer, where its rows have room for all", () => {
     expect(keyRowsNeeded("summary", facts, 40)).toBe(4);

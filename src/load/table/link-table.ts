@@ -9,7 +9,7 @@ import type { LoadOptions } from "../load-options.js";
 import { missingField, nameFieldNamed, sizeFieldNamed } from "../missing-field.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
 import { notUtf8Note } from "../not-utf8-note.js";
-import { otherFields, withOtherFields } from "../other-fields.js";
+import { keepingOtherFields, otherFields, withOtherFields } from "../other-fields.js";
 import { parseSize } from "../parse-size.js";
 import { mixedStartsNote } from "../path-list/mixed-starts.js";
 import { PathPlacer } from "../path-placer.js";
@@ -104,8 +104,10 @@ function linkedBy(table: Table, options: LoadOptions): string[] {
     : [options.pathField];
 }
 
-function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): LinkedNodes {
+function linkRows(table: Table, given: LoadOptions, shape: "table" | "rows"): LinkedNodes {
   if (table.length === 0) throw new EspalierError("INPUT_EMPTY", "the table has no data rows");
+  // Every other column kept as well, when asked (a diff's versions: LoadOptions.keepOtherFields).
+  const options = keepingOtherFields(given, table.columnNames());
   const byteIds = table.pooledColumn?.(options.idField);
   const byteParents = byteIds && table.numberColumn?.(options.parentField);
   if (byteIds && byteParents && byteIds.length >= table.length && byteIds.byteRuns() !== null) {
@@ -541,7 +543,10 @@ export function linkPathMap(
     columnNames: () => rows.columnNames(),
   };
   if (table.length === 0) throw new EspalierError("INPUT_EMPTY", `the object keyed by path is empty`);
-  const linked = linkByPath(table, keys, { ...options, pathField: PATH_KEY });
+  const linked = linkByPath(table, keys, {
+    ...keepingOtherFields(options, rows.columnNames()),
+    pathField: PATH_KEY,
+  });
   linked.reading = {
     shape: "path-map",
     sizeUnit: fieldSizeUnit(options.sizeField),
