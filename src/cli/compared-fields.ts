@@ -1,8 +1,9 @@
 import { defaultComparedFields } from "../diff/field-edits.js";
 import { NPM_CHILDREN_FIELD, OVERRIDDEN_FIELD } from "../load/deduped-entries.js";
+import { MOST_OTHER_FIELDS } from "../load/other-fields-kept.js";
 import { safeText } from "../model/safe-text.js";
 import type { Tree } from "../model/tree.js";
-import { loadInput, loadVersions } from "./input.js";
+import { loadVersions } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { SharedCliOptions } from "./options.js";
 
@@ -20,10 +21,10 @@ export interface ComparedVersions {
  * diff compares `version` where both versions' records have it (a dependency listing's), a document read
  * as values its scalars' text, and besides every other field the records hold (TreeReading.otherFields:
  * an image tag in a list of services that also name a version, a title in an org chart), since a field
- * no one compared would make a changed value no change, and `--fail-on-change` pass it. Finding them
- * takes a first read: both versions are read again keeping them. A version from standard input is read
- * once: the other version's file is read first for its fields, and standard input keeps those; fields
- * only it holds are said on standard error as not compared.
+ * no one compared would make a changed value no change, and `--fail-on-change` pass it. Each version's
+ * load keeps them as it reads (LoadOptions.keepOtherFields), a version from standard input too, so each
+ * is read once. Fields a load met past the most it keeps (load/other-fields-kept.ts) are said on
+ * standard error as not compared.
  */
 export async function loadCompared(
   io: CliIO,
@@ -37,31 +38,19 @@ export async function loadCompared(
       fields: opts.compareField,
       optional: false,
     };
-  // The first load's notes are said; a second load's are the same.
-  const quiet: CliIO = { ...io, stderr: { write: () => true, isTTY: false } };
-  const piped = oldInput === "-" ? newInput : newInput === "-" ? oldInput : undefined;
-  if (piped !== undefined) {
-    // The file's fields, from a load of its own.
-    const probe = await loadInput(quiet, piped, opts);
-    const other = otherCompared([probe]);
-    const trees = await loadVersions(
-      io,
-      oldInput,
-      newInput,
-      other.length > 0 ? { ...opts, otherCompared: other } : opts,
-    );
-    const fields = defaultComparedFields(trees[0], trees[1]);
-    // Fields standard input holds and the file does not: not kept, so not compared.
-    const left = otherCompared(trees).filter((f) => !other.includes(f) && !fields.includes(f));
-    if (left.length > 0) io.stderr.write(notComparedNote(left));
-    return withOther(trees, fields, other);
-  }
-  const trees = await loadVersions(io, oldInput, newInput, opts);
+  const trees = await loadVersions(io, oldInput, newInput, { ...opts, keepOtherFields: true });
   const fields = defaultComparedFields(trees[0], trees[1]);
-  const other = otherCompared(trees).filter((f) => !fields.includes(f));
-  if (other.length === 0) return { trees, fields, optional: false };
-  const again = await loadVersions(quiet, oldInput, newInput, { ...opts, otherCompared: other });
-  return withOther(again, fields, other);
+  const left = leftOut(trees).filter((f) => !fields.includes(f));
+  if (left.length > 0)
+    io.stderr.write(
+      notComparedNote(
+        left,
+        trees.some((t) => t.reading?.otherFieldsLeft?.more),
+      ),
+    );
+  const other = otherCompared(trees).filter((f) => !fields.includes(f) && !left.includes(f));
+  if (other.length === 0) return { trees: onlyCompared(trees, fields), fields, optional: false };
+  return withOther(trees, fields, other);
 }
 
 /** The default fields and the other fields after them; a version may lack the others (optional). */
@@ -71,7 +60,21 @@ function withOther(
   other: readonly string[],
 ): ComparedVersions {
   const all = [...fields, ...other.filter((f) => !fields.includes(f))];
-  return { trees, fields: all, optional: all.length > fields.length };
+  return { trees: onlyCompared(trees, all), fields: all, optional: all.length > fields.length };
+}
+
+/**
+ * The versions without the other fields their loads kept and the diff does not compare (npm ls's
+ * `overridden`): the combined tree carries only what was kept for a purpose.
+ */
+function onlyCompared(trees: [Tree, Tree], compared: readonly string[]): [Tree, Tree] {
+  return trees.map((tree) => {
+    const drop = (tree.reading?.otherFields ?? []).filter((f) => tree.fields.has(f) && !compared.includes(f));
+    if (drop.length === 0) return tree;
+    const fields = new Map(tree.fields);
+    for (const f of drop) fields.delete(f);
+    return { ...tree, fields };
+  }) as [Tree, Tree];
 }
 
 /**
@@ -92,12 +95,28 @@ function otherFieldsOf(trees: readonly Tree[]): string[] {
   return [...new Set(trees.flatMap((tree) => tree.reading?.otherFields ?? []))];
 }
 
-/** The fields only the version from standard input holds: it is read once, before they were known. */
-function notComparedNote(fields: readonly string[]): string {
+/**
+ * The fields the versions' loads met past the most they keep, not kept (OLD's first), and any a
+ * reading lists that its load did not keep: compared, each would hold nothing, a change no change.
+ */
+function leftOut(trees: readonly Tree[]): string[] {
+  return [
+    ...new Set(
+      trees.flatMap((tree) => [
+        ...(tree.reading?.otherFieldsLeft?.names ?? []),
+        ...(tree.reading?.otherFields ?? []).filter((f) => !tree.fields.has(f)),
+      ]),
+    ),
+  ];
+}
+
+/** The fields not kept (met past the most a load keeps), so not compared. */
+function notComparedNote(fields: readonly string[], more: boolean | undefined): string {
   const named = fields.map((f) => JSON.stringify(safeText(f, 80))).join(", ");
   return (
-    `espalier: note: the records from standard input hold fields the other version's do not, which this ` +
-    `diff did not compare (${named}): standard input is read once, so a value in them is no change ` +
-    `here; give each with --compare-field to compare it [FIELDS_NOT_COMPARED]\n`
+    `espalier: note: the records hold fields this diff did not keep, so did not compare (${named}` +
+    `${more ? " and more" : ""}): a load keeps at most ${MOST_OTHER_FIELDS} fields beside those the tree is ` +
+    `read from, the first met; a value changed in the others is no change here; give each with ` +
+    `--compare-field to compare it [FIELDS_NOT_COMPARED]\n`
   );
 }

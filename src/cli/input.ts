@@ -383,13 +383,13 @@ export function toLoadOptions(input: string, opts: SharedCliOptions & ComparedFi
         ...(opts.label ? templateFields(opts.label) : []),
         ...(opts.compareField ?? []),
         ...defaultCompared(opts),
-        ...(opts.otherCompared ?? []),
       ]),
     ],
     // A diff without --compare-field compares a document's values where it is read as values.
     ...(defaultCompared(opts).length > 0
-      ? { optionalKeepFields: [...defaultCompared(opts), ...(opts.otherCompared ?? [])], keepScalars: true }
+      ? { optionalKeepFields: [...defaultCompared(opts)], keepScalars: true }
       : {}),
+    ...(opts.keepOtherFields ? { keepOtherFields: true } : {}),
     rootName: rootNameOf(input),
     maxNodes: opts.maxNodes ?? Number.POSITIVE_INFINITY,
     ...(opts.readAs === "auto" ? {} : { readAs: opts.readAs }),
@@ -422,12 +422,13 @@ function linkOptionsNamed(named: ReadonlySet<string> | undefined): { linkOptions
 
 /**
  * The fields a diff keeps to compare: `compareField` (`--compare-field`; empty: a diff without it, which
- * keeps `version` where records have it), and `otherCompared`, the records' other fields a diff without
- * it compares (cli/compared-fields.ts), kept only where records have them.
+ * keeps `version` where records have it), and `keepOtherFields`: keep the records' other fields as
+ * they are read, which a diff without it compares (cli/compared-fields.ts).
  */
 export interface ComparedFieldOptions {
   compareField?: readonly string[];
-  otherCompared?: readonly string[];
+  /** Keep every other field the records hold, in the same read (LoadOptions.keepOtherFields). */
+  keepOtherFields?: boolean;
 }
 
 /**

@@ -40,6 +40,8 @@ export function edgeTableFields(options: LoadOptions): LoadOptions {
   return {
     ...options,
     keepFields: [...options.keepFields, options.childField],
+    // A graph's reading lists no other fields (a diff compares none of them): none kept.
+    keepOtherFields: false,
     maxNodes: Number.POSITIVE_INFINITY,
   };
 }

@@ -57,6 +57,15 @@ export interface LoadOptions {
    * of the tree's fields rather than FIELD_MISSING (`diff` compares `version` this way by default).
    */
   optionalKeepFields?: readonly string[];
+  /**
+   * Keep, in the same read, every record field not read for the tree (nor in `keepFields`) as text
+   * (an object or array as its JSON or YAML text), "" where a record has none, and list them, and only
+   * them, as `reading.otherFields`: a diff of two versions without `--compare-field` compares them
+   * (cli/compared-fields.ts). Tables and rows keep every other column; node objects at most
+   * MOST_OTHER_FIELDS, naming those met past it (`reading.otherFieldsLeft`; other-fields-kept.ts).
+   * Default false: a summary keeps none.
+   */
+  keepOtherFields?: boolean;
   /** Name of the root espalier adds when the input has several top-level nodes. */
   rootName: string;
   /** Refuse inputs with more nodes than this (LIMIT_EXCEEDED). */

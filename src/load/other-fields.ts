@@ -1,6 +1,6 @@
 import type { LoadOptions } from "./load-options.js";
 
-type FieldOptions = Pick<
+export type FieldOptions = Pick<
   LoadOptions,
   "nameField" | "sizeField" | "childrenField" | "idField" | "parentField" | "pathField" | "keepFields"
 >;
@@ -13,7 +13,14 @@ type FieldOptions = Pick<
  * list of services, a title in an org chart), not the same versions.
  */
 export function otherFields(met: Iterable<string>, options: FieldOptions): string[] | undefined {
-  const read = new Set([
+  const read = fieldsRead(options);
+  const other = [...met].filter((field) => !read.has(field));
+  return other.length > 0 ? other : undefined;
+}
+
+/** The fields a load reads for the tree (name, size, children, id, parent, path) or keeps: no other fields. */
+export function fieldsRead(options: FieldOptions): Set<string> {
+  return new Set([
     options.nameField,
     options.sizeField,
     options.childrenField,
@@ -22,11 +29,28 @@ export function otherFields(met: Iterable<string>, options: FieldOptions): strin
     options.pathField,
     ...options.keepFields,
   ]);
-  const other = [...met].filter((field) => !read.has(field));
-  return other.length > 0 ? other : undefined;
 }
 
 /** `{ otherFields }` for a reading, or nothing when there are none. */
 export function withOtherFields(fields: readonly string[] | undefined): { otherFields?: readonly string[] } {
   return fields === undefined ? {} : { otherFields: fields };
+}
+
+/**
+ * The options of a load that keeps its records' other fields (LoadOptions.keepOtherFields): those of
+ * the fields met that it reads for no other purpose kept too, each where records have it (optional).
+ * Unchanged without `keepOtherFields`, or when there are none.
+ */
+export function keepingOtherFields<
+  T extends FieldOptions & Pick<LoadOptions, "keepOtherFields" | "optionalKeepFields">,
+>(options: T, met: Iterable<string>): T {
+  if (options.keepOtherFields !== true) return options;
+  const other = otherFields(met, options);
+  if (other === undefined) return options;
+  const unique = [...new Set(other)];
+  return {
+    ...options,
+    keepFields: [...options.keepFields, ...unique],
+    optionalKeepFields: [...(options.optionalKeepFields ?? []), ...unique],
+  };
 }

@@ -17,6 +17,7 @@ import {
 import { NodeSink } from "./node-sink.js";
 import { countNodeObjects, NodesNotRead, type NotReadKind } from "./nodes-not-read.js";
 import { otherFields, withOtherFields } from "./other-fields.js";
+import { OtherColumns, OtherFieldsKept } from "./other-fields-kept.js";
 import { fieldSizeUnit } from "./size-unit.js";
 
 /** The children field by default (load-options.ts). */
@@ -77,6 +78,9 @@ export function walkNested<V>(
   let keyed = new Uint8Array(1024);
   const kept = keepFields.map(() => [] as string[]);
   const keptSeen = keepFields.map(() => false);
+  // Every other field of the node objects, kept as they are walked (LoadOptions.keepOtherFields).
+  const others = options.keepOtherFields === true ? new OtherFieldsKept(options) : undefined;
+  const otherColumns = new OtherColumns();
   // Keys of the first node objects, for the message of a field no node has.
   const seen = new FieldsSeen();
   let hasNames = false;
@@ -163,11 +167,14 @@ export function walkNested<V>(
       for (const column of kept) column.push("");
       continue;
     }
-    if (seen.wants(i)) {
+    if (seen.wants(i) || others !== undefined) {
       keys.length = 0;
       values.length = 0;
       access.entries(v, keys, values);
-      for (const key of keys) seen.add(key);
+      if (seen.wants(i)) for (const key of keys) seen.add(key);
+      if (others !== undefined)
+        for (let k = 0; k < keys.length; k++)
+          if (others.keeps(keys[k])) otherColumns.set(keys[k], i, fieldText(access, values[k]));
     }
 
     const nameValue = access.field(v, nameField);
@@ -208,15 +215,8 @@ export function walkNested<V>(
 
     for (let f = 0; f < keepFields.length; f++) {
       const value = access.field(v, keepFields[f]);
-      const k = access.kind(value);
-      if (k !== Kind.Null || value !== undefined) keptSeen[f] = true;
-      kept[f].push(
-        k === Kind.Null
-          ? ""
-          : k === Kind.Seq || k === Kind.Map
-            ? access.source(value as V)
-            : access.text(value as V),
-      );
+      if (access.kind(value) !== Kind.Null || value !== undefined) keptSeen[f] = true;
+      kept[f].push(value === undefined ? "" : fieldText(access, value));
     }
 
     const missing = access.field(v, MISSING_FIELD);
@@ -310,6 +310,7 @@ export function walkNested<V>(
     }
     fields.set(keepFields[f], kept[f]);
   }
+  for (const [field, column] of otherColumns.fields(sink.length)) fields.set(field, column);
   // The one node's mapping: the top-level one, or a top-level sequence's one item.
   const lone = rootKind === Kind.Map ? root : rootKind === Kind.Seq ? access.items(root)[0] : undefined;
   if (sink.length === 1 && lone !== undefined && access.kind(lone) === Kind.Map) {
@@ -344,7 +345,7 @@ export function walkNested<V>(
     ...(emptyEntries > 0 ? { emptyEntries } : {}),
     ...(!hasNames && unkeyed > 1 ? { unnamed: nameField } : {}),
     ...(notes.length > 0 ? { notes } : {}),
-    ...withOtherFields(otherFields(seen.list(), options)),
+    ...(others !== undefined ? others.reading() : withOtherFields(otherFields(seen.list(), options))),
   });
   const withEmpty = empty === undefined ? linked : { ...linked, empty: empty.slice(0, sink.length) };
   return linkedReferences ? { ...withEmpty, referenceOf: linkedReferences } : withEmpty;
@@ -417,6 +418,12 @@ function notReadNote<V>(
   const notRead = new NodesNotRead();
   for (const p of places) notRead.add(p.key, p.node, p.line, p.count, p.size, p.kind);
   return notRead.note(options, "yaml", where);
+}
+
+/** A field's value as kept: a scalar's text, an object's or array's source text, "" for null. */
+function fieldText<V>(access: NestedAccess<V>, value: V): string {
+  const k = access.kind(value);
+  return k === Kind.Null ? "" : k === Kind.Seq || k === Kind.Map ? access.source(value) : access.text(value);
 }
 
 function grownFlags(flags: Uint8Array<ArrayBuffer>): Uint8Array<ArrayBuffer> {

@@ -98,11 +98,19 @@ export interface TreeReading {
   readonly documents?: number;
   /**
    * Node objects, rows and tables: the record fields the records hold beside those read for the tree
-   * (name, size, children, id, parent, path) and those kept (`Tree.fields`), in the order first seen;
-   * a nested document's from a sample (the first 1,000 node objects' keys, up to 40 names). A diff
-   * without `--compare-field` compares them (cli/compared-fields.ts). Absent: none.
+   * (name, size, children, id, parent, path) and those kept for a purpose (a label's, a compared one),
+   * in the order first seen; a nested document's from a sample (the first 1,000 node objects' keys, up
+   * to 40 names). A load asked to keep them (LoadOptions.keepOtherFields) keeps them in `Tree.fields`
+   * too, and lists those it kept that some record holds, met anywhere. A diff without `--compare-field`
+   * compares them (cli/compared-fields.ts). Absent: none.
    */
   readonly otherFields?: readonly string[];
+  /**
+   * Node objects read keeping their other fields: fields met after the most a load keeps
+   * (load/other-fields-kept.ts), not kept, so not compared; the first 20 named, `more` when there were
+   * others. Absent: none left out.
+   */
+  readonly otherFieldsLeft?: { readonly names: readonly string[]; readonly more: boolean };
   /**
    * A table or rows linked by id without the name column: the id column, whose values name the nodes.
    * The header says so, so a reader whose names sit in another column sees where to point --name-field.

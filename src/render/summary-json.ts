@@ -49,7 +49,7 @@ export function toSummary(view: HierarchyNode<ViewNode>, options: JsonOptions): 
  * other fields are what a diff compares by default (cli/compared-fields.ts), not a fact of the summary.
  */
 function jsonReading(reading: TreeReading, shown: readonly ShownNote[] | undefined): Summary["input"] {
-  const { notes, otherFields: _, ...rest } = reading;
+  const { notes, otherFields: _, otherFieldsLeft: __, ...rest } = reading;
   const out = shown ?? (notes ?? []).map((note) => showNote(note));
   return out.length > 0 ? { ...rest, notes: out.map((note) => ({ ...note })) } : { ...rest };
 }

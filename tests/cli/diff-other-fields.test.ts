@@ -80,15 +80,103 @@ describe("espalier diff compares the records' other fields when they have no ver
     expect(back.code).toBe(1);
   });
 
-  it("says on standard error which fields only standard input's records hold, not compared", async () => {
+  it("compares a column only standard input's table has: it keeps its own, read once", async () => {
+    const old = "id,parent,name\nt1,,Harbour board\nt2,t1,Quay crew\nt3,t1,Night crew\n";
+    const piped = "id,parent,name,team\nt1,,Harbour board,\nt2,t1,Quay crew,quay\nt3,t1,Night crew,\n";
+    const r = await cli(["diff", "old.csv", "-", "--fail-on-change"], {
+      files: { "old.csv": old },
+      stdin: piped,
+    });
+    // main's build said "0 edited (no field compared)", exit 0, and FIELDS_NOT_COMPARED here.
+    expect(r.code).toBe(1);
+    expect(head(r.stdout)).toContain("1 edited (compared: team)");
+    expect(r.stdout).toContain("[edited team (none) -> quay] Quay crew");
+    expect(r.stderr).toBe("");
+    const back = await cli(["diff", "-", "old.csv", "--format", "json"], {
+      files: { "old.csv": old },
+      stdin: piped,
+    });
+    const out = JSON.parse(back.stdout);
+    expect(out.compared).toEqual(["team"]);
+    expect(out.changes.edited).toBe(1);
+  });
+
+  it("compares JSON rows' field only standard input's rows have", async () => {
+    const rows = (team?: string) =>
+      JSON.stringify([
+        { id: "t1", parent: null, name: "Harbour board" },
+        { id: "t2", parent: "t1", name: "Quay crew", ...(team ? { team } : {}) },
+      ]);
+    const r = await cli(["diff", "old.json", "-", "--fail-on-change"], {
+      files: { "old.json": rows() },
+      stdin: rows("quay"),
+    });
+    expect(r.code).toBe(1);
+    expect(r.stdout).toContain("[edited team (none) -> quay] Quay crew");
+    expect(r.stderr).toBe("");
+  });
+
+  it("reads each version's table once to compare its other columns", async () => {
+    const old = "id,parent,name,title\nt1,,Harbour board,board\nt2,t1,Quay crew,crew\n";
+    const reads: Record<string, number> = {};
+    const contents: Record<string, string> = {
+      "old.csv": old,
+      "new.csv": old.replace("Quay crew,crew", "Quay crew,night crew"),
+    };
+    // Counts the reads of each file the run makes.
+    const files = new Proxy(contents, {
+      get(target, key: string) {
+        reads[key] = (reads[key] ?? 0) + 1;
+        return target[key];
+      },
+    });
+    const r = await cli(["diff", "old.csv", "new.csv"], { files });
+    expect(r.stdout).toContain("[edited title crew -> night crew] Quay crew");
+    // main's build read each twice: once to find the other columns, once keeping them.
+    expect(reads).toEqual({ "old.csv": 1, "new.csv": 1 });
+  });
+
+  it("compares a field only standard input's node objects hold: it keeps its own", async () => {
     const files = { "old.yaml": services("1.4") };
     const r = await cli(["diff", "old.yaml", "-", "--fail-on-change"], {
       files,
       stdin: services("1.4", "\n    owner: quay-team"),
     });
+    // main's build compared image, replicas and labels only, exit 0, with FIELDS_NOT_COMPARED for owner.
+    expect(r.code).toBe(1);
+    expect(head(r.stdout)).toContain("1 edited (compared: image, replicas, labels, owner)");
+    expect(r.stdout).toContain("[edited owner (none) -> quay-team] invoice-ui");
+    expect(r.stderr).toBe("");
+    const json = JSON.stringify({
+      name: "harbour-ops",
+      children: [{ name: "ledger-api", image: "registry.example/ledger:1.4" }],
+    });
+    const piped = await cli(["diff", "-", "old.json", "--fail-on-change"], {
+      files: { "old.json": json },
+      stdin: json.replace('"image"', '"owner":"quay-team","image"'),
+    });
+    expect(piped.code).toBe(1);
+    expect(piped.stdout).toContain("[edited owner quay-team -> (none)] ledger-api");
+  });
+
+  it("says on standard error which fields past the most kept it did not compare", async () => {
+    // 45 fields beside the name: 40 are kept and compared, the last 5 are not.
+    const record = (last: string) =>
+      Object.fromEntries(Array.from({ length: 45 }, (_, k) => [`f${k}`, k === 44 ? last : "v"]));
+    const doc = (last: string) =>
+      JSON.stringify({ name: "harbour-ops", children: [{ name: "quay", ...record(last) }] });
+    const r = await cli(["diff", "old.json", "new.json", "--fail-on-change", "--format", "json"], {
+      files: { "old.json": doc("1"), "new.json": doc("2") },
+    });
     expect(r.code).toBe(0);
-    expect(head(r.stdout)).toContain("0 edited (compared: image, replicas, labels)");
-    expect(r.stderr).toContain('did not compare ("owner")');
+    const out = JSON.parse(r.stdout);
+    expect(out.compared).toHaveLength(40);
+    expect(out.compared.at(-1)).toBe("f39");
+    expect(r.stderr).toContain('("f40", "f41", "f42", "f43", "f44")');
     expect(r.stderr).toContain("[FIELDS_NOT_COMPARED]");
+    const named = await cli(["diff", "old.json", "new.json", "--fail-on-change", "--compare-field", "f44"], {
+      files: { "old.json": doc("1"), "new.json": doc("2") },
+    });
+    expect(named.code).toBe(1);
   });
 });

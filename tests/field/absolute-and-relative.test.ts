@@ -66,6 +66,30 @@ describe("a path list with absolute and relative paths", () => {
     }
   });
 
+  it.skipIf(!gnu)("a CSV path column or JSON rows with both kinds have the note, counting rows", async () => {
+    // A sheet of the farm's files: its path column from two listings (grep -c counts each kind's rows).
+    const sheet = `path,size\n${sh(`find "${base}/orchard" -type f -printf '%p,%s\\n'`)}${sh("find cellar -type f -printf '%p,%s\\n'")}`;
+    const absolute = Number(sh(`printf '%s' '${sheet}' | grep -c '^/'`));
+    const relative = Number(sh(`printf '%s' '${sheet}' | grep -c '^[^/].*,[0-9]*$'`));
+    const r = await cli(["-", "--format", "json"], { stdin: sheet });
+    expect(r.code).toBe(0);
+    const notes = JSON.parse(r.stdout).input.notes;
+    expect(notes).toEqual([expect.objectContaining({ code: "ABSOLUTE_AND_RELATIVE", line: 2 })]);
+    expect(notes[0].message).toMatch(
+      new RegExp(
+        `^${absolute} rows give an absolute path \\(the first: row 1\\) and ${relative} rows a relative one`,
+      ),
+    );
+    const rows = JSON.stringify([
+      { path: "/srv/orchard/ledger.txt", size: 90 },
+      { path: "cellar/casks/c1.log", size: 75 },
+    ]);
+    const json = await cli(["-", "--format", "json"], { stdin: rows });
+    expect(JSON.parse(json.stdout).input.notes).toEqual([
+      expect.objectContaining({ code: "ABSOLUTE_AND_RELATIVE" }),
+    ]);
+  });
+
   it("an unsized list has the note too, and the made-absolute list none", async () => {
     const list = "/srv/orchard/rows/north.csv\ncellar/casks/c1.log\n";
     const r = await cli(["-", "--format", "json"], { stdin: list });

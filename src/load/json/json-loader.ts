@@ -26,6 +26,7 @@ import {
 import { limitExceeded, NodeSink } from "../node-sink.js";
 import { countNodeObjects, NodesNotRead, plainValues } from "../nodes-not-read.js";
 import { otherFields, withOtherFields } from "../other-fields.js";
+import { OtherFieldsKept } from "../other-fields-kept.js";
 import { fieldSizeUnit } from "../size-unit.js";
 import { linkTable } from "../table/link-table.js";
 import { rowsTable } from "../table/rows-table.js";
@@ -94,8 +95,15 @@ interface Field {
   bytes: Uint8Array;
   text: string;
   mask: number;
-  /** Indices into keepFields. */
+  /** Indices into the kept columns (`keepFields`, then the other fields kept). */
   keeps: number[];
+  /** A field kept only as one of the node objects' other fields (LoadOptions.keepOtherFields). */
+  other: boolean;
+  /**
+   * Keeping the other fields: whether it is known to be none (read for the tree, or met past the most
+   * kept), or kept already.
+   */
+  settled: boolean;
 }
 
 /** What is known about an open container; one per nesting level, reused. */
@@ -188,8 +196,16 @@ export class JsonLoader extends JsonTokenizer {
    * EMPTY where its object has no key at all (`{}`).
    */
   private sized = new Uint8Array(1024);
-  /** Kept field values by node; undefined where a node has no such field (it becomes ""). */
+  /**
+   * Kept field values by node; undefined where a node has no such field (it becomes ""): `keepFields`'
+   * and then, keeping the other fields, theirs as first met (`keptNames` names them all).
+   */
   private readonly kept: (string | undefined)[][];
+  private readonly keptNames: string[];
+  /** Keeping the node objects' other fields (LoadOptions.keepOtherFields), which; else undefined. */
+  private readonly others: OtherFieldsKept | undefined;
+  /** Keys of node objects that are no other field kept (read for the tree, or past the most kept). */
+  private readonly notOther: Uint8Array[] = [];
   private readonly probe: RowsProbe;
   private readonly rows: unknown[] = [];
   // Where each row starts, for the errors about a row the table finds.
@@ -283,14 +299,25 @@ export class JsonLoader extends JsonTokenizer {
     this.probe = new RowsProbe(as);
     this.sink = new NodeSink(options.maxNodes, false, options.earlierVersion?.name);
     this.kept = options.keepFields.map(() => []);
+    this.keptNames = [...options.keepFields];
+    this.others = options.keepOtherFields === true ? new OtherFieldsKept(options) : undefined;
     const add = (text: string, mask: number, keep: number) => {
       let field = this.fields.find((f) => f.text === text);
       if (!field) {
-        field = { bytes: new TextEncoder().encode(text), text, mask: 0, keeps: [] };
+        field = {
+          bytes: new TextEncoder().encode(text),
+          text,
+          mask: 0,
+          keeps: [],
+          other: false,
+          settled: false,
+        };
         this.fields.push(field);
       }
       field.mask |= mask;
       if (keep >= 0) field.keeps.push(keep);
+      // Only a field that marks entries (missing, npm's version and overridden) may be an other field.
+      field.settled = field.keeps.length > 0 || (field.mask & (F_NAME | F_SIZE | F_CHILDREN)) !== 0;
     };
     add(options.nameField, F_NAME, -1);
     add(options.sizeField, F_SIZE, -1);
@@ -327,6 +354,8 @@ export class JsonLoader extends JsonTokenizer {
       this.sameReadAs(earlier) &&
       earlier.readable(options.earlierInput);
     this.earlier = this.taking ? earlier! : KeptJson.none;
+    // The earlier version's other fields first, in its order: a node taken from it copies their values.
+    if (this.taking) for (const text of earlier!.readAs.otherFields ?? []) this.keepOther(text, 0);
     if (this.taking) {
       // About as many nodes as the earlier version: room made once.
       const nodes = Math.ceil(1.05 * earlier!.length) + 1024;
@@ -345,6 +374,7 @@ export class JsonLoader extends JsonTokenizer {
       r.childrenField === o.childrenField &&
       r.keepFields.length === o.keepFields.length &&
       r.keepFields.every((f, k) => f === o.keepFields[k]) &&
+      (r.otherFields !== undefined) === (this.others !== undefined) &&
       r.maxTokenBytes === this.maxTokenBytes &&
       r.maxDepth === this.maxDepth
     );
@@ -394,6 +424,14 @@ export class JsonLoader extends JsonTokenizer {
       }
       fields.set(keepFields[f], column as string[]);
     }
+    // The other fields kept: those some node of the tree holds.
+    for (let f = keepFields.length; f < this.kept.length; f++) {
+      const column = this.kept[f];
+      if (column.length > sink.length) column.length = sink.length;
+      if (!column.some((value) => value !== undefined)) continue;
+      for (let i = 0; i < sink.length; i++) if (column[i] === undefined) column[i] = "";
+      fields.set(this.keptNames[f], column as string[]);
+    }
     let emptyEntries = 0;
     for (let i = 0; i < sink.length; i++) if (this.sized[i] === EMPTY) emptyEntries++;
     if (this.keeping) this.keptForLater = this.keptJson(this.keeper);
@@ -416,7 +454,9 @@ export class JsonLoader extends JsonTokenizer {
       ...(emptyEntries > 0 ? { emptyEntries } : {}),
       ...(!this.hasNames && this.unkeyed > 1 ? { unnamed: this.options.nameField } : {}),
       ...(notes.length > 0 ? { notes } : {}),
-      ...withOtherFields(otherFields(this.seen.list(), this.options)),
+      ...(this.others !== undefined
+        ? this.others.reading((field) => fields.has(field))
+        : withOtherFields(otherFields(this.seen.list(), this.options))),
     });
     if (emptyEntries === 0) return linked;
     const empty = new Uint8Array(sink.length);
@@ -434,6 +474,7 @@ export class JsonLoader extends JsonTokenizer {
       sizeField,
       childrenField,
       keepFields,
+      ...(this.others !== undefined ? { otherFields: this.keptNames.slice(keepFields.length) } : {}),
       maxTokenBytes: this.maxTokenBytes,
       maxDepth: this.maxDepth,
     };
@@ -486,6 +527,8 @@ export class JsonLoader extends JsonTokenizer {
           if (k === length) found = f;
         }
       }
+      if (this.others !== undefined && (found < 0 || !fields[found].settled))
+        found = this.otherKey(found, bytes, q, e, absQ, this.frames[top].node);
       this.slot = found < 0 ? S_SKIP : S_FIELD;
       this.slotField = found;
       if (found < 0) {
@@ -495,7 +538,9 @@ export class JsonLoader extends JsonTokenizer {
         this.unreadE = e;
       }
       this.unreadChildrenDepth =
-        found < 0 && this.unreadChildrenAt === undefined && this.defaultChildrenKey(bytes, q, e)
+        (found < 0 || fields[found].other) &&
+        this.unreadChildrenAt === undefined &&
+        this.defaultChildrenKey(bytes, q, e)
           ? this.depth
           : -1;
       if (found >= 0 && top === 1 && this.probe.undecided && (fields[found].mask & F_CHILDREN) !== 0) {
@@ -667,7 +712,7 @@ export class JsonLoader extends JsonTokenizer {
     if (count <= 16) for (let t = 0; t < count; t++) sized[at + t] = from[k + t];
     else sized.set(from.subarray(k, k + count), at);
     // Kept fields: "" is no such field where taken (see fieldScalar).
-    for (let f = 0; f < this.kept.length; f++) {
+    for (let f = 0; f < this.kept.length && f < earlier.kept.length; f++) {
       const from = earlier.kept[f];
       if (from.length === 0) continue;
       const to = this.kept[f];
@@ -875,14 +920,18 @@ export class JsonLoader extends JsonTokenizer {
       this.frames[top] = frame;
     }
     const parentFrame = top > 0 ? this.frames[top - 1] : frame;
-    if (this.unreadChildrenDepth === top && this.slot === S_SKIP)
+    if (
+      this.unreadChildrenDepth === top &&
+      (this.slot === S_SKIP || (this.slot === S_FIELD && this.fields[this.slotField].other))
+    )
       this.unreadChildrenAt = { line: this.pos.line, column: this.pos.columnAt(this.base + i) };
     this.unreadChildrenDepth = -1;
     // A field of the top node (the top-level object, or the first element of a top-level array) that
     // holds an object or array: a sign of more than one node (see `end`).
     if (this.rootContainers.length < 12 && (top === 1 ? this.role[0] === NODE : this.inFirstItem(top))) {
       // Children, and the fields a node is read for (name, size, kept), are no sign of more.
-      if (this.slot !== S_FIELD) this.rootContainers.push(this.rootKey);
+      // An other field kept (LoadOptions.keepOtherFields) is no field a node is read for.
+      if (this.slot !== S_FIELD || this.fields[this.slotField].other) this.rootContainers.push(this.rootKey);
     }
     let role = SKIP;
     let slot = S_SKIP;
@@ -1001,6 +1050,58 @@ export class JsonLoader extends JsonTokenizer {
     this.slot = slot;
   }
 
+  /**
+   * A key of node object `node` that no field read matches (`found` -1) or that only marks entries
+   * (`missing`, npm's `version`, `overridden`), keeping the other fields (LoadOptions.keepOtherFields):
+   * the field it is kept as, taken on when first met, else `found`. Keys that are no other field kept
+   * are remembered by their bytes, so that each is decoded once.
+   */
+  private otherKey(
+    found: number,
+    bytes: Uint8Array,
+    q: number,
+    e: number,
+    absQ: number,
+    node: number,
+  ): number {
+    if (found < 0 && !this.escaped) {
+      const length = e - q - 1;
+      for (const known of this.notOther) {
+        if (known.length !== length) continue;
+        let k = 0;
+        while (k < length && bytes[q + 1 + k] === known[k]) k++;
+        if (k === length) return found;
+      }
+    }
+    const text = found < 0 ? this.text(bytes, q, e, absQ) : this.fields[found].text;
+    if (!this.others!.keeps(text)) {
+      if (found >= 0) this.fields[found].settled = true;
+      else if (!this.escaped) this.notOther.push(bytes.slice(q + 1, e));
+      return found;
+    }
+    return this.keepOther(text, node, found);
+  }
+
+  /** Keeps other field `text` from node `node` on (none before holds it): a kept column, and its field. */
+  private keepOther(
+    text: string,
+    node: number,
+    found = this.fields.findIndex((f) => f.text === text),
+  ): number {
+    this.others?.keeps(text);
+    const keep = this.kept.length;
+    this.kept.push(new Array<string | undefined>(node));
+    this.keptNames.push(text);
+    if (found >= 0) {
+      this.fields[found].keeps.push(keep);
+      this.fields[found].settled = true;
+      return found;
+    }
+    const bytes = new TextEncoder().encode(text);
+    this.fields.push({ bytes, text, mask: 0, keeps: [keep], other: true, settled: true });
+    return this.fields.length - 1;
+  }
+
   /** Counts the node objects in `value`, kept as the text of field `key` of node `node` (nodes-not-read.ts). */
   private keptNotRead(value: unknown, key: string, node: number, line: number): void {
     const { count, size } = countNodeObjects(value, this.options, plainValues, new Set());
@@ -1116,7 +1217,7 @@ export class JsonLoader extends JsonTokenizer {
           this.kept[f][capture.node] = text;
         }
         // Shown as text, its node objects are no nodes either.
-        this.keptNotRead(value, this.options.keepFields[capture.keeps[0]], capture.node, capture.line);
+        this.keptNotRead(value, this.keptNames[capture.keeps[0]], capture.node, capture.line);
       }
     }
     const role = this.role[top];

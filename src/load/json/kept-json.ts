@@ -31,6 +31,11 @@ export interface JsonReadAs {
   readonly sizeField: string;
   readonly childrenField: string;
   readonly keepFields: readonly string[];
+  /**
+   * Read keeping the node objects' other fields (LoadOptions.keepOtherFields): those kept, in the
+   * order of their columns after `keepFields`'; absent when not kept.
+   */
+  readonly otherFields?: readonly string[];
   readonly maxTokenBytes: number;
   readonly maxDepth: number;
 }

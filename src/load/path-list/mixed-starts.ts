@@ -3,16 +3,19 @@ import type { ReadingNote } from "../../model/reading-note.js";
 import type { NodeSink } from "../node-sink.js";
 
 /**
- * ABSOLUTE_AND_RELATIVE when a path list names paths from "/" (`/srv/a`, a top node "/") and paths that
- * start elsewhere (`srv/b`) beside them: two trees side by side, as nothing in a listing says where a
- * relative path starts (find run twice, once from /srv and once from ., into one file). `top` is the
- * node the top-level nodes hang from (-1, or the root an empty path named); `isListed` tells the lines'
- * nodes from ancestors. One pass over the parents; the lines are counted only when both kinds are there.
+ * ABSOLUTE_AND_RELATIVE when paths from "/" (`/srv/a`, a top node "/") and paths that start elsewhere
+ * (`srv/b`) stand side by side: two trees, as nothing in a listing says where a relative path starts
+ * (find run twice, once from /srv and once from ., into one file). `top` is the node the top-level
+ * nodes hang from (-1, or the root an empty path named); `isListed` tells the paths' nodes from their
+ * ancestors. `unit`: the paths are a path list's lines or a table's rows, whose input line `lineOf`
+ * gives. One pass over the parents; the paths are counted only when both kinds are there.
  */
 export function mixedStartsNote(
   sink: NodeSink,
   top: number,
   isListed: (node: number) => boolean,
+  unit: "line" | "row" = "line",
+  lineOf: (origin: number) => number = (origin) => origin,
 ): ReadingNote | undefined {
   const { parentOf, origin } = sink;
   let slash = -1;
@@ -34,12 +37,15 @@ export function mixedStartsNote(
     if (under[i] === slash) absolute++;
     else relative++;
   }
-  const line = Math.min(origin[slash], origin[other]);
-  const lines = (n: number) => (n === 1 ? "1 line" : `${n} lines`);
+  const count = (n: number) => (n === 1 ? `1 ${unit}` : `${n} ${unit}s`);
   const give = absolute === 1 ? "gives" : "give";
+  const fix =
+    unit === "line"
+      ? `List every path from one start (find /DIR, or cd DIR and find .), or make the relative ones absolute with the folder they were listed from (awk -F'\\t' -v OFS='\\t' '$NF !~ /^\\// {$NF = "/DIR/" $NF} 1' LIST)`
+      : "Write every path from one start: make the relative ones absolute with the folder they stand in, or the absolute ones relative to it";
   return {
     code: "ABSOLUTE_AND_RELATIVE",
-    line,
-    parts: say`${lines(absolute)} ${give} an absolute path (the first: line ${origin[slash]}) and ${lines(relative)} a relative one (the first: line ${origin[other]}): they were read as two trees side by side, "/" beside the relative paths' folders, as a listing does not say where a relative path starts. List every path from one start (find /DIR, or cd DIR and find .), or make the relative ones absolute with the folder they were listed from (awk -F'\\t' -v OFS='\\t' '$NF !~ /^\\// {$NF = "/DIR/" $NF} 1' LIST)`,
+    line: lineOf(Math.min(origin[slash], origin[other])),
+    parts: say`${count(absolute)} ${give} an absolute path (the first: ${unit} ${origin[slash]}) and ${count(relative)} a relative one (the first: ${unit} ${origin[other]}): they were read as two trees side by side, "/" beside the relative paths' folders, as nothing says where a relative path starts. ${fix}`,
   };
 }

@@ -6,6 +6,7 @@ import { BytesKeeper } from "../earlier-bytes.js";
 import { EarlierNames } from "../earlier-names.js";
 import { hasReplacement } from "../has-replacement.js";
 import type { BytesAt, LoadOptions } from "../load-options.js";
+import { otherFields } from "../other-fields.js";
 import { limitsOf } from "../read-limits.js";
 import { CsvScanner, type CsvSink } from "./csv-scanner.js";
 import { EarlierRows } from "./earlier-rows.js";
@@ -24,6 +25,8 @@ export type TableFields = Pick<
   | "pathField"
   | "childField"
   | "keepFields"
+  | "keepOtherFields"
+  | "childrenField"
   | "maxNodes"
   | "limits"
   | "shortRows"
@@ -550,6 +553,9 @@ export class CsvTableReader implements CsvSink {
       if (!this.at.has(name)) this.at.set(name, c);
     });
     this.route = new Array(fields).fill(undefined);
+    // Every other column kept as well, when asked (LoadOptions.keepOtherFields), as text.
+    if (this.fields.keepOtherFields === true)
+      for (const name of otherFields(header, this.fields) ?? []) this.wanted.add(name);
     for (const [name, index] of this.at) {
       if (!this.wanted.has(name)) continue;
       const { fields } = this;

@@ -9,8 +9,9 @@ import type { LoadOptions } from "../load-options.js";
 import { missingField, nameFieldNamed, sizeFieldNamed } from "../missing-field.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
 import { notUtf8Note } from "../not-utf8-note.js";
-import { otherFields, withOtherFields } from "../other-fields.js";
+import { keepingOtherFields, otherFields, withOtherFields } from "../other-fields.js";
 import { parseSize } from "../parse-size.js";
+import { mixedStartsNote } from "../path-list/mixed-starts.js";
 import { PathPlacer } from "../path-placer.js";
 import { sizeTextHint } from "../size-text-hint.js";
 import { fieldSizeUnit } from "../size-unit.js";
@@ -58,18 +59,23 @@ export function linkTable(
     ...(idsName ? { namesFrom: options.idField } : {}),
     linkedBy: linkedBy(table, options),
     ...withOtherFields(otherFields(columns, options)),
-    ...notUtf8Notes(table),
+    ...notesOf([...(linked.reading?.notes ?? []), ...notUtf8Notes(table)]),
   };
   if (table.place) linked.placeRow = table.place;
   return linked;
 }
 
-/** The UNDECODABLE_BYTES note of a table some rows of which hold bytes that are not UTF-8, as `notes`. */
-function notUtf8Notes(table: Table): { notes?: ReadingNote[] } {
+/** The UNDECODABLE_BYTES note of a table some rows of which hold bytes that are not UTF-8, if any. */
+function notUtf8Notes(table: Table): ReadingNote[] {
   const found = table.notUtf8?.();
-  if (found === undefined) return {};
+  if (found === undefined) return [];
   const line = table.place?.(found.first)?.line ?? found.first + 1;
-  return { notes: [notUtf8Note("row", found.count, line)] };
+  return [notUtf8Note("row", found.count, line)];
+}
+
+/** `notes` as a reading's field: absent when there are none. */
+function notesOf(notes: ReadingNote[]): { notes?: ReadingNote[] } {
+  return notes.length > 0 ? { notes } : {};
 }
 
 /**
@@ -98,8 +104,10 @@ function linkedBy(table: Table, options: LoadOptions): string[] {
     : [options.pathField];
 }
 
-function linkRows(table: Table, options: LoadOptions, shape: "table" | "rows"): LinkedNodes {
+function linkRows(table: Table, given: LoadOptions, shape: "table" | "rows"): LinkedNodes {
   if (table.length === 0) throw new EspalierError("INPUT_EMPTY", "the table has no data rows");
+  // Every other column kept as well, when asked (a diff's versions: LoadOptions.keepOtherFields).
+  const options = keepingOtherFields(given, table.columnNames());
   const byteIds = table.pooledColumn?.(options.idField);
   const byteParents = byteIds && table.numberColumn?.(options.parentField);
   if (byteIds && byteParents && byteIds.length >= table.length && byteIds.byteRuns() !== null) {
@@ -429,13 +437,22 @@ function linkByPath(table: Table, pathCells: readonly Cell[], options: LoadOptio
   sink.hasSizes = sizes !== undefined;
   const root = index.adoptTopLevel();
   if (root !== -1 && isEmptyName(sink.name, root)) sink.name.setString(root, options.rootName);
+  const mixed = mixedStartsNote(
+    sink,
+    root,
+    (i) => index.isListed(i),
+    "row",
+    (row) => table.place?.(row)?.line ?? row + 1,
+  );
   const fields = new Map<string, string[]>();
   for (const [key, byRow] of keep) {
     const byNode: string[] = new Array(sink.length).fill("");
     for (let r = 0; r < n; r++) byNode[nodeOfRow[r]] = byRow[r];
     fields.set(key, byNode);
   }
-  return sink.finish(options.rootName, fields);
+  const linked = sink.finish(options.rootName, fields);
+  if (mixed) linked.reading = { shape: "table", sizeUnit: "number", notes: [mixed] };
+  return linked;
 }
 
 /** The size column; a named size field that is no column is FIELD_MISSING naming the columns. */
@@ -526,7 +543,10 @@ export function linkPathMap(
     columnNames: () => rows.columnNames(),
   };
   if (table.length === 0) throw new EspalierError("INPUT_EMPTY", `the object keyed by path is empty`);
-  const linked = linkByPath(table, keys, { ...options, pathField: PATH_KEY });
+  const linked = linkByPath(table, keys, {
+    ...keepingOtherFields(options, rows.columnNames()),
+    pathField: PATH_KEY,
+  });
   linked.reading = {
     shape: "path-map",
     sizeUnit: fieldSizeUnit(options.sizeField),

@@ -39,6 +39,8 @@ const opts = (overrides: Partial<LoadOptions> = {}) =>
 const NAMES = ["src", "lib", "index.ts", "a.md", "é", "日本", "😀", "", 'say "hi"', "two\nlines"];
 const VERSIONS: unknown[] = ["1.2.0", "", null, 3, { major: 2 }, ["rc"], true];
 
+const TEAMS: unknown[] = ["quay", "berth", "", null, 7, { shift: "night" }];
+
 type Node = Record<string, unknown>;
 
 /** A node object with what a real input's may hold: absent or odd fields, `missing`, `{}`. */
@@ -49,6 +51,8 @@ function nodeObject(r: Rng, depth: number): Node {
   if (r.chance(0.85)) node.size = r.chance(0.9) ? r.int(0, 99) : null;
   if (r.chance(0.25)) node.version = r.pick(VERSIONS);
   if (r.chance(0.03)) node.missing = true;
+  // A field beside those read, as an org chart's team (compared by a diff without --compare-field).
+  if (r.chance(0.2)) node.team = r.pick(TEAMS);
   // A field nobody reads, holding what looks like nodes.
   if (r.chance(0.05)) node.meta = { children: [{ name: "not a node" }], note: "é" };
   if (depth < 4 && r.chance(0.55)) {
@@ -217,6 +221,33 @@ describe("a JSON document read against the kept earlier version of itself (kept-
       { numRuns: 250 },
     );
     // Not a test that passes by never taking anything.
+    expect(take.mock.calls.length).toBeGreaterThan(100);
+  }, 60_000);
+
+  it("keeps the other fields of the nodes it takes, as NEW read alone keeps them (keepOtherFields)", async () => {
+    const take = vi.spyOn(NodeSink.prototype, "take");
+    // NEW's other fields are kept in OLD's order where OLD kept them first: a diff lists OLD's first.
+    const sorted = (outcome: Outcome) =>
+      "tree" in outcome
+        ? {
+            reading: {
+              ...outcome.tree.reading,
+              otherFields: [...(outcome.tree.reading?.otherFields ?? [])].sort(),
+            },
+            fields: [...outcome.tree.fields].sort(([a], [b]) => (a < b ? -1 : 1)),
+          }
+        : outcome;
+    await fc.assert(
+      fc.asyncProperty(fc.integer(), async (seed) => {
+        const r = rng(seed);
+        const root = documentOf(r);
+        const oldBytes = utf8(text(r, root));
+        const newBytes = spoiled(r, utf8(text(r, later(r, root))));
+        const { alone, against } = await versions(oldBytes, newBytes, r, opts({ keepOtherFields: true }));
+        expect(sorted(against)).toEqual(sorted(alone));
+      }),
+      { numRuns: 150 },
+    );
     expect(take.mock.calls.length).toBeGreaterThan(100);
   }, 60_000);
 
