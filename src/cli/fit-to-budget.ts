@@ -154,7 +154,7 @@ function inPart<R extends { selection: Selection }>(
 
 /**
  * The fit whose header (saying `keyLeftOut` when given) and key take the rows it counted. The key
- * takes the rows, from `key` up, that say all it explains on the screen fitted with them (see
+ * takes the fewest rows, from `key` up, that say all it explains on the screen fitted with them (see
  * `keyRowsNeeded`; more rows for the key, fewer lines for the tree, so the screen changes with them),
  * unless more than `key` would cost the key its place: then `key`, and `partial` (the key says only
  * part of what the screen needs).
@@ -186,10 +186,13 @@ function agreed<R extends { selection: Selection }>(
     }
     if (keyed > key && fitted.result.selection.spared) return fewest(keyed);
     if (!f.keyWanted || keyed === 0 || fitted.result.selection.spared) return { ...fitted, key: keyed };
-    // Straight to the rows this screen needs: fewer lines for the tree seldom need more.
     const needed = f.keyRowsOf(fitted.result, budget);
     if (needed <= keyed) return { ...fitted, key: keyed };
-    [keyed, counted] = [needed, fitted.rows];
+    // One row more, not straight to the rows this screen needs: the screen with one row fewer for
+    // the tree may need fewer (its lines are the budget below's), and the fewest rows that say all
+    // of their own screen keep the budgets nested (a diff at 32 columns, --budget 21, jumped from 3
+    // rows to 4 and showed a node fewer than --budget 20, whose screen 3 rows said all of).
+    [keyed, counted] = [keyed + 1, fitted.rows];
   }
 }
 

@@ -55,7 +55,8 @@ type Clause =
 /**
  * The header's clauses for `notes`, in the order of their kinds in `readingNoteCodes`' table above,
  * one per kind: a summary's `2 missing counted as nodes`; a diff's `0 -> 2 missing counted as nodes`
- * for a counted kind, else each version's note behind its name (`NEW: read as OLD was`).
+ * for a counted kind, else each version's note behind its name (`NEW: read as OLD was`), or once
+ * without one where both versions' say the same words.
  */
 export function noteClauses(notes: readonly NoteFact[]): string[] {
   const out: string[] = [];
@@ -71,10 +72,17 @@ export function noteClauses(notes: readonly NoteFact[]): string[] {
       out.push(`${counts.map((c) => formatCount(c)).join(" -> ")} ${clause.counted[last === 1 ? 0 : 1]}`);
       continue;
     }
+    // Words both versions say are said once, without a version's name: `OLD: read as an SBOM's
+    // dependency graph; NEW: read as an SBOM's dependency graph` took four rows of a 32-column header.
+    const words = (version: "OLD" | "NEW") =>
+      new Set(of.filter((n) => n.version === version).map((n) => clause.said(n)));
+    const [old, next] = [words("OLD"), words("NEW")];
+    const both = (w: string) => !clause.ofRun && old.has(w) && next.has(w);
     const said = new Set<string>();
     for (const note of of) {
-      const version = note.version === undefined || clause.ofRun ? "" : `${note.version}: `;
-      said.add(`${version}${clause.said(note)}`);
+      const w = clause.said(note);
+      const version = note.version === undefined || clause.ofRun || both(w) ? "" : `${note.version}: `;
+      said.add(`${version}${w}`);
     }
     out.push(...said);
   }

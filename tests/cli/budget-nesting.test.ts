@@ -1,3 +1,4 @@
+import { readFileSync } from "node:fs";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { cli } from "../helpers/cli.js";
@@ -104,5 +105,32 @@ describe("the printed screen at budget B and B + 1", () => {
     }
     expect(unnested).toEqual([]);
     expect(inPart).toBeGreaterThan(0);
+  });
+
+  it("nests where a key of one row more says all its screen needs, though the screen with the tree's lines of the budget below needed more", async () => {
+    // Quillfeather's April chart with every id renumbered (E2 -> R114, …; names and managers kept),
+    // diffed with March: at 32 columns the key went from 3 rows straight to the 4 that the screen
+    // with 3 asked for, and --budget 21 hid a node --budget 20 showed; the screen with 3 rows has the
+    // tree's lines of --budget 20, whose key said all in 2. The key now takes the fewest rows that
+    // say all of their own screen.
+    const [head, ...rows] = readFileSync("fixtures/examples/org-april.csv", "utf8").trimEnd().split("\n");
+    const id = (old: string) => (old === "" ? "" : `R${100 + 7 * Number(old.slice(1))}`);
+    const renumbered = rows
+      .map((r) => r.split(","))
+      .map(([i, m, ...rest]) => [id(i), id(m), ...rest].join(","));
+    const files = { "april.csv": `${[head, ...renumbered].join("\n")}\n` };
+    const args = ["diff", "fixtures/examples/org-march.csv", "april.csv", "--parent-field", "manager"];
+    const unnested: string[] = [];
+    for (const width of [30, 32, 34]) {
+      let lower = await shownAt(args, 14, width, files);
+      for (let budget = 15; budget <= 24; budget++) {
+        const upper = await shownAt(args, budget, width, files);
+        const lost = lower && upper ? [...lower.paths].filter((p) => !upper.paths.has(p)) : [];
+        if (lost.length > 0)
+          unnested.push(`${width} columns, ${budget - 1} -> ${budget}: ${lost.join(", ")}`);
+        lower = upper;
+      }
+    }
+    expect(unnested).toEqual([]);
   });
 });

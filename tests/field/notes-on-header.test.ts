@@ -107,6 +107,36 @@ describe("the header line says each reading note in a few words", () => {
     expect(result.stdout.split("\n")[0]).toMatch(/; OLD: sizes left out; /);
   });
 
+  it("says once, without a version's name, a note both versions say alike (a CycloneDX SBOM's two versions)", async () => {
+    // A CycloneDX 1.5 SBOM (ECMA-424: bomFormat, specVersion, metadata.component, components, and
+    // dependencies with ref and dependsOn) of an invented harbour's app; NEW bumps one component.
+    const sbom = (ledger: string) =>
+      JSON.stringify({
+        bomFormat: "CycloneDX",
+        specVersion: "1.5",
+        metadata: { component: { "bom-ref": "app", name: "tidewater-app", version: "4.2.0" } },
+        components: [
+          { "bom-ref": "ledger", name: "ledger-core", version: ledger },
+          { "bom-ref": "tern", name: "tern-fmt", version: "2.1.0" },
+        ],
+        dependencies: [
+          { ref: "app", dependsOn: ["ledger"] },
+          { ref: "ledger", dependsOn: ["tern"] },
+        ],
+      });
+    const files = { "old.json": sbom("1.0.4"), "new.json": sbom("1.0.5") };
+    const r = await cli(["diff", "old.json", "new.json", "--budget", "12"], { files });
+    expect(r.code, r.stderr).toBe(0);
+    expect(r.stderr.match(/\[SBOM_DEPENDENCIES\]/g)).toHaveLength(2);
+    const head = r.stdout.split("\n")[0];
+    // Before: `OLD: read as an SBOM's dependency graph; NEW: read as an SBOM's dependency graph`.
+    expect(head).toContain("; read as an SBOM's dependency graph; ");
+    expect(head).not.toMatch(/(OLD|NEW): read as an SBOM/);
+    // The JSON keeps each version's note.
+    const json = await cli(["diff", "old.json", "new.json", "--format", "json"], { files });
+    expect(JSON.parse(json.stdout).notes.map((n: { version: string }) => n.version)).toEqual(["OLD", "NEW"]);
+  });
+
   it("counts repeated keys and YAML aliases read as text", async () => {
     // RFC 8259 section 4: names SHOULD be unique; JSON.parse keeps the last (ECMA-262 JSON.parse).
     const repeated = '{"name": "r", "children": {"a": {"size": 1}, "a": {"size": 2}, "b": {}, "b": {}}}';

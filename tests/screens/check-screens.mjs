@@ -12,7 +12,7 @@
 // rule it checks (docs/selection.md): on every line,
 // nodes = the line's names + the nodes of the lines below it + what its fold hides.
 import { execFileSync } from "node:child_process";
-import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
@@ -164,6 +164,7 @@ const cases = [
   },
   {
     name: "deps graph",
+    graph: true,
     args: [
       join(fixtures, "tidewater-deps.edges"),
       "--input-format",
@@ -219,6 +220,147 @@ if (existsSync(join(fixtures, "quillfeather-org-last-week.csv")))
     ],
     kind: "diff",
   });
+
+// --- inputs read with a note ---------------------------------------------------------------------
+// Invented inputs, each read with a note (docs/input.md) the header says in a few words, and the
+// CycloneDX SBOMs found on the machine (ECMA-424) with an edited copy: `says` is what the header must
+// hold whole however it wraps (a clause cut or split off reads wrong), `unsaid` what it must not.
+function notedInputs() {
+  const dir = join(work, "noted");
+  mkdirSync(dir);
+  const at = (name, text) => {
+    writeFileSync(join(dir, name), text);
+    return join(dir, name);
+  };
+  const out = [];
+  // NODES_NOT_READ: node objects beside the children field of an invented harbour's services.
+  const service = (name, size, children) => ({ name, size, ...(children ? { children } : {}) });
+  const notRead = {
+    ...service("tidewater", 0, [
+      service("harbour-ledger", 1200, [service("reconcile", 300), service("export", 250)]),
+      service("mooring-log", 800, [
+        { ...service("archive", 120), retired: [service("old-buoys", 40), service("old-chains", 30)] },
+      ]),
+      service("quayside-dashboards", 950),
+    ]),
+    attic: [service("brackwater-models", 500, [service("tides-v1", 90)])],
+  };
+  out.push({
+    name: "node objects not read",
+    args: [at("not-read.json", JSON.stringify(notRead))],
+    says: /4 node objects outside the children not read/,
+  });
+  // UNDECODABLE_BYTES: a path list with Latin-1 bytes in two names.
+  const latin = Buffer.concat([
+    Buffer.from("4096\tservices/harbour-ledger/README\n2048\tservices/harbour-ledger/caf"),
+    Buffer.from([0xe9]),
+    Buffer.from("-menu.txt\n512\tservices/mooring-log/"),
+    Buffer.from([0xff, 0xfe]),
+    Buffer.from("index.ts\n300\tservices/mooring-log/src/main.ts\n"),
+  ]);
+  out.push({
+    name: "bytes not UTF-8",
+    args: [at("not-utf8.tsv", latin)],
+    says: /2 entries not UTF-8, read with U\+FFFD/,
+  });
+  // ABSOLUTE_AND_RELATIVE: two listings appended, one from /srv, one from a relative start.
+  const mixed = at(
+    "mixed.tsv",
+    "4096\t/srv/orchard/rows/north.csv\n2048\t/srv/orchard/ledger.txt\n512\tcellar/casks/c1.log\n300\tcellar/casks/c2.log\n",
+  );
+  out.push({
+    name: "absolute and relative",
+    args: [mixed],
+    says: /absolute and relative paths read as two trees/,
+  });
+  // IDS_RENUMBERED: the April chart with every id renumbered (names and managers kept), pseudonymized.
+  const april = join(fixtures, "examples", "org-april.csv");
+  const [head, ...rows] = readFileSync(april, "utf8").trimEnd().split("\n");
+  const id = (old) => (old === "" ? "" : `R${100 + 7 * Number(old.slice(1))}`);
+  const renumbered = rows
+    .map((r) => r.split(","))
+    .map(([i, m, ...rest]) => [id(i), id(m), ...rest].join(","));
+  out.push({
+    name: "org diff, ids renumbered, pseudonymized",
+    args: [
+      "diff",
+      join(fixtures, "examples", "org-march.csv"),
+      at("org-april-renumbered.csv", `${[head, ...renumbered].join("\n")}\n`),
+      "--parent-field",
+      "manager",
+      "--pseudonymize",
+    ],
+    kind: "diff",
+    env: secret,
+    people: april,
+    says: /ids look renumbered \([0-9]+ nodes pair by path\)/,
+  });
+  // Every record field compared: an invented harbour's services, seven fields besides the name.
+  const fields = ["version", "image", "owner_team", "region", "tier", "replicas", "port"];
+  const names = [
+    "harbour-ledger",
+    "mooring-log",
+    "quayside-dash",
+    "brackwater",
+    "tide-gauge",
+    "pilot-roster",
+  ];
+  const table = (edited) => {
+    const lines = [
+      ["id", "parent", "name", ...fields].join(","),
+      "s0,,tidewater,1.0,base:1,platform,eu,1,1,80",
+    ];
+    names.forEach((n, k) => {
+      const row = [`s${k + 1}`, k < 3 ? "s0" : `s${(k % 3) + 1}`, n, `2.${k}`, `${n}:${k}`];
+      row.push(
+        ["ops", "core", "edge"][k % 3],
+        ["eu", "us"][k % 2],
+        String((k % 3) + 1),
+        "2",
+        String(8000 + k),
+      );
+      if (edited && k % 3 === 2) row[3] += ".1";
+      if (edited && k === 4) row[4] += "-patch";
+      if (edited && k === 1) row[8] = "9";
+      lines.push(row.join(","));
+    });
+    return `${lines.join("\n")}\n`;
+  };
+  out.push({
+    name: "services diff, seven fields compared",
+    args: ["diff", at("services-old.csv", table(false)), at("services-new.csv", table(true))],
+    kind: "diff",
+    says: /compared: version, image, owner_team and 4 other fields/,
+  });
+  // SBOMs on the machine, and a copy with every fifth component's version bumped and a link dropped.
+  const sboms = execFileSync(
+    "sh",
+    ["-c", "find /usr /opt /root -name '*.cyclonedx.json' 2>/dev/null | sort | head -2"],
+    { maxBuffer: 1 << 20 },
+  )
+    .toString()
+    .split("\n")
+    .filter(Boolean);
+  sboms.forEach((file, k) => {
+    const doc = JSON.parse(readFileSync(file, "utf8"));
+    for (const [j, c] of (doc.components ?? []).entries())
+      if (j % 5 === 2) c.version = `${c.version ?? "0"}.1`;
+    const first = (doc.dependencies ?? []).find((d) => (d.dependsOn ?? []).length > 0);
+    if (first) first.dependsOn = first.dependsOn.slice(1);
+    const edited = at(`sbom-${k}-edited.json`, JSON.stringify(doc));
+    out.push({ name: `sbom ${file}`, args: [file], graph: true, says: /read as an SBOM's dependency graph/ });
+    out.push({
+      name: `sbom diff ${file}`,
+      args: ["diff", file, edited],
+      kind: "diff",
+      graph: true,
+      says: /; read as an SBOM's dependency graph;/,
+      unsaid: /(OLD|NEW): read as an SBOM/,
+    });
+  });
+  return out;
+}
+cases.push(...notedInputs());
 
 const widths = viewsOnly ? [] : quick ? [32, 60, undefined] : [30, 32, 40, 60, 80, 120, undefined];
 // 12 and 16: budgets where the key is printed in part on the deep foci (it must say where the rest is).
@@ -295,6 +437,7 @@ for (const c of cases) {
           width,
           legend,
           kind: c.kind,
+          graph: c.graph,
           noted: (b) => {
             noted++;
             room = b;
@@ -326,6 +469,20 @@ for (const c of cases) {
         if (width === undefined && !legend && c.kind !== "diff") {
           const json = await cli([...args, "--format", "json"], env);
           problems.push(...checkJson(json.stdout, budget));
+        }
+        // The header's words for a note, whole however the header wraps (and in Markdown's paragraph).
+        if (c.says) {
+          const lines = r.stdout.replace(ANSI, "").split("\n");
+          const end = lines.findIndex((l) => /^key: /.test(l) || /^[*:.&] /.test(l));
+          const head = lines.slice(0, end).join("\n").replaceAll("\n  ", " ");
+          if (!c.says.test(head)) problems.push(`the header does not say ${c.says} whole`);
+          if (c.unsaid?.test(head)) problems.push(`the header says ${c.unsaid}`);
+          if (width === undefined && !legend) {
+            const md = (await cli([...args, "--format", "markdown"], env)).stdout.split("\n\n")[0];
+            // Markdown's escapes read as the characters they stand for (CommonMark 0.31, 2.4).
+            if (!c.says.test(md.replaceAll("\\\n", " ").replace(/\\([!-/:-@[-`{-~])/g, "$1")))
+              problems.push(`Markdown's header does not say ${c.says}`);
+          }
         }
         if (problems.length > 0) {
           failed++;

@@ -8,6 +8,7 @@ export declare function checkText(
     legend?: boolean;
     key?: boolean;
     kind?: "summary" | "diff";
+    graph?: boolean;
     noted?: (room: number | undefined) => void;
     partial?: () => void;
   },
