@@ -57,7 +57,9 @@ export function folderTotalsByReference(
     };
     if (!(covers && sized)) {
       const allWhole = [...listedAt.keys()].every((i) => sink.ownSize[i] % 512 === 0);
-      if (fours && folders.length === 0 && !allWhole)
+      // du -s DIR/* (1 KiB blocks): besides, a quarter or more of the sizes above 0 at most 256.
+      const smallBlocks = sizes.filter((size) => size <= 256).length * 4 >= sizes.length;
+      if (fours && folders.length === 0 && !allWhole && smallBlocks)
         throw new EspalierError("PARSE_PATHS", "flat sizes read as 1 KiB blocks", { line: 1, column: 1 });
       // du -s --apparent-size DIR/* (whole KiB, rounded up), du -sm DIR/*: at least 8 sizes above 0, a
       // quarter or more of them 1 to 4, and those 1 or not all one number.
