@@ -287,11 +287,29 @@ function headerForKey(
     const shorter = brief(b);
     const rows = keyed + header.length - shorter.length;
     if (shorter.length >= header.length || rows < keyRows(width)) continue;
-    const tried = lay(shorter, rows, true);
+    const tried = sameRows(lay(shorter, rows, true), laid);
     if (tried.whole) return { ...tried, needed: laid.needed };
     if (tried.said > best.said) best = { ...tried, needed: laid.needed };
   }
   return best;
+}
+
+/**
+ * `tried` with as many rows as `laid` (the same tree lines under another header and key): a key that
+ * says all in fewer rows than the shorter header left it gets blank rows below it, so the screen keeps
+ * the rows its fit counted (the tree's lines were chosen for them: a row left over would be a line of
+ * the budget neither used nor said). The header's and the key's rows show no node.
+ */
+function sameRows(tried: Laid, laid: Laid): Laid {
+  const missing = laid.lines.length - tried.lines.length;
+  if (missing <= 0) return tried;
+  const at = tried.lines.length - tried.groups.filter((nodes) => nodes.length > 0).length;
+  const blank = Array.from({ length: missing }, () => "");
+  return {
+    ...tried,
+    lines: [...tried.lines.slice(0, at), ...blank, ...tried.lines.slice(at)],
+    groups: [...tried.groups.slice(0, at), ...blank.map(() => []), ...tried.groups.slice(at)],
+  };
 }
 
 /**

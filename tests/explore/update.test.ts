@@ -119,25 +119,31 @@ function checkScreen(s: Session, state: ExploreState): void {
 }
 
 describe("update(session, state, event)", () => {
+  const everyScreenValid = fc.property(
+    arbTree(40),
+    fc.boolean(),
+    arbSize,
+    fc.array(arbEvent, { maxLength: 40 }),
+    (tree, chains, [rows, cols], events) => {
+      const s = session(tree, chains);
+      let state = start(s, rows, cols);
+      checkScreen(s, state);
+      for (const event of events) {
+        state = update(s, state, event);
+        checkScreen(s, state);
+      }
+    },
+  );
+
   it("keeps every screen a valid summary: fits the terminal, the five selection guarantees, conservation", () => {
-    fc.assert(
-      fc.property(
-        arbTree(40),
-        fc.boolean(),
-        arbSize,
-        fc.array(arbEvent, { maxLength: 40 }),
-        (tree, chains, [rows, cols], events) => {
-          const s = session(tree, chains);
-          let state = start(s, rows, cols);
-          checkScreen(s, state);
-          for (const event of events) {
-            state = update(s, state, event);
-            checkScreen(s, state);
-          }
-        },
-      ),
-      { numRuns: 150 },
-    );
+    fc.assert(everyScreenValid, { numRuns: 150 });
+  });
+
+  it("keeps the rows its fit counted where a shorter header lets the key say all in fewer rows", () => {
+    // Met once in a land: 27 nodes, resized to 15 x 34, focus deep; the header shortened from 4 rows to
+    // 2 gave the key 5, of which it took 4, and the screen had 13 rows of a budget of 14 (the fit had
+    // counted 14). Replayed from fast-check's seed and path for the property above.
+    fc.assert(everyScreenValid, { seed: -523048119, path: "114", endOnFailure: true });
   });
 
   it("keeps every screen of a diff a valid summary of the combined tree", () => {
