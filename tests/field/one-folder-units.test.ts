@@ -88,6 +88,7 @@ describe("a list of one folder's entries whose sizes show no unit", () => {
   it.skipIf(!dpkg)(
     "dpkg-query's Installed-Size (KiB) is said; made bytes as the note says, the sum times 1,024",
     async () => {
+      // biome-ignore lint/suspicious/noTemplateCurlyInString: dpkg-query's own format string, not a template
       const inventory = execFileSync("dpkg-query", ["-W", "-f=${Installed-Size}\\t${Package}\\n"], {
         encoding: "utf8",
       });
