@@ -4,18 +4,8 @@ import { describe, expect, it } from "vitest";
 import { loadTree } from "../../src/load/index.js";
 import { loadTreeFromStream } from "../../src/load/stream/index.js";
 import { measure } from "../../src/model/measure.js";
-import type { Tree } from "../../src/model/tree.js";
+import { slots } from "../helpers/graph-slots.js";
 import { caught, opts } from "../load/helpers.js";
-
-/** Each slot as "  name" (entries) or "  &name" (references), indented by depth. */
-function slots(tree: Tree): string[] {
-  const out: string[] = [];
-  for (let i = 0; i < tree.length; i++) {
-    const ref = tree.referenceTo?.[i] ?? -1;
-    out.push(`${"  ".repeat(tree.depth[i])}${ref === -1 ? "" : "&"}${tree.name.get(i)}`);
-  }
-  return out;
-}
 
 describe("loadTree(text, { format: 'edges' })", () => {
   it("gives a shared node one full entry, under its deepest parent, and a reference under each other parent", () => {

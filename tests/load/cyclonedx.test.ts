@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { loadTree } from "../../src/load/index.js";
-import type { Tree } from "../../src/model/tree.js";
 import { cli } from "../helpers/cli.js";
+import { slots } from "../helpers/graph-slots.js";
 import { opts } from "./helpers.js";
 
 // A CycloneDX 1.5 SBOM (ECMA-424: bomFormat, specVersion, metadata.component, components with
@@ -42,16 +42,6 @@ function sbom(ledgerVersion = "1.0.4", harborDeps = ["pkg:npm/tern-fmt@2.1.0"]) 
       { ref: "pkg:npm/mooring-log@3.0.1", dependsOn: [] },
     ],
   };
-}
-
-/** Each full entry as "  name" (references "  &name"), indented by depth. */
-function slots(tree: Tree): string[] {
-  const out: string[] = [];
-  for (let i = 0; i < tree.length; i++) {
-    const ref = tree.referenceTo?.[i] ?? -1;
-    out.push(`${"  ".repeat(tree.depth[i])}${ref === -1 ? "" : "&"}${tree.name.get(i)}`);
-  }
-  return out;
 }
 
 /**

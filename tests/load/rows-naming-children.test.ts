@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { stringify } from "yaml";
 import { loadTree } from "../../src/load/index.js";
 import { loadTreeFromStream } from "../../src/load/stream/index.js";
-import type { Tree } from "../../src/model/tree.js";
+import { slots } from "../helpers/graph-slots.js";
 import { caught, opts } from "./helpers.js";
 import { chunked, utf8 } from "./stream/helpers.js";
 
@@ -15,16 +15,6 @@ const RECORDS = [
   { ref: "harbor-cli", dependsOn: ["tern-fmt", "tidewater-app"] },
   { ref: "mooring-log", dependsOn: [] },
 ];
-
-/** Each slot as "  name" (a full entry) or "  &name" (a reference), indented by depth. */
-function slots(tree: Tree): string[] {
-  const out: string[] = [];
-  for (let i = 0; i < tree.length; i++) {
-    const ref = tree.referenceTo?.[i] ?? -1;
-    out.push(`${"  ".repeat(tree.depth[i])}${ref === -1 ? "" : "&"}${tree.name.get(i)}`);
-  }
-  return out;
-}
 
 /**
  * The independent answer, from the records as JSON.parse gives them: the distinct ids (records' and
