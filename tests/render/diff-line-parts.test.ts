@@ -22,7 +22,7 @@ function editedLine(node: DiffViewNode, label: string): LineParts {
     level: 2,
     mark: ":",
     role: "path",
-    ...tagParts(node, { units: "iec", sizes: false }),
+    ...tagParts(node, { units: "bytes", sizes: false }),
     tagKind: "edited",
     labels: [label],
     numbers: "",
