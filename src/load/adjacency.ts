@@ -56,11 +56,7 @@ export function rowsListChildren(
  * id under the id field, as a CycloneDX SBOM lists `dependencies: [{"ref": …, "dependsOn": [...]}]`
  * (ECMA-424); read as the map with those ids as keys, in row order.
  */
-export function adjacencyNodes(
-  value: unknown,
-  options: Fields,
-  readToo: readonly string[] = [],
-): GraphNodes {
+export function adjacencyNodes(value: unknown, options: Fields, readToo: readonly string[] = []): GraphNodes {
   if (Array.isArray(value)) {
     if (!rowsListChildren(value, options))
       throw new EspalierError(
@@ -181,7 +177,8 @@ function adjacencyEntries(
           hasSizes = true;
         }
       }
-      for (const [field, column] of kept) if (Object.hasOwn(record, field)) column[node] = fieldText(record[field]);
+      for (const [field, column] of kept)
+        if (Object.hasOwn(record, field)) column[node] = fieldText(record[field]);
     } else if (value !== null && !Array.isArray(value)) {
       throw shape(entry, "must be a list of child ids, a record or null");
     }

@@ -1,0 +1,195 @@
+import { describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+
+const head = (stdout: string) => stdout.split("\n")[0];
+
+// A CycloneDX 1.5 SBOM (ECMA-424; CycloneDX 1.x specification, component fields: bom-ref, name,
+// version, hashes [{alg, content}], licenses [{license: {id}} or {expression}], purl) of the fictional
+// Tidewater Freight's dispatch service: three packages, one of them required by two others.
+function sbom(change: (components: Record<string, unknown>[]) => void = () => {}) {
+  const pkg = (name: string, version: string, hash: string) => ({
+    type: "library",
+    "bom-ref": `pkg:npm/${name}@${version}`,
+    name,
+    version,
+    hashes: [{ alg: "SHA-256", content: hash.repeat(64) }],
+    licenses: [{ license: { id: "MIT" } }],
+    purl: `pkg:npm/${name}@${version}`,
+  });
+  const components = [
+    pkg("manifest-core", "2.0.1", "a"),
+    pkg("route-plan", "1.3.0", "b"),
+    pkg("quay-log", "0.4.2", "c"),
+  ];
+  change(components);
+  return JSON.stringify({
+    bomFormat: "CycloneDX",
+    specVersion: "1.5",
+    serialNumber: "urn:uuid:11111111-2222-4333-8444-555555555555",
+    version: 1,
+    metadata: {
+      timestamp: "2026-11-30T08:00:00Z",
+      component: { type: "application", "bom-ref": "dispatch", name: "tidewater-dispatch", version: "5.0.0" },
+    },
+    components,
+    dependencies: [
+      { ref: "dispatch", dependsOn: components.slice(0, 2).map((c) => c["bom-ref"]) },
+      { ref: components[0]["bom-ref"], dependsOn: [components[2]["bom-ref"]] },
+      { ref: components[1]["bom-ref"], dependsOn: [components[2]["bom-ref"]] },
+      { ref: components[2]["bom-ref"] },
+    ],
+  });
+}
+
+async function diff(oldText: string, newText: string, ext: string, ...more: string[]) {
+  return cli(["diff", `old.${ext}`, `new.${ext}`, "--fail-on-change", ...more], {
+    files: { [`old.${ext}`]: oldText, [`new.${ext}`]: newText },
+  });
+}
+
+describe("espalier diff OLD NEW of two CycloneDX SBOMs compares every component field but bom-ref", () => {
+  it("sees a hash changed at the same version, once, on the component's full entry", async () => {
+    const r = await diff(
+      sbom(),
+      sbom((c) => {
+        c[2].hashes = [{ alg: "SHA-256", content: "d".repeat(64) }];
+      }),
+      "cdx.json",
+    );
+    // main's build said "0 edited (compared: version)" and exited 0 here.
+    expect(r.code).toBe(1);
+    expect(head(r.stdout)).toContain("1 edited (compared: version, type, hashes and 2 other fields)");
+    // quay-log has a full entry and a reference line; the reference line shows no edit of its own.
+    expect(r.stdout.match(/\[edited hashes /g)).toHaveLength(1);
+    expect(r.stdout).toContain(`[edited hashes [{"alg":"SHA-256","content":"${"c".repeat(64)}"}] -> [{`);
+  });
+
+  it("sees a license or a purl changed at the same version, and lists what it compared in JSON", async () => {
+    const r = await diff(
+      sbom(),
+      sbom((c) => {
+        c[0].licenses = [{ expression: "GPL-3.0-only" }];
+        c[1].purl = "pkg:npm/route-plan@1.3.0?repository_url=https://mirror.example";
+      }),
+      "cdx.json",
+      "--format",
+      "json",
+    );
+    expect(r.code).toBe(1);
+    const out = JSON.parse(r.stdout);
+    expect(out.compared).toEqual(["version", "type", "hashes", "licenses", "purl"]);
+    expect(out.changes.edited).toBe(2);
+    const [core, plan] = out.root.children;
+    expect(core.edits).toEqual([
+      { field: "licenses", old: '[{"license":{"id":"MIT"}}]', new: '[{"expression":"GPL-3.0-only"}]' },
+    ]);
+    expect(plan.edits.map((e: { field: string }) => e.field)).toEqual(["purl"]);
+  });
+
+  it("is no change where only bom-refs, the serial number and the timestamp differ", async () => {
+    const rebuilt = sbom((c) => {
+      for (const component of c) component["bom-ref"] = `build-42/${component.name}`;
+    })
+      .replace("55555555", "66666666")
+      .replace("2026-11-30", "2026-12-01");
+    const r = await diff(sbom(), rebuilt, "cdx.json");
+    expect(r.code).toBe(0);
+    expect(head(r.stdout)).toContain("0 edited");
+    const named = await diff(sbom(), rebuilt, "cdx.json", "--compare-field", "bom-ref");
+    expect(named.code).toBe(1);
+    expect(head(named.stdout)).toContain("3 edited (compared: bom-ref)");
+  });
+
+  it("compares a nested field named by --compare-field by its JSON text", async () => {
+    const r = await diff(
+      sbom(),
+      sbom((c) => {
+        c[1].hashes = [{ alg: "SHA-512", content: "b".repeat(128) }];
+      }),
+      "cdx.json",
+      "--compare-field",
+      "hashes",
+    );
+    // main's build kept only scalar fields: "0 edited (compared: hashes)" and exit 0.
+    expect(r.code).toBe(1);
+    expect(head(r.stdout)).toContain("1 edited (compared: hashes)");
+  });
+});
+
+// The fictional Tidewater Freight's services as a graph table (--graph): an id repeats with another
+// parent (quay-cache serves two services); `image` describes the node, `access` each of its edges.
+const services = (apiImage: string, cacheAccess = "rw") =>
+  [
+    "id,parent,image,access",
+    "dispatch,,reg.example/dispatch:5,",
+    "billing-api,dispatch,reg.example/billing:" + apiImage + ",rw",
+    "route-svc,dispatch,reg.example/route:2,rw",
+    "quay-cache,billing-api,reg.example/cache:7,ro",
+    `quay-cache,route-svc,,${cacheAccess}`,
+    "",
+  ].join("\n");
+
+describe("espalier diff OLD NEW --graph of graph tables compares their other columns", () => {
+  it("sees a changed image, and names the columns it compared", async () => {
+    const r = await diff(services("1.4"), services("1.5"), "csv", "--graph");
+    // main's build said "0 edited (no field compared)" and exited 0 here.
+    expect(r.code).toBe(1);
+    expect(head(r.stdout)).toContain("1 edited (compared: image, access)");
+    expect(r.stdout).toContain(
+      "[edited image reg.example/billing:1.4 -> reg.example/billing:1.5] billing-api",
+    );
+  });
+
+  it("reads a column whose cells differ between an id's rows as a value per parent, not DUPLICATE_ID", async () => {
+    const same = await diff(services("1.4"), services("1.4"), "csv", "--graph");
+    expect(same.code).toBe(0);
+    expect(same.stderr).toBe("");
+    const r = await diff(services("1.4", "rw"), services("1.4", "wo"), "csv", "--graph");
+    expect(r.code).toBe(1);
+    expect(r.stdout).toContain(
+      '[edited access {"billing-api":"ro","route-svc":"rw"} -> {"billing-api":"ro","route-svc":"wo"}] quay-cache',
+    );
+    // Rows that came to agree hold their one value.
+    const agreed = await diff(services("1.4", "rw"), services("1.4", "ro"), "csv", "--graph");
+    expect(agreed.stdout).toContain('[edited access {"billing-api":"ro","route-svc":"rw"} -> ro] quay-cache');
+    // The same rows in another order are the same values.
+    const lines = services("1.4").split("\n");
+    const reordered = [lines[0], lines[1], lines[2], lines[3], lines[5], lines[4], ""].join("\n");
+    const moved = await diff(services("1.4"), reordered, "csv", "--graph");
+    expect(head(moved.stdout)).toContain("0 edited");
+  });
+
+  it("still refuses a label's column whose cells differ between an id's rows (DUPLICATE_ID)", async () => {
+    const r = await cli(["services.csv", "--graph", "--label", "{name} {access}"], {
+      files: { "services.csv": services("1.4") },
+    });
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain("[DUPLICATE_ID]");
+  });
+});
+
+// The fictional Tidewater Freight's packages as a JSON adjacency map (--graph), records naming children.
+const packages = (owner: string) =>
+  JSON.stringify({
+    "tidewater-dispatch": { children: ["manifest-core", "route-plan"], owner: "dispatch-team" },
+    "manifest-core": { children: ["quay-log"], owner, checks: { lint: true } },
+    "route-plan": { children: ["quay-log"] },
+    "quay-log": { owner: "platform" },
+  });
+
+describe("espalier diff OLD NEW --graph of JSON adjacency maps compares the records' other fields", () => {
+  it("sees a changed owner, and compares no version that no record has", async () => {
+    const r = await diff(packages("dispatch-team"), packages("ledger-team"), "json", "--graph");
+    expect(r.code).toBe(1);
+    // main's build said "(compared: version)" for these records, none of which has a version.
+    expect(head(r.stdout)).toContain("1 edited (compared: owner, checks)");
+    expect(r.stdout).toContain("[edited owner dispatch-team -> ledger-team] manifest-core");
+  });
+
+  it("refuses --compare-field naming a field no record has (FIELD_MISSING), not a comparison of nothing", async () => {
+    const r = await diff(packages("a"), packages("b"), "json", "--graph", "--compare-field", "team");
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain("[FIELD_MISSING]");
+    expect(r.stdout).toBe("");
+  });
+});
