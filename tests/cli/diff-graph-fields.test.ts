@@ -186,6 +186,32 @@ describe("espalier diff OLD NEW --graph of JSON adjacency maps compares the reco
     expect(r.stdout).toContain("[edited owner dispatch-team -> ledger-team] manifest-core");
   });
 
+  it("keeps at most 40 fields, says which it did not compare, and names four in the header", async () => {
+    // A record per package with a field per check of a fictional build farm: 45 fields.
+    const checks = (last: string) =>
+      JSON.stringify({
+        "tidewater-dispatch": { children: ["quay-log"] },
+        "quay-log": Object.fromEntries(
+          Array.from({ length: 45 }, (_, k) => [`check-${k}`, k === 44 ? last : "pass"]),
+        ),
+      });
+    const r = await diff(checks("pass"), checks("fail"), "json", "--graph");
+    // check-44 is past the 40th field: not compared, and standard error says so.
+    expect(r.code).toBe(0);
+    expect(head(r.stdout)).toContain("0 edited (compared: check-0, check-1, check-2 and 37 other fields)");
+    expect(r.stderr).toContain('"check-40", "check-41", "check-42", "check-43", "check-44"');
+    expect(r.stderr).toContain("[FIELDS_NOT_COMPARED]");
+    const named = await diff(
+      checks("pass"),
+      checks("fail"),
+      "json",
+      "--graph",
+      "--compare-field",
+      "check-44",
+    );
+    expect(named.code).toBe(1);
+  });
+
   it("refuses --compare-field naming a field no record has (FIELD_MISSING), not a comparison of nothing", async () => {
     const r = await diff(packages("a"), packages("b"), "json", "--graph", "--compare-field", "team");
     expect(r.code).toBe(2);
