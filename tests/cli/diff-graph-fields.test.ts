@@ -159,6 +159,21 @@ describe("espalier diff OLD NEW --graph of graph tables compares their other col
     expect(head(moved.stdout)).toContain("0 edited");
   });
 
+  it("compares node records' other columns (--nodes OLD --nodes NEW), an edge list's none", async () => {
+    const edges = "dispatch billing-api\ndispatch route-svc\nbilling-api quay-cache\nroute-svc quay-cache\n";
+    const records = (team: string) =>
+      `id,name,team\ndispatch,Dispatch,core\nbilling-api,Billing,ledger\nroute-svc,Routes,core\nquay-cache,Cache,${team}\n`;
+    const files = { "deps.txt": edges, "old.csv": records("core"), "new.csv": records("platform") };
+    const args = ["diff", "deps.txt", "deps.txt", "--input-format", "edges", "--fail-on-change"];
+    const r = await cli([...args, "--nodes", "old.csv", "--nodes", "new.csv"], { files });
+    // main's build said "0 edited (no field compared)" and exited 0 here.
+    expect(r.code).toBe(1);
+    expect(head(r.stdout)).toContain("1 edited (compared: team)");
+    expect(r.stdout).toContain("[edited team core -> platform] Cache");
+    const bare = await cli(args, { files });
+    expect(head(bare.stdout)).toContain("0 edited (no field compared)");
+  });
+
   it("still refuses a label's column whose cells differ between an id's rows (DUPLICATE_ID)", async () => {
     const r = await cli(["services.csv", "--graph", "--label", "{name} {access}"], {
       files: { "services.csv": services("1.4") },
@@ -186,7 +201,7 @@ describe("espalier diff OLD NEW --graph of JSON adjacency maps compares the reco
     expect(r.stdout).toContain("[edited owner dispatch-team -> ledger-team] manifest-core");
   });
 
-  it("keeps at most 40 fields, says which it did not compare, and names four in the header", async () => {
+  it("keeps at most 40 fields, says which it did not compare, and names three in the header", async () => {
     // A record per package with a field per check of a fictional build farm: 45 fields.
     const checks = (last: string) =>
       JSON.stringify({
