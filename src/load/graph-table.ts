@@ -35,8 +35,9 @@ type Fields = Pick<
  * (name, size, kept fields); a later row of it may leave those cells empty or repeat them, and a
  * different value is DUPLICATE_ID, as is a row that repeats an id with the same parent. An empty parent
  * declares the node only. A parent no row has as its id is MISSING_PARENT. With `keepOtherFields`, the
- * other columns are kept too (a diff compares them); one whose cells differ between the rows of an id
- * holds a value per edge, not DUPLICATE_ID (see valuesByParent). With a parent and a child
+ * other columns are kept too (a diff compares them); one of them, or a field kept where records have it
+ * (`optionalKeepFields`: a diff's `version`), whose cells differ between the rows of an id holds a value
+ * per edge, not DUPLICATE_ID (see valuesByParent). With a parent and a child
  * column instead (an edge table), each row is one edge and nodes come from the ids the rows name; the
  * name, size and kept columns then describe nothing and are not read (give node records separately).
  */
@@ -73,6 +74,9 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
   const rows = table.length;
   const other = given.keepOtherFields === true ? (otherFields(table.columnNames(), given) ?? []) : [];
   const options = keepingOtherFields(given, table.columnNames());
+  // The fields kept where records have them (a diff's `version` and other fields), which no option
+  // named: one whose cells differ between an id's rows is read per edge, as a summary reads it.
+  const unnamed = new Set(options.optionalKeepFields ?? []);
   const names = table.column(options.nameField);
   const sizes = table.column(options.sizeField);
   const kept = keptColumns(table, options);
@@ -124,7 +128,7 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
       if (hasSize && size !== ownSize[node]) throw clash(options.sizeField);
       for (const [key, values] of kept)
         if (values[r] !== "" && values[r] !== fields.get(key)![node]) {
-          if (other.includes(key)) perEdge.add(key);
+          if (unnamed.has(key)) perEdge.add(key);
           else throw clash(key);
         }
     }

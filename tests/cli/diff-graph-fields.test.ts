@@ -174,6 +174,24 @@ describe("espalier diff OLD NEW --graph of graph tables compares their other col
     expect(head(bare.stdout)).toContain("0 edited (no field compared)");
   });
 
+  it("reads a version range per dependent as a value per parent, which main's build refused", async () => {
+    // A dependency table of the fictional Tidewater Freight's packages: the range each dependent asks for.
+    const deps = (range: string) =>
+      `id,parent,version\ndispatch,,5.0.0\nmanifest-core,dispatch,^2.0\nquay-log,manifest-core,^0.4\nquay-log,dispatch,${range}\n`;
+    // main's build: DUPLICATE_ID ("row 4 repeats the id "quay-log" of row 3 with another version").
+    const same = await diff(deps("~0.4.1"), deps("~0.4.1"), "csv", "--graph");
+    expect(same.code).toBe(0);
+    const r = await diff(deps("~0.4.1"), deps("~0.4.2"), "csv", "--graph");
+    expect(r.code).toBe(1);
+    expect(r.stdout).toContain(
+      '[edited version {"dispatch":"~0.4.1","manifest-core":"^0.4"} -> {"dispatch":"~0.4.2","manifest-core":"^0.4"}] quay-log',
+    );
+    // Named, the field is one value per node, as a label's is.
+    const named = await diff(deps("~0.4.1"), deps("~0.4.2"), "csv", "--graph", "--compare-field", "version");
+    expect(named.code).toBe(2);
+    expect(named.stderr).toContain("[DUPLICATE_ID]");
+  });
+
   it("still refuses a label's column whose cells differ between an id's rows (DUPLICATE_ID)", async () => {
     const r = await cli(["services.csv", "--graph", "--label", "{name} {access}"], {
       files: { "services.csv": services("1.4") },
