@@ -295,10 +295,16 @@ export function unitsFor(opts: SharedCliOptions, tree?: Tree): Units {
   return tree.reading?.sizeUnit === "bytes" ? "bytes" : "plain";
 }
 
-/** Colour only on a terminal, never with NO_COLOR set (no-color.org) or TERM=dumb, unless forced. */
+/**
+ * Colour only on a terminal, never with NO_COLOR set (no-color.org) or TERM=dumb; `--color` decides
+ * over all of these. FORCE_COLOR, which CI runners set so a log shows colours (common practice, no
+ * source), turns it on off a terminal and under TERM=dumb, `0` or `false` off; NO_COLOR wins over it.
+ */
 export function useColour(opts: SharedCliOptions, io: CliIO): boolean {
   if (opts.color !== "auto") return opts.color === "always";
   if (io.env.NO_COLOR !== undefined && io.env.NO_COLOR !== "") return false;
+  const forced = io.env.FORCE_COLOR;
+  if (forced !== undefined && forced !== "") return forced !== "0" && forced.toLowerCase() !== "false";
   if (io.env.TERM === "dumb") return false;
   return io.stdout.isTTY === true;
 }

@@ -169,6 +169,22 @@ describe("espalier <input> (summary)", () => {
     );
   });
 
+  it("colours a pipe under FORCE_COLOR (as CI runners set it), not under FORCE_COLOR=0, and never with NO_COLOR too", async () => {
+    // FORCE_COLOR: common practice, no source (CI runners set it so a log shows colours).
+    const stdin = "a/x\n";
+    const sgr = "\u001b[";
+    expect((await cli(["-"], { stdin, env: { FORCE_COLOR: "1" } })).stdout).toContain(sgr);
+    expect((await cli(["-"], { stdin, env: { FORCE_COLOR: "1", TERM: "dumb" } })).stdout).toContain(sgr);
+    expect((await cli(["-"], { stdin, env: { FORCE_COLOR: "0" } })).stdout).not.toContain(sgr);
+    expect(
+      (await cli(["-"], { stdin, tty: { rows: 30 }, env: { FORCE_COLOR: "false" } })).stdout,
+    ).not.toContain(sgr);
+    expect((await cli(["-"], { stdin, env: { FORCE_COLOR: "1", NO_COLOR: "1" } })).stdout).not.toContain(sgr);
+    expect((await cli(["-", "--color", "never"], { stdin, env: { FORCE_COLOR: "1" } })).stdout).not.toContain(
+      sgr,
+    );
+  });
+
   it("defaults the budget to the terminal height less one, else 40", async () => {
     const stdin = Array.from({ length: 100 }, (_, i) => `d/f${i}`).join("\n");
     expect((await cli(["-"], { stdin })).stdout.trimEnd().split("\n")).toHaveLength(40);
