@@ -113,7 +113,16 @@ describe("espalier when standard output or standard error fails", () => {
     const lines = Array.from({ length: 100_000 }, (_, i) => `quill/d${i % 100}/f${i}`);
     await writeFile(join(dir, "old.paths"), lines.join("\n"));
     await writeFile(join(dir, "new.paths"), lines.filter((_, i) => i % 7 !== 0).join("\n"));
-    const args = [BIN, "diff", "old.paths", "new.paths", "--budget", "100000", "--no-chains", "--fail-on-change"];
+    const args = [
+      BIN,
+      "diff",
+      "old.paths",
+      "new.paths",
+      "--budget",
+      "100000",
+      "--no-chains",
+      "--fail-on-change",
+    ];
     const child = spawn(process.execPath, args, { cwd: dir });
     let stderr = "";
     child.stderr.setEncoding("utf8").on("data", (s: string) => {
