@@ -21,6 +21,11 @@ import { shownNotes } from "./reading-notes.js";
 /** How a command's result is printed: what the options and the terminal say. */
 export interface OutputSettings {
   budget: number;
+  /**
+   * The budget is the default for output that is no terminal (no `--budget`, none in a config file):
+   * the header says so, so a CI log's reader sees why the view has 40 lines.
+   */
+  budgetOffTerminal: boolean;
   /** Widest line in columns; undefined for no limit. */
   width: number | undefined;
   units: Units;
@@ -88,6 +93,7 @@ export function outputSettings(
   const documents = inputs.map((t) => t.reading?.documents ?? 1);
   return {
     budget: opts.budget ?? defaultBudget(io),
+    budgetOffTerminal: opts.budget === undefined && io.stdout.isTTY !== true,
     width: opts.width ?? defaultWidth(io),
     units: unitsFor(opts, tree),
     palette: palette(useColour(opts, io)),

@@ -193,6 +193,20 @@ describe("espalier <input> (summary)", () => {
     ).toHaveLength(11);
   });
 
+  it("says on the header when the budget is the default for output that is no terminal (a CI log)", async () => {
+    const stdin = Array.from({ length: 100 }, (_, i) => `d/f${i}`).join("\n");
+    const why = "40 of 40 lines (default budget: not a terminal)";
+    expect((await cli(["-"], { stdin })).stdout.split("\n")[0]).toMatch(
+      /; 40 of 40 lines \(default budget: not a terminal\)$/,
+    );
+    expect((await cli(["-", "--format", "markdown"], { stdin })).stdout.split("\n")[0]).toContain(why);
+    expect((await cli(["-", "--budget", "40"], { stdin })).stdout.split("\n")[0]).toMatch(
+      /; 40 of 40 lines$/,
+    );
+    const terminal = await cli(["-", "--color", "never"], { stdin, tty: { rows: 12 } });
+    expect(terminal.stdout.split("\n")[0]).toMatch(/; 11 of 11 lines$/);
+  });
+
   it.each([["--help"], ["diff", "-h"], ["explore", "--help"]])(
     "prints help (%s): every option the command takes, in docs/cli.md's groups, and nothing on stderr",
     async (...argv) => {
