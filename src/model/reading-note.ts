@@ -85,10 +85,15 @@ export const readingNoteCodes = [
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];
 
-/** A note as it is printed: its code, its line and its message (input shown by `show`). */
+/**
+ * A note as it is printed: its code, its line, its count and its message (input shown by `show`). The
+ * count is what the header says in its words (`3 missing counted as nodes`), so a script reads from
+ * the JSON every number the screen shows.
+ */
 export interface ShownNote {
   code: ReadingNoteCode;
   line?: number;
+  count?: number;
   message: string;
 }
 
@@ -115,5 +120,10 @@ export function noteFact(note: ReadingNote, version?: "OLD" | "NEW"): NoteFact {
 export function showNote(note: ReadingNote, show: (t: InputText) => string = showInput): ShownNote {
   let message = "";
   for (const part of note.parts) message += typeof part === "string" ? part : show(part);
-  return { code: note.code, ...(note.line === undefined ? {} : { line: note.line }), message };
+  return {
+    code: note.code,
+    ...(note.line === undefined ? {} : { line: note.line }),
+    ...(note.count === undefined ? {} : { count: note.count }),
+    message,
+  };
 }
