@@ -58,8 +58,9 @@ export interface ReadingNote {
  * `ABSOLUTE_AND_RELATIVE`: a path list names paths from "/" and paths that start elsewhere, read as two
  * trees side by side (load/path-list/mixed-starts.ts).
  * `SBOM_DEPENDENCIES`: a CycloneDX document read as its dependency graph, not as its values
- * (load/cyclonedx.ts). `UNIT_NOT_SAID`: a path list of one folder's entries whose sizes, which show no
- * unit, were read as bytes; count: the entries (cli/input.ts).
+ * (load/cyclonedx.ts). `UNIT_NOT_SAID`: a path list whose sizes, which show no unit (one folder's
+ * entries, or fewer than 8 sizes), were read as bytes; count: the entries, or the sizes
+ * (load/path-list/unit-not-shown.ts, cli/input.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
