@@ -7,6 +7,7 @@ import { checkFactOptionsRead, printSqlCommand } from "./fact-input.js";
 import { hidingInput } from "./hide-input.js";
 import { pseudonymKey } from "./input.js";
 import type { CliIO } from "./io.js";
+import { optionFlags } from "./option-flags.js";
 import {
   type CommandName,
   commandOptions,
@@ -14,7 +15,9 @@ import {
   type OptionSpec,
   type OptionsOf,
   type OptionsSchema,
+  printedOnly,
   type SharedCliOptions,
+  sharedOptions,
   summaryOptionsSchema,
 } from "./options.js";
 import type { CommandLine } from "./parse-command-line.js";
@@ -287,8 +290,7 @@ export const commands: Record<CommandName, CommandSpec> = {
     ],
     notes:
       "It needs a terminal; keys come from the terminal even when standard input holds a version. " +
-      "--budget, --format, --output, --bare, --legend, --share and --sibling-order belong to printed " +
-      "summaries and are not taken.",
+      `${printedOptionNames()} belong to printed summaries and are not taken.`,
     exitStatus: [
       [0, "left with q or p"],
       [2, "a usage or input error (nothing drawn)"],
@@ -301,3 +303,11 @@ export const commands: Record<CommandName, CommandSpec> = {
       }),
   }),
 };
+
+/** The options explore does not take, as `--budget, --format … and --sibling-order` (from options.ts). */
+function printedOptionNames(): string {
+  const names = [...printedOnly].map(
+    (key) => optionFlags(key, sharedOptions[key as keyof typeof sharedOptions]).long,
+  );
+  return `${names.slice(0, -1).join(", ")} and ${names[names.length - 1]}`;
+}

@@ -2,6 +2,7 @@ import { idsRenumberedNote } from "../diff/ids-renumbered.js";
 import type { PreparedDiff } from "../diff/prepared-diff.js";
 import type { ReadingNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
+import { formatCount } from "../render/amount.js";
 import { displayName } from "./input.js";
 import type { CliIO } from "./io.js";
 import { notesText } from "./reading-notes.js";
@@ -18,7 +19,8 @@ export function comparisonNotes(
   io: CliIO,
   key: string | undefined,
 ): [Tree, Tree] {
-  const renumbered = idsRenumberedNote(prepared);
+  // Its numbers in the header's style (`998,998`), as the header says the note's count.
+  const renumbered = idsRenumberedNote(prepared, (n) => formatCount(n));
   if (!renumbered) return [oldTree, newTree];
   io.stderr.write(notesText(withNotes(newTree, [renumbered]), displayName(newInput), key));
   return [oldTree, withNotes(newTree, [...(newTree.reading?.notes ?? []), renumbered])];

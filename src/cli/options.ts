@@ -38,14 +38,14 @@ export const sharedOptions = {
     flags: "-f, --focus <path>",
     group: "Focus",
     value: list(),
-    help: "a node to show with its context: path, row id or glob; repeatable",
+    help: "a node to show with its context: path, row id or glob; repeatable (none: the tree from its root)",
   },
   focusFrom: {
     flags: "--focus-from <file>",
     group: "Focus",
     config: false,
     value: text(),
-    help: "more foci from a file, one per line (- for standard input)",
+    help: "more foci from a file, one per line (- for standard input; none when not given)",
   },
   unmatchedFoci: {
     flags: "--unmatched-foci <choice>",
@@ -57,13 +57,13 @@ export const sharedOptions = {
     flags: "-b, --budget <lines>",
     group: "Budget and layout",
     value: count(),
-    help: "most lines to print (default: terminal height, else 40)",
+    help: "most lines to print (default: the terminal's height less one, else 40)",
   },
   width: {
     flags: "--width <columns>",
     group: "Budget and layout",
     value: count(),
-    help: "widest line, in terminal columns (default: COLUMNS, else the terminal's width, else no limit)",
+    help: "widest line in terminal columns, 30 or more (default: COLUMNS, else the terminal's width, else no limit)",
   },
   chains: {
     flags: "--no-chains",
@@ -88,7 +88,7 @@ export const sharedOptions = {
     group: "Output",
     config: false,
     value: text({ nonEmpty: true }),
-    help: "write to this file, whole or not at all, instead of standard output",
+    help: "write to this file, whole or not at all (default: standard output)",
   },
   units: {
     flags: "--units <units>",
@@ -100,7 +100,7 @@ export const sharedOptions = {
     flags: "--label <template>",
     group: "Output",
     value: text(),
-    help: "the text of each node from record fields, e.g. '{title}, {team}'",
+    help: "the text of each node from record fields, e.g. '{title}, {team}' (default: its name)",
   },
   pseudonymize: {
     flags: "--pseudonymize",
@@ -172,7 +172,7 @@ export const sharedOptions = {
     flags: "--start-at <pointer>",
     group: "Input",
     value: text(),
-    help: "JSON/YAML: read only the value at this JSON Pointer (RFC 6901), as /data/items for rows or nodes inside a wrapper object; the rest is checked, not read",
+    help: "JSON/YAML: read only the value at this JSON Pointer (RFC 6901), as /data/items for rows or nodes inside a wrapper object; the rest is checked, not read (default: the whole document)",
   },
   shortRows: {
     flags: "--short-rows <choice>",
@@ -214,7 +214,7 @@ export const sharedOptions = {
     flags: "--null-parent <value>",
     group: "Input",
     value: list({ nonEmpty: true }),
-    help: "a parent cell that means no parent, as an empty one does (0 in a process table, \\N or NULL in a database export); repeatable",
+    help: "a parent cell that means no parent, as an empty one does (0 in a process table, \\N or NULL in a database export); repeatable (default: only an empty cell)",
   },
   pathField: {
     flags: "--path-field <column>",
@@ -242,25 +242,25 @@ export const sharedOptions = {
       nonEmpty: true,
       max: { count: 2, message: "is given at most twice: once for both versions, or OLD's then NEW's" },
     }),
-    help: "node records of a graph by id (names, sizes, fields) from this CSV/TSV/JSON table; comparing two versions: once for both, or twice (OLD's, then NEW's)",
+    help: "node records of a graph by id (names, sizes, fields) from this CSV/TSV/JSON table; comparing two versions: once for both, or twice (OLD's, then NEW's); none when not given",
   },
   maxNodes: {
     flags: "--max-nodes <count>",
     group: "Input",
     value: count(),
-    help: "refuse inputs with more nodes than this",
+    help: "refuse inputs with more nodes than this (default: no limit)",
   },
   levels: {
     flags: "--levels <columns>",
     group: "Fact tables",
     value: text({ nonEmpty: true }),
-    help: "level columns, outermost first, comma-separated (account,service,region)",
+    help: "level columns, outermost first, comma-separated (account,service,region); given, the input is a fact table (default: none)",
   },
   keyField: {
     flags: "--key-field <column>",
     group: "Fact tables",
     value: text({ nonEmpty: true }),
-    help: "a key column split into levels",
+    help: "a key column split into levels; given, the input is a fact table (default: none)",
   },
   keySeparator: {
     flags: "--key-separator <text>",
@@ -307,7 +307,7 @@ export const summaryOnlyOptions = {
     flags: "--sql-reach <levels>",
     group: "Fact tables",
     value: count(),
-    help: "with --print-sql and foci: a pushdown query, only nodes this near the focus paths",
+    help: "with --print-sql and foci: a pushdown query, only nodes this near the focus paths (default: the whole rollup)",
   },
 } satisfies Record<string, OptionSpec>;
 
@@ -323,7 +323,7 @@ export const diffOnlyOptions = {
     flags: "--compare-field <field>",
     group: "Diff only",
     value: list({ nonEmpty: true }),
-    help: "a record field compared between matched nodes; a new value is a change (edited); repeatable",
+    help: "a record field compared between matched nodes; a new value is a change (edited); repeatable (default: version, then every other field the records hold)",
   },
 } satisfies Record<string, OptionSpec>;
 
@@ -370,7 +370,7 @@ export const controlOptions = {
  * Options of printed output, which the interactive view (it has its own screen, with no header and its
  * own order and numbers) does not take.
  */
-const printedOnly = new Set([
+export const printedOnly: ReadonlySet<string> = new Set([
   "budget",
   "format",
   "output",

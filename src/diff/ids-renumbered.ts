@@ -28,9 +28,14 @@ const REUSED = 0.1;
  * of them: they read as removed and added); or a tenth of the nodes moved or were renamed while most of
  * those changes (and removals) are nodes that matching by path pairs with another node than their id
  * does (ids that number rows, shifted by a row taken out: they read as moved and renamed). The note says
- * how many nodes pair so. Undefined otherwise, and for graphs and diffs matched by path.
+ * how many nodes pair so, in the words the header says it with (`998,998 nodes pair by path`), each
+ * number written by `count` (the CLI's `formatCount`). Undefined otherwise, and for graphs and diffs
+ * matched by path.
  */
-export function idsRenumberedNote(prepared: PreparedDiff): ReadingNote | undefined {
+export function idsRenumberedNote(
+  prepared: PreparedDiff,
+  count: (n: number) => string = String,
+): ReadingNote | undefined {
   const { combined, totals } = prepared;
   if (combined.by !== "id" || totals.graph) return undefined;
   const { removed, added, moved, renamed } = totals.changes;
@@ -43,7 +48,7 @@ export function idsRenumberedNote(prepared: PreparedDiff): ReadingNote | undefin
       return {
         code: "IDS_RENUMBERED",
         count: byPath,
-        parts: say`matched by id, of OLD's ${oldTree.length - 1} nodes below the root ${removed} found no id in NEW, while ${byPath} of them have a node of the same name under the same parent there that found no id in OLD, as matching by path pairs them: their ids look renumbered, so they read as removed and added. ${advice}`,
+        parts: say`matched by id, of OLD's ${count(oldTree.length - 1)} nodes below the root ${count(removed)} found no id in NEW, while ${count(byPath)} of them pair by path (have a node of the same name under the same parent there that found no id in OLD, as matching by path pairs them): their ids look renumbered, so they read as removed and added. ${advice}`,
       };
   }
   const smaller = Math.min(oldTree.length, newTree.length) - 1;
@@ -53,7 +58,7 @@ export function idsRenumberedNote(prepared: PreparedDiff): ReadingNote | undefin
   return {
     code: "IDS_RENUMBERED",
     count: otherwise,
-    parts: say`matched by id, of OLD's ${oldTree.length - 1} nodes below the root ${moved} moved, ${renamed} were renamed and ${removed} found no id in NEW, while ${otherwise} nodes of NEW have a node of the same name under the same parent in OLD that another id named, as matching by path pairs them: the ids look renumbered (as row numbers are when a row is taken out), so nodes read as moved and renamed. ${advice}`,
+    parts: say`matched by id, of OLD's ${count(oldTree.length - 1)} nodes below the root ${count(moved)} moved, ${count(renamed)} were renamed and ${count(removed)} found no id in NEW, while ${count(otherwise)} nodes of NEW pair by path with another node than their id's (have a node of the same name under the same parent in OLD that another id named, as matching by path pairs them): the ids look renumbered (as row numbers are when a row is taken out), so nodes read as moved and renamed. ${advice}`,
   };
 }
 

@@ -198,7 +198,7 @@ export function limitExceeded(
           : { line: origin, column };
   return new EspalierError(
     "LIMIT_EXCEEDED",
-    `the input has more than ${maxNodes} nodes, the configured maximum; raise the limit or load a smaller part`,
+    `the input has more than ${maxNodes} ${maxNodes === 1 ? "node" : "nodes"}, the limit given (--max-nodes); raise it or read a smaller part`,
     pos,
   );
 }

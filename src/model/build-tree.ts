@@ -354,7 +354,15 @@ function cycleError(input: PooledNodes, par: Int32Array, reached: Uint8Array, fi
   const shown = cycle.slice(0, 6).flatMap((c, k) => (k === 0 ? where(c) : [" -> ", ...where(c)]));
   return new EspalierError(
     "CYCLE",
-    [`the parent links form a cycle of ${cycle.length} nodes: `, ...shown, cycle.length > 6 ? " -> …" : ""],
+    [
+      `the parent links form a cycle of ${cycle.length} nodes: `,
+      ...shown,
+      cycle.length > 6 ? " -> …" : "",
+      // A graph's links may cycle: read so, each link that closes a cycle is a reference.
+      input.ids
+        ? `; correct a parent cell on it, or read the links as a graph (--graph), which reads cycles`
+        : "",
+    ],
     pos,
   );
 }

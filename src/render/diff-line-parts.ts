@@ -3,11 +3,19 @@ import type { DiffViewNode } from "../diff/diff-view.js";
 import { safeText, shownLabel } from "../model/safe-text.js";
 import { amount, formatCount, type NumberOptions } from "./amount.js";
 import { shortenMiddle } from "./display-width.js";
-import { editValues } from "./edit-values.js";
+import { cutEditValues, editValues } from "./edit-values.js";
 import { formatSize } from "./format-size.js";
 import type { LineGroup } from "./line-groups.js";
 import type { LineParts } from "./line-layout.js";
-import { EMPTY_WORDS, foldAmount, foldWords, hiddenCount, hiddenSized, lineParts } from "./line-parts.js";
+import {
+  EMPTY_WORDS,
+  foldAmount,
+  foldWords,
+  hiddenCount,
+  hiddenSized,
+  hiddenTiny,
+  lineParts,
+} from "./line-parts.js";
 import { referenceText } from "./reference-text.js";
 
 /** Columns an old parent's path or old name keeps in a tag on a narrow line. */
@@ -37,7 +45,7 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
   const hidden = last.hidden;
   const inside = hidden ? changeSummary(hidden.changes, hidden.delta, options) : "";
   const changed = hidden ? changeKinds.reduce((n, k) => n + hidden.changes[k], 0) : 0;
-  const bare = hidden ? `(${formatCount(hidden.nodes)} hidden)` : "";
+  const bare = hidden ? `(${hiddenTiny(hidden)})` : "";
   const allChanged =
     hidden !== null && (last.change === "added" || last.change === "removed") && changed === hidden.nodes;
   const few = changed === 0 ? "none changed" : `${formatCount(changed)} changed`;
@@ -55,8 +63,7 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
       : few;
   return {
     ...parts,
-    tag: changeTag(last, options, undefined, group.root.name),
-    shortTag: changeTag(last, options, SHORT_FROM, group.root.name),
+    ...tagParts(last, options, group.root.name),
     tagKind: last.change,
     numbers: say(options, parts.numbers),
     compactNumbers: say({ ...options, compact: true, countsExact: true }, parts.compactNumbers),
@@ -85,7 +92,7 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
           foldAllBelowBare: allChanged ? undefined : bare,
         }
       : { foldAllBelow: undefined, foldAllBelowBare: undefined }),
-    foldShort: hidden ? `(hidden: ${hiddenCount(hidden.nodes, options)}; ${few})` : "",
+    foldShort: hidden ? `(hidden: ${hiddenCount(hidden.nodes, options, hidden)}; ${few})` : "",
     // Below an added (removed) node every node is added (removed, or moved away): its count says all.
     foldTiny: !hidden ? "" : allChanged ? bare : `(${bare.slice(1, -1)}, ${formatCount(changed)} changed)`,
     foldBare: bare,
@@ -93,11 +100,30 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
 }
 
 /**
+ * A line's change tag for its last node, in full, with its old paths and values cut to a few
+ * columns, and cut to any columns (see `LineParts.tagAt`).
+ */
+export function tagParts(
+  node: DiffViewNode,
+  options: NumberOptions,
+  rootName?: string,
+): Pick<LineParts, "tag" | "shortTag" | "tagAt"> {
+  return {
+    tag: changeTag(node, options, undefined, rootName),
+    shortTag: changeTag(node, options, SHORT_FROM, rootName),
+    ...(node.change !== null
+      ? { tagAt: (columns: number) => changeTag(node, options, Math.max(SHORT_FROM, columns), rootName) }
+      : {}),
+  };
+}
+
+/**
  * `[added]`, `[removed]`, `[moved from OLD/PARENT]`, `[renamed from OLD]`, `[edited FIELD OLD -> NEW]`,
  * `[resized]`, with the node's field edits (`--compare-field`), its old name when a moved node has a new
  * one (`[moved from A, renamed from b]`) and its own size change signed (`[resized +12 B]`,
- * `[moved from A, version 1.2.0 -> 1.3.0, +2 B]`); the old path or name and each
- * value cut to `fromWidth` columns. An empty (absent) value reads `(none)`.
+ * `[moved from A, version 1.2.0 -> 1.3.0, +2 B]`); the old path or name cut to `fromWidth` columns
+ * in their middle, each value to as many keeping where it changed (see `cutEditValues`). An empty
+ * (absent) value reads `(none)`.
  */
 export function changeTag(
   node: DiffViewNode,
@@ -125,8 +151,9 @@ export function changeTag(
     else parts.push(`renamed ${from}`);
   }
   node.edits.forEach((edit, k) => {
-    const [old, now] = editValues(edit.old, edit.new);
-    const text = `${safeText(edit.field)} ${cut(editValue(old))} -> ${cut(editValue(now))}`;
+    const [old, now] = editValues(edit.old, edit.new).map(editValue);
+    const [a, b] = fromWidth === undefined ? [old, now] : cutEditValues(old, now, fromWidth);
+    const text = `${safeText(edit.field)} ${a} -> ${b}`;
     if (k === 0 && node.change === "edited") parts[0] += ` ${text}`;
     else parts.push(text);
   });

@@ -1,4 +1,5 @@
 import { MAX_LABEL } from "../model/safe-text.js";
+import { shortenKeeping } from "./display-width.js";
 
 /** Code points kept before and after the part where two long values differ. */
 const CONTEXT = 24;
@@ -25,4 +26,36 @@ export function editValues(old: string, now: string, max = MAX_LABEL): [string, 
   const shown = (points: string[]) =>
     `${start > 0 ? "[...]" : ""}${points.slice(start, points.length - tail).join("")}${tail > 0 ? "[...]" : ""}`;
   return [shown(a), shown(b)];
+}
+
+/**
+ * A compared field's old and new value as shown (see `editValues`) each cut to at most `columns`
+ * terminal columns (UAX #11 widths), each keeping where it differs from the other: its first and,
+ * room allowing, its last changed grapheme (see `shortenKeeping`), so `…worker-2:2.0.2` beside
+ * `…worker-2:2.1.2`, never the same text on both sides of the arrow. A value that fits stays whole.
+ * Cut texts that would still print alike (a value holding `…` itself) are cut less, up to whole.
+ */
+export function cutEditValues(old: string, now: string, columns: number): [string, string] {
+  for (let room = columns; ; room++) {
+    const pair = cutPair(old, now, room);
+    if (old === now || pair[0] !== pair[1] || (pair[0] === old && pair[1] === now)) return pair;
+  }
+}
+
+/** Both values cut to `room` columns, each keeping the code units where it differs from the other. */
+function cutPair(old: string, now: string, room: number): [string, string] {
+  const shorter = Math.min(old.length, now.length);
+  let prefix = 0;
+  while (prefix < shorter && old[prefix] === now[prefix]) prefix++;
+  let suffix = 0;
+  while (suffix < shorter - prefix && old[old.length - 1 - suffix] === now[now.length - 1 - suffix]) suffix++;
+  // The changed code units [prefix, length - suffix); where one value only lost or gained text, the
+  // code unit before the change (or after it, at the start) marks where.
+  const keep = (text: string) => {
+    if (text.length === 0) return [];
+    const first = Math.min(prefix, text.length - 1);
+    const last = Math.max(first, Math.min(text.length - suffix - 1, text.length - 1));
+    return last > first ? [first, last] : [first];
+  };
+  return [shortenKeeping(old, room, keep(old)), shortenKeeping(now, room, keep(now))];
 }

@@ -21,6 +21,12 @@ export interface LineParts {
   tag: string;
   /** The same tag with any old path or name in it cut to a few columns, for narrow lines. */
   shortTag: string;
+  /**
+   * The tag with each old path, old name and value in it cut to at most `columns` columns, never
+   * fewer than `shortTag`'s (a value keeps where it changed): the layout asks for the widest that
+   * fits the line's room; absent without a tag.
+   */
+  tagAt?: (columns: number) => string;
   /** The tag's kind, for its colour; null without a tag. */
   tagKind: ChangeKind | null;
   /** The labels the line names: one node, or a chain of only children, top first. */
@@ -184,7 +190,8 @@ export interface LaidOutLine {
  * the line is too wide, what gives way, in turn (the first that fits is used):
  *   1. the fold drops how many children it hides and keeps its numbers (`(hidden: 41 nodes, 2.0 MiB)`),
  *      then says them in fewest words (`(41 hidden, 2.0 MiB)`; without a size `(41 hidden)`);
- *   2. the tag's old path or old name is cut to a few columns (`…` marks every cut);
+ *   2. the tag's old path, old name and old and new values are cut to the columns the line has for
+ *      them, down to a few (`…` marks every cut; a value keeps where it changed, see `cutEditValues`);
  *   3. the labels are cut, down to 8 columns a name, then to 4: one name at its end, or around where it
  *      differs from its siblings when the end cut would lose that; a chain's longest names at their
  *      ends, every ` / ` kept so its names can be counted; at 4 a long chain keeps its first and
@@ -274,7 +281,13 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     [indent, p.tag, 0, p.numbers, p.fold],
     [indent, p.tag, 0, p.numbers, p.foldCounts],
     [indent, p.tag, 0, p.numbers, foldWords],
-    [indent, p.shortTag, 0, p.numbers, foldWords],
+    [
+      indent,
+      roomyTag(p, width, (tag) => line(indent, label, tag, p.numbers, foldWords, false)),
+      0,
+      p.numbers,
+      foldWords,
+    ],
     [indent, p.shortTag, MIN_LABEL, p.numbers, foldWords],
     [indent, p.shortTag, FEW_LABEL, p.numbers, foldWords],
     [indent, p.shortTag, MIN_LABEL, p.compactNumbers, compactWords],
@@ -350,7 +363,7 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
       foldCut: fold === FOLD_SIGN,
       countInFold: p.countNumbers !== "" && numbers === "" && fold !== FOLD_SIGN,
       // A tag's old path or value cut to a few columns is cut as a name is (`…` marks where).
-      nameCut: names.shortened || (tag !== p.tag && tag === p.shortTag),
+      nameCut: names.shortened || (tag !== p.tag && tag !== kindTag),
       changesCut: (fold === foldBare || fold === FOLD_SIGN) && foldBare !== p.foldTiny,
       ...depthOf(ind, indent, p.level),
       ...(names.elided ? { namesLeftOut: true } : {}),
@@ -378,6 +391,27 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     changesCut: foldCut && foldBare !== p.foldTiny,
     ...depthOf(least, indent, p.level),
   };
+}
+
+/**
+ * The widest tag `p.tagAt` gives whose line (`lineOf`) fits `width`, its old values cut only as far
+ * as the line needs; `p.shortTag` when none wider than it fits, or without `tagAt`.
+ */
+function roomyTag(p: LineParts, width: number, lineOf: (tag: string) => string): string {
+  if (p.tagAt === undefined) return p.shortTag;
+  const fits = (tag: string) => displayWidth(lineOf(tag)) <= width;
+  if (fits(p.tag)) return p.tag;
+  const least = displayWidth(p.shortTag);
+  // Wider columns never make a narrower tag: the widest that fits, by halving.
+  let lo = 0;
+  let hi = displayWidth(p.tag);
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (fits(p.tagAt(mid))) lo = mid;
+    else hi = mid;
+  }
+  const tag = p.tagAt(lo);
+  return lo > 0 && displayWidth(tag) > least && fits(tag) ? tag : p.shortTag;
 }
 
 /** A step of `laidOutLine`: [indentation, tag, fewest label columns (0: whole), numbers, fold]. */

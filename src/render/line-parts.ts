@@ -75,8 +75,11 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
     foldCounts: joined(last.hidden ? `(hidden: ${foldAmount(group, last, options)})` : "", parents),
     compactFold: fold(compact),
     compactFoldCounts: joined(last.hidden ? `(hidden: ${foldAmount(group, last, compact)})` : "", parents),
-    foldShort: joined(last.hidden ? `(hidden: ${hiddenCount(last.hidden.nodes, options)})` : "", parents),
-    foldTiny: last.hidden ? `(${formatCount(last.hidden.nodes)} hidden)` : "",
+    foldShort: joined(
+      last.hidden ? `(hidden: ${hiddenCount(last.hidden.nodes, options, last.hidden)})` : "",
+      parents,
+    ),
+    foldTiny: last.hidden ? `(${hiddenTiny(last.hidden)})` : "",
     ...(last.hidden && options.sizes
       ? {
           foldSized: joined(`(${hiddenSized(group, last, options)})`, parents),
@@ -133,10 +136,25 @@ export function chainLabels<T extends ViewNode>({ nodes }: LineGroup<T>): string
 
 /**
  * `41 nodes` (or `1 node`), exact: what a narrow line's fold keeps, `(hidden: 41 nodes)`, then
- * `(41 hidden)`, so `nodes = 1 + the lines below + hidden` can still be checked on it.
+ * `(41 hidden)`, so `nodes = 1 + the lines below + hidden` can still be checked on it. A graph's fold
+ * that hides no node, only references (`folded`), says how many (`0 nodes, 4 references`): a bare
+ * `0 nodes` would not say what is hidden.
  */
-export function hiddenCount(n: number, options: NumberOptions): string {
-  return amount(n, 0, { ...options, compact: false, sizes: false, always: true });
+export function hiddenCount(n: number, options: NumberOptions, folded?: { references?: number }): string {
+  return amount(n, 0, { ...options, compact: false, sizes: false, always: true }) + onlyReferences(n, folded);
+}
+
+/**
+ * A fold's count in fewest words, `41 hidden`; a graph's fold of references only says them
+ * (`0 hidden, 4 references`).
+ */
+export function hiddenTiny(folded: { nodes: number; references?: number }): string {
+  return `${formatCount(folded.nodes)} hidden${onlyReferences(folded.nodes, folded)}`;
+}
+
+/** `, 4 references` after the count of a fold that hides no node but references (graphs); else "". */
+function onlyReferences(n: number, folded: { references?: number } | undefined): string {
+  return n === 0 ? referencesText(folded?.references) : "";
 }
 
 /** `hidden: 3 children` (or `1 child`): how many of the node's children the fold holds. */

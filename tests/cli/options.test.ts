@@ -42,6 +42,27 @@ describe("the option declarations (src/cli/options.ts)", () => {
     expect(headings).toEqual([...optionGroups]);
   });
 
+  it.each(Object.entries(allOptions))(
+    "says in --help what %s is when not given, and docs/cli.md gives the same default",
+    (key, spec) => {
+      const flags = optionFlags(key, spec);
+      if (flags.switchValue !== undefined) return; // a switch: off, or on by its --no- name
+      const declared = Array.isArray(flags.defaultValue) ? undefined : flags.defaultValue;
+      // --help adds "when not given: D" for a declared default (help.ts); any other says it itself.
+      if (declared === undefined)
+        expect(flags.help, `${flags.long}'s help`).toMatch(/default|when not given|none/);
+      else {
+        const row = docs.split("\n").find((line) => line.startsWith(`| \`${spec.flags}\` |`)) ?? "";
+        // A table with a default column, or the meaning naming it: `D` (default).
+        expect(
+          row.startsWith(`| \`${spec.flags}\` | \`${String(declared)}\` |`) ||
+            row.includes(`\`${String(declared)}\` (default`),
+          `docs/cli.md's row of ${spec.flags} gives its default ${String(declared)}`,
+        ).toBe(true);
+      }
+    },
+  );
+
   it("gives every option a long name of its own and one-letter names that do not repeat", () => {
     const names = Object.entries(allOptions).flatMap(([key, spec]) => {
       const f = optionFlags(key, spec);

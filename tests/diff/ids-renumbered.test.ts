@@ -65,7 +65,7 @@ describe("idsRenumberedNote", () => {
       expect.objectContaining({
         version: "NEW",
         code: "IDS_RENUMBERED",
-        message: expect.stringContaining(", while 9 of them have"),
+        message: expect.stringContaining(", while 9 of them pair by path"),
       }),
     ]);
     expect(result.stderr).toMatch(/^espalier: note: next\.csv: matched by id, .*\[IDS_RENUMBERED\]\n$/);
@@ -95,7 +95,7 @@ describe("idsRenumberedNote", () => {
       expect.objectContaining({
         version: "NEW",
         code: "IDS_RENUMBERED",
-        message: expect.stringContaining(", while 5 of them have"),
+        message: expect.stringContaining(", while 5 of them pair by path"),
       }),
     ]);
     const text = await cli(["diff", "march.csv", "next.csv", "--parent-field", "manager"], {
@@ -144,9 +144,35 @@ describe("idsRenumberedNote", () => {
       expect.objectContaining({
         version: "NEW",
         code: "IDS_RENUMBERED",
-        message: expect.stringContaining(`, while ${otherId.length} nodes of NEW have`),
+        message: expect.stringContaining(`, while ${otherId.length} nodes of NEW pair by path`),
       }),
     ]);
+  });
+
+  it("writes its numbers as the header does, the count the header says named alike (field test: 999999 beside 998,998)", async () => {
+    // Field test: a million-row org chart numbered afresh, one person gone: standard error said
+    // `999999 found no id` in raw digits where the header said `998,998 nodes pair by path`. Here
+    // an invented chart of 1,500 people (the columns of an org export: id, manager, name), numbered
+    // afresh in NEW but for the root, the last person (a leaf) gone.
+    const people = 1500;
+    const chart = (offset: number, kept: number) => {
+      const rows = ["id,manager,name"];
+      const id = (k: number) => (k === 1 ? "1" : String(k + offset));
+      for (let k = 1; k <= kept; k++) rows.push(`${id(k)},${k === 1 ? "" : id(k >> 1)},Crew ${k}`);
+      return `${rows.join("\n")}\n`;
+    };
+    const files = { "old.csv": chart(0, people), "new.csv": chart(100_000, people - 1) };
+    const result = await cli(["diff", "old.csv", "new.csv", "--parent-field", "manager", "--width", "100"], {
+      files,
+    });
+    expect(result.code).toBe(0);
+    // Below the root every id changed: 1,499 found no id; all but the one gone pair by path, 1,498.
+    expect(result.stderr).toContain(
+      "of OLD's 1,499 nodes below the root 1,499 found no id in NEW, while 1,498 of them pair by path",
+    );
+    expect(result.stderr).not.toMatch(/[0-9]{4}/);
+    const header = result.stdout.split("\n").slice(0, 4).join(" ");
+    expect(header).toContain("ids look renumbered (1,498 nodes pair by path)");
   });
 
   it("says nothing when the ids were kept (a month of real changes) or most changed along with names", async () => {

@@ -1,11 +1,18 @@
-import { readFileSync, writeFileSync } from "node:fs";
+import { readdirSync, readFileSync, writeFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { cli } from "../helpers/cli.js";
 
 // Every example output in README.md and docs/ is the tool's own output on the invented demo data in
 // fixtures/: a block marked `<!-- example: ARGS -->` holds exactly what `espalier ARGS` prints.
 // `npm run examples` rewrites the blocks from the current code (UPDATE_EXAMPLES=1).
-const FILES = ["README.md", "docs/diff.md", "docs/selection.md", "docs/cli.md", "docs/svg.md"];
+// Every page that ships: a marked block in a page left off a hand-kept list would never be checked.
+const FILES = [
+  "README.md",
+  ...readdirSync("docs")
+    .filter((name) => name.endsWith(".md"))
+    .sort()
+    .map((name) => `docs/${name}`),
+];
 const MARKER = /^<!-- example: (.+) -->$/;
 
 /** Splits a command line as a POSIX shell would for the simple cases the docs use: words, '…' quotes. */
@@ -39,9 +46,42 @@ function examples(file: string, lines: string[]): Example[] {
 describe("the examples in README.md and docs/", () => {
   const all = FILES.flatMap((file) => examples(file, readFileSync(file, "utf8").split("\n")));
 
-  it("are there: at least the README's and each diff example's", () => {
+  it("are there: at least the README's, each diff example's and the printed SQL's", () => {
     expect(all.filter((e) => e.file === "README.md").length).toBeGreaterThanOrEqual(1);
     expect(all.filter((e) => e.file === "docs/diff.md").length).toBeGreaterThanOrEqual(3);
+    expect(all.filter((e) => e.file === "docs/scale.md").length).toBeGreaterThanOrEqual(1);
+  });
+
+  it("include a marked block wherever a page shows what an `espalier` command prints", () => {
+    // A fenced block right after a block that holds one espalier command line (not piped, not
+    // redirected, on the demo data or none) is that command's output: it must be marked, or it drifts.
+    let checked = 0;
+    for (const file of FILES) {
+      const lines = readFileSync(file, "utf8").split("\n");
+      for (let k = 0; k < lines.length; k++) {
+        if (!/^```/.test(lines[k])) continue;
+        let close = k + 1;
+        while (close < lines.length && lines[close] !== "```") close++;
+        const opening = k;
+        k = close;
+        if (!/^```(sh)?$/.test(lines[opening])) continue;
+        // The block's one command, its `\` continuations joined.
+        const text = lines
+          .slice(opening + 1, close)
+          .join("\n")
+          .replace(/\\\n\s*/g, "");
+        const command = /^(?:node bin\/espalier\.js|espalier) (?!explore )([^\n]*)$/.exec(text);
+        if (!command || /[|>]/.test(command[1])) continue;
+        const files = command[1].split(/\s+/).filter((w) => /\.[a-z]+$/.test(w) && !w.startsWith("-"));
+        if (!files.every((f) => f.startsWith("fixtures/"))) continue;
+        let next = close + 1;
+        while (next < lines.length && (lines[next] === "" || MARKER.test(lines[next]))) next++;
+        if (!/^```/.test(lines[next] ?? "")) continue;
+        checked++;
+        expect(lines[next - 1], `${file}:${next + 1}: the output of \`${text}\``).toMatch(MARKER);
+      }
+    }
+    expect(checked, "the README's three and docs/scale.md's").toBeGreaterThanOrEqual(4);
   });
 
   for (const file of FILES) {

@@ -112,6 +112,53 @@ describe("renderText / renderJson / renderMarkdown / renderSvg on a graph", () =
 });
 
 describe("espalier --input-format edges (command line)", () => {
+  it("says what a fold of references only hides, at every width and small budget (summary and diff)", async () => {
+    // Field test: `(0 hidden)` on an SBOM's packages whose dependencies are all shown elsewhere, at 40
+    // columns. Invented packages of the fictional harbor repo: quay-api's two dependencies have their
+    // full entries under ledger, so quay-api's fold holds 0 nodes and 2 references.
+    const old =
+      "harbor ledger\nharbor quay-api\nledger brine-util\nledger tern-fmt\nquay-api brine-util\nquay-api tern-fmt\n";
+    const now = `${old}ledger kelp-log\n`;
+    const files = { "old.edges": old, "new.edges": now };
+    let seen = 0;
+    for (const width of [40, 50, 60, 80])
+      for (const budget of [6, 7, 8, 9, 10]) {
+        const runs = [
+          await cli(
+            ["old.edges", "--input-format", "edges", "--width", `${width}`, "--budget", `${budget}`],
+            {
+              files,
+            },
+          ),
+          await cli(
+            [
+              "diff",
+              "old.edges",
+              "new.edges",
+              "--input-format",
+              "edges",
+              "--width",
+              `${width}`,
+              "--budget",
+              `${budget}`,
+            ],
+            { files },
+          ),
+        ];
+        for (const out of runs) {
+          expect(out.code, out.stderr).toBe(0);
+          for (const line of out.stdout.split("\n")) {
+            // A count of 0 hidden nodes always says the references it hides.
+            if (/\(0 hidden|hidden: 0 nodes/.test(line)) {
+              expect(line).toMatch(/0 (hidden|nodes), [12] references?/);
+              seen++;
+            }
+          }
+        }
+      }
+    expect(seen).toBeGreaterThan(0);
+  });
+
   it("reads a TSV edge table from standard input by its parent and child columns (streamed)", async () => {
     const tsv = "parent\tchild\tid\nhq\tlab\tx\nhq\tops\tx\nlab\trig\tx\nops\trig\tx\n";
     const out = await cli(["-", "--input-format", "edges", "--format", "json"], { stdin: tsv });

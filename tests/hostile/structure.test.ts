@@ -28,6 +28,15 @@ describe("espalier - (faults of structure): each named by its row or line", () =
     });
   });
 
+  it("a cycle names its fix: the option that reads the same rows as a graph, which reads them whole", async () => {
+    const stdin = "id,parent\n1,\n2,3\n3,2\n";
+    const r = await cli(["-", "--input-format", "csv"], { stdin });
+    expect(oneErrorLine(r).code).toBe("CYCLE");
+    expect(r.stderr).toContain("(--graph)");
+    const graph = await cli(["-", "--input-format", "csv", "--graph", "--bare"], { stdin });
+    expect(graph.code).toBe(0);
+  });
+
   it("a cycle with no top-level row at all: CYCLE, not an empty tree", async () => {
     const r = await cli(["-", "--input-format", "csv"], { stdin: "id,parent\n1,2\n2,1\n" });
     expect(oneErrorLine(r)).toMatchObject({ code: "CYCLE", line: 2 });

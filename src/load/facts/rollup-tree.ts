@@ -81,7 +81,7 @@ export function rollupTree(result: Columns, options: RollupTreeOptions): Tree {
   if (nodeRows + 1 > options.maxNodes) {
     throw new EspalierError(
       "LIMIT_EXCEEDED",
-      `the rollup has ${nodeRows + 1} nodes, more than the configured maximum of ${options.maxNodes}`,
+      `the rollup has ${nodeRows + 1} nodes, more than the limit given (--max-nodes ${options.maxNodes}); raise it, or roll up fewer levels (--key-depth, fewer --levels)`,
     );
   }
   // Rows in pre-order: a row before another when its named levels come first, name by name in
