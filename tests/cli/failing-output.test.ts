@@ -50,9 +50,9 @@ describe("espalier when standard output or standard error fails", () => {
     await writeFile(join(dir, "a.paths"), LIST);
     await writeFile(join(dir, "b.paths"), `${LIST}7\tquill/e\n`);
     for (const args of [
-      "a.paths --units bytes",
-      "a.paths --format json --units bytes",
-      "diff a.paths b.paths --fail-on-change --units bytes",
+      "a.paths",
+      "a.paths --format json",
+      "diff a.paths b.paths --fail-on-change",
       "--help",
     ]) {
       const r = await shell(`${node} ${bin} ${args} > /dev/full`, dir);
@@ -65,14 +65,14 @@ describe("espalier when standard output or standard error fails", () => {
   it("standard output closed before espalier starts (>&-): status 2 and one IO line; -o still works", async () => {
     const dir = await tempDir();
     await writeFile(join(dir, "a.paths"), LIST);
-    const r = await shell(`exec ${node} ${bin} a.paths --units bytes >&-`, dir);
+    const r = await shell(`exec ${node} ${bin} a.paths >&-`, dir);
     expect(r.code).toBe(2);
     oneIoLine(r.stderr);
     const o = await shell(`exec ${node} ${bin} a.paths -o out.txt >&-`, dir);
     expect(o.code, o.stderr).toBe(0);
     expect(existsSync(join(dir, "out.txt"))).toBe(true);
     // A redirection to /dev/null is a choice, not a failure.
-    const n = await shell(`exec ${node} ${bin} a.paths --units bytes > /dev/null`, dir);
+    const n = await shell(`exec ${node} ${bin} a.paths > /dev/null`, dir);
     expect(n.code, n.stderr).toBe(0);
     expect(n.stderr).toBe("");
   });

@@ -87,16 +87,7 @@ describe("espalier --focus-from with git's list of changed files", () => {
   });
 
   it("with --unmatched-foci skip, the header line counts the skipped foci (one line, in the budget)", async () => {
-    // files.paths' few sizes say no unit (UNIT_NOT_SAID, a clause on the header): --units bytes says it.
-    const args = [
-      at("files.paths"),
-      "--focus-from",
-      at("changed.txt"),
-      "--unmatched-foci",
-      "skip",
-      "--units",
-      "bytes",
-    ];
+    const args = [at("files.paths"), "--focus-from", at("changed.txt"), "--unmatched-foci", "skip"];
     for (const format of ["text", "markdown"]) {
       const r = await cli([...args, "--format", format, "--budget", "6"]);
       expect(r.code, r.stderr).toBe(0);

@@ -35,9 +35,9 @@ describe("espalier <input> --output FILE", () => {
   it("writes what standard output would get to FILE, prints nothing, and leaves no temporary file", async () => {
     const input = join(dir, "tree.paths");
     await writeFile(input, LIST);
-    const plain = await cli([input, "--budget", "9", "--units", "bytes"]);
+    const plain = await cli([input, "--budget", "9"]);
     const out = join(dir, "summary.txt");
-    const r = await cli([input, "--budget", "9", "--units", "bytes", "--output", out]);
+    const r = await cli([input, "--budget", "9", "--output", out]);
     expect(r.code).toBe(0);
     expect(r.stdout).toBe("");
     expect(r.stderr).toBe("");

@@ -62,7 +62,37 @@ export function unitNotShown(tree: Tree): UnitNotShown | undefined {
   }
   let sized = 0;
   for (let i = 0; i < length && sized < UNIT_EVIDENCE; i++) if (ownSize[i] > 0) sized++;
-  return sized >= UNIT_EVIDENCE || sized === 0 ? undefined : { why: "short", count: sized };
+  if (sized >= UNIT_EVIDENCE || sized === 0) return undefined;
+  return folderListed(tree) || leavesLevel(tree) || wholeWords(tree)
+    ? { why: "short", count: sized }
+    : undefined;
+}
+
+/**
+ * Whether every leaf is at one depth, as `du -s --apparent-size A/* B/*` lists the entries of two folders
+ * (each a folder's or a file's size in KiB, none inside another).
+ */
+function leavesLevel(tree: Tree): boolean {
+  const { length, parent, depth } = tree;
+  const inner = new Uint8Array(length);
+  for (let i = 0; i < length; i++) if (parent[i] !== -1) inner[parent[i]] = 1;
+  let level = -1;
+  for (let i = 0; i < length; i++) {
+    if (inner[i] === 1) continue;
+    if (level === -1) level = depth[i];
+    else if (depth[i] !== level) return false;
+  }
+  return true;
+}
+
+/**
+ * Whether every size above 0 is a multiple of 4, as 1 KiB blocks of a file system of 4 KiB blocks
+ * are (`find -type f -printf '%k\t%p\n'`, `du -s`); bytes are so by chance, one in 4 each.
+ */
+function wholeWords(tree: Tree): boolean {
+  const { length, ownSize } = tree;
+  for (let i = 0; i < length; i++) if (ownSize[i] % 4 !== 0) return false;
+  return true;
 }
 
 /** Whether a node with children has a size of its own: a line listed the folder (`du -a DIR`). */
