@@ -53,8 +53,8 @@ export interface ReadingNote {
  * renamed pair so with other nodes than by id, as renumbered ids do (diff/ids-renumbered.ts).
  * `NODES_NOT_READ`: node objects (objects holding the name, size or children field) in a field of a
  * node object that is not read, as a second list beside the children field's, left out of the tree and
- * of every total (load/nodes-not-read.ts). `UNDECODABLE_BYTES`: lines of a path list, rows of a table or
- * ids of an edge list hold bytes that are not UTF-8, read as U+FFFD; count: how many (load/not-utf8-note.ts).
+ * of every total (load/nodes-not-read.ts). `UNDECODABLE_BYTES`: lines of a path list or a YAML document, rows
+ * of a table, ids of an edge list or strings of a JSON document hold bytes that are not UTF-8, read as U+FFFD; count: how many (load/not-utf8-note.ts).
  * `ABSOLUTE_AND_RELATIVE`: a path list names paths from "/" and paths that start elsewhere, read as two
  * trees side by side (load/path-list/mixed-starts.ts).
  * `SBOM_DEPENDENCIES`: a CycloneDX document read as its dependency graph, not as its values

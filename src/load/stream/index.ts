@@ -24,6 +24,7 @@ import { type KeptJson, keptJsons } from "../json/kept-json.js";
 import { valueAtPointer } from "../json/value-at-pointer.js";
 import { parsePointer, readAtPointer, startAtFormat } from "../json-pointer.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
+import { documentNotUtf8Note } from "../not-utf8-note.js";
 import { checkPathListOptions } from "../path-list/path-list-options.js";
 import { jsonGraphTooLong, limitsOf } from "../read-limits.js";
 import { checkReadingOptions } from "../reading-options.js";
@@ -34,6 +35,7 @@ import { linkTable } from "../table/link-table.js";
 import { placeInTable } from "../table/locate-cell.js";
 import { checkNullParentUse } from "../table/null-parent.js";
 import { checkShortRowsFormat } from "../table/short-rows-format.js";
+import { withNotes } from "../with-notes.js";
 import { edgeListStream } from "./edge-list-stream.js";
 import { readStart, type StreamStart } from "./read-start.js";
 
@@ -142,7 +144,10 @@ async function linkedNodes(
   if (format === "yaml") {
     // The YAML parser is loaded only for YAML input (a start reads no code it does not run).
     const { loadYaml } = await import("../load-yaml.js");
-    return loadYaml(await wholeText(chunks, "YAML", limitsOf(options.limits).maxYamlBytes), options);
+    const bytes = await wholeBytes(chunks, "YAML", limitsOf(options.limits).maxYamlBytes);
+    const text = new TextDecoder("utf-8", { ignoreBOM: true }).decode(bytes);
+    const notUtf8 = documentNotUtf8Note(bytes);
+    return withNotes(loadYaml(text, options), notUtf8 ? [notUtf8] : []);
   }
   if (format === "edges") {
     const start = new TextDecoder("utf-8", { ignoreBOM: true }).decode(head);
@@ -207,15 +212,6 @@ async function linkedNodes(
   } finally {
     table.release?.();
   }
-}
-
-/** The whole input as one string (YAML); LIMIT_EXCEEDED past `maxBytes` or what a string can hold. */
-async function wholeText(
-  chunks: AsyncIterable<Uint8Array>,
-  what: "YAML" | "JSON",
-  maxBytes: number = constants.MAX_STRING_LENGTH,
-): Promise<string> {
-  return new TextDecoder("utf-8", { ignoreBOM: true }).decode(await wholeBytes(chunks, what, maxBytes));
 }
 
 /**
