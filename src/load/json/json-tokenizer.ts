@@ -660,11 +660,14 @@ function jsoncHint(c: number, afterComma: boolean): string {
 
 /**
  * What a second value at the start of a line is: JSON Lines (one JSON text a line, jsonlines.org),
- * which espalier reads as a fact table, its records rolled up by columns named as levels.
+ * which espalier reads as a fact table, its records rolled up by columns named as levels; records
+ * linked by an id and a parent (an export of rows) read as JSON rows once they are one array, which
+ * the sed named makes of them (blank lines left out, "[" before the first, "," after each but the
+ * last, "]" after it).
  */
 function jsonLinesHint(c: number, lineStart: boolean): string {
   if (!lineStart || (c !== 0x7b && c !== 0x5b)) return "";
-  return "; another JSON text begins this line: one value a line (JSON Lines) is read as a table of records, with --input-format jsonl and the columns that make its levels (--levels team,service, or --key-field)";
+  return "; another JSON text begins this line: one value a line (JSON Lines) is read as a table of records, with --input-format jsonl and the columns that make its levels (--levels team,service, or --key-field); records linked by an id and a parent field read as rows once they are one array: sed '/^[[:space:]]*$/d' FILE | sed '1s/^/[/; $!s/$/,/; $s/$/]/' | espalier - --input-format rows";
 }
 
 function shown(c: number): MessagePart {
