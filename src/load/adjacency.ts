@@ -3,6 +3,7 @@ import type { GraphNodes } from "../model/graph-nodes.js";
 import { isSize } from "../model/size-rule.js";
 import type { LoadOptions } from "./load-options.js";
 import { limitExceeded } from "./node-sink.js";
+import { OtherColumns, OtherFieldsKept } from "./other-fields-kept.js";
 import { fieldSizeUnit } from "./size-unit.js";
 
 type Fields = Pick<
@@ -15,6 +16,9 @@ type Fields = Pick<
   | "maxNodes"
   | "idField"
   | "parentField"
+  | "pathField"
+  | "optionalKeepFields"
+  | "keepOtherFields"
 >;
 
 /** A node's entry: its id, its value (a list of child ids, a record or null), and where it is. */
@@ -52,14 +56,14 @@ export function rowsListChildren(
  * id under the id field, as a CycloneDX SBOM lists `dependencies: [{"ref": …, "dependsOn": [...]}]`
  * (ECMA-424); read as the map with those ids as keys, in row order.
  */
-export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
+export function adjacencyNodes(value: unknown, options: Fields, readToo: readonly string[] = []): GraphNodes {
   if (Array.isArray(value)) {
     if (!rowsListChildren(value, options))
       throw new EspalierError(
         "SHAPE",
         say`a graph read from a list must hold records naming their children: objects with an id under ${quoted.name(options.idField)} and a list of child ids under ${quoted.name(options.childrenField)} (--id-field, --children-field), or rows linked by ${quoted.name(options.parentField)}`,
       );
-    return adjacencyEntries(rowEntries(value, options), options, "id-children");
+    return adjacencyEntries(rowEntries(value, options), options, "id-children", readToo);
   }
   if (typeof value !== "object" || value === null)
     throw new EspalierError("SHAPE", "a graph read as an adjacency map must be an object (a mapping) of ids");
@@ -68,6 +72,7 @@ export function adjacencyNodes(value: unknown, options: Fields): GraphNodes {
     Object.keys(map).map((key) => ({ id: key, value: map[key], at: { field: key } })),
     options,
     "map",
+    readToo,
   );
 }
 
@@ -100,11 +105,17 @@ function rowEntries(rows: readonly unknown[], options: Fields): Entry[] {
   return entries;
 }
 
-/** Entries (in order) as a graph, linked as `linkedBy` says. */
+/**
+ * Entries (in order) as a graph, linked as `linkedBy` says. With `keepOtherFields`, every other field of
+ * the records is kept too, as text (an object or array as its JSON text), but those `readToo` names
+ * (read for the graph by the caller: an SBOM's bom-ref). A kept field that no record holds is not kept:
+ * a label or `--compare-field` naming it is FIELD_MISSING, not a column of nothing.
+ */
 function adjacencyEntries(
   entries: readonly Entry[],
   options: Fields,
   linkedBy: "map" | "id-children",
+  readToo: readonly string[],
 ): GraphNodes {
   const nodeOf = new Map<string, number>();
   const ids: string[] = [];
@@ -125,6 +136,11 @@ function adjacencyEntries(
   // Keys of the entries' own records, for the message of a named field no record has.
   const recordFields = new Set<string>();
   const kept = new Map<string, string[]>(options.keepFields.map((k) => [k, new Array(ids.length).fill("")]));
+  const others =
+    options.keepOtherFields === true
+      ? new OtherFieldsKept({ ...options, keepFields: [...options.keepFields, ...readToo] })
+      : undefined;
+  const otherColumns = new OtherColumns();
   const from: number[] = [];
   const to: number[] = [];
   const shape = (entry: Entry, what: string) =>
@@ -136,7 +152,10 @@ function adjacencyEntries(
     let children: unknown = value;
     if (typeof value === "object" && value !== null && !Array.isArray(value)) {
       const record = value as Record<string, unknown>;
-      for (const field of Object.keys(record)) recordFields.add(field);
+      for (const field of Object.keys(record)) {
+        recordFields.add(field);
+        if (others?.keeps(field)) otherColumns.set(field, node, fieldText(record[field]));
+      }
       children = Object.hasOwn(record, options.childrenField) ? record[options.childrenField] : null;
       if (Object.hasOwn(record, options.nameField)) {
         const name = record[options.nameField];
@@ -158,11 +177,8 @@ function adjacencyEntries(
           hasSizes = true;
         }
       }
-      for (const [field, column] of kept) {
-        const v = record[field];
-        if (Object.hasOwn(record, field) && v !== null && v !== undefined)
-          column[node] = typeof v === "object" ? JSON.stringify(v) : String(v);
-      }
+      for (const [field, column] of kept)
+        if (Object.hasOwn(record, field)) column[node] = fieldText(record[field]);
     } else if (value !== null && !Array.isArray(value)) {
       throw shape(entry, "must be a list of child ids, a record or null");
     }
@@ -184,6 +200,8 @@ function adjacencyEntries(
       to.push(c);
     }
   }
+  for (const field of kept.keys()) if (!recordFields.has(field)) kept.delete(field);
+  const fields = new Map([...kept, ...otherColumns.fields(ids.length)]);
   return {
     name: names,
     ids,
@@ -193,7 +211,8 @@ function adjacencyEntries(
     origin: new Int32Array(ids.length),
     originIsRow: false,
     recordFields: [...recordFields],
-    fields: kept,
+    fields,
+    ...others?.reading(),
     rootName: options.rootName,
     edgeFrom: Int32Array.from(from),
     edgeTo: Int32Array.from(to),
@@ -202,4 +221,10 @@ function adjacencyEntries(
     repeatedEdges: "skip",
     linkedBy,
   };
+}
+
+/** A record field's value as kept: its text, an object or array as its JSON text, null as nothing. */
+function fieldText(value: unknown): string {
+  if (value === null || value === undefined) return "";
+  return typeof value === "object" ? JSON.stringify(value) : String(value);
 }

@@ -33,7 +33,8 @@ const DEPENDS_ON = "dependsOn";
  * included) and per ref no component has, named by its component's `name`. A node's id is that name,
  * or `name@version` where two components share a name (then its bom-ref where those clash too), so a
  * diff of two versions of the SBOM pairs a component whose version changed and compares its `version`
- * field; the component's other scalar fields are its record's (for `--label`). Nodes come in order: the
+ * field; the component's other fields are its record's (for `--label`, and compared by a diff but
+ * bom-ref: {@link NOT_COMPARED}; an object or array by its JSON text). Nodes come in order: the
  * described component, the refs as the dependencies list names them, then components it leaves out
  * (each a top-level node: nothing depends on it). Undefined when `doc` is no CycloneDX document with a
  * dependencies list: it is read as any other document then.
@@ -90,20 +91,21 @@ export function sbomGraph(doc: unknown, options: LoadOptions): GraphNodes | unde
   }
   const rows = refs.map((ref) => {
     const record: Record<string, unknown> = {};
+    // Nested components are nodes of their own; every other field is the component's (hashes and
+    // licenses as their JSON text).
     for (const [key, value] of Object.entries(byRef.get(ref) ?? {}))
-      if (typeof value === "string" || typeof value === "number" || typeof value === "boolean")
-        record[key] = value;
+      if (key !== "components") record[key] = value;
     record["bom-ref"] = ref;
     if (typeof record.name !== "string" || record.name === "") record.name = ref;
     record[SBOM_ID] = idOf.get(ref);
     record[DEPENDS_ON] = dependsOn.get(ref) ?? [];
     return record;
   });
-  const graph = adjacencyNodes(rows, {
-    ...options,
-    idField: SBOM_ID,
-    childrenField: DEPENDS_ON,
-  });
+  const graph = adjacencyNodes(
+    rows,
+    { ...options, idField: SBOM_ID, childrenField: DEPENDS_ON },
+    NOT_COMPARED,
+  );
   const root = described && typeof described.name === "string" ? described.name : undefined;
   const apart = rows.slice(named).map((row) => row.name as string);
   const note = sbomNote(doc.specVersion, named, apart, root);
@@ -111,6 +113,16 @@ export function sbomGraph(doc: unknown, options: LoadOptions): GraphNodes | unde
   const recordFields = (graph.recordFields ?? []).filter((f) => f !== SBOM_ID && f !== DEPENDS_ON);
   return { ...graph, linkedBy: "sbom", recordFields, notes: [...(graph.notes ?? []), note] };
 }
+
+/**
+ * The component fields a diff does not compare by default (LoadOptions.keepOtherFields), though it
+ * compares every other one (a changed hash, purl or license of the same version is a change): `bom-ref`
+ * (ECMA-424: an identifier unique within one BOM by which other parts of it refer to the component; the
+ * wording from memory) links the dependencies, which the graph is read by; its text is the generator's
+ * choice, which may hold the build's folder (`path+file:///…/.tmpXdQ78X/…#cryptography-rust@0.1.0`), so
+ * two builds of one tree would differ in every such component. `--compare-field bom-ref` compares it.
+ */
+const NOT_COMPARED = ["bom-ref"];
 
 /** The field of the records built above that holds each node's id (none of CycloneDX's own). */
 const SBOM_ID = "\u0000id";

@@ -3,6 +3,7 @@ import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LoadOptions } from "./load-options.js";
 import { limitExceeded } from "./node-sink.js";
 import { tableNotUtf8Notes } from "./not-utf8-note.js";
+import { keepingOtherFields, otherFields } from "./other-fields.js";
 import { fieldSizeUnit } from "./size-unit.js";
 import { checkWrittenIds } from "./table/check-written.js";
 import { inexactId } from "./table/inexact-id.js";
@@ -10,6 +11,7 @@ import { keptColumns, sizeOf } from "./table/link-table.js";
 import { idIsNullParent, missingParent, nearParentId, nullParentSet } from "./table/null-parent.js";
 import type { Cell, Table } from "./table/table.js";
 import { cellText as text } from "./table/table.js";
+import { valuesByParent } from "./table/values-by-parent.js";
 
 type Fields = Pick<
   LoadOptions,
@@ -22,6 +24,10 @@ type Fields = Pick<
   | "keepFields"
   | "rootName"
   | "maxNodes"
+  | "pathField"
+  | "childrenField"
+  | "optionalKeepFields"
+  | "keepOtherFields"
 >;
 
 /**
@@ -29,7 +35,10 @@ type Fields = Pick<
  * parent, and an id may repeat with other parents: the first row of an id gives the node's record
  * (name, size, kept fields); a later row of it may leave those cells empty or repeat them, and a
  * different value is DUPLICATE_ID, as is a row that repeats an id with the same parent. An empty parent
- * declares the node only. A parent no row has as its id is MISSING_PARENT. With a parent and a child
+ * declares the node only. A parent no row has as its id is MISSING_PARENT. With `keepOtherFields`, the
+ * other columns are kept too (a diff compares them); one of them, or a field kept where records have it
+ * (`optionalKeepFields`: a diff's `version`), whose cells differ between the rows of an id holds a value
+ * per edge, not DUPLICATE_ID (see valuesByParent). With a parent and a child
  * column instead (an edge table), each row is one edge and nodes come from the ids the rows name; the
  * name, size and kept columns then describe nothing and are not read (give node records separately).
  */
@@ -64,11 +73,18 @@ function linkGraph(table: Table, options: Fields, edgesOnly: boolean): GraphNode
   );
 }
 
-function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly Cell[], options: Fields) {
+function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly Cell[], given: Fields) {
   const rows = table.length;
+  const other = given.keepOtherFields === true ? (otherFields(table.columnNames(), given) ?? []) : [];
+  const options = keepingOtherFields(given, table.columnNames());
+  // The fields kept where records have them (a diff's `version` and other fields), which no option
+  // named: one whose cells differ between an id's rows is read per edge, as a summary reads it.
+  const unnamed = new Set(options.optionalKeepFields ?? []);
   const names = table.column(options.nameField);
   const sizes = table.column(options.sizeField);
   const kept = keptColumns(table, options);
+  // Other columns whose cells differ between the rows of one id.
+  const perEdge = new Set<string>();
   const nodeOf = new Map<string, number>();
   const ids: string[] = [];
   const name: string[] = [];
@@ -114,7 +130,10 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
       if (rowName !== "" && rowName !== name[node]) throw clash(options.nameField);
       if (hasSize && size !== ownSize[node]) throw clash(options.sizeField);
       for (const [key, values] of kept)
-        if (values[r] !== "" && values[r] !== fields.get(key)![node]) throw clash(key);
+        if (values[r] !== "" && values[r] !== fields.get(key)![node]) {
+          if (unnamed.has(key)) perEdge.add(key);
+          else throw clash(key);
+        }
     }
     nodeOfRow[r] = node;
   }
@@ -142,6 +161,8 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
     edgeOrigin[edges] = r + 1;
     edges++;
   }
+  const parentText = (r: number) => text(parentCells[r]);
+  for (const key of perEdge) valuesByParent(fields.get(key)!, kept.get(key)!, parentText, nodeOfRow);
   return {
     name,
     ids,
@@ -152,6 +173,7 @@ function linkRows(table: Table, idCells: readonly Cell[], parentCells: readonly 
     originIsRow: true,
     recordFields: table.columnNames(),
     fields,
+    ...(other.length > 0 ? { otherFields: other } : {}),
     rootName: options.rootName,
     edgeFrom: from,
     edgeTo: to,
@@ -215,7 +237,8 @@ function linkEdges(table: Table, parentCells: readonly Cell[], childCells: reado
 /**
  * Node records from a second table (an id column, and name, size and kept columns) laid over a graph's
  * nodes: a record's name (when not empty), size and fields become the node's. A record whose id no edge
- * names adds a node with no edge, after the others, in record order. A repeated record id is
+ * names adds a node with no edge, after the others, in record order. The records' fields replace the
+ * graph's own, their other columns its other fields (LoadOptions.keepOtherFields). A repeated record id is
  * DUPLICATE_ID; the positions name the records' rows.
  */
 export function withRecords(graph: GraphNodes, records: Table, options: Fields): GraphNodes {
@@ -227,7 +250,10 @@ export function withRecords(graph: GraphNodes, records: Table, options: Fields):
   }
 }
 
-function withRecordsOf(graph: GraphNodes, records: Table, options: Fields): GraphNodes {
+function withRecordsOf(graph: GraphNodes, records: Table, given: Fields): GraphNodes {
+  // The records' other columns kept too, when asked (a diff's versions: LoadOptions.keepOtherFields).
+  const other = given.keepOtherFields === true ? (otherFields(records.columnNames(), given) ?? []) : [];
+  const options = keepingOtherFields(given, records.columnNames());
   const idCells = records.column(options.idField);
   if (!idCells) {
     throw new EspalierError(
@@ -295,6 +321,8 @@ function withRecordsOf(graph: GraphNodes, records: Table, options: Fields): Grap
     sizeUnit: sizes !== undefined ? fieldSizeUnit(options.sizeField) : graph.sizeUnit,
     origin: Int32Array.from(origin),
     fields,
+    otherFields: other.length > 0 ? other : undefined,
+    otherFieldsLeft: undefined,
   };
 }
 

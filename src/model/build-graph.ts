@@ -258,6 +258,8 @@ export function buildGraphTree(graph: GraphNodes, file?: string): Tree {
       sizeUnit: graph.sizeUnit,
       ...(graph.notes && graph.notes.length > 0 ? { notes: graph.notes } : {}),
       ...(graph.startAt === undefined ? {} : { startAt: graph.startAt }),
+      ...(graph.otherFields === undefined ? {} : { otherFields: graph.otherFields }),
+      ...(graph.otherFieldsLeft === undefined ? {} : { otherFieldsLeft: graph.otherFieldsLeft }),
     },
     ...(hasReferences ? { referenceTo } : {}),
   };

@@ -38,6 +38,12 @@ export interface GraphNodes {
   recordFields?: readonly string[];
   /** Extra record fields kept for labels, one string per node. */
   fields: Map<string, string[]>;
+  /**
+   * Of `fields`, those kept as the records' other fields (LoadOptions.keepOtherFields), and those met
+   * past the most kept: the tree's `reading.otherFields` and `reading.otherFieldsLeft`.
+   */
+  otherFields?: readonly string[];
+  otherFieldsLeft?: TreeReading["otherFieldsLeft"];
   /** Name of the root espalier adds when there are several top-level nodes. */
   rootName: string;
   /** Edge k goes from node `edgeFrom[k]` (the parent) to node `edgeTo[k]` (the child). */

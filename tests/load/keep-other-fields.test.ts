@@ -210,6 +210,85 @@ describe("loadTree(text, { keepOtherFields }) keeps what a second read named the
   });
 });
 
+// Graphs: loadTree(text, { graph: true, keepOtherFields: true }) keeps, in the one read, the fields a
+// read naming them (keepFields) keeps, and lists them as reading.otherFields; on main's build a graph
+// kept none (a diff compared only `version`).
+
+/** The kept fields of one read keeping the other fields, and of a read naming the fields it listed. */
+function graphBothWays(text: string, given: Partial<LoadOptions>): { one: Kept; two: Kept } {
+  const one = loadTree(text, opts({ ...given, graph: true, keepOtherFields: true }));
+  const listed = [...(one.reading?.otherFields ?? [])];
+  const named = loadTree(
+    text,
+    opts({ ...given, graph: true, keepFields: listed, optionalKeepFields: listed }),
+  );
+  return { one: kept(one), two: { fields: kept(named).fields, listed } };
+}
+
+// Each node after the first under one or two earlier nodes (a shared node: its second row).
+const dag = fc
+  .integer({ min: 1, max: 10 })
+  .chain((n) =>
+    fc.tuple(
+      ...Array.from({ length: n }, (_, r) =>
+        r === 0
+          ? fc.constant([] as number[])
+          : fc.uniqueArray(fc.integer({ min: 0, max: r - 1 }), { minLength: 1, maxLength: 2 }),
+      ),
+    ),
+  );
+
+describe("loadTree(text, { graph, keepOtherFields }) keeps what a read naming them would", () => {
+  it("keeps a graph table's other columns, a shared node's record from its first row", () => {
+    fc.assert(
+      fc.property(
+        extraNames,
+        dag,
+        fc.array(csvCell, { minLength: 50, maxLength: 50 }),
+        (names, ps, cells) => {
+          const header = ["id", "parent", "name", ...names].map(quotedCsv).join(",");
+          const rows = ps.flatMap((parents, r) => {
+            const own = names.map((_, c) => cells[r * 5 + c]);
+            const first = [`s${r}`, r === 0 ? "" : `s${parents[0]}`, `n${r}`, ...own];
+            // A later row of the id leaves the cells empty.
+            const later = parents.slice(1).map((p) => [`s${r}`, `s${p}`, "", ...own.map(() => "")]);
+            return [first, ...later].map((row) => row.map(quotedCsv).join(","));
+          });
+          const { one, two } = graphBothWays(`${header}\n${rows.join("\n")}\n`, { format: "csv" });
+          expect(one).toEqual(two);
+          expect(one.listed).toEqual(names);
+        },
+      ),
+    );
+  });
+
+  it("keeps an adjacency map's record fields, nested values as their JSON text", () => {
+    fc.assert(
+      fc.property(extraNames, dag, recordValues, (names, ps, values) => {
+        const map: Record<string, Record<string, unknown>> = {};
+        ps.forEach((_, r) => {
+          map[`s${r}`] = { ...record(names, values, r), children: [] };
+        });
+        ps.forEach((parents, r) => {
+          for (const p of parents) (map[`s${p}`].children as string[]).push(`s${r}`);
+        });
+        const { one, two } = graphBothWays(JSON.stringify(map), { format: "json" });
+        expect(one).toEqual(two);
+        // Listed: the names some record holds, in the order first met.
+        const held = names.filter((f) => Object.values(map).some((rec) => Object.hasOwn(rec, f)));
+        expect([...one.listed].sort()).toEqual([...held].sort());
+      }),
+    );
+  });
+
+  it("keeps no field an edge table's rows hold: they describe edges", () => {
+    const text = "parent,child,since\nhub,api,2024\nhub,db,2025\napi,db,2026\n";
+    const tree = loadTree(text, opts({ format: "edges", keepOtherFields: true }));
+    expect([...tree.fields.keys()]).toEqual([]);
+    expect(tree.reading?.otherFields).toBeUndefined();
+  });
+});
+
 interface Shape {
   extra: [string, unknown][];
   children: Shape[];
