@@ -4,7 +4,7 @@ import { describe, expect, it } from "vitest";
 import { cli } from "../helpers/cli.js";
 
 // Field tests: JSON and YAML documents an old system wrote in Latin-1 (ISO/IEC 8859-1), made here from
-// UTF-8 ones by iconv (glibc). RFC 8259 section 8.1 wants JSON in UTF-8 and YAML 1.2 (section 5.2)
+// UTF-8 ones by iconv (glibc). RFC 8259 section 8.1 wants JSON in UTF-8 and YAML 1.2 (section 5.2, from memory)
 // reads UTF-8 or UTF-16; each Latin-1 byte above 0x7F reads as U+FFFD (WHATWG Encoding Standard, UTF-8
 // decoder). Path lists, tables and edge lists said so with UNDECODABLE_BYTES; a document printed
 // "caf\uFFFD" with no word, exit 0. Counts come from the UTF-8 original: JSON.parse (ECMA-262) for
@@ -73,6 +73,22 @@ describe.skipIf(!hasIconv)("documents whose bytes are not UTF-8", () => {
       ]);
       // The same document in UTF-8: no note, the same nodes and sizes.
       const clean = await cli(["-", "--input-format", "json", "--format", "json", ...args], { stdin: utf8 });
+      expect(JSON.parse(clean.stdout).input.notes).toBeUndefined();
+      expect(JSON.parse(clean.stdout).totals.nodes).toBe(JSON.parse(r.stdout).totals.nodes);
+    }
+  });
+
+  it("JSON read as a graph (an adjacency map, rows with --graph) says UNDECODABLE_BYTES counting lines", async () => {
+    const map = '{\n  "bakery": ["café", "pâtisserie"],\n  "pâtisserie": ["café"]\n}\n';
+    for (const utf8 of [map, rows]) {
+      const lines = utf8.split("\n").filter((l) => /[^\x00-\x7f]/.test(l)).length;
+      const first = utf8.split("\n").findIndex((l) => /[^\x00-\x7f]/.test(l)) + 1;
+      const r = await cli(["-", "--graph", "--format", "json"], { stdin: latin1(utf8) });
+      expect(r.code, r.stderr).toBe(0);
+      expect(JSON.parse(r.stdout).input.notes, utf8).toEqual([
+        expect.objectContaining({ code: "UNDECODABLE_BYTES", count: lines, line: first }),
+      ]);
+      const clean = await cli(["-", "--graph", "--format", "json"], { stdin: utf8 });
       expect(JSON.parse(clean.stdout).input.notes).toBeUndefined();
       expect(JSON.parse(clean.stdout).totals.nodes).toBe(JSON.parse(r.stdout).totals.nodes);
     }

@@ -4,6 +4,7 @@ import { buildGraphTree } from "../../model/build-graph.js";
 import { buildTree } from "../../model/build-tree.js";
 import type { GraphNodes } from "../../model/graph-nodes.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
+import type { ReadingNote } from "../../model/reading-note.js";
 import type { Tree } from "../../model/tree.js";
 import { noteApartFirstLine } from "../apart-first-line.js";
 import { byteLoader } from "../byte-loader.js";
@@ -146,8 +147,7 @@ async function linkedNodes(
     const { loadYaml } = await import("../load-yaml.js");
     const bytes = await wholeBytes(chunks, "YAML", limitsOf(options.limits).maxYamlBytes);
     const text = new TextDecoder("utf-8", { ignoreBOM: true }).decode(bytes);
-    const notUtf8 = documentNotUtf8Note(bytes);
-    return withNotes(loadYaml(text, options), notUtf8 ? [notUtf8] : []);
+    return withNotes(loadYaml(text, options), notUtf8Lines(bytes));
   }
   if (format === "edges") {
     const start = new TextDecoder("utf-8", { ignoreBOM: true }).decode(head);
@@ -169,7 +169,7 @@ async function linkedNodes(
     // A CycloneDX SBOM: read whole, as a JSON graph is, and read as its dependency graph when it has one.
     const bytes = await wholeBytes(chunks, "JSON", limitsOf(options.limits).maxJsonGraphBytes);
     const graph = jsonSbom(bytes, options);
-    if (graph) return graph;
+    if (graph) return withNotes(graph, notUtf8Lines(bytes));
     loader!.write(bytes);
     const linked = loader!.end();
     if (loader instanceof JsonLoader) seen.keptJson = loader.keptForLater;
@@ -179,7 +179,7 @@ async function linkedNodes(
   if ((format === "json" || format === "rows") && options.graph) {
     const bytes = await wholeBytes(chunks, "JSON", limitsOf(options.limits).maxJsonGraphBytes);
     const graph = jsonGraph(new TextDecoder("utf-8", { ignoreBOM: true }).decode(bytes), options, bytes);
-    if (graph) return graph;
+    if (graph) return withNotes(graph, notUtf8Lines(bytes));
     // No JSON: the JSON loader reads the same bytes and places the error.
     loader!.write(bytes);
     return loader!.end();
@@ -241,4 +241,10 @@ async function wholeBytes(
     }
   }
   return Buffer.concat(parts, length);
+}
+
+/** The UNDECODABLE_BYTES note of a document read whole (YAML, a JSON graph), as a list: none when its bytes are UTF-8. */
+function notUtf8Lines(bytes: Uint8Array): ReadingNote[] {
+  const note = documentNotUtf8Note(bytes);
+  return note ? [note] : [];
 }
