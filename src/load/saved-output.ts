@@ -93,7 +93,7 @@ function refuseOtherFormats(format: string): void {
   throw new EspalierError(
     "SHAPE",
     diff
-      ? `this is an espalier diff (${format}): the changes between two versions, not one tree, so it is not read as a tree; run espalier diff on the two inputs it compared (or on their saved summaries), or read its JSON text with --read-as values`
+      ? `this is an espalier diff (${format}): the changes between two versions, not one tree, so it is not read as a tree; run espalier diff on the two inputs it compared, or read its JSON text with --read-as values`
       : `this is espalier output in a format this version does not read (${format}; it reads ${SAVED_SUMMARY_FORMAT}); run espalier on the original input, or read its JSON text with --read-as values`,
     undefined,
     { format },
@@ -127,7 +127,10 @@ function startNode(doc: Record<string, unknown>, pointer: string | undefined): u
   for (let k = 1; at !== undefined && k < tokens.length; k += 2) {
     const list = isRecord(at) && tokens[k] === "children" ? at.children : undefined;
     const index = tokens[k + 1];
-    at = Array.isArray(list) && index !== undefined && /^(0|[1-9][0-9]*)$/.test(index) ? list[Number(index)] : undefined;
+    at =
+      Array.isArray(list) && index !== undefined && /^(0|[1-9][0-9]*)$/.test(index)
+        ? list[Number(index)]
+        : undefined;
   }
   if (at === undefined) {
     throw new EspalierError(
@@ -252,7 +255,8 @@ function savedNode(value: unknown): SavedNode & FoldMark {
   if (reference !== undefined || value.parents !== undefined) throw graphRefused();
   if (!isCount(nodes) || !isSize(size) || !Array.isArray(children))
     throw notValid(say`node ${quoted.path(path)} has no count of "nodes", "size" or "children" list`);
-  if (id !== undefined && typeof id !== "string") throw notValid(say`node ${quoted.path(path)} has an "id" that is no text`);
+  if (id !== undefined && typeof id !== "string")
+    throw notValid(say`node ${quoted.path(path)} has an "id" that is no text`);
   let folded: SavedNode["hidden"] = null;
   if (hidden !== null) {
     if (!isRecord(hidden) || !isCount(hidden.children) || !isCount(hidden.nodes) || !isSize(hidden.size))

@@ -40,7 +40,9 @@ const clauses: Readonly<Record<ReadingNoteCode, Clause>> = {
   UNIT_NOT_SAID: { said: () => "sizes read as bytes (no unit said)" },
   SAVED_VIEW: {
     said: (n) =>
-      n.count ? `saved view, ${n.count === 1 ? "1 fold read as one entry" : `${formatCount(n.count)} folds read as one entry each`}` : "saved view",
+      n.count
+        ? `saved view, ${n.count === 1 ? "1 fold read as one entry" : `${formatCount(n.count)} folds read as one entry each`}`
+        : "saved view",
   },
   UNDECODABLE_BYTES: {
     counted: ["entry not UTF-8, read with U+FFFD", "entries not UTF-8, read with U+FFFD"],
