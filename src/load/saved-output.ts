@@ -53,11 +53,12 @@ interface SavedNode {
 export function loadSavedOutput(text: string, format: string, options: LoadOptions): Tree {
   refuseOtherFormats(format);
   refuseOptions(options);
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
   let doc: unknown;
   try {
-    doc = JSON.parse(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text);
-  } catch {
-    throw notValid("it is not valid JSON (RFC 8259)");
+    doc = JSON.parse(body);
+  } catch (err) {
+    throw parseError(body, err);
   }
   if (!isRecord(doc)) throw notValid("it is not a JSON object");
   const totals = doc.totals;
@@ -320,6 +321,23 @@ function savedNote(folds: number): ReadingNote {
       "; --read-as values reads its JSON text instead",
     ],
   };
+}
+
+/**
+ * PARSE_JSON at the line and column (UTF-16 units, as the JSON loader counts them) JSON.parse names by
+ * its offset (a summary cut short in a CI log); at the end when it names none.
+ */
+function parseError(body: string, err: unknown): EspalierError {
+  const at = /at position (\d+)/.exec(err instanceof Error ? err.message : "");
+  const offset = at ? Math.min(Number(at[1]), body.length) : body.length;
+  const before = body.slice(0, offset);
+  const line = before.split("\n").length;
+  const column = offset - (before.lastIndexOf("\n") + 1) + 1;
+  return new EspalierError(
+    "PARSE_JSON",
+    `this espalier summary (${SAVED_SUMMARY_FORMAT}) is not valid JSON (RFC 8259)${at ? "" : ": it ends too soon"}; it may have been cut short or changed after espalier wrote it`,
+    { line, column },
+  );
 }
 
 function graphRefused(): EspalierError {

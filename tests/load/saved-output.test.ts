@@ -187,6 +187,17 @@ describe("espalier SAVED.json (a summary espalier wrote)", () => {
     expect(totals.stderr).toContain("[SHAPE]");
   });
 
+  it("is PARSE_JSON at its line when cut short (a CI log's copy), with nothing on standard output", async () => {
+    const { file } = await saved([...ORG, "--budget", "12"]);
+    const text = readFileSync(file, "utf8");
+    const cut = text.slice(0, text.indexOf('"root"') + 20);
+    const read = await cli([save(cut)]);
+    expect(read.code).toBe(2);
+    expect(read.stderr).toContain("[PARSE_JSON]");
+    expect(read.stderr).toContain(`:${cut.split("\n").length}:`);
+    expect(read.stdout).toBe("");
+  });
+
   it("is SHAPE for a format version it does not read", async () => {
     const { doc } = await saved([...ORG, "--budget", "12"]);
     const later = await cli([save(JSON.stringify({ ...doc, format: "espalier-summary/2" }))]);
