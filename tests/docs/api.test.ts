@@ -1,4 +1,7 @@
-import { readFileSync } from "node:fs";
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { join } from "node:path";
+import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 
 // docs/api.md describes the public API: every name src/index.ts exports stands at the start of a code
@@ -115,5 +118,34 @@ describe("docs/api.md and src/index.ts", () => {
     }
     expect(checked).toBeGreaterThan(30);
     expect([...new Set(missing)].sort()).toEqual([]);
+  });
+});
+
+describe("docs/api.md's example", () => {
+  it("runs as written from the project's folder, importing the package by its name, and prints two summaries", () => {
+    const page = read("docs/api.md").split("\n");
+    const open = page.indexOf("```js");
+    const close = page.indexOf("```", open + 1);
+    expect(open, "docs/api.md has a js example").toBeGreaterThan(0);
+    // A module in the project's folder: "espalier" resolves to the package itself (its "exports").
+    const dir = mkdtempSync(join(fileURLToPath(new URL("../../", import.meta.url)), ".api-example-"));
+    try {
+      const file = join(dir, "example.mjs");
+      writeFileSync(file, page.slice(open + 1, close).join("\n"));
+      const r = spawnSync(process.execPath, [file], {
+        cwd: fileURLToPath(new URL("../../", import.meta.url)),
+        encoding: "utf8",
+      });
+      expect(r.stderr).toBe("");
+      expect(r.status).toBe(0);
+      // Two foci, budget 20 each: each summary's tree lines start at the root's line.
+      const roots = r.stdout
+        .split("\n")
+        .filter((line) => /^[:.*] Rosa Istrian, Chief Executive Officer/.test(line));
+      expect(roots.length).toBe(2);
+      expect(r.stdout).toContain("Marit Okonkwo-Lund, Staff Firmware Engineer");
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });
