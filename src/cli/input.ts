@@ -328,6 +328,13 @@ export async function readFoci(
   lines.forEach((listed, k) => {
     if (listed !== "") foci.push({ listed, line: k + 1, file: displayName(focusFrom) });
   });
+  // An empty list is no error (a change list with no change), but a failed command before a pipe
+  // writes one too: the run goes on without foci from it, and says so.
+  if (foci.length === opts.focus.length)
+    io.stderr.write(
+      `espalier: warning: ${displayName(focusFrom)}: the focus list holds no path, so it adds no focus` +
+        `${focusFrom === "-" ? " (did the command before the pipe fail?)" : ""}\n`,
+    );
   return foci;
 }
 

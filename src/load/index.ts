@@ -138,11 +138,7 @@ function linkedNodes(
   }
   table.delimiter = format === "csv" ? "," : "\t";
   table.bytes = bytes;
-  const csv = csvTableFromBytes(
-    bytes,
-    table.delimiter,
-    options.graph ? edgeTableFields(options, true) : options,
-  );
+  const csv = csvTableFromBytes(bytes, table.delimiter, options.graph ? edgeTableFields(options) : options);
   try {
     return options.graph ? linkGraphTable(csv, options) : linkTable(csv, options);
   } finally {

@@ -81,6 +81,12 @@ export interface LineParts {
    * more of the name; absent otherwise.
    */
   countInFold?: true;
+  /**
+   * The fold hides no node, only references (graphs): where not even its count fits, it goes rather
+   * than print `(hidden)`, which on a line without a count would leave the count unknown; without it
+   * the line reads as the one node it is. Absent otherwise.
+   */
+  foldOnlyReferences?: true;
   /** A diff's `foldAllBelow` without how many changed (`(41 hidden)`), when that differs. */
   foldAllBelowBare?: string;
   /** The compact fold without how many children it holds, when it differs from `compactFold`. */
@@ -206,7 +212,7 @@ export interface LaidOutLine {
  *   8. the indentation is only the level in digits (`12 `), the labels cut down to two characters
  *      and `…`;
  *   9. the fold keeps only its sign (`(hidden)`: its count is the line's less its names and the
- *      lines below), then the labels are cut down to one character and `…`, then each to `…` alone
+ *      lines below; a graph's fold of references only goes instead, see `foldOnlyReferences`), then the labels are cut down to one character and `…`, then each to `…` alone
  *      (a chain's ` / ` kept), then the line's count goes, `?` standing in its place (a line without
  *      a count reads as one node), then the `?` goes.
  * A line that names one node and shows none below it (see `LineParts.countInFold`) leaves its count
@@ -270,7 +276,7 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
   const gone = p.countNumbers ? NUMBERS_GONE : "";
   const foldBare = p.foldBare ?? p.foldTiny;
   const compactFoldCounts = p.compactFoldCounts ?? p.compactFold;
-  const sign = p.fold ? FOLD_SIGN : "";
+  const sign = p.fold && !p.foldOnlyReferences ? FOLD_SIGN : "";
   const short = shortIndent(p.level, width);
   // The fold in fewer words, every number kept: `(41 hidden)`, with a size `(41 hidden, 2.0 MiB)`.
   const foldWords = p.foldShort === p.foldCounts ? p.foldTiny : (p.foldSized ?? p.foldCounts);

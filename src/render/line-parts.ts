@@ -86,6 +86,8 @@ export function lineParts<T extends ViewNode>(group: LineGroup<T>, options: Numb
           compactFoldSized: joined(`(${hiddenSized(group, last, compact)})`, parents),
         }
       : {}),
+    // A graph's fold of references only may go where its count does not fit (see `foldOnlyReferences`).
+    ...(last.hidden && last.hidden.nodes === 0 ? { foldOnlyReferences: true as const } : {}),
     // One name and all below it folded: its count is 1 + the fold's (see `countInFold`).
     ...(last.hidden && last.children.length === 0 && nodes.length === 1
       ? { countInFold: true as const }

@@ -199,7 +199,7 @@ async function linkedNodes(
   const table = await csvTableFromStream(
     chunks,
     seen.delimiter,
-    options.graph ? edgeTableFields(options, true) : options,
+    options.graph ? edgeTableFields(options) : options,
     options.graph
       ? {}
       : {
