@@ -19,6 +19,7 @@ import { withProgress } from "./progress.js";
 import { FOCI_BOUND, readInput } from "./read-input.js";
 import { readInputStream } from "./read-input-stream.js";
 import { notesText } from "./reading-notes.js";
+import { refuseSavedViews } from "./saved-views-compared.js";
 import {
   nestedReading,
   readAsOtherNote,
@@ -246,6 +247,7 @@ function sayVersionNotes(
   opts: SharedCliOptions,
 ): [Tree, Tree] {
   const files = [displayName(oldInput), displayName(newInput)] as const;
+  refuseSavedViews(read, files);
   const aligned = valueSized(sizedAlike(alignListings(read, files), files));
   // A diff's sizes are NEW's (none when either version has none): one note, on NEW.
   const trees: [Tree, Tree] = [
@@ -328,6 +330,13 @@ export async function readFoci(
   lines.forEach((listed, k) => {
     if (listed !== "") foci.push({ listed, line: k + 1, file: displayName(focusFrom) });
   });
+  // An empty list is no error (a change list with no change), but a failed command before a pipe
+  // writes one too: the run goes on without foci from it, and says so.
+  if (foci.length === opts.focus.length)
+    io.stderr.write(
+      `espalier: warning: ${displayName(focusFrom)}: the focus list holds no path, so it adds no focus` +
+        `${focusFrom === "-" ? " (did the command before the pipe fail?)" : ""}\n`,
+    );
   return foci;
 }
 

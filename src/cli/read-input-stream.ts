@@ -24,6 +24,13 @@ export async function readInputStream(io: CliIO, name: string): Promise<Streamed
     throw ioError(name, err);
   }
   const { start, chunks } = await peek(guarded(input.chunks, name), 2);
+  // Not one byte from a pipe: the command before it failed or found nothing, which its own error says.
+  if (name === "-" && start.length === 0)
+    throw new EspalierError(
+      "INPUT_EMPTY",
+      "nothing came on standard input: a command before the pipe that failed or found nothing writes nothing (its own error, if any, is above)",
+      { file: "<stdin>" },
+    );
   const encoding = unicodeEncoding(start);
   if (encoding === "utf-8") return { size: input.size, chunks };
   return { size: undefined, chunks: toUtf8(chunks, encoding) };

@@ -60,7 +60,9 @@ export interface ReadingNote {
  * `SBOM_DEPENDENCIES`: a CycloneDX document read as its dependency graph, not as its values
  * (load/cyclonedx.ts). `UNIT_NOT_SAID`: a path list whose sizes, which show no unit (one folder's
  * entries, or fewer than 8 sizes), were read as bytes; count: the entries, or the sizes
- * (load/path-list/unit-not-shown.ts, cli/input.ts).
+ * (load/path-list/unit-not-shown.ts, cli/input.ts). `SAVED_VIEW`: espalier's own summary JSON
+ * read as the view it holds, each fold one entry standing for what it hides; count: the folds
+ * (load/saved-output.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -82,6 +84,7 @@ export const readingNoteCodes = [
   "ABSOLUTE_AND_RELATIVE",
   "SBOM_DEPENDENCIES",
   "UNIT_NOT_SAID",
+  "SAVED_VIEW",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

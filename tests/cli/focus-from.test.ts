@@ -65,6 +65,21 @@ describe("espalier --focus-from with git's list of changed files", () => {
     expect(listing).not.toContain("gone.ts");
   });
 
+  it("an empty list (git diff of no change, or a failed command before the pipe) adds no focus and says so on stderr", async () => {
+    // What `git diff --name-only` prints for no change: nothing.
+    const r = await cli([at("files.paths"), "--focus-from", "-"], { stdin: "" });
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/^summary: .*; no focus; /);
+    expect(r.stderr).toMatch(/^espalier: warning: <stdin>: the focus list holds no path, .*\n$/);
+    // A --focus beside it is the focus; the list still says it added none.
+    const beside = await cli([at("files.paths"), "--focus", "ledger", "--focus-from", "-"], { stdin: "\n" });
+    expect(beside.stdout).toMatch(/^summary: .*; focus ledger; /);
+    expect(beside.stderr).toContain("the focus list holds no path");
+    // A list with a path says nothing.
+    const one = await cli([at("files.paths"), "--focus-from", "-"], { stdin: "ledger/src/main.ts\n" });
+    expect(one.stderr).toBe("");
+  });
+
   it("fails by default when a line matches nothing (a deleted file): FOCUS_NO_MATCH, exit 2", async () => {
     const r = await cli([at("files.paths"), "--focus-from", at("changed.txt")]);
     expect(r.code).toBe(2);

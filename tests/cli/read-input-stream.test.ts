@@ -63,6 +63,19 @@ describe("readInputStream", () => {
     }
   });
 
+  it("run(-) of a pipe that wrote nothing is INPUT_EMPTY saying so; one that wrote blanks is INPUT_EMPTY too", async () => {
+    const none = await cli(["-"], { stdin: "" });
+    expect(none.code).toBe(2);
+    expect(none.stdout).toBe("");
+    expect(none.stderr).toMatch(/^espalier: <stdin>: nothing came on standard input: .* \[INPUT_EMPTY\]\n$/);
+    // A diff's NEW on standard input likewise.
+    const diff = await cli(["diff", "fixtures/tidewater-deps.json", "-"], { stdin: "" });
+    expect(diff.stderr).toMatch(/^espalier: <stdin>: nothing came on standard input: .* \[INPUT_EMPTY\]\n$/);
+    const blank = await cli(["-"], { stdin: "\n\n" });
+    expect(blank.stderr).toMatch(/\[INPUT_EMPTY\]\n$/);
+    expect(blank.stderr).not.toMatch(/nothing came/);
+  });
+
   it("run(args) reports a read that fails midway as IO, with nothing on standard output", async () => {
     const failing = chunkedIO(4096, 3);
     expect(await run(ARGS, failing.io)).toBe(2);
