@@ -93,4 +93,14 @@ describe("link options on a graph that does not read them", () => {
       /^espalier: records\.json: the node records need an "id" column; .*\[FIELD_MISSING\]\n$/,
     );
   });
+
+  it("--nodes records that are not JSON (RFC 8259): PARSE_JSON at the line and column in the records' file", async () => {
+    // A bare word where a value belongs, on line 3 column 9; the engine's own JSON.parse gives no place.
+    const r = await cli(["-", "--input-format", "edges", "--nodes", "records.json"], {
+      stdin: pairs,
+      files: { "records.json": '[{"id": "ledger",\n  "size": 10},\n {"id": kelp-log}]' },
+    });
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/^espalier: records\.json:3:9: .*\[PARSE_JSON\]\n$/);
+  });
 });
