@@ -59,7 +59,9 @@ export interface ReadingNote {
  * trees side by side (load/path-list/mixed-starts.ts).
  * `SBOM_DEPENDENCIES`: a CycloneDX document read as its dependency graph, not as its values
  * (load/cyclonedx.ts). `UNIT_NOT_SAID`: a path list of one folder's entries whose sizes, which show no
- * unit, were read as bytes; count: the entries (cli/input.ts).
+ * unit, were read as bytes; count: the entries (cli/input.ts). `SAVED_VIEW`: espalier's own summary JSON
+ * read as the view it holds, each fold one entry standing for what it hides; count: the folds
+ * (load/saved-output.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -81,6 +83,7 @@ export const readingNoteCodes = [
   "ABSOLUTE_AND_RELATIVE",
   "SBOM_DEPENDENCIES",
   "UNIT_NOT_SAID",
+  "SAVED_VIEW",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

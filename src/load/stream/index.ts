@@ -27,6 +27,7 @@ import type { InputFormat, LoadOptions } from "../load-options.js";
 import { checkPathListOptions } from "../path-list/path-list-options.js";
 import { jsonGraphTooLong, limitsOf } from "../read-limits.js";
 import { checkReadingOptions } from "../reading-options.js";
+import { loadSavedOutput, readsAsSaved, savedOutputFormat } from "../saved-output.js";
 import { readSizeTotals } from "../size-totals.js";
 import { csvTableFromStream } from "../table/csv-table.js";
 import { type KeptTable, keptTables } from "../table/kept-table.js";
@@ -67,6 +68,13 @@ export async function loadTreeFromStream(
       const format = options.format ?? detectFormat(start.text, file, options);
       checkPathListOptions(format, options);
       checkShortRowsFormat(format, options);
+      // espalier's own summary JSON: read whole as the view it holds (saved-output.ts), told by its
+      // first member; a summary is as long as its budget, and JSON graphs' bound holds it.
+      const saved = format === "json" ? savedOutputFormat(start.text.slice(0, 4096)) : undefined;
+      if (readsAsSaved(saved, options)) {
+        const bytes = await wholeBytes(start.chunks, "JSON", limitsOf(options.limits).maxJsonGraphBytes);
+        return loadSavedOutput(new TextDecoder("utf-8", { ignoreBOM: true }).decode(bytes), saved!, options);
+      }
       const part = await partAtPointer(start, format, options);
       linked = readAtPointer(
         await linkedNodes(part.chunks, format, options, Buffer.from(part.text, "utf8"), table),
