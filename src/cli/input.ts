@@ -19,7 +19,6 @@ import { withProgress } from "./progress.js";
 import { FOCI_BOUND, readInput } from "./read-input.js";
 import { readInputStream } from "./read-input-stream.js";
 import { notesText } from "./reading-notes.js";
-import { refuseSavedViews } from "./saved-views-compared.js";
 import {
   nestedReading,
   readAsOtherNote,
@@ -247,7 +246,6 @@ function sayVersionNotes(
   opts: SharedCliOptions,
 ): [Tree, Tree] {
   const files = [displayName(oldInput), displayName(newInput)] as const;
-  refuseSavedViews(read, files);
   const aligned = valueSized(sizedAlike(alignListings(read, files), files));
   // A diff's sizes are NEW's (none when either version has none): one note, on NEW.
   const trees: [Tree, Tree] = [

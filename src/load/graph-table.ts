@@ -248,7 +248,10 @@ export function withRecords(graph: GraphNodes, records: Table, options: Fields):
   try {
     return withRecordsOf(graph, records, options);
   } catch (err) {
-    // At the record in the records' own file (its table's places name it).
+    // At the record in the records' own file (its table's places name it); a fault of the table as a
+    // whole (no id column) at its header, so it names the records' file, not the graph's.
+    if (err instanceof EspalierError && err.pos === undefined && records.place)
+      throw err.placed(records.place(0));
     throw placedAtRow(err, records.place);
   }
 }
