@@ -34,16 +34,12 @@ export function edgeTableDelimiter(
 
 /**
  * Load options for reading a graph table (`--graph`, or an edge table): its child column is read too
- * when there is one, and nothing limits rows here (a row is an edge; the graph counts its nodes). The
- * other columns (LoadOptions.keepOtherFields) are read only where rows may be nodes (`nodeRows`: a
- * table read with `--graph`, which may link ids to parents); an edge table's rows are edges, whose
- * other cells describe no node.
+ * when there is one, and nothing limits rows here (a row is an edge; the graph counts its nodes).
  */
-export function edgeTableFields(options: LoadOptions, nodeRows = false): LoadOptions {
+export function edgeTableFields(options: LoadOptions): LoadOptions {
   return {
     ...options,
     keepFields: [...options.keepFields, options.childField],
-    keepOtherFields: nodeRows && options.keepOtherFields === true,
     maxNodes: Number.POSITIVE_INFINITY,
   };
 }

@@ -2,6 +2,7 @@ import { EspalierError, placedAtRow, quoted, quotedList, say } from "../errors.j
 import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LoadOptions } from "./load-options.js";
 import { limitExceeded } from "./node-sink.js";
+import { tableNotUtf8Notes } from "./not-utf8-note.js";
 import { keepingOtherFields, otherFields } from "./other-fields.js";
 import { fieldSizeUnit } from "./size-unit.js";
 import { checkWrittenIds } from "./table/check-written.js";
@@ -39,12 +40,16 @@ type Fields = Pick<
  * (`optionalKeepFields`: a diff's `version`), whose cells differ between the rows of an id holds a value
  * per edge, not DUPLICATE_ID (see valuesByParent). With a parent and a child
  * column instead (an edge table), each row is one edge and nodes come from the ids the rows name; the
- * name, size and kept columns then describe nothing and are not read (give node records separately).
+ * name, size and kept columns then describe nothing and are not read (give node records separately),
+ * but with `keepOtherFields` the other columns are kept as the cells of each node's edges in, by
+ * parent (see {@link edgeCells}), so that a diff compares them.
  */
 export function linkGraphTable(table: Table, options: Fields, edgesOnly = false): GraphNodes {
   try {
     const graph = linkGraph(table, options, edgesOnly);
     if (table.place) graph.placeRow = table.place;
+    const notUtf8 = tableNotUtf8Notes(table);
+    if (notUtf8.length > 0) graph.notes = [...(graph.notes ?? []), ...notUtf8];
     return graph;
   } catch (err) {
     throw placedAtRow(err, table.place);
@@ -62,7 +67,7 @@ function linkGraph(table: Table, options: Fields, edgesOnly: boolean): GraphNode
   const children = table.column(options.childField);
   if (parents && children) {
     checkWrittenIds(table, [options.parentField, options.childField]);
-    return linkEdges(table, parents, children, options);
+    return edgeCells(linkEdges(table, parents, children, options), table, options);
   }
   throw new EspalierError(
     "FIELD_MISSING",
@@ -235,14 +240,18 @@ function linkEdges(table: Table, parentCells: readonly Cell[], childCells: reado
  * Node records from a second table (an id column, and name, size and kept columns) laid over a graph's
  * nodes: a record's name (when not empty), size and fields become the node's. A record whose id no edge
  * names adds a node with no edge, after the others, in record order. The records' fields replace the
- * graph's own, their other columns its other fields (LoadOptions.keepOtherFields). A repeated record id is
+ * graph's own but its other fields (an edge table's cells by edge, LoadOptions.keepOtherFields), and
+ * their other columns are other fields too. A repeated record id is
  * DUPLICATE_ID; the positions name the records' rows.
  */
 export function withRecords(graph: GraphNodes, records: Table, options: Fields): GraphNodes {
   try {
     return withRecordsOf(graph, records, options);
   } catch (err) {
-    // At the record in the records' own file (its table's places name it).
+    // At the record in the records' own file (its table's places name it); a fault of the table as a
+    // whole (no id column) at its header, so it names the records' file, not the graph's.
+    if (err instanceof EspalierError && err.pos === undefined && records.place)
+      throw err.placed(records.place(0));
     throw placedAtRow(err, records.place);
   }
 }
@@ -317,12 +326,73 @@ function withRecordsOf(graph: GraphNodes, records: Table, given: Fields): GraphN
     recordFields: [...new Set([...(graph.recordFields ?? []), ...records.columnNames()])],
     sizeUnit: sizes !== undefined ? fieldSizeUnit(options.sizeField) : graph.sizeUnit,
     origin: Int32Array.from(origin),
-    fields,
-    otherFields: other.length > 0 ? other : undefined,
-    otherFieldsLeft: undefined,
+    ...withGraphOthers(graph, fields, other, idList.length),
   };
 }
 
 function get(names: GraphNodes["name"], i: number): string {
   return Array.isArray(names) ? (names as string[])[i] : (names as { get(i: number): string }).get(i);
+}
+
+/**
+ * An edge table's other columns (LoadOptions.keepOtherFields) kept by node: each cell describes its
+ * row's edge, so a node's value is the cell of its edge in, or, where its edges in hold different
+ * cells (an empty one too), those cells by parent id (valuesByParent); a node no edge enters holds
+ * nothing. A diff then
+ * sees a cell changed on any edge as an edit of the edge's child. The graph unchanged without them.
+ */
+function edgeCells(graph: GraphNodes, table: Table, options: Fields): GraphNodes {
+  if (options.keepOtherFields !== true) return graph;
+  const read = [options.parentField, options.childField];
+  const other = (otherFields(table.columnNames(), options) ?? []).filter((f) => !read.includes(f));
+  if (other.length === 0) return graph;
+  const n = graph.origin.length;
+  const child = graph.edgeTo.subarray(0, graph.edgeCount);
+  const parentOf = (r: number) => get(graph.ids, graph.edgeFrom[r]);
+  const fields = new Map<string, string[]>();
+  for (const field of other) {
+    const cells = table.keptText ? table.keptText(field) : table.column(field)?.map(text);
+    if (cells === undefined) continue;
+    const values = new Array<string>(n).fill("");
+    const seen = new Uint8Array(n);
+    for (let r = 0; r < child.length; r++)
+      if (seen[child[r]] === 0) {
+        seen[child[r]] = 1;
+        values[child[r]] = cells[r];
+      }
+    // An empty cell is its edge's own (no value), not a repeat of another edge's.
+    valuesByParent(values, cells, parentOf, child, false);
+    fields.set(field, values);
+  }
+  return { ...graph, fields, otherFields: [...fields.keys()] };
+}
+
+/**
+ * The fields of a graph with node records: the records' (`fields`, their other columns `other`), and
+ * the graph's own other fields that the records do not hold, each padded with nothing for the nodes
+ * the records added (up to `n`).
+ */
+function withGraphOthers(
+  graph: GraphNodes,
+  fields: Map<string, string[]>,
+  other: readonly string[],
+  n: number,
+): Pick<GraphNodes, "fields" | "otherFields" | "otherFieldsLeft"> {
+  const all = new Map(fields);
+  const others = [...other];
+  for (const field of graph.otherFields ?? []) {
+    const values = graph.fields.get(field);
+    if (values === undefined || all.has(field)) continue;
+    const column = values.slice(0, n);
+    while (column.length < n) column.push("");
+    all.set(field, column);
+    others.push(field);
+  }
+  return {
+    fields: all,
+    otherFields: others.length > 0 ? others : undefined,
+    otherFieldsLeft: graph.otherFieldsLeft?.names.some((f) => !all.has(f))
+      ? graph.otherFieldsLeft
+      : undefined,
+  };
 }

@@ -26,6 +26,7 @@ import { loadYaml } from "./load-yaml.js";
 import { checkPathListOptions } from "./path-list/path-list-options.js";
 import { jsonGraphTooLong, limitsOf } from "./read-limits.js";
 import { checkReadingOptions } from "./reading-options.js";
+import { loadSavedOutput, readsAsSaved, savedOutputFormat } from "./saved-output.js";
 import { readSizeTotals } from "./size-totals.js";
 import { csvTableFromBytes } from "./table/csv-table.js";
 import { linkTable } from "./table/link-table.js";
@@ -53,6 +54,9 @@ export function loadTree(text: string, options: LoadOptions): Tree {
     const format = options.format ?? detectFormat(body, file, options);
     checkPathListOptions(format, options);
     checkShortRowsFormat(format, options);
+    // espalier's own summary JSON: read as the view it holds (saved-output.ts), told by its first member.
+    const saved = format === "json" ? savedOutputFormat(body.slice(0, 4096)) : undefined;
+    if (readsAsSaved(saved, options)) return loadSavedOutput(body, saved!, options);
     const nodes = readAtPointer(
       linkedNodes(partAtPointer(body, format, options), format, options, table),
       options,
@@ -134,11 +138,7 @@ function linkedNodes(
   }
   table.delimiter = format === "csv" ? "," : "\t";
   table.bytes = bytes;
-  const csv = csvTableFromBytes(
-    bytes,
-    table.delimiter,
-    options.graph ? edgeTableFields(options, true) : options,
-  );
+  const csv = csvTableFromBytes(bytes, table.delimiter, options.graph ? edgeTableFields(options) : options);
   try {
     return options.graph ? linkGraphTable(csv, options) : linkTable(csv, options);
   } finally {

@@ -38,6 +38,12 @@ const clauses: Readonly<Record<ReadingNoteCode, Clause>> = {
   },
   ABSOLUTE_AND_RELATIVE: { said: () => "absolute and relative paths read as two trees" },
   UNIT_NOT_SAID: { said: () => "sizes read as bytes (no unit said)" },
+  SAVED_VIEW: {
+    said: (n) =>
+      n.count
+        ? `saved view, ${n.count === 1 ? "1 fold read as one entry" : `${formatCount(n.count)} folds read as one entry each`}`
+        : "saved view",
+  },
   UNDECODABLE_BYTES: {
     counted: ["entry not UTF-8, read with U+FFFD", "entries not UTF-8, read with U+FFFD"],
   },

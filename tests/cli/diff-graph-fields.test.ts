@@ -192,6 +192,19 @@ describe("espalier diff OLD NEW --graph of graph tables compares their other col
     expect(named.stderr).toContain("[DUPLICATE_ID]");
   });
 
+  it("compares an edge table's other columns as the cells of each node's edges in", async () => {
+    const edges = (since: string) =>
+      `parent,child,since\ndispatch,billing-api,2024\ndispatch,route-svc,2025\nbilling-api,quay-cache,2024\nroute-svc,quay-cache,${since}\n`;
+    // main's build read no column of an edge table but parent and child: "0 edited (no field compared)".
+    const r = await diff(edges("2026"), edges(""), "csv", "--input-format", "edges");
+    expect(r.code).toBe(1);
+    expect(head(r.stdout)).toContain("1 edited (compared: since)");
+    expect(r.stdout).toContain(
+      '[edited since {"billing-api":"2024","route-svc":"2026"} -> {"billing-api":"2024","route-svc":""}] quay-cache',
+    );
+    expect((await diff(edges("2026"), edges("2026"), "csv", "--input-format", "edges")).code).toBe(0);
+  });
+
   it("still refuses a label's column whose cells differ between an id's rows (DUPLICATE_ID)", async () => {
     const r = await cli(["services.csv", "--graph", "--label", "{name} {access}"], {
       files: { "services.csv": services("1.4") },

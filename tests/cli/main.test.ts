@@ -12,7 +12,8 @@ const FILES = "fixtures/tidewater-files.paths";
 describe("espalier <input> (summary)", () => {
   it("summarises a path list from standard input within the budget", async () => {
     const stdin = "10\ta/x\n20\ta/y\n5\tb/z\n";
-    const r = await cli(["-", "--focus", "a/x", "--budget", "4"], { stdin });
+    // Three sizes two folders down say no unit (UNIT_NOT_SAID on standard error): --units bytes says it.
+    const r = await cli(["-", "--focus", "a/x", "--budget", "4", "--units", "bytes"], { stdin });
     expect(r.code).toBe(0);
     expect(r.stderr).toBe("");
     expect(r.stdout.trimEnd().split("\n")).toHaveLength(4);

@@ -281,11 +281,17 @@ describe("loadTree(text, { graph, keepOtherFields }) keeps what a read naming th
     );
   });
 
-  it("keeps no field an edge table's rows hold: they describe edges", () => {
-    const text = "parent,child,since\nhub,api,2024\nhub,db,2025\napi,db,2026\n";
+  it("keeps an edge table's other columns by each node's edges in, by parent where they differ", () => {
+    // parent,child,since: db has one edge in, cache two with different cells, hub none.
+    const text = "parent,child,since\nhub,api,2024\nhub,db,\napi,cache,2024\ndb,cache,2026\n";
     const tree = loadTree(text, opts({ format: "edges", keepOtherFields: true }));
-    expect([...tree.fields.keys()]).toEqual([]);
-    expect(tree.reading?.otherFields).toBeUndefined();
+    expect(tree.reading?.otherFields).toEqual(["since"]);
+    const since = tree.fields.get("since")!;
+    const at = (name: string) =>
+      since[[...Array(tree.length).keys()].find((i) => tree.name.get(i) === name)!];
+    expect(["hub", "api", "db", "cache"].map(at)).toEqual(["", "2024", "", '{"api":"2024","db":"2026"}']);
+    // Without keepOtherFields (a summary), none.
+    expect([...loadTree(text, opts({ format: "edges" })).fields.keys()]).toEqual([]);
   });
 });
 

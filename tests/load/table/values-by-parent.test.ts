@@ -29,6 +29,13 @@ describe("valuesByParent(values, cells, parentOf, nodeOfRow)", () => {
     expect(valuesOf(["", "rw", "rw", "ro", ""])[3]).toBe("ro");
   });
 
+  it("with emptyRepeats false (an edge's own cell), tells an empty later cell from the first's", () => {
+    const cells = ["", "rw", "rw", "ro", ""];
+    const values = ["", "rw", "rw", "ro"];
+    valuesByParent(values, cells, (r) => parents[r], nodeOfRow, false);
+    expect(values[3]).toBe('{"billing-api":"","route-svc":"ro"}');
+  });
+
   it("tells a cell written only on a later row from none, and escapes as JSON writes strings", () => {
     expect(valuesOf(["", "", "", "", 'say "hi"'])[3]).toBe('{"billing-api":"say \\"hi\\"","route-svc":""}');
   });

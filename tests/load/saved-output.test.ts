@@ -1,0 +1,271 @@
+import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import Ajv2020 from "ajv/dist/2020.js";
+import { describe, expect, it } from "vitest";
+import { FOLD_NAME, SAVED_SUMMARY_FORMAT, savedOutputFormat } from "../../src/load/saved-output.js";
+import { SUMMARY_FORMAT } from "../../src/render/summary-schema.js";
+import { cli } from "../helpers/cli.js";
+import { leakedNames } from "../helpers/leaked-names.js";
+
+// The fixtures are an invented scenario: Quillfeather's org chart (a fictional company) and the
+// Tidewater monorepo's file listing.
+const org = (file: string) => new URL(`../../fixtures/${file}`, import.meta.url).pathname;
+const ORG = ["fixtures/quillfeather-org.csv", "--parent-field", "manager", "--size-field", "cost"];
+const FILES = ["fixtures/tidewater-files.paths"];
+
+// Validated with Ajv 8.20.0, a general-purpose JSON Schema (draft 2020-12) validator from the registry,
+// against the schema espalier publishes (docs/summary.schema.json).
+const schema = JSON.parse(readFileSync(new URL("../../docs/summary.schema.json", import.meta.url), "utf8"));
+const validate = new Ajv2020.default({ allErrors: true }).compile(schema);
+
+interface Node {
+  name: string;
+  path: string;
+  nodes: number;
+  size: number;
+  children: Node[];
+  hidden: { children: number; nodes: number; size: number } | null;
+}
+
+const dir = mkdtempSync(join(tmpdir(), "saved-output-"));
+let written = 0;
+function save(text: string): string {
+  const file = join(dir, `saved-${++written}.json`);
+  writeFileSync(file, text);
+  return file;
+}
+
+/** A summary the CLI writes, saved to a file, and the document. */
+async function saved(
+  args: string[],
+): Promise<{ file: string; doc: { totals: Node; root: Node } & Record<string, unknown> }> {
+  const made = await cli([...args, "--format", "json"]);
+  expect(made.code, made.stderr).toBe(0);
+  return { file: save(made.stdout), doc: JSON.parse(made.stdout) };
+}
+
+function* walk(node: Node): Generator<Node> {
+  const stack = [node];
+  while (stack.length > 0) {
+    const n = stack.pop()!;
+    yield n;
+    stack.push(...n.children);
+  }
+}
+
+/**
+ * Every node's count adds up: nodes = 1 + shown children + folded, size likewise (docs/selection.md
+ * rule 5); but a saved fold's entry, a leaf that stands for the nodes and size the fold hid
+ * (docs/input.md).
+ */
+function addsUp(root: Node): void {
+  for (const n of walk(root)) {
+    if (n.name === FOLD_NAME) {
+      expect(n.children, n.path).toEqual([]);
+      expect(n.hidden, n.path).toBeNull();
+      continue;
+    }
+    const nodes = 1 + n.children.reduce((s, c) => s + c.nodes, 0) + (n.hidden?.nodes ?? 0);
+    expect(n.nodes, n.path).toBe(nodes);
+    const inside = n.children.reduce((s, c) => s + c.size, 0) + (n.hidden?.size ?? 0);
+    expect(n.size, n.path).toBeGreaterThanOrEqual(inside);
+  }
+}
+
+describe("savedOutputFormat(head)", () => {
+  it("reads the format espalier writes as its first member, and the summary format is the one read back", () => {
+    expect(SAVED_SUMMARY_FORMAT).toBe(SUMMARY_FORMAT);
+    expect(savedOutputFormat('{\n  "format": "espalier-summary/1",\n  "budget": 4')).toBe(
+      "espalier-summary/1",
+    );
+    expect(savedOutputFormat('\uFEFF { "format" : "espalier-diff/1" }')).toBe("espalier-diff/1");
+    // Another first member, or another program's format: not espalier's output.
+    expect(savedOutputFormat('{ "name": "x", "format": "espalier-summary/1" }')).toBeUndefined();
+    expect(savedOutputFormat('{ "format": "tarball/3" }')).toBeUndefined();
+    expect(savedOutputFormat('[{ "format": "espalier-summary/1" }]')).toBeUndefined();
+  });
+});
+
+describe("espalier SAVED.json (a summary espalier wrote)", () => {
+  for (const [what, args] of [
+    ["an org chart", ORG],
+    ["a file listing", FILES],
+  ] as const) {
+    it(`reads ${what}'s saved view with the saved totals, every node's count and size, and each fold as one entry`, async () => {
+      const { file, doc } = await saved([
+        ...args,
+        "--budget",
+        "24",
+        "--focus",
+        args === ORG ? "Q2417" : "data/tide-tables/gull-rock",
+      ]);
+      const again = await cli([file, "--budget", "200", "--format", "json"]);
+      expect(again.code, again.stderr).toBe(0);
+      const back = JSON.parse(again.stdout);
+      expect(validate(back), JSON.stringify(validate.errors)).toBe(true);
+      expect(back.totals).toEqual(doc.totals);
+      expect(back.input.notes.map((n: { code: string }) => n.code)).toContain("SAVED_VIEW");
+      addsUp(back.root);
+      // Everything the saved view showed is shown (the budget holds it all), with its own totals; each
+      // fold is one leaf named so, standing for the fold's nodes and size.
+      const shown = new Map([...walk(back.root)].map((n) => [n.path, n]));
+      let folds = 0;
+      for (const n of walk(doc.root)) {
+        expect(shown.get(n.path), n.path).toMatchObject({ nodes: n.nodes, size: n.size });
+        if (n.hidden === null) continue;
+        folds++;
+        const entry = shown.get(n.path === "" ? FOLD_NAME : `${n.path}/${FOLD_NAME}`);
+        expect(entry, n.path).toMatchObject({ nodes: n.hidden.nodes, size: n.hidden.size, children: [] });
+      }
+      expect(folds).toBeGreaterThan(0);
+    });
+  }
+
+  it("keeps the saved totals at any budget, the folds' entries folded again", async () => {
+    const { file, doc } = await saved([...FILES, "--budget", "40"]);
+    for (const budget of ["4", "9", "25"]) {
+      const again = await cli([file, "--budget", budget, "--format", "json"]);
+      expect(again.code, again.stderr).toBe(0);
+      const back = JSON.parse(again.stdout);
+      expect(validate(back), JSON.stringify(validate.errors)).toBe(true);
+      expect(back.totals).toEqual(doc.totals);
+      addsUp(back.root);
+    }
+    const text = await cli([file, "--budget", "12"]);
+    expect(text.code, text.stderr).toBe(0);
+    expect(text.stdout).toContain(`${doc.totals.nodes.toLocaleString("en-US")} nodes`);
+  });
+
+  it("starts at a shown node with --start-at /root/children/N, with that node's totals", async () => {
+    const { file, doc } = await saved([...FILES, "--budget", "20"]);
+    const child = doc.root.children[0];
+    const whole = await cli([file, "--start-at", "/root", "--format", "json"]);
+    expect(JSON.parse(whole.stdout).totals).toEqual(doc.totals);
+    const part = await cli([file, "--start-at", "/root/children/0", "--format", "json"]);
+    expect(part.code, part.stderr).toBe(0);
+    expect(JSON.parse(part.stdout).totals).toEqual({ nodes: child.nodes, size: child.size });
+    for (const pointer of ["/root/hidden", "/totals", "/root/children/99"]) {
+      const bad = await cli([file, "--start-at", pointer]);
+      expect(bad.code).toBe(2);
+      expect(bad.stderr).toContain("[USAGE]");
+      expect(bad.stdout).toBe("");
+    }
+  });
+
+  it("reads the same with --read-as nodes, and its JSON text with --read-as values", async () => {
+    const { file, doc } = await saved([...ORG, "--budget", "12"]);
+    const nodes = await cli([file, "--read-as", "nodes", "--format", "json"]);
+    expect(JSON.parse(nodes.stdout).totals).toEqual(doc.totals);
+    const values = await cli([file, "--read-as", "values", "--format", "json"]);
+    expect(values.code, values.stderr).toBe(0);
+    expect(JSON.parse(values.stdout).input.shape).toBe("values");
+  });
+
+  it("prints no name of the saved org chart under --pseudonymize", async () => {
+    const { file, doc } = await saved([...ORG, "--budget", "30"]);
+    const names = [...walk(doc.root)].map((n) => n.name);
+    const hidden = await cli([file, "--pseudonymize", "--budget", "30"], {
+      env: { ESPALIER_PSEUDONYM_KEY: "saved-output-test" },
+    });
+    expect(hidden.code, hidden.stderr).toBe(0);
+    expect(leakedNames(hidden.stdout + hidden.stderr, names)).toEqual([]);
+  });
+
+  it("is SHAPE when its counts were changed after espalier wrote it (no other totals are read)", async () => {
+    const { doc } = await saved([...FILES, "--budget", "12"]);
+    const child = doc.root.children[0];
+    child.nodes += 1;
+    const changed = await cli([save(JSON.stringify(doc)), "--format", "json"]);
+    expect(changed.code).toBe(2);
+    expect(changed.stderr).toContain("[SHAPE]");
+    expect(changed.stdout).toBe("");
+    child.nodes -= 1;
+    (doc.totals as unknown as { size: number }).size += 1;
+    const totals = await cli([save(JSON.stringify(doc))]);
+    expect(totals.code).toBe(2);
+    expect(totals.stderr).toContain("[SHAPE]");
+  });
+
+  it("is PARSE_JSON at its line when cut short (a CI log's copy), with nothing on standard output", async () => {
+    const { file } = await saved([...ORG, "--budget", "12"]);
+    const text = readFileSync(file, "utf8");
+    const cut = text.slice(0, text.indexOf('"root"') + 20);
+    const read = await cli([save(cut)]);
+    expect(read.code).toBe(2);
+    expect(read.stderr).toContain("[PARSE_JSON]");
+    expect(read.stderr).toContain(`:${cut.split("\n").length}:`);
+    expect(read.stdout).toBe("");
+  });
+
+  it("is SHAPE for a format version it does not read", async () => {
+    const { doc } = await saved([...ORG, "--budget", "12"]);
+    const later = await cli([save(JSON.stringify({ ...doc, format: "espalier-summary/2" }))]);
+    expect(later.code).toBe(2);
+    expect(later.stderr).toContain("[SHAPE]");
+  });
+});
+
+describe("espalier diff and saved outputs", () => {
+  it("is SHAPE for a saved diff read as a tree, and reads its JSON text with --read-as values", async () => {
+    const made = await cli([
+      "diff",
+      org("quillfeather-org.csv"),
+      org("quillfeather-org.csv"),
+      "--parent-field",
+      "manager",
+      "--format",
+      "json",
+    ]);
+    expect(made.code, made.stderr).toBe(0);
+    const file = save(made.stdout);
+    const read = await cli([file]);
+    expect(read.code).toBe(2);
+    expect(read.stderr).toContain("[SHAPE]");
+    expect(read.stdout).toBe("");
+    const values = await cli([file, "--read-as", "values"]);
+    expect(values.code, values.stderr).toBe(0);
+  });
+
+  // Validated with Ajv 8.20.0 against the diff schema espalier publishes (docs/diff.schema.json).
+  const diffSchema = JSON.parse(
+    readFileSync(new URL("../../docs/diff.schema.json", import.meta.url), "utf8"),
+  );
+  const validateDiff = new Ajv2020.default({ allErrors: true }).compile(diffSchema);
+
+  it("compares two saved summaries with their saved totals, each fold counted as the nodes it stands for", async () => {
+    const a = await saved([...FILES, "--budget", "12"]);
+    const b = await saved([...FILES, "--budget", "16"]);
+    const diff = await cli(["diff", a.file, b.file, "--budget", "200", "--format", "json"]);
+    expect(diff.code, diff.stderr).toBe(0);
+    const doc = JSON.parse(diff.stdout);
+    expect(validateDiff(doc), JSON.stringify(validateDiff.errors)).toBe(true);
+    expect(doc.totals.old).toEqual(a.doc.totals);
+    expect(doc.totals.new).toEqual(b.doc.totals);
+    // The lines count NEW's nodes and the removed ones: the removed count is in nodes too.
+    expect(doc.totals.nodes).toBe(doc.totals.new.nodes + doc.changes.removed);
+    expect(doc.notes.map((n: { code: string }) => n.code)).toEqual(["SAVED_VIEW", "SAVED_VIEW"]);
+    addsUp(doc.root);
+  });
+
+  it("says a fold changed when what it hid did: edited by its folded field, its size net", async () => {
+    const listing = readFileSync(org("tidewater-files.paths"), "utf8");
+    // The same file name, so the two roots are named alike.
+    const later = join(mkdtempSync(join(dir, "later-")), "tidewater-files.paths");
+    writeFileSync(later, `${listing.trimEnd()}\n100\t./data/tide-tables/gull-rock/spring-tides.csv\n`);
+    const a = await saved([...FILES, "--budget", "10"]);
+    const b = await saved([later, "--budget", "10"]);
+    expect(b.doc.totals).toEqual({ nodes: a.doc.totals.nodes + 1, size: a.doc.totals.size + 100 });
+    const diff = await cli(["diff", a.file, b.file, "--budget", "200", "--format", "json"]);
+    expect(diff.code, diff.stderr).toBe(0);
+    const doc = JSON.parse(diff.stdout);
+    expect(validateDiff(doc), JSON.stringify(validateDiff.errors)).toBe(true);
+    expect(doc.totals.delta).toBe(100);
+    expect(doc.changes).toMatchObject({ added: 0, removed: 0, edited: 1 });
+    const edited = [...walk(doc.root)].filter((n) => (n as { change?: string }).change === "edited");
+    expect(edited.map((n) => n.name)).toEqual([FOLD_NAME]);
+    expect((edited[0] as unknown as { edits: { field: string }[] }).edits.map((e) => e.field)).toEqual([
+      "folded",
+    ]);
+  });
+});
