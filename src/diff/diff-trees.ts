@@ -19,6 +19,7 @@ import { type Matching, matchTreesListing } from "./match.js";
 import { type ChangeMeasures, changesIn, measureChanges, netIn } from "./measure-changes.js";
 import { withPathIds } from "./path-ids.js";
 import { type DiffTotals, PreparedDiff } from "./prepared-diff.js";
+import { checkSavedViewsApart } from "./saved-views-apart.js";
 import { subtreeCounts } from "./subtree-counts.js";
 
 /** The options of one summary of a diff (the same as a tree's, see {@link SummaryOptions}). */
@@ -58,6 +59,7 @@ export interface CompareOptions {
 
 /** match → combine → measure: what a diff's summaries share, whatever their foci. */
 export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOptions = {}): PreparedDiff {
+  checkSavedViewsApart(oldInput, newInput);
   const graph = isGraphDiff(oldInput, newInput);
   const [oldTree, newTree] = graph ? alignGraphRoots(oldInput, newInput) : alignRoots(oldInput, newInput);
   const fields = compare.compareFields ?? [];

@@ -247,9 +247,38 @@ describe("espalier diff and saved outputs", () => {
   );
   const validateDiff = new Ajv2020.default({ allErrors: true }).compile(diffSchema);
 
-  it("compares two saved summaries with their saved totals, each fold counted as the nodes it stands for", async () => {
+  it("refuses two views that fold different nodes: a node one shows may be in the other's fold", async () => {
+    // One tree saved at two budgets: the bigger view shows nodes the smaller folds. Counting them added
+    // (as a first version did, exit 1 under --fail-on-change) is a change no one made.
     const a = await saved([...FILES, "--budget", "12"]);
     const b = await saved([...FILES, "--budget", "16"]);
+    for (const [old, now, shown] of [
+      [a.file, b.file, "NEW"],
+      [b.file, a.file, "OLD"],
+    ]) {
+      const diff = await cli(["diff", old, now, "--fail-on-change"]);
+      expect(diff.code, diff.stderr).toBe(2);
+      expect(diff.stdout).toBe("");
+      expect(diff.stderr).toContain("[SHAPE]");
+      expect(diff.stderr).toContain(`${shown} shows "`);
+      expect(diff.stderr).toContain("diff the original inputs");
+    }
+    // Against the original input too: its nodes under a folded parent cannot be told from the fold's.
+    const original = await cli(["diff", a.file, ...FILES]);
+    expect(original.code, original.stderr).toBe(2);
+    expect(original.stderr).toContain("[SHAPE]");
+  });
+
+  it("compares two saved summaries with their saved totals, each fold counted as the nodes it stands for", async () => {
+    const listing = readFileSync(org("tidewater-files.paths"), "utf8");
+    // The same file name, so the two roots are named alike; a file removed deep in a folded folder.
+    const later = join(mkdtempSync(join(dir, "fewer-")), "tidewater-files.paths");
+    const lines = listing.trimEnd().split("\n");
+    const gone = lines.findLastIndex((l) => /\/.+\/.+\//.test(l) && !l.endsWith("/"));
+    writeFileSync(later, `${lines.filter((_, k) => k !== gone).join("\n")}\n`);
+    const a = await saved([...FILES, "--budget", "12"]);
+    const b = await saved([later, "--budget", "12"]);
+    expect(b.doc.totals.nodes).toBe(a.doc.totals.nodes - 1);
     const diff = await cli(["diff", a.file, b.file, "--budget", "200", "--format", "json"]);
     expect(diff.code, diff.stderr).toBe(0);
     const doc = JSON.parse(diff.stdout);
