@@ -112,7 +112,7 @@ export function tagParts(
     tag: changeTag(node, options, undefined, rootName),
     shortTag: changeTag(node, options, SHORT_FROM, rootName),
     ...(node.change !== null
-      ? { tagAt: (columns: number) => changeTag(node, options, Math.max(SHORT_FROM, columns), rootName) }
+      ? { tagAt: (columns: number) => changeTag(node, options, Math.max(1, columns), rootName) }
       : {}),
   };
 }

@@ -22,9 +22,9 @@ export interface LineParts {
   /** The same tag with any old path or name in it cut to a few columns, for narrow lines. */
   shortTag: string;
   /**
-   * The tag with each old path, old name and value in it cut to at most `columns` columns, never
-   * fewer than `shortTag`'s (a value keeps where it changed): the layout asks for the widest that
-   * fits the line's room; absent without a tag.
+   * The tag with each old path, old name and value in it cut to at most `columns` columns (a value
+   * keeps where it changed): the layout asks for the widest that fits the line's room, wider than
+   * `shortTag` before names are cut, narrower before the tag keeps only its kind; absent without a tag.
    */
   tagAt?: (columns: number) => string;
   /** The tag's kind, for its colour; null without a tag. */
@@ -207,7 +207,8 @@ export interface LaidOutLine {
  *   5. the fold's size goes, its count stays (`(hidden: 41 nodes)`; in a diff with how many changed
  *      nodes it holds), then the line's size (`608 nodes`), then the fold's words (`(41 hidden)`);
  *   6. a deep line's indentation shrinks to a third of the width, its level in digits at its end;
- *   7. the labels are cut down to 4 columns again, then the tag keeps only its kind (`[moved]`: its
+ *   7. the labels are cut down to 4 columns again, then the tag's old paths and values are cut to
+ *      fewer columns, down to 3 each, then the tag keeps only its kind (`[moved]`: its
  *      old path and its size change go), then a diff's fold drops how many changed (`(41 hidden)`);
  *   8. the indentation is only the level in digits (`12 `), the labels cut down to two characters
  *      and `…`;
@@ -283,6 +284,8 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
   // [indentation, tag, fewest label columns (0: whole), numbers, fold]; from FIRST_CUT on a step may
   // leave a number out.
   const compactWords = p.foldShort === p.foldCounts ? p.foldTiny : (p.compactFoldSized ?? compactFoldCounts);
+  // The labels at their 4-column floor, for measuring a tag beside them (see `fewerTag`).
+  const floorText = "x".repeat(floorOf(p.labels, FEW_LABEL));
   const steps: Step[] = [
     [indent, p.tag, 0, p.numbers, p.fold],
     [indent, p.tag, 0, p.numbers, p.foldCounts],
@@ -302,6 +305,13 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     [indent, p.shortTag, MIN_LABEL, p.countNumbers, p.foldTiny],
     [short, p.shortTag, MIN_LABEL, p.countNumbers, p.foldTiny],
     [short, p.shortTag, FEW_LABEL, p.countNumbers, p.foldTiny],
+    [
+      short,
+      fewerTag(p, width, kindTag, (tag) => line(short, floorText, tag, p.countNumbers, p.foldTiny, false)),
+      FEW_LABEL,
+      p.countNumbers,
+      p.foldTiny,
+    ],
     [short, kindTag, FEW_LABEL, p.countNumbers, p.foldTiny],
     [short, kindTag, FEW_LABEL, p.countNumbers, foldBare],
     [least, kindTag, FEW_LABEL, p.countNumbers, foldBare],
@@ -418,6 +428,27 @@ function roomyTag(p: LineParts, width: number, lineOf: (tag: string) => string):
   }
   const tag = p.tagAt(lo);
   return lo > 0 && displayWidth(tag) > least && fits(tag) ? tag : p.shortTag;
+}
+
+/** Fewest columns a tag's old path, name or value is cut to before the tag keeps only its kind. */
+const LEAST_FROM = 3;
+
+/** Most columns `fewerTag` tries, above the few of `shortTag` (8). */
+const FEWER_FROM = 12;
+
+/**
+ * The widest tag `p.tagAt` gives, its old paths and values cut to fewer columns than `shortTag`'s
+ * (down to {@link LEAST_FROM}), whose line (`lineOf`) fits `width`; else `kindTag`, the kind alone:
+ * `[edited image re…0 -> re…1] tern` says more than `[edited] tern` where it fits.
+ */
+function fewerTag(p: LineParts, width: number, kindTag: string, lineOf: (tag: string) => string): string {
+  if (p.tagAt === undefined) return kindTag;
+  const least = displayWidth(p.shortTag);
+  for (let columns = FEWER_FROM; columns >= LEAST_FROM; columns--) {
+    const tag = p.tagAt(columns);
+    if (displayWidth(tag) < least && displayWidth(lineOf(tag)) <= width) return tag;
+  }
+  return kindTag;
 }
 
 /** A step of `laidOutLine`: [indentation, tag, fewest label columns (0: whole), numbers, fold]. */
