@@ -1,6 +1,7 @@
 import { Buffer } from "node:buffer";
 import { EspalierError } from "../errors.js";
-import type { LoadOptions } from "../load/load-options.js";
+import { loadTree } from "../load/index.js";
+import { defaultLoadOptions, type LoadOptions } from "../load/load-options.js";
 import { csvTableFromBytes } from "../load/table/csv-table.js";
 import { locateCell } from "../load/table/locate-cell.js";
 import { rowsTable } from "../load/table/rows-table.js";
@@ -26,12 +27,14 @@ export async function readNodeRecords(io: CliIO, file: string, fields: LoadOptio
       } catch (error) {
         if (!(error instanceof SyntaxError)) throw error;
         // The engine's message quotes the text around the fault (input: --pseudonymize must not print
-        // it); only its offset is kept.
-        const at = /position (\d+)/.exec(error.message);
-        throw new EspalierError(
-          "PARSE_JSON",
-          `invalid JSON in the node records${at ? ` at character ${Number(at[1]) + 1}` : ""}`,
-        );
+        // it) and, in newer engines, gives no place: espalier's own JSON reader says where, at its line
+        // and column, with the input it quotes marked as such.
+        try {
+          loadTree(body, { ...defaultLoadOptions, format: "json", readAs: "values", file: shown });
+        } catch (placed) {
+          if (placed instanceof EspalierError && placed.code === "PARSE_JSON") throw placed.inFile(shown);
+        }
+        throw new EspalierError("PARSE_JSON", "invalid JSON in the node records");
       }
       if (!Array.isArray(value))
         throw new EspalierError("SHAPE", "node records in JSON must be an array of objects");

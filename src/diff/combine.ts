@@ -165,10 +165,12 @@ function combined(
   };
   const keys = [...new Set([...newTree.fields.keys(), ...oldTree.fields.keys()])];
   const ids = matching.by === "id";
-  const tree: Tree =
+  const made: Tree =
     spliced === null && keys.length === newTree.fields.size && (!ids || newTree.ids)
       ? { ...newTree, ids: ids ? newTree.ids : null, hasSizes: oldTree.hasSizes || newTree.hasSizes }
       : copyTree(oldTree, newTree, keys, ids, newIndex, oldIndex, spliced ?? newTree);
+  const elided = elidedOf(oldTree, newTree, newIndex, oldIndex);
+  const tree: Tree = elided === undefined ? made : { ...made, elided };
   let delta: Float64Array | undefined;
   return {
     tree,
@@ -188,6 +190,26 @@ function combined(
     by: matching.by,
     compared,
   };
+}
+
+/**
+ * Descendants each combined node stands for beyond its own slot (Tree.elided: a saved summary's fold
+ * entry, load/saved-output.ts): the new version's, a removed node's the old one's; undefined when
+ * neither version has any, so every count of the diff counts them as each version does.
+ */
+function elidedOf(
+  oldTree: Tree,
+  newTree: Tree,
+  newIndex: Int32Array,
+  oldIndex: Int32Array,
+): Float64Array | undefined {
+  if (oldTree.elided === undefined && newTree.elided === undefined) return undefined;
+  const out = new Float64Array(newIndex.length);
+  for (let k = 0; k < out.length; k++) {
+    const n = newIndex[k];
+    out[k] = n >= 0 ? (newTree.elided?.[n] ?? 0) : (oldTree.elided?.[oldIndex[k]] ?? 0);
+  }
+  return out;
 }
 
 /**

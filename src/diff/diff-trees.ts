@@ -116,8 +116,8 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
   const changeMeasures = measureChanges(tree, combined.kind, combined.deltaOf, changed);
   const totals: DiffTotals = {
     changes: changesIn(changeMeasures, 0),
-    old: { nodes: distinctNodes(oldTree), size: sizeOf(oldTree), ...emptyOf(oldTree) },
-    new: { nodes: distinctNodes(newTree), size: measures.size[0], ...emptyOf(newTree) },
+    old: { nodes: distinctNodes(oldTree) + elidedIn(oldTree), size: sizeOf(oldTree), ...emptyOf(oldTree) },
+    new: { nodes: distinctNodes(newTree) + elidedIn(newTree), size: measures.size[0], ...emptyOf(newTree) },
     delta: netIn(changeMeasures, 0),
     graph,
   };
@@ -215,6 +215,13 @@ function sizeOf(tree: Tree): number {
   let size = 0;
   for (let i = 0; i < tree.length; i++) size += tree.ownSize[i];
   return size;
+}
+
+/** Nodes the version's slots stand for beyond themselves (Tree.elided: a saved summary's folds). */
+function elidedIn(tree: Tree): number {
+  let n = 0;
+  if (tree.elided !== undefined) for (let i = 0; i < tree.length; i++) n += tree.elided[i];
+  return n;
 }
 
 /** `{ empty: n }` when some of the version's nodes are empty entries (`{}`); else nothing. */

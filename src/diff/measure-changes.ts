@@ -1,5 +1,5 @@
 import type { Tree } from "../model/tree.js";
-import { type ChangeCounts, changeKinds, noChanges } from "./changes.js";
+import { type ChangeCounts, changeKinds, KIND, noChanges } from "./changes.js";
 
 /** Counts kept per slot: one per kind. */
 const K = changeKinds.length;
@@ -40,7 +40,7 @@ export function measureChanges(
   const onChangePath = new Uint8Array(tree.length);
   const onPath = markPaths(changed, parent, tree.depth, onChangePath).sort();
   const up = parentSlots(onPath, parent);
-  const { counts, net } = summed(onPath, up, kind, deltaOf);
+  const { counts, net } = summed(onPath, up, kind, deltaOf, tree.elided);
   return { onChangePath, onPath, up, counts, net };
 }
 
@@ -70,12 +70,17 @@ function markPaths(
   return onPath.slice(0, m);
 }
 
-/** Each slot's counts per kind and net size change, its children's folded in (reverse pre-order). */
+/**
+ * Each slot's counts per kind and net size change, its children's folded in (reverse pre-order). An
+ * added or removed node counts the nodes it stands for (1 and its `elided` ones: a saved summary's
+ * fold entry), as the lines' node counts do.
+ */
 function summed(
   onPath: Int32Array,
   up: Int32Array,
   kind: Uint8Array,
   deltaOf: (i: number) => number,
+  elided: Float64Array | undefined,
 ): { counts: Int32Array; net: Float64Array } {
   const m = onPath.length;
   const counts = new Int32Array(m * K);
@@ -84,7 +89,7 @@ function summed(
   for (let s = m - 1; s >= 0; s--) {
     const i = onPath[s];
     if (kind[i] !== 0) {
-      counts[s * K + kind[i] - 1]++;
+      counts[s * K + kind[i] - 1] += elided !== undefined && kind[i] <= KIND.removed ? 1 + elided[i] : 1;
       net[s] += deltaOf(i);
     }
     if (i === 0) continue;

@@ -2,6 +2,7 @@ import { EspalierError, quoted, type SourcePos, say } from "../errors.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import { isSize } from "../model/size-rule.js";
 import type { LoadOptions } from "./load-options.js";
+import { missingField } from "./missing-field.js";
 import { limitExceeded } from "./node-sink.js";
 import { OtherColumns, OtherFieldsKept } from "./other-fields-kept.js";
 import { fieldSizeUnit } from "./size-unit.js";
@@ -19,6 +20,7 @@ type Fields = Pick<
   | "pathField"
   | "optionalKeepFields"
   | "keepOtherFields"
+  | "nodeRecords"
 >;
 
 /** A node's entry: its id, its value (a list of child ids, a record or null), and where it is. */
@@ -108,8 +110,10 @@ function rowEntries(rows: readonly unknown[], options: Fields): Entry[] {
 /**
  * Entries (in order) as a graph, linked as `linkedBy` says. With `keepOtherFields`, every other field of
  * the records is kept too, as text (an object or array as its JSON text), but those `readToo` names
- * (read for the graph by the caller: an SBOM's bom-ref). A kept field that no record holds is not kept:
- * a label or `--compare-field` naming it is FIELD_MISSING, not a column of nothing.
+ * (read for the graph by the caller: an SBOM's bom-ref). A kept field that no record holds is
+ * FIELD_MISSING naming the fields they do hold, not a column of nothing (a label or `--compare-field`
+ * naming it would print or compare nothing), unless it is kept only where records have it
+ * (`optionalKeepFields`: a diff's `version`) or node records may hold it (`--nodes`, which check it).
  */
 function adjacencyEntries(
   entries: readonly Entry[],
@@ -200,7 +204,18 @@ function adjacencyEntries(
       to.push(c);
     }
   }
-  for (const field of kept.keys()) if (!recordFields.has(field)) kept.delete(field);
+  for (const field of kept.keys()) {
+    if (recordFields.has(field)) continue;
+    if (options.nodeRecords === undefined && !options.optionalKeepFields?.includes(field)) {
+      const read = [options.idField, options.childrenField];
+      throw missingField(
+        "kept",
+        field,
+        [...recordFields].filter((f) => !read.includes(f)),
+      );
+    }
+    kept.delete(field);
+  }
   const fields = new Map([...kept, ...otherColumns.fields(ids.length)]);
   return {
     name: names,

@@ -14,6 +14,13 @@ export const SAVED_SUMMARY_FORMAT = "espalier-summary/1";
 export const FOLD_NAME = "(folded)";
 
 /**
+ * The field each node of a saved view holds: on a fold's entry, what the fold hid ("5 children, 117
+ * nodes"); "" on a shown node. A label can show it (`{folded}`), and a diff compares it by default, so
+ * a fold whose count changed is edited even where its size did not.
+ */
+export const FOLDED_FIELD = "folded";
+
+/**
  * The format id espalier's own JSON outputs write as their first member (render/summary-json.ts,
  * render/diff-json.ts), when the start of a JSON text `head` is such an output; else undefined. Looked
  * at once, on the first bytes, so no other document pays for it.
@@ -80,6 +87,7 @@ export function loadSavedOutput(text: string, format: string, options: LoadOptio
       sizeUnit: input.sizeUnit === "bytes" ? "bytes" : "number",
       ...(options.startAt ? { startAt: options.startAt } : {}),
       ...(linked.empty > 0 ? { emptyEntries: linked.empty } : {}),
+      ...(options.keepOtherFields ? { otherFields: [FOLDED_FIELD] } : {}),
       notes,
     },
   };
@@ -166,6 +174,7 @@ function linkedFrom(top: unknown): Linked {
   const elided: number[] = [];
   const saved: (SavedNode | null)[] = [];
   const empties: number[] = [];
+  const folded: string[] = [];
   let hasIds = false;
   let empty = 0;
   const stack: { node: unknown; parent: number }[] = [{ node: top, parent: -1 }];
@@ -180,6 +189,7 @@ function linkedFrom(top: unknown): Linked {
     saved.push(node);
     elided.push(node.elided ?? 0);
     empties.push(node.empty ? 1 : 0);
+    folded.push(node.folded ?? "");
     if (node.empty) empty++;
     const hidden = node.hidden;
     let shown = 1 + (hidden?.nodes ?? 0);
@@ -211,7 +221,7 @@ function linkedFrom(top: unknown): Linked {
       ids: hasIds ? ids : null,
       origin: new Int32Array(names.length),
       originIsRow: false,
-      fields: new Map(),
+      fields: new Map([[FOLDED_FIELD, folded]]),
       rootName: names[0] ?? "",
       ...(empty > 0 ? { empty: Uint8Array.from(empties) } : {}),
     },
@@ -237,6 +247,7 @@ function linkedFrom(top: unknown): Linked {
       children: [],
       hidden: null,
       elided: hidden.nodes - 1,
+      folded: `${hidden.children} ${hidden.children === 1 ? "child" : "children"}, ${hidden.nodes} ${hidden.nodes === 1 ? "node" : "nodes"}`,
     };
   }
 }
@@ -245,6 +256,8 @@ function linkedFrom(top: unknown): Linked {
 interface FoldMark extends SavedNode {
   fold?: true;
   elided?: number;
+  /** What the fold hid, as the {@link FOLDED_FIELD} field says it. */
+  folded?: string;
 }
 
 /** A saved node's fields checked (the summary schema's types); a fold's entry as {@link foldOf} made it. */
@@ -317,7 +330,7 @@ function savedNote(folds: number): ReadingNote {
       `an espalier summary (${SAVED_SUMMARY_FORMAT}) read as the view it holds: `,
       folds === 0
         ? "it folds nothing"
-        : `${folds === 1 ? "its one fold is" : `each of its ${folds} folds is`} one entry named ${FOLD_NAME} that stands for the nodes and size it hides, so every total is the saved one; a fold cannot be opened (run espalier on the original input for that)`,
+        : `${folds === 1 ? "its one fold is" : `each of its ${folds} folds is`} one entry named ${FOLD_NAME} that stands for the nodes and size it hides, so every total is the saved one; a fold cannot be opened (run espalier on the original input for that), and a diff compares it as a whole, by its size and by what it hid (the field ${FOLDED_FIELD})`,
       "; --read-as values reads its JSON text instead",
     ],
   };

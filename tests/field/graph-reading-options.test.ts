@@ -75,4 +75,32 @@ describe("link options on a graph that does not read them", () => {
       /^espalier: <stdin>: --id-field does not apply: an edge list .*\[USAGE\]\n$/,
     );
   });
+
+  it("--nodes records without the id column: FIELD_MISSING names the records' file (its header), not the graph's", async () => {
+    const csv = await cli(["-", "--input-format", "edges", "--nodes", "records.csv"], {
+      stdin: pairs,
+      files: { "records.csv": "package,size\nledger,10\n" },
+    });
+    expect(csv.code).toBe(2);
+    expect(csv.stderr).toMatch(
+      /^espalier: records\.csv:1:1: the node records need an "id" column; .*\[FIELD_MISSING\]\n$/,
+    );
+    const json = await cli(["-", "--input-format", "edges", "--nodes", "records.json"], {
+      stdin: pairs,
+      files: { "records.json": '[{"package": "ledger", "size": 10}]' },
+    });
+    expect(json.stderr).toMatch(
+      /^espalier: records\.json: the node records need an "id" column; .*\[FIELD_MISSING\]\n$/,
+    );
+  });
+
+  it("--nodes records that are not JSON (RFC 8259): PARSE_JSON at the line and column in the records' file", async () => {
+    // A bare word where a value belongs, on line 3 column 9; the engine's own JSON.parse gives no place.
+    const r = await cli(["-", "--input-format", "edges", "--nodes", "records.json"], {
+      stdin: pairs,
+      files: { "records.json": '[{"id": "ledger",\n  "size": 10},\n {"id": kelp-log}]' },
+    });
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/^espalier: records\.json:3:9: .*\[PARSE_JSON\]\n$/);
+  });
 });

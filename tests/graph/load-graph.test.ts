@@ -227,4 +227,22 @@ describe("loadTree(json adjacency map)", () => {
       expect(caught(() => loadTree(doc, opts({ format: "json", graph: true }))).code).toBe("SHAPE");
     expect(caught(() => loadTree("[1, 2]\n", opts({ format: "yaml", graph: true }))).code).toBe("SHAPE");
   });
+
+  it("refuses a kept field no record holds with FIELD_MISSING naming those they hold; an optional one is not kept", () => {
+    // main's build kept such a field as a column of nothing: a label printed "", a diff compared nothing.
+    const doc = '{"dock":{"children":["crane"],"owner":"quay-team"},"crane":{"checks":{"lint":true}}}';
+    const error = caught(() => loadTree(doc, opts({ format: "json", graph: true, keepFields: ["team"] })));
+    expect(error.code).toBe("FIELD_MISSING");
+    expect(error.details).toMatchObject({ field: "team", fieldsSeen: ["owner", "checks"] });
+    const optional = loadTree(
+      doc,
+      opts({
+        format: "json",
+        graph: true,
+        keepFields: ["version", "owner"],
+        optionalKeepFields: ["version"],
+      }),
+    );
+    expect([...optional.fields.keys()]).toEqual(["owner"]);
+  });
 });

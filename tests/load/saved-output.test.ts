@@ -227,12 +227,45 @@ describe("espalier diff and saved outputs", () => {
     expect(values.code, values.stderr).toBe(0);
   });
 
-  it("is SHAPE for two saved summaries: the diff would count each fold as one node", async () => {
+  // Validated with Ajv 8.20.0 against the diff schema espalier publishes (docs/diff.schema.json).
+  const diffSchema = JSON.parse(
+    readFileSync(new URL("../../docs/diff.schema.json", import.meta.url), "utf8"),
+  );
+  const validateDiff = new Ajv2020.default({ allErrors: true }).compile(diffSchema);
+
+  it("compares two saved summaries with their saved totals, each fold counted as the nodes it stands for", async () => {
     const a = await saved([...FILES, "--budget", "12"]);
     const b = await saved([...FILES, "--budget", "16"]);
-    const diff = await cli(["diff", a.file, b.file]);
-    expect(diff.code).toBe(2);
-    expect(diff.stderr).toContain("[SHAPE]");
-    expect(diff.stdout).toBe("");
+    const diff = await cli(["diff", a.file, b.file, "--budget", "200", "--format", "json"]);
+    expect(diff.code, diff.stderr).toBe(0);
+    const doc = JSON.parse(diff.stdout);
+    expect(validateDiff(doc), JSON.stringify(validateDiff.errors)).toBe(true);
+    expect(doc.totals.old).toEqual(a.doc.totals);
+    expect(doc.totals.new).toEqual(b.doc.totals);
+    // The lines count NEW's nodes and the removed ones: the removed count is in nodes too.
+    expect(doc.totals.nodes).toBe(doc.totals.new.nodes + doc.changes.removed);
+    expect(doc.notes.map((n: { code: string }) => n.code)).toEqual(["SAVED_VIEW", "SAVED_VIEW"]);
+    addsUp(doc.root);
+  });
+
+  it("says a fold changed when what it hid did: edited by its folded field, its size net", async () => {
+    const listing = readFileSync(org("tidewater-files.paths"), "utf8");
+    // The same file name, so the two roots are named alike.
+    const later = join(mkdtempSync(join(dir, "later-")), "tidewater-files.paths");
+    writeFileSync(later, `${listing.trimEnd()}\n100\t./data/tide-tables/gull-rock/spring-tides.csv\n`);
+    const a = await saved([...FILES, "--budget", "10"]);
+    const b = await saved([later, "--budget", "10"]);
+    expect(b.doc.totals).toEqual({ nodes: a.doc.totals.nodes + 1, size: a.doc.totals.size + 100 });
+    const diff = await cli(["diff", a.file, b.file, "--budget", "200", "--format", "json"]);
+    expect(diff.code, diff.stderr).toBe(0);
+    const doc = JSON.parse(diff.stdout);
+    expect(validateDiff(doc), JSON.stringify(validateDiff.errors)).toBe(true);
+    expect(doc.totals.delta).toBe(100);
+    expect(doc.changes).toMatchObject({ added: 0, removed: 0, edited: 1 });
+    const edited = [...walk(doc.root)].filter((n) => (n as { change?: string }).change === "edited");
+    expect(edited.map((n) => n.name)).toEqual([FOLD_NAME]);
+    expect((edited[0] as unknown as { edits: { field: string }[] }).edits.map((e) => e.field)).toEqual([
+      "folded",
+    ]);
   });
 });
