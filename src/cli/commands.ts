@@ -1,5 +1,6 @@
 import { EspalierError } from "../errors.js";
 import type { CommandOutput } from "./command-output.js";
+import { commentSizeNote } from "./comment-size.js";
 import { CONFIG_FILES } from "./config.js";
 import { effectiveOptions, optionsInEffectYaml } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
@@ -113,6 +114,8 @@ function defineCommand<T extends Record<string, OptionSpec>>(def: CommandDef<T>)
       // Under --pseudonymize every error of the work leaves with the input hidden (hide-input.ts).
       const key = pseudonymKey(options as { pseudonymize?: boolean }, io);
       const output = await hidingInput(key, () => run(line.args, options, io, { configFile, fromConfig }));
+      const long = commentSizeNote((options as { format?: string }).format, output.text);
+      if (long) io.stderr.write(long);
       return { ...output, target };
     },
   };

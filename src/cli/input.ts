@@ -2,7 +2,7 @@ import { DEFAULT_COMPARED_FIELDS } from "../diff/field-edits.js";
 import { EspalierError } from "../errors.js";
 import type { FocusSpec } from "../focus/focus-spec.js";
 import { defaultLoadOptions, type LinkOption, type LoadOptions } from "../load/load-options.js";
-import { oneFolderEntries } from "../load/path-list/one-folder-entries.js";
+import { unitNotShown } from "../load/path-list/unit-not-shown.js";
 import type { Reading } from "../load/shape/choose-reading.js";
 import { loadTreeFromStream } from "../load/stream/index.js";
 import type { ReadingNote } from "../model/reading-note.js";
@@ -66,27 +66,29 @@ function withUnsizedImportance(tree: Tree, opts: SharedCliOptions): Tree {
   });
 }
 
-/** Entries from which a path list of one folder's entries is said to have sizes read as bytes: as du's evidence (folder-totals.ts). */
-const UNIT_EVIDENCE = 8;
-
 /**
- * The tree with a UNIT_NOT_SAID note when it is a path list of one folder's entries and nothing else
- * ({@link oneFolderEntries}), at least {@link UNIT_EVIDENCE}, whose sizes were read as bytes under
- * `--units auto`: such a list shows its unit nowhere, where `du -s --apparent-size DIR/*` of folders of
- * folders (the KiB listings folder-totals.ts cannot tell) and `dpkg-query -W` (KiB) look as `du -sb
- * DIR/*` does. `--units bytes` (they are bytes) or `plain` (numbers as given) says it instead.
+ * The tree with a UNIT_NOT_SAID note when it is a path list whose sizes, read as bytes under `--units
+ * auto`, show their unit nowhere ({@link unitNotShown}): a list of one folder's entries and nothing
+ * else, where `du -s --apparent-size DIR/*` of folders of folders (the KiB listings folder-totals.ts
+ * cannot tell) and `dpkg-query -W` (KiB) look as `du -sb DIR/*` does, or a list too short for the
+ * tests that tell KiB and blocks from bytes. `--units bytes` (they are bytes) or `plain` (numbers as
+ * given) says it instead.
  */
 function withUnitNotSaid(tree: Tree, opts: SharedCliOptions): Tree {
   const reading = tree.reading;
   if (opts.units !== "auto" || reading?.shape !== "paths" || reading.sizeUnit !== "bytes") return tree;
-  if (!tree.hasSizes || reading.folderTotals === true) return tree;
-  const entries = oneFolderEntries(tree);
-  if (entries < UNIT_EVIDENCE) return tree;
+  if (!tree.hasSizes) return tree;
+  const unsaid = unitNotShown(tree);
+  if (unsaid === undefined) return tree;
+  const n = unsaid.count.toLocaleString("en-US");
+  const ways = `list bytes instead (du -sb, du -ab, find -printf '%s\\t%p\\n'; awk -F'\\t' -v OFS='\\t' '{$1 = $1 * 1024} 1' makes KiB bytes), or pass --units plain to print the numbers as given; --units bytes reads them as bytes without this note`;
   return withNote(tree, {
     code: "UNIT_NOT_SAID",
-    count: entries,
+    count: unsaid.count,
     parts: [
-      `the list is ${entries.toLocaleString("en-US")} entries side by side (a folder's, or an inventory's), none inside another, and its sizes show no unit: they were read as bytes, as du -sb DIR/* lists them. du -s --apparent-size DIR/* and du -sk DIR/* list KiB, and so does dpkg-query -W -f='\${Installed-Size}\\t\${Package}\\n': list bytes instead (du -sb DIR/*; awk -F'\\t' -v OFS='\\t' '{$1 = $1 * 1024} 1' makes KiB bytes), or pass --units plain to print the numbers as given; --units bytes reads them as bytes without this note`,
+      unsaid.why === "entries"
+        ? `the list is ${n} ${unsaid.count === 1 ? "entry" : "entries side by side"} (a folder's, or an inventory's), none inside another, and its sizes show no unit: they were read as bytes, as du -sb DIR/* lists them. du -s --apparent-size DIR/* and du -sk DIR/* list KiB, and so does dpkg-query -W -f='\${Installed-Size}\\t\${Package}\\n': ${ways}`
+        : `the list has ${n} ${unsaid.count === 1 ? "size" : "sizes"} above 0, too few to tell by them whether they count bytes, KiB or blocks, and no folder's own size shows a directory's bytes: they were read as bytes, as du -ab and find -printf '%s' list them. du -a and find -printf '%k' list 1 KiB blocks, du --apparent-size without -b lists KiB, du -m MiB: ${ways}`,
     ],
   });
 }

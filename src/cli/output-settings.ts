@@ -21,6 +21,11 @@ import { shownNotes } from "./reading-notes.js";
 /** How a command's result is printed: what the options and the terminal say. */
 export interface OutputSettings {
   budget: number;
+  /**
+   * The budget is the default for output that is no terminal (no `--budget`, none in a config file):
+   * the header says so, so a CI log's reader sees why the view has 40 lines.
+   */
+  budgetOffTerminal: boolean;
   /** Widest line in columns; undefined for no limit. */
   width: number | undefined;
   units: Units;
@@ -88,6 +93,7 @@ export function outputSettings(
   const documents = inputs.map((t) => t.reading?.documents ?? 1);
   return {
     budget: opts.budget ?? defaultBudget(io),
+    budgetOffTerminal: opts.budget === undefined && io.stdout.isTTY !== true,
     width: opts.width ?? defaultWidth(io),
     units: unitsFor(opts, tree),
     palette: palette(useColour(opts, io)),
@@ -295,10 +301,16 @@ export function unitsFor(opts: SharedCliOptions, tree?: Tree): Units {
   return tree.reading?.sizeUnit === "bytes" ? "bytes" : "plain";
 }
 
-/** Colour only on a terminal, never with NO_COLOR set (no-color.org) or TERM=dumb, unless forced. */
+/**
+ * Colour only on a terminal, never with NO_COLOR set (no-color.org) or TERM=dumb; `--color` decides
+ * over all of these. FORCE_COLOR, which CI runners set so a log shows colours (common practice, no
+ * source), turns it on off a terminal and under TERM=dumb, `0` or `false` off; NO_COLOR wins over it.
+ */
 export function useColour(opts: SharedCliOptions, io: CliIO): boolean {
   if (opts.color !== "auto") return opts.color === "always";
   if (io.env.NO_COLOR !== undefined && io.env.NO_COLOR !== "") return false;
+  const forced = io.env.FORCE_COLOR;
+  if (forced !== undefined && forced !== "") return forced !== "0" && forced.toLowerCase() !== "false";
   if (io.env.TERM === "dumb") return false;
   return io.stdout.isTTY === true;
 }

@@ -175,6 +175,7 @@ function headerOf<T extends ViewNode>(
   if (!s.header) return undefined;
   return {
     budget: s.budget,
+    ...(s.budgetOffTerminal ? { budgetOffTerminal: true } : {}),
     lines: result.selection.lines,
     foci: fociOf(result.view),
     ...(result.unmatchedFoci.length > 0 ? { skippedFoci: result.unmatchedFoci.length } : {}),

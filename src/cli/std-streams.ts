@@ -20,8 +20,9 @@ export const TERMINAL_INPUT_HINT =
  * Standard output and error as the command line uses them, made to fail loudly: a write that fails
  * (disk full, a device that refuses, a descriptor closed before espalier started) ends espalier with
  * status 2 and one `[IO]` line on standard error, when standard error can still take one; a reader that
- * closes the pipe early (`| head`) ends it quietly with status 0. Never a stack trace, never status 1
- * (which `diff` uses for "the versions differ").
+ * closes the pipe early (`| head`) ends it quietly with the status the command chose, so `diff
+ * --fail-on-change | head` under `set -o pipefail` fails on a change however long the output. Never a
+ * stack trace, never status 1 from a failed write (`diff` uses 1 for "the versions differ").
  */
 export function standardStreams(proc: StandardProcess): {
   stdout: CliIO["stdout"];
@@ -31,6 +32,9 @@ export function standardStreams(proc: StandardProcess): {
 } {
   const outClosed = closedAtStart(1);
   let failed: string | undefined;
+  // The reader closed the pipe (EPIPE): the rest of the output has nowhere to go and is dropped, and the
+  // command's own status stands (ending at once with 0 hid a `diff --fail-on-change` that found changes).
+  let readerGone = false;
   const fail = (reason: string): never => {
     try {
       proc.stderr.write(
@@ -42,8 +46,8 @@ export function standardStreams(proc: StandardProcess): {
     return proc.exit(2);
   };
   proc.stdout.on("error", (err: NodeJS.ErrnoException) => {
-    if (err.code === "EPIPE") proc.exit(0);
-    fail(err.code ?? err.message);
+    if (err.code === "EPIPE") readerGone = true;
+    else fail(err.code ?? err.message);
   });
   proc.stderr.on("error", () => proc.exit(2));
   const stdout: CliIO["stdout"] = {
@@ -52,6 +56,7 @@ export function standardStreams(proc: StandardProcess): {
         failed ??= "it was closed when espalier started (EBADF)";
         return true;
       }
+      if (readerGone) return true;
       return proc.stdout.write(text);
     },
     get isTTY() {

@@ -1,11 +1,14 @@
-import { Buffer } from "node:buffer";
+import { Buffer, isAscii } from "node:buffer";
 import { EspalierError, quoted, say } from "../errors.js";
 import { doubled } from "../model/child-hash.js";
 import type { GraphNodes } from "../model/graph-nodes.js";
 import { NamePool } from "../model/names.js";
+import type { ReadingNote } from "../model/reading-note.js";
+import { wellFormedUtf8 } from "../model/well-formed-utf8.js";
 import { firstBelow, idHash, sameBytes } from "./id-hash.js";
 import type { LoadOptions } from "./load-options.js";
 import { limitExceeded } from "./node-sink.js";
+import { notUtf8Note } from "./not-utf8-note.js";
 
 const TAB = 0x09;
 const SPACE = 0x20;
@@ -417,6 +420,7 @@ export class EdgeListReader {
         say`no line holds two ids separated by spaces or a tab, and the first, ${quoted.value(first.toString("utf8", 0, 120))}, holds commas: a CSV edge table's first line names its parent and child columns ("parent" and "child", or those --parent-field and --child-field name)`,
         { line: this.origin[0], column: 1 },
       );
+    const notUtf8 = this.notUtf8Ids();
     const ids = NamePool.fromParts({
       length: n,
       bytes: this.idBytes.subarray(0, this.used),
@@ -449,7 +453,27 @@ export class EdgeListReader {
         spare = undefined;
         return given;
       },
+      ...(notUtf8 ? { notes: [notUtf8] } : {}),
     };
+  }
+
+  /**
+   * UNDECODABLE_BYTES when ids hold bytes that are not UTF-8: their names read each bad sequence as
+   * U+FFFD, so two ids that differ only there print alike (they stay two nodes: ids are found by their
+   * bytes). One look at the ids once read, none per line; ids all ASCII end it at once.
+   */
+  private notUtf8Ids(): ReadingNote | undefined {
+    const bytes = this.idBytes;
+    if (isAscii(bytes.subarray(0, this.used))) return undefined;
+    let count = 0;
+    let line = 0;
+    for (let i = 0; i < this.count; i++) {
+      const start = this.idStart[i];
+      if (wellFormedUtf8(bytes, start, start + this.idSize[i])) continue;
+      count++;
+      if (line === 0 || this.origin[i] < line) line = this.origin[i];
+    }
+    return count === 0 ? undefined : notUtf8Note("id", count, line);
   }
 }
 

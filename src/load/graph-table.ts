@@ -2,6 +2,7 @@ import { EspalierError, placedAtRow, quoted, quotedList, say } from "../errors.j
 import type { GraphNodes } from "../model/graph-nodes.js";
 import type { LoadOptions } from "./load-options.js";
 import { limitExceeded } from "./node-sink.js";
+import { tableNotUtf8Notes } from "./not-utf8-note.js";
 import { keepingOtherFields, otherFields } from "./other-fields.js";
 import { fieldSizeUnit } from "./size-unit.js";
 import { checkWrittenIds } from "./table/check-written.js";
@@ -47,6 +48,8 @@ export function linkGraphTable(table: Table, options: Fields, edgesOnly = false)
   try {
     const graph = linkGraph(table, options, edgesOnly);
     if (table.place) graph.placeRow = table.place;
+    const notUtf8 = tableNotUtf8Notes(table);
+    if (notUtf8.length > 0) graph.notes = [...(graph.notes ?? []), ...notUtf8];
     return graph;
   } catch (err) {
     throw placedAtRow(err, table.place);

@@ -71,8 +71,21 @@ const COMMIT =
 const COMMIT_WAY =
   'For the files the commits changed, list their paths alone, each with how many commits changed it as its size: git log --name-only --format= | sort | uniq -c | awk \'NF > 1 {n = $1; sub(/^ *[0-9]+ /, ""); print n "\\t" $0}\' | espalier - --units plain';
 
+/**
+ * A package's record of fields as pip show (pip 23.2, seen here: `Name: pip`, `Version: 23.2.1`, …,
+ * records apart by `---`), dpkg -s, apt-cache show and /var/lib/dpkg/status print it (`Package: bash`,
+ * then `Essential:`, `Status:` or `Source:`; deb-control(5)): a field's name, ": " and its value.
+ */
+const RECORD_FIRST = /^(?:Name|Package): \S/;
+const RECORD_SECOND = /^[A-Z][A-Za-z0-9-]*: /;
+const RECORD =
+  "the input starts as pip show, dpkg -s and apt-cache show print a package's record (Name: or Package:, then a field a line)";
+const RECORD_WAY =
+  'For what requires what, list one edge a line: pip show PKG... | awk \'/^Name: /{n = $2} /^Requires: ./{sub(/^Requires: /, ""); k = split($0, r, ", "); for (i = 1; i <= k; i++) print n "\\t" r[i]}\' | espalier - --input-format edges; pip list --format json and pip inspect read as they are';
+
 /** The listings {@link knownListingError} knows by their first two lines: what they are, and the way to read them. */
 const KNOWN: readonly { first: RegExp; second: RegExp; listing: string; way: string }[] = [
   { first: ZIP_FIRST, second: ZIP_SECOND, listing: ZIP_LISTING, way: ZIP_WAY },
   { first: COMMIT_FIRST, second: COMMIT_SECOND, listing: COMMIT, way: COMMIT_WAY },
+  { first: RECORD_FIRST, second: RECORD_SECOND, listing: RECORD, way: RECORD_WAY },
 ];

@@ -373,7 +373,7 @@ function parseError(body: string, err: unknown): EspalierError {
 function graphRefused(): EspalierError {
   return new EspalierError(
     "SHAPE",
-    "this espalier summary is of a graph: its reference lines stand for entries its folds may hide, so it is not read back as a tree; run espalier on the original input, or read its JSON text with --read-as values",
+    "this espalier summary has reference lines (a graph's nodes with several parents, or YAML aliases), which stand for entries its folds may hide, so it is not read back as a tree; run espalier on the original input, or read its JSON text with --read-as values",
   );
 }
 

@@ -53,13 +53,14 @@ export interface ReadingNote {
  * renamed pair so with other nodes than by id, as renumbered ids do (diff/ids-renumbered.ts).
  * `NODES_NOT_READ`: node objects (objects holding the name, size or children field) in a field of a
  * node object that is not read, as a second list beside the children field's, left out of the tree and
- * of every total (load/nodes-not-read.ts). `UNDECODABLE_BYTES`: lines of a path list or rows of a table
- * hold bytes that are not UTF-8, read as U+FFFD; count: how many (load/not-utf8-note.ts).
+ * of every total (load/nodes-not-read.ts). `UNDECODABLE_BYTES`: lines of a path list or a YAML document, rows
+ * of a table, ids of an edge list or strings of a JSON document hold bytes that are not UTF-8, read as U+FFFD; count: how many (load/not-utf8-note.ts).
  * `ABSOLUTE_AND_RELATIVE`: a path list names paths from "/" and paths that start elsewhere, read as two
  * trees side by side (load/path-list/mixed-starts.ts).
  * `SBOM_DEPENDENCIES`: a CycloneDX document read as its dependency graph, not as its values
- * (load/cyclonedx.ts). `UNIT_NOT_SAID`: a path list of one folder's entries whose sizes, which show no
- * unit, were read as bytes; count: the entries (cli/input.ts). `SAVED_VIEW`: espalier's own summary JSON
+ * (load/cyclonedx.ts). `UNIT_NOT_SAID`: a path list whose sizes, which show no unit (one folder's
+ * entries, or fewer than 8 sizes), were read as bytes; count: the entries, or the sizes
+ * (load/path-list/unit-not-shown.ts, cli/input.ts). `SAVED_VIEW`: espalier's own summary JSON
  * read as the view it holds, each fold one entry standing for what it hides; count: the folds
  * (load/saved-output.ts).
  */
@@ -88,10 +89,15 @@ export const readingNoteCodes = [
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];
 
-/** A note as it is printed: its code, its line and its message (input shown by `show`). */
+/**
+ * A note as it is printed: its code, its line, its count and its message (input shown by `show`). The
+ * count is what the header says in its words (`3 missing counted as nodes`), so a script reads from
+ * the JSON every number the screen shows.
+ */
 export interface ShownNote {
   code: ReadingNoteCode;
   line?: number;
+  count?: number;
   message: string;
 }
 
@@ -118,5 +124,10 @@ export function noteFact(note: ReadingNote, version?: "OLD" | "NEW"): NoteFact {
 export function showNote(note: ReadingNote, show: (t: InputText) => string = showInput): ShownNote {
   let message = "";
   for (const part of note.parts) message += typeof part === "string" ? part : show(part);
-  return { code: note.code, ...(note.line === undefined ? {} : { line: note.line }), message };
+  return {
+    code: note.code,
+    ...(note.line === undefined ? {} : { line: note.line }),
+    ...(note.count === undefined ? {} : { count: note.count }),
+    message,
+  };
 }

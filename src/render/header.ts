@@ -30,6 +30,11 @@ export const VALUE_SIZE = "value size";
 export interface HeaderOptions {
   /** The line budget asked for. */
   budget: number;
+  /**
+   * The budget is the default taken because the output is no terminal (a pipe, a file, a CI log):
+   * said after the lines used, `40 of 40 lines (default budget: not a terminal)`.
+   */
+  budgetOffTerminal?: boolean;
   /** Lines the rendering takes, this header (and any legend) included. */
   lines: number;
   /** Printed paths (or row ids) of the foci; each is accepted back as a focus. */
@@ -415,7 +420,8 @@ function keyText({ keyLeftOut }: HeaderOptions, style: HeaderStyle): string[] {
 }
 
 function used(header: HeaderOptions): string {
-  return `${formatCount(header.lines)} of ${formatCount(header.budget)} lines`;
+  const why = header.budgetOffTerminal ? " (default budget: not a terminal)" : "";
+  return `${formatCount(header.lines)} of ${formatCount(header.budget)} lines${why}`;
 }
 
 /**

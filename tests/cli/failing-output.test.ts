@@ -108,6 +108,32 @@ describe("espalier when standard output or standard error fails", () => {
     expect(stderr).toBe("");
   });
 
+  it("diff --fail-on-change whose reader closes the pipe early still ends with status 1 (pipefail sees it)", async () => {
+    const dir = await tempDir();
+    const lines = Array.from({ length: 100_000 }, (_, i) => `quill/d${i % 100}/f${i}`);
+    await writeFile(join(dir, "old.paths"), lines.join("\n"));
+    await writeFile(join(dir, "new.paths"), lines.filter((_, i) => i % 7 !== 0).join("\n"));
+    const args = [
+      BIN,
+      "diff",
+      "old.paths",
+      "new.paths",
+      "--budget",
+      "100000",
+      "--no-chains",
+      "--fail-on-change",
+    ];
+    const child = spawn(process.execPath, args, { cwd: dir });
+    let stderr = "";
+    child.stderr.setEncoding("utf8").on("data", (s: string) => {
+      stderr += s;
+    });
+    child.stdout.once("data", () => child.stdout.destroy());
+    const code = await new Promise<number | null>((resolve) => child.on("close", (c) => resolve(c)));
+    expect(code).toBe(1);
+    expect(stderr).toBe("");
+  });
+
   it("closedAtStart(fd) is false for descriptors this test runner opened", () => {
     expect(closedAtStart(1)).toBe(false);
     expect(closedAtStart(2)).toBe(false);

@@ -222,7 +222,7 @@ describe("espalier --focus-from with git's list of changed files", () => {
       "skip",
     ]);
     expect(text.stdout.split("\n")[0]).toMatch(
-      /^diff by path: .*; 1 focus skipped \(no match\); \d+ of \d+ lines$/,
+      /^diff by path: .*; 1 focus skipped \(no match\); \d+ of \d+ lines \(default budget: not a terminal\)$/,
     );
     const strict = await cli(["diff", at("old.paths"), at("files.paths"), "--focus-from", at("changed.txt")]);
     expect(strict.code).toBe(2);

@@ -20,7 +20,7 @@ describe("the header says how espalier chose to read a JSON or YAML input", () =
     const r = await cli(["-", "--input-format", "json"], { stdin: NESTED });
     expect(r.code).toBe(0);
     expect(head(r.stdout)).toBe(
-      "summary: 4 nodes (2 of them empty {}); children under dependencies; no focus; 5 of 40 lines",
+      "summary: 4 nodes (2 of them empty {}); children under dependencies; no focus; 5 of 40 lines (default budget: not a terminal)",
     );
   });
 
@@ -28,7 +28,9 @@ describe("the header says how espalier chose to read a JSON or YAML input", () =
     const asked = await cli(["-", "--input-format", "json", "--children-field", "dependencies"], {
       stdin: NESTED,
     });
-    expect(head(asked.stdout)).toBe("summary: 4 nodes (2 of them empty {}); no focus; 5 of 40 lines");
+    expect(head(asked.stdout)).toBe(
+      "summary: 4 nodes (2 of them empty {}); no focus; 5 of 40 lines (default budget: not a terminal)",
+    );
     const forced = await cli(["-", "--input-format", "json", "--read-as", "values"], { stdin: VALUES });
     expect(head(forced.stdout)).not.toContain("every value a node");
   });
@@ -53,7 +55,7 @@ describe("the header says how espalier chose to read a JSON or YAML input", () =
 
   it("leaves tables, path lists and JSON without a search alone", async () => {
     const r = await cli(["-", "--input-format", "paths"], { stdin: "quill/a\nquill/b\n" });
-    expect(head(r.stdout)).toBe("summary: 3 nodes; no focus; 5 of 40 lines");
+    expect(head(r.stdout)).toBe("summary: 3 nodes; no focus; 5 of 40 lines (default budget: not a terminal)");
   });
 });
 
@@ -69,7 +71,9 @@ describe("the header says an array of records was read as rows, and by which fie
   it("rows linked by path: '/' (the absolute paths' root), berths, 0, 1, owner, tariff are 6 nodes", async () => {
     const r = await cli(["-"], { stdin: PATCH });
     expect(r.code).toBe(0);
-    expect(head(r.stdout)).toBe("summary: 6 nodes; rows linked by path; no focus; 7 of 40 lines");
+    expect(head(r.stdout)).toBe(
+      "summary: 6 nodes; rows linked by path; no focus; 7 of 40 lines (default budget: not a terminal)",
+    );
     const json = await cli(["-", "--format", "json"], { stdin: PATCH });
     expect(JSON.parse(json.stdout).input).toMatchObject({ shape: "rows", linkedBy: ["path"] });
   });
@@ -93,13 +97,19 @@ describe("the header says an array of records was read as rows, and by which fie
     const yaml = "- id: q1\n  parent:\n  name: quay\n- id: q2\n  parent: q1\n  name: crane\n";
     const r = await cli(["-", "--input-format", "yaml"], { stdin: yaml });
     expect(r.code).toBe(0);
-    expect(head(r.stdout)).toBe("summary: 2 nodes; rows linked by id and parent; no focus; 3 of 40 lines");
+    expect(head(r.stdout)).toBe(
+      "summary: 2 nodes; rows linked by id and parent; no focus; 3 of 40 lines (default budget: not a terminal)",
+    );
     const asked = await cli(["-", "--input-format", "rows"], { stdin: PATCH });
-    expect(head(asked.stdout)).toBe("summary: 6 nodes; no focus; 7 of 40 lines");
+    expect(head(asked.stdout)).toBe(
+      "summary: 6 nodes; no focus; 7 of 40 lines (default budget: not a terminal)",
+    );
     const csv = await cli(["-", "--input-format", "csv"], {
       stdin: "id,parent,name\nq1,,quay\nq2,q1,crane\n",
     });
-    expect(head(csv.stdout)).toBe("summary: 2 nodes; no focus; 3 of 40 lines");
+    expect(head(csv.stdout)).toBe(
+      "summary: 2 nodes; no focus; 3 of 40 lines (default budget: not a terminal)",
+    );
     expect(
       JSON.parse(
         (
@@ -120,11 +130,15 @@ describe("the header says when a path list's folder sizes were read as totals", 
     const auto = await cli(["-", "--input-format", "paths"], { stdin: DU });
     expect(auto.code).toBe(0);
     expect(head(auto.stdout)).toBe(
-      "summary: 4 nodes, size 10.1 KiB; folder sizes read as totals with contents; no focus; 5 of 40 lines",
+      "summary: 4 nodes, size 10.1 KiB; folder sizes read as totals with contents; no focus; 5 of 40 lines (default budget: not a terminal)",
     );
     const own = await cli(["-", "--input-format", "paths", "--folder-sizes", "own"], { stdin: DU });
-    expect(head(own.stdout)).toBe("summary: 4 nodes, size 18.1 KiB; no focus; 5 of 40 lines");
+    expect(head(own.stdout)).toBe(
+      "summary: 4 nodes, size 18.1 KiB; no focus; 5 of 40 lines (default budget: not a terminal)",
+    );
     const asked = await cli(["-", "--input-format", "paths", "--folder-sizes", "total"], { stdin: DU });
-    expect(head(asked.stdout)).toBe("summary: 4 nodes, size 10.1 KiB; no focus; 5 of 40 lines");
+    expect(head(asked.stdout)).toBe(
+      "summary: 4 nodes, size 10.1 KiB; no focus; 5 of 40 lines (default budget: not a terminal)",
+    );
   });
 });

@@ -12,7 +12,8 @@ const FILES = "fixtures/tidewater-files.paths";
 describe("espalier <input> (summary)", () => {
   it("summarises a path list from standard input within the budget", async () => {
     const stdin = "10\ta/x\n20\ta/y\n5\tb/z\n";
-    const r = await cli(["-", "--focus", "a/x", "--budget", "4"], { stdin });
+    // Three sizes two folders down say no unit (UNIT_NOT_SAID on standard error): --units bytes says it.
+    const r = await cli(["-", "--focus", "a/x", "--budget", "4", "--units", "bytes"], { stdin });
     expect(r.code).toBe(0);
     expect(r.stderr).toBe("");
     expect(r.stdout.trimEnd().split("\n")).toHaveLength(4);
@@ -169,12 +170,42 @@ describe("espalier <input> (summary)", () => {
     );
   });
 
+  it("colours a pipe under FORCE_COLOR (as CI runners set it), not under FORCE_COLOR=0, and never with NO_COLOR too", async () => {
+    // FORCE_COLOR: common practice, no source (CI runners set it so a log shows colours).
+    const stdin = "a/x\n";
+    const sgr = "\u001b[";
+    expect((await cli(["-"], { stdin, env: { FORCE_COLOR: "1" } })).stdout).toContain(sgr);
+    expect((await cli(["-"], { stdin, env: { FORCE_COLOR: "1", TERM: "dumb" } })).stdout).toContain(sgr);
+    expect((await cli(["-"], { stdin, env: { FORCE_COLOR: "0" } })).stdout).not.toContain(sgr);
+    expect(
+      (await cli(["-"], { stdin, tty: { rows: 30 }, env: { FORCE_COLOR: "false" } })).stdout,
+    ).not.toContain(sgr);
+    expect((await cli(["-"], { stdin, env: { FORCE_COLOR: "1", NO_COLOR: "1" } })).stdout).not.toContain(sgr);
+    expect((await cli(["-", "--color", "never"], { stdin, env: { FORCE_COLOR: "1" } })).stdout).not.toContain(
+      sgr,
+    );
+  });
+
   it("defaults the budget to the terminal height less one, else 40", async () => {
     const stdin = Array.from({ length: 100 }, (_, i) => `d/f${i}`).join("\n");
     expect((await cli(["-"], { stdin })).stdout.trimEnd().split("\n")).toHaveLength(40);
     expect(
       (await cli(["-", "--color", "never"], { stdin, tty: { rows: 12 } })).stdout.trimEnd().split("\n"),
     ).toHaveLength(11);
+  });
+
+  it("says on the header when the budget is the default for output that is no terminal (a CI log)", async () => {
+    const stdin = Array.from({ length: 100 }, (_, i) => `d/f${i}`).join("\n");
+    const why = "40 of 40 lines (default budget: not a terminal)";
+    expect((await cli(["-"], { stdin })).stdout.split("\n")[0]).toMatch(
+      /; 40 of 40 lines \(default budget: not a terminal\)$/,
+    );
+    expect((await cli(["-", "--format", "markdown"], { stdin })).stdout.split("\n")[0]).toContain(why);
+    expect((await cli(["-", "--budget", "40"], { stdin })).stdout.split("\n")[0]).toMatch(
+      /; 40 of 40 lines$/,
+    );
+    const terminal = await cli(["-", "--color", "never"], { stdin, tty: { rows: 12 } });
+    expect(terminal.stdout.split("\n")[0]).toMatch(/; 11 of 11 lines$/);
   });
 
   it.each([["--help"], ["diff", "-h"], ["explore", "--help"]])(

@@ -83,7 +83,8 @@ describe.skipIf(!isGnuDu)("a du -c listing's grand total line", () => {
 describe("a last line named total that is no grand total", () => {
   it("is read as a file: its size is not what the other lines add up to", async () => {
     const listing = "10\tharbor/a\n20\tharbor\n7\ttotal\n";
-    const result = await cli(["-", "--format", "json"], { stdin: listing });
+    // A folder's own size of 10 shows no unit (UNIT_NOT_SAID): --units bytes says it.
+    const result = await cli(["-", "--format", "json", "--units", "bytes"], { stdin: listing });
     const doc = JSON.parse(result.stdout);
     expect(doc.root.children.map((c: { name: string }) => c.name)).toEqual(["harbor", "total"]);
     expect(doc.input.notes).toBeUndefined();

@@ -145,3 +145,61 @@ describe("listings of known commands", () => {
     expect(r.stderr).toMatch(/separated by colons.*\[PARSE_PATHS\]\n$/);
   });
 });
+
+const hasPip = runs("python3", ["-m", "pip", "--version"]);
+const hasDpkg = runs("dpkg", ["-s", "dpkg"]);
+
+describe("package records of fields", () => {
+  it.skipIf(!hasPip)(
+    "python3 -m pip show is PARSE_PATHS at line 2; the way named reads what requires what",
+    async () => {
+      // One record was read as a path list, exit 0: "Location: " a folder, its path split at "/".
+      const shown = run("python3", ["-m", "pip", "show", "pip"]);
+      expect(shown.split("\n")[0]).toBe("Name: pip");
+      const [file, piped] = await both("pip-show.txt", shown);
+      expect(file.code).toBe(2);
+      expect(file.stdout).toBe("");
+      expect(file.stderr).toMatch(/:2:1: the input starts as pip show, .*\[PARSE_PATHS\]\n$/);
+      // Piped in, it is YAML (YAML 1.2: a mapping of plain scalars), read as values, and the header says so.
+      expect(piped.code).toBe(0);
+      expect(piped.stdout.split("\n")[0]).toContain("every value a node");
+      // The way the message names, run as it says: an edge a line from each record's Requires.
+      const way =
+        /For what requires what, list one edge a line: pip show PKG\.\.\. \| (awk .*) \| espalier - --input-format edges;/.exec(
+          file.stderr,
+        )?.[1];
+      expect(way).toBeDefined();
+      const records = [
+        "Name: quay-cli",
+        "Version: 2.0.1",
+        "Requires: tide-log, brine",
+        "Required-by: ",
+        "---",
+        "Name: tide-log",
+        "Version: 0.3.0",
+        "Requires: brine",
+        "Required-by: quay-cli",
+        "",
+      ].join("\n");
+      const edges = execFileSync("sh", ["-c", way!], { input: records, encoding: "utf8" });
+      expect(edges).toBe("quay-cli\ttide-log\nquay-cli\tbrine\ntide-log\tbrine\n");
+      const r = await cli(["-", "--input-format", "edges", "--format", "json"], { stdin: edges });
+      expect(r.code, r.stderr).toBe(0);
+      // Three packages; brine, required twice, is counted once.
+      expect(JSON.parse(r.stdout).totals.nodes).toBe(3);
+    },
+  );
+
+  it.skipIf(!hasDpkg)("dpkg -s and the dpkg status file are PARSE_PATHS at line 2", async () => {
+    // deb-control(5) fields: Package: first, then Status: (or Essential:) a line.
+    // Saved as a path list's file, and the status file piped in (as YAML its Package: keys repeat).
+    writeFileSync(join(base, "dpkg-s.txt"), run("dpkg", ["-s", "dpkg"]));
+    for (const r of [
+      await cli([join(base, "dpkg-s.txt")]),
+      await cli(["-"], { stdin: readFileSync("/var/lib/dpkg/status", "utf8") }),
+    ]) {
+      expect(r.code).toBe(2);
+      expect(r.stderr).toMatch(/:2:1: the input starts as pip show, dpkg -s .*\[PARSE_PATHS\]\n$/);
+    }
+  });
+});

@@ -82,7 +82,7 @@ describe("names whose bytes are not UTF-8", () => {
   );
 
   it("a name that writes U+FFFD itself in UTF-8 is no UNDECODABLE_BYTES", async () => {
-    const r = await cli(["-", "--format", "json"], {
+    const r = await cli(["-", "--format", "json", "--units", "bytes"], {
       stdin: "10\tbakery/\uFFFD-stamp.txt\n20\tbakery/b.txt\n",
     });
     expect(r.code).toBe(0);

@@ -137,6 +137,34 @@ describe("the header line says each reading note in a few words", () => {
     expect(JSON.parse(json.stdout).notes.map((n: { version: string }) => n.version)).toEqual(["OLD", "NEW"]);
   });
 
+  it("gives in the JSON each note's count and line, the numbers the header says", async () => {
+    // A script reads `input.notes` (a diff's `notes`): before, a note's count was on the header only.
+    const repeated = '{"name": "r", "children": {"a": {"size": 1}, "a": {"size": 2}, "b": {}, "b": {}}}';
+    const yaml = "base: &b {cpu: 1}\nweb: *b\nweb2: *b\n";
+    for (const [stdin, format, code] of [
+      [listing, "json", "MISSING_ENTRIES"],
+      [repeated, "json", "REPEATED_KEY"],
+      [yaml, "yaml", "ALIASES_AS_TEXT"],
+    ] as const) {
+      const text = await cli(["-", "--input-format", format], { stdin });
+      const said = Number(/; (\d+) (missing|repeated key|YAML alias)/.exec(text.stdout.split("\n")[0])?.[1]);
+      const lineSaid = Number(/^espalier: note: <stdin>:(\d+):/.exec(text.stderr)?.[1]);
+      const json = await cli(["-", "--input-format", format, "--format", "json"], { stdin });
+      const [note] = JSON.parse(json.stdout).input.notes;
+      expect(note).toMatchObject({ code, count: said, line: lineSaid });
+      expect(said).toBeGreaterThan(0);
+    }
+    const files = { "old.json": installed, "new.json": listing };
+    const diff = await cli(["diff", "old.json", "new.json", "--format", "json"], { files });
+    expect(diffSchema.parse(JSON.parse(diff.stdout)).notes).toEqual([
+      expect.objectContaining({
+        version: "NEW",
+        code: "MISSING_ENTRIES",
+        count: missingIn(JSON.parse(listing)),
+      }),
+    ]);
+  });
+
   it("counts repeated keys and YAML aliases read as text", async () => {
     // RFC 8259 section 4: names SHOULD be unique; JSON.parse keeps the last (ECMA-262 JSON.parse).
     const repeated = '{"name": "r", "children": {"a": {"size": 1}, "a": {"size": 2}, "b": {}, "b": {}}}';

@@ -70,17 +70,67 @@ describe("a list of one folder's entries whose sizes show no unit", () => {
     expect(JSON.parse(said.stdout).totals.size).toBe(sum(bytes));
   });
 
+  it.skipIf(!gnu)("a listing with folders and their contents, in bytes, has no note", async () => {
+    for (const listing of [sh("du -ab jobs"), sh("find jobs -printf '%s\\t%p\\n'")]) {
+      const r = await cli(["-", "--format", "json"], { stdin: listing });
+      expect(r.code).toBe(0);
+      expect(JSON.parse(r.stdout).input.notes).toBeUndefined();
+    }
+  });
+
   it.skipIf(!gnu)(
-    "a listing with folders and their contents, or of fewer than 8 entries, has no note",
+    "du -sb DIR/* with two empty folders (ext4's 4,096 each) has no note; du -s --apparent-size DIR/* of it has",
     async () => {
-      for (const listing of [
-        sh("du -ab jobs"),
-        sh("find jobs -printf '%s\\t%p\\n'"),
-        sh("du -sb jobs/job-[0-6]"),
-      ]) {
+      sh("mkdir -p jobs/job-empty-1 jobs/job-empty-2");
+      try {
+        const bytes = sh("du -sb jobs/*");
+        // An empty folder's size as du -sb gives it on this file system (4,096 on ext4, seen here).
+        const empty = Number(sh("du -sb jobs/job-empty-1").split("\t")[0]);
+        const r = await cli(["-", "--format", "json"], { stdin: bytes });
+        expect(r.code).toBe(0);
+        expect(JSON.parse(r.stdout).totals.size).toBe(sum(bytes));
+        if (empty === 4096) expect(JSON.parse(r.stdout).input.notes).toBeUndefined();
+        else
+          expect(JSON.parse(r.stdout).input.notes).toEqual([
+            expect.objectContaining({ code: "UNIT_NOT_SAID" }),
+          ]);
+        const kib = await cli(["-", "--format", "json"], { stdin: sh("du -s --apparent-size jobs/*") });
+        expect(JSON.parse(kib.stdout).input.notes).toEqual([
+          expect.objectContaining({ code: "UNIT_NOT_SAID", count: 11 }),
+        ]);
+      } finally {
+        sh("rmdir jobs/job-empty-1 jobs/job-empty-2");
+      }
+    },
+  );
+
+  it.skipIf(!gnu)(
+    "a list too short to tell KiB or blocks from bytes has a note, unless a folder's own size shows bytes",
+    async () => {
+      // Before: each read as bytes with no word, exit 0, 1,024 times too small where it was KiB.
+      for (const [listing, count] of [
+        [sh("du -s --apparent-size jobs/job-[0-2]"), 3],
+        [sh("du -s jobs/job-[0-2]"), 3],
+        [sh("du -sb jobs/job-[0-6]"), 7],
+        [sh("du -a --apparent-size jobs/job-0"), 4],
+        [sh("du -a jobs/job-0"), 4],
+        [sh("find jobs/job-0 -printf '%k\\t%p\\n'"), 4],
+        [sh("du -s --apparent-size jobs"), 1],
+      ] as const) {
         const r = await cli(["-", "--format", "json"], { stdin: listing });
         expect(r.code).toBe(0);
-        expect(JSON.parse(r.stdout).input.notes).toBeUndefined();
+        // Lines of the listing, by wc -l's count (a line a size above 0 here).
+        expect(listing.trim().split("\n")).toHaveLength(count);
+        expect(JSON.parse(r.stdout).input.notes, listing).toEqual([
+          expect.objectContaining({ code: "UNIT_NOT_SAID", count }),
+        ]);
+      }
+      // In bytes, a folder's own part is its directory's size (4,096 and up on ext4): bytes shown.
+      for (const listing of [sh("du -ab jobs/job-0"), sh("find jobs/job-0 -printf '%s\\t%p\\n'")]) {
+        const r = await cli(["-", "--format", "json"], { stdin: listing });
+        expect(r.code).toBe(0);
+        expect(JSON.parse(r.stdout).input.notes, listing).toBeUndefined();
+        expect(JSON.parse(r.stdout).totals.size).toBe(Number(sh("du -sb jobs/job-0").split("\t")[0]));
       }
     },
   );

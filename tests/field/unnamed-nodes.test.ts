@@ -20,7 +20,7 @@ describe("nested nodes none of which has the name field", () => {
     const r = await cli(["mounts.json", "--width", "200"], { files: { "mounts.json": mounts } });
     expect(r.code).toBe(0);
     expect(r.stdout.split("\n")[0]).toBe(
-      'summary: 4 nodes; no "name" field: nodes print as "" (see --name-field); no focus; 5 of 40 lines',
+      'summary: 4 nodes; no "name" field: nodes print as "" (see --name-field); no focus; 5 of 40 lines (default budget: not a terminal)',
     );
     const named = await cli(["mounts.json", "--name-field", "target", "--bare"], {
       files: { "mounts.json": mounts },
@@ -28,7 +28,9 @@ describe("nested nodes none of which has the name field", () => {
     expect(named.stdout).toBe(". /  4 nodes\n  . /srv/quill\n  . /srv/tide / /srv/tide/logs  2 nodes\n");
     // A --label template chooses each line's text itself: nothing to say then.
     const label = await cli(["mounts.json", "--label", "{target}"], { files: { "mounts.json": mounts } });
-    expect(label.stdout.split("\n")[0]).toBe("summary: 4 nodes; no focus; 5 of 40 lines");
+    expect(label.stdout.split("\n")[0]).toBe(
+      "summary: 4 nodes; no focus; 5 of 40 lines (default budget: not a terminal)",
+    );
   });
 
   it("YAML the same; children keyed by name below a nameless top are named, so nothing is said", async () => {
@@ -38,6 +40,8 @@ describe("nested nodes none of which has the name field", () => {
     // npm ls --json without --all: a nameless top whose dependencies are keyed by name.
     const keyed = '{"dependencies": {"quill-ink": {"version": "1.0.0"}, "tide-log": {"version": "2.1.0"}}}';
     const k = await cli(["deps.json", "--children-field", "dependencies"], { files: { "deps.json": keyed } });
-    expect(k.stdout.split("\n")[0]).toBe("summary: 3 nodes; no focus; 5 of 40 lines");
+    expect(k.stdout.split("\n")[0]).toBe(
+      "summary: 3 nodes; no focus; 5 of 40 lines (default budget: not a terminal)",
+    );
   });
 });

@@ -29,7 +29,10 @@ describe("--importance size on an input without sizes", () => {
   });
 
   it("says nothing when the input has sizes, and notes a diff once, on NEW", async () => {
-    const sized = await cli(["-", "--importance", "size"], { stdin: "3\tharbor/a\n5\tharbor/b\n" });
+    // One folder's entries say no unit (UNIT_NOT_SAID): --units bytes says it.
+    const sized = await cli(["-", "--importance", "size", "--units", "bytes"], {
+      stdin: "3\tharbor/a\n5\tharbor/b\n",
+    });
     expect(sized.stderr).toBe("");
     const diff = await cli(["diff", "old.tsv", "-", "--importance", "size", "--bare"], {
       stdin: table.replace("gauge", "gauge-v2"),

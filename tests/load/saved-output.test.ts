@@ -198,6 +198,20 @@ describe("espalier SAVED.json (a summary espalier wrote)", () => {
     expect(read.stdout).toBe("");
   });
 
+  it("is SHAPE for a summary with reference lines (YAML aliases), whose folds may hide what they name", async () => {
+    // An invented build graph: the alias *kelp names the anchored node a second time.
+    const yaml = join(mkdtempSync(join(dir, "yaml-")), "harbour-ci.yaml");
+    writeFileSync(
+      yaml,
+      "name: harbour\nchildren:\n  - &kelp\n    name: kelp-runner\n    children:\n      - name: net\n  - name: tern\n    children:\n      - *kelp\n",
+    );
+    const { file } = await saved([yaml, "--budget", "5"]);
+    const read = await cli([file]);
+    expect(read.code).toBe(2);
+    expect(read.stderr).toContain("[SHAPE]");
+    expect(read.stdout).toBe("");
+  });
+
   it("is SHAPE for a format version it does not read", async () => {
     const { doc } = await saved([...ORG, "--budget", "12"]);
     const later = await cli([save(JSON.stringify({ ...doc, format: "espalier-summary/2" }))]);

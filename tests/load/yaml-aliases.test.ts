@@ -187,6 +187,7 @@ describe("YAML aliases read as values: a leaf of its own text", () => {
       {
         code: "ALIASES_AS_TEXT",
         line: 6,
+        count: expected,
         message: expect.stringMatching(
           new RegExp(
             `^${expected} YAML aliases are read as leaves of their own text \\(the first: \\*project, node "\\(root\\)/instance/attributes/0"\\)`,

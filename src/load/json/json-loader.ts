@@ -30,6 +30,7 @@ import { OtherFieldsKept } from "../other-fields-kept.js";
 import { fieldSizeUnit } from "../size-unit.js";
 import { linkTable } from "../table/link-table.js";
 import { rowsTable } from "../table/rows-table.js";
+import { withNotes } from "../with-notes.js";
 import { JsonTokenizer, NUL, numberValue, TRUE } from "./json-tokenizer.js";
 import { JsonKeeper, K_HIGH, K_LINES, KeptJson } from "./kept-json.js";
 import { isArrayIndexKey, reorderKeyedChildren } from "./keyed-order.js";
@@ -389,7 +390,7 @@ export class JsonLoader extends JsonTokenizer {
         row >= 1 && row <= rowLines.length
           ? { line: rowLines[row - 1], column: rowColumns[row - 1] }
           : undefined;
-      return linkTable(rowsTable(this.rows, place), this.options, "rows");
+      return withNotes(linkTable(rowsTable(this.rows, place), this.options, "rows"), this.notUtf8Notes());
     }
     const sink = this.sink;
     if (sink.length === 0) throw new EspalierError("INPUT_EMPTY", "the top-level array holds no nodes");
@@ -436,7 +437,7 @@ export class JsonLoader extends JsonTokenizer {
     for (let i = 0; i < sink.length; i++) if (this.sized[i] === EMPTY) emptyEntries++;
     if (this.keeping) this.keptForLater = this.keptJson(this.keeper);
     sink.nameNamelessTop(this.options.rootName);
-    const notes: ReadingNote[] = [];
+    const notes: ReadingNote[] = this.notUtf8Notes();
     if (this.repeats > 0) notes.push(this.repeatNote());
     const missing = this.missingNote();
     if (missing) notes.push(missing);

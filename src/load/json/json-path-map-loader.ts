@@ -3,6 +3,7 @@ import { EspalierError, type MessagePart, quoted, say } from "../../errors.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
 import type { LoadOptions } from "../load-options.js";
 import { linkPathMap } from "../table/link-table.js";
+import { withNotes } from "../with-notes.js";
 import { JsonTokenizer } from "./json-tokenizer.js";
 import { C_ROW, Captures } from "./value-capture.js";
 
@@ -41,7 +42,7 @@ export class JsonPathMapLoader extends JsonTokenizer {
         say`the top-level object has no object ${quoted.name(this.field)} keyed by path`,
       );
     }
-    return linkPathMap(this.keys, this.records, this.options, this.field);
+    return withNotes(linkPathMap(this.keys, this.records, this.options, this.field), this.notUtf8Notes());
   }
 
   protected open(i: number, object: boolean): void {

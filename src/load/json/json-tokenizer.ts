@@ -1,6 +1,9 @@
 import type { Buffer } from "node:buffer";
 import { EspalierError, type MessagePart, quoted, say } from "../../errors.js";
 import { asBuffer, codecs } from "../../model/buffer-codecs.js";
+import type { ReadingNote } from "../../model/reading-note.js";
+import { wellFormedUtf8 } from "../../model/well-formed-utf8.js";
+import { notUtf8Note } from "../not-utf8-note.js";
 import { limitsOf, type ReadLimits, readLimits, tooLong } from "../read-limits.js";
 import { ByteBuffer } from "./byte-buffer.js";
 import { JsonPositions } from "./json-positions.js";
@@ -62,6 +65,9 @@ export abstract class JsonTokenizer {
   // Of the last string scanned: whether it holds an escape or a byte >= 0x80.
   private strEscape = false;
   private strHigh = false;
+  // Strings holding bytes that are not UTF-8 (RFC 8259 section 8.1 wants UTF-8), and the first's line.
+  private notUtf8Strings = 0;
+  private firstNotUtf8 = 0;
 
   /** `limits`: lower limits of reading than `readLimits` (LoadOptions.limits). */
   constructor(limits?: Partial<ReadLimits>) {
@@ -508,7 +514,19 @@ export abstract class JsonTokenizer {
   /** After the hooks: checks the escapes no hook asked for, and counts the string for columns. */
   private stringDone(bytes: Uint8Array, q: number, e: number, absQ: number): void {
     if (this.strEscape && !this.strChecked) this.unescape(bytes, q, e, absQ, false);
-    if (this.strHigh) this.pos.afterHighString(bytes, q, e);
+    if (this.strHigh) {
+      // Only strings with a byte >= 0x80 are looked at: an ASCII document costs nothing more.
+      if (!wellFormedUtf8(bytes, q + 1, e) && this.notUtf8Strings++ === 0) this.firstNotUtf8 = this.pos.line;
+      this.pos.afterHighString(bytes, q, e);
+    }
+  }
+
+  /**
+   * UNDECODABLE_BYTES when strings (names, keys, values) held bytes that are not UTF-8: each bad
+   * sequence reads as U+FFFD, so names that differ only there print alike.
+   */
+  protected notUtf8Notes(): ReadingNote[] {
+    return this.notUtf8Strings > 0 ? [notUtf8Note("string", this.notUtf8Strings, this.firstNotUtf8)] : [];
   }
 
   private unescape(bytes: Uint8Array, q: number, e: number, absQ: number, need: boolean): string | undefined {
@@ -642,11 +660,14 @@ function jsoncHint(c: number, afterComma: boolean): string {
 
 /**
  * What a second value at the start of a line is: JSON Lines (one JSON text a line, jsonlines.org),
- * which espalier reads as a fact table, its records rolled up by columns named as levels.
+ * which espalier reads as a fact table, its records rolled up by columns named as levels; records
+ * linked by an id and a parent (an export of rows) read as JSON rows once they are one array, which
+ * the sed named makes of them (blank lines left out, "[" before the first, "," after each but the
+ * last, "]" after it).
  */
 function jsonLinesHint(c: number, lineStart: boolean): string {
   if (!lineStart || (c !== 0x7b && c !== 0x5b)) return "";
-  return "; another JSON text begins this line: one value a line (JSON Lines) is read as a table of records, with --input-format jsonl and the columns that make its levels (--levels team,service, or --key-field)";
+  return "; another JSON text begins this line: one value a line (JSON Lines) is read as a table of records, with --input-format jsonl and the columns that make its levels (--levels team,service, or --key-field); records linked by an id and a parent field read as rows once they are one array: sed '/^[[:space:]]*$/d' FILE | sed '1s/^/[/; $!s/$/,/; $s/$/]/' | espalier - --input-format rows";
 }
 
 function shown(c: number): MessagePart {

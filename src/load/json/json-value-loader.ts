@@ -70,7 +70,12 @@ export class JsonValueLoader extends JsonTokenizer {
       );
     const itemNames = byNode(sink.length, this.namedItems, this.itemNames, MOST_ITEM_NAMES);
     if (itemNames) fields.set(ITEM_NAME_FIELD, itemNames);
-    return sink.finish(this.options.rootName, fields, null, { shape: "values", sizeUnit: "bytes" });
+    const notes = this.notUtf8Notes();
+    return sink.finish(this.options.rootName, fields, null, {
+      shape: "values",
+      sizeUnit: "bytes",
+      ...(notes.length > 0 ? { notes } : {}),
+    });
   }
 
   // The length of the top-level value.

@@ -4,6 +4,7 @@ import { buildGraphTree } from "../../model/build-graph.js";
 import { buildTree } from "../../model/build-tree.js";
 import type { GraphNodes } from "../../model/graph-nodes.js";
 import type { LinkedNodes } from "../../model/linked-nodes.js";
+import type { ReadingNote } from "../../model/reading-note.js";
 import type { Tree } from "../../model/tree.js";
 import { noteApartFirstLine } from "../apart-first-line.js";
 import { byteLoader } from "../byte-loader.js";
@@ -24,6 +25,7 @@ import { type KeptJson, keptJsons } from "../json/kept-json.js";
 import { valueAtPointer } from "../json/value-at-pointer.js";
 import { parsePointer, readAtPointer, startAtFormat } from "../json-pointer.js";
 import type { InputFormat, LoadOptions } from "../load-options.js";
+import { documentNotUtf8Note } from "../not-utf8-note.js";
 import { checkPathListOptions } from "../path-list/path-list-options.js";
 import { jsonGraphTooLong, limitsOf } from "../read-limits.js";
 import { checkReadingOptions } from "../reading-options.js";
@@ -35,6 +37,7 @@ import { linkTable } from "../table/link-table.js";
 import { placeInTable } from "../table/locate-cell.js";
 import { checkNullParentUse } from "../table/null-parent.js";
 import { checkShortRowsFormat } from "../table/short-rows-format.js";
+import { withNotes } from "../with-notes.js";
 import { edgeListStream } from "./edge-list-stream.js";
 import { readStart, type StreamStart } from "./read-start.js";
 
@@ -150,7 +153,9 @@ async function linkedNodes(
   if (format === "yaml") {
     // The YAML parser is loaded only for YAML input (a start reads no code it does not run).
     const { loadYaml } = await import("../load-yaml.js");
-    return loadYaml(await wholeText(chunks, "YAML", limitsOf(options.limits).maxYamlBytes), options);
+    const bytes = await wholeBytes(chunks, "YAML", limitsOf(options.limits).maxYamlBytes);
+    const text = new TextDecoder("utf-8", { ignoreBOM: true }).decode(bytes);
+    return withNotes(loadYaml(text, options), notUtf8Lines(bytes));
   }
   if (format === "edges") {
     const start = new TextDecoder("utf-8", { ignoreBOM: true }).decode(head);
@@ -172,7 +177,7 @@ async function linkedNodes(
     // A CycloneDX SBOM: read whole, as a JSON graph is, and read as its dependency graph when it has one.
     const bytes = await wholeBytes(chunks, "JSON", limitsOf(options.limits).maxJsonGraphBytes);
     const graph = jsonSbom(bytes, options);
-    if (graph) return graph;
+    if (graph) return withNotes(graph, notUtf8Lines(bytes));
     loader!.write(bytes);
     const linked = loader!.end();
     if (loader instanceof JsonLoader) seen.keptJson = loader.keptForLater;
@@ -182,7 +187,7 @@ async function linkedNodes(
   if ((format === "json" || format === "rows") && options.graph) {
     const bytes = await wholeBytes(chunks, "JSON", limitsOf(options.limits).maxJsonGraphBytes);
     const graph = jsonGraph(new TextDecoder("utf-8", { ignoreBOM: true }).decode(bytes), options, bytes);
-    if (graph) return graph;
+    if (graph) return withNotes(graph, notUtf8Lines(bytes));
     // No JSON: the JSON loader reads the same bytes and places the error.
     loader!.write(bytes);
     return loader!.end();
@@ -217,15 +222,6 @@ async function linkedNodes(
   }
 }
 
-/** The whole input as one string (YAML); LIMIT_EXCEEDED past `maxBytes` or what a string can hold. */
-async function wholeText(
-  chunks: AsyncIterable<Uint8Array>,
-  what: "YAML" | "JSON",
-  maxBytes: number = constants.MAX_STRING_LENGTH,
-): Promise<string> {
-  return new TextDecoder("utf-8", { ignoreBOM: true }).decode(await wholeBytes(chunks, what, maxBytes));
-}
-
 /**
  * The whole input as bytes (YAML, JSON graphs), at most `maxBytes` (read-limits.ts maxYamlBytes,
  * maxJsonGraphBytes: the parser holds the whole document and several times its size in values) and
@@ -253,4 +249,10 @@ async function wholeBytes(
     }
   }
   return Buffer.concat(parts, length);
+}
+
+/** The UNDECODABLE_BYTES note of a document read whole (YAML, a JSON graph), as a list: none when its bytes are UTF-8. */
+function notUtf8Lines(bytes: Uint8Array): ReadingNote[] {
+  const note = documentNotUtf8Note(bytes);
+  return note ? [note] : [];
 }

@@ -8,7 +8,7 @@ import { isSize } from "../../model/size-rule.js";
 import type { LoadOptions } from "../load-options.js";
 import { missingField, nameFieldNamed, sizeFieldNamed } from "../missing-field.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
-import { notUtf8Note } from "../not-utf8-note.js";
+import { tableNotUtf8Notes } from "../not-utf8-note.js";
 import { keepingOtherFields, otherFields, withOtherFields } from "../other-fields.js";
 import { parseSize } from "../parse-size.js";
 import { mixedStartsNote } from "../path-list/mixed-starts.js";
@@ -59,18 +59,10 @@ export function linkTable(
     ...(idsName ? { namesFrom: options.idField } : {}),
     linkedBy: linkedBy(table, options),
     ...withOtherFields(otherFields(columns, options)),
-    ...notesOf([...(linked.reading?.notes ?? []), ...notUtf8Notes(table)]),
+    ...notesOf([...(linked.reading?.notes ?? []), ...tableNotUtf8Notes(table)]),
   };
   if (table.place) linked.placeRow = table.place;
   return linked;
-}
-
-/** The UNDECODABLE_BYTES note of a table some rows of which hold bytes that are not UTF-8, if any. */
-function notUtf8Notes(table: Table): ReadingNote[] {
-  const found = table.notUtf8?.();
-  if (found === undefined) return [];
-  const line = table.place?.(found.first)?.line ?? found.first + 1;
-  return [notUtf8Note("row", found.count, line)];
 }
 
 /** `notes` as a reading's field: absent when there are none. */
