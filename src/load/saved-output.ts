@@ -79,13 +79,21 @@ export function loadSavedOutput(text: string, format: string, options: LoadOptio
   if (tree.length !== linked.saved.length) throw notValid("its nodes are not one tree");
   const folds = linked.elided.reduce((k, _, i) => k + (linked.saved[i] === null ? 1 : 0), 0);
   const notes: ReadingNote[] = [savedNote(folds)];
+  // Read whole, a root espalier added above the input's top-level nodes is one still: a diff compares
+  // it with the other version's root whatever each is named (diff/align-roots.ts), as it compares the
+  // inputs themselves, and --pseudonymize prints its name (the input's) as it did.
+  const whole = !options.startAt;
   const read: Tree = {
     ...tree,
+    syntheticRoot: tree.syntheticRoot || (whole && addedRoot(linked.saved[0], input)),
     elided: linked.elided,
     reading: {
       shape: "nodes",
       sizeUnit: input.sizeUnit === "bytes" ? "bytes" : "number",
       ...(options.startAt ? { startAt: options.startAt } : {}),
+      // A listing's root that stood for the listed folder still does (read whole): a diff then compares
+      // it with the other version's root whatever each is named, as it compares the listings themselves.
+      ...(whole && input.rootIsStart === true ? { rootIsStart: true } : {}),
       ...(linked.empty > 0 ? { emptyEntries: linked.empty } : {}),
       ...(options.keepOtherFields ? { otherFields: [FOLDED_FIELD] } : {}),
       notes,
@@ -93,6 +101,19 @@ export function loadSavedOutput(text: string, format: string, options: LoadOptio
   };
   checkTotals(read, linked.saved, options.startAt ? undefined : totals);
   return read;
+}
+
+/**
+ * Whether a saved summary's root is one espalier named after the input file: above a table's top-level
+ * rows (its id "", which no row can have: an empty id cell is SHAPE), a fact table's rollup
+ * (input.rolledUpRows) or a document read as values (input.shape "values": its root is the document,
+ * always named after the file). A document of node objects does not say whether its root's name came
+ * from the file or from its name field, so its root keeps the saved name.
+ */
+function addedRoot(root: SavedNode | null | undefined, input: Record<string, unknown>): boolean {
+  return (
+    root?.id === "" || input.shape === "values" || (input.shape === "table" && isCount(input.rolledUpRows))
+  );
 }
 
 /** A saved diff, or a format this version does not read: SHAPE naming what to run instead. */
