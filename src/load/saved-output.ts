@@ -79,13 +79,21 @@ export function loadSavedOutput(text: string, format: string, options: LoadOptio
   if (tree.length !== linked.saved.length) throw notValid("its nodes are not one tree");
   const folds = linked.elided.reduce((k, _, i) => k + (linked.saved[i] === null ? 1 : 0), 0);
   const notes: ReadingNote[] = [savedNote(folds)];
+  // Read whole, a root espalier added above the input's top-level nodes is one still: a diff compares
+  // it with the other version's root whatever each is named (diff/align-roots.ts), as it compares the
+  // inputs themselves, and --pseudonymize prints its name (the input's) as it did.
+  const whole = !options.startAt;
   const read: Tree = {
     ...tree,
+    syntheticRoot: tree.syntheticRoot || (whole && addedRoot(linked.saved[0], input)),
     elided: linked.elided,
     reading: {
       shape: "nodes",
       sizeUnit: input.sizeUnit === "bytes" ? "bytes" : "number",
       ...(options.startAt ? { startAt: options.startAt } : {}),
+      // A listing's root that stood for the listed folder still does (read whole): a diff then compares
+      // it with the other version's root whatever each is named, as it compares the listings themselves.
+      ...(whole && input.rootIsStart === true ? { rootIsStart: true } : {}),
       ...(linked.empty > 0 ? { emptyEntries: linked.empty } : {}),
       ...(options.keepOtherFields ? { otherFields: [FOLDED_FIELD] } : {}),
       notes,
@@ -93,6 +101,15 @@ export function loadSavedOutput(text: string, format: string, options: LoadOptio
   };
   checkTotals(read, linked.saved, options.startAt ? undefined : totals);
   return read;
+}
+
+/**
+ * Whether a saved summary's root is one espalier added above the input's top-level nodes, named after
+ * the input file: a table's (its id "", which no row can have: an empty id cell is SHAPE) or a fact
+ * table's rollup (input.rolledUpRows), whose root is always espalier's.
+ */
+function addedRoot(root: SavedNode | null | undefined, input: Record<string, unknown>): boolean {
+  return root?.id === "" || (input.shape === "table" && isCount(input.rolledUpRows));
 }
 
 /** A saved diff, or a format this version does not read: SHAPE naming what to run instead. */
@@ -356,7 +373,7 @@ function parseError(body: string, err: unknown): EspalierError {
 function graphRefused(): EspalierError {
   return new EspalierError(
     "SHAPE",
-    "this espalier summary is of a graph: its reference lines stand for entries its folds may hide, so it is not read back as a tree; run espalier on the original input, or read its JSON text with --read-as values",
+    "this espalier summary has reference lines (a graph's nodes with several parents, or YAML aliases), which stand for entries its folds may hide, so it is not read back as a tree; run espalier on the original input, or read its JSON text with --read-as values",
   );
 }
 

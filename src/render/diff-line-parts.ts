@@ -2,7 +2,7 @@ import { type ChangeCounts, changeKinds } from "../diff/changes.js";
 import type { DiffViewNode } from "../diff/diff-view.js";
 import { safeText, shownLabel } from "../model/safe-text.js";
 import { amount, formatCount, type NumberOptions } from "./amount.js";
-import { shortenMiddle } from "./display-width.js";
+import { displayWidth, shortenMiddle } from "./display-width.js";
 import { cutEditValues, editValues } from "./edit-values.js";
 import { formatSize } from "./format-size.js";
 import type { LineGroup } from "./line-groups.js";
@@ -107,14 +107,36 @@ export function tagParts(
   node: DiffViewNode,
   options: NumberOptions,
   rootName?: string,
-): Pick<LineParts, "tag" | "shortTag" | "tagAt"> {
+): Pick<LineParts, "tag" | "shortTag" | "tagAt" | "tagCutWidths"> {
   return {
     tag: changeTag(node, options, undefined, rootName),
     shortTag: changeTag(node, options, SHORT_FROM, rootName),
     ...(node.change !== null
-      ? { tagAt: (columns: number) => changeTag(node, options, Math.max(SHORT_FROM, columns), rootName) }
+      ? {
+          tagAt: (columns: number) => changeTag(node, options, Math.max(1, columns), rootName),
+          tagCutWidths: cutTexts(node, rootName).map(displayWidth),
+        }
       : {}),
   };
+}
+
+/** The texts of a tag that `changeTag` cuts to `fromWidth`: the old path, the old name, each value. */
+function cutTexts(node: DiffViewNode, rootName?: string): string[] {
+  const texts: string[] = [];
+  if (node.movedFrom !== null) texts.push(oldParent(node.movedFrom, rootName));
+  if (node.renamedFrom !== null) texts.push(shownLabel(node.renamedFrom));
+  for (const edit of node.edits) texts.push(...editValues(edit.old, edit.new).map(editValue));
+  return texts;
+}
+
+/**
+ * A moved node's old parent as its tag says it; the root (an empty path) named, since "from the
+ * root" read as "was a top node" (field test: an org chart's report moved from directly under the
+ * company).
+ */
+function oldParent(movedFrom: string, rootName?: string): string {
+  if (movedFrom !== "") return safeText(movedFrom);
+  return rootName !== undefined ? `${shownLabel(rootName)} (the root)` : "the root";
 }
 
 /**
@@ -134,17 +156,7 @@ export function changeTag(
   if (node.change === null) return "";
   const cut = (text: string) => (fromWidth === undefined ? text : shortenMiddle(text, fromWidth));
   const parts: string[] = [node.change];
-  if (node.movedFrom !== null) {
-    // The old parent was the root (its path is empty): named, since "from the root" read as "was a
-    // top node" (field test: an org chart's report moved from directly under the company).
-    const from =
-      node.movedFrom !== ""
-        ? safeText(node.movedFrom)
-        : rootName !== undefined
-          ? `${shownLabel(rootName)} (the root)`
-          : "the root";
-    parts[0] += ` from ${cut(from)}`;
-  }
+  if (node.movedFrom !== null) parts[0] += ` from ${cut(oldParent(node.movedFrom, rootName))}`;
   if (node.renamedFrom !== null) {
     const from = `from ${cut(shownLabel(node.renamedFrom))}`;
     if (node.change === "renamed") parts[0] += ` ${from}`;

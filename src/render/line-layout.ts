@@ -22,11 +22,13 @@ export interface LineParts {
   /** The same tag with any old path or name in it cut to a few columns, for narrow lines. */
   shortTag: string;
   /**
-   * The tag with each old path, old name and value in it cut to at most `columns` columns, never
-   * fewer than `shortTag`'s (a value keeps where it changed): the layout asks for the widest that
-   * fits the line's room; absent without a tag.
+   * The tag with each old path, old name and value in it cut to at most `columns` columns (a value
+   * keeps where it changed): the layout asks for the widest that fits the line's room, wider than
+   * `shortTag` before names are cut, narrower before the tag keeps only its kind; absent without a tag.
    */
   tagAt?: (columns: number) => string;
+  /** The widths of the texts `tagAt` cuts (old path, old name, each value), for a first guess. */
+  tagCutWidths?: readonly number[];
   /** The tag's kind, for its colour; null without a tag. */
   tagKind: ChangeKind | null;
   /** The labels the line names: one node, or a chain of only children, top first. */
@@ -207,7 +209,8 @@ export interface LaidOutLine {
  *   5. the fold's size goes, its count stays (`(hidden: 41 nodes)`; in a diff with how many changed
  *      nodes it holds), then the line's size (`608 nodes`), then the fold's words (`(41 hidden)`);
  *   6. a deep line's indentation shrinks to a third of the width, its level in digits at its end;
- *   7. the labels are cut down to 4 columns again, then the tag keeps only its kind (`[moved]`: its
+ *   7. the labels are cut down to 4 columns again, then the tag's old paths and values are cut to
+ *      fewer columns, down to 3 each, then the tag keeps only its kind (`[moved]`: its
  *      old path and its size change go), then a diff's fold drops how many changed (`(41 hidden)`);
  *   8. the indentation is only the level in digits (`12 `), the labels cut down to two characters
  *      and `…`;
@@ -283,13 +286,15 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
   // [indentation, tag, fewest label columns (0: whole), numbers, fold]; from FIRST_CUT on a step may
   // leave a number out.
   const compactWords = p.foldShort === p.foldCounts ? p.foldTiny : (p.compactFoldSized ?? compactFoldCounts);
+  // The labels at their 4-column floor, for measuring a tag beside them (see `fewerTag`).
+  const floorText = "x".repeat(floorOf(p.labels, FEW_LABEL));
   const steps: Step[] = [
     [indent, p.tag, 0, p.numbers, p.fold],
     [indent, p.tag, 0, p.numbers, p.foldCounts],
     [indent, p.tag, 0, p.numbers, foldWords],
     [
       indent,
-      roomyTag(p, width, (tag) => line(indent, label, tag, p.numbers, foldWords, false)),
+      once(() => roomyTag(p, width, (tag) => line(indent, label, tag, p.numbers, foldWords, false))),
       0,
       p.numbers,
       foldWords,
@@ -302,6 +307,15 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     [indent, p.shortTag, MIN_LABEL, p.countNumbers, p.foldTiny],
     [short, p.shortTag, MIN_LABEL, p.countNumbers, p.foldTiny],
     [short, p.shortTag, FEW_LABEL, p.countNumbers, p.foldTiny],
+    [
+      short,
+      once(() =>
+        fewerTag(p, width, kindTag, (tag) => line(short, floorText, tag, p.countNumbers, p.foldTiny, false)),
+      ),
+      FEW_LABEL,
+      p.countNumbers,
+      p.foldTiny,
+    ],
     [short, kindTag, FEW_LABEL, p.countNumbers, p.foldTiny],
     [short, kindTag, FEW_LABEL, p.countNumbers, foldBare],
     [least, kindTag, FEW_LABEL, p.countNumbers, foldBare],
@@ -339,7 +353,8 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
         );
   // Steps that differ only in how far they cut the names leave the names the same room: measured once.
   const rooms = new Map<string, number>();
-  for (const [k, [ind, tag, fewest, numbers, fold]] of withoutCount(p, keepAll ? kept : steps, sign)) {
+  for (const [k, [ind, tagOf, fewest, numbers, fold]] of withoutCount(p, keepAll ? kept : steps, sign)) {
+    const tag = typeof tagOf === "string" ? tagOf : tagOf();
     const at = `${ind.length}\u0000${tag}\u0000${numbers}\u0000${fold}`;
     let room = rooms.get(at);
     if (room === undefined) {
@@ -408,20 +423,56 @@ function roomyTag(p: LineParts, width: number, lineOf: (tag: string) => string):
   const fits = (tag: string) => displayWidth(lineOf(tag)) <= width;
   if (fits(p.tag)) return p.tag;
   const least = displayWidth(p.shortTag);
-  // Wider columns never make a narrower tag: the widest that fits, by halving.
-  let lo = 0;
-  let hi = displayWidth(p.tag);
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1;
-    if (fits(p.tagAt(mid))) lo = mid;
-    else hi = mid;
+  // The first guess: the widest cap whose cuts take off the columns the line is over, every text
+  // cut to the cap (one narrower stays whole); then a column at a time, to the widest that fits
+  // (a cut may come out narrower than its cap: a wide character, the ellipsis's place). Two or
+  // three tags a line, where halving the columns made eight (a 2,000-line diff at 90 columns).
+  const widths = p.tagCutWidths ?? [displayWidth(p.tag)];
+  const over = displayWidth(lineOf(p.tag)) - width;
+  const taken = (cap: number) => widths.reduce((sum, w) => sum + Math.max(0, w - cap), 0);
+  let cap = Math.max(0, ...widths);
+  while (cap > 1 && taken(cap) < over) cap--;
+  let tag = p.tagAt(cap);
+  if (fits(tag)) for (let next = p.tagAt(cap + 1); fits(next); next = p.tagAt(++cap + 1)) tag = next;
+  else while (cap > 1 && !fits(tag)) tag = p.tagAt(--cap);
+  return displayWidth(tag) > least && fits(tag) ? tag : p.shortTag;
+}
+
+/** Fewest columns a tag's old path, name or value is cut to before the tag keeps only its kind. */
+const LEAST_FROM = 3;
+
+/** Most columns `fewerTag` tries, above the few of `shortTag` (8). */
+const FEWER_FROM = 12;
+
+/**
+ * The widest tag `p.tagAt` gives, its old paths and values cut to fewer columns than `shortTag`'s
+ * (down to {@link LEAST_FROM}), whose line (`lineOf`) fits `width`; else `kindTag`, the kind alone:
+ * `[edited image re…0 -> re…1] tern` says more than `[edited] tern` where it fits.
+ */
+function fewerTag(p: LineParts, width: number, kindTag: string, lineOf: (tag: string) => string): string {
+  if (p.tagAt === undefined) return kindTag;
+  const least = displayWidth(p.shortTag);
+  for (let columns = FEWER_FROM; columns >= LEAST_FROM; columns--) {
+    const tag = p.tagAt(columns);
+    if (displayWidth(tag) < least && displayWidth(lineOf(tag)) <= width) return tag;
   }
-  const tag = p.tagAt(lo);
-  return lo > 0 && displayWidth(tag) > least && fits(tag) ? tag : p.shortTag;
+  return kindTag;
 }
 
 /** A step of `laidOutLine`: [indentation, tag, fewest label columns (0: whole), numbers, fold]. */
-type Step = [string, string, number, string, string];
+type Step = [string, string | (() => string), number, string, string];
+
+/**
+ * `make`, called the first time it is asked for and remembered: a tag cut to the line's room is worked
+ * out only for a line that gets that far (most lines fit at the first steps).
+ */
+function once(make: () => string): () => string {
+  let made: string | undefined;
+  return () => {
+    made ??= make();
+    return made;
+  };
+}
 
 /**
  * `steps` with their places in the list (a step from FIRST_CUT on may leave a number out), and for a

@@ -146,6 +146,12 @@ export const inputReadingSchema = z
       .describe(
         "JSON/YAML read from one part of the document (--start-at): the JSON Pointer (RFC 6901) of that part; absent when the whole document was read.",
       ),
+    unnamed: z
+      .string()
+      .optional()
+      .describe(
+        'Nested input none of whose nodes has the name field (this field, name by default) nor is keyed by name below the top: every node is named "" (the header says so; --name-field names the field that holds names).',
+      ),
     rootIsStart: z
       .boolean()
       .optional()

@@ -198,6 +198,20 @@ describe("espalier SAVED.json (a summary espalier wrote)", () => {
     expect(read.stdout).toBe("");
   });
 
+  it("is SHAPE for a summary with reference lines (YAML aliases), whose folds may hide what they name", async () => {
+    // An invented build graph: the alias *kelp names the anchored node a second time.
+    const yaml = join(mkdtempSync(join(dir, "yaml-")), "harbour-ci.yaml");
+    writeFileSync(
+      yaml,
+      "name: harbour\nchildren:\n  - &kelp\n    name: kelp-runner\n    children:\n      - name: net\n  - name: tern\n    children:\n      - *kelp\n",
+    );
+    const { file } = await saved([yaml, "--budget", "5"]);
+    const read = await cli([file]);
+    expect(read.code).toBe(2);
+    expect(read.stderr).toContain("[SHAPE]");
+    expect(read.stdout).toBe("");
+  });
+
   it("is SHAPE for a format version it does not read", async () => {
     const { doc } = await saved([...ORG, "--budget", "12"]);
     const later = await cli([save(JSON.stringify({ ...doc, format: "espalier-summary/2" }))]);
@@ -246,6 +260,57 @@ describe("espalier diff and saved outputs", () => {
     expect(doc.totals.nodes).toBe(doc.totals.new.nodes + doc.changes.removed);
     expect(doc.notes.map((n: { code: string }) => n.code)).toEqual(["SAVED_VIEW", "SAVED_VIEW"]);
     addsUp(doc.root);
+  });
+
+  it("compares two roots espalier named after their inputs as one root, as it compares the inputs (files named apart)", async () => {
+    // Field test: the saved summaries of two days' listings of one folder (find DIR -printf '%s\t%P\n',
+    // whose first line, an empty path, is the folder) said "1 renamed" and --fail-on-change exited 1,
+    // where the listings themselves compare with nothing changed. So did a table's with several rows
+    // without a parent, and a fact table's rollup. Invented inputs of the fictional Tidewater monorepo
+    // and Quillfeather's cost export, named by day.
+    const day = mkdtempSync(join(dir, "days-"));
+    const listing = "4096\t\n4096\tservices\n812\tservices/ledger.ts\n4096\tdocs\n96\tdocs/tides.md\n";
+    const table = "id,parent,name\n1,,ledger\n2,,tides\n3,1,brine\n";
+    const facts = readFileSync(org("quillfeather-cost-export.csv"), "utf8");
+    const pairs: [string, string, string, string[]][] = [
+      ["listing-mon.tsv", "listing-tue.tsv", listing, []],
+      ["teams-mon.csv", "teams-tue.csv", table, []],
+      ["costs-mon.csv", "costs-tue.csv", facts, ["--levels", "account,service", "--size-field", "cost"]],
+    ];
+    for (const [mon, tue, text, how] of pairs) {
+      for (const name of [mon, tue]) writeFileSync(join(day, name), text);
+      const plain = await cli([
+        "diff",
+        join(day, mon),
+        join(day, tue),
+        ...how,
+        "--fail-on-change",
+        "--format",
+        "json",
+      ]);
+      expect(plain.code, plain.stderr).toBe(0);
+      expect(JSON.parse(plain.stdout).changes.renamed).toBe(0);
+      const a = await saved([join(day, mon), ...how, "--budget", "3"]);
+      const b = await saved([join(day, tue), ...how, "--budget", "3"]);
+      expect(a.doc.root.name).toBe(mon);
+      expect(b.doc.root.name).toBe(tue);
+      const diff = await cli(["diff", a.file, b.file, "--fail-on-change", "--format", "json"]);
+      expect(diff.code, diff.stdout).toBe(0);
+      const doc = JSON.parse(diff.stdout);
+      expect(validateDiff(doc), JSON.stringify(validateDiff.errors)).toBe(true);
+      expect(doc.changes).toMatchObject({ added: 0, removed: 0, renamed: 0, edited: 0 });
+      expect(doc.root.change).toBeNull();
+    }
+    // A root of the input's own (the org chart's head) is no such root: renamed, it is a change.
+    const org1 = join(day, "org-mon.csv");
+    const org2 = join(day, "org-tue.csv");
+    writeFileSync(org1, "id,parent,name\nQ1,,Ines Harrow\nQ2,Q1,Oda Brine\n");
+    writeFileSync(org2, "id,parent,name\nQ1,,Tove Lind\nQ2,Q1,Oda Brine\n");
+    const a = await saved([org1]);
+    const b = await saved([org2]);
+    const diff = await cli(["diff", a.file, b.file, "--fail-on-change", "--format", "json"]);
+    expect(diff.code, diff.stderr).toBe(1);
+    expect(JSON.parse(diff.stdout).changes).toMatchObject({ renamed: 1 });
   });
 
   it("says a fold changed when what it hid did: edited by its folded field, its size net", async () => {

@@ -104,4 +104,29 @@ describe("espalier diff: edited values on a line with room", () => {
     expect(displayWidth(old)).toBeGreaterThanOrEqual(12);
     expect(line).toContain("version 2.0.2 -> 2.1.2");
   });
+
+  it("cuts the values further, each keeping where it changed, before the tag says only its kind (field test: --width 60)", async () => {
+    // Field test: `[edited] tern` at --width 60, where each value cut to a few columns fit. An invented
+    // shipping company's two services, each with an image and a replica count.
+    const services = (tag: string, replicas: number) =>
+      [
+        "services:",
+        "  - name: ledger",
+        "    image: registry.example/ledger:1.4",
+        "    replicas: 2",
+        "  - name: tern",
+        `    image: registry.example/tern:${tag}`,
+        `    replicas: ${replicas}`,
+        "",
+      ].join("\n");
+    const result = await cli(["diff", "old.yaml", "new.yaml", "--width", "60"], {
+      files: { "old.yaml": services("2.0", 1), "new.yaml": services("2.1", 3) },
+    });
+    expect(result.code).toBe(0);
+    const line = result.stdout.split("\n").find((l) => l.includes("[edited"))!;
+    expect(displayWidth(line)).toBeLessThanOrEqual(60);
+    const [, old, now] = /\[edited image (\S+) -> (\S+), replicas 1 -> 3\] tern$/.exec(line)!;
+    expect(old).toMatch(/….*0$/);
+    expect(now).toMatch(/….*1$/);
+  });
 });

@@ -6,6 +6,7 @@ import { measure } from "../../src/model/measure.js";
 import { PathIndex } from "../../src/model/path-index.js";
 import { summaryJsonSchema } from "../../src/render/summary-json-schema.js";
 import { SUMMARY_FORMAT, summarySchema } from "../../src/render/summary-schema.js";
+import { cli } from "../helpers/cli.js";
 import { makeTree } from "../helpers/make-tree.js";
 import { arbTreeWithFoci } from "../helpers/random-tree.js";
 import { summaryOf } from "../helpers/summary.js";
@@ -34,6 +35,21 @@ describe("renderJson(view, options)", () => {
       }),
       { numRuns: 50 },
     );
+  });
+
+  it("validates against the published schema when no node has the name field (input.unnamed)", async () => {
+    // Field test: app.yaml files on the machine (a list of handlers, none named) wrote input.unnamed,
+    // which the published schema did not allow. Validated with Ajv, as above. An invented service of
+    // the fictional Tidewater monorepo.
+    const yaml =
+      "runtime: tidewater-py\nhandlers:\n  - url: /ledger\n    script: ledger.app\n  - url: /tides\n    script: tides.app\n";
+    const out = await cli(["app.yaml", "--format", "json"], { files: { "app.yaml": yaml } });
+    expect(out.code, out.stderr).toBe(0);
+    const doc = JSON.parse(out.stdout);
+    expect(doc.input.unnamed).toBe("name");
+    const validate = new Ajv2020.default({ allErrors: true }).compile(published);
+    expect(validate(doc), JSON.stringify(validate.errors)).toBe(true);
+    expect(summarySchema.safeParse(doc).success).toBe(true);
   });
 
   it("carries the format version, the budget, the lines used, totals and the foci", () => {
