@@ -104,12 +104,16 @@ export function loadSavedOutput(text: string, format: string, options: LoadOptio
 }
 
 /**
- * Whether a saved summary's root is one espalier added above the input's top-level nodes, named after
- * the input file: a table's (its id "", which no row can have: an empty id cell is SHAPE) or a fact
- * table's rollup (input.rolledUpRows), whose root is always espalier's.
+ * Whether a saved summary's root is one espalier named after the input file: above a table's top-level
+ * rows (its id "", which no row can have: an empty id cell is SHAPE), a fact table's rollup
+ * (input.rolledUpRows) or a document read as values (input.shape "values": its root is the document,
+ * always named after the file). A document of node objects does not say whether its root's name came
+ * from the file or from its name field, so its root keeps the saved name.
  */
 function addedRoot(root: SavedNode | null | undefined, input: Record<string, unknown>): boolean {
-  return root?.id === "" || (input.shape === "table" && isCount(input.rolledUpRows));
+  return (
+    root?.id === "" || input.shape === "values" || (input.shape === "table" && isCount(input.rolledUpRows))
+  );
 }
 
 /** A saved diff, or a format this version does not read: SHAPE naming what to run instead. */

@@ -266,8 +266,8 @@ describe("espalier diff and saved outputs", () => {
     // Field test: the saved summaries of two days' listings of one folder (find DIR -printf '%s\t%P\n',
     // whose first line, an empty path, is the folder) said "1 renamed" and --fail-on-change exited 1,
     // where the listings themselves compare with nothing changed. So did a table's with several rows
-    // without a parent, and a fact table's rollup. Invented inputs of the fictional Tidewater monorepo
-    // and Quillfeather's cost export, named by day.
+    // without a parent, a fact table's rollup and a YAML document read as values. Invented inputs of
+    // the fictional Tidewater monorepo and Quillfeather's cost export, named by day.
     const day = mkdtempSync(join(dir, "days-"));
     const listing = "4096\t\n4096\tservices\n812\tservices/ledger.ts\n4096\tdocs\n96\tdocs/tides.md\n";
     const table = "id,parent,name\n1,,ledger\n2,,tides\n3,1,brine\n";
@@ -275,6 +275,7 @@ describe("espalier diff and saved outputs", () => {
     const pairs: [string, string, string, string[]][] = [
       ["listing-mon.tsv", "listing-tue.tsv", listing, []],
       ["teams-mon.csv", "teams-tue.csv", table, []],
+      ["deploy-mon.yaml", "deploy-tue.yaml", "ledger:\n  replicas: 3\ntides:\n  replicas: 1\n", []],
       ["costs-mon.csv", "costs-tue.csv", facts, ["--levels", "account,service", "--size-field", "cost"]],
     ];
     for (const [mon, tue, text, how] of pairs) {
