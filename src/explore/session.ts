@@ -17,7 +17,6 @@ import type { Units } from "../render/format-size.js";
 import { diffHeaderLines, fociOf, type InputFacts, summaryHeaderLines } from "../render/header.js";
 import {
   KEY_MIN_BUDGET,
-  KEY_MOST_ROWS,
   keyContext,
   keyExplainsSizes,
   keyFacts,
@@ -228,16 +227,14 @@ const KEY_ROUNDS = 3;
 
 /**
  * Most rows the view's key takes on a screen of `budget` rows for the tree at `width` (`espalier`
- * takes up to `KEY_MOST_ROWS`): `keyRows(width)`, and one more for every three rows of budget above
- * `KEY_MIN_BUDGET` (a screen three rows shorter has a key too), up to `KEY_MOST_ROWS`. A screen three
- * rows taller then never gives the key more than one of them (where the shorter had no key, no more
- * than before), so it hides no node the shorter showed (guarantee 2 of docs/selection.md, as the
- * view's tests check it). Past them the key says part, and the status row points to the help. One
- * more row only left a 32-column screen of 14 rows (a file listing's deep focus), whose
- * cut names, chains, `(k more)` and `(hidden)` take six rows to explain, pointing to the help.
+ * takes up to `KEY_MOST_ROWS`): one more than `keyRows(width)`, and that only where a screen three
+ * rows shorter has a key too. A screen three rows taller then never gives the key more than one of
+ * them (where the shorter had no key, no more than before), so it hides no node the shorter showed
+ * (guarantee 2 of docs/selection.md, as the view's tests check it). Past them the key says part,
+ * and the status row points to the help.
  */
 function viewKeyMostRows(budget: number, width: number): number {
-  return Math.min(KEY_MOST_ROWS, keyRows(width) + Math.max(0, Math.floor((budget - KEY_MIN_BUDGET) / 3)));
+  return budget >= KEY_MIN_BUDGET + 3 ? keyRows(width) + 1 : keyRows(width);
 }
 
 /**
@@ -289,8 +286,7 @@ function headerForKey(
   for (const b of ["lines", "foci"] as const) {
     const shorter = brief(b);
     const rows = keyed + header.length - shorter.length;
-    // A screen with no key takes one row if that is all the shorter header frees: its marks said.
-    if (shorter.length >= header.length || rows < (keyed === 0 ? 1 : keyRows(width))) continue;
+    if (shorter.length >= header.length || rows < keyRows(width)) continue;
     const tried = sameRows(lay(shorter, rows, true), laid);
     if (tried.whole) return { ...tried, needed: laid.needed };
     if (tried.said > best.said) best = { ...tried, needed: laid.needed };
@@ -355,7 +351,7 @@ function screenOf<T extends ViewNode>(
   const screen = screenLines(lineOf, parts, { ...numbers, width, palette: look.palette }, explained);
   const quiet = look.palette?.quiet ?? ((t: string) => t);
   const facts = factsOf(screen);
-  const rows = fill ? Math.min(keyed, keyRowsNeeded(kind, facts, width, keyed)) : keyed;
+  const rows = fill ? keyRowsNeeded(kind, facts, width, keyed) : keyed;
   const plain = keyed > 0 ? keyLines(kind, facts, width, "text", rows) : [];
   const key = plain.map(quiet);
   const lines = [...header, ...key, ...screen.lines];
