@@ -1,6 +1,7 @@
 import { EspalierError, quoted, say } from "../errors.js";
 import { FOLDED_FIELD } from "../load/saved-output.js";
 import type { Tree } from "../model/tree.js";
+import { withPathIds } from "./path-ids.js";
 
 /**
  * SHAPE when a diff cannot tell a change from a fold: a version read from espalier's own summary
@@ -35,15 +36,10 @@ function isSavedView(tree: Tree): boolean {
   return tree.reading?.notes?.some((n) => n.code === "SAVED_VIEW") === true;
 }
 
-/** Each node's path below the root (names joined by "/"; the root ""), by slot. */
-function pathKeys(tree: Tree): string[] {
-  const keys = new Array<string>(tree.length);
-  keys[0] = "";
-  for (let i = 1; i < tree.length; i++) {
-    const up = keys[tree.parent[i]];
-    keys[i] = up === "" ? tree.name.get(i) : `${up}/${tree.name.get(i)}`;
-  }
-  return keys;
+/** Each node's path below the root as espalier prints paths (escaped, `~~N` for a repeated name; the root ""). */
+function pathKeys(tree: Tree): readonly string[] {
+  const ids = withPathIds(tree).ids;
+  return Array.from({ length: tree.length }, (_, i) => ids?.get(i) ?? "");
 }
 
 /**
