@@ -202,7 +202,8 @@ describe("espalier <input> --output FILE", () => {
     // columns with colour escapes into the file, which is no terminal.
     const input = new URL("../../fixtures/tidewater-files.paths", import.meta.url).pathname;
     const piped = await cli([input]);
-    for (const env of [{}, { FORCE_COLOR: "1" }]) {
+    const envs: Record<string, string>[] = [{}, { FORCE_COLOR: "1" }];
+    for (const env of envs) {
       const out = join(dir, "view.txt");
       const r = await cli([input, "-o", out], { tty: { rows: 12, columns: 40 }, env });
       expect(r.code, r.stderr).toBe(0);
