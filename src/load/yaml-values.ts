@@ -15,6 +15,7 @@ import {
 } from "./load-options.js";
 import { checkNoNamedFields } from "./missing-field.js";
 import { NodeSink } from "./node-sink.js";
+import { keyText } from "./yaml-keys.js";
 
 /**
  * A YAML document as a tree of its values, as JsonValueLoader reads JSON: a mapping's entries are its
@@ -141,12 +142,6 @@ function scalarText(v: Node, text: string): string {
   if (typeof v.value === "string") return JSON.stringify(v.value);
   if (typeof v.value === "boolean" || v.value === null) return String(v.value);
   return source;
-}
-
-/** A mapping key as text: a scalar's value ("" for null), else the key as written. */
-function keyText(key: unknown): string {
-  if (isScalar(key)) return key.value === null || key.value === undefined ? "" : String(key.value);
-  return String(key);
 }
 
 /** UTF-16 offsets of `text` to UTF-8 byte offsets, for offsets asked in any order. */
