@@ -50,7 +50,8 @@ describe("YAML keys and names written as numbers", () => {
   });
 
   it("finds a --start-at pointer by the key as written", async () => {
-    const text = "runtimes:\n  3.10:\n    name: quay\n    children: [{name: tern, size: 2}]\n  3.9: {name: gull}\n";
+    const text =
+      "runtimes:\n  3.10:\n    name: quay\n    children: [{name: tern, size: 2}]\n  3.9: {name: gull}\n";
     const result = await cli(["matrix.yaml", "--start-at", "/runtimes/3.10", "--format", "json"], {
       files: { "matrix.yaml": text },
     });
@@ -78,7 +79,9 @@ describe("YAML merge keys in a graph", () => {
       "  children: [harbor]",
       "",
     ].join("\n");
-    const result = await cli(["berths.yaml", "--graph", "--format", "json"], { files: { "berths.yaml": text } });
+    const result = await cli(["berths.yaml", "--graph", "--format", "json"], {
+      files: { "berths.yaml": text },
+    });
     expect(result.code).toBe(0);
     const json = JSON.parse(result.stdout);
     const quay = json.root.children.find((c: Shown) => c.name === "quay");
@@ -90,7 +93,8 @@ describe("YAML merge keys in a graph", () => {
   });
 
   it("gives rows read as a graph the fields they merge in, as the tree reading does", async () => {
-    const text = '- &base {id: a, parent: "", size: 3}\n- {<<: *base, id: b, parent: a}\n- {<<: *base, id: c, parent: a}\n';
+    const text =
+      '- &base {id: a, parent: "", size: 3}\n- {<<: *base, id: b, parent: a}\n- {<<: *base, id: c, parent: a}\n';
     const files = { "rows.yaml": text };
     const tree = JSON.parse((await cli(["rows.yaml", "--format", "json"], { files })).stdout);
     const graph = JSON.parse((await cli(["rows.yaml", "--graph", "--format", "json"], { files })).stdout);
@@ -104,5 +108,38 @@ describe("YAML merge keys in a graph", () => {
     expect(result.code).toBe(2);
     expect(result.stdout).toBe("");
     expect(result.stderr).toMatch(/bad\.yaml:3:3: .*\[SHAPE\]/);
+  });
+});
+
+// A command definition file of a cloud CLI on this machine: a list of release tracks, the later ones
+// `<<: *GA` merging the first's keys (help text, arguments) and overriding a few. Read as values, the
+// merge key is a node `<<` holding the alias as text; the note counted aliases but did not say that the
+// merged keys were missing from the mapping a YAML 1.1 reader gives them.
+describe("YAML merge keys read as values", () => {
+  it("says how many merge keys name an alias, whose keys show at their anchor only", async () => {
+    const text = [
+      "- &GA",
+      "  tracks: [GA]",
+      "  help: Deletes a berth.",
+      "  request: {collection: berths, method: delete}",
+      "- <<: *GA",
+      "  tracks: [BETA]",
+      "- <<: [*GA]",
+      "  tracks: [ALPHA]",
+      "- tracks: *GA",
+      "",
+    ].join("\n");
+    const result = await cli(["delete.yaml", "--format", "json"], { files: { "delete.yaml": text } });
+    expect(result.code).toBe(0);
+    const json = JSON.parse(result.stdout);
+    // The two later items hold their own keys and the `<<` entry, not the merged help and request.
+    expect(json.root.children.slice(1, 3).map(names)).toEqual([
+      ["<<", "tracks"],
+      ["<<", "tracks"],
+    ]);
+    const [note] = json.input.notes;
+    expect(note).toMatchObject({ code: "ALIASES_AS_TEXT", count: 3, line: 5 });
+    expect(note.message).toMatch(/\b2 merge keys \(<<\)/);
+    expect(result.stderr).toMatch(/\b2 merge keys \(<<\)/);
   });
 });
