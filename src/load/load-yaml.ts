@@ -179,6 +179,8 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
       if (isSeq(v)) return Kind.Seq;
       if (!isScalar(v)) return Kind.Other;
       if (isTaggedFloat(v)) return Kind.Number;
+      // A `%YAML 1.1` timestamp (`2024-01-05`, yaml.org/type/timestamp.html) is text as written here.
+      if (v.value instanceof Date) return Kind.String;
       switch (typeof v.value) {
         case "number":
         case "bigint":
@@ -215,7 +217,9 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
       if (typeof n === "number" && Number.isInteger(n) && !Number.isSafeInteger(n) && v.range)
         return text.slice(v.range[0], v.range[1]);
       // A name, an id or a field written as a number reads as written (`3.10`, not 3.1): yaml-keys.ts.
-      return typeof n === "number" || typeof n === "bigint" ? scalarAsWritten(v) : String(n);
+      return typeof n === "number" || typeof n === "bigint" || n instanceof Date
+        ? scalarAsWritten(v)
+        : String(n);
     },
     source(value) {
       const range = deref(value)?.range;

@@ -16,6 +16,7 @@ import {
 import { checkNoNamedFields } from "./missing-field.js";
 import { NodeSink } from "./node-sink.js";
 import { isMergeKey, keyText } from "./yaml-keys.js";
+import { pairItems } from "./yaml-pair-items.js";
 
 /**
  * A YAML document as a tree of its values, as JsonValueLoader reads JSON: a mapping's entries are its
@@ -79,7 +80,7 @@ export function yamlValues(
         inner += lengthOf(value);
       }
     } else if (!isAlias(v) && isSeq(v)) {
-      v.items.forEach((item, k) => {
+      pairItems(v.items).forEach((item, k) => {
         const j = sink.add(i, String(k), lineOf(item as Node | null));
         const named = isAlias(item) ? undefined : itemName(item as Node | null);
         if (named !== undefined && namedItems.length <= MOST_ITEM_NAMES) {

@@ -49,6 +49,21 @@ describe("YAML keys and names written as numbers", () => {
     ]);
   });
 
+  it("names a %YAML 1.1 document's children by dates, octal and base-60 numbers as written", async () => {
+    // YAML 1.1 reads `2024-01-05` as a timestamp, `0777` as 511 and `1:20` as 80 (yaml.org/type/
+    // timestamp.html, int.html); main printed the date key as the engine's long date text.
+    const keyed =
+      "%YAML 1.1\n---\nreleases:\n  2024-01-05: {size: 3}\n  0777: {size: 1}\n  1:20: {size: 1}\n";
+    const named =
+      "%YAML 1.1\n---\nname: log\nchildren:\n  - {name: 2024-01-05, size: 1}\n  - {name: 0777, size: 1}\n";
+    const files = { "keyed.yaml": keyed, "named.yaml": named };
+    const byKey = JSON.parse((await cli(["keyed.yaml", "--format", "json"], { files })).stdout);
+    expect(names(byKey.root)).toEqual(["2024-01-05", "0777", "1:20"]);
+    const byName = await cli(["named.yaml", "--format", "json"], { files });
+    expect(byName.code).toBe(0);
+    expect(names(JSON.parse(byName.stdout).root)).toEqual(["2024-01-05", "0777"]);
+  });
+
   it("finds a --start-at pointer by the key as written", async () => {
     const text =
       "runtimes:\n  3.10:\n    name: quay\n    children: [{name: tern, size: 2}]\n  3.9: {name: gull}\n";
@@ -141,5 +156,25 @@ describe("YAML merge keys read as values", () => {
     expect(note).toMatchObject({ code: "ALIASES_AS_TEXT", count: 3, line: 5 });
     expect(note.message).toMatch(/\b2 merge keys \(<<\)/);
     expect(result.stderr).toMatch(/\b2 merge keys \(<<\)/);
+  });
+});
+
+// `!!omap` and `!!pairs` (YAML 1.1 types, yaml.org/type/omap.html, which the yaml package reads in any
+// document): the parser gives the list's `- key: value` items as bare pairs, which were read as leaves of
+// 0 bytes, their keys and values missing from every count, exit 0.
+describe("YAML ordered maps read as values", () => {
+  it("reads each `- key: value` item as the one-key mapping it is written as", async () => {
+    const text = "berths: !!omap\n  - quay: 3\n  - tern: {depth: 12}\nspare: !!set\n  ? gull\n";
+    const result = await cli(["berths.yaml", "--format", "json"], { files: { "berths.yaml": text } });
+    expect(result.code).toBe(0);
+    const json = JSON.parse(result.stdout);
+    const [berths] = json.root.children;
+    expect(berths.children.map(names)).toEqual([["quay"], ["tern"]]);
+    // root, berths, 2 items, quay, tern, depth, spare, gull; the same count by PyYAML's events
+    // (common practice, no source: one node per mapping value and sequence item, and the root).
+    expect(json.totals.nodes).toBe(9);
+    // `quay: 3` and `tern: {depth: 12}` as written.
+    expect(berths.children.map((c: { size: number }) => c.size)).toEqual([7, 17]);
+    expect(json.totals.size).toBe(text.length);
   });
 });
