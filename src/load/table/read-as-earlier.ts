@@ -194,9 +194,9 @@ function pairScanned(
 }
 
 /**
- * Each scanned row's parent (see {@link ReadAsEarlier.scannedParent}); null where its parent cell is
- * text (not plain digits) or names a row this table does not have, or a row other than the earlier
- * root's has none.
+ * Each scanned row's parent (see {@link ReadAsEarlier.scannedParent}), found as `linkParents` finds it
+ * (plain digits by their number, other cells by their bytes); null where it names a row this table
+ * does not have, or a row other than the earlier root's has none.
  */
 function scannedParents(
   scanned: Int32Array,
@@ -206,23 +206,34 @@ function scannedParents(
   rowOfEarlier: Int32Array,
 ): Int32Array | null {
   const { values, texts } = parents;
+  const textRuns = texts.byteRuns();
+  const textView = textRuns === null ? null : viewOf(textRuns.bytes);
   const parent = new Int32Array(scanned.length);
   for (let j = 0; j < scanned.length; j++) {
     const r = scanned[j];
     const value = values[r];
-    if (Number.isNaN(value)) {
-      if (r < texts.length && texts.byteLengthOf(r) > 0) return null;
+    let p: number;
+    let id: string;
+    if (!Number.isNaN(value)) {
+      // A cell of plain digits stands for its digits (as linkParents reads it).
+      p = rowsById.getNumber(value);
+      id = String(value);
+    } else if (r >= texts.length || texts.byteLengthOf(r) === 0) {
       if (found.earlier[j] !== 0) return null;
       parent[j] = -1;
       continue;
+    } else {
+      if (textRuns === null || textView === null) return null;
+      const s = textRuns.start[r];
+      p = rowsById.getBytes(textView, s, s + textRuns.size[r]);
+      id = texts.get(r);
     }
-    const p = rowsById.getNumber(value);
     if (p >= 0) {
       if (rowOfEarlier[p] === -1) return null;
       parent[j] = p;
       continue;
     }
-    const a = found.addedIds.get(String(value));
+    const a = found.addedIds.get(id);
     if (a === undefined) return null;
     parent[j] = -2 - a;
   }
