@@ -84,6 +84,7 @@ export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOpti
   let lendable: (Int32Array | undefined)[] = [];
   if (direct !== undefined) {
     ({ combined, changed } = direct);
+    lendable = [undefined, undefined, direct.spare];
   } else if (graph) {
     const oldCount = subtreeCounts(oldTree);
     const newCount = subtreeCounts(newTree);
@@ -158,7 +159,7 @@ function directOf(
   newInput: Tree,
   oldTree: Tree,
   newTree: Tree,
-): { combined: Combined; changed: Int32Array } | undefined {
+): { combined: Combined; changed: Int32Array; spare: Int32Array } | undefined {
   const plan = readsAsEarlier.take(newInput);
   if (plan === undefined || oldTree !== oldInput || newTree !== newInput) return undefined;
   return directCombined(oldTree, newTree, plan);

@@ -1,6 +1,6 @@
 import type { ReadAsEarlier } from "../load/table/read-as-earlier.js";
 import { MergedNames } from "../model/merged-names.js";
-import { sameName } from "../model/names.js";
+import { NamePool, type Names, sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 import { KIND } from "./changes.js";
 import type { Combined } from "./combine.js";
@@ -22,15 +22,20 @@ export function directCombined(
   oldTree: Tree,
   newTree: Tree,
   plan: ReadAsEarlier,
-): { combined: Combined; changed: Int32Array } | undefined {
+): { combined: Combined; changed: Int32Array; spare: Int32Array } | undefined {
   if (plan.earlier !== oldTree || newTree.length !== plan.rows) return undefined;
-  const oldCount = subtreeCounts(oldTree);
+  // OLD's subtree counts and each OLD node's place, side by side in memory as big as the combined
+  // tree's doubles: read no more once it is laid out, it is lent to its sizes (see `prepareDiff`).
+  const total = oldTree.length + plan.added;
+  const block = new ArrayBuffer(total * 8);
+  const oldCount = subtreeCounts(oldTree, new Int32Array(block, 0, oldTree.length));
+  const placed = new Int32Array(block, total * 4, oldTree.length);
   const units = insertedUnits(oldTree, plan);
   const events = placesOf(oldTree, oldCount, plan, units);
-  const layout = new Layout(oldTree, oldCount, plan, units, events);
+  const layout = new Layout(oldTree, oldCount, placed, plan, units, events);
   layout.lay();
   const changed = layout.pairedKinds();
-  return { combined: combinedOf(oldTree, newTree, plan, layout), changed };
+  return { combined: combinedOf(oldTree, newTree, plan, layout), changed, spare: new Int32Array(block) };
 }
 
 /**
@@ -115,8 +120,6 @@ class Layout {
   readonly kind: Uint8Array;
   /** NEW's row each node's name, id and size come from, or -1 where OLD's are the same (or it is removed). */
   readonly fromRow: Int32Array;
-  /** The combined node of each OLD node. */
-  private readonly placed: Int32Array;
   private readonly changedNodes: Int32Array;
   private changes = 0;
   private k = 0;
@@ -125,6 +128,8 @@ class Layout {
   constructor(
     private readonly oldTree: Tree,
     private readonly oldCount: Int32Array,
+    /** The combined node of each OLD node. */
+    private readonly placed: Int32Array,
     private readonly plan: ReadAsEarlier,
     private readonly units: Units,
     private readonly places: Places,
@@ -138,7 +143,6 @@ class Layout {
     this.oldIndex = new Int32Array(total);
     this.kind = new Uint8Array(total);
     this.fromRow = new Int32Array(total).fill(-1);
-    this.placed = new Int32Array(oldTree.length);
     this.changedNodes = new Int32Array(total);
   }
 
@@ -291,10 +295,43 @@ class Layout {
 
 /** Names or ids of the combined nodes: NEW's row's where `fromRow` has one, else OLD's node's. */
 class RowsOrEarlier extends MergedNames {
-  /** The first node named `text`, read one by one (NEW's rows are not in the combined order). */
+  constructor(
+    private readonly rows: Names,
+    private readonly fromRow: Int32Array,
+    private readonly earlier: Names,
+    private readonly earlierIndex: Int32Array,
+  ) {
+    super(rows, fromRow, earlier, earlierIndex);
+  }
+
+  /**
+   * The first node named `text` (NEW's rows are not in the combined order, so node by node): by the
+   * names' bytes when both versions' are all pooled bytes, nothing decoded (a text without U+FFFD is
+   * only the name whose bytes are its UTF-8: a name of other bytes decodes with U+FFFD); else by text.
+   */
   override indexOf(text: string): number {
     if (text === "") return -1;
-    for (let k = 0; k < this.length; k++) if (this.get(k) === text) return k;
+    const { rows, fromRow, earlier, earlierIndex } = this;
+    const total = fromRow.length;
+    if (
+      rows instanceof NamePool &&
+      earlier instanceof NamePool &&
+      !rows.hasExact &&
+      !earlier.hasExact &&
+      text.isWellFormed() &&
+      !text.includes("\uFFFD")
+    ) {
+      const bytes = Buffer.from(text, "utf8");
+      const n = bytes.length;
+      for (let k = 0; k < total; k++) {
+        const r = fromRow[k];
+        const named =
+          r >= 0 ? rows.equalsBytes(r, bytes, 0, n) : earlier.equalsBytes(earlierIndex[k], bytes, 0, n);
+        if (named) return k;
+      }
+      return -1;
+    }
+    for (let k = 0; k < total; k++) if (this.get(k) === text) return k;
     return -1;
   }
 }

@@ -82,7 +82,7 @@ export function readAsEarlier(
   if (nameFieldNamed(options) && !columns.includes(options.nameField)) return undefined;
   if (table.writtenCells?.(options.idField) || table.writtenCells?.(options.parentField)) return undefined;
   if (!rowsInOrder(earlier.origin, m) || emptyName(names, n)) return undefined;
-  const rowOfEarlier = new Int32Array(m).fill(-1);
+  const rowOfEarlier = new Int32Array(m);
   const scanned = takeRuns(taken, rowOfEarlier, n);
   if (scanned === null) return undefined;
   const found = pairScanned(scanned, ids, rowsById, rowOfEarlier);
@@ -133,8 +133,10 @@ function emptyName(names: NamePool, n: number): boolean {
 }
 
 /**
- * Writes this table's row of each earlier row taken whole into `rowOfEarlier`; returns the rows not
- * taken (in order), or null when the runs overlap or go past the table.
+ * Writes this table's row of each earlier row taken whole into `rowOfEarlier`, and -1 for every other
+ * earlier row (each entry once: the runs come in the earlier rows' order too, or the reading is not
+ * the simple case); returns the rows not taken (in order), or null when the runs overlap, go past the
+ * table or take earlier rows out of their order.
  */
 function takeRuns(taken: TakenRows, rowOfEarlier: Int32Array, n: number): Int32Array | null {
   const { runs, count } = taken;
@@ -144,15 +146,19 @@ function takeRuns(taken: TakenRows, rowOfEarlier: Int32Array, n: number): Int32A
   const scanned = new Int32Array(scannedRows);
   let s = 0;
   let next = 0;
+  let earlier = 0;
   for (let t = 0; t < count; t++) {
     const row = runs[3 * t];
     const from = runs[3 * t + 1];
     const length = runs[3 * t + 2];
-    if (row < next || row + length > n) return null;
+    if (row < next || row + length > n || from < earlier || from + length > rowOfEarlier.length) return null;
     while (next < row) scanned[s++] = next++;
+    rowOfEarlier.fill(-1, earlier, from);
     fillRun(rowOfEarlier, from, row, length);
     next = row + length;
+    earlier = from + length;
   }
+  rowOfEarlier.fill(-1, earlier);
   while (next < n) scanned[s++] = next++;
   return s === scannedRows ? scanned : null;
 }
@@ -278,7 +284,7 @@ function linksAsEarlier(
   if (rowOfEarlier[0] === -1) return false;
   const scannedOf = new Map<number, number>();
   for (let j = 0; j < scanned.length; j++) if (earlier[j] >= 0) scannedOf.set(earlier[j], j);
-  if (!takenParentsThere(tree.parent, rowOfEarlier, scannedOf)) return false;
+  if (!takenParentsThere(tree, rowOfEarlier, scannedOf)) return false;
   const oldParent = tree.parent;
   const up = (key: number): number => {
     if (key <= -2) return parent[-2 - key];
@@ -295,17 +301,30 @@ function linksAsEarlier(
   return true;
 }
 
-/** Whether the earlier parent of every earlier row taken whole is here (taken, or paired by id). */
+/**
+ * Whether the earlier parent of every earlier row taken whole is here (taken, or paired by id): the
+ * children of each earlier row that is gone, found below it in the earlier pre-order by their depth,
+ * are gone too, or paired (their parent cell read anew).
+ */
 function takenParentsThere(
-  oldParent: Int32Array,
+  tree: Tree,
   rowOfEarlier: Int32Array,
   scannedOf: ReadonlyMap<number, number>,
 ): boolean {
-  for (let o = 1; o < rowOfEarlier.length; o++) {
-    if (rowOfEarlier[o] === -1 || rowOfEarlier[oldParent[o]] !== -1) continue;
-    if (!scannedOf.has(o)) return false;
+  const { depth } = tree;
+  const m = rowOfEarlier.length;
+  for (let a = nextGone(rowOfEarlier, 1); a < m; a = nextGone(rowOfEarlier, a + 1)) {
+    const below = depth[a] + 1;
+    for (let o = a + 1; o < m && depth[o] >= below; o++)
+      if (depth[o] === below && rowOfEarlier[o] !== -1 && !scannedOf.has(o)) return false;
   }
   return true;
+}
+
+/** The first earlier row from `from` on that is gone (-1), or the number of rows. */
+function nextGone(rowOfEarlier: Int32Array, from: number): number {
+  const at = rowOfEarlier.indexOf(-1, from);
+  return at === -1 ? rowOfEarlier.length : at;
 }
 
 /**
