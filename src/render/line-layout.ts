@@ -310,6 +310,13 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     if (within.cut) cutTags.add(within.tag);
     return within.tag;
   });
+  // The tag's forms beside the whole names and `numbers` and `fold`, the widest first (see `wholeNameLine`).
+  const tagsBeside = (numbers: string, fold: string): string[] => {
+    const room = width - displayWidth(line(indent, label, "", numbers, fold, false)) - 1;
+    const within = p.tagWithin?.(room) ?? null;
+    if (within?.cut) cutTags.add(within.tag);
+    return [...new Set([p.tag, ...(within === null ? [] : [within.tag]), p.shortTag, fewTag])];
+  };
   const steps: Step[] = [
     [indent, p.tag, 0, p.numbers, p.fold],
     [indent, p.tag, 0, p.numbers, p.foldCounts],
@@ -375,6 +382,22 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     // A chain keeps its joins while the line keeps a count: its names are counted in it.
     if (!whole && p.labels.length > 1 && fewest !== ANY_CUT && cutChain(p.labels, room, fewest) === null)
       continue;
+    // Before the first step that cuts a name: the names whole where only numbers the line says twice
+    // give way (see `wholeNameLine`).
+    const keepsName = whole
+      ? null
+      : wholeNameLine(p, width, tagsBeside, (tag, numbers, all) =>
+          line(indent, label, tag, numbers, all, false),
+        );
+    if (keepsName !== null)
+      return {
+        text: line(indent, label, keepsName.tag, keepsName.numbers, keepsName.fold, true),
+        ...NOTHING_CUT,
+        countInFold: keepsName.numbers === "",
+        // A tag's old path or value cut is cut as a name is (`…` marks where).
+        nameCut: cutTags.has(keepsName.tag),
+        ...(cutTags.has(keepsName.tag) ? { valueCut: true } : {}),
+      };
     const names = whole
       ? { text: label, elided: false, shortened: false }
       : cutNames(p.labels, room, p.distinct, fewest);
@@ -422,6 +445,28 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     changesCut: foldCut && foldBare !== p.foldTiny,
     ...depthOf(least, indent, p.level),
   };
+}
+
+/**
+ * The tag, numbers and fold of a line whose names stay whole where only numbers the line says twice
+ * give way: for a line with none below it (`LineParts.foldAllBelow`), the fold's size (the line's
+ * less its own); then, where the line's numbers are its count alone and that count is 1 + the fold's
+ * (`LineParts.countInFold`), the count. Null when neither applies or the names do not fit so either.
+ */
+function wholeNameLine(
+  p: LineParts,
+  width: number,
+  tagsBeside: (numbers: string, fold: string) => string[],
+  lineOf: (tag: string, numbers: string, fold: string) => string,
+): { tag: string; numbers: string; fold: string } | null {
+  const tries: [string, string][] = [];
+  if (p.foldAllBelow !== undefined) tries.push([p.numbers, p.foldAllBelow]);
+  if (p.countInFold && p.countNumbers !== "" && p.numbers === p.countNumbers)
+    tries.push(["", p.foldAllBelow ?? p.foldTiny]);
+  for (const [numbers, fold] of tries)
+    for (const tag of tagsBeside(numbers, fold))
+      if (displayWidth(lineOf(tag, numbers, fold)) <= width) return { tag, numbers, fold };
+  return null;
 }
 
 /** A step of `laidOutLine`: [indentation, tag, fewest label columns (0: whole), numbers, fold]. */
