@@ -150,6 +150,9 @@ export function keyLines(
   style: "text" | "markdown" = "text",
   rows: number = keyRows(width),
 ): string[] {
+  // One row where a narrow screen has no more for it (the interactive view's header gave it one):
+  // the one-line key, which says the marks in their fewest words before any part.
+  if (rows < keyRows(width)) return [keyLine(kind, facts, width, style)];
   if (rows > keyRows(width) && width !== undefined && style === "text") {
     const packed = packedKey(kind, facts, width, rows) ?? packedKey(kind, facts, width, rows, true);
     if (packed !== null) return packed;
