@@ -302,18 +302,19 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
   const fewTag = p.leastTag ?? kindTag;
   // Tags that `tagWithin` gave with a text cut (`…`), which the key must say.
   const cutTags = new Set<string>();
+  // The room a tag has beside the whole names, `numbers` and `fold` (the tag and a space after it);
+  // the indentation, spaces only, counted by its length (a deep line's is long).
+  const roomBeside = (numbers: string, fold: string) =>
+    width - indent.length - displayWidth(line("", label, "", numbers, fold, false)) - 1;
   const roomy = once(() => {
-    // The room the tag has beside the whole names (the tag and a space after it).
-    const room = width - displayWidth(line(indent, label, "", p.numbers, foldWords, false)) - 1;
-    const within = p.tagWithin?.(room) ?? null;
+    const within = p.tagWithin?.(roomBeside(p.numbers, foldWords)) ?? null;
     if (within === null) return p.shortTag;
     if (within.cut) cutTags.add(within.tag);
     return within.tag;
   });
   // The tag's forms beside the whole names and `numbers` and `fold`, the widest first (see `wholeNameLine`).
   const tagsBeside = (numbers: string, fold: string): string[] => {
-    const room = width - displayWidth(line(indent, label, "", numbers, fold, false)) - 1;
-    const within = p.tagWithin?.(room) ?? null;
+    const within = p.tagWithin?.(roomBeside(numbers, fold)) ?? null;
     if (within?.cut) cutTags.add(within.tag);
     return [...new Set([p.tag, ...(within === null ? [] : [within.tag]), p.shortTag, fewTag])];
   };
