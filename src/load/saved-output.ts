@@ -6,6 +6,7 @@ import type { ReadingNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import { parsePointer } from "./json-pointer.js";
 import type { LoadOptions } from "./load-options.js";
+import { OutputHead } from "./output-head.js";
 
 /** The summary format read back (render/summary-schema.ts SUMMARY_FORMAT; a test keeps the two equal). */
 export const SAVED_SUMMARY_FORMAT = "espalier-summary/1";
@@ -21,16 +22,17 @@ export const FOLD_NAME = "(folded)";
 export const FOLDED_FIELD = "folded";
 
 /**
- * The format id espalier's own JSON outputs write as their first member (render/summary-json.ts,
- * render/diff-json.ts), when the start of a JSON text `head` is such an output; else undefined. Looked
- * at once, on the first bytes, so no other document pays for it.
+ * The format id espalier's own JSON outputs write (render/summary-json.ts, render/diff-json.ts) when a
+ * whole JSON text is such an output, in any order of its members and any spacing (output-head.ts);
+ * else undefined. A text that does not hold "espalier-" is none, told by one native search.
  */
-export function savedOutputFormat(head: string): string | undefined {
-  return /^\uFEFF?\s*\{\s*"format"\s*:\s*"(espalier-[a-z]+\/[0-9A-Za-z.-]{1,20})"/.exec(head)?.[1];
+export function savedOutputFormat(text: string): string | undefined {
+  if (!text.includes("espalier-")) return undefined;
+  return new OutputHead().read(text) ?? undefined;
 }
 
 /**
- * Whether a JSON text that starts with `format` (see {@link savedOutputFormat}) is read by
+ * Whether a JSON text whose format is `format` (see {@link savedOutputFormat}) is read by
  * {@link loadSavedOutput}: unless `--read-as values` asks for its JSON text.
  */
 export function readsAsSaved(format: string | undefined, options: Pick<LoadOptions, "readAs">): boolean {

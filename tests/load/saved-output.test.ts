@@ -3,6 +3,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import Ajv2020 from "ajv/dist/2020.js";
 import { describe, expect, it } from "vitest";
+import { defaultLoadOptions, loadTree } from "../../src/load/index.js";
 import { FOLD_NAME, SAVED_SUMMARY_FORMAT, savedOutputFormat } from "../../src/load/saved-output.js";
 import { SUMMARY_FORMAT } from "../../src/render/summary-schema.js";
 import { cli } from "../helpers/cli.js";
@@ -74,7 +75,7 @@ function addsUp(root: Node): void {
 }
 
 describe("savedOutputFormat(head)", () => {
-  it("reads the format espalier writes as its first member, and the summary format is the one read back", () => {
+  it("reads the format espalier writes, and the summary format is the one read back", () => {
     expect(SAVED_SUMMARY_FORMAT).toBe(SUMMARY_FORMAT);
     expect(savedOutputFormat('{\n  "format": "espalier-summary/1",\n  "budget": 4')).toBe(
       "espalier-summary/1",
@@ -217,6 +218,94 @@ describe("espalier SAVED.json (a summary espalier wrote)", () => {
     const later = await cli([save(JSON.stringify({ ...doc, format: "espalier-summary/2" }))]);
     expect(later.code).toBe(2);
     expect(later.stderr).toContain("[SHAPE]");
+  });
+});
+
+/** `value` with every object's keys sorted, as `jq -S .` writes them (common practice, no source). */
+function sortedKeys(value: unknown): unknown {
+  if (Array.isArray(value)) return value.map(sortedKeys);
+  if (value === null || typeof value !== "object") return value;
+  const record = value as Record<string, unknown>;
+  return Object.fromEntries(
+    Object.keys(record)
+      .sort()
+      .map((k) => [k, sortedKeys(record[k])]),
+  );
+}
+
+/**
+ * A saved output as CI steps rewrite it: `jq -S .` (keys sorted, 2 spaces), `jq -c .` (one line) and
+ * `python3 -m json.tool --sort-keys` (4 spaces, non-ASCII as \u escapes); the layouts are those tools'
+ * defaults (common practice, no source).
+ */
+function rewritten(doc: unknown): Record<string, string> {
+  const ascii = (s: string) =>
+    s.replace(/[^\x00-\x7f]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, "0")}`);
+  return {
+    "jq -S .": `${JSON.stringify(sortedKeys(doc), null, 2)}\n`,
+    "jq -c .": `${JSON.stringify(doc)}\n`,
+    "python3 -m json.tool --sort-keys": `${ascii(JSON.stringify(sortedKeys(doc), null, 4))}\n`,
+  };
+}
+
+describe("espalier SAVED.json rewritten by a CI step (keys sorted, re-spaced)", () => {
+  it("reads the view it holds, with the saved totals, from a file, from standard input and through loadTree", async () => {
+    const { doc } = await saved([...ORG, "--budget", "16", "--focus", "Q2417"]);
+    const asSaved = await cli([save(JSON.stringify(doc)), "--budget", "40", "--format", "json"]);
+    expect(asSaved.code, asSaved.stderr).toBe(0);
+    for (const [step, text] of Object.entries(rewritten(doc))) {
+      for (const read of [
+        await cli([save(text), "--budget", "40", "--format", "json"]),
+        await cli(["-", "--budget", "40", "--format", "json"], { stdin: text }),
+      ]) {
+        expect(read.code, `${step}: ${read.stderr}`).toBe(0);
+        const back = JSON.parse(read.stdout);
+        expect(
+          back.input.notes.map((n: { code: string }) => n.code),
+          step,
+        ).toContain("SAVED_VIEW");
+        expect(back.totals, step).toEqual(doc.totals);
+        expect(back.root, step).toEqual(JSON.parse(asSaved.stdout).root);
+      }
+      const tree = loadTree(text, { ...defaultLoadOptions, file: "org.json" });
+      expect(
+        tree.reading?.notes?.map((n) => n.code),
+        step,
+      ).toContain("SAVED_VIEW");
+    }
+  });
+
+  it("reads it when sorted foci fill more than the start read to tell the format (64 KiB)", async () => {
+    // jq -S puts "budget" and "foci" before "format": a long list of foci pushes it further.
+    const { doc } = await saved([...FILES, "--budget", "12"]);
+    const foci = Array.from({ length: 4000 }, (_, k) => `data/tide-tables/station-${k}/{spring,neap}`);
+    const text = JSON.stringify(sortedKeys({ ...doc, foci }), null, 2);
+    expect(text.indexOf('"format"')).toBeGreaterThan(1 << 17);
+    const read = await cli([save(text), "--format", "json"]);
+    expect(read.code, read.stderr).toBe(0);
+    expect(JSON.parse(read.stdout).totals).toEqual(doc.totals);
+    expect(read.stderr).toContain("[SAVED_VIEW]");
+  });
+
+  it("reads a user's document with such members as its values: a member espalier does not write comes first", async () => {
+    const { doc } = await saved([...FILES, "--budget", "8"]);
+    const own = JSON.stringify(sortedKeys({ ...doc, audience: "harbour ops" }), null, 2);
+    const read = await cli([save(own), "--format", "json"]);
+    expect(read.code, read.stderr).toBe(0);
+    expect(read.stderr).not.toContain("SAVED_VIEW");
+    expect(JSON.parse(read.stdout).input.shape).toBe("values");
+  });
+
+  it("is SHAPE for a saved diff passed through jq -S ., naming what to run", async () => {
+    const made = await cli(["diff", ...FILES, ...FILES, "--format", "json"]);
+    expect(made.code, made.stderr).toBe(0);
+    for (const [step, text] of Object.entries(rewritten(JSON.parse(made.stdout)))) {
+      const read = await cli([save(text)]);
+      expect(read.code, step).toBe(2);
+      expect(read.stdout, step).toBe("");
+      expect(read.stderr, step).toContain("[SHAPE]");
+      expect(read.stderr, step).toContain("run espalier diff on the two inputs it compared");
+    }
   });
 });
 
