@@ -52,7 +52,7 @@ async function diffOutput(
   read.sizeName = sizeName;
   const compareFields = compared.fields;
   const prepared = prepareDiff(oldTree, newTree, { compareFields, fieldsOptional: compared.optional });
-  const versions = comparisonNotes(prepared, [oldTree, newTree], newInput, io, key);
+  const versions = comparisonNotes(prepared, [oldTree, newTree], [oldInput, newInput], io, key);
   const options: DiffOptions = {
     foci,
     budget: opts.budget ?? defaultBudget(io),

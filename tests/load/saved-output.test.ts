@@ -336,26 +336,90 @@ describe("espalier diff and saved outputs", () => {
   );
   const validateDiff = new Ajv2020.default({ allErrors: true }).compile(diffSchema);
 
-  it("refuses two views that fold different nodes: a node one shows may be in the other's fold", async () => {
+  it("compares views of one tree saved at different budgets at the coarser one's folds: nothing changed", async () => {
     // One tree saved at two budgets: the bigger view shows nodes the smaller folds. Counting them added
-    // (as a first version did, exit 1 under --fail-on-change) is a change no one made.
-    const a = await saved([...FILES, "--budget", "12"]);
-    const b = await saved([...FILES, "--budget", "16"]);
-    for (const [old, now, shown] of [
-      [a.file, b.file, "NEW"],
-      [b.file, a.file, "OLD"],
-    ]) {
-      const diff = await cli(["diff", old, now, "--fail-on-change"]);
-      expect(diff.code, diff.stderr).toBe(2);
-      expect(diff.stdout).toBe("");
-      expect(diff.stderr).toContain("[SHAPE]");
-      expect(diff.stderr).toContain(`${shown} shows "`);
-      expect(diff.stderr).toContain("diff the original inputs");
+    // (a first version did, exit 1 under --fail-on-change) is a change no one made; refusing them (the
+    // next) left CI jobs whose budget changed nothing to compare. Selections are nested
+    // (docs/selection.md rule 2), so every pair reads exactly at the smaller view's folds.
+    for (const args of [FILES, [...ORG, "--focus", "Q2417"]]) {
+      const views = [];
+      for (const budget of ["8", "12", "20", "40"]) views.push(await saved([...args, "--budget", budget]));
+      for (const [k, a] of views.entries()) {
+        for (const b of views.slice(k + 1)) {
+          for (const [old, now, finer] of [
+            [a, b, "NEW"],
+            [b, a, "OLD"],
+          ] as const) {
+            const diff = await cli(["diff", old.file, now.file, "--fail-on-change", "--format", "json"]);
+            expect(diff.code, diff.stderr).toBe(0);
+            const doc = JSON.parse(diff.stdout);
+            expect(validateDiff(doc), JSON.stringify(validateDiff.errors)).toBe(true);
+            expect(doc.changes).toEqual({
+              added: 0,
+              removed: 0,
+              moved: 0,
+              renamed: 0,
+              edited: 0,
+              resized: 0,
+            });
+            expect(doc.totals.old).toEqual(old.doc.totals);
+            expect(doc.totals.new).toEqual(now.doc.totals);
+            const atFolds = doc.notes.filter((n: { code: string }) => n.code === "COMPARED_AT_FOLDS");
+            expect(atFolds.map((n: { version: string }) => n.version)).toEqual(
+              JSON.stringify(a.doc.root) === JSON.stringify(b.doc.root) ? [] : [finer],
+            );
+            addsUp(doc.root);
+          }
+        }
+      }
     }
-    // Against the original input too: its nodes under a folded parent cannot be told from the fold's.
-    const original = await cli(["diff", a.file, ...FILES]);
-    expect(original.code, original.stderr).toBe(2);
-    expect(original.stderr).toContain("[SHAPE]");
+  });
+
+  it("compares a saved view with the input itself at the view's folds, and says so in the header", async () => {
+    const a = await saved([...FILES, "--budget", "12"]);
+    const diff = await cli(["diff", a.file, ...FILES, "--fail-on-change", "--budget", "30"]);
+    expect(diff.code, diff.stderr).toBe(0);
+    expect(diff.stdout.split("\n")[0]).toMatch(
+      /NEW: compared at [0-9]+ folds of OLD, the nodes inside counted in them/,
+    );
+    expect(diff.stderr).toContain("[COMPARED_AT_FOLDS]");
+  });
+
+  it("counts a node removed inside the coarser view's fold in that fold, exactly", async () => {
+    const listing = readFileSync(org("tidewater-files.paths"), "utf8");
+    // The same file name, so the two roots are named alike; a file the budget-12 view folds, shown at 40.
+    const later = join(mkdtempSync(join(dir, "budgets-")), "tidewater-files.paths");
+    const gone = "./tools/";
+    const lines = listing.trimEnd().split("\n");
+    const at = lines.findIndex((l) => l.includes(gone) && /\.[a-z]+$/.test(l));
+    writeFileSync(later, `${lines.filter((_, k) => k !== at).join("\n")}\n`);
+    const a = await saved([...FILES, "--budget", "12"]);
+    const b = await saved([later, "--budget", "40"]);
+    const direct = await cli(["diff", ...FILES, later, "--format", "json"]);
+    const whole = JSON.parse(direct.stdout);
+    const diff = await cli(["diff", a.file, b.file, "--budget", "200", "--format", "json"]);
+    expect(diff.code, diff.stderr).toBe(0);
+    const doc = JSON.parse(diff.stdout);
+    expect(doc.totals.old).toEqual(a.doc.totals);
+    expect(doc.totals.new).toEqual(b.doc.totals);
+    expect(doc.totals.delta).toBe(whole.totals.delta);
+    // The one change: the fold of tools that holds the file, its count one less (1 + shown + folded).
+    const edited = [...walk(doc.root)].filter((n) => (n as { change?: string }).change === "edited");
+    expect(edited.map((n) => n.path)).toEqual([`tools/${FOLD_NAME}`]);
+    expect(doc.changes).toMatchObject({ added: 0, removed: 0, edited: 1 });
+    addsUp(doc.root);
+  });
+
+  it("refuses two views whose folds cross (saved with other foci): a node each shows may be in the other's fold", async () => {
+    const a = await saved([...FILES, "--budget", "12", "--focus", "libs"]);
+    const b = await saved([...FILES, "--budget", "12", "--focus", "services"]);
+    const diff = await cli(["diff", a.file, b.file, "--fail-on-change"]);
+    expect(diff.code, diff.stderr).toBe(2);
+    expect(diff.stdout).toBe("");
+    expect(diff.stderr).toContain("[SHAPE]");
+    expect(diff.stderr).toContain('NEW shows "services"');
+    expect(diff.stderr).toContain('OLD shows "libs"');
+    expect(diff.stderr).toContain("diff the original inputs");
   });
 
   it("compares two saved summaries with their saved totals, each fold counted as the nodes it stands for", async () => {
