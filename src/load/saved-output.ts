@@ -96,6 +96,12 @@ export function loadSavedOutput(text: string, format: string, options: LoadOptio
       // A listing's root that stood for the listed folder still does (read whole): a diff then compares
       // it with the other version's root whatever each is named, as it compares the listings themselves.
       ...(whole && input.rootIsStart === true ? { rootIsStart: true } : {}),
+      // A nameless top node named after the input file, or a document read as values (its root the
+      // document, named after the file), still is one: a diff names it as the other version's.
+      ...(whole &&
+      (input.rootNamed === "nameless" || (input.shape === "values" && input.rootNamed === undefined))
+        ? { rootNamed: "nameless" as const }
+        : {}),
       ...(linked.empty > 0 ? { emptyEntries: linked.empty } : {}),
       ...(options.keepOtherFields ? { otherFields: [FOLDED_FIELD] } : {}),
       notes,
@@ -106,15 +112,18 @@ export function loadSavedOutput(text: string, format: string, options: LoadOptio
 }
 
 /**
- * Whether a saved summary's root is one espalier named after the input file: above a table's top-level
- * rows (its id "", which no row can have: an empty id cell is SHAPE), a fact table's rollup
- * (input.rolledUpRows) or a document read as values (input.shape "values": its root is the document,
- * always named after the file). A document of node objects does not say whether its root's name came
- * from the file or from its name field, so its root keeps the saved name.
+ * Whether a saved summary's root is one espalier added and named after the input file: one the
+ * summary says it added (input.rootNamed "added": above a path list's, a table's or a document's
+ * top-level nodes), and in summaries that do not say so, one above a table's top-level rows (its id "",
+ * which no row can have: an empty id cell is SHAPE) or a fact table's rollup (input.rolledUpRows). A
+ * nameless top node named after the file (input.rootNamed "nameless") and a document read as values
+ * (input.shape "values": its root is the document, named after the file) are the input's own root,
+ * not an added one, as a load of the input reads them: the diff names it as the other version's
+ * (diff/align-roots.ts), so it compares with a saved or loaded root alike.
  */
 function addedRoot(root: SavedNode | null | undefined, input: Record<string, unknown>): boolean {
   return (
-    root?.id === "" || input.shape === "values" || (input.shape === "table" && isCount(input.rolledUpRows))
+    input.rootNamed === "added" || root?.id === "" || (input.shape === "table" && isCount(input.rolledUpRows))
   );
 }
 

@@ -158,6 +158,12 @@ export const inputReadingSchema = z
       .describe(
         "A path list whose root stands for the listed folder whatever it is named: a line with an empty path named it (find DIR -printf '%P'), or every path starts with . (find .). A diff compares such a root with the other version's root.",
       ),
+    rootNamed: z
+      .enum(["added", "nameless"])
+      .optional()
+      .describe(
+        "The root's name is espalier's, not the input's: added, a root espalier put above the input's top-level nodes (a path list's, a table's, an array's); nameless, the input's one top node had no name and was named after the input. A diff of two saved summaries compares two such roots, each named after its own file, as one root, as a diff of the inputs does.",
+      ),
     emptyEntries: z
       .number()
       .int()
