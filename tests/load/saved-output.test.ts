@@ -410,6 +410,29 @@ describe("espalier diff and saved outputs", () => {
     addsUp(doc.root);
   });
 
+  it("compares a saved view with an input whose records hold fields the view does not keep: not an edit from nothing", async () => {
+    // Field test: a saved org chart against the table it came from said every node edited, "title
+    // (none) -> Pilot", and --fail-on-change exited 1. An invented crew list of the fictional Tidewater
+    // harbour office.
+    const crew = join(mkdtempSync(join(dir, "crew-")), "crew.csv");
+    writeFileSync(
+      crew,
+      "id,parent,name,title\nQ1,,Ines Harrow,Harbourmaster\nQ2,Q1,Oda Brine,Pilot\nQ3,Q1,Tove Lind,Deckhand\nQ4,Q2,Arno Vell,Pilot\n",
+    );
+    for (const budget of ["3", "10"]) {
+      const a = await saved([crew, "--budget", budget]);
+      for (const pair of [
+        [a.file, crew],
+        [crew, a.file],
+      ]) {
+        const diff = await cli(["diff", ...pair, "--fail-on-change", "--format", "json"]);
+        expect(diff.code, diff.stdout).toBe(0);
+        expect(JSON.parse(diff.stdout).changes).toMatchObject({ edited: 0, added: 0, removed: 0 });
+        expect(diff.stderr).toContain("[FIELDS_NOT_COMPARED]");
+      }
+    }
+  });
+
   it("refuses two views whose folds cross (saved with other foci): a node each shows may be in the other's fold", async () => {
     const a = await saved([...FILES, "--budget", "12", "--focus", "libs"]);
     const b = await saved([...FILES, "--budget", "12", "--focus", "services"]);
