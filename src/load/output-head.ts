@@ -24,6 +24,17 @@ const FORMAT_ID = /^espalier-[a-z]+\/[0-9A-Za-z.-]{1,20}$/;
 /** Longest member name looked at: longer ones are none of {@link OUTPUT_MEMBERS}. */
 const LONGEST_NAME = 32;
 
+/**
+ * The members `jq -S` and other key sorters put before `format` (docs' schemas): past {@link
+ * ANY_ORDER_UNITS}, only while every member so far is one of these is the text read on, so that a
+ * saved output whose foci fill more than that is known, and a document of the user's own whose first
+ * member merely has an output's name (`root`, `notes`) is not held and scanned to its end.
+ */
+const SORTED_BEFORE_FORMAT: ReadonlySet<string> = new Set(["budget", "changes", "compared", "foci"]);
+
+/** The start (UTF-16 units: within the 64 KiB a stream's detection reads) where members come in any order. */
+export const ANY_ORDER_UNITS = 16384;
+
 /** Longest format value looked at (`espalier-` + a kind + `/` + a version, perhaps with escapes). */
 const LONGEST_FORMAT = 120;
 
@@ -39,7 +50,8 @@ type Phase = "open" | "name" | "nameEnd" | "colon" | "value" | "format" | "skip"
  * `jq -c` and `python3 -m json.tool` re-space them): the text is read in pieces, each member before
  * `format` skipped, and it is no output as soon as a member espalier does not write comes before it.
  * So a user's document stops being looked at on its first other member, and one that is espalier's
- * is known once its `format` is read. {@link read} returns the format id, `null` when the text is not
+ * is known once its `format` is read: in any order within the first {@link ANY_ORDER_UNITS}, and past
+ * them after members that sort before it (a long list of foci, sorted first). {@link read} returns the format id, `null` when the text is not
  * espalier output, or `undefined` while more text is needed to tell.
  */
 export class OutputHead {
@@ -53,6 +65,9 @@ export class OutputHead {
   private verdict: string | null | undefined = undefined;
   /** Whether nothing has been read yet (a byte order mark may come first). */
   private first = true;
+  /** Text read so far (UTF-16 units), and whether every member so far sorts before `format`. */
+  private seen = 0;
+  private sorted = true;
 
   /** Reads the next piece of the text; the verdict so far (see the class). */
   read(piece: string): string | null | undefined {
@@ -65,7 +80,9 @@ export class OutputHead {
         this.first = false;
         i++;
       }
+      if (this.verdict === undefined && !this.sorted && this.seen + i > ANY_ORDER_UNITS) this.not();
     }
+    this.seen += piece.length;
     return this.verdict;
   }
 
@@ -121,8 +138,10 @@ export class OutputHead {
       this.escaped = false;
       this.depth = -1;
       this.to("format");
-    } else if (name !== null && OUTPUT_MEMBERS.has(name)) this.to("value");
-    else this.not();
+    } else if (name !== null && OUTPUT_MEMBERS.has(name)) {
+      if (!SORTED_BEFORE_FORMAT.has(name)) this.sorted = false;
+      this.to("value");
+    } else this.not();
   }
 
   private formatChar(c: number, ch: string): void {

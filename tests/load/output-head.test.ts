@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { OUTPUT_MEMBERS, OutputHead } from "../../src/load/output-head.js";
+import { ANY_ORDER_UNITS, OUTPUT_MEMBERS, OutputHead } from "../../src/load/output-head.js";
 
 /** The verdict on `text` read in the pieces `cuts` make, at its end. */
 function verdict(text: string, cuts: number[] = []): string | null {
@@ -96,6 +96,17 @@ describe("new OutputHead().read(text)", () => {
     const later = new OutputHead();
     expect(later.read('{ "foci": ["a", "b"')).toBeUndefined();
     expect(later.read('], "format": "espalier-summary/1"')).toBe("espalier-summary/1");
+  });
+
+  it("reads on past its first 16K units only while the members sort before format (long foci), not after a long root", () => {
+    const long = "x".repeat(ANY_ORDER_UNITS);
+    const foci = JSON.stringify({ budget: 4, foci: [long, long], format: "espalier-summary/1" });
+    expect(verdict(foci)).toBe("espalier-summary/1");
+    // A user's document whose first member has an output's name: given up at the limit, not held to its end.
+    const root = JSON.stringify({ root: { name: long }, format: "espalier-summary/1" });
+    expect(verdict(root)).toBeNull();
+    const head = new OutputHead();
+    expect(head.read(`{"notes": ["${long}`)).toBeNull();
   });
 
   it("knows exactly the top-level members docs/summary.schema.json and docs/diff.schema.json allow", () => {
