@@ -5,6 +5,7 @@ import { CONFIG_FILES } from "./config.js";
 import { effectiveOptions, optionsInEffectYaml } from "./effective-options.js";
 import { EXIT } from "./exit-codes.js";
 import { checkFactOptionsRead, printSqlCommand } from "./fact-input.js";
+import { fileOutputIO } from "./file-output-io.js";
 import { hidingInput } from "./hide-input.js";
 import { pseudonymKey } from "./input.js";
 import type { CliIO } from "./io.js";
@@ -113,7 +114,9 @@ function defineCommand<T extends Record<string, OptionSpec>>(def: CommandDef<T>)
       }
       // Under --pseudonymize every error of the work leaves with the input hidden (hide-input.ts).
       const key = pseudonymKey(options as { pseudonymize?: boolean }, io);
-      const output = await hidingInput(key, () => run(line.args, options, io, { configFile, fromConfig }));
+      // A result bound for an --output file is laid out and coloured for a file, not for the terminal.
+      const runIO = target ? fileOutputIO(io) : io;
+      const output = await hidingInput(key, () => run(line.args, options, runIO, { configFile, fromConfig }));
       const long = commentSizeNote((options as { format?: string }).format, output.text);
       if (long) io.stderr.write(long);
       return { ...output, target };

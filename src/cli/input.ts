@@ -324,6 +324,12 @@ export async function readFoci(
   // A file or a pipe, never a device, at most maxFociBytes (read-limits.ts).
   const focusFrom = opts.focusFrom;
   const text = await readInput(io, focusFrom, FOCI_BOUND);
+  if (text.includes("\0") && looksLikeUtf16(text))
+    throw new EspalierError(
+      "USAGE",
+      "the focus list looks like UTF-16 text without a byte order mark (every other byte is NUL), which would read as a NUL-separated list of single letters: write it as UTF-8, or as UTF-16 with its byte order mark (PowerShell: Out-File -Encoding utf8)",
+      { file: displayName(focusFrom) },
+    );
   const lines = text.includes("\0") ? text.split("\0") : text.split(/\r?\n/);
   lines.forEach((listed, k) => {
     if (listed !== "") foci.push({ listed, line: k + 1, file: displayName(focusFrom) });
@@ -336,6 +342,35 @@ export async function readFoci(
         `${focusFrom === "-" ? " (did the command before the pipe fail?)" : ""}\n`,
     );
   return foci;
+}
+
+/**
+ * Whether a focus list read as UTF-8 is UTF-16 without its byte order mark: within its first 256 code
+ * units every NUL stands at one parity (odd for little-endian, even for big-endian), at least three in
+ * four units of that parity are NULs (text in the Latin scripts), and a line break stands beside a
+ * NUL, or more than 16 "entries" between NULs are one character each (one line with no line end). A
+ * list made NUL-separated on purpose (`git diff --name-only -z`) has names of any length between its
+ * NULs.
+ */
+function looksLikeUtf16(text: string): boolean {
+  const head = text.slice(0, 256);
+  if (head.length < 4) return false;
+  const nulAt = (k: number) => head.charCodeAt(k) === 0;
+  for (const parity of [1, 0]) {
+    let nuls = 0;
+    let other = false;
+    for (let k = 0; k < head.length && !other; k++) {
+      if (k % 2 === parity) nuls += nulAt(k) ? 1 : 0;
+      else other = nulAt(k);
+    }
+    if (other || nuls * 8 < head.length * 3) continue;
+    const breakBeside = parity === 1 ? /\n\0/.test(head) : /\0\n/.test(head);
+    const entries = head.split("\0");
+    const letters =
+      entries.length > 16 && entries.every((entry, k) => entry.length <= 1 || k === entries.length - 1);
+    if (breakBeside || letters) return true;
+  }
+  return false;
 }
 
 /**

@@ -7,7 +7,14 @@ import type { OutputFiles } from "./write-output.js";
 
 /** Everything the CLI touches outside itself, passed in so tests drive it directly. */
 export interface CliIO {
-  stdout: { write(text: string): unknown; isTTY?: boolean; rows?: number; columns?: number };
+  /** `toFile`: the result goes to an `--output` file, not to standard output (see file-output-io.ts). */
+  stdout: {
+    write(text: string): unknown;
+    isTTY?: boolean;
+    rows?: number;
+    columns?: number;
+    toFile?: boolean;
+  };
   stderr: { write(text: string): unknown; isTTY?: boolean };
   /** Reads standard input whole; with a bound, at most that much (see read-bounded.ts). */
   readStdin(bound?: ReadBound): Promise<Buffer>;

@@ -28,15 +28,53 @@ export async function openFile(name: string): Promise<StreamedInput> {
     let bytes: Buffer;
     try {
       bytes = await readAll(fd, stat.size);
+      unchanged(stat, await fsCall<Stats>(fstat, fd), bytes.length);
     } finally {
       await fsCall(close, fd);
     }
     return { size: stat.size, chunks: chunksOf(bytes) };
   }
-  return {
-    size: stat.isFile() ? stat.size : undefined,
-    chunks: createReadStream("", { fd, highWaterMark: CHUNK }),
-  };
+  if (stat.isFile()) return { size: stat.size, chunks: fileChunks(fd, stat) };
+  return { size: undefined, chunks: createReadStream("", { fd, highWaterMark: CHUNK }) };
+}
+
+/**
+ * A regular file's chunks, checked at its end against the file as it was opened: a file written,
+ * cut short or grown while it is read (a listing still being made, an artefact replaced in place) is
+ * a mix of two versions, and read on it would give a tree no version of the file holds, exit 0.
+ */
+async function* fileChunks(fd: number, opened: Stats): AsyncGenerator<Uint8Array> {
+  try {
+    let length = 0;
+    for (;;) {
+      const buffer = Buffer.allocUnsafe(CHUNK);
+      const bytesRead = await fsCall<number>(read, fd, buffer, 0, CHUNK, null);
+      if (bytesRead === 0) break;
+      length += bytesRead;
+      yield bytesRead === CHUNK ? buffer : buffer.subarray(0, bytesRead);
+    }
+    unchanged(opened, await fsCall<Stats>(fstat, fd), length);
+  } finally {
+    await fsCall(close, fd);
+  }
+}
+
+/**
+ * Throws when the file changed while it was read: its size or modification time is not what it was
+ * when opened, or other than its size at open was read. A file whose size said 0 (procfs and other
+ * generated files) is read to its end as it is.
+ */
+function unchanged(opened: Stats, now: Stats, length: number): void {
+  if (
+    now.size === opened.size &&
+    now.mtimeMs === opened.mtimeMs &&
+    (length === opened.size || opened.size === 0)
+  )
+    return;
+  const count = (n: number) => n.toLocaleString("en-US");
+  throw new Error(
+    `it changed while espalier read it (${count(opened.size)} bytes when opened, ${count(now.size)} now, ${count(length)} read); run again once it is written`,
+  );
 }
 
 /** The file's bytes from where `fd` stands to its end; `size` is what it is expected to hold. */

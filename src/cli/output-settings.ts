@@ -305,9 +305,11 @@ export function unitsFor(opts: SharedCliOptions, tree?: Tree): Units {
  * Colour only on a terminal, never with NO_COLOR set (no-color.org) or TERM=dumb; `--color` decides
  * over all of these. FORCE_COLOR, which CI runners set so a log shows colours (common practice, no
  * source), turns it on off a terminal and under TERM=dumb, `0` or `false` off; NO_COLOR wins over it.
+ * A file written by `--output` is no log: no colour there unless `--color always`.
  */
 export function useColour(opts: SharedCliOptions, io: CliIO): boolean {
   if (opts.color !== "auto") return opts.color === "always";
+  if (io.stdout.toFile === true) return false;
   if (io.env.NO_COLOR !== undefined && io.env.NO_COLOR !== "") return false;
   const forced = io.env.FORCE_COLOR;
   if (forced !== undefined && forced !== "") return forced !== "0" && forced.toLowerCase() !== "false";

@@ -83,9 +83,23 @@ const RECORD =
 const RECORD_WAY =
   'For what requires what, list one edge a line: pip show PKG... | awk \'/^Name: /{n = $2} /^Requires: ./{sub(/^Requires: /, ""); k = split($0, r, ", "); for (i = 1; i <= k; i++) print n "\\t" r[i]}\' | espalier - --input-format edges; pip list --format json and pip inspect read as they are';
 
+/**
+ * espalier's own text and Markdown output (src/render/header.ts): its header, `summary: 5,260 nodes…`
+ * or `diff by path: 8 added, 15 removed…`, maybe behind colour escapes, then anything. Read back as a
+ * path list each line was a path, so a saved text summary compared with `espalier diff` read as every
+ * node removed and its lines added, exit 1 under --fail-on-change; the JSON output reads back.
+ */
+const OWN_FIRST =
+  /^(?:\x1b\[[0-9;]*m)*(?:summary: [0-9][0-9,]* nodes?(?:[,;]|$)|diff by [a-z]+: [0-9][0-9,]* added, [0-9][0-9,]* removed)/;
+const OWN_SECOND = /(?:)/;
+const OWN = "the input starts as espalier prints a summary or a diff as text (its header line)";
+const OWN_WAY =
+  "espalier reads back its JSON output only: save the summary with --format json (read as the view it holds), or run espalier on the original input";
+
 /** The listings {@link knownListingError} knows by their first two lines: what they are, and the way to read them. */
 const KNOWN: readonly { first: RegExp; second: RegExp; listing: string; way: string }[] = [
   { first: ZIP_FIRST, second: ZIP_SECOND, listing: ZIP_LISTING, way: ZIP_WAY },
   { first: COMMIT_FIRST, second: COMMIT_SECOND, listing: COMMIT, way: COMMIT_WAY },
   { first: RECORD_FIRST, second: RECORD_SECOND, listing: RECORD, way: RECORD_WAY },
+  { first: OWN_FIRST, second: OWN_SECOND, listing: OWN, way: OWN_WAY },
 ];

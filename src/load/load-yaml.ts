@@ -24,7 +24,7 @@ import { sampleNested } from "./shape/sample-nested.js";
 import { linkPathMap, linkTable } from "./table/link-table.js";
 import { rowsTable } from "./table/rows-table.js";
 import { Kind, type NestedAccess, walkNested } from "./walk-nested.js";
-import { isMergeKey, keyText } from "./yaml-keys.js";
+import { isMergeKey, keyText, scalarAsWritten } from "./yaml-keys.js";
 import { yamlAtPointer } from "./yaml-pointer.js";
 import { yamlValues } from "./yaml-values.js";
 
@@ -40,7 +40,7 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
   const lineCounter = new LineCounter();
   let doc: ReturnType<typeof parseDocument>;
   try {
-    doc = parseDocument(text, { lineCounter, uniqueKeys: true });
+    doc = parseDocument(text, { lineCounter, uniqueKeys: true, merge: true });
   } catch (error) {
     if (error instanceof RangeError) {
       throw new EspalierError("LIMIT_EXCEEDED", "the YAML is nested too deeply to parse; convert it to JSON");
@@ -179,6 +179,8 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
       if (isSeq(v)) return Kind.Seq;
       if (!isScalar(v)) return Kind.Other;
       if (isTaggedFloat(v)) return Kind.Number;
+      // A `%YAML 1.1` timestamp (`2024-01-05`, yaml.org/type/timestamp.html) is text as written here.
+      if (v.value instanceof Date) return Kind.String;
       switch (typeof v.value) {
         case "number":
         case "bigint":
@@ -214,7 +216,10 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
       const n = v.value;
       if (typeof n === "number" && Number.isInteger(n) && !Number.isSafeInteger(n) && v.range)
         return text.slice(v.range[0], v.range[1]);
-      return String(n);
+      // A name, an id or a field written as a number reads as written (`3.10`, not 3.1): yaml-keys.ts.
+      return typeof n === "number" || typeof n === "bigint" || n instanceof Date
+        ? scalarAsWritten(v)
+        : String(n);
     },
     source(value) {
       const range = deref(value)?.range;
@@ -405,8 +410,34 @@ function plainValue(
         "LIMIT_EXCEEDED",
         "the YAML's aliases expand into too many values to read as a graph (an alias of an alias of …); write the lists out, or read the document without --graph",
       );
+    // The merge type (yaml.org/type/merge.html) merges mappings, or a sequence of them, only.
+    if (error instanceof Error && /^Merge sources/.test(error.message)) throw badMerge(doc, lineCounter);
     throw error;
   }
+}
+
+/** SHAPE at the first merge key (`<<`) whose value is no mapping, alias of one, or sequence of them. */
+function badMerge(doc: ReturnType<typeof parseDocument>, lineCounter: LineCounter): EspalierError {
+  const anchored = new Map<string, Node>();
+  const mapping = (v: unknown): boolean => isMap(isAlias(v) ? anchored.get(v.source) : v);
+  let at: { line: number; col: number } | undefined;
+  visit(doc, {
+    Node(_, node) {
+      if (!isAlias(node) && node.anchor) anchored.set(node.anchor, node);
+    },
+    Pair(_, pair) {
+      if (!isMergeKey(pair.key)) return undefined;
+      const v = pair.value;
+      if (mapping(v) || (isSeq(v) && v.items.every(mapping))) return undefined;
+      at = lineCounter.linePos((pair.key as Node).range?.[0] ?? 0);
+      return visit.BREAK;
+    },
+  });
+  return new EspalierError(
+    "SHAPE",
+    "a merge key (<<) must name a mapping, an alias of one or a list of them (the YAML 1.1 merge type)",
+    at ? { line: at.line, column: at.col } : undefined,
+  );
 }
 
 /** Whether the input was taken for YAML by its content: no `--input-format`, no `.yaml`/`.yml` name. */

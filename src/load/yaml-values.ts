@@ -15,6 +15,8 @@ import {
 } from "./load-options.js";
 import { checkNoNamedFields } from "./missing-field.js";
 import { NodeSink } from "./node-sink.js";
+import { isMergeKey, keyText } from "./yaml-keys.js";
+import { pairItems } from "./yaml-pair-items.js";
 
 /**
  * A YAML document as a tree of its values, as JsonValueLoader reads JSON: a mapping's entries are its
@@ -49,6 +51,8 @@ export function yamlValues(
   // Aliases read (each a leaf of its own text), and the first: its node, text and line.
   let aliases = 0;
   let firstAlias: { node: number; text: string; line: number } | undefined;
+  // Merge keys (`<<`) whose value is an alias, or a list holding one: their mappings' keys are not repeated.
+  let merges = 0;
   for (let i = 0; i < sink.length; i++) {
     const v = pending[i];
     pending[i] = null;
@@ -70,12 +74,13 @@ export function yamlValues(
     } else if (!isAlias(v) && isMap(v)) {
       for (const pair of v.items) {
         const value = (pair.value ?? null) as Node | null;
+        if (isMergeKey(pair.key) && (isAlias(value) || (isSeq(value) && value.items.some(isAlias)))) merges++;
         const j = sink.add(i, keyText(pair.key), lineOf(value) || lineOf(pair.key as Node | null));
         pending[j] = value;
         inner += lengthOf(value);
       }
     } else if (!isAlias(v) && isSeq(v)) {
-      v.items.forEach((item, k) => {
+      pairItems(v.items).forEach((item, k) => {
         const j = sink.add(i, String(k), lineOf(item as Node | null));
         const named = isAlias(item) ? undefined : itemName(item as Node | null);
         if (named !== undefined && namedItems.length <= MOST_ITEM_NAMES) {
@@ -101,7 +106,8 @@ export function yamlValues(
   const itemNamesField = byNode(sink.length, namedItems, itemNames, MOST_ITEM_NAMES);
   if (itemNamesField) fields.set(ITEM_NAME_FIELD, itemNamesField);
   const note =
-    firstAlias && aliasesNote(aliases, firstAlias, describeNode(sink.parentOf, sink.name, firstAlias.node));
+    firstAlias &&
+    aliasesNote(aliases, merges, firstAlias, describeNode(sink.parentOf, sink.name, firstAlias.node));
   return sink.finish(options.rootName, fields, null, {
     shape: "values",
     sizeUnit: "bytes",
@@ -114,19 +120,26 @@ export function yamlValues(
  * ALIASES_AS_TEXT: a value tree shows an alias as a leaf like any scalar (`0  5 B`), though it stands
  * for a value written elsewhere, maybe a whole mapping (YAML 1.2.2 §3.2.2.2: a node in several places
  * is written once with an anchor, then as aliases). Nothing on a line can tell it, so a note says how
- * many there are and where the first is, and that what each names counts once, at its anchor.
+ * many there are and where the first is, and that what each names counts once, at its anchor. Merge
+ * keys (`<<: *base`, the YAML 1.1 merge type, yaml.org/type/merge.html) are named apart: the keys a
+ * mapping merges in are its own to a reader of 1.1, and here show only at their anchor.
  */
 function aliasesNote(
   count: number,
+  merges: number,
   first: { text: string; line: number },
   where: readonly MessagePart[],
 ): ReadingNote {
   const some = count === 1 ? "1 YAML alias is" : `${count} YAML aliases are`;
+  const merged =
+    merges === 0
+      ? ""
+      : `; ${merges === 1 ? "1 merge key (<<) names one" : `${merges} merge keys (<<) name some`}: the keys a mapping merges in (the YAML 1.1 merge type) show at their anchor only, not in the mapping that merges them`;
   return {
     code: "ALIASES_AS_TEXT",
     count,
     ...(first.line > 0 ? { line: first.line } : {}),
-    parts: say`${some} read as leaves of their own text (the first: ${quoted.excerpt(first.text)}, ${where}): the value an alias names is counted once, where its anchor is, and not again where the alias stands; read as nodes (--read-as nodes), an alias of a node object is that node, shown as a reference`,
+    parts: say`${some} read as leaves of their own text (the first: ${quoted.excerpt(first.text)}, ${where}): the value an alias names is counted once, where its anchor is, and not again where the alias stands${merged}; read as nodes (--read-as nodes), an alias of a node object is that node, shown as a reference`,
   };
 }
 
@@ -141,12 +154,6 @@ function scalarText(v: Node, text: string): string {
   if (typeof v.value === "string") return JSON.stringify(v.value);
   if (typeof v.value === "boolean" || v.value === null) return String(v.value);
   return source;
-}
-
-/** A mapping key as text: a scalar's value ("" for null), else the key as written. */
-function keyText(key: unknown): string {
-  if (isScalar(key)) return key.value === null || key.value === undefined ? "" : String(key.value);
-  return String(key);
 }
 
 /** UTF-16 offsets of `text` to UTF-8 byte offsets, for offsets asked in any order. */

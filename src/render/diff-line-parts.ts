@@ -85,8 +85,10 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
           compactFoldSized: `(${sizedOf({ ...options, compact: true, countsExact: true })}; ${inside})`,
         }
       : { foldSized: undefined, compactFoldSized: undefined }),
-    // All below the line folded: the fold's size and net are the line's less its own.
-    ...(hidden && sized(options).sizes && last.children.length === 0
+    // All below the line folded: the fold's size and net are the line's less its own (a fold of
+    // removed nodes only, which says no size, too: its net is the line's less the tag's); without
+    // sizes, the fold's count and how many changed say all the sums need.
+    ...(hidden && last.children.length === 0
       ? {
           foldAllBelow: allChanged ? bare : `(${bare.slice(1, -1)}, ${formatCount(changed)} changed)`,
           foldAllBelowBare: allChanged ? undefined : bare,

@@ -366,6 +366,19 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     // A chain keeps its joins while the line keeps a count: its names are counted in it.
     if (!whole && p.labels.length > 1 && fewest !== ANY_CUT && cutChain(p.labels, room, fewest) === null)
       continue;
+    // Before the first step that cuts a name: the names whole where only numbers the line says twice
+    // give way (see `wholeNameLine`).
+    const keepsName = whole
+      ? null
+      : wholeNameLine(p, width, (tag, numbers, all) => line(indent, label, tag, numbers, all, false));
+    if (keepsName !== null)
+      return {
+        text: line(indent, label, keepsName.tag, keepsName.numbers, keepsName.fold, true),
+        ...NOTHING_CUT,
+        countInFold: keepsName.numbers === "",
+        // A tag's old path or value cut to a few columns is cut as a name is (`…` marks where).
+        nameCut: keepsName.tag !== p.tag,
+      };
     const names = whole
       ? { text: label, elided: false, shortened: false }
       : cutNames(p.labels, room, p.distinct, fewest);
@@ -457,6 +470,28 @@ function fewerTag(p: LineParts, width: number, kindTag: string, lineOf: (tag: st
     if (displayWidth(tag) < least && displayWidth(lineOf(tag)) <= width) return tag;
   }
   return kindTag;
+}
+
+/**
+ * The tag, numbers and fold of a line whose names stay whole where only numbers the line says twice
+ * give way: for a line with none below it (`LineParts.foldAllBelow`), the fold's size (the line's
+ * less its own); then, where the line's numbers are its count alone and that count is 1 + the fold's
+ * (`LineParts.countInFold`), the count. Null when neither applies or the names do not fit so either.
+ */
+function wholeNameLine(
+  p: LineParts,
+  width: number,
+  lineOf: (tag: string, numbers: string, fold: string) => string,
+): { tag: string; numbers: string; fold: string } | null {
+  const tags = p.tag === p.shortTag ? [p.tag] : [p.tag, p.shortTag];
+  const tries: [string, string][] = [];
+  if (p.foldAllBelow !== undefined) tries.push([p.numbers, p.foldAllBelow]);
+  if (p.countInFold && p.countNumbers !== "" && p.numbers === p.countNumbers)
+    tries.push(["", p.foldAllBelow ?? p.foldTiny]);
+  for (const [numbers, fold] of tries)
+    for (const tag of tags)
+      if (displayWidth(lineOf(tag, numbers, fold)) <= width) return { tag, numbers, fold };
+  return null;
 }
 
 /** A step of `laidOutLine`: [indentation, tag, fewest label columns (0: whole), numbers, fold]. */

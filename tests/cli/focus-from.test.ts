@@ -165,6 +165,48 @@ describe("espalier --focus-from with git's list of changed files", () => {
     expect(doc.foci.length).toBe(2);
   });
 
+  it("refuses a list in UTF-16 without its byte order mark (USAGE), and reads one with its mark", async () => {
+    // Field defect: such a list (little-endian, CRLF) read as a NUL-separated list of letters; under
+    // --unmatched-foci skip the run went on with 32 foci skipped and the root's "/" as its one focus, exit 0.
+    // UTF-16 encodings and the byte order mark as in Unicode 15, section 3.10 (from memory).
+    const text = changed.replace(/\n/g, "\r\n");
+    const little = Buffer.from(text, "utf16le");
+    const big = Buffer.from(little).swap16();
+    for (const [name, bytes] of [
+      ["le.txt", little],
+      ["be.txt", big],
+    ] as const) {
+      writeFileSync(at(name), bytes);
+      const r = await cli([at("files.paths"), "--focus-from", at(name), "--unmatched-foci", "skip"]);
+      expect(r.code).toBe(2);
+      expect(r.stdout).toBe("");
+      expect(r.stderr).toMatch(/UTF-16 .*\[USAGE\]\n$/);
+    }
+    writeFileSync(at("marked.txt"), Buffer.concat([Buffer.from([0xff, 0xfe]), little]));
+    const marked = await cli([
+      at("files.paths"),
+      "--focus-from",
+      at("marked.txt"),
+      "--unmatched-foci",
+      "skip",
+      "--format",
+      "json",
+    ]);
+    expect(marked.code, marked.stderr).toBe(0);
+    expect(JSON.parse(marked.stdout).unmatchedFoci).toEqual(["riptide/src/gone.ts"]);
+    // a NUL-separated list of a few one-letter names is no UTF-16: no line break stands beside its NULs
+    writeFileSync(at("letters.txt"), "a\0b\0c\0");
+    const letters = await cli([
+      at("files.paths"),
+      "--focus-from",
+      at("letters.txt"),
+      "--unmatched-foci",
+      "skip",
+    ]);
+    expect(letters.code, letters.stderr).toBe(0);
+    expect(letters.stderr).toMatch(/3 foci match no node/);
+  });
+
   it("reads the list from standard input", async () => {
     const r = await cli(
       [at("files.paths"), "--focus-from", "-", "--unmatched-foci", "skip", "--format", "json"],

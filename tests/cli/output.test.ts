@@ -197,6 +197,30 @@ describe("espalier <input> --output FILE", () => {
     expect(await readdir(dir)).toEqual([]);
   });
 
+  it("lays FILE out as a file when run from a terminal: default budget 40, no width, no colour", async () => {
+    // Field defect: `espalier x -o view.txt` on a 12-row, 40-column terminal wrote 11 lines cut to 40
+    // columns with colour escapes into the file, which is no terminal.
+    const input = new URL("../../fixtures/tidewater-files.paths", import.meta.url).pathname;
+    const piped = await cli([input]);
+    const envs: Record<string, string>[] = [{}, { FORCE_COLOR: "1" }];
+    for (const env of envs) {
+      const out = join(dir, "view.txt");
+      const r = await cli([input, "-o", out], { tty: { rows: 12, columns: 40 }, env });
+      expect(r.code, r.stderr).toBe(0);
+      expect(r.stdout).toBe("");
+      const written = await readFile(out, "utf8");
+      expect(written).toBe(piped.stdout);
+      expect(written).not.toContain("\x1b");
+      expect(written.split("\n")[0]).toMatch(/40 of 40 lines \(default budget: not a terminal\)$/);
+    }
+    const out = join(dir, "coloured.txt");
+    const asked = await cli([input, "-o", out, "--color", "always"], { tty: { rows: 12, columns: 40 } });
+    expect(asked.code, asked.stderr).toBe(0);
+    expect(await readFile(out, "utf8")).toContain("\x1b[");
+    const shown = await cli([input], { tty: { rows: 12, columns: 40 } });
+    expect(shown.stdout.split("\n").length - 1).toBe(11);
+  });
+
   it("writes a diff to FILE too, and refuses either version as the target", async () => {
     const before = join(dir, "old.paths");
     const after = join(dir, "new.paths");

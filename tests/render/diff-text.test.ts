@@ -191,3 +191,35 @@ describe("renderDiffText(view, totals, { width }): a fold's sizes in a diff", ()
     );
   });
 });
+
+describe("renderDiffText(view, totals, { width }): a name kept whole before numbers said twice", () => {
+  const render = (oldTree: Tree, newTree: Tree, budget: number, width: number, sizes = true) => {
+    const r = diffTrees(oldTree, newTree, { foci: [], budget, importance: "depth", chains: false });
+    return renderDiffText(r.view, r.totals, { units: "plain", sizes, by: r.combined.by, width });
+  };
+  // A removed folder with all below it folded: its fold's count and net are the line's less its own
+  // (13 = 1 + 12; -30 = -4 own - 26 hidden), so the fold's words give way before the name is cut.
+  const oldTree = makeTree(
+    "R{keep:1,harbour-ledger-reconciliation:4{a:1,b:2,c:3,d:4,e:5,f:6,g:1,h:1,i:1,j:1,k:0,l:1}}",
+  );
+  const newTree = makeTree("R{keep:1}");
+
+  it("keeps the removed folder's name whole with its fold's count alone", () => {
+    const wide = render(oldTree, newTree, 3, 200);
+    expect(wide).toContain(
+      "  : [removed -4] harbour-ledger-reconciliation  13 nodes, net -30  (hidden: 12 children, 12 nodes; 12 removed, net -26)",
+    );
+    // At 80 columns the full fold does not fit: the name stays, the fold says its count.
+    const narrow = render(oldTree, newTree, 3, 80);
+    expect(narrow).toContain(
+      "  : [removed -4] harbour-ledger-reconciliation  13 nodes, net -30  (12 hidden)",
+    );
+    expect(narrow).not.toContain("…");
+  });
+
+  it("without sizes, leaves out the count the fold says (13 = 1 + 12) before cutting the name", () => {
+    const out = render(oldTree, newTree, 3, 58, false);
+    expect(out).toContain("  : [removed] harbour-ledger-reconciliation  (12 hidden)");
+    for (const line of out.split("\n")) expect(line.length).toBeLessThanOrEqual(58);
+  });
+});

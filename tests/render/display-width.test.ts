@@ -157,11 +157,13 @@ describe("renderText(view, { width })", () => {
     expect(at(53)).toBe("  . Esme Orby Lead…  3 nodes, 123,459  (2 hidden, 3)");
     expect(at(46)).toBe("  . Esme Orb…  3 nodes, 123,459  (2 hidden, 3)");
     // Then down to 4 columns, every number still exact (compact numbers, 123k, would save fewer
-    // columns than the name gives); the chain's names are cut too, its " / " kept, its sizes kept.
+    // columns than the name gives). The chain's line, with no lines below it, keeps its names whole
+    // with its fold's count alone before any name is cut: the fold is all below the line, its size
+    // the line's less the line's own.
     expect(lines(42).slice(0, 3)).toEqual([
       ". R  9 nodes, 123,464",
       "  . Esme…  3 nodes, 123,459  (2 hidden, 3)",
-      "  . alp… / beta  5 nodes, 5  (3 hidden, 5)",
+      "  . alpha / beta  5 nodes, 5  (3 hidden)",
     ]);
     // Narrower, the chain's line, with no lines below it, keeps its sizes with its fold's count alone:
     // the fold is all below the line, its size the line's less the line's own; Esme's size is compact.

@@ -34,9 +34,11 @@ describe("screenLines(groups, parts, options)", () => {
     const mid = at(46);
     expect(mid.sizesLeftOut).toBe(false);
     expect(mid.sizesCut).toBe(false);
+    // ledger-core's line, all below it folded too, keeps its name whole the same way rather than cut
+    // it to keep the fold's size (3 = 40,003 less the line's own 40,000).
     expect(mid.lines).toEqual([
       ". R  8 nodes, 163,464",
-      "  . ledger-co…  3 nodes, 40,003  (2 hidden, 3)",
+      "  . ledger-core  3 nodes, 40,003  (2 hidden)",
       "  . ripti… / kelp-…  4 nodes, 123k  (2 hidden)",
     ]);
   });
@@ -44,13 +46,14 @@ describe("screenLines(groups, parts, options)", () => {
   it("cuts one line's sizes, saying so, when only that line cannot hold them; the others keep theirs", () => {
     // In bytes, which have no shorter form, at 46 columns "  . rip… / kel…  4 nodes, 120.6 KiB
     // (2 hidden)" is 47: the line says `size cut` where its sizes were and keeps its count (4 = 2
-    // names + 2 hidden); the other lines keep their sizes, a name cut first.
+    // names + 2 hidden); the other lines keep their sizes, ledger-core's its name whole with its
+    // fold's count alone (all below it is folded: the fold's size is the line's less its own).
     const mid = screenLines(groups, lineParts, { units: "bytes", sizes: true, width: 46 });
     expect(mid.sizesLeftOut).toBe(false);
     expect(mid.sizesCut).toBe(true);
     expect(mid.lines).toEqual([
       ". R  8 nodes, 159.6 KiB",
-      "  . ledge…  3 nodes, 39.1 KiB  (2 hidden, 3 B)",
+      "  . ledger-core  3 nodes, 39.1 KiB  (2 hidden)",
       "  . rip… / kel…  4 nodes, size cut  (2 hidden)",
     ]);
     // The key says what `size cut` means for the line above it (R: 40,008 is not 40,003 + a size shown).
