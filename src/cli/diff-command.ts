@@ -6,6 +6,7 @@ import { loadCompared } from "./compared-fields.js";
 import { comparisonNotes } from "./comparison-notes.js";
 import { EXIT } from "./exit-codes.js";
 import { fitToBudget } from "./fit-to-budget.js";
+import { generalDiff } from "./general-diff.js";
 import { pseudonymKey, readFoci, unmatchedWarning } from "./input.js";
 import type { CliIO } from "./io.js";
 import type { DiffCliOptions } from "./options.js";
@@ -51,7 +52,11 @@ async function diffOutput(
   const sizeName = sizeNameOf(opts, [oldTree, newTree]);
   read.sizeName = sizeName;
   const compareFields = compared.fields;
-  const prepared = prepareDiff(oldTree, newTree, { compareFields, fieldsOptional: compared.optional });
+  const prepared = prepareDiff(oldTree, newTree, {
+    compareFields,
+    fieldsOptional: compared.optional,
+    generalPath: generalDiff(io.env),
+  });
   const versions = comparisonNotes(prepared, [oldTree, newTree], [oldInput, newInput], io, key);
   const options: DiffOptions = {
     foci,

@@ -1,6 +1,7 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import { type Selection, select } from "../fit/select.js";
 import { resolveSpecs } from "../focus/resolve-specs.js";
+import { readsAsEarlier } from "../load/table/read-as-earlier.js";
 import { type Measures, measure } from "../model/measure.js";
 import { printedNames } from "../model/printed-names.js";
 import type { Tree } from "../model/tree.js";
@@ -13,6 +14,7 @@ import { type Combined, combine, combineListing } from "./combine.js";
 import { type DiffInterest, diffInterest } from "./diff-interest.js";
 import { diffOrder } from "./diff-order.js";
 import { buildDiffView, type DiffViewNode } from "./diff-view.js";
+import { directCombined } from "./direct-combine.js";
 import { comparedFields } from "./field-edits.js";
 import { alignGraphRoots, distinctNodes, graphCombined, isGraphDiff, matchGraphs } from "./graph-changes.js";
 import { type Matching, matchTreesListing } from "./match.js";
@@ -55,6 +57,11 @@ export interface CompareOptions {
    * it holds something. Else a missing field is FIELD_MISSING.
    */
   fieldsOptional?: boolean;
+  /**
+   * Compare by the general matching even where NEW's load read it as OLD with known changes (tests: the
+   * direct layout must give the same diff; see direct-combine.ts).
+   */
+  generalPath?: boolean;
 }
 
 /** match → combine → measure: what a diff's summaries share, whatever their foci. */
@@ -65,23 +72,22 @@ export function prepareDiff(oldLoaded: Tree, newLoaded: Tree, compare: CompareOp
   const fields = compare.compareFields ?? [];
   const compared =
     fields.length > 0 ? comparedFields(oldTree, newTree, fields, compare.fieldsOptional === true) : null;
-  // Only subtree counts of the two versions are needed; the whole-tree arrays are kept few, because
-  // every large allocation brings the next full garbage collection of both loaded versions nearer.
-  // A tree's counts and matching are read no more once the combined tree is made: their memory is then
-  // lent to its measures, which would otherwise each touch new memory, dear on a big tree
-  // (docs/performance.md). Both versions' counts lie side by side in one block, twice their size: the
-  // combined tree (at most both versions' nodes) has its subtree sizes, doubles, there, in memory the
-  // counts wrote (pages no one writes cost nothing); each matching array is room for one of its
-  // measures' arrays of numbers.
-  const room = graph ? 0 : oldTree.length + newTree.length;
-  const block = graph ? undefined : new ArrayBuffer(room * 8);
-  const oldCount = subtreeCounts(oldTree, block && new Int32Array(block, 0, oldTree.length));
-  const newCount = subtreeCounts(newTree, block && new Int32Array(block, oldTree.length * 4, newTree.length));
+  // NEW read as OLD with known changes (a table read against OLD's: load/table/read-as-earlier.ts):
+  // both laid out together from that, with no tree of NEW's own, no matching and no splice.
+  const direct =
+    graph || compared !== null || compare.generalPath === true
+      ? undefined
+      : directOf(oldInput, newInput, oldTree, newTree);
   let combined: Combined;
   // The changed nodes in ascending order, as combine placed them (a graph's kinds change after).
   let changed: Int32Array | undefined;
   let lendable: (Int32Array | undefined)[] = [];
-  if (graph) {
+  if (direct !== undefined) {
+    ({ combined, changed } = direct);
+    lendable = [undefined, undefined, direct.spare];
+  } else if (graph) {
+    const oldCount = subtreeCounts(oldTree);
+    const newCount = subtreeCounts(newTree);
     // Graphs: full entries matched by id, references by their edges; kinds of change by edges. Nodes
     // read from YAML have references (aliases) but no ids: their paths serve, and they match by path.
     const byPath = oldTree.ids === null && newTree.ids === null;
@@ -96,6 +102,18 @@ export function prepareDiff(oldLoaded: Tree, newLoaded: Tree, compare: CompareOp
       found.newEdges,
     );
   } else {
+    // Only subtree counts of the two versions are needed; the whole-tree arrays are kept few, because
+    // every large allocation brings the next full garbage collection of both loaded versions nearer.
+    // A tree's counts and matching are read no more once the combined tree is made: their memory is then
+    // lent to its measures, which would otherwise each touch new memory, dear on a big tree
+    // (docs/performance.md). Both versions' counts lie side by side in one block, twice their size: the
+    // combined tree (at most both versions' nodes) has its subtree sizes, doubles, there, in memory the
+    // counts wrote (pages no one writes cost nothing); each matching array is room for one of its
+    // measures' arrays of numbers.
+    const room = oldTree.length + newTree.length;
+    const block = new ArrayBuffer(room * 8);
+    const oldCount = subtreeCounts(oldTree, new Int32Array(block, 0, oldTree.length));
+    const newCount = subtreeCounts(newTree, new Int32Array(block, oldTree.length * 4, newTree.length));
     const { matching, unmatched } = matchTreesListing(oldTree, oldCount, newTree, newCount, room);
     ({ combined, changed } = combineListing(
       oldTree,
@@ -130,6 +148,21 @@ export function prepareDiff(oldLoaded: Tree, newLoaded: Tree, compare: CompareOp
     oldTree,
     totals,
   });
+}
+
+/**
+ * The combined tree laid out directly (direct-combine.ts) when NEW's load read it as OLD with known
+ * changes and both versions are as loaded (no root put above either); else undefined.
+ */
+function directOf(
+  oldInput: Tree,
+  newInput: Tree,
+  oldTree: Tree,
+  newTree: Tree,
+): { combined: Combined; changed: Int32Array; spare: Int32Array } | undefined {
+  const plan = readsAsEarlier.take(newInput);
+  if (plan === undefined || oldTree !== oldInput || newTree !== newInput) return undefined;
+  return directCombined(oldTree, newTree, plan);
 }
 
 /**

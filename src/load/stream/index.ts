@@ -33,10 +33,12 @@ import { loadSavedOutput, readsAsSaved } from "../saved-output.js";
 import { readSizeTotals } from "../size-totals.js";
 import { csvTableFromStream } from "../table/csv-table.js";
 import { type KeptTable, keptTables } from "../table/kept-table.js";
-import { linkTable } from "../table/link-table.js";
+import { linkTable, tableReading } from "../table/link-table.js";
 import { placeInTable } from "../table/locate-cell.js";
 import { checkNullParentUse } from "../table/null-parent.js";
+import { type ReadAsEarlier, readAsEarlier, readsAsEarlier } from "../table/read-as-earlier.js";
 import { checkShortRowsFormat } from "../table/short-rows-format.js";
+import type { Table } from "../table/table.js";
 import { withNotes } from "../with-notes.js";
 import { edgeListStream } from "./edge-list-stream.js";
 import { outputFormatOfStream } from "./output-start.js";
@@ -85,10 +87,12 @@ export async function loadTreeFromStream(
         return loadSavedOutput(new TextDecoder("utf-8", { ignoreBOM: true }).decode(bytes), saved!, options);
       }
       const part = await partAtPointer(start, format, options);
-      linked = readAtPointer(
-        await linkedNodes(part.chunks, format, options, Buffer.from(part.text, "utf8"), table),
-        options,
-      );
+      const read = await linkedNodes(part.chunks, format, options, Buffer.from(part.text, "utf8"), table);
+      if ("later" in read) {
+        checkReadingOptions({ parentColumnRead: true, reading: read.later.reading }, format, options);
+        return read.later;
+      }
+      linked = readAtPointer(read, options);
       checkNullParentUse(linked, format, options);
       checkReadingOptions(linked, format, options);
     } catch (error) {
@@ -155,7 +159,7 @@ async function linkedNodes(
   options: LoadOptions,
   head: Uint8Array,
   seen: TableSeen,
-): Promise<LinkedNodes | GraphNodes> {
+): Promise<LinkedNodes | GraphNodes | { later: Tree }> {
   if (format === "yaml") {
     // The YAML parser is loaded only for YAML input (a start reads no code it does not run).
     const { loadYaml } = await import("../load-yaml.js");
@@ -221,11 +225,63 @@ async function linkedNodes(
         },
   );
   seen.kept = table.keptForLater;
+  const asEarlier = options.graph ? undefined : readAsEarlier(table, options, options.earlierVersion);
+  if (asEarlier !== undefined) return { later: treeAsEarlier(table, options, asEarlier) };
   try {
     return options.graph ? linkGraphTable(table, options) : linkTable(table, options);
   } finally {
     table.release?.();
   }
+}
+
+/**
+ * The tree of a table read as an earlier version with known changes (table/read-as-earlier.ts), its
+ * arrays made when first read: a diff lays both versions out together from what the reading found
+ * (diff/direct-combine.ts) and mostly reads none of them. Made, they are the tree `linkTable` and
+ * `buildTree` make of the table, as for any table: the reading found that its rows link without an
+ * error. The reading is kept for the diff by the tree (`readsAsEarlier`).
+ */
+function treeAsEarlier(table: Table, options: LoadOptions, asEarlier: ReadAsEarlier): Tree {
+  const file = options.file === undefined || options.file === "-" ? undefined : options.file;
+  let built: Tree | undefined;
+  const whole = (): Tree => {
+    if (built === undefined) {
+      try {
+        built = readSizeTotals(buildTree(linkTable(table, options), file), options.folderSizes);
+      } finally {
+        table.release?.();
+      }
+    }
+    return built;
+  };
+  const tree: Tree = {
+    length: asEarlier.rows,
+    hasSizes: asEarlier.sizes !== null,
+    originIsRow: true,
+    syntheticRoot: false,
+    fields: new Map(),
+    reading: tableReading(table, options, "table", []),
+    get parent() {
+      return whole().parent;
+    },
+    get depth() {
+      return whole().depth;
+    },
+    get name() {
+      return whole().name;
+    },
+    get ownSize() {
+      return whole().ownSize;
+    },
+    get ids() {
+      return whole().ids;
+    },
+    get origin() {
+      return whole().origin;
+    },
+  };
+  readsAsEarlier.keep(tree, asEarlier);
+  return tree;
 }
 
 /**

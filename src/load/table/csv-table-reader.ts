@@ -13,7 +13,7 @@ import { EarlierRows } from "./earlier-rows.js";
 import { type KeptColumn, type KeptTable, TableKeeper } from "./kept-table.js";
 import { RowLines } from "./row-lines.js";
 import { withSeparatorHint } from "./separator-hint.js";
-import { type NumberCells, numberCell, type Table, type WrittenCell } from "./table.js";
+import { type NumberCells, numberCell, type Table, type TakenRows, type WrittenCell } from "./table.js";
 
 /** The columns a table loader reads. */
 export type TableFields = Pick<
@@ -141,6 +141,9 @@ export class CsvTableReader implements CsvSink {
    * ones after), and the earlier rows by the column (ids, else names) that finds a scanned row's.
    */
   private looked = 0;
+  /** Read against a kept table: the runs of rows taken from it (see TakenRows), three numbers a run. */
+  private takenRuns = new Int32Array(0);
+  private takenCount = 0;
   private rowFinder: { column: Kept; rows: EarlierNames } | undefined;
 
   constructor(
@@ -233,6 +236,7 @@ export class CsvTableReader implements CsvSink {
     } catch (error) {
       throw withSeparatorHint(error, this.header);
     }
+    const taken = this.takenRows();
     // The earlier version's kept table is read no more (and nothing else reads it).
     this.against?.release();
     this.against = undefined;
@@ -255,6 +259,7 @@ export class CsvTableReader implements CsvSink {
         return notUtf8Of(kept, length, notUtf8Rows);
       },
       ...(keptForLater ? { keptForLater } : {}),
+      ...(taken ? { taken } : {}),
       ...(filledRows > 0 ? { filledRows } : {}),
       column(name) {
         const c = at.get(name);
@@ -462,10 +467,37 @@ export class CsvTableReader implements CsvSink {
     this.looked = this.rows;
   }
 
+  /** The runs of rows taken from the earlier version's kept table, when this table was read against one. */
+  private takenRows(): TakenRows | undefined {
+    const from = this.against;
+    if (from === undefined) return undefined;
+    return {
+      runs: this.takenRuns,
+      count: this.takenCount,
+      earlierRows: from.rows,
+      rowsById: from.rowsById,
+    };
+  }
+
+  /** Notes the run of earlier rows `from` to `to - 1` taken at this table's row `row`. */
+  private noteRun(row: number, from: number, to: number): void {
+    const at = 3 * this.takenCount;
+    if (at + 3 > this.takenRuns.length) {
+      const grown = new Int32Array(Math.max(3 * 256, 2 * this.takenRuns.length));
+      grown.set(this.takenRuns);
+      this.takenRuns = grown;
+    }
+    this.takenRuns[at] = row;
+    this.takenRuns[at + 1] = from;
+    this.takenRuns[at + 2] = to - from;
+    this.takenCount++;
+  }
+
   /** Appends the earlier version's rows `from` to `to - 1` as they were read there. */
   private copyRows(against: KeptTable, from: number, to: number): void {
     const count = to - from;
     const row = this.rows;
+    this.noteRun(row, from, to);
     const columns = this.againstColumns;
     for (let c = 0; c < this.kept.length; c++) {
       const keep = this.kept[c];

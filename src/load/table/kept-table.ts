@@ -4,6 +4,7 @@ import type { BytesKeeper, EarlierBytes } from "../earlier-bytes.js";
 import { KeptForLater } from "../kept-for-later.js";
 import type { BytesAt } from "../load-options.js";
 import { releasableMemory, releaseMemory } from "../releasable-memory.js";
+import type { ByteIdIndex } from "./byte-id-index.js";
 import type { RowLines } from "./row-lines.js";
 
 export { MOST_KEPT_BYTES } from "../earlier-bytes.js";
@@ -56,6 +57,12 @@ export class KeptTable {
     /** The longest record the reader took (read-limits.ts). */
     readonly maxLineBytes: number,
   ) {}
+
+  /**
+   * The rows by id, as the table's link indexed them (link-table.ts), kept for a later version read
+   * against this table: its rows that were not taken whole are found by id there (read-as-earlier.ts).
+   */
+  rowsById: ByteIdIndex | undefined;
 
   /**
    * Gives the memory of the bytes and the rows' starts back now, not whenever the collector finds them

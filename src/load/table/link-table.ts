@@ -5,6 +5,7 @@ import type { LinkedNodes } from "../../model/linked-nodes.js";
 import { copyName, isEmptyName, NamePool, type Names, StringNames } from "../../model/names.js";
 import type { ReadingNote } from "../../model/reading-note.js";
 import { isSize } from "../../model/size-rule.js";
+import type { TreeReading } from "../../model/tree.js";
 import type { LoadOptions } from "../load-options.js";
 import { missingField, nameFieldNamed, sizeFieldNamed } from "../missing-field.js";
 import { limitExceeded, NodeSink } from "../node-sink.js";
@@ -45,6 +46,18 @@ export function linkTable(
       table.place,
     );
   }
+  linked.reading = tableReading(table, options, shape, linked.reading?.notes ?? []);
+  if (table.place) linked.placeRow = table.place;
+  return linked;
+}
+
+/** How {@link linkTable} read `table`: its reading, with the link's `notes` and the table's own. */
+export function tableReading(
+  table: Table,
+  options: LoadOptions,
+  shape: "table" | "rows",
+  notes: readonly ReadingNote[],
+): TreeReading {
   // Linked by id with no name column: the ids name the nodes, and the header says so. By the header's
   // names only: `column` would make a cell of every row of a table that keeps its ids as bytes.
   const columns = table.columnNames();
@@ -52,17 +65,15 @@ export function linkTable(
     columns.includes(options.idField) &&
     columns.includes(options.parentField) &&
     !columns.includes(options.nameField);
-  linked.reading = {
+  return {
     shape,
     sizeUnit: fieldSizeUnit(options.sizeField),
     ...(table.filledRows ? { filledRows: table.filledRows } : {}),
     ...(idsName ? { namesFrom: options.idField } : {}),
     linkedBy: linkedBy(table, options),
     ...withOtherFields(otherFields(columns, options)),
-    ...notesOf([...(linked.reading?.notes ?? []), ...tableNotUtf8Notes(table)]),
+    ...notesOf([...notes, ...tableNotUtf8Notes(table)]),
   };
-  if (table.place) linked.placeRow = table.place;
-  return linked;
 }
 
 /** `notes` as a reading's field: absent when there are none. */
@@ -277,6 +288,8 @@ function linkByteIds(table: Table, ids: NamePool, parents: NumberCells, options:
   // Each loop over the rows is a function of its own: a function whose first loop ran compiles again
   // at the second (its code never ran), in every load (docs/performance.md).
   indexIds(rowOf, ids, n, nullParents, options);
+  // A later version read against this table finds the rows it did not take whole by id here.
+  if (table.keptForLater) table.keptForLater.rowsById = rowOf;
   const parentOf = new Int32Array(n);
   const origin = new Int32Array(n);
   const ownSize = new Float64Array(n);

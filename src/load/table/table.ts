@@ -1,5 +1,6 @@
 import type { SourcePos } from "../../errors.js";
 import type { NamePool } from "../../model/names.js";
+import type { ByteIdIndex } from "./byte-id-index.js";
 import type { KeptTable } from "./kept-table.js";
 
 /** One cell: text from CSV/TSV, any JSON scalar from rows. */
@@ -54,6 +55,23 @@ export interface Table {
   notUtf8?(): { count: number; first: number } | undefined;
   /** What the table's load kept for a later version's (LoadOptions.keepForLaterVersion), when it did. */
   readonly keptForLater?: KeptTable;
+  /** Read against an earlier version's kept table: the rows it took from there (see {@link TakenRows}). */
+  readonly taken?: TakenRows;
+}
+
+/**
+ * The rows a table read against an earlier version's kept table (kept-table.ts) took whole from there:
+ * runs of rows whose bytes are the earlier rows', each as three numbers (this table's first row, the
+ * earlier table's first row, how many), in this table's order; and what the earlier version's link
+ * kept to find its rows by id.
+ */
+export interface TakenRows {
+  readonly runs: Int32Array;
+  readonly count: number;
+  /** The earlier table's data rows. */
+  readonly earlierRows: number;
+  /** The earlier version's rows by id, when its link kept them (KeptTable.rowsById). */
+  readonly rowsById: ByteIdIndex | undefined;
 }
 
 /** A cell whose bytes are not UTF-8: its text as read, and its bytes as Latin-1 (one character a byte). */
