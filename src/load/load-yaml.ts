@@ -258,11 +258,11 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
         return (cell === undefined ? undefined : access.pos(cell)) ?? access.pos(item);
       };
       const table = rowsTable(
-        items.map((item) => recordOf(item, access)),
+        items.map((item) => recordOf(item, access, options.sizeField)),
         place,
       );
       // The first row with its lists' first records, for the hint of a FIELD_MISSING (rows-inside.ts).
-      const first = items.length > 0 ? listsOf(items[0], access) : undefined;
+      const first = items.length > 0 ? listsOf(items[0], access, options.sizeField) : undefined;
       return linkTable(first ? { ...table, firstRecord: first } : table, options, "rows");
     }
     case "path-map": {
@@ -272,7 +272,7 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
       access.entries(map, keys, values);
       return linkPathMap(
         keys,
-        values.map((value) => recordOf(value, access)),
+        values.map((value) => recordOf(value, access, options.sizeField)),
         options,
         reading.field,
       );
@@ -314,13 +314,13 @@ function documentValues(text: string, options: LoadOptions): LinkedNodes {
   );
 }
 
-/**
- * A mapping as a plain record for a table: scalars as their values, nested values as empty objects
- * (a table reads only plain values; reading such a field is an error there, not a silent blank).
- */
 /** A row's fields as {@link recordOf} reads them, a list of maps read as the list of its first record. */
-function listsOf(value: YamlValue, access: NestedAccess<YamlValue>): Record<string, unknown> {
-  const record = recordOf(value, access);
+function listsOf(
+  value: YamlValue,
+  access: NestedAccess<YamlValue>,
+  sizeField: string,
+): Record<string, unknown> {
+  const record = recordOf(value, access, sizeField);
   if (access.kind(value) !== Kind.Map) return record;
   const keys: string[] = [];
   const values: YamlValue[] = [];
@@ -330,12 +330,22 @@ function listsOf(value: YamlValue, access: NestedAccess<YamlValue>): Record<stri
       record[key] = access
         .items(values[k])
         .slice(0, 1)
-        .map((item) => recordOf(item, access));
+        .map((item) => recordOf(item, access, sizeField));
   });
   return record;
 }
 
-function recordOf(value: YamlValue, access: NestedAccess<YamlValue>): Record<string, unknown> {
+/**
+ * A mapping as a plain record for a table: scalars as their values, nested values as empty objects
+ * (a table reads only plain values; reading such a field is an error there, not a silent blank). A
+ * number other than the size whose text is not the number's own (`001`, `3.10`, `0x1F`) is its text as
+ * written: an id, a parent or a name (UN M.49's `001`), as a CSV cell would give it (yaml-keys.ts).
+ */
+function recordOf(
+  value: YamlValue,
+  access: NestedAccess<YamlValue>,
+  sizeField: string,
+): Record<string, unknown> {
   const record: Record<string, unknown> = {};
   if (access.kind(value) !== Kind.Map) return record;
   const keys: string[] = [];
@@ -346,7 +356,9 @@ function recordOf(value: YamlValue, access: NestedAccess<YamlValue>): Record<str
     const kind = access.kind(v);
     record[key] =
       kind === Kind.Number
-        ? access.number(v)
+        ? key === sizeField || access.text(v) === String(access.number(v))
+          ? access.number(v)
+          : access.text(v)
         : kind === Kind.String || kind === Kind.Boolean
           ? access.text(v)
           : kind === Kind.Null

@@ -64,6 +64,28 @@ describe("YAML keys and names written as numbers", () => {
     expect(names(JSON.parse(byName.stdout).root)).toEqual(["2024-01-05", "0777"]);
   });
 
+  it("links rows by ids written with leading zeros, as written, the size still read as a number", async () => {
+    // UN M.49 area codes are three digits, `001` the world, `019` the Americas (UN Statistics Division,
+    // "Standard country or area codes for statistical use", from memory); written plain in YAML they
+    // are the integers 1 and 19, and the rows printed as `1 / 19`.
+    const text =
+      '- {id: 001, parent: "", name: World}\n- {id: 019, parent: 001}\n- {id: 3.10, parent: 019, size: 0x10}\n';
+    const result = await cli(["areas.yaml", "--format", "json"], { files: { "areas.yaml": text } });
+    expect(result.code).toBe(0);
+    const json = JSON.parse(result.stdout);
+    expect(json.input.linkedBy).toEqual(["id", "parent"]);
+    expect(json.root.name).toBe("World");
+    expect(names(json.root)).toEqual(["019"]);
+    expect(names(json.root.children[0])).toEqual(["3.10"]);
+    expect(json.totals).toMatchObject({ nodes: 3, size: 16 });
+    // A parent written as the number without its zeros names no row: said, not linked by value.
+    const other = await cli(["areas.yaml"], {
+      files: { "areas.yaml": text.replace("parent: 001", "parent: 1") },
+    });
+    expect(other.code).toBe(2);
+    expect(other.stderr).toContain("[MISSING_PARENT]");
+  });
+
   it("finds a --start-at pointer by the key as written", async () => {
     const text =
       "runtimes:\n  3.10:\n    name: quay\n    children: [{name: tern, size: 2}]\n  3.9: {name: gull}\n";
