@@ -61,18 +61,29 @@ export async function effectiveOptions<T extends Record<string, OptionSpec>>(
   return { options: Object.assign(options, named), configFile: config?.file, fromConfig };
 }
 
-/** The effective configuration as YAML, as `--options-in-effect` shows it (a valid config file itself). */
+/**
+ * The effective configuration as YAML, as `--options-in-effect` shows it: the options given (flags and
+ * config file) as keys, then every other option's default as a comment. The keys are a config file that
+ * gives the same run: a default written as a key would count as given, and some options given on an
+ * input they do not fit are refused (`sizeField: size` on a path list is FIELD_MISSING), so a printed
+ * configuration kept as `.espalier.yaml` failed every run on such an input.
+ */
 export async function optionsInEffectYaml(
-  values: Record<string, unknown>,
+  values: Record<string, unknown> & NamedOptions,
   configFile: string | undefined,
 ): Promise<string> {
   // The YAML library loads only for this (start-up: a plain run never writes YAML).
   const { stringify } = await import("yaml");
-  const shown: Record<string, unknown> = {};
+  const given: Record<string, unknown> = {};
+  const defaults: Record<string, unknown> = {};
   for (const key of Object.keys(values).sort()) {
     if (!(key in allOptions) || allOptions[key].config === false || values[key] === undefined) continue;
-    shown[key] = values[key];
+    if (values.named?.has(key) === true) given[key] = values[key];
+    else defaults[key] = values[key];
   }
   const source = configFile === undefined ? "no config file" : `config file: ${configFile}`;
-  return `# effective espalier configuration (${source}; flags override it)\n${stringify(shown)}`;
+  const head = `# effective espalier configuration (${source}; flags override it)\n`;
+  const keys = Object.keys(given).length > 0 ? stringify(given) : "";
+  const rest = stringify(defaults).replace(/^(?=.)/gm, "# ");
+  return `${head}${keys}# the defaults, not given (as keys they would count as given):\n${rest}`;
 }

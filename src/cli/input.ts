@@ -167,7 +167,7 @@ export async function loadVersions(
   newInput: string,
   opts: SharedCliOptions & ComparedFieldOptions,
 ): Promise<[Tree, Tree]> {
-  if (oldInput === "-" && newInput === "-")
+  if (readsStandardInput(oldInput) && readsStandardInput(newInput))
     throw new EspalierError("USAGE", "only one of the two versions can come from standard input");
   // --nodes once: one table of node records for both versions; twice: OLD's, then NEW's.
   const nodes = opts.nodes ?? [];
@@ -316,10 +316,10 @@ export async function readFoci(
 ): Promise<FocusSpec[]> {
   const foci: FocusSpec[] = [...opts.focus];
   if (opts.focusFrom === undefined) return foci;
-  if (opts.focusFrom === "-" && inputs.includes("-"))
+  if (readsStandardInput(opts.focusFrom) && inputs.some(readsStandardInput))
     throw new EspalierError(
       "USAGE",
-      "standard input cannot hold both an input and the foci (--focus-from -)",
+      `standard input cannot hold both an input and the foci (--focus-from ${opts.focusFrom})`,
     );
   // A file or a pipe, never a device, at most maxFociBytes (read-limits.ts).
   const focusFrom = opts.focusFrom;
@@ -342,6 +342,15 @@ export async function readFoci(
         `${focusFrom === "-" ? " (did the command before the pipe fail?)" : ""}\n`,
     );
   return foci;
+}
+
+/**
+ * Whether a name reads standard input: `-`, or a name of the system's for it (Linux, and /dev/fd on
+ * the BSDs and macOS; from memory). Two readers of it would take its bytes in turn: the second found
+ * it empty, and said a command before the pipe had failed.
+ */
+function readsStandardInput(name: string): boolean {
+  return name === "-" || name === "/dev/stdin" || name === "/dev/fd/0" || name === "/proc/self/fd/0";
 }
 
 /**

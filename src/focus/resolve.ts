@@ -5,6 +5,7 @@ import { printedNameOf, printedNames } from "../model/printed-names.js";
 import { pseudonym } from "../model/pseudonym.js";
 import { shownLabel } from "../model/safe-text.js";
 import { escapeSegment, parseSegment, splitPath } from "../model/segment.js";
+import { resolveComposedPath } from "./composed-path.js";
 import { isGlob, matchGlob } from "./glob.js";
 import { isPrintedChain, resolvePrintedChain } from "./printed-chain.js";
 import { suggestFoci } from "./suggest.js";
@@ -137,6 +138,11 @@ function matchSpec(
   if (pseudonymKey !== undefined) {
     const viaPseudonyms = resolvePseudonymPath(index, spec, pseudonymKey);
     if (viaPseudonyms >= 0) return [viaPseudonyms];
+  }
+  // Letters composed otherwise (NFC, NFD) than the names': canonically equivalent, so the same path.
+  if (!/^[\x00-\x7f]*$/.test(spec)) {
+    const composed = resolveComposedPath(index, spec);
+    if (composed >= 0) return [composed];
   }
   if (ids && tree.ids) {
     const byId = indexOfName(tree.ids, spec);

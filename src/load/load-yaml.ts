@@ -2,6 +2,7 @@ import {
   type Alias,
   isAlias,
   isMap,
+  isPair,
   isScalar,
   isSeq,
   LineCounter,
@@ -101,6 +102,7 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
   // linked by parent, as JSON's (graph-input.ts); aliases expand in its plain value, up to the yaml
   // package's alias count limit.
   if (options.graph) {
+    idsAsWritten(doc, options.sizeField);
     const value = plainValue(doc, lineCounter, root);
     if (Array.isArray(value) && !rowsListChildren(value, options))
       return linkGraphTable(rowsTable(value), options);
@@ -258,11 +260,11 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
         return (cell === undefined ? undefined : access.pos(cell)) ?? access.pos(item);
       };
       const table = rowsTable(
-        items.map((item) => recordOf(item, access)),
+        items.map((item) => recordOf(item, access, options.sizeField)),
         place,
       );
       // The first row with its lists' first records, for the hint of a FIELD_MISSING (rows-inside.ts).
-      const first = items.length > 0 ? listsOf(items[0], access) : undefined;
+      const first = items.length > 0 ? listsOf(items[0], access, options.sizeField) : undefined;
       return linkTable(first ? { ...table, firstRecord: first } : table, options, "rows");
     }
     case "path-map": {
@@ -272,7 +274,7 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
       access.entries(map, keys, values);
       return linkPathMap(
         keys,
-        values.map((value) => recordOf(value, access)),
+        values.map((value) => recordOf(value, access, options.sizeField)),
         options,
         reading.field,
       );
@@ -314,13 +316,13 @@ function documentValues(text: string, options: LoadOptions): LinkedNodes {
   );
 }
 
-/**
- * A mapping as a plain record for a table: scalars as their values, nested values as empty objects
- * (a table reads only plain values; reading such a field is an error there, not a silent blank).
- */
 /** A row's fields as {@link recordOf} reads them, a list of maps read as the list of its first record. */
-function listsOf(value: YamlValue, access: NestedAccess<YamlValue>): Record<string, unknown> {
-  const record = recordOf(value, access);
+function listsOf(
+  value: YamlValue,
+  access: NestedAccess<YamlValue>,
+  sizeField: string,
+): Record<string, unknown> {
+  const record = recordOf(value, access, sizeField);
   if (access.kind(value) !== Kind.Map) return record;
   const keys: string[] = [];
   const values: YamlValue[] = [];
@@ -330,12 +332,22 @@ function listsOf(value: YamlValue, access: NestedAccess<YamlValue>): Record<stri
       record[key] = access
         .items(values[k])
         .slice(0, 1)
-        .map((item) => recordOf(item, access));
+        .map((item) => recordOf(item, access, sizeField));
   });
   return record;
 }
 
-function recordOf(value: YamlValue, access: NestedAccess<YamlValue>): Record<string, unknown> {
+/**
+ * A mapping as a plain record for a table: scalars as their values, nested values as empty objects
+ * (a table reads only plain values; reading such a field is an error there, not a silent blank). A
+ * number other than the size whose text is not the number's own (`001`, `3.10`, `0x1F`) is its text as
+ * written: an id, a parent or a name (UN M.49's `001`), as a CSV cell would give it (yaml-keys.ts).
+ */
+function recordOf(
+  value: YamlValue,
+  access: NestedAccess<YamlValue>,
+  sizeField: string,
+): Record<string, unknown> {
   const record: Record<string, unknown> = {};
   if (access.kind(value) !== Kind.Map) return record;
   const keys: string[] = [];
@@ -346,7 +358,9 @@ function recordOf(value: YamlValue, access: NestedAccess<YamlValue>): Record<str
     const kind = access.kind(v);
     record[key] =
       kind === Kind.Number
-        ? access.number(v)
+        ? key === sizeField || access.text(v) === String(access.number(v))
+          ? access.number(v)
+          : access.text(v)
         : kind === Kind.String || kind === Kind.Boolean
           ? access.text(v)
           : kind === Kind.Null
@@ -368,6 +382,26 @@ const CORE_FLOAT = /^[-+]?(?:\.[0-9]+|[0-9]+(?:\.[0-9]*)?)(?:[eE][-+]?[0-9]+)?$/
  */
 function isTaggedFloat(v: Scalar): boolean {
   return typeof v.value === "string" && v.tag === "tag:yaml.org,2002:float" && CORE_FLOAT.test(v.value);
+}
+
+/**
+ * Before a graph's plain values are taken: every map key, list item and field other than the size
+ * written as a number whose text is not the number's own (`001`, `3.10`), or as a `%YAML 1.1` date, is
+ * set to its text as written, as the tree readings read ids and names (yaml-keys.ts), so an adjacency
+ * map's `001: [019]` links and prints `001` and `019`, not 1 and 19. The size stays the number.
+ */
+function idsAsWritten(doc: ReturnType<typeof parseDocument>, sizeField: string): void {
+  visit(doc, {
+    Scalar(key, node, path) {
+      const v = node.value;
+      if (typeof v !== "number" && typeof v !== "bigint" && !(v instanceof Date)) return;
+      const written = scalarAsWritten(node);
+      if (written === String(v)) return;
+      const parent = path[path.length - 1];
+      if (key === "value" && isPair(parent) && keyText(parent.key) === sizeField) return;
+      node.value = written;
+    },
+  });
 }
 
 /**

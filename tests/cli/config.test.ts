@@ -76,8 +76,41 @@ describe("the project config file (.espalier.yaml, --config)", () => {
     });
     expect(r.code, r.stderr).toBe(0);
     const printed = parse(r.stdout);
-    expect(printed).toMatchObject({ budget: 9, parentField: "manager", label: "{title}", format: "text" });
+    expect(printed).toEqual({ budget: 9, parentField: "manager", label: "{title}" });
     expect(configSchema().safeParse(printed).success).toBe(true);
+    // the defaults not given follow as comments, so every option in effect is shown
+    expect(r.stdout).toMatch(/^# format: text$/m);
+    expect(r.stdout).toMatch(/^# sizeField: size$/m);
+  });
+
+  it("--options-in-effect prints a config file that gives the same run, on inputs that refuse some options named", async () => {
+    // Field defect: kept as .espalier.yaml, the printed configuration named every default as a key, so a
+    // path list failed with FIELD_MISSING (sizeField: size) and a nested JSON with USAGE (idField).
+    const inputs = ["fixtures/tidewater-files.paths", "fixtures/tidewater-deps.json"];
+    for (const input of inputs) {
+      const asked = [
+        input,
+        "--budget",
+        "12",
+        "--sibling-order",
+        "size",
+        "--format",
+        "json",
+        "--without-config",
+      ];
+      const direct = await cli(asked);
+      expect(direct.code, direct.stderr).toBe(0);
+      const printed = await cli(
+        ["--options-in-effect", "--budget", "12", "--sibling-order", "size", "--format", "json"],
+        {
+          files: { ".espalier.yaml": "" },
+        },
+      );
+      expect(printed.code, printed.stderr).toBe(0);
+      const again = await cli([input], { files: { ".espalier.yaml": printed.stdout } });
+      expect(again.code, again.stderr).toBe(0);
+      expect(again.stdout).toBe(direct.stdout);
+    }
   });
 
   it("also configures espalier diff", async () => {

@@ -207,6 +207,24 @@ describe("espalier --focus-from with git's list of changed files", () => {
     expect(letters.stderr).toMatch(/3 foci match no node/);
   });
 
+  it("refuses standard input named twice, as - or /dev/stdin: for the input and the list, or both versions", async () => {
+    // Field defect: the list took standard input's bytes and the input was then said to be empty, as if
+    // the command before the pipe had failed (INPUT_EMPTY); a diff of - and /dev/stdin said the same.
+    for (const [input, list] of [
+      ["-", "/dev/stdin"],
+      ["/dev/stdin", "-"],
+      ["-", "/dev/fd/0"],
+    ]) {
+      const r = await cli([input, "--focus-from", list], { stdin: listing });
+      expect(r.code).toBe(2);
+      expect(r.stdout).toBe("");
+      expect(r.stderr).toMatch(/standard input cannot hold both .*\[USAGE\]\n$/);
+    }
+    const diff = await cli(["diff", "-", "/dev/stdin"], { stdin: listing });
+    expect(diff.code).toBe(2);
+    expect(diff.stderr).toMatch(/only one of the two versions .*\[USAGE\]\n$/);
+  });
+
   it("reads the list from standard input", async () => {
     const r = await cli(
       [at("files.paths"), "--focus-from", "-", "--unmatched-foci", "skip", "--format", "json"],

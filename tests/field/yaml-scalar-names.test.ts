@@ -64,6 +64,28 @@ describe("YAML keys and names written as numbers", () => {
     expect(names(JSON.parse(byName.stdout).root)).toEqual(["2024-01-05", "0777"]);
   });
 
+  it("links rows by ids written with leading zeros, as written, the size still read as a number", async () => {
+    // UN M.49 area codes are three digits, `001` the world, `019` the Americas (UN Statistics Division,
+    // "Standard country or area codes for statistical use", from memory); written plain in YAML they
+    // are the integers 1 and 19, and the rows printed as `1 / 19`.
+    const text =
+      '- {id: 001, parent: "", name: World}\n- {id: 019, parent: 001}\n- {id: 3.10, parent: 019, size: 0x10}\n';
+    const result = await cli(["areas.yaml", "--format", "json"], { files: { "areas.yaml": text } });
+    expect(result.code).toBe(0);
+    const json = JSON.parse(result.stdout);
+    expect(json.input.linkedBy).toEqual(["id", "parent"]);
+    expect(json.root.name).toBe("World");
+    expect(names(json.root)).toEqual(["019"]);
+    expect(names(json.root.children[0])).toEqual(["3.10"]);
+    expect(json.totals).toMatchObject({ nodes: 3, size: 16 });
+    // A parent written as the number without its zeros names no row: said, not linked by value.
+    const other = await cli(["areas.yaml"], {
+      files: { "areas.yaml": text.replace("parent: 001", "parent: 1") },
+    });
+    expect(other.code).toBe(2);
+    expect(other.stderr).toContain("[MISSING_PARENT]");
+  });
+
   it("finds a --start-at pointer by the key as written", async () => {
     const text =
       "runtimes:\n  3.10:\n    name: quay\n    children: [{name: tern, size: 2}]\n  3.9: {name: gull}\n";
@@ -115,6 +137,21 @@ describe("YAML merge keys in a graph", () => {
     const graph = JSON.parse((await cli(["rows.yaml", "--graph", "--format", "json"], { files })).stdout);
     expect(tree.totals).toMatchObject({ nodes: 3, size: 9 });
     expect(graph.totals).toEqual(tree.totals);
+  });
+
+  it("reads an adjacency map's ids written as numbers as written, the sizes as numbers", async () => {
+    // UN M.49 codes (from memory, as above): the world 001 holds the Americas 019 and Asia 142; by
+    // value the ids were 1, 19 and 142, and printed so.
+    const text = "001: {children: [019, 142]}\n019: {children: [021], size: 0x10}\n142: [030]\n";
+    const result = await cli(["areas.yaml", "--graph", "--format", "json"], {
+      files: { "areas.yaml": text },
+    });
+    expect(result.code).toBe(0);
+    const json = JSON.parse(result.stdout);
+    expect(json.root.name).toBe("001");
+    expect(names(json.root)).toEqual(["019", "142"]);
+    expect(json.root.children.map(names)).toEqual([["021"], ["030"]]);
+    expect(json.totals).toMatchObject({ nodes: 5, size: 16 });
   });
 
   it("refuses a merge key that names no mapping, at the key", async () => {

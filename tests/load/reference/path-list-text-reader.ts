@@ -178,13 +178,15 @@ export class PathListTextReader {
     if (this.sized === undefined) {
       const first = text.slice(start, end);
       this.sized = first.includes("\t");
-      if (!this.sized && /^[0-9]{1,15} +(\/|\.\/|\.$)/.test(first)) {
+      // Spaces before the size too: wc -c pads its sizes to one width (docs/input.md, Path lists).
+      if (!this.sized && /^ *[0-9]{1,15} +(\/|\.\/|\.$)/.test(first)) {
         this.sized = true;
         this.separator = " ";
       }
       this.firstLine = line;
     }
     if (this.sized) {
+      if (this.separator === " ") while (start < end && text[start] === " ") start++;
       const tab = text.indexOf(this.separator, start);
       if (tab === -1 || tab >= end) {
         throw new EspalierError(
