@@ -48,7 +48,14 @@ export async function loadCompared(
         trees.some((t) => t.reading?.otherFieldsLeft?.more),
       ),
     );
-  const other = otherCompared(trees).filter((f) => !fields.includes(f) && !left.includes(f));
+  let other = otherCompared(trees).filter((f) => !fields.includes(f) && !left.includes(f));
+  // A saved view keeps no record fields (load/saved-output.ts): the other version's would each be an
+  // edit from nothing on every node, a change no one made. Compared: those every saved view holds.
+  const unknown = other.filter((f) => trees.some((t) => isSavedView(t) && !t.fields.has(f)));
+  if (unknown.length > 0) {
+    io.stderr.write(savedNotComparedNote(unknown));
+    other = other.filter((f) => !unknown.includes(f));
+  }
   if (other.length === 0) return { trees: onlyCompared(trees, fields), fields, optional: false };
   return withOther(trees, fields, other);
 }
@@ -118,5 +125,19 @@ function notComparedNote(fields: readonly string[], more: boolean | undefined): 
     `${more ? " and more" : ""}): a load keeps at most ${MOST_OTHER_FIELDS} fields beside those the tree is ` +
     `read from, the first met; a value changed in the others is no change here; give each with ` +
     `--compare-field to compare it [FIELDS_NOT_COMPARED]\n`
+  );
+}
+
+function isSavedView(tree: Tree): boolean {
+  return tree.reading?.notes?.some((n) => n.code === "SAVED_VIEW") === true;
+}
+
+/** The fields a version holds that a saved view does not keep, so not compared. */
+function savedNotComparedNote(fields: readonly string[]): string {
+  const named = fields.map((f) => JSON.stringify(safeText(f, 80))).join(", ");
+  return (
+    `espalier: note: a saved view (SAVED_VIEW) keeps no record fields, so the other version's were not ` +
+    `compared (${named}): a value changed in them is no change here; diff the original inputs to ` +
+    `compare them [FIELDS_NOT_COMPARED]\n`
   );
 }

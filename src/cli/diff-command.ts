@@ -57,7 +57,7 @@ async function diffOutput(
     fieldsOptional: compared.optional,
     generalPath: generalDiff(io.env),
   });
-  const versions = comparisonNotes(prepared, [oldTree, newTree], newInput, io, key);
+  const versions = comparisonNotes(prepared, [oldTree, newTree], [oldInput, newInput], io, key);
   const options: DiffOptions = {
     foci,
     budget: opts.budget ?? defaultBudget(io),

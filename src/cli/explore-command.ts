@@ -82,7 +82,7 @@ export async function exploreCommand(
     const compareFields = compared.fields;
     const prepared = prepareDiff(oldTree, newTree, { compareFields, fieldsOptional: compared.optional });
     // Before the view takes the screen, as espalier diff says it: the note stays on the terminal after it.
-    const versions = comparisonNotes(prepared, [oldTree, newTree], newInput, io, key);
+    const versions = comparisonNotes(prepared, [oldTree, newTree], [input, newInput], io, key);
     // The header says of the inputs what `espalier diff` says (the reading chosen, the fields compared…).
     const settings = {
       ...outputSettings(opts, io, prepared.combined.tree, versions),

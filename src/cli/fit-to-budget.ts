@@ -68,14 +68,25 @@ export function fitToBudget<R extends { selection: Selection }>(f: BudgetFit<R>,
     // and the header wrap otherwise at another budget, so the budgets from below it up are tried.
     const from = Math.max(budget + 1, smallest - f.keyRows(smallest) - 1);
     for (let b = from; b < from + TRIES; b++) {
+      let fit: Fitted<R>;
       try {
-        attempt(b, true);
+        fit = attempt(b, true);
       } catch (again) {
         if (smallestOf(again) === undefined) throw again;
         continue;
       }
       const { before, focused, keySaid } = (err as EspalierError).details;
-      throw budgetTooSmall(budget, b, Number(before ?? 0), focused !== false, keySaid === true);
+      let lines = Number(before ?? 0);
+      let said = keySaid === true;
+      // Counted at the budget asked, the lines before the tree may hold a key that the smallest
+      // budget leaves out, its header saying so: more than that budget holds with the root (`cannot
+      // hold the 10 lines before the tree and the root; the smallest budget that works is 10`). The
+      // smallest budget's own lines before its tree then, which the reader can count on its screen.
+      if (lines + 1 + (said ? 1 : 0) > b) {
+        lines = f.fixed + f.headerRows(fit.result, b, fit.keyLeftOut) + fit.keyRows;
+        said = false;
+      }
+      throw budgetTooSmall(budget, b, lines, focused !== false, said);
     }
     throw err;
   }

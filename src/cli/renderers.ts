@@ -1,6 +1,6 @@
 import type { HierarchyNode } from "d3-hierarchy";
 import type { DiffResult } from "../diff/diff-trees.js";
-import type { Tree } from "../model/tree.js";
+import type { Tree, TreeReading } from "../model/tree.js";
 import type { DiffTextOptions } from "../render/diff-text.js";
 import {
   diffHeader,
@@ -34,7 +34,7 @@ export const summaryRenderers: Record<OutputFormat, Renderer<SummaryResult>> = {
       foci: result.fociPaths,
       unmatchedFoci: result.unmatchedFoci,
       labels: s.labels,
-      ...(tree.reading ? { input: tree.reading, notes: s.notes } : {}),
+      ...(tree.reading ? { input: savedReading(tree, tree.reading), notes: s.notes } : {}),
     }),
   markdown: async (result, s, tree) =>
     (await import("../render/summary-markdown.js")).renderMarkdown(result.view, {
@@ -204,4 +204,12 @@ export function inputFacts(s: OutputSettings): InputFacts {
     ...(s.rolledUpRows === undefined ? {} : { rolledUpRows: s.rolledUpRows }),
     ...(s.noteFacts.length === 0 ? {} : { notes: s.noteFacts }),
   };
+}
+
+/**
+ * The reading a summary's JSON writes: a root espalier added says so (`rootNamed: "added"`), so a
+ * diff of two saved summaries compares two such roots, each named after its own file, as one root.
+ */
+function savedReading(tree: Tree, reading: TreeReading): TreeReading {
+  return tree.syntheticRoot && reading.rootNamed === undefined ? { ...reading, rootNamed: "added" } : reading;
 }

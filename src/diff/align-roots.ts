@@ -15,10 +15,24 @@ export function alignRoots(oldTree: Tree, newTree: Tree): [Tree, Tree] {
     if (oldTree.syntheticRoot || newTree.syntheticRoot) return [oldTree, newTree];
     return [renamedRoot(oldTree, newTree.name.get(0)), newTree];
   }
+  // Two roots named after their inputs (saved summaries of files named apart): one root, as a diff of
+  // the inputs, which names both after NEW, compares them.
+  if (namedAfterInput(oldTree) && namedAfterInput(newTree))
+    return [renamedRoot(oldTree, newTree.name.get(0)), newTree];
   if (oldTree.syntheticRoot === newTree.syntheticRoot) return [oldTree, newTree];
   return oldTree.syntheticRoot
     ? [oldTree, underRoot(newTree, oldTree.name.get(0))]
     : [underRoot(oldTree, newTree.name.get(0)), newTree];
+}
+
+/**
+ * Whether the root is named after the input though it is the input's own: a nameless top node
+ * (`reading.rootNamed`), or a whole document read as values (the root is the document).
+ */
+function namedAfterInput(tree: Tree): boolean {
+  const r = tree.reading;
+  if (r === undefined || tree.syntheticRoot) return false;
+  return r.rootNamed === "nameless" || (r.shape === "values" && r.startAt === undefined);
 }
 
 /** Whether the root stands for the whole input rather than a node of it. */

@@ -155,7 +155,6 @@ function combined(
   spliced: Shape | null,
   compared: ComparedFields | null,
 ): Combined {
-  const total = newIndex.length;
   const oldSize = oldTree.ownSize;
   const newSize = newTree.ownSize;
   const deltaOf = (k: number): number => {
@@ -171,6 +170,20 @@ function combined(
       : copyTree(oldTree, newTree, keys, ids, newIndex, oldIndex, spliced ?? newTree);
   const elided = elidedOf(oldTree, newTree, newIndex, oldIndex);
   const tree: Tree = elided === undefined ? made : { ...made, elided };
+  return combinedRecord(tree, { newIndex, oldIndex, kind, deltaOf }, oldTree, newTree, matching.by, compared);
+}
+
+/** A {@link Combined} over its arrays; its `delta` made of `deltaOf` when first read. */
+export function combinedRecord(
+  tree: Tree,
+  arrays: Pick<Combined, "newIndex" | "oldIndex" | "kind" | "deltaOf">,
+  oldTree: Tree,
+  newTree: Tree,
+  by: Matching["by"],
+  compared: ComparedFields | null,
+): Combined {
+  const { newIndex, oldIndex, kind, deltaOf } = arrays;
+  const total = newIndex.length;
   let delta: Float64Array | undefined;
   return {
     tree,
@@ -187,7 +200,7 @@ function combined(
     deltaOf,
     oldTree,
     newTree,
-    by: matching.by,
+    by,
     compared,
   };
 }

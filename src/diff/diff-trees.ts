@@ -65,8 +65,8 @@ export interface CompareOptions {
 }
 
 /** match → combine → measure: what a diff's summaries share, whatever their foci. */
-export function prepareDiff(oldInput: Tree, newInput: Tree, compare: CompareOptions = {}): PreparedDiff {
-  checkSavedViewsApart(oldInput, newInput);
+export function prepareDiff(oldLoaded: Tree, newLoaded: Tree, compare: CompareOptions = {}): PreparedDiff {
+  const [oldInput, newInput] = checkSavedViewsApart(oldLoaded, newLoaded);
   const graph = isGraphDiff(oldInput, newInput);
   const [oldTree, newTree] = graph ? alignGraphRoots(oldInput, newInput) : alignRoots(oldInput, newInput);
   const fields = compare.compareFields ?? [];

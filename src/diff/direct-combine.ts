@@ -3,7 +3,7 @@ import { MergedNames } from "../model/merged-names.js";
 import { NamePool, type Names, sameName } from "../model/names.js";
 import type { Tree } from "../model/tree.js";
 import { KIND } from "./changes.js";
-import type { Combined } from "./combine.js";
+import { type Combined, combinedRecord } from "./combine.js";
 import { subtreeCounts } from "./subtree-counts.js";
 
 /**
@@ -373,23 +373,5 @@ function combinedOf(oldTree: Tree, newTree: Tree, plan: ReadAsEarlier, layout: L
     syntheticRoot: false,
     ...(newTree.reading ? { reading: newTree.reading } : {}),
   };
-  let delta: Float64Array | undefined;
-  return {
-    tree,
-    newIndex,
-    oldIndex,
-    kind,
-    get delta() {
-      if (delta === undefined) {
-        delta = new Float64Array(total);
-        for (let k = 0; k < total; k++) if (kind[k] !== KIND.none) delta[k] = deltaOf(k);
-      }
-      return delta;
-    },
-    deltaOf,
-    oldTree,
-    newTree,
-    by: "id",
-    compared: null,
-  };
+  return combinedRecord(tree, { newIndex, oldIndex, kind, deltaOf }, oldTree, newTree, "id", null);
 }

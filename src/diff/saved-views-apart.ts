@@ -1,32 +1,49 @@
 import { EspalierError, quoted, say } from "../errors.js";
 import { FOLDED_FIELD } from "../load/saved-output.js";
 import type { Tree } from "../model/tree.js";
+import { atCoarserFolds } from "./at-coarser-folds.js";
 import { withPathIds } from "./path-ids.js";
 
 /**
- * SHAPE when a diff cannot tell a change from a fold: a version read from espalier's own summary
- * (SAVED_VIEW) shows only part of its tree, each fold one entry that stands for the nodes it hides. A
- * node the other version has under a parent whose saved view folds some of its children may be one of
- * those hidden nodes: counting it added (or removed) would be a change no one made, as two views of
- * one tree saved with different budgets or foci, or a change elsewhere that moved the view's cut, give.
- * Such a diff is refused, naming the first such node; when the views fold at the same places (the same
- * nodes shown under every folded parent), the folds are compared as wholes (diff/combine.ts).
+ * Two versions a diff can compare node by node, one or both read from espalier's own summary
+ * (SAVED_VIEW), which shows only part of its tree, each fold one entry that stands for the nodes it
+ * hides. A node the other version has under a parent whose saved view folds some of its children may
+ * be one of those hidden nodes: counting it added (or removed) would be a change no one made, as two
+ * views of one tree saved with different budgets or foci give. When only one version has such nodes
+ * (its view is finer than the other's: every fold of it lies inside one of the other's, or holds only
+ * nodes the other has no place for), it is read at the other's folds (diff/at-coarser-folds.ts), which
+ * compares exactly; when both have them (the views' folds cross), or a version is a graph, the diff
+ * is SHAPE, naming the first such node. Views that fold at the same places compare as they are, each
+ * fold a whole (diff/combine.ts).
  */
-export function checkSavedViewsApart(oldTree: Tree, newTree: Tree): void {
+export function checkSavedViewsApart(oldTree: Tree, newTree: Tree): [Tree, Tree] {
   const oldSaved = isSavedView(oldTree);
   const newSaved = isSavedView(newTree);
-  if (!oldSaved && !newSaved) return;
+  if (!oldSaved && !newSaved) return [oldTree, newTree];
   const oldKeys = pathKeys(oldTree);
   const newKeys = pathKeys(newTree);
-  const unsure =
-    (oldSaved ? firstUnsure(newTree, newKeys, oldTree, oldKeys) : null) ??
-    (newSaved ? firstUnsure(oldTree, oldKeys, newTree, newKeys) : null);
-  if (unsure === null) return;
+  const newUnsure = oldSaved ? firstUnsure(newTree, newKeys, oldTree, oldKeys) : null;
+  const oldUnsure = newSaved ? firstUnsure(oldTree, oldKeys, newTree, newKeys) : null;
+  if (newUnsure === null && oldUnsure === null) return [oldTree, newTree];
+  const graph = oldTree.referenceTo !== undefined || newTree.referenceTo !== undefined;
+  if (newUnsure !== null && oldUnsure === null && !graph)
+    return [oldTree, atCoarserFolds(newTree, newKeys, oldTree, oldKeys, "OLD")];
+  if (oldUnsure !== null && newUnsure === null && !graph)
+    return [atCoarserFolds(oldTree, oldKeys, newTree, newKeys, "NEW"), newTree];
+  const unsure = (newUnsure ?? oldUnsure)!;
   const [shownIn, folds] = unsure.side === newTree ? ["NEW", "OLD"] : ["OLD", "NEW"];
   const under = unsure.parent === "" ? ["the root"] : say`${quoted.path(unsure.parent)}`;
+  const other = newUnsure !== null && oldUnsure !== null ? oldUnsure : null;
   throw new EspalierError(
     "SHAPE",
-    say`${shownIn} shows ${quoted.path(unsure.path)}, which ${folds} may hold in a fold: ${folds} is a saved view (SAVED_VIEW) that folds some children of ${under}, so whether that node was ${shownIn === "NEW" ? "added" : "removed"} or is only folded cannot be told (views saved with different budgets or foci, or a change that moved where the view cuts, fold different nodes); diff the original inputs, or save both views with the same --focus and a --budget that shows the node in both`,
+    [
+      ...say`${shownIn} shows ${quoted.path(unsure.path)}, which ${folds} may hold in a fold: ${folds} is a saved view (SAVED_VIEW) that folds some children of `,
+      ...under,
+      ...(other === null
+        ? []
+        : say`, and OLD shows ${quoted.path(other.path)}, which NEW may hold in one: the views' folds cross, neither inside the other's`),
+      `, so whether such a node was ${shownIn === "NEW" ? "added" : "removed"} or is only folded cannot be told (views saved with different foci, or a change that moved where the view cuts, fold apart); diff the original inputs, or save both views with the same --focus and a --budget that shows the node in both`,
+    ],
     undefined,
     { path: unsure.path },
   );

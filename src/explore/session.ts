@@ -17,6 +17,7 @@ import type { Units } from "../render/format-size.js";
 import { diffHeaderLines, fociOf, type InputFacts, summaryHeaderLines } from "../render/header.js";
 import {
   KEY_MIN_BUDGET,
+  KEY_MOST_ROWS,
   keyContext,
   keyExplainsSizes,
   keyFacts,
@@ -227,14 +228,16 @@ const KEY_ROUNDS = 3;
 
 /**
  * Most rows the view's key takes on a screen of `budget` rows for the tree at `width` (`espalier`
- * takes up to `KEY_MOST_ROWS`): one more than `keyRows(width)`, and that only where a screen three
- * rows shorter has a key too. A screen three rows taller then never gives the key more than one of
- * them (where the shorter had no key, no more than before), so it hides no node the shorter showed
- * (guarantee 2 of docs/selection.md, as the view's tests check it). Past them the key says part,
- * and the status row points to the help.
+ * takes up to `KEY_MOST_ROWS`): `keyRows(width)`, and one more for every three rows of budget above
+ * `KEY_MIN_BUDGET` (a screen three rows shorter has a key too), up to `KEY_MOST_ROWS`. A screen three
+ * rows taller then never gives the key more than one of them (where the shorter had no key, no more
+ * than before), so it hides no node the shorter showed (guarantee 2 of docs/selection.md, as the
+ * view's tests check it). Past them the key says part, and the status row points to the help. One
+ * more row only left a 32-column screen of 14 rows (a file listing's deep focus), whose
+ * cut names, chains, `(k more)` and `(hidden)` take six rows to explain, pointing to the help.
  */
 function viewKeyMostRows(budget: number, width: number): number {
-  return budget >= KEY_MIN_BUDGET + 3 ? keyRows(width) + 1 : keyRows(width);
+  return Math.min(KEY_MOST_ROWS, keyRows(width) + Math.max(0, Math.floor((budget - KEY_MIN_BUDGET) / 3)));
 }
 
 /**
@@ -286,7 +289,8 @@ function headerForKey(
   for (const b of ["lines", "foci"] as const) {
     const shorter = brief(b);
     const rows = keyed + header.length - shorter.length;
-    if (shorter.length >= header.length || rows < keyRows(width)) continue;
+    // A screen with no key takes one row if that is all the shorter header frees: its marks said.
+    if (shorter.length >= header.length || rows < (keyed === 0 ? 1 : keyRows(width))) continue;
     const tried = sameRows(lay(shorter, rows, true), laid);
     if (tried.whole) return { ...tried, needed: laid.needed };
     if (tried.said > best.said) best = { ...tried, needed: laid.needed };
@@ -351,16 +355,21 @@ function screenOf<T extends ViewNode>(
   const screen = screenLines(lineOf, parts, { ...numbers, width, palette: look.palette }, explained);
   const quiet = look.palette?.quiet ?? ((t: string) => t);
   const facts = factsOf(screen);
-  const rows = fill ? keyRowsNeeded(kind, facts, width, keyed) : keyed;
-  const plain = keyed > 0 ? keyLines(kind, facts, width, "text", rows) : [];
+  const rows = fill ? Math.min(keyed, keyRowsNeeded(kind, facts, width, keyed)) : keyed;
+  const said = keyed > 0 ? keyLines(kind, facts, width, "text", rows) : [];
+  // The key takes the rows the fit counted for it, blank below where it says all in fewer (the
+  // tree's lines were chosen for the rows left; see `sameRows`, which pads a filled key so).
+  const plain = fill
+    ? said
+    : [...said, ...Array.from({ length: Math.max(0, keyed - said.length) }, () => "")];
   const key = plain.map(quiet);
   const lines = [...header, ...key, ...screen.lines];
   const groups = [...[...header, ...key].map(() => []), ...lineOf.map((g) => g.nodes.map((n) => n.index))];
   // More rows than it has, where those say what these cannot (see `keyRowsNeeded`); 0 for none.
   const needed = keyed > 0 ? keyRowsNeeded(kind, facts, width, most) : 0;
   const whole = keyed > 0 && keySaysAll(kind, facts, plain);
-  const said = keyed > 0 ? keyPartsSaid(kind, facts, plain) : 0;
-  return { lines, groups, needed: needed > keyed ? needed : 0, whole, said };
+  const partsSaid = keyed > 0 ? keyPartsSaid(kind, facts, plain) : 0;
+  return { lines, groups, needed: needed > keyed ? needed : 0, whole, said: partsSaid };
 }
 
 /** What a session of either kind holds of its tree: the tree, how its nodes print, and the live search. */

@@ -54,8 +54,8 @@ export function loadTree(text: string, options: LoadOptions): Tree {
     const format = options.format ?? detectFormat(body, file, options);
     checkPathListOptions(format, options);
     checkShortRowsFormat(format, options);
-    // espalier's own summary JSON: read as the view it holds (saved-output.ts), told by its first member.
-    const saved = format === "json" ? savedOutputFormat(body.slice(0, 4096)) : undefined;
+    // espalier's own summary JSON: read as the view it holds (saved-output.ts), told by its format member.
+    const saved = format === "json" ? savedOutputFormat(body) : undefined;
     if (readsAsSaved(saved, options)) return loadSavedOutput(body, saved!, options);
     const nodes = readAtPointer(
       linkedNodes(partAtPointer(body, format, options), format, options, table),

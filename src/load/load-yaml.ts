@@ -2,6 +2,7 @@ import {
   type Alias,
   isAlias,
   isMap,
+  isPair,
   isScalar,
   isSeq,
   LineCounter,
@@ -101,6 +102,7 @@ export function loadYaml(text: string, options: LoadOptions): LinkedNodes | Grap
   // linked by parent, as JSON's (graph-input.ts); aliases expand in its plain value, up to the yaml
   // package's alias count limit.
   if (options.graph) {
+    idsAsWritten(doc, options.sizeField);
     const value = plainValue(doc, lineCounter, root);
     if (Array.isArray(value) && !rowsListChildren(value, options))
       return linkGraphTable(rowsTable(value), options);
@@ -380,6 +382,26 @@ const CORE_FLOAT = /^[-+]?(?:\.[0-9]+|[0-9]+(?:\.[0-9]*)?)(?:[eE][-+]?[0-9]+)?$/
  */
 function isTaggedFloat(v: Scalar): boolean {
   return typeof v.value === "string" && v.tag === "tag:yaml.org,2002:float" && CORE_FLOAT.test(v.value);
+}
+
+/**
+ * Before a graph's plain values are taken: every map key, list item and field other than the size
+ * written as a number whose text is not the number's own (`001`, `3.10`), or as a `%YAML 1.1` date, is
+ * set to its text as written, as the tree readings read ids and names (yaml-keys.ts), so an adjacency
+ * map's `001: [019]` links and prints `001` and `019`, not 1 and 19. The size stays the number.
+ */
+function idsAsWritten(doc: ReturnType<typeof parseDocument>, sizeField: string): void {
+  visit(doc, {
+    Scalar(key, node, path) {
+      const v = node.value;
+      if (typeof v !== "number" && typeof v !== "bigint" && !(v instanceof Date)) return;
+      const written = scalarAsWritten(node);
+      if (written === String(v)) return;
+      const parent = path[path.length - 1];
+      if (key === "value" && isPair(parent) && keyText(parent.key) === sizeField) return;
+      node.value = written;
+    },
+  });
 }
 
 /**

@@ -20,6 +20,8 @@ export class NodeSink {
 
   /** With an earlier version's names given: where its nodes keep a name's bytes (see EarlierNames). */
   private readonly earlier: EarlierNames | undefined;
+  /** Whether {@link nameNamelessTop} named the top node (the reading says so: `rootNamed`). */
+  private namedTop = false;
 
   /**
    * `earlier`: the names of a version of this input loaded before it (a diff's OLD), whose bytes the
@@ -131,6 +133,7 @@ export class NodeSink {
     if (this.length === 0 || this.parentOf[0] !== -1 || !isEmptyName(this.name, 0)) return;
     for (let i = 1; i < this.length; i++) if (this.parentOf[i] === -1) return;
     this.name.setString(0, rootName);
+    this.namedTop = true;
   }
 
   /** The nodes so far, ready for `buildTree`. */
@@ -142,7 +145,7 @@ export class NodeSink {
   ): LinkedNodes {
     const n = this.length;
     return {
-      ...(reading ? { reading } : {}),
+      ...(reading ? { reading: this.namedTop ? { ...reading, rootNamed: "nameless" } : reading } : {}),
       parentOf: this.parentOf.subarray(0, n),
       name: this.name,
       ownSize: this.ownSize.subarray(0, n),

@@ -6,6 +6,7 @@ import type { ReadingNote } from "../model/reading-note.js";
 import type { Tree } from "../model/tree.js";
 import { parsePointer } from "./json-pointer.js";
 import type { LoadOptions } from "./load-options.js";
+import { OutputHead } from "./output-head.js";
 
 /** The summary format read back (render/summary-schema.ts SUMMARY_FORMAT; a test keeps the two equal). */
 export const SAVED_SUMMARY_FORMAT = "espalier-summary/1";
@@ -21,16 +22,17 @@ export const FOLD_NAME = "(folded)";
 export const FOLDED_FIELD = "folded";
 
 /**
- * The format id espalier's own JSON outputs write as their first member (render/summary-json.ts,
- * render/diff-json.ts), when the start of a JSON text `head` is such an output; else undefined. Looked
- * at once, on the first bytes, so no other document pays for it.
+ * The format id espalier's own JSON outputs write (render/summary-json.ts, render/diff-json.ts) when a
+ * whole JSON text is such an output, in any order of its members and any spacing (output-head.ts);
+ * else undefined. A text that does not hold "espalier-" is none, told by one native search.
  */
-export function savedOutputFormat(head: string): string | undefined {
-  return /^\uFEFF?\s*\{\s*"format"\s*:\s*"(espalier-[a-z]+\/[0-9A-Za-z.-]{1,20})"/.exec(head)?.[1];
+export function savedOutputFormat(text: string): string | undefined {
+  if (!text.includes("espalier-")) return undefined;
+  return new OutputHead().read(text) ?? undefined;
 }
 
 /**
- * Whether a JSON text that starts with `format` (see {@link savedOutputFormat}) is read by
+ * Whether a JSON text whose format is `format` (see {@link savedOutputFormat}) is read by
  * {@link loadSavedOutput}: unless `--read-as values` asks for its JSON text.
  */
 export function readsAsSaved(format: string | undefined, options: Pick<LoadOptions, "readAs">): boolean {
@@ -94,6 +96,12 @@ export function loadSavedOutput(text: string, format: string, options: LoadOptio
       // A listing's root that stood for the listed folder still does (read whole): a diff then compares
       // it with the other version's root whatever each is named, as it compares the listings themselves.
       ...(whole && input.rootIsStart === true ? { rootIsStart: true } : {}),
+      // A nameless top node named after the input file, or a document read as values (its root the
+      // document, named after the file), still is one: a diff names it as the other version's.
+      ...(whole &&
+      (input.rootNamed === "nameless" || (input.shape === "values" && input.rootNamed === undefined))
+        ? { rootNamed: "nameless" as const }
+        : {}),
       ...(linked.empty > 0 ? { emptyEntries: linked.empty } : {}),
       ...(options.keepOtherFields ? { otherFields: [FOLDED_FIELD] } : {}),
       notes,
@@ -104,15 +112,18 @@ export function loadSavedOutput(text: string, format: string, options: LoadOptio
 }
 
 /**
- * Whether a saved summary's root is one espalier named after the input file: above a table's top-level
- * rows (its id "", which no row can have: an empty id cell is SHAPE), a fact table's rollup
- * (input.rolledUpRows) or a document read as values (input.shape "values": its root is the document,
- * always named after the file). A document of node objects does not say whether its root's name came
- * from the file or from its name field, so its root keeps the saved name.
+ * Whether a saved summary's root is one espalier added and named after the input file: one the
+ * summary says it added (input.rootNamed "added": above a path list's, a table's or a document's
+ * top-level nodes), and in summaries that do not say so, one above a table's top-level rows (its id "",
+ * which no row can have: an empty id cell is SHAPE) or a fact table's rollup (input.rolledUpRows). A
+ * nameless top node named after the file (input.rootNamed "nameless") and a document read as values
+ * (input.shape "values": its root is the document, named after the file) are the input's own root,
+ * not an added one, as a load of the input reads them: the diff names it as the other version's
+ * (diff/align-roots.ts), so it compares with a saved or loaded root alike.
  */
 function addedRoot(root: SavedNode | null | undefined, input: Record<string, unknown>): boolean {
   return (
-    root?.id === "" || input.shape === "values" || (input.shape === "table" && isCount(input.rolledUpRows))
+    input.rootNamed === "added" || root?.id === "" || (input.shape === "table" && isCount(input.rolledUpRows))
   );
 }
 

@@ -62,7 +62,9 @@ export interface ReadingNote {
  * entries, or fewer than 8 sizes), were read as bytes; count: the entries, or the sizes
  * (load/path-list/unit-not-shown.ts, cli/input.ts). `SAVED_VIEW`: espalier's own summary JSON
  * read as the view it holds, each fold one entry standing for what it hides; count: the folds
- * (load/saved-output.ts).
+ * (load/saved-output.ts). `COMPARED_AT_FOLDS` (a diff's version): it shows nodes inside folds of the
+ * other version, a saved view that folds more, and was compared at those folds, each a whole; count:
+ * the folds (diff/at-coarser-folds.ts).
  */
 export const readingNoteCodes = [
   "FIRST_LINE_APART",
@@ -85,6 +87,7 @@ export const readingNoteCodes = [
   "SBOM_DEPENDENCIES",
   "UNIT_NOT_SAID",
   "SAVED_VIEW",
+  "COMPARED_AT_FOLDS",
 ] as const;
 
 export type ReadingNoteCode = (typeof readingNoteCodes)[number];

@@ -80,6 +80,15 @@ export interface TreeReading {
    */
   readonly rootIsStart?: boolean;
   /**
+   * The root's name is espalier's, not the input's: `added`, a root espalier put above the input's
+   * top-level nodes (`Tree.syntheticRoot`); `nameless`, the input's one top node had no name and was
+   * named after the input (load/node-sink.ts `nameNamelessTop`). Written in a saved summary
+   * (`input.rootNamed`), so that a diff of two saves, each root named after its own file, compares the
+   * roots as one root, as a diff of the inputs (which names both after NEW) does (diff/align-roots.ts).
+   * The loaders set `nameless`; `added` is what the summary JSON writes for a synthetic root.
+   */
+  readonly rootNamed?: "added" | "nameless";
+  /**
    * A diff's path lists of one folder that one of them names (`find /srv/harbour-ops`): the folder's path
    * as that list writes it, set on both versions; a focus may start with it (see cli/listing-start.ts).
    */

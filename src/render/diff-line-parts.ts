@@ -3,7 +3,7 @@ import type { DiffViewNode } from "../diff/diff-view.js";
 import { safeText, shownLabel } from "../model/safe-text.js";
 import { amount, formatCount, type NumberOptions } from "./amount.js";
 import { displayWidth, shortenMiddle } from "./display-width.js";
-import { cutEditValues, editValues } from "./edit-values.js";
+import { cutEditValues, editFloors, editValues } from "./edit-values.js";
 import { formatSize } from "./format-size.js";
 import type { LineGroup } from "./line-groups.js";
 import type { LineParts } from "./line-layout.js";
@@ -18,8 +18,12 @@ import {
 } from "./line-parts.js";
 import { referenceText } from "./reference-text.js";
 
-/** Columns an old parent's path or old name keeps in a tag on a narrow line. */
-const SHORT_FROM = 8;
+/**
+ * Fewest columns a tag cuts an old parent's path or an old name to (a value's fewest are its own, see
+ * `editFloors`); a tag that cannot keep this much says fewer fields, then only how many (see
+ * `tagWithin`). A choice of this project, no source.
+ */
+export const TAG_TEXT_FLOOR = 14;
 
 /**
  * What the line of `group` says in a diff: the summary's parts (see `lineParts`) plus the change tag
@@ -102,24 +106,96 @@ export function diffLineParts(group: LineGroup<DiffViewNode>, options: NumberOpt
 }
 
 /**
- * A line's change tag for its last node, in full, with its old paths and values cut to a few
- * columns, and cut to any columns (see `LineParts.tagAt`).
+ * A line's change tag for its last node: in full, in few words, its kind alone, and within any
+ * columns (see `LineParts.tagWithin`).
  */
 export function tagParts(
   node: DiffViewNode,
   options: NumberOptions,
   rootName?: string,
-): Pick<LineParts, "tag" | "shortTag" | "tagAt" | "tagCutWidths"> {
+): Pick<LineParts, "tag" | "shortTag" | "leastTag" | "tagWithin"> {
+  const tag = changeTag(node, options, undefined, rootName);
+  const shortTag = briefTag(node, options);
   return {
-    tag: changeTag(node, options, undefined, rootName),
-    shortTag: changeTag(node, options, SHORT_FROM, rootName),
-    ...(node.change !== null
-      ? {
-          tagAt: (columns: number) => changeTag(node, options, Math.max(1, columns), rootName),
-          tagCutWidths: cutTexts(node, rootName).map(displayWidth),
-        }
+    tag,
+    shortTag,
+    leastTag: leastTag(node, options),
+    ...(node.change !== null && tag !== shortTag
+      ? { tagWithin: (room: number) => tagWithin(node, options, rootName, room) }
       : {}),
   };
+}
+
+/**
+ * The widest tag within `room` columns that says its old path, old name and values, each cut to no
+ * fewer than its floor (or whole): {@link TAG_TEXT_FLOOR} columns for a path or name, where a value
+ * changed and some text on each side of it for a value (see `editFloors`): every edited field, else the first ones and
+ * `+2 more fields`; null when not even the first field fits so (see `LineParts.tagWithin`).
+ */
+function tagWithin(
+  node: DiffViewNode,
+  options: NumberOptions,
+  rootName: string | undefined,
+  room: number,
+): { tag: string; cut: boolean } | null {
+  const n = node.edits.length;
+  const notes = (node.movedFrom !== null ? 1 : 0) + (node.renamedFrom !== null ? 1 : 0);
+  const texts = cutTexts(node, rootName);
+  const widths = texts.map(displayWidth);
+  // Each text's fewest columns: an old path or name's, then each edit's two values'.
+  const floors = widths.slice(0, notes).map((w) => Math.min(w, TAG_TEXT_FLOOR));
+  for (let k = notes; k < texts.length; k += 2) floors.push(...editFloors(texts[k], texts[k + 1]));
+  for (let fields = n; fields >= Math.min(n, 1); fields--) {
+    const shown = widths.slice(0, notes + 2 * fields);
+    const floor = Math.max(1, ...floors.slice(0, notes + 2 * fields));
+    const at = (cap?: number) => changeTag(node, options, cap, rootName, fields);
+    const fits = (tag: string) => displayWidth(tag) <= room;
+    const whole = at();
+    if (fits(whole)) return { tag: whole, cut: false };
+    // The first guess: the widest cap whose cuts take off the columns the tag is over, every text
+    // cut to the cap (one narrower stays whole); then a column at a time, to the widest that fits
+    // (a cut may come out narrower than its cap: a wide character, where the text changed).
+    const over = displayWidth(whole) - room;
+    const taken = (cap: number) => shown.reduce((sum, w) => sum + Math.max(0, w - cap), 0);
+    const widest = Math.max(0, ...shown);
+    let cap = widest;
+    while (cap > floor && taken(cap) < over) cap--;
+    if (widest <= floor) continue;
+    let tag = at(cap);
+    if (fits(tag))
+      for (let next = at(cap + 1); cap + 1 < widest && fits(next); next = at(++cap + 1)) tag = next;
+    else while (cap > floor && !fits(tag)) tag = at(--cap);
+    if (fits(tag)) return { tag, cut: true };
+  }
+  return null;
+}
+
+/**
+ * A tag in few words, its old path, old name and values left out: its kind, that a moved node was
+ * renamed too, how many fields were edited and its own size change (`[edited 3 fields]`,
+ * `[moved, renamed, 2 fields edited, +12 B]`); the full tag where it says no more.
+ */
+export function briefTag(node: DiffViewNode, options: NumberOptions): string {
+  if (node.change === null) return "";
+  const parts: string[] = [node.change];
+  if (node.renamedFrom !== null && node.change !== "renamed") parts.push("renamed");
+  const n = node.edits.length;
+  if (n > 0) {
+    const fields = `${formatCount(n)} ${n === 1 ? "field" : "fields"}`;
+    if (node.change === "edited") parts[0] += ` ${fields}`;
+    else parts.push(`${fields} edited`);
+  }
+  const worded = parts.length > 1 || parts[0] !== node.change;
+  if (options.sizes && node.delta !== 0) parts.push(signed(node.delta, options));
+  return `[${parts.join(worded ? ", " : " ")}]`;
+}
+
+/** A tag's kind and its own size change (`[edited +12 B]`), which a line's net needs; `[edited]`. */
+function leastTag(node: DiffViewNode, options: NumberOptions): string {
+  if (node.change === null) return "";
+  return options.sizes && node.delta !== 0
+    ? `[${node.change} ${signed(node.delta, options)}]`
+    : `[${node.change}]`;
 }
 
 /** The texts of a tag that `changeTag` cuts to `fromWidth`: the old path, the old name, each value. */
@@ -147,13 +223,15 @@ function oldParent(movedFrom: string, rootName?: string): string {
  * one (`[moved from A, renamed from b]`) and its own size change signed (`[resized +12 B]`,
  * `[moved from A, version 1.2.0 -> 1.3.0, +2 B]`); the old path or name cut to `fromWidth` columns
  * in their middle, each value to as many keeping where it changed (see `cutEditValues`). An empty
- * (absent) value reads `(none)`.
+ * (absent) value reads `(none)`. With `fields` fewer than the edits, only the first `fields` are
+ * said, then how many more (`+2 more fields`).
  */
 export function changeTag(
   node: DiffViewNode,
   options: NumberOptions,
   fromWidth?: number,
   rootName?: string,
+  fields = node.edits.length,
 ): string {
   if (node.change === null) return "";
   const cut = (text: string) => (fromWidth === undefined ? text : shortenMiddle(text, fromWidth));
@@ -164,13 +242,15 @@ export function changeTag(
     if (node.change === "renamed") parts[0] += ` ${from}`;
     else parts.push(`renamed ${from}`);
   }
-  node.edits.forEach((edit, k) => {
+  node.edits.slice(0, fields).forEach((edit, k) => {
     const [old, now] = editValues(edit.old, edit.new).map(editValue);
     const [a, b] = fromWidth === undefined ? [old, now] : cutEditValues(old, now, fromWidth);
     const text = `${safeText(edit.field)} ${a} -> ${b}`;
     if (k === 0 && node.change === "edited") parts[0] += ` ${text}`;
     else parts.push(text);
   });
+  const more = node.edits.length - fields;
+  if (more > 0) parts.push(`+${formatCount(more)} more ${more === 1 ? "field" : "fields"}`);
   if (options.sizes && node.delta !== 0) parts.push(signed(node.delta, options));
   const notes = node.movedFrom !== null || node.renamedFrom !== null || node.edits.length > 0;
   return `[${parts.join(notes ? ", " : " ")}]`;

@@ -107,6 +107,42 @@ export function shortenKeeping(text: string, width: number, needs: readonly numb
   return shortenEnd(text, width);
 }
 
+/**
+ * Shortens text to at most `width` columns around the code units `from` to `to` (inclusive): the
+ * graphemes holding them and as many on each side as fit, one side and the other in turn, an
+ * ellipsis at each end cut away (`…ger:1.4`, `…r: back}`); where even those graphemes do not fit,
+ * as `shortenKeeping` keeps both ends of them.
+ */
+export function shortenAround(text: string, width: number, from: number, to: number): string {
+  if (displayWidth(text) <= width) return text;
+  if (width <= 2) return shortenEnd(text, width);
+  const graphemes = graphemesOf(text);
+  const widths = graphemes.map(displayWidth);
+  const starts: number[] = [];
+  for (let g = 0, units = 0; g < graphemes.length; units += graphemes[g].length, g++) starts.push(units);
+  let start = graphemeAt(starts, Math.max(0, Math.min(from, to)));
+  let end = graphemeAt(starts, Math.max(from, to)) + 1;
+  const n = graphemes.length;
+  let used = 0;
+  for (let g = start; g < end; g++) used += widths[g];
+  const cost = (s: number, e: number, u: number) => u + (s > 0 ? 1 : 0) + (e < n ? 1 : 0);
+  if (cost(start, end, used) > width) return shortenKeeping(text, width, [from, to]);
+  for (let grew = true; grew; ) {
+    grew = false;
+    if (end < n && cost(start, end + 1, used + widths[end]) <= width) {
+      used += widths[end++];
+      grew = true;
+    }
+    if (start > 0 && cost(start - 1, end, used + widths[start - 1]) <= width) {
+      used += widths[--start];
+      grew = true;
+    }
+  }
+  const before = start > 0 ? ELLIPSIS : "";
+  const after = end < n ? ELLIPSIS : "";
+  return `${before}${graphemes.slice(start, end).join("")}${after}`;
+}
+
 /** The index of the grapheme whose code units (starting at `starts[g]`) hold code unit `unit`. */
 function graphemeAt(starts: readonly number[], unit: number): number {
   let g = 0;

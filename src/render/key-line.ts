@@ -34,6 +34,8 @@ export interface KeyFacts {
   readonly countsInFolds?: boolean;
   /** Whether a name was cut to fit the width (`…` marks the cut). */
   readonly namesCut?: boolean;
+  /** Whether a diff tag's old path, old name or value was cut to fit (`…ger:1.4`). */
+  readonly valuesCut?: boolean;
   /** Whether a diff's fold left out how many changed nodes it holds (`(41 hidden)`). */
   readonly changesCut?: boolean;
   /**
@@ -61,6 +63,7 @@ export type WidthCuts = Pick<
   | "foldsCut"
   | "countsInFolds"
   | "namesCut"
+  | "valuesCut"
   | "changesCut"
   | "depthInDigits"
   | "namesLeftOut"
@@ -99,6 +102,7 @@ export function keyFacts(
     ...(cuts.foldsCut ? { foldsCut: true } : {}),
     ...(cuts.countsInFolds ? { countsInFolds: true } : {}),
     ...(cuts.namesCut ? { namesCut: true } : {}),
+    ...(cuts.valuesCut ? { valuesCut: true } : {}),
     ...(cuts.changesCut ? { changesCut: true } : {}),
     ...(cuts.depthInDigits ? { depthInDigits: cuts.depthInDigits } : {}),
     ...(cuts.namesLeftOut ? { namesLeftOut: true } : {}),
@@ -146,6 +150,9 @@ export function keyLines(
   style: "text" | "markdown" = "text",
   rows: number = keyRows(width),
 ): string[] {
+  // One row where a narrow screen has no more for it (the interactive view's header gave it one):
+  // the one-line key, which says the marks in their fewest words before any part.
+  if (rows < keyRows(width)) return [keyLine(kind, facts, width, style)];
   if (rows > keyRows(width) && width !== undefined && style === "text") {
     const packed = packedKey(kind, facts, width, rows) ?? packedKey(kind, facts, width, rows, true);
     if (packed !== null) return packed;
@@ -639,7 +646,14 @@ function explanations(kind: "summary" | "diff", facts: KeyFacts): Explanation[] 
       "~1: a / in a name",
       "chain",
     ]);
-  if (facts.namesCut)
+  if (facts.valuesCut)
+    said.push([
+      `'${ELLIPSIS}' a name or value cut to fit`,
+      `'${ELLIPSIS}' cut text`,
+      `'${ELLIPSIS}' cut`,
+      "cut",
+    ]);
+  else if (facts.namesCut)
     said.push([`'${ELLIPSIS}' a name cut to fit`, `'${ELLIPSIS}' cut name`, `'${ELLIPSIS}' cut`, "cut"]);
   // Said where the key has room, never taking a row of its own: `(41 hidden)` says its own number.
   if (facts.countsInFolds)

@@ -19,16 +19,24 @@ export interface LineParts {
   role: "focus" | "path" | "other";
   /** A diff's change tag (`[added]`) of the line's last node, or "". */
   tag: string;
-  /** The same tag with any old path or name in it cut to a few columns, for narrow lines. */
+  /**
+   * The same tag in few words, its old path, old name and values left out: its kind, how many fields
+   * were edited, its own size change (`[edited 3 fields, +12 B]`); "" without a tag.
+   */
   shortTag: string;
   /**
-   * The tag with each old path, old name and value in it cut to at most `columns` columns (a value
-   * keeps where it changed): the layout asks for the widest that fits the line's room, wider than
-   * `shortTag` before names are cut, narrower before the tag keeps only its kind; absent without a tag.
+   * The tag's kind and its own size change (`[edited +12 B]`), for a line whose name would be cut
+   * beside more; absent: the kind alone (`[edited]`).
    */
-  tagAt?: (columns: number) => string;
-  /** The widths of the texts `tagAt` cuts (old path, old name, each value), for a first guess. */
-  tagCutWidths?: readonly number[];
+  leastTag?: string;
+  /**
+   * The widest tag within `room` columns that still says its old path, old name and values, each cut
+   * to a readable part (where a value changed, with text on both sides of that), fewer fields where
+   * not all fit (`+2 more fields`), and whether it cut a text (`…`); null when none fits, the line
+   * then says `shortTag`. The layout asks with the room its name leaves whole; absent where the tag
+   * is no wider than `shortTag`.
+   */
+  tagWithin?: (room: number) => { tag: string; cut: boolean } | null;
   /** The tag's kind, for its colour; null without a tag. */
   tagKind: ChangeKind | null;
   /** The labels the line names: one node, or a chain of only children, top first. */
@@ -158,7 +166,7 @@ function depthOf(indentation: string, full: string, level: number): { depthInDig
 }
 
 /** The first of `laidOutLine`'s steps that may leave a number out. */
-const FIRST_CUT = 7;
+const FIRST_CUT = 9;
 
 /** A laid-out line, and whether it gave up a number to fit its width. */
 export interface LaidOutLine {
@@ -181,6 +189,8 @@ export interface LaidOutLine {
   nameCut: boolean;
   /** Whether a diff's fold left out how many changed nodes it holds (`(41 hidden)`). */
   changesCut: boolean;
+  /** Whether the tag's old path, old name or a value was cut (`…ger:1.4`), for the key to say. */
+  valueCut?: boolean;
   /** Whether a chain left names out of its middle, `(k more)` standing for them. */
   namesLeftOut?: boolean;
   /**
@@ -199,7 +209,10 @@ export interface LaidOutLine {
  *   1. the fold drops how many children it hides and keeps its numbers (`(hidden: 41 nodes, 2.0 MiB)`),
  *      then says them in fewest words (`(41 hidden, 2.0 MiB)`; without a size `(41 hidden)`);
  *   2. the tag's old path, old name and old and new values are cut to the columns the line has for
- *      them, down to a few (`…` marks every cut; a value keeps where it changed, see `cutEditValues`);
+ *      them with its names whole, down to a readable part each (`…` marks every cut; a value keeps
+ *      where it changed and text on both sides of that, see `cutEditValues`), then it says only its
+ *      first fields (`+2 more fields`), then only how many (`[edited 3 fields]`), then its kind alone
+ *      (`[edited]`, a size change kept): the name is what a reader needs most;
  *   3. the labels are cut, down to 8 columns a name, then to 4: one name at its end, or around where it
  *      differs from its siblings when the end cut would lose that; a chain's longest names at their
  *      ends, every ` / ` kept so its names can be counted; at 4 a long chain keeps its first and
@@ -209,9 +222,8 @@ export interface LaidOutLine {
  *   5. the fold's size goes, its count stays (`(hidden: 41 nodes)`; in a diff with how many changed
  *      nodes it holds), then the line's size (`608 nodes`), then the fold's words (`(41 hidden)`);
  *   6. a deep line's indentation shrinks to a third of the width, its level in digits at its end;
- *   7. the labels are cut down to 4 columns again, then the tag's old paths and values are cut to
- *      fewer columns, down to 3 each, then the tag keeps only its kind (`[moved]`: its
- *      old path and its size change go), then a diff's fold drops how many changed (`(41 hidden)`);
+ *   7. the labels are cut down to 4 columns again, then the tag's own size change goes (`[moved]`),
+ *      then a diff's fold drops how many changed (`(41 hidden)`);
  *   8. the indentation is only the level in digits (`12 `), the labels cut down to two characters
  *      and `…`;
  *   9. the fold keeps only its sign (`(hidden)`: its count is the line's less its names and the
@@ -286,36 +298,41 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
   // [indentation, tag, fewest label columns (0: whole), numbers, fold]; from FIRST_CUT on a step may
   // leave a number out.
   const compactWords = p.foldShort === p.foldCounts ? p.foldTiny : (p.compactFoldSized ?? compactFoldCounts);
-  // The labels at their 4-column floor, for measuring a tag beside them (see `fewerTag`).
-  const floorText = "x".repeat(floorOf(p.labels, FEW_LABEL));
+  // The tag's kind and size change: what stays of it beside a name that is cut.
+  const fewTag = p.leastTag ?? kindTag;
+  // Tags that `tagWithin` gave with a text cut (`…`), which the key must say.
+  const cutTags = new Set<string>();
+  // The room a tag has beside the whole names, `numbers` and `fold` (the tag and a space after it);
+  // the indentation, spaces only, counted by its length (a deep line's is long).
+  const roomBeside = (numbers: string, fold: string) =>
+    width - indent.length - displayWidth(line("", label, "", numbers, fold, false)) - 1;
+  const roomy = once(() => {
+    const within = p.tagWithin?.(roomBeside(p.numbers, foldWords)) ?? null;
+    if (within === null) return p.shortTag;
+    if (within.cut) cutTags.add(within.tag);
+    return within.tag;
+  });
+  // The tag's forms beside the whole names and `numbers` and `fold`, the widest first (see `wholeNameLine`).
+  const tagsBeside = (numbers: string, fold: string): string[] => {
+    const within = p.tagWithin?.(roomBeside(numbers, fold)) ?? null;
+    if (within?.cut) cutTags.add(within.tag);
+    return [...new Set([p.tag, ...(within === null ? [] : [within.tag]), p.shortTag, fewTag])];
+  };
   const steps: Step[] = [
     [indent, p.tag, 0, p.numbers, p.fold],
     [indent, p.tag, 0, p.numbers, p.foldCounts],
     [indent, p.tag, 0, p.numbers, foldWords],
-    [
-      indent,
-      once(() => roomyTag(p, width, (tag) => line(indent, label, tag, p.numbers, foldWords, false))),
-      0,
-      p.numbers,
-      foldWords,
-    ],
-    [indent, p.shortTag, MIN_LABEL, p.numbers, foldWords],
-    [indent, p.shortTag, FEW_LABEL, p.numbers, foldWords],
-    [indent, p.shortTag, MIN_LABEL, p.compactNumbers, compactWords],
-    [indent, p.shortTag, MIN_LABEL, p.compactNumbers, p.foldShort],
-    [indent, p.shortTag, MIN_LABEL, p.countNumbers, p.foldShort],
-    [indent, p.shortTag, MIN_LABEL, p.countNumbers, p.foldTiny],
-    [short, p.shortTag, MIN_LABEL, p.countNumbers, p.foldTiny],
-    [short, p.shortTag, FEW_LABEL, p.countNumbers, p.foldTiny],
-    [
-      short,
-      once(() =>
-        fewerTag(p, width, kindTag, (tag) => line(short, floorText, tag, p.countNumbers, p.foldTiny, false)),
-      ),
-      FEW_LABEL,
-      p.countNumbers,
-      p.foldTiny,
-    ],
+    [indent, roomy, 0, p.numbers, foldWords],
+    [indent, p.shortTag, 0, p.numbers, foldWords],
+    [indent, fewTag, 0, p.numbers, foldWords],
+    [indent, fewTag, MIN_LABEL, p.numbers, foldWords],
+    [indent, fewTag, FEW_LABEL, p.numbers, foldWords],
+    [indent, fewTag, MIN_LABEL, p.compactNumbers, compactWords],
+    [indent, fewTag, MIN_LABEL, p.compactNumbers, p.foldShort],
+    [indent, fewTag, MIN_LABEL, p.countNumbers, p.foldShort],
+    [indent, fewTag, MIN_LABEL, p.countNumbers, p.foldTiny],
+    [short, fewTag, MIN_LABEL, p.countNumbers, p.foldTiny],
+    [short, fewTag, FEW_LABEL, p.countNumbers, p.foldTiny],
     [short, kindTag, FEW_LABEL, p.countNumbers, p.foldTiny],
     [short, kindTag, FEW_LABEL, p.countNumbers, foldBare],
     [least, kindTag, FEW_LABEL, p.countNumbers, foldBare],
@@ -336,15 +353,15 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
   const changed = p.compactFoldChanged ?? compactWords;
   const kept: typeof steps = [
     ...steps.slice(0, FIRST_CUT),
-    [indent, p.shortTag, MIN_LABEL, p.compactNumbers, changed],
-    [indent, p.shortTag, FEW_LABEL, p.compactNumbers, changed],
-    [short, p.shortTag, MIN_LABEL, p.compactNumbers, changed],
-    [short, p.shortTag, FEW_LABEL, p.compactNumbers, changed],
+    [indent, fewTag, MIN_LABEL, p.compactNumbers, changed],
+    [indent, fewTag, FEW_LABEL, p.compactNumbers, changed],
+    [short, fewTag, MIN_LABEL, p.compactNumbers, changed],
+    [short, fewTag, FEW_LABEL, p.compactNumbers, changed],
   ];
   // Last, a line with none below it: its fold's count alone, the fold's size in the line's.
   // A tag's own size change then may go too (`[resized]`): no sum on the line needs it.
   for (const all of [p.foldAllBelow, p.foldAllBelowBare])
-    for (const tag of [p.shortTag, kindTag])
+    for (const tag of [fewTag, kindTag])
       if (all !== undefined)
         kept.push(
           [indent, tag, MIN_LABEL, p.compactNumbers, all],
@@ -370,14 +387,17 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
     // give way (see `wholeNameLine`).
     const keepsName = whole
       ? null
-      : wholeNameLine(p, width, (tag, numbers, all) => line(indent, label, tag, numbers, all, false));
+      : wholeNameLine(p, width, tagsBeside, (tag, numbers, all) =>
+          line(indent, label, tag, numbers, all, false),
+        );
     if (keepsName !== null)
       return {
         text: line(indent, label, keepsName.tag, keepsName.numbers, keepsName.fold, true),
         ...NOTHING_CUT,
         countInFold: keepsName.numbers === "",
-        // A tag's old path or value cut to a few columns is cut as a name is (`…` marks where).
-        nameCut: keepsName.tag !== p.tag,
+        // A tag's old path or value cut is cut as a name is (`…` marks where).
+        nameCut: cutTags.has(keepsName.tag),
+        ...(cutTags.has(keepsName.tag) ? { valueCut: true } : {}),
       };
     const names = whole
       ? { text: label, elided: false, shortened: false }
@@ -396,11 +416,12 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
       ownNumbersCut: numbers !== p.numbers && numbers !== p.compactNumbers,
       foldCut: fold === FOLD_SIGN,
       countInFold: p.countNumbers !== "" && numbers === "" && fold !== FOLD_SIGN,
-      // A tag's old path or value cut to a few columns is cut as a name is (`…` marks where).
-      nameCut: names.shortened || (tag !== p.tag && tag !== kindTag),
+      // A tag's old path or value cut is cut as a name is (`…` marks where).
+      nameCut: names.shortened || cutTags.has(tag),
       changesCut: (fold === foldBare || fold === FOLD_SIGN) && foldBare !== p.foldTiny,
       ...depthOf(ind, indent, p.level),
       ...(names.elided ? { namesLeftOut: true } : {}),
+      ...(cutTags.has(tag) ? { valueCut: true } : {}),
     };
   }
   if (keepAll) return null;
@@ -428,51 +449,6 @@ function layOut(p: LineParts, options: LayoutOptions, keepAll: boolean): LaidOut
 }
 
 /**
- * The widest tag `p.tagAt` gives whose line (`lineOf`) fits `width`, its old values cut only as far
- * as the line needs; `p.shortTag` when none wider than it fits, or without `tagAt`.
- */
-function roomyTag(p: LineParts, width: number, lineOf: (tag: string) => string): string {
-  if (p.tagAt === undefined) return p.shortTag;
-  const fits = (tag: string) => displayWidth(lineOf(tag)) <= width;
-  if (fits(p.tag)) return p.tag;
-  const least = displayWidth(p.shortTag);
-  // The first guess: the widest cap whose cuts take off the columns the line is over, every text
-  // cut to the cap (one narrower stays whole); then a column at a time, to the widest that fits
-  // (a cut may come out narrower than its cap: a wide character, the ellipsis's place). Two or
-  // three tags a line, where halving the columns made eight (a 2,000-line diff at 90 columns).
-  const widths = p.tagCutWidths ?? [displayWidth(p.tag)];
-  const over = displayWidth(lineOf(p.tag)) - width;
-  const taken = (cap: number) => widths.reduce((sum, w) => sum + Math.max(0, w - cap), 0);
-  let cap = Math.max(0, ...widths);
-  while (cap > 1 && taken(cap) < over) cap--;
-  let tag = p.tagAt(cap);
-  if (fits(tag)) for (let next = p.tagAt(cap + 1); fits(next); next = p.tagAt(++cap + 1)) tag = next;
-  else while (cap > 1 && !fits(tag)) tag = p.tagAt(--cap);
-  return displayWidth(tag) > least && fits(tag) ? tag : p.shortTag;
-}
-
-/** Fewest columns a tag's old path, name or value is cut to before the tag keeps only its kind. */
-const LEAST_FROM = 3;
-
-/** Most columns `fewerTag` tries, above the few of `shortTag` (8). */
-const FEWER_FROM = 12;
-
-/**
- * The widest tag `p.tagAt` gives, its old paths and values cut to fewer columns than `shortTag`'s
- * (down to {@link LEAST_FROM}), whose line (`lineOf`) fits `width`; else `kindTag`, the kind alone:
- * `[edited image re…0 -> re…1] tern` says more than `[edited] tern` where it fits.
- */
-function fewerTag(p: LineParts, width: number, kindTag: string, lineOf: (tag: string) => string): string {
-  if (p.tagAt === undefined) return kindTag;
-  const least = displayWidth(p.shortTag);
-  for (let columns = FEWER_FROM; columns >= LEAST_FROM; columns--) {
-    const tag = p.tagAt(columns);
-    if (displayWidth(tag) < least && displayWidth(lineOf(tag)) <= width) return tag;
-  }
-  return kindTag;
-}
-
-/**
  * The tag, numbers and fold of a line whose names stay whole where only numbers the line says twice
  * give way: for a line with none below it (`LineParts.foldAllBelow`), the fold's size (the line's
  * less its own); then, where the line's numbers are its count alone and that count is 1 + the fold's
@@ -481,15 +457,15 @@ function fewerTag(p: LineParts, width: number, kindTag: string, lineOf: (tag: st
 function wholeNameLine(
   p: LineParts,
   width: number,
+  tagsBeside: (numbers: string, fold: string) => string[],
   lineOf: (tag: string, numbers: string, fold: string) => string,
 ): { tag: string; numbers: string; fold: string } | null {
-  const tags = p.tag === p.shortTag ? [p.tag] : [p.tag, p.shortTag];
   const tries: [string, string][] = [];
   if (p.foldAllBelow !== undefined) tries.push([p.numbers, p.foldAllBelow]);
   if (p.countInFold && p.countNumbers !== "" && p.numbers === p.countNumbers)
     tries.push(["", p.foldAllBelow ?? p.foldTiny]);
   for (const [numbers, fold] of tries)
-    for (const tag of tags)
+    for (const tag of tagsBeside(numbers, fold))
       if (displayWidth(lineOf(tag, numbers, fold)) <= width) return { tag, numbers, fold };
   return null;
 }

@@ -42,12 +42,12 @@ function legendTexts(kind: "summary" | "diff", size: string): string[] {
   const lines = [
     `marks: ${MARK.focus} focus, ${MARK.path} ${path}, ${MARK.other} other, ${MARK.reference} a node with several parents, in full at the path shown (counts no node); a / b: b is a's only child, the line's numbers a's (with all below), its fold b's; a / (3 more) / b: 3 names left out; 8 : x: x is 8 levels down, its level in digits (too deep to indent)`,
     kind === "diff"
-      ? `numbers: N nodes = 1 per name on the line (a leading / too: /usr is 2) + the lines below + the hidden, removed nodes included; no count: 1 + hidden; ?: count cut; … ends a cut name; a ${size}: NEW's own + all below (own = ${size} - the sizes below - the hidden size; on a / b, both own); a narrow fold: (k hidden, S; …): k nodes hidden, S their size; (k hidden, c changed): k nodes hidden, c of them changed; (k hidden): size and net in the line's (none below); (hidden): k = N less the names and the lines below; narrower: size cut (the line above won't add up), then counts only`
+      ? `numbers: N nodes = 1 per name on the line (a leading / too: /usr is 2) + the lines below + the hidden, removed nodes included; no count: 1 + hidden; ?: count cut; … cuts a name or value; a ${size}: NEW's own + all below (own = ${size} - the sizes below - the hidden size; on a / b, both own); a narrow fold: (k hidden, S; …): k nodes hidden, S their size; (k hidden, c changed): k nodes hidden, c of them changed; (k hidden): size and net in the line's (none below); (hidden): k = N less the names and the lines below; narrower: size cut (the line above won't add up), then counts only`
       : `numbers: N nodes = 1 per name on the line (a leading / too: /usr is 2) + the lines below + the hidden; no count: 1 + hidden; ?: count cut; … ends a cut name; a ${size}: the node's own + all below (own = ${size} - the sizes below - the hidden size; on a / b, both own); a narrow fold: (k hidden, S): k nodes hidden, S their size; (k hidden): their size in the line's (none below); (hidden): k = N less the names and the lines below; narrower: size cut (the line above won't add up), then counts only`,
   ];
   if (kind === "diff")
     lines.push(
-      "changes: [added] [removed] [moved from PARENT] [renamed from NAME] [edited FIELD OLD -> NEW] [resized ±SIZE] [linked] [unlinked] (a parent gained, lost) stand before the name (a narrow line keeps only the kind: [moved]); net ±SIZE: the subtree's size change",
+      "changes: [added] [removed] [moved from PARENT] [renamed from NAME] [edited FIELD OLD -> NEW] [resized ±SIZE] [linked] [unlinked] (a parent gained, lost) stand before the name (narrower: [edited 3 fields], [moved]); net ±SIZE: the subtree's size change",
     );
   return lines;
 }

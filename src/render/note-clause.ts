@@ -44,6 +44,10 @@ const clauses: Readonly<Record<ReadingNoteCode, Clause>> = {
         ? `saved view, ${n.count === 1 ? "1 fold read as one entry" : `${formatCount(n.count)} folds read as one entry each`}`
         : "saved view",
   },
+  COMPARED_AT_FOLDS: {
+    said: (n) =>
+      `compared at ${n.count === 1 ? "1 fold" : `${formatCount(n.count ?? 0)} folds`} of ${n.version === "OLD" ? "NEW" : "OLD"}, the nodes inside counted in ${n.count === 1 ? "it" : "them"}`,
+  },
   UNDECODABLE_BYTES: {
     counted: ["entry not UTF-8, read with U+FFFD", "entries not UTF-8, read with U+FFFD"],
   },

@@ -116,6 +116,7 @@ function cutsOf(laid: readonly LaidOutLine[], parts: readonly LineParts[]): Widt
     foldsCut: laid.some((l) => l.foldCut),
     ...(laid.some((l) => l.countInFold) ? { countsInFolds: true } : {}),
     namesCut: laid.some((l) => l.nameCut),
+    ...(laid.some((l) => l.valueCut) ? { valuesCut: true } : {}),
     changesCut: laid.some((l) => l.changesCut),
     ...firstDepth(laid, parts),
     ...(laid.some((l) => l.namesLeftOut) ? { namesLeftOut: true } : {}),

@@ -69,3 +69,43 @@ describe("fitToBudget(fit, budget) through the command line", () => {
     );
   });
 });
+
+describe("espalier diff: BUDGET_TOO_SMALL's numbers", () => {
+  it("names lines before the tree that the smallest budget it names can hold with the root (field test: 10 lines and 10)", async () => {
+    // Field test: `espalier diff b1.json b2.json --budget 8 --width 40` said `cannot hold the 10
+    // lines before the tree and the root; the smallest budget that works is 10`: the 10 counted a
+    // key the budget of 10 leaves out (its header says so). An invented file listing, two versions:
+    // some files gone, some new, some grown.
+    const listing = (keep: (i: number) => boolean, grow: number) =>
+      Array.from({ length: 300 }, (_, i) => i)
+        .filter(keep)
+        .map(
+          (i) =>
+            `${1000 + i * 37 + (i % 5 === 0 ? grow : 0)}\ttidewater/svc-${i % 7}/mod-${i % 13}/file-${i}.dat`,
+        )
+        .join("\n");
+    const files = {
+      "old.tsv": listing((i) => i % 11 !== 0, 0),
+      "new.tsv": listing((i) => i % 13 !== 0, 123456),
+    };
+    let refused = 0;
+    for (let budget = 4; budget <= 12; budget++) {
+      const r = await cli(["diff", "old.tsv", "new.tsv", "--budget", `${budget}`, "--width", "40"], {
+        files,
+      });
+      if (r.code === 0) continue;
+      refused++;
+      const said =
+        /cannot hold the (\d+) lines before the tree(, the root and the key or a note)?.*smallest budget that works is (\d+)/.exec(
+          r.stderr,
+        );
+      expect(said, r.stderr).not.toBeNull();
+      const [, before, note, smallest] = said!;
+      // The lines named, the root and the note's line where named: no more than the smallest budget.
+      expect(Number(before) + 1 + (note ? 1 : 0), r.stderr).toBeLessThanOrEqual(Number(smallest));
+      const ok = await cli(["diff", "old.tsv", "new.tsv", "--budget", smallest, "--width", "40"], { files });
+      expect(ok.code).toBe(0);
+    }
+    expect(refused).toBeGreaterThan(1);
+  });
+});

@@ -1,10 +1,13 @@
+import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
+import { prepareDiff } from "../../src/diff/diff-trees.js";
 import { draw } from "../../src/explore/screen.js";
-import { summarySession } from "../../src/explore/session.js";
+import { diffSession, summarySession } from "../../src/explore/session.js";
 import { GUTTER, startState } from "../../src/explore/update.js";
 import { resolveFoci } from "../../src/focus/resolve.js";
 import { loadTree } from "../../src/load/index.js";
 import { defaultLoadOptions } from "../../src/load/load-options.js";
+import { displayWidth } from "../../src/render/display-width.js";
 import { palette } from "../../src/render/palette.js";
 import { prepare } from "../../src/summarize.js";
 import { checkText } from "../screens/read-screen.mjs";
@@ -68,8 +71,12 @@ describe("summarySession(prepared, look): the key's rows", () => {
         status: screen.rows.at(-1)!,
       };
     };
-    // A key in part: 14 rows at 32; whole: 20 rows at 48 (the header gives the key its rows, see below).
-    const part = drawn(14, 32);
+    // A key in part: 11 rows at 32; whole: 14 rows at 32, 20 at 48 (the header gives the key its rows,
+    // see below). At 14 rows a key of 3 rows said part (check-screens: a `find /usr/share` listing's
+    // deep focus at 14x34 pointed to the help for `a / b` alone): 13 rows of budget give it 2 more
+    // than its fewest, one for every three rows above the key's least budget, so it says all in 6.
+    expect(drawn(14, 32).status).toMatch(/ h: keys$/);
+    const part = drawn(11, 32);
     expect(part.key).toBe(true);
     expect(part.status).toMatch(/ h: keys, marks$/);
     const whole = drawn(20, 48);
@@ -129,6 +136,47 @@ describe("summarySession(prepared, look): the key's rows", () => {
         expect(drawn(height).rows[0], `${height}x${cols}`).toMatch(new RegExp(`needs ${fewest} rows$`));
       for (let height = fewest; height < fewest + 12; height++)
         expect(drawn(height).cursorRow, `${height}x${cols}`).not.toBeNull();
+    }
+  });
+});
+
+describe("diffSession(prepared, look): a key of one row", () => {
+  it("says the marks in one row where a narrow screen's shorter header frees only that (field test: npm ls diff at 10x32)", () => {
+    // Field test: a diff of two `npm ls --all --json` listings at 10x32 showed its seven header rows
+    // and the tree, and no key: the shorter header freed one row, where a 32-column key takes two.
+    // Here the invented org charts of fixtures/examples (March and April), at 8 and 9 rows.
+    const load = (file: string) =>
+      loadTree(readFileSync(file, "utf8"), {
+        ...defaultLoadOptions,
+        parentField: "manager",
+        file,
+        format: "csv",
+        rootName: file.split("/").pop() ?? file,
+      });
+    const diff = prepareDiff(
+      load("fixtures/examples/org-march.csv"),
+      load("fixtures/examples/org-april.csv"),
+      {},
+    );
+    const session = diffSession(diff, { units: "plain", chains: true, palette: palette(false) });
+    for (const [height, cols] of [
+      [8, 34],
+      [9, 32],
+      [9, 34],
+    ]) {
+      const state = startState(session, {
+        rows: height,
+        cols,
+        foci: new Int32Array(0),
+        importance: "depth",
+        fociFile: "foci.txt",
+      });
+      const rows = draw(session, state, false).rows.map((r) => r.slice(GUTTER));
+      const tree = rows.findIndex((r) => r.startsWith(": "));
+      expect(tree, rows.join("\n")).toBeGreaterThan(0);
+      // The row above the tree is the key, and it says the mark every line of the tree starts with.
+      expect(rows[tree - 1], rows.join("\n")).toMatch(/^key: ':' /);
+      for (const r of rows) expect(displayWidth(r)).toBeLessThanOrEqual(cols - GUTTER);
     }
   });
 });

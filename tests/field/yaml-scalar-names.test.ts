@@ -139,6 +139,21 @@ describe("YAML merge keys in a graph", () => {
     expect(graph.totals).toEqual(tree.totals);
   });
 
+  it("reads an adjacency map's ids written as numbers as written, the sizes as numbers", async () => {
+    // UN M.49 codes (from memory, as above): the world 001 holds the Americas 019 and Asia 142; by
+    // value the ids were 1, 19 and 142, and printed so.
+    const text = "001: {children: [019, 142]}\n019: {children: [021], size: 0x10}\n142: [030]\n";
+    const result = await cli(["areas.yaml", "--graph", "--format", "json"], {
+      files: { "areas.yaml": text },
+    });
+    expect(result.code).toBe(0);
+    const json = JSON.parse(result.stdout);
+    expect(json.root.name).toBe("001");
+    expect(names(json.root)).toEqual(["019", "142"]);
+    expect(json.root.children.map(names)).toEqual([["021"], ["030"]]);
+    expect(json.totals).toMatchObject({ nodes: 5, size: 16 });
+  });
+
   it("refuses a merge key that names no mapping, at the key", async () => {
     const text = "a: {children: [b]}\nb:\n  <<: 5\n";
     const result = await cli(["bad.yaml", "--graph"], { files: { "bad.yaml": text } });

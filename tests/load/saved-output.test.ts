@@ -3,6 +3,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import Ajv2020 from "ajv/dist/2020.js";
 import { describe, expect, it } from "vitest";
+import { defaultLoadOptions, loadTree } from "../../src/load/index.js";
 import { FOLD_NAME, SAVED_SUMMARY_FORMAT, savedOutputFormat } from "../../src/load/saved-output.js";
 import { SUMMARY_FORMAT } from "../../src/render/summary-schema.js";
 import { cli } from "../helpers/cli.js";
@@ -74,7 +75,7 @@ function addsUp(root: Node): void {
 }
 
 describe("savedOutputFormat(head)", () => {
-  it("reads the format espalier writes as its first member, and the summary format is the one read back", () => {
+  it("reads the format espalier writes, and the summary format is the one read back", () => {
     expect(SAVED_SUMMARY_FORMAT).toBe(SUMMARY_FORMAT);
     expect(savedOutputFormat('{\n  "format": "espalier-summary/1",\n  "budget": 4')).toBe(
       "espalier-summary/1",
@@ -220,6 +221,94 @@ describe("espalier SAVED.json (a summary espalier wrote)", () => {
   });
 });
 
+/** `value` with every object's keys sorted, as `jq -S .` writes them (common practice, no source). */
+function sortedKeys(value: unknown): unknown {
+  if (Array.isArray(value)) return value.map(sortedKeys);
+  if (value === null || typeof value !== "object") return value;
+  const record = value as Record<string, unknown>;
+  return Object.fromEntries(
+    Object.keys(record)
+      .sort()
+      .map((k) => [k, sortedKeys(record[k])]),
+  );
+}
+
+/**
+ * A saved output as CI steps rewrite it: `jq -S .` (keys sorted, 2 spaces), `jq -c .` (one line) and
+ * `python3 -m json.tool --sort-keys` (4 spaces, non-ASCII as \u escapes); the layouts are those tools'
+ * defaults (common practice, no source).
+ */
+function rewritten(doc: unknown): Record<string, string> {
+  const ascii = (s: string) =>
+    s.replace(/[^\x00-\x7f]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, "0")}`);
+  return {
+    "jq -S .": `${JSON.stringify(sortedKeys(doc), null, 2)}\n`,
+    "jq -c .": `${JSON.stringify(doc)}\n`,
+    "python3 -m json.tool --sort-keys": `${ascii(JSON.stringify(sortedKeys(doc), null, 4))}\n`,
+  };
+}
+
+describe("espalier SAVED.json rewritten by a CI step (keys sorted, re-spaced)", () => {
+  it("reads the view it holds, with the saved totals, from a file, from standard input and through loadTree", async () => {
+    const { doc } = await saved([...ORG, "--budget", "16", "--focus", "Q2417"]);
+    const asSaved = await cli([save(JSON.stringify(doc)), "--budget", "40", "--format", "json"]);
+    expect(asSaved.code, asSaved.stderr).toBe(0);
+    for (const [step, text] of Object.entries(rewritten(doc))) {
+      for (const read of [
+        await cli([save(text), "--budget", "40", "--format", "json"]),
+        await cli(["-", "--budget", "40", "--format", "json"], { stdin: text }),
+      ]) {
+        expect(read.code, `${step}: ${read.stderr}`).toBe(0);
+        const back = JSON.parse(read.stdout);
+        expect(
+          back.input.notes.map((n: { code: string }) => n.code),
+          step,
+        ).toContain("SAVED_VIEW");
+        expect(back.totals, step).toEqual(doc.totals);
+        expect(back.root, step).toEqual(JSON.parse(asSaved.stdout).root);
+      }
+      const tree = loadTree(text, { ...defaultLoadOptions, file: "org.json" });
+      expect(
+        tree.reading?.notes?.map((n) => n.code),
+        step,
+      ).toContain("SAVED_VIEW");
+    }
+  });
+
+  it("reads it when sorted foci fill more than the start read to tell the format (64 KiB)", async () => {
+    // jq -S puts "budget" and "foci" before "format": a long list of foci pushes it further.
+    const { doc } = await saved([...FILES, "--budget", "12"]);
+    const foci = Array.from({ length: 4000 }, (_, k) => `data/tide-tables/station-${k}/{spring,neap}`);
+    const text = JSON.stringify(sortedKeys({ ...doc, foci }), null, 2);
+    expect(text.indexOf('"format"')).toBeGreaterThan(1 << 17);
+    const read = await cli([save(text), "--format", "json"]);
+    expect(read.code, read.stderr).toBe(0);
+    expect(JSON.parse(read.stdout).totals).toEqual(doc.totals);
+    expect(read.stderr).toContain("[SAVED_VIEW]");
+  });
+
+  it("reads a user's document with such members as its values: a member espalier does not write comes first", async () => {
+    const { doc } = await saved([...FILES, "--budget", "8"]);
+    const own = JSON.stringify(sortedKeys({ ...doc, audience: "harbour ops" }), null, 2);
+    const read = await cli([save(own), "--format", "json"]);
+    expect(read.code, read.stderr).toBe(0);
+    expect(read.stderr).not.toContain("SAVED_VIEW");
+    expect(JSON.parse(read.stdout).input.shape).toBe("values");
+  });
+
+  it("is SHAPE for a saved diff passed through jq -S ., naming what to run", async () => {
+    const made = await cli(["diff", ...FILES, ...FILES, "--format", "json"]);
+    expect(made.code, made.stderr).toBe(0);
+    for (const [step, text] of Object.entries(rewritten(JSON.parse(made.stdout)))) {
+      const read = await cli([save(text)]);
+      expect(read.code, step).toBe(2);
+      expect(read.stdout, step).toBe("");
+      expect(read.stderr, step).toContain("[SHAPE]");
+      expect(read.stderr, step).toContain("run espalier diff on the two inputs it compared");
+    }
+  });
+});
+
 describe("espalier diff and saved outputs", () => {
   it("is SHAPE for a saved diff read as a tree, and reads its JSON text with --read-as values", async () => {
     const made = await cli([
@@ -247,26 +336,113 @@ describe("espalier diff and saved outputs", () => {
   );
   const validateDiff = new Ajv2020.default({ allErrors: true }).compile(diffSchema);
 
-  it("refuses two views that fold different nodes: a node one shows may be in the other's fold", async () => {
+  it("compares views of one tree saved at different budgets at the coarser one's folds: nothing changed", async () => {
     // One tree saved at two budgets: the bigger view shows nodes the smaller folds. Counting them added
-    // (as a first version did, exit 1 under --fail-on-change) is a change no one made.
-    const a = await saved([...FILES, "--budget", "12"]);
-    const b = await saved([...FILES, "--budget", "16"]);
-    for (const [old, now, shown] of [
-      [a.file, b.file, "NEW"],
-      [b.file, a.file, "OLD"],
-    ]) {
-      const diff = await cli(["diff", old, now, "--fail-on-change"]);
-      expect(diff.code, diff.stderr).toBe(2);
-      expect(diff.stdout).toBe("");
-      expect(diff.stderr).toContain("[SHAPE]");
-      expect(diff.stderr).toContain(`${shown} shows "`);
-      expect(diff.stderr).toContain("diff the original inputs");
+    // (a first version did, exit 1 under --fail-on-change) is a change no one made; refusing them (the
+    // next) left CI jobs whose budget changed nothing to compare. Selections are nested
+    // (docs/selection.md rule 2), so every pair reads exactly at the smaller view's folds.
+    for (const args of [FILES, [...ORG, "--focus", "Q2417"]]) {
+      const views = [];
+      for (const budget of ["8", "12", "20", "40"]) views.push(await saved([...args, "--budget", budget]));
+      for (const [k, a] of views.entries()) {
+        for (const b of views.slice(k + 1)) {
+          for (const [old, now, finer] of [
+            [a, b, "NEW"],
+            [b, a, "OLD"],
+          ] as const) {
+            const diff = await cli(["diff", old.file, now.file, "--fail-on-change", "--format", "json"]);
+            expect(diff.code, diff.stderr).toBe(0);
+            const doc = JSON.parse(diff.stdout);
+            expect(validateDiff(doc), JSON.stringify(validateDiff.errors)).toBe(true);
+            expect(doc.changes).toEqual({
+              added: 0,
+              removed: 0,
+              moved: 0,
+              renamed: 0,
+              edited: 0,
+              resized: 0,
+            });
+            expect(doc.totals.old).toEqual(old.doc.totals);
+            expect(doc.totals.new).toEqual(now.doc.totals);
+            const atFolds = doc.notes.filter((n: { code: string }) => n.code === "COMPARED_AT_FOLDS");
+            expect(atFolds.map((n: { version: string }) => n.version)).toEqual(
+              JSON.stringify(a.doc.root) === JSON.stringify(b.doc.root) ? [] : [finer],
+            );
+            addsUp(doc.root);
+          }
+        }
+      }
     }
-    // Against the original input too: its nodes under a folded parent cannot be told from the fold's.
-    const original = await cli(["diff", a.file, ...FILES]);
-    expect(original.code, original.stderr).toBe(2);
-    expect(original.stderr).toContain("[SHAPE]");
+  });
+
+  it("compares a saved view with the input itself at the view's folds, and says so in the header", async () => {
+    const a = await saved([...FILES, "--budget", "12"]);
+    const diff = await cli(["diff", a.file, ...FILES, "--fail-on-change", "--budget", "30"]);
+    expect(diff.code, diff.stderr).toBe(0);
+    expect(diff.stdout.split("\n")[0]).toMatch(
+      /NEW: compared at [0-9]+ folds of OLD, the nodes inside counted in them/,
+    );
+    expect(diff.stderr).toContain("[COMPARED_AT_FOLDS]");
+  });
+
+  it("counts a node removed inside the coarser view's fold in that fold, exactly", async () => {
+    const listing = readFileSync(org("tidewater-files.paths"), "utf8");
+    // The same file name, so the two roots are named alike; a file the budget-12 view folds, shown at 40.
+    const later = join(mkdtempSync(join(dir, "budgets-")), "tidewater-files.paths");
+    const gone = "./tools/";
+    const lines = listing.trimEnd().split("\n");
+    const at = lines.findIndex((l) => l.includes(gone) && /\.[a-z]+$/.test(l));
+    writeFileSync(later, `${lines.filter((_, k) => k !== at).join("\n")}\n`);
+    const a = await saved([...FILES, "--budget", "12"]);
+    const b = await saved([later, "--budget", "40"]);
+    const direct = await cli(["diff", ...FILES, later, "--format", "json"]);
+    const whole = JSON.parse(direct.stdout);
+    const diff = await cli(["diff", a.file, b.file, "--budget", "200", "--format", "json"]);
+    expect(diff.code, diff.stderr).toBe(0);
+    const doc = JSON.parse(diff.stdout);
+    expect(doc.totals.old).toEqual(a.doc.totals);
+    expect(doc.totals.new).toEqual(b.doc.totals);
+    expect(doc.totals.delta).toBe(whole.totals.delta);
+    // The one change: the fold of tools that holds the file, its count one less (1 + shown + folded).
+    const edited = [...walk(doc.root)].filter((n) => (n as { change?: string }).change === "edited");
+    expect(edited.map((n) => n.path)).toEqual([`tools/${FOLD_NAME}`]);
+    expect(doc.changes).toMatchObject({ added: 0, removed: 0, edited: 1 });
+    addsUp(doc.root);
+  });
+
+  it("compares a saved view with an input whose records hold fields the view does not keep: not an edit from nothing", async () => {
+    // Field test: a saved org chart against the table it came from said every node edited, "title
+    // (none) -> Pilot", and --fail-on-change exited 1. An invented crew list of the fictional Tidewater
+    // harbour office.
+    const crew = join(mkdtempSync(join(dir, "crew-")), "crew.csv");
+    writeFileSync(
+      crew,
+      "id,parent,name,title\nQ1,,Ines Harrow,Harbourmaster\nQ2,Q1,Oda Brine,Pilot\nQ3,Q1,Tove Lind,Deckhand\nQ4,Q2,Arno Vell,Pilot\n",
+    );
+    for (const budget of ["3", "10"]) {
+      const a = await saved([crew, "--budget", budget]);
+      for (const pair of [
+        [a.file, crew],
+        [crew, a.file],
+      ]) {
+        const diff = await cli(["diff", ...pair, "--fail-on-change", "--format", "json"]);
+        expect(diff.code, diff.stdout).toBe(0);
+        expect(JSON.parse(diff.stdout).changes).toMatchObject({ edited: 0, added: 0, removed: 0 });
+        expect(diff.stderr).toContain("[FIELDS_NOT_COMPARED]");
+      }
+    }
+  });
+
+  it("refuses two views whose folds cross (saved with other foci): a node each shows may be in the other's fold", async () => {
+    const a = await saved([...FILES, "--budget", "12", "--focus", "libs"]);
+    const b = await saved([...FILES, "--budget", "12", "--focus", "services"]);
+    const diff = await cli(["diff", a.file, b.file, "--fail-on-change"]);
+    expect(diff.code, diff.stderr).toBe(2);
+    expect(diff.stdout).toBe("");
+    expect(diff.stderr).toContain("[SHAPE]");
+    expect(diff.stderr).toContain('NEW shows "services"');
+    expect(diff.stderr).toContain('OLD shows "libs"');
+    expect(diff.stderr).toContain("diff the original inputs");
   });
 
   it("compares two saved summaries with their saved totals, each fold counted as the nodes it stands for", async () => {
@@ -306,6 +482,12 @@ describe("espalier diff and saved outputs", () => {
       ["teams-mon.csv", "teams-tue.csv", table, []],
       ["deploy-mon.yaml", "deploy-tue.yaml", "ledger:\n  replicas: 3\ntides:\n  replicas: 1\n", []],
       ["costs-mon.csv", "costs-tue.csv", facts, ["--levels", "account,service", "--size-field", "cost"]],
+      // A document whose top node has no name, an array of top-level nodes, a list of relative paths
+      // and a YAML document without a root name: each root named after its file, as the inputs are.
+      ["tides-mon.json", "tides-tue.json", '{"children":[{"name":"ledger","size":3},{"name":"tides"}]}', []],
+      ["stations-mon.json", "stations-tue.json", '[{"name":"gull-rock","size":3},{"name":"kelp-point"}]', []],
+      ["paths-mon.txt", "paths-tue.txt", "services/ledger.ts\nservices/tides.ts\ndocs/a.md\n", []],
+      ["crew-mon.yaml", "crew-tue.yaml", "children:\n  - name: ledger\n  - name: tides\n", []],
     ];
     for (const [mon, tue, text, how] of pairs) {
       for (const name of [mon, tue]) writeFileSync(join(day, name), text);
@@ -324,12 +506,18 @@ describe("espalier diff and saved outputs", () => {
       const b = await saved([join(day, tue), ...how, "--budget", "3"]);
       expect(a.doc.root.name).toBe(mon);
       expect(b.doc.root.name).toBe(tue);
-      const diff = await cli(["diff", a.file, b.file, "--fail-on-change", "--format", "json"]);
-      expect(diff.code, diff.stdout).toBe(0);
-      const doc = JSON.parse(diff.stdout);
-      expect(validateDiff(doc), JSON.stringify(validateDiff.errors)).toBe(true);
-      expect(doc.changes).toMatchObject({ added: 0, removed: 0, renamed: 0, edited: 0 });
-      expect(doc.root.change).toBeNull();
+      // Two saves, and a save against the other day's input either way round (a fact table's options
+      // do not apply to a saved summary: two saves only).
+      const mixed =
+        how.length === 0 ? [[a.file, join(day, tue)] as const, [join(day, mon), b.file] as const] : [];
+      for (const [old, now] of [[a.file, b.file] as const, ...mixed]) {
+        const diff = await cli(["diff", old, now, "--fail-on-change", "--format", "json"]);
+        expect(diff.code, `${old} ${now}: ${diff.stdout}`).toBe(0);
+        const doc = JSON.parse(diff.stdout);
+        expect(validateDiff(doc), JSON.stringify(validateDiff.errors)).toBe(true);
+        expect(doc.changes).toMatchObject({ added: 0, removed: 0, renamed: 0, edited: 0 });
+        expect(doc.root.change).toBeNull();
+      }
     }
     // A root of the input's own (the org chart's head) is no such root: renamed, it is a change.
     const org1 = join(day, "org-mon.csv");

@@ -257,7 +257,8 @@ describe("layoutLine(parts, { width })", () => {
       mark: ":",
       role: "path",
       tag: "[edited version 4.10.2 -> 4.10.2-next]",
-      shortTag: "[edited version 4.10.2 -> 4.10…ext]",
+      shortTag: "[edited 1 field]",
+      tagWithin: (room) => (room >= 35 ? { tag: "[edited version 4.10.2 -> 4.10…ext]", cut: true } : null),
       tagKind: "edited",
       labels: ["fast-check"],
       numbers: "2 nodes",
@@ -276,6 +277,10 @@ describe("layoutLine(parts, { width })", () => {
     );
     expect(line.nameCut).toBe(true);
     expect(laidOutLine(parts, { width: 100 }).nameCut).toBe(false);
+    // Narrower, the tag says how many fields, no cut: the key has no `…` to explain.
+    const brief = laidOutLine(parts, { width: 70 });
+    expect(brief.text).toBe("  : [edited 1 field] fast-check  2 nodes  (1 hidden, 0 changed)");
+    expect(brief.nameCut).toBe(false);
   });
 
   it("cuts wide names by their columns, never half a character, the count kept (UAX #11)", () => {

@@ -29,7 +29,7 @@ import { documentNotUtf8Note } from "../not-utf8-note.js";
 import { checkPathListOptions } from "../path-list/path-list-options.js";
 import { jsonGraphTooLong, limitsOf } from "../read-limits.js";
 import { checkReadingOptions } from "../reading-options.js";
-import { loadSavedOutput, readsAsSaved, savedOutputFormat } from "../saved-output.js";
+import { loadSavedOutput, readsAsSaved } from "../saved-output.js";
 import { readSizeTotals } from "../size-totals.js";
 import { csvTableFromStream } from "../table/csv-table.js";
 import { type KeptTable, keptTables } from "../table/kept-table.js";
@@ -41,6 +41,7 @@ import { checkShortRowsFormat } from "../table/short-rows-format.js";
 import type { Table } from "../table/table.js";
 import { withNotes } from "../with-notes.js";
 import { edgeListStream } from "./edge-list-stream.js";
+import { outputFormatOfStream } from "./output-start.js";
 import { readStart, type StreamStart } from "./read-start.js";
 
 /**
@@ -65,7 +66,7 @@ export async function loadTreeFromStream(
     table.earlierJson = keptJsons.take(options.earlierVersion);
   }
   try {
-    const start = await readStart(chunks);
+    let start = await readStart(chunks);
     let linked: LinkedNodes | GraphNodes;
     try {
       if (start.complete && !/\S/.test(start.text))
@@ -74,8 +75,13 @@ export async function loadTreeFromStream(
       checkPathListOptions(format, options);
       checkShortRowsFormat(format, options);
       // espalier's own summary JSON: read whole as the view it holds (saved-output.ts), told by its
-      // first member; a summary is as long as its budget, and JSON graphs' bound holds it.
-      const saved = format === "json" ? savedOutputFormat(start.text.slice(0, 4096)) : undefined;
+      // format member; a summary is as long as its budget, and JSON graphs' bound holds it.
+      let saved: string | undefined;
+      if (format === "json")
+        ({ format: saved, start } = await outputFormatOfStream(
+          start,
+          limitsOf(options.limits).maxJsonGraphBytes,
+        ));
       if (readsAsSaved(saved, options)) {
         const bytes = await wholeBytes(start.chunks, "JSON", limitsOf(options.limits).maxJsonGraphBytes);
         return loadSavedOutput(new TextDecoder("utf-8", { ignoreBOM: true }).decode(bytes), saved!, options);

@@ -56,6 +56,8 @@ export function readAsEarlier(
 ): ReadAsEarlier | undefined {
   const taken = table.taken;
   const rowsById = taken?.rowsById;
+  // Read once: NEW's tree may hold the table (its arrays made when read), and the index is 8 MiB at 1M rows.
+  if (taken !== undefined) taken.rowsById = undefined;
   if (earlierVersion === undefined || taken === undefined || rowsById === undefined) return undefined;
   // The kept table is the one OLD's load kept by its tree: that tree, whole.
   if (!("parent" in earlierVersion) || !("origin" in earlierVersion)) return undefined;

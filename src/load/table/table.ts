@@ -70,8 +70,11 @@ export interface TakenRows {
   readonly count: number;
   /** The earlier table's data rows. */
   readonly earlierRows: number;
-  /** The earlier version's rows by id, when its link kept them (KeptTable.rowsById). */
-  readonly rowsById: ByteIdIndex | undefined;
+  /**
+   * The earlier version's rows by id, when its link kept them (KeptTable.rowsById); let go of once
+   * read (read-as-earlier.ts), as the table may be held long after.
+   */
+  rowsById: ByteIdIndex | undefined;
 }
 
 /** A cell whose bytes are not UTF-8: its text as read, and its bytes as Latin-1 (one character a byte). */
