@@ -93,45 +93,6 @@ describe("a Windows listing (dir /s /b, or sizes and full names from PowerShell)
     expect(share.root.name).toBe("/");
     expect(paths(share.root)).toEqual(["", "harbor", "harbor/docs", "harbor/docs/a.txt"]);
   });
-
-  it("reads a relative listing (Get-ChildItem -Recurse -Name) by its first path with a separator", async () => {
-    // PowerShell's Get-ChildItem -Recurse -Name prints each entry's path relative to the folder,
-    // folders first, joined by "\" (from memory): read on "/" it was 7 top-level names, exit 0.
-    const listing = [
-      "ledger",
-      "docs",
-      "ledger\\main.c",
-      "ledger\\lib",
-      "ledger\\lib\\book.c",
-      "docs\\guide.md",
-      "",
-    ];
-    const json = JSON.parse((await run(listing.join("\r\n"))).stdout);
-    expect(json.totals.nodes).toBe(7);
-    expect(paths(json.root)).toEqual([
-      "",
-      "ledger",
-      "ledger/main.c",
-      "ledger/lib",
-      "ledger/lib/book.c",
-      "docs",
-      "docs/guide.md",
-    ]);
-    // With sizes before a tab the same: quay, the one top folder, is the root, with its 2 files.
-    const sized = JSON.parse((await run("0\tquay\n40\tquay\\a.txt\n2\tquay\\b.txt\n")).stdout);
-    expect(sized.totals).toEqual({ nodes: 3, size: 42 });
-    expect(paths(sized.root)).toEqual(["", "a.txt", "b.txt"]);
-  });
-
-  it("is PARSE_PATHS where such a list also holds '/', and reads '\\' inside POSIX names as before", async () => {
-    const mixed = await run("ledger\\main.c\nledger/book.c\n");
-    expect(mixed.code).toBe(2);
-    expect(mixed.stderr).toContain('line 2 holds "/" in a list read as Windows paths');
-    expect(mixed.stderr).toContain("[PARSE_PATHS]");
-    // A first separator that is "/" keeps "\\" a name's own character, as POSIX names may hold it.
-    const posix = JSON.parse((await run("ledger\nledger/odd\\name.c\n")).stdout);
-    expect(paths(posix.root)).toEqual(["", "odd\\name.c"]);
-  });
 });
 
 describe("a du -a listing (1 KiB blocks, not bytes)", () => {

@@ -55,9 +55,6 @@ const quote = 34;
  * a relative name never starts so, so the reading is not a guess); otherwise a whole line is one path.
  * When the first path starts with a drive (`C:\`) or two backslashes (`\\server`), the list is a
  * Windows one (`dir /s /b`): every path is split on "\" (which no Windows name holds; "/" neither).
- * So is a relative list whose first path that holds "/" or "\" holds "\" and no "/"
- * (`Get-ChildItem -Recurse -Name`: `src`, then `src\app.ts`); a later path that holds "/" there is
- * PARSE_PATHS, as a list that mixes the two cannot be read either way without a guess.
  * Origins are line numbers.
  * A size with an empty path names the root (`find DIR -printf '%s\t%P\n'` prints the starting folder
  * so): every top-level path goes below it. With `nulSeparated`, entries end with a NUL byte instead
@@ -84,8 +81,6 @@ export class PathListReader {
   private sizeEnd = tab;
   /** Whether paths are split on "\" (a Windows listing), decided by the first path. */
   private backslashes: boolean | undefined;
-  /** The line of a relative list's first path that held "\" and no "/" (see the class); else undefined. */
-  private relativeWindows: number | undefined;
   private firstLine = 0;
   private line = 0;
   private readonly placer: PathPlacer;
@@ -475,21 +470,6 @@ export class PathListReader {
   }
 
   /**
-   * PARSE_PATHS at a path that holds "/" in a relative list read as Windows paths (see the class): split
-   * on "\" alone its "/" would be part of a name, split on both a name with "\" (which POSIX names may
-   * hold) would be two.
-   */
-  private refuseSlash(bytes: Buffer, lineStart: number, pathStart: number, end: number, line: number): void {
-    const s = bytes.indexOf(slash, pathStart);
-    if (s === -1 || s >= end) return;
-    throw new EspalierError(
-      "PARSE_PATHS",
-      `line ${line} holds "/" in a list read as Windows paths, split on "\\" (line ${this.relativeWindows}, its first path with a separator, holds "\\" and no "/", as Get-ChildItem -Recurse -Name prints): list the paths with one separator (full Windows paths, as dir /s /b or Get-ChildItem -Recurse | ForEach-Object FullName print, are read so), or make every "\\" a "/" (sed 's|\\\\|/|g') if the list was made on Windows`,
-      { line, column: pathStart - lineStart + 1 },
-    );
-  }
-
-  /**
    * PARSE_PATHS for an unsized list detected as a path list whose every line (so far: at its end, or at
    * a repeated path, which such lines meet before the end) is one a known command prints, naming it and
    * what reads its data: a mount table, `ls -s`, a drawn tree (`npm ls --all`). Undefined otherwise.
@@ -790,10 +770,7 @@ export class PathListReader {
         } else if (commas !== this.commas) this.sameCommas = false;
       }
     }
-    if (this.backslashes === undefined) {
-      this.backslashes = windowsPath(bytes, pathStart, end);
-      if (this.backslashes === true && !startsAsWindows(bytes, pathStart, end)) this.relativeWindows = line;
-    } else if (this.relativeWindows !== undefined) this.refuseSlash(bytes, start, pathStart, end, line);
+    if (this.backslashes === undefined) this.backslashes = windowsPath(bytes, pathStart, end);
     if (this.writtenLine !== undefined) this.checkWritten(bytes, start, pathStart, end, line);
     // A path git wrote quoted (`"docs/\346\227\245.txt"`): read as written, its folder `"docs` would be
     // another than `docs`, and each name would hold its escapes.
@@ -889,22 +866,8 @@ function columnAfterPath(sink: NodeSink, placer: PathPlacer): void {
   );
 }
 
-/**
- * Whether a list whose first paths are these is a Windows one: a path that starts as one (see
- * `startsAsWindows`), or a relative path that holds "\" and no "/" (`src\app.ts`, as
- * `Get-ChildItem -Recurse -Name` prints); undefined for a path that holds neither (`src`), which reads
- * alike either way, so the next path decides.
- */
-function windowsPath(bytes: Buffer, start: number, end: number): boolean | undefined {
-  if (startsAsWindows(bytes, start, end)) return true;
-  const s = bytes.indexOf(slash, start);
-  if (s !== -1 && s < end) return false;
-  const b = bytes.indexOf(backslash, start);
-  return b !== -1 && b < end ? true : undefined;
-}
-
 /** Whether a path starts as a Windows one: a drive letter, ":" and "\", or "\\" (a network share). */
-function startsAsWindows(bytes: Buffer, start: number, end: number): boolean {
+function windowsPath(bytes: Buffer, start: number, end: number): boolean {
   if (end - start < 3) return false;
   const c = bytes[start] | 0x20;
   if (c >= 97 && c <= 122 && bytes[start + 1] === colon && bytes[start + 2] === backslash) return true;

@@ -41,15 +41,12 @@ function pathList(r: Rng, lines: number): string {
   const eol = r.chance(0.5) ? "\n" : "\r\n";
   const seen = new Set<string>();
   const out: string[] = [];
-  // "\\" alone: a relative Windows listing (Get-ChildItem -Recurse -Name), its paths joined by "\\".
-  const style = r.pick(["", "/", "./", "C:\\", "\\"]);
-  const lead = style === "\\" ? "" : style;
-  const join = style === "C:\\" || style === "\\" ? "\\" : "/";
+  const lead = r.pick(["", "/", "./", "C:\\"]);
   for (let k = 0; k < lines; k++) {
     const depth = r.int(1, 4);
     const parts = Array.from({ length: depth }, () => r.pick(SEGMENTS));
     // A Windows listing (dir /s /b) separates by "\\".
-    let path = lead + parts.join(join);
+    let path = lead + parts.join(lead === "C:\\" ? "\\" : "/");
     if (r.chance(0.1)) path += "/";
     if (seen.has(path.replace(/\/+$/, ""))) continue;
     seen.add(path.replace(/\/+$/, ""));

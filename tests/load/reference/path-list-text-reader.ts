@@ -23,8 +23,6 @@ export class PathListTextReader {
   private sized: boolean | undefined;
   private separator = "\t";
   private windows: boolean | undefined;
-  /** The line whose relative path made the list a Windows one, if one did. */
-  private relativeWindows: number | undefined;
   private firstLine = 0;
   private line = 0;
   private root = -1;
@@ -213,22 +211,7 @@ export class PathListTextReader {
       if (/^ *[0-9]+ +[^ ]/.test(text.slice(start, end))) this.numberFirstLines++;
       if (/\S {2,}\S/.test(text.slice(start, end))) this.spacedLines++;
     }
-    const path = text.slice(pathStart, end);
-    if (this.windows === undefined) {
-      // A drive or a share; else a relative path's first separator decides (none: the next path does).
-      if (/^([A-Za-z]:\\|\\\\)/.test(path)) this.windows = true;
-      else if (path.includes("/")) this.windows = false;
-      else if (path.includes("\\")) {
-        this.windows = true;
-        this.relativeWindows = line;
-      }
-    } else if (this.relativeWindows !== undefined && path.includes("/")) {
-      throw new EspalierError(
-        "PARSE_PATHS",
-        `line ${line} holds "/" in a list read as Windows paths (line ${this.relativeWindows})`,
-        { line, column: pathStart - start + 1 },
-      );
-    }
+    if (this.windows === undefined) this.windows = /^([A-Za-z]:\\|\\\\)/.test(text.slice(pathStart, end));
     const i = this.windows
       ? this.index.place(text.slice(pathStart, end).replaceAll("\\", "/"), 0, end - pathStart, line)
       : this.index.place(text, pathStart, end, line);
